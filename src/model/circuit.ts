@@ -1,0 +1,101 @@
+import type { PartKind, StageKind } from "./kinds.ts";
+
+/**
+ * The circuit model: the single source of truth for a variant. Schematic, netlist and parts list
+ * are views of it. Net names are lower-case SPICE-safe identifiers; "0" is ground.
+ *
+ * Pin names per part kind (PIN_NAMES below). Conventional nets (docs/topologies.md):
+ *   vcc   supply input (+), the `Vsupply` source sits between vcc and 0
+ *   vbus  rail after the fuse; everything but the fuse hangs on vbus
+ *   ca/cb timing-core collectors A/B, ba/bb their bases, na/nb the capacitor-side base nodes
+ */
+export const PIN_NAMES = {
+  resistor: ["a", "b"],
+  potentiometer: ["a", "w", "b"],
+  capacitor: ["a", "b"],
+  "capacitor-polarised": ["plus", "minus"],
+  npn: ["c", "b", "e"],
+  pnp: ["c", "b", "e"],
+  nmos: ["d", "g", "s"],
+  pmos: ["d", "g", "s"],
+  diode: ["anode", "cathode"],
+  zener: ["anode", "cathode"],
+  led: ["anode", "cathode"],
+  fuse: ["a", "b"],
+  motor: ["a", "b"],
+  lamp: ["a", "b"],
+  heater: ["a", "b"],
+  "led-strip": ["a", "b"],
+} as const satisfies Record<PartKind, readonly string[]>;
+
+export interface PartRating {
+  power_W?: number;
+  voltage_V?: number;
+  current_A?: number;
+  tj_max_C?: number;
+}
+export interface PartStress {
+  power_W?: number;
+  voltage_V?: number;
+  current_A?: number;
+  tj_C?: number;
+}
+
+/** Electrical model data the netlist needs beyond value and pins. */
+export interface PartSpice {
+  /** Device class id whose `.model` card the netlist emits (transistors, diodes, zeners). */
+  model?: string;
+  /** Loads: equivalent resistance and inductance at rated current; LED strips: forward drop. */
+  r_ohm?: number;
+  l_H?: number;
+  vf_V?: number;
+}
+
+export interface Part {
+  ref: string; // "R3", "Q1", "RV1", "D2", ...
+  kind: PartKind;
+  stage: StageKind;
+  /** Role inside its stage, stable across variants (docs/topologies.md), e.g. "RC_A", "Q_POWER". */
+  role: string;
+  /** Numeric value in `unit` (Ω, F, V for zeners, A for fuses, W for loads); 0 for transistors. */
+  value: number;
+  unit: string;
+  /** Preferred-number series and its tolerance, for R and C: "E24", 0.05. */
+  series?: string;
+  tolerance?: number;
+  /** Device class id (transistors, diodes, zeners). */
+  device?: string;
+  /** Minimum gain the sizing used (transistors). */
+  gain_min?: number;
+  description: string; // "Carbon-film resistor, 0.25 W", "NPN small-signal (2N3904 class)"
+  package?: string;
+  rating: PartRating;
+  stress: PartStress;
+  pins: Record<string, string>;
+  spice?: PartSpice;
+  notes?: string[];
+}
+
+/** Test instruments of the simulation (not parts to buy): the supply source and the current probe. */
+export interface Instrument {
+  name: "Vsupply" | "Vsense";
+  /** Positive and negative node. Vsense is a 0 V source in series with the load (current p → n). */
+  p: string;
+  n: string;
+  value_V: number;
+}
+
+export interface CircuitModel {
+  parts: Part[];
+  instruments: Instrument[];
+  /** All net names used by parts and instruments, sorted, "0" first. */
+  nets: string[];
+  /** The timing-core collector net the drive chain listens to ("ca" or "cb"). */
+  tapNet: string;
+  /** The net at the input of the first chain device (base or gate), for plots. */
+  chainInputNet: string;
+  /** The switched node (power device collector/drain, or the high-side output). */
+  switchNet: string;
+  /** Potentiometer position → load duty: ctrl 0 gives the minimum duty, 1 the maximum. */
+  ctrlPart: string; // ref of the potentiometer
+}

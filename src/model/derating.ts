@@ -1,0 +1,45 @@
+import type { Confidence } from "./kinds.ts";
+
+/**
+ * A derating policy as data (designs/policies/*.json, schema designs/schema/derating.schema.json):
+ * the fraction of each rating a part may use. A team swaps the file to change policy.
+ */
+export interface DeratingRule {
+  /** Fraction of the rating allowed, 0 < factor ≤ 1. */
+  factor: number;
+  /** Where the factor comes from. */
+  source: string;
+  confidence: Confidence;
+}
+
+export interface DeratingPolicy {
+  id: string;
+  title: string;
+  document: string; // the document the policy follows, e.g. "NASA EEE-INST-002 (2003), from memory"
+  /** Ratio band below the limit that is "marginal" rather than "pass" (e.g. 0.9 → above 90 % of the allowed). */
+  marginal_above: number;
+  bjt: { power: DeratingRule; voltage: DeratingRule; current: DeratingRule; tj_max_C: DeratingRule & { value_C: number; below_max_K: number } };
+  mosfet: { power: DeratingRule; voltage: DeratingRule; current: DeratingRule; vgs: DeratingRule; tj_max_C: DeratingRule & { value_C: number; below_max_K: number } };
+  diode: { current: DeratingRule; voltage: DeratingRule; tj_max_C: DeratingRule & { value_C: number; below_max_K: number } };
+  zener: { power: DeratingRule };
+  resistor: { power: DeratingRule };
+  capacitor: { voltage: DeratingRule };
+}
+
+export type StressQuantity = "power" | "voltage" | "current" | "tj" | "vgs";
+export type StressVerdict = "pass" | "marginal" | "fail";
+
+/** One part's stress against its rating and the policy. */
+export interface StressCheck {
+  ref: string;
+  quantity: StressQuantity;
+  stress: number;
+  rating: number;
+  unit: string;
+  /** stress / rating */
+  ratio: number;
+  /** policy factor (allowed ratio) */
+  allowed: number;
+  verdict: StressVerdict;
+  source: string;
+}

@@ -1,0 +1,59 @@
+import type { ChainKind, LoadKind } from "./kinds.ts";
+
+/**
+ * A parametric design record, as stored in designs/*.json (schema: designs/schema/design.schema.json).
+ * Field names are the JSON's; the loader returns this shape once the record is valid.
+ */
+export interface DesignRecord {
+  id: string; // kebab-case, unique across the catalogue, e.g. "fan-drive"
+  title: string;
+  summary: string;
+  /** Free text shown on the design page: who uses it, for what (demo scenario). */
+  use?: string;
+  axes: {
+    supply_V: number[];
+    load_A: number[];
+    chain: ChainKind[];
+    load_kind: LoadKind[];
+  };
+  targets: {
+    pwm_Hz: number;
+    duty_min: number; // required reachable duty range, 0 < duty_min < duty_max < 1
+    duty_max: number;
+    ambient_C: [number, number]; // [min, max]
+    supply_tolerance: number; // fractional, default 0.10
+    /** Largest acceptable duty skew of the timing core from loading, fraction of period (default 0.02). */
+    duty_skew_max?: number;
+    /** Smallest heatsink thermal resistance the design accepts before it is "not feasible" (default 2 K/W). */
+    heatsink_min_KperW?: number;
+  };
+  /** Device class per role; defaults are chosen by the engine when a role is not named. */
+  devices?: Partial<Record<DeviceRole, string>>;
+  /** Protections the design allows the engine to add. */
+  protection?: {
+    be_breakdown?: "series-base-diode" | "none";
+  };
+  notes?: string[];
+}
+
+/** Roles a design may bind to a device class. */
+export const DEVICE_ROLES = [
+  "timing_npn",
+  "driver_npn",
+  "driver_pnp",
+  "power_npn",
+  "power_pnp",
+  "mosfet_logic",
+  "mosfet_standard",
+  "freewheel_diode",
+  "signal_diode",
+  "reverse_diode",
+  "gate_zener",
+] as const;
+export type DeviceRole = (typeof DEVICE_ROLES)[number];
+
+/** Where a record came from, for error messages and page footers. */
+export interface SourcedRecord<T> {
+  file: string; // path relative to the project root, e.g. "designs/fan-drive.json"
+  record: T;
+}

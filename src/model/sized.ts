@@ -1,0 +1,49 @@
+import type { CircuitModel } from "./circuit.ts";
+import type { StressCheck } from "./derating.ts";
+import type { Figure } from "./figure.ts";
+import type { ChainKind } from "./kinds.ts";
+import type { DesignProblem } from "./problem.ts";
+import type { VariantSpec } from "./variant.ts";
+
+/**
+ * Figure keys the engine always produces for a feasible variant (other stages add more). The
+ * verifier compares its measurements with these; the site shows them first.
+ */
+export const KEY_FIGURES = [
+  "frequency_nominal", // Hz, PWM frequency at mid control
+  "duty_min", // ratio 0..1 at the load, control at 0 (nominal)
+  "duty_max", // ratio 0..1 at the load, control at 1 (nominal)
+  "duty_mid", // ratio at control 0.5
+  "chain_threshold", // V, tap-node voltage at which the chain switches
+  "duty_error_threshold", // ratio of the period the load's on-time is shortened/lengthened by the threshold
+  "switch_on_voltage", // V across the power switch when on, rated load, worst-case gain
+  "load_on_voltage", // V across the load when on
+  "load_current_on", // A through the load when on
+  "device_dissipation", // W average in the power device at the worst duty (max)
+  "tj_free_air", // °C junction temperature without heatsink, at max ambient
+] as const;
+export type KeyFigure = (typeof KEY_FIGURES)[number];
+
+export interface HeatsinkVerdict {
+  needed: boolean;
+  /** Largest sink-to-ambient thermal resistance that keeps T_J within the derated limit. */
+  rth_sa_max_KperW?: number;
+  text: string; // "no heatsink needed" | "heatsink ≤ 4.2 K/W" | "not feasible: needs ≤ 0.8 K/W"
+}
+
+export interface SizedVariant {
+  spec: VariantSpec;
+  feasible: boolean;
+  /** One sentence when not feasible: the first blocking reason. */
+  reason?: string;
+  /** Nearest feasible alternative when not feasible (same design, supply and current if possible). */
+  alternative?: { chain: ChainKind; id: string; why: string };
+  figures: Figure[];
+  problems: DesignProblem[];
+  checks: StressCheck[];
+  heatsink: HeatsinkVerdict;
+  /** Null when the engine could not even assemble a circuit (e.g. no device can carry the current). */
+  circuit: CircuitModel | null;
+  /** Cautions for the page: hot parts, inrush, kick-back, ... (text, from the engine). */
+  cautions: string[];
+}

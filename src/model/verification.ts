@@ -1,0 +1,32 @@
+/** What the SPICE verifier reports per variant. */
+export type VerificationStatus = "agree" | "disagree" | "failed" | "skipped";
+
+export interface Comparison {
+  key: string; // a figure key (see KEY_FIGURES)
+  label: string;
+  unit: string;
+  predicted: number;
+  simulated: number;
+  /** Allowed relative (or absolute, when `tol_abs` is set) difference. */
+  tol_rel?: number;
+  tol_abs?: number;
+  ok: boolean;
+}
+
+export interface WaveformSet {
+  t_s: number[];
+  series: { name: string; unit: string; values: number[] }[];
+  threshold_V?: number;
+}
+
+export interface Verification {
+  status: VerificationStatus;
+  engine: "eecircuit-engine" | "ngspice";
+  engineVersion: string;
+  /** Content hash of netlist + engine version that keyed the cache. */
+  hash: string;
+  comparisons: Comparison[];
+  message?: string;
+  waveforms?: WaveformSet;
+  elapsed_s?: number;
+}
