@@ -8,3 +8,5 @@ export * from "./derating.ts";
 export * from "./circuit.ts";
 export * from "./sized.ts";
 export * from "./verification.ts";
+export * from "./catalogue.ts";
+export * from "./format.ts";

@@ -47,3 +47,8 @@ export interface SizedVariant {
   /** Cautions for the page: hot parts, inrush, kick-back, ... (text, from the engine). */
   cautions: string[];
 }
+
+/** The figure with this key, if the engine produced it. */
+export function findFigure(s: Pick<SizedVariant, "figures">, key: string): SizedVariant["figures"][number] | undefined {
+  return s.figures.find((f) => f.key === key);
+}

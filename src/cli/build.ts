@@ -1,0 +1,87 @@
+/**
+ * `pulsewright build`: records → catalogue → `_site/`. Record errors stop the build before anything
+ * is written; the site is published atomically (publish.ts); simulation problems are reported and
+ * only fail the build under --strict.
+ */
+import { readFile } from "node:fs/promises";
+import path from "node:path";
+import { performance } from "node:perf_hooks";
+import { loadProject, formatIssue } from "../records/index.ts";
+import { sizeProject, renderVariant, assembleCatalogue } from "./pipeline.ts";
+import { verifyAll } from "../verify/pool.ts";
+import { writeSite } from "../site/write.ts";
+import { makeStagingDir, swapIntoPlace, discardStaging, sweepLeftovers } from "./publish.ts";
+import { buildDate } from "./build-date.ts";
+import type { Verification } from "../model/verification.ts";
+
+export interface BuildOptions {
+  root: string;
+  outDir: string;
+  strict: boolean;
+  spice: "eecircuit-engine" | "ngspice";
+  simulate: boolean;
+  workers?: number;
+  pathPrefix: string;
+  out: { log(s: string): void; error(s: string): void };
+}
+
+export async function runBuild(o: BuildOptions): Promise<number> {
+  const t0 = performance.now();
+  const project = await loadProject(o.root);
+  if (!project.ok) {
+    for (const issue of project.issues) o.out.error(formatIssue(issue));
+    o.out.error(`\n${project.issues.length} problem(s) in the records: nothing was built, ${o.outDir}/ is unchanged.`);
+    return 1;
+  }
+  const outDir = path.resolve(o.root, o.outDir);
+  await sweepLeftovers(outDir);
+
+  const sized = sizeProject(project);
+  const rendered = sized.map(({ design, sized: vs }) => ({ design, rendered: vs.map(renderVariant) }));
+  const tSized = performance.now();
+  const all = rendered.flatMap((d) => d.rendered);
+  o.out.log(`sized and rendered ${all.length} variants of ${rendered.length} designs in ${((tSized - t0) / 1000).toFixed(1)} s`);
+
+  let verifications: Map<string, Verification> = new Map();
+  if (o.simulate) {
+    const jobs = all.filter((r) => r.sized.feasible && r.netlist).map((r) => ({ id: r.sized.spec.id, sized: r.sized, netlist: r.netlist }));
+    verifications = await verifyAll(jobs, {
+      engine: o.spice,
+      cacheDir: path.join(o.root, ".cache", "sim"),
+      ...(o.workers !== undefined ? { workers: o.workers } : {}),
+      onProgress: progressPrinter(o.out),
+    });
+  }
+  const tSim = performance.now();
+
+  const pkg = JSON.parse(await readFile(path.join(o.root, "package.json"), "utf8")) as { version: string };
+  const catalogue = assembleCatalogue(project, rendered, verifications, buildDate(), pkg.version);
+  const staging = await makeStagingDir(outDir);
+  try {
+    const written = await writeSite(catalogue, staging, { pathPrefix: o.pathPrefix, quiet: true });
+    await swapIntoPlace(staging, outDir);
+    const s = catalogue.summary;
+    o.out.log(
+      `published ${written.pages} pages, ${written.files} files to ${path.relative(o.root, outDir) || "."}/ ` +
+        `(${s.variants} variants, ${s.feasible} feasible; simulation: ${s.agree} agree, ${s.disagree} disagree, ` +
+        `${s.failed} failed${o.simulate ? "" : ", not run"}) in ${((performance.now() - t0) / 1000).toFixed(1)} s ` +
+        `(simulation ${((tSim - tSized) / 1000).toFixed(1)} s)`,
+    );
+    for (const d of catalogue.designs)
+      for (const v of d.variants)
+        if (v.verification && (v.verification.status === "disagree" || v.verification.status === "failed"))
+          o.out.log(`  ${v.verification.status}: ${v.sized.spec.id}${v.verification.message ? ` — ${v.verification.message}` : ""}`);
+    if (o.strict && (s.disagree > 0 || s.failed > 0)) {
+      o.out.error(`--strict: ${s.disagree} disagreeing and ${s.failed} failed simulations`);
+      return 3;
+    }
+    return 0;
+  } catch (err) {
+    await discardStaging(staging);
+    throw err;
+  }
+}
+
+function progressPrinter(out: { log(s: string): void }) {
+  return undefined as unknown as Parameters<typeof verifyAll>[1]["onProgress"];
+}

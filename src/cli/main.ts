@@ -1,0 +1,96 @@
+/**
+ * `pulsewright` command line: check | build | serve | size. Thin: parses flags, calls the
+ * pipeline, maps results to exit codes. Errors a user can fix are printed without stack traces.
+ */
+import { parseArgs } from "node:util";
+import process from "node:process";
+import { runCheck } from "./check.ts";
+import { runBuild } from "./build.ts";
+import { runServe } from "./serve.ts";
+import { runSize } from "./size.ts";
+
+const USAGE = `usage: pulsewright <command> [options]
+
+commands:
+  check                 validate every design record, device class and the derating policy
+  build                 size, render, simulate and publish the catalogue into _site/
+  serve                 serve _site/ on http://127.0.0.1:8080 (after a build)
+  size                  size one variant from flags and print its figures
+
+build options:
+  --out DIR             output folder (default _site)
+  --strict              exit non-zero when any simulation disagrees or fails (CI uses it)
+  --spice ENGINE        eecircuit-engine (default, embedded) | ngspice (native, if on PATH)
+  --no-sim              skip simulation (pages say "not simulated")
+  --workers N           simulation worker threads (default: cores)
+  --prefix PATH         URL prefix the site is served under (links are relative anyway)
+
+size options:
+  --design ID --supply V --current A --chain KIND --load KIND [--json]
+`;
+
+async function main(argv: string[]): Promise<number> {
+  const [command, ...rest] = argv;
+  const root = process.cwd();
+  const out = { log: (s: string) => process.stdout.write(s + "\n"), error: (s: string) => process.stderr.write(s + "\n") };
+  if (command === "check") return runCheck(root, out);
+  if (command === "build") {
+    const { values } = parseArgs({
+      args: rest,
+      options: {
+        out: { type: "string", default: "_site" },
+        strict: { type: "boolean", default: false },
+        spice: { type: "string" },
+        "no-sim": { type: "boolean", default: false },
+        workers: { type: "string" },
+        prefix: { type: "string" },
+      },
+      strict: true,
+    });
+    const spice = values.spice ?? process.env["PULSEWRIGHT_SPICE"] ?? "eecircuit-engine";
+    if (spice !== "eecircuit-engine" && spice !== "ngspice") {
+      out.error(`--spice: unknown engine "${spice}" — use eecircuit-engine or ngspice`);
+      return 2;
+    }
+    const workers = values.workers === undefined ? undefined : Number(values.workers);
+    if (workers !== undefined && !(Number.isInteger(workers) && workers >= 1 && workers <= 64)) {
+      out.error(`--workers: "${values.workers}" is not a whole number from 1 to 64`);
+      return 2;
+    }
+    return runBuild({
+      root,
+      outDir: values.out,
+      strict: values.strict,
+      spice,
+      simulate: !values["no-sim"],
+      ...(workers !== undefined ? { workers } : {}),
+      pathPrefix: values.prefix ?? process.env["PATH_PREFIX"] ?? "/",
+      out,
+    });
+  }
+  if (command === "serve") return runServe(root, rest, out);
+  if (command === "size") return runSize(root, rest, out);
+  if (command === undefined || command === "help" || command === "--help" || command === "-h") {
+    out.log(USAGE);
+    return command === undefined ? 2 : 0;
+  }
+  out.error(`unknown command "${command}"\n\n${USAGE}`);
+  return 2;
+}
+
+main(process.argv.slice(2)).then(
+  (code) => {
+    process.exitCode = code;
+  },
+  (err: unknown) => {
+    const e = err as { name?: string; message?: string };
+    if (e && e.name === "UsageError") {
+      process.stderr.write(`${e.message}\n`);
+      process.exitCode = 2;
+      return;
+    }
+    process.stderr.write(`pulsewright: internal error — please report it with the command you ran\n`);
+    process.stderr.write(`${(err as Error)?.stack ?? String(err)}\n`);
+    process.exitCode = 70;
+  },
+);

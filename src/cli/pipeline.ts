@@ -1,0 +1,79 @@
+/**
+ * The build pipeline from loaded records to a BuiltCatalogue, without touching the output folder:
+ * expand → size → render → verify. Every step but verification is a pure function of the previous.
+ */
+import type { LoadResult } from "../records/index.ts";
+
+export type LoadedProject = Extract<LoadResult, { ok: true }>;
+import type { BuiltCatalogue, BuiltDesign, BuiltVariant } from "../model/catalogue.ts";
+import type { SizedVariant } from "../model/sized.ts";
+import type { Verification } from "../model/verification.ts";
+import { expandDesign } from "../expand/index.ts";
+import { chooseDevices } from "../engine/devices/choose.ts";
+import { sizeVariant, attachAlternatives } from "../engine/index.ts";
+import { renderNetlist } from "../render/netlist.ts";
+import { renderSchematic } from "../render/schematic.ts";
+import { renderBom } from "../render/bom.ts";
+import { renderPlot } from "../render/plot.ts";
+import { findFigure } from "../model/sized.ts";
+
+export interface RenderedVariant {
+  sized: SizedVariant;
+  netlist: string;
+  schematicSvg: string;
+  bomCsv: string;
+}
+
+/** Size every variant of every design (alternatives attached per design). */
+export function sizeProject(project: LoadedProject): { design: LoadedProject["designs"][number]; sized: SizedVariant[] }[] {
+  return project.designs.map((d) => {
+    const specs = expandDesign(d.record, {
+      choose: (rec, supply_V, load_A) => chooseDevices(rec, project.devices, supply_V, load_A),
+      policy: project.policy,
+    });
+    return { design: d, sized: attachAlternatives(specs.map((s) => sizeVariant(s))) };
+  });
+}
+
+/** The three circuit views of a variant; an infeasible variant without a circuit gets none. */
+export function renderVariant(sized: SizedVariant): RenderedVariant {
+  const c = sized.circuit;
+  if (!c) return { sized, netlist: "", schematicSvg: "", bomCsv: "" };
+  const meta = { id: sized.spec.id, title: `${sized.spec.designTitle}, ${sized.spec.id}` };
+  const f = findFigure(sized, "frequency_nominal")?.value ?? sized.spec.targets.pwm_Hz;
+  return {
+    sized,
+    netlist: renderNetlist(c, { ...meta, supply_V: sized.spec.supply_V, frequency_Hz: f }),
+    schematicSvg: renderSchematic(c, meta),
+    bomCsv: renderBom(c),
+  };
+}
+
+/** Assemble the catalogue the site writer reads. */
+export function assembleCatalogue(
+  project: LoadedProject,
+  designs: { design: LoadedProject["designs"][number]; rendered: RenderedVariant[] }[],
+  verifications: ReadonlyMap<string, Verification>,
+  builtAt: string,
+  version: string,
+): BuiltCatalogue {
+  const summary = { variants: 0, feasible: 0, agree: 0, disagree: 0, failed: 0, skipped: 0 };
+  const built: BuiltDesign[] = designs.map(({ design, rendered }) => ({
+    record: design.record,
+    file: design.file,
+    variants: rendered.map((r): BuiltVariant => {
+      const v = verifications.get(r.sized.spec.id);
+      summary.variants++;
+      if (r.sized.feasible) summary.feasible++;
+      if (v) summary[v.status]++;
+      const plotSvg = v?.waveforms ? renderPlot(v.waveforms, { title: `Simulated waveforms, ${r.sized.spec.id}` }) : undefined;
+      return {
+        sized: r.sized,
+        ...(v ? { verification: v } : {}),
+        files: { schematicSvg: r.schematicSvg, netlist: r.netlist, bomCsv: r.bomCsv, ...(plotSvg ? { plotSvg } : {}) },
+      };
+    }),
+  }));
+  const p = project.policy;
+  return { builtAt, version, designs: built, policy: { id: p.id, title: p.title, document: p.document }, summary };
+}

@@ -1,0 +1,43 @@
+/**
+ * Contracts between the engine's stages. The chain stage says what its input needs from the
+ * timing core; the timing stage sizes the core (and the tap network into the chain) to meet it.
+ * All values are worst-case unless named `_nom`. Plain data, no files.
+ */
+import type { Figure } from "../model/figure.ts";
+import type { DesignProblem } from "../model/problem.ts";
+import type { StressCheck } from "../model/derating.ts";
+import type { Part } from "../model/circuit.ts";
+
+/** What the first device of a chain needs at its input, as seen from the tapped timing collector. */
+export type ChainInputNeed =
+  | {
+      kind: "base-current";
+      /** Base current the chain's first base must receive while on, worst case (min gain, min supply). */
+      i_A: number;
+      /** Voltage the chain input clamps the tap at while on (n·V_BE(on) for an n-stage stack). */
+      vClamp_V: number;
+      /** Tap-node voltage at which the chain starts to switch (≈ vClamp_V for a BJT input). */
+      vThreshold_V: number;
+      /** True when the load is ON while the tapped collector is LOW. */
+      inverting: boolean;
+    }
+  | {
+      kind: "gate-voltage";
+      /** Gate voltage needed for the specified R_DS(on). */
+      vNeeded_V: number;
+      /** Largest gate voltage allowed (derated V_GS max). */
+      vMax_V: number;
+      /** Gate threshold range [min, max]. */
+      vThreshold_V: [number, number];
+      /** Gate input capacitance (C_iss) that the tap must charge. */
+      cInput_F: number;
+      inverting: boolean;
+    };
+
+/** A stage's result: its parts (refs left empty: the assembler numbers them), figures, problems, checks. */
+export interface StageResult {
+  parts: Part[];
+  figures: Figure[];
+  problems: DesignProblem[];
+  checks: StressCheck[];
+}

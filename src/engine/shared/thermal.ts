@@ -1,0 +1,67 @@
+/**
+ * Junction temperature and heatsink relations, after the JEDEC JESD51 definitions:
+ * T_J = T_A + P·θ_JA free-standing; T_J = T_A + P·(θ_JC + θ_CS + θ_SA) on a heatsink.
+ * JESD51-2 notes θ_JA is for comparing packages; we use it as the usual first estimate and say so.
+ */
+import { EngineMisuseError } from "../../model/problem.ts";
+
+function finite(x: number, what: string): void {
+  if (!Number.isFinite(x)) throw new EngineMisuseError(`thermal: ${what} must be finite, got ${x}`);
+}
+
+/** T_J = T_A + P·R_θ (JESD51 definitions). */
+export function junctionTemp_C(ta_C: number, p_W: number, rth_KperW: number): number {
+  finite(ta_C, "ta_C");
+  finite(p_W, "p_W");
+  finite(rth_KperW, "rth_KperW");
+  if (p_W < 0 || rth_KperW < 0) throw new EngineMisuseError(`thermal: p_W and rth_KperW must be ≥ 0 (got ${p_W}, ${rth_KperW})`);
+  return ta_C + p_W * rth_KperW;
+}
+
+/**
+ * Largest sink-to-ambient resistance that keeps T_J at or below the limit:
+ * R_θSA ≤ (T_J,limit − T_A)/P − R_θJC − R_θCS. A result ≤ 0 means no heatsink can do it.
+ * With P = 0 any sink (or none) will do: returns a large finite bound (1e6 K/W), never Infinity.
+ */
+export function heatsinkMax_KperW(tjLimit_C: number, ta_C: number, p_W: number, rthJc_KperW: number, rthCs_KperW: number): number {
+  for (const [v, n] of [[tjLimit_C, "tjLimit_C"], [ta_C, "ta_C"], [p_W, "p_W"], [rthJc_KperW, "rthJc_KperW"], [rthCs_KperW, "rthCs_KperW"]] as const) finite(v, n);
+  if (p_W < 0) throw new EngineMisuseError(`thermal: p_W must be ≥ 0, got ${p_W}`);
+  if (p_W === 0) return NO_LIMIT_KperW;
+  return Math.min(NO_LIMIT_KperW, (tjLimit_C - ta_C) / p_W - rthJc_KperW - rthCs_KperW);
+}
+
+/** Stand-in for "no limit" so that no Infinity is ever passed on. */
+export const NO_LIMIT_KperW = 1e6;
+
+/**
+ * Case-to-sink thermal resistance with a thin layer of thermal grease, by package (from memory:
+ * TO-220 ≈ 0.5 K/W, TO-3 ≈ 0.2 K/W; with a mica or silicone insulator roughly double).
+ */
+export const RTH_CS_KperW_BY_PACKAGE: Readonly<Record<string, number>> = {
+  "TO-220": 0.5,
+  "TO-3": 0.2,
+  "TO-126": 1.0,
+  "TO-92": 2.0,
+  "TO-18": 2.0,
+};
+
+/** Case-to-sink for a package, falling back to a cautious 1 K/W for packages not in the table. */
+export function rthCsFor_KperW(pkg: string): number {
+  return RTH_CS_KperW_BY_PACKAGE[pkg] ?? 1.0;
+}
+
+/**
+ * Power rating at temperature t_C (ambient when ptot_at = "ambient", case when "case"):
+ * linear derating from P_tot at 25 °C to zero at T_J,max (the usual datasheet derating line);
+ * full rating at or below 25 °C, zero at or above T_J,max.
+ */
+export function powerRatingAt_W(ptot_W: number, ptot_at: "ambient" | "case", tjMax_C: number, t_C: number): number {
+  finite(ptot_W, "ptot_W");
+  finite(tjMax_C, "tjMax_C");
+  finite(t_C, "t_C");
+  void ptot_at; // the same line applies to either reference point; the caller picks t_C to match
+  if (tjMax_C <= 25) throw new EngineMisuseError(`thermal: tjMax_C must be above 25 °C, got ${tjMax_C}`);
+  if (t_C <= 25) return ptot_W;
+  if (t_C >= tjMax_C) return 0;
+  return (ptot_W * (tjMax_C - t_C)) / (tjMax_C - 25);
+}

@@ -1,0 +1,71 @@
+import type { Figure } from "../model/figure.ts";
+import { formatPercent, formatValue } from "../model/format.ts";
+import { KEY_FIGURES } from "../model/sized.ts";
+
+/**
+ * How one number is printed. Duty figures are ratios (unit "") in the engine and read best as
+ * percent; every other figure prints with its own unit. Used by the pages AND by the tests that
+ * compare pages with the variant JSON, so both sides format alike.
+ */
+export function displayNumber(value: number, unit: string, key = ""): string {
+  if ((unit === "" || unit === "ratio") && key.startsWith("duty")) return formatPercent(value);
+  return formatValue(value, unit);
+}
+
+export interface FigureRow {
+  key: string;
+  label: string;
+  /** Raw value (also printed as a data attribute, so a reader can check it against the JSON). */
+  value: number;
+  unit: string;
+  text: string;
+  range: string; // "" when the figure has no worst-case range
+  formula: string;
+  source: string;
+  confidence: string;
+  stage: string;
+  key_figure: boolean;
+}
+
+const CONFIDENCE_WORDS: Record<string, string> = {
+  standard: "published standard",
+  registered: "registered device data",
+  textbook: "textbook",
+  seen: "seen in a published copy",
+  "common-practice": "common practice",
+  "from-memory": "from memory (to be verified)",
+  derived: "derived here",
+  demo: "demo value (invented)",
+};
+
+export function confidenceWord(c: string): string {
+  return CONFIDENCE_WORDS[c] ?? c;
+}
+
+export function figureRow(f: Figure): FigureRow {
+  return {
+    key: f.key,
+    label: f.label,
+    value: f.value,
+    unit: f.unit,
+    text: displayNumber(f.value, f.unit, f.key),
+    range: f.range ? `${displayNumber(f.range[0], f.unit, f.key)} … ${displayNumber(f.range[1], f.unit, f.key)}` : "",
+    formula: f.formula,
+    source: f.source,
+    confidence: confidenceWord(f.confidence),
+    stage: f.stage,
+    key_figure: (KEY_FIGURES as readonly string[]).includes(f.key),
+  };
+}
+
+/** Key figures first (in KEY_FIGURES order), then the rest in the engine's order. */
+export function orderedFigureRows(figures: readonly Figure[]): FigureRow[] {
+  const rank = (k: string) => {
+    const i = (KEY_FIGURES as readonly string[]).indexOf(k);
+    return i < 0 ? KEY_FIGURES.length : i;
+  };
+  return figures
+    .map((f, i) => ({ f, i }))
+    .sort((a, b) => rank(a.f.key) - rank(b.f.key) || a.i - b.i)
+    .map(({ f }) => figureRow(f));
+}
