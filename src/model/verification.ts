@@ -13,6 +13,14 @@ export interface Comparison {
   ok: boolean;
 }
 
+/** One simulated value, shown whether or not the engine predicted it (e.g. the core's symmetry). */
+export interface Measurement {
+  key: string;
+  label: string;
+  unit: string;
+  value: number;
+}
+
 export interface WaveformSet {
   t_s: number[];
   series: { name: string; unit: string; values: number[] }[];
@@ -29,4 +37,6 @@ export interface Verification {
   message?: string;
   waveforms?: WaveformSet;
   elapsed_s?: number;
+  /** Every simulated value (optional; added by the verifier): the compared ones and the extras. */
+  measurements?: Measurement[];
 }

@@ -26,7 +26,8 @@ export function hfeMin25(dev: BjtClass, ic_A: number): number {
   for (let i = 1; i < pts.length; i++) {
     const a = pts[i - 1]!;
     const b = pts[i]!;
-    if (ic_A <= b.ic_A) return logLog(a.ic_A, a.min, b.ic_A, b.min, ic_A);
+    if (ic_A === b.ic_A) return b.min; // exact at the datasheet points
+    if (ic_A < b.ic_A) return logLog(a.ic_A, a.min, b.ic_A, b.min, ic_A);
   }
   // Above the last point: follow the last segment's slope only if it falls (gain drops at high
   // current); never rise above the last specified minimum.
@@ -55,7 +56,8 @@ function linearUp(points: [number, number][], x: number, singleProportional: boo
   for (let i = 1; i < points.length; i++) {
     const [x0, y0] = points[i - 1]!;
     const [x1, y1] = points[i]!;
-    if (x <= x1) return y0 + ((y1 - y0) * (x - x0)) / (x1 - x0);
+    if (x === x1) return y1;
+    if (x < x1) return y0 + ((y1 - y0) * (x - x0)) / (x1 - x0);
   }
   const [xl, yl] = points[points.length - 1]!;
   const prev = points[points.length - 2];

@@ -1,0 +1,68 @@
+/**
+ * Loss relations for switches and resistors. All averages over one PWM period; `duty` is the
+ * fraction of the period the device conducts (0…1).
+ */
+import { EngineMisuseError } from "../../model/problem.ts";
+
+function nonNeg(x: number, what: string): void {
+  if (!Number.isFinite(x) || x < 0) throw new EngineMisuseError(`losses: ${what} must be finite and ≥ 0, got ${x}`);
+}
+function dutyOk(d: number): void {
+  if (!Number.isFinite(d) || d < 0 || d > 1) throw new EngineMisuseError(`losses: duty must be within 0…1, got ${d}`);
+}
+
+/** P = I_C · V_CE(sat) · D (conduction loss of a saturated BJT; common practice). */
+export function conductionLossBjt_W(ic_A: number, vceSat_V: number, duty: number): number {
+  nonNeg(ic_A, "ic_A");
+  nonNeg(vceSat_V, "vceSat_V");
+  dutyOk(duty);
+  return ic_A * vceSat_V * duty;
+}
+
+/** P = I_D² · R_DS(on) · D (common practice; pass the hot R_DS(on) for worst case). */
+export function conductionLossMosfet_W(id_A: number, rds_ohm: number, duty: number): number {
+  nonNeg(id_A, "id_A");
+  nonNeg(rds_ohm, "rds_ohm");
+  dutyOk(duty);
+  return id_A * id_A * rds_ohm * duty;
+}
+
+export type SwitchingKind = "resistive" | "clamped-inductive";
+
+/**
+ * Switching loss with linear voltage/current ramps.
+ * Resistive load: v and i ramp together, ∫ v·i dt over one edge of length t = V·I·t/6, so
+ *   P = ⅙·V·I·(t_on + t_off)·f — Rashid, Power Electronics, 4th ed., Example 4.2.
+ * Clamped inductive load: current ramps at full voltage, then voltage at full current, each edge
+ *   dissipates V·I·t/2, so P = ½·V·I·(t_on + t_off)·f — Mohan, Undeland, Robbins, 3rd ed., Eq. 2-6
+ *   (from memory). test/engine/shared/losses.test.ts integrates both numerically.
+ */
+export function switchingLoss_W(v_V: number, i_A: number, tOn_s: number, tOff_s: number, f_Hz: number, kind: SwitchingKind): number {
+  nonNeg(v_V, "v_V");
+  nonNeg(i_A, "i_A");
+  nonNeg(tOn_s, "tOn_s");
+  nonNeg(tOff_s, "tOff_s");
+  nonNeg(f_Hz, "f_Hz");
+  const k = kind === "resistive" ? 1 / 6 : kind === "clamped-inductive" ? 1 / 2 : NaN;
+  if (Number.isNaN(k)) throw new EngineMisuseError(`losses: unknown switching kind "${String(kind)}"`);
+  return k * v_V * i_A * (tOn_s + tOff_s) * f_Hz;
+}
+
+/** P = V²/R · D: a resistor with v_V across it for the fraction `duty` of the time. */
+export function resistorPower_W(v_V: number, r_ohm: number, duty: number): number {
+  if (!Number.isFinite(v_V)) throw new EngineMisuseError(`losses: v_V must be finite, got ${v_V}`);
+  if (!Number.isFinite(r_ohm) || r_ohm <= 0) throw new EngineMisuseError(`losses: r_ohm must be finite and > 0, got ${r_ohm}`);
+  dutyOk(duty);
+  return ((v_V * v_V) / r_ohm) * duty;
+}
+
+/**
+ * Power the gate driver delivers per second: Q_G · V_GS · f (all of it ends up as heat in the
+ * driver and gate resistors, whatever their split; common practice).
+ */
+export function gateDrivePower_W(qg_C: number, vgs_V: number, f_Hz: number): number {
+  nonNeg(qg_C, "qg_C");
+  nonNeg(vgs_V, "vgs_V");
+  nonNeg(f_Hz, "f_Hz");
+  return qg_C * vgs_V * f_Hz;
+}

@@ -1,0 +1,108 @@
+/**
+ * Relations of the two-transistor astable multivibrator (ENGINEERING.md §1; Millman & Taub, Pulse,
+ * Digital and Switching Waveforms, 1965, ch. 11 — from memory). Side X's "off time" is the time
+ * transistor Q_X stays off while the base node it owns recharges through its base resistor R_BX
+ * from V_on − V_swing towards Vcc, where V_swing is the step the OPPOSITE collector made:
+ *
+ *   t_Xoff = R_BX · C · ln((Vcc − V_on + V_swing) / (Vcc − V_on))
+ *
+ * C is the capacitor from the opposite collector into X's base node (CT_B feeds side A: cb → na).
+ * V_on = V_BE (+ V_F with a series base diode). V_swing = V_C,high − V_CE(sat), reduced when the
+ * collector has not fully recovered: V_swing = (V_C,high − V_CE(sat))·(1 − e^(−t/τ_c)), with
+ * τ_c = (R_C ∥ R_load)·C the collector's recovery constant over the time t it was off (derived).
+ * Pure functions; nothing rounded.
+ */
+
+/** A load on a timing collector seen as a resistance to a fixed voltage (a clamp, or 0 V). */
+export interface CollectorLoad {
+  r_ohm: number;
+  v_V: number;
+}
+
+/** ln((Vcc − V_on + V_swing)/(Vcc − V_on)); → ln 2 when V_swing = Vcc − V_on. */
+export function lnFactor(vcc_V: number, vOn_V: number, vSwing_V: number): number {
+  return Math.log((vcc_V - vOn_V + vSwing_V) / (vcc_V - vOn_V));
+}
+
+export function halfPeriod_s(r_ohm: number, c_F: number, vcc_V: number, vOn_V: number, vSwing_V: number): number {
+  return r_ohm * c_F * lnFactor(vcc_V, vOn_V, vSwing_V);
+}
+
+/** Thevenin equivalent of a collector (R_C from Vcc) with a load: (Vcc·R_L + V_L·R_C)/(R_C + R_L), R_C ∥ R_L. */
+export function collectorThevenin(vcc_V: number, rC_ohm: number, load?: CollectorLoad): { v_V: number; r_ohm: number } {
+  if (load === undefined) return { v_V: vcc_V, r_ohm: rC_ohm };
+  return {
+    v_V: (vcc_V * load.r_ohm + load.v_V * rC_ohm) / (rC_ohm + load.r_ohm),
+    r_ohm: (rC_ohm * load.r_ohm) / (rC_ohm + load.r_ohm),
+  };
+}
+
+/**
+ * Delay of an exponential rise from V_CE(sat) towards V_high to cross V_th:
+ * Δt = τ · ln((V_high − V_CE(sat)) / (V_high − V_th)). Null when V_th is never reached.
+ */
+export function thresholdDelay_s(tau_s: number, vHigh_V: number, vSat_V: number, vTh_V: number): number | null {
+  if (vTh_V >= vHigh_V) return null;
+  if (vTh_V <= vSat_V) return 0;
+  return tau_s * Math.log((vHigh_V - vSat_V) / (vHigh_V - vTh_V));
+}
+
+export interface CoreParams {
+  vcc_V: number;
+  vOn_V: number;
+  vSat_V: number;
+  rCA_ohm: number;
+  rCB_ohm: number;
+  /** CT_A couples collector A into base node B; CT_B couples collector B into base node A. */
+  cA_F: number;
+  cB_F: number;
+  /** Total base resistance of each side (end resistor + its share of the pot). */
+  rBA_ohm: number;
+  rBB_ohm: number;
+  loadA?: CollectorLoad;
+  loadB?: CollectorLoad;
+}
+
+export interface CoreTiming {
+  tAoff_s: number;
+  tBoff_s: number;
+  period_s: number;
+  /** Fraction of the period collector A is high (Q_A off). */
+  aHigh: number;
+  vHighA_V: number;
+  vHighB_V: number;
+  swingA_V: number;
+  swingB_V: number;
+  tauA_s: number;
+  tauB_s: number;
+}
+
+/**
+ * Both half-periods with loading and incomplete collector recovery, solved as a fixed point
+ * (each side's swing depends on the other side's off time; converges in a few steps because the
+ * recovery term e^(−t/τ) is small in any sane design).
+ */
+export function evaluateCore(p: CoreParams): CoreTiming {
+  const a = collectorThevenin(p.vcc_V, p.rCA_ohm, p.loadA);
+  const b = collectorThevenin(p.vcc_V, p.rCB_ohm, p.loadB);
+  const fullA = Math.max(0, a.v_V - p.vSat_V);
+  const fullB = Math.max(0, b.v_V - p.vSat_V);
+  const tauA_s = a.r_ohm * p.cA_F;
+  const tauB_s = b.r_ohm * p.cB_F;
+  let swingA = fullA;
+  let swingB = fullB;
+  let tAoff = 0;
+  let tBoff = 0;
+  for (let i = 0; i < 40; i++) {
+    tBoff = p.rBB_ohm * p.cA_F * lnFactor(p.vcc_V, p.vOn_V, swingA);
+    tAoff = p.rBA_ohm * p.cB_F * lnFactor(p.vcc_V, p.vOn_V, swingB);
+    const nA = fullA * (1 - Math.exp(-tAoff / tauA_s));
+    const nB = fullB * (1 - Math.exp(-tBoff / tauB_s));
+    const done = Math.abs(nA - swingA) < 1e-12 * fullA && Math.abs(nB - swingB) < 1e-12 * fullB;
+    swingA = nA;
+    swingB = nB;
+    if (done) break;
+  }
+  const period_s = tAoff + tBoff;
+  return { tAoff_s: tAoff, tBoff_s: tBoff, period_s, aHigh: tAoff / period_s, vHighA_V: a.v_V, vHighB_V: b.v_V, swingA_V: swingA, swingB_V: swingB, tauA_s, tauB_s };
+}

@@ -1,0 +1,69 @@
+/**
+ * bjt-single: one NPN low-side switch, base fed from the timing collector through RT, with a
+ * turn-off bleed RBE (docs/topologies.md). Saturating stage: I_B = I_C / min(10, β_min/2)
+ * (forced β 10, or overdrive 2 at minimum gain when β_min < 20 — common practice).
+ */
+import type { BjtClass } from "../../../model/device.ts";
+import { nearest } from "../../shared/e-series.ts";
+import { figure } from "../../shared/figures.ts";
+import { hfeMin, vbeOn, vbeSat, vceSat } from "../../shared/gain.ts";
+import { conductionLossBjt_W, resistorPower_W, switchingLoss_W } from "../../shared/losses.ts";
+import { SRC } from "../../shared/sources.ts";
+import { resistor, transistor } from "../../../circuit/parts.ts";
+import { type Ctx, FORCED_BETA, OVERDRIVE_K } from "../context.ts";
+import { driveMargin, switchChecks, switchOffVoltage_V, vbeCold } from "./common.ts";
+import type { ChainPlan } from "./types.ts";
+
+/** Share of the base drive the bleed RBE takes at V_BE (≈ 10 %, common practice). */
+export const BLEED_SHARE = 0.1;
+/** Storage time without reverse base drive: ≈ 2× the datasheet's (measured with I_B2 = −I_B1) — from memory. */
+export const WEAK_TURNOFF_FACTOR = 2;
+
+export function planBjtSingle(ctx: Ctx): ChainPlan {
+  const dev = ctx.spec.devices.power_npn as BjtClass;
+  const pol = ctx.spec.policy;
+  const beta = hfeMin(dev, ctx.iMax_A, ctx.taMin_C);
+  const forced = Math.min(FORCED_BETA, beta / OVERDRIVE_K);
+  const iB_A = ctx.iMax_A / forced;
+  const vClamp = vbeSat(dev, ctx.iMax_A) + (vbeCold(dev, ctx) - dev.vbe_on_V);
+  const rBE = nearest(vbeOn(dev, 25) / (BLEED_SHARE * iB_A), "E24");
+  const iBleedMax = vClamp / (rBE * (1 - ctx.rTol));
+  const vSwNom = vceSat(dev, ctx.iNom_A);
+  const vSwMax = vceSat(dev, ctx.iMax_A);
+  const rbe = resistor("chain", "RBE", rBE, { a: "qb", b: "0" }, resistorPower_W(vClamp, rBE * (1 - ctx.rTol), 1), pol, "turn-off bleed");
+  const q = transistor("chain", "Q_POWER", dev, beta, { c: "sw", b: "qb", e: "0" }, { voltage_V: switchOffVoltage_V(ctx), current_A: ctx.iMax_A });
+  return {
+    need: { kind: "base-current", i_A: iB_A + iBleedMax, vClamp_V: vClamp, vThreshold_V: vbeOn(dev, 25), inverting: false },
+    inputBleed_ohm: rBE,
+    vSwNom_V: vSwNom,
+    vSwMax_V: vSwMax,
+    parts: [q, rbe.part],
+    figures: [
+      figure("power_gain_min", "Power transistor minimum gain (cold, max current)", beta, "", "chain", "β_min(I_C,max, T_A,min) from the class's gain points, tempco applied", SRC.REGISTERED),
+      figure("power_base_current", "Power stage base current needed", iB_A, "A", "chain", "I_B = I_C,max / min(10, β_min/2)", SRC.COMMON),
+    ],
+    problems: [...rbe.problems],
+    checks: [...switchChecks(ctx, "Q_POWER", dev), ...rbe.checks],
+    delays() {
+      return { on_s: dev.t_rise_s / 2, off_s: WEAK_TURNOFF_FACTOR * dev.t_storage_s + dev.t_fall_s / 2, note: "t_r/2 on; 2·t_s + t_f/2 off (no reverse base drive)" };
+    },
+    finish(tap, op) {
+      const margin = (tap.iMin_A - iBleedMax) * beta / ctx.iMax_A;
+      const pCond = conductionLossBjt_W(ctx.iMax_A, vSwMax, op.dutyMax);
+      const pSw = switchingLoss_W(ctx.vMax_V, ctx.iMax_A, dev.t_rise_s, dev.t_fall_s + dev.t_storage_s, op.fMax_Hz, ctx.switching);
+      const pBase = conductionLossBjt_W(tap.iMax_A, vClamp, op.dutyMax);
+      const p = pCond + pSw + pBase;
+      return {
+        parts: [], problems: [], checks: [],
+        figures: [
+          driveMargin("power", "power transistor", tap.iMin_A - iBleedMax, ctx.iMax_A / beta),
+          figure("load_current_max", "Load current, worst case (max supply)", ctx.iMax_A, "A", "load", "I = (V_cc,max − V_f)/R_load (load model)", SRC.DERIVED),
+          figure("conduction_loss", "Conduction loss, power device", pCond, "W", "chain", "P = I_C,max · V_CE(sat) · D_max", SRC.COMMON),
+          figure("switching_loss", "Switching loss, power device", pSw, "W", "chain", ctx.switching === "resistive" ? "P = ⅙·V·I·(t_r + t_s + t_f)·f" : "P = ½·V·I·(t_r + t_s + t_f)·f", ctx.switching === "resistive" ? SRC.RASHID_SW : SRC.MOHAN_SW),
+        ],
+        losses: [{ role: "Q_POWER", dev, family: "bjt", pCond_W: pCond + pBase, pSw_W: pSw, p_W: p, isPower: true }],
+      };
+    },
+  };
+}
+

@@ -1,0 +1,50 @@
+/**
+ * Helpers shared by the chain modules: stresses of the switching device and a drive-margin figure.
+ */
+import type { BjtClass, MosfetClass } from "../../../model/device.ts";
+import type { StressCheck } from "../../../model/derating.ts";
+import type { Figure } from "../../../model/figure.ts";
+import { checkStress } from "../../shared/derating.ts";
+import { figure } from "../../shared/figures.ts";
+import { SRC } from "../../shared/sources.ts";
+import { vbeOn } from "../../shared/gain.ts";
+import type { Ctx } from "../context.ts";
+
+/** V_BE at the coldest ambient (highest: −2 mV/K, common practice). */
+export function vbeCold(dev: BjtClass, ctx: Ctx): number {
+  return vbeOn(dev, ctx.taMin_C);
+}
+
+/** Off-state voltage across the switch: Vcc,max plus a freewheel diode's drop when inductive. */
+export function switchOffVoltage_V(ctx: Ctx): number {
+  return ctx.vMax_V + (ctx.load.inductive ? 1.0 : 0);
+}
+
+/** Peak current the switch must survive: inrush or stall at Vcc,max (load model, scaled). */
+export function peakCurrent_A(ctx: Ctx): number {
+  return Math.max(ctx.iMax_A, (ctx.load.peak_A * ctx.vMax_V) / ctx.vNom_V);
+}
+
+/** Voltage and current checks of the load switch: continuous (policy) and peak (absolute pulse rating). */
+export function switchChecks(ctx: Ctx, role: string, dev: BjtClass | MosfetClass): StressCheck[] {
+  const pol = ctx.spec.policy;
+  const fam = dev.family === "nmos" ? pol.mosfet : pol.bjt;
+  const vRating = dev.family === "nmos" ? dev.vds_V : dev.vceo_V;
+  const iRating = dev.family === "nmos" ? dev.id_A : dev.ic_max_A;
+  const pulse = dev.family === "nmos" ? (dev.idm_A ?? dev.id_A) : (dev.icm_A ?? dev.ic_max_A);
+  const peakRule = { factor: 1, source: "absolute maximum (pulse) rating: a start-up or stall peak may reach but not exceed it", confidence: "common-practice" as const };
+  return [
+    checkStress(role, "voltage", switchOffVoltage_V(ctx), vRating, "V", fam.voltage, pol.marginal_above),
+    checkStress(role, "current", ctx.iMax_A, iRating, "A", fam.current, pol.marginal_above),
+    { ...checkStress(role, "current", peakCurrent_A(ctx), pulse, "A", peakRule, pol.marginal_above), quantity: "current" },
+  ];
+}
+
+/** drive_margin_<stage>: base current provided (worst case) ÷ base current needed at minimum gain. */
+export function driveMargin(stageKey: string, what: string, provided_A: number, needed_A: number): Figure {
+  return figure(
+    `drive_margin_${stageKey}`, `Drive margin, ${what}`, provided_A / needed_A, "", "chain",
+    "margin = I_B,provided(min supply, tolerances) ÷ (I_C,max / β_min(I_C, T_A,min))",
+    SRC.COMMON,
+  );
+}

@@ -1,0 +1,116 @@
+/**
+ * darlington-2 / darlington-3: emitter-follower NPN stack, low side (docs/topologies.md). It
+ * cannot saturate: V_sw = V_CE(sat),1 + Σ V_BE,i (i ≥ 2) (ENGINEERING.md §3, common practice);
+ * that voltage × current is heat. Bleed RBE on the last base. Devices: 2-stage = driver_npn →
+ * power_npn; 3-stage = timing_npn → driver_npn → power_npn (each stage carries ≈ 1/β of the next).
+ */
+import type { BjtClass } from "../../../model/device.ts";
+import type { Part } from "../../../model/circuit.ts";
+import { nearest } from "../../shared/e-series.ts";
+import { figure } from "../../shared/figures.ts";
+import { hfeMin, vbeOn, vbeSat, vceSat } from "../../shared/gain.ts";
+import { conductionLossBjt_W, resistorPower_W, switchingLoss_W } from "../../shared/losses.ts";
+import { SRC } from "../../shared/sources.ts";
+import { resistor, transistor } from "../../../circuit/parts.ts";
+import { type Ctx, OVERDRIVE_K } from "../context.ts";
+import { driveMargin, switchChecks, switchOffVoltage_V, vbeCold } from "./common.ts";
+import { BLEED_SHARE } from "./bjt-single.ts";
+import type { ChainPlan, DeviceLoss } from "./types.ts";
+
+interface StackCurrents {
+  ic: number[];
+  ib: number[];
+  beta: number[];
+  bleed_A: number;
+}
+
+/** Stage currents from the output backwards: I_B,i = I_E,i / (β_i + 1), I_E,n−1 = I_B,n + I_bleed. */
+function stackCurrents(devs: BjtClass[], i_A: number, rBE_ohm: number | null, tj_C: number): StackCurrents {
+  const n = devs.length;
+  const ic = new Array<number>(n).fill(0);
+  const ib = new Array<number>(n).fill(0);
+  const beta = new Array<number>(n).fill(1);
+  let bleed_A = 0;
+  let iE = i_A; // emitter current of the stage being computed (last: ≈ I_C)
+  for (let k = n - 1; k >= 0; k--) {
+    const d = devs[k]!;
+    const b = hfeMin(d, iE, tj_C);
+    beta[k] = b;
+    ic[k] = k === n - 1 ? i_A : (iE * b) / (b + 1);
+    ib[k] = k === n - 1 ? i_A / b : iE / (b + 1);
+    if (k === n - 1 && rBE_ohm !== null) bleed_A = vbeOn(d, tj_C) / rBE_ohm;
+    iE = ib[k]! + (k === n - 1 ? bleed_A : 0);
+  }
+  return { ic, ib, beta, bleed_A };
+}
+
+/** V_sw = V_CE(sat),1 + Σ_{i≥2} V_BE(sat),i at the stage currents (max values). */
+function stackVoltage(devs: BjtClass[], s: StackCurrents): number {
+  let v = vceSat(devs[0]!, Math.max(s.ic[0]!, 1e-6));
+  for (let k = 1; k < devs.length; k++) v += vbeSat(devs[k]!, s.ic[k]!);
+  return v;
+}
+
+export function planDarlington(ctx: Ctx, n: 2 | 3): ChainPlan {
+  const D = ctx.spec.devices;
+  const devs = (n === 2 ? [D.driver_npn, D.power_npn] : [D.timing_npn, D.driver_npn, D.power_npn]) as BjtClass[];
+  const last = devs[n - 1]!;
+  const pol = ctx.spec.policy;
+  const probe = stackCurrents(devs, ctx.iMax_A, null, ctx.taMin_C);
+  const rBE = nearest(vbeOn(last, 25) / (BLEED_SHARE * probe.ib[n - 1]!), "E24");
+  const worst = stackCurrents(devs, ctx.iMax_A, rBE * (1 - ctx.rTol), ctx.taMin_C);
+  const nom = stackCurrents(devs, ctx.iNom_A, rBE, 25);
+  const vSwMax = stackVoltage(devs, worst);
+  const vSwNom = stackVoltage(devs, nom);
+  const vClamp = devs.reduce((s, d, k) => s + vbeSat(d, Math.max(worst.ic[k]!, 1e-6)) + (vbeCold(d, ctx) - d.vbe_on_V), 0);
+  const vTh = devs.reduce((s, d) => s + vbeOn(d, 25), 0);
+  const lastBase = n === 2 ? "d2b" : "d3b";
+  const nets = n === 2 ? [["d1b", "d2b"], ["d2b", "0"]] : [["d1b", "d2b"], ["d2b", "d3b"], ["d3b", "0"]];
+  const parts: Part[] = devs.map((d, k) =>
+    transistor("chain", `Q_D${k + 1}`, d, worst.beta[k], { c: "sw", b: nets[k]![0]!, e: nets[k]![1]! }, { voltage_V: switchOffVoltage_V(ctx), current_A: worst.ic[k]! }));
+  const rbe = resistor("chain", "RBE", rBE, { a: lastBase, b: "0" }, resistorPower_W(vbeCold(last, ctx), rBE * (1 - ctx.rTol), 1), pol, "bleed on the last base");
+  const checks = [...switchChecks(ctx, `Q_D${n}`, last), ...rbe.checks];
+  // Inner stages: voltage and current against their own ratings.
+  for (let k = 0; k < n - 1; k++) {
+    const r = switchChecks({ ...ctx, iMax_A: worst.ic[k]!, load: { ...ctx.load, peak_A: worst.ic[k]! * ctx.vNom_V / ctx.vMax_V } }, `Q_D${k + 1}`, devs[k]!);
+    checks.push(r[0]!, r[1]!);
+  }
+  // Output stage turn-off: no saturation charge, but its forward base charge I_C·τ_F (τ_F = 1/(2π f_T))
+  // must leave through RBE at ≈ V_BE/RBE (charge control, derived); else 3 × t_f (from memory).
+  const tOffLast = last.ft_Hz !== undefined ? last.t_fall_s + (ctx.iMax_A / (2 * Math.PI * last.ft_Hz)) / worst.bleed_A : 3 * last.t_fall_s;
+  return {
+    need: { kind: "base-current", i_A: OVERDRIVE_K * worst.ib[0]!, vClamp_V: vClamp, vThreshold_V: vTh, inverting: false },
+    vSwNom_V: vSwNom, vSwMax_V: vSwMax, parts: [...parts, rbe.part],
+    figures: [
+      figure("stack_gain_min", "Stack minimum gain (cold)", worst.beta.reduce((a, b) => a * b, 1), "", "chain", "β ≈ Π β_min,i (each at its stage current, T_A,min)", SRC.COMMON),
+      figure("turn_off_time", "Output stage turn-off time", tOffLast, "s", "chain", "t_off = t_f + (I_C/(2π f_T)) / (V_BE/R_BE)", SRC.DERIVED),
+    ],
+    problems: [...rbe.problems], checks,
+    delays() {
+      return { on_s: last.t_rise_s / 2, off_s: devs[0]!.t_storage_s + tOffLast / 2, note: "t_r/2 on; t_s,1 + t_off/2 off" };
+    },
+    finish(tap, op) {
+      const losses: DeviceLoss[] = [];
+      let vBelow = 0; // Σ V_BE of the stages after k
+      const pSw = switchingLoss_W(ctx.vMax_V, ctx.iMax_A, last.t_rise_s, tOffLast, op.fMax_Hz, ctx.switching);
+      for (let k = n - 1; k >= 0; k--) {
+        const vce = vSwMax - vBelow;
+        const pc = conductionLossBjt_W(worst.ic[k]!, Math.max(vce, 0), op.dutyMax);
+        const sw = k === n - 1 ? pSw : 0;
+        losses.unshift({ role: `Q_D${k + 1}`, dev: devs[k]!, family: "bjt", pCond_W: pc, pSw_W: sw, p_W: pc + sw, isPower: k === n - 1 });
+        vBelow += vbeSat(devs[k]!, Math.max(worst.ic[k]!, 1e-6));
+      }
+      const stackP = losses.reduce((s, l) => s + l.p_W, 0);
+      return {
+        parts: [], problems: [], checks: [], losses,
+        figures: [
+          driveMargin("input", "stack input (Q_D1 base)", tap.iMin_A, worst.ib[0]!),
+          figure("load_current_max", "Load current, worst case (max supply)", ctx.iMax_A, "A", "load", "I = (V_cc,max − V_f)/R_load (load model)", SRC.DERIVED),
+          figure("conduction_loss", "Conduction loss, stack", stackP - pSw, "W", "chain", "P = Σ I_C,i · V_CE,i · D_max, V_CE,n = V_CE(sat),1 + Σ V_BE", SRC.COMMON),
+          figure("switching_loss", "Switching loss, output stage", pSw, "W", "chain", ctx.switching === "resistive" ? "P = ⅙·V·I·(t_r + t_off)·f" : "P = ½·V·I·(t_r + t_off)·f", ctx.switching === "resistive" ? SRC.RASHID_SW : SRC.MOHAN_SW),
+          figure("stack_dissipation", "Dissipation in the whole stack", stackP, "W", "chain", "Σ P_i", SRC.DERIVED),
+        ],
+      };
+    },
+  };
+}

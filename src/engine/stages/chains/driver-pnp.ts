@@ -1,0 +1,84 @@
+/**
+ * bjt-driver-pnp: ground-referenced NPN driver (threshold ≈ V_BE) pulling the base of a saturating
+ * power PNP high-side switch through RB_P; RPU is the PNP's turn-off pull-up (docs/topologies.md).
+ * Both stages saturate: I_B = I_C / min(10, β_min/2) (common practice).
+ */
+import type { BjtClass } from "../../../model/device.ts";
+import { nearest, roundDown } from "../../shared/e-series.ts";
+import { figure, problem } from "../../shared/figures.ts";
+import { hfeMin, vbeOn, vbeSat, vceSat } from "../../shared/gain.ts";
+import { conductionLossBjt_W, switchingLoss_W } from "../../shared/losses.ts";
+import { SRC } from "../../shared/sources.ts";
+import { resistor, transistor } from "../../../circuit/parts.ts";
+import { type Ctx, FORCED_BETA, OVERDRIVE_K } from "../context.ts";
+import { driveMargin, switchChecks, switchOffVoltage_V, vbeCold } from "./common.ts";
+import { BLEED_SHARE, WEAK_TURNOFF_FACTOR } from "./bjt-single.ts";
+import type { ChainPlan } from "./types.ts";
+
+export function planDriverPnp(ctx: Ctx): ChainPlan {
+  const D = ctx.spec.devices;
+  const qp = D.power_pnp as BjtClass;
+  const qd = D.driver_npn as BjtClass;
+  const pol = ctx.spec.policy;
+  const betaP = hfeMin(qp, ctx.iMax_A, ctx.taMin_C);
+  const iBP = ctx.iMax_A / Math.min(FORCED_BETA, betaP / OVERDRIVE_K);
+  const vEB = vbeSat(qp, ctx.iMax_A) + (vbeCold(qp, ctx) - qp.vbe_on_V);
+  const rPU = nearest(vbeOn(qp, 25) / (BLEED_SHARE * iBP), "E24");
+  const iPU = vEB / (rPU * (1 - ctx.rTol));
+  const iCD = iBP + iPU; // through RB_P and the driver's collector
+  const vceD = vceSat(qd, iCD);
+  // RB_P = (Vcc,min − V_EB − V_CE(sat),drv) / I, at its +5 % tolerance still delivering I.
+  const rBPmax = (ctx.vMin_V - vEB - vceD) / (iCD * (1 + ctx.rTol));
+  const problems = [];
+  if (!(rBPmax > 0)) {
+    problems.push(problem("chain", "/parts/RB_P", "supply-too-low", "error", `The ${ctx.vMin_V.toFixed(1)} V minimum supply cannot drive the PNP base through its driver.`));
+  }
+  const rBP = rBPmax > 1 ? roundDown(rBPmax, "E24") : 1;
+  const iRbpMax = (ctx.vMax_V - vEB + 0.2) / (rBP * (1 - ctx.rTol));
+  const iRbpMin = (ctx.vMin_V - vEB - vceD) / (rBP * (1 + ctx.rTol));
+  const betaD = hfeMin(qd, iRbpMax, ctx.taMin_C);
+  const iBD = iRbpMax / Math.min(FORCED_BETA, betaD / OVERDRIVE_K);
+  const vClamp = vbeSat(qd, iRbpMax) + (vbeCold(qd, ctx) - qd.vbe_on_V);
+  const vSwMax = vceSat(qp, ctx.iMax_A);
+  const vSwNom = vceSat(qp, ctx.iNom_A);
+  const off = switchOffVoltage_V(ctx);
+  return {
+    need: { kind: "base-current", i_A: iBD, vClamp_V: vClamp, vThreshold_V: vbeOn(qd, 25), inverting: false },
+    vSwNom_V: vSwNom, vSwMax_V: vSwMax,
+    parts: [], figures: [
+      figure("power_gain_min", "Power PNP minimum gain (cold, max current)", betaP, "", "chain", "β_min(I_C,max, T_A,min)", SRC.REGISTERED),
+      figure("power_base_current", "Power PNP base current needed", iBP, "A", "chain", "I_B = I_C,max / min(10, β_min/2)", SRC.COMMON),
+      driveMargin("power", "power PNP (from the driver)", iRbpMin - iPU, ctx.iMax_A / betaP),
+    ],
+    problems,
+    checks: [
+      ...switchChecks(ctx, "Q_POWER", qp),
+      ...switchChecks({ ...ctx, iMax_A: iRbpMax, load: { ...ctx.load, peak_A: iRbpMax * ctx.vNom_V / ctx.vMax_V, inductive: false } }, "Q_DRV", qd).slice(0, 2),
+    ],
+    delays() {
+      return { on_s: qp.t_rise_s / 2, off_s: WEAK_TURNOFF_FACTOR * (qd.t_storage_s + qp.t_storage_s) + qp.t_fall_s / 2, note: "t_r/2 on; 2·(t_s,drv + t_s,pnp) + t_f/2 off" };
+    },
+    finish(tap, op) {
+      const rbp = resistor("chain", "RB_P", rBP, { a: "pbase", b: "drc" }, iRbpMax * iRbpMax * rBP * (1 + ctx.rTol) * op.dutyMax, pol, "sets the PNP base current");
+      const rpu = resistor("chain", "RPU", rPU, { a: "vbus", b: "pbase" }, (vEB * vEB) / (rPU * (1 - ctx.rTol)) * op.dutyMax, pol, "PNP turn-off pull-up");
+      const qDrv = transistor("chain", "Q_DRV", qd, betaD, { c: "drc", b: "drb", e: "0" }, { voltage_V: ctx.vMax_V, current_A: iRbpMax });
+      const qPow = transistor("chain", "Q_POWER", qp, betaP, { c: "sw", b: "pbase", e: "vbus" }, { voltage_V: off, current_A: ctx.iMax_A });
+      const pCond = conductionLossBjt_W(ctx.iMax_A, vSwMax, op.dutyMax) + conductionLossBjt_W(iRbpMax, vEB, op.dutyMax);
+      const pSw = switchingLoss_W(ctx.vMax_V, ctx.iMax_A, qp.t_rise_s, qp.t_fall_s + qp.t_storage_s, op.fMax_Hz, ctx.switching);
+      const pDrv = conductionLossBjt_W(iRbpMax, vceD, op.dutyMax) + conductionLossBjt_W(tap.iMax_A, vClamp, op.dutyMax);
+      return {
+        parts: [qDrv, rbp.part, rpu.part, qPow], problems: [...rbp.problems, ...rpu.problems], checks: [...rbp.checks, ...rpu.checks],
+        losses: [
+          { role: "Q_DRV", dev: qd, family: "bjt", pCond_W: pDrv, pSw_W: 0, p_W: pDrv, isPower: false },
+          { role: "Q_POWER", dev: qp, family: "bjt", pCond_W: pCond, pSw_W: pSw, p_W: pCond + pSw, isPower: true },
+        ],
+        figures: [
+          driveMargin("driver", "NPN driver", tap.iMin_A, iRbpMax / betaD),
+          figure("load_current_max", "Load current, worst case (max supply)", ctx.iMax_A, "A", "load", "I = (V_cc,max − V_f)/R_load (load model)", SRC.DERIVED),
+          figure("conduction_loss", "Conduction loss, power PNP", pCond, "W", "chain", "P = I_C,max · V_CE(sat) · D_max + I_B · V_EB · D_max", SRC.COMMON),
+          figure("switching_loss", "Switching loss, power PNP", pSw, "W", "chain", ctx.switching === "resistive" ? "P = ⅙·V·I·(t_r + t_s + t_f)·f" : "P = ½·V·I·(t_r + t_s + t_f)·f", ctx.switching === "resistive" ? SRC.RASHID_SW : SRC.MOHAN_SW),
+        ],
+      };
+    },
+  };
+}

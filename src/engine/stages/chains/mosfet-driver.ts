@@ -1,0 +1,125 @@
+/**
+ * mosfet-driver: ground-referenced NPN stage (Q_DRV, pull-up RP from the gate rail) driving a
+ * complementary emitter follower (Q_HI/Q_LO) into RG/RGS and a standard N-MOSFET. INVERTING: the
+ * load is on while the tapped collector is low, so the tap stage taps collector B.
+ * Gate rail: vbus, or a zener rail (RZ + DZ) when vbus,max − V_BE would exceed the derated V_GS max.
+ * The follower's output resistance is ≈ RP/β (common practice), so RP = RG·β_min keeps it ≤ RG.
+ */
+import type { BjtClass, MosfetClass, ZenerClass } from "../../../model/device.ts";
+import type { Part } from "../../../model/circuit.ts";
+import { checkStress } from "../../shared/derating.ts";
+import { roundDown, roundUp } from "../../shared/e-series.ts";
+import { figure, problem } from "../../shared/figures.ts";
+import { hfeMin, vbeOn, vceSat } from "../../shared/gain.ts";
+import { conductionLossBjt_W, conductionLossMosfet_W, gateDrivePower_W, switchingLoss_W } from "../../shared/losses.ts";
+import { SRC } from "../../shared/sources.ts";
+import { resistor, transistor, zener } from "../../../circuit/parts.ts";
+import { type Ctx, FORCED_BETA, OVERDRIVE_K } from "../context.ts";
+import { driveMargin, switchChecks, switchOffVoltage_V, vbeCold } from "./common.ts";
+import { WEAK_TURNOFF_FACTOR } from "./bjt-single.ts";
+import { gateTimes, rdsOn_ohm, specVgs_V } from "./mosfet-common.ts";
+import type { ChainPlan } from "./types.ts";
+
+/** Smallest zener current that keeps the zener on its knee (common practice, ≈ 5 mA for 0.5 W parts). */
+export const ZENER_KNEE_A = 0.005;
+/** Gate pull-down (common practice). */
+export const RGS_OHM = 10_000;
+
+export function planMosfetDriver(ctx: Ctx): ChainPlan {
+  const D = ctx.spec.devices;
+  const mos = D.mosfet_standard as MosfetClass;
+  const qd = D.driver_npn as BjtClass;
+  const qhi = D.driver_npn as BjtClass;
+  const qlo = D.driver_pnp as BjtClass;
+  const dz = D.gate_zener as ZenerClass;
+  const pol = ctx.spec.policy;
+  const vNeed = specVgs_V(mos);
+  const vgsAllowed = mos.vgs_max_V * pol.mosfet.vgs.factor;
+  const vbeHi = vbeOn(qhi, 25);
+  const useZener = ctx.vMax_V - vbeOn(qhi, ctx.taMax_C) > vgsAllowed;
+  const railMin = useZener ? dz.vz_V * (1 - dz.vz_tolerance) : ctx.vMin_V;
+  const railMax = useZener ? dz.vz_V * (1 + dz.vz_tolerance) : ctx.vMax_V;
+  const railNom = useZener ? dz.vz_V : ctx.vNom_V;
+  const vgsMin = railMin - vbeCold(qhi, ctx);
+  const vgsMax = railMax - vbeOn(qhi, ctx.taMax_C);
+  // Gate resistor: keeps the follower's peak current within its continuous rating (short pulses).
+  const rG = roundUp(Math.max(10, railMax / qhi.ic_max_A), "E24");
+  const iGpk = railMax / (rG * (1 - ctx.rTol));
+  const betaHi = hfeMin(qhi, iGpk, ctx.taMin_C);
+  const betaLo = hfeMin(qlo, iGpk, ctx.taMin_C);
+  const rP = roundDown(rG * betaHi, "E24");
+  const iRP = railMax / (rP * (1 - ctx.rTol));
+  const iCD = iRP + iGpk / betaLo;
+  const betaD = hfeMin(qd, iCD, ctx.taMin_C);
+  const iBD = iCD / Math.min(FORCED_BETA, betaD / OVERDRIVE_K);
+  const vClamp = vbeOn(qd, ctx.taMin_C) + 0.15;
+  const rOn = rG + rP / betaHi;
+  const t = gateTimes(mos, rOn, vgsMin, rG);
+  const rds = rdsOn_ohm(mos, vgsMin, true);
+  const problems = [];
+  if (vgsMin < vNeed) problems.push(problem("chain", "/parts/Q_POWER", "gate-drive-low", "warning", `The gate reaches only ${vgsMin.toFixed(2)} V at minimum supply, below the ${vNeed} V at which R_DS(on) is specified; R_DS(on) is estimated higher (${rds.toPrecision(3)} Ω hot).`, { limit: vNeed, actual: vgsMin, unit: "V" }));
+  const parts: Part[] = [
+    transistor("chain", "Q_DRV", qd, betaD, { c: "drc", b: "drb", e: "0" }, { voltage_V: railMax, current_A: iCD }),
+    transistor("chain", "Q_HI", qhi, betaHi, { c: "vg", b: "drc", e: "pp" }, { voltage_V: railMax, current_A: iGpk }),
+    transistor("chain", "Q_LO", qlo, betaLo, { c: "0", b: "drc", e: "pp" }, { voltage_V: railMax, current_A: iGpk }),
+    transistor("chain", "Q_POWER", mos, undefined, { d: "sw", g: "g", s: "0" }, { voltage_V: switchOffVoltage_V(ctx), current_A: ctx.iMax_A }),
+  ];
+  return {
+    need: { kind: "base-current", i_A: iBD, vClamp_V: vClamp, vThreshold_V: vbeOn(qd, 25), inverting: true },
+    vSwNom_V: ctx.iNom_A * rdsOn_ohm(mos, Math.min(vNeed, railNom - vbeHi), false),
+    vSwMax_V: ctx.iMax_A * rds,
+    parts,
+    figures: [
+      figure("gate_voltage_min", "Gate voltage, worst case low", vgsMin, "V", "chain", useZener ? "V_GS = V_Z,min − V_BE(Q_HI, cold)" : "V_GS = V_cc,min − V_BE(Q_HI, cold)", SRC.DERIVED, [vgsMin, vgsMax]),
+      figure("switch_t_on", "Switch turn-on transition", t.tOn_s, "s", "chain", "t_on = Q_G·(R_G + R_P/β_HI)/(V_GS − V_plateau)", SRC.COMMON),
+      figure("switch_t_off", "Switch turn-off transition", t.tOff_s, "s", "chain", "t_off = Q_G·R_G/V_plateau", SRC.COMMON),
+      figure("rds_on_hot", "R_DS(on), hot, at the gate voltage reached", rds, "Ω", "chain", "R_DS(on),max(V_GS) × hot factor", SRC.TYPICAL_MEMORY),
+    ],
+    problems,
+    checks: [...switchChecks(ctx, "Q_POWER", mos), checkStress("Q_POWER", "vgs", vgsMax, mos.vgs_max_V, "V", pol.mosfet.vgs, pol.marginal_above)],
+    delays() {
+      return { on_s: WEAK_TURNOFF_FACTOR * qd.t_storage_s + t.tOn_s / 2, off_s: qd.t_rise_s + t.tOff_s / 2, note: "on: driver storage 2·t_s + t_on/2; off: driver t_r + t_off/2" };
+    },
+    finish(tap, op) {
+      // RP and the driver conduct while the load is OFF; taken at 100 % of the time (conservative).
+      const offFrac = 1;
+      const rp = resistor("chain", "RP", rP, { a: "vg", b: "drc" }, (railMax * railMax) / (rP * (1 - ctx.rTol)) * offFrac, pol, "driver pull-up from the gate rail");
+      const rg = resistor("chain", "RG", rG, { a: "pp", b: "g" }, gateDrivePower_W(mos.qg_C, railMax, op.fMax_Hz), pol, "gate resistor");
+      const rgs = resistor("chain", "RGS", RGS_OHM, { a: "g", b: "0" }, (vgsMax * vgsMax) / (RGS_OHM * (1 - ctx.rTol)) * op.dutyMax, pol, "gate pull-down");
+      const out = [rp, rg, rgs];
+      const extra: Part[] = [];
+      const checks = [];
+      const probs = [];
+      if (useZener) {
+        const iLoadRail = iRP + mos.qg_C * op.fMax_Hz + railMax / RGS_OHM;
+        const rZmax = (ctx.vMin_V - railMax) / ((iLoadRail + ZENER_KNEE_A) * (1 + ctx.rTol));
+        const rZ = rZmax > 1 ? roundDown(rZmax, "E24") : 1;
+        const iZmax = (ctx.vMax_V - railMin) / (rZ * (1 - ctx.rTol));
+        const pZ = railMax * iZmax;
+        out.push(resistor("chain", "RZ", rZ, { a: "vbus", b: "vg" }, ((ctx.vMax_V - railMin) ** 2) / (rZ * (1 - ctx.rTol)), pol, "feeds the gate-rail zener"));
+        extra.push(zener("chain", "DZ", dz, { anode: "0", cathode: "vg" }, { power_W: pZ, current_A: iZmax }));
+        checks.push(checkStress("DZ", "power", pZ, dz.pz_W, "W", pol.zener.power, pol.marginal_above));
+        if (!(rZmax > 1)) probs.push(problem("chain", "/parts/RZ", "zener-rail", "error", "The supply is too low above the zener voltage to feed the gate rail."));
+      }
+      const pCond = conductionLossMosfet_W(ctx.iMax_A, rds, op.dutyMax);
+      const pSw = switchingLoss_W(ctx.vMax_V, ctx.iMax_A, t.tOn_s, t.tOff_s, op.fMax_Hz, ctx.switching);
+      const pDrv = conductionLossBjt_W(iCD, vceSat(qd, iCD), 1) + conductionLossBjt_W(tap.iMax_A, vClamp, 1);
+      return {
+        parts: [...out.map((o) => o.part), ...extra],
+        problems: [...out.flatMap((o) => o.problems), ...probs],
+        checks: [...out.flatMap((o) => o.checks), ...checks],
+        losses: [
+          { role: "Q_DRV", dev: qd, family: "bjt", pCond_W: pDrv, pSw_W: 0, p_W: pDrv, isPower: false },
+          { role: "Q_POWER", dev: mos, family: "mosfet", pCond_W: pCond, pSw_W: pSw, p_W: pCond + pSw, isPower: true },
+        ],
+        figures: [
+          driveMargin("driver", "NPN driver", tap.iMin_A, iCD / betaD),
+          figure("gate_rail", "Gate rail voltage (nominal)", railNom, "V", "chain", useZener ? "V_g = V_Z (zener rail, RZ + DZ)" : "V_g = V_bus", useZener ? SRC.TYPICAL_MEMORY : SRC.DERIVED, [railMin, railMax]),
+          figure("load_current_max", "Load current, worst case (max supply)", ctx.iMax_A, "A", "load", "I = (V_cc,max − V_f)/R_load (load model)", SRC.DERIVED),
+          figure("conduction_loss", "Conduction loss, power device", pCond, "W", "chain", "P = I_D,max² · R_DS(on),hot · D_max", SRC.COMMON),
+          figure("switching_loss", "Switching loss, power device", pSw, "W", "chain", ctx.switching === "resistive" ? "P = ⅙·V·I·(t_on + t_off)·f" : "P = ½·V·I·(t_on + t_off)·f", ctx.switching === "resistive" ? SRC.RASHID_SW : SRC.MOHAN_SW),
+        ],
+      };
+    },
+  };
+}

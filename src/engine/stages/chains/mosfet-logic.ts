@@ -1,0 +1,66 @@
+/**
+ * mosfet-logic: logic-level N-MOSFET, low side, gate fed from the timing collector through RG with
+ * the pull-down RGS (a divider when the supply would exceed the derated V_GS max). The tap stage
+ * sizes RG/RGS and the collector resistor; this module states the need and computes the losses.
+ */
+import type { MosfetClass } from "../../../model/device.ts";
+import { checkStress } from "../../shared/derating.ts";
+import { figure, problem } from "../../shared/figures.ts";
+import { conductionLossMosfet_W, switchingLoss_W } from "../../shared/losses.ts";
+import { SRC } from "../../shared/sources.ts";
+import { transistor } from "../../../circuit/parts.ts";
+import type { Ctx } from "../context.ts";
+import { switchChecks, switchOffVoltage_V } from "./common.ts";
+import { gateTimes, plateau_V, rdsOn_ohm, specVgs_V } from "./mosfet-common.ts";
+import type { ChainPlan } from "./types.ts";
+
+export function planMosfetLogic(ctx: Ctx): ChainPlan {
+  const dev = ctx.spec.devices.mosfet_logic as MosfetClass;
+  const pol = ctx.spec.policy;
+  const vNeed = specVgs_V(dev);
+  const rNom = rdsOn_ohm(dev, vNeed, false);
+  const rHot = rdsOn_ohm(dev, vNeed, true);
+  return {
+    need: { kind: "gate-voltage", vNeeded_V: vNeed, vMax_V: dev.vgs_max_V * pol.mosfet.vgs.factor, vThreshold_V: [dev.vgs_th_V.min, dev.vgs_th_V.max], cInput_F: dev.ciss_F, inverting: false },
+    vSwNom_V: ctx.iNom_A * rNom,
+    vSwMax_V: ctx.iMax_A * rHot,
+    parts: [transistor("chain", "Q_POWER", dev, undefined, { d: "sw", g: "g", s: "0" }, { voltage_V: switchOffVoltage_V(ctx), current_A: ctx.iMax_A })],
+    figures: [figure("rds_on_hot", "R_DS(on), hot, at the gate voltage reached", rHot, "Ω", "chain", "R_DS(on),max(V_GS) × hot factor", SRC.TYPICAL_MEMORY)],
+    problems: [],
+    checks: switchChecks(ctx, "Q_POWER", dev),
+    delays(tap) {
+      const rSrc = ((tap.rC_ohm + tap.rTap_ohm) * (tap.rGS_ohm ?? 1e9)) / (tap.rC_ohm + tap.rTap_ohm + (tap.rGS_ohm ?? 1e9));
+      const rOff = (tap.rTap_ohm * (tap.rGS_ohm ?? 1e9)) / (tap.rTap_ohm + (tap.rGS_ohm ?? 1e9));
+      const vg = tap.vGate_V?.[0] ?? vNeed;
+      const t = gateTimes(dev, rSrc, vg, rOff);
+      // First-order lag of the gate behind the collector ≈ R_src·C_iss (derived).
+      const lagOn = rSrc * dev.ciss_F;
+      const lagOff = rOff * dev.ciss_F * Math.log(Math.max(vg / plateau_V(dev), 1));
+      return { on_s: lagOn + t.tOn_s / 2, off_s: lagOff + t.tOff_s / 2, note: "gate lag R·C_iss + half the Q_G transition" };
+    },
+    finish(tap, op) {
+      const [vgMin, vgMax] = tap.vGate_V ?? [vNeed, vNeed];
+      const rSrc = ((tap.rC_ohm + tap.rTap_ohm) * (tap.rGS_ohm ?? 1e9)) / (tap.rC_ohm + tap.rTap_ohm + (tap.rGS_ohm ?? 1e9));
+      const rOff = (tap.rTap_ohm * (tap.rGS_ohm ?? 1e9)) / (tap.rTap_ohm + (tap.rGS_ohm ?? 1e9));
+      const t = gateTimes(dev, rSrc, vgMin, rOff);
+      const r = rdsOn_ohm(dev, vgMin, true);
+      const pCond = conductionLossMosfet_W(ctx.iMax_A, r, op.dutyMax);
+      const pSw = switchingLoss_W(ctx.vMax_V, ctx.iMax_A, t.tOn_s, t.tOff_s, op.fMax_Hz, ctx.switching);
+      const problems = [];
+      if (vgMin < vNeed) problems.push(problem("chain", "/parts/Q_POWER", "gate-drive-low", "warning", `The gate reaches only ${vgMin.toFixed(2)} V at minimum supply, below the ${vNeed} V at which R_DS(on) is specified; R_DS(on) is estimated higher.`, { limit: vNeed, actual: vgMin, unit: "V" }));
+      return {
+        parts: [], problems,
+        checks: [checkStress("Q_POWER", "vgs", vgMax, dev.vgs_max_V, "V", pol.mosfet.vgs, pol.marginal_above)],
+        losses: [{ role: "Q_POWER", dev, family: "mosfet", pCond_W: pCond, pSw_W: pSw, p_W: pCond + pSw, isPower: true }],
+        figures: [
+          figure("gate_voltage_min", "Gate voltage, worst case low", vgMin, "V", "chain", "V_GS = V_C,high · R_GS/(R_G + R_GS), min supply, tolerances", SRC.DERIVED, [vgMin, vgMax]),
+          figure("switch_t_on", "Switch turn-on transition", t.tOn_s, "s", "chain", "t_on = Q_G·R_src/(V_GS − V_plateau)", SRC.COMMON),
+          figure("switch_t_off", "Switch turn-off transition", t.tOff_s, "s", "chain", "t_off = Q_G·R_sink/V_plateau", SRC.COMMON),
+          figure("load_current_max", "Load current, worst case (max supply)", ctx.iMax_A, "A", "load", "I = (V_cc,max − V_f)/R_load (load model)", SRC.DERIVED),
+          figure("conduction_loss", "Conduction loss, power device", pCond, "W", "chain", "P = I_D,max² · R_DS(on),hot · D_max", SRC.COMMON),
+          figure("switching_loss", "Switching loss, power device", pSw, "W", "chain", ctx.switching === "resistive" ? "P = ⅙·V·I·(t_on + t_off)·f" : "P = ½·V·I·(t_on + t_off)·f", ctx.switching === "resistive" ? SRC.RASHID_SW : SRC.MOHAN_SW),
+        ],
+      };
+    },
+  };
+}

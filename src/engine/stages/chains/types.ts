@@ -1,0 +1,54 @@
+/**
+ * The shape every output-chain module shares. A chain first states what its input needs from the
+ * timing core (ChainInputNeed, src/engine/contracts.ts) and sizes its own internal parts; the
+ * tap stage then sizes the timing collector and the tap resistor (or gate divider) to meet the
+ * need; finally the chain computes its delays and losses at the operating point the core reaches.
+ */
+import type { BjtClass, MosfetClass } from "../../../model/device.ts";
+import type { ChainInputNeed, StageResult } from "../../contracts.ts";
+
+export interface DeviceLoss {
+  role: string;
+  dev: BjtClass | MosfetClass;
+  family: "bjt" | "mosfet";
+  pCond_W: number;
+  pSw_W: number;
+  /** Total average dissipation, W. */
+  p_W: number;
+  /** The device that switches the load (the one a heatsink verdict is about). */
+  isPower: boolean;
+}
+
+/** What the tap stage built, as the chain needs to know it. */
+export interface TapInfo {
+  /** Timing collector resistor of the tapped side, Ω. */
+  rC_ohm: number;
+  /** Tap resistor (BJT input) or gate feed resistor RG, Ω. */
+  rTap_ohm: number;
+  /** Gate pull-down (mosfet-logic only), Ω. */
+  rGS_ohm?: number;
+  /** Smallest and largest input current (BJT input) over the worst case, A. */
+  iMin_A: number;
+  iMax_A: number;
+  /** Gate voltage range reached (mosfet-logic), V. */
+  vGate_V?: [number, number];
+}
+
+export interface OperatingPoint {
+  /** Highest load duty over the control range and tolerances. */
+  dutyMax: number;
+  /** Highest PWM frequency over tolerances. */
+  fMax_Hz: number;
+}
+
+export interface ChainPlan extends StageResult {
+  need: ChainInputNeed;
+  /** Resistance from the chain input node to ground that conducts before the threshold (bjt-single RBE). */
+  inputBleed_ohm?: number;
+  /** Switch on-voltage: at rated current and nominal supply (the prediction), and worst case. */
+  vSwNom_V: number;
+  vSwMax_V: number;
+  /** Stage-by-stage drive margins are in `figures`; this is the net the load's switch drives. */
+  delays(tap: TapInfo): { on_s: number; off_s: number; note: string };
+  finish(tap: TapInfo, op: OperatingPoint): StageResult & { losses: DeviceLoss[] };
+}

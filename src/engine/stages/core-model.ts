@@ -1,0 +1,102 @@
+/**
+ * The timing core as built (values chosen), evaluated at one operating corner and one control
+ * position: frequency and the duty AT THE LOAD, including the threshold delay of the tapped
+ * collector's exponential rise and the chain's device delays, with polarity tracked:
+ *   non-inverting (tap = ca): t_on = t_Aoff − Δt_th − d_on + d_off
+ *   inverting     (tap = cb): t_on = t_Aoff + Δt_th + d_off − d_on
+ * (collector A is high, and collector B low, exactly while Q_A is off; ctrl raises R_BA.)
+ */
+import type { BjtClass, DiodeClass } from "../../model/device.ts";
+import { vbeOn, vceSat } from "../shared/gain.ts";
+import { type CollectorLoad, type CoreTiming, evaluateCore, thresholdDelay_s } from "./astable.ts";
+
+export interface CoreValues {
+  c_F: number;
+  pot_ohm: number;
+  rEnd_ohm: number;
+  rC_ohm: number;
+  diodes: boolean;
+  tapLoad: CollectorLoad;
+  balance?: CollectorLoad;
+  inverting: boolean;
+  preLinear_ohm?: number;
+  vThTap_V: number;
+  delayOn_s: number;
+  delayOff_s: number;
+}
+
+/** Multipliers (1 ± tolerance) and conditions of one worst-case corner. */
+export interface Corner {
+  vcc_V: number;
+  t_C: number;
+  kEndA: number;
+  kEndB: number;
+  kPot: number;
+  kCA: number;
+  kCB: number;
+  kRCA: number;
+  kRCB: number;
+}
+
+export const NOMINAL_K = { kEndA: 1, kEndB: 1, kPot: 1, kCA: 1, kCB: 1, kRCA: 1, kRCB: 1 } as const;
+
+/** Diode forward drop at a small current: V_F,max at its test current, −0.1 V/decade below it (n ≈ 1.7), −2 mV/K (from memory). */
+export function diodeVf_V(d: DiodeClass, i_A: number, t_C: number): number {
+  const dec = Math.log10(d.vf_at_A / Math.max(i_A, 1e-9));
+  return d.vf_V - 0.1 * Math.max(0, dec) - 0.002 * (t_C - 25);
+}
+
+export interface CoreEval {
+  timing: CoreTiming;
+  f_Hz: number;
+  /** Duty at the load, clamped to 0…1. */
+  duty: number;
+  /** Threshold delay Δt of the tapped collector, s (null: the threshold is never reached). */
+  dtTh_s: number | null;
+  vOn_V: number;
+  vSat_V: number;
+}
+
+export function evalCore(v: CoreValues, q: BjtClass, db: DiodeClass, k: Corner, ctrl: number): CoreEval {
+  const rCA = v.rC_ohm * k.kRCA;
+  const rCB = v.rC_ohm * k.kRCB;
+  const iC = k.vcc_V / Math.min(rCA, rCB);
+  const vSat_V = vceSat(q, iC);
+  const rBA = v.rEnd_ohm * k.kEndA + v.pot_ohm * k.kPot * ctrl;
+  const rBB = v.rEnd_ohm * k.kEndB + v.pot_ohm * k.kPot * (1 - ctrl);
+  const iB = k.vcc_V / Math.max(rBA, rBB);
+  const vOn_V = vbeOn(q, k.t_C) + (v.diodes ? diodeVf_V(db, iB, k.t_C) : 0);
+  const tapA = !v.inverting;
+  const loads: { loadA?: CollectorLoad; loadB?: CollectorLoad } = {};
+  if (tapA) { loads.loadA = v.tapLoad; if (v.balance) loads.loadB = v.balance; }
+  else { loads.loadB = v.tapLoad; if (v.balance) loads.loadA = v.balance; }
+  const timing = evaluateCore({
+    vcc_V: k.vcc_V, vOn_V, vSat_V, rCA_ohm: rCA, rCB_ohm: rCB, cA_F: v.c_F * k.kCA, cB_F: v.c_F * k.kCB, rBA_ohm: rBA, rBB_ohm: rBB, ...loads,
+  });
+  // The tapped collector's rise before the chain conducts: R_C towards Vcc, in parallel with any
+  // linear input network; it charges its own coupling capacitor.
+  const rCX = tapA ? rCA : rCB;
+  const cX = v.c_F * (tapA ? k.kCA : k.kCB);
+  const pre = v.preLinear_ohm;
+  const vInf = pre === undefined ? k.vcc_V : (k.vcc_V * pre) / (rCX + pre);
+  const rTh = pre === undefined ? rCX : (rCX * pre) / (rCX + pre);
+  const dtTh_s = thresholdDelay_s(rTh * cX, vInf, vSat_V, v.vThTap_V);
+  const dt = dtTh_s ?? timing.period_s;
+  const tOn = v.inverting ? timing.tAoff_s + dt + v.delayOff_s - v.delayOn_s : timing.tAoff_s - dt - v.delayOn_s + v.delayOff_s;
+  const duty = Math.min(1, Math.max(0, tOn / timing.period_s));
+  return { timing, f_Hz: 1 / timing.period_s, duty, dtTh_s, vOn_V, vSat_V };
+}
+
+/** All 2^9 corners of supply, temperature and the seven component tolerances. */
+export function corners(vMin: number, vMax: number, tMin: number, tMax: number, rTol: number, potTol: number, cTol: number): Corner[] {
+  const out: Corner[] = [];
+  for (let m = 0; m < 512; m++) {
+    const b = (i: number): boolean => ((m >> i) & 1) === 1;
+    out.push({
+      vcc_V: b(0) ? vMax : vMin, t_C: b(1) ? tMax : tMin,
+      kEndA: b(2) ? 1 + rTol : 1 - rTol, kEndB: b(3) ? 1 + rTol : 1 - rTol, kPot: b(4) ? 1 + potTol : 1 - potTol,
+      kCA: b(5) ? 1 + cTol : 1 - cTol, kCB: b(6) ? 1 + cTol : 1 - cTol, kRCA: b(7) ? 1 + rTol : 1 - rTol, kRCB: b(8) ? 1 + rTol : 1 - rTol,
+    });
+  }
+  return out;
+}

@@ -1,0 +1,110 @@
+/**
+ * The tap: sizes the timing collector resistor R_C and the resistor(s) between the tapped
+ * collector and the chain input so the chain's input need (ChainInputNeed) is met at the worst
+ * case, and describes the load this puts on the collector (for the core's timing and symmetry).
+ *
+ * Base-current input: I_tap = (V_cc − V_clamp)/(R_C + R_T) ≥ need at V_cc,min, +5 % resistors.
+ * R_C takes a share α of the drop (α = 0.25, ours), bounded below by the timing transistor's
+ * current (≤ ½·I_C,max, common practice) and above by 10 kΩ.
+ * Gate-voltage input: divider V_G = V_cc·R_GS/(R_C + R_G + R_GS) between V_need (V_cc,min) and
+ * the derated V_GS max (V_cc,max), with R_C small enough that Q_G moves in ≤ 2 % of the period.
+ */
+import type { BjtClass, MosfetClass } from "../../model/device.ts";
+import type { Part } from "../../model/circuit.ts";
+import type { DesignProblem } from "../../model/problem.ts";
+import type { StressCheck } from "../../model/derating.ts";
+import { nearest, roundDown, roundUp, seriesBetween } from "../shared/e-series.ts";
+import { problem } from "../shared/figures.ts";
+import { resistor } from "../../circuit/parts.ts";
+import type { CollectorLoad } from "./astable.ts";
+import type { Ctx } from "./context.ts";
+import type { ChainPlan, TapInfo } from "./chains/types.ts";
+import { plateau_V } from "./chains/mosfet-common.ts";
+
+export const TAP_SHARE_ALPHA = 0.25;
+export const RC_MAX_OHM = 10_000;
+
+const INPUT_NET: Record<string, string> = {
+  "bjt-single": "qb", "darlington-2": "d1b", "darlington-3": "d1b", "bjt-driver-pnp": "drb", "mosfet-driver": "drb", "mosfet-logic": "g",
+};
+
+export interface TapDesign {
+  tapNet: "ca" | "cb";
+  inputNet: string;
+  rC_ohm: number;
+  load: CollectorLoad;
+  /** Linear resistance from the tap to ground before the threshold is reached; absent = open. */
+  preLinear_ohm?: number;
+  /** Tap-node voltage at which the chain switches (nominal). */
+  vThTap_V: number;
+  info: TapInfo;
+  parts: Part[];
+  problems: DesignProblem[];
+  checks: StressCheck[];
+}
+
+function rcMin(ctx: Ctx): number {
+  const q = ctx.spec.devices.timing_npn as BjtClass;
+  return roundUp(ctx.vMax_V / (0.5 * q.ic_max_A), "E24");
+}
+
+export function designTap(ctx: Ctx, plan: ChainPlan): TapDesign {
+  const need = plan.need;
+  const tapNet = need.inverting ? "cb" : "ca";
+  const inputNet = INPUT_NET[ctx.spec.chain]!;
+  const tol = ctx.rTol;
+  const pol = ctx.spec.policy;
+  const problems: DesignProblem[] = [];
+  if (need.kind === "base-current") {
+    const span = ctx.vMin_V - need.vClamp_V;
+    const rCi = (TAP_SHARE_ALPHA * span) / need.i_A;
+    const rC = Math.min(RC_MAX_OHM, Math.max(rcMin(ctx), nearest(Math.max(rCi, 1), "E24")));
+    const rTmax = span / (need.i_A * (1 + tol)) - rC;
+    if (!(rTmax >= 1)) {
+      problems.push(problem("timing", "/parts/RT", "tap-drive-insufficient", "error",
+        `The timing core cannot feed the chain's ${(need.i_A * 1e3).toPrecision(3)} mA input current: with R_C ≥ ${rcMin(ctx)} Ω (timing transistor current limit) there is no room for a tap resistor at ${ctx.vMin_V.toFixed(1)} V. Use a chain with a driver stage.`,
+        { limit: span / (rC * (1 + tol)), actual: need.i_A, unit: "A" }));
+    }
+    const rT = rTmax >= 1 ? roundDown(rTmax, "E24") : 1;
+    const iMin = span / ((rC + rT) * (1 + tol));
+    const iMax = (ctx.vMax_V - need.vThreshold_V) / ((rC + rT) * (1 - tol));
+    const rt = resistor("chain", "RT", rT, { a: tapNet, b: inputNet }, iMax * iMax * rT * (1 + tol), pol, "tap: timing collector to the chain input");
+    const bleed = plan.inputBleed_ohm;
+    const pre: { preLinear_ohm?: number } = bleed !== undefined ? { preLinear_ohm: rT + bleed } : {};
+    return {
+      tapNet, inputNet, rC_ohm: rC, load: { r_ohm: rT, v_V: need.vClamp_V }, ...pre,
+      vThTap_V: bleed !== undefined ? (need.vThreshold_V * (rT + bleed)) / bleed : need.vThreshold_V,
+      info: { rC_ohm: rC, rTap_ohm: rT, iMin_A: iMin, iMax_A: iMax },
+      parts: [rt.part], problems: [...problems, ...rt.problems], checks: rt.checks,
+    };
+  }
+  // Gate-voltage input (mosfet-logic).
+  const dev = ctx.spec.devices.mosfet_logic as MosfetClass;
+  const period = 1 / ctx.f_Hz;
+  const rCfast = (0.02 * period * (ctx.vMin_V - plateau_V(dev))) / dev.qg_C;
+  const rC = Math.min(RC_MAX_OHM, Math.max(rcMin(ctx), rCfast > 1 ? roundDown(rCfast, "E24") : 1));
+  let best: { rG: number; rGS: number; lo: number; hi: number } | null = null;
+  for (const rGS of seriesBetween(1000, 100_000, "E24")) {
+    for (const rG of seriesBetween(100, 100_000, "E24")) {
+      const lo = (ctx.vMin_V * rGS * (1 - tol)) / (rC * (1 + tol) + rG * (1 + tol) + rGS * (1 - tol));
+      const hi = (ctx.vMax_V * rGS * (1 + tol)) / (rC * (1 - tol) + rG * (1 - tol) + rGS * (1 + tol));
+      if (lo < need.vNeeded_V || hi > need.vMax_V) continue;
+      if (best === null || rG < best.rG || (rG === best.rG && rGS > best.rGS)) best = { rG, rGS, lo, hi };
+    }
+  }
+  if (best === null) {
+    problems.push(problem("timing", "/parts/RG", "gate-window", "error", `No gate divider keeps V_GS between ${need.vNeeded_V} V (at ${ctx.vMin_V.toFixed(1)} V) and the derated maximum ${need.vMax_V.toFixed(1)} V (at ${ctx.vMax_V.toFixed(1)} V).`));
+    best = { rG: 100, rGS: 10_000, lo: (ctx.vMin_V * 10_000) / (rC + 10_100), hi: (ctx.vMax_V * 10_000) / (rC + 10_100) };
+  }
+  const rL = best.rG + best.rGS;
+  const iMax = ctx.vMax_V / ((rC + rL) * (1 - tol));
+  const rg = resistor("chain", "RG", best.rG, { a: tapNet, b: "g" }, iMax * iMax * best.rG * (1 + tol) + dev.qg_C * best.hi * ctx.f_Hz * 1.2, pol, "gate feed from the timing collector");
+  const rgs = resistor("chain", "RGS", best.rGS, { a: "g", b: "0" }, (best.hi * best.hi) / (best.rGS * (1 - tol)), pol, "gate pull-down");
+  const vthMid = (need.vThreshold_V[0] + need.vThreshold_V[1]) / 2;
+  return {
+    tapNet, inputNet, rC_ohm: rC, load: { r_ohm: rL, v_V: 0 }, preLinear_ohm: rL,
+    vThTap_V: (vthMid * rL) / best.rGS,
+    info: { rC_ohm: rC, rTap_ohm: best.rG, rGS_ohm: best.rGS, iMin_A: ctx.vMin_V / ((rC + rL) * (1 + tol)), iMax_A: iMax, vGate_V: [best.lo, best.hi] },
+    parts: [rg.part, rgs.part], problems: [...problems, ...rg.problems, ...rgs.problems], checks: [...rg.checks, ...rgs.checks],
+  };
+}

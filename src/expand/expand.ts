@@ -1,0 +1,72 @@
+/**
+ * A design record's axes → one VariantSpec per supply × current × chain × load kind, in axis
+ * order (supply outermost). Defaults for optional targets are filled here, so the engine always
+ * sees complete targets. Pure: the device choice and the policy come in as dependencies.
+ */
+import type { DeratingPolicy } from "../model/derating.ts";
+import type { DesignRecord, DeviceRole } from "../model/design.ts";
+import type { DeviceClass } from "../model/device.ts";
+import type { VariantSpec } from "../model/variant.ts";
+import { variantId } from "./variant-id.ts";
+
+/** Defaults of optional targets (values documented in docs/writing-a-design.md). */
+export const TARGET_DEFAULTS = {
+  supply_tolerance: 0.1,
+  duty_skew_max: 0.02,
+  heatsink_min_KperW: 2.0,
+} as const;
+
+export const PROTECTION_DEFAULTS: VariantSpec["protection"] = { be_breakdown: "series-base-diode" };
+
+export interface ExpandDeps {
+  choose: (rec: DesignRecord, supply_V: number, load_A: number) => Record<DeviceRole, DeviceClass>;
+  policy: DeratingPolicy;
+}
+
+export function fillTargets(t: DesignRecord["targets"]): VariantSpec["targets"] {
+  return {
+    pwm_Hz: t.pwm_Hz,
+    duty_min: t.duty_min,
+    duty_max: t.duty_max,
+    ambient_C: [t.ambient_C[0], t.ambient_C[1]],
+    // `??` also covers records built in code that skipped the loader's schema defaults.
+    supply_tolerance: t.supply_tolerance ?? TARGET_DEFAULTS.supply_tolerance,
+    duty_skew_max: t.duty_skew_max ?? TARGET_DEFAULTS.duty_skew_max,
+    heatsink_min_KperW: t.heatsink_min_KperW ?? TARGET_DEFAULTS.heatsink_min_KperW,
+  };
+}
+
+export function expandDesign(rec: DesignRecord, deps: ExpandDeps): VariantSpec[] {
+  const targets = fillTargets(rec.targets);
+  const protection = { ...PROTECTION_DEFAULTS, ...rec.protection };
+  const out: VariantSpec[] = [];
+  for (const supply_V of rec.axes.supply_V) {
+    for (const load_A of rec.axes.load_A) {
+      const devices = deps.choose(rec, supply_V, load_A);
+      for (const chain of rec.axes.chain) {
+        for (const load_kind of rec.axes.load_kind) {
+          out.push({
+            id: variantId(rec, supply_V, load_A, chain, load_kind),
+            design: rec.id,
+            designTitle: rec.title,
+            supply_V,
+            load_A,
+            chain,
+            load_kind,
+            targets: { ...targets, ambient_C: [targets.ambient_C[0], targets.ambient_C[1]] },
+            protection: { ...protection },
+            devices: { ...devices },
+            policy: deps.policy,
+          });
+        }
+      }
+    }
+  }
+  return out;
+}
+
+/** How many variants a record expands to, without choosing devices. */
+export function variantCount(rec: DesignRecord): number {
+  const a = rec.axes;
+  return a.supply_V.length * a.load_A.length * a.chain.length * a.load_kind.length;
+}

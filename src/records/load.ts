@@ -1,0 +1,87 @@
+/**
+ * loadProject: every record of a project, read, validated and cross-checked. Returns either the
+ * valid records or every issue found (sorted); it never throws on bad data.
+ */
+import type { DeratingPolicy } from "../model/derating.ts";
+import type { DesignRecord, SourcedRecord } from "../model/design.ts";
+import type { DeviceClass, DeviceLibrary } from "../model/device.ts";
+import { checkBindings, checkDuplicateIds, checkFileName, checkTargets, type LoadedDesign, type LoadedDevice } from "./cross.ts";
+import { listJson, readRecord } from "./files.ts";
+import { sortIssues, uniqueIssues, type RecordIssue } from "./issue.ts";
+import type { ParsedFile } from "./parse.ts";
+import { loadSchemas } from "./schemas.ts";
+import { validateParsed } from "./validate.ts";
+
+export type LoadResult =
+  | { ok: true; designs: SourcedRecord<DesignRecord>[]; devices: DeviceLibrary; policy: DeratingPolicy; policyFile: string }
+  | { ok: false; issues: RecordIssue[] };
+
+export interface LoadOptions {
+  /** Policy file relative to the root (default designs/policies/default.json). */
+  policy?: string;
+}
+
+export const DEFAULT_POLICY = "designs/policies/default.json";
+
+export async function loadProject(root: string, options: LoadOptions = {}): Promise<LoadResult> {
+  const issues: RecordIssue[] = [];
+  const schemas = await loadSchemas(root);
+  issues.push(...schemas.issues);
+  const { design: vDesign, device: vDevice, derating: vPolicy } = schemas.validators;
+
+  const readValid = async (file: string, validate: typeof vDesign): Promise<ParsedFile | null> => {
+    const r = await readRecord(root, file);
+    if (!r.ok) { issues.push(...r.issues); return null; }
+    if (!validate) return null; // schema problem already reported
+    const found = validateParsed(r.parsed, validate);
+    issues.push(...found);
+    return found.length === 0 ? r.parsed : null;
+  };
+
+  const designs: LoadedDesign[] = [];
+  for (const file of await listJson(root, "designs")) {
+    const parsed = await readValid(file, vDesign);
+    if (parsed) designs.push({ parsed, record: parsed.data as DesignRecord });
+  }
+  const devices: LoadedDevice[] = [];
+  for (const file of await listJson(root, "designs/devices")) {
+    const parsed = await readValid(file, vDevice);
+    if (parsed) devices.push(...deviceEntries(parsed));
+  }
+  const policyFile = options.policy ?? DEFAULT_POLICY;
+  const policyParsed = await readValid(policyFile, vPolicy);
+
+  issues.push(...checkDuplicateIds(devices, (d) => ({ id: d.device.id, parsed: d.parsed, pointer: `${d.pointer}/id` }), "device class"));
+  const library = new Map<string, DeviceClass>();
+  for (const d of devices) if (!library.has(d.device.id)) library.set(d.device.id, d.device);
+  issues.push(...checkDuplicateIds(designs, (d) => ({ id: d.record.id, parsed: d.parsed, pointer: "/id" }), "design"));
+  for (const d of designs) {
+    issues.push(...checkFileName(d.parsed, d.record.id, "/id"), ...checkTargets(d), ...checkBindings(d, library));
+  }
+
+  if (issues.length > 0 || !policyParsed) return { ok: false, issues: sortIssues(uniqueIssues(issues)) };
+  return {
+    ok: true,
+    designs: designs.map((d) => ({ file: d.parsed.file, record: d.record })),
+    devices: new Map([...library].sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0))),
+    policy: policyParsed.data as DeratingPolicy,
+    policyFile,
+  };
+}
+
+/**
+ * A device file holds one class, a list of classes, or an object with one list of classes
+ * (whatever designs/schema/device.schema.json allows); each class keeps its pointer for messages.
+ */
+function deviceEntries(parsed: ParsedFile): LoadedDevice[] {
+  const isClass = (x: unknown): x is DeviceClass => x !== null && typeof x === "object" && typeof (x as { id?: unknown }).id === "string" && "family" in x;
+  const data = parsed.data;
+  if (Array.isArray(data)) return data.filter(isClass).map((device, i) => ({ parsed, pointer: `/${i}`, device }));
+  if (isClass(data)) return [{ parsed, pointer: "", device: data }];
+  if (data !== null && typeof data === "object") {
+    for (const [key, list] of Object.entries(data)) {
+      if (Array.isArray(list) && list.every(isClass)) return list.map((device, i) => ({ parsed, pointer: `/${key}/${i}`, device }));
+    }
+  }
+  return [];
+}

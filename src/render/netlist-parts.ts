@@ -1,0 +1,88 @@
+/**
+ * One circuit-model part → its SPICE element lines (Berkeley SPICE syntax). Element names keep the
+ * reference designator whole (RF1, RRV1A, MQ5, DE1) so a part can be found in the netlist by ref.
+ */
+import { PIN_NAMES, type Part } from "../model/circuit.ts";
+import { checkNet, checkRef } from "./netlist-text.ts";
+import { spiceModelName, spiceNum, VT_27C_V } from "./spice-num.ts";
+
+/** Fuse stand-in when the part gives no resistance: a few tens of mΩ (common practice, from memory). */
+export const FUSE_R_DEFAULT_OHM = 0.02;
+/** Saturation current of the LED-strip stand-in diode; N is solved so V_F holds at rated current. */
+const LED_STRING_IS_A = 1e-12;
+
+export interface ElementOut {
+  lines: string[];
+  /** Extra `.model` cards this part needs beyond its device class (LED strings). */
+  models: string[];
+}
+
+function pins(p: Part): string[] {
+  return PIN_NAMES[p.kind].map((name) => {
+    const net = p.pins[name];
+    if (net === undefined) throw new RangeError(`netlist: part ${p.ref} (${p.kind}) has no net on pin "${name}"`);
+    return checkNet(net, `${p.ref}.${name}`);
+  });
+}
+
+function modelOf(p: Part): string {
+  const id = p.spice?.model ?? p.device;
+  if (!id) throw new RangeError(`netlist: part ${p.ref} (${p.kind}) names no device class for its .model`);
+  return spiceModelName(id);
+}
+
+function loadR(p: Part): number {
+  const r = p.spice?.r_ohm;
+  if (r === undefined || !(r > 0)) throw new RangeError(`netlist: load ${p.ref} needs spice.r_ohm > 0`);
+  return r;
+}
+
+export function elementLines(p: Part, supply_V: number): ElementOut {
+  const ref = checkRef(p.ref);
+  const n = pins(p);
+  const v = (x: number, what: string) => spiceNum(x, `${ref} ${what}`);
+  const inner = `${ref.toLowerCase()}_int`;
+  switch (p.kind) {
+    case "resistor":
+    case "capacitor":
+    case "capacitor-polarised":
+      return { lines: [`${ref} ${n.join(" ")} ${v(p.value, "value")}`], models: [] };
+    case "potentiometer": {
+      const r = v(p.value, "value");
+      // a–w = R·ctrl, w–b = R·(1 − ctrl), each floored at 1 mΩ so neither end is a short.
+      return { lines: [`R${ref}A ${n[0]} ${n[1]} {max(1e-3, ${r}*ctrl)}`, `R${ref}B ${n[1]} ${n[2]} {max(1e-3, ${r}*(1-ctrl))}`], models: [] };
+    }
+    case "npn":
+    case "pnp":
+      return { lines: [`${ref} ${n.join(" ")} ${modelOf(p)}`], models: [] };
+    case "nmos":
+    case "pmos":
+      return { lines: [`M${ref} ${n.join(" ")} ${modelOf(p)}`], models: [] };
+    case "diode":
+    case "zener":
+    case "led":
+      return { lines: [`${ref} ${n.join(" ")} ${modelOf(p)}`], models: [] };
+    case "fuse":
+      return { lines: [`R${ref} ${n.join(" ")} ${v(p.spice?.r_ohm ?? FUSE_R_DEFAULT_OHM, "fuse resistance")}`], models: [] };
+    case "motor": {
+      const l = p.spice?.l_H ?? 0;
+      if (!(l > 0)) return { lines: [`R${ref} ${n.join(" ")} ${v(loadR(p), "r_ohm")}`], models: [] };
+      return { lines: [`R${ref} ${n[0]} ${inner} ${v(loadR(p), "r_ohm")}`, `L${ref} ${inner} ${n[1]} ${v(l, "l_H")}`], models: [] };
+    }
+    case "lamp":
+    case "heater":
+      return { lines: [`R${ref} ${n.join(" ")} ${v(loadR(p), "r_ohm")}`], models: [] };
+    case "led-strip": {
+      const vf = p.spice?.vf_V;
+      if (vf === undefined || !(vf > 0)) throw new RangeError(`netlist: LED strip ${ref} needs spice.vf_V > 0`);
+      const i_A = p.stress.current_A ?? p.rating.current_A ?? p.value / supply_V;
+      // V_F = N·V_T·ln(I/IS) at the rated current: one diode stands in for the whole string.
+      const nEm = vf / (VT_27C_V * Math.log(i_A / LED_STRING_IS_A));
+      const model = `LEDSTR_${ref}`;
+      return {
+        lines: [`D${ref} ${n[0]} ${inner} ${model}`, `R${ref} ${inner} ${n[1]} ${v(loadR(p), "r_ohm")}`],
+        models: [`.model ${model} D(IS=${spiceNum(LED_STRING_IS_A, "IS")} N=${v(nEm, "N")} RS=0)`],
+      };
+    }
+  }
+}

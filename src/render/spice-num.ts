@@ -1,0 +1,20 @@
+/**
+ * Numbers and names for SPICE text. Numbers are printed in full precision (no rounding: the
+ * netlist is an exact view of the model), and NaN/Infinity are refused before they reach text.
+ */
+export function spiceNum(x: number, what: string): string {
+  if (!Number.isFinite(x)) throw new RangeError(`netlist: non-finite number for ${what}: ${x}`);
+  if (x === 0) return "0";
+  // 12 significant digits: far below any tolerance, and keeps float noise (…0000014) out of the text.
+  const y = Number(x.toPrecision(12));
+  const abs = Math.abs(y);
+  return abs >= 1e-3 && abs < 1e6 ? String(y) : y.toExponential();
+}
+
+/** Device class id → `.model` name: upper-case letters, digits and "_" only (SPICE-safe). */
+export function spiceModelName(deviceId: string): string {
+  return deviceId.toUpperCase().replace(/[^A-Z0-9]/g, "_");
+}
+
+/** Thermal voltage kT/q at SPICE's nominal temperature TNOM = 27 °C (300.15 K). */
+export const VT_27C_V = (1.380649e-23 * 300.15) / 1.602176634e-19;

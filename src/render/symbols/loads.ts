@@ -1,0 +1,56 @@
+/**
+ * Loads: motor (circle with M), lamp (circle with a cross, IEC 60617 signal lamp), heater
+ * (rectangle with a zig-zag heating element), LED strip (two LEDs in series inside a dashed box).
+ */
+import { INK, TWO_PIN, arrowHead, type SymbolDef } from "./types.ts";
+import { diode } from "./diodes.ts";
+
+export const motor: SymbolDef = {
+  pins: TWO_PIN,
+  body: { x: -17, y: -30, w: 34, h: 60 },
+  draw(g) {
+    g.line(0, -30, 0, -16);
+    g.circle(32).center(0, 0);
+    g.element("text").words("M")
+      .attr({ x: 0, y: 6, stroke: "none", "font-size": 16, "text-anchor": "middle", "font-weight": "bold", fill: INK });
+    g.line(0, 16, 0, 30);
+  },
+};
+
+export const lamp: SymbolDef = {
+  pins: TWO_PIN,
+  body: { x: -15, y: -30, w: 30, h: 60 },
+  draw(g) {
+    g.line(0, -30, 0, -14);
+    g.circle(28).center(0, 0);
+    g.line(-10, -10, 10, 10);
+    g.line(-10, 10, 10, -10);
+    g.line(0, 14, 0, 30);
+  },
+};
+
+export const heater: SymbolDef = {
+  pins: TWO_PIN,
+  body: { x: -13, y: -30, w: 26, h: 60 },
+  draw(g) {
+    g.line(0, -30, 0, -18);
+    g.rect(24, 36).move(-12, -18);
+    g.polyline([0, -18, 0, -13, -6, -9, 6, -3, -6, 3, 6, 9, 0, 13, 0, 18]);
+    g.line(0, 18, 0, 30);
+  },
+};
+
+export const ledStrip: SymbolDef = {
+  pins: TWO_PIN,
+  body: { x: -16, y: -30, w: 36, h: 60 },
+  draw(g) {
+    g.rect(30, 48).move(-15, -24).attr({ "stroke-dasharray": "4 3" });
+    for (const cy of [-11, 11]) {
+      const d = g.group().transform({ translateX: 0, translateY: cy, scale: 0.5 });
+      diode.draw(d);
+    }
+    g.line(0, -30, 0, -26);
+    g.line(0, 26, 0, 30);
+    arrowHead(g, [6, -4], [17, -13], 5);
+  },
+};

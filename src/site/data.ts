@@ -1,0 +1,61 @@
+import type { BuiltCatalogue } from "../model/catalogue.ts";
+import { designCounts, designView, type DesignCounts, type DesignView } from "./view-design.ts";
+import { variantView, type VariantView } from "./view-variant.ts";
+import { designPage } from "./paths.ts";
+
+/**
+ * The thin data layer Eleventy reads (global data `pw`): view models of plain, already formatted
+ * strings plus the raw numbers a reader may want to check. Templates only print these.
+ */
+export interface HomeView {
+  root: string;
+  title: string;
+  builtAt: string;
+  version: string;
+  policy: string;
+  designs: { id: string; title: string; summary: string; url: string; counts: DesignCounts }[];
+  summary: {
+    designs: number;
+    variants: number;
+    feasible: number;
+    notFeasible: number;
+    agree: number;
+    disagree: number;
+    failed: number;
+    notSimulated: number;
+  };
+}
+
+export interface SiteView {
+  home: HomeView;
+  designs: DesignView[];
+  variants: VariantView[];
+}
+
+export function buildSiteView(cat: BuiltCatalogue): SiteView {
+  const s = cat.summary;
+  const home: HomeView = {
+    root: "",
+    title: "Driver catalogue",
+    builtAt: cat.builtAt,
+    version: cat.version,
+    policy: `${cat.policy.title} (${cat.policy.document})`,
+    designs: cat.designs.map((d) => ({ id: d.record.id, title: d.record.title, summary: d.record.summary, url: designPage(d.record.id), counts: designCounts(d) })),
+    summary: {
+      designs: cat.designs.length,
+      variants: s.variants,
+      feasible: s.feasible,
+      notFeasible: s.variants - s.feasible,
+      agree: s.agree,
+      disagree: s.disagree,
+      failed: s.failed,
+      // Variants with no simulation record, or one marked skipped (e.g. not feasible, or --no-simulate).
+      notSimulated: Math.max(0, s.variants - s.agree - s.disagree - s.failed),
+    },
+  };
+  return {
+    home,
+    designs: cat.designs.map(designView),
+    variants: cat.designs.flatMap((d) => d.variants.map((v) => variantView(v, d, cat))),
+  };
+}

@@ -1,0 +1,78 @@
+import type { BuiltCatalogue, BuiltDesign, BuiltVariant } from "../model/catalogue.ts";
+
+/**
+ * The downloadable variant record (`<id>.json`): every part, every figure, problems, checks and
+ * the verification. Numbers are the engine's, unrounded; the page prints the same numbers (a test
+ * parses both and compares). Simulated waveform samples are left out (the plot shows them and the
+ * netlist reproduces them); everything else the verifier reported is kept.
+ */
+export function variantJson(v: BuiltVariant, d: BuiltDesign, cat: BuiltCatalogue): object {
+  const s = v.sized;
+  const spec = s.spec;
+  const devices = Object.fromEntries(Object.entries(spec.devices).sort(([a], [b]) => a.localeCompare(b)).map(([role, dev]) => [role, dev.id]));
+  const ver = v.verification;
+  return {
+    id: spec.id,
+    design: { id: d.record.id, title: d.record.title, file: d.file },
+    spec: {
+      supply_V: spec.supply_V,
+      load_A: spec.load_A,
+      chain: spec.chain,
+      load_kind: spec.load_kind,
+      targets: spec.targets,
+      protection: spec.protection,
+      devices,
+      policy: { id: cat.policy.id, title: cat.policy.title, document: cat.policy.document },
+    },
+    feasible: s.feasible,
+    ...(s.reason !== undefined ? { reason: s.reason } : {}),
+    ...(s.alternative ? { alternative: s.alternative } : {}),
+    figures: s.figures.map((f) => ({
+      key: f.key,
+      label: f.label,
+      value: f.value,
+      unit: f.unit,
+      ...(f.range ? { range: f.range } : {}),
+      formula: f.formula,
+      source: f.source,
+      confidence: f.confidence,
+      stage: f.stage,
+    })),
+    parts: (s.circuit?.parts ?? []).map((p) => ({
+      ref: p.ref,
+      kind: p.kind,
+      stage: p.stage,
+      role: p.role,
+      description: p.description,
+      value: p.value,
+      unit: p.unit,
+      ...(p.series !== undefined ? { series: p.series } : {}),
+      ...(p.tolerance !== undefined ? { tolerance: p.tolerance } : {}),
+      rating: p.rating,
+      stress: p.stress,
+      ...(p.device !== undefined ? { device: p.device } : {}),
+      ...(p.gain_min !== undefined ? { gain_min: p.gain_min } : {}),
+      ...(p.package !== undefined ? { package: p.package } : {}),
+      pins: p.pins,
+    })),
+    problems: s.problems,
+    checks: s.checks,
+    heatsink: s.heatsink,
+    cautions: s.cautions,
+    verification: ver
+      ? {
+          status: ver.status,
+          engine: ver.engine,
+          engineVersion: ver.engineVersion,
+          hash: ver.hash,
+          comparisons: ver.comparisons,
+          ...(ver.message !== undefined ? { message: ver.message } : {}),
+        }
+      : { status: "skipped", comparisons: [] },
+  };
+}
+
+/** Serialised form: two-space indent and a final newline, stable across builds. */
+export function variantJsonText(v: BuiltVariant, d: BuiltDesign, cat: BuiltCatalogue): string {
+  return `${JSON.stringify(variantJson(v, d, cat), null, 2)}\n`;
+}

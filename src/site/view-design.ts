@@ -1,0 +1,118 @@
+import type { BuiltDesign, BuiltVariant } from "../model/catalogue.ts";
+import { formatPercent, formatValue } from "../model/format.ts";
+import { chainLabel, FEASIBILITY, loadLabel, SIM_WORDS } from "./labels.ts";
+import { designPage, relativeRoot, variantPage } from "./paths.ts";
+
+export interface DesignCounts {
+  variants: number;
+  feasible: number;
+  agree: number;
+  disagree: number;
+  failed: number;
+}
+
+export interface MatrixCell {
+  present: boolean;
+  url: string;
+  id: string;
+  symbol: string;
+  word: string;
+  cls: string;
+  sim: string;
+  simCls: string;
+}
+
+export interface MatrixTable {
+  loadKind: string;
+  caption: string;
+  chains: { key: string; label: string }[];
+  rows: { header: string; cells: MatrixCell[] }[];
+}
+
+export interface DesignView {
+  id: string;
+  page: string;
+  root: string;
+  title: string;
+  summary: string;
+  use: string;
+  notes: string[];
+  file: string;
+  targets: { label: string; value: string }[];
+  tables: MatrixTable[];
+  variants: { id: string; url: string; supply: string; current: string; chain: string; load: string; symbol: string; word: string; cls: string; sim: string; simCls: string }[];
+  counts: DesignCounts;
+  footerFile: string;
+}
+
+export function designCounts(d: BuiltDesign): DesignCounts {
+  const st = (s: string) => d.variants.filter((v) => v.verification?.status === s).length;
+  return { variants: d.variants.length, feasible: d.variants.filter((v) => v.sized.feasible).length, agree: st("agree"), disagree: st("disagree"), failed: st("failed") };
+}
+
+const EMPTY_CELL: MatrixCell = { present: false, url: "", id: "", symbol: "—", word: "not offered", cls: "muted", sim: "", simCls: "" };
+
+function cell(v: BuiltVariant | undefined): MatrixCell {
+  if (!v) return EMPTY_CELL;
+  const f = v.sized.feasible ? FEASIBILITY.yes : FEASIBILITY.no;
+  const sim = SIM_WORDS[v.verification?.status ?? "skipped"];
+  return { present: true, url: variantPage(v.sized.spec.id), id: v.sized.spec.id, symbol: f.symbol, word: f.word, cls: f.cls, sim: v.sized.feasible ? sim.word : "", simCls: sim.cls };
+}
+
+/** One table per load kind: rows supply × current (ascending), columns chain (the record's order). */
+function tables(d: BuiltDesign): MatrixTable[] {
+  const ax = d.record.axes;
+  const supplies = [...new Set(d.variants.map((v) => v.sized.spec.supply_V))].sort((a, b) => a - b);
+  const currents = [...new Set(d.variants.map((v) => v.sized.spec.load_A))].sort((a, b) => a - b);
+  const present = new Set(d.variants.map((v) => v.sized.spec.chain as string));
+  const chains = [...ax.chain.filter((c) => present.has(c)), ...[...present].filter((c) => !(ax.chain as string[]).includes(c)).sort()];
+  const loadsPresent = new Set(d.variants.map((v) => v.sized.spec.load_kind as string));
+  const loads = [...ax.load_kind.filter((k) => loadsPresent.has(k)), ...[...loadsPresent].filter((k) => !(ax.load_kind as string[]).includes(k)).sort()];
+  return loads.map((load) => ({
+    loadKind: load,
+    caption: loads.length > 1 ? `Variants for ${loadLabel(load).toLowerCase()} loads` : `Variants (${loadLabel(load).toLowerCase()} load)`,
+    chains: chains.map((c) => ({ key: c, label: chainLabel(c) })),
+    rows: supplies.flatMap((s) =>
+      currents.map((i) => ({
+        header: `${formatValue(s, "V")}, ${formatValue(i, "A")}`,
+        cells: chains.map((c) => cell(d.variants.find((v) => v.sized.spec.supply_V === s && v.sized.spec.load_A === i && v.sized.spec.chain === c && v.sized.spec.load_kind === load))),
+      })),
+    ),
+  }));
+}
+
+export function designView(d: BuiltDesign): DesignView {
+  const r = d.record;
+  const t = r.targets;
+  const page = designPage(r.id);
+  const targets = [
+    { label: "PWM frequency", value: formatValue(t.pwm_Hz, "Hz") },
+    { label: "Duty range", value: `${formatPercent(t.duty_min)} … ${formatPercent(t.duty_max)}` },
+    { label: "Ambient", value: `${formatValue(t.ambient_C[0], "°C")} … ${formatValue(t.ambient_C[1], "°C")}` },
+    { label: "Supply tolerance", value: `±${formatPercent(t.supply_tolerance)}` },
+    { label: "Supplies", value: r.axes.supply_V.map((v) => formatValue(v, "V")).join(", ") },
+    { label: "Load currents", value: r.axes.load_A.map((v) => formatValue(v, "A")).join(", ") },
+    { label: "Load kinds", value: r.axes.load_kind.map(loadLabel).join(", ") },
+  ];
+  if (t.duty_skew_max !== undefined) targets.push({ label: "Largest timing-core duty skew", value: formatPercent(t.duty_skew_max) });
+  if (t.heatsink_min_KperW !== undefined) targets.push({ label: "Smallest acceptable heatsink", value: formatValue(t.heatsink_min_KperW, "K/W") });
+  return {
+    id: r.id,
+    page,
+    root: relativeRoot(page),
+    title: r.title,
+    summary: r.summary,
+    use: r.use ?? "",
+    notes: r.notes ?? [],
+    file: d.file,
+    targets,
+    tables: tables(d),
+    variants: d.variants.map((v) => {
+      const c = cell(v);
+      const s = v.sized.spec;
+      return { id: s.id, url: c.url, supply: formatValue(s.supply_V, "V"), current: formatValue(s.load_A, "A"), chain: chainLabel(s.chain), load: loadLabel(s.load_kind), symbol: c.symbol, word: c.word, cls: c.cls, sim: c.sim, simCls: c.simCls };
+    }),
+    counts: designCounts(d),
+    footerFile: d.file,
+  };
+}

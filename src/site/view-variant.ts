@@ -1,0 +1,98 @@
+import type { BuiltCatalogue, BuiltDesign, BuiltVariant } from "../model/catalogue.ts";
+import type { DesignProblem } from "../model/problem.ts";
+import { formatPercent, formatValue } from "../model/format.ts";
+import { orderedFigureRows, type FigureRow } from "./figures.ts";
+import { chainLabel, FEASIBILITY, loadLabel } from "./labels.ts";
+import { checkRow, partRow, type CheckRow, type PartRow } from "./parts-view.ts";
+import { availableDownloads } from "./downloads.ts";
+import { designPage, relativeRoot, variantPage } from "./paths.ts";
+import { verificationView, type VerificationView } from "./verification-view.ts";
+
+export interface Download {
+  label: string;
+  href: string; // relative to the variant page (same folder)
+  name: string;
+  type: string;
+}
+
+export interface VariantView {
+  id: string;
+  page: string;
+  root: string;
+  title: string;
+  design: { id: string; title: string; url: string; file: string };
+  spec: { label: string; value: string }[];
+  feasible: boolean;
+  verdict: { symbol: string; word: string; cls: string; reason: string };
+  alternative: { url: string; label: string; why: string } | null;
+  figures: FigureRow[];
+  schematicSvg: string;
+  parts: PartRow[];
+  checks: CheckRow[];
+  heatsink: { needed: boolean; text: string };
+  problems: { severity: string; rule: string; stage: string; path: string; message: string }[];
+  verification: VerificationView;
+  plotSvg: string;
+  cautions: string[];
+  downloads: Download[];
+  policy: string;
+  footerFile: string;
+}
+
+/**
+ * Renderer SVG goes inline into HTML: drop the XML prolog and doctype, which are only valid at the
+ * top of a standalone file. The markup itself is the renderer's and is not altered.
+ */
+export function inlineSvg(svg: string | undefined): string {
+  if (!svg) return "";
+  return svg.replace(/^\uFEFF?\s*<\?xml[^>]*\?>\s*/, "").replace(/^\s*<!DOCTYPE[^>]*>\s*/i, "").trim();
+}
+
+const SEVERITY_ORDER = { error: 0, warning: 1, note: 2 } as const;
+
+function problems(list: readonly DesignProblem[]): VariantView["problems"] {
+  return list
+    .map((p, i) => ({ p, i }))
+    .sort((a, b) => SEVERITY_ORDER[a.p.severity] - SEVERITY_ORDER[b.p.severity] || a.i - b.i)
+    .map(({ p }) => ({ severity: p.severity, rule: p.rule, stage: p.stage, path: p.path, message: p.message }));
+}
+
+export function variantView(v: BuiltVariant, d: BuiltDesign, cat: BuiltCatalogue): VariantView {
+  const s = v.sized;
+  const spec = s.spec;
+  const page = variantPage(spec.id);
+  const verdict = s.feasible ? FEASIBILITY.yes : FEASIBILITY.no;
+  const alt = s.alternative;
+  const t = spec.targets;
+  return {
+    id: spec.id,
+    page,
+    root: relativeRoot(page),
+    title: `${d.record.title}: ${formatValue(spec.supply_V, "V")}, ${formatValue(spec.load_A, "A")}, ${chainLabel(spec.chain)}, ${loadLabel(spec.load_kind)}`,
+    design: { id: d.record.id, title: d.record.title, url: designPage(d.record.id), file: d.file },
+    spec: [
+      { label: "Supply (nominal)", value: `${formatValue(spec.supply_V, "V")} DC, ±${formatPercent(t.supply_tolerance)}` },
+      { label: "Load current (rated)", value: formatValue(spec.load_A, "A") },
+      { label: "Load kind", value: loadLabel(spec.load_kind) },
+      { label: "Output chain", value: chainLabel(spec.chain) },
+      { label: "PWM frequency target", value: formatValue(t.pwm_Hz, "Hz") },
+      { label: "Duty range target", value: `${formatPercent(t.duty_min)} … ${formatPercent(t.duty_max)}` },
+      { label: "Ambient range", value: `${formatValue(t.ambient_C[0], "°C")} … ${formatValue(t.ambient_C[1], "°C")}` },
+    ],
+    feasible: s.feasible,
+    verdict: { ...verdict, reason: s.reason ?? "" },
+    alternative: alt ? { url: variantPage(alt.id), label: `${chainLabel(alt.chain)} (${alt.id})`, why: alt.why } : null,
+    figures: orderedFigureRows(s.figures),
+    schematicSvg: s.circuit ? inlineSvg(v.files.schematicSvg) : "",
+    parts: (s.circuit?.parts ?? []).map(partRow),
+    checks: s.checks.map(checkRow),
+    heatsink: { needed: s.heatsink.needed, text: s.heatsink.text },
+    problems: problems(s.problems),
+    verification: verificationView(v.verification),
+    plotSvg: inlineSvg(v.files.plotSvg),
+    cautions: s.cautions,
+    downloads: availableDownloads(v).map((f) => ({ label: f.label, href: f.name, name: f.name, type: f.type })),
+    policy: `${cat.policy.title} (${cat.policy.document})`,
+    footerFile: d.file,
+  };
+}

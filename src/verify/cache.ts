@@ -1,0 +1,59 @@
+/**
+ * Content-hash cache of measurements: `.cache/sim/<sha256>.json`. The key covers everything the
+ * measurements depend on (netlist, engine and version, measurement code version, the plan's
+ * inputs), never the predictions, which are compared afresh on every build. Written atomically
+ * (temp file + rename); an unreadable or malformed entry is treated as a miss and overwritten.
+ */
+import { createHash } from "node:crypto";
+import { mkdirSync, readFileSync, renameSync, writeFileSync } from "node:fs";
+import { join } from "node:path";
+import type { EngineName } from "./engines/types.ts";
+import { MEASURE_CODE_VERSION, type Measured } from "./plan.ts";
+import type { VerifyTarget } from "./target.ts";
+
+export const DEFAULT_CACHE_DIR = ".cache/sim";
+
+export function cacheKey(netlist: string, engine: { name: EngineName; version: string }, target: VerifyTarget): string {
+  const plan = JSON.stringify([target.highSide, target.inductive, target.tapNet, target.chainInputNet, target.switchNet, target.powerRefs, target.period_s, target.predicted["chain_threshold"]?.value ?? null]);
+  return createHash("sha256")
+    .update(netlist)
+    .update("\0")
+    .update(engine.name)
+    .update("\0")
+    .update(engine.version)
+    .update("\0")
+    .update(MEASURE_CODE_VERSION)
+    .update("\0")
+    .update(plan)
+    .digest("hex");
+}
+
+export function readCache(dir: string, key: string): Measured | null {
+  let text: string;
+  try {
+    text = readFileSync(join(dir, `${key}.json`), "utf8");
+  } catch {
+    return null;
+  }
+  try {
+    const entry = JSON.parse(text) as unknown;
+    return isMeasured(entry) ? entry : null;
+  } catch {
+    return null;
+  }
+}
+
+export function writeCache(dir: string, key: string, value: Measured): void {
+  mkdirSync(dir, { recursive: true });
+  const tmp = join(dir, `.${key}.${process.pid}.${Math.random().toString(36).slice(2)}.tmp`);
+  writeFileSync(tmp, JSON.stringify(value));
+  renameSync(tmp, join(dir, `${key}.json`));
+}
+
+function isMeasured(x: unknown): x is Measured {
+  if (typeof x !== "object" || x === null) return false;
+  const o = x as Record<string, unknown>;
+  if (typeof o["elapsed_s"] !== "number") return false;
+  if (o["ok"] === false) return typeof o["message"] === "string";
+  return o["ok"] === true && Array.isArray(o["measurements"]) && o["measurements"].every((m) => typeof m === "object" && m !== null && Number.isFinite((m as { value?: unknown }).value));
+}

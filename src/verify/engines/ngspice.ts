@@ -1,0 +1,63 @@
+/**
+ * Adapter for a native ngspice executable in batch mode: the deck goes to a temporary file,
+ * `ngspice -b -r out.raw deck.cir` writes a binary raw file, which is read back.
+ */
+import { execFileSync, execFile } from "node:child_process";
+import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { pickVectors, withSaves } from "./vectors.ts";
+import { readRawFile } from "./raw.ts";
+import { SpiceRunError, type SpiceEngine, type SimResult } from "./types.ts";
+
+export const NGSPICE_PATH = process.env["PULSEWRIGHT_NGSPICE"] ?? "/usr/bin/ngspice";
+
+export function ngspiceAvailable(path = NGSPICE_PATH): boolean {
+  return existsSync(path);
+}
+
+/** "ngspice-39" from the executable's banner. */
+export function ngspiceVersion(path = NGSPICE_PATH): string {
+  const banner = execFileSync(path, ["-v"], { encoding: "utf8", stdio: ["ignore", "pipe", "pipe"] });
+  return /ngspice-[\w.]+/.exec(banner)?.[0] ?? "ngspice-unknown";
+}
+
+export function startNgspice(path = NGSPICE_PATH): SpiceEngine {
+  if (!ngspiceAvailable(path)) throw new SpiceRunError(`native ngspice not found at ${path}`);
+  const version = ngspiceVersion(path);
+  return {
+    name: "ngspice",
+    version,
+    run: (netlist, vectors) => runNative(path, netlist, vectors),
+    close: async () => undefined,
+  };
+}
+
+async function runNative(path: string, netlist: string, vectors: string[]): Promise<SimResult> {
+  const dir = mkdtempSync(join(tmpdir(), "pulsewright-ngspice-"));
+  try {
+    const deck = join(dir, "deck.cir");
+    const raw = join(dir, "out.raw");
+    writeFileSync(deck, withSaves(netlist, vectors));
+    const log = await new Promise<string>((resolve, reject) => {
+      execFile(path, ["-b", "-r", raw, deck], { cwd: dir, maxBuffer: 8 << 20, timeout: 120_000 }, (err, out, errOut) => {
+        const text = `${out}\n${errOut}`;
+        if (err) reject(new SpiceRunError(`ngspice failed: ${firstErrors(text) || err.message}`, { cause: err }));
+        else resolve(text);
+      });
+    });
+    if (!existsSync(raw)) throw new SpiceRunError(`ngspice wrote no results: ${firstErrors(log)}`);
+    try {
+      return pickVectors(readRawFile(readFileSync(raw)), vectors);
+    } catch (err) {
+      throw new SpiceRunError(`${(err as Error).message}; ngspice said: ${firstErrors(log)}`, { cause: err });
+    }
+  } finally {
+    rmSync(dir, { recursive: true, force: true });
+  }
+}
+
+function firstErrors(log: string): string {
+  const lines = log.split("\n").filter((l) => /error|warning|too small|singular|abort/i.test(l));
+  return lines.slice(0, 4).join(" | ").slice(0, 600);
+}

@@ -1,0 +1,113 @@
+/**
+ * The run plan per variant: transients at ctrl = 0, 0.5 and 1, measured at the load, at the
+ * timing core and at the power switch. Produces plain measurements (cached); the comparison with
+ * the predictions happens afterwards (compare.ts), so changed predictions never need a re-run.
+ */
+import type { Measurement, WaveformSet } from "../model/verification.ts";
+import type { PwmTiming } from "./edges.ts";
+import type { SpiceEngine } from "./engines/types.ts";
+import { loadTiming, loadVoltage, onCurrent, runAt, switchVoltage, vec, type Run } from "./runs.ts";
+import { meanOnState, peakAfter, pwmTiming, timeAverage, upperLevel, valueAt } from "./measure.ts";
+import { plotWaveforms } from "./waveforms.ts";
+import type { VerifyTarget } from "./target.ts";
+
+/** Bumped whenever measurement code changes what it reports: part of every cache key. */
+export const MEASURE_CODE_VERSION = "verify-measure-1";
+
+export type Measured =
+  | { ok: true; measurements: Measurement[]; waveforms?: WaveformSet; elapsed_s: number }
+  | { ok: false; message: string; elapsed_s: number };
+
+export async function measureVariant(target: VerifyTarget, netlist: string, engine: SpiceEngine): Promise<Measured> {
+  const start = performance.now();
+  const elapsed = (): number => (performance.now() - start) / 1000;
+  try {
+    const mid = await runAt(target, netlist, engine, 0.5);
+    const low = await runAt(target, netlist, engine, 0);
+    const high = await runAt(target, netlist, engine, 1);
+    const { measurements, waveforms } = collect(target, low, mid, high);
+    return { ok: true, measurements, waveforms, elapsed_s: elapsed() };
+  } catch (err) {
+    return { ok: false, message: err instanceof Error ? err.message : String(err), elapsed_s: elapsed() };
+  }
+}
+
+function collect(target: VerifyTarget, low: Run, mid: Run, high: Run): { measurements: Measurement[]; waveforms: WaveformSet } {
+  const out: Measurement[] = [];
+  const put = (key: string, label: string, unit: string, value: number): void => {
+    if (Number.isFinite(value)) out.push({ key, label, unit, value });
+  };
+  const iOn_A = onCurrent(high);
+  if (!(iOn_A > 1e-4)) throw new Error(`the load never switches on at ctrl = 1 (on-current ${iOn_A} A)`);
+
+  const tMid = loadTiming(target, mid, iOn_A);
+  if (tMid.kind !== "pwm") throw new Error(`no oscillation at the load at ctrl = 0.5 (${describe(tMid)})`);
+  put("frequency_nominal", "PWM frequency at mid control", "Hz", tMid.frequency_Hz);
+  put("duty_mid", "Duty at the load, control 0.5", "", tMid.duty);
+  put("frequency_spread", "Period spread over the settled periods, control 0.5", "", tMid.spread);
+  const tap = vec(mid, `v(${target.tapNet})`);
+  put("chain_threshold", "Tap voltage at the load's turn-on (half current)", "V", mean(tMid.on.map(([r]) => valueAt(mid.t, tap, r))));
+  put("core_symmetry", "Timing core: share of the period collector A is high, control 0.5", "", coreSymmetry(mid));
+
+  for (const [run, key] of [[low, "duty_min"], [high, "duty_max"]] as const) {
+    const tm = loadTiming(target, run, iOn_A);
+    if (tm.kind === "too-few") throw new Error(`too few settled periods at ctrl = ${run.ctrl} (${tm.periods})`);
+    put(key, `Duty at the load, control ${run.ctrl}`, "", tm.duty);
+    if (tm.kind === "pwm") put(`frequency_ctrl${run.ctrl}`, `PWM frequency at control ${run.ctrl}`, "Hz", tm.frequency_Hz);
+  }
+
+  // Rated-load figures at ctrl = 1: the highest duty, where the power device runs hottest.
+  const tHigh = loadTiming(target, high, iOn_A);
+  const on: [number, number][] = tHigh.kind === "pwm" ? tHigh.on : [[high.from_s, high.tEnd_s]];
+  const [p0, p1] = tHigh.kind === "pwm" ? [tHigh.from_s, tHigh.to_s] : [high.from_s, high.tEnd_s];
+  const vSw = switchVoltage(target, high);
+  put("load_on_voltage", "Load voltage when on, control 1", "V", meanOnState(high.t, loadVoltage(target, high), on));
+  put("load_current_on", "Load current when on, control 1", "A", meanOnState(high.t, vec(high, "i(vsense)"), on));
+  put("switch_on_voltage", "Switch voltage when on, control 1", "V", meanOnState(high.t, vSw, on));
+  put("device_dissipation", "Power device average dissipation, control 1", "W", timeAverage(high.t, devicePower(target, high, vSw), p0, p1));
+  if (target.inductive) put("switch_peak_voltage", "Peak switch voltage at turn-off", "V", peakAfter(high.t, vSw, high.from_s));
+  return { measurements: out, waveforms: plotWaveforms(target, mid, tMid) };
+}
+
+/**
+ * Instantaneous power of the power device(s): the engine's own `@q[p]` when the devices are
+ * primitives; otherwise switch voltage × load current while the freewheel diode is off (the load
+ * current is the device current then; low side: sw ≤ vbus, high side: sw ≥ 0).
+ */
+function devicePower(target: VerifyTarget, run: Run, vSw: Float64Array): Float64Array {
+  const p = new Float64Array(run.t.length);
+  if (run.powerVectors.length > 0) {
+    for (const name of run.powerVectors) vec(run, name).forEach((x, k) => (p[k] = p[k]! + x));
+    return p;
+  }
+  const i = vec(run, "i(vsense)");
+  const bus = vec(run, "v(vbus)");
+  const sw = vec(run, `v(${target.switchNet})`);
+  for (let k = 0; k < p.length; k++) {
+    const diodeOn = target.highSide ? sw[k]! < 0 : sw[k]! > bus[k]!;
+    p[k] = diodeOn ? 0 : vSw[k]! * i[k]!;
+  }
+  return p;
+}
+
+/** t_high(A) / (t_high(A) + t_high(B)); 0.5 = symmetric. Each collector's level is its own mid-swing. */
+function coreSymmetry(run: Run): number {
+  const highTime = (net: string): number => {
+    const y = vec(run, `v(${net})`);
+    const lo = Math.min(...y.subarray(y.length >> 1));
+    const hi = upperLevel(run.t, y, run.from_s, run.tEnd_s);
+    const tm = pwmTiming(run.t, y, (lo + hi) / 2, { hyst: 0.05 * (hi - lo), from_s: run.from_s });
+    return tm.kind === "pwm" ? tm.duty * tm.period_s : Number.NaN;
+  };
+  const a = highTime("ca");
+  const b = highTime("cb");
+  return a / (a + b);
+}
+
+function mean(xs: number[]): number {
+  return xs.length > 0 ? xs.reduce((s, x) => s + x, 0) / xs.length : Number.NaN;
+}
+
+function describe(t: PwmTiming): string {
+  return t.kind === "constant" ? `load stays ${t.duty === 1 ? "on" : "off"}` : `${t.kind === "too-few" ? t.periods : "?"} settled periods`;
+}

@@ -1,0 +1,71 @@
+/**
+ * What the verifier needs to know about a variant, taken from its sized form: which nets to probe,
+ * which side the switch is on, whether the load is inductive, which parts are the power device,
+ * and the predicted figures to compare with. Plain data, so it can cross to a worker thread.
+ */
+import type { SizedVariant } from "../model/sized.ts";
+
+export interface Predicted {
+  value: number;
+  label: string;
+  unit: string;
+}
+
+export interface VerifyTarget {
+  id: string;
+  /** High-side switch (load from `sw` to ground), else low side (load from `vbus` to `sw`). */
+  highSide: boolean;
+  /** Load with inductance (motor): its current keeps flowing in the freewheel diode when off. */
+  inductive: boolean;
+  tapNet: string;
+  /** The timing collector the chain does not tap. */
+  otherNet: string;
+  chainInputNet: string;
+  switchNet: string;
+  /** Circuit-model refs of the power device(s): Q_POWER, or every stage of a Darlington stack. */
+  powerRefs: string[];
+  /** Predicted figures by key (KEY_FIGURES and any others the engine produced). */
+  predicted: Record<string, Predicted>;
+  /** Predicted PWM period (1 / frequency_nominal); sets the transient's length and step. */
+  period_s: number;
+}
+
+const POWER_ROLES = new Set(["Q_POWER", "Q_D1", "Q_D2", "Q_D3"]);
+
+/** Null when the variant has no circuit or no frequency prediction: nothing to simulate. */
+export function targetFromSized(sized: SizedVariant): VerifyTarget | null {
+  const c = sized.circuit;
+  if (c === null) return null;
+  const predicted: Record<string, Predicted> = {};
+  for (const f of sized.figures) predicted[f.key] = { value: f.value, label: f.label, unit: f.unit };
+  const f = predicted["frequency_nominal"]?.value;
+  if (f === undefined || !(f > 0) || !Number.isFinite(f)) return null;
+  const load = c.parts.find((p) => p.role === "LOAD");
+  return {
+    id: sized.spec.id,
+    highSide: sized.spec.chain === "bjt-driver-pnp",
+    inductive: load !== undefined && (load.kind === "motor" || (load.spice?.l_H ?? 0) > 0),
+    tapNet: c.tapNet,
+    otherNet: c.tapNet === "ca" ? "cb" : "ca",
+    chainInputNet: c.chainInputNet,
+    switchNet: c.switchNet,
+    powerRefs: c.parts.filter((p) => POWER_ROLES.has(p.role)).map((p) => p.ref),
+    predicted,
+    period_s: 1 / f,
+  };
+}
+
+/**
+ * The netlist's element name for a circuit-model ref (lower-case), when it is a primitive
+ * transistor (Q… BJT, M… MOSFET) whose power `@name[p]` the engine can report. The renderer may
+ * prefix a letter (a MOSFET `Q3` becomes `MQ3`); a subcircuit instance (X…) gives null.
+ */
+export function transistorElement(netlist: string, ref: string): string | null {
+  const r = ref.toLowerCase();
+  for (const line of netlist.split("\n")) {
+    const name = line.trim().split(/\s+/)[0]?.toLowerCase() ?? "";
+    if (name !== r && !(name.length === r.length + 1 && name.endsWith(r))) continue;
+    if (name.startsWith("q") || name.startsWith("m")) return name;
+  }
+  return null;
+}

@@ -1,0 +1,72 @@
+import { describe, expect, it } from "vitest";
+import { chooseDevices } from "../../../src/engine/devices/choose.ts";
+import { DEVICE_ROLES, type DesignRecord } from "../../../src/model/design.ts";
+import { EngineMisuseError } from "../../../src/model/problem.ts";
+import { readLibrary } from "./read-library.ts";
+
+const lib = readLibrary();
+
+/** A demo record (invented greenhouse scenario); only targets.pwm_Hz and devices matter here. */
+function record(pwm_Hz: number, devices?: DesignRecord["devices"]): DesignRecord {
+  const r: DesignRecord = {
+    id: "circulation-fan-test",
+    title: "Circulation fan (test)",
+    summary: "test record",
+    axes: { supply_V: [12, 24], load_A: [0.5, 2], chain: ["bjt-single"], load_kind: ["motor"] },
+    targets: { pwm_Hz, duty_min: 0.2, duty_max: 0.8, ambient_C: [-10, 45], supply_tolerance: 0.1 },
+  };
+  if (devices !== undefined) r.devices = devices;
+  return r;
+}
+
+describe("chooseDevices: defaults by current and voltage", () => {
+  it("resolves every role to a class of the right family", () => {
+    const d = chooseDevices(record(20e3), lib, 12, 1);
+    for (const role of DEVICE_ROLES) expect(d[role]).toBeDefined();
+    expect(d.timing_npn.family).toBe("npn");
+    expect(d.power_pnp.family).toBe("pnp");
+    expect(d.mosfet_logic.family).toBe("nmos");
+    expect(d.gate_zener.family).toBe("zener");
+  });
+
+  // Hand arithmetic at 45 °C maximum ambient, full duty, limit min(125 °C, T_J,max − 40 K):
+  it.each([
+    [0.1, "npn-small-signal"], // 0.2 A × 0.75 = 0.15 A ≥ 0.1 A; 0.1 A × 0.425 V × 200 K/W = 8.5 K → 53.5 °C ≤ 110 °C
+    [0.25, "npn-medium"], // TO-92 too small in current; 0.25 A × 0.5 V × 437.5 K/W = 54.7 K → 99.7 °C ≤ 125 °C
+    [0.5, "npn-power-to220"], // TO-18: 0.5 A × 1.0 V × 437.5 K/W = 219 K → far over; TO-220 may take a heatsink
+    [4, "npn-power-to220"], // 6 A × 0.75 = 4.5 A
+    [8, "npn-power-to3"], // 15 A × 0.75 = 11.25 A
+  ])("power_npn at %s A, 24 V → %s (selection headroom 75 % and free-air T_J; common practice)", (load, id) => {
+    expect(chooseDevices(record(20e3), lib, 24, load).power_npn.id).toBe(id);
+  });
+
+  it.each([
+    [1, "npn-small-signal"], // 0.1 A × 1 V × 200 K/W = 20 K → 65 °C
+    [2, "npn-power-to220"], // 0.2 A: TO-92 over current; TO-18 0.2 W × 437.5 K/W = 87.5 K → 132.5 °C > 125 °C
+  ])("driver_npn for a %s A load → %s (base drive ≈ I/10 at forced gain 10, free air)", (load, id) => {
+    expect(chooseDevices(record(20e3), lib, 12, load).driver_npn.id).toBe(id);
+  });
+
+  it("takes the largest class when none fits, leaving the verdict to the engine's stress checks", () => {
+    expect(chooseDevices(record(20e3), lib, 24, 25).power_npn.id).toBe("npn-power-to3");
+  });
+
+  it("freewheel diode: no standard-recovery rectifier at 20 kHz PWM; allowed at slow PWM", () => {
+    expect(chooseDevices(record(20e3), lib, 12, 0.3).freewheel_diode.id).toBe("diode-schottky-3a");
+    expect(chooseDevices(record(200), lib, 12, 0.3).freewheel_diode.id).toBe("diode-rectifier-1a");
+    expect(chooseDevices(record(20e3), lib, 24, 5).freewheel_diode.id).toBe("diode-schottky-10a");
+  });
+
+  it("a record's binding wins over the default", () => {
+    expect(chooseDevices(record(20e3, { power_npn: "npn-power-to3" }), lib, 12, 0.1).power_npn.id).toBe("npn-power-to3");
+  });
+
+  it("a missing or wrong-family class is engine misuse, naming the id", () => {
+    expect(() => chooseDevices(record(20e3, { power_npn: "npn-made-up" }), lib, 12, 1)).toThrow(/npn-made-up/);
+    expect(() => chooseDevices(record(20e3, { power_npn: "nmos-logic" }), lib, 12, 1)).toThrow(EngineMisuseError);
+  });
+
+  it("rejects a non-finite supply", () => {
+    expect(() => chooseDevices(record(20e3), lib, Number.NaN, 1)).toThrow(/supply_V/);
+  });
+});

@@ -1,0 +1,42 @@
+/** `pulsewright check` (src/cli/check.ts): prints every issue, then one summary line; exit code 0 or 1. */
+import { readFile } from "node:fs/promises";
+import { join } from "node:path";
+import { afterAll, describe, expect, it } from "vitest";
+import { runCheck } from "../../src/cli/check.ts";
+import { FIXTURES, cleanProjects, makeProject } from "./project.ts";
+
+afterAll(cleanProjects);
+
+function capture(): { log: (s: string) => void; error: (s: string) => void; out: string[]; err: string[] } {
+  const out: string[] = [];
+  const err: string[] = [];
+  return { log: (s) => out.push(s), error: (s) => err.push(s), out, err };
+}
+
+describe("runCheck", () => {
+  it("valid records: exit 0 and a summary of designs, device classes and variants", async () => {
+    const root = await makeProject([{ path: "designs/valid-fixture.json", content: await readFile(join(FIXTURES, "good", "valid-fixture.json")) }]);
+    const io = capture();
+    expect(await runCheck(root, io)).toBe(0);
+    expect(io.err).toEqual([]);
+    // 2 supplies × 2 currents × 2 chains × 1 load kind
+    expect(io.out).toEqual(["check passed: 1 design, 6 device classes, 8 variants would be built (policy fixture-policy from designs/policies/default.json)"]);
+  });
+
+  it("bad records: exit 1, one line per issue, then the count", async () => {
+    const files = await Promise.all(["zero-supply", "duty-reversed"].map(async (n) => ({ path: `designs/${n}.json`, content: await readFile(join(FIXTURES, "bad", `${n}.json`)) })));
+    const io = capture();
+    expect(await runCheck(await makeProject(files), io)).toBe(1);
+    expect(io.err.length).toBe(3);
+    expect(io.err[0]).toMatch(/^designs\/duty-reversed\.json:\d+:\d+  \/targets\/duty_min  duty_min 0\.8 is not below duty_max 0\.2 — /);
+    expect(io.err[1]).toMatch(/^designs\/zero-supply\.json:7:7  \/axes\/supply_V\/0  0 V is below the smallest allowed, 3 V — use a value from 3 to 60 V: pulsewright covers low-voltage DC only$/);
+    expect(io.err[2]).toBe("check failed: 2 issues in 2 files");
+  });
+
+  it("a policy file named by option is used and reported", async () => {
+    const root = await makeProject([{ path: "designs/policies/strict.json", content: '{ "id": "strict", "title": "Strict", "document": "test" }' }]);
+    const io = capture();
+    expect(await runCheck(root, io, { policy: "designs/policies/strict.json" })).toBe(0);
+    expect(io.out[0]).toMatch(/policy strict from designs\/policies\/strict\.json/);
+  });
+});

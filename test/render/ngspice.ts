@@ -1,0 +1,43 @@
+/** Test helper: run a netlist in native ngspice (batch mode) when it is installed. */
+import { spawnSync } from "node:child_process";
+import { existsSync, mkdtempSync, rmSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+
+export const NGSPICE = "/usr/bin/ngspice";
+export const hasNgspice = existsSync(NGSPICE);
+if (!hasNgspice) console.warn(`render tests: ${NGSPICE} not found; SPICE checks are skipped`);
+
+export function runNgspice(text: string): string {
+  const dir = mkdtempSync(join(tmpdir(), "pw-render-"));
+  try {
+    const file = join(dir, "in.cir");
+    writeFileSync(file, text);
+    const r = spawnSync(NGSPICE, ["-b", file], { encoding: "utf8", timeout: 60_000 });
+    const out = `${r.stdout}\n${r.stderr}`;
+    if (r.status !== 0 || /\berror\b/i.test(out)) throw new Error(`ngspice failed (${r.status}):\n${out}`);
+    return out;
+  } finally {
+    rmSync(dir, { recursive: true, force: true });
+  }
+}
+
+/** Value of a `.meas` result line "name = value". */
+export function meas(out: string, name: string): number {
+  const m = new RegExp(`^${name}\\s*=\\s*([-0-9.e+]+)`, "m").exec(out);
+  if (!m) throw new Error(`no .meas result "${name}" in:\n${out}`);
+  return Number(m[1]);
+}
+
+/** Last data row of a `.print dc` table: the printed columns after index and sweep. */
+export function lastRow(out: string): number[] {
+  const rows = out.split("\n").filter((l) => /^\d+\t/.test(l));
+  const last = rows.at(-1);
+  if (!last) throw new Error(`no data rows in:\n${out}`);
+  return last.trim().split(/\s+/).slice(2).map(Number);
+}
+
+/** Appends test-only statements before `.end` (never part of a published netlist). */
+export function withStatements(netlist: string, lines: string[]): string {
+  return netlist.replace(/^\.end\n?$/m, `${lines.join("\n")}\n.end\n`);
+}
