@@ -70,7 +70,7 @@ function tables(d: BuiltDesign): MatrixTable[] {
   const loads = [...ax.load_kind.filter((k) => loadsPresent.has(k)), ...[...loadsPresent].filter((k) => !(ax.load_kind as string[]).includes(k)).sort()];
   return loads.map((load) => ({
     loadKind: load,
-    caption: loads.length > 1 ? `Variants for ${loadLabel(load).toLowerCase()} loads` : `Variants (${loadLabel(load).toLowerCase()} load)`,
+    caption: loads.length > 1 ? `Variants for this load kind: ${loadLabel(load)}` : `Variants (load kind: ${loadLabel(load)})`,
     chains: chains.map((c) => ({ key: c, label: chainLabel(c) })),
     rows: supplies.flatMap((s) =>
       currents.map((i) => ({
