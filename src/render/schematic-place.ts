@@ -11,8 +11,8 @@ import { probe } from "./symbols/probe.ts";
 
 export const CELL_W = 130;
 export const CELL_H = 120;
-export const RAIL_Y = 40;
-export const TOP_Y = 70; // top of row 0
+export const RAIL_Y = 50;
+export const TOP_Y = 80; // top of row 0
 export const LEFT_X = 70;
 export const FONT_PX = 12;
 export const LINE_PX = 14;

@@ -15,6 +15,8 @@ import { fin, finish, idFragment, newCanvas } from "./svg-doc.ts";
 export const ACCENT = "#005f73";
 const FONT = "DejaVu Sans, Arial, sans-serif";
 
+const boxAttr = (b: { x: number; y: number; w: number; h: number }) => `${b.x} ${b.y} ${b.w} ${b.h}`;
+
 function transformOf(p: Placed): string {
   const parts = [`translate(${fin(p.cx, p.key)} ${fin(p.cy, p.key)})`];
   if (p.slot.rot) parts.push(`rotate(${p.slot.rot})`);
@@ -41,12 +43,16 @@ export function renderSchematic(circuit: CircuitModel, meta: { title: string; id
   const parts = c.group().stroke({ color: INK, width: STROKE_PX, linecap: "round", linejoin: "round" }).fill("none");
   for (const p of placed) {
     const pins = Object.entries(p.nets).map(([k, v]) => `${k}=${v}`).join(" ");
-    const g = parts.group().attr({ "data-ref": p.key, "data-pins": pins, transform: transformOf(p) });
+    const at = Object.entries(p.pins).map(([k, v]) => `${k}:${v[0]},${v[1]}`).join(" ");
+    const g = parts.group().attr({ "data-ref": p.key, "data-pins": pins, "data-pin-at": at, "data-box": boxAttr(p.box), transform: transformOf(p) });
     if (p.part) g.attr({ "data-kind": p.part.kind, "data-role": p.part.role });
     else g.attr({ "data-instrument": p.key });
     p.sym.draw(g);
   }
-  for (const gp of routing.grounds) ground.draw(parts.group().attr({ "data-ground": "", transform: `translate(${gp[0]} ${gp[1]})` }));
+  for (const gp of routing.grounds) {
+    const box = { x: gp[0] - 10, y: gp[1], w: 20, h: 20 };
+    ground.draw(parts.group().attr({ "data-ground": `${gp[0]},${gp[1]}`, "data-box": boxAttr(box), transform: `translate(${gp[0]} ${gp[1]})` }));
+  }
   const vcc = placed.find((p) => p.nets.a === "vcc" || p.nets.p === "vcc");
   const vccPin = vcc && Object.entries(vcc.nets).find(([, n]) => n === "vcc");
   if (vcc && vccPin) {
@@ -58,14 +64,14 @@ export function renderSchematic(circuit: CircuitModel, meta: { title: string; id
   const labels = c.group().fill(INK);
   for (const p of placed) {
     // Plain <text>/<tspan> elements: svg.js's text helpers measure fonts, which is slow and not needed.
-    const t = labels.element("text").attr({ "data-label-for": p.key });
+    const t = labels.element("text").attr({ "data-label-for": p.key, "font-size": FONT_PX });
     p.label.lines.forEach((line, i) => t.element("tspan").attr({ x: p.label.box.x, y: p.label.box.y + (i + 1) * LINE_PX - 3 }).words(line));
     if (!p.part) t.attr({ "font-style": "italic" });
   }
   for (const f of routing.flags) {
-    const g = c.group().attr({ "data-flag": f.net, "data-net": f.net });
+    const g = c.group().attr({ "data-flag": `${f.at[0]},${f.at[1]}`, "data-net": f.net, "data-box": boxAttr(f.box) });
     g.rect(f.box.w, f.box.h).move(f.box.x, f.box.y).fill("#fff").stroke({ color: ACCENT, width: 1.5 });
-    g.element("text").words(f.net).attr({ x: f.box.x + 4, y: f.box.y + f.box.h - 4, fill: ACCENT });
+    g.element("text").words(f.net).attr({ "font-size": FONT_PX, x: f.box.x + 4, y: f.box.y + f.box.h - 4, fill: ACCENT });
     g.circle(5).center(f.at[0], f.at[1]).fill(ACCENT);
   }
   c.element("text").words(meta.title).attr({ x: 20, y: height - 18, "font-size": 14, "font-weight": "bold", "data-caption": "", fill: INK });

@@ -1,5 +1,5 @@
 import type { Comparison, Verification } from "../model/verification.ts";
-import { formatPercent, formatValue } from "../model/format.ts";
+import { formatPercent } from "../model/format.ts";
 import { displayNumber } from "./figures.ts";
 import { SIM_WORDS } from "./labels.ts";
 
@@ -67,7 +67,3 @@ export function verificationView(v: Verification | undefined): VerificationView 
   };
 }
 
-/** Seconds shown for the record of how long a simulation took (display only). */
-export function elapsedText(v: Verification | undefined): string {
-  return v?.elapsed_s !== undefined ? formatValue(v.elapsed_s, "s") : "";
-}

@@ -32,7 +32,7 @@ export interface PoolOptions {
   engine?: EngineName;
   workers?: number;
   cacheDir?: string;
-  onProgress?: (p: PoolProgress) => void;
+  onProgress?: ((p: PoolProgress) => void) | undefined;
 }
 
 interface Pending {
@@ -42,7 +42,7 @@ interface Pending {
   key: string;
 }
 
-export async function verifyAll(jobs: VerifyJob[], opts: PoolOptions = {}): Promise<Map<string, Verification>> {
+export async function verifyAll(jobs: VerifyJob[], opts: PoolOptions): Promise<Map<string, Verification>> {
   const name = chooseEngine(opts.engine);
   const eng = { name, version: engineVersion(name) };
   const dir = opts.cacheDir ?? DEFAULT_CACHE_DIR;

@@ -1,0 +1,79 @@
+/**
+ * Stage "thermal": junction temperature of every semiconductor free-standing at the highest
+ * ambient (T_J = T_A + P·R_θJA, JEDEC JESD51), the derated limit from the policy, and for the
+ * hottest device over its limit the heatsink it needs:
+ *   R_θSA ≤ (T_J,limit − T_A)/P − R_θJC − R_θCS  (JESD51 definitions).
+ * Not feasible when that is below targets.heatsink_min_KperW, or when the package takes no heatsink.
+ */
+import type { Figure } from "../../model/figure.ts";
+import type { DesignProblem } from "../../model/problem.ts";
+import type { StressCheck } from "../../model/derating.ts";
+import type { HeatsinkVerdict } from "../contracts.ts";
+import { checkTj, tjLimit_C } from "../shared/derating.ts";
+import { figure, problem } from "../shared/figures.ts";
+import { heatsinkMax_KperW, junctionTemp_C, powerRatingAt_W, rthCsFor_KperW } from "../shared/thermal.ts";
+import { checkStress } from "../shared/derating.ts";
+import { SRC } from "../shared/sources.ts";
+import type { Ctx } from "./context.ts";
+import type { DeviceLoss } from "./chains/types.ts";
+
+export interface ThermalResult {
+  figures: Figure[];
+  problems: DesignProblem[];
+  checks: StressCheck[];
+  heatsink: HeatsinkVerdict;
+  /** role → (power, free-air T_J) for the parts' stress. */
+  perRole: Map<string, { p_W: number; tj_C: number }>;
+}
+
+/** Packages a heatsink can be bolted to (common practice). */
+const SINKABLE = new Set(["TO-220", "TO-3", "TO-126", "TO-247"]);
+
+export function thermalStage(ctx: Ctx, losses: DeviceLoss[]): ThermalResult {
+  const pol = ctx.spec.policy;
+  const ta = ctx.taMax_C;
+  const figures: Figure[] = [];
+  const problems: DesignProblem[] = [];
+  const checks: StressCheck[] = [];
+  const perRole = new Map<string, { p_W: number; tj_C: number }>();
+  let heatsink: HeatsinkVerdict = { needed: false, text: "no heatsink needed" };
+  let worstMargin = Infinity;
+  for (const l of losses) {
+    const tj = junctionTemp_C(ta, l.p_W, l.dev.rth_ja_KperW);
+    const limit = tjLimit_C(pol, l.family, l.dev.tj_max_C);
+    perRole.set(l.role, { p_W: l.p_W, tj_C: tj });
+    if (l.isPower) {
+      figures.push(figure("device_dissipation", "Power device dissipation (worst duty, max current)", l.p_W, "W", "thermal", "P = P_cond + P_sw at D_max, I_max, V_cc,max, f_max", SRC.DERIVED));
+      figures.push(figure("tj_free_air", "Power device T_J without heatsink (max ambient)", tj, "°C", "thermal", "T_J = T_A,max + P·R_θJA", SRC.JESD51));
+    }
+    if (tj <= limit) {
+      checks.push(checkTj(l.role, tj, l.dev.tj_max_C, pol, l.family));
+      const pRate = powerRatingAt_W(l.dev.ptot_W, l.dev.ptot_at, l.dev.tj_max_C, ta);
+      if (l.dev.ptot_at === "ambient" && pRate > 0) checks.push(checkStress(l.role, "power", l.p_W, pRate, "W", pol[l.family].power, pol.marginal_above));
+      continue;
+    }
+    const rJc = l.dev.rth_jc_KperW;
+    const canSink = SINKABLE.has(l.dev.package) && rJc !== undefined;
+    const rSa = canSink ? heatsinkMax_KperW(limit, ta, l.p_W, rJc, rthCsFor_KperW(l.dev.package)) : -1;
+    const tjSink = canSink ? junctionTemp_C(ta, l.p_W, rJc + rthCsFor_KperW(l.dev.package) + Math.max(rSa, 0)) : tj;
+    checks.push(checkTj(l.role, canSink && rSa > 0 ? tjSink : tj, l.dev.tj_max_C, pol, l.family));
+    const margin = rSa;
+    if (margin < worstMargin) {
+      worstMargin = margin;
+      const minOk = ctx.spec.targets.heatsink_min_KperW;
+      const what = `${l.role} (${l.dev.package}) dissipates ${l.p_W.toFixed(2)} W: ${tj.toFixed(0)} °C free-standing at ${ta} °C ambient, over the ${limit.toFixed(0)} °C limit`;
+      if (!canSink) {
+        heatsink = { needed: true, text: `not feasible: ${l.dev.package} cannot take a heatsink` };
+        problems.push(problem("thermal", `/parts/${l.role}`, "tj-over-limit", "error", `${what}; its package takes no heatsink. Use a larger device class or a MOSFET chain.`, { limit, actual: tj, unit: "°C" }));
+      } else if (rSa < minOk) {
+        heatsink = { needed: true, rth_sa_max_KperW: Math.max(rSa, 0), text: rSa > 0 ? `not feasible: needs ≤ ${rSa.toFixed(2)} K/W` : "not feasible: no heatsink is enough" };
+        problems.push(problem("thermal", `/parts/${l.role}`, "heatsink-too-small", "error", `${what}; needs a heatsink ≤ ${Math.max(rSa, 0).toFixed(2)} K/W, below the ${minOk} K/W this design accepts. Use a MOSFET chain.`, { limit: minOk, actual: Math.max(rSa, 0), unit: "K/W" }));
+      } else {
+        heatsink = { needed: true, rth_sa_max_KperW: rSa, text: `heatsink ≤ ${rSa.toFixed(1)} K/W` };
+        problems.push(problem("thermal", `/parts/${l.role}`, "heatsink-needed", "warning", `${what}; mount it on a heatsink of ≤ ${rSa.toFixed(1)} K/W (with grease). Hot surface.`, { limit: rSa, unit: "K/W" }));
+      }
+      if (rSa > 0) figures.push(figure("heatsink_rth_sa_max", "Largest heatsink thermal resistance allowed", rSa, "K/W", "thermal", "R_θSA ≤ (T_J,limit − T_A)/P − R_θJC − R_θCS", SRC.JESD51));
+    }
+  }
+  return { figures, problems, checks, heatsink, perRole };
+}

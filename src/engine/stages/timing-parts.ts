@@ -1,0 +1,87 @@
+/**
+ * Parts of the timing and duty stages with their ratings and worst-case stresses
+ * (docs/topologies.md roles and nets).
+ */
+import type { BjtClass, DiodeClass } from "../../model/device.ts";
+import type { Part } from "../../model/circuit.ts";
+import type { DesignProblem } from "../../model/problem.ts";
+import type { StressCheck } from "../../model/derating.ts";
+import { checkStress } from "../shared/derating.ts";
+import { hfeMin, vceSat } from "../shared/gain.ts";
+import { capacitor, diode, resistor, transistor } from "../../circuit/parts.ts";
+import type { CollectorLoad } from "./astable.ts";
+import { type Ctx, POT_TOLERANCE } from "./context.ts";
+import type { CoreValues } from "./core-model.ts";
+import type { TapDesign } from "./tap.ts";
+import type { WorstCase } from "./timing-search.ts";
+
+/** Capacitor voltage ratings, V (common practice). */
+export const CAP_RATINGS_V = [16, 25, 35, 50, 63, 100, 250] as const;
+/** Small linear potentiometer full-track rating, W (common practice). */
+export const POT_RATING_W = 0.25;
+
+export function capRating_V(ctx: Ctx, stress_V: number): number {
+  return CAP_RATINGS_V.find((r) => stress_V <= r * ctx.spec.policy.capacitor.voltage.factor) ?? 250;
+}
+
+export function timingParts(ctx: Ctx, q: BjtClass, db: DiodeClass, v: CoreValues, tap: TapDesign, balance: CollectorLoad | undefined, balanceDiode: boolean, w: WorstCase, vOn_V: number): { parts: Part[]; problems: DesignProblem[]; checks: StressCheck[]; loss_W: number } {
+  const pol = ctx.spec.policy;
+  const tol = ctx.rTol;
+  const vMax = ctx.vMax_V;
+  const iCmax = vMax / (v.rC_ohm * (1 - tol));
+  // Peak base-resistor current: at the start of an off phase the base node sits at V_on − V_swing.
+  const iBpk = (2 * vMax - vOn_V) / (v.rEnd_ohm * (1 - tol));
+  const iQpk = iCmax + iBpk;
+  const gain = hfeMin(q, iCmax, ctx.taMin_C);
+  const baseA = v.diodes ? "na" : "ba";
+  const baseB = v.diodes ? "nb" : "bb";
+  const built = [
+    resistor("timing", "RC_A", v.rC_ohm, { a: "vbus", b: "ca" }, (vMax * vMax) / (v.rC_ohm * (1 - tol)), pol, "collector resistor A"),
+    resistor("timing", "RC_B", v.rC_ohm, { a: "vbus", b: "cb" }, (vMax * vMax) / (v.rC_ohm * (1 - tol)), pol, "collector resistor B"),
+    resistor("duty", "RB_A", v.rEnd_ohm, { a: "pa", b: baseA }, iBpk * iBpk * v.rEnd_ohm * (1 + tol), pol, "end stop A: minimum duty and maximum base current"),
+    resistor("duty", "RB_B", v.rEnd_ohm, { a: "pb", b: baseB }, iBpk * iBpk * v.rEnd_ohm * (1 + tol), pol, "end stop B"),
+  ];
+  const parts: Part[] = built.map((b) => b.part);
+  const checks: StressCheck[] = built.flatMap((b) => b.checks);
+  const problems: DesignProblem[] = built.flatMap((b) => b.problems);
+  for (const side of ["A", "B"] as const) {
+    const c = side === "A" ? "ca" : "cb";
+    parts.push(transistor("timing", `Q_${side}`, q, gain, { c, b: side === "A" ? "ba" : "bb", e: "0" }, { voltage_V: vMax, current_A: iQpk }));
+    checks.push(checkStress(`Q_${side}`, "current", iQpk, q.ic_max_A, "A", pol.bjt.current, pol.marginal_above));
+    checks.push(checkStress(`Q_${side}`, "voltage", vMax, q.vceo_V, "V", pol.bjt.voltage, pol.marginal_above));
+  }
+  const cRated = capRating_V(ctx, vMax);
+  parts.push(capacitor("timing", "CT_A", v.c_F, "E12", ctx.cTol, cRated, vMax, { a: "ca", b: baseB }, false, "timing, couples collector A into base B"));
+  parts.push(capacitor("timing", "CT_B", v.c_F, "E12", ctx.cTol, cRated, vMax, { a: "cb", b: baseA }, false, "timing, couples collector B into base A"));
+  checks.push(checkStress("CT_A", "voltage", vMax, cRated, "V", pol.capacitor.voltage, pol.marginal_above));
+  if (v.diodes) {
+    for (const side of ["A", "B"] as const) {
+      const n = side === "A" ? "na" : "nb";
+      parts.push(diode("timing", `DB_${side}`, db, { anode: n, cathode: side === "A" ? "ba" : "bb" }, { voltage_V: vMax, current_A: iBpk }, "blocks B–E reverse breakdown"));
+      checks.push(checkStress(`DB_${side}`, "voltage", vMax, db.vrrm_V, "V", pol.diode.voltage, pol.marginal_above));
+    }
+  }
+  if (balance !== undefined) {
+    const untapped = tap.tapNet === "ca" ? "cb" : "ca";
+    const i = (vMax - balance.v_V) / ((v.rC_ohm + balance.r_ohm) * (1 - tol));
+    const rb = resistor("timing", "RBAL", balance.r_ohm, { a: untapped, b: balanceDiode ? "nbal" : "0" }, i * i * balance.r_ohm * (1 + tol), pol, "balances the loading of the tapped collector");
+    parts.push(rb.part); checks.push(...rb.checks); problems.push(...rb.problems);
+    if (balanceDiode) {
+      parts.push(diode("timing", "DBAL", db, { anode: "nbal", cathode: "0" }, { voltage_V: 1, current_A: i }, "mimics the chain's V_BE"));
+      checks.push(checkStress("DBAL", "current", i, db.if_avg_A, "A", pol.diode.current, pol.marginal_above));
+    }
+  }
+  // Pot: the full-track rating allows I ≤ √(P/R) in any part of the track (common practice).
+  const iPot = iBpk;
+  const iPotRating = Math.sqrt(POT_RATING_W / (v.pot_ohm * (1 - POT_TOLERANCE)));
+  parts.push({
+    ref: "", kind: "potentiometer", stage: "duty", role: "RV_DUTY", value: v.pot_ohm, unit: "Ω", tolerance: POT_TOLERANCE,
+    description: `Linear potentiometer, ${POT_RATING_W} W — duty control (wiper to the supply)`,
+    rating: { power_W: POT_RATING_W, current_A: iPotRating }, stress: { current_A: iPot, power_W: iPot * iPot * v.pot_ohm }, pins: { a: "pa", w: "vbus", b: "pb" },
+  });
+  checks.push(checkStress("RV_DUTY", "current", iPot, iPotRating, "A", pol.resistor.power, pol.marginal_above));
+  void w;
+  // Each timing transistor: I_C·V_CE(sat) while on (≤ 100 % of the time) + base drive (conservative).
+  const loss_W = iCmax * vceSat(q, iCmax) + iBpk * vOn_V;
+  return { parts, problems, checks, loss_W };
+}

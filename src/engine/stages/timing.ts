@@ -1,0 +1,122 @@
+/**
+ * Stage "timing" + "duty": the astable core with its potentiometer duty control, B–E protection
+ * and symmetry balancing. Decides base diodes (reverse V_EB vs the derated V_EBO), balancing
+ * (skew from the tap's loading vs targets.duty_skew_max), runs the value search, and reports parts,
+ * figures and problems. Formulas: see astable.ts and core-model.ts.
+ */
+import type { BjtClass, DiodeClass } from "../../model/device.ts";
+import type { Figure } from "../../model/figure.ts";
+import type { Part } from "../../model/circuit.ts";
+import type { DesignProblem } from "../../model/problem.ts";
+import type { StressCheck } from "../../model/derating.ts";
+import { checkStress } from "../shared/derating.ts";
+import { nearest } from "../shared/e-series.ts";
+import { figure, problem } from "../shared/figures.ts";
+import { vbeOn, vceSat } from "../shared/gain.ts";
+import { SRC } from "../shared/sources.ts";
+import { evaluateCore, lnFactor, type CollectorLoad } from "./astable.ts";
+import type { Ctx } from "./context.ts";
+import { type CoreValues, NOMINAL_K, diodeVf_V, evalCore } from "./core-model.ts";
+import { type Search, searchCore } from "./timing-search.ts";
+import type { TapDesign } from "./tap.ts";
+import type { ChainPlan } from "./chains/types.ts";
+import { timingParts } from "./timing-parts.ts";
+
+export interface TimingResult {
+  search: Search;
+  values: CoreValues;
+  parts: Part[];
+  figures: Figure[];
+  problems: DesignProblem[];
+  checks: StressCheck[];
+  /** Reverse B–E voltage an unprotected timing transistor would see, V. */
+  vebReverse_V: number;
+  timingLoss_W: number;
+}
+
+const fmtPct = (x: number): string => `${(x * 100).toFixed(1)} %`;
+
+export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingResult {
+  const q = ctx.spec.devices.timing_npn as BjtClass;
+  const db = ctx.spec.devices.signal_diode as DiodeClass;
+  const pol = ctx.spec.policy;
+  const t = ctx.spec.targets;
+  const problems: DesignProblem[] = [...tap.problems];
+  // B–E reverse swing of an unprotected core: base driven to V_BE − V_swing, V_swing ≈ V_cc − V_CE(sat)
+  // (SOURCES.md; common practice). Worst at V_cc,max and hot (lowest V_BE).
+  const vebReverse_V = ctx.vMax_V - vceSat(q, ctx.vMax_V / tap.rC_ohm) - vbeOn(q, ctx.taMax_C);
+  const vebAllowed = q.vebo_V * pol.bjt.voltage.factor;
+  let diodes = false;
+  if (vebReverse_V > vebAllowed) {
+    if (ctx.spec.protection.be_breakdown === "series-base-diode") diodes = true;
+    else problems.push(problem("timing", "/parts/Q_A", "vebo-breakdown", "error",
+      `At ${ctx.vMax_V.toFixed(1)} V the timing transistors' bases are driven ${vebReverse_V.toFixed(1)} V in reverse, over the derated V_EBO of ${vebAllowed.toFixed(1)} V: the B–E junctions break down. Allow series base diodes (protection.be_breakdown) or use a lower supply.`,
+      { limit: vebAllowed, actual: vebReverse_V, unit: "V" }));
+  }
+  const delays = plan.delays(tap.info);
+  const base = { rC_ohm: tap.rC_ohm, diodes, tapLoad: tap.load, inverting: plan.need.inverting, vThTap_V: tap.vThTap_V, delayOn_s: delays.on_s, delayOff_s: delays.off_s, ...(tap.preLinear_ohm !== undefined ? { preLinear_ohm: tap.preLinear_ohm } : {}) };
+  // Skew from loading the tapped collector only (full recovery, equal R_B and C): the two ln factors differ.
+  const vOnNom = vbeOn(q, 25) + (diodes ? diodeVf_V(db, ctx.vNom_V / 10_000, 25) : 0);
+  const vSat = vceSat(q, ctx.vNom_V / tap.rC_ohm);
+  const skewOf = (bal?: CollectorLoad): number => {
+    const c = evaluateCore({ vcc_V: ctx.vNom_V, vOn_V: vOnNom, vSat_V: vSat, rCA_ohm: tap.rC_ohm, rCB_ohm: tap.rC_ohm, cA_F: 1e-9, cB_F: 1e-9, rBA_ohm: 1e7, rBB_ohm: 1e7, loadA: tap.load, ...(bal ? { loadB: bal } : {}) });
+    return Math.abs(c.aHigh - 0.5);
+  };
+  const skewRaw = skewOf();
+  let balance: CollectorLoad | undefined;
+  let balanceDiode = false;
+  if (skewRaw > t.duty_skew_max) {
+    // Match the untapped collector's high level to the tapped one's (Thevenin).
+    const vHigh = (ctx.vNom_V * tap.load.r_ohm + tap.load.v_V * tap.rC_ohm) / (tap.rC_ohm + tap.load.r_ohm);
+    const vF = diodeVf_V(db, (ctx.vNom_V - vHigh) / tap.rC_ohm, 25);
+    balanceDiode = tap.load.v_V > 0 && vHigh > vF;
+    const vL = balanceDiode ? vF : 0;
+    const r = nearest((tap.rC_ohm * (vHigh - vL)) / (ctx.vNom_V - vHigh), "E24");
+    balance = { r_ohm: r, v_V: vL };
+  }
+  const search = searchCore(ctx, q, db, { ...base, ...(balance ? { balance } : {}) });
+  const v = search.values;
+  const w = search.worst;
+  const nominal = { vcc_V: ctx.vNom_V, t_C: 25, ...NOMINAL_K };
+  const e0 = evalCore(v, q, db, nominal, 0);
+  const e5 = evalCore(v, q, db, nominal, 0.5);
+  const e1 = evalCore(v, q, db, nominal, 1);
+  const skew = Math.abs(e5.timing.aHigh - (v.rEnd_ohm + v.pot_ohm / 2) / (2 * v.rEnd_ohm + v.pot_ohm));
+  const fErr = e5.f_Hz / ctx.f_Hz - 1;
+  if (!search.found) problems.push(problem("timing", "/parts/RV_DUTY", "duty-range-unreachable", "error",
+    `No timing-core values reach the required duty range ${fmtPct(t.duty_min)}–${fmtPct(t.duty_max)} at ${ctx.f_Hz} Hz while keeping the timing transistors saturated (k ≥ 2 at minimum gain).`));
+  else if (!search.passed) problems.push(problem("duty", "/parts/RV_DUTY", "duty-range-worst-case", "error",
+    `Worst case the control reaches only ${fmtPct(w.dMin.hi)}–${fmtPct(w.dMax.lo)} duty at the load, short of the required ${fmtPct(t.duty_min)}–${fmtPct(t.duty_max)}.`,
+    { limit: t.duty_min, actual: w.dMin.hi, unit: "" }));
+  if (!w.thresholdReached) problems.push(problem("timing", `/parts/${tap.tapNet === "ca" ? "RC_A" : "RC_B"}`, "threshold-unreached", "error", "The tapped collector never rises to the chain's switching threshold at some corner: the load would not switch."));
+  if (Math.abs(fErr) > 0.05) problems.push(problem("timing", "/parts/CT_A", "frequency-error", "warning", `The nearest preferred values give ${e5.f_Hz.toFixed(0)} Hz, ${fmtPct(fErr)} from the ${ctx.f_Hz} Hz target.`, { limit: 0.05, actual: fErr, unit: "" }));
+  if (w.recovery > 1) problems.push(problem("timing", "/parts/RC_A", "collector-recovery", "warning", `The collectors recover in 5·τ_c = ${w.recovery.toFixed(2)} × the shortest half-period: the duty at the control's ends is shortened (the figures include it).`, { limit: 1, actual: w.recovery, unit: "" }));
+  if (skew > t.duty_skew_max) problems.push(problem("timing", "/parts/RBAL", "duty-skew", "warning", `The timing core's duty skew from loading is ${fmtPct(skew)}, above the design's ${fmtPct(t.duty_skew_max)}.`, { limit: t.duty_skew_max, actual: skew, unit: "" }));
+  problems.push(problem("duty", "/parts/RV_DUTY", "no-full-off-on", "note", `The end resistors stop the control at ${fmtPct(e0.duty)}–${fmtPct(e1.duty)}: the load is never fully off or fully on from this control; use a separate switch for off.`));
+  const built = timingParts(ctx, q, db, v, tap, balance, balanceDiode, w, e5.vOn_V);
+  const T = 1 / e5.f_Hz;
+  const dt = e5.dtTh_s ?? 0;
+  const sign = plan.need.inverting ? 1 : -1;
+  const M = SRC.MULTIVIBRATOR;
+  const figures: Figure[] = [
+    figure("frequency_nominal", "PWM frequency (nominal, mid control)", e5.f_Hz, "Hz", "timing", "f = 1/(t_Aoff + t_Boff); t_Xoff = R_BX·C·ln((V_cc − V_on + V_swing)/(V_cc − V_on))", M, [w.f.lo, w.f.hi]),
+    figure("frequency_error", "Frequency error vs target (nominal)", fErr, "", "timing", "f/f_target − 1", SRC.DERIVED),
+    figure("timing_ln_coefficient", "Half-period coefficient ln(...) (nominal, side A)", lnFactor(ctx.vNom_V, e5.vOn_V, e5.timing.swingB_V), "", "timing", "ln((V_cc − V_on + V_swing)/(V_cc − V_on)) → ln 2 when V_swing = V_cc − V_on", M),
+    figure("timing_capacitor", "Timing capacitors C (each)", v.c_F, "F", "timing", "C = T_target / (period per farad), E12", SRC.IEC60063),
+    figure("timing_collector_resistor", "Collector resistors R_C (each)", v.rC_ohm, "Ω", "timing", "R_C = α·(V_cc,min − V_clamp)/I_need, bounded by the timing transistor's current", SRC.COMMON),
+    figure("duty_pot", "Duty potentiometer", v.pot_ohm, "Ω", "duty", "E3 pot value; total base resistance R_BA + R_BB = 2·R_end + R_pot stays constant", SRC.COMMON),
+    figure("duty_end_resistor", "End-stop resistors R_B (each)", v.rEnd_ohm, "Ω", "duty", "D_min ≈ R_end/(2·R_end + R_pot), E24", SRC.DERIVED),
+    figure("timing_overdrive", "Timing transistor overdrive (worst case)", search.overdrive, "", "timing", "k = β_min·I_B/I_C, V_cc,min, T_A,min, R_B = (R_end + R_pot) at +tolerance; need k ≥ 2", SRC.COMMON),
+    figure("collector_recovery", "Collector recovery 5·τ_c / shortest half-period (worst)", w.recovery, "", "timing", "5·(R_C ∥ R_load)·C / t_off,min (≤ 1: recovered)", SRC.DERIVED),
+    figure("duty_min", "Duty at the load, control at 0 (nominal)", e0.duty, "", "duty", "D = (t_Aoff ∓ Δt_th ∓ delays)/T at ctrl 0", SRC.DERIVED, [w.dMin.lo, w.dMin.hi]),
+    figure("duty_mid", "Duty at the load, control at ½ (nominal)", e5.duty, "", "duty", "D at ctrl ½", SRC.DERIVED, [w.dMid.lo, w.dMid.hi]),
+    figure("duty_max", "Duty at the load, control at 1 (nominal)", e1.duty, "", "duty", "D at ctrl 1", SRC.DERIVED, [w.dMax.lo, w.dMax.hi]),
+    figure("duty_skew", "Timing-core duty skew from loading (nominal)", skew, "", "timing", "|t_Aoff/T − R_BA/(R_BA + R_BB)| at ctrl ½", SRC.DERIVED),
+    figure("chain_threshold", "Chain switching threshold at the tap", tap.vThTap_V, "V", "chain", plan.need.kind === "gate-voltage" ? "V_th,tap = V_GS(th)·(R_G + R_GS)/R_GS" : tap.preLinear_ohm !== undefined ? "V_th,tap = V_BE·(R_T + R_BE)/R_BE" : "V_th,tap = n·V_BE(on)", SRC.COMMON),
+    figure("duty_error_threshold", "Duty error from the switching threshold", (sign * dt) / T, "", "duty", "Δt/T, Δt = τ_c·ln((V_C,high − V_CE(sat))/(V_C,high − V_th)); − non-inverting, + inverting", SRC.DERIVED),
+    figure("duty_error_delays", "Duty error from device delays", (v.delayOff_s - v.delayOn_s) / T, "", "duty", `(d_off − d_on)/T; ${delays.note}`, SRC.COMMON),
+    figure("be_reverse_voltage", "B–E reverse swing without protection", vebReverse_V, "V", "timing", "V_EB,rev = V_cc,max − V_CE(sat) − V_BE(hot)", SRC.COMMON),
+    figure("tap_current_min", "Chain input current, worst case low", tap.info.iMin_A, "A", "chain", "I = (V_cc,min − V_clamp)/((R_C + R_T)·1.05)", SRC.DERIVED),
+  ];
+  return { search, values: v, parts: built.parts, figures, problems: [...problems, ...built.problems], checks: built.checks, vebReverse_V, timingLoss_W: built.loss_W };
+}
