@@ -35,8 +35,8 @@ function collinearOverlap(a: Seg, b: Seg): boolean {
   const av = eq(a[0][0], a[1][0]);
   const bv = eq(b[0][0], b[1][0]);
   if (av !== bv) return false;
-  const k = av ? 0 : 1; // fixed coordinate index
-  const r = 1 - k;
+  const k: 0 | 1 = av ? 0 : 1; // fixed coordinate index
+  const r: 0 | 1 = av ? 1 : 0;
   if (!eq(a[0][k], b[0][k])) return false;
   return Math.min(Math.max(a[0][r], a[1][r]), Math.max(b[0][r], b[1][r])) - Math.max(Math.min(a[0][r], a[1][r]), Math.min(b[0][r], b[1][r])) > 0.01;
 }
@@ -57,8 +57,20 @@ export class Router {
     }
   }
 
+  /** Clearance verdicts, valid until the next wire or flag is added (routes share segments). */
+  private cache = new Map<string, boolean>();
+
   clear(s: Seg, net: string): boolean {
     if (eq(s[0][0], s[1][0]) && eq(s[0][1], s[1][1])) return true;
+    const key = `${net}|${s[0][0]},${s[0][1]},${s[1][0]},${s[1][1]}`;
+    const hit = this.cache.get(key);
+    if (hit !== undefined) return hit;
+    const ok = this.check(s, net);
+    this.cache.set(key, ok);
+    return ok;
+  }
+
+  private check(s: Seg, net: string): boolean {
     if (this.obstacles.some((b) => segHitsBox(s, b, 1.5))) return false;
     for (const [n, pins] of this.pinsByNet) if (n !== net && pins.some((p) => onSeg(p, s))) return false;
     for (const [n, segs] of this.wires) {
@@ -71,6 +83,7 @@ export class Router {
   }
 
   add(net: string, segs: Seg[]): void {
+    this.cache.clear();
     const real = segs.filter((s) => !(eq(s[0][0], s[1][0]) && eq(s[0][1], s[1][1])));
     this.wires.set(net, [...(this.wires.get(net) ?? []), ...real]);
   }
@@ -103,6 +116,7 @@ export class Router {
     const free = (b: Box) => !this.obstacles.some((o) => o.x < b.x + b.w && b.x < o.x + o.w && o.y < b.y + b.h && b.y < o.y + o.h)
       && ![...this.wires.values()].flat().some((s) => segHitsBox(s, b, 0));
     const box = opts.find(free) ?? opts[0]!;
+    this.cache.clear();
     this.flags.push({ net, at, box });
     this.obstacles.push(box);
   }

@@ -8,7 +8,7 @@
 import type { Figure } from "../../model/figure.ts";
 import type { DesignProblem } from "../../model/problem.ts";
 import type { StressCheck } from "../../model/derating.ts";
-import type { HeatsinkVerdict } from "../contracts.ts";
+import type { HeatsinkVerdict } from "../../model/sized.ts";
 import { checkTj, tjLimit_C } from "../shared/derating.ts";
 import { figure, problem } from "../shared/figures.ts";
 import { heatsinkMax_KperW, junctionTemp_C, powerRatingAt_W, rthCsFor_KperW } from "../shared/thermal.ts";
@@ -72,8 +72,8 @@ export function thermalStage(ctx: Ctx, losses: DeviceLoss[]): ThermalResult {
         heatsink = { needed: true, rth_sa_max_KperW: rSa, text: `heatsink ≤ ${rSa.toFixed(1)} K/W` };
         problems.push(problem("thermal", `/parts/${l.role}`, "heatsink-needed", "warning", `${what}; mount it on a heatsink of ≤ ${rSa.toFixed(1)} K/W (with grease). Hot surface.`, { limit: rSa, unit: "K/W" }));
       }
-      if (rSa > 0) figures.push(figure("heatsink_rth_sa_max", "Largest heatsink thermal resistance allowed", rSa, "K/W", "thermal", "R_θSA ≤ (T_J,limit − T_A)/P − R_θJC − R_θCS", SRC.JESD51));
     }
   }
+  if (worstMargin > 0 && worstMargin < Infinity) figures.push(figure("heatsink_rth_sa_max", "Largest heatsink thermal resistance allowed", worstMargin, "K/W", "thermal", "R_θSA ≤ (T_J,limit − T_A)/P − R_θJC − R_θCS", SRC.JESD51));
   return { figures, problems, checks, heatsink, perRole };
 }
