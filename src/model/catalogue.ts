@@ -1,6 +1,8 @@
 import type { DesignRecord } from "./design.ts";
 import type { SizedVariant } from "./sized.ts";
 import type { Verification } from "./verification.ts";
+import type { DeviceClass } from "./device.ts";
+import type { DeratingPolicy } from "./derating.ts";
 
 /** Everything the renderers produced for one variant (file contents, not paths). */
 export interface VariantFiles {
@@ -32,4 +34,10 @@ export interface BuiltCatalogue {
   /** Derating policy in force (id, title, document). */
   policy: { id: string; title: string; document: string };
   summary: { variants: number; feasible: number; agree: number; disagree: number; failed: number; skipped: number };
+  /**
+   * Optional: the engine's inputs (whole device library, full policy), so the site's "size your
+   * own" form runs the same engine in the browser. When absent, the site falls back to the device
+   * classes and policy found in the variants' specs (enough for the devices the catalogue uses).
+   */
+  engine?: { devices: DeviceClass[]; policy: DeratingPolicy };
 }

@@ -18,13 +18,10 @@ export interface Routing {
 }
 
 const eq = (a: number, b: number) => Math.abs(a - b) < 0.01;
-const inside = (b: Box, x: number, y: number, m: number) => x > b.x + m && x < b.x + b.w - m && y > b.y + m && y < b.y + b.h - m;
 
 function segHitsBox(s: Seg, b: Box, m: number): boolean {
   const [[x1, y1], [x2, y2]] = s;
-  const lo = (a: number, c: number) => Math.min(a, c);
-  const hi = (a: number, c: number) => Math.max(a, c);
-  return hi(x1, x2) > b.x + m && lo(x1, x2) < b.x + b.w - m && hi(y1, y2) > b.y + m && lo(y1, y2) < b.y + b.h - m;
+  return Math.max(x1, x2) > b.x + m && Math.min(x1, x2) < b.x + b.w - m && Math.max(y1, y2) > b.y + m && Math.min(y1, y2) < b.y + b.h - m;
 }
 function onSeg(p: Pt, s: Seg): boolean {
   const [[x1, y1], [x2, y2]] = s;
@@ -70,9 +67,13 @@ export class Router {
     return ok;
   }
 
+  // Plain loops, no closures: this is the hot path (tsx wraps every closure it creates).
   private check(s: Seg, net: string): boolean {
-    if (this.obstacles.some((b) => segHitsBox(s, b, 1.5))) return false;
-    for (const [n, pins] of this.pinsByNet) if (n !== net && pins.some((p) => onSeg(p, s))) return false;
+    for (const b of this.obstacles) if (segHitsBox(s, b, 1.5)) return false;
+    for (const [n, pins] of this.pinsByNet) {
+      if (n === net) continue;
+      for (const p of pins) if (onSeg(p, s)) return false;
+    }
     for (const [n, segs] of this.wires) {
       if (n === net) continue;
       for (const o of segs) {

@@ -2,6 +2,12 @@ import type { BuiltCatalogue } from "../model/catalogue.ts";
 import { designCounts, designView, type DesignCounts, type DesignView } from "./view-design.ts";
 import { variantView, type VariantView } from "./view-variant.ts";
 import { designPage } from "./paths.ts";
+import { chooserView, type ChooserView } from "./view-chooser.ts";
+import { compareTables, type CompareTable } from "./view-compare.ts";
+import { sizeOwnView, type SizeOwnView } from "./view-size-own.ts";
+
+/** A design page: the design view plus the chain comparison and the "size your own" form. */
+export type DesignPageView = DesignView & { compare: CompareTable[]; syo: SizeOwnView | null };
 
 /**
  * The thin data layer Eleventy reads (global data `pw`): view models of plain, already formatted
@@ -14,6 +20,7 @@ export interface HomeView {
   version: string;
   policy: string;
   designs: { id: string; title: string; summary: string; url: string; counts: DesignCounts }[];
+  chooser: ChooserView;
   summary: {
     designs: number;
     variants: number;
@@ -28,7 +35,7 @@ export interface HomeView {
 
 export interface SiteView {
   home: HomeView;
-  designs: DesignView[];
+  designs: DesignPageView[];
   variants: VariantView[];
 }
 
@@ -41,6 +48,7 @@ export function buildSiteView(cat: BuiltCatalogue): SiteView {
     version: cat.version,
     policy: `${cat.policy.title} (${cat.policy.document})`,
     designs: cat.designs.map((d) => ({ id: d.record.id, title: d.record.title, summary: d.record.summary, url: designPage(d.record.id), counts: designCounts(d) })),
+    chooser: chooserView(cat),
     summary: {
       designs: cat.designs.length,
       variants: s.variants,
@@ -55,7 +63,7 @@ export function buildSiteView(cat: BuiltCatalogue): SiteView {
   };
   return {
     home,
-    designs: cat.designs.map(designView),
+    designs: cat.designs.map((d) => ({ ...designView(d), compare: compareTables(d), syo: sizeOwnView(cat, d) })),
     variants: cat.designs.flatMap((d) => d.variants.map((v) => variantView(v, d, cat))),
   };
 }

@@ -10,6 +10,8 @@ import { variantDir } from "./paths.ts";
 import { pulsewrightSite } from "./plugin.ts";
 import { validateCatalogue } from "./validate.ts";
 import { variantJsonText } from "./variant-json.ts";
+import { writeBrowserScripts } from "./bundle.ts";
+import { writeSearchIndex } from "./search-index.ts";
 
 /** The Eleventy input folder (templates) and the static assets copied as they are. */
 export const SITE_INPUT_DIR = fileURLToPath(new URL("../../site/", import.meta.url));
@@ -27,7 +29,10 @@ async function countFiles(dir: string): Promise<number> {
   return n;
 }
 
-/** Downloads, variant JSON, `catalogue.json` and the static assets: written as bytes, not templated. */
+/**
+ * Downloads, variant JSON, `catalogue.json`, the static assets, the bundled browser scripts and the
+ * search index (pagefind/): written as bytes, not templated.
+ */
 export async function writeSiteFiles(cat: BuiltCatalogue, outDir: string): Promise<void> {
   for (const d of cat.designs) {
     for (const v of d.variants) {
@@ -42,6 +47,9 @@ export async function writeSiteFiles(cat: BuiltCatalogue, outDir: string): Promi
   await writeFile(path.join(outDir, "catalogue.json"), catalogueJsonText(cat), "utf8");
   await mkdir(path.join(outDir, "assets"), { recursive: true });
   for (const name of (await readdir(ASSETS_DIR)).sort()) await copyFile(path.join(ASSETS_DIR, name), path.join(outDir, "assets", name));
+  await writeBrowserScripts(outDir);
+  // Last: the search index reads the finished pages.
+  await writeSearchIndex(outDir);
 }
 
 /**

@@ -1,8 +1,7 @@
 /**
  * Stages "supply" and "protection": fuse (IEC 60127-style ratings at ≥ 1.25× the running current),
  * shunt reverse-polarity diode (surge rating ≥ 10× the fuse so the fuse opens first — common
- * practice), bulk capacitor (C ≥ I·D(1−D)/(f·ΔV), worst at D = ½, ΔV = 2 % of V_cc — the input-
- * capacitor relation of a chopper, from memory), freewheel diode for motors (current, reverse
+ * practice), bulk capacitor (≈ 100 µF per ampere switched, ≥ 100 µF — rule of thumb, from memory), freewheel diode for motors (current, reverse
  * voltage, recovery time vs the PWM period), and the LED flicker region (IEEE Std 1789-2015).
  */
 import type { DiodeClass } from "../../model/device.ts";
@@ -21,7 +20,7 @@ import type { Ctx } from "./context.ts";
 import { peakCurrent_A } from "./chains/common.ts";
 import { capRating_V } from "./timing-parts.ts";
 
-export const RIPPLE_FRACTION = 0.02;
+export const BULK_PER_A_F = 100e-6;
 export const BULK_MIN_F = 100e-6;
 export const REVERSE_SURGE_MULTIPLE = 10;
 
@@ -46,13 +45,17 @@ export function protectionStage(ctx: Ctx, coreCurrent_A: number, fMin_Hz: number
   const rev = D.reverse_diode as DiodeClass;
   parts.push(diode("supply", "D_REVERSE", rev, { anode: "0", cathode: "vbus" }, { voltage_V: ctx.vMax_V, current_A: REVERSE_SURGE_MULTIPLE * fuse.rating_A }, "shunt reverse-polarity protection: conducts when reversed, the fuse opens"));
   checks.push(checkStress("D_REVERSE", "voltage", ctx.vMax_V, rev.vrrm_V, "V", pol.diode.voltage, pol.marginal_above));
-  checks.push(checkStress("D_REVERSE", "current", REVERSE_SURGE_MULTIPLE * fuse.rating_A, rev.ifsm_A, "A", { factor: 1, source: "surge rating I_FSM ≥ 10 × fuse rating (common practice)", confidence: "common-practice" }, pol.marginal_above));
-  const cNeed = (ctx.iMax_A * 0.25) / (fMin_Hz * RIPPLE_FRACTION * ctx.vNom_V);
-  const cBulk = roundUp(Math.max(BULK_MIN_F, cNeed), "E6");
+  const surge = checkStress("D_REVERSE", "current", REVERSE_SURGE_MULTIPLE * fuse.rating_A, rev.ifsm_A, "A", { factor: 1, source: "surge rating I_FSM ≥ 10 × fuse rating (common practice)", confidence: "common-practice" }, pol.marginal_above);
+  checks.push(surge);
+  if (surge.verdict === "fail") problems.push(problem("supply", "/parts/D_REVERSE", "reverse-surge", "warning", `The reverse-polarity diode's ${rev.ifsm_A} A surge rating is below 10× the ${fuse.rating_A} A fuse: on a reversed battery it may fail before the fuse opens. Use a diode with a higher I_FSM.`, { limit: rev.ifsm_A, actual: REVERSE_SURGE_MULTIPLE * fuse.rating_A, unit: "A" }));
+  // A battery supplies the low-frequency current; the bulk capacitor covers the switching edges
+  // against the wiring's inductance: ≈ 100 µF per ampere switched, at least 100 µF (rule of thumb, from memory).
+  const cBulk = roundUp(Math.max(BULK_MIN_F, BULK_PER_A_F * ctx.iMax_A), "E6");
+  void fMin_Hz;
   const cRated = capRating_V(ctx, ctx.vMax_V);
   parts.push(capacitor("supply", "C_BULK", cBulk, "E6", 0.2, cRated, ctx.vMax_V, { plus: "vbus", minus: "0" }, true, "bulk capacitor close to the switch"));
   checks.push(checkStress("C_BULK", "voltage", ctx.vMax_V, cRated, "V", pol.capacitor.voltage, pol.marginal_above));
-  figures.push(figure("bulk_capacitance", "Bulk capacitor", cBulk, "F", "supply", "C ≥ I_max·D(1−D)/(f·ΔV), D = ½, ΔV = 2 % of V_cc; ≥ 100 µF; E6", SRC.COMMON));
+  figures.push(figure("bulk_capacitance", "Bulk capacitor", cBulk, "F", "supply", "C ≈ 100 µF/A × I_max, ≥ 100 µF, rounded up to E6", SRC.COMMON));
   if (ctx.load.inductive) {
     const fw = D.freewheel_diode as DiodeClass;
     const iAvg = ctx.iMax_A * (1 - dutyMinLo);

@@ -17,8 +17,10 @@ import type { WorstCase } from "./timing-search.ts";
 
 /** Capacitor voltage ratings, V (common practice). */
 export const CAP_RATINGS_V = [16, 25, 35, 50, 63, 100, 250] as const;
-/** Small linear potentiometer full-track rating, W (common practice). */
-export const POT_RATING_W = 0.25;
+/** Linear potentiometer full-track ratings, W: carbon 0.25, cermet 0.5–1, wirewound 2 (common practice). */
+export const POT_RATINGS_W = [0.25, 0.5, 1, 2] as const;
+/** Mean-square factor of the base-resistor current over an off phase (derived, see below). */
+export const RB_MS_FACTOR = 2.26;
 
 export function capRating_V(ctx: Ctx, stress_V: number): number {
   return CAP_RATINGS_V.find((r) => stress_V <= r * ctx.spec.policy.capacitor.voltage.factor) ?? 250;
@@ -29,8 +31,11 @@ export function timingParts(ctx: Ctx, q: BjtClass, db: DiodeClass, v: CoreValues
   const tol = ctx.rTol;
   const vMax = ctx.vMax_V;
   const iCmax = vMax / (v.rC_ohm * (1 - tol));
-  // Peak base-resistor current: at the start of an off phase the base node sits at V_on − V_swing.
+  // Base-resistor current: (V_cc − V_on)/R while its transistor is on; during the off phase it starts
+  // at (V_cc − V_on + V_swing)/R and decays. With V_swing ≤ V_cc − V_on the mean square over the off
+  // phase is ≤ 2.26·((V_cc − V_on)/R)² (integrating the exponential over t = τ·ln 2; derived).
   const iBpk = (2 * vMax - vOn_V) / (v.rEnd_ohm * (1 - tol));
+  const iBrms = Math.sqrt(RB_MS_FACTOR) * (vMax - vOn_V) / (v.rEnd_ohm * (1 - tol));
   const iQpk = iCmax + iBpk;
   const gain = hfeMin(q, iCmax, ctx.taMin_C);
   const baseA = v.diodes ? "na" : "ba";
@@ -38,8 +43,8 @@ export function timingParts(ctx: Ctx, q: BjtClass, db: DiodeClass, v: CoreValues
   const built = [
     resistor("timing", "RC_A", v.rC_ohm, { a: "vbus", b: "ca" }, (vMax * vMax) / (v.rC_ohm * (1 - tol)), pol, "collector resistor A"),
     resistor("timing", "RC_B", v.rC_ohm, { a: "vbus", b: "cb" }, (vMax * vMax) / (v.rC_ohm * (1 - tol)), pol, "collector resistor B"),
-    resistor("duty", "RB_A", v.rEnd_ohm, { a: "pa", b: baseA }, iBpk * iBpk * v.rEnd_ohm * (1 + tol), pol, "end stop A: minimum duty and maximum base current"),
-    resistor("duty", "RB_B", v.rEnd_ohm, { a: "pb", b: baseB }, iBpk * iBpk * v.rEnd_ohm * (1 + tol), pol, "end stop B"),
+    resistor("duty", "RB_A", v.rEnd_ohm, { a: "pa", b: baseA }, iBrms * iBrms * v.rEnd_ohm * (1 + tol), pol, "end stop A: minimum duty and maximum base current"),
+    resistor("duty", "RB_B", v.rEnd_ohm, { a: "pb", b: baseB }, iBrms * iBrms * v.rEnd_ohm * (1 + tol), pol, "end stop B"),
   ];
   const parts: Part[] = built.map((b) => b.part);
   const checks: StressCheck[] = built.flatMap((b) => b.checks);
@@ -71,15 +76,17 @@ export function timingParts(ctx: Ctx, q: BjtClass, db: DiodeClass, v: CoreValues
       checks.push(checkStress("DBAL", "current", i, db.if_avg_A, "A", pol.diode.current, pol.marginal_above));
     }
   }
-  // Pot: the full-track rating allows I ≤ √(P/R) in any part of the track (common practice).
-  const iPot = iBpk;
-  const iPotRating = Math.sqrt(POT_RATING_W / (v.pot_ohm * (1 - POT_TOLERANCE)));
+  // Pot: a full-track rating P allows a current √(P/R) in any part of the track (common practice);
+  // checked as the power the whole track would dissipate at the segment's RMS current.
+  const pTrack = iBrms * iBrms * v.pot_ohm * (1 + POT_TOLERANCE);
+  const potRule = pol.resistor.power;
+  const potW = POT_RATINGS_W.find((r) => pTrack <= r * potRule.factor) ?? POT_RATINGS_W[POT_RATINGS_W.length - 1]!;
   parts.push({
     ref: "", kind: "potentiometer", stage: "duty", role: "RV_DUTY", value: v.pot_ohm, unit: "Ω", tolerance: POT_TOLERANCE,
-    description: `Linear potentiometer, ${POT_RATING_W} W — duty control (wiper to the supply)`,
-    rating: { power_W: POT_RATING_W, current_A: iPotRating }, stress: { current_A: iPot, power_W: iPot * iPot * v.pot_ohm }, pins: { a: "pa", w: "vbus", b: "pb" },
+    description: `Linear potentiometer, ${potW} W ${potW > 1 ? "wirewound" : potW > 0.25 ? "cermet" : "carbon"} — duty control (wiper to the supply)`,
+    rating: { power_W: potW, current_A: Math.sqrt(potW / v.pot_ohm) }, stress: { current_A: iBrms, power_W: pTrack }, pins: { a: "pa", w: "vbus", b: "pb" },
   });
-  checks.push(checkStress("RV_DUTY", "current", iPot, iPotRating, "A", pol.resistor.power, pol.marginal_above));
+  checks.push(checkStress("RV_DUTY", "power", pTrack, potW, "W", potRule, pol.marginal_above));
   void w;
   // Each timing transistor: I_C·V_CE(sat) while on (≤ 100 % of the time) + base drive (conservative).
   const loss_W = iCmax * vceSat(q, iCmax) + iBpk * vOn_V;

@@ -4,7 +4,8 @@
  * target frequency, subject to the saturation rule R_B,max ≤ β_min·R_C/k (k = 2 at minimum gain,
  * cold, minimum supply) and to the required duty range at the load in the WORST case
  * (all 512 corners of supply, ambient and tolerances). Candidates are ranked by frequency error,
- * collector recovery and how closely the range fits; the first that passes worst case wins.
+ * collector recovery and how closely the range fits (a miss of the nominal range or of k ≥ 2
+ * ranks last and is reported); the first that passes worst case wins.
  */
 import type { BjtClass, DiodeClass } from "../../model/device.ts";
 import { roundDown, roundUp, seriesBetween } from "../shared/e-series.ts";
@@ -15,6 +16,8 @@ import { type CoreValues, type Corner, NOMINAL_K, corners, diodeVf_V, evalCore }
 export const POT_VALUES_OHM: readonly number[] = [2, 3, 4, 5, 6].flatMap((e) => [1, 2.2, 4.7].map((m) => Math.round(m * 10 ** e)));
 export const C_MAX_F = 10e-6;
 export const C_MIN_F = 100e-12;
+/** Candidates whose collectors recover in more than 5× the shortest half-period (5·τ_c) are not built. */
+export const MAX_RECOVERY = 5;
 
 export interface Range { lo: number; hi: number }
 export interface WorstCase {
@@ -66,11 +69,10 @@ export function searchCore(ctx: Ctx, q: BjtClass, db: DiodeClass, base: Base): S
   const t = ctx.spec.targets;
   const nominal: Corner = { vcc_V: ctx.vNom_V, t_C: 25, ...NOMINAL_K };
   const tTarget = 1 / ctx.f_Hz;
-  const ranked: { v: CoreValues; score: number; od: number }[] = [];
+  const ranked: { v: CoreValues; score: number; od: number; ok: boolean }[] = [];
   for (const pot of POT_VALUES_OHM) {
     for (const rEnd of seriesBetween(100, 1e6, "E24")) {
       const od = overdrive(ctx, q, db, base, pot, rEnd);
-      if (od < OVERDRIVE_K) continue;
       const unit: CoreValues = { ...base, c_F: 1, pot_ohm: pot, rEnd_ohm: rEnd };
       const t1 = evalCore(unit, q, db, nominal, 0.5).timing.period_s; // period per farad (T ∝ C)
       const cIdeal = tTarget / t1;
@@ -80,18 +82,25 @@ export function searchCore(ctx: Ctx, q: BjtClass, db: DiodeClass, base: Base): S
         const v = { ...unit, c_F: c };
         const lo = evalCore(v, q, db, nominal, 0);
         const hi = evalCore(v, q, db, nominal, 1);
-        if (lo.dtTh_s === null || lo.duty > t.duty_min || hi.duty < t.duty_max) continue;
-        const fErr = Math.abs(tTarget / (t1 * c) - 1);
         const rec = Math.max((5 * lo.timing.tauA_s) / lo.timing.tAoff_s, (5 * hi.timing.tauB_s) / hi.timing.tBoff_s);
-        const excess = hi.duty - lo.duty - (t.duty_max - t.duty_min);
-        ranked.push({ v, od, score: fErr + (rec > 1 ? 0.5 + rec : 0) + 0.2 * excess });
+        if (rec > MAX_RECOVERY) continue;
+        // Timing transistor peak current: V_cc/R_C plus the other side's base-node recharge through
+        // its end resistor, (2·V_cc − V_on)/R_end, within the policy's current derating.
+        const iQpk = ctx.vMax_V / (base.rC_ohm * (1 - ctx.rTol)) + (2 * ctx.vMax_V) / (rEnd * (1 - ctx.rTol));
+        if (iQpk > q.ic_max_A * ctx.spec.policy.bjt.current.factor) continue;
+        const fErr = Math.abs(tTarget / (t1 * c) - 1);
+        const miss = Math.max(0, lo.duty - t.duty_min) + Math.max(0, t.duty_max - hi.duty) + (lo.dtTh_s === null ? 1 : 0);
+        const short = Math.max(0, OVERDRIVE_K - od);
+        const excess = Math.max(0, hi.duty - lo.duty - (t.duty_max - t.duty_min));
+        const ok = miss === 0 && short === 0;
+        ranked.push({ v, od, ok, score: fErr + 0.2 * Math.max(0, rec - 1) + 0.2 * excess + 10 * miss + 10 * short });
       }
     }
   }
   ranked.sort((a, b) => a.score - b.score);
   const all = corners(ctx.vMin_V, ctx.vMax_V, ctx.taMin_C, ctx.taMax_C, ctx.rTol, POT_TOLERANCE, ctx.cTol);
   let first: Search | null = null;
-  for (const cand of ranked.slice(0, 30)) {
+  for (const cand of ranked.filter((r) => r.ok).slice(0, 30)) {
     const worst = worstCase(ctx, q, db, cand.v, all);
     const passed = worst.thresholdReached && worst.dMin.hi <= t.duty_min && worst.dMax.lo >= t.duty_max;
     const s = { values: cand.v, worst, overdrive: cand.od, passed, found: true };
@@ -99,6 +108,9 @@ export function searchCore(ctx: Ctx, q: BjtClass, db: DiodeClass, base: Base): S
     first ??= s;
   }
   if (first !== null) return first;
+  // Nothing meets the nominal range with k ≥ 2: report the nearest miss, marked not found.
+  const near = ranked[0];
+  if (near !== undefined) return { values: near.v, worst: worstCase(ctx, q, db, near.v, all), overdrive: near.od, passed: false, found: false };
   // Nothing meets even the nominal range: report the plain ln 2 design so the reason can be shown.
   const pot = 10_000;
   const rEnd = 1_000;

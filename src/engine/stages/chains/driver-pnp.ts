@@ -34,7 +34,7 @@ export function planDriverPnp(ctx: Ctx): ChainPlan {
     problems.push(problem("chain", "/parts/RB_P", "supply-too-low", "error", `The ${ctx.vMin_V.toFixed(1)} V minimum supply cannot drive the PNP base through its driver.`));
   }
   const rBP = rBPmax > 1 ? roundDown(rBPmax, "E24") : 1;
-  const iRbpMax = (ctx.vMax_V - vEB + 0.2) / (rBP * (1 - ctx.rTol));
+  const iRbpMax = (ctx.vMax_V - vbeOn(qp, ctx.taMax_C)) / (rBP * (1 - ctx.rTol));
   const iRbpMin = (ctx.vMin_V - vEB - vceD) / (rBP * (1 + ctx.rTol));
   const betaD = hfeMin(qd, iRbpMax, ctx.taMin_C);
   const iBD = iRbpMax / Math.min(FORCED_BETA, betaD / OVERDRIVE_K);

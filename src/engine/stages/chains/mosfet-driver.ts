@@ -17,7 +17,7 @@ import { resistor, transistor, zener } from "../../../circuit/parts.ts";
 import { type Ctx, FORCED_BETA, OVERDRIVE_K } from "../context.ts";
 import { driveMargin, switchChecks, switchOffVoltage_V, vbeCold } from "./common.ts";
 import { WEAK_TURNOFF_FACTOR } from "./bjt-single.ts";
-import { gateTimes, rdsOn_ohm, specVgs_V } from "./mosfet-common.ts";
+import { gateTimes, plateau_V, rdsOn_ohm, specVgs_V } from "./mosfet-common.ts";
 import type { ChainPlan } from "./types.ts";
 
 /** Smallest zener current that keeps the zener on its knee (common practice, ≈ 5 mA for 0.5 W parts). */
@@ -47,9 +47,15 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
   const iGpk = railMax / (rG * (1 - ctx.rTol));
   const betaHi = hfeMin(qhi, iGpk, ctx.taMin_C);
   const betaLo = hfeMin(qlo, iGpk, ctx.taMin_C);
-  const rP = roundDown(rG * betaHi, "E24");
+  // RP: the follower's output resistance RP/β_HI is sized so the gate charge moves in ≤ 1 % of the
+  // period: Q_G·(R_G + R_P/β)/(V_GS − V_plateau) ≤ T/100 (ours), between R_G·β and 10 kΩ.
+  const rBudget = (0.01 * (vgsMin - plateau_V(mos))) / (ctx.f_Hz * mos.qg_C) - rG;
+  const rP = roundDown(Math.min(10_000, Math.max(rG * betaHi, rBudget * betaHi)), "E24");
   const iRP = railMax / (rP * (1 - ctx.rTol));
-  const iCD = iRP + iGpk / betaLo;
+  // Q_LO's base current at the turn-off edge is a short pulse the driver sinks out of saturation; the
+  // static need is the pull-up current.
+  const iCD = iRP;
+  void betaLo;
   const betaD = hfeMin(qd, iCD, ctx.taMin_C);
   const iBD = iCD / Math.min(FORCED_BETA, betaD / OVERDRIVE_K);
   const vClamp = vbeOn(qd, ctx.taMin_C) + 0.15;

@@ -1,0 +1,88 @@
+/**
+ * sizeVariant: one VariantSpec → one SizedVariant. Pure (no files, no DOM): runs at build time and
+ * in the browser. Order: chain need → tap → timing core + duty → chain losses at the operating
+ * point the core reaches → load → thermal → protection → derating problems → assembly → feasibility.
+ */
+import type { Figure } from "../model/figure.ts";
+import type { Part } from "../model/circuit.ts";
+import { type DesignProblem, EngineMisuseError } from "../model/problem.ts";
+import type { StressCheck } from "../model/derating.ts";
+import type { SizedVariant } from "../model/sized.ts";
+import type { VariantSpec } from "../model/variant.ts";
+import type { BjtClass } from "../model/device.ts";
+import { assembleCircuit, refsByRole } from "../circuit/assemble.ts";
+import { figure, problem } from "./shared/figures.ts";
+import { SRC } from "./shared/sources.ts";
+import { makeContext } from "./stages/context.ts";
+import { CHAIN_PLANNERS } from "./stages/chains/index.ts";
+import { designTap } from "./stages/tap.ts";
+import { designTiming } from "./stages/timing.ts";
+import { loadStage } from "./stages/load.ts";
+import { thermalStage } from "./stages/thermal.ts";
+import { protectionStage } from "./stages/protection.ts";
+import { blockingReason, cautions, checkProblems } from "./stages/feasibility.ts";
+
+export function sizeVariant(spec: VariantSpec): SizedVariant {
+  try {
+    return sizeInner(spec);
+  } catch (err) {
+    if (!(err instanceof EngineMisuseError)) throw err;
+    const msg = `The engine could not size this variant (${err.message}).`;
+    return {
+      spec, feasible: false, reason: msg, figures: [], checks: [], circuit: null, cautions: [],
+      problems: [problem("engine", "", "engine-failure", "error", msg)],
+      heatsink: { needed: false, text: "not sized" },
+    };
+  }
+}
+
+function sizeInner(spec: VariantSpec): SizedVariant {
+  const ctx = makeContext(spec);
+  const plan = CHAIN_PLANNERS[spec.chain](ctx);
+  const tap = designTap(ctx, plan);
+  const timing = designTiming(ctx, plan, tap);
+  const w = timing.search.worst;
+  const fin = plan.finish(tap.info, { dutyMax: Math.min(1, w.dMax.hi), fMax_Hz: w.f.hi });
+  const load = loadStage(ctx, plan.vSwNom_V);
+  const q = spec.devices.timing_npn as BjtClass;
+  const timingLoss = (role: string) => ({ role, dev: q, family: "bjt" as const, pCond_W: timing.timingLoss_W, pSw_W: 0, p_W: timing.timingLoss_W, isPower: false });
+  const losses = [...fin.losses, timingLoss("Q_A"), timingLoss("Q_B")];
+  const thermal = thermalStage(ctx, losses);
+  const prot = protectionStage(ctx, ctx.vNom_V / timing.values.rC_ohm, w.f.lo, w.f.hi, w.dMin.lo);
+  const devLoss = fin.losses.reduce((s, l) => s + l.p_W, 0);
+  const pIn = ctx.vMax_V * ctx.iMax_A * Math.min(1, w.dMax.hi);
+  const efficiency = Math.max(0, 1 - devLoss / pIn);
+
+  const rawParts: Part[] = [...prot.parts, ...timing.parts, ...tap.parts, ...plan.parts, ...fin.parts, load.part];
+  const parts = rawParts.map((p) => {
+    const th = thermal.perRole.get(p.role);
+    return th === undefined ? p : { ...p, stress: { ...p.stress, power_W: th.p_W, tj_C: th.tj_C } };
+  });
+  const circuit = assembleCircuit(parts, { supply_V: spec.supply_V, highSide: ctx.highSide, tapNet: tap.tapNet, chainInputNet: tap.inputNet });
+  const refs = refsByRole(circuit);
+  const toRef = (role: string): string => refs.get(role) ?? role;
+  const checks: StressCheck[] = [...timing.checks, ...tap.checks, ...plan.checks, ...fin.checks, ...thermal.checks, ...prot.checks].map((c) => ({ ...c, ref: toRef(c.ref) }));
+  const fixPath = (p: DesignProblem): DesignProblem => {
+    const m = /^\/parts\/(.+)$/.exec(p.path);
+    return m === null ? p : { ...p, path: `/parts/${toRef(m[1]!)}` };
+  };
+  const stageProblems = [...timing.problems, ...plan.problems, ...fin.problems, ...thermal.problems, ...prot.problems].map(fixPath);
+  const problems = [...stageProblems, ...checkProblems(checks, stageProblems)];
+  const figures: Figure[] = dedupe([
+    ...timing.figures, ...plan.figures, ...fin.figures, ...load.figures, ...thermal.figures, ...prot.figures,
+    figure("efficiency", "Switch efficiency (worst case)", efficiency, "", "chain", "η = 1 − ΣP_chain / (V_cc,max · I_max · D_max)", SRC.DERIVED),
+  ]);
+  const reason = blockingReason(ctx, problems);
+  const hot = thermal.heatsink.needed || [...thermal.perRole.values()].some((t) => t.tj_C > 60);
+  const out: SizedVariant = {
+    spec, feasible: reason === undefined, figures, problems, checks, heatsink: thermal.heatsink, circuit, cautions: cautions(ctx, hot),
+  };
+  if (reason !== undefined) out.reason = reason;
+  return out;
+}
+
+/** Keep the first figure of each key (stages never mean to produce two; this guards the contract). */
+function dedupe(figs: Figure[]): Figure[] {
+  const seen = new Set<string>();
+  return figs.filter((f) => (seen.has(f.key) ? false : (seen.add(f.key), true)));
+}

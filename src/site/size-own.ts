@@ -1,0 +1,89 @@
+/**
+ * "Size your own": one variant of a design for any supply, current, PWM frequency, chain and load
+ * kind within the design's limits, through the very functions the build uses (expand → choose
+ * devices → sizeVariant → renderers). Pure: bundled into the browser, called by tests on Node.
+ */
+import type { DeratingPolicy } from "../model/derating.ts";
+import type { DesignRecord } from "../model/design.ts";
+import type { DeviceClass } from "../model/device.ts";
+import type { ChainKind, LoadKind } from "../model/kinds.ts";
+import type { SizedVariant } from "../model/sized.ts";
+import { findFigure } from "../model/sized.ts";
+import { formatValue } from "../model/format.ts";
+import { expandDesign } from "../expand/index.ts";
+import { chooseDevices } from "../engine/devices/choose.ts";
+import { sizeVariant } from "../engine/index.ts";
+import { renderNetlist } from "../render/netlist.ts";
+import { renderSchematic } from "../render/schematic.ts";
+import { renderBom } from "../render/bom.ts";
+
+/** What the page embeds for one design. */
+export interface SizeOwnData {
+  record: DesignRecord;
+  devices: DeviceClass[];
+  policy: DeratingPolicy;
+}
+
+export interface SizeOwnInput {
+  supply_V: number;
+  load_A: number;
+  pwm_Hz: number;
+  chain: string;
+  load_kind: string;
+}
+
+export interface SizeOwnLimits {
+  supply_V: [number, number];
+  load_A: [number, number];
+  pwm_Hz: [number, number];
+  chains: ChainKind[];
+  loadKinds: LoadKind[];
+}
+
+/**
+ * The range a design's review covers: its axes from smallest to largest value, and its PWM
+ * frequency within a factor of two (our own rule: the timing core's parts were reviewed there).
+ */
+export function sizeOwnLimits(rec: DesignRecord): SizeOwnLimits {
+  const span = (xs: number[]): [number, number] => [Math.min(...xs), Math.max(...xs)];
+  return { supply_V: span(rec.axes.supply_V), load_A: span(rec.axes.load_A), pwm_Hz: [rec.targets.pwm_Hz / 2, rec.targets.pwm_Hz * 2], chains: [...rec.axes.chain], loadKinds: [...rec.axes.load_kind] };
+}
+
+export type SizeOwnResult =
+  | { ok: true; sized: SizedVariant; netlist: string; bomCsv: string; schematicSvg: string }
+  | { ok: false; errors: string[] };
+
+export function sizeOwn(data: SizeOwnData, input: SizeOwnInput, opts: { schematic?: boolean } = {}): SizeOwnResult {
+  const lim = sizeOwnLimits(data.record);
+  const errors: string[] = [];
+  const inRange = (name: string, x: number, [lo, hi]: [number, number], unit: string) => {
+    if (!Number.isFinite(x) || x < lo || x > hi) errors.push(`${name} must be between ${formatValue(lo, unit)} and ${formatValue(hi, unit)} for this design.`);
+  };
+  inRange("Supply voltage", input.supply_V, lim.supply_V, "V");
+  inRange("Load current", input.load_A, lim.load_A, "A");
+  inRange("PWM frequency", input.pwm_Hz, lim.pwm_Hz, "Hz");
+  if (!(lim.chains as string[]).includes(input.chain)) errors.push(`Output chain must be one of: ${lim.chains.join(", ")}.`);
+  if (!(lim.loadKinds as string[]).includes(input.load_kind)) errors.push(`Load kind must be one of: ${lim.loadKinds.join(", ")}.`);
+  if (errors.length) return { ok: false, errors };
+
+  const lib = new Map(data.devices.map((d) => [d.id, d] as const));
+  const rec: DesignRecord = {
+    ...data.record,
+    targets: { ...data.record.targets, pwm_Hz: input.pwm_Hz },
+    axes: { supply_V: [input.supply_V], load_A: [input.load_A], chain: [input.chain as ChainKind], load_kind: [input.load_kind as LoadKind] },
+  };
+  const [spec] = expandDesign(rec, { choose: (r, s, a) => chooseDevices(r, lib, s, a), policy: data.policy });
+  if (!spec) return { ok: false, errors: ["Nothing to size for these inputs."] };
+  const sized = sizeVariant(spec);
+  const c = sized.circuit;
+  if (!c) return { ok: true, sized, netlist: "", bomCsv: "", schematicSvg: "" };
+  const meta = { id: spec.id, title: `${spec.designTitle}, ${spec.id} (sized on request)` };
+  const f = findFigure(sized, "frequency_nominal")?.value ?? input.pwm_Hz;
+  return {
+    ok: true,
+    sized,
+    netlist: renderNetlist(c, { ...meta, supply_V: spec.supply_V, frequency_Hz: f, devices: lib }),
+    bomCsv: renderBom(c),
+    schematicSvg: opts.schematic === false ? "" : renderSchematic(c, meta),
+  };
+}

@@ -1,0 +1,82 @@
+/**
+ * Fixture builder for engine tests: real device library (designs/devices/*.json) and the default
+ * derating policy (designs/policies/default.json), device roles resolved by the engine's own
+ * chooseDevices, targets from the invented greenhouse scenario (demo values).
+ */
+import { readFileSync, readdirSync } from "node:fs";
+import { join } from "node:path";
+import type { BjtClass, DeviceClass, DeviceLibrary } from "../../src/model/device.ts";
+import type { DeratingPolicy } from "../../src/model/derating.ts";
+import type { DesignRecord, DeviceRole } from "../../src/model/design.ts";
+import type { ChainKind, LoadKind } from "../../src/model/kinds.ts";
+import type { VariantSpec } from "../../src/model/variant.ts";
+import { indexLibrary } from "../../src/engine/devices/library.ts";
+import { chooseDevices } from "../../src/engine/devices/choose.ts";
+
+const ROOT = join(import.meta.dirname, "..", "..");
+
+let lib: DeviceLibrary | undefined;
+export function library(): DeviceLibrary {
+  const dir = join(ROOT, "designs", "devices");
+  lib ??= indexLibrary(readdirSync(dir).filter((f) => f.endsWith(".json")).sort().map((f) => JSON.parse(readFileSync(join(dir, f), "utf8")) as DeviceClass));
+  return lib;
+}
+export function policy(): DeratingPolicy {
+  return JSON.parse(readFileSync(join(ROOT, "designs", "policies", "default.json"), "utf8")) as DeratingPolicy;
+}
+
+export interface SpecOpts {
+  supply_V: number;
+  load_A: number;
+  chain: ChainKind;
+  load_kind: LoadKind;
+  pwm_Hz?: number;
+  duty?: [number, number];
+  ambient_C?: [number, number];
+  supply_tolerance?: number;
+  be?: "series-base-diode" | "none";
+  devices?: DesignRecord["devices"];
+  /** Replace resolved roles with local classes (e.g. a class not yet in the library). */
+  override?: Partial<Record<DeviceRole, DeviceClass>>;
+}
+
+/**
+ * A high-gain small-signal NPN (BC547 group C class, TO-92): h_FE 420–800 at 2 mA, 5 V and
+ * V_CEO 45 V, V_EBO 6 V, I_C 100 mA (later sheets) are registered data (SOURCES.md table, "seen in
+ * reproductions"); the other gain points, saturation and switching values are typical, from memory.
+ * Local to the tests until the device library carries such a class.
+ */
+export const NPN_HIGH_GAIN: BjtClass = {
+  id: "npn-high-gain", family: "npn", title: "NPN small-signal high gain, TO-92", generic_type: "BC547C class", package: "TO-92",
+  tj_max_C: 150, rth_ja_KperW: 250, rth_jc_KperW: 83.3, vceo_V: 45, vcbo_V: 50, vebo_V: 6, ic_max_A: 0.1, ptot_W: 0.5, ptot_at: "ambient",
+  hfe: [{ ic_A: 1e-5, min: 200 }, { ic_A: 0.002, min: 420, typ: 520 }, { ic_A: 0.05, min: 200 }, { ic_A: 0.1, min: 100 }],
+  hfe_tempco_perK: 0.005,
+  vce_sat: [{ ic_A: 0.01, ib_A: 0.0005, vce_sat_V: 0.25, vbe_sat_V: 0.85 }, { ic_A: 0.1, ib_A: 0.005, vce_sat_V: 0.6, vbe_sat_V: 1.0 }],
+  vbe_on_V: 0.66, t_rise_s: 5e-8, t_fall_s: 8e-8, t_storage_s: 3e-7, ft_Hz: 3e8,
+  sources: { vceo_V: { source: "registered data, BC547 (SOURCES.md)", confidence: "registered" }, hfe: { source: "BC547 group C 420–800 @ 2 mA registered; other points from memory", confidence: "from-memory" } },
+};
+
+export function makeSpec(o: SpecOpts): VariantSpec {
+  const targets = {
+    pwm_Hz: o.pwm_Hz ?? 1000,
+    duty_min: o.duty?.[0] ?? 0.1,
+    duty_max: o.duty?.[1] ?? 0.9,
+    ambient_C: o.ambient_C ?? [-10, 40] as [number, number],
+    supply_tolerance: o.supply_tolerance ?? 0.1,
+    duty_skew_max: 0.02,
+    heatsink_min_KperW: 2,
+  };
+  const rec: DesignRecord = {
+    id: "test-design", title: "Test design", summary: "fixture",
+    axes: { supply_V: [o.supply_V], load_A: [o.load_A], chain: [o.chain], load_kind: [o.load_kind] },
+    targets, ...(o.devices ? { devices: o.devices } : {}),
+  };
+  return {
+    id: `test-${o.supply_V}v-${o.load_A}a-${o.chain}-${o.load_kind}`,
+    design: rec.id, designTitle: rec.title,
+    supply_V: o.supply_V, load_A: o.load_A, chain: o.chain, load_kind: o.load_kind,
+    targets, protection: { be_breakdown: o.be ?? "series-base-diode" },
+    devices: { ...chooseDevices(rec, library(), o.supply_V, o.load_A), ...(o.override ?? {}) },
+    policy: policy(),
+  };
+}
