@@ -9,6 +9,7 @@ import { performance } from "node:perf_hooks";
 import { loadProject, formatIssue } from "../records/index.ts";
 import { sizeProject, renderVariant, assembleCatalogue } from "./pipeline.ts";
 import { verifyAll } from "../verify/pool.ts";
+import { progressReporter } from "../verify/progress.ts";
 import { writeSite } from "../site/write.ts";
 import { makeStagingDir, swapIntoPlace, discardStaging, sweepLeftovers } from "./publish.ts";
 import { buildDate } from "./build-date.ts";
@@ -37,7 +38,7 @@ export async function runBuild(o: BuildOptions): Promise<number> {
   await sweepLeftovers(outDir);
 
   const sized = sizeProject(project);
-  const rendered = sized.map(({ design, sized: vs }) => ({ design, rendered: vs.map(renderVariant) }));
+  const rendered = sized.map(({ design, sized: vs }) => ({ design, rendered: vs.map((v) => renderVariant(v, project.devices)) }));
   const tSized = performance.now();
   const all = rendered.flatMap((d) => d.rendered);
   o.out.log(`sized and rendered ${all.length} variants of ${rendered.length} designs in ${((tSized - t0) / 1000).toFixed(1)} s`);
@@ -49,7 +50,7 @@ export async function runBuild(o: BuildOptions): Promise<number> {
       engine: o.spice,
       cacheDir: path.join(o.root, ".cache", "sim"),
       ...(o.workers !== undefined ? { workers: o.workers } : {}),
-      onProgress: progressPrinter(o.out),
+      onProgress: progressReporter(process.stderr),
     });
   }
   const tSim = performance.now();
@@ -71,6 +72,7 @@ export async function runBuild(o: BuildOptions): Promise<number> {
       for (const v of d.variants)
         if (v.verification && (v.verification.status === "disagree" || v.verification.status === "failed"))
           o.out.log(`  ${v.verification.status}: ${v.sized.spec.id}${v.verification.message ? ` — ${v.verification.message}` : ""}`);
+    if (process.env["PULSEWRIGHT_REPORT_RSS"]) o.out.log(`peak memory ${Math.round(process.resourceUsage().maxRSS / 1024)} MB`);
     if (o.strict && (s.disagree > 0 || s.failed > 0)) {
       o.out.error(`--strict: ${s.disagree} disagreeing and ${s.failed} failed simulations`);
       return 3;
@@ -82,6 +84,3 @@ export async function runBuild(o: BuildOptions): Promise<number> {
   }
 }
 
-function progressPrinter(out: { log(s: string): void }) {
-  return undefined as unknown as Parameters<typeof verifyAll>[1]["onProgress"];
-}

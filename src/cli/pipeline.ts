@@ -8,6 +8,7 @@ export type LoadedProject = Extract<LoadResult, { ok: true }>;
 import type { BuiltCatalogue, BuiltDesign, BuiltVariant } from "../model/catalogue.ts";
 import type { SizedVariant } from "../model/sized.ts";
 import type { Verification } from "../model/verification.ts";
+import type { DeviceLibrary } from "../model/device.ts";
 import { expandDesign } from "../expand/index.ts";
 import { chooseDevices } from "../engine/devices/choose.ts";
 import { sizeVariant, attachAlternatives } from "../engine/index.ts";
@@ -36,14 +37,14 @@ export function sizeProject(project: LoadedProject): { design: LoadedProject["de
 }
 
 /** The three circuit views of a variant; an infeasible variant without a circuit gets none. */
-export function renderVariant(sized: SizedVariant): RenderedVariant {
+export function renderVariant(sized: SizedVariant, devices: DeviceLibrary): RenderedVariant {
   const c = sized.circuit;
   if (!c) return { sized, netlist: "", schematicSvg: "", bomCsv: "" };
   const meta = { id: sized.spec.id, title: `${sized.spec.designTitle}, ${sized.spec.id}` };
   const f = findFigure(sized, "frequency_nominal")?.value ?? sized.spec.targets.pwm_Hz;
   return {
     sized,
-    netlist: renderNetlist(c, { ...meta, supply_V: sized.spec.supply_V, frequency_Hz: f }),
+    netlist: renderNetlist(c, { ...meta, supply_V: sized.spec.supply_V, frequency_Hz: f, devices }),
     schematicSvg: renderSchematic(c, meta),
     bomCsv: renderBom(c),
   };

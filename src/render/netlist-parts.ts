@@ -65,9 +65,18 @@ export function elementLines(p: Part, supply_V: number): ElementOut {
     case "fuse":
       return { lines: [`R${ref} ${n.join(" ")} ${v(p.spice?.r_ohm ?? FUSE_R_DEFAULT_OHM, "fuse resistance")}`], models: [] };
     case "motor": {
+      // Running-motor equivalent: winding resistance, winding inductance and the back-EMF at rated
+      // speed as a DC source (spice.vf_V), so the on-state current is the rated one, not the stall.
       const l = p.spice?.l_H ?? 0;
-      if (!(l > 0)) return { lines: [`R${ref} ${n.join(" ")} ${v(loadR(p), "r_ohm")}`], models: [] };
-      return { lines: [`R${ref} ${n[0]} ${inner} ${v(loadR(p), "r_ohm")}`, `L${ref} ${inner} ${n[1]} ${v(l, "l_H")}`], models: [] };
+      const emf = p.spice?.vf_V ?? 0;
+      const lines = [`R${ref} ${n[0]} ${inner} ${v(loadR(p), "r_ohm")}`];
+      let at = inner;
+      if (l > 0) {
+        lines.push(`L${ref} ${at} ${inner}l ${v(l, "l_H")}`);
+        at = `${inner}l`;
+      }
+      lines.push(emf > 0 ? `V${ref}EMF ${at} ${n[1]} DC ${v(emf, "vf_V")}` : `V${ref}EMF ${at} ${n[1]} DC 0`);
+      return { lines, models: [] };
     }
     case "lamp":
     case "heater":

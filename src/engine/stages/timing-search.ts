@@ -12,6 +12,7 @@ import { roundDown, roundUp, seriesBetween } from "../shared/e-series.ts";
 import { hfeMin, vbeOn, vceSat } from "../shared/gain.ts";
 import { type Ctx, OVERDRIVE_K, POT_TOLERANCE } from "./context.ts";
 import { type CoreValues, type Corner, NOMINAL_K, corners, diodeVf_V, evalCore } from "./core-model.ts";
+import { POT_RATINGS_W, RB_MS_FACTOR } from "./timing-parts.ts";
 
 export const POT_VALUES_OHM: readonly number[] = [2, 3, 4, 5, 6].flatMap((e) => [1, 2.2, 4.7].map((m) => Math.round(m * 10 ** e)));
 export const C_MAX_F = 10e-6;
@@ -88,6 +89,9 @@ export function searchCore(ctx: Ctx, q: BjtClass, db: DiodeClass, base: Base): S
         // its end resistor, (2·V_cc − V_on)/R_end, within the policy's current derating.
         const iQpk = ctx.vMax_V / (base.rC_ohm * (1 - ctx.rTol)) + (2 * ctx.vMax_V) / (rEnd * (1 - ctx.rTol));
         if (iQpk > q.ic_max_A * ctx.spec.policy.bjt.current.factor) continue;
+        // Pot track: the end resistor's RMS current through any part of a pot rated ≤ 2 W (timing-parts.ts).
+        const iBrms = Math.sqrt(RB_MS_FACTOR) * ctx.vMax_V / (rEnd * (1 - ctx.rTol));
+        if (iBrms * iBrms * pot * (1 + POT_TOLERANCE) > POT_RATINGS_W[POT_RATINGS_W.length - 1]! * ctx.spec.policy.resistor.power.factor) continue;
         const fErr = Math.abs(tTarget / (t1 * c) - 1);
         const miss = Math.max(0, lo.duty - t.duty_min) + Math.max(0, t.duty_max - hi.duty) + (lo.dtTh_s === null ? 1 : 0);
         const short = Math.max(0, OVERDRIVE_K - od);

@@ -84,7 +84,7 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
   const skew = Math.abs(e5.timing.aHigh - (v.rEnd_ohm + v.pot_ohm / 2) / (2 * v.rEnd_ohm + v.pot_ohm));
   const fErr = e5.f_Hz / ctx.f_Hz - 1;
   if (!search.found) problems.push(problem("timing", "/parts/RV_DUTY", "duty-range-unreachable", "error",
-    `No timing-core values reach the required duty range ${fmtPct(t.duty_min)}–${fmtPct(t.duty_max)} at ${ctx.f_Hz} Hz while keeping the timing transistors saturated (k ≥ 2 at minimum gain).`));
+    `No timing-core values reach the required duty range ${fmtPct(t.duty_min)}–${fmtPct(t.duty_max)} at ${ctx.f_Hz} Hz while keeping the timing transistors saturated (k ≥ 2 at minimum gain); the nearest reaches ${fmtPct(e0.duty)}–${fmtPct(e1.duty)}.`));
   else if (!search.passed) problems.push(problem("duty", "/parts/RV_DUTY", "duty-range-worst-case", "error",
     `Worst case the control reaches only ${fmtPct(w.dMin.hi)}–${fmtPct(w.dMax.lo)} duty at the load, short of the required ${fmtPct(t.duty_min)}–${fmtPct(t.duty_max)}.`,
     { limit: t.duty_min, actual: w.dMin.hi, unit: "" }));

@@ -1,0 +1,102 @@
+/**
+ * `npm run bench`: prints the speed and memory figures the issues set targets for. Figures are
+ * printed, never asserted (timing assertions do not belong in tests).
+ *   sizing per variant (median, incl. worst case)     target ≤ 1 ms
+ *   schematic per variant (median)                     target ≤ 10 ms
+ *   cold full build (empty simulation cache)           target ≤ 90 s for ≥ 200 simulated variants
+ *   warm rebuild (nothing changed)                     target ≤ 5 s
+ *   rebuild after editing one design record            (only its variants simulated again)
+ *   peak memory of a build                             target ≤ 1.5 GB
+ * Usage: npm run bench [-- --quick]   (--quick: sizing and drawing only)
+ */
+import { spawnSync } from "node:child_process";
+import { cpSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import path from "node:path";
+import { fileURLToPath } from "node:url";
+import { loadProject } from "../src/records/index.ts";
+import { expandDesign } from "../src/expand/index.ts";
+import { chooseDevices } from "../src/engine/devices/choose.ts";
+import { sizeVariant } from "../src/engine/index.ts";
+import { benchRender } from "./render.ts";
+
+const ROOT = fileURLToPath(new URL("..", import.meta.url));
+const median = (xs: number[]): number => {
+  const s = [...xs].sort((a, b) => a - b);
+  const m = s.length >> 1;
+  return s.length % 2 ? s[m]! : (s[m - 1]! + s[m]!) / 2;
+};
+
+async function benchEngine(): Promise<void> {
+  const project = await loadProject(ROOT);
+  if (!project.ok) throw new Error("records do not load: run `npm run check`");
+  const specs = project.designs.flatMap((d) =>
+    expandDesign(d.record, { choose: (r, s, a) => chooseDevices(r, project.devices, s, a), policy: project.policy }),
+  );
+  for (const s of specs) sizeVariant(s); // warm-up
+  const times: number[] = [];
+  const circuits = [];
+  for (let rep = 0; rep < 3; rep++)
+    for (const s of specs) {
+      const t0 = performance.now();
+      const sized = sizeVariant(s);
+      times.push(performance.now() - t0);
+      if (rep === 0 && sized.circuit)
+        circuits.push({ circuit: sized.circuit, meta: { id: s.id, title: s.designTitle, supply_V: s.supply_V, frequency_Hz: s.targets.pwm_Hz }, devices: project.devices });
+    }
+  console.log(`sizing:     ${specs.length} variants, median ${median(times).toFixed(3)} ms per variant incl. worst case (target ≤ 1 ms)`);
+  const r = benchRender(circuits, 3);
+  console.log(`schematic:  median ${r.schematicMedian_ms.toFixed(2)} ms per variant (target ≤ 10 ms); netlist median ${r.netlistBytesMedian} bytes`);
+}
+
+interface Run {
+  seconds: number;
+  peakRss_MB: number;
+  summary: string;
+}
+
+/** One `pulsewright build` in a child process, in a throw-away project root; peak RSS read from /proc. */
+function build(root: string): Run {
+  const bin = path.join(ROOT, "bin", "pulsewright.mjs");
+  const t0 = performance.now();
+  const res = spawnSync(process.execPath, [bin, "build", "--out", "_site"], {
+    cwd: root,
+    encoding: "utf8",
+    env: { ...process.env, PULSEWRIGHT_REPORT_RSS: "1" },
+    maxBuffer: 64 << 20,
+  });
+  const seconds = (performance.now() - t0) / 1000;
+  if (res.status !== 0) throw new Error(`build failed (${res.status}): ${res.stderr.slice(-2000)}`);
+  const rss = /peak memory (\d+) MB/.exec(res.stdout + res.stderr);
+  const summary = /published .*/.exec(res.stdout)?.[0] ?? "";
+  return { seconds, peakRss_MB: rss ? Number(rss[1]) : Number.NaN, summary };
+}
+
+function benchBuilds(): void {
+  const root = mkdtempSync(path.join(tmpdir(), "pulsewright-bench-"));
+  try {
+    cpSync(path.join(ROOT, "designs"), path.join(root, "designs"), { recursive: true });
+    cpSync(path.join(ROOT, "package.json"), path.join(root, "package.json"));
+    const cold = build(root);
+    console.log(`cold build: ${cold.seconds.toFixed(1)} s, peak memory ${cold.peakRss_MB} MB (targets ≤ 90 s, ≤ 1.5 GB)\n            ${cold.summary}`);
+    const warm = build(root);
+    console.log(`warm build: ${warm.seconds.toFixed(1)} s, peak memory ${warm.peakRss_MB} MB (target ≤ 5 s)`);
+    // Edit one record: a different PWM frequency changes every one of its variants' netlists.
+    const file = path.join(root, "designs", "nutrient-pump.json");
+    const rec = JSON.parse(readFileSync(file, "utf8")) as { targets: { pwm_Hz: number } };
+    rec.targets.pwm_Hz = Math.round(rec.targets.pwm_Hz * 1.1);
+    writeFileSync(file, JSON.stringify(rec, null, 2) + "\n");
+    const edit = build(root);
+    console.log(`one record edited: ${edit.seconds.toFixed(1)} s, peak memory ${edit.peakRss_MB} MB\n            ${edit.summary}`);
+    const simulated = cold.summary.match(/(\d+) agree, (\d+) disagree, (\d+) failed/);
+    if (simulated) {
+      const n = Number(simulated[1]) + Number(simulated[2]) + Number(simulated[3]);
+      console.log(`simulation: ${n} variants in the cold build`);
+    }
+  } finally {
+    rmSync(root, { recursive: true, force: true });
+  }
+}
+
+await benchEngine();
+if (!process.argv.includes("--quick")) benchBuilds();

@@ -1,0 +1,86 @@
+import { describe, expect, it } from "vitest";
+import type { BjtClass } from "../../../src/model/device.ts";
+import { makeContext } from "../../../src/engine/stages/context.ts";
+import { planBjtSingle } from "../../../src/engine/stages/chains/bjt-single.ts";
+import { planDarlington } from "../../../src/engine/stages/chains/darlington.ts";
+import { rdsOn_ohm } from "../../../src/engine/stages/chains/mosfet-common.ts";
+import { sizeVariant } from "../../../src/engine/index.ts";
+import { hfeMin, vbeSat, vceSat } from "../../../src/engine/shared/gain.ts";
+import { expectClose } from "../../helpers/close.ts";
+import { NPN_HIGH_GAIN, type SpecOpts, makeSpec } from "../fixtures.ts";
+
+const hg = { override: { timing_npn: NPN_HIGH_GAIN } };
+const fig = (s: ReturnType<typeof sizeVariant>, k: string): number => {
+  const f = s.figures.find((x) => x.key === k);
+  if (f === undefined) throw new Error(`no figure ${k}`);
+  return f.value;
+};
+
+describe("bjt-single drive (forced β 10, or k = 2 at β_min when β_min < 20 — common practice)", () => {
+  it("I_B = I_C,max / min(10, β_min/2) at the coldest ambient", () => {
+    const ctx = makeContext(makeSpec({ supply_V: 12, load_A: 0.5, chain: "bjt-single", load_kind: "resistive" }));
+    const dev = ctx.spec.devices.power_npn as BjtClass;
+    const beta = hfeMin(dev, ctx.iMax_A, ctx.taMin_C);
+    const plan = planBjtSingle(ctx);
+    const iB = plan.figures.find((f) => f.key === "power_base_current")!.value;
+    expectClose(iB, ctx.iMax_A / Math.min(10, beta / 2), 1e-12);
+    expect(plan.need.kind).toBe("base-current");
+    expect(plan.need.inverting).toBe(false);
+  });
+});
+
+describe("Darlington saturation voltage V_CE(sat),1 + V_BE,2 (ENGINEERING.md §3, common practice)", () => {
+  it("2-stage: never below V_CE(sat) of the driver plus the output V_BE", () => {
+    const ctx = makeContext(makeSpec({ supply_V: 24, load_A: 2, chain: "darlington-2", load_kind: "resistive" }));
+    const [d1, d2] = [ctx.spec.devices.driver_npn as BjtClass, ctx.spec.devices.power_npn as BjtClass];
+    const plan = planDarlington(ctx, 2);
+    expect(plan.vSwMax_V).toBeGreaterThan(vbeSat(d2, ctx.iMax_A));
+    // the stack voltage is exactly the two terms at the stage currents (first-stage current < 1/β of the load)
+    expect(plan.vSwMax_V).toBeLessThan(vceSat(d1, ctx.iMax_A / 10) + vbeSat(d2, ctx.iMax_A) + 1e-9);
+    expect(plan.vSwMax_V).toBeGreaterThan(vceSat(d1, 1e-6) + vbeSat(d2, ctx.iMax_A) - 1e-9);
+  });
+  it("3-stage threshold ≈ 3·V_BE(on) at the tap (common practice: ≈ n·0.7 V)", () => {
+    const plan = planDarlington(makeContext(makeSpec({ supply_V: 12, load_A: 5, chain: "darlington-3", load_kind: "resistive", ...hg })), 3);
+    expect(plan.need.kind === "base-current" && plan.need.vThreshold_V).toBeGreaterThan(3 * 0.6);
+    expect(plan.need.kind === "base-current" && plan.need.vThreshold_V).toBeLessThan(3 * 0.8);
+  });
+});
+
+describe("MOSFET R_DS(on) below the specified gate voltage (square law, derived)", () => {
+  it("scales as (V_spec − V_th,max)/(V_GS − V_th,max) and never falls below the datasheet point", () => {
+    const d = makeSpec({ supply_V: 12, load_A: 1, chain: "mosfet-driver", load_kind: "resistive" }).devices.mosfet_standard;
+    if (d.family !== "nmos") throw new Error("fixture");
+    // nmos-standard: 0.04 Ω at 10 V, V_th max 4 V → at 9 V: 0.04·6/5 = 0.048 Ω
+    expectClose(rdsOn_ohm(d, 9, false), 0.048, 1e-12);
+    expectClose(rdsOn_ohm(d, 12, false), 0.04, 1e-12);
+  });
+});
+
+describe("monotonicity: more current → more dissipation in the power device", () => {
+  const chains: SpecOpts["chain"][] = ["bjt-single", "darlington-2", "darlington-3", "bjt-driver-pnp", "mosfet-logic", "mosfet-driver"];
+  it.each(chains)("%s", (chain) => {
+    const a = sizeVariant(makeSpec({ supply_V: 12, load_A: 0.5, chain, load_kind: "resistive", pwm_Hz: 1000, ...hg }));
+    const b = sizeVariant(makeSpec({ supply_V: 12, load_A: 1, chain, load_kind: "resistive", pwm_Hz: 1000, ...hg }));
+    expect(fig(b, "device_dissipation")).toBeGreaterThan(fig(a, "device_dissipation"));
+  });
+});
+
+describe("polarity: ctrl 0 → minimum duty at the load, for inverting and non-inverting chains", () => {
+  it.each([["mosfet-logic", "ca", -1], ["mosfet-driver", "cb", 1], ["darlington-2", "ca", -1]] as const)("%s taps %s", (chain, tap, sign) => {
+    const s = sizeVariant(makeSpec({ supply_V: 12, load_A: 1, chain, load_kind: "resistive", pwm_Hz: 1000, ...hg }));
+    expect(s.circuit?.tapNet).toBe(tap);
+    expect(fig(s, "duty_min")).toBeLessThan(fig(s, "duty_mid"));
+    expect(fig(s, "duty_mid")).toBeLessThan(fig(s, "duty_max"));
+    // The slow exponential rise delays turn-on (non-inverting, shorter on-time) or turn-off (inverting, longer).
+    expect(Math.sign(fig(s, "duty_error_threshold"))).toBe(sign);
+  });
+});
+
+describe("switching loss shape by load kind (Rashid Ex. 4.2 ⅙ vs Mohan Eq. 2-6 ½)", () => {
+  it("a motor (clamped inductive) is costed with ½·V·I·t·f, a heater with ⅙", () => {
+    const m = sizeVariant(makeSpec({ supply_V: 12, load_A: 1, chain: "mosfet-driver", load_kind: "motor", pwm_Hz: 1000, ...hg }));
+    const h = sizeVariant(makeSpec({ supply_V: 12, load_A: 1, chain: "mosfet-driver", load_kind: "resistive", pwm_Hz: 1000, ...hg }));
+    expect(m.figures.find((f) => f.key === "switching_loss")!.formula).toContain("½");
+    expect(h.figures.find((f) => f.key === "switching_loss")!.formula).toContain("⅙");
+  });
+});
