@@ -46,8 +46,8 @@ function start(): void {
     for (const d of top) {
       const li = document.createElement("li");
       const a = document.createElement("a");
-      // Index URLs are root-absolute ("/variants/x/index.html"): resolve them against the site root.
-      a.href = new URL(d.url.replace(/^\/+/, ""), siteRoot).href;
+      // pagefind prefixes its URLs with the folder it was loaded from ("/catalogue/variants/x/index.html").
+      a.href = new URL(d.url, siteRoot).href;
       a.textContent = d.meta.title ?? d.url;
       const ex = document.createElement("span");
       ex.className = "excerpt";

@@ -19,6 +19,7 @@ import { expandDesign } from "../../src/expand/index.ts";
 import { chooseDevices } from "../../src/engine/devices/choose.ts";
 import { sizeVariant } from "../../src/engine/index.ts";
 import { browserCatalogue } from "./catalogue.ts";
+import { expectClose } from "../helpers/close.ts";
 import { REPO } from "./real-catalogue.ts";
 
 const CHROMIUM = "/usr/bin/chromium";
@@ -122,6 +123,7 @@ describe.skipIf(!HAVE)("the published site in a browser, under a URL prefix", ()
   it("size your own: the page's numbers equal the build-time engine's, for a catalogue point and an in-between one", async () => {
     const d = cat.designs.find((x) => x.record.id === "nutrient-pump")!;
     const page = await open(`designs/nutrient-pump/index.html`);
+    let lastId = "";
     const lib = new Map(cat.engine!.devices.map((x) => [x.id, x] as const));
     for (const inp of [{ supply_V: 24, load_A: 2, pwm_Hz: d.record.targets.pwm_Hz, chain: "mosfet-logic", load_kind: "motor" }, { supply_V: 18.5, load_A: 1.3, pwm_Hz: d.record.targets.pwm_Hz * 1.5, chain: "bjt-driver-pnp", load_kind: "motor" }] as const) {
       await page.getByLabel(/^Supply voltage/).fill(String(inp.supply_V));
@@ -134,13 +136,18 @@ describe.skipIf(!HAVE)("the published site in a browser, under a URL prefix", ()
       const rec = { ...d.record, targets: { ...d.record.targets, pwm_Hz: inp.pwm_Hz }, axes: { supply_V: [inp.supply_V], load_A: [inp.load_A], chain: [inp.chain], load_kind: [inp.load_kind] } };
       const [spec] = expandDesign(rec, { choose: (r, s, a) => chooseDevices(r, lib, s, a), policy: cat.engine!.policy });
       const sized = sizeVariant(spec!);
+      lastId = spec!.id;
       expect(shown.length, "figures shown").toBe(sized.figures.length);
-      expect(Object.fromEntries(shown)).toEqual(Object.fromEntries(sized.figures.map((f) => [f.key, f.value])));
+      expect(shown.map(([k]) => k).sort()).toEqual(sized.figures.map((f) => f.key).sort());
+      // Same code, same inputs; Chromium's and Node's V8 may round a transcendental function
+      // (Math.pow, Math.exp) differently in the last bit, so equal means within 1e-12 relative
+      // (common practice: a few units in the last place of an IEEE 754 double).
+      for (const [k, v] of shown) expectClose(v, sized.figures.find((f) => f.key === k)!.value, 1e-12, k);
       await expect(page.locator("#syo-out h3").first().textContent()).resolves.toContain(sized.feasible ? "feasible" : "not feasible");
     }
     if (await page.locator("#syo-out a.download").count()) {
       const [dl] = await Promise.all([page.waitForEvent("download"), page.locator("#syo-out a.download").click()]);
-      expect(await readFile((await dl.path())!, "utf8")).toMatch(/^\* pulsewright netlist nutrient-pump-18\.5v-1\.3a-bjt-driver-pnp-motor/);
+      expect(await readFile((await dl.path())!, "utf8")).toMatch(new RegExp(`^\\* pulsewright netlist ${lastId.replace(/\./g, "\\.")}\n[^]*\\.tran [^]*\\.end\\n?$`));
     }
     await page.screenshot({ path: path.join(SHOTS, "design-size-your-own.png"), fullPage: true });
     await page.close();

@@ -1,0 +1,138 @@
+/**
+ * Reference variants, worked by hand. Device data: designs/devices/*.json (registered data where
+ * SOURCES.md lists it, else typical values from memory); policy: designs/policies/default.json.
+ * The timing core uses a high-gain small-signal class (BC547C class, test/engine/fixtures.ts): the
+ * 2N3904-class minimum gain cannot hold k ≥ 2 over a 10–90 % pot range (see docs/method.md).
+ * Relations: ENGINEERING.md / docs/method.md; each assertion names its source.
+ */
+import { describe, expect, it } from "vitest";
+import { attachAlternatives, sizeVariant } from "../../src/engine/index.ts";
+import type { SizedVariant } from "../../src/model/sized.ts";
+import { expectClose } from "../helpers/close.ts";
+import { NPN_HIGH_GAIN, type SpecOpts, makeSpec, policy } from "./fixtures.ts";
+
+const hg = { override: { timing_npn: NPN_HIGH_GAIN } };
+const size = (o: SpecOpts): SizedVariant => sizeVariant(makeSpec({ ...hg, ...o }));
+const fig = (s: SizedVariant, k: string): number => {
+  const f = s.figures.find((x) => x.key === k);
+  if (f === undefined) throw new Error(`${s.spec.id}: no figure ${k}`);
+  return f.value;
+};
+const part = (s: SizedVariant, role: string) => s.circuit!.parts.find((p) => p.role === role)!;
+
+describe("R1 — 12 V 0.5 A bjt-single, resistive (1 kHz): the timing core cannot drive it", () => {
+  const s = size({ supply_V: 12, load_A: 0.5, chain: "bjt-single", load_kind: "resistive" });
+  it("power stage minimum gain and base current (forced β 10, common practice)", () => {
+    // npn-power-to220 gain points (0.3 A, 30) and (3 A, 15), log-log: slope ln(15/30)/ln 10 = −0.30103.
+    // I_max = 0.5 A × 13.2/12 = 0.55 A → β25 = 30·(0.55/0.3)^−0.30103 = 30·0.83310 = 24.993;
+    // −10 °C: × (1 + 0.005·(−35)) = × 0.825 → 20.62; forced β = min(10, 20.62/2) = 10 → I_B = 55 mA.
+    expectClose(fig(s, "power_gain_min"), 20.619, 1e-3, "log-log gain interpolation + tempco");
+    expectClose(fig(s, "power_base_current"), 0.055, 1e-9, "forced β 10 (common practice)");
+  });
+  it("is not feasible: 65 mA into the base needs R_C + R_T ≈ 140 Ω, but R_C ≥ 264 Ω (I_C ≤ ½·100 mA)", () => {
+    // Span ≈ 10.8 V − 1.2 V (V_BE(sat) at 0.55 A) = 9.6 V; 9.6 V / (65.3 mA × 1.05) = 140 Ω < 270 Ω.
+    expect(s.feasible).toBe(false);
+    expect(s.problems.map((p) => p.rule)).toContain("tap-drive-insufficient");
+    expect(s.reason).toMatch(/driver stage/);
+  });
+  it("on-state prediction: I = (12 − 0.40)/24 Ω = 0.4833 A (V_CE(sat) 0.4 V below the 1 A point)", () => {
+    expectClose(fig(s, "switch_on_voltage"), 0.4, 1e-9, "class V_CE(sat) point, held below 1 A");
+    expectClose(fig(s, "load_current_on"), 11.6 / 24, 1e-9, "Ohm's law on the load model R = V/I");
+  });
+});
+
+describe("R2 — 24 V 2 A darlington-2, motor (15 kHz): too slow to turn off for the duty range", () => {
+  const s = size({ supply_V: 24, load_A: 2, chain: "darlington-2", load_kind: "motor", pwm_Hz: 15000 });
+  it("stack voltage V_CE(sat),1 + V_BE(sat),2 (ENGINEERING.md §3, common practice)", () => {
+    // 2 A, 25 °C: β2 = 30·(2/0.3)^−0.30103 = 16.95 → I_B2 = 0.118 A; R_BE bleed 0.75/47 = 16 mA;
+    // Q_D1 carries ≈ 0.13 A: V_CE(sat) held at its 1 A point, 0.40 V; V_BE(sat),2 at 2 A =
+    // 1.2 + (2.0 − 1.2)·(2 − 1)/(6 − 1) = 1.36 V → 1.76 V.
+    expectClose(fig(s, "switch_on_voltage"), 1.76, 1e-9);
+    // Motor model: R = 24/(4·2) = 3 Ω, back-EMF 24 − 6 = 18 V → I = (24 − 1.76 − 18)/3 = 1.4133 A.
+    expectClose(fig(s, "load_current_on"), 4.24 / 3, 1e-9, "load model (typical small PM motor, from memory)");
+  });
+  it("output turn-off by charge control: t_f + (I_C/(2π f_T)) / (V_BE/R_BE) (derived)", () => {
+    const rBE = part(s, "RBE").value; // 47 Ω
+    // 2.2 A/(2π·3 MHz) = 116.7 nC; bleed 0.82 V/(47·0.95) = 18.36 mA → 6.355 µs + 0.5 µs = 6.855 µs
+    const t = 0.5e-6 + (2.2 / (2 * Math.PI * 3e6)) / ((0.75 + 0.002 * 35) / (rBE * 0.95));
+    expectClose(fig(s, "turn_off_time"), t, 1e-9);
+    expectClose(t, 6.855e-6, 1e-3);
+  });
+  it("is not feasible: the delays stretch the on-time so 10 % is out of reach; shows the nearest range", () => {
+    expect(s.feasible).toBe(false);
+    expect(fig(s, "duty_error_delays")).toBeGreaterThan(0.03); // ≈ (t_s,1 + t_off/2)/T ≈ 5 µs / 67 µs
+    expect(s.reason).toMatch(/duty range/);
+  });
+});
+
+describe("R3 — 12 V 5 A darlington-3, heater (200 Hz), design accepts heatsinks ≥ 5 K/W", () => {
+  const opts = { supply_V: 12, load_A: 5, load_kind: "resistive" as const, pwm_Hz: 200 };
+  const mk = (chain: SpecOpts["chain"]): SizedVariant => {
+    const spec = makeSpec({ ...hg, ...opts, chain });
+    return sizeVariant({ ...spec, targets: { ...spec.targets, heatsink_min_KperW: 5 } });
+  };
+  const d3 = mk("darlington-3");
+  it("stack voltage V_CE(sat),1 + V_BE,2 + V_BE,3 ≈ 2.97 V (ENGINEERING.md §3)", () => {
+    // 5 A, 25 °C: β3 (TO-3 class, (4 A, 20)→(10 A, 5)) = 20·1.25^−1.5129 = 14.27 → I_B3 = 0.350 A;
+    // bleed 0.85/16 = 53 mA → Q_D2 ≈ 0.39 A (V_BE(sat) held at 1.2 V below 1 A); Q_D3 V_BE(sat) 1.5 V;
+    // Q_D1 ≈ 14 mA: V_CE(sat) = 0.25 + 0.35·(0.0042/0.09) ≈ 0.266 V → 0.266 + 1.2 + 1.5 = 2.966 V.
+    expectClose(fig(d3, "switch_on_voltage"), 2.966, 2e-3);
+  });
+  it("dissipation ≈ I_max·V_sw·D_max and the heatsink R_θSA = (T_J,lim − T_A)/P − R_θJC − R_θCS (JESD51)", () => {
+    const p = fig(d3, "device_dissipation");
+    const dMax = d3.figures.find((f) => f.key === "duty_max")!.range![1];
+    // ≈ 5.5 A × 2.99 V (worst-case stack) × D_max (≈ 0.96) ≈ 15.8 W; switching at 200 Hz is negligible
+    expectClose(p, 5.5 * 2.99 * dMax, 0.03, "P = I·V_CE·D (common practice)");
+    const pol = policy();
+    const lim = Math.min(pol.bjt.tj_max_C.value_C, 200 - pol.bjt.tj_max_C.below_max_K);
+    expectClose(fig(d3, "heatsink_rth_sa_max"), (lim - 40) / p - 1.52 - 0.2, 1e-9, "JESD51 definitions; θ_CS 0.2 K/W TO-3 with grease (from memory)");
+    expectClose(fig(d3, "tj_free_air"), 40 + p * 35, 1e-9, "T_J = T_A + P·θ_JA, TO-3 35 K/W");
+  });
+  it("is not feasible (needs ≈ 3.6 K/W < 5 K/W) and points to a MOSFET chain", () => {
+    expect(d3.feasible).toBe(false);
+    expect(d3.reason).toMatch(/^3-stage Darlington at 5 A, 12 V: .*heatsink/);
+    const [alt] = attachAlternatives([d3, mk("mosfet-driver"), mk("darlington-2")]);
+    expect(alt!.alternative?.chain).toBe("mosfet-driver");
+    expect(alt!.alternative?.id).toBe("test-12v-5a-mosfet-driver-resistive");
+  });
+});
+
+describe("R4 — 24 V 3 A mosfet-driver, LED strip (3 kHz)", () => {
+  const s = size({ supply_V: 24, load_A: 3, chain: "mosfet-driver", load_kind: "led", pwm_Hz: 3000 });
+  it("is feasible, with a 12 V zener gate rail (26.4 V − V_BE > 20 V × 0.7 derated V_GS max)", () => {
+    expect(s.feasible).toBe(true);
+    expect(part(s, "DZ").value).toBe(12);
+    // V_GS,min = 12 V × 0.95 − V_BE(Q_HI, −10 °C) = 11.4 − (0.75 + 0.002·35) = 10.58 V
+    expectClose(fig(s, "gate_voltage_min"), 10.58, 1e-9, "zener tolerance + V_BE tempco (common practice)");
+  });
+  it("load current (24 − 3·0.04 − 18)/2 Ω = 2.94 A (LED model: string 75 % of V, R = 6 V/3 A)", () => {
+    expectClose(fig(s, "switch_on_voltage"), 0.12, 1e-9, "I·R_DS(on) at 10 V, 25 °C max");
+    expectClose(fig(s, "load_current_on"), 2.94, 1e-9);
+  });
+  it("frequency within 5 % of the textbook T = C·(2·R_end + R_pot)·ln((2V − V_on − V_sat)/(V − V_on))", () => {
+    const c = part(s, "CT_A").value, rEnd = part(s, "RB_A").value, pot = part(s, "RV_DUTY").value;
+    // V_on = V_BE 0.66 + base diode ≈ 0.65 V at µA (from memory) = 1.3 V; V_sat 0.25 V:
+    // ln((48 − 1.3 − 0.25)/(24 − 1.3)) = ln(2.0463) = 0.7160 → 470 pF·1.112 MΩ·0.716 = 374 µs → 2.67 kHz
+    const tHand = c * (2 * rEnd + pot) * Math.log((48 - 1.3 - 0.25) / (24 - 1.3));
+    expectClose(fig(s, "frequency_nominal"), 1 / tHand, 0.05, "Millman & Taub 1965 ch. 11 (from memory); loading + recovery account for the rest");
+  });
+  it("IEEE 1789: full-depth PWM ≥ 1250 Hz at the worst-case low frequency → low-risk note, no warning", () => {
+    const fLo = s.figures.find((f) => f.key === "frequency_nominal")!.range![0];
+    expect(fLo).toBeGreaterThan(1250);
+    expect(s.problems.find((p) => p.rule === "flicker")?.severity).toBe("note");
+  });
+});
+
+describe("R5 — 12 V 1 A bjt-driver-pnp, lamp (1 kHz)", () => {
+  const s = size({ supply_V: 12, load_A: 1, chain: "bjt-driver-pnp", load_kind: "lamp" });
+  it("lamp inrush 15 × 1.1 A = 16.5 A exceeds the PNP class's 10 A pulse rating (Fink & Beaty, from memory)", () => {
+    const c = s.checks.find((x) => x.ref === part(s, "Q_POWER").ref && x.quantity === "current" && x.rating === 10)!;
+    expectClose(c.stress, 16.5, 1e-9);
+    expect(c.verdict).toBe("fail");
+    expect(s.feasible).toBe(false);
+  });
+  it("on-state: V_CE(sat) 0.4 V at 1 A → I = 11.6/12 Ω = 0.9667 A, high side (load to ground)", () => {
+    expectClose(fig(s, "load_current_on"), 11.6 / 12, 1e-9);
+    expect(part(s, "LOAD").pins).toEqual({ a: "ls", b: "0" });
+  });
+});
