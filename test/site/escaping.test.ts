@@ -34,9 +34,9 @@ describe("escaping of record text", () => {
       const html = await read(site.dir, f);
       expect(html, f).not.toContain("<script>alert");
       expect(html, f).not.toContain("<img src=x");
-      // The only scripts are our own assets, loaded by relative URL, and the home page's inert JSON data block.
+      // The only scripts are our own assets, loaded by relative URL, and inert JSON data blocks (chooser index, size-your-own data).
       const tags = html.match(/<script\b[^>]*>/g) ?? [];
-      for (const t of tags) expect(t, f).toMatch(/^<script (src="(\.\.\/)*assets\/[a-z-]+\.js" defer|type="application\/json" id="chooser-index")>$/);
+      for (const t of tags) expect(t, f).toMatch(/^<script (src="(\.\.\/)*assets\/[a-z-]+\.js" defer|type="application\/json" id="(chooser-index|syo-data)")>$/);
       expect(html).toMatch(/<script src="(\.\.\/)*assets\/filter\.js" defer><\/script>/);
       expect(html).toMatch(/<script src="(\.\.\/)*assets\/search\.js" defer><\/script>/);
       shown += (html.match(/&lt;script&gt;alert\(&quot;pw&quot;\)&lt;\/script&gt; &amp; &lt;img src=x onerror=alert\(1\)&gt;/g) ?? []).length;

@@ -14,7 +14,7 @@ import { getDevice, isBjt, isDiode, isMosfet } from "./library.ts";
 
 /** Candidate classes per role in order of preference (documented in docs/method.md). */
 export const DEFAULT_DEVICE_IDS: Readonly<Record<DeviceRole, readonly string[]>> = {
-  timing_npn: ["npn-small-signal"],
+  timing_npn: ["npn-small-signal-high-gain", "npn-small-signal"],
   driver_npn: ["npn-small-signal", "npn-medium", "npn-power-to220"],
   driver_pnp: ["pnp-small-signal"],
   power_npn: ["npn-small-signal", "npn-medium", "npn-power-to220", "npn-power-to3"],
@@ -65,9 +65,11 @@ function fits(role: DeviceRole, d: DeviceClass, n: Need): boolean {
     // cope in free air at full duty.
     return d.ptot_at === "case" || freeAirOk(d, n.load_A * vceSat(d, n.load_A), n);
   }
-  // Drivers carry the power stage's base current, ≈ I_load / 10 at forced gain 10, in free air.
+  // Drivers carry the power stage's base current, in free air.
   if (isBjt(d) && role === "driver_npn") {
-    const i = n.load_A / 10;
+    // Power stage at forced β ≈ 10 (less at low gain), ×1.5 because its base resistor is sized at
+    // the lowest supply and carries more at the highest, plus the turn-off pull-up: ≈ 0.3·I_load.
+    const i = n.load_A * 0.3;
     return d.ic_max_A * SWITCH_HEADROOM >= i && d.vceo_V * SWITCH_HEADROOM >= vMax && freeAirOk(d, i * DRIVER_VCE_V, n);
   }
   if (isMosfet(d)) return d.vds_V * SWITCH_HEADROOM >= vMax;

@@ -1,7 +1,8 @@
 /**
  * bjt-driver-pnp: ground-referenced NPN driver (threshold ≈ V_BE) pulling the base of a saturating
  * power PNP high-side switch through RB_P; RPU is the PNP's turn-off pull-up (docs/topologies.md).
- * Both stages saturate: I_B = I_C / min(10, β_min/2) (common practice).
+ * Both stages saturate: power PNP I_B = I_C / min(10, β_min/2) (forced β, common practice);
+ * driver I_B = 2·I_C / β_min (overdrive 2 at minimum gain).
  */
 import type { BjtClass } from "../../../model/device.ts";
 import { nearest, roundDown } from "../../shared/e-series.ts";
@@ -37,7 +38,10 @@ export function planDriverPnp(ctx: Ctx): ChainPlan {
   const iRbpMax = (ctx.vMax_V - vbeOn(qp, ctx.taMax_C)) / (rBP * (1 - ctx.rTol));
   const iRbpMin = (ctx.vMin_V - vEB - vceD) / (rBP * (1 + ctx.rTol));
   const betaD = hfeMin(qd, iRbpMax, ctx.taMin_C);
-  const iBD = iRbpMax / Math.min(FORCED_BETA, betaD / OVERDRIVE_K);
+  // The driver is a small-signal switch carrying only the PNP's base current: overdrive k = 2 at
+  // its minimum gain (ENGINEERING §3, R_B ≤ β_min·R_C/k) saturates it without loading the timing
+  // core with a forced-β-10 base current; forced β 10 is kept for the power stage.
+  const iBD = (OVERDRIVE_K * iRbpMax) / betaD;
   const vClamp = vbeSat(qd, iRbpMax) + (vbeCold(qd, ctx) - qd.vbe_on_V);
   const vSwMax = vceSat(qp, ctx.iMax_A);
   const vSwNom = vceSat(qp, ctx.iNom_A);

@@ -14,7 +14,7 @@ import { hfeMin, vbeOn, vceSat } from "../../shared/gain.ts";
 import { conductionLossBjt_W, conductionLossMosfet_W, gateDrivePower_W, switchingLoss_W } from "../../shared/losses.ts";
 import { SRC } from "../../shared/sources.ts";
 import { resistor, transistor, zener } from "../../../circuit/parts.ts";
-import { type Ctx, FORCED_BETA, OVERDRIVE_K } from "../context.ts";
+import { type Ctx, OVERDRIVE_K } from "../context.ts";
 import { driveMargin, switchChecks, switchOffVoltage_V, vbeCold } from "./common.ts";
 import { WEAK_TURNOFF_FACTOR } from "./bjt-single.ts";
 import { gateTimes, plateau_V, rdsOn_ohm, specVgs_V } from "./mosfet-common.ts";
@@ -57,7 +57,8 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
   const iCD = iRP;
   void betaLo;
   const betaD = hfeMin(qd, iCD, ctx.taMin_C);
-  const iBD = iCD / Math.min(FORCED_BETA, betaD / OVERDRIVE_K);
+  // Small-signal driver: overdrive 2 at minimum gain (see driver-pnp.ts for why not forced β 10).
+  const iBD = (OVERDRIVE_K * iCD) / betaD;
   const vClamp = vbeOn(qd, ctx.taMin_C) + 0.15;
   const rOn = rG + rP / betaHi;
   const t = gateTimes(mos, rOn, vgsMin, rG);

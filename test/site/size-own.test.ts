@@ -1,0 +1,54 @@
+/**
+ * "Size your own" on Node and the chain comparison: the limits a design's review covers, clear
+ * errors outside them, and the build's own engine inside them (same function the page bundles).
+ * Limits rule: the design's axes min..max, PWM within a factor of two (our own rule, common practice).
+ */
+import { describe, expect, it } from "vitest";
+import { sizeOwn, sizeOwnLimits } from "../../src/site/size-own.ts";
+import { sizeOwnData } from "../../src/site/size-own-data.ts";
+import { compareTables } from "../../src/site/view-compare.ts";
+import { fixtureCatalogue } from "../fixtures/catalogue/index.ts";
+import { expectClose } from "../helpers/close.ts";
+
+const cat = fixtureCatalogue();
+const fan = cat.designs[0]!;
+
+describe("size your own", () => {
+  it("offers the design's axes from smallest to largest and its PWM frequency within a factor of two", () => {
+    expect(sizeOwnLimits(fan.record)).toEqual({ supply_V: [12, 24], load_A: [0.5, 0.5], pwm_Hz: [10000, 40000], chains: ["darlington-2", "mosfet-driver"], loadKinds: ["motor"] });
+  });
+
+  it("refuses inputs outside the limits, naming each field and its range", () => {
+    const data = sizeOwnData(cat, fan)!;
+    const r = sizeOwn(data, { supply_V: 36, load_A: 0.5, pwm_Hz: 5000, chain: "bjt-single", load_kind: "lamp" });
+    expect(r.ok).toBe(false);
+    if (r.ok) return;
+    expect(r.errors).toEqual([
+      "Supply voltage must be between 12 V and 24 V for this design.",
+      "PWM frequency must be between 10 kHz and 40 kHz for this design.",
+      "Output chain must be one of: darlington-2, mosfet-driver.",
+      "Load kind must be one of: motor.",
+    ]);
+    expect(sizeOwn(data, { supply_V: Number.NaN, load_A: 0.5, pwm_Hz: 20000, chain: "mosfet-driver", load_kind: "motor" }).ok).toBe(false);
+  });
+
+  it("without the catalogue's engine field, falls back to the device classes and policy the specs carry", () => {
+    const data = sizeOwnData(cat, fan)!;
+    const used = new Set(cat.designs.flatMap((d) => d.variants.flatMap((v) => Object.values(v.sized.spec.devices).map((x) => x.id))));
+    expect(data.devices.map((d) => d.id).sort()).toEqual([...used].sort());
+    expect(data.policy).toEqual(fan.variants[0]!.sized.spec.policy);
+  });
+});
+
+describe("chains compared", () => {
+  it("has one table per supply, current and load kind, one row per chain, with the variant's own figures", () => {
+    const t = compareTables(fan);
+    expect(t.map((x) => x.key)).toEqual(["12v-0.5a-motor", "24v-0.5a-motor"]);
+    expect(t[0]!.rows.map((r) => r.chain)).toEqual(["Darlington, 2 stages", "NPN driver + follower + MOSFET"]);
+    const v = fan.variants[0]!;
+    const dis = v.sized.figures.find((f) => f.key === "device_dissipation")!.value;
+    expectClose(Number.parseFloat(t[0]!.rows[0]!.dissipation) / 1000, dis, 5e-3, "mW shown, 3 significant digits");
+    expect(t[0]!.rows[0]!.parts).toBe(String(v.sized.circuit!.parts.length - 1)); // the motor is not a board part
+    expect(t[1]!.rows[0]!.word).toBe("not feasible");
+  });
+});
