@@ -76,5 +76,6 @@ export function assembleCatalogue(
     }),
   }));
   const p = project.policy;
-  return { builtAt, version, designs: built, policy: { id: p.id, title: p.title, document: p.document }, summary };
+  const devices = [...project.devices.values()].sort((a, b) => a.id.localeCompare(b.id));
+  return { builtAt, version, designs: built, policy: { id: p.id, title: p.title, document: p.document }, summary, engine: { devices, policy: p } };
 }
