@@ -24,6 +24,22 @@ export const KEY_FIGURES = [
 ] as const;
 export type KeyFigure = (typeof KEY_FIGURES)[number];
 
+/**
+ * Figures predicted at the conditions the simulation runs at (nominal supply, 25 °C, the
+ * minimum-gain models of the netlist, rated load), so predicted and simulated are like for like.
+ * The worst-case figures above (max supply, hot R_DS(on), cold gain) bound them and are not what a
+ * nominal simulation should reproduce.
+ */
+export const SIM_FIGURES = [
+  "frequency_nominal",
+  "duty_min",
+  "duty_mid",
+  "duty_max",
+  "load_current_on", // A, nominal supply
+  "switch_on_voltage_nominal", // V, nominal supply and load current, minimum gain, 25 °C
+  "device_dissipation_nominal", // W, power device average at duty_max, nominal supply, 25 °C
+] as const;
+
 export interface HeatsinkVerdict {
   needed: boolean;
   /** Largest sink-to-ambient thermal resistance that keeps T_J within the derated limit. */

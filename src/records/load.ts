@@ -31,10 +31,10 @@ export async function loadProject(root: string, options: LoadOptions = {}): Prom
 
   const readValid = async (file: string, validate: typeof vDesign): Promise<ParsedFile | null> => {
     const r = await readRecord(root, file);
-    if (!r.ok) { issues.push(...r.issues); return null; }
+    if (!r.ok) { for (const i of capIssues(r.issues)) issues.push(i); return null; }
     if (!validate) return null; // schema problem already reported
     const found = validateParsed(r.parsed, validate);
-    issues.push(...found);
+    for (const i of capIssues(found)) issues.push(i);
     return found.length === 0 ? r.parsed : null;
   };
 
@@ -67,6 +67,24 @@ export async function loadProject(root: string, options: LoadOptions = {}): Prom
     policy: policyParsed.data as DeratingPolicy,
     policyFile,
   };
+}
+
+/** Most issues listed for one file; the rest are counted in one closing issue. */
+export const MAX_ISSUES_PER_FILE = 50;
+
+/**
+ * A hostile file under the size limit can still hold 500 000 bad list items: listing each one
+ * helps nobody, and spreading that many into push() overflowed the call stack (a crash with a
+ * stack trace instead of a clear error). Keep the first ones by position, count the rest.
+ */
+function capIssues(found: readonly RecordIssue[]): RecordIssue[] {
+  if (found.length <= MAX_ISSUES_PER_FILE) return [...found];
+  const sorted = sortIssues(found);
+  const kept = sorted.slice(0, MAX_ISSUES_PER_FILE);
+  const next = sorted[MAX_ISSUES_PER_FILE]!;
+  const more = found.length - MAX_ISSUES_PER_FILE;
+  kept.push({ ...next, message: `and ${more} more problem(s) in this file, not listed`, remedy: "fix the problems listed above, then check again" });
+  return kept;
 }
 
 /**

@@ -10,9 +10,28 @@ export interface Position {
 export class LineIndex {
   /** String offsets (UTF-16 units) at which each line starts. */
   private readonly starts: number[] = [0];
+  /**
+   * pairsBefore[k]: surrogate pairs whose low half lies before offset k; null when the text has
+   * none. Precomputed so `at` is O(log lines): counting code points per call made a long one-line
+   * record with many issues quadratic (minutes for a 1 MiB file).
+   */
+  private readonly pairsBefore: Uint32Array | null = null;
 
   constructor(private readonly text: string) {
-    for (let i = 0; i < text.length; i++) if (text.charCodeAt(i) === 10) this.starts.push(i + 1);
+    let pairs = false;
+    for (let i = 0; i < text.length; i++) {
+      const c = text.charCodeAt(i);
+      if (c === 10) this.starts.push(i + 1);
+      else if (c >= 0xdc00 && c <= 0xdfff && i > 0 && isHigh(text.charCodeAt(i - 1))) pairs = true;
+    }
+    if (pairs) {
+      const acc = new Uint32Array(text.length + 1);
+      for (let i = 0; i < text.length; i++) {
+        const c = text.charCodeAt(i);
+        acc[i + 1] = (acc[i] ?? 0) + (c >= 0xdc00 && c <= 0xdfff && i > 0 && isHigh(text.charCodeAt(i - 1)) ? 1 : 0);
+      }
+      this.pairsBefore = acc;
+    }
   }
 
   /** Position of a UTF-16 offset into the text (clamped to the text). */
@@ -26,12 +45,12 @@ export class LineIndex {
       else hi = mid - 1;
     }
     const start = this.starts[lo] ?? 0;
-    return { line: lo + 1, col: codePoints(this.text.slice(start, off)) + 1 };
+    // A line starts after "\n", so no pair straddles `start`: code points = units − pairs inside.
+    const pairs = this.pairsBefore ? (this.pairsBefore[off] ?? 0) - (this.pairsBefore[start] ?? 0) : 0;
+    return { line: lo + 1, col: off - start - pairs + 1 };
   }
 }
 
-function codePoints(s: string): number {
-  let n = 0;
-  for (const _ of s) n++;
-  return n;
+function isHigh(c: number): boolean {
+  return c >= 0xd800 && c <= 0xdbff;
 }

@@ -13,7 +13,10 @@ import { type CollectorLoad, type CoreTiming, evaluateCore, thresholdDelay_s } f
 export interface CoreValues {
   c_F: number;
   pot_ohm: number;
-  rEnd_ohm: number;
+  /** End-stop resistor of side A (RB_A): with the pot at 0 it alone sets R_BA, so the minimum duty. */
+  rEndA_ohm: number;
+  /** End-stop resistor of side B (RB_B): sets 1 − maximum duty. Sized apart from RB_A (asymmetric stops). */
+  rEndB_ohm: number;
   rC_ohm: number;
   diodes: boolean;
   tapLoad: CollectorLoad;
@@ -62,8 +65,8 @@ export function evalCore(v: CoreValues, q: BjtClass, db: DiodeClass, k: Corner, 
   const rCB = v.rC_ohm * k.kRCB;
   const iC = k.vcc_V / Math.min(rCA, rCB);
   const vSat_V = vceSat(q, iC);
-  const rBA = v.rEnd_ohm * k.kEndA + v.pot_ohm * k.kPot * ctrl;
-  const rBB = v.rEnd_ohm * k.kEndB + v.pot_ohm * k.kPot * (1 - ctrl);
+  const rBA = v.rEndA_ohm * k.kEndA + v.pot_ohm * k.kPot * ctrl;
+  const rBB = v.rEndB_ohm * k.kEndB + v.pot_ohm * k.kPot * (1 - ctrl);
   const iB = k.vcc_V / Math.max(rBA, rBB);
   const vOn_V = vbeOn(q, k.t_C) + (v.diodes ? diodeVf_V(db, iB, k.t_C) : 0);
   const tapA = !v.inverting;
@@ -87,7 +90,7 @@ export function evalCore(v: CoreValues, q: BjtClass, db: DiodeClass, k: Corner, 
   return { timing, f_Hz: 1 / timing.period_s, duty, dtTh_s, vOn_V, vSat_V };
 }
 
-/** All 2^9 corners of supply, temperature and the seven component tolerances. */
+/** All 2^9 corners of supply, temperature and the seven component tolerances (the brute-force reference for worst-corners.ts). */
 export function corners(vMin: number, vMax: number, tMin: number, tMax: number, rTol: number, potTol: number, cTol: number): Corner[] {
   const out: Corner[] = [];
   for (let m = 0; m < 512; m++) {

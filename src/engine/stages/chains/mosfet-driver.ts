@@ -37,6 +37,8 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
   const vgsAllowed = mos.vgs_max_V * pol.mosfet.vgs.factor;
   const vbeHi = vbeOn(qhi, 25);
   const useZener = ctx.vMax_V - vbeOn(qhi, ctx.taMax_C) > vgsAllowed;
+  // Without the zener rail, the driver and follower hang from vbus (docs/topologies.md: vg = vbus).
+  const rail = useZener ? "vg" : "vbus";
   const railMin = useZener ? dz.vz_V * (1 - dz.vz_tolerance) : ctx.vMin_V;
   const railMax = useZener ? dz.vz_V * (1 + dz.vz_tolerance) : ctx.vMax_V;
   const railNom = useZener ? dz.vz_V : ctx.vNom_V;
@@ -67,7 +69,7 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
   if (vgsMin < vNeed) problems.push(problem("chain", "/parts/Q_POWER", "gate-drive-low", "warning", `The gate reaches only ${vgsMin.toFixed(2)} V at minimum supply, below the ${vNeed} V at which R_DS(on) is specified; R_DS(on) is estimated higher (${rds.toPrecision(3)} Ω hot).`, { limit: vNeed, actual: vgsMin, unit: "V" }));
   const parts: Part[] = [
     transistor("chain", "Q_DRV", qd, betaD, { c: "drc", b: "drb", e: "0" }, { voltage_V: railMax, current_A: iCD }),
-    transistor("chain", "Q_HI", qhi, betaHi, { c: "vg", b: "drc", e: "pp" }, { voltage_V: railMax, current_A: iGpk }),
+    transistor("chain", "Q_HI", qhi, betaHi, { c: rail, b: "drc", e: "pp" }, { voltage_V: railMax, current_A: iGpk }),
     transistor("chain", "Q_LO", qlo, betaLo, { c: "0", b: "drc", e: "pp" }, { voltage_V: railMax, current_A: iGpk }),
     transistor("chain", "Q_POWER", mos, undefined, { d: "sw", g: "g", s: "0" }, { voltage_V: switchOffVoltage_V(ctx), current_A: ctx.iMax_A }),
   ];
@@ -90,7 +92,7 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
     finish(tap, op) {
       // RP and the driver conduct while the load is OFF; taken at 100 % of the time (conservative).
       const offFrac = 1;
-      const rp = resistor("chain", "RP", rP, { a: "vg", b: "drc" }, (railMax * railMax) / (rP * (1 - ctx.rTol)) * offFrac, pol, "driver pull-up from the gate rail");
+      const rp = resistor("chain", "RP", rP, { a: rail, b: "drc" }, (railMax * railMax) / (rP * (1 - ctx.rTol)) * offFrac, pol, "driver pull-up from the gate rail");
       const rg = resistor("chain", "RG", rG, { a: "pp", b: "g" }, gateDrivePower_W(mos.qg_C, railMax, op.fMax_Hz), pol, "gate resistor");
       const rgs = resistor("chain", "RGS", RGS_OHM, { a: "g", b: "0" }, (vgsMax * vgsMax) / (RGS_OHM * (1 - ctx.rTol)) * op.dutyMax, pol, "gate pull-down");
       const out = [rp, rg, rgs];

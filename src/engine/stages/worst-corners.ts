@@ -1,0 +1,136 @@
+/**
+ * Worst case of the timing core without visiting all 2^9 corners. The argument (docs/method.md,
+ * "Worst case by monotonicity"): the two half-periods form a cooperative fixed point
+ *   t_A = R_BA·C_B·L(t_B/τ_B),  t_B = R_BB·C_A·L(t_A/τ_A),  L(u) = ln(1 + s·(1 − e^(−u))/(V_cc − V_on)),
+ * each increasing in the other. Each side's elasticity to the other, u·L'(u)/L(u), is below 1
+ * (because u·e^(−u) ≤ 1 − e^(−u) and ln(1 + y) > y/(1 + y)), so raising R_BA lengthens t_A by more
+ * (relatively) than the coupling lengthens t_B: the share t_A/T, hence the duty, rises with R_BA
+ * and falls with R_BB, and T rises with every R_B and C (x·L(c/x) is increasing in x). So the base
+ * resistances (end stops, pot) sit at known ends for every extreme. The collector resistors, the
+ * supply and the temperature act through V_CE(sat), the Thevenin high level and the recovery in
+ * both directions, and the capacitors also move the threshold delay: those are swept (both ends).
+ * test/engine/stages/worst-corners.test.ts checks every result against the brute-force sweep.
+ */
+import type { BjtClass, DiodeClass } from "../../model/device.ts";
+import { type CoreValues, type Corner, evalCore } from "./core-model.ts";
+
+export interface Envelope {
+  vMin: number;
+  vMax: number;
+  tMin: number;
+  tMax: number;
+  rTol: number;
+  potTol: number;
+  cTol: number;
+}
+export interface Range { lo: number; hi: number }
+export interface WorstCase {
+  f: Range;
+  dMin: Range;
+  dMid: Range;
+  dMax: Range;
+  recovery: number; // max 5·τ_c / t_off over corners
+  thresholdReached: boolean;
+}
+
+/** +1: upper end of the tolerance, −1: lower end, 0: both ends (swept). */
+type Dir = 1 | -1 | 0;
+interface Fixed { kEndA: Dir; kEndB: Dir; kPot: Dir; kCA: Dir; kCB: Dir }
+
+const ends = (d: Dir): number[] => (d === 0 ? [-1, 1] : [d]);
+
+/** Corners with the given tolerances fixed or swept; supply, temperature and both R_C always swept. */
+export function cornerSet(e: Envelope, fx: Fixed): Corner[] {
+  const out: Corner[] = [];
+  const m = (tol: number, s: number): number => 1 + s * tol;
+  for (const vcc_V of [e.vMin, e.vMax]) for (const t_C of [e.tMin, e.tMax])
+    for (const ra of [-1, 1]) for (const rb of [-1, 1])
+      for (const ea of ends(fx.kEndA)) for (const eb of ends(fx.kEndB)) for (const p of ends(fx.kPot))
+        for (const ca of ends(fx.kCA)) for (const cb of ends(fx.kCB))
+          out.push({ vcc_V, t_C, kEndA: m(e.rTol, ea), kEndB: m(e.rTol, eb), kPot: m(e.potTol, p), kCA: m(e.cTol, ca), kCB: m(e.cTol, cb), kRCA: m(e.rTol, ra), kRCB: m(e.rTol, rb) });
+  return out;
+}
+
+/** Which corners make each quantity extreme (the signs follow from the argument above). */
+export const SETS = {
+  /** Duty at control 0, highest: R_BA high, R_BB (end B + whole pot) low. */
+  dMinHi: { kEndA: 1, kEndB: -1, kPot: -1, kCA: 0, kCB: 0 },
+  dMinLo: { kEndA: -1, kEndB: 1, kPot: 1, kCA: 0, kCB: 0 },
+  /** Duty at control 1, lowest: R_BA (end A + whole pot) low, R_BB high. */
+  dMaxLo: { kEndA: -1, kEndB: 1, kPot: -1, kCA: 0, kCB: 0 },
+  dMaxHi: { kEndA: 1, kEndB: -1, kPot: 1, kCA: 0, kCB: 0 },
+  /** Control ½: the pot is on both sides, its sign depends on the end stops: swept. */
+  dMidHi: { kEndA: 1, kEndB: -1, kPot: 0, kCA: 0, kCB: 0 },
+  dMidLo: { kEndA: -1, kEndB: 1, kPot: 0, kCA: 0, kCB: 0 },
+  /** Period longest / shortest: every R_B and C at the same end. */
+  fLo: { kEndA: 1, kEndB: 1, kPot: 1, kCA: 1, kCB: 1 },
+  fHi: { kEndA: -1, kEndB: -1, kPot: -1, kCA: -1, kCB: -1 },
+  /** Recovery 5·τ_c/t_off, largest: all base resistances low (shortest off times); C swept. */
+  rec: { kEndA: -1, kEndB: -1, kPot: -1, kCA: 0, kCB: 0 },
+} as const satisfies Record<string, Fixed>;
+
+export function envelopeCorners(e: Envelope): Record<keyof typeof SETS, Corner[]> {
+  const o = {} as Record<keyof typeof SETS, Corner[]>;
+  for (const k of Object.keys(SETS) as (keyof typeof SETS)[]) o[k] = cornerSet(e, SETS[k]);
+  return o;
+}
+
+export type CornerSets = ReturnType<typeof envelopeCorners>;
+
+/** Highest (sign +1) or lowest (−1) load duty over a corner set at one control position. */
+export function dutyExtreme(v: CoreValues, q: BjtClass, db: DiodeClass, set: Corner[], ctrl: number, sign: 1 | -1): number {
+  let best = sign > 0 ? -Infinity : Infinity;
+  for (const k of set) {
+    const d = evalCore(v, q, db, k, ctrl).duty;
+    best = sign > 0 ? Math.max(best, d) : Math.min(best, d);
+  }
+  return best;
+}
+
+/** The worst case from the extreme corners only (≈ 700 evaluations instead of 1536). */
+export function worstCaseFast(v: CoreValues, q: BjtClass, db: DiodeClass, s: CornerSets): WorstCase {
+  const r = (): Range => ({ lo: Infinity, hi: -Infinity });
+  const w = { f: r(), dMin: r(), dMid: r(), dMax: r() };
+  let recovery = 0;
+  let reached = true;
+  const duty = (set: Corner[], ctrl: number, x: Range): void => {
+    for (const k of set) {
+      const e = evalCore(v, q, db, k, ctrl);
+      x.lo = Math.min(x.lo, e.duty); x.hi = Math.max(x.hi, e.duty);
+      if (e.dtTh_s === null) reached = false;
+    }
+  };
+  duty(s.dMinHi, 0, w.dMin); duty(s.dMinLo, 0, w.dMin);
+  duty(s.dMaxHi, 1, w.dMax); duty(s.dMaxLo, 1, w.dMax);
+  duty(s.dMidHi, 0.5, w.dMid); duty(s.dMidLo, 0.5, w.dMid);
+  for (const ctrl of [0, 0.5, 1]) for (const k of [...s.fLo, ...s.fHi]) {
+    const e = evalCore(v, q, db, k, ctrl);
+    w.f.lo = Math.min(w.f.lo, e.f_Hz); w.f.hi = Math.max(w.f.hi, e.f_Hz);
+  }
+  // Side A's off time is shortest at control 0, side B's at control 1.
+  for (const k of s.rec) {
+    const a = evalCore(v, q, db, k, 0).timing;
+    const b = evalCore(v, q, db, k, 1).timing;
+    recovery = Math.max(recovery, (5 * a.tauA_s) / a.tAoff_s, (5 * b.tauB_s) / b.tBoff_s);
+  }
+  return { ...w, recovery, thresholdReached: reached };
+}
+
+/** Brute force over the given corners at control 0, ½, 1: the reference the fast path is tested against. */
+export function worstCaseBrute(v: CoreValues, q: BjtClass, db: DiodeClass, all: Corner[]): WorstCase {
+  const r = (): Range => ({ lo: Infinity, hi: -Infinity });
+  const w = { f: r(), dMin: r(), dMid: r(), dMax: r() };
+  let recovery = 0;
+  let reached = true;
+  const put = (x: Range, y: number): void => { x.lo = Math.min(x.lo, y); x.hi = Math.max(x.hi, y); };
+  for (const k of all) {
+    for (const [ctrl, d] of [[0, w.dMin], [0.5, w.dMid], [1, w.dMax]] as const) {
+      const e = evalCore(v, q, db, k, ctrl);
+      put(w.f, e.f_Hz);
+      put(d, e.duty);
+      if (e.dtTh_s === null) reached = false;
+      recovery = Math.max(recovery, (5 * e.timing.tauA_s) / e.timing.tAoff_s, (5 * e.timing.tauB_s) / e.timing.tBoff_s);
+    }
+  }
+  return { ...w, recovery, thresholdReached: reached };
+}
