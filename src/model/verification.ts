@@ -10,6 +10,11 @@ export interface Comparison {
   /** Allowed relative (or absolute, when `tol_abs` is set) difference. */
   tol_rel?: number;
   tol_abs?: number;
+  /**
+   * "upper": a one-sided check: `predicted` is the engine's worst-case figure and the simulated
+   * (nominal) value must not exceed it. Absent: a like-for-like two-sided comparison.
+   */
+  bound?: "upper";
   ok: boolean;
 }
 

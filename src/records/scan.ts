@@ -97,6 +97,14 @@ export function scanJson(file: string, text: string): RecordIssue[] {
     }
   }
 
+  /**
+   * Escaped control characters (other than tab, line feed, carriage return) and the non-characters
+   * U+FFFE/U+FFFF are valid JSON but cannot be shown: XML 1.0 (§2.2 Char) forbids them in SVG even
+   * as character references, and they break HTML parsing and spreadsheet cells. Refuse them here.
+   */
+  const controlEscape = (at: number, ptr: string, code: number): void =>
+    report(at, ptr, `the text holds the control character U+${code.toString(16).toUpperCase().padStart(4, "0")}`, "remove it; only tab and line breaks are allowed in text");
+
   /** Reads a string token and returns its decoded value. */
   function string(ptr: string): string {
     const start = pos;
@@ -111,9 +119,12 @@ export function scanJson(file: string, text: string): RecordIssue[] {
         const e = text[pos + 1] ?? "";
         const simple: Record<string, string> = { '"': '"', "\\": "\\", "/": "/", b: "\b", f: "\f", n: "\n", r: "\r", t: "\t" };
         if (e === "u" && /^[0-9a-fA-F]{4}$/.test(text.slice(pos + 2, pos + 6))) {
-          out += String.fromCharCode(parseInt(text.slice(pos + 2, pos + 6), 16));
+          const code = parseInt(text.slice(pos + 2, pos + 6), 16);
+          if (unshowable(code)) controlEscape(pos, ptr, code);
+          out += String.fromCharCode(code);
           pos += 6;
         } else if (Object.hasOwn(simple, e)) {
+          if (e === "b" || e === "f") controlEscape(pos, ptr, e === "b" ? 8 : 12);
           out += simple[e] ?? "";
           pos += 2;
         } else fatal(pos, ptr, `invalid escape ${show("\\" + e)} in a string`, 'use one of \\" \\\\ \\/ \\b \\f \\n \\r \\t \\uXXXX');
@@ -138,6 +149,10 @@ export function scanJson(file: string, text: string): RecordIssue[] {
     if (!(e instanceof Stop)) throw e;
   }
   return issues;
+}
+
+function unshowable(code: number): boolean {
+  return (code < 0x20 && code !== 9 && code !== 10 && code !== 13) || (code >= 0x7f && code <= 0x9f) || code === 0xfffe || code === 0xffff;
 }
 
 function show(s: string): string {

@@ -43,6 +43,8 @@ const STANDARD_RECOVERY_MAX_Hz = 1000;
 /** A shunt reverse-polarity diode must carry the fault current until the fuse opens: I_FSM ≥ 10× fuse. */
 const REVERSE_SURGE_MULTIPLE = 10;
 
+/** Driver collector current per ampere of load at selection (see `fits`; common practice + derived). */
+const DRIVER_SHARE = 0.15;
 /** Selection estimate of a driver's V_CE (covers a Darlington first stage, ≈ 1 V; common practice). */
 const DRIVER_VCE_V = 1.0;
 
@@ -67,9 +69,12 @@ function fits(role: DeviceRole, d: DeviceClass, n: Need): boolean {
   }
   // Drivers carry the power stage's base current, in free air.
   if (isBjt(d) && role === "driver_npn") {
-    // Power stage at forced β ≈ 10 (less at low gain), ×1.5 because its base resistor is sized at
-    // the lowest supply and carries more at the highest, plus the turn-off pull-up: ≈ 0.3·I_load.
-    const i = n.load_A * 0.3;
+    // The heaviest driver duty is bjt-driver-pnp: the PNP's base current at forced β 10 (I/10),
+    // + 10 % for its pull-up, × ≈ 1.4 because RB_P is sized at the lowest supply (±10 %, 5 %
+    // resistors) → ≈ 0.15·I_load. Darlington first stages carry ≈ I/β₂ and the MOSFET driver only
+    // gate current, so this covers every chain. (0.3·I picked TO-220 drivers whose low gain at
+    // small currents then asked the timing core for more base current than it can give.)
+    const i = n.load_A * DRIVER_SHARE;
     return d.ic_max_A * SWITCH_HEADROOM >= i && d.vceo_V * SWITCH_HEADROOM >= vMax && freeAirOk(d, i * DRIVER_VCE_V, n);
   }
   if (isMosfet(d)) return d.vds_V * SWITCH_HEADROOM >= vMax;

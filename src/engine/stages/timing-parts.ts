@@ -34,8 +34,13 @@ export function timingParts(ctx: Ctx, q: BjtClass, db: DiodeClass, v: CoreValues
   // Base-resistor current: (V_cc − V_on)/R while its transistor is on; during the off phase it starts
   // at (V_cc − V_on + V_swing)/R and decays. With V_swing ≤ V_cc − V_on the mean square over the off
   // phase is ≤ 2.26·((V_cc − V_on)/R)² (integrating the exponential over t = τ·ln 2; derived).
-  const iBpk = (2 * vMax - vOn_V) / (v.rEnd_ohm * (1 - tol));
-  const iBrms = Math.sqrt(RB_MS_FACTOR) * (vMax - vOn_V) / (v.rEnd_ohm * (1 - tol));
+  // The two end stops differ (asymmetric range): each resistor carries its own current; the
+  // transistor and the pot see the larger (smaller end resistor).
+  const iBpkOf = (r: number): number => (2 * vMax - vOn_V) / (r * (1 - tol));
+  const iBrmsOf = (r: number): number => Math.sqrt(RB_MS_FACTOR) * (vMax - vOn_V) / (r * (1 - tol));
+  const rEndMin = Math.min(v.rEndA_ohm, v.rEndB_ohm);
+  const iBpk = iBpkOf(rEndMin);
+  const iBrms = iBrmsOf(rEndMin);
   const iQpk = iCmax + iBpk;
   const gain = hfeMin(q, iCmax, ctx.taMin_C);
   const baseA = v.diodes ? "na" : "ba";
@@ -43,8 +48,8 @@ export function timingParts(ctx: Ctx, q: BjtClass, db: DiodeClass, v: CoreValues
   const built = [
     resistor("timing", "RC_A", v.rC_ohm, { a: "vbus", b: "ca" }, (vMax * vMax) / (v.rC_ohm * (1 - tol)), pol, "collector resistor A"),
     resistor("timing", "RC_B", v.rC_ohm, { a: "vbus", b: "cb" }, (vMax * vMax) / (v.rC_ohm * (1 - tol)), pol, "collector resistor B"),
-    resistor("duty", "RB_A", v.rEnd_ohm, { a: "pa", b: baseA }, iBrms * iBrms * v.rEnd_ohm * (1 + tol), pol, "end stop A: minimum duty and maximum base current"),
-    resistor("duty", "RB_B", v.rEnd_ohm, { a: "pb", b: baseB }, iBrms * iBrms * v.rEnd_ohm * (1 + tol), pol, "end stop B"),
+    resistor("duty", "RB_A", v.rEndA_ohm, { a: "pa", b: baseA }, iBrmsOf(v.rEndA_ohm) ** 2 * v.rEndA_ohm * (1 + tol), pol, "end stop A: sets the minimum duty"),
+    resistor("duty", "RB_B", v.rEndB_ohm, { a: "pb", b: baseB }, iBrmsOf(v.rEndB_ohm) ** 2 * v.rEndB_ohm * (1 + tol), pol, "end stop B: sets the maximum duty"),
   ];
   const parts: Part[] = built.map((b) => b.part);
   const checks: StressCheck[] = built.flatMap((b) => b.checks);

@@ -1,34 +1,39 @@
 /**
- * Chooses the timing core's values: C from E12 (film/ceramic, ≤ 10 µF), the pot from the E3 values
- * pots are sold in (1, 2.2, 4.7 × 10^n, common practice) and the end resistors from E24, for the
- * target frequency, subject to the saturation rule R_B,max ≤ β_min·R_C/k (k = 2 at minimum gain,
- * cold, minimum supply) and to the required duty range at the load in the WORST case
- * (all 512 corners of supply, ambient and tolerances). Candidates are ranked by frequency error,
- * collector recovery and how closely the range fits (a miss of the nominal range or of k ≥ 2
- * ranks last and is reported); the first that passes worst case wins.
+ * Chooses the timing core's values by analysis first, search second:
+ *  1. for each pot value (1, 2.2, 4.7 × 10^n, common practice) the end stops RB_A and RB_B follow
+ *     from the duty shares D_min ≈ R_A/ΣR and 1 − D_max ≈ R_B/ΣR (ΣR = R_A + R_B + R_pot constant
+ *     over the pot, so the period stays put), corrected for the load-side offsets (threshold delay,
+ *     device delays) of one nominal evaluation and for the tolerances at their worst ends;
+ *  2. C from the period per farad (T ∝ C at fixed resistances), E12 above and below;
+ *  3. hard limits: saturation k = β_min·I_B/I_C ≥ 2 at V_cc,min, cold, on the LARGER base resistance
+ *     (R_end,max + R_pot at +tolerance); timing-transistor peak current; pot track rating; recovery;
+ *  4. ranking by frequency error and recovery; then, for the best candidates, each end stop moves
+ *     through its E24 neighbourhood to the largest value whose worst case still covers the required
+ *     end (so the range is covered with margin, but no more than needed), checked at the extreme
+ *     corners of worst-corners.ts. Pure; no state between variants.
  */
 import type { BjtClass, DiodeClass } from "../../model/device.ts";
-import { roundDown, roundUp, seriesBetween } from "../shared/e-series.ts";
+import { roundDown, roundUp } from "../shared/e-series.ts";
 import { hfeMin, vbeOn, vceSat } from "../shared/gain.ts";
 import { type Ctx, OVERDRIVE_K, POT_TOLERANCE } from "./context.ts";
-import { type CoreValues, type Corner, NOMINAL_K, corners, diodeVf_V, evalCore } from "./core-model.ts";
+import { type CoreValues, type Corner, NOMINAL_K, diodeVf_V, evalCore } from "./core-model.ts";
 import { POT_RATINGS_W, RB_MS_FACTOR } from "./timing-parts.ts";
+import { type CornerSets, type Envelope, type WorstCase, dutyExtreme, envelopeCorners, worstCaseFast } from "./worst-corners.ts";
+
+export type { Range, WorstCase } from "./worst-corners.ts";
 
 export const POT_VALUES_OHM: readonly number[] = [2, 3, 4, 5, 6].flatMap((e) => [1, 2.2, 4.7].map((m) => Math.round(m * 10 ** e)));
 export const C_MAX_F = 10e-6;
 export const C_MIN_F = 100e-12;
 /** Candidates whose collectors recover in more than 5× the shortest half-period (5·τ_c) are not built. */
 export const MAX_RECOVERY = 5;
+/** Smallest end-stop resistor considered, Ω. */
+export const R_END_MIN_OHM = 100;
+/** Candidates refined against the worst case before giving up (the ranking puts the likely ones first). */
+const REFINE_CANDIDATES = 4;
+/** E24 steps an end stop may move from its analytic value. */
+const MAX_STEPS = 6;
 
-export interface Range { lo: number; hi: number }
-export interface WorstCase {
-  f: Range;
-  dMin: Range;
-  dMid: Range;
-  dMax: Range;
-  recovery: number; // max 5·τ_c / t_off over corners
-  thresholdReached: boolean;
-}
 export interface Search {
   values: CoreValues;
   worst: WorstCase;
@@ -37,10 +42,11 @@ export interface Search {
   found: boolean;
 }
 
-type Base = Omit<CoreValues, "c_F" | "pot_ohm" | "rEnd_ohm">;
+type Base = Omit<CoreValues, "c_F" | "pot_ohm" | "rEndA_ohm" | "rEndB_ohm">;
 
-export function overdrive(ctx: Ctx, q: BjtClass, db: DiodeClass, base: Base, pot: number, rEnd: number): number {
-  const rB = rEnd * (1 + ctx.rTol) + pot * (1 + POT_TOLERANCE);
+/** k = β_min·I_B/I_C at V_cc,min, T_A,min, on the larger base resistance at +tolerance (pot +20 %). */
+export function overdrive(ctx: Ctx, q: BjtClass, db: DiodeClass, base: Base, pot: number, rEndA: number, rEndB: number): number {
+  const rB = Math.max(rEndA, rEndB) * (1 + ctx.rTol) + pot * (1 + POT_TOLERANCE);
   const iC = (ctx.vMin_V - vceSat(q, ctx.vMin_V / base.rC_ohm)) / (base.rC_ohm * (1 - ctx.rTol));
   const iB0 = ctx.vMin_V / rB;
   const vOn = vbeOn(q, ctx.taMin_C) + (base.diodes ? diodeVf_V(db, iB0, ctx.taMin_C) : 0);
@@ -48,77 +54,137 @@ export function overdrive(ctx: Ctx, q: BjtClass, db: DiodeClass, base: Base, pot
   return (iB * hfeMin(q, iC, ctx.taMin_C)) / iC;
 }
 
-export function worstCase(ctx: Ctx, q: BjtClass, db: DiodeClass, v: CoreValues, all: Corner[]): WorstCase {
-  const r = (): Range => ({ lo: Infinity, hi: -Infinity });
-  const w = { f: r(), dMin: r(), dMid: r(), dMax: r() };
-  let recovery = 0;
-  let reached = true;
-  const put = (x: Range, y: number): void => { x.lo = Math.min(x.lo, y); x.hi = Math.max(x.hi, y); };
-  for (const k of all) {
-    for (const [ctrl, d] of [[0, w.dMin], [0.5, w.dMid], [1, w.dMax]] as const) {
-      const e = evalCore(v, q, db, k, ctrl);
-      put(w.f, e.f_Hz);
-      put(d, e.duty);
-      if (e.dtTh_s === null) reached = false;
-      recovery = Math.max(recovery, (5 * e.timing.tauA_s) / e.timing.tAoff_s, (5 * e.timing.tauB_s) / e.timing.tBoff_s);
-    }
-  }
-  return { ...w, recovery, thresholdReached: reached };
+export function envelopeOf(ctx: Ctx): Envelope {
+  return { vMin: ctx.vMin_V, vMax: ctx.vMax_V, tMin: ctx.taMin_C, tMax: ctx.taMax_C, rTol: ctx.rTol, potTol: POT_TOLERANCE, cTol: ctx.cTol };
 }
+
+/**
+ * Smallest end resistor the limits allow (null: none): the timing transistor's peak current
+ * V_cc/R_C + (2·V_cc − V_on)/R_end within the policy's current derating (the other side's base
+ * node recharges through the end resistor), and the pot track, which carries the end resistor's
+ * RMS current √2.26·V_cc/R_end in any part of a ≤ 2 W track (√(P/R), common practice; timing-parts.ts).
+ */
+export function endFloor(ctx: Ctx, q: BjtClass, rC_ohm: number, pot: number): number | null {
+  const tol = ctx.rTol;
+  const iLeft = q.ic_max_A * ctx.spec.policy.bjt.current.factor - ctx.vMax_V / (rC_ohm * (1 - tol));
+  if (!(iLeft > 0)) return null;
+  const byCurrent = (2 * ctx.vMax_V) / (iLeft * (1 - tol));
+  const pMax = POT_RATINGS_W[POT_RATINGS_W.length - 1]! * ctx.spec.policy.resistor.power.factor;
+  const byPot = (Math.sqrt(RB_MS_FACTOR) * ctx.vMax_V) / ((1 - tol) * Math.sqrt(pMax / (pot * (1 + POT_TOLERANCE))));
+  return Math.max(R_END_MIN_OHM, byCurrent, byPot);
+}
+
+/**
+ * End resistance R_X so that, at the tolerance ends that raise its share, R_X/ΣR reaches `share`:
+ * X·(1+r)(1+c) / (X·(1+r)(1+c) + Rest·(1−c)) = share → X = share·Rest·(1−c)/((1−share)(1+r)(1+c)),
+ * Rest = (other end·(1−r) + pot·(1−p)) (derived from t_X ∝ R_X·C).
+ */
+function endFor(share: number, other: number, pot: number, e: Envelope): number {
+  if (!(share > 0)) return 0;
+  const rest = (other * (1 - e.rTol) + pot * (1 - e.potTol)) * (1 - e.cTol);
+  return (share * rest) / ((1 - share) * (1 + e.rTol) * (1 + e.cTol));
+}
+
+interface Cand { v: CoreValues; score: number; od: number; ok: boolean }
 
 export function searchCore(ctx: Ctx, q: BjtClass, db: DiodeClass, base: Base): Search {
   const t = ctx.spec.targets;
+  const env = envelopeOf(ctx);
   const nominal: Corner = { vcc_V: ctx.vNom_V, t_C: 25, ...NOMINAL_K };
   const tTarget = 1 / ctx.f_Hz;
-  const ranked: { v: CoreValues; score: number; od: number; ok: boolean }[] = [];
+  const tol = ctx.rTol;
+  const ranked: Cand[] = [];
   for (const pot of POT_VALUES_OHM) {
-    for (const rEnd of seriesBetween(100, 1e6, "E24")) {
-      const od = overdrive(ctx, q, db, base, pot, rEnd);
-      const unit: CoreValues = { ...base, c_F: 1, pot_ohm: pot, rEnd_ohm: rEnd };
-      const t1 = evalCore(unit, q, db, nominal, 0.5).timing.period_s; // period per farad (T ∝ C)
-      const cIdeal = tTarget / t1;
-      if (cIdeal > C_MAX_F * 1.2 || cIdeal < C_MIN_F) continue;
-      for (const c of new Set([roundDown(cIdeal, "E12"), roundUp(cIdeal, "E12")])) {
-        if (c > C_MAX_F || c < C_MIN_F) continue;
-        const v = { ...unit, c_F: c };
-        const lo = evalCore(v, q, db, nominal, 0);
-        const hi = evalCore(v, q, db, nominal, 1);
-        const rec = Math.max((5 * lo.timing.tauA_s) / lo.timing.tAoff_s, (5 * hi.timing.tauB_s) / hi.timing.tBoff_s);
-        if (rec > MAX_RECOVERY) continue;
-        // Timing transistor peak current: V_cc/R_C plus the other side's base-node recharge through
-        // its end resistor, (2·V_cc − V_on)/R_end, within the policy's current derating.
-        const iQpk = ctx.vMax_V / (base.rC_ohm * (1 - ctx.rTol)) + (2 * ctx.vMax_V) / (rEnd * (1 - ctx.rTol));
-        if (iQpk > q.ic_max_A * ctx.spec.policy.bjt.current.factor) continue;
-        // Pot track: the end resistor's RMS current through any part of a pot rated ≤ 2 W (timing-parts.ts).
-        const iBrms = Math.sqrt(RB_MS_FACTOR) * ctx.vMax_V / (rEnd * (1 - ctx.rTol));
-        if (iBrms * iBrms * pot * (1 + POT_TOLERANCE) > POT_RATINGS_W[POT_RATINGS_W.length - 1]! * ctx.spec.policy.resistor.power.factor) continue;
-        const fErr = Math.abs(tTarget / (t1 * c) - 1);
-        const miss = Math.max(0, lo.duty - t.duty_min) + Math.max(0, t.duty_max - hi.duty) + (lo.dtTh_s === null ? 1 : 0);
-        const short = Math.max(0, OVERDRIVE_K - od);
-        const excess = Math.max(0, hi.duty - lo.duty - (t.duty_max - t.duty_min));
-        const ok = miss === 0 && short === 0;
-        ranked.push({ v, od, ok, score: fErr + 0.2 * Math.max(0, rec - 1) + 0.2 * excess + 10 * miss + 10 * short });
-      }
+    // Shares from the ratio model, then once more with the load-side offsets of a nominal evaluation.
+    let a = 0, b = 0;
+    for (let i = 0; i < 3; i++) { a = endFor(t.duty_min, b, pot, env); b = endFor(1 - t.duty_max, a, pot, env); }
+    const probe: CoreValues = { ...base, c_F: 1, pot_ohm: pot, rEndA_ohm: Math.max(a, R_END_MIN_OHM), rEndB_ohm: Math.max(b, R_END_MIN_OHM) };
+    const perF = evalCore(probe, q, db, nominal, 0.5).timing.period_s;
+    const atC = { ...probe, c_F: tTarget / perF };
+    const r0 = a / (a + b + pot), r1 = (a + pot) / (a + b + pot);
+    const off0 = evalCore(atC, q, db, nominal, 0).duty - r0;
+    const off1 = evalCore(atC, q, db, nominal, 1).duty - r1;
+    for (let i = 0; i < 3; i++) { a = endFor(t.duty_min - off0, b, pot, env); b = endFor(1 - t.duty_max + off1, a, pot, env); }
+    const floor = endFloor(ctx, q, base.rC_ohm, pot);
+    if (floor === null) continue;
+    const rA = roundUp(Math.max(floor, roundDown(Math.max(a, R_END_MIN_OHM), "E24")), "E24");
+    const rB = roundUp(Math.max(floor, roundDown(Math.max(b, R_END_MIN_OHM), "E24")), "E24");
+    const unit: CoreValues = { ...base, c_F: 1, pot_ohm: pot, rEndA_ohm: rA, rEndB_ohm: rB };
+    const t1 = evalCore(unit, q, db, nominal, 0.5).timing.period_s; // period per farad (T ∝ C)
+    const cIdeal = tTarget / t1;
+    if (cIdeal > C_MAX_F * 1.2 || cIdeal < C_MIN_F) continue;
+    const od = overdrive(ctx, q, db, base, pot, rA, rB);
+    for (const c of new Set([roundDown(cIdeal, "E12"), roundUp(cIdeal, "E12")])) {
+      if (c > C_MAX_F || c < C_MIN_F) continue;
+      const v = { ...unit, c_F: c };
+      const lo = evalCore(v, q, db, nominal, 0);
+      const hi = evalCore(v, q, db, nominal, 1);
+      const rec = Math.max((5 * lo.timing.tauA_s) / lo.timing.tAoff_s, (5 * hi.timing.tauB_s) / hi.timing.tBoff_s);
+      if (rec > MAX_RECOVERY) continue;
+      const fErr = Math.abs(tTarget / (t1 * c) - 1);
+      const miss = Math.max(0, lo.duty - t.duty_min) + Math.max(0, t.duty_max - hi.duty) + (lo.dtTh_s === null ? 1 : 0);
+      const short = Math.max(0, OVERDRIVE_K - od);
+      const ok = miss === 0 && short === 0;
+      ranked.push({ v, od, ok, score: fErr + 0.2 * Math.max(0, rec - 1) + 10 * miss + 10 * short });
     }
   }
-  ranked.sort((a, b) => a.score - b.score);
-  const all = corners(ctx.vMin_V, ctx.vMax_V, ctx.taMin_C, ctx.taMax_C, ctx.rTol, POT_TOLERANCE, ctx.cTol);
+  ranked.sort((x, y) => x.score - y.score);
+  const sets = envelopeCorners(env);
   let first: Search | null = null;
-  for (const cand of ranked.filter((r) => r.ok).slice(0, 30)) {
-    const worst = worstCase(ctx, q, db, cand.v, all);
-    const passed = worst.thresholdReached && worst.dMin.hi <= t.duty_min && worst.dMax.lo >= t.duty_max;
-    const s = { values: cand.v, worst, overdrive: cand.od, passed, found: true };
+  for (const cand of ranked.filter((r) => r.ok).slice(0, REFINE_CANDIDATES)) {
+    const v = refineEnds(ctx, q, db, cand.v, sets, endFloor(ctx, q, base.rC_ohm, cand.v.pot_ohm) ?? R_END_MIN_OHM);
+    const od = overdrive(ctx, q, db, base, v.pot_ohm, v.rEndA_ohm, v.rEndB_ohm);
+    const worst = worstCaseFast(v, q, db, sets);
+    const passed = od >= OVERDRIVE_K && worst.thresholdReached && worst.dMin.hi <= t.duty_min && worst.dMax.lo >= t.duty_max && worst.recovery <= MAX_RECOVERY;
+    const s = { values: v, worst, overdrive: od, passed, found: true };
     if (passed) return s;
     first ??= s;
   }
   if (first !== null) return first;
-  // Nothing meets the nominal range with k ≥ 2: report the nearest miss, marked not found.
   const near = ranked[0];
-  if (near !== undefined) return { values: near.v, worst: worstCase(ctx, q, db, near.v, all), overdrive: near.od, passed: false, found: false };
-  // Nothing meets even the nominal range: report the plain ln 2 design so the reason can be shown.
-  const pot = 10_000;
-  const rEnd = 1_000;
-  const c = roundUp(tTarget / (Math.LN2 * (2 * rEnd + pot)), "E12");
-  const v = { ...base, c_F: c, pot_ohm: pot, rEnd_ohm: rEnd };
-  return { values: v, worst: worstCase(ctx, q, db, v, all), overdrive: overdrive(ctx, q, db, base, pot, rEnd), passed: false, found: false };
+  if (near !== undefined) return { values: near.v, worst: worstCaseFast(near.v, q, db, sets), overdrive: near.od, passed: false, found: false };
+  // Nothing buildable at all: report the plain ln 2 design so the reason can be shown.
+  const pot = 10_000, rEnd = 1_000;
+  const v = { ...base, c_F: roundUp(tTarget / (Math.LN2 * (2 * rEnd + pot)), "E12"), pot_ohm: pot, rEndA_ohm: rEnd, rEndB_ohm: rEnd };
+  return { values: v, worst: worstCaseFast(v, q, db, sets), overdrive: overdrive(ctx, q, db, base, pot, rEnd, rEnd), passed: false, found: false };
+}
+
+/**
+ * Moves each end stop through its E24 neighbourhood to the largest value whose worst case still
+ * reaches the required end (RB_A: highest duty at control 0 ≤ duty_min; RB_B: lowest duty at
+ * control 1 ≥ duty_max). Each side is monotonic in its own resistor (worst-corners.ts), so a
+ * walk down until it passes, or up while it still passes, finds it. Limits that tighten as a
+ * resistor shrinks (peak current, pot rating, recovery) are re-checked by the caller.
+ */
+export function refineEnds(ctx: Ctx, q: BjtClass, db: DiodeClass, v0: CoreValues, sets: CornerSets, floor_ohm: number): CoreValues {
+  const t = ctx.spec.targets;
+  let v = v0;
+  const okA = (x: CoreValues): boolean => dutyExtreme(x, q, db, sets.dMinHi, 0, 1) <= t.duty_min;
+  const okB = (x: CoreValues): boolean => dutyExtreme(x, q, db, sets.dMaxLo, 1, -1) >= t.duty_max;
+  for (let round = 0; round < 2; round++) {
+    v = walk(v, "rEndA_ohm", okA, floor_ohm);
+    v = walk(v, "rEndB_ohm", okB, floor_ohm);
+    if (okA(v)) break; // B's move shifts A's share slightly; one more round settles it
+  }
+  return v;
+}
+
+function walk(v: CoreValues, key: "rEndA_ohm" | "rEndB_ohm", ok: (x: CoreValues) => boolean, floor_ohm: number): CoreValues {
+  const at = (r: number): CoreValues => ({ ...v, [key]: r });
+  let r = v[key];
+  if (ok(v)) {
+    for (let i = 0; i < MAX_STEPS; i++) {
+      const up = roundUp(r * 1.001, "E24");
+      if (!ok(at(up))) break;
+      r = up;
+    }
+    return at(r);
+  }
+  for (let i = 0; i < MAX_STEPS; i++) {
+    const down = roundDown(r * 0.999, "E24");
+    if (down < floor_ohm) break;
+    r = down;
+    if (ok(at(r))) break;
+  }
+  return at(r);
 }

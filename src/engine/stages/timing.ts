@@ -81,10 +81,10 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
   const e0 = evalCore(v, q, db, nominal, 0);
   const e5 = evalCore(v, q, db, nominal, 0.5);
   const e1 = evalCore(v, q, db, nominal, 1);
-  const skew = Math.abs(e5.timing.aHigh - (v.rEnd_ohm + v.pot_ohm / 2) / (2 * v.rEnd_ohm + v.pot_ohm));
+  const skew = Math.abs(e5.timing.aHigh - (v.rEndA_ohm + v.pot_ohm / 2) / (v.rEndA_ohm + v.rEndB_ohm + v.pot_ohm));
   const fErr = e5.f_Hz / ctx.f_Hz - 1;
   if (!search.found) problems.push(problem("timing", "/parts/RV_DUTY", "duty-range-unreachable", "error",
-    `No timing-core values reach the required duty range ${fmtPct(t.duty_min)}–${fmtPct(t.duty_max)} at ${ctx.f_Hz} Hz while keeping the timing transistors saturated (k ≥ 2 at minimum gain); the nearest reaches ${fmtPct(e0.duty)}–${fmtPct(e1.duty)}.`));
+    `No timing-core values reach the required duty range ${fmtPct(t.duty_min)}–${fmtPct(t.duty_max)} at ${ctx.f_Hz} Hz while keeping the timing transistors saturated (k ≥ 2 at minimum gain); the nearest reaches ${fmtPct(e0.duty)}–${fmtPct(e1.duty)} with overdrive k = ${search.overdrive.toFixed(2)} (R_C = ${v.rC_ohm} Ω, set by what the chain input needs; R_B,max ≤ β_min·R_C/2, and the pot's track current sets the smallest end resistor).`));
   else if (!search.passed) problems.push(problem("duty", "/parts/RV_DUTY", "duty-range-worst-case", "error",
     `Worst case the control reaches only ${fmtPct(w.dMin.hi)}–${fmtPct(w.dMax.lo)} duty at the load, short of the required ${fmtPct(t.duty_min)}–${fmtPct(t.duty_max)}.`,
     { limit: t.duty_min, actual: w.dMin.hi, unit: "" }));
@@ -92,7 +92,7 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
   if (Math.abs(fErr) > 0.05) problems.push(problem("timing", "/parts/CT_A", "frequency-error", "warning", `The nearest preferred values give ${e5.f_Hz.toFixed(0)} Hz, ${fmtPct(fErr)} from the ${ctx.f_Hz} Hz target.`, { limit: 0.05, actual: fErr, unit: "" }));
   if (w.recovery > 1) problems.push(problem("timing", "/parts/RC_A", "collector-recovery", "warning", `The collectors recover in 5·τ_c = ${w.recovery.toFixed(2)} × the shortest half-period: the duty at the control's ends is shortened (the figures include it).`, { limit: 1, actual: w.recovery, unit: "" }));
   if (skew > t.duty_skew_max) problems.push(problem("timing", "/parts/RBAL", "duty-skew", "warning", `The timing core's duty skew from loading is ${fmtPct(skew)}, above the design's ${fmtPct(t.duty_skew_max)}.`, { limit: t.duty_skew_max, actual: skew, unit: "" }));
-  problems.push(problem("duty", "/parts/RV_DUTY", "no-full-off-on", "note", `The end resistors stop the control at ${fmtPct(e0.duty)}–${fmtPct(e1.duty)}: the load is never fully off or fully on from this control; use a separate switch for off.`));
+  problems.push(problem("duty", "/parts/RV_DUTY", "no-full-off-on", "note", `The end resistors stop the control at ${fmtPct(e0.duty)}–${fmtPct(e1.duty)} (nominal); over all tolerances, supply and temperature the control is sure to reach ${fmtPct(w.dMin.hi)}–${fmtPct(w.dMax.lo)}. The load is never fully off or fully on from this control; use a separate switch for off.`));
   const built = timingParts(ctx, q, db, v, tap, balance, balanceDiode, w, e5.vOn_V);
   const T = 1 / e5.f_Hz;
   const dt = e5.dtTh_s ?? 0;
@@ -105,7 +105,8 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
     figure("timing_capacitor", "Timing capacitors C (each)", v.c_F, "F", "timing", "C = T_target / (period per farad), E12", SRC.IEC60063),
     figure("timing_collector_resistor", "Collector resistors R_C (each)", v.rC_ohm, "Ω", "timing", "R_C = α·(V_cc,min − V_clamp)/I_need, bounded by the timing transistor's current", SRC.COMMON),
     figure("duty_pot", "Duty potentiometer", v.pot_ohm, "Ω", "duty", "E3 pot value; total base resistance R_BA + R_BB = 2·R_end + R_pot stays constant", SRC.COMMON),
-    figure("duty_end_resistor", "End-stop resistors R_B (each)", v.rEnd_ohm, "Ω", "duty", "D_min ≈ R_end/(2·R_end + R_pot), E24", SRC.DERIVED),
+    figure("duty_end_resistor", "End-stop resistor RB_A (minimum duty)", v.rEndA_ohm, "Ω", "duty", "D_min ≈ R_A/(R_A + R_B + R_pot) at the worst corner ≤ duty_min, largest such E24 value", SRC.DERIVED),
+    figure("duty_end_resistor_b", "End-stop resistor RB_B (maximum duty)", v.rEndB_ohm, "Ω", "duty", "1 − D_max ≈ R_B/(R_A + R_B + R_pot) at the worst corner ≤ 1 − duty_max, largest such E24 value", SRC.DERIVED),
     figure("timing_overdrive", "Timing transistor overdrive (worst case)", search.overdrive, "", "timing", "k = β_min·I_B/I_C, V_cc,min, T_A,min, R_B = (R_end + R_pot) at +tolerance; need k ≥ 2", SRC.COMMON),
     figure("collector_recovery", "Collector recovery 5·τ_c / shortest half-period (worst)", w.recovery, "", "timing", "5·(R_C ∥ R_load)·C / t_off,min (≤ 1: recovered)", SRC.DERIVED),
     figure("duty_min", "Duty at the load, control at 0 (nominal)", e0.duty, "", "duty", "D = (t_Aoff ∓ Δt_th ∓ delays)/T at ctrl 0", SRC.DERIVED, [w.dMin.lo, w.dMin.hi]),

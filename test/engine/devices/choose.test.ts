@@ -41,9 +41,9 @@ describe("chooseDevices: defaults by current and voltage", () => {
   });
 
   it.each([
-    [1, "npn-small-signal"], // 0.1 A × 1 V × 200 K/W = 20 K → 65 °C
-    [2, "npn-power-to220"], // 0.2 A: TO-92 over current; TO-18 0.2 W × 437.5 K/W = 87.5 K → 132.5 °C > 125 °C
-  ])("driver_npn for a %s A load → %s (base drive ≈ I/10 at forced gain 10, free air)", (load, id) => {
+    [1, "npn-small-signal"], // 0.15·1 A = 0.15 A ≤ 0.75 × 0.2 A; 0.15 W × 200 K/W = 30 K → 75 °C
+    [2, "npn-power-to220"], // 0.3 A: TO-92 over current; TO-18 0.3 W × 437.5 K/W = 131 K → > 125 °C
+  ])("driver_npn for a %s A load → %s (PNP base drive ≈ 0.15·I: forced gain 10 + pull-up + supply spread, free air)", (load, id) => {
     expect(chooseDevices(record(20e3), lib, 12, load).driver_npn.id).toBe(id);
   });
 
