@@ -9,7 +9,8 @@ import path from "node:path";
 
 export async function makeStagingDir(outDir: string): Promise<string> {
   const abs = path.resolve(outDir);
-  return mkdtemp(path.join(path.dirname(abs), `${path.basename(abs)}.staging-`));
+  // The pid in the name lets a later build tell a dead build's leftovers from a running one's.
+  return mkdtemp(path.join(path.dirname(abs), `${path.basename(abs)}.staging-${process.pid}-`));
 }
 
 async function exists(p: string): Promise<boolean> {
@@ -41,6 +42,18 @@ export async function discardStaging(stagingDir: string): Promise<void> {
   await rm(stagingDir, { recursive: true, force: true });
 }
 
+/** True when the build that made this folder (pid after the prefix) is still running. */
+function ownerAlive(name: string, prefix: string): boolean {
+  const pid = Number(name.slice(prefix.length).split("-")[0]);
+  if (!Number.isInteger(pid) || pid <= 0 || pid === process.pid) return false;
+  try {
+    process.kill(pid, 0);
+    return true;
+  } catch (err) {
+    return (err as NodeJS.ErrnoException).code === "EPERM";
+  }
+}
+
 /** Leftovers of killed builds (`_site.staging-*`, `_site.previous-*`): removed at the next build. */
 export async function sweepLeftovers(outDir: string): Promise<string[]> {
   const { readdir } = await import("node:fs/promises");
@@ -49,7 +62,7 @@ export async function sweepLeftovers(outDir: string): Promise<string[]> {
   const base = path.basename(abs);
   const removed: string[] = [];
   for (const name of await readdir(dir)) {
-    if (name.startsWith(`${base}.staging-`)) {
+    if (name.startsWith(`${base}.staging-`) && !ownerAlive(name, `${base}.staging-`)) {
       await rm(path.join(dir, name), { recursive: true, force: true });
       removed.push(name);
     }
