@@ -37,7 +37,7 @@ function collect(target: VerifyTarget, low: Run, mid: Run, high: Run): { measure
   const put = (key: string, label: string, unit: string, value: number): void => {
     if (Number.isFinite(value)) out.push({ key, label, unit, value });
   };
-  const iOn_A = onCurrent(target, high);
+  const iOn_A = onCurrent(high);
   if (!(iOn_A > 1e-4)) throw new Error(`the load never switches on at ctrl = 1 (on-current ${iOn_A} A)`);
 
   const tMid = loadTiming(target, mid, iOn_A);

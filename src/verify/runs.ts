@@ -5,7 +5,7 @@ import { simDeck } from "./deck.ts";
 import type { SpiceEngine } from "./engines/types.ts";
 import { pwmTiming, type PwmTiming } from "./edges.ts";
 import { timeAverage, upperLevel } from "./signal.ts";
-import { diodeElement, transistorElement, type VerifyTarget } from "./target.ts";
+import { transistorElement, type VerifyTarget } from "./target.ts";
 
 /**
  * Transient length, start-up discarded and largest step, in predicted periods. The core starts from
@@ -28,8 +28,6 @@ export interface Run {
   vbus_V: number;
   /** Power-device element names whose `@name[p]` was saved. */
   powerVectors: string[];
-  /** Freewheel diode current vector (`@d4[id]`), when the load is inductive and has one. */
-  diodeVector?: string;
 }
 
 /**
@@ -50,17 +48,14 @@ export async function runAt(target: VerifyTarget, netlist: string, engine: Spice
   const deck = simDeck(netlist, { ctrl, tStop_s, tMax_s: target.period_s / plan.stepsPerPeriod, kickNet: target.otherNet });
   const elements = target.powerRefs.map((r) => transistorElement(netlist, r));
   const powerVectors = elements.every((e) => e !== null) ? elements.map((e) => `@${e}[p]`) : [];
-  const diode = target.inductive && target.freewheelRef !== null ? diodeElement(netlist, target.freewheelRef) : null;
   const nets = ["vbus", target.tapNet, target.otherNet, target.chainInputNet, target.switchNet, "ls"];
-  const vectors = [...new Set(nets)].map((n) => `v(${n})`).concat("i(vsense)", powerVectors, diode ? [`@${diode}[id]`] : []);
+  const vectors = [...new Set(nets)].map((n) => `v(${n})`).concat("i(vsense)", powerVectors);
   const res = await engine.run(deck, vectors);
   const tEnd_s = res.t_s[res.t_s.length - 1] ?? 0;
   if (tEnd_s < 0.99 * tStop_s) throw new Error(`transient stopped early at ${tEnd_s} s of ${tStop_s} s`);
   const from_s = Math.min(settle_s, 0.8 * tEnd_s);
   const vbus = res.vectors["v(vbus)"]!;
-  const run: Run = { ctrl, t: res.t_s, v: res.vectors, from_s, tEnd_s, vbus_V: timeAverage(res.t_s, vbus, from_s, tEnd_s), powerVectors };
-  if (diode) run.diodeVector = `@${diode}[id]`;
-  return run;
+  return { ctrl, t: res.t_s, v: res.vectors, from_s, tEnd_s, vbus_V: timeAverage(res.t_s, vbus, from_s, tEnd_s), powerVectors };
 }
 
 export function vec(run: Run, name: string): Float64Array {
@@ -84,37 +79,28 @@ export function switchVoltage(target: VerifyTarget, run: Run): Float64Array {
 }
 
 /**
- * Current through the power switch: the load current less the freewheel diode's (the two share
- * the load current when the switch is off), or null without a diode vector.
- */
-export function switchCurrent(run: Run): Float64Array | null {
-  if (run.diodeVector === undefined) return null;
-  const d = vec(run, run.diodeVector);
-  return vec(run, "i(vsense)").map((x, k) => x - d[k]!);
-}
-
-/**
  * When the load is on. Resistive loads, lamps, LED strips: load current above half its on-value.
  * Inductive loads keep their current in the freewheel diode while the switch is off, so there the
- * switch current decides (on above half its on-value). The switch voltage is no guide for a motor:
- * with its current run down, the switch node sits at V_bus − back-EMF, which may be below half the
- * supply although the switch is off. Without a diode vector the switch voltage is the fallback.
+ * switch decides: on while its voltage is below half its lowest off-state level. Off, the switch
+ * sees V_bus + V_F while the diode conducts, but only V_bus − back-EMF once a motor's current has
+ * run down (low duty), so the level is min(V_bus, V_bus − EMF)/2. A switch whose on-voltage is not
+ * below that level leaves the motor without headroom; such a variant reports no oscillation.
  */
-export function loadTiming(target: VerifyTarget, run: Run, onCurrent_A: number): PwmTiming {
-  const iSw = target.inductive ? switchCurrent(run) : null;
-  if (target.inductive && iSw === null) {
-    const s = switchVoltage(target, run).map((x) => run.vbus_V - x);
-    return pwmTiming(run.t, s, run.vbus_V / 2, { hyst: 0.05 * run.vbus_V, from_s: run.from_s });
-  }
-  const level = onCurrent_A / 2;
-  return pwmTiming(run.t, iSw ?? vec(run, "i(vsense)"), level, { hyst: 0.1 * level, from_s: run.from_s });
+export function switchLevel(target: VerifyTarget, vbus_V: number): number {
+  return Math.min(vbus_V, vbus_V - target.loadEmf_V) / 2;
 }
 
-/**
- * The on-current that sets the on/off level, from a run where the load is on for most of the time
- * (ctrl = 1): of the switch for an inductive load with a diode vector, else of the load.
- */
-export function onCurrent(target: VerifyTarget, run: Run): number {
-  const i = (target.inductive ? switchCurrent(run) : null) ?? vec(run, "i(vsense)");
-  return upperLevel(run.t, i, run.from_s, run.tEnd_s);
+export function loadTiming(target: VerifyTarget, run: Run, onCurrent_A: number): PwmTiming {
+  if (target.inductive) {
+    const level = switchLevel(target, run.vbus_V);
+    const s = switchVoltage(target, run).map((x) => 2 * level - x); // high while the switch is on
+    return pwmTiming(run.t, s, level, { hyst: 0.1 * level, from_s: run.from_s });
+  }
+  const level = onCurrent_A / 2;
+  return pwmTiming(run.t, vec(run, "i(vsense)"), level, { hyst: 0.1 * level, from_s: run.from_s });
+}
+
+/** The load's on-current, from a run where it is on for a good part of the time (ctrl = 1). */
+export function onCurrent(run: Run): number {
+  return upperLevel(run.t, vec(run, "i(vsense)"), run.from_s, run.tEnd_s);
 }

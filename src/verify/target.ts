@@ -28,10 +28,10 @@ export interface VerifyTarget {
   predicted: Record<string, Predicted>;
   /** Predicted PWM period (1 / frequency_nominal); sets the transient's length and step. */
   period_s: number;
-  /** Freewheel diode ref (inductive loads): its current tells load current from switch current. */
-  freewheelRef: string | null;
   /** L/R of the load (0 when not inductive): how long its current takes to settle. */
   loadTau_s: number;
+  /** Back-EMF of a motor load in the netlist (0 otherwise): sets the switch's off level. */
+  loadEmf_V: number;
 }
 
 const POWER_ROLES = new Set(["Q_POWER", "Q_D1", "Q_D2", "Q_D3"]);
@@ -58,19 +58,9 @@ export function targetFromSized(sized: SizedVariant): VerifyTarget | null {
     powerRefs: c.parts.filter((p) => POWER_ROLES.has(p.role)).map((p) => p.ref),
     predicted,
     period_s: 1 / f,
-    freewheelRef: c.parts.find((p) => p.role === "D_FREEWHEEL")?.ref ?? null,
     loadTau_s: l_H > 0 && r_ohm > 0 ? l_H / r_ohm : 0,
+    loadEmf_V: load?.kind === "motor" ? Math.max(0, load.spice?.vf_V ?? 0) : 0,
   };
-}
-
-/** The netlist's element name of a diode ref (`D4`), when the netlist has one; else null. */
-export function diodeElement(netlist: string, ref: string): string | null {
-  const r = ref.toLowerCase();
-  for (const line of netlist.split("\n")) {
-    const name = line.trim().split(/\s+/)[0]?.toLowerCase() ?? "";
-    if (name === r && name.startsWith("d")) return name;
-  }
-  return null;
 }
 
 /**

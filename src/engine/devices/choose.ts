@@ -9,13 +9,14 @@ import { DEVICE_ROLES } from "../../model/design.ts";
 import type { BjtClass, DeviceClass, DeviceLibrary } from "../../model/device.ts";
 import type { DeviceFamily } from "../../model/kinds.ts";
 import { EngineMisuseError } from "../../model/problem.ts";
-import { vceSat } from "../shared/gain.ts";
+import { hfeMin, vbeSat, vceSat } from "../shared/gain.ts";
 import { getDevice, isBjt, isDiode, isMosfet } from "./library.ts";
 
 /** Candidate classes per role in order of preference (documented in docs/method.md). */
 export const DEFAULT_DEVICE_IDS: Readonly<Record<DeviceRole, readonly string[]>> = {
   timing_npn: ["npn-small-signal-high-gain", "npn-small-signal"],
-  driver_npn: ["npn-small-signal", "npn-medium", "npn-power-to220"],
+  // Chosen by gain, not by size (see `pickDriver`); listed smallest first for ties.
+  driver_npn: ["npn-small-signal-high-gain", "npn-small-signal", "npn-medium", "npn-power-to220"],
   driver_pnp: ["pnp-small-signal"],
   power_npn: ["npn-small-signal", "npn-medium", "npn-power-to220", "npn-power-to3"],
   power_pnp: ["pnp-small-signal", "pnp-power-to220"],
@@ -43,12 +44,23 @@ const STANDARD_RECOVERY_MAX_Hz = 1000;
 /** A shunt reverse-polarity diode must carry the fault current until the fuse opens: I_FSM ≥ 10× fuse. */
 const REVERSE_SURGE_MULTIPLE = 10;
 
-/** Driver collector current per ampere of load at selection (see `fits`; common practice + derived). */
-const DRIVER_SHARE = 0.15;
-/** Selection estimate of a driver's V_CE (covers a Darlington first stage, ≈ 1 V; common practice). */
+/**
+ * Driver current per ampere of load when it drives a power PNP (bjt-driver-pnp): the PNP's base
+ * current at forced β 10 (I/10), + 10 % for its pull-up, × ≈ 1.4 because RB_P is sized at the
+ * lowest supply and carries more at the highest (±15 % supply, 5 % resistors) → ≈ 0.15·I (derived).
+ */
+const PNP_DRIVER_SHARE = 0.15;
+/**
+ * A Darlington's first stage carries the output stage's base current plus its bleed at the highest
+ * supply: ≈ 1.3·I/β_min,out (β at T_A,min; + 10 % bleed, + 15 % supply; derived).
+ */
+const DARLINGTON_DRIVER_FACTOR = 1.3;
+/** V_CE of a Darlington first stage while the stack conducts: V_CE(sat),out-ish ≈ 1 V (common practice). */
 const DRIVER_VCE_V = 1.0;
+/** V_CE(sat) of the stage that drives a Darlington output (≈ 0.3 V small-signal; common practice). */
+const DARLINGTON_DRIVE_SAT_V = 0.3;
 
-interface Need { supply_V: number; load_A: number; pwm_Hz: number; ambientMax_C: number }
+interface Need { supply_V: number; load_A: number; pwm_Hz: number; ambientMin_C: number; ambientMax_C: number }
 
 /**
  * Free-air junction estimate at full duty and maximum ambient, against the usual limit
@@ -65,17 +77,10 @@ function fits(role: DeviceRole, d: DeviceClass, n: Need): boolean {
     if (d.ic_max_A * SWITCH_HEADROOM < n.load_A || d.vceo_V * SWITCH_HEADROOM < vMax) return false;
     // Case-rated packages may go on a heatsink (the thermal stage sizes it); small packages must
     // cope in free air at full duty.
-    return d.ptot_at === "case" || freeAirOk(d, n.load_A * vceSat(d, n.load_A), n);
-  }
-  // Drivers carry the power stage's base current, in free air.
-  if (isBjt(d) && role === "driver_npn") {
-    // The heaviest driver duty is bjt-driver-pnp: the PNP's base current at forced β 10 (I/10),
-    // + 10 % for its pull-up, × ≈ 1.4 because RB_P is sized at the lowest supply (±10 %, 5 %
-    // resistors) → ≈ 0.15·I_load. Darlington first stages carry ≈ I/β₂ and the MOSFET driver only
-    // gate current, so this covers every chain. (0.3·I picked TO-220 drivers whose low gain at
-    // small currents then asked the timing core for more base current than it can give.)
-    const i = n.load_A * DRIVER_SHARE;
-    return d.ic_max_A * SWITCH_HEADROOM >= i && d.vceo_V * SWITCH_HEADROOM >= vMax && freeAirOk(d, i * DRIVER_VCE_V, n);
+    // The same class serves bjt-single (saturated, V_CE(sat)) and the Darlington output, which
+    // cannot saturate: V_CE ≥ V_CE(sat),drv + V_BE(sat),out (ENGINEERING.md §3). Take the larger.
+    const vOn = Math.max(vceSat(d, n.load_A), DARLINGTON_DRIVE_SAT_V + vbeSat(d, n.load_A));
+    return d.ptot_at === "case" || freeAirOk(d, n.load_A * vOn, n);
   }
   if (isMosfet(d)) return d.vds_V * SWITCH_HEADROOM >= vMax;
   if (isDiode(d) && role === "freewheel_diode") {
@@ -84,6 +89,28 @@ function fits(role: DeviceRole, d: DeviceClass, n: Need): boolean {
   }
   if (isDiode(d) && role === "reverse_diode") return d.ifsm_A >= REVERSE_SURGE_MULTIPLE * 1.25 * n.load_A && d.vrrm_V * DIODE_VOLTAGE_HEADROOM >= vMax;
   return true;
+}
+
+/**
+ * The driver's job is to keep the load on the timing core small, so among the classes whose
+ * ratings fit its current (both uses: the PNP driver's ≈ 0.15·I and the Darlington first stage's
+ * ≈ 1.3·I/β_out) the one with the highest minimum gain wins, judged at the lower of its gains at
+ * the two currents (β_min from the class's gain points). Ratings: 75 % selection headroom on
+ * current and voltage, and free-air T_J at full duty (common practice).
+ */
+export function pickDriver(cands: BjtClass[], power: BjtClass, n: Need): BjtClass | undefined {
+  const iPnp = n.load_A * PNP_DRIVER_SHARE;
+  const iDar = (DARLINGTON_DRIVER_FACTOR * n.load_A) / hfeMin(power, n.load_A, n.ambientMin_C);
+  const iMax = Math.max(iPnp, iDar);
+  const vMax = n.supply_V * 1.1;
+  let best: { d: BjtClass; g: number } | undefined;
+  for (const d of cands) {
+    const p_W = Math.max(iPnp * vceSat(d, iPnp), iDar * DRIVER_VCE_V);
+    if (d.ic_max_A * SWITCH_HEADROOM < iMax || d.vceo_V * SWITCH_HEADROOM < vMax || !freeAirOk(d, p_W, n)) continue;
+    const g = Math.min(hfeMin(d, iPnp, n.ambientMin_C), hfeMin(d, iDar, n.ambientMin_C));
+    if (best === undefined || g > best.g) best = { d, g };
+  }
+  return best?.d;
 }
 
 function checkFamily(role: DeviceRole, d: DeviceClass, how: string): DeviceClass {
@@ -97,9 +124,11 @@ export function chooseDevices(record: DesignRecord, lib: DeviceLibrary, supply_V
   if (!Number.isFinite(supply_V) || supply_V <= 0 || !Number.isFinite(load_A) || load_A <= 0) {
     throw new EngineMisuseError(`chooseDevices(${record.id}): supply_V and load_A must be finite and > 0 (got ${supply_V}, ${load_A})`);
   }
-  const need: Need = { supply_V, load_A, pwm_Hz: record.targets.pwm_Hz, ambientMax_C: record.targets.ambient_C[1] };
+  const need: Need = { supply_V, load_A, pwm_Hz: record.targets.pwm_Hz, ambientMin_C: record.targets.ambient_C[0], ambientMax_C: record.targets.ambient_C[1] };
   const out = {} as Record<DeviceRole, DeviceClass>;
-  for (const role of DEVICE_ROLES) {
+  // The driver is judged against the power stage it drives, so the power stage is chosen first.
+  const order = [...DEVICE_ROLES.filter((r) => r !== "driver_npn"), "driver_npn" as const];
+  for (const role of order) {
     const bound = record.devices?.[role];
     if (bound !== undefined) {
       out[role] = checkFamily(role, getDevice(lib, bound), `design "${record.id}" binds`);
@@ -110,7 +139,9 @@ export function chooseDevices(record: DesignRecord, lib: DeviceLibrary, supply_V
     const last = present[present.length - 1];
     if (last === undefined) throw new EngineMisuseError(`chooseDevices: no default class for role "${role}" in the library (expected one of ${ids.join(", ")})`);
     // None fits: take the largest, and let the engine's stress checks say why it is not enough.
-    out[role] = checkFamily(role, present.find((d) => fits(role, d, need)) ?? last, "default");
+    const picked = role === "driver_npn" ? pickDriver(present.filter(isBjt), out.power_npn as BjtClass, need) : present.find((d) => fits(role, d, need));
+    out[role] = checkFamily(role, picked ?? last, "default");
   }
-  return out;
+  // Keys in the contract's role order (stable output).
+  return Object.fromEntries(DEVICE_ROLES.map((r) => [r, out[r]])) as Record<DeviceRole, DeviceClass>;
 }
