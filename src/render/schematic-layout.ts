@@ -1,72 +1,122 @@
 /**
- * Where each role sits: one table per stage (and per chain kind), in grid cells of its stage.
- * `rot` turns the upright symbol clockwise; `mirror` flips it left–right (inward-facing bases in
- * the timing core). `dx`/`dy` nudge a symbol within its cell so pins line up for straight wires.
- * The tables follow docs/topologies.md; docs/schematic.md shows the resulting arrangement.
+ * Where each role sits and how its wires run, one hand-drawn table per stage (chains in
+ * schematic-chains.ts). Coordinates are px: x relative to the stage's origin, y absolute (the vbus
+ * rail runs at RAIL_Y). `rot` turns the upright symbol clockwise after `mirror` flips it left–right.
+ * `routes` are the wires an engineer would draw, as corner lists: a point is "ROLE.pin" or
+ * [x, y] where each coordinate is a number or the same coordinate of a "ROLE.pin". A route is
+ * skipped when a role it names is absent, its pins sit on different nets, or its net is vbus or
+ * ground (those have their own drawing); the generic router (schematic-wire.ts) covers the rest.
+ *
+ * The timing core is drawn in its textbook symmetric form with the tapped side (R) on the right,
+ * next to the chain: emitters to ground, collector resistors from the rail, the timing capacitors
+ * crossing between each collector and the opposite base node, and the base network in one line:
+ * base ← diode ← node ← end-stop resistor ← potentiometer (wiper up to the rail) → … → other base.
  */
 import type { ChainKind } from "../model/kinds.ts";
 
+export type Rot = 0 | 90 | 180 | 270;
 export interface Slot {
-  col: number;
-  row: number;
-  rot?: 0 | 90 | 180 | 270;
+  x: number;
+  y: number;
+  rot?: Rot;
   mirror?: boolean;
-  dx?: number;
-  dy?: number;
+  label?: "left" | "right" | "above" | "below";
 }
-export type LayoutTable = Record<string, Slot>;
+export type Coord = number | string;
+export type RoutePt = string | readonly [Coord, Coord];
+export type Route = readonly RoutePt[];
+export interface StageLayout {
+  slots: Record<string, Slot>;
+  routes: Route[];
+  /** Horizontal room the stage takes (its labels included). */
+  width: number;
+}
+export interface ChainLayout extends StageLayout {
+  /** x of the switched column the load hangs in, and the topmost switched pin of the chain. */
+  outX: number;
+  outPin: string;
+}
 
-export const SUPPLY: LayoutTable = {
-  F_SUPPLY: { col: 0, row: -1, rot: 270 },
-  D_REVERSE: { col: 0, row: 0, rot: 180, dx: 30 },
-  C_BULK: { col: 1, row: 0, dx: 30 },
+export const SUPPLY: StageLayout = {
+  width: 280,
+  slots: {
+    F_SUPPLY: { x: 45, y: 50, rot: 270, label: "below" },
+    D_REVERSE: { x: 120, y: 140, rot: 180 },
+    C_BULK: { x: 200, y: 140 },
+  },
+  routes: [],
 };
 
-export const TIMING: LayoutTable = {
-  RC_A: { col: 0, row: 0, dx: -10 },
-  Q_A: { col: 0, row: 1, mirror: true },
-  CT_A: { col: 1, row: 0, rot: 270, dy: 30 },
-  DB_A: { col: 1, row: 1, rot: 90 },
-  RBAL: { col: 2, row: 2 },
-  DBAL: { col: 2, row: 3 },
-  CT_B: { col: 3, row: 0, rot: 90, dy: 30 },
-  DB_B: { col: 3, row: 1, rot: 270 },
-  RC_B: { col: 4, row: 0, dx: 10 },
-  Q_B: { col: 4, row: 1 },
+/** Core template: `_L` is the side the chain does not listen to, `_R` the tapped side. */
+const CORE_L = 180; // x of the left collector line
+const CORE_R = 660; // x of the right collector line (the tap)
+export const TAP_Y = 200; // the tap leaves the right collector at this height
+const BASE_Y = 300;
+const CORE_TEMPLATE: Record<string, Slot> = {
+  RBAL: { x: 70, y: 280, label: "left" },
+  DBAL: { x: 70, y: 380, label: "left" },
+  RC_L: { x: CORE_L, y: 120 },
+  Q_L: { x: CORE_L + 10, y: BASE_Y, mirror: true, label: "left" },
+  CT_L: { x: 250, y: 190, rot: 270, label: "above" },
+  DB_L: { x: 260, y: BASE_Y, rot: 90, label: "below" },
+  RB_L: { x: 350, y: BASE_Y, rot: 90, label: "below" },
+  RB_R: { x: 490, y: BASE_Y, rot: 270, label: "below" },
+  DB_R: { x: 580, y: BASE_Y, rot: 270, label: "below" },
+  CT_R: { x: 590, y: 230, rot: 90, label: "above" },
+  RC_R: { x: CORE_R, y: 120 },
+  Q_R: { x: CORE_R - 10, y: BASE_Y },
 };
+const NODE_L = 305; // where CT_R lands on the left base line
+const NODE_R = 535;
+const CORE_ROUTES: Route[] = [
+  ["RC_L.b", "Q_L.c"], ["RC_R.b", "Q_R.c"],
+  ["CT_L.a", [CORE_L, "CT_L.a"]], ["CT_R.a", [CORE_R, "CT_R.a"]],
+  ["Q_L.b", "DB_L.cathode"], ["Q_R.b", "DB_R.cathode"],
+  ["DB_L.anode", "RB_L.b"], ["DB_R.anode", "RB_R.b"],
+  ["Q_L.b", "RB_L.b"], ["Q_R.b", "RB_R.b"], // without base diodes
+  ["RB_L.a", [390, BASE_Y]], ["RB_R.a", [450, BASE_Y]],
+  ["CT_L.b", [NODE_R, "CT_L.b"], [NODE_R, BASE_Y]],
+  ["CT_R.b", [NODE_L, "CT_R.b"], [NODE_L, BASE_Y]],
+  [[CORE_L, 240], [70, 240], "RBAL.a"], ["RBAL.b", "DBAL.anode"],
+];
+export const CORE_WIDTH = 770;
 
-export const DUTY: LayoutTable = {
-  RB_A: { col: 0, row: 0, rot: 180 },
-  RV_DUTY: { col: 0, row: 1, mirror: true },
-  RB_B: { col: 0, row: 2 },
-};
+/** The side letter ("A" or "B") a template role stands for, given the tapped side. */
+export function sideRole(role: string, tapSide: "A" | "B"): string {
+  const other = tapSide === "A" ? "B" : "A";
+  return role.replace(/_(L|R)$/, (_m, s: string) => `_${s === "R" ? tapSide : other}`);
+}
 
-export const CHAIN: Record<ChainKind, LayoutTable> = {
-  "bjt-single": { RT: { col: 0, row: 1, rot: 270 }, Q_POWER: { col: 1, row: 1 }, RBE: { col: 1, row: 2, dx: -40 } },
-  "darlington-2": {
-    RT: { col: 0, row: 1, rot: 270 }, Q_D1: { col: 1, row: 1 }, Q_D2: { col: 2, row: 2 }, RBE: { col: 1, row: 2, dx: 10 },
-  },
-  "darlington-3": {
-    RT: { col: 0, row: 1, rot: 270 }, Q_D1: { col: 1, row: 1 }, Q_D2: { col: 2, row: 2 }, Q_D3: { col: 3, row: 3 },
-    RBE: { col: 2, row: 3, dx: 10 },
-  },
-  "bjt-driver-pnp": {
-    RT: { col: 0, row: 2, rot: 270 }, Q_DRV: { col: 1, row: 2 }, RPU: { col: 2, row: 0 }, RB_P: { col: 2, row: 1 },
-    Q_POWER: { col: 3, row: 1 },
-  },
-  "mosfet-logic": { RG: { col: 0, row: 1, rot: 270 }, Q_POWER: { col: 1, row: 1 }, RGS: { col: 1, row: 2, dx: -40 } },
-  "mosfet-driver": {
-    RT: { col: 0, row: 2, rot: 270 }, Q_DRV: { col: 1, row: 2 }, RZ: { col: 1, row: 0 }, DZ: { col: 1, row: 1, rot: 180 },
-    RP: { col: 2, row: 1 }, Q_HI: { col: 3, row: 1 }, Q_LO: { col: 3, row: 2 }, RG: { col: 4, row: 1, rot: 270, dy: 30 },
-    RGS: { col: 4, row: 2, dx: 30 }, Q_POWER: { col: 5, row: 1, dy: 30 },
-  },
-};
+function subPt(p: RoutePt, tapSide: "A" | "B"): RoutePt {
+  const s = (c: Coord): Coord => (typeof c === "string" ? c.replace(/^(\w+?_[LR])\./, (_m, r: string) => `${sideRole(r, tapSide)}.`) : c);
+  return typeof p === "string" ? (s(p) as string) : [s(p[0]), s(p[1])];
+}
 
-/** Load stage: the load and the current probe `Vsense` (drawn as an instrument, not a part). */
-export const LOAD_LOW: LayoutTable = { LOAD: { col: 0, row: 0 }, Vsense: { col: 0, row: 1 } };
-export const LOAD_HIGH: LayoutTable = { Vsense: { col: 0, row: 1 }, LOAD: { col: 0, row: 2 } };
-export const PROTECTION_LOW: LayoutTable = { D_FREEWHEEL: { col: 0, row: 0, rot: 180 } };
-export const PROTECTION_HIGH: LayoutTable = { D_FREEWHEEL: { col: 0, row: 1, rot: 180 } };
+/** Timing core plus duty control, with the tapped collector on the right. */
+export function coreLayout(tapSide: "A" | "B"): StageLayout {
+  const slots: Record<string, Slot> = {};
+  for (const [role, slot] of Object.entries(CORE_TEMPLATE)) slots[sideRole(role, tapSide)] = slot;
+  // The wiper points up to the rail; end `a` (pa, toward RB_A) must face side A.
+  slots.RV_DUTY = tapSide === "B" ? { x: 420, y: BASE_Y, rot: 270, label: "below" } : { x: 420, y: BASE_Y, rot: 90, mirror: true, label: "below" };
+  return { slots, routes: CORE_ROUTES.map((r) => r.map((p) => subPt(p, tapSide))), width: CORE_WIDTH };
+}
+
+/** Resolves "RC_R.b"-style references outside the core (the chain's tap wire). */
+export const resolveSide = subPt;
+
+/** Load stage (origin = the chain's switched column): load from the rail, probe in its loop. */
+export function loadLayout(highSide: boolean, outPin: string): StageLayout {
+  return highSide
+    ? { width: 200, slots: { Vsense: { x: 0, y: 250 }, LOAD: { x: 0, y: 350 } }, routes: [["Vsense.p", outPin], ["Vsense.n", "LOAD.a"]] }
+    : { width: 200, slots: { LOAD: { x: 0, y: 110 }, Vsense: { x: 0, y: 200 } }, routes: [["LOAD.b", "Vsense.p"], ["Vsense.n", outPin]] };
+}
+
+/** Freewheel diode to the right of the load, tied to the switched node beside the probe. */
+export function protectionLayout(highSide: boolean): StageLayout {
+  return highSide
+    ? { width: 200, slots: { D_FREEWHEEL: { x: 90, y: 280, rot: 180 } }, routes: [["D_FREEWHEEL.cathode", [90, 200], [0, 200]]] }
+    : { width: 200, slots: { D_FREEWHEEL: { x: 90, y: 190, rot: 180 } }, routes: [["D_FREEWHEEL.anode", [90, 240], [0, 240]]] };
+}
 
 /** Which chain a circuit carries, read from its chain-stage roles. */
 export function chainKindOf(roles: ReadonlySet<string>): ChainKind {

@@ -1,19 +1,19 @@
 /**
- * Placement: every part (and the `Vsense` probe) gets a cell from the layout tables; stages sit
- * left to right in STAGE_KINDS order. Produces absolute pin points, symbol boxes and label boxes.
+ * Placement: every part (and the `Vsense` probe) gets its slot from the stage tables; stages sit
+ * left to right (supply, core = timing + duty, chain, then load and protection in the chain's
+ * switched column). Produces absolute pin points, symbol boxes, label boxes and the tables' routes
+ * resolved to absolute corner points.
  */
 import type { CircuitModel, Part } from "../model/circuit.ts";
 import { formatValue } from "../model/format.ts";
-import { STAGE_KINDS, type StageKind } from "../model/kinds.ts";
+import type { StageKind } from "../model/kinds.ts";
+import { CHAIN } from "./schematic-chains.ts";
 import * as L from "./schematic-layout.ts";
 import { SYMBOLS, type Box, type SymbolDef } from "./symbols/index.ts";
 import { probe } from "./symbols/probe.ts";
 
-export const CELL_W = 130;
-export const CELL_H = 120;
 export const RAIL_Y = 50;
-export const TOP_Y = 80; // top of row 0
-export const LEFT_X = 70;
+export const LEFT_X = 60;
 export const FONT_PX = 12;
 export const LINE_PX = 14;
 /** Width estimate per character of the label font (sans-serif ≈ 0.5–0.6 em; take the high end). */
@@ -23,6 +23,7 @@ export type Pt = readonly [number, number];
 
 export interface Placed {
   key: string; // ref, or the instrument name
+  role: string;
   part?: Part;
   sym: SymbolDef;
   cx: number;
@@ -33,6 +34,7 @@ export interface Placed {
   box: Box;
   label: { lines: string[]; box: Box };
 }
+export interface Hint { net: string; pts: Pt[] }
 
 function transform(slot: L.Slot, p: Pt): Pt {
   let [x, y] = p;
@@ -43,14 +45,6 @@ function transform(slot: L.Slot, p: Pt): Pt {
     case 270: [x, y] = [y, -x]; break;
   }
   return [x, y];
-}
-
-function boxOf(points: Pt[]): Box {
-  const xs = points.map((p) => p[0]);
-  const ys = points.map((p) => p[1]);
-  const x = Math.min(...xs);
-  const y = Math.min(...ys);
-  return { x, y, w: Math.max(...xs) - x, h: Math.max(...ys) - y };
 }
 
 /** Label text: the ref, then the value (or the device class, wrapped at hyphens to ≤ 10 chars). */
@@ -67,56 +61,103 @@ export function labelLines(part: Part | undefined, key: string): string[] {
   return [part.ref, ...lines];
 }
 
-function tableFor(stage: StageKind, circuit: CircuitModel, highSide: boolean): L.LayoutTable {
-  switch (stage) {
-    case "supply": return L.SUPPLY;
-    case "timing": return L.TIMING;
-    case "duty": return L.DUTY;
-    case "chain": return L.CHAIN[L.chainKindOf(new Set(circuit.parts.filter((p) => p.stage === "chain").map((p) => p.role)))];
-    case "load": return highSide ? L.LOAD_HIGH : L.LOAD_LOW;
-    case "protection": return highSide ? L.PROTECTION_HIGH : L.PROTECTION_LOW;
+function labelBox(slot: L.Slot, box: Box, cx: number, cy: number, lines: string[]): Box {
+  const w = Math.max(...lines.map((s) => s.length)) * CHAR_W;
+  const h = lines.length * LINE_PX;
+  const sideways = slot.rot === 90 || slot.rot === 270;
+  switch (slot.label ?? (sideways ? "above" : "right")) {
+    case "left": return { x: box.x - w - 4, y: cy - h / 2, w, h };
+    case "above": return { x: cx - w / 2, y: box.y - h - 4, w, h };
+    case "below": return { x: cx - w / 2, y: box.y + box.h + 4, w, h };
+    case "right": return { x: box.x + box.w + 4, y: cy - h / 2, w, h };
   }
 }
 
-export function place(circuit: CircuitModel): Placed[] {
+interface Stage { layout: L.StageLayout; x0: number }
+
+function stages(circuit: CircuitModel, highSide: boolean): Record<StageKind, Stage> & { tapSide: "A" | "B" } {
+  const tapSide = circuit.tapNet === "ca" ? "A" : "B";
+  const chainRoles = new Set(circuit.parts.filter((p) => p.stage === "chain").map((p) => p.role));
+  const chain = CHAIN[L.chainKindOf(chainRoles)];
+  const core = L.coreLayout(tapSide);
+  const x1 = LEFT_X + L.SUPPLY.width;
+  const x2 = x1 + core.width;
+  const x3 = x2 + chain.outX;
+  return {
+    tapSide,
+    supply: { layout: L.SUPPLY, x0: LEFT_X },
+    timing: { layout: core, x0: x1 },
+    duty: { layout: core, x0: x1 },
+    chain: { layout: chain, x0: x2 },
+    load: { layout: L.loadLayout(highSide, chain.outPin), x0: x3 },
+    protection: { layout: L.protectionLayout(highSide), x0: x3 },
+  };
+}
+
+export function place(circuit: CircuitModel): { placed: Placed[]; hints: Hint[] } {
   const sense = circuit.instruments.find((i) => i.name === "Vsense");
   const highSide = sense !== undefined && sense.p === circuit.switchNet;
-  const out: Placed[] = [];
-  let x0 = LEFT_X;
-  for (const stage of STAGE_KINDS) {
-    const table = tableFor(stage, circuit, highSide);
-    const items: { key: string; part?: Part; sym: SymbolDef; nets: Record<string, string>; role: string }[] =
-      circuit.parts.filter((p) => p.stage === stage).map((p) => ({ key: p.ref, part: p, sym: SYMBOLS[p.kind], nets: p.pins, role: p.role }));
-    if (stage === "load" && sense) items.push({ key: "Vsense", sym: probe, nets: { p: sense.p, n: sense.n }, role: "Vsense" });
-    if (items.length === 0) continue;
-    let cols = 0;
-    for (const it of items) {
-      const slot = table[it.role];
-      if (!slot) throw new RangeError(`schematic: no place for role "${it.role}" (${it.key}) in stage "${stage}"`);
-      const cx = x0 + slot.col * CELL_W + 45 + (slot.dx ?? 0);
-      const cy = slot.row < 0 ? RAIL_Y : TOP_Y + slot.row * CELL_H + 60 + (slot.dy ?? 0);
-      const pins: Record<string, Pt> = {};
-      for (const [name, p] of Object.entries(it.sym.pins)) {
-        const [px, py] = transform(slot, p);
-        pins[name] = [cx + px, cy + py];
-      }
-      const b = it.sym.body;
-      const corners = ([[b.x, b.y], [b.x + b.w, b.y + b.h]] as Pt[]).map((p) => transform(slot, p));
-      const lb = boxOf(corners);
-      const box = { x: cx + lb.x, y: cy + lb.y, w: lb.w, h: lb.h };
-      const lines = labelLines(it.part, it.key);
-      const lw = Math.max(...lines.map((s) => s.length)) * CHAR_W;
-      const lh = lines.length * LINE_PX;
-      const sideways = slot.rot === 90 || slot.rot === 270;
-      const label = sideways
-        ? { lines, box: { x: box.x, y: box.y - lh - 4, w: lw, h: lh } }
-        : slot.mirror && slot.rot === undefined && it.part && /^(npn|pnp|nmos|pmos)$/.test(it.part.kind)
-          ? { lines, box: { x: box.x - lw - 4, y: cy - lh / 2, w: lw, h: lh } } // base on the right: label left
-          : { lines, box: { x: box.x + box.w + 4, y: cy - lh / 2, w: lw, h: lh } };
-      out.push({ key: it.key, ...(it.part ? { part: it.part } : {}), sym: it.sym, cx, cy, slot, pins, nets: it.nets, box, label });
-      cols = Math.max(cols, slot.col + 1);
+  const st = stages(circuit, highSide);
+  const items: { key: string; role: string; part?: Part; sym: SymbolDef; nets: Record<string, string>; stage: StageKind }[] =
+    circuit.parts.map((p) => ({ key: p.ref, role: p.role, part: p, sym: SYMBOLS[p.kind], nets: p.pins, stage: p.stage }));
+  if (sense) items.push({ key: "Vsense", role: "Vsense", sym: probe, nets: { p: sense.p, n: sense.n }, stage: "load" });
+  const placed: Placed[] = [];
+  for (const it of items) {
+    const { layout, x0 } = st[it.stage];
+    const slot = layout.slots[it.role];
+    if (!slot) throw new RangeError(`schematic: no place for role "${it.role}" (${it.key}) in stage "${it.stage}"`);
+    const cx = x0 + slot.x;
+    const cy = slot.y;
+    const pins: Record<string, Pt> = {};
+    for (const [name, p] of Object.entries(it.sym.pins)) {
+      const [px, py] = transform(slot, p);
+      pins[name] = [cx + px, cy + py];
     }
-    x0 += cols * CELL_W;
+    const b = it.sym.body;
+    const [c1, c2] = ([[b.x, b.y], [b.x + b.w, b.y + b.h]] as Pt[]).map((p) => transform(slot, p)) as [Pt, Pt];
+    const box = { x: cx + Math.min(c1[0], c2[0]), y: cy + Math.min(c1[1], c2[1]), w: Math.abs(c1[0] - c2[0]), h: Math.abs(c1[1] - c2[1]) };
+    const lines = labelLines(it.part, it.key);
+    placed.push({ key: it.key, role: it.role, ...(it.part ? { part: it.part } : {}), sym: it.sym, cx, cy, slot, pins, nets: it.nets, box,
+      label: { lines, box: labelBox(slot, box, cx, cy, lines) } });
+  }
+  return { placed, hints: resolveHints(placed, st) };
+}
+
+/** Table routes → absolute corner lists, dropping those that do not apply to this circuit. */
+function resolveHints(placed: Placed[], st: ReturnType<typeof stages>): Hint[] {
+  const byRole = new Map(placed.map((p) => [p.role, p]));
+  const out: Hint[] = [];
+  const seen = new Set<L.StageLayout>();
+  for (const stage of ["supply", "timing", "chain", "load", "protection"] as const) {
+    const { layout, x0 } = st[stage];
+    if (seen.has(layout)) continue;
+    seen.add(layout);
+    for (const route of layout.routes) {
+      const nets = new Set<string>();
+      const pin = (ref: string): Pt | undefined => {
+        const [role, name] = ref.split(".") as [string, string];
+        const p = byRole.get(role);
+        const net = p?.nets[name];
+        if (net !== undefined) nets.add(net);
+        return p?.pins[name];
+      };
+      const coord = (c: L.Coord, axis: 0 | 1): number | undefined =>
+        typeof c === "number" ? (axis === 0 ? x0 + c : c) : pin(c)?.[axis];
+      const pts: Pt[] = [];
+      for (const raw of route) {
+        const rp = L.resolveSide(raw, st.tapSide);
+        const at: Pt | undefined = typeof rp === "string" ? pin(rp) : (() => {
+          const x = coord(rp[0], 0);
+          const y = coord(rp[1], 1);
+          return x === undefined || y === undefined ? undefined : [x, y] as const;
+        })();
+        if (!at) { pts.length = 0; break; }
+        pts.push(at);
+      }
+      const net = [...nets][0];
+      if (pts.length < 2 || nets.size !== 1 || net === undefined || net === "vbus" || net === "0") continue;
+      out.push({ net, pts });
+    }
   }
   return out;
 }

@@ -15,6 +15,8 @@ export interface Routing {
   grounds: Pt[];
   flags: Flag[];
   dots: { net: string; at: Pt }[];
+  /** Layout-table routes not drawn because they were blocked (0 for a well-made table). */
+  hintsRefused: number;
 }
 
 const eq = (a: number, b: number) => Math.abs(a - b) < 0.01;
@@ -46,7 +48,9 @@ export class Router {
 
   constructor(placed: Placed[]) {
     for (const p of placed) {
-      this.obstacles.push(p.box, p.label.box);
+      // Text needs clear air: a label blocks 2 px beyond its box (beyond the 1.5 px check margin).
+      const l = p.label.box;
+      this.obstacles.push(p.box, { x: l.x - 3.5, y: l.y - 3.5, w: l.w + 7, h: l.h + 7 });
       for (const [name, net] of Object.entries(p.nets)) {
         const pt = p.pins[name];
         if (pt) this.pinsByNet.set(net, [...(this.pinsByNet.get(net) ?? []), pt]);

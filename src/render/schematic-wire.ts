@@ -1,5 +1,8 @@
-/** Runs the router over a placed circuit: rail, grounds, then every other net in name order. */
-import type { Placed, Pt } from "./schematic-place.ts";
+/**
+ * Runs the router over a placed circuit: rail and grounds, then the layout tables' drawn routes
+ * (each kept only if it is clear), then every pin still unattached, net by net in name order.
+ */
+import type { Hint, Placed, Pt } from "./schematic-place.ts";
 import { junctions, RAIL_Y, Router, type Routing, type Seg } from "./schematic-route.ts";
 
 interface PinAt { pt: Pt; centre: Pt }
@@ -11,7 +14,12 @@ function project(p: Pt, s: Seg): Pt {
   return [clamp(p[0], s[0][0], s[1][0]), clamp(p[1], s[0][1], s[1][1])];
 }
 
-export function wire(placed: Placed[]): Routing {
+const orthogonal = (a: Pt, b: Pt) => Math.abs(a[0] - b[0]) < 0.01 || Math.abs(a[1] - b[1]) < 0.01;
+const touches = (p: Pt, s: Seg) => (Math.abs(s[0][0] - s[1][0]) < 0.01
+  ? Math.abs(p[0] - s[0][0]) < 0.01 && p[1] >= Math.min(s[0][1], s[1][1]) - 0.01 && p[1] <= Math.max(s[0][1], s[1][1]) + 0.01
+  : Math.abs(p[1] - s[0][1]) < 0.01 && p[0] >= Math.min(s[0][0], s[1][0]) - 0.01 && p[0] <= Math.max(s[0][0], s[1][0]) + 0.01);
+
+export function wire(placed: Placed[], hints: readonly Hint[] = []): Routing {
   const r = new Router(placed);
   const byNet = new Map<string, PinAt[]>();
   for (const p of placed) {
@@ -41,12 +49,23 @@ export function wire(placed: Placed[]): Routing {
     r.add("vbus", [[[Math.min(...xs), RAIL_Y], [Math.max(...xs), RAIL_Y]], ...dropSegs]);
   } else r.add("vbus", dropSegs);
 
+  let hintsRefused = 0;
+  for (const h of hints) {
+    const segs: Seg[] = [];
+    for (let i = 1; i < h.pts.length; i++) segs.push([h.pts[i - 1]!, h.pts[i]!]);
+    if (segs.every((s) => orthogonal(s[0], s[1]) && r.clear(s, h.net))) r.add(h.net, segs);
+    else hintsRefused += 1;
+  }
+
   const nets = [...byNet.keys()].filter((n) => n !== "0" && n !== "vbus").sort();
   for (const net of nets) {
-    const pins = [...byNet.get(net)!].sort((a, b) => a.pt[0] - b.pt[0] || a.pt[1] - b.pt[1]);
-    const first = pins.shift();
+    const drawn = r.wires.get(net) ?? [];
+    const all = [...byNet.get(net)!].sort((a, b) => a.pt[0] - b.pt[0] || a.pt[1] - b.pt[1]);
+    const attached = all.filter((q) => drawn.some((s) => touches(q.pt, s)));
+    const pins = all.filter((q) => !attached.includes(q));
+    const first = attached[0] ?? pins.shift();
     if (!first) continue;
-    const tree: Pt[] = [first.pt];
+    const tree: Pt[] = attached.length ? attached.map((q) => q.pt) : [first.pt];
     let flagged = false;
     while (pins.length) {
       const segs = r.wires.get(net) ?? [];
@@ -73,5 +92,5 @@ export function wire(placed: Placed[]): Routing {
   }
   const wires = [...r.wires.entries()].map(([net, segs]) => ({ net, segs })).sort((a, b) => (a.net < b.net ? -1 : 1));
   const dots = wires.flatMap((w) => junctions(w.net, w.segs, (byNet.get(w.net) ?? []).map((q) => q.pt)));
-  return { wires, grounds, flags: r.flags, dots };
+  return { wires, grounds, flags: r.flags, dots, hintsRefused };
 }

@@ -6,6 +6,7 @@
  */
 import type { CircuitModel } from "../model/circuit.ts";
 import { place, FONT_PX, LINE_PX, type Placed } from "./schematic-place.ts";
+import type { Routing } from "./schematic-route.ts";
 import { wire } from "./schematic-wire.ts";
 import { ground, terminal } from "./symbols/index.ts";
 import { INK, STROKE_PX } from "./symbols/types.ts";
@@ -24,12 +25,19 @@ function transformOf(p: Placed): string {
   return parts.join(" ");
 }
 
+/** Placement and wiring without drawing (tests and tools inspect it). */
+export function layoutSchematic(circuit: CircuitModel): { placed: Placed[]; routing: Routing } {
+  const { placed, hints } = place(circuit);
+  return { placed, routing: wire(placed, hints) };
+}
+
 export function renderSchematic(circuit: CircuitModel, meta: { title: string; id: string }): string {
-  const placed = place(circuit);
-  const routing = wire(placed);
+  const { placed, routing } = layoutSchematic(circuit);
   const boxes = [...placed.flatMap((p) => [p.box, p.label.box]), ...routing.flags.map((f) => f.box)];
-  const width = Math.max(...boxes.map((b) => fin(b.x + b.w, "extent"))) + 30;
-  const height = Math.max(...boxes.map((b) => fin(b.y + b.h, "extent")), ...routing.grounds.map((g) => g[1] + 20)) + 50;
+  const wireXs = routing.wires.flatMap((w) => w.segs.flatMap((s) => [s[0][0], s[1][0]]));
+  const wireYs = routing.wires.flatMap((w) => w.segs.flatMap((s) => [s[0][1], s[1][1]]));
+  const width = Math.max(...boxes.map((b) => fin(b.x + b.w, "extent")), ...wireXs) + 40;
+  const height = Math.max(...boxes.map((b) => fin(b.y + b.h, "extent")), ...wireYs, ...routing.grounds.map((g) => g[1] + 20)) + 50;
 
   const c = newCanvas();
   c.attr({ viewBox: `0 0 ${width} ${height}`, width, height, role: "img", "aria-labelledby": `${idFragment(meta.id)}-title`,

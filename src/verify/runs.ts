@@ -16,6 +16,8 @@ export interface RunPlan {
   periods: number;
   settlePeriods: number;
   stepsPerPeriod: number;
+  /** Solver options for every run, e.g. "abstol=1e-9 vntol=1e-5" (none: ngspice defaults). */
+  options?: string;
 }
 export const DEFAULT_RUN_PLAN: Readonly<RunPlan> = { periods: 12, settlePeriods: 5, stepsPerPeriod: 300 };
 
@@ -45,7 +47,7 @@ export function settleTime(target: VerifyTarget, ctrl: number, plan: RunPlan): n
 export async function runAt(target: VerifyTarget, netlist: string, engine: SpiceEngine, ctrl: number, plan: RunPlan = DEFAULT_RUN_PLAN): Promise<Run> {
   const settle_s = settleTime(target, ctrl, plan);
   const tStop_s = settle_s + (plan.periods - plan.settlePeriods) * target.period_s;
-  const deck = simDeck(netlist, { ctrl, tStop_s, tMax_s: target.period_s / plan.stepsPerPeriod, kickNet: target.otherNet });
+  const deck = simDeck(netlist, { ctrl, tStop_s, tMax_s: target.period_s / plan.stepsPerPeriod, kickNet: target.otherNet, ...(plan.options ? { options: plan.options } : {}) });
   const elements = target.powerRefs.map((r) => transistorElement(netlist, r));
   const powerVectors = elements.every((e) => e !== null) ? elements.map((e) => `@${e}[p]`) : [];
   const nets = ["vbus", target.tapNet, target.otherNet, target.chainInputNet, target.switchNet, "ls"];

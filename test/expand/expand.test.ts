@@ -57,7 +57,7 @@ describe("expandDesign", () => {
 });
 
 describe("the demo catalogue, with the real device library and chooser", () => {
-  it("expands every demo design to its matrix, 252 variants, every id unique", async () => {
+  it("expands every demo design to its matrix, 342 variants, every id unique", async () => {
     const r = await loadProject(REPO);
     if (!r.ok) throw new Error(`repository records must load: ${r.issues[0]?.message}`);
     const counts: Record<string, number> = {};
@@ -67,10 +67,10 @@ describe("the demo catalogue, with the real device library and chooser", () => {
       counts[rec.id] = specs.length;
       ids.push(...specs.map((s) => s.id));
     }
-    expect(counts).toEqual({ "circulation-fan": 60, "grow-light-strip": 60, "nutrient-pump": 48, "seed-mat-heater": 48, "work-lamp": 36 });
-    expect(ids).toHaveLength(252);
-    expect(new Set(ids).size).toBe(252);
-    expect(ids).toContain("seed-mat-heater-24v-8a-darlington-3-resistive");
+    expect(counts).toEqual({ "circulation-fan": 32, "grow-light-strip": 48, "irrigation-valve-bank": 60, "nutrient-pump": 30, "seed-mat-heater": 72, "work-lamp": 100 });
+    expect(ids).toHaveLength(342);
+    expect(new Set(ids).size).toBe(342);
+    expect(ids).toContain("seed-mat-heater-27v6-5a-darlington-3-resistive");
     expect(ids).toContain("grow-light-strip-12v-500ma-darlington-2-led");
   });
 });

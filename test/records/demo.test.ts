@@ -12,7 +12,7 @@ import { REPO, cleanProjects, makeProject } from "./project.ts";
 
 afterAll(cleanProjects);
 
-const DEMO = ["circulation-fan", "grow-light-strip", "nutrient-pump", "seed-mat-heater", "work-lamp"];
+const DEMO = ["circulation-fan", "grow-light-strip", "irrigation-valve-bank", "nutrient-pump", "seed-mat-heater", "work-lamp"];
 
 async function demoProject(): Promise<string> {
   const names = (await readdir(join(REPO, "designs"))).filter((n) => n.endsWith(".json")).sort();
@@ -26,11 +26,11 @@ describe("demo design records", () => {
     expect(r.ok && r.designs.map((d) => d.record.id)).toEqual(DEMO);
   });
 
-  it("expand to the planned matrix sizes, 252 variants in all (≥ 220 asked for)", async () => {
+  it("expand to the planned matrix sizes, 342 variants in all (≥ 320 asked for)", async () => {
     const r = await loadProject(await demoProject());
     if (!r.ok) throw new Error("demo records must load");
     const counts = Object.fromEntries(r.designs.map((d) => [d.record.id, variantCount(d.record)]));
-    expect(counts).toEqual({ "circulation-fan": 60, "grow-light-strip": 60, "nutrient-pump": 48, "seed-mat-heater": 48, "work-lamp": 36 });
+    expect(counts).toEqual({ "circulation-fan": 32, "grow-light-strip": 48, "irrigation-valve-bank": 60, "nutrient-pump": 30, "seed-mat-heater": 72, "work-lamp": 100 });
   });
 
   it("LED strips are dimmed at ≥ 3 kHz, the no-observable-effect bound of IEEE Std 1789-2015 §8.1.1 (seen in a reproduction)", async () => {

@@ -15,6 +15,7 @@ import { renderNetlist } from "../../src/render/netlist.ts";
 import { renderSchematic } from "../../src/render/schematic.ts";
 import { REPO } from "../records/project.ts";
 import { classify } from "./netlist-read.ts";
+import { geometryProblems } from "./schematic-geometry.ts";
 import { boxAttr, overlaps, readSvg, type B } from "./svg-read.ts";
 
 interface Demo { id: string; title: string; supply_V: number; pwm_Hz: number; circuit: CircuitModel }
@@ -56,6 +57,17 @@ describe("the demo catalogue renders", async () => {
       }
     }
     expect(problems).toEqual([]);
+  }, 120_000);
+
+  it("schematics: wires clear of every symbol and label, correct junction dots, all inside the viewBox, no net flags", () => {
+    const problems: string[] = [];
+    for (const v of variants) {
+      const text = renderSchematic(v.circuit, { title: v.title, id: v.id });
+      problems.push(...geometryProblems(text).map((p) => `${v.id}: ${p}`));
+      // Every demo net can be drawn as a wire; a flag would mean a table route or placement is off.
+      if (text.includes("data-flag=")) problems.push(`${v.id}: uses net flags`);
+    }
+    expect(problems.slice(0, 20)).toEqual([]);
   }, 120_000);
 
   it("netlists: only generated line shapes, every part findable by its ref", () => {

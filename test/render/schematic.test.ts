@@ -2,6 +2,7 @@ import { describe, expect, it } from "vitest";
 import type { CircuitModel } from "../../src/model/circuit.ts";
 import { renderSchematic } from "../../src/render/schematic.ts";
 import { CIRCUIT_FIXTURES } from "../fixtures/circuits/index.ts";
+import { geometryProblems } from "./schematic-geometry.ts";
 import { boxAttr, overlaps, pt, readSvg, type B } from "./svg-read.ts";
 
 type Seg = { net: string; a: [number, number]; b: [number, number] };
@@ -79,6 +80,10 @@ describe.each(CIRCUIT_FIXTURES)("schematic of the $name fixture", (f) => {
       for (const o of segs) if (o.net !== w.net) expect(onSeg(o.a, w) || onSeg(o.b, w), `${o.net} touches ${w.net}`).toBe(false);
       for (const p of pins) if (p.net !== w.net) expect(onSeg(p.at, w), `${p.net} pin on ${w.net} wire`).toBe(false);
     }
+  });
+
+  it("draws like a draftsman: no wire through a symbol, label or mark; dots only at ≥ 3-way joints; margin all round", () => {
+    expect(geometryProblems(text)).toEqual([]);
   });
 
   it("uses only nets of the circuit on wires", () => {

@@ -46,21 +46,24 @@ const REVERSE_SURGE_MULTIPLE = 10;
 
 /**
  * Driver current per ampere of load when it drives a power PNP (bjt-driver-pnp): the PNP's base
- * current at forced β 10 (I/10), + 10 % for its pull-up, × ≈ 1.4 because RB_P is sized at the
- * lowest supply and carries more at the highest (±15 % supply, 5 % resistors) → ≈ 0.15·I (derived).
+ * current at forced β 10 of the current at V_cc,max, + 10 % for its pull-up, × the spread of RB_P's
+ * current: sized at V_cc,min across V_cc − V_EB(sat) − V_CE(sat) ≈ V − 1.5 V, carrying
+ * (V_cc,max − 0.7 V) at V_cc,max, with 5 % resistors (derived; mirrors driver-pnp.ts).
  */
-const PNP_DRIVER_SHARE = 0.15;
+function pnpDriverShare(supply_V: number, tol: number): number {
+  const vMin = supply_V * (1 - tol);
+  const vMax = supply_V * (1 + tol);
+  return (1.1 * (1 + tol) / 10) * ((vMax - 0.7) / Math.max(vMin - 1.5, 0.5)) * (1.05 / 0.95);
+}
 /**
  * A Darlington's first stage carries the output stage's base current plus its bleed at the highest
  * supply: ≈ 1.3·I/β_min,out (β at T_A,min; + 10 % bleed, + 15 % supply; derived).
  */
 const DARLINGTON_DRIVER_FACTOR = 1.3;
-/** V_CE of a Darlington first stage while the stack conducts: V_CE(sat),out-ish ≈ 1 V (common practice). */
-const DRIVER_VCE_V = 1.0;
 /** V_CE(sat) of the stage that drives a Darlington output (≈ 0.3 V small-signal; common practice). */
 const DARLINGTON_DRIVE_SAT_V = 0.3;
 
-interface Need { supply_V: number; load_A: number; pwm_Hz: number; ambientMin_C: number; ambientMax_C: number }
+interface Need { supplyTol: number; supply_V: number; load_A: number; pwm_Hz: number; ambientMin_C: number; ambientMax_C: number }
 
 /**
  * Free-air junction estimate at full duty and maximum ambient, against the usual limit
@@ -99,13 +102,14 @@ function fits(role: DeviceRole, d: DeviceClass, n: Need): boolean {
  * current and voltage, and free-air T_J at full duty (common practice).
  */
 export function pickDriver(cands: BjtClass[], power: BjtClass, n: Need): BjtClass | undefined {
-  const iPnp = n.load_A * PNP_DRIVER_SHARE;
+  const iPnp = n.load_A * pnpDriverShare(n.supply_V, n.supplyTol);
   const iDar = (DARLINGTON_DRIVER_FACTOR * n.load_A) / hfeMin(power, n.load_A, n.ambientMin_C);
   const iMax = Math.max(iPnp, iDar);
   const vMax = n.supply_V * 1.1;
   let best: { d: BjtClass; g: number } | undefined;
   for (const d of cands) {
-    const p_W = Math.max(iPnp * vceSat(d, iPnp), iDar * DRIVER_VCE_V);
+    // Darlington first stage: V_CE = V_CE(sat) of the stage before + its own V_BE(sat) (the engine's model).
+    const p_W = Math.max(iPnp * vceSat(d, iPnp), iDar * (DARLINGTON_DRIVE_SAT_V + vbeSat(d, iDar)));
     if (d.ic_max_A * SWITCH_HEADROOM < iMax || d.vceo_V * SWITCH_HEADROOM < vMax || !freeAirOk(d, p_W, n)) continue;
     const g = Math.min(hfeMin(d, iPnp, n.ambientMin_C), hfeMin(d, iDar, n.ambientMin_C));
     if (best === undefined || g > best.g) best = { d, g };
@@ -124,7 +128,8 @@ export function chooseDevices(record: DesignRecord, lib: DeviceLibrary, supply_V
   if (!Number.isFinite(supply_V) || supply_V <= 0 || !Number.isFinite(load_A) || load_A <= 0) {
     throw new EngineMisuseError(`chooseDevices(${record.id}): supply_V and load_A must be finite and > 0 (got ${supply_V}, ${load_A})`);
   }
-  const need: Need = { supply_V, load_A, pwm_Hz: record.targets.pwm_Hz, ambientMin_C: record.targets.ambient_C[0], ambientMax_C: record.targets.ambient_C[1] };
+  // Supply tolerance default as in src/expand (TARGET_DEFAULTS.supply_tolerance).
+  const need: Need = { supplyTol: record.targets.supply_tolerance ?? 0.1, supply_V, load_A, pwm_Hz: record.targets.pwm_Hz, ambientMin_C: record.targets.ambient_C[0], ambientMax_C: record.targets.ambient_C[1] };
   const out = {} as Record<DeviceRole, DeviceClass>;
   // The driver is judged against the power stage it drives, so the power stage is chosen first.
   const order = [...DEVICE_ROLES.filter((r) => r !== "driver_npn"), "driver_npn" as const];

@@ -63,3 +63,13 @@ export function makeContext(spec: VariantSpec): Ctx {
 export function loadCurrentOn_A(ctx: Ctx, supply_V: number, vSwitch_V: number): number {
   return Math.max(0, (supply_V - vSwitch_V - ctx.load.vf_V) / ctx.load.r_ohm);
 }
+
+/**
+ * Running load current with an ideal switch at supply `supply_V` (motor: ∝ supply, as iMax_A;
+ * others: their V–I line). Equals iMax_A at V_cc,max.
+ */
+export function loadCurrentAt_A(ctx: Ctx, supply_V: number): number {
+  if (supply_V >= ctx.vMax_V) return ctx.iMax_A;
+  const i = ctx.spec.load_kind === "motor" ? (ctx.iNom_A * supply_V) / ctx.vNom_V : (supply_V - ctx.load.vf_V) / ctx.load.r_ohm;
+  return Math.min(ctx.iMax_A, Math.max(i, 1e-6));
+}

@@ -21,7 +21,7 @@ import type { Ctx } from "./context.ts";
 import type { ChainPlan, TapInfo } from "./chains/types.ts";
 import { plateau_V } from "./chains/mosfet-common.ts";
 
-export const TAP_SHARE_ALPHA = 0.25;
+export const TAP_SHARE_ALPHA = 0.5;
 export const RC_MAX_OHM = 10_000;
 
 const INPUT_NET: Record<string, string> = {

@@ -32,7 +32,9 @@ describe("chooseDevices: defaults by current and voltage", () => {
   // Hand arithmetic at 45 °C maximum ambient, full duty, limit min(125 °C, T_J,max − 40 K):
   it.each([
     [0.1, "npn-small-signal"], // 0.2 A × 0.75 = 0.15 A ≥ 0.1 A; 0.1 A × 0.425 V × 200 K/W = 8.5 K → 53.5 °C ≤ 110 °C
-    [0.25, "npn-medium"], // TO-92 too small in current; 0.25 A × 0.5 V × 437.5 K/W = 54.7 K → 99.7 °C ≤ 125 °C
+    // TO-92 too small in current; TO-18 as a Darlington output cannot saturate: V ≥ 0.3 V + V_BE(sat)
+    // (1.2 + 0.8·0.1/0.35 = 1.43 V) = 1.73 V; 0.25 A × 1.73 V × 437.5 K/W = 189 K → far over → TO-220
+    [0.25, "npn-power-to220"],
     [0.5, "npn-power-to220"], // TO-18: 0.5 A × 1.0 V × 437.5 K/W = 219 K → far over; TO-220 may take a heatsink
     [4, "npn-power-to220"], // 6 A × 0.75 = 4.5 A
     [8, "npn-power-to3"], // 15 A × 0.75 = 11.25 A
@@ -40,11 +42,23 @@ describe("chooseDevices: defaults by current and voltage", () => {
     expect(chooseDevices(record(20e3), lib, 24, load).power_npn.id).toBe(id);
   });
 
+  // Driver by gain among the classes that fit. 12 V ±10 %: PNP driver share
+  // 1.1·1.1/10 · (13.2 − 0.7)/(10.8 − 1.5) · 1.05/0.95 = 0.180·I; Darlington first stage 1.3·I/β_out,
+  // β_out(TO-220, 1 A) = 30·0.5^0.523 = 20.9, cold (−10 °C, −0.5 %/K) 17.2 → 0.0755 A at 1 A.
   it.each([
-    [1, "npn-small-signal"], // 0.15·1 A = 0.15 A ≤ 0.75 × 0.2 A; 0.15 W × 200 K/W = 30 K → 75 °C
-    [2, "npn-power-to220"], // 0.3 A: TO-92 over current; TO-18 0.3 W × 437.5 K/W = 131 K → > 125 °C
-  ])("driver_npn for a %s A load → %s (PNP base drive ≈ 0.15·I: forced gain 10 + pull-up + supply spread, free air)", (load, id) => {
+    // 0.18 A: TO-92 classes over 75 % of I_C,max; TO-18 P = 0.0755 A × (0.3 + 1.2) V = 0.113 W ×
+    // 437.5 K/W = 49.5 K → 94.5 °C ok; gain min(87 @ 0.18 A, 93 @ 0.0755 A) beats TO-220's 30.
+    [1, "npn-medium"],
+    // 0.09 A: only the high-gain TO-92 is out (75 mA); 2N3904 β ≈ 30·(0.1/0.09)^-1 ≈ 33, 2N2222A ≈ 90 → TO-18.
+    [0.5, "npn-medium"],
+    // 0.36 A: TO-18 free air 0.36 A × 0.47 V... and Darlington 0.15 A × 1.5 V = 0.23 W × 437.5 = 100 K → 145 °C → TO-220.
+    [2, "npn-power-to220"],
+  ])("driver_npn for a %s A load → %s (highest minimum gain among the classes whose ratings fit; common practice)", (load, id) => {
     expect(chooseDevices(record(20e3), lib, 12, load).driver_npn.id).toBe(id);
+  });
+
+  it("picks the high-gain small-signal class for a light driver duty (0.3 A: 0.054 A ≤ 75 mA; β_min ≈ 230 vs 2N3904 ≈ 75)", () => {
+    expect(chooseDevices(record(20e3), lib, 12, 0.3).driver_npn.id).toBe("npn-small-signal-high-gain");
   });
 
   it("takes the largest class when none fits, leaving the verdict to the engine's stress checks", () => {

@@ -40,6 +40,19 @@ export function switchChecks(ctx: Ctx, role: string, dev: BjtClass | MosfetClass
   ];
 }
 
+/**
+ * Input current a chain must draw from the tap AT V_cc,min so that it has i(V) at every supply V.
+ * The tap is sized at V_cc,min (tap.ts) and delivers (V − V_clamp)/(R_C + R_T), i.e. its V_cc,min
+ * current × (V − V_clamp)/(V_cc,min − V_clamp) at supply V; so it suffices that the V_cc,min current
+ * is ≥ max over V ∈ {V_cc,min, V_cc,max} of i(V)·(V_cc,min − V_clamp)/(V − V_clamp) (derived; both
+ * quantities are monotonic in V between the ends). Asking the V_cc,max need at V_cc,min would count
+ * the supply spread twice.
+ */
+export function needAtMinSupply(ctx: Ctx, vClamp_V: number, iAt: (supply_V: number) => number): number {
+  const span = ctx.vMin_V - vClamp_V;
+  return Math.max(iAt(ctx.vMin_V), (iAt(ctx.vMax_V) * span) / (ctx.vMax_V - vClamp_V));
+}
+
 /** drive_margin_<stage>: base current provided (worst case) ÷ base current needed at minimum gain. */
 export function driveMargin(stageKey: string, what: string, provided_A: number, needed_A: number): Figure {
   return figure(

@@ -12,8 +12,8 @@ import { hfeMin, vbeOn, vbeSat, vceSat } from "../../shared/gain.ts";
 import { conductionLossBjt_W, resistorPower_W, switchingLoss_W } from "../../shared/losses.ts";
 import { SRC } from "../../shared/sources.ts";
 import { resistor, transistor } from "../../../circuit/parts.ts";
-import { type Ctx, OVERDRIVE_K } from "../context.ts";
-import { driveMargin, switchChecks, switchOffVoltage_V, vbeCold } from "./common.ts";
+import { type Ctx, OVERDRIVE_K, loadCurrentAt_A } from "../context.ts";
+import { needAtMinSupply, driveMargin, switchChecks, switchOffVoltage_V, vbeCold } from "./common.ts";
 import { BLEED_SHARE } from "./bjt-single.ts";
 import type { ChainPlan, DeviceLoss } from "./types.ts";
 
@@ -64,6 +64,9 @@ export function planDarlington(ctx: Ctx, n: 2 | 3): ChainPlan {
   const vSwNom = stackVoltage(devs, nom);
   const vClamp = devs.reduce((s, d, k) => s + vbeSat(d, Math.max(worst.ic[k]!, 1e-6)) + (vbeCold(d, ctx) - d.vbe_on_V), 0);
   const vTh = devs.reduce((s, d) => s + vbeOn(d, 25), 0);
+  // Base current of the first stage, at minimum gain (cold), for the load current at each supply.
+  const ib1At = (v: number): number => stackCurrents(devs, loadCurrentAt_A(ctx, v), rBE * (1 - ctx.rTol), ctx.taMin_C).ib[0]!;
+  const ib1Eq = needAtMinSupply(ctx, vClamp, ib1At);
   const lastBase = n === 2 ? "d2b" : "d3b";
   const nets = n === 2 ? [["d1b", "d2b"], ["d2b", "0"]] : [["d1b", "d2b"], ["d2b", "d3b"], ["d3b", "0"]];
   const parts: Part[] = devs.map((d, k) =>
@@ -79,7 +82,7 @@ export function planDarlington(ctx: Ctx, n: 2 | 3): ChainPlan {
   // must leave through RBE at ≈ V_BE/RBE (charge control, derived); else 3 × t_f (from memory).
   const tOffLast = last.ft_Hz !== undefined ? last.t_fall_s + (ctx.iMax_A / (2 * Math.PI * last.ft_Hz)) / worst.bleed_A : 3 * last.t_fall_s;
   return {
-    need: { kind: "base-current", i_A: OVERDRIVE_K * worst.ib[0]!, vClamp_V: vClamp, vThreshold_V: vTh, inverting: false },
+    need: { kind: "base-current", i_A: OVERDRIVE_K * ib1Eq, vClamp_V: vClamp, vThreshold_V: vTh, inverting: false },
     vSwNom_V: vSwNom, vSwMax_V: vSwMax, parts: [...parts, rbe.part],
     figures: [
       figure("stack_gain_min", "Stack minimum gain (cold)", worst.beta.reduce((a, b) => a * b, 1), "", "chain", "β ≈ Π β_min,i (each at its stage current, T_A,min)", SRC.COMMON),
@@ -104,7 +107,7 @@ export function planDarlington(ctx: Ctx, n: 2 | 3): ChainPlan {
       return {
         parts: [], problems: [], checks: [], losses,
         figures: [
-          driveMargin("input", "stack input (Q_D1 base)", tap.iMin_A, worst.ib[0]!),
+          driveMargin("input", "stack input (Q_D1 base)", tap.iMin_A, ib1Eq),
           figure("load_current_max", "Load current, worst case (max supply)", ctx.iMax_A, "A", "load", "I = (V_cc,max − V_f)/R_load (load model)", SRC.DERIVED),
           figure("conduction_loss", "Conduction loss, stack", stackP - pSw, "W", "chain", "P = Σ I_C,i · V_CE,i · D_max, V_CE,n = V_CE(sat),1 + Σ V_BE", SRC.COMMON),
           figure("switching_loss", "Switching loss, output stage", pSw, "W", "chain", ctx.switching === "resistive" ? "P = ⅙·V·I·(t_r + t_off)·f" : "P = ½·V·I·(t_r + t_off)·f", ctx.switching === "resistive" ? SRC.RASHID_SW : SRC.MOHAN_SW),

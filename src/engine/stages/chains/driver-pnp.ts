@@ -12,7 +12,7 @@ import { conductionLossBjt_W, switchingLoss_W } from "../../shared/losses.ts";
 import { SRC } from "../../shared/sources.ts";
 import { resistor, transistor } from "../../../circuit/parts.ts";
 import { type Ctx, FORCED_BETA, OVERDRIVE_K } from "../context.ts";
-import { driveMargin, switchChecks, switchOffVoltage_V, vbeCold } from "./common.ts";
+import { needAtMinSupply, driveMargin, switchChecks, switchOffVoltage_V, vbeCold } from "./common.ts";
 import { BLEED_SHARE, WEAK_TURNOFF_FACTOR } from "./bjt-single.ts";
 import type { ChainPlan } from "./types.ts";
 
@@ -41,8 +41,13 @@ export function planDriverPnp(ctx: Ctx): ChainPlan {
   // The driver is a small-signal switch carrying only the PNP's base current: overdrive k = 2 at
   // its minimum gain (ENGINEERING §3, R_B ≤ β_min·R_C/k) saturates it without loading the timing
   // core with a forced-β-10 base current; forced β 10 is kept for the power stage.
-  const iBD = (OVERDRIVE_K * iRbpMax) / betaD;
   const vClamp = vbeSat(qd, iRbpMax) + (vbeCold(qd, ctx) - qd.vbe_on_V);
+  // The driver's base current at each supply (RB_P's current grows with it), referred to V_cc,min.
+  const ibdEq = needAtMinSupply(ctx, vClamp, (v) => {
+    const i = (v - vbeOn(qp, ctx.taMax_C)) / (rBP * (1 - ctx.rTol));
+    return i / hfeMin(qd, i, ctx.taMin_C);
+  });
+  const iBD = OVERDRIVE_K * ibdEq;
   const vSwMax = vceSat(qp, ctx.iMax_A);
   const vSwNom = vceSat(qp, ctx.iNom_A);
   const off = switchOffVoltage_V(ctx);
@@ -77,7 +82,7 @@ export function planDriverPnp(ctx: Ctx): ChainPlan {
           { role: "Q_POWER", dev: qp, family: "bjt", pCond_W: pCond, pSw_W: pSw, p_W: pCond + pSw, isPower: true },
         ],
         figures: [
-          driveMargin("driver", "NPN driver", tap.iMin_A, iRbpMax / betaD),
+          driveMargin("driver", "NPN driver", tap.iMin_A, ibdEq),
           figure("load_current_max", "Load current, worst case (max supply)", ctx.iMax_A, "A", "load", "I = (V_cc,max − V_f)/R_load (load model)", SRC.DERIVED),
           figure("conduction_loss", "Conduction loss, power PNP", pCond, "W", "chain", "P = I_C,max · V_CE(sat) · D_max + I_B · V_EB · D_max", SRC.COMMON),
           figure("switching_loss", "Switching loss, power PNP", pSw, "W", "chain", ctx.switching === "resistive" ? "P = ⅙·V·I·(t_r + t_s + t_f)·f" : "P = ½·V·I·(t_r + t_s + t_f)·f", ctx.switching === "resistive" ? SRC.RASHID_SW : SRC.MOHAN_SW),

@@ -1,0 +1,90 @@
+/**
+ * Drive-chain tables (same conventions as schematic-layout.ts). Signal flows left to right: the tap
+ * wire comes in from the core's right collector at TAP_Y, runs through the input resistor into the
+ * first device; the switched column (outX) is where the load and its probe hang.
+ */
+import type { ChainKind } from "../model/kinds.ts";
+import { TAP_Y, type ChainLayout, type Route } from "./schematic-layout.ts";
+
+/** Tap wire from the tapped collector (RC_R.b's column) to the chain's input resistor. */
+const tap = (input: string): Route => [`${input}.a`, [15, `${input}.a`], [15, TAP_Y], ["RC_R.b", TAP_Y]];
+
+export const CHAIN: Record<ChainKind, ChainLayout> = {
+  "bjt-single": {
+    width: 260, outX: 180, outPin: "Q_POWER.c",
+    slots: {
+      RT: { x: 60, y: 300, rot: 270 },
+      Q_POWER: { x: 170, y: 300 },
+      RBE: { x: 115, y: 360, label: "left" },
+    },
+    routes: [tap("RT"), ["RT.b", "Q_POWER.b"], ["RBE.a", [115, 300]]],
+  },
+  "mosfet-logic": {
+    width: 260, outX: 180, outPin: "Q_POWER.d",
+    slots: {
+      RG: { x: 60, y: 300, rot: 270 },
+      Q_POWER: { x: 170, y: 300 },
+      RGS: { x: 115, y: 360, label: "left" },
+    },
+    routes: [tap("RG"), ["RG.b", "Q_POWER.g"], ["RGS.a", [115, 300]]],
+  },
+  // The Darlington stair: each emitter steps down into the next base; collectors share one bus.
+  "darlington-2": {
+    width: 380, outX: 300, outPin: "Q_D2.c",
+    slots: {
+      RT: { x: 60, y: 290, rot: 270 },
+      Q_D1: { x: 170, y: 290 },
+      Q_D2: { x: 290, y: 350 },
+      RBE: { x: 220, y: 410 },
+    },
+    routes: [tap("RT"), ["RT.b", "Q_D1.b"], ["Q_D1.e", [180, 350], "Q_D2.b"], ["RBE.a", [220, 350]], ["Q_D1.c", [180, 250], [300, 250]]],
+  },
+  "darlington-3": {
+    width: 500, outX: 420, outPin: "Q_D3.c",
+    slots: {
+      RT: { x: 60, y: 290, rot: 270 },
+      Q_D1: { x: 170, y: 290 },
+      Q_D2: { x: 290, y: 350 },
+      Q_D3: { x: 410, y: 410 },
+      RBE: { x: 340, y: 470 },
+    },
+    routes: [
+      tap("RT"), ["RT.b", "Q_D1.b"], ["Q_D1.e", [180, 350], "Q_D2.b"], ["Q_D2.e", [300, 410], "Q_D3.b"], ["RBE.a", [340, 410]],
+      ["Q_D1.c", [180, 250], [420, 250]], ["Q_D2.c", [300, 250]],
+    ],
+  },
+  // NPN driver pulls the power PNP's base down through RB_P; RPU holds it off; emitter on the rail.
+  "bjt-driver-pnp": {
+    width: 390, outX: 310, outPin: "Q_POWER.c",
+    slots: {
+      RT: { x: 60, y: 290, rot: 270 },
+      Q_DRV: { x: 170, y: 290 },
+      RB_P: { x: 180, y: 200 },
+      RPU: { x: 180, y: 100 },
+      Q_POWER: { x: 300, y: 150 },
+    },
+    routes: [tap("RT"), ["RT.b", "Q_DRV.b"], ["RB_P.b", "Q_DRV.c"], ["RPU.b", "RB_P.a"], ["Q_POWER.b", [180, 150]]],
+  },
+  // Inverting driver stage, optional zener gate rail, complementary follower, gate network.
+  "mosfet-driver": {
+    width: 680, outX: 600, outPin: "Q_POWER.d",
+    slots: {
+      RT: { x: 60, y: 330, rot: 270 },
+      Q_DRV: { x: 170, y: 330 },
+      RP: { x: 180, y: 240 },
+      RZ: { x: 180, y: 110 },
+      DZ: { x: 110, y: 220, rot: 180 },
+      Q_HI: { x: 350, y: 270 },
+      Q_LO: { x: 350, y: 360 },
+      RG: { x: 490, y: 315, rot: 270 },
+      RGS: { x: 540, y: 375, label: "left" },
+      Q_POWER: { x: 590, y: 315 },
+    },
+    routes: [
+      tap("RT"), ["RT.b", "Q_DRV.b"], ["RP.b", [180, 285], [290, 285]], ["Q_DRV.c", [180, 285]],
+      ["Q_HI.b", [290, 270], [290, 360], "Q_LO.b"],
+      ["RZ.b", "RP.a"], ["DZ.cathode", [180, 190]], ["Q_HI.c", [360, 170], [180, 170]],
+      ["Q_HI.e", "Q_LO.e"], ["RG.a", [360, 315]], ["RG.b", "Q_POWER.g"], ["RGS.a", [540, 315]],
+    ],
+  },
+};
