@@ -3,6 +3,7 @@
  * current A — whatever series the verifier hands over, in order), 1-2-5 ticks, the chain's
  * switching threshold as a dashed line on the first volt panel. Deterministic, no NaN.
  */
+import { formatValue } from "../model/format.ts";
 import type { WaveformSet } from "../model/verification.ts";
 import { axisPrefix, niceTicks, tickText } from "./plot-scale.ts";
 import { ACCENT } from "./schematic.ts";
@@ -60,7 +61,7 @@ export function renderPlot(w: WaveformSet, meta: { title: string }): string {
     if (withThr) {
       const y = yOf(w.threshold_V!);
       g.line(LEFT, y, LEFT + plotW, y).stroke({ color: "#000", width: 1.5, dasharray: "6 4" }).attr({ "data-threshold": "" });
-      g.element("text").words(`threshold ${tickText(w.threshold_V!)} V`).attr({ x: LEFT + plotW - 4, y: y - 4, "text-anchor": "end", fill: "#000" });
+      g.element("text").words(`threshold ${formatValue(w.threshold_V!, "V")}`).attr({ x: LEFT + plotW - 4, y: y - 4, "text-anchor": "end", fill: "#000" });
     }
     if (k === w.series.length - 1) {
       for (const t of tTicks) g.element("text").words(tickText(t)).attr({ x: xOf(t / tp.scale), y: y0 + PANEL_H + 16, "text-anchor": "middle", fill: "#000" });

@@ -16,10 +16,12 @@ export interface RunPlan {
   periods: number;
   settlePeriods: number;
   stepsPerPeriod: number;
+  /** Settling of an inductive load at ctrl = 1, in L/R time constants. */
+  settleTau: number;
   /** Solver options for every run, e.g. "abstol=1e-9 vntol=1e-5" (none: ngspice defaults). */
   options?: string;
 }
-export const DEFAULT_RUN_PLAN: Readonly<RunPlan> = { periods: 12, settlePeriods: 5, stepsPerPeriod: 300 };
+export const DEFAULT_RUN_PLAN: Readonly<RunPlan> = { periods: 6, settlePeriods: 2, stepsPerPeriod: 150, settleTau: 3 };
 
 export interface Run {
   ctrl: number;
@@ -41,7 +43,7 @@ export const MAX_SETTLE_PERIODS = 60;
 export function settleTime(target: VerifyTarget, ctrl: number, plan: RunPlan): number {
   const base_s = plan.settlePeriods * target.period_s;
   if (ctrl < 1 || target.loadTau_s <= 0) return base_s;
-  return Math.max(base_s, Math.min(3 * target.loadTau_s, MAX_SETTLE_PERIODS * target.period_s));
+  return Math.max(base_s, Math.min(plan.settleTau * target.loadTau_s, MAX_SETTLE_PERIODS * target.period_s));
 }
 
 export async function runAt(target: VerifyTarget, netlist: string, engine: SpiceEngine, ctrl: number, plan: RunPlan = DEFAULT_RUN_PLAN): Promise<Run> {

@@ -12,7 +12,7 @@ import type { DeviceLibrary } from "../../src/model/device.ts";
 import { loadProject } from "../../src/records/load.ts";
 import { renderBom } from "../../src/render/bom.ts";
 import { renderNetlist } from "../../src/render/netlist.ts";
-import { renderSchematic } from "../../src/render/schematic.ts";
+import { layoutSchematic, renderSchematic } from "../../src/render/schematic.ts";
 import { REPO } from "../records/project.ts";
 import { classify } from "./netlist-read.ts";
 import { geometryProblems } from "./schematic-geometry.ts";
@@ -66,6 +66,8 @@ describe("the demo catalogue renders", async () => {
       problems.push(...geometryProblems(text).map((p) => `${v.id}: ${p}`));
       // Every demo net can be drawn as a wire; a flag would mean a table route or placement is off.
       if (text.includes("data-flag=")) problems.push(`${v.id}: uses net flags`);
+      const refused = layoutSchematic(v.circuit).routing.hintsRefused;
+      if (refused > 0) problems.push(`${v.id}: ${refused} drawn route(s) of the layout tables blocked`);
     }
     expect(problems.slice(0, 20)).toEqual([]);
   }, 120_000);
