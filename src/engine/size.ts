@@ -52,6 +52,7 @@ function sizeInner(spec: VariantSpec): SizedVariant {
   const devLoss = fin.losses.reduce((s, l) => s + l.p_W, 0);
   const pIn = ctx.vMax_V * ctx.iMax_A * Math.min(1, w.dMax.hi);
   const efficiency = Math.max(0, 1 - devLoss / pIn);
+  const pNominal = nominalDissipation(ctx, timing.figures, fin.losses, load.iOn_A, plan.vSwNom_V, w.f.hi);
 
   const rawParts: Part[] = [...prot.parts, ...timing.parts, ...tap.parts, ...plan.parts, ...fin.parts, load.part];
   const parts = rawParts.map((p) => {
@@ -70,6 +71,8 @@ function sizeInner(spec: VariantSpec): SizedVariant {
   const problems = [...stageProblems, ...checkProblems(checks, stageProblems)];
   const figures: Figure[] = dedupe([
     ...timing.figures, ...plan.figures, ...fin.figures, ...load.figures, ...thermal.figures, ...prot.figures,
+    ...(pNominal === undefined ? [] : [figure("device_dissipation_nominal", "Power device dissipation (nominal: rated load, D_max, 25 °C)", pNominal, "W", "thermal",
+      "P = I_on·V_sw,nom·D_max,nom + P_sw,worst·(V_nom·I_on·f_nom)/(V_max·I_max·f_max)", SRC.DERIVED)]),
     figure("efficiency", "Switch efficiency (worst case)", efficiency, "", "chain", "η = 1 − ΣP_chain / (V_cc,max · I_max · D_max)", SRC.DERIVED),
   ]);
   const reason = blockingReason(ctx, problems);
@@ -79,6 +82,21 @@ function sizeInner(spec: VariantSpec): SizedVariant {
   };
   if (reason !== undefined) out.reason = reason;
   return out;
+}
+
+/**
+ * The power device's average dissipation at the conditions a nominal simulation runs at (nominal
+ * supply, rated load current, nominal duty at control 1, the minimum-gain on-voltage): conduction
+ * I_on·V_sw·D plus the worst-case switching loss scaled by V·I·f (switching loss is linear in each,
+ * Rashid Ex. 4.2 / Mohan Eq. 2-6), so predicted and simulated are like for like (SIM_FIGURES).
+ */
+function nominalDissipation(ctx: ReturnType<typeof makeContext>, timingFigures: Figure[], losses: { isPower: boolean; pSw_W: number }[], iOn_A: number, vSwNom_V: number, fMax_Hz: number): number | undefined {
+  const dMax = timingFigures.find((f) => f.key === "duty_max")?.value;
+  const fNom = timingFigures.find((f) => f.key === "frequency_nominal")?.value;
+  const power = losses.find((l) => l.isPower);
+  if (dMax === undefined || fNom === undefined || power === undefined || !(ctx.iMax_A > 0) || !(fMax_Hz > 0)) return undefined;
+  const scale = (ctx.vNom_V * iOn_A * fNom) / (ctx.vMax_V * ctx.iMax_A * fMax_Hz);
+  return iOn_A * vSwNom_V * dMax + power.pSw_W * scale;
 }
 
 /** Keep the first figure of each key (stages never mean to produce two; this guards the contract). */

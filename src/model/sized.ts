@@ -36,7 +36,7 @@ export const SIM_FIGURES = [
   "duty_mid",
   "duty_max",
   "load_current_on", // A, nominal supply
-  "switch_on_voltage_nominal", // V, nominal supply and load current, minimum gain, 25 °C
+  "switch_on_voltage", // V, already at nominal supply and rated current, minimum gain
   "device_dissipation_nominal", // W, power device average at duty_max, nominal supply, 25 °C
 ] as const;
 
