@@ -14,7 +14,7 @@ import type { VerifyTarget } from "./target.ts";
 export const DEFAULT_CACHE_DIR = ".cache/sim";
 
 export function cacheKey(netlist: string, engine: { name: EngineName; version: string }, target: VerifyTarget): string {
-  const plan = JSON.stringify([target.highSide, target.inductive, target.tapNet, target.chainInputNet, target.switchNet, target.powerRefs, target.period_s, target.predicted["chain_threshold"]?.value ?? null]);
+  const plan = JSON.stringify([target.highSide, target.inductive, target.tapNet, target.chainInputNet, target.switchNet, target.powerRefs, target.period_s, target.loadTau_s, target.loadEmf_V, target.predicted["chain_threshold"]?.value ?? null]);
   return createHash("sha256")
     .update(netlist)
     .update("\0")

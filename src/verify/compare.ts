@@ -2,14 +2,15 @@
  * Measured vs predicted. Two kinds of check (reasons and tolerances in docs/verification.md):
  *  - like for like: the prediction made at the simulation's own conditions (SIM_FIGURES: nominal
  *    supply, 25 °C, minimum-gain models) against the measurement, within max(rel·|p|, abs);
- *  - bound: the engine's worst-case figure (max supply, cold gain, hot R_DS(on)) must not be
- *    exceeded by the nominal simulation (one-sided, with a small numerical allowance).
+ *  - bound: a worst-case figure (max supply, cold gain, hot R_DS(on)) that has a nominal twin must
+ *    not be exceeded by the nominal simulation (one-sided, with a small numerical allowance).
  * A check is made only when both the prediction and the measurement exist.
  */
 import type { Comparison, Measurement, Verification } from "../model/verification.ts";
 import type { EngineName } from "./engines/types.ts";
 import type { Measured } from "./plan.ts";
 import type { Predicted } from "./target.ts";
+import { SIM_FIGURES } from "../model/sized.ts";
 
 export interface Tolerance {
   rel?: number;
@@ -25,17 +26,33 @@ export interface Check {
   bound?: "upper";
 }
 
+/** Two-sided tolerances by measured quantity (reasons in docs/verification.md). */
+const TWO_SIDED: Readonly<Record<string, Tolerance>> = {
+  frequency_nominal: { rel: 0.1 },
+  duty_min: { abs: 0.05 },
+  duty_mid: { abs: 0.05 },
+  duty_max: { abs: 0.05 },
+  load_current_on: { rel: 0.1 },
+  switch_on_voltage: { rel: 0.25, abs: 0.15 },
+  device_dissipation: { rel: 0.35 },
+};
+
+/**
+ * Like for like: every figure the engine predicts at the simulation's conditions (SIM_FIGURES),
+ * against the measurement of the same quantity (a `_nominal` twin is measured under its base key).
+ * Bounds: worst-case figures that have a nominal twin in SIM_FIGURES, one-sided, 5 % numerical
+ * allowance (edge interpolation, time step), never more.
+ */
 export const CHECKS: readonly Check[] = [
-  { key: "frequency_nominal", measured: "frequency_nominal", tol: { rel: 0.1 } },
-  { key: "duty_min", measured: "duty_min", tol: { abs: 0.05 } },
-  { key: "duty_mid", measured: "duty_mid", tol: { abs: 0.05 } },
-  { key: "duty_max", measured: "duty_max", tol: { abs: 0.05 } },
-  { key: "load_current_on", measured: "load_current_on", tol: { rel: 0.1 } },
-  { key: "switch_on_voltage_nominal", measured: "switch_on_voltage", tol: { rel: 0.25, abs: 0.15 } },
-  { key: "device_dissipation_nominal", measured: "device_dissipation", tol: { rel: 0.35 } },
-  // Worst-case bounds: 5 % numerical allowance (edge interpolation, time-step), never more.
-  { key: "switch_on_voltage", measured: "switch_on_voltage", tol: { rel: 0.05 }, bound: "upper" },
-  { key: "device_dissipation", measured: "device_dissipation", tol: { rel: 0.05 }, bound: "upper" },
+  ...SIM_FIGURES.map((key): Check => {
+    const measured = key === "frequency_nominal" ? key : key.replace(/_nominal$/, "");
+    const tol = TWO_SIDED[measured];
+    if (tol === undefined) throw new Error(`compare.ts: no tolerance for ${key}`);
+    return { key, measured, tol };
+  }),
+  ...SIM_FIGURES.filter((k) => k.endsWith("_nominal") && k !== "frequency_nominal").map(
+    (k): Check => ({ key: k.replace(/_nominal$/, ""), measured: k.replace(/_nominal$/, ""), tol: { rel: 0.05 }, bound: "upper" }),
+  ),
 ];
 
 /** Tolerances by predicted key (two-sided checks only); kept for callers that show the bands. */

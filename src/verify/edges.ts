@@ -38,6 +38,23 @@ export function crossings(t: ArrayLike<number>, y: ArrayLike<number>, level: num
   return { rising_s, falling_s };
 }
 
+/**
+ * Drops pulses shorter than `minPulse_s` (either polarity) by removing the two edges that bound
+ * them; alternation is kept. Used where a node rings after the switching edge: an inductive load
+ * whose current has run out rings with the switch capacitance about V_bus − back-EMF, and each
+ * swing through the level would otherwise count as a switching cycle.
+ */
+export function debounce(e: Edges, minPulse_s: number): Edges {
+  const ev = [...e.rising_s.map((t) => ({ t, up: true })), ...e.falling_s.map((t) => ({ t, up: false }))].sort((a, b) => a.t - b.t);
+  const out: typeof ev = [];
+  for (const x of ev) {
+    const last = out[out.length - 1];
+    if (last !== undefined && x.t - last.t < minPulse_s) out.pop();
+    else out.push(x);
+  }
+  return { rising_s: out.filter((x) => x.up).map((x) => x.t), falling_s: out.filter((x) => !x.up).map((x) => x.t) };
+}
+
 export type PwmTiming =
   | {
       kind: "pwm";
@@ -67,11 +84,12 @@ export function pwmTiming(
   t: ArrayLike<number>,
   y: ArrayLike<number>,
   level: number,
-  opts: { hyst?: number; from_s?: number; minPeriods?: number } = {},
+  opts: { hyst?: number; from_s?: number; minPeriods?: number; minPulse_s?: number } = {},
 ): PwmTiming {
   const n = Math.min(t.length, y.length);
   const from_s = opts.from_s ?? 0.4 * (t[n - 1] ?? 0);
-  const e = crossings(t, y, level, opts.hyst ?? 0);
+  const raw = crossings(t, y, level, opts.hyst ?? 0);
+  const e = opts.minPulse_s !== undefined && opts.minPulse_s > 0 ? debounce(raw, opts.minPulse_s) : raw;
   const rising = e.rising_s.filter((x) => x >= from_s);
   if (rising.length === 0) {
     if (e.falling_s.some((x) => x >= from_s)) return { kind: "too-few", periods: 0, from_s };

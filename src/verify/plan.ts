@@ -12,7 +12,7 @@ import { plotWaveforms } from "./waveforms.ts";
 import type { VerifyTarget } from "./target.ts";
 
 /** Bumped whenever measurement code changes what it reports: part of every cache key. */
-export const MEASURE_CODE_VERSION = "verify-measure-2";
+export const MEASURE_CODE_VERSION = "verify-measure-6";
 
 export type Measured =
   | { ok: true; measurements: Measurement[]; waveforms?: WaveformSet; elapsed_s: number }
@@ -37,11 +37,16 @@ function collect(target: VerifyTarget, low: Run, mid: Run, high: Run): { measure
   const put = (key: string, label: string, unit: string, value: number): void => {
     if (Number.isFinite(value)) out.push({ key, label, unit, value });
   };
+  // A core that stops at an end of the control gives the load a constant 0 or 1 there: shown as
+  // information beside the duty (which the comparison then judges), not a failure of the run.
+  for (const run of [low, high]) {
+    put(`core_running_ctrl${run.ctrl}`, `Timing core oscillates at control ${run.ctrl} (1 yes, 0 stopped)`, "", describeCore(run).stopped ? 0 : 1);
+  }
   const iOn_A = onCurrent(high);
-  if (!(iOn_A > 1e-4)) throw new Error(`the load never switches on at ctrl = 1 (on-current ${iOn_A} A)`);
+  if (!(iOn_A > 1e-4)) throw new Error(`the load never switches on at ctrl = 1 (on-current ${iOn_A} A); ${coreState(high)}`);
 
   const tMid = loadTiming(target, mid, iOn_A);
-  if (tMid.kind !== "pwm") throw new Error(`no oscillation at the load at ctrl = 0.5 (${describe(tMid)})`);
+  if (tMid.kind !== "pwm") throw new Error(`no oscillation at the load at ctrl = 0.5 (${describe(tMid)}); ${coreState(mid)}`);
   put("frequency_nominal", "PWM frequency at mid control", "Hz", tMid.frequency_Hz);
   put("duty_mid", "Duty at the load, control 0.5", "", tMid.duty);
   put("frequency_spread", "Period spread over the settled periods, control 0.5", "", tMid.spread);
@@ -54,7 +59,7 @@ function collect(target: VerifyTarget, low: Run, mid: Run, high: Run): { measure
 
   for (const [run, key] of [[low, "duty_min"], [high, "duty_max"]] as const) {
     const tm = loadTiming(target, run, iOn_A);
-    if (tm.kind === "too-few") throw new Error(`too few settled periods at ctrl = ${run.ctrl} (${tm.periods})`);
+    if (tm.kind === "too-few") throw new Error(`too few settled periods at ctrl = ${run.ctrl} (${tm.periods}); ${coreState(run)}`);
     put(key, `Duty at the load, control ${run.ctrl}`, "", tm.duty);
     if (tm.kind === "pwm") put(`frequency_ctrl${run.ctrl}`, `PWM frequency at control ${run.ctrl}`, "Hz", tm.frequency_Hz);
   }
@@ -68,6 +73,8 @@ function collect(target: VerifyTarget, low: Run, mid: Run, high: Run): { measure
   put("load_current_on", "Load current when on, control 1", "A", meanOnState(high.t, vec(high, "i(vsense)"), on));
   put("switch_on_voltage", "Switch voltage when on, control 1", "V", meanOnState(high.t, vSw, on));
   put("device_dissipation", "Power device average dissipation, control 1", "W", timeAverage(high.t, devicePower(target, high, vSw), p0, p1));
+  const retries = [low, mid, high].filter((r) => r.retried).length;
+  if (retries > 0) put("solver_retries", "Runs that needed the looser-tolerance retry (of 3)", "", retries);
   if (target.inductive) put("switch_peak_voltage", "Peak switch voltage at turn-off", "V", peakAfter(high.t, vSw, high.from_s));
   return { measurements: out, waveforms: plotWaveforms(target, mid, tMid) };
 }
@@ -91,6 +98,29 @@ function devicePower(target: VerifyTarget, run: Run, vSw: Float64Array): Float64
     p[k] = diodeOn ? 0 : vSw[k]! * i[k]!;
   }
   return p;
+}
+
+/** Whether the timing core still runs in a run (for failure messages): collector swings after start-up. */
+export function coreState(run: Run): string {
+  return describeCore(run).text;
+}
+
+function describeCore(run: Run): { stopped: boolean; text: string } {
+  const swing = (net: string): [number, number] => {
+    const y = vec(run, `v(${net})`);
+    let lo = Infinity;
+    let hi = -Infinity;
+    for (let k = 0; k < y.length; k++) if (run.t[k]! >= run.from_s) [lo, hi] = [Math.min(lo, y[k]!), Math.max(hi, y[k]!)];
+    return [lo, hi];
+  };
+  const [a, b] = [swing("ca"), swing("cb")];
+  const still = (r: [number, number]): boolean => r[1] - r[0] < 0.1 * run.vbus_V;
+  const fmt = (r: [number, number]): string => `${r[0].toFixed(2)}…${r[1].toFixed(2)} V`;
+  if (still(a) && still(b)) {
+    const low = a[1] < 0.2 * run.vbus_V && b[1] < 0.2 * run.vbus_V;
+    return { stopped: true, text: `the timing core has stopped (ca ${fmt(a)}, cb ${fmt(b)}${low ? ": both transistors held on" : ""})` };
+  }
+  return { stopped: false, text: `the timing core runs (ca ${fmt(a)}, cb ${fmt(b)}), so the chain or the load does not conduct` };
 }
 
 /** t_high(A) / (t_high(A) + t_high(B)); 0.5 = symmetric. Each collector's level is its own mid-swing. */

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
-import { averagePower, crossings, meanOnState, pwmTiming, resample, timeAverage, upperLevel } from "../../src/verify/measure.ts";
+import { averagePower, crossings, debounce, meanOnState, pwmTiming, resample, timeAverage, upperLevel } from "../../src/verify/measure.ts";
 import { expectClose } from "../helpers/close.ts";
 
 /** Deterministic pseudo-random numbers (LCG) so that noisy waveforms are reproducible. */
@@ -119,5 +119,48 @@ describe("time-weighted averages (trapezoidal rule)", () => {
     const r = resample(w.t, w.y, 0, 0.003, 600);
     expect(r).toHaveLength(600);
     expect(r.every(Number.isFinite)).toBe(true);
+  });
+});
+
+describe("debounce: ringing after an inductive load's current runs out is not switching", () => {
+  /**
+   * 2 kHz, duty 0.3; after each turn-off the node rings (6 short swings through the level, each
+   * 3–7 µs, like a 12 mH valve coil with the switch capacitance), then settles.
+   */
+  function ringing() {
+    const T = 500e-6;
+    const t: number[] = [];
+    const y: number[] = [];
+    for (let k = 0; k <= 8 * 5000; k++) {
+      const x = (k * T) / 5000;
+      const ph = (x / T) % 1;
+      const since = (ph - 0.3) * T - 40e-6; // ringing starts 40 µs after turn-off
+      let v = ph < 0.3 ? 1 : 0;
+      if (since > 0 && since < 60e-6) v = Math.sin((2 * Math.PI * since) / 10e-6) > 0.3 ? 1 : 0;
+      t.push(x);
+      y.push(v);
+    }
+    return { t, y, T };
+  }
+
+  it("without it, each swing counts as a cycle: the frequency reads about 7× too high", () => {
+    const w = ringing();
+    const m = pwmTiming(w.t, w.y, 0.5, { from_s: 2 * w.T });
+    if (m.kind !== "pwm") throw new Error(m.kind);
+    expect(m.frequency_Hz).toBeGreaterThan(5 / w.T);
+  });
+
+  it("dropping pulses shorter than 2 % of the period restores 2 kHz and duty 0.3", () => {
+    const w = ringing();
+    const m = pwmTiming(w.t, w.y, 0.5, { from_s: 2 * w.T, minPulse_s: 0.02 * w.T });
+    if (m.kind !== "pwm") throw new Error(m.kind);
+    expectClose(m.frequency_Hz, 1 / w.T, 0.001);
+    expect(Math.abs(m.duty - 0.3)).toBeLessThan(0.002);
+  });
+
+  it("keeps alternation and leaves pulses at the limit or longer alone", () => {
+    const e = { rising_s: [0, 10, 10.5, 20], falling_s: [5, 10.2, 15, 25] };
+    expect(debounce(e, 1)).toEqual({ rising_s: [0, 10.5, 20], falling_s: [5, 15, 25] }); // the 0.2 s pulse at 10 goes
+    expect(debounce(e, 0.1)).toEqual(e);
   });
 });

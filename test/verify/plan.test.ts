@@ -46,6 +46,11 @@ describe("measureVariant on the darlington heater-mat fixture (12 V, 12 Ω)", ()
     expect(val(m, "duty_max")).toBeLessThanOrEqual(1);
   });
 
+  it("at ctrl = 1 the core stops: 5·R_C·C = 110 µs of collector recovery exceeds the short half-period R_B·C·ln 2 = 47 µs (recovery rule, common practice)", () => {
+    expect(val(m, "core_running_ctrl1")).toBe(0);
+    expect(val(m, "core_running_ctrl0")).toBe(1); // R_C = 1 kΩ on that side: 50 µs, recovers
+  });
+
   it("returns plot waveforms of at most 600 points per series, with finite values", () => {
     if (!m.ok || !m.waveforms) throw new Error("no waveforms");
     expect(m.waveforms.t_s.length).toBeLessThanOrEqual(600);
@@ -64,6 +69,7 @@ describe("measureVariant on the MOSFET fan-motor fixture (12 V, 6 Ω + 2 mH, fre
     expectClose(val(m, "frequency_ctrl0"), val(m, "frequency_nominal"), 0.1);
     expectClose(val(m, "frequency_ctrl1"), val(m, "frequency_nominal"), 0.1);
     expectClose(val(m, "core_symmetry"), 0.5, 0.05, "pot at mid: both sides equal");
+    expect([val(m, "core_running_ctrl0"), val(m, "core_running_ctrl1")]).toEqual([1, 1]);
   });
 
   it("device dissipation ≈ V_DS(on) · I · D for a fast MOSFET at kHz (conduction loss, ENGINEERING.md §4)", () => {

@@ -1,0 +1,62 @@
+/**
+ * What is compared with what. Like-for-like figures (SIM_FIGURES: nominal supply, 25 °C,
+ * minimum-gain models) are held to two-sided tolerances; the worst-case figures only bound the
+ * nominal simulation from above; the chain threshold is shown, never compared (its effect shows
+ * in the duty). Tolerances and their reasons: docs/verification.md.
+ */
+import { describe, expect, it } from "vitest";
+import { SIM_FIGURES } from "../../src/model/sized.ts";
+import type { Measurement } from "../../src/model/verification.ts";
+import { CHECKS, compare, judge, withinBound } from "../../src/verify/compare.ts";
+import type { Measured } from "../../src/verify/plan.ts";
+import type { Predicted } from "../../src/verify/target.ts";
+
+const p = (value: number, unit = ""): Predicted => ({ value, label: "x", unit });
+const m = (key: string, value: number): Measurement => ({ key, label: key, unit: "", value });
+const eng = { name: "eecircuit-engine" as const, version: "test" };
+
+describe("checks against the engine's figures", () => {
+  it("every two-sided check uses a figure the engine predicts at the simulation's conditions", () => {
+    for (const c of CHECKS.filter((x) => !x.bound)) expect(SIM_FIGURES as readonly string[]).toContain(c.key);
+  });
+
+  it("the chain threshold is not compared, whatever the tap voltage was", () => {
+    const out = compare({ chain_threshold: p(0.75, "V") }, [m("chain_threshold", 0.04), m("chain_input_at_turn_on", 0.04)]);
+    expect(out).toEqual([]);
+  });
+
+  it("switch on-voltage (predicted at nominal supply and rated current) is compared two-sided", () => {
+    const out = compare({ switch_on_voltage: p(0.9, "V") }, [m("switch_on_voltage", 1.0)]);
+    expect(out.map((c) => [c.key, c.ok, c.bound ?? "two-sided", c.tol_abs])).toEqual([["switch_on_voltage", true, "two-sided", 0.15]]);
+    expect(compare({ switch_on_voltage: p(0.9, "V") }, [m("switch_on_voltage", 1.2)])[0]?.ok).toBe(false); // > 0.9 + 0.225
+  });
+
+  it("dissipation: the nominal twin is compared two-sided, the worst case only as an upper bound", () => {
+    const predicted = { device_dissipation_nominal: p(1.0, "W"), device_dissipation: p(1.6, "W") };
+    expect(compare(predicted, [m("device_dissipation", 1.3)]).map((c) => [c.key, c.ok, c.bound ?? "two-sided"])).toEqual([
+      ["device_dissipation_nominal", true, "two-sided"],
+      ["device_dissipation", true, "upper"],
+    ]);
+    expect(compare(predicted, [m("device_dissipation", 1.7)]).map((c) => c.ok)).toEqual([false, false]); // > 1.35 and > 1.68
+  });
+
+  it("without the nominal twin, a worst-case figure far above the nominal simulation still agrees (it is a bound)", () => {
+    const v = judge({ device_dissipation: p(4.8, "W") }, { ok: true, elapsed_s: 0, measurements: [m("device_dissipation", 1.1)] }, eng, "h");
+    expect(v.status).toBe("agree");
+    expect(v.comparisons[0]).toMatchObject({ bound: "upper", ok: true });
+    expect(v.comparisons[0]?.tol_rel).toBeUndefined();
+  });
+
+  it("a simulation above the worst-case bound disagrees, and the message says it exceeds the bound", () => {
+    const measured: Measured = { ok: true, elapsed_s: 0, measurements: [m("device_dissipation", 2.2)] };
+    const v = judge({ device_dissipation: p(2.0, "W") }, measured, eng, "h");
+    expect(v.status).toBe("disagree");
+    expect(v.message).toMatch(/device_dissipation simulated 2\.2 exceeds the worst-case bound 2/);
+  });
+
+  it("withinBound allows the stated 5 % numerical margin and no more", () => {
+    expect(withinBound(2, 2.09, { rel: 0.05 })).toBe(true);
+    expect(withinBound(2, 2.11, { rel: 0.05 })).toBe(false);
+    expect(withinBound(2, -5, { rel: 0.05 })).toBe(true);
+  });
+});

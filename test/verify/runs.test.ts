@@ -1,0 +1,117 @@
+/**
+ * The run layer on synthetic data: when an inductive load counts as "on", how long a run settles,
+ * and the one looser-tolerance retry when a transient stops early (a fake engine stands in for SPICE).
+ */
+import { describe, expect, it } from "vitest";
+import type { SimResult, SpiceEngine } from "../../src/verify/engines/types.ts";
+import { DEFAULT_RUN_PLAN, loadTiming, RETRY_OPTIONS, runAt, settleTime, switchLevel, type Run } from "../../src/verify/runs.ts";
+import type { VerifyTarget } from "../../src/verify/target.ts";
+import { coreState } from "../../src/verify/plan.ts";
+import { expectClose } from "../helpers/close.ts";
+
+const T = 1e-4; // 10 kHz
+function target(o: Partial<VerifyTarget> = {}): VerifyTarget {
+  return {
+    id: "synthetic", highSide: false, inductive: true, tapNet: "ca", otherNet: "cb", chainInputNet: "g", switchNet: "sw",
+    powerRefs: [], predicted: {}, period_s: T, loadTau_s: 1e-3, loadEmf_V: 9, ...o,
+  };
+}
+
+/**
+ * Low-side switch driving a 12 V motor with 9 V back-EMF at duty D: on → 0.2 V; off → the freewheel
+ * diode holds the node at 12.5 V for `conduct` of the off-time, then the current has run out and
+ * the node sits at V_bus − EMF = 3 V (discontinuous conduction).
+ */
+function motorRun(duty: number, conduct: number, periods = 6): Run {
+  const t: number[] = [];
+  const sw: number[] = [];
+  for (let k = 0; k <= periods * 1000; k++) {
+    const x = (k * T) / 1000;
+    const ph = (x / T) % 1;
+    t.push(x);
+    sw.push(ph < duty ? 0.2 : ph < duty + conduct * (1 - duty) ? 12.5 : 3);
+  }
+  const n = t.length;
+  return {
+    ctrl: 0, t: Float64Array.from(t), from_s: 2 * T, tEnd_s: t[n - 1]!, vbus_V: 12, powerVectors: [], retried: false,
+    v: { "v(sw)": Float64Array.from(sw), "v(vbus)": new Float64Array(n).fill(12), "i(vsense)": new Float64Array(n) },
+  };
+}
+
+describe("when is an inductive load on", () => {
+  it("the switch level sits below V_bus − back-EMF, so a run-down motor current is not read as 'on'", () => {
+    expect(switchLevel(target(), 12)).toBe(1.5);
+    expect(switchLevel(target({ loadEmf_V: 0 }), 12)).toBe(6);
+    const m = loadTiming(target(), motorRun(0.2, 0.3), 0);
+    if (m.kind !== "pwm") throw new Error(m.kind);
+    expect(Math.abs(m.duty - 0.2)).toBeLessThan(0.005);
+    expectClose(m.frequency_Hz, 1 / T, 0.001);
+  });
+
+  it("the old half-supply level would have counted the 3 V plateau as on (regression: duty 0.18 read as 0.73)", () => {
+    const m = loadTiming(target({ loadEmf_V: 0 }), motorRun(0.2, 0.3), 0);
+    if (m.kind !== "pwm") throw new Error(m.kind);
+    expect(m.duty).toBeGreaterThan(0.7);
+  });
+});
+
+describe("settling", () => {
+  it("resistive loads and control below 1 settle for the plan's periods only", () => {
+    expect(settleTime(target({ inductive: false, loadTau_s: 0 }), 1, DEFAULT_RUN_PLAN)).toBeCloseTo(DEFAULT_RUN_PLAN.settlePeriods * T, 12);
+    expect(settleTime(target(), 0.5, DEFAULT_RUN_PLAN)).toBeCloseTo(DEFAULT_RUN_PLAN.settlePeriods * T, 12);
+  });
+  it("an inductive load at control 1 settles for 3 L/R (e^−3 ≈ 5 % of its start error), at most 60 periods", () => {
+    expect(settleTime(target({ loadTau_s: 1e-3 }), 1, DEFAULT_RUN_PLAN)).toBeCloseTo(3e-3, 12);
+    expect(settleTime(target({ loadTau_s: 1 }), 1, DEFAULT_RUN_PLAN)).toBeCloseTo(60 * T, 12);
+  });
+});
+
+/** A fake engine: answers each run from `stopAt(deck)` (fraction of the requested stop time reached). */
+function fakeEngine(stopAt: (deck: string) => number): SpiceEngine & { decks: string[] } {
+  const decks: string[] = [];
+  return {
+    name: "eecircuit-engine", version: "fake", decks,
+    async run(deck, vectors): Promise<SimResult> {
+      decks.push(deck);
+      const tStop = Number(/^\.tran \S+ (\S+)/m.exec(deck)![1]);
+      const n = 200;
+      const t_s = Float64Array.from({ length: n }, (_, k) => (k / (n - 1)) * tStop * stopAt(deck));
+      return { t_s, vectors: Object.fromEntries(vectors.map((v) => [v, new Float64Array(n).fill(v === "v(vbus)" ? 12 : 0)])) };
+    },
+    async close() {},
+  };
+}
+const NETLIST = ".param ctrl=0.5\nVsupply vcc 0 DC 12\n.ic v(ca)=12 v(cb)=0\n.end\n";
+
+describe("a transient that stops early", () => {
+  it("is run once more with looser absolute tolerances, and the run says so", async () => {
+    const e = fakeEngine((d) => (d.includes(RETRY_OPTIONS) ? 1 : 0.8));
+    const run = await runAt(target({ inductive: false, loadTau_s: 0 }), NETLIST, e, 0.5);
+    expect(run.retried).toBe(true);
+    expect(e.decks).toHaveLength(2);
+    expect(e.decks[1]).toMatch(/^\.options method=gear abstol=1e-9 vntol=1e-5$/m);
+  });
+  it("fails with both attempts named when the retry stops too", async () => {
+    const e = fakeEngine(() => 0.5);
+    await expect(runAt(target({ inductive: false, loadTau_s: 0 }), NETLIST, e, 1)).rejects.toThrow(/stopped early at ctrl = 1: .* and at .* with abstol/);
+  });
+  it("a run that completes is not retried", async () => {
+    const e = fakeEngine(() => 1);
+    const run = await runAt(target({ inductive: false, loadTau_s: 0 }), NETLIST, e, 0);
+    expect([run.retried, e.decks.length]).toEqual([false, 1]);
+  });
+});
+
+describe("failure messages say whether the timing core still runs", () => {
+  const run = (ca: (x: number) => number, cb: (x: number) => number): Run => {
+    const t = Float64Array.from({ length: 601 }, (_, k) => (k * 6 * T) / 600);
+    return { ctrl: 1, t, from_s: 2 * T, tEnd_s: 6 * T, vbus_V: 24, powerVectors: [], retried: false, v: { "v(ca)": t.map(ca), "v(cb)": t.map(cb) } };
+  };
+  it("both collectors low and still: the core has stopped with both transistors on (a latch-up)", () => {
+    expect(coreState(run(() => 0.12, () => 0.07))).toMatch(/timing core has stopped .*both transistors held on/);
+  });
+  it("collectors swinging: the core runs, the fault is further down", () => {
+    const sq = (x: number): number => ((x / T) % 1 < 0.5 ? 23.8 : 0.1);
+    expect(coreState(run(sq, (x) => 23.9 - sq(x)))).toMatch(/timing core runs/);
+  });
+});
