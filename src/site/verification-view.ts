@@ -29,6 +29,7 @@ export interface VerificationView {
 }
 
 function tolerance(c: Comparison): string {
+  if (c.bound === "upper") return "simulated ≤ predicted bound";
   if (c.tol_abs !== undefined) return `± ${displayNumber(c.tol_abs, c.unit, c.key)}`;
   if (c.tol_rel !== undefined) return `± ${formatPercent(c.tol_rel)} (relative)`;
   return "";
