@@ -29,7 +29,10 @@ export interface VerificationView {
 }
 
 function tolerance(c: Comparison): string {
-  if (c.bound === "upper") return "simulated ≤ predicted bound";
+  if (c.bound === "upper") {
+    const allowance = c.tol_abs !== undefined ? ` + ${displayNumber(c.tol_abs, c.unit, c.key)}` : c.tol_rel !== undefined ? ` + ${formatPercent(c.tol_rel)}` : "";
+    return `simulated ≤ bound${allowance}`;
+  }
   if (c.tol_abs !== undefined) return `± ${displayNumber(c.tol_abs, c.unit, c.key)}`;
   if (c.tol_rel !== undefined) return `± ${formatPercent(c.tol_rel)} (relative)`;
   return "";

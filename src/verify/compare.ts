@@ -75,7 +75,10 @@ export function compare(predicted: Record<string, Predicted>, measurements: read
     const m = measurements.find((x) => x.key === chk.measured);
     if (p === undefined || m === undefined || !Number.isFinite(p.value)) continue;
     if (chk.bound) {
-      out.push({ key: chk.key, label: `${p.label} (worst-case bound: simulated must not exceed it)`, unit: p.unit, predicted: p.value, simulated: m.value, bound: "upper", ok: withinBound(p.value, m.value, chk.tol) });
+      const c: Comparison = { key: chk.key, label: `${p.label} (worst-case bound: simulated must not exceed it)`, unit: p.unit, predicted: p.value, simulated: m.value, bound: "upper", ok: withinBound(p.value, m.value, chk.tol) };
+      if (chk.tol.rel !== undefined) c.tol_rel = chk.tol.rel;
+      if (chk.tol.abs !== undefined) c.tol_abs = chk.tol.abs;
+      out.push(c);
       continue;
     }
     const c: Comparison = { key: chk.key, label: p.label, unit: p.unit, predicted: p.value, simulated: m.value, ok: withinTolerance(p.value, m.value, chk.tol) };
