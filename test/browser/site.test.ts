@@ -125,7 +125,13 @@ describe.skipIf(!HAVE)("the published site in a browser, under a URL prefix", ()
     const page = await open(`designs/nutrient-pump/index.html`);
     let lastId = "";
     const lib = new Map(cat.engine!.devices.map((x) => [x.id, x] as const));
-    for (const inp of [{ supply_V: 24, load_A: 2, pwm_Hz: d.record.targets.pwm_Hz, chain: "mosfet-logic", load_kind: "motor" }, { supply_V: 18.5, load_A: 1.3, pwm_Hz: d.record.targets.pwm_Hz * 1.5, chain: "bjt-driver-pnp", load_kind: "motor" }] as const) {
+    // Chains from the design's own axis (the form offers only those), first and last.
+    const chains = d.record.axes.chain;
+    const inputs = [
+      { supply_V: 24, load_A: 2, pwm_Hz: d.record.targets.pwm_Hz, chain: chains[0]!, load_kind: "motor" as const },
+      { supply_V: 18.5, load_A: 1.3, pwm_Hz: d.record.targets.pwm_Hz * 1.5, chain: chains[chains.length - 1]!, load_kind: "motor" as const },
+    ];
+    for (const inp of inputs) {
       await page.getByLabel(/^Supply voltage/).fill(String(inp.supply_V));
       await page.getByLabel(/^Load current/).fill(String(inp.load_A));
       await page.getByLabel(/^PWM frequency/).fill(String(inp.pwm_Hz));
