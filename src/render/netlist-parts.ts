@@ -84,13 +84,17 @@ export function elementLines(p: Part, supply_V: number): ElementOut {
     case "led-strip": {
       const vf = p.spice?.vf_V;
       if (vf === undefined || !(vf > 0)) throw new RangeError(`netlist: LED strip ${ref} needs spice.vf_V > 0`);
-      const i_A = p.stress.current_A ?? p.rating.current_A ?? p.value / supply_V;
+      // The engine may give the string's own diode law (spice.is_A, spice.n); otherwise
       // V_F = N·V_T·ln(I/IS) at the rated current: one diode stands in for the whole string.
-      const nEm = vf / (VT_27C_V * Math.log(i_A / LED_STRING_IS_A));
+      const law = p.spice as { is_A?: number; n?: number } | undefined;
+      const given = law?.is_A !== undefined && law.n !== undefined && law.is_A > 0 && law.n > 0;
+      const i_A = p.stress.current_A ?? p.rating.current_A ?? p.value / supply_V;
+      const is_A = given ? law.is_A! : LED_STRING_IS_A;
+      const nEm = given ? law.n! : vf / (VT_27C_V * Math.log(i_A / LED_STRING_IS_A));
       const model = `LEDSTR_${ref}`;
       return {
         lines: [`D${ref} ${n[0]} ${inner} ${model}`, `R${ref} ${inner} ${n[1]} ${v(loadR(p), "r_ohm")}`],
-        models: [`.model ${model} D(IS=${spiceNum(LED_STRING_IS_A, "IS")} N=${v(nEm, "N")} RS=0)`],
+        models: [`.model ${model} D(IS=${v(is_A, "IS")} N=${v(nEm, "N")} RS=0)`],
       };
     }
   }

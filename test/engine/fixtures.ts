@@ -59,8 +59,10 @@ export const NPN_HIGH_GAIN: BjtClass = {
 export function makeSpec(o: SpecOpts): VariantSpec {
   const targets = {
     pwm_Hz: o.pwm_Hz ?? 1000,
-    duty_min: o.duty?.[0] ?? 0.1,
-    duty_max: o.duty?.[1] ?? 0.9,
+    // 20–80 %: the collectors must recover within the shortest half-period (5·τ_c ≤ t_off,min),
+    // which a 10–90 % range cannot meet with k ≥ 2 at minimum gain (timing-search.ts MAX_RECOVERY).
+    duty_min: o.duty?.[0] ?? 0.2,
+    duty_max: o.duty?.[1] ?? 0.8,
     ambient_C: o.ambient_C ?? [-10, 40] as [number, number],
     supply_tolerance: o.supply_tolerance ?? 0.1,
     duty_skew_max: 0.02,

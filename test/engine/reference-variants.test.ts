@@ -113,7 +113,9 @@ describe("R4 — 24 V 3 A mosfet-driver, LED strip (3 kHz)", () => {
     const c = part(s, "CT_A").value, rEnd = part(s, "RB_A").value, pot = part(s, "RV_DUTY").value;
     // V_on = V_BE 0.66 + base diode ≈ 0.65 V at µA (from memory) = 1.3 V; V_sat 0.25 V:
     // ln((48 − 1.3 − 0.25)/(24 − 1.3)) = ln(2.0463) = 0.7160 → 470 pF·1.112 MΩ·0.716 = 374 µs → 2.67 kHz
-    const tHand = c * (2 * rEnd + pot) * Math.log((48 - 1.3 - 0.25) / (24 - 1.3));
+    // The off side returns at the cut-in level V_γ = 0.5 V + base diode at ≈ 0.1 µA (class law
+    // 1.0 V − 0.1 V/decade × 5 decades = 0.5 V) = 1.0 V (Millman & Taub ch. 11, from memory).
+    const tHand = c * (2 * rEnd + pot) * Math.log((48 - 1.3 - 0.25) / (24 - 1.0));
     expectClose(fig(s, "frequency_nominal"), 1 / tHand, 0.05, "Millman & Taub 1965 ch. 11 (from memory); loading + recovery account for the rest");
   });
   it("IEEE 1789: full-depth PWM ≥ 1250 Hz at the worst-case low frequency → low-risk note, no warning", () => {

@@ -117,3 +117,16 @@ describe("bad numbers are refused with a message naming the part", () => {
     expect(() => renderNetlist(f.circuit, { ...f.meta, devices: new Map() })).toThrow(/not in the device library/);
   });
 });
+
+describe("LED strip diode law", () => {
+  const f = CIRCUIT_FIXTURES.find((x) => x.circuit.parts.some((p) => p.kind === "led-strip"))!;
+  const strip = f.circuit.parts.find((p) => p.kind === "led-strip")!;
+  const card = (text: string) => text.split("\n").find((l) => l.startsWith(`.model LEDSTR_${strip.ref} `))!;
+  it("uses the engine's spice.is_A and spice.n when the part gives them", () => {
+    const parts = f.circuit.parts.map((p) => (p === strip ? { ...p, spice: { ...p.spice, is_A: 2e-18, n: 7.5 } } : p));
+    expect(card(renderNetlist({ ...f.circuit, parts }, { ...f.meta, devices: FIXTURE_DEVICES }))).toBe(`.model LEDSTR_${strip.ref} D(IS=2e-18 N=7.5 RS=0)`);
+  });
+  it("otherwise solves N so the string drops spice.vf_V at its current with IS = 1e-12", () => {
+    expect(card(render(f))).toMatch(new RegExp(`^\\.model LEDSTR_${strip.ref} D\\(IS=1e-12 N=[0-9.]+ RS=0\\)$`));
+  });
+});

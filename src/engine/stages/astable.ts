@@ -19,9 +19,16 @@ export interface CollectorLoad {
   v_V: number;
 }
 
-/** ln((Vcc − V_on + V_swing)/(Vcc − V_on)); → ln 2 when V_swing = Vcc − V_on. */
-export function lnFactor(vcc_V: number, vOn_V: number, vSwing_V: number): number {
-  return Math.log((vcc_V - vOn_V + vSwing_V) / (vcc_V - vOn_V));
+/**
+ * ln((Vcc − V_on + V_swing)/(Vcc − V_γ)); → ln 2 when V_swing = Vcc − V_on and V_γ = V_on.
+ * The base node starts at V_on − V_swing (V_on: the node's level while its transistor conducts,
+ * at full base current) and the transistor comes back at the cut-in level V_γ (≤ V_on: at the
+ * onset of regeneration the base current is tiny). Millman & Taub, Pulse, Digital and Switching
+ * Waveforms, 1965, ch. 11 — the base waveform of the astable runs from V_σ − swing to the cut-in
+ * voltage V_γ (from memory). Without `vCutIn_V` the two levels are the same (the plain textbook form).
+ */
+export function lnFactor(vcc_V: number, vOn_V: number, vSwing_V: number, vCutIn_V: number = vOn_V): number {
+  return Math.log((vcc_V - vOn_V + vSwing_V) / (vcc_V - vCutIn_V));
 }
 
 export function halfPeriod_s(r_ohm: number, c_F: number, vcc_V: number, vOn_V: number, vSwing_V: number): number {
@@ -47,9 +54,14 @@ export function thresholdDelay_s(tau_s: number, vHigh_V: number, vSat_V: number,
   return tau_s * Math.log((vHigh_V - vSat_V) / (vHigh_V - vTh_V));
 }
 
+/** Smallest ln factor used (a latched side), so no zero or negative half-period is passed on. */
+export const LN_FLOOR = 1e-6;
+
 export interface CoreParams {
   vcc_V: number;
   vOn_V: number;
+  /** Base-node level at the onset of regeneration (cut-in), V; default vOn_V. */
+  vCutIn_V?: number;
   vSat_V: number;
   rCA_ohm: number;
   rCB_ohm: number;
@@ -89,13 +101,16 @@ export function evaluateCore(p: CoreParams): CoreTiming {
   const fullB = Math.max(0, b.v_V - p.vSat_V);
   const tauA_s = a.r_ohm * p.cA_F;
   const tauB_s = b.r_ohm * p.cB_F;
+  const vGamma = p.vCutIn_V ?? p.vOn_V;
   let swingA = fullA;
   let swingB = fullB;
   let tAoff = 0;
   let tBoff = 0;
   for (let i = 0; i < 40; i++) {
-    tBoff = p.rBB_ohm * p.cA_F * lnFactor(p.vcc_V, p.vOn_V, swingA);
-    tAoff = p.rBA_ohm * p.cB_F * lnFactor(p.vcc_V, p.vOn_V, swingB);
+    // A swing smaller than V_on − V_γ never takes the base below cut-in: that side does not turn
+    // off (the core latches). The floor keeps the numbers finite; the recovery figure rejects it.
+    tBoff = p.rBB_ohm * p.cA_F * Math.max(LN_FLOOR, lnFactor(p.vcc_V, p.vOn_V, swingA, vGamma));
+    tAoff = p.rBA_ohm * p.cB_F * Math.max(LN_FLOOR, lnFactor(p.vcc_V, p.vOn_V, swingB, vGamma));
     const nA = fullA * (1 - Math.exp(-tAoff / tauA_s));
     const nB = fullB * (1 - Math.exp(-tBoff / tauB_s));
     const done = Math.abs(nA - swingA) < 1e-12 * fullA && Math.abs(nB - swingB) < 1e-12 * fullB;

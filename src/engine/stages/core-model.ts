@@ -49,6 +49,26 @@ export function diodeVf_V(d: DiodeClass, i_A: number, t_C: number): number {
   return d.vf_V - 0.1 * Math.max(0, dec) - 0.002 * (t_C - 25);
 }
 
+/**
+ * Cut-in voltage of a silicon B–E junction, V at 25 °C: below it the transistor conducts too little
+ * to matter, and the astable's off transistor returns when its base node reaches it, not V_BE(on)
+ * at full current (Millman & Taub, 1965, ch. 11, and Millman & Halkias, Integrated Electronics,
+ * 1972, table of Si junction voltages: V_γ ≈ 0.5 V, V_BE(active) ≈ 0.7 V, V_BE(sat) ≈ 0.8 V —
+ * from memory). −2 mV/K as V_BE (common practice).
+ */
+export const CUT_IN_VBE_V = 0.5;
+/**
+ * Base current at the onset of regeneration, A: the collector current at cut-in (tens of µA)
+ * over the timing transistor's gain (hundreds), so a series base diode conducts only ≈ 0.1 µA
+ * then (derived, order of magnitude).
+ */
+export const CUT_IN_BASE_A = 1e-7;
+
+/** Base-node level at which an off timing transistor comes back on: V_γ (+ the base diode's V_F at the cut-in current). */
+export function cutIn_V(diodes: boolean, db: DiodeClass, t_C: number): number {
+  return CUT_IN_VBE_V - 0.002 * (t_C - 25) + (diodes ? diodeVf_V(db, CUT_IN_BASE_A, t_C) : 0);
+}
+
 export interface CoreEval {
   timing: CoreTiming;
   f_Hz: number;
@@ -57,6 +77,7 @@ export interface CoreEval {
   /** Threshold delay Δt of the tapped collector, s (null: the threshold is never reached). */
   dtTh_s: number | null;
   vOn_V: number;
+  vCutIn_V: number;
   vSat_V: number;
 }
 
@@ -73,8 +94,9 @@ export function evalCore(v: CoreValues, q: BjtClass, db: DiodeClass, k: Corner, 
   const loads: { loadA?: CollectorLoad; loadB?: CollectorLoad } = {};
   if (tapA) { loads.loadA = v.tapLoad; if (v.balance) loads.loadB = v.balance; }
   else { loads.loadB = v.tapLoad; if (v.balance) loads.loadA = v.balance; }
+  const vCutIn_V = Math.min(vOn_V, cutIn_V(v.diodes, db, k.t_C));
   const timing = evaluateCore({
-    vcc_V: k.vcc_V, vOn_V, vSat_V, rCA_ohm: rCA, rCB_ohm: rCB, cA_F: v.c_F * k.kCA, cB_F: v.c_F * k.kCB, rBA_ohm: rBA, rBB_ohm: rBB, ...loads,
+    vcc_V: k.vcc_V, vOn_V, vCutIn_V, vSat_V, rCA_ohm: rCA, rCB_ohm: rCB, cA_F: v.c_F * k.kCA, cB_F: v.c_F * k.kCB, rBA_ohm: rBA, rBB_ohm: rBB, ...loads,
   });
   // The tapped collector's rise before the chain conducts: R_C towards Vcc, in parallel with any
   // linear input network; it charges its own coupling capacitor.
@@ -87,7 +109,7 @@ export function evalCore(v: CoreValues, q: BjtClass, db: DiodeClass, k: Corner, 
   const dt = dtTh_s ?? timing.period_s;
   const tOn = v.inverting ? timing.tAoff_s + dt + v.delayOff_s - v.delayOn_s : timing.tAoff_s - dt - v.delayOn_s + v.delayOff_s;
   const duty = Math.min(1, Math.max(0, tOn / timing.period_s));
-  return { timing, f_Hz: 1 / timing.period_s, duty, dtTh_s, vOn_V, vSat_V };
+  return { timing, f_Hz: 1 / timing.period_s, duty, dtTh_s, vOn_V, vCutIn_V, vSat_V };
 }
 
 /** All 2^9 corners of supply, temperature and the seven component tolerances (the brute-force reference for worst-corners.ts). */

@@ -25,12 +25,18 @@ export type { Range, WorstCase } from "./worst-corners.ts";
 export const POT_VALUES_OHM: readonly number[] = [2, 3, 4, 5, 6].flatMap((e) => [1, 2.2, 4.7].map((m) => Math.round(m * 10 ** e)));
 export const C_MAX_F = 10e-6;
 export const C_MIN_F = 100e-12;
-/** Candidates whose collectors recover in more than 5× the shortest half-period (5·τ_c) are not built. */
-export const MAX_RECOVERY = 5;
+/**
+ * Largest 5·τ_c / t_off,min at worst case: the collector must recover within the shortest
+ * half-period (ENGINEERING.md §1: "5 τ_c < t_i"), or the next swing shrinks, the off side may not
+ * be driven below cut-in and the core latches with both transistors on (seen in simulation at the
+ * pot's ends when this limit was 5). Common practice for the astable (Millman & Taub ch. 11: the
+ * recovery time constant must be short against the half-period).
+ */
+export const MAX_RECOVERY = 1;
 /** Smallest end-stop resistor considered, Ω. */
 export const R_END_MIN_OHM = 100;
 /** Candidates refined against the worst case before giving up (the ranking puts the likely ones first). */
-const REFINE_CANDIDATES = 4;
+const REFINE_CANDIDATES = 8;
 /** E24 steps an end stop may move from its analytic value. */
 const MAX_STEPS = 6;
 

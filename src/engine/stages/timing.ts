@@ -17,7 +17,7 @@ import { SRC } from "../shared/sources.ts";
 import { evaluateCore, lnFactor, type CollectorLoad } from "./astable.ts";
 import type { Ctx } from "./context.ts";
 import { type CoreValues, NOMINAL_K, diodeVf_V, evalCore } from "./core-model.ts";
-import { type Search, searchCore } from "./timing-search.ts";
+import { MAX_RECOVERY, type Search, searchCore } from "./timing-search.ts";
 import type { TapDesign } from "./tap.ts";
 import type { ChainPlan } from "./chains/types.ts";
 import { timingParts } from "./timing-parts.ts";
@@ -85,12 +85,12 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
   const fErr = e5.f_Hz / ctx.f_Hz - 1;
   if (!search.found) problems.push(problem("timing", "/parts/RV_DUTY", "duty-range-unreachable", "error",
     `No timing-core values reach the required duty range ${fmtPct(t.duty_min)}–${fmtPct(t.duty_max)} at ${ctx.f_Hz} Hz while keeping the timing transistors saturated (k ≥ 2 at minimum gain); the nearest reaches ${fmtPct(e0.duty)}–${fmtPct(e1.duty)} with overdrive k = ${search.overdrive.toFixed(2)} (R_C = ${v.rC_ohm} Ω, set by what the chain input needs; R_B,max ≤ β_min·R_C/2, and the pot's track current sets the smallest end resistor).`));
-  else if (!search.passed) problems.push(problem("duty", "/parts/RV_DUTY", "duty-range-worst-case", "error",
+  else if (!search.passed && (w.dMin.hi > t.duty_min || w.dMax.lo < t.duty_max || (w.recovery <= MAX_RECOVERY && w.thresholdReached))) problems.push(problem("duty", "/parts/RV_DUTY", "duty-range-worst-case", "error",
     `Worst case the control reaches only ${fmtPct(w.dMin.hi)}–${fmtPct(w.dMax.lo)} duty at the load, short of the required ${fmtPct(t.duty_min)}–${fmtPct(t.duty_max)}.`,
     { limit: t.duty_min, actual: w.dMin.hi, unit: "" }));
   if (!w.thresholdReached) problems.push(problem("timing", `/parts/${tap.tapNet === "ca" ? "RC_A" : "RC_B"}`, "threshold-unreached", "error", "The tapped collector never rises to the chain's switching threshold at some corner: the load would not switch."));
   if (Math.abs(fErr) > 0.05) problems.push(problem("timing", "/parts/CT_A", "frequency-error", "warning", `The nearest preferred values give ${e5.f_Hz.toFixed(0)} Hz, ${fmtPct(fErr)} from the ${ctx.f_Hz} Hz target.`, { limit: 0.05, actual: fErr, unit: "" }));
-  if (w.recovery > 1) problems.push(problem("timing", "/parts/RC_A", "collector-recovery", "warning", `The collectors recover in 5·τ_c = ${w.recovery.toFixed(2)} × the shortest half-period: the duty at the control's ends is shortened (the figures include it).`, { limit: 1, actual: w.recovery, unit: "" }));
+  if (w.recovery > MAX_RECOVERY) problems.push(problem("timing", "/parts/RC_A", "collector-recovery", "error", `At worst case the collectors need 5·τ_c = ${w.recovery.toFixed(2)} × the shortest half-period to recover (limit ${MAX_RECOVERY}): the core can latch with both transistors on at the control's ends. Narrow the duty range or lower the frequency.`, { limit: MAX_RECOVERY, actual: w.recovery, unit: "" }));
   if (skew > t.duty_skew_max) problems.push(problem("timing", "/parts/RBAL", "duty-skew", "warning", `The timing core's duty skew from loading is ${fmtPct(skew)}, above the design's ${fmtPct(t.duty_skew_max)}.`, { limit: t.duty_skew_max, actual: skew, unit: "" }));
   problems.push(problem("duty", "/parts/RV_DUTY", "no-full-off-on", "note", `The end resistors stop the control at ${fmtPct(e0.duty)}–${fmtPct(e1.duty)} (nominal); over all tolerances, supply and temperature the control is sure to reach ${fmtPct(w.dMin.hi)}–${fmtPct(w.dMax.lo)}. The load is never fully off or fully on from this control; use a separate switch for off.`));
   const built = timingParts(ctx, q, db, v, tap, balance, balanceDiode, w, e5.vOn_V);
@@ -99,9 +99,9 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
   const sign = plan.need.inverting ? 1 : -1;
   const M = SRC.MULTIVIBRATOR;
   const figures: Figure[] = [
-    figure("frequency_nominal", "PWM frequency (nominal, mid control)", e5.f_Hz, "Hz", "timing", "f = 1/(t_Aoff + t_Boff); t_Xoff = R_BX·C·ln((V_cc − V_on + V_swing)/(V_cc − V_on))", M, [w.f.lo, w.f.hi]),
+    figure("frequency_nominal", "PWM frequency (nominal, mid control)", e5.f_Hz, "Hz", "timing", "f = 1/(t_Aoff + t_Boff); t_Xoff = R_BX·C·ln((V_cc − V_on + V_swing)/(V_cc − V_γ))", M, [w.f.lo, w.f.hi]),
     figure("frequency_error", "Frequency error vs target (nominal)", fErr, "", "timing", "f/f_target − 1", SRC.DERIVED),
-    figure("timing_ln_coefficient", "Half-period coefficient ln(...) (nominal, side A)", lnFactor(ctx.vNom_V, e5.vOn_V, e5.timing.swingB_V), "", "timing", "ln((V_cc − V_on + V_swing)/(V_cc − V_on)) → ln 2 when V_swing = V_cc − V_on", M),
+    figure("timing_ln_coefficient", "Half-period coefficient ln(...) (nominal, side A)", lnFactor(ctx.vNom_V, e5.vOn_V, e5.timing.swingB_V, e5.vCutIn_V), "", "timing", "ln((V_cc − V_on + V_swing)/(V_cc − V_γ)), V_γ the cut-in level → ln 2 when V_swing = V_cc − V_on = V_cc − V_γ", M),
     figure("timing_capacitor", "Timing capacitors C (each)", v.c_F, "F", "timing", "C = T_target / (period per farad), E12", SRC.IEC60063),
     figure("timing_collector_resistor", "Collector resistors R_C (each)", v.rC_ohm, "Ω", "timing", "R_C = α·(V_cc,min − V_clamp)/I_need, bounded by the timing transistor's current", SRC.COMMON),
     figure("duty_pot", "Duty potentiometer", v.pot_ohm, "Ω", "duty", "E3 pot value; total base resistance R_BA + R_BB = 2·R_end + R_pot stays constant", SRC.COMMON),

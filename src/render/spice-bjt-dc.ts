@@ -1,0 +1,70 @@
+/**
+ * DC operating point of a Gummel-Poon transistor at a forced collector and base current (the
+ * datasheet saturation test: I_C and I_B = I_C / forced gain), in the form SPICE3 and ngspice
+ * evaluate it, so the card derivation can predict what the simulator will print:
+ *   I_f = IS·(exp(V_B'E'/(NF·V_T)) − 1),  I_r = IS·(exp(V_B'C'/(NR·V_T)) − 1)
+ *   q_b = q1/2·(1 + √(1 + 4·I_f/IKF)),    q1 = 1/(1 − V_B'C'/VAF)
+ *   I_C = (I_f − I_r)/q_b − I_r/BR,        I_B = I_f/BF + I_r/BR
+ * (Gummel & Poon, Bell Syst. Tech. J. 49, 1970; SPICE2/3 form as in Antognetti & Massobrio,
+ * Semiconductor Device Modeling with SPICE, 2nd ed., ch. 2 — from memory; no leakage terms).
+ * Magnitudes only: a PNP is the same with every sign flipped.
+ */
+import { VT_27C_V } from "./spice-num.ts";
+
+export interface GpParams {
+  is_A: number;
+  bf: number;
+  br: number;
+  nf: number;
+  nr: number;
+  vaf_V: number;
+  /** Forward high-injection knee; Infinity = none. */
+  ikf_A: number;
+  rb_ohm: number;
+  rc_ohm: number;
+  re_ohm: number;
+}
+
+export interface SatPointDc {
+  /** Intrinsic forward and reverse junction currents. */
+  if_A: number;
+  ir_A: number;
+  vbeInt_V: number;
+  vbcInt_V: number;
+  /** Terminal voltages, including the ohmic drops. */
+  vbe_V: number;
+  vce_V: number;
+}
+
+function collectorCurrent(p: GpParams, if_A: number, ib_A: number): { ic: number; ir: number; vbc: number } {
+  const ir = p.br * (ib_A - if_A / p.bf);
+  const vbc = p.nr * VT_27C_V * Math.log1p(ir / p.is_A);
+  const q1 = 1 / (1 - vbc / p.vaf_V);
+  const qb = (q1 / 2) * (1 + Math.sqrt(1 + (4 * if_A) / p.ikf_A));
+  return { ic: (if_A - ir) / qb - ir / p.br, ir, vbc };
+}
+
+/**
+ * Solves the forced-current point; null when the device cannot saturate there (its gain at that
+ * current is below the forced gain, so I_C cannot be reached with I_B).
+ */
+export function satPoint(p: GpParams, ic_A: number, ib_A: number): SatPointDc | null {
+  let hi = p.bf * ib_A; // I_r = 0: the edge of saturation
+  if (collectorCurrent(p, hi, ib_A).ic <= ic_A) return null;
+  let lo = 0; // I_r = BR·I_B: I_C < 0
+  // I_C rises monotonically with I_f on (0, BF·I_B); bisection to double precision.
+  for (let k = 0; k < 200 && hi - lo > 1e-15 * hi; k++) {
+    const mid = (lo + hi) / 2;
+    if (collectorCurrent(p, mid, ib_A).ic < ic_A) lo = mid;
+    else hi = mid;
+  }
+  const if_A = (lo + hi) / 2;
+  const { ir, vbc } = collectorCurrent(p, if_A, ib_A);
+  const vbe = p.nf * VT_27C_V * Math.log1p(if_A / p.is_A);
+  const ie_A = ic_A + ib_A;
+  return {
+    if_A, ir_A: ir, vbeInt_V: vbe, vbcInt_V: vbc,
+    vbe_V: vbe + p.rb_ohm * ib_A + p.re_ohm * ie_A,
+    vce_V: vbe - vbc + p.rc_ohm * ic_A + p.re_ohm * ie_A,
+  };
+}
