@@ -43,7 +43,8 @@ function sizeInner(spec: VariantSpec): SizedVariant {
   const timing = designTiming(ctx, plan, tap);
   const w = timing.search.worst;
   const fin = plan.finish(tap.info, { dutyMax: Math.min(1, w.dMax.hi), fMax_Hz: w.f.hi });
-  const load = loadStage(ctx, plan.vSwNom_V);
+  const dOn = timing.figures.find((f) => f.key === "duty_max")?.value ?? Math.min(1, w.dMax.hi);
+  const load = loadStage(ctx, plan.vSwNom_V, dOn);
   const q = spec.devices.timing_npn as BjtClass;
   const timingLoss = (role: string) => ({ role, dev: q, family: "bjt" as const, pCond_W: timing.timingLoss_W, pSw_W: 0, p_W: timing.timingLoss_W, isPower: false });
   const losses = [...fin.losses, timingLoss("Q_A"), timingLoss("Q_B")];
@@ -67,7 +68,7 @@ function sizeInner(spec: VariantSpec): SizedVariant {
     const m = /^\/parts\/(.+)$/.exec(p.path);
     return m === null ? p : { ...p, path: `/parts/${toRef(m[1]!)}` };
   };
-  const stageProblems = [...timing.problems, ...plan.problems, ...fin.problems, ...thermal.problems, ...prot.problems].map(fixPath);
+  const stageProblems = [...timing.problems, ...plan.problems, ...fin.problems, ...load.problems, ...thermal.problems, ...prot.problems].map(fixPath);
   const problems = [...stageProblems, ...checkProblems(checks, stageProblems)];
   const figures: Figure[] = dedupe([
     ...timing.figures, ...plan.figures, ...fin.figures, ...load.figures, ...thermal.figures, ...prot.figures,

@@ -49,6 +49,9 @@ export interface PartSpice {
   r_ohm?: number;
   l_H?: number;
   vf_V?: number;
+  /** LED strips: the string's diode law V = n·V_T·ln(1 + I/is_A), set by the engine (optional). */
+  is_A?: number;
+  n?: number;
 }
 
 export interface Part {

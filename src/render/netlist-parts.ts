@@ -86,7 +86,7 @@ export function elementLines(p: Part, supply_V: number): ElementOut {
       if (vf === undefined || !(vf > 0)) throw new RangeError(`netlist: LED strip ${ref} needs spice.vf_V > 0`);
       // The engine may give the string's own diode law (spice.is_A, spice.n); otherwise
       // V_F = N·V_T·ln(I/IS) at the rated current: one diode stands in for the whole string.
-      const law = p.spice as { is_A?: number; n?: number } | undefined;
+      const law = p.spice;
       const given = law?.is_A !== undefined && law.n !== undefined && law.is_A > 0 && law.n > 0;
       const i_A = p.stress.current_A ?? p.rating.current_A ?? p.value / supply_V;
       const is_A = given ? law.is_A! : LED_STRING_IS_A;

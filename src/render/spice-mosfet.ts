@@ -4,6 +4,7 @@
  */
 import type { MosfetClass } from "../model/device.ts";
 import { card } from "./spice-card.ts";
+import { fit2 } from "./spice-fit.ts";
 import { spiceModelName } from "./spice-num.ts";
 
 /**
@@ -39,19 +40,32 @@ export function vtoMid_V(dev: MosfetClass): number {
 }
 
 /** "min" is the worst-case card (R_DS(on) maximum); "typ" takes R_DS(on) ≈ max/1.3 (from memory). */
+/**
+ * Ohmic part (RD + RS) and channel factor 1/KP so that R_DS(on) = R_fix + 1/(KP·(V_GS − VTO)) (the
+ * linear region of the level-1 law VDMOS uses) meets every specified maximum: a least-squares fit
+ * when the class gives two or more gate voltages, else 30 % ohmic / 70 % channel (from memory).
+ */
+export function rdsSplit(dev: MosfetClass, vto_V: number, scale: number): { rFix_ohm: number; invKp: number } {
+  const pts = dev.rds_on.filter((p) => p.vgs_V > vto_V);
+  if (pts.length === 0) throw new RangeError(`device ${dev.id}: no R_DS(on) point above the threshold ${vto_V} V`);
+  const rMin = Math.min(...pts.map((p) => p.max_ohm)) * scale;
+  if (pts.length >= 2) {
+    const rows = pts.map((p) => ({ a: 1, b: 1 / (p.vgs_V - vto_V), c: 0, y: p.max_ohm * scale, w: 1 / (p.max_ohm * scale) ** 2 }));
+    const [rFix_ohm, invKp] = fit2(rows, { lo: 0, hi: rMin }, { lo: 1e-9, hi: 1e9 });
+    return { rFix_ohm, invKp };
+  }
+  const p = pts[0]!;
+  return { rFix_ohm: 0.3 * p.max_ohm * scale, invKp: 0.7 * p.max_ohm * scale * (p.vgs_V - vto_V) };
+}
+
+/** "min" is the worst-case card (R_DS(on) maximum); "typ" takes R_DS(on) ≈ max/1.3 (from memory). */
 export function mosfetModel(dev: MosfetClass, corner: "min" | "typ"): string {
   const vto = vtoMid_V(dev);
-  // R_DS(on) at the highest V_GS the class specifies (the drive the engine sizes gates for).
-  const spec = [...dev.rds_on].sort((a, b) => b.vgs_V - a.vgs_V)[0];
-  if (!spec) throw new RangeError(`device ${dev.id}: no R_DS(on) point`);
-  if (!(spec.vgs_V > vto)) throw new RangeError(`device ${dev.id}: R_DS(on) is specified at V_GS ${spec.vgs_V} V, not above the threshold ${vto} V`);
-  const rds = corner === "min" ? spec.max_ohm : spec.max_ohm / 1.3;
-  // Split R_DS(on): 20 % drain, 10 % source, 70 % channel; linear region R_ch = 1/(KP·(V_GS − VTO))
-  // (the split is from memory; the sum is what the verifier measures).
-  const kp = 1 / (0.7 * rds * (spec.vgs_V - vto));
+  const { rFix_ohm, invKp } = rdsSplit(dev, vto, corner === "min" ? 1 : 1 / 1.3);
   const { cgs_F, cgd_F } = mosfetCaps(dev);
+  // The ohmic part splits 2 : 1 between drain and source (from memory; only the sum is measured).
   return card(spiceModelName(dev.id), "VDMOS", [
-    ["VTO", vto], ["KP", kp], ["RD", 0.2 * rds], ["RS", 0.1 * rds], ["CGS", cgs_F],
+    ["VTO", vto], ["KP", 1 / invKp], ["RD", (2 / 3) * rFix_ohm], ["RS", rFix_ohm / 3], ["CGS", cgs_F],
     ["CGDMAX", cgd_F], ["CGDMIN", cgd_F], ["BV", dev.vds_V], ["CJO", dev.ciss_F / 3],
   ]);
 }

@@ -1,31 +1,73 @@
 /**
  * Stage "load": the load's part with its equivalent model (src/engine/shared/loads.ts) and the
- * on-state predictions at rated load: I = (V_cc − V_sw − V_f)/R, V_load = V_cc − V_sw.
+ * on-state predictions at rated load and nominal supply, kind by kind (load-point.ts):
+ *   heater, lamp: I = (V_cc − V_sw)/R;
+ *   LED strip:    R·I + N·V_T·ln(1 + I/IS) = V_cc − V_sw, the string's diode law given to the
+ *                 netlist in spice.is_A / spice.n (one source of truth);
+ *   motor:        constant-torque load at its rated current; the back-EMF E at the duty of
+ *                 control 1 (spice.vf_V) follows from the average winding balance.
+ * A load the switch's drop starves (below STARVED_FRACTION of rated) is an error.
  */
+import type { DiodeClass } from "../../model/device.ts";
 import type { Figure } from "../../model/figure.ts";
-import type { Part } from "../../model/circuit.ts";
+import type { Part, PartSpice } from "../../model/circuit.ts";
 import type { PartKind } from "../../model/kinds.ts";
-import { figure } from "../shared/figures.ts";
+import type { DesignProblem } from "../../model/problem.ts";
+import { figure, problem } from "../shared/figures.ts";
 import { SRC } from "../shared/sources.ts";
 import { type Ctx, loadCurrentOn_A } from "./context.ts";
+import { diodeVf_V } from "./core-model.ts";
+import { STARVED_FRACTION, ledCurrent_A, ledLaw, motorEmf_V } from "./load-point.ts";
 
 const KIND: Record<string, PartKind> = { motor: "motor", lamp: "lamp", resistive: "heater", led: "led-strip" };
+const pct = (x: number): string => `${(x * 100).toFixed(0)} %`;
 
-export function loadStage(ctx: Ctx, vSwNom_V: number): { part: Part; figures: Figure[]; iOn_A: number } {
-  const iOn_A = loadCurrentOn_A(ctx, ctx.vNom_V, vSwNom_V);
+/** `dutyOn` is the nominal duty at control 1 (the point the simulation measures on-state values at). */
+export function loadStage(ctx: Ctx, vSwNom_V: number, dutyOn: number): { part: Part; figures: Figure[]; problems: DesignProblem[]; iOn_A: number } {
+  const kind = ctx.spec.load_kind;
+  const vLoad_V = ctx.vNom_V - vSwNom_V;
+  let spice: PartSpice = { r_ohm: ctx.load.r_ohm, l_H: ctx.load.l_H, vf_V: ctx.load.vf_V };
+  let iOn_A = loadCurrentOn_A(ctx, ctx.vNom_V, vSwNom_V);
+  let formula = "I = (V_cc − V_sw)/R_load";
+  let share = iOn_A / ctx.iNom_A;
+  let what = `draws ${iOn_A.toPrecision(3)} A of its rated ${ctx.iNom_A} A`;
+  let emfNote = "";
+  if (kind === "led") {
+    // Fitted at the current the netlist fitted it at before (the worst-case current, iMax).
+    const law = ledLaw(ctx.load.vf_V, ctx.iMax_A);
+    spice = { ...spice, is_A: law.is_A, n: law.n };
+    iOn_A = ledCurrent_A(vLoad_V, ctx.load.r_ohm, law);
+    share = iOn_A / ctx.iNom_A;
+    what = `draws ${iOn_A.toPrecision(3)} A of its rated ${ctx.iNom_A} A`;
+    formula = "R·I + N·V_T·ln(1 + I/IS) = V_cc − V_sw (string diode law, V_T at 27 °C)";
+  } else if (kind === "motor") {
+    const fw = ctx.spec.devices.freewheel_diode as DiodeClass | undefined;
+    const vf = fw === undefined ? 0 : Math.max(0, diodeVf_V(fw, ctx.iNom_A, 27));
+    const emf = motorEmf_V(ctx.vNom_V, vSwNom_V, dutyOn, vf, ctx.iNom_A, ctx.load.r_ohm);
+    iOn_A = ctx.iNom_A;
+    spice = { ...spice, vf_V: Math.max(0, emf) };
+    formula = "I = I_rated (constant torque); E = D·(V_cc − V_sw) − (1 − D)·V_F,fw − I·R at control 1";
+    share = emf > 0 ? vLoad_V / ctx.vNom_V : 0;
+    what = emf > 0 ? `gets ${vLoad_V.toPrecision(3)} V of the ${ctx.vNom_V} V supply when on` : `cannot draw its rated ${ctx.iNom_A} A even at the highest duty (back-EMF would be ${emf.toPrecision(3)} V)`;
+    emfNote = ` E = ${Math.max(0, emf).toPrecision(3)} V at D = ${pct(dutyOn)}.`;
+  }
+  const problems: DesignProblem[] = [];
+  if (share < STARVED_FRACTION) problems.push(problem("load", "/parts/LOAD", "load-starved", "error",
+    `The switch drops ${vSwNom_V.toFixed(2)} V when on, so the ${kind === "led" ? "LED strip" : kind === "resistive" ? "heater" : kind} ${what} (below ${pct(STARVED_FRACTION)}): choose a chain with a lower on-voltage (a MOSFET chain, or fewer Darlington stages).`,
+    { limit: STARVED_FRACTION, actual: share, unit: "" }));
   const pins = ctx.highSide ? { a: "ls", b: "0" } : { a: "vbus", b: "ls" };
   const part: Part = {
-    ref: "", kind: KIND[ctx.spec.load_kind]!, stage: "load", role: "LOAD", value: ctx.vNom_V * ctx.iNom_A, unit: "W",
-    description: `${ctx.spec.load_kind} load, ${ctx.vNom_V} V ${ctx.iNom_A} A rated — ${ctx.load.note}`,
+    ref: "", kind: KIND[kind]!, stage: "load", role: "LOAD", value: ctx.vNom_V * ctx.iNom_A, unit: "W",
+    description: `${kind} load, ${ctx.vNom_V} V ${ctx.iNom_A} A rated — ${ctx.load.note}${emfNote}`,
     rating: { voltage_V: ctx.vNom_V, current_A: ctx.iNom_A }, stress: { voltage_V: ctx.vMax_V, current_A: ctx.iMax_A }, pins,
-    spice: { r_ohm: ctx.load.r_ohm, l_H: ctx.load.l_H, vf_V: ctx.load.vf_V },
+    spice,
   };
   return {
-    part, iOn_A,
+    part, iOn_A, problems,
     figures: [
       figure("switch_on_voltage", "Switch on-voltage (rated load, minimum gain)", vSwNom_V, "V", "chain", "V_CE(sat) at forced β 10; Darlington V_CE(sat),1 + Σ V_BE; MOSFET I·R_DS(on)", SRC.REGISTERED),
-      figure("load_current_on", "Load current when on (nominal supply)", iOn_A, "A", "load", "I = (V_cc − V_sw − V_f)/R_load", SRC.DERIVED),
-      figure("load_on_voltage", "Voltage across the load when on", ctx.vNom_V - vSwNom_V, "V", "load", "V_load = V_cc − V_sw", SRC.DERIVED),
+      figure("load_current_on", "Load current when on (nominal supply)", iOn_A, "A", "load", formula, SRC.DERIVED),
+      figure("load_on_voltage", "Voltage across the load when on", vLoad_V, "V", "load", "V_load = V_cc − V_sw", SRC.DERIVED),
     ],
   };
 }

@@ -30,9 +30,16 @@ export function rdsOn_ohm(dev: MosfetClass, vgs_V: number, hot: boolean): number
   return hot ? r * dev.rds_on_hot_factor : r;
 }
 
-/** Turn-on and turn-off transition times through source/sink resistances (see file comment). */
-export function gateTimes(dev: MosfetClass, rOn_ohm: number, vDrive_V: number, rOff_ohm: number): { tOn_s: number; tOff_s: number } {
-  const vp = plateau_V(dev);
+/**
+ * Plateau of a typical part, for nominal predictions: the middle of the threshold window (the
+ * datasheet's min–max spread is centred on the typical value; common practice).
+ */
+export function plateauTyp_V(dev: MosfetClass): number {
+  return (dev.vgs_th_V.min + dev.vgs_th_V.max) / 2;
+}
+
+/** Turn-on and turn-off transition times through source/sink resistances (see file comment); worst case at the V_th,max plateau unless `vp` is given. */
+export function gateTimes(dev: MosfetClass, rOn_ohm: number, vDrive_V: number, rOff_ohm: number, vp: number = plateau_V(dev)): { tOn_s: number; tOff_s: number } {
   const tOn = vDrive_V > vp ? (dev.qg_C * rOn_ohm) / (vDrive_V - vp) : dev.t_rise_s * 1e3;
   const tOff = (dev.qg_C * rOff_ohm) / vp;
   return { tOn_s: Math.max(dev.t_rise_s, tOn), tOff_s: Math.max(dev.t_fall_s, tOff) };

@@ -64,6 +64,8 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
   const vClamp = vbeOn(qd, ctx.taMin_C) + 0.15;
   const rOn = rG + rP / betaHi;
   const t = gateTimes(mos, rOn, vgsMin, rG);
+  // Nominal: gate rail at its nominal level less Q_HI's V_BE at 25 °C, typical plateau.
+  const tNom = gateTimes(mos, rOn, railNom - vbeHi, rG, plateauTyp_V(mos));
   const rds = rdsOn_ohm(mos, vgsMin, true);
   const problems = [];
   if (vgsMin < vNeed) problems.push(problem("chain", "/parts/Q_POWER", "gate-drive-low", "warning", `The gate reaches only ${vgsMin.toFixed(2)} V at minimum supply, below the ${vNeed} V at which R_DS(on) is specified; R_DS(on) is estimated higher (${rds.toPrecision(3)} Ω hot).`, { limit: vNeed, actual: vgsMin, unit: "V" }));
@@ -119,7 +121,7 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
         checks: [...out.flatMap((o) => o.checks), ...checks],
         losses: [
           { role: "Q_DRV", dev: qd, family: "bjt", pCond_W: pDrv, pSw_W: 0, p_W: pDrv, isPower: false },
-          { role: "Q_POWER", dev: mos, family: "mosfet", pCond_W: pCond, pSw_W: pSw, p_W: pCond + pSw, isPower: true },
+          { role: "Q_POWER", dev: mos, family: "mosfet", pCond_W: pCond, pSw_W: pSw, p_W: pCond + pSw, isPower: true, tNom_s: { on: tNom.tOn_s, off: tNom.tOff_s } },
         ],
         figures: [
           driveMargin("driver", "NPN driver", tap.iMin_A, iCD / betaD),

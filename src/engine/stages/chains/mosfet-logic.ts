@@ -43,6 +43,8 @@ export function planMosfetLogic(ctx: Ctx): ChainPlan {
       const rSrc = ((tap.rC_ohm + tap.rTap_ohm) * (tap.rGS_ohm ?? 1e9)) / (tap.rC_ohm + tap.rTap_ohm + (tap.rGS_ohm ?? 1e9));
       const rOff = (tap.rTap_ohm * (tap.rGS_ohm ?? 1e9)) / (tap.rTap_ohm + (tap.rGS_ohm ?? 1e9));
       const t = gateTimes(dev, rSrc, vgMin, rOff);
+      // Nominal: the middle of the gate range reached, typical plateau (derived; for the nominal prediction).
+      const tNom = gateTimes(dev, rSrc, (vgMin + vgMax) / 2, rOff, plateauTyp_V(dev));
       const r = rdsOn_ohm(dev, vgMin, true);
       const pCond = conductionLossMosfet_W(ctx.iMax_A, r, op.dutyMax);
       const pSw = switchingLoss_W(ctx.vMax_V, ctx.iMax_A, t.tOn_s, t.tOff_s, op.fMax_Hz, ctx.switching);
@@ -51,7 +53,7 @@ export function planMosfetLogic(ctx: Ctx): ChainPlan {
       return {
         parts: [], problems,
         checks: [checkStress("Q_POWER", "vgs", vgMax, dev.vgs_max_V, "V", pol.mosfet.vgs, pol.marginal_above)],
-        losses: [{ role: "Q_POWER", dev, family: "mosfet", pCond_W: pCond, pSw_W: pSw, p_W: pCond + pSw, isPower: true }],
+        losses: [{ role: "Q_POWER", dev, family: "mosfet", pCond_W: pCond, pSw_W: pSw, p_W: pCond + pSw, isPower: true, tNom_s: { on: tNom.tOn_s, off: tNom.tOff_s } }],
         figures: [
           figure("gate_voltage_min", "Gate voltage, worst case low", vgMin, "V", "chain", "V_GS = V_C,high · R_GS/(R_G + R_GS), min supply, tolerances", SRC.DERIVED, [vgMin, vgMax]),
           figure("switch_t_on", "Switch turn-on transition", t.tOn_s, "s", "chain", "t_on = Q_G·R_src/(V_GS − V_plateau)", SRC.COMMON),

@@ -13,6 +13,11 @@ export interface DeviceLoss {
   family: "bjt" | "mosfet";
   pCond_W: number;
   pSw_W: number;
+  /**
+   * Nominal transition times (nominal drive, 25 °C, typical threshold) for the nominal dissipation
+   * prediction; absent: the worst-case times stand (BJT datasheet times are typical already).
+   */
+  tNom_s?: { on: number; off: number };
   /** Total average dissipation, W. */
   p_W: number;
   /** The device that switches the load (the one a heatsink verdict is about). */
