@@ -10,6 +10,8 @@ import type { StressCheck } from "../model/derating.ts";
 import type { SizedVariant } from "../model/sized.ts";
 import type { VariantSpec } from "../model/variant.ts";
 import type { BjtClass } from "../model/device.ts";
+import type { DeviceLoss } from "./stages/chains/types.ts";
+import { switchingLoss_W } from "./shared/losses.ts";
 import { assembleCircuit, refsByRole } from "../circuit/assemble.ts";
 import { figure, problem } from "./shared/figures.ts";
 import { SRC } from "./shared/sources.ts";
@@ -73,7 +75,7 @@ function sizeInner(spec: VariantSpec): SizedVariant {
   const figures: Figure[] = dedupe([
     ...timing.figures, ...plan.figures, ...fin.figures, ...load.figures, ...thermal.figures, ...prot.figures,
     ...(pNominal === undefined ? [] : [figure("device_dissipation_nominal", "Power device dissipation (nominal: rated load, D_max, 25 °C)", pNominal, "W", "thermal",
-      "P = I_on·V_sw,nom·D_max,nom + P_sw,worst·(V_nom·I_on·f_nom)/(V_max·I_max·f_max)", SRC.DERIVED)]),
+      "P = I_on·V_sw,nom·D_max,nom (MOSFET I_on²·R_DS(on),nom·D) + k·V_nom·I_on·(t_on,nom + t_off,nom)·f_nom", SRC.DERIVED)]),
     figure("efficiency", "Switch efficiency (worst case)", efficiency, "", "chain", "η = 1 − ΣP_chain / (V_cc,max · I_max · D_max)", SRC.DERIVED),
   ]);
   const reason = blockingReason(ctx, problems);
@@ -87,17 +89,24 @@ function sizeInner(spec: VariantSpec): SizedVariant {
 
 /**
  * The power device's average dissipation at the conditions a nominal simulation runs at (nominal
- * supply, rated load current, nominal duty at control 1, the minimum-gain on-voltage): conduction
- * I_on·V_sw·D plus the worst-case switching loss scaled by V·I·f (switching loss is linear in each,
- * Rashid Ex. 4.2 / Mohan Eq. 2-6), so predicted and simulated are like for like (SIM_FIGURES).
+ * supply, rated load, nominal duty at control 1, 25 °C), so predicted and simulated are like for
+ * like (SIM_FIGURES):
+ *  - conduction at the nominal on-voltage: BJT I_on·V_sw,nom·D, MOSFET I_on²·R_DS(on),nom·D
+ *    (R_DS(on),nom = V_sw,nom/I_rated: the 25 °C datasheet value at the gate voltage reached);
+ *  - switching from the NOMINAL transition times when the chain gives them (MOSFET chains: nominal
+ *    gate drive, typical plateau) with the same ramp law as the worst case (Rashid Ex. 4.2 /
+ *    Mohan Eq. 2-6) at V_nom, I_on, f_nom; else the worst-case loss scaled by V·I·f (linear in each).
  */
-function nominalDissipation(ctx: ReturnType<typeof makeContext>, timingFigures: Figure[], losses: { isPower: boolean; pSw_W: number }[], iOn_A: number, vSwNom_V: number, fMax_Hz: number): number | undefined {
+function nominalDissipation(ctx: ReturnType<typeof makeContext>, timingFigures: Figure[], losses: DeviceLoss[], iOn_A: number, vSwNom_V: number, fMax_Hz: number): number | undefined {
   const dMax = timingFigures.find((f) => f.key === "duty_max")?.value;
   const fNom = timingFigures.find((f) => f.key === "frequency_nominal")?.value;
   const power = losses.find((l) => l.isPower);
   if (dMax === undefined || fNom === undefined || power === undefined || !(ctx.iMax_A > 0) || !(fMax_Hz > 0)) return undefined;
-  const scale = (ctx.vNom_V * iOn_A * fNom) / (ctx.vMax_V * ctx.iMax_A * fMax_Hz);
-  return iOn_A * vSwNom_V * dMax + power.pSw_W * scale;
+  const pCond = power.family === "mosfet" ? (iOn_A * iOn_A * (vSwNom_V / ctx.iNom_A)) * dMax : iOn_A * vSwNom_V * dMax;
+  const pSw = power.tNom_s !== undefined
+    ? switchingLoss_W(ctx.vNom_V, iOn_A, power.tNom_s.on, power.tNom_s.off, fNom, ctx.switching)
+    : power.pSw_W * (ctx.vNom_V * iOn_A * fNom) / (ctx.vMax_V * ctx.iMax_A * fMax_Hz);
+  return pCond + pSw;
 }
 
 /** Keep the first figure of each key (stages never mean to produce two; this guards the contract). */

@@ -4,7 +4,7 @@
  */
 import { PIN_NAMES, type Part } from "../model/circuit.ts";
 import { checkNet, checkRef } from "./netlist-text.ts";
-import { spiceModelName, spiceNum, VT_27C_V } from "./spice-num.ts";
+import { spiceModelName, spiceNum, timingModelName, VT_27C_V } from "./spice-num.ts";
 
 /** Fuse stand-in when the part gives no resistance: a few tens of mΩ (common practice, from memory). */
 export const FUSE_R_DEFAULT_OHM = 0.02;
@@ -25,10 +25,15 @@ function pins(p: Part): string[] {
   });
 }
 
+/** Timing-core transistors use their class's typical-junction card (spice-models.ts timingModelName). */
+export function isTimingTransistor(p: Part): boolean {
+  return p.stage === "timing" && (p.kind === "npn" || p.kind === "pnp");
+}
+
 function modelOf(p: Part): string {
   const id = p.spice?.model ?? p.device;
   if (!id) throw new RangeError(`netlist: part ${p.ref} (${p.kind}) names no device class for its .model`);
-  return spiceModelName(id);
+  return isTimingTransistor(p) ? timingModelName(id) : spiceModelName(id);
 }
 
 function loadR(p: Part): number {

@@ -7,7 +7,7 @@
 import type { CircuitModel, Part } from "../model/circuit.ts";
 import type { DeviceLibrary } from "../model/device.ts";
 import { STAGE_KINDS } from "../model/kinds.ts";
-import { elementLines } from "./netlist-parts.ts";
+import { elementLines, isTimingTransistor } from "./netlist-parts.ts";
 import { checkNet, commentLines } from "./netlist-text.ts";
 import { spiceModel } from "./spice-models.ts";
 import { spiceNum } from "./spice-num.ts";
@@ -29,17 +29,24 @@ export const TRAN_PERIODS = 12;
 export const STEPS_PER_PERIOD = 400;
 
 function modelCards(circuit: CircuitModel, meta: NetlistMeta): string[] {
-  // Gain is read at the largest operating current any part of the class carries (the lowest gain).
-  const ic = new Map<string, number>();
+  // Gain is read at the largest operating current any part of the class carries (the lowest gain);
+  // timing-core transistors get their own card (typical junction), keyed apart.
+  const ic = new Map<string, { id: string; timing: boolean; i: number }>();
   for (const p of circuit.parts) {
     const id = p.spice?.model ?? p.device;
-    if (id && p.kind !== "led-strip") ic.set(id, Math.max(ic.get(id) ?? 0, p.stress.current_A ?? 0));
+    if (!id || p.kind === "led-strip") continue;
+    const timing = isTimingTransistor(p);
+    const key = `${id}${timing ? "#timing" : ""}`;
+    const e = ic.get(key) ?? { id, timing, i: 0 };
+    e.i = Math.max(e.i, p.stress.current_A ?? 0);
+    ic.set(key, e);
   }
-  return [...ic.keys()].sort().map((id) => {
+  return [...ic.keys()].sort().map((key) => {
+    const { id, timing, i } = ic.get(key)!;
     const dev = meta.devices?.get(id);
     if (!dev) throw new RangeError(`netlist ${meta.id}: device class "${id}" is not in the device library`);
-    const i = ic.get(id)!;
-    return spiceModel(dev, i > 0 ? { gain: meta.gain ?? "min", ic_A: i } : { gain: meta.gain ?? "min" });
+    const base = { gain: meta.gain ?? "min", ...(timing ? { junction: "typical" as const } : {}) };
+    return spiceModel(dev, i > 0 ? { ...base, ic_A: i } : base);
   });
 }
 

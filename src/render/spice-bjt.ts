@@ -31,7 +31,13 @@ export function isTypical_A(dev: BjtClass): number {
   return dev.ic_max_A / 10 / Math.exp(dev.vbe_on_V / VT_27C_V);
 }
 
-export function fitBjt(dev: BjtClass, bf: number): BjtFit {
+/**
+ * `junction: "typical"` keeps the intrinsic V_BE at the class's typical V_BE(on) and no base
+ * resistance: the card for the timing-core transistors, whose switching instant depends on V_BE at
+ * microamperes to milliamperes, where an offset fitted to V_BE(sat) at the top of the range would
+ * move every threshold (docs/spice-models.md). V_CE(sat) is fitted either way.
+ */
+export function fitBjt(dev: BjtClass, bf: number, junction: "worst" | "typical" = "worst"): BjtFit {
   const isTyp = isTypical_A(dev);
   const p: GpParams = { is_A: isTyp, bf, br: 1, nf: 1, nr: 1, vaf_V: BJT_VAF_V, ikf_A: Infinity, rb_ohm: 0, rc_ohm: 0, re_ohm: 0 };
   const usable = dev.vce_sat.filter((s) => satPoint(p, s.ic_A, s.ib_A) !== null);
@@ -45,7 +51,8 @@ export function fitBjt(dev: BjtClass, bf: number): BjtFit {
     if (vbeRows.length > 0) {
       // One point cannot separate junction from base resistance: put it all in the junction, so
       // V_BE holds (the engine does not grow V_BE(sat) beyond a single point either).
-      const [delta, rb] = fit2(vbeRows, DELTA_VBE, vbeRows.length === 1 ? { lo: 0, hi: 0 } : RB_OHM);
+      const fixed = { lo: 0, hi: 0 };
+      const [delta, rb] = junction === "typical" ? [0, 0] : fit2(vbeRows, DELTA_VBE, vbeRows.length === 1 ? fixed : RB_OHM);
       p.is_A = isTyp * Math.exp(-delta / VT_27C_V);
       p.rb_ohm = rb;
     }

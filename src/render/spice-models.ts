@@ -9,14 +9,17 @@ import { BJT_VAF_V, fitBjt } from "./spice-bjt.ts";
 import { card } from "./spice-card.ts";
 import { diodeModel, zenerModel } from "./spice-diode.ts";
 import { mosfetModel } from "./spice-mosfet.ts";
-import { spiceModelName, VT_27C_V } from "./spice-num.ts";
+import { spiceModelName, timingModelName, VT_27C_V } from "./spice-num.ts";
 
 export interface SpiceModelOptions {
   /** "min": worst-case gain, saturation voltages, R_DS(on) (verification); "typ": typical gain/R_DS(on). */
   gain: "min" | "typ";
   /** Collector/drain operating current the gain is read at (default: the first gain point). */
   ic_A?: number;
+  /** BJTs: "typical" junction for timing-core transistors (spice-bjt.ts fitBjt); default "worst". */
+  junction?: "worst" | "typical";
 }
+
 
 /** Gain at `ic_A`, log-log interpolation between datasheet points, clamped at the ends. */
 export function gainAt(dev: BjtClass, ic_A: number, which: "min" | "typ"): number {
@@ -37,7 +40,7 @@ export function gainAt(dev: BjtClass, ic_A: number, which: "min" | "typ"): numbe
 
 function bjtModel(dev: BjtClass, opts: SpiceModelOptions): string {
   const bf = gainAt(dev, opts.ic_A ?? dev.hfe[0]?.ic_A ?? dev.ic_max_A / 10, opts.gain);
-  const { params: p } = fitBjt(dev, bf);
+  const { params: p } = fitBjt(dev, bf, opts.junction ?? "worst");
   const iRef_A = dev.ic_max_A / 10;
   const cjc = dev.cob_F ?? 0;
   const cje = 2 * cjc; // C_ib ≈ 2–4 × C_ob for small discretes (from memory): take the low end
@@ -46,7 +49,7 @@ function bjtModel(dev: BjtClass, opts: SpiceModelOptions): string {
   const tf = Math.max(0.1 * tauT_s, tauT_s - ((cje + cjc) * VT_27C_V) / iRef_A);
   // Storage time with I_B2 = I_B1 and I_C/β ≪ I_B1: t_s ≈ τ_s·ln2, τ_s ≈ TR (from memory).
   const tr = dev.t_storage_s / Math.LN2;
-  return card(spiceModelName(dev.id), dev.family === "npn" ? "NPN" : "PNP", [
+  return card(opts.junction === "typical" ? timingModelName(dev.id) : spiceModelName(dev.id), dev.family === "npn" ? "NPN" : "PNP", [
     ["IS", p.is_A], ["BF", p.bf], ["BR", p.br], ["NR", p.nr], ["VAF", BJT_VAF_V], ["RB", p.rb_ohm], ["RC", p.rc_ohm],
     ["CJE", cje], ["CJC", cjc], ["TF", tf], ["TR", tr],
   ]);

@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { PIN_NAMES } from "../../src/model/circuit.ts";
 import { renderNetlist, setCtrl } from "../../src/render/netlist.ts";
+import { isTimingTransistor } from "../../src/render/netlist-parts.ts";
 import { CIRCUIT_FIXTURES } from "../fixtures/circuits/index.ts";
 import { FIXTURE_DEVICES } from "../fixtures/circuits/devices.ts";
 import { classify, elements } from "./netlist-read.ts";
@@ -61,8 +62,8 @@ describe.each(CIRCUIT_FIXTURES)("netlist of the $name fixture", (f) => {
     expect([...els.keys()].filter((n) => !expected.has(n))).toEqual([]);
   });
 
-  it("emits one .model card per device class used", () => {
-    const used = new Set(f.circuit.parts.map((p) => p.spice?.model).filter(Boolean));
+  it("emits one .model card per device class used, plus a typical-junction card for the timing transistors' class", () => {
+    const used = new Set(f.circuit.parts.map((p) => (p.spice?.model ? `${p.spice.model}${isTimingTransistor(p) ? "#timing" : ""}` : undefined)).filter(Boolean));
     const cards = text.split("\n").filter((l) => l.startsWith(".model ") && !l.startsWith(".model LEDSTR_"));
     expect(cards.length).toBe(used.size);
   });

@@ -17,7 +17,7 @@ import { resistor, transistor, zener } from "../../../circuit/parts.ts";
 import { type Ctx, OVERDRIVE_K } from "../context.ts";
 import { driveMargin, switchChecks, switchOffVoltage_V, vbeCold } from "./common.ts";
 import { WEAK_TURNOFF_FACTOR } from "./bjt-single.ts";
-import { gateTimes, plateau_V, rdsOn_ohm, specVgs_V } from "./mosfet-common.ts";
+import { gateTimes, plateauTyp_V, plateau_V, rdsOn_ohm, specVgs_V } from "./mosfet-common.ts";
 import type { ChainPlan } from "./types.ts";
 
 /** Smallest zener current that keeps the zener on its knee (common practice, ≈ 5 mA for 0.5 W parts). */

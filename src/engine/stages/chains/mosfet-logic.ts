@@ -11,7 +11,7 @@ import { SRC } from "../../shared/sources.ts";
 import { transistor } from "../../../circuit/parts.ts";
 import type { Ctx } from "../context.ts";
 import { switchChecks, switchOffVoltage_V } from "./common.ts";
-import { gateTimes, plateau_V, rdsOn_ohm, specVgs_V } from "./mosfet-common.ts";
+import { gateTimes, plateauTyp_V, plateau_V, rdsOn_ohm, specVgs_V } from "./mosfet-common.ts";
 import type { ChainPlan } from "./types.ts";
 
 export function planMosfetLogic(ctx: Ctx): ChainPlan {

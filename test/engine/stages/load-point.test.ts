@@ -1,0 +1,86 @@
+/**
+ * The load at its on-state operating point (src/engine/stages/load-point.ts, load.ts): LED string
+ * diode law, motor back-EMF at constant torque, the starved-load rule, and the nominal switching
+ * loss from nominal transition times. Hand arithmetic beside each check.
+ */
+import { describe, expect, it } from "vitest";
+import { sizeVariant } from "../../../src/engine/index.ts";
+import { LED_STRING_IS_A, STARVED_FRACTION, VT_27C_V, ledCurrent_A, ledLaw, motorEmf_V } from "../../../src/engine/stages/load-point.ts";
+import { switchingLoss_W } from "../../../src/engine/shared/losses.ts";
+import { expectClose } from "../../helpers/close.ts";
+import { NPN_HIGH_GAIN, type SpecOpts, makeSpec } from "../fixtures.ts";
+
+const size = (o: SpecOpts) => sizeVariant(makeSpec({ override: { timing_npn: NPN_HIGH_GAIN }, ...o }));
+const fig = (s: ReturnType<typeof size>, k: string): number => s.figures.find((f) => f.key === k)!.value;
+
+describe("LED string diode law (Shockley, one diode for the string)", () => {
+  it("V_T at 27 °C = k·T/q = 25.865 mV (CODATA 2018 exact k and q)", () => {
+    expectClose(VT_27C_V, 0.025865, 1e-4, "kT/q at 300.15 K");
+  });
+  it("the fitted law gives the string's drop back at the fitting current", () => {
+    const law = ledLaw(9, 1.1);
+    expect(law.is_A).toBe(LED_STRING_IS_A);
+    expectClose(law.n * VT_27C_V * Math.log1p(1.1 / law.is_A), 9, 1e-12);
+  });
+  it("current solves R·I + N·V_T·ln(1 + I/IS) = V (hand: 12 V strip, 1 A, R = 3 Ω, fitted at 1.1 A)", () => {
+    // N·V_T = 9/ln(1.1e12) = 9/27.726 = 0.32461 V. At 0.9775 A: 2.9325 + 0.32461·ln(9.775e11)
+    // = 2.9325 + 0.32461·27.608 = 2.9325 + 8.962 = 11.894 V ≈ 12 − 0.1 → I ≈ 0.98 A (a 0.1 V drop
+    // costs ≈ 2 %, less than the 3.3 % a constant-V_F model gives: the string's drop falls too).
+    const law = ledLaw(9, 1.1);
+    const i = ledCurrent_A(11.9, 3, law);
+    expectClose(3 * i + law.n * VT_27C_V * Math.log1p(i / law.is_A), 11.9, 1e-12, "residual");
+    expectClose(i, 0.9775, 3e-3, "hand arithmetic above");
+    expect(i).toBeGreaterThan((11.9 - 9) / 3);
+  });
+  it("no supply → no current; never NaN", () => {
+    expect(ledCurrent_A(0, 3, ledLaw(9, 1))).toBe(0);
+    expect(Number.isFinite(ledCurrent_A(0.5, 3, ledLaw(9, 1)))).toBe(true);
+  });
+});
+
+describe("motor as a constant-torque load (average winding balance)", () => {
+  it("E = D·(V − V_sw) − (1 − D)·V_F − I·R: 12 V, 1 A, R = 3 Ω, D = 0.85, V_sw 0.2 V, V_F 0.5 V → 6.955 V", () => {
+    // 0.85·11.8 = 10.03; 0.15·0.5 = 0.075; 10.03 − 0.075 − 3 = 6.955 (Mohan et al. 3rd ed. ch. 7, from memory)
+    expectClose(motorEmf_V(12, 0.2, 0.85, 0.5, 1, 3), 6.955, 1e-12);
+  });
+  it("a 24 V 2 A motor on a MOSFET: rated current predicted, the back-EMF goes to the netlist", () => {
+    const s = size({ supply_V: 24, load_A: 2, chain: "mosfet-driver", load_kind: "motor", pwm_Hz: 1000 });
+    expect(fig(s, "load_current_on")).toBe(2);
+    const e = s.circuit!.parts.find((p) => p.role === "LOAD")!.spice!.vf_V!;
+    expect(e).toBeGreaterThan(0);
+    expect(e).toBeLessThan(24 - 2 * 3); // below the full-voltage back-EMF: the duty is < 1
+  });
+});
+
+describe(`starved load: on-state current (motor: load voltage) below ${STARVED_FRACTION * 100} % of rated is an error`, () => {
+  it("a 3-stage Darlington (≈ 2.5–3 V drop) on a 12 V LED strip starves it and says why", () => {
+    const s = size({ supply_V: 12, load_A: 1, chain: "darlington-3", load_kind: "led" });
+    const p = s.problems.find((x) => x.rule === "load-starved");
+    expect(p?.severity).toBe("error");
+    expect(p?.message).toMatch(/switch drops \d\.\d\d V .*lower on-voltage/);
+    expect(s.feasible).toBe(false);
+  });
+  it("a logic MOSFET on the same strip does not", () => {
+    const s = size({ supply_V: 12, load_A: 1, chain: "mosfet-logic", load_kind: "led" });
+    expect(s.problems.some((x) => x.rule === "load-starved")).toBe(false);
+    expect(fig(s, "load_current_on") / 1).toBeGreaterThan(STARVED_FRACTION);
+  });
+});
+
+describe("nominal device dissipation uses nominal transition times (MOSFET chains)", () => {
+  it("12 V 1 A mosfet-logic LED strip: conduction + ⅙·V·I·(t_on,nom + t_off,nom)·f (Rashid 4th ed. Ex. 4.2)", () => {
+    const s = size({ supply_V: 12, load_A: 1, chain: "mosfet-logic", load_kind: "led" });
+    const iOn = fig(s, "load_current_on"), d = fig(s, "duty_max"), f = fig(s, "frequency_nominal");
+    const pCond = iOn * iOn * (fig(s, "switch_on_voltage") / 1) * d;
+    const pNom = fig(s, "device_dissipation_nominal");
+    const pSwNom = pNom - pCond;
+    expect(pSwNom).toBeGreaterThan(0);
+    // nominal transitions are faster than the worst case (higher gate drive, typical plateau),
+    // so the nominal switching loss is below the worst-case one scaled to V_nom·I_on·f_nom.
+    const pSwWorstScaled = fig(s, "switching_loss") * (12 * iOn * f) / (13.2 * fig(s, "load_current_max") * s.figures.find((x) => x.key === "frequency_nominal")!.range![1]);
+    expect(pSwNom).toBeLessThan(pSwWorstScaled);
+    // ... but not below the class's datasheet transition floor t_r + t_f (gateTimes never goes faster).
+    const dev = s.spec.devices.mosfet_logic as { t_rise_s: number; t_fall_s: number };
+    expect(pSwNom).toBeGreaterThanOrEqual(switchingLoss_W(12, iOn, dev.t_rise_s, dev.t_fall_s, f, "resistive") * (1 - 1e-9));
+  });
+});
