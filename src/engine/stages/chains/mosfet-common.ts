@@ -38,6 +38,29 @@ export function plateauTyp_V(dev: MosfetClass): number {
   return (dev.vgs_th_V.min + dev.vgs_th_V.max) / 2;
 }
 
+/**
+ * Drain voltage of the datasheet gate-charge test as a share of V_DS(max): data sheets state Q_G at
+ * 0.5–0.8·V_DSS (common practice, from memory; the netlist's MOSFET card assumes the same 0.5).
+ */
+export const QG_TEST_VDS_SHARE = 0.5;
+
+/**
+ * Nominal V·I-overlap transitions: only the plateau (Miller) charge moves while the drain swings,
+ * Q_pl = (Q_G − C_iss·V_GS,test)·V_swing/V_DS,test (the gate-charge curve read piecewise: C_iss below
+ * and above the plateau, Q_GD ∝ the drain swing; common practice for gate-charge loss estimates),
+ * through the drive resistance at the typical plateau: t_on = Q_pl·R_on/(V_drive − V_p),
+ * t_off = Q_pl·R_off/V_p; never faster than the datasheet t_r, t_f. Falls back to Q_G when the
+ * class's data give no plateau charge.
+ */
+export function gateTimesNominal(dev: MosfetClass, rOn_ohm: number, vDrive_V: number, rOff_ohm: number, vSwing_V: number): { tOn_s: number; tOff_s: number } {
+  const vp = plateauTyp_V(dev);
+  const miller = dev.qg_C - dev.ciss_F * dev.qg_at_vgs_V;
+  const q = miller > 0 ? miller * Math.min(1, vSwing_V / (QG_TEST_VDS_SHARE * dev.vds_V)) : dev.qg_C;
+  const tOn = vDrive_V > vp ? (q * rOn_ohm) / (vDrive_V - vp) : dev.t_rise_s * 1e3;
+  const tOff = (q * rOff_ohm) / vp;
+  return { tOn_s: Math.max(dev.t_rise_s, tOn), tOff_s: Math.max(dev.t_fall_s, tOff) };
+}
+
 /** Turn-on and turn-off transition times through source/sink resistances (see file comment); worst case at the V_th,max plateau unless `vp` is given. */
 export function gateTimes(dev: MosfetClass, rOn_ohm: number, vDrive_V: number, rOff_ohm: number, vp: number = plateau_V(dev)): { tOn_s: number; tOff_s: number } {
   const tOn = vDrive_V > vp ? (dev.qg_C * rOn_ohm) / (vDrive_V - vp) : dev.t_rise_s * 1e3;

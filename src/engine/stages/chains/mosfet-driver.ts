@@ -17,7 +17,7 @@ import { resistor, transistor, zener } from "../../../circuit/parts.ts";
 import { type Ctx, OVERDRIVE_K } from "../context.ts";
 import { driveMargin, switchChecks, switchOffVoltage_V, vbeCold } from "./common.ts";
 import { WEAK_TURNOFF_FACTOR } from "./bjt-single.ts";
-import { gateTimes, plateauTyp_V, plateau_V, rdsOn_ohm, specVgs_V } from "./mosfet-common.ts";
+import { gateTimes, gateTimesNominal, plateau_V, rdsOn_ohm, specVgs_V } from "./mosfet-common.ts";
 import type { ChainPlan } from "./types.ts";
 
 /** Smallest zener current that keeps the zener on its knee (common practice, ≈ 5 mA for 0.5 W parts). */
@@ -65,7 +65,7 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
   const rOn = rG + rP / betaHi;
   const t = gateTimes(mos, rOn, vgsMin, rG);
   // Nominal: gate rail at its nominal level less Q_HI's V_BE at 25 °C, typical plateau.
-  const tNom = gateTimes(mos, rOn, railNom - vbeHi, rG, plateauTyp_V(mos));
+  const tNom = gateTimesNominal(mos, rOn, railNom - vbeHi, rG, ctx.vNom_V);
   const rds = rdsOn_ohm(mos, vgsMin, true);
   const problems = [];
   if (vgsMin < vNeed) problems.push(problem("chain", "/parts/Q_POWER", "gate-drive-low", "warning", `The gate reaches only ${vgsMin.toFixed(2)} V at minimum supply, below the ${vNeed} V at which R_DS(on) is specified; R_DS(on) is estimated higher (${rds.toPrecision(3)} Ω hot).`, { limit: vNeed, actual: vgsMin, unit: "V" }));

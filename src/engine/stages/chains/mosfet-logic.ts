@@ -11,7 +11,7 @@ import { SRC } from "../../shared/sources.ts";
 import { transistor } from "../../../circuit/parts.ts";
 import type { Ctx } from "../context.ts";
 import { switchChecks, switchOffVoltage_V } from "./common.ts";
-import { gateTimes, plateauTyp_V, plateau_V, rdsOn_ohm, specVgs_V } from "./mosfet-common.ts";
+import { gateTimes, gateTimesNominal, plateau_V, rdsOn_ohm, specVgs_V } from "./mosfet-common.ts";
 import type { ChainPlan } from "./types.ts";
 
 export function planMosfetLogic(ctx: Ctx): ChainPlan {
@@ -44,7 +44,7 @@ export function planMosfetLogic(ctx: Ctx): ChainPlan {
       const rOff = (tap.rTap_ohm * (tap.rGS_ohm ?? 1e9)) / (tap.rTap_ohm + (tap.rGS_ohm ?? 1e9));
       const t = gateTimes(dev, rSrc, vgMin, rOff);
       // Nominal: the middle of the gate range reached, typical plateau (derived; for the nominal prediction).
-      const tNom = gateTimes(dev, rSrc, (vgMin + vgMax) / 2, rOff, plateauTyp_V(dev));
+      const tNom = gateTimesNominal(dev, rSrc, (vgMin + vgMax) / 2, rOff, ctx.vNom_V);
       const r = rdsOn_ohm(dev, vgMin, true);
       const pCond = conductionLossMosfet_W(ctx.iMax_A, r, op.dutyMax);
       const pSw = switchingLoss_W(ctx.vMax_V, ctx.iMax_A, t.tOn_s, t.tOff_s, op.fMax_Hz, ctx.switching);
