@@ -57,7 +57,7 @@ describe("expandDesign", () => {
 });
 
 describe("the demo catalogue, with the real device library and chooser", () => {
-  it("expands every demo design to its matrix, 342 variants, every id unique", async () => {
+  it("expands every demo design to its matrix, 478 variants, every id unique", async () => {
     const r = await loadProject(REPO);
     if (!r.ok) throw new Error(`repository records must load: ${r.issues[0]?.message}`);
     const counts: Record<string, number> = {};
@@ -67,9 +67,9 @@ describe("the demo catalogue, with the real device library and chooser", () => {
       counts[rec.id] = specs.length;
       ids.push(...specs.map((s) => s.id));
     }
-    expect(counts).toEqual({ "circulation-fan": 32, "grow-light-strip": 48, "irrigation-valve-bank": 60, "nutrient-pump": 30, "seed-mat-heater": 72, "work-lamp": 100 });
-    expect(ids).toHaveLength(342);
-    expect(new Set(ids).size).toBe(342);
+    expect(counts).toEqual({ "circulation-fan": 48, "grow-light-strip": 72, "irrigation-valve-bank": 80, "nutrient-pump": 42, "seed-mat-heater": 96, "work-lamp": 140 });
+    expect(ids).toHaveLength(478);
+    expect(new Set(ids).size).toBe(478);
     expect(ids).toContain("seed-mat-heater-27v6-5a-darlington-3-resistive");
     expect(ids).toContain("grow-light-strip-12v-500ma-darlington-2-led");
   });

@@ -26,11 +26,11 @@ describe("demo design records", () => {
     expect(r.ok && r.designs.map((d) => d.record.id)).toEqual(DEMO);
   });
 
-  it("expand to the planned matrix sizes, 342 variants in all (≥ 320 asked for)", async () => {
+  it("expand to the planned matrix sizes, 478 variants in all (≥ 320 asked for)", async () => {
     const r = await loadProject(await demoProject());
     if (!r.ok) throw new Error("demo records must load");
     const counts = Object.fromEntries(r.designs.map((d) => [d.record.id, variantCount(d.record)]));
-    expect(counts).toEqual({ "circulation-fan": 32, "grow-light-strip": 48, "irrigation-valve-bank": 60, "nutrient-pump": 30, "seed-mat-heater": 72, "work-lamp": 100 });
+    expect(counts).toEqual({ "circulation-fan": 48, "grow-light-strip": 72, "irrigation-valve-bank": 80, "nutrient-pump": 42, "seed-mat-heater": 96, "work-lamp": 140 });
   });
 
   it("LED strips are dimmed at ≥ 3 kHz, the no-observable-effect bound of IEEE Std 1789-2015 §8.1.1 (seen in a reproduction)", async () => {
