@@ -46,7 +46,8 @@ function sizeInner(spec: VariantSpec): SizedVariant {
   const w = timing.search.worst;
   const fin = plan.finish(tap.info, { dutyMax: Math.min(1, w.dMax.hi), fMax_Hz: w.f.hi });
   const dOn = timing.figures.find((f) => f.key === "duty_max")?.value ?? Math.min(1, w.dMax.hi);
-  const load = loadStage(ctx, plan.vSwNom_V, dOn);
+  const vSwNom_V = fin.vSwNom_V ?? plan.vSwNom_V;
+  const load = loadStage(ctx, vSwNom_V, dOn);
   const q = spec.devices.timing_npn as BjtClass;
   const timingLoss = (role: string) => ({ role, dev: q, family: "bjt" as const, pCond_W: timing.timingLoss_W, pSw_W: 0, p_W: timing.timingLoss_W, isPower: false });
   const losses = [...fin.losses, timingLoss("Q_A"), timingLoss("Q_B")];
@@ -55,7 +56,7 @@ function sizeInner(spec: VariantSpec): SizedVariant {
   const devLoss = fin.losses.reduce((s, l) => s + l.p_W, 0);
   const pIn = ctx.vMax_V * ctx.iMax_A * Math.min(1, w.dMax.hi);
   const efficiency = Math.max(0, 1 - devLoss / pIn);
-  const pNominal = nominalDissipation(ctx, timing.figures, fin.losses, load.iOn_A, plan.vSwNom_V, w.f.hi);
+  const pNominal = nominalDissipation(ctx, timing.figures, fin.losses, load.iOn_A, vSwNom_V, w.f.hi);
 
   const rawParts: Part[] = [...prot.parts, ...timing.parts, ...tap.parts, ...plan.parts, ...fin.parts, load.part];
   const parts = rawParts.map((p) => {

@@ -31,6 +31,31 @@ export function rdsOn_ohm(dev: MosfetClass, vgs_V: number, hot: boolean): number
 }
 
 /**
+ * R_DS(on) of the class at a gate voltage between or beyond its datasheet points, for NOMINAL
+ * predictions: R = R_fix + K/(V_GS − V_th,typ) through the two datasheet points nearest V_GS (the
+ * linear-region law of a MOSFET, 1/(k'·(V_GS − V_th)), plus the fixed drift/contact part; the
+ * netlist's VDMOS card follows the same law through the same points, docs/spice-models.md).
+ * Worst-case figures keep rdsOn_ohm (the datasheet maximum at or below the drive).
+ */
+export function rdsOnNominal_ohm(dev: MosfetClass, vgs_V: number): number {
+  const vto = plateauTyp_V(dev);
+  const pts = [...dev.rds_on].filter((p) => p.vgs_V > vto).sort((a, b) => Math.abs(a.vgs_V - vgs_V) - Math.abs(b.vgs_V - vgs_V));
+  if (pts.length === 0 || vgs_V <= vto + 0.1) return rdsOn_ohm(dev, vgs_V, false);
+  const [p1, p2] = pts;
+  if (p2 === undefined) return 0.3 * p1!.max_ohm + (0.7 * p1!.max_ohm * (p1!.vgs_V - vto)) / (vgs_V - vto);
+  const x1 = 1 / (p1!.vgs_V - vto);
+  const x2 = 1 / (p2.vgs_V - vto);
+  let k = (p1!.max_ohm - p2.max_ohm) / (x1 - x2);
+  let rFix = p1!.max_ohm - k * x1;
+  if (!(k > 0) || rFix < 0) {
+    // Points that the law cannot pass through both: all of it in the channel term at the nearer point.
+    rFix = 0;
+    k = p1!.max_ohm / x1;
+  }
+  return rFix + k / (vgs_V - vto);
+}
+
+/**
  * Plateau of a typical part, for nominal predictions: the middle of the threshold window (the
  * datasheet's min–max spread is centred on the typical value; common practice).
  */

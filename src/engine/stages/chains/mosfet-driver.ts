@@ -17,7 +17,7 @@ import { resistor, transistor, zener } from "../../../circuit/parts.ts";
 import { type Ctx, OVERDRIVE_K } from "../context.ts";
 import { driveMargin, switchChecks, switchOffVoltage_V, vbeCold } from "./common.ts";
 import { WEAK_TURNOFF_FACTOR } from "./bjt-single.ts";
-import { gateTimes, gateTimesNominal, plateau_V, rdsOn_ohm, specVgs_V } from "./mosfet-common.ts";
+import { gateTimes, gateTimesNominal, plateau_V, rdsOn_ohm, rdsOnNominal_ohm, specVgs_V } from "./mosfet-common.ts";
 import type { ChainPlan } from "./types.ts";
 
 /** Smallest zener current that keeps the zener on its knee (common practice, ≈ 5 mA for 0.5 W parts). */
@@ -77,7 +77,7 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
   ];
   return {
     need: { kind: "base-current", i_A: iBD, vClamp_V: vClamp, vThreshold_V: vbeOn(qd, 25), inverting: true },
-    vSwNom_V: ctx.iNom_A * rdsOn_ohm(mos, Math.min(vNeed, railNom - vbeHi), false),
+    vSwNom_V: ctx.iNom_A * rdsOnNominal_ohm(mos, railNom - vbeHi),
     vSwMax_V: ctx.iMax_A * rds,
     parts,
     figures: [

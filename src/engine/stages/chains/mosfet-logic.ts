@@ -11,7 +11,7 @@ import { SRC } from "../../shared/sources.ts";
 import { transistor } from "../../../circuit/parts.ts";
 import type { Ctx } from "../context.ts";
 import { switchChecks, switchOffVoltage_V } from "./common.ts";
-import { gateTimes, gateTimesNominal, plateau_V, rdsOn_ohm, specVgs_V } from "./mosfet-common.ts";
+import { gateTimes, gateTimesNominal, plateau_V, rdsOn_ohm, rdsOnNominal_ohm, specVgs_V } from "./mosfet-common.ts";
 import type { ChainPlan } from "./types.ts";
 
 export function planMosfetLogic(ctx: Ctx): ChainPlan {
@@ -46,12 +46,15 @@ export function planMosfetLogic(ctx: Ctx): ChainPlan {
       // Nominal: the middle of the gate range reached, typical plateau (derived; for the nominal prediction).
       const tNom = gateTimesNominal(dev, rSrc, (vgMin + vgMax) / 2, rOff, ctx.vNom_V);
       const r = rdsOn_ohm(dev, vgMin, true);
+      // Nominal gate voltage: the collector's high level through the divider, V_nom·R_GS/(R_C + R_G + R_GS).
+      const vgNom = tap.rGS_ohm === undefined ? ctx.vNom_V : (ctx.vNom_V * tap.rGS_ohm) / (tap.rC_ohm + tap.rTap_ohm + tap.rGS_ohm);
+      const vSwNom_V = ctx.iNom_A * rdsOnNominal_ohm(dev, vgNom);
       const pCond = conductionLossMosfet_W(ctx.iMax_A, r, op.dutyMax);
       const pSw = switchingLoss_W(ctx.vMax_V, ctx.iMax_A, t.tOn_s, t.tOff_s, op.fMax_Hz, ctx.switching);
       const problems = [];
       if (vgMin < vNeed) problems.push(problem("chain", "/parts/Q_POWER", "gate-drive-low", "warning", `The gate reaches only ${vgMin.toFixed(2)} V at minimum supply, below the ${vNeed} V at which R_DS(on) is specified; R_DS(on) is estimated higher.`, { limit: vNeed, actual: vgMin, unit: "V" }));
       return {
-        parts: [], problems,
+        parts: [], problems, vSwNom_V,
         checks: [checkStress("Q_POWER", "vgs", vgMax, dev.vgs_max_V, "V", pol.mosfet.vgs, pol.marginal_above)],
         losses: [{ role: "Q_POWER", dev, family: "mosfet", pCond_W: pCond, pSw_W: pSw, p_W: pCond + pSw, isPower: true, tNom_s: { on: tNom.tOn_s, off: tNom.tOff_s } }],
         figures: [

@@ -55,5 +55,6 @@ export interface ChainPlan extends StageResult {
   vSwMax_V: number;
   /** Stage-by-stage drive margins are in `figures`; this is the net the load's switch drives. */
   delays(tap: TapInfo): { on_s: number; off_s: number; note: string };
-  finish(tap: TapInfo, op: OperatingPoint): StageResult & { losses: DeviceLoss[] };
+  /** `vSwNom_V`, when given, replaces the plan's: the on-voltage at the gate drive the tap really delivers. */
+  finish(tap: TapInfo, op: OperatingPoint): StageResult & { losses: DeviceLoss[]; vSwNom_V?: number };
 }
