@@ -19,6 +19,8 @@ export interface BuildOptions {
   root: string;
   outDir: string;
   strict: boolean;
+  /** Fail only on simulations that could not run (a weaker gate than `strict`). */
+  strictFailures?: boolean;
   spice: "eecircuit-engine" | "ngspice";
   simulate: boolean;
   workers?: number;
@@ -75,6 +77,10 @@ export async function runBuild(o: BuildOptions): Promise<number> {
     if (process.env["PULSEWRIGHT_REPORT_RSS"]) o.out.log(`peak memory ${Math.round(process.resourceUsage().maxRSS / 1024)} MB`);
     if (o.strict && (s.disagree > 0 || s.failed > 0)) {
       o.out.error(`--strict: ${s.disagree} disagreeing and ${s.failed} failed simulations`);
+      return 3;
+    }
+    if (o.strictFailures && s.failed > 0) {
+      o.out.error(`--strict-failures: ${s.failed} simulation(s) failed to run`);
       return 3;
     }
     return 0;

@@ -19,7 +19,8 @@ commands:
 
 build options:
   --out DIR             output folder (default _site)
-  --strict              exit non-zero when any simulation disagrees or fails (CI uses it)
+  --strict              exit non-zero when any simulation disagrees or fails
+  --strict-failures     exit non-zero when any simulation fails to run (engine error, no oscillation)
   --spice ENGINE        eecircuit-engine (default, embedded) | ngspice (native, if on PATH)
   --no-sim              skip simulation (pages say "not simulated")
   --workers N           simulation worker threads (default: cores)
@@ -40,6 +41,7 @@ async function main(argv: string[]): Promise<number> {
       options: {
         out: { type: "string", default: "_site" },
         strict: { type: "boolean", default: false },
+        "strict-failures": { type: "boolean", default: false },
         spice: { type: "string" },
         "no-sim": { type: "boolean", default: false },
         workers: { type: "string" },
@@ -61,6 +63,7 @@ async function main(argv: string[]): Promise<number> {
       root,
       outDir: values.out,
       strict: values.strict,
+      strictFailures: values["strict-failures"],
       spice,
       simulate: !values["no-sim"],
       ...(workers !== undefined ? { workers } : {}),
