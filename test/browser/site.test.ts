@@ -159,6 +159,20 @@ describe.skipIf(!HAVE)("the published site in a browser, under a URL prefix", ()
     await page.close();
   });
 
+  it("the design page's variant list filters by axis: picking a chain leaves only that chain's rows", async () => {
+    const d = cat.designs.find((x) => x.record.id === "nutrient-pump")!;
+    const page = await open(`designs/nutrient-pump/index.html`);
+    const chainLabel = await page.locator("#variant-list tbody tr").first().locator("td").nth(2).textContent();
+    await page.getByLabel("Chain", { exact: true }).selectOption(chainLabel!.trim());
+    const visible = await page.locator("#variant-list tbody tr:not([hidden])").evaluateAll((rows) => rows.map((r) => (r as HTMLTableRowElement).cells[3]!.textContent!.trim()));
+    expect(visible.length).toBeGreaterThan(0);
+    expect(visible.length).toBeLessThan(d.variants.length);
+    expect(new Set(visible)).toEqual(new Set([chainLabel!.trim()]));
+    await page.getByLabel("Chain", { exact: true }).selectOption("");
+    expect(await page.locator("#variant-list tbody tr:not([hidden])").count()).toBe(d.variants.length);
+    await page.close();
+  });
+
   it("search finds variants by words and links to them under the prefix", async () => {
     const page = await open("index.html");
     await page.getByLabel("Search designs and variants").fill("ridge exhaust");

@@ -23,6 +23,14 @@ import { plateau_V } from "./chains/mosfet-common.ts";
 
 export const TAP_SHARE_ALPHA = 0.5;
 export const RC_MAX_OHM = 10_000;
+/**
+ * Largest tap resistor into a transistor base (common practice: a switching stage's base resistor
+ * stays ≲ 100 kΩ). A megaohm tap feeds the base a few µA: the stage then switches only as fast as
+ * the timing collector's slow RC recovery lets its base current grow, and a gain below the sizing
+ * minimum leaves it unsaturated, so the stage after it lingers in its linear region (slow edges,
+ * V·I overlap far above the switching-loss estimate). The cap gives overdrive to spare.
+ */
+export const RT_MAX_OHM = 100_000;
 
 const INPUT_NET: Record<string, string> = {
   "bjt-single": "qb", "darlington-2": "d1b", "darlington-3": "d1b", "bjt-driver-pnp": "drb", "mosfet-driver": "drb", "mosfet-logic": "g",
@@ -65,7 +73,7 @@ export function designTap(ctx: Ctx, plan: ChainPlan): TapDesign {
         `The timing core cannot feed the chain's ${(need.i_A * 1e3).toPrecision(3)} mA input current: with R_C ≥ ${rcMin(ctx)} Ω (timing transistor current limit) there is no room for a tap resistor at ${ctx.vMin_V.toFixed(1)} V. Use a chain with a driver stage.`,
         { limit: span / (rC * (1 + tol)), actual: need.i_A, unit: "A" }));
     }
-    const rT = rTmax >= 1 ? roundDown(rTmax, "E24") : 1;
+    const rT = rTmax >= 1 ? Math.min(RT_MAX_OHM, roundDown(rTmax, "E24")) : 1;
     const iMin = span / ((rC + rT) * (1 + tol));
     const iMax = (ctx.vMax_V - need.vThreshold_V) / ((rC + rT) * (1 - tol));
     const rt = resistor("chain", "RT", rT, { a: tapNet, b: inputNet }, iMax * iMax * rT * (1 + tol), pol, "tap: timing collector to the chain input");
