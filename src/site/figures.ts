@@ -3,12 +3,15 @@ import { formatPercent, formatValue } from "../model/format.ts";
 import { KEY_FIGURES } from "../model/sized.ts";
 
 /**
- * How one number is printed. Duty figures are ratios (unit "") in the engine and read best as
- * percent; every other figure prints with its own unit. Used by the pages AND by the tests that
+ * How one number is printed. Duty figures and other shares are ratios (unit "") in the engine and
+ * read best as percent; every other figure prints with its own unit. Used by the pages AND by the tests that
  * compare pages with the variant JSON, so both sides format alike.
  */
+/** Dimensionless figures that read as a share (of the period, of the input power, of the target). */
+const PERCENT_KEYS = new Set(["efficiency", "frequency_error", "freewheel_recovery_share", "flicker_low_risk_limit"]);
+
 export function displayNumber(value: number, unit: string, key = ""): string {
-  if ((unit === "" || unit === "ratio") && key.startsWith("duty")) return formatPercent(value);
+  if ((unit === "" || unit === "ratio") && (key.startsWith("duty") || PERCENT_KEYS.has(key))) return formatPercent(value);
   return formatValue(value, unit);
 }
 
