@@ -36,6 +36,10 @@ async function main(argv: string[]): Promise<number> {
   const out = { log: (s: string) => process.stdout.write(s + "\n"), error: (s: string) => process.stderr.write(s + "\n") };
   if (command === "check") return runCheck(root, out);
   if (command === "build") {
+    if (rest.includes("--help") || rest.includes("-h")) {
+      out.log(USAGE);
+      return 0;
+    }
     const { values } = parseArgs({
       args: rest,
       options: {
@@ -86,9 +90,10 @@ main(process.argv.slice(2)).then(
     process.exitCode = code;
   },
   (err: unknown) => {
-    const e = err as { name?: string; message?: string };
-    if (e && e.name === "UsageError") {
-      process.stderr.write(`${e.message}\n`);
+    const e = err as { name?: string; message?: string; code?: string };
+    // node:util parseArgs reports unknown or malformed options with these codes: a usage error.
+    if (e && (e.name === "UsageError" || (typeof e.code === "string" && e.code.startsWith("ERR_PARSE_ARGS_")))) {
+      process.stderr.write(`${e.message}\n${e.name === "UsageError" ? "" : `\n${USAGE}`}`);
       process.exitCode = 2;
       return;
     }
