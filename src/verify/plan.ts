@@ -12,7 +12,7 @@ import { plotWaveforms } from "./waveforms.ts";
 import type { VerifyTarget } from "./target.ts";
 
 /** Bumped whenever measurement code changes what it reports: part of every cache key. */
-export const MEASURE_CODE_VERSION = "verify-measure-6";
+export const MEASURE_CODE_VERSION = "verify-measure-7";
 
 export type Measured =
   | { ok: true; measurements: Measurement[]; waveforms?: WaveformSet; elapsed_s: number }
