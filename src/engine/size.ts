@@ -94,6 +94,8 @@ function sizeInner(spec: VariantSpec): SizedVariant {
  * like (SIM_FIGURES):
  *  - conduction at the nominal on-voltage: BJT I_on·V_sw,nom·D, MOSFET I_on²·R_DS(on),nom·D
  *    (R_DS(on),nom = V_sw,nom/I_rated: the 25 °C datasheet value at the gate voltage reached);
+ *  - a BJT's base-drive loss I_B·V_BE·D when the chain gives it (pBaseNom_W): the simulated device
+ *    power includes the B–E junction;
  *  - switching from the NOMINAL transition times when the chain gives them (MOSFET chains: nominal
  *    gate drive, typical plateau) with the same ramp law as the worst case (Rashid Ex. 4.2 /
  *    Mohan Eq. 2-6) at V_nom, I_on, f_nom; else the worst-case loss scaled by V·I·f (linear in each).
@@ -104,10 +106,14 @@ function nominalDissipation(ctx: ReturnType<typeof makeContext>, timingFigures: 
   const power = losses.find((l) => l.isPower);
   if (dMax === undefined || fNom === undefined || power === undefined || !(ctx.iMax_A > 0) || !(fMax_Hz > 0)) return undefined;
   const pCond = power.family === "mosfet" ? (iOn_A * iOn_A * (vSwNom_V / ctx.iNom_A)) * dMax : iOn_A * vSwNom_V * dMax;
+  const pBase = (power.pBaseNom_W ?? 0) * dMax;
+  // Voltage the switch holds while its current ramps: an LED string's forward voltage is not across
+  // it (the string's current starts at its knee); inductive loads clamp at the supply.
+  const vOverlap_V = ctx.load.inductive ? ctx.vNom_V : Math.max(0, ctx.vNom_V - ctx.load.vf_V);
   const pSw = power.tNom_s !== undefined
-    ? switchingLoss_W(ctx.vNom_V, iOn_A, power.tNom_s.on, power.tNom_s.off, fNom, ctx.switching)
+    ? switchingLoss_W(vOverlap_V, iOn_A, power.tNom_s.on, power.tNom_s.off, fNom, ctx.switching)
     : power.pSw_W * (ctx.vNom_V * iOn_A * fNom) / (ctx.vMax_V * ctx.iMax_A * fMax_Hz);
-  return pCond + pSw;
+  return pCond + pBase + pSw;
 }
 
 /** Keep the first figure of each key (stages never mean to produce two; this guards the contract). */

@@ -54,6 +54,34 @@ export function thresholdDelay_s(tau_s: number, vHigh_V: number, vSat_V: number,
   return tau_s * Math.log((vHigh_V - vSat_V) / (vHigh_V - vTh_V));
 }
 
+/**
+ * Largest base-diode injection ratio allowed (see baseInjectionRatio), evaluated at the worst
+ * tolerances (smallest R_B and C, largest R_C, gain hot). Calibrated on the simulated 24 V fan core
+ * (R_C 10 kΩ, C 150 pF, 4 pF diodes, β 370 in the model): it ran at a nominal ratio of 0.6 (ctrl ½)
+ * and stopped with both transistors on at 2.0 (ctrl 0); 1.5 at the worst corner is ≈ 1.0–1.1
+ * nominal, near the geometric middle of the two (ours, two simulated points — a bound, not a law).
+ */
+export const INJECTION_MAX = 1.5;
+
+/**
+ * With series base diodes the off transistor's base floats: the diode blocks while its base node
+ * recharges, so nothing pulls the base down. The node rises at up to dV/dt = 2·V_cc/(R_B·C) at the
+ * start of the off phase (it starts ≈ V_cc below its final value and heads V_cc above it), and the
+ * reverse-biased diode's junction capacitance C_j passes i = C_j·dV/dt into the floating base; the
+ * "off" transistor amplifies it to β·i. Relative to its saturated current V_cc/R_C:
+ *   ratio = 2·β·C_j·R_C / (R_B·C)
+ * (derived from i = C·dV/dt and I_C = β·I_B). A large ratio lets the off collector sag instead of
+ * rising cleanly; the next edge then is a slow ramp that the opposite base resistor's current
+ * outruns (C·dV/dt < (V_cc − V_on)/R_B), so no swing is coupled and the core stops with both
+ * transistors on — the classic minimum-R_B condition of the multivibrator, here set by the diode's
+ * capacitance rather than by leakage (Millman & Taub, 1965, ch. 11, on the base's recharge path,
+ * from memory). Equivalently C ≥ 2·β·C_j·R_C/(R_B·ratio): the coupling capacitor must dwarf the
+ * diode's capacitance times the gain.
+ */
+export function baseInjectionRatio(beta: number, cj_F: number, rC_ohm: number, rB_ohm: number, c_F: number): number {
+  return (2 * beta * cj_F * rC_ohm) / (rB_ohm * c_F);
+}
+
 /** Smallest ln factor used (a latched side), so no zero or negative half-period is passed on. */
 export const LN_FLOOR = 1e-6;
 

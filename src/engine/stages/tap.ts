@@ -9,7 +9,10 @@
  * Gate-voltage input: divider V_G = V_cc·R_GS/(R_C + R_G + R_GS) between V_need (V_cc,min) and
  * the derated V_GS max (V_cc,max), with R_C small enough that Q_G moves in ≤ 2 % of the period.
  */
-import type { BjtClass, MosfetClass } from "../../model/device.ts";
+import type { BjtClass, DiodeClass, MosfetClass } from "../../model/device.ts";
+import { hfeMin, vbeOn, vceSat } from "../shared/gain.ts";
+import { INJECTION_MAX } from "./astable.ts";
+import { diodeCj_F } from "./core-model.ts";
 import type { Part } from "../../model/circuit.ts";
 import type { DesignProblem } from "../../model/problem.ts";
 import type { StressCheck } from "../../model/derating.ts";
@@ -31,6 +34,17 @@ export const RC_MAX_OHM = 10_000;
  * V·I overlap far above the switching-loss estimate). The cap gives overdrive to spare.
  */
 export const RT_MAX_OHM = 100_000;
+
+/**
+ * Smallest gate feed resistor relative to R_C (R_G ≥ 0.1·R_C). The power MOSFET's drain edges (and
+ * the ringing of an inductive load after its current stops) couple through C_gd into the gate; with
+ * a small R_G that node is the timing collector itself, and the kick passes on through the coupling
+ * capacitor into the opposite base node, which then turns on early: in simulation a 24 V, 2 A valve
+ * core (R_C 10 kΩ, C 820 pF, R_G 100 Ω) ran 18 % fast with its duty 15 points high; R_G = 1 kΩ (its
+ * low-pass R_G·C with the collector node) brought both within 0.5 % of the relations (ours, one
+ * simulated variant; a gate "stopper" resistor is common practice).
+ */
+export const RG_SHARE_MIN = 0.1;
 
 const INPUT_NET: Record<string, string> = {
   "bjt-single": "qb", "darlington-2": "d1b", "darlington-3": "d1b", "bjt-driver-pnp": "drb", "mosfet-driver": "drb", "mosfet-logic": "g",
@@ -56,6 +70,39 @@ function rcMin(ctx: Ctx): number {
   return roundUp(ctx.vMax_V / (0.5 * q.ic_max_A), "E24");
 }
 
+/**
+ * Reverse B–E swing of an unprotected core, V_cc,max − V_CE(sat) − V_BE(hot), against the derated
+ * V_EBO (SOURCES.md; common practice): true when the core needs its series base diodes.
+ */
+export function vebReverse_V(ctx: Ctx, q: BjtClass, rC_ohm: number): number {
+  return ctx.vMax_V - vceSat(q, Math.min(q.ic_max_A, ctx.vMax_V / rC_ohm)) - vbeOn(q, ctx.taMax_C);
+}
+export function baseDiodesUsed(ctx: Ctx, q: BjtClass, rC_ohm: number): boolean {
+  return ctx.spec.protection.be_breakdown === "series-base-diode" && vebReverse_V(ctx, q, rC_ohm) > q.vebo_V * ctx.spec.policy.bjt.voltage.factor;
+}
+
+/**
+ * Largest R_C the base-diode injection rule allows (astable.ts baseInjectionRatio ≤ INJECTION_MAX),
+ * with the shortest end-stop time constant estimated from the smaller end share: R_end·C ≈
+ * min(D_min, 1 − D_max)·T/0.8
+ * (t_off = R·C·ln(…), ln(…) ≤ 0.8 at these supplies), at −tolerance; the search checks it exactly.
+ */
+function rcInjectionMax(ctx: Ctx, q: BjtClass, rC_ohm: number): number {
+  if (!baseDiodesUsed(ctx, q, rC_ohm)) return Infinity;
+  const db = ctx.spec.devices.signal_diode as DiodeClass;
+  const share = Math.min(ctx.spec.targets.duty_min, 1 - ctx.spec.targets.duty_max);
+  const rbc = (share / ctx.f_Hz / 0.8) * (1 - ctx.rTol) * (1 - ctx.cTol);
+  const beta = hfeMin(q, Math.min(q.ic_max_A, ctx.vMax_V / rC_ohm), ctx.taMax_C);
+  return (INJECTION_MAX * rbc) / (2 * beta * diodeCj_F(db) * (1 + ctx.rTol));
+}
+
+/** R_C within [R_C,min, R_C,max] and below the injection limit (never below R_C,min: the current limit wins). */
+function capRc(ctx: Ctx, rC_ohm: number): number {
+  const q = ctx.spec.devices.timing_npn as BjtClass;
+  const lim = rcInjectionMax(ctx, q, rC_ohm);
+  return rC_ohm <= lim ? rC_ohm : Math.max(rcMin(ctx), roundDown(lim, "E24"));
+}
+
 export function designTap(ctx: Ctx, plan: ChainPlan): TapDesign {
   const need = plan.need;
   const tapNet = need.inverting ? "cb" : "ca";
@@ -66,7 +113,7 @@ export function designTap(ctx: Ctx, plan: ChainPlan): TapDesign {
   if (need.kind === "base-current") {
     const span = ctx.vMin_V - need.vClamp_V;
     const rCi = (TAP_SHARE_ALPHA * span) / need.i_A;
-    const rC = Math.min(RC_MAX_OHM, Math.max(rcMin(ctx), nearest(Math.max(rCi, 1), "E24")));
+    const rC = capRc(ctx, Math.min(RC_MAX_OHM, Math.max(rcMin(ctx), nearest(Math.max(rCi, 1), "E24"))));
     const rTmax = span / (need.i_A * (1 + tol)) - rC;
     if (!(rTmax >= 1)) {
       problems.push(problem("timing", "/parts/RT", "tap-drive-insufficient", "error",
@@ -90,10 +137,13 @@ export function designTap(ctx: Ctx, plan: ChainPlan): TapDesign {
   const dev = ctx.spec.devices.mosfet_logic as MosfetClass;
   const period = 1 / ctx.f_Hz;
   const rCfast = (0.02 * period * (ctx.vMin_V - plateau_V(dev))) / dev.qg_C;
-  const rC = Math.min(RC_MAX_OHM, Math.max(rcMin(ctx), rCfast > 1 ? roundDown(rCfast, "E24") : 1));
+  // R_C + R_G feeds the gate; R_G ≥ R_C·RG_SHARE_MIN, so R_C takes ≤ 1/(1 + share) of the fast limit.
+  const rCg = rCfast / (1 + RG_SHARE_MIN);
+  const rC = capRc(ctx, Math.min(RC_MAX_OHM, Math.max(rcMin(ctx), rCg > 1 ? roundDown(rCg, "E24") : 1)));
   let best: { rG: number; rGS: number; lo: number; hi: number } | null = null;
   for (const rGS of seriesBetween(1000, 100_000, "E24")) {
     for (const rG of seriesBetween(100, 100_000, "E24")) {
+      if (rG < RG_SHARE_MIN * rC) continue;
       const lo = (ctx.vMin_V * rGS * (1 - tol)) / (rC * (1 + tol) + rG * (1 + tol) + rGS * (1 - tol));
       const hi = (ctx.vMax_V * rGS * (1 + tol)) / (rC * (1 - tol) + rG * (1 - tol) + rGS * (1 + tol));
       if (lo < need.vNeeded_V || hi > need.vMax_V) continue;

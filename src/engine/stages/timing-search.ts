@@ -16,7 +16,8 @@ import type { BjtClass, DiodeClass } from "../../model/device.ts";
 import { roundDown, roundUp } from "../shared/e-series.ts";
 import { hfeMin, vbeOn, vceSat } from "../shared/gain.ts";
 import { type Ctx, OVERDRIVE_K, POT_TOLERANCE } from "./context.ts";
-import { type CoreValues, type Corner, NOMINAL_K, diodeVf_V, evalCore } from "./core-model.ts";
+import { type CoreValues, type Corner, NOMINAL_K, diodeCj_F, diodeVf_V, evalCore } from "./core-model.ts";
+import { INJECTION_MAX, baseInjectionRatio } from "./astable.ts";
 import { POT_RATINGS_W, RB_MS_FACTOR } from "./timing-parts.ts";
 import { type CornerSets, type Envelope, type WorstCase, dutyExtreme, envelopeCorners, worstCaseFast } from "./worst-corners.ts";
 
@@ -58,6 +59,18 @@ export function overdrive(ctx: Ctx, q: BjtClass, db: DiodeClass, base: Base, pot
   const vOn = vbeOn(q, ctx.taMin_C) + (base.diodes ? diodeVf_V(db, iB0, ctx.taMin_C) : 0);
   const iB = (ctx.vMin_V - vOn) / rB;
   return (iB * hfeMin(q, iC, ctx.taMin_C)) / iC;
+}
+
+/**
+ * Worst base-diode injection ratio of a core (astable.ts baseInjectionRatio): smallest end resistor
+ * and C at −tolerance, R_C at +tolerance, the gain hot (highest). 0 without base diodes.
+ */
+export function injection(ctx: Ctx, q: BjtClass, db: DiodeClass, v: CoreValues): number {
+  if (!v.diodes) return 0;
+  const rC = v.rC_ohm * (1 + ctx.rTol);
+  const beta = hfeMin(q, Math.min(q.ic_max_A, ctx.vMax_V / (v.rC_ohm * (1 - ctx.rTol))), ctx.taMax_C);
+  const rB = Math.min(v.rEndA_ohm, v.rEndB_ohm) * (1 - ctx.rTol);
+  return baseInjectionRatio(beta, diodeCj_F(db), rC, rB, v.c_F * (1 - ctx.cTol));
 }
 
 export function envelopeOf(ctx: Ctx): Envelope {
@@ -130,8 +143,11 @@ export function searchCore(ctx: Ctx, q: BjtClass, db: DiodeClass, base: Base): S
       const fErr = Math.abs(tTarget / (t1 * c) - 1);
       const miss = Math.max(0, lo.duty - t.duty_min) + Math.max(0, t.duty_max - hi.duty) + (lo.dtTh_s === null ? 1 : 0);
       const short = Math.max(0, OVERDRIVE_K - od);
+      // Injection is judged after the end stops are refined (a larger end stop lowers it), so here
+      // it only ranks; the pass test below applies the limit.
+      const inj = Math.max(0, injection(ctx, q, db, v) - INJECTION_MAX);
       const ok = miss === 0 && short === 0;
-      ranked.push({ v, od, ok, score: fErr + 0.2 * Math.max(0, rec - 1) + 10 * miss + 10 * short });
+      ranked.push({ v, od, ok, score: fErr + 0.2 * Math.max(0, rec - 1) + 10 * miss + 10 * short + 10 * inj });
     }
   }
   ranked.sort((x, y) => x.score - y.score);
@@ -141,7 +157,7 @@ export function searchCore(ctx: Ctx, q: BjtClass, db: DiodeClass, base: Base): S
     const v = refineEnds(ctx, q, db, cand.v, sets, endFloor(ctx, q, base.rC_ohm, cand.v.pot_ohm) ?? R_END_MIN_OHM);
     const od = overdrive(ctx, q, db, base, v.pot_ohm, v.rEndA_ohm, v.rEndB_ohm);
     const worst = worstCaseFast(v, q, db, sets);
-    const passed = od >= OVERDRIVE_K && worst.thresholdReached && worst.dMin.hi <= t.duty_min && worst.dMax.lo >= t.duty_max && worst.recovery <= MAX_RECOVERY;
+    const passed = od >= OVERDRIVE_K && injection(ctx, q, db, v) <= INJECTION_MAX && worst.thresholdReached && worst.dMin.hi <= t.duty_min && worst.dMax.lo >= t.duty_max && worst.recovery <= MAX_RECOVERY;
     const s = { values: v, worst, overdrive: od, passed, found: true };
     if (passed) return s;
     first ??= s;

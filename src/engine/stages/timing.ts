@@ -17,7 +17,8 @@ import { SRC } from "../shared/sources.ts";
 import { evaluateCore, lnFactor, type CollectorLoad } from "./astable.ts";
 import type { Ctx } from "./context.ts";
 import { type CoreValues, NOMINAL_K, diodeVf_V, evalCore } from "./core-model.ts";
-import { MAX_RECOVERY, type Search, searchCore } from "./timing-search.ts";
+import { MAX_RECOVERY, type Search, injection, searchCore } from "./timing-search.ts";
+import { INJECTION_MAX } from "./astable.ts";
 import type { TapDesign } from "./tap.ts";
 import type { ChainPlan } from "./chains/types.ts";
 import { timingParts } from "./timing-parts.ts";
@@ -44,7 +45,7 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
   const problems: DesignProblem[] = [...tap.problems];
   // B–E reverse swing of an unprotected core: base driven to V_BE − V_swing, V_swing ≈ V_cc − V_CE(sat)
   // (SOURCES.md; common practice). Worst at V_cc,max and hot (lowest V_BE).
-  const vebReverse_V = ctx.vMax_V - vceSat(q, ctx.vMax_V / tap.rC_ohm) - vbeOn(q, ctx.taMax_C);
+  const vebReverse_V = ctx.vMax_V - vceSat(q, Math.min(q.ic_max_A, ctx.vMax_V / tap.rC_ohm)) - vbeOn(q, ctx.taMax_C);
   const vebAllowed = q.vebo_V * pol.bjt.voltage.factor;
   let diodes = false;
   if (vebReverse_V > vebAllowed) {
@@ -88,6 +89,10 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
   else if (!search.passed && (w.dMin.hi > t.duty_min || w.dMax.lo < t.duty_max || (w.recovery <= MAX_RECOVERY && w.thresholdReached))) problems.push(problem("duty", "/parts/RV_DUTY", "duty-range-worst-case", "error",
     `Worst case the control reaches only ${fmtPct(w.dMin.hi)}–${fmtPct(w.dMax.lo)} duty at the load, short of the required ${fmtPct(t.duty_min)}–${fmtPct(t.duty_max)}.`,
     { limit: t.duty_min, actual: w.dMin.hi, unit: "" }));
+  const inj = injection(ctx, q, db, v);
+  if (inj > INJECTION_MAX) problems.push(problem("timing", "/parts/DB_A", "base-diode-injection", "error",
+    `The base diodes' capacitance injects current into the floating base of the off timing transistor: 2·β·C_j·R_C/(R_B·C) = ${inj.toFixed(2)} (limit ${INJECTION_MAX}); the off collector sags and the core can stop with both transistors on. Use a larger timing capacitor with smaller base resistors, a smaller R_C, or a lower frequency.`,
+    { limit: INJECTION_MAX, actual: inj, unit: "" }));
   if (!w.thresholdReached) problems.push(problem("timing", `/parts/${tap.tapNet === "ca" ? "RC_A" : "RC_B"}`, "threshold-unreached", "error", "The tapped collector never rises to the chain's switching threshold at some corner: the load would not switch."));
   if (Math.abs(fErr) > 0.05) problems.push(problem("timing", "/parts/CT_A", "frequency-error", "warning", `The nearest preferred values give ${e5.f_Hz.toFixed(0)} Hz, ${fmtPct(fErr)} from the ${ctx.f_Hz} Hz target.`, { limit: 0.05, actual: fErr, unit: "" }));
   if (w.recovery > MAX_RECOVERY) problems.push(problem("timing", "/parts/RC_A", "collector-recovery", "error", `At worst case the collectors need 5·τ_c = ${w.recovery.toFixed(2)} × the shortest half-period to recover (limit ${MAX_RECOVERY}): the core can latch with both transistors on at the control's ends. Narrow the duty range or lower the frequency.`, { limit: MAX_RECOVERY, actual: w.recovery, unit: "" }));

@@ -15,6 +15,7 @@ import { type Ctx, FORCED_BETA, OVERDRIVE_K } from "../context.ts";
 import { needAtMinSupply, driveMargin, switchChecks, switchOffVoltage_V, vbeCold } from "./common.ts";
 import { BLEED_SHARE, WEAK_TURNOFF_FACTOR } from "./bjt-single.ts";
 import type { ChainPlan } from "./types.ts";
+import { vceSatNominal_V } from "./sat-nominal.ts";
 
 export function planDriverPnp(ctx: Ctx): ChainPlan {
   const D = ctx.spec.devices;
@@ -49,7 +50,9 @@ export function planDriverPnp(ctx: Ctx): ChainPlan {
   });
   const iBD = OVERDRIVE_K * ibdEq;
   const vSwMax = vceSat(qp, ctx.iMax_A);
-  const vSwNom = vceSat(qp, ctx.iNom_A);
+  // Nominal: the datasheet line at the actual current, as the netlist's card reproduces it; the
+  // worst case keeps the datasheet maximum at or above the rated test point (thermal bound).
+  const vSwNom = vceSatNominal_V(qp, ctx.iNom_A);
   const off = switchOffVoltage_V(ctx);
   return {
     need: { kind: "base-current", i_A: iBD, vClamp_V: vClamp, vThreshold_V: vbeOn(qd, 25), inverting: false },
@@ -74,12 +77,16 @@ export function planDriverPnp(ctx: Ctx): ChainPlan {
       const qPow = transistor("chain", "Q_POWER", qp, betaP, { c: "sw", b: "pbase", e: "vbus" }, { voltage_V: off, current_A: ctx.iMax_A });
       const pCond = conductionLossBjt_W(ctx.iMax_A, vSwMax, op.dutyMax) + conductionLossBjt_W(iRbpMax, vEB, op.dutyMax);
       const pSw = switchingLoss_W(ctx.vMax_V, ctx.iMax_A, qp.t_rise_s, qp.t_fall_s + qp.t_storage_s, op.fMax_Hz, ctx.switching);
+      // Nominal base drive: RB_P's current at V_nom less RPU's share, at the datasheet V_BE(sat).
+      const vEBnom = vbeSat(qp, ctx.iNom_A);
+      const iBnom = Math.max(0, (ctx.vNom_V - vEBnom - vceSat(qd, iCD)) / rBP - vEBnom / rPU);
+      const baseNom_W = iBnom * vEBnom;
       const pDrv = conductionLossBjt_W(iRbpMax, vceD, op.dutyMax) + conductionLossBjt_W(tap.iMax_A, vClamp, op.dutyMax);
       return {
         parts: [qDrv, rbp.part, rpu.part, qPow], problems: [...rbp.problems, ...rpu.problems], checks: [...rbp.checks, ...rpu.checks],
         losses: [
           { role: "Q_DRV", dev: qd, family: "bjt", pCond_W: pDrv, pSw_W: 0, p_W: pDrv, isPower: false },
-          { role: "Q_POWER", dev: qp, family: "bjt", pCond_W: pCond, pSw_W: pSw, p_W: pCond + pSw, isPower: true },
+          { role: "Q_POWER", dev: qp, family: "bjt", pCond_W: pCond, pSw_W: pSw, p_W: pCond + pSw, isPower: true, pBaseNom_W: baseNom_W },
         ],
         figures: [
           driveMargin("driver", "NPN driver", tap.iMin_A, ibdEq),

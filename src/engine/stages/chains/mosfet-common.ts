@@ -79,11 +79,16 @@ export const QG_TEST_VDS_SHARE = 0.5;
  */
 export function gateTimesNominal(dev: MosfetClass, rOn_ohm: number, vDrive_V: number, rOff_ohm: number, vSwing_V: number): { tOn_s: number; tOff_s: number } {
   const vp = plateauTyp_V(dev);
-  const miller = dev.qg_C - dev.ciss_F * dev.qg_at_vgs_V;
-  const q = miller > 0 ? miller * Math.min(1, vSwing_V / (QG_TEST_VDS_SHARE * dev.vds_V)) : dev.qg_C;
+  const q = plateauCharge_C(dev, vSwing_V);
   const tOn = vDrive_V > vp ? (q * rOn_ohm) / (vDrive_V - vp) : dev.t_rise_s * 1e3;
   const tOff = (q * rOff_ohm) / vp;
   return { tOn_s: Math.max(dev.t_rise_s, tOn), tOff_s: Math.max(dev.t_fall_s, tOff) };
+}
+
+/** Plateau (Miller) charge for a drain swing of vSwing_V (see gateTimesNominal); Q_G when the data give none. */
+export function plateauCharge_C(dev: MosfetClass, vSwing_V: number): number {
+  const miller = dev.qg_C - dev.ciss_F * dev.qg_at_vgs_V;
+  return miller > 0 ? miller * Math.min(1, vSwing_V / (QG_TEST_VDS_SHARE * dev.vds_V)) : dev.qg_C;
 }
 
 /** Turn-on and turn-off transition times through source/sink resistances (see file comment); worst case at the V_th,max plateau unless `vp` is given. */

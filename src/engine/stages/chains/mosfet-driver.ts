@@ -17,7 +17,8 @@ import { resistor, transistor, zener } from "../../../circuit/parts.ts";
 import { type Ctx, OVERDRIVE_K } from "../context.ts";
 import { driveMargin, switchChecks, switchOffVoltage_V, vbeCold } from "./common.ts";
 import { WEAK_TURNOFF_FACTOR } from "./bjt-single.ts";
-import { gateTimes, gateTimesNominal, plateau_V, rdsOn_ohm, rdsOnNominal_ohm, specVgs_V } from "./mosfet-common.ts";
+import { gateTimes, gateTimesNominal, plateau_V, plateauCharge_C, plateauTyp_V, rdsOn_ohm, rdsOnNominal_ohm, specVgs_V } from "./mosfet-common.ts";
+import { releasedTurnOnEquivalent_s } from "./gate-release.ts";
 import type { ChainPlan } from "./types.ts";
 
 /** Smallest zener current that keeps the zener on its knee (common practice, ≈ 5 mA for 0.5 W parts). */
@@ -57,7 +58,6 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
   // Q_LO's base current at the turn-off edge is a short pulse the driver sinks out of saturation; the
   // static need is the pull-up current.
   const iCD = iRP;
-  void betaLo;
   const betaD = hfeMin(qd, iCD, ctx.taMin_C);
   // Small-signal driver: overdrive 2 at minimum gain (see driver-pnp.ts for why not forced β 10).
   const iBD = (OVERDRIVE_K * iCD) / betaD;
@@ -65,7 +65,22 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
   const rOn = rG + rP / betaHi;
   const t = gateTimes(mos, rOn, vgsMin, rG);
   // Nominal: gate rail at its nominal level less Q_HI's V_BE at 25 °C, typical plateau.
-  const tNom = gateTimesNominal(mos, rOn, railNom - vbeHi, rG, ctx.vNom_V);
+  // Drain swing while current flows: the supply (inductive: clamped by the freewheel diode), less
+  // an LED string's forward voltage (below its knee the string carries no current).
+  const vSwingNom = ctx.load.inductive ? ctx.vNom_V : Math.max(0.1 * ctx.vNom_V, ctx.vNom_V - ctx.load.vf_V);
+  const tNomDrive = gateTimesNominal(mos, rOn, railNom - vbeHi, rG, vSwingNom);
+  // The driver releases the pull-up only as its stored charge decays (no reverse base drive), so
+  // the follower's current grows with that decay: gate-release.ts. Nominal: 25 °C minimum gain
+  // (the netlist's cards), typical plateau.
+  const rOnNom = rG + rP / hfeMin(qhi, iGpk, 25);
+  const tOnReleased = releasedTurnOnEquivalent_s({
+    iG_A: Math.max(1e-9, (railNom - vbeHi - plateauTyp_V(mos)) / rOnNom),
+    tau_s: (WEAK_TURNOFF_FACTOR * qd.t_storage_s) / Math.LN2,
+    qRise_C: mos.ciss_F * (plateau_V(mos) - plateauTyp_V(mos)),
+    qPlateau_C: plateauCharge_C(mos, vSwingNom),
+    kind: ctx.switching,
+  });
+  const tNom = { tOn_s: Math.max(tNomDrive.tOn_s, tOnReleased), tOff_s: tNomDrive.tOff_s };
   const rds = rdsOn_ohm(mos, vgsMin, true);
   const problems = [];
   if (vgsMin < vNeed) problems.push(problem("chain", "/parts/Q_POWER", "gate-drive-low", "warning", `The gate reaches only ${vgsMin.toFixed(2)} V at minimum supply, below the ${vNeed} V at which R_DS(on) is specified; R_DS(on) is estimated higher (${rds.toPrecision(3)} Ω hot).`, { limit: vNeed, actual: vgsMin, unit: "V" }));
@@ -112,8 +127,28 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
         checks.push(checkStress("DZ", "power", pZ, dz.pz_W, "W", pol.zener.power, pol.marginal_above));
         if (!(rZmax > 1)) probs.push(problem("chain", "/parts/RZ", "zener-rail", "error", "The supply is too low above the zener voltage to feed the gate rail."));
       }
+      // Nominal turn-off: Q_LO sinks the plateau charge with its base current taken from the driver,
+      // which pulls only β_D·I_B − I_RP (I_B the tap's smallest current: the timing collector is
+      // still recovering at the edge). The sink current grows from ≈ 0 over the plateau (the driver
+      // comes out of cut-off through its Miller capacitance), so on average it is half of that:
+      // t_off ≈ 2·Q_pl/I_sink (common practice for a linearly rising drive current).
+      const iSink_A = Math.min(plateauTyp_V(mos) / rG, hfeMin(qlo, iGpk, 25) * Math.max(1e-6, hfeMin(qd, iCD, 25) * tap.iMin_A - iRP));
+      const tOffNom_s = Math.max(tNom.tOff_s, (2 * plateauCharge_C(mos, vSwingNom)) / iSink_A);
       const pCond = conductionLossMosfet_W(ctx.iMax_A, rds, op.dutyMax);
-      const pSw = switchingLoss_W(ctx.vMax_V, ctx.iMax_A, t.tOn_s, t.tOff_s, op.fMax_Hz, ctx.switching);
+      // Worst case: the same release and sink limits at the cold minimum gains, lowest gate drive,
+      // highest plateau and the largest drain swing; never shorter than the gate-charge times.
+      const vSwingMax = ctx.load.inductive ? switchOffVoltage_V(ctx) : Math.max(0.1 * ctx.vMax_V, ctx.vMax_V - ctx.load.vf_V);
+      const qPlMax = plateauCharge_C(mos, vSwingMax);
+      const tOnLoss = Math.max(t.tOn_s, releasedTurnOnEquivalent_s({
+        iG_A: Math.max(1e-9, (vgsMin - plateau_V(mos)) / rOn),
+        tau_s: (WEAK_TURNOFF_FACTOR * qd.t_storage_s) / Math.LN2,
+        qRise_C: mos.ciss_F * (plateau_V(mos) - plateauTyp_V(mos)),
+        qPlateau_C: qPlMax,
+        kind: ctx.switching,
+      }));
+      const iSinkMin_A = Math.min(plateauTyp_V(mos) / (rG * (1 + ctx.rTol)), betaLo * Math.max(1e-6, betaD * tap.iMin_A - iRP));
+      const tOffLoss = Math.max(t.tOff_s, (2 * qPlMax) / iSinkMin_A);
+      const pSw = switchingLoss_W(ctx.vMax_V, ctx.iMax_A, tOnLoss, tOffLoss, op.fMax_Hz, ctx.switching);
       const pDrv = conductionLossBjt_W(iCD, vceSat(qd, iCD), 1) + conductionLossBjt_W(tap.iMax_A, vClamp, 1);
       return {
         parts: [...out.map((o) => o.part), ...extra],
@@ -121,14 +156,14 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
         checks: [...out.flatMap((o) => o.checks), ...checks],
         losses: [
           { role: "Q_DRV", dev: qd, family: "bjt", pCond_W: pDrv, pSw_W: 0, p_W: pDrv, isPower: false },
-          { role: "Q_POWER", dev: mos, family: "mosfet", pCond_W: pCond, pSw_W: pSw, p_W: pCond + pSw, isPower: true, tNom_s: { on: tNom.tOn_s, off: tNom.tOff_s } },
+          { role: "Q_POWER", dev: mos, family: "mosfet", pCond_W: pCond, pSw_W: pSw, p_W: pCond + pSw, isPower: true, tNom_s: { on: tNom.tOn_s, off: tOffNom_s } },
         ],
         figures: [
           driveMargin("driver", "NPN driver", tap.iMin_A, iCD / betaD),
           figure("gate_rail", "Gate rail voltage (nominal)", railNom, "V", "chain", useZener ? "V_g = V_Z (zener rail, RZ + DZ)" : "V_g = V_bus", useZener ? SRC.TYPICAL_MEMORY : SRC.DERIVED, [railMin, railMax]),
           figure("load_current_max", "Load current, worst case (max supply)", ctx.iMax_A, "A", "load", "I = (V_cc,max − V_f)/R_load (load model)", SRC.DERIVED),
           figure("conduction_loss", "Conduction loss, power device", pCond, "W", "chain", "P = I_D,max² · R_DS(on),hot · D_max", SRC.COMMON),
-          figure("switching_loss", "Switching loss, power device", pSw, "W", "chain", ctx.switching === "resistive" ? "P = ⅙·V·I·(t_on + t_off)·f" : "P = ½·V·I·(t_on + t_off)·f", ctx.switching === "resistive" ? SRC.RASHID_SW : SRC.MOHAN_SW),
+          figure("switching_loss", "Switching loss, power device", pSw, "W", "chain", `${ctx.switching === "resistive" ? "P = ⅙·V·I·(t_on + t_off)·f" : "P = ½·V·I·(t_on + t_off)·f"}; t_on: driver release (gate-release.ts), t_off: 2·Q_pl/I_sink`, ctx.switching === "resistive" ? SRC.RASHID_SW : SRC.MOHAN_SW),
         ],
       };
     },

@@ -18,6 +18,11 @@ export interface DeviceLoss {
    * prediction; absent: the worst-case times stand (BJT datasheet times are typical already).
    */
   tNom_s?: { on: number; off: number };
+  /**
+   * Nominal base-drive loss of a BJT at duty 1 (I_B·V_BE at nominal supply), W: the simulator's
+   * device power includes the B–E junction, so the nominal prediction adds it times the duty.
+   */
+  pBaseNom_W?: number;
   /** Total average dissipation, W. */
   p_W: number;
   /** The device that switches the load (the one a heatsink verdict is about). */
