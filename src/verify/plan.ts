@@ -12,7 +12,7 @@ import { plotWaveforms } from "./waveforms.ts";
 import type { VerifyTarget } from "./target.ts";
 
 /** Bumped whenever measurement code changes what it reports: part of every cache key. */
-export const MEASURE_CODE_VERSION = "verify-measure-7";
+export const MEASURE_CODE_VERSION = "verify-measure-8";
 
 export type Measured =
   | { ok: true; measurements: Measurement[]; waveforms?: WaveformSet; elapsed_s: number }
@@ -74,7 +74,10 @@ function collect(target: VerifyTarget, low: Run, mid: Run, high: Run): { measure
   put("switch_on_voltage", "Switch voltage when on, control 1", "V", meanOnState(high.t, vSw, on));
   put("device_dissipation", "Power device average dissipation, control 1", "W", timeAverage(high.t, devicePower(target, high, vSw), p0, p1));
   const retries = [low, mid, high].filter((r) => r.retried).length;
-  if (retries > 0) put("solver_retries", "Runs that needed the looser-tolerance retry (of 3)", "", retries);
+  if (retries > 0) put("solver_retries", "Runs that needed a solver retry (of 3)", "", retries);
+  const level = Math.max(0, ...[low, mid, high].map((r) => r.retryLevel ?? 0));
+  if (level > 0) put("solver_retry_level", "Highest solver retry used (1 looser tolerances, 2 stiff-circuit settings)", "", level);
+  put("timing_from_gate", "Load on/off timed at the switch's gate (1) or at the switched node / load current (0)", "", mid.gate !== undefined ? 1 : 0);
   if (target.inductive) put("switch_peak_voltage", "Peak switch voltage at turn-off", "V", peakAfter(high.t, vSw, high.from_s));
   return { measurements: out, waveforms: plotWaveforms(target, mid, tMid) };
 }

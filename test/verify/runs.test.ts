@@ -91,9 +91,9 @@ describe("a transient that stops early", () => {
     expect(e.decks).toHaveLength(2);
     expect(e.decks[1]).toMatch(/^\.options method=gear abstol=1e-9 vntol=1e-5$/m);
   });
-  it("fails with both attempts named when the retry stops too", async () => {
+  it("fails with every attempt named when both retry levels stop too", async () => {
     const e = fakeEngine(() => 0.5);
-    await expect(runAt(target({ inductive: false, loadTau_s: 0 }), NETLIST, e, 1)).rejects.toThrow(/stopped early at ctrl = 1: .* and at .* with abstol/);
+    await expect(runAt(target({ inductive: false, loadTau_s: 0 }), NETLIST, e, 1)).rejects.toThrow(/stopped early at ctrl = 1 .*: at .* s, at .* with abstol=1e-9 vntol=1e-5, at .* with .*maxord=2.* and step/);
   });
   it("a run that completes is not retried", async () => {
     const e = fakeEngine(() => 1);
