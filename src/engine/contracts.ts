@@ -18,6 +18,13 @@ export type ChainInputNeed =
       vClamp_V: number;
       /** Tap-node voltage at which the chain starts to switch (≈ vClamp_V for a BJT input). */
       vThreshold_V: number;
+      /**
+       * Input current at which the load's measured edge happens, nominal (optional): a stack that
+       * starts to conduct at vThreshold_V still needs its base current to reach the load's
+       * (inductive: full, the switch voltage falls only once the stack carries the winding's
+       * current; resistive: half) before the edge, so the tap must rise a further R_T·i. Absent: 0.
+       */
+      iEdge_A?: number;
       /** True when the load is ON while the tapped collector is LOW. */
       inverting: boolean;
     }

@@ -44,7 +44,7 @@ function sizeInner(spec: VariantSpec): SizedVariant {
   const tap = designTap(ctx, plan);
   const timing = designTiming(ctx, plan, tap);
   const w = timing.search.worst;
-  const fin = plan.finish(tap.info, { dutyMax: Math.min(1, w.dMax.hi), fMax_Hz: w.f.hi });
+  const fin = plan.finish(tap.info, { dutyMax: Math.min(1, w.dMax.hi), fMax_Hz: w.f.hi, core: { c_F: timing.values.c_F, vSat_V: timing.vSatNom_V } });
   const dOn = timing.figures.find((f) => f.key === "duty_max")?.value ?? Math.min(1, w.dMax.hi);
   const vSwNom_V = fin.vSwNom_V ?? plan.vSwNom_V;
   const load = loadStage(ctx, vSwNom_V, dOn);
@@ -56,7 +56,7 @@ function sizeInner(spec: VariantSpec): SizedVariant {
   const devLoss = fin.losses.reduce((s, l) => s + l.p_W, 0);
   const pIn = ctx.vMax_V * ctx.iMax_A * Math.min(1, w.dMax.hi);
   const efficiency = Math.max(0, 1 - devLoss / pIn);
-  const pNominal = nominalDissipation(ctx, timing.figures, fin.losses, load.iOn_A, vSwNom_V, w.f.hi);
+  const pNominal = nominalDissipation(ctx, timing.figures, fin.losses, load.iOn_A, vSwNom_V, w.f.hi, timing.fCtrl1_Hz);
 
   const rawParts: Part[] = [...prot.parts, ...timing.parts, ...tap.parts, ...plan.parts, ...fin.parts, load.part];
   const parts = rawParts.map((p) => {
@@ -98,11 +98,13 @@ function sizeInner(spec: VariantSpec): SizedVariant {
  *    power includes the B–E junction;
  *  - switching from the NOMINAL transition times when the chain gives them (MOSFET chains: nominal
  *    gate drive, typical plateau) with the same ramp law as the worst case (Rashid Ex. 4.2 /
- *    Mohan Eq. 2-6) at V_nom, I_on, f_nom; else the worst-case loss scaled by V·I·f (linear in each).
+ *    Mohan Eq. 2-6) at V_nom, I_on and the core's nominal frequency at control 1; else the worst-case loss scaled by V·I·f (linear in each).
  */
-function nominalDissipation(ctx: ReturnType<typeof makeContext>, timingFigures: Figure[], losses: DeviceLoss[], iOn_A: number, vSwNom_V: number, fMax_Hz: number): number | undefined {
+function nominalDissipation(ctx: ReturnType<typeof makeContext>, timingFigures: Figure[], losses: DeviceLoss[], iOn_A: number, vSwNom_V: number, fMax_Hz: number, fCtrl1_Hz: number): number | undefined {
   const dMax = timingFigures.find((f) => f.key === "duty_max")?.value;
-  const fNom = timingFigures.find((f) => f.key === "frequency_nominal")?.value;
+  // The frequency of the run the figure is compared with (control at 1), not at mid control: with
+  // very unequal halves the core's frequency moves (collector recovery and base drive differ).
+  const fNom = Number.isFinite(fCtrl1_Hz) && fCtrl1_Hz > 0 ? fCtrl1_Hz : timingFigures.find((f) => f.key === "frequency_nominal")?.value;
   const power = losses.find((l) => l.isPower);
   if (dMax === undefined || fNom === undefined || power === undefined || !(ctx.iMax_A > 0) || !(fMax_Hz > 0)) return undefined;
   const pCond = power.family === "mosfet" ? (iOn_A * iOn_A * (vSwNom_V / ctx.iNom_A)) * dMax : iOn_A * vSwNom_V * dMax;

@@ -128,7 +128,7 @@ export function designTap(ctx: Ctx, plan: ChainPlan): TapDesign {
     const pre: { preLinear_ohm?: number } = bleed !== undefined ? { preLinear_ohm: rT + bleed } : {};
     return {
       tapNet, inputNet, rC_ohm: rC, load: { r_ohm: rT, v_V: need.vClamp_V }, ...pre,
-      vThTap_V: bleed !== undefined ? (need.vThreshold_V * (rT + bleed)) / bleed : need.vThreshold_V,
+      vThTap_V: bleed !== undefined ? (need.vThreshold_V * (rT + bleed)) / bleed : need.vThreshold_V + rT * (need.iEdge_A ?? 0),
       info: { rC_ohm: rC, rTap_ohm: rT, iMin_A: iMin, iMax_A: iMax },
       parts: [rt.part], problems: [...problems, ...rt.problems], checks: rt.checks,
     };

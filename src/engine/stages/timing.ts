@@ -33,6 +33,10 @@ export interface TimingResult {
   /** Reverse B–E voltage an unprotected timing transistor would see, V. */
   vebReverse_V: number;
   timingLoss_W: number;
+  /** Nominal frequency with the control at 1 (where the nominal dissipation is read), Hz. */
+  fCtrl1_Hz: number;
+  /** Saturation voltage of a timing transistor at nominal supply, V. */
+  vSatNom_V: number;
 }
 
 const fmtPct = (x: number): string => `${(x * 100).toFixed(1)} %`;
@@ -118,11 +122,11 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
     figure("duty_mid", "Duty at the load, control at ½ (nominal)", e5.duty, "", "duty", "D at ctrl ½", SRC.DERIVED, [w.dMid.lo, w.dMid.hi]),
     figure("duty_max", "Duty at the load, control at 1 (nominal)", e1.duty, "", "duty", "D at ctrl 1", SRC.DERIVED, [w.dMax.lo, w.dMax.hi]),
     figure("duty_skew", "Timing-core duty skew from loading (nominal)", skew, "", "timing", "|t_Aoff/T − R_BA/(R_BA + R_BB)| at ctrl ½", SRC.DERIVED),
-    figure("chain_threshold", "Chain switching threshold at the tap", tap.vThTap_V, "V", "chain", plan.need.kind === "gate-voltage" ? "V_th,tap = V_GS(th)·(R_G + R_GS)/R_GS" : tap.preLinear_ohm !== undefined ? "V_th,tap = V_BE·(R_T + R_BE)/R_BE" : "V_th,tap = n·V_BE(on)", SRC.COMMON),
+    figure("chain_threshold", "Chain switching threshold at the tap", tap.vThTap_V, "V", "chain", plan.need.kind === "gate-voltage" ? "V_th,tap = V_GS(th)·(R_G + R_GS)/R_GS" : tap.preLinear_ohm !== undefined ? "V_th,tap = V_BE·(R_T + R_BE)/R_BE" : plan.need.iEdge_A !== undefined ? "V_th,tap = n·V_BE(on) + R_T·I_B1 at the load's edge current" : "V_th,tap = n·V_BE(on)", SRC.COMMON),
     figure("duty_error_threshold", "Duty error from the switching threshold", (sign * dt) / T, "", "duty", "Δt/T, Δt = τ_c·ln((V_C,high − V_CE(sat))/(V_C,high − V_th)); − non-inverting, + inverting", SRC.DERIVED),
     figure("duty_error_delays", "Duty error from device delays", (v.delayOff_s - v.delayOn_s) / T, "", "duty", `(d_off − d_on)/T; ${delays.note}`, SRC.COMMON),
     figure("be_reverse_voltage", "B–E reverse swing without protection", vebReverse_V, "V", "timing", "V_EB,rev = V_cc,max − V_CE(sat) − V_BE(hot)", SRC.COMMON),
     figure("tap_current_min", "Chain input current, worst case low", tap.info.iMin_A, "A", "chain", "I = (V_cc,min − V_clamp)/((R_C + R_T)·1.05)", SRC.DERIVED),
   ];
-  return { search, values: v, parts: built.parts, figures, problems: [...problems, ...built.problems], checks: built.checks, vebReverse_V, timingLoss_W: built.loss_W };
+  return { search, values: v, parts: built.parts, figures, problems: [...problems, ...built.problems], checks: built.checks, vebReverse_V, timingLoss_W: built.loss_W, fCtrl1_Hz: e1.f_Hz, vSatNom_V: e1.vSat_V };
 }

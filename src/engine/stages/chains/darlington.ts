@@ -82,7 +82,7 @@ export function planDarlington(ctx: Ctx, n: 2 | 3): ChainPlan {
   // must leave through RBE at ≈ V_BE/RBE (charge control, derived); else 3 × t_f (from memory).
   const tOffLast = last.ft_Hz !== undefined ? last.t_fall_s + (ctx.iMax_A / (2 * Math.PI * last.ft_Hz)) / worst.bleed_A : 3 * last.t_fall_s;
   return {
-    need: { kind: "base-current", i_A: OVERDRIVE_K * ib1Eq, vClamp_V: vClamp, vThreshold_V: vTh, inverting: false },
+    need: { kind: "base-current", i_A: OVERDRIVE_K * ib1Eq, vClamp_V: vClamp, vThreshold_V: vTh, iEdge_A: ctx.switching === "clamped-inductive" ? nom.ib[0]! : nom.ib[0]! / 2, inverting: false },
     vSwNom_V: vSwNom, vSwMax_V: vSwMax, parts: [...parts, rbe.part],
     figures: [
       figure("stack_gain_min", "Stack minimum gain (cold)", worst.beta.reduce((a, b) => a * b, 1), "", "chain", "β ≈ Π β_min,i (each at its stage current, T_A,min)", SRC.COMMON),
@@ -90,7 +90,15 @@ export function planDarlington(ctx: Ctx, n: 2 | 3): ChainPlan {
     ],
     problems: [...rbe.problems], checks,
     delays() {
-      return { on_s: last.t_rise_s / 2, off_s: devs[0]!.t_storage_s + tOffLast / 2, note: "t_r/2 on; t_s,1 + t_off/2 off" };
+      // Clamped inductive load: on, the current rises fully (t_r) before the switch voltage falls;
+      // off, the switch voltage (the measured edge) rises as soon as the stack
+      // cannot carry the winding's current any more, i.e. once the driver stops feeding the output
+      // base (its storage time t_s,1); the output's base charge then leaves at full voltage while
+      // the current falls (the loss, not the edge). Resistive: the edge is the current's half-point,
+      // after t_s,1 + half the charge-removal time (charge control; derived, checked against the
+      // simulated 24 V pump in docs/method.md, "Darlington edges with a winding").
+      const off_s = ctx.switching === "clamped-inductive" ? devs[0]!.t_storage_s + last.t_fall_s / 2 : devs[0]!.t_storage_s + tOffLast / 2;
+      return { on_s: ctx.switching === "clamped-inductive" ? last.t_rise_s : last.t_rise_s / 2, off_s, note: ctx.switching === "clamped-inductive" ? "t_r on; t_s,1 + t_f/2 off (voltage edges of a winding)" : "t_r/2 on; t_s,1 + t_off/2 off" };
     },
     finish(tap, op) {
       const losses: DeviceLoss[] = [];

@@ -16,6 +16,7 @@ import { needAtMinSupply, driveMargin, switchChecks, switchOffVoltage_V, vbeCold
 import { BLEED_SHARE, WEAK_TURNOFF_FACTOR } from "./bjt-single.ts";
 import type { ChainPlan } from "./types.ts";
 import { vceSatNominal_V } from "./sat-nominal.ts";
+import { storageTime_s } from "../../shared/storage.ts";
 
 export function planDriverPnp(ctx: Ctx): ChainPlan {
   const D = ctx.spec.devices;
@@ -54,8 +55,19 @@ export function planDriverPnp(ctx: Ctx): ChainPlan {
   // worst case keeps the datasheet maximum at or above the rated test point (thermal bound).
   const vSwNom = vceSatNominal_V(qp, ctx.iNom_A);
   const off = switchOffVoltage_V(ctx);
+  // Nominal drive (25 °C, nominal supply, minimum gain as the netlist's cards carry it): RB_P's
+  // current, the pull-up's share, and the PNP's base current that carries the rated current.
+  const inductive = ctx.switching === "clamped-inductive";
+  const betaPnom = hfeMin(qp, ctx.iNom_A, 25);
+  const vEBn = vbeSat(qp, ctx.iNom_A);
+  const iPUn = vEBn / rPU;
+  const iRbpN = Math.max(0, (ctx.vNom_V - vEBn - vceSat(qd, iCD)) / rBP);
+  const betaDnom = hfeMin(qd, Math.max(iRbpN, 1e-6), 25);
+  // A winding's switch voltage falls only once the PNP carries the whole winding current, so the
+  // tap must rise until the driver sinks I/β_P + the pull-up's current (derived).
+  const iEdge = inductive ? (ctx.iNom_A / betaPnom + iPUn) / betaDnom : undefined;
   return {
-    need: { kind: "base-current", i_A: iBD, vClamp_V: vClamp, vThreshold_V: vbeOn(qd, 25), inverting: false },
+    need: { kind: "base-current", i_A: iBD, vClamp_V: vClamp, vThreshold_V: vbeOn(qd, 25), ...(iEdge === undefined ? {} : { iEdge_A: iEdge }), inverting: false },
     vSwNom_V: vSwNom, vSwMax_V: vSwMax,
     parts: [], figures: [
       figure("power_gain_min", "Power PNP minimum gain (cold, max current)", betaP, "", "chain", "β_min(I_C,max, T_A,min)", SRC.REGISTERED),
@@ -67,8 +79,17 @@ export function planDriverPnp(ctx: Ctx): ChainPlan {
       ...switchChecks(ctx, "Q_POWER", qp),
       ...switchChecks({ ...ctx, iMax_A: iRbpMax, load: { ...ctx.load, peak_A: iRbpMax * ctx.vNom_V / ctx.vMax_V, inductive: false } }, "Q_DRV", qd).slice(0, 2),
     ],
-    delays() {
-      return { on_s: qp.t_rise_s / 2, off_s: WEAK_TURNOFF_FACTOR * (qd.t_storage_s + qp.t_storage_s) + qp.t_fall_s / 2, note: "t_r/2 on; 2·(t_s,drv + t_s,pnp) + t_f/2 off" };
+    delays(tap) {
+      if (!inductive) return { on_s: qp.t_rise_s / 2, off_s: WEAK_TURNOFF_FACTOR * (qd.t_storage_s + qp.t_storage_s) + qp.t_fall_s / 2, note: "t_r/2 on; 2·(t_s,drv + t_s,pnp) + t_f/2 off" };
+      // Clamped winding: on, the current rises fully (t_r) before the voltage edge; off, the voltage
+      // rises as soon as the stored charge is gone, the current falls after it at full voltage.
+      // Storage by charge control (shared/storage.ts) at the nominal drive: the driver pulled out
+      // through R_T by the low collector (≈ V_BE/R_T, the collector's V_CE(sat) neglected), the PNP
+      // through its pull-up (V_EB/R_PU).
+      const iBd1 = Math.max(0, (ctx.vNom_V - vClamp) / (tap.rC_ohm + tap.rTap_ohm));
+      const tsD = storageTime_s(qd.t_storage_s, iBd1, vbeOn(qd, 25) / tap.rTap_ohm, iRbpN, betaDnom);
+      const tsP = storageTime_s(qp.t_storage_s, Math.max(0, iRbpN - iPUn), iPUn, ctx.iNom_A, betaPnom);
+      return { on_s: qp.t_rise_s, off_s: tsD + tsP, note: "t_r on; t_s,drv + t_s,pnp off (charge control, winding clamps the edges)" };
     },
     finish(tap, op) {
       const rbp = resistor("chain", "RB_P", rBP, { a: "pbase", b: "drc" }, iRbpMax * iRbpMax * rBP * (1 + ctx.rTol) * op.dutyMax, pol, "sets the PNP base current");

@@ -97,3 +97,17 @@ export function gateTimes(dev: MosfetClass, rOn_ohm: number, vDrive_V: number, r
   const tOff = (dev.qg_C * rOff_ohm) / vp;
   return { tOn_s: Math.max(dev.t_rise_s, tOn), tOff_s: Math.max(dev.t_fall_s, tOff) };
 }
+
+/**
+ * Miller plateau of a typical part at drain current i_A: V_p = V_th,typ + √(2·I/KP), the level-1
+ * saturation law I = KP/2·(V_GS − V_th)² with KP = 1/K, K the channel coefficient of
+ * rdsOnNominal_ohm's linear-region law (the same KP the netlist's VDMOS card carries; derived).
+ * Falls back to the typical threshold when the class's points give no channel coefficient.
+ */
+export function plateauAt_V(dev: MosfetClass, i_A: number): number {
+  const vto = plateauTyp_V(dev);
+  const v1 = vto + 1;
+  const v2 = vto + 4;
+  const k = (rdsOnNominal_ohm(dev, v1) - rdsOnNominal_ohm(dev, v2)) / (1 / (v1 - vto) - 1 / (v2 - vto));
+  return k > 0 && Number.isFinite(k) && i_A > 0 ? vto + Math.sqrt(2 * i_A * k) : vto;
+}

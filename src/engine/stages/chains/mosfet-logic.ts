@@ -11,7 +11,8 @@ import { SRC } from "../../shared/sources.ts";
 import { transistor } from "../../../circuit/parts.ts";
 import type { Ctx } from "../context.ts";
 import { switchChecks, switchOffVoltage_V } from "./common.ts";
-import { gateTimes, gateTimesNominal, plateau_V, rdsOn_ohm, rdsOnNominal_ohm, specVgs_V } from "./mosfet-common.ts";
+import { gateTimes, gateTimesNominal, plateau_V, plateauAt_V, plateauCharge_C, plateauTyp_V, rdsOn_ohm, rdsOnNominal_ohm, specVgs_V } from "./mosfet-common.ts";
+import { recoveringTurnOnEquivalent_s } from "./gate-recovery.ts";
 import type { ChainPlan } from "./types.ts";
 
 export function planMosfetLogic(ctx: Ctx): ChainPlan {
@@ -44,7 +45,16 @@ export function planMosfetLogic(ctx: Ctx): ChainPlan {
       const rOff = (tap.rTap_ohm * (tap.rGS_ohm ?? 1e9)) / (tap.rTap_ohm + (tap.rGS_ohm ?? 1e9));
       const t = gateTimes(dev, rSrc, vgMin, rOff);
       // Nominal: the middle of the gate range reached, typical plateau (derived; for the nominal prediction).
-      const tNom = gateTimesNominal(dev, rSrc, (vgMin + vgMax) / 2, rOff, ctx.vNom_V);
+      const tNomFlat = gateTimesNominal(dev, rSrc, (vgMin + vgMax) / 2, rOff, ctx.vNom_V);
+      // Turn-on from the recovering collector (gate-recovery.ts) when the core is known: the gate
+      // charges from a collector still rising through R_C·C_T, at the plateau of the rated current.
+      const tOnRec = op.core === undefined ? null : recoveringTurnOnEquivalent_s({
+        vHigh_V: ctx.vNom_V, vStart_V: op.core.vSat_V, rC_ohm: tap.rC_ohm, cT_F: op.core.c_F, rG_ohm: tap.rTap_ohm,
+        ...(tap.rGS_ohm === undefined ? {} : { rGS_ohm: tap.rGS_ohm }),
+        cIss_F: dev.ciss_F, vTh_V: plateauTyp_V(dev), vPlateau_V: plateauAt_V(dev, ctx.iNom_A),
+        qPlateau_C: plateauCharge_C(dev, ctx.vNom_V), kind: ctx.switching,
+      });
+      const tNom = { tOn_s: tOnRec === null ? tNomFlat.tOn_s : Math.max(dev.t_rise_s, tOnRec), tOff_s: tNomFlat.tOff_s };
       const r = rdsOn_ohm(dev, vgMin, true);
       // Nominal gate voltage: the collector's high level through the divider, V_nom·R_GS/(R_C + R_G + R_GS).
       const vgNom = tap.rGS_ohm === undefined ? ctx.vNom_V : (ctx.vNom_V * tap.rGS_ohm) / (tap.rC_ohm + tap.rTap_ohm + tap.rGS_ohm);

@@ -49,6 +49,8 @@ export interface OperatingPoint {
   dutyMax: number;
   /** Highest PWM frequency over tolerances. */
   fMax_Hz: number;
+  /** The timing core as built, at nominal supply (for chains fed from a recovering collector). */
+  core?: { c_F: number; vSat_V: number };
 }
 
 export interface ChainPlan extends StageResult {
