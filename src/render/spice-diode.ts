@@ -1,5 +1,6 @@
 /** Diode and zener cards (SPICE `D`): V_F at its rated maximum, t_rr through TT (docs/spice-models.md). */
 import type { DiodeClass, ZenerClass } from "../model/device.ts";
+import { diodeCj_F } from "../engine/shared/junction.ts";
 import { card } from "./spice-card.ts";
 import { spiceModelName, VT_27C_V } from "./spice-num.ts";
 
@@ -11,7 +12,7 @@ export function diodeModel(dev: DiodeClass): string {
   const rs = (0.1 * dev.vf_V) / dev.vf_at_A; // 10 % of V_F is ohmic at the rated point (from memory)
   // V_F(max) at I_F: I_F = IS·exp((V_F − I_F·RS)/(N·V_T)) solved for IS (Shockley diode law).
   const is_A = dev.vf_at_A / Math.exp((dev.vf_V - dev.vf_at_A * rs) / (n * VT_27C_V));
-  const cjo = dev.recovery === "schottky" ? 100e-12 * dev.if_avg_A : dev.if_avg_A < 0.5 ? 4e-12 : 15e-12;
+  const cjo = diodeCj_F(dev);
   // Charge control: Q = TT·I_F leaves at I_R = I_F in t_s = TT·ln(1 + I_F/I_R) = TT·ln2
   // (Kuno's storage-time relation, from memory), so TT = t_rr/ln2 for the I_F = I_R test. A Schottky
   // diode stores no minority charge (common practice): its data-sheet t_rr is the junction

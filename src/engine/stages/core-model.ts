@@ -49,14 +49,6 @@ export function diodeVf_V(d: DiodeClass, i_A: number, t_C: number): number {
   return d.vf_V - 0.1 * Math.max(0, dec) - 0.002 * (t_C - 25);
 }
 
-/**
- * Junction capacitance of a base diode, F: the same class figure as the simulation model
- * (docs/spice-models.md: small signal diode < 0.5 A ≈ 4 pF, larger ≈ 15 pF, Schottky ≈ 100 pF per
- * ampere of rating — typical data-sheet C_D at 0 V, from memory).
- */
-export function diodeCj_F(d: DiodeClass): number {
-  return d.recovery === "schottky" ? 100e-12 * d.if_avg_A : d.if_avg_A < 0.5 ? 4e-12 : 15e-12;
-}
 
 /**
  * Cut-in voltage of a silicon B–E junction, V at 25 °C: below it the transistor conducts too little
