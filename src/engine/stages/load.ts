@@ -65,7 +65,7 @@ export function loadStage(ctx: Ctx, vSwNom_V: number, dutyOn: number): { part: P
   return {
     part, iOn_A, problems,
     figures: [
-      figure("switch_on_voltage", "Switch on-voltage (rated load, minimum gain)", vSwNom_V, "V", "chain", "V_CE(sat) at forced β 10 (PNP driver: datasheet line V_0 + I·R_C at the actual I_C); Darlington V_CE(sat),1 + Σ V_BE; MOSFET I·R_DS(on)", SRC.REGISTERED),
+      figure("switch_on_voltage", "Switch on-voltage (rated load, minimum gain)", vSwNom_V, "V", "chain", "V_CE(sat) at forced β 10 (PNP driver: datasheet line V_0 + I·R_C at the actual I_C); Darlington V_CE(sat),1 (datasheet line) + Σ V_BE of the followers at I_B = I_C/β (junction law + R_B from the V_BE(sat) points); MOSFET I·R_DS(on) at the gate drive reached", SRC.REGISTERED),
       figure("load_current_on", "Load current when on (nominal supply)", iOn_A, "A", "load", formula, SRC.DERIVED),
       figure("load_on_voltage", "Voltage across the load when on", vLoad_V, "V", "load", "V_load = V_cc − V_sw", SRC.DERIVED),
     ],

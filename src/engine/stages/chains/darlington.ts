@@ -16,6 +16,8 @@ import { type Ctx, OVERDRIVE_K, loadCurrentAt_A } from "../context.ts";
 import { needAtMinSupply, driveMargin, switchChecks, switchOffVoltage_V, vbeCold } from "./common.ts";
 import { BLEED_SHARE } from "./bjt-single.ts";
 import type { ChainPlan, DeviceLoss } from "./types.ts";
+import { vceSatNominal_V } from "./sat-nominal.ts";
+import { vbeActiveNominal_V } from "./vbe-nominal.ts";
 
 interface StackCurrents {
   ic: number[];
@@ -51,6 +53,18 @@ function stackVoltage(devs: BjtClass[], s: StackCurrents): number {
   return v;
 }
 
+/**
+ * Nominal V_sw: stage 1 saturated at its nominal V_CE(sat) (sat-nominal.ts), the followers in the
+ * active region at their own I_C and I_B = I_C/β (vbe-nominal.ts). The max-value sum above stays
+ * the worst case; this one is what a device at the datasheet's V_BE(sat) line drops at the
+ * nominal currents (checked against the simulated 3-stage valve bank in docs/method.md).
+ */
+function stackVoltageNominal(devs: BjtClass[], s: StackCurrents): number {
+  let v = vceSatNominal_V(devs[0]!, Math.max(s.ic[0]!, 1e-6));
+  for (let k = 1; k < devs.length; k++) v += vbeActiveNominal_V(devs[k]!, s.ic[k]!, s.ib[k]!);
+  return v;
+}
+
 export function planDarlington(ctx: Ctx, n: 2 | 3): ChainPlan {
   const D = ctx.spec.devices;
   const devs = (n === 2 ? [D.driver_npn, D.power_npn] : [D.timing_npn, D.driver_npn, D.power_npn]) as BjtClass[];
@@ -61,7 +75,7 @@ export function planDarlington(ctx: Ctx, n: 2 | 3): ChainPlan {
   const worst = stackCurrents(devs, ctx.iMax_A, rBE * (1 - ctx.rTol), ctx.taMin_C);
   const nom = stackCurrents(devs, ctx.iNom_A, rBE, 25);
   const vSwMax = stackVoltage(devs, worst);
-  const vSwNom = stackVoltage(devs, nom);
+  const vSwNom = stackVoltageNominal(devs, nom);
   const vClamp = devs.reduce((s, d, k) => s + vbeSat(d, Math.max(worst.ic[k]!, 1e-6)) + (vbeCold(d, ctx) - d.vbe_on_V), 0);
   const vTh = devs.reduce((s, d) => s + vbeOn(d, 25), 0);
   // Base current of the first stage, at minimum gain (cold), for the load current at each supply.

@@ -30,14 +30,24 @@ export function planMosfetLogic(ctx: Ctx): ChainPlan {
     problems: [],
     checks: switchChecks(ctx, "Q_POWER", dev),
     delays(tap) {
-      const rSrc = ((tap.rC_ohm + tap.rTap_ohm) * (tap.rGS_ohm ?? 1e9)) / (tap.rC_ohm + tap.rTap_ohm + (tap.rGS_ohm ?? 1e9));
-      const rOff = (tap.rTap_ohm * (tap.rGS_ohm ?? 1e9)) / (tap.rTap_ohm + (tap.rGS_ohm ?? 1e9));
-      const vg = tap.vGate_V?.[0] ?? vNeed;
-      const t = gateTimes(dev, rSrc, vg, rOff);
-      // First-order lag of the gate behind the collector ≈ R_src·C_iss (derived).
-      const lagOn = rSrc * dev.ciss_F;
-      const lagOff = rOff * dev.ciss_F * Math.log(Math.max(vg / plateau_V(dev), 1));
-      return { on_s: lagOn + t.tOn_s / 2, off_s: lagOff + t.tOff_s / 2, note: "gate lag R·C_iss + half the Q_G transition" };
+      // Nominal edges (they feed the nominal duty prediction): the gate's Thevenin source at the
+      // nominal supply, V_G = V_nom·R_GS/(R_C + R_G + R_GS), through R_src = (R_C + R_G) ∥ R_GS, the
+      // typical plateau at the rated current and the plateau (Miller) charge (mosfet-common.ts).
+      // On: the RC charge of C_iss from 0 to the plateau, R_src·C_iss·ln(V_G/(V_G − V_p)) (first-order
+      // step response, derived), then half the plateau transit (the measured edge is the drain's
+      // midpoint). Off: C_iss discharges from V_G to V_p through R_off, R_off·C_iss·ln(V_G/V_p), then
+      // half the plateau transit. Worst-case gate figures stay in finish().
+      const rGS = tap.rGS_ohm ?? 1e9;
+      const rSrc = ((tap.rC_ohm + tap.rTap_ohm) * rGS) / (tap.rC_ohm + tap.rTap_ohm + rGS);
+      const rOff = (tap.rTap_ohm * rGS) / (tap.rTap_ohm + rGS);
+      const vg = tap.rGS_ohm === undefined ? ctx.vNom_V : (ctx.vNom_V * tap.rGS_ohm) / (tap.rC_ohm + tap.rTap_ohm + tap.rGS_ohm);
+      const vp = plateauAt_V(dev, ctx.iNom_A);
+      // Plateau transits as gateTimesNominal, but at the plateau of the rated current (the same V_p as the lags).
+      const q = plateauCharge_C(dev, ctx.vNom_V);
+      const t = { tOn_s: Math.max(dev.t_rise_s, vg > vp ? (q * rSrc) / (vg - vp) : dev.t_rise_s * 1e3), tOff_s: Math.max(dev.t_fall_s, (q * rOff) / vp) };
+      const lagOn = vg > vp ? rSrc * dev.ciss_F * Math.log(vg / (vg - vp)) : t.tOn_s;
+      const lagOff = rOff * dev.ciss_F * Math.log(Math.max(vg / vp, 1));
+      return { on_s: lagOn + t.tOn_s / 2, off_s: lagOff + t.tOff_s / 2, note: "gate charge to the plateau R·C_iss·ln + half the plateau transit (nominal)" };
     },
     finish(tap, op) {
       const [vgMin, vgMax] = tap.vGate_V ?? [vNeed, vNeed];
