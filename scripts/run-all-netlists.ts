@@ -22,13 +22,17 @@ const t0 = performance.now();
 for (const f of netlists) {
   const text = await readFile(f, "utf8");
   // `.tran tstep tstop tstart tmax [uic]`: keep the step, stop after 3 periods (1/4 of 12).
+  let stop_s = Number.NaN;
   const short = text.replace(/^\.tran\s+(\S+)\s+(\S+)(.*)$/m, (_m, step: string, stop: string, rest: string) => {
-    const stopS = Number(stop) / 4;
-    return `.tran ${step} ${Number.isFinite(stopS) && stopS > 0 ? stopS.toExponential(4) : stop}${rest}`;
+    stop_s = Number(stop) / 4;
+    return `.tran ${step} ${Number.isFinite(stop_s) && stop_s > 0 ? stop_s.toExponential(4) : stop}${rest}`;
   });
   try {
     const r = await engine.run(short, ["v(vbus)"]);
     if (r.t_s.length < 10) throw new Error(`only ${r.t_s.length} time points`);
+    // An aborted transient ("timestep too small") still returns the points it reached: check the end.
+    const end = r.t_s[r.t_s.length - 1] ?? 0;
+    if (Number.isFinite(stop_s) && end < 0.999 * Number(stop_s.toExponential(4))) throw new Error(`transient stopped at ${end.toExponential(3)} s of ${stop_s.toExponential(3)} s`);
   } catch (err) {
     failed++;
     process.stderr.write(`${path.basename(f)}: ${(err as Error).message}\n`);

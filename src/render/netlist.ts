@@ -26,6 +26,8 @@ export interface NetlistMeta {
 
 /** Periods simulated and steps per period of the ready-made `.tran` (verifier: ≈ 10–12 periods). */
 export const TRAN_PERIODS = 12;
+/** The published netlist's `.options` (see renderNetlist). */
+export const NETLIST_OPTIONS = "method=gear abstol=1e-9 vntol=1e-5";
 export const STEPS_PER_PERIOD = 400;
 
 function modelCards(circuit: CircuitModel, meta: NetlistMeta): string[] {
@@ -92,7 +94,10 @@ export function renderNetlist(circuit: CircuitModel, meta: NetlistMeta): string 
   const hasCore = circuit.nets.includes("ca") && circuit.nets.includes("cb");
   if (hasCore) out.push(`.ic v(ca)=${spiceNum(meta.supply_V, "ic")} v(cb)=0`);
   out.push(
-    ".options method=gear",
+    // Gear integration (trapezoidal rings on switching circuits); tighter absolute current and
+    // voltage tolerances than the defaults, so the netlist runs as published in batch ngspice and
+    // its WebAssembly build without "timestep too small" at the switching edges.
+    `.options ${NETLIST_OPTIONS}`,
     `.tran ${step} ${spiceNum(TRAN_PERIODS * period_s, "tran stop")} 0 ${step}${hasCore ? " uic" : ""}`,
     ".end",
   );

@@ -10,7 +10,7 @@ export function classify(line: string): LineKind | null {
   if (/^\.param ctrl=[0-9.e-]+$/.test(line)) return "param";
   if (/^\.model [A-Z0-9_]+ (NPN|PNP|VDMOS|D)\(([A-Z]+=-?[0-9.e+-]+ ?)+\)$/.test(line)) return "model";
   if (/^\.ic v\(ca\)=[0-9.e+-]+ v\(cb\)=0$/.test(line)) return "ic";
-  if (line === ".options method=gear") return "options";
+  if (line === ".options method=gear" || line === ".options method=gear abstol=1e-9 vntol=1e-5") return "options";
   if (/^\.tran [0-9.e+-]+ [0-9.e+-]+ 0 [0-9.e+-]+( uic)?$/.test(line)) return "tran";
   if (line === ".end") return "end";
   return null;
