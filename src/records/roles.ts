@@ -1,17 +1,14 @@
 /**
  * What each device role is, for the loader's cross-record checks: the family it needs, and
  * whether it switches the load (so the load current must fit its current rating). Kept beside the
- * loader so records do not depend on the engine; a test ties ROLE_FAMILY to the engine's copy.
+ * loader so records do not depend on the engine; the family table itself is the shared one in
+ * src/model/design.ts.
  */
 import type { DeviceRole } from "../model/design.ts";
 import type { DeviceClass } from "../model/device.ts";
-import type { ChainKind, DeviceFamily } from "../model/kinds.ts";
+import type { ChainKind } from "../model/kinds.ts";
 
-export const ROLE_FAMILY = {
-  timing_npn: "npn", driver_npn: "npn", power_npn: "npn", driver_pnp: "pnp", power_pnp: "pnp",
-  mosfet_logic: "nmos", mosfet_standard: "nmos", freewheel_diode: "diode", signal_diode: "diode",
-  reverse_diode: "diode", gate_zener: "zener",
-} as const satisfies Record<DeviceRole, DeviceFamily>;
+export { ROLE_FAMILY } from "../model/design.ts";
 
 /** Roles that carry the load current, and the chains that use them (docs/topologies.md). */
 export const LOAD_SWITCH_CHAINS: Partial<Record<DeviceRole, readonly ChainKind[]>> = {

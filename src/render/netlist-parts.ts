@@ -4,12 +4,11 @@
  */
 import { PIN_NAMES, type Part } from "../model/circuit.ts";
 import { checkNet, checkRef } from "./netlist-text.ts";
+import { LED_STRING_IS_A } from "../engine/shared/junction.ts";
 import { spiceModelName, spiceNum, timingModelName, VT_27C_V } from "./spice-num.ts";
 
 /** Fuse stand-in when the part gives no resistance: a few tens of mΩ (common practice, from memory). */
 export const FUSE_R_DEFAULT_OHM = 0.02;
-/** Saturation current of the LED-strip stand-in diode; N is solved so V_F holds at rated current. */
-const LED_STRING_IS_A = 1e-12;
 
 export interface ElementOut {
   lines: string[];

@@ -17,7 +17,7 @@ export function spiceModelName(deviceId: string): string {
 }
 
 /** Thermal voltage kT/q at SPICE's nominal temperature TNOM = 27 °C (300.15 K). */
-export const VT_27C_V = (1.380649e-23 * 300.15) / 1.602176634e-19;
+export { VT_27C_V } from "../engine/shared/junction.ts";
 
 /** Card name of a timing-core transistor's class (typical junction: spice-bjt.ts fitBjt). */
 export function timingModelName(id: string): string {

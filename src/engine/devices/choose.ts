@@ -5,9 +5,8 @@
  * reports problems, so a default that is still too small shows up as a design problem, not here.
  */
 import type { DesignRecord, DeviceRole } from "../../model/design.ts";
-import { DEVICE_ROLES } from "../../model/design.ts";
+import { DEVICE_ROLES, ROLE_FAMILY } from "../../model/design.ts";
 import type { BjtClass, DeviceClass, DeviceLibrary } from "../../model/device.ts";
-import type { DeviceFamily } from "../../model/kinds.ts";
 import { EngineMisuseError } from "../../model/problem.ts";
 import { hfeMin, vbeSat, vceSat } from "../shared/gain.ts";
 import { getDevice, isBjt, isDiode, isMosfet } from "./library.ts";
@@ -28,12 +27,8 @@ export const DEFAULT_DEVICE_IDS: Readonly<Record<DeviceRole, readonly string[]>>
   gate_zener: ["zener-12v-0w5"],
 };
 
-/** Family each role needs. */
-export const ROLE_FAMILY: Readonly<Record<DeviceRole, DeviceFamily>> = {
-  timing_npn: "npn", driver_npn: "npn", power_npn: "npn", driver_pnp: "pnp", power_pnp: "pnp",
-  mosfet_logic: "nmos", mosfet_standard: "nmos", freewheel_diode: "diode", signal_diode: "diode",
-  reverse_diode: "diode", gate_zener: "zener",
-};
+/** Family each role needs: the shared table (src/model/design.ts). */
+export { ROLE_FAMILY } from "../../model/design.ts";
 
 /** Selection headroom (common practice), separate from and looser than the derating policy. */
 const SWITCH_HEADROOM = 0.75;

@@ -9,3 +9,9 @@ import type { DiodeClass } from "../../model/device.ts";
 export function diodeCj_F(d: DiodeClass): number {
   return d.recovery === "schottky" ? 100e-12 * d.if_avg_A : d.if_avg_A < 0.5 ? 4e-12 : 15e-12;
 }
+
+/** Thermal voltage kT/q at 27 °C (SPICE's default temperature), V — CODATA 2018 constants. */
+export const VT_27C_V = (1.380649e-23 * 300.15) / 1.602176634e-19;
+
+/** Saturation current of the one-diode LED-string model, A (the netlist and the engine share it). */
+export const LED_STRING_IS_A = 1e-12;

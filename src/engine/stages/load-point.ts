@@ -4,14 +4,10 @@
  * the LOAD part's `spice` fields), and the starved-load test. Pure; nothing rounded.
  */
 
-/** Thermal voltage kT/q at 27 °C (300.15 K), V: the temperature SPICE simulates at by default (CODATA constants). */
-export const VT_27C_V = (1.380649e-23 * 300.15) / 1.602176634e-19;
-/**
- * Saturation current of the one diode that stands in for a whole LED string, A. Any small value
- * works once N is fitted; 1 pA keeps N in a sane range for 6–18 V strings (common practice for a
- * behavioural stand-in; the same number the netlist used before the engine gave the law).
- */
-export const LED_STRING_IS_A = 1e-12;
+import { LED_STRING_IS_A, VT_27C_V } from "../shared/junction.ts";
+
+/** The shared thermal voltage at 27 °C and LED-string IS (src/engine/shared/junction.ts). */
+export { LED_STRING_IS_A, VT_27C_V };
 /**
  * Smallest on-state load current (motor: on-state load voltage) as a share of the rated value:
  * below it the switch's drop starves the load — an LED strip visibly dim, a heater or lamp short
