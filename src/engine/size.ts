@@ -47,7 +47,7 @@ function sizeInner(spec: VariantSpec): SizedVariant {
   const fin = plan.finish(tap.info, { dutyMax: Math.min(1, w.dMax.hi), fMax_Hz: w.f.hi, core: { c_F: timing.values.c_F, vSat_V: timing.vSatNom_V } });
   const dOn = timing.figures.find((f) => f.key === "duty_max")?.value ?? Math.min(1, w.dMax.hi);
   const vSwNom_V = fin.vSwNom_V ?? plan.vSwNom_V;
-  const load = loadStage(ctx, vSwNom_V, dOn);
+  const load = loadStage(ctx, vSwNom_V, dOn, { lo: Math.min(1, w.dMin.hi), hi: Math.min(1, w.dMax.lo) });
   const q = spec.devices.timing_npn as BjtClass;
   const timingLoss = (role: string) => ({ role, dev: q, family: "bjt" as const, pCond_W: timing.timingLoss_W, pSw_W: 0, p_W: timing.timingLoss_W, isPower: false });
   const losses = [...fin.losses, timingLoss("Q_A"), timingLoss("Q_B")];

@@ -57,6 +57,7 @@ export function expandDesign(rec: DesignRecord, deps: ExpandDeps): VariantSpec[]
             protection: { ...protection },
             devices: { ...devices },
             policy: deps.policy,
+            ...(load_kind === "solenoid" && rec.solenoid !== undefined ? { solenoid: { ...rec.solenoid } } : {}),
           });
         }
       }

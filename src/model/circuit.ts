@@ -23,6 +23,7 @@ export const PIN_NAMES = {
   led: ["anode", "cathode"],
   fuse: ["a", "b"],
   motor: ["a", "b"],
+  solenoid: ["a", "b"],
   lamp: ["a", "b"],
   heater: ["a", "b"],
   "led-strip": ["a", "b"],
@@ -52,6 +53,11 @@ export interface PartSpice {
   /** LED strips: the string's diode law V = n·V_T·ln(1 + I/is_A), set by the engine (optional). */
   is_A?: number;
   n?: number;
+  /**
+   * Inductive loads: the inductor's current at t = 0 of the transient (the engine's predicted
+   * average at control 1), so the simulation starts near its steady state instead of from zero.
+   */
+  i0_A?: number;
 }
 
 export interface Part {

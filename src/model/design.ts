@@ -33,7 +33,24 @@ export interface DesignRecord {
   protection?: {
     be_breakdown?: "series-base-diode" | "none";
   };
+  /** The coil of a solenoid valve or relay; required when `axes.load_kind` lists "solenoid". */
+  solenoid?: SolenoidRecord;
   notes?: string[];
+}
+
+/**
+ * A solenoid coil as its maker states it. The rated current of each variant (`axes.load_A`) is the
+ * coil current at the nominal supply, full on: R_coil = V_nom / I_rated.
+ */
+export interface SolenoidRecord {
+  /** Electrical time constant L/R of the coil with the armature closed, milliseconds. */
+  tau_ms: number;
+  /** Time the full pull-in current must flow for the armature to close, milliseconds. */
+  pull_in_ms: number;
+  /** Current the armature needs to pull in, as a share of the rated current (e.g. 0.85). */
+  pull_in_share: number;
+  /** Current that keeps the closed armature held, as a share of the pull-in current (0.3–0.5 typical). */
+  hold_share: number;
 }
 
 /** Roles a design may bind to a device class. */

@@ -16,7 +16,7 @@ export const CHAIN_KINDS = [
 export type ChainKind = (typeof CHAIN_KINDS)[number];
 
 /** Load kinds (axis `load_kind`). */
-export const LOAD_KINDS = ["resistive", "lamp", "led", "motor"] as const;
+export const LOAD_KINDS = ["resistive", "lamp", "led", "motor", "solenoid"] as const;
 export type LoadKind = (typeof LOAD_KINDS)[number];
 
 /** Stages of a variant, in schematic order left to right. */
@@ -41,6 +41,7 @@ export const PART_KINDS = [
   "lamp",
   "heater",
   "led-strip",
+  "solenoid",
 ] as const;
 export type PartKind = (typeof PART_KINDS)[number];
 
@@ -62,6 +63,7 @@ export const REF_PREFIX = {
   lamp: "E",
   heater: "E",
   "led-strip": "E",
+  solenoid: "Y", // IEC 60750 class Y: electrically operated mechanical device (valve, brake), from memory
 } as const satisfies Record<PartKind, string>;
 
 /** Device-class families in the device library. */

@@ -1,4 +1,4 @@
-import type { DesignRecord, DeviceRole } from "./design.ts";
+import type { DesignRecord, DeviceRole, SolenoidRecord } from "./design.ts";
 import type { DeviceClass } from "./device.ts";
 import type { ChainKind, LoadKind } from "./kinds.ts";
 import type { DeratingPolicy } from "./derating.ts";
@@ -18,4 +18,6 @@ export interface VariantSpec {
   /** Every role resolved to a device class (record's choice or the engine default). */
   devices: Record<DeviceRole, DeviceClass>;
   policy: DeratingPolicy;
+  /** The record's coil data, present on solenoid variants. */
+  solenoid?: SolenoidRecord;
 }

@@ -45,6 +45,15 @@ export function checkTargets(d: LoadedDesign): RecordIssue[] {
   if (t.ambient_C[0] >= t.ambient_C[1]) {
     out.push(issueAt(d.parsed, "/targets/ambient_C/0", `ambient range [${t.ambient_C[0]}, ${t.ambient_C[1]}] °C is not ascending`, "write [lowest, highest], e.g. [-10, 45]"));
   }
+  const kinds = d.record.axes.load_kind;
+  const at = kinds.indexOf("solenoid");
+  if (at >= 0 && d.record.solenoid === undefined) {
+    out.push(issueAt(d.parsed, `/axes/load_kind/${at}`, "load kind \"solenoid\" needs the coil's data, and the record has no \"solenoid\" block",
+      'add "solenoid": { "tau_ms": 10, "pull_in_ms": 50, "pull_in_share": 0.85, "hold_share": 0.4 } with your coil\'s figures'));
+  }
+  if (at < 0 && d.record.solenoid !== undefined) {
+    out.push(issueAt(d.parsed, "/solenoid", "the record describes a solenoid coil, but no axis load_kind is \"solenoid\"", 'add "solenoid" to axes.load_kind, or remove the "solenoid" block', true));
+  }
   return out;
 }
 

@@ -82,6 +82,16 @@ export function elementLines(p: Part, supply_V: number): ElementOut {
       lines.push(emf > 0 ? `V${ref}EMF ${at} ${n[1]} DC ${v(emf, "vf_V")}` : `V${ref}EMF ${at} ${n[1]} DC 0`);
       return { lines, models: [] };
     }
+    case "solenoid": {
+      // Coil with its armature closed: winding resistance in series with its inductance; no
+      // back-EMF (the armature does not move while held).
+      const l = p.spice?.l_H ?? 0;
+      if (!(l > 0)) throw new RangeError(`netlist: solenoid ${ref} needs spice.l_H > 0`);
+      // IC: the engine's steady average at control 1 (honoured by the `.tran … uic` start).
+      const i0 = p.spice?.i0_A;
+      const ic = i0 !== undefined && i0 > 0 ? ` IC=${v(i0, "i0_A")}` : "";
+      return { lines: [`R${ref} ${n[0]} ${inner} ${v(loadR(p), "r_ohm")}`, `L${ref} ${inner} ${n[1]} ${v(l, "l_H")}${ic}`], models: [] };
+    }
     case "lamp":
     case "heater":
       return { lines: [`R${ref} ${n.join(" ")} ${v(loadR(p), "r_ohm")}`], models: [] };

@@ -17,6 +17,7 @@ export const LOAD_LABELS = {
   lamp: "Filament lamp",
   led: "LED strip",
   motor: "Motor or fan",
+  solenoid: "Solenoid valve or relay coil",
 } as const satisfies Record<LoadKind, string>;
 
 /**

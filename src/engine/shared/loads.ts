@@ -47,7 +47,12 @@ export interface LoadModel {
   note: string;
 }
 
-export function loadModel(kind: LoadKind, supply_V: number, load_A: number): LoadModel {
+/** A solenoid coil's time constant, as its record gives it (the rest follows from V and I). */
+export interface CoilData {
+  tau_s: number;
+}
+
+export function loadModel(kind: LoadKind, supply_V: number, load_A: number, coil?: CoilData): LoadModel {
   positive(supply_V, "supply_V");
   positive(load_A, "load_A");
   switch (kind) {
@@ -74,6 +79,14 @@ export function loadModel(kind: LoadKind, supply_V: number, load_A: number): Loa
         r_ohm: rWinding, l_H: MOTOR_TAU_E_s * rWinding, vf_V: supply_V - load_A * rWinding,
         peak_A: motorStall_A(supply_V, rWinding), inductive: true,
         note: `motor: winding R = V/(${MOTOR_STALL_FACTOR}·I) from stall ≈ ${MOTOR_STALL_FACTOR}× running current, L = R·1 ms, back-EMF at running speed = V − I·R (typical small PM DC motor, from memory)`,
+      };
+    }
+    case "solenoid": {
+      if (coil === undefined || !(coil.tau_s > 0)) throw new EngineMisuseError("loadModel: a solenoid needs its coil time constant (coil.tau_s > 0)");
+      const r = supply_V / load_A;
+      return {
+        r_ohm: r, l_H: coil.tau_s * r, vf_V: 0, peak_A: load_A, inductive: true,
+        note: `solenoid coil: R = V/I, L = R·τ with the record's τ = ${(coil.tau_s * 1e3).toPrecision(3)} ms, no back-EMF (armature closed; common practice)`,
       };
     }
     default: {

@@ -33,6 +33,8 @@ export const SRC = {
   REGISTERED: { source: "registered data of the generic JEDEC / Pro Electron type (datasheet reproductions)", confidence: "registered" },
   TYPICAL_MEMORY: { source: "typical values for the device class, from memory", confidence: "from-memory" },
   MOTOR_TYPICAL: { source: "small permanent-magnet DC motors: stall ≈ 4× running current, τ_e ≈ 1 ms — typical, from memory", confidence: "from-memory" },
+  RL_STEP: { source: "first-order R–L step response (Hayt & Kemmerly, Engineering Circuit Analysis, ch. 8), from memory", confidence: "from-memory" },
+  SOLENOID_HOLD: { source: "solenoid hold current ≈ 30–50 % of pull-in once the armature has closed — common practice", confidence: "common-practice" },
   VBE_TEMPCO: { source: "V_BE falls ≈ 2 mV/K — common practice", confidence: "common-practice" },
   COMMON: { source: "common practice", confidence: "common-practice" },
   DERIVED: { source: "derived in docs/method.md from the relations above", confidence: "derived" },

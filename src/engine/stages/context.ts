@@ -41,7 +41,8 @@ export function makeContext(spec: VariantSpec): Ctx {
   const vNom_V = spec.supply_V;
   const vMin_V = vNom_V * (1 - t.supply_tolerance);
   const vMax_V = vNom_V * (1 + t.supply_tolerance);
-  const load = loadModel(spec.load_kind, vNom_V, spec.load_A);
+  const coil = spec.solenoid === undefined ? undefined : { tau_s: spec.solenoid.tau_ms * 1e-3 };
+  const load = loadModel(spec.load_kind, vNom_V, spec.load_A, coil);
   // Motors: back-EMF follows speed, so the running current rises at most in proportion to the
   // supply (common practice); resistive, lamp and LED loads follow their own V–I line.
   const iMax_A = spec.load_kind === "motor" ? spec.load_A * (vMax_V / vNom_V) : Math.max(spec.load_A, (vMax_V - load.vf_V) / load.r_ohm);

@@ -18,12 +18,16 @@ import { SRC } from "../shared/sources.ts";
 import { type Ctx, loadCurrentOn_A } from "./context.ts";
 import { diodeVf_V } from "./core-model.ts";
 import { STARVED_FRACTION, ledCurrent_A, ledLaw, motorEmf_V } from "./load-point.ts";
+import { solenoidScheme } from "./solenoid.ts";
 
-const KIND: Record<string, PartKind> = { motor: "motor", lamp: "lamp", resistive: "heater", led: "led-strip" };
+const KIND: Record<string, PartKind> = { motor: "motor", lamp: "lamp", resistive: "heater", led: "led-strip", solenoid: "solenoid" };
 const pct = (x: number): string => `${(x * 100).toFixed(0)} %`;
 
-/** `dutyOn` is the nominal duty at control 1 (the point the simulation measures on-state values at). */
-export function loadStage(ctx: Ctx, vSwNom_V: number, dutyOn: number): { part: Part; figures: Figure[]; problems: DesignProblem[]; iOn_A: number } {
+/**
+ * `dutyOn` is the nominal duty at control 1 (the point the simulation measures on-state values at);
+ * `reach` the duty range the control surely reaches over the worst case (solenoid hold).
+ */
+export function loadStage(ctx: Ctx, vSwNom_V: number, dutyOn: number, reach: { lo: number; hi: number } = { lo: dutyOn, hi: dutyOn }): { part: Part; figures: Figure[]; problems: DesignProblem[]; iOn_A: number } {
   const kind = ctx.spec.load_kind;
   const vLoad_V = ctx.vNom_V - vSwNom_V;
   let spice: PartSpice = { r_ohm: ctx.load.r_ohm, l_H: ctx.load.l_H, vf_V: ctx.load.vf_V };
@@ -52,6 +56,18 @@ export function loadStage(ctx: Ctx, vSwNom_V: number, dutyOn: number): { part: P
     emfNote = ` E = ${Math.max(0, emf).toPrecision(3)} V at D = ${pct(dutyOn)}.`;
   }
   const problems: DesignProblem[] = [];
+  const extra: Figure[] = [];
+  if (kind === "solenoid") {
+    const fw = ctx.spec.devices.freewheel_diode as DiodeClass | undefined;
+    const sch = solenoidScheme(ctx, vSwNom_V, dutyOn, reach, fw);
+    iOn_A = sch.iOn_A;
+    share = 1;
+    formula = "I = [D·(V_cc − V_sw) − (1 − D)·V_F,fw]/R_coil at control 1 (average coil current, continuous)";
+    spice = { ...spice, i0_A: sch.iOn_A };
+    extra.push(...sch.figures);
+    problems.push(...sch.problems);
+    emfNote = ` ${sch.note}`;
+  }
   if (share < STARVED_FRACTION) problems.push(problem("load", "/parts/LOAD", "load-starved", "error",
     `The switch drops ${vSwNom_V.toFixed(2)} V when on, so the ${kind === "led" ? "LED strip" : kind === "resistive" ? "heater" : kind} ${what} (below ${pct(STARVED_FRACTION)}): choose a chain with a lower on-voltage (a MOSFET chain, or fewer Darlington stages).`,
     { limit: STARVED_FRACTION, actual: share, unit: "" }));
@@ -68,6 +84,7 @@ export function loadStage(ctx: Ctx, vSwNom_V: number, dutyOn: number): { part: P
       figure("switch_on_voltage", "Switch on-voltage (rated load, minimum gain)", vSwNom_V, "V", "chain", "V_CE(sat) at forced β 10 (PNP driver: datasheet line V_0 + I·R_C at the actual I_C); Darlington V_CE(sat),1 (datasheet line) + Σ V_BE of the followers at I_B = I_C/β (junction law + R_B from the V_BE(sat) points); MOSFET I·R_DS(on) at the gate drive reached", SRC.REGISTERED),
       figure("load_current_on", "Load current when on (nominal supply)", iOn_A, "A", "load", formula, SRC.DERIVED),
       figure("load_on_voltage", "Voltage across the load when on", vLoad_V, "V", "load", "V_load = V_cc − V_sw", SRC.DERIVED),
+      ...extra,
     ],
   };
 }

@@ -1,6 +1,8 @@
 /**
  * Loads: motor (circle with M), lamp (circle with a cross, IEC 60617 signal lamp), heater
- * (rectangle with a zig-zag heating element), LED strip (two LEDs in series inside a dashed box).
+ * (rectangle with a zig-zag heating element), LED strip (two LEDs in series inside a dashed box),
+ * solenoid (the IEC 60617 operating-coil rectangle with a diagonal stroke for the moving armature;
+ * our drawing of it).
  */
 import { INK, TWO_PIN, arrowHead, type SymbolDef } from "./types.ts";
 import { diode } from "./diodes.ts";
@@ -52,5 +54,16 @@ export const ledStrip: SymbolDef = {
     g.line(0, -30, 0, -26);
     g.line(0, 26, 0, 30);
     arrowHead(g, [6, -4], [17, -13], 5);
+  },
+};
+
+export const solenoid: SymbolDef = {
+  pins: TWO_PIN,
+  body: { x: -13, y: -30, w: 26, h: 60 },
+  draw(g) {
+    g.line(0, -30, 0, -14);
+    g.rect(24, 28).move(-12, -14);
+    g.line(-12, 14, 12, -14);
+    g.line(0, 14, 0, 30);
   },
 };

@@ -1,0 +1,87 @@
+/**
+ * The pull-in-then-hold scheme of a solenoid coil (valve, relay): the coil needs its pull-in current
+ * for the record's pull-in time at the lowest supply, then only its hold current (hold ≈ 30–50 % of
+ * pull-in, common practice), which the PWM gives at a duty from the coil's average-current law.
+ * Relations: src/engine/shared/solenoid.ts. The freewheel diode (protection stage) clamps the
+ * coil's kick-back at every switch-off; its rating is checked there.
+ */
+import type { DiodeClass } from "../../model/device.ts";
+import type { Figure } from "../../model/figure.ts";
+import type { DesignProblem } from "../../model/problem.ts";
+import { figure, problem } from "../shared/figures.ts";
+import { coilAverage_A, coilRipple_A, coilRiseTime_s, holdDuty } from "../shared/solenoid.ts";
+import { SRC } from "../shared/sources.ts";
+import type { Ctx } from "./context.ts";
+import { diodeVf_V } from "./core-model.ts";
+
+export interface SolenoidScheme {
+  /** Average coil current at control 1, nominal supply (the simulation's on-state figure). */
+  iOn_A: number;
+  figures: Figure[];
+  problems: DesignProblem[];
+  note: string;
+}
+
+const pct = (x: number): string => `${(x * 100).toFixed(0)} %`;
+const A = (x: number): string => `${x.toPrecision(3)} A`;
+
+export function solenoidScheme(ctx: Ctx, vSw_V: number, dutyOn: number, reach: { lo: number; hi: number }, fw: DiodeClass | undefined): SolenoidScheme {
+  const sol = ctx.spec.solenoid;
+  if (sol === undefined) throw new Error("solenoidScheme: the variant carries no solenoid data");
+  const r = ctx.load.r_ohm;
+  const tau_s = ctx.load.l_H / r;
+  const vf = fw === undefined ? 0 : Math.max(0, diodeVf_V(fw, ctx.iNom_A, 27));
+  const iPull = sol.pull_in_share * ctx.iNom_A;
+  const iHold = sol.hold_share * iPull;
+  // Pull-in at the lowest supply, switch full on: the current must first rise to I_pull, then
+  // flow for the armature's pull-in time.
+  const tRise = coilRiseTime_s(ctx.vMin_V - vSw_V, r, tau_s, iPull);
+  const tFull = tRise + sol.pull_in_ms * 1e-3;
+  const iFullMin = Math.max(0, (ctx.vMin_V - vSw_V) / r);
+  // Hold: the duty that keeps I_hold at the lowest supply; the same setting gives more at higher supplies.
+  const dHold = holdDuty(ctx.vMin_V, vSw_V, vf, iHold, r);
+  const dSet = Math.min(1, Math.max(reach.lo, dHold));
+  const iHoldNom = coilAverage_A(ctx.vNom_V, vSw_V, vf, dSet, r);
+  const iHoldMax = coilAverage_A(ctx.vMax_V, vSw_V, vf, dSet, r);
+  const ripple = coilRipple_A(ctx.vNom_V, vSw_V, vf, dSet, r, tau_s, ctx.f_Hz);
+  const iOn_A = coilAverage_A(ctx.vNom_V, vSw_V, vf, dutyOn, r);
+  // What the PWM alone gives at its top end, lowest supply: a start at control 1 pulls the
+  // armature in only if this reaches I_pull.
+  const iTopMin = coilAverage_A(ctx.vMin_V, vSw_V, vf, reach.hi, r);
+  const problems: DesignProblem[] = [];
+  if (!Number.isFinite(tRise)) {
+    problems.push(problem("load", "/parts/LOAD", "solenoid-pull-in", "error",
+      `At the lowest supply (${ctx.vMin_V.toPrecision(3)} V) the coil draws at most ${A(iFullMin)} full on, below its ${A(iPull)} pull-in current: the valve would not open. Choose a chain with a lower on-voltage, or a coil rated for this supply.`,
+      { limit: iPull, actual: iFullMin, unit: "A" }));
+  } else if (iTopMin < iPull) {
+    problems.push(problem("load", "/parts/LOAD", "solenoid-pull-in-drive", "warning",
+      `Pull-in needs the coil full on for ${(tFull * 1e3).toPrecision(3)} ms at the lowest supply; the PWM at its top end (duty ${pct(reach.hi)}) gives only ${A(iTopMin)} of the ${A(iPull)} pull-in current there. This driver has no pull-in timer: at the lowest supplies the valve may not open from the PWM alone.`,
+      { limit: iPull, actual: iTopMin, unit: "A" }));
+  }
+  if (dHold > reach.hi) {
+    problems.push(problem("load", "/targets/duty_max", "solenoid-hold", "error",
+      `Holding the armature needs a duty of ${pct(dHold)} at the lowest supply, above the ${pct(reach.hi)} the control surely reaches: raise duty_max or use a coil with a lower hold share.`,
+      { limit: reach.hi, actual: dHold, unit: "" }));
+  } else if (dHold < reach.lo) {
+    problems.push(problem("load", "/targets/duty_min", "solenoid-hold-floor", "note",
+      `The hold current needs only ${pct(dHold)} duty at the lowest supply; the control's lowest setting (${pct(reach.lo)}) holds with ${A(iHoldNom)} at the nominal supply instead of ${A(iHold)}.`));
+  }
+  const figures: Figure[] = [
+    figure("coil_resistance", "Coil resistance", r, "Ω", "load", "R_coil = V_nom / I_rated", SRC.COMMON),
+    figure("coil_inductance", "Coil inductance (armature closed)", ctx.load.l_H, "H", "load", "L = R_coil · τ (τ from the record)", SRC.DEMO),
+    figure("pull_in_current", "Pull-in current", iPull, "A", "load", "I_pull = pull-in share · I_rated (record)", SRC.DEMO),
+    figure("pull_in_full_on_time", "Full-on time for pull-in (lowest supply)", Number.isFinite(tFull) ? tFull : 0, "s", "load",
+      "t = −τ·ln(1 − I_pull·R/(V_cc,min − V_sw)) + t_pull", SRC.RL_STEP),
+    figure("pull_in_pwm_top_current", "Coil current at the control's top end, lowest supply", iTopMin, "A", "load",
+      "I = [D_max·(V_cc,min − V_sw) − (1 − D_max)·V_F]/R", SRC.DERIVED),
+    figure("hold_current", "Hold current needed", iHold, "A", "load", "I_hold = hold share · I_pull (record; 30–50 % is common practice)", SRC.SOLENOID_HOLD),
+    figure("hold_duty", "Hold duty (lowest supply)", dHold, "", "load", "D = (I_hold·R + V_F)/(V_cc,min − V_sw + V_F)", SRC.DERIVED),
+    figure("hold_current_nominal", "Hold current at that duty, nominal supply", iHoldNom, "A", "load", "I = [D·(V_cc − V_sw) − (1 − D)·V_F]/R", SRC.DERIVED),
+    figure("hold_current_max", "Hold current at that duty, highest supply", iHoldMax, "A", "load", "I = [D·(V_cc,max − V_sw) − (1 − D)·V_F]/R", SRC.DERIVED),
+    figure("hold_ripple", "Hold current ripple, peak to peak (nominal)", ripple, "A", "load",
+      "ΔI = (V'/R)(1 − e^(−DT/τ))(1 − e^(−(1−D)T/τ))/(1 − e^(−T/τ))", SRC.DERIVED),
+    figure("hold_power", "Coil power held vs full on (nominal)", (iHoldNom * iHoldNom * r) / (ctx.iNom_A * ctx.iNom_A * r), "", "load", "P_hold/P_full = (I_hold,nom/I_rated)²", SRC.DERIVED),
+  ];
+  const note = `Pull-in ${A(iPull)} for ${(tFull * 1e3).toPrecision(3)} ms full on, then hold at duty ${pct(dSet)} (${A(iHoldNom)} at ${ctx.vNom_V} V); the freewheel diode clamps the kick-back.`;
+  return { iOn_A, figures, problems, note };
+}
