@@ -9,7 +9,8 @@ import { type DesignProblem, EngineMisuseError } from "../model/problem.ts";
 import type { StressCheck } from "../model/derating.ts";
 import type { SizedVariant } from "../model/sized.ts";
 import type { VariantSpec } from "../model/variant.ts";
-import type { BjtClass } from "../model/device.ts";
+import type { BjtClass, DiodeClass } from "../model/device.ts";
+import { diodeVf_V } from "./stages/core-model.ts";
 import type { DeviceLoss } from "./stages/chains/types.ts";
 import { switchingLoss_W } from "./shared/losses.ts";
 import { assembleCircuit, refsByRole } from "../circuit/assemble.ts";
@@ -21,6 +22,7 @@ import { designTap } from "./stages/tap.ts";
 import { designTiming } from "./stages/timing.ts";
 import { loadStage } from "./stages/load.ts";
 import { thermalStage } from "./stages/thermal.ts";
+import { reviewFailures } from "./stages/failure-modes.ts";
 import { protectionStage } from "./stages/protection.ts";
 import { blockingReason, cautions, checkProblems } from "./stages/feasibility.ts";
 
@@ -53,16 +55,21 @@ function sizeInner(spec: VariantSpec): SizedVariant {
   const losses = [...fin.losses, timingLoss("Q_A"), timingLoss("Q_B")];
   const thermal = thermalStage(ctx, losses);
   const prot = protectionStage(ctx, ctx.vNom_V / timing.values.rC_ohm, w.f.lo, w.f.hi, w.dMin.lo);
-  const devLoss = fin.losses.reduce((s, l) => s + l.p_W, 0);
   const pIn = ctx.vMax_V * ctx.iMax_A * Math.min(1, w.dMax.hi);
-  const efficiency = Math.max(0, 1 - devLoss / pIn);
   const pNominal = nominalDissipation(ctx, timing.figures, fin.losses, load.iOn_A, vSwNom_V, w.f.hi, timing.fCtrl1_Hz);
 
   const rawParts: Part[] = [...prot.parts, ...timing.parts, ...tap.parts, ...plan.parts, ...fin.parts, load.part];
-  const parts = rawParts.map((p) => {
+  const stressed = rawParts.map((p) => {
     const th = thermal.perRole.get(p.role);
     return th === undefined ? p : { ...p, stress: { ...p.stress, power_W: th.p_W, tj_C: th.tj_C } };
   });
+  const review = reviewFailures(ctx, stressed, losses, thermal.perRole);
+  const parts = stressed.map((p) => {
+    const note = review.partNotes.get(p.role);
+    return note === undefined ? p : { ...p, notes: [...(p.notes ?? []), note] };
+  });
+  const driverLoss = driverLoss_W(parts, [...fin.losses, timingLoss("Q_A"), timingLoss("Q_B")], ctx, Math.min(1, w.dMax.hi));
+  const efficiency = Math.max(0, 1 - driverLoss / pIn);
   const circuit = assembleCircuit(parts, { supply_V: spec.supply_V, highSide: ctx.highSide, tapNet: tap.tapNet, chainInputNet: tap.inputNet });
   const refs = refsByRole(circuit);
   const toRef = (role: string): string => refs.get(role) ?? role;
@@ -74,15 +81,17 @@ function sizeInner(spec: VariantSpec): SizedVariant {
   const stageProblems = [...timing.problems, ...plan.problems, ...fin.problems, ...load.problems, ...thermal.problems, ...prot.problems].map(fixPath);
   const problems = [...stageProblems, ...checkProblems(checks, stageProblems)];
   const figures: Figure[] = dedupe([
-    ...timing.figures, ...plan.figures, ...fin.figures, ...load.figures, ...thermal.figures, ...prot.figures,
+    ...timing.figures, ...plan.figures, ...fin.figures, ...load.figures, ...thermal.figures, ...review.figures, ...prot.figures,
     ...(pNominal === undefined ? [] : [figure("device_dissipation_nominal", "Power device dissipation (nominal: rated load, D_max, 25 °C)", pNominal, "W", "thermal",
       "P = I_on·V_sw,nom·D_max,nom (MOSFET I_on²·R_DS(on),nom·D) + k·V_nom·I_on·(t_on,nom + t_off,nom)·f_nom", SRC.DERIVED)]),
-    figure("efficiency", "Switch efficiency (worst case)", efficiency, "", "chain", "η = 1 − ΣP_chain / (V_cc,max · I_max · D_max)", SRC.DERIVED),
+    figure("efficiency", "Driver efficiency (worst case)", efficiency, "", "chain",
+      "η = 1 − (ΣP_transistors + ΣP_resistors, zeners + P_freewheel) / (V_cc,max · I_max · D_max); each resistor at its worst-case dissipation", SRC.DERIVED),
   ]);
   const reason = blockingReason(ctx, problems);
-  const hot = thermal.heatsink.needed || [...thermal.perRole.values()].some((t) => t.tj_C > 60);
+  // The generic hot-surface line stays for heatsinked parts; free-standing ones get their case temperature.
+  const hot = thermal.heatsink.needed;
   const out: SizedVariant = {
-    spec, feasible: reason === undefined, figures, problems, checks, heatsink: thermal.heatsink, circuit, cautions: cautions(ctx, hot),
+    spec, feasible: reason === undefined, figures, problems, checks, heatsink: thermal.heatsink, circuit, cautions: [...cautions(ctx, hot), ...review.cautions],
   };
   if (reason !== undefined) out.reason = reason;
   return out;
@@ -116,6 +125,25 @@ function nominalDissipation(ctx: ReturnType<typeof makeContext>, timingFigures: 
     ? switchingLoss_W(vOverlap_V, iOn_A, power.tNom_s.on, power.tNom_s.off, fNom, ctx.switching)
     : power.pSw_W * (ctx.vNom_V * iOn_A * fNom) / (ctx.vMax_V * ctx.iMax_A * fMax_Hz);
   return pCond + pBase + pSw;
+}
+
+/**
+ * Every loss in the driver at the worst case: the transistors' (conduction, switching, drive), every
+ * resistor's, potentiometer's and zener's worst-case dissipation (the value its power rating is
+ * checked against: base and gate-drive resistors included), and the freewheel diode's conduction
+ * V_F·I·(1 − D_max) over the off time at the duty η is taken at. The load's own power
+ * is not a loss of the driver.
+ */
+function driverLoss_W(parts: Part[], losses: DeviceLoss[], ctx: ReturnType<typeof makeContext>, dMax: number): number {
+  const transistors = losses.reduce((s, l) => s + l.p_W, 0);
+  const passive = parts
+    .filter((p) => p.kind === "resistor" || p.kind === "potentiometer" || p.kind === "zener")
+    .reduce((s, p) => s + (p.stress.power_W ?? 0), 0);
+  const fw = parts.find((p) => p.role === "D_FREEWHEEL");
+  const fwDev = ctx.spec.devices.freewheel_diode as DiodeClass | undefined;
+  // At D_max (the point η is taken at) the diode carries the load current for the rest of the period.
+  const pFw = fw === undefined || fwDev === undefined ? 0 : Math.max(0, diodeVf_V(fwDev, ctx.iMax_A, 25)) * ctx.iMax_A * (1 - dMax);
+  return transistors + passive + pFw;
 }
 
 /** Keep the first figure of each key (stages never mean to produce two; this guards the contract). */

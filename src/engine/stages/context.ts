@@ -74,3 +74,13 @@ export function loadCurrentAt_A(ctx: Ctx, supply_V: number): number {
   const i = ctx.spec.load_kind === "motor" ? (ctx.iNom_A * supply_V) / ctx.vNom_V : (supply_V - ctx.load.vf_V) / ctx.load.r_ohm;
   return Math.min(ctx.iMax_A, Math.max(i, 1e-6));
 }
+
+/**
+ * Voltage across the switch while its current ramps (the V of the switching-loss ramp law): the
+ * supply for resistive and lamp loads and for an inductive load (its freewheel diode clamps the
+ * switch at the supply), but only V − V_F for an LED strip, whose string drop is never across the
+ * switch (the string's current starts at its knee). The LED string drop is the load model's.
+ */
+export function switchedVoltage_V(ctx: Ctx, supply_V: number): number {
+  return ctx.load.inductive ? supply_V : Math.max(0, supply_V - ctx.load.vf_V);
+}

@@ -10,7 +10,7 @@ import { hfeMin, vbeOn, vbeSat, vceSat } from "../../shared/gain.ts";
 import { conductionLossBjt_W, resistorPower_W, switchingLoss_W } from "../../shared/losses.ts";
 import { SRC } from "../../shared/sources.ts";
 import { resistor, transistor } from "../../../circuit/parts.ts";
-import { type Ctx, FORCED_BETA, OVERDRIVE_K } from "../context.ts";
+import { type Ctx, FORCED_BETA, OVERDRIVE_K, switchedVoltage_V } from "../context.ts";
 import { driveMargin, switchChecks, switchOffVoltage_V, vbeCold } from "./common.ts";
 import type { ChainPlan } from "./types.ts";
 
@@ -50,7 +50,7 @@ export function planBjtSingle(ctx: Ctx): ChainPlan {
     finish(tap, op) {
       const margin = (tap.iMin_A - iBleedMax) * beta / ctx.iMax_A;
       const pCond = conductionLossBjt_W(ctx.iMax_A, vSwMax, op.dutyMax);
-      const pSw = switchingLoss_W(ctx.vMax_V, ctx.iMax_A, dev.t_rise_s, dev.t_fall_s + dev.t_storage_s, op.fMax_Hz, ctx.switching);
+      const pSw = switchingLoss_W(switchedVoltage_V(ctx, ctx.vMax_V), ctx.iMax_A, dev.t_rise_s, dev.t_fall_s + dev.t_storage_s, op.fMax_Hz, ctx.switching);
       const pBase = conductionLossBjt_W(tap.iMax_A, vClamp, op.dutyMax);
       const p = pCond + pSw + pBase;
       return {

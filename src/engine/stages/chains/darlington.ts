@@ -12,7 +12,7 @@ import { hfeMin, vbeOn, vbeSat, vceSat } from "../../shared/gain.ts";
 import { conductionLossBjt_W, resistorPower_W, switchingLoss_W } from "../../shared/losses.ts";
 import { SRC } from "../../shared/sources.ts";
 import { resistor, transistor } from "../../../circuit/parts.ts";
-import { type Ctx, OVERDRIVE_K, loadCurrentAt_A } from "../context.ts";
+import { type Ctx, OVERDRIVE_K, loadCurrentAt_A, switchedVoltage_V } from "../context.ts";
 import { needAtMinSupply, driveMargin, switchChecks, switchOffVoltage_V, vbeCold } from "./common.ts";
 import { BLEED_SHARE } from "./bjt-single.ts";
 import type { ChainPlan, DeviceLoss } from "./types.ts";
@@ -117,7 +117,7 @@ export function planDarlington(ctx: Ctx, n: 2 | 3): ChainPlan {
     finish(tap, op) {
       const losses: DeviceLoss[] = [];
       let vBelow = 0; // Σ V_BE of the stages after k
-      const pSw = switchingLoss_W(ctx.vMax_V, ctx.iMax_A, last.t_rise_s, tOffLast, op.fMax_Hz, ctx.switching);
+      const pSw = switchingLoss_W(switchedVoltage_V(ctx, ctx.vMax_V), ctx.iMax_A, last.t_rise_s, tOffLast, op.fMax_Hz, ctx.switching);
       for (let k = n - 1; k >= 0; k--) {
         const vce = vSwMax - vBelow;
         const pc = conductionLossBjt_W(worst.ic[k]!, Math.max(vce, 0), op.dutyMax);

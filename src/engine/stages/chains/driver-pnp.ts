@@ -11,7 +11,7 @@ import { hfeMin, vbeOn, vbeSat, vceSat } from "../../shared/gain.ts";
 import { conductionLossBjt_W, switchingLoss_W } from "../../shared/losses.ts";
 import { SRC } from "../../shared/sources.ts";
 import { resistor, transistor } from "../../../circuit/parts.ts";
-import { type Ctx, FORCED_BETA, OVERDRIVE_K } from "../context.ts";
+import { type Ctx, FORCED_BETA, OVERDRIVE_K, switchedVoltage_V } from "../context.ts";
 import { needAtMinSupply, driveMargin, switchChecks, switchOffVoltage_V, vbeCold } from "./common.ts";
 import { BLEED_SHARE, WEAK_TURNOFF_FACTOR } from "./bjt-single.ts";
 import type { ChainPlan } from "./types.ts";
@@ -97,7 +97,7 @@ export function planDriverPnp(ctx: Ctx): ChainPlan {
       const qDrv = transistor("chain", "Q_DRV", qd, betaD, { c: "drc", b: "drb", e: "0" }, { voltage_V: ctx.vMax_V, current_A: iRbpMax });
       const qPow = transistor("chain", "Q_POWER", qp, betaP, { c: "sw", b: "pbase", e: "vbus" }, { voltage_V: off, current_A: ctx.iMax_A });
       const pCond = conductionLossBjt_W(ctx.iMax_A, vSwMax, op.dutyMax) + conductionLossBjt_W(iRbpMax, vEB, op.dutyMax);
-      const pSw = switchingLoss_W(ctx.vMax_V, ctx.iMax_A, qp.t_rise_s, qp.t_fall_s + qp.t_storage_s, op.fMax_Hz, ctx.switching);
+      const pSw = switchingLoss_W(switchedVoltage_V(ctx, ctx.vMax_V), ctx.iMax_A, qp.t_rise_s, qp.t_fall_s + qp.t_storage_s, op.fMax_Hz, ctx.switching);
       // Nominal base drive: RB_P's current at V_nom less RPU's share, at the datasheet V_BE(sat).
       const vEBnom = vbeSat(qp, ctx.iNom_A);
       const iBnom = Math.max(0, (ctx.vNom_V - vEBnom - vceSat(qd, iCD)) / rBP - vEBnom / rPU);

@@ -14,7 +14,7 @@ import { hfeMin, vbeOn, vceSat } from "../../shared/gain.ts";
 import { conductionLossBjt_W, conductionLossMosfet_W, gateDrivePower_W, switchingLoss_W } from "../../shared/losses.ts";
 import { SRC } from "../../shared/sources.ts";
 import { resistor, transistor, zener } from "../../../circuit/parts.ts";
-import { type Ctx, OVERDRIVE_K } from "../context.ts";
+import { type Ctx, OVERDRIVE_K, switchedVoltage_V } from "../context.ts";
 import { driveMargin, switchChecks, switchOffVoltage_V, vbeCold } from "./common.ts";
 import { WEAK_TURNOFF_FACTOR } from "./bjt-single.ts";
 import { gateTimes, gateTimesNominal, plateau_V, plateauCharge_C, plateauTyp_V, rdsOn_ohm, rdsOnNominal_ohm, specVgs_V } from "./mosfet-common.ts";
@@ -148,7 +148,7 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
       }));
       const iSinkMin_A = Math.min(plateauTyp_V(mos) / (rG * (1 + ctx.rTol)), betaLo * Math.max(1e-6, betaD * tap.iMin_A - iRP));
       const tOffLoss = Math.max(t.tOff_s, (2 * qPlMax) / iSinkMin_A);
-      const pSw = switchingLoss_W(ctx.vMax_V, ctx.iMax_A, tOnLoss, tOffLoss, op.fMax_Hz, ctx.switching);
+      const pSw = switchingLoss_W(switchedVoltage_V(ctx, ctx.vMax_V), ctx.iMax_A, tOnLoss, tOffLoss, op.fMax_Hz, ctx.switching);
       const pDrv = conductionLossBjt_W(iCD, vceSat(qd, iCD), 1) + conductionLossBjt_W(tap.iMax_A, vClamp, 1);
       return {
         parts: [...out.map((o) => o.part), ...extra],

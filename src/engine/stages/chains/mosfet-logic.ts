@@ -9,7 +9,7 @@ import { figure, problem } from "../../shared/figures.ts";
 import { conductionLossMosfet_W, switchingLoss_W } from "../../shared/losses.ts";
 import { SRC } from "../../shared/sources.ts";
 import { transistor } from "../../../circuit/parts.ts";
-import type { Ctx } from "../context.ts";
+import { type Ctx, switchedVoltage_V } from "../context.ts";
 import { switchChecks, switchOffVoltage_V } from "./common.ts";
 import { gateTimes, gateTimesNominal, plateau_V, plateauAt_V, plateauCharge_C, plateauTyp_V, rdsOn_ohm, rdsOnNominal_ohm, specVgs_V } from "./mosfet-common.ts";
 import { recoveringTurnOnEquivalent_s } from "./gate-recovery.ts";
@@ -26,7 +26,8 @@ export function planMosfetLogic(ctx: Ctx): ChainPlan {
     vSwNom_V: ctx.iNom_A * rNom,
     vSwMax_V: ctx.iMax_A * rHot,
     parts: [transistor("chain", "Q_POWER", dev, undefined, { d: "sw", g: "g", s: "0" }, { voltage_V: switchOffVoltage_V(ctx), current_A: ctx.iMax_A })],
-    figures: [figure("rds_on_hot", "R_DS(on), hot, at the gate voltage reached", rHot, "Ω", "chain", "R_DS(on),max(V_GS) × hot factor", SRC.TYPICAL_MEMORY)],
+    // R_DS(on) is shown in finish(), at the gate voltage the tap really reaches (the value the loss uses).
+    figures: [],
     problems: [],
     checks: switchChecks(ctx, "Q_POWER", dev),
     delays(tap) {
@@ -70,7 +71,7 @@ export function planMosfetLogic(ctx: Ctx): ChainPlan {
       const vgNom = tap.rGS_ohm === undefined ? ctx.vNom_V : (ctx.vNom_V * tap.rGS_ohm) / (tap.rC_ohm + tap.rTap_ohm + tap.rGS_ohm);
       const vSwNom_V = ctx.iNom_A * rdsOnNominal_ohm(dev, vgNom);
       const pCond = conductionLossMosfet_W(ctx.iMax_A, r, op.dutyMax);
-      const pSw = switchingLoss_W(ctx.vMax_V, ctx.iMax_A, t.tOn_s, t.tOff_s, op.fMax_Hz, ctx.switching);
+      const pSw = switchingLoss_W(switchedVoltage_V(ctx, ctx.vMax_V), ctx.iMax_A, t.tOn_s, t.tOff_s, op.fMax_Hz, ctx.switching);
       const problems = [];
       if (vgMin < vNeed) problems.push(problem("chain", "/parts/Q_POWER", "gate-drive-low", "warning", `The gate reaches only ${vgMin.toFixed(2)} V at minimum supply, below the ${vNeed} V at which R_DS(on) is specified; R_DS(on) is estimated higher.`, { limit: vNeed, actual: vgMin, unit: "V" }));
       return {
@@ -78,6 +79,7 @@ export function planMosfetLogic(ctx: Ctx): ChainPlan {
         checks: [checkStress("Q_POWER", "vgs", vgMax, dev.vgs_max_V, "V", pol.mosfet.vgs, pol.marginal_above)],
         losses: [{ role: "Q_POWER", dev, family: "mosfet", pCond_W: pCond, pSw_W: pSw, p_W: pCond + pSw, isPower: true, tNom_s: { on: tNom.tOn_s, off: tNom.tOff_s } }],
         figures: [
+          figure("rds_on_hot", `R_DS(on), hot, at the gate voltage reached (${vgMin.toFixed(2)} V)`, r, "Ω", "chain", "R_DS(on),max(V_GS,min) × hot factor (the value the conduction loss uses)", SRC.TYPICAL_MEMORY),
           figure("gate_voltage_min", "Gate voltage, worst case low", vgMin, "V", "chain", "V_GS = V_C,high · R_GS/(R_G + R_GS), min supply, tolerances", SRC.DERIVED, [vgMin, vgMax]),
           figure("switch_t_on", "Switch turn-on transition", t.tOn_s, "s", "chain", "t_on = Q_G·R_src/(V_GS − V_plateau)", SRC.COMMON),
           figure("switch_t_off", "Switch turn-off transition", t.tOff_s, "s", "chain", "t_off = Q_G·R_sink/V_plateau", SRC.COMMON),

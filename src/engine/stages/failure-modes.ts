@@ -1,0 +1,96 @@
+/**
+ * What single faults do to each chain, and the cautions that follow (common practice of a design
+ * review; each statement follows from the chain's topology in docs/topologies.md):
+ *  - a lifted potentiometer wiper (worn or dirty track): both timing bases lose their feed, both
+ *    timing transistors turn off and both collectors rise to the rail, so the chain input sees
+ *    "high": a non-inverting chain latches the load fully on, the inverting chain turns it off;
+ *  - an open input resistor (tap resistor or gate feed): where a bleed or pull-down holds the input
+ *    low the load turns off; the inverting chain's driver lets its follower drive the gate on;
+ *  - a shorted power switch (the usual end of an overstressed transistor): the load runs fully on at
+ *    every control setting, and the fuse, sized for the load's own current, does not open.
+ * Also the live TO-220 tab (the collector or drain is the switched node) and the case temperature
+ * (hot-surface caution above 60 °C, common practice for touchable surfaces).
+ */
+import type { Part } from "../../model/circuit.ts";
+import type { BjtClass, MosfetClass } from "../../model/device.ts";
+import type { Figure } from "../../model/figure.ts";
+import { figure } from "../shared/figures.ts";
+import { SRC } from "../shared/sources.ts";
+import type { Ctx } from "./context.ts";
+import type { DeviceLoss } from "./chains/types.ts";
+
+/** Surfaces above this case temperature get a burn caution (common practice for touchable parts). */
+export const HOT_SURFACE_C = 60;
+const TAB_PACKAGES = new Set(["TO-220", "TO-126", "TO-247", "TO-3"]);
+
+export interface FailureReview {
+  cautions: string[];
+  /** Notes to add to parts (by role), e.g. the insulator kit on a live tab. */
+  partNotes: Map<string, string>;
+  figures: Figure[];
+  /** Some device's case runs above HOT_SURFACE_C at the worst case. */
+  hot: boolean;
+}
+
+const LOAD_WORD: Record<string, string> = { resistive: "heater", lamp: "lamp", led: "LED strip", motor: "motor", solenoid: "valve coil" };
+
+function wiperFault(ctx: Ctx): string {
+  const load = LOAD_WORD[ctx.spec.load_kind] ?? "load";
+  if (ctx.spec.chain === "mosfet-driver") {
+    return `Lifted potentiometer wiper: both timing transistors lose their base feed and turn off; this chain inverts, so the ${load} turns off (fails safe).`;
+  }
+  return `Lifted potentiometer wiper (worn or dirty track): both timing transistors lose their base feed and turn off, both collectors rise to the rail, and this non-inverting chain holds the ${load} fully on at every setting. Use a sealed (cermet) potentiometer, and keep an independent way to switch the ${load} off${ctx.spec.load_kind === "resistive" ? " (and the heater's over-temperature cut-out)" : ""}.`;
+}
+
+function inputFault(ctx: Ctx): string {
+  switch (ctx.spec.chain) {
+    case "bjt-single":
+      return "Open tap resistor: RBE holds the power transistor's base low, the load stays off (fails safe).";
+    case "darlington-2":
+    case "darlington-3":
+      return "Open tap resistor: the first base floats; RBE bleeds the last base, so only leakage flows and the load stays off (fails safe).";
+    case "bjt-driver-pnp":
+      return "Open tap resistor or open RB_P: the PNP loses its base current and RPU holds it off (fails safe). An open RPU leaves the PNP base held only by the driver's leakage: the load may creep on when hot.";
+    case "mosfet-logic":
+      return "Open gate feed resistor: RGS holds the gate low, the load stays off (fails safe). An open RGS leaves the gate charged when the tap falls slowly: check it at commissioning.";
+    case "mosfet-driver":
+      return "Open tap resistor: the NPN driver turns off, its pull-up drives the follower and the gate high, and the load runs fully on (this chain inverts). An open RG lets RGS hold the gate low (off).";
+  }
+}
+
+function shortFault(ctx: Ctx): string {
+  const load = LOAD_WORD[ctx.spec.load_kind] ?? "load";
+  const extra = ctx.spec.load_kind === "resistive" ? " The heater's independent over-temperature cut-out is what limits it then."
+    : ctx.load.inductive ? " An open freewheel diode is the usual cause: the kick-back breaks the switch down." : "";
+  return `Shorted power switch (how an overstressed transistor usually fails): the ${load} runs fully on whatever the control says, and the fuse, sized for the ${load}'s own current, does not open; switch the supply off to stop it.${extra}`;
+}
+
+export function reviewFailures(ctx: Ctx, parts: Part[], losses: DeviceLoss[], perRole: Map<string, { p_W: number; tj_C: number }>): FailureReview {
+  const cautions = [wiperFault(ctx), inputFault(ctx), shortFault(ctx)];
+  const partNotes = new Map<string, string>();
+  const figures: Figure[] = [];
+  let hot = false;
+  const powerRole = losses.find((l) => l.isPower)?.role;
+  const power = parts.find((p) => p.role === powerRole);
+  const pkg = power?.package ?? "";
+  if (power !== undefined && TAB_PACKAGES.has(pkg)) {
+    const node = power.kind === "nmos" ? "drain" : "collector";
+    partNotes.set(power.role, `${pkg} tab is the ${node} (switched node, live): mount with an insulator kit (pad and insulating bush)`);
+    cautions.push(`Live tab: the ${pkg} tab of ${power.ref || power.role} is its ${node}, the switched node at up to ${ctx.vMax_V.toFixed(1)} V. Mount it on a grounded heatsink or chassis only with an insulator kit (thermal pad and insulating bush), and keep the tab from touching other metal.`);
+  }
+  for (const l of losses) {
+    const th = perRole.get(l.role);
+    if (th === undefined) continue;
+    // Free-standing: the case sits P·θ_JC below the junction (θ_JC when the class gives it, else the
+    // case is taken at the junction temperature, the cautious choice; JESD51 definitions).
+    const rJc = (l.dev as BjtClass | MosfetClass).rth_jc_KperW ?? 0;
+    const tCase = Math.min(th.tj_C, th.tj_C - th.p_W * rJc);
+    if (l.isPower) figures.push(figure("case_temperature", "Power device case temperature, free-standing (max ambient)", tCase, "°C", "thermal", "T_C = T_J − P·R_θJC (T_J free-standing)", SRC.JESD51));
+    if (tCase > HOT_SURFACE_C) {
+      hot = true;
+      const ref = parts.find((p) => p.role === l.role)?.ref || l.role;
+      cautions.push(`Hot surface: ${ref}'s case reaches about ${tCase.toFixed(0)} °C at ${ctx.taMax_C} °C ambient without a heatsink (above ${HOT_SURFACE_C} °C: burns on touch). Keep it out of reach, away from plastics and plant material${l.isPower ? ", or fit a heatsink to run it cooler" : ""}.`);
+    }
+  }
+  return { cautions, partNotes, figures, hot };
+}
