@@ -38,6 +38,8 @@ export interface SpecOpts {
   devices?: DesignRecord["devices"];
   /** Replace resolved roles with local classes (e.g. a class not yet in the library). */
   override?: Partial<Record<DeviceRole, DeviceClass>>;
+  /** Coil data for a solenoid load (defaults: the valve bank's demo values). */
+  solenoid?: NonNullable<DesignRecord["solenoid"]>;
 }
 
 /**
@@ -80,5 +82,6 @@ export function makeSpec(o: SpecOpts): VariantSpec {
     targets, protection: { be_breakdown: o.be ?? "series-base-diode" },
     devices: { ...chooseDevices(rec, library(), o.supply_V, o.load_A), ...(o.override ?? {}) },
     policy: policy(),
+    ...(o.load_kind === "solenoid" ? { solenoid: o.solenoid ?? { tau_ms: 10, pull_in_ms: 30, pull_in_share: 0.75, hold_share: 0.4 } } : {}),
   };
 }

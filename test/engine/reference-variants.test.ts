@@ -195,3 +195,52 @@ describe("R5 — 12 V 1 A bjt-driver-pnp, lamp (1 kHz)", () => {
     expect(part(s, "LOAD").pins).toEqual({ a: "ls", b: "0" });
   });
 });
+
+describe("R6 — 24 V 1 A mosfet-logic, solenoid valve coil (2 kHz, 30–85 %, ±15 %)", () => {
+  const coil = { tau_ms: 10, pull_in_ms: 30, pull_in_share: 0.75, hold_share: 0.4 };
+  const s = size({ supply_V: 24, load_A: 1, chain: "mosfet-logic", load_kind: "solenoid", pwm_Hz: 2000, duty: [0.3, 0.85], ambient_C: [0, 45], supply_tolerance: 0.15, solenoid: coil });
+  const vSw = fig(s, "switch_on_voltage");
+  // Freewheel diode at the rated 1 A, 27 °C: V_F = V_F,class − 0.1 V/decade below its rated current
+  // − 2 mV/K above 25 °C (the class line; common practice).
+  const fw = s.spec.devices.freewheel_diode as { vf_V: number; vf_at_A: number };
+  const vF = fw.vf_V - 0.1 * Math.max(0, Math.log10(fw.vf_at_A / 1)) - 0.002 * 2;
+  it("coil: R = 24 V / 1 A = 24 Ω, L = 24 Ω × 10 ms = 0.24 H, no back-EMF", () => {
+    expectClose(fig(s, "coil_resistance"), 24, 1e-12, "Ohm's law at the rated current (common practice)");
+    expectClose(fig(s, "coil_inductance"), 0.24, 1e-12, "L = R·τ (τ from the record)");
+    expect(part(s, "LOAD").spice?.vf_V).toBe(0);
+    expect(part(s, "LOAD").kind).toBe("solenoid");
+  });
+  it("pull-in: 0.75 A needs t = −τ·ln(1 − I·R/(V_min − V_sw)) + 30 ms full on at 20.4 V", () => {
+    // V_min = 24 × 0.85 = 20.4 V; V_sw ≈ 0.034 V (1 A × R_DS(on) at the gate reached) →
+    // I_final = 20.366/24 = 0.8486 A; 0.75/0.8486 = 0.8838; ln(1 − 0.8838) = ln 0.1162 = −2.152
+    // → 21.5 ms, + 30 ms = 51.5 ms (first-order R–L step response; Hayt & Kemmerly ch. 8, from memory).
+    const iFinal = (20.4 - vSw) / 24;
+    expectClose(fig(s, "pull_in_full_on_time"), -0.01 * Math.log(1 - 0.75 / iFinal) + 0.03, 1e-9);
+    expectClose(fig(s, "pull_in_full_on_time"), 0.0515, 2e-3, "hand value 51.5 ms");
+    expectClose(fig(s, "pull_in_current"), 0.75, 1e-12);
+  });
+  it("hold: I_hold = 0.4 × 0.75 = 0.30 A; D = (I·R + V_F)/(V_min − V_sw + V_F) ≈ 0.368", () => {
+    // (0.30 × 24 + 0.473)/(20.4 − 0.034 + 0.473) = 7.673/20.839 = 0.3682 (average winding balance
+    // with the freewheel diode; Mohan, Undeland, Robbins, 3rd ed., ch. 7, from memory).
+    expectClose(fig(s, "hold_current"), 0.3, 1e-12, "hold ≈ 30–50 % of pull-in (common practice)");
+    expectClose(fig(s, "hold_duty"), (0.3 * 24 + vF) / (20.4 - vSw + vF), 1e-9);
+    expectClose(fig(s, "hold_duty"), 0.368, 3e-3, "hand value");
+    // At that duty and the nominal 24 V: I = [D·(24 − V_sw) − (1 − D)·V_F]/24 ≈ (8.824 − 0.299)/24 = 0.355 A.
+    const d = fig(s, "hold_duty");
+    expectClose(fig(s, "hold_current_nominal"), (d * (24 - vSw) - (1 - d) * vF) / 24, 1e-9);
+    expectClose(fig(s, "hold_current_nominal"), 0.355, 5e-3, "hand value");
+  });
+  it("ripple at 2 kHz ≪ 1/τ: ΔI ≈ V'·D(1 − D)/(L·f) = 24.44 × 0.368 × 0.632/(0.24 × 2000) ≈ 11.8 mA", () => {
+    // Buck-converter ripple for τ ≫ T (Mohan et al., ch. 7, from memory); the engine's exact
+    // piecewise-exponential form differs from it by < 1 % at T/τ = 0.05 (derived).
+    expectClose(fig(s, "hold_ripple"), 11.8e-3, 0.02, "hand value, small-ripple limit");
+  });
+  it("the coil's kick-back is clamped: a freewheel diode across it, rated for the coil current", () => {
+    expect(part(s, "D_FREEWHEEL").pins).toEqual({ anode: "sw", cathode: "vbus" });
+    expect(s.cautions.some((c) => /kick-back/.test(c))).toBe(true);
+  });
+  it("the PWM at its top end gives < 0.75 A at 20.4 V, so the page warns that pull-in needs full on", () => {
+    expect(fig(s, "pull_in_pwm_top_current")).toBeLessThan(0.75);
+    expect(s.problems.map((p) => p.rule)).toContain("solenoid-pull-in-drive");
+  });
+});

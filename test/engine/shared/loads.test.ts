@@ -42,7 +42,7 @@ describe("equivalent load models at rated current", () => {
 
   it("every load kind yields finite, non-negative values and a note", () => {
     for (const k of LOAD_KINDS) {
-      const m = loadModel(k, 24, 3);
+      const m = loadModel(k, 24, 3, k === "solenoid" ? { tau_s: 0.01 } : undefined);
       for (const v of [m.r_ohm, m.l_H, m.vf_V, m.peak_A]) expect(Number.isFinite(v) && v >= 0).toBe(true);
       expect(m.note.length).toBeGreaterThan(10);
     }
