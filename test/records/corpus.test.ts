@@ -57,6 +57,8 @@ const CASES: Case[] = [
   { file: "duty-reversed", pointer: "/targets/duty_min", at: '"duty_min"', says: /duty_min 0\.8 is not below duty_max 0\.2/ },
   { file: "duty-equal", pointer: "/targets/duty_min", at: '"duty_min"', says: /duty_min 0\.5 is not below duty_max 0\.5/ },
   { file: "ambient-reversed", pointer: "/targets/ambient_C/0", at: "      40,", says: /not ascending/ },
+  { file: "solenoid-without-coil", pointer: "/axes/load_kind/1", at: '"solenoid"', says: /needs the coil's data/ },
+  { file: "solenoid-share-high", pointer: "/solenoid/hold_share", at: "0.95", says: /0\.9|maximum|must be/ },
   { file: "id-not-kebab", pointer: "/id", at: '"Id Not Kebab"', says: /does not have the required form/ },
   { file: "id-mismatch", pointer: "/id", at: '"some-other-design"', says: /does not match the file name id-mismatch\.json/ },
   { file: "zz-twin", pointer: "/id", at: '"twin-design"', says: /design id "twin-design" is already used in designs\/twin-design\.json/, extra: { "extra/twin-design.json": "designs/twin-design.json" } },

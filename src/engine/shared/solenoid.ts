@@ -47,15 +47,14 @@ export function holdDuty(v_V: number, vSw_V: number, vFw_V: number, i_A: number,
 
 /**
  * Peak-to-peak ripple of the coil current at duty D and frequency f, steady state, piecewise
- * exponential: ΔI = (V'/R)·(1 − e^(−DT/τ))·(1 − e^(−(1−D)T/τ)) / (1 − e^(−T/τ)), V' = V − V_sw + V_F
+ * exponential, with V' = V − V_sw + V_F passed as `vEff_V`: ΔI = (V'/R)·(1 − e^(−DT/τ))·(1 − e^(−(1−D)T/τ)) / (1 − e^(−T/τ)), V' = V − V_sw + V_F
  * (derived from the step response above; for τ ≫ T it tends to V'·D·(1 − D)/(L·f), the buck-converter
  * ripple of Mohan et al., ch. 7).
  */
-export function coilRipple_A(v_V: number, vSw_V: number, vFw_V: number, duty: number, r_ohm: number, tau_s: number, f_Hz: number): number {
+export function coilRipple_A(vEff_V: number, duty: number, r_ohm: number, tau_s: number, f_Hz: number): number {
   check(duty >= 0 && duty <= 1, "duty must be within 0…1", duty);
   check(f_Hz > 0, "f_Hz must be > 0", f_Hz);
   check(tau_s > 0, "tau_s must be > 0", tau_s);
   const T = 1 / f_Hz;
-  const vEff = v_V - vSw_V + vFw_V;
-  return ((vEff / r_ohm) * -Math.expm1((-duty * T) / tau_s) * -Math.expm1((-(1 - duty) * T) / tau_s)) / -Math.expm1(-T / tau_s);
+  return ((vEff_V / r_ohm) * -Math.expm1((-duty * T) / tau_s) * -Math.expm1((-(1 - duty) * T) / tau_s)) / -Math.expm1(-T / tau_s);
 }

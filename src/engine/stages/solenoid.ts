@@ -7,7 +7,7 @@
  */
 import type { DiodeClass } from "../../model/device.ts";
 import type { Figure } from "../../model/figure.ts";
-import type { DesignProblem } from "../../model/problem.ts";
+import { type DesignProblem, EngineMisuseError } from "../../model/problem.ts";
 import { figure, problem } from "../shared/figures.ts";
 import { coilAverage_A, coilRipple_A, coilRiseTime_s, holdDuty } from "../shared/solenoid.ts";
 import { SRC } from "../shared/sources.ts";
@@ -27,7 +27,7 @@ const A = (x: number): string => `${x.toPrecision(3)} A`;
 
 export function solenoidScheme(ctx: Ctx, vSw_V: number, dutyOn: number, reach: { lo: number; hi: number }, fw: DiodeClass | undefined): SolenoidScheme {
   const sol = ctx.spec.solenoid;
-  if (sol === undefined) throw new Error("solenoidScheme: the variant carries no solenoid data");
+  if (sol === undefined) throw new EngineMisuseError("solenoidScheme: the variant carries no solenoid data (record block `solenoid`)");
   const r = ctx.load.r_ohm;
   const tau_s = ctx.load.l_H / r;
   const vf = fw === undefined ? 0 : Math.max(0, diodeVf_V(fw, ctx.iNom_A, 27));
@@ -43,7 +43,7 @@ export function solenoidScheme(ctx: Ctx, vSw_V: number, dutyOn: number, reach: {
   const dSet = Math.min(1, Math.max(reach.lo, dHold));
   const iHoldNom = coilAverage_A(ctx.vNom_V, vSw_V, vf, dSet, r);
   const iHoldMax = coilAverage_A(ctx.vMax_V, vSw_V, vf, dSet, r);
-  const ripple = coilRipple_A(ctx.vNom_V, vSw_V, vf, dSet, r, tau_s, ctx.f_Hz);
+  const ripple = coilRipple_A(ctx.vNom_V - vSw_V + vf, dSet, r, tau_s, ctx.f_Hz);
   const iOn_A = coilAverage_A(ctx.vNom_V, vSw_V, vf, dutyOn, r);
   // What the PWM alone gives at its top end, lowest supply: a start at control 1 pulls the
   // armature in only if this reaches I_pull.

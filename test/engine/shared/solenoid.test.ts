@@ -19,9 +19,9 @@ describe("solenoid coil relations", () => {
     expectClose(coilAverage_A(24, 0, 0, 0.5, 24), 0.5, 1e-12);
   });
   it("ripple tends to V·D(1 − D)/(L·f) for τ ≫ T (buck ripple, Mohan et al. ch. 7, from memory) and is 0 at D = 0 or 1", () => {
-    const exact = coilRipple_A(24, 0, 0, 0.5, 24, 1, 2000);
+    const exact = coilRipple_A(24, 0.5, 24, 1, 2000);
     expectClose(exact, (24 * 0.25) / (24 * 2000), 1e-3);
-    expect(coilRipple_A(24, 0, 0, 1, 24, 0.01, 2000)).toBeCloseTo(0, 12);
+    expect(coilRipple_A(24, 1, 24, 0.01, 2000)).toBeCloseTo(0, 12);
     // Simulated by stepping the exact exponential segments to steady state (derived check).
     const [V, R, tau, f, D] = [24, 24, 0.002, 1000, 0.3];
     let i = 0;
@@ -32,6 +32,6 @@ describe("solenoid coil relations", () => {
       lo = hi * Math.exp(-((1 - D) / f) / tau);
       i = lo;
     }
-    expectClose(coilRipple_A(V, 0, 0, D, R, tau, f), hi - lo, 1e-9);
+    expectClose(coilRipple_A(V, D, R, tau, f), hi - lo, 1e-9);
   });
 });
