@@ -10,6 +10,7 @@ import { listJson, readRecord } from "./files.ts";
 import { sortIssues, uniqueIssues, type RecordIssue } from "./issue.ts";
 import type { ParsedFile } from "./parse.ts";
 import { loadSchemas } from "./schemas.ts";
+import { checkSourceKeys } from "./source-keys.ts";
 import { validateParsed } from "./validate.ts";
 
 export type LoadResult =
@@ -33,7 +34,9 @@ export async function loadProject(root: string, options: LoadOptions = {}): Prom
     const r = await readRecord(root, file);
     if (!r.ok) { for (const i of capIssues(r.issues)) issues.push(i); return null; }
     if (!validate) return null; // schema problem already reported
-    const found = validateParsed(r.parsed, validate);
+    // Source keys only once the schema holds: a key of the wrong shape is reported there.
+    const valid = validateParsed(r.parsed, validate);
+    const found = valid.length === 0 && validate !== vDesign ? checkSourceKeys(r.parsed) : valid;
     for (const i of capIssues(found)) issues.push(i);
     return found.length === 0 ? r.parsed : null;
   };
