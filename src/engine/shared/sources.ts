@@ -524,7 +524,7 @@ export const SOURCES = {
   },
   derived: {
     kind: "this project",
-    short: "derived (docs/method.md)",
+    short: "derived here",
     title: "Derived in this project's method from the sources above",
     edition: "—",
     where: "docs/method.md",
