@@ -44,7 +44,8 @@ export const PART_KINDS = [
 ] as const;
 export type PartKind = (typeof PART_KINDS)[number];
 
-/** Reference-designator letter codes (the usual ones: IEEE Std 315A / IEC 81346 practice). */
+/** Reference-designator letter codes (the usual ones: IEEE Std 315A / IEC 81346 practice,
+ * [src:ieee-315] [src:iec-81346]). */
 export const REF_PREFIX = {
   resistor: "R",
   potentiometer: "RV",

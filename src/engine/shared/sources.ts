@@ -248,11 +248,11 @@ export const SOURCES = {
     note:
       "Charge control gives the storage time of a saturated transistor as t_s = τ_s·ln((I_B1 + I_B2)/(I_C/β + " +
       "I_B2)), with I_B1 the forward and I_B2 the reverse base current; a data-sheet t_s taken with " +
-      "I_B2 = I_B1 and I_C/β ≪ I_B1 is τ_s·ln 2. A silicon junction starts conducting (cut-in, V_γ) about " +
-      "0.1 V below its full-conduction V_BE.",
+      "I_B2 = I_B1 and I_C/β ≪ I_B1 is τ_s·ln 2. The book's table of silicon junction voltages puts the " +
+      "cut-in V_γ, below which a transistor conducts too little to matter, well under the active V_BE.",
     values: [
       { item: "storage time", value: "t_s = τ_s·ln((I_B1 + I_B2)/(I_C/β + I_B2))", sureness: "from-memory" },
-      { item: "cut-in of silicon", value: "V_γ ≈ V_BE(on) − 0.1 V", sureness: "from-memory" },
+      { item: "silicon junction voltages", value: "V_γ ≈ 0.5 V, V_BE(active) ≈ 0.7 V, V_BE(sat) ≈ 0.8 V", sureness: "from-memory" },
     ],
   },
   "rashid-4e-ex4-2": {

@@ -47,7 +47,7 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
   const t = ctx.spec.targets;
   const problems: DesignProblem[] = [...tap.problems];
   // B–E reverse swing of an unprotected core: base driven to V_BE − V_swing, V_swing ≈ V_cc − V_CE(sat)
-  // (SOURCES.md; common practice). Worst at V_cc,max and hot (lowest V_BE).
+  // [src:millman-taub-1965] [src:common-practice]. Worst at V_cc,max and hot (lowest V_BE).
   const vebReverse_V = ctx.vMax_V - vceSat(q, Math.min(q.ic_max_A, ctx.vMax_V / tap.rC_ohm)) - vbeOn(q, ctx.taMax_C);
   const vebAllowed = q.vebo_V * pol.bjt.voltage.factor;
   let diodes = false;

@@ -1,6 +1,6 @@
 /**
  * darlington-2 / darlington-3: emitter-follower NPN stack, low side (docs/topologies.md). It
- * cannot saturate: V_sw = V_CE(sat),1 + Σ V_BE,i (i ≥ 2) (ENGINEERING.md §3, common practice);
+ * cannot saturate: V_sw = V_CE(sat),1 + Σ V_BE,i (i ≥ 2) [src:common-practice];
  * that voltage × current is heat. Bleed RBE on the last base. Devices: 2-stage = driver_npn →
  * power_npn; 3-stage = timing_npn → driver_npn → power_npn (each stage carries ≈ 1/β of the next).
  */

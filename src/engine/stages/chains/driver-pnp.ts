@@ -41,7 +41,7 @@ export function planDriverPnp(ctx: Ctx): ChainPlan {
   const iRbpMin = (ctx.vMin_V - vEB - vceD) / (rBP * (1 + ctx.rTol));
   const betaD = hfeMin(qd, iRbpMax, ctx.taMin_C);
   // The driver is a small-signal switch carrying only the PNP's base current: overdrive k = 2 at
-  // its minimum gain (ENGINEERING §3, R_B ≤ β_min·R_C/k) saturates it without loading the timing
+  // its minimum gain (R_B ≤ β_min·R_C/k [src:common-practice]) saturates it without loading the timing
   // core with a forced-β-10 base current; forced β 10 is kept for the power stage.
   const vClamp = vbeSat(qd, iRbpMax) + (vbeCold(qd, ctx) - qd.vbe_on_V);
   // The driver's base current at each supply (RB_P's current grows with it), referred to V_cc,min.
