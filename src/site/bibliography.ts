@@ -69,7 +69,7 @@ const INTRO = `# Sources
 
 Every published source, registration and fact of the trade that a number in pulsewright rests on,
 each under a stable key. Engine figures, device classes (\`designs/devices/*.json\`, field
-\`sources\`), the derating policy (\`designs/policies/*.json\`) and comments (\`[src:key]\`) cite
+\`sources\`), the derating policy (\`designs/policies/*.json\`) and comments (\`[src:<key>]\`) cite
 these keys; \`pulsewright check\` refuses a key that is not listed here, and every page of the
 built catalogue links its citations to the one sources page made from the same list.
 

@@ -2,8 +2,8 @@
  * The bibliography: every published source, handbook, registration and "fact of the trade" that a
  * number in this project rests on, under one stable key each. This is the only list. Engine figures
  * cite a key (`cite("iec-60063")`), device classes and the derating policy name a key in their
- * `source` fields (checked by `pulsewright check`), comments cite a key as `[src:key]`, the docs link
- * to `docs/sources.md#key`, and pages link to the site's one sources page. docs/sources.md and that
+ * `source` fields (checked by `pulsewright check`), comments cite a key as `[src:<key>]`, the docs link
+ * to `docs/sources.md#<key>`, and pages link to the site's one sources page. docs/sources.md and that
  * page are both generated from this list (`npm run sources`), so they cannot disagree with it.
  *
  * How sure we are is said per entry and per value used: "seen" (read in a copy or a reproduction),
