@@ -3,6 +3,7 @@ import { readFile } from "node:fs/promises";
 import { join } from "node:path";
 import { afterAll, describe, expect, it } from "vitest";
 import { runCheck } from "../../src/cli/check.ts";
+import { CORPUS } from "../fixtures/hostile/cases.ts";
 import { FIXTURES, cleanProjects, makeProject } from "./project.ts";
 
 afterAll(cleanProjects);
@@ -24,7 +25,7 @@ describe("runCheck", () => {
   });
 
   it("bad records: exit 1, one line per issue, then the count", async () => {
-    const files = await Promise.all(["zero-supply", "duty-reversed"].map(async (n) => ({ path: `designs/${n}.json`, content: await readFile(join(FIXTURES, "bad", `${n}.json`)) })));
+    const files = await Promise.all(["zero-supply", "duty-reversed"].map(async (n) => ({ path: `designs/${n}.json`, content: await readFile(join(CORPUS, `${n}.json`)) })));
     const io = capture();
     expect(await runCheck(await makeProject(files), io)).toBe(1);
     expect(io.err.length).toBe(3);
