@@ -11,6 +11,7 @@ import { mkdir, readFile, rm, symlink, writeFile } from "node:fs/promises";
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { runCheck } from "../../src/cli/check.ts";
+import { SITE_MARKER } from "../../src/cli/out-guard.ts";
 import { CASES, CORPUS, type HostileCase } from "../fixtures/hostile/cases.ts";
 import { buildArgs, cleanRoots, fingerprint, makeRoot, names, runCli, stackLines, type CliRun } from "./cli.ts";
 
@@ -80,6 +81,7 @@ describe("the hostile-record corpus", () => {
     // The "previous" site: a marker file that must survive the refused build byte for byte.
     await mkdir(path.join(root, "_site", "variants"), { recursive: true });
     await writeFile(path.join(root, "_site", "marker.txt"), "previous site, built earlier\n");
+    await writeFile(path.join(root, "_site", SITE_MARKER), "made by an earlier build\n");
     const before = await fingerprint(path.join(root, "_site"));
     const rootBefore = await names(root);
     cli = await runCli(root, buildArgs(root));
