@@ -22,24 +22,25 @@ function capture() {
 
 describe("source keys in device classes and policies", () => {
   it("a mistyped key in a device class: file, line, pointer, and the key it was probably meant to be", async () => {
-    const text = [
-      "{",
-      '  "id": "npn-typo", "family": "npn", "vceo_V": 40, "ic_max_A": 0.2,',
-      '  "sources": { "vceo_V": { "source": "jedec-registerd", "confidence": "registered" } }',
-      "}",
-    ].join("\n");
-    const root = await makeProject([await valid(), { path: "designs/devices/npn-typo.json", content: text }]);
+    // A real class of the library with one key mistyped (its first cited source).
+    const real = await readFile(join(REPO, "designs/devices/npn-small-signal.json"), "utf8");
+    const text = real.replace('"source": "jedec-registered"', '"source": "jedec-registerd"');
+    expect(text).not.toBe(real);
+    const root = await makeProject([await valid(), { path: "designs/devices/npn-small-signal.json", content: text }]);
     const io = capture();
     expect(await runCheck(root, io)).toBe(1);
     const line = lineOf(text, '"source": "jedec-registerd"');
     expect(io.err[0]).toMatch(
-      new RegExp(`^designs/devices/npn-typo\\.json:${line}:\\d+  /sources/vceo_V/source  source "jedec-registerd" is not in the bibliography — did you mean "jedec-registered"\\?`),
+      new RegExp(
+        `^designs/devices/npn-small-signal\\.json:${line}:\\d+  /sources/\\w+/source  ` +
+          `source "jedec-registerd" is not in the bibliography — did you mean "jedec-registered"\\?`,
+      ),
     );
   });
 
   it("an unknown key in a derating rule is refused; a listed key passes", async () => {
-    const policy = (key: string) =>
-      JSON.stringify({ id: "p", title: "P", document: "d", bjt: { power: { factor: 0.5, source: key, confidence: "from-memory" } } }, null, 2);
+    const real = JSON.parse(await readFile(join(REPO, "designs/policies/default.json"), "utf8"));
+    const policy = (key: string) => JSON.stringify({ ...real, bjt: { ...real.bjt, power: { ...real.bjt.power, source: key } } }, null, 2);
     const bad = await makeProject([await valid(), { path: "designs/policies/default.json", content: policy("a-handbook-nobody-has") }]);
     const r = await loadProject(bad);
     expect(r.ok).toBe(false);
