@@ -77,8 +77,8 @@ describe.skipIf(!hasNgspice)("engine relation = simulated card (ngspice, DC oper
     expectClose(0.01 / -lastRow(out)[0]!, rdsOnNominal_ohm(m, vgs_V), 5e-3, `R_DS(on) at ${vgs_V} V`);
   });
 
-  // Each class's card at a current past its last gain point (×2), where the gain law falls on.
-  const bjtCases = LIB_BJTS.map((d) => ({ id: d.id, d, ic_A: 2 * d.hfe[d.hfe.length - 1]!.ic_A }));
+  // Each class's card between its gain points (log midpoints), where the law interpolates log-log.
+  const bjtCases = LIB_BJTS.flatMap((d) => d.hfe.slice(1).map((h, k) => ({ id: d.id, d, ic_A: Math.sqrt(h.ic_A * d.hfe[k]!.ic_A) })));
   it.each(bjtCases)("BJT $id, card for $ic_A A: forward gain I_C/I_B = hfeNominal(min) there", ({ d, ic_A }) => {
     // Collector held where the intrinsic B–C junction sits at 0 V (V_C = V_B + I_C·RC − I_B·RB with
     // the card's RB, RC): no Early factor, no reverse current, so Gummel-Poon gives I_C = BF·I_B.

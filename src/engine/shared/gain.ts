@@ -28,8 +28,8 @@ function checkTemp(dev: BjtClass, tj_C: number, fn: string): void {
  * injection, the Webster effect: β ∝ 1/I_C in the limit — Sze, Physics of Semiconductor Devices,
  * 2nd ed., §3.3, from memory); holding the last value would claim a gain the device class data do
  * not support. The netlist's Gummel-Poon card has no knee (IKF) and so a flat BF: it takes BF from
- * this law at the highest current its part carries (src/render/spice-models.ts), so the card
- * simulates the same gain the engine sizes with at that current, above the last point as below it.
+ * this law at the highest current its parts carry, but no higher than the last point — a known,
+ * measured divergence above it (src/render/spice-models.ts and docs/spice-models.md say why).
  */
 export function hfeNominal(dev: BjtClass, ic_A: number, which: "min" | "typ" = "min"): number {
   checkCurrent(dev, ic_A, "hfeNominal");
