@@ -12,7 +12,7 @@
 import type { BjtClass, DiodeClass, MosfetClass } from "../../model/device.ts";
 import { hfeMin, vbeOn, vceSat } from "../shared/gain.ts";
 import { INJECTION_MAX } from "./astable.ts";
-import { diodeCj_F } from "../shared/junction.ts";
+import { diodeCj_F } from "../shared/diode.ts";
 import type { Part } from "../../model/circuit.ts";
 import type { DesignProblem } from "../../model/problem.ts";
 import type { StressCheck } from "../../model/derating.ts";

@@ -21,6 +21,7 @@ import { INJECTION_MAX } from "./astable.ts";
 import type { TapDesign } from "./tap.ts";
 import type { ChainPlan } from "./chains/types.ts";
 import { timingParts } from "./timing-parts.ts";
+import { NOMINAL_TEMP_C } from "../shared/temperature.ts";
 
 export interface TimingResult {
   search: Search;
@@ -60,7 +61,7 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
   const delays = plan.delays(tap.info);
   const base = { rC_ohm: tap.rC_ohm, diodes, tapLoad: tap.load, inverting: plan.need.inverting, vThTap_V: tap.vThTap_V, delayOn_s: delays.on_s, delayOff_s: delays.off_s, ...(tap.preLinear_ohm !== undefined ? { preLinear_ohm: tap.preLinear_ohm } : {}) };
   // Skew from loading the tapped collector only (full recovery, equal R_B and C): the two ln factors differ.
-  const vOnNom = vbeOn(q, 25) + (diodes ? diodeVf_V(db, ctx.vNom_V / 10_000, 25) : 0);
+  const vOnNom = vbeOn(q, NOMINAL_TEMP_C) + (diodes ? diodeVf_V(db, ctx.vNom_V / 10_000, NOMINAL_TEMP_C) : 0);
   const vSat = vceSat(q, ctx.vNom_V / tap.rC_ohm);
   const skewOf = (bal?: CollectorLoad): number => {
     const c = evaluateCore({ vcc_V: ctx.vNom_V, vOn_V: vOnNom, vSat_V: vSat, rCA_ohm: tap.rC_ohm, rCB_ohm: tap.rC_ohm, cA_F: 1e-9, cB_F: 1e-9, rBA_ohm: 1e7, rBB_ohm: 1e7, loadA: tap.load, ...(bal ? { loadB: bal } : {}) });
@@ -72,7 +73,7 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
   if (skewRaw > t.duty_skew_max) {
     // Match the untapped collector's high level to the tapped one's (Thevenin).
     const vHigh = (ctx.vNom_V * tap.load.r_ohm + tap.load.v_V * tap.rC_ohm) / (tap.rC_ohm + tap.load.r_ohm);
-    const vF = diodeVf_V(db, (ctx.vNom_V - vHigh) / tap.rC_ohm, 25);
+    const vF = diodeVf_V(db, (ctx.vNom_V - vHigh) / tap.rC_ohm, NOMINAL_TEMP_C);
     balanceDiode = tap.load.v_V > 0 && vHigh > vF;
     const vL = balanceDiode ? vF : 0;
     const r = nearest((tap.rC_ohm * (vHigh - vL)) / (ctx.vNom_V - vHigh), "E24");
@@ -81,7 +82,7 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
   const search = searchCore(ctx, q, db, { ...base, ...(balance ? { balance } : {}) });
   const v = search.values;
   const w = search.worst;
-  const nominal = { vcc_V: ctx.vNom_V, t_C: 25, ...NOMINAL_K };
+  const nominal = { vcc_V: ctx.vNom_V, t_C: NOMINAL_TEMP_C, ...NOMINAL_K };
   const e0 = evalCore(v, q, db, nominal, 0);
   const e5 = evalCore(v, q, db, nominal, 0.5);
   const e1 = evalCore(v, q, db, nominal, 1);

@@ -13,6 +13,7 @@ import { resistor, transistor } from "../../../circuit/parts.ts";
 import { type Ctx, FORCED_BETA, OVERDRIVE_K } from "../context.ts";
 import { driveMargin, switchChecks, switchOffVoltage_V, vbeCold } from "./common.ts";
 import type { ChainPlan } from "./types.ts";
+import { NOMINAL_TEMP_C } from "../../shared/temperature.ts";
 
 /** Share of the base drive the bleed RBE takes at V_BE (≈ 10 %, common practice). */
 export const BLEED_SHARE = 0.1;
@@ -26,14 +27,14 @@ export function planBjtSingle(ctx: Ctx): ChainPlan {
   const forced = Math.min(FORCED_BETA, beta / OVERDRIVE_K);
   const iB_A = ctx.iMax_A / forced;
   const vClamp = vbeSat(dev, ctx.iMax_A) + (vbeCold(dev, ctx) - dev.vbe_on_V);
-  const rBE = nearest(vbeOn(dev, 25) / (BLEED_SHARE * iB_A), "E24");
+  const rBE = nearest(vbeOn(dev, NOMINAL_TEMP_C) / (BLEED_SHARE * iB_A), "E24");
   const iBleedMax = vClamp / (rBE * (1 - ctx.rTol));
   const vSwNom = vceSat(dev, ctx.iNom_A);
   const vSwMax = vceSat(dev, ctx.iMax_A);
   const rbe = resistor("chain", "RBE", rBE, { a: "qb", b: "0" }, resistorPower_W(vClamp, rBE * (1 - ctx.rTol), 1), pol, "turn-off bleed");
   const q = transistor("chain", "Q_POWER", dev, beta, { c: "sw", b: "qb", e: "0" }, { voltage_V: switchOffVoltage_V(ctx), current_A: ctx.iMax_A });
   return {
-    need: { kind: "base-current", i_A: iB_A + iBleedMax, vClamp_V: vClamp, vThreshold_V: vbeOn(dev, 25), inverting: false },
+    need: { kind: "base-current", i_A: iB_A + iBleedMax, vClamp_V: vClamp, vThreshold_V: vbeOn(dev, NOMINAL_TEMP_C), inverting: false },
     inputBleed_ohm: rBE,
     vSwNom_V: vSwNom,
     vSwMax_V: vSwMax,

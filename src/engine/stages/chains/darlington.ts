@@ -17,6 +17,7 @@ import { BLEED_SHARE } from "./bjt-single.ts";
 import type { ChainPlan, DeviceLoss } from "./types.ts";
 import { vceSatNominal_V } from "./sat-nominal.ts";
 import { vbeActiveNominal_V } from "./vbe-nominal.ts";
+import { NOMINAL_TEMP_C } from "../../shared/temperature.ts";
 
 interface StackCurrents {
   ic: number[];
@@ -70,13 +71,13 @@ export function planDarlington(ctx: Ctx, n: 2 | 3): ChainPlan {
   const last = devs[n - 1]!;
   const pol = ctx.spec.policy;
   const probe = stackCurrents(devs, ctx.iMax_A, null, ctx.taMin_C);
-  const rBE = nearest(vbeOn(last, 25) / (BLEED_SHARE * probe.ib[n - 1]!), "E24");
+  const rBE = nearest(vbeOn(last, NOMINAL_TEMP_C) / (BLEED_SHARE * probe.ib[n - 1]!), "E24");
   const worst = stackCurrents(devs, ctx.iMax_A, rBE * (1 - ctx.rTol), ctx.taMin_C);
-  const nom = stackCurrents(devs, ctx.iNom_A, rBE, 25);
+  const nom = stackCurrents(devs, ctx.iNom_A, rBE, NOMINAL_TEMP_C);
   const vSwMax = stackVoltage(devs, worst);
   const vSwNom = stackVoltageNominal(devs, nom);
   const vClamp = devs.reduce((s, d, k) => s + vbeSat(d, Math.max(worst.ic[k]!, 1e-6)) + (vbeCold(d, ctx) - d.vbe_on_V), 0);
-  const vTh = devs.reduce((s, d) => s + vbeOn(d, 25), 0);
+  const vTh = devs.reduce((s, d) => s + vbeOn(d, NOMINAL_TEMP_C), 0);
   // Base current of the first stage, at minimum gain (cold), for the load current at each supply.
   const ib1At = (v: number): number => stackCurrents(devs, loadCurrentAt_A(ctx, v), rBE * (1 - ctx.rTol), ctx.taMin_C).ib[0]!;
   const ib1Eq = needAtMinSupply(ctx, vClamp, ib1At);

@@ -17,6 +17,7 @@ import { BLEED_SHARE, WEAK_TURNOFF_FACTOR } from "./bjt-single.ts";
 import type { ChainPlan } from "./types.ts";
 import { vceSatNominal_V } from "./sat-nominal.ts";
 import { storageTime_s } from "../../shared/storage.ts";
+import { NOMINAL_TEMP_C } from "../../shared/temperature.ts";
 
 export function planDriverPnp(ctx: Ctx): ChainPlan {
   const D = ctx.spec.devices;
@@ -26,7 +27,7 @@ export function planDriverPnp(ctx: Ctx): ChainPlan {
   const betaP = hfeMin(qp, ctx.iMax_A, ctx.taMin_C);
   const iBP = ctx.iMax_A / Math.min(FORCED_BETA, betaP / OVERDRIVE_K);
   const vEB = vbeSat(qp, ctx.iMax_A) + (vbeCold(qp, ctx) - qp.vbe_on_V);
-  const rPU = nearest(vbeOn(qp, 25) / (BLEED_SHARE * iBP), "E24");
+  const rPU = nearest(vbeOn(qp, NOMINAL_TEMP_C) / (BLEED_SHARE * iBP), "E24");
   const iPU = vEB / (rPU * (1 - ctx.rTol));
   const iCD = iBP + iPU; // through RB_P and the driver's collector
   const vceD = vceSat(qd, iCD);
@@ -55,19 +56,19 @@ export function planDriverPnp(ctx: Ctx): ChainPlan {
   // worst case keeps the datasheet maximum at or above the rated test point (thermal bound).
   const vSwNom = vceSatNominal_V(qp, ctx.iNom_A);
   const off = switchOffVoltage_V(ctx);
-  // Nominal drive (25 °C, nominal supply, minimum gain as the netlist's cards carry it): RB_P's
+  // Nominal drive (nominal temperature and supply, minimum gain as the netlist's cards carry it): RB_P's
   // current, the pull-up's share, and the PNP's base current that carries the rated current.
   const inductive = ctx.switching === "clamped-inductive";
-  const betaPnom = hfeMin(qp, ctx.iNom_A, 25);
+  const betaPnom = hfeMin(qp, ctx.iNom_A, NOMINAL_TEMP_C);
   const vEBn = vbeSat(qp, ctx.iNom_A);
   const iPUn = vEBn / rPU;
   const iRbpN = Math.max(0, (ctx.vNom_V - vEBn - vceSat(qd, iCD)) / rBP);
-  const betaDnom = hfeMin(qd, Math.max(iRbpN, 1e-6), 25);
+  const betaDnom = hfeMin(qd, Math.max(iRbpN, 1e-6), NOMINAL_TEMP_C);
   // A winding's switch voltage falls only once the PNP carries the whole winding current, so the
   // tap must rise until the driver sinks I/β_P + the pull-up's current (derived).
   const iEdge = inductive ? (ctx.iNom_A / betaPnom + iPUn) / betaDnom : undefined;
   return {
-    need: { kind: "base-current", i_A: iBD, vClamp_V: vClamp, vThreshold_V: vbeOn(qd, 25), ...(iEdge === undefined ? {} : { iEdge_A: iEdge }), inverting: false },
+    need: { kind: "base-current", i_A: iBD, vClamp_V: vClamp, vThreshold_V: vbeOn(qd, NOMINAL_TEMP_C), ...(iEdge === undefined ? {} : { iEdge_A: iEdge }), inverting: false },
     vSwNom_V: vSwNom, vSwMax_V: vSwMax,
     parts: [], figures: [
       figure("power_gain_min", "Power PNP minimum gain (cold, max current)", betaP, "", "chain", "β_min(I_C,max, T_A,min)", deviceSource(qp, "hfe")),
@@ -87,7 +88,7 @@ export function planDriverPnp(ctx: Ctx): ChainPlan {
       // through R_T by the low collector (≈ V_BE/R_T, the collector's V_CE(sat) neglected), the PNP
       // through its pull-up (V_EB/R_PU).
       const iBd1 = Math.max(0, (ctx.vNom_V - vClamp) / (tap.rC_ohm + tap.rTap_ohm));
-      const tsD = storageTime_s(qd.t_storage_s, iBd1, vbeOn(qd, 25) / tap.rTap_ohm, iRbpN, betaDnom);
+      const tsD = storageTime_s(qd.t_storage_s, iBd1, vbeOn(qd, NOMINAL_TEMP_C) / tap.rTap_ohm, iRbpN, betaDnom);
       const tsP = storageTime_s(qp.t_storage_s, Math.max(0, iRbpN - iPUn), iPUn, ctx.iNom_A, betaPnom);
       return { on_s: qp.t_rise_s, off_s: tsD + tsP, note: "t_r on; t_s,drv + t_s,pnp off (charge control, winding clamps the edges)" };
     },

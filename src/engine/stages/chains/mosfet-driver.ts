@@ -20,6 +20,7 @@ import { WEAK_TURNOFF_FACTOR } from "./bjt-single.ts";
 import { gateTimes, gateTimesNominal, plateau_V, plateauCharge_C, plateauTyp_V, rdsOn_ohm, rdsOnNominal_ohm, specVgs_V } from "./mosfet-common.ts";
 import { releasedTurnOnEquivalent_s } from "./gate-release.ts";
 import type { ChainPlan } from "./types.ts";
+import { NOMINAL_TEMP_C } from "../../shared/temperature.ts";
 
 /** Smallest zener current that keeps the zener on its knee (common practice, ≈ 5 mA for 0.5 W parts). */
 export const ZENER_KNEE_A = 0.005;
@@ -36,7 +37,7 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
   const pol = ctx.spec.policy;
   const vNeed = specVgs_V(mos);
   const vgsAllowed = mos.vgs_max_V * pol.mosfet.vgs.factor;
-  const vbeHi = vbeOn(qhi, 25);
+  const vbeHi = vbeOn(qhi, NOMINAL_TEMP_C);
   const useZener = ctx.vMax_V - vbeOn(qhi, ctx.taMax_C) > vgsAllowed;
   // Without the zener rail, the driver and follower hang from vbus (docs/topologies.md: vg = vbus).
   const rail = useZener ? "vg" : "vbus";
@@ -64,15 +65,15 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
   const vClamp = vbeOn(qd, ctx.taMin_C) + 0.15;
   const rOn = rG + rP / betaHi;
   const t = gateTimes(mos, rOn, vgsMin, rG);
-  // Nominal: gate rail at its nominal level less Q_HI's V_BE at 25 °C, typical plateau.
+  // Nominal: gate rail at its nominal level less Q_HI's V_BE at the nominal temperature, typical plateau.
   // Drain swing while current flows: the supply (inductive: clamped by the freewheel diode), less
   // an LED string's forward voltage (below its knee the string carries no current).
   const vSwingNom = ctx.load.inductive ? ctx.vNom_V : Math.max(0.1 * ctx.vNom_V, ctx.vNom_V - ctx.load.vf_V);
   const tNomDrive = gateTimesNominal(mos, rOn, railNom - vbeHi, rG, vSwingNom);
   // The driver releases the pull-up only as its stored charge decays (no reverse base drive), so
-  // the follower's current grows with that decay: gate-release.ts. Nominal: 25 °C minimum gain
+  // the follower's current grows with that decay: gate-release.ts. Nominal: minimum gain at the nominal temperature
   // (the netlist's cards), typical plateau.
-  const rOnNom = rG + rP / hfeMin(qhi, iGpk, 25);
+  const rOnNom = rG + rP / hfeMin(qhi, iGpk, NOMINAL_TEMP_C);
   const tOnReleased = releasedTurnOnEquivalent_s({
     iG_A: Math.max(1e-9, (railNom - vbeHi - plateauTyp_V(mos)) / rOnNom),
     tau_s: (WEAK_TURNOFF_FACTOR * qd.t_storage_s) / Math.LN2,
@@ -91,7 +92,7 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
     transistor("chain", "Q_POWER", mos, undefined, { d: "sw", g: "g", s: "0" }, { voltage_V: switchOffVoltage_V(ctx), current_A: ctx.iMax_A }),
   ];
   return {
-    need: { kind: "base-current", i_A: iBD, vClamp_V: vClamp, vThreshold_V: vbeOn(qd, 25), inverting: true },
+    need: { kind: "base-current", i_A: iBD, vClamp_V: vClamp, vThreshold_V: vbeOn(qd, NOMINAL_TEMP_C), inverting: true },
     vSwNom_V: ctx.iNom_A * rdsOnNominal_ohm(mos, railNom - vbeHi),
     vSwMax_V: ctx.iMax_A * rds,
     parts,
@@ -132,7 +133,7 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
       // still recovering at the edge). The sink current grows from ≈ 0 over the plateau (the driver
       // comes out of cut-off through its Miller capacitance), so on average it is half of that:
       // t_off ≈ 2·Q_pl/I_sink (common practice for a linearly rising drive current).
-      const iSink_A = Math.min(plateauTyp_V(mos) / rG, hfeMin(qlo, iGpk, 25) * Math.max(1e-6, hfeMin(qd, iCD, 25) * tap.iMin_A - iRP));
+      const iSink_A = Math.min(plateauTyp_V(mos) / rG, hfeMin(qlo, iGpk, NOMINAL_TEMP_C) * Math.max(1e-6, hfeMin(qd, iCD, NOMINAL_TEMP_C) * tap.iMin_A - iRP));
       const tOffNom_s = Math.max(tNom.tOff_s, (2 * plateauCharge_C(mos, vSwingNom)) / iSink_A);
       const pCond = conductionLossMosfet_W(ctx.iMax_A, rds, op.dutyMax);
       // Worst case: the same release and sink limits at the cold minimum gains, lowest gate drive,
