@@ -8,6 +8,7 @@ import type { DesignRecord, DeviceRole } from "../model/design.ts";
 import type { DeviceClass } from "../model/device.ts";
 import type { VariantSpec } from "../model/variant.ts";
 import { variantId } from "./variant-id.ts";
+import { supplyWindow } from "../engine/shared/supply.ts";
 
 /** Defaults of optional targets (values documented in docs/writing-a-design.md). */
 export const TARGET_DEFAULTS = {
@@ -41,6 +42,7 @@ export function expandDesign(rec: DesignRecord, deps: ExpandDeps): VariantSpec[]
   const protection = { ...PROTECTION_DEFAULTS, ...rec.protection };
   const out: VariantSpec[] = [];
   for (const supply_V of rec.axes.supply_V) {
+    // Every worst case of the variant uses this window's min and max (src/engine/shared/supply.ts).
     for (const load_A of rec.axes.load_A) {
       const devices = deps.choose(rec, supply_V, load_A);
       for (const chain of rec.axes.chain) {
@@ -54,6 +56,7 @@ export function expandDesign(rec: DesignRecord, deps: ExpandDeps): VariantSpec[]
             chain,
             load_kind,
             targets: { ...targets, ambient_C: [targets.ambient_C[0], targets.ambient_C[1]] },
+            supply_window: supplyWindow({ ...rec.supply, tolerance: targets.supply_tolerance }, supply_V),
             protection: { ...protection },
             devices: { ...devices },
             policy: deps.policy,

@@ -10,6 +10,7 @@ import type { BjtClass, DeviceClass, DeviceLibrary } from "../../model/device.ts
 import { EngineMisuseError } from "../../model/problem.ts";
 import { hfeMin, vbeSat, vceSat } from "../shared/gain.ts";
 import { getDevice, isBjt, isDiode, isMosfet } from "./library.ts";
+import { supplyWindow } from "../shared/supply.ts";
 
 /** Candidate classes per role in order of preference (documented in docs/method.md). */
 export const DEFAULT_DEVICE_IDS: Readonly<Record<DeviceRole, readonly string[]>> = {
@@ -45,10 +46,10 @@ const REVERSE_SURGE_MULTIPLE = 10;
  * current: sized at V_cc,min across V_cc − V_EB(sat) − V_CE(sat) ≈ V − 1.5 V, carrying
  * (V_cc,max − 0.7 V) at V_cc,max, with 5 % resistors (derived; mirrors driver-pnp.ts).
  */
-function pnpDriverShare(supply_V: number, tol: number): number {
-  const vMin = supply_V * (1 - tol);
-  const vMax = supply_V * (1 + tol);
-  return (1.1 * (1 + tol) / 10) * ((vMax - 0.7) / Math.max(vMin - 1.5, 0.5)) * (1.05 / 0.95);
+function pnpDriverShare(n: Need): number {
+  const vMin = n.vMin_V;
+  const vMax = n.vMax_V;
+  return (1.1 * (vMax / n.supply_V) / 10) * ((vMax - 0.7) / Math.max(vMin - 1.5, 0.5)) * (1.05 / 0.95);
 }
 /**
  * A Darlington's first stage carries the output stage's base current plus its bleed at the highest
@@ -58,7 +59,7 @@ const DARLINGTON_DRIVER_FACTOR = 1.3;
 /** V_CE(sat) of the stage that drives a Darlington output (≈ 0.3 V small-signal; common practice). */
 const DARLINGTON_DRIVE_SAT_V = 0.3;
 
-interface Need { supplyTol: number; supply_V: number; load_A: number; pwm_Hz: number; ambientMin_C: number; ambientMax_C: number }
+interface Need { vMin_V: number; vMax_V: number; supply_V: number; load_A: number; pwm_Hz: number; ambientMin_C: number; ambientMax_C: number }
 
 /**
  * Free-air junction estimate at full duty and maximum ambient, against the usual limit
@@ -70,7 +71,7 @@ function freeAirOk(d: BjtClass, p_W: number, n: Need): boolean {
 
 /** Does a candidate clear the variant for this role? (Roles without a rule take the first.) */
 function fits(role: DeviceRole, d: DeviceClass, n: Need): boolean {
-  const vMax = n.supply_V * 1.1;
+  const vMax = n.vMax_V;
   if (isBjt(d) && (role === "power_npn" || role === "power_pnp")) {
     if (d.ic_max_A * SWITCH_HEADROOM < n.load_A || d.vceo_V * SWITCH_HEADROOM < vMax) return false;
     // Case-rated packages may go on a heatsink (the thermal stage sizes it); small packages must
@@ -97,10 +98,10 @@ function fits(role: DeviceRole, d: DeviceClass, n: Need): boolean {
  * current and voltage, and free-air T_J at full duty (common practice).
  */
 export function pickDriver(cands: BjtClass[], power: BjtClass, n: Need): BjtClass | undefined {
-  const iPnp = n.load_A * pnpDriverShare(n.supply_V, n.supplyTol);
+  const iPnp = n.load_A * pnpDriverShare(n);
   const iDar = (DARLINGTON_DRIVER_FACTOR * n.load_A) / hfeMin(power, n.load_A, n.ambientMin_C);
   const iMax = Math.max(iPnp, iDar);
-  const vMax = n.supply_V * 1.1;
+  const vMax = n.vMax_V;
   let best: { d: BjtClass; g: number } | undefined;
   for (const d of cands) {
     // Darlington first stage: V_CE = V_CE(sat) of the stage before + its own V_BE(sat) (the engine's model).
@@ -123,8 +124,9 @@ export function chooseDevices(record: DesignRecord, lib: DeviceLibrary, supply_V
   if (!Number.isFinite(supply_V) || supply_V <= 0 || !Number.isFinite(load_A) || load_A <= 0) {
     throw new EngineMisuseError(`chooseDevices(${record.id}): supply_V and load_A must be finite and > 0 (got ${supply_V}, ${load_A})`);
   }
-  // Supply tolerance default as in src/expand (TARGET_DEFAULTS.supply_tolerance).
-  const need: Need = { supplyTol: record.targets.supply_tolerance ?? 0.1, supply_V, load_A, pwm_Hz: record.targets.pwm_Hz, ambientMin_C: record.targets.ambient_C[0], ambientMax_C: record.targets.ambient_C[1] };
+  // The supply's real window (battery chemistry, declared, or ± tolerance; default as in src/expand).
+  const w = supplyWindow({ ...record.supply, tolerance: record.targets.supply_tolerance ?? 0.1 }, supply_V);
+  const need: Need = { vMin_V: w.min_V, vMax_V: w.max_V, supply_V, load_A, pwm_Hz: record.targets.pwm_Hz, ambientMin_C: record.targets.ambient_C[0], ambientMax_C: record.targets.ambient_C[1] };
   const out = {} as Record<DeviceRole, DeviceClass>;
   // The driver is judged against the power stage it drives, so the power stage is chosen first.
   const order = [...DEVICE_ROLES.filter((r) => r !== "driver_npn"), "driver_npn" as const];

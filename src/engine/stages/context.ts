@@ -39,8 +39,9 @@ export interface Ctx {
 export function makeContext(spec: VariantSpec): Ctx {
   const t = spec.targets;
   const vNom_V = spec.supply_V;
-  const vMin_V = vNom_V * (1 - t.supply_tolerance);
-  const vMax_V = vNom_V * (1 + t.supply_tolerance);
+  // The supply's real range (a battery's end of discharge … charging, or the record's window).
+  const vMin_V = spec.supply_window.min_V;
+  const vMax_V = spec.supply_window.max_V;
   const load = loadModel(spec.load_kind, vNom_V, spec.load_A);
   // Motors: back-EMF follows speed, so the running current rises at most in proportion to the
   // supply (common practice); resistive, lamp and LED loads follow their own V–I line.
