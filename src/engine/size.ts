@@ -55,7 +55,9 @@ function sizeInner(spec: VariantSpec): SizedVariant {
   const timingLoss = (role: string) => ({ role, dev: q, family: "bjt" as const, pCond_W: timing.timingLoss_W, pSw_W: 0, p_W: timing.timingLoss_W, isPower: false });
   const losses = [...fin.losses, timingLoss("Q_A"), timingLoss("Q_B")];
   const thermal = thermalStage(ctx, losses);
-  const prot = protectionStage(ctx, ctx.vNom_V / timing.values.rC_ohm, w.f.lo, w.f.hi, w.dMin.lo);
+  const power = fin.losses.find((l) => l.isPower);
+  // The core's own current at the highest supply counts toward the fuse's continuous current.
+  const prot = protectionStage(ctx, ctx.vMax_V / timing.values.rC_ohm, w.f.lo, w.f.hi, w.dMin.lo, power === undefined ? undefined : { role: power.role, dev: power.dev });
   const devLoss = fin.losses.reduce((s, l) => s + l.p_W, 0);
   const pIn = ctx.vMax_V * ctx.iMax_A * Math.min(1, w.dMax.hi);
   const efficiency = Math.max(0, 1 - devLoss / pIn);
@@ -82,7 +84,7 @@ function sizeInner(spec: VariantSpec): SizedVariant {
       "P = I_on·V_sw,nom·D_max,nom (MOSFET I_on²·R_DS(on),nom·D) + k·V_nom·I_on·(t_on,nom + t_off,nom)·f_nom", SRC.DERIVED)]),
     figure("efficiency", "Switch efficiency (worst case)", efficiency, "", "chain", "η = 1 − ΣP_chain / (V_cc,max · I_max · D_max)", SRC.DERIVED),
   ]);
-  const conditions = [...thermal.conditions].map((c) => {
+  const conditions = [...thermal.conditions, ...prot.conditions].map((c) => {
     const m = /^\/parts\/(.+)$/.exec(c.path);
     const role = m?.[1];
     return role === undefined ? c : { ...c, path: `/parts/${toRef(role)}`, text: c.text.startsWith(role) ? toRef(role) + c.text.slice(role.length) : c.text };

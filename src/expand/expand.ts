@@ -6,6 +6,7 @@
 import type { DeratingPolicy } from "../model/derating.ts";
 import type { DesignRecord, DeviceRole } from "../model/design.ts";
 import type { DeviceClass } from "../model/device.ts";
+import type { ChainKind } from "../model/kinds.ts";
 import type { VariantSpec } from "../model/variant.ts";
 import { variantId } from "./variant-id.ts";
 import { supplyWindow } from "../engine/shared/supply.ts";
@@ -20,7 +21,8 @@ export const TARGET_DEFAULTS = {
 export const PROTECTION_DEFAULTS: VariantSpec["protection"] = { be_breakdown: "series-base-diode" };
 
 export interface ExpandDeps {
-  choose: (rec: DesignRecord, supply_V: number, load_A: number) => Record<DeviceRole, DeviceClass>;
+  /** Device classes for one variant; `chain` lets the choice follow what that chain puts across each part. */
+  choose: (rec: DesignRecord, supply_V: number, load_A: number, chain: ChainKind) => Record<DeviceRole, DeviceClass>;
   policy: DeratingPolicy;
 }
 
@@ -44,8 +46,8 @@ export function expandDesign(rec: DesignRecord, deps: ExpandDeps): VariantSpec[]
   for (const supply_V of rec.axes.supply_V) {
     // Every worst case of the variant uses this window's min and max (src/engine/shared/supply.ts).
     for (const load_A of rec.axes.load_A) {
-      const devices = deps.choose(rec, supply_V, load_A);
       for (const chain of rec.axes.chain) {
+        const devices = deps.choose(rec, supply_V, load_A, chain);
         for (const load_kind of rec.axes.load_kind) {
           out.push({
             id: variantId(rec, supply_V, load_A, chain, load_kind),

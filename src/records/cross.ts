@@ -141,3 +141,17 @@ function ratingIssues(d: LoadedDesign, role: DeviceRole, dev: DeviceClass, axes:
 function fmt(x: number): string {
   return String(Number(x.toPrecision(3)));
 }
+
+/** A class's single-pulse SOA: durations ascending, powers not rising (a longer pulse never allows more). */
+export function checkDeviceSoa(d: LoadedDevice): RecordIssue[] {
+  const dev = d.device;
+  const pts = "soa_pulse" in dev ? dev.soa_pulse : undefined;
+  if (pts === undefined) return [];
+  const out: RecordIssue[] = [];
+  for (let i = 1; i < pts.length; i++) {
+    const a = pts[i - 1]!, b = pts[i]!;
+    if (!(b.t_s > a.t_s)) out.push(issueAt(d.parsed, `${d.pointer}/soa_pulse/${i}/t_s`, `pulse duration ${b.t_s} s does not follow ${a.t_s} s in ascending order`, "list the SOA points from the shortest pulse to the longest"));
+    else if (b.p_W > a.p_W) out.push(issueAt(d.parsed, `${d.pointer}/soa_pulse/${i}/p_W`, `${b.p_W} W at ${b.t_s} s is more than ${a.p_W} W at the shorter ${a.t_s} s`, "a longer pulse never allows more power: read the points again from the SOA chart"));
+  }
+  return out;
+}

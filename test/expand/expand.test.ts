@@ -63,7 +63,7 @@ describe("the demo catalogue, with the real device library and chooser", () => {
     const counts: Record<string, number> = {};
     const ids: string[] = [];
     for (const { record: rec } of r.designs) {
-      const specs = expandDesign(rec, { choose: (x, v, a) => chooseDevices(x, r.devices, v, a), policy: r.policy });
+      const specs = expandDesign(rec, { choose: (x, v, a, c) => chooseDevices(x, r.devices, v, a, c), policy: r.policy });
       counts[rec.id] = specs.length;
       ids.push(...specs.map((s) => s.id));
     }

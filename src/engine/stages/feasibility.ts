@@ -15,7 +15,7 @@ export const CHAIN_TITLE: Record<string, string> = {
   "bjt-driver-pnp": "NPN driver + power PNP", "mosfet-logic": "Logic-level MOSFET", "mosfet-driver": "Driven standard MOSFET",
 };
 /** Stage rules that already state a check's failure in their own words (rule → quantity). */
-const RULE_QUANTITY: Record<string, string> = { "tj-over-limit": "tj", "heatsink-too-small": "tj" };
+const RULE_QUANTITY: Record<string, string> = { "tj-over-limit": "tj", "heatsink-too-small": "tj", "reverse-surge": "i2t" };
 
 export function checkProblems(checks: StressCheck[], existing: DesignProblem[]): DesignProblem[] {
   const out: DesignProblem[] = [];
