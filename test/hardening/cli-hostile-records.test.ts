@@ -55,7 +55,7 @@ const CASES: Case[] = [
     says: /design id "nutrient-pump" is already used in designs\/nutrient-pump\.json/,
   },
   { name: "unknown-device.json", pointer: "/devices/power_npn", at: '"npn-unobtainium"', says: /"npn-unobtainium" is not in the device library/ },
-  { name: "over-rating.json", pointer: "/axes/supply_V/1", at: "48", says: /supply 48 V \(52\.8 V with tolerance\) exceeds V_CEO 40 V of "npn-small-signal"/ },
+  { name: "over-rating.json", pointer: "/axes/supply_V/1", at: "48", says: /supply 48 V \(52\.8 V at the top of its window\) exceeds V_CEO 40 V of "npn-small-signal"/ },
   // Regression: an escaped NUL passed the schema and reached pages (HTML parse errors) and SVG (not well-formed XML).
   { name: "control-character.json", pointer: "/title", at: "\\u0000", says: /the text holds the control character U\+0000/ },
   { name: "proto-key.json", pointer: "/__proto__", at: '"__proto__"', says: /member name "__proto__" is not allowed/ },

@@ -62,7 +62,7 @@ const CASES: Case[] = [
   { file: "zz-twin", pointer: "/id", at: '"twin-design"', says: /design id "twin-design" is already used in designs\/twin-design\.json/, extra: { "extra/twin-design.json": "designs/twin-design.json" } },
   { file: "unknown-device", pointer: "/devices/power_npn", at: '"npn-unobtainium"', says: /"npn-unobtainium" is not in the device library/ },
   { file: "wrong-family", pointer: "/devices/power_npn", at: '"nmos-fixture"', says: /is a nmos, but role power_npn needs a npn/ },
-  { file: "supply-over-rating", pointer: "/axes/supply_V/1", at: "48", says: /supply 48 V \(52\.8 V with tolerance\) exceeds V_CEO 40 V of "npn-fixture-small"/ },
+  { file: "supply-over-rating", pointer: "/axes/supply_V/1", at: "48", says: /supply 48 V \(52\.8 V at the top of its window\) exceeds V_CEO 40 V of "npn-fixture-small"/ },
   { file: "current-over-rating", pointer: "/axes/load_A/1", at: "      6\n", says: /load current 6 A exceeds I_C max 5 A/ },
   { file: "duplicate-device", pointer: "/id", at: '"npn-fixture-small"', says: /device class id "npn-fixture-small" is already used/, extra: { "extra/duplicate-device.json": "designs/devices/zz-duplicate-device.json" }, inFile: "designs/devices/zz-duplicate-device.json" },
   { file: "device-file-invalid", pointer: "/family", at: '"triode"', says: /"triode" is not an allowed value/, extra: { "extra/device-bad-family.json": "designs/devices/device-bad-family.json" }, inFile: "designs/devices/device-bad-family.json" },
