@@ -14,7 +14,6 @@ import type { DeviceLoss } from "./stages/chains/types.ts";
 import { switchingLoss_W } from "./shared/losses.ts";
 import { assembleCircuit, refsByRole } from "../circuit/assemble.ts";
 import { figure, problem } from "./shared/figures.ts";
-import { SRC } from "./shared/sources.ts";
 import { makeContext } from "./stages/context.ts";
 import { CHAIN_PLANNERS } from "./stages/chains/index.ts";
 import { designTap } from "./stages/tap.ts";
@@ -81,8 +80,8 @@ function sizeInner(spec: VariantSpec): SizedVariant {
   const figures: Figure[] = dedupe([
     ...timing.figures, ...plan.figures, ...fin.figures, ...load.figures, ...thermal.figures, ...prot.figures,
     ...(pNominal === undefined ? [] : [figure("device_dissipation_nominal", "Power device dissipation (nominal: rated load, D_max, 25 °C)", pNominal, "W", "thermal",
-      "P = I_on·V_sw,nom·D_max,nom (MOSFET I_on²·R_DS(on),nom·D) + k·V_nom·I_on·(t_on,nom + t_off,nom)·f_nom", SRC.DERIVED)]),
-    figure("efficiency", "Switch efficiency (worst case)", efficiency, "", "chain", "η = 1 − ΣP_chain / (V_cc,max · I_max · D_max)", SRC.DERIVED),
+      "P = I_on·V_sw,nom·D_max,nom (MOSFET I_on²·R_DS(on),nom·D) + k·V_nom·I_on·(t_on,nom + t_off,nom)·f_nom", "derived")]),
+    figure("efficiency", "Switch efficiency (worst case)", efficiency, "", "chain", "η = 1 − ΣP_chain / (V_cc,max · I_max · D_max)", "derived"),
   ]);
   const conditions = [...thermal.conditions, ...prot.conditions].map((c) => {
     const m = /^\/parts\/(.+)$/.exec(c.path);

@@ -119,7 +119,7 @@ function ratingIssues(d: LoadedDesign, role: DeviceRole, dev: DeviceClass, axes:
   const out: RecordIssue[] = [];
   const v = voltageRating(dev);
   axes.supply_V.forEach((s, i) => {
-    // Highest supply the part sees: the top of the supply's window (V_CE(max) ≥ supply + margin).
+    // Highest supply the part sees: the top of the supply's window (V_CE(max) ≥ supply + margin [src:common-practice]).
     const high_V = supplyMax_V(d.record, s, tol);
     if (v && high_V !== undefined && high_V > v.value_V) {
       out.push(issueAt(d.parsed, `/axes/supply_V/${i}`, `supply ${s} V (${fmt(high_V)} V at the top of its window) exceeds ${v.name} ${v.value_V} V of "${dev.id}" bound to ${role}`, `bind a class rated above ${fmt(high_V)} V, or drop this supply`));

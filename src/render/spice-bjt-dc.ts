@@ -7,6 +7,7 @@
  *   I_C = (I_f − I_r)/q_b − I_r/BR,        I_B = I_f/BF + I_r/BR
  * (Gummel & Poon, Bell Syst. Tech. J. 49, 1970; SPICE2/3 form as in Antognetti & Massobrio,
  * Semiconductor Device Modeling with SPICE, 2nd ed., ch. 2 — from memory; no leakage terms).
+ * [src:gummel-poon-1970] [src:antognetti-massobrio-2e]
  * Magnitudes only: a PNP is the same with every sign flipped.
  */
 import { VT_27C_V } from "./spice-num.ts";

@@ -1,9 +1,9 @@
 /**
  * Reference variants, worked by hand. Device data: designs/devices/*.json (registered data where
- * SOURCES.md lists it, else typical values from memory); policy: designs/policies/default.json.
+ * docs/sources.md lists it, else typical values from memory); policy: designs/policies/default.json.
  * The timing core uses a high-gain small-signal class (BC547C class, test/engine/fixtures.ts): the
  * 2N3904-class minimum gain cannot hold k ≥ 2 over a 10–90 % pot range (see docs/method.md).
- * Relations: ENGINEERING.md / docs/method.md; each assertion names its source.
+ * Relations: docs/method.md; each assertion names its source.
  */
 import type { BjtClass } from "../../src/model/device.ts";
 import { describe, expect, it } from "vitest";
@@ -44,7 +44,7 @@ describe("R1 — 12 V 0.5 A bjt-single, resistive (1 kHz): the timing core canno
 
 describe("R2 — 24 V 2 A darlington-2, motor (15 kHz): too slow to turn off for the duty range", () => {
   const s = size({ supply_V: 24, load_A: 2, chain: "darlington-2", load_kind: "motor", pwm_Hz: 15000 });
-  it("nominal stack voltage V_CE(sat),1 + V_BE,2 in the active region (ENGINEERING.md §3, common practice)", () => {
+  it("nominal stack voltage V_CE(sat),1 + V_BE,2 in the active region [src:common-practice]", () => {
     // 2 A, 25 °C: β2 = 30·(2/0.3)^−0.30103 = 16.95 → I_B2 = 0.118 A; R_BE bleed 0.75/47 = 16 mA;
     // Q_D1 carries ≈ 0.13 A, below its lowest saturation point: the nominal line through (1 A, 0.4 V),
     // (6 A, 1.5 V) gives 0.18 + 0.22·0.13 ≈ 0.209 V (sat-nominal.ts). Q_D2 is a follower at
@@ -108,7 +108,7 @@ describe("R3 — 12 V 5 A darlington-3, heater (200 Hz, 25–75 %), design accep
     return sizeVariant({ ...spec, targets: { ...spec.targets, heatsink_min_KperW: 5 } });
   };
   const d3 = mk("darlington-3");
-  it("nominal stack voltage V_CE(sat),1 + V_BE,2 + V_BE,3 ≈ 2.82 V (ENGINEERING.md §3)", () => {
+  it("nominal stack voltage V_CE(sat),1 + V_BE,2 + V_BE,3 ≈ 2.82 V [src:common-practice]", () => {
     // 5 A, 25 °C: β3 (TO-3 class, (4 A, 20)→(10 A, 5)) = 20·1.25^−1.5129 = 14.27 → I_B3 = 0.350 A;
     // bleed 0.85/16 = 53 mA → I_E2 = 0.403 A, β2 = 30·(0.403/0.3)^−0.30103 = 27.45 → I_C2 = 0.389 A,
     // I_B2 = 14.2 mA. Followers in the active region (diode law + base resistance, vbe-nominal.ts):

@@ -18,7 +18,7 @@ const record: DesignRecord = {
 };
 const policy = { id: "fixture-policy" } as unknown as DeratingPolicy;
 /** Stand-in device choice: a fake class per role that records the supply and current it was chosen for. */
-const fakeChoose = (_r: DesignRecord, supply_V: number, load_A: number): Record<DeviceRole, DeviceClass> =>
+const fakeChoose = (_r: DesignRecord, supply_V: number, load_A: number, _chain?: string): Record<DeviceRole, DeviceClass> =>
   Object.fromEntries(DEVICE_ROLES.map((role) => [role, { id: `${role}-${supply_V}-${load_A}` } as DeviceClass])) as Record<DeviceRole, DeviceClass>;
 
 describe("expandDesign", () => {

@@ -1,7 +1,7 @@
 /**
  * Worst-case BJT cards, measured in ngspice at every saturation point of every BJT class in the
  * library (designs/devices): V_CE(sat) and V_BE(sat) equal the class's maxima (the data-sheet
- * limits at the stated forced gain, registered JEDEC data where SOURCES.md lists it), and the
+ * limits at the stated forced gain, registered JEDEC data where docs/sources.md lists it), and the
  * forward gain at the operating current equals the class's minimum h_FE there.
  */
 import { describe, expect, it } from "vitest";

@@ -1,7 +1,7 @@
 /**
  * The derived `.model` cards reproduce the device-class data they come from, measured in a real
  * SPICE engine (ngspice). Check values are the classes' data-sheet style figures: the library in
- * designs/devices (registered JEDEC data where SOURCES.md lists it, typical values from memory
+ * designs/devices (registered JEDEC data where docs/sources.md lists it, typical values from memory
  * otherwise) and the render fixtures (test/fixtures/circuits/devices.ts). BJT saturation and gain
  * checks for every library class are in spice-bjt.test.ts.
  */

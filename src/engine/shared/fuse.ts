@@ -19,6 +19,7 @@
  *    pre-arcing time at 6 × I_n (600 %) between 10 ms and 100 ms (from memory).
  */
 import { EngineMisuseError } from "../../model/problem.ts";
+import type { SourceKey } from "./sources.ts";
 
 export interface FuseFamily {
   id: "iec60127-t" | "iso8820-32v" | "iso8820-58v";
@@ -27,7 +28,9 @@ export interface FuseFamily {
   ratings_A: readonly number[];
   /** Multiple of I_n at which the standard's time gate is read, and that gate's [min, max] pre-arcing time, s. */
   gate: { multiple: number; tMin_s: number; tMax_s: number };
-  source: string;
+  /** Bibliography key of the family's standard, and what is read from it. */
+  source: SourceKey;
+  note: string;
 }
 
 export const FUSE_FAMILIES: readonly FuseFamily[] = [
@@ -35,19 +38,19 @@ export const FUSE_FAMILIES: readonly FuseFamily[] = [
     id: "iec60127-t", title: "5 × 20 mm time-lag (T) fuse", voltage_V: 250,
     ratings_A: [0.1, 0.125, 0.16, 0.2, 0.25, 0.315, 0.4, 0.5, 0.63, 0.8, 1, 1.25, 1.6, 2, 2.5, 3.15, 4, 5, 6.3],
     gate: { multiple: 10, tMin_s: 0.01, tMax_s: 0.1 },
-    source: "IEC 60127-2, standard sheet 3 (time-lag, 10 × I_n: 10–100 ms), from memory",
+    source: "iec-60127", note: "IEC 60127-2, standard sheet 3 (time-lag, 10 × I_n: 10–100 ms), from memory",
   },
   {
     id: "iso8820-32v", title: "blade fuse, 32 V", voltage_V: 32,
     ratings_A: [7.5, 10, 15, 20, 25, 30, 35, 40],
     gate: { multiple: 6, tMin_s: 0.01, tMax_s: 0.1 },
-    source: "ISO 8820-3 blade fuses (600 % I_n: 10–100 ms), from memory",
+    source: "iso-8820-3", note: "ISO 8820-3 blade fuses (600 % I_n: 10–100 ms), from memory",
   },
   {
     id: "iso8820-58v", title: "blade fuse, 58 V", voltage_V: 58,
     ratings_A: [7.5, 10, 15, 20, 25, 30, 35, 40],
     gate: { multiple: 6, tMin_s: 0.01, tMax_s: 0.1 },
-    source: "ISO 8820-3 blade fuses, 58 V types (600 % I_n: 10–100 ms), from memory",
+    source: "iso-8820-3", note: "ISO 8820-3 blade fuses, 58 V types (600 % I_n: 10–100 ms), from memory",
   },
 ];
 

@@ -1,5 +1,6 @@
 /**
- * Junction temperature and heatsink relations, after the JEDEC JESD51 definitions:
+ * Junction temperature and heatsink relations, after the JEDEC JESD51 definitions
+ * [src:jesd51-2a] [src:jesd51-12]:
  * T_J = T_A + P·θ_JA free-standing; T_J = T_A + P·(θ_JC + θ_CS + θ_SA) on a heatsink.
  * JESD51-2 notes θ_JA is for comparing packages; we use it as the usual first estimate and say so.
  */

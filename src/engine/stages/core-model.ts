@@ -55,7 +55,7 @@ export function diodeVf_V(d: DiodeClass, i_A: number, t_C: number): number {
  * to matter, and the astable's off transistor returns when its base node reaches it, not V_BE(on)
  * at full current (Millman & Taub, 1965, ch. 11, and Millman & Halkias, Integrated Electronics,
  * 1972, table of Si junction voltages: V_γ ≈ 0.5 V, V_BE(active) ≈ 0.7 V, V_BE(sat) ≈ 0.8 V —
- * from memory). −2 mV/K as V_BE (common practice).
+ * from memory; [src:millman-taub-1965] [src:millman-halkias-1972]). −2 mV/K as V_BE [src:vbe-tempco].
  */
 export const CUT_IN_VBE_V = 0.5;
 /**

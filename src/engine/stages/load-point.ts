@@ -52,7 +52,7 @@ export function ledCurrent_A(v_V: number, r_ohm: number, law: DiodeLaw): number 
 /**
  * Back-EMF of a motor running as a constant-torque load at its rated current I with the switch
  * at duty D (continuous current, L/R ≫ period): the winding's average voltage balance over one
- * period, D·(V − V_sw) − (1 − D)·V_F,freewheel = E + I·R (Mohan, Undeland, Robbins, Power
+ * period, D·(V − V_sw) − (1 − D)·V_F,freewheel = E + I·R [src:mohan-3e-ch7] (Mohan, Undeland, Robbins, Power
  * Electronics, 3rd ed., ch. 7 dc-motor drive averages — from memory). Negative: the switch drop
  * starves the motor (it cannot draw its rated current at this duty).
  */

@@ -14,7 +14,6 @@ import type { Part, PartSpice } from "../../model/circuit.ts";
 import type { PartKind } from "../../model/kinds.ts";
 import type { DesignProblem } from "../../model/problem.ts";
 import { figure, problem } from "../shared/figures.ts";
-import { SRC } from "../shared/sources.ts";
 import { type Ctx, loadCurrentOn_A } from "./context.ts";
 import { diodeVf_V } from "./core-model.ts";
 import { STARVED_FRACTION, ledCurrent_A, ledLaw, motorEmf_V } from "./load-point.ts";
@@ -65,9 +64,9 @@ export function loadStage(ctx: Ctx, vSwNom_V: number, dutyOn: number): { part: P
   return {
     part, iOn_A, problems,
     figures: [
-      figure("switch_on_voltage", "Switch on-voltage (rated load, minimum gain)", vSwNom_V, "V", "chain", "V_CE(sat) at forced β 10 (PNP driver: datasheet line V_0 + I·R_C at the actual I_C); Darlington V_CE(sat),1 (datasheet line) + Σ V_BE of the followers at I_B = I_C/β (junction law + R_B from the V_BE(sat) points); MOSFET I·R_DS(on) at the gate drive reached", SRC.REGISTERED),
-      figure("load_current_on", "Load current when on (nominal supply)", iOn_A, "A", "load", formula, SRC.DERIVED),
-      figure("load_on_voltage", "Voltage across the load when on", vLoad_V, "V", "load", "V_load = V_cc − V_sw", SRC.DERIVED),
+      figure("switch_on_voltage", "Switch on-voltage (rated load, minimum gain)", vSwNom_V, "V", "chain", "V_CE(sat) at forced β 10 (PNP driver: datasheet line V_0 + I·R_C at the actual I_C); Darlington V_CE(sat),1 (datasheet line) + Σ V_BE of the followers at I_B = I_C/β (junction law + R_B from the V_BE(sat) points); MOSFET I·R_DS(on) at the gate drive reached", "derived"),
+      figure("load_current_on", "Load current when on (nominal supply)", iOn_A, "A", "load", formula, "derived"),
+      figure("load_on_voltage", "Voltage across the load when on", vLoad_V, "V", "load", "V_load = V_cc − V_sw", "derived"),
     ],
   };
 }

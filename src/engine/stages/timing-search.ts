@@ -29,7 +29,7 @@ export const C_MAX_F = 10e-6;
 export const C_MIN_F = 100e-12;
 /**
  * Largest 5·τ_c / t_off,min at worst case: the collector must recover within the shortest
- * half-period (ENGINEERING.md §1: "5 τ_c < t_i"), or the next swing shrinks, the off side may not
+ * half-period ("5 τ_c < t_i" [src:common-practice]), or the next swing shrinks, the off side may not
  * be driven below cut-in and the core latches with both transistors on (seen in simulation at the
  * pot's ends when this limit was 5). Common practice for the astable (Millman & Taub ch. 11: the
  * recovery time constant must be short against the half-period).

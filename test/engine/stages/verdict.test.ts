@@ -17,7 +17,7 @@ const QUANTITIES = ["power", "voltage", "current", "tj", "vgs", "peak", "soa", "
 const refs = fc.constantFrom("Q1", "Q2", "D1", "F1", "R3");
 const check: fc.Arbitrary<StressCheck> = fc.record({
   ref: refs, quantity: fc.constantFrom(...QUANTITIES), ratio: fc.double({ min: 0, max: 2, noNaN: true }), factor: fc.double({ min: 0.3, max: 1, noNaN: true }),
-}).map(({ ref, quantity, ratio, factor }) => checkStress(ref, quantity, ratio * 10, 10, "x", { factor, source: "test rule", confidence: "demo" }, 0.9));
+}).map(({ ref, quantity, ratio, factor }) => checkStress(ref, quantity, ratio * 10, 10, "x", { factor, source: "demo", note: "test rule", confidence: "demo" }, 0.9));
 const problemArb: fc.Arbitrary<DesignProblem> = fc.record({
   path: refs.map((r) => `/parts/${r}`), severity: fc.constantFrom("error", "warning", "note") as fc.Arbitrary<DesignProblem["severity"]>,
   stage: fc.constantFrom("thermal", "chain", "timing", "protection", "supply"), rule: fc.constantFrom("a", "b", "heatsink-needed"),
@@ -58,7 +58,7 @@ describe("verdict rule (properties)", () => {
     // D1 carries a warning from its stage; its surge check fails: the variant must not be feasible,
     // and the failing check appears on the problem list as well.
     const warn: DesignProblem = { stage: "supply", path: "/parts/D1", rule: "something-else", severity: "warning", params: {}, message: "D1: a warning" };
-    const fail = checkStress("D1", "i2t", 60, 3.75, "A²s", { factor: 1, source: "surge I²t above the fuse's clearing I²t", confidence: "common-practice" }, 0.9);
+    const fail = checkStress("D1", "i2t", 60, 3.75, "A²s", { factor: 1, source: "common-practice", note: "surge I²t above the fuse's clearing I²t", confidence: "common-practice" }, 0.9);
     expect(fail.verdict).toBe("fail");
     const extra = checkProblems([fail], [warn]);
     expect(extra).toHaveLength(1);

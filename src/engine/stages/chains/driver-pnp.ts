@@ -9,7 +9,7 @@ import { nearest, roundDown } from "../../shared/e-series.ts";
 import { figure, problem } from "../../shared/figures.ts";
 import { hfeMin, vbeOn, vbeSat, vceSat } from "../../shared/gain.ts";
 import { conductionLossBjt_W, switchingLoss_W } from "../../shared/losses.ts";
-import { SRC } from "../../shared/sources.ts";
+import { deviceSource } from "../../shared/sources.ts";
 import { resistor, transistor } from "../../../circuit/parts.ts";
 import { type Ctx, FORCED_BETA, OVERDRIVE_K } from "../context.ts";
 import { needAtMinSupply, driveMargin, switchChecks, switchOffVoltage_V, vbeCold } from "./common.ts";
@@ -41,7 +41,7 @@ export function planDriverPnp(ctx: Ctx): ChainPlan {
   const iRbpMin = (ctx.vMin_V - vEB - vceD) / (rBP * (1 + ctx.rTol));
   const betaD = hfeMin(qd, iRbpMax, ctx.taMin_C);
   // The driver is a small-signal switch carrying only the PNP's base current: overdrive k = 2 at
-  // its minimum gain (ENGINEERING §3, R_B ≤ β_min·R_C/k) saturates it without loading the timing
+  // its minimum gain (R_B ≤ β_min·R_C/k [src:common-practice]) saturates it without loading the timing
   // core with a forced-β-10 base current; forced β 10 is kept for the power stage.
   const vClamp = vbeSat(qd, iRbpMax) + (vbeCold(qd, ctx) - qd.vbe_on_V);
   // The driver's base current at each supply (RB_P's current grows with it), referred to V_cc,min.
@@ -70,8 +70,8 @@ export function planDriverPnp(ctx: Ctx): ChainPlan {
     need: { kind: "base-current", i_A: iBD, vClamp_V: vClamp, vThreshold_V: vbeOn(qd, 25), ...(iEdge === undefined ? {} : { iEdge_A: iEdge }), inverting: false },
     vSwNom_V: vSwNom, vSwMax_V: vSwMax,
     parts: [], figures: [
-      figure("power_gain_min", "Power PNP minimum gain (cold, max current)", betaP, "", "chain", "β_min(I_C,max, T_A,min)", SRC.REGISTERED),
-      figure("power_base_current", "Power PNP base current needed", iBP, "A", "chain", "I_B = I_C,max / min(10, β_min/2)", SRC.COMMON),
+      figure("power_gain_min", "Power PNP minimum gain (cold, max current)", betaP, "", "chain", "β_min(I_C,max, T_A,min)", deviceSource(qp, "hfe")),
+      figure("power_base_current", "Power PNP base current needed", iBP, "A", "chain", "I_B = I_C,max / min(10, β_min/2)", "common-practice"),
       driveMargin("power", "power PNP (from the driver)", iRbpMin - iPU, ctx.iMax_A / betaP),
     ],
     problems,
@@ -111,9 +111,9 @@ export function planDriverPnp(ctx: Ctx): ChainPlan {
         ],
         figures: [
           driveMargin("driver", "NPN driver", tap.iMin_A, ibdEq),
-          figure("load_current_max", "Load current, worst case (max supply)", ctx.iMax_A, "A", "load", "I = (V_cc,max − V_f)/R_load (load model)", SRC.DERIVED),
-          figure("conduction_loss", "Conduction loss, power PNP", pCond, "W", "chain", "P = I_C,max · V_CE(sat) · D_max + I_B · V_EB · D_max", SRC.COMMON),
-          figure("switching_loss", "Switching loss, power PNP", pSw, "W", "chain", ctx.switching === "resistive" ? "P = ⅙·V·I·(t_r + t_s + t_f)·f" : "P = ½·V·I·(t_r + t_s + t_f)·f", ctx.switching === "resistive" ? SRC.RASHID_SW : SRC.MOHAN_SW),
+          figure("load_current_max", "Load current, worst case (max supply)", ctx.iMax_A, "A", "load", "I = (V_cc,max − V_f)/R_load (load model)", "derived"),
+          figure("conduction_loss", "Conduction loss, power PNP", pCond, "W", "chain", "P = I_C,max · V_CE(sat) · D_max + I_B · V_EB · D_max", "common-practice"),
+          figure("switching_loss", "Switching loss, power PNP", pSw, "W", "chain", ctx.switching === "resistive" ? "P = ⅙·V·I·(t_r + t_s + t_f)·f" : "P = ½·V·I·(t_r + t_s + t_f)·f", ctx.switching === "resistive" ? "rashid-4e-ex4-2" : "mohan-3e-eq2-6"),
         ],
       };
     },

@@ -12,7 +12,7 @@ import { roundDown, roundUp } from "../../shared/e-series.ts";
 import { figure, problem } from "../../shared/figures.ts";
 import { hfeMin, vbeOn, vceSat } from "../../shared/gain.ts";
 import { conductionLossBjt_W, conductionLossMosfet_W, gateDrivePower_W, switchingLoss_W } from "../../shared/losses.ts";
-import { SRC } from "../../shared/sources.ts";
+import { deviceSource } from "../../shared/sources.ts";
 import { resistor, transistor, zener } from "../../../circuit/parts.ts";
 import { type Ctx, OVERDRIVE_K } from "../context.ts";
 import { driveMargin, switchChecks, switchOffVoltage_V, vbeCold } from "./common.ts";
@@ -96,10 +96,10 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
     vSwMax_V: ctx.iMax_A * rds,
     parts,
     figures: [
-      figure("gate_voltage_min", "Gate voltage, worst case low", vgsMin, "V", "chain", useZener ? "V_GS = V_Z,min − V_BE(Q_HI, cold)" : "V_GS = V_cc,min − V_BE(Q_HI, cold)", SRC.DERIVED, [vgsMin, vgsMax]),
-      figure("switch_t_on", "Switch turn-on transition", t.tOn_s, "s", "chain", "t_on = Q_G·(R_G + R_P/β_HI)/(V_GS − V_plateau)", SRC.COMMON),
-      figure("switch_t_off", "Switch turn-off transition", t.tOff_s, "s", "chain", "t_off = Q_G·R_G/V_plateau", SRC.COMMON),
-      figure("rds_on_hot", "R_DS(on), hot, at the gate voltage reached", rds, "Ω", "chain", "R_DS(on),max(V_GS) × hot factor", SRC.TYPICAL_MEMORY),
+      figure("gate_voltage_min", "Gate voltage, worst case low", vgsMin, "V", "chain", useZener ? "V_GS = V_Z,min − V_BE(Q_HI, cold)" : "V_GS = V_cc,min − V_BE(Q_HI, cold)", "derived", [vgsMin, vgsMax]),
+      figure("switch_t_on", "Switch turn-on transition", t.tOn_s, "s", "chain", "t_on = Q_G·(R_G + R_P/β_HI)/(V_GS − V_plateau)", "common-practice"),
+      figure("switch_t_off", "Switch turn-off transition", t.tOff_s, "s", "chain", "t_off = Q_G·R_G/V_plateau", "common-practice"),
+      figure("rds_on_hot", "R_DS(on), hot, at the gate voltage reached", rds, "Ω", "chain", "R_DS(on),max(V_GS) × hot factor", deviceSource(mos, "rds_on_hot_factor")),
     ],
     problems,
     checks: [...switchChecks(ctx, "Q_POWER", mos), checkStress("Q_POWER", "vgs", vgsMax, mos.vgs_max_V, "V", pol.mosfet.vgs, pol.marginal_above)],
@@ -160,10 +160,10 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
         ],
         figures: [
           driveMargin("driver", "NPN driver", tap.iMin_A, iCD / betaD),
-          figure("gate_rail", "Gate rail voltage (nominal)", railNom, "V", "chain", useZener ? "V_g = V_Z (zener rail, RZ + DZ)" : "V_g = V_bus", useZener ? SRC.TYPICAL_MEMORY : SRC.DERIVED, [railMin, railMax]),
-          figure("load_current_max", "Load current, worst case (max supply)", ctx.iMax_A, "A", "load", "I = (V_cc,max − V_f)/R_load (load model)", SRC.DERIVED),
-          figure("conduction_loss", "Conduction loss, power device", pCond, "W", "chain", "P = I_D,max² · R_DS(on),hot · D_max", SRC.COMMON),
-          figure("switching_loss", "Switching loss, power device", pSw, "W", "chain", `${ctx.switching === "resistive" ? "P = ⅙·V·I·(t_on + t_off)·f" : "P = ½·V·I·(t_on + t_off)·f"}; t_on: driver release (gate-release.ts), t_off: 2·Q_pl/I_sink`, ctx.switching === "resistive" ? SRC.RASHID_SW : SRC.MOHAN_SW),
+          figure("gate_rail", "Gate rail voltage (nominal)", railNom, "V", "chain", useZener ? "V_g = V_Z (zener rail, RZ + DZ)" : "V_g = V_bus", useZener ? "device-class-typical" : "derived", [railMin, railMax]),
+          figure("load_current_max", "Load current, worst case (max supply)", ctx.iMax_A, "A", "load", "I = (V_cc,max − V_f)/R_load (load model)", "derived"),
+          figure("conduction_loss", "Conduction loss, power device", pCond, "W", "chain", "P = I_D,max² · R_DS(on),hot · D_max", "common-practice"),
+          figure("switching_loss", "Switching loss, power device", pSw, "W", "chain", `${ctx.switching === "resistive" ? "P = ⅙·V·I·(t_on + t_off)·f" : "P = ½·V·I·(t_on + t_off)·f"}; t_on: driver release (gate-release.ts), t_off: 2·Q_pl/I_sink`, ctx.switching === "resistive" ? "rashid-4e-ex4-2" : "mohan-3e-eq2-6"),
         ],
       };
     },

@@ -6,7 +6,7 @@
  * `vbeSat` (shared/gain.ts) returns V_BE(sat),max at forced gain (I_B ≈ I_C/10), which over-states a
  * follower carrying I_B = I_C/β: the base-resistance drop R_B·I_B is β/10 times smaller, and the
  * junction part sits V_T·ln(I_sat/I_C) lower at a smaller current. Split the V_BE(sat) points into
- * junction + R_B·I_B (diode law, V_BE,j = V_j0 + V_T·ln(I_C/I_C0); Sedra & Smith, "Microelectronic
+ * junction + R_B·I_B (diode law, V_BE,j = V_j0 + V_T·ln(I_C/I_C0); [src:sedra-smith] Sedra & Smith, "Microelectronic
  * Circuits", the BJT's i_C–v_BE relation, and the ohmic base spreading resistance r_b, common
  * practice): with two points, R_B = (ΔV_BE(sat) − V_T·ln(I_C1/I_C0)) / ΔI_B; with one point R_B = 0
  * (all junction). The junction part never goes below the typical law V_BE(on) + V_T·ln(I_C/I_ref)
