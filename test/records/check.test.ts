@@ -21,7 +21,7 @@ describe("runCheck", () => {
     expect(await runCheck(root, io)).toBe(0);
     expect(io.err).toEqual([]);
     // 2 supplies × 2 currents × 2 chains × 1 load kind
-    expect(io.out).toEqual(["check passed: 1 design, 16 device classes, 8 variants would be built (policy default from designs/policies/default.json)"]);
+    expect(io.out).toEqual(["check passed: 1 design, 17 device classes, 8 variants would be built (policy default from designs/policies/default.json)"]);
   });
 
   it("bad records: exit 1, one line per issue, then the count", async () => {
