@@ -22,7 +22,8 @@ import { designTiming } from "./stages/timing.ts";
 import { loadStage } from "./stages/load.ts";
 import { thermalStage } from "./stages/thermal.ts";
 import { protectionStage } from "./stages/protection.ts";
-import { blockingReason, cautions, checkProblems } from "./stages/feasibility.ts";
+import { cautions, checkProblems, verdictLead } from "./stages/feasibility.ts";
+import { decideVerdict } from "./stages/verdict.ts";
 
 export function sizeVariant(spec: VariantSpec): SizedVariant {
   try {
@@ -30,9 +31,11 @@ export function sizeVariant(spec: VariantSpec): SizedVariant {
   } catch (err) {
     if (!(err instanceof EngineMisuseError)) throw err;
     const msg = `The engine could not size this variant (${err.message}).`;
+    const problems = [problem("engine", "", "engine-failure", "error", msg)];
+    const verdict = decideVerdict({ checks: [], problems, conditions: [] });
     return {
-      spec, feasible: false, reason: msg, figures: [], checks: [], circuit: null, cautions: [],
-      problems: [problem("engine", "", "engine-failure", "error", msg)],
+      spec, verdict, feasible: false, reason: verdict.summary, figures: [], checks: [], circuit: null, cautions: [],
+      problems,
       heatsink: { needed: false, text: "not sized" },
     };
   }
@@ -52,7 +55,9 @@ function sizeInner(spec: VariantSpec): SizedVariant {
   const timingLoss = (role: string) => ({ role, dev: q, family: "bjt" as const, pCond_W: timing.timingLoss_W, pSw_W: 0, p_W: timing.timingLoss_W, isPower: false });
   const losses = [...fin.losses, timingLoss("Q_A"), timingLoss("Q_B")];
   const thermal = thermalStage(ctx, losses);
-  const prot = protectionStage(ctx, ctx.vNom_V / timing.values.rC_ohm, w.f.lo, w.f.hi, w.dMin.lo);
+  const power = fin.losses.find((l) => l.isPower);
+  // The core's own current at the highest supply counts toward the fuse's continuous current.
+  const prot = protectionStage(ctx, ctx.vMax_V / timing.values.rC_ohm, w.f.lo, w.f.hi, w.dMin.lo, power === undefined ? undefined : { role: power.role, dev: power.dev });
   const devLoss = fin.losses.reduce((s, l) => s + l.p_W, 0);
   const pIn = ctx.vMax_V * ctx.iMax_A * Math.min(1, w.dMax.hi);
   const efficiency = Math.max(0, 1 - devLoss / pIn);
@@ -79,12 +84,18 @@ function sizeInner(spec: VariantSpec): SizedVariant {
       "P = I_on·V_sw,nom·D_max,nom (MOSFET I_on²·R_DS(on),nom·D) + k·V_nom·I_on·(t_on,nom + t_off,nom)·f_nom", "derived")]),
     figure("efficiency", "Switch efficiency (worst case)", efficiency, "", "chain", "η = 1 − ΣP_chain / (V_cc,max · I_max · D_max)", "derived"),
   ]);
-  const reason = blockingReason(ctx, problems);
+  const conditions = [...thermal.conditions, ...prot.conditions].map((c) => {
+    const m = /^\/parts\/(.+)$/.exec(c.path);
+    const role = m?.[1];
+    return role === undefined ? c : { ...c, path: `/parts/${toRef(role)}`, text: c.text.startsWith(role) ? toRef(role) + c.text.slice(role.length) : c.text };
+  });
+  // The one verdict (verdict.ts): every failing check and error problem blocks; conditions qualify.
+  const verdict = decideVerdict({ checks, problems, conditions, lead: verdictLead(ctx) });
   const hot = thermal.heatsink.needed || [...thermal.perRole.values()].some((t) => t.tj_C > 60);
   const out: SizedVariant = {
-    spec, feasible: reason === undefined, figures, problems, checks, heatsink: thermal.heatsink, circuit, cautions: cautions(ctx, hot),
+    spec, verdict, feasible: verdict.status !== "not-feasible", figures, problems, checks, heatsink: thermal.heatsink, circuit, cautions: cautions(ctx, hot),
   };
-  if (reason !== undefined) out.reason = reason;
+  if (verdict.status === "not-feasible") out.reason = verdict.summary;
   return out;
 }
 

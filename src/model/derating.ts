@@ -29,7 +29,12 @@ export interface DeratingPolicy {
   capacitor: { voltage: DeratingRule };
 }
 
-export type StressQuantity = "power" | "voltage" | "current" | "tj" | "vgs";
+/**
+ * "peak": a start-up peak against the absolute maximum pulse rating; "soa": a linear-mode pulse
+ * against the single-pulse safe operating area; "i2t": fuse coordination (melting or clearing
+ * integral against the part it must spare or survive), A²s.
+ */
+export type StressQuantity = "power" | "voltage" | "current" | "tj" | "vgs" | "peak" | "soa" | "i2t";
 export type StressVerdict = "pass" | "marginal" | "fail";
 
 /** One part's stress against its rating and the policy. */
@@ -47,4 +52,8 @@ export interface StressCheck {
   /** Key of the rule's source in the bibliography, and the rule in a few words. */
   source: SourceKey;
   note?: string;
+  /** The condition the check was computed under, when there is one (e.g. "on a heatsink of ≤ 3.2 K/W"). */
+  condition?: string;
+  /** What is compared, when the quantity alone does not say (e.g. "fuse pre-arcing I²t vs inrush I²t"). */
+  what?: string;
 }

@@ -29,6 +29,16 @@ interface DeviceBase {
   sources: Record<string, SourceNote>;
 }
 
+/**
+ * One point of a single-pulse safe operating area: the largest power a rectangular pulse of
+ * duration t_s may put into the device at T_C 25 °C (BJTs: read at V_CE = V_CEO/2, so second
+ * breakdown is included). Ascending t_s; interpolated log-log.
+ */
+export interface SoaPoint {
+  t_s: number;
+  p_W: number;
+}
+
 /** Minimum (and typical) DC gain at one collector current, at 25 °C. */
 export interface GainPoint {
   ic_A: number;
@@ -51,6 +61,8 @@ export interface BjtClass extends DeviceBase {
   ic_max_A: number;
   /** Peak (pulse) collector current rating, if specified. */
   icm_A?: number;
+  /** Single-pulse safe operating area, if the class gives one. */
+  soa_pulse?: SoaPoint[];
   ptot_W: number; // at T_A = 25 °C (free air), or at T_C = 25 °C when `ptot_at` = "case"
   ptot_at: "ambient" | "case";
   hfe: GainPoint[]; // ascending ic_A; interpolate log-log between points
@@ -73,6 +85,8 @@ export interface MosfetClass extends DeviceBase {
   vds_V: number;
   id_A: number; // continuous at T_C 25 °C
   idm_A?: number;
+  /** Single-pulse safe operating area, if the class gives one. */
+  soa_pulse?: SoaPoint[];
   ptot_W: number;
   ptot_at: "ambient" | "case";
   /** R_DS(on) maximum at the stated gate voltage and 25 °C. */

@@ -5,7 +5,7 @@
 import type { DeratingPolicy } from "../model/derating.ts";
 import type { DesignRecord, SourcedRecord } from "../model/design.ts";
 import type { DeviceClass, DeviceLibrary } from "../model/device.ts";
-import { checkBindings, checkDuplicateIds, checkFileName, checkTargets, type LoadedDesign, type LoadedDevice } from "./cross.ts";
+import { checkBindings, checkDeviceSoa, checkDuplicateIds, checkFileName, checkTargets, type LoadedDesign, type LoadedDevice } from "./cross.ts";
 import { listJson, readRecord } from "./files.ts";
 import { sortIssues, uniqueIssues, type RecordIssue } from "./issue.ts";
 import type { ParsedFile } from "./parse.ts";
@@ -71,6 +71,7 @@ export async function loadProject(root: string, options: LoadOptions = {}): Prom
   for (const d of devices) issues.push(...checkDeviceData(d));
 
   issues.push(...checkDuplicateIds(devices, (d) => ({ id: d.device.id, parsed: d.parsed, pointer: `${d.pointer}/id` }), "device class"));
+  for (const d of devices) issues.push(...checkDeviceSoa(d));
   const library = new Map<string, DeviceClass>();
   for (const d of devices) if (!library.has(d.device.id)) library.set(d.device.id, d.device);
   issues.push(...checkDuplicateIds(designs, (d) => ({ id: d.record.id, parsed: d.parsed, pointer: "/id" }), "design"));

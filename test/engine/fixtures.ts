@@ -12,6 +12,7 @@ import type { ChainKind, LoadKind } from "../../src/model/kinds.ts";
 import type { VariantSpec } from "../../src/model/variant.ts";
 import { indexLibrary } from "../../src/engine/devices/library.ts";
 import { chooseDevices } from "../../src/engine/devices/choose.ts";
+import { supplyWindow } from "../../src/engine/shared/supply.ts";
 
 const ROOT = join(import.meta.dirname, "..", "..");
 
@@ -34,6 +35,10 @@ export interface SpecOpts {
   duty?: [number, number];
   ambient_C?: [number, number];
   supply_tolerance?: number;
+  /** The record's supply statement (battery chemistry or windows); absent: ± supply_tolerance. */
+  supply?: DesignRecord["supply"];
+  /** protection.inrush_limit of the record. */
+  inrushLimit?: NonNullable<DesignRecord["protection"]>["inrush_limit"];
   be?: "series-base-diode" | "none";
   devices?: DesignRecord["devices"];
   /** Replace resolved roles with local classes (e.g. a class not yet in the library). */
@@ -74,13 +79,14 @@ export function makeSpec(o: SpecOpts): VariantSpec {
   const rec: DesignRecord = {
     id: "test-design", title: "Test design", summary: "fixture",
     axes: { supply_V: [o.supply_V], load_A: [o.load_A], chain: [o.chain], load_kind: [o.load_kind] },
-    targets, ...(o.devices ? { devices: o.devices } : {}),
+    targets, ...(o.devices ? { devices: o.devices } : {}), ...(o.supply ? { supply: o.supply } : {}),
   };
   return {
     id: `test-${o.supply_V}v-${o.load_A}a-${o.chain}-${o.load_kind}`,
     design: rec.id, designTitle: rec.title,
     supply_V: o.supply_V, load_A: o.load_A, chain: o.chain, load_kind: o.load_kind,
-    targets, protection: { be_breakdown: o.be ?? "series-base-diode" },
+    targets, supply_window: supplyWindow({ ...o.supply, tolerance: targets.supply_tolerance }, o.supply_V),
+    protection: { be_breakdown: o.be ?? "series-base-diode", ...(o.inrushLimit ? { inrush_limit: o.inrushLimit } : {}) },
     devices: { ...chooseDevices(rec, library(), o.supply_V, o.load_A), ...(o.override ?? {}) },
     policy: policy(),
   };

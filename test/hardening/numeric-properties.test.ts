@@ -80,7 +80,7 @@ function record(p: Point, supplies: number[], loads: number[]): DesignRecord {
 
 /** Size every variant of a record exactly as the build does. */
 function size(rec: DesignRecord): SizedVariant[] {
-  const specs = expandDesign(rec, { choose: (r, s, l) => chooseDevices(r, project.devices, s, l), policy: project.policy });
+  const specs = expandDesign(rec, { choose: (r, s, l, c) => chooseDevices(r, project.devices, s, l, c), policy: project.policy });
   return specs.map((s) => sizeVariant(s));
 }
 

@@ -95,7 +95,26 @@ export const SOURCES = {
       "The rating is chosen with headroom over the running current (common practice, not the standard).",
     values: [
       { item: "preferred ratings", value: "R10 series: 1, 1.25, 1.6, 2, 2.5, 3.15, 4, 5, 6.3, 8 (× 10ⁿ A)", sureness: "from-memory" },
-      { item: "rating over running current", value: "≥ 1.25 ×", sureness: "common-practice" },
+      { item: "time-lag (T) gate at 10 × I_n (standard sheet 3)", value: "pre-arcing 10 ms … 100 ms", sureness: "from-memory" },
+      { item: "rated voltage of 5 × 20 mm fuse-links", value: "250 V", sureness: "from-memory" },
+      { item: "continuous current over the rating", value: "≤ 75–80 % at 25 °C, less when hot", sureness: "common-practice" },
+    ],
+  },
+  "iso-8820-3": {
+    kind: "standard",
+    short: "ISO 8820-3 (blade fuses)",
+    title: "ISO 8820-3, Road vehicles — Fuse-links — Part 3: Fuse-links with tabs (blade type)",
+    edition: "edition not pinned",
+    where: "rated currents and voltages; time–current gates at multiples of the rating",
+    sureness: "from-memory",
+    confidence: "from-memory",
+    note:
+      "Blade fuse-links for low-voltage DC systems, rated 32 V (58 V types for 42/48 V systems), in steps " +
+      "from a few amperes to 40 A; each type carries a multiple of its rating for a bounded time.",
+    values: [
+      { item: "ratings used", value: "7.5, 10, 15, 20, 25, 30, 35, 40 A", sureness: "from-memory" },
+      { item: "rated voltages", value: "32 V; 58 V types", sureness: "from-memory" },
+      { item: "gate at 600 % I_n", value: "pre-arcing 10 ms … 100 ms", sureness: "from-memory" },
     ],
   },
   "jesd51-2a": {

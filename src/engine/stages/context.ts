@@ -39,12 +39,11 @@ export interface Ctx {
 export function makeContext(spec: VariantSpec): Ctx {
   const t = spec.targets;
   const vNom_V = spec.supply_V;
-  const vMin_V = vNom_V * (1 - t.supply_tolerance);
-  const vMax_V = vNom_V * (1 + t.supply_tolerance);
+  // The supply's real range (a battery's end of discharge … charging, or the record's window).
+  const vMin_V = spec.supply_window.min_V;
+  const vMax_V = spec.supply_window.max_V;
   const load = loadModel(spec.load_kind, vNom_V, spec.load_A);
-  // Motors: back-EMF follows speed, so the running current rises at most in proportion to the
-  // supply (common practice); resistive, lamp and LED loads follow their own V–I line.
-  const iMax_A = spec.load_kind === "motor" ? spec.load_A * (vMax_V / vNom_V) : Math.max(spec.load_A, (vMax_V - load.vf_V) / load.r_ohm);
+  const iMax_A = runningCurrentMax_A(spec.load_kind, load, spec.load_A, vNom_V, vMax_V);
   return {
     spec, vNom_V, vMin_V, vMax_V,
     taMin_C: t.ambient_C[0], taMax_C: t.ambient_C[1],
@@ -57,6 +56,15 @@ export function makeContext(spec: VariantSpec): Ctx {
     cTol: SERIES_TOLERANCE.E12,
     highSide: spec.chain === "bjt-driver-pnp",
   };
+}
+
+/**
+ * Highest running current at supply `vMax_V`. Motors: back-EMF follows speed, so the running
+ * current rises at most in proportion to the supply (common practice); resistive, lamp and LED
+ * loads follow their own V–I line.
+ */
+export function runningCurrentMax_A(kind: VariantSpec["load_kind"], load: LoadModel, load_A: number, vNom_V: number, vMax_V: number): number {
+  return kind === "motor" ? load_A * (vMax_V / vNom_V) : Math.max(load_A, (vMax_V - load.vf_V) / load.r_ohm);
 }
 
 /** On-state load current with `vSwitch_V` across the switch: (V − V_sw − V_f)/R (load model). */

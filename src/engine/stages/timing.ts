@@ -41,6 +41,9 @@ export interface TimingResult {
 
 const fmtPct = (x: number): string => `${(x * 100).toFixed(1)} %`;
 
+/** Worst-case frequency spread around the target beyond which the page shows a problem (ours). */
+export const FREQ_SPREAD_SHOWN = 0.05;
+
 export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingResult {
   const q = ctx.spec.devices.timing_npn as BjtClass;
   const db = ctx.spec.devices.signal_diode as DiodeClass;
@@ -90,7 +93,8 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
   const fErr = e5.f_Hz / ctx.f_Hz - 1;
   if (!search.found) problems.push(problem("timing", "/parts/RV_DUTY", "duty-range-unreachable", "error",
     `No timing-core values reach the required duty range ${fmtPct(t.duty_min)}–${fmtPct(t.duty_max)} at ${ctx.f_Hz} Hz while keeping the timing transistors saturated (k ≥ 2 at minimum gain); the nearest reaches ${fmtPct(e0.duty)}–${fmtPct(e1.duty)} with overdrive k = ${search.overdrive.toFixed(2)} (R_C = ${v.rC_ohm} Ω, set by what the chain input needs; R_B,max ≤ β_min·R_C/2, and the pot's track current sets the smallest end resistor).`));
-  else if (!search.passed && (w.dMin.hi > t.duty_min || w.dMax.lo < t.duty_max || (w.recovery <= MAX_RECOVERY && w.thresholdReached))) problems.push(problem("duty", "/parts/RV_DUTY", "duty-range-worst-case", "error",
+  // Any worst-case duty short of the record's range is a problem, whether or not the search passed.
+  else if (w.dMin.hi > t.duty_min || w.dMax.lo < t.duty_max || (!search.passed && w.recovery <= MAX_RECOVERY && w.thresholdReached)) problems.push(problem("duty", "/parts/RV_DUTY", "duty-range-worst-case", "error",
     `Worst case the control reaches only ${fmtPct(w.dMin.hi)}–${fmtPct(w.dMax.lo)} duty at the load, short of the required ${fmtPct(t.duty_min)}–${fmtPct(t.duty_max)}.`,
     { limit: t.duty_min, actual: w.dMin.hi, unit: "" }));
   const inj = injection(ctx, q, db, v);
@@ -98,6 +102,11 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
     `The base diodes' capacitance injects current into the floating base of the off timing transistor: 2·β·C_j·R_C/(R_B·C) = ${inj.toFixed(2)} (limit ${INJECTION_MAX}); the off collector sags and the core can stop with both transistors on. Use a larger timing capacitor with smaller base resistors, a smaller R_C, or a lower frequency.`,
     { limit: INJECTION_MAX, actual: inj, unit: "" }));
   if (!w.thresholdReached) problems.push(problem("timing", `/parts/${tap.tapNet === "ca" ? "RC_A" : "RC_B"}`, "threshold-unreached", "error", "The tapped collector never rises to the chain's switching threshold at some corner: the load would not switch."));
+  // The worst-case frequency (every tolerance, supply and temperature corner) against the record's
+  // target: more than 5 % off either way is shown (the same 5 % as the nominal frequency error).
+  if (w.f.lo < ctx.f_Hz * (1 - FREQ_SPREAD_SHOWN) || w.f.hi > ctx.f_Hz * (1 + FREQ_SPREAD_SHOWN)) problems.push(problem("timing", "/parts/CT_A", "frequency-worst-case", "warning",
+    `Over every tolerance, supply and temperature corner the PWM frequency spans ${w.f.lo.toFixed(0)}–${w.f.hi.toFixed(0)} Hz around the ${ctx.f_Hz} Hz target (${fmtPct(w.f.lo / ctx.f_Hz - 1)} … ${fmtPct(w.f.hi / ctx.f_Hz - 1)}); the timing capacitors' tolerance dominates. If the load needs the target (audible whine, flicker), use 5 % capacitors or trim.`,
+    { limit: ctx.f_Hz, actual: w.f.lo, unit: "Hz" }));
   if (Math.abs(fErr) > 0.05) problems.push(problem("timing", "/parts/CT_A", "frequency-error", "warning", `The nearest preferred values give ${e5.f_Hz.toFixed(0)} Hz, ${fmtPct(fErr)} from the ${ctx.f_Hz} Hz target.`, { limit: 0.05, actual: fErr, unit: "" }));
   if (w.recovery > MAX_RECOVERY) problems.push(problem("timing", "/parts/RC_A", "collector-recovery", "error", `At worst case the collectors need 5·τ_c = ${w.recovery.toFixed(2)} × the shortest half-period to recover (limit ${MAX_RECOVERY}): the core can latch with both transistors on at the control's ends. Narrow the duty range or lower the frequency.`, { limit: MAX_RECOVERY, actual: w.recovery, unit: "" }));
   if (skew > t.duty_skew_max) problems.push(problem("timing", "/parts/RBAL", "duty-skew", "warning", `The timing core's duty skew from loading is ${fmtPct(skew)}, above the design's ${fmtPct(t.duty_skew_max)}.`, { limit: t.duty_skew_max, actual: skew, unit: "" }));
