@@ -24,7 +24,7 @@ export interface FormatOptions {
 }
 
 function sideLine(name: string, s: DiffReport["old"]): string {
-  const facts = [`${s.variants} variants`, ...(s.generated ? [`built ${plain(s.generated)}`] : [])];
+  const facts = [`${s.variants} variant${s.variants === 1 ? "" : "s"}`, ...(s.generated ? [`built ${plain(s.generated)}`] : [])];
   return `  ${name}: ${plain(s.source)} (${facts.join(", ")})`;
 }
 
