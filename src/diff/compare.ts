@@ -33,10 +33,21 @@ export function movedBeyond(rule: FigureRule, t: Thresholds, oldValue: number, n
   return delta / Math.abs(oldValue) > limit && !same(oldValue, newValue);
 }
 
+/** Text with its numbers blanked: "needs ≤ 3.4 K/W" and "needs ≤ 3.0 K/W" read the same. */
+function wording(s: string): string {
+  return s.replace(/[-+−]?\d+(?:[.,]\d+)?(?:e[-+]?\d+)?/gi, "#");
+}
+
+/**
+ * A verdict change: another state, another set of conditions, or (not feasible on both sides)
+ * another blocking reason. Numbers inside the texts are ignored: a moved figure is reported under
+ * its own threshold (figures, heatsink), not as a new verdict.
+ */
 function verdictChanged(a: VerdictView, b: VerdictView): boolean {
   if (a.state !== b.state) return true;
-  const ca = [...a.conditions].sort();
-  const cb = [...b.conditions].sort();
+  if (a.state === "not-feasible" && wording(a.reason ?? "") !== wording(b.reason ?? "")) return true;
+  const ca = a.conditions.map(wording).sort();
+  const cb = b.conditions.map(wording).sort();
   return ca.length !== cb.length || ca.some((c, i) => c !== cb[i]);
 }
 

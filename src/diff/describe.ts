@@ -23,8 +23,21 @@ export function verdictDetail(v: VerdictView): string {
   return `${v.state === "conditional" ? "" : "conditions: "}${v.conditions.join("; ")}`;
 }
 
-export function figureValue(rule: FigureRule, value: number, unit: string): string {
-  return rule.display === "percent" ? formatPercent(value) : formatValue(value, unit);
+export function figureValue(rule: FigureRule, value: number, unit: string, digits = 3): string {
+  return rule.display === "percent" ? formatPercent(value, digits) : formatValue(value, unit, digits);
+}
+
+/**
+ * Old and new value of a reported figure, with enough significant digits that they differ
+ * (1003 °C and 998 °C both read "1000 °C" at three digits).
+ */
+export function figurePair(rule: FigureRule, oldValue: number, newValue: number, unit: string): [string, string] {
+  let pair: [string, string] = ["", ""];
+  for (let digits = 3; digits <= 6; digits++) {
+    pair = [figureValue(rule, oldValue, unit, digits), figureValue(rule, newValue, unit, digits)];
+    if (pair[0] !== pair[1]) break;
+  }
+  return pair;
 }
 
 function signed(x: number, body: (abs: number) => string): string {

@@ -7,7 +7,7 @@ import {
   byKind,
   countPhrase,
   figureDelta,
-  figureValue,
+  figurePair,
   heatsinkText,
   partChangeText,
   plain,
@@ -65,7 +65,7 @@ function cells(r: DiffReport, d: Difference): string[] {
     case "heatsink":
       return [d.id, heatsinkText(d.old), heatsinkText(d.new)];
     case "figure":
-      return [d.id, d.label, figureValue(d.rule, d.old, d.unit), figureValue(d.rule, d.new, d.unit), figureDelta(d.rule, d.old, d.new, d.unit)];
+      return [d.id, d.label, ...figurePair(d.rule, d.old, d.new, d.unit), figureDelta(d.rule, d.old, d.new, d.unit)];
     case "part":
       return [d.id, d.part, refText(d.ref), d.changes.map(partChangeText).join("; ")];
   }

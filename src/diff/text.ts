@@ -6,7 +6,7 @@ import {
   byKind,
   countPhrase,
   figureDelta,
-  figureValue,
+  figurePair,
   heatsinkText,
   partChangeText,
   plain,
@@ -52,7 +52,7 @@ function lines(r: DiffReport, d: Difference, lastId: string | undefined): string
       return [`  ${id}: ${plain(heatsinkText(d.old))} → ${plain(heatsinkText(d.new))}`];
     case "figure": {
       const head = lastId === d.id ? [] : [`  ${id}`];
-      const move = `${figureValue(d.rule, d.old, d.unit)} → ${figureValue(d.rule, d.new, d.unit)}`;
+      const move = figurePair(d.rule, d.old, d.new, d.unit).join(" → ");
       return [...head, `    ${plain(d.label)}: ${plain(move)} (${figureDelta(d.rule, d.old, d.new, d.unit)})`];
     }
     case "part": {

@@ -20,6 +20,7 @@ import {
   type Difference,
 } from "../../src/diff/index.ts";
 import { FIGURE_RULES } from "../../src/diff/model.ts";
+import { figurePair } from "../../src/diff/describe.ts";
 import { CONDITIONAL_ID, conditionalPatch, diffPair, IDS, writeCatalogue } from "./pair.ts";
 
 const ROOT = fileURLToPath(new URL("../../", import.meta.url));
@@ -148,4 +149,30 @@ describe("the reader: one line naming the file (and the place) for anything miss
       expect(err?.message).toMatch(message);
       expect(err?.message).not.toContain("\n");
     });
+});
+
+describe("verdict texts: numbers inside a reason or condition are not a new verdict", () => {
+  const view = (reason: string, conditions: string[] = [], state = "not-feasible") => ({
+    source: "x",
+    designs: {},
+    variants: [{ id: "v", design: "d", verdict: { state, reason, conditions }, figures: {}, parts: null, simulation: { status: "skipped" } }],
+  });
+  it("a reason whose numbers moved is not reported; another reason is", () => {
+    const a = view("needs a heatsink ≤ 3.4 K/W");
+    expect(diffCatalogues(a, view("needs a heatsink ≤ 3.0 K/W"), DEFAULT_THRESHOLDS)).toEqual([]);
+    expect(summary(diffCatalogues(a, view("the load gets below 90 % of the supply"), DEFAULT_THRESHOLDS))).toEqual(["verdict v"]);
+  });
+  it("a condition whose numbers moved is not reported; a new condition is", () => {
+    const a = view("", ["Q3 on a heatsink of ≤ 4.2 K/W"], "conditional");
+    expect(diffCatalogues(a, view("", ["Q3 on a heatsink of ≤ 4.0 K/W"], "conditional"), DEFAULT_THRESHOLDS)).toEqual([]);
+    expect(diffCatalogues(a, view("", ["Q3 on a heatsink of ≤ 4.0 K/W", "inrush limited to 5 A"], "conditional"), DEFAULT_THRESHOLDS)).toHaveLength(1);
+  });
+});
+
+describe("figure values are printed with the digits that tell them apart", () => {
+  it("1001 °C → 1004 °C, not 1000 °C → 1000 °C", () => {
+    const tj = FIGURE_RULES.find((r) => r.key === "tj_free_air")!;
+    expect(figurePair(tj, 1001, 1004, "°C")).toEqual(["1001 °C", "1004 °C"]);
+    expect(figurePair(tj, 60.2, 65.2, "°C")).toEqual(["60.2 °C", "65.2 °C"]);
+  });
 });
