@@ -54,7 +54,8 @@ rm -f "$work/diff.txt" "$work/diff.md" "$work/diff-summary.md"
 # The base: a checkout given, or the ref extracted from git (no worktree or branch is touched).
 if [ -z "$base_dir" ]; then
   if [ -z "$base_ref" ]; then
-    if git -C "$head_dir" rev-parse -q --verify origin/main >/dev/null; then base_ref=origin/main; else base_ref=main; fi
+    base_ref=main
+    if git -C "$head_dir" rev-parse -q --verify origin/main >/dev/null; then base_ref=origin/main; fi
   fi
   git -C "$head_dir" rev-parse -q --verify "$base_ref^{commit}" >/dev/null || die "no such git ref: $base_ref"
   base_dir="$work/base"
@@ -106,7 +107,8 @@ else
   diff_cmd --markdown > "$work/diff.md"
   diff_cmd --markdown --limit "$limit" > "$work/diff-summary.md"
   if [ "$head_rc" -ne 0 ]; then
-    printf '\n> The head build exited with status %s (with --strict: a simulation disagreed or failed).\n' "$head_rc" >> "$work/diff-summary.md"
+    printf '\n> The head build exited with status %s (with --strict: a simulation disagreed or failed).\n' \
+      "$head_rc" >> "$work/diff-summary.md"
   fi
 fi
 if [ -n "$summary" ]; then cat "$work/diff-summary.md" >> "$summary"; fi

@@ -11,16 +11,19 @@ import { DiffInputError } from "../diff/view.ts";
 import { formatText } from "../diff/text.ts";
 import { formatMarkdown } from "../diff/markdown.ts";
 
+const T = DEFAULT_THRESHOLDS;
+const pct = (x: number) => `${x * 100}%`;
+
 export const DIFF_USAGE = `diff OLD NEW: OLD and NEW are folders \`pulsewright build\` made (or their catalogue.json)
   --markdown            Markdown (tables) instead of plain text, e.g. for a pull request summary
   --fail-on KINDS       exit 1 when a difference of these kinds exists: any, or a comma list of
                         ${DIFFERENCE_KINDS.join(", ")}
   --limit N             list at most N entries per section (the rest are counted)
-  --frequency-rel X     report PWM frequency moves above X (default ${DEFAULT_THRESHOLDS.frequency_rel * 100}%; "2%" or 0.02)
-  --dissipation-rel X   report power-device dissipation moves above X (default ${DEFAULT_THRESHOLDS.dissipation_rel * 100}%)
-  --heatsink-rel X      report moves of the largest allowed heatsink K/W above X (default ${DEFAULT_THRESHOLDS.heatsink_rel * 100}%)
-  --duty-abs X          report duty moves above X (default ${DEFAULT_THRESHOLDS.duty_abs * 100}%, i.e. one percentage point)
-  --temperature-abs K   report junction-temperature moves above K kelvin (default ${DEFAULT_THRESHOLDS.temperature_abs_K})`;
+  --frequency-rel X     report PWM frequency moves above X (default ${pct(T.frequency_rel)}; "2%" or 0.02)
+  --dissipation-rel X   report power-device dissipation moves above X (default ${pct(T.dissipation_rel)})
+  --heatsink-rel X      report moves of the largest allowed heatsink K/W above X (default ${pct(T.heatsink_rel)})
+  --duty-abs X          report duty moves above X (default ${pct(T.duty_abs)}: one point)
+  --temperature-abs K   report junction-temperature moves above K kelvin (default ${T.temperature_abs_K})`;
 
 function usage(msg: string): never {
   throw Object.assign(new Error(`diff: ${msg}\n\nusage: pulsewright ${DIFF_USAGE}`), { name: "UsageError" });
@@ -30,7 +33,10 @@ function usage(msg: string): never {
 export function parseThreshold(option: string, raw: string, kelvin = false): number {
   const m = /^\s*([0-9]*\.?[0-9]+(?:e[+-]?[0-9]+)?)\s*(%|K)?\s*$/i.exec(raw);
   const unit = m?.[2];
-  if (!m || (kelvin ? unit === "%" : unit?.toUpperCase() === "K")) usage(`--${option} "${raw}" is not ${kelvin ? "a number of kelvin, e.g. 2" : "a fraction or a percentage, e.g. 0.02 or 2%"}`);
+  if (!m || (kelvin ? unit === "%" : unit?.toUpperCase() === "K"))
+    usage(
+      `--${option} "${raw}" is not ${kelvin ? "a number of kelvin, e.g. 2" : "a fraction or a percentage, e.g. 2%"}`,
+    );
   const x = Number(m[1]) / (unit === "%" ? 100 : 1);
   if (!Number.isFinite(x) || x < 0) usage(`--${option} "${raw}" must be zero or more`);
   return x;
@@ -38,7 +44,10 @@ export function parseThreshold(option: string, raw: string, kelvin = false): num
 
 export function parseFailOn(raw: string | undefined): Set<DifferenceKind> {
   if (raw === undefined) return new Set();
-  const words = raw.split(",").map((w) => w.trim()).filter((w) => w !== "");
+  const words = raw
+    .split(",")
+    .map((w) => w.trim())
+    .filter((w) => w !== "");
   if (words.length === 0) usage(`--fail-on needs a kind: any, ${DIFFERENCE_KINDS.join(", ")}`);
   const out = new Set<DifferenceKind>();
   for (const w of words) {
@@ -64,7 +73,11 @@ function thresholds(v: Record<string, string | boolean | undefined>): Thresholds
   return t;
 }
 
-export async function runDiff(cwd: string, args: string[], out: { log(s: string): void; error(s: string): void }): Promise<number> {
+export async function runDiff(
+  cwd: string,
+  args: string[],
+  out: { log(s: string): void; error(s: string): void },
+): Promise<number> {
   const { values, positionals } = parseArgs({
     args,
     allowPositionals: true,
@@ -88,7 +101,8 @@ export async function runDiff(cwd: string, args: string[], out: { log(s: string)
   if (positionals.length !== 2) usage(`needs two catalogues, OLD and NEW (got ${positionals.length})`);
   const failOn = parseFailOn(values["fail-on"]);
   const limit = values.limit === undefined ? undefined : Number(values.limit);
-  if (limit !== undefined && !(Number.isInteger(limit) && limit >= 1)) usage(`--limit "${values.limit}" is not a whole number of 1 or more`);
+  if (limit !== undefined && !(Number.isInteger(limit) && limit >= 1))
+    usage(`--limit "${values.limit}" is not a whole number of 1 or more`);
   const t = thresholds(values);
   const [oldArg, newArg] = positionals as [string, string];
   let report;

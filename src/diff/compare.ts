@@ -57,7 +57,17 @@ function figureChanges(a: VariantView, b: VariantView, t: Thresholds): Differenc
     const fa = a.figures[rule.key];
     const fb = b.figures[rule.key];
     if (!fa || !fb || !movedBeyond(rule, t, fa.value, fb.value)) continue;
-    out.push({ kind: "figure", id: b.id, design: b.design, key: rule.key, label: fb.label, unit: fb.unit, rule, old: fa.value, new: fb.value });
+    out.push({
+      kind: "figure",
+      id: b.id,
+      design: b.design,
+      key: rule.key,
+      label: fb.label,
+      unit: fb.unit,
+      rule,
+      old: fa.value,
+      new: fb.value,
+    });
   }
   return out;
 }
@@ -68,7 +78,8 @@ function heatsinkChanged(a: HeatsinkView | undefined, b: HeatsinkView | undefine
   if (a.needed !== undefined && b.needed !== undefined && a.needed !== b.needed) return true;
   const ra = a.rth_sa_max_KperW;
   const rb = b.rth_sa_max_KperW;
-  if (ra !== undefined && rb !== undefined) return movedBeyond({ key: "heatsink", mode: "rel", threshold: "heatsink_rel", display: "value" }, t, ra, rb);
+  if (ra !== undefined && rb !== undefined)
+    return movedBeyond({ key: "heatsink", mode: "rel", threshold: "heatsink_rel", display: "value" }, t, ra, rb);
   if ((ra === undefined) !== (rb === undefined)) return true;
   return a.needed === undefined && b.needed === undefined && a.text !== b.text;
 }
@@ -80,13 +91,19 @@ function partClass(p: PartView): string {
 function comparePart(a: PartView, b: PartView): PartChangeItem[] {
   const out: PartChangeItem[] = [];
   if (partClass(a) !== partClass(b)) out.push({ what: "class", old: partClass(a), new: partClass(b) });
-  if (a.unit !== b.unit || !same(a.value, b.value)) out.push({ what: "value", old: a.value, new: b.value, oldUnit: a.unit, unit: b.unit });
+  if (a.unit !== b.unit || !same(a.value, b.value))
+    out.push({ what: "value", old: a.value, new: b.value, oldUnit: a.unit, unit: b.unit });
   const names = [...new Set([...Object.keys(a.rating), ...Object.keys(b.rating)])].sort();
   for (const name of names) {
     const ra = a.rating[name];
     const rb = b.rating[name];
     if (ra !== undefined && rb !== undefined && same(ra, rb)) continue;
-    out.push({ what: "rating", name, ...(ra !== undefined ? { old: ra } : {}), ...(rb !== undefined ? { new: rb } : {}) });
+    out.push({
+      what: "rating",
+      name,
+      ...(ra !== undefined ? { old: ra } : {}),
+      ...(rb !== undefined ? { new: rb } : {}),
+    });
   }
   return out;
 }
@@ -103,7 +120,16 @@ function partChanges(a: VariantView, b: VariantView): Difference[] {
     const only = pa ?? pb;
     let changes: PartChangeItem[];
     if (pa && pb) changes = comparePart(pa, pb);
-    else if (only) changes = [{ what: pa ? "removed" : "added", kind: only.kind, ...(only.device !== undefined ? { device: only.device } : {}), value: only.value, unit: only.unit }];
+    else if (only)
+      changes = [
+        {
+          what: pa ? "removed" : "added",
+          kind: only.kind,
+          ...(only.device !== undefined ? { device: only.device } : {}),
+          value: only.value,
+          unit: only.unit,
+        },
+      ];
     else continue;
     if (changes.length === 0) continue;
     const ref = { ...(pa ? { old: pa.ref } : {}), ...(pb ? { new: pb.ref } : {}) };
@@ -115,12 +141,21 @@ function partChanges(a: VariantView, b: VariantView): Difference[] {
 /** Every difference between one variant's old and new view. */
 export function compareVariant(a: VariantView, b: VariantView, t: Thresholds): Difference[] {
   const out: Difference[] = [];
-  if (verdictChanged(a.verdict, b.verdict)) out.push({ kind: "verdict", id: b.id, design: b.design, old: a.verdict, new: b.verdict });
+  if (verdictChanged(a.verdict, b.verdict))
+    out.push({ kind: "verdict", id: b.id, design: b.design, old: a.verdict, new: b.verdict });
   if (a.simulation.status !== b.simulation.status) {
     const message = b.simulation.message;
-    out.push({ kind: "simulation", id: b.id, design: b.design, old: a.simulation.status, new: b.simulation.status, ...(message !== undefined ? { message } : {}) });
+    out.push({
+      kind: "simulation",
+      id: b.id,
+      design: b.design,
+      old: a.simulation.status,
+      new: b.simulation.status,
+      ...(message !== undefined ? { message } : {}),
+    });
   }
-  if (heatsinkChanged(a.heatsink, b.heatsink, t) && a.heatsink && b.heatsink) out.push({ kind: "heatsink", id: b.id, design: b.design, old: a.heatsink, new: b.heatsink });
+  if (heatsinkChanged(a.heatsink, b.heatsink, t) && a.heatsink && b.heatsink)
+    out.push({ kind: "heatsink", id: b.id, design: b.design, old: a.heatsink, new: b.heatsink });
   out.push(...figureChanges(a, b, t), ...partChanges(a, b));
   return out;
 }
@@ -146,7 +181,8 @@ export function diffCatalogues(oldCat: CatalogueView, newCat: CatalogueView, t: 
     if (!o) out.push({ kind: "added", id: v.id, design: v.design, verdict: v.verdict });
     else out.push(...compareVariant(o, v, t));
   }
-  for (const v of oldCat.variants) if (!newById.has(v.id)) out.push({ kind: "removed", id: v.id, design: v.design, verdict: v.verdict });
+  for (const v of oldCat.variants)
+    if (!newById.has(v.id)) out.push({ kind: "removed", id: v.id, design: v.design, verdict: v.verdict });
   return out.sort(byReportOrder);
 }
 
@@ -158,5 +194,11 @@ export function diffReport(oldCat: CatalogueView, newCat: CatalogueView, t: Thre
     ...(c.generated !== undefined ? { generated: c.generated } : {}),
     ...(c.policy !== undefined ? { policy: c.policy } : {}),
   });
-  return { old: side(oldCat), new: side(newCat), thresholds: t, designs: { ...oldCat.designs, ...newCat.designs }, differences: diffCatalogues(oldCat, newCat, t) };
+  return {
+    old: side(oldCat),
+    new: side(newCat),
+    thresholds: t,
+    designs: { ...oldCat.designs, ...newCat.designs },
+    differences: diffCatalogues(oldCat, newCat, t),
+  };
 }

@@ -4,7 +4,15 @@
  * medium (text.ts strips control characters, markdown.ts escapes).
  */
 import { formatPercent, formatValue } from "../model/format.ts";
-import type { Difference, DifferenceKind, FigureRule, HeatsinkView, PartChangeItem, Thresholds, VerdictView } from "./model.ts";
+import type {
+  Difference,
+  DifferenceKind,
+  FigureRule,
+  HeatsinkView,
+  PartChangeItem,
+  Thresholds,
+  VerdictView,
+} from "./model.ts";
 
 const VERDICT_WORDS: Record<string, string> = {
   feasible: "feasible",
@@ -47,7 +55,8 @@ function signed(x: number, body: (abs: number) => string): string {
 /** The move of a figure: relative in %, duty in percentage points, temperature in K. */
 export function figureDelta(rule: FigureRule, oldValue: number, newValue: number, unit: string): string {
   const d = newValue - oldValue;
-  if (rule.mode === "rel") return oldValue === 0 ? "from zero" : signed(d / Math.abs(oldValue), (a) => formatPercent(a, 2));
+  if (rule.mode === "rel")
+    return oldValue === 0 ? "from zero" : signed(d / Math.abs(oldValue), (a) => formatPercent(a, 2));
   if (rule.display === "percent") return signed(d * 100, (a) => `${formatValue(a, "", 2)} points`);
   return signed(d, (a) => formatValue(a, unit === "°C" ? "K" : unit, 2));
 }
@@ -55,7 +64,8 @@ export function figureDelta(rule: FigureRule, oldValue: number, newValue: number
 export function heatsinkText(h: HeatsinkView): string {
   if (h.text !== undefined) return h.text;
   if (h.needed === false) return "no heatsink needed";
-  return h.rth_sa_max_KperW !== undefined ? `heatsink ≤ ${formatValue(h.rth_sa_max_KperW, "K/W")}` : "heatsink needed";
+  const rth = h.rth_sa_max_KperW;
+  return rth !== undefined ? `heatsink ≤ ${formatValue(rth, "K/W")}` : "heatsink needed";
 }
 
 const RATING_UNITS: [string, string][] = [
@@ -70,7 +80,9 @@ const RATING_UNITS: [string, string][] = [
 
 /** `voltage_V` → ["voltage", "V"], `tj_max_C` → ["tj max", "°C"]; unknown names as they are. */
 export function ratingName(name: string): [string, string] {
-  for (const [suffix, unit] of RATING_UNITS) if (name.endsWith(suffix) && name.length > suffix.length) return [name.slice(0, -suffix.length).replaceAll("_", " "), unit];
+  for (const [suffix, unit] of RATING_UNITS)
+    if (name.endsWith(suffix) && name.length > suffix.length)
+      return [name.slice(0, -suffix.length).replaceAll("_", " "), unit];
   return [name, ""];
 }
 
@@ -130,8 +142,10 @@ export function countPhrase(kind: DifferenceKind, n: number): string {
 export function thresholdsText(t: Thresholds): string {
   const rel = (x: number) => formatPercent(x);
   return (
-    `frequency ${rel(t.frequency_rel)}, dissipation ${rel(t.dissipation_rel)}, heatsink limit ${rel(t.heatsink_rel)} (relative); ` +
-    `duty ${formatValue(t.duty_abs * 100, "")} percentage point${t.duty_abs === 0.01 ? "" : "s"}, junction temperature ${formatValue(t.temperature_abs_K, "K")} (absolute)`
+    `frequency ${rel(t.frequency_rel)}, dissipation ${rel(t.dissipation_rel)}, ` +
+    `heatsink limit ${rel(t.heatsink_rel)} (relative); ` +
+    `duty ${formatValue(t.duty_abs * 100, "")} percentage point${t.duty_abs === 0.01 ? "" : "s"}, ` +
+    `junction temperature ${formatValue(t.temperature_abs_K, "K")} (absolute)`
   );
 }
 
@@ -151,8 +165,10 @@ export function byKind(diffs: readonly Difference[]): Map<DifferenceKind, Differ
  * characters and the bidirectional-override marks (which can make text read differently from
  * what it is) become U+FFFD; very long strings are cut.
  */
+// eslint-disable-next-line no-control-regex
+const UNSAFE = /[\u0000-\u001f\u007f-\u009f\u200e\u200f\u202a-\u202e\u2066-\u2069]/g;
+
 export function plain(s: string, max = 300): string {
-  // eslint-disable-next-line no-control-regex
-  const flat = s.replace(/[\r\n\t\u2028\u2029]+/g, " ").replace(/[\u0000-\u001f\u007f-\u009f\u200e\u200f\u202a-\u202e\u2066-\u2069]/g, "\uFFFD");
+  const flat = s.replace(/[\r\n\t\u2028\u2029]+/g, " ").replace(UNSAFE, "\uFFFD");
   return flat.length > max ? `${flat.slice(0, max - 1)}…` : flat;
 }

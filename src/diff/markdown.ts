@@ -77,14 +77,16 @@ function section(r: DiffReport, kind: DifferenceKind, list: Difference[], limit:
   const cols = COLUMNS[kind];
   const out = [`#### ${SECTION_TITLES[kind]} (${list.length})`, "", row(cols), row(cols.map(() => "---"))];
   for (const d of list.slice(0, limit)) out.push(row(cells(r, d).map((c) => md(c) || " ")));
-  if (list.length > limit) out.push("", `… and ${list.length - limit} more: run \`pulsewright diff\` on the two builds for the full list.`);
+  if (list.length > limit)
+    out.push("", `… and ${list.length - limit} more: run \`pulsewright diff\` on the two builds for the full list.`);
   return [...out, ""];
 }
 
 export function formatMarkdown(r: DiffReport, opts: FormatOptions = {}): string {
   const limit = opts.limit ?? Infinity;
   const groups = byKind(r.differences);
-  const side = (name: string, s: DiffReport["old"]) => row([name, md(s.source), String(s.variants), md(s.generated ?? ""), md(s.policy ?? "")]);
+  const side = (name: string, s: DiffReport["old"]) =>
+    row([name, md(s.source), String(s.variants), md(s.generated ?? ""), md(s.policy ?? "")]);
   const out = [
     "### What this change does to the catalogue",
     "",
@@ -97,7 +99,12 @@ export function formatMarkdown(r: DiffReport, opts: FormatOptions = {}): string 
     "",
   ];
   if (r.differences.length === 0) return `${[...out, "**No differences.**"].join("\n")}\n`;
-  out.push(`**${DIFFERENCE_KINDS.filter((k) => groups.has(k)).map((k) => countPhrase(k, groups.get(k)!.length)).join(" · ")}**`, "");
+  out.push(
+    `**${DIFFERENCE_KINDS.filter((k) => groups.has(k))
+      .map((k) => countPhrase(k, groups.get(k)!.length))
+      .join(" · ")}**`,
+    "",
+  );
   for (const kind of DIFFERENCE_KINDS) {
     const list = groups.get(kind);
     if (list) out.push(...section(r, kind, list, limit));

@@ -107,7 +107,15 @@ export const FIGURE_RULES: readonly FigureRule[] = [
 export type DifferenceKind = "added" | "removed" | "verdict" | "figure" | "heatsink" | "part" | "simulation";
 
 /** Report order: what most changes a reviewer's decision first. */
-export const DIFFERENCE_KINDS: readonly DifferenceKind[] = ["verdict", "added", "removed", "simulation", "heatsink", "figure", "part"];
+export const DIFFERENCE_KINDS: readonly DifferenceKind[] = [
+  "verdict",
+  "added",
+  "removed",
+  "simulation",
+  "heatsink",
+  "figure",
+  "part",
+];
 
 interface Base {
   id: string;

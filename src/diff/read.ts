@@ -17,8 +17,17 @@ async function readJson(file: string, shown: string, namedBy?: string): Promise<
     text = await readFile(file, "utf8");
   } catch (err) {
     const code = (err as { code?: string }).code;
-    const why = code === "ENOENT" ? "missing" : code === "EISDIR" ? "is a folder, not a file" : `cannot be read (${code ?? String(err)})`;
-    throw new DiffInputError(shown, "", `${why}${namedBy ? ` (${namedBy})` : ""} — the build is incomplete; ${REBUILD}`);
+    const why =
+      code === "ENOENT"
+        ? "missing"
+        : code === "EISDIR"
+          ? "is a folder, not a file"
+          : `cannot be read (${code ?? String(err)})`;
+    throw new DiffInputError(
+      shown,
+      "",
+      `${why}${namedBy ? ` (${namedBy})` : ""} — the build is incomplete; ${REBUILD}`,
+    );
   }
   try {
     return JSON.parse(text) as unknown;
@@ -32,7 +41,11 @@ function detailPath(entry: Reader, id: string): string {
   const urls = entry.optObject("urls");
   const url = urls?.optString("json");
   if (url === undefined) return `variants/${id}/${id}.json`;
-  const bad = url.startsWith("/") || url.includes("\\") || url.includes(":") || url.split("/").some((s) => s === ".." || s === "");
+  const bad =
+    url.startsWith("/") ||
+    url.includes("\\") ||
+    url.includes(":") ||
+    url.split("/").some((s) => s === ".." || s === "");
   if (bad) urls!.fail("json", `"${url}" is not a relative path inside the catalogue folder`);
   return url;
 }
@@ -44,7 +57,11 @@ async function locate(arg: string, cwd: string): Promise<string> {
   try {
     isDir = (await stat(abs)).isDirectory();
   } catch {
-    throw new DiffInputError(arg, "", "no such folder or file — name a folder `pulsewright build` made, or its catalogue.json");
+    throw new DiffInputError(
+      arg,
+      "",
+      "no such folder or file — name a folder `pulsewright build` made, or its catalogue.json",
+    );
   }
   return isDir ? path.join(abs, "catalogue.json") : abs;
 }
@@ -55,12 +72,14 @@ export async function readBuiltCatalogue(arg: string, cwd = process.cwd()): Prom
   const dir = path.dirname(file);
   const shown = (p: string) => path.relative(cwd, p) || p;
   const parsed = await readJson(file, shown(file));
-  if (!isObject(parsed)) throw new DiffInputError(shown(file), "", `not a catalogue (expected an object with "variants") — ${REBUILD}`);
+  if (!isObject(parsed))
+    throw new DiffInputError(shown(file), "", `not a catalogue (expected an object with "variants") — ${REBUILD}`);
   const top: Reader = new Reader(shown(file), "", parsed);
   const items = top.optArray("variants");
   if (!items) top.fail("variants", `missing — is this a pulsewright catalogue.json? ${REBUILD}`);
   const designs: Record<string, string> = {};
-  for (const d of top.objects("designs", top.optArray("designs") ?? [])) designs[d.string("id")] = d.optString("title") ?? d.string("id");
+  for (const d of top.objects("designs", top.optArray("designs") ?? []))
+    designs[d.string("id")] = d.optString("title") ?? d.string("id");
   const variants: VariantView[] = [];
   const seen = new Set<string>();
   for (const entry of top.objects("variants", items)) {
@@ -70,7 +89,8 @@ export async function readBuiltCatalogue(arg: string, cwd = process.cwd()): Prom
     const rel = detailPath(entry, id);
     const detailFile = path.join(dir, rel);
     const raw = await readJson(detailFile, shown(detailFile), `named by ${shown(file)} ${entry.pointer}`);
-    if (!isObject(raw)) throw new DiffInputError(shown(detailFile), "", `not a variant record (expected an object) — ${REBUILD}`);
+    if (!isObject(raw))
+      throw new DiffInputError(shown(detailFile), "", `not a variant record (expected an object) — ${REBUILD}`);
     variants.push(variantView(entry, new Reader(shown(detailFile), "", raw)));
   }
   const policy = top.optObject("policy");

@@ -24,7 +24,10 @@ export interface FormatOptions {
 }
 
 function sideLine(name: string, s: DiffReport["old"]): string {
-  const facts = [`${s.variants} variant${s.variants === 1 ? "" : "s"}`, ...(s.generated ? [`built ${plain(s.generated)}`] : [])];
+  const facts = [
+    `${s.variants} variant${s.variants === 1 ? "" : "s"}`,
+    ...(s.generated ? [`built ${plain(s.generated)}`] : []),
+  ];
   return `  ${name}: ${plain(s.source)} (${facts.join(", ")})`;
 }
 
@@ -40,11 +43,17 @@ function lines(r: DiffReport, d: Difference, lastId: string | undefined): string
     case "added":
     case "removed": {
       const detail = verdictDetail(d.verdict);
-      return [`  ${d.kind === "added" ? "+" : "-"} ${id} (${designOf(r, d)}): ${verdictWord(d.verdict)}${detail ? ` — ${plain(detail)}` : ""}`];
+      return [
+        `  ${d.kind === "added" ? "+" : "-"} ${id} (${designOf(r, d)}): ` +
+          `${verdictWord(d.verdict)}${detail ? ` — ${plain(detail)}` : ""}`,
+      ];
     }
     case "verdict": {
       const detail = verdictDetail(d.new);
-      return [`  ${id} (${designOf(r, d)})`, `    ${plain(verdictWord(d.old))} → ${plain(verdictWord(d.new))}${detail ? `: ${plain(detail)}` : ""}`];
+      return [
+        `  ${id} (${designOf(r, d)})`,
+        `    ${plain(verdictWord(d.old))} → ${plain(verdictWord(d.new))}${detail ? `: ${plain(detail)}` : ""}`,
+      ];
     }
     case "simulation":
       return [`  ${id}: ${plain(d.old)} → ${plain(d.new)}${d.message ? ` — ${plain(d.message)}` : ""}`];
@@ -57,7 +66,10 @@ function lines(r: DiffReport, d: Difference, lastId: string | undefined): string
     }
     case "part": {
       const head = lastId === d.id ? [] : [`  ${id}`];
-      return [...head, `    ${plain(d.part)} (${plain(refText(d.ref))}): ${plain(d.changes.map(partChangeText).join("; "))}`];
+      return [
+        ...head,
+        `    ${plain(d.part)} (${plain(refText(d.ref))}): ${plain(d.changes.map(partChangeText).join("; "))}`,
+      ];
     }
   }
 }
@@ -66,13 +78,18 @@ export function formatText(r: DiffReport, opts: FormatOptions = {}): string {
   const limit = opts.limit ?? Infinity;
   const groups = byKind(r.differences);
   const out = ["Catalogue differences", sideLine("old", r.old), sideLine("new", r.new)];
-  if (r.old.policy !== r.new.policy) out.push(`  derating policy: ${plain(r.old.policy ?? "none")} → ${plain(r.new.policy ?? "none")}`);
+  if (r.old.policy !== r.new.policy)
+    out.push(`  derating policy: ${plain(r.old.policy ?? "none")} → ${plain(r.new.policy ?? "none")}`);
   out.push(`  reported when a figure moves by more than: ${thresholdsText(r.thresholds)}`);
   if (r.differences.length === 0) {
     out.push("", "No differences.");
     return `${out.join("\n")}\n`;
   }
-  out.push(`  ${DIFFERENCE_KINDS.filter((k) => groups.has(k)).map((k) => countPhrase(k, groups.get(k)!.length)).join(", ")}`);
+  out.push(
+    `  ${DIFFERENCE_KINDS.filter((k) => groups.has(k))
+      .map((k) => countPhrase(k, groups.get(k)!.length))
+      .join(", ")}`,
+  );
   for (const kind of DIFFERENCE_KINDS) {
     const list = groups.get(kind);
     if (!list) continue;

@@ -104,7 +104,11 @@ function conditionText(r: Reader, item: unknown, i: number): string {
     const text = c.optString("text") ?? c.optString("message") ?? c.optString("summary") ?? c.optString("rule");
     if (text !== undefined) return text;
   }
-  throw new DiffInputError(r.file, `${r.pointer}/conditions/${i}`, "a condition must be a string or an object with a text");
+  throw new DiffInputError(
+    r.file,
+    `${r.pointer}/conditions/${i}`,
+    "a condition must be a string or an object with a text",
+  );
 }
 
 function conditionsOf(r: Reader | undefined): string[] | undefined {
@@ -175,7 +179,11 @@ function readHeatsink(r: Reader): HeatsinkView | undefined {
   const needed = h.optBoolean("needed");
   const rth = h.optNumber("rth_sa_max_KperW");
   const text = h.optString("text");
-  return { ...(needed !== undefined ? { needed } : {}), ...(rth !== undefined ? { rth_sa_max_KperW: rth } : {}), ...(text !== undefined ? { text } : {}) };
+  return {
+    ...(needed !== undefined ? { needed } : {}),
+    ...(rth !== undefined ? { rth_sa_max_KperW: rth } : {}),
+    ...(text !== undefined ? { text } : {}),
+  };
 }
 
 function readRating(p: Reader): Record<string, number> {
@@ -219,7 +227,8 @@ function readParts(r: Reader): PartView[] | null {
 export function variantView(entry: Reader, detail: Reader): VariantView {
   const id = entry.string("id");
   const detailId = detail.optString("id");
-  if (detailId !== undefined && detailId !== id) detail.fail("id", `is "${detailId}", but catalogue.json lists this file for "${id}"`);
+  if (detailId !== undefined && detailId !== id)
+    detail.fail("id", `is "${detailId}", but catalogue.json lists this file for "${id}"`);
   const design = entry.optString("design") ?? detail.optObject("design")?.optString("id") ?? "";
   const hasVerdict = detail.obj["feasible"] !== undefined || detail.obj["verdict"] !== undefined;
   const verdict = readVerdict(hasVerdict ? detail : entry);

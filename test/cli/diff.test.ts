@@ -9,7 +9,8 @@ import { parseThreshold, runDiff } from "../../src/cli/diff.ts";
 
 const ROOT = fileURLToPath(new URL("../../", import.meta.url));
 const BIN = fileURLToPath(new URL("../../bin/pulsewright.mjs", import.meta.url));
-const run = (...args: string[]) => spawnSync(process.execPath, [BIN, "diff", ...args], { cwd: ROOT, encoding: "utf8", timeout: 60_000 });
+const run = (...args: string[]) =>
+  spawnSync(process.execPath, [BIN, "diff", ...args], { cwd: ROOT, encoding: "utf8", timeout: 60_000 });
 const OLD = "test/fixtures/diff/old";
 const NEW = "test/fixtures/diff/new";
 
@@ -21,7 +22,8 @@ async function diff(...args: string[]): Promise<{ status: number; stdout: string
     return { status: await runDiff(ROOT, args, out), ...o };
   } catch (err) {
     const e = err as { name?: string; code?: string; message?: string };
-    if (e.name === "UsageError" || e.code?.startsWith("ERR_PARSE_ARGS_")) return { status: 2, stdout: o.stdout, stderr: `${e.message}\n` };
+    if (e.name === "UsageError" || e.code?.startsWith("ERR_PARSE_ARGS_"))
+      return { status: 2, stdout: o.stdout, stderr: `${e.message}\n` };
     throw err;
   }
 }
@@ -59,7 +61,13 @@ describe("pulsewright diff", () => {
   });
 
   it("usage errors: one catalogue, an unknown kind, a bad threshold, a bad limit, an unknown option", async () => {
-    for (const args of [[OLD], [OLD, NEW, "--fail-on", "colour"], [OLD, NEW, "--duty-abs", "lots"], [OLD, NEW, "--limit", "0"], [OLD, NEW, "--no-such-option"]]) {
+    for (const args of [
+      [OLD],
+      [OLD, NEW, "--fail-on", "colour"],
+      [OLD, NEW, "--duty-abs", "lots"],
+      [OLD, NEW, "--limit", "0"],
+      [OLD, NEW, "--no-such-option"],
+    ]) {
       const r = await diff(...args);
       expect(r.status, args.join(" ")).toBe(2);
       expect(r.stdout).toBe("");
@@ -84,7 +92,9 @@ describe("pulsewright diff, as a process", () => {
   it("a missing folder: exit 2, one line naming it", () => {
     const r = run("no-such-build", NEW);
     expect(r.status).toBe(2);
-    expect(r.stderr).toBe("diff: no-such-build: no such folder or file — name a folder `pulsewright build` made, or its catalogue.json\n");
+    expect(r.stderr).toBe(
+      "diff: no-such-build: no such folder or file — name a folder `pulsewright build` made, or its catalogue.json\n",
+    );
     expect(r.stdout).toBe("");
   });
 

@@ -87,8 +87,16 @@ describe("the same pair written by the site's own serialisers (every member, not
     const pair = diffPair();
     writeCatalogue(pair.old, path.join(tmp, "full-old"));
     writeCatalogue(pair.new, path.join(tmp, "full-new"), { patch: conditionalPatch });
-    const full = diffCatalogues(await readBuiltCatalogue(path.join(tmp, "full-old")), await readBuiltCatalogue(path.join(tmp, "full-new")), DEFAULT_THRESHOLDS);
-    const committed = diffCatalogues(await readBuiltCatalogue(`${FIX}/old`, ROOT), await readBuiltCatalogue(`${FIX}/new`, ROOT), DEFAULT_THRESHOLDS);
+    const full = diffCatalogues(
+      await readBuiltCatalogue(path.join(tmp, "full-old")),
+      await readBuiltCatalogue(path.join(tmp, "full-new")),
+      DEFAULT_THRESHOLDS,
+    );
+    const committed = diffCatalogues(
+      await readBuiltCatalogue(`${FIX}/old`, ROOT),
+      await readBuiltCatalogue(`${FIX}/new`, ROOT),
+      DEFAULT_THRESHOLDS,
+    );
     expect(full).toEqual(committed);
   });
 
@@ -117,11 +125,20 @@ describe("thresholds: strictly beyond (common practice)", () => {
 });
 
 /** A catalogue folder with one variant whose files are as given (for reader errors). */
-function oneVariant(name: string, catalogue: unknown, detail?: string | object, detailPath = "variants/v1/v1.json"): string {
+function oneVariant(
+  name: string,
+  catalogue: unknown,
+  detail?: string | object,
+  detailPath = "variants/v1/v1.json",
+): string {
   const dir = path.join(tmp, name);
   mkdirSync(path.join(dir, path.dirname(detailPath)), { recursive: true });
-  writeFileSync(path.join(dir, "catalogue.json"), typeof catalogue === "string" ? catalogue : JSON.stringify(catalogue));
-  if (detail !== undefined) writeFileSync(path.join(dir, detailPath), typeof detail === "string" ? detail : JSON.stringify(detail));
+  writeFileSync(
+    path.join(dir, "catalogue.json"),
+    typeof catalogue === "string" ? catalogue : JSON.stringify(catalogue),
+  );
+  if (detail !== undefined)
+    writeFileSync(path.join(dir, detailPath), typeof detail === "string" ? detail : JSON.stringify(detail));
   return dir;
 }
 
@@ -129,22 +146,74 @@ describe("the reader: one line naming the file (and the place) for anything miss
   const entry = { id: "v1", design: "d", feasible: true, urls: { json: "variants/v1/v1.json" } };
   const cases: [string, () => string, RegExp][] = [
     ["a missing folder", () => path.join(tmp, "no-such-build"), /no-such-build: no such folder or file/],
-    ["a folder without catalogue.json", () => (mkdirSync(path.join(tmp, "empty"), { recursive: true }), path.join(tmp, "empty")), /empty\/catalogue\.json: missing/],
-    ["catalogue.json that is not JSON", () => oneVariant("bad-json", "{ nope"), /bad-json\/catalogue\.json: not valid JSON/],
-    ["catalogue.json without variants", () => oneVariant("no-variants", { designs: [] }), /no-variants\/catalogue\.json: \/variants: missing/],
-    ["a variant without an id", () => oneVariant("no-id", { variants: [{ design: "d" }] }), /no-id\/catalogue\.json: \/variants\/0\/id: missing/],
-    ["a missing variant JSON", () => oneVariant("no-detail", { variants: [entry] }), /no-detail\/variants\/v1\/v1\.json: missing \(named by .*catalogue\.json \/variants\/0\)/],
-    ["a variant JSON for another id", () => oneVariant("other-id", { variants: [entry] }, { id: "v2", feasible: true }), /other-id\/variants\/v1\/v1\.json: \/id: is "v2"/],
-    ["a figure value that is not a number", () => oneVariant("bad-figure", { variants: [entry] }, { id: "v1", feasible: true, figures: [{ key: "duty_max", value: "0.9" }] }), /bad-figure\/variants\/v1\/v1\.json: \/figures\/0\/value: not a finite number/],
-    ["a variant path that leaves the folder", () => oneVariant("escape", { variants: [{ ...entry, urls: { json: "../../etc/passwd" } }] }), /escape\/catalogue\.json: \/variants\/0\/urls\/json: "\.\.\/\.\.\/etc\/passwd" is not a relative path inside/],
-    ["a verdict that is neither word nor object", () => oneVariant("bad-verdict", { variants: [entry] }, { id: "v1", verdict: 3 }), /bad-verdict\/variants\/v1\/v1\.json: \/verdict: neither a word nor an object/],
-    ["no feasible flag and no verdict anywhere", () => oneVariant("no-verdict", { variants: [{ ...entry, feasible: undefined }] }, { id: "v1" }), /no-verdict\/catalogue\.json: \/variants\/0\/feasible: missing/],
-    ["a variant listed twice", () => oneVariant("twice", { variants: [entry, entry] }, { id: "v1", feasible: true }), /twice\/catalogue\.json: \/variants\/1\/id: "v1" is listed twice/],
+    [
+      "a folder without catalogue.json",
+      () => (mkdirSync(path.join(tmp, "empty"), { recursive: true }), path.join(tmp, "empty")),
+      /empty\/catalogue\.json: missing/,
+    ],
+    [
+      "catalogue.json that is not JSON",
+      () => oneVariant("bad-json", "{ nope"),
+      /bad-json\/catalogue\.json: not valid JSON/,
+    ],
+    [
+      "catalogue.json without variants",
+      () => oneVariant("no-variants", { designs: [] }),
+      /no-variants\/catalogue\.json: \/variants: missing/,
+    ],
+    [
+      "a variant without an id",
+      () => oneVariant("no-id", { variants: [{ design: "d" }] }),
+      /no-id\/catalogue\.json: \/variants\/0\/id: missing/,
+    ],
+    [
+      "a missing variant JSON",
+      () => oneVariant("no-detail", { variants: [entry] }),
+      /no-detail\/variants\/v1\/v1\.json: missing \(named by .*catalogue\.json \/variants\/0\)/,
+    ],
+    [
+      "a variant JSON for another id",
+      () => oneVariant("other-id", { variants: [entry] }, { id: "v2", feasible: true }),
+      /other-id\/variants\/v1\/v1\.json: \/id: is "v2"/,
+    ],
+    [
+      "a figure value that is not a number",
+      () =>
+        oneVariant(
+          "bad-figure",
+          { variants: [entry] },
+          { id: "v1", feasible: true, figures: [{ key: "duty_max", value: "0.9" }] },
+        ),
+      /bad-figure\/variants\/v1\/v1\.json: \/figures\/0\/value: not a finite number/,
+    ],
+    [
+      "a variant path that leaves the folder",
+      () => oneVariant("escape", { variants: [{ ...entry, urls: { json: "../../etc/passwd" } }] }),
+      /escape\/catalogue\.json: \/variants\/0\/urls\/json: "\.\.\/\.\.\/etc\/passwd" is not a relative path inside/,
+    ],
+    [
+      "a verdict that is neither word nor object",
+      () => oneVariant("bad-verdict", { variants: [entry] }, { id: "v1", verdict: 3 }),
+      /bad-verdict\/variants\/v1\/v1\.json: \/verdict: neither a word nor an object/,
+    ],
+    [
+      "no feasible flag and no verdict anywhere",
+      () => oneVariant("no-verdict", { variants: [{ ...entry, feasible: undefined }] }, { id: "v1" }),
+      /no-verdict\/catalogue\.json: \/variants\/0\/feasible: missing/,
+    ],
+    [
+      "a variant listed twice",
+      () => oneVariant("twice", { variants: [entry, entry] }, { id: "v1", feasible: true }),
+      /twice\/catalogue\.json: \/variants\/1\/id: "v1" is listed twice/,
+    ],
   ];
   for (const [what, make, message] of cases)
     it(what, async () => {
       const arg = make();
-      const err = await readBuiltCatalogue(arg).then(() => null, (e: unknown) => e as Error);
+      const err = await readBuiltCatalogue(arg).then(
+        () => null,
+        (e: unknown) => e as Error,
+      );
       expect(err?.name).toBe("DiffInputError");
       expect(err?.message).toMatch(message);
       expect(err?.message).not.toContain("\n");
@@ -155,17 +224,36 @@ describe("verdict texts: numbers inside a reason or condition are not a new verd
   const view = (reason: string, conditions: string[] = [], state = "not-feasible") => ({
     source: "x",
     designs: {},
-    variants: [{ id: "v", design: "d", verdict: { state, reason, conditions }, figures: {}, parts: null, simulation: { status: "skipped" } }],
+    variants: [
+      {
+        id: "v",
+        design: "d",
+        verdict: { state, reason, conditions },
+        figures: {},
+        parts: null,
+        simulation: { status: "skipped" },
+      },
+    ],
   });
   it("a reason whose numbers moved is not reported; another reason is", () => {
     const a = view("needs a heatsink ≤ 3.4 K/W");
     expect(diffCatalogues(a, view("needs a heatsink ≤ 3.0 K/W"), DEFAULT_THRESHOLDS)).toEqual([]);
-    expect(summary(diffCatalogues(a, view("the load gets below 90 % of the supply"), DEFAULT_THRESHOLDS))).toEqual(["verdict v"]);
+    expect(summary(diffCatalogues(a, view("the load gets below 90 % of the supply"), DEFAULT_THRESHOLDS))).toEqual([
+      "verdict v",
+    ]);
   });
   it("a condition whose numbers moved is not reported; a new condition is", () => {
     const a = view("", ["Q3 on a heatsink of ≤ 4.2 K/W"], "conditional");
-    expect(diffCatalogues(a, view("", ["Q3 on a heatsink of ≤ 4.0 K/W"], "conditional"), DEFAULT_THRESHOLDS)).toEqual([]);
-    expect(diffCatalogues(a, view("", ["Q3 on a heatsink of ≤ 4.0 K/W", "inrush limited to 5 A"], "conditional"), DEFAULT_THRESHOLDS)).toHaveLength(1);
+    expect(diffCatalogues(a, view("", ["Q3 on a heatsink of ≤ 4.0 K/W"], "conditional"), DEFAULT_THRESHOLDS)).toEqual(
+      [],
+    );
+    expect(
+      diffCatalogues(
+        a,
+        view("", ["Q3 on a heatsink of ≤ 4.0 K/W", "inrush limited to 5 A"], "conditional"),
+        DEFAULT_THRESHOLDS,
+      ),
+    ).toHaveLength(1);
   });
 });
 

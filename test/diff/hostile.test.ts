@@ -8,7 +8,14 @@ import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import path from "node:path";
 import { afterAll, describe, expect, it } from "vitest";
-import { DEFAULT_THRESHOLDS, diffReport, formatMarkdown, formatText, md, readBuiltCatalogue } from "../../src/diff/index.ts";
+import {
+  DEFAULT_THRESHOLDS,
+  diffReport,
+  formatMarkdown,
+  formatText,
+  md,
+  readBuiltCatalogue,
+} from "../../src/diff/index.ts";
 
 const HOSTILE =
   "x | y `code` <img src=x onerror=alert(1)> [click](https://evil.example) ![i](https://evil.example/t.png) " +
@@ -24,11 +31,26 @@ function write(name: string, variants: { id: string; file: string; detail: objec
     mkdirSync(path.join(dir, path.dirname(v.file)), { recursive: true });
     writeFileSync(path.join(dir, v.file), JSON.stringify({ id: v.id, ...v.detail }));
   }
-  writeFileSync(path.join(dir, "catalogue.json"), JSON.stringify({ generated: HOSTILE, designs: [{ id: "d1", title: HOSTILE }], policy: { id: HOSTILE }, variants: entries }));
+  writeFileSync(
+    path.join(dir, "catalogue.json"),
+    JSON.stringify({
+      generated: HOSTILE,
+      designs: [{ id: "d1", title: HOSTILE }],
+      policy: { id: HOSTILE },
+      variants: entries,
+    }),
+  );
   return dir;
 }
 
-const part = (role: string, value: number) => ({ ref: HOSTILE, role, kind: "resistor", value, unit: "Ω", rating: { [HOSTILE]: value } });
+const part = (role: string, value: number) => ({
+  ref: HOSTILE,
+  role,
+  kind: "resistor",
+  value,
+  unit: "Ω",
+  rating: { [HOSTILE]: value },
+});
 const figures = (f: number) => [{ key: "frequency_nominal", label: HOSTILE, value: f, unit: "Hz" }];
 
 /** Table cells of a Markdown row: split on unescaped pipes. */
@@ -51,14 +73,29 @@ function cells(line: string): string[] {
 
 describe("hostile titles and ids", async () => {
   const oldDir = write("old", [
-    { id: HOSTILE, file: "variants/h1/h1.json", detail: { feasible: true, figures: figures(1000), parts: [part(HOSTILE, 1000)], verification: { status: "agree" } } },
+    {
+      id: HOSTILE,
+      file: "variants/h1/h1.json",
+      detail: {
+        feasible: true,
+        figures: figures(1000),
+        parts: [part(HOSTILE, 1000)],
+        verification: { status: "agree" },
+      },
+    },
     { id: "gone", file: "variants/h2/h2.json", detail: { feasible: false, reason: HOSTILE } },
   ]);
   const newDir = write("new", [
     {
       id: HOSTILE,
       file: "variants/h1/h1.json",
-      detail: { verdict: { status: "conditional", conditions: [{ text: HOSTILE }] }, feasible: true, figures: figures(2000), parts: [part(HOSTILE, 2200)], verification: { status: HOSTILE, message: HOSTILE } },
+      detail: {
+        verdict: { status: "conditional", conditions: [{ text: HOSTILE }] },
+        feasible: true,
+        figures: figures(2000),
+        parts: [part(HOSTILE, 2200)],
+        verification: { status: HOSTILE, message: HOSTILE },
+      },
     },
     { id: `${HOSTILE}2`, file: "variants/h3/h3.json", detail: { feasible: false, reason: HOSTILE } },
   ]);
@@ -67,7 +104,9 @@ describe("hostile titles and ids", async () => {
   const text = formatText(report);
 
   it("every kind of difference carrying hostile text is present", () => {
-    expect(new Set(report.differences.map((d) => d.kind))).toEqual(new Set(["verdict", "added", "removed", "simulation", "figure", "part"]));
+    expect(new Set(report.differences.map((d) => d.kind))).toEqual(
+      new Set(["verdict", "added", "removed", "simulation", "figure", "part"]),
+    );
   });
 
   it("Markdown: no HTML, and every table row keeps its column count", () => {
@@ -92,7 +131,8 @@ describe("hostile titles and ids", async () => {
   });
 
   it("Markdown: the only headings are the report's own", () => {
-    for (const line of mdText.split("\n").filter((l) => /^\s*#/.test(l))) expect(line).toMatch(/^#{3,4} (What this change|[A-Z][a-z]+ [a-z]+)/);
+    for (const line of mdText.split("\n").filter((l) => /^\s*#/.test(l)))
+      expect(line).toMatch(/^#{3,4} (What this change|[A-Z][a-z]+ [a-z]+)/);
   });
 
   it("neither output carries control characters or direction overrides; line breaks in titles become spaces", () => {

@@ -46,11 +46,21 @@ export function diffPair(): { old: BuiltCatalogue; new: BuiltCatalogue } {
   const [fan, mats] = neu.designs as [BuiltCatalogue["designs"][0], BuiltCatalogue["designs"][0]];
   // removed and added
   mats.variants = mats.variants.filter((v) => v.sized.spec.id !== IDS.removed);
-  fan.variants.push(builtVariant({ record: fan.record, supply_V: 36, load_A: 0.5, chain: "mosfet-driver", load_kind: "motor", sim: "agree" }));
+  fan.variants.push(
+    builtVariant({
+      record: fan.record,
+      supply_V: 36,
+      load_A: 0.5,
+      chain: "mosfet-driver",
+      load_kind: "motor",
+      sim: "agree",
+    }),
+  );
   // verdict: feasible → not feasible, with its reason
   const flipped = find(neu, IDS.verdict).sized;
   flipped.feasible = false;
-  flipped.reason = "The driven MOSFET's gate charge at 20 kHz overloads the driver stage: Q4 exceeds its derated dissipation.";
+  flipped.reason =
+    "The driven MOSFET's gate charge at 20 kHz overloads the driver stage: Q4 exceeds its derated dissipation.";
   // figures: frequency −5 % (reported), duty_max +0.4 points (below the threshold), T_J +3 K (reported)
   const moved = find(neu, IDS.figures);
   figure(moved, "frequency_nominal").value *= 0.95;
@@ -78,13 +88,37 @@ export interface WriteOptions {
   patch?: (id: string, json: Record<string, unknown>) => void;
 }
 
-const DETAIL_KEEP = ["id", "design", "feasible", "reason", "verdict", "conditions", "figures", "parts", "heatsink", "verification"];
+const DETAIL_KEEP = [
+  "id",
+  "design",
+  "feasible",
+  "reason",
+  "verdict",
+  "conditions",
+  "figures",
+  "parts",
+  "heatsink",
+  "verification",
+];
 
 function trimDetail(j: Record<string, unknown>): Record<string, unknown> {
   const out: Record<string, unknown> = {};
   for (const k of DETAIL_KEEP) if (j[k] !== undefined) out[k] = j[k];
-  out["figures"] = (j["figures"] as Record<string, unknown>[]).map(({ key, label, value, unit }) => ({ key, label, value, unit }));
-  out["parts"] = (j["parts"] as Record<string, unknown>[]).map(({ ref, kind, role, value, unit, rating, device }) => ({ ref, kind, role, value, unit, rating, ...(device !== undefined ? { device } : {}) }));
+  out["figures"] = (j["figures"] as Record<string, unknown>[]).map(({ key, label, value, unit }) => ({
+    key,
+    label,
+    value,
+    unit,
+  }));
+  out["parts"] = (j["parts"] as Record<string, unknown>[]).map(({ ref, kind, role, value, unit, rating, device }) => ({
+    ref,
+    kind,
+    role,
+    value,
+    unit,
+    rating,
+    ...(device !== undefined ? { device } : {}),
+  }));
   const ver = j["verification"] as Record<string, unknown>;
   out["verification"] = { status: ver["status"], ...(ver["message"] !== undefined ? { message: ver["message"] } : {}) };
   return out;

@@ -46,7 +46,13 @@ const variant = (id: string): fc.Arbitrary<VariantView> =>
 
 const catalogue: fc.Arbitrary<CatalogueView> = fc
   // A small pool of ids, so two catalogues share most of their variants.
-  .uniqueArray(fc.oneof(fc.constantFrom("a-12v", "a-24v", "b-12v", "b-24v", "c|`<x>`"), fc.string({ minLength: 1, maxLength: 20 })), { maxLength: 8 })
+  .uniqueArray(
+    fc.oneof(
+      fc.constantFrom("a-12v", "a-24v", "b-12v", "b-24v", "c|`<x>`"),
+      fc.string({ minLength: 1, maxLength: 20 }),
+    ),
+    { maxLength: 8 },
+  )
   .chain((ids) => fc.tuple(...ids.map(variant)))
   .map((variants) => ({ source: "generated", designs: { "circulation-fan": "Circulation fan driver" }, variants }));
 
@@ -67,7 +73,11 @@ describe("diff properties", () => {
       fc.property(catalogue, catalogue, (a, b) => {
         const ab = diffCatalogues(a, b, DEFAULT_THRESHOLDS);
         const ba = diffCatalogues(b, a, DEFAULT_THRESHOLDS);
-        const ids = (ds: typeof ab, kind: string) => ds.filter((d) => d.kind === kind).map((d) => d.id).sort();
+        const ids = (ds: typeof ab, kind: string) =>
+          ds
+            .filter((d) => d.kind === kind)
+            .map((d) => d.id)
+            .sort();
         expect(ids(ab, "added")).toEqual(ids(ba, "removed"));
         expect(ids(ab, "removed")).toEqual(ids(ba, "added"));
         expect(ids(ab, "verdict")).toEqual(ids(ba, "verdict"));
