@@ -6,7 +6,7 @@
 import { sizeOwn, type SizeOwnData } from "../site/size-own.ts";
 import { orderedFigureRows } from "../site/figures.ts";
 import { checkRow, partRow } from "../site/parts-view.ts";
-import { FEASIBILITY } from "../site/labels.ts";
+import { verdictWords } from "../site/labels.ts";
 
 function el<K extends keyof HTMLElementTagNameMap>(tag: K, text?: string, cls?: string): HTMLElementTagNameMap[K] {
   const n = document.createElement(tag);
@@ -73,10 +73,15 @@ function sizeYourOwn(): void {
       return;
     }
     const s = r.sized;
-    const f = s.feasible ? FEASIBILITY.yes : FEASIBILITY.no;
+    const f = verdictWords(s.verdict.status);
     const verdict = el("div", undefined, `verdict ${f.cls}`);
     verdict.append(el("h3", `${f.symbol} ${s.spec.id}: ${f.word}`));
     if (s.reason) verdict.append(el("p", s.reason));
+    if (s.verdict.conditions.length) {
+      const ul = el("ul");
+      for (const c of s.verdict.conditions) ul.append(el("li", c.text));
+      verdict.append(el("p", "Conditions:"), ul);
+    }
     verdict.append(el("p", `Heatsink: ${s.heatsink.text}.`));
     out.append(verdict);
     if (s.cautions.length) {

@@ -1,5 +1,5 @@
 /**
- * `pulsewright` command line: check | build | serve | size. Thin: parses flags, calls the
+ * `pulsewright` command line: check | build | serve | size | diff. Thin: parses flags, calls the
  * pipeline, maps results to exit codes. Errors a user can fix are printed without stack traces.
  */
 import { parseArgs } from "node:util";
@@ -8,6 +8,7 @@ import { runCheck } from "./check.ts";
 import { runBuild } from "./build.ts";
 import { runServe } from "./serve.ts";
 import { runSize } from "./size.ts";
+import { runDiff, DIFF_USAGE } from "./diff.ts";
 
 const USAGE = `usage: pulsewright <command> [options]
 
@@ -16,6 +17,7 @@ commands:
   build                 size, render, simulate and publish the catalogue into _site/
   serve                 serve _site/ on http://127.0.0.1:8080 (after a build)
   size                  size one variant from flags and print its figures
+  diff OLD NEW          what changed between two built catalogues (variants, verdicts, figures, parts)
 
 build options:
   --out DIR             output folder (default _site): a new or empty folder, or one an earlier
@@ -29,6 +31,8 @@ build options:
 
 size options:
   --design ID --supply V --current A --chain KIND --load KIND [--json]
+
+${DIFF_USAGE}
 `;
 
 async function main(argv: string[]): Promise<number> {
@@ -78,6 +82,7 @@ async function main(argv: string[]): Promise<number> {
   }
   if (command === "serve") return runServe(root, rest, out);
   if (command === "size") return runSize(root, rest, out);
+  if (command === "diff") return runDiff(root, rest, out);
   if (command === undefined || command === "help" || command === "--help" || command === "-h") {
     out.log(USAGE);
     return command === undefined ? 2 : 0;

@@ -29,7 +29,7 @@ export interface RenderedVariant {
 export function sizeProject(project: LoadedProject): { design: LoadedProject["designs"][number]; sized: SizedVariant[] }[] {
   return project.designs.map((d) => {
     const specs = expandDesign(d.record, {
-      choose: (rec, supply_V, load_A) => chooseDevices(rec, project.devices, supply_V, load_A),
+      choose: (rec, supply_V, load_A, c) => chooseDevices(rec, project.devices, supply_V, load_A, c),
       policy: project.policy,
     });
     return { design: d, sized: attachAlternatives(specs.map((s) => sizeVariant(s))) };

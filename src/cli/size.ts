@@ -39,7 +39,7 @@ export async function runSize(root: string, args: string[], out: { log(s: string
   const load_kind = (values.load ?? d.record.axes.load_kind[0]) as LoadKind;
   if (!LOAD_KINDS.includes(load_kind)) usage(`--load must be one of ${LOAD_KINDS.join(", ")}`);
   const rec = { ...d.record, axes: { supply_V: [supply_V], load_A: [load_A], chain: [chain], load_kind: [load_kind] } };
-  const [spec] = expandDesign(rec, { choose: (r, s, a) => chooseDevices(r, project.devices, s, a), policy: project.policy });
+  const [spec] = expandDesign(rec, { choose: (r, s, a, c) => chooseDevices(r, project.devices, s, a, c), policy: project.policy });
   if (!spec) usage("nothing to size");
   const sized = sizeVariant(spec);
   if (values.json) {

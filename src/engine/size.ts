@@ -10,12 +10,12 @@ import type { StressCheck } from "../model/derating.ts";
 import type { SizedVariant } from "../model/sized.ts";
 import type { VariantSpec } from "../model/variant.ts";
 import type { BjtClass, DiodeClass } from "../model/device.ts";
-import { diodeVf_V } from "./stages/core-model.ts";
+import { diodeClassVf_V } from "./shared/diode.ts";
 import type { DeviceLoss } from "./stages/chains/types.ts";
 import { switchingLoss_W } from "./shared/losses.ts";
 import { assembleCircuit, refsByRole } from "../circuit/assemble.ts";
 import { figure, problem } from "./shared/figures.ts";
-import { SRC } from "./shared/sources.ts";
+import { NOMINAL_TEMP_C } from "./shared/temperature.ts";
 import { makeContext } from "./stages/context.ts";
 import { CHAIN_PLANNERS } from "./stages/chains/index.ts";
 import { designTap } from "./stages/tap.ts";
@@ -24,7 +24,8 @@ import { loadStage } from "./stages/load.ts";
 import { thermalStage } from "./stages/thermal.ts";
 import { reviewFailures } from "./stages/failure-modes.ts";
 import { protectionStage } from "./stages/protection.ts";
-import { blockingReason, cautions, checkProblems } from "./stages/feasibility.ts";
+import { cautions, checkProblems, verdictLead } from "./stages/feasibility.ts";
+import { decideVerdict } from "./stages/verdict.ts";
 
 export function sizeVariant(spec: VariantSpec): SizedVariant {
   try {
@@ -32,9 +33,11 @@ export function sizeVariant(spec: VariantSpec): SizedVariant {
   } catch (err) {
     if (!(err instanceof EngineMisuseError)) throw err;
     const msg = `The engine could not size this variant (${err.message}).`;
+    const problems = [problem("engine", "", "engine-failure", "error", msg)];
+    const verdict = decideVerdict({ checks: [], problems, conditions: [] });
     return {
-      spec, feasible: false, reason: msg, figures: [], checks: [], circuit: null, cautions: [],
-      problems: [problem("engine", "", "engine-failure", "error", msg)],
+      spec, verdict, feasible: false, reason: verdict.summary, figures: [], checks: [], circuit: null, cautions: [],
+      problems,
       heatsink: { needed: false, text: "not sized" },
     };
   }
@@ -54,7 +57,9 @@ function sizeInner(spec: VariantSpec): SizedVariant {
   const timingLoss = (role: string) => ({ role, dev: q, family: "bjt" as const, pCond_W: timing.timingLoss_W, pSw_W: 0, p_W: timing.timingLoss_W, isPower: false });
   const losses = [...fin.losses, timingLoss("Q_A"), timingLoss("Q_B")];
   const thermal = thermalStage(ctx, losses);
-  const prot = protectionStage(ctx, ctx.vNom_V / timing.values.rC_ohm, w.f.lo, w.f.hi, w.dMin.lo);
+  const power = fin.losses.find((l) => l.isPower);
+  // The core's own current at the highest supply counts toward the fuse's continuous current.
+  const prot = protectionStage(ctx, ctx.vMax_V / timing.values.rC_ohm, w.f.lo, w.f.hi, w.dMin.lo, power === undefined ? undefined : { role: power.role, dev: power.dev });
   const pIn = ctx.vMax_V * ctx.iMax_A * Math.min(1, w.dMax.hi);
   const pNominal = nominalDissipation(ctx, timing.figures, fin.losses, load.iOn_A, vSwNom_V, w.f.hi, timing.fCtrl1_Hz);
 
@@ -63,7 +68,9 @@ function sizeInner(spec: VariantSpec): SizedVariant {
     const th = thermal.perRole.get(p.role);
     return th === undefined ? p : { ...p, stress: { ...p.stress, power_W: th.p_W, tj_C: th.tj_C } };
   });
-  const review = reviewFailures(ctx, stressed, losses, thermal.perRole);
+  // Roles the thermal stage puts on a heatsink (its conditions name them by path).
+  const heatsunk = new Set(thermal.conditions.map((c) => /^\/parts\/(.+)$/.exec(c.path)?.[1]).filter((r): r is string => r !== undefined));
+  const review = reviewFailures(ctx, stressed, losses, thermal.perRole, heatsunk);
   const parts = stressed.map((p) => {
     const note = review.partNotes.get(p.role);
     return note === undefined ? p : { ...p, notes: [...(p.notes ?? []), note] };
@@ -71,6 +78,8 @@ function sizeInner(spec: VariantSpec): SizedVariant {
   const driverLoss = driverLoss_W(parts, [...fin.losses, timingLoss("Q_A"), timingLoss("Q_B")], ctx, Math.min(1, w.dMax.hi));
   const efficiency = Math.max(0, 1 - driverLoss / pIn);
   const circuit = assembleCircuit(parts, { supply_V: spec.supply_V, highSide: ctx.highSide, tapNet: tap.tapNet, chainInputNet: tap.inputNet });
+  // The review again on the assembled parts, so its cautions name parts by their reference designators.
+  const reviewed = reviewFailures(ctx, circuit.parts, losses, thermal.perRole, heatsunk);
   const refs = refsByRole(circuit);
   const toRef = (role: string): string => refs.get(role) ?? role;
   const checks: StressCheck[] = [...timing.checks, ...tap.checks, ...plan.checks, ...fin.checks, ...thermal.checks, ...prot.checks].map((c) => ({ ...c, ref: toRef(c.ref) }));
@@ -81,19 +90,27 @@ function sizeInner(spec: VariantSpec): SizedVariant {
   const stageProblems = [...timing.problems, ...plan.problems, ...fin.problems, ...load.problems, ...thermal.problems, ...prot.problems].map(fixPath);
   const problems = [...stageProblems, ...checkProblems(checks, stageProblems)];
   const figures: Figure[] = dedupe([
-    ...timing.figures, ...plan.figures, ...fin.figures, ...load.figures, ...thermal.figures, ...review.figures, ...prot.figures,
-    ...(pNominal === undefined ? [] : [figure("device_dissipation_nominal", "Power device dissipation (nominal: rated load, D_max, 25 °C)", pNominal, "W", "thermal",
-      "P = I_on·V_sw,nom·D_max,nom (MOSFET I_on²·R_DS(on),nom·D) + k·V_nom·I_on·(t_on,nom + t_off,nom)·f_nom", SRC.DERIVED)]),
+    ...timing.figures, ...plan.figures, ...fin.figures, ...load.figures, ...thermal.figures, ...reviewed.figures, ...prot.figures,
+    ...(pNominal === undefined ? [] : [figure("device_dissipation_nominal", `Power device dissipation (nominal: rated load, D_max, ${NOMINAL_TEMP_C} °C)`, pNominal, "W", "thermal",
+      "P = I_on·V_sw,nom·D_max,nom (MOSFET I_on²·R_DS(on),nom·D) + k·V_nom·I_on·(t_on,nom + t_off,nom)·f_nom", "derived")]),
     figure("efficiency", "Driver efficiency (worst case)", efficiency, "", "chain",
-      "η = 1 − (ΣP_transistors + ΣP_resistors, zeners + P_freewheel) / (V_cc,max · I_max · D_max); each resistor at its worst-case dissipation", SRC.DERIVED),
+      "η = 1 − (ΣP_transistors + ΣP_resistors, zeners + P_freewheel) / (V_cc,max · I_max · D_max); each resistor at its worst-case dissipation", "derived"),
   ]);
-  const reason = blockingReason(ctx, problems);
+  const conditions = [...thermal.conditions, ...reviewed.conditions, ...prot.conditions].map((c) => {
+    const m = /^\/parts\/(.+)$/.exec(c.path);
+    const role = m?.[1];
+    return role === undefined ? c : { ...c, path: `/parts/${toRef(role)}`, text: c.text.startsWith(role) ? toRef(role) + c.text.slice(role.length) : c.text };
+  });
+  // The one verdict (verdict.ts): every failing check and error problem blocks; conditions qualify.
+  // Cautions (failure modes, live tab, hot case) inform the builder and never block.
+  const verdict = decideVerdict({ checks, problems, conditions, lead: verdictLead(ctx) });
   // The generic hot-surface line stays for heatsinked parts; free-standing ones get their case temperature.
   const hot = thermal.heatsink.needed;
   const out: SizedVariant = {
-    spec, feasible: reason === undefined, figures, problems, checks, heatsink: thermal.heatsink, circuit, cautions: [...cautions(ctx, hot), ...review.cautions],
+    spec, verdict, feasible: verdict.status !== "not-feasible", figures, problems, checks, heatsink: thermal.heatsink, circuit,
+    cautions: [...cautions(ctx, hot), ...reviewed.cautions],
   };
-  if (reason !== undefined) out.reason = reason;
+  if (verdict.status === "not-feasible") out.reason = verdict.summary;
   return out;
 }
 
@@ -142,7 +159,7 @@ function driverLoss_W(parts: Part[], losses: DeviceLoss[], ctx: ReturnType<typeo
   const fw = parts.find((p) => p.role === "D_FREEWHEEL");
   const fwDev = ctx.spec.devices.freewheel_diode as DiodeClass | undefined;
   // At D_max (the point η is taken at) the diode carries the load current for the rest of the period.
-  const pFw = fw === undefined || fwDev === undefined ? 0 : Math.max(0, diodeVf_V(fwDev, ctx.iMax_A, 25)) * ctx.iMax_A * (1 - dMax);
+  const pFw = fw === undefined || fwDev === undefined ? 0 : Math.max(0, diodeClassVf_V(fwDev, ctx.iMax_A, NOMINAL_TEMP_C)) * ctx.iMax_A * (1 - dMax);
   return transistors + passive + pFw;
 }
 

@@ -6,8 +6,10 @@
 import type { DeratingPolicy } from "../model/derating.ts";
 import type { DesignRecord, DeviceRole } from "../model/design.ts";
 import type { DeviceClass } from "../model/device.ts";
+import type { ChainKind } from "../model/kinds.ts";
 import type { VariantSpec } from "../model/variant.ts";
 import { variantId } from "./variant-id.ts";
+import { supplyWindow } from "../engine/shared/supply.ts";
 
 /** Defaults of optional targets (values documented in docs/writing-a-design.md). */
 export const TARGET_DEFAULTS = {
@@ -19,7 +21,8 @@ export const TARGET_DEFAULTS = {
 export const PROTECTION_DEFAULTS: VariantSpec["protection"] = { be_breakdown: "series-base-diode" };
 
 export interface ExpandDeps {
-  choose: (rec: DesignRecord, supply_V: number, load_A: number) => Record<DeviceRole, DeviceClass>;
+  /** Device classes for one variant; `chain` lets the choice follow what that chain puts across each part. */
+  choose: (rec: DesignRecord, supply_V: number, load_A: number, chain: ChainKind) => Record<DeviceRole, DeviceClass>;
   policy: DeratingPolicy;
 }
 
@@ -41,9 +44,10 @@ export function expandDesign(rec: DesignRecord, deps: ExpandDeps): VariantSpec[]
   const protection = { ...PROTECTION_DEFAULTS, ...rec.protection };
   const out: VariantSpec[] = [];
   for (const supply_V of rec.axes.supply_V) {
+    // Every worst case of the variant uses this window's min and max (src/engine/shared/supply.ts).
     for (const load_A of rec.axes.load_A) {
-      const devices = deps.choose(rec, supply_V, load_A);
       for (const chain of rec.axes.chain) {
+        const devices = deps.choose(rec, supply_V, load_A, chain);
         for (const load_kind of rec.axes.load_kind) {
           out.push({
             id: variantId(rec, supply_V, load_A, chain, load_kind),
@@ -54,6 +58,7 @@ export function expandDesign(rec: DesignRecord, deps: ExpandDeps): VariantSpec[]
             chain,
             load_kind,
             targets: { ...targets, ambient_C: [targets.ambient_C[0], targets.ambient_C[1]] },
+            supply_window: supplyWindow({ ...rec.supply, tolerance: targets.supply_tolerance }, supply_V),
             protection: { ...protection },
             devices: { ...devices },
             policy: deps.policy,

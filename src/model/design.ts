@@ -1,4 +1,5 @@
 import type { ChainKind, DeviceFamily, LoadKind } from "./kinds.ts";
+import type { BatteryChemistry } from "./variant.ts";
 
 /**
  * A parametric design record, as stored in designs/*.json (schema: designs/schema/design.schema.json).
@@ -27,11 +28,26 @@ export interface DesignRecord {
     /** Smallest heatsink thermal resistance the design accepts before it is "not feasible" (default 2 K/W). */
     heatsink_min_KperW?: number;
   };
+  /**
+   * The supply's real range. `battery` names a chemistry whose window (end of discharge … charging)
+   * the engine knows, for every supply of the axis; `windows` states min/max per nominal supply and
+   * wins over `battery`. Absent: nominal ± targets.supply_tolerance (older records).
+   */
+  supply?: {
+    battery?: BatteryChemistry;
+    windows?: { nominal_V: number; min_V: number; max_V: number }[];
+  };
   /** Device class per role; defaults are chosen by the engine when a role is not named. */
   devices?: Partial<Record<DeviceRole, string>>;
   /** Protections the design allows the engine to add. */
   protection?: {
     be_breakdown?: "series-base-diode" | "none";
+    /**
+     * What limits the start-up peak, when the design adds it: a soft start that ramps the duty from
+     * zero over `ramp_s`, or a current limit in the load path at `limit_A`. The engine counts its
+     * effect on the switch's peak and the fuse, and lists it as a condition of the verdict.
+     */
+    inrush_limit?: { kind: "soft-start"; ramp_s: number } | { kind: "current-limit"; limit_A: number };
   };
   /** The coil of a solenoid valve or relay; required when `axes.load_kind` lists "solenoid". */
   solenoid?: SolenoidRecord;

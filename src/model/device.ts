@@ -1,3 +1,4 @@
+import type { SourceKey } from "../engine/shared/sources.ts";
 import type { Confidence, DeviceFamily } from "./kinds.ts";
 
 /**
@@ -7,7 +8,10 @@ import type { Confidence, DeviceFamily } from "./kinds.ts";
  * where it comes from.
  */
 export interface SourceNote {
-  source: string;
+  /** Key in the bibliography (docs/sources.md); `pulsewright check` rejects unknown keys. */
+  source: SourceKey;
+  /** What exactly was taken from the source, and anything uncertain about it. */
+  note?: string;
   confidence: Confidence;
 }
 
@@ -23,6 +27,16 @@ interface DeviceBase {
   rth_jc_KperW?: number;
   /** Field name → where the value comes from. Fields not named are "from-memory". */
   sources: Record<string, SourceNote>;
+}
+
+/**
+ * One point of a single-pulse safe operating area: the largest power a rectangular pulse of
+ * duration t_s may put into the device at T_C 25 °C (BJTs: read at V_CE = V_CEO/2, so second
+ * breakdown is included). Ascending t_s; interpolated log-log.
+ */
+export interface SoaPoint {
+  t_s: number;
+  p_W: number;
 }
 
 /** Minimum (and typical) DC gain at one collector current, at 25 °C. */
@@ -47,6 +61,8 @@ export interface BjtClass extends DeviceBase {
   ic_max_A: number;
   /** Peak (pulse) collector current rating, if specified. */
   icm_A?: number;
+  /** Single-pulse safe operating area, if the class gives one. */
+  soa_pulse?: SoaPoint[];
   ptot_W: number; // at T_A = 25 °C (free air), or at T_C = 25 °C when `ptot_at` = "case"
   ptot_at: "ambient" | "case";
   hfe: GainPoint[]; // ascending ic_A; interpolate log-log between points
@@ -69,6 +85,8 @@ export interface MosfetClass extends DeviceBase {
   vds_V: number;
   id_A: number; // continuous at T_C 25 °C
   idm_A?: number;
+  /** Single-pulse safe operating area, if the class gives one. */
+  soa_pulse?: SoaPoint[];
   ptot_W: number;
   ptot_at: "ambient" | "case";
   /** R_DS(on) maximum at the stated gate voltage and 25 °C. */

@@ -47,8 +47,48 @@ export interface HeatsinkVerdict {
   text: string; // "no heatsink needed" | "heatsink ≤ 4.2 K/W" | "not feasible: needs ≤ 0.8 K/W"
 }
 
+/**
+ * The verdict, computed once by the engine (src/engine/stages/verdict.ts) and rendered as-is by the
+ * page, the variant JSON and catalogue.json. One rule: any failing check (derating, absolute
+ * maximum, safe operating area, fuse coordination, thermal) or error problem makes the variant not
+ * feasible; otherwise each stated condition that the verdict relies on (a heatsink of at most X K/W,
+ * a current limit, ...) makes it "feasible with conditions"; otherwise it is feasible.
+ */
+export type VerdictStatus = "feasible" | "conditional" | "not-feasible";
+
+/** Something the builder must do for the verdict to hold. */
+export interface VerdictCondition {
+  /** Stable id, e.g. "heatsink", "inrush-limit". */
+  rule: string;
+  /** JSON pointer to the part or field it is about, e.g. "/parts/Q3". */
+  path: string;
+  /** A sentence a builder acts on, e.g. "Q3 on a heatsink of ≤ 3.2 K/W (with grease)". */
+  text: string;
+}
+
+/** A failing check or an error problem that blocks the variant. */
+export interface VerdictBlock {
+  /** "check" for a failing StressCheck, "problem" for an error DesignProblem. */
+  kind: "check" | "problem";
+  rule: string;
+  path: string;
+  message: string;
+}
+
+export interface Verdict {
+  status: VerdictStatus;
+  /** Every blocking item, most basic first; empty unless not feasible. */
+  blocking: VerdictBlock[];
+  /** Every condition the verdict relies on; listed for "conditional". */
+  conditions: VerdictCondition[];
+  /** One sentence: the first blocking reason, the conditions, or "feasible". */
+  summary: string;
+}
+
 export interface SizedVariant {
   spec: VariantSpec;
+  /** The one verdict; `feasible` and `reason` are read from it (feasible ⇔ status ≠ "not-feasible"). */
+  verdict: Verdict;
   feasible: boolean;
   /** One sentence when not feasible: the first blocking reason. */
   reason?: string;

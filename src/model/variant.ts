@@ -14,10 +14,29 @@ export interface VariantSpec {
   chain: ChainKind;
   load_kind: LoadKind;
   targets: Required<DesignRecord["targets"]>;
-  protection: Required<NonNullable<DesignRecord["protection"]>>;
+  /** The supply's real range: every worst case uses its min and max (src/engine/shared/supply.ts). */
+  supply_window: SupplyWindow;
+  protection: Required<Pick<NonNullable<DesignRecord["protection"]>, "be_breakdown">> & Pick<NonNullable<DesignRecord["protection"]>, "inrush_limit">;
   /** Every role resolved to a device class (record's choice or the engine default). */
   devices: Record<DeviceRole, DeviceClass>;
   policy: DeratingPolicy;
   /** The record's coil data, present on solenoid variants. */
   solenoid?: SolenoidRecord;
+}
+
+/** Battery chemistries whose windows the engine knows (src/engine/shared/supply.ts). */
+export const BATTERY_CHEMISTRIES = ["lead-acid", "lifepo4"] as const;
+export type BatteryChemistry = (typeof BATTERY_CHEMISTRIES)[number];
+
+/** The range one nominal supply spans, and where it comes from. */
+export interface SupplyWindow {
+  nominal_V: number;
+  min_V: number;
+  max_V: number;
+  /** "declared": min/max stated in the record; "battery": a named chemistry; "tolerance": nominal ± tolerance. */
+  basis: "declared" | "battery" | "tolerance";
+  battery?: BatteryChemistry;
+  /** One line for the page, e.g. "12 V lead-acid battery, 10.5 V end of discharge … 14.7 V charging". */
+  text: string;
+  source: string;
 }

@@ -7,6 +7,7 @@ import type { DeviceClass } from "../model/device.ts";
 import type { RecordIssue } from "./issue.ts";
 import type { ParsedFile } from "./parse.ts";
 import { LOAD_SWITCH_CHAINS, ROLE_FAMILY, currentRating, voltageRating } from "./roles.ts";
+import { batterySystem, batterySystemsText, supplyWindow } from "../engine/shared/supply.ts";
 
 export interface LoadedDesign { parsed: ParsedFile; record: DesignRecord }
 export interface LoadedDevice { parsed: ParsedFile; pointer: string; device: DeviceClass }
@@ -54,7 +55,50 @@ export function checkTargets(d: LoadedDesign): RecordIssue[] {
   if (at < 0 && d.record.solenoid !== undefined) {
     out.push(issueAt(d.parsed, "/solenoid", "the record describes a solenoid coil, but no axis load_kind is \"solenoid\"", 'add "solenoid" to axes.load_kind, or remove the "solenoid" block', true));
   }
+  return [...out, ...checkSupply(d)];
+}
+
+/**
+ * The supply statement: every declared window belongs to a supply of the axis and holds its
+ * nominal; with a battery chemistry, every supply without its own window lies in one of the
+ * chemistry's systems (targets.supply_tolerance then applies to no supply).
+ */
+export function checkSupply(d: LoadedDesign): RecordIssue[] {
+  const s = d.record.supply;
+  if (s === undefined) return [];
+  const out: RecordIssue[] = [];
+  const axis = d.record.axes.supply_V;
+  const declared = new Set<number>();
+  (s.windows ?? []).forEach((w, i) => {
+    const at = `/supply/windows/${i}`;
+    if (!axis.some((v) => Math.abs(v - w.nominal_V) < 1e-9)) {
+      out.push(issueAt(d.parsed, `${at}/nominal_V`, `window for ${w.nominal_V} V, but ${w.nominal_V} V is not in axes.supply_V [${axis.join(", ")}]`, "give the window the nominal of a supply on the axis, or add that supply"));
+    } else if (declared.has(w.nominal_V)) {
+      out.push(issueAt(d.parsed, `${at}/nominal_V`, `a second window for ${w.nominal_V} V`, "state one window per supply"));
+    }
+    declared.add(w.nominal_V);
+    if (!(w.min_V <= w.nominal_V && w.nominal_V <= w.max_V)) {
+      out.push(issueAt(d.parsed, at, `window ${w.min_V}–${w.max_V} V does not contain its nominal ${w.nominal_V} V`, "write min_V ≤ nominal_V ≤ max_V"));
+    }
+  });
+  if (s.battery !== undefined) {
+    axis.forEach((v, i) => {
+      if (declared.has(v)) return;
+      if (batterySystem(s.battery!, v) === undefined) {
+        out.push(issueAt(d.parsed, `/axes/supply_V/${i}`, `supply ${v} V is not within a ${s.battery} battery system (${batterySystemsText(s.battery!)})`, "use a supply inside one of these windows, or state this supply's window under supply.windows"));
+      }
+    });
+  }
   return out;
+}
+
+/** Highest supply of one nominal (its window's max), or undefined when the statement is invalid (reported by checkSupply). */
+function supplyMax_V(rec: DesignRecord, nominal_V: number, tol: number): number | undefined {
+  try {
+    return supplyWindow({ ...rec.supply, tolerance: tol }, nominal_V).max_V;
+  } catch {
+    return undefined;
+  }
 }
 
 /** Device bindings: the class exists, has the role's family, and its ratings cover the axes. */
@@ -75,7 +119,7 @@ export function checkBindings(d: LoadedDesign, lib: ReadonlyMap<string, DeviceCl
       out.push(issueAt(d.parsed, at, `"${id}" is a ${dev.family}, but role ${role} needs a ${ROLE_FAMILY[role]}`, `bind a ${ROLE_FAMILY[role]} class to ${role}`));
       continue;
     }
-    out.push(...ratingIssues(d, role, dev, axes, targets.supply_tolerance));
+    out.push(...ratingIssues(d, role, dev, axes, targets.supply_tolerance ?? 0.1));
   }
   return out;
 }
@@ -84,10 +128,10 @@ function ratingIssues(d: LoadedDesign, role: DeviceRole, dev: DeviceClass, axes:
   const out: RecordIssue[] = [];
   const v = voltageRating(dev);
   axes.supply_V.forEach((s, i) => {
-    // Highest supply the part sees: nominal plus tolerance (ENGINEERING.md §3: V_CE(max) ≥ supply + margin).
-    const high_V = s * (1 + tol);
-    if (v && high_V > v.value_V) {
-      out.push(issueAt(d.parsed, `/axes/supply_V/${i}`, `supply ${s} V (${fmt(high_V)} V with tolerance) exceeds ${v.name} ${v.value_V} V of "${dev.id}" bound to ${role}`, `bind a class rated above ${fmt(high_V)} V, or drop this supply`));
+    // Highest supply the part sees: the top of the supply's window (V_CE(max) ≥ supply + margin [src:common-practice]).
+    const high_V = supplyMax_V(d.record, s, tol);
+    if (v && high_V !== undefined && high_V > v.value_V) {
+      out.push(issueAt(d.parsed, `/axes/supply_V/${i}`, `supply ${s} V (${fmt(high_V)} V at the top of its window) exceeds ${v.name} ${v.value_V} V of "${dev.id}" bound to ${role}`, `bind a class rated above ${fmt(high_V)} V, or drop this supply`));
     }
   });
   const chains = LOAD_SWITCH_CHAINS[role];
@@ -105,4 +149,18 @@ function ratingIssues(d: LoadedDesign, role: DeviceRole, dev: DeviceClass, axes:
 /** Display only: messages show three significant digits. */
 function fmt(x: number): string {
   return String(Number(x.toPrecision(3)));
+}
+
+/** A class's single-pulse SOA: durations ascending, powers not rising (a longer pulse never allows more). */
+export function checkDeviceSoa(d: LoadedDevice): RecordIssue[] {
+  const dev = d.device;
+  const pts = "soa_pulse" in dev ? dev.soa_pulse : undefined;
+  if (pts === undefined) return [];
+  const out: RecordIssue[] = [];
+  for (let i = 1; i < pts.length; i++) {
+    const a = pts[i - 1]!, b = pts[i]!;
+    if (!(b.t_s > a.t_s)) out.push(issueAt(d.parsed, `${d.pointer}/soa_pulse/${i}/t_s`, `pulse duration ${b.t_s} s does not follow ${a.t_s} s in ascending order`, "list the SOA points from the shortest pulse to the longest"));
+    else if (b.p_W > a.p_W) out.push(issueAt(d.parsed, `${d.pointer}/soa_pulse/${i}/p_W`, `${b.p_W} W at ${b.t_s} s is more than ${a.p_W} W at the shorter ${a.t_s} s`, "a longer pulse never allows more power: read the points again from the SOA chart"));
+  }
+  return out;
 }

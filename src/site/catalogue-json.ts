@@ -49,6 +49,7 @@ export function catalogueJson(cat: BuiltCatalogue): object {
         chain: s.spec.chain,
         load_kind: s.spec.load_kind,
         feasible: s.feasible,
+        verdict: s.verdict,
         ...(s.reason !== undefined ? { reason: s.reason } : {}),
         ...(s.alternative ? { alternative: s.alternative.id } : {}),
         predicted: predicted(s.figures),

@@ -25,6 +25,8 @@ export function chooserIndex(cat: BuiltCatalogue): ChooserEntry[] {
         design: d.record.id,
         designTitle: d.record.title,
         supply_V: s.spec.supply_V,
+        supplyMin_V: s.spec.supply_window.min_V,
+        supplyMax_V: s.spec.supply_window.max_V,
         load_A: s.spec.load_A,
         chain: s.spec.chain,
         load_kind: s.spec.load_kind,

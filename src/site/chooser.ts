@@ -13,6 +13,9 @@ export interface ChooserEntry {
   design: string;
   designTitle: string;
   supply_V: number;
+  /** The supply range the variant is checked over (its window's min and max). */
+  supplyMin_V: number;
+  supplyMax_V: number;
   load_A: number;
   chain: string;
   load_kind: string;
@@ -96,14 +99,15 @@ function reasonFor(e: ChooserEntry, rank: number, group: ChooserEntry[], q: Choo
   }
   if (e.load_A > q.load_A) bits.push(`rated ${formatValue(e.load_A, "A")}, the next class above ${formatValue(q.load_A, "A")}`);
   else bits.push(`rated ${formatValue(e.load_A, "A")}`);
-  if (e.supply_V !== q.supply_V) bits.push(`sized for ${formatValue(e.supply_V, "V")}, the nearest supply offered`);
+  if (e.supply_V !== q.supply_V) bits.push(`sized for ${formatValue(e.supply_V, "V")} nominal, checked over ${formatValue(e.supplyMin_V, "V")} … ${formatValue(e.supplyMax_V, "V")}`);
   bits.push(e.heatsinkText);
   return `${bits.join("; ")}.`;
 }
 
 /**
- * The best feasible variants for a query: load kind must match; the supply is the requested one or
- * the nearest offered; the current class is the smallest at or above the request, then the next
+ * The best feasible variants for a query: load kind must match; only variants whose supply range
+ * (window min … max) contains the requested supply are offered, and among them the nominal nearest
+ * the request; the current class is the smallest at or above the request, then the next
  * one up. Ranked by the wishes (no heatsink, smallest duty error, fewest parts, in that order),
  * then by least switch dissipation. At most `limit` picks.
  */
@@ -114,8 +118,14 @@ export function chooseVariants(index: readonly ChooserEntry[], q: ChooserQuery, 
   }
   const sameKind = index.filter((e) => e.load_kind === q.load_kind);
   if (sameKind.length === 0) return { picks: [], note: "No design in this catalogue drives this load kind." };
-  const supply = pickSupply([...new Set(sameKind.map((e) => e.supply_V))], q.supply_V)!;
-  const atSupply = sameKind.filter((e) => e.supply_V === supply);
+  // A variant checked over 10.5–14.7 V says nothing about 18 V: its window must contain the request.
+  const inWindow = sameKind.filter((e) => q.supply_V >= e.supplyMin_V - 1e-9 && q.supply_V <= e.supplyMax_V + 1e-9);
+  if (inWindow.length === 0) {
+    const ranges = [...new Set(sameKind.map((e) => `${formatValue(e.supplyMin_V, "V")} … ${formatValue(e.supplyMax_V, "V")}`))].join(", ");
+    return { picks: [], note: `No variant for this load kind is checked at ${formatValue(q.supply_V, "V")}; the supply ranges offered are ${ranges}.` };
+  }
+  const supply = pickSupply([...new Set(inWindow.map((e) => e.supply_V))], q.supply_V)!;
+  const atSupply = inWindow.filter((e) => e.supply_V === supply);
   const classes = [...new Set(atSupply.filter((e) => e.load_A >= q.load_A).map((e) => e.load_A))].sort((a, b) => a - b).slice(0, 2);
   if (classes.length === 0) {
     const top = Math.max(...atSupply.map((e) => e.load_A));
@@ -124,7 +134,7 @@ export function chooseVariants(index: readonly ChooserEntry[], q: ChooserQuery, 
   const group = atSupply.filter((e) => classes.includes(e.load_A)).sort((a, b) => compare(a, b, w));
   if (group.length === 0) return { picks: [], note: "No variant of this size is feasible." };
   const notes: string[] = [];
-  if (supply !== q.supply_V) notes.push(`No variant is sized for ${formatValue(q.supply_V, "V")}; showing ${formatValue(supply, "V")}, the nearest. Check your load's voltage rating.`);
+  if (supply !== q.supply_V) notes.push(`No variant is sized for ${formatValue(q.supply_V, "V")} nominal; showing ${formatValue(supply, "V")}, whose checked supply range contains it. Check your load's voltage rating.`);
   if (w.noHeatsink && group[0]!.heatsinkNeeded) notes.push("Every match needs a heatsink at this size.");
   const picks = group.slice(0, limit).map((entry, rank) => ({ entry, reason: reasonFor(entry, rank, group, q, w) }));
   return { picks, note: notes.join(" ") };

@@ -1,6 +1,7 @@
 import type { ChainKind, LoadKind } from "../model/kinds.ts";
 import type { StressVerdict } from "../model/derating.ts";
 import type { VerificationStatus } from "../model/verification.ts";
+import type { VerdictStatus } from "../model/sized.ts";
 
 /** Display names of the output chains (our own wording). */
 export const CHAIN_LABELS = {
@@ -26,8 +27,14 @@ export const LOAD_LABELS = {
  */
 export const FEASIBILITY = {
   yes: { symbol: "✓", word: "feasible", cls: "ok" },
+  conditional: { symbol: "✓", word: "feasible with conditions", cls: "warn" },
   no: { symbol: "✗", word: "not feasible", cls: "bad" },
 } as const;
+
+/** The words of the engine's one verdict (SizedVariant.verdict.status); every view uses this. */
+export function verdictWords(status: VerdictStatus): { symbol: string; word: string; cls: string } {
+  return status === "feasible" ? FEASIBILITY.yes : status === "conditional" ? FEASIBILITY.conditional : FEASIBILITY.no;
+}
 
 export const STRESS_WORDS = {
   pass: { symbol: "✓", word: "pass", cls: "ok" },
@@ -48,6 +55,9 @@ export const STRESS_QUANTITY_LABELS: Record<string, string> = {
   current: "current",
   tj: "junction temperature",
   vgs: "gate–source voltage",
+  peak: "start-up peak (pulse rating)",
+  soa: "safe operating area (single pulse)",
+  i2t: "I²t (fuse coordination)",
 };
 
 export function chainLabel(chain: string): string {

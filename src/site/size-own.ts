@@ -72,7 +72,7 @@ export function sizeOwn(data: SizeOwnData, input: SizeOwnInput, opts: { schemati
     targets: { ...data.record.targets, pwm_Hz: input.pwm_Hz },
     axes: { supply_V: [input.supply_V], load_A: [input.load_A], chain: [input.chain as ChainKind], load_kind: [input.load_kind as LoadKind] },
   };
-  const [spec] = expandDesign(rec, { choose: (r, s, a) => chooseDevices(r, lib, s, a), policy: data.policy });
+  const [spec] = expandDesign(rec, { choose: (r, s, a, c) => chooseDevices(r, lib, s, a, c), policy: data.policy });
   if (!spec) return { ok: false, errors: ["Nothing to size for these inputs."] };
   const sized = sizeVariant(spec);
   const c = sized.circuit;

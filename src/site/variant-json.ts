@@ -20,11 +20,13 @@ export function variantJson(v: BuiltVariant, d: BuiltDesign, cat: BuiltCatalogue
       chain: spec.chain,
       load_kind: spec.load_kind,
       targets: spec.targets,
+      supply_window: spec.supply_window,
       protection: spec.protection,
       devices,
       policy: { id: cat.policy.id, title: cat.policy.title, document: cat.policy.document },
     },
     feasible: s.feasible,
+    verdict: s.verdict,
     ...(s.reason !== undefined ? { reason: s.reason } : {}),
     ...(s.alternative ? { alternative: s.alternative } : {}),
     figures: s.figures.map((f) => ({

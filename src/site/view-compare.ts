@@ -5,7 +5,7 @@
 import type { BuiltDesign } from "../model/catalogue.ts";
 import { formatPercent, formatValue } from "../model/format.ts";
 import { findFigure } from "../model/sized.ts";
-import { chainLabel, FEASIBILITY, loadLabel } from "./labels.ts";
+import { chainLabel, loadLabel, verdictWords } from "./labels.ts";
 import { variantPage } from "./paths.ts";
 
 export interface CompareTable {
@@ -30,7 +30,7 @@ export function compareTables(d: BuiltDesign): CompareTable[] {
       caption: `Chains compared at ${formatValue(s.supply_V, "V")}, ${formatValue(s.load_A, "A")}, ${loadLabel(s.load_kind)}`,
       rows: vs.map((v) => {
         const z = v.sized;
-        const f = z.feasible ? FEASIBILITY.yes : FEASIBILITY.no;
+        const f = verdictWords(z.verdict.status);
         const dis = findFigure(z, "device_dissipation");
         const err = findFigure(z, "duty_error_threshold");
         return {

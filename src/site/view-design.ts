@@ -1,6 +1,6 @@
 import type { BuiltDesign, BuiltVariant } from "../model/catalogue.ts";
 import { formatPercent, formatValue } from "../model/format.ts";
-import { chainLabel, FEASIBILITY, loadLabel, SIM_WORDS } from "./labels.ts";
+import { chainLabel, loadLabel, SIM_WORDS, verdictWords } from "./labels.ts";
 import { designPage, relativeRoot, variantPage } from "./paths.ts";
 
 export interface DesignCounts {
@@ -54,7 +54,7 @@ const EMPTY_CELL: MatrixCell = { present: false, url: "", id: "", symbol: "—",
 
 function cell(v: BuiltVariant | undefined): MatrixCell {
   if (!v) return EMPTY_CELL;
-  const f = v.sized.feasible ? FEASIBILITY.yes : FEASIBILITY.no;
+  const f = verdictWords(v.sized.verdict.status);
   const sim = SIM_WORDS[v.verification?.status ?? "skipped"];
   return { present: true, url: variantPage(v.sized.spec.id), id: v.sized.spec.id, symbol: f.symbol, word: f.word, cls: f.cls, sim: v.sized.feasible ? sim.word : "", simCls: sim.cls };
 }
@@ -89,8 +89,8 @@ export function designView(d: BuiltDesign): DesignView {
     { label: "PWM frequency", value: formatValue(t.pwm_Hz, "Hz") },
     { label: "Duty range", value: `${formatPercent(t.duty_min)} … ${formatPercent(t.duty_max)}` },
     { label: "Ambient", value: `${formatValue(t.ambient_C[0], "°C")} … ${formatValue(t.ambient_C[1], "°C")}` },
-    { label: "Supply tolerance", value: `±${formatPercent(t.supply_tolerance)}` },
-    { label: "Supplies", value: r.axes.supply_V.map((v) => formatValue(v, "V")).join(", ") },
+    { label: "Supplies (each with the range every worst case uses)", value: [...new Map(d.variants.map((v) => [v.sized.spec.supply_V, v.sized.spec.supply_window])).values()]
+      .map((w) => `${formatValue(w.nominal_V, "V")} (${formatValue(w.min_V, "V")} … ${formatValue(w.max_V, "V")}, ${w.basis === "battery" ? w.text : w.basis === "declared" ? "stated window" : `±${formatPercent(t.supply_tolerance)}`})`).join("; ") },
     { label: "Load currents", value: r.axes.load_A.map((v) => formatValue(v, "A")).join(", ") },
     { label: "Load kinds", value: r.axes.load_kind.map(loadLabel).join(", ") },
   ];

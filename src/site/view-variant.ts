@@ -2,7 +2,7 @@ import type { BuiltCatalogue, BuiltDesign, BuiltVariant } from "../model/catalog
 import type { DesignProblem } from "../model/problem.ts";
 import { formatPercent, formatValue } from "../model/format.ts";
 import { orderedFigureRows, type FigureRow } from "./figures.ts";
-import { chainLabel, FEASIBILITY, loadLabel } from "./labels.ts";
+import { chainLabel, loadLabel, verdictWords } from "./labels.ts";
 import { checkRow, partRow, type CheckRow, type PartRow } from "./parts-view.ts";
 import { availableDownloads } from "./downloads.ts";
 import { designPage, relativeRoot, variantPage } from "./paths.ts";
@@ -23,7 +23,8 @@ export interface VariantView {
   design: { id: string; title: string; url: string; file: string };
   spec: { label: string; value: string }[];
   feasible: boolean;
-  verdict: { symbol: string; word: string; cls: string; reason: string };
+  /** The engine's one verdict: words, the reason (not feasible) and each condition (feasible with conditions). */
+  verdict: { status: string; symbol: string; word: string; cls: string; reason: string; conditions: string[]; blocking: string[] };
   alternative: { url: string; label: string; why: string } | null;
   figures: FigureRow[];
   schematicSvg: string;
@@ -61,7 +62,7 @@ export function variantView(v: BuiltVariant, d: BuiltDesign, cat: BuiltCatalogue
   const s = v.sized;
   const spec = s.spec;
   const page = variantPage(spec.id);
-  const verdict = s.feasible ? FEASIBILITY.yes : FEASIBILITY.no;
+  const verdict = verdictWords(s.verdict.status);
   const alt = s.alternative;
   const t = spec.targets;
   return {
@@ -71,7 +72,8 @@ export function variantView(v: BuiltVariant, d: BuiltDesign, cat: BuiltCatalogue
     title: `${d.record.title}: ${formatValue(spec.supply_V, "V")}, ${formatValue(spec.load_A, "A")}, ${chainLabel(spec.chain)}, ${loadLabel(spec.load_kind)}`,
     design: { id: d.record.id, title: d.record.title, url: designPage(d.record.id), file: d.file },
     spec: [
-      { label: "Supply (nominal)", value: `${formatValue(spec.supply_V, "V")} DC, ±${formatPercent(t.supply_tolerance)}` },
+      { label: "Supply (nominal)", value: `${formatValue(spec.supply_V, "V")} DC` },
+      { label: "Supply range (every worst case)", value: `${formatValue(spec.supply_window.min_V, "V")} … ${formatValue(spec.supply_window.max_V, "V")}: ${spec.supply_window.text}` },
       { label: "Load current (rated)", value: formatValue(spec.load_A, "A") },
       { label: "Load kind", value: loadLabel(spec.load_kind) },
       { label: "Output chain", value: chainLabel(spec.chain) },
@@ -80,7 +82,10 @@ export function variantView(v: BuiltVariant, d: BuiltDesign, cat: BuiltCatalogue
       { label: "Ambient range", value: `${formatValue(t.ambient_C[0], "°C")} … ${formatValue(t.ambient_C[1], "°C")}` },
     ],
     feasible: s.feasible,
-    verdict: { ...verdict, reason: s.reason ?? "" },
+    verdict: {
+      status: s.verdict.status, ...verdict, reason: s.verdict.status === "not-feasible" ? s.verdict.summary : "",
+      conditions: s.verdict.conditions.map((c) => c.text), blocking: s.verdict.blocking.map((b) => b.message),
+    },
     alternative: alt ? { url: variantPage(alt.id), label: `${chainLabel(alt.chain)} (${alt.id})`, why: alt.why } : null,
     figures: orderedFigureRows(s.figures),
     schematicSvg: s.circuit ? inlineSvg(v.files.schematicSvg) : "",

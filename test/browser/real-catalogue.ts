@@ -23,7 +23,7 @@ export async function realCatalogue(designIds: string[] = ["circulation-fan"]): 
   const designs: BuiltDesign[] = project.designs
     .filter((d) => designIds.includes(d.record.id))
     .map((d) => {
-      const specs = expandDesign(d.record, { choose: (r, s, a) => chooseDevices(r, project.devices, s, a), policy: project.policy });
+      const specs = expandDesign(d.record, { choose: (r, s, a, c) => chooseDevices(r, project.devices, s, a, c), policy: project.policy });
       const sized = attachAlternatives(specs.map((s) => sizeVariant(s)));
       return {
         record: d.record,

@@ -140,7 +140,7 @@ describe.skipIf(!HAVE)("the published site in a browser, under a URL prefix", ()
       const shown = await page.locator("#syo-out td[data-key]").evaluateAll((tds) => tds.map((td) => [(td as HTMLElement).dataset["key"], Number((td as HTMLElement).dataset["value"])] as const));
       // Build-time path (as src/cli/size.ts does it), computed here on Node.
       const rec = { ...d.record, targets: { ...d.record.targets, pwm_Hz: inp.pwm_Hz }, axes: { supply_V: [inp.supply_V], load_A: [inp.load_A], chain: [inp.chain], load_kind: [inp.load_kind] } };
-      const [spec] = expandDesign(rec, { choose: (r, s, a) => chooseDevices(r, lib, s, a), policy: cat.engine!.policy });
+      const [spec] = expandDesign(rec, { choose: (r, s, a, c) => chooseDevices(r, lib, s, a, c), policy: cat.engine!.policy });
       const sized = sizeVariant(spec!);
       lastId = spec!.id;
       expect(shown.length, "figures shown").toBe(sized.figures.length);

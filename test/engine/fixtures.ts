@@ -12,6 +12,7 @@ import type { ChainKind, LoadKind } from "../../src/model/kinds.ts";
 import type { VariantSpec } from "../../src/model/variant.ts";
 import { indexLibrary } from "../../src/engine/devices/library.ts";
 import { chooseDevices } from "../../src/engine/devices/choose.ts";
+import { supplyWindow } from "../../src/engine/shared/supply.ts";
 
 const ROOT = join(import.meta.dirname, "..", "..");
 
@@ -34,6 +35,10 @@ export interface SpecOpts {
   duty?: [number, number];
   ambient_C?: [number, number];
   supply_tolerance?: number;
+  /** The record's supply statement (battery chemistry or windows); absent: ± supply_tolerance. */
+  supply?: DesignRecord["supply"];
+  /** protection.inrush_limit of the record. */
+  inrushLimit?: NonNullable<DesignRecord["protection"]>["inrush_limit"];
   be?: "series-base-diode" | "none";
   devices?: DesignRecord["devices"];
   /** Replace resolved roles with local classes (e.g. a class not yet in the library). */
@@ -44,8 +49,8 @@ export interface SpecOpts {
 
 /**
  * A high-gain small-signal NPN (BC547 group C class, TO-92): h_FE 420–800 at 2 mA, 5 V and
- * V_CEO 45 V, V_EBO 6 V, I_C 100 mA (later sheets) are registered data (SOURCES.md table, "seen in
- * reproductions"); the other gain points, saturation and switching values are typical, from memory.
+ * V_CEO 45 V, V_EBO 6 V, I_C 100 mA (later sheets) are registered data ("seen in reproductions",
+ * [src:pro-electron-registered]); the other gain points, saturation and switching values are typical, from memory.
  * Local to the tests until the device library carries such a class.
  */
 export const NPN_HIGH_GAIN: BjtClass = {
@@ -55,7 +60,10 @@ export const NPN_HIGH_GAIN: BjtClass = {
   hfe_tempco_perK: 0.005,
   vce_sat: [{ ic_A: 0.01, ib_A: 0.0005, vce_sat_V: 0.25, vbe_sat_V: 0.85 }, { ic_A: 0.1, ib_A: 0.005, vce_sat_V: 0.6, vbe_sat_V: 1.0 }],
   vbe_on_V: 0.66, t_rise_s: 5e-8, t_fall_s: 8e-8, t_storage_s: 3e-7, ft_Hz: 3e8,
-  sources: { vceo_V: { source: "registered data, BC547 (SOURCES.md)", confidence: "registered" }, hfe: { source: "BC547 group C 420–800 @ 2 mA registered; other points from memory", confidence: "from-memory" } },
+  sources: {
+    vceo_V: { source: "pro-electron-registered", note: "BC547", confidence: "registered" },
+    hfe: { source: "pro-electron-registered", note: "BC547 group C 420–800 @ 2 mA registered; other points from memory", confidence: "from-memory" },
+  },
 };
 
 export function makeSpec(o: SpecOpts): VariantSpec {
@@ -73,15 +81,17 @@ export function makeSpec(o: SpecOpts): VariantSpec {
   const rec: DesignRecord = {
     id: "test-design", title: "Test design", summary: "fixture",
     axes: { supply_V: [o.supply_V], load_A: [o.load_A], chain: [o.chain], load_kind: [o.load_kind] },
-    targets, ...(o.devices ? { devices: o.devices } : {}),
+    targets, ...(o.devices ? { devices: o.devices } : {}), ...(o.supply ? { supply: o.supply } : {}),
+    ...(o.load_kind === "solenoid" ? { solenoid: o.solenoid ?? { tau_ms: 10, pull_in_ms: 30, pull_in_share: 0.75, hold_share: 0.4 } } : {}),
   };
   return {
     id: `test-${o.supply_V}v-${o.load_A}a-${o.chain}-${o.load_kind}`,
     design: rec.id, designTitle: rec.title,
     supply_V: o.supply_V, load_A: o.load_A, chain: o.chain, load_kind: o.load_kind,
-    targets, protection: { be_breakdown: o.be ?? "series-base-diode" },
+    targets, supply_window: supplyWindow({ ...o.supply, tolerance: targets.supply_tolerance }, o.supply_V),
+    protection: { be_breakdown: o.be ?? "series-base-diode", ...(o.inrushLimit ? { inrush_limit: o.inrushLimit } : {}) },
     devices: { ...chooseDevices(rec, library(), o.supply_V, o.load_A), ...(o.override ?? {}) },
     policy: policy(),
-    ...(o.load_kind === "solenoid" ? { solenoid: o.solenoid ?? { tau_ms: 10, pull_in_ms: 30, pull_in_share: 0.75, hold_share: 0.4 } } : {}),
+    ...(rec.solenoid ? { solenoid: rec.solenoid } : {}),
   };
 }

@@ -18,7 +18,7 @@ const record: DesignRecord = {
 };
 const policy = { id: "fixture-policy" } as unknown as DeratingPolicy;
 /** Stand-in device choice: a fake class per role that records the supply and current it was chosen for. */
-const fakeChoose = (_r: DesignRecord, supply_V: number, load_A: number): Record<DeviceRole, DeviceClass> =>
+const fakeChoose = (_r: DesignRecord, supply_V: number, load_A: number, _chain?: string): Record<DeviceRole, DeviceClass> =>
   Object.fromEntries(DEVICE_ROLES.map((role) => [role, { id: `${role}-${supply_V}-${load_A}` } as DeviceClass])) as Record<DeviceRole, DeviceClass>;
 
 describe("expandDesign", () => {
@@ -45,11 +45,11 @@ describe("expandDesign", () => {
     expect(none[0]?.protection.be_breakdown).toBe("none");
   });
 
-  it("asks for devices once per supply × current, and hands each spec its own copy", () => {
+  it("asks for devices once per supply × current × chain (what a part sees depends on the chain), and hands each spec its own copy", () => {
     const choose = vi.fn(fakeChoose);
     const specs = expandDesign(record, { choose, policy });
-    expect(choose).toHaveBeenCalledTimes(6);
-    expect(choose.mock.calls.map((c) => [c[1], c[2]])).toEqual([[12, 0.5], [12, 2], [12, 3], [24, 0.5], [24, 2], [24, 3]]);
+    expect(choose).toHaveBeenCalledTimes(12);
+    expect(choose.mock.calls.map((c) => [c[1], c[2], c[3]]).slice(0, 4)).toEqual([[12, 0.5, "bjt-single"], [12, 0.5, "mosfet-logic"], [12, 2, "bjt-single"], [12, 2, "mosfet-logic"]]);
     expect(specs[5]?.devices.power_npn.id).toBe("power_npn-12-2"); // spec 5: 12 V, 2 A
     expect(specs[0]?.devices).not.toBe(specs[1]?.devices);
     expect(specs[0]?.policy).toBe(policy);
@@ -63,7 +63,7 @@ describe("the demo catalogue, with the real device library and chooser", () => {
     const counts: Record<string, number> = {};
     const ids: string[] = [];
     for (const { record: rec } of r.designs) {
-      const specs = expandDesign(rec, { choose: (x, v, a) => chooseDevices(x, r.devices, v, a), policy: r.policy });
+      const specs = expandDesign(rec, { choose: (x, v, a, c) => chooseDevices(x, r.devices, v, a, c), policy: r.policy });
       counts[rec.id] = specs.length;
       ids.push(...specs.map((s) => s.id));
     }

@@ -4,7 +4,7 @@
  * way a build builds them (expandDesign + chooseDevices, the repository's device library and
  * derating policy). Properties, not snapshots: the engine's numbers are still being tuned.
  * Physical relations used: conduction loss grows with current (P = I·V_sat·D or I²·R·D), and
- * off-state voltage stress follows the supply (common practice; ENGINEERING.md §3–4).
+ * off-state voltage stress follows the supply [src:common-practice].
  */
 import fc from "fast-check";
 import { beforeAll, describe, expect, it } from "vitest";
@@ -80,7 +80,7 @@ function record(p: Point, supplies: number[], loads: number[]): DesignRecord {
 
 /** Size every variant of a record exactly as the build does. */
 function size(rec: DesignRecord): SizedVariant[] {
-  const specs = expandDesign(rec, { choose: (r, s, l) => chooseDevices(r, project.devices, s, l), policy: project.policy });
+  const specs = expandDesign(rec, { choose: (r, s, l, c) => chooseDevices(r, project.devices, s, l, c), policy: project.policy });
   return specs.map((s) => sizeVariant(s));
 }
 

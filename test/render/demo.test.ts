@@ -25,7 +25,7 @@ async function demo(): Promise<{ variants: Demo[]; devices: DeviceLibrary }> {
   if (!r.ok) throw new Error(`demo records must load: ${r.issues[0]?.message}`);
   const variants: Demo[] = [];
   for (const { record } of r.designs) {
-    for (const spec of expandDesign(record, { choose: (x, v, a) => chooseDevices(x, r.devices, v, a), policy: r.policy })) {
+    for (const spec of expandDesign(record, { choose: (x, v, a, c) => chooseDevices(x, r.devices, v, a, c), policy: r.policy })) {
       const sized = sizeVariant(spec);
       if (sized.circuit) variants.push({ id: spec.id, title: spec.designTitle, supply_V: spec.supply_V, pwm_Hz: spec.targets.pwm_Hz, circuit: sized.circuit });
     }

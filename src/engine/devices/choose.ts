@@ -5,11 +5,18 @@
  * reports problems, so a default that is still too small shows up as a design problem, not here.
  */
 import type { DesignRecord, DeviceRole } from "../../model/design.ts";
+import type { ChainKind } from "../../model/kinds.ts";
 import { DEVICE_ROLES, ROLE_FAMILY } from "../../model/design.ts";
 import type { BjtClass, DeviceClass, DeviceLibrary } from "../../model/device.ts";
 import { EngineMisuseError } from "../../model/problem.ts";
 import { hfeMin, vbeSat, vceSat } from "../shared/gain.ts";
 import { getDevice, isBjt, isDiode, isMosfet } from "./library.ts";
+import { supplyWindow } from "../shared/supply.ts";
+import { diodeSurgeI2t_A2s } from "../shared/fuse.ts";
+import { loadModel } from "../shared/loads.ts";
+import { runningCurrentMax_A } from "../stages/context.ts";
+import { startEvent, supplyFuse } from "../stages/protection.ts";
+import { FREEWHEEL_DROP_V } from "../stages/chains/common.ts";
 
 /** Candidate classes per role in order of preference (documented in docs/method.md). */
 export const DEFAULT_DEVICE_IDS: Readonly<Record<DeviceRole, readonly string[]>> = {
@@ -23,7 +30,8 @@ export const DEFAULT_DEVICE_IDS: Readonly<Record<DeviceRole, readonly string[]>>
   mosfet_standard: ["nmos-standard"],
   freewheel_diode: ["diode-rectifier-1a", "diode-schottky-3a", "diode-fast-3a", "diode-schottky-10a"],
   signal_diode: ["diode-signal"],
-  reverse_diode: ["diode-rectifier-1a", "diode-rectifier-3a", "diode-schottky-10a"],
+  // Shunt reverse-polarity diodes by surge rating: 30 A, 200 A, 400 A I_FSM.
+  reverse_diode: ["diode-rectifier-1a", "diode-rectifier-3a", "diode-rectifier-6a"],
   gate_zener: ["zener-12v-0w5"],
 };
 
@@ -36,8 +44,8 @@ const DIODE_CURRENT_HEADROOM = 0.5;
 const DIODE_VOLTAGE_HEADROOM = 0.7;
 /** Standard-recovery rectifiers only up to this PWM frequency (recovery of several µs). */
 const STANDARD_RECOVERY_MAX_Hz = 1000;
-/** A shunt reverse-polarity diode must carry the fault current until the fuse opens: I_FSM ≥ 10× fuse. */
-const REVERSE_SURGE_MULTIPLE = 10;
+/** Timing-core supply current assumed when choosing the fuse ahead of sizing (tens of mA; the engine's own check follows). */
+const CORE_CURRENT_ESTIMATE_A = 0.05;
 
 /**
  * Driver current per ampere of load when it drives a power PNP (bjt-driver-pnp): the PNP's base
@@ -45,10 +53,10 @@ const REVERSE_SURGE_MULTIPLE = 10;
  * current: sized at V_cc,min across V_cc − V_EB(sat) − V_CE(sat) ≈ V − 1.5 V, carrying
  * (V_cc,max − 0.7 V) at V_cc,max, with 5 % resistors (derived; mirrors driver-pnp.ts).
  */
-function pnpDriverShare(supply_V: number, tol: number): number {
-  const vMin = supply_V * (1 - tol);
-  const vMax = supply_V * (1 + tol);
-  return (1.1 * (1 + tol) / 10) * ((vMax - 0.7) / Math.max(vMin - 1.5, 0.5)) * (1.05 / 0.95);
+function pnpDriverShare(n: Need): number {
+  const vMin = n.vMin_V;
+  const vMax = n.vMax_V;
+  return (1.1 * (vMax / n.supply_V) / 10) * ((vMax - 0.7) / Math.max(vMin - 1.5, 0.5)) * (1.05 / 0.95);
 }
 /**
  * A Darlington's first stage carries the output stage's base current plus its bleed at the highest
@@ -58,7 +66,17 @@ const DARLINGTON_DRIVER_FACTOR = 1.3;
 /** V_CE(sat) of the stage that drives a Darlington output (≈ 0.3 V small-signal; common practice). */
 const DARLINGTON_DRIVE_SAT_V = 0.3;
 
-interface Need { supplyTol: number; supply_V: number; load_A: number; pwm_Hz: number; ambientMin_C: number; ambientMax_C: number }
+interface Need {
+  vMin_V: number; vMax_V: number; supply_V: number; load_A: number; pwm_Hz: number; ambientMin_C: number; ambientMax_C: number;
+  /** Highest off-state voltage across a load switch: V_cc,max plus the freewheel drop with a motor (as the engine checks it). */
+  vOff_V: number;
+  /** Highest start-up peak a load switch carries over the record's load kinds (cold filament, stall; a declared limit applied). */
+  peak_A: number;
+  /** Highest off-state voltage across the driver: a Darlington's first stage sits on the switch node (vOff_V), else V_cc,max. */
+  driverVOff_V: number;
+  /** Largest clearing I²t of the supply fuse over the record's load kinds (0 when no fuse fits: the engine reports it). */
+  fuseClearing_A2s: number;
+}
 
 /**
  * Free-air junction estimate at full duty and maximum ambient, against the usual limit
@@ -70,22 +88,26 @@ function freeAirOk(d: BjtClass, p_W: number, n: Need): boolean {
 
 /** Does a candidate clear the variant for this role? (Roles without a rule take the first.) */
 function fits(role: DeviceRole, d: DeviceClass, n: Need): boolean {
-  const vMax = n.supply_V * 1.1;
+  const vMax = n.vMax_V;
   if (isBjt(d) && (role === "power_npn" || role === "power_pnp")) {
-    if (d.ic_max_A * SWITCH_HEADROOM < n.load_A || d.vceo_V * SWITCH_HEADROOM < vMax) return false;
+    if (d.ic_max_A * SWITCH_HEADROOM < n.load_A || d.vceo_V * SWITCH_HEADROOM < n.vOff_V) return false;
+    // The start-up peak may reach but not exceed the pulse rating (the engine's peak check).
+    if ((d.icm_A ?? d.ic_max_A) < n.peak_A) return false;
     // Case-rated packages may go on a heatsink (the thermal stage sizes it); small packages must
     // cope in free air at full duty.
     // The same class serves bjt-single (saturated, V_CE(sat)) and the Darlington output, which
-    // cannot saturate: V_CE ≥ V_CE(sat),drv + V_BE(sat),out (ENGINEERING.md §3). Take the larger.
+    // cannot saturate: V_CE ≥ V_CE(sat),drv + V_BE(sat),out [src:common-practice]. Take the larger.
     const vOn = Math.max(vceSat(d, n.load_A), DARLINGTON_DRIVE_SAT_V + vbeSat(d, n.load_A));
     return d.ptot_at === "case" || freeAirOk(d, n.load_A * vOn, n);
   }
-  if (isMosfet(d)) return d.vds_V * SWITCH_HEADROOM >= vMax;
+  if (isMosfet(d)) return d.vds_V * SWITCH_HEADROOM >= n.vOff_V;
   if (isDiode(d) && role === "freewheel_diode") {
     if (d.recovery === "standard" && n.pwm_Hz > STANDARD_RECOVERY_MAX_Hz) return false;
     return d.if_avg_A * DIODE_CURRENT_HEADROOM >= n.load_A && d.vrrm_V * DIODE_VOLTAGE_HEADROOM >= vMax;
   }
-  if (isDiode(d) && role === "reverse_diode") return d.ifsm_A >= REVERSE_SURGE_MULTIPLE * 1.25 * n.load_A && d.vrrm_V * DIODE_VOLTAGE_HEADROOM >= vMax;
+  // Coordinated with the fuse the variant gets (protection.ts): the diode's surge I²t must exceed
+  // the fuse's clearing I²t, so the fuse opens first on a reversed battery.
+  if (isDiode(d) && role === "reverse_diode") return diodeSurgeI2t_A2s(d.ifsm_A) >= n.fuseClearing_A2s && d.vrrm_V * DIODE_VOLTAGE_HEADROOM >= vMax;
   return true;
 }
 
@@ -97,10 +119,10 @@ function fits(role: DeviceRole, d: DeviceClass, n: Need): boolean {
  * current and voltage, and free-air T_J at full duty (common practice).
  */
 export function pickDriver(cands: BjtClass[], power: BjtClass, n: Need): BjtClass | undefined {
-  const iPnp = n.load_A * pnpDriverShare(n.supply_V, n.supplyTol);
+  const iPnp = n.load_A * pnpDriverShare(n);
   const iDar = (DARLINGTON_DRIVER_FACTOR * n.load_A) / hfeMin(power, n.load_A, n.ambientMin_C);
   const iMax = Math.max(iPnp, iDar);
-  const vMax = n.supply_V * 1.1;
+  const vMax = n.driverVOff_V;
   let best: { d: BjtClass; g: number } | undefined;
   for (const d of cands) {
     // Darlington first stage: V_CE = V_CE(sat) of the stage before + its own V_BE(sat) (the engine's model).
@@ -119,12 +141,29 @@ function checkFamily(role: DeviceRole, d: DeviceClass, how: string): DeviceClass
   return d;
 }
 
-export function chooseDevices(record: DesignRecord, lib: DeviceLibrary, supply_V: number, load_A: number): Record<DeviceRole, DeviceClass> {
+/**
+ * `chain`, when given, is the chain the classes serve (a Darlington's first stage sits on the
+ * switch node and sees the freewheel drop, other drivers do not); absent, every chain of the record.
+ */
+export function chooseDevices(record: DesignRecord, lib: DeviceLibrary, supply_V: number, load_A: number, chain?: ChainKind): Record<DeviceRole, DeviceClass> {
   if (!Number.isFinite(supply_V) || supply_V <= 0 || !Number.isFinite(load_A) || load_A <= 0) {
     throw new EngineMisuseError(`chooseDevices(${record.id}): supply_V and load_A must be finite and > 0 (got ${supply_V}, ${load_A})`);
   }
-  // Supply tolerance default as in src/expand (TARGET_DEFAULTS.supply_tolerance).
-  const need: Need = { supplyTol: record.targets.supply_tolerance ?? 0.1, supply_V, load_A, pwm_Hz: record.targets.pwm_Hz, ambientMin_C: record.targets.ambient_C[0], ambientMax_C: record.targets.ambient_C[1] };
+  // The supply's real window (battery chemistry, declared, or ± tolerance; default as in src/expand).
+  const w = supplyWindow({ ...record.supply, tolerance: record.targets.supply_tolerance ?? 0.1 }, supply_V);
+  const lim = record.protection?.inrush_limit;
+  const coil = record.solenoid === undefined ? undefined : { tau_s: record.solenoid.tau_ms * 1e-3 };
+  const starts = record.axes.load_kind.map((kind) => {
+    const load = loadModel(kind, supply_V, load_A, coil);
+    const p = { kind, load, iMax_A: runningCurrentMax_A(kind, load, load_A, supply_V, w.max_V), vNom_V: supply_V, vMax_V: w.max_V, ...(lim ? { limit: lim } : {}) };
+    const ev = startEvent(p);
+    const peak_A = lim?.kind === "current-limit" ? Math.max(ev.iRun_A, Math.min(ev.iPeak_A, lim.limit_A)) : ev.iPeak_A;
+    return { peak_A, clearing_A2s: supplyFuse(p, CORE_CURRENT_ESTIMATE_A, record.targets.ambient_C[1]).fuse?.clearingMax_A2s ?? 0, inductive: load.inductive };
+  });
+  const fuseClearing_A2s = Math.max(0, ...starts.map((x) => x.clearing_A2s));
+  const need: Need = {
+    driverVOff_V: (chain === undefined ? record.axes.chain : [chain]).some((c) => c.startsWith("darlington")) && starts.some((x) => x.inductive) ? w.max_V + FREEWHEEL_DROP_V : w.max_V,
+    fuseClearing_A2s, peak_A: Math.max(...starts.map((x) => x.peak_A)), vOff_V: w.max_V + (starts.some((x) => x.inductive) ? FREEWHEEL_DROP_V : 0), vMin_V: w.min_V, vMax_V: w.max_V, supply_V, load_A, pwm_Hz: record.targets.pwm_Hz, ambientMin_C: record.targets.ambient_C[0], ambientMax_C: record.targets.ambient_C[1] };
   const out = {} as Record<DeviceRole, DeviceClass>;
   // The driver is judged against the power stage it drives, so the power stage is chosen first.
   const order = [...DEVICE_ROLES.filter((r) => r !== "driver_npn"), "driver_npn" as const];

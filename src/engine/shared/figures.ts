@@ -5,7 +5,7 @@
  */
 import type { Figure } from "../../model/figure.ts";
 import { EngineMisuseError, type DesignProblem, type Severity } from "../../model/problem.ts";
-import type { SourceRef } from "./sources.ts";
+import { cite, type SourceKey, type SourceRef } from "./sources.ts";
 
 /** Throws EngineMisuseError unless `x` is a finite number; `what` names it in the message. */
 export function assertFinite(x: number, what: string): number {
@@ -22,10 +22,11 @@ export function figure(
   unit: string,
   stage: string,
   formula: string,
-  src: SourceRef,
+  src: SourceKey | SourceRef,
   range?: [number, number],
 ): Figure {
   assertFinite(value, `figure "${key}" value`);
+  if (typeof src === "string") src = cite(src);
   const f: Figure = { key, label, value, unit, stage, formula, source: src.source, confidence: src.confidence };
   if (range !== undefined) {
     assertFinite(range[0], `figure "${key}" range low`);

@@ -6,7 +6,8 @@
 import type { LoadKind } from "../../model/kinds.ts";
 import { EngineMisuseError } from "../../model/problem.ts";
 
-/** Cold/hot filament resistance ratio → inrush multiple: 10–15× (Fink & Beaty, 11th ed., p. 22-8, from memory). */
+/** Cold/hot filament resistance ratio → inrush multiple: 10–15× (Fink & Beaty, 11th ed., p. 22-8, from memory)
+ * [src:fink-beaty-11e]. */
 export const LAMP_INRUSH_FACTOR = { nominal: 12, worst: 15 } as const;
 /** Small PM DC motors: stall ≈ 4× running current when the winding resistance is unknown (typical, from memory). */
 export const MOTOR_STALL_FACTOR = 4;
@@ -94,34 +95,4 @@ export function loadModel(kind: LoadKind, supply_V: number, load_A: number, coil
       throw new EngineMisuseError(`loadModel: unknown load kind "${String(never)}"`);
     }
   }
-}
-
-/** IEC 60127-style preferred fuse ratings (R10 series), in A — from memory. */
-export const FUSE_RATINGS_A = [
-  0.1, 0.125, 0.16, 0.2, 0.25, 0.315, 0.4, 0.5, 0.63, 0.8, 1, 1.25, 1.6, 2, 2.5, 3.15, 4, 5, 6.3, 8, 10, 12.5, 16, 20, 25, 31.5, 40, 50, 63,
-] as const;
-/** Fuse at ≥ 1.25× the running current (common practice: no nuisance blowing from ageing or warmth). */
-export const FUSE_HEADROOM = 1.25;
-
-/** Next preferred fuse rating at or above 1.25 × load_A. The fuse must also tolerate peak_A (see fuseAdvice). */
-export function fuseRating_A(load_A: number, peak_A: number): number {
-  positive(load_A, "load_A");
-  positive(peak_A, "peak_A");
-  const need = FUSE_HEADROOM * load_A;
-  const r = FUSE_RATINGS_A.find((x) => x >= need * (1 - 1e-12));
-  if (r === undefined) throw new EngineMisuseError(`fuseRating_A: ${load_A} A is beyond the fuse table (max ${FUSE_RATINGS_A[FUSE_RATINGS_A.length - 1]} A)`);
-  return r;
-}
-
-/** Fuse rating, characteristic and a sentence: a time-lag fuse when the peak is over twice the rating. */
-export function fuseAdvice(load_A: number, peak_A: number): { rating_A: number; characteristic: "quick-acting" | "time-lag"; note: string } {
-  const rating_A = fuseRating_A(load_A, peak_A);
-  const timeLag = peak_A > 2 * rating_A;
-  return {
-    rating_A,
-    characteristic: timeLag ? "time-lag" : "quick-acting",
-    note: timeLag
-      ? `${rating_A} A time-lag fuse: it must ride through the ${peak_A.toPrecision(3)} A start-up peak; check its I²t against the inrush duration`
-      : `${rating_A} A fuse (≥ ${FUSE_HEADROOM}× the running current)`,
-  };
 }

@@ -11,7 +11,7 @@ import { SERIES_TOLERANCE } from "../shared/e-series.ts";
 
 /** Potentiometer track tolerance, ±20 % (common practice for carbon and cermet pots). */
 export const POT_TOLERANCE = 0.2;
-/** Overdrive kept over the minimum gain for every saturating stage (ENGINEERING.md §1, common practice). */
+/** Overdrive kept over the minimum gain for every saturating stage (k ≥ 2 [src:common-practice]). */
 export const OVERDRIVE_K = 2;
 /** Forced gain for a saturating power stage: I_C/I_B = 10 (common practice, datasheet V_CE(sat) condition). */
 export const FORCED_BETA = 10;
@@ -39,13 +39,12 @@ export interface Ctx {
 export function makeContext(spec: VariantSpec): Ctx {
   const t = spec.targets;
   const vNom_V = spec.supply_V;
-  const vMin_V = vNom_V * (1 - t.supply_tolerance);
-  const vMax_V = vNom_V * (1 + t.supply_tolerance);
+  // The supply's real range (a battery's end of discharge … charging, or the record's window).
+  const vMin_V = spec.supply_window.min_V;
+  const vMax_V = spec.supply_window.max_V;
   const coil = spec.solenoid === undefined ? undefined : { tau_s: spec.solenoid.tau_ms * 1e-3 };
   const load = loadModel(spec.load_kind, vNom_V, spec.load_A, coil);
-  // Motors: back-EMF follows speed, so the running current rises at most in proportion to the
-  // supply (common practice); resistive, lamp and LED loads follow their own V–I line.
-  const iMax_A = spec.load_kind === "motor" ? spec.load_A * (vMax_V / vNom_V) : Math.max(spec.load_A, (vMax_V - load.vf_V) / load.r_ohm);
+  const iMax_A = runningCurrentMax_A(spec.load_kind, load, spec.load_A, vNom_V, vMax_V);
   return {
     spec, vNom_V, vMin_V, vMax_V,
     taMin_C: t.ambient_C[0], taMax_C: t.ambient_C[1],
@@ -58,6 +57,15 @@ export function makeContext(spec: VariantSpec): Ctx {
     cTol: SERIES_TOLERANCE.E12,
     highSide: spec.chain === "bjt-driver-pnp",
   };
+}
+
+/**
+ * Highest running current at supply `vMax_V`. Motors: back-EMF follows speed, so the running
+ * current rises at most in proportion to the supply (common practice); resistive, lamp and LED
+ * loads follow their own V–I line.
+ */
+export function runningCurrentMax_A(kind: VariantSpec["load_kind"], load: LoadModel, load_A: number, vNom_V: number, vMax_V: number): number {
+  return kind === "motor" ? load_A * (vMax_V / vNom_V) : Math.max(load_A, (vMax_V - load.vf_V) / load.r_ohm);
 }
 
 /** On-state load current with `vSwitch_V` across the switch: (V − V_sw − V_f)/R (load model). */

@@ -14,8 +14,8 @@
 import type { Part } from "../../model/circuit.ts";
 import type { BjtClass, MosfetClass } from "../../model/device.ts";
 import type { Figure } from "../../model/figure.ts";
+import type { VerdictCondition } from "../../model/sized.ts";
 import { figure } from "../shared/figures.ts";
-import { SRC } from "../shared/sources.ts";
 import type { Ctx } from "./context.ts";
 import type { DeviceLoss } from "./chains/types.ts";
 
@@ -28,6 +28,11 @@ export interface FailureReview {
   /** Notes to add to parts (by role), e.g. the insulator kit on a live tab. */
   partNotes: Map<string, string>;
   figures: Figure[];
+  /**
+   * Conditions the verdict relies on: a live tab on a part that needs a heatsink is mounted with an
+   * insulator kit (or on a heatsink isolated from every other metal).
+   */
+  conditions: VerdictCondition[];
   /** Some device's case runs above HOT_SURFACE_C at the worst case. */
   hot: boolean;
 }
@@ -65,10 +70,14 @@ function shortFault(ctx: Ctx): string {
   return `Shorted power switch (how an overstressed transistor usually fails): the ${load} runs fully on whatever the control says, and the fuse, sized for the ${load}'s own current, does not open; switch the supply off to stop it.${extra}`;
 }
 
-export function reviewFailures(ctx: Ctx, parts: Part[], losses: DeviceLoss[], perRole: Map<string, { p_W: number; tj_C: number }>): FailureReview {
+/** `heatsunk`: roles the thermal stage puts on a heatsink (a condition of the verdict). */
+export function reviewFailures(
+  ctx: Ctx, parts: Part[], losses: DeviceLoss[], perRole: Map<string, { p_W: number; tj_C: number }>, heatsunk: ReadonlySet<string> = new Set(),
+): FailureReview {
   const cautions = [wiperFault(ctx), inputFault(ctx), shortFault(ctx)];
   const partNotes = new Map<string, string>();
   const figures: Figure[] = [];
+  const conditions: VerdictCondition[] = [];
   let hot = false;
   const powerRole = losses.find((l) => l.isPower)?.role;
   const power = parts.find((p) => p.role === powerRole);
@@ -77,6 +86,9 @@ export function reviewFailures(ctx: Ctx, parts: Part[], losses: DeviceLoss[], pe
     const node = power.kind === "nmos" ? "drain" : "collector";
     partNotes.set(power.role, `${pkg} tab is the ${node} (switched node, live): mount with an insulator kit (pad and insulating bush)`);
     cautions.push(`Live tab: the ${pkg} tab of ${power.ref || power.role} is its ${node}, the switched node at up to ${ctx.vMax_V.toFixed(1)} V. Mount it on a grounded heatsink or chassis only with an insulator kit (thermal pad and insulating bush), and keep the tab from touching other metal.`);
+    if (heatsunk.has(power.role)) {
+      conditions.push({ rule: "insulator-kit", path: `/parts/${power.role}`, text: `${power.role}'s live ${pkg} tab insulated from the heatsink by an insulator kit (its pad adds thermal resistance: allow for it in the heatsink), or the heatsink isolated from every other metal` });
+    }
   }
   for (const l of losses) {
     const th = perRole.get(l.role);
@@ -85,12 +97,12 @@ export function reviewFailures(ctx: Ctx, parts: Part[], losses: DeviceLoss[], pe
     // case is taken at the junction temperature, the cautious choice; JESD51 definitions).
     const rJc = (l.dev as BjtClass | MosfetClass).rth_jc_KperW ?? 0;
     const tCase = Math.min(th.tj_C, th.tj_C - th.p_W * rJc);
-    if (l.isPower) figures.push(figure("case_temperature", "Power device case temperature, free-standing (max ambient)", tCase, "°C", "thermal", "T_C = T_J − P·R_θJC (T_J free-standing)", SRC.JESD51));
+    if (l.isPower) figures.push(figure("case_temperature", "Power device case temperature, free-standing (max ambient)", tCase, "°C", "thermal", "T_C = T_J − P·R_θJC (T_J free-standing)", "jesd51-12"));
     if (tCase > HOT_SURFACE_C) {
       hot = true;
       const ref = parts.find((p) => p.role === l.role)?.ref || l.role;
       cautions.push(`Hot surface: ${ref}'s case reaches about ${tCase.toFixed(0)} °C at ${ctx.taMax_C} °C ambient without a heatsink (above ${HOT_SURFACE_C} °C: burns on touch). Keep it out of reach, away from plastics and plant material${l.isPower ? ", or fit a heatsink to run it cooler" : ""}.`);
     }
   }
-  return { cautions, partNotes, figures, hot };
+  return { cautions, partNotes, figures, conditions, hot };
 }

@@ -1,79 +1,223 @@
 /**
- * Stages "supply" and "protection": fuse (IEC 60127-style ratings at ≥ 1.25× the running current),
- * shunt reverse-polarity diode (surge rating ≥ 10× the fuse so the fuse opens first — common
- * practice), bulk capacitor (≈ 100 µF per ampere switched, ≥ 100 µF — rule of thumb, from memory), freewheel diode for motors (current, reverse
- * voltage, recovery time vs the PWM period), and the LED flicker region (IEEE Std 1789-2015).
+ * Stages "supply" and "protection": the supply fuse coordinated with the variant (shared/fuse.ts:
+ * worst-case continuous current with the usual margin, voltage rating with margin, the start-up
+ * I²t below its pre-arcing I²t), the shunt reverse-polarity diode coordinated with the fuse (its
+ * surge I²t above the fuse's clearing I²t, so the fuse opens first), start-up peaks (cold filament,
+ * stalled motor, bulk capacitor: shared/peaks.ts) and a declared inrush limit (soft start or
+ * current limit: its effect, its linear-mode pulse against the switch's single-pulse safe operating
+ * area, and the condition it puts on the verdict), the bulk capacitor (≈ 100 µF per ampere
+ * switched, ≥ 100 µF — rule of thumb, from memory), the freewheel diode for inductive loads (current,
+ * reverse voltage, recovery time vs the PWM period), and the LED flicker region (IEEE Std 1789-2015).
  */
-import type { DiodeClass } from "../../model/device.ts";
+import type { BjtClass, DiodeClass, MosfetClass } from "../../model/device.ts";
 import type { Figure } from "../../model/figure.ts";
 import type { Part } from "../../model/circuit.ts";
 import type { DesignProblem } from "../../model/problem.ts";
 import type { StressCheck } from "../../model/derating.ts";
+import type { VerdictCondition } from "../../model/sized.ts";
 import { checkStress } from "../shared/derating.ts";
 import { roundUp } from "../shared/e-series.ts";
 import { figure, problem } from "../shared/figures.ts";
 import { flickerLimits, flickerRegion } from "../shared/flicker.ts";
-import { fuseAdvice } from "../shared/loads.ts";
-import { SRC } from "../shared/sources.ts";
+import {
+  FUSE_FAMILIES, FUSE_INRUSH_SHARE, FUSE_VOLTAGE_SHARE, chooseFuse, clearingI2tMax_A2s, diodeSurgeI2t_A2s,
+  fuseContinuousShare, prearcingI2tMin_A2s, type FuseChoice,
+} from "../shared/fuse.ts";
+import { LAMP_WARMUP_TAU_s, MOTOR_START_TAU_s, capChargeI2t_A2s, limitedEvent, softStartScale, soaPulsePower_W, startI2t_A2s } from "../shared/peaks.ts";
+import { cite, deviceSource } from "../shared/sources.ts";
 import { capacitor, diode } from "../../circuit/parts.ts";
 import type { Ctx } from "./context.ts";
-import { peakCurrent_A } from "./chains/common.ts";
+import type { LoadModel } from "../shared/loads.ts";
+import type { VariantSpec } from "../../model/variant.ts";
 import { capRating_V } from "./timing-parts.ts";
 
 export const BULK_PER_A_F = 100e-6;
 export const BULK_MIN_F = 100e-6;
-export const REVERSE_SURGE_MULTIPLE = 10;
 
 export interface ProtectionResult {
   parts: Part[];
   figures: Figure[];
   problems: DesignProblem[];
   checks: StressCheck[];
+  /** Conditions the verdict relies on (a declared inrush limit the circuit does not draw). */
+  conditions: VerdictCondition[];
 }
 
-export function protectionStage(ctx: Ctx, coreCurrent_A: number, fMin_Hz: number, fMax_Hz: number, dutyMinLo: number): ProtectionResult {
+/** Bulk capacitance for a variant: ≈ 100 µF per ampere switched, ≥ 100 µF, rounded up to E6. */
+export function bulkCapacitance_F(iMax_A: number): number {
+  return roundUp(Math.max(BULK_MIN_F, BULK_PER_A_F * iMax_A), "E6");
+}
+
+/** What the start-up relations need of a variant (a Ctx gives it; the device chooser builds one too). */
+export interface StartParams {
+  kind: VariantSpec["load_kind"];
+  load: LoadModel;
+  iMax_A: number;
+  vNom_V: number;
+  vMax_V: number;
+  limit?: VariantSpec["protection"]["inrush_limit"];
+}
+
+export function startParams(ctx: Ctx): StartParams {
+  const lim = ctx.spec.protection.inrush_limit;
+  return { kind: ctx.spec.load_kind, load: ctx.load, iMax_A: ctx.iMax_A, vNom_V: ctx.vNom_V, vMax_V: ctx.vMax_V, ...(lim ? { limit: lim } : {}) };
+}
+
+/** The load's start-up event at V_cc,max: peak, running current and decay time (0 when it has none). */
+export function startEvent(p: StartParams): { iPeak_A: number; iRun_A: number; tau_s: number; what: string } {
+  const iRun_A = p.iMax_A;
+  // Inrush or stall at V_cc,max: the load model's peak scaled with the supply (as loadPeak_A).
+  const iPeak_A = Math.max(iRun_A, (p.load.peak_A * p.vMax_V) / p.vNom_V);
+  if (p.kind === "lamp") return { iPeak_A, iRun_A, tau_s: LAMP_WARMUP_TAU_s, what: "cold filament" };
+  if (p.kind === "motor") return { iPeak_A, iRun_A, tau_s: MOTOR_START_TAU_s, what: "motor start (stall current)" };
+  // A coil has no back-EMF and no cold resistance: its current rises with τ toward V/R, so its
+  // start-up current is the full-on (pull-in) current at V_cc,max and no spike beyond it.
+  if (p.kind === "solenoid") return { iPeak_A: iRun_A, iRun_A, tau_s: 0, what: "coil pull-in (full on)" };
+  return { iPeak_A: iRun_A, iRun_A, tau_s: 0, what: "none" };
+}
+
+export interface StartUp {
+  /** I²t above the running current that the fuse sees at switch-on (load event + bulk capacitor), A²s. */
+  i2t_A2s: number;
+  loadI2t_A2s: number;
+  capI2t_A2s: number;
+  /** Linear-mode pulse in the switch under a declared current limit. */
+  linear?: { p_W: number; t_s: number; e_J: number };
+}
+
+/** The start-up I²t, with a declared soft start or current limit applied (shared/peaks.ts). */
+export function startUp(p: StartParams, cBulk_F: number): StartUp {
+  const ev = startEvent(p);
+  const lim = p.limit;
+  let loadI2t = startI2t_A2s(ev.iPeak_A, ev.iRun_A, ev.tau_s);
+  let linear: StartUp["linear"];
+  if (lim?.kind === "soft-start") loadI2t *= softStartScale(ev.tau_s, lim.ramp_s);
+  if (lim?.kind === "current-limit" && lim.limit_A > ev.iRun_A && lim.limit_A < ev.iPeak_A) {
+    linear = limitedEvent(ev.iPeak_A, ev.iRun_A, lim.limit_A, p.vMax_V, ev.tau_s);
+    // Held at the limit for the event: (I_lim² − I_run²)·t bounds the excess I²t (derived).
+    loadI2t = Math.min(loadI2t, (lim.limit_A ** 2 - ev.iRun_A ** 2) * linear.t_s);
+  }
+  const capI2t = capChargeI2t_A2s(cBulk_F, p.vMax_V);
+  return { i2t_A2s: loadI2t + capI2t, loadI2t_A2s: loadI2t, capI2t_A2s: capI2t, ...(linear ? { linear } : {}) };
+}
+
+/**
+ * The supply fuse a variant gets (shared/fuse.ts rules), from its start-up parameters: the device
+ * chooser calls this too, so the reverse-polarity diode it picks is coordinated with this fuse.
+ */
+export function supplyFuse(p: StartParams, core_A: number, taMax_C: number): { fuse: FuseChoice | undefined; startUp: StartUp; continuous_A: number } {
+  const su = startUp(p, bulkCapacitance_F(p.iMax_A));
+  const continuous_A = p.iMax_A + core_A;
+  return { fuse: chooseFuse({ continuous_A, vMax_V: p.vMax_V, taMax_C, inrushI2t_A2s: su.i2t_A2s }), startUp: su, continuous_A };
+}
+
+export function protectionStage(ctx: Ctx, coreCurrent_A: number, fMin_Hz: number, fMax_Hz: number, dutyMinLo: number, power?: { role: string; dev: BjtClass | MosfetClass }): ProtectionResult {
   const pol = ctx.spec.policy;
   const D = ctx.spec.devices;
   const parts: Part[] = [];
   const figures: Figure[] = [];
   const problems: DesignProblem[] = [];
   const checks: StressCheck[] = [];
-  const iRun = ctx.iNom_A + coreCurrent_A;
-  const fuse = fuseAdvice(iRun, Math.max(peakCurrent_A(ctx), iRun));
-  parts.push({ ref: "", kind: "fuse", stage: "supply", role: "F_SUPPLY", value: fuse.rating_A, unit: "A", description: `Fuse ${fuse.rating_A} A ${fuse.characteristic}, fitted next to the battery — ${fuse.note}`, rating: { current_A: fuse.rating_A, voltage_V: 32 }, stress: { current_A: iRun, voltage_V: ctx.vMax_V }, pins: { a: "vcc", b: "vbus" } });
-  figures.push(figure("fuse_rating", "Supply fuse rating", fuse.rating_A, "A", "supply", "next preferred rating ≥ 1.25 × (I_load + I_core)", SRC.IEC60127));
+  const conditions: VerdictCondition[] = [];
+  const cBulk = bulkCapacitance_F(ctx.iMax_A);
+  const sp = startParams(ctx);
+  const { fuse: chosen, startUp: su, continuous_A: iCont } = supplyFuse(sp, coreCurrent_A, ctx.taMax_C);
+  const lim = ctx.spec.protection.inrush_limit;
+  const ev = startEvent(sp);
+
+  // Declared inrush limit: its effect is counted above; the builder must fit it (a condition).
+  if (lim?.kind === "current-limit") {
+    if (!(lim.limit_A > ev.iRun_A)) {
+      problems.push(problem("protection", "/protection/inrush_limit/limit_A", "current-limit-too-low", "error",
+        `The declared current limit of ${lim.limit_A} A is not above the ${ev.iRun_A.toPrecision(3)} A the load draws running at ${ctx.vMax_V.toPrecision(3)} V: the load would never start. Raise the limit.`,
+        { limit: ev.iRun_A, actual: lim.limit_A, unit: "A" }));
+    } else {
+      conditions.push({ rule: "inrush-limit", path: "/protection/inrush_limit", text: `a current limit of ≤ ${lim.limit_A} A in the load path (not drawn in this schematic)` });
+    }
+  } else if (lim?.kind === "soft-start") {
+    conditions.push({ rule: "inrush-limit", path: "/protection/inrush_limit", text: `a soft start ramping the duty from 0 over ≥ ${lim.ramp_s} s (not drawn in this schematic)` });
+  }
+  if (ctx.spec.load_kind === "solenoid") {
+    figures.push(figure("startup_peak", `Start-up peak of the load (${ev.what}) at V_cc,max`, ev.iPeak_A, "A", "protection",
+      "I_pk = V_cc,max / R_coil (R–L step response: the current rises toward V/R, never beyond)", "hayt-kemmerly-ch8"));
+  } else if (ev.tau_s > 0) {
+    figures.push(figure("startup_peak", `Start-up peak of the load (${ev.what}) at V_cc,max`, ev.iPeak_A, "A", "protection",
+      ctx.spec.load_kind === "lamp" ? "I_pk = 15 × I_run × V_cc,max/V_nom (cold filament ≈ R_hot/15)" : "I_pk = V_cc,max / R_winding (stall)",
+      ctx.spec.load_kind === "lamp" ? "fink-beaty-11e" : "motor-typical"));
+  }
+  figures.push(figure("startup_i2t", "Start-up I²t the fuse sees (load event + bulk capacitor)", su.i2t_A2s, "A²s", "protection",
+    "2·I_run·ΔI·τ + ΔI²·τ/2 (exponential decay) + C·V²/(2R_loop)", "derived"));
+
+  // Linear-mode pulse under a current limit, against the switch's single-pulse SOA.
+  if (su.linear !== undefined && su.linear.t_s > 0 && power !== undefined) {
+    figures.push(figure("limit_pulse_energy", "Switch energy while the current limit holds the start-up", su.linear.e_J, "J", "protection",
+      "E = I_lim·(V_cc,max − I_lim·R_cold) × 2τ·ln(ΔI/(I_lim − I_run))", "derived"));
+    const soa = power.dev.soa_pulse;
+    if (soa === undefined) {
+      problems.push(problem("protection", `/parts/${power.role}`, "soa-unknown", "error",
+        `${power.role} holds ${su.linear.p_W.toPrecision(3)} W for ${(su.linear.t_s * 1e3).toPrecision(3)} ms under the current limit, and its device class gives no single-pulse safe operating area: add soa_pulse to the class, or use one that has it.`));
+    } else {
+      const pSoa = soaPulsePower_W(soa, su.linear.t_s);
+      const src = deviceSource(power.dev, "soa_pulse");
+      checks.push({ ...checkStress(power.role, "soa", su.linear.p_W, pSoa, "W", { factor: 1, ...src, note: `single-pulse SOA of the class at ${(su.linear.t_s * 1e3).toPrecision(3)} ms, T_C 25 °C` }, pol.marginal_above), what: "linear-mode pulse power vs the single-pulse SOA" });
+    }
+  }
+
+  // Fuse: the smallest rating that carries the worst-case current and rides through the start-up.
+  const last = FUSE_FAMILIES[FUSE_FAMILIES.length - 1]!;
+  const rLast = last.ratings_A[last.ratings_A.length - 1]!;
+  const fuse: FuseChoice = chosen ?? { family: last, rating_A: rLast, prearcingMin_A2s: prearcingI2tMin_A2s(last, rLast), clearingMax_A2s: clearingI2tMax_A2s(last, rLast) };
+  if (chosen === undefined) {
+    problems.push(problem("supply", "/parts/F_SUPPLY", "no-fuse", "error",
+      `No fuse of the families known to the engine carries ${iCont.toPrecision(3)} A continuously and rides through a ${su.i2t_A2s.toPrecision(3)} A²s start-up at ${ctx.vMax_V.toPrecision(3)} V: declare a soft start or current limit, or split the load.`));
+  }
+  const fam = fuse.family;
+  parts.push({ ref: "", kind: "fuse", stage: "supply", role: "F_SUPPLY", value: fuse.rating_A, unit: "A",
+    description: `Fuse ${fuse.rating_A} A ${fam.title}, ${fam.voltage_V} V, fitted next to the battery — carries ${iCont.toPrecision(3)} A worst case; start-up ${su.i2t_A2s.toPrecision(2)} A²s`,
+    rating: { current_A: fuse.rating_A, voltage_V: fam.voltage_V }, stress: { current_A: iCont, voltage_V: ctx.vMax_V }, pins: { a: "vcc", b: "vbus" } });
+  const share = fuseContinuousShare(ctx.taMax_C);
+  checks.push({ ...checkStress("F_SUPPLY", "current", iCont, fuse.rating_A, "A", { factor: share, ...cite("common-practice"), note: "continuous ≤ 75 % of the rating at 25 °C, −0.4 %/K above (hot rerating from memory)" }, pol.marginal_above), what: "worst-case continuous current (V_cc,max)" });
+  checks.push({ ...checkStress("F_SUPPLY", "voltage", ctx.vMax_V, fam.voltage_V, "V", { factor: FUSE_VOLTAGE_SHARE, ...cite("common-practice"), note: "rated voltage above the highest supply, 80 % margin" }, pol.marginal_above), what: "highest supply vs the fuse's rated voltage" });
+  checks.push({ ...checkStress("F_SUPPLY", "i2t", su.i2t_A2s, fuse.prearcingMin_A2s, "A²s", { factor: FUSE_INRUSH_SHARE, ...cite(fam.source), note: `start-up I²t ≤ ½ the smallest pre-arcing I²t (${fam.note}; repeated starts, from memory)` }, pol.marginal_above), what: "start-up I²t vs the fuse's smallest pre-arcing I²t" });
+  figures.push(figure("fuse_rating", "Supply fuse rating", fuse.rating_A, "A", "supply",
+    "smallest rating with I_cont ≤ 75 % (hot-rerated), V_max ≤ 80 % of rated voltage, start-up I²t ≤ ½ pre-arcing I²t", fam.source));
+  figures.push(figure("fuse_continuous_current", "Worst-case continuous supply current", iCont, "A", "supply", "I = I_load(V_cc,max) + I_core", "derived"));
+
+  // Shunt reverse-polarity diode: conducts the reversed battery's fault current until the fuse
+  // opens, so its surge I²t must exceed the fuse's clearing I²t.
   const rev = D.reverse_diode as DiodeClass;
-  parts.push(diode("supply", "D_REVERSE", rev, { anode: "0", cathode: "vbus" }, { voltage_V: ctx.vMax_V, current_A: REVERSE_SURGE_MULTIPLE * fuse.rating_A }, "shunt reverse-polarity protection: conducts when reversed, the fuse opens"));
+  const clearing = fuse.clearingMax_A2s;
+  parts.push(diode("supply", "D_REVERSE", rev, { anode: "0", cathode: "vbus" }, { voltage_V: ctx.vMax_V, current_A: fam.gate.multiple * fuse.rating_A }, "shunt reverse-polarity protection: conducts when reversed, the fuse opens"));
   checks.push(checkStress("D_REVERSE", "voltage", ctx.vMax_V, rev.vrrm_V, "V", pol.diode.voltage, pol.marginal_above));
-  const surge = checkStress("D_REVERSE", "current", REVERSE_SURGE_MULTIPLE * fuse.rating_A, rev.ifsm_A, "A", { factor: 1, source: "surge rating I_FSM ≥ 10 × fuse rating (common practice)", confidence: "common-practice" }, pol.marginal_above);
+  const surge = { ...checkStress("D_REVERSE", "i2t", clearing, diodeSurgeI2t_A2s(rev.ifsm_A), "A²s", { factor: 1, ...cite("common-practice"), note: `diode surge I²t = I_FSM²·8.3 ms/2 above the fuse's clearing I²t (${fam.note})` }, pol.marginal_above), what: "fuse clearing I²t vs the diode's surge I²t" };
   checks.push(surge);
-  if (surge.verdict === "fail") problems.push(problem("supply", "/parts/D_REVERSE", "reverse-surge", "warning", `The reverse-polarity diode's ${rev.ifsm_A} A surge rating is below 10× the ${fuse.rating_A} A fuse: on a reversed battery it may fail before the fuse opens. Use a diode with a higher I_FSM.`, { limit: rev.ifsm_A, actual: REVERSE_SURGE_MULTIPLE * fuse.rating_A, unit: "A" }));
+  if (surge.verdict === "fail") problems.push(problem("supply", "/parts/D_REVERSE", "reverse-surge", "error",
+    `The reverse-polarity diode's surge rating (${rev.ifsm_A} A, ${diodeSurgeI2t_A2s(rev.ifsm_A).toPrecision(3)} A²s) is below the ${clearing.toPrecision(3)} A²s the ${fuse.rating_A} A fuse lets through before it clears: on a reversed battery the diode fails first. Bind a diode class with a higher I_FSM, or use series reverse protection (a series Schottky or P-MOSFET, not yet sized by this engine).`,
+    { limit: diodeSurgeI2t_A2s(rev.ifsm_A), actual: clearing, unit: "A²s" }));
   // A battery supplies the low-frequency current; the bulk capacitor covers the switching edges
   // against the wiring's inductance: ≈ 100 µF per ampere switched, at least 100 µF (rule of thumb, from memory).
-  const cBulk = roundUp(Math.max(BULK_MIN_F, BULK_PER_A_F * ctx.iMax_A), "E6");
-  void fMin_Hz;
   const cRated = capRating_V(ctx, ctx.vMax_V);
   parts.push(capacitor("supply", "C_BULK", cBulk, "E6", 0.2, cRated, ctx.vMax_V, { plus: "vbus", minus: "0" }, true, "bulk capacitor close to the switch"));
   checks.push(checkStress("C_BULK", "voltage", ctx.vMax_V, cRated, "V", pol.capacitor.voltage, pol.marginal_above));
-  figures.push(figure("bulk_capacitance", "Bulk capacitor", cBulk, "F", "supply", "C ≈ 100 µF/A × I_max, ≥ 100 µF, rounded up to E6", SRC.COMMON));
+  figures.push(figure("bulk_capacitance", "Bulk capacitor", cBulk, "F", "supply", "C ≈ 100 µF/A × I_max, ≥ 100 µF, rounded up to E6", "common-practice"));
   if (ctx.load.inductive) {
     const fw = D.freewheel_diode as DiodeClass;
     const iAvg = ctx.iMax_A * (1 - dutyMinLo);
     const pins = ctx.highSide ? { anode: "0", cathode: "sw" } : { anode: "sw", cathode: "vbus" };
-    parts.push(diode("protection", "D_FREEWHEEL", fw, pins, { voltage_V: ctx.vMax_V, current_A: iAvg }, "freewheel: clamps the motor's kick-back"));
+    parts.push(diode("protection", "D_FREEWHEEL", fw, pins, { voltage_V: ctx.vMax_V, current_A: iAvg }, `freewheel: clamps the ${ctx.spec.load_kind === "solenoid" ? "coil" : "motor"}'s kick-back`));
     checks.push(checkStress("D_FREEWHEEL", "current", iAvg, fw.if_avg_A, "A", pol.diode.current, pol.marginal_above));
     checks.push(checkStress("D_FREEWHEEL", "voltage", ctx.vMax_V, fw.vrrm_V, "V", pol.diode.voltage, pol.marginal_above));
     const share = fw.trr_s * fMax_Hz;
-    figures.push(figure("freewheel_recovery_share", "Freewheel diode t_rr as a share of the period", share, "", "protection", "t_rr · f_max", SRC.COMMON));
+    figures.push(figure("freewheel_recovery_share", "Freewheel diode t_rr as a share of the period", share, "", "protection", "t_rr · f_max", "common-practice"));
     if (share > 0.01) problems.push(problem("protection", "/parts/D_FREEWHEEL", "freewheel-recovery", share > 0.05 ? "error" : "warning",
       `The ${fw.recovery}-recovery freewheel diode takes ${(fw.trr_s * 1e6).toPrecision(2)} µs to recover, ${(share * 100).toFixed(1)} % of the PWM period: use a fast or Schottky diode.`, { limit: 0.01, actual: share, unit: "" }));
   }
   if (ctx.spec.load_kind === "led") {
     const region = flickerRegion(fMin_Hz, 100);
     const lim = flickerLimits(fMin_Hz);
-    figures.push(figure("flicker_low_risk_limit", "IEEE 1789 low-risk modulation limit at f_min (100 % = none)", lim.lowRisk_pct === null ? 1 : lim.lowRisk_pct / 100, "", "protection", "Mod% ≤ 0.08·f (90–1250 Hz), none above 1250 Hz", SRC.IEEE1789));
+    figures.push(figure("flicker_low_risk_limit", "IEEE 1789 low-risk modulation limit at f_min (100 % = none)", lim.lowRisk_pct === null ? 1 : lim.lowRisk_pct / 100, "", "protection", "Mod% ≤ 0.08·f (90–1250 Hz), none above 1250 Hz", "ieee-1789"));
     if (region === "exceeds") problems.push(problem("protection", "/targets/pwm_Hz", "flicker", "warning", `Full-depth PWM at ${fMin_Hz.toFixed(0)} Hz (worst case) is outside IEEE 1789's low-risk region (needs ≥ 1250 Hz); raise the PWM frequency for grow lights people work under.`, { limit: 1250, actual: fMin_Hz, unit: "Hz" }));
     else problems.push(problem("protection", "/targets/pwm_Hz", "flicker", "note", `Full-depth PWM at ≥ ${fMin_Hz.toFixed(0)} Hz: IEEE 1789 ${region === "low-risk" ? "low-risk" : "no-observable-effect"} region.`));
   }
-  return { parts, figures, problems, checks };
+  return { parts, figures, problems, checks, conditions };
 }

@@ -10,9 +10,9 @@ import type { Figure } from "../../model/figure.ts";
 import { type DesignProblem, EngineMisuseError } from "../../model/problem.ts";
 import { figure, problem } from "../shared/figures.ts";
 import { coilAverage_A, coilRipple_A, coilRiseTime_s, holdDuty } from "../shared/solenoid.ts";
-import { SRC } from "../shared/sources.ts";
+import { diodeClassVf_V } from "../shared/diode.ts";
+import { NOMINAL_TEMP_C } from "../shared/temperature.ts";
 import type { Ctx } from "./context.ts";
-import { diodeVf_V } from "./core-model.ts";
 
 export interface SolenoidScheme {
   /** Average coil current at control 1, nominal supply (the simulation's on-state figure). */
@@ -30,7 +30,7 @@ export function solenoidScheme(ctx: Ctx, vSw_V: number, dutyOn: number, reach: {
   if (sol === undefined) throw new EngineMisuseError("solenoidScheme: the variant carries no solenoid data (record block `solenoid`)");
   const r = ctx.load.r_ohm;
   const tau_s = ctx.load.l_H / r;
-  const vf = fw === undefined ? 0 : Math.max(0, diodeVf_V(fw, ctx.iNom_A, 27));
+  const vf = fw === undefined ? 0 : Math.max(0, diodeClassVf_V(fw, ctx.iNom_A, NOMINAL_TEMP_C));
   const iPull = sol.pull_in_share * ctx.iNom_A;
   const iHold = sol.hold_share * iPull;
   // Pull-in at the lowest supply, switch full on: the current must first rise to I_pull, then
@@ -67,20 +67,20 @@ export function solenoidScheme(ctx: Ctx, vSw_V: number, dutyOn: number, reach: {
       `The hold current needs only ${pct(dHold)} duty at the lowest supply; the control's lowest setting (${pct(reach.lo)}) holds with ${A(iHoldNom)} at the nominal supply instead of ${A(iHold)}.`));
   }
   const figures: Figure[] = [
-    figure("coil_resistance", "Coil resistance", r, "Ω", "load", "R_coil = V_nom / I_rated", SRC.COMMON),
-    figure("coil_inductance", "Coil inductance (armature closed)", ctx.load.l_H, "H", "load", "L = R_coil · τ (τ from the record)", SRC.DEMO),
-    figure("pull_in_current", "Pull-in current", iPull, "A", "load", "I_pull = pull-in share · I_rated (record)", SRC.DEMO),
+    figure("coil_resistance", "Coil resistance", r, "Ω", "load", "R_coil = V_nom / I_rated", "common-practice"),
+    figure("coil_inductance", "Coil inductance (armature closed)", ctx.load.l_H, "H", "load", "L = R_coil · τ (τ from the record)", "demo"),
+    figure("pull_in_current", "Pull-in current", iPull, "A", "load", "I_pull = pull-in share · I_rated (record)", "demo"),
     figure("pull_in_full_on_time", "Full-on time for pull-in (lowest supply)", Number.isFinite(tFull) ? tFull : 0, "s", "load",
-      "t = −τ·ln(1 − I_pull·R/(V_cc,min − V_sw)) + t_pull", SRC.RL_STEP),
+      "t = −τ·ln(1 − I_pull·R/(V_cc,min − V_sw)) + t_pull", "hayt-kemmerly-ch8"),
     figure("pull_in_pwm_top_current", "Coil current at the control's top end, lowest supply", iTopMin, "A", "load",
-      "I = [D_max·(V_cc,min − V_sw) − (1 − D_max)·V_F]/R", SRC.DERIVED),
-    figure("hold_current", "Hold current needed", iHold, "A", "load", "I_hold = hold share · I_pull (record; 30–50 % is common practice)", SRC.SOLENOID_HOLD),
-    figure("hold_duty", "Hold duty (lowest supply)", dHold, "", "load", "D = (I_hold·R + V_F)/(V_cc,min − V_sw + V_F)", SRC.DERIVED),
-    figure("hold_current_nominal", "Hold current at that duty, nominal supply", iHoldNom, "A", "load", "I = [D·(V_cc − V_sw) − (1 − D)·V_F]/R", SRC.DERIVED),
-    figure("hold_current_max", "Hold current at that duty, highest supply", iHoldMax, "A", "load", "I = [D·(V_cc,max − V_sw) − (1 − D)·V_F]/R", SRC.DERIVED),
+      "I = [D_max·(V_cc,min − V_sw) − (1 − D_max)·V_F]/R", "derived"),
+    figure("hold_current", "Hold current needed", iHold, "A", "load", "I_hold = hold share · I_pull (record; 30–50 % is common practice)", "common-practice"),
+    figure("hold_duty", "Hold duty (lowest supply)", dHold, "", "load", "D = (I_hold·R + V_F)/(V_cc,min − V_sw + V_F)", "derived"),
+    figure("hold_current_nominal", "Hold current at that duty, nominal supply", iHoldNom, "A", "load", "I = [D·(V_cc − V_sw) − (1 − D)·V_F]/R", "derived"),
+    figure("hold_current_max", "Hold current at that duty, highest supply", iHoldMax, "A", "load", "I = [D·(V_cc,max − V_sw) − (1 − D)·V_F]/R", "derived"),
     figure("hold_ripple", "Hold current ripple, peak to peak (nominal)", ripple, "A", "load",
-      "ΔI = (V'/R)(1 − e^(−DT/τ))(1 − e^(−(1−D)T/τ))/(1 − e^(−T/τ))", SRC.DERIVED),
-    figure("hold_power", "Coil power held vs full on (nominal)", (iHoldNom * iHoldNom * r) / (ctx.iNom_A * ctx.iNom_A * r), "", "load", "P_hold/P_full = (I_hold,nom/I_rated)²", SRC.DERIVED),
+      "ΔI = (V'/R)(1 − e^(−DT/τ))(1 − e^(−(1−D)T/τ))/(1 − e^(−T/τ))", "derived"),
+    figure("hold_power", "Coil power held vs full on (nominal)", (iHoldNom * iHoldNom * r) / (ctx.iNom_A * ctx.iNom_A * r), "", "load", "P_hold/P_full = (I_hold,nom/I_rated)²", "derived"),
   ];
   const note = `Pull-in ${A(iPull)} for ${(tFull * 1e3).toPrecision(3)} ms full on, then hold at duty ${pct(dSet)} (${A(iHoldNom)} at ${ctx.vNom_V} V); the freewheel diode clamps the kick-back.`;
   return { iOn_A, figures, problems, note };

@@ -8,12 +8,11 @@
 import type { Figure } from "../../model/figure.ts";
 import type { DesignProblem } from "../../model/problem.ts";
 import type { StressCheck } from "../../model/derating.ts";
-import type { HeatsinkVerdict } from "../../model/sized.ts";
+import type { HeatsinkVerdict, VerdictCondition } from "../../model/sized.ts";
 import { checkTj, tjLimit_C } from "../shared/derating.ts";
 import { figure, problem } from "../shared/figures.ts";
 import { heatsinkMax_KperW, junctionTemp_C, powerRatingAt_W, rthCsFor_KperW } from "../shared/thermal.ts";
 import { checkStress } from "../shared/derating.ts";
-import { SRC } from "../shared/sources.ts";
 import type { Ctx } from "./context.ts";
 import type { DeviceLoss } from "./chains/types.ts";
 
@@ -22,6 +21,8 @@ export interface ThermalResult {
   problems: DesignProblem[];
   checks: StressCheck[];
   heatsink: HeatsinkVerdict;
+  /** One condition per device that holds its junction limit only on a heatsink. */
+  conditions: VerdictCondition[];
   /** role → (power, free-air T_J) for the parts' stress. */
   perRole: Map<string, { p_W: number; tj_C: number }>;
 }
@@ -36,6 +37,7 @@ export function thermalStage(ctx: Ctx, losses: DeviceLoss[]): ThermalResult {
   const problems: DesignProblem[] = [];
   const checks: StressCheck[] = [];
   const perRole = new Map<string, { p_W: number; tj_C: number }>();
+  const conditions: VerdictCondition[] = [];
   let heatsink: HeatsinkVerdict = { needed: false, text: "no heatsink needed" };
   let worstMargin = Infinity;
   for (const l of losses) {
@@ -43,8 +45,8 @@ export function thermalStage(ctx: Ctx, losses: DeviceLoss[]): ThermalResult {
     const limit = tjLimit_C(pol, l.family, l.dev.tj_max_C);
     perRole.set(l.role, { p_W: l.p_W, tj_C: tj });
     if (l.isPower) {
-      figures.push(figure("device_dissipation", "Power device dissipation (worst duty, max current)", l.p_W, "W", "thermal", "P = P_cond + P_sw at D_max, I_max, V_cc,max, f_max", SRC.DERIVED));
-      figures.push(figure("tj_free_air", "Power device T_J without heatsink (max ambient)", tj, "°C", "thermal", "T_J = T_A,max + P·R_θJA", SRC.JESD51));
+      figures.push(figure("device_dissipation", "Power device dissipation (worst duty, max current)", l.p_W, "W", "thermal", "P = P_cond + P_sw at D_max, I_max, V_cc,max, f_max", "derived"));
+      figures.push(figure("tj_free_air", "Power device T_J without heatsink (max ambient)", tj, "°C", "thermal", "T_J = T_A,max + P·R_θJA", "jesd51-2a"));
     }
     if (tj <= limit) {
       checks.push(checkTj(l.role, tj, l.dev.tj_max_C, pol, l.family));
@@ -55,25 +57,34 @@ export function thermalStage(ctx: Ctx, losses: DeviceLoss[]): ThermalResult {
     const rJc = l.dev.rth_jc_KperW;
     const canSink = SINKABLE.has(l.dev.package) && rJc !== undefined;
     const rSa = canSink ? heatsinkMax_KperW(limit, ta, l.p_W, rJc, rthCsFor_KperW(l.dev.package)) : -1;
-    const tjSink = canSink ? junctionTemp_C(ta, l.p_W, rJc + rthCsFor_KperW(l.dev.package) + Math.max(rSa, 0)) : tj;
-    checks.push(checkTj(l.role, canSink && rSa > 0 ? tjSink : tj, l.dev.tj_max_C, pol, l.family));
-    const margin = rSa;
-    if (margin < worstMargin) {
-      worstMargin = margin;
-      const minOk = ctx.spec.targets.heatsink_min_KperW;
-      const what = `${l.role} (${l.dev.package}) dissipates ${l.p_W.toFixed(2)} W: ${tj.toFixed(0)} °C free-standing at ${ta} °C ambient, over the ${limit.toFixed(0)} °C limit`;
-      if (!canSink) {
-        heatsink = { needed: true, text: `not feasible: ${l.dev.package} cannot take a heatsink` };
-        problems.push(problem("thermal", `/parts/${l.role}`, "tj-over-limit", "error", `${what}; its package takes no heatsink. Use a larger device class or a MOSFET chain.`, { limit, actual: tj, unit: "°C" }));
-      } else if (rSa < minOk) {
-        heatsink = { needed: true, rth_sa_max_KperW: Math.max(rSa, 0), text: rSa > 0 ? `not feasible: needs ≤ ${rSa.toFixed(2)} K/W` : "not feasible: no heatsink is enough" };
-        problems.push(problem("thermal", `/parts/${l.role}`, "heatsink-too-small", "error", `${what}; needs a heatsink ≤ ${Math.max(rSa, 0).toFixed(2)} K/W, below the ${minOk} K/W this design accepts. Use a MOSFET chain.`, { limit: minOk, actual: Math.max(rSa, 0), unit: "K/W" }));
-      } else {
-        heatsink = { needed: true, rth_sa_max_KperW: rSa, text: `heatsink ≤ ${rSa.toFixed(1)} K/W` };
-        problems.push(problem("thermal", `/parts/${l.role}`, "heatsink-needed", "warning", `${what}; mount it on a heatsink of ≤ ${rSa.toFixed(1)} K/W (with grease). Hot surface.`, { limit: rSa, unit: "K/W" }));
-      }
+    // T_J on the heatsink the page names (R_θSA rounded down to 0.1 K/W, as shown), so the check
+    // lands at or below the limit rather than on it within rounding.
+    const rSaShown = Math.max(Math.floor(rSa * 10) / 10, 0);
+    const tjSink = canSink ? junctionTemp_C(ta, l.p_W, rJc + rthCsFor_KperW(l.dev.package) + rSaShown) : tj;
+    const minOk = ctx.spec.targets.heatsink_min_KperW;
+    const sinkOk = canSink && rSa >= minOk;
+    // The check is computed under the condition that makes it hold (the heatsink), and says so.
+    const tjCheck = checkTj(l.role, sinkOk ? tjSink : tj, l.dev.tj_max_C, pol, l.family);
+    checks.push(sinkOk ? { ...tjCheck, condition: `on a heatsink of ≤ ${rSaShown.toFixed(1)} K/W` } : tjCheck);
+    const what = `${l.role} (${l.dev.package}) dissipates ${l.p_W.toFixed(2)} W: ${tj.toFixed(0)} °C free-standing at ${ta} °C ambient, over the ${limit.toFixed(0)} °C limit`;
+    let verdict: HeatsinkVerdict;
+    if (!canSink) {
+      verdict = { needed: true, text: `not feasible: ${l.dev.package} cannot take a heatsink` };
+      problems.push(problem("thermal", `/parts/${l.role}`, "tj-over-limit", "error", `${what}; its package takes no heatsink. Use a larger device class or a MOSFET chain.`, { limit, actual: tj, unit: "°C" }));
+    } else if (!sinkOk) {
+      verdict = { needed: true, rth_sa_max_KperW: Math.max(rSa, 0), text: rSa > 0 ? `not feasible: needs ≤ ${rSa.toFixed(2)} K/W` : "not feasible: no heatsink is enough" };
+      problems.push(problem("thermal", `/parts/${l.role}`, "heatsink-too-small", "error", `${what}; needs a heatsink ≤ ${Math.max(rSa, 0).toFixed(2)} K/W, below the ${minOk} K/W this design accepts. Use a MOSFET chain.`, { limit: minOk, actual: Math.max(rSa, 0), unit: "K/W" }));
+    } else {
+      verdict = { needed: true, rth_sa_max_KperW: rSa, text: `heatsink ≤ ${rSaShown.toFixed(1)} K/W` };
+      problems.push(problem("thermal", `/parts/${l.role}`, "heatsink-needed", "warning", `${what}; mount it on a heatsink of ≤ ${rSaShown.toFixed(1)} K/W (with grease). Hot surface.`, { limit: rSa, unit: "K/W" }));
+      conditions.push({ rule: "heatsink", path: `/parts/${l.role}`, text: `${l.role} on a heatsink of ≤ ${rSaShown.toFixed(1)} K/W (with grease)` });
+    }
+    // The page's heatsink line names the device with the least margin.
+    if (rSa < worstMargin) {
+      worstMargin = rSa;
+      heatsink = verdict;
     }
   }
-  if (worstMargin > 0 && worstMargin < Infinity) figures.push(figure("heatsink_rth_sa_max", "Largest heatsink thermal resistance allowed", worstMargin, "K/W", "thermal", "R_θSA ≤ (T_J,limit − T_A)/P − R_θJC − R_θCS", SRC.JESD51));
-  return { figures, problems, checks, heatsink, perRole };
+  if (worstMargin > 0 && worstMargin < Infinity) figures.push(figure("heatsink_rth_sa_max", "Largest heatsink thermal resistance allowed", worstMargin, "K/W", "thermal", "R_θSA ≤ (T_J,limit − T_A)/P − R_θJC − R_θCS", "jesd51-12"));
+  return { figures, problems, checks, heatsink, conditions, perRole };
 }

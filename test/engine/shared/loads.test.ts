@@ -1,10 +1,10 @@
 import { describe, expect, it } from "vitest";
-import { FUSE_RATINGS_A, fuseAdvice, fuseRating_A, lampInrush_A, loadModel, motorStall_A } from "../../../src/engine/shared/loads.ts";
+import { lampInrush_A, loadModel, motorStall_A } from "../../../src/engine/shared/loads.ts";
 import { LOAD_KINDS } from "../../../src/model/kinds.ts";
 import { expectClose } from "../../helpers/close.ts";
 
 describe("peak currents", () => {
-  it("lamp inrush is 10–15× the running current: 12× nominal, 15× worst (Fink & Beaty, 11th ed., p. 22-8, from memory; SOURCES.md)", () => {
+  it("lamp inrush is 10–15× the running current: 12× nominal, 15× worst (Fink & Beaty, 11th ed., p. 22-8, from memory [src:fink-beaty-11e])", () => {
     expect(lampInrush_A(1, "nominal")).toBe(12);
     expect(lampInrush_A(1)).toBe(15);
   });
@@ -51,24 +51,5 @@ describe("equivalent load models at rated current", () => {
   it("rejects zero or non-finite supply and current", () => {
     expect(() => loadModel("motor", 0, 1)).toThrow(/supply_V/);
     expect(() => loadModel("lamp", 12, Number.NaN)).toThrow(/load_A/);
-  });
-});
-
-describe("fuse rating: next IEC 60127-style R10 rating at ≥ 1.25 × running current (IEC 60127 preferred ratings, from memory; 1.25× common practice)", () => {
-  it.each([
-    [0.8, 1], [1, 1.25], [2, 2.5], [3, 4], [4, 5], [5, 6.3], [8, 10],
-  ])("%s A load → %s A fuse", (load, fuse) => {
-    expect(fuseRating_A(load, load)).toBe(fuse);
-  });
-
-  it("the R10 table steps by ≈ 10^(1/10) (IEC 60127 ratings follow the R10 preferred numbers, from memory)", () => {
-    for (let i = 1; i < FUSE_RATINGS_A.length; i++) {
-      expectClose(FUSE_RATINGS_A[i]! / FUSE_RATINGS_A[i - 1]!, 10 ** 0.1, 0.03, `${FUSE_RATINGS_A[i]} / ${FUSE_RATINGS_A[i - 1]}`);
-    }
-  });
-
-  it("asks for a time-lag fuse when the start-up peak is more than twice the rating (lamp inrush)", () => {
-    expect(fuseAdvice(1, lampInrush_A(1))).toMatchObject({ rating_A: 1.25, characteristic: "time-lag" });
-    expect(fuseAdvice(1, 1).characteristic).toBe("quick-acting");
   });
 });

@@ -2,11 +2,11 @@
  * Helpers shared by the chain modules: stresses of the switching device and a drive-margin figure.
  */
 import type { BjtClass, MosfetClass } from "../../../model/device.ts";
-import type { StressCheck } from "../../../model/derating.ts";
+import type { DeratingRule, StressCheck } from "../../../model/derating.ts";
 import type { Figure } from "../../../model/figure.ts";
 import { checkStress } from "../../shared/derating.ts";
 import { figure } from "../../shared/figures.ts";
-import { SRC } from "../../shared/sources.ts";
+import { cite } from "../../shared/sources.ts";
 import { vbeOn } from "../../shared/gain.ts";
 import type { Ctx } from "../context.ts";
 
@@ -15,14 +15,27 @@ export function vbeCold(dev: BjtClass, ctx: Ctx): number {
   return vbeOn(dev, ctx.taMin_C);
 }
 
+/** Freewheel diode drop added to the switch's off voltage with an inductive load (≈ 1 V, common practice). */
+export const FREEWHEEL_DROP_V = 1.0;
+
 /** Off-state voltage across the switch: Vcc,max plus a freewheel diode's drop when inductive. */
 export function switchOffVoltage_V(ctx: Ctx): number {
-  return ctx.vMax_V + (ctx.load.inductive ? 1.0 : 0);
+  return ctx.vMax_V + (ctx.load.inductive ? FREEWHEEL_DROP_V : 0);
 }
 
-/** Peak current the switch must survive: inrush or stall at Vcc,max (load model, scaled). */
-export function peakCurrent_A(ctx: Ctx): number {
+/** Start-up peak of the load itself: inrush or stall at Vcc,max (load model, scaled), no limit applied. */
+export function loadPeak_A(ctx: Ctx): number {
   return Math.max(ctx.iMax_A, (ctx.load.peak_A * ctx.vMax_V) / ctx.vNom_V);
+}
+
+/**
+ * Peak current the switch must survive: the load's start-up peak, or the record's declared current
+ * limit when that is lower (protection.inrush_limit, a condition of the verdict).
+ */
+export function peakCurrent_A(ctx: Ctx): number {
+  const lim = ctx.spec.protection.inrush_limit;
+  const pk = loadPeak_A(ctx);
+  return lim?.kind === "current-limit" ? Math.max(ctx.iMax_A, Math.min(pk, lim.limit_A)) : pk;
 }
 
 /** Voltage and current checks of the load switch: continuous (policy) and peak (absolute pulse rating). */
@@ -32,11 +45,15 @@ export function switchChecks(ctx: Ctx, role: string, dev: BjtClass | MosfetClass
   const vRating = dev.family === "nmos" ? dev.vds_V : dev.vceo_V;
   const iRating = dev.family === "nmos" ? dev.id_A : dev.ic_max_A;
   const pulse = dev.family === "nmos" ? (dev.idm_A ?? dev.id_A) : (dev.icm_A ?? dev.ic_max_A);
-  const peakRule = { factor: 1, source: "absolute maximum (pulse) rating: a start-up or stall peak may reach but not exceed it", confidence: "common-practice" as const };
+  const peakRule: DeratingRule = {
+    factor: 1,
+    ...cite("common-practice"),
+    note: "absolute maximum (pulse) rating: a start-up or stall peak may reach but not exceed it",
+  };
   return [
     checkStress(role, "voltage", switchOffVoltage_V(ctx), vRating, "V", fam.voltage, pol.marginal_above),
     checkStress(role, "current", ctx.iMax_A, iRating, "A", fam.current, pol.marginal_above),
-    { ...checkStress(role, "current", peakCurrent_A(ctx), pulse, "A", peakRule, pol.marginal_above), quantity: "current" },
+    { ...checkStress(role, "peak", peakCurrent_A(ctx), pulse, "A", peakRule, pol.marginal_above), what: "start-up peak current vs the pulse rating" },
   ];
 }
 
@@ -58,6 +75,6 @@ export function driveMargin(stageKey: string, what: string, provided_A: number, 
   return figure(
     `drive_margin_${stageKey}`, `Drive margin, ${what}`, provided_A / needed_A, "", "chain",
     "margin = I_B,provided(min supply, tolerances) ÷ (I_C,max / β_min(I_C, T_A,min))",
-    SRC.COMMON,
+    "common-practice",
   );
 }
