@@ -10,7 +10,7 @@ import { formatValue } from "../model/format.ts";
 import { sizeOwn, sizeOwnLimits } from "../site/size-own.ts";
 import { UsageError, decimalFlag, readFlags } from "./args.ts";
 
-export const SIZE_EXAMPLE = "pulsewright size --design circulation-fan --supply 18 --current 1.3 --chain mosfet-logic --load motor";
+const SIZE_EXAMPLE = "pulsewright size --design circulation-fan --supply 18 --current 1.3 --chain mosfet-logic --load motor";
 
 const fail = (msg: string): never => {
   throw new UsageError(`size: ${msg}`);
