@@ -51,7 +51,10 @@ const WHOLE = /^\d+$/;
 export function decimalFlag(command: string, flag: string, text: string): number {
   const x = DECIMAL.test(text) ? Number(text) : NaN;
   if (!Number.isFinite(x)) {
-    throw new UsageError(`${command}: --${flag} ${JSON.stringify(text)} is not a plain decimal number — write digits with an optional decimal point, e.g. 24 or 0.75`);
+    throw new UsageError(
+      `${command}: --${flag} ${JSON.stringify(text)} is not a plain decimal number — ` +
+        "write digits with an optional decimal point, e.g. 24 or 0.75",
+    );
   }
   return x;
 }

@@ -9,7 +9,8 @@ import { UsageError, readFlags, wholeFlag } from "./args.ts";
 
 // Each command's module is loaded only when that command runs: `size` or `serve` need not load the
 // site generator, and a usage error is reported before anything heavy is loaded.
-const SIZE_EXAMPLE = "pulsewright size --design circulation-fan --supply 18 --current 1.3 --chain mosfet-logic --load motor";
+export const SIZE_EXAMPLE =
+  "pulsewright size --design circulation-fan --supply 18 --current 1.3 --chain mosfet-logic --load motor";
 
 export const USAGE = `usage: pulsewright <command> [options]
 
@@ -84,7 +85,8 @@ async function dispatch(argv: string[], root: string, out: Out): Promise<number>
   });
   const spice = values.spice ?? process.env["PULSEWRIGHT_SPICE"] ?? "eecircuit-engine";
   if (spice !== "eecircuit-engine" && spice !== "ngspice") {
-    throw new UsageError(`build: --spice ${JSON.stringify(spice)} is not an engine here — use eecircuit-engine or ngspice`);
+    const given = JSON.stringify(spice);
+    throw new UsageError(`build: --spice ${given} is not an engine here — use eecircuit-engine or ngspice`);
   }
   const workers = values.workers === undefined ? undefined : wholeFlag("build", "workers", values.workers, 1, 64);
   return (await import("./build.ts")).runBuild({

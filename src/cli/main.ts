@@ -15,7 +15,8 @@ let outputFailed = false;
 process.stdout.on("error", (err: NodeJS.ErrnoException) => {
   if (outputFailed) return;
   outputFailed = true;
-  if (err.code !== "EPIPE") process.stderr.write(`pulsewright: cannot write to standard output (${err.code ?? err.message})\n`);
+  const why = err.code ?? err.message;
+  if (err.code !== "EPIPE") process.stderr.write(`pulsewright: cannot write to standard output (${why})\n`);
   process.exit(err.code === "EPIPE" ? 0 : 74);
 });
 

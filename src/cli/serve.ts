@@ -10,6 +10,7 @@ import { realpath, stat } from "node:fs/promises";
 import { createServer, type IncomingMessage, type Server, type ServerResponse } from "node:http";
 import path from "node:path";
 import { UsageError, readFlags, wholeFlag } from "./args.ts";
+import type { Out } from "./commands.ts";
 
 /**
  * Media types by extension (IANA media types registry; common practice for the search index's own
@@ -61,7 +62,8 @@ async function staysInside(realDir: string, file: string): Promise<boolean> {
 }
 
 function plain(res: ServerResponse, status: number, text: string, headers: Record<string, string> = {}): void {
-  res.writeHead(status, { "content-type": "text/plain; charset=utf-8", "x-content-type-options": "nosniff", ...headers }).end(text + "\n");
+  const head = { "content-type": "text/plain; charset=utf-8", "x-content-type-options": "nosniff", ...headers };
+  res.writeHead(status, head).end(text + "\n");
 }
 
 /** The request handler, for a site folder whose symbolic links are already resolved (`realDir`). */
@@ -108,13 +110,14 @@ export function startServer(realDir: string, port: number): Promise<Server> {
           : err.code === "EACCES"
             ? "needs privileges this user does not have"
             : `cannot be opened (${err.code ?? err.message})`;
-      reject(new UsageError(`serve: port ${port} on 127.0.0.1 ${why} — choose another with --port N (1024 to 65535)`));
+      const hint = "choose another with --port N (1024 to 65535)";
+      reject(new UsageError(`serve: port ${port} on 127.0.0.1 ${why} — ${hint}`));
     });
     server.listen(port, "127.0.0.1", () => resolve(server));
   });
 }
 
-export async function runServe(root: string, args: string[], out: { log(s: string): void; error(s: string): void }): Promise<number> {
+export async function runServe(root: string, args: string[], out: Out): Promise<number> {
   const values = readFlags("serve", args, { port: { type: "string" }, dir: { type: "string" } });
   const port = values.port === undefined ? DEFAULT_PORT : wholeFlag("serve", "port", values.port, 1, 65535);
   const shown = values.dir ?? "_site";
@@ -123,7 +126,7 @@ export async function runServe(root: string, args: string[], out: { log(s: strin
     realDir = await realpath(path.resolve(root, shown));
     if (!(await stat(path.join(realDir, "index.html"))).isFile()) throw new Error("not a file");
   } catch {
-    out.error(`serve: ${shown}/index.html not found — run \`npm run build\` first (or give the site folder with --dir)`);
+    out.error(`serve: ${shown}/index.html not found — run \`npm run build\` first (or give the folder with --dir)`);
     return 1;
   }
   const server = await startServer(realDir, port);

@@ -9,14 +9,13 @@ import { loadProject, formatIssue } from "../records/index.ts";
 import { formatValue } from "../model/format.ts";
 import { sizeOwn, sizeOwnLimits } from "../site/size-own.ts";
 import { UsageError, decimalFlag, readFlags } from "./args.ts";
-
-const SIZE_EXAMPLE = "pulsewright size --design circulation-fan --supply 18 --current 1.3 --chain mosfet-logic --load motor";
+import { SIZE_EXAMPLE, type Out } from "./commands.ts";
 
 const fail = (msg: string): never => {
   throw new UsageError(`size: ${msg}`);
 };
 
-export async function runSize(root: string, args: string[], out: { log(s: string): void; error(s: string): void }): Promise<number> {
+export async function runSize(root: string, args: string[], out: Out): Promise<number> {
   const values = readFlags("size", args, {
     design: { type: "string" },
     supply: { type: "string" },
@@ -32,18 +31,28 @@ export async function runSize(root: string, args: string[], out: { log(s: string
     return 1;
   }
   const ids = project.designs.map((x) => x.record.id);
-  if (values.design === undefined) fail(`--design is required — one of: ${ids.join(", ")} (example: ${SIZE_EXAMPLE})`);
+  if (values.design === undefined) {
+    fail(`--design is required — one of: ${ids.join(", ")} (example: ${SIZE_EXAMPLE})`);
+  }
   const d = project.designs.find((x) => x.record.id === values.design);
   if (!d) return fail(`--design ${JSON.stringify(values.design)} is not a design here — one of: ${ids.join(", ")}`);
   const rec = d.record;
   const lim = sizeOwnLimits(rec);
-  const range = (flag: string, text: string | undefined, [lo, hi]: [number, number], unit: string, fallback?: number): number => {
+  const range = (
+    flag: string,
+    text: string | undefined,
+    [lo, hi]: [number, number],
+    unit: string,
+    fallback?: number,
+  ): number => {
     if (text === undefined) {
       if (fallback !== undefined) return fallback;
       return fail(`--${flag} is required — design "${rec.id}" covers ${lo} ${unit} to ${hi} ${unit}`);
     }
     const x = decimalFlag("size", flag, text);
-    if (x < lo || x > hi) fail(`--${flag} ${text} ${unit} is outside what design "${rec.id}" covers: ${lo} ${unit} to ${hi} ${unit}`);
+    if (x < lo || x > hi) {
+      fail(`--${flag} ${text} ${unit} is outside what design "${rec.id}" covers: ${lo} ${unit} to ${hi} ${unit}`);
+    }
     return x;
   };
   const supply_V = range("supply", values.supply, lim.supply_V, "V");
@@ -52,19 +61,25 @@ export async function runSize(root: string, args: string[], out: { log(s: string
   const pick = (flag: string, text: string | undefined, offered: readonly string[]): string => {
     if (text === undefined && offered.length === 1) return offered[0]!;
     if (text === undefined) return fail(`--${flag} is required — design "${rec.id}" offers: ${offered.join(", ")}`);
-    if (!offered.includes(text)) fail(`--${flag} ${JSON.stringify(text)} is not offered by design "${rec.id}" — it offers: ${offered.join(", ")}`);
+    if (!offered.includes(text)) {
+      const list = offered.join(", ");
+      fail(`--${flag} ${JSON.stringify(text)} is not offered by design "${rec.id}" — it offers: ${list}`);
+    }
     return text;
   };
   const chain = pick("chain", values.chain, lim.chains);
   const load_kind = pick("load", values.load, lim.loadKinds);
 
-  const r = sizeOwn({ record: rec, devices: [...project.devices.values()], policy: project.policy }, { supply_V, load_A, pwm_Hz, chain, load_kind }, { schematic: false });
+  const data = { record: rec, devices: [...project.devices.values()], policy: project.policy };
+  const r = sizeOwn(data, { supply_V, load_A, pwm_Hz, chain, load_kind }, { schematic: false });
   // The flags were checked against the same limits above, so a refusal here is a gap between the two checks.
   if (!r.ok) throw new Error(`size: inputs passed the CLI checks but not the engine's: ${r.errors.join(" ")}`);
   const sized = r.sized;
   const spec = sized.spec;
   if (values.json) {
-    out.log(JSON.stringify({ id: spec.id, feasible: sized.feasible, reason: sized.reason ?? null, figures: sized.figures, problems: sized.problems, parts: sized.circuit?.parts ?? [] }, null, 2));
+    const { feasible, figures, problems } = sized;
+    const parts = sized.circuit?.parts ?? [];
+    out.log(JSON.stringify({ id: spec.id, feasible, reason: sized.reason ?? null, figures, problems, parts }, null, 2));
     return 0;
   }
   out.log(`${spec.id}: ${sized.feasible ? "feasible" : `NOT FEASIBLE — ${sized.reason ?? ""}`}`);

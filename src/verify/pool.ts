@@ -81,7 +81,8 @@ export async function verifyAll(jobs: VerifyJob[], opts: PoolOptions): Promise<M
     const secs = (performance.now() - started) / 1000;
     const rate = stats.fresh > 0 && secs > 0 ? stats.fresh / secs : 0;
     const left = jobs.length - stats.done;
-    opts.onProgress({ done: stats.done, total: jobs.length, cached: stats.cached, failed: stats.failed, rate_per_s: rate, eta_s: rate > 0 ? left / rate : 0 });
+    const { done, cached, failed } = stats;
+    opts.onProgress({ done, total: jobs.length, cached, failed, rate_per_s: rate, eta_s: rate > 0 ? left / rate : 0 });
   };
   const finish = (index: number, v: Verification): void => {
     results[index] = v;
@@ -108,7 +109,8 @@ export async function verifyAll(jobs: VerifyJob[], opts: PoolOptions): Promise<M
       try {
         writeCache(dir, p.key, m);
       } catch (err) {
-        if (!cacheWarned) warn(`simulation cache ${dir} cannot be written (${(err as NodeJS.ErrnoException).code ?? (err as Error).message}): results are not kept for the next build`);
+        const why = (err as NodeJS.ErrnoException).code ?? (err as Error).message;
+        if (!cacheWarned) warn(`simulation cache ${dir} cannot be written (${why}): results are not kept`);
         cacheWarned = true;
       }
     }
@@ -141,7 +143,12 @@ type OnMeasured = (p: Pending, m: Measured, store?: boolean) => void;
  * carried to the slot's next, fresh worker (once); resolves with a reason when a worker of this
  * slot could not start (the slot then ends), or undefined when the queue is drained.
  */
-async function runSlot(url: URL, engine: EngineName, queue: Pending[], onMeasured: OnMeasured): Promise<string | undefined> {
+async function runSlot(
+  url: URL,
+  engine: EngineName,
+  queue: Pending[],
+  onMeasured: OnMeasured,
+): Promise<string | undefined> {
   let carry: Pending | undefined;
   while (carry !== undefined || queue.length > 0) {
     const end = await runWorker(url, engine, queue, onMeasured, carry);
@@ -164,7 +171,13 @@ type WorkerEnd =
   | { kind: "ended"; reason: string; lost: Pending | undefined };
 
 /** One worker's life: start, take `first` (if any) then jobs from the queue, close when none is left. */
-function runWorker(url: URL, engine: EngineName, queue: Pending[], onMeasured: OnMeasured, first: Pending | undefined): Promise<WorkerEnd> {
+function runWorker(
+  url: URL,
+  engine: EngineName,
+  queue: Pending[],
+  onMeasured: OnMeasured,
+  first: Pending | undefined,
+): Promise<WorkerEnd> {
   return new Promise((resolve) => {
     const w = new Worker(url, { workerData: { engine } });
     let ready = false;
@@ -209,7 +222,8 @@ function runWorker(url: URL, engine: EngineName, queue: Pending[], onMeasured: O
         resolve({ kind: "no-start", reason, carried: first });
         return;
       }
-      const reason = `the simulation worker ${said !== undefined ? `stopped with an error (${said})` : `exited with code ${code}`}`;
+      const how = said !== undefined ? `stopped with an error (${said})` : `exited with code ${code}`;
+      const reason = `the simulation worker ${how}`;
       resolve({ kind: "ended", reason, lost: closing ? undefined : current });
     });
   });

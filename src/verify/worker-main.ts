@@ -30,7 +30,9 @@ try {
       return;
     }
     void measureVariant(msg.target, msg.netlist, engine)
-      .catch((err: unknown): Measured => ({ ok: false, message: err instanceof Error ? err.message : String(err), elapsed_s: 0 }))
+      .catch((err: unknown): Measured => {
+        return { ok: false, message: err instanceof Error ? err.message : String(err), elapsed_s: 0 };
+      })
       .then((measured) => reply({ index: msg.index, measured }));
   });
   reply({ ready: true });

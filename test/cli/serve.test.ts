@@ -123,6 +123,6 @@ describe("serve from the command line", () => {
   it("no built site is one line saying to build first, exit 1", async () => {
     const r = await runCli(outsideDir, ["serve", "--port", "1"]);
     expect(r.code).toBe(1);
-    expect(r.stderr.trim()).toBe("serve: _site/index.html not found — run `npm run build` first (or give the site folder with --dir)");
+    expect(r.stderr.trim()).toBe("serve: _site/index.html not found — run `npm run build` first (or give the folder with --dir)");
   }, 60_000);
 });

@@ -1,4 +1,4 @@
-import { existsSync, mkdtempSync } from "node:fs";
+import { existsSync, mkdtempSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { afterEach, describe, expect, it } from "vitest";
@@ -74,6 +74,22 @@ describe("a simulation worker that dies does not hang the build", () => {
   it("workers that cannot start: every job is failed with the reason, none hangs", { timeout: 120_000 }, async () => {
     const got = await run("no-start").result;
     for (const v of got.values()) expect(v).toMatchObject({ status: "failed", message: expect.stringMatching(/simulation worker could not start: test fault: this worker cannot start/) });
+  });
+});
+
+describe("a simulation cache that cannot be written", () => {
+  it("is one warning, and the results still come back", { timeout: 120_000 }, async () => {
+    const f = [figure("frequency_nominal", 1300, "Hz"), figure("duty_mid", 0.5)];
+    const c = motorCase(f);
+    // A regular file where the cache folder should be: every write fails (ENOTDIR or EEXIST).
+    const blocker = join(mkdtempSync(join(tmpdir(), "pw-pool-")), "not-a-folder");
+    writeFileSync(blocker, "");
+    const warnings: string[] = [];
+    const jobs = [0, 1].map((i) => ({ id: `job-${i}`, sized: c.sized, netlist: `${c.netlist}* copy ${i}\n` }));
+    const got = await verifyAll(jobs, { workers: 0, cacheDir: blocker, warn: (m) => warnings.push(m) });
+    expect([...got.values()].map((v) => v.status)).not.toContain("failed");
+    expect(warnings).toHaveLength(1);
+    expect(warnings[0]).toMatch(/^simulation cache .*not-a-folder cannot be written \(E[A-Z]+\): results are not kept$/);
   });
 });
 

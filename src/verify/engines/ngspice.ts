@@ -49,14 +49,20 @@ export function startNgspice(path = NGSPICE_PATH): SpiceEngine {
   };
 }
 
-async function runNative(path: string, netlist: string, vectors: string[], running: Set<ChildProcess>): Promise<SimResult> {
+async function runNative(
+  path: string,
+  netlist: string,
+  vectors: string[],
+  running: Set<ChildProcess>,
+): Promise<SimResult> {
   const dir = mkdtempSync(join(tmpdir(), "pulsewright-ngspice-"));
   try {
     const deck = join(dir, "deck.cir");
     const raw = join(dir, "out.raw");
     writeFileSync(deck, withSaves(netlist, vectors));
     const log = await new Promise<string>((resolve, reject) => {
-      const child = execFile(path, ["-b", "-r", raw, deck], { cwd: dir, maxBuffer: 8 << 20, timeout: 120_000 }, (err, out, errOut) => {
+      const options = { cwd: dir, maxBuffer: 8 << 20, timeout: 120_000 };
+      const child = execFile(path, ["-b", "-r", raw, deck], options, (err, out, errOut) => {
         running.delete(child);
         const text = `${out}\n${errOut}`;
         if (err) reject(new SpiceRunError(`ngspice failed: ${firstErrors(text) || err.message}`, { cause: err }));
