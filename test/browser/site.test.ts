@@ -95,9 +95,14 @@ describe.skipIf(!CHROMIUM)("the published site in a browser", () => {
       await page.screenshot({ path: path.join(SHOTS, "home-chooser.png"), fullPage: true });
       await first.locator("a").click();
       await page.waitForURL(/variants\/ridge-fan-24v-2a-mosfet-driver-motor\/index\.html$/);
-      const [download] = await Promise.all([page.waitForEvent("download"), page.locator(".downloads a", { hasText: /netlist/i }).click()]);
+      const [download] = await Promise.all([
+        page.waitForEvent("download"),
+        page.locator(".downloads a", { hasText: /netlist/i }).click(),
+      ]);
       expect(download.suggestedFilename()).toBe("ridge-fan-24v-2a-mosfet-driver-motor.cir");
-      expect(await readFile((await download.path())!, "utf8")).toBe(byId("ridge-fan-24v-2a-mosfet-driver-motor").files.netlist);
+      expect(await readFile((await download.path())!, "utf8")).toBe(
+        byId("ridge-fan-24v-2a-mosfet-driver-motor").files.netlist,
+      );
       await page.screenshot({ path: path.join(SHOTS, "variant.png"), fullPage: true });
       await page.close();
     });
@@ -105,7 +110,9 @@ describe.skipIf(!CHROMIUM)("the published site in a browser", () => {
     it("every download link on a variant page returns its file, byte for byte", async () => {
       const id = "strip-and-mat-12v-1a-bjt-single-led";
       const page = await open(`variants/${id}/index.html`);
-      const links = await page.locator(".downloads a[download]").evaluateAll((as) => as.map((a) => (a as HTMLAnchorElement).href));
+      const links = await page
+        .locator(".downloads a[download]")
+        .evaluateAll((as) => as.map((a) => (a as HTMLAnchorElement).href));
       expect(links.length).toBeGreaterThanOrEqual(4);
       for (const href of links) {
         const got = await page.evaluate(async (u) => (await fetch(u)).text(), href);
@@ -123,7 +130,13 @@ describe.skipIf(!CHROMIUM)("the published site in a browser", () => {
       const chains = d.record.axes.chain;
       const inputs = [
         { supply_V: 24, load_A: 2, pwm_Hz: d.record.targets.pwm_Hz, chain: chains[0]!, load_kind: "motor" as const },
-        { supply_V: 18.5, load_A: 1.3, pwm_Hz: d.record.targets.pwm_Hz * 1.5, chain: chains[chains.length - 1]!, load_kind: "motor" as const },
+        {
+          supply_V: 18.5,
+          load_A: 1.3,
+          pwm_Hz: d.record.targets.pwm_Hz * 1.5,
+          chain: chains[chains.length - 1]!,
+          load_kind: "motor" as const,
+        },
       ];
       for (const inp of inputs) {
         await page.getByLabel(/^Supply voltage/).fill(String(inp.supply_V));
@@ -131,10 +144,23 @@ describe.skipIf(!CHROMIUM)("the published site in a browser", () => {
         await page.getByLabel(/^PWM frequency/).fill(String(inp.pwm_Hz));
         await page.getByLabel("Output chain").selectOption(inp.chain);
         await page.getByRole("button", { name: "Size this variant" }).click();
-        const shown = await page.locator("#syo-out td[data-key]").evaluateAll((tds) => tds.map((td) => [(td as HTMLElement).dataset["key"], Number((td as HTMLElement).dataset["value"])] as const));
+        const shown = await page
+          .locator("#syo-out td[data-key]")
+          .evaluateAll((tds) =>
+            tds.map(
+              (td) => [(td as HTMLElement).dataset["key"], Number((td as HTMLElement).dataset["value"])] as const,
+            ),
+          );
         // Build-time path (as src/cli/size.ts does it), computed here on Node.
-        const rec = { ...d.record, targets: { ...d.record.targets, pwm_Hz: inp.pwm_Hz }, axes: { supply_V: [inp.supply_V], load_A: [inp.load_A], chain: [inp.chain], load_kind: [inp.load_kind] } };
-        const [spec] = expandDesign(rec, { choose: (r, s, a) => chooseDevices(r, lib, s, a), policy: cat.engine!.policy });
+        const rec = {
+          ...d.record,
+          targets: { ...d.record.targets, pwm_Hz: inp.pwm_Hz },
+          axes: { supply_V: [inp.supply_V], load_A: [inp.load_A], chain: [inp.chain], load_kind: [inp.load_kind] },
+        };
+        const [spec] = expandDesign(rec, {
+          choose: (r, s, a) => chooseDevices(r, lib, s, a),
+          policy: cat.engine!.policy,
+        });
         const sized = sizeVariant(spec!);
         lastId = spec!.id;
         expect(shown.length, "figures shown").toBe(sized.figures.length);
@@ -143,11 +169,15 @@ describe.skipIf(!CHROMIUM)("the published site in a browser", () => {
         // (Math.pow, Math.exp) differently in the last bit, so equal means within 1e-12 relative
         // (common practice: a few units in the last place of an IEEE 754 double).
         for (const [k, v] of shown) expectClose(v, sized.figures.find((f) => f.key === k)!.value, 1e-12, k);
-        await expect(page.locator("#syo-out h3").first().textContent()).resolves.toContain(sized.feasible ? "feasible" : "not feasible");
+        await expect(page.locator("#syo-out h3").first().textContent()).resolves.toContain(
+          sized.feasible ? "feasible" : "not feasible",
+        );
       }
       if (await page.locator("#syo-out a.download").count()) {
         const [dl] = await Promise.all([page.waitForEvent("download"), page.locator("#syo-out a.download").click()]);
-        expect(await readFile((await dl.path())!, "utf8")).toMatch(new RegExp(`^\\* pulsewright netlist ${lastId.replace(/\./g, "\\.")}\n[^]*\\.tran [^]*\\.end\\n?$`));
+        expect(await readFile((await dl.path())!, "utf8")).toMatch(
+          new RegExp(`^\\* pulsewright netlist ${lastId.replace(/\./g, "\\.")}\n[^]*\\.tran [^]*\\.end\\n?$`),
+        );
       }
       await page.screenshot({ path: path.join(SHOTS, "design-size-your-own.png"), fullPage: true });
       await page.close();
@@ -158,7 +188,9 @@ describe.skipIf(!CHROMIUM)("the published site in a browser", () => {
       const page = await open(`designs/nutrient-pump/index.html`);
       const chainLabel = await page.locator("#variant-list tbody tr").first().locator("td").nth(2).textContent();
       await page.getByLabel("Chain", { exact: true }).selectOption(chainLabel!.trim());
-      const visible = await page.locator("#variant-list tbody tr:not([hidden])").evaluateAll((rows) => rows.map((r) => (r as HTMLTableRowElement).cells[3]!.textContent!.trim()));
+      const visible = await page
+        .locator("#variant-list tbody tr:not([hidden])")
+        .evaluateAll((rows) => rows.map((r) => (r as HTMLTableRowElement).cells[3]!.textContent!.trim()));
       expect(visible.length).toBeGreaterThan(0);
       expect(visible.length).toBeLessThan(d.variants.length);
       expect(new Set(visible)).toEqual(new Set([chainLabel!.trim()]));
@@ -202,24 +234,53 @@ describe.skipIf(!CHROMIUM)("the published site in a browser", () => {
       expect(outside).toEqual([]);
     });
 
-    it("axe-core finds no WCAG 2.0/2.1 A or AA violation on the home page, design pages and one variant page of each state", { timeout: 180_000 }, async () => {
-      // Every variant page comes from one template: axe (≈ 1 s a page here) runs on one of each state.
-      const rels = ["index.html", "designs/nutrient-pump/index.html", "designs/strip-and-mat/index.html", "variants/circulation-fan-12v-0.5a-darlington-2-motor/index.html", ...REPRESENTATIVE.map((id) => `variants/${id}/index.html`)];
-      for (const rel of rels) {
-        const page = await open(rel);
-        // The "size your own" result is part of the page a reader sees: check it shown.
-        if (rel === "designs/nutrient-pump/index.html") await page.getByRole("button", { name: "Size this variant" }).click();
-        await page.addScriptTag({ content: AXE_SOURCE });
-        const bad = await page.evaluate(async () => {
-          const axe = (window as unknown as { axe: { run: (c: Document, o: object) => Promise<{ violations: { id: string; impact: string; nodes: { target: string[] }[] }[] }> } }).axe;
-          const r = await axe.run(document, { runOnly: { type: "tag", values: ["wcag2a", "wcag2aa", "wcag21a", "wcag21aa"] } });
-          return r.violations.map((v) => `${v.id} (${v.impact}): ${v.nodes.map((n) => n.target.join(" ")).slice(0, 3).join(", ")}`);
-        });
-        expect(bad, rel).toEqual([]);
-        if (rel === "designs/nutrient-pump/index.html") await page.screenshot({ path: path.join(SHOTS, "design.png"), fullPage: true });
-        await page.close();
-      }
-    });
+    it(
+      "axe-core finds no WCAG 2.0/2.1 A or AA violation on the home page, design pages and one variant page of each state",
+      { timeout: 180_000 },
+      async () => {
+        // Every variant page comes from one template: axe (≈ 1 s a page here) runs on one of each state.
+        const rels = [
+          "index.html",
+          "designs/nutrient-pump/index.html",
+          "designs/strip-and-mat/index.html",
+          "variants/circulation-fan-12v-0.5a-darlington-2-motor/index.html",
+          ...REPRESENTATIVE.map((id) => `variants/${id}/index.html`),
+        ];
+        for (const rel of rels) {
+          const page = await open(rel);
+          // The "size your own" result is part of the page a reader sees: check it shown.
+          if (rel === "designs/nutrient-pump/index.html")
+            await page.getByRole("button", { name: "Size this variant" }).click();
+          await page.addScriptTag({ content: AXE_SOURCE });
+          const bad = await page.evaluate(async () => {
+            const axe = (
+              window as unknown as {
+                axe: {
+                  run: (
+                    c: Document,
+                    o: object,
+                  ) => Promise<{ violations: { id: string; impact: string; nodes: { target: string[] }[] }[] }>;
+                };
+              }
+            ).axe;
+            const r = await axe.run(document, {
+              runOnly: { type: "tag", values: ["wcag2a", "wcag2aa", "wcag21a", "wcag21aa"] },
+            });
+            return r.violations.map(
+              (v) =>
+                `${v.id} (${v.impact}): ${v.nodes
+                  .map((n) => n.target.join(" "))
+                  .slice(0, 3)
+                  .join(", ")}`,
+            );
+          });
+          expect(bad, rel).toEqual([]);
+          if (rel === "designs/nutrient-pump/index.html")
+            await page.screenshot({ path: path.join(SHOTS, "design.png"), fullPage: true });
+          await page.close();
+        }
+      },
+    );
   });
 
   describe("opened from files, with no server and no network", () => {
@@ -267,8 +328,10 @@ describe.skipIf(!CHROMIUM)("the published site in a browser", () => {
     it("printed, a variant page is a build sheet: schematic, parts, figures and cautions, no downloads or navigation", async () => {
       const page = await openFile("variants/circulation-fan-12v-0.5a-darlington-2-motor/index.html");
       await page.emulateMedia({ media: "print" });
-      for (const sel of ["#schematic", "#parts", "#figures", "#cautions"]) expect(await page.locator(sel).isVisible(), sel).toBe(true);
-      for (const sel of [".downloads", ".masthead", ".crumbs"]) expect(await page.locator(sel).isVisible(), sel).toBe(false);
+      for (const sel of ["#schematic", "#parts", "#figures", "#cautions"])
+        expect(await page.locator(sel).isVisible(), sel).toBe(true);
+      for (const sel of [".downloads", ".masthead", ".crumbs"])
+        expect(await page.locator(sel).isVisible(), sel).toBe(false);
       await page.close();
     });
   });

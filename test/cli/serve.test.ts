@@ -59,7 +59,10 @@ describe("the local server", () => {
   it("serves every file of the built site with a known media type, byte for byte", async () => {
     const files = (await listFiles(site.dir)).filter((f) => !f.startsWith("escape"));
     const exts = new Set(files.map((f) => path.extname(f).toLowerCase()));
-    expect([...exts].filter((e) => !(e in TYPES)), "extensions without a media type").toEqual([]);
+    expect(
+      [...exts].filter((e) => !(e in TYPES)),
+      "extensions without a media type",
+    ).toEqual([]);
     for (const ext of exts) {
       const rel = files.find((f) => path.extname(f).toLowerCase() === ext)!;
       const r = await ask("GET", "/" + rel.split("/").map(encodeURIComponent).join("/"));
@@ -96,7 +99,16 @@ describe("the local server", () => {
   });
 
   it("never serves a file outside the site: dot segments, encoded dots, NUL, backslashes, symbolic links", async () => {
-    for (const p of ["/../../../../etc/passwd", "/%2e%2e/%2e%2e/%2e%2e/etc/passwd", "/..%2f..%2f..%2fetc/passwd", "/escape/secret.txt", "/escape/", "/index.html%00.txt", "/..%5c..%5cetc%5cpasswd", "/%E0%A4%A"]) {
+    for (const p of [
+      "/../../../../etc/passwd",
+      "/%2e%2e/%2e%2e/%2e%2e/etc/passwd",
+      "/..%2f..%2f..%2fetc/passwd",
+      "/escape/secret.txt",
+      "/escape/",
+      "/index.html%00.txt",
+      "/..%5c..%5cetc%5cpasswd",
+      "/%E0%A4%A",
+    ]) {
       const r = await ask("GET", p);
       expect([400, 404], p).toContain(r.status);
       expect(r.body.toString("utf8"), p).not.toMatch(/root:|outside the site/);
@@ -117,12 +129,16 @@ describe("serve from the command line", () => {
     const r = await runCli(site.dir, ["serve", "--dir", site.dir, "--port", String(port)]);
     expect(r.code).toBe(2);
     expect(stackLines(r.stderr)).toEqual([]);
-    expect(r.stderr.trim()).toBe(`serve: port ${port} on 127.0.0.1 is already in use (another server, or an earlier \`pulsewright serve\`) — choose another with --port N (1024 to 65535)`);
+    expect(r.stderr.trim()).toBe(
+      `serve: port ${port} on 127.0.0.1 is already in use (another server, or an earlier \`pulsewright serve\`) — choose another with --port N (1024 to 65535)`,
+    );
   }, 60_000);
 
   it("no built site is one line saying to build first, exit 1", async () => {
     const r = await runCli(outsideDir, ["serve", "--port", "1"]);
     expect(r.code).toBe(1);
-    expect(r.stderr.trim()).toBe("serve: _site/index.html not found — run `npm run build` first (or give the folder with --dir)");
+    expect(r.stderr.trim()).toBe(
+      "serve: _site/index.html not found — run `npm run build` first (or give the folder with --dir)",
+    );
   }, 60_000);
 });

@@ -34,13 +34,23 @@ const NOT_DECIMAL = /is not a plain decimal number — write digits with an opti
 
 const CASES: Case[] = [
   // size: numbers outside the design's own range (circulation-fan: 12–24 V, 0.25–2 A, PWM 10–40 kHz).
-  { args: ["size", ...fan("--supply", "0.5")], says: /^size: --supply 0\.5 V is outside what design "circulation-fan" covers: 12 V to 24 V$/, e2e: true },
+  {
+    args: ["size", ...fan("--supply", "0.5")],
+    says: /^size: --supply 0\.5 V is outside what design "circulation-fan" covers: 12 V to 24 V$/,
+    e2e: true,
+  },
   { args: ["size", ...fan("--supply", "48")], says: /^size: --supply 48 V is outside .* 12 V to 24 V$/ },
   { args: ["size", ...fan("--supply", "11.999")], says: /^size: --supply 11\.999 V is outside/ },
-  { args: ["size", "--design", "work-lamp", "--supply", "12", "--current", "0.000000001", "--chain", "mosfet-logic"], says: /^size: --current 0\.000000001 A is outside what design "work-lamp" covers: 0\.25 A to 3 A$/ },
+  {
+    args: ["size", "--design", "work-lamp", "--supply", "12", "--current", "0.000000001", "--chain", "mosfet-logic"],
+    says: /^size: --current 0\.000000001 A is outside what design "work-lamp" covers: 0\.25 A to 3 A$/,
+  },
   { args: ["size", ...fan("--current", "30")], says: /^size: --current 30 A is outside .* 0\.25 A to 2 A$/ },
   { args: ["size", ...fan("--pwm", "100")], says: /^size: --pwm 100 Hz is outside .* 10000 Hz to 40000 Hz$/ },
-  { args: ["size", ...FAN, "--supply=-5", "--current", "2", "--chain", "mosfet-driver"], says: /^size: --supply -5 V is outside/ },
+  {
+    args: ["size", ...FAN, "--supply=-5", "--current", "2", "--chain", "mosfet-driver"],
+    says: /^size: --supply -5 V is outside/,
+  },
   // size: ambiguous or non-numeric text (Number() would read several of these as a number).
   { args: ["size", ...fan("--supply", "0x18")], says: NOT_DECIMAL, e2e: true },
   { args: ["size", ...fan("--supply", "1e")], says: NOT_DECIMAL },
@@ -54,15 +64,38 @@ const CASES: Case[] = [
   { args: ["size", ...fan("--supply", "+12")], says: NOT_DECIMAL },
   { args: ["size", ...fan("--supply", "1_2")], says: NOT_DECIMAL },
   { args: ["size", ...fan("--supply", "１２")], says: NOT_DECIMAL },
-  { args: ["size", ...fan("--supply", "-5")], says: /^size: Option '--supply' argument is ambiguous\..*'--supply=-XYZ'\.$/, usage: true },
+  {
+    args: ["size", ...fan("--supply", "-5")],
+    says: /^size: Option '--supply' argument is ambiguous\..*'--supply=-XYZ'\.$/,
+    usage: true,
+  },
   // size: choices the design does not offer, unknown or missing design.
-  { args: ["size", ...fan("--chain", "bjt-single")], says: /^size: --chain "bjt-single" is not offered by design "circulation-fan" — it offers: darlington-3, bjt-driver-pnp, mosfet-logic, mosfet-driver$/, e2e: true },
-  { args: ["size", ...fan("--chain", "no-such-chain")], says: /--chain "no-such-chain" is not offered .* it offers: darlington-3/ },
-  { args: ["size", ...fan("--load", "led")], says: /^size: --load "led" is not offered by design "circulation-fan" — it offers: motor$/ },
-  { args: ["size", "--design", "grow-light", "--supply", "12"], says: /^size: --design "grow-light" is not a design here — one of: circulation-fan, grow-light-strip, irrigation-valve-bank, nutrient-pump, seed-mat-heater, work-lamp$/ },
+  {
+    args: ["size", ...fan("--chain", "bjt-single")],
+    says: /^size: --chain "bjt-single" is not offered by design "circulation-fan" — it offers: darlington-3, bjt-driver-pnp, mosfet-logic, mosfet-driver$/,
+    e2e: true,
+  },
+  {
+    args: ["size", ...fan("--chain", "no-such-chain")],
+    says: /--chain "no-such-chain" is not offered .* it offers: darlington-3/,
+  },
+  {
+    args: ["size", ...fan("--load", "led")],
+    says: /^size: --load "led" is not offered by design "circulation-fan" — it offers: motor$/,
+  },
+  {
+    args: ["size", "--design", "grow-light", "--supply", "12"],
+    says: /^size: --design "grow-light" is not a design here — one of: circulation-fan, grow-light-strip, irrigation-valve-bank, nutrient-pump, seed-mat-heater, work-lamp$/,
+  },
   { args: ["size", "--supply", "12"], says: /^size: --design is required — one of: circulation-fan, / },
-  { args: ["size", ...FAN, "--supply", "12", "--chain", "mosfet-logic"], says: /^size: --current is required — design "circulation-fan" covers 0\.25 A to 2 A$/ },
-  { args: ["size", ...FAN, "--supply", "12", "--current", "1"], says: /^size: --chain is required — design "circulation-fan" offers: darlington-3, / },
+  {
+    args: ["size", ...FAN, "--supply", "12", "--chain", "mosfet-logic"],
+    says: /^size: --current is required — design "circulation-fan" covers 0\.25 A to 2 A$/,
+  },
+  {
+    args: ["size", ...FAN, "--supply", "12", "--current", "1"],
+    says: /^size: --chain is required — design "circulation-fan" offers: darlington-3, /,
+  },
   // Repeated flags are refused, not last-wins, in every command.
   { args: ["size", ...FAN_OK, "--supply", "12"], says: /^size: --supply was given 2 times — give it once$/, e2e: true },
   { args: ["size", ...FAN_OK, "--json", "--json"], says: /^size: --json was given 2 times/ },
@@ -75,11 +108,22 @@ const CASES: Case[] = [
   { args: ["build", "--workers", "0"], says: /^build: --workers "0" is not a whole number from 1 to 64$/ },
   { args: ["build", "--workers", "2.5"], says: /--workers "2\.5" is not a whole number/ },
   { args: ["build", "--workers", "65"], says: /--workers "65" is not a whole number from 1 to 64/ },
-  { args: ["build", "--spice", "spice3"], says: /^build: --spice "spice3" is not an engine here — use eecircuit-engine or ngspice$/ },
+  {
+    args: ["build", "--spice", "spice3"],
+    says: /^build: --spice "spice3" is not an engine here — use eecircuit-engine or ngspice$/,
+  },
   { args: ["build", "--no-such-option"], says: /^build: Unknown option '--no-such-option'/, usage: true },
   { args: ["check", "--fix"], says: /^check: Unknown option '--fix'/, usage: true, e2e: true },
-  { args: ["check", "designs/work-lamp.json"], says: /^check: Unexpected argument 'designs\/work-lamp\.json'/, usage: true },
-  { args: ["serve", "--port", "99999"], says: /^serve: --port "99999" is not a whole number from 1 to 65535$/, e2e: true },
+  {
+    args: ["check", "designs/work-lamp.json"],
+    says: /^check: Unexpected argument 'designs\/work-lamp\.json'/,
+    usage: true,
+  },
+  {
+    args: ["serve", "--port", "99999"],
+    says: /^serve: --port "99999" is not a whole number from 1 to 65535$/,
+    e2e: true,
+  },
   { args: ["serve", "--port", "0"], says: /^serve: --port "0" is not a whole number from 1 to 65535$/ },
   { args: ["serve", "--port", "http"], says: /--port "http" is not a whole number/ },
   { args: ["serve", "--port", "0x1f90"], says: /--port "0x1f90" is not a whole number/ },
@@ -133,12 +177,24 @@ describe("every command refuses hostile arguments with one clear line and exit 2
     expect(END_TO_END.length).toBe(8);
   });
   for (const c of CASES) it(`pulsewright ${shown(c.args)}`, () => expectRefused(c, runs.get(c)!));
-  for (const c of END_TO_END) it(`as a real process: pulsewright ${shown(c.args)}`, () => expectRefused(c, real.get(c)!));
+  for (const c of END_TO_END)
+    it(`as a real process: pulsewright ${shown(c.args)}`, () => expectRefused(c, real.get(c)!));
 });
 
 describe("the same commands accept what the design offers", () => {
   it("sizes at the edges of the design's range, with plain decimals, and prints the figures", async () => {
-    const r = await runCli(root, ["size", ...FAN, "--supply", "12", "--current", ".25", "--chain", "darlington-3", "--pwm", "10000.0"]);
+    const r = await runCli(root, [
+      "size",
+      ...FAN,
+      "--supply",
+      "12",
+      "--current",
+      ".25",
+      "--chain",
+      "darlington-3",
+      "--pwm",
+      "10000.0",
+    ]);
     expect(r.code, r.stderr).toBe(0);
     expect(r.stderr).toBe("");
     expect(r.stdout).toMatch(/^circulation-fan-12v-250ma-darlington-3-motor: (feasible|NOT FEASIBLE)/);
@@ -156,7 +212,11 @@ describe("the same commands accept what the design offers", () => {
     if (!existsSync("/dev/full")) return void console.warn("skipped: no /dev/full on this system");
     const fd = openSync("/dev/full", "w");
     try {
-      const r = spawnSync(process.execPath, [BIN, "--help"], { cwd: root, stdio: ["ignore", fd, "pipe"], encoding: "utf8" });
+      const r = spawnSync(process.execPath, [BIN, "--help"], {
+        cwd: root,
+        stdio: ["ignore", fd, "pipe"],
+        encoding: "utf8",
+      });
       expect(r.status).toBe(74);
       expect(r.stderr.trim()).toBe("pulsewright: cannot write to standard output (ENOSPC)");
     } finally {
