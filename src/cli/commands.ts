@@ -86,8 +86,8 @@ async function dispatch(argv: string[], root: string, out: Out): Promise<number>
   });
   const spice = values.spice ?? process.env["PULSEWRIGHT_SPICE"] ?? "eecircuit-engine";
   if (spice !== "eecircuit-engine" && spice !== "ngspice") {
-    const given = JSON.stringify(spice);
-    throw new UsageError(`build: --spice ${given} is not an engine here — use eecircuit-engine or ngspice`);
+    const given = `${values.spice !== undefined ? "--spice " : "PULSEWRIGHT_SPICE="}${JSON.stringify(spice)}`;
+    throw new UsageError(`build: ${given} is not an engine here — use eecircuit-engine or ngspice`);
   }
   const workers = values.workers === undefined ? undefined : wholeFlag("build", "workers", values.workers, 1, 64);
   return (await import("./build.ts")).runBuild({
