@@ -3,7 +3,7 @@
  * their catalogue.json). Exit 0 whether or not they differ; 1 when `--fail-on` names a kind of
  * difference that is present; 2 on a usage error or a catalogue that cannot be read.
  */
-import { parseArgs } from "node:util";
+import { UsageError, readCommandLine } from "./args.ts";
 import { DIFFERENCE_KINDS, DEFAULT_THRESHOLDS, type DifferenceKind, type Thresholds } from "../diff/model.ts";
 import { diffReport } from "../diff/compare.ts";
 import { readBuiltCatalogue } from "../diff/read.ts";
@@ -26,7 +26,7 @@ export const DIFF_USAGE = `diff OLD NEW: OLD and NEW are folders \`pulsewright b
   --temperature-abs K   report junction-temperature moves above K kelvin (default ${T.temperature_abs_K})`;
 
 function usage(msg: string): never {
-  throw Object.assign(new Error(`diff: ${msg}\n\nusage: pulsewright ${DIFF_USAGE}`), { name: "UsageError" });
+  throw new UsageError(`diff: ${msg}\n\nusage: pulsewright ${DIFF_USAGE}`);
 }
 
 /** "2%" → 0.02, "0.02" → 0.02; `kelvin` thresholds take a plain number (or "2K"). */
@@ -78,10 +78,10 @@ export async function runDiff(
   args: string[],
   out: { log(s: string): void; error(s: string): void },
 ): Promise<number> {
-  const { values, positionals } = parseArgs({
+  const { values, positionals } = readCommandLine(
+    "diff",
     args,
-    allowPositionals: true,
-    options: {
+    {
       markdown: { type: "boolean", default: false },
       "fail-on": { type: "string" },
       limit: { type: "string" },
@@ -92,8 +92,8 @@ export async function runDiff(
       "temperature-abs": { type: "string" },
       help: { type: "boolean", short: "h", default: false },
     },
-    strict: true,
-  });
+    true,
+  );
   if (values.help) {
     out.log(`usage: pulsewright ${DIFF_USAGE}`);
     return 0;

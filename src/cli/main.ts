@@ -1,108 +1,32 @@
 /**
- * `pulsewright` command line: check | build | serve | size | diff. Thin: parses flags, calls the
- * pipeline, maps results to exit codes. Errors a user can fix are printed without stack traces.
+ * `pulsewright` process entry: runs the command (commands.ts) and sets the exit code. Exit codes:
+ * 0 done, 1 the records or the site folder have problems, 2 usage (unknown or repeated flag, bad
+ * value, busy port), 3 a --strict gate failed, 74 standard output could not be written, 70 an
+ * internal error (a bug: the only case that prints a stack trace).
  */
-import { parseArgs } from "node:util";
 import process from "node:process";
-import { runCheck } from "./check.ts";
-import { runBuild } from "./build.ts";
-import { runServe } from "./serve.ts";
-import { runSize } from "./size.ts";
-import { runDiff, DIFF_USAGE } from "./diff.ts";
+import { runCommand, type Out } from "./commands.ts";
 
-const USAGE = `usage: pulsewright <command> [options]
+/**
+ * Standard output that cannot be written (a full disk, a closed pipe) is reported once as one line;
+ * a reader that went away (`| head`, EPIPE) is not an error of ours.
+ */
+let outputFailed = false;
+process.stdout.on("error", (err: NodeJS.ErrnoException) => {
+  if (outputFailed) return;
+  outputFailed = true;
+  const why = err.code ?? err.message;
+  if (err.code !== "EPIPE") process.stderr.write(`pulsewright: cannot write to standard output (${why})\n`);
+  process.exit(err.code === "EPIPE" ? 0 : 74);
+});
 
-commands:
-  check                 validate every design record, device class and the derating policy
-  build                 size, render, simulate and publish the catalogue into _site/
-  serve                 serve _site/ on http://127.0.0.1:8080 (after a build)
-  size                  size one variant from flags and print its figures
-  diff OLD NEW          what changed between two built catalogues (variants, verdicts, figures, parts)
+const out: Out = { log: (s) => void process.stdout.write(s + "\n"), error: (s) => void process.stderr.write(s + "\n") };
 
-build options:
-  --out DIR             output folder (default _site): a new or empty folder, or one an earlier
-                        build made (it holds .pulsewright-site); anything else is refused
-  --strict              exit non-zero when any simulation disagrees or fails
-  --strict-failures     exit non-zero when any simulation fails to run (engine error, no oscillation)
-  --spice ENGINE        eecircuit-engine (default, embedded) | ngspice (native, if on PATH)
-  --no-sim              skip simulation (pages say "not simulated")
-  --workers N           simulation worker threads (default: cores)
-  --prefix PATH         URL prefix the site is served under (links are relative anyway)
-
-size options:
-  --design ID --supply V --current A --chain KIND --load KIND [--json]
-
-${DIFF_USAGE}
-`;
-
-async function main(argv: string[]): Promise<number> {
-  const [command, ...rest] = argv;
-  const root = process.cwd();
-  const out = { log: (s: string) => process.stdout.write(s + "\n"), error: (s: string) => process.stderr.write(s + "\n") };
-  if (command === "check") return runCheck(root, out);
-  if (command === "build") {
-    if (rest.includes("--help") || rest.includes("-h")) {
-      out.log(USAGE);
-      return 0;
-    }
-    const { values } = parseArgs({
-      args: rest,
-      options: {
-        out: { type: "string", default: "_site" },
-        strict: { type: "boolean", default: false },
-        "strict-failures": { type: "boolean", default: false },
-        spice: { type: "string" },
-        "no-sim": { type: "boolean", default: false },
-        workers: { type: "string" },
-        prefix: { type: "string" },
-      },
-      strict: true,
-    });
-    const spice = values.spice ?? process.env["PULSEWRIGHT_SPICE"] ?? "eecircuit-engine";
-    if (spice !== "eecircuit-engine" && spice !== "ngspice") {
-      out.error(`--spice: unknown engine "${spice}" — use eecircuit-engine or ngspice`);
-      return 2;
-    }
-    const workers = values.workers === undefined ? undefined : Number(values.workers);
-    if (workers !== undefined && !(Number.isInteger(workers) && workers >= 1 && workers <= 64)) {
-      out.error(`--workers: "${values.workers}" is not a whole number from 1 to 64`);
-      return 2;
-    }
-    return runBuild({
-      root,
-      outDir: values.out,
-      strict: values.strict,
-      strictFailures: values["strict-failures"],
-      spice,
-      simulate: !values["no-sim"],
-      ...(workers !== undefined ? { workers } : {}),
-      pathPrefix: values.prefix ?? process.env["PATH_PREFIX"] ?? "/",
-      out,
-    });
-  }
-  if (command === "serve") return runServe(root, rest, out);
-  if (command === "size") return runSize(root, rest, out);
-  if (command === "diff") return runDiff(root, rest, out);
-  if (command === undefined || command === "help" || command === "--help" || command === "-h") {
-    out.log(USAGE);
-    return command === undefined ? 2 : 0;
-  }
-  out.error(`unknown command "${command}"\n\n${USAGE}`);
-  return 2;
-}
-
-main(process.argv.slice(2)).then(
+runCommand(process.argv.slice(2), process.cwd(), out).then(
   (code) => {
     process.exitCode = code;
   },
   (err: unknown) => {
-    const e = err as { name?: string; message?: string; code?: string };
-    // node:util parseArgs reports unknown or malformed options with these codes: a usage error.
-    if (e && (e.name === "UsageError" || (typeof e.code === "string" && e.code.startsWith("ERR_PARSE_ARGS_")))) {
-      process.stderr.write(`${e.message}\n${e.name === "UsageError" ? "" : `\n${USAGE}`}`);
-      process.exitCode = 2;
-      return;
-    }
     process.stderr.write(`pulsewright: internal error — please report it with the command you ran\n`);
     process.stderr.write(`${(err as Error)?.stack ?? String(err)}\n`);
     process.exitCode = 70;

@@ -1,49 +1,85 @@
 /**
- * `pulsewright size`: size one variant of a design for any supply and current within the design's
- * limits, and print its figures (or the variant JSON with --json).
+ * `pulsewright size`: size one variant of a design for a supply, load current and PWM frequency
+ * within the range the design's review covers, on a chain and load kind the design offers, and
+ * print its figures (or the variant as JSON with --json). It checks and sizes through the same
+ * function as the design page's "size your own" form (src/site/size-own.ts), so both accept the
+ * same inputs and give the same figures.
  */
-import { parseArgs } from "node:util";
 import { loadProject, formatIssue } from "../records/index.ts";
-import { expandDesign } from "../expand/index.ts";
-import { chooseDevices } from "../engine/devices/choose.ts";
-import { sizeVariant } from "../engine/index.ts";
-import { CHAIN_KINDS, LOAD_KINDS, type ChainKind, type LoadKind } from "../model/kinds.ts";
 import { formatValue } from "../model/format.ts";
+import { sizeOwn, sizeOwnLimits } from "../site/size-own.ts";
+import { UsageError, decimalFlag, readFlags } from "./args.ts";
+import { SIZE_EXAMPLE, type Out } from "./commands.ts";
 
-function usage(msg: string): never {
-  throw Object.assign(new Error(`size: ${msg}\nexample: pulsewright size --design circulation-fan --supply 24 --current 2 --chain mosfet-logic --load motor`), { name: "UsageError" });
-}
+const fail = (msg: string): never => {
+  throw new UsageError(`size: ${msg}`);
+};
 
-function positive(name: string, s: string | undefined, max: number): number {
-  const x = Number(s);
-  if (s === undefined || !Number.isFinite(x) || x <= 0 || x > max) usage(`--${name} "${s ?? ""}" must be a number above 0 and at most ${max}`);
-  return x;
-}
-
-export async function runSize(root: string, args: string[], out: { log(s: string): void; error(s: string): void }): Promise<number> {
-  const { values } = parseArgs({
-    args,
-    options: { design: { type: "string" }, supply: { type: "string" }, current: { type: "string" }, chain: { type: "string" }, load: { type: "string" }, json: { type: "boolean", default: false } },
+export async function runSize(root: string, args: string[], out: Out): Promise<number> {
+  const values = readFlags("size", args, {
+    design: { type: "string" },
+    supply: { type: "string" },
+    current: { type: "string" },
+    pwm: { type: "string" },
+    chain: { type: "string" },
+    load: { type: "string" },
+    json: { type: "boolean" },
   });
   const project = await loadProject(root);
   if (!project.ok) {
     for (const i of project.issues) out.error(formatIssue(i));
     return 1;
   }
+  const ids = project.designs.map((x) => x.record.id);
+  if (values.design === undefined) {
+    fail(`--design is required — one of: ${ids.join(", ")} (example: ${SIZE_EXAMPLE})`);
+  }
   const d = project.designs.find((x) => x.record.id === values.design);
-  if (!d) usage(`--design "${values.design ?? ""}" is not one of: ${project.designs.map((x) => x.record.id).join(", ")}`);
-  const supply_V = positive("supply", values.supply, 60);
-  const load_A = positive("current", values.current, 30);
-  const chain = values.chain as ChainKind;
-  if (!CHAIN_KINDS.includes(chain)) usage(`--chain must be one of ${CHAIN_KINDS.join(", ")}`);
-  const load_kind = (values.load ?? d.record.axes.load_kind[0]) as LoadKind;
-  if (!LOAD_KINDS.includes(load_kind)) usage(`--load must be one of ${LOAD_KINDS.join(", ")}`);
-  const rec = { ...d.record, axes: { supply_V: [supply_V], load_A: [load_A], chain: [chain], load_kind: [load_kind] } };
-  const [spec] = expandDesign(rec, { choose: (r, s, a, c) => chooseDevices(r, project.devices, s, a, c), policy: project.policy });
-  if (!spec) usage("nothing to size");
-  const sized = sizeVariant(spec);
+  if (!d) return fail(`--design ${JSON.stringify(values.design)} is not a design here — one of: ${ids.join(", ")}`);
+  const rec = d.record;
+  const lim = sizeOwnLimits(rec);
+  const range = (
+    flag: string,
+    text: string | undefined,
+    [lo, hi]: [number, number],
+    unit: string,
+    fallback?: number,
+  ): number => {
+    if (text === undefined) {
+      if (fallback !== undefined) return fallback;
+      return fail(`--${flag} is required — design "${rec.id}" covers ${lo} ${unit} to ${hi} ${unit}`);
+    }
+    const x = decimalFlag("size", flag, text);
+    if (x < lo || x > hi) {
+      fail(`--${flag} ${text} ${unit} is outside what design "${rec.id}" covers: ${lo} ${unit} to ${hi} ${unit}`);
+    }
+    return x;
+  };
+  const supply_V = range("supply", values.supply, lim.supply_V, "V");
+  const load_A = range("current", values.current, lim.load_A, "A");
+  const pwm_Hz = range("pwm", values.pwm, lim.pwm_Hz, "Hz", rec.targets.pwm_Hz);
+  const pick = (flag: string, text: string | undefined, offered: readonly string[]): string => {
+    if (text === undefined && offered.length === 1) return offered[0]!;
+    if (text === undefined) return fail(`--${flag} is required — design "${rec.id}" offers: ${offered.join(", ")}`);
+    if (!offered.includes(text)) {
+      const list = offered.join(", ");
+      fail(`--${flag} ${JSON.stringify(text)} is not offered by design "${rec.id}" — it offers: ${list}`);
+    }
+    return text;
+  };
+  const chain = pick("chain", values.chain, lim.chains);
+  const load_kind = pick("load", values.load, lim.loadKinds);
+
+  const data = { record: rec, devices: [...project.devices.values()], policy: project.policy };
+  const r = sizeOwn(data, { supply_V, load_A, pwm_Hz, chain, load_kind }, { schematic: false });
+  // The flags were checked against the same limits above, so a refusal here is a gap between the two checks.
+  if (!r.ok) throw new Error(`size: inputs passed the CLI checks but not the engine's: ${r.errors.join(" ")}`);
+  const sized = r.sized;
+  const spec = sized.spec;
   if (values.json) {
-    out.log(JSON.stringify({ id: spec.id, feasible: sized.feasible, reason: sized.reason ?? null, figures: sized.figures, problems: sized.problems, parts: sized.circuit?.parts ?? [] }, null, 2));
+    const { feasible, figures, problems } = sized;
+    const parts = sized.circuit?.parts ?? [];
+    out.log(JSON.stringify({ id: spec.id, feasible, reason: sized.reason ?? null, figures, problems, parts }, null, 2));
     return 0;
   }
   out.log(`${spec.id}: ${sized.feasible ? "feasible" : `NOT FEASIBLE — ${sized.reason ?? ""}`}`);

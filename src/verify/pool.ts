@@ -2,6 +2,21 @@
  * Verifies many variants: cached ones are answered at once, the rest go to worker threads (one
  * engine per worker, started once and reused). Results come back in job order whatever order the
  * workers finish in. `workers: 0` runs everything in this thread (no worker start-up).
+ *
+ * A worker that dies (uncaught error, crash of the engine, exit without an answer) never hangs the
+ * build: the job it was running is tried once more on a fresh worker, and if that one dies too the
+ * job is reported as a failed simulation with the reason. A worker that cannot start its engine ends
+ * its slot; jobs no slot could take are failed with that reason. When the queue is empty each
+ * worker is asked to close its engine and exit, and is stopped if it has not within a grace period.
+ *
+ * Why a hand-written pool rather than a maintained pool library (piscina, tinypool): what this needs
+ * beyond "run a function on N threads" is exactly what those libraries leave to the caller — one
+ * long-lived SPICE engine per worker with a close step before the worker goes, a retry of a job
+ * whose worker died on a *fresh* worker with the failure then reported as data (they reject the
+ * task's promise and leave retrying to the caller), and a worker entry that first registers the
+ * TypeScript loader. With a library we would still write the retry, the result bookkeeping and the
+ * engine close; the library would only replace the ~60 lines of worker handling below, at the cost
+ * of a dependency whose own life-cycle (idle timeouts, task queues, resource limits) we do not need.
  */
 import { availableParallelism } from "node:os";
 import { Worker } from "node:worker_threads";
@@ -13,7 +28,7 @@ import { chooseEngine, engineVersion, startEngine, type EngineName } from "./eng
 import { measureVariant, type Measured } from "./plan.ts";
 import { targetFromSized, type VerifyTarget } from "./target.ts";
 import { skipped } from "./verify.ts";
-import type { JobMessage } from "./worker-main.ts";
+import type { JobMessage, WorkerReply } from "./worker-main.ts";
 
 export interface VerifyJob {
   id: string;
@@ -33,6 +48,10 @@ export interface PoolOptions {
   workers?: number;
   cacheDir?: string;
   onProgress?: ((p: PoolProgress) => void) | undefined;
+  /** One-line warnings (a cache that cannot be written); default: standard error. */
+  warn?: (message: string) => void;
+  /** The worker entry module. Tests substitute one that crashes; the build uses the default. */
+  workerUrl?: URL;
 }
 
 interface Pending {
@@ -40,12 +59,19 @@ interface Pending {
   target: VerifyTarget;
   netlist: string;
   key: string;
+  /** Runs already lost to a dying worker (0 or 1: a job is retried once). */
+  lost: number;
 }
+
+const WORKER_URL = new URL("./worker.mjs", import.meta.url);
+/** How long a worker may take to close its engine and exit once asked, before it is stopped. */
+const CLOSE_GRACE_MS = 10_000;
 
 export async function verifyAll(jobs: VerifyJob[], opts: PoolOptions): Promise<Map<string, Verification>> {
   const name = chooseEngine(opts.engine);
   const eng = { name, version: engineVersion(name) };
   const dir = opts.cacheDir ?? DEFAULT_CACHE_DIR;
+  const warn = opts.warn ?? ((m: string) => void process.stderr.write(`${m}\n`));
   const results: (Verification | undefined)[] = new Array(jobs.length);
   const pending: Pending[] = [];
   const stats = { done: 0, cached: 0, failed: 0, fresh: 0 };
@@ -55,7 +81,8 @@ export async function verifyAll(jobs: VerifyJob[], opts: PoolOptions): Promise<M
     const secs = (performance.now() - started) / 1000;
     const rate = stats.fresh > 0 && secs > 0 ? stats.fresh / secs : 0;
     const left = jobs.length - stats.done;
-    opts.onProgress({ done: stats.done, total: jobs.length, cached: stats.cached, failed: stats.failed, rate_per_s: rate, eta_s: rate > 0 ? left / rate : 0 });
+    const { done, cached, failed } = stats;
+    opts.onProgress({ done, total: jobs.length, cached, failed, rate_per_s: rate, eta_s: rate > 0 ? left / rate : 0 });
   };
   const finish = (index: number, v: Verification): void => {
     results[index] = v;
@@ -69,14 +96,24 @@ export async function verifyAll(jobs: VerifyJob[], opts: PoolOptions): Promise<M
     if (target === null) return finish(index, skipped(job.sized, eng));
     const key = cacheKey(job.netlist, eng, target);
     const hit = readCache(dir, key);
-    if (hit === null) return void pending.push({ index, target, netlist: job.netlist, key });
+    if (hit === null) return void pending.push({ index, target, netlist: job.netlist, key, lost: 0 });
     stats.cached++;
     finish(index, judge(target.predicted, hit, eng, key));
   });
 
+  let cacheWarned = false;
   const onMeasured = (p: Pending, m: Measured, store = true): void => {
-    // A crashed worker says nothing about the netlist: such failures are not cached.
-    if (store) writeCache(dir, p.key, m);
+    // A dead worker says nothing about the netlist: such failures are not cached. The cache only
+    // saves time, so one that cannot be written is a warning, never a failed build.
+    if (store) {
+      try {
+        writeCache(dir, p.key, m);
+      } catch (err) {
+        const why = (err as NodeJS.ErrnoException).code ?? (err as Error).message;
+        if (!cacheWarned) warn(`simulation cache ${dir} cannot be written (${why}): results are not kept`);
+        cacheWarned = true;
+      }
+    }
     stats.fresh++;
     finish(p.index, judge(p.target.predicted, m, eng, p.key));
   };
@@ -90,36 +127,104 @@ export async function verifyAll(jobs: VerifyJob[], opts: PoolOptions): Promise<M
     }
   } else if (pending.length > 0) {
     const queue = [...pending];
-    await Promise.all(Array.from({ length: nWorkers }, () => runWorker(name, queue, onMeasured)));
+    const url = opts.workerUrl ?? WORKER_URL;
+    const ends = await Promise.all(Array.from({ length: nWorkers }, () => runSlot(url, name, queue, onMeasured)));
+    // Every slot gave up because no worker could start: nothing else will take these jobs.
+    const why = ends.find((e) => e !== undefined) ?? "no simulation worker could start";
+    for (const p of queue.splice(0)) onMeasured(p, { ok: false, message: why, elapsed_s: 0 }, false);
   }
   return new Map(jobs.map((job, i) => [job.id, results[i]!]));
 }
 
-/** One worker draining the shared queue; a crashed or unstartable worker fails its jobs, never the build. */
-function runWorker(engine: EngineName, queue: Pending[], onMeasured: (p: Pending, m: Measured, store?: boolean) => void): Promise<void> {
+type OnMeasured = (p: Pending, m: Measured, store?: boolean) => void;
+
+/**
+ * One worker slot: runs workers one after another while there is work. A job whose worker died is
+ * carried to the slot's next, fresh worker (once); resolves with a reason when a worker of this
+ * slot could not start (the slot then ends), or undefined when the queue is drained.
+ */
+async function runSlot(
+  url: URL,
+  engine: EngineName,
+  queue: Pending[],
+  onMeasured: OnMeasured,
+): Promise<string | undefined> {
+  let carry: Pending | undefined;
+  while (carry !== undefined || queue.length > 0) {
+    const end = await runWorker(url, engine, queue, onMeasured, carry);
+    carry = undefined;
+    if (end.kind === "no-start") {
+      if (end.carried) queue.unshift(end.carried);
+      return end.reason;
+    }
+    if (end.lost) {
+      const reason = `${end.reason} while simulating this variant`;
+      if (end.lost.lost === 0) carry = { ...end.lost, lost: 1 };
+      else onMeasured(end.lost, { ok: false, message: `${reason}, twice, on two fresh workers`, elapsed_s: 0 }, false);
+    }
+  }
+  return undefined;
+}
+
+type WorkerEnd =
+  | { kind: "no-start"; reason: string; carried: Pending | undefined }
+  | { kind: "ended"; reason: string; lost: Pending | undefined };
+
+/** One worker's life: start, take `first` (if any) then jobs from the queue, close when none is left. */
+function runWorker(
+  url: URL,
+  engine: EngineName,
+  queue: Pending[],
+  onMeasured: OnMeasured,
+  first: Pending | undefined,
+): Promise<WorkerEnd> {
   return new Promise((resolve) => {
-    const w = new Worker(new URL("./worker.mjs", import.meta.url), { workerData: { engine } });
+    const w = new Worker(url, { workerData: { engine } });
+    let ready = false;
+    let closing = false;
     let current: Pending | undefined;
+    let said: string | undefined;
+    let grace: NodeJS.Timeout | undefined;
     const next = (): void => {
-      current = queue.shift();
+      current = first ?? queue.shift();
+      first = undefined;
       if (current === undefined) {
-        void w.terminate().then(() => resolve());
+        closing = true;
+        w.postMessage("close");
+        grace = setTimeout(() => void w.terminate(), CLOSE_GRACE_MS);
+        grace.unref();
         return;
       }
       const msg: JobMessage = { index: current.index, target: current.target, netlist: current.netlist };
       w.postMessage(msg);
     };
-    const failAll = (message: string): void => {
-      const lost = current ? [current, ...queue.splice(0)] : queue.splice(0);
-      for (const p of lost) onMeasured(p, { ok: false, message: `simulation worker: ${message}`, elapsed_s: 0 }, false);
-      current = undefined;
-      void w.terminate().then(() => resolve());
-    };
-    w.on("message", (msg: { ready?: true; fatal?: string; index?: number; measured?: Measured }) => {
-      if (msg.fatal !== undefined) return failAll(msg.fatal);
-      if (msg.measured !== undefined && current !== undefined) onMeasured(current, msg.measured);
-      next();
+    w.on("message", (msg: WorkerReply) => {
+      if ("fatal" in msg) {
+        said = msg.fatal;
+        void w.terminate();
+      } else if ("ready" in msg) {
+        ready = true;
+        next();
+      } else if (current !== undefined && msg.index === current.index) {
+        const done = current;
+        current = undefined;
+        onMeasured(done, msg.measured);
+        next();
+      }
     });
-    w.on("error", (err) => failAll(err.message));
+    // 'error' (an uncaught exception in the worker) is always followed by 'exit': decide there.
+    w.on("error", (err) => (said ??= err.message));
+    w.on("messageerror", (err) => (said ??= `a message could not be read (${err.message})`));
+    w.on("exit", (code) => {
+      if (grace) clearTimeout(grace);
+      if (!ready) {
+        const reason = `simulation worker could not start: ${said ?? `it exited with code ${code}`}`;
+        resolve({ kind: "no-start", reason, carried: first });
+        return;
+      }
+      const how = said !== undefined ? `stopped with an error (${said})` : `exited with code ${code}`;
+      const reason = `the simulation worker ${how}`;
+      resolve({ kind: "ended", reason, lost: closing ? undefined : current });
+    });
   });
 }

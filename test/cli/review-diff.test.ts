@@ -22,7 +22,7 @@ function record(chains: string[], pwm_Hz: number): string {
     axes: object;
     targets: { pwm_Hz: number };
   };
-  r.axes = { supply_V: [12], load_A: [0.5], chain: chains, load_kind: ["lamp"] };
+  r.axes = { supply_V: [24], load_A: [0.5], chain: chains, load_kind: ["lamp"] };
   r.targets.pwm_Hz = pwm_Hz;
   return `${JSON.stringify(r, null, 2)}\n`;
 }
@@ -73,10 +73,10 @@ describe.skipIf(!hasTools)("scripts/review-diff.sh on a one-design project", () 
     expect(r.stdout).toContain("old: site-base (1 variant,");
     expect(r.stdout).toContain("new: site-head (2 variants,");
     expect(r.stdout).toContain(
-      "Variants added (1)\n  + work-lamp-12v-500ma-darlington-2-lamp (work-lamp, Potting-bench lamp dimmer):",
+      "Variants added (1)\n  + work-lamp-24v-500ma-darlington-2-lamp (work-lamp, Potting-bench lamp dimmer):",
     );
     // 1000 Hz → 1500 Hz target: the nominal frequency moves by far more than the 2 % threshold.
-    expect(r.stdout).toMatch(/work-lamp-12v-500ma-mosfet-logic-lamp\n {4}PWM frequency[^\n]*\(\+\d+ %\)/);
+    expect(r.stdout).toMatch(/work-lamp-24v-500ma-mosfet-logic-lamp\n {4}PWM frequency[^\n]*\(\+\d+ %\)/);
     expect(r.stdout).not.toContain("Verdict changes");
     expect(readFileSync(summary, "utf8")).toMatch(
       /^### What this change does to the catalogue\n[\s\S]*#### Variants added \(1\)/,

@@ -61,6 +61,12 @@ export function diffPair(): { old: BuiltCatalogue; new: BuiltCatalogue } {
   flipped.feasible = false;
   flipped.reason =
     "The driven MOSFET's gate charge at 20 kHz overloads the driver stage: Q4 exceeds its derated dissipation.";
+  flipped.verdict = {
+    status: "not-feasible",
+    blocking: [{ kind: "check", rule: "power", path: "/parts/Q4", message: flipped.reason }],
+    conditions: [],
+    summary: flipped.reason,
+  };
   // figures: frequency −5 % (reported), duty_max +0.4 points (below the threshold), T_J +3 K (reported)
   const moved = find(neu, IDS.figures);
   figure(moved, "frequency_nominal").value *= 0.95;

@@ -4,16 +4,15 @@
  * HTML in a real browser, SVG for active content, CSV for formula triggers, netlists for lines
  * record text could turn into SPICE commands.
  */
-import { existsSync } from "node:fs";
 import { readFile } from "node:fs/promises";
 import path from "node:path";
 import { pathToFileURL } from "node:url";
-import { chromium, type Browser } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { auditSite } from "../../src/site/audit.ts";
 import { buildArgs, cleanRoots, fingerprint, runCli, type CliRun } from "./cli.ts";
 import { DEVICE_TITLE, DESIGN, makeHostileProject } from "./hostile-project.ts";
 import { svgFragments, svgHazards } from "./svg-scan.ts";
+import { CHROMIUM, NO_CHROMIUM, launchChromium } from "../browser/chromium.ts";
 
 let site = "";
 let run: CliRun;
@@ -66,16 +65,12 @@ describe("hostile record text, built by the real command", () => {
   });
 
   it("HTML in Chromium: no hostile script runs and no dialog opens on any page", async (ctx) => {
-    const exe = ["/usr/lib/chromium/chromium", "/usr/bin/chromium"].find((p) => existsSync(p));
-    if (!exe) {
-      console.warn("skipped: Chromium is not installed (/usr/bin/chromium); install it with apt-get install chromium");
+    if (!CHROMIUM) {
+      console.warn(NO_CHROMIUM);
       ctx.skip();
       return;
     }
-    const browser: Browser = await chromium.launch({
-      executablePath: exe,
-      args: ["--headless", "--no-sandbox", "--disable-gpu", "--disable-background-networking", "--disable-component-update", "--disable-sync", "--no-first-run", "--disable-quic"],
-    });
+    const browser = await launchChromium();
     try {
       const page = await browser.newPage();
       const dialogs: string[] = [];

@@ -79,3 +79,17 @@ describe.runIf(ngspiceAvailable())("eecircuit-engine and native ngspice agree", 
     expectClose(ma.m.period_s, mb.m.period_s, 0.005);
   });
 });
+
+describe.each(engines)("%s engine closing", (name) => {
+  it("close waits for or stops the run in flight, then every new run is refused", async () => {
+    const engine = await startEngine(name);
+    const inFlight = engine.run(RC_STEP, ["v(out)"]).then(
+      () => "finished",
+      (err: unknown) => (err instanceof SpiceRunError ? "stopped" : `unexpected: ${String(err)}`),
+    );
+    await engine.close();
+    // Embedded: the run finishes before close returns; native: the ngspice process is stopped.
+    await expect(inFlight).resolves.toBe(name === "ngspice" ? "stopped" : "finished");
+    await expect(engine.run(RC_STEP, ["v(out)"])).rejects.toThrow(/was closed/);
+  });
+});

@@ -21,12 +21,15 @@ export function eecircuitVersion(): string {
 
 export async function startEecircuit(): Promise<SpiceEngine> {
   const { Simulation } = await import("eecircuit-engine");
-  const sim = new Simulation();
+  // The package offers no stop call: closing lets the last run finish and drops the module, so
+  // nothing holds it once the worker (or test) that started it lets go.
+  let sim: InstanceType<typeof Simulation> | null = new Simulation();
   await sim.start();
   // The wasm ngspice runs one netlist at a time: chain runs so concurrent callers cannot interleave.
   let queue: Promise<unknown> = Promise.resolve();
 
   async function runOnce(netlist: string, vectors: string[]): Promise<SimResult> {
+    if (sim === null) throw new SpiceRunError("the embedded engine was closed");
     sim.setNetList(withSaves(netlist, vectors));
     const result = await sim.runSim();
     const errors = sim.getError().filter((e) => e.trim() !== "");
@@ -47,12 +50,14 @@ export async function startEecircuit(): Promise<SpiceEngine> {
     name: "eecircuit-engine",
     version: eecircuitVersion(),
     run(netlist, vectors) {
+      if (sim === null) return Promise.reject(new SpiceRunError("the embedded engine was closed"));
       const next = queue.then(() => runOnce(netlist, vectors));
       queue = next.catch(() => undefined);
       return next;
     },
     async close() {
       await queue;
+      sim = null;
     },
   };
 }

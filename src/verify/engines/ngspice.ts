@@ -2,7 +2,7 @@
  * Adapter for a native ngspice executable in batch mode: the deck goes to a temporary file,
  * `ngspice -b -r out.raw deck.cir` writes a binary raw file, which is read back.
  */
-import { execFileSync, execFile } from "node:child_process";
+import { execFileSync, execFile, type ChildProcess } from "node:child_process";
 import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
@@ -25,26 +25,50 @@ export function ngspiceVersion(path = NGSPICE_PATH): string {
 export function startNgspice(path = NGSPICE_PATH): SpiceEngine {
   if (!ngspiceAvailable(path)) throw new SpiceRunError(`native ngspice not found at ${path}`);
   const version = ngspiceVersion(path);
+  const running = new Set<ChildProcess>();
+  const settled = new Set<Promise<unknown>>();
+  let closed = false;
   return {
     name: "ngspice",
     version,
-    run: (netlist, vectors) => runNative(path, netlist, vectors),
-    close: async () => undefined,
+    run(netlist, vectors) {
+      if (closed) return Promise.reject(new SpiceRunError("the ngspice engine was closed"));
+      const p = runNative(path, netlist, vectors, running);
+      const s = p.catch(() => undefined);
+      settled.add(s);
+      void s.then(() => settled.delete(s));
+      return p;
+    },
+    // Stops any ngspice process still running (its run then fails) and waits until each run has
+    // removed its temporary folder.
+    async close() {
+      closed = true;
+      for (const child of running) child.kill("SIGTERM");
+      await Promise.all(settled);
+    },
   };
 }
 
-async function runNative(path: string, netlist: string, vectors: string[]): Promise<SimResult> {
+async function runNative(
+  path: string,
+  netlist: string,
+  vectors: string[],
+  running: Set<ChildProcess>,
+): Promise<SimResult> {
   const dir = mkdtempSync(join(tmpdir(), "pulsewright-ngspice-"));
   try {
     const deck = join(dir, "deck.cir");
     const raw = join(dir, "out.raw");
     writeFileSync(deck, withSaves(netlist, vectors));
     const log = await new Promise<string>((resolve, reject) => {
-      execFile(path, ["-b", "-r", raw, deck], { cwd: dir, maxBuffer: 8 << 20, timeout: 120_000 }, (err, out, errOut) => {
+      const options = { cwd: dir, maxBuffer: 8 << 20, timeout: 120_000 };
+      const child = execFile(path, ["-b", "-r", raw, deck], options, (err, out, errOut) => {
+        running.delete(child);
         const text = `${out}\n${errOut}`;
         if (err) reject(new SpiceRunError(`ngspice failed: ${firstErrors(text) || err.message}`, { cause: err }));
         else resolve(text);
       });
+      running.add(child);
     });
     if (!existsSync(raw)) throw new SpiceRunError(`ngspice wrote no results: ${firstErrors(log)}`);
     try {

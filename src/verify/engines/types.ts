@@ -15,7 +15,7 @@ export interface SpiceEngine {
   /** Engine version string that keys the cache, e.g. "1.8.0" or "ngspice-39". */
   readonly version: string;
   run(netlist: string, vectors: string[]): Promise<SimResult>;
-  /** Releases the engine (native: nothing to do; wasm: drops the module). */
+  /** Releases the engine: lets (embedded) or stops (native) runs in flight, then refuses new runs. */
   close(): Promise<void>;
 }
 
