@@ -82,6 +82,9 @@ export function solenoidScheme(ctx: Ctx, vSw_V: number, dutyOn: number, reach: {
       "ΔI = (V'/R)(1 − e^(−DT/τ))(1 − e^(−(1−D)T/τ))/(1 − e^(−T/τ))", "derived"),
     figure("hold_power", "Coil power held vs full on (nominal)", (iHoldNom * iHoldNom * r) / (ctx.iNom_A * ctx.iNom_A * r), "", "load", "P_hold/P_full = (I_hold,nom/I_rated)²", "derived"),
   ];
-  const note = `Pull-in ${A(iPull)} for ${(tFull * 1e3).toPrecision(3)} ms full on, then hold at duty ${pct(dSet)} (${A(iHoldNom)} at ${ctx.vNom_V} V); the freewheel diode clamps the kick-back.`;
+  const pullText = Number.isFinite(tFull)
+    ? `Pull-in ${A(iPull)} for ${(tFull * 1e3).toPrecision(3)} ms full on`
+    : `Pull-in ${A(iPull)} is out of reach at the lowest supply (${A(iFullMin)} full on)`;
+  const note = `${pullText}, then hold at duty ${pct(dSet)} (${A(iHoldNom)} at ${ctx.vNom_V} V); the freewheel diode clamps the kick-back.`;
   return { iOn_A, figures, problems, note };
 }
