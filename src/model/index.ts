@@ -1,4 +1,5 @@
 export * from "./kinds.ts";
+export * from "./part-roles.ts";
 export * from "./figure.ts";
 export * from "./problem.ts";
 export * from "./device.ts";

@@ -3,7 +3,8 @@
  * that part); any error makes the variant not feasible; the reason is the most basic blocking
  * problem in plain words, prefixed with the chain and current. Cautions for the page.
  */
-import type { DesignProblem } from "../../model/problem.ts";
+import { EngineMisuseError, type DesignProblem } from "../../model/problem.ts";
+import { isPartRole, isRefDesignator } from "../../model/part-roles.ts";
 import type { StressCheck } from "../../model/derating.ts";
 import { problem } from "../shared/figures.ts";
 import type { Ctx } from "./context.ts";
@@ -19,7 +20,9 @@ export function checkProblems(checks: StressCheck[], existing: DesignProblem[]):
   const out: DesignProblem[] = [];
   for (const c of checks) {
     if (c.verdict !== "fail") continue;
-    const path = `/parts/${c.ref}`;
+    // Checks reach here numbered (sizeVariant): a designator, or the role of a part not in the circuit.
+    if (!isRefDesignator(c.ref) && !isPartRole(c.ref)) throw new EngineMisuseError(`checkProblems: check ref "${c.ref}" names no part`);
+    const path = `/parts/${c.ref}` as const;
     if (existing.some((p) => p.path === path)) continue; // a stage already explained this part
     out.push(problem("derating", path, `derating-${c.quantity}`, "error",
       `${c.ref}: ${QTY[c.quantity]} ${c.stress.toPrecision(3)} ${c.unit} is ${(c.ratio * 100).toFixed(0)} % of its ${c.rating.toPrecision(3)} ${c.unit} rating; the policy allows ${(c.allowed * 100).toFixed(0)} %.`,
