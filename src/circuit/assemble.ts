@@ -6,7 +6,7 @@
 import type { CircuitModel, Instrument, Part } from "../model/circuit.ts";
 import { REF_PREFIX, STAGE_KINDS } from "../model/kinds.ts";
 import { PART_ROLES, stageOfRole, type PartRole } from "../model/part-roles.ts";
-import { EngineMisuseError } from "../model/problem.ts";
+import { EngineMisuseError } from "../model/errors.ts";
 
 /** Numbering order: stage by stage, roles in the vocabulary's order (docs/topologies.md). */
 function rank(p: Part): [number, number] {

@@ -8,6 +8,7 @@ import { runCheck } from "./check.ts";
 import { runBuild } from "./build.ts";
 import { runServe } from "./serve.ts";
 import { runSize } from "./size.ts";
+import { failureOf } from "./exit.ts";
 
 const USAGE = `usage: pulsewright <command> [options]
 
@@ -89,16 +90,10 @@ main(process.argv.slice(2)).then(
   (code) => {
     process.exitCode = code;
   },
+  // Every thrown error becomes an exit code here, and only here (src/cli/exit.ts).
   (err: unknown) => {
-    const e = err as { name?: string; message?: string; code?: string };
-    // node:util parseArgs reports unknown or malformed options with these codes: a usage error.
-    if (e && (e.name === "UsageError" || (typeof e.code === "string" && e.code.startsWith("ERR_PARSE_ARGS_")))) {
-      process.stderr.write(`${e.message}\n${e.name === "UsageError" ? "" : `\n${USAGE}`}`);
-      process.exitCode = 2;
-      return;
-    }
-    process.stderr.write(`pulsewright: internal error — please report it with the command you ran\n`);
-    process.stderr.write(`${(err as Error)?.stack ?? String(err)}\n`);
-    process.exitCode = 70;
+    const f = failureOf(err);
+    process.stderr.write(`${f.text}\n${f.withUsage ? `\n${USAGE}` : ""}`);
+    process.exitCode = f.code;
   },
 );

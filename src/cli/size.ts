@@ -9,9 +9,10 @@ import { chooseDevices } from "../engine/devices/choose.ts";
 import { sizeVariant } from "../engine/index.ts";
 import { CHAIN_KINDS, LOAD_KINDS, type ChainKind, type LoadKind } from "../model/kinds.ts";
 import { formatValue } from "../model/format.ts";
+import { UsageError } from "../model/errors.ts";
 
 function usage(msg: string): never {
-  throw Object.assign(new Error(`size: ${msg}\nexample: pulsewright size --design circulation-fan --supply 24 --current 2 --chain mosfet-logic --load motor`), { name: "UsageError" });
+  throw new UsageError(`size: ${msg}\nexample: pulsewright size --design circulation-fan --supply 24 --current 2 --chain mosfet-logic --load motor`);
 }
 
 function positive(name: string, s: string | undefined, max: number): number {

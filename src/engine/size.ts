@@ -6,7 +6,8 @@
 import type { Figure } from "../model/figure.ts";
 import type { Part } from "../model/circuit.ts";
 import { isPartRole, type SidedRole } from "../model/part-roles.ts";
-import { type DesignProblem, EngineMisuseError } from "../model/problem.ts";
+import { type DesignProblem } from "../model/problem.ts";
+import { EngineMisuseError } from "../model/errors.ts";
 import type { StressCheck } from "../model/derating.ts";
 import type { SizedVariant } from "../model/sized.ts";
 import type { VariantSpec } from "../model/variant.ts";

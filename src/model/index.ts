@@ -2,6 +2,7 @@ export * from "./kinds.ts";
 export * from "./part-roles.ts";
 export * from "./figure.ts";
 export * from "./problem.ts";
+export * from "./errors.ts";
 export * from "./device.ts";
 export * from "./design.ts";
 export * from "./variant.ts";

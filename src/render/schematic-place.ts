@@ -11,6 +11,7 @@ import { CHAIN } from "./schematic-chains.ts";
 import * as L from "./schematic-layout.ts";
 import { SYMBOLS, type Box, type SymbolDef } from "./symbols/index.ts";
 import { probe } from "./symbols/probe.ts";
+import { EngineMisuseError } from "../model/errors.ts";
 
 export const RAIL_Y = 50;
 export const LEFT_X = 60;
@@ -105,7 +106,7 @@ export function place(circuit: CircuitModel): { placed: Placed[]; hints: Hint[] 
   for (const it of items) {
     const { layout, x0 } = st[it.stage];
     const slot = layout.slots[it.role];
-    if (!slot) throw new RangeError(`schematic: no place for role "${it.role}" (${it.key}) in stage "${it.stage}"`);
+    if (!slot) throw new EngineMisuseError(`schematic: no place for role "${it.role}" (${it.key}) in stage "${it.stage}"`);
     const cx = x0 + slot.x;
     const cy = slot.y;
     const pins: Record<string, Pt> = {};

@@ -12,7 +12,7 @@ import {
 import { assembleCircuit } from "../../src/circuit/assemble.ts";
 import { CHAIN } from "../../src/render/schematic-chains.ts";
 import { SUPPLY, coreLayout, loadLayout, protectionLayout } from "../../src/render/schematic-layout.ts";
-import { EngineMisuseError } from "../../src/model/problem.ts";
+import { EngineMisuseError } from "../../src/model/errors.ts";
 import type { Part } from "../../src/model/circuit.ts";
 
 const DOC = readFileSync(new URL("../../docs/topologies.md", import.meta.url), "utf8");

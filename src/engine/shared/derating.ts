@@ -4,7 +4,7 @@
  */
 import type { DeratingPolicy, DeratingRule, StressCheck, StressQuantity, StressVerdict } from "../../model/derating.ts";
 import type { PartRole } from "../../model/part-roles.ts";
-import { EngineMisuseError } from "../../model/problem.ts";
+import { EngineMisuseError } from "../../model/errors.ts";
 
 export type TjFamily = "bjt" | "mosfet" | "diode";
 

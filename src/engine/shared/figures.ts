@@ -4,7 +4,8 @@
  * out of everything downstream.
  */
 import type { Figure } from "../../model/figure.ts";
-import { EngineMisuseError, type DesignProblem, type Severity } from "../../model/problem.ts";
+import { type DesignProblem, type Severity } from "../../model/problem.ts";
+import { EngineMisuseError } from "../../model/errors.ts";
 import type { SourceRef } from "./sources.ts";
 import type { PartRole, RefDesignator } from "../../model/part-roles.ts";
 

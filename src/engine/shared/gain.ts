@@ -4,7 +4,7 @@
  * interpolated the way datasheet graphs are drawn: h_FE log-log, V_CE(sat) linear in I_C.
  */
 import type { BjtClass } from "../../model/device.ts";
-import { EngineMisuseError } from "../../model/problem.ts";
+import { EngineMisuseError } from "../../model/errors.ts";
 
 /** V_BE temperature coefficient, V/K (≈ −2 mV/K: common practice). */
 export const VBE_TEMPCO_VperK = -0.002;

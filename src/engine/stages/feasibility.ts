@@ -3,7 +3,8 @@
  * that part); any error makes the variant not feasible; the reason is the most basic blocking
  * problem in plain words, prefixed with the chain and current. Cautions for the page.
  */
-import { EngineMisuseError, type DesignProblem } from "../../model/problem.ts";
+import { type DesignProblem } from "../../model/problem.ts";
+import { EngineMisuseError } from "../../model/errors.ts";
 import { isPartRole, isRefDesignator } from "../../model/part-roles.ts";
 import type { StressCheck } from "../../model/derating.ts";
 import { problem } from "../shared/figures.ts";

@@ -18,11 +18,3 @@ export interface SpiceEngine {
   /** Releases the engine (native: nothing to do; wasm: drops the module). */
   close(): Promise<void>;
 }
-
-/** A simulation that did not produce usable results: engine error, non-convergence, missing vectors. */
-export class SpiceRunError extends Error {
-  constructor(message: string, options?: { cause?: unknown }) {
-    super(message, options);
-    this.name = "SpiceRunError";
-  }
-}

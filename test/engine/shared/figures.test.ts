@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import { figure, problem } from "../../../src/engine/shared/figures.ts";
 import { SRC } from "../../../src/engine/shared/sources.ts";
 import { CONFIDENCE } from "../../../src/model/kinds.ts";
-import { EngineMisuseError } from "../../../src/model/problem.ts";
+import { EngineMisuseError } from "../../../src/model/errors.ts";
 
 describe("figure(): numbers with provenance", () => {
   it("carries formula, source and confidence, and orders the range [low, high]", () => {

@@ -7,7 +7,7 @@
  *   voltage, t ≈ Q_G · R / ΔV (common practice); never faster than the class's datasheet times.
  */
 import type { MosfetClass } from "../../../model/device.ts";
-import { EngineMisuseError } from "../../../model/problem.ts";
+import { EngineMisuseError } from "../../../model/errors.ts";
 
 /** Miller plateau ≈ the maximum threshold (at moderate drain current; from memory). */
 export function plateau_V(dev: MosfetClass): number {
