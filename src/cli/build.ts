@@ -12,6 +12,7 @@ import { verifyAll } from "../verify/pool.ts";
 import { progressReporter } from "../verify/progress.ts";
 import { writeSite } from "../site/write.ts";
 import { makeStagingDir, swapIntoPlace, discardStaging, sweepLeftovers } from "./publish.ts";
+import { checkOutDir, writeSiteMarker } from "./out-guard.ts";
 import { buildDate } from "./build-date.ts";
 import type { Verification } from "../model/verification.ts";
 
@@ -30,13 +31,19 @@ export interface BuildOptions {
 
 export async function runBuild(o: BuildOptions): Promise<number> {
   const t0 = performance.now();
+  // Before any work: the build replaces its output folder whole, so it must be one it made.
+  const guard = await checkOutDir(o.root, o.outDir);
+  if (!guard.ok) {
+    o.out.error(guard.message);
+    return 2;
+  }
+  const outDir = guard.dir;
   const project = await loadProject(o.root);
   if (!project.ok) {
     for (const issue of project.issues) o.out.error(formatIssue(issue));
     o.out.error(`\n${project.issues.length} problem(s) in the records: nothing was built, ${o.outDir}/ is unchanged.`);
     return 1;
   }
-  const outDir = path.resolve(o.root, o.outDir);
   await sweepLeftovers(outDir);
 
   const sized = sizeProject(project);
@@ -62,6 +69,14 @@ export async function runBuild(o: BuildOptions): Promise<number> {
   const staging = await makeStagingDir(outDir);
   try {
     const written = await writeSite(catalogue, staging, { pathPrefix: o.pathPrefix, quiet: true });
+    await writeSiteMarker(staging);
+    // Again just before the swap: the folder may have been filled by someone else meanwhile.
+    const still = await checkOutDir(o.root, o.outDir);
+    if (!still.ok || still.dir !== outDir) {
+      await discardStaging(staging);
+      o.out.error(still.ok ? `--out ${JSON.stringify(o.outDir)}: now resolves elsewhere; nothing was published` : still.message);
+      return 2;
+    }
     await swapIntoPlace(staging, outDir);
     const s = catalogue.summary;
     o.out.log(

@@ -19,7 +19,8 @@ commands:
   size                  size one variant from flags and print its figures
 
 build options:
-  --out DIR             output folder (default _site)
+  --out DIR             output folder (default _site): a new or empty folder, or one an earlier
+                        build made (it holds .pulsewright-site); anything else is refused
   --strict              exit non-zero when any simulation disagrees or fails
   --strict-failures     exit non-zero when any simulation fails to run (engine error, no oscillation)
   --spice ENGINE        eecircuit-engine (default, embedded) | ngspice (native, if on PATH)

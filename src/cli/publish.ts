@@ -4,11 +4,12 @@
  * site intact. The swap is two renames within one directory (atomic on POSIX filesystems each);
  * between them the old site is kept under a `.previous` name and restored if the second fails.
  */
-import { mkdtemp, rename, rm, stat } from "node:fs/promises";
+import { mkdir, mkdtemp, rename, rm, stat } from "node:fs/promises";
 import path from "node:path";
 
 export async function makeStagingDir(outDir: string): Promise<string> {
   const abs = path.resolve(outDir);
+  await mkdir(path.dirname(abs), { recursive: true });
   // The pid in the name lets a later build tell a dead build's leftovers from a running one's.
   return mkdtemp(path.join(path.dirname(abs), `${path.basename(abs)}.staging-${process.pid}-`));
 }
@@ -61,6 +62,7 @@ export async function sweepLeftovers(outDir: string): Promise<string[]> {
   const dir = path.dirname(abs);
   const base = path.basename(abs);
   const removed: string[] = [];
+  if (!(await exists(dir))) return removed;
   for (const name of await readdir(dir)) {
     if (name.startsWith(`${base}.staging-`) && !ownerAlive(name, `${base}.staging-`)) {
       await rm(path.join(dir, name), { recursive: true, force: true });

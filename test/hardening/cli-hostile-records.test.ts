@@ -7,6 +7,7 @@
 import { readFile, mkdir, writeFile } from "node:fs/promises";
 import path from "node:path";
 import { afterAll, describe, expect, it } from "vitest";
+import { SITE_MARKER } from "../../src/cli/out-guard.ts";
 import { HOSTILE, buildArgs, cleanRoots, fingerprint, limit, makeRoot, names, runCli, stackLines, type CliRun } from "./cli.ts";
 
 afterAll(cleanRoots);
@@ -120,6 +121,7 @@ async function attempt(c: Case): Promise<Outcome> {
   // The "previous" site: a marker file that must survive the refused build byte for byte.
   await mkdir(path.join(root, "_site", "variants"), { recursive: true });
   await writeFile(path.join(root, "_site", "marker.txt"), "previous site, built earlier\n");
+  await writeFile(path.join(root, "_site", SITE_MARKER), "made by an earlier build\n");
   const siteBefore = await fingerprint(path.join(root, "_site"));
   const rootBefore = await names(root);
   const run = await runCli(root, buildArgs(root));

@@ -1,0 +1,32 @@
+// One linter for the whole repository (run by `npm test` and CI). The formatter (Prettier) owns
+// layout; these rules are about correctness and keeping functions small enough to review.
+import js from "@eslint/js";
+import tseslint from "typescript-eslint";
+
+export default tseslint.config(
+  { ignores: ["node_modules/", "_site/", "_site.*/", ".cache/", "test-output/", "**/*.d.ts"] },
+  js.configs.recommended,
+  ...tseslint.configs.recommended,
+  {
+    languageOptions: { ecmaVersion: 2023, sourceType: "module" },
+    rules: {
+      // A sizing stage or a view that needs more branches than this wants splitting.
+      complexity: ["error", { max: 30 }],
+      "max-depth": ["error", 5],
+      "max-params": ["error", 6],
+      eqeqeq: ["error", "always"],
+      "no-implicit-coercion": "error",
+      "@typescript-eslint/no-unused-vars": ["error", { argsIgnorePattern: "^_", varsIgnorePattern: "^_" }],
+      "@typescript-eslint/consistent-type-imports": "error",
+    },
+  },
+  {
+    // Tests may poke at shapes loosely (hostile records are deliberately untyped).
+    files: ["test/**/*.ts"],
+    rules: { "@typescript-eslint/no-explicit-any": "off", "@typescript-eslint/no-non-null-assertion": "off" },
+  },
+  {
+    files: ["**/*.js", "**/*.mjs", "**/*.cjs"],
+    languageOptions: { globals: { process: "readonly", console: "readonly", URL: "readonly" } },
+  },
+);
