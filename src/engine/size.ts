@@ -6,7 +6,7 @@
 import type { Figure } from "../model/figure.ts";
 import type { Part } from "../model/circuit.ts";
 import { isPartRole, type SidedRole } from "../model/part-roles.ts";
-import { type DesignProblem } from "../model/problem.ts";
+import type { DesignProblem } from "../model/problem.ts";
 import { EngineMisuseError } from "../model/errors.ts";
 import type { StressCheck } from "../model/derating.ts";
 import type { SizedVariant } from "../model/sized.ts";
