@@ -16,7 +16,7 @@ import type { DeviceLoss } from "./stages/chains/types.ts";
 import { switchingLoss_W } from "./shared/losses.ts";
 import { assembleCircuit, refsByRole } from "../circuit/assemble.ts";
 import { figure, problem } from "./shared/figures.ts";
-import { SRC } from "./shared/sources.ts";
+import { NOMINAL_TEMP_C } from "./shared/temperature.ts";
 import { makeContext } from "./stages/context.ts";
 import { CHAIN_PLANNERS } from "./stages/chains/index.ts";
 import { designTap } from "./stages/tap.ts";
@@ -82,9 +82,9 @@ function sizeInner(spec: VariantSpec): SizedVariant {
   const problems = [...stageProblems, ...checkProblems(checks, stageProblems)];
   const figures: Figure[] = dedupe([
     ...timing.figures, ...plan.figures, ...fin.figures, ...load.figures, ...thermal.figures, ...prot.figures,
-    ...(pNominal === undefined ? [] : [figure("device_dissipation_nominal", "Power device dissipation (nominal: rated load, D_max, 25 °C)", pNominal, "W", "thermal",
-      "P = I_on·V_sw,nom·D_max,nom (MOSFET I_on²·R_DS(on),nom·D) + k·V_nom·I_on·(t_on,nom + t_off,nom)·f_nom", SRC.DERIVED)]),
-    figure("efficiency", "Switch efficiency (worst case)", efficiency, "", "chain", "η = 1 − ΣP_chain / (V_cc,max · I_max · D_max)", SRC.DERIVED),
+    ...(pNominal === undefined ? [] : [figure("device_dissipation_nominal", `Power device dissipation (nominal: rated load, D_max, ${NOMINAL_TEMP_C} °C)`, pNominal, "W", "thermal",
+      "P = I_on·V_sw,nom·D_max,nom (MOSFET I_on²·R_DS(on),nom·D) + k·V_nom·I_on·(t_on,nom + t_off,nom)·f_nom", "derived")]),
+    figure("efficiency", "Switch efficiency (worst case)", efficiency, "", "chain", "η = 1 − ΣP_chain / (V_cc,max · I_max · D_max)", "derived"),
   ]);
   const reason = blockingReason(ctx, problems);
   const hot = thermal.heatsink.needed || [...thermal.perRole.values()].some((t) => t.tj_C > 60);

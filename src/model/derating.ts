@@ -1,3 +1,4 @@
+import type { SourceKey } from "../engine/shared/sources.ts";
 import type { Confidence } from "./kinds.ts";
 
 /**
@@ -7,15 +8,17 @@ import type { Confidence } from "./kinds.ts";
 export interface DeratingRule {
   /** Fraction of the rating allowed, 0 < factor ≤ 1. */
   factor: number;
-  /** Where the factor comes from. */
-  source: string;
+  /** Where the factor comes from: a key in the bibliography (docs/sources.md). */
+  source: SourceKey;
+  /** Which clause or table of the source, in a few words. */
+  note?: string;
   confidence: Confidence;
 }
 
 export interface DeratingPolicy {
   id: string;
   title: string;
-  document: string; // the document the policy follows, e.g. "NASA EEE-INST-002 (2003), from memory"
+  document: string; // the documents the policy follows, in words, e.g. "NASA EEE-INST-002 (2003), from memory"
   /** Ratio band below the limit that is "marginal" rather than "pass" (e.g. 0.9 → above 90 % of the allowed). */
   marginal_above: number;
   bjt: { power: DeratingRule; voltage: DeratingRule; current: DeratingRule; tj_max_C: DeratingRule & { value_C: number; below_max_K: number } };
@@ -41,5 +44,7 @@ export interface StressCheck {
   /** policy factor (allowed ratio) */
   allowed: number;
   verdict: StressVerdict;
-  source: string;
+  /** Key of the rule's source in the bibliography, and the rule in a few words. */
+  source: SourceKey;
+  note?: string;
 }

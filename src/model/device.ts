@@ -1,3 +1,4 @@
+import type { SourceKey } from "../engine/shared/sources.ts";
 import type { Confidence, DeviceFamily } from "./kinds.ts";
 
 /**
@@ -7,7 +8,10 @@ import type { Confidence, DeviceFamily } from "./kinds.ts";
  * where it comes from.
  */
 export interface SourceNote {
-  source: string;
+  /** Key in the bibliography (docs/sources.md); `pulsewright check` rejects unknown keys. */
+  source: SourceKey;
+  /** What exactly was taken from the source, and anything uncertain about it. */
+  note?: string;
   confidence: Confidence;
 }
 

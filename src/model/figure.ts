@@ -1,11 +1,12 @@
+import type { SourceKey } from "../engine/shared/sources.ts";
 import type { Confidence } from "./kinds.ts";
 
 /** Where a number comes from: a formula (in plain text, symbols as on the page) and its source. */
 export interface Provenance {
   /** e.g. "t = R·C·ln((2·Vcc − V_BE − V_CE(sat)) / (Vcc − V_BE))" */
   formula: string;
-  /** e.g. "Millman & Taub, Pulse, Digital and Switching Waveforms, 1965, ch. 11 (from memory)" */
-  source: string;
+  /** Key of the source in the bibliography (src/engine/shared/sources.ts, docs/sources.md), e.g. "millman-taub-1965". */
+  source: SourceKey;
   confidence: Confidence;
 }
 

@@ -44,7 +44,8 @@ export const PART_KINDS = [
 ] as const;
 export type PartKind = (typeof PART_KINDS)[number];
 
-/** Reference-designator letter codes (the usual ones: IEEE Std 315A / IEC 81346 practice). */
+/** Reference-designator letter codes (the usual ones: IEEE Std 315A / IEC 81346 practice,
+ * [src:ieee-315] [src:iec-81346]). */
 export const REF_PREFIX = {
   resistor: "R",
   potentiometer: "RV",
@@ -68,6 +69,6 @@ export const REF_PREFIX = {
 export const DEVICE_FAMILIES = ["npn", "pnp", "nmos", "diode", "zener"] as const;
 export type DeviceFamily = (typeof DEVICE_FAMILIES)[number];
 
-/** How sure we are of a number: see shared SOURCES.md. */
+/** How sure we are of a number (docs/sources.md explains each word). */
 export const CONFIDENCE = ["standard", "registered", "textbook", "seen", "common-practice", "from-memory", "derived", "demo"] as const;
 export type Confidence = (typeof CONFIDENCE)[number];

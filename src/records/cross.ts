@@ -75,7 +75,7 @@ function ratingIssues(d: LoadedDesign, role: DeviceRole, dev: DeviceClass, axes:
   const out: RecordIssue[] = [];
   const v = voltageRating(dev);
   axes.supply_V.forEach((s, i) => {
-    // Highest supply the part sees: nominal plus tolerance (ENGINEERING.md §3: V_CE(max) ≥ supply + margin).
+    // Highest supply the part sees: nominal plus tolerance (V_CE(max) ≥ supply + margin [src:common-practice]).
     const high_V = s * (1 + tol);
     if (v && high_V > v.value_V) {
       out.push(issueAt(d.parsed, `/axes/supply_V/${i}`, `supply ${s} V (${fmt(high_V)} V with tolerance) exceeds ${v.name} ${v.value_V} V of "${dev.id}" bound to ${role}`, `bind a class rated above ${fmt(high_V)} V, or drop this supply`));

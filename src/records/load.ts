@@ -10,7 +10,10 @@ import { listJson, readRecord } from "./files.ts";
 import { sortIssues, uniqueIssues, type RecordIssue } from "./issue.ts";
 import type { ParsedFile } from "./parse.ts";
 import { loadSchemas } from "./schemas.ts";
+import { checkSourceKeys } from "./source-keys.ts";
 import { validateParsed } from "./validate.ts";
+import { checkDefaults, checkDeviceData } from "./devices.ts";
+import { checkRecordText } from "./text.ts";
 
 export type LoadResult =
   | { ok: true; designs: SourcedRecord<DesignRecord>[]; devices: DeviceLibrary; policy: DeratingPolicy; policyFile: string }
@@ -33,23 +36,39 @@ export async function loadProject(root: string, options: LoadOptions = {}): Prom
     const r = await readRecord(root, file);
     if (!r.ok) { for (const i of capIssues(r.issues)) issues.push(i); return null; }
     if (!validate) return null; // schema problem already reported
-    const found = validateParsed(r.parsed, validate);
+    // Source keys only once the schema holds: a key of the wrong shape is reported there.
+    const valid = validateParsed(r.parsed, validate);
+    const found = valid.length === 0 && validate !== vDesign ? checkSourceKeys(r.parsed) : valid;
     for (const i of capIssues(found)) issues.push(i);
     return found.length === 0 ? r.parsed : null;
   };
 
   const designs: LoadedDesign[] = [];
-  for (const file of await listJson(root, "designs")) {
+  const designFiles = await listJson(root, "designs");
+  issues.push(...designFiles.issues);
+  for (const file of designFiles.files) {
     const parsed = await readValid(file, vDesign);
     if (parsed) designs.push({ parsed, record: parsed.data as DesignRecord });
   }
   const devices: LoadedDevice[] = [];
-  for (const file of await listJson(root, "designs/devices")) {
+  const deviceFiles = await listJson(root, "designs/devices");
+  issues.push(...deviceFiles.issues);
+  for (const file of deviceFiles.files) {
     const parsed = await readValid(file, vDevice);
     if (parsed) devices.push(...deviceEntries(parsed));
   }
   const policyFile = options.policy ?? DEFAULT_POLICY;
   const policyParsed = await readValid(policyFile, vPolicy);
+
+  // Text a reader must see, and ids that become file names (the schema cannot say either).
+  for (const d of designs) {
+    const notes = (d.record.notes ?? []).map((_, i) => `/notes/${i}`);
+    issues.push(...checkRecordText(d.parsed, ["/title", "/summary", "/use", ...notes], "/id"));
+  }
+  for (const d of devices) issues.push(...checkRecordText(d.parsed, [`${d.pointer}/title`, `${d.pointer}/package`], `${d.pointer}/id`));
+  if (policyParsed) issues.push(...checkRecordText(policyParsed, ["/title", "/document"], "/id"));
+  // Device data the engine and the model cards rely on.
+  for (const d of devices) issues.push(...checkDeviceData(d));
 
   issues.push(...checkDuplicateIds(devices, (d) => ({ id: d.device.id, parsed: d.parsed, pointer: `${d.pointer}/id` }), "device class"));
   const library = new Map<string, DeviceClass>();
@@ -58,6 +77,7 @@ export async function loadProject(root: string, options: LoadOptions = {}): Prom
   for (const d of designs) {
     issues.push(...checkFileName(d.parsed, d.record.id, "/id"), ...checkTargets(d), ...checkBindings(d, library));
   }
+  issues.push(...checkDefaults(designs, devices, library));
 
   if (issues.length > 0 || !policyParsed) return { ok: false, issues: sortIssues(uniqueIssues(issues)) };
   return {

@@ -1,7 +1,8 @@
 /**
  * A strict JSON (RFC 8259) recognizer that runs before the value is built. It finds what a plain
  * parser reports badly or lets through: comments, trailing commas, nesting deeper than
- * MAX_DEPTH, keys that could reach an object's prototype, and numbers too large for a double.
+ * MAX_DEPTH, keys that could reach an object's prototype, repeated member names, numbers too
+ * large for a double, and characters that cannot be shown safely (see `refusal`).
  * It builds nothing, so nothing can be polluted; json-source-map builds the value afterwards.
  */
 import { LineIndex } from "./position.ts";
@@ -60,6 +61,7 @@ export function scanJson(file: string, text: string): RecordIssue[] {
     ws();
     if (text[pos] === "}") { pos++; return; }
     let comma = -1;
+    const seen = new Map<string, number>();
     for (;;) {
       ws();
       if (text[pos] === "}") fatal(comma, ptr, "trailing comma before }", "remove the comma after the last member");
@@ -70,6 +72,13 @@ export function scanJson(file: string, text: string): RecordIssue[] {
       if (FORBIDDEN_KEYS.has(key)) {
         report(keyAt, child, `the member name "${key}" is not allowed (it could alter object prototypes)`, "remove or rename this member");
       }
+      // RFC 8259 §4: names SHOULD be unique; readers differ on which repeat wins, so a reviewer
+      // could read one value while the build uses another. Refuse, naming both places.
+      const first = seen.get(key);
+      if (first !== undefined) {
+        report(keyAt, child, `the member "${key}" appears twice in this object (first on line ${lines.at(first).line})`,
+          "keep one of them and delete the other");
+      } else seen.set(key, keyAt);
       ws();
       if (text[pos] !== ":") unexpected(child, `":" after the member name`);
       pos++;
@@ -103,7 +112,18 @@ export function scanJson(file: string, text: string): RecordIssue[] {
    * as character references, and they break HTML parsing and spreadsheet cells. Refuse them here.
    */
   const controlEscape = (at: number, ptr: string, code: number): void =>
-    report(at, ptr, `the text holds the control character U+${code.toString(16).toUpperCase().padStart(4, "0")}`, "remove it; only tab and line breaks are allowed in text");
+    report(at, ptr, `the text holds the control character ${uplus(code)}`, "remove it; only tab and line breaks are allowed in text");
+  /** Refuses a code point that cannot be shown safely, escaped or written directly (see `refusal`). */
+  const refuseCodePoint = (at: number, ptr: string, cp: number): void => {
+    const why = refusal(cp);
+    if (why === "control") controlEscape(at, ptr, cp);
+    else if (why === "noncharacter") {
+      report(at, ptr, `the text holds the non-character ${uplus(cp)}`, "remove it: Unicode non-characters are not for interchange and XML (SVG) forbids U+FFFE and U+FFFF");
+    } else if (why === "bidi") {
+      report(at, ptr, `the text holds the bidirectional control ${uplus(cp)}, which can make it display in a different order from what it says`,
+        "remove it; right-to-left words display correctly without embedding, override or isolate controls");
+    }
+  };
 
   /** Reads a string token and returns its decoded value. */
   function string(ptr: string): string {
@@ -120,7 +140,17 @@ export function scanJson(file: string, text: string): RecordIssue[] {
         const simple: Record<string, string> = { '"': '"', "\\": "\\", "/": "/", b: "\b", f: "\f", n: "\n", r: "\r", t: "\t" };
         if (e === "u" && /^[0-9a-fA-F]{4}$/.test(text.slice(pos + 2, pos + 6))) {
           const code = parseInt(text.slice(pos + 2, pos + 6), 16);
-          if (unshowable(code)) controlEscape(pos, ptr, code);
+          const low = /^\\u[dD][c-fC-F][0-9a-fA-F]{2}$/.test(text.slice(pos + 6, pos + 12)) ? parseInt(text.slice(pos + 8, pos + 12), 16) : -1;
+          if (code >= 0xd800 && code <= 0xdbff && low >= 0) {
+            // An escaped surrogate pair: one supplementary character.
+            refuseCodePoint(pos, ptr, 0x10000 + ((code - 0xd800) << 10) + (low - 0xdc00));
+            out += String.fromCharCode(code, low);
+            pos += 12;
+            continue;
+          }
+          if (code >= 0xd800 && code <= 0xdfff) {
+            report(pos, ptr, `the escape \\u${text.slice(pos + 2, pos + 6)} is half of a surrogate pair, alone`, "write the whole character, or both halves of its pair");
+          } else refuseCodePoint(pos, ptr, code);
           out += String.fromCharCode(code);
           pos += 6;
         } else if (Object.hasOwn(simple, e)) {
@@ -128,7 +158,14 @@ export function scanJson(file: string, text: string): RecordIssue[] {
           out += simple[e] ?? "";
           pos += 2;
         } else fatal(pos, ptr, `invalid escape ${show("\\" + e)} in a string`, 'use one of \\" \\\\ \\/ \\b \\f \\n \\r \\t \\uXXXX');
-      } else { out += c; pos++; }
+      } else {
+        // Written directly (not escaped): the same characters are refused.
+        const cp = text.codePointAt(pos) ?? 0;
+        refuseCodePoint(pos, ptr, cp);
+        const n = cp > 0xffff ? 2 : 1;
+        out += text.slice(pos, pos + n);
+        pos += n;
+      }
     }
   }
 
@@ -151,8 +188,27 @@ export function scanJson(file: string, text: string): RecordIssue[] {
   return issues;
 }
 
-function unshowable(code: number): boolean {
-  return (code < 0x20 && code !== 9 && code !== 10 && code !== 13) || (code >= 0x7f && code <= 0x9f) || code === 0xfffe || code === 0xffff;
+/**
+ * Why a code point is refused in record text, or null when it may stay:
+ * - control: C0 controls but tab, line feed and carriage return; DEL and the C1 controls
+ *   U+0080–U+009F (The Unicode Standard, §23.1) — XML 1.0 §2.2 discourages or forbids them, and
+ *   they break HTML parsing and spreadsheet cells;
+ * - noncharacter: U+FDD0–U+FDEF and the last two code points of every plane (The Unicode
+ *   Standard, §23.7); XML 1.0 §2.2 Char excludes U+FFFE and U+FFFF, so an SVG holding them is
+ *   not well-formed;
+ * - bidi: the embedding, override and isolate controls U+202A–U+202E and U+2066–U+2069
+ *   (Unicode Standard Annex #9), which can reorder what a reviewer sees (Unicode Technical
+ *   Standard #39 and the "Trojan Source" class of attacks).
+ */
+export function refusal(cp: number): "control" | "noncharacter" | "bidi" | null {
+  if ((cp < 0x20 && cp !== 9 && cp !== 10 && cp !== 13) || (cp >= 0x7f && cp <= 0x9f)) return "control";
+  if ((cp >= 0xfdd0 && cp <= 0xfdef) || (cp & 0xfffe) === 0xfffe) return "noncharacter";
+  if ((cp >= 0x202a && cp <= 0x202e) || (cp >= 0x2066 && cp <= 0x2069)) return "bidi";
+  return null;
+}
+
+function uplus(cp: number): string {
+  return `U+${cp.toString(16).toUpperCase().padStart(4, "0")}`;
 }
 
 function show(s: string): string {

@@ -4,8 +4,9 @@
  */
 import { PIN_NAMES, type Part } from "../model/circuit.ts";
 import { checkNet, checkRef } from "./netlist-text.ts";
-import { LED_STRING_IS_A } from "../engine/shared/junction.ts";
-import { spiceModelName, spiceNum, timingModelName, VT_27C_V } from "./spice-num.ts";
+import { ledStringLaw } from "../engine/shared/diode.ts";
+import { NOMINAL_TEMP_C } from "../engine/shared/temperature.ts";
+import { spiceModelName, spiceNum, timingModelName } from "./spice-num.ts";
 import { EngineMisuseError } from "../model/errors.ts";
 
 /** Fuse stand-in when the part gives no resistance: a few tens of mΩ (common practice, from memory). */
@@ -89,17 +90,16 @@ export function elementLines(p: Part, supply_V: number): ElementOut {
     case "led-strip": {
       const vf = p.spice?.vf_V;
       if (vf === undefined || !(vf > 0)) throw new EngineMisuseError(`netlist: LED strip ${ref} needs spice.vf_V > 0`);
-      // The engine may give the string's own diode law (spice.is_A, spice.n); otherwise
-      // V_F = N·V_T·ln(I/IS) at the rated current: one diode stands in for the whole string.
-      const law = p.spice;
-      const given = law?.is_A !== undefined && law.n !== undefined && law.is_A > 0 && law.n > 0;
+      // The engine may give the string's own diode law (spice.is_A, spice.n); otherwise the
+      // shared LED-string law (src/engine/shared/diode.ts) through V_F at the rated current: one
+      // diode stands in for the whole string.
+      const given = p.spice?.is_A !== undefined && p.spice.n !== undefined && p.spice.is_A > 0 && p.spice.n > 0;
       const i_A = p.stress.current_A ?? p.rating.current_A ?? p.value / supply_V;
-      const is_A = given ? law.is_A! : LED_STRING_IS_A;
-      const nEm = given ? law.n! : vf / (VT_27C_V * Math.log(i_A / LED_STRING_IS_A));
+      const law = given ? { is_A: p.spice!.is_A!, n: p.spice!.n! } : ledStringLaw(vf, i_A);
       const model = `LEDSTR_${ref}`;
       return {
         lines: [`D${ref} ${n[0]} ${inner} ${model}`, `R${ref} ${inner} ${n[1]} ${v(loadR(p), "r_ohm")}`],
-        models: [`.model ${model} D(IS=${v(is_A, "IS")} N=${v(nEm, "N")} RS=0)`],
+        models: [`.model ${model} D(IS=${v(law.is_A, "IS")} N=${v(law.n, "N")} RS=0 TNOM=${v(NOMINAL_TEMP_C, "TNOM")})`],
       };
     }
   }

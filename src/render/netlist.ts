@@ -12,6 +12,7 @@ import { checkNet, commentLines } from "./netlist-text.ts";
 import { spiceModel } from "./spice-models.ts";
 import { spiceNum } from "./spice-num.ts";
 import { EngineMisuseError } from "../model/errors.ts";
+import { NOMINAL_TEMP_C } from "../engine/shared/temperature.ts";
 
 export interface NetlistMeta {
   id: string;
@@ -95,6 +96,9 @@ export function renderNetlist(circuit: CircuitModel, meta: NetlistMeta): string 
   const hasCore = circuit.nets.includes("ca") && circuit.nets.includes("cb");
   if (hasCore) out.push(`.ic v(ca)=${spiceNum(meta.supply_V, "ic")} v(cb)=0`);
   out.push(
+    // The simulator runs at the nominal temperature the pages and the predictions speak of; every
+    // card states TNOM equal to it, so no parameter is scaled (src/engine/shared/temperature.ts).
+    `.temp ${spiceNum(NOMINAL_TEMP_C, "temp")}`,
     // Gear integration (trapezoidal rings on switching circuits); tighter absolute current and
     // voltage tolerances than the defaults, so the netlist runs as published in batch ngspice and
     // its WebAssembly build without "timestep too small" at the switching edges.

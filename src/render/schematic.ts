@@ -1,6 +1,6 @@
 /**
  * Schematic SVG of a circuit model, drawn at build time with svg.js on svgdom. Symbols after
- * IEC 60617 / IEEE Std 315 (src/render/symbols/), placement by stage and role
+ * IEC 60617 / IEEE Std 315 [src:iec-60617] [src:ieee-315] (src/render/symbols/), placement by stage and role
  * (schematic-layout.ts), orthogonal wiring by net (schematic-route.ts). Each drawn part carries
  * `data-ref` and `data-pins` ("pin=net ..."), each wire `data-net`, so tests can read them back.
  */

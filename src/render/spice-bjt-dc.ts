@@ -7,9 +7,12 @@
  *   I_C = (I_f − I_r)/q_b − I_r/BR,        I_B = I_f/BF + I_r/BR
  * (Gummel & Poon, Bell Syst. Tech. J. 49, 1970; SPICE2/3 form as in Antognetti & Massobrio,
  * Semiconductor Device Modeling with SPICE, 2nd ed., ch. 2 — from memory; no leakage terms).
- * Magnitudes only: a PNP is the same with every sign flipped.
+ * [src:gummel-poon-1970] [src:antognetti-massobrio-2e]
+ * Magnitudes only: a PNP is the same with every sign flipped. V_T at the nominal temperature: the
+ * cards carry TNOM = the netlist's `.temp` (src/engine/shared/temperature.ts).
  */
-import { VT_27C_V } from "./spice-num.ts";
+import { findRoot } from "../engine/shared/root.ts";
+import { VT_NOMINAL_V } from "../engine/shared/temperature.ts";
 
 export interface GpParams {
   is_A: number;
@@ -37,8 +40,9 @@ export interface SatPointDc {
 }
 
 function collectorCurrent(p: GpParams, if_A: number, ib_A: number): { ic: number; ir: number; vbc: number } {
-  const ir = p.br * (ib_A - if_A / p.bf);
-  const vbc = p.nr * VT_27C_V * Math.log1p(ir / p.is_A);
+  // I_r ≥ 0 on the bracket; at its top end (I_f = BF·I_B) rounding could leave it a hair below 0.
+  const ir = Math.max(0, p.br * (ib_A - if_A / p.bf));
+  const vbc = p.nr * VT_NOMINAL_V * Math.log1p(ir / p.is_A);
   const q1 = 1 / (1 - vbc / p.vaf_V);
   const qb = (q1 / 2) * (1 + Math.sqrt(1 + (4 * if_A) / p.ikf_A));
   return { ic: (if_A - ir) / qb - ir / p.br, ir, vbc };
@@ -49,18 +53,12 @@ function collectorCurrent(p: GpParams, if_A: number, ib_A: number): { ic: number
  * current is below the forced gain, so I_C cannot be reached with I_B).
  */
 export function satPoint(p: GpParams, ic_A: number, ib_A: number): SatPointDc | null {
-  let hi = p.bf * ib_A; // I_r = 0: the edge of saturation
+  const hi = p.bf * ib_A; // I_r = 0: the edge of saturation
   if (collectorCurrent(p, hi, ib_A).ic <= ic_A) return null;
-  let lo = 0; // I_r = BR·I_B: I_C < 0
-  // I_C rises monotonically with I_f on (0, BF·I_B); bisection to double precision.
-  for (let k = 0; k < 200 && hi - lo > 1e-15 * hi; k++) {
-    const mid = (lo + hi) / 2;
-    if (collectorCurrent(p, mid, ib_A).ic < ic_A) lo = mid;
-    else hi = mid;
-  }
-  const if_A = (lo + hi) / 2;
+  // I_C rises monotonically with I_f on (0, BF·I_B) (at I_f = 0, I_r = BR·I_B and I_C < 0): one root.
+  const if_A = findRoot((x) => collectorCurrent(p, x, ib_A).ic - ic_A, 0, hi, { xTolRel: 1e-15, what: "satPoint" });
   const { ir, vbc } = collectorCurrent(p, if_A, ib_A);
-  const vbe = p.nf * VT_27C_V * Math.log1p(if_A / p.is_A);
+  const vbe = p.nf * VT_NOMINAL_V * Math.log1p(if_A / p.is_A);
   const ie_A = ic_A + ib_A;
   return {
     if_A, ir_A: ir, vbeInt_V: vbe, vbcInt_V: vbc,

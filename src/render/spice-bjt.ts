@@ -9,8 +9,10 @@
  */
 import type { BjtClass } from "../model/device.ts";
 import { type GpParams, satPoint } from "./spice-bjt-dc.ts";
-import { fit2, type Row } from "./spice-fit.ts";
-import { VT_27C_V } from "./spice-num.ts";
+import { fit2, type Row } from "../engine/shared/least-squares.ts";
+import { diodeSaturationCurrent_A } from "../engine/shared/diode.ts";
+import { vbeRefCurrent_A } from "../engine/shared/gain.ts";
+import { VT_NOMINAL_V } from "../engine/shared/temperature.ts";
 
 /** Early voltage, V (common practice for small discretes, from memory). */
 export const BJT_VAF_V = 100;
@@ -26,9 +28,9 @@ export interface BjtFit {
   skipped: { ic_A: number; ib_A: number }[];
 }
 
-/** IS that gives the typical V_BE(on) at I_ref = I_C(max)/10 (ideal diode law). */
+/** IS that gives the typical V_BE(on) at I_ref (the diode law, N = 1, no RS: src/engine/shared/diode.ts). */
 export function isTypical_A(dev: BjtClass): number {
-  return dev.ic_max_A / 10 / Math.exp(dev.vbe_on_V / VT_27C_V);
+  return diodeSaturationCurrent_A(dev.vbe_on_V, vbeRefCurrent_A(dev), 1, 0);
 }
 
 /**
@@ -46,19 +48,19 @@ export function fitBjt(dev: BjtClass, bf: number, junction: "worst" | "typical" 
   for (let pass = 0; pass < 3 && usable.length > 0; pass++) {
     const pts = usable.map((s) => ({ s, dc: satPoint(p, s.ic_A, s.ib_A)! }));
     const vbeRows: Row[] = pts.filter(({ s }) => s.vbe_sat_V !== undefined).map(({ s, dc }) => ({
-      a: 1, b: s.ib_A, c: VT_27C_V * Math.log1p(dc.if_A / isTyp), y: s.vbe_sat_V!, w: 1 / s.vbe_sat_V! ** 2,
+      a: 1, b: s.ib_A, c: VT_NOMINAL_V * Math.log1p(dc.if_A / isTyp), y: s.vbe_sat_V!, w: 1 / s.vbe_sat_V! ** 2,
     }));
     if (vbeRows.length > 0) {
       // One point cannot separate junction from base resistance: put it all in the junction, so
       // V_BE holds (the engine does not grow V_BE(sat) beyond a single point either).
       const fixed = { lo: 0, hi: 0 };
       const [delta, rb] = junction === "typical" ? [0, 0] : fit2(vbeRows, DELTA_VBE, vbeRows.length === 1 ? fixed : RB_OHM);
-      p.is_A = isTyp * Math.exp(-delta / VT_27C_V);
+      p.is_A = isTyp * Math.exp(-delta / VT_NOMINAL_V);
       p.rb_ohm = rb;
     }
     const vceRows: Row[] = usable.map((s) => {
       const dc = satPoint(p, s.ic_A, s.ib_A)!;
-      return { a: -VT_27C_V * Math.log1p(dc.ir_A / p.is_A), b: s.ic_A, c: dc.vbeInt_V, y: s.vce_sat_V, w: 1 / s.vce_sat_V ** 2 };
+      return { a: -VT_NOMINAL_V * Math.log1p(dc.ir_A / p.is_A), b: s.ic_A, c: dc.vbeInt_V, y: s.vce_sat_V, w: 1 / s.vce_sat_V ** 2 };
     });
     const [nr, rc] = fit2(vceRows, NR, RC_OHM);
     p.nr = nr;

@@ -17,9 +17,6 @@ export function spiceModelName(deviceId: string): string {
   return deviceId.toUpperCase().replace(/[^A-Z0-9]/g, "_");
 }
 
-/** Thermal voltage kT/q at SPICE's nominal temperature TNOM = 27 °C (300.15 K). */
-export { VT_27C_V } from "../engine/shared/junction.ts";
-
 /** Card name of a timing-core transistor's class (typical junction: spice-bjt.ts fitBjt). */
 export function timingModelName(id: string): string {
   return `${spiceModelName(id)}_T`;

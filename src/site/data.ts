@@ -5,6 +5,7 @@ import { designPage } from "./paths.ts";
 import { chooserView, type ChooserView } from "./view-chooser.ts";
 import { compareTables, type CompareTable } from "./view-compare.ts";
 import { sizeOwnView, type SizeOwnView } from "./view-size-own.ts";
+import { sourcesView, type SourcesView } from "./bibliography.ts";
 
 /** A design page: the design view plus the chain comparison and the "size your own" form. */
 export type DesignPageView = DesignView & { compare: CompareTable[]; syo: SizeOwnView | null };
@@ -37,6 +38,8 @@ export interface SiteView {
   home: HomeView;
   designs: DesignPageView[];
   variants: VariantView[];
+  /** The one sources page every citation links to. */
+  sources: SourcesView;
 }
 
 export function buildSiteView(cat: BuiltCatalogue): SiteView {
@@ -65,5 +68,6 @@ export function buildSiteView(cat: BuiltCatalogue): SiteView {
     home,
     designs: cat.designs.map((d) => ({ ...designView(d), compare: compareTables(d), syo: sizeOwnView(cat, d) })),
     variants: cat.designs.flatMap((d) => d.variants.map((v) => variantView(v, d, cat))),
+    sources: sourcesView(),
   };
 }

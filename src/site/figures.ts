@@ -1,3 +1,4 @@
+import { SOURCES, sourceUrl } from "../engine/shared/sources.ts";
 import type { Figure } from "../model/figure.ts";
 import { formatPercent, formatValue } from "../model/format.ts";
 import { KEY_FIGURES } from "../model/sized.ts";
@@ -24,7 +25,10 @@ export interface FigureRow {
   text: string;
   range: string; // "" when the figure has no worst-case range
   formula: string;
+  /** Bibliography key, its short citation, and its anchor on the sources page (root-relative). */
   source: string;
+  sourceTitle: string;
+  sourceUrl: string;
   confidence: string;
   stage: string;
   key_figure: boolean;
@@ -55,6 +59,8 @@ export function figureRow(f: Figure): FigureRow {
     range: f.range ? `${displayNumber(f.range[0], f.unit, f.key)} … ${displayNumber(f.range[1], f.unit, f.key)}` : "",
     formula: f.formula,
     source: f.source,
+    sourceTitle: SOURCES[f.source].short,
+    sourceUrl: sourceUrl(f.source),
     confidence: confidenceWord(f.confidence),
     stage: f.stage,
     key_figure: (KEY_FIGURES as readonly string[]).includes(f.key),

@@ -1,3 +1,4 @@
+import { SOURCES, sourceUrl } from "../engine/shared/sources.ts";
 import type { Part, PartRating, PartStress } from "../model/circuit.ts";
 import type { StressCheck } from "../model/derating.ts";
 import { formatPercent, formatValue } from "../model/format.ts";
@@ -52,7 +53,11 @@ export interface CheckRow {
   symbol: string;
   word: string;
   cls: string;
+  /** Bibliography key, its short citation, its anchor on the sources page, and the rule in words. */
   source: string;
+  sourceTitle: string;
+  sourceUrl: string;
+  note: string;
 }
 
 export function checkRow(c: StressCheck): CheckRow {
@@ -68,5 +73,8 @@ export function checkRow(c: StressCheck): CheckRow {
     word: w.word,
     cls: w.cls,
     source: c.source,
+    sourceTitle: SOURCES[c.source].short,
+    sourceUrl: sourceUrl(c.source),
+    note: c.note ?? "",
   };
 }

@@ -71,5 +71,5 @@ export async function writeSite(cat: BuiltCatalogue, outDir: string, opts: Write
   if (opts.quiet ?? true) eleventy.disableLogger();
   await eleventy.write();
   await writeSiteFiles(cat, out);
-  return { pages: 1 + view.designs.length + view.variants.length, files: await countFiles(out) };
+  return { pages: 2 + view.designs.length + view.variants.length, files: await countFiles(out) };
 }

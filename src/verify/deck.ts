@@ -27,7 +27,7 @@ export interface DeckOptions {
 
 /**
  * Replaces any analysis line with ours. Gear integration: ngspice's default trapezoidal rule rings
- * point-to-point on switching circuits (TOOLCHAIN.md). Without the nudge a near-symmetric
+ * point-to-point on switching circuits (docs/verification.md). Without the nudge a near-symmetric
  * multivibrator can sit at its balanced operating point for a while before it starts.
  */
 export function simDeck(netlist: string, o: DeckOptions): string {

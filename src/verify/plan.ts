@@ -13,7 +13,7 @@ import type { VerifyTarget } from "./target.ts";
 import { SpiceRunError } from "../model/errors.ts";
 
 /** Bumped whenever measurement code changes what it reports: part of every cache key. */
-export const MEASURE_CODE_VERSION = "verify-measure-8";
+export const MEASURE_CODE_VERSION = "verify-measure-9";
 
 export type Measured =
   | { ok: true; measurements: Measurement[]; waveforms?: WaveformSet; elapsed_s: number }
@@ -79,6 +79,7 @@ function collect(target: VerifyTarget, low: Run, mid: Run, high: Run): { measure
   const level = Math.max(0, ...[low, mid, high].map((r) => r.retryLevel ?? 0));
   if (level > 0) put("solver_retry_level", "Highest solver retry used (1 looser tolerances, 2 stiff-circuit settings)", "", level);
   put("timing_from_gate", "Load on/off timed at the switch's gate (1) or at the switched node / load current (0)", "", mid.gate !== undefined ? 1 : 0);
+  if (mid.base !== undefined) put("on_needs_base", "Load on only while the BJT switch's base is past cut-in (1)", "", 1);
   if (target.inductive) put("switch_peak_voltage", "Peak switch voltage at turn-off", "V", peakAfter(high.t, vSw, high.from_s));
   return { measurements: out, waveforms: plotWaveforms(target, mid, tMid) };
 }

@@ -6,7 +6,8 @@ import type { SimResult, SpiceEngine } from "./engines/types.ts";
 import { pwmTiming, type PwmTiming } from "./edges.ts";
 import { timeAverage, upperLevel } from "./signal.ts";
 import { transistorElement, type VerifyTarget } from "./target.ts";
-import { gateDrive, gateProbe, type GateProbe } from "./gate.ts";
+import { baseProbe, gateDrive, gateProbe, type BaseProbe, type GateProbe } from "./gate.ts";
+import { VT_NOMINAL_V } from "../engine/shared/temperature.ts";
 import { SpiceRunError } from "../model/errors.ts";
 
 /**
@@ -48,6 +49,8 @@ export interface Run {
   retryLevel?: number;
   /** MOSFET power switch with an inductive load: its gate, whose vectors were saved (gate.ts). */
   gate?: GateProbe;
+  /** BJT power switch with an inductive load: its output stage's base, whose vectors were saved (gate.ts). */
+  base?: BaseProbe;
 }
 
 /**
@@ -84,7 +87,9 @@ export async function runAt(target: VerifyTarget, netlist: string, engine: Spice
   const elements = target.powerRefs.map((r) => transistorElement(netlist, r));
   const powerVectors = elements.every((e) => e !== null) ? elements.map((e) => `@${e}[p]`) : [];
   const gate = target.inductive && elements.length === 1 && elements[0] ? gateProbe(netlist, elements[0]) : null;
-  const gateNets = gate === null ? [] : [gate.gateNet, gate.sourceNet].filter((n) => n !== "0");
+  // The netlist runs at `.temp` = the nominal temperature, so the card's V_T is the nominal one.
+  const baseQ = target.inductive && gate === null && elements.every((e) => e !== null) ? baseProbe(netlist, elements as string[], VT_NOMINAL_V) : null;
+  const gateNets = [...(gate === null ? [] : [gate.gateNet, gate.sourceNet]), ...(baseQ === null ? [] : [baseQ.baseNet, baseQ.emitterNet])].filter((n) => n !== "0");
   const nets = ["vbus", target.tapNet, target.otherNet, target.chainInputNet, target.switchNet, "ls", ...gateNets];
   const vectors = [...new Set(nets)].map((n) => `v(${n})`).concat("i(vsense)", powerVectors);
   const tMax_s = target.period_s / plan.stepsPerPeriod;
@@ -110,7 +115,7 @@ export async function runAt(target: VerifyTarget, netlist: string, engine: Spice
   const from_s = Math.min(settle_s, 0.8 * tEnd_s);
   const vbus = res.vectors["v(vbus)"]!;
   return { ctrl, t: res.t_s, v: res.vectors, from_s, tEnd_s, vbus_V: timeAverage(res.t_s, vbus, from_s, tEnd_s), powerVectors, retried,
-    ...(retried ? { retryLevel } : {}), ...(gate !== null ? { gate } : {}) };
+    ...(retried ? { retryLevel } : {}), ...(gate !== null ? { gate } : {}), ...(baseQ !== null ? { base: baseQ } : {}) };
 }
 
 export function vec(run: Run, name: string): Float64Array {
@@ -167,6 +172,14 @@ export function loadTiming(target: VerifyTarget, run: Run, onCurrent_A: number):
   if (target.inductive) {
     const level = switchLevel(target, run.vbus_V);
     const s = switchVoltage(target, run).map((x) => 2 * level - x); // high while the switch is on
+    if (run.base !== undefined) {
+      // A BJT switch is on only while its output stage's base is past cut-in (gate.ts baseProbe):
+      // the switched node times the edges, the base rules out the winding's ring.
+      const b = run.base;
+      const vb = vec(run, `v(${b.baseNet})`);
+      const ve = b.emitterNet === "0" ? null : vec(run, `v(${b.emitterNet})`);
+      for (let k = 0; k < s.length; k++) if (b.sign * (vb[k]! - (ve === null ? 0 : ve[k]!)) < b.cutIn_V) s[k] = Math.min(s[k]!, 0);
+    }
     return pwmTiming(run.t, s, level, { hyst: 0.1 * level, from_s: run.from_s, minPulse_s: MIN_PULSE_PERIODS * target.period_s });
   }
   const level = onCurrent_A / 2;

@@ -42,8 +42,8 @@ export interface SpecOpts {
 
 /**
  * A high-gain small-signal NPN (BC547 group C class, TO-92): h_FE 420–800 at 2 mA, 5 V and
- * V_CEO 45 V, V_EBO 6 V, I_C 100 mA (later sheets) are registered data (SOURCES.md table, "seen in
- * reproductions"); the other gain points, saturation and switching values are typical, from memory.
+ * V_CEO 45 V, V_EBO 6 V, I_C 100 mA (later sheets) are registered data ("seen in reproductions",
+ * [src:pro-electron-registered]); the other gain points, saturation and switching values are typical, from memory.
  * Local to the tests until the device library carries such a class.
  */
 export const NPN_HIGH_GAIN: BjtClass = {
@@ -53,7 +53,10 @@ export const NPN_HIGH_GAIN: BjtClass = {
   hfe_tempco_perK: 0.005,
   vce_sat: [{ ic_A: 0.01, ib_A: 0.0005, vce_sat_V: 0.25, vbe_sat_V: 0.85 }, { ic_A: 0.1, ib_A: 0.005, vce_sat_V: 0.6, vbe_sat_V: 1.0 }],
   vbe_on_V: 0.66, t_rise_s: 5e-8, t_fall_s: 8e-8, t_storage_s: 3e-7, ft_Hz: 3e8,
-  sources: { vceo_V: { source: "registered data, BC547 (SOURCES.md)", confidence: "registered" }, hfe: { source: "BC547 group C 420–800 @ 2 mA registered; other points from memory", confidence: "from-memory" } },
+  sources: {
+    vceo_V: { source: "pro-electron-registered", note: "BC547", confidence: "registered" },
+    hfe: { source: "pro-electron-registered", note: "BC547 group C 420–800 @ 2 mA registered; other points from memory", confidence: "from-memory" },
+  },
 };
 
 export function makeSpec(o: SpecOpts): VariantSpec {

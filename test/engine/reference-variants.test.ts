@@ -1,9 +1,9 @@
 /**
  * Reference variants, worked by hand. Device data: designs/devices/*.json (registered data where
- * SOURCES.md lists it, else typical values from memory); policy: designs/policies/default.json.
+ * docs/sources.md lists it, else typical values from memory); policy: designs/policies/default.json.
  * The timing core uses a high-gain small-signal class (BC547C class, test/engine/fixtures.ts): the
  * 2N3904-class minimum gain cannot hold k ≥ 2 over a 10–90 % pot range (see docs/method.md).
- * Relations: ENGINEERING.md / docs/method.md; each assertion names its source.
+ * Relations: docs/method.md; each assertion names its source.
  */
 import type { BjtClass } from "../../src/model/device.ts";
 import { describe, expect, it } from "vitest";
@@ -44,7 +44,7 @@ describe("R1 — 12 V 0.5 A bjt-single, resistive (1 kHz): the timing core canno
 
 describe("R2 — 24 V 2 A darlington-2, motor (15 kHz): too slow to turn off for the duty range", () => {
   const s = size({ supply_V: 24, load_A: 2, chain: "darlington-2", load_kind: "motor", pwm_Hz: 15000 });
-  it("nominal stack voltage V_CE(sat),1 + V_BE,2 in the active region (ENGINEERING.md §3, common practice)", () => {
+  it("nominal stack voltage V_CE(sat),1 + V_BE,2 in the active region [src:common-practice]", () => {
     // 2 A, 25 °C: β2 = 30·(2/0.3)^−0.30103 = 16.95 → I_B2 = 0.118 A; R_BE bleed 0.75/47 = 16 mA;
     // Q_D1 carries ≈ 0.13 A, below its lowest saturation point: the nominal line through (1 A, 0.4 V),
     // (6 A, 1.5 V) gives 0.18 + 0.22·0.13 ≈ 0.209 V (sat-nominal.ts). Q_D2 is a follower at
@@ -61,9 +61,13 @@ describe("R2 — 24 V 2 A darlington-2, motor (15 kHz): too slow to turn off for
     // V_sw,nom ≈ 1.454 V checked above.
     expectClose(fig(s, "load_current_on"), 2, 1e-12, "constant-torque load at rated current");
     const d = fig(s, "duty_max");
-    const fw = s.spec.devices.freewheel_diode as { vf_V: number; vf_at_A: number };
-    // class law: V_F,max at its test current, −0.1 V/decade below it, −2 mV/K (from memory), 27 °C
-    const vF = fw.vf_V - 0.1 * Math.max(0, Math.log10(fw.vf_at_A / 2)) - 0.002 * 2;
+    const fw = s.spec.devices.freewheel_diode as { vf_V: number; vf_at_A: number; recovery: string };
+    // class law at 25 °C (Shockley with RS, as the diode card): through V_F,max at its test current,
+    // RS = 0.1·V_F/I_F, N 1.9 standard / 1.8 fast / 1.05 Schottky (from memory), so at 2 A
+    // V_F = V_F,max − RS·(I_F − 2) − N·V_T·ln(I_F/2) (the −1 of the exponential is e^−30 here).
+    const n = { standard: 1.9, fast: 1.8, ultrafast: 1.8, schottky: 1.05 }[fw.recovery]!;
+    const rs = (0.1 * fw.vf_V) / fw.vf_at_A;
+    const vF = fw.vf_V - rs * (fw.vf_at_A - 2) - n * ((1.380649e-23 * 298.15) / 1.602176634e-19) * Math.log(fw.vf_at_A / 2);
     const e = d * (24 - fig(s, "switch_on_voltage")) - (1 - d) * vF - 6;
     expectClose(part(s, "LOAD").spice!.vf_V!, e, 1e-9);
     expect(e).toBeGreaterThan(8); // ≈ 0.85·22.55 − 0.15·0.5 − 6 ≈ 13.1 V: not starved
@@ -108,7 +112,7 @@ describe("R3 — 12 V 5 A darlington-3, heater (200 Hz, 25–75 %), design accep
     return sizeVariant({ ...spec, targets: { ...spec.targets, heatsink_min_KperW: 5 } });
   };
   const d3 = mk("darlington-3");
-  it("nominal stack voltage V_CE(sat),1 + V_BE,2 + V_BE,3 ≈ 2.82 V (ENGINEERING.md §3)", () => {
+  it("nominal stack voltage V_CE(sat),1 + V_BE,2 + V_BE,3 ≈ 2.82 V [src:common-practice]", () => {
     // 5 A, 25 °C: β3 (TO-3 class, (4 A, 20)→(10 A, 5)) = 20·1.25^−1.5129 = 14.27 → I_B3 = 0.350 A;
     // bleed 0.85/16 = 53 mA → I_E2 = 0.403 A, β2 = 30·(0.403/0.3)^−0.30103 = 27.45 → I_C2 = 0.389 A,
     // I_B2 = 14.2 mA. Followers in the active region (diode law + base resistance, vbe-nominal.ts):
@@ -157,7 +161,7 @@ describe("R4 — 24 V 3 A mosfet-driver, LED strip (3 kHz)", () => {
     // 18/29.066 = 0.6193 V. At 3.04 A: 6.08 + 0.6193·ln(3.04e12) = 6.08 + 0.6193·28.743 = 23.88 V ✓.
     const law = part(s, "LOAD").spice!;
     expectClose(law.is_A!, 1e-12, 1e-12);
-    expectClose(law.n! * (1.380649e-23 * 300.15 / 1.602176634e-19), 18 / Math.log(4.2e12), 1e-9, "V_T at 27 °C, CODATA constants");
+    expectClose(law.n! * (1.380649e-23 * 298.15 / 1.602176634e-19), 18 / Math.log1p(4.2e12), 1e-9, "V_T at 25 °C, CODATA constants");
     // With V_sw = 0.107 V: at 3.046 A, 6.092 + 0.6193·ln(3.046e12) = 6.092 + 0.6193·28.745 = 23.894 V ✓ (24 − 0.107 = 23.893).
     expectClose(fig(s, "load_current_on"), 3.046, 2e-3, "hand solution above");
   });

@@ -4,7 +4,7 @@
  * way a build builds them (expandDesign + chooseDevices, the repository's device library and
  * derating policy). Properties, not snapshots: the engine's numbers are still being tuned.
  * Physical relations used: conduction loss grows with current (P = I·V_sat·D or I²·R·D), and
- * off-state voltage stress follows the supply (common practice; ENGINEERING.md §3–4).
+ * off-state voltage stress follows the supply [src:common-practice].
  */
 import fc from "fast-check";
 import { beforeAll, describe, expect, it } from "vitest";

@@ -3,7 +3,8 @@ import { readFile } from "node:fs/promises";
 import { join } from "node:path";
 import { afterAll, describe, expect, it } from "vitest";
 import { runCheck } from "../../src/cli/check.ts";
-import { FIXTURES, cleanProjects, makeProject } from "./project.ts";
+import { CORPUS } from "../fixtures/hostile/cases.ts";
+import { FIXTURES, REPO, cleanProjects, makeProject } from "./project.ts";
 
 afterAll(cleanProjects);
 
@@ -20,11 +21,11 @@ describe("runCheck", () => {
     expect(await runCheck(root, io)).toBe(0);
     expect(io.err).toEqual([]);
     // 2 supplies × 2 currents × 2 chains × 1 load kind
-    expect(io.out).toEqual(["check passed: 1 design, 6 device classes, 8 variants would be built (policy fixture-policy from designs/policies/default.json)"]);
+    expect(io.out).toEqual(["check passed: 1 design, 16 device classes, 8 variants would be built (policy default from designs/policies/default.json)"]);
   });
 
   it("bad records: exit 1, one line per issue, then the count", async () => {
-    const files = await Promise.all(["zero-supply", "duty-reversed"].map(async (n) => ({ path: `designs/${n}.json`, content: await readFile(join(FIXTURES, "bad", `${n}.json`)) })));
+    const files = await Promise.all(["zero-supply", "duty-reversed"].map(async (n) => ({ path: `designs/${n}.json`, content: await readFile(join(CORPUS, `${n}.json`)) })));
     const io = capture();
     expect(await runCheck(await makeProject(files), io)).toBe(1);
     expect(io.err.length).toBe(3);
@@ -34,7 +35,8 @@ describe("runCheck", () => {
   });
 
   it("a policy file named by option is used and reported", async () => {
-    const root = await makeProject([{ path: "designs/policies/strict.json", content: '{ "id": "strict", "title": "Strict", "document": "test" }' }]);
+    const policy = JSON.parse(await readFile(join(REPO, "designs", "policies", "default.json"), "utf8")) as Record<string, unknown>;
+    const root = await makeProject([{ path: "designs/policies/strict.json", content: JSON.stringify({ ...policy, id: "strict", title: "Strict" }) }]);
     const io = capture();
     expect(await runCheck(root, io, { policy: "designs/policies/strict.json" })).toBe(0);
     expect(io.out[0]).toMatch(/policy strict from designs\/policies\/strict\.json/);

@@ -1,6 +1,7 @@
 /**
- * Builds throw-away project folders for loader tests: the fixture base (a tiny device library,
- * stand-in device and policy schemas) plus the real design schema under test, plus given files.
+ * Builds throw-away project folders for loader tests: the repository's schemas, device library
+ * and derating policy (the loader checks device data as the build needs it, so a stand-in library
+ * would test something else), plus the given files. No demo design unless a test adds it.
  */
 import { cp, mkdtemp, writeFile, mkdir, rm } from "node:fs/promises";
 import { tmpdir } from "node:os";
@@ -21,9 +22,10 @@ const made: string[] = [];
 export async function makeProject(files: ProjectFile[], opts: { base?: boolean } = {}): Promise<string> {
   const root = await mkdtemp(join(tmpdir(), "pulsewright-records-"));
   made.push(root);
-  if (opts.base !== false) await cp(join(FIXTURES, "base"), root, { recursive: true });
+  if (opts.base !== false) {
+    for (const dir of ["schema", "devices", "policies"]) await cp(join(REPO, "designs", dir), join(root, "designs", dir), { recursive: true });
+  }
   await mkdir(join(root, "designs", "schema"), { recursive: true });
-  await cp(join(REPO, "designs", "schema", "design.schema.json"), join(root, "designs", "schema", "design.schema.json"));
   for (const f of files) {
     await mkdir(dirname(join(root, f.path)), { recursive: true });
     await writeFile(join(root, f.path), f.content);

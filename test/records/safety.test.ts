@@ -1,27 +1,31 @@
 /**
  * Loading hostile records must never throw and never touch Object.prototype.
  */
-import { readdir, readFile } from "node:fs/promises";
+import { readFile } from "node:fs/promises";
 import { join } from "node:path";
 import { afterAll, describe, expect, it } from "vitest";
 import { loadProject } from "../../src/records/load.ts";
 import { parseRecordFile } from "../../src/records/parse.ts";
-import { FIXTURES, cleanProjects, makeProject } from "./project.ts";
+import { CASES, CORPUS } from "../fixtures/hostile/cases.ts";
+import { cleanProjects, makeProject } from "./project.ts";
+
+/** The corpus's committed design fixtures (device fixtures, generated files and links left out). */
+const DESIGN_CASES = CASES.filter((c) => c.place === undefined && c.bytes === undefined && c.kind === undefined && !c.alone);
 
 afterAll(cleanProjects);
 
 describe("loading the whole corpus at once", () => {
   it("returns issues for every bad file, never throws, and leaves Object.prototype untouched", async () => {
     const before = Object.getOwnPropertyNames(Object.prototype).sort();
-    const names = (await readdir(join(FIXTURES, "bad"))).sort();
-    const files = await Promise.all(names.map(async (n) => ({ path: `designs/${n}`, content: await readFile(join(FIXTURES, "bad", n)) })));
+    const names = DESIGN_CASES.map((c) => c.file).sort();
+    const files = await Promise.all(names.map(async (n) => ({ path: `designs/${n}`, content: await readFile(join(CORPUS, n)) })));
     const root = await makeProject(files);
     const result = await loadProject(root);
     expect(result.ok).toBe(false);
     const withIssues = new Set(result.ok ? [] : result.issues.map((i) => i.file));
-    // Every bad design file gets at least one issue, except the three whose problem lives in another file.
+    // Every hostile design file gets at least one issue, except those whose problem lives in another file.
     const clean = names.filter((n) => !withIssues.has(`designs/${n}`));
-    expect(clean.sort()).toEqual(["device-file-invalid.json", "duplicate-device.json"]);
+    expect(clean.sort()).toEqual(DESIGN_CASES.filter((c) => c.inFile !== undefined).map((c) => c.file).sort());
     expect(Object.getOwnPropertyNames(Object.prototype).sort()).toEqual(before);
     expect(({} as Record<string, unknown>)["polluted"]).toBeUndefined();
   });
@@ -33,8 +37,8 @@ describe("loading the whole corpus at once", () => {
   });
 
   it("output is deterministic: two loads give the same issues in the same order", async () => {
-    const names = (await readdir(join(FIXTURES, "bad"))).sort().slice(0, 12);
-    const files = await Promise.all(names.map(async (n) => ({ path: `designs/${n}`, content: await readFile(join(FIXTURES, "bad", n)) })));
+    const names = DESIGN_CASES.map((c) => c.file).sort().slice(0, 12);
+    const files = await Promise.all(names.map(async (n) => ({ path: `designs/${n}`, content: await readFile(join(CORPUS, n)) })));
     const a = await loadProject(await makeProject(files));
     const b = await loadProject(await makeProject([...files].reverse()));
     expect(a).toEqual(b);

@@ -1,5 +1,5 @@
 /** Test helpers: read a generated netlist back, and classify its lines. */
-export type LineKind = "comment" | "element" | "param" | "model" | "ic" | "options" | "tran" | "end";
+export type LineKind = "comment" | "element" | "param" | "model" | "ic" | "temp" | "options" | "tran" | "end";
 
 const ELEMENT = /^[RCLDQMV][A-Za-z0-9_]* [a-z0-9_]+ [a-z0-9_]+( [a-z0-9_]+)?( [A-Z0-9_]+| DC -?[0-9.e+-]+| -?[0-9.e+-]+| \{max\(1e-3, [0-9.e+-]+\*(ctrl|\(1-ctrl\))\)\})$/;
 
@@ -10,6 +10,7 @@ export function classify(line: string): LineKind | null {
   if (/^\.param ctrl=[0-9.e-]+$/.test(line)) return "param";
   if (/^\.model [A-Z0-9_]+ (NPN|PNP|VDMOS|D)\(([A-Z]+=-?[0-9.e+-]+ ?)+\)$/.test(line)) return "model";
   if (/^\.ic v\(ca\)=[0-9.e+-]+ v\(cb\)=0$/.test(line)) return "ic";
+  if (line === ".temp 25") return "temp";
   if (line === ".options method=gear" || line === ".options method=gear abstol=1e-9 vntol=1e-5") return "options";
   if (/^\.tran [0-9.e+-]+ [0-9.e+-]+ 0 [0-9.e+-]+( uic)?$/.test(line)) return "tran";
   if (line === ".end") return "end";

@@ -38,6 +38,8 @@ describe.each(CIRCUIT_FIXTURES)("netlist of the $name fixture", (f) => {
     expect(text).toContain(`Vsupply vcc 0 DC ${f.meta.supply_V}`);
     expect(text).toMatch(/^Vsense (ls sw|sw ls) DC 0$/m);
     expect(lines.at(-1)).toBe(".end");
+    // The simulator runs at the nominal temperature the predictions are made at (NOMINAL_TEMP_C).
+    expect(lines.filter((l) => l.startsWith(".temp"))).toEqual([".temp 25"]);
     expect(text).not.toMatch(/^\.control/m);
   });
 
@@ -125,9 +127,9 @@ describe("LED strip diode law", () => {
   const card = (text: string) => text.split("\n").find((l) => l.startsWith(`.model LEDSTR_${strip.ref} `))!;
   it("uses the engine's spice.is_A and spice.n when the part gives them", () => {
     const parts = f.circuit.parts.map((p) => (p === strip ? { ...p, spice: { ...p.spice, is_A: 2e-18, n: 7.5 } } : p));
-    expect(card(renderNetlist({ ...f.circuit, parts }, { ...f.meta, devices: FIXTURE_DEVICES }))).toBe(`.model LEDSTR_${strip.ref} D(IS=2e-18 N=7.5 RS=0)`);
+    expect(card(renderNetlist({ ...f.circuit, parts }, { ...f.meta, devices: FIXTURE_DEVICES }))).toBe(`.model LEDSTR_${strip.ref} D(IS=2e-18 N=7.5 RS=0 TNOM=25)`);
   });
   it("otherwise solves N so the string drops spice.vf_V at its current with IS = 1e-12", () => {
-    expect(card(render(f))).toMatch(new RegExp(`^\\.model LEDSTR_${strip.ref} D\\(IS=1e-12 N=[0-9.]+ RS=0\\)$`));
+    expect(card(render(f))).toMatch(new RegExp(`^\\.model LEDSTR_${strip.ref} D\\(IS=1e-12 N=[0-9.]+ RS=0 TNOM=25\\)$`));
   });
 });

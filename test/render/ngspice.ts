@@ -3,12 +3,18 @@ import { spawnSync } from "node:child_process";
 import { existsSync, mkdtempSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
+import { NOMINAL_TEMP_C } from "../../src/engine/shared/temperature.ts";
 
 export const NGSPICE = "/usr/bin/ngspice";
 export const hasNgspice = existsSync(NGSPICE);
 if (!hasNgspice) console.warn(`render tests: ${NGSPICE} not found; SPICE checks are skipped`);
 
+/**
+ * Runs `text`; a deck without its own `.temp` runs at the nominal temperature, as the published
+ * netlist does (every card's TNOM equals it: src/engine/shared/temperature.ts).
+ */
 export function runNgspice(text: string): string {
+  if (!/^\.temp\b/im.test(text)) text = withStatements(text.endsWith("\n") ? text : `${text}\n`, [`.temp ${NOMINAL_TEMP_C}`]);
   const dir = mkdtempSync(join(tmpdir(), "pw-render-"));
   try {
     const file = join(dir, "in.cir");

@@ -1,15 +1,17 @@
 /**
  * Worst-case BJT cards, measured in ngspice at every saturation point of every BJT class in the
  * library (designs/devices): V_CE(sat) and V_BE(sat) equal the class's maxima (the data-sheet
- * limits at the stated forced gain, registered JEDEC data where SOURCES.md lists it), and the
+ * limits at the stated forced gain, registered JEDEC data where docs/sources.md lists it), and the
  * forward gain at the operating current equals the class's minimum h_FE there.
  */
 import { describe, expect, it } from "vitest";
 import type { BjtClass } from "../../src/model/device.ts";
 import { fitBjt, isTypical_A } from "../../src/render/spice-bjt.ts";
 import { satPoint } from "../../src/render/spice-bjt-dc.ts";
-import { gainAt, spiceModel } from "../../src/render/spice-models.ts";
-import { spiceModelName, VT_27C_V } from "../../src/render/spice-num.ts";
+import { spiceModel } from "../../src/render/spice-models.ts";
+import { spiceModelName } from "../../src/render/spice-num.ts";
+import { hfeNominal } from "../../src/engine/shared/gain.ts";
+import { VT_NOMINAL_V } from "../../src/engine/shared/temperature.ts";
 import { expectClose } from "../helpers/close.ts";
 import { hasNgspice, lastRow, runNgspice } from "./ngspice.ts";
 import { LIB_BJTS } from "./spice-library.ts";
@@ -35,7 +37,7 @@ describe("saturation-point solver (the card derivation's own model of SPICE)", (
     // Ebers-Moll saturation voltage at forced gain β_f (Sedra & Smith, Microelectronic Circuits,
     // any edition, BJT saturation section — from memory). β_f = 10, β_F = 100, β_R = 1 (α_R = ½).
     const dc = satPoint(p, 0.01, 0.001)!;
-    expectClose(dc.vce_V, VT_27C_V * Math.log((2 + 10) / (1 - 10 / 100)), 1e-6, "V_CE(sat)");
+    expectClose(dc.vce_V, VT_NOMINAL_V * Math.log((2 + 10) / (1 - 10 / 100)), 1e-6, "V_CE(sat)");
   });
   it("reports a point the gain cannot reach (forced gain above BF) as unreachable", () => {
     expect(satPoint(p, 0.2, 0.001)).toBeNull();
@@ -44,18 +46,18 @@ describe("saturation-point solver (the card derivation's own model of SPICE)", (
 
 describe("worst-case BJT fit", () => {
   it.each(CASES)("$id at $ic_A A: BF is the minimum gain there; V_BE never below typical", ({ dev, ic_A }) => {
-    const fit = fitBjt(dev, gainAt(dev, ic_A, "min"));
-    expect(fit.params.bf).toBe(gainAt(dev, ic_A, "min"));
+    const fit = fitBjt(dev, hfeNominal(dev, ic_A, "min"));
+    expect(fit.params.bf).toBe(hfeNominal(dev, ic_A, "min"));
     expect(fit.params.is_A).toBeLessThanOrEqual(isTypical_A(dev) * (1 + 1e-12));
     // A point is only skipped when the minimum gain cannot reach its forced gain.
-    for (const s of fit.skipped) expect(gainAt(dev, ic_A, "min")).toBeLessThanOrEqual(s.ic_A / s.ib_A);
+    for (const s of fit.skipped) expect(hfeNominal(dev, ic_A, "min")).toBeLessThanOrEqual(s.ic_A / s.ib_A);
   });
 });
 
 describe.skipIf(!hasNgspice)("worst-case BJT cards in ngspice", () => {
   it.each(CASES)("$id, card for $ic_A A: V_CE(sat), V_BE(sat) at their maxima; gain at its minimum", ({ dev, ic_A }) => {
     const card = spiceModel(dev, { gain: "min", ic_A });
-    const bf = gainAt(dev, ic_A, "min");
+    const bf = hfeNominal(dev, ic_A, "min");
     const { skipped, params } = fitBjt(dev, bf);
     let checked = 0;
     for (const s of dev.vce_sat) {
@@ -79,6 +81,6 @@ describe.skipIf(!hasNgspice)("worst-case BJT cards in ngspice", () => {
     const beta = Math.abs(ivc) / (ic_A / bf);
     expectClose(beta, bf * (1 + (5 - params.rc_ohm * Math.abs(ivc) - s * vb) / 100), 0.02, `${dev.id} gain at ${ic_A} A`);
     // Worst-case card: the active V_BE is at least the class's typical V_BE(on) scaled to this current.
-    expect(s * vb).toBeGreaterThanOrEqual(dev.vbe_on_V + VT_27C_V * Math.log(ic_A / (dev.ic_max_A / 10)) - 0.005);
+    expect(s * vb).toBeGreaterThanOrEqual(dev.vbe_on_V + VT_NOMINAL_V * Math.log(ic_A / (dev.ic_max_A / 10)) - 0.005);
   });
 });

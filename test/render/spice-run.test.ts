@@ -29,7 +29,7 @@ describe.skipIf(!hasNgspice).each(CIRCUIT_FIXTURES)("ngspice runs the $name netl
     const rB = value(f, "RB_B") + Math.max(1e-3, pot * (1 - ctrl));
     const predicted = Math.LN2 * (rA * value(f, "CT_B") + rB * value(f, "CT_A"));
     // The formula assumes unloaded collectors and fast recovery; a tap or balancing resistor
-    // below ≈ 4.5·R_C (ENGINEERING.md §1, loading) or a base resistance near R_C·5 breaks it,
+    // below ≈ 4.5·R_C (loading [src:common-practice]) or a base resistance near R_C·5 breaks it,
     // so there only a sanity band (±40 %) applies.
     const rc = value(f, "RC_A");
     const loads = f.circuit.parts.filter((p) => ["RT", "RBAL", "RG"].includes(p.role) && /^c[ab]$/.test(p.pins.a ?? ""));

@@ -28,8 +28,8 @@ describe("files of the built site", () => {
     expect(files).toContain("assets/site.css");
     for (const d of cat.designs) expect(files).toContain(`designs/${d.record.id}/index.html`);
     for (const v of variants) expect(files).toContain(`variants/${v.sized.spec.id}/index.html`);
-    expect(files.filter((f) => f.endsWith(".html"))).toHaveLength(1 + cat.designs.length + variants.length);
-    expect(site.result).toEqual({ pages: 1 + cat.designs.length + variants.length, files: files.length });
+    expect(files.filter((f) => f.endsWith(".html"))).toHaveLength(2 + cat.designs.length + variants.length);
+    expect(site.result).toEqual({ pages: 2 + cat.designs.length + variants.length, files: files.length });
   });
 
   it("writes each variant's downloads beside its page under meaningful names, byte for byte", async () => {
@@ -91,7 +91,7 @@ describe("links", () => {
   it("every page parses as HTML and every internal link and resource resolves inside the site", async () => {
     const report = await auditSite(site.dir);
     expect(report.findings).toEqual([]);
-    expect(report.pages).toBe(1 + cat.designs.length + variants.length);
+    expect(report.pages).toBe(2 + cat.designs.length + variants.length);
     expect(report.links).toBeGreaterThan(50); // the audit really walked the pages
   });
 

@@ -60,8 +60,8 @@ describe.each(engines)("%s adapter", (name) => {
     // Measured here: simulation 4.7 % below the formula in both engines.
     expectClose(m.period_s, 2 * half_s, 0.06, `V_BE ${vbe_V.toFixed(3)} V, V_CE(sat) ${vcesat_V.toFixed(3)} V`);
     expect(Math.abs(m.duty - 0.5)).toBeLessThan(0.02);
-    // SOURCES.md check coefficient at 5 V (V_BE 0.6, V_CE(sat) 0.1): 0.7484 → T = 2·0.7484·R·C.
-    expectClose(m.period_s, 2 * 0.7484 * R * C, 0.08, "coefficient 0.7484 at 5 V (derived, SOURCES.md)");
+    // Check coefficient at 5 V [src:millman-taub-1965] (V_BE 0.6, V_CE(sat) 0.1): 0.7484 → T = 2·0.7484·R·C.
+    expectClose(m.period_s, 2 * 0.7484 * R * C, 0.08, "coefficient 0.7484 at 5 V (derived [src:millman-taub-1965])");
   });
 
   it("reports a netlist the engine cannot run as a SpiceRunError", async () => {

@@ -8,7 +8,7 @@
  */
 import { describe, expect, it } from "vitest";
 import type { SimResult, SpiceEngine } from "../../src/verify/engines/types.ts";
-import { gateProbe } from "../../src/verify/gate.ts";
+import { baseProbe, gateProbe } from "../../src/verify/gate.ts";
 import { loadTiming, RETRY2_OPTIONS, RETRY_OPTIONS, runAt, type Run } from "../../src/verify/runs.ts";
 import type { VerifyTarget } from "../../src/verify/target.ts";
 import { expectClose } from "../helpers/close.ts";
@@ -85,6 +85,31 @@ describe("gate probe from the netlist", () => {
   it("gives none for a BJT or a MOSFET without a readable VTO", () => {
     expect(gateProbe(netlist, "q4")).toBeNull();
     expect(gateProbe("M1 d g 0 X\n.model X VDMOS(KP=1)\n", "m1")).toBeNull();
+  });
+});
+
+describe("a BJT switch whose collector rings after the winding's current has run out", () => {
+  // The base of the output stage: 0.95 V while driven, then the ring's pick-up through C_BC
+  // (≈ 0.4 V peak, as simulated on the 24 V Darlington-3 pump variant); cut-in 0.71 V.
+  function withBase(run: Run, duty: number): Run {
+    const vb = Float64Array.from(run.t, (x) => ((x / T) % 1 < duty ? 0.95 : 0.4 * Math.abs(Math.sin(2 * Math.PI * 32e3 * x))));
+    return { ...run, v: { ...run.v, "v(qb)": vb }, base: { baseNet: "qb", emitterNet: "0", cutIn_V: 0.71, sign: 1 } };
+  }
+  it("times the edges at the collector but counts no ring swing as on while the base is below cut-in", () => {
+    for (const duty of [0.2, 0.3, 0.55, 0.9]) {
+      const m = loadTiming(target(), withBase(valveRun(duty, 0.4, false), duty), 0);
+      if (m.kind !== "pwm") throw new Error(`${duty}: ${m.kind}`);
+      expectClose(m.frequency_Hz, 2162, 0.002, `duty ${duty}`); // common practice: period = 1/f
+      expect(Math.abs(m.duty - duty)).toBeLessThan(0.002);
+    }
+  });
+  it("reads the output stage's cut-in from its card: V = NF·V_T·ln(1 + BF·I_B/IS) (Ebers–Moll forward law)", () => {
+    const netlist = "Q3 sw d1b d2b NS\nQ4 sw d2b 0 NP\n.model NS NPN(IS=7e-17 BF=335 NR=0.8)\n.model NP NPN(IS=2e-18 BF=24.7 NF=1.1)\n";
+    const p = baseProbe(netlist, ["q3", "q4"], 0.025693)!;
+    expect(p).toMatchObject({ baseNet: "d2b", emitterNet: "0", sign: 1 });
+    expectClose(p.cutIn_V, 1.1 * 0.025693 * Math.log1p((24.7 * 1e-7) / 2e-18), 1e-12, "cut-in");
+    expect(baseProbe("Q5 c b vbus PX\n.model PX PNP(IS=1e-14 BF=50)\n", ["q5"], 0.025693)).toMatchObject({ baseNet: "b", emitterNet: "vbus", sign: -1 });
+    expect(baseProbe("MQ3 sw g 0 N\n.model N VDMOS(VTO=2)\n", ["mq3"], 0.025693)).toBeNull();
   });
 });
 

@@ -98,7 +98,7 @@ describe("time-weighted averages (trapezoidal rule)", () => {
     expectClose(timeAverage(w.t, w.y, 0.004, 0.01), 0.3 * w.amp, 2e-3);
   });
 
-  it("gives ⟨v·i⟩ = V·I·D for a switch conducting I at V (conduction loss, ENGINEERING.md §4, common practice)", () => {
+  it("gives ⟨v·i⟩ = V·I·D for a switch conducting I at V (conduction loss [src:common-practice])", () => {
     const w = pwmWave({ f: 2000, duty: 0.4, periods: 12 });
     const v = w.y.map((x) => 0.2 * (x / w.amp)); // 0.2 V on-voltage while on
     const i = w.y.map((x) => 1.5 * (x / w.amp)); // 1.5 A while on

@@ -36,7 +36,7 @@ describe("measureVariant on the darlington heater-mat fixture (12 V, 12 Ω)", ()
     expectClose(val(m, "load_on_voltage") + val(m, "switch_on_voltage"), 12, 0.01, "bus sags only by the fuse drop");
   });
 
-  it("a Darlington cannot saturate below V_CE(sat),1 + V_BE,2 (≈ 0.9–1.2 V at amps, ENGINEERING.md §3, common practice)", () => {
+  it("a Darlington cannot saturate below V_CE(sat),1 + V_BE,2 (≈ 0.9–1.2 V at amps, [src:common-practice])", () => {
     expect(val(m, "switch_on_voltage")).toBeGreaterThan(0.8);
   });
 
@@ -65,14 +65,14 @@ describe("measureVariant on the MOSFET fan-motor fixture (12 V, 6 Ω + 2 mH, fre
     m = await measureVariant(targetFromSized(c.sized)!, c.netlist, engine);
   });
 
-  it("the period stays the same across the control: R_B1 + R_B2 is constant (ENGINEERING.md §1)", () => {
+  it("the period stays the same across the control: R_B1 + R_B2 is constant [src:common-practice]", () => {
     expectClose(val(m, "frequency_ctrl0"), val(m, "frequency_nominal"), 0.1);
     expectClose(val(m, "frequency_ctrl1"), val(m, "frequency_nominal"), 0.1);
     expectClose(val(m, "core_symmetry"), 0.5, 0.05, "pot at mid: both sides equal");
     expect([val(m, "core_running_ctrl0"), val(m, "core_running_ctrl1")]).toEqual([1, 1]);
   });
 
-  it("device dissipation ≈ V_DS(on) · I · D for a fast MOSFET at kHz (conduction loss, ENGINEERING.md §4)", () => {
+  it("device dissipation ≈ V_DS(on) · I · D for a fast MOSFET at kHz (conduction loss [src:common-practice])", () => {
     const pCond = val(m, "switch_on_voltage") * val(m, "load_current_on") * val(m, "duty_max");
     expectClose(val(m, "device_dissipation"), pCond, 0.35);
   });

@@ -76,7 +76,7 @@ function fits(role: DeviceRole, d: DeviceClass, n: Need): boolean {
     // Case-rated packages may go on a heatsink (the thermal stage sizes it); small packages must
     // cope in free air at full duty.
     // The same class serves bjt-single (saturated, V_CE(sat)) and the Darlington output, which
-    // cannot saturate: V_CE ≥ V_CE(sat),drv + V_BE(sat),out (ENGINEERING.md §3). Take the larger.
+    // cannot saturate: V_CE ≥ V_CE(sat),drv + V_BE(sat),out [src:common-practice]. Take the larger.
     const vOn = Math.max(vceSat(d, n.load_A), DARLINGTON_DRIVE_SAT_V + vbeSat(d, n.load_A));
     return d.ptot_at === "case" || freeAirOk(d, n.load_A * vOn, n);
   }

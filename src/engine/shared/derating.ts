@@ -42,7 +42,7 @@ export function checkStress(
   if (!(marginal_above > 0 && marginal_above <= 1)) throw new EngineMisuseError(`checkStress: marginal_above must be in (0, 1], got ${marginal_above}`);
   const s = Math.abs(stress);
   const ratio = s / rating;
-  return { ref, quantity, stress: s, rating, unit, ratio, allowed: rule.factor, verdict: verdictOf(ratio, rule.factor, marginal_above), source: rule.source };
+  return { ref, quantity, stress: s, rating, unit, ratio, allowed: rule.factor, verdict: verdictOf(ratio, rule.factor, marginal_above), source: rule.source, ...(rule.note !== undefined ? { note: rule.note } : {}) };
 }
 
 /**
@@ -53,5 +53,5 @@ export function checkTj(ref: PartRole, tj_C: number, tjMax_C: number, policy: De
   const limit = tjLimit_C(policy, family, tjMax_C);
   const rule = policy[family].tj_max_C;
   const allowed = Math.min(1, Math.max(limit / tjMax_C, Number.MIN_VALUE));
-  return checkStress(ref, "tj", tj_C, tjMax_C, "°C", { factor: allowed, source: rule.source, confidence: rule.confidence }, policy.marginal_above);
+  return checkStress(ref, "tj", tj_C, tjMax_C, "°C", { ...rule, factor: allowed }, policy.marginal_above);
 }

@@ -1,5 +1,5 @@
 /**
- * IEC 60063 preferred number series. E6–E24 are copied from IEC 60063:2015 Table 1 (they cannot be
+ * IEC 60063 preferred number series [src:iec-60063]. E6–E24 are copied from IEC 60063:2015 Table 1 (they cannot be
  * generated: round(10^(k/24), 1) is wrong at 2.7 3.0 3.3 3.6 3.9 4.3 4.7 8.2). E48 and E96 follow
  * the rule round(10^(k/n), 2), which Table 2 matches for these two series (not for E192 at 9.20).
  *

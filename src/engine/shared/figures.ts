@@ -4,9 +4,9 @@
  * out of everything downstream.
  */
 import type { Figure } from "../../model/figure.ts";
-import { type DesignProblem, type Severity } from "../../model/problem.ts";
+import type { DesignProblem, Severity } from "../../model/problem.ts";
 import { EngineMisuseError } from "../../model/errors.ts";
-import type { SourceRef } from "./sources.ts";
+import { cite, type SourceKey, type SourceRef } from "./sources.ts";
 import type { PartRole, RefDesignator } from "../../model/part-roles.ts";
 
 /** Throws EngineMisuseError unless `x` is a finite number; `what` names it in the message. */
@@ -24,10 +24,11 @@ export function figure(
   unit: string,
   stage: string,
   formula: string,
-  src: SourceRef,
+  src: SourceKey | SourceRef,
   range?: [number, number],
 ): Figure {
   assertFinite(value, `figure "${key}" value`);
+  if (typeof src === "string") src = cite(src);
   const f: Figure = { key, label, value, unit, stage, formula, source: src.source, confidence: src.confidence };
   if (range !== undefined) {
     assertFinite(range[0], `figure "${key}" range low`);

@@ -1,5 +1,5 @@
 /**
- * LED flicker regions after IEEE Std 1789-2015, §8.1.1 (recommended practice; limits seen in a
+ * LED flicker regions after IEEE Std 1789-2015, §8.1.1 [src:ieee-1789] (recommended practice; limits seen in a
  * reproduction). Modulation % = 100·(L_max − L_min)/(L_max + L_min); full-depth PWM is 100 %.
  *   low risk:              f < 90 Hz: Mod% ≤ 0.025·f;  90 Hz ≤ f ≤ 1250 Hz: Mod% ≤ 0.08·f;  above: no limit
  *   no observable effect:  f < 90 Hz: Mod% ≤ 0.01·f;   90 Hz ≤ f < 3000 Hz: Mod% ≤ 0.0333·f; from 3000 Hz: exempt

@@ -5,9 +5,11 @@
  */
 import type { BjtClass } from "../../model/device.ts";
 import { EngineMisuseError } from "../../model/errors.ts";
+import { JUNCTION_TEMPCO_VperK } from "./diode.ts";
+import { NOMINAL_TEMP_C } from "./temperature.ts";
 
-/** V_BE temperature coefficient, V/K (≈ −2 mV/K: common practice). */
-export const VBE_TEMPCO_VperK = -0.002;
+/** V_BE temperature coefficient, V/K (≈ −2 mV/K: common practice; the same as a diode's). */
+export const VBE_TEMPCO_VperK = JUNCTION_TEMPCO_VperK;
 
 function checkCurrent(dev: BjtClass, ic_A: number, fn: string): void {
   if (!Number.isFinite(ic_A) || ic_A <= 0) throw new EngineMisuseError(`${fn}(${dev.id}): ic_A must be finite and > 0, got ${ic_A}`);
@@ -16,25 +18,35 @@ function checkTemp(dev: BjtClass, tj_C: number, fn: string): void {
   if (!Number.isFinite(tj_C)) throw new EngineMisuseError(`${fn}(${dev.id}): tj_C must be finite, got ${tj_C}`);
 }
 
-/** Minimum gain at 25 °C and ic_A, log-log between points; clamped below the first point. */
-export function hfeMin25(dev: BjtClass, ic_A: number): number {
-  checkCurrent(dev, ic_A, "hfeMin");
-  const pts = dev.hfe;
+/**
+ * The gain law: h_FE at the nominal temperature and ic_A from the class's gain points ("min", or
+ * "typ" where a point gives one, else its min), log-log between points, held at the first point
+ * below it. Above the last point the law follows the last segment's slope if it falls, and never
+ * rises above the last point.
+ *
+ * Why extrapolate rather than hold: past the gain peak h_FE falls with current (high-level
+ * injection, the Webster effect: β ∝ 1/I_C in the limit — Sze, Physics of Semiconductor Devices, [src:sze-physics]
+ * 2nd ed., §3.3, from memory); holding the last value would claim a gain the device class data do
+ * not support. The netlist's Gummel-Poon card has no knee (IKF) and so a flat BF: it takes BF from
+ * this law at the highest current its parts carry, but no higher than the last point — a known,
+ * measured divergence above it (src/render/spice-models.ts and docs/spice-models.md say why).
+ */
+export function hfeNominal(dev: BjtClass, ic_A: number, which: "min" | "typ" = "min"): number {
+  checkCurrent(dev, ic_A, "hfeNominal");
+  const pts = dev.hfe.map((p) => ({ ic_A: p.ic_A, h: which === "typ" ? (p.typ ?? p.min) : p.min }));
   const first = pts[0];
-  if (first === undefined) throw new EngineMisuseError(`hfeMin(${dev.id}): the class has no gain points`);
-  if (ic_A <= first.ic_A) return first.min;
+  if (first === undefined) throw new EngineMisuseError(`hfeNominal(${dev.id}): the class has no gain points`);
+  if (ic_A <= first.ic_A) return first.h;
   for (let i = 1; i < pts.length; i++) {
     const a = pts[i - 1]!;
     const b = pts[i]!;
-    if (ic_A === b.ic_A) return b.min; // exact at the datasheet points
-    if (ic_A < b.ic_A) return logLog(a.ic_A, a.min, b.ic_A, b.min, ic_A);
+    if (ic_A === b.ic_A) return b.h; // exact at the datasheet points
+    if (ic_A < b.ic_A) return logLog(a.ic_A, a.h, b.ic_A, b.h, ic_A);
   }
-  // Above the last point: follow the last segment's slope only if it falls (gain drops at high
-  // current); never rise above the last specified minimum.
   const last = pts[pts.length - 1]!;
   const prev = pts[pts.length - 2];
-  if (prev === undefined || last.min >= prev.min) return last.min;
-  return Math.min(last.min, logLog(prev.ic_A, prev.min, last.ic_A, last.min, ic_A));
+  if (prev === undefined || last.h >= prev.h) return last.h;
+  return Math.min(last.h, logLog(prev.ic_A, prev.h, last.ic_A, last.h, ic_A));
 }
 
 function logLog(x0: number, y0: number, x1: number, y1: number, x: number): number {
@@ -45,7 +57,7 @@ function logLog(x0: number, y0: number, x1: number, y1: number, x: number): numb
 /** Minimum DC gain at ic_A and junction temperature tj_C (gain falls when cold), floored at 1. */
 export function hfeMin(dev: BjtClass, ic_A: number, tj_C: number): number {
   checkTemp(dev, tj_C, "hfeMin");
-  const g = hfeMin25(dev, ic_A) * (1 + dev.hfe_tempco_perK * (tj_C - 25));
+  const g = hfeNominal(dev, ic_A, "min") * (1 + dev.hfe_tempco_perK * (tj_C - NOMINAL_TEMP_C));
   return Math.max(1, g);
 }
 
@@ -75,13 +87,21 @@ export function vceSat(dev: BjtClass, ic_A: number): number {
   return linearUp(dev.vce_sat.map((p) => [p.ic_A, p.vce_sat_V]), ic_A, true);
 }
 
-/** Typical V_BE(on) at tj_C: vbe_on_V at 25 °C, −2 mV/K (common practice). */
-export function vbeOn(dev: BjtClass, tj_C: number): number {
-  checkTemp(dev, tj_C, "vbeOn");
-  return dev.vbe_on_V + VBE_TEMPCO_VperK * (tj_C - 25);
+/**
+ * Collector current at which the class's typical V_BE(on) is read: I_C(max)/10 (ours; the middle
+ * of the range where data sheets state V_BE(on)). The netlist's BJT card puts its IS through it.
+ */
+export function vbeRefCurrent_A(dev: BjtClass): number {
+  return dev.ic_max_A / 10;
 }
 
-/** Maximum V_BE(sat) at ic_A from the saturation points; else V_BE(on, 25 °C) + 0.15 V. */
+/** Typical V_BE(on) at tj_C: vbe_on_V at the nominal temperature, −2 mV/K (common practice). */
+export function vbeOn(dev: BjtClass, tj_C: number): number {
+  checkTemp(dev, tj_C, "vbeOn");
+  return dev.vbe_on_V + VBE_TEMPCO_VperK * (tj_C - NOMINAL_TEMP_C);
+}
+
+/** Maximum V_BE(sat) at ic_A from the saturation points; else nominal V_BE(on) + 0.15 V. */
 export function vbeSat(dev: BjtClass, ic_A: number): number {
   checkCurrent(dev, ic_A, "vbeSat");
   const pts: [number, number][] = [];

@@ -8,3 +8,8 @@ export * from "./losses.ts";
 export * from "./derating.ts";
 export * from "./flicker.ts";
 export * from "./loads.ts";
+export * from "./temperature.ts";
+export * from "./root.ts";
+export * from "./diode.ts";
+export * from "./rdson.ts";
+export * from "./gate-charge.ts";

@@ -6,7 +6,8 @@
 import type { LoadKind } from "../../model/kinds.ts";
 import { EngineMisuseError } from "../../model/errors.ts";
 
-/** Cold/hot filament resistance ratio → inrush multiple: 10–15× (Fink & Beaty, 11th ed., p. 22-8, from memory). */
+/** Cold/hot filament resistance ratio → inrush multiple: 10–15× (Fink & Beaty, 11th ed., p. 22-8, from memory)
+ * [src:fink-beaty-11e]. */
 export const LAMP_INRUSH_FACTOR = { nominal: 12, worst: 15 } as const;
 /** Small PM DC motors: stall ≈ 4× running current when the winding resistance is unknown (typical, from memory). */
 export const MOTOR_STALL_FACTOR = 4;
@@ -83,7 +84,7 @@ export function loadModel(kind: LoadKind, supply_V: number, load_A: number): Loa
   }
 }
 
-/** IEC 60127-style preferred fuse ratings (R10 series), in A — from memory. */
+/** IEC 60127-style preferred fuse ratings (R10 series), in A — from memory [src:iec-60127]. */
 export const FUSE_RATINGS_A = [
   0.1, 0.125, 0.16, 0.2, 0.25, 0.315, 0.4, 0.5, 0.63, 0.8, 1, 1.25, 1.6, 2, 2.5, 3.15, 4, 5, 6.3, 8, 10, 12.5, 16, 20, 25, 31.5, 40, 50, 63,
 ] as const;

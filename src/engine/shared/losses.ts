@@ -32,10 +32,10 @@ export type SwitchingKind = "resistive" | "clamped-inductive";
 /**
  * Switching loss with linear voltage/current ramps.
  * Resistive load: v and i ramp together, ∫ v·i dt over one edge of length t = V·I·t/6, so
- *   P = ⅙·V·I·(t_on + t_off)·f — Rashid, Power Electronics, 4th ed., Example 4.2.
+ *   P = ⅙·V·I·(t_on + t_off)·f — Rashid, Power Electronics, 4th ed., Example 4.2 [src:rashid-4e-ex4-2].
  * Clamped inductive load: current ramps at full voltage, then voltage at full current, each edge
  *   dissipates V·I·t/2, so P = ½·V·I·(t_on + t_off)·f — Mohan, Undeland, Robbins, 3rd ed., Eq. 2-6
- *   (from memory). test/engine/shared/losses.test.ts integrates both numerically.
+ *   (from memory) [src:mohan-3e-eq2-6]. test/engine/shared/losses.test.ts integrates both numerically.
  */
 export function switchingLoss_W(v_V: number, i_A: number, tOn_s: number, tOff_s: number, f_Hz: number, kind: SwitchingKind): number {
   nonNeg(v_V, "v_V");

@@ -1,4 +1,5 @@
 /**
+ * [src:millman-halkias-1972]
  * Storage time of a saturated BJT in its circuit, from the datasheet's: charge control gives
  *   t_s = τ_s · ln((I_B1 + I_B2) / (I_C/β + I_B2))
  * with I_B1 the forward base current while on, I_B2 the reverse base current pulling the charge out

@@ -1,9 +1,11 @@
 /**
- * Junction temperature and heatsink relations, after the JEDEC JESD51 definitions:
+ * Junction temperature and heatsink relations, after the JEDEC JESD51 definitions
+ * [src:jesd51-2a] [src:jesd51-12]:
  * T_J = T_A + P·θ_JA free-standing; T_J = T_A + P·(θ_JC + θ_CS + θ_SA) on a heatsink.
  * JESD51-2 notes θ_JA is for comparing packages; we use it as the usual first estimate and say so.
  */
 import { EngineMisuseError } from "../../model/errors.ts";
+import { NOMINAL_TEMP_C } from "./temperature.ts";
 
 function finite(x: number, what: string): void {
   if (!Number.isFinite(x)) throw new EngineMisuseError(`thermal: ${what} must be finite, got ${x}`);
@@ -52,16 +54,17 @@ export function rthCsFor_KperW(pkg: string): number {
 
 /**
  * Power rating at temperature t_C (ambient when ptot_at = "ambient", case when "case"):
- * linear derating from P_tot at 25 °C to zero at T_J,max (the usual datasheet derating line);
- * full rating at or below 25 °C, zero at or above T_J,max.
+ * linear derating from P_tot at the data sheet's reference temperature (NOMINAL_TEMP_C, 25 °C) to
+ * zero at T_J,max (the usual datasheet derating line); full rating at or below it, zero at or above
+ * T_J,max.
  */
 export function powerRatingAt_W(ptot_W: number, ptot_at: "ambient" | "case", tjMax_C: number, t_C: number): number {
   finite(ptot_W, "ptot_W");
   finite(tjMax_C, "tjMax_C");
   finite(t_C, "t_C");
   void ptot_at; // the same line applies to either reference point; the caller picks t_C to match
-  if (tjMax_C <= 25) throw new EngineMisuseError(`thermal: tjMax_C must be above 25 °C, got ${tjMax_C}`);
-  if (t_C <= 25) return ptot_W;
+  if (tjMax_C <= NOMINAL_TEMP_C) throw new EngineMisuseError(`thermal: tjMax_C must be above ${NOMINAL_TEMP_C} °C, got ${tjMax_C}`);
+  if (t_C <= NOMINAL_TEMP_C) return ptot_W;
   if (t_C >= tjMax_C) return 0;
-  return (ptot_W * (tjMax_C - t_C)) / (tjMax_C - 25);
+  return (ptot_W * (tjMax_C - t_C)) / (tjMax_C - NOMINAL_TEMP_C);
 }

@@ -1,6 +1,6 @@
 /**
- * Relations of the two-transistor astable multivibrator (ENGINEERING.md §1; Millman & Taub, Pulse,
- * Digital and Switching Waveforms, 1965, ch. 11 — from memory). Side X's "off time" is the time
+ * Relations of the two-transistor astable multivibrator (Millman & Taub, Pulse, Digital
+ * and Switching Waveforms, 1965, ch. 11 — from memory [src:millman-taub-1965]). Side X's "off time" is the time
  * transistor Q_X stays off while the base node it owns recharges through its base resistor R_BX
  * from V_on − V_swing towards Vcc, where V_swing is the step the OPPOSITE collector made:
  *

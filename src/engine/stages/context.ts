@@ -11,7 +11,7 @@ import { SERIES_TOLERANCE } from "../shared/e-series.ts";
 
 /** Potentiometer track tolerance, ±20 % (common practice for carbon and cermet pots). */
 export const POT_TOLERANCE = 0.2;
-/** Overdrive kept over the minimum gain for every saturating stage (ENGINEERING.md §1, common practice). */
+/** Overdrive kept over the minimum gain for every saturating stage (k ≥ 2 [src:common-practice]). */
 export const OVERDRIVE_K = 2;
 /** Forced gain for a saturating power stage: I_C/I_B = 10 (common practice, datasheet V_CE(sat) condition). */
 export const FORCED_BETA = 10;

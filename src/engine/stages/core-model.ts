@@ -7,7 +7,9 @@
  * (collector A is high, and collector B low, exactly while Q_A is off; ctrl raises R_BA.)
  */
 import type { BjtClass, DiodeClass } from "../../model/device.ts";
-import { vbeOn, vceSat } from "../shared/gain.ts";
+import { VBE_TEMPCO_VperK, vbeOn, vceSat } from "../shared/gain.ts";
+import { diodeClassVf_V } from "../shared/diode.ts";
+import { NOMINAL_TEMP_C } from "../shared/temperature.ts";
 import { type CollectorLoad, type CoreTiming, evaluateCore, thresholdDelay_s } from "./astable.ts";
 
 export interface CoreValues {
@@ -43,19 +45,16 @@ export interface Corner {
 
 export const NOMINAL_K = { kEndA: 1, kEndB: 1, kPot: 1, kCA: 1, kCB: 1, kRCA: 1, kRCB: 1 } as const;
 
-/** Diode forward drop at a small current: V_F,max at its test current, −0.1 V/decade below it (n ≈ 1.7), −2 mV/K (from memory). */
-export function diodeVf_V(d: DiodeClass, i_A: number, t_C: number): number {
-  const dec = Math.log10(d.vf_at_A / Math.max(i_A, 1e-9));
-  return d.vf_V - 0.1 * Math.max(0, dec) - 0.002 * (t_C - 25);
-}
+/** Diode forward drop: the class's law (src/engine/shared/diode.ts), the one its netlist card carries. */
+export const diodeVf_V = diodeClassVf_V;
 
 
 /**
- * Cut-in voltage of a silicon B–E junction, V at 25 °C: below it the transistor conducts too little
+ * Cut-in voltage of a silicon B–E junction, V at the nominal temperature: below it the transistor conducts too little
  * to matter, and the astable's off transistor returns when its base node reaches it, not V_BE(on)
  * at full current (Millman & Taub, 1965, ch. 11, and Millman & Halkias, Integrated Electronics,
  * 1972, table of Si junction voltages: V_γ ≈ 0.5 V, V_BE(active) ≈ 0.7 V, V_BE(sat) ≈ 0.8 V —
- * from memory). −2 mV/K as V_BE (common practice).
+ * from memory; [src:millman-taub-1965] [src:millman-halkias-1972]). −2 mV/K as V_BE [src:vbe-tempco].
  */
 export const CUT_IN_VBE_V = 0.5;
 /**
@@ -67,7 +66,7 @@ export const CUT_IN_BASE_A = 1e-7;
 
 /** Base-node level at which an off timing transistor comes back on: V_γ (+ the base diode's V_F at the cut-in current). */
 export function cutIn_V(diodes: boolean, db: DiodeClass, t_C: number): number {
-  return CUT_IN_VBE_V - 0.002 * (t_C - 25) + (diodes ? diodeVf_V(db, CUT_IN_BASE_A, t_C) : 0);
+  return CUT_IN_VBE_V + VBE_TEMPCO_VperK * (t_C - NOMINAL_TEMP_C) + (diodes ? diodeVf_V(db, CUT_IN_BASE_A, t_C) : 0);
 }
 
 export interface CoreEval {

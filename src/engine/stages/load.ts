@@ -14,10 +14,10 @@ import type { Part, PartSpice } from "../../model/circuit.ts";
 import type { PartKind } from "../../model/kinds.ts";
 import type { DesignProblem } from "../../model/problem.ts";
 import { figure, problem } from "../shared/figures.ts";
-import { SRC } from "../shared/sources.ts";
 import { type Ctx, loadCurrentOn_A } from "./context.ts";
-import { diodeVf_V } from "./core-model.ts";
-import { STARVED_FRACTION, ledCurrent_A, ledLaw, motorEmf_V } from "./load-point.ts";
+import { diodeClassVf_V, diodeSeriesCurrent_A, ledStringLaw } from "../shared/diode.ts";
+import { NOMINAL_TEMP_C } from "../shared/temperature.ts";
+import { STARVED_FRACTION, motorEmf_V } from "./load-point.ts";
 
 const KIND: Record<string, PartKind> = { motor: "motor", lamp: "lamp", resistive: "heater", led: "led-strip" };
 const pct = (x: number): string => `${(x * 100).toFixed(0)} %`;
@@ -34,15 +34,15 @@ export function loadStage(ctx: Ctx, vSwNom_V: number, dutyOn: number): { part: P
   let emfNote = "";
   if (kind === "led") {
     // Fitted at the current the netlist fitted it at before (the worst-case current, iMax).
-    const law = ledLaw(ctx.load.vf_V, ctx.iMax_A);
+    const law = ledStringLaw(ctx.load.vf_V, ctx.iMax_A);
     spice = { ...spice, is_A: law.is_A, n: law.n };
-    iOn_A = ledCurrent_A(vLoad_V, ctx.load.r_ohm, law);
+    iOn_A = diodeSeriesCurrent_A(vLoad_V, ctx.load.r_ohm, law);
     share = iOn_A / ctx.iNom_A;
     what = `draws ${iOn_A.toPrecision(3)} A of its rated ${ctx.iNom_A} A`;
-    formula = "R·I + N·V_T·ln(1 + I/IS) = V_cc − V_sw (string diode law, V_T at 27 °C)";
+    formula = `R·I + N·V_T·ln(1 + I/IS) = V_cc − V_sw (string diode law, V_T at ${NOMINAL_TEMP_C} °C)`;
   } else if (kind === "motor") {
     const fw = ctx.spec.devices.freewheel_diode as DiodeClass | undefined;
-    const vf = fw === undefined ? 0 : Math.max(0, diodeVf_V(fw, ctx.iNom_A, 27));
+    const vf = fw === undefined ? 0 : Math.max(0, diodeClassVf_V(fw, ctx.iNom_A, NOMINAL_TEMP_C));
     const emf = motorEmf_V(ctx.vNom_V, vSwNom_V, dutyOn, vf, ctx.iNom_A, ctx.load.r_ohm);
     iOn_A = ctx.iNom_A;
     spice = { ...spice, vf_V: Math.max(0, emf) };
@@ -65,9 +65,9 @@ export function loadStage(ctx: Ctx, vSwNom_V: number, dutyOn: number): { part: P
   return {
     part, iOn_A, problems,
     figures: [
-      figure("switch_on_voltage", "Switch on-voltage (rated load, minimum gain)", vSwNom_V, "V", "chain", "V_CE(sat) at forced β 10 (PNP driver: datasheet line V_0 + I·R_C at the actual I_C); Darlington V_CE(sat),1 (datasheet line) + Σ V_BE of the followers at I_B = I_C/β (junction law + R_B from the V_BE(sat) points); MOSFET I·R_DS(on) at the gate drive reached", SRC.REGISTERED),
-      figure("load_current_on", "Load current when on (nominal supply)", iOn_A, "A", "load", formula, SRC.DERIVED),
-      figure("load_on_voltage", "Voltage across the load when on", vLoad_V, "V", "load", "V_load = V_cc − V_sw", SRC.DERIVED),
+      figure("switch_on_voltage", "Switch on-voltage (rated load, minimum gain)", vSwNom_V, "V", "chain", "V_CE(sat) at forced β 10 (PNP driver: datasheet line V_0 + I·R_C at the actual I_C); Darlington V_CE(sat),1 (datasheet line) + Σ V_BE of the followers at I_B = I_C/β (junction law + R_B from the V_BE(sat) points); MOSFET I·R_DS(on) at the gate drive reached", "derived"),
+      figure("load_current_on", "Load current when on (nominal supply)", iOn_A, "A", "load", formula, "derived"),
+      figure("load_on_voltage", "Voltage across the load when on", vLoad_V, "V", "load", "V_load = V_cc − V_sw", "derived"),
     ],
   };
 }

@@ -12,7 +12,7 @@
 import type { BjtClass, DiodeClass, MosfetClass } from "../../model/device.ts";
 import { hfeMin, vbeOn, vceSat } from "../shared/gain.ts";
 import { INJECTION_MAX } from "./astable.ts";
-import { diodeCj_F } from "../shared/junction.ts";
+import { diodeCj_F } from "../shared/diode.ts";
 import type { Part } from "../../model/circuit.ts";
 import type { DesignProblem } from "../../model/problem.ts";
 import type { StressCheck } from "../../model/derating.ts";
@@ -72,7 +72,7 @@ function rcMin(ctx: Ctx): number {
 
 /**
  * Reverse B–E swing of an unprotected core, V_cc,max − V_CE(sat) − V_BE(hot), against the derated
- * V_EBO (SOURCES.md; common practice): true when the core needs its series base diodes.
+ * V_EBO ≈ 5–7 V [src:common-practice]: true when the core needs its series base diodes.
  */
 export function vebReverse_V(ctx: Ctx, q: BjtClass, rC_ohm: number): number {
   return ctx.vMax_V - vceSat(q, Math.min(q.ic_max_A, ctx.vMax_V / rC_ohm)) - vbeOn(q, ctx.taMax_C);

@@ -14,7 +14,6 @@ import { checkTj, tjLimit_C } from "../shared/derating.ts";
 import { figure, problem } from "../shared/figures.ts";
 import { heatsinkMax_KperW, junctionTemp_C, powerRatingAt_W, rthCsFor_KperW } from "../shared/thermal.ts";
 import { checkStress } from "../shared/derating.ts";
-import { SRC } from "../shared/sources.ts";
 import type { Ctx } from "./context.ts";
 import type { DeviceLoss } from "./chains/types.ts";
 
@@ -44,8 +43,8 @@ export function thermalStage(ctx: Ctx, losses: DeviceLoss[]): ThermalResult {
     const limit = tjLimit_C(pol, l.family, l.dev.tj_max_C);
     perRole.set(l.role, { p_W: l.p_W, tj_C: tj });
     if (l.isPower) {
-      figures.push(figure("device_dissipation", "Power device dissipation (worst duty, max current)", l.p_W, "W", "thermal", "P = P_cond + P_sw at D_max, I_max, V_cc,max, f_max", SRC.DERIVED));
-      figures.push(figure("tj_free_air", "Power device T_J without heatsink (max ambient)", tj, "°C", "thermal", "T_J = T_A,max + P·R_θJA", SRC.JESD51));
+      figures.push(figure("device_dissipation", "Power device dissipation (worst duty, max current)", l.p_W, "W", "thermal", "P = P_cond + P_sw at D_max, I_max, V_cc,max, f_max", "derived"));
+      figures.push(figure("tj_free_air", "Power device T_J without heatsink (max ambient)", tj, "°C", "thermal", "T_J = T_A,max + P·R_θJA", "jesd51-2a"));
     }
     if (tj <= limit) {
       checks.push(checkTj(l.role, tj, l.dev.tj_max_C, pol, l.family));
@@ -75,6 +74,6 @@ export function thermalStage(ctx: Ctx, losses: DeviceLoss[]): ThermalResult {
       }
     }
   }
-  if (worstMargin > 0 && worstMargin < Infinity) figures.push(figure("heatsink_rth_sa_max", "Largest heatsink thermal resistance allowed", worstMargin, "K/W", "thermal", "R_θSA ≤ (T_J,limit − T_A)/P − R_θJC − R_θCS", SRC.JESD51));
+  if (worstMargin > 0 && worstMargin < Infinity) figures.push(figure("heatsink_rth_sa_max", "Largest heatsink thermal resistance allowed", worstMargin, "K/W", "thermal", "R_θSA ≤ (T_J,limit − T_A)/P − R_θJC − R_θCS", "jesd51-12"));
   return { figures, problems, checks, heatsink, perRole };
 }

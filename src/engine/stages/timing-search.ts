@@ -17,10 +17,11 @@ import { roundDown, roundUp } from "../shared/e-series.ts";
 import { hfeMin, vbeOn, vceSat } from "../shared/gain.ts";
 import { type Ctx, OVERDRIVE_K, POT_TOLERANCE } from "./context.ts";
 import { type CoreValues, type Corner, NOMINAL_K, diodeVf_V, evalCore } from "./core-model.ts";
-import { diodeCj_F } from "../shared/junction.ts";
+import { diodeCj_F } from "../shared/diode.ts";
 import { INJECTION_MAX, baseInjectionRatio } from "./astable.ts";
 import { POT_RATINGS_W, RB_MS_FACTOR } from "./timing-parts.ts";
 import { type CornerSets, type Envelope, type WorstCase, dutyExtreme, envelopeCorners, worstCaseFast } from "./worst-corners.ts";
+import { NOMINAL_TEMP_C } from "../shared/temperature.ts";
 
 export type { Range, WorstCase } from "./worst-corners.ts";
 
@@ -29,7 +30,7 @@ export const C_MAX_F = 10e-6;
 export const C_MIN_F = 100e-12;
 /**
  * Largest 5·τ_c / t_off,min at worst case: the collector must recover within the shortest
- * half-period (ENGINEERING.md §1: "5 τ_c < t_i"), or the next swing shrinks, the off side may not
+ * half-period ("5 τ_c < t_i" [src:common-practice]), or the next swing shrinks, the off side may not
  * be driven below cut-in and the core latches with both transistors on (seen in simulation at the
  * pot's ends when this limit was 5). Common practice for the astable (Millman & Taub ch. 11: the
  * recovery time constant must be short against the half-period).
@@ -110,7 +111,7 @@ interface Cand { v: CoreValues; score: number; od: number; ok: boolean }
 export function searchCore(ctx: Ctx, q: BjtClass, db: DiodeClass, base: Base): Search {
   const t = ctx.spec.targets;
   const env = envelopeOf(ctx);
-  const nominal: Corner = { vcc_V: ctx.vNom_V, t_C: 25, ...NOMINAL_K };
+  const nominal: Corner = { vcc_V: ctx.vNom_V, t_C: NOMINAL_TEMP_C, ...NOMINAL_K };
   const tTarget = 1 / ctx.f_Hz;
   const tol = ctx.rTol;
   const ranked: Cand[] = [];

@@ -13,7 +13,6 @@ import { checkStress } from "../shared/derating.ts";
 import { nearest } from "../shared/e-series.ts";
 import { figure, problem } from "../shared/figures.ts";
 import { vbeOn, vceSat } from "../shared/gain.ts";
-import { SRC } from "../shared/sources.ts";
 import { evaluateCore, lnFactor, type CollectorLoad } from "./astable.ts";
 import type { Ctx } from "./context.ts";
 import { type CoreValues, NOMINAL_K, diodeVf_V, evalCore } from "./core-model.ts";
@@ -22,6 +21,7 @@ import { INJECTION_MAX } from "./astable.ts";
 import type { TapDesign } from "./tap.ts";
 import type { ChainPlan } from "./chains/types.ts";
 import { timingParts } from "./timing-parts.ts";
+import { NOMINAL_TEMP_C } from "../shared/temperature.ts";
 
 export interface TimingResult {
   search: Search;
@@ -48,7 +48,7 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
   const t = ctx.spec.targets;
   const problems: DesignProblem[] = [...tap.problems];
   // B–E reverse swing of an unprotected core: base driven to V_BE − V_swing, V_swing ≈ V_cc − V_CE(sat)
-  // (SOURCES.md; common practice). Worst at V_cc,max and hot (lowest V_BE).
+  // [src:millman-taub-1965] [src:common-practice]. Worst at V_cc,max and hot (lowest V_BE).
   const vebReverse_V = ctx.vMax_V - vceSat(q, Math.min(q.ic_max_A, ctx.vMax_V / tap.rC_ohm)) - vbeOn(q, ctx.taMax_C);
   const vebAllowed = q.vebo_V * pol.bjt.voltage.factor;
   let diodes = false;
@@ -61,7 +61,7 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
   const delays = plan.delays(tap.info);
   const base = { rC_ohm: tap.rC_ohm, diodes, tapLoad: tap.load, inverting: plan.need.inverting, vThTap_V: tap.vThTap_V, delayOn_s: delays.on_s, delayOff_s: delays.off_s, ...(tap.preLinear_ohm !== undefined ? { preLinear_ohm: tap.preLinear_ohm } : {}) };
   // Skew from loading the tapped collector only (full recovery, equal R_B and C): the two ln factors differ.
-  const vOnNom = vbeOn(q, 25) + (diodes ? diodeVf_V(db, ctx.vNom_V / 10_000, 25) : 0);
+  const vOnNom = vbeOn(q, NOMINAL_TEMP_C) + (diodes ? diodeVf_V(db, ctx.vNom_V / 10_000, NOMINAL_TEMP_C) : 0);
   const vSat = vceSat(q, ctx.vNom_V / tap.rC_ohm);
   const skewOf = (bal?: CollectorLoad): number => {
     const c = evaluateCore({ vcc_V: ctx.vNom_V, vOn_V: vOnNom, vSat_V: vSat, rCA_ohm: tap.rC_ohm, rCB_ohm: tap.rC_ohm, cA_F: 1e-9, cB_F: 1e-9, rBA_ohm: 1e7, rBB_ohm: 1e7, loadA: tap.load, ...(bal ? { loadB: bal } : {}) });
@@ -73,7 +73,7 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
   if (skewRaw > t.duty_skew_max) {
     // Match the untapped collector's high level to the tapped one's (Thevenin).
     const vHigh = (ctx.vNom_V * tap.load.r_ohm + tap.load.v_V * tap.rC_ohm) / (tap.rC_ohm + tap.load.r_ohm);
-    const vF = diodeVf_V(db, (ctx.vNom_V - vHigh) / tap.rC_ohm, 25);
+    const vF = diodeVf_V(db, (ctx.vNom_V - vHigh) / tap.rC_ohm, NOMINAL_TEMP_C);
     balanceDiode = tap.load.v_V > 0 && vHigh > vF;
     const vL = balanceDiode ? vF : 0;
     const r = nearest((tap.rC_ohm * (vHigh - vL)) / (ctx.vNom_V - vHigh), "E24");
@@ -82,7 +82,7 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
   const search = searchCore(ctx, q, db, { ...base, ...(balance ? { balance } : {}) });
   const v = search.values;
   const w = search.worst;
-  const nominal = { vcc_V: ctx.vNom_V, t_C: 25, ...NOMINAL_K };
+  const nominal = { vcc_V: ctx.vNom_V, t_C: NOMINAL_TEMP_C, ...NOMINAL_K };
   const e0 = evalCore(v, q, db, nominal, 0);
   const e5 = evalCore(v, q, db, nominal, 0.5);
   const e1 = evalCore(v, q, db, nominal, 1);
@@ -106,27 +106,27 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
   const T = 1 / e5.f_Hz;
   const dt = e5.dtTh_s ?? 0;
   const sign = plan.need.inverting ? 1 : -1;
-  const M = SRC.MULTIVIBRATOR;
+  const M = "millman-taub-1965";
   const figures: Figure[] = [
     figure("frequency_nominal", "PWM frequency (nominal, mid control)", e5.f_Hz, "Hz", "timing", "f = 1/(t_Aoff + t_Boff); t_Xoff = R_BX·C·ln((V_cc − V_on + V_swing)/(V_cc − V_γ))", M, [w.f.lo, w.f.hi]),
-    figure("frequency_error", "Frequency error vs target (nominal)", fErr, "", "timing", "f/f_target − 1", SRC.DERIVED),
+    figure("frequency_error", "Frequency error vs target (nominal)", fErr, "", "timing", "f/f_target − 1", "derived"),
     figure("timing_ln_coefficient", "Half-period coefficient ln(...) (nominal, side A)", lnFactor(ctx.vNom_V, e5.vOn_V, e5.timing.swingB_V, e5.vCutIn_V), "", "timing", "ln((V_cc − V_on + V_swing)/(V_cc − V_γ)), V_γ the cut-in level → ln 2 when V_swing = V_cc − V_on = V_cc − V_γ", M),
-    figure("timing_capacitor", "Timing capacitors C (each)", v.c_F, "F", "timing", "C = T_target / (period per farad), E12", SRC.IEC60063),
-    figure("timing_collector_resistor", "Collector resistors R_C (each)", v.rC_ohm, "Ω", "timing", "R_C = α·(V_cc,min − V_clamp)/I_need, bounded by the timing transistor's current", SRC.COMMON),
-    figure("duty_pot", "Duty potentiometer", v.pot_ohm, "Ω", "duty", "E3 pot value; total base resistance R_BA + R_BB = 2·R_end + R_pot stays constant", SRC.COMMON),
-    figure("duty_end_resistor", "End-stop resistor RB_A (minimum duty)", v.rEndA_ohm, "Ω", "duty", "D_min ≈ R_A/(R_A + R_B + R_pot) at the worst corner ≤ duty_min, largest such E24 value", SRC.DERIVED),
-    figure("duty_end_resistor_b", "End-stop resistor RB_B (maximum duty)", v.rEndB_ohm, "Ω", "duty", "1 − D_max ≈ R_B/(R_A + R_B + R_pot) at the worst corner ≤ 1 − duty_max, largest such E24 value", SRC.DERIVED),
-    figure("timing_overdrive", "Timing transistor overdrive (worst case)", search.overdrive, "", "timing", "k = β_min·I_B/I_C, V_cc,min, T_A,min, R_B = (R_end + R_pot) at +tolerance; need k ≥ 2", SRC.COMMON),
-    figure("collector_recovery", "Collector recovery 5·τ_c / shortest half-period (worst)", w.recovery, "", "timing", "5·(R_C ∥ R_load)·C / t_off,min (≤ 1: recovered)", SRC.DERIVED),
-    figure("duty_min", "Duty at the load, control at 0 (nominal)", e0.duty, "", "duty", "D = (t_Aoff ∓ Δt_th ∓ delays)/T at ctrl 0", SRC.DERIVED, [w.dMin.lo, w.dMin.hi]),
-    figure("duty_mid", "Duty at the load, control at ½ (nominal)", e5.duty, "", "duty", "D at ctrl ½", SRC.DERIVED, [w.dMid.lo, w.dMid.hi]),
-    figure("duty_max", "Duty at the load, control at 1 (nominal)", e1.duty, "", "duty", "D at ctrl 1", SRC.DERIVED, [w.dMax.lo, w.dMax.hi]),
-    figure("duty_skew", "Timing-core duty skew from loading (nominal)", skew, "", "timing", "|t_Aoff/T − R_BA/(R_BA + R_BB)| at ctrl ½", SRC.DERIVED),
-    figure("chain_threshold", "Chain switching threshold at the tap", tap.vThTap_V, "V", "chain", plan.need.kind === "gate-voltage" ? "V_th,tap = V_GS(th)·(R_G + R_GS)/R_GS" : tap.preLinear_ohm !== undefined ? "V_th,tap = V_BE·(R_T + R_BE)/R_BE" : plan.need.iEdge_A !== undefined ? "V_th,tap = n·V_BE(on) + R_T·I_B1 at the load's edge current" : "V_th,tap = n·V_BE(on)", SRC.COMMON),
-    figure("duty_error_threshold", "Duty error from the switching threshold", (sign * dt) / T, "", "duty", "Δt/T, Δt = τ_c·ln((V_C,high − V_CE(sat))/(V_C,high − V_th)); − non-inverting, + inverting", SRC.DERIVED),
-    figure("duty_error_delays", "Duty error from device delays", (v.delayOff_s - v.delayOn_s) / T, "", "duty", `(d_off − d_on)/T; ${delays.note}`, SRC.COMMON),
-    figure("be_reverse_voltage", "B–E reverse swing without protection", vebReverse_V, "V", "timing", "V_EB,rev = V_cc,max − V_CE(sat) − V_BE(hot)", SRC.COMMON),
-    figure("tap_current_min", "Chain input current, worst case low", tap.info.iMin_A, "A", "chain", "I = (V_cc,min − V_clamp)/((R_C + R_T)·1.05)", SRC.DERIVED),
+    figure("timing_capacitor", "Timing capacitors C (each)", v.c_F, "F", "timing", "C = T_target / (period per farad), E12", "iec-60063"),
+    figure("timing_collector_resistor", "Collector resistors R_C (each)", v.rC_ohm, "Ω", "timing", "R_C = α·(V_cc,min − V_clamp)/I_need, bounded by the timing transistor's current", "common-practice"),
+    figure("duty_pot", "Duty potentiometer", v.pot_ohm, "Ω", "duty", "E3 pot value; total base resistance R_BA + R_BB = 2·R_end + R_pot stays constant", "common-practice"),
+    figure("duty_end_resistor", "End-stop resistor RB_A (minimum duty)", v.rEndA_ohm, "Ω", "duty", "D_min ≈ R_A/(R_A + R_B + R_pot) at the worst corner ≤ duty_min, largest such E24 value", "derived"),
+    figure("duty_end_resistor_b", "End-stop resistor RB_B (maximum duty)", v.rEndB_ohm, "Ω", "duty", "1 − D_max ≈ R_B/(R_A + R_B + R_pot) at the worst corner ≤ 1 − duty_max, largest such E24 value", "derived"),
+    figure("timing_overdrive", "Timing transistor overdrive (worst case)", search.overdrive, "", "timing", "k = β_min·I_B/I_C, V_cc,min, T_A,min, R_B = (R_end + R_pot) at +tolerance; need k ≥ 2", "common-practice"),
+    figure("collector_recovery", "Collector recovery 5·τ_c / shortest half-period (worst)", w.recovery, "", "timing", "5·(R_C ∥ R_load)·C / t_off,min (≤ 1: recovered)", "derived"),
+    figure("duty_min", "Duty at the load, control at 0 (nominal)", e0.duty, "", "duty", "D = (t_Aoff ∓ Δt_th ∓ delays)/T at ctrl 0", "derived", [w.dMin.lo, w.dMin.hi]),
+    figure("duty_mid", "Duty at the load, control at ½ (nominal)", e5.duty, "", "duty", "D at ctrl ½", "derived", [w.dMid.lo, w.dMid.hi]),
+    figure("duty_max", "Duty at the load, control at 1 (nominal)", e1.duty, "", "duty", "D at ctrl 1", "derived", [w.dMax.lo, w.dMax.hi]),
+    figure("duty_skew", "Timing-core duty skew from loading (nominal)", skew, "", "timing", "|t_Aoff/T − R_BA/(R_BA + R_BB)| at ctrl ½", "derived"),
+    figure("chain_threshold", "Chain switching threshold at the tap", tap.vThTap_V, "V", "chain", plan.need.kind === "gate-voltage" ? "V_th,tap = V_GS(th)·(R_G + R_GS)/R_GS" : tap.preLinear_ohm !== undefined ? "V_th,tap = V_BE·(R_T + R_BE)/R_BE" : plan.need.iEdge_A !== undefined ? "V_th,tap = n·V_BE(on) + R_T·I_B1 at the load's edge current" : "V_th,tap = n·V_BE(on)", "common-practice"),
+    figure("duty_error_threshold", "Duty error from the switching threshold", (sign * dt) / T, "", "duty", "Δt/T, Δt = τ_c·ln((V_C,high − V_CE(sat))/(V_C,high − V_th)); − non-inverting, + inverting", "derived"),
+    figure("duty_error_delays", "Duty error from device delays", (v.delayOff_s - v.delayOn_s) / T, "", "duty", `(d_off − d_on)/T; ${delays.note}`, "common-practice"),
+    figure("be_reverse_voltage", "B–E reverse swing without protection", vebReverse_V, "V", "timing", "V_EB,rev = V_cc,max − V_CE(sat) − V_BE(hot)", "common-practice"),
+    figure("tap_current_min", "Chain input current, worst case low", tap.info.iMin_A, "A", "chain", "I = (V_cc,min − V_clamp)/((R_C + R_T)·1.05)", "derived"),
   ];
   return { search, values: v, parts: built.parts, figures, problems: [...problems, ...built.problems], checks: built.checks, vebReverse_V, timingLoss_W: built.loss_W, fCtrl1_Hz: e1.f_Hz, vSatNom_V: e1.vSat_V };
 }

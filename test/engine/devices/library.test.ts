@@ -51,13 +51,13 @@ describe("device library files", () => {
   });
 });
 
-describe("registered values match SOURCES.md 'Registered data of generic types' (seen in reproductions)", () => {
+describe("registered values match the registered data of generic types (seen in reproductions) [src:jedec-registered]", () => {
   it("2N3904 class: V_CEO 40 V, V_EBO 6.0 V, I_C 200 mA, P_tot 625 mW at T_A 25 °C, h_FE ≥ 100 at 10 mA and ≥ 30 at 100 mA, T_J 150 °C", () => {
     const q = bjt("npn-small-signal");
     expect([q.vceo_V, q.vebo_V, q.ic_max_A, q.ptot_W, q.ptot_at, q.tj_max_C]).toEqual([40, 6, 0.2, 0.625, "ambient", 150]);
     expect(q.hfe.find((p) => p.ic_A === 0.01)?.min).toBe(100);
     expect(q.hfe.find((p) => p.ic_A === 0.1)?.min).toBe(30);
-    expect(q.rth_ja_KperW).toBe(200); // TO-92 still-air θ_JA ≈ 200 K/W (SOURCES.md, JESD51 section)
+    expect(q.rth_ja_KperW).toBe(200); // TO-92 still-air θ_JA ≈ 200 K/W [src:package-theta-ja]
   });
 
   it("2N2222A class: V_CEO 40 V, V_EBO 6 V, I_C 800 mA, P_tot 400 mW, V_CE(sat) 0.3 V at 150/15 mA and 1.0 V at 500/50 mA", () => {
@@ -78,7 +78,7 @@ describe("registered values match SOURCES.md 'Registered data of generic types' 
     expect(Math.abs((q.tj_max_C - 25) / q.rth_jc_KperW! - q.ptot_W) / q.ptot_W).toBeLessThan(0.01);
   });
 
-  it("TO-220 classes use the seen still-air θ_JA ≈ 62.5 K/W (SOURCES.md, JESD51 section)", () => {
+  it("TO-220 classes use the seen still-air θ_JA ≈ 62.5 K/W [src:package-theta-ja]", () => {
     for (const d of readLibrary().values()) if (d.package === "TO-220") expect(d.rth_ja_KperW, d.id).toBe(62.5);
   });
 

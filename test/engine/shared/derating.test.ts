@@ -3,10 +3,10 @@ import { checkStress, checkTj, tjLimit_C, verdictOf } from "../../../src/engine/
 import { readPolicy } from "../devices/read-library.ts";
 
 // The policy under test is the real designs/policies/default.json, whose factors come from
-// NASA EEE-INST-002 (from memory) and MIL-DTL-917 Table XIX (seen) per SOURCES.md.
+// NASA EEE-INST-002 (from memory) and MIL-DTL-917 Table XIX (seen) [src:nasa-eee-inst-002] [src:mil-dtl-917].
 const policy = readPolicy();
 
-describe("the default policy carries the published factors (SOURCES.md, 'Derating guidelines')", () => {
+describe("the default policy carries the published factors (docs/sources.md)", () => {
   it("transistors: power 50 %, voltage 75 %, current 75 % (NASA EEE-INST-002, from memory)", () => {
     expect([policy.bjt.power.factor, policy.bjt.voltage.factor, policy.bjt.current.factor]).toEqual([0.5, 0.75, 0.75]);
   });

@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import fc from "fast-check";
 import { SERIES_MANTISSAS, SERIES_TOLERANCE, isInSeries, nearest, roundDown, roundUp, seriesBetween } from "../../../src/engine/shared/e-series.ts";
 
-// IEC 60063:2015, Table 1 (E6, E12, E24), copied by hand from SOURCES.md ("seen in copies").
+// IEC 60063:2015, Table 1 (E6, E12, E24), copied by hand ("seen in copies") [src:iec-60063].
 const TABLE1_E24 = [1.0, 1.1, 1.2, 1.3, 1.5, 1.6, 1.8, 2.0, 2.2, 2.4, 2.7, 3.0, 3.3, 3.6, 3.9, 4.3, 4.7, 5.1, 5.6, 6.2, 6.8, 7.5, 8.2, 9.1];
 const TABLE1_E12 = [1.0, 1.2, 1.5, 1.8, 2.2, 2.7, 3.3, 3.9, 4.7, 5.6, 6.8, 8.2];
 const TABLE1_E6 = [1.0, 1.5, 2.2, 3.3, 4.7, 6.8];
@@ -21,7 +21,7 @@ describe("IEC 60063 series lists", () => {
     expect(SERIES_MANTISSAS.E6.map((m) => m / 100)).toEqual(TABLE1_E6);
   });
 
-  it("E24 is not the rounded geometric series at 2.7 3.0 3.3 3.6 3.9 4.3 4.7 8.2 (IEC 60063 Table 1; SOURCES.md pitfall)", () => {
+  it("E24 is not the rounded geometric series at 2.7 3.0 3.3 3.6 3.9 4.3 4.7 8.2 (IEC 60063 Table 1 [src:iec-60063])", () => {
     const generated = Array.from({ length: 24 }, (_, k) => Math.round(10 * 10 ** (k / 24)) / 10);
     const differs = TABLE1_E24.filter((v, k) => v !== generated[k]);
     expect(differs).toEqual([2.7, 3.0, 3.3, 3.6, 3.9, 4.3, 4.7, 8.2]);
@@ -43,7 +43,7 @@ describe("IEC 60063 series lists", () => {
     for (const v of SERIES_MANTISSAS.E12) expect(SERIES_MANTISSAS.E24).toContain(v);
   });
 
-  it("conventional tolerances: E6 20 %, E12 10 %, E24 5 %, E48 2 %, E96 1 % (IEC 60063 convention, SOURCES.md)", () => {
+  it("conventional tolerances: E6 20 %, E12 10 %, E24 5 %, E48 2 %, E96 1 % (IEC 60063 convention [src:iec-60063])", () => {
     expect(SERIES_TOLERANCE).toEqual({ E6: 0.2, E12: 0.1, E24: 0.05, E48: 0.02, E96: 0.01 });
   });
 });

@@ -1,21 +1,20 @@
 import { describe, expect, it } from "vitest";
 import { figure, problem } from "../../../src/engine/shared/figures.ts";
-import { SRC } from "../../../src/engine/shared/sources.ts";
-import { CONFIDENCE } from "../../../src/model/kinds.ts";
+import { cite } from "../../../src/engine/shared/sources.ts";
 import { EngineMisuseError } from "../../../src/model/errors.ts";
 
 describe("figure(): numbers with provenance", () => {
   it("carries formula, source and confidence, and orders the range [low, high]", () => {
-    const f = figure("frequency_nominal", "PWM frequency (nominal)", 1000, "Hz", "timing", "f = 1/T", SRC.MULTIVIBRATOR, [1100, 900]);
+    const f = figure("frequency_nominal", "PWM frequency (nominal)", 1000, "Hz", "timing", "f = 1/T", "millman-taub-1965", [1100, 900]);
     expect(f).toEqual({
       key: "frequency_nominal", label: "PWM frequency (nominal)", value: 1000, unit: "Hz", stage: "timing", formula: "f = 1/T",
-      source: SRC.MULTIVIBRATOR.source, confidence: "from-memory", range: [900, 1100],
+      source: "millman-taub-1965", confidence: "from-memory", range: [900, 1100],
     });
   });
 
   it("refuses NaN and Infinity in value and range, naming the figure", () => {
-    expect(() => figure("x", "x", Number.NaN, "V", "s", "f", SRC.COMMON)).toThrow(EngineMisuseError);
-    expect(() => figure("x", "x", 1, "V", "s", "f", SRC.COMMON, [0, Infinity])).toThrow(/figure "x" range high/);
+    expect(() => figure("x", "x", Number.NaN, "V", "s", "f", "common-practice")).toThrow(EngineMisuseError);
+    expect(() => figure("x", "x", 1, "V", "s", "f", cite("common-practice"), [0, Infinity])).toThrow(/figure "x" range high/);
   });
 });
 
@@ -29,14 +28,5 @@ describe("problem(): design problems as data", () => {
 
   it("refuses non-finite params", () => {
     expect(() => problem("s", "", "r", "error", "m", { actual: Number.NaN })).toThrow(EngineMisuseError);
-  });
-});
-
-describe("SRC: every source names itself and uses a known confidence", () => {
-  it("has non-empty source text and a confidence from the closed list", () => {
-    for (const [k, s] of Object.entries(SRC)) {
-      expect(s.source.length, k).toBeGreaterThan(5);
-      expect(CONFIDENCE as readonly string[]).toContain(s.confidence);
-    }
   });
 });

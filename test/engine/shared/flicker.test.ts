@@ -3,7 +3,7 @@ import { flickerLimits, flickerRegion, modulationPct } from "../../../src/engine
 import { expectClose } from "../../helpers/close.ts";
 
 describe("IEEE Std 1789-2015 §8.1.1 flicker regions", () => {
-  it("at 120 Hz: low-risk limit 0.08·f = 9.6 %, no-observable-effect 0.0333·f ≈ 4.0 % (IEEE 1789-2015 §8.1.1; SOURCES.md check values)", () => {
+  it("at 120 Hz: low-risk limit 0.08·f = 9.6 %, no-observable-effect 0.0333·f ≈ 4.0 % (IEEE 1789-2015 §8.1.1 [src:ieee-1789])", () => {
     const l = flickerLimits(120);
     expectClose(l.lowRisk_pct!, 9.6, 1e-12);
     expectClose(l.noEffect_pct!, 4.0, 0.001);
@@ -21,7 +21,7 @@ describe("IEEE Std 1789-2015 §8.1.1 flicker regions", () => {
     expect(flickerLimits(3000)).toEqual({ lowRisk_pct: null, noEffect_pct: null });
   });
 
-  it("full-depth PWM (100 %) is low-risk from 1250 Hz and without observable effect from 3000 Hz (IEEE 1789-2015; SOURCES.md)", () => {
+  it("full-depth PWM (100 %) is low-risk from 1250 Hz and without observable effect from 3000 Hz (IEEE 1789-2015 [src:ieee-1789])", () => {
     expect(flickerRegion(1200, 100)).toBe("exceeds");
     expect(flickerRegion(1249, 100)).toBe("exceeds");
     expect(flickerRegion(1250, 100)).toBe("low-risk");

@@ -8,12 +8,12 @@ const q3904 = bjt("npn-small-signal");
 const q3055 = bjt("npn-power-to3");
 
 describe("hfeMin: minimum gain from the class's gain points", () => {
-  it("returns the registered 2N3904 minima at their currents: 100 at 10 mA, 30 at 100 mA (SOURCES.md registered-data table)", () => {
+  it("returns the registered 2N3904 minima at their currents: 100 at 10 mA, 30 at 100 mA [src:jedec-registered]", () => {
     expect(hfeMin(q3904, 0.01, 25)).toBe(100);
     expect(hfeMin(q3904, 0.1, 25)).toBe(30);
   });
 
-  it("returns the registered 2N3055 minima: 20 at 4 A, 5 at 10 A (SOURCES.md registered-data table)", () => {
+  it("returns the registered 2N3055 minima: 20 at 4 A, 5 at 10 A [src:jedec-registered]", () => {
     expect(hfeMin(q3055, 4, 25)).toBe(20);
     expect(hfeMin(q3055, 10, 25)).toBe(5);
   });
@@ -51,7 +51,7 @@ describe("hfeMin: minimum gain from the class's gain points", () => {
 });
 
 describe("saturation and on voltages", () => {
-  it("vceSat is the registered maximum at its points: 2N3055 class 1.1 V at 4 A (SOURCES.md), 2N2222A class 0.3 V at 150 mA and 1.0 V at 500 mA (SOURCES.md)", () => {
+  it("vceSat is the registered maximum at its points: 2N3055 class 1.1 V at 4 A, 2N2222A class 0.3 V at 150 mA and 1.0 V at 500 mA [src:jedec-registered]", () => {
     expect(vceSat(q3055, 4)).toBe(1.1);
     const q2222 = bjt("npn-medium");
     expect(vceSat(q2222, 0.15)).toBe(0.3);

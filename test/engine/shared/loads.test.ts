@@ -4,7 +4,7 @@ import { LOAD_KINDS } from "../../../src/model/kinds.ts";
 import { expectClose } from "../../helpers/close.ts";
 
 describe("peak currents", () => {
-  it("lamp inrush is 10–15× the running current: 12× nominal, 15× worst (Fink & Beaty, 11th ed., p. 22-8, from memory; SOURCES.md)", () => {
+  it("lamp inrush is 10–15× the running current: 12× nominal, 15× worst (Fink & Beaty, 11th ed., p. 22-8, from memory [src:fink-beaty-11e])", () => {
     expect(lampInrush_A(1, "nominal")).toBe(12);
     expect(lampInrush_A(1)).toBe(15);
   });

@@ -3,15 +3,15 @@ import { collectorThevenin, evaluateCore, halfPeriod_s, lnFactor, thresholdDelay
 import { expectClose } from "../../helpers/close.ts";
 
 // Exact half-period t = R·C·ln((2Vcc − V_BE − V_CE(sat))/(Vcc − V_BE)) — Millman & Taub, Pulse,
-// Digital and Switching Waveforms, 1965, ch. 11 (from memory); check coefficients from SOURCES.md
+// Digital and Switching Waveforms, 1965, ch. 11 (from memory); check coefficients derived [src:millman-taub-1965]
 // (V_BE 0.6 V, V_CE(sat) 0.1 V), derived there and re-derived here by hand.
 describe("astable half-period coefficient", () => {
   it.each([
     [5, 0.7484], // ln(9.3/4.4) = ln 2.11364 = 0.74840
     [9, 0.7225], // ln(17.3/8.4) = ln 2.05952 = 0.72247
     [12, 0.7148], // ln(23.3/11.4) = ln 2.04386 = 0.71484
-  ])("Vcc %d V → %f (SOURCES.md check coefficient)", (vcc, k) => {
-    expectClose(lnFactor(vcc, 0.6, vcc - 0.1), k, 1e-4, "SOURCES.md astable check coefficient");
+  ])("Vcc %d V → %f (derived check coefficient)", (vcc, k) => {
+    expectClose(lnFactor(vcc, 0.6, vcc - 0.1), k, 1e-4, "astable check coefficient [src:millman-taub-1965]");
   });
   it("halfPeriod(R, C, vcc) → ln2·R·C when vcc ≫ V_BE (textbook limit)", () => {
     expectClose(halfPeriod_s(10_000, 1e-7, 1e6, 0.6, 1e6 - 0.6), Math.LN2 * 10_000 * 1e-7, 1e-6);
@@ -19,7 +19,7 @@ describe("astable half-period coefficient", () => {
 });
 
 describe("collector loading (Thevenin)", () => {
-  it("high level = (Vcc·R_T + V_BE·R_C)/(R_C + R_T), source R_C ∥ R_T (ENGINEERING.md §1, common practice)", () => {
+  it("high level = (Vcc·R_T + V_BE·R_C)/(R_C + R_T), source R_C ∥ R_T [src:common-practice]", () => {
     // 12 V, R_C 1 kΩ, R_T 10 kΩ into a 0.7 V base: (120000 + 700)/11000 = 10.9727 V; 1k ∥ 10k = 909.09 Ω
     const t = collectorThevenin(12, 1000, { r_ohm: 10_000, v_V: 0.7 });
     expectClose(t.v_V, 10.97273, 1e-5);

@@ -29,7 +29,7 @@ describe("bjt-single drive (forced β 10, or k = 2 at β_min when β_min < 20 �
   });
 });
 
-describe("Darlington saturation voltage V_CE(sat),1 + V_BE,2 (ENGINEERING.md §3, common practice)", () => {
+describe("Darlington saturation voltage V_CE(sat),1 + V_BE,2 [src:common-practice]", () => {
   it("2-stage: never below V_CE(sat) of the driver plus the output V_BE", () => {
     const ctx = makeContext(makeSpec({ supply_V: 24, load_A: 2, chain: "darlington-2", load_kind: "resistive" }));
     const [d1, d2] = [ctx.spec.devices.driver_npn as BjtClass, ctx.spec.devices.power_npn as BjtClass];

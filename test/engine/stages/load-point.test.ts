@@ -1,11 +1,13 @@
 /**
- * The load at its on-state operating point (src/engine/stages/load-point.ts, load.ts): LED string
- * diode law, motor back-EMF at constant torque, the starved-load rule, and the nominal switching
+ * The load at its on-state operating point (src/engine/stages/load-point.ts, load.ts; the LED
+ * string's diode law is src/engine/shared/diode.ts): LED string diode law, motor back-EMF at constant torque, the starved-load rule, and the nominal switching
  * loss from nominal transition times. Hand arithmetic beside each check.
  */
 import { describe, expect, it } from "vitest";
 import { sizeVariant } from "../../../src/engine/index.ts";
-import { LED_STRING_IS_A, STARVED_FRACTION, VT_27C_V, ledCurrent_A, ledLaw, motorEmf_V } from "../../../src/engine/stages/load-point.ts";
+import { STARVED_FRACTION, motorEmf_V } from "../../../src/engine/stages/load-point.ts";
+import { LED_STRING_IS_A, diodeSeriesCurrent_A, ledStringLaw } from "../../../src/engine/shared/diode.ts";
+import { VT_NOMINAL_V } from "../../../src/engine/shared/temperature.ts";
 import { switchingLoss_W } from "../../../src/engine/shared/losses.ts";
 import { expectClose } from "../../helpers/close.ts";
 import { NPN_HIGH_GAIN, type SpecOpts, makeSpec } from "../fixtures.ts";
@@ -14,27 +16,24 @@ const size = (o: SpecOpts) => sizeVariant(makeSpec({ override: { timing_npn: NPN
 const fig = (s: ReturnType<typeof size>, k: string): number => s.figures.find((f) => f.key === k)!.value;
 
 describe("LED string diode law (Shockley, one diode for the string)", () => {
-  it("V_T at 27 °C = k·T/q = 25.865 mV (CODATA 2018 exact k and q)", () => {
-    expectClose(VT_27C_V, 0.025865, 1e-4, "kT/q at 300.15 K");
-  });
   it("the fitted law gives the string's drop back at the fitting current", () => {
-    const law = ledLaw(9, 1.1);
+    const law = ledStringLaw(9, 1.1);
     expect(law.is_A).toBe(LED_STRING_IS_A);
-    expectClose(law.n * VT_27C_V * Math.log1p(1.1 / law.is_A), 9, 1e-12);
+    expectClose(law.n * VT_NOMINAL_V * Math.log1p(1.1 / law.is_A), 9, 1e-12);
   });
   it("current solves R·I + N·V_T·ln(1 + I/IS) = V (hand: 12 V strip, 1 A, R = 3 Ω, fitted at 1.1 A)", () => {
     // N·V_T = 9/ln(1.1e12) = 9/27.726 = 0.32461 V. At 0.9775 A: 2.9325 + 0.32461·ln(9.775e11)
     // = 2.9325 + 0.32461·27.608 = 2.9325 + 8.962 = 11.894 V ≈ 12 − 0.1 → I ≈ 0.98 A (a 0.1 V drop
     // costs ≈ 2 %, less than the 3.3 % a constant-V_F model gives: the string's drop falls too).
-    const law = ledLaw(9, 1.1);
-    const i = ledCurrent_A(11.9, 3, law);
-    expectClose(3 * i + law.n * VT_27C_V * Math.log1p(i / law.is_A), 11.9, 1e-12, "residual");
+    const law = ledStringLaw(9, 1.1);
+    const i = diodeSeriesCurrent_A(11.9, 3, law);
+    expectClose(3 * i + law.n * VT_NOMINAL_V * Math.log1p(i / law.is_A), 11.9, 1e-12, "residual");
     expectClose(i, 0.9775, 3e-3, "hand arithmetic above");
     expect(i).toBeGreaterThan((11.9 - 9) / 3);
   });
   it("no supply → no current; never NaN", () => {
-    expect(ledCurrent_A(0, 3, ledLaw(9, 1))).toBe(0);
-    expect(Number.isFinite(ledCurrent_A(0.5, 3, ledLaw(9, 1)))).toBe(true);
+    expect(diodeSeriesCurrent_A(0, 3, ledStringLaw(9, 1))).toBe(0);
+    expect(Number.isFinite(diodeSeriesCurrent_A(0.5, 3, ledStringLaw(9, 1)))).toBe(true);
   });
 });
 

@@ -1,6 +1,7 @@
 import { describe, it, expect } from "vitest";
 import type { BjtClass } from "../../../src/model/device.ts";
-import { VT_25C_V, vbeActiveNominal_V } from "../../../src/engine/stages/chains/vbe-nominal.ts";
+import { vbeActiveNominal_V } from "../../../src/engine/stages/chains/vbe-nominal.ts";
+import { VT_NOMINAL_V } from "../../../src/engine/shared/temperature.ts";
 import { vbeSat } from "../../../src/engine/shared/gain.ts";
 import { expectClose } from "../../helpers/close.ts";
 
@@ -14,9 +15,6 @@ const npn = {
 } as unknown as BjtClass;
 
 describe("V_BE of a follower in the active region (diode law + ohmic base resistance)", () => {
-  it("thermal voltage k·T/q at 298.15 K (CODATA constants)", () => {
-    expectClose(VT_25C_V, (1.380649e-23 * 298.15) / 1.602176634e-19, 1e-4);
-  });
   it("passes through both datasheet V_BE(sat) points at their forced base currents", () => {
     expectClose(vbeActiveNominal_V(npn, 1, 0.1), 1.2, 1e-12);
     expectClose(vbeActiveNominal_V(npn, 6, 0.6), 2.0, 1e-12);
@@ -33,6 +31,6 @@ describe("V_BE of a follower in the active region (diode law + ohmic base resist
   });
   it("falls back to the typical law without V_BE(sat) points", () => {
     const none = { ...npn, vce_sat: [{ ic_A: 1, ib_A: 0.1, vce_sat_V: 0.4 }] } as BjtClass;
-    expectClose(vbeActiveNominal_V(none, 0.06, 0.001), 0.75 + VT_25C_V * Math.log(0.1), 1e-12);
+    expectClose(vbeActiveNominal_V(none, 0.06, 0.001), 0.75 + VT_NOMINAL_V * Math.log(0.1), 1e-12);
   });
 });

@@ -8,11 +8,12 @@ import { nearest } from "../../shared/e-series.ts";
 import { figure } from "../../shared/figures.ts";
 import { hfeMin, vbeOn, vbeSat, vceSat } from "../../shared/gain.ts";
 import { conductionLossBjt_W, resistorPower_W, switchingLoss_W } from "../../shared/losses.ts";
-import { SRC } from "../../shared/sources.ts";
+import { deviceSource } from "../../shared/sources.ts";
 import { resistor, transistor } from "../../../circuit/parts.ts";
 import { type Ctx, FORCED_BETA, OVERDRIVE_K } from "../context.ts";
 import { driveMargin, switchChecks, switchOffVoltage_V, vbeCold } from "./common.ts";
 import type { ChainPlan } from "./types.ts";
+import { NOMINAL_TEMP_C } from "../../shared/temperature.ts";
 
 /** Share of the base drive the bleed RBE takes at V_BE (≈ 10 %, common practice). */
 export const BLEED_SHARE = 0.1;
@@ -26,21 +27,21 @@ export function planBjtSingle(ctx: Ctx): ChainPlan {
   const forced = Math.min(FORCED_BETA, beta / OVERDRIVE_K);
   const iB_A = ctx.iMax_A / forced;
   const vClamp = vbeSat(dev, ctx.iMax_A) + (vbeCold(dev, ctx) - dev.vbe_on_V);
-  const rBE = nearest(vbeOn(dev, 25) / (BLEED_SHARE * iB_A), "E24");
+  const rBE = nearest(vbeOn(dev, NOMINAL_TEMP_C) / (BLEED_SHARE * iB_A), "E24");
   const iBleedMax = vClamp / (rBE * (1 - ctx.rTol));
   const vSwNom = vceSat(dev, ctx.iNom_A);
   const vSwMax = vceSat(dev, ctx.iMax_A);
   const rbe = resistor("chain", "RBE", rBE, { a: "qb", b: "0" }, resistorPower_W(vClamp, rBE * (1 - ctx.rTol), 1), pol, "turn-off bleed");
   const q = transistor("chain", "Q_POWER", dev, beta, { c: "sw", b: "qb", e: "0" }, { voltage_V: switchOffVoltage_V(ctx), current_A: ctx.iMax_A });
   return {
-    need: { kind: "base-current", i_A: iB_A + iBleedMax, vClamp_V: vClamp, vThreshold_V: vbeOn(dev, 25), inverting: false },
+    need: { kind: "base-current", i_A: iB_A + iBleedMax, vClamp_V: vClamp, vThreshold_V: vbeOn(dev, NOMINAL_TEMP_C), inverting: false },
     inputBleed_ohm: rBE,
     vSwNom_V: vSwNom,
     vSwMax_V: vSwMax,
     parts: [q, rbe.part],
     figures: [
-      figure("power_gain_min", "Power transistor minimum gain (cold, max current)", beta, "", "chain", "β_min(I_C,max, T_A,min) from the class's gain points, tempco applied", SRC.REGISTERED),
-      figure("power_base_current", "Power stage base current needed", iB_A, "A", "chain", "I_B = I_C,max / min(10, β_min/2)", SRC.COMMON),
+      figure("power_gain_min", "Power transistor minimum gain (cold, max current)", beta, "", "chain", "β_min(I_C,max, T_A,min) from the class's gain points, tempco applied", deviceSource(dev, "hfe")),
+      figure("power_base_current", "Power stage base current needed", iB_A, "A", "chain", "I_B = I_C,max / min(10, β_min/2)", "common-practice"),
     ],
     problems: [...rbe.problems],
     checks: [...switchChecks(ctx, "Q_POWER", dev), ...rbe.checks],
@@ -57,9 +58,9 @@ export function planBjtSingle(ctx: Ctx): ChainPlan {
         parts: [], problems: [], checks: [],
         figures: [
           driveMargin("power", "power transistor", tap.iMin_A - iBleedMax, ctx.iMax_A / beta),
-          figure("load_current_max", "Load current, worst case (max supply)", ctx.iMax_A, "A", "load", "I = (V_cc,max − V_f)/R_load (load model)", SRC.DERIVED),
-          figure("conduction_loss", "Conduction loss, power device", pCond, "W", "chain", "P = I_C,max · V_CE(sat) · D_max", SRC.COMMON),
-          figure("switching_loss", "Switching loss, power device", pSw, "W", "chain", ctx.switching === "resistive" ? "P = ⅙·V·I·(t_r + t_s + t_f)·f" : "P = ½·V·I·(t_r + t_s + t_f)·f", ctx.switching === "resistive" ? SRC.RASHID_SW : SRC.MOHAN_SW),
+          figure("load_current_max", "Load current, worst case (max supply)", ctx.iMax_A, "A", "load", "I = (V_cc,max − V_f)/R_load (load model)", "derived"),
+          figure("conduction_loss", "Conduction loss, power device", pCond, "W", "chain", "P = I_C,max · V_CE(sat) · D_max", "common-practice"),
+          figure("switching_loss", "Switching loss, power device", pSw, "W", "chain", ctx.switching === "resistive" ? "P = ⅙·V·I·(t_r + t_s + t_f)·f" : "P = ½·V·I·(t_r + t_s + t_f)·f", ctx.switching === "resistive" ? "rashid-4e-ex4-2" : "mohan-3e-eq2-6"),
         ],
         losses: [{ role: "Q_POWER", dev, family: "bjt", pCond_W: pCond + pBase, pSw_W: pSw, p_W: p, isPower: true }],
       };

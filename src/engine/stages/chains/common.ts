@@ -2,12 +2,12 @@
  * Helpers shared by the chain modules: stresses of the switching device and a drive-margin figure.
  */
 import type { BjtClass, MosfetClass } from "../../../model/device.ts";
-import type { StressCheck } from "../../../model/derating.ts";
+import type { DeratingRule, StressCheck } from "../../../model/derating.ts";
 import type { Figure } from "../../../model/figure.ts";
 import type { PartRole } from "../../../model/part-roles.ts";
 import { checkStress } from "../../shared/derating.ts";
 import { figure } from "../../shared/figures.ts";
-import { SRC } from "../../shared/sources.ts";
+import { cite } from "../../shared/sources.ts";
 import { vbeOn } from "../../shared/gain.ts";
 import type { Ctx } from "../context.ts";
 
@@ -33,7 +33,11 @@ export function switchChecks(ctx: Ctx, role: PartRole, dev: BjtClass | MosfetCla
   const vRating = dev.family === "nmos" ? dev.vds_V : dev.vceo_V;
   const iRating = dev.family === "nmos" ? dev.id_A : dev.ic_max_A;
   const pulse = dev.family === "nmos" ? (dev.idm_A ?? dev.id_A) : (dev.icm_A ?? dev.ic_max_A);
-  const peakRule = { factor: 1, source: "absolute maximum (pulse) rating: a start-up or stall peak may reach but not exceed it", confidence: "common-practice" as const };
+  const peakRule: DeratingRule = {
+    factor: 1,
+    ...cite("common-practice"),
+    note: "absolute maximum (pulse) rating: a start-up or stall peak may reach but not exceed it",
+  };
   return [
     checkStress(role, "voltage", switchOffVoltage_V(ctx), vRating, "V", fam.voltage, pol.marginal_above),
     checkStress(role, "current", ctx.iMax_A, iRating, "A", fam.current, pol.marginal_above),
@@ -59,6 +63,6 @@ export function driveMargin(stageKey: string, what: string, provided_A: number, 
   return figure(
     `drive_margin_${stageKey}`, `Drive margin, ${what}`, provided_A / needed_A, "", "chain",
     "margin = I_B,provided(min supply, tolerances) ÷ (I_C,max / β_min(I_C, T_A,min))",
-    SRC.COMMON,
+    "common-practice",
   );
 }

@@ -1,6 +1,6 @@
 /**
  * darlington-2 / darlington-3: emitter-follower NPN stack, low side (docs/topologies.md). It
- * cannot saturate: V_sw = V_CE(sat),1 + Σ V_BE,i (i ≥ 2) (ENGINEERING.md §3, common practice);
+ * cannot saturate: V_sw = V_CE(sat),1 + Σ V_BE,i (i ≥ 2) [src:common-practice];
  * that voltage × current is heat. Bleed RBE on the last base. Devices: 2-stage = driver_npn →
  * power_npn; 3-stage = timing_npn → driver_npn → power_npn (each stage carries ≈ 1/β of the next).
  */
@@ -11,7 +11,6 @@ import { nearest } from "../../shared/e-series.ts";
 import { figure } from "../../shared/figures.ts";
 import { hfeMin, vbeOn, vbeSat, vceSat } from "../../shared/gain.ts";
 import { conductionLossBjt_W, resistorPower_W, switchingLoss_W } from "../../shared/losses.ts";
-import { SRC } from "../../shared/sources.ts";
 import { resistor, transistor } from "../../../circuit/parts.ts";
 import { type Ctx, OVERDRIVE_K, loadCurrentAt_A } from "../context.ts";
 import { needAtMinSupply, driveMargin, switchChecks, switchOffVoltage_V, vbeCold } from "./common.ts";
@@ -19,6 +18,7 @@ import { BLEED_SHARE } from "./bjt-single.ts";
 import type { ChainPlan, DeviceLoss } from "./types.ts";
 import { vceSatNominal_V } from "./sat-nominal.ts";
 import { vbeActiveNominal_V } from "./vbe-nominal.ts";
+import { NOMINAL_TEMP_C } from "../../shared/temperature.ts";
 
 /** The stack's transistors from input to output (docs/topologies.md). */
 const STACK_ROLES = ["Q_D1", "Q_D2", "Q_D3"] as const satisfies readonly PartRole[];
@@ -75,13 +75,13 @@ export function planDarlington(ctx: Ctx, n: 2 | 3): ChainPlan {
   const last = devs[n - 1]!;
   const pol = ctx.spec.policy;
   const probe = stackCurrents(devs, ctx.iMax_A, null, ctx.taMin_C);
-  const rBE = nearest(vbeOn(last, 25) / (BLEED_SHARE * probe.ib[n - 1]!), "E24");
+  const rBE = nearest(vbeOn(last, NOMINAL_TEMP_C) / (BLEED_SHARE * probe.ib[n - 1]!), "E24");
   const worst = stackCurrents(devs, ctx.iMax_A, rBE * (1 - ctx.rTol), ctx.taMin_C);
-  const nom = stackCurrents(devs, ctx.iNom_A, rBE, 25);
+  const nom = stackCurrents(devs, ctx.iNom_A, rBE, NOMINAL_TEMP_C);
   const vSwMax = stackVoltage(devs, worst);
   const vSwNom = stackVoltageNominal(devs, nom);
   const vClamp = devs.reduce((s, d, k) => s + vbeSat(d, Math.max(worst.ic[k]!, 1e-6)) + (vbeCold(d, ctx) - d.vbe_on_V), 0);
-  const vTh = devs.reduce((s, d) => s + vbeOn(d, 25), 0);
+  const vTh = devs.reduce((s, d) => s + vbeOn(d, NOMINAL_TEMP_C), 0);
   // Base current of the first stage, at minimum gain (cold), for the load current at each supply.
   const ib1At = (v: number): number => stackCurrents(devs, loadCurrentAt_A(ctx, v), rBE * (1 - ctx.rTol), ctx.taMin_C).ib[0]!;
   const ib1Eq = needAtMinSupply(ctx, vClamp, ib1At);
@@ -103,8 +103,8 @@ export function planDarlington(ctx: Ctx, n: 2 | 3): ChainPlan {
     need: { kind: "base-current", i_A: OVERDRIVE_K * ib1Eq, vClamp_V: vClamp, vThreshold_V: vTh, iEdge_A: ctx.switching === "clamped-inductive" ? nom.ib[0]! : nom.ib[0]! / 2, inverting: false },
     vSwNom_V: vSwNom, vSwMax_V: vSwMax, parts: [...parts, rbe.part],
     figures: [
-      figure("stack_gain_min", "Stack minimum gain (cold)", worst.beta.reduce((a, b) => a * b, 1), "", "chain", "β ≈ Π β_min,i (each at its stage current, T_A,min)", SRC.COMMON),
-      figure("turn_off_time", "Output stage turn-off time", tOffLast, "s", "chain", "t_off = t_f + (I_C/(2π f_T)) / (V_BE/R_BE)", SRC.DERIVED),
+      figure("stack_gain_min", "Stack minimum gain (cold)", worst.beta.reduce((a, b) => a * b, 1), "", "chain", "β ≈ Π β_min,i (each at its stage current, T_A,min)", "common-practice"),
+      figure("turn_off_time", "Output stage turn-off time", tOffLast, "s", "chain", "t_off = t_f + (I_C/(2π f_T)) / (V_BE/R_BE)", "derived"),
     ],
     problems: [...rbe.problems], checks,
     delays() {
@@ -134,10 +134,10 @@ export function planDarlington(ctx: Ctx, n: 2 | 3): ChainPlan {
         parts: [], problems: [], checks: [], losses,
         figures: [
           driveMargin("input", "stack input (Q_D1 base)", tap.iMin_A, ib1Eq),
-          figure("load_current_max", "Load current, worst case (max supply)", ctx.iMax_A, "A", "load", "I = (V_cc,max − V_f)/R_load (load model)", SRC.DERIVED),
-          figure("conduction_loss", "Conduction loss, stack", stackP - pSw, "W", "chain", "P = Σ I_C,i · V_CE,i · D_max, V_CE,n = V_CE(sat),1 + Σ V_BE", SRC.COMMON),
-          figure("switching_loss", "Switching loss, output stage", pSw, "W", "chain", ctx.switching === "resistive" ? "P = ⅙·V·I·(t_r + t_off)·f" : "P = ½·V·I·(t_r + t_off)·f", ctx.switching === "resistive" ? SRC.RASHID_SW : SRC.MOHAN_SW),
-          figure("stack_dissipation", "Dissipation in the whole stack", stackP, "W", "chain", "Σ P_i", SRC.DERIVED),
+          figure("load_current_max", "Load current, worst case (max supply)", ctx.iMax_A, "A", "load", "I = (V_cc,max − V_f)/R_load (load model)", "derived"),
+          figure("conduction_loss", "Conduction loss, stack", stackP - pSw, "W", "chain", "P = Σ I_C,i · V_CE,i · D_max, V_CE,n = V_CE(sat),1 + Σ V_BE", "common-practice"),
+          figure("switching_loss", "Switching loss, output stage", pSw, "W", "chain", ctx.switching === "resistive" ? "P = ⅙·V·I·(t_r + t_off)·f" : "P = ½·V·I·(t_r + t_off)·f", ctx.switching === "resistive" ? "rashid-4e-ex4-2" : "mohan-3e-eq2-6"),
+          figure("stack_dissipation", "Dissipation in the whole stack", stackP, "W", "chain", "Σ P_i", "derived"),
         ],
       };
     },

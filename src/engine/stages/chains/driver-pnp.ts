@@ -9,7 +9,7 @@ import { nearest, roundDown } from "../../shared/e-series.ts";
 import { figure, problem } from "../../shared/figures.ts";
 import { hfeMin, vbeOn, vbeSat, vceSat } from "../../shared/gain.ts";
 import { conductionLossBjt_W, switchingLoss_W } from "../../shared/losses.ts";
-import { SRC } from "../../shared/sources.ts";
+import { deviceSource } from "../../shared/sources.ts";
 import { resistor, transistor } from "../../../circuit/parts.ts";
 import { type Ctx, FORCED_BETA, OVERDRIVE_K } from "../context.ts";
 import { needAtMinSupply, driveMargin, switchChecks, switchOffVoltage_V, vbeCold } from "./common.ts";
@@ -17,6 +17,7 @@ import { BLEED_SHARE, WEAK_TURNOFF_FACTOR } from "./bjt-single.ts";
 import type { ChainPlan } from "./types.ts";
 import { vceSatNominal_V } from "./sat-nominal.ts";
 import { storageTime_s } from "../../shared/storage.ts";
+import { NOMINAL_TEMP_C } from "../../shared/temperature.ts";
 
 export function planDriverPnp(ctx: Ctx): ChainPlan {
   const D = ctx.spec.devices;
@@ -26,7 +27,7 @@ export function planDriverPnp(ctx: Ctx): ChainPlan {
   const betaP = hfeMin(qp, ctx.iMax_A, ctx.taMin_C);
   const iBP = ctx.iMax_A / Math.min(FORCED_BETA, betaP / OVERDRIVE_K);
   const vEB = vbeSat(qp, ctx.iMax_A) + (vbeCold(qp, ctx) - qp.vbe_on_V);
-  const rPU = nearest(vbeOn(qp, 25) / (BLEED_SHARE * iBP), "E24");
+  const rPU = nearest(vbeOn(qp, NOMINAL_TEMP_C) / (BLEED_SHARE * iBP), "E24");
   const iPU = vEB / (rPU * (1 - ctx.rTol));
   const iCD = iBP + iPU; // through RB_P and the driver's collector
   const vceD = vceSat(qd, iCD);
@@ -41,7 +42,7 @@ export function planDriverPnp(ctx: Ctx): ChainPlan {
   const iRbpMin = (ctx.vMin_V - vEB - vceD) / (rBP * (1 + ctx.rTol));
   const betaD = hfeMin(qd, iRbpMax, ctx.taMin_C);
   // The driver is a small-signal switch carrying only the PNP's base current: overdrive k = 2 at
-  // its minimum gain (ENGINEERING §3, R_B ≤ β_min·R_C/k) saturates it without loading the timing
+  // its minimum gain (R_B ≤ β_min·R_C/k [src:common-practice]) saturates it without loading the timing
   // core with a forced-β-10 base current; forced β 10 is kept for the power stage.
   const vClamp = vbeSat(qd, iRbpMax) + (vbeCold(qd, ctx) - qd.vbe_on_V);
   // The driver's base current at each supply (RB_P's current grows with it), referred to V_cc,min.
@@ -55,23 +56,23 @@ export function planDriverPnp(ctx: Ctx): ChainPlan {
   // worst case keeps the datasheet maximum at or above the rated test point (thermal bound).
   const vSwNom = vceSatNominal_V(qp, ctx.iNom_A);
   const off = switchOffVoltage_V(ctx);
-  // Nominal drive (25 °C, nominal supply, minimum gain as the netlist's cards carry it): RB_P's
+  // Nominal drive (nominal temperature and supply, minimum gain as the netlist's cards carry it): RB_P's
   // current, the pull-up's share, and the PNP's base current that carries the rated current.
   const inductive = ctx.switching === "clamped-inductive";
-  const betaPnom = hfeMin(qp, ctx.iNom_A, 25);
+  const betaPnom = hfeMin(qp, ctx.iNom_A, NOMINAL_TEMP_C);
   const vEBn = vbeSat(qp, ctx.iNom_A);
   const iPUn = vEBn / rPU;
   const iRbpN = Math.max(0, (ctx.vNom_V - vEBn - vceSat(qd, iCD)) / rBP);
-  const betaDnom = hfeMin(qd, Math.max(iRbpN, 1e-6), 25);
+  const betaDnom = hfeMin(qd, Math.max(iRbpN, 1e-6), NOMINAL_TEMP_C);
   // A winding's switch voltage falls only once the PNP carries the whole winding current, so the
   // tap must rise until the driver sinks I/β_P + the pull-up's current (derived).
   const iEdge = inductive ? (ctx.iNom_A / betaPnom + iPUn) / betaDnom : undefined;
   return {
-    need: { kind: "base-current", i_A: iBD, vClamp_V: vClamp, vThreshold_V: vbeOn(qd, 25), ...(iEdge === undefined ? {} : { iEdge_A: iEdge }), inverting: false },
+    need: { kind: "base-current", i_A: iBD, vClamp_V: vClamp, vThreshold_V: vbeOn(qd, NOMINAL_TEMP_C), ...(iEdge === undefined ? {} : { iEdge_A: iEdge }), inverting: false },
     vSwNom_V: vSwNom, vSwMax_V: vSwMax,
     parts: [], figures: [
-      figure("power_gain_min", "Power PNP minimum gain (cold, max current)", betaP, "", "chain", "β_min(I_C,max, T_A,min)", SRC.REGISTERED),
-      figure("power_base_current", "Power PNP base current needed", iBP, "A", "chain", "I_B = I_C,max / min(10, β_min/2)", SRC.COMMON),
+      figure("power_gain_min", "Power PNP minimum gain (cold, max current)", betaP, "", "chain", "β_min(I_C,max, T_A,min)", deviceSource(qp, "hfe")),
+      figure("power_base_current", "Power PNP base current needed", iBP, "A", "chain", "I_B = I_C,max / min(10, β_min/2)", "common-practice"),
       driveMargin("power", "power PNP (from the driver)", iRbpMin - iPU, ctx.iMax_A / betaP),
     ],
     problems,
@@ -87,7 +88,7 @@ export function planDriverPnp(ctx: Ctx): ChainPlan {
       // through R_T by the low collector (≈ V_BE/R_T, the collector's V_CE(sat) neglected), the PNP
       // through its pull-up (V_EB/R_PU).
       const iBd1 = Math.max(0, (ctx.vNom_V - vClamp) / (tap.rC_ohm + tap.rTap_ohm));
-      const tsD = storageTime_s(qd.t_storage_s, iBd1, vbeOn(qd, 25) / tap.rTap_ohm, iRbpN, betaDnom);
+      const tsD = storageTime_s(qd.t_storage_s, iBd1, vbeOn(qd, NOMINAL_TEMP_C) / tap.rTap_ohm, iRbpN, betaDnom);
       const tsP = storageTime_s(qp.t_storage_s, Math.max(0, iRbpN - iPUn), iPUn, ctx.iNom_A, betaPnom);
       return { on_s: qp.t_rise_s, off_s: tsD + tsP, note: "t_r on; t_s,drv + t_s,pnp off (charge control, winding clamps the edges)" };
     },
@@ -111,9 +112,9 @@ export function planDriverPnp(ctx: Ctx): ChainPlan {
         ],
         figures: [
           driveMargin("driver", "NPN driver", tap.iMin_A, ibdEq),
-          figure("load_current_max", "Load current, worst case (max supply)", ctx.iMax_A, "A", "load", "I = (V_cc,max − V_f)/R_load (load model)", SRC.DERIVED),
-          figure("conduction_loss", "Conduction loss, power PNP", pCond, "W", "chain", "P = I_C,max · V_CE(sat) · D_max + I_B · V_EB · D_max", SRC.COMMON),
-          figure("switching_loss", "Switching loss, power PNP", pSw, "W", "chain", ctx.switching === "resistive" ? "P = ⅙·V·I·(t_r + t_s + t_f)·f" : "P = ½·V·I·(t_r + t_s + t_f)·f", ctx.switching === "resistive" ? SRC.RASHID_SW : SRC.MOHAN_SW),
+          figure("load_current_max", "Load current, worst case (max supply)", ctx.iMax_A, "A", "load", "I = (V_cc,max − V_f)/R_load (load model)", "derived"),
+          figure("conduction_loss", "Conduction loss, power PNP", pCond, "W", "chain", "P = I_C,max · V_CE(sat) · D_max + I_B · V_EB · D_max", "common-practice"),
+          figure("switching_loss", "Switching loss, power PNP", pSw, "W", "chain", ctx.switching === "resistive" ? "P = ⅙·V·I·(t_r + t_s + t_f)·f" : "P = ½·V·I·(t_r + t_s + t_f)·f", ctx.switching === "resistive" ? "rashid-4e-ex4-2" : "mohan-3e-eq2-6"),
         ],
       };
     },

@@ -19,6 +19,7 @@
  */
 import { EngineMisuseError } from "../../../model/errors.ts";
 import type { SwitchingKind } from "../../shared/losses.ts";
+import { findRoot } from "../../shared/root.ts";
 
 export interface ReleasedEdge {
   /** Largest gate current the follower can source at the plateau, A. */
@@ -34,17 +35,11 @@ export interface ReleasedEdge {
 
 const STEPS = 400;
 
-/** Time at which the gate has received charge q_C (bisection on the monotone Q(t)). */
+/** Time at which the gate has received charge q_C (Q(t) rises monotonically; Q(0) = 0 < q). */
 function timeForCharge_s(q_C: number, iG_A: number, tau_s: number): number {
   const charge = (t: number): number => iG_A * (t - tau_s * (1 - Math.exp(-t / tau_s)));
-  let lo = 0;
-  let hi = q_C / iG_A + tau_s; // Q(q/I + τ) ≥ q always
-  for (let k = 0; k < 80; k++) {
-    const mid = (lo + hi) / 2;
-    if (charge(mid) < q_C) lo = mid;
-    else hi = mid;
-  }
-  return hi;
+  // Q(q/I + τ) ≥ q always, so [0, q/I + τ] brackets the root.
+  return findRoot((t) => charge(t) - q_C, 0, q_C / iG_A + tau_s, { xTolRel: 1e-12, what: "gate-release timeForCharge_s" });
 }
 
 /** Equivalent linear-ramp transition time, s (see the file comment). */

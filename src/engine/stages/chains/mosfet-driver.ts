@@ -12,7 +12,7 @@ import { roundDown, roundUp } from "../../shared/e-series.ts";
 import { figure, problem } from "../../shared/figures.ts";
 import { hfeMin, vbeOn, vceSat } from "../../shared/gain.ts";
 import { conductionLossBjt_W, conductionLossMosfet_W, gateDrivePower_W, switchingLoss_W } from "../../shared/losses.ts";
-import { SRC } from "../../shared/sources.ts";
+import { deviceSource } from "../../shared/sources.ts";
 import { resistor, transistor, zener } from "../../../circuit/parts.ts";
 import { type Ctx, OVERDRIVE_K } from "../context.ts";
 import { driveMargin, switchChecks, switchOffVoltage_V, vbeCold } from "./common.ts";
@@ -20,6 +20,7 @@ import { WEAK_TURNOFF_FACTOR } from "./bjt-single.ts";
 import { gateTimes, gateTimesNominal, plateau_V, plateauCharge_C, plateauTyp_V, rdsOn_ohm, rdsOnNominal_ohm, specVgs_V } from "./mosfet-common.ts";
 import { releasedTurnOnEquivalent_s } from "./gate-release.ts";
 import type { ChainPlan } from "./types.ts";
+import { NOMINAL_TEMP_C } from "../../shared/temperature.ts";
 
 /** Smallest zener current that keeps the zener on its knee (common practice, ≈ 5 mA for 0.5 W parts). */
 export const ZENER_KNEE_A = 0.005;
@@ -36,7 +37,7 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
   const pol = ctx.spec.policy;
   const vNeed = specVgs_V(mos);
   const vgsAllowed = mos.vgs_max_V * pol.mosfet.vgs.factor;
-  const vbeHi = vbeOn(qhi, 25);
+  const vbeHi = vbeOn(qhi, NOMINAL_TEMP_C);
   const useZener = ctx.vMax_V - vbeOn(qhi, ctx.taMax_C) > vgsAllowed;
   // Without the zener rail, the driver and follower hang from vbus (docs/topologies.md: vg = vbus).
   const rail = useZener ? "vg" : "vbus";
@@ -64,15 +65,15 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
   const vClamp = vbeOn(qd, ctx.taMin_C) + 0.15;
   const rOn = rG + rP / betaHi;
   const t = gateTimes(mos, rOn, vgsMin, rG);
-  // Nominal: gate rail at its nominal level less Q_HI's V_BE at 25 °C, typical plateau.
+  // Nominal: gate rail at its nominal level less Q_HI's V_BE at the nominal temperature, typical plateau.
   // Drain swing while current flows: the supply (inductive: clamped by the freewheel diode), less
   // an LED string's forward voltage (below its knee the string carries no current).
   const vSwingNom = ctx.load.inductive ? ctx.vNom_V : Math.max(0.1 * ctx.vNom_V, ctx.vNom_V - ctx.load.vf_V);
   const tNomDrive = gateTimesNominal(mos, rOn, railNom - vbeHi, rG, vSwingNom);
   // The driver releases the pull-up only as its stored charge decays (no reverse base drive), so
-  // the follower's current grows with that decay: gate-release.ts. Nominal: 25 °C minimum gain
+  // the follower's current grows with that decay: gate-release.ts. Nominal: minimum gain at the nominal temperature
   // (the netlist's cards), typical plateau.
-  const rOnNom = rG + rP / hfeMin(qhi, iGpk, 25);
+  const rOnNom = rG + rP / hfeMin(qhi, iGpk, NOMINAL_TEMP_C);
   const tOnReleased = releasedTurnOnEquivalent_s({
     iG_A: Math.max(1e-9, (railNom - vbeHi - plateauTyp_V(mos)) / rOnNom),
     tau_s: (WEAK_TURNOFF_FACTOR * qd.t_storage_s) / Math.LN2,
@@ -91,15 +92,15 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
     transistor("chain", "Q_POWER", mos, undefined, { d: "sw", g: "g", s: "0" }, { voltage_V: switchOffVoltage_V(ctx), current_A: ctx.iMax_A }),
   ];
   return {
-    need: { kind: "base-current", i_A: iBD, vClamp_V: vClamp, vThreshold_V: vbeOn(qd, 25), inverting: true },
+    need: { kind: "base-current", i_A: iBD, vClamp_V: vClamp, vThreshold_V: vbeOn(qd, NOMINAL_TEMP_C), inverting: true },
     vSwNom_V: ctx.iNom_A * rdsOnNominal_ohm(mos, railNom - vbeHi),
     vSwMax_V: ctx.iMax_A * rds,
     parts,
     figures: [
-      figure("gate_voltage_min", "Gate voltage, worst case low", vgsMin, "V", "chain", useZener ? "V_GS = V_Z,min − V_BE(Q_HI, cold)" : "V_GS = V_cc,min − V_BE(Q_HI, cold)", SRC.DERIVED, [vgsMin, vgsMax]),
-      figure("switch_t_on", "Switch turn-on transition", t.tOn_s, "s", "chain", "t_on = Q_G·(R_G + R_P/β_HI)/(V_GS − V_plateau)", SRC.COMMON),
-      figure("switch_t_off", "Switch turn-off transition", t.tOff_s, "s", "chain", "t_off = Q_G·R_G/V_plateau", SRC.COMMON),
-      figure("rds_on_hot", "R_DS(on), hot, at the gate voltage reached", rds, "Ω", "chain", "R_DS(on),max(V_GS) × hot factor", SRC.TYPICAL_MEMORY),
+      figure("gate_voltage_min", "Gate voltage, worst case low", vgsMin, "V", "chain", useZener ? "V_GS = V_Z,min − V_BE(Q_HI, cold)" : "V_GS = V_cc,min − V_BE(Q_HI, cold)", "derived", [vgsMin, vgsMax]),
+      figure("switch_t_on", "Switch turn-on transition", t.tOn_s, "s", "chain", "t_on = Q_G·(R_G + R_P/β_HI)/(V_GS − V_plateau)", "common-practice"),
+      figure("switch_t_off", "Switch turn-off transition", t.tOff_s, "s", "chain", "t_off = Q_G·R_G/V_plateau", "common-practice"),
+      figure("rds_on_hot", "R_DS(on), hot, at the gate voltage reached", rds, "Ω", "chain", "R_DS(on),max(V_GS) × hot factor", deviceSource(mos, "rds_on_hot_factor")),
     ],
     problems,
     checks: [...switchChecks(ctx, "Q_POWER", mos), checkStress("Q_POWER", "vgs", vgsMax, mos.vgs_max_V, "V", pol.mosfet.vgs, pol.marginal_above)],
@@ -132,7 +133,7 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
       // still recovering at the edge). The sink current grows from ≈ 0 over the plateau (the driver
       // comes out of cut-off through its Miller capacitance), so on average it is half of that:
       // t_off ≈ 2·Q_pl/I_sink (common practice for a linearly rising drive current).
-      const iSink_A = Math.min(plateauTyp_V(mos) / rG, hfeMin(qlo, iGpk, 25) * Math.max(1e-6, hfeMin(qd, iCD, 25) * tap.iMin_A - iRP));
+      const iSink_A = Math.min(plateauTyp_V(mos) / rG, hfeMin(qlo, iGpk, NOMINAL_TEMP_C) * Math.max(1e-6, hfeMin(qd, iCD, NOMINAL_TEMP_C) * tap.iMin_A - iRP));
       const tOffNom_s = Math.max(tNom.tOff_s, (2 * plateauCharge_C(mos, vSwingNom)) / iSink_A);
       const pCond = conductionLossMosfet_W(ctx.iMax_A, rds, op.dutyMax);
       // Worst case: the same release and sink limits at the cold minimum gains, lowest gate drive,
@@ -160,10 +161,10 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
         ],
         figures: [
           driveMargin("driver", "NPN driver", tap.iMin_A, iCD / betaD),
-          figure("gate_rail", "Gate rail voltage (nominal)", railNom, "V", "chain", useZener ? "V_g = V_Z (zener rail, RZ + DZ)" : "V_g = V_bus", useZener ? SRC.TYPICAL_MEMORY : SRC.DERIVED, [railMin, railMax]),
-          figure("load_current_max", "Load current, worst case (max supply)", ctx.iMax_A, "A", "load", "I = (V_cc,max − V_f)/R_load (load model)", SRC.DERIVED),
-          figure("conduction_loss", "Conduction loss, power device", pCond, "W", "chain", "P = I_D,max² · R_DS(on),hot · D_max", SRC.COMMON),
-          figure("switching_loss", "Switching loss, power device", pSw, "W", "chain", `${ctx.switching === "resistive" ? "P = ⅙·V·I·(t_on + t_off)·f" : "P = ½·V·I·(t_on + t_off)·f"}; t_on: driver release (gate-release.ts), t_off: 2·Q_pl/I_sink`, ctx.switching === "resistive" ? SRC.RASHID_SW : SRC.MOHAN_SW),
+          figure("gate_rail", "Gate rail voltage (nominal)", railNom, "V", "chain", useZener ? "V_g = V_Z (zener rail, RZ + DZ)" : "V_g = V_bus", useZener ? "device-class-typical" : "derived", [railMin, railMax]),
+          figure("load_current_max", "Load current, worst case (max supply)", ctx.iMax_A, "A", "load", "I = (V_cc,max − V_f)/R_load (load model)", "derived"),
+          figure("conduction_loss", "Conduction loss, power device", pCond, "W", "chain", "P = I_D,max² · R_DS(on),hot · D_max", "common-practice"),
+          figure("switching_loss", "Switching loss, power device", pSw, "W", "chain", `${ctx.switching === "resistive" ? "P = ⅙·V·I·(t_on + t_off)·f" : "P = ½·V·I·(t_on + t_off)·f"}; t_on: driver release (gate-release.ts), t_off: 2·Q_pl/I_sink`, ctx.switching === "resistive" ? "rashid-4e-ex4-2" : "mohan-3e-eq2-6"),
         ],
       };
     },

@@ -7,7 +7,7 @@ import type { MosfetClass } from "../../../model/device.ts";
 import { checkStress } from "../../shared/derating.ts";
 import { figure, problem } from "../../shared/figures.ts";
 import { conductionLossMosfet_W, switchingLoss_W } from "../../shared/losses.ts";
-import { SRC } from "../../shared/sources.ts";
+import { deviceSource } from "../../shared/sources.ts";
 import { transistor } from "../../../circuit/parts.ts";
 import type { Ctx } from "../context.ts";
 import { switchChecks, switchOffVoltage_V } from "./common.ts";
@@ -26,7 +26,7 @@ export function planMosfetLogic(ctx: Ctx): ChainPlan {
     vSwNom_V: ctx.iNom_A * rNom,
     vSwMax_V: ctx.iMax_A * rHot,
     parts: [transistor("chain", "Q_POWER", dev, undefined, { d: "sw", g: "g", s: "0" }, { voltage_V: switchOffVoltage_V(ctx), current_A: ctx.iMax_A })],
-    figures: [figure("rds_on_hot", "R_DS(on), hot, at the gate voltage reached", rHot, "Ω", "chain", "R_DS(on),max(V_GS) × hot factor", SRC.TYPICAL_MEMORY)],
+    figures: [figure("rds_on_hot", "R_DS(on), hot, at the gate voltage reached", rHot, "Ω", "chain", "R_DS(on),max(V_GS) × hot factor", deviceSource(dev, "rds_on_hot_factor"))],
     problems: [],
     checks: switchChecks(ctx, "Q_POWER", dev),
     delays(tap) {
@@ -78,12 +78,12 @@ export function planMosfetLogic(ctx: Ctx): ChainPlan {
         checks: [checkStress("Q_POWER", "vgs", vgMax, dev.vgs_max_V, "V", pol.mosfet.vgs, pol.marginal_above)],
         losses: [{ role: "Q_POWER", dev, family: "mosfet", pCond_W: pCond, pSw_W: pSw, p_W: pCond + pSw, isPower: true, tNom_s: { on: tNom.tOn_s, off: tNom.tOff_s } }],
         figures: [
-          figure("gate_voltage_min", "Gate voltage, worst case low", vgMin, "V", "chain", "V_GS = V_C,high · R_GS/(R_G + R_GS), min supply, tolerances", SRC.DERIVED, [vgMin, vgMax]),
-          figure("switch_t_on", "Switch turn-on transition", t.tOn_s, "s", "chain", "t_on = Q_G·R_src/(V_GS − V_plateau)", SRC.COMMON),
-          figure("switch_t_off", "Switch turn-off transition", t.tOff_s, "s", "chain", "t_off = Q_G·R_sink/V_plateau", SRC.COMMON),
-          figure("load_current_max", "Load current, worst case (max supply)", ctx.iMax_A, "A", "load", "I = (V_cc,max − V_f)/R_load (load model)", SRC.DERIVED),
-          figure("conduction_loss", "Conduction loss, power device", pCond, "W", "chain", "P = I_D,max² · R_DS(on),hot · D_max", SRC.COMMON),
-          figure("switching_loss", "Switching loss, power device", pSw, "W", "chain", ctx.switching === "resistive" ? "P = ⅙·V·I·(t_on + t_off)·f" : "P = ½·V·I·(t_on + t_off)·f", ctx.switching === "resistive" ? SRC.RASHID_SW : SRC.MOHAN_SW),
+          figure("gate_voltage_min", "Gate voltage, worst case low", vgMin, "V", "chain", "V_GS = V_C,high · R_GS/(R_G + R_GS), min supply, tolerances", "derived", [vgMin, vgMax]),
+          figure("switch_t_on", "Switch turn-on transition", t.tOn_s, "s", "chain", "t_on = Q_G·R_src/(V_GS − V_plateau)", "common-practice"),
+          figure("switch_t_off", "Switch turn-off transition", t.tOff_s, "s", "chain", "t_off = Q_G·R_sink/V_plateau", "common-practice"),
+          figure("load_current_max", "Load current, worst case (max supply)", ctx.iMax_A, "A", "load", "I = (V_cc,max − V_f)/R_load (load model)", "derived"),
+          figure("conduction_loss", "Conduction loss, power device", pCond, "W", "chain", "P = I_D,max² · R_DS(on),hot · D_max", "common-practice"),
+          figure("switching_loss", "Switching loss, power device", pSw, "W", "chain", ctx.switching === "resistive" ? "P = ⅙·V·I·(t_on + t_off)·f" : "P = ½·V·I·(t_on + t_off)·f", ctx.switching === "resistive" ? "rashid-4e-ex4-2" : "mohan-3e-eq2-6"),
         ],
       };
     },

@@ -15,7 +15,7 @@ export interface DeviceLoss {
   pCond_W: number;
   pSw_W: number;
   /**
-   * Nominal transition times (nominal drive, 25 °C, typical threshold) for the nominal dissipation
+   * Nominal transition times (nominal drive and temperature, typical threshold) for the nominal dissipation
    * prediction; absent: the worst-case times stand (BJT datasheet times are typical already).
    */
   tNom_s?: { on: number; off: number };
