@@ -2,7 +2,8 @@
  * The SPICE engine adapters against closed-form results, and against each other.
  */
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { startEngine, SpiceRunError, type EngineName, type SpiceEngine } from "../../src/verify/engines/index.ts";
+import { startEngine, type EngineName, type SpiceEngine } from "../../src/verify/engines/index.ts";
+import { SpiceRunError } from "../../src/model/errors.ts";
 import { ngspiceAvailable } from "../../src/verify/engines/ngspice.ts";
 import { pwmTiming, valueAt, meanOnState } from "../../src/verify/measure.ts";
 import { expectClose } from "../helpers/close.ts";
