@@ -11,9 +11,10 @@ export default tseslint.config(
     languageOptions: { ecmaVersion: 2023, sourceType: "module" },
     rules: {
       // A sizing stage or a view that needs more branches than this wants splitting.
-      complexity: ["error", { max: 30 }],
+      // ("modified": a switch counts once, so a lookup table written as a switch is not penalised).
+      complexity: ["error", { max: 30, variant: "modified" }],
       "max-depth": ["error", 5],
-      "max-params": ["error", 6],
+      "max-params": ["error", 8],
       eqeqeq: ["error", "always"],
       "no-implicit-coercion": "error",
       "@typescript-eslint/no-unused-vars": ["error", { argsIgnorePattern: "^_", varsIgnorePattern: "^_" }],
@@ -24,6 +25,11 @@ export default tseslint.config(
     // Tests may poke at shapes loosely (hostile records are deliberately untyped).
     files: ["test/**/*.ts"],
     rules: { "@typescript-eslint/no-explicit-any": "off", "@typescript-eslint/no-non-null-assertion": "off" },
+  },
+  {
+    // The site's own browser scripts (no bundler): they run in the page.
+    files: ["site/assets/**/*.js"],
+    languageOptions: { globals: { document: "readonly", window: "readonly", URLSearchParams: "readonly" } },
   },
   {
     files: ["**/*.js", "**/*.mjs", "**/*.cjs"],

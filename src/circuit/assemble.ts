@@ -5,32 +5,24 @@
  */
 import type { CircuitModel, Instrument, Part } from "../model/circuit.ts";
 import { REF_PREFIX, STAGE_KINDS } from "../model/kinds.ts";
-import { EngineMisuseError } from "../model/problem.ts";
+import { PART_ROLES, stageOfRole, type PartRole } from "../model/part-roles.ts";
+import { EngineMisuseError } from "../model/errors.ts";
 
-/** Role order inside a stage (docs/topologies.md tables, in table order). */
-export const ROLE_ORDER: readonly string[] = [
-  "F_SUPPLY", "D_REVERSE", "C_BULK",
-  "Q_A", "Q_B", "RC_A", "RC_B", "CT_A", "CT_B", "DB_A", "DB_B", "RBAL", "DBAL",
-  "RV_DUTY", "RB_A", "RB_B",
-  "RT", "RG_TAP", "Q_D1", "Q_D2", "Q_D3", "Q_DRV", "RB_P", "RPU", "RP", "RZ", "DZ", "Q_HI", "Q_LO", "RG", "RGS", "RBE", "Q_POWER",
-  "LOAD",
-  "D_FREEWHEEL",
-];
-
+/** Numbering order: stage by stage, roles in the vocabulary's order (docs/topologies.md). */
 function rank(p: Part): [number, number] {
   const s = STAGE_KINDS.indexOf(p.stage);
-  const r = ROLE_ORDER.indexOf(p.role);
-  if (s < 0 || r < 0) throw new EngineMisuseError(`assemble: unknown stage/role ${p.stage}/${p.role}`);
+  const r = PART_ROLES.indexOf(p.role);
+  // Types keep both inside their vocabularies; a part built with a role of another stage is a bug.
+  if (s < 0 || r < 0 || stageOfRole(p.role) !== p.stage) {
+    throw new EngineMisuseError(`assemble: role ${p.role} does not belong to stage ${p.stage} (src/model/part-roles.ts)`);
+  }
   return [s, r];
 }
 
 export function assembleCircuit(parts: Part[], opts: { supply_V: number; highSide: boolean; tapNet: string; chainInputNet: string }): CircuitModel {
-  const sorted = [...parts].sort((a, b) => {
-    const [sa, ra] = rank(a);
-    const [sb, rb] = rank(b);
-    return sa - sb || ra - rb;
-  });
-  const seen = new Set<string>();
+  const ranked = parts.map((p) => ({ p, r: rank(p) }));
+  const sorted = ranked.sort((a, b) => a.r[0] - b.r[0] || a.r[1] - b.r[1]).map((x) => x.p);
+  const seen = new Set<PartRole>();
   const counters = new Map<string, number>();
   const numbered = sorted.map((p) => {
     if (seen.has(p.role)) throw new EngineMisuseError(`assemble: role ${p.role} appears twice`);
@@ -61,6 +53,6 @@ export function assembleCircuit(parts: Part[], opts: { supply_V: number; highSid
 }
 
 /** role → ref of an assembled circuit. */
-export function refsByRole(c: CircuitModel): Map<string, string> {
+export function refsByRole(c: CircuitModel): Map<PartRole, string> {
   return new Map(c.parts.map((p) => [p.role, p.ref]));
 }

@@ -7,6 +7,7 @@ import type { Part } from "../model/circuit.ts";
 import type { StressCheck, DeratingPolicy } from "../model/derating.ts";
 import type { BjtClass, DiodeClass, MosfetClass, ZenerClass } from "../model/device.ts";
 import type { StageKind } from "../model/kinds.ts";
+import type { RoleIn } from "../model/part-roles.ts";
 import type { DesignProblem } from "../model/problem.ts";
 import { checkStress } from "../engine/shared/derating.ts";
 import { problem } from "../engine/shared/figures.ts";
@@ -25,7 +26,7 @@ export interface Built {
  * A fixed resistor. `p_W` is its worst-case dissipation; the rating is the smallest standard one
  * with p ≤ rating × policy factor. Over 5 W there is no fitting part: a design problem.
  */
-export function resistor(stage: StageKind, role: string, r_ohm: number, pins: Record<string, string>, p_W: number, policy: DeratingPolicy, why: string): Built {
+export function resistor<S extends StageKind>(stage: S, role: RoleIn<S>, r_ohm: number, pins: Record<string, string>, p_W: number, policy: DeratingPolicy, why: string): Built {
   const rule = policy.resistor.power;
   const rating: number = RESISTOR_RATINGS_W.find((w) => p_W <= w * rule.factor) ?? 5;
   const part: Part = {
@@ -40,7 +41,7 @@ export function resistor(stage: StageKind, role: string, r_ohm: number, pins: Re
   return { part, checks: [check], problems };
 }
 
-export function transistor(stage: StageKind, role: string, dev: BjtClass | MosfetClass, gainMin: number | undefined, pins: Record<string, string>, stress: Part["stress"]): Part {
+export function transistor<S extends StageKind>(stage: S, role: RoleIn<S>, dev: BjtClass | MosfetClass, gainMin: number | undefined, pins: Record<string, string>, stress: Part["stress"]): Part {
   const kind = dev.family === "nmos" ? "nmos" : dev.family;
   const rating: Part["rating"] = dev.family === "nmos"
     ? { voltage_V: dev.vds_V, current_A: dev.id_A, power_W: dev.ptot_W, tj_max_C: dev.tj_max_C }
@@ -54,7 +55,7 @@ export function transistor(stage: StageKind, role: string, dev: BjtClass | Mosfe
   return part;
 }
 
-export function diode(stage: StageKind, role: string, dev: DiodeClass, pins: Record<string, string>, stress: Part["stress"], why: string): Part {
+export function diode<S extends StageKind>(stage: S, role: RoleIn<S>, dev: DiodeClass, pins: Record<string, string>, stress: Part["stress"], why: string): Part {
   return {
     ref: "", kind: "diode", stage, role, value: 0, unit: "", device: dev.id,
     description: `${dev.title}${dev.generic_type ? ` (${dev.generic_type})` : ""} — ${why}`,
@@ -62,7 +63,7 @@ export function diode(stage: StageKind, role: string, dev: DiodeClass, pins: Rec
   };
 }
 
-export function zener(stage: StageKind, role: string, dev: ZenerClass, pins: Record<string, string>, stress: Part["stress"]): Part {
+export function zener<S extends StageKind>(stage: S, role: RoleIn<S>, dev: ZenerClass, pins: Record<string, string>, stress: Part["stress"]): Part {
   return {
     ref: "", kind: "zener", stage, role, value: dev.vz_V, unit: "V", device: dev.id, tolerance: dev.vz_tolerance,
     description: `${dev.title}${dev.generic_type ? ` (${dev.generic_type})` : ""}`,
@@ -71,7 +72,7 @@ export function zener(stage: StageKind, role: string, dev: ZenerClass, pins: Rec
 }
 
 /** Capacitor; `series` is the E-series it was picked from. */
-export function capacitor(stage: StageKind, role: string, c_F: number, series: string, tol: number, ratedV: number, stressV: number, pins: Record<string, string>, polarised: boolean, why: string): Part {
+export function capacitor<S extends StageKind>(stage: S, role: RoleIn<S>, c_F: number, series: string, tol: number, ratedV: number, stressV: number, pins: Record<string, string>, polarised: boolean, why: string): Part {
   return {
     ref: "", kind: polarised ? "capacitor-polarised" : "capacitor", stage, role, value: c_F, unit: "F", series, tolerance: tol,
     description: `${polarised ? "Aluminium electrolytic" : "Film or C0G/X7R ceramic"} capacitor, ${ratedV} V — ${why}`,

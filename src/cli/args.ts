@@ -6,17 +6,10 @@
  */
 import { parseArgs, type ParseArgsConfig } from "node:util";
 
-/** A mistake in how a command was called: printed as one line (plus the usage where it helps), exit 2. */
-export class UsageError extends Error {
-  constructor(
-    message: string,
-    /** Print the usage text after the message (for unknown or malformed flags). */
-    readonly showUsage = false,
-  ) {
-    super(message);
-    this.name = "UsageError";
-  }
-}
+import { UsageError } from "../model/errors.ts";
+
+/** The command line's errors are the error family's UsageError (src/model/errors.ts). */
+export { UsageError };
 
 type Options = NonNullable<ParseArgsConfig["options"]>;
 
@@ -37,7 +30,7 @@ export function readCommandLine<const O extends Options>(
   } catch (err) {
     const e = err as { code?: string; message?: string };
     if (typeof e.code === "string" && e.code.startsWith("ERR_PARSE_ARGS_")) {
-      throw new UsageError(`${command}: ${(e.message ?? "bad arguments").replace(/\s*\n\s*/g, " ")}`, true);
+      throw new UsageError(`${command}: ${(e.message ?? "bad arguments").replace(/\s*\n\s*/g, " ")}`, { showUsage: true });
     }
     throw err;
   }

@@ -1,11 +1,10 @@
 /**
  * `pulsewright` process entry: runs the command (commands.ts) and sets the exit code. Exit codes:
- * 0 done, 1 the records or the site folder have problems, 2 usage (unknown or repeated flag, bad
- * value, busy port), 3 a --strict gate failed, 74 standard output could not be written, 70 an
- * internal error (a bug: the only case that prints a stack trace).
+ * see src/cli/exit.ts (and 74 when standard output cannot be written).
  */
 import process from "node:process";
-import { runCommand, type Out } from "./commands.ts";
+import { USAGE, runCommand, type Out } from "./commands.ts";
+import { failureOf } from "./exit.ts";
 
 /**
  * Standard output that cannot be written (a full disk, a closed pipe) is reported once as one line;
@@ -26,9 +25,10 @@ runCommand(process.argv.slice(2), process.cwd(), out).then(
   (code) => {
     process.exitCode = code;
   },
+  // Every thrown error becomes an exit code here, and only here (src/cli/exit.ts).
   (err: unknown) => {
-    process.stderr.write(`pulsewright: internal error — please report it with the command you ran\n`);
-    process.stderr.write(`${(err as Error)?.stack ?? String(err)}\n`);
-    process.exitCode = 70;
+    const f = failureOf(err);
+    process.stderr.write(`${f.text}\n${f.withUsage ? `\n${USAGE}` : ""}`);
+    process.exitCode = f.code;
   },
 );

@@ -12,17 +12,11 @@ import type { DeviceLibrary } from "../model/device.ts";
 import { expandDesign } from "../expand/index.ts";
 import { chooseDevices } from "../engine/devices/choose.ts";
 import { sizeVariant, attachAlternatives } from "../engine/index.ts";
-import { renderNetlist } from "../render/netlist.ts";
-import { renderSchematic } from "../render/schematic.ts";
-import { renderBom } from "../render/bom.ts";
 import { renderPlot } from "../render/plot.ts";
-import { findFigure } from "../model/sized.ts";
+import { renderVariantViews, type VariantViews } from "../render/variant.ts";
 
-export interface RenderedVariant {
+export interface RenderedVariant extends VariantViews {
   sized: SizedVariant;
-  netlist: string;
-  schematicSvg: string;
-  bomCsv: string;
 }
 
 /** Size every variant of every design (alternatives attached per design). */
@@ -36,18 +30,9 @@ export function sizeProject(project: LoadedProject): { design: LoadedProject["de
   });
 }
 
-/** The three circuit views of a variant; an infeasible variant without a circuit gets none. */
+/** The three circuit views of a variant (the render step the browser shares); none without a circuit. */
 export function renderVariant(sized: SizedVariant, devices: DeviceLibrary): RenderedVariant {
-  const c = sized.circuit;
-  if (!c) return { sized, netlist: "", schematicSvg: "", bomCsv: "" };
-  const meta = { id: sized.spec.id, title: `${sized.spec.designTitle}, ${sized.spec.id}` };
-  const f = findFigure(sized, "frequency_nominal")?.value ?? sized.spec.targets.pwm_Hz;
-  return {
-    sized,
-    netlist: renderNetlist(c, { ...meta, supply_V: sized.spec.supply_V, frequency_Hz: f, devices }),
-    schematicSvg: renderSchematic(c, meta),
-    bomCsv: renderBom(c),
-  };
+  return { sized, ...renderVariantViews(sized, devices) };
 }
 
 /** Assemble the catalogue the site writer reads. */

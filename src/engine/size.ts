@@ -5,7 +5,9 @@
  */
 import type { Figure } from "../model/figure.ts";
 import type { Part } from "../model/circuit.ts";
-import { type DesignProblem, EngineMisuseError } from "../model/problem.ts";
+import { isPartRole, type SidedRole } from "../model/part-roles.ts";
+import type { DesignProblem } from "../model/problem.ts";
+import { EngineMisuseError } from "../model/errors.ts";
 import type { StressCheck } from "../model/derating.ts";
 import type { SizedVariant } from "../model/sized.ts";
 import type { VariantSpec } from "../model/variant.ts";
@@ -54,7 +56,7 @@ function sizeInner(spec: VariantSpec): SizedVariant {
   const vSwNom_V = fin.vSwNom_V ?? plan.vSwNom_V;
   const load = loadStage(ctx, vSwNom_V, dOn, { lo: Math.min(1, w.dMin.hi), hi: Math.min(1, w.dMax.lo) });
   const q = spec.devices.timing_npn as BjtClass;
-  const timingLoss = (role: string) => ({ role, dev: q, family: "bjt" as const, pCond_W: timing.timingLoss_W, pSw_W: 0, p_W: timing.timingLoss_W, isPower: false });
+  const timingLoss = (role: SidedRole<"Q">): DeviceLoss => ({ role, dev: q, family: "bjt" as const, pCond_W: timing.timingLoss_W, pSw_W: 0, p_W: timing.timingLoss_W, isPower: false });
   const losses = [...fin.losses, timingLoss("Q_A"), timingLoss("Q_B")];
   const thermal = thermalStage(ctx, losses);
   const power = fin.losses.find((l) => l.isPower);
@@ -81,7 +83,12 @@ function sizeInner(spec: VariantSpec): SizedVariant {
   // The review again on the assembled parts, so its cautions name parts by their reference designators.
   const reviewed = reviewFailures(ctx, circuit.parts, losses, thermal.perRole, heatsunk);
   const refs = refsByRole(circuit);
-  const toRef = (role: string): string => refs.get(role) ?? role;
+  // Checks and problems are made out to roles while the stages run; a role absent from the circuit
+  // keeps its name (it names no part), anything else is a bug in a stage.
+  const toRef = (role: string): string => {
+    if (!isPartRole(role)) throw new EngineMisuseError(`sizeVariant: "${role}" is not a part role (src/model/part-roles.ts)`);
+    return refs.get(role) ?? role;
+  };
   const checks: StressCheck[] = [...timing.checks, ...tap.checks, ...plan.checks, ...fin.checks, ...thermal.checks, ...prot.checks].map((c) => ({ ...c, ref: toRef(c.ref) }));
   const fixPath = (p: DesignProblem): DesignProblem => {
     const m = /^\/parts\/(.+)$/.exec(p.path);

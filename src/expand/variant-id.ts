@@ -7,7 +7,7 @@
  */
 import type { DesignRecord } from "../model/design.ts";
 import type { ChainKind, LoadKind } from "../model/kinds.ts";
-import { EngineMisuseError } from "../model/problem.ts";
+import { EngineMisuseError } from "../model/errors.ts";
 
 /** The shortest round-trip decimal of x as [integer digits, fraction digits], exponent expanded. */
 function decimalParts(x: number): [string, string] {

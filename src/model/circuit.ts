@@ -1,4 +1,5 @@
 import type { PartKind, StageKind } from "./kinds.ts";
+import type { PartRole } from "./part-roles.ts";
 
 /**
  * The circuit model: the single source of truth for a variant. Schematic, netlist and parts list
@@ -65,7 +66,7 @@ export interface Part {
   kind: PartKind;
   stage: StageKind;
   /** Role inside its stage, stable across variants (docs/topologies.md), e.g. "RC_A", "Q_POWER". */
-  role: string;
+  role: PartRole;
   /** Numeric value in `unit` (Ω, F, V for zeners, A for fuses, W for loads); 0 for transistors. */
   value: number;
   unit: string;

@@ -4,6 +4,8 @@
  * Every finite number formats (1e-120 → "1e-120", 1.8e308 → "1.8e308"); only NaN and ±Infinity
  * are refused, since showing them would hide a bug upstream.
  */
+import { EngineMisuseError } from "./errors.ts";
+
 const PREFIXES: [number, string][] = [
   [1e9, "G"], [1e6, "M"], [1e3, "k"], [1, ""], [1e-3, "m"], [1e-6, "µ"], [1e-9, "n"], [1e-12, "p"],
 ];
@@ -31,7 +33,7 @@ function scientific(x: number, digits: number, exponentShift = 0): string {
 
 /** Significant-digit rounding for display; strips trailing zeros. */
 export function toSignificant(x: number, digits = 3): string {
-  if (!Number.isFinite(x)) throw new RangeError(`cannot format non-finite value ${x}`);
+  if (!Number.isFinite(x)) throw new EngineMisuseError(`cannot format non-finite value ${x}`);
   if (x === 0) return "0";
   const d = clampDigits(digits);
   const abs = Math.abs(x);
@@ -46,7 +48,7 @@ export function toSignificant(x: number, digits = 3): string {
 }
 
 export function formatValue(value: number, unit: string, digits = 3): string {
-  if (!Number.isFinite(value)) throw new RangeError(`cannot format non-finite value ${value} ${unit}`);
+  if (!Number.isFinite(value)) throw new EngineMisuseError(`cannot format non-finite value ${value} ${unit}`);
   const d = clampDigits(digits);
   if (unit === "%") {
     const pct = value * 100;

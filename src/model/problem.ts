@@ -1,6 +1,6 @@
 /**
  * Design problems are data, not exceptions (validator-style): the engine returns them and the
- * templates render them as they are.
+ * templates render them as they are. What the engine does throw is in src/model/errors.ts.
  */
 export type Severity = "error" | "warning" | "note";
 
@@ -16,12 +16,4 @@ export interface DesignProblem {
   params: { limit?: number; actual?: number; unit?: string };
   /** A sentence a practitioner can act on: what is wrong and what to do. */
   message: string;
-}
-
-/** Engine misuse (a bug in a caller), never a design problem. Keeps `cause`. */
-export class EngineMisuseError extends Error {
-  constructor(message: string, options?: { cause?: unknown }) {
-    super(message, options);
-    this.name = "EngineMisuseError";
-  }
 }

@@ -19,7 +19,7 @@ export async function loadSchemas(root: string): Promise<SchemaSet> {
   addFormatsModule.default(ajv);
   const issues: RecordIssue[] = [];
   const validators: SchemaSet["validators"] = {};
-  let names: string[] = [];
+  let names: string[];
   try {
     names = (await readdir(join(root, SCHEMA_DIR))).filter((n) => n.endsWith(".schema.json")).sort();
   } catch {

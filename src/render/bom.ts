@@ -5,6 +5,7 @@
  */
 import type { CircuitModel, Part } from "../model/circuit.ts";
 import { formatValue } from "../model/format.ts";
+import { EngineMisuseError } from "../model/errors.ts";
 
 export const BOM_COLUMNS = [
   "refs", "quantity", "description", "value", "series", "tolerance", "power rating", "voltage rating",
@@ -14,7 +15,7 @@ export const BOM_COLUMNS = [
 /** Reference → [letter code, number] for ordering ("RV2" → ["RV", 2]). */
 export function refKey(ref: string): [string, number] {
   const m = /^([A-Z]+)(\d+)$/.exec(ref);
-  if (!m) throw new RangeError(`parts list: reference designator ${JSON.stringify(ref)} is malformed`);
+  if (!m) throw new EngineMisuseError(`parts list: reference designator ${JSON.stringify(ref)} is malformed`);
   return [m[1]!, Number(m[2])];
 }
 export function compareRefs(a: string, b: string): number {

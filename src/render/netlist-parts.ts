@@ -7,6 +7,7 @@ import { checkNet, checkRef } from "./netlist-text.ts";
 import { ledStringLaw } from "../engine/shared/diode.ts";
 import { NOMINAL_TEMP_C } from "../engine/shared/temperature.ts";
 import { spiceModelName, spiceNum, timingModelName } from "./spice-num.ts";
+import { EngineMisuseError } from "../model/errors.ts";
 
 /** Fuse stand-in when the part gives no resistance: a few tens of mΩ (common practice, from memory). */
 export const FUSE_R_DEFAULT_OHM = 0.02;
@@ -20,7 +21,7 @@ export interface ElementOut {
 function pins(p: Part): string[] {
   return PIN_NAMES[p.kind].map((name) => {
     const net = p.pins[name];
-    if (net === undefined) throw new RangeError(`netlist: part ${p.ref} (${p.kind}) has no net on pin "${name}"`);
+    if (net === undefined) throw new EngineMisuseError(`netlist: part ${p.ref} (${p.kind}) has no net on pin "${name}"`);
     return checkNet(net, `${p.ref}.${name}`);
   });
 }
@@ -32,13 +33,13 @@ export function isTimingTransistor(p: Part): boolean {
 
 function modelOf(p: Part): string {
   const id = p.spice?.model ?? p.device;
-  if (!id) throw new RangeError(`netlist: part ${p.ref} (${p.kind}) names no device class for its .model`);
+  if (!id) throw new EngineMisuseError(`netlist: part ${p.ref} (${p.kind}) names no device class for its .model`);
   return isTimingTransistor(p) ? timingModelName(id) : spiceModelName(id);
 }
 
 function loadR(p: Part): number {
   const r = p.spice?.r_ohm;
-  if (r === undefined || !(r > 0)) throw new RangeError(`netlist: load ${p.ref} needs spice.r_ohm > 0`);
+  if (r === undefined || !(r > 0)) throw new EngineMisuseError(`netlist: load ${p.ref} needs spice.r_ohm > 0`);
   return r;
 }
 
@@ -98,7 +99,7 @@ export function elementLines(p: Part, supply_V: number): ElementOut {
       return { lines: [`R${ref} ${n.join(" ")} ${v(loadR(p), "r_ohm")}`], models: [] };
     case "led-strip": {
       const vf = p.spice?.vf_V;
-      if (vf === undefined || !(vf > 0)) throw new RangeError(`netlist: LED strip ${ref} needs spice.vf_V > 0`);
+      if (vf === undefined || !(vf > 0)) throw new EngineMisuseError(`netlist: LED strip ${ref} needs spice.vf_V > 0`);
       // The engine may give the string's own diode law (spice.is_A, spice.n); otherwise the
       // shared LED-string law (src/engine/shared/diode.ts) through V_F at the rated current: one
       // diode stands in for the whole string.

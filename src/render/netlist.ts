@@ -11,6 +11,7 @@ import { elementLines, isTimingTransistor } from "./netlist-parts.ts";
 import { checkNet, commentLines } from "./netlist-text.ts";
 import { spiceModel } from "./spice-models.ts";
 import { spiceNum } from "./spice-num.ts";
+import { EngineMisuseError } from "../model/errors.ts";
 import { NOMINAL_TEMP_C } from "../engine/shared/temperature.ts";
 
 export interface NetlistMeta {
@@ -47,7 +48,7 @@ function modelCards(circuit: CircuitModel, meta: NetlistMeta): string[] {
   return [...ic.keys()].sort().map((key) => {
     const { id, timing, i } = ic.get(key)!;
     const dev = meta.devices?.get(id);
-    if (!dev) throw new RangeError(`netlist ${meta.id}: device class "${id}" is not in the device library`);
+    if (!dev) throw new EngineMisuseError(`netlist ${meta.id}: device class "${id}" is not in the device library`);
     const base = { gain: meta.gain ?? "min", ...(timing ? { junction: "typical" as const } : {}) };
     return spiceModel(dev, i > 0 ? { ...base, ic_A: i } : base);
   });
@@ -67,7 +68,7 @@ function header(circuit: CircuitModel, meta: NetlistMeta): string[] {
 
 export function renderNetlist(circuit: CircuitModel, meta: NetlistMeta): string {
   for (const [k, x] of [["supply_V", meta.supply_V], ["frequency_Hz", meta.frequency_Hz]] as const) {
-    if (!Number.isFinite(x) || x <= 0) throw new RangeError(`netlist ${meta.id}: meta.${k} must be a positive number, got ${x}`);
+    if (!Number.isFinite(x) || x <= 0) throw new EngineMisuseError(`netlist ${meta.id}: meta.${k} must be a positive number, got ${x}`);
   }
   const out = header(circuit, meta);
   out.push(".param ctrl=0.5");
@@ -110,8 +111,8 @@ export function renderNetlist(circuit: CircuitModel, meta: NetlistMeta): string 
 
 /** Rewrites the `.param ctrl` line (0 … 1) of a netlist made by renderNetlist. */
 export function setCtrl(netlist: string, ctrl: number): string {
-  if (!Number.isFinite(ctrl) || ctrl < 0 || ctrl > 1) throw new RangeError(`setCtrl: ctrl must be within 0…1, got ${ctrl}`);
+  if (!Number.isFinite(ctrl) || ctrl < 0 || ctrl > 1) throw new EngineMisuseError(`setCtrl: ctrl must be within 0…1, got ${ctrl}`);
   const re = /^\.param ctrl=.*$/m;
-  if (!re.test(netlist)) throw new RangeError("setCtrl: netlist has no `.param ctrl=` line");
+  if (!re.test(netlist)) throw new EngineMisuseError("setCtrl: netlist has no `.param ctrl=` line");
   return netlist.replace(re, `.param ctrl=${spiceNum(ctrl, "ctrl")}`);
 }

@@ -1,8 +1,9 @@
 /** Axis helpers for plots: "nice" 1-2-5 ticks and a display prefix for an axis unit. */
+import { EngineMisuseError } from "../model/errors.ts";
 
 /** Ticks covering [lo, hi] with a step of 1, 2 or 5 × 10^k, about `target` of them. */
 export function niceTicks(lo: number, hi: number, target = 5): { step: number; ticks: number[] } {
-  if (!Number.isFinite(lo) || !Number.isFinite(hi)) throw new RangeError(`plot: non-finite axis range ${lo}…${hi}`);
+  if (!Number.isFinite(lo) || !Number.isFinite(hi)) throw new EngineMisuseError(`plot: non-finite axis range ${lo}…${hi}`);
   if (hi - lo <= 0) {
     const pad = Math.abs(hi) > 0 ? Math.abs(hi) * 0.1 : 1;
     return niceTicks(lo - pad, hi + pad, target);

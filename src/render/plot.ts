@@ -8,6 +8,7 @@ import type { WaveformSet } from "../model/verification.ts";
 import { axisPrefix, niceTicks, tickText } from "./plot-scale.ts";
 import { ACCENT } from "./schematic.ts";
 import { fin, finish, idFragment, newCanvas } from "./svg-doc.ts";
+import { EngineMisuseError } from "../model/errors.ts";
 
 const W = 680;
 const PANEL_H = 130;
@@ -18,10 +19,10 @@ const TOP = 34;
 
 export function renderPlot(w: WaveformSet, meta: { title: string }): string {
   const n = w.t_s.length;
-  if (n < 2) throw new RangeError("plot: need at least two time points");
+  if (n < 2) throw new EngineMisuseError("plot: need at least two time points");
   w.t_s.forEach((t, i) => fin(t, `t_s[${i}]`));
   for (const s of w.series) {
-    if (s.values.length !== n) throw new RangeError(`plot: series "${s.name}" has ${s.values.length} values for ${n} times`);
+    if (s.values.length !== n) throw new EngineMisuseError(`plot: series "${s.name}" has ${s.values.length} values for ${n} times`);
     s.values.forEach((v, i) => fin(v, `${s.name}[${i}]`));
   }
   const t0 = w.t_s[0]!;

@@ -4,10 +4,11 @@
  * first device; the switched column (outX) is where the load and its probe hang.
  */
 import type { ChainKind } from "../model/kinds.ts";
+import type { PartRole } from "../model/part-roles.ts";
 import { TAP_Y, type ChainLayout, type Route } from "./schematic-layout.ts";
 
 /** Tap wire from the tapped collector (RC_R.b's column) to the chain's input resistor. */
-const tap = (input: string): Route => [`${input}.a`, [15, `${input}.a`], [15, TAP_Y], ["RC_R.b", TAP_Y]];
+const tap = (input: PartRole): Route => [`${input}.a`, [15, `${input}.a`], [15, TAP_Y], ["RC_R.b", TAP_Y]];
 
 export const CHAIN: Record<ChainKind, ChainLayout> = {
   "bjt-single": {

@@ -13,6 +13,17 @@
  * base ← diode ← node ← end-stop resistor ← potentiometer (wiper up to the rail) → … → other base.
  */
 import type { ChainKind } from "../model/kinds.ts";
+import { sidedRole, type CoreSide, type PartRole, type SidedRoleBase } from "../model/part-roles.ts";
+
+/** What the tables place: every part role, and the current probe `Vsense`. */
+export type PlacedRole = PartRole | "Vsense";
+/** Core template roles: `_L` is the side the chain does not listen to, `_R` the tapped side. */
+type TemplateSide = "L" | "R";
+export type TemplateRole = "RBAL" | "DBAL" | `${SidedRoleBase}_${TemplateSide}`;
+/** A role a table may name: placed roles, and the core template's before the tapped side is known. */
+export type LayoutRole = PlacedRole | TemplateRole;
+/** A pin of a placed symbol, "ROLE.pin" (a misspelt role fails the type check). */
+export type PinRef = `${LayoutRole}.${string}`;
 
 export type Rot = 0 | 90 | 180 | 270;
 export interface Slot {
@@ -22,11 +33,11 @@ export interface Slot {
   mirror?: boolean;
   label?: "left" | "right" | "above" | "below";
 }
-export type Coord = number | string;
-export type RoutePt = string | readonly [Coord, Coord];
+export type Coord = number | PinRef;
+export type RoutePt = PinRef | readonly [Coord, Coord];
 export type Route = readonly RoutePt[];
 export interface StageLayout {
-  slots: Record<string, Slot>;
+  slots: Partial<Record<PlacedRole, Slot>>;
   routes: Route[];
   /** Horizontal room the stage takes (its labels included). */
   width: number;
@@ -34,7 +45,7 @@ export interface StageLayout {
 export interface ChainLayout extends StageLayout {
   /** x of the switched column the load hangs in, and the topmost switched pin of the chain. */
   outX: number;
-  outPin: string;
+  outPin: PinRef;
 }
 
 export const SUPPLY: StageLayout = {
@@ -52,7 +63,7 @@ const CORE_L = 180; // x of the left collector line
 const CORE_R = 660; // x of the right collector line (the tap)
 export const TAP_Y = 200; // the tap leaves the right collector at this height
 const BASE_Y = 300;
-const CORE_TEMPLATE: Record<string, Slot> = {
+const CORE_TEMPLATE: Record<TemplateRole, Slot> = {
   RBAL: { x: 70, y: 280, label: "left" },
   DBAL: { x: 70, y: 380, label: "left" },
   RC_L: { x: CORE_L, y: 120 },
@@ -81,21 +92,33 @@ const CORE_ROUTES: Route[] = [
 ];
 export const CORE_WIDTH = 770;
 
-/** The side letter ("A" or "B") a template role stands for, given the tapped side. */
-export function sideRole(role: string, tapSide: "A" | "B"): string {
-  const other = tapSide === "A" ? "B" : "A";
-  return role.replace(/_(L|R)$/, (_m, s: string) => `_${s === "R" ? tapSide : other}`);
+const TEMPLATE_ROLES: ReadonlySet<string> = new Set(Object.keys(CORE_TEMPLATE));
+const isTemplateRole = (r: string): r is TemplateRole => TEMPLATE_ROLES.has(r);
+
+/** The part role a template role stands for, given the tapped side (RC_R → RC_B when B is tapped). */
+export function sideRole(role: TemplateRole, tapSide: CoreSide): PartRole {
+  if (role === "RBAL" || role === "DBAL") return role;
+  const other: CoreSide = tapSide === "A" ? "B" : "A";
+  const base = role.slice(0, -2) as SidedRoleBase; // TemplateRole is `${SidedRoleBase}_${L|R}` here
+  return sidedRole(base, role.endsWith("_R") ? tapSide : other);
 }
 
-function subPt(p: RoutePt, tapSide: "A" | "B"): RoutePt {
-  const s = (c: Coord): Coord => (typeof c === "string" ? c.replace(/^(\w+?_[LR])\./, (_m, r: string) => `${sideRole(r, tapSide)}.`) : c);
-  return typeof p === "string" ? (s(p) as string) : [s(p[0]), s(p[1])];
+/** "ROLE.pin" with a template role resolved to its side; other pin references unchanged. */
+function sidePin(ref: PinRef, tapSide: CoreSide): PinRef {
+  const dot = ref.indexOf(".");
+  const role = ref.slice(0, dot);
+  return isTemplateRole(role) ? `${sideRole(role, tapSide)}.${ref.slice(dot + 1)}` : ref;
+}
+
+function subPt(p: RoutePt, tapSide: CoreSide): RoutePt {
+  const s = (c: Coord): Coord => (typeof c === "string" ? sidePin(c, tapSide) : c);
+  return typeof p === "string" ? sidePin(p, tapSide) : [s(p[0]), s(p[1])];
 }
 
 /** Timing core plus duty control, with the tapped collector on the right. */
-export function coreLayout(tapSide: "A" | "B"): StageLayout {
-  const slots: Record<string, Slot> = {};
-  for (const [role, slot] of Object.entries(CORE_TEMPLATE)) slots[sideRole(role, tapSide)] = slot;
+export function coreLayout(tapSide: CoreSide): StageLayout {
+  const slots: Partial<Record<PlacedRole, Slot>> = {};
+  for (const role of Object.keys(CORE_TEMPLATE).filter(isTemplateRole)) slots[sideRole(role, tapSide)] = CORE_TEMPLATE[role];
   // The wiper points up to the rail; end `a` (pa, toward RB_A) must face side A.
   slots.RV_DUTY = tapSide === "B" ? { x: 420, y: BASE_Y, rot: 270, label: "below" } : { x: 420, y: BASE_Y, rot: 90, mirror: true, label: "below" };
   return { slots, routes: CORE_ROUTES.map((r) => r.map((p) => subPt(p, tapSide))), width: CORE_WIDTH };
@@ -105,7 +128,7 @@ export function coreLayout(tapSide: "A" | "B"): StageLayout {
 export const resolveSide = subPt;
 
 /** Load stage (origin = the chain's switched column): load from the rail, probe in its loop. */
-export function loadLayout(highSide: boolean, outPin: string): StageLayout {
+export function loadLayout(highSide: boolean, outPin: PinRef): StageLayout {
   return highSide
     ? { width: 200, slots: { Vsense: { x: 0, y: 250 }, LOAD: { x: 0, y: 350 } }, routes: [["Vsense.p", outPin], ["Vsense.n", "LOAD.a"]] }
     : { width: 200, slots: { LOAD: { x: 0, y: 110 }, Vsense: { x: 0, y: 200 } }, routes: [["LOAD.b", "Vsense.p"], ["Vsense.n", outPin]] };
@@ -119,7 +142,7 @@ export function protectionLayout(highSide: boolean): StageLayout {
 }
 
 /** Which chain a circuit carries, read from its chain-stage roles. */
-export function chainKindOf(roles: ReadonlySet<string>): ChainKind {
+export function chainKindOf(roles: ReadonlySet<PartRole>): ChainKind {
   if (roles.has("Q_HI")) return "mosfet-driver";
   if (roles.has("Q_D3")) return "darlington-3";
   if (roles.has("Q_D1")) return "darlington-2";

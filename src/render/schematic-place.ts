@@ -11,6 +11,7 @@ import { CHAIN } from "./schematic-chains.ts";
 import * as L from "./schematic-layout.ts";
 import { SYMBOLS, type Box, type SymbolDef } from "./symbols/index.ts";
 import { probe } from "./symbols/probe.ts";
+import { EngineMisuseError } from "../model/errors.ts";
 
 export const RAIL_Y = 50;
 export const LEFT_X = 60;
@@ -23,7 +24,7 @@ export type Pt = readonly [number, number];
 
 export interface Placed {
   key: string; // ref, or the instrument name
-  role: string;
+  role: L.PlacedRole;
   part?: Part;
   sym: SymbolDef;
   cx: number;
@@ -98,14 +99,14 @@ export function place(circuit: CircuitModel): { placed: Placed[]; hints: Hint[] 
   const sense = circuit.instruments.find((i) => i.name === "Vsense");
   const highSide = sense !== undefined && sense.p === circuit.switchNet;
   const st = stages(circuit, highSide);
-  const items: { key: string; role: string; part?: Part; sym: SymbolDef; nets: Record<string, string>; stage: StageKind }[] =
+  const items: { key: string; role: L.PlacedRole; part?: Part; sym: SymbolDef; nets: Record<string, string>; stage: StageKind }[] =
     circuit.parts.map((p) => ({ key: p.ref, role: p.role, part: p, sym: SYMBOLS[p.kind], nets: p.pins, stage: p.stage }));
   if (sense) items.push({ key: "Vsense", role: "Vsense", sym: probe, nets: { p: sense.p, n: sense.n }, stage: "load" });
   const placed: Placed[] = [];
   for (const it of items) {
     const { layout, x0 } = st[it.stage];
     const slot = layout.slots[it.role];
-    if (!slot) throw new RangeError(`schematic: no place for role "${it.role}" (${it.key}) in stage "${it.stage}"`);
+    if (!slot) throw new EngineMisuseError(`schematic: no place for role "${it.role}" (${it.key}) in stage "${it.stage}"`);
     const cx = x0 + slot.x;
     const cy = slot.y;
     const pins: Record<string, Pt> = {};
@@ -125,7 +126,7 @@ export function place(circuit: CircuitModel): { placed: Placed[]; hints: Hint[] 
 
 /** Table routes → absolute corner lists, dropping those that do not apply to this circuit. */
 function resolveHints(placed: Placed[], st: ReturnType<typeof stages>): Hint[] {
-  const byRole = new Map(placed.map((p) => [p.role, p]));
+  const byRole = new Map<L.LayoutRole, Placed>(placed.map((p) => [p.role, p]));
   const out: Hint[] = [];
   const seen = new Set<L.StageLayout>();
   for (const stage of ["supply", "timing", "chain", "load", "protection"] as const) {
@@ -134,8 +135,10 @@ function resolveHints(placed: Placed[], st: ReturnType<typeof stages>): Hint[] {
     seen.add(layout);
     for (const route of layout.routes) {
       const nets = new Set<string>();
-      const pin = (ref: string): Pt | undefined => {
-        const [role, name] = ref.split(".") as [string, string];
+      const pin = (ref: L.PinRef): Pt | undefined => {
+        const dot = ref.indexOf(".");
+        const role = ref.slice(0, dot) as L.LayoutRole; // PinRef is `${LayoutRole}.${pin}`
+        const name = ref.slice(dot + 1);
         const p = byRole.get(role);
         const net = p?.nets[name];
         if (net !== undefined) nets.add(net);

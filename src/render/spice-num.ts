@@ -2,8 +2,9 @@
  * Numbers and names for SPICE text. Numbers are printed in full precision (no rounding: the
  * netlist is an exact view of the model), and NaN/Infinity are refused before they reach text.
  */
+import { EngineMisuseError } from "../model/errors.ts";
 export function spiceNum(x: number, what: string): string {
-  if (!Number.isFinite(x)) throw new RangeError(`netlist: non-finite number for ${what}: ${x}`);
+  if (!Number.isFinite(x)) throw new EngineMisuseError(`netlist: non-finite number for ${what}: ${x}`);
   if (x === 0) return "0";
   // 12 significant digits: far below any tolerance, and keeps float noise (…0000014) out of the text.
   const y = Number(x.toPrecision(12));

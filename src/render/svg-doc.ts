@@ -4,6 +4,7 @@
  */
 import { createSVGWindow } from "svgdom";
 import { SVG, registerWindow, type Svg } from "@svgdotjs/svg.js";
+import { EngineMisuseError } from "../model/errors.ts";
 
 let registered = false;
 
@@ -23,7 +24,7 @@ export function xmlEscape(s: string): string {
 
 /** svg.js numbers are coerced silently; refuse NaN/Infinity before they reach it. */
 export function fin(x: number, what: string): number {
-  if (!Number.isFinite(x)) throw new RangeError(`svg: non-finite coordinate for ${what}: ${x}`);
+  if (!Number.isFinite(x)) throw new EngineMisuseError(`svg: non-finite coordinate for ${what}: ${x}`);
   return x;
 }
 

@@ -1,21 +1,18 @@
 /**
  * "Size your own": one variant of a design for any supply, current, PWM frequency, chain and load
  * kind within the design's limits, through the very functions the build uses (expand → choose
- * devices → sizeVariant → renderers). Pure: bundled into the browser, called by tests on Node.
+ * devices → sizeVariant → renderVariantViews). Pure: bundled into the browser, called by tests on Node.
  */
 import type { DeratingPolicy } from "../model/derating.ts";
 import type { DesignRecord } from "../model/design.ts";
 import type { DeviceClass } from "../model/device.ts";
 import type { ChainKind, LoadKind } from "../model/kinds.ts";
 import type { SizedVariant } from "../model/sized.ts";
-import { findFigure } from "../model/sized.ts";
 import { formatValue } from "../model/format.ts";
 import { expandDesign } from "../expand/index.ts";
 import { chooseDevices } from "../engine/devices/choose.ts";
 import { sizeVariant } from "../engine/index.ts";
-import { renderNetlist } from "../render/netlist.ts";
-import { renderSchematic } from "../render/schematic.ts";
-import { renderBom } from "../render/bom.ts";
+import { renderVariantViews, type VariantViews } from "../render/variant.ts";
 
 /** What the page embeds for one design. */
 export interface SizeOwnData {
@@ -50,7 +47,7 @@ export function sizeOwnLimits(rec: DesignRecord): SizeOwnLimits {
 }
 
 export type SizeOwnResult =
-  | { ok: true; sized: SizedVariant; netlist: string; bomCsv: string; schematicSvg: string }
+  | ({ ok: true; sized: SizedVariant } & VariantViews)
   | { ok: false; errors: string[] };
 
 export function sizeOwn(data: SizeOwnData, input: SizeOwnInput, opts: { schematic?: boolean } = {}): SizeOwnResult {
@@ -75,15 +72,6 @@ export function sizeOwn(data: SizeOwnData, input: SizeOwnInput, opts: { schemati
   const [spec] = expandDesign(rec, { choose: (r, s, a, c) => chooseDevices(r, lib, s, a, c), policy: data.policy });
   if (!spec) return { ok: false, errors: ["Nothing to size for these inputs."] };
   const sized = sizeVariant(spec);
-  const c = sized.circuit;
-  if (!c) return { ok: true, sized, netlist: "", bomCsv: "", schematicSvg: "" };
-  const meta = { id: spec.id, title: `${spec.designTitle}, ${spec.id} (sized on request)` };
-  const f = findFigure(sized, "frequency_nominal")?.value ?? input.pwm_Hz;
-  return {
-    ok: true,
-    sized,
-    netlist: renderNetlist(c, { ...meta, supply_V: spec.supply_V, frequency_Hz: f, devices: lib }),
-    bomCsv: renderBom(c),
-    schematicSvg: opts.schematic === false ? "" : renderSchematic(c, meta),
-  };
+  const views = renderVariantViews(sized, lib, { titleNote: "sized on request", ...(opts.schematic === false ? { schematic: false } : {}) });
+  return { ok: true, sized, ...views };
 }

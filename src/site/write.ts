@@ -54,7 +54,7 @@ export async function writeSiteFiles(cat: BuiltCatalogue, outDir: string): Promi
 
 /**
  * Writes the whole static site for `cat` into `outDir` (created if missing; nothing outside it is
- * touched or deleted). Same catalogue → byte-identical files. Throws SiteInputError, naming the
+ * touched or deleted). Same catalogue → byte-identical files. Throws RecordError, naming the
  * design file and a pointer into the catalogue, when the catalogue cannot be published.
  */
 export async function writeSite(cat: BuiltCatalogue, outDir: string, opts: WriteSiteOptions = {}): Promise<{ pages: number; files: number }> {

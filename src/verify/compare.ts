@@ -11,6 +11,7 @@ import type { EngineName } from "./engines/types.ts";
 import type { Measured } from "./plan.ts";
 import type { Predicted } from "./target.ts";
 import { SIM_FIGURES } from "../model/sized.ts";
+import { EngineMisuseError } from "../model/errors.ts";
 
 export interface Tolerance {
   rel?: number;
@@ -47,7 +48,7 @@ export const CHECKS: readonly Check[] = [
   ...SIM_FIGURES.map((key): Check => {
     const measured = key === "frequency_nominal" ? key : key.replace(/_nominal$/, "");
     const tol = TWO_SIDED[measured];
-    if (tol === undefined) throw new Error(`compare.ts: no tolerance for ${key}`);
+    if (tol === undefined) throw new EngineMisuseError(`compare.ts: no tolerance for ${key}`);
     return { key, measured, tol };
   }),
   ...SIM_FIGURES.filter((k) => k.endsWith("_nominal") && k !== "frequency_nominal").map(

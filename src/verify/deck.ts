@@ -4,7 +4,7 @@
  * published netlist is never changed.
  */
 import { setCtrl } from "../render/netlist.ts";
-import { SpiceRunError } from "./engines/types.ts";
+import { SpiceRunError } from "../model/errors.ts";
 
 /** Supply voltage from the `Vsupply` line (`Vsupply vcc 0 [DC] 12`). */
 export function supplyVoltage(netlist: string): number {

@@ -10,6 +10,7 @@ import { DEFAULT_RUN_PLAN, loadTiming, loadVoltage, onCurrent, runAt, switchVolt
 import { meanOnState, peakAfter, pwmTiming, timeAverage, upperLevel, valueAt } from "./measure.ts";
 import { plotWaveforms } from "./waveforms.ts";
 import type { VerifyTarget } from "./target.ts";
+import { SpiceRunError } from "../model/errors.ts";
 
 /** Bumped whenever measurement code changes what it reports: part of every cache key. */
 export const MEASURE_CODE_VERSION = "verify-measure-9";
@@ -43,10 +44,10 @@ function collect(target: VerifyTarget, low: Run, mid: Run, high: Run): { measure
     put(`core_running_ctrl${run.ctrl}`, `Timing core oscillates at control ${run.ctrl} (1 yes, 0 stopped)`, "", describeCore(run).stopped ? 0 : 1);
   }
   const iOn_A = onCurrent(high);
-  if (!(iOn_A > 1e-4)) throw new Error(`the load never switches on at ctrl = 1 (on-current ${iOn_A} A); ${coreState(high)}`);
+  if (!(iOn_A > 1e-4)) throw new SpiceRunError(`the load never switches on at ctrl = 1 (on-current ${iOn_A} A); ${coreState(high)}`);
 
   const tMid = loadTiming(target, mid, iOn_A);
-  if (tMid.kind !== "pwm") throw new Error(`no oscillation at the load at ctrl = 0.5 (${describe(tMid)}); ${coreState(mid)}`);
+  if (tMid.kind !== "pwm") throw new SpiceRunError(`no oscillation at the load at ctrl = 0.5 (${describe(tMid)}); ${coreState(mid)}`);
   put("frequency_nominal", "PWM frequency at mid control", "Hz", tMid.frequency_Hz);
   put("duty_mid", "Duty at the load, control 0.5", "", tMid.duty);
   put("frequency_spread", "Period spread over the settled periods, control 0.5", "", tMid.spread);
@@ -59,7 +60,7 @@ function collect(target: VerifyTarget, low: Run, mid: Run, high: Run): { measure
 
   for (const [run, key] of [[low, "duty_min"], [high, "duty_max"]] as const) {
     const tm = loadTiming(target, run, iOn_A);
-    if (tm.kind === "too-few") throw new Error(`too few settled periods at ctrl = ${run.ctrl} (${tm.periods}); ${coreState(run)}`);
+    if (tm.kind === "too-few") throw new SpiceRunError(`too few settled periods at ctrl = ${run.ctrl} (${tm.periods}); ${coreState(run)}`);
     put(key, `Duty at the load, control ${run.ctrl}`, "", tm.duty);
     if (tm.kind === "pwm") put(`frequency_ctrl${run.ctrl}`, `PWM frequency at control ${run.ctrl}`, "Hz", tm.frequency_Hz);
   }

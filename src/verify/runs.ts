@@ -8,6 +8,7 @@ import { timeAverage, upperLevel } from "./signal.ts";
 import { transistorElement, type VerifyTarget } from "./target.ts";
 import { baseProbe, gateDrive, gateProbe, type BaseProbe, type GateProbe } from "./gate.ts";
 import { VT_NOMINAL_V } from "../engine/shared/temperature.ts";
+import { SpiceRunError } from "../model/errors.ts";
 
 /**
  * Transient length, start-up discarded and largest step, in predicted periods. The core starts from
@@ -105,7 +106,7 @@ export async function runAt(target: VerifyTarget, netlist: string, engine: Spice
   while (end(res) < 0.99 * tStop_s) {
     stops.push(`${end(res)} s${retryLevel === 0 ? "" : ` with ${levels[retryLevel - 1]![0]}${retryLevel === 2 ? ` and step ${levels[1]![1]} s` : ""}`}`);
     const next = levels[retryLevel];
-    if (next === undefined) throw new Error(`transient stopped early at ctrl = ${ctrl} of ${tStop_s} s: at ${stops.join(", at ")}`);
+    if (next === undefined) throw new SpiceRunError(`transient stopped early at ctrl = ${ctrl} of ${tStop_s} s: at ${stops.join(", at ")}`);
     res = await attempt([base, next[0]].filter(Boolean).join(" "), next[1]);
     retryLevel++;
   }
@@ -119,7 +120,7 @@ export async function runAt(target: VerifyTarget, netlist: string, engine: Spice
 
 export function vec(run: Run, name: string): Float64Array {
   const v = run.v[name];
-  if (v === undefined) throw new Error(`vector ${name} was not saved`);
+  if (v === undefined) throw new SpiceRunError(`vector ${name} was not saved`);
   return v;
 }
 

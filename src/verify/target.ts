@@ -4,6 +4,7 @@
  * and the predicted figures to compare with. Plain data, so it can cross to a worker thread.
  */
 import type { SizedVariant } from "../model/sized.ts";
+import { POWER_ROLES } from "../model/part-roles.ts";
 
 export interface Predicted {
   value: number;
@@ -34,8 +35,6 @@ export interface VerifyTarget {
   loadEmf_V: number;
 }
 
-const POWER_ROLES = new Set(["Q_POWER", "Q_D1", "Q_D2", "Q_D3"]);
-
 /** Null when the variant has no circuit or no frequency prediction: nothing to simulate. */
 export function targetFromSized(sized: SizedVariant): VerifyTarget | null {
   const c = sized.circuit;
@@ -55,7 +54,7 @@ export function targetFromSized(sized: SizedVariant): VerifyTarget | null {
     otherNet: c.tapNet === "ca" ? "cb" : "ca",
     chainInputNet: c.chainInputNet,
     switchNet: c.switchNet,
-    powerRefs: c.parts.filter((p) => POWER_ROLES.has(p.role)).map((p) => p.ref),
+    powerRefs: c.parts.filter((p) => (POWER_ROLES as readonly string[]).includes(p.role)).map((p) => p.ref),
     predicted,
     period_s: 1 / f,
     loadTau_s: l_H > 0 && r_ohm > 0 ? l_H / r_ohm : 0,

@@ -10,10 +10,7 @@ import { loadProject } from "../../src/records/index.ts";
 import { expandDesign } from "../../src/expand/index.ts";
 import { chooseDevices } from "../../src/engine/devices/choose.ts";
 import { attachAlternatives, sizeVariant } from "../../src/engine/index.ts";
-import { renderNetlist } from "../../src/render/netlist.ts";
-import { renderSchematic } from "../../src/render/schematic.ts";
-import { renderBom } from "../../src/render/bom.ts";
-import { findFigure } from "../../src/model/sized.ts";
+import { renderVariantViews } from "../../src/render/variant.ts";
 
 export const REPO = fileURLToPath(new URL("../../", import.meta.url));
 
@@ -28,13 +25,8 @@ export async function realCatalogue(designIds: string[] = ["circulation-fan"]): 
       return {
         record: d.record,
         file: d.file,
-        variants: sized.map((z) => {
-          const c = z.circuit;
-          if (!c) return { sized: z, files: { schematicSvg: "", netlist: "", bomCsv: "" } };
-          const meta = { id: z.spec.id, title: `${z.spec.designTitle}, ${z.spec.id}` };
-          const f = findFigure(z, "frequency_nominal")?.value ?? z.spec.targets.pwm_Hz;
-          return { sized: z, files: { schematicSvg: renderSchematic(c, meta), netlist: renderNetlist(c, { ...meta, supply_V: z.spec.supply_V, frequency_Hz: f, devices: project.devices }), bomCsv: renderBom(c) } };
-        }),
+        // The build's render step (src/render/variant.ts), as src/cli/pipeline.ts calls it.
+        variants: sized.map((z) => ({ sized: z, files: renderVariantViews(z, project.devices) })),
       };
     });
   const all = designs.flatMap((d) => d.variants);

@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import { PIN_NAMES } from "../../src/model/circuit.ts";
 import { KEY_FIGURES } from "../../src/model/sized.ts";
 import { REF_PREFIX, STAGE_KINDS } from "../../src/model/kinds.ts";
-import { ROLE_ORDER } from "../../src/circuit/assemble.ts";
+import { PART_ROLES } from "../../src/model/part-roles.ts";
 import { sizeVariant } from "../../src/engine/index.ts";
 import { NPN_HIGH_GAIN, type SpecOpts, makeSpec } from "../engine/fixtures.ts";
 
@@ -28,7 +28,7 @@ describe.each(cases)("circuit of $chain $supply_V V $load_A A $load_kind", (c) =
     expect(circuit.nets[0]).toBe("0");
   });
   it("numbers refs in stage order then role order, each letter code from 1", () => {
-    const order = circuit.parts.map((p) => [STAGE_KINDS.indexOf(p.stage), ROLE_ORDER.indexOf(p.role)] as const);
+    const order = circuit.parts.map((p) => [STAGE_KINDS.indexOf(p.stage), PART_ROLES.indexOf(p.role)] as const);
     for (let i = 1; i < order.length; i++) expect(order[i]![0] * 100 + order[i]![1]).toBeGreaterThan(order[i - 1]![0] * 100 + order[i - 1]![1]);
     const next = new Map<string, number>();
     for (const p of circuit.parts) {

@@ -6,6 +6,7 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { formatPercent, formatValue, toSignificant } from "../../src/model/format.ts";
+import { EngineMisuseError } from "../../src/model/errors.ts";
 
 const SCALE: Record<string, number> = { G: 1e9, M: 1e6, k: 1e3, "": 1, m: 1e-3, µ: 1e-6, n: 1e-9, p: 1e-12 };
 const UNITS = ["Ω", "F", "H", "A", "V", "W", "Hz", "s", "C", "°C", "K/W", "", "ratio", "%"];
@@ -57,6 +58,6 @@ describe("formatValue on any finite number", () => {
   });
 
   it("refuses only NaN and ±Infinity", () => {
-    for (const bad of [NaN, Infinity, -Infinity]) expect(() => formatValue(bad, "V")).toThrow(RangeError);
+    for (const bad of [NaN, Infinity, -Infinity]) expect(() => formatValue(bad, "V")).toThrow(EngineMisuseError);
   });
 });

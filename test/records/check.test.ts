@@ -29,8 +29,8 @@ describe("runCheck", () => {
     const io = capture();
     expect(await runCheck(await makeProject(files), io)).toBe(1);
     expect(io.err.length).toBe(3);
-    expect(io.err[0]).toMatch(/^designs\/duty-reversed\.json:\d+:\d+  \/targets\/duty_min  duty_min 0\.8 is not below duty_max 0\.2 — /);
-    expect(io.err[1]).toMatch(/^designs\/zero-supply\.json:7:7  \/axes\/supply_V\/0  0 V is below the smallest allowed, 3 V — use a value from 3 to 60 V: pulsewright covers low-voltage DC only$/);
+    expect(io.err[0]).toMatch(/^designs\/duty-reversed\.json:\d+:\d+ {2}\/targets\/duty_min {2}duty_min 0\.8 is not below duty_max 0\.2 — /);
+    expect(io.err[1]).toMatch(/^designs\/zero-supply\.json:7:7 {2}\/axes\/supply_V\/0 {2}0 V is below the smallest allowed, 3 V — use a value from 3 to 60 V: pulsewright covers low-voltage DC only$/);
     expect(io.err[2]).toBe("check failed: 2 issues in 2 files");
   });
 
@@ -51,7 +51,7 @@ describe("runCheck", () => {
     const root = await makeProject([{ path: "designs/battery-fixture.json", content: JSON.stringify(rec, null, 2) }]);
     const io = capture();
     expect(await runCheck(root, io)).toBe(1);
-    expect(io.err.some((l) => /battery-fixture\.json:\d+:\d+  \/axes\/supply_V\/1  supply 18 V is not within a lead-acid battery system \(12 V: 10\.5–14\.7 V, 24 V: 21–29\.4 V/.test(l))).toBe(true);
-    expect(io.err.some((l) => /\/supply\/windows\/0\/nominal_V  window for 13\.8 V, but 13\.8 V is not in axes\.supply_V/.test(l))).toBe(true);
+    expect(io.err.some((l) => /battery-fixture\.json:\d+:\d+ {2}\/axes\/supply_V\/1 {2}supply 18 V is not within a lead-acid battery system \(12 V: 10\.5–14\.7 V, 24 V: 21–29\.4 V/.test(l))).toBe(true);
+    expect(io.err.some((l) => /\/supply\/windows\/0\/nominal_V {2}window for 13\.8 V, but 13\.8 V is not in axes\.supply_V/.test(l))).toBe(true);
   });
 });

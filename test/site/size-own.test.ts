@@ -9,6 +9,7 @@ import { sizeOwnData } from "../../src/site/size-own-data.ts";
 import { compareTables } from "../../src/site/view-compare.ts";
 import { fixtureCatalogue } from "../fixtures/catalogue/index.ts";
 import { expectClose } from "../helpers/close.ts";
+import { realCatalogue } from "../browser/real-catalogue.ts";
 
 const cat = fixtureCatalogue();
 const fan = cat.designs[0]!;
@@ -37,6 +38,24 @@ describe("size your own", () => {
     const used = new Set(cat.designs.flatMap((d) => d.variants.flatMap((v) => Object.values(v.sized.spec.devices).map((x) => x.id))));
     expect(data.devices.map((d) => d.id).sort()).toEqual([...used].sort());
     expect(data.policy).toEqual(fan.variants[0]!.sized.spec.policy);
+  });
+});
+
+describe("size your own renders through the build's render step", () => {
+  it("gives, at a catalogue point of a real design, the build's netlist, parts list and schematic but for the title", async () => {
+    const real = await realCatalogue(["nutrient-pump"]);
+    const d = real.designs[0]!;
+    const v = d.variants.find((x) => x.sized.circuit !== null)!;
+    const s = v.sized.spec;
+    const r = sizeOwn(sizeOwnData(real, d)!, { supply_V: s.supply_V, load_A: s.load_A, pwm_Hz: s.targets.pwm_Hz, chain: s.chain, load_kind: s.load_kind });
+    expect(r.ok).toBe(true);
+    if (!r.ok) return;
+    expect(r.sized.figures).toEqual(v.sized.figures);
+    expect(r.bomCsv).toBe(v.files.bomCsv);
+    const retitle = (text: string) => text.replaceAll(`${s.designTitle}, ${s.id} (sized on request)`, `${s.designTitle}, ${s.id}`);
+    expect(r.netlist).not.toBe(v.files.netlist); // the page says it was sized on request
+    expect(retitle(r.netlist)).toBe(v.files.netlist);
+    expect(retitle(r.schematicSvg)).toBe(v.files.schematicSvg);
   });
 });
 

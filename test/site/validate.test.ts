@@ -1,16 +1,17 @@
 /** Bad input to the site writer: a clear error naming the design file and the place in the catalogue. */
 import { describe, expect, it } from "vitest";
-import { SiteInputError, validateCatalogue } from "../../src/site/validate.ts";
+import { validateCatalogue } from "../../src/site/validate.ts";
+import { RecordError } from "../../src/model/errors.ts";
 import { fixtureCatalogue } from "../fixtures/catalogue/index.ts";
 
-function errorOf(fn: () => void): SiteInputError {
+function errorOf(fn: () => void): RecordError {
   try {
     fn();
   } catch (e) {
-    if (e instanceof SiteInputError) return e;
+    if (e instanceof RecordError) return e;
     throw e;
   }
-  throw new Error("expected a SiteInputError");
+  throw new Error("expected a RecordError");
 }
 
 describe("validateCatalogue", () => {

@@ -2,7 +2,8 @@
  * The SPICE engine adapters against closed-form results, and against each other.
  */
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { startEngine, SpiceRunError, type EngineName, type SpiceEngine } from "../../src/verify/engines/index.ts";
+import { startEngine, type EngineName, type SpiceEngine } from "../../src/verify/engines/index.ts";
+import { SpiceRunError } from "../../src/model/errors.ts";
 import { ngspiceAvailable } from "../../src/verify/engines/ngspice.ts";
 import { pwmTiming, valueAt, meanOnState } from "../../src/verify/measure.ts";
 import { expectClose } from "../helpers/close.ts";
@@ -27,7 +28,7 @@ async function astable(engine: SpiceEngine) {
   const ca = r.vectors["v(ca)"]!;
   const m = pwmTiming(r.t_s, ca, 2.5, { from_s: 3e-3 });
   if (m.kind !== "pwm") throw new Error(`astable did not oscillate (${m.kind})`);
-  const low: [number, number][] = m.on.map(([rise, fall], k) => [fall, m.on[k + 1]?.[0] ?? fall + (1 - m.duty) * m.period_s]);
+  const low: [number, number][] = m.on.map(([, fall], k) => [fall, m.on[k + 1]?.[0] ?? fall + (1 - m.duty) * m.period_s]);
   return { m, vbe_V: meanOnState(r.t_s, r.vectors["v(ba)"]!, low), vcesat_V: meanOnState(r.t_s, ca, low) };
 }
 

@@ -6,6 +6,7 @@ import { readFileSync } from "node:fs";
 import type { Part } from "../../src/model/circuit.ts";
 import type { Figure } from "../../src/model/figure.ts";
 import type { SizedVariant } from "../../src/model/sized.ts";
+import type { PartRole } from "../../src/model/part-roles.ts";
 
 export function fixtureNetlist(name: string): string {
   return readFileSync(new URL(`../fixtures/netlists/${name}.cir`, import.meta.url), "utf8");
@@ -15,7 +16,7 @@ export function figure(key: string, value: number, unit = ""): Figure {
   return { key, label: key, value, unit, stage: "test", formula: "demo", source: "demo", confidence: "demo" };
 }
 
-function part(ref: string, role: string, kind: Part["kind"], spice?: Part["spice"]): Part {
+function part(ref: string, role: PartRole, kind: Part["kind"], spice?: Part["spice"]): Part {
   const p: Part = { ref, kind, stage: "chain", role, value: 0, unit: "", description: "", rating: {}, stress: {}, pins: {} };
   if (spice) p.spice = spice;
   return p;

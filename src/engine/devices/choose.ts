@@ -8,7 +8,7 @@ import type { DesignRecord, DeviceRole } from "../../model/design.ts";
 import type { ChainKind } from "../../model/kinds.ts";
 import { DEVICE_ROLES, ROLE_FAMILY } from "../../model/design.ts";
 import type { BjtClass, DeviceClass, DeviceLibrary } from "../../model/device.ts";
-import { EngineMisuseError } from "../../model/problem.ts";
+import { EngineMisuseError } from "../../model/errors.ts";
 import { hfeMin, vbeSat, vceSat } from "../shared/gain.ts";
 import { getDevice, isBjt, isDiode, isMosfet } from "./library.ts";
 import { supplyWindow } from "../shared/supply.ts";

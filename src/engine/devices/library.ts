@@ -3,7 +3,7 @@
  * JSON files); this module only indexes and narrows.
  */
 import type { BjtClass, DeviceClass, DeviceLibrary, DiodeClass, MosfetClass, ZenerClass } from "../../model/device.ts";
-import { EngineMisuseError } from "../../model/problem.ts";
+import { EngineMisuseError } from "../../model/errors.ts";
 
 /** Index classes by id; a repeated id is a caller bug (records validation reports it first). */
 export function indexLibrary(classes: DeviceClass[]): DeviceLibrary {

@@ -3,7 +3,8 @@
  * The engine never hard-codes a factor: swap the policy file to change them (docs/derating.md).
  */
 import type { DeratingPolicy, DeratingRule, StressCheck, StressQuantity, StressVerdict } from "../../model/derating.ts";
-import { EngineMisuseError } from "../../model/problem.ts";
+import type { PartRole } from "../../model/part-roles.ts";
+import { EngineMisuseError } from "../../model/errors.ts";
 
 export type TjFamily = "bjt" | "mosfet" | "diode";
 
@@ -23,10 +24,11 @@ export function verdictOf(ratio: number, factor: number, marginal_above: number)
 
 /**
  * One part quantity against its rating. `stress` is taken by magnitude (a reverse voltage may
- * arrive negative). ratio = |stress| / rating; allowed = rule.factor.
+ * arrive negative). ratio = |stress| / rating; allowed = rule.factor. The check is made out to the
+ * part's role; sizeVariant replaces it with the reference designator once the circuit is numbered.
  */
 export function checkStress(
-  ref: string,
+  ref: PartRole,
   quantity: StressQuantity,
   stress: number,
   rating: number,
@@ -47,7 +49,7 @@ export function checkStress(
  * Junction temperature as a StressCheck: rating = T_J,max, allowed = derated limit / T_J,max, so
  * "fail" means T_J above the policy's limit (ratio of °C values, used only for the verdict).
  */
-export function checkTj(ref: string, tj_C: number, tjMax_C: number, policy: DeratingPolicy, family: TjFamily): StressCheck {
+export function checkTj(ref: PartRole, tj_C: number, tjMax_C: number, policy: DeratingPolicy, family: TjFamily): StressCheck {
   const limit = tjLimit_C(policy, family, tjMax_C);
   const rule = policy[family].tj_max_C;
   const allowed = Math.min(1, Math.max(limit / tjMax_C, Number.MIN_VALUE));

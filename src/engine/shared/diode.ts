@@ -10,7 +10,7 @@
  * All laws are stated at NOMINAL_TEMP_C (the cards' TNOM and the netlist's `.temp`).
  */
 import type { DiodeClass } from "../../model/device.ts";
-import { EngineMisuseError } from "../../model/problem.ts";
+import { EngineMisuseError } from "../../model/errors.ts";
 import { findRoot } from "./root.ts";
 import { NOMINAL_TEMP_C, VT_NOMINAL_V } from "./temperature.ts";
 

@@ -6,7 +6,7 @@
  * Values are kept as integer mantissas ×100 (100…999) and built as mantissa × 10^exp with exact
  * integer powers, so 4.7 kΩ is exactly 4700 and 4.7 nF is the double nearest 4.7e-9.
  */
-import { EngineMisuseError } from "../../model/problem.ts";
+import { EngineMisuseError } from "../../model/errors.ts";
 
 export const SERIES_NAMES = ["E6", "E12", "E24", "E48", "E96"] as const;
 export type SeriesName = (typeof SERIES_NAMES)[number];

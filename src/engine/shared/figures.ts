@@ -4,8 +4,10 @@
  * out of everything downstream.
  */
 import type { Figure } from "../../model/figure.ts";
-import { EngineMisuseError, type DesignProblem, type Severity } from "../../model/problem.ts";
+import type { DesignProblem, Severity } from "../../model/problem.ts";
+import { EngineMisuseError } from "../../model/errors.ts";
 import { cite, type SourceKey, type SourceRef } from "./sources.ts";
+import type { PartRole, RefDesignator } from "../../model/part-roles.ts";
 
 /** Throws EngineMisuseError unless `x` is a finite number; `what` names it in the message. */
 export function assertFinite(x: number, what: string): number {
@@ -37,9 +39,20 @@ export function figure(
   return f;
 }
 
+/**
+ * Where a design problem points: a part by role while the stages run (sizeVariant turns roles into
+ * reference designators), a part by designator, a design target, or the variant as a whole ("").
+ */
+export type ProblemPath =
+  | `/parts/${PartRole}`
+  | `/parts/${RefDesignator}`
+  | `/targets/${string}`
+  | `/protection/${string}`
+  | "";
+
 export function problem(
   stage: string,
-  path: string,
+  path: ProblemPath,
   rule: string,
   severity: Severity,
   message: string,

@@ -6,7 +6,7 @@
  * Boundary choice (ours): the limits are compared inclusively and 3000 Hz counts as exempt, so
  * full-depth PWM is low-risk from 1250 Hz and without observable effect from 3000 Hz.
  */
-import { EngineMisuseError } from "../../model/problem.ts";
+import { EngineMisuseError } from "../../model/errors.ts";
 
 export type FlickerRegion = "no-observable-effect" | "low-risk" | "exceeds";
 

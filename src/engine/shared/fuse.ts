@@ -18,7 +18,7 @@
  *  - blade fuses, ISO 8820-3: rated 32 V (58 V types for 42/48 V systems); ratings 1–40 A;
  *    pre-arcing time at 6 × I_n (600 %) between 10 ms and 100 ms (from memory).
  */
-import { EngineMisuseError } from "../../model/problem.ts";
+import { EngineMisuseError } from "../../model/errors.ts";
 import type { SourceKey } from "./sources.ts";
 
 export interface FuseFamily {

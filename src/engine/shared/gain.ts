@@ -4,7 +4,7 @@
  * interpolated the way datasheet graphs are drawn: h_FE log-log, V_CE(sat) linear in I_C.
  */
 import type { BjtClass } from "../../model/device.ts";
-import { EngineMisuseError } from "../../model/problem.ts";
+import { EngineMisuseError } from "../../model/errors.ts";
 import { JUNCTION_TEMPCO_VperK } from "./diode.ts";
 import { NOMINAL_TEMP_C } from "./temperature.ts";
 

@@ -4,7 +4,7 @@
  * real loads should bind measured values (docs/method.md says how far to trust these).
  */
 import type { LoadKind } from "../../model/kinds.ts";
-import { EngineMisuseError } from "../../model/problem.ts";
+import { EngineMisuseError } from "../../model/errors.ts";
 
 /** Cold/hot filament resistance ratio → inrush multiple: 10–15× (Fink & Beaty, 11th ed., p. 22-8, from memory)
  * [src:fink-beaty-11e]. */

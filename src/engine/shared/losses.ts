@@ -2,7 +2,7 @@
  * Loss relations for switches and resistors. All averages over one PWM period; `duty` is the
  * fraction of the period the device conducts (0…1).
  */
-import { EngineMisuseError } from "../../model/problem.ts";
+import { EngineMisuseError } from "../../model/errors.ts";
 
 function nonNeg(x: number, what: string): void {
   if (!Number.isFinite(x) || x < 0) throw new EngineMisuseError(`losses: ${what} must be finite and ≥ 0, got ${x}`);

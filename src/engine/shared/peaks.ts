@@ -12,7 +12,7 @@
  *   capacitor's ESR; 0.1 Ω total, from memory): I²t = ∫(V/R)²·e^(−2t/RC) dt = C·V²/(2R) (derived).
  */
 import type { SoaPoint } from "../../model/device.ts";
-import { EngineMisuseError } from "../../model/problem.ts";
+import { EngineMisuseError } from "../../model/errors.ts";
 
 export const LAMP_WARMUP_TAU_s = 0.01;
 export const MOTOR_START_TAU_s = 0.1;

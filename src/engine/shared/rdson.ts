@@ -10,7 +10,7 @@
  * Worst-case figures keep rdsOn_ohm: the data-sheet maximum at or below the drive.
  */
 import type { MosfetClass } from "../../model/device.ts";
-import { EngineMisuseError } from "../../model/problem.ts";
+import { EngineMisuseError } from "../../model/errors.ts";
 import { vthTyp_V } from "./gate-charge.ts";
 import { fit2 } from "./least-squares.ts";
 

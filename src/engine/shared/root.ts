@@ -5,7 +5,7 @@
  * It needs a sign change on [lo, hi] and converges for any continuous f: never slower than
  * bisection by more than a small factor, superlinear near a simple root.
  */
-import { EngineMisuseError } from "../../model/problem.ts";
+import { EngineMisuseError } from "../../model/errors.ts";
 
 /** The caller handed a bracket with no sign change, a non-finite value, or too small a budget. */
 export class RootFinderError extends EngineMisuseError {

@@ -2,7 +2,7 @@
  * A solenoid coil (valve, relay) as an R–L load with no back-EMF: its pull-in from full on, its
  * PWM hold with a freewheel diode, and the hold current's ripple. Pure; nothing rounded.
  */
-import { EngineMisuseError } from "../../model/problem.ts";
+import { EngineMisuseError } from "../../model/errors.ts";
 
 function check(ok: boolean, what: string, x: number): void {
   if (!ok || !Number.isFinite(x)) throw new EngineMisuseError(`solenoid: ${what}, got ${x}`);

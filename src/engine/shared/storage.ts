@@ -8,7 +8,7 @@
  * t_s,ds = τ_s·ln 2 and τ_s = t_s,ds / ln 2 (the same τ_s the netlist's card carries as TR,
  * docs/spice-models.md). A transistor not driven into saturation (I_B1 ≤ I_C/β) stores nothing.
  */
-import { EngineMisuseError } from "../../model/problem.ts";
+import { EngineMisuseError } from "../../model/errors.ts";
 
 export function storageTime_s(tsDatasheet_s: number, iB1_A: number, iB2_A: number, iC_A: number, beta: number): number {
   for (const [k, v] of [["tsDatasheet_s", tsDatasheet_s], ["iB1_A", iB1_A], ["iB2_A", iB2_A], ["iC_A", iC_A], ["beta", beta]] as const) {

@@ -12,7 +12,7 @@
  * A 24 V system is twice the cells of a 12 V one (twice the window), and so on.
  */
 import type { BatteryChemistry, SupplyWindow } from "../../model/variant.ts";
-import { EngineMisuseError } from "../../model/problem.ts";
+import { EngineMisuseError } from "../../model/errors.ts";
 
 export interface BatteryData {
   title: string;

@@ -6,7 +6,7 @@
  * made at, and the temperature the netlist simulates at (`.temp`, with every model card's TNOM
  * equal to it, so the simulator applies no temperature scaling to the cards' parameters).
  */
-import { EngineMisuseError } from "../../model/problem.ts";
+import { EngineMisuseError } from "../../model/errors.ts";
 
 /** Nominal temperature, °C: data-sheet reference, nominal predictions and the netlist's `.temp`. */
 export const NOMINAL_TEMP_C = 25;

@@ -4,7 +4,7 @@
  * T_J = T_A + P·θ_JA free-standing; T_J = T_A + P·(θ_JC + θ_CS + θ_SA) on a heatsink.
  * JESD51-2 notes θ_JA is for comparing packages; we use it as the usual first estimate and say so.
  */
-import { EngineMisuseError } from "../../model/problem.ts";
+import { EngineMisuseError } from "../../model/errors.ts";
 import { NOMINAL_TEMP_C } from "./temperature.ts";
 
 function finite(x: number, what: string): void {

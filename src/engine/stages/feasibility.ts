@@ -4,7 +4,9 @@
  * itself is decided in verdict.ts from the checks and problems together, so no failing check is
  * ever dropped from it. Cautions for the page.
  */
-import type { DesignProblem } from "../../model/problem.ts";
+import { type DesignProblem } from "../../model/problem.ts";
+import { EngineMisuseError } from "../../model/errors.ts";
+import { isPartRole, isRefDesignator } from "../../model/part-roles.ts";
 import type { StressCheck } from "../../model/derating.ts";
 import { problem } from "../shared/figures.ts";
 import type { Ctx } from "./context.ts";
@@ -21,7 +23,9 @@ export function checkProblems(checks: StressCheck[], existing: DesignProblem[]):
   const out: DesignProblem[] = [];
   for (const c of checks) {
     if (c.verdict !== "fail") continue;
-    const path = `/parts/${c.ref}`;
+    // Checks reach here numbered (sizeVariant): a designator, or the role of a part not in the circuit.
+    if (!isRefDesignator(c.ref) && !isPartRole(c.ref)) throw new EngineMisuseError(`checkProblems: check ref "${c.ref}" names no part`);
+    const path = `/parts/${c.ref}` as const;
     const said = existing.some((p) => p.path === path && p.severity === "error" && RULE_QUANTITY[p.rule] === c.quantity);
     if (said) continue;
     out.push(problem("derating", path, `derating-${c.quantity}`, "error", checkMessage(c), { limit: c.rating * c.allowed, actual: c.stress, unit: c.unit }));

@@ -15,6 +15,7 @@ import type { Part } from "../../model/circuit.ts";
 import type { DesignProblem } from "../../model/problem.ts";
 import type { StressCheck } from "../../model/derating.ts";
 import type { VerdictCondition } from "../../model/sized.ts";
+import type { PartRole } from "../../model/part-roles.ts";
 import { checkStress } from "../shared/derating.ts";
 import { roundUp } from "../shared/e-series.ts";
 import { figure, problem } from "../shared/figures.ts";
@@ -111,7 +112,7 @@ export function supplyFuse(p: StartParams, core_A: number, taMax_C: number): { f
   return { fuse: chooseFuse({ continuous_A, vMax_V: p.vMax_V, taMax_C, inrushI2t_A2s: su.i2t_A2s }), startUp: su, continuous_A };
 }
 
-export function protectionStage(ctx: Ctx, coreCurrent_A: number, fMin_Hz: number, fMax_Hz: number, dutyMinLo: number, power?: { role: string; dev: BjtClass | MosfetClass }): ProtectionResult {
+export function protectionStage(ctx: Ctx, coreCurrent_A: number, fMin_Hz: number, fMax_Hz: number, dutyMinLo: number, power?: { role: PartRole; dev: BjtClass | MosfetClass }): ProtectionResult {
   const pol = ctx.spec.policy;
   const D = ctx.spec.devices;
   const parts: Part[] = [];

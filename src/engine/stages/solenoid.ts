@@ -7,7 +7,8 @@
  */
 import type { DiodeClass } from "../../model/device.ts";
 import type { Figure } from "../../model/figure.ts";
-import { type DesignProblem, EngineMisuseError } from "../../model/problem.ts";
+import type { DesignProblem } from "../../model/problem.ts";
+import { EngineMisuseError } from "../../model/errors.ts";
 import { figure, problem } from "../shared/figures.ts";
 import { coilAverage_A, coilRipple_A, coilRiseTime_s, holdDuty } from "../shared/solenoid.ts";
 import { diodeClassVf_V } from "../shared/diode.ts";

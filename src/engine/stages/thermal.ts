@@ -9,6 +9,7 @@ import type { Figure } from "../../model/figure.ts";
 import type { DesignProblem } from "../../model/problem.ts";
 import type { StressCheck } from "../../model/derating.ts";
 import type { HeatsinkVerdict, VerdictCondition } from "../../model/sized.ts";
+import type { PartRole } from "../../model/part-roles.ts";
 import { checkTj, tjLimit_C } from "../shared/derating.ts";
 import { figure, problem } from "../shared/figures.ts";
 import { heatsinkMax_KperW, junctionTemp_C, powerRatingAt_W, rthCsFor_KperW } from "../shared/thermal.ts";
@@ -24,7 +25,7 @@ export interface ThermalResult {
   /** One condition per device that holds its junction limit only on a heatsink. */
   conditions: VerdictCondition[];
   /** role → (power, free-air T_J) for the parts' stress. */
-  perRole: Map<string, { p_W: number; tj_C: number }>;
+  perRole: Map<PartRole, { p_W: number; tj_C: number }>;
 }
 
 /** Packages a heatsink can be bolted to (common practice). */
@@ -36,7 +37,7 @@ export function thermalStage(ctx: Ctx, losses: DeviceLoss[]): ThermalResult {
   const figures: Figure[] = [];
   const problems: DesignProblem[] = [];
   const checks: StressCheck[] = [];
-  const perRole = new Map<string, { p_W: number; tj_C: number }>();
+  const perRole = new Map<PartRole, { p_W: number; tj_C: number }>();
   const conditions: VerdictCondition[] = [];
   let heatsink: HeatsinkVerdict = { needed: false, text: "no heatsink needed" };
   let worstMargin = Infinity;

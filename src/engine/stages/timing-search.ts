@@ -113,7 +113,6 @@ export function searchCore(ctx: Ctx, q: BjtClass, db: DiodeClass, base: Base): S
   const env = envelopeOf(ctx);
   const nominal: Corner = { vcc_V: ctx.vNom_V, t_C: NOMINAL_TEMP_C, ...NOMINAL_K };
   const tTarget = 1 / ctx.f_Hz;
-  const tol = ctx.rTol;
   const ranked: Cand[] = [];
   for (const pot of POT_VALUES_OHM) {
     // Shares from the ratio model, then once more with the load-side offsets of a nominal evaluation.

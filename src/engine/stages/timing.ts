@@ -9,7 +9,6 @@ import type { Figure } from "../../model/figure.ts";
 import type { Part } from "../../model/circuit.ts";
 import type { DesignProblem } from "../../model/problem.ts";
 import type { StressCheck } from "../../model/derating.ts";
-import { checkStress } from "../shared/derating.ts";
 import { nearest } from "../shared/e-series.ts";
 import { figure, problem } from "../shared/figures.ts";
 import { vbeOn, vceSat } from "../shared/gain.ts";

@@ -39,16 +39,38 @@ interface Fixed { kEndA: Dir; kEndB: Dir; kPot: Dir; kCA: Dir; kCB: Dir }
 
 const ends = (d: Dir): number[] => (d === 0 ? [-1, 1] : [d]);
 
+/** Every combination of the given value lists (the cartesian product), first list slowest. */
+function product(lists: readonly (readonly number[])[]): number[][] {
+  let out: number[][] = [[]];
+  for (const l of lists) out = out.flatMap((head) => l.map((x) => [...head, x]));
+  return out;
+}
+
 /** Corners with the given tolerances fixed or swept; supply, temperature and both R_C always swept. */
 export function cornerSet(e: Envelope, fx: Fixed): Corner[] {
-  const out: Corner[] = [];
   const m = (tol: number, s: number): number => 1 + s * tol;
-  for (const vcc_V of [e.vMin, e.vMax]) for (const t_C of [e.tMin, e.tMax])
-    for (const ra of [-1, 1]) for (const rb of [-1, 1])
-      for (const ea of ends(fx.kEndA)) for (const eb of ends(fx.kEndB)) for (const p of ends(fx.kPot))
-        for (const ca of ends(fx.kCA)) for (const cb of ends(fx.kCB))
-          out.push({ vcc_V, t_C, kEndA: m(e.rTol, ea), kEndB: m(e.rTol, eb), kPot: m(e.potTol, p), kCA: m(e.cTol, ca), kCB: m(e.cTol, cb), kRCA: m(e.rTol, ra), kRCB: m(e.rTol, rb) });
-  return out;
+  const axes = [
+    [e.vMin, e.vMax],
+    [e.tMin, e.tMax],
+    [-1, 1],
+    [-1, 1],
+    ends(fx.kEndA),
+    ends(fx.kEndB),
+    ends(fx.kPot),
+    ends(fx.kCA),
+    ends(fx.kCB),
+  ];
+  return product(axes).map(([vcc_V, t_C, ra, rb, ea, eb, p, ca, cb]) => ({
+    vcc_V: vcc_V!,
+    t_C: t_C!,
+    kEndA: m(e.rTol, ea!),
+    kEndB: m(e.rTol, eb!),
+    kPot: m(e.potTol, p!),
+    kCA: m(e.cTol, ca!),
+    kCB: m(e.cTol, cb!),
+    kRCA: m(e.rTol, ra!),
+    kRCB: m(e.rTol, rb!),
+  }));
 }
 
 /** Which corners make each quantity extreme (the signs follow from the argument above). */

@@ -7,7 +7,8 @@ import { existsSync, readFileSync } from "node:fs";
 import { dirname, join } from "node:path";
 import { fileURLToPath } from "node:url";
 import { pickVectors, withSaves } from "./vectors.ts";
-import { SpiceRunError, type SpiceEngine, type SimResult } from "./types.ts";
+import { SpiceRunError } from "../../model/errors.ts";
+import type { SpiceEngine, SimResult } from "./types.ts";
 
 /** The installed package version (keys the cache; read from its package.json, no engine start). */
 export function eecircuitVersion(): string {

@@ -5,10 +5,10 @@
  */
 import { eecircuitVersion, startEecircuit } from "./eecircuit.ts";
 import { ngspiceAvailable, ngspiceVersion, startNgspice } from "./ngspice.ts";
-import { SpiceRunError, type EngineName, type SpiceEngine } from "./types.ts";
+import { SpiceRunError } from "../../model/errors.ts";
+import type { EngineName, SpiceEngine } from "./types.ts";
 
 export type { EngineName, SimResult, SpiceEngine } from "./types.ts";
-export { SpiceRunError } from "./types.ts";
 
 /** Resolves the requested engine name: explicit choice, else the environment, else the default. */
 export function chooseEngine(requested?: EngineName): EngineName {

@@ -8,7 +8,8 @@ import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { pickVectors, withSaves } from "./vectors.ts";
 import { readRawFile } from "./raw.ts";
-import { SpiceRunError, type SpiceEngine, type SimResult } from "./types.ts";
+import { SpiceRunError } from "../../model/errors.ts";
+import type { SpiceEngine, SimResult } from "./types.ts";
 
 export const NGSPICE_PATH = process.env["PULSEWRIGHT_NGSPICE"] ?? "/usr/bin/ngspice";
 

@@ -2,7 +2,7 @@
  * Reader for the SPICE raw file format ngspice writes with `-r` (header lines, then "Binary:" and
  * little-endian float64 rows, one value per variable per point; real data only).
  */
-import { SpiceRunError } from "./types.ts";
+import { SpiceRunError } from "../../model/errors.ts";
 
 export function readRawFile(buf: Buffer): Map<string, Float64Array> {
   const marker = buf.indexOf("Binary:\n");

@@ -18,11 +18,3 @@ export interface SpiceEngine {
   /** Releases the engine: lets (embedded) or stops (native) runs in flight, then refuses new runs. */
   close(): Promise<void>;
 }
-
-/** A simulation that did not produce usable results: engine error, non-convergence, missing vectors. */
-export class SpiceRunError extends Error {
-  constructor(message: string, options?: { cause?: unknown }) {
-    super(message, options);
-    this.name = "SpiceRunError";
-  }
-}

@@ -2,7 +2,7 @@
  * Turns a published netlist into what an engine runs: vectors to keep (`.save`) go in just before
  * `.end`. The published netlist itself is never changed; these copies exist only in memory.
  */
-import { SpiceRunError } from "./types.ts";
+import { SpiceRunError } from "../../model/errors.ts";
 
 /** Lines that must not be duplicated or that would make the engine write more than we ask for. */
 const SAVE_LINE = /^\s*\.save\b.*$/gim;

@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { chooseDevices } from "../../../src/engine/devices/choose.ts";
 import { DEVICE_ROLES, type DesignRecord } from "../../../src/model/design.ts";
-import { EngineMisuseError } from "../../../src/model/problem.ts";
+import { EngineMisuseError } from "../../../src/model/errors.ts";
 import { readLibrary } from "./read-library.ts";
 
 const lib = readLibrary();

@@ -32,10 +32,10 @@ describe("T_J limit: the lower of 125 °C and T_J,max − 40 °C (NASA EEE-INST-
   });
 
   it("checkTj fails above the limit, is marginal above 90 % of it, passes below", () => {
-    expect(checkTj("Q1", 111, 150, policy, "bjt").verdict).toBe("fail");
-    expect(checkTj("Q1", 105, 150, policy, "bjt").verdict).toBe("marginal"); // > 0.9 × 110 = 99
-    expect(checkTj("Q1", 90, 150, policy, "bjt").verdict).toBe("pass");
-    expect(checkTj("Q1", 110, 150, policy, "bjt").verdict).toBe("marginal"); // exactly at the limit is allowed
+    expect(checkTj("Q_POWER", 111, 150, policy, "bjt").verdict).toBe("fail");
+    expect(checkTj("Q_POWER", 105, 150, policy, "bjt").verdict).toBe("marginal"); // > 0.9 × 110 = 99
+    expect(checkTj("Q_POWER", 90, 150, policy, "bjt").verdict).toBe("pass");
+    expect(checkTj("Q_POWER", 110, 150, policy, "bjt").verdict).toBe("marginal"); // exactly at the limit is allowed
   });
 });
 
@@ -43,19 +43,19 @@ describe("checkStress verdicts against the policy", () => {
   const rule = policy.bjt.voltage; // 0.75, marginal above 0.675
 
   it("a 40 V V_CEO part at 26.4 V (24 V + 10 %) passes: ratio 0.66 ≤ 0.675", () => {
-    const c = checkStress("Q3", "voltage", 26.4, 40, "V", rule, policy.marginal_above);
-    expect(c).toMatchObject({ ref: "Q3", quantity: "voltage", rating: 40, unit: "V", allowed: 0.75, verdict: "pass", source: rule.source });
+    const c = checkStress("Q_POWER", "voltage", 26.4, 40, "V", rule, policy.marginal_above);
+    expect(c).toMatchObject({ ref: "Q_POWER", quantity: "voltage", rating: 40, unit: "V", allowed: 0.75, verdict: "pass", source: rule.source });
     expect(c.ratio).toBeCloseTo(0.66, 12);
   });
 
   it("28 V on 40 V is marginal (0.70 > 0.675); 31 V fails (0.775 > 0.75); exactly 30 V is marginal, not fail", () => {
-    expect(checkStress("Q3", "voltage", 28, 40, "V", rule, 0.9).verdict).toBe("marginal");
-    expect(checkStress("Q3", "voltage", 31, 40, "V", rule, 0.9).verdict).toBe("fail");
-    expect(checkStress("Q3", "voltage", 30, 40, "V", rule, 0.9).verdict).toBe("marginal");
+    expect(checkStress("Q_POWER", "voltage", 28, 40, "V", rule, 0.9).verdict).toBe("marginal");
+    expect(checkStress("Q_POWER", "voltage", 31, 40, "V", rule, 0.9).verdict).toBe("fail");
+    expect(checkStress("Q_POWER", "voltage", 30, 40, "V", rule, 0.9).verdict).toBe("marginal");
   });
 
   it("takes stress by magnitude (a reverse voltage may arrive negative)", () => {
-    expect(checkStress("D1", "voltage", -20, 100, "V", policy.diode.voltage, 0.9)).toMatchObject({ stress: 20, ratio: 0.2, verdict: "pass" });
+    expect(checkStress("D_REVERSE", "voltage", -20, 100, "V", policy.diode.voltage, 0.9)).toMatchObject({ stress: 20, ratio: 0.2, verdict: "pass" });
   });
 
   it("verdictOf is monotonic in the ratio", () => {
@@ -69,7 +69,7 @@ describe("checkStress verdicts against the policy", () => {
   });
 
   it("rejects a zero rating and non-finite stress (engine misuse)", () => {
-    expect(() => checkStress("R1", "power", 0.1, 0, "W", policy.resistor.power, 0.9)).toThrow(/rating/);
-    expect(() => checkStress("R1", "power", Number.NaN, 0.25, "W", policy.resistor.power, 0.9)).toThrow(/stress/);
+    expect(() => checkStress("RT", "power", 0.1, 0, "W", policy.resistor.power, 0.9)).toThrow(/rating/);
+    expect(() => checkStress("RT", "power", Number.NaN, 0.25, "W", policy.resistor.power, 0.9)).toThrow(/stress/);
   });
 });

@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { figure, problem } from "../../../src/engine/shared/figures.ts";
 import { cite } from "../../../src/engine/shared/sources.ts";
-import { EngineMisuseError } from "../../../src/model/problem.ts";
+import { EngineMisuseError } from "../../../src/model/errors.ts";
 
 describe("figure(): numbers with provenance", () => {
   it("carries formula, source and confidence, and orders the range [low, high]", () => {

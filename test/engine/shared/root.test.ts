@@ -1,7 +1,7 @@
 /** The one root finder (Brent's method; src/engine/shared/root.ts) on roots known in closed form. */
 import { describe, expect, it } from "vitest";
 import { findRoot, RootFinderError } from "../../../src/engine/shared/root.ts";
-import { EngineMisuseError } from "../../../src/model/problem.ts";
+import { EngineMisuseError } from "../../../src/model/errors.ts";
 import { expectClose } from "../../helpers/close.ts";
 
 describe("findRoot on known roots", () => {

@@ -4,7 +4,7 @@
  * chargers set 14.4–14.7 V); LiFePO4 2.5 … 3.65 V/cell (4 cells: 10.0–14.6 V). 24 V systems double.
  */
 import { describe, expect, it } from "vitest";
-import { EngineMisuseError } from "../../../src/model/problem.ts";
+import { EngineMisuseError } from "../../../src/model/errors.ts";
 import { batterySystem, supplyWindow, windowContains } from "../../../src/engine/shared/supply.ts";
 
 describe("supply windows", () => {

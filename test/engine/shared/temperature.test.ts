@@ -5,7 +5,7 @@
  */
 import { describe, expect, it } from "vitest";
 import { NOMINAL_TEMP_C, thermalVoltage_V, VT_NOMINAL_V } from "../../../src/engine/shared/temperature.ts";
-import { EngineMisuseError } from "../../../src/model/problem.ts";
+import { EngineMisuseError } from "../../../src/model/errors.ts";
 import { expectClose } from "../../helpers/close.ts";
 
 describe("thermal voltage V_T = k·T/q (CODATA 2018 k and q)", () => {

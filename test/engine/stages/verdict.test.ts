@@ -14,7 +14,7 @@ import { decideVerdict } from "../../../src/engine/stages/verdict.ts";
 import { checkProblems } from "../../../src/engine/stages/feasibility.ts";
 
 const QUANTITIES = ["power", "voltage", "current", "tj", "vgs", "peak", "soa", "i2t"] as const;
-const refs = fc.constantFrom("Q1", "Q2", "D1", "F1", "R3");
+const refs = fc.constantFrom("Q_A", "Q_B", "D_REVERSE", "F_SUPPLY", "RC_A");
 const check: fc.Arbitrary<StressCheck> = fc.record({
   ref: refs, quantity: fc.constantFrom(...QUANTITIES), ratio: fc.double({ min: 0, max: 2, noNaN: true }), factor: fc.double({ min: 0.3, max: 1, noNaN: true }),
 }).map(({ ref, quantity, ratio, factor }) => checkStress(ref, quantity, ratio * 10, 10, "x", { factor, source: "demo", note: "test rule", confidence: "demo" }, 0.9));
@@ -58,7 +58,11 @@ describe("verdict rule (properties)", () => {
     // D1 carries a warning from its stage; its surge check fails: the variant must not be feasible,
     // and the failing check appears on the problem list as well.
     const warn: DesignProblem = { stage: "supply", path: "/parts/D1", rule: "something-else", severity: "warning", params: {}, message: "D1: a warning" };
-    const fail = checkStress("D1", "i2t", 60, 3.75, "A²s", { factor: 1, source: "common-practice", note: "surge I²t above the fuse's clearing I²t", confidence: "common-practice" }, 0.9);
+    // Checks are made per role and reach the verdict numbered (sizeVariant): D_REVERSE → D1.
+    const fail = {
+      ...checkStress("D_REVERSE", "i2t", 60, 3.75, "A²s", { factor: 1, source: "common-practice", note: "surge I²t above the fuse's clearing I²t", confidence: "common-practice" }, 0.9),
+      ref: "D1",
+    };
     expect(fail.verdict).toBe("fail");
     const extra = checkProblems([fail], [warn]);
     expect(extra).toHaveLength(1);

@@ -4,6 +4,7 @@
 import type { BjtClass, MosfetClass } from "../../../model/device.ts";
 import type { DeratingRule, StressCheck } from "../../../model/derating.ts";
 import type { Figure } from "../../../model/figure.ts";
+import type { PartRole } from "../../../model/part-roles.ts";
 import { checkStress } from "../../shared/derating.ts";
 import { figure } from "../../shared/figures.ts";
 import { cite } from "../../shared/sources.ts";
@@ -39,7 +40,7 @@ export function peakCurrent_A(ctx: Ctx): number {
 }
 
 /** Voltage and current checks of the load switch: continuous (policy) and peak (absolute pulse rating). */
-export function switchChecks(ctx: Ctx, role: string, dev: BjtClass | MosfetClass): StressCheck[] {
+export function switchChecks(ctx: Ctx, role: PartRole, dev: BjtClass | MosfetClass): StressCheck[] {
   const pol = ctx.spec.policy;
   const fam = dev.family === "nmos" ? pol.mosfet : pol.bjt;
   const vRating = dev.family === "nmos" ? dev.vds_V : dev.vceo_V;

@@ -6,6 +6,7 @@
  */
 import type { BjtClass } from "../../../model/device.ts";
 import type { Part } from "../../../model/circuit.ts";
+import type { PartRole } from "../../../model/part-roles.ts";
 import { nearest } from "../../shared/e-series.ts";
 import { figure } from "../../shared/figures.ts";
 import { hfeMin, vbeOn, vbeSat, vceSat } from "../../shared/gain.ts";
@@ -18,6 +19,9 @@ import type { ChainPlan, DeviceLoss } from "./types.ts";
 import { vceSatNominal_V } from "./sat-nominal.ts";
 import { vbeActiveNominal_V } from "./vbe-nominal.ts";
 import { NOMINAL_TEMP_C } from "../../shared/temperature.ts";
+
+/** The stack's transistors from input to output (docs/topologies.md). */
+const STACK_ROLES = ["Q_D1", "Q_D2", "Q_D3"] as const satisfies readonly PartRole[];
 
 interface StackCurrents {
   ic: number[];
@@ -84,12 +88,12 @@ export function planDarlington(ctx: Ctx, n: 2 | 3): ChainPlan {
   const lastBase = n === 2 ? "d2b" : "d3b";
   const nets = n === 2 ? [["d1b", "d2b"], ["d2b", "0"]] : [["d1b", "d2b"], ["d2b", "d3b"], ["d3b", "0"]];
   const parts: Part[] = devs.map((d, k) =>
-    transistor("chain", `Q_D${k + 1}`, d, worst.beta[k], { c: "sw", b: nets[k]![0]!, e: nets[k]![1]! }, { voltage_V: switchOffVoltage_V(ctx), current_A: worst.ic[k]! }));
+    transistor("chain", STACK_ROLES[k]!, d, worst.beta[k], { c: "sw", b: nets[k]![0]!, e: nets[k]![1]! }, { voltage_V: switchOffVoltage_V(ctx), current_A: worst.ic[k]! }));
   const rbe = resistor("chain", "RBE", rBE, { a: lastBase, b: "0" }, resistorPower_W(vbeCold(last, ctx), rBE * (1 - ctx.rTol), 1), pol, "bleed on the last base");
-  const checks = [...switchChecks(ctx, `Q_D${n}`, last), ...rbe.checks];
+  const checks = [...switchChecks(ctx, STACK_ROLES[n - 1]!, last), ...rbe.checks];
   // Inner stages: voltage and current against their own ratings.
   for (let k = 0; k < n - 1; k++) {
-    const r = switchChecks({ ...ctx, iMax_A: worst.ic[k]!, load: { ...ctx.load, peak_A: worst.ic[k]! * ctx.vNom_V / ctx.vMax_V } }, `Q_D${k + 1}`, devs[k]!);
+    const r = switchChecks({ ...ctx, iMax_A: worst.ic[k]!, load: { ...ctx.load, peak_A: worst.ic[k]! * ctx.vNom_V / ctx.vMax_V } }, STACK_ROLES[k]!, devs[k]!);
     checks.push(r[0]!, r[1]!);
   }
   // Output stage turn-off: no saturation charge, but its forward base charge I_C·τ_F (τ_F = 1/(2π f_T))
@@ -122,7 +126,7 @@ export function planDarlington(ctx: Ctx, n: 2 | 3): ChainPlan {
         const vce = vSwMax - vBelow;
         const pc = conductionLossBjt_W(worst.ic[k]!, Math.max(vce, 0), op.dutyMax);
         const sw = k === n - 1 ? pSw : 0;
-        losses.unshift({ role: `Q_D${k + 1}`, dev: devs[k]!, family: "bjt", pCond_W: pc, pSw_W: sw, p_W: pc + sw, isPower: k === n - 1 });
+        losses.unshift({ role: STACK_ROLES[k]!, dev: devs[k]!, family: "bjt", pCond_W: pc, pSw_W: sw, p_W: pc + sw, isPower: k === n - 1 });
         vBelow += vbeSat(devs[k]!, Math.max(worst.ic[k]!, 1e-6));
       }
       const stackP = losses.reduce((s, l) => s + l.p_W, 0);

@@ -19,7 +19,7 @@
  * (E = ½·V·I·t clamped inductive, Mohan Eq. 2-6; E = ⅙·V·I·t resistive, Rashid Ex. 4.2), so the
  * caller's switchingLoss_W applies unchanged (as gate-release.ts does for mosfet-driver).
  */
-import { EngineMisuseError } from "../../../model/problem.ts";
+import { EngineMisuseError } from "../../../model/errors.ts";
 import type { SwitchingKind } from "../../shared/losses.ts";
 
 export interface RecoveringGateDrive {

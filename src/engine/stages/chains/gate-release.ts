@@ -17,7 +17,7 @@
  * loss of mosfet-driver"): with a TO-220 driver (t_s 1.5 µs) a 1 A valve coil's turn-on overlap
  * lasts ≈ 4.4 µs equivalent, where Q_G·R/ΔV alone gives ≈ 0.7 µs.
  */
-import { EngineMisuseError } from "../../../model/problem.ts";
+import { EngineMisuseError } from "../../../model/errors.ts";
 import type { SwitchingKind } from "../../shared/losses.ts";
 import { findRoot } from "../../shared/root.ts";
 

@@ -5,6 +5,7 @@
  *   voltage, t ≈ Q_G · R / ΔV (common practice); never faster than the class's datasheet times.
  */
 import type { MosfetClass } from "../../../model/device.ts";
+import { EngineMisuseError } from "../../../model/errors.ts";
 import { plateau_V, plateauCharge_C, plateauTyp_V, vthTyp_V } from "../../shared/gate-charge.ts";
 import { rdsOnNominal_ohm } from "../../shared/rdson.ts";
 

@@ -5,10 +5,11 @@
  * need; finally the chain computes its delays and losses at the operating point the core reaches.
  */
 import type { BjtClass, MosfetClass } from "../../../model/device.ts";
+import type { PartRole } from "../../../model/part-roles.ts";
 import type { ChainInputNeed, StageResult } from "../../contracts.ts";
 
 export interface DeviceLoss {
-  role: string;
+  role: PartRole;
   dev: BjtClass | MosfetClass;
   family: "bjt" | "mosfet";
   pCond_W: number;

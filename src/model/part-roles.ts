@@ -1,0 +1,75 @@
+/**
+ * Part roles: the closed vocabulary every variant's parts are named by inside their stage
+ * (docs/topologies.md). The chain planners and stage builders produce parts with these roles, the
+ * circuit assembler numbers reference designators in this order, the schematic places parts by
+ * role, and the verifier finds the load and the power devices by role. One list per stage, in
+ * numbering order; the union type is read from the lists, so a role used anywhere but listed here
+ * fails the type check, and a role listed here but missing from docs/topologies.md fails a test.
+ */
+import { REF_PREFIX, STAGE_KINDS, type PartKind, type StageKind } from "./kinds.ts";
+
+/** Roles per stage, in reference-designator numbering order (docs/topologies.md, "Role vocabulary"). */
+export const STAGE_ROLES = {
+  supply: ["F_SUPPLY", "D_REVERSE", "C_BULK"],
+  timing: ["Q_A", "Q_B", "RC_A", "RC_B", "CT_A", "CT_B", "DB_A", "DB_B", "RBAL", "DBAL"],
+  duty: ["RV_DUTY", "RB_A", "RB_B"],
+  chain: ["RT", "Q_D1", "Q_D2", "Q_D3", "Q_DRV", "RB_P", "RPU", "RP", "RZ", "DZ", "Q_HI", "Q_LO", "RG", "RGS", "RBE", "Q_POWER"],
+  load: ["LOAD"],
+  protection: ["D_FREEWHEEL"],
+} as const satisfies Record<StageKind, readonly string[]>;
+
+/** The roles a part of stage `S` may take. */
+export type RoleIn<S extends StageKind> = (typeof STAGE_ROLES)[S][number];
+
+/** Every part role. */
+export type PartRole = RoleIn<StageKind>;
+
+/** All roles, stage by stage, in numbering order. */
+export const PART_ROLES: readonly PartRole[] = STAGE_KINDS.flatMap((s): readonly PartRole[] => STAGE_ROLES[s]);
+
+/** The timing core's two mirror-image sides. */
+export type CoreSide = "A" | "B";
+
+/** Role bases that come once per side of the timing core and duty control (`RC_A`, `RC_B`, ...). */
+export type SidedRoleBase = "Q" | "RC" | "CT" | "DB" | "RB";
+
+/** A per-side role for a side letter; the constraint proves every combination is a listed role. */
+export type SidedRole<B extends SidedRoleBase = SidedRoleBase, S extends CoreSide = CoreSide> = `${B}_${S}` & PartRole;
+type Sided = `${SidedRoleBase}_${CoreSide}`;
+// Compile-time check: every base × side combination is in the vocabulary (fails tsc otherwise).
+const sidedAreRoles: Sided extends PartRole ? true : never = true;
+void sidedAreRoles;
+
+/** The per-side role of a base on a side: sidedRole("RC", "B") → "RC_B". */
+export function sidedRole<B extends SidedRoleBase, S extends CoreSide>(base: B, side: S): `${B}_${S}` {
+  return `${base}_${side}`;
+}
+
+/** The power devices whose dissipation the verifier measures (the switch and a Darlington's stack). */
+export const POWER_ROLES = ["Q_POWER", "Q_D1", "Q_D2", "Q_D3"] as const satisfies readonly PartRole[];
+
+const ROLE_SET: ReadonlySet<string> = new Set(PART_ROLES);
+
+/** Narrows a string read from outside the type system (a JSON pointer, a test fixture) to a role. */
+export function isPartRole(s: string): s is PartRole {
+  return ROLE_SET.has(s);
+}
+
+const STAGE_OF: ReadonlyMap<PartRole, StageKind> = new Map(
+  STAGE_KINDS.flatMap((s) => STAGE_ROLES[s].map((r): [PartRole, StageKind] => [r, s])),
+);
+
+/** The stage a role belongs to (each role belongs to exactly one stage; a test checks it). */
+export function stageOfRole(role: PartRole): StageKind {
+  return STAGE_OF.get(role)!;
+}
+
+/** A reference designator the circuit assembler gives a part: its letter code and a number ("Q3", "RV1"). */
+export type RefDesignator = `${(typeof REF_PREFIX)[PartKind]}${number}`;
+
+const REF_RE = new RegExp(`^(${[...new Set(Object.values(REF_PREFIX))].join("|")})[1-9][0-9]*$`);
+
+/** Narrows a string to a reference designator of the circuit model. */
+export function isRefDesignator(s: string): s is RefDesignator {
+  return REF_RE.test(s);
+}

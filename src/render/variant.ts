@@ -1,0 +1,41 @@
+/**
+ * The render step of one sized variant: its circuit model → SPICE netlist, schematic SVG and parts
+ * list CSV. One pure function, called by the build pipeline (src/cli/pipeline.ts) and by the
+ * browser's "size your own" (src/site/size-own.ts), so a variant sized in the page is drawn,
+ * listed and simulated from exactly the files the build would publish for it.
+ */
+import type { DeviceLibrary } from "../model/device.ts";
+import type { SizedVariant } from "../model/sized.ts";
+import { findFigure } from "../model/sized.ts";
+import { renderBom } from "./bom.ts";
+import { renderNetlist } from "./netlist.ts";
+import { renderSchematic } from "./schematic.ts";
+
+/** The three views of a variant's circuit; empty strings when it has no circuit (not sized). */
+export interface VariantViews {
+  netlist: string;
+  schematicSvg: string;
+  bomCsv: string;
+}
+
+export interface VariantViewOptions {
+  /** Appended to the title in the netlist header and the schematic, e.g. "sized on request". */
+  titleNote?: string;
+  /** false: skip the schematic (tests that only need the netlist; the drawing is the slow part). */
+  schematic?: boolean;
+}
+
+export function renderVariantViews(sized: SizedVariant, devices: DeviceLibrary, opts: VariantViewOptions = {}): VariantViews {
+  const c = sized.circuit;
+  if (!c) return { netlist: "", schematicSvg: "", bomCsv: "" };
+  const { spec } = sized;
+  const title = `${spec.designTitle}, ${spec.id}${opts.titleNote ? ` (${opts.titleNote})` : ""}`;
+  const meta = { id: spec.id, title };
+  // The netlist's transient is set from the predicted frequency; the target stands in without one.
+  const f_Hz = findFigure(sized, "frequency_nominal")?.value ?? spec.targets.pwm_Hz;
+  return {
+    netlist: renderNetlist(c, { ...meta, supply_V: spec.supply_V, frequency_Hz: f_Hz, devices }),
+    schematicSvg: opts.schematic === false ? "" : renderSchematic(c, meta),
+    bomCsv: renderBom(c),
+  };
+}
