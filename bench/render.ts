@@ -19,7 +19,10 @@ const median = (xs: number[]): number => {
   return s.length % 2 ? s[m]! : (s[m - 1]! + s[m]!) / 2;
 };
 
-export function benchRender(circuits: BenchCircuit[], repeats = 5): { schematicMedian_ms: number; netlistBytesMedian: number } {
+export function benchRender(
+  circuits: BenchCircuit[],
+  repeats = 5,
+): { schematicMedian_ms: number; netlistBytesMedian: number } {
   if (circuits.length === 0) throw new RangeError("benchRender: no circuits");
   for (const c of circuits) renderSchematic(c.circuit, c.meta); // warm-up (svgdom, JIT)
   const times: number[] = [];

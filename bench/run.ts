@@ -42,11 +42,19 @@ async function benchEngine(): Promise<void> {
       const sized = sizeVariant(s);
       times.push(performance.now() - t0);
       if (rep === 0 && sized.circuit)
-        circuits.push({ circuit: sized.circuit, meta: { id: s.id, title: s.designTitle, supply_V: s.supply_V, frequency_Hz: s.targets.pwm_Hz }, devices: project.devices });
+        circuits.push({
+          circuit: sized.circuit,
+          meta: { id: s.id, title: s.designTitle, supply_V: s.supply_V, frequency_Hz: s.targets.pwm_Hz },
+          devices: project.devices,
+        });
     }
-  console.log(`sizing:     ${specs.length} variants, median ${median(times).toFixed(3)} ms per variant incl. worst case (target ≤ 1 ms)`);
+  console.log(
+    `sizing:     ${specs.length} variants, median ${median(times).toFixed(3)} ms per variant incl. worst case (target ≤ 1 ms)`,
+  );
   const r = benchRender(circuits, 3);
-  console.log(`schematic:  median ${r.schematicMedian_ms.toFixed(2)} ms per variant (target ≤ 10 ms); netlist median ${r.netlistBytesMedian} bytes`);
+  console.log(
+    `schematic:  median ${r.schematicMedian_ms.toFixed(2)} ms per variant (target ≤ 10 ms); netlist median ${r.netlistBytesMedian} bytes`,
+  );
 }
 
 interface Run {
@@ -78,7 +86,9 @@ function benchBuilds(): void {
     cpSync(path.join(ROOT, "designs"), path.join(root, "designs"), { recursive: true });
     cpSync(path.join(ROOT, "package.json"), path.join(root, "package.json"));
     const cold = build(root);
-    console.log(`cold build: ${cold.seconds.toFixed(1)} s, peak memory ${cold.peakRss_MB} MB (targets ≤ 90 s, ≤ 1.5 GB)\n            ${cold.summary}`);
+    console.log(
+      `cold build: ${cold.seconds.toFixed(1)} s, peak memory ${cold.peakRss_MB} MB (targets ≤ 90 s, ≤ 1.5 GB)\n            ${cold.summary}`,
+    );
     const warm = build(root);
     console.log(`warm build: ${warm.seconds.toFixed(1)} s, peak memory ${warm.peakRss_MB} MB (target ≤ 5 s)`);
     // Edit one record: a different PWM frequency changes every one of its variants' netlists.
@@ -87,7 +97,9 @@ function benchBuilds(): void {
     rec.targets.pwm_Hz = Math.round(rec.targets.pwm_Hz * 1.1);
     writeFileSync(file, JSON.stringify(rec, null, 2) + "\n");
     const edit = build(root);
-    console.log(`one record edited: ${edit.seconds.toFixed(1)} s, peak memory ${edit.peakRss_MB} MB\n            ${edit.summary}`);
+    console.log(
+      `one record edited: ${edit.seconds.toFixed(1)} s, peak memory ${edit.peakRss_MB} MB\n            ${edit.summary}`,
+    );
     const simulated = cold.summary.match(/(\d+) agree, (\d+) disagree, (\d+) failed/);
     if (simulated) {
       const n = Number(simulated[1]) + Number(simulated[2]) + Number(simulated[3]);

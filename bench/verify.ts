@@ -25,17 +25,44 @@ const SIMS_PER_JOB = 3;
 function benchJobs(n: number): VerifyJob[] {
   const base = new URL("../test/fixtures/netlists/", import.meta.url);
   const kinds = [
-    { file: "pwm-mosfet-motor-12v.cir", chain: "mosfet-logic", input: "g", parts: [["Q3", "Q_POWER", "nmos"], ["M1", "LOAD", "motor"]] },
-    { file: "pwm-darlington-12v.cir", chain: "darlington-2", input: "d1b", parts: [["Q3", "Q_D1", "npn"], ["Q4", "Q_D2", "npn"], ["E1", "LOAD", "heater"]] },
+    {
+      file: "pwm-mosfet-motor-12v.cir",
+      chain: "mosfet-logic",
+      input: "g",
+      parts: [
+        ["Q3", "Q_POWER", "nmos"],
+        ["M1", "LOAD", "motor"],
+      ],
+    },
+    {
+      file: "pwm-darlington-12v.cir",
+      chain: "darlington-2",
+      input: "d1b",
+      parts: [
+        ["Q3", "Q_D1", "npn"],
+        ["Q4", "Q_D2", "npn"],
+        ["E1", "LOAD", "heater"],
+      ],
+    },
   ] as const;
   return Array.from({ length: n }, (_, k) => {
     const c = kinds[k % kinds.length]!;
-    const parts = c.parts.map(([ref, role, kind]) => ({ ref, role, kind, spice: kind === "motor" ? { l_H: 2e-3 } : {} }) as unknown as Part);
+    const parts = c.parts.map(
+      ([ref, role, kind]) => ({ ref, role, kind, spice: kind === "motor" ? { l_H: 2e-3 } : {} }) as unknown as Part,
+    );
     const sized = {
       spec: { id: `bench-${k}`, chain: c.chain },
       feasible: true,
       figures: [{ key: "frequency_nominal", label: "f", value: 1300, unit: "Hz" }],
-      circuit: { parts, instruments: [], nets: [], tapNet: "cb", chainInputNet: c.input, switchNet: "sw", ctrlPart: "RV1" },
+      circuit: {
+        parts,
+        instruments: [],
+        nets: [],
+        tapNet: "cb",
+        chainInputNet: c.input,
+        switchNet: "sw",
+        ctrlPart: "RV1",
+      },
     } as unknown as SizedVariant;
     // A distinct comment per job: distinct cache keys, identical circuits.
     return { id: sized.spec.id, sized, netlist: `* bench copy ${k}\n${readFileSync(new URL(c.file, base), "utf8")}` };
@@ -57,7 +84,9 @@ export async function benchVerify(jobCount = 6, log: (s: string) => void = conso
     const tWarm = performance.now();
     await engine.close();
     if (!first.ok) log(`  (first job failed: ${first.message})`);
-    log(`${name}: start ${(tStart - t0).toFixed(0)} ms; cold ${(SIMS_PER_JOB / ((tFirst - t0) / 1000)).toFixed(2)} sim/s; warm ${(sims / ((tWarm - tFirst) / 1000)).toFixed(2)} sim/s (${((tWarm - tFirst) / sims).toFixed(0)} ms per sim)`);
+    log(
+      `${name}: start ${(tStart - t0).toFixed(0)} ms; cold ${(SIMS_PER_JOB / ((tFirst - t0) / 1000)).toFixed(2)} sim/s; warm ${(sims / ((tWarm - tFirst) / 1000)).toFixed(2)} sim/s (${((tWarm - tFirst) / sims).toFixed(0)} ms per sim)`,
+    );
     for (const workers of [1, 2]) {
       const dir = mkdtempSync(join(tmpdir(), "pw-bench-"));
       const w0 = performance.now();
@@ -65,7 +94,9 @@ export async function benchVerify(jobCount = 6, log: (s: string) => void = conso
       const w1 = performance.now();
       await verifyAll(jobs, { engine: name, workers, cacheDir: dir });
       const w2 = performance.now();
-      log(`  pool ${workers} worker(s): ${(sims / ((w1 - w0) / 1000)).toFixed(2)} sim/s incl. worker start (${((w1 - w0) / 1000).toFixed(1)} s for ${sims} sims); all-cached rerun ${(w2 - w1).toFixed(0)} ms`);
+      log(
+        `  pool ${workers} worker(s): ${(sims / ((w1 - w0) / 1000)).toFixed(2)} sim/s incl. worker start (${((w1 - w0) / 1000).toFixed(1)} s for ${sims} sims); all-cached rerun ${(w2 - w1).toFixed(0)} ms`,
+      );
     }
   }
   log(`peak RSS (main thread + workers share the process): ${(process.resourceUsage().maxRSS / 1024).toFixed(0)} MB`);
@@ -81,20 +112,29 @@ export async function benchCatalogue(workerCounts: number[], log: (s: string) =>
     .flatMap((d) => d.sized.map((v) => renderVariant(v, project.devices)))
     .filter((r) => r.sized.feasible && r.netlist)
     .map((r) => ({ id: r.sized.spec.id, sized: r.sized, netlist: r.netlist }));
-  log(`catalogue: ${jobs.length} feasible variants; load average ${loadavg().map((x) => x.toFixed(2)).join(" ")}`);
+  log(
+    `catalogue: ${jobs.length} feasible variants; load average ${loadavg()
+      .map((x) => x.toFixed(2))
+      .join(" ")}`,
+  );
   for (const workers of workerCounts) {
     const t0 = performance.now();
     const res = await verifyAll(jobs, { workers, cacheDir: mkdtempSync(join(tmpdir(), "pw-bench-cat-")) });
     const s = (performance.now() - t0) / 1000;
     const count: Record<string, number> = {};
     for (const v of res.values()) count[v.status] = (count[v.status] ?? 0) + 1;
-    log(`  ${workers} worker(s): ${s.toFixed(1)} s, ${(jobs.length / s).toFixed(2)} variants/s, ${((1000 * s) / Math.max(1, jobs.length)).toFixed(0)} ms per variant, ${((SIMS_PER_JOB * jobs.length) / s).toFixed(1)} sims/s; ${JSON.stringify(count)}`);
+    log(
+      `  ${workers} worker(s): ${s.toFixed(1)} s, ${(jobs.length / s).toFixed(2)} variants/s, ${((1000 * s) / Math.max(1, jobs.length)).toFixed(0)} ms per variant, ${((SIMS_PER_JOB * jobs.length) / s).toFixed(1)} sims/s; ${JSON.stringify(count)}`,
+    );
   }
 }
 
 if (import.meta.url === pathToFileURL(process.argv[1] ?? "").href) {
   if (process.argv[2] === "--catalogue") {
-    const counts = process.argv.slice(3).map(Number).filter((n) => n >= 0);
+    const counts = process.argv
+      .slice(3)
+      .map(Number)
+      .filter((n) => n >= 0);
     await benchCatalogue(counts.length > 0 ? counts : [1, 2]);
   } else {
     await benchVerify(Number(process.argv[2] ?? 6));

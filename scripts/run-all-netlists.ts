@@ -32,12 +32,15 @@ for (const f of netlists) {
     if (r.t_s.length < 10) throw new Error(`only ${r.t_s.length} time points`);
     // An aborted transient ("timestep too small") still returns the points it reached: check the end.
     const end = r.t_s[r.t_s.length - 1] ?? 0;
-    if (Number.isFinite(stop_s) && end < 0.999 * Number(stop_s.toExponential(4))) throw new Error(`transient stopped at ${end.toExponential(3)} s of ${stop_s.toExponential(3)} s`);
+    if (Number.isFinite(stop_s) && end < 0.999 * Number(stop_s.toExponential(4)))
+      throw new Error(`transient stopped at ${end.toExponential(3)} s of ${stop_s.toExponential(3)} s`);
   } catch (err) {
     failed++;
     process.stderr.write(`${path.basename(f)}: ${(err as Error).message}\n`);
   }
 }
 await engine.close();
-process.stdout.write(`netlists: ${netlists.length} run in the embedded engine, ${failed} failed (${((performance.now() - t0) / 1000).toFixed(1)} s)\n`);
+process.stdout.write(
+  `netlists: ${netlists.length} run in the embedded engine, ${failed} failed (${((performance.now() - t0) / 1000).toFixed(1)} s)\n`,
+);
 process.exitCode = failed === 0 ? 0 : 1;

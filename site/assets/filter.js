@@ -50,8 +50,14 @@
       var words = input ? input.value.toLowerCase().split(/\s+/).filter(Boolean) : [];
       rows.forEach(function (row) {
         var text = row.textContent.toLowerCase();
-        var ok = words.every(function (w) { return text.indexOf(w) !== -1; });
-        ok = ok && selects.every(function (s) { return !s.el.value || cellText(row, s.index) === s.el.value; });
+        var ok = words.every(function (w) {
+          return text.indexOf(w) !== -1;
+        });
+        ok =
+          ok &&
+          selects.every(function (s) {
+            return !s.el.value || cellText(row, s.index) === s.el.value;
+          });
         row.hidden = !ok;
       });
     }

@@ -38,7 +38,10 @@ function start(): void {
     list.className = "picks";
     for (const { entry, reason } of answer.picks) {
       const li = el("li");
-      const a = el("a", `${entry.designTitle}: ${chainLabel(entry.chain)}, ${formatValue(entry.supply_V, "V")}, ${formatValue(entry.load_A, "A")}, ${loadLabel(entry.load_kind)}`);
+      const a = el(
+        "a",
+        `${entry.designTitle}: ${chainLabel(entry.chain)}, ${formatValue(entry.supply_V, "V")}, ${formatValue(entry.load_A, "A")}, ${loadLabel(entry.load_kind)}`,
+      );
       a.href = root + entry.url;
       li.append(a, el("br"), el("span", reason));
       list.append(li);

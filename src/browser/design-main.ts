@@ -65,7 +65,13 @@ function sizeYourOwn(): void {
   form.addEventListener("submit", (ev) => {
     ev.preventDefault();
     out.replaceChildren();
-    const r = sizeOwn(data, { supply_V: Number(val("supply")), load_A: Number(val("current")), pwm_Hz: Number(val("pwm")), chain: val("chain"), load_kind: val("load") });
+    const r = sizeOwn(data, {
+      supply_V: Number(val("supply")),
+      load_A: Number(val("current")),
+      pwm_Hz: Number(val("pwm")),
+      chain: val("chain"),
+      load_kind: val("load"),
+    });
     if (!r.ok) {
       const ul = el("ul", undefined, "problems");
       for (const e of r.errors) ul.append(el("li", e));
@@ -93,7 +99,12 @@ function sizeYourOwn(): void {
     }
     const figs = orderedFigureRows(s.figures);
     if (figs.length) {
-      const t = table("Key figures, computed at worst case", ["Quantity", "Value", "Worst-case range"], figs.map((x) => [x.label, x.text, x.range]), [1, 2]);
+      const t = table(
+        "Key figures, computed at worst case",
+        ["Quantity", "Value", "Worst-case range"],
+        figs.map((x) => [x.label, x.text, x.range]),
+        [1, 2],
+      );
       // Raw numbers beside the formatted ones, for readers (and tests) who compare with the build.
       t.querySelectorAll("tbody tr").forEach((tr, i) => {
         const td = tr.children[1] as HTMLElement;
@@ -110,9 +121,24 @@ function sizeYourOwn(): void {
       out.append(fig);
     }
     if (s.circuit) {
-      out.append(table("Parts and values", ["Ref", "Description", "Value", "Series, tolerance", "Rating", "Computed stress"], s.circuit.parts.map(partRow).map((p) => [p.ref, p.description, p.value, p.series, p.rating, p.stress]), [2]));
+      out.append(
+        table(
+          "Parts and values",
+          ["Ref", "Description", "Value", "Series, tolerance", "Rating", "Computed stress"],
+          s.circuit.parts.map(partRow).map((p) => [p.ref, p.description, p.value, p.series, p.rating, p.stress]),
+          [2],
+        ),
+      );
     }
-    if (s.checks.length) out.append(table("Derating checks", ["Ref", "Quantity", "Stress", "Rating", "Verdict"], s.checks.map(checkRow).map((c) => [c.ref, c.quantity, c.stress, c.rating, `${c.symbol} ${c.word}`]), [2, 3]));
+    if (s.checks.length)
+      out.append(
+        table(
+          "Derating checks",
+          ["Ref", "Quantity", "Stress", "Rating", "Verdict"],
+          s.checks.map(checkRow).map((c) => [c.ref, c.quantity, c.stress, c.rating, `${c.symbol} ${c.word}`]),
+          [2, 3],
+        ),
+      );
     if (r.netlist) {
       if (lastUrl) URL.revokeObjectURL(lastUrl);
       lastUrl = URL.createObjectURL(new Blob([r.netlist], { type: "text/plain" }));

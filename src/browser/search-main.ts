@@ -23,7 +23,8 @@ function start(): void {
   form.hidden = false;
   let engine: Promise<Pagefind> | undefined;
   let seq = 0;
-  const load = () => (engine ??= import(/* @vite-ignore */ new URL("pagefind/pagefind.js", siteRoot).href) as Promise<Pagefind>);
+  const load = () =>
+    (engine ??= import(/* @vite-ignore */ new URL("pagefind/pagefind.js", siteRoot).href) as Promise<Pagefind>);
 
   async function run(): Promise<void> {
     const q = input.value.trim();

@@ -14,12 +14,17 @@ function rank(p: Part): [number, number] {
   const r = PART_ROLES.indexOf(p.role);
   // Types keep both inside their vocabularies; a part built with a role of another stage is a bug.
   if (s < 0 || r < 0 || stageOfRole(p.role) !== p.stage) {
-    throw new EngineMisuseError(`assemble: role ${p.role} does not belong to stage ${p.stage} (src/model/part-roles.ts)`);
+    throw new EngineMisuseError(
+      `assemble: role ${p.role} does not belong to stage ${p.stage} (src/model/part-roles.ts)`,
+    );
   }
   return [s, r];
 }
 
-export function assembleCircuit(parts: Part[], opts: { supply_V: number; highSide: boolean; tapNet: string; chainInputNet: string }): CircuitModel {
+export function assembleCircuit(
+  parts: Part[],
+  opts: { supply_V: number; highSide: boolean; tapNet: string; chainInputNet: string },
+): CircuitModel {
   const ranked = parts.map((p) => ({ p, r: rank(p) }));
   const sorted = ranked.sort((a, b) => a.r[0] - b.r[0] || a.r[1] - b.r[1]).map((x) => x.p);
   const seen = new Set<PartRole>();
@@ -38,7 +43,10 @@ export function assembleCircuit(parts: Part[], opts: { supply_V: number; highSid
   ];
   const nets = new Set<string>();
   for (const p of numbered) for (const n of Object.values(p.pins)) nets.add(n);
-  for (const i of instruments) { nets.add(i.p); nets.add(i.n); }
+  for (const i of instruments) {
+    nets.add(i.p);
+    nets.add(i.n);
+  }
   nets.delete("0");
   const pot = numbered.find((p) => p.role === "RV_DUTY");
   return {

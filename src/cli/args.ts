@@ -30,7 +30,9 @@ export function readCommandLine<const O extends Options>(
   } catch (err) {
     const e = err as { code?: string; message?: string };
     if (typeof e.code === "string" && e.code.startsWith("ERR_PARSE_ARGS_")) {
-      throw new UsageError(`${command}: ${(e.message ?? "bad arguments").replace(/\s*\n\s*/g, " ")}`, { showUsage: true });
+      throw new UsageError(`${command}: ${(e.message ?? "bad arguments").replace(/\s*\n\s*/g, " ")}`, {
+        showUsage: true,
+      });
     }
     throw err;
   }

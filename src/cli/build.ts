@@ -47,14 +47,21 @@ export async function runBuild(o: BuildOptions): Promise<number> {
   await sweepLeftovers(outDir);
 
   const sized = sizeProject(project);
-  const rendered = sized.map(({ design, sized: vs }) => ({ design, rendered: vs.map((v) => renderVariant(v, project.devices)) }));
+  const rendered = sized.map(({ design, sized: vs }) => ({
+    design,
+    rendered: vs.map((v) => renderVariant(v, project.devices)),
+  }));
   const tSized = performance.now();
   const all = rendered.flatMap((d) => d.rendered);
-  o.out.log(`sized and rendered ${all.length} variants of ${rendered.length} designs in ${((tSized - t0) / 1000).toFixed(1)} s`);
+  o.out.log(
+    `sized and rendered ${all.length} variants of ${rendered.length} designs in ${((tSized - t0) / 1000).toFixed(1)} s`,
+  );
 
   let verifications: Map<string, Verification> = new Map();
   if (o.simulate) {
-    const jobs = all.filter((r) => r.sized.feasible && r.netlist).map((r) => ({ id: r.sized.spec.id, sized: r.sized, netlist: r.netlist }));
+    const jobs = all
+      .filter((r) => r.sized.feasible && r.netlist)
+      .map((r) => ({ id: r.sized.spec.id, sized: r.sized, netlist: r.netlist }));
     verifications = await verifyAll(jobs, {
       engine: o.spice,
       cacheDir: path.join(o.root, ".cache", "sim"),
@@ -74,7 +81,9 @@ export async function runBuild(o: BuildOptions): Promise<number> {
     const still = await checkOutDir(o.root, o.outDir);
     if (!still.ok || still.dir !== outDir) {
       await discardStaging(staging);
-      o.out.error(still.ok ? `--out ${JSON.stringify(o.outDir)}: now resolves elsewhere; nothing was published` : still.message);
+      o.out.error(
+        still.ok ? `--out ${JSON.stringify(o.outDir)}: now resolves elsewhere; nothing was published` : still.message,
+      );
       return 2;
     }
     await swapIntoPlace(staging, outDir);
@@ -88,8 +97,11 @@ export async function runBuild(o: BuildOptions): Promise<number> {
     for (const d of catalogue.designs)
       for (const v of d.variants)
         if (v.verification && (v.verification.status === "disagree" || v.verification.status === "failed"))
-          o.out.log(`  ${v.verification.status}: ${v.sized.spec.id}${v.verification.message ? ` — ${v.verification.message}` : ""}`);
-    if (process.env["PULSEWRIGHT_REPORT_RSS"]) o.out.log(`peak memory ${Math.round(process.resourceUsage().maxRSS / 1024)} MB`);
+          o.out.log(
+            `  ${v.verification.status}: ${v.sized.spec.id}${v.verification.message ? ` — ${v.verification.message}` : ""}`,
+          );
+    if (process.env["PULSEWRIGHT_REPORT_RSS"])
+      o.out.log(`peak memory ${Math.round(process.resourceUsage().maxRSS / 1024)} MB`);
     if (o.strict && (s.disagree > 0 || s.failed > 0)) {
       o.out.error(`--strict: ${s.disagree} disagreeing and ${s.failed} failed simulations`);
       return 3;
@@ -104,4 +116,3 @@ export async function runBuild(o: BuildOptions): Promise<number> {
     throw err;
   }
 }
-

@@ -54,7 +54,8 @@ export function failureOf(err: unknown): Failure {
   }
   if (isParseArgsError(err)) return { code: EXIT.usage, text: err.message, withUsage: true };
   const stack = err instanceof Error ? (err.stack ?? `${err.name}: ${err.message}`) : String(err);
-  const causes = err instanceof Error && err.cause !== undefined ? `\n${withCauses(err).split("\n").slice(1).join("\n")}` : "";
+  const causes =
+    err instanceof Error && err.cause !== undefined ? `\n${withCauses(err).split("\n").slice(1).join("\n")}` : "";
   return {
     code: EXIT.internal,
     text: `pulsewright: internal error — please report it with the command you ran\n${stack}${causes}`,

@@ -22,7 +22,19 @@ const MARKER_TEXT =
   "keep nothing else in it.\n";
 
 /** Project folders the site may never be written into (inputs, program, caches, version control). */
-const PROTECTED = ["designs", "src", "site", "test", "docs", "bench", "scripts", "bin", "node_modules", ".git", ".cache"];
+const PROTECTED = [
+  "designs",
+  "src",
+  "site",
+  "test",
+  "docs",
+  "bench",
+  "scripts",
+  "bin",
+  "node_modules",
+  ".git",
+  ".cache",
+];
 
 export type OutDirCheck = { ok: true; dir: string } | { ok: false; message: string };
 
@@ -101,7 +113,8 @@ export async function checkOutDir(root: string, out: string): Promise<OutDirChec
 
   if (path.dirname(dir) === dir) return refuse("is the root of the file system", pick);
   if (dir === realRoot) return refuse("is the project folder itself; the build replaces its output folder whole", pick);
-  if (within(realRoot, dir)) return refuse("contains the project folder; the build replaces its output folder whole", pick);
+  if (within(realRoot, dir))
+    return refuse("contains the project folder; the build replaces its output folder whole", pick);
   for (const name of PROTECTED) {
     const p = path.join(realRoot, name);
     if (within(dir, p)) return refuse(`lies inside the project's ${name}/ folder`, pick);

@@ -20,7 +20,9 @@ export interface RenderedVariant extends VariantViews {
 }
 
 /** Size every variant of every design (alternatives attached per design). */
-export function sizeProject(project: LoadedProject): { design: LoadedProject["designs"][number]; sized: SizedVariant[] }[] {
+export function sizeProject(
+  project: LoadedProject,
+): { design: LoadedProject["designs"][number]; sized: SizedVariant[] }[] {
   return project.designs.map((d) => {
     const specs = expandDesign(d.record, {
       choose: (rec, supply_V, load_A, c) => chooseDevices(rec, project.devices, supply_V, load_A, c),
@@ -52,7 +54,9 @@ export function assembleCatalogue(
       summary.variants++;
       if (r.sized.feasible) summary.feasible++;
       if (v) summary[v.status]++;
-      const plotSvg = v?.waveforms ? renderPlot(v.waveforms, { title: `Simulated waveforms, ${r.sized.spec.id}` }) : undefined;
+      const plotSvg = v?.waveforms
+        ? renderPlot(v.waveforms, { title: `Simulated waveforms, ${r.sized.spec.id}` })
+        : undefined;
       return {
         sized: r.sized,
         ...(v ? { verification: v } : {}),
@@ -62,5 +66,12 @@ export function assembleCatalogue(
   }));
   const p = project.policy;
   const devices = [...project.devices.values()].sort((a, b) => a.id.localeCompare(b.id));
-  return { builtAt, version, designs: built, policy: { id: p.id, title: p.title, document: p.document }, summary, engine: { devices, policy: p } };
+  return {
+    builtAt,
+    version,
+    designs: built,
+    policy: { id: p.id, title: p.title, document: p.document },
+    summary,
+    engine: { devices, policy: p },
+  };
 }

@@ -20,7 +20,8 @@ export function attachAlternatives(sized: SizedVariant[]): SizedVariant[] {
       dissipation(o),
     ];
     const best = [...pool].sort((a, b) => {
-      const x = score(a), y = score(b);
+      const x = score(a),
+        y = score(b);
       return x[0] - y[0] || x[1] - y[1] || x[2] - y[2];
     })[0];
     if (best === undefined) return v;

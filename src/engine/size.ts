@@ -38,7 +38,14 @@ export function sizeVariant(spec: VariantSpec): SizedVariant {
     const problems = [problem("engine", "", "engine-failure", "error", msg)];
     const verdict = decideVerdict({ checks: [], problems, conditions: [] });
     return {
-      spec, verdict, feasible: false, reason: verdict.summary, figures: [], checks: [], circuit: null, cautions: [],
+      spec,
+      verdict,
+      feasible: false,
+      reason: verdict.summary,
+      figures: [],
+      checks: [],
+      circuit: null,
+      cautions: [],
       problems,
       heatsink: { needed: false, text: "not sized" },
     };
@@ -51,17 +58,36 @@ function sizeInner(spec: VariantSpec): SizedVariant {
   const tap = designTap(ctx, plan);
   const timing = designTiming(ctx, plan, tap);
   const w = timing.search.worst;
-  const fin = plan.finish(tap.info, { dutyMax: Math.min(1, w.dMax.hi), fMax_Hz: w.f.hi, core: { c_F: timing.values.c_F, vSat_V: timing.vSatNom_V } });
+  const fin = plan.finish(tap.info, {
+    dutyMax: Math.min(1, w.dMax.hi),
+    fMax_Hz: w.f.hi,
+    core: { c_F: timing.values.c_F, vSat_V: timing.vSatNom_V },
+  });
   const dOn = timing.figures.find((f) => f.key === "duty_max")?.value ?? Math.min(1, w.dMax.hi);
   const vSwNom_V = fin.vSwNom_V ?? plan.vSwNom_V;
   const load = loadStage(ctx, vSwNom_V, dOn, { lo: Math.min(1, w.dMin.hi), hi: Math.min(1, w.dMax.lo) });
   const q = spec.devices.timing_npn as BjtClass;
-  const timingLoss = (role: SidedRole<"Q">): DeviceLoss => ({ role, dev: q, family: "bjt" as const, pCond_W: timing.timingLoss_W, pSw_W: 0, p_W: timing.timingLoss_W, isPower: false });
+  const timingLoss = (role: SidedRole<"Q">): DeviceLoss => ({
+    role,
+    dev: q,
+    family: "bjt" as const,
+    pCond_W: timing.timingLoss_W,
+    pSw_W: 0,
+    p_W: timing.timingLoss_W,
+    isPower: false,
+  });
   const losses = [...fin.losses, timingLoss("Q_A"), timingLoss("Q_B")];
   const thermal = thermalStage(ctx, losses);
   const power = fin.losses.find((l) => l.isPower);
   // The core's own current at the highest supply counts toward the fuse's continuous current.
-  const prot = protectionStage(ctx, ctx.vMax_V / timing.values.rC_ohm, w.f.lo, w.f.hi, w.dMin.lo, power === undefined ? undefined : { role: power.role, dev: power.dev });
+  const prot = protectionStage(
+    ctx,
+    ctx.vMax_V / timing.values.rC_ohm,
+    w.f.lo,
+    w.f.hi,
+    w.dMin.lo,
+    power === undefined ? undefined : { role: power.role, dev: power.dev },
+  );
   const pIn = ctx.vMax_V * ctx.iMax_A * Math.min(1, w.dMax.hi);
   const pNominal = nominalDissipation(ctx, timing.figures, fin.losses, load.iOn_A, vSwNom_V, w.f.hi, timing.fCtrl1_Hz);
 
@@ -71,42 +97,99 @@ function sizeInner(spec: VariantSpec): SizedVariant {
     return th === undefined ? p : { ...p, stress: { ...p.stress, power_W: th.p_W, tj_C: th.tj_C } };
   });
   // Roles the thermal stage puts on a heatsink (its conditions name them by path).
-  const heatsunk = new Set(thermal.conditions.map((c) => /^\/parts\/(.+)$/.exec(c.path)?.[1]).filter((r): r is string => r !== undefined));
+  const heatsunk = new Set(
+    thermal.conditions.map((c) => /^\/parts\/(.+)$/.exec(c.path)?.[1]).filter((r): r is string => r !== undefined),
+  );
   const review = reviewFailures(ctx, stressed, losses, thermal.perRole, heatsunk);
   const parts = stressed.map((p) => {
     const note = review.partNotes.get(p.role);
     return note === undefined ? p : { ...p, notes: [...(p.notes ?? []), note] };
   });
-  const driverLoss = driverLoss_W(parts, [...fin.losses, timingLoss("Q_A"), timingLoss("Q_B")], ctx, Math.min(1, w.dMax.hi));
+  const driverLoss = driverLoss_W(
+    parts,
+    [...fin.losses, timingLoss("Q_A"), timingLoss("Q_B")],
+    ctx,
+    Math.min(1, w.dMax.hi),
+  );
   const efficiency = Math.max(0, 1 - driverLoss / pIn);
-  const circuit = assembleCircuit(parts, { supply_V: spec.supply_V, highSide: ctx.highSide, tapNet: tap.tapNet, chainInputNet: tap.inputNet });
+  const circuit = assembleCircuit(parts, {
+    supply_V: spec.supply_V,
+    highSide: ctx.highSide,
+    tapNet: tap.tapNet,
+    chainInputNet: tap.inputNet,
+  });
   // The review again on the assembled parts, so its cautions name parts by their reference designators.
   const reviewed = reviewFailures(ctx, circuit.parts, losses, thermal.perRole, heatsunk);
   const refs = refsByRole(circuit);
   // Checks and problems are made out to roles while the stages run; a role absent from the circuit
   // keeps its name (it names no part), anything else is a bug in a stage.
   const toRef = (role: string): string => {
-    if (!isPartRole(role)) throw new EngineMisuseError(`sizeVariant: "${role}" is not a part role (src/model/part-roles.ts)`);
+    if (!isPartRole(role))
+      throw new EngineMisuseError(`sizeVariant: "${role}" is not a part role (src/model/part-roles.ts)`);
     return refs.get(role) ?? role;
   };
-  const checks: StressCheck[] = [...timing.checks, ...tap.checks, ...plan.checks, ...fin.checks, ...thermal.checks, ...prot.checks].map((c) => ({ ...c, ref: toRef(c.ref) }));
+  const checks: StressCheck[] = [
+    ...timing.checks,
+    ...tap.checks,
+    ...plan.checks,
+    ...fin.checks,
+    ...thermal.checks,
+    ...prot.checks,
+  ].map((c) => ({ ...c, ref: toRef(c.ref) }));
   const fixPath = (p: DesignProblem): DesignProblem => {
     const m = /^\/parts\/(.+)$/.exec(p.path);
     return m === null ? p : { ...p, path: `/parts/${toRef(m[1]!)}` };
   };
-  const stageProblems = [...timing.problems, ...plan.problems, ...fin.problems, ...load.problems, ...thermal.problems, ...prot.problems].map(fixPath);
+  const stageProblems = [
+    ...timing.problems,
+    ...plan.problems,
+    ...fin.problems,
+    ...load.problems,
+    ...thermal.problems,
+    ...prot.problems,
+  ].map(fixPath);
   const problems = [...stageProblems, ...checkProblems(checks, stageProblems)];
   const figures: Figure[] = dedupe([
-    ...timing.figures, ...plan.figures, ...fin.figures, ...load.figures, ...thermal.figures, ...reviewed.figures, ...prot.figures,
-    ...(pNominal === undefined ? [] : [figure("device_dissipation_nominal", `Power device dissipation (nominal: rated load, D_max, ${NOMINAL_TEMP_C} °C)`, pNominal, "W", "thermal",
-      "P = I_on·V_sw,nom·D_max,nom (MOSFET I_on²·R_DS(on),nom·D) + k·V_nom·I_on·(t_on,nom + t_off,nom)·f_nom", "derived")]),
-    figure("efficiency", "Driver efficiency (worst case)", efficiency, "", "chain",
-      "η = 1 − (ΣP_transistors + ΣP_resistors, zeners + P_freewheel) / (V_cc,max · I_max · D_max); each resistor at its worst-case dissipation", "derived"),
+    ...timing.figures,
+    ...plan.figures,
+    ...fin.figures,
+    ...load.figures,
+    ...thermal.figures,
+    ...reviewed.figures,
+    ...prot.figures,
+    ...(pNominal === undefined
+      ? []
+      : [
+          figure(
+            "device_dissipation_nominal",
+            `Power device dissipation (nominal: rated load, D_max, ${NOMINAL_TEMP_C} °C)`,
+            pNominal,
+            "W",
+            "thermal",
+            "P = I_on·V_sw,nom·D_max,nom (MOSFET I_on²·R_DS(on),nom·D) + k·V_nom·I_on·(t_on,nom + t_off,nom)·f_nom",
+            "derived",
+          ),
+        ]),
+    figure(
+      "efficiency",
+      "Driver efficiency (worst case)",
+      efficiency,
+      "",
+      "chain",
+      "η = 1 − (ΣP_transistors + ΣP_resistors, zeners + P_freewheel) / (V_cc,max · I_max · D_max); each resistor at its worst-case dissipation",
+      "derived",
+    ),
   ]);
   const conditions = [...thermal.conditions, ...reviewed.conditions, ...prot.conditions].map((c) => {
     const m = /^\/parts\/(.+)$/.exec(c.path);
     const role = m?.[1];
-    return role === undefined ? c : { ...c, path: `/parts/${toRef(role)}`, text: c.text.startsWith(role) ? toRef(role) + c.text.slice(role.length) : c.text };
+    return role === undefined
+      ? c
+      : {
+          ...c,
+          path: `/parts/${toRef(role)}`,
+          text: c.text.startsWith(role) ? toRef(role) + c.text.slice(role.length) : c.text,
+        };
   });
   // The one verdict (verdict.ts): every failing check and error problem blocks; conditions qualify.
   // Cautions (failure modes, live tab, hot case) inform the builder and never block.
@@ -114,7 +197,14 @@ function sizeInner(spec: VariantSpec): SizedVariant {
   // The generic hot-surface line stays for heatsinked parts; free-standing ones get their case temperature.
   const hot = thermal.heatsink.needed;
   const out: SizedVariant = {
-    spec, verdict, feasible: verdict.status !== "not-feasible", figures, problems, checks, heatsink: thermal.heatsink, circuit,
+    spec,
+    verdict,
+    feasible: verdict.status !== "not-feasible",
+    figures,
+    problems,
+    checks,
+    heatsink: thermal.heatsink,
+    circuit,
     cautions: [...cautions(ctx, hot), ...reviewed.cautions],
   };
   if (verdict.status === "not-feasible") out.reason = verdict.summary;
@@ -133,21 +223,34 @@ function sizeInner(spec: VariantSpec): SizedVariant {
  *    gate drive, typical plateau) with the same ramp law as the worst case (Rashid Ex. 4.2 /
  *    Mohan Eq. 2-6) at V_nom, I_on and the core's nominal frequency at control 1; else the worst-case loss scaled by V·I·f (linear in each).
  */
-function nominalDissipation(ctx: ReturnType<typeof makeContext>, timingFigures: Figure[], losses: DeviceLoss[], iOn_A: number, vSwNom_V: number, fMax_Hz: number, fCtrl1_Hz: number): number | undefined {
+function nominalDissipation(
+  ctx: ReturnType<typeof makeContext>,
+  timingFigures: Figure[],
+  losses: DeviceLoss[],
+  iOn_A: number,
+  vSwNom_V: number,
+  fMax_Hz: number,
+  fCtrl1_Hz: number,
+): number | undefined {
   const dMax = timingFigures.find((f) => f.key === "duty_max")?.value;
   // The frequency of the run the figure is compared with (control at 1), not at mid control: with
   // very unequal halves the core's frequency moves (collector recovery and base drive differ).
-  const fNom = Number.isFinite(fCtrl1_Hz) && fCtrl1_Hz > 0 ? fCtrl1_Hz : timingFigures.find((f) => f.key === "frequency_nominal")?.value;
+  const fNom =
+    Number.isFinite(fCtrl1_Hz) && fCtrl1_Hz > 0
+      ? fCtrl1_Hz
+      : timingFigures.find((f) => f.key === "frequency_nominal")?.value;
   const power = losses.find((l) => l.isPower);
-  if (dMax === undefined || fNom === undefined || power === undefined || !(ctx.iMax_A > 0) || !(fMax_Hz > 0)) return undefined;
-  const pCond = power.family === "mosfet" ? (iOn_A * iOn_A * (vSwNom_V / ctx.iNom_A)) * dMax : iOn_A * vSwNom_V * dMax;
+  if (dMax === undefined || fNom === undefined || power === undefined || !(ctx.iMax_A > 0) || !(fMax_Hz > 0))
+    return undefined;
+  const pCond = power.family === "mosfet" ? iOn_A * iOn_A * (vSwNom_V / ctx.iNom_A) * dMax : iOn_A * vSwNom_V * dMax;
   const pBase = (power.pBaseNom_W ?? 0) * dMax;
   // Voltage the switch holds while its current ramps: an LED string's forward voltage is not across
   // it (the string's current starts at its knee); inductive loads clamp at the supply.
   const vOverlap_V = ctx.load.inductive ? ctx.vNom_V : Math.max(0, ctx.vNom_V - ctx.load.vf_V);
-  const pSw = power.tNom_s !== undefined
-    ? switchingLoss_W(vOverlap_V, iOn_A, power.tNom_s.on, power.tNom_s.off, fNom, ctx.switching)
-    : power.pSw_W * (ctx.vNom_V * iOn_A * fNom) / (ctx.vMax_V * ctx.iMax_A * fMax_Hz);
+  const pSw =
+    power.tNom_s !== undefined
+      ? switchingLoss_W(vOverlap_V, iOn_A, power.tNom_s.on, power.tNom_s.off, fNom, ctx.switching)
+      : (power.pSw_W * (ctx.vNom_V * iOn_A * fNom)) / (ctx.vMax_V * ctx.iMax_A * fMax_Hz);
   return pCond + pBase + pSw;
 }
 
@@ -166,7 +269,10 @@ function driverLoss_W(parts: Part[], losses: DeviceLoss[], ctx: ReturnType<typeo
   const fw = parts.find((p) => p.role === "D_FREEWHEEL");
   const fwDev = ctx.spec.devices.freewheel_diode as DiodeClass | undefined;
   // At D_max (the point η is taken at) the diode carries the load current for the rest of the period.
-  const pFw = fw === undefined || fwDev === undefined ? 0 : Math.max(0, diodeClassVf_V(fwDev, ctx.iMax_A, NOMINAL_TEMP_C)) * ctx.iMax_A * (1 - dMax);
+  const pFw =
+    fw === undefined || fwDev === undefined
+      ? 0
+      : Math.max(0, diodeClassVf_V(fwDev, ctx.iMax_A, NOMINAL_TEMP_C)) * ctx.iMax_A * (1 - dMax);
   return transistors + passive + pFw;
 }
 

@@ -1,2 +1,9 @@
-export { expandDesign, fillTargets, variantCount, TARGET_DEFAULTS, PROTECTION_DEFAULTS, type ExpandDeps } from "./expand.ts";
+export {
+  expandDesign,
+  fillTargets,
+  variantCount,
+  TARGET_DEFAULTS,
+  PROTECTION_DEFAULTS,
+  type ExpandDeps,
+} from "./expand.ts";
 export { variantId, currentTag, tagValue } from "./variant-id.ts";

@@ -38,9 +38,19 @@ export function currentTag(load_A: number): string {
   return load_A < 1 ? tagValue(load_A, "ma", 3) : tagValue(load_A, "a");
 }
 
-export function variantId(design: Pick<DesignRecord, "id">, supply_V: number, load_A: number, chain: ChainKind, load_kind: LoadKind): string {
-  for (const [name, v] of [["supply_V", supply_V], ["load_A", load_A]] as const) {
-    if (!Number.isFinite(v) || v <= 0) throw new EngineMisuseError(`variantId(${design.id}): ${name} must be finite and > 0, got ${v}`);
+export function variantId(
+  design: Pick<DesignRecord, "id">,
+  supply_V: number,
+  load_A: number,
+  chain: ChainKind,
+  load_kind: LoadKind,
+): string {
+  for (const [name, v] of [
+    ["supply_V", supply_V],
+    ["load_A", load_A],
+  ] as const) {
+    if (!Number.isFinite(v) || v <= 0)
+      throw new EngineMisuseError(`variantId(${design.id}): ${name} must be finite and > 0, got ${v}`);
   }
   return `${design.id}-${tagValue(supply_V, "v")}-${currentTag(load_A)}-${chain}-${load_kind}`;
 }

@@ -21,9 +21,24 @@ export interface DeratingPolicy {
   document: string; // the documents the policy follows, in words, e.g. "NASA EEE-INST-002 (2003), from memory"
   /** Ratio band below the limit that is "marginal" rather than "pass" (e.g. 0.9 → above 90 % of the allowed). */
   marginal_above: number;
-  bjt: { power: DeratingRule; voltage: DeratingRule; current: DeratingRule; tj_max_C: DeratingRule & { value_C: number; below_max_K: number } };
-  mosfet: { power: DeratingRule; voltage: DeratingRule; current: DeratingRule; vgs: DeratingRule; tj_max_C: DeratingRule & { value_C: number; below_max_K: number } };
-  diode: { current: DeratingRule; voltage: DeratingRule; tj_max_C: DeratingRule & { value_C: number; below_max_K: number } };
+  bjt: {
+    power: DeratingRule;
+    voltage: DeratingRule;
+    current: DeratingRule;
+    tj_max_C: DeratingRule & { value_C: number; below_max_K: number };
+  };
+  mosfet: {
+    power: DeratingRule;
+    voltage: DeratingRule;
+    current: DeratingRule;
+    vgs: DeratingRule;
+    tj_max_C: DeratingRule & { value_C: number; below_max_K: number };
+  };
+  diode: {
+    current: DeratingRule;
+    voltage: DeratingRule;
+    tj_max_C: DeratingRule & { value_C: number; below_max_K: number };
+  };
   zener: { power: DeratingRule };
   resistor: { power: DeratingRule };
   capacitor: { voltage: DeratingRule };

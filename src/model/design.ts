@@ -87,9 +87,17 @@ export type DeviceRole = (typeof DEVICE_ROLES)[number];
 
 /** The device family each role needs (records check it; the engine's chooser relies on it). */
 export const ROLE_FAMILY = {
-  timing_npn: "npn", driver_npn: "npn", power_npn: "npn", driver_pnp: "pnp", power_pnp: "pnp",
-  mosfet_logic: "nmos", mosfet_standard: "nmos", freewheel_diode: "diode", signal_diode: "diode",
-  reverse_diode: "diode", gate_zener: "zener",
+  timing_npn: "npn",
+  driver_npn: "npn",
+  power_npn: "npn",
+  driver_pnp: "pnp",
+  power_pnp: "pnp",
+  mosfet_logic: "nmos",
+  mosfet_standard: "nmos",
+  freewheel_diode: "diode",
+  signal_diode: "diode",
+  reverse_diode: "diode",
+  gate_zener: "zener",
 } as const satisfies Record<DeviceRole, DeviceFamily>;
 
 /** Where a record came from, for error messages and page footers. */

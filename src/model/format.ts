@@ -7,7 +7,14 @@
 import { EngineMisuseError } from "./errors.ts";
 
 const PREFIXES: [number, string][] = [
-  [1e9, "G"], [1e6, "M"], [1e3, "k"], [1, ""], [1e-3, "m"], [1e-6, "µ"], [1e-9, "n"], [1e-12, "p"],
+  [1e9, "G"],
+  [1e6, "M"],
+  [1e3, "k"],
+  [1, ""],
+  [1e-3, "m"],
+  [1e-6, "µ"],
+  [1e-9, "n"],
+  [1e-12, "p"],
 ];
 
 /** Units shown with SI prefixes; others (°C, K/W, %, ratio) are printed plainly. */
@@ -44,7 +51,10 @@ export function toSignificant(x: number, digits = 3): string {
   // toString switches to e-notation below 1e-6; print small values as plain decimals while short.
   const places = d - 1 - Math.floor(Math.log10(Math.abs(rounded)));
   if (places > MAX_PLAIN_DECIMALS) return scientific(x, d);
-  return rounded.toFixed(Math.max(0, places)).replace(/(\.\d*?)0+$/, "$1").replace(/\.$/, "");
+  return rounded
+    .toFixed(Math.max(0, places))
+    .replace(/(\.\d*?)0+$/, "$1")
+    .replace(/\.$/, "");
 }
 
 export function formatValue(value: number, unit: string, digits = 3): string {

@@ -72,5 +72,14 @@ export const DEVICE_FAMILIES = ["npn", "pnp", "nmos", "diode", "zener"] as const
 export type DeviceFamily = (typeof DEVICE_FAMILIES)[number];
 
 /** How sure we are of a number (docs/sources.md explains each word). */
-export const CONFIDENCE = ["standard", "registered", "textbook", "seen", "common-practice", "from-memory", "derived", "demo"] as const;
+export const CONFIDENCE = [
+  "standard",
+  "registered",
+  "textbook",
+  "seen",
+  "common-practice",
+  "from-memory",
+  "derived",
+  "demo",
+] as const;
 export type Confidence = (typeof CONFIDENCE)[number];

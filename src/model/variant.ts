@@ -16,7 +16,8 @@ export interface VariantSpec {
   targets: Required<DesignRecord["targets"]>;
   /** The supply's real range: every worst case uses its min and max (src/engine/shared/supply.ts). */
   supply_window: SupplyWindow;
-  protection: Required<Pick<NonNullable<DesignRecord["protection"]>, "be_breakdown">> & Pick<NonNullable<DesignRecord["protection"]>, "inrush_limit">;
+  protection: Required<Pick<NonNullable<DesignRecord["protection"]>, "be_breakdown">> &
+    Pick<NonNullable<DesignRecord["protection"]>, "inrush_limit">;
   /** Every role resolved to a device class (record's choice or the engine default). */
   devices: Record<DeviceRole, DeviceClass>;
   policy: DeratingPolicy;

@@ -39,8 +39,10 @@ export async function listJson(root: string, dir: string): Promise<Listing> {
     }
     const reserved = reservedName(e.name);
     if (reserved) {
-      whole(`the file name uses "${reserved}", a device name reserved on Windows: the project could not be checked out there`,
-        "rename the file (and its id) to something else, e.g. add a word: con-fan.json");
+      whole(
+        `the file name uses "${reserved}", a device name reserved on Windows: the project could not be checked out there`,
+        "rename the file (and its id) to something else, e.g. add a word: con-fan.json",
+      );
       continue;
     }
     if (e.isFile()) {
@@ -50,24 +52,35 @@ export async function listJson(root: string, dir: string): Promise<Listing> {
     if (e.isSymbolicLink()) {
       const target = await realpath(join(root, file)).catch(() => null);
       if (target === null) {
-        whole("the symbolic link points to nothing (its target is missing)", "restore the target, or replace the link with the record itself");
+        whole(
+          "the symbolic link points to nothing (its target is missing)",
+          "restore the target, or replace the link with the record itself",
+        );
         continue;
       }
       const rel = relative(realRoot, target);
       if (rel === "" || rel.startsWith(`..${sep}`) || rel === ".." || isAbsolute(rel)) {
-        whole("the symbolic link points outside the project, so a reviewer of this repository cannot see the record",
-          "copy the record into the project instead of linking to it");
+        whole(
+          "the symbolic link points outside the project, so a reviewer of this repository cannot see the record",
+          "copy the record into the project instead of linking to it",
+        );
         continue;
       }
       const info = await stat(target).catch(() => null);
       if (!info?.isFile()) {
-        whole("the symbolic link does not point to a regular file", "link to a JSON file, or replace the link with the record itself");
+        whole(
+          "the symbolic link does not point to a regular file",
+          "link to a JSON file, or replace the link with the record itself",
+        );
         continue;
       }
       out.files.push(file);
       continue;
     }
-    whole("named like a record but not a regular file (a folder or a special file)", "rename or remove it; records are JSON files");
+    whole(
+      "named like a record but not a regular file (a folder or a special file)",
+      "rename or remove it; records are JSON files",
+    );
   }
   return out;
 }
@@ -76,16 +89,25 @@ export type ReadResult = { ok: true; parsed: ParsedFile } | { ok: false; issues:
 
 /** Reads and parses one file (relative path); size is checked before reading so huge files cost nothing. */
 export async function readRecord(root: string, file: string): Promise<ReadResult> {
-  const whole = (message: string, remedy: string): ReadResult => ({ ok: false, issues: [{ file, line: 0, col: 0, pointer: "", message, remedy }] });
+  const whole = (message: string, remedy: string): ReadResult => ({
+    ok: false,
+    issues: [{ file, line: 0, col: 0, pointer: "", message, remedy }],
+  });
   try {
     const info = await stat(join(root, file));
     if (!info.isFile()) return whole("not a regular file", "replace it with a JSON file");
     if (info.size > MAX_FILE_BYTES) {
-      return whole(`file is ${info.size} bytes, over the 1 MiB (${MAX_FILE_BYTES} bytes) limit for a record`, "split it into smaller records; a design or device record is a few kilobytes");
+      return whole(
+        `file is ${info.size} bytes, over the 1 MiB (${MAX_FILE_BYTES} bytes) limit for a record`,
+        "split it into smaller records; a design or device record is a few kilobytes",
+      );
     }
     return parseRecordFile(file, await readFile(join(root, file)));
   } catch (e) {
     const code = (e as { code?: string }).code ?? "read error";
-    return whole(`the file cannot be read (${code})`, code === "ENOENT" ? "create it, or name an existing file" : "check the file's permissions");
+    return whole(
+      `the file cannot be read (${code})`,
+      code === "ENOENT" ? "create it, or name an existing file" : "check the file's permissions",
+    );
   }
 }

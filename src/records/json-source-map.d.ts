@@ -11,7 +11,11 @@ declare module "json-source-map" {
     key?: SourceLocation;
     keyEnd?: SourceLocation;
   }
-  export function parse(source: string, reviver?: null, options?: { bigint?: boolean }): {
+  export function parse(
+    source: string,
+    reviver?: null,
+    options?: { bigint?: boolean },
+  ): {
     data: unknown;
     pointers: Record<string, PointerLocations>;
   };

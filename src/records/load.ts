@@ -5,7 +5,15 @@
 import type { DeratingPolicy } from "../model/derating.ts";
 import type { DesignRecord, SourcedRecord } from "../model/design.ts";
 import type { DeviceClass, DeviceLibrary } from "../model/device.ts";
-import { checkBindings, checkDeviceSoa, checkDuplicateIds, checkFileName, checkTargets, type LoadedDesign, type LoadedDevice } from "./cross.ts";
+import {
+  checkBindings,
+  checkDeviceSoa,
+  checkDuplicateIds,
+  checkFileName,
+  checkTargets,
+  type LoadedDesign,
+  type LoadedDevice,
+} from "./cross.ts";
 import { listJson, readRecord } from "./files.ts";
 import { sortIssues, uniqueIssues, type RecordIssue } from "./issue.ts";
 import type { ParsedFile } from "./parse.ts";
@@ -16,7 +24,13 @@ import { checkDefaults, checkDeviceData } from "./devices.ts";
 import { checkRecordText } from "./text.ts";
 
 export type LoadResult =
-  | { ok: true; designs: SourcedRecord<DesignRecord>[]; devices: DeviceLibrary; policy: DeratingPolicy; policyFile: string }
+  | {
+      ok: true;
+      designs: SourcedRecord<DesignRecord>[];
+      devices: DeviceLibrary;
+      policy: DeratingPolicy;
+      policyFile: string;
+    }
   | { ok: false; issues: RecordIssue[] };
 
 export interface LoadOptions {
@@ -34,7 +48,10 @@ export async function loadProject(root: string, options: LoadOptions = {}): Prom
 
   const readValid = async (file: string, validate: typeof vDesign): Promise<ParsedFile | null> => {
     const r = await readRecord(root, file);
-    if (!r.ok) { for (const i of capIssues(r.issues)) issues.push(i); return null; }
+    if (!r.ok) {
+      for (const i of capIssues(r.issues)) issues.push(i);
+      return null;
+    }
     if (!validate) return null; // schema problem already reported
     // Source keys only once the schema holds: a key of the wrong shape is reported there.
     const valid = validateParsed(r.parsed, validate);
@@ -65,12 +82,19 @@ export async function loadProject(root: string, options: LoadOptions = {}): Prom
     const notes = (d.record.notes ?? []).map((_, i) => `/notes/${i}`);
     issues.push(...checkRecordText(d.parsed, ["/title", "/summary", "/use", ...notes], "/id"));
   }
-  for (const d of devices) issues.push(...checkRecordText(d.parsed, [`${d.pointer}/title`, `${d.pointer}/package`], `${d.pointer}/id`));
+  for (const d of devices)
+    issues.push(...checkRecordText(d.parsed, [`${d.pointer}/title`, `${d.pointer}/package`], `${d.pointer}/id`));
   if (policyParsed) issues.push(...checkRecordText(policyParsed, ["/title", "/document"], "/id"));
   // Device data the engine and the model cards rely on.
   for (const d of devices) issues.push(...checkDeviceData(d));
 
-  issues.push(...checkDuplicateIds(devices, (d) => ({ id: d.device.id, parsed: d.parsed, pointer: `${d.pointer}/id` }), "device class"));
+  issues.push(
+    ...checkDuplicateIds(
+      devices,
+      (d) => ({ id: d.device.id, parsed: d.parsed, pointer: `${d.pointer}/id` }),
+      "device class",
+    ),
+  );
   for (const d of devices) issues.push(...checkDeviceSoa(d));
   const library = new Map<string, DeviceClass>();
   for (const d of devices) if (!library.has(d.device.id)) library.set(d.device.id, d.device);
@@ -104,7 +128,11 @@ function capIssues(found: readonly RecordIssue[]): RecordIssue[] {
   const kept = sorted.slice(0, MAX_ISSUES_PER_FILE);
   const next = sorted[MAX_ISSUES_PER_FILE]!;
   const more = found.length - MAX_ISSUES_PER_FILE;
-  kept.push({ ...next, message: `and ${more} more problem(s) in this file, not listed`, remedy: "fix the problems listed above, then check again" });
+  kept.push({
+    ...next,
+    message: `and ${more} more problem(s) in this file, not listed`,
+    remedy: "fix the problems listed above, then check again",
+  });
   return kept;
 }
 
@@ -113,13 +141,15 @@ function capIssues(found: readonly RecordIssue[]): RecordIssue[] {
  * (whatever designs/schema/device.schema.json allows); each class keeps its pointer for messages.
  */
 function deviceEntries(parsed: ParsedFile): LoadedDevice[] {
-  const isClass = (x: unknown): x is DeviceClass => x !== null && typeof x === "object" && typeof (x as { id?: unknown }).id === "string" && "family" in x;
+  const isClass = (x: unknown): x is DeviceClass =>
+    x !== null && typeof x === "object" && typeof (x as { id?: unknown }).id === "string" && "family" in x;
   const data = parsed.data;
   if (Array.isArray(data)) return data.filter(isClass).map((device, i) => ({ parsed, pointer: `/${i}`, device }));
   if (isClass(data)) return [{ parsed, pointer: "", device: data }];
   if (data !== null && typeof data === "object") {
     for (const [key, list] of Object.entries(data)) {
-      if (Array.isArray(list) && list.every(isClass)) return list.map((device, i) => ({ parsed, pointer: `/${key}/${i}`, device }));
+      if (Array.isArray(list) && list.every(isClass))
+        return list.map((device, i) => ({ parsed, pointer: `/${key}/${i}`, device }));
     }
   }
   return [];

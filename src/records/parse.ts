@@ -31,7 +31,19 @@ export function parseRecordFile(file: string, bytes: Uint8Array): ParseResult {
   } catch (e) {
     // Unreachable when the scan is right; kept so a disagreement between the two is still a clean issue.
     const message = e instanceof Error ? e.message : String(e);
-    return { ok: false, issues: [{ file, line: 1, col: 1, pointer: "", message: `JSON could not be read (${message})`, remedy: "fix the JSON syntax" }] };
+    return {
+      ok: false,
+      issues: [
+        {
+          file,
+          line: 1,
+          col: 1,
+          pointer: "",
+          message: `JSON could not be read (${message})`,
+          remedy: "fix the JSON syntax",
+        },
+      ],
+    };
   }
   const lines = new LineIndex(text);
   const pointers = new Map<string, PointerLocations>(Object.entries(result.pointers));

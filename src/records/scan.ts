@@ -29,12 +29,28 @@ export function scanJson(file: string, text: string): RecordIssue[] {
   const ws = (): void => {
     while (pos < text.length && " \t\n\r".includes(text[pos] ?? "")) pos++;
     if (text.startsWith("//", pos) || text.startsWith("/*", pos)) {
-      fatal(pos, "", "comments are not allowed in JSON", "remove the comment; put review remarks in the record's `notes` array");
+      fatal(
+        pos,
+        "",
+        "comments are not allowed in JSON",
+        "remove the comment; put review remarks in the record's `notes` array",
+      );
     }
   };
   const unexpected = (ptr: string, expected: string): never => {
-    if (pos >= text.length) return fatal(pos, ptr, `the file ends early: expected ${expected}`, "close every open { and [ and finish the last value");
-    return fatal(pos, ptr, `unexpected ${show(text[pos] ?? "")}: expected ${expected}`, "fix the JSON syntax at this place");
+    if (pos >= text.length)
+      return fatal(
+        pos,
+        ptr,
+        `the file ends early: expected ${expected}`,
+        "close every open { and [ and finish the last value",
+      );
+    return fatal(
+      pos,
+      ptr,
+      `unexpected ${show(text[pos] ?? "")}: expected ${expected}`,
+      "fix the JSON syntax at this place",
+    );
   };
 
   function value(ptr: string, depth: number): void {
@@ -44,7 +60,13 @@ export function scanJson(file: string, text: string): RecordIssue[] {
       fatal(pos, ptr, "NaN and Infinity are not numbers in JSON", "write a finite number such as 12");
     }
     if (c === "{" || c === "[") {
-      if (depth + 1 > MAX_DEPTH) fatal(pos, ptr, `nesting is deeper than ${MAX_DEPTH} levels`, "flatten the structure; records need only a few levels");
+      if (depth + 1 > MAX_DEPTH)
+        fatal(
+          pos,
+          ptr,
+          `nesting is deeper than ${MAX_DEPTH} levels`,
+          "flatten the structure; records need only a few levels",
+        );
       if (c === "{") object(ptr, depth + 1);
       else array(ptr, depth + 1);
     } else if (c === '"') string(ptr);
@@ -59,33 +81,51 @@ export function scanJson(file: string, text: string): RecordIssue[] {
   function object(ptr: string, depth: number): void {
     pos++; // {
     ws();
-    if (text[pos] === "}") { pos++; return; }
+    if (text[pos] === "}") {
+      pos++;
+      return;
+    }
     let comma = -1;
     const seen = new Map<string, number>();
     for (;;) {
       ws();
       if (text[pos] === "}") fatal(comma, ptr, "trailing comma before }", "remove the comma after the last member");
-      if (text[pos] !== '"') unexpected(ptr, 'a member name in double quotes');
+      if (text[pos] !== '"') unexpected(ptr, "a member name in double quotes");
       const keyAt = pos;
       const key = string(ptr);
       const child = `${ptr}/${key.replaceAll("~", "~0").replaceAll("/", "~1")}`;
       if (FORBIDDEN_KEYS.has(key)) {
-        report(keyAt, child, `the member name "${key}" is not allowed (it could alter object prototypes)`, "remove or rename this member");
+        report(
+          keyAt,
+          child,
+          `the member name "${key}" is not allowed (it could alter object prototypes)`,
+          "remove or rename this member",
+        );
       }
       // RFC 8259 §4: names SHOULD be unique; readers differ on which repeat wins, so a reviewer
       // could read one value while the build uses another. Refuse, naming both places.
       const first = seen.get(key);
       if (first !== undefined) {
-        report(keyAt, child, `the member "${key}" appears twice in this object (first on line ${lines.at(first).line})`,
-          "keep one of them and delete the other");
+        report(
+          keyAt,
+          child,
+          `the member "${key}" appears twice in this object (first on line ${lines.at(first).line})`,
+          "keep one of them and delete the other",
+        );
       } else seen.set(key, keyAt);
       ws();
       if (text[pos] !== ":") unexpected(child, `":" after the member name`);
       pos++;
       value(child, depth);
       ws();
-      if (text[pos] === ",") { comma = pos++; continue; }
-      if (text[pos] === "}") { pos++; return; }
+      if (text[pos] === ",") {
+        comma = pos++;
+        continue;
+      }
+      if (text[pos] === "}") {
+        pos++;
+        return;
+      }
       unexpected(child, `"," or "}"`);
     }
   }
@@ -93,15 +133,24 @@ export function scanJson(file: string, text: string): RecordIssue[] {
   function array(ptr: string, depth: number): void {
     pos++; // [
     ws();
-    if (text[pos] === "]") { pos++; return; }
+    if (text[pos] === "]") {
+      pos++;
+      return;
+    }
     let comma = -1;
     for (let i = 0; ; i++) {
       ws();
       if (text[pos] === "]") fatal(comma, ptr, "trailing comma before ]", "remove the comma after the last item");
       value(`${ptr}/${i}`, depth);
       ws();
-      if (text[pos] === ",") { comma = pos++; continue; }
-      if (text[pos] === "]") { pos++; return; }
+      if (text[pos] === ",") {
+        comma = pos++;
+        continue;
+      }
+      if (text[pos] === "]") {
+        pos++;
+        return;
+      }
       unexpected(`${ptr}/${i}`, `"," or "]"`);
     }
   }
@@ -112,16 +161,30 @@ export function scanJson(file: string, text: string): RecordIssue[] {
    * as character references, and they break HTML parsing and spreadsheet cells. Refuse them here.
    */
   const controlEscape = (at: number, ptr: string, code: number): void =>
-    report(at, ptr, `the text holds the control character ${uplus(code)}`, "remove it; only tab and line breaks are allowed in text");
+    report(
+      at,
+      ptr,
+      `the text holds the control character ${uplus(code)}`,
+      "remove it; only tab and line breaks are allowed in text",
+    );
   /** Refuses a code point that cannot be shown safely, escaped or written directly (see `refusal`). */
   const refuseCodePoint = (at: number, ptr: string, cp: number): void => {
     const why = refusal(cp);
     if (why === "control") controlEscape(at, ptr, cp);
     else if (why === "noncharacter") {
-      report(at, ptr, `the text holds the non-character ${uplus(cp)}`, "remove it: Unicode non-characters are not for interchange and XML (SVG) forbids U+FFFE and U+FFFF");
+      report(
+        at,
+        ptr,
+        `the text holds the non-character ${uplus(cp)}`,
+        "remove it: Unicode non-characters are not for interchange and XML (SVG) forbids U+FFFE and U+FFFF",
+      );
     } else if (why === "bidi") {
-      report(at, ptr, `the text holds the bidirectional control ${uplus(cp)}, which can make it display in a different order from what it says`,
-        "remove it; right-to-left words display correctly without embedding, override or isolate controls");
+      report(
+        at,
+        ptr,
+        `the text holds the bidirectional control ${uplus(cp)}, which can make it display in a different order from what it says`,
+        "remove it; right-to-left words display correctly without embedding, override or isolate controls",
+      );
     }
   };
 
@@ -133,14 +196,34 @@ export function scanJson(file: string, text: string): RecordIssue[] {
     for (;;) {
       if (pos >= text.length) fatal(start, ptr, "a string is not closed", 'add the closing double quote "');
       const c = text[pos] ?? "";
-      if (c === '"') { pos++; return out; }
-      if (c.charCodeAt(0) < 0x20) fatal(pos, ptr, "a control character (such as a raw line break or tab) is inside a string", "write it as an escape (\\n, \\t) or remove it");
+      if (c === '"') {
+        pos++;
+        return out;
+      }
+      if (c.charCodeAt(0) < 0x20)
+        fatal(
+          pos,
+          ptr,
+          "a control character (such as a raw line break or tab) is inside a string",
+          "write it as an escape (\\n, \\t) or remove it",
+        );
       if (c === "\\") {
         const e = text[pos + 1] ?? "";
-        const simple: Record<string, string> = { '"': '"', "\\": "\\", "/": "/", b: "\b", f: "\f", n: "\n", r: "\r", t: "\t" };
+        const simple: Record<string, string> = {
+          '"': '"',
+          "\\": "\\",
+          "/": "/",
+          b: "\b",
+          f: "\f",
+          n: "\n",
+          r: "\r",
+          t: "\t",
+        };
         if (e === "u" && /^[0-9a-fA-F]{4}$/.test(text.slice(pos + 2, pos + 6))) {
           const code = parseInt(text.slice(pos + 2, pos + 6), 16);
-          const low = /^\\u[dD][c-fC-F][0-9a-fA-F]{2}$/.test(text.slice(pos + 6, pos + 12)) ? parseInt(text.slice(pos + 8, pos + 12), 16) : -1;
+          const low = /^\\u[dD][c-fC-F][0-9a-fA-F]{2}$/.test(text.slice(pos + 6, pos + 12))
+            ? parseInt(text.slice(pos + 8, pos + 12), 16)
+            : -1;
           if (code >= 0xd800 && code <= 0xdbff && low >= 0) {
             // An escaped surrogate pair: one supplementary character.
             refuseCodePoint(pos, ptr, 0x10000 + ((code - 0xd800) << 10) + (low - 0xdc00));
@@ -149,7 +232,12 @@ export function scanJson(file: string, text: string): RecordIssue[] {
             continue;
           }
           if (code >= 0xd800 && code <= 0xdfff) {
-            report(pos, ptr, `the escape \\u${text.slice(pos + 2, pos + 6)} is half of a surrogate pair, alone`, "write the whole character, or both halves of its pair");
+            report(
+              pos,
+              ptr,
+              `the escape \\u${text.slice(pos + 2, pos + 6)} is half of a surrogate pair, alone`,
+              "write the whole character, or both halves of its pair",
+            );
           } else refuseCodePoint(pos, ptr, code);
           out += String.fromCharCode(code);
           pos += 6;
@@ -157,7 +245,13 @@ export function scanJson(file: string, text: string): RecordIssue[] {
           if (e === "b" || e === "f") controlEscape(pos, ptr, e === "b" ? 8 : 12);
           out += simple[e] ?? "";
           pos += 2;
-        } else fatal(pos, ptr, `invalid escape ${show("\\" + e)} in a string`, 'use one of \\" \\\\ \\/ \\b \\f \\n \\r \\t \\uXXXX');
+        } else
+          fatal(
+            pos,
+            ptr,
+            `invalid escape ${show("\\" + e)} in a string`,
+            'use one of \\" \\\\ \\/ \\b \\f \\n \\r \\t \\uXXXX',
+          );
       } else {
         // Written directly (not escaped): the same characters are refused.
         const cp = text.codePointAt(pos) ?? 0;
@@ -172,13 +266,20 @@ export function scanJson(file: string, text: string): RecordIssue[] {
   function number(ptr: string): void {
     const m = /^-?(0|[1-9][0-9]*)(\.[0-9]+)?([eE][+-]?[0-9]+)?/.exec(text.slice(pos, pos + 400));
     if (!m) return void fatal(pos, ptr, "malformed number", "write a plain decimal number such as 12 or 0.5");
-    if (/^[0-9.]/.test(text[pos + m[0].length] ?? "")) fatal(pos, ptr, "malformed number (leading zero or stray digits)", "write a plain decimal number such as 12 or 0.5");
-    if (!Number.isFinite(Number(m[0]))) report(pos, ptr, `the number ${m[0]} is too large to represent`, "write a number within the field's range");
+    if (/^[0-9.]/.test(text[pos + m[0].length] ?? ""))
+      fatal(
+        pos,
+        ptr,
+        "malformed number (leading zero or stray digits)",
+        "write a plain decimal number such as 12 or 0.5",
+      );
+    if (!Number.isFinite(Number(m[0])))
+      report(pos, ptr, `the number ${m[0]} is too large to represent`, "write a number within the field's range");
     pos += m[0].length;
   }
 
   try {
-    if (text.trim() === "") fatal(0, "", "the file is empty", "write one JSON object, e.g. { \"id\": \"my-design\", ... }");
+    if (text.trim() === "") fatal(0, "", "the file is empty", 'write one JSON object, e.g. { "id": "my-design", ... }');
     value("", 0);
     ws();
     if (pos < text.length) unexpected("", "the end of the file after the top-level value");

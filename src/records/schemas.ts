@@ -15,7 +15,13 @@ export type SchemaName = "design" | "device" | "derating";
 export type SchemaSet = { validators: Partial<Record<SchemaName, ValidateFunction>>; issues: RecordIssue[] };
 
 export async function loadSchemas(root: string): Promise<SchemaSet> {
-  const ajv = new Ajv2020({ allErrors: true, verbose: true, useDefaults: true, strictTuples: false, strictRequired: false });
+  const ajv = new Ajv2020({
+    allErrors: true,
+    verbose: true,
+    useDefaults: true,
+    strictTuples: false,
+    strictRequired: false,
+  });
   addFormatsModule.default(ajv);
   const issues: RecordIssue[] = [];
   const validators: SchemaSet["validators"] = {};
@@ -30,7 +36,10 @@ export async function loadSchemas(root: string): Promise<SchemaSet> {
   for (const name of names) {
     const file = `${SCHEMA_DIR}/${name}`;
     const parsed = parseRecordFile(file, await readFile(join(root, file)));
-    if (!parsed.ok) { issues.push(...parsed.issues); continue; }
+    if (!parsed.ok) {
+      issues.push(...parsed.issues);
+      continue;
+    }
     const body = parsed.parsed.data;
     if (body === null || typeof body !== "object" || Array.isArray(body)) {
       issues.push(whole(file, "a schema must be a JSON object", "restore the schema from the repository"));
@@ -40,20 +49,33 @@ export async function loadSchemas(root: string): Promise<SchemaSet> {
     try {
       ajv.addSchema(body, name);
     } catch (e) {
-      issues.push(whole(file, `the schema cannot be registered (${errText(e)})`, "fix the schema; it must be valid JSON Schema 2020-12"));
+      issues.push(
+        whole(
+          file,
+          `the schema cannot be registered (${errText(e)})`,
+          "fix the schema; it must be valid JSON Schema 2020-12",
+        ),
+      );
     }
   }
   for (const kind of ["design", "device", "derating"] as const) {
     const name = `${kind}.schema.json`;
     if (!bodies.has(name)) {
-      if (!names.includes(name)) issues.push(whole(`${SCHEMA_DIR}/${name}`, "the schema file is missing", "restore it from the repository"));
+      if (!names.includes(name))
+        issues.push(whole(`${SCHEMA_DIR}/${name}`, "the schema file is missing", "restore it from the repository"));
       continue;
     }
     try {
       const v = ajv.getSchema(name);
       if (v) validators[kind] = v;
     } catch (e) {
-      issues.push(whole(`${SCHEMA_DIR}/${name}`, `the schema does not compile (${errText(e)})`, "fix the schema; it must be valid JSON Schema 2020-12"));
+      issues.push(
+        whole(
+          `${SCHEMA_DIR}/${name}`,
+          `the schema does not compile (${errText(e)})`,
+          "fix the schema; it must be valid JSON Schema 2020-12",
+        ),
+      );
     }
   }
   return { validators, issues };

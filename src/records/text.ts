@@ -42,15 +42,25 @@ export function checkRecordText(parsed: ParsedFile, texts: readonly string[], id
   for (const pointer of texts) {
     const value = valueAt(parsed.data, pointer);
     if (typeof value === "string" && !hasVisibleText(value)) {
-      out.push(at(pointer, "the text shows nothing: it holds only spaces or invisible characters (zero-width, format or filler)",
-        "write visible words here"));
+      out.push(
+        at(
+          pointer,
+          "the text shows nothing: it holds only spaces or invisible characters (zero-width, format or filler)",
+          "write visible words here",
+        ),
+      );
     }
   }
   const id = valueAt(parsed.data, idPointer);
   const reserved = typeof id === "string" ? reservedName(id) : null;
   if (reserved !== null) {
-    out.push(at(idPointer, `the id "${String(id)}" is a device name reserved on Windows, so its files could not be saved there`,
-      `choose another id, e.g. "${String(id)}-driver"`));
+    out.push(
+      at(
+        idPointer,
+        `the id "${String(id)}" is a device name reserved on Windows, so its files could not be saved there`,
+        `choose another id, e.g. "${String(id)}-driver"`,
+      ),
+    );
   }
   return out;
 }

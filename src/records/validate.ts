@@ -13,6 +13,13 @@ export function validateParsed(parsed: ParsedFile, validate: ValidateFunction): 
     const w = word(e);
     // A missing member has no position of its own: point at the object that should hold it.
     const pos = parsed.locate(w.pointer, w.atKey);
-    return { file: parsed.file, line: pos.line, col: pos.col, pointer: w.pointer, message: w.message, remedy: w.remedy };
+    return {
+      file: parsed.file,
+      line: pos.line,
+      col: pos.col,
+      pointer: w.pointer,
+      message: w.message,
+      remedy: w.remedy,
+    };
   });
 }

@@ -8,8 +8,18 @@ import { formatValue } from "../model/format.ts";
 import { EngineMisuseError } from "../model/errors.ts";
 
 export const BOM_COLUMNS = [
-  "refs", "quantity", "description", "value", "series", "tolerance", "power rating", "voltage rating",
-  "current rating", "package", "device class", "notes",
+  "refs",
+  "quantity",
+  "description",
+  "value",
+  "series",
+  "tolerance",
+  "power rating",
+  "voltage rating",
+  "current rating",
+  "package",
+  "device class",
+  "notes",
 ] as const;
 
 /** Reference → [letter code, number] for ordering ("RV2" → ["RV", 2]). */

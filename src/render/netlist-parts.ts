@@ -21,7 +21,8 @@ export interface ElementOut {
 function pins(p: Part): string[] {
   return PIN_NAMES[p.kind].map((name) => {
     const net = p.pins[name];
-    if (net === undefined) throw new EngineMisuseError(`netlist: part ${p.ref} (${p.kind}) has no net on pin "${name}"`);
+    if (net === undefined)
+      throw new EngineMisuseError(`netlist: part ${p.ref} (${p.kind}) has no net on pin "${name}"`);
     return checkNet(net, `${p.ref}.${name}`);
   });
 }
@@ -56,7 +57,13 @@ export function elementLines(p: Part, supply_V: number): ElementOut {
     case "potentiometer": {
       const r = v(p.value, "value");
       // a–w = R·ctrl, w–b = R·(1 − ctrl), each floored at 1 mΩ so neither end is a short.
-      return { lines: [`R${ref}A ${n[0]} ${n[1]} {max(1e-3, ${r}*ctrl)}`, `R${ref}B ${n[1]} ${n[2]} {max(1e-3, ${r}*(1-ctrl))}`], models: [] };
+      return {
+        lines: [
+          `R${ref}A ${n[0]} ${n[1]} {max(1e-3, ${r}*ctrl)}`,
+          `R${ref}B ${n[1]} ${n[2]} {max(1e-3, ${r}*(1-ctrl))}`,
+        ],
+        models: [],
+      };
     }
     case "npn":
     case "pnp":
@@ -69,7 +76,10 @@ export function elementLines(p: Part, supply_V: number): ElementOut {
     case "led":
       return { lines: [`${ref} ${n.join(" ")} ${modelOf(p)}`], models: [] };
     case "fuse":
-      return { lines: [`R${ref} ${n.join(" ")} ${v(p.spice?.r_ohm ?? FUSE_R_DEFAULT_OHM, "fuse resistance")}`], models: [] };
+      return {
+        lines: [`R${ref} ${n.join(" ")} ${v(p.spice?.r_ohm ?? FUSE_R_DEFAULT_OHM, "fuse resistance")}`],
+        models: [],
+      };
     case "motor": {
       // Running-motor equivalent: winding resistance, winding inductance and the back-EMF at rated
       // speed as a DC source (spice.vf_V), so the on-state current is the rated one, not the stall.
@@ -92,7 +102,10 @@ export function elementLines(p: Part, supply_V: number): ElementOut {
       // IC: the engine's steady average at control 1 (honoured by the `.tran … uic` start).
       const i0 = p.spice?.i0_A;
       const ic = i0 !== undefined && i0 > 0 ? ` IC=${v(i0, "i0_A")}` : "";
-      return { lines: [`R${ref} ${n[0]} ${inner} ${v(loadR(p), "r_ohm")}`, `L${ref} ${inner} ${n[1]} ${v(l, "l_H")}${ic}`], models: [] };
+      return {
+        lines: [`R${ref} ${n[0]} ${inner} ${v(loadR(p), "r_ohm")}`, `L${ref} ${inner} ${n[1]} ${v(l, "l_H")}${ic}`],
+        models: [],
+      };
     }
     case "lamp":
     case "heater":
@@ -109,7 +122,9 @@ export function elementLines(p: Part, supply_V: number): ElementOut {
       const model = `LEDSTR_${ref}`;
       return {
         lines: [`D${ref} ${n[0]} ${inner} ${model}`, `R${ref} ${inner} ${n[1]} ${v(loadR(p), "r_ohm")}`],
-        models: [`.model ${model} D(IS=${v(law.is_A, "IS")} N=${v(law.n, "N")} RS=0 TNOM=${v(NOMINAL_TEMP_C, "TNOM")})`],
+        models: [
+          `.model ${model} D(IS=${v(law.is_A, "IS")} N=${v(law.n, "N")} RS=0 TNOM=${v(NOMINAL_TEMP_C, "TNOM")})`,
+        ],
       };
     }
   }

@@ -13,7 +13,8 @@ export function commentLines(text: string, maxLen = 100): string[] {
     .join("")
     .trim();
   const out: string[] = [];
-  for (let i = 0; i < clean.length || out.length === 0; i += maxLen) out.push(`* ${clean.slice(i, i + maxLen)}`.trimEnd());
+  for (let i = 0; i < clean.length || out.length === 0; i += maxLen)
+    out.push(`* ${clean.slice(i, i + maxLen)}`.trimEnd());
   return out;
 }
 
@@ -22,10 +23,12 @@ const NET_RE = /^[a-z0-9_]{1,32}$/;
 
 /** Refs and nets come from the engine; they are checked anyway so that no text escapes into a line. */
 export function checkRef(ref: string): string {
-  if (!REF_RE.test(ref)) throw new EngineMisuseError(`netlist: reference designator ${JSON.stringify(ref)} is not of the form R12, Q3, RV1`);
+  if (!REF_RE.test(ref))
+    throw new EngineMisuseError(`netlist: reference designator ${JSON.stringify(ref)} is not of the form R12, Q3, RV1`);
   return ref;
 }
 export function checkNet(net: string, where: string): string {
-  if (!NET_RE.test(net)) throw new EngineMisuseError(`netlist: net ${JSON.stringify(net)} at ${where} is not a lower-case SPICE identifier`);
+  if (!NET_RE.test(net))
+    throw new EngineMisuseError(`netlist: net ${JSON.stringify(net)} at ${where} is not a lower-case SPICE identifier`);
   return net;
 }

@@ -67,8 +67,12 @@ function header(circuit: CircuitModel, meta: NetlistMeta): string[] {
 }
 
 export function renderNetlist(circuit: CircuitModel, meta: NetlistMeta): string {
-  for (const [k, x] of [["supply_V", meta.supply_V], ["frequency_Hz", meta.frequency_Hz]] as const) {
-    if (!Number.isFinite(x) || x <= 0) throw new EngineMisuseError(`netlist ${meta.id}: meta.${k} must be a positive number, got ${x}`);
+  for (const [k, x] of [
+    ["supply_V", meta.supply_V],
+    ["frequency_Hz", meta.frequency_Hz],
+  ] as const) {
+    if (!Number.isFinite(x) || x <= 0)
+      throw new EngineMisuseError(`netlist ${meta.id}: meta.${k} must be a positive number, got ${x}`);
   }
   const out = header(circuit, meta);
   out.push(".param ctrl=0.5");
@@ -111,7 +115,8 @@ export function renderNetlist(circuit: CircuitModel, meta: NetlistMeta): string 
 
 /** Rewrites the `.param ctrl` line (0 … 1) of a netlist made by renderNetlist. */
 export function setCtrl(netlist: string, ctrl: number): string {
-  if (!Number.isFinite(ctrl) || ctrl < 0 || ctrl > 1) throw new EngineMisuseError(`setCtrl: ctrl must be within 0…1, got ${ctrl}`);
+  if (!Number.isFinite(ctrl) || ctrl < 0 || ctrl > 1)
+    throw new EngineMisuseError(`setCtrl: ctrl must be within 0…1, got ${ctrl}`);
   const re = /^\.param ctrl=.*$/m;
   if (!re.test(netlist)) throw new EngineMisuseError("setCtrl: netlist has no `.param ctrl=` line");
   return netlist.replace(re, `.param ctrl=${spiceNum(ctrl, "ctrl")}`);

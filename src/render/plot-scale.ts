@@ -3,14 +3,15 @@ import { EngineMisuseError } from "../model/errors.ts";
 
 /** Ticks covering [lo, hi] with a step of 1, 2 or 5 × 10^k, about `target` of them. */
 export function niceTicks(lo: number, hi: number, target = 5): { step: number; ticks: number[] } {
-  if (!Number.isFinite(lo) || !Number.isFinite(hi)) throw new EngineMisuseError(`plot: non-finite axis range ${lo}…${hi}`);
+  if (!Number.isFinite(lo) || !Number.isFinite(hi))
+    throw new EngineMisuseError(`plot: non-finite axis range ${lo}…${hi}`);
   if (hi - lo <= 0) {
     const pad = Math.abs(hi) > 0 ? Math.abs(hi) * 0.1 : 1;
     return niceTicks(lo - pad, hi + pad, target);
   }
   const raw = (hi - lo) / target;
   const mag = 10 ** Math.floor(Math.log10(raw));
-  const step = ([1, 2, 5, 10].map((m) => m * mag).find((s) => s >= raw) ?? 10 * mag);
+  const step = [1, 2, 5, 10].map((m) => m * mag).find((s) => s >= raw) ?? 10 * mag;
   const first = Math.floor(lo / step + 1e-9);
   const last = Math.ceil(hi / step - 1e-9);
   const ticks: number[] = [];
@@ -20,7 +21,12 @@ export function niceTicks(lo: number, hi: number, target = 5): { step: number; t
 
 /** SI prefix for values up to `maxAbs`: "m" with scale 1e3 for 0.004 s, etc. */
 export function axisPrefix(maxAbs: number): { prefix: string; scale: number } {
-  const table: [number, string, number][] = [[1, "", 1], [1e-3, "m", 1e3], [1e-6, "µ", 1e6], [1e-9, "n", 1e9]];
+  const table: [number, string, number][] = [
+    [1, "", 1],
+    [1e-3, "m", 1e3],
+    [1e-6, "µ", 1e6],
+    [1e-9, "n", 1e9],
+  ];
   for (const [lim, prefix, scale] of table) if (maxAbs >= lim) return { prefix, scale };
   return { prefix: "n", scale: 1e9 };
 }

@@ -22,19 +22,30 @@ export function renderPlot(w: WaveformSet, meta: { title: string }): string {
   if (n < 2) throw new EngineMisuseError("plot: need at least two time points");
   w.t_s.forEach((t, i) => fin(t, `t_s[${i}]`));
   for (const s of w.series) {
-    if (s.values.length !== n) throw new EngineMisuseError(`plot: series "${s.name}" has ${s.values.length} values for ${n} times`);
+    if (s.values.length !== n)
+      throw new EngineMisuseError(`plot: series "${s.name}" has ${s.values.length} values for ${n} times`);
     s.values.forEach((v, i) => fin(v, `${s.name}[${i}]`));
   }
   const t0 = w.t_s[0]!;
   const t1 = w.t_s[n - 1]!;
   const tp = axisPrefix(Math.max(Math.abs(t0), Math.abs(t1)));
-  const tTicks = niceTicks(t0 * tp.scale, t1 * tp.scale, 6).ticks.filter((t) => t >= t0 * tp.scale - 1e-9 && t <= t1 * tp.scale + 1e-9);
+  const tTicks = niceTicks(t0 * tp.scale, t1 * tp.scale, 6).ticks.filter(
+    (t) => t >= t0 * tp.scale - 1e-9 && t <= t1 * tp.scale + 1e-9,
+  );
   const plotW = W - LEFT - RIGHT;
   const xOf = (t: number) => LEFT + ((t - t0) / (t1 - t0)) * plotW;
   const height = TOP + w.series.length * (PANEL_H + GAP) + 30;
 
   const c = newCanvas();
-  c.attr({ viewBox: `0 0 ${W} ${height}`, width: W, height, role: "img", "font-family": "DejaVu Sans, Arial, sans-serif", "font-size": 12, class: "pw-plot" });
+  c.attr({
+    viewBox: `0 0 ${W} ${height}`,
+    width: W,
+    height,
+    role: "img",
+    "font-family": "DejaVu Sans, Arial, sans-serif",
+    "font-size": 12,
+    class: "pw-plot",
+  });
   c.rect(W, height).fill("#fff");
   c.element("text").words(meta.title).attr({ x: LEFT, y: 20, "font-size": 14, "font-weight": "bold", fill: "#000" });
   let firstVolt = true;
@@ -53,21 +64,39 @@ export function renderPlot(w: WaveformSet, meta: { title: string }): string {
     for (const v of yt.ticks) {
       const y = yOf(v);
       g.line(LEFT, y, LEFT + plotW, y).stroke({ color: "#bbb", width: 0.75 });
-      g.element("text").words(tickText(v)).attr({ x: LEFT - 6, y: y + 4, "text-anchor": "end", fill: "#000" });
+      g.element("text")
+        .words(tickText(v))
+        .attr({ x: LEFT - 6, y: y + 4, "text-anchor": "end", fill: "#000" });
     }
-    for (const t of tTicks) g.line(xOf(t / tp.scale), y0, xOf(t / tp.scale), y0 + PANEL_H).stroke({ color: "#bbb", width: 0.75 });
-    g.element("text").words(`${s.name} (${s.unit})`).attr({ x: LEFT + 6, y: y0 + 14, fill: "#000", "font-weight": "bold" });
+    for (const t of tTicks)
+      g.line(xOf(t / tp.scale), y0, xOf(t / tp.scale), y0 + PANEL_H).stroke({ color: "#bbb", width: 0.75 });
+    g.element("text")
+      .words(`${s.name} (${s.unit})`)
+      .attr({ x: LEFT + 6, y: y0 + 14, fill: "#000", "font-weight": "bold" });
     const pts = s.values.map((v, i) => [xOf(w.t_s[i]!), yOf(v)] as [number, number]);
     g.polyline(pts).fill("none").stroke({ color: ACCENT, width: 2, linejoin: "round" });
     if (withThr) {
       const y = yOf(w.threshold_V!);
-      g.line(LEFT, y, LEFT + plotW, y).stroke({ color: "#000", width: 1.5, dasharray: "6 4" }).attr({ "data-threshold": "" });
-      g.element("text").words(`threshold ${formatValue(w.threshold_V!, "V")}`).attr({ x: LEFT + plotW - 4, y: y - 4, "text-anchor": "end", fill: "#000" });
+      g.line(LEFT, y, LEFT + plotW, y)
+        .stroke({ color: "#000", width: 1.5, dasharray: "6 4" })
+        .attr({ "data-threshold": "" });
+      g.element("text")
+        .words(`threshold ${formatValue(w.threshold_V!, "V")}`)
+        .attr({ x: LEFT + plotW - 4, y: y - 4, "text-anchor": "end", fill: "#000" });
     }
     if (k === w.series.length - 1) {
-      for (const t of tTicks) g.element("text").words(tickText(t)).attr({ x: xOf(t / tp.scale), y: y0 + PANEL_H + 16, "text-anchor": "middle", fill: "#000" });
-      g.element("text").words(`time (${tp.prefix}s)`).attr({ x: LEFT + plotW / 2, y: y0 + PANEL_H + 32, "text-anchor": "middle", fill: "#000" });
+      for (const t of tTicks)
+        g.element("text")
+          .words(tickText(t))
+          .attr({ x: xOf(t / tp.scale), y: y0 + PANEL_H + 16, "text-anchor": "middle", fill: "#000" });
+      g.element("text")
+        .words(`time (${tp.prefix}s)`)
+        .attr({ x: LEFT + plotW / 2, y: y0 + PANEL_H + 32, "text-anchor": "middle", fill: "#000" });
     }
   });
-  return finish(c, { id: idFragment(meta.title), title: meta.title, desc: `Waveforms: ${w.series.map((s) => `${s.name} in ${s.unit}`).join(", ")}, over ${tickText((t1 - t0) * tp.scale)} ${tp.prefix}s.` });
+  return finish(c, {
+    id: idFragment(meta.title),
+    title: meta.title,
+    desc: `Waveforms: ${w.series.map((s) => `${s.name} in ${s.unit}`).join(", ")}, over ${tickText((t1 - t0) * tp.scale)} ${tp.prefix}s.`,
+  });
 }

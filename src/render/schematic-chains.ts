@@ -12,7 +12,9 @@ const tap = (input: PartRole): Route => [`${input}.a`, [15, `${input}.a`], [15, 
 
 export const CHAIN: Record<ChainKind, ChainLayout> = {
   "bjt-single": {
-    width: 260, outX: 180, outPin: "Q_POWER.c",
+    width: 260,
+    outX: 180,
+    outPin: "Q_POWER.c",
     slots: {
       RT: { x: 60, y: 300, rot: 270 },
       Q_POWER: { x: 170, y: 300 },
@@ -21,7 +23,9 @@ export const CHAIN: Record<ChainKind, ChainLayout> = {
     routes: [tap("RT"), ["RT.b", "Q_POWER.b"], ["RBE.a", [115, 300]]],
   },
   "mosfet-logic": {
-    width: 260, outX: 180, outPin: "Q_POWER.d",
+    width: 260,
+    outX: 180,
+    outPin: "Q_POWER.d",
     slots: {
       RG: { x: 60, y: 300, rot: 270 },
       Q_POWER: { x: 170, y: 300 },
@@ -31,17 +35,27 @@ export const CHAIN: Record<ChainKind, ChainLayout> = {
   },
   // The Darlington stair: each emitter steps down into the next base; collectors share one bus.
   "darlington-2": {
-    width: 380, outX: 300, outPin: "Q_D2.c",
+    width: 380,
+    outX: 300,
+    outPin: "Q_D2.c",
     slots: {
       RT: { x: 60, y: 290, rot: 270 },
       Q_D1: { x: 170, y: 290 },
       Q_D2: { x: 290, y: 350 },
       RBE: { x: 220, y: 410 },
     },
-    routes: [tap("RT"), ["RT.b", "Q_D1.b"], ["Q_D1.e", [180, 350], "Q_D2.b"], ["RBE.a", [220, 350]], ["Q_D1.c", [180, 250], [300, 250]]],
+    routes: [
+      tap("RT"),
+      ["RT.b", "Q_D1.b"],
+      ["Q_D1.e", [180, 350], "Q_D2.b"],
+      ["RBE.a", [220, 350]],
+      ["Q_D1.c", [180, 250], [300, 250]],
+    ],
   },
   "darlington-3": {
-    width: 500, outX: 420, outPin: "Q_D3.c",
+    width: 500,
+    outX: 420,
+    outPin: "Q_D3.c",
     slots: {
       RT: { x: 60, y: 290, rot: 270 },
       Q_D1: { x: 170, y: 290 },
@@ -50,13 +64,20 @@ export const CHAIN: Record<ChainKind, ChainLayout> = {
       RBE: { x: 340, y: 470 },
     },
     routes: [
-      tap("RT"), ["RT.b", "Q_D1.b"], ["Q_D1.e", [180, 350], "Q_D2.b"], ["Q_D2.e", [300, 410], "Q_D3.b"], ["RBE.a", [340, 410]],
-      ["Q_D1.c", [180, 250], [420, 250]], ["Q_D2.c", [300, 250]],
+      tap("RT"),
+      ["RT.b", "Q_D1.b"],
+      ["Q_D1.e", [180, 350], "Q_D2.b"],
+      ["Q_D2.e", [300, 410], "Q_D3.b"],
+      ["RBE.a", [340, 410]],
+      ["Q_D1.c", [180, 250], [420, 250]],
+      ["Q_D2.c", [300, 250]],
     ],
   },
   // NPN driver pulls the power PNP's base down through RB_P; RPU holds it off; emitter on the rail.
   "bjt-driver-pnp": {
-    width: 390, outX: 310, outPin: "Q_POWER.c",
+    width: 390,
+    outX: 310,
+    outPin: "Q_POWER.c",
     slots: {
       RT: { x: 60, y: 290, rot: 270 },
       Q_DRV: { x: 170, y: 290 },
@@ -68,7 +89,9 @@ export const CHAIN: Record<ChainKind, ChainLayout> = {
   },
   // Inverting driver stage, optional zener gate rail, complementary follower, gate network.
   "mosfet-driver": {
-    width: 680, outX: 600, outPin: "Q_POWER.d",
+    width: 680,
+    outX: 600,
+    outPin: "Q_POWER.d",
     slots: {
       RT: { x: 60, y: 330, rot: 270 },
       Q_DRV: { x: 170, y: 330 },
@@ -82,10 +105,18 @@ export const CHAIN: Record<ChainKind, ChainLayout> = {
       Q_POWER: { x: 590, y: 315 },
     },
     routes: [
-      tap("RT"), ["RT.b", "Q_DRV.b"], ["RP.b", [180, 285], [290, 285]], ["Q_DRV.c", [180, 285]],
+      tap("RT"),
+      ["RT.b", "Q_DRV.b"],
+      ["RP.b", [180, 285], [290, 285]],
+      ["Q_DRV.c", [180, 285]],
       ["Q_HI.b", [290, 270], [290, 360], "Q_LO.b"],
-      ["RZ.b", "RP.a"], ["DZ.cathode", [180, 190]], ["Q_HI.c", [360, 170], [180, 170]],
-      ["Q_HI.e", "Q_LO.e"], ["RG.a", [360, 315]], ["RG.b", "Q_POWER.g"], ["RGS.a", [540, 315]],
+      ["RZ.b", "RP.a"],
+      ["DZ.cathode", [180, 190]],
+      ["Q_HI.c", [360, 170], [180, 170]],
+      ["Q_HI.e", "Q_LO.e"],
+      ["RG.a", [360, 315]],
+      ["RG.b", "Q_POWER.g"],
+      ["RGS.a", [540, 315]],
     ],
   },
 };

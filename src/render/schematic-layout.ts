@@ -80,15 +80,22 @@ const CORE_TEMPLATE: Record<TemplateRole, Slot> = {
 const NODE_L = 305; // where CT_R lands on the left base line
 const NODE_R = 535;
 const CORE_ROUTES: Route[] = [
-  ["RC_L.b", "Q_L.c"], ["RC_R.b", "Q_R.c"],
-  ["CT_L.a", [CORE_L, "CT_L.a"]], ["CT_R.a", [CORE_R, "CT_R.a"]],
-  ["Q_L.b", "DB_L.cathode"], ["Q_R.b", "DB_R.cathode"],
-  ["DB_L.anode", "RB_L.b"], ["DB_R.anode", "RB_R.b"],
-  ["Q_L.b", "RB_L.b"], ["Q_R.b", "RB_R.b"], // without base diodes
-  ["RB_L.a", [390, BASE_Y]], ["RB_R.a", [450, BASE_Y]],
+  ["RC_L.b", "Q_L.c"],
+  ["RC_R.b", "Q_R.c"],
+  ["CT_L.a", [CORE_L, "CT_L.a"]],
+  ["CT_R.a", [CORE_R, "CT_R.a"]],
+  ["Q_L.b", "DB_L.cathode"],
+  ["Q_R.b", "DB_R.cathode"],
+  ["DB_L.anode", "RB_L.b"],
+  ["DB_R.anode", "RB_R.b"],
+  ["Q_L.b", "RB_L.b"],
+  ["Q_R.b", "RB_R.b"], // without base diodes
+  ["RB_L.a", [390, BASE_Y]],
+  ["RB_R.a", [450, BASE_Y]],
   ["CT_L.b", [NODE_R, "CT_L.b"], [NODE_R, BASE_Y]],
   ["CT_R.b", [NODE_L, "CT_R.b"], [NODE_L, BASE_Y]],
-  [[CORE_L, 240], [70, 240], "RBAL.a"], ["RBAL.b", "DBAL.anode"],
+  [[CORE_L, 240], [70, 240], "RBAL.a"],
+  ["RBAL.b", "DBAL.anode"],
 ];
 export const CORE_WIDTH = 770;
 
@@ -118,9 +125,13 @@ function subPt(p: RoutePt, tapSide: CoreSide): RoutePt {
 /** Timing core plus duty control, with the tapped collector on the right. */
 export function coreLayout(tapSide: CoreSide): StageLayout {
   const slots: Partial<Record<PlacedRole, Slot>> = {};
-  for (const role of Object.keys(CORE_TEMPLATE).filter(isTemplateRole)) slots[sideRole(role, tapSide)] = CORE_TEMPLATE[role];
+  for (const role of Object.keys(CORE_TEMPLATE).filter(isTemplateRole))
+    slots[sideRole(role, tapSide)] = CORE_TEMPLATE[role];
   // The wiper points up to the rail; end `a` (pa, toward RB_A) must face side A.
-  slots.RV_DUTY = tapSide === "B" ? { x: 420, y: BASE_Y, rot: 270, label: "below" } : { x: 420, y: BASE_Y, rot: 90, mirror: true, label: "below" };
+  slots.RV_DUTY =
+    tapSide === "B"
+      ? { x: 420, y: BASE_Y, rot: 270, label: "below" }
+      : { x: 420, y: BASE_Y, rot: 90, mirror: true, label: "below" };
   return { slots, routes: CORE_ROUTES.map((r) => r.map((p) => subPt(p, tapSide))), width: CORE_WIDTH };
 }
 
@@ -130,15 +141,37 @@ export const resolveSide = subPt;
 /** Load stage (origin = the chain's switched column): load from the rail, probe in its loop. */
 export function loadLayout(highSide: boolean, outPin: PinRef): StageLayout {
   return highSide
-    ? { width: 200, slots: { Vsense: { x: 0, y: 250 }, LOAD: { x: 0, y: 350 } }, routes: [["Vsense.p", outPin], ["Vsense.n", "LOAD.a"]] }
-    : { width: 200, slots: { LOAD: { x: 0, y: 110 }, Vsense: { x: 0, y: 200 } }, routes: [["LOAD.b", "Vsense.p"], ["Vsense.n", outPin]] };
+    ? {
+        width: 200,
+        slots: { Vsense: { x: 0, y: 250 }, LOAD: { x: 0, y: 350 } },
+        routes: [
+          ["Vsense.p", outPin],
+          ["Vsense.n", "LOAD.a"],
+        ],
+      }
+    : {
+        width: 200,
+        slots: { LOAD: { x: 0, y: 110 }, Vsense: { x: 0, y: 200 } },
+        routes: [
+          ["LOAD.b", "Vsense.p"],
+          ["Vsense.n", outPin],
+        ],
+      };
 }
 
 /** Freewheel diode to the right of the load, tied to the switched node beside the probe. */
 export function protectionLayout(highSide: boolean): StageLayout {
   return highSide
-    ? { width: 200, slots: { D_FREEWHEEL: { x: 90, y: 280, rot: 180 } }, routes: [["D_FREEWHEEL.cathode", [90, 200], [0, 200]]] }
-    : { width: 200, slots: { D_FREEWHEEL: { x: 90, y: 190, rot: 180 } }, routes: [["D_FREEWHEEL.anode", [90, 240], [0, 240]]] };
+    ? {
+        width: 200,
+        slots: { D_FREEWHEEL: { x: 90, y: 280, rot: 180 } },
+        routes: [["D_FREEWHEEL.cathode", [90, 200], [0, 200]]],
+      }
+    : {
+        width: 200,
+        slots: { D_FREEWHEEL: { x: 90, y: 190, rot: 180 } },
+        routes: [["D_FREEWHEEL.anode", [90, 240], [0, 240]]],
+      };
 }
 
 /** Which chain a circuit carries, read from its chain-stage roles. */

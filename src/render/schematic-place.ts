@@ -35,15 +35,24 @@ export interface Placed {
   box: Box;
   label: { lines: string[]; box: Box };
 }
-export interface Hint { net: string; pts: Pt[] }
+export interface Hint {
+  net: string;
+  pts: Pt[];
+}
 
 function transform(slot: L.Slot, p: Pt): Pt {
   let [x, y] = p;
   if (slot.mirror) x = -x;
   switch (slot.rot ?? 0) {
-    case 90: [x, y] = [-y, x]; break;
-    case 180: [x, y] = [-x, -y]; break;
-    case 270: [x, y] = [y, -x]; break;
+    case 90:
+      [x, y] = [-y, x];
+      break;
+    case 180:
+      [x, y] = [-x, -y];
+      break;
+    case 270:
+      [x, y] = [y, -x];
+      break;
   }
   return [x, y];
 }
@@ -67,14 +76,21 @@ function labelBox(slot: L.Slot, box: Box, cx: number, cy: number, lines: string[
   const h = lines.length * LINE_PX;
   const sideways = slot.rot === 90 || slot.rot === 270;
   switch (slot.label ?? (sideways ? "above" : "right")) {
-    case "left": return { x: box.x - w - 4, y: cy - h / 2, w, h };
-    case "above": return { x: cx - w / 2, y: box.y - h - 4, w, h };
-    case "below": return { x: cx - w / 2, y: box.y + box.h + 4, w, h };
-    case "right": return { x: box.x + box.w + 4, y: cy - h / 2, w, h };
+    case "left":
+      return { x: box.x - w - 4, y: cy - h / 2, w, h };
+    case "above":
+      return { x: cx - w / 2, y: box.y - h - 4, w, h };
+    case "below":
+      return { x: cx - w / 2, y: box.y + box.h + 4, w, h };
+    case "right":
+      return { x: box.x + box.w + 4, y: cy - h / 2, w, h };
   }
 }
 
-interface Stage { layout: L.StageLayout; x0: number }
+interface Stage {
+  layout: L.StageLayout;
+  x0: number;
+}
 
 function stages(circuit: CircuitModel, highSide: boolean): Record<StageKind, Stage> & { tapSide: "A" | "B" } {
   const tapSide = circuit.tapNet === "ca" ? "A" : "B";
@@ -99,14 +115,28 @@ export function place(circuit: CircuitModel): { placed: Placed[]; hints: Hint[] 
   const sense = circuit.instruments.find((i) => i.name === "Vsense");
   const highSide = sense !== undefined && sense.p === circuit.switchNet;
   const st = stages(circuit, highSide);
-  const items: { key: string; role: L.PlacedRole; part?: Part; sym: SymbolDef; nets: Record<string, string>; stage: StageKind }[] =
-    circuit.parts.map((p) => ({ key: p.ref, role: p.role, part: p, sym: SYMBOLS[p.kind], nets: p.pins, stage: p.stage }));
+  const items: {
+    key: string;
+    role: L.PlacedRole;
+    part?: Part;
+    sym: SymbolDef;
+    nets: Record<string, string>;
+    stage: StageKind;
+  }[] = circuit.parts.map((p) => ({
+    key: p.ref,
+    role: p.role,
+    part: p,
+    sym: SYMBOLS[p.kind],
+    nets: p.pins,
+    stage: p.stage,
+  }));
   if (sense) items.push({ key: "Vsense", role: "Vsense", sym: probe, nets: { p: sense.p, n: sense.n }, stage: "load" });
   const placed: Placed[] = [];
   for (const it of items) {
     const { layout, x0 } = st[it.stage];
     const slot = layout.slots[it.role];
-    if (!slot) throw new EngineMisuseError(`schematic: no place for role "${it.role}" (${it.key}) in stage "${it.stage}"`);
+    if (!slot)
+      throw new EngineMisuseError(`schematic: no place for role "${it.role}" (${it.key}) in stage "${it.stage}"`);
     const cx = x0 + slot.x;
     const cy = slot.y;
     const pins: Record<string, Pt> = {};
@@ -115,11 +145,32 @@ export function place(circuit: CircuitModel): { placed: Placed[]; hints: Hint[] 
       pins[name] = [cx + px, cy + py];
     }
     const b = it.sym.body;
-    const [c1, c2] = ([[b.x, b.y], [b.x + b.w, b.y + b.h]] as Pt[]).map((p) => transform(slot, p)) as [Pt, Pt];
-    const box = { x: cx + Math.min(c1[0], c2[0]), y: cy + Math.min(c1[1], c2[1]), w: Math.abs(c1[0] - c2[0]), h: Math.abs(c1[1] - c2[1]) };
+    const [c1, c2] = (
+      [
+        [b.x, b.y],
+        [b.x + b.w, b.y + b.h],
+      ] as Pt[]
+    ).map((p) => transform(slot, p)) as [Pt, Pt];
+    const box = {
+      x: cx + Math.min(c1[0], c2[0]),
+      y: cy + Math.min(c1[1], c2[1]),
+      w: Math.abs(c1[0] - c2[0]),
+      h: Math.abs(c1[1] - c2[1]),
+    };
     const lines = labelLines(it.part, it.key);
-    placed.push({ key: it.key, role: it.role, ...(it.part ? { part: it.part } : {}), sym: it.sym, cx, cy, slot, pins, nets: it.nets, box,
-      label: { lines, box: labelBox(slot, box, cx, cy, lines) } });
+    placed.push({
+      key: it.key,
+      role: it.role,
+      ...(it.part ? { part: it.part } : {}),
+      sym: it.sym,
+      cx,
+      cy,
+      slot,
+      pins,
+      nets: it.nets,
+      box,
+      label: { lines, box: labelBox(slot, box, cx, cy, lines) },
+    });
   }
   return { placed, hints: resolveHints(placed, st) };
 }
@@ -149,12 +200,18 @@ function resolveHints(placed: Placed[], st: ReturnType<typeof stages>): Hint[] {
       const pts: Pt[] = [];
       for (const raw of route) {
         const rp = L.resolveSide(raw, st.tapSide);
-        const at: Pt | undefined = typeof rp === "string" ? pin(rp) : (() => {
-          const x = coord(rp[0], 0);
-          const y = coord(rp[1], 1);
-          return x === undefined || y === undefined ? undefined : [x, y] as const;
-        })();
-        if (!at) { pts.length = 0; break; }
+        const at: Pt | undefined =
+          typeof rp === "string"
+            ? pin(rp)
+            : (() => {
+                const x = coord(rp[0], 0);
+                const y = coord(rp[1], 1);
+                return x === undefined || y === undefined ? undefined : ([x, y] as const);
+              })();
+        if (!at) {
+          pts.length = 0;
+          break;
+        }
         pts.push(at);
       }
       const net = [...nets][0];

@@ -9,7 +9,11 @@ import type { Box } from "./symbols/index.ts";
 import { CHAR_W, RAIL_Y, type Placed, type Pt } from "./schematic-place.ts";
 
 export type Seg = readonly [Pt, Pt];
-export interface Flag { net: string; at: Pt; box: Box }
+export interface Flag {
+  net: string;
+  at: Pt;
+  box: Box;
+}
 export interface Routing {
   wires: { net: string; segs: Seg[] }[];
   grounds: Pt[];
@@ -23,12 +27,22 @@ const eq = (a: number, b: number) => Math.abs(a - b) < 0.01;
 
 function segHitsBox(s: Seg, b: Box, m: number): boolean {
   const [[x1, y1], [x2, y2]] = s;
-  return Math.max(x1, x2) > b.x + m && Math.min(x1, x2) < b.x + b.w - m && Math.max(y1, y2) > b.y + m && Math.min(y1, y2) < b.y + b.h - m;
+  return (
+    Math.max(x1, x2) > b.x + m &&
+    Math.min(x1, x2) < b.x + b.w - m &&
+    Math.max(y1, y2) > b.y + m &&
+    Math.min(y1, y2) < b.y + b.h - m
+  );
 }
 function onSeg(p: Pt, s: Seg): boolean {
   const [[x1, y1], [x2, y2]] = s;
-  return p[0] >= Math.min(x1, x2) - 0.01 && p[0] <= Math.max(x1, x2) + 0.01 && p[1] >= Math.min(y1, y2) - 0.01 && p[1] <= Math.max(y1, y2) + 0.01
-    && (eq(x1, x2) ? eq(p[0], x1) : eq(p[1], y1));
+  return (
+    p[0] >= Math.min(x1, x2) - 0.01 &&
+    p[0] <= Math.max(x1, x2) + 0.01 &&
+    p[1] >= Math.min(y1, y2) - 0.01 &&
+    p[1] <= Math.max(y1, y2) + 0.01 &&
+    (eq(x1, x2) ? eq(p[0], x1) : eq(p[1], y1))
+  );
 }
 function collinearOverlap(a: Seg, b: Seg): boolean {
   const av = eq(a[0][0], a[1][0]);
@@ -37,7 +51,11 @@ function collinearOverlap(a: Seg, b: Seg): boolean {
   const k: 0 | 1 = av ? 0 : 1; // fixed coordinate index
   const r: 0 | 1 = av ? 1 : 0;
   if (!eq(a[0][k], b[0][k])) return false;
-  return Math.min(Math.max(a[0][r], a[1][r]), Math.max(b[0][r], b[1][r])) - Math.max(Math.min(a[0][r], a[1][r]), Math.min(b[0][r], b[1][r])) > 0.01;
+  return (
+    Math.min(Math.max(a[0][r], a[1][r]), Math.max(b[0][r], b[1][r])) -
+      Math.max(Math.min(a[0][r], a[1][r]), Math.min(b[0][r], b[1][r])) >
+    0.01
+  );
 }
 
 export class Router {
@@ -81,7 +99,8 @@ export class Router {
     for (const [n, segs] of this.wires) {
       if (n === net) continue;
       for (const o of segs) {
-        if (collinearOverlap(s, o) || onSeg(s[0], o) || onSeg(s[1], o) || onSeg(o[0], s) || onSeg(o[1], s)) return false;
+        if (collinearOverlap(s, o) || onSeg(s[0], o) || onSeg(s[1], o) || onSeg(o[0], s) || onSeg(o[1], s))
+          return false;
       }
     }
     return true;
@@ -97,12 +116,35 @@ export class Router {
   static routes(a: Pt, b: Pt): Seg[][] {
     const [ax, ay] = a;
     const [bx, by] = b;
-    const out: Seg[][] = [[[a, [bx, ay]], [[bx, ay], b]], [[a, [ax, by]], [[ax, by], b]]];
+    const out: Seg[][] = [
+      [
+        [a, [bx, ay]],
+        [[bx, ay], b],
+      ],
+      [
+        [a, [ax, by]],
+        [[ax, by], b],
+      ],
+    ];
     for (const d of [0, -10, 10, -20, 20, -30, 30]) {
       const mx = (ax + bx) / 2 + d;
       const my = (ay + by) / 2 + d;
-      out.push([[a, [mx, ay]], [[mx, ay], [mx, by]], [[mx, by], b]]);
-      out.push([[a, [ax, my]], [[ax, my], [bx, my]], [[bx, my], b]]);
+      out.push([
+        [a, [mx, ay]],
+        [
+          [mx, ay],
+          [mx, by],
+        ],
+        [[mx, by], b],
+      ]);
+      out.push([
+        [a, [ax, my]],
+        [
+          [ax, my],
+          [bx, my],
+        ],
+        [[bx, my], b],
+      ]);
     }
     return out;
   }
@@ -113,13 +155,19 @@ export class Router {
     const h = 16;
     const dx = at[0] - away[0];
     const dy = at[1] - away[1];
-    const opts: Box[] = Math.abs(dx) >= Math.abs(dy)
-      ? [dx >= 0 ? { x: at[0] + 2, y: at[1] - h - 2, w, h } : { x: at[0] - w - 2, y: at[1] - h - 2, w, h },
-         dx >= 0 ? { x: at[0] + 2, y: at[1] + 2, w, h } : { x: at[0] - w - 2, y: at[1] + 2, w, h }]
-      : [dy >= 0 ? { x: at[0] + 3, y: at[1] + 1, w, h } : { x: at[0] + 3, y: at[1] - h - 1, w, h },
-         dy >= 0 ? { x: at[0] - w - 3, y: at[1] + 1, w, h } : { x: at[0] - w - 3, y: at[1] - h - 1, w, h }];
-    const free = (b: Box) => !this.obstacles.some((o) => o.x < b.x + b.w && b.x < o.x + o.w && o.y < b.y + b.h && b.y < o.y + o.h)
-      && ![...this.wires.values()].flat().some((s) => segHitsBox(s, b, 0));
+    const opts: Box[] =
+      Math.abs(dx) >= Math.abs(dy)
+        ? [
+            dx >= 0 ? { x: at[0] + 2, y: at[1] - h - 2, w, h } : { x: at[0] - w - 2, y: at[1] - h - 2, w, h },
+            dx >= 0 ? { x: at[0] + 2, y: at[1] + 2, w, h } : { x: at[0] - w - 2, y: at[1] + 2, w, h },
+          ]
+        : [
+            dy >= 0 ? { x: at[0] + 3, y: at[1] + 1, w, h } : { x: at[0] + 3, y: at[1] - h - 1, w, h },
+            dy >= 0 ? { x: at[0] - w - 3, y: at[1] + 1, w, h } : { x: at[0] - w - 3, y: at[1] - h - 1, w, h },
+          ];
+    const free = (b: Box) =>
+      !this.obstacles.some((o) => o.x < b.x + b.w && b.x < o.x + o.w && o.y < b.y + b.h && b.y < o.y + o.h) &&
+      ![...this.wires.values()].flat().some((s) => segHitsBox(s, b, 0));
     const box = opts.find(free) ?? opts[0]!;
     this.cache.clear();
     this.flags.push({ net, at, box });

@@ -5,7 +5,10 @@
 import type { Hint, Placed, Pt } from "./schematic-place.ts";
 import { junctions, RAIL_Y, Router, type Routing, type Seg } from "./schematic-route.ts";
 
-interface PinAt { pt: Pt; centre: Pt }
+interface PinAt {
+  pt: Pt;
+  centre: Pt;
+}
 
 const dist = (a: Pt, b: Pt) => Math.abs(a[0] - b[0]) + Math.abs(a[1] - b[1]);
 
@@ -15,9 +18,14 @@ function project(p: Pt, s: Seg): Pt {
 }
 
 const orthogonal = (a: Pt, b: Pt) => Math.abs(a[0] - b[0]) < 0.01 || Math.abs(a[1] - b[1]) < 0.01;
-const touches = (p: Pt, s: Seg) => (Math.abs(s[0][0] - s[1][0]) < 0.01
-  ? Math.abs(p[0] - s[0][0]) < 0.01 && p[1] >= Math.min(s[0][1], s[1][1]) - 0.01 && p[1] <= Math.max(s[0][1], s[1][1]) + 0.01
-  : Math.abs(p[1] - s[0][1]) < 0.01 && p[0] >= Math.min(s[0][0], s[1][0]) - 0.01 && p[0] <= Math.max(s[0][0], s[1][0]) + 0.01);
+const touches = (p: Pt, s: Seg) =>
+  Math.abs(s[0][0] - s[1][0]) < 0.01
+    ? Math.abs(p[0] - s[0][0]) < 0.01 &&
+      p[1] >= Math.min(s[0][1], s[1][1]) - 0.01 &&
+      p[1] <= Math.max(s[0][1], s[1][1]) + 0.01
+    : Math.abs(p[1] - s[0][1]) < 0.01 &&
+      p[0] >= Math.min(s[0][0], s[1][0]) - 0.01 &&
+      p[0] <= Math.max(s[0][0], s[1][0]) + 0.01;
 
 export function wire(placed: Placed[], hints: readonly Hint[] = []): Routing {
   const r = new Router(placed);
@@ -46,7 +54,13 @@ export function wire(placed: Placed[], hints: readonly Hint[] = []): Routing {
   }
   if (railPts.length >= 2) {
     const xs = railPts.map((p) => p[0]);
-    r.add("vbus", [[[Math.min(...xs), RAIL_Y], [Math.max(...xs), RAIL_Y]], ...dropSegs]);
+    r.add("vbus", [
+      [
+        [Math.min(...xs), RAIL_Y],
+        [Math.max(...xs), RAIL_Y],
+      ],
+      ...dropSegs,
+    ]);
   } else r.add("vbus", dropSegs);
 
   let hintsRefused = 0;
@@ -69,7 +83,8 @@ export function wire(placed: Placed[], hints: readonly Hint[] = []): Routing {
     let flagged = false;
     while (pins.length) {
       const segs = r.wires.get(net) ?? [];
-      const targetsFor = (p: Pt) => [...tree, ...segs.map((s) => project(p, s))].sort((a, b) => dist(p, a) - dist(p, b));
+      const targetsFor = (p: Pt) =>
+        [...tree, ...segs.map((s) => project(p, s))].sort((a, b) => dist(p, a) - dist(p, b));
       pins.sort((a, b) => dist(a.pt, targetsFor(a.pt)[0]!) - dist(b.pt, targetsFor(b.pt)[0]!));
       const next = pins.shift()!;
       let done = false;
@@ -91,6 +106,12 @@ export function wire(placed: Placed[], hints: readonly Hint[] = []): Routing {
     }
   }
   const wires = [...r.wires.entries()].map(([net, segs]) => ({ net, segs })).sort((a, b) => (a.net < b.net ? -1 : 1));
-  const dots = wires.flatMap((w) => junctions(w.net, w.segs, (byNet.get(w.net) ?? []).map((q) => q.pt)));
+  const dots = wires.flatMap((w) =>
+    junctions(
+      w.net,
+      w.segs,
+      (byNet.get(w.net) ?? []).map((q) => q.pt),
+    ),
+  );
   return { wires, grounds, flags: r.flags, dots, hintsRefused };
 }

@@ -61,7 +61,10 @@ export function satPoint(p: GpParams, ic_A: number, ib_A: number): SatPointDc | 
   const vbe = p.nf * VT_NOMINAL_V * Math.log1p(if_A / p.is_A);
   const ie_A = ic_A + ib_A;
   return {
-    if_A, ir_A: ir, vbeInt_V: vbe, vbcInt_V: vbc,
+    if_A,
+    ir_A: ir,
+    vbeInt_V: vbe,
+    vbcInt_V: vbc,
     vbe_V: vbe + p.rb_ohm * ib_A + p.re_ohm * ie_A,
     vce_V: vbe - vbc + p.rc_ohm * ic_A + p.re_ohm * ie_A,
   };

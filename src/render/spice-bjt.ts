@@ -41,26 +41,50 @@ export function isTypical_A(dev: BjtClass): number {
  */
 export function fitBjt(dev: BjtClass, bf: number, junction: "worst" | "typical" = "worst"): BjtFit {
   const isTyp = isTypical_A(dev);
-  const p: GpParams = { is_A: isTyp, bf, br: 1, nf: 1, nr: 1, vaf_V: BJT_VAF_V, ikf_A: Infinity, rb_ohm: 0, rc_ohm: 0, re_ohm: 0 };
+  const p: GpParams = {
+    is_A: isTyp,
+    bf,
+    br: 1,
+    nf: 1,
+    nr: 1,
+    vaf_V: BJT_VAF_V,
+    ikf_A: Infinity,
+    rb_ohm: 0,
+    rc_ohm: 0,
+    re_ohm: 0,
+  };
   const usable = dev.vce_sat.filter((s) => satPoint(p, s.ic_A, s.ib_A) !== null);
   const skipped = dev.vce_sat.filter((s) => !usable.includes(s)).map((s) => ({ ic_A: s.ic_A, ib_A: s.ib_A }));
   // The junction currents depend on the fitted values only through q1 (V_B'C'/VAF): three passes settle.
   for (let pass = 0; pass < 3 && usable.length > 0; pass++) {
     const pts = usable.map((s) => ({ s, dc: satPoint(p, s.ic_A, s.ib_A)! }));
-    const vbeRows: Row[] = pts.filter(({ s }) => s.vbe_sat_V !== undefined).map(({ s, dc }) => ({
-      a: 1, b: s.ib_A, c: VT_NOMINAL_V * Math.log1p(dc.if_A / isTyp), y: s.vbe_sat_V!, w: 1 / s.vbe_sat_V! ** 2,
-    }));
+    const vbeRows: Row[] = pts
+      .filter(({ s }) => s.vbe_sat_V !== undefined)
+      .map(({ s, dc }) => ({
+        a: 1,
+        b: s.ib_A,
+        c: VT_NOMINAL_V * Math.log1p(dc.if_A / isTyp),
+        y: s.vbe_sat_V!,
+        w: 1 / s.vbe_sat_V! ** 2,
+      }));
     if (vbeRows.length > 0) {
       // One point cannot separate junction from base resistance: put it all in the junction, so
       // V_BE holds (the engine does not grow V_BE(sat) beyond a single point either).
       const fixed = { lo: 0, hi: 0 };
-      const [delta, rb] = junction === "typical" ? [0, 0] : fit2(vbeRows, DELTA_VBE, vbeRows.length === 1 ? fixed : RB_OHM);
+      const [delta, rb] =
+        junction === "typical" ? [0, 0] : fit2(vbeRows, DELTA_VBE, vbeRows.length === 1 ? fixed : RB_OHM);
       p.is_A = isTyp * Math.exp(-delta / VT_NOMINAL_V);
       p.rb_ohm = rb;
     }
     const vceRows: Row[] = usable.map((s) => {
       const dc = satPoint(p, s.ic_A, s.ib_A)!;
-      return { a: -VT_NOMINAL_V * Math.log1p(dc.ir_A / p.is_A), b: s.ic_A, c: dc.vbeInt_V, y: s.vce_sat_V, w: 1 / s.vce_sat_V ** 2 };
+      return {
+        a: -VT_NOMINAL_V * Math.log1p(dc.ir_A / p.is_A),
+        b: s.ic_A,
+        c: dc.vbeInt_V,
+        y: s.vce_sat_V,
+        w: 1 / s.vce_sat_V ** 2,
+      };
     });
     const [nr, rc] = fit2(vceRows, NR, RC_OHM);
     p.nr = nr;

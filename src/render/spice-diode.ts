@@ -17,8 +17,14 @@ export function diodeModel(dev: DiodeClass): string {
   // capacitance's discharge, which CJO already models, so TT = 0.
   const tt_s = dev.recovery === "schottky" ? 0 : dev.trr_s / Math.LN2;
   return card(spiceModelName(dev.id), "D", [
-    ["IS", law.is_A], ["N", law.n], ["RS", law.rs_ohm], ["TT", tt_s], ["CJO", cjo],
-    ["BV", dev.vrrm_V], ["IBV", 10e-6], ["TNOM", NOMINAL_TEMP_C],
+    ["IS", law.is_A],
+    ["N", law.n],
+    ["RS", law.rs_ohm],
+    ["TT", tt_s],
+    ["CJO", cjo],
+    ["BV", dev.vrrm_V],
+    ["IBV", 10e-6],
+    ["TNOM", NOMINAL_TEMP_C],
   ]);
 }
 
@@ -30,7 +36,12 @@ export function zenerTestCurrent_A(dev: ZenerClass): number {
 export function zenerModel(dev: ZenerClass): string {
   const izt_A = zenerTestCurrent_A(dev);
   return card(spiceModelName(dev.id), "D", [
-    ["IS", 1e-14], ["N", 1], ["RS", (0.02 * dev.vz_V) / izt_A], ["BV", dev.vz_V], ["IBV", izt_A], ["CJO", 50e-12],
+    ["IS", 1e-14],
+    ["N", 1],
+    ["RS", (0.02 * dev.vz_V) / izt_A],
+    ["BV", dev.vz_V],
+    ["IBV", izt_A],
+    ["CJO", 50e-12],
     ["TNOM", NOMINAL_TEMP_C],
   ]);
 }

@@ -22,7 +22,6 @@ export interface SpiceModelOptions {
   junction?: "worst" | "typical";
 }
 
-
 function bjtModel(dev: BjtClass, opts: SpiceModelOptions): string {
   // BF: the engine's gain law (shared/gain.ts) at the highest current the class's parts carry, but
   // read no higher than the class's last gain point. Known divergence, kept on purpose for now: the
@@ -43,10 +42,24 @@ function bjtModel(dev: BjtClass, opts: SpiceModelOptions): string {
   const tf = Math.max(0.1 * tauT_s, tauT_s - ((cje + cjc) * VT_NOMINAL_V) / iRef_A);
   // Storage time with I_B2 = I_B1 and I_C/β ≪ I_B1: t_s ≈ τ_s·ln2, τ_s ≈ TR (from memory).
   const tr = dev.t_storage_s / Math.LN2;
-  return card(opts.junction === "typical" ? timingModelName(dev.id) : spiceModelName(dev.id), dev.family === "npn" ? "NPN" : "PNP", [
-    ["IS", p.is_A], ["BF", p.bf], ["BR", p.br], ["NR", p.nr], ["VAF", BJT_VAF_V], ["RB", p.rb_ohm], ["RC", p.rc_ohm],
-    ["CJE", cje], ["CJC", cjc], ["TF", tf], ["TR", tr], ["TNOM", NOMINAL_TEMP_C],
-  ]);
+  return card(
+    opts.junction === "typical" ? timingModelName(dev.id) : spiceModelName(dev.id),
+    dev.family === "npn" ? "NPN" : "PNP",
+    [
+      ["IS", p.is_A],
+      ["BF", p.bf],
+      ["BR", p.br],
+      ["NR", p.nr],
+      ["VAF", BJT_VAF_V],
+      ["RB", p.rb_ohm],
+      ["RC", p.rc_ohm],
+      ["CJE", cje],
+      ["CJC", cjc],
+      ["TF", tf],
+      ["TR", tr],
+      ["TNOM", NOMINAL_TEMP_C],
+    ],
+  );
 }
 
 export function spiceModel(dev: DeviceClass, opts: SpiceModelOptions): string {

@@ -18,7 +18,15 @@ export function mosfetModel(dev: MosfetClass, corner: "min" | "typ"): string {
   const { cgs_F, cgd_F } = mosfetCaps(dev);
   // The ohmic part splits 2 : 1 between drain and source (from memory; only the sum is measured).
   return card(spiceModelName(dev.id), "VDMOS", [
-    ["VTO", vto], ["KP", 1 / invKp], ["RD", (2 / 3) * rFix_ohm], ["RS", rFix_ohm / 3], ["CGS", cgs_F],
-    ["CGDMAX", cgd_F], ["CGDMIN", cgd_F], ["BV", dev.vds_V], ["CJO", dev.ciss_F / 3], ["TNOM", NOMINAL_TEMP_C],
+    ["VTO", vto],
+    ["KP", 1 / invKp],
+    ["RD", (2 / 3) * rFix_ohm],
+    ["RS", rFix_ohm / 3],
+    ["CGS", cgs_F],
+    ["CGDMAX", cgd_F],
+    ["CGDMIN", cgd_F],
+    ["BV", dev.vds_V],
+    ["CJO", dev.ciss_F / 3],
+    ["TNOM", NOMINAL_TEMP_C],
   ]);
 }

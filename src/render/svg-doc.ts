@@ -30,7 +30,8 @@ export function fin(x: number, what: string): number {
 
 /** Final serialisation: strips svg.js ids and bookkeeping, inserts the escaped title/desc. */
 export function finish(canvas: Svg, a11y: { id: string; title: string; desc: string }): string {
-  const body = canvas.svg()
+  const body = canvas
+    .svg()
     .replace(/ id="[^"]*"/g, "")
     .replace(/ data-svgjs="[^"]*"/g, "")
     .replace(/ xmlns:xlink="[^"]*"/g, "")
@@ -42,5 +43,8 @@ export function finish(canvas: Svg, a11y: { id: string; title: string; desc: str
 
 /** A safe id fragment from a record id. */
 export function idFragment(id: string): string {
-  return `pw-${id.toLowerCase().replace(/[^a-z0-9-]/g, "-").slice(0, 60)}`;
+  return `pw-${id
+    .toLowerCase()
+    .replace(/[^a-z0-9-]/g, "-")
+    .slice(0, 60)}`;
 }

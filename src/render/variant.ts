@@ -25,7 +25,11 @@ export interface VariantViewOptions {
   schematic?: boolean;
 }
 
-export function renderVariantViews(sized: SizedVariant, devices: DeviceLibrary, opts: VariantViewOptions = {}): VariantViews {
+export function renderVariantViews(
+  sized: SizedVariant,
+  devices: DeviceLibrary,
+  opts: VariantViewOptions = {},
+): VariantViews {
   const c = sized.circuit;
   if (!c) return { netlist: "", schematicSvg: "", bomCsv: "" };
   const { spec } = sized;

@@ -56,11 +56,13 @@ export async function auditSite(dir: string): Promise<AuditReport> {
     if (ext === ".html") {
       pages++;
       parse(text, {
-        onParseError: (e) => findings.push({ file: rel, message: `HTML parse error ${e.code} at line ${e.startLine}:${e.startCol}` }),
+        onParseError: (e) =>
+          findings.push({ file: rel, message: `HTML parse error ${e.code} at line ${e.startLine}:${e.startCol}` }),
       });
     }
     const urls: string[] = [];
-    if (ext === ".html" || ext === ".svg") for (const m of text.matchAll(URL_ATTR)) urls.push((m[1] ?? m[2] ?? "").trim());
+    if (ext === ".html" || ext === ".svg")
+      for (const m of text.matchAll(URL_ATTR)) urls.push((m[1] ?? m[2] ?? "").trim());
     for (const m of text.matchAll(CSS_URL)) urls.push((m[1] ?? "").trim());
     for (const raw of urls) {
       if (raw === "" || raw.startsWith("#") || raw.startsWith("data:") || raw.startsWith("mailto:")) continue;
@@ -70,7 +72,10 @@ export async function auditSite(dir: string): Promise<AuditReport> {
         continue;
       }
       if (raw.startsWith("/")) {
-        findings.push({ file: rel, message: `root-relative link ${raw} breaks under a URL prefix; use a relative link` });
+        findings.push({
+          file: rel,
+          message: `root-relative link ${raw} breaks under a URL prefix; use a relative link`,
+        });
         continue;
       }
       links++;

@@ -93,12 +93,18 @@ const cell = (s: string) => s.replace(/\|/g, "\\|");
 export function bibliographyMarkdown(): string {
   const out: string[] = [INTRO];
   out.push("| key | source | how sure |", "|---|---|---|");
-  for (const k of SOURCE_KEYS) out.push(`| [\`${k}\`](#${k}) | ${cell(SOURCES[k].short)} | ${SURENESS_WORDS[SOURCES[k].sureness]} |`);
+  for (const k of SOURCE_KEYS)
+    out.push(`| [\`${k}\`](#${k}) | ${cell(SOURCES[k].short)} | ${SURENESS_WORDS[SOURCES[k].sureness]} |`);
   for (const g of groups()) {
     out.push("", `## ${g.heading}`);
     for (const r of g.rows) {
       out.push("", `<a id="${r.key}"></a>`, `### ${r.short} (\`${r.key}\`)`, "");
-      out.push(`- **Title:** ${r.title}`, `- **Edition:** ${r.edition}`, `- **Where:** ${r.where}`, `- **How sure:** ${r.sureness}`);
+      out.push(
+        `- **Title:** ${r.title}`,
+        `- **Edition:** ${r.edition}`,
+        `- **Where:** ${r.where}`,
+        `- **How sure:** ${r.sureness}`,
+      );
       out.push("", r.note);
       if (r.values.length > 0) {
         out.push("", "| value used | what we take | how sure |", "|---|---|---|");

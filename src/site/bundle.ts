@@ -24,7 +24,10 @@ const svgdomToRealDom: Plugin = {
   },
 };
 
-export async function writeBrowserScripts(outDir: string, entries: Record<string, string> = BROWSER_SCRIPTS): Promise<string[]> {
+export async function writeBrowserScripts(
+  outDir: string,
+  entries: Record<string, string> = BROWSER_SCRIPTS,
+): Promise<string[]> {
   const written: string[] = [];
   for (const [src, out] of Object.entries(entries).sort()) {
     const file = path.join(outDir, "assets", out);

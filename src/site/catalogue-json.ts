@@ -39,7 +39,8 @@ export function catalogueJson(cat: BuiltCatalogue): object {
       const id = s.spec.id;
       const files = new Set(availableDownloads(v).map((f) => f.kind));
       const urls: Record<string, string> = { page: variantPage(id) };
-      for (const kind of ["json", "netlist", "schematic", "bom", "waveforms"] as const) if (files.has(kind)) urls[kind] = downloadUrl(id, kind);
+      for (const kind of ["json", "netlist", "schematic", "bom", "waveforms"] as const)
+        if (files.has(kind)) urls[kind] = downloadUrl(id, kind);
       const comps = v.verification?.comparisons ?? [];
       return {
         id,
@@ -54,7 +55,11 @@ export function catalogueJson(cat: BuiltCatalogue): object {
         ...(s.alternative ? { alternative: s.alternative.id } : {}),
         predicted: predicted(s.figures),
         heatsink: s.heatsink.text,
-        simulation: { status: v.verification?.status ?? "skipped", agree: comps.filter((c) => c.ok).length, disagree: comps.filter((c) => !c.ok).length },
+        simulation: {
+          status: v.verification?.status ?? "skipped",
+          agree: comps.filter((c) => c.ok).length,
+          disagree: comps.filter((c) => !c.ok).length,
+        },
         urls,
       };
     }),
@@ -63,7 +68,13 @@ export function catalogueJson(cat: BuiltCatalogue): object {
     generated: cat.builtAt,
     version: cat.version,
     policy: cat.policy,
-    designs: cat.designs.map((d) => ({ id: d.record.id, title: d.record.title, file: d.file, page: designPage(d.record.id), variants: d.variants.length })),
+    designs: cat.designs.map((d) => ({
+      id: d.record.id,
+      title: d.record.title,
+      file: d.file,
+      page: designPage(d.record.id),
+      variants: d.variants.length,
+    })),
     variants,
     summary: { designs: cat.designs.length, ...cat.summary },
   };

@@ -89,17 +89,25 @@ function reasonFor(e: ChooserEntry, rank: number, group: ChooserEntry[], q: Choo
   if (rank === 0) {
     const lead: string[] = [];
     if (w.noHeatsink && !e.heatsinkNeeded) lead.push("needs no heatsink");
-    if (w.smallestDutyError && e.dutyError !== undefined) lead.push(`smallest duty error (${formatPercent(Math.abs(e.dutyError), 2)})`);
+    if (w.smallestDutyError && e.dutyError !== undefined)
+      lead.push(`smallest duty error (${formatPercent(Math.abs(e.dutyError), 2)})`);
     if (w.fewestParts && e.parts !== undefined) lead.push(`fewest parts (${e.parts})`);
-    if (lead.length === 0 && e.dissipation_W !== undefined) lead.push(`coolest switch of ${sameClass.length} feasible chain${sameClass.length === 1 ? "" : "s"} (${formatValue(e.dissipation_W, "W")})`);
+    if (lead.length === 0 && e.dissipation_W !== undefined)
+      lead.push(
+        `coolest switch of ${sameClass.length} feasible chain${sameClass.length === 1 ? "" : "s"} (${formatValue(e.dissipation_W, "W")})`,
+      );
     bits.push(lead.length ? `Best match: ${lead.join(", ")}` : "Best match");
   } else {
     const d = e.dissipation_W !== undefined ? `${formatValue(e.dissipation_W, "W")} in the switch` : "";
     bits.push([`${chainLabel(e.chain)}`, d].filter(Boolean).join(", "));
   }
-  if (e.load_A > q.load_A) bits.push(`rated ${formatValue(e.load_A, "A")}, the next class above ${formatValue(q.load_A, "A")}`);
+  if (e.load_A > q.load_A)
+    bits.push(`rated ${formatValue(e.load_A, "A")}, the next class above ${formatValue(q.load_A, "A")}`);
   else bits.push(`rated ${formatValue(e.load_A, "A")}`);
-  if (e.supply_V !== q.supply_V) bits.push(`sized for ${formatValue(e.supply_V, "V")} nominal, checked over ${formatValue(e.supplyMin_V, "V")} … ${formatValue(e.supplyMax_V, "V")}`);
+  if (e.supply_V !== q.supply_V)
+    bits.push(
+      `sized for ${formatValue(e.supply_V, "V")} nominal, checked over ${formatValue(e.supplyMin_V, "V")} … ${formatValue(e.supplyMax_V, "V")}`,
+    );
   bits.push(e.heatsinkText);
   return `${bits.join("; ")}.`;
 }
@@ -121,20 +129,33 @@ export function chooseVariants(index: readonly ChooserEntry[], q: ChooserQuery, 
   // A variant checked over 10.5–14.7 V says nothing about 18 V: its window must contain the request.
   const inWindow = sameKind.filter((e) => q.supply_V >= e.supplyMin_V - 1e-9 && q.supply_V <= e.supplyMax_V + 1e-9);
   if (inWindow.length === 0) {
-    const ranges = [...new Set(sameKind.map((e) => `${formatValue(e.supplyMin_V, "V")} … ${formatValue(e.supplyMax_V, "V")}`))].join(", ");
-    return { picks: [], note: `No variant for this load kind is checked at ${formatValue(q.supply_V, "V")}; the supply ranges offered are ${ranges}.` };
+    const ranges = [
+      ...new Set(sameKind.map((e) => `${formatValue(e.supplyMin_V, "V")} … ${formatValue(e.supplyMax_V, "V")}`)),
+    ].join(", ");
+    return {
+      picks: [],
+      note: `No variant for this load kind is checked at ${formatValue(q.supply_V, "V")}; the supply ranges offered are ${ranges}.`,
+    };
   }
   const supply = pickSupply([...new Set(inWindow.map((e) => e.supply_V))], q.supply_V)!;
   const atSupply = inWindow.filter((e) => e.supply_V === supply);
-  const classes = [...new Set(atSupply.filter((e) => e.load_A >= q.load_A).map((e) => e.load_A))].sort((a, b) => a - b).slice(0, 2);
+  const classes = [...new Set(atSupply.filter((e) => e.load_A >= q.load_A).map((e) => e.load_A))]
+    .sort((a, b) => a - b)
+    .slice(0, 2);
   if (classes.length === 0) {
     const top = Math.max(...atSupply.map((e) => e.load_A));
-    return { picks: [], note: `No variant at ${formatValue(supply, "V")} is rated for ${formatValue(q.load_A, "A")}; the largest current class offered is ${formatValue(top, "A")}.` };
+    return {
+      picks: [],
+      note: `No variant at ${formatValue(supply, "V")} is rated for ${formatValue(q.load_A, "A")}; the largest current class offered is ${formatValue(top, "A")}.`,
+    };
   }
   const group = atSupply.filter((e) => classes.includes(e.load_A)).sort((a, b) => compare(a, b, w));
   if (group.length === 0) return { picks: [], note: "No variant of this size is feasible." };
   const notes: string[] = [];
-  if (supply !== q.supply_V) notes.push(`No variant is sized for ${formatValue(q.supply_V, "V")} nominal; showing ${formatValue(supply, "V")}, whose checked supply range contains it. Check your load's voltage rating.`);
+  if (supply !== q.supply_V)
+    notes.push(
+      `No variant is sized for ${formatValue(q.supply_V, "V")} nominal; showing ${formatValue(supply, "V")}, whose checked supply range contains it. Check your load's voltage rating.`,
+    );
   if (w.noHeatsink && group[0]!.heatsinkNeeded) notes.push("Every match needs a heatsink at this size.");
   const picks = group.slice(0, limit).map((entry, rank) => ({ entry, reason: reasonFor(entry, rank, group, q, w) }));
   return { picks, note: notes.join(" ") };

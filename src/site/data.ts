@@ -50,7 +50,13 @@ export function buildSiteView(cat: BuiltCatalogue): SiteView {
     builtAt: cat.builtAt,
     version: cat.version,
     policy: `${cat.policy.title} (${cat.policy.document})`,
-    designs: cat.designs.map((d) => ({ id: d.record.id, title: d.record.title, summary: d.record.summary, url: designPage(d.record.id), counts: designCounts(d) })),
+    designs: cat.designs.map((d) => ({
+      id: d.record.id,
+      title: d.record.title,
+      summary: d.record.summary,
+      url: designPage(d.record.id),
+      counts: designCounts(d),
+    })),
     chooser: chooserView(cat),
     summary: {
       designs: cat.designs.length,

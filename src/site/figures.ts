@@ -12,7 +12,8 @@ import { KEY_FIGURES } from "../model/sized.ts";
 const PERCENT_KEYS = new Set(["efficiency", "frequency_error", "freewheel_recovery_share", "flicker_low_risk_limit"]);
 
 export function displayNumber(value: number, unit: string, key = ""): string {
-  if ((unit === "" || unit === "ratio") && (key.startsWith("duty") || PERCENT_KEYS.has(key))) return formatPercent(value);
+  if ((unit === "" || unit === "ratio") && (key.startsWith("duty") || PERCENT_KEYS.has(key)))
+    return formatPercent(value);
   return formatValue(value, unit);
 }
 

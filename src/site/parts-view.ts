@@ -35,7 +35,9 @@ export function partRow(p: Part): PartRow {
     kind: p.kind,
     description: p.description,
     value: VALUELESS.has(p.kind) || (p.value === 0 && p.unit === "") ? "—" : formatValue(p.value, p.unit),
-    series: [p.series ?? "", p.tolerance !== undefined ? `±${formatPercent(p.tolerance)}` : ""].filter((s) => s !== "").join(", "),
+    series: [p.series ?? "", p.tolerance !== undefined ? `±${formatPercent(p.tolerance)}` : ""]
+      .filter((s) => s !== "")
+      .join(", "),
     rating: quantities(p.rating),
     stress: quantities(p.stress),
     device: p.device ?? "",

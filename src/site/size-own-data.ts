@@ -14,7 +14,11 @@ export function sizeOwnData(cat: BuiltCatalogue, d: BuiltDesign): SizeOwnData | 
   if (!first) return null;
   const devices = new Map<string, DeviceClass>();
   for (const s of specs) for (const dev of Object.values(s.devices)) if (!devices.has(dev.id)) devices.set(dev.id, dev);
-  return { record: d.record, devices: [...devices.values()].sort((a, b) => (a.id < b.id ? -1 : 1)), policy: first.policy };
+  return {
+    record: d.record,
+    devices: [...devices.values()].sort((a, b) => (a.id < b.id ? -1 : 1)),
+    policy: first.policy,
+  };
 }
 
 /** JSON safe inside <script type="application/json">. */

@@ -43,35 +43,50 @@ export interface SizeOwnLimits {
  */
 export function sizeOwnLimits(rec: DesignRecord): SizeOwnLimits {
   const span = (xs: number[]): [number, number] => [Math.min(...xs), Math.max(...xs)];
-  return { supply_V: span(rec.axes.supply_V), load_A: span(rec.axes.load_A), pwm_Hz: [rec.targets.pwm_Hz / 2, rec.targets.pwm_Hz * 2], chains: [...rec.axes.chain], loadKinds: [...rec.axes.load_kind] };
+  return {
+    supply_V: span(rec.axes.supply_V),
+    load_A: span(rec.axes.load_A),
+    pwm_Hz: [rec.targets.pwm_Hz / 2, rec.targets.pwm_Hz * 2],
+    chains: [...rec.axes.chain],
+    loadKinds: [...rec.axes.load_kind],
+  };
 }
 
-export type SizeOwnResult =
-  | ({ ok: true; sized: SizedVariant } & VariantViews)
-  | { ok: false; errors: string[] };
+export type SizeOwnResult = ({ ok: true; sized: SizedVariant } & VariantViews) | { ok: false; errors: string[] };
 
 export function sizeOwn(data: SizeOwnData, input: SizeOwnInput, opts: { schematic?: boolean } = {}): SizeOwnResult {
   const lim = sizeOwnLimits(data.record);
   const errors: string[] = [];
   const inRange = (name: string, x: number, [lo, hi]: [number, number], unit: string) => {
-    if (!Number.isFinite(x) || x < lo || x > hi) errors.push(`${name} must be between ${formatValue(lo, unit)} and ${formatValue(hi, unit)} for this design.`);
+    if (!Number.isFinite(x) || x < lo || x > hi)
+      errors.push(`${name} must be between ${formatValue(lo, unit)} and ${formatValue(hi, unit)} for this design.`);
   };
   inRange("Supply voltage", input.supply_V, lim.supply_V, "V");
   inRange("Load current", input.load_A, lim.load_A, "A");
   inRange("PWM frequency", input.pwm_Hz, lim.pwm_Hz, "Hz");
-  if (!(lim.chains as string[]).includes(input.chain)) errors.push(`Output chain must be one of: ${lim.chains.join(", ")}.`);
-  if (!(lim.loadKinds as string[]).includes(input.load_kind)) errors.push(`Load kind must be one of: ${lim.loadKinds.join(", ")}.`);
+  if (!(lim.chains as string[]).includes(input.chain))
+    errors.push(`Output chain must be one of: ${lim.chains.join(", ")}.`);
+  if (!(lim.loadKinds as string[]).includes(input.load_kind))
+    errors.push(`Load kind must be one of: ${lim.loadKinds.join(", ")}.`);
   if (errors.length) return { ok: false, errors };
 
   const lib = new Map(data.devices.map((d) => [d.id, d] as const));
   const rec: DesignRecord = {
     ...data.record,
     targets: { ...data.record.targets, pwm_Hz: input.pwm_Hz },
-    axes: { supply_V: [input.supply_V], load_A: [input.load_A], chain: [input.chain as ChainKind], load_kind: [input.load_kind as LoadKind] },
+    axes: {
+      supply_V: [input.supply_V],
+      load_A: [input.load_A],
+      chain: [input.chain as ChainKind],
+      load_kind: [input.load_kind as LoadKind],
+    },
   };
   const [spec] = expandDesign(rec, { choose: (r, s, a, c) => chooseDevices(r, lib, s, a, c), policy: data.policy });
   if (!spec) return { ok: false, errors: ["Nothing to size for these inputs."] };
   const sized = sizeVariant(spec);
-  const views = renderVariantViews(sized, lib, { titleNote: "sized on request", ...(opts.schematic === false ? { schematic: false } : {}) });
+  const views = renderVariantViews(sized, lib, {
+    titleNote: "sized on request",
+    ...(opts.schematic === false ? { schematic: false } : {}),
+  });
   return { ok: true, sized, ...views };
 }

@@ -29,35 +29,63 @@ function firstNonFinite(value: unknown, pointer: string): string | null {
 /** Checks what the site relies on: safe unique ids, consistent design links, finite numbers. */
 export function validateCatalogue(cat: BuiltCatalogue): void {
   const top = "catalogue";
-  if (typeof cat.builtAt !== "string" || cat.builtAt === "") throw new RecordError(top, "/builtAt", "missing build date");
+  if (typeof cat.builtAt !== "string" || cat.builtAt === "")
+    throw new RecordError(top, "/builtAt", "missing build date");
   const designIds = new Set<string>();
   const variantIds = new Set<string>();
   cat.designs.forEach((d, di) => {
     const file = typeof d.file === "string" && d.file !== "" ? d.file : `design #${di}`;
     const at = `/designs/${di}`;
-    if (!isSafeId(d.record.id)) throw new RecordError(file, `${at}/record/id`, `design id ${JSON.stringify(d.record.id)} is not usable as a folder name (a-z, 0-9, '.', '_', '-')`);
-    if (designIds.has(d.record.id)) throw new RecordError(file, `${at}/record/id`, `design id "${d.record.id}" appears twice`);
+    if (!isSafeId(d.record.id))
+      throw new RecordError(
+        file,
+        `${at}/record/id`,
+        `design id ${JSON.stringify(d.record.id)} is not usable as a folder name (a-z, 0-9, '.', '_', '-')`,
+      );
+    if (designIds.has(d.record.id))
+      throw new RecordError(file, `${at}/record/id`, `design id "${d.record.id}" appears twice`);
     designIds.add(d.record.id);
     d.variants.forEach((v, vi) => {
       const vat = `${at}/variants/${vi}`;
       const id = v.sized.spec.id;
-      if (!isSafeId(id)) throw new RecordError(file, `${vat}/sized/spec/id`, `variant id ${JSON.stringify(id)} is not usable as a folder name`);
+      if (!isSafeId(id))
+        throw new RecordError(
+          file,
+          `${vat}/sized/spec/id`,
+          `variant id ${JSON.stringify(id)} is not usable as a folder name`,
+        );
       if (variantIds.has(id)) throw new RecordError(file, `${vat}/sized/spec/id`, `variant id "${id}" appears twice`);
       variantIds.add(id);
-      if (v.sized.spec.design !== d.record.id) throw new RecordError(file, `${vat}/sized/spec/design`, `variant "${id}" names design "${v.sized.spec.design}" but sits under "${d.record.id}"`);
+      if (v.sized.spec.design !== d.record.id)
+        throw new RecordError(
+          file,
+          `${vat}/sized/spec/design`,
+          `variant "${id}" names design "${v.sized.spec.design}" but sits under "${d.record.id}"`,
+        );
       const keys = new Set<string>();
       v.sized.figures.forEach((f, fi) => {
-        if (keys.has(f.key)) throw new RecordError(file, `${vat}/sized/figures/${fi}/key`, `figure key "${f.key}" appears twice in variant "${id}"`);
+        if (keys.has(f.key))
+          throw new RecordError(
+            file,
+            `${vat}/sized/figures/${fi}/key`,
+            `figure key "${f.key}" appears twice in variant "${id}"`,
+          );
         keys.add(f.key);
       });
-      const bad = firstNonFinite(v.sized, `${vat}/sized`) ?? firstNonFinite(v.verification ?? null, `${vat}/verification`);
+      const bad =
+        firstNonFinite(v.sized, `${vat}/sized`) ?? firstNonFinite(v.verification ?? null, `${vat}/verification`);
       if (bad) throw new RecordError(file, bad, `not a finite number in variant "${id}"`);
     });
   });
   cat.designs.forEach((d, di) =>
     d.variants.forEach((v, vi) => {
       const alt = v.sized.alternative;
-      if (alt && !variantIds.has(alt.id)) throw new RecordError(d.file, `/designs/${di}/variants/${vi}/sized/alternative/id`, `alternative "${alt.id}" is not in the catalogue`);
+      if (alt && !variantIds.has(alt.id))
+        throw new RecordError(
+          d.file,
+          `/designs/${di}/variants/${vi}/sized/alternative/id`,
+          `alternative "${alt.id}" is not in the catalogue`,
+        );
     }),
   );
 }

@@ -9,7 +9,11 @@ import type { BuiltCatalogue, BuiltDesign, BuiltVariant } from "../model/catalog
 export function variantJson(v: BuiltVariant, d: BuiltDesign, cat: BuiltCatalogue): object {
   const s = v.sized;
   const spec = s.spec;
-  const devices = Object.fromEntries(Object.entries(spec.devices).sort(([a], [b]) => a.localeCompare(b)).map(([role, dev]) => [role, dev.id]));
+  const devices = Object.fromEntries(
+    Object.entries(spec.devices)
+      .sort(([a], [b]) => a.localeCompare(b))
+      .map(([role, dev]) => [role, dev.id]),
+  );
   const ver = v.verification;
   return {
     id: spec.id,

@@ -30,7 +30,12 @@ export interface VerificationView {
 
 function tolerance(c: Comparison): string {
   if (c.bound === "upper") {
-    const allowance = c.tol_abs !== undefined ? ` + ${displayNumber(c.tol_abs, c.unit, c.key)}` : c.tol_rel !== undefined ? ` + ${formatPercent(c.tol_rel)}` : "";
+    const allowance =
+      c.tol_abs !== undefined
+        ? ` + ${displayNumber(c.tol_abs, c.unit, c.key)}`
+        : c.tol_rel !== undefined
+          ? ` + ${formatPercent(c.tol_rel)}`
+          : "";
     return `simulated ≤ bound${allowance}`;
   }
   if (c.tol_abs !== undefined) return `± ${displayNumber(c.tol_abs, c.unit, c.key)}`;
@@ -70,4 +75,3 @@ export function verificationView(v: Verification | undefined): VerificationView 
     disagree: rows.filter((r) => r.cls !== "ok").length,
   };
 }
-

@@ -27,7 +27,14 @@ export function chooserView(cat: BuiltCatalogue): ChooserView {
       for (const a of [...new Set(ofKind.filter((e) => e.supply_V === s).map((e) => e.load_A))].sort((x, y) => x - y)) {
         const pick = chooseVariants(index, { supply_V: s, load_A: a, load_kind: k }, 1).picks[0];
         if (!pick) continue;
-        staticPicks.push({ load: loadLabel(k), supply: formatValue(s, "V"), current: formatValue(a, "A"), url: pick.entry.url, label: `${pick.entry.designTitle}: ${chainLabel(pick.entry.chain)}`, reason: pick.reason });
+        staticPicks.push({
+          load: loadLabel(k),
+          supply: formatValue(s, "V"),
+          current: formatValue(a, "A"),
+          url: pick.entry.url,
+          label: `${pick.entry.designTitle}: ${chainLabel(pick.entry.chain)}`,
+          reason: pick.reason,
+        });
       }
     }
   }

@@ -11,7 +11,17 @@ import { variantPage } from "./paths.ts";
 export interface CompareTable {
   key: string;
   caption: string;
-  rows: { url: string; chain: string; symbol: string; word: string; cls: string; dissipation: string; dutyError: string; heatsink: string; parts: string }[];
+  rows: {
+    url: string;
+    chain: string;
+    symbol: string;
+    word: string;
+    cls: string;
+    dissipation: string;
+    dutyError: string;
+    heatsink: string;
+    parts: string;
+  }[];
 }
 
 const LOAD_PARTS = new Set(["motor", "lamp", "heater", "led-strip"]);

@@ -40,23 +40,59 @@ export interface DesignView {
   file: string;
   targets: { label: string; value: string }[];
   tables: MatrixTable[];
-  variants: { id: string; url: string; supply: string; current: string; chain: string; load: string; symbol: string; word: string; cls: string; sim: string; simCls: string }[];
+  variants: {
+    id: string;
+    url: string;
+    supply: string;
+    current: string;
+    chain: string;
+    load: string;
+    symbol: string;
+    word: string;
+    cls: string;
+    sim: string;
+    simCls: string;
+  }[];
   counts: DesignCounts;
   footerFile: string;
 }
 
 export function designCounts(d: BuiltDesign): DesignCounts {
   const st = (s: string) => d.variants.filter((v) => v.verification?.status === s).length;
-  return { variants: d.variants.length, feasible: d.variants.filter((v) => v.sized.feasible).length, agree: st("agree"), disagree: st("disagree"), failed: st("failed") };
+  return {
+    variants: d.variants.length,
+    feasible: d.variants.filter((v) => v.sized.feasible).length,
+    agree: st("agree"),
+    disagree: st("disagree"),
+    failed: st("failed"),
+  };
 }
 
-const EMPTY_CELL: MatrixCell = { present: false, url: "", id: "", symbol: "—", word: "not offered", cls: "muted", sim: "", simCls: "" };
+const EMPTY_CELL: MatrixCell = {
+  present: false,
+  url: "",
+  id: "",
+  symbol: "—",
+  word: "not offered",
+  cls: "muted",
+  sim: "",
+  simCls: "",
+};
 
 function cell(v: BuiltVariant | undefined): MatrixCell {
   if (!v) return EMPTY_CELL;
   const f = verdictWords(v.sized.verdict.status);
   const sim = SIM_WORDS[v.verification?.status ?? "skipped"];
-  return { present: true, url: variantPage(v.sized.spec.id), id: v.sized.spec.id, symbol: f.symbol, word: f.word, cls: f.cls, sim: v.sized.feasible ? sim.word : "", simCls: sim.cls };
+  return {
+    present: true,
+    url: variantPage(v.sized.spec.id),
+    id: v.sized.spec.id,
+    symbol: f.symbol,
+    word: f.word,
+    cls: f.cls,
+    sim: v.sized.feasible ? sim.word : "",
+    simCls: sim.cls,
+  };
 }
 
 /** One table per load kind: rows supply × current (ascending), columns chain (the record's order). */
@@ -65,17 +101,34 @@ function tables(d: BuiltDesign): MatrixTable[] {
   const supplies = [...new Set(d.variants.map((v) => v.sized.spec.supply_V))].sort((a, b) => a - b);
   const currents = [...new Set(d.variants.map((v) => v.sized.spec.load_A))].sort((a, b) => a - b);
   const present = new Set(d.variants.map((v) => v.sized.spec.chain as string));
-  const chains = [...ax.chain.filter((c) => present.has(c)), ...[...present].filter((c) => !(ax.chain as string[]).includes(c)).sort()];
+  const chains = [
+    ...ax.chain.filter((c) => present.has(c)),
+    ...[...present].filter((c) => !(ax.chain as string[]).includes(c)).sort(),
+  ];
   const loadsPresent = new Set(d.variants.map((v) => v.sized.spec.load_kind as string));
-  const loads = [...ax.load_kind.filter((k) => loadsPresent.has(k)), ...[...loadsPresent].filter((k) => !(ax.load_kind as string[]).includes(k)).sort()];
+  const loads = [
+    ...ax.load_kind.filter((k) => loadsPresent.has(k)),
+    ...[...loadsPresent].filter((k) => !(ax.load_kind as string[]).includes(k)).sort(),
+  ];
   return loads.map((load) => ({
     loadKind: load,
-    caption: loads.length > 1 ? `Variants for this load kind: ${loadLabel(load)}` : `Variants (load kind: ${loadLabel(load)})`,
+    caption:
+      loads.length > 1 ? `Variants for this load kind: ${loadLabel(load)}` : `Variants (load kind: ${loadLabel(load)})`,
     chains: chains.map((c) => ({ key: c, label: chainLabel(c) })),
     rows: supplies.flatMap((s) =>
       currents.map((i) => ({
         header: `${formatValue(s, "V")}, ${formatValue(i, "A")}`,
-        cells: chains.map((c) => cell(d.variants.find((v) => v.sized.spec.supply_V === s && v.sized.spec.load_A === i && v.sized.spec.chain === c && v.sized.spec.load_kind === load))),
+        cells: chains.map((c) =>
+          cell(
+            d.variants.find(
+              (v) =>
+                v.sized.spec.supply_V === s &&
+                v.sized.spec.load_A === i &&
+                v.sized.spec.chain === c &&
+                v.sized.spec.load_kind === load,
+            ),
+          ),
+        ),
       })),
     ),
   }));
@@ -89,13 +142,22 @@ export function designView(d: BuiltDesign): DesignView {
     { label: "PWM frequency", value: formatValue(t.pwm_Hz, "Hz") },
     { label: "Duty range", value: `${formatPercent(t.duty_min)} … ${formatPercent(t.duty_max)}` },
     { label: "Ambient", value: `${formatValue(t.ambient_C[0], "°C")} … ${formatValue(t.ambient_C[1], "°C")}` },
-    { label: "Supplies (each with the range every worst case uses)", value: [...new Map(d.variants.map((v) => [v.sized.spec.supply_V, v.sized.spec.supply_window])).values()]
-      .map((w) => `${formatValue(w.nominal_V, "V")} (${formatValue(w.min_V, "V")} … ${formatValue(w.max_V, "V")}, ${w.basis === "battery" ? w.text : w.basis === "declared" ? "stated window" : `±${formatPercent(t.supply_tolerance)}`})`).join("; ") },
+    {
+      label: "Supplies (each with the range every worst case uses)",
+      value: [...new Map(d.variants.map((v) => [v.sized.spec.supply_V, v.sized.spec.supply_window])).values()]
+        .map(
+          (w) =>
+            `${formatValue(w.nominal_V, "V")} (${formatValue(w.min_V, "V")} … ${formatValue(w.max_V, "V")}, ${w.basis === "battery" ? w.text : w.basis === "declared" ? "stated window" : `±${formatPercent(t.supply_tolerance)}`})`,
+        )
+        .join("; "),
+    },
     { label: "Load currents", value: r.axes.load_A.map((v) => formatValue(v, "A")).join(", ") },
     { label: "Load kinds", value: r.axes.load_kind.map(loadLabel).join(", ") },
   ];
-  if (t.duty_skew_max !== undefined) targets.push({ label: "Largest timing-core duty skew", value: formatPercent(t.duty_skew_max) });
-  if (t.heatsink_min_KperW !== undefined) targets.push({ label: "Smallest acceptable heatsink", value: formatValue(t.heatsink_min_KperW, "K/W") });
+  if (t.duty_skew_max !== undefined)
+    targets.push({ label: "Largest timing-core duty skew", value: formatPercent(t.duty_skew_max) });
+  if (t.heatsink_min_KperW !== undefined)
+    targets.push({ label: "Smallest acceptable heatsink", value: formatValue(t.heatsink_min_KperW, "K/W") });
   return {
     id: r.id,
     page,
@@ -110,7 +172,19 @@ export function designView(d: BuiltDesign): DesignView {
     variants: d.variants.map((v) => {
       const c = cell(v);
       const s = v.sized.spec;
-      return { id: s.id, url: c.url, supply: formatValue(s.supply_V, "V"), current: formatValue(s.load_A, "A"), chain: chainLabel(s.chain), load: loadLabel(s.load_kind), symbol: c.symbol, word: c.word, cls: c.cls, sim: c.sim, simCls: c.simCls };
+      return {
+        id: s.id,
+        url: c.url,
+        supply: formatValue(s.supply_V, "V"),
+        current: formatValue(s.load_A, "A"),
+        chain: chainLabel(s.chain),
+        load: loadLabel(s.load_kind),
+        symbol: c.symbol,
+        word: c.word,
+        cls: c.cls,
+        sim: c.sim,
+        simCls: c.simCls,
+      };
     }),
     counts: designCounts(d),
     footerFile: d.file,

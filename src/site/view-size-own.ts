@@ -18,7 +18,12 @@ export function sizeOwnView(cat: BuiltCatalogue, d: BuiltDesign): SizeOwnView | 
   const data = sizeOwnData(cat, d);
   if (!data) return null;
   const l = sizeOwnLimits(d.record);
-  const range = ([lo, hi]: [number, number], unit: string, value: number) => ({ min: lo, max: hi, value, text: `${formatValue(lo, unit)} … ${formatValue(hi, unit)}` });
+  const range = ([lo, hi]: [number, number], unit: string, value: number) => ({
+    min: lo,
+    max: hi,
+    value,
+    text: `${formatValue(lo, unit)} … ${formatValue(hi, unit)}`,
+  });
   return {
     json: embedJson(data),
     supply: range(l.supply_V, "V", l.supply_V[1]),

@@ -24,7 +24,15 @@ export interface VariantView {
   spec: { label: string; value: string }[];
   feasible: boolean;
   /** The engine's one verdict: words, the reason (not feasible) and each condition (feasible with conditions). */
-  verdict: { status: string; symbol: string; word: string; cls: string; reason: string; conditions: string[]; blocking: string[] };
+  verdict: {
+    status: string;
+    symbol: string;
+    word: string;
+    cls: string;
+    reason: string;
+    conditions: string[];
+    blocking: string[];
+  };
   alternative: { url: string; label: string; why: string } | null;
   figures: FigureRow[];
   schematicSvg: string;
@@ -46,7 +54,10 @@ export interface VariantView {
  */
 export function inlineSvg(svg: string | undefined): string {
   if (!svg) return "";
-  return svg.replace(/^\uFEFF?\s*<\?xml[^>]*\?>\s*/, "").replace(/^\s*<!DOCTYPE[^>]*>\s*/i, "").trim();
+  return svg
+    .replace(/^\uFEFF?\s*<\?xml[^>]*\?>\s*/, "")
+    .replace(/^\s*<!DOCTYPE[^>]*>\s*/i, "")
+    .trim();
 }
 
 const SEVERITY_ORDER = { error: 0, warning: 1, note: 2 } as const;
@@ -73,7 +84,10 @@ export function variantView(v: BuiltVariant, d: BuiltDesign, cat: BuiltCatalogue
     design: { id: d.record.id, title: d.record.title, url: designPage(d.record.id), file: d.file },
     spec: [
       { label: "Supply (nominal)", value: `${formatValue(spec.supply_V, "V")} DC` },
-      { label: "Supply range (every worst case)", value: `${formatValue(spec.supply_window.min_V, "V")} … ${formatValue(spec.supply_window.max_V, "V")}: ${spec.supply_window.text}` },
+      {
+        label: "Supply range (every worst case)",
+        value: `${formatValue(spec.supply_window.min_V, "V")} … ${formatValue(spec.supply_window.max_V, "V")}: ${spec.supply_window.text}`,
+      },
       { label: "Load current (rated)", value: formatValue(spec.load_A, "A") },
       { label: "Load kind", value: loadLabel(spec.load_kind) },
       { label: "Output chain", value: chainLabel(spec.chain) },
@@ -83,8 +97,11 @@ export function variantView(v: BuiltVariant, d: BuiltDesign, cat: BuiltCatalogue
     ],
     feasible: s.feasible,
     verdict: {
-      status: s.verdict.status, ...verdict, reason: s.verdict.status === "not-feasible" ? s.verdict.summary : "",
-      conditions: s.verdict.conditions.map((c) => c.text), blocking: s.verdict.blocking.map((b) => b.message),
+      status: s.verdict.status,
+      ...verdict,
+      reason: s.verdict.status === "not-feasible" ? s.verdict.summary : "",
+      conditions: s.verdict.conditions.map((c) => c.text),
+      blocking: s.verdict.blocking.map((b) => b.message),
     },
     alternative: alt ? { url: variantPage(alt.id), label: `${chainLabel(alt.chain)} (${alt.id})`, why: alt.why } : null,
     figures: orderedFigureRows(s.figures),

@@ -25,7 +25,8 @@ export interface WriteSiteOptions {
 
 async function countFiles(dir: string): Promise<number> {
   let n = 0;
-  for (const e of await readdir(dir, { withFileTypes: true })) n += e.isDirectory() ? await countFiles(path.join(dir, e.name)) : 1;
+  for (const e of await readdir(dir, { withFileTypes: true }))
+    n += e.isDirectory() ? await countFiles(path.join(dir, e.name)) : 1;
   return n;
 }
 
@@ -46,7 +47,8 @@ export async function writeSiteFiles(cat: BuiltCatalogue, outDir: string): Promi
   }
   await writeFile(path.join(outDir, "catalogue.json"), catalogueJsonText(cat), "utf8");
   await mkdir(path.join(outDir, "assets"), { recursive: true });
-  for (const name of (await readdir(ASSETS_DIR)).sort()) await copyFile(path.join(ASSETS_DIR, name), path.join(outDir, "assets", name));
+  for (const name of (await readdir(ASSETS_DIR)).sort())
+    await copyFile(path.join(ASSETS_DIR, name), path.join(outDir, "assets", name));
   await writeBrowserScripts(outDir);
   // Last: the search index reads the finished pages.
   await writeSearchIndex(outDir);
@@ -57,7 +59,11 @@ export async function writeSiteFiles(cat: BuiltCatalogue, outDir: string): Promi
  * touched or deleted). Same catalogue → byte-identical files. Throws RecordError, naming the
  * design file and a pointer into the catalogue, when the catalogue cannot be published.
  */
-export async function writeSite(cat: BuiltCatalogue, outDir: string, opts: WriteSiteOptions = {}): Promise<{ pages: number; files: number }> {
+export async function writeSite(
+  cat: BuiltCatalogue,
+  outDir: string,
+  opts: WriteSiteOptions = {},
+): Promise<{ pages: number; files: number }> {
   validateCatalogue(cat);
   const view = buildSiteView(cat);
   const out = path.resolve(outDir);

@@ -14,7 +14,18 @@ import type { VerifyTarget } from "./target.ts";
 export const DEFAULT_CACHE_DIR = ".cache/sim";
 
 export function cacheKey(netlist: string, engine: { name: EngineName; version: string }, target: VerifyTarget): string {
-  const plan = JSON.stringify([target.highSide, target.inductive, target.tapNet, target.chainInputNet, target.switchNet, target.powerRefs, target.period_s, target.loadTau_s, target.loadEmf_V, target.predicted["chain_threshold"]?.value ?? null]);
+  const plan = JSON.stringify([
+    target.highSide,
+    target.inductive,
+    target.tapNet,
+    target.chainInputNet,
+    target.switchNet,
+    target.powerRefs,
+    target.period_s,
+    target.loadTau_s,
+    target.loadEmf_V,
+    target.predicted["chain_threshold"]?.value ?? null,
+  ]);
   return createHash("sha256")
     .update(netlist)
     .update("\0")
@@ -55,5 +66,11 @@ function isMeasured(x: unknown): x is Measured {
   const o = x as Record<string, unknown>;
   if (typeof o["elapsed_s"] !== "number") return false;
   if (o["ok"] === false) return typeof o["message"] === "string";
-  return o["ok"] === true && Array.isArray(o["measurements"]) && o["measurements"].every((m) => typeof m === "object" && m !== null && Number.isFinite((m as { value?: unknown }).value));
+  return (
+    o["ok"] === true &&
+    Array.isArray(o["measurements"]) &&
+    o["measurements"].every(
+      (m) => typeof m === "object" && m !== null && Number.isFinite((m as { value?: unknown }).value),
+    )
+  );
 }

@@ -51,13 +51,18 @@ export const CHECKS: readonly Check[] = [
     if (tol === undefined) throw new EngineMisuseError(`compare.ts: no tolerance for ${key}`);
     return { key, measured, tol };
   }),
-  ...SIM_FIGURES.filter((k) => k.endsWith("_nominal") && k !== "frequency_nominal").map(
-    (k): Check => ({ key: k.replace(/_nominal$/, ""), measured: k.replace(/_nominal$/, ""), tol: { rel: 0.05 }, bound: "upper" }),
-  ),
+  ...SIM_FIGURES.filter((k) => k.endsWith("_nominal") && k !== "frequency_nominal").map((k): Check => ({
+    key: k.replace(/_nominal$/, ""),
+    measured: k.replace(/_nominal$/, ""),
+    tol: { rel: 0.05 },
+    bound: "upper",
+  })),
 ];
 
 /** Tolerances by predicted key (two-sided checks only); kept for callers that show the bands. */
-export const TOLERANCES: Readonly<Record<string, Tolerance>> = Object.fromEntries(CHECKS.filter((c) => !c.bound).map((c) => [c.key, c.tol]));
+export const TOLERANCES: Readonly<Record<string, Tolerance>> = Object.fromEntries(
+  CHECKS.filter((c) => !c.bound).map((c) => [c.key, c.tol]),
+);
 
 export function withinTolerance(predicted: number, simulated: number, tol: Tolerance): boolean {
   const allowed = Math.max((tol.rel ?? 0) * Math.abs(predicted), tol.abs ?? 0);
@@ -76,13 +81,28 @@ export function compare(predicted: Record<string, Predicted>, measurements: read
     const m = measurements.find((x) => x.key === chk.measured);
     if (p === undefined || m === undefined || !Number.isFinite(p.value)) continue;
     if (chk.bound) {
-      const c: Comparison = { key: chk.key, label: `${p.label} (worst-case bound: simulated must not exceed it)`, unit: p.unit, predicted: p.value, simulated: m.value, bound: "upper", ok: withinBound(p.value, m.value, chk.tol) };
+      const c: Comparison = {
+        key: chk.key,
+        label: `${p.label} (worst-case bound: simulated must not exceed it)`,
+        unit: p.unit,
+        predicted: p.value,
+        simulated: m.value,
+        bound: "upper",
+        ok: withinBound(p.value, m.value, chk.tol),
+      };
       if (chk.tol.rel !== undefined) c.tol_rel = chk.tol.rel;
       if (chk.tol.abs !== undefined) c.tol_abs = chk.tol.abs;
       out.push(c);
       continue;
     }
-    const c: Comparison = { key: chk.key, label: p.label, unit: p.unit, predicted: p.value, simulated: m.value, ok: withinTolerance(p.value, m.value, chk.tol) };
+    const c: Comparison = {
+      key: chk.key,
+      label: p.label,
+      unit: p.unit,
+      predicted: p.value,
+      simulated: m.value,
+      ok: withinTolerance(p.value, m.value, chk.tol),
+    };
     if (chk.tol.rel !== undefined) c.tol_rel = chk.tol.rel;
     if (chk.tol.abs !== undefined) c.tol_abs = chk.tol.abs;
     out.push(c);
@@ -109,7 +129,9 @@ export function judge(
   } else if (bad.length > 0) {
     v.status = "disagree";
     const say = (c: Comparison): string =>
-      c.bound ? `${c.key} simulated ${c.simulated} exceeds the worst-case bound ${c.predicted}` : `${c.key} predicted ${c.predicted}, simulated ${c.simulated}`;
+      c.bound
+        ? `${c.key} simulated ${c.simulated} exceeds the worst-case bound ${c.predicted}`
+        : `${c.key} predicted ${c.predicted}, simulated ${c.simulated}`;
     v.message = `outside tolerance: ${bad.map(say).join("; ")}`;
   }
   return v;

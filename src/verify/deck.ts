@@ -35,7 +35,10 @@ export function simDeck(netlist: string, o: DeckOptions): string {
     .replace(/^\s*\.(tran|ac|dc|op|noise)\b.*$/gim, "")
     .replace(/^\s*\.end\s*$/im, "")
     .replace(/\s+$/, "");
-  const extra = [`.options method=gear${o.options ? ` ${o.options}` : ""}`, `.tran ${o.tMax_s} ${o.tStop_s} 0 ${o.tMax_s}`];
+  const extra = [
+    `.options method=gear${o.options ? ` ${o.options}` : ""}`,
+    `.tran ${o.tMax_s} ${o.tStop_s} 0 ${o.tMax_s}`,
+  ];
   if (!/^\s*\.ic\b/im.test(body)) extra.unshift(`.ic v(${o.kickNet})=${supplyVoltage(netlist)}`);
   return `${body}\n${extra.join("\n")}\n.end\n`;
 }

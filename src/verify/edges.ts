@@ -45,7 +45,9 @@ export function crossings(t: ArrayLike<number>, y: ArrayLike<number>, level: num
  * swing through the level would otherwise count as a switching cycle.
  */
 export function debounce(e: Edges, minPulse_s: number): Edges {
-  const ev = [...e.rising_s.map((t) => ({ t, up: true })), ...e.falling_s.map((t) => ({ t, up: false }))].sort((a, b) => a.t - b.t);
+  const ev = [...e.rising_s.map((t) => ({ t, up: true })), ...e.falling_s.map((t) => ({ t, up: false }))].sort(
+    (a, b) => a.t - b.t,
+  );
   const out: typeof ev = [];
   for (const x of ev) {
     const last = out[out.length - 1];

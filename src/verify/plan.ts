@@ -6,7 +6,17 @@
 import type { Measurement, WaveformSet } from "../model/verification.ts";
 import type { PwmTiming } from "./edges.ts";
 import type { SpiceEngine } from "./engines/types.ts";
-import { DEFAULT_RUN_PLAN, loadTiming, loadVoltage, onCurrent, runAt, switchVoltage, vec, type Run, type RunPlan } from "./runs.ts";
+import {
+  DEFAULT_RUN_PLAN,
+  loadTiming,
+  loadVoltage,
+  onCurrent,
+  runAt,
+  switchVoltage,
+  vec,
+  type Run,
+  type RunPlan,
+} from "./runs.ts";
 import { meanOnState, peakAfter, pwmTiming, timeAverage, upperLevel, valueAt } from "./measure.ts";
 import { plotWaveforms } from "./waveforms.ts";
 import type { VerifyTarget } from "./target.ts";
@@ -19,7 +29,12 @@ export type Measured =
   | { ok: true; measurements: Measurement[]; waveforms?: WaveformSet; elapsed_s: number }
   | { ok: false; message: string; elapsed_s: number };
 
-export async function measureVariant(target: VerifyTarget, netlist: string, engine: SpiceEngine, plan: RunPlan = DEFAULT_RUN_PLAN): Promise<Measured> {
+export async function measureVariant(
+  target: VerifyTarget,
+  netlist: string,
+  engine: SpiceEngine,
+  plan: RunPlan = DEFAULT_RUN_PLAN,
+): Promise<Measured> {
   const start = performance.now();
   const elapsed = (): number => (performance.now() - start) / 1000;
   try {
@@ -33,7 +48,12 @@ export async function measureVariant(target: VerifyTarget, netlist: string, engi
   }
 }
 
-function collect(target: VerifyTarget, low: Run, mid: Run, high: Run): { measurements: Measurement[]; waveforms: WaveformSet } {
+function collect(
+  target: VerifyTarget,
+  low: Run,
+  mid: Run,
+  high: Run,
+): { measurements: Measurement[]; waveforms: WaveformSet } {
   const out: Measurement[] = [];
   const put = (key: string, label: string, unit: string, value: number): void => {
     if (Number.isFinite(value)) out.push({ key, label, unit, value });
@@ -41,13 +61,20 @@ function collect(target: VerifyTarget, low: Run, mid: Run, high: Run): { measure
   // A core that stops at an end of the control gives the load a constant 0 or 1 there: shown as
   // information beside the duty (which the comparison then judges), not a failure of the run.
   for (const run of [low, high]) {
-    put(`core_running_ctrl${run.ctrl}`, `Timing core oscillates at control ${run.ctrl} (1 yes, 0 stopped)`, "", describeCore(run).stopped ? 0 : 1);
+    put(
+      `core_running_ctrl${run.ctrl}`,
+      `Timing core oscillates at control ${run.ctrl} (1 yes, 0 stopped)`,
+      "",
+      describeCore(run).stopped ? 0 : 1,
+    );
   }
   const iOn_A = onCurrent(high);
-  if (!(iOn_A > 1e-4)) throw new SpiceRunError(`the load never switches on at ctrl = 1 (on-current ${iOn_A} A); ${coreState(high)}`);
+  if (!(iOn_A > 1e-4))
+    throw new SpiceRunError(`the load never switches on at ctrl = 1 (on-current ${iOn_A} A); ${coreState(high)}`);
 
   const tMid = loadTiming(target, mid, iOn_A);
-  if (tMid.kind !== "pwm") throw new SpiceRunError(`no oscillation at the load at ctrl = 0.5 (${describe(tMid)}); ${coreState(mid)}`);
+  if (tMid.kind !== "pwm")
+    throw new SpiceRunError(`no oscillation at the load at ctrl = 0.5 (${describe(tMid)}); ${coreState(mid)}`);
   put("frequency_nominal", "PWM frequency at mid control", "Hz", tMid.frequency_Hz);
   put("duty_mid", "Duty at the load, control 0.5", "", tMid.duty);
   put("frequency_spread", "Period spread over the settled periods, control 0.5", "", tMid.spread);
@@ -55,14 +82,24 @@ function collect(target: VerifyTarget, low: Run, mid: Run, high: Run): { measure
   // the load's own turn-on edges, so it holds for inverting chains too (input falling), but it
   // includes the chain's turn-on delay; the threshold's effect on timing is checked via the duty.
   const input = vec(mid, `v(${target.chainInputNet})`);
-  put("chain_input_at_turn_on", "Chain input voltage at the load's turn-on edges, control 0.5", "V", mean(tMid.on.map(([r]) => valueAt(mid.t, input, r))));
+  put(
+    "chain_input_at_turn_on",
+    "Chain input voltage at the load's turn-on edges, control 0.5",
+    "V",
+    mean(tMid.on.map(([r]) => valueAt(mid.t, input, r))),
+  );
   put("core_symmetry", "Timing core: share of the period collector A is high, control 0.5", "", coreSymmetry(mid));
 
-  for (const [run, key] of [[low, "duty_min"], [high, "duty_max"]] as const) {
+  for (const [run, key] of [
+    [low, "duty_min"],
+    [high, "duty_max"],
+  ] as const) {
     const tm = loadTiming(target, run, iOn_A);
-    if (tm.kind === "too-few") throw new SpiceRunError(`too few settled periods at ctrl = ${run.ctrl} (${tm.periods}); ${coreState(run)}`);
+    if (tm.kind === "too-few")
+      throw new SpiceRunError(`too few settled periods at ctrl = ${run.ctrl} (${tm.periods}); ${coreState(run)}`);
     put(key, `Duty at the load, control ${run.ctrl}`, "", tm.duty);
-    if (tm.kind === "pwm") put(`frequency_ctrl${run.ctrl}`, `PWM frequency at control ${run.ctrl}`, "Hz", tm.frequency_Hz);
+    if (tm.kind === "pwm")
+      put(`frequency_ctrl${run.ctrl}`, `PWM frequency at control ${run.ctrl}`, "Hz", tm.frequency_Hz);
   }
 
   // Rated-load figures at ctrl = 1: the highest duty, where the power device runs hottest.
@@ -73,14 +110,27 @@ function collect(target: VerifyTarget, low: Run, mid: Run, high: Run): { measure
   put("load_on_voltage", "Load voltage when on, control 1", "V", meanOnState(high.t, loadVoltage(target, high), on));
   put("load_current_on", "Load current when on, control 1", "A", meanOnState(high.t, vec(high, "i(vsense)"), on));
   put("switch_on_voltage", "Switch voltage when on, control 1", "V", meanOnState(high.t, vSw, on));
-  put("device_dissipation", "Power device average dissipation, control 1", "W", timeAverage(high.t, devicePower(target, high, vSw), p0, p1));
+  put(
+    "device_dissipation",
+    "Power device average dissipation, control 1",
+    "W",
+    timeAverage(high.t, devicePower(target, high, vSw), p0, p1),
+  );
   const retries = [low, mid, high].filter((r) => r.retried).length;
   if (retries > 0) put("solver_retries", "Runs that needed a solver retry (of 3)", "", retries);
   const level = Math.max(0, ...[low, mid, high].map((r) => r.retryLevel ?? 0));
-  if (level > 0) put("solver_retry_level", "Highest solver retry used (1 looser tolerances, 2 stiff-circuit settings)", "", level);
-  put("timing_from_gate", "Load on/off timed at the switch's gate (1) or at the switched node / load current (0)", "", mid.gate !== undefined ? 1 : 0);
-  if (mid.base !== undefined) put("on_needs_base", "Load on only while the BJT switch's base is past cut-in (1)", "", 1);
-  if (target.inductive) put("switch_peak_voltage", "Peak switch voltage at turn-off", "V", peakAfter(high.t, vSw, high.from_s));
+  if (level > 0)
+    put("solver_retry_level", "Highest solver retry used (1 looser tolerances, 2 stiff-circuit settings)", "", level);
+  put(
+    "timing_from_gate",
+    "Load on/off timed at the switch's gate (1) or at the switched node / load current (0)",
+    "",
+    mid.gate !== undefined ? 1 : 0,
+  );
+  if (mid.base !== undefined)
+    put("on_needs_base", "Load on only while the BJT switch's base is past cut-in (1)", "", 1);
+  if (target.inductive)
+    put("switch_peak_voltage", "Peak switch voltage at turn-off", "V", peakAfter(high.t, vSw, high.from_s));
   return { measurements: out, waveforms: plotWaveforms(target, mid, tMid) };
 }
 
@@ -115,7 +165,8 @@ function describeCore(run: Run): { stopped: boolean; text: string } {
     const y = vec(run, `v(${net})`);
     let lo = Infinity;
     let hi = -Infinity;
-    for (let k = 0; k < y.length; k++) if (run.t[k]! >= run.from_s) [lo, hi] = [Math.min(lo, y[k]!), Math.max(hi, y[k]!)];
+    for (let k = 0; k < y.length; k++)
+      if (run.t[k]! >= run.from_s) [lo, hi] = [Math.min(lo, y[k]!), Math.max(hi, y[k]!)];
     return [lo, hi];
   };
   const [a, b] = [swing("ca"), swing("cb")];
@@ -123,9 +174,15 @@ function describeCore(run: Run): { stopped: boolean; text: string } {
   const fmt = (r: [number, number]): string => `${r[0].toFixed(2)}…${r[1].toFixed(2)} V`;
   if (still(a) && still(b)) {
     const low = a[1] < 0.2 * run.vbus_V && b[1] < 0.2 * run.vbus_V;
-    return { stopped: true, text: `the timing core has stopped (ca ${fmt(a)}, cb ${fmt(b)}${low ? ": both transistors held on" : ""})` };
+    return {
+      stopped: true,
+      text: `the timing core has stopped (ca ${fmt(a)}, cb ${fmt(b)}${low ? ": both transistors held on" : ""})`,
+    };
   }
-  return { stopped: false, text: `the timing core runs (ca ${fmt(a)}, cb ${fmt(b)}), so the chain or the load does not conduct` };
+  return {
+    stopped: false,
+    text: `the timing core runs (ca ${fmt(a)}, cb ${fmt(b)}), so the chain or the load does not conduct`,
+  };
 }
 
 /** t_high(A) / (t_high(A) + t_high(B)); 0.5 = symmetric. Each collector's level is its own mid-swing. */
@@ -147,5 +204,7 @@ function mean(xs: number[]): number {
 }
 
 function describe(t: PwmTiming): string {
-  return t.kind === "constant" ? `load stays ${t.duty === 1 ? "on" : "off"}` : `${t.kind === "too-few" ? t.periods : "?"} settled periods`;
+  return t.kind === "constant"
+    ? `load stays ${t.duty === 1 ? "on" : "off"}`
+    : `${t.kind === "too-few" ? t.periods : "?"} settled periods`;
 }

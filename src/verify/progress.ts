@@ -7,7 +7,9 @@ import type { PoolProgress } from "./pool.ts";
 export function formatProgress(p: PoolProgress): string {
   const rate = p.rate_per_s > 0 ? `${p.rate_per_s.toFixed(1)} sim/s` : "– sim/s";
   const left = p.done < p.total && p.rate_per_s > 0 ? `, ~${formatDuration(p.eta_s)} left` : "";
-  const extra = [p.cached > 0 ? `${p.cached} cached` : "", p.failed > 0 ? `${p.failed} failed` : ""].filter(Boolean).join(", ");
+  const extra = [p.cached > 0 ? `${p.cached} cached` : "", p.failed > 0 ? `${p.failed} failed` : ""]
+    .filter(Boolean)
+    .join(", ");
   return `verify ${p.done}/${p.total} (${rate}${left})${extra ? ` [${extra}]` : ""}`;
 }
 
@@ -24,7 +26,11 @@ export interface ProgressSink {
 }
 
 /** A progress callback for verifyAll. `now_ms` is injectable so the throttle can be tested. */
-export function progressReporter(out: ProgressSink, interval_ms = 5000, now_ms: () => number = () => Date.now()): (p: PoolProgress) => void {
+export function progressReporter(
+  out: ProgressSink,
+  interval_ms = 5000,
+  now_ms: () => number = () => Date.now(),
+): (p: PoolProgress) => void {
   let last = -Infinity;
   return (p) => {
     const line = formatProgress(p);

@@ -32,7 +32,13 @@ export interface RunPlan {
   powerOptions?: string;
 }
 export const POWER_RUN_OPTIONS = "reltol=1e-4";
-export const DEFAULT_RUN_PLAN: Readonly<RunPlan> = { periods: 6, settlePeriods: 2, stepsPerPeriod: 150, settleTau: 3, powerOptions: POWER_RUN_OPTIONS };
+export const DEFAULT_RUN_PLAN: Readonly<RunPlan> = {
+  periods: 6,
+  settlePeriods: 2,
+  stepsPerPeriod: 150,
+  settleTau: 3,
+  powerOptions: POWER_RUN_OPTIONS,
+};
 
 export interface Run {
   ctrl: number;
@@ -81,32 +87,56 @@ export const RETRY_OPTIONS = "abstol=1e-9 vntol=1e-5";
 export const RETRY2_OPTIONS = "abstol=1e-9 vntol=1e-5 maxord=2 gmin=1e-10 rshunt=1e12";
 export const RETRY2_STEP_SHARE = 0.1;
 
-export async function runAt(target: VerifyTarget, netlist: string, engine: SpiceEngine, ctrl: number, plan: RunPlan = DEFAULT_RUN_PLAN): Promise<Run> {
+export async function runAt(
+  target: VerifyTarget,
+  netlist: string,
+  engine: SpiceEngine,
+  ctrl: number,
+  plan: RunPlan = DEFAULT_RUN_PLAN,
+): Promise<Run> {
   const settle_s = settleTime(target, ctrl, plan);
   const tStop_s = settle_s + (plan.periods - plan.settlePeriods) * target.period_s;
   const elements = target.powerRefs.map((r) => transistorElement(netlist, r));
   const powerVectors = elements.every((e) => e !== null) ? elements.map((e) => `@${e}[p]`) : [];
   const gate = target.inductive && elements.length === 1 && elements[0] ? gateProbe(netlist, elements[0]) : null;
   // The netlist runs at `.temp` = the nominal temperature, so the card's V_T is the nominal one.
-  const baseQ = target.inductive && gate === null && elements.every((e) => e !== null) ? baseProbe(netlist, elements as string[], VT_NOMINAL_V) : null;
-  const gateNets = [...(gate === null ? [] : [gate.gateNet, gate.sourceNet]), ...(baseQ === null ? [] : [baseQ.baseNet, baseQ.emitterNet])].filter((n) => n !== "0");
+  const baseQ =
+    target.inductive && gate === null && elements.every((e) => e !== null)
+      ? baseProbe(netlist, elements as string[], VT_NOMINAL_V)
+      : null;
+  const gateNets = [
+    ...(gate === null ? [] : [gate.gateNet, gate.sourceNet]),
+    ...(baseQ === null ? [] : [baseQ.baseNet, baseQ.emitterNet]),
+  ].filter((n) => n !== "0");
   const nets = ["vbus", target.tapNet, target.otherNet, target.chainInputNet, target.switchNet, "ls", ...gateNets];
   const vectors = [...new Set(nets)].map((n) => `v(${n})`).concat("i(vsense)", powerVectors);
   const tMax_s = target.period_s / plan.stepsPerPeriod;
   const attempt = async (options: string | undefined, step_s = tMax_s): Promise<SimResult> => {
-    const deck = simDeck(netlist, { ctrl, tStop_s, tMax_s: step_s, kickNet: target.otherNet, ...(options ? { options } : {}) });
+    const deck = simDeck(netlist, {
+      ctrl,
+      tStop_s,
+      tMax_s: step_s,
+      kickNet: target.otherNet,
+      ...(options ? { options } : {}),
+    });
     return engine.run(deck, vectors);
   };
   const end = (r: SimResult): number => r.t_s[r.t_s.length - 1] ?? 0;
   const base = [plan.options, ctrl === 1 ? plan.powerOptions : undefined].filter(Boolean).join(" ") || undefined;
-  const levels: [string, number][] = [[RETRY_OPTIONS, tMax_s], [RETRY2_OPTIONS, RETRY2_STEP_SHARE * tMax_s]];
+  const levels: [string, number][] = [
+    [RETRY_OPTIONS, tMax_s],
+    [RETRY2_OPTIONS, RETRY2_STEP_SHARE * tMax_s],
+  ];
   let res = await attempt(base);
   const stops: string[] = [];
   let retryLevel = 0;
   while (end(res) < 0.99 * tStop_s) {
-    stops.push(`${end(res)} s${retryLevel === 0 ? "" : ` with ${levels[retryLevel - 1]![0]}${retryLevel === 2 ? ` and step ${levels[1]![1]} s` : ""}`}`);
+    stops.push(
+      `${end(res)} s${retryLevel === 0 ? "" : ` with ${levels[retryLevel - 1]![0]}${retryLevel === 2 ? ` and step ${levels[1]![1]} s` : ""}`}`,
+    );
     const next = levels[retryLevel];
-    if (next === undefined) throw new SpiceRunError(`transient stopped early at ctrl = ${ctrl} of ${tStop_s} s: at ${stops.join(", at ")}`);
+    if (next === undefined)
+      throw new SpiceRunError(`transient stopped early at ctrl = ${ctrl} of ${tStop_s} s: at ${stops.join(", at ")}`);
     res = await attempt([base, next[0]].filter(Boolean).join(" "), next[1]);
     retryLevel++;
   }
@@ -114,8 +144,19 @@ export async function runAt(target: VerifyTarget, netlist: string, engine: Spice
   const tEnd_s = end(res);
   const from_s = Math.min(settle_s, 0.8 * tEnd_s);
   const vbus = res.vectors["v(vbus)"]!;
-  return { ctrl, t: res.t_s, v: res.vectors, from_s, tEnd_s, vbus_V: timeAverage(res.t_s, vbus, from_s, tEnd_s), powerVectors, retried,
-    ...(retried ? { retryLevel } : {}), ...(gate !== null ? { gate } : {}), ...(baseQ !== null ? { base: baseQ } : {}) };
+  return {
+    ctrl,
+    t: res.t_s,
+    v: res.vectors,
+    from_s,
+    tEnd_s,
+    vbus_V: timeAverage(res.t_s, vbus, from_s, tEnd_s),
+    powerVectors,
+    retried,
+    ...(retried ? { retryLevel } : {}),
+    ...(gate !== null ? { gate } : {}),
+    ...(baseQ !== null ? { base: baseQ } : {}),
+  };
 }
 
 export function vec(run: Run, name: string): Float64Array {
@@ -167,7 +208,11 @@ export function loadTiming(target: VerifyTarget, run: Run, onCurrent_A: number):
     const g = run.gate;
     const drive = gateDrive(g, vec(run, `v(${g.gateNet})`), g.sourceNet === "0" ? null : vec(run, `v(${g.sourceNet})`));
     const level = Math.abs(g.vto_V);
-    return pwmTiming(run.t, drive, level, { hyst: GATE_HYST * level, from_s: run.from_s, minPulse_s: MIN_PULSE_PERIODS * target.period_s });
+    return pwmTiming(run.t, drive, level, {
+      hyst: GATE_HYST * level,
+      from_s: run.from_s,
+      minPulse_s: MIN_PULSE_PERIODS * target.period_s,
+    });
   }
   if (target.inductive) {
     const level = switchLevel(target, run.vbus_V);
@@ -178,9 +223,14 @@ export function loadTiming(target: VerifyTarget, run: Run, onCurrent_A: number):
       const b = run.base;
       const vb = vec(run, `v(${b.baseNet})`);
       const ve = b.emitterNet === "0" ? null : vec(run, `v(${b.emitterNet})`);
-      for (let k = 0; k < s.length; k++) if (b.sign * (vb[k]! - (ve === null ? 0 : ve[k]!)) < b.cutIn_V) s[k] = Math.min(s[k]!, 0);
+      for (let k = 0; k < s.length; k++)
+        if (b.sign * (vb[k]! - (ve === null ? 0 : ve[k]!)) < b.cutIn_V) s[k] = Math.min(s[k]!, 0);
     }
-    return pwmTiming(run.t, s, level, { hyst: 0.1 * level, from_s: run.from_s, minPulse_s: MIN_PULSE_PERIODS * target.period_s });
+    return pwmTiming(run.t, s, level, {
+      hyst: 0.1 * level,
+      from_s: run.from_s,
+      minPulse_s: MIN_PULSE_PERIODS * target.period_s,
+    });
   }
   const level = onCurrent_A / 2;
   return pwmTiming(run.t, vec(run, "i(vsense)"), level, { hyst: 0.1 * level, from_s: run.from_s });

@@ -57,7 +57,12 @@ export function meanOver(t: ArrayLike<number>, y: ArrayLike<number>, intervals: 
  * Mean of y over the middle of each on-interval: trims `trim` (fraction) off both ends of every
  * interval, so switching edges and turn-on ringing do not bias an on-state value.
  */
-export function meanOnState(t: ArrayLike<number>, y: ArrayLike<number>, on: readonly [number, number][], trim = 0.2): number {
+export function meanOnState(
+  t: ArrayLike<number>,
+  y: ArrayLike<number>,
+  on: readonly [number, number][],
+  trim = 0.2,
+): number {
   return meanOver(
     t,
     y,
@@ -66,7 +71,13 @@ export function meanOnState(t: ArrayLike<number>, y: ArrayLike<number>, on: read
 }
 
 /** Average power ∫ v·i dt / (t1 − t0). */
-export function averagePower(t: ArrayLike<number>, v: ArrayLike<number>, i: ArrayLike<number>, t0: number, t1: number): number {
+export function averagePower(
+  t: ArrayLike<number>,
+  v: ArrayLike<number>,
+  i: ArrayLike<number>,
+  t0: number,
+  t1: number,
+): number {
   const p = new Float64Array(t.length);
   for (let k = 0; k < t.length; k++) p[k] = v[k]! * i[k]!;
   return timeAverage(t, p, t0, t1);

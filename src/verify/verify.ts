@@ -16,11 +16,25 @@ export interface VerifyOptions {
 }
 
 export function skipped(sized: SizedVariant, engine: { name: SpiceEngine["name"]; version: string }): Verification {
-  const why = !sized.feasible ? `not feasible: ${sized.reason ?? "see problems"}` : "no circuit or no predicted frequency to plan a simulation";
-  return { status: "skipped", engine: engine.name, engineVersion: engine.version, hash: "", comparisons: [], message: why };
+  const why = !sized.feasible
+    ? `not feasible: ${sized.reason ?? "see problems"}`
+    : "no circuit or no predicted frequency to plan a simulation";
+  return {
+    status: "skipped",
+    engine: engine.name,
+    engineVersion: engine.version,
+    hash: "",
+    comparisons: [],
+    message: why,
+  };
 }
 
-export async function verifyVariant(sized: SizedVariant, netlist: string, engine: SpiceEngine, opts: VerifyOptions = {}): Promise<Verification> {
+export async function verifyVariant(
+  sized: SizedVariant,
+  netlist: string,
+  engine: SpiceEngine,
+  opts: VerifyOptions = {},
+): Promise<Verification> {
   const target = sized.feasible ? targetFromSized(sized) : null;
   if (target === null) return skipped(sized, engine);
   const dir = opts.cacheDir ?? DEFAULT_CACHE_DIR;

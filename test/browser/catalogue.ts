@@ -13,7 +13,12 @@ const ridge: DesignRecord = {
   id: "ridge-fan",
   title: "Ridge exhaust fan driver",
   summary: "Exhaust fans in the ridge of the propagation house, on the 24 V bank.",
-  axes: { supply_V: [24], load_A: [1, 2, 3], chain: ["darlington-2", "bjt-driver-pnp", "mosfet-driver"], load_kind: ["motor"] },
+  axes: {
+    supply_V: [24],
+    load_A: [1, 2, 3],
+    chain: ["darlington-2", "bjt-driver-pnp", "mosfet-driver"],
+    load_kind: ["motor"],
+  },
   targets: { pwm_Hz: 20000, duty_min: 0.2, duty_max: 0.9, ambient_C: [5, 40], supply_tolerance: 0.1 },
 };
 
@@ -23,7 +28,11 @@ export async function browserCatalogue(): Promise<BuiltCatalogue> {
   const extra: BuiltDesign = {
     record: ridge,
     file: "designs/ridge-fan.json",
-    variants: ridge.axes.load_A.flatMap((a) => ridge.axes.chain.map((c) => builtVariant({ record: ridge, supply_V: 24, load_A: a, chain: c, load_kind: "motor", sim: "none" }))),
+    variants: ridge.axes.load_A.flatMap((a) =>
+      ridge.axes.chain.map((c) =>
+        builtVariant({ record: ridge, supply_V: 24, load_A: a, chain: c, load_kind: "motor", sim: "none" }),
+      ),
+    ),
   };
   const designs = [...fix.designs, extra, ...real.designs];
   const all = designs.flatMap((d) => d.variants);
@@ -31,7 +40,14 @@ export async function browserCatalogue(): Promise<BuiltCatalogue> {
   return {
     ...fix,
     designs,
-    summary: { variants: all.length, feasible: all.filter((v) => v.sized.feasible).length, agree: count("agree"), disagree: count("disagree"), failed: count("failed"), skipped: count("skipped") },
+    summary: {
+      variants: all.length,
+      feasible: all.filter((v) => v.sized.feasible).length,
+      agree: count("agree"),
+      disagree: count("disagree"),
+      failed: count("failed"),
+      skipped: count("skipped"),
+    },
     ...(real.engine ? { engine: real.engine } : {}),
   };
 }

@@ -20,7 +20,10 @@ export async function realCatalogue(designIds: string[] = ["circulation-fan"]): 
   const designs: BuiltDesign[] = project.designs
     .filter((d) => designIds.includes(d.record.id))
     .map((d) => {
-      const specs = expandDesign(d.record, { choose: (r, s, a, c) => chooseDevices(r, project.devices, s, a, c), policy: project.policy });
+      const specs = expandDesign(d.record, {
+        choose: (r, s, a, c) => chooseDevices(r, project.devices, s, a, c),
+        policy: project.policy,
+      });
       const sized = attachAlternatives(specs.map((s) => sizeVariant(s)));
       return {
         record: d.record,
@@ -36,7 +39,14 @@ export async function realCatalogue(designIds: string[] = ["circulation-fan"]): 
     version: "0.1.0",
     designs,
     policy: { id: p.id, title: p.title, document: p.document },
-    summary: { variants: all.length, feasible: all.filter((v) => v.sized.feasible).length, agree: 0, disagree: 0, failed: 0, skipped: all.length },
+    summary: {
+      variants: all.length,
+      feasible: all.filter((v) => v.sized.feasible).length,
+      agree: 0,
+      disagree: 0,
+      failed: 0,
+      skipped: all.length,
+    },
     engine: { devices: [...project.devices.values()], policy: p },
   };
 }

@@ -29,7 +29,8 @@ describe.each(cases)("circuit of $chain $supply_V V $load_A A $load_kind", (c) =
   });
   it("numbers refs in stage order then role order, each letter code from 1", () => {
     const order = circuit.parts.map((p) => [STAGE_KINDS.indexOf(p.stage), PART_ROLES.indexOf(p.role)] as const);
-    for (let i = 1; i < order.length; i++) expect(order[i]![0] * 100 + order[i]![1]).toBeGreaterThan(order[i - 1]![0] * 100 + order[i - 1]![1]);
+    for (let i = 1; i < order.length; i++)
+      expect(order[i]![0] * 100 + order[i]![1]).toBeGreaterThan(order[i - 1]![0] * 100 + order[i - 1]![1]);
     const next = new Map<string, number>();
     for (const p of circuit.parts) {
       const pre = REF_PREFIX[p.kind];
@@ -42,10 +43,14 @@ describe.each(cases)("circuit of $chain $supply_V V $load_A A $load_kind", (c) =
     for (const p of circuit.parts) {
       expect(Object.keys(p.rating).length, p.role).toBeGreaterThan(0);
       expect(Object.keys(p.stress).length, p.role).toBeGreaterThan(0);
-      if (p.kind === "npn" || p.kind === "pnp") { expect(p.device).toBeDefined(); expect(p.gain_min).toBeGreaterThan(0); }
+      if (p.kind === "npn" || p.kind === "pnp") {
+        expect(p.device).toBeDefined();
+        expect(p.gain_min).toBeGreaterThan(0);
+      }
       if (["npn", "pnp", "nmos", "diode", "zener"].includes(p.kind)) expect(p.spice?.model).toBe(p.device);
       if (p.role === "LOAD") expect(p.spice?.r_ohm).toBeGreaterThan(0);
-      for (const v of [p.value, ...Object.values(p.rating), ...Object.values(p.stress)]) expect(Number.isFinite(v)).toBe(true);
+      for (const v of [p.value, ...Object.values(p.rating), ...Object.values(p.stress)])
+        expect(Number.isFinite(v)).toBe(true);
     }
   });
   it("the pot's ends and the tap follow the chain's polarity; probes sit in the load loop", () => {
@@ -54,10 +59,16 @@ describe.each(cases)("circuit of $chain $supply_V V $load_A A $load_kind", (c) =
     expect(circuit.ctrlPart).toBe(pot.ref);
     expect(pot.pins.w).toBe("vbus");
     const sense = circuit.instruments.find((i) => i.name === "Vsense")!;
-    expect(c.chain === "bjt-driver-pnp" ? [sense.p, sense.n] : [sense.p, sense.n]).toEqual(c.chain === "bjt-driver-pnp" ? ["sw", "ls"] : ["ls", "sw"]);
+    expect(c.chain === "bjt-driver-pnp" ? [sense.p, sense.n] : [sense.p, sense.n]).toEqual(
+      c.chain === "bjt-driver-pnp" ? ["sw", "ls"] : ["ls", "sw"],
+    );
   });
   it("carries every key figure, each with a formula and a source, and no NaN anywhere", () => {
-    for (const k of KEY_FIGURES) expect(s.figures.map((f) => f.key), k).toContain(k);
+    for (const k of KEY_FIGURES)
+      expect(
+        s.figures.map((f) => f.key),
+        k,
+      ).toContain(k);
     for (const f of s.figures) {
       expect(f.formula.length, f.key).toBeGreaterThan(0);
       expect(f.source.length, f.key).toBeGreaterThan(0);

@@ -7,7 +7,13 @@ import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
 import { STAGE_KINDS, CHAIN_KINDS, type StageKind } from "../../src/model/kinds.ts";
 import {
-  PART_ROLES, POWER_ROLES, STAGE_ROLES, isPartRole, isRefDesignator, stageOfRole, type PartRole,
+  PART_ROLES,
+  POWER_ROLES,
+  STAGE_ROLES,
+  isPartRole,
+  isRefDesignator,
+  stageOfRole,
+  type PartRole,
 } from "../../src/model/part-roles.ts";
 import { assembleCircuit } from "../../src/circuit/assemble.ts";
 import { CHAIN } from "../../src/render/schematic-chains.ts";
@@ -28,7 +34,10 @@ function section(title: string): string {
 
 /** Backticked role names in the first cell of each table row. */
 const firstCellRoles = (body: string): string[] =>
-  body.split("\n").filter((l) => l.startsWith("| ")).flatMap((l) => [...l.split("|")[1]!.matchAll(/`([A-Z][A-Z0-9_]*)`/g)].map((m) => m[1]!));
+  body
+    .split("\n")
+    .filter((l) => l.startsWith("| "))
+    .flatMap((l) => [...l.split("|")[1]!.matchAll(/`([A-Z][A-Z0-9_]*)`/g)].map((m) => m[1]!));
 
 describe("part roles: one closed vocabulary", () => {
   it("lists every role once, each in exactly one stage", () => {
@@ -47,11 +56,15 @@ describe("part roles: one closed vocabulary", () => {
   });
 
   it("docs/topologies.md's vocabulary table equals the code, stage by stage, in numbering order", () => {
-    const rows = section("Role vocabulary").split("\n").filter((l) => /^\| `[a-z]+` \|/.test(l));
-    const doc = Object.fromEntries(rows.map((l) => {
-      const [, stage, roles] = l.split("|").map((c) => c.trim());
-      return [stage!.replace(/`/g, ""), [...roles!.matchAll(/`([A-Z][A-Z0-9_]*)`/g)].map((m) => m[1])];
-    }));
+    const rows = section("Role vocabulary")
+      .split("\n")
+      .filter((l) => /^\| `[a-z]+` \|/.test(l));
+    const doc = Object.fromEntries(
+      rows.map((l) => {
+        const [, stage, roles] = l.split("|").map((c) => c.trim());
+        return [stage!.replace(/`/g, ""), [...roles!.matchAll(/`([A-Z][A-Z0-9_]*)`/g)].map((m) => m[1])];
+      }),
+    );
     expect(doc).toEqual(Object.fromEntries(STAGE_KINDS.map((s) => [s, [...STAGE_ROLES[s]]])));
   });
 
@@ -66,7 +79,13 @@ describe("part roles: one closed vocabulary", () => {
   it("every role has a place in the schematic tables", () => {
     const placed = new Set<string>();
     for (const side of ["A", "B"] as const) for (const r of Object.keys(coreLayout(side).slots)) placed.add(r);
-    for (const l of [SUPPLY, loadLayout(false, "Q_POWER.c"), loadLayout(true, "Q_POWER.c"), protectionLayout(false), ...CHAIN_KINDS.map((k) => CHAIN[k])]) {
+    for (const l of [
+      SUPPLY,
+      loadLayout(false, "Q_POWER.c"),
+      loadLayout(true, "Q_POWER.c"),
+      protectionLayout(false),
+      ...CHAIN_KINDS.map((k) => CHAIN[k]),
+    ]) {
       for (const r of Object.keys(l.slots)) placed.add(r);
     }
     expect(PART_ROLES.filter((r) => !placed.has(r))).toEqual([]);
@@ -76,7 +95,16 @@ describe("part roles: one closed vocabulary", () => {
 
 describe("the circuit assembler keeps each role in its stage", () => {
   const part = (stage: StageKind, role: PartRole): Part => ({
-    ref: "", kind: "resistor", stage, role, value: 1000, unit: "Ω", description: "test resistor", rating: {}, stress: {}, pins: { a: "vbus", b: "x" },
+    ref: "",
+    kind: "resistor",
+    stage,
+    role,
+    value: 1000,
+    unit: "Ω",
+    description: "test resistor",
+    rating: {},
+    stress: {},
+    pins: { a: "vbus", b: "x" },
   });
   const opts = { supply_V: 12, highSide: false, tapNet: "ca", chainInputNet: "qb" };
 

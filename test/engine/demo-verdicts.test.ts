@@ -24,7 +24,10 @@ describe("demo catalogue verdicts", async () => {
   });
 
   it("no feasible variant carries a failing check or an error problem", () => {
-    const bad = all.filter((s) => s.feasible && (s.checks.some((c) => c.verdict === "fail") || s.problems.some((p) => p.severity === "error")));
+    const bad = all.filter(
+      (s) =>
+        s.feasible && (s.checks.some((c) => c.verdict === "fail") || s.problems.some((p) => p.severity === "error")),
+    );
     expect(bad.map((s) => s.spec.id)).toEqual([]);
   });
 

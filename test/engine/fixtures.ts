@@ -19,7 +19,12 @@ const ROOT = join(import.meta.dirname, "..", "..");
 let lib: DeviceLibrary | undefined;
 export function library(): DeviceLibrary {
   const dir = join(ROOT, "designs", "devices");
-  lib ??= indexLibrary(readdirSync(dir).filter((f) => f.endsWith(".json")).sort().map((f) => JSON.parse(readFileSync(join(dir, f), "utf8")) as DeviceClass));
+  lib ??= indexLibrary(
+    readdirSync(dir)
+      .filter((f) => f.endsWith(".json"))
+      .sort()
+      .map((f) => JSON.parse(readFileSync(join(dir, f), "utf8")) as DeviceClass),
+  );
   return lib;
 }
 export function policy(): DeratingPolicy {
@@ -54,15 +59,43 @@ export interface SpecOpts {
  * Local to the tests until the device library carries such a class.
  */
 export const NPN_HIGH_GAIN: BjtClass = {
-  id: "npn-high-gain", family: "npn", title: "NPN small-signal high gain, TO-92", generic_type: "BC547C class", package: "TO-92",
-  tj_max_C: 150, rth_ja_KperW: 250, rth_jc_KperW: 83.3, vceo_V: 45, vcbo_V: 50, vebo_V: 6, ic_max_A: 0.1, ptot_W: 0.5, ptot_at: "ambient",
-  hfe: [{ ic_A: 1e-5, min: 200 }, { ic_A: 0.002, min: 420, typ: 520 }, { ic_A: 0.05, min: 200 }, { ic_A: 0.1, min: 100 }],
+  id: "npn-high-gain",
+  family: "npn",
+  title: "NPN small-signal high gain, TO-92",
+  generic_type: "BC547C class",
+  package: "TO-92",
+  tj_max_C: 150,
+  rth_ja_KperW: 250,
+  rth_jc_KperW: 83.3,
+  vceo_V: 45,
+  vcbo_V: 50,
+  vebo_V: 6,
+  ic_max_A: 0.1,
+  ptot_W: 0.5,
+  ptot_at: "ambient",
+  hfe: [
+    { ic_A: 1e-5, min: 200 },
+    { ic_A: 0.002, min: 420, typ: 520 },
+    { ic_A: 0.05, min: 200 },
+    { ic_A: 0.1, min: 100 },
+  ],
   hfe_tempco_perK: 0.005,
-  vce_sat: [{ ic_A: 0.01, ib_A: 0.0005, vce_sat_V: 0.25, vbe_sat_V: 0.85 }, { ic_A: 0.1, ib_A: 0.005, vce_sat_V: 0.6, vbe_sat_V: 1.0 }],
-  vbe_on_V: 0.66, t_rise_s: 5e-8, t_fall_s: 8e-8, t_storage_s: 3e-7, ft_Hz: 3e8,
+  vce_sat: [
+    { ic_A: 0.01, ib_A: 0.0005, vce_sat_V: 0.25, vbe_sat_V: 0.85 },
+    { ic_A: 0.1, ib_A: 0.005, vce_sat_V: 0.6, vbe_sat_V: 1.0 },
+  ],
+  vbe_on_V: 0.66,
+  t_rise_s: 5e-8,
+  t_fall_s: 8e-8,
+  t_storage_s: 3e-7,
+  ft_Hz: 3e8,
   sources: {
     vceo_V: { source: "pro-electron-registered", note: "BC547", confidence: "registered" },
-    hfe: { source: "pro-electron-registered", note: "BC547 group C 420–800 @ 2 mA registered; other points from memory", confidence: "from-memory" },
+    hfe: {
+      source: "pro-electron-registered",
+      note: "BC547 group C 420–800 @ 2 mA registered; other points from memory",
+      confidence: "from-memory",
+    },
   },
 };
 
@@ -73,23 +106,37 @@ export function makeSpec(o: SpecOpts): VariantSpec {
     // which a 10–90 % range cannot meet with k ≥ 2 at minimum gain (timing-search.ts MAX_RECOVERY).
     duty_min: o.duty?.[0] ?? 0.2,
     duty_max: o.duty?.[1] ?? 0.8,
-    ambient_C: o.ambient_C ?? [-10, 40] as [number, number],
+    ambient_C: o.ambient_C ?? ([-10, 40] as [number, number]),
     supply_tolerance: o.supply_tolerance ?? 0.1,
     duty_skew_max: 0.02,
     heatsink_min_KperW: 2,
   };
   const rec: DesignRecord = {
-    id: "test-design", title: "Test design", summary: "fixture",
+    id: "test-design",
+    title: "Test design",
+    summary: "fixture",
     axes: { supply_V: [o.supply_V], load_A: [o.load_A], chain: [o.chain], load_kind: [o.load_kind] },
-    targets, ...(o.devices ? { devices: o.devices } : {}), ...(o.supply ? { supply: o.supply } : {}),
-    ...(o.load_kind === "solenoid" ? { solenoid: o.solenoid ?? { tau_ms: 10, pull_in_ms: 30, pull_in_share: 0.75, hold_share: 0.4 } } : {}),
+    targets,
+    ...(o.devices ? { devices: o.devices } : {}),
+    ...(o.supply ? { supply: o.supply } : {}),
+    ...(o.load_kind === "solenoid"
+      ? { solenoid: o.solenoid ?? { tau_ms: 10, pull_in_ms: 30, pull_in_share: 0.75, hold_share: 0.4 } }
+      : {}),
   };
   return {
     id: `test-${o.supply_V}v-${o.load_A}a-${o.chain}-${o.load_kind}`,
-    design: rec.id, designTitle: rec.title,
-    supply_V: o.supply_V, load_A: o.load_A, chain: o.chain, load_kind: o.load_kind,
-    targets, supply_window: supplyWindow({ ...o.supply, tolerance: targets.supply_tolerance }, o.supply_V),
-    protection: { be_breakdown: o.be ?? "series-base-diode", ...(o.inrushLimit ? { inrush_limit: o.inrushLimit } : {}) },
+    design: rec.id,
+    designTitle: rec.title,
+    supply_V: o.supply_V,
+    load_A: o.load_A,
+    chain: o.chain,
+    load_kind: o.load_kind,
+    targets,
+    supply_window: supplyWindow({ ...o.supply, tolerance: targets.supply_tolerance }, o.supply_V),
+    protection: {
+      be_breakdown: o.be ?? "series-base-diode",
+      ...(o.inrushLimit ? { inrush_limit: o.inrushLimit } : {}),
+    },
     devices: { ...chooseDevices(rec, library(), o.supply_V, o.load_A), ...(o.override ?? {}) },
     policy: policy(),
     ...(rec.solenoid ? { solenoid: rec.solenoid } : {}),

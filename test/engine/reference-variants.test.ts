@@ -68,7 +68,8 @@ describe("R2 — 24 V 2 A darlington-2, motor (15 kHz): too slow to turn off for
     // V_F = V_F,max − RS·(I_F − 2) − N·V_T·ln(I_F/2) (the −1 of the exponential is e^−30 here).
     const n = { standard: 1.9, fast: 1.8, ultrafast: 1.8, schottky: 1.05 }[fw.recovery]!;
     const rs = (0.1 * fw.vf_V) / fw.vf_at_A;
-    const vF = fw.vf_V - rs * (fw.vf_at_A - 2) - n * ((1.380649e-23 * 298.15) / 1.602176634e-19) * Math.log(fw.vf_at_A / 2);
+    const vF =
+      fw.vf_V - rs * (fw.vf_at_A - 2) - n * ((1.380649e-23 * 298.15) / 1.602176634e-19) * Math.log(fw.vf_at_A / 2);
     const e = d * (24 - fig(s, "switch_on_voltage")) - (1 - d) * vF - 6;
     expectClose(part(s, "LOAD").spice!.vf_V!, e, 1e-9);
     expect(e).toBeGreaterThan(8); // ≈ 0.85·22.55 − 0.15·0.5 − 6 ≈ 13.1 V: not starved
@@ -76,7 +77,7 @@ describe("R2 — 24 V 2 A darlington-2, motor (15 kHz): too slow to turn off for
   it("output turn-off by charge control: t_f + (I_C/(2π f_T)) / (V_BE/R_BE) (derived)", () => {
     const rBE = part(s, "RBE").value; // 47 Ω
     // 2.2 A/(2π·3 MHz) = 116.7 nC; bleed 0.82 V/(47·0.95) = 18.36 mA → 6.355 µs + 0.5 µs = 6.855 µs
-    const t = 0.5e-6 + (2.2 / (2 * Math.PI * 3e6)) / ((0.75 + 0.002 * 35) / (rBE * 0.95));
+    const t = 0.5e-6 + 2.2 / (2 * Math.PI * 3e6) / ((0.75 + 0.002 * 35) / (rBE * 0.95));
     expectClose(fig(s, "turn_off_time"), t, 1e-9);
     expectClose(t, 6.855e-6, 1e-3);
   });
@@ -87,7 +88,11 @@ describe("R2 — 24 V 2 A darlington-2, motor (15 kHz): too slow to turn off for
     // waits for the full current rise t_r (clamped inductive turn-on, Mohan, Undeland, Robbins, 3rd ed., ch. 2, from memory).
     const d1 = s.spec.devices.driver_npn as BjtClass;
     const d2 = s.spec.devices.power_npn as BjtClass;
-    expectClose(fig(s, "duty_error_delays"), (d1.t_storage_s + d2.t_fall_s / 2 - d2.t_rise_s) * fig(s, "frequency_nominal"), 1e-9);
+    expectClose(
+      fig(s, "duty_error_delays"),
+      (d1.t_storage_s + d2.t_fall_s / 2 - d2.t_rise_s) * fig(s, "frequency_nominal"),
+      1e-9,
+    );
     // On-edge: the tap must rise past Σ V_BE(on) by R_T·I_B1 (the first base's current at the rated
     // winding current) before the switch voltage falls.
     const rT = part(s, "RT").value;
@@ -107,7 +112,13 @@ describe("R3 — 12 V 5 A darlington-3, heater (200 Hz, 25–75 %), design accep
   // the 20 % end needs R_end ≈ 82 kΩ, and 5·τ_c = 5·R_C·C·1.155 (tolerances) exceeds the shortest
   // half-period R_end·0.95·C·0.9·ln(...) ≈ 0.6·R_end·C at that end (collector-recovery, limit 1),
   // so no MOSFET sibling would be feasible to point to. The heatsink premise is unchanged.
-  const opts = { supply_V: 12, load_A: 5, load_kind: "resistive" as const, pwm_Hz: 200, duty: [0.25, 0.75] as [number, number] };
+  const opts = {
+    supply_V: 12,
+    load_A: 5,
+    load_kind: "resistive" as const,
+    pwm_Hz: 200,
+    duty: [0.25, 0.75] as [number, number],
+  };
   const mk = (chain: SpecOpts["chain"]): SizedVariant => {
     const spec = makeSpec({ ...hg, ...opts, chain });
     return sizeVariant({ ...spec, targets: { ...spec.targets, heatsink_min_KperW: 5 } });
@@ -130,7 +141,12 @@ describe("R3 — 12 V 5 A darlington-3, heater (200 Hz, 25–75 %), design accep
     expectClose(p, 5.5 * 2.99 * dMax, 0.03, "P = I·V_CE·D (common practice)");
     const pol = policy();
     const lim = Math.min(pol.bjt.tj_max_C.value_C, 200 - pol.bjt.tj_max_C.below_max_K);
-    expectClose(fig(d3, "heatsink_rth_sa_max"), (lim - 40) / p - 1.52 - 0.2, 1e-9, "JESD51 definitions; θ_CS 0.2 K/W TO-3 with grease (from memory)");
+    expectClose(
+      fig(d3, "heatsink_rth_sa_max"),
+      (lim - 40) / p - 1.52 - 0.2,
+      1e-9,
+      "JESD51 definitions; θ_CS 0.2 K/W TO-3 with grease (from memory)",
+    );
     expectClose(fig(d3, "tj_free_air"), 40 + p * 35, 1e-9, "T_J = T_A + P·θ_JA, TO-3 35 K/W");
   });
   it("is not feasible (needs ≈ 3.9 K/W < 5 K/W) and points to a MOSFET chain", () => {
@@ -162,12 +178,20 @@ describe("R4 — 24 V 3 A mosfet-driver, LED strip (3 kHz)", () => {
     // 18/29.066 = 0.6193 V. At 3.04 A: 6.08 + 0.6193·ln(3.04e12) = 6.08 + 0.6193·28.743 = 23.88 V ✓.
     const law = part(s, "LOAD").spice!;
     expectClose(law.is_A!, 1e-12, 1e-12);
-    expectClose(law.n! * (1.380649e-23 * 298.15 / 1.602176634e-19), 18 / Math.log1p(4.2e12), 1e-9, "V_T at 25 °C, CODATA constants");
+    expectClose(
+      law.n! * ((1.380649e-23 * 298.15) / 1.602176634e-19),
+      18 / Math.log1p(4.2e12),
+      1e-9,
+      "V_T at 25 °C, CODATA constants",
+    );
     // With V_sw = 0.107 V: at 3.046 A, 6.092 + 0.6193·ln(3.046e12) = 6.092 + 0.6193·28.745 = 23.894 V ✓ (24 − 0.107 = 23.893).
     expectClose(fig(s, "load_current_on"), 3.046, 2e-3, "hand solution above");
   });
   it("frequency within 5 % of the textbook T = C·(R_A + R_B + R_pot)·ln((2V − V_on − V_sat)/(V − V_γ))", () => {
-    const c = part(s, "CT_A").value, rA = part(s, "RB_A").value, rB = part(s, "RB_B").value, pot = part(s, "RV_DUTY").value;
+    const c = part(s, "CT_A").value,
+      rA = part(s, "RB_A").value,
+      rB = part(s, "RB_B").value,
+      pot = part(s, "RV_DUTY").value;
     // End stops are sized apart (asymmetric): R_A + R_B + R_pot = 200 k + 160 k + 1 M = 1.36 MΩ, C = 390 pF.
     // Start level V_on = V_BE 0.66 + base diode ≈ 0.65 V at µA (from memory) = 1.3 V; V_sat 0.25 V.
     // The off side returns at the cut-in level V_γ = 0.5 V + base diode at ≈ 0.1 µA (class law
@@ -178,7 +202,12 @@ describe("R4 — 24 V 3 A mosfet-driver, LED strip (3 kHz)", () => {
     expect(rA + rB + pot).toBe(1.36e6);
     const tHand = c * (rA + rB + pot) * Math.log((48 - 1.3 - 0.25) / (24 - 1.0));
     expectClose(tHand, 372.8e-6, 1e-3, "hand arithmetic above");
-    expectClose(fig(s, "frequency_nominal"), 1 / tHand, 0.05, "Millman & Taub 1965 ch. 11 (from memory); loading + recovery account for the rest");
+    expectClose(
+      fig(s, "frequency_nominal"),
+      1 / tHand,
+      0.05,
+      "Millman & Taub 1965 ch. 11 (from memory); loading + recovery account for the rest",
+    );
   });
   it("IEEE 1789: full-depth PWM ≥ 1250 Hz at the worst-case low frequency → low-risk note, no warning", () => {
     const fLo = s.figures.find((f) => f.key === "frequency_nominal")!.range![0];
@@ -204,7 +233,14 @@ describe("R5 — 12 V 1 A bjt-driver-pnp, lamp (1 kHz)", () => {
 describe("R6 — 12 V lead-acid, 1 A lamp, mosfet-logic: the cold filament's inrush sets the fuse", () => {
   // Duty 25–75 %: at 10.5 V (end of discharge) a 20–80 % range cannot let the collectors recover
   // within the shortest half-period (the work-lamp demo shows that as its own problem).
-  const s = size({ supply_V: 12, load_A: 1, chain: "mosfet-logic", load_kind: "lamp", duty: [0.25, 0.75], supply: { battery: "lead-acid" } });
+  const s = size({
+    supply_V: 12,
+    load_A: 1,
+    chain: "mosfet-logic",
+    load_kind: "lamp",
+    duty: [0.25, 0.75],
+    supply: { battery: "lead-acid" },
+  });
   const checkOf = (role: string, q: string) => s.checks.find((c) => c.ref === part(s, role).ref && c.quantity === q)!;
   it("worst cases run over the lead-acid window 10.5–14.7 V (1.75–2.45 V/cell × 6, common practice)", () => {
     expect([s.spec.supply_window.min_V, s.spec.supply_window.max_V]).toEqual([10.5, 14.7]);
@@ -221,7 +257,12 @@ describe("R6 — 12 V lead-acid, 1 A lamp, mosfet-logic: the cold filament's inr
     // Running at 14.7 V: 14.7/12 = 1.225 A; ΔI = 18.375 − 1.225 = 17.15 A; τ = 10 ms (from memory).
     // Bulk: 100 µF/A × 1.225 A = 122.5 µF → E6 up → 150 µF; loop 0.1 Ω (from memory); C·V²/(2R) derived.
     expect(part(s, "C_BULK").value).toBeCloseTo(150e-6, 15);
-    expectClose(fig(s, "startup_i2t"), 0.420175 + 1.4706125 + 0.1620675, 1e-9, "derived integrals, checked numerically in fuse-peaks.test.ts");
+    expectClose(
+      fig(s, "startup_i2t"),
+      0.420175 + 1.4706125 + 0.1620675,
+      1e-9,
+      "derived integrals, checked numerically in fuse-peaks.test.ts",
+    );
   });
   it("fuse: 2 A would carry the current but its 4 A²s smallest pre-arcing I²t allows only 2 A²s < 2.053 A²s → 2.5 A time-lag", () => {
     // Continuous 1.225 A + core ≤ 0.705 × 2 A = 1.41 A (75 % at 25 °C, −0.4 %/K to 40 °C: common practice / from memory).
@@ -240,7 +281,7 @@ describe("R6 — 12 V lead-acid, 1 A lamp, mosfet-logic: the cold filament's inr
     expect(s.spec.devices.reverse_diode.id).toBe("diode-rectifier-3a");
     const c = checkOf("D_REVERSE", "i2t");
     expectClose(c.stress, 75, 1e-12);
-    expectClose(c.rating, 200 * 200 / 240, 1e-12);
+    expectClose(c.rating, (200 * 200) / 240, 1e-12);
     expect(c.verdict).not.toBe("fail");
   });
   it("is feasible: no failing check, and the verdict says so", () => {
@@ -250,7 +291,13 @@ describe("R6 — 12 V lead-acid, 1 A lamp, mosfet-logic: the cold filament's inr
 });
 
 describe("R7 — 24 V lead-acid, 5 A heater, mosfet-logic: a 58 V blade fuse and a 6 A shunt diode", () => {
-  const s = size({ supply_V: 24, load_A: 5, chain: "mosfet-logic", load_kind: "resistive", supply: { battery: "lead-acid" } });
+  const s = size({
+    supply_V: 24,
+    load_A: 5,
+    chain: "mosfet-logic",
+    load_kind: "resistive",
+    supply: { battery: "lead-acid" },
+  });
   const checkOf = (role: string, q: string) => s.checks.find((c) => c.ref === part(s, role).ref && c.quantity === q)!;
   it("worst-case continuous current at 29.4 V: 29.4 V / 4.8 Ω = 6.125 A (plus the core's few mA)", () => {
     expect(fig(s, "fuse_continuous_current")).toBeGreaterThan(6.125);
@@ -263,7 +310,7 @@ describe("R7 — 24 V lead-acid, 5 A heater, mosfet-logic: a 58 V blade fuse and
     expectClose(checkOf("F_SUPPLY", "voltage").ratio, 29.4 / 58, 1e-12);
     // Start-up: no load event; bulk 100 µF/A × 6.125 A = 612.5 µF → 680 µF: 680 µF·29.4²/(2·0.1 Ω) = 2.938824 A²s,
     // against ½·(6 × 10 A)²·10 ms = 18 A²s (600 % gate, from memory).
-    expectClose(fig(s, "startup_i2t"), 680e-6 * 29.4 * 29.4 / 0.2, 1e-9);
+    expectClose(fig(s, "startup_i2t"), (680e-6 * 29.4 * 29.4) / 0.2, 1e-9);
     expectClose(checkOf("F_SUPPLY", "i2t").rating, 36, 1e-12);
   });
   it("reverse diode: clearing ≤ (60 A)²·0.1 s·1.2 = 432 A²s > 166.7 A²s of the 3 A class → 6 A class, 400²/240 = 666.7 A²s", () => {
@@ -274,7 +321,15 @@ describe("R7 — 24 V lead-acid, 5 A heater, mosfet-logic: a 58 V blade fuse and
 });
 
 describe("R8 — a declared current limit: linear-mode pulse against the single-pulse SOA, and a condition", () => {
-  const s = size({ supply_V: 12, load_A: 1, chain: "mosfet-logic", load_kind: "lamp", duty: [0.25, 0.75], supply: { battery: "lead-acid" }, inrushLimit: { kind: "current-limit", limit_A: 5 } });
+  const s = size({
+    supply_V: 12,
+    load_A: 1,
+    chain: "mosfet-logic",
+    load_kind: "lamp",
+    duty: [0.25, 0.75],
+    supply: { battery: "lead-acid" },
+    inrushLimit: { kind: "current-limit", limit_A: 5 },
+  });
   it("the switch sees at most 5 A, for 2·10 ms·ln(17.15/3.775) = 30.27 ms at 5·(14.7 − 5·0.8) = 53.5 W", () => {
     // R_cold = 14.7 V / 18.375 A = 0.8 Ω; limitedEvent (derived, duration doubled as margin).
     expectClose(s.checks.find((c) => c.quantity === "peak")!.stress, 5, 1e-12);
@@ -294,7 +349,17 @@ describe("R8 — a declared current limit: linear-mode pulse against the single-
 
 describe("R9 — 24 V lead-acid, 1 A solenoid valve coil, mosfet-logic (2 kHz, 30–85 %)", () => {
   const coil = { tau_ms: 10, pull_in_ms: 30, pull_in_share: 0.75, hold_share: 0.4 };
-  const s = size({ supply_V: 24, load_A: 1, chain: "mosfet-logic", load_kind: "solenoid", pwm_Hz: 2000, duty: [0.3, 0.85], ambient_C: [0, 45], supply: { battery: "lead-acid" }, solenoid: coil });
+  const s = size({
+    supply_V: 24,
+    load_A: 1,
+    chain: "mosfet-logic",
+    load_kind: "solenoid",
+    pwm_Hz: 2000,
+    duty: [0.3, 0.85],
+    ambient_C: [0, 45],
+    supply: { battery: "lead-acid" },
+    solenoid: coil,
+  });
   const checkOf = (role: string, q: string) => s.checks.find((c) => c.ref === part(s, role).ref && c.quantity === q)!;
   const vSw = fig(s, "switch_on_voltage");
   // Freewheel diode at the rated 1 A, 25 °C: the shared diode-class law (shared/diode.ts).
@@ -365,7 +430,17 @@ describe("R9 — 24 V lead-acid, 1 A solenoid valve coil, mosfet-logic (2 kHz, 3
 describe("R9b — a coil that cannot pull in at the end of discharge is not feasible", () => {
   // Pull-in at 95 % of the rated current: at 21 V the coil draws at most (21 − V_sw)/24 ≈ 0.874 A full on,
   // below 0.95 A, so the valve would never open (R–L step: the current never exceeds V/R).
-  const s = size({ supply_V: 24, load_A: 1, chain: "mosfet-logic", load_kind: "solenoid", pwm_Hz: 2000, duty: [0.3, 0.85], ambient_C: [0, 45], supply: { battery: "lead-acid" }, solenoid: { tau_ms: 10, pull_in_ms: 30, pull_in_share: 0.95, hold_share: 0.4 } });
+  const s = size({
+    supply_V: 24,
+    load_A: 1,
+    chain: "mosfet-logic",
+    load_kind: "solenoid",
+    pwm_Hz: 2000,
+    duty: [0.3, 0.85],
+    ambient_C: [0, 45],
+    supply: { battery: "lead-acid" },
+    solenoid: { tau_ms: 10, pull_in_ms: 30, pull_in_share: 0.95, hold_share: 0.4 },
+  });
   it("the failing solenoid rule blocks the verdict", () => {
     expect(s.problems.find((p) => p.rule === "solenoid-pull-in")?.severity).toBe("error");
     expect(s.verdict.status).toBe("not-feasible");

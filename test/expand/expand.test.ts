@@ -13,13 +13,25 @@ const record: DesignRecord = {
   id: "bench-fan",
   title: "Bench fan",
   summary: "Fixture.",
-  axes: { supply_V: [12, 24], load_A: [0.5, 2, 3], chain: ["bjt-single", "mosfet-logic"], load_kind: ["motor", "resistive"] },
+  axes: {
+    supply_V: [12, 24],
+    load_A: [0.5, 2, 3],
+    chain: ["bjt-single", "mosfet-logic"],
+    load_kind: ["motor", "resistive"],
+  },
   targets: { pwm_Hz: 20000, duty_min: 0.2, duty_max: 0.9, ambient_C: [0, 40], supply_tolerance: 0.15 },
 };
 const policy = { id: "fixture-policy" } as unknown as DeratingPolicy;
 /** Stand-in device choice: a fake class per role that records the supply and current it was chosen for. */
-const fakeChoose = (_r: DesignRecord, supply_V: number, load_A: number, _chain?: string): Record<DeviceRole, DeviceClass> =>
-  Object.fromEntries(DEVICE_ROLES.map((role) => [role, { id: `${role}-${supply_V}-${load_A}` } as DeviceClass])) as Record<DeviceRole, DeviceClass>;
+const fakeChoose = (
+  _r: DesignRecord,
+  supply_V: number,
+  load_A: number,
+  _chain?: string,
+): Record<DeviceRole, DeviceClass> =>
+  Object.fromEntries(
+    DEVICE_ROLES.map((role) => [role, { id: `${role}-${supply_V}-${load_A}` } as DeviceClass]),
+  ) as Record<DeviceRole, DeviceClass>;
 
 describe("expandDesign", () => {
   it("makes the full cross product (2 × 3 × 2 × 2 = 24), supply outermost, load kind innermost", () => {
@@ -38,7 +50,15 @@ describe("expandDesign", () => {
 
   it("fills target defaults, keeps values the record states, and defaults the breakdown protection", () => {
     const [spec] = expandDesign(record, { choose: fakeChoose, policy });
-    expect(spec?.targets).toEqual({ pwm_Hz: 20000, duty_min: 0.2, duty_max: 0.9, ambient_C: [0, 40], supply_tolerance: 0.15, duty_skew_max: 0.02, heatsink_min_KperW: 2 });
+    expect(spec?.targets).toEqual({
+      pwm_Hz: 20000,
+      duty_min: 0.2,
+      duty_max: 0.9,
+      ambient_C: [0, 40],
+      supply_tolerance: 0.15,
+      duty_skew_max: 0.02,
+      heatsink_min_KperW: 2,
+    });
     expect(TARGET_DEFAULTS.supply_tolerance).toBe(0.1);
     expect(spec?.protection).toEqual({ be_breakdown: "series-base-diode" });
     const none = expandDesign({ ...record, protection: { be_breakdown: "none" } }, { choose: fakeChoose, policy });
@@ -49,7 +69,12 @@ describe("expandDesign", () => {
     const choose = vi.fn(fakeChoose);
     const specs = expandDesign(record, { choose, policy });
     expect(choose).toHaveBeenCalledTimes(12);
-    expect(choose.mock.calls.map((c) => [c[1], c[2], c[3]]).slice(0, 4)).toEqual([[12, 0.5, "bjt-single"], [12, 0.5, "mosfet-logic"], [12, 2, "bjt-single"], [12, 2, "mosfet-logic"]]);
+    expect(choose.mock.calls.map((c) => [c[1], c[2], c[3]]).slice(0, 4)).toEqual([
+      [12, 0.5, "bjt-single"],
+      [12, 0.5, "mosfet-logic"],
+      [12, 2, "bjt-single"],
+      [12, 2, "mosfet-logic"],
+    ]);
     expect(specs[5]?.devices.power_npn.id).toBe("power_npn-12-2"); // spec 5: 12 V, 2 A
     expect(specs[0]?.devices).not.toBe(specs[1]?.devices);
     expect(specs[0]?.policy).toBe(policy);
@@ -63,11 +88,21 @@ describe("the demo catalogue, with the real device library and chooser", () => {
     const counts: Record<string, number> = {};
     const ids: string[] = [];
     for (const { record: rec } of r.designs) {
-      const specs = expandDesign(rec, { choose: (x, v, a, c) => chooseDevices(x, r.devices, v, a, c), policy: r.policy });
+      const specs = expandDesign(rec, {
+        choose: (x, v, a, c) => chooseDevices(x, r.devices, v, a, c),
+        policy: r.policy,
+      });
       counts[rec.id] = specs.length;
       ids.push(...specs.map((s) => s.id));
     }
-    expect(counts).toEqual({ "circulation-fan": 48, "grow-light-strip": 72, "irrigation-valve-bank": 80, "nutrient-pump": 42, "seed-mat-heater": 96, "work-lamp": 140 });
+    expect(counts).toEqual({
+      "circulation-fan": 48,
+      "grow-light-strip": 72,
+      "irrigation-valve-bank": 80,
+      "nutrient-pump": 42,
+      "seed-mat-heater": 96,
+      "work-lamp": 140,
+    });
     expect(ids).toHaveLength(478);
     expect(new Set(ids).size).toBe(478);
     expect(ids).toContain("seed-mat-heater-27v6-5a-darlington-3-resistive");

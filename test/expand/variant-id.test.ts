@@ -39,10 +39,14 @@ describe("variantId", () => {
 
   it("gives different ids to different supply or current values (no rounding collisions)", () => {
     fc.assert(
-      fc.property(fc.double({ min: 0.01, max: 30, noNaN: true }), fc.double({ min: 0.01, max: 30, noNaN: true }), (a, b) => {
-        fc.pre(a !== b);
-        return currentTag(a) !== currentTag(b);
-      }),
+      fc.property(
+        fc.double({ min: 0.01, max: 30, noNaN: true }),
+        fc.double({ min: 0.01, max: 30, noNaN: true }),
+        (a, b) => {
+          fc.pre(a !== b);
+          return currentTag(a) !== currentTag(b);
+        },
+      ),
     );
     fc.assert(
       fc.property(fc.double({ min: 3, max: 60, noNaN: true }), fc.double({ min: 3, max: 60, noNaN: true }), (a, b) => {

@@ -39,7 +39,11 @@ export interface CliRun {
 }
 
 /** Starts `pulsewright <args>` with cwd = root; SOURCE_DATE_EPOCH pinned unless env overrides it. */
-export function startCli(root: string, args: string[], env: Record<string, string> = {}): { child: ChildProcess; done: Promise<CliRun> } {
+export function startCli(
+  root: string,
+  args: string[],
+  env: Record<string, string> = {},
+): { child: ChildProcess; done: Promise<CliRun> } {
   const child = spawn(process.execPath, [BIN, ...args], {
     cwd: root,
     env: { ...process.env, SOURCE_DATE_EPOCH: EPOCH, NO_COLOR: "1", ...env },
@@ -74,7 +78,13 @@ export async function fingerprint(dir: string): Promise<Map<string, string>> {
     for (const e of entries) {
       const rel = sub ? `${sub}/${e.name}` : e.name;
       if (e.isDirectory()) await walk(rel);
-      else out.set(rel, createHash("sha256").update(await readFile(path.join(dir, rel))).digest("hex"));
+      else
+        out.set(
+          rel,
+          createHash("sha256")
+            .update(await readFile(path.join(dir, rel)))
+            .digest("hex"),
+        );
     }
   };
   await walk("");

@@ -81,7 +81,10 @@ describe("the demo catalogue, built by the real command", () => {
     child.kill("SIGKILL");
     const killed = await done;
     expect(killed.signal).toBe("SIGKILL");
-    expect((await names(root)).filter((n) => n.startsWith("_site.staging-")), "the killed build left its staging folder").toHaveLength(1);
+    expect(
+      (await names(root)).filter((n) => n.startsWith("_site.staging-")),
+      "the killed build left its staging folder",
+    ).toHaveLength(1);
     expect(await fingerprint(site)).toEqual(firstPrint);
   }, 180_000);
 

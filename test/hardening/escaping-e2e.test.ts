@@ -37,15 +37,27 @@ function parseCsv(text: string): string[][] {
   for (let i = 0; i < text.length; i++) {
     const c = text[i]!;
     if (quoted) {
-      if (c === '"' && text[i + 1] === '"') { cell += '"'; i++; }
-      else if (c === '"') quoted = false;
+      if (c === '"' && text[i + 1] === '"') {
+        cell += '"';
+        i++;
+      } else if (c === '"') quoted = false;
       else cell += c;
     } else if (c === '"') quoted = true;
-    else if (c === ",") { row.push(cell); cell = ""; }
-    else if (c === "\r" && text[i + 1] === "\n") { row.push(cell); rows.push(row); row = []; cell = ""; i++; }
-    else cell += c;
+    else if (c === ",") {
+      row.push(cell);
+      cell = "";
+    } else if (c === "\r" && text[i + 1] === "\n") {
+      row.push(cell);
+      rows.push(row);
+      row = [];
+      cell = "";
+      i++;
+    } else cell += c;
   }
-  if (cell !== "" || row.length) { row.push(cell); rows.push(row); }
+  if (cell !== "" || row.length) {
+    row.push(cell);
+    rows.push(row);
+  }
   return rows;
 }
 
@@ -74,7 +86,10 @@ describe("hostile record text, built by the real command", () => {
     try {
       const page = await browser.newPage();
       const dialogs: string[] = [];
-      page.on("dialog", async (d) => { dialogs.push(d.message()); await d.dismiss(); });
+      page.on("dialog", async (d) => {
+        dialogs.push(d.message());
+        await d.dismiss();
+      });
       let shown = 0;
       for (const f of of(".html")) {
         await page.goto(pathToFileURL(path.join(site, f)).href, { waitUntil: "load" });
@@ -123,10 +138,15 @@ describe("hostile record text, built by the real command", () => {
       for (const line of lines) {
         expect(line, f).toMatch(/^[\x20-\x7e]*\r?$/); // printable ASCII only
         if (line.startsWith("*") || line.trim() === "") continue;
-        expect(line, f).not.toMatch(/__pw|onerror|onload|HYPERLINK|passwd|^\s*\.(control|endc|include|lib)\b|^\s*shell\b/i);
+        expect(line, f).not.toMatch(
+          /__pw|onerror|onload|HYPERLINK|passwd|^\s*\.(control|endc|include|lib)\b|^\s*shell\b/i,
+        );
         expect(line, f).toMatch(/^(\.[a-z]+\b|[A-Za-z][A-Za-z0-9_]*\s|\+)/); // element line, directive or continuation
       }
-      expect(lines.some((l) => l.startsWith("*") && l.includes("__pw=1")), "the title is kept, as a comment").toBe(true);
+      expect(
+        lines.some((l) => l.startsWith("*") && l.includes("__pw=1")),
+        "the title is kept, as a comment",
+      ).toBe(true);
     }
   });
 

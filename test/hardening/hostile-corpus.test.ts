@@ -25,7 +25,8 @@ const own = (c: HostileCase): string => c.place ?? `designs/${c.file}`;
 async function place(root: string, c: HostileCase): Promise<string> {
   const at = path.join(root, own(c));
   for (const f of c.remove ?? []) await rm(path.join(root, f));
-  for (const [src, dest] of Object.entries(c.extra ?? {})) await writeFile(path.join(root, dest), await readFile(path.join(CORPUS, "extra", src)));
+  for (const [src, dest] of Object.entries(c.extra ?? {}))
+    await writeFile(path.join(root, dest), await readFile(path.join(CORPUS, "extra", src)));
   if (c.kind === "folder" || c.kind === "dangling" || c.kind === "outside") {
     if (c.kind === "folder") await mkdir(at);
     else await symlink(c.kind === "dangling" ? "missing-target.json" : path.join(CORPUS, "linked-design.json"), at);
@@ -52,10 +53,22 @@ function expectedLine(c: HostileCase, text: string): number {
 /** The refusal line for a case among printed issue lines, checked for line, column and remedy. */
 function expectRefused(c: HostileCase, printed: string, text: string): void {
   const file = c.inFile ?? own(c);
-  const lines = printed.split("\n").map((l) => ISSUE_LINE.exec(l)).filter((m) => m !== null);
-  const hit = lines.find((m) => m[1] === file && m[4] === (c.pointer === "" ? "(whole file)" : c.pointer) && c.says.test(m[5]!));
-  const mine = printed.split("\n").filter((l) => l.startsWith(`${file}:`)).slice(0, 20).join("\n");
-  expect(hit, `${c.file} (${c.what}): no refusal at ${c.pointer} matching ${c.says}; its lines were:\n${mine}`).toBeDefined();
+  const lines = printed
+    .split("\n")
+    .map((l) => ISSUE_LINE.exec(l))
+    .filter((m) => m !== null);
+  const hit = lines.find(
+    (m) => m[1] === file && m[4] === (c.pointer === "" ? "(whole file)" : c.pointer) && c.says.test(m[5]!),
+  );
+  const mine = printed
+    .split("\n")
+    .filter((l) => l.startsWith(`${file}:`))
+    .slice(0, 20)
+    .join("\n");
+  expect(
+    hit,
+    `${c.file} (${c.what}): no refusal at ${c.pointer} matching ${c.says}; its lines were:\n${mine}`,
+  ).toBeDefined();
   expect(Number(hit![2]), `${c.file}: line`).toBe(expectedLine(c, text));
   if (c.col !== undefined) expect(Number(hit![3]), `${c.file}: column`).toBe(c.col);
   expect(hit![6]!.length, `${c.file}: a remedy`).toBeGreaterThan(8);

@@ -29,7 +29,8 @@ export const DESIGN = {
 export async function makeHostileProject(): Promise<string> {
   const root = await makeRoot();
   const designs = path.join(root, "designs");
-  for (const f of await readdir(designs)) if (f.endsWith(".json")) await import("node:fs/promises").then((m) => m.rm(path.join(designs, f)));
+  for (const f of await readdir(designs))
+    if (f.endsWith(".json")) await import("node:fs/promises").then((m) => m.rm(path.join(designs, f)));
   await writeFile(path.join(designs, `${DESIGN.id}.json`), JSON.stringify(DESIGN, null, 2));
   const devDir = path.join(designs, "devices");
   for (const f of await readdir(devDir)) {

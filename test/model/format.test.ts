@@ -27,19 +27,26 @@ function readBack(text: string, unit: string): number {
 describe("formatValue on any finite number", () => {
   it("never throws, prints a plain number, and reads back to the value within its rounding", () => {
     fc.assert(
-      fc.property(fc.double({ noNaN: true, noDefaultInfinity: true }), fc.constantFrom(...UNITS), fc.integer({ min: 1, max: 6 }), (x, unit, digits) => {
-        const text = formatValue(x, unit, digits);
-        expect(text).not.toMatch(/NaN|Infinity|undefined/);
-        const back = readBack(text, unit);
-        if (x === 0) {
-          expect(back).toBe(0);
-          return;
-        }
-        // digits significant digits: relative error ≤ half a unit in the last place (+ the prefix's own
-        // rounding); the percent form of a value near the largest double shifts the exponent exactly.
-        const rel = Math.abs(back - x) / Math.abs(x);
-        expect(Number.isFinite(back) ? rel : 0, `${x} → ${text}`).toBeLessThanOrEqual(0.5 * 10 ** (1 - digits) * 1.0001 + 1e-12);
-      }),
+      fc.property(
+        fc.double({ noNaN: true, noDefaultInfinity: true }),
+        fc.constantFrom(...UNITS),
+        fc.integer({ min: 1, max: 6 }),
+        (x, unit, digits) => {
+          const text = formatValue(x, unit, digits);
+          expect(text).not.toMatch(/NaN|Infinity|undefined/);
+          const back = readBack(text, unit);
+          if (x === 0) {
+            expect(back).toBe(0);
+            return;
+          }
+          // digits significant digits: relative error ≤ half a unit in the last place (+ the prefix's own
+          // rounding); the percent form of a value near the largest double shifts the exponent exactly.
+          const rel = Math.abs(back - x) / Math.abs(x);
+          expect(Number.isFinite(back) ? rel : 0, `${x} → ${text}`).toBeLessThanOrEqual(
+            0.5 * 10 ** (1 - digits) * 1.0001 + 1e-12,
+          );
+        },
+      ),
       { numRuns: 5000 },
     );
   });

@@ -47,7 +47,10 @@ describe("loadProject rejects bad bytes with a clear place", () => {
   });
 
   it("a UTF-8 byte-order mark: tells them to save without BOM", async () => {
-    const [issue] = await issuesFor("with-bom", new Uint8Array([0xef, 0xbb, 0xbf, ...enc.encode('{ "id": "with-bom" }')]));
+    const [issue] = await issuesFor(
+      "with-bom",
+      new Uint8Array([0xef, 0xbb, 0xbf, ...enc.encode('{ "id": "with-bom" }')]),
+    );
     expect(issue?.message).toMatch(/byte-order mark/);
     expect(issue?.remedy).toBe("save the file as UTF-8 without BOM");
     expect([issue?.line, issue?.col]).toEqual([1, 1]);

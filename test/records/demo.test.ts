@@ -12,11 +12,22 @@ import { REPO, cleanProjects, makeProject } from "./project.ts";
 
 afterAll(cleanProjects);
 
-const DEMO = ["circulation-fan", "grow-light-strip", "irrigation-valve-bank", "nutrient-pump", "seed-mat-heater", "work-lamp"];
+const DEMO = [
+  "circulation-fan",
+  "grow-light-strip",
+  "irrigation-valve-bank",
+  "nutrient-pump",
+  "seed-mat-heater",
+  "work-lamp",
+];
 
 async function demoProject(): Promise<string> {
   const names = (await readdir(join(REPO, "designs"))).filter((n) => n.endsWith(".json")).sort();
-  return makeProject(await Promise.all(names.map(async (n) => ({ path: `designs/${n}`, content: await readFile(join(REPO, "designs", n)) }))));
+  return makeProject(
+    await Promise.all(
+      names.map(async (n) => ({ path: `designs/${n}`, content: await readFile(join(REPO, "designs", n)) })),
+    ),
+  );
 }
 
 describe("demo design records", () => {
@@ -30,16 +41,27 @@ describe("demo design records", () => {
     const r = await loadProject(await demoProject());
     if (!r.ok) throw new Error("demo records must load");
     const counts = Object.fromEntries(r.designs.map((d) => [d.record.id, variantCount(d.record)]));
-    expect(counts).toEqual({ "circulation-fan": 48, "grow-light-strip": 72, "irrigation-valve-bank": 80, "nutrient-pump": 42, "seed-mat-heater": 96, "work-lamp": 140 });
+    expect(counts).toEqual({
+      "circulation-fan": 48,
+      "grow-light-strip": 72,
+      "irrigation-valve-bank": 80,
+      "nutrient-pump": 42,
+      "seed-mat-heater": 96,
+      "work-lamp": 140,
+    });
   });
 
   it("LED strips are dimmed at ≥ 3 kHz, the no-observable-effect bound of IEEE Std 1789-2015 §8.1.1 (seen in a reproduction)", async () => {
-    const strip = JSON.parse(await readFile(join(REPO, "designs", "grow-light-strip.json"), "utf8")) as { targets: { pwm_Hz: number } };
+    const strip = JSON.parse(await readFile(join(REPO, "designs", "grow-light-strip.json"), "utf8")) as {
+      targets: { pwm_Hz: number };
+    };
     expect(strip.targets.pwm_Hz).toBeGreaterThanOrEqual(3000);
   });
 
   it("fans run above the audible band, ≈ 20 kHz (common practice)", async () => {
-    const fan = JSON.parse(await readFile(join(REPO, "designs", "circulation-fan.json"), "utf8")) as { targets: { pwm_Hz: number } };
+    const fan = JSON.parse(await readFile(join(REPO, "designs", "circulation-fan.json"), "utf8")) as {
+      targets: { pwm_Hz: number };
+    };
     expect(fan.targets.pwm_Hz).toBeGreaterThanOrEqual(20000);
   });
 

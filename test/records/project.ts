@@ -23,7 +23,8 @@ export async function makeProject(files: ProjectFile[], opts: { base?: boolean }
   const root = await mkdtemp(join(tmpdir(), "pulsewright-records-"));
   made.push(root);
   if (opts.base !== false) {
-    for (const dir of ["schema", "devices", "policies"]) await cp(join(REPO, "designs", dir), join(root, "designs", dir), { recursive: true });
+    for (const dir of ["schema", "devices", "policies"])
+      await cp(join(REPO, "designs", dir), join(root, "designs", dir), { recursive: true });
   }
   await mkdir(join(root, "designs", "schema"), { recursive: true });
   for (const f of files) {

@@ -10,7 +10,9 @@ import { CASES, CORPUS } from "../fixtures/hostile/cases.ts";
 import { cleanProjects, makeProject } from "./project.ts";
 
 /** The corpus's committed design fixtures (device fixtures, generated files and links left out). */
-const DESIGN_CASES = CASES.filter((c) => c.place === undefined && c.bytes === undefined && c.kind === undefined && !c.alone);
+const DESIGN_CASES = CASES.filter(
+  (c) => c.place === undefined && c.bytes === undefined && c.kind === undefined && !c.alone,
+);
 
 afterAll(cleanProjects);
 
@@ -18,27 +20,40 @@ describe("loading the whole corpus at once", () => {
   it("returns issues for every bad file, never throws, and leaves Object.prototype untouched", async () => {
     const before = Object.getOwnPropertyNames(Object.prototype).sort();
     const names = DESIGN_CASES.map((c) => c.file).sort();
-    const files = await Promise.all(names.map(async (n) => ({ path: `designs/${n}`, content: await readFile(join(CORPUS, n)) })));
+    const files = await Promise.all(
+      names.map(async (n) => ({ path: `designs/${n}`, content: await readFile(join(CORPUS, n)) })),
+    );
     const root = await makeProject(files);
     const result = await loadProject(root);
     expect(result.ok).toBe(false);
     const withIssues = new Set(result.ok ? [] : result.issues.map((i) => i.file));
     // Every hostile design file gets at least one issue, except those whose problem lives in another file.
     const clean = names.filter((n) => !withIssues.has(`designs/${n}`));
-    expect(clean.sort()).toEqual(DESIGN_CASES.filter((c) => c.inFile !== undefined).map((c) => c.file).sort());
+    expect(clean.sort()).toEqual(
+      DESIGN_CASES.filter((c) => c.inFile !== undefined)
+        .map((c) => c.file)
+        .sort(),
+    );
     expect(Object.getOwnPropertyNames(Object.prototype).sort()).toEqual(before);
     expect(({} as Record<string, unknown>)["polluted"]).toBeUndefined();
   });
 
   it("a prototype key hidden behind a \\u escape is caught before any object is built", () => {
-    const r = parseRecordFile("designs/x.json", new TextEncoder().encode('{ "a": { "__pro\\u0074o__": { "polluted": true } } }'));
+    const r = parseRecordFile(
+      "designs/x.json",
+      new TextEncoder().encode('{ "a": { "__pro\\u0074o__": { "polluted": true } } }'),
+    );
     expect(r.ok).toBe(false);
     expect(({} as Record<string, unknown>)["polluted"]).toBeUndefined();
   });
 
   it("output is deterministic: two loads give the same issues in the same order", async () => {
-    const names = DESIGN_CASES.map((c) => c.file).sort().slice(0, 12);
-    const files = await Promise.all(names.map(async (n) => ({ path: `designs/${n}`, content: await readFile(join(CORPUS, n)) })));
+    const names = DESIGN_CASES.map((c) => c.file)
+      .sort()
+      .slice(0, 12);
+    const files = await Promise.all(
+      names.map(async (n) => ({ path: `designs/${n}`, content: await readFile(join(CORPUS, n)) })),
+    );
     const a = await loadProject(await makeProject(files));
     const b = await loadProject(await makeProject([...files].reverse()));
     expect(a).toEqual(b);

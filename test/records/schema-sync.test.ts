@@ -12,8 +12,16 @@ import { AXES_KEYS, DESIGN_KEYS, PROTECTION_KEYS, TARGET_KEYS } from "../../src/
 import { ROLE_FAMILY } from "../../src/records/roles.ts";
 import { REPO } from "./project.ts";
 
-interface Node { properties?: Record<string, Node>; items?: Node; enum?: string[]; required?: string[] }
-const schema = JSON.parse(readFileSync(join(REPO, "designs/schema/design.schema.json"), "utf8")) as Node & { $id: string; $schema: string };
+interface Node {
+  properties?: Record<string, Node>;
+  items?: Node;
+  enum?: string[];
+  required?: string[];
+}
+const schema = JSON.parse(readFileSync(join(REPO, "designs/schema/design.schema.json"), "utf8")) as Node & {
+  $id: string;
+  $schema: string;
+};
 const props = (n: Node | undefined): string[] => Object.keys(n?.properties ?? {}).sort();
 const sorted = (xs: readonly string[]): string[] => [...xs].sort();
 
@@ -47,22 +55,31 @@ describe("design.schema.json ↔ DesignRecord", () => {
 interface DeviceSchema {
   properties: { family: { enum: string[] } };
   allOf: { if: { properties: { family: { enum?: string[]; const?: string } } }; then: { $ref: string } }[];
-  $defs: Record<string, { properties: Record<string, unknown> & { sources?: { propertyNames: { enum: string[] } } }; required?: string[] }> & {
+  $defs: Record<
+    string,
+    { properties: Record<string, unknown> & { sources?: { propertyNames: { enum: string[] } } }; required?: string[] }
+  > & {
     sourceNote: { properties: { confidence: { enum: string[] } } };
   };
 }
 const deviceSchema = JSON.parse(readFileSync(join(REPO, "designs/schema/device.schema.json"), "utf8")) as DeviceSchema;
-const deratingSchema = JSON.parse(readFileSync(join(REPO, "designs/schema/derating.schema.json"), "utf8")) as { $defs: { confidence: { enum: string[] } } };
+const deratingSchema = JSON.parse(readFileSync(join(REPO, "designs/schema/derating.schema.json"), "utf8")) as {
+  $defs: { confidence: { enum: string[] } };
+};
 const deviceFiles = readdirSync(join(REPO, "designs/devices")).filter((n) => n.endsWith(".json"));
-const library = new Map(deviceFiles.map((n) => {
-  const d = JSON.parse(readFileSync(join(REPO, "designs/devices", n), "utf8")) as { id: string; family: string };
-  return [d.id, d] as const;
-}));
+const library = new Map(
+  deviceFiles.map((n) => {
+    const d = JSON.parse(readFileSync(join(REPO, "designs/devices", n), "utf8")) as { id: string; family: string };
+    return [d.id, d] as const;
+  }),
+);
 
 describe("device.schema.json and derating.schema.json ↔ the model's vocabularies", () => {
   it("the family enum is DEVICE_FAMILIES, and every family has its own branch of the schema", () => {
     expect(deviceSchema.properties.family.enum).toEqual([...DEVICE_FAMILIES]);
-    const branched = deviceSchema.allOf.flatMap((b) => b.if.properties.family.enum ?? [b.if.properties.family.const ?? ""]);
+    const branched = deviceSchema.allOf.flatMap(
+      (b) => b.if.properties.family.enum ?? [b.if.properties.family.const ?? ""],
+    );
     expect(sorted(branched)).toEqual(sorted(DEVICE_FAMILIES));
   });
   it("the confidence enums are CONFIDENCE", () => {

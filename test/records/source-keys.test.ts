@@ -12,7 +12,10 @@ import { FIXTURES, REPO, cleanProjects, lineOf, makeProject } from "./project.ts
 
 afterAll(cleanProjects);
 
-const valid = async () => ({ path: "designs/valid-fixture.json", content: await readFile(join(FIXTURES, "good", "valid-fixture.json")) });
+const valid = async () => ({
+  path: "designs/valid-fixture.json",
+  content: await readFile(join(FIXTURES, "good", "valid-fixture.json")),
+});
 
 function capture() {
   const out: string[] = [];
@@ -40,8 +43,12 @@ describe("source keys in device classes and policies", () => {
 
   it("an unknown key in a derating rule is refused; a listed key passes", async () => {
     const real = JSON.parse(await readFile(join(REPO, "designs/policies/default.json"), "utf8"));
-    const policy = (key: string) => JSON.stringify({ ...real, bjt: { ...real.bjt, power: { ...real.bjt.power, source: key } } }, null, 2);
-    const bad = await makeProject([await valid(), { path: "designs/policies/default.json", content: policy("a-handbook-nobody-has") }]);
+    const policy = (key: string) =>
+      JSON.stringify({ ...real, bjt: { ...real.bjt, power: { ...real.bjt.power, source: key } } }, null, 2);
+    const bad = await makeProject([
+      await valid(),
+      { path: "designs/policies/default.json", content: policy("a-handbook-nobody-has") },
+    ]);
     const r = await loadProject(bad);
     expect(r.ok).toBe(false);
     if (!r.ok) {
@@ -49,7 +56,10 @@ describe("source keys in device classes and policies", () => {
       expect(r.issues[0]).toMatchObject({ file: "designs/policies/default.json", pointer: "/bjt/power/source" });
       expect(r.issues[0]!.remedy).toMatch(/docs\/sources\.md/);
     }
-    const good = await makeProject([await valid(), { path: "designs/policies/default.json", content: policy("nasa-eee-inst-002") }]);
+    const good = await makeProject([
+      await valid(),
+      { path: "designs/policies/default.json", content: policy("nasa-eee-inst-002") },
+    ]);
     expect((await loadProject(good)).ok).toBe(true);
   });
 

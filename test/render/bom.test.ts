@@ -11,11 +11,22 @@ function parseCsv(text: string): string[][] {
   for (let i = 0; i < text.length; i++) {
     const ch = text[i]!;
     if (q) {
-      if (ch === '"' && text[i + 1] === '"') { cell += '"'; i++; } else if (ch === '"') q = false; else cell += ch;
+      if (ch === '"' && text[i + 1] === '"') {
+        cell += '"';
+        i++;
+      } else if (ch === '"') q = false;
+      else cell += ch;
     } else if (ch === '"') q = true;
-    else if (ch === ",") { row.push(cell); cell = ""; }
-    else if (ch === "\r" && text[i + 1] === "\n") { row.push(cell); rows.push(row); row = []; cell = ""; i++; }
-    else cell += ch;
+    else if (ch === ",") {
+      row.push(cell);
+      cell = "";
+    } else if (ch === "\r" && text[i + 1] === "\n") {
+      row.push(cell);
+      rows.push(row);
+      row = [];
+      cell = "";
+      i++;
+    } else cell += ch;
   }
   return rows;
 }
@@ -52,13 +63,15 @@ describe("CSV injection and quoting", () => {
     expect(unq.startsWith("'")).toBe(true);
   });
   it("quotes commas, quotes and line breaks", () => {
-    expect(csvCell('a,b')).toBe('"a,b"');
+    expect(csvCell("a,b")).toBe('"a,b"');
     expect(csvCell('say "hi"')).toBe('"say ""hi"""');
     expect(csvCell("two\nlines")).toBe('"two\nlines"');
   });
   it("a hostile part note survives as inert text", () => {
     const f = CIRCUIT_FIXTURES[0]!;
-    const parts = f.circuit.parts.map((p, i) => (i === 0 ? { ...p, notes: ['=HYPERLINK("http://x","y")', "line\r\nbreak"] } : p));
+    const parts = f.circuit.parts.map((p, i) =>
+      i === 0 ? { ...p, notes: ['=HYPERLINK("http://x","y")', "line\r\nbreak"] } : p,
+    );
     const rows = parseCsv(renderBom({ ...f.circuit, parts }));
     const note = rows.find((r) => r[0] === parts[0]!.ref)!.at(-1)!;
     expect(note.startsWith("'=")).toBe(true);

@@ -18,16 +18,32 @@ import { classify } from "./netlist-read.ts";
 import { geometryProblems } from "./schematic-geometry.ts";
 import { boxAttr, overlaps, readSvg, type B } from "./svg-read.ts";
 
-interface Demo { id: string; title: string; supply_V: number; pwm_Hz: number; circuit: CircuitModel }
+interface Demo {
+  id: string;
+  title: string;
+  supply_V: number;
+  pwm_Hz: number;
+  circuit: CircuitModel;
+}
 
 async function demo(): Promise<{ variants: Demo[]; devices: DeviceLibrary }> {
   const r = await loadProject(REPO);
   if (!r.ok) throw new Error(`demo records must load: ${r.issues[0]?.message}`);
   const variants: Demo[] = [];
   for (const { record } of r.designs) {
-    for (const spec of expandDesign(record, { choose: (x, v, a, c) => chooseDevices(x, r.devices, v, a, c), policy: r.policy })) {
+    for (const spec of expandDesign(record, {
+      choose: (x, v, a, c) => chooseDevices(x, r.devices, v, a, c),
+      policy: r.policy,
+    })) {
       const sized = sizeVariant(spec);
-      if (sized.circuit) variants.push({ id: spec.id, title: spec.designTitle, supply_V: spec.supply_V, pwm_Hz: spec.targets.pwm_Hz, circuit: sized.circuit });
+      if (sized.circuit)
+        variants.push({
+          id: spec.id,
+          title: spec.designTitle,
+          supply_V: spec.supply_V,
+          pwm_Hz: spec.targets.pwm_Hz,
+          circuit: sized.circuit,
+        });
     }
   }
   return { variants, devices: r.devices };
@@ -50,11 +66,15 @@ describe("the demo catalogue renders", async () => {
         ...symbols.map((s) => boxAttr(s, `symbol ${s.attr("data-ref")}`)),
         ...[...doc.find("[data-ground]")].map((g) => boxAttr(g, "ground")),
         ...[...doc.find("[data-flag]")].map((g) => boxAttr(g, `flag ${g.attr("data-net")}`)),
-        ...[...doc.find("text[data-label-for]")].map((t) => ({ ...t.bbox(), what: `label ${t.attr("data-label-for")}` })),
+        ...[...doc.find("text[data-label-for]")].map((t) => ({
+          ...t.bbox(),
+          what: `label ${t.attr("data-label-for")}`,
+        })),
       ];
-      for (let i = 0; i < boxes.length; i++) for (let j = i + 1; j < boxes.length; j++) {
-        if (overlaps(boxes[i]!, boxes[j]!)) problems.push(`${v.id}: ${boxes[i]!.what} × ${boxes[j]!.what}`);
-      }
+      for (let i = 0; i < boxes.length; i++)
+        for (let j = i + 1; j < boxes.length; j++) {
+          if (overlaps(boxes[i]!, boxes[j]!)) problems.push(`${v.id}: ${boxes[i]!.what} × ${boxes[j]!.what}`);
+        }
     }
     expect(problems).toEqual([]);
   }, 120_000);
@@ -75,16 +95,26 @@ describe("the demo catalogue renders", async () => {
   it("netlists: only generated line shapes, every part findable by its ref", () => {
     const problems: string[] = [];
     for (const v of variants) {
-      const text = renderNetlist(v.circuit, { id: v.id, title: v.title, supply_V: v.supply_V, frequency_Hz: v.pwm_Hz, devices });
+      const text = renderNetlist(v.circuit, {
+        id: v.id,
+        title: v.title,
+        supply_V: v.supply_V,
+        frequency_Hz: v.pwm_Hz,
+        devices,
+      });
       for (const l of text.trimEnd().split("\n")) if (classify(l) === null) problems.push(`${v.id}: ${l}`);
-      for (const p of v.circuit.parts) if (!new RegExp(`^[A-Z]*${p.ref}[AB]? `, "m").test(text)) problems.push(`${v.id}: ${p.ref} missing`);
+      for (const p of v.circuit.parts)
+        if (!new RegExp(`^[A-Z]*${p.ref}[AB]? `, "m").test(text)) problems.push(`${v.id}: ${p.ref} missing`);
     }
     expect(problems).toEqual([]);
   });
 
   it("parts lists: every ref exactly once", () => {
     for (const v of variants) {
-      const refs = renderBom(v.circuit).split("\r\n").slice(1, -1).flatMap((row) => row.split(",")[0]!.replace(/"/g, "").split(" "));
+      const refs = renderBom(v.circuit)
+        .split("\r\n")
+        .slice(1, -1)
+        .flatMap((row) => row.split(",")[0]!.replace(/"/g, "").split(" "));
       expect(refs.sort()).toEqual(v.circuit.parts.map((p) => p.ref).sort());
     }
   });

@@ -1,7 +1,8 @@
 /** Test helpers: read a generated netlist back, and classify its lines. */
 export type LineKind = "comment" | "element" | "param" | "model" | "ic" | "temp" | "options" | "tran" | "end";
 
-const ELEMENT = /^[RCLDQMV][A-Za-z0-9_]* [a-z0-9_]+ [a-z0-9_]+( [a-z0-9_]+)?( [A-Z0-9_]+| DC -?[0-9.e+-]+| -?[0-9.e+-]+( IC=[0-9.e+-]+)?| \{max\(1e-3, [0-9.e+-]+\*(ctrl|\(1-ctrl\))\)\})$/;
+const ELEMENT =
+  /^[RCLDQMV][A-Za-z0-9_]* [a-z0-9_]+ [a-z0-9_]+( [a-z0-9_]+)?( [A-Z0-9_]+| DC -?[0-9.e+-]+| -?[0-9.e+-]+( IC=[0-9.e+-]+)?| \{max\(1e-3, [0-9.e+-]+\*(ctrl|\(1-ctrl\))\)\})$/;
 
 /** Every line must be one we generate: a `* ` comment or one of a closed set of shapes. */
 export function classify(line: string): LineKind | null {

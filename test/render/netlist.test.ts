@@ -12,13 +12,22 @@ const render = (f: (typeof CIRCUIT_FIXTURES)[number], extra: object = {}) =>
 /** Element names that carry a part, per part kind (the ref stays whole inside the name). */
 function namesFor(ref: string, kind: string): string[] {
   switch (kind) {
-    case "potentiometer": return [`R${ref}A`, `R${ref}B`];
-    case "nmos": case "pmos": return [`M${ref}`];
-    case "fuse": case "lamp": case "heater": return [`R${ref}`];
+    case "potentiometer":
+      return [`R${ref}A`, `R${ref}B`];
+    case "nmos":
+    case "pmos":
+      return [`M${ref}`];
+    case "fuse":
+    case "lamp":
+    case "heater":
+      return [`R${ref}`];
     // winding R, winding L, then the back-EMF at rated speed as a DC source (V<ref>EMF)
-    case "motor": return [`R${ref}`, `L${ref}`, `V${ref}EMF`];
-    case "led-strip": return [`D${ref}`, `R${ref}`];
-    default: return [ref];
+    case "motor":
+      return [`R${ref}`, `L${ref}`, `V${ref}EMF`];
+    case "led-strip":
+      return [`D${ref}`, `R${ref}`];
+    default:
+      return [ref];
   }
 }
 
@@ -28,7 +37,10 @@ describe.each(CIRCUIT_FIXTURES)("netlist of the $name fixture", (f) => {
 
   it("is ASCII and every line is a comment or a line shape the renderer generates", () => {
     expect(/^[\n -~]*$/.test(text)).toBe(true);
-    const bad = text.trimEnd().split("\n").filter((l) => classify(l) === null);
+    const bad = text
+      .trimEnd()
+      .split("\n")
+      .filter((l) => classify(l) === null);
     expect(bad).toEqual([]);
   });
 
@@ -65,7 +77,11 @@ describe.each(CIRCUIT_FIXTURES)("netlist of the $name fixture", (f) => {
   });
 
   it("emits one .model card per device class used, plus a typical-junction card for the timing transistors' class", () => {
-    const used = new Set(f.circuit.parts.map((p) => (p.spice?.model ? `${p.spice.model}${isTimingTransistor(p) ? "#timing" : ""}` : undefined)).filter(Boolean));
+    const used = new Set(
+      f.circuit.parts
+        .map((p) => (p.spice?.model ? `${p.spice.model}${isTimingTransistor(p) ? "#timing" : ""}` : undefined))
+        .filter(Boolean),
+    );
     const cards = text.split("\n").filter((l) => l.startsWith(".model ") && !l.startsWith(".model LEDSTR_"));
     expect(cards.length).toBe(used.size);
   });
@@ -127,9 +143,13 @@ describe("LED strip diode law", () => {
   const card = (text: string) => text.split("\n").find((l) => l.startsWith(`.model LEDSTR_${strip.ref} `))!;
   it("uses the engine's spice.is_A and spice.n when the part gives them", () => {
     const parts = f.circuit.parts.map((p) => (p === strip ? { ...p, spice: { ...p.spice, is_A: 2e-18, n: 7.5 } } : p));
-    expect(card(renderNetlist({ ...f.circuit, parts }, { ...f.meta, devices: FIXTURE_DEVICES }))).toBe(`.model LEDSTR_${strip.ref} D(IS=2e-18 N=7.5 RS=0 TNOM=25)`);
+    expect(card(renderNetlist({ ...f.circuit, parts }, { ...f.meta, devices: FIXTURE_DEVICES }))).toBe(
+      `.model LEDSTR_${strip.ref} D(IS=2e-18 N=7.5 RS=0 TNOM=25)`,
+    );
   });
   it("otherwise solves N so the string drops spice.vf_V at its current with IS = 1e-12", () => {
-    expect(card(render(f))).toMatch(new RegExp(`^\\.model LEDSTR_${strip.ref} D\\(IS=1e-12 N=[0-9.]+ RS=0 TNOM=25\\)$`));
+    expect(card(render(f))).toMatch(
+      new RegExp(`^\\.model LEDSTR_${strip.ref} D\\(IS=1e-12 N=[0-9.]+ RS=0 TNOM=25\\)$`),
+    );
   });
 });

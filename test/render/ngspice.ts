@@ -14,7 +14,8 @@ if (!hasNgspice) console.warn(`render tests: ${NGSPICE} not found; SPICE checks 
  * netlist does (every card's TNOM equals it: src/engine/shared/temperature.ts).
  */
 export function runNgspice(text: string): string {
-  if (!/^\.temp\b/im.test(text)) text = withStatements(text.endsWith("\n") ? text : `${text}\n`, [`.temp ${NOMINAL_TEMP_C}`]);
+  if (!/^\.temp\b/im.test(text))
+    text = withStatements(text.endsWith("\n") ? text : `${text}\n`, [`.temp ${NOMINAL_TEMP_C}`]);
   const dir = mkdtempSync(join(tmpdir(), "pw-render-"));
   try {
     const file = join(dir, "in.cir");

@@ -13,21 +13,38 @@ function waves(): WaveformSet {
   const T = 1 / 1300;
   for (let i = 0; i <= 600; i++) {
     const t = 0.004 + (i / 600) * 3 * T;
-    const on = ((t / T) % 1) < 0.4;
+    const on = (t / T) % 1 < 0.4;
     t_s.push(t);
-    ca.push(on ? 0.1 : 11.9 * (1 - Math.exp(-(((t / T) % 1) - 0.4) * T / 22e-6)));
+    ca.push(on ? 0.1 : 11.9 * (1 - Math.exp((-(((t / T) % 1) - 0.4) * T) / 22e-6)));
     inp.push(on ? 0 : 1.3);
     il.push(on ? 0 : 0.98);
   }
-  return { t_s, series: [{ name: "v(ca)", unit: "V", values: ca }, { name: "v(d1b)", unit: "V", values: inp }, { name: "i(Vsense)", unit: "A", values: il }], threshold_V: 1.3 };
+  return {
+    t_s,
+    series: [
+      { name: "v(ca)", unit: "V", values: ca },
+      { name: "v(d1b)", unit: "V", values: inp },
+      { name: "i(Vsense)", unit: "A", values: il },
+    ],
+    threshold_V: 1.3,
+  };
 }
 
 describe("nice ticks", () => {
   it("steps are 1, 2 or 5 × 10^k and cover the range", () => {
-    for (const [lo, hi] of [[0, 12.3], [0, 0.98], [-0.2, 24.5], [0.0040, 0.00631], [3, 3]] as const) {
+    for (const [lo, hi] of [
+      [0, 12.3],
+      [0, 0.98],
+      [-0.2, 24.5],
+      [0.004, 0.00631],
+      [3, 3],
+    ] as const) {
       const { step, ticks } = niceTicks(lo, hi);
       const m = step / 10 ** Math.floor(Math.log10(step) + 1e-12);
-      expect([1, 2, 5].some((k) => Math.abs(m - k) < 1e-9), `step ${step}`).toBe(true);
+      expect(
+        [1, 2, 5].some((k) => Math.abs(m - k) < 1e-9),
+        `step ${step}`,
+      ).toBe(true);
       expect(ticks[0]!).toBeLessThanOrEqual(lo);
       expect(ticks.at(-1)!).toBeGreaterThanOrEqual(hi);
     }

@@ -12,7 +12,13 @@ export function readSvg(text: string) {
   return SVG(text);
 }
 
-export interface B { x: number; y: number; w: number; h: number; what: string }
+export interface B {
+  x: number;
+  y: number;
+  w: number;
+  h: number;
+  what: string;
+}
 
 export const boxAttr = (el: Element, what: string): B => {
   const [x, y, w, h] = String(el.attr("data-box")).split(" ").map(Number) as [number, number, number, number];

@@ -37,5 +37,10 @@ export function urlsIn(html: string): string[] {
 
 /** Minimal HTML entity decoding for attribute and cell text produced by Nunjucks autoescape. */
 export function unescapeHtml(s: string): string {
-  return s.replace(/&lt;/g, "<").replace(/&gt;/g, ">").replace(/&quot;/g, '"').replace(/&#39;/g, "'").replace(/&amp;/g, "&");
+  return s
+    .replace(/&lt;/g, "<")
+    .replace(/&gt;/g, ">")
+    .replace(/&quot;/g, '"')
+    .replace(/&#39;/g, "'")
+    .replace(/&amp;/g, "&");
 }

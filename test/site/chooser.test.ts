@@ -14,12 +14,32 @@ const WINDOW: Record<number, [number, number]> = { 12: [10.5, 14.7], 24: [21, 29
 function e(supply_V: number, load_A: number, chain: string, o: Partial<ChooserEntry> = {}): ChooserEntry {
   const id = `fan-${supply_V}v-${load_A}a-${chain}-motor`;
   const [lo, hi] = WINDOW[supply_V] ?? [supply_V * 0.9, supply_V * 1.1];
-  return { id, design: "fan", designTitle: "Fan", supply_V, supplyMin_V: lo, supplyMax_V: hi, load_A, chain, load_kind: "motor", url: `variants/${id}/index.html`, heatsinkNeeded: false, heatsinkText: "no heatsink needed", ...o };
+  return {
+    id,
+    design: "fan",
+    designTitle: "Fan",
+    supply_V,
+    supplyMin_V: lo,
+    supplyMax_V: hi,
+    load_A,
+    chain,
+    load_kind: "motor",
+    url: `variants/${id}/index.html`,
+    heatsinkNeeded: false,
+    heatsinkText: "no heatsink needed",
+    ...o,
+  };
 }
 
 const INDEX: ChooserEntry[] = [
   e(24, 1, "mosfet-logic", { dissipation_W: 0.05, dutyError: 0.03, parts: 16 }),
-  e(24, 2, "darlington-2", { dissipation_W: 1.9, dutyError: 0.02, parts: 14, heatsinkNeeded: true, heatsinkText: "heatsink ≤ 9 K/W" }),
+  e(24, 2, "darlington-2", {
+    dissipation_W: 1.9,
+    dutyError: 0.02,
+    parts: 14,
+    heatsinkNeeded: true,
+    heatsinkText: "heatsink ≤ 9 K/W",
+  }),
   e(24, 2, "mosfet-logic", { dissipation_W: 0.12, dutyError: 0.035, parts: 15 }),
   e(24, 2, "mosfet-driver", { dissipation_W: 0.1, dutyError: 0.008, parts: 19 }),
   e(24, 3, "mosfet-driver", { dissipation_W: 0.2, dutyError: 0.008, parts: 19 }),
@@ -38,19 +58,39 @@ describe("chooser ranking", () => {
 
   it("without wishes puts the coolest switch first and says why", () => {
     const a = chooseVariants(INDEX, { supply_V: 24, load_A: 2, load_kind: "motor" });
-    expect(a.picks.map((p) => p.entry.chain)).toEqual(["mosfet-driver", "mosfet-logic", "darlington-2", "mosfet-driver"]);
+    expect(a.picks.map((p) => p.entry.chain)).toEqual([
+      "mosfet-driver",
+      "mosfet-logic",
+      "darlington-2",
+      "mosfet-driver",
+    ]);
     expect(a.picks[0]!.reason).toMatch(/coolest switch of 3 feasible chains/);
     expect(a.picks[3]!.reason).toMatch(/next class above 2 A/);
     expect(a.note).toBe("");
   });
 
   it("honours the wishes in order: fewest parts, smallest duty error, no heatsink", () => {
-    const fewest = chooseVariants(INDEX, { supply_V: 24, load_A: 2, load_kind: "motor", wishes: { fewestParts: true } });
+    const fewest = chooseVariants(INDEX, {
+      supply_V: 24,
+      load_A: 2,
+      load_kind: "motor",
+      wishes: { fewestParts: true },
+    });
     expect(fewest.picks[0]!.entry.chain).toBe("darlington-2");
     expect(fewest.picks[0]!.reason).toMatch(/fewest parts \(14\)/);
-    const both = chooseVariants(INDEX, { supply_V: 24, load_A: 2, load_kind: "motor", wishes: { fewestParts: true, noHeatsink: true } });
+    const both = chooseVariants(INDEX, {
+      supply_V: 24,
+      load_A: 2,
+      load_kind: "motor",
+      wishes: { fewestParts: true, noHeatsink: true },
+    });
     expect(both.picks[0]!.entry.chain).toBe("mosfet-logic");
-    const duty = chooseVariants(INDEX, { supply_V: 24, load_A: 2, load_kind: "motor", wishes: { smallestDutyError: true } });
+    const duty = chooseVariants(INDEX, {
+      supply_V: 24,
+      load_A: 2,
+      load_kind: "motor",
+      wishes: { smallestDutyError: true },
+    });
     expect(duty.picks[0]!.entry.chain).toBe("mosfet-driver");
     expect(duty.picks[0]!.reason).toMatch(/smallest duty error \(0\.8 %\)/);
   });
@@ -76,19 +116,33 @@ describe("chooser ranking", () => {
       load_A: fc.constantFrom(0.5, 1, 2, 3),
       chain: fc.constantFrom("mosfet-logic", "darlington-2", "mosfet-driver"),
     });
-    fc.assert(fc.property(fc.array(entry, { minLength: 1, maxLength: 30 }), fc.double({ min: 3, max: 60, noNaN: true }), fc.constantFrom(0.3, 1, 2.5),
-      (raw, supply_V, load_A) => {
-        const index = raw.map((r, i) => ({ ...e(r.nominal, r.load_A, r.chain), id: `v${i}`, supplyMin_V: r.nominal * r.lo, supplyMax_V: r.nominal * r.hi }));
-        const a = chooseVariants(index, { supply_V, load_A, load_kind: "motor" });
-        for (const p of a.picks) {
-          expect(p.entry.supplyMin_V).toBeLessThanOrEqual(supply_V + 1e-9);
-          expect(p.entry.supplyMax_V).toBeGreaterThanOrEqual(supply_V - 1e-9);
-        }
-      }), { numRuns: 300 });
+    fc.assert(
+      fc.property(
+        fc.array(entry, { minLength: 1, maxLength: 30 }),
+        fc.double({ min: 3, max: 60, noNaN: true }),
+        fc.constantFrom(0.3, 1, 2.5),
+        (raw, supply_V, load_A) => {
+          const index = raw.map((r, i) => ({
+            ...e(r.nominal, r.load_A, r.chain),
+            id: `v${i}`,
+            supplyMin_V: r.nominal * r.lo,
+            supplyMax_V: r.nominal * r.hi,
+          }));
+          const a = chooseVariants(index, { supply_V, load_A, load_kind: "motor" });
+          for (const p of a.picks) {
+            expect(p.entry.supplyMin_V).toBeLessThanOrEqual(supply_V + 1e-9);
+            expect(p.entry.supplyMax_V).toBeGreaterThanOrEqual(supply_V - 1e-9);
+          }
+        },
+      ),
+      { numRuns: 300 },
+    );
   });
 
   it("explains an empty answer: current too large, unknown load kind, bad input", () => {
-    expect(chooseVariants(INDEX, { supply_V: 24, load_A: 8, load_kind: "motor" }).note).toMatch(/largest current class offered is 5 A/);
+    expect(chooseVariants(INDEX, { supply_V: 24, load_A: 8, load_kind: "motor" }).note).toMatch(
+      /largest current class offered is 5 A/,
+    );
     expect(chooseVariants(INDEX, { supply_V: 24, load_A: 1, load_kind: "lamp" }).picks).toEqual([]);
     expect(chooseVariants(INDEX, { supply_V: Number.NaN, load_A: 1, load_kind: "motor" }).note).toMatch(/above zero/);
   });

@@ -39,10 +39,22 @@ describe("contrast ratio (WCAG 2.1 definition)", () => {
 describe("the site palette", () => {
   // Every text colour on every background it is used on in site.css.
   const TEXT_PAIRS: [string, string][] = [
-    ["ink", "paper"], ["ink-soft", "paper"], ["link", "paper"], ["link-visited", "paper"], ["band-ink", "band"],
-    ["ok-ink", "ok-bg"], ["bad-ink", "bad-bg"], ["warn-ink", "warn-bg"], ["muted-ink", "muted-bg"],
-    ["warn-ink", "ok-bg"], ["bad-ink", "ok-bg"], ["muted-ink", "ok-bg"], // simulation words inside a feasible cell
-    ["ink", "warn-bg"], ["ink", "head-bg"], ["bad-ink", "paper"], ["warn-ink", "paper"],
+    ["ink", "paper"],
+    ["ink-soft", "paper"],
+    ["link", "paper"],
+    ["link-visited", "paper"],
+    ["band-ink", "band"],
+    ["ok-ink", "ok-bg"],
+    ["bad-ink", "bad-bg"],
+    ["warn-ink", "warn-bg"],
+    ["muted-ink", "muted-bg"],
+    ["warn-ink", "ok-bg"],
+    ["bad-ink", "ok-bg"],
+    ["muted-ink", "ok-bg"], // simulation words inside a feasible cell
+    ["ink", "warn-bg"],
+    ["ink", "head-bg"],
+    ["bad-ink", "paper"],
+    ["warn-ink", "paper"],
   ];
   for (const [fg, bg] of TEXT_PAIRS) {
     it(`--${fg} on --${bg} reaches 4.5:1 (SC 1.4.3)`, () => {

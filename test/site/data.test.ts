@@ -37,7 +37,15 @@ describe("view models", () => {
       { variants: 4, feasible: 3, agree: 1, disagree: 1, failed: 1 },
       { variants: 3, feasible: 2, agree: 1, disagree: 0, failed: 0 },
     ]);
-    expect(view.home.summary).toMatchObject({ variants: 7, feasible: 5, notFeasible: 2, agree: 2, disagree: 1, failed: 1, notSimulated: 3 });
+    expect(view.home.summary).toMatchObject({
+      variants: 7,
+      feasible: 5,
+      notFeasible: 2,
+      agree: 2,
+      disagree: 1,
+      failed: 1,
+      notSimulated: 3,
+    });
   });
 
   it("a design with two load kinds gets one matrix per load kind, rows supply × current, columns chain", () => {

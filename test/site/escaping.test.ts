@@ -36,10 +36,17 @@ describe("escaping of record text", () => {
       expect(html, f).not.toContain("<img src=x");
       // The only scripts are our own assets, loaded by relative URL, and inert JSON data blocks (chooser index, size-your-own data).
       const tags = html.match(/<script\b[^>]*>/g) ?? [];
-      for (const t of tags) expect(t, f).toMatch(/^<script (src="(\.\.\/)*assets\/[a-z-]+\.js" defer|type="application\/json" id="(chooser-index|syo-data)")>$/);
+      for (const t of tags)
+        expect(t, f).toMatch(
+          /^<script (src="(\.\.\/)*assets\/[a-z-]+\.js" defer|type="application\/json" id="(chooser-index|syo-data)")>$/,
+        );
       expect(html).toMatch(/<script src="(\.\.\/)*assets\/filter\.js" defer><\/script>/);
       expect(html).toMatch(/<script src="(\.\.\/)*assets\/search\.js" defer><\/script>/);
-      shown += (html.match(/&lt;script&gt;alert\(&quot;pw&quot;\)&lt;\/script&gt; &amp; &lt;img src=x onerror=alert\(1\)&gt;/g) ?? []).length;
+      shown += (
+        html.match(
+          /&lt;script&gt;alert\(&quot;pw&quot;\)&lt;\/script&gt; &amp; &lt;img src=x onerror=alert\(1\)&gt;/g,
+        ) ?? []
+      ).length;
     }
     // title + summary on the home page; title, summary, note, caption on the design page; several on the variant page
     expect(shown).toBeGreaterThanOrEqual(10);
@@ -49,6 +56,7 @@ describe("escaping of record text", () => {
     const cat = hostileCatalogue();
     const id = cat.designs[0]!.variants[0]!.sized.spec.id;
     const html = await read(site.dir, `variants/${id}/index.html`);
-    for (const word of ["Label", "f", "Caution", "Problem", "Part"]) expect(html, word).toContain(`${word} &lt;script&gt;`);
+    for (const word of ["Label", "f", "Caution", "Problem", "Part"])
+      expect(html, word).toContain(`${word} &lt;script&gt;`);
   });
 });

@@ -51,7 +51,9 @@ describe("files of the built site", () => {
   it("offers no netlist, parts list or schematic for a variant without a circuit", async () => {
     const v = variants.find((x) => x.sized.circuit === null)!;
     const id = v.sized.spec.id;
-    expect(await listFiles(site.dir, `variants/${id}`)).toEqual([`variants/${id}/index.html`, `variants/${id}/${id}.json`].sort());
+    expect(await listFiles(site.dir, `variants/${id}`)).toEqual(
+      [`variants/${id}/index.html`, `variants/${id}/${id}.json`].sort(),
+    );
   });
 });
 
@@ -63,7 +65,14 @@ describe("catalogue.json", () => {
     expect(json.variants.map((v: { id: string }) => v.id)).toEqual(variants.map((v) => v.sized.spec.id));
     for (const [i, entry] of json.variants.entries()) {
       const v = variants[i]!;
-      expect(entry).toMatchObject({ design: v.sized.spec.design, supply_V: v.sized.spec.supply_V, load_A: v.sized.spec.load_A, chain: v.sized.spec.chain, load_kind: v.sized.spec.load_kind, feasible: v.sized.feasible });
+      expect(entry).toMatchObject({
+        design: v.sized.spec.design,
+        supply_V: v.sized.spec.supply_V,
+        load_A: v.sized.spec.load_A,
+        chain: v.sized.spec.chain,
+        load_kind: v.sized.spec.load_kind,
+        feasible: v.sized.feasible,
+      });
       expect(entry.simulation.status).toBe(v.verification?.status ?? "skipped");
       const freq = v.sized.figures.find((f) => f.key === "frequency_nominal");
       expect(entry.predicted.frequency_Hz).toBe(freq?.value);
@@ -79,7 +88,9 @@ describe("catalogue.json", () => {
 
   it("carries no made-up predictions for a variant without a circuit", async () => {
     const json = JSON.parse(await read(site.dir, "catalogue.json"));
-    const entry = json.variants.find((v: { id: string }) => v.id === variants.find((x) => x.sized.circuit === null)!.sized.spec.id);
+    const entry = json.variants.find(
+      (v: { id: string }) => v.id === variants.find((x) => x.sized.circuit === null)!.sized.spec.id,
+    );
     expect(entry.feasible).toBe(false);
     expect(entry.reason).toMatch(/3 A/);
     expect(Object.keys(entry.predicted)).toEqual(["frequency_Hz"]);
@@ -97,7 +108,8 @@ describe("links", () => {
 
   it("uses only relative URLs: no root-relative path, no scheme, no other host", async () => {
     for (const f of (await listFiles(site.dir)).filter((x) => x.endsWith(".html"))) {
-      for (const u of urlsIn(await read(site.dir, f))) expect(u, `${f}: ${u}`).not.toMatch(/^\/|^[a-z][a-z0-9+.-]*:|^\/\//i);
+      for (const u of urlsIn(await read(site.dir, f)))
+        expect(u, `${f}: ${u}`).not.toMatch(/^\/|^[a-z][a-z0-9+.-]*:|^\/\//i);
     }
   });
 });
@@ -108,7 +120,9 @@ describe("variant pages print the numbers of their JSON download", () => {
     it(`${id}: every figure and every comparison`, async () => {
       const html = await read(site.dir, `variants/${id}/index.html`);
       const json = JSON.parse(await read(site.dir, `variants/${id}/${id}.json`));
-      const cells = [...html.matchAll(/<td class="num" data-key="([^"]+)" data-value="([^"]+)" data-unit="([^"]*)">([^<]*)<\/td>/g)];
+      const cells = [
+        ...html.matchAll(/<td class="num" data-key="([^"]+)" data-value="([^"]+)" data-unit="([^"]*)">([^<]*)<\/td>/g),
+      ];
       expect(cells.map((m) => m[1])).toEqual(expect.arrayContaining(json.figures.map((f: { key: string }) => f.key)));
       expect(cells).toHaveLength(json.figures.length);
       for (const [, key, value, unit, text] of cells) {
@@ -117,7 +131,11 @@ describe("variant pages print the numbers of their JSON download", () => {
         expect(unescapeHtml(unit!)).toBe(f.unit);
         expect(unescapeHtml(text!)).toBe(displayNumber(f.value, f.unit, f.key));
       }
-      const rows = [...html.matchAll(/data-key="([^"]+)" data-predicted="([^"]+)">[^<]*<\/td><td class="num" data-simulated="([^"]+)"/g)];
+      const rows = [
+        ...html.matchAll(
+          /data-key="([^"]+)" data-predicted="([^"]+)">[^<]*<\/td><td class="num" data-simulated="([^"]+)"/g,
+        ),
+      ];
       const comps = json.verification.comparisons as { key: string; predicted: number; simulated: number }[];
       expect(rows).toHaveLength(comps.length);
       rows.forEach(([, key, p, s], i) => {
@@ -134,7 +152,15 @@ describe("variant pages print the numbers of their JSON download", () => {
     const parts = v.sized.circuit!.parts;
     expect(json.parts).toHaveLength(parts.length);
     const q = parts.find((p) => p.role === "Q_POWER")!;
-    expect(json.parts.find((p: { ref: string }) => p.ref === q.ref)).toMatchObject({ kind: q.kind, value: q.value, unit: q.unit, rating: q.rating, stress: q.stress, device: q.device, gain_min: q.gain_min });
+    expect(json.parts.find((p: { ref: string }) => p.ref === q.ref)).toMatchObject({
+      kind: q.kind,
+      value: q.value,
+      unit: q.unit,
+      rating: q.rating,
+      stress: q.stress,
+      device: q.device,
+      gain_min: q.gain_min,
+    });
     expect(json.checks).toEqual(v.sized.checks);
     expect(json.problems).toEqual(v.sized.problems);
   });
@@ -174,7 +200,16 @@ describe("what the pages say", () => {
   it("the home page carries the safety cautions, the designs with counts and the build summary", async () => {
     const html = unescapeHtml(await read(site.dir, "index.html"));
     expect(html).toMatch(/<html lang="en">/);
-    for (const w of ["Low-voltage DC only", "burn", "fuse at the battery", "kick-back", "Fire", "local electrical codes", "not certified products"]) expect(html).toContain(w);
+    for (const w of [
+      "Low-voltage DC only",
+      "burn",
+      "fuse at the battery",
+      "kick-back",
+      "Fire",
+      "local electrical codes",
+      "not certified products",
+    ])
+      expect(html).toContain(w);
     expect(html).toContain('href="designs/circulation-fan/index.html"');
     for (const k of ["variants", "feasible", "agree", "disagree", "failed"] as const)
       expect(html).toContain(`data-count="${k}">${cat.summary[k]}<`);

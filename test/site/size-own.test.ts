@@ -16,7 +16,13 @@ const fan = cat.designs[0]!;
 
 describe("size your own", () => {
   it("offers the design's axes from smallest to largest and its PWM frequency within a factor of two", () => {
-    expect(sizeOwnLimits(fan.record)).toEqual({ supply_V: [12, 24], load_A: [0.5, 0.5], pwm_Hz: [10000, 40000], chains: ["darlington-2", "mosfet-driver"], loadKinds: ["motor"] });
+    expect(sizeOwnLimits(fan.record)).toEqual({
+      supply_V: [12, 24],
+      load_A: [0.5, 0.5],
+      pwm_Hz: [10000, 40000],
+      chains: ["darlington-2", "mosfet-driver"],
+      loadKinds: ["motor"],
+    });
   });
 
   it("refuses inputs outside the limits, naming each field and its range", () => {
@@ -30,12 +36,17 @@ describe("size your own", () => {
       "Output chain must be one of: darlington-2, mosfet-driver.",
       "Load kind must be one of: motor.",
     ]);
-    expect(sizeOwn(data, { supply_V: Number.NaN, load_A: 0.5, pwm_Hz: 20000, chain: "mosfet-driver", load_kind: "motor" }).ok).toBe(false);
+    expect(
+      sizeOwn(data, { supply_V: Number.NaN, load_A: 0.5, pwm_Hz: 20000, chain: "mosfet-driver", load_kind: "motor" })
+        .ok,
+    ).toBe(false);
   });
 
   it("without the catalogue's engine field, falls back to the device classes and policy the specs carry", () => {
     const data = sizeOwnData(cat, fan)!;
-    const used = new Set(cat.designs.flatMap((d) => d.variants.flatMap((v) => Object.values(v.sized.spec.devices).map((x) => x.id))));
+    const used = new Set(
+      cat.designs.flatMap((d) => d.variants.flatMap((v) => Object.values(v.sized.spec.devices).map((x) => x.id))),
+    );
     expect(data.devices.map((d) => d.id).sort()).toEqual([...used].sort());
     expect(data.policy).toEqual(fan.variants[0]!.sized.spec.policy);
   });
@@ -47,12 +58,19 @@ describe("size your own renders through the build's render step", () => {
     const d = real.designs[0]!;
     const v = d.variants.find((x) => x.sized.circuit !== null)!;
     const s = v.sized.spec;
-    const r = sizeOwn(sizeOwnData(real, d)!, { supply_V: s.supply_V, load_A: s.load_A, pwm_Hz: s.targets.pwm_Hz, chain: s.chain, load_kind: s.load_kind });
+    const r = sizeOwn(sizeOwnData(real, d)!, {
+      supply_V: s.supply_V,
+      load_A: s.load_A,
+      pwm_Hz: s.targets.pwm_Hz,
+      chain: s.chain,
+      load_kind: s.load_kind,
+    });
     expect(r.ok).toBe(true);
     if (!r.ok) return;
     expect(r.sized.figures).toEqual(v.sized.figures);
     expect(r.bomCsv).toBe(v.files.bomCsv);
-    const retitle = (text: string) => text.replaceAll(`${s.designTitle}, ${s.id} (sized on request)`, `${s.designTitle}, ${s.id}`);
+    const retitle = (text: string) =>
+      text.replaceAll(`${s.designTitle}, ${s.id} (sized on request)`, `${s.designTitle}, ${s.id}`);
     expect(r.netlist).not.toBe(v.files.netlist); // the page says it was sized on request
     expect(retitle(r.netlist)).toBe(v.files.netlist);
     expect(retitle(r.schematicSvg)).toBe(v.files.schematicSvg);

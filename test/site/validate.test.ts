@@ -48,7 +48,9 @@ describe("validateCatalogue", () => {
   it("rejects an infinite simulated value", () => {
     const cat = fixtureCatalogue();
     cat.designs[0]!.variants[0]!.verification!.comparisons[1]!.simulated = Number.POSITIVE_INFINITY;
-    expect(errorOf(() => validateCatalogue(cat)).pointer).toBe("/designs/0/variants/0/verification/comparisons/1/simulated");
+    expect(errorOf(() => validateCatalogue(cat)).pointer).toBe(
+      "/designs/0/variants/0/verification/comparisons/1/simulated",
+    );
   });
 
   it("rejects an alternative that is not in the catalogue", () => {

@@ -44,7 +44,10 @@ describe("content-hash cache of measurements", () => {
     expect(runs).toBe(6);
     expect(again.comparisons).toEqual(cold.comparisons);
     expect(() => JSON.parse(readFileSync(join(dir, file!), "utf8")) as unknown).not.toThrow();
-    expect(readdirSync(dir).filter((f) => f.endsWith(".tmp")), "no temp files left behind").toEqual([]);
+    expect(
+      readdirSync(dir).filter((f) => f.endsWith(".tmp")),
+      "no temp files left behind",
+    ).toEqual([]);
   });
 
   it("keys change with the netlist, the engine version and the plan, not with other predictions", () => {
@@ -54,14 +57,19 @@ describe("content-hash cache of measurements", () => {
     expect(cacheKey(c.netlist.replace("10n", "12n"), eng, t)).not.toBe(k);
     expect(cacheKey(c.netlist, { ...eng, version: "1.8.1" }, t)).not.toBe(k);
     expect(cacheKey(c.netlist, eng, { ...t, period_s: t.period_s * 2 })).not.toBe(k);
-    expect(cacheKey(c.netlist, eng, { ...t, predicted: { ...t.predicted, duty_max: { value: 0.5, label: "", unit: "" } } })).toBe(k);
+    expect(
+      cacheKey(c.netlist, eng, { ...t, predicted: { ...t.predicted, duty_max: { value: 0.5, label: "", unit: "" } } }),
+    ).toBe(k);
   });
 
   it("ignores entries of the wrong shape", () => {
     const dir = mkdtempSync(join(tmpdir(), "pw-cache-"));
     writeCache(dir, "a", { ok: true, elapsed_s: 1, measurements: [] });
     expect(readCache(dir, "a")).not.toBeNull();
-    writeFileSync(join(dir, "b.json"), JSON.stringify({ ok: true, elapsed_s: 1, measurements: [{ key: "x", value: "NaN" }] }));
+    writeFileSync(
+      join(dir, "b.json"),
+      JSON.stringify({ ok: true, elapsed_s: 1, measurements: [{ key: "x", value: "NaN" }] }),
+    );
     expect(readCache(dir, "b")).toBeNull();
     expect(readCache(dir, "missing")).toBeNull();
   });

@@ -21,19 +21,26 @@ describe("checks against the engine's figures", () => {
   });
 
   it("the chain threshold is not compared, whatever the tap voltage was", () => {
-    const out = compare({ chain_threshold: p(0.75, "V") }, [m("chain_threshold", 0.04), m("chain_input_at_turn_on", 0.04)]);
+    const out = compare({ chain_threshold: p(0.75, "V") }, [
+      m("chain_threshold", 0.04),
+      m("chain_input_at_turn_on", 0.04),
+    ]);
     expect(out).toEqual([]);
   });
 
   it("switch on-voltage (predicted at nominal supply and rated current) is compared two-sided", () => {
     const out = compare({ switch_on_voltage: p(0.9, "V") }, [m("switch_on_voltage", 1.0)]);
-    expect(out.map((c) => [c.key, c.ok, c.bound ?? "two-sided", c.tol_abs])).toEqual([["switch_on_voltage", true, "two-sided", 0.15]]);
+    expect(out.map((c) => [c.key, c.ok, c.bound ?? "two-sided", c.tol_abs])).toEqual([
+      ["switch_on_voltage", true, "two-sided", 0.15],
+    ]);
     expect(compare({ switch_on_voltage: p(0.9, "V") }, [m("switch_on_voltage", 1.2)])[0]?.ok).toBe(false); // > 0.9 + 0.225
   });
 
   it("dissipation: the nominal twin is compared two-sided, the worst case only as an upper bound", () => {
     const predicted = { device_dissipation_nominal: p(1.0, "W"), device_dissipation: p(1.6, "W") };
-    expect(compare(predicted, [m("device_dissipation", 1.3)]).map((c) => [c.key, c.ok, c.bound ?? "two-sided"])).toEqual([
+    expect(
+      compare(predicted, [m("device_dissipation", 1.3)]).map((c) => [c.key, c.ok, c.bound ?? "two-sided"]),
+    ).toEqual([
       ["device_dissipation_nominal", true, "two-sided"],
       ["device_dissipation", true, "upper"],
     ]);
@@ -41,7 +48,12 @@ describe("checks against the engine's figures", () => {
   });
 
   it("without the nominal twin, a worst-case figure far above the nominal simulation still agrees (it is a bound)", () => {
-    const v = judge({ device_dissipation: p(4.8, "W") }, { ok: true, elapsed_s: 0, measurements: [m("device_dissipation", 1.1)] }, eng, "h");
+    const v = judge(
+      { device_dissipation: p(4.8, "W") },
+      { ok: true, elapsed_s: 0, measurements: [m("device_dissipation", 1.1)] },
+      eng,
+      "h",
+    );
     expect(v.status).toBe("agree");
     expect(v.comparisons[0]).toMatchObject({ bound: "upper", ok: true });
     expect(v.comparisons[0]?.tol_rel).toBe(0.05); // the stated numerical allowance travels with the comparison, so the page can show it

@@ -36,7 +36,10 @@ const LAMP_V = 24;
 const LAMP_R = 48;
 
 const f = [figure("frequency_nominal", 1300, "Hz")];
-const others = [darlingtonCase(f), motorCase(f)].map((c) => ({ target: targetFromSized(c.sized)!, netlist: c.netlist }));
+const others = [darlingtonCase(f), motorCase(f)].map((c) => ({
+  target: targetFromSized(c.sized)!,
+  netlist: c.netlist,
+}));
 
 function values(m: Measured): Record<string, number> {
   if (!m.ok) throw new Error(m.message);
@@ -91,8 +94,15 @@ describe("eecircuit-engine: dissipation does not depend on the time grid", () =>
 
   it("is stable against a 1e-6 shift of the period and against halving the largest step", async () => {
     const base_W = dissipation(await measureVariant(LAMP, LAMP_NETLIST, engine));
-    const shifted_W = dissipation(await measureVariant({ ...LAMP, period_s: LAMP.period_s * (1 + 1e-6) }, LAMP_NETLIST, engine));
-    const finer_W = dissipation(await measureVariant(LAMP, LAMP_NETLIST, engine, { ...DEFAULT_RUN_PLAN, stepsPerPeriod: 2 * DEFAULT_RUN_PLAN.stepsPerPeriod }));
+    const shifted_W = dissipation(
+      await measureVariant({ ...LAMP, period_s: LAMP.period_s * (1 + 1e-6) }, LAMP_NETLIST, engine),
+    );
+    const finer_W = dissipation(
+      await measureVariant(LAMP, LAMP_NETLIST, engine, {
+        ...DEFAULT_RUN_PLAN,
+        stepsPerPeriod: 2 * DEFAULT_RUN_PLAN.stepsPerPeriod,
+      }),
+    );
     expectClose(shifted_W, base_W, 0.02, "period × (1 + 1e-6)");
     expectClose(finer_W, base_W, 0.02, "largest step halved");
     // Hand check (common practice): on-voltage × current × duty ≈ 0.275 V × 0.494 A × 0.878
@@ -101,10 +111,19 @@ describe("eecircuit-engine: dissipation does not depend on the time grid", () =>
     expect(base_W).toBeLessThan(0.3);
   }, 60_000);
 
-  it.runIf(ngspiceAvailable())("agrees with native ngspice on the dissipation within 3 %", async () => {
-    const native = await startEngine("ngspice");
-    const native_W = dissipation(await measureVariant(LAMP, LAMP_NETLIST, native));
-    await native.close();
-    expectClose(dissipation(await measureVariant(LAMP, LAMP_NETLIST, engine)), native_W, 0.03, "wasm vs native ngspice");
-  }, 60_000);
+  it.runIf(ngspiceAvailable())(
+    "agrees with native ngspice on the dissipation within 3 %",
+    async () => {
+      const native = await startEngine("ngspice");
+      const native_W = dissipation(await measureVariant(LAMP, LAMP_NETLIST, native));
+      await native.close();
+      expectClose(
+        dissipation(await measureVariant(LAMP, LAMP_NETLIST, engine)),
+        native_W,
+        0.03,
+        "wasm vs native ngspice",
+      );
+    },
+    60_000,
+  );
 });

@@ -19,7 +19,10 @@ C1 out 0 100n
 `;
 
 const engines: EngineName[] = ["eecircuit-engine", ...(ngspiceAvailable() ? (["ngspice"] as const) : [])];
-if (!ngspiceAvailable()) console.log("verify/engines: native ngspice not found at /usr/bin/ngspice: the ngspice cases and the cross-engine check are skipped");
+if (!ngspiceAvailable())
+  console.log(
+    "verify/engines: native ngspice not found at /usr/bin/ngspice: the ngspice cases and the cross-engine check are skipped",
+  );
 
 /** The astable fixture's half-period measured at collector A (high while Q_A is off) and the model's own V_BE and V_CE(sat). */
 async function astable(engine: SpiceEngine) {
@@ -28,7 +31,10 @@ async function astable(engine: SpiceEngine) {
   const ca = r.vectors["v(ca)"]!;
   const m = pwmTiming(r.t_s, ca, 2.5, { from_s: 3e-3 });
   if (m.kind !== "pwm") throw new Error(`astable did not oscillate (${m.kind})`);
-  const low: [number, number][] = m.on.map(([, fall], k) => [fall, m.on[k + 1]?.[0] ?? fall + (1 - m.duty) * m.period_s]);
+  const low: [number, number][] = m.on.map(([, fall], k) => [
+    fall,
+    m.on[k + 1]?.[0] ?? fall + (1 - m.duty) * m.period_s,
+  ]);
   return { m, vbe_V: meanOnState(r.t_s, r.vectors["v(ba)"]!, low), vcesat_V: meanOnState(r.t_s, ca, low) };
 }
 
@@ -65,7 +71,9 @@ describe.each(engines)("%s adapter", (name) => {
   });
 
   it("reports a netlist the engine cannot run as a SpiceRunError", async () => {
-    await expect(engine.run("broken\nV1 c 0 5\nR1 c b 10k\nQ1 c b 0 NOMODEL\n.tran 1u 1m\n.end\n", ["v(b)"])).rejects.toBeInstanceOf(SpiceRunError);
+    await expect(
+      engine.run("broken\nV1 c 0 5\nR1 c b 10k\nQ1 c b 0 NOMODEL\n.tran 1u 1m\n.end\n", ["v(b)"]),
+    ).rejects.toBeInstanceOf(SpiceRunError);
     // ...and stays usable afterwards (the wasm engine keeps running between netlists).
     const r = await engine.run(RC_STEP, ["v(out)"]);
     expectClose(valueAt(r.t_s, r.vectors["v(out)"]!, 1e-3), 10 * (1 - Math.exp(-1)), 2e-3);

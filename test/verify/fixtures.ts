@@ -17,7 +17,18 @@ export function figure(key: string, value: number, unit = ""): Figure {
 }
 
 function part(ref: string, role: PartRole, kind: Part["kind"], spice?: Part["spice"]): Part {
-  const p: Part = { ref, kind, stage: "chain", role, value: 0, unit: "", description: "", rating: {}, stress: {}, pins: {} };
+  const p: Part = {
+    ref,
+    kind,
+    stage: "chain",
+    role,
+    value: 0,
+    unit: "",
+    description: "",
+    rating: {},
+    stress: {},
+    pins: {},
+  };
   if (spice) p.spice = spice;
   return p;
 }
@@ -29,12 +40,24 @@ export interface FixtureCase {
 
 /** Darlington-2 low-side switch, 12 Ω heater mat (resistive), tap cb. */
 export function darlingtonCase(figures: Figure[]): FixtureCase {
-  return make("pwm-darlington-12v", "darlington-2", "d1b", [part("Q3", "Q_D1", "npn"), part("Q4", "Q_D2", "npn"), part("E1", "LOAD", "heater", { r_ohm: 12 })], figures);
+  return make(
+    "pwm-darlington-12v",
+    "darlington-2",
+    "d1b",
+    [part("Q3", "Q_D1", "npn"), part("Q4", "Q_D2", "npn"), part("E1", "LOAD", "heater", { r_ohm: 12 })],
+    figures,
+  );
 }
 
 /** Logic-level MOSFET low-side switch, fan motor 6 Ω + 2 mH with freewheel diode, tap cb. */
 export function motorCase(figures: Figure[]): FixtureCase {
-  return make("pwm-mosfet-motor-12v", "mosfet-logic", "g", [part("Q3", "Q_POWER", "nmos"), part("M1", "LOAD", "motor", { r_ohm: 6, l_H: 2e-3 })], figures);
+  return make(
+    "pwm-mosfet-motor-12v",
+    "mosfet-logic",
+    "g",
+    [part("Q3", "Q_POWER", "nmos"), part("M1", "LOAD", "motor", { r_ohm: 6, l_H: 2e-3 })],
+    figures,
+  );
 }
 
 function make(file: string, chain: string, chainInputNet: string, parts: Part[], figures: Figure[]): FixtureCase {

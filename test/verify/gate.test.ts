@@ -19,8 +19,19 @@ const EMF = 15.6;
 const VTO = 1.75;
 function target(o: Partial<VerifyTarget> = {}): VerifyTarget {
   return {
-    id: "synthetic-valve", highSide: false, inductive: true, tapNet: "ca", otherNet: "cb", chainInputNet: "g", switchNet: "sw",
-    powerRefs: ["Q3"], predicted: {}, period_s: T, loadTau_s: 1e-3, loadEmf_V: EMF, ...o,
+    id: "synthetic-valve",
+    highSide: false,
+    inductive: true,
+    tapNet: "ca",
+    otherNet: "cb",
+    chainInputNet: "g",
+    switchNet: "sw",
+    powerRefs: ["Q3"],
+    predicted: {},
+    period_s: T,
+    loadTau_s: 1e-3,
+    loadEmf_V: EMF,
+    ...o,
   };
 }
 
@@ -50,8 +61,19 @@ function valveRun(duty: number, conduct: number, withGate: boolean, periods = 8)
   }
   const n = t.length;
   return {
-    ctrl: 0.5, t: Float64Array.from(t), from_s: 2 * T, tEnd_s: t[n - 1]!, vbus_V: VBUS, powerVectors: [], retried: false,
-    v: { "v(sw)": Float64Array.from(sw), "v(g)": Float64Array.from(g), "v(vbus)": new Float64Array(n).fill(VBUS), "i(vsense)": new Float64Array(n) },
+    ctrl: 0.5,
+    t: Float64Array.from(t),
+    from_s: 2 * T,
+    tEnd_s: t[n - 1]!,
+    vbus_V: VBUS,
+    powerVectors: [],
+    retried: false,
+    v: {
+      "v(sw)": Float64Array.from(sw),
+      "v(g)": Float64Array.from(g),
+      "v(vbus)": new Float64Array(n).fill(VBUS),
+      "i(vsense)": new Float64Array(n),
+    },
     ...(withGate ? { gate: { gateNet: "g", sourceNet: "0", vto_V: VTO, sign: 1 as const } } : {}),
   };
 }
@@ -77,7 +99,8 @@ describe("an inductive load whose drain rings after its current has run out", ()
 });
 
 describe("gate probe from the netlist", () => {
-  const netlist = "MQ3 sw g 0 NMOS_LOGIC\n.model NMOS_LOGIC VDMOS(VTO=1.75 KP=16.16)\nMQ9 d gp vbus PM\n.model PM VDMOS(pchan VTO=-2 KP=3)\nQ4 c b 0 NPN\n";
+  const netlist =
+    "MQ3 sw g 0 NMOS_LOGIC\n.model NMOS_LOGIC VDMOS(VTO=1.75 KP=16.16)\nMQ9 d gp vbus PM\n.model PM VDMOS(pchan VTO=-2 KP=3)\nQ4 c b 0 NPN\n";
   it("finds gate, source, threshold and channel type", () => {
     expect(gateProbe(netlist, "mq3")).toEqual({ gateNet: "g", sourceNet: "0", vto_V: 1.75, sign: 1 });
     expect(gateProbe(netlist, "MQ9")).toEqual({ gateNet: "gp", sourceNet: "vbus", vto_V: -2, sign: -1 });
@@ -92,7 +115,9 @@ describe("a BJT switch whose collector rings after the winding's current has run
   // The base of the output stage: 0.95 V while driven, then the ring's pick-up through C_BC
   // (≈ 0.4 V peak, as simulated on the 24 V Darlington-3 pump variant); cut-in 0.71 V.
   function withBase(run: Run, duty: number): Run {
-    const vb = Float64Array.from(run.t, (x) => ((x / T) % 1 < duty ? 0.95 : 0.4 * Math.abs(Math.sin(2 * Math.PI * 32e3 * x))));
+    const vb = Float64Array.from(run.t, (x) =>
+      (x / T) % 1 < duty ? 0.95 : 0.4 * Math.abs(Math.sin(2 * Math.PI * 32e3 * x)),
+    );
     return { ...run, v: { ...run.v, "v(qb)": vb }, base: { baseNet: "qb", emitterNet: "0", cutIn_V: 0.71, sign: 1 } };
   }
   it("times the edges at the collector but counts no ring swing as on while the base is below cut-in", () => {
@@ -104,11 +129,16 @@ describe("a BJT switch whose collector rings after the winding's current has run
     }
   });
   it("reads the output stage's cut-in from its card: V = NF·V_T·ln(1 + BF·I_B/IS) (Ebers–Moll forward law)", () => {
-    const netlist = "Q3 sw d1b d2b NS\nQ4 sw d2b 0 NP\n.model NS NPN(IS=7e-17 BF=335 NR=0.8)\n.model NP NPN(IS=2e-18 BF=24.7 NF=1.1)\n";
+    const netlist =
+      "Q3 sw d1b d2b NS\nQ4 sw d2b 0 NP\n.model NS NPN(IS=7e-17 BF=335 NR=0.8)\n.model NP NPN(IS=2e-18 BF=24.7 NF=1.1)\n";
     const p = baseProbe(netlist, ["q3", "q4"], 0.025693)!;
     expect(p).toMatchObject({ baseNet: "d2b", emitterNet: "0", sign: 1 });
     expectClose(p.cutIn_V, 1.1 * 0.025693 * Math.log1p((24.7 * 1e-7) / 2e-18), 1e-12, "cut-in");
-    expect(baseProbe("Q5 c b vbus PX\n.model PX PNP(IS=1e-14 BF=50)\n", ["q5"], 0.025693)).toMatchObject({ baseNet: "b", emitterNet: "vbus", sign: -1 });
+    expect(baseProbe("Q5 c b vbus PX\n.model PX PNP(IS=1e-14 BF=50)\n", ["q5"], 0.025693)).toMatchObject({
+      baseNet: "b",
+      emitterNet: "vbus",
+      sign: -1,
+    });
     expect(baseProbe("MQ3 sw g 0 N\n.model N VDMOS(VTO=2)\n", ["mq3"], 0.025693)).toBeNull();
   });
 });
@@ -117,7 +147,9 @@ describe("second solver retry", () => {
   function engine(endShare: (deck: string) => number): SpiceEngine & { decks: string[] } {
     const decks: string[] = [];
     return {
-      name: "ngspice", version: "fake", decks,
+      name: "ngspice",
+      version: "fake",
+      decks,
       async run(deck, vectors): Promise<SimResult> {
         decks.push(deck);
         const tStop = Number(/^\.tran \S+ (\S+)/m.exec(deck)![1]);

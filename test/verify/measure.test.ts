@@ -1,19 +1,37 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
-import { averagePower, crossings, debounce, meanOnState, pwmTiming, resample, timeAverage, upperLevel } from "../../src/verify/measure.ts";
+import {
+  averagePower,
+  crossings,
+  debounce,
+  meanOnState,
+  pwmTiming,
+  resample,
+  timeAverage,
+  upperLevel,
+} from "../../src/verify/measure.ts";
 import { expectClose } from "../helpers/close.ts";
 
 /** Deterministic pseudo-random numbers (LCG) so that noisy waveforms are reproducible. */
 function rng(seed: number): () => number {
   let s = seed >>> 0;
-  return () => ((s = (1664525 * s + 1013904223) >>> 0) / 2 ** 32);
+  return () => (s = (1664525 * s + 1013904223) >>> 0) / 2 ** 32;
 }
 
 /**
  * A trapezoidal PWM wave (edges rise_s long, linear), sampled at uneven steps like a SPICE run,
  * with optional noise and damped ringing after each edge. Edge centres: k·T (rising), k·T + D·T (falling).
  */
-function pwmWave(o: { f: number; duty: number; periods: number; amp?: number; noise?: number; ring?: number; seed?: number; startF?: number }) {
+function pwmWave(o: {
+  f: number;
+  duty: number;
+  periods: number;
+  amp?: number;
+  noise?: number;
+  ring?: number;
+  seed?: number;
+  startF?: number;
+}) {
   const T = 1 / o.f;
   const amp = o.amp ?? 10;
   const rise = T / 200;
@@ -82,11 +100,15 @@ describe("pwmTiming: frequency and duty from threshold crossings", () => {
 
   it("holds for any frequency from 100 Hz to 50 kHz and duty from 5 % to 95 % (property)", () => {
     fc.assert(
-      fc.property(fc.double({ min: 100, max: 50_000, noNaN: true }), fc.double({ min: 0.05, max: 0.95, noNaN: true }), (f, duty) => {
-        const w = pwmWave({ f, duty, periods: 11 });
-        const m = pwmTiming(w.t, w.y, w.amp / 2);
-        return m.kind === "pwm" && Math.abs(m.frequency_Hz / f - 1) < 1e-3 && Math.abs(m.duty - duty) < 2e-3;
-      }),
+      fc.property(
+        fc.double({ min: 100, max: 50_000, noNaN: true }),
+        fc.double({ min: 0.05, max: 0.95, noNaN: true }),
+        (f, duty) => {
+          const w = pwmWave({ f, duty, periods: 11 });
+          const m = pwmTiming(w.t, w.y, w.amp / 2);
+          return m.kind === "pwm" && Math.abs(m.frequency_Hz / f - 1) < 1e-3 && Math.abs(m.duty - duty) < 2e-3;
+        },
+      ),
       { numRuns: 40 },
     );
   });

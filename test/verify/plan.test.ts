@@ -101,13 +101,20 @@ describe("failures and verdicts", () => {
   });
 
   it("judge: agree within tolerance, disagree outside, naming the figure", () => {
-    const measured: Measured = { ok: true, elapsed_s: 1, measurements: [{ key: "duty_max", label: "", unit: "", value: 0.9 }] };
+    const measured: Measured = {
+      ok: true,
+      elapsed_s: 1,
+      measurements: [{ key: "duty_max", label: "", unit: "", value: 0.9 }],
+    };
     const eng = { name: "eecircuit-engine" as const, version: "x" };
     const ok = judge({ duty_max: { value: 0.94, label: "Duty max", unit: "" } }, measured, eng, "h");
     const bad = judge({ duty_max: { value: 0.96, label: "Duty max", unit: "" } }, measured, eng, "h");
     expect(ok.status).toBe("agree");
     expect(bad.status).toBe("disagree");
     expect(bad.message).toContain("duty_max");
-    expect(judge({}, { ok: false, message: "boom", elapsed_s: 0 }, eng, "h")).toMatchObject({ status: "failed", message: "boom" });
+    expect(judge({}, { ok: false, message: "boom", elapsed_s: 0 }, eng, "h")).toMatchObject({
+      status: "failed",
+      message: "boom",
+    });
   });
 });

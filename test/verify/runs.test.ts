@@ -4,7 +4,15 @@
  */
 import { describe, expect, it } from "vitest";
 import type { SimResult, SpiceEngine } from "../../src/verify/engines/types.ts";
-import { DEFAULT_RUN_PLAN, loadTiming, RETRY_OPTIONS, runAt, settleTime, switchLevel, type Run } from "../../src/verify/runs.ts";
+import {
+  DEFAULT_RUN_PLAN,
+  loadTiming,
+  RETRY_OPTIONS,
+  runAt,
+  settleTime,
+  switchLevel,
+  type Run,
+} from "../../src/verify/runs.ts";
 import type { VerifyTarget } from "../../src/verify/target.ts";
 import { coreState } from "../../src/verify/plan.ts";
 import { expectClose } from "../helpers/close.ts";
@@ -12,8 +20,19 @@ import { expectClose } from "../helpers/close.ts";
 const T = 1e-4; // 10 kHz
 function target(o: Partial<VerifyTarget> = {}): VerifyTarget {
   return {
-    id: "synthetic", highSide: false, inductive: true, tapNet: "ca", otherNet: "cb", chainInputNet: "g", switchNet: "sw",
-    powerRefs: [], predicted: {}, period_s: T, loadTau_s: 1e-3, loadEmf_V: 9, ...o,
+    id: "synthetic",
+    highSide: false,
+    inductive: true,
+    tapNet: "ca",
+    otherNet: "cb",
+    chainInputNet: "g",
+    switchNet: "sw",
+    powerRefs: [],
+    predicted: {},
+    period_s: T,
+    loadTau_s: 1e-3,
+    loadEmf_V: 9,
+    ...o,
   };
 }
 
@@ -33,7 +52,13 @@ function motorRun(duty: number, conduct: number, periods = 6): Run {
   }
   const n = t.length;
   return {
-    ctrl: 0, t: Float64Array.from(t), from_s: 2 * T, tEnd_s: t[n - 1]!, vbus_V: 12, powerVectors: [], retried: false,
+    ctrl: 0,
+    t: Float64Array.from(t),
+    from_s: 2 * T,
+    tEnd_s: t[n - 1]!,
+    vbus_V: 12,
+    powerVectors: [],
+    retried: false,
     v: { "v(sw)": Float64Array.from(sw), "v(vbus)": new Float64Array(n).fill(12), "i(vsense)": new Float64Array(n) },
   };
 }
@@ -57,7 +82,10 @@ describe("when is an inductive load on", () => {
 
 describe("settling", () => {
   it("resistive loads and control below 1 settle for the plan's periods only", () => {
-    expect(settleTime(target({ inductive: false, loadTau_s: 0 }), 1, DEFAULT_RUN_PLAN)).toBeCloseTo(DEFAULT_RUN_PLAN.settlePeriods * T, 12);
+    expect(settleTime(target({ inductive: false, loadTau_s: 0 }), 1, DEFAULT_RUN_PLAN)).toBeCloseTo(
+      DEFAULT_RUN_PLAN.settlePeriods * T,
+      12,
+    );
     expect(settleTime(target(), 0.5, DEFAULT_RUN_PLAN)).toBeCloseTo(DEFAULT_RUN_PLAN.settlePeriods * T, 12);
   });
   it("an inductive load at control 1 settles for 3 L/R (e^−3 ≈ 5 % of its start error), at most 60 periods", () => {
@@ -70,13 +98,18 @@ describe("settling", () => {
 function fakeEngine(stopAt: (deck: string) => number): SpiceEngine & { decks: string[] } {
   const decks: string[] = [];
   return {
-    name: "eecircuit-engine", version: "fake", decks,
+    name: "eecircuit-engine",
+    version: "fake",
+    decks,
     async run(deck, vectors): Promise<SimResult> {
       decks.push(deck);
       const tStop = Number(/^\.tran \S+ (\S+)/m.exec(deck)![1]);
       const n = 200;
       const t_s = Float64Array.from({ length: n }, (_, k) => (k / (n - 1)) * tStop * stopAt(deck));
-      return { t_s, vectors: Object.fromEntries(vectors.map((v) => [v, new Float64Array(n).fill(v === "v(vbus)" ? 12 : 0)])) };
+      return {
+        t_s,
+        vectors: Object.fromEntries(vectors.map((v) => [v, new Float64Array(n).fill(v === "v(vbus)" ? 12 : 0)])),
+      };
     },
     async close() {},
   };
@@ -93,7 +126,9 @@ describe("a transient that stops early", () => {
   });
   it("fails with every attempt named when both retry levels stop too", async () => {
     const e = fakeEngine(() => 0.5);
-    await expect(runAt(target({ inductive: false, loadTau_s: 0 }), NETLIST, e, 1)).rejects.toThrow(/stopped early at ctrl = 1 .*: at .* s, at .* with abstol=1e-9 vntol=1e-5, at .* with .*maxord=2.* and step/);
+    await expect(runAt(target({ inductive: false, loadTau_s: 0 }), NETLIST, e, 1)).rejects.toThrow(
+      /stopped early at ctrl = 1 .*: at .* s, at .* with abstol=1e-9 vntol=1e-5, at .* with .*maxord=2.* and step/,
+    );
   });
   it("a run that completes is not retried", async () => {
     const e = fakeEngine(() => 1);
@@ -105,10 +140,26 @@ describe("a transient that stops early", () => {
 describe("failure messages say whether the timing core still runs", () => {
   const run = (ca: (x: number) => number, cb: (x: number) => number): Run => {
     const t = Float64Array.from({ length: 601 }, (_, k) => (k * 6 * T) / 600);
-    return { ctrl: 1, t, from_s: 2 * T, tEnd_s: 6 * T, vbus_V: 24, powerVectors: [], retried: false, v: { "v(ca)": t.map(ca), "v(cb)": t.map(cb) } };
+    return {
+      ctrl: 1,
+      t,
+      from_s: 2 * T,
+      tEnd_s: 6 * T,
+      vbus_V: 24,
+      powerVectors: [],
+      retried: false,
+      v: { "v(ca)": t.map(ca), "v(cb)": t.map(cb) },
+    };
   };
   it("both collectors low and still: the core has stopped with both transistors on (a latch-up)", () => {
-    expect(coreState(run(() => 0.12, () => 0.07))).toMatch(/timing core has stopped .*both transistors held on/);
+    expect(
+      coreState(
+        run(
+          () => 0.12,
+          () => 0.07,
+        ),
+      ),
+    ).toMatch(/timing core has stopped .*both transistors held on/);
   });
   it("collectors swinging: the core runs, the fault is further down", () => {
     const sq = (x: number): number => ((x / T) % 1 < 0.5 ? 23.8 : 0.1);

@@ -56,7 +56,7 @@ const CORE_CURRENT_ESTIMATE_A = 0.05;
 function pnpDriverShare(n: Need): number {
   const vMin = n.vMin_V;
   const vMax = n.vMax_V;
-  return (1.1 * (vMax / n.supply_V) / 10) * ((vMax - 0.7) / Math.max(vMin - 1.5, 0.5)) * (1.05 / 0.95);
+  return ((1.1 * (vMax / n.supply_V)) / 10) * ((vMax - 0.7) / Math.max(vMin - 1.5, 0.5)) * (1.05 / 0.95);
 }
 /**
  * A Darlington's first stage carries the output stage's base current plus its bleed at the highest
@@ -67,7 +67,13 @@ const DARLINGTON_DRIVER_FACTOR = 1.3;
 const DARLINGTON_DRIVE_SAT_V = 0.3;
 
 interface Need {
-  vMin_V: number; vMax_V: number; supply_V: number; load_A: number; pwm_Hz: number; ambientMin_C: number; ambientMax_C: number;
+  vMin_V: number;
+  vMax_V: number;
+  supply_V: number;
+  load_A: number;
+  pwm_Hz: number;
+  ambientMin_C: number;
+  ambientMax_C: number;
   /** Highest off-state voltage across a load switch: V_cc,max plus the freewheel drop with a motor (as the engine checks it). */
   vOff_V: number;
   /** Highest start-up peak a load switch carries over the record's load kinds (cold filament, stall; a declared limit applied). */
@@ -107,7 +113,8 @@ function fits(role: DeviceRole, d: DeviceClass, n: Need): boolean {
   }
   // Coordinated with the fuse the variant gets (protection.ts): the diode's surge I²t must exceed
   // the fuse's clearing I²t, so the fuse opens first on a reversed battery.
-  if (isDiode(d) && role === "reverse_diode") return diodeSurgeI2t_A2s(d.ifsm_A) >= n.fuseClearing_A2s && d.vrrm_V * DIODE_VOLTAGE_HEADROOM >= vMax;
+  if (isDiode(d) && role === "reverse_diode")
+    return diodeSurgeI2t_A2s(d.ifsm_A) >= n.fuseClearing_A2s && d.vrrm_V * DIODE_VOLTAGE_HEADROOM >= vMax;
   return true;
 }
 
@@ -136,7 +143,9 @@ export function pickDriver(cands: BjtClass[], power: BjtClass, n: Need): BjtClas
 
 function checkFamily(role: DeviceRole, d: DeviceClass, how: string): DeviceClass {
   if (d.family !== ROLE_FAMILY[role]) {
-    throw new EngineMisuseError(`${how} device class "${d.id}" is a ${d.family}, but role "${role}" needs a ${ROLE_FAMILY[role]}`);
+    throw new EngineMisuseError(
+      `${how} device class "${d.id}" is a ${d.family}, but role "${role}" needs a ${ROLE_FAMILY[role]}`,
+    );
   }
   return d;
 }
@@ -145,9 +154,17 @@ function checkFamily(role: DeviceRole, d: DeviceClass, how: string): DeviceClass
  * `chain`, when given, is the chain the classes serve (a Darlington's first stage sits on the
  * switch node and sees the freewheel drop, other drivers do not); absent, every chain of the record.
  */
-export function chooseDevices(record: DesignRecord, lib: DeviceLibrary, supply_V: number, load_A: number, chain?: ChainKind): Record<DeviceRole, DeviceClass> {
+export function chooseDevices(
+  record: DesignRecord,
+  lib: DeviceLibrary,
+  supply_V: number,
+  load_A: number,
+  chain?: ChainKind,
+): Record<DeviceRole, DeviceClass> {
   if (!Number.isFinite(supply_V) || supply_V <= 0 || !Number.isFinite(load_A) || load_A <= 0) {
-    throw new EngineMisuseError(`chooseDevices(${record.id}): supply_V and load_A must be finite and > 0 (got ${supply_V}, ${load_A})`);
+    throw new EngineMisuseError(
+      `chooseDevices(${record.id}): supply_V and load_A must be finite and > 0 (got ${supply_V}, ${load_A})`,
+    );
   }
   // The supply's real window (battery chemistry, declared, or ± tolerance; default as in src/expand).
   const w = supplyWindow({ ...record.supply, tolerance: record.targets.supply_tolerance ?? 0.1 }, supply_V);
@@ -155,15 +172,40 @@ export function chooseDevices(record: DesignRecord, lib: DeviceLibrary, supply_V
   const coil = record.solenoid === undefined ? undefined : { tau_s: record.solenoid.tau_ms * 1e-3 };
   const starts = record.axes.load_kind.map((kind) => {
     const load = loadModel(kind, supply_V, load_A, coil);
-    const p = { kind, load, iMax_A: runningCurrentMax_A(kind, load, load_A, supply_V, w.max_V), vNom_V: supply_V, vMax_V: w.max_V, ...(lim ? { limit: lim } : {}) };
+    const p = {
+      kind,
+      load,
+      iMax_A: runningCurrentMax_A(kind, load, load_A, supply_V, w.max_V),
+      vNom_V: supply_V,
+      vMax_V: w.max_V,
+      ...(lim ? { limit: lim } : {}),
+    };
     const ev = startEvent(p);
     const peak_A = lim?.kind === "current-limit" ? Math.max(ev.iRun_A, Math.min(ev.iPeak_A, lim.limit_A)) : ev.iPeak_A;
-    return { peak_A, clearing_A2s: supplyFuse(p, CORE_CURRENT_ESTIMATE_A, record.targets.ambient_C[1]).fuse?.clearingMax_A2s ?? 0, inductive: load.inductive };
+    return {
+      peak_A,
+      clearing_A2s: supplyFuse(p, CORE_CURRENT_ESTIMATE_A, record.targets.ambient_C[1]).fuse?.clearingMax_A2s ?? 0,
+      inductive: load.inductive,
+    };
   });
   const fuseClearing_A2s = Math.max(0, ...starts.map((x) => x.clearing_A2s));
   const need: Need = {
-    driverVOff_V: (chain === undefined ? record.axes.chain : [chain]).some((c) => c.startsWith("darlington")) && starts.some((x) => x.inductive) ? w.max_V + FREEWHEEL_DROP_V : w.max_V,
-    fuseClearing_A2s, peak_A: Math.max(...starts.map((x) => x.peak_A)), vOff_V: w.max_V + (starts.some((x) => x.inductive) ? FREEWHEEL_DROP_V : 0), vMin_V: w.min_V, vMax_V: w.max_V, supply_V, load_A, pwm_Hz: record.targets.pwm_Hz, ambientMin_C: record.targets.ambient_C[0], ambientMax_C: record.targets.ambient_C[1] };
+    driverVOff_V:
+      (chain === undefined ? record.axes.chain : [chain]).some((c) => c.startsWith("darlington")) &&
+      starts.some((x) => x.inductive)
+        ? w.max_V + FREEWHEEL_DROP_V
+        : w.max_V,
+    fuseClearing_A2s,
+    peak_A: Math.max(...starts.map((x) => x.peak_A)),
+    vOff_V: w.max_V + (starts.some((x) => x.inductive) ? FREEWHEEL_DROP_V : 0),
+    vMin_V: w.min_V,
+    vMax_V: w.max_V,
+    supply_V,
+    load_A,
+    pwm_Hz: record.targets.pwm_Hz,
+    ambientMin_C: record.targets.ambient_C[0],
+    ambientMax_C: record.targets.ambient_C[1],
+  };
   const out = {} as Record<DeviceRole, DeviceClass>;
   // The driver is judged against the power stage it drives, so the power stage is chosen first.
   const order = [...DEVICE_ROLES.filter((r) => r !== "driver_npn"), "driver_npn" as const];
@@ -176,9 +218,15 @@ export function chooseDevices(record: DesignRecord, lib: DeviceLibrary, supply_V
     const ids = DEFAULT_DEVICE_IDS[role];
     const present = ids.filter((id) => lib.has(id)).map((id) => getDevice(lib, id));
     const last = present[present.length - 1];
-    if (last === undefined) throw new EngineMisuseError(`chooseDevices: no default class for role "${role}" in the library (expected one of ${ids.join(", ")})`);
+    if (last === undefined)
+      throw new EngineMisuseError(
+        `chooseDevices: no default class for role "${role}" in the library (expected one of ${ids.join(", ")})`,
+      );
     // None fits: take the largest, and let the engine's stress checks say why it is not enough.
-    const picked = role === "driver_npn" ? pickDriver(present.filter(isBjt), out.power_npn as BjtClass, need) : present.find((d) => fits(role, d, need));
+    const picked =
+      role === "driver_npn"
+        ? pickDriver(present.filter(isBjt), out.power_npn as BjtClass, need)
+        : present.find((d) => fits(role, d, need));
     out[role] = checkFamily(role, picked ?? last, "default");
   }
   // Keys in the contract's role order (stable output).

@@ -31,6 +31,9 @@ export function isZener(d: DeviceClass): d is ZenerClass {
 /** Look a class up by id; throws EngineMisuseError naming the id when it is absent. */
 export function getDevice(lib: DeviceLibrary, id: string): DeviceClass {
   const d = lib.get(id);
-  if (d === undefined) throw new EngineMisuseError(`device class "${id}" is not in the device library (known: ${[...lib.keys()].sort().join(", ")})`);
+  if (d === undefined)
+    throw new EngineMisuseError(
+      `device class "${id}" is not in the device library (known: ${[...lib.keys()].sort().join(", ")})`,
+    );
   return d;
 }

@@ -36,20 +36,41 @@ export function checkStress(
   rule: DeratingRule,
   marginal_above: number,
 ): StressCheck {
-  if (!Number.isFinite(stress)) throw new EngineMisuseError(`checkStress(${ref} ${quantity}): stress must be finite, got ${stress}`);
-  if (!Number.isFinite(rating) || rating <= 0) throw new EngineMisuseError(`checkStress(${ref} ${quantity}): rating must be finite and > 0, got ${rating}`);
-  if (!(rule.factor > 0 && rule.factor <= 1)) throw new EngineMisuseError(`checkStress(${ref} ${quantity}): rule factor must be in (0, 1], got ${rule.factor}`);
-  if (!(marginal_above > 0 && marginal_above <= 1)) throw new EngineMisuseError(`checkStress: marginal_above must be in (0, 1], got ${marginal_above}`);
+  if (!Number.isFinite(stress))
+    throw new EngineMisuseError(`checkStress(${ref} ${quantity}): stress must be finite, got ${stress}`);
+  if (!Number.isFinite(rating) || rating <= 0)
+    throw new EngineMisuseError(`checkStress(${ref} ${quantity}): rating must be finite and > 0, got ${rating}`);
+  if (!(rule.factor > 0 && rule.factor <= 1))
+    throw new EngineMisuseError(`checkStress(${ref} ${quantity}): rule factor must be in (0, 1], got ${rule.factor}`);
+  if (!(marginal_above > 0 && marginal_above <= 1))
+    throw new EngineMisuseError(`checkStress: marginal_above must be in (0, 1], got ${marginal_above}`);
   const s = Math.abs(stress);
   const ratio = s / rating;
-  return { ref, quantity, stress: s, rating, unit, ratio, allowed: rule.factor, verdict: verdictOf(ratio, rule.factor, marginal_above), source: rule.source, ...(rule.note !== undefined ? { note: rule.note } : {}) };
+  return {
+    ref,
+    quantity,
+    stress: s,
+    rating,
+    unit,
+    ratio,
+    allowed: rule.factor,
+    verdict: verdictOf(ratio, rule.factor, marginal_above),
+    source: rule.source,
+    ...(rule.note !== undefined ? { note: rule.note } : {}),
+  };
 }
 
 /**
  * Junction temperature as a StressCheck: rating = T_J,max, allowed = derated limit / T_J,max, so
  * "fail" means T_J above the policy's limit (ratio of °C values, used only for the verdict).
  */
-export function checkTj(ref: PartRole, tj_C: number, tjMax_C: number, policy: DeratingPolicy, family: TjFamily): StressCheck {
+export function checkTj(
+  ref: PartRole,
+  tj_C: number,
+  tjMax_C: number,
+  policy: DeratingPolicy,
+  family: TjFamily,
+): StressCheck {
   const limit = tjLimit_C(policy, family, tjMax_C);
   const rule = policy[family].tj_max_C;
   const allowed = Math.min(1, Math.max(limit / tjMax_C, Number.MIN_VALUE));

@@ -14,7 +14,10 @@ export type SeriesName = (typeof SERIES_NAMES)[number];
 /** Conventional tolerance tied to each series (IEC 60063 convention; see docs/method.md). */
 export const SERIES_TOLERANCE: Record<SeriesName, number> = { E6: 0.2, E12: 0.1, E24: 0.05, E48: 0.02, E96: 0.01 };
 
-const E24_M = [100, 110, 120, 130, 150, 160, 180, 200, 220, 240, 270, 300, 330, 360, 390, 430, 470, 510, 560, 620, 680, 750, 820, 910];
+const E24_M = [
+  100, 110, 120, 130, 150, 160, 180, 200, 220, 240, 270, 300, 330, 360, 390, 430, 470, 510, 560, 620, 680, 750, 820,
+  910,
+];
 const E12_M = [100, 120, 150, 180, 220, 270, 330, 390, 470, 560, 680, 820];
 const E6_M = [100, 150, 220, 330, 470, 680];
 
@@ -81,7 +84,9 @@ export function roundUp(value: number, series: SeriesName): number {
 /** Largest series value ≤ value. */
 export function roundDown(value: number, series: SeriesName): number {
   checkInput(value, "roundDown");
-  const c = candidates(value, series).filter((x) => x <= value * (1 + SAME_REL)).pop();
+  const c = candidates(value, series)
+    .filter((x) => x <= value * (1 + SAME_REL))
+    .pop();
   if (c === undefined) throw new EngineMisuseError(`roundDown: no ${series} value found below ${value}`);
   return c;
 }

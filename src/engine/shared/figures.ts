@@ -44,11 +44,7 @@ export function figure(
  * reference designators), a part by designator, a design target, or the variant as a whole ("").
  */
 export type ProblemPath =
-  | `/parts/${PartRole}`
-  | `/parts/${RefDesignator}`
-  | `/targets/${string}`
-  | `/protection/${string}`
-  | "";
+  `/parts/${PartRole}` | `/parts/${RefDesignator}` | `/targets/${string}` | `/protection/${string}` | "";
 
 export function problem(
   stage: string,

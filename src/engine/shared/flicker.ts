@@ -11,7 +11,8 @@ import { EngineMisuseError } from "../../model/errors.ts";
 export type FlickerRegion = "no-observable-effect" | "low-risk" | "exceeds";
 
 export function flickerLimits(f_Hz: number): { lowRisk_pct: number | null; noEffect_pct: number | null } {
-  if (!Number.isFinite(f_Hz) || f_Hz <= 0) throw new EngineMisuseError(`flickerLimits: f_Hz must be finite and > 0, got ${f_Hz}`);
+  if (!Number.isFinite(f_Hz) || f_Hz <= 0)
+    throw new EngineMisuseError(`flickerLimits: f_Hz must be finite and > 0, got ${f_Hz}`);
   const lowRisk_pct = f_Hz < 90 ? 0.025 * f_Hz : f_Hz <= 1250 ? 0.08 * f_Hz : null;
   const noEffect_pct = f_Hz < 90 ? 0.01 * f_Hz : f_Hz < 3000 ? 0.0333 * f_Hz : null;
   return { lowRisk_pct, noEffect_pct };

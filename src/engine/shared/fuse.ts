@@ -35,22 +35,31 @@ export interface FuseFamily {
 
 export const FUSE_FAMILIES: readonly FuseFamily[] = [
   {
-    id: "iec60127-t", title: "5 × 20 mm time-lag (T) fuse", voltage_V: 250,
+    id: "iec60127-t",
+    title: "5 × 20 mm time-lag (T) fuse",
+    voltage_V: 250,
     ratings_A: [0.1, 0.125, 0.16, 0.2, 0.25, 0.315, 0.4, 0.5, 0.63, 0.8, 1, 1.25, 1.6, 2, 2.5, 3.15, 4, 5, 6.3],
     gate: { multiple: 10, tMin_s: 0.01, tMax_s: 0.1 },
-    source: "iec-60127", note: "IEC 60127-2, standard sheet 3 (time-lag, 10 × I_n: 10–100 ms), from memory",
+    source: "iec-60127",
+    note: "IEC 60127-2, standard sheet 3 (time-lag, 10 × I_n: 10–100 ms), from memory",
   },
   {
-    id: "iso8820-32v", title: "blade fuse, 32 V", voltage_V: 32,
+    id: "iso8820-32v",
+    title: "blade fuse, 32 V",
+    voltage_V: 32,
     ratings_A: [7.5, 10, 15, 20, 25, 30, 35, 40],
     gate: { multiple: 6, tMin_s: 0.01, tMax_s: 0.1 },
-    source: "iso-8820-3", note: "ISO 8820-3 blade fuses (600 % I_n: 10–100 ms), from memory",
+    source: "iso-8820-3",
+    note: "ISO 8820-3 blade fuses (600 % I_n: 10–100 ms), from memory",
   },
   {
-    id: "iso8820-58v", title: "blade fuse, 58 V", voltage_V: 58,
+    id: "iso8820-58v",
+    title: "blade fuse, 58 V",
+    voltage_V: 58,
     ratings_A: [7.5, 10, 15, 20, 25, 30, 35, 40],
     gate: { multiple: 6, tMin_s: 0.01, tMax_s: 0.1 },
-    source: "iso-8820-3", note: "ISO 8820-3 blade fuses, 58 V types (600 % I_n: 10–100 ms), from memory",
+    source: "iso-8820-3",
+    note: "ISO 8820-3 blade fuses, 58 V types (600 % I_n: 10–100 ms), from memory",
   },
 ];
 
@@ -110,7 +119,8 @@ export interface FuseChoice {
  */
 export function chooseFuse(n: FuseNeed): FuseChoice | undefined {
   for (const v of [n.continuous_A, n.vMax_V, n.inrushI2t_A2s, n.taMax_C]) {
-    if (!Number.isFinite(v)) throw new EngineMisuseError(`chooseFuse: every need must be finite (${JSON.stringify(n)})`);
+    if (!Number.isFinite(v))
+      throw new EngineMisuseError(`chooseFuse: every need must be finite (${JSON.stringify(n)})`);
   }
   const share = fuseContinuousShare(n.taMax_C);
   for (const f of FUSE_FAMILIES) {

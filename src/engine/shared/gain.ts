@@ -12,7 +12,8 @@ import { NOMINAL_TEMP_C } from "./temperature.ts";
 export const VBE_TEMPCO_VperK = JUNCTION_TEMPCO_VperK;
 
 function checkCurrent(dev: BjtClass, ic_A: number, fn: string): void {
-  if (!Number.isFinite(ic_A) || ic_A <= 0) throw new EngineMisuseError(`${fn}(${dev.id}): ic_A must be finite and > 0, got ${ic_A}`);
+  if (!Number.isFinite(ic_A) || ic_A <= 0)
+    throw new EngineMisuseError(`${fn}(${dev.id}): ic_A must be finite and > 0, got ${ic_A}`);
 }
 function checkTemp(dev: BjtClass, tj_C: number, fn: string): void {
   if (!Number.isFinite(tj_C)) throw new EngineMisuseError(`${fn}(${dev.id}): tj_C must be finite, got ${tj_C}`);
@@ -84,7 +85,11 @@ function linearUp(points: [number, number][], x: number, singleProportional: boo
 export function vceSat(dev: BjtClass, ic_A: number): number {
   checkCurrent(dev, ic_A, "vceSat");
   if (dev.vce_sat.length === 0) throw new EngineMisuseError(`vceSat(${dev.id}): the class has no saturation points`);
-  return linearUp(dev.vce_sat.map((p) => [p.ic_A, p.vce_sat_V]), ic_A, true);
+  return linearUp(
+    dev.vce_sat.map((p) => [p.ic_A, p.vce_sat_V]),
+    ic_A,
+    true,
+  );
 }
 
 /**
@@ -114,6 +119,7 @@ export function vbeSat(dev: BjtClass, ic_A: number): number {
 export function forcedGainAt(dev: BjtClass, ic_A: number): number {
   checkCurrent(dev, ic_A, "forcedGainAt");
   let best = dev.vce_sat[0];
-  for (const p of dev.vce_sat) if (best === undefined || Math.abs(Math.log(p.ic_A / ic_A)) < Math.abs(Math.log(best.ic_A / ic_A))) best = p;
+  for (const p of dev.vce_sat)
+    if (best === undefined || Math.abs(Math.log(p.ic_A / ic_A)) < Math.abs(Math.log(best.ic_A / ic_A))) best = p;
   return best === undefined ? 10 : best.ic_A / best.ib_A;
 }

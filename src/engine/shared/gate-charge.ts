@@ -54,7 +54,8 @@ export interface MosfetCaps {
 /** C_GD = Q_GD,test/V_DD,test (bounded), C_GS = C_iss − C_GD: the card's gate capacitances. */
 export function mosfetCaps(dev: MosfetClass): MosfetCaps {
   const miller_C = millerChargeTest_C(dev);
-  const cgd_F = miller_C > 0 ? Math.min(CGD_MAX_SHARE * dev.ciss_F, miller_C / qgTestVdd_V(dev)) : CRSS_SHARE_FALLBACK * dev.ciss_F;
+  const cgd_F =
+    miller_C > 0 ? Math.min(CGD_MAX_SHARE * dev.ciss_F, miller_C / qgTestVdd_V(dev)) : CRSS_SHARE_FALLBACK * dev.ciss_F;
   return { cgs_F: dev.ciss_F - cgd_F, cgd_F };
 }
 

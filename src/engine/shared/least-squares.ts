@@ -39,11 +39,18 @@ function swap(rows: Row[]): Row[] {
 export function fit2(rows: Row[], b1: Bounds, b2: Bounds): [number, number] {
   const cands: [number, number][] = [];
   // Normal equations of the free problem.
-  let s11 = 0, s12 = 0, s22 = 0, t1 = 0, t2 = 0;
+  let s11 = 0,
+    s12 = 0,
+    s22 = 0,
+    t1 = 0,
+    t2 = 0;
   for (const r of rows) {
     const y = r.y - r.c;
-    s11 += r.w * r.a * r.a; s12 += r.w * r.a * r.b; s22 += r.w * r.b * r.b;
-    t1 += r.w * r.a * y; t2 += r.w * r.b * y;
+    s11 += r.w * r.a * r.a;
+    s12 += r.w * r.a * r.b;
+    s22 += r.w * r.b * r.b;
+    t1 += r.w * r.a * y;
+    t2 += r.w * r.b * y;
   }
   const det = s11 * s22 - s12 * s12;
   if (rows.length >= 2 && Math.abs(det) > 1e-12 * Math.max(s11 * s22, 1e-300)) {

@@ -58,35 +58,58 @@ export function loadModel(kind: LoadKind, supply_V: number, load_A: number, coil
   positive(load_A, "load_A");
   switch (kind) {
     case "resistive": {
-      return { r_ohm: supply_V / load_A, l_H: 0, vf_V: 0, peak_A: load_A, inductive: false, note: "resistive: R = V/I (common practice)" };
+      return {
+        r_ohm: supply_V / load_A,
+        l_H: 0,
+        vf_V: 0,
+        peak_A: load_A,
+        inductive: false,
+        note: "resistive: R = V/I (common practice)",
+      };
     }
     case "lamp": {
       const hot = supply_V / load_A;
       return {
-        r_ohm: hot, l_H: 0, vf_V: 0, peak_A: lampInrush_A(load_A, "worst"), inductive: false,
+        r_ohm: hot,
+        l_H: 0,
+        vf_V: 0,
+        peak_A: lampInrush_A(load_A, "worst"),
+        inductive: false,
         note: `lamp: hot R = V/I; cold filament ≈ R/${LAMP_INRUSH_FACTOR.nominal} (up to 1/${LAMP_INRUSH_FACTOR.worst}), so the switch sees ≈ ${LAMP_INRUSH_FACTOR.worst}× inrush for a few ms (Fink & Beaty, 11th ed., from memory)`,
       };
     }
     case "led": {
       const vf = LED_STRING_SHARE * supply_V;
       return {
-        r_ohm: (supply_V - vf) / load_A, l_H: 0, vf_V: vf, peak_A: load_A, inductive: false,
+        r_ohm: (supply_V - vf) / load_A,
+        l_H: 0,
+        vf_V: vf,
+        peak_A: load_A,
+        inductive: false,
         note: `LED strip: string drop ≈ ${LED_STRING_SHARE * 100} % of the supply at nominal current, the rest in its series resistors (common practice)`,
       };
     }
     case "motor": {
       const rWinding = supply_V / (MOTOR_STALL_FACTOR * load_A);
       return {
-        r_ohm: rWinding, l_H: MOTOR_TAU_E_s * rWinding, vf_V: supply_V - load_A * rWinding,
-        peak_A: motorStall_A(supply_V, rWinding), inductive: true,
+        r_ohm: rWinding,
+        l_H: MOTOR_TAU_E_s * rWinding,
+        vf_V: supply_V - load_A * rWinding,
+        peak_A: motorStall_A(supply_V, rWinding),
+        inductive: true,
         note: `motor: winding R = V/(${MOTOR_STALL_FACTOR}·I) from stall ≈ ${MOTOR_STALL_FACTOR}× running current, L = R·1 ms, back-EMF at running speed = V − I·R (typical small PM DC motor, from memory)`,
       };
     }
     case "solenoid": {
-      if (coil === undefined || !(coil.tau_s > 0)) throw new EngineMisuseError("loadModel: a solenoid needs its coil time constant (coil.tau_s > 0)");
+      if (coil === undefined || !(coil.tau_s > 0))
+        throw new EngineMisuseError("loadModel: a solenoid needs its coil time constant (coil.tau_s > 0)");
       const r = supply_V / load_A;
       return {
-        r_ohm: r, l_H: coil.tau_s * r, vf_V: 0, peak_A: load_A, inductive: true,
+        r_ohm: r,
+        l_H: coil.tau_s * r,
+        vf_V: 0,
+        peak_A: load_A,
+        inductive: true,
         note: `solenoid coil: R = V/I, L = R·τ with the record's τ = ${(coil.tau_s * 1e3).toPrecision(3)} ms, no back-EMF (armature closed; common practice)`,
       };
     }

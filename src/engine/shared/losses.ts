@@ -37,7 +37,14 @@ export type SwitchingKind = "resistive" | "clamped-inductive";
  *   dissipates V·I·t/2, so P = ½·V·I·(t_on + t_off)·f — Mohan, Undeland, Robbins, 3rd ed., Eq. 2-6
  *   (from memory) [src:mohan-3e-eq2-6]. test/engine/shared/losses.test.ts integrates both numerically.
  */
-export function switchingLoss_W(v_V: number, i_A: number, tOn_s: number, tOff_s: number, f_Hz: number, kind: SwitchingKind): number {
+export function switchingLoss_W(
+  v_V: number,
+  i_A: number,
+  tOn_s: number,
+  tOff_s: number,
+  f_Hz: number,
+  kind: SwitchingKind,
+): number {
   nonNeg(v_V, "v_V");
   nonNeg(i_A, "i_A");
   nonNeg(tOn_s, "tOn_s");
@@ -51,7 +58,8 @@ export function switchingLoss_W(v_V: number, i_A: number, tOn_s: number, tOff_s:
 /** P = V²/R · D: a resistor with v_V across it for the fraction `duty` of the time. */
 export function resistorPower_W(v_V: number, r_ohm: number, duty: number): number {
   if (!Number.isFinite(v_V)) throw new EngineMisuseError(`losses: v_V must be finite, got ${v_V}`);
-  if (!Number.isFinite(r_ohm) || r_ohm <= 0) throw new EngineMisuseError(`losses: r_ohm must be finite and > 0, got ${r_ohm}`);
+  if (!Number.isFinite(r_ohm) || r_ohm <= 0)
+    throw new EngineMisuseError(`losses: r_ohm must be finite and > 0, got ${r_ohm}`);
   dutyOk(duty);
   return ((v_V * v_V) / r_ohm) * duty;
 }

@@ -49,8 +49,15 @@ export function softStartScale(tau_s: number, ramp_s: number): number {
  * upper bound for the power, a lower one for a filament heated at reduced power — so the duration
  * is doubled as margin, our rule).
  */
-export function limitedEvent(iPeak_A: number, iRun_A: number, iLim_A: number, v_V: number, tau_s: number): { p_W: number; t_s: number; e_J: number } {
-  if (!(iLim_A > iRun_A)) throw new EngineMisuseError(`limitedEvent: limit ${iLim_A} A must exceed the running current ${iRun_A} A`);
+export function limitedEvent(
+  iPeak_A: number,
+  iRun_A: number,
+  iLim_A: number,
+  v_V: number,
+  tau_s: number,
+): { p_W: number; t_s: number; e_J: number } {
+  if (!(iLim_A > iRun_A))
+    throw new EngineMisuseError(`limitedEvent: limit ${iLim_A} A must exceed the running current ${iRun_A} A`);
   if (iLim_A >= iPeak_A) return { p_W: 0, t_s: 0, e_J: 0 };
   const rCold = v_V / iPeak_A;
   const p_W = iLim_A * Math.max(0, v_V - iLim_A * rCold);
@@ -67,7 +74,8 @@ export function soaPulsePower_W(points: readonly SoaPoint[], t_s: number): numbe
   if (!(t_s > 0)) throw new EngineMisuseError(`soaPulsePower_W: t_s must be > 0, got ${t_s}`);
   if (t_s <= points[0]!.t_s) return points[0]!.p_W;
   for (let i = 1; i < points.length; i++) {
-    const a = points[i - 1]!, b = points[i]!;
+    const a = points[i - 1]!,
+      b = points[i]!;
     if (t_s <= b.t_s) {
       const k = Math.log(t_s / a.t_s) / Math.log(b.t_s / a.t_s);
       return Math.exp(Math.log(a.p_W) + k * Math.log(b.p_W / a.p_W));

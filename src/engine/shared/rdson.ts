@@ -37,7 +37,12 @@ export function rdsOn_ohm(dev: MosfetClass, vgs_V: number, hot: boolean): number
   if (first === undefined) throw new EngineMisuseError(`MOSFET class ${dev.id} has no R_DS(on) points`);
   const below = pts.filter((p) => p.vgs_V <= vgs_V + 1e-9).pop();
   const vth = dev.vgs_th_V.max;
-  const r = below !== undefined ? below.max_ohm : vgs_V <= vth ? first.max_ohm * 1e3 : (first.max_ohm * (first.vgs_V - vth)) / (vgs_V - vth);
+  const r =
+    below !== undefined
+      ? below.max_ohm
+      : vgs_V <= vth
+        ? first.max_ohm * 1e3
+        : (first.max_ohm * (first.vgs_V - vth)) / (vgs_V - vth);
   return hot ? r * dev.rds_on_hot_factor : r;
 }
 
@@ -48,10 +53,17 @@ export function rdsOn_ohm(dev: MosfetClass, vgs_V: number, hot: boolean): number
  */
 export function rdsSplit(dev: MosfetClass, vto_V: number, scale: number): { rFix_ohm: number; invKp: number } {
   const pts = dev.rds_on.filter((p) => p.vgs_V > vto_V);
-  if (pts.length === 0) throw new EngineMisuseError(`device ${dev.id}: no R_DS(on) point above the threshold ${vto_V} V`);
+  if (pts.length === 0)
+    throw new EngineMisuseError(`device ${dev.id}: no R_DS(on) point above the threshold ${vto_V} V`);
   const rMin = Math.min(...pts.map((p) => p.max_ohm)) * scale;
   if (pts.length >= 2) {
-    const rows = pts.map((p) => ({ a: 1, b: 1 / (p.vgs_V - vto_V), c: 0, y: p.max_ohm * scale, w: 1 / (p.max_ohm * scale) ** 2 }));
+    const rows = pts.map((p) => ({
+      a: 1,
+      b: 1 / (p.vgs_V - vto_V),
+      c: 0,
+      y: p.max_ohm * scale,
+      w: 1 / (p.max_ohm * scale) ** 2,
+    }));
     const [rFix_ohm, invKp] = fit2(rows, { lo: 0, hi: rMin }, { lo: 1e-9, hi: 1e9 });
     return { rFix_ohm, invKp };
   }

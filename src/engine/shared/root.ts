@@ -34,16 +34,20 @@ export function findRoot(f: (x: number) => number, lo: number, hi: number, opts:
   const xAbs = opts.xTolAbs ?? 0;
   const xRel = opts.xTolRel ?? 0;
   const maxIter = opts.maxIter ?? 200;
-  if (!Number.isFinite(lo) || !Number.isFinite(hi)) throw new RootFinderError(`${what}: bracket must be finite, got [${lo}, ${hi}]`);
+  if (!Number.isFinite(lo) || !Number.isFinite(hi))
+    throw new RootFinderError(`${what}: bracket must be finite, got [${lo}, ${hi}]`);
   let a = lo;
   let b = hi;
   let fa = f(a);
   let fb = f(b);
-  if (!Number.isFinite(fa) || !Number.isFinite(fb)) throw new RootFinderError(`${what}: f is not finite at the bracket ends (f(${a}) = ${fa}, f(${b}) = ${fb})`);
+  if (!Number.isFinite(fa) || !Number.isFinite(fb))
+    throw new RootFinderError(`${what}: f is not finite at the bracket ends (f(${a}) = ${fa}, f(${b}) = ${fb})`);
   if (fa === 0) return a;
   if (fb === 0) return b;
   if (Math.sign(fa) === Math.sign(fb)) {
-    throw new RootFinderError(`${what}: no sign change on [${a}, ${b}] (f = ${fa}, ${fb}); widen the bracket or check the equation`);
+    throw new RootFinderError(
+      `${what}: no sign change on [${a}, ${b}] (f = ${fa}, ${fb}); widen the bracket or check the equation`,
+    );
   }
   let c = a;
   let fc = fa;
@@ -51,17 +55,25 @@ export function findRoot(f: (x: number) => number, lo: number, hi: number, opts:
   let e = d;
   for (let iter = 0; iter < maxIter; iter++) {
     if (Math.sign(fb) === Math.sign(fc)) {
-      c = a; fc = fa; d = b - a; e = d;
+      c = a;
+      fc = fa;
+      d = b - a;
+      e = d;
     }
     if (Math.abs(fc) < Math.abs(fb)) {
-      a = b; b = c; c = a;
-      fa = fb; fb = fc; fc = fa;
+      a = b;
+      b = c;
+      c = a;
+      fa = fb;
+      fb = fc;
+      fc = fa;
     }
     const tol = 2 * EPS * Math.abs(b) + 0.5 * (xAbs + xRel * Math.abs(b));
     const m = 0.5 * (c - b);
     if (Math.abs(m) <= tol || fb === 0) return b;
     if (Math.abs(e) < tol || Math.abs(fa) <= Math.abs(fb)) {
-      d = m; e = m; // bisection
+      d = m;
+      e = m; // bisection
     } else {
       let p: number;
       let q: number;
@@ -78,9 +90,11 @@ export function findRoot(f: (x: number) => number, lo: number, hi: number, opts:
       if (p > 0) q = -q;
       else p = -p;
       if (2 * p < Math.min(3 * m * q - Math.abs(tol * q), Math.abs(e * q))) {
-        e = d; d = p / q;
+        e = d;
+        d = p / q;
       } else {
-        d = m; e = m;
+        d = m;
+        e = m;
       }
     }
     a = b;
@@ -89,5 +103,7 @@ export function findRoot(f: (x: number) => number, lo: number, hi: number, opts:
     fb = f(b);
     if (!Number.isFinite(fb)) throw new RootFinderError(`${what}: f(${b}) is not finite`);
   }
-  throw new RootFinderError(`${what}: no convergence in ${maxIter} iterations on [${lo}, ${hi}]; raise maxIter or loosen the tolerance`);
+  throw new RootFinderError(
+    `${what}: no convergence in ${maxIter} iterations on [${lo}, ${hi}]; raise maxIter or loosen the tolerance`,
+  );
 }

@@ -56,5 +56,8 @@ export function coilRipple_A(vEff_V: number, duty: number, r_ohm: number, tau_s:
   check(f_Hz > 0, "f_Hz must be > 0", f_Hz);
   check(tau_s > 0, "tau_s must be > 0", tau_s);
   const T = 1 / f_Hz;
-  return ((vEff_V / r_ohm) * -Math.expm1((-duty * T) / tau_s) * -Math.expm1((-(1 - duty) * T) / tau_s)) / -Math.expm1(-T / tau_s);
+  return (
+    ((vEff_V / r_ohm) * -Math.expm1((-duty * T) / tau_s) * -Math.expm1((-(1 - duty) * T) / tau_s)) /
+    -Math.expm1(-T / tau_s)
+  );
 }

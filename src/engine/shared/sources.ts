@@ -24,7 +24,14 @@ export const SURENESS_WORDS: Record<Sureness, string> = {
   demo: "demo value",
 };
 
-export const SOURCE_KINDS = ["standard", "textbook", "paper", "registered data", "trade practice", "this project"] as const;
+export const SOURCE_KINDS = [
+  "standard",
+  "textbook",
+  "paper",
+  "registered data",
+  "trade practice",
+  "this project",
+] as const;
 export type SourceKind = (typeof SOURCE_KINDS)[number];
 
 /** One value the project takes from a source, and how sure we are of that value. */
@@ -78,7 +85,11 @@ export const SOURCES = {
       { item: "E12", value: "E6 and 1.2 1.8 2.7 3.9 5.6 8.2", sureness: "seen" },
       { item: "E24", value: "E12 and 1.1 1.3 1.6 2.0 2.4 3.0 3.6 4.3 5.1 6.2 7.5 9.1", sureness: "seen" },
       { item: "E96", value: "round(10^(k/96), 2), k = 0 … 95", sureness: "seen" },
-      { item: "tolerance by series", value: "E6 ±20 %, E12 ±10 %, E24 ±5 %, E48 ±2 %, E96 ±1 %, E192 ±0.5 %", sureness: "common-practice" },
+      {
+        item: "tolerance by series",
+        value: "E6 ±20 %, E12 ±10 %, E24 ±5 %, E48 ±2 %, E96 ±1 %, E192 ±0.5 %",
+        sureness: "common-practice",
+      },
     ],
   },
   "iec-60127": {
@@ -94,10 +105,22 @@ export const SOURCES = {
       "decades). Quick-acting and time-lag types differ in how long they carry a multiple of the rating. " +
       "The rating is chosen with headroom over the running current (common practice, not the standard).",
     values: [
-      { item: "preferred ratings", value: "R10 series: 1, 1.25, 1.6, 2, 2.5, 3.15, 4, 5, 6.3, 8 (× 10ⁿ A)", sureness: "from-memory" },
-      { item: "time-lag (T) gate at 10 × I_n (standard sheet 3)", value: "pre-arcing 10 ms … 100 ms", sureness: "from-memory" },
+      {
+        item: "preferred ratings",
+        value: "R10 series: 1, 1.25, 1.6, 2, 2.5, 3.15, 4, 5, 6.3, 8 (× 10ⁿ A)",
+        sureness: "from-memory",
+      },
+      {
+        item: "time-lag (T) gate at 10 × I_n (standard sheet 3)",
+        value: "pre-arcing 10 ms … 100 ms",
+        sureness: "from-memory",
+      },
       { item: "rated voltage of 5 × 20 mm fuse-links", value: "250 V", sureness: "from-memory" },
-      { item: "continuous current over the rating", value: "≤ 75–80 % at 25 °C, less when hot", sureness: "common-practice" },
+      {
+        item: "continuous current over the rating",
+        value: "≤ 75–80 % at 25 °C, less when hot",
+        sureness: "common-practice",
+      },
     ],
   },
   "iso-8820-3": {
@@ -120,7 +143,8 @@ export const SOURCES = {
   "jesd51-2a": {
     kind: "standard",
     short: "JEDEC JESD51-2A",
-    title: "JEDEC JESD51-2A, Integrated Circuits Thermal Test Method Environmental Conditions — Natural Convection (Still Air)",
+    title:
+      "JEDEC JESD51-2A, Integrated Circuits Thermal Test Method Environmental Conditions — Natural Convection (Still Air)",
     edition: "2008 (revision A)",
     where: "definition of θ_JA in still air",
     sureness: "seen",
@@ -144,14 +168,19 @@ export const SOURCES = {
       "T_J = T_A + P·(θ_JC + θ_CS + θ_SA) and the largest heatsink allowed is " +
       "θ_SA ≤ (T_J,limit − T_A)/P − θ_JC − θ_CS.",
     values: [
-      { item: "junction temperature on a heatsink", value: "T_J = T_A + P·(θ_JC + θ_CS + θ_SA)", sureness: "from-memory" },
+      {
+        item: "junction temperature on a heatsink",
+        value: "T_J = T_A + P·(θ_JC + θ_CS + θ_SA)",
+        sureness: "from-memory",
+      },
       { item: "case to sink with grease", value: "TO-220 ≈ 0.5 K/W, TO-3 ≈ 0.2 K/W", sureness: "from-memory" },
     ],
   },
   "package-theta-ja": {
     kind: "registered data",
     short: "still-air θ_JA by package",
-    title: "Still-air junction-to-ambient resistance of common discrete packages, as printed in data sheets of generic types",
+    title:
+      "Still-air junction-to-ambient resistance of common discrete packages, as printed in data sheets of generic types",
     edition: "—",
     where: "thermal characteristics tables of generic-type data sheets",
     sureness: "seen",
@@ -169,7 +198,8 @@ export const SOURCES = {
   "ieee-1789": {
     kind: "standard",
     short: "IEEE Std 1789-2015",
-    title: "IEEE Std 1789, Recommended Practices for Modulating Current in High-Brightness LEDs for Mitigating Health Risks to Viewers",
+    title:
+      "IEEE Std 1789, Recommended Practices for Modulating Current in High-Brightness LEDs for Mitigating Health Risks to Viewers",
     edition: "2015",
     where: "§8.1.1 (low-risk and no-observable-effect regions)",
     sureness: "seen",
@@ -189,7 +219,8 @@ export const SOURCES = {
   "nasa-eee-inst-002": {
     kind: "standard",
     short: "NASA EEE-INST-002",
-    title: "NASA EEE-INST-002, Instructions for EEE Parts Selection, Screening, Qualification, and Derating (NASA/TP-2003-212242)",
+    title:
+      "NASA EEE-INST-002, Instructions for EEE Parts Selection, Screening, Qualification, and Derating (NASA/TP-2003-212242)",
     edition: "2003, with Addendum 1 (2008)",
     where: "derating tables by part type",
     sureness: "from-memory",
@@ -235,7 +266,9 @@ export const SOURCES = {
     note:
       "The slash sheet draws its power derating curves for junction limits of 125 °C and 110 °C: a " +
       "military practice consistent with the 125 °C junction ceiling of the default policy.",
-    values: [{ item: "junction limits of the derating curves", value: "T_J ≤ 125 °C and T_J ≤ 110 °C", sureness: "seen" }],
+    values: [
+      { item: "junction limits of the derating curves", value: "T_J ≤ 125 °C and T_J ≤ 110 °C", sureness: "seen" },
+    ],
   },
   "millman-taub-1965": {
     kind: "textbook",
@@ -252,8 +285,16 @@ export const SOURCES = {
       "Collector-isolation diodes and base–emitter protection are treated in the same chapter.",
     values: [
       { item: "half-period", value: "t = R·C·ln((2·V_cc − V_BE − V_CE(sat))/(V_cc − V_BE))", sureness: "from-memory" },
-      { item: "coefficient at 5, 9, 12 V (V_BE 0.6 V, V_CE(sat) 0.1 V)", value: "0.7484, 0.7225, 0.7148 (ln 2 = 0.6931)", sureness: "derived" },
-      { item: "off base swing", value: "≈ −(V_cc − V_BE − V_CE(sat)), breaks down above V_EBO", sureness: "from-memory" },
+      {
+        item: "coefficient at 5, 9, 12 V (V_BE 0.6 V, V_CE(sat) 0.1 V)",
+        value: "0.7484, 0.7225, 0.7148 (ln 2 = 0.6931)",
+        sureness: "derived",
+      },
+      {
+        item: "off base swing",
+        value: "≈ −(V_cc − V_BE − V_CE(sat)), breaks down above V_EBO",
+        sureness: "from-memory",
+      },
     ],
   },
   "millman-halkias-1972": {
@@ -271,7 +312,11 @@ export const SOURCES = {
       "cut-in V_γ, below which a transistor conducts too little to matter, well under the active V_BE.",
     values: [
       { item: "storage time", value: "t_s = τ_s·ln((I_B1 + I_B2)/(I_C/β + I_B2))", sureness: "from-memory" },
-      { item: "silicon junction voltages", value: "V_γ ≈ 0.5 V, V_BE(active) ≈ 0.7 V, V_BE(sat) ≈ 0.8 V", sureness: "from-memory" },
+      {
+        item: "silicon junction voltages",
+        value: "V_γ ≈ 0.5 V, V_BE(active) ≈ 0.7 V, V_BE(sat) ≈ 0.8 V",
+        sureness: "from-memory",
+      },
     ],
   },
   "rashid-4e-ex4-2": {
@@ -299,7 +344,9 @@ export const SOURCES = {
       "With the load current held by an inductance and clamped by a diode, the full voltage and current " +
       "overlap during each transition: P = ½·V·I·(t_on + t_off)·f. Both this and the resistive ⅙ follow " +
       "from integrating linear ramps, which the tests do.",
-    values: [{ item: "clamped inductive switching loss", value: "P = ½·V·I·(t_on + t_off)·f", sureness: "from-memory" }],
+    values: [
+      { item: "clamped inductive switching loss", value: "P = ½·V·I·(t_on + t_off)·f", sureness: "from-memory" },
+    ],
   },
   "mohan-3e-ch7": {
     kind: "textbook",
@@ -312,7 +359,9 @@ export const SOURCES = {
     note:
       "Averaged over one period with continuous current, a PWM-driven motor winding sees " +
       "D·(V − V_sw) − (1 − D)·V_F = E + I·R, which gives the back-EMF at a duty and current.",
-    values: [{ item: "averaged winding balance", value: "D·(V − V_sw) − (1 − D)·V_F = E + I·R", sureness: "from-memory" }],
+    values: [
+      { item: "averaged winding balance", value: "D·(V − V_sw) − (1 − D)·V_F = E + I·R", sureness: "from-memory" },
+    ],
   },
   "horowitz-hill-3e": {
     kind: "textbook",
@@ -339,12 +388,19 @@ export const SOURCES = {
     note:
       "The base–emitter voltage of a conducting BJT rises by V_T·ln(I_C2/I_C1) between two collector " +
       "currents; the ohmic base spreading resistance adds r_b·I_B on top.",
-    values: [{ item: "junction voltage against current", value: "V_BE,2 = V_BE,1 + V_T·ln(I_C2/I_C1)", sureness: "from-memory" }],
+    values: [
+      {
+        item: "junction voltage against current",
+        value: "V_BE,2 = V_BE,1 + V_T·ln(I_C2/I_C1)",
+        sureness: "from-memory",
+      },
+    ],
   },
   "gummel-poon-1970": {
     kind: "paper",
     short: "Gummel & Poon 1970",
-    title: "H. K. Gummel, H. C. Poon, An Integral Charge Control Model of Bipolar Transistors, Bell System Technical Journal 49",
+    title:
+      "H. K. Gummel, H. C. Poon, An Integral Charge Control Model of Bipolar Transistors, Bell System Technical Journal 49",
     edition: "1970",
     where: "the model equations",
     sureness: "from-memory",
@@ -387,7 +443,8 @@ export const SOURCES = {
   "shockley-1949": {
     kind: "paper",
     short: "Shockley 1949",
-    title: "W. Shockley, The Theory of p-n Junctions in Semiconductors and p-n Junction Transistors, Bell Syst. Tech. J. 28",
+    title:
+      "W. Shockley, The Theory of p-n Junctions in Semiconductors and p-n Junction Transistors, Bell Syst. Tech. J. 28",
     edition: "1949",
     where: "the ideal junction law",
     sureness: "from-memory",
@@ -430,7 +487,9 @@ export const SOURCES = {
     note:
       "A power MOSFET's on-resistance is a channel part that falls as 1/(V_GS − V_th) plus fixed drift, " +
       "substrate and contact parts.",
-    values: [{ item: "on-resistance", value: "R_DS(on) = R_fix + R_ch, R_ch ∝ 1/(V_GS − V_th)", sureness: "from-memory" }],
+    values: [
+      { item: "on-resistance", value: "R_DS(on) = R_fix + R_ch, R_ch ∝ 1/(V_GS − V_th)", sureness: "from-memory" },
+    ],
   },
   "fink-beaty-11e": {
     kind: "textbook",
@@ -444,7 +503,13 @@ export const SOURCES = {
       "A cold tungsten filament has about a tenth to a fifteenth of its hot resistance, so a lamp draws " +
       "10 to 15 times its running current for the first few milliseconds. The ratio was seen in several " +
       "reproductions; the handbook page is recalled.",
-    values: [{ item: "cold to hot filament resistance", value: "≈ 1/10 to 1/15 (inrush 10–15 × running current)", sureness: "from-memory" }],
+    values: [
+      {
+        item: "cold to hot filament resistance",
+        value: "≈ 1/10 to 1/15 (inrush 10–15 × running current)",
+        sureness: "from-memory",
+      },
+    ],
   },
   "iec-60617": {
     kind: "standard",
@@ -471,7 +536,8 @@ export const SOURCES = {
   "iec-81346": {
     kind: "standard",
     short: "IEC 81346",
-    title: "IEC 81346, Industrial systems, installations and equipment — Structuring principles and reference designations",
+    title:
+      "IEC 81346, Industrial systems, installations and equipment — Structuring principles and reference designations",
     edition: "edition not pinned",
     where: "letter codes of reference designations",
     sureness: "from-memory",
@@ -495,12 +561,28 @@ export const SOURCES = {
       { item: "2N3904: V_CEO, V_EBO, I_C, P_tot, T_J", value: "40 V, 6.0 V, 200 mA, 625 mW, 150 °C", sureness: "seen" },
       { item: "2N3904: h_FE", value: "100–300 at 10 mA, 1 V; ≥ 30 at 100 mA", sureness: "seen" },
       { item: "2N3904: h_FE at 0.1, 1, 50 mA; V_CE(sat)", value: "as in the device file", sureness: "from-memory" },
-      { item: "2N2222A: V_CEO, V_EBO, I_C, P_tot", value: "40 V, 6 V, 800 mA, 400 mW (1.2 W at T_C 25 °C)", sureness: "seen" },
+      {
+        item: "2N2222A: V_CEO, V_EBO, I_C, P_tot",
+        value: "40 V, 6 V, 800 mA, 400 mW (1.2 W at T_C 25 °C)",
+        sureness: "seen",
+      },
       { item: "2N2222A: V_CE(sat)", value: "0.3 V at 150/15 mA, 1.0 V at 500/50 mA", sureness: "seen" },
       { item: "2N2222A: h_FE", value: "100–300 at 150 mA", sureness: "from-memory" },
-      { item: "2N3055: V_CEO, V_EBO, I_C, P_tot, θ_JC, T_J", value: "60 V, 7 V, 15 A, 115 W at T_C 25 °C, 1.52 K/W, 200 °C", sureness: "seen" },
-      { item: "2N3055: h_FE, V_CE(sat)", value: "20–70 at 4 A, 4 V; ≥ 5 at 10 A; 1.1 V at 4 A / 0.4 A", sureness: "seen" },
-      { item: "2N3906, 1N4148, 1N400x, 1N540x, 1N5822", value: "ratings as in the device files", sureness: "from-memory" },
+      {
+        item: "2N3055: V_CEO, V_EBO, I_C, P_tot, θ_JC, T_J",
+        value: "60 V, 7 V, 15 A, 115 W at T_C 25 °C, 1.52 K/W, 200 °C",
+        sureness: "seen",
+      },
+      {
+        item: "2N3055: h_FE, V_CE(sat)",
+        value: "20–70 at 4 A, 4 V; ≥ 5 at 10 A; 1.1 V at 4 A / 0.4 A",
+        sureness: "seen",
+      },
+      {
+        item: "2N3906, 1N4148, 1N400x, 1N540x, 1N5822",
+        value: "ratings as in the device files",
+        sureness: "from-memory",
+      },
     ],
   },
   "pro-electron-registered": {
@@ -515,7 +597,11 @@ export const SOURCES = {
       "BC547: later data sheets give I_C 100 mA where older ones gave 500 mA; the device class uses the " +
       "lower value. Gain groups A, B, C split h_FE at 2 mA, 5 V.",
     values: [
-      { item: "BC547: V_CEO, V_EBO, I_C, P_tot, T_J", value: "45 V, 6.0 V, 100 mA, 500–625 mW, 150 °C", sureness: "seen" },
+      {
+        item: "BC547: V_CEO, V_EBO, I_C, P_tot, T_J",
+        value: "45 V, 6.0 V, 100 mA, 500–625 mW, 150 °C",
+        sureness: "seen",
+      },
       { item: "BC547 group C: h_FE", value: "420–800 at 2 mA, 5 V", sureness: "seen" },
       { item: "BZX55-series zener: tolerance, P_Z", value: "C grade ±5 %, 0.5 W in free air", sureness: "from-memory" },
     ],
@@ -532,7 +618,11 @@ export const SOURCES = {
       "Where no registered generic type fits (a 60 V / 6 A TO-220 BJT, a logic-level TO-220 MOSFET, an " +
       "ultrafast 3 A rectifier) the device class holds values typical of the class, recalled and marked so.",
     values: [
-      { item: "silicon MOSFET R_DS(on) from 25 °C to 125 °C", value: "× 1.5–1.8 (1.6–2.0 at T_J,max)", sureness: "from-memory" },
+      {
+        item: "silicon MOSFET R_DS(on) from 25 °C to 125 °C",
+        value: "× 1.5–1.8 (1.6–2.0 at T_J,max)",
+        sureness: "from-memory",
+      },
       { item: "V_GS maximum", value: "±20 V", sureness: "from-memory" },
     ],
   },
@@ -613,7 +703,11 @@ export const SOURCES = {
       { item: "forced gain for hard saturation", value: "β = 10", sureness: "common-practice" },
       { item: "saturation overdrive of the timing core", value: "k ≥ 2 over β_min", sureness: "common-practice" },
       { item: "above ≈ 5 A", value: "prefer a MOSFET", sureness: "common-practice" },
-      { item: "collector recovery of the astable", value: "5·τ_c shorter than the half-period", sureness: "common-practice" },
+      {
+        item: "collector recovery of the astable",
+        value: "5·τ_c shorter than the half-period",
+        sureness: "common-practice",
+      },
       { item: "small-signal V_EBO", value: "≈ 5–7 V", sureness: "common-practice" },
       { item: "gain against temperature", value: "rises ≈ 0.5 %/K", sureness: "common-practice" },
       { item: "bulk capacitor", value: "≈ 100 µF per ampere, ≥ 100 µF", sureness: "common-practice" },

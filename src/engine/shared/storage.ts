@@ -11,7 +11,13 @@
 import { EngineMisuseError } from "../../model/errors.ts";
 
 export function storageTime_s(tsDatasheet_s: number, iB1_A: number, iB2_A: number, iC_A: number, beta: number): number {
-  for (const [k, v] of [["tsDatasheet_s", tsDatasheet_s], ["iB1_A", iB1_A], ["iB2_A", iB2_A], ["iC_A", iC_A], ["beta", beta]] as const) {
+  for (const [k, v] of [
+    ["tsDatasheet_s", tsDatasheet_s],
+    ["iB1_A", iB1_A],
+    ["iB2_A", iB2_A],
+    ["iC_A", iC_A],
+    ["beta", beta],
+  ] as const) {
     if (!Number.isFinite(v) || v < 0) throw new EngineMisuseError(`storage: ${k} must be finite and ≥ 0, got ${v}`);
   }
   if (!(beta > 0)) throw new EngineMisuseError("storage: beta must be > 0");

@@ -26,22 +26,34 @@ export interface BatteryData {
 
 export const BATTERIES: Readonly<Record<BatteryChemistry, BatteryData>> = {
   "lead-acid": {
-    title: "lead-acid", nominal_VperCell: 2.0, endOfDischarge_VperCell: 1.75, charge_VperCell: 2.45, cells: [6, 12, 24],
+    title: "lead-acid",
+    nominal_VperCell: 2.0,
+    endOfDischarge_VperCell: 1.75,
+    charge_VperCell: 2.45,
+    cells: [6, 12, 24],
     source: "lead-acid: 1.75 V/cell end of discharge … 2.45 V/cell absorption charging at 25 °C (common practice)",
   },
   lifepo4: {
-    title: "LiFePO4", nominal_VperCell: 3.2, endOfDischarge_VperCell: 2.5, charge_VperCell: 3.65, cells: [4, 8, 16],
+    title: "LiFePO4",
+    nominal_VperCell: 3.2,
+    endOfDischarge_VperCell: 2.5,
+    charge_VperCell: 3.65,
+    cells: [4, 8, 16],
     source: "LiFePO4: 2.5 V/cell cut-off … 3.65 V/cell charge (common practice)",
   },
 };
 
 /** The battery system (cell count) of `chem` whose window contains `supply_V`, if any. */
-export function batterySystem(chem: BatteryChemistry, supply_V: number): { cells: number; min_V: number; max_V: number; system_V: number } | undefined {
+export function batterySystem(
+  chem: BatteryChemistry,
+  supply_V: number,
+): { cells: number; min_V: number; max_V: number; system_V: number } | undefined {
   const b = BATTERIES[chem];
   for (const n of b.cells) {
     const min_V = round3(n * b.endOfDischarge_VperCell);
     const max_V = round3(n * b.charge_VperCell);
-    if (supply_V >= min_V - 1e-9 && supply_V <= max_V + 1e-9) return { cells: n, min_V, max_V, system_V: round3(n * b.nominal_VperCell) };
+    if (supply_V >= min_V - 1e-9 && supply_V <= max_V + 1e-9)
+      return { cells: n, min_V, max_V, system_V: round3(n * b.nominal_VperCell) };
   }
   return undefined;
 }
@@ -49,7 +61,12 @@ export function batterySystem(chem: BatteryChemistry, supply_V: number): { cells
 /** The systems of a chemistry, for error messages: "12 V: 10.5–14.7 V, 24 V: 21–29.4 V, …". */
 export function batterySystemsText(chem: BatteryChemistry): string {
   const b = BATTERIES[chem];
-  return b.cells.map((n) => `${round3(n * b.nominal_VperCell)} V: ${round3(n * b.endOfDischarge_VperCell)}–${round3(n * b.charge_VperCell)} V`).join(", ");
+  return b.cells
+    .map(
+      (n) =>
+        `${round3(n * b.nominal_VperCell)} V: ${round3(n * b.endOfDischarge_VperCell)}–${round3(n * b.charge_VperCell)} V`,
+    )
+    .join(", ");
 }
 
 /** What a record says about its supply (DesignRecord["supply"] and targets.supply_tolerance). */
@@ -66,27 +83,46 @@ export interface SupplyStatement {
  * check reports that first, with the file and place).
  */
 export function supplyWindow(s: SupplyStatement, nominal_V: number): SupplyWindow {
-  if (!(Number.isFinite(nominal_V) && nominal_V > 0)) throw new EngineMisuseError(`supplyWindow: nominal must be finite and > 0, got ${nominal_V}`);
+  if (!(Number.isFinite(nominal_V) && nominal_V > 0))
+    throw new EngineMisuseError(`supplyWindow: nominal must be finite and > 0, got ${nominal_V}`);
   const declared = s.windows?.find((w) => Math.abs(w.nominal_V - nominal_V) < 1e-9);
   if (declared !== undefined) {
-    return { nominal_V, min_V: declared.min_V, max_V: declared.max_V, basis: "declared", text: `${declared.min_V}–${declared.max_V} V (stated in the record)`, source: "stated in the design record" };
+    return {
+      nominal_V,
+      min_V: declared.min_V,
+      max_V: declared.max_V,
+      basis: "declared",
+      text: `${declared.min_V}–${declared.max_V} V (stated in the record)`,
+      source: "stated in the design record",
+    };
   }
   if (s.battery !== undefined) {
     const sys = batterySystem(s.battery, nominal_V);
     if (sys === undefined) {
-      throw new EngineMisuseError(`supplyWindow: ${nominal_V} V is not within a ${BATTERIES[s.battery].title} system (${batterySystemsText(s.battery)})`);
+      throw new EngineMisuseError(
+        `supplyWindow: ${nominal_V} V is not within a ${BATTERIES[s.battery].title} system (${batterySystemsText(s.battery)})`,
+      );
     }
     const b = BATTERIES[s.battery];
     return {
-      nominal_V, min_V: sys.min_V, max_V: sys.max_V, basis: "battery", battery: s.battery,
-      text: `${sys.system_V} V ${b.title} battery, ${sys.min_V} V end of discharge … ${sys.max_V} V charging`, source: b.source,
+      nominal_V,
+      min_V: sys.min_V,
+      max_V: sys.max_V,
+      basis: "battery",
+      battery: s.battery,
+      text: `${sys.system_V} V ${b.title} battery, ${sys.min_V} V end of discharge … ${sys.max_V} V charging`,
+      source: b.source,
     };
   }
   const t = s.tolerance;
   if (!(t >= 0 && t < 1)) throw new EngineMisuseError(`supplyWindow: tolerance must be in [0, 1), got ${t}`);
   return {
-    nominal_V, min_V: nominal_V * (1 - t), max_V: nominal_V * (1 + t), basis: "tolerance",
-    text: `±${round3(t * 100)} % (${round3(nominal_V * (1 - t))}–${round3(nominal_V * (1 + t))} V)`, source: "stated in the design record (symmetric tolerance)",
+    nominal_V,
+    min_V: nominal_V * (1 - t),
+    max_V: nominal_V * (1 + t),
+    basis: "tolerance",
+    text: `±${round3(t * 100)} % (${round3(nominal_V * (1 - t))}–${round3(nominal_V * (1 + t))} V)`,
+    source: "stated in the design record (symmetric tolerance)",
   };
 }
 

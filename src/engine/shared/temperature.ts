@@ -21,7 +21,8 @@ export const ZERO_CELSIUS_K = 273.15;
 /** Thermal voltage V_T = k·T/q at t_C, V (CODATA 2018 k and q). */
 export function thermalVoltage_V(t_C: number): number {
   const t_K = t_C + ZERO_CELSIUS_K;
-  if (!Number.isFinite(t_C) || !(t_K > 0)) throw new EngineMisuseError(`thermalVoltage_V: t_C must be finite and above absolute zero, got ${t_C}`);
+  if (!Number.isFinite(t_C) || !(t_K > 0))
+    throw new EngineMisuseError(`thermalVoltage_V: t_C must be finite and above absolute zero, got ${t_C}`);
   return (BOLTZMANN_JperK * t_K) / ELEMENTARY_CHARGE_C;
 }
 

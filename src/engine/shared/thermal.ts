@@ -16,7 +16,8 @@ export function junctionTemp_C(ta_C: number, p_W: number, rth_KperW: number): nu
   finite(ta_C, "ta_C");
   finite(p_W, "p_W");
   finite(rth_KperW, "rth_KperW");
-  if (p_W < 0 || rth_KperW < 0) throw new EngineMisuseError(`thermal: p_W and rth_KperW must be ≥ 0 (got ${p_W}, ${rth_KperW})`);
+  if (p_W < 0 || rth_KperW < 0)
+    throw new EngineMisuseError(`thermal: p_W and rth_KperW must be ≥ 0 (got ${p_W}, ${rth_KperW})`);
   return ta_C + p_W * rth_KperW;
 }
 
@@ -25,8 +26,21 @@ export function junctionTemp_C(ta_C: number, p_W: number, rth_KperW: number): nu
  * R_θSA ≤ (T_J,limit − T_A)/P − R_θJC − R_θCS. A result ≤ 0 means no heatsink can do it.
  * With P = 0 any sink (or none) will do: returns a large finite bound (1e6 K/W), never Infinity.
  */
-export function heatsinkMax_KperW(tjLimit_C: number, ta_C: number, p_W: number, rthJc_KperW: number, rthCs_KperW: number): number {
-  for (const [v, n] of [[tjLimit_C, "tjLimit_C"], [ta_C, "ta_C"], [p_W, "p_W"], [rthJc_KperW, "rthJc_KperW"], [rthCs_KperW, "rthCs_KperW"]] as const) finite(v, n);
+export function heatsinkMax_KperW(
+  tjLimit_C: number,
+  ta_C: number,
+  p_W: number,
+  rthJc_KperW: number,
+  rthCs_KperW: number,
+): number {
+  for (const [v, n] of [
+    [tjLimit_C, "tjLimit_C"],
+    [ta_C, "ta_C"],
+    [p_W, "p_W"],
+    [rthJc_KperW, "rthJc_KperW"],
+    [rthCs_KperW, "rthCs_KperW"],
+  ] as const)
+    finite(v, n);
   if (p_W < 0) throw new EngineMisuseError(`thermal: p_W must be ≥ 0, got ${p_W}`);
   if (p_W === 0) return NO_LIMIT_KperW;
   return Math.min(NO_LIMIT_KperW, (tjLimit_C - ta_C) / p_W - rthJc_KperW - rthCs_KperW);
@@ -63,7 +77,8 @@ export function powerRatingAt_W(ptot_W: number, ptot_at: "ambient" | "case", tjM
   finite(tjMax_C, "tjMax_C");
   finite(t_C, "t_C");
   void ptot_at; // the same line applies to either reference point; the caller picks t_C to match
-  if (tjMax_C <= NOMINAL_TEMP_C) throw new EngineMisuseError(`thermal: tjMax_C must be above ${NOMINAL_TEMP_C} °C, got ${tjMax_C}`);
+  if (tjMax_C <= NOMINAL_TEMP_C)
+    throw new EngineMisuseError(`thermal: tjMax_C must be above ${NOMINAL_TEMP_C} °C, got ${tjMax_C}`);
   if (t_C <= NOMINAL_TEMP_C) return ptot_W;
   if (t_C >= tjMax_C) return 0;
   return (ptot_W * (tjMax_C - t_C)) / (tjMax_C - NOMINAL_TEMP_C);

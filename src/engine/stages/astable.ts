@@ -147,5 +147,16 @@ export function evaluateCore(p: CoreParams): CoreTiming {
     if (done) break;
   }
   const period_s = tAoff + tBoff;
-  return { tAoff_s: tAoff, tBoff_s: tBoff, period_s, aHigh: tAoff / period_s, vHighA_V: a.v_V, vHighB_V: b.v_V, swingA_V: swingA, swingB_V: swingB, tauA_s, tauB_s };
+  return {
+    tAoff_s: tAoff,
+    tBoff_s: tBoff,
+    period_s,
+    aHigh: tAoff / period_s,
+    vHighA_V: a.v_V,
+    vHighB_V: b.v_V,
+    swingA_V: swingA,
+    swingB_V: swingB,
+    tauA_s,
+    tauB_s,
+  };
 }

@@ -46,8 +46,12 @@ export function makeContext(spec: VariantSpec): Ctx {
   const load = loadModel(spec.load_kind, vNom_V, spec.load_A, coil);
   const iMax_A = runningCurrentMax_A(spec.load_kind, load, spec.load_A, vNom_V, vMax_V);
   return {
-    spec, vNom_V, vMin_V, vMax_V,
-    taMin_C: t.ambient_C[0], taMax_C: t.ambient_C[1],
+    spec,
+    vNom_V,
+    vMin_V,
+    vMax_V,
+    taMin_C: t.ambient_C[0],
+    taMax_C: t.ambient_C[1],
     f_Hz: t.pwm_Hz,
     load,
     iNom_A: spec.load_A,
@@ -64,7 +68,13 @@ export function makeContext(spec: VariantSpec): Ctx {
  * current rises at most in proportion to the supply (common practice); resistive, lamp and LED
  * loads follow their own V–I line.
  */
-export function runningCurrentMax_A(kind: VariantSpec["load_kind"], load: LoadModel, load_A: number, vNom_V: number, vMax_V: number): number {
+export function runningCurrentMax_A(
+  kind: VariantSpec["load_kind"],
+  load: LoadModel,
+  load_A: number,
+  vNom_V: number,
+  vMax_V: number,
+): number {
   return kind === "motor" ? load_A * (vMax_V / vNom_V) : Math.max(load_A, (vMax_V - load.vf_V) / load.r_ohm);
 }
 
@@ -79,7 +89,8 @@ export function loadCurrentOn_A(ctx: Ctx, supply_V: number, vSwitch_V: number): 
  */
 export function loadCurrentAt_A(ctx: Ctx, supply_V: number): number {
   if (supply_V >= ctx.vMax_V) return ctx.iMax_A;
-  const i = ctx.spec.load_kind === "motor" ? (ctx.iNom_A * supply_V) / ctx.vNom_V : (supply_V - ctx.load.vf_V) / ctx.load.r_ohm;
+  const i =
+    ctx.spec.load_kind === "motor" ? (ctx.iNom_A * supply_V) / ctx.vNom_V : (supply_V - ctx.load.vf_V) / ctx.load.r_ohm;
   return Math.min(ctx.iMax_A, Math.max(i, 1e-6));
 }
 

@@ -48,7 +48,6 @@ export const NOMINAL_K = { kEndA: 1, kEndB: 1, kPot: 1, kCA: 1, kCB: 1, kRCA: 1,
 /** Diode forward drop: the class's law (src/engine/shared/diode.ts), the one its netlist card carries. */
 export const diodeVf_V = diodeClassVf_V;
 
-
 /**
  * Cut-in voltage of a silicon B–E junction, V at the nominal temperature: below it the transistor conducts too little
  * to matter, and the astable's off transistor returns when its base node reaches it, not V_BE(on)
@@ -92,11 +91,26 @@ export function evalCore(v: CoreValues, q: BjtClass, db: DiodeClass, k: Corner, 
   const vOn_V = vbeOn(q, k.t_C) + (v.diodes ? diodeVf_V(db, iB, k.t_C) : 0);
   const tapA = !v.inverting;
   const loads: { loadA?: CollectorLoad; loadB?: CollectorLoad } = {};
-  if (tapA) { loads.loadA = v.tapLoad; if (v.balance) loads.loadB = v.balance; }
-  else { loads.loadB = v.tapLoad; if (v.balance) loads.loadA = v.balance; }
+  if (tapA) {
+    loads.loadA = v.tapLoad;
+    if (v.balance) loads.loadB = v.balance;
+  } else {
+    loads.loadB = v.tapLoad;
+    if (v.balance) loads.loadA = v.balance;
+  }
   const vCutIn_V = Math.min(vOn_V, cutIn_V(v.diodes, db, k.t_C));
   const timing = evaluateCore({
-    vcc_V: k.vcc_V, vOn_V, vCutIn_V, vSat_V, rCA_ohm: rCA, rCB_ohm: rCB, cA_F: v.c_F * k.kCA, cB_F: v.c_F * k.kCB, rBA_ohm: rBA, rBB_ohm: rBB, ...loads,
+    vcc_V: k.vcc_V,
+    vOn_V,
+    vCutIn_V,
+    vSat_V,
+    rCA_ohm: rCA,
+    rCB_ohm: rCB,
+    cA_F: v.c_F * k.kCA,
+    cB_F: v.c_F * k.kCB,
+    rBA_ohm: rBA,
+    rBB_ohm: rBB,
+    ...loads,
   });
   // The tapped collector's rise before the chain conducts: R_C towards Vcc, in parallel with any
   // linear input network; it charges its own coupling capacitor.
@@ -107,20 +121,36 @@ export function evalCore(v: CoreValues, q: BjtClass, db: DiodeClass, k: Corner, 
   const rTh = pre === undefined ? rCX : (rCX * pre) / (rCX + pre);
   const dtTh_s = thresholdDelay_s(rTh * cX, vInf, vSat_V, v.vThTap_V);
   const dt = dtTh_s ?? timing.period_s;
-  const tOn = v.inverting ? timing.tAoff_s + dt + v.delayOff_s - v.delayOn_s : timing.tAoff_s - dt - v.delayOn_s + v.delayOff_s;
+  const tOn = v.inverting
+    ? timing.tAoff_s + dt + v.delayOff_s - v.delayOn_s
+    : timing.tAoff_s - dt - v.delayOn_s + v.delayOff_s;
   const duty = Math.min(1, Math.max(0, tOn / timing.period_s));
   return { timing, f_Hz: 1 / timing.period_s, duty, dtTh_s, vOn_V, vCutIn_V, vSat_V };
 }
 
 /** All 2^9 corners of supply, temperature and the seven component tolerances (the brute-force reference for worst-corners.ts). */
-export function corners(vMin: number, vMax: number, tMin: number, tMax: number, rTol: number, potTol: number, cTol: number): Corner[] {
+export function corners(
+  vMin: number,
+  vMax: number,
+  tMin: number,
+  tMax: number,
+  rTol: number,
+  potTol: number,
+  cTol: number,
+): Corner[] {
   const out: Corner[] = [];
   for (let m = 0; m < 512; m++) {
     const b = (i: number): boolean => ((m >> i) & 1) === 1;
     out.push({
-      vcc_V: b(0) ? vMax : vMin, t_C: b(1) ? tMax : tMin,
-      kEndA: b(2) ? 1 + rTol : 1 - rTol, kEndB: b(3) ? 1 + rTol : 1 - rTol, kPot: b(4) ? 1 + potTol : 1 - potTol,
-      kCA: b(5) ? 1 + cTol : 1 - cTol, kCB: b(6) ? 1 + cTol : 1 - cTol, kRCA: b(7) ? 1 + rTol : 1 - rTol, kRCB: b(8) ? 1 + rTol : 1 - rTol,
+      vcc_V: b(0) ? vMax : vMin,
+      t_C: b(1) ? tMax : tMin,
+      kEndA: b(2) ? 1 + rTol : 1 - rTol,
+      kEndB: b(3) ? 1 + rTol : 1 - rTol,
+      kPot: b(4) ? 1 + potTol : 1 - potTol,
+      kCA: b(5) ? 1 + cTol : 1 - cTol,
+      kCB: b(6) ? 1 + cTol : 1 - cTol,
+      kRCA: b(7) ? 1 + rTol : 1 - rTol,
+      kRCB: b(8) ? 1 + rTol : 1 - rTol,
     });
   }
   return out;

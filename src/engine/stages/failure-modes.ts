@@ -37,7 +37,13 @@ export interface FailureReview {
   hot: boolean;
 }
 
-const LOAD_WORD: Record<string, string> = { resistive: "heater", lamp: "lamp", led: "LED strip", motor: "motor", solenoid: "valve coil" };
+const LOAD_WORD: Record<string, string> = {
+  resistive: "heater",
+  lamp: "lamp",
+  led: "LED strip",
+  motor: "motor",
+  solenoid: "valve coil",
+};
 
 function wiperFault(ctx: Ctx): string {
   const load = LOAD_WORD[ctx.spec.load_kind] ?? "load";
@@ -65,14 +71,22 @@ function inputFault(ctx: Ctx): string {
 
 function shortFault(ctx: Ctx): string {
   const load = LOAD_WORD[ctx.spec.load_kind] ?? "load";
-  const extra = ctx.spec.load_kind === "resistive" ? " The heater's independent over-temperature cut-out is what limits it then."
-    : ctx.load.inductive ? " An open freewheel diode is the usual cause: the kick-back breaks the switch down." : "";
+  const extra =
+    ctx.spec.load_kind === "resistive"
+      ? " The heater's independent over-temperature cut-out is what limits it then."
+      : ctx.load.inductive
+        ? " An open freewheel diode is the usual cause: the kick-back breaks the switch down."
+        : "";
   return `Shorted power switch (how an overstressed transistor usually fails): the ${load} runs fully on whatever the control says, and the fuse, sized for the ${load}'s own current, does not open; switch the supply off to stop it.${extra}`;
 }
 
 /** `heatsunk`: roles the thermal stage puts on a heatsink (a condition of the verdict). */
 export function reviewFailures(
-  ctx: Ctx, parts: Part[], losses: DeviceLoss[], perRole: Map<string, { p_W: number; tj_C: number }>, heatsunk: ReadonlySet<string> = new Set(),
+  ctx: Ctx,
+  parts: Part[],
+  losses: DeviceLoss[],
+  perRole: Map<string, { p_W: number; tj_C: number }>,
+  heatsunk: ReadonlySet<string> = new Set(),
 ): FailureReview {
   const cautions = [wiperFault(ctx), inputFault(ctx), shortFault(ctx)];
   const partNotes = new Map<string, string>();
@@ -84,10 +98,19 @@ export function reviewFailures(
   const pkg = power?.package ?? "";
   if (power !== undefined && TAB_PACKAGES.has(pkg)) {
     const node = power.kind === "nmos" ? "drain" : "collector";
-    partNotes.set(power.role, `${pkg} tab is the ${node} (switched node, live): mount with an insulator kit (pad and insulating bush)`);
-    cautions.push(`Live tab: the ${pkg} tab of ${power.ref || power.role} is its ${node}, the switched node at up to ${ctx.vMax_V.toFixed(1)} V. Mount it on a grounded heatsink or chassis only with an insulator kit (thermal pad and insulating bush), and keep the tab from touching other metal.`);
+    partNotes.set(
+      power.role,
+      `${pkg} tab is the ${node} (switched node, live): mount with an insulator kit (pad and insulating bush)`,
+    );
+    cautions.push(
+      `Live tab: the ${pkg} tab of ${power.ref || power.role} is its ${node}, the switched node at up to ${ctx.vMax_V.toFixed(1)} V. Mount it on a grounded heatsink or chassis only with an insulator kit (thermal pad and insulating bush), and keep the tab from touching other metal.`,
+    );
     if (heatsunk.has(power.role)) {
-      conditions.push({ rule: "insulator-kit", path: `/parts/${power.role}`, text: `${power.role}'s live ${pkg} tab insulated from the heatsink by an insulator kit (its pad adds thermal resistance: allow for it in the heatsink), or the heatsink isolated from every other metal` });
+      conditions.push({
+        rule: "insulator-kit",
+        path: `/parts/${power.role}`,
+        text: `${power.role}'s live ${pkg} tab insulated from the heatsink by an insulator kit (its pad adds thermal resistance: allow for it in the heatsink), or the heatsink isolated from every other metal`,
+      });
     }
   }
   for (const l of losses) {
@@ -97,11 +120,24 @@ export function reviewFailures(
     // case is taken at the junction temperature, the cautious choice; JESD51 definitions).
     const rJc = (l.dev as BjtClass | MosfetClass).rth_jc_KperW ?? 0;
     const tCase = Math.min(th.tj_C, th.tj_C - th.p_W * rJc);
-    if (l.isPower) figures.push(figure("case_temperature", "Power device case temperature, free-standing (max ambient)", tCase, "°C", "thermal", "T_C = T_J − P·R_θJC (T_J free-standing)", "jesd51-12"));
+    if (l.isPower)
+      figures.push(
+        figure(
+          "case_temperature",
+          "Power device case temperature, free-standing (max ambient)",
+          tCase,
+          "°C",
+          "thermal",
+          "T_C = T_J − P·R_θJC (T_J free-standing)",
+          "jesd51-12",
+        ),
+      );
     if (tCase > HOT_SURFACE_C) {
       hot = true;
       const ref = parts.find((p) => p.role === l.role)?.ref || l.role;
-      cautions.push(`Hot surface: ${ref}'s case reaches about ${tCase.toFixed(0)} °C at ${ctx.taMax_C} °C ambient without a heatsink (above ${HOT_SURFACE_C} °C: burns on touch). Keep it out of reach, away from plastics and plant material${l.isPower ? ", or fit a heatsink to run it cooler" : ""}.`);
+      cautions.push(
+        `Hot surface: ${ref}'s case reaches about ${tCase.toFixed(0)} °C at ${ctx.taMax_C} °C ambient without a heatsink (above ${HOT_SURFACE_C} °C: burns on touch). Keep it out of reach, away from plastics and plant material${l.isPower ? ", or fit a heatsink to run it cooler" : ""}.`,
+      );
     }
   }
   return { cautions, partNotes, figures, conditions, hot };

@@ -13,22 +13,39 @@ import type { Ctx } from "./context.ts";
 import { checkMessage } from "./verdict.ts";
 
 export const CHAIN_TITLE: Record<string, string> = {
-  "bjt-single": "Single BJT", "darlington-2": "2-stage Darlington", "darlington-3": "3-stage Darlington",
-  "bjt-driver-pnp": "NPN driver + power PNP", "mosfet-logic": "Logic-level MOSFET", "mosfet-driver": "Driven standard MOSFET",
+  "bjt-single": "Single BJT",
+  "darlington-2": "2-stage Darlington",
+  "darlington-3": "3-stage Darlington",
+  "bjt-driver-pnp": "NPN driver + power PNP",
+  "mosfet-logic": "Logic-level MOSFET",
+  "mosfet-driver": "Driven standard MOSFET",
 };
 /** Stage rules that already state a check's failure in their own words (rule → quantity). */
-const RULE_QUANTITY: Record<string, string> = { "tj-over-limit": "tj", "heatsink-too-small": "tj", "reverse-surge": "i2t" };
+const RULE_QUANTITY: Record<string, string> = {
+  "tj-over-limit": "tj",
+  "heatsink-too-small": "tj",
+  "reverse-surge": "i2t",
+};
 
 export function checkProblems(checks: StressCheck[], existing: DesignProblem[]): DesignProblem[] {
   const out: DesignProblem[] = [];
   for (const c of checks) {
     if (c.verdict !== "fail") continue;
     // Checks reach here numbered (sizeVariant): a designator, or the role of a part not in the circuit.
-    if (!isRefDesignator(c.ref) && !isPartRole(c.ref)) throw new EngineMisuseError(`checkProblems: check ref "${c.ref}" names no part`);
+    if (!isRefDesignator(c.ref) && !isPartRole(c.ref))
+      throw new EngineMisuseError(`checkProblems: check ref "${c.ref}" names no part`);
     const path = `/parts/${c.ref}` as const;
-    const said = existing.some((p) => p.path === path && p.severity === "error" && RULE_QUANTITY[p.rule] === c.quantity);
+    const said = existing.some(
+      (p) => p.path === path && p.severity === "error" && RULE_QUANTITY[p.rule] === c.quantity,
+    );
     if (said) continue;
-    out.push(problem("derating", path, `derating-${c.quantity}`, "error", checkMessage(c), { limit: c.rating * c.allowed, actual: c.stress, unit: c.unit }));
+    out.push(
+      problem("derating", path, `derating-${c.quantity}`, "error", checkMessage(c), {
+        limit: c.rating * c.allowed,
+        actual: c.stress,
+        unit: c.unit,
+      }),
+    );
   }
   return out;
 }
@@ -43,13 +60,22 @@ export function cautions(ctx: Ctx, hot: boolean): string[] {
     "Low-voltage DC only. Build and install to local codes and licensed practice; this is a reviewed design, not a certified product.",
     "Battery-backed supply: a short can deliver hundreds of amperes. Fit the fuse at the battery and use wire rated for the fuse.",
   ];
-  if (hot) out.push("Hot surfaces: the power device and its heatsink can exceed 60 °C — burn and fire risk; keep clear of plastics and plant material.");
+  if (hot)
+    out.push(
+      "Hot surfaces: the power device and its heatsink can exceed 60 °C — burn and fire risk; keep clear of plastics and plant material.",
+    );
   if (ctx.load.inductive) {
-    out.push(ctx.spec.load_kind === "motor"
-      ? "Inductive kick-back: never run the motor without the freewheel diode fitted; a stalled motor draws several times its running current."
-      : "Inductive kick-back: never run the valve coil without the freewheel diode fitted; without it the coil's switch-off spike breaks the switch down.");
+    out.push(
+      ctx.spec.load_kind === "motor"
+        ? "Inductive kick-back: never run the motor without the freewheel diode fitted; a stalled motor draws several times its running current."
+        : "Inductive kick-back: never run the valve coil without the freewheel diode fitted; without it the coil's switch-off spike breaks the switch down.",
+    );
   }
-  if (ctx.spec.load_kind === "lamp") out.push("Lamp inrush: a cold filament draws 10–15× its running current for a few milliseconds.");
-  if (ctx.spec.load_kind === "resistive") out.push("Heater: keep an independent over-temperature cut-out; a switch failing short leaves the heater fully on.");
+  if (ctx.spec.load_kind === "lamp")
+    out.push("Lamp inrush: a cold filament draws 10–15× its running current for a few milliseconds.");
+  if (ctx.spec.load_kind === "resistive")
+    out.push(
+      "Heater: keep an independent over-temperature cut-out; a switch failing short leaves the heater fully on.",
+    );
   return out;
 }

@@ -20,6 +20,13 @@ export const STARVED_FRACTION = 0.9;
  * Electronics, 3rd ed., ch. 7 dc-motor drive averages — from memory). Negative: the switch drop
  * starves the motor (it cannot draw its rated current at this duty).
  */
-export function motorEmf_V(v_V: number, vSw_V: number, duty: number, vfFreewheel_V: number, i_A: number, r_ohm: number): number {
+export function motorEmf_V(
+  v_V: number,
+  vSw_V: number,
+  duty: number,
+  vfFreewheel_V: number,
+  i_A: number,
+  r_ohm: number,
+): number {
   return duty * (v_V - vSw_V) - (1 - duty) * vfFreewheel_V - i_A * r_ohm;
 }

@@ -20,14 +20,25 @@ import { NOMINAL_TEMP_C } from "../shared/temperature.ts";
 import { STARVED_FRACTION, motorEmf_V } from "./load-point.ts";
 import { solenoidScheme } from "./solenoid.ts";
 
-const KIND: Record<string, PartKind> = { motor: "motor", lamp: "lamp", resistive: "heater", led: "led-strip", solenoid: "solenoid" };
+const KIND: Record<string, PartKind> = {
+  motor: "motor",
+  lamp: "lamp",
+  resistive: "heater",
+  led: "led-strip",
+  solenoid: "solenoid",
+};
 const pct = (x: number): string => `${(x * 100).toFixed(0)} %`;
 
 /**
  * `dutyOn` is the nominal duty at control 1 (the point the simulation measures on-state values at);
  * `reach` the duty range the control surely reaches over the worst case (solenoid hold).
  */
-export function loadStage(ctx: Ctx, vSwNom_V: number, dutyOn: number, reach: { lo: number; hi: number } = { lo: dutyOn, hi: dutyOn }): { part: Part; figures: Figure[]; problems: DesignProblem[]; iOn_A: number } {
+export function loadStage(
+  ctx: Ctx,
+  vSwNom_V: number,
+  dutyOn: number,
+  reach: { lo: number; hi: number } = { lo: dutyOn, hi: dutyOn },
+): { part: Part; figures: Figure[]; problems: DesignProblem[]; iOn_A: number } {
   const kind = ctx.spec.load_kind;
   const vLoad_V = ctx.vNom_V - vSwNom_V;
   let spice: PartSpice = { r_ohm: ctx.load.r_ohm, l_H: ctx.load.l_H, vf_V: ctx.load.vf_V };
@@ -52,7 +63,10 @@ export function loadStage(ctx: Ctx, vSwNom_V: number, dutyOn: number, reach: { l
     spice = { ...spice, vf_V: Math.max(0, emf) };
     formula = "I = I_rated (constant torque); E = D·(V_cc − V_sw) − (1 − D)·V_F,fw − I·R at control 1";
     share = emf > 0 ? vLoad_V / ctx.vNom_V : 0;
-    what = emf > 0 ? `gets ${vLoad_V.toPrecision(3)} V of the ${ctx.vNom_V} V supply when on` : `cannot draw its rated ${ctx.iNom_A} A even at the highest duty (back-EMF would be ${emf.toPrecision(3)} V)`;
+    what =
+      emf > 0
+        ? `gets ${vLoad_V.toPrecision(3)} V of the ${ctx.vNom_V} V supply when on`
+        : `cannot draw its rated ${ctx.iNom_A} A even at the highest duty (back-EMF would be ${emf.toPrecision(3)} V)`;
     emfNote = ` E = ${Math.max(0, emf).toPrecision(3)} V at D = ${pct(dutyOn)}.`;
   }
   const problems: DesignProblem[] = [];
@@ -68,22 +82,55 @@ export function loadStage(ctx: Ctx, vSwNom_V: number, dutyOn: number, reach: { l
     problems.push(...sch.problems);
     emfNote = ` ${sch.note}`;
   }
-  if (share < STARVED_FRACTION) problems.push(problem("load", "/parts/LOAD", "load-starved", "error",
-    `The switch drops ${vSwNom_V.toFixed(2)} V when on, so the ${kind === "led" ? "LED strip" : kind === "resistive" ? "heater" : kind} ${what} (below ${pct(STARVED_FRACTION)}): choose a chain with a lower on-voltage (a MOSFET chain, or fewer Darlington stages).`,
-    { limit: STARVED_FRACTION, actual: share, unit: "" }));
+  if (share < STARVED_FRACTION)
+    problems.push(
+      problem(
+        "load",
+        "/parts/LOAD",
+        "load-starved",
+        "error",
+        `The switch drops ${vSwNom_V.toFixed(2)} V when on, so the ${kind === "led" ? "LED strip" : kind === "resistive" ? "heater" : kind} ${what} (below ${pct(STARVED_FRACTION)}): choose a chain with a lower on-voltage (a MOSFET chain, or fewer Darlington stages).`,
+        { limit: STARVED_FRACTION, actual: share, unit: "" },
+      ),
+    );
   const pins = ctx.highSide ? { a: "ls", b: "0" } : { a: "vbus", b: "ls" };
   const part: Part = {
-    ref: "", kind: KIND[kind]!, stage: "load", role: "LOAD", value: ctx.vNom_V * ctx.iNom_A, unit: "W",
+    ref: "",
+    kind: KIND[kind]!,
+    stage: "load",
+    role: "LOAD",
+    value: ctx.vNom_V * ctx.iNom_A,
+    unit: "W",
     description: `${kind} load, ${ctx.vNom_V} V ${ctx.iNom_A} A rated — ${ctx.load.note}${emfNote}`,
-    rating: { voltage_V: ctx.vNom_V, current_A: ctx.iNom_A }, stress: { voltage_V: ctx.vMax_V, current_A: ctx.iMax_A }, pins,
+    rating: { voltage_V: ctx.vNom_V, current_A: ctx.iNom_A },
+    stress: { voltage_V: ctx.vMax_V, current_A: ctx.iMax_A },
+    pins,
     spice,
   };
   return {
-    part, iOn_A, problems,
+    part,
+    iOn_A,
+    problems,
     figures: [
-      figure("switch_on_voltage", "Switch on-voltage (rated load, minimum gain)", vSwNom_V, "V", "chain", "V_CE(sat) at forced β 10 (PNP driver: datasheet line V_0 + I·R_C at the actual I_C); Darlington V_CE(sat),1 (datasheet line) + Σ V_BE of the followers at I_B = I_C/β (junction law + R_B from the V_BE(sat) points); MOSFET I·R_DS(on) at the gate drive reached", "derived"),
+      figure(
+        "switch_on_voltage",
+        "Switch on-voltage (rated load, minimum gain)",
+        vSwNom_V,
+        "V",
+        "chain",
+        "V_CE(sat) at forced β 10 (PNP driver: datasheet line V_0 + I·R_C at the actual I_C); Darlington V_CE(sat),1 (datasheet line) + Σ V_BE of the followers at I_B = I_C/β (junction law + R_B from the V_BE(sat) points); MOSFET I·R_DS(on) at the gate drive reached",
+        "derived",
+      ),
       figure("load_current_on", "Load current when on (nominal supply)", iOn_A, "A", "load", formula, "derived"),
-      figure("load_on_voltage", "Voltage across the load when on", vLoad_V, "V", "load", "V_load = V_cc − V_sw", "derived"),
+      figure(
+        "load_on_voltage",
+        "Voltage across the load when on",
+        vLoad_V,
+        "V",
+        "load",
+        "V_load = V_cc − V_sw",
+        "derived",
+      ),
       ...extra,
     ],
   };

@@ -21,10 +21,25 @@ import { roundUp } from "../shared/e-series.ts";
 import { figure, problem } from "../shared/figures.ts";
 import { flickerLimits, flickerRegion } from "../shared/flicker.ts";
 import {
-  FUSE_FAMILIES, FUSE_INRUSH_SHARE, FUSE_VOLTAGE_SHARE, chooseFuse, clearingI2tMax_A2s, diodeSurgeI2t_A2s,
-  fuseContinuousShare, prearcingI2tMin_A2s, type FuseChoice,
+  FUSE_FAMILIES,
+  FUSE_INRUSH_SHARE,
+  FUSE_VOLTAGE_SHARE,
+  chooseFuse,
+  clearingI2tMax_A2s,
+  diodeSurgeI2t_A2s,
+  fuseContinuousShare,
+  prearcingI2tMin_A2s,
+  type FuseChoice,
 } from "../shared/fuse.ts";
-import { LAMP_WARMUP_TAU_s, MOTOR_START_TAU_s, capChargeI2t_A2s, limitedEvent, softStartScale, soaPulsePower_W, startI2t_A2s } from "../shared/peaks.ts";
+import {
+  LAMP_WARMUP_TAU_s,
+  MOTOR_START_TAU_s,
+  capChargeI2t_A2s,
+  limitedEvent,
+  softStartScale,
+  soaPulsePower_W,
+  startI2t_A2s,
+} from "../shared/peaks.ts";
 import { cite, deviceSource } from "../shared/sources.ts";
 import { capacitor, diode } from "../../circuit/parts.ts";
 import type { Ctx } from "./context.ts";
@@ -61,7 +76,14 @@ export interface StartParams {
 
 export function startParams(ctx: Ctx): StartParams {
   const lim = ctx.spec.protection.inrush_limit;
-  return { kind: ctx.spec.load_kind, load: ctx.load, iMax_A: ctx.iMax_A, vNom_V: ctx.vNom_V, vMax_V: ctx.vMax_V, ...(lim ? { limit: lim } : {}) };
+  return {
+    kind: ctx.spec.load_kind,
+    load: ctx.load,
+    iMax_A: ctx.iMax_A,
+    vNom_V: ctx.vNom_V,
+    vMax_V: ctx.vMax_V,
+    ...(lim ? { limit: lim } : {}),
+  };
 }
 
 /** The load's start-up event at V_cc,max: peak, running current and decay time (0 when it has none). */
@@ -106,13 +128,28 @@ export function startUp(p: StartParams, cBulk_F: number): StartUp {
  * The supply fuse a variant gets (shared/fuse.ts rules), from its start-up parameters: the device
  * chooser calls this too, so the reverse-polarity diode it picks is coordinated with this fuse.
  */
-export function supplyFuse(p: StartParams, core_A: number, taMax_C: number): { fuse: FuseChoice | undefined; startUp: StartUp; continuous_A: number } {
+export function supplyFuse(
+  p: StartParams,
+  core_A: number,
+  taMax_C: number,
+): { fuse: FuseChoice | undefined; startUp: StartUp; continuous_A: number } {
   const su = startUp(p, bulkCapacitance_F(p.iMax_A));
   const continuous_A = p.iMax_A + core_A;
-  return { fuse: chooseFuse({ continuous_A, vMax_V: p.vMax_V, taMax_C, inrushI2t_A2s: su.i2t_A2s }), startUp: su, continuous_A };
+  return {
+    fuse: chooseFuse({ continuous_A, vMax_V: p.vMax_V, taMax_C, inrushI2t_A2s: su.i2t_A2s }),
+    startUp: su,
+    continuous_A,
+  };
 }
 
-export function protectionStage(ctx: Ctx, coreCurrent_A: number, fMin_Hz: number, fMax_Hz: number, dutyMinLo: number, power?: { role: PartRole; dev: BjtClass | MosfetClass }): ProtectionResult {
+export function protectionStage(
+  ctx: Ctx,
+  coreCurrent_A: number,
+  fMin_Hz: number,
+  fMax_Hz: number,
+  dutyMinLo: number,
+  power?: { role: PartRole; dev: BjtClass | MosfetClass },
+): ProtectionResult {
   const pol = ctx.spec.policy;
   const D = ctx.spec.devices;
   const parts: Part[] = [];
@@ -129,96 +166,367 @@ export function protectionStage(ctx: Ctx, coreCurrent_A: number, fMin_Hz: number
   // Declared inrush limit: its effect is counted above; the builder must fit it (a condition).
   if (lim?.kind === "current-limit") {
     if (!(lim.limit_A > ev.iRun_A)) {
-      problems.push(problem("protection", "/protection/inrush_limit/limit_A", "current-limit-too-low", "error",
-        `The declared current limit of ${lim.limit_A} A is not above the ${ev.iRun_A.toPrecision(3)} A the load draws running at ${ctx.vMax_V.toPrecision(3)} V: the load would never start. Raise the limit.`,
-        { limit: ev.iRun_A, actual: lim.limit_A, unit: "A" }));
+      problems.push(
+        problem(
+          "protection",
+          "/protection/inrush_limit/limit_A",
+          "current-limit-too-low",
+          "error",
+          `The declared current limit of ${lim.limit_A} A is not above the ${ev.iRun_A.toPrecision(3)} A the load draws running at ${ctx.vMax_V.toPrecision(3)} V: the load would never start. Raise the limit.`,
+          { limit: ev.iRun_A, actual: lim.limit_A, unit: "A" },
+        ),
+      );
     } else {
-      conditions.push({ rule: "inrush-limit", path: "/protection/inrush_limit", text: `a current limit of ≤ ${lim.limit_A} A in the load path (not drawn in this schematic)` });
+      conditions.push({
+        rule: "inrush-limit",
+        path: "/protection/inrush_limit",
+        text: `a current limit of ≤ ${lim.limit_A} A in the load path (not drawn in this schematic)`,
+      });
     }
   } else if (lim?.kind === "soft-start") {
-    conditions.push({ rule: "inrush-limit", path: "/protection/inrush_limit", text: `a soft start ramping the duty from 0 over ≥ ${lim.ramp_s} s (not drawn in this schematic)` });
+    conditions.push({
+      rule: "inrush-limit",
+      path: "/protection/inrush_limit",
+      text: `a soft start ramping the duty from 0 over ≥ ${lim.ramp_s} s (not drawn in this schematic)`,
+    });
   }
   if (ctx.spec.load_kind === "solenoid") {
-    figures.push(figure("startup_peak", `Start-up peak of the load (${ev.what}) at V_cc,max`, ev.iPeak_A, "A", "protection",
-      "I_pk = V_cc,max / R_coil (R–L step response: the current rises toward V/R, never beyond)", "hayt-kemmerly-ch8"));
+    figures.push(
+      figure(
+        "startup_peak",
+        `Start-up peak of the load (${ev.what}) at V_cc,max`,
+        ev.iPeak_A,
+        "A",
+        "protection",
+        "I_pk = V_cc,max / R_coil (R–L step response: the current rises toward V/R, never beyond)",
+        "hayt-kemmerly-ch8",
+      ),
+    );
   } else if (ev.tau_s > 0) {
-    figures.push(figure("startup_peak", `Start-up peak of the load (${ev.what}) at V_cc,max`, ev.iPeak_A, "A", "protection",
-      ctx.spec.load_kind === "lamp" ? "I_pk = 15 × I_run × V_cc,max/V_nom (cold filament ≈ R_hot/15)" : "I_pk = V_cc,max / R_winding (stall)",
-      ctx.spec.load_kind === "lamp" ? "fink-beaty-11e" : "motor-typical"));
+    figures.push(
+      figure(
+        "startup_peak",
+        `Start-up peak of the load (${ev.what}) at V_cc,max`,
+        ev.iPeak_A,
+        "A",
+        "protection",
+        ctx.spec.load_kind === "lamp"
+          ? "I_pk = 15 × I_run × V_cc,max/V_nom (cold filament ≈ R_hot/15)"
+          : "I_pk = V_cc,max / R_winding (stall)",
+        ctx.spec.load_kind === "lamp" ? "fink-beaty-11e" : "motor-typical",
+      ),
+    );
   }
-  figures.push(figure("startup_i2t", "Start-up I²t the fuse sees (load event + bulk capacitor)", su.i2t_A2s, "A²s", "protection",
-    "2·I_run·ΔI·τ + ΔI²·τ/2 (exponential decay) + C·V²/(2R_loop)", "derived"));
+  figures.push(
+    figure(
+      "startup_i2t",
+      "Start-up I²t the fuse sees (load event + bulk capacitor)",
+      su.i2t_A2s,
+      "A²s",
+      "protection",
+      "2·I_run·ΔI·τ + ΔI²·τ/2 (exponential decay) + C·V²/(2R_loop)",
+      "derived",
+    ),
+  );
 
   // Linear-mode pulse under a current limit, against the switch's single-pulse SOA.
   if (su.linear !== undefined && su.linear.t_s > 0 && power !== undefined) {
-    figures.push(figure("limit_pulse_energy", "Switch energy while the current limit holds the start-up", su.linear.e_J, "J", "protection",
-      "E = I_lim·(V_cc,max − I_lim·R_cold) × 2τ·ln(ΔI/(I_lim − I_run))", "derived"));
+    figures.push(
+      figure(
+        "limit_pulse_energy",
+        "Switch energy while the current limit holds the start-up",
+        su.linear.e_J,
+        "J",
+        "protection",
+        "E = I_lim·(V_cc,max − I_lim·R_cold) × 2τ·ln(ΔI/(I_lim − I_run))",
+        "derived",
+      ),
+    );
     const soa = power.dev.soa_pulse;
     if (soa === undefined) {
-      problems.push(problem("protection", `/parts/${power.role}`, "soa-unknown", "error",
-        `${power.role} holds ${su.linear.p_W.toPrecision(3)} W for ${(su.linear.t_s * 1e3).toPrecision(3)} ms under the current limit, and its device class gives no single-pulse safe operating area: add soa_pulse to the class, or use one that has it.`));
+      problems.push(
+        problem(
+          "protection",
+          `/parts/${power.role}`,
+          "soa-unknown",
+          "error",
+          `${power.role} holds ${su.linear.p_W.toPrecision(3)} W for ${(su.linear.t_s * 1e3).toPrecision(3)} ms under the current limit, and its device class gives no single-pulse safe operating area: add soa_pulse to the class, or use one that has it.`,
+        ),
+      );
     } else {
       const pSoa = soaPulsePower_W(soa, su.linear.t_s);
       const src = deviceSource(power.dev, "soa_pulse");
-      checks.push({ ...checkStress(power.role, "soa", su.linear.p_W, pSoa, "W", { factor: 1, ...src, note: `single-pulse SOA of the class at ${(su.linear.t_s * 1e3).toPrecision(3)} ms, T_C 25 °C` }, pol.marginal_above), what: "linear-mode pulse power vs the single-pulse SOA" });
+      checks.push({
+        ...checkStress(
+          power.role,
+          "soa",
+          su.linear.p_W,
+          pSoa,
+          "W",
+          {
+            factor: 1,
+            ...src,
+            note: `single-pulse SOA of the class at ${(su.linear.t_s * 1e3).toPrecision(3)} ms, T_C 25 °C`,
+          },
+          pol.marginal_above,
+        ),
+        what: "linear-mode pulse power vs the single-pulse SOA",
+      });
     }
   }
 
   // Fuse: the smallest rating that carries the worst-case current and rides through the start-up.
   const last = FUSE_FAMILIES[FUSE_FAMILIES.length - 1]!;
   const rLast = last.ratings_A[last.ratings_A.length - 1]!;
-  const fuse: FuseChoice = chosen ?? { family: last, rating_A: rLast, prearcingMin_A2s: prearcingI2tMin_A2s(last, rLast), clearingMax_A2s: clearingI2tMax_A2s(last, rLast) };
+  const fuse: FuseChoice = chosen ?? {
+    family: last,
+    rating_A: rLast,
+    prearcingMin_A2s: prearcingI2tMin_A2s(last, rLast),
+    clearingMax_A2s: clearingI2tMax_A2s(last, rLast),
+  };
   if (chosen === undefined) {
-    problems.push(problem("supply", "/parts/F_SUPPLY", "no-fuse", "error",
-      `No fuse of the families known to the engine carries ${iCont.toPrecision(3)} A continuously and rides through a ${su.i2t_A2s.toPrecision(3)} A²s start-up at ${ctx.vMax_V.toPrecision(3)} V: declare a soft start or current limit, or split the load.`));
+    problems.push(
+      problem(
+        "supply",
+        "/parts/F_SUPPLY",
+        "no-fuse",
+        "error",
+        `No fuse of the families known to the engine carries ${iCont.toPrecision(3)} A continuously and rides through a ${su.i2t_A2s.toPrecision(3)} A²s start-up at ${ctx.vMax_V.toPrecision(3)} V: declare a soft start or current limit, or split the load.`,
+      ),
+    );
   }
   const fam = fuse.family;
-  parts.push({ ref: "", kind: "fuse", stage: "supply", role: "F_SUPPLY", value: fuse.rating_A, unit: "A",
+  parts.push({
+    ref: "",
+    kind: "fuse",
+    stage: "supply",
+    role: "F_SUPPLY",
+    value: fuse.rating_A,
+    unit: "A",
     description: `Fuse ${fuse.rating_A} A ${fam.title}, ${fam.voltage_V} V, fitted next to the battery — carries ${iCont.toPrecision(3)} A worst case; start-up ${su.i2t_A2s.toPrecision(2)} A²s`,
-    rating: { current_A: fuse.rating_A, voltage_V: fam.voltage_V }, stress: { current_A: iCont, voltage_V: ctx.vMax_V }, pins: { a: "vcc", b: "vbus" } });
+    rating: { current_A: fuse.rating_A, voltage_V: fam.voltage_V },
+    stress: { current_A: iCont, voltage_V: ctx.vMax_V },
+    pins: { a: "vcc", b: "vbus" },
+  });
   const share = fuseContinuousShare(ctx.taMax_C);
-  checks.push({ ...checkStress("F_SUPPLY", "current", iCont, fuse.rating_A, "A", { factor: share, ...cite("common-practice"), note: "continuous ≤ 75 % of the rating at 25 °C, −0.4 %/K above (hot rerating from memory)" }, pol.marginal_above), what: "worst-case continuous current (V_cc,max)" });
-  checks.push({ ...checkStress("F_SUPPLY", "voltage", ctx.vMax_V, fam.voltage_V, "V", { factor: FUSE_VOLTAGE_SHARE, ...cite("common-practice"), note: "rated voltage above the highest supply, 80 % margin" }, pol.marginal_above), what: "highest supply vs the fuse's rated voltage" });
-  checks.push({ ...checkStress("F_SUPPLY", "i2t", su.i2t_A2s, fuse.prearcingMin_A2s, "A²s", { factor: FUSE_INRUSH_SHARE, ...cite(fam.source), note: `start-up I²t ≤ ½ the smallest pre-arcing I²t (${fam.note}; repeated starts, from memory)` }, pol.marginal_above), what: "start-up I²t vs the fuse's smallest pre-arcing I²t" });
-  figures.push(figure("fuse_rating", "Supply fuse rating", fuse.rating_A, "A", "supply",
-    "smallest rating with I_cont ≤ 75 % (hot-rerated), V_max ≤ 80 % of rated voltage, start-up I²t ≤ ½ pre-arcing I²t", fam.source));
-  figures.push(figure("fuse_continuous_current", "Worst-case continuous supply current", iCont, "A", "supply", "I = I_load(V_cc,max) + I_core", "derived"));
+  checks.push({
+    ...checkStress(
+      "F_SUPPLY",
+      "current",
+      iCont,
+      fuse.rating_A,
+      "A",
+      {
+        factor: share,
+        ...cite("common-practice"),
+        note: "continuous ≤ 75 % of the rating at 25 °C, −0.4 %/K above (hot rerating from memory)",
+      },
+      pol.marginal_above,
+    ),
+    what: "worst-case continuous current (V_cc,max)",
+  });
+  checks.push({
+    ...checkStress(
+      "F_SUPPLY",
+      "voltage",
+      ctx.vMax_V,
+      fam.voltage_V,
+      "V",
+      {
+        factor: FUSE_VOLTAGE_SHARE,
+        ...cite("common-practice"),
+        note: "rated voltage above the highest supply, 80 % margin",
+      },
+      pol.marginal_above,
+    ),
+    what: "highest supply vs the fuse's rated voltage",
+  });
+  checks.push({
+    ...checkStress(
+      "F_SUPPLY",
+      "i2t",
+      su.i2t_A2s,
+      fuse.prearcingMin_A2s,
+      "A²s",
+      {
+        factor: FUSE_INRUSH_SHARE,
+        ...cite(fam.source),
+        note: `start-up I²t ≤ ½ the smallest pre-arcing I²t (${fam.note}; repeated starts, from memory)`,
+      },
+      pol.marginal_above,
+    ),
+    what: "start-up I²t vs the fuse's smallest pre-arcing I²t",
+  });
+  figures.push(
+    figure(
+      "fuse_rating",
+      "Supply fuse rating",
+      fuse.rating_A,
+      "A",
+      "supply",
+      "smallest rating with I_cont ≤ 75 % (hot-rerated), V_max ≤ 80 % of rated voltage, start-up I²t ≤ ½ pre-arcing I²t",
+      fam.source,
+    ),
+  );
+  figures.push(
+    figure(
+      "fuse_continuous_current",
+      "Worst-case continuous supply current",
+      iCont,
+      "A",
+      "supply",
+      "I = I_load(V_cc,max) + I_core",
+      "derived",
+    ),
+  );
 
   // Shunt reverse-polarity diode: conducts the reversed battery's fault current until the fuse
   // opens, so its surge I²t must exceed the fuse's clearing I²t.
   const rev = D.reverse_diode as DiodeClass;
   const clearing = fuse.clearingMax_A2s;
-  parts.push(diode("supply", "D_REVERSE", rev, { anode: "0", cathode: "vbus" }, { voltage_V: ctx.vMax_V, current_A: fam.gate.multiple * fuse.rating_A }, "shunt reverse-polarity protection: conducts when reversed, the fuse opens"));
+  parts.push(
+    diode(
+      "supply",
+      "D_REVERSE",
+      rev,
+      { anode: "0", cathode: "vbus" },
+      { voltage_V: ctx.vMax_V, current_A: fam.gate.multiple * fuse.rating_A },
+      "shunt reverse-polarity protection: conducts when reversed, the fuse opens",
+    ),
+  );
   checks.push(checkStress("D_REVERSE", "voltage", ctx.vMax_V, rev.vrrm_V, "V", pol.diode.voltage, pol.marginal_above));
-  const surge = { ...checkStress("D_REVERSE", "i2t", clearing, diodeSurgeI2t_A2s(rev.ifsm_A), "A²s", { factor: 1, ...cite("common-practice"), note: `diode surge I²t = I_FSM²·8.3 ms/2 above the fuse's clearing I²t (${fam.note})` }, pol.marginal_above), what: "fuse clearing I²t vs the diode's surge I²t" };
+  const surge = {
+    ...checkStress(
+      "D_REVERSE",
+      "i2t",
+      clearing,
+      diodeSurgeI2t_A2s(rev.ifsm_A),
+      "A²s",
+      {
+        factor: 1,
+        ...cite("common-practice"),
+        note: `diode surge I²t = I_FSM²·8.3 ms/2 above the fuse's clearing I²t (${fam.note})`,
+      },
+      pol.marginal_above,
+    ),
+    what: "fuse clearing I²t vs the diode's surge I²t",
+  };
   checks.push(surge);
-  if (surge.verdict === "fail") problems.push(problem("supply", "/parts/D_REVERSE", "reverse-surge", "error",
-    `The reverse-polarity diode's surge rating (${rev.ifsm_A} A, ${diodeSurgeI2t_A2s(rev.ifsm_A).toPrecision(3)} A²s) is below the ${clearing.toPrecision(3)} A²s the ${fuse.rating_A} A fuse lets through before it clears: on a reversed battery the diode fails first. Bind a diode class with a higher I_FSM, or use series reverse protection (a series Schottky or P-MOSFET, not yet sized by this engine).`,
-    { limit: diodeSurgeI2t_A2s(rev.ifsm_A), actual: clearing, unit: "A²s" }));
+  if (surge.verdict === "fail")
+    problems.push(
+      problem(
+        "supply",
+        "/parts/D_REVERSE",
+        "reverse-surge",
+        "error",
+        `The reverse-polarity diode's surge rating (${rev.ifsm_A} A, ${diodeSurgeI2t_A2s(rev.ifsm_A).toPrecision(3)} A²s) is below the ${clearing.toPrecision(3)} A²s the ${fuse.rating_A} A fuse lets through before it clears: on a reversed battery the diode fails first. Bind a diode class with a higher I_FSM, or use series reverse protection (a series Schottky or P-MOSFET, not yet sized by this engine).`,
+        { limit: diodeSurgeI2t_A2s(rev.ifsm_A), actual: clearing, unit: "A²s" },
+      ),
+    );
   // A battery supplies the low-frequency current; the bulk capacitor covers the switching edges
   // against the wiring's inductance: ≈ 100 µF per ampere switched, at least 100 µF (rule of thumb, from memory).
   const cRated = capRating_V(ctx, ctx.vMax_V);
-  parts.push(capacitor("supply", "C_BULK", cBulk, "E6", 0.2, cRated, ctx.vMax_V, { plus: "vbus", minus: "0" }, true, "bulk capacitor close to the switch"));
+  parts.push(
+    capacitor("supply", "C_BULK", {
+      c_F: cBulk,
+      series: "E6",
+      tol: 0.2,
+      ratedV: cRated,
+      stressV: ctx.vMax_V,
+      pins: { plus: "vbus", minus: "0" },
+      polarised: true,
+      why: "bulk capacitor close to the switch",
+    }),
+  );
   checks.push(checkStress("C_BULK", "voltage", ctx.vMax_V, cRated, "V", pol.capacitor.voltage, pol.marginal_above));
-  figures.push(figure("bulk_capacitance", "Bulk capacitor", cBulk, "F", "supply", "C ≈ 100 µF/A × I_max, ≥ 100 µF, rounded up to E6", "common-practice"));
+  figures.push(
+    figure(
+      "bulk_capacitance",
+      "Bulk capacitor",
+      cBulk,
+      "F",
+      "supply",
+      "C ≈ 100 µF/A × I_max, ≥ 100 µF, rounded up to E6",
+      "common-practice",
+    ),
+  );
   if (ctx.load.inductive) {
     const fw = D.freewheel_diode as DiodeClass;
     const iAvg = ctx.iMax_A * (1 - dutyMinLo);
     const pins = ctx.highSide ? { anode: "0", cathode: "sw" } : { anode: "sw", cathode: "vbus" };
-    parts.push(diode("protection", "D_FREEWHEEL", fw, pins, { voltage_V: ctx.vMax_V, current_A: iAvg }, `freewheel: clamps the ${ctx.spec.load_kind === "solenoid" ? "coil" : "motor"}'s kick-back`));
+    parts.push(
+      diode(
+        "protection",
+        "D_FREEWHEEL",
+        fw,
+        pins,
+        { voltage_V: ctx.vMax_V, current_A: iAvg },
+        `freewheel: clamps the ${ctx.spec.load_kind === "solenoid" ? "coil" : "motor"}'s kick-back`,
+      ),
+    );
     checks.push(checkStress("D_FREEWHEEL", "current", iAvg, fw.if_avg_A, "A", pol.diode.current, pol.marginal_above));
-    checks.push(checkStress("D_FREEWHEEL", "voltage", ctx.vMax_V, fw.vrrm_V, "V", pol.diode.voltage, pol.marginal_above));
+    checks.push(
+      checkStress("D_FREEWHEEL", "voltage", ctx.vMax_V, fw.vrrm_V, "V", pol.diode.voltage, pol.marginal_above),
+    );
     const share = fw.trr_s * fMax_Hz;
-    figures.push(figure("freewheel_recovery_share", "Freewheel diode t_rr as a share of the period", share, "", "protection", "t_rr · f_max", "common-practice"));
-    if (share > 0.01) problems.push(problem("protection", "/parts/D_FREEWHEEL", "freewheel-recovery", share > 0.05 ? "error" : "warning",
-      `The ${fw.recovery}-recovery freewheel diode takes ${(fw.trr_s * 1e6).toPrecision(2)} µs to recover, ${(share * 100).toFixed(1)} % of the PWM period: use a fast or Schottky diode.`, { limit: 0.01, actual: share, unit: "" }));
+    figures.push(
+      figure(
+        "freewheel_recovery_share",
+        "Freewheel diode t_rr as a share of the period",
+        share,
+        "",
+        "protection",
+        "t_rr · f_max",
+        "common-practice",
+      ),
+    );
+    if (share > 0.01)
+      problems.push(
+        problem(
+          "protection",
+          "/parts/D_FREEWHEEL",
+          "freewheel-recovery",
+          share > 0.05 ? "error" : "warning",
+          `The ${fw.recovery}-recovery freewheel diode takes ${(fw.trr_s * 1e6).toPrecision(2)} µs to recover, ${(share * 100).toFixed(1)} % of the PWM period: use a fast or Schottky diode.`,
+          { limit: 0.01, actual: share, unit: "" },
+        ),
+      );
   }
   if (ctx.spec.load_kind === "led") {
     const region = flickerRegion(fMin_Hz, 100);
     const lim = flickerLimits(fMin_Hz);
-    figures.push(figure("flicker_low_risk_limit", "IEEE 1789 low-risk modulation limit at f_min (100 % = none)", lim.lowRisk_pct === null ? 1 : lim.lowRisk_pct / 100, "", "protection", "Mod% ≤ 0.08·f (90–1250 Hz), none above 1250 Hz", "ieee-1789"));
-    if (region === "exceeds") problems.push(problem("protection", "/targets/pwm_Hz", "flicker", "warning", `Full-depth PWM at ${fMin_Hz.toFixed(0)} Hz (worst case) is outside IEEE 1789's low-risk region (needs ≥ 1250 Hz); raise the PWM frequency for grow lights people work under.`, { limit: 1250, actual: fMin_Hz, unit: "Hz" }));
-    else problems.push(problem("protection", "/targets/pwm_Hz", "flicker", "note", `Full-depth PWM at ≥ ${fMin_Hz.toFixed(0)} Hz: IEEE 1789 ${region === "low-risk" ? "low-risk" : "no-observable-effect"} region.`));
+    figures.push(
+      figure(
+        "flicker_low_risk_limit",
+        "IEEE 1789 low-risk modulation limit at f_min (100 % = none)",
+        lim.lowRisk_pct === null ? 1 : lim.lowRisk_pct / 100,
+        "",
+        "protection",
+        "Mod% ≤ 0.08·f (90–1250 Hz), none above 1250 Hz",
+        "ieee-1789",
+      ),
+    );
+    if (region === "exceeds")
+      problems.push(
+        problem(
+          "protection",
+          "/targets/pwm_Hz",
+          "flicker",
+          "warning",
+          `Full-depth PWM at ${fMin_Hz.toFixed(0)} Hz (worst case) is outside IEEE 1789's low-risk region (needs ≥ 1250 Hz); raise the PWM frequency for grow lights people work under.`,
+          { limit: 1250, actual: fMin_Hz, unit: "Hz" },
+        ),
+      );
+    else
+      problems.push(
+        problem(
+          "protection",
+          "/targets/pwm_Hz",
+          "flicker",
+          "note",
+          `Full-depth PWM at ≥ ${fMin_Hz.toFixed(0)} Hz: IEEE 1789 ${region === "low-risk" ? "low-risk" : "no-observable-effect"} region.`,
+        ),
+      );
   }
   return { parts, figures, problems, checks, conditions };
 }

@@ -26,9 +26,16 @@ export interface SolenoidScheme {
 const pct = (x: number): string => `${(x * 100).toFixed(0)} %`;
 const A = (x: number): string => `${x.toPrecision(3)} A`;
 
-export function solenoidScheme(ctx: Ctx, vSw_V: number, dutyOn: number, reach: { lo: number; hi: number }, fw: DiodeClass | undefined): SolenoidScheme {
+export function solenoidScheme(
+  ctx: Ctx,
+  vSw_V: number,
+  dutyOn: number,
+  reach: { lo: number; hi: number },
+  fw: DiodeClass | undefined,
+): SolenoidScheme {
   const sol = ctx.spec.solenoid;
-  if (sol === undefined) throw new EngineMisuseError("solenoidScheme: the variant carries no solenoid data (record block `solenoid`)");
+  if (sol === undefined)
+    throw new EngineMisuseError("solenoidScheme: the variant carries no solenoid data (record block `solenoid`)");
   const r = ctx.load.r_ohm;
   const tau_s = ctx.load.l_H / r;
   const vf = fw === undefined ? 0 : Math.max(0, diodeClassVf_V(fw, ctx.iNom_A, NOMINAL_TEMP_C));
@@ -51,37 +58,142 @@ export function solenoidScheme(ctx: Ctx, vSw_V: number, dutyOn: number, reach: {
   const iTopMin = coilAverage_A(ctx.vMin_V, vSw_V, vf, reach.hi, r);
   const problems: DesignProblem[] = [];
   if (!Number.isFinite(tRise)) {
-    problems.push(problem("load", "/parts/LOAD", "solenoid-pull-in", "error",
-      `At the lowest supply (${ctx.vMin_V.toPrecision(3)} V) the coil draws at most ${A(iFullMin)} full on, below its ${A(iPull)} pull-in current: the valve would not open. Choose a chain with a lower on-voltage, or a coil rated for this supply.`,
-      { limit: iPull, actual: iFullMin, unit: "A" }));
+    problems.push(
+      problem(
+        "load",
+        "/parts/LOAD",
+        "solenoid-pull-in",
+        "error",
+        `At the lowest supply (${ctx.vMin_V.toPrecision(3)} V) the coil draws at most ${A(iFullMin)} full on, below its ${A(iPull)} pull-in current: the valve would not open. Choose a chain with a lower on-voltage, or a coil rated for this supply.`,
+        { limit: iPull, actual: iFullMin, unit: "A" },
+      ),
+    );
   } else if (iTopMin < iPull) {
-    problems.push(problem("load", "/parts/LOAD", "solenoid-pull-in-drive", "warning",
-      `Pull-in needs the coil full on for ${(tFull * 1e3).toPrecision(3)} ms at the lowest supply; the PWM at its top end (duty ${pct(reach.hi)}) gives only ${A(iTopMin)} of the ${A(iPull)} pull-in current there. This driver has no pull-in timer: at the lowest supplies the valve may not open from the PWM alone.`,
-      { limit: iPull, actual: iTopMin, unit: "A" }));
+    problems.push(
+      problem(
+        "load",
+        "/parts/LOAD",
+        "solenoid-pull-in-drive",
+        "warning",
+        `Pull-in needs the coil full on for ${(tFull * 1e3).toPrecision(3)} ms at the lowest supply; the PWM at its top end (duty ${pct(reach.hi)}) gives only ${A(iTopMin)} of the ${A(iPull)} pull-in current there. This driver has no pull-in timer: at the lowest supplies the valve may not open from the PWM alone.`,
+        { limit: iPull, actual: iTopMin, unit: "A" },
+      ),
+    );
   }
   if (dHold > reach.hi) {
-    problems.push(problem("load", "/targets/duty_max", "solenoid-hold", "error",
-      `Holding the armature needs a duty of ${pct(dHold)} at the lowest supply, above the ${pct(reach.hi)} the control surely reaches: raise duty_max or use a coil with a lower hold share.`,
-      { limit: reach.hi, actual: dHold, unit: "" }));
+    problems.push(
+      problem(
+        "load",
+        "/targets/duty_max",
+        "solenoid-hold",
+        "error",
+        `Holding the armature needs a duty of ${pct(dHold)} at the lowest supply, above the ${pct(reach.hi)} the control surely reaches: raise duty_max or use a coil with a lower hold share.`,
+        { limit: reach.hi, actual: dHold, unit: "" },
+      ),
+    );
   } else if (dHold < reach.lo) {
-    problems.push(problem("load", "/targets/duty_min", "solenoid-hold-floor", "note",
-      `The hold current needs only ${pct(dHold)} duty at the lowest supply; the control's lowest setting (${pct(reach.lo)}) holds with ${A(iHoldNom)} at the nominal supply instead of ${A(iHold)}.`));
+    problems.push(
+      problem(
+        "load",
+        "/targets/duty_min",
+        "solenoid-hold-floor",
+        "note",
+        `The hold current needs only ${pct(dHold)} duty at the lowest supply; the control's lowest setting (${pct(reach.lo)}) holds with ${A(iHoldNom)} at the nominal supply instead of ${A(iHold)}.`,
+      ),
+    );
   }
   const figures: Figure[] = [
     figure("coil_resistance", "Coil resistance", r, "Ω", "load", "R_coil = V_nom / I_rated", "common-practice"),
-    figure("coil_inductance", "Coil inductance (armature closed)", ctx.load.l_H, "H", "load", "L = R_coil · τ (τ from the record)", "demo"),
-    figure("pull_in_current", "Pull-in current", iPull, "A", "load", "I_pull = pull-in share · I_rated (record)", "demo"),
-    figure("pull_in_full_on_time", "Full-on time for pull-in (lowest supply)", Number.isFinite(tFull) ? tFull : 0, "s", "load",
-      "t = −τ·ln(1 − I_pull·R/(V_cc,min − V_sw)) + t_pull", "hayt-kemmerly-ch8"),
-    figure("pull_in_pwm_top_current", "Coil current at the control's top end, lowest supply", iTopMin, "A", "load",
-      "I = [D_max·(V_cc,min − V_sw) − (1 − D_max)·V_F]/R", "derived"),
-    figure("hold_current", "Hold current needed", iHold, "A", "load", "I_hold = hold share · I_pull (record; 30–50 % is common practice)", "common-practice"),
-    figure("hold_duty", "Hold duty (lowest supply)", dHold, "", "load", "D = (I_hold·R + V_F)/(V_cc,min − V_sw + V_F)", "derived"),
-    figure("hold_current_nominal", "Hold current at that duty, nominal supply", iHoldNom, "A", "load", "I = [D·(V_cc − V_sw) − (1 − D)·V_F]/R", "derived"),
-    figure("hold_current_max", "Hold current at that duty, highest supply", iHoldMax, "A", "load", "I = [D·(V_cc,max − V_sw) − (1 − D)·V_F]/R", "derived"),
-    figure("hold_ripple", "Hold current ripple, peak to peak (nominal)", ripple, "A", "load",
-      "ΔI = (V'/R)(1 − e^(−DT/τ))(1 − e^(−(1−D)T/τ))/(1 − e^(−T/τ))", "derived"),
-    figure("hold_power", "Coil power held vs full on (nominal)", (iHoldNom * iHoldNom * r) / (ctx.iNom_A * ctx.iNom_A * r), "", "load", "P_hold/P_full = (I_hold,nom/I_rated)²", "derived"),
+    figure(
+      "coil_inductance",
+      "Coil inductance (armature closed)",
+      ctx.load.l_H,
+      "H",
+      "load",
+      "L = R_coil · τ (τ from the record)",
+      "demo",
+    ),
+    figure(
+      "pull_in_current",
+      "Pull-in current",
+      iPull,
+      "A",
+      "load",
+      "I_pull = pull-in share · I_rated (record)",
+      "demo",
+    ),
+    figure(
+      "pull_in_full_on_time",
+      "Full-on time for pull-in (lowest supply)",
+      Number.isFinite(tFull) ? tFull : 0,
+      "s",
+      "load",
+      "t = −τ·ln(1 − I_pull·R/(V_cc,min − V_sw)) + t_pull",
+      "hayt-kemmerly-ch8",
+    ),
+    figure(
+      "pull_in_pwm_top_current",
+      "Coil current at the control's top end, lowest supply",
+      iTopMin,
+      "A",
+      "load",
+      "I = [D_max·(V_cc,min − V_sw) − (1 − D_max)·V_F]/R",
+      "derived",
+    ),
+    figure(
+      "hold_current",
+      "Hold current needed",
+      iHold,
+      "A",
+      "load",
+      "I_hold = hold share · I_pull (record; 30–50 % is common practice)",
+      "common-practice",
+    ),
+    figure(
+      "hold_duty",
+      "Hold duty (lowest supply)",
+      dHold,
+      "",
+      "load",
+      "D = (I_hold·R + V_F)/(V_cc,min − V_sw + V_F)",
+      "derived",
+    ),
+    figure(
+      "hold_current_nominal",
+      "Hold current at that duty, nominal supply",
+      iHoldNom,
+      "A",
+      "load",
+      "I = [D·(V_cc − V_sw) − (1 − D)·V_F]/R",
+      "derived",
+    ),
+    figure(
+      "hold_current_max",
+      "Hold current at that duty, highest supply",
+      iHoldMax,
+      "A",
+      "load",
+      "I = [D·(V_cc,max − V_sw) − (1 − D)·V_F]/R",
+      "derived",
+    ),
+    figure(
+      "hold_ripple",
+      "Hold current ripple, peak to peak (nominal)",
+      ripple,
+      "A",
+      "load",
+      "ΔI = (V'/R)(1 − e^(−DT/τ))(1 − e^(−(1−D)T/τ))/(1 − e^(−T/τ))",
+      "derived",
+    ),
+    figure(
+      "hold_power",
+      "Coil power held vs full on (nominal)",
+      (iHoldNom * iHoldNom * r) / (ctx.iNom_A * ctx.iNom_A * r),
+      "",
+      "load",
+      "P_hold/P_full = (I_hold,nom/I_rated)²",
+      "derived",
+    ),
   ];
   const pullText = Number.isFinite(tFull)
     ? `Pull-in ${A(iPull)} for ${(tFull * 1e3).toPrecision(3)} ms full on`

@@ -47,7 +47,12 @@ export const RT_MAX_OHM = 100_000;
 export const RG_SHARE_MIN = 0.1;
 
 const INPUT_NET: Record<string, string> = {
-  "bjt-single": "qb", "darlington-2": "d1b", "darlington-3": "d1b", "bjt-driver-pnp": "drb", "mosfet-driver": "drb", "mosfet-logic": "g",
+  "bjt-single": "qb",
+  "darlington-2": "d1b",
+  "darlington-3": "d1b",
+  "bjt-driver-pnp": "drb",
+  "mosfet-driver": "drb",
+  "mosfet-logic": "g",
 };
 
 export interface TapDesign {
@@ -78,7 +83,10 @@ export function vebReverse_V(ctx: Ctx, q: BjtClass, rC_ohm: number): number {
   return ctx.vMax_V - vceSat(q, Math.min(q.ic_max_A, ctx.vMax_V / rC_ohm)) - vbeOn(q, ctx.taMax_C);
 }
 export function baseDiodesUsed(ctx: Ctx, q: BjtClass, rC_ohm: number): boolean {
-  return ctx.spec.protection.be_breakdown === "series-base-diode" && vebReverse_V(ctx, q, rC_ohm) > q.vebo_V * ctx.spec.policy.bjt.voltage.factor;
+  return (
+    ctx.spec.protection.be_breakdown === "series-base-diode" &&
+    vebReverse_V(ctx, q, rC_ohm) > q.vebo_V * ctx.spec.policy.bjt.voltage.factor
+  );
 }
 
 /**
@@ -116,21 +124,43 @@ export function designTap(ctx: Ctx, plan: ChainPlan): TapDesign {
     const rC = capRc(ctx, Math.min(RC_MAX_OHM, Math.max(rcMin(ctx), nearest(Math.max(rCi, 1), "E24"))));
     const rTmax = span / (need.i_A * (1 + tol)) - rC;
     if (!(rTmax >= 1)) {
-      problems.push(problem("timing", "/parts/RT", "tap-drive-insufficient", "error",
-        `The timing core cannot feed the chain's ${(need.i_A * 1e3).toPrecision(3)} mA input current: with R_C ≥ ${rcMin(ctx)} Ω (timing transistor current limit) there is no room for a tap resistor at ${ctx.vMin_V.toFixed(1)} V. Use a chain with a driver stage.`,
-        { limit: span / (rC * (1 + tol)), actual: need.i_A, unit: "A" }));
+      problems.push(
+        problem(
+          "timing",
+          "/parts/RT",
+          "tap-drive-insufficient",
+          "error",
+          `The timing core cannot feed the chain's ${(need.i_A * 1e3).toPrecision(3)} mA input current: with R_C ≥ ${rcMin(ctx)} Ω (timing transistor current limit) there is no room for a tap resistor at ${ctx.vMin_V.toFixed(1)} V. Use a chain with a driver stage.`,
+          { limit: span / (rC * (1 + tol)), actual: need.i_A, unit: "A" },
+        ),
+      );
     }
     const rT = rTmax >= 1 ? Math.min(RT_MAX_OHM, roundDown(rTmax, "E24")) : 1;
     const iMin = span / ((rC + rT) * (1 + tol));
     const iMax = (ctx.vMax_V - need.vThreshold_V) / ((rC + rT) * (1 - tol));
-    const rt = resistor("chain", "RT", rT, { a: tapNet, b: inputNet }, iMax * iMax * rT * (1 + tol), pol, "tap: timing collector to the chain input");
+    const rt = resistor(
+      "chain",
+      "RT",
+      rT,
+      { a: tapNet, b: inputNet },
+      iMax * iMax * rT * (1 + tol),
+      pol,
+      "tap: timing collector to the chain input",
+    );
     const bleed = plan.inputBleed_ohm;
     const pre: { preLinear_ohm?: number } = bleed !== undefined ? { preLinear_ohm: rT + bleed } : {};
     return {
-      tapNet, inputNet, rC_ohm: rC, load: { r_ohm: rT, v_V: need.vClamp_V }, ...pre,
-      vThTap_V: bleed !== undefined ? (need.vThreshold_V * (rT + bleed)) / bleed : need.vThreshold_V + rT * (need.iEdge_A ?? 0),
+      tapNet,
+      inputNet,
+      rC_ohm: rC,
+      load: { r_ohm: rT, v_V: need.vClamp_V },
+      ...pre,
+      vThTap_V:
+        bleed !== undefined ? (need.vThreshold_V * (rT + bleed)) / bleed : need.vThreshold_V + rT * (need.iEdge_A ?? 0),
       info: { rC_ohm: rC, rTap_ohm: rT, iMin_A: iMin, iMax_A: iMax },
-      parts: [rt.part], problems: [...problems, ...rt.problems], checks: rt.checks,
+      parts: [rt.part],
+      problems: [...problems, ...rt.problems],
+      checks: rt.checks,
     };
   }
   // Gate-voltage input (mosfet-logic).
@@ -151,18 +181,60 @@ export function designTap(ctx: Ctx, plan: ChainPlan): TapDesign {
     }
   }
   if (best === null) {
-    problems.push(problem("timing", "/parts/RG", "gate-window", "error", `No gate divider keeps V_GS between ${need.vNeeded_V} V (at ${ctx.vMin_V.toFixed(1)} V) and the derated maximum ${need.vMax_V.toFixed(1)} V (at ${ctx.vMax_V.toFixed(1)} V).`));
-    best = { rG: 100, rGS: 10_000, lo: (ctx.vMin_V * 10_000) / (rC + 10_100), hi: (ctx.vMax_V * 10_000) / (rC + 10_100) };
+    problems.push(
+      problem(
+        "timing",
+        "/parts/RG",
+        "gate-window",
+        "error",
+        `No gate divider keeps V_GS between ${need.vNeeded_V} V (at ${ctx.vMin_V.toFixed(1)} V) and the derated maximum ${need.vMax_V.toFixed(1)} V (at ${ctx.vMax_V.toFixed(1)} V).`,
+      ),
+    );
+    best = {
+      rG: 100,
+      rGS: 10_000,
+      lo: (ctx.vMin_V * 10_000) / (rC + 10_100),
+      hi: (ctx.vMax_V * 10_000) / (rC + 10_100),
+    };
   }
   const rL = best.rG + best.rGS;
   const iMax = ctx.vMax_V / ((rC + rL) * (1 - tol));
-  const rg = resistor("chain", "RG", best.rG, { a: tapNet, b: "g" }, iMax * iMax * best.rG * (1 + tol) + dev.qg_C * best.hi * ctx.f_Hz * 1.2, pol, "gate feed from the timing collector");
-  const rgs = resistor("chain", "RGS", best.rGS, { a: "g", b: "0" }, (best.hi * best.hi) / (best.rGS * (1 - tol)), pol, "gate pull-down");
+  const rg = resistor(
+    "chain",
+    "RG",
+    best.rG,
+    { a: tapNet, b: "g" },
+    iMax * iMax * best.rG * (1 + tol) + dev.qg_C * best.hi * ctx.f_Hz * 1.2,
+    pol,
+    "gate feed from the timing collector",
+  );
+  const rgs = resistor(
+    "chain",
+    "RGS",
+    best.rGS,
+    { a: "g", b: "0" },
+    (best.hi * best.hi) / (best.rGS * (1 - tol)),
+    pol,
+    "gate pull-down",
+  );
   const vthMid = (need.vThreshold_V[0] + need.vThreshold_V[1]) / 2;
   return {
-    tapNet, inputNet, rC_ohm: rC, load: { r_ohm: rL, v_V: 0 }, preLinear_ohm: rL,
+    tapNet,
+    inputNet,
+    rC_ohm: rC,
+    load: { r_ohm: rL, v_V: 0 },
+    preLinear_ohm: rL,
     vThTap_V: (vthMid * rL) / best.rGS,
-    info: { rC_ohm: rC, rTap_ohm: best.rG, rGS_ohm: best.rGS, iMin_A: ctx.vMin_V / ((rC + rL) * (1 + tol)), iMax_A: iMax, vGate_V: [best.lo, best.hi] },
-    parts: [rg.part, rgs.part], problems: [...problems, ...rg.problems, ...rgs.problems], checks: [...rg.checks, ...rgs.checks],
+    info: {
+      rC_ohm: rC,
+      rTap_ohm: best.rG,
+      rGS_ohm: best.rGS,
+      iMin_A: ctx.vMin_V / ((rC + rL) * (1 + tol)),
+      iMax_A: iMax,
+      vGate_V: [best.lo, best.hi],
+    },
+    parts: [rg.part, rgs.part],
+    problems: [...problems, ...rg.problems, ...rgs.problems],
+    checks: [...rg.checks, ...rgs.checks],
   };
 }

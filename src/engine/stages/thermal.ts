@@ -46,13 +46,34 @@ export function thermalStage(ctx: Ctx, losses: DeviceLoss[]): ThermalResult {
     const limit = tjLimit_C(pol, l.family, l.dev.tj_max_C);
     perRole.set(l.role, { p_W: l.p_W, tj_C: tj });
     if (l.isPower) {
-      figures.push(figure("device_dissipation", "Power device dissipation (worst duty, max current)", l.p_W, "W", "thermal", "P = P_cond + P_sw at D_max, I_max, V_cc,max, f_max", "derived"));
-      figures.push(figure("tj_free_air", "Power device T_J without heatsink (max ambient)", tj, "°C", "thermal", "T_J = T_A,max + P·R_θJA", "jesd51-2a"));
+      figures.push(
+        figure(
+          "device_dissipation",
+          "Power device dissipation (worst duty, max current)",
+          l.p_W,
+          "W",
+          "thermal",
+          "P = P_cond + P_sw at D_max, I_max, V_cc,max, f_max",
+          "derived",
+        ),
+      );
+      figures.push(
+        figure(
+          "tj_free_air",
+          "Power device T_J without heatsink (max ambient)",
+          tj,
+          "°C",
+          "thermal",
+          "T_J = T_A,max + P·R_θJA",
+          "jesd51-2a",
+        ),
+      );
     }
     if (tj <= limit) {
       checks.push(checkTj(l.role, tj, l.dev.tj_max_C, pol, l.family));
       const pRate = powerRatingAt_W(l.dev.ptot_W, l.dev.ptot_at, l.dev.tj_max_C, ta);
-      if (l.dev.ptot_at === "ambient" && pRate > 0) checks.push(checkStress(l.role, "power", l.p_W, pRate, "W", pol[l.family].power, pol.marginal_above));
+      if (l.dev.ptot_at === "ambient" && pRate > 0)
+        checks.push(checkStress(l.role, "power", l.p_W, pRate, "W", pol[l.family].power, pol.marginal_above));
       continue;
     }
     const rJc = l.dev.rth_jc_KperW;
@@ -71,14 +92,49 @@ export function thermalStage(ctx: Ctx, losses: DeviceLoss[]): ThermalResult {
     let verdict: HeatsinkVerdict;
     if (!canSink) {
       verdict = { needed: true, text: `not feasible: ${l.dev.package} cannot take a heatsink` };
-      problems.push(problem("thermal", `/parts/${l.role}`, "tj-over-limit", "error", `${what}; its package takes no heatsink. Use a larger device class or a MOSFET chain.`, { limit, actual: tj, unit: "°C" }));
+      problems.push(
+        problem(
+          "thermal",
+          `/parts/${l.role}`,
+          "tj-over-limit",
+          "error",
+          `${what}; its package takes no heatsink. Use a larger device class or a MOSFET chain.`,
+          { limit, actual: tj, unit: "°C" },
+        ),
+      );
     } else if (!sinkOk) {
-      verdict = { needed: true, rth_sa_max_KperW: Math.max(rSa, 0), text: rSa > 0 ? `not feasible: needs ≤ ${rSa.toFixed(2)} K/W` : "not feasible: no heatsink is enough" };
-      problems.push(problem("thermal", `/parts/${l.role}`, "heatsink-too-small", "error", `${what}; needs a heatsink ≤ ${Math.max(rSa, 0).toFixed(2)} K/W, below the ${minOk} K/W this design accepts. Use a MOSFET chain.`, { limit: minOk, actual: Math.max(rSa, 0), unit: "K/W" }));
+      verdict = {
+        needed: true,
+        rth_sa_max_KperW: Math.max(rSa, 0),
+        text: rSa > 0 ? `not feasible: needs ≤ ${rSa.toFixed(2)} K/W` : "not feasible: no heatsink is enough",
+      };
+      problems.push(
+        problem(
+          "thermal",
+          `/parts/${l.role}`,
+          "heatsink-too-small",
+          "error",
+          `${what}; needs a heatsink ≤ ${Math.max(rSa, 0).toFixed(2)} K/W, below the ${minOk} K/W this design accepts. Use a MOSFET chain.`,
+          { limit: minOk, actual: Math.max(rSa, 0), unit: "K/W" },
+        ),
+      );
     } else {
       verdict = { needed: true, rth_sa_max_KperW: rSa, text: `heatsink ≤ ${rSaShown.toFixed(1)} K/W` };
-      problems.push(problem("thermal", `/parts/${l.role}`, "heatsink-needed", "warning", `${what}; mount it on a heatsink of ≤ ${rSaShown.toFixed(1)} K/W (with grease). Hot surface.`, { limit: rSa, unit: "K/W" }));
-      conditions.push({ rule: "heatsink", path: `/parts/${l.role}`, text: `${l.role} on a heatsink of ≤ ${rSaShown.toFixed(1)} K/W (with grease)` });
+      problems.push(
+        problem(
+          "thermal",
+          `/parts/${l.role}`,
+          "heatsink-needed",
+          "warning",
+          `${what}; mount it on a heatsink of ≤ ${rSaShown.toFixed(1)} K/W (with grease). Hot surface.`,
+          { limit: rSa, unit: "K/W" },
+        ),
+      );
+      conditions.push({
+        rule: "heatsink",
+        path: `/parts/${l.role}`,
+        text: `${l.role} on a heatsink of ≤ ${rSaShown.toFixed(1)} K/W (with grease)`,
+      });
     }
     // The page's heatsink line names the device with the least margin.
     if (rSa < worstMargin) {
@@ -86,6 +142,17 @@ export function thermalStage(ctx: Ctx, losses: DeviceLoss[]): ThermalResult {
       heatsink = verdict;
     }
   }
-  if (worstMargin > 0 && worstMargin < Infinity) figures.push(figure("heatsink_rth_sa_max", "Largest heatsink thermal resistance allowed", worstMargin, "K/W", "thermal", "R_θSA ≤ (T_J,limit − T_A)/P − R_θJC − R_θCS", "jesd51-12"));
+  if (worstMargin > 0 && worstMargin < Infinity)
+    figures.push(
+      figure(
+        "heatsink_rth_sa_max",
+        "Largest heatsink thermal resistance allowed",
+        worstMargin,
+        "K/W",
+        "thermal",
+        "R_θSA ≤ (T_J,limit − T_A)/P − R_θJC − R_θCS",
+        "jesd51-12",
+      ),
+    );
   return { figures, problems, checks, heatsink, conditions, perRole };
 }

@@ -26,8 +26,18 @@ export function capRating_V(ctx: Ctx, stress_V: number): number {
   return CAP_RATINGS_V.find((r) => stress_V <= r * ctx.spec.policy.capacitor.voltage.factor) ?? 250;
 }
 
-export function timingParts(ctx: Ctx, q: BjtClass, db: DiodeClass, v: CoreValues, tap: TapDesign, balance: CollectorLoad | undefined, balanceDiode: boolean, w: WorstCase, vOn_V: number): { parts: Part[]; problems: DesignProblem[]; checks: StressCheck[]; loss_W: number } {
+export function timingParts(
+  ctx: Ctx,
+  q: BjtClass,
+  db: DiodeClass,
+  v: CoreValues,
+  tap: TapDesign,
+  bal: { load: CollectorLoad | undefined; diode: boolean },
+  w: WorstCase,
+  vOn_V: number,
+): { parts: Part[]; problems: DesignProblem[]; checks: StressCheck[]; loss_W: number } {
   const pol = ctx.spec.policy;
+  const { load: balance, diode: balanceDiode } = bal;
   const tol = ctx.rTol;
   const vMax = ctx.vMax_V;
   const iCmax = vMax / (v.rC_ohm * (1 - tol));
@@ -37,7 +47,7 @@ export function timingParts(ctx: Ctx, q: BjtClass, db: DiodeClass, v: CoreValues
   // The two end stops differ (asymmetric range): each resistor carries its own current; the
   // transistor and the pot see the larger (smaller end resistor).
   const iBpkOf = (r: number): number => (2 * vMax - vOn_V) / (r * (1 - tol));
-  const iBrmsOf = (r: number): number => Math.sqrt(RB_MS_FACTOR) * (vMax - vOn_V) / (r * (1 - tol));
+  const iBrmsOf = (r: number): number => (Math.sqrt(RB_MS_FACTOR) * (vMax - vOn_V)) / (r * (1 - tol));
   const rEndMin = Math.min(v.rEndA_ohm, v.rEndB_ohm);
   const iBpk = iBpkOf(rEndMin);
   const iBrms = iBrmsOf(rEndMin);
@@ -46,38 +56,129 @@ export function timingParts(ctx: Ctx, q: BjtClass, db: DiodeClass, v: CoreValues
   const baseA = v.diodes ? "na" : "ba";
   const baseB = v.diodes ? "nb" : "bb";
   const built = [
-    resistor("timing", "RC_A", v.rC_ohm, { a: "vbus", b: "ca" }, (vMax * vMax) / (v.rC_ohm * (1 - tol)), pol, "collector resistor A"),
-    resistor("timing", "RC_B", v.rC_ohm, { a: "vbus", b: "cb" }, (vMax * vMax) / (v.rC_ohm * (1 - tol)), pol, "collector resistor B"),
-    resistor("duty", "RB_A", v.rEndA_ohm, { a: "pa", b: baseA }, iBrmsOf(v.rEndA_ohm) ** 2 * v.rEndA_ohm * (1 + tol), pol, "end stop A: sets the minimum duty"),
-    resistor("duty", "RB_B", v.rEndB_ohm, { a: "pb", b: baseB }, iBrmsOf(v.rEndB_ohm) ** 2 * v.rEndB_ohm * (1 + tol), pol, "end stop B: sets the maximum duty"),
+    resistor(
+      "timing",
+      "RC_A",
+      v.rC_ohm,
+      { a: "vbus", b: "ca" },
+      (vMax * vMax) / (v.rC_ohm * (1 - tol)),
+      pol,
+      "collector resistor A",
+    ),
+    resistor(
+      "timing",
+      "RC_B",
+      v.rC_ohm,
+      { a: "vbus", b: "cb" },
+      (vMax * vMax) / (v.rC_ohm * (1 - tol)),
+      pol,
+      "collector resistor B",
+    ),
+    resistor(
+      "duty",
+      "RB_A",
+      v.rEndA_ohm,
+      { a: "pa", b: baseA },
+      iBrmsOf(v.rEndA_ohm) ** 2 * v.rEndA_ohm * (1 + tol),
+      pol,
+      "end stop A: sets the minimum duty",
+    ),
+    resistor(
+      "duty",
+      "RB_B",
+      v.rEndB_ohm,
+      { a: "pb", b: baseB },
+      iBrmsOf(v.rEndB_ohm) ** 2 * v.rEndB_ohm * (1 + tol),
+      pol,
+      "end stop B: sets the maximum duty",
+    ),
   ];
   const parts: Part[] = built.map((b) => b.part);
   const checks: StressCheck[] = built.flatMap((b) => b.checks);
   const problems: DesignProblem[] = built.flatMap((b) => b.problems);
   for (const side of ["A", "B"] as const) {
     const c = side === "A" ? "ca" : "cb";
-    parts.push(transistor("timing", `Q_${side}`, q, gain, { c, b: side === "A" ? "ba" : "bb", e: "0" }, { voltage_V: vMax, current_A: iQpk }));
+    parts.push(
+      transistor(
+        "timing",
+        `Q_${side}`,
+        q,
+        gain,
+        { c, b: side === "A" ? "ba" : "bb", e: "0" },
+        { voltage_V: vMax, current_A: iQpk },
+      ),
+    );
     checks.push(checkStress(`Q_${side}`, "current", iQpk, q.ic_max_A, "A", pol.bjt.current, pol.marginal_above));
     checks.push(checkStress(`Q_${side}`, "voltage", vMax, q.vceo_V, "V", pol.bjt.voltage, pol.marginal_above));
   }
   const cRated = capRating_V(ctx, vMax);
-  parts.push(capacitor("timing", "CT_A", v.c_F, "E12", ctx.cTol, cRated, vMax, { a: "ca", b: baseB }, false, "timing, couples collector A into base B"));
-  parts.push(capacitor("timing", "CT_B", v.c_F, "E12", ctx.cTol, cRated, vMax, { a: "cb", b: baseA }, false, "timing, couples collector B into base A"));
+  parts.push(
+    capacitor("timing", "CT_A", {
+      c_F: v.c_F,
+      series: "E12",
+      tol: ctx.cTol,
+      ratedV: cRated,
+      stressV: vMax,
+      pins: { a: "ca", b: baseB },
+      polarised: false,
+      why: "timing, couples collector A into base B",
+    }),
+  );
+  parts.push(
+    capacitor("timing", "CT_B", {
+      c_F: v.c_F,
+      series: "E12",
+      tol: ctx.cTol,
+      ratedV: cRated,
+      stressV: vMax,
+      pins: { a: "cb", b: baseA },
+      polarised: false,
+      why: "timing, couples collector B into base A",
+    }),
+  );
   checks.push(checkStress("CT_A", "voltage", vMax, cRated, "V", pol.capacitor.voltage, pol.marginal_above));
   if (v.diodes) {
     for (const side of ["A", "B"] as const) {
       const n = side === "A" ? "na" : "nb";
-      parts.push(diode("timing", `DB_${side}`, db, { anode: n, cathode: side === "A" ? "ba" : "bb" }, { voltage_V: vMax, current_A: iBpk }, "blocks B–E reverse breakdown"));
+      parts.push(
+        diode(
+          "timing",
+          `DB_${side}`,
+          db,
+          { anode: n, cathode: side === "A" ? "ba" : "bb" },
+          { voltage_V: vMax, current_A: iBpk },
+          "blocks B–E reverse breakdown",
+        ),
+      );
       checks.push(checkStress(`DB_${side}`, "voltage", vMax, db.vrrm_V, "V", pol.diode.voltage, pol.marginal_above));
     }
   }
   if (balance !== undefined) {
     const untapped = tap.tapNet === "ca" ? "cb" : "ca";
     const i = (vMax - balance.v_V) / ((v.rC_ohm + balance.r_ohm) * (1 - tol));
-    const rb = resistor("timing", "RBAL", balance.r_ohm, { a: untapped, b: balanceDiode ? "nbal" : "0" }, i * i * balance.r_ohm * (1 + tol), pol, "balances the loading of the tapped collector");
-    parts.push(rb.part); checks.push(...rb.checks); problems.push(...rb.problems);
+    const rb = resistor(
+      "timing",
+      "RBAL",
+      balance.r_ohm,
+      { a: untapped, b: balanceDiode ? "nbal" : "0" },
+      i * i * balance.r_ohm * (1 + tol),
+      pol,
+      "balances the loading of the tapped collector",
+    );
+    parts.push(rb.part);
+    checks.push(...rb.checks);
+    problems.push(...rb.problems);
     if (balanceDiode) {
-      parts.push(diode("timing", "DBAL", db, { anode: "nbal", cathode: "0" }, { voltage_V: 1, current_A: i }, "mimics the chain's V_BE"));
+      parts.push(
+        diode(
+          "timing",
+          "DBAL",
+          db,
+          { anode: "nbal", cathode: "0" },
+          { voltage_V: 1, current_A: i },
+          "mimics the chain's V_BE",
+        ),
+      );
       checks.push(checkStress("DBAL", "current", i, db.if_avg_A, "A", pol.diode.current, pol.marginal_above));
     }
   }
@@ -87,9 +188,17 @@ export function timingParts(ctx: Ctx, q: BjtClass, db: DiodeClass, v: CoreValues
   const potRule = pol.resistor.power;
   const potW = POT_RATINGS_W.find((r) => pTrack <= r * potRule.factor) ?? POT_RATINGS_W[POT_RATINGS_W.length - 1]!;
   parts.push({
-    ref: "", kind: "potentiometer", stage: "duty", role: "RV_DUTY", value: v.pot_ohm, unit: "Ω", tolerance: POT_TOLERANCE,
+    ref: "",
+    kind: "potentiometer",
+    stage: "duty",
+    role: "RV_DUTY",
+    value: v.pot_ohm,
+    unit: "Ω",
+    tolerance: POT_TOLERANCE,
     description: `Linear potentiometer, ${potW} W ${potW > 1 ? "wirewound" : potW > 0.25 ? "cermet" : "carbon"} — duty control (wiper to the supply)`,
-    rating: { power_W: potW, current_A: Math.sqrt(potW / v.pot_ohm) }, stress: { current_A: iBrms, power_W: pTrack }, pins: { a: "pa", w: "vbus", b: "pb" },
+    rating: { power_W: potW, current_A: Math.sqrt(potW / v.pot_ohm) },
+    stress: { current_A: iBrms, power_W: pTrack },
+    pins: { a: "pa", w: "vbus", b: "pb" },
   });
   checks.push(checkStress("RV_DUTY", "power", pTrack, potW, "W", potRule, pol.marginal_above));
   void w;

@@ -20,12 +20,21 @@ import { type CoreValues, type Corner, NOMINAL_K, diodeVf_V, evalCore } from "./
 import { diodeCj_F } from "../shared/diode.ts";
 import { INJECTION_MAX, baseInjectionRatio } from "./astable.ts";
 import { POT_RATINGS_W, RB_MS_FACTOR } from "./timing-parts.ts";
-import { type CornerSets, type Envelope, type WorstCase, dutyExtreme, envelopeCorners, worstCaseFast } from "./worst-corners.ts";
+import {
+  type CornerSets,
+  type Envelope,
+  type WorstCase,
+  dutyExtreme,
+  envelopeCorners,
+  worstCaseFast,
+} from "./worst-corners.ts";
 import { NOMINAL_TEMP_C } from "../shared/temperature.ts";
 
 export type { Range, WorstCase } from "./worst-corners.ts";
 
-export const POT_VALUES_OHM: readonly number[] = [2, 3, 4, 5, 6].flatMap((e) => [1, 2.2, 4.7].map((m) => Math.round(m * 10 ** e)));
+export const POT_VALUES_OHM: readonly number[] = [2, 3, 4, 5, 6].flatMap((e) =>
+  [1, 2.2, 4.7].map((m) => Math.round(m * 10 ** e)),
+);
 export const C_MAX_F = 10e-6;
 export const C_MIN_F = 100e-12;
 /**
@@ -54,7 +63,15 @@ export interface Search {
 type Base = Omit<CoreValues, "c_F" | "pot_ohm" | "rEndA_ohm" | "rEndB_ohm">;
 
 /** k = β_min·I_B/I_C at V_cc,min, T_A,min, on the larger base resistance at +tolerance (pot +20 %). */
-export function overdrive(ctx: Ctx, q: BjtClass, db: DiodeClass, base: Base, pot: number, rEndA: number, rEndB: number): number {
+export function overdrive(
+  ctx: Ctx,
+  q: BjtClass,
+  db: DiodeClass,
+  base: Base,
+  pot: number,
+  rEndA: number,
+  rEndB: number,
+): number {
   const rB = Math.max(rEndA, rEndB) * (1 + ctx.rTol) + pot * (1 + POT_TOLERANCE);
   const iC = (ctx.vMin_V - vceSat(q, ctx.vMin_V / base.rC_ohm)) / (base.rC_ohm * (1 - ctx.rTol));
   const iB0 = ctx.vMin_V / rB;
@@ -76,7 +93,15 @@ export function injection(ctx: Ctx, q: BjtClass, db: DiodeClass, v: CoreValues):
 }
 
 export function envelopeOf(ctx: Ctx): Envelope {
-  return { vMin: ctx.vMin_V, vMax: ctx.vMax_V, tMin: ctx.taMin_C, tMax: ctx.taMax_C, rTol: ctx.rTol, potTol: POT_TOLERANCE, cTol: ctx.cTol };
+  return {
+    vMin: ctx.vMin_V,
+    vMax: ctx.vMax_V,
+    tMin: ctx.taMin_C,
+    tMax: ctx.taMax_C,
+    rTol: ctx.rTol,
+    potTol: POT_TOLERANCE,
+    cTol: ctx.cTol,
+  };
 }
 
 /**
@@ -106,7 +131,12 @@ function endFor(share: number, other: number, pot: number, e: Envelope): number 
   return (share * rest) / ((1 - share) * (1 + e.rTol) * (1 + e.cTol));
 }
 
-interface Cand { v: CoreValues; score: number; od: number; ok: boolean }
+interface Cand {
+  v: CoreValues;
+  score: number;
+  od: number;
+  ok: boolean;
+}
 
 export function searchCore(ctx: Ctx, q: BjtClass, db: DiodeClass, base: Base): Search {
   const t = ctx.spec.targets;
@@ -116,15 +146,29 @@ export function searchCore(ctx: Ctx, q: BjtClass, db: DiodeClass, base: Base): S
   const ranked: Cand[] = [];
   for (const pot of POT_VALUES_OHM) {
     // Shares from the ratio model, then once more with the load-side offsets of a nominal evaluation.
-    let a = 0, b = 0;
-    for (let i = 0; i < 3; i++) { a = endFor(t.duty_min, b, pot, env); b = endFor(1 - t.duty_max, a, pot, env); }
-    const probe: CoreValues = { ...base, c_F: 1, pot_ohm: pot, rEndA_ohm: Math.max(a, R_END_MIN_OHM), rEndB_ohm: Math.max(b, R_END_MIN_OHM) };
+    let a = 0,
+      b = 0;
+    for (let i = 0; i < 3; i++) {
+      a = endFor(t.duty_min, b, pot, env);
+      b = endFor(1 - t.duty_max, a, pot, env);
+    }
+    const probe: CoreValues = {
+      ...base,
+      c_F: 1,
+      pot_ohm: pot,
+      rEndA_ohm: Math.max(a, R_END_MIN_OHM),
+      rEndB_ohm: Math.max(b, R_END_MIN_OHM),
+    };
     const perF = evalCore(probe, q, db, nominal, 0.5).timing.period_s;
     const atC = { ...probe, c_F: tTarget / perF };
-    const r0 = a / (a + b + pot), r1 = (a + pot) / (a + b + pot);
+    const r0 = a / (a + b + pot),
+      r1 = (a + pot) / (a + b + pot);
     const off0 = evalCore(atC, q, db, nominal, 0).duty - r0;
     const off1 = evalCore(atC, q, db, nominal, 1).duty - r1;
-    for (let i = 0; i < 3; i++) { a = endFor(t.duty_min - off0, b, pot, env); b = endFor(1 - t.duty_max + off1, a, pot, env); }
+    for (let i = 0; i < 3; i++) {
+      a = endFor(t.duty_min - off0, b, pot, env);
+      b = endFor(1 - t.duty_max + off1, a, pot, env);
+    }
     const floor = endFloor(ctx, q, base.rC_ohm, pot);
     if (floor === null) continue;
     const rA = roundUp(Math.max(floor, roundDown(Math.max(a, R_END_MIN_OHM), "E24")), "E24");
@@ -158,18 +202,44 @@ export function searchCore(ctx: Ctx, q: BjtClass, db: DiodeClass, base: Base): S
     const v = refineEnds(ctx, q, db, cand.v, sets, endFloor(ctx, q, base.rC_ohm, cand.v.pot_ohm) ?? R_END_MIN_OHM);
     const od = overdrive(ctx, q, db, base, v.pot_ohm, v.rEndA_ohm, v.rEndB_ohm);
     const worst = worstCaseFast(v, q, db, sets);
-    const passed = od >= OVERDRIVE_K && injection(ctx, q, db, v) <= INJECTION_MAX && worst.thresholdReached && worst.dMin.hi <= t.duty_min && worst.dMax.lo >= t.duty_max && worst.recovery <= MAX_RECOVERY;
+    const passed =
+      od >= OVERDRIVE_K &&
+      injection(ctx, q, db, v) <= INJECTION_MAX &&
+      worst.thresholdReached &&
+      worst.dMin.hi <= t.duty_min &&
+      worst.dMax.lo >= t.duty_max &&
+      worst.recovery <= MAX_RECOVERY;
     const s = { values: v, worst, overdrive: od, passed, found: true };
     if (passed) return s;
     first ??= s;
   }
   if (first !== null) return first;
   const near = ranked[0];
-  if (near !== undefined) return { values: near.v, worst: worstCaseFast(near.v, q, db, sets), overdrive: near.od, passed: false, found: false };
+  if (near !== undefined)
+    return {
+      values: near.v,
+      worst: worstCaseFast(near.v, q, db, sets),
+      overdrive: near.od,
+      passed: false,
+      found: false,
+    };
   // Nothing buildable at all: report the plain ln 2 design so the reason can be shown.
-  const pot = 10_000, rEnd = 1_000;
-  const v = { ...base, c_F: roundUp(tTarget / (Math.LN2 * (2 * rEnd + pot)), "E12"), pot_ohm: pot, rEndA_ohm: rEnd, rEndB_ohm: rEnd };
-  return { values: v, worst: worstCaseFast(v, q, db, sets), overdrive: overdrive(ctx, q, db, base, pot, rEnd, rEnd), passed: false, found: false };
+  const pot = 10_000,
+    rEnd = 1_000;
+  const v = {
+    ...base,
+    c_F: roundUp(tTarget / (Math.LN2 * (2 * rEnd + pot)), "E12"),
+    pot_ohm: pot,
+    rEndA_ohm: rEnd,
+    rEndB_ohm: rEnd,
+  };
+  return {
+    values: v,
+    worst: worstCaseFast(v, q, db, sets),
+    overdrive: overdrive(ctx, q, db, base, pot, rEnd, rEnd),
+    passed: false,
+    found: false,
+  };
 }
 
 /**
@@ -179,7 +249,14 @@ export function searchCore(ctx: Ctx, q: BjtClass, db: DiodeClass, base: Base): S
  * walk down until it passes, or up while it still passes, finds it. Limits that tighten as a
  * resistor shrinks (peak current, pot rating, recovery) are re-checked by the caller.
  */
-export function refineEnds(ctx: Ctx, q: BjtClass, db: DiodeClass, v0: CoreValues, sets: CornerSets, floor_ohm: number): CoreValues {
+export function refineEnds(
+  ctx: Ctx,
+  q: BjtClass,
+  db: DiodeClass,
+  v0: CoreValues,
+  sets: CornerSets,
+  floor_ohm: number,
+): CoreValues {
   const t = ctx.spec.targets;
   let v = v0;
   const okA = (x: CoreValues): boolean => dutyExtreme(x, q, db, sets.dMinHi, 0, 1) <= t.duty_min;
@@ -192,7 +269,12 @@ export function refineEnds(ctx: Ctx, q: BjtClass, db: DiodeClass, v0: CoreValues
   return v;
 }
 
-function walk(v: CoreValues, key: "rEndA_ohm" | "rEndB_ohm", ok: (x: CoreValues) => boolean, floor_ohm: number): CoreValues {
+function walk(
+  v: CoreValues,
+  key: "rEndA_ohm" | "rEndB_ohm",
+  ok: (x: CoreValues) => boolean,
+  floor_ohm: number,
+): CoreValues {
   const at = (r: number): CoreValues => ({ ...v, [key]: r });
   let r = v[key];
   if (ok(v)) {

@@ -56,17 +56,46 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
   let diodes = false;
   if (vebReverse_V > vebAllowed) {
     if (ctx.spec.protection.be_breakdown === "series-base-diode") diodes = true;
-    else problems.push(problem("timing", "/parts/Q_A", "vebo-breakdown", "error",
-      `At ${ctx.vMax_V.toFixed(1)} V the timing transistors' bases are driven ${vebReverse_V.toFixed(1)} V in reverse, over the derated V_EBO of ${vebAllowed.toFixed(1)} V: the B–E junctions break down. Allow series base diodes (protection.be_breakdown) or use a lower supply.`,
-      { limit: vebAllowed, actual: vebReverse_V, unit: "V" }));
+    else
+      problems.push(
+        problem(
+          "timing",
+          "/parts/Q_A",
+          "vebo-breakdown",
+          "error",
+          `At ${ctx.vMax_V.toFixed(1)} V the timing transistors' bases are driven ${vebReverse_V.toFixed(1)} V in reverse, over the derated V_EBO of ${vebAllowed.toFixed(1)} V: the B–E junctions break down. Allow series base diodes (protection.be_breakdown) or use a lower supply.`,
+          { limit: vebAllowed, actual: vebReverse_V, unit: "V" },
+        ),
+      );
   }
   const delays = plan.delays(tap.info);
-  const base = { rC_ohm: tap.rC_ohm, diodes, tapLoad: tap.load, inverting: plan.need.inverting, vThTap_V: tap.vThTap_V, delayOn_s: delays.on_s, delayOff_s: delays.off_s, ...(tap.preLinear_ohm !== undefined ? { preLinear_ohm: tap.preLinear_ohm } : {}) };
+  const base = {
+    rC_ohm: tap.rC_ohm,
+    diodes,
+    tapLoad: tap.load,
+    inverting: plan.need.inverting,
+    vThTap_V: tap.vThTap_V,
+    delayOn_s: delays.on_s,
+    delayOff_s: delays.off_s,
+    ...(tap.preLinear_ohm !== undefined ? { preLinear_ohm: tap.preLinear_ohm } : {}),
+  };
   // Skew from loading the tapped collector only (full recovery, equal R_B and C): the two ln factors differ.
   const vOnNom = vbeOn(q, NOMINAL_TEMP_C) + (diodes ? diodeVf_V(db, ctx.vNom_V / 10_000, NOMINAL_TEMP_C) : 0);
   const vSat = vceSat(q, ctx.vNom_V / tap.rC_ohm);
   const skewOf = (bal?: CollectorLoad): number => {
-    const c = evaluateCore({ vcc_V: ctx.vNom_V, vOn_V: vOnNom, vSat_V: vSat, rCA_ohm: tap.rC_ohm, rCB_ohm: tap.rC_ohm, cA_F: 1e-9, cB_F: 1e-9, rBA_ohm: 1e7, rBB_ohm: 1e7, loadA: tap.load, ...(bal ? { loadB: bal } : {}) });
+    const c = evaluateCore({
+      vcc_V: ctx.vNom_V,
+      vOn_V: vOnNom,
+      vSat_V: vSat,
+      rCA_ohm: tap.rC_ohm,
+      rCB_ohm: tap.rC_ohm,
+      cA_F: 1e-9,
+      cB_F: 1e-9,
+      rBA_ohm: 1e7,
+      rBB_ohm: 1e7,
+      loadA: tap.load,
+      ...(bal ? { loadB: bal } : {}),
+    });
     return Math.abs(c.aHigh - 0.5);
   };
   const skewRaw = skewOf();
@@ -90,51 +119,287 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
   const e1 = evalCore(v, q, db, nominal, 1);
   const skew = Math.abs(e5.timing.aHigh - (v.rEndA_ohm + v.pot_ohm / 2) / (v.rEndA_ohm + v.rEndB_ohm + v.pot_ohm));
   const fErr = e5.f_Hz / ctx.f_Hz - 1;
-  if (!search.found) problems.push(problem("timing", "/parts/RV_DUTY", "duty-range-unreachable", "error",
-    `No timing-core values reach the required duty range ${fmtPct(t.duty_min)}–${fmtPct(t.duty_max)} at ${ctx.f_Hz} Hz while keeping the timing transistors saturated (k ≥ 2 at minimum gain); the nearest reaches ${fmtPct(e0.duty)}–${fmtPct(e1.duty)} with overdrive k = ${search.overdrive.toFixed(2)} (R_C = ${v.rC_ohm} Ω, set by what the chain input needs; R_B,max ≤ β_min·R_C/2, and the pot's track current sets the smallest end resistor).`));
+  if (!search.found)
+    problems.push(
+      problem(
+        "timing",
+        "/parts/RV_DUTY",
+        "duty-range-unreachable",
+        "error",
+        `No timing-core values reach the required duty range ${fmtPct(t.duty_min)}–${fmtPct(t.duty_max)} at ${ctx.f_Hz} Hz while keeping the timing transistors saturated (k ≥ 2 at minimum gain); the nearest reaches ${fmtPct(e0.duty)}–${fmtPct(e1.duty)} with overdrive k = ${search.overdrive.toFixed(2)} (R_C = ${v.rC_ohm} Ω, set by what the chain input needs; R_B,max ≤ β_min·R_C/2, and the pot's track current sets the smallest end resistor).`,
+      ),
+    );
   // Any worst-case duty short of the record's range is a problem, whether or not the search passed.
-  else if (w.dMin.hi > t.duty_min || w.dMax.lo < t.duty_max || (!search.passed && w.recovery <= MAX_RECOVERY && w.thresholdReached)) problems.push(problem("duty", "/parts/RV_DUTY", "duty-range-worst-case", "error",
-    `Worst case the control reaches only ${fmtPct(w.dMin.hi)}–${fmtPct(w.dMax.lo)} duty at the load, short of the required ${fmtPct(t.duty_min)}–${fmtPct(t.duty_max)}.`,
-    { limit: t.duty_min, actual: w.dMin.hi, unit: "" }));
+  else if (
+    w.dMin.hi > t.duty_min ||
+    w.dMax.lo < t.duty_max ||
+    (!search.passed && w.recovery <= MAX_RECOVERY && w.thresholdReached)
+  )
+    problems.push(
+      problem(
+        "duty",
+        "/parts/RV_DUTY",
+        "duty-range-worst-case",
+        "error",
+        `Worst case the control reaches only ${fmtPct(w.dMin.hi)}–${fmtPct(w.dMax.lo)} duty at the load, short of the required ${fmtPct(t.duty_min)}–${fmtPct(t.duty_max)}.`,
+        { limit: t.duty_min, actual: w.dMin.hi, unit: "" },
+      ),
+    );
   const inj = injection(ctx, q, db, v);
-  if (inj > INJECTION_MAX) problems.push(problem("timing", "/parts/DB_A", "base-diode-injection", "error",
-    `The base diodes' capacitance injects current into the floating base of the off timing transistor: 2·β·C_j·R_C/(R_B·C) = ${inj.toFixed(2)} (limit ${INJECTION_MAX}); the off collector sags and the core can stop with both transistors on. Use a larger timing capacitor with smaller base resistors, a smaller R_C, or a lower frequency.`,
-    { limit: INJECTION_MAX, actual: inj, unit: "" }));
-  if (!w.thresholdReached) problems.push(problem("timing", `/parts/${tap.tapNet === "ca" ? "RC_A" : "RC_B"}`, "threshold-unreached", "error", "The tapped collector never rises to the chain's switching threshold at some corner: the load would not switch."));
+  if (inj > INJECTION_MAX)
+    problems.push(
+      problem(
+        "timing",
+        "/parts/DB_A",
+        "base-diode-injection",
+        "error",
+        `The base diodes' capacitance injects current into the floating base of the off timing transistor: 2·β·C_j·R_C/(R_B·C) = ${inj.toFixed(2)} (limit ${INJECTION_MAX}); the off collector sags and the core can stop with both transistors on. Use a larger timing capacitor with smaller base resistors, a smaller R_C, or a lower frequency.`,
+        { limit: INJECTION_MAX, actual: inj, unit: "" },
+      ),
+    );
+  if (!w.thresholdReached)
+    problems.push(
+      problem(
+        "timing",
+        `/parts/${tap.tapNet === "ca" ? "RC_A" : "RC_B"}`,
+        "threshold-unreached",
+        "error",
+        "The tapped collector never rises to the chain's switching threshold at some corner: the load would not switch.",
+      ),
+    );
   // The worst-case frequency (every tolerance, supply and temperature corner) against the record's
   // target: more than 5 % off either way is shown (the same 5 % as the nominal frequency error).
-  if (w.f.lo < ctx.f_Hz * (1 - FREQ_SPREAD_SHOWN) || w.f.hi > ctx.f_Hz * (1 + FREQ_SPREAD_SHOWN)) problems.push(problem("timing", "/parts/CT_A", "frequency-worst-case", "warning",
-    `Over every tolerance, supply and temperature corner the PWM frequency spans ${w.f.lo.toFixed(0)}–${w.f.hi.toFixed(0)} Hz around the ${ctx.f_Hz} Hz target (${fmtPct(w.f.lo / ctx.f_Hz - 1)} … ${fmtPct(w.f.hi / ctx.f_Hz - 1)}); the timing capacitors' tolerance dominates. If the load needs the target (audible whine, flicker), use 5 % capacitors or trim.`,
-    { limit: ctx.f_Hz, actual: w.f.lo, unit: "Hz" }));
-  if (Math.abs(fErr) > 0.05) problems.push(problem("timing", "/parts/CT_A", "frequency-error", "warning", `The nearest preferred values give ${e5.f_Hz.toFixed(0)} Hz, ${fmtPct(fErr)} from the ${ctx.f_Hz} Hz target.`, { limit: 0.05, actual: fErr, unit: "" }));
-  if (w.recovery > MAX_RECOVERY) problems.push(problem("timing", "/parts/RC_A", "collector-recovery", "error", `At worst case the collectors need 5·τ_c = ${w.recovery.toFixed(2)} × the shortest half-period to recover (limit ${MAX_RECOVERY}): the core can latch with both transistors on at the control's ends. Narrow the duty range or lower the frequency.`, { limit: MAX_RECOVERY, actual: w.recovery, unit: "" }));
-  if (skew > t.duty_skew_max) problems.push(problem("timing", "/parts/RBAL", "duty-skew", "warning", `The timing core's duty skew from loading is ${fmtPct(skew)}, above the design's ${fmtPct(t.duty_skew_max)}.`, { limit: t.duty_skew_max, actual: skew, unit: "" }));
-  problems.push(problem("duty", "/parts/RV_DUTY", "no-full-off-on", "note", `The end resistors stop the control at ${fmtPct(e0.duty)}–${fmtPct(e1.duty)} (nominal); over all tolerances, supply and temperature the control is sure to reach ${fmtPct(w.dMin.hi)}–${fmtPct(w.dMax.lo)}. The load is never fully off or fully on from this control; use a separate switch for off.`));
-  const built = timingParts(ctx, q, db, v, tap, balance, balanceDiode, w, e5.vOn_V);
+  if (w.f.lo < ctx.f_Hz * (1 - FREQ_SPREAD_SHOWN) || w.f.hi > ctx.f_Hz * (1 + FREQ_SPREAD_SHOWN))
+    problems.push(
+      problem(
+        "timing",
+        "/parts/CT_A",
+        "frequency-worst-case",
+        "warning",
+        `Over every tolerance, supply and temperature corner the PWM frequency spans ${w.f.lo.toFixed(0)}–${w.f.hi.toFixed(0)} Hz around the ${ctx.f_Hz} Hz target (${fmtPct(w.f.lo / ctx.f_Hz - 1)} … ${fmtPct(w.f.hi / ctx.f_Hz - 1)}); the timing capacitors' tolerance dominates. If the load needs the target (audible whine, flicker), use 5 % capacitors or trim.`,
+        { limit: ctx.f_Hz, actual: w.f.lo, unit: "Hz" },
+      ),
+    );
+  if (Math.abs(fErr) > 0.05)
+    problems.push(
+      problem(
+        "timing",
+        "/parts/CT_A",
+        "frequency-error",
+        "warning",
+        `The nearest preferred values give ${e5.f_Hz.toFixed(0)} Hz, ${fmtPct(fErr)} from the ${ctx.f_Hz} Hz target.`,
+        { limit: 0.05, actual: fErr, unit: "" },
+      ),
+    );
+  if (w.recovery > MAX_RECOVERY)
+    problems.push(
+      problem(
+        "timing",
+        "/parts/RC_A",
+        "collector-recovery",
+        "error",
+        `At worst case the collectors need 5·τ_c = ${w.recovery.toFixed(2)} × the shortest half-period to recover (limit ${MAX_RECOVERY}): the core can latch with both transistors on at the control's ends. Narrow the duty range or lower the frequency.`,
+        { limit: MAX_RECOVERY, actual: w.recovery, unit: "" },
+      ),
+    );
+  if (skew > t.duty_skew_max)
+    problems.push(
+      problem(
+        "timing",
+        "/parts/RBAL",
+        "duty-skew",
+        "warning",
+        `The timing core's duty skew from loading is ${fmtPct(skew)}, above the design's ${fmtPct(t.duty_skew_max)}.`,
+        { limit: t.duty_skew_max, actual: skew, unit: "" },
+      ),
+    );
+  problems.push(
+    problem(
+      "duty",
+      "/parts/RV_DUTY",
+      "no-full-off-on",
+      "note",
+      `The end resistors stop the control at ${fmtPct(e0.duty)}–${fmtPct(e1.duty)} (nominal); over all tolerances, supply and temperature the control is sure to reach ${fmtPct(w.dMin.hi)}–${fmtPct(w.dMax.lo)}. The load is never fully off or fully on from this control; use a separate switch for off.`,
+    ),
+  );
+  const built = timingParts(ctx, q, db, v, tap, { load: balance, diode: balanceDiode }, w, e5.vOn_V);
   const T = 1 / e5.f_Hz;
   const dt = e5.dtTh_s ?? 0;
   const sign = plan.need.inverting ? 1 : -1;
   const M = "millman-taub-1965";
   const figures: Figure[] = [
-    figure("frequency_nominal", "PWM frequency (nominal, mid control)", e5.f_Hz, "Hz", "timing", "f = 1/(t_Aoff + t_Boff); t_Xoff = R_BX·C·ln((V_cc − V_on + V_swing)/(V_cc − V_γ))", M, [w.f.lo, w.f.hi]),
+    figure(
+      "frequency_nominal",
+      "PWM frequency (nominal, mid control)",
+      e5.f_Hz,
+      "Hz",
+      "timing",
+      "f = 1/(t_Aoff + t_Boff); t_Xoff = R_BX·C·ln((V_cc − V_on + V_swing)/(V_cc − V_γ))",
+      M,
+      [w.f.lo, w.f.hi],
+    ),
     figure("frequency_error", "Frequency error vs target (nominal)", fErr, "", "timing", "f/f_target − 1", "derived"),
-    figure("timing_ln_coefficient", "Half-period coefficient ln(...) (nominal, side A)", lnFactor(ctx.vNom_V, e5.vOn_V, e5.timing.swingB_V, e5.vCutIn_V), "", "timing", "ln((V_cc − V_on + V_swing)/(V_cc − V_γ)), V_γ the cut-in level → ln 2 when V_swing = V_cc − V_on = V_cc − V_γ", M),
-    figure("timing_capacitor", "Timing capacitors C (each)", v.c_F, "F", "timing", "C = T_target / (period per farad), E12", "iec-60063"),
-    figure("timing_collector_resistor", "Collector resistors R_C (each)", v.rC_ohm, "Ω", "timing", "R_C = α·(V_cc,min − V_clamp)/I_need, bounded by the timing transistor's current", "common-practice"),
-    figure("duty_pot", "Duty potentiometer", v.pot_ohm, "Ω", "duty", "E3 pot value; total base resistance R_BA + R_BB = 2·R_end + R_pot stays constant", "common-practice"),
-    figure("duty_end_resistor", "End-stop resistor RB_A (minimum duty)", v.rEndA_ohm, "Ω", "duty", "D_min ≈ R_A/(R_A + R_B + R_pot) at the worst corner ≤ duty_min, largest such E24 value", "derived"),
-    figure("duty_end_resistor_b", "End-stop resistor RB_B (maximum duty)", v.rEndB_ohm, "Ω", "duty", "1 − D_max ≈ R_B/(R_A + R_B + R_pot) at the worst corner ≤ 1 − duty_max, largest such E24 value", "derived"),
-    figure("timing_overdrive", "Timing transistor overdrive (worst case)", search.overdrive, "", "timing", "k = β_min·I_B/I_C, V_cc,min, T_A,min, R_B = (R_end + R_pot) at +tolerance; need k ≥ 2", "common-practice"),
-    figure("collector_recovery", "Collector recovery 5·τ_c / shortest half-period (worst)", w.recovery, "", "timing", "5·(R_C ∥ R_load)·C / t_off,min (≤ 1: recovered)", "derived"),
-    figure("duty_min", "Duty at the load, control at 0 (nominal)", e0.duty, "", "duty", "D = (t_Aoff ∓ Δt_th ∓ delays)/T at ctrl 0", "derived", [w.dMin.lo, w.dMin.hi]),
-    figure("duty_mid", "Duty at the load, control at ½ (nominal)", e5.duty, "", "duty", "D at ctrl ½", "derived", [w.dMid.lo, w.dMid.hi]),
-    figure("duty_max", "Duty at the load, control at 1 (nominal)", e1.duty, "", "duty", "D at ctrl 1", "derived", [w.dMax.lo, w.dMax.hi]),
-    figure("duty_skew", "Timing-core duty skew from loading (nominal)", skew, "", "timing", "|t_Aoff/T − R_BA/(R_BA + R_BB)| at ctrl ½", "derived"),
-    figure("chain_threshold", "Chain switching threshold at the tap", tap.vThTap_V, "V", "chain", plan.need.kind === "gate-voltage" ? "V_th,tap = V_GS(th)·(R_G + R_GS)/R_GS" : tap.preLinear_ohm !== undefined ? "V_th,tap = V_BE·(R_T + R_BE)/R_BE" : plan.need.iEdge_A !== undefined ? "V_th,tap = n·V_BE(on) + R_T·I_B1 at the load's edge current" : "V_th,tap = n·V_BE(on)", "common-practice"),
-    figure("duty_error_threshold", "Duty error from the switching threshold", (sign * dt) / T, "", "duty", "Δt/T, Δt = τ_c·ln((V_C,high − V_CE(sat))/(V_C,high − V_th)); − non-inverting, + inverting", "derived"),
-    figure("duty_error_delays", "Duty error from device delays", (v.delayOff_s - v.delayOn_s) / T, "", "duty", `(d_off − d_on)/T; ${delays.note}`, "common-practice"),
-    figure("be_reverse_voltage", "B–E reverse swing without protection", vebReverse_V, "V", "timing", "V_EB,rev = V_cc,max − V_CE(sat) − V_BE(hot)", "common-practice"),
-    figure("tap_current_min", "Chain input current, worst case low", tap.info.iMin_A, "A", "chain", "I = (V_cc,min − V_clamp)/((R_C + R_T)·1.05)", "derived"),
+    figure(
+      "timing_ln_coefficient",
+      "Half-period coefficient ln(...) (nominal, side A)",
+      lnFactor(ctx.vNom_V, e5.vOn_V, e5.timing.swingB_V, e5.vCutIn_V),
+      "",
+      "timing",
+      "ln((V_cc − V_on + V_swing)/(V_cc − V_γ)), V_γ the cut-in level → ln 2 when V_swing = V_cc − V_on = V_cc − V_γ",
+      M,
+    ),
+    figure(
+      "timing_capacitor",
+      "Timing capacitors C (each)",
+      v.c_F,
+      "F",
+      "timing",
+      "C = T_target / (period per farad), E12",
+      "iec-60063",
+    ),
+    figure(
+      "timing_collector_resistor",
+      "Collector resistors R_C (each)",
+      v.rC_ohm,
+      "Ω",
+      "timing",
+      "R_C = α·(V_cc,min − V_clamp)/I_need, bounded by the timing transistor's current",
+      "common-practice",
+    ),
+    figure(
+      "duty_pot",
+      "Duty potentiometer",
+      v.pot_ohm,
+      "Ω",
+      "duty",
+      "E3 pot value; total base resistance R_BA + R_BB = 2·R_end + R_pot stays constant",
+      "common-practice",
+    ),
+    figure(
+      "duty_end_resistor",
+      "End-stop resistor RB_A (minimum duty)",
+      v.rEndA_ohm,
+      "Ω",
+      "duty",
+      "D_min ≈ R_A/(R_A + R_B + R_pot) at the worst corner ≤ duty_min, largest such E24 value",
+      "derived",
+    ),
+    figure(
+      "duty_end_resistor_b",
+      "End-stop resistor RB_B (maximum duty)",
+      v.rEndB_ohm,
+      "Ω",
+      "duty",
+      "1 − D_max ≈ R_B/(R_A + R_B + R_pot) at the worst corner ≤ 1 − duty_max, largest such E24 value",
+      "derived",
+    ),
+    figure(
+      "timing_overdrive",
+      "Timing transistor overdrive (worst case)",
+      search.overdrive,
+      "",
+      "timing",
+      "k = β_min·I_B/I_C, V_cc,min, T_A,min, R_B = (R_end + R_pot) at +tolerance; need k ≥ 2",
+      "common-practice",
+    ),
+    figure(
+      "collector_recovery",
+      "Collector recovery 5·τ_c / shortest half-period (worst)",
+      w.recovery,
+      "",
+      "timing",
+      "5·(R_C ∥ R_load)·C / t_off,min (≤ 1: recovered)",
+      "derived",
+    ),
+    figure(
+      "duty_min",
+      "Duty at the load, control at 0 (nominal)",
+      e0.duty,
+      "",
+      "duty",
+      "D = (t_Aoff ∓ Δt_th ∓ delays)/T at ctrl 0",
+      "derived",
+      [w.dMin.lo, w.dMin.hi],
+    ),
+    figure("duty_mid", "Duty at the load, control at ½ (nominal)", e5.duty, "", "duty", "D at ctrl ½", "derived", [
+      w.dMid.lo,
+      w.dMid.hi,
+    ]),
+    figure("duty_max", "Duty at the load, control at 1 (nominal)", e1.duty, "", "duty", "D at ctrl 1", "derived", [
+      w.dMax.lo,
+      w.dMax.hi,
+    ]),
+    figure(
+      "duty_skew",
+      "Timing-core duty skew from loading (nominal)",
+      skew,
+      "",
+      "timing",
+      "|t_Aoff/T − R_BA/(R_BA + R_BB)| at ctrl ½",
+      "derived",
+    ),
+    figure(
+      "chain_threshold",
+      "Chain switching threshold at the tap",
+      tap.vThTap_V,
+      "V",
+      "chain",
+      plan.need.kind === "gate-voltage"
+        ? "V_th,tap = V_GS(th)·(R_G + R_GS)/R_GS"
+        : tap.preLinear_ohm !== undefined
+          ? "V_th,tap = V_BE·(R_T + R_BE)/R_BE"
+          : plan.need.iEdge_A !== undefined
+            ? "V_th,tap = n·V_BE(on) + R_T·I_B1 at the load's edge current"
+            : "V_th,tap = n·V_BE(on)",
+      "common-practice",
+    ),
+    figure(
+      "duty_error_threshold",
+      "Duty error from the switching threshold",
+      (sign * dt) / T,
+      "",
+      "duty",
+      "Δt/T, Δt = τ_c·ln((V_C,high − V_CE(sat))/(V_C,high − V_th)); − non-inverting, + inverting",
+      "derived",
+    ),
+    figure(
+      "duty_error_delays",
+      "Duty error from device delays",
+      (v.delayOff_s - v.delayOn_s) / T,
+      "",
+      "duty",
+      `(d_off − d_on)/T; ${delays.note}`,
+      "common-practice",
+    ),
+    figure(
+      "be_reverse_voltage",
+      "B–E reverse swing without protection",
+      vebReverse_V,
+      "V",
+      "timing",
+      "V_EB,rev = V_cc,max − V_CE(sat) − V_BE(hot)",
+      "common-practice",
+    ),
+    figure(
+      "tap_current_min",
+      "Chain input current, worst case low",
+      tap.info.iMin_A,
+      "A",
+      "chain",
+      "I = (V_cc,min − V_clamp)/((R_C + R_T)·1.05)",
+      "derived",
+    ),
   ];
-  return { search, values: v, parts: built.parts, figures, problems: [...problems, ...built.problems], checks: built.checks, vebReverse_V, timingLoss_W: built.loss_W, fCtrl1_Hz: e1.f_Hz, vSatNom_V: e1.vSat_V };
+  return {
+    search,
+    values: v,
+    parts: built.parts,
+    figures,
+    problems: [...problems, ...built.problems],
+    checks: built.checks,
+    vebReverse_V,
+    timingLoss_W: built.loss_W,
+    fCtrl1_Hz: e1.f_Hz,
+    vSatNom_V: e1.vSat_V,
+  };
 }

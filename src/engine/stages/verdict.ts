@@ -11,11 +11,28 @@ import type { DesignProblem } from "../../model/problem.ts";
 import type { Verdict, VerdictBlock, VerdictCondition } from "../../model/sized.ts";
 
 /** Most basic first: the first blocking item becomes the one-line reason. */
-const STAGE_PRIORITY = ["engine", "thermal", "chain", "timing", "duty", "load", "peak", "protection", "supply", "derating"];
+const STAGE_PRIORITY = [
+  "engine",
+  "thermal",
+  "chain",
+  "timing",
+  "duty",
+  "load",
+  "peak",
+  "protection",
+  "supply",
+  "derating",
+];
 
 export const CHECK_WORDS: Record<string, string> = {
-  power: "power", voltage: "voltage", current: "current", tj: "junction temperature", vgs: "gate voltage",
-  peak: "start-up peak current", soa: "safe operating area", i2t: "I²t",
+  power: "power",
+  voltage: "voltage",
+  current: "current",
+  tj: "junction temperature",
+  vgs: "gate voltage",
+  peak: "start-up peak current",
+  soa: "safe operating area",
+  i2t: "I²t",
 };
 
 /** A failing check as one sentence. */
@@ -45,15 +62,31 @@ export function decideVerdict(inp: VerdictInput): Verdict {
     .map(({ p }): VerdictBlock => ({ kind: "problem", rule: p.rule, path: p.path, message: p.message }));
   const checkBlocks = inp.checks
     .filter((c) => c.verdict === "fail")
-    .map((c): VerdictBlock => ({ kind: "check", rule: `check-${c.quantity}`, path: `/parts/${c.ref}`, message: checkMessage(c) }));
+    .map((c): VerdictBlock => ({
+      kind: "check",
+      rule: `check-${c.quantity}`,
+      path: `/parts/${c.ref}`,
+      message: checkMessage(c),
+    }));
   const blocking = [...problemBlocks, ...checkBlocks];
   const lead = inp.lead !== undefined ? `${inp.lead}: ` : "";
   if (blocking.length > 0) {
-    const more = blocking.length > 1 ? ` (and ${blocking.length - 1} more blocking item${blocking.length > 2 ? "s" : ""})` : "";
-    return { status: "not-feasible", blocking, conditions: [...inp.conditions], summary: `${lead}${blocking[0]!.message}${more}` };
+    const more =
+      blocking.length > 1 ? ` (and ${blocking.length - 1} more blocking item${blocking.length > 2 ? "s" : ""})` : "";
+    return {
+      status: "not-feasible",
+      blocking,
+      conditions: [...inp.conditions],
+      summary: `${lead}${blocking[0]!.message}${more}`,
+    };
   }
   if (inp.conditions.length > 0) {
-    return { status: "conditional", blocking: [], conditions: [...inp.conditions], summary: `Feasible with conditions: ${inp.conditions.map((c) => c.text).join("; ")}.` };
+    return {
+      status: "conditional",
+      blocking: [],
+      conditions: [...inp.conditions],
+      summary: `Feasible with conditions: ${inp.conditions.map((c) => c.text).join("; ")}.`,
+    };
   }
   return { status: "feasible", blocking: [], conditions: [], summary: "Feasible: every check passes at worst case." };
 }

@@ -23,7 +23,10 @@ export interface Envelope {
   potTol: number;
   cTol: number;
 }
-export interface Range { lo: number; hi: number }
+export interface Range {
+  lo: number;
+  hi: number;
+}
 export interface WorstCase {
   f: Range;
   dMin: Range;
@@ -35,7 +38,13 @@ export interface WorstCase {
 
 /** +1: upper end of the tolerance, −1: lower end, 0: both ends (swept). */
 type Dir = 1 | -1 | 0;
-interface Fixed { kEndA: Dir; kEndB: Dir; kPot: Dir; kCA: Dir; kCB: Dir }
+interface Fixed {
+  kEndA: Dir;
+  kEndB: Dir;
+  kPot: Dir;
+  kCA: Dir;
+  kCB: Dir;
+}
 
 const ends = (d: Dir): number[] => (d === 0 ? [-1, 1] : [d]);
 
@@ -100,7 +109,14 @@ export function envelopeCorners(e: Envelope): Record<keyof typeof SETS, Corner[]
 export type CornerSets = ReturnType<typeof envelopeCorners>;
 
 /** Highest (sign +1) or lowest (−1) load duty over a corner set at one control position. */
-export function dutyExtreme(v: CoreValues, q: BjtClass, db: DiodeClass, set: Corner[], ctrl: number, sign: 1 | -1): number {
+export function dutyExtreme(
+  v: CoreValues,
+  q: BjtClass,
+  db: DiodeClass,
+  set: Corner[],
+  ctrl: number,
+  sign: 1 | -1,
+): number {
   let best = sign > 0 ? -Infinity : Infinity;
   for (const k of set) {
     const d = evalCore(v, q, db, k, ctrl).duty;
@@ -118,17 +134,23 @@ export function worstCaseFast(v: CoreValues, q: BjtClass, db: DiodeClass, s: Cor
   const duty = (set: Corner[], ctrl: number, x: Range): void => {
     for (const k of set) {
       const e = evalCore(v, q, db, k, ctrl);
-      x.lo = Math.min(x.lo, e.duty); x.hi = Math.max(x.hi, e.duty);
+      x.lo = Math.min(x.lo, e.duty);
+      x.hi = Math.max(x.hi, e.duty);
       if (e.dtTh_s === null) reached = false;
     }
   };
-  duty(s.dMinHi, 0, w.dMin); duty(s.dMinLo, 0, w.dMin);
-  duty(s.dMaxHi, 1, w.dMax); duty(s.dMaxLo, 1, w.dMax);
-  duty(s.dMidHi, 0.5, w.dMid); duty(s.dMidLo, 0.5, w.dMid);
-  for (const ctrl of [0, 0.5, 1]) for (const k of [...s.fLo, ...s.fHi]) {
-    const e = evalCore(v, q, db, k, ctrl);
-    w.f.lo = Math.min(w.f.lo, e.f_Hz); w.f.hi = Math.max(w.f.hi, e.f_Hz);
-  }
+  duty(s.dMinHi, 0, w.dMin);
+  duty(s.dMinLo, 0, w.dMin);
+  duty(s.dMaxHi, 1, w.dMax);
+  duty(s.dMaxLo, 1, w.dMax);
+  duty(s.dMidHi, 0.5, w.dMid);
+  duty(s.dMidLo, 0.5, w.dMid);
+  for (const ctrl of [0, 0.5, 1])
+    for (const k of [...s.fLo, ...s.fHi]) {
+      const e = evalCore(v, q, db, k, ctrl);
+      w.f.lo = Math.min(w.f.lo, e.f_Hz);
+      w.f.hi = Math.max(w.f.hi, e.f_Hz);
+    }
   // Side A's off time is shortest at control 0, side B's at control 1.
   for (const k of s.rec) {
     const a = evalCore(v, q, db, k, 0).timing;
@@ -144,9 +166,16 @@ export function worstCaseBrute(v: CoreValues, q: BjtClass, db: DiodeClass, all: 
   const w = { f: r(), dMin: r(), dMid: r(), dMax: r() };
   let recovery = 0;
   let reached = true;
-  const put = (x: Range, y: number): void => { x.lo = Math.min(x.lo, y); x.hi = Math.max(x.hi, y); };
+  const put = (x: Range, y: number): void => {
+    x.lo = Math.min(x.lo, y);
+    x.hi = Math.max(x.hi, y);
+  };
   for (const k of all) {
-    for (const [ctrl, d] of [[0, w.dMin], [0.5, w.dMid], [1, w.dMax]] as const) {
+    for (const [ctrl, d] of [
+      [0, w.dMin],
+      [0.5, w.dMid],
+      [1, w.dMax],
+    ] as const) {
       const e = evalCore(v, q, db, k, ctrl);
       put(w.f, e.f_Hz);
       put(d, e.duty);

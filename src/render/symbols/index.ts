@@ -7,8 +7,23 @@ import { nmos, npn, pmos, pnp } from "./transistors.ts";
 import type { SymbolDef } from "./types.ts";
 
 export const SYMBOLS = {
-  resistor, potentiometer, capacitor, "capacitor-polarised": capacitorPolarised, fuse,
-  diode, zener, led, npn, pnp, nmos, pmos, motor, lamp, heater, "led-strip": ledStrip, solenoid,
+  resistor,
+  potentiometer,
+  capacitor,
+  "capacitor-polarised": capacitorPolarised,
+  fuse,
+  diode,
+  zener,
+  led,
+  npn,
+  pnp,
+  nmos,
+  pmos,
+  motor,
+  lamp,
+  heater,
+  "led-strip": ledStrip,
+  solenoid,
 } as const satisfies Record<PartKind, SymbolDef>;
 
 export type { Box, SymbolDef } from "./types.ts";

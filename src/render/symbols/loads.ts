@@ -13,7 +13,8 @@ export const motor: SymbolDef = {
   draw(g) {
     g.line(0, -30, 0, -16);
     g.circle(32).center(0, 0);
-    g.element("text").words("M")
+    g.element("text")
+      .words("M")
       .attr({ x: 0, y: 6, stroke: "none", "font-size": 16, "text-anchor": "middle", "font-weight": "bold", fill: INK });
     g.line(0, 16, 0, 30);
   },

@@ -40,7 +40,12 @@ function mosFrame(g: G): void {
   g.circle(38).center(2, 0);
   g.line(-30, 0, -11, 0);
   g.line(-11, -11, -11, 11);
-  for (const [y1, y2] of [[-14, -7], [-3, 3], [7, 14]] as const) g.line(-5, y1, -5, y2).stroke({ width: 3 });
+  for (const [y1, y2] of [
+    [-14, -7],
+    [-3, 3],
+    [7, 14],
+  ] as const)
+    g.line(-5, y1, -5, y2).stroke({ width: 3 });
   g.line(-5, -11, 10, -11);
   g.line(10, -11, 10, -30);
   g.line(-5, 11, 10, 11);

@@ -36,5 +36,6 @@ export function arrowHead(g: G, from: [number, number], to: [number, number], si
   const bx = to[0] - ux * size;
   const by = to[1] - uy * size;
   g.polygon([to[0], to[1], bx - uy * size * 0.5, by + ux * size * 0.5, bx + uy * size * 0.5, by - ux * size * 0.5])
-    .fill(INK).stroke({ width: 1.5 });
+    .fill(INK)
+    .stroke({ width: 1.5 });
 }

@@ -32,7 +32,9 @@ export function pickVectors(
     const key = name.toLowerCase();
     const col = columns.get(key) ?? columns.get(`i(${key})`);
     if (col === undefined) {
-      throw new SpiceRunError(`vector ${name} missing from the engine's results (got: ${[...columns.keys()].join(", ")})`);
+      throw new SpiceRunError(
+        `vector ${name} missing from the engine's results (got: ${[...columns.keys()].join(", ")})`,
+      );
     }
     out[name] = col;
   }

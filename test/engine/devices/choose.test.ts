@@ -58,9 +58,12 @@ describe("chooseDevices: defaults by current and voltage", () => {
     [0.5, "npn-medium"],
     // 0.36 A: TO-18 free air 0.36 A × 0.47 V... and Darlington 0.15 A × 1.5 V = 0.23 W × 437.5 = 100 K → 145 °C → TO-220.
     [2, "npn-power-to220"],
-  ])("driver_npn for a %s A load → %s (highest minimum gain among the classes whose ratings fit; common practice)", (load, id) => {
-    expect(chooseDevices(record(20e3), lib, 12, load).driver_npn.id).toBe(id);
-  });
+  ])(
+    "driver_npn for a %s A load → %s (highest minimum gain among the classes whose ratings fit; common practice)",
+    (load, id) => {
+      expect(chooseDevices(record(20e3), lib, 12, load).driver_npn.id).toBe(id);
+    },
+  );
 
   it("picks the high-gain small-signal class for a light driver duty (0.3 A: 0.054 A ≤ 75 mA; β_min ≈ 230 vs 2N3904 ≈ 75)", () => {
     expect(chooseDevices(record(20e3), lib, 12, 0.3).driver_npn.id).toBe("npn-small-signal-high-gain");
@@ -77,7 +80,9 @@ describe("chooseDevices: defaults by current and voltage", () => {
   });
 
   it("a record's binding wins over the default", () => {
-    expect(chooseDevices(record(20e3, { power_npn: "npn-power-to3" }), lib, 12, 0.1).power_npn.id).toBe("npn-power-to3");
+    expect(chooseDevices(record(20e3, { power_npn: "npn-power-to3" }), lib, 12, 0.1).power_npn.id).toBe(
+      "npn-power-to3",
+    );
   });
 
   it("a missing or wrong-family class is engine misuse, naming the id", () => {

@@ -11,13 +11,16 @@ const validateDevice = ajv.compile(readJson(join(ROOT, "designs", "schema", "dev
 const validatePolicy = ajv.compile(readJson(join(ROOT, "designs", "schema", "derating.schema.json")) as object);
 
 describe("device library files", () => {
-  it.each(deviceFiles())("%s validates against designs/schema/device.schema.json and its id is its file name", (file) => {
-    const data = readJson(join(DEVICE_DIR, file));
-    const ok = validateDevice(data);
-    expect(validateDevice.errors ?? [], file).toEqual([]);
-    expect(ok).toBe(true);
-    expect((data as DeviceClass).id + ".json").toBe(file);
-  });
+  it.each(deviceFiles())(
+    "%s validates against designs/schema/device.schema.json and its id is its file name",
+    (file) => {
+      const data = readJson(join(DEVICE_DIR, file));
+      const ok = validateDevice(data);
+      expect(validateDevice.errors ?? [], file).toEqual([]);
+      expect(ok).toBe(true);
+      expect((data as DeviceClass).id + ".json").toBe(file);
+    },
+  );
 
   it("holds every class the default chooser may name", () => {
     const lib = readLibrary();
@@ -28,7 +31,8 @@ describe("device library files", () => {
     for (const d of readLibrary().values()) {
       if (isBjt(d)) {
         for (let i = 1; i < d.hfe.length; i++) expect(d.hfe[i]!.ic_A, d.id).toBeGreaterThan(d.hfe[i - 1]!.ic_A);
-        for (let i = 1; i < d.vce_sat.length; i++) expect(d.vce_sat[i]!.ic_A, d.id).toBeGreaterThan(d.vce_sat[i - 1]!.ic_A);
+        for (let i = 1; i < d.vce_sat.length; i++)
+          expect(d.vce_sat[i]!.ic_A, d.id).toBeGreaterThan(d.vce_sat[i - 1]!.ic_A);
       }
       if (isMosfet(d)) expect(d.vgs_th_V.min).toBeLessThan(d.vgs_th_V.max);
     }
@@ -54,7 +58,14 @@ describe("device library files", () => {
 describe("registered values match the registered data of generic types (seen in reproductions) [src:jedec-registered]", () => {
   it("2N3904 class: V_CEO 40 V, V_EBO 6.0 V, I_C 200 mA, P_tot 625 mW at T_A 25 °C, h_FE ≥ 100 at 10 mA and ≥ 30 at 100 mA, T_J 150 °C", () => {
     const q = bjt("npn-small-signal");
-    expect([q.vceo_V, q.vebo_V, q.ic_max_A, q.ptot_W, q.ptot_at, q.tj_max_C]).toEqual([40, 6, 0.2, 0.625, "ambient", 150]);
+    expect([q.vceo_V, q.vebo_V, q.ic_max_A, q.ptot_W, q.ptot_at, q.tj_max_C]).toEqual([
+      40,
+      6,
+      0.2,
+      0.625,
+      "ambient",
+      150,
+    ]);
     expect(q.hfe.find((p) => p.ic_A === 0.01)?.min).toBe(100);
     expect(q.hfe.find((p) => p.ic_A === 0.1)?.min).toBe(30);
     expect(q.rth_ja_KperW).toBe(200); // TO-92 still-air θ_JA ≈ 200 K/W [src:package-theta-ja]
@@ -63,13 +74,27 @@ describe("registered values match the registered data of generic types (seen in 
   it("2N2222A class: V_CEO 40 V, V_EBO 6 V, I_C 800 mA, P_tot 400 mW, V_CE(sat) 0.3 V at 150/15 mA and 1.0 V at 500/50 mA", () => {
     const q = bjt("npn-medium");
     expect([q.vceo_V, q.vebo_V, q.ic_max_A, q.ptot_W]).toEqual([40, 6, 0.8, 0.4]);
-    expect(q.vce_sat.map((p) => [p.ic_A, p.ib_A, p.vce_sat_V])).toEqual([[0.15, 0.015, 0.3], [0.5, 0.05, 1.0]]);
+    expect(q.vce_sat.map((p) => [p.ic_A, p.ib_A, p.vce_sat_V])).toEqual([
+      [0.15, 0.015, 0.3],
+      [0.5, 0.05, 1.0],
+    ]);
   });
 
   it("2N3055 class: V_CEO 60 V, V_EBO 7 V, I_C 15 A, P_tot 115 W at T_C 25 °C, θ_JC 1.52 K/W, h_FE ≥ 20 at 4 A and ≥ 5 at 10 A, V_CE(sat) 1.1 V at 4 A/0.4 A, T_J 200 °C", () => {
     const q = bjt("npn-power-to3");
-    expect([q.vceo_V, q.vebo_V, q.ic_max_A, q.ptot_W, q.ptot_at, q.rth_jc_KperW, q.tj_max_C]).toEqual([60, 7, 15, 115, "case", 1.52, 200]);
-    expect(q.hfe.map((p) => [p.ic_A, p.min])).toEqual([[4, 20], [10, 5]]);
+    expect([q.vceo_V, q.vebo_V, q.ic_max_A, q.ptot_W, q.ptot_at, q.rth_jc_KperW, q.tj_max_C]).toEqual([
+      60,
+      7,
+      15,
+      115,
+      "case",
+      1.52,
+      200,
+    ]);
+    expect(q.hfe.map((p) => [p.ic_A, p.min])).toEqual([
+      [4, 20],
+      [10, 5],
+    ]);
     expect(q.vce_sat[0]).toMatchObject({ ic_A: 4, ib_A: 0.4, vce_sat_V: 1.1 });
   });
 
@@ -100,7 +125,10 @@ describe("derating policy file", () => {
   });
 
   it("the schema rejects a factor above 1 and a missing rule", () => {
-    const p = readJson(join(ROOT, "designs", "policies", "default.json")) as { bjt: { power: { factor: number } }; zener?: unknown };
+    const p = readJson(join(ROOT, "designs", "policies", "default.json")) as {
+      bjt: { power: { factor: number } };
+      zener?: unknown;
+    };
     expect(validatePolicy({ ...p, bjt: { ...p.bjt, power: { ...p.bjt.power, factor: 1.5 } } })).toBe(false);
     const { zener: _z, ...noZener } = p;
     expect(validatePolicy(noZener)).toBe(false);

@@ -13,7 +13,9 @@ export function readJson(path: string): unknown {
 }
 
 export function deviceFiles(): string[] {
-  return readdirSync(DEVICE_DIR).filter((f) => f.endsWith(".json")).sort();
+  return readdirSync(DEVICE_DIR)
+    .filter((f) => f.endsWith(".json"))
+    .sort();
 }
 
 export function readLibrary(): DeviceLibrary {

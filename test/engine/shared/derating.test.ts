@@ -11,11 +11,18 @@ describe("the default policy carries the published factors (docs/sources.md)", (
     expect([policy.bjt.power.factor, policy.bjt.voltage.factor, policy.bjt.current.factor]).toEqual([0.5, 0.75, 0.75]);
   });
   it("MOSFET: drain voltage 0.6, drain current 0.6, V_GS 0.7 (MIL-DTL-917 Table XIX, seen)", () => {
-    expect([policy.mosfet.voltage.factor, policy.mosfet.current.factor, policy.mosfet.vgs.factor]).toEqual([0.6, 0.6, 0.7]);
+    expect([policy.mosfet.voltage.factor, policy.mosfet.current.factor, policy.mosfet.vgs.factor]).toEqual([
+      0.6, 0.6, 0.7,
+    ]);
     expect(policy.mosfet.vgs.confidence).toBe("seen");
   });
   it("diodes: I_F 50 %, V_R 70 %; resistors 60 % power; capacitors 60 % voltage (NASA EEE-INST-002, from memory)", () => {
-    expect([policy.diode.current.factor, policy.diode.voltage.factor, policy.resistor.power.factor, policy.capacitor.voltage.factor]).toEqual([0.5, 0.7, 0.6, 0.6]);
+    expect([
+      policy.diode.current.factor,
+      policy.diode.voltage.factor,
+      policy.resistor.power.factor,
+      policy.capacitor.voltage.factor,
+    ]).toEqual([0.5, 0.7, 0.6, 0.6]);
   });
   it("every recalled factor is marked from-memory, and marginal_above is 0.9", () => {
     expect(policy.bjt.power.confidence).toBe("from-memory");
@@ -44,7 +51,15 @@ describe("checkStress verdicts against the policy", () => {
 
   it("a 40 V V_CEO part at 26.4 V (24 V + 10 %) passes: ratio 0.66 ≤ 0.675", () => {
     const c = checkStress("Q_POWER", "voltage", 26.4, 40, "V", rule, policy.marginal_above);
-    expect(c).toMatchObject({ ref: "Q_POWER", quantity: "voltage", rating: 40, unit: "V", allowed: 0.75, verdict: "pass", source: rule.source });
+    expect(c).toMatchObject({
+      ref: "Q_POWER",
+      quantity: "voltage",
+      rating: 40,
+      unit: "V",
+      allowed: 0.75,
+      verdict: "pass",
+      source: rule.source,
+    });
     expect(c.ratio).toBeCloseTo(0.66, 12);
   });
 
@@ -55,7 +70,11 @@ describe("checkStress verdicts against the policy", () => {
   });
 
   it("takes stress by magnitude (a reverse voltage may arrive negative)", () => {
-    expect(checkStress("D_REVERSE", "voltage", -20, 100, "V", policy.diode.voltage, 0.9)).toMatchObject({ stress: 20, ratio: 0.2, verdict: "pass" });
+    expect(checkStress("D_REVERSE", "voltage", -20, 100, "V", policy.diode.voltage, 0.9)).toMatchObject({
+      stress: 20,
+      ratio: 0.2,
+      verdict: "pass",
+    });
   });
 
   it("verdictOf is monotonic in the ratio", () => {

@@ -1,8 +1,14 @@
 /** The diode law shared by the engine and the netlist's diode/LED cards (src/engine/shared/diode.ts). */
 import { describe, expect, it } from "vitest";
 import {
-  diodeClassLaw, diodeClassVf_V, diodeEmission, diodeSaturationCurrent_A, diodeSeriesCurrent_A, diodeVoltage_V,
-  LED_STRING_IS_A, ledStringLaw,
+  diodeClassLaw,
+  diodeClassVf_V,
+  diodeEmission,
+  diodeSaturationCurrent_A,
+  diodeSeriesCurrent_A,
+  diodeVoltage_V,
+  LED_STRING_IS_A,
+  ledStringLaw,
 } from "../../../src/engine/shared/diode.ts";
 import { NOMINAL_TEMP_C, VT_NOMINAL_V } from "../../../src/engine/shared/temperature.ts";
 import { expectClose } from "../../helpers/close.ts";
@@ -32,7 +38,12 @@ describe("diode classes: the law passes through V_F(max) at the test current (re
   it.each(LIB_DIODES)("$id: V_F = $vf_V V at $vf_at_A A; lower below it, −2 mV/K away from nominal", (d) => {
     expectClose(diodeClassVf_V(d, d.vf_at_A, NOMINAL_TEMP_C), d.vf_V, 1e-12);
     expect(diodeClassVf_V(d, d.vf_at_A / 100, NOMINAL_TEMP_C)).toBeLessThan(d.vf_V);
-    expectClose(diodeClassVf_V(d, d.vf_at_A, NOMINAL_TEMP_C + 50) - d.vf_V, -0.1, 1e-9, "−2 mV/K · 50 K (common practice)");
+    expectClose(
+      diodeClassVf_V(d, d.vf_at_A, NOMINAL_TEMP_C + 50) - d.vf_V,
+      -0.1,
+      1e-9,
+      "−2 mV/K · 50 K (common practice)",
+    );
     const law = diodeClassLaw(d);
     expect(law.rs_ohm).toBeGreaterThan(0);
   });

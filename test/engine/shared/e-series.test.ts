@@ -1,17 +1,29 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
-import { SERIES_MANTISSAS, SERIES_TOLERANCE, isInSeries, nearest, roundDown, roundUp, seriesBetween } from "../../../src/engine/shared/e-series.ts";
+import {
+  SERIES_MANTISSAS,
+  SERIES_TOLERANCE,
+  isInSeries,
+  nearest,
+  roundDown,
+  roundUp,
+  seriesBetween,
+} from "../../../src/engine/shared/e-series.ts";
 
 // IEC 60063:2015, Table 1 (E6, E12, E24), copied by hand ("seen in copies") [src:iec-60063].
-const TABLE1_E24 = [1.0, 1.1, 1.2, 1.3, 1.5, 1.6, 1.8, 2.0, 2.2, 2.4, 2.7, 3.0, 3.3, 3.6, 3.9, 4.3, 4.7, 5.1, 5.6, 6.2, 6.8, 7.5, 8.2, 9.1];
+const TABLE1_E24 = [
+  1.0, 1.1, 1.2, 1.3, 1.5, 1.6, 1.8, 2.0, 2.2, 2.4, 2.7, 3.0, 3.3, 3.6, 3.9, 4.3, 4.7, 5.1, 5.6, 6.2, 6.8, 7.5, 8.2,
+  9.1,
+];
 const TABLE1_E12 = [1.0, 1.2, 1.5, 1.8, 2.2, 2.7, 3.3, 3.9, 4.7, 5.6, 6.8, 8.2];
 const TABLE1_E6 = [1.0, 1.5, 2.2, 3.3, 4.7, 6.8];
 // IEC 60063:2015, Table 2, E96 — written out from memory (the list every resistor catalogue prints).
 const TABLE2_E96 = [
-  100, 102, 105, 107, 110, 113, 115, 118, 121, 124, 127, 130, 133, 137, 140, 143, 147, 150, 154, 158, 162, 165, 169, 174,
-  178, 182, 187, 191, 196, 200, 205, 210, 215, 221, 226, 232, 237, 243, 249, 255, 261, 267, 274, 280, 287, 294, 301, 309,
-  316, 324, 332, 340, 348, 357, 365, 374, 383, 392, 402, 412, 422, 432, 442, 453, 464, 475, 487, 499, 511, 523, 536, 549,
-  562, 576, 590, 604, 619, 634, 649, 665, 681, 698, 715, 732, 750, 768, 787, 806, 825, 845, 866, 887, 909, 931, 953, 976,
+  100, 102, 105, 107, 110, 113, 115, 118, 121, 124, 127, 130, 133, 137, 140, 143, 147, 150, 154, 158, 162, 165, 169,
+  174, 178, 182, 187, 191, 196, 200, 205, 210, 215, 221, 226, 232, 237, 243, 249, 255, 261, 267, 274, 280, 287, 294,
+  301, 309, 316, 324, 332, 340, 348, 357, 365, 374, 383, 392, 402, 412, 422, 432, 442, 453, 464, 475, 487, 499, 511,
+  523, 536, 549, 562, 576, 590, 604, 619, 634, 649, 665, 681, 698, 715, 732, 750, 768, 787, 806, 825, 845, 866, 887,
+  909, 931, 953, 976,
 ];
 
 describe("IEC 60063 series lists", () => {
@@ -34,7 +46,13 @@ describe("IEC 60063 series lists", () => {
   });
 
   it("each series is E(n) with n values per decade, strictly ascending, E6 ⊂ E12 ⊂ E24 (IEC 60063)", () => {
-    for (const [name, n] of [["E6", 6], ["E12", 12], ["E24", 24], ["E48", 48], ["E96", 96]] as const) {
+    for (const [name, n] of [
+      ["E6", 6],
+      ["E12", 12],
+      ["E24", 24],
+      ["E48", 48],
+      ["E96", 96],
+    ] as const) {
       const m = SERIES_MANTISSAS[name];
       expect(m.length).toBe(n);
       for (let i = 1; i < m.length; i++) expect(m[i]!).toBeGreaterThan(m[i - 1]!);
@@ -119,8 +137,17 @@ describe("snapping properties over many decades (fast-check)", () => {
   it("roundUp and roundDown are adjacent: their ratio never exceeds the largest step of the IEC 60063 table lists above", () => {
     const largestStep = (list: number[]) => Math.max(...list.map((x, i) => (list[i + 1] ?? list[0]! * 10) / x));
     const e48 = TABLE2_E96.filter((_, k) => k % 2 === 0);
-    const maxStep = { E6: largestStep(TABLE1_E6), E12: largestStep(TABLE1_E12), E24: largestStep(TABLE1_E24), E48: largestStep(e48), E96: largestStep(TABLE2_E96) };
+    const maxStep = {
+      E6: largestStep(TABLE1_E6),
+      E12: largestStep(TABLE1_E12),
+      E24: largestStep(TABLE1_E24),
+      E48: largestStep(e48),
+      E96: largestStep(TABLE2_E96),
+    };
     expect(maxStep.E12).toBeCloseTo(1.25, 12); // 1.2 → 1.5
-    fc.assert(fc.property(value, series, (v, s) => roundUp(v, s) / roundDown(v, s) <= maxStep[s] * (1 + 1e-12)), { numRuns: 2000 });
+    fc.assert(
+      fc.property(value, series, (v, s) => roundUp(v, s) / roundDown(v, s) <= maxStep[s] * (1 + 1e-12)),
+      { numRuns: 2000 },
+    );
   });
 });

@@ -8,7 +8,14 @@
  * The closed-form start-up integrals are derived; each is checked here against a numerical integral.
  */
 import { describe, expect, it } from "vitest";
-import { FUSE_FAMILIES, chooseFuse, clearingI2tMax_A2s, diodeSurgeI2t_A2s, fuseContinuousShare, prearcingI2tMin_A2s } from "../../../src/engine/shared/fuse.ts";
+import {
+  FUSE_FAMILIES,
+  chooseFuse,
+  clearingI2tMax_A2s,
+  diodeSurgeI2t_A2s,
+  fuseContinuousShare,
+  prearcingI2tMin_A2s,
+} from "../../../src/engine/shared/fuse.ts";
 import { capChargeI2t_A2s, limitedEvent, soaPulsePower_W, startI2t_A2s } from "../../../src/engine/shared/peaks.ts";
 import { expectClose } from "../../helpers/close.ts";
 
@@ -22,12 +29,16 @@ function integrate(f: (t: number) => number, t1: number, n = 200_000): number {
 
 describe("start-up integrals (derived, checked numerically)", () => {
   it("excess I²t of an exponential decay: 2·I_run·ΔI·τ + ΔI²·τ/2", () => {
-    const iRun = 1.225, iPk = 18.375, tau = 0.01;
+    const iRun = 1.225,
+      iPk = 18.375,
+      tau = 0.01;
     const num = integrate((t) => (iRun + (iPk - iRun) * Math.exp(-t / tau)) ** 2 - iRun ** 2, 20 * tau);
     expectClose(startI2t_A2s(iPk, iRun, tau), num, 1e-6, "closed form vs trapezoid");
   });
   it("capacitor charging through R: C·V²/(2R)", () => {
-    const c = 470e-6, v = 29.4, r = 0.1;
+    const c = 470e-6,
+      v = 29.4,
+      r = 0.1;
     const num = integrate((t) => (v / r) ** 2 * Math.exp((-2 * t) / (r * c)), 20 * r * c);
     expectClose(capChargeI2t_A2s(c, v, r), num, 1e-6, "closed form vs trapezoid");
   });
@@ -65,9 +76,18 @@ describe("fuse rules", () => {
 });
 
 describe("single-pulse SOA model", () => {
-  const pts = [{ t_s: 1e-4, p_W: 500 }, { t_s: 1e-3, p_W: 250 }, { t_s: 1e-2, p_W: 120 }];
+  const pts = [
+    { t_s: 1e-4, p_W: 500 },
+    { t_s: 1e-3, p_W: 250 },
+    { t_s: 1e-2, p_W: 120 },
+  ];
   it("interpolates log-log between points and holds the ends", () => {
-    expectClose(soaPulsePower_W(pts, Math.sqrt(1e-4 * 1e-3)), Math.sqrt(500 * 250), 1e-9, "geometric mean at the log midpoint");
+    expectClose(
+      soaPulsePower_W(pts, Math.sqrt(1e-4 * 1e-3)),
+      Math.sqrt(500 * 250),
+      1e-9,
+      "geometric mean at the log midpoint",
+    );
     expect(soaPulsePower_W(pts, 1e-5)).toBe(500);
     expect(soaPulsePower_W(pts, 1)).toBe(120);
   });

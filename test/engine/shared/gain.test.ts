@@ -27,7 +27,13 @@ describe("hfeMin: minimum gain from the class's gain points", () => {
   });
 
   it("never rises above the last point when the last segment rises", () => {
-    const rising: BjtClass = { ...q3904, hfe: [{ ic_A: 0.001, min: 50 }, { ic_A: 0.01, min: 100 }] };
+    const rising: BjtClass = {
+      ...q3904,
+      hfe: [
+        { ic_A: 0.001, min: 50 },
+        { ic_A: 0.01, min: 100 },
+      ],
+    };
     expect(hfeMin(rising, 1, 25)).toBe(100);
   });
 

@@ -5,7 +5,13 @@
  */
 import { describe, expect, it } from "vitest";
 import { rdsOn_ohm, rdsOnNominal_ohm, rdsSplit } from "../../../src/engine/shared/rdson.ts";
-import { millerChargeTest_C, mosfetCaps, plateauCharge_C, qgTestVdd_V, vthTyp_V } from "../../../src/engine/shared/gate-charge.ts";
+import {
+  millerChargeTest_C,
+  mosfetCaps,
+  plateauCharge_C,
+  qgTestVdd_V,
+  vthTyp_V,
+} from "../../../src/engine/shared/gate-charge.ts";
 import { expectClose } from "../../helpers/close.ts";
 import { LIB_MOSFETS } from "../../render/spice-library.ts";
 

@@ -6,19 +6,39 @@ import { expectClose } from "../../helpers/close.ts";
 
 describe("findRoot on known roots", () => {
   it("x² − 2 on [0, 2] → √2 to double precision", () => {
-    expectClose(findRoot((x) => x * x - 2, 0, 2), Math.SQRT2, 4e-16);
+    expectClose(
+      findRoot((x) => x * x - 2, 0, 2),
+      Math.SQRT2,
+      4e-16,
+    );
   });
   it("cos x − x on [0, 1] → 0.7390851332151607 (the Dottie number)", () => {
-    expectClose(findRoot((x) => Math.cos(x) - x, 0, 1), 0.7390851332151607, 1e-15);
+    expectClose(
+      findRoot((x) => Math.cos(x) - x, 0, 1),
+      0.7390851332151607,
+      1e-15,
+    );
   });
   it("x³ − 2x − 5 on [2, 3] → 2.0945514815423265 (Wallis's cubic, the classic test of Newton's method)", () => {
-    expectClose(findRoot((x) => x ** 3 - 2 * x - 5, 2, 3), 2.0945514815423265, 1e-15);
+    expectClose(
+      findRoot((x) => x ** 3 - 2 * x - 5, 2, 3),
+      2.0945514815423265,
+      1e-15,
+    );
   });
   it("e^x − 10 with the bracket given backwards ([5, 0]) → ln 10", () => {
-    expectClose(findRoot((x) => Math.exp(x) - 10, 5, 0), Math.LN10, 1e-15);
+    expectClose(
+      findRoot((x) => Math.exp(x) - 10, 5, 0),
+      Math.LN10,
+      1e-15,
+    );
   });
   it("a step function (no smooth root) still ends at the jump, like bisection", () => {
-    expectClose(findRoot((x) => (x < 0.3 ? -1 : 1), 0, 1), 0.3, 1e-12);
+    expectClose(
+      findRoot((x) => (x < 0.3 ? -1 : 1), 0, 1),
+      0.3,
+      1e-12,
+    );
   });
   it("a root at a bracket end is returned as is", () => {
     expect(findRoot((x) => x - 1, 1, 3)).toBe(1);

@@ -1,5 +1,11 @@
 import { describe, expect, it } from "vitest";
-import { coilAverage_A, coilRipple_A, coilRiseTime_s, coilStep_A, holdDuty } from "../../../src/engine/shared/solenoid.ts";
+import {
+  coilAverage_A,
+  coilRipple_A,
+  coilRiseTime_s,
+  coilStep_A,
+  holdDuty,
+} from "../../../src/engine/shared/solenoid.ts";
 import { expectClose } from "../../helpers/close.ts";
 
 describe("solenoid coil relations", () => {

@@ -47,7 +47,8 @@ describe("the registry", () => {
     for (const k of SOURCE_KEYS) {
       const s = SOURCES[k];
       expect(k, k).toMatch(SOURCE_KEY_PATTERN);
-      for (const field of [s.short, s.title, s.edition, s.where, s.note]) expect(field.trim().length, k).toBeGreaterThan(0);
+      for (const field of [s.short, s.title, s.edition, s.where, s.note])
+        expect(field.trim().length, k).toBeGreaterThan(0);
       expect(SURENESS as readonly string[], k).toContain(s.sureness);
       expect(CONFIDENCE as readonly string[], k).toContain(s.confidence);
       for (const v of s.values) expect(SURENESS as readonly string[], `${k}: ${v.item}`).toContain(v.sureness);

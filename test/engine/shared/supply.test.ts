@@ -26,7 +26,9 @@ describe("supply windows", () => {
   });
 
   it("a declared window wins over the chemistry; older records keep nominal ± tolerance", () => {
-    expect(supplyWindow({ battery: "lead-acid", windows: [{ nominal_V: 12, min_V: 11, max_V: 15.5 }], tolerance: 0.1 }, 12)).toMatchObject({ min_V: 11, max_V: 15.5, basis: "declared" });
+    expect(
+      supplyWindow({ battery: "lead-acid", windows: [{ nominal_V: 12, min_V: 11, max_V: 15.5 }], tolerance: 0.1 }, 12),
+    ).toMatchObject({ min_V: 11, max_V: 15.5, basis: "declared" });
     const old = supplyWindow({ tolerance: 0.15 }, 24);
     expect(old.basis).toBe("tolerance");
     expect(old.min_V).toBeCloseTo(20.4, 12);
@@ -40,6 +42,11 @@ describe("supply windows", () => {
 
   it("windowContains is the closed interval", () => {
     const w = { min_V: 10.5, max_V: 14.7 };
-    expect([windowContains(w, 10.5), windowContains(w, 14.7), windowContains(w, 18), windowContains(w, 10.4)]).toEqual([true, true, false, false]);
+    expect([windowContains(w, 10.5), windowContains(w, 14.7), windowContains(w, 18), windowContains(w, 10.4)]).toEqual([
+      true,
+      true,
+      false,
+      false,
+    ]);
   });
 });

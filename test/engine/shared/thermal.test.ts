@@ -1,5 +1,11 @@
 import { describe, expect, it } from "vitest";
-import { NO_LIMIT_KperW, RTH_CS_KperW_BY_PACKAGE, heatsinkMax_KperW, junctionTemp_C, powerRatingAt_W } from "../../../src/engine/shared/thermal.ts";
+import {
+  NO_LIMIT_KperW,
+  RTH_CS_KperW_BY_PACKAGE,
+  heatsinkMax_KperW,
+  junctionTemp_C,
+  powerRatingAt_W,
+} from "../../../src/engine/shared/thermal.ts";
 import { expectClose } from "../../helpers/close.ts";
 import { bjt } from "../devices/read-library.ts";
 

@@ -1,5 +1,11 @@
 import { describe, expect, it } from "vitest";
-import { collectorThevenin, evaluateCore, halfPeriod_s, lnFactor, thresholdDelay_s } from "../../../src/engine/stages/astable.ts";
+import {
+  collectorThevenin,
+  evaluateCore,
+  halfPeriod_s,
+  lnFactor,
+  thresholdDelay_s,
+} from "../../../src/engine/stages/astable.ts";
 import { expectClose } from "../../helpers/close.ts";
 
 // Exact half-period t = R·C·ln((2Vcc − V_BE − V_CE(sat))/(Vcc − V_BE)) — Millman & Taub, Pulse,
@@ -38,7 +44,17 @@ describe("threshold delay Δt = τ·ln((V_high − V_sat)/(V_high − V_th)) (de
 });
 
 describe("evaluateCore", () => {
-  const base = { vcc_V: 12, vOn_V: 0.6, vSat_V: 0.1, rCA_ohm: 1000, rCB_ohm: 1000, cA_F: 1e-7, cB_F: 1e-7, rBA_ohm: 50_000, rBB_ohm: 50_000 };
+  const base = {
+    vcc_V: 12,
+    vOn_V: 0.6,
+    vSat_V: 0.1,
+    rCA_ohm: 1000,
+    rCB_ohm: 1000,
+    cA_F: 1e-7,
+    cB_F: 1e-7,
+    rBA_ohm: 50_000,
+    rBB_ohm: 50_000,
+  };
   it("unloaded, R_C ≪ R_B: T = 2·R_B·C·ln((2Vcc − V_BE − V_CE(sat))/(Vcc − V_BE)), 50 % duty", () => {
     const c = evaluateCore(base);
     // 2 · 50k · 100n · 0.71484 = 7.1484 ms (recovery e^(−t/τ) = e^(−35.7) negligible)

@@ -40,7 +40,10 @@ describe("Darlington saturation voltage V_CE(sat),1 + V_BE,2 [src:common-practic
     expect(plan.vSwMax_V).toBeGreaterThan(vceSat(d1, 1e-6) + vbeSat(d2, ctx.iMax_A) - 1e-9);
   });
   it("3-stage threshold ≈ 3·V_BE(on) at the tap (common practice: ≈ n·0.7 V)", () => {
-    const plan = planDarlington(makeContext(makeSpec({ supply_V: 12, load_A: 5, chain: "darlington-3", load_kind: "resistive", ...hg })), 3);
+    const plan = planDarlington(
+      makeContext(makeSpec({ supply_V: 12, load_A: 5, chain: "darlington-3", load_kind: "resistive", ...hg })),
+      3,
+    );
     expect(plan.need.kind === "base-current" && plan.need.vThreshold_V).toBeGreaterThan(3 * 0.6);
     expect(plan.need.kind === "base-current" && plan.need.vThreshold_V).toBeLessThan(3 * 0.8);
   });
@@ -48,7 +51,8 @@ describe("Darlington saturation voltage V_CE(sat),1 + V_BE,2 [src:common-practic
 
 describe("MOSFET R_DS(on) below the specified gate voltage (square law, derived)", () => {
   it("scales as (V_spec − V_th,max)/(V_GS − V_th,max) and never falls below the datasheet point", () => {
-    const d = makeSpec({ supply_V: 12, load_A: 1, chain: "mosfet-driver", load_kind: "resistive" }).devices.mosfet_standard;
+    const d = makeSpec({ supply_V: 12, load_A: 1, chain: "mosfet-driver", load_kind: "resistive" }).devices
+      .mosfet_standard;
     if (d.family !== "nmos") throw new Error("fixture");
     // nmos-standard: 0.04 Ω at 10 V, V_th max 4 V → at 9 V: 0.04·6/5 = 0.048 Ω
     expectClose(rdsOn_ohm(d, 9, false), 0.048, 1e-12);
@@ -57,7 +61,14 @@ describe("MOSFET R_DS(on) below the specified gate voltage (square law, derived)
 });
 
 describe("monotonicity: more current → more dissipation in the power device", () => {
-  const chains: SpecOpts["chain"][] = ["bjt-single", "darlington-2", "darlington-3", "bjt-driver-pnp", "mosfet-logic", "mosfet-driver"];
+  const chains: SpecOpts["chain"][] = [
+    "bjt-single",
+    "darlington-2",
+    "darlington-3",
+    "bjt-driver-pnp",
+    "mosfet-logic",
+    "mosfet-driver",
+  ];
   it.each(chains)("%s", (chain) => {
     const a = sizeVariant(makeSpec({ supply_V: 12, load_A: 0.5, chain, load_kind: "resistive", pwm_Hz: 1000, ...hg }));
     const b = sizeVariant(makeSpec({ supply_V: 12, load_A: 1, chain, load_kind: "resistive", pwm_Hz: 1000, ...hg }));
@@ -66,7 +77,11 @@ describe("monotonicity: more current → more dissipation in the power device", 
 });
 
 describe("polarity: ctrl 0 → minimum duty at the load, for inverting and non-inverting chains", () => {
-  it.each([["mosfet-logic", "ca", -1], ["mosfet-driver", "cb", 1], ["darlington-2", "ca", -1]] as const)("%s taps %s", (chain, tap, sign) => {
+  it.each([
+    ["mosfet-logic", "ca", -1],
+    ["mosfet-driver", "cb", 1],
+    ["darlington-2", "ca", -1],
+  ] as const)("%s taps %s", (chain, tap, sign) => {
     const s = sizeVariant(makeSpec({ supply_V: 12, load_A: 1, chain, load_kind: "resistive", pwm_Hz: 1000, ...hg }));
     expect(s.circuit?.tapNet).toBe(tap);
     expect(fig(s, "duty_min")).toBeLessThan(fig(s, "duty_mid"));
@@ -78,8 +93,12 @@ describe("polarity: ctrl 0 → minimum duty at the load, for inverting and non-i
 
 describe("switching loss shape by load kind (Rashid Ex. 4.2 ⅙ vs Mohan Eq. 2-6 ½)", () => {
   it("a motor (clamped inductive) is costed with ½·V·I·t·f, a heater with ⅙", () => {
-    const m = sizeVariant(makeSpec({ supply_V: 12, load_A: 1, chain: "mosfet-driver", load_kind: "motor", pwm_Hz: 1000, ...hg }));
-    const h = sizeVariant(makeSpec({ supply_V: 12, load_A: 1, chain: "mosfet-driver", load_kind: "resistive", pwm_Hz: 1000, ...hg }));
+    const m = sizeVariant(
+      makeSpec({ supply_V: 12, load_A: 1, chain: "mosfet-driver", load_kind: "motor", pwm_Hz: 1000, ...hg }),
+    );
+    const h = sizeVariant(
+      makeSpec({ supply_V: 12, load_A: 1, chain: "mosfet-driver", load_kind: "resistive", pwm_Hz: 1000, ...hg }),
+    );
     expect(m.figures.find((f) => f.key === "switching_loss")!.formula).toContain("½");
     expect(h.figures.find((f) => f.key === "switching_loss")!.formula).toContain("⅙");
   });

@@ -44,15 +44,18 @@ describe("the search keeps diode-protected cores within the injection limit", ()
     { supply_V: 24, load_A: 1, chain: "darlington-3", load_kind: "led", pwm_Hz: 4000, duty: [0.3, 0.9] },
     { supply_V: 12, load_A: 1, chain: "mosfet-driver", load_kind: "motor", pwm_Hz: 20_000 },
   ];
-  it.each(cases.map((o) => [`${o.supply_V} V ${o.chain} ${o.pwm_Hz} Hz`, o] as const))("%s: a passing design is within the limit", (_n, o) => {
-    const { ctx, plan, q, db } = setup(o);
-    const tap = designTap(ctx, plan);
-    expect(baseDiodesUsed(ctx, q, tap.rC_ohm)).toBe(true);
-    const t = designTiming(ctx, plan, tap);
-    const inj = injection(ctx, q, db, t.values);
-    if (t.search.passed) expect(inj).toBeLessThanOrEqual(INJECTION_MAX);
-    else expect(t.problems.some((p) => p.severity === "error")).toBe(true);
-  });
+  it.each(cases.map((o) => [`${o.supply_V} V ${o.chain} ${o.pwm_Hz} Hz`, o] as const))(
+    "%s: a passing design is within the limit",
+    (_n, o) => {
+      const { ctx, plan, q, db } = setup(o);
+      const tap = designTap(ctx, plan);
+      expect(baseDiodesUsed(ctx, q, tap.rC_ohm)).toBe(true);
+      const t = designTiming(ctx, plan, tap);
+      const inj = injection(ctx, q, db, t.values);
+      if (t.search.passed) expect(inj).toBeLessThanOrEqual(INJECTION_MAX);
+      else expect(t.problems.some((p) => p.severity === "error")).toBe(true);
+    },
+  );
   it("the 24 V, 20 kHz fan core is sized (it stopped in simulation with R_C 10 kΩ and C 150 pF)", () => {
     const { ctx, plan, q, db } = setup(cases[0]!);
     const t = designTiming(ctx, plan, designTap(ctx, plan));
@@ -68,7 +71,14 @@ describe("the search keeps diode-protected cores within the injection limit", ()
     expect(t.problems.map((p) => p.rule)).toContain("base-diode-injection");
   });
   it("without base diodes (protection not selected) the ratio is 0", () => {
-    const { ctx, plan, q, db } = setup({ supply_V: 12, load_A: 0.25, chain: "mosfet-driver", load_kind: "resistive", pwm_Hz: 1000, be: "none" });
+    const { ctx, plan, q, db } = setup({
+      supply_V: 12,
+      load_A: 0.25,
+      chain: "mosfet-driver",
+      load_kind: "resistive",
+      pwm_Hz: 1000,
+      be: "none",
+    });
     const tap = designTap(ctx, plan);
     expect(baseDiodesUsed(ctx, q, tap.rC_ohm)).toBe(false);
     expect(injection(ctx, q, db, designTiming(ctx, plan, tap).values)).toBe(0);
@@ -76,7 +86,11 @@ describe("the search keeps diode-protected cores within the injection limit", ()
 });
 
 describe("gate feed resistor R_G ≥ 0.1·R_C (ours, from simulation; gate stopper: common practice)", () => {
-  it.each([[12, 2], [24, 2], [24, 0.25]] as const)("%d V %d A mosfet-logic: R_G ≥ R_C/10 and R_C + R_G within the 2 %-of-period gate speed", (v, a) => {
+  it.each([
+    [12, 2],
+    [24, 2],
+    [24, 0.25],
+  ] as const)("%d V %d A mosfet-logic: R_G ≥ R_C/10 and R_C + R_G within the 2 %-of-period gate speed", (v, a) => {
     const { ctx, plan } = setup({ supply_V: v, load_A: a, chain: "mosfet-logic", load_kind: "motor", pwm_Hz: 2000 });
     const tap = designTap(ctx, plan);
     const rG = tap.info.rTap_ohm;

@@ -1,5 +1,8 @@
 import { describe, expect, it } from "vitest";
-import { recoveringTurnOnEquivalent_s, type RecoveringGateDrive } from "../../../src/engine/stages/chains/gate-recovery.ts";
+import {
+  recoveringTurnOnEquivalent_s,
+  type RecoveringGateDrive,
+} from "../../../src/engine/stages/chains/gate-recovery.ts";
 import { plateauAt_V, plateauTyp_V, rdsOnNominal_ohm } from "../../../src/engine/stages/chains/mosfet-common.ts";
 import { expectClose } from "../../helpers/close.ts";
 import { library } from "../fixtures.ts";
@@ -7,8 +10,17 @@ import type { MosfetClass } from "../../../src/model/device.ts";
 
 // Demo values of the 24 V valve driver (invented scenario): R_C 10 kΩ, C_T 820 pF, R_G 1 kΩ, R_GS 10 kΩ.
 const drive: RecoveringGateDrive = {
-  vHigh_V: 24, vStart_V: 0.1, rC_ohm: 10e3, cT_F: 820e-12, rG_ohm: 1e3, rGS_ohm: 10e3,
-  cIss_F: 1.2e-9, vTh_V: 1.75, vPlateau_V: 2.0, qPlateau_C: 7.2e-9, kind: "resistive",
+  vHigh_V: 24,
+  vStart_V: 0.1,
+  rC_ohm: 10e3,
+  cT_F: 820e-12,
+  rG_ohm: 1e3,
+  rGS_ohm: 10e3,
+  cIss_F: 1.2e-9,
+  vTh_V: 1.75,
+  vPlateau_V: 2.0,
+  qPlateau_C: 7.2e-9,
+  kind: "resistive",
 };
 // Settled plateau current from the Thevenin source V_high·R_GS/(R_C+R_G+R_GS) behind (R_C+R_G)∥R_GS.
 const iSettled_A = (24 - 2) / 11e3 - 2 / 10e3;
@@ -39,7 +51,7 @@ describe("turn-on from a recovering timing collector", () => {
     const r = recoveringTurnOnEquivalent_s({ ...drive, cT_F: 1e-18, kind: "clamped-inductive" })!;
     // ½·V·I·t per edge (Mohan, Undeland, Robbins, 3rd ed., Eq. 2-6, from memory): the plateau part alone gives Q/I.
     expect(r).toBeGreaterThan(7.2e-9 / iSettled_A);
-    expect(r).toBeLessThan(1.5 * 7.2e-9 / iSettled_A);
+    expect(r).toBeLessThan((1.5 * 7.2e-9) / iSettled_A);
   });
 
   it("returns null when the divided drive cannot lift the gate past the plateau", () => {
@@ -58,7 +70,7 @@ describe("plateau at the drain current", () => {
     const vto = plateauTyp_V(dev);
     const k = (rdsOnNominal_ohm(dev, vto + 1) - rdsOnNominal_ohm(dev, vto + 3)) / (1 - 1 / 3);
     const vp = plateauAt_V(dev, 0.5);
-    expectClose(((vp - vto) ** 2) / (2 * k), 0.5, 1e-9);
+    expectClose((vp - vto) ** 2 / (2 * k), 0.5, 1e-9);
     expect(plateauAt_V(dev, 2)).toBeGreaterThan(vp);
   });
 });

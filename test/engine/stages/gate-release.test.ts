@@ -29,6 +29,8 @@ describe("turn-on through a releasing driver (gate-release.ts)", () => {
   });
   it("rejects a zero gate current or a negative charge (engine misuse, no NaN passed on)", () => {
     expect(() => releasedTurnOnEquivalent_s({ ...base, iG_A: 0, tau_s: 1e-6, kind: "resistive" })).toThrow(/iG_A/);
-    expect(() => releasedTurnOnEquivalent_s({ ...base, qRise_C: -1, tau_s: 1e-6, kind: "clamped-inductive" })).toThrow(/qRise_C/);
+    expect(() => releasedTurnOnEquivalent_s({ ...base, qRise_C: -1, tau_s: 1e-6, kind: "clamped-inductive" })).toThrow(
+      /qRise_C/,
+    );
   });
 });

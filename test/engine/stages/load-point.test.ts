@@ -69,17 +69,23 @@ describe(`starved load: on-state current (motor: load voltage) below ${STARVED_F
 describe("nominal device dissipation uses nominal transition times (MOSFET chains)", () => {
   it("12 V 1 A mosfet-logic LED strip: conduction + ⅙·V·I·(t_on,nom + t_off,nom)·f (Rashid 4th ed. Ex. 4.2)", () => {
     const s = size({ supply_V: 12, load_A: 1, chain: "mosfet-logic", load_kind: "led" });
-    const iOn = fig(s, "load_current_on"), d = fig(s, "duty_max"), f = fig(s, "frequency_nominal");
+    const iOn = fig(s, "load_current_on"),
+      d = fig(s, "duty_max"),
+      f = fig(s, "frequency_nominal");
     const pCond = iOn * iOn * (fig(s, "switch_on_voltage") / 1) * d;
     const pNom = fig(s, "device_dissipation_nominal");
     const pSwNom = pNom - pCond;
     expect(pSwNom).toBeGreaterThan(0);
     // nominal transitions are faster than the worst case (higher gate drive, typical plateau),
     // so the nominal switching loss is below the worst-case one scaled to V_nom·I_on·f_nom.
-    const pSwWorstScaled = fig(s, "switching_loss") * (12 * iOn * f) / (13.2 * fig(s, "load_current_max") * s.figures.find((x) => x.key === "frequency_nominal")!.range![1]);
+    const pSwWorstScaled =
+      (fig(s, "switching_loss") * (12 * iOn * f)) /
+      (13.2 * fig(s, "load_current_max") * s.figures.find((x) => x.key === "frequency_nominal")!.range![1]);
     expect(pSwNom).toBeLessThan(pSwWorstScaled);
     // ... but not below the class's datasheet transition floor t_r + t_f (gateTimes never goes faster).
     const dev = s.spec.devices.mosfet_logic as { t_rise_s: number; t_fall_s: number };
-    expect(pSwNom).toBeGreaterThanOrEqual(switchingLoss_W(12, iOn, dev.t_rise_s, dev.t_fall_s, f, "resistive") * (1 - 1e-9));
+    expect(pSwNom).toBeGreaterThanOrEqual(
+      switchingLoss_W(12, iOn, dev.t_rise_s, dev.t_fall_s, f, "resistive") * (1 - 1e-9),
+    );
   });
 });

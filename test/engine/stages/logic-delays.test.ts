@@ -6,14 +6,24 @@ import { expectClose } from "../../helpers/close.ts";
 import { NPN_HIGH_GAIN, makeSpec } from "../fixtures.ts";
 
 // Demo: 24 V irrigation-valve motor, 0.25 A, logic MOSFET gate hung from the timing collector.
-const s = sizeVariant(makeSpec({ override: { timing_npn: NPN_HIGH_GAIN }, supply_V: 24, load_A: 0.25, chain: "mosfet-logic", load_kind: "motor" }));
+const s = sizeVariant(
+  makeSpec({
+    override: { timing_npn: NPN_HIGH_GAIN },
+    supply_V: 24,
+    load_A: 0.25,
+    chain: "mosfet-logic",
+    load_kind: "motor",
+  }),
+);
 const val = (role: string): number => s.circuit!.parts.find((p) => p.role === role)!.value;
 const fig = (k: string): number => s.figures.find((f) => f.key === k)!.value;
 
 describe("mosfet-logic edge delays for the nominal duty (first-order gate charge, derived)", () => {
   it("on: R_src·C_iss·ln(V_G/(V_G − V_p)) + ½·Q_pl·R_src/(V_G − V_p); off: R_off·C_iss·ln(V_G/V_p) + ½·Q_pl·R_off/V_p", () => {
     const dev = s.spec.devices.mosfet_logic as MosfetClass;
-    const rC = val("RC_A"), rG = val("RG"), rGS = val("RGS");
+    const rC = val("RC_A"),
+      rG = val("RG"),
+      rGS = val("RGS");
     const vG = (24 * rGS) / (rC + rG + rGS); // nominal supply through the divider
     const rSrc = ((rC + rG) * rGS) / (rC + rG + rGS);
     const rOff = (rG * rGS) / (rG + rGS);

@@ -20,37 +20,60 @@ import { NPN_HIGH_GAIN, type SpecOpts, makeSpec } from "../fixtures.ts";
 const sample: SpecOpts[] = [];
 for (const supply_V of [12, 24])
   for (const [chain, load_kind, pwm_Hz, load_A] of [
-    ["mosfet-driver", "motor", 20000, 2], ["mosfet-logic", "resistive", 200, 2], ["darlington-3", "led", 4000, 1],
-    ["darlington-2", "lamp", 1000, 0.5], ["bjt-driver-pnp", "resistive", 200, 0.5], ["mosfet-driver", "led", 3000, 3],
+    ["mosfet-driver", "motor", 20000, 2],
+    ["mosfet-logic", "resistive", 200, 2],
+    ["darlington-3", "led", 4000, 1],
+    ["darlington-2", "lamp", 1000, 0.5],
+    ["bjt-driver-pnp", "resistive", 200, 0.5],
+    ["mosfet-driver", "led", 3000, 3],
   ] as const)
-    sample.push({ supply_V, chain, load_kind, pwm_Hz, load_A, duty: [0.3, 0.9], override: { timing_npn: NPN_HIGH_GAIN } });
+    sample.push({
+      supply_V,
+      chain,
+      load_kind,
+      pwm_Hz,
+      load_A,
+      duty: [0.3, 0.9],
+      override: { timing_npn: NPN_HIGH_GAIN },
+    });
 
 describe("worst case at the provably extreme corners = brute force over all 512 corners", () => {
-  it.each(sample.map((o) => [`${o.supply_V} V ${o.chain} ${o.load_kind} ${o.pwm_Hz} Hz`, o] as const))("%s", (_name, o) => {
-    const spec = makeSpec(o);
-    const ctx = makeContext(spec);
-    const plan = CHAIN_PLANNERS[spec.chain](ctx);
-    const tap = designTap(ctx, plan);
-    const v = designTiming(ctx, plan, tap).values;
-    const q = spec.devices.timing_npn as BjtClass;
-    const db = spec.devices.signal_diode as DiodeClass;
-    const all = corners(ctx.vMin_V, ctx.vMax_V, ctx.taMin_C, ctx.taMax_C, ctx.rTol, POT_TOLERANCE, ctx.cTol);
-    const brute = worstCaseBrute(v, q, db, all);
-    const fast = worstCaseFast(v, q, db, envelopeCorners(envelopeOf(ctx)));
-    for (const k of ["f", "dMin", "dMid", "dMax"] as const) {
-      expectClose(fast[k].lo, brute[k].lo, 1e-12, `${k}.lo`);
-      expectClose(fast[k].hi, brute[k].hi, 1e-12, `${k}.hi`);
-    }
-    // Recovery (a warning figure, limit 5× for building): the base-diode V_F depends on the LARGER
-    // base resistance, a small coupling the shortcut does not bound exactly; measured ≤ 0.2 % low.
-    expectClose(fast.recovery, brute.recovery, 5e-3, "recovery (shortcut within 0.5 %)");
-    expect(fast.thresholdReached).toBe(brute.thresholdReached);
-  });
+  it.each(sample.map((o) => [`${o.supply_V} V ${o.chain} ${o.load_kind} ${o.pwm_Hz} Hz`, o] as const))(
+    "%s",
+    (_name, o) => {
+      const spec = makeSpec(o);
+      const ctx = makeContext(spec);
+      const plan = CHAIN_PLANNERS[spec.chain](ctx);
+      const tap = designTap(ctx, plan);
+      const v = designTiming(ctx, plan, tap).values;
+      const q = spec.devices.timing_npn as BjtClass;
+      const db = spec.devices.signal_diode as DiodeClass;
+      const all = corners(ctx.vMin_V, ctx.vMax_V, ctx.taMin_C, ctx.taMax_C, ctx.rTol, POT_TOLERANCE, ctx.cTol);
+      const brute = worstCaseBrute(v, q, db, all);
+      const fast = worstCaseFast(v, q, db, envelopeCorners(envelopeOf(ctx)));
+      for (const k of ["f", "dMin", "dMid", "dMax"] as const) {
+        expectClose(fast[k].lo, brute[k].lo, 1e-12, `${k}.lo`);
+        expectClose(fast[k].hi, brute[k].hi, 1e-12, `${k}.hi`);
+      }
+      // Recovery (a warning figure, limit 5× for building): the base-diode V_F depends on the LARGER
+      // base resistance, a small coupling the shortcut does not bound exactly; measured ≤ 0.2 % low.
+      expectClose(fast.recovery, brute.recovery, 5e-3, "recovery (shortcut within 0.5 %)");
+      expect(fast.thresholdReached).toBe(brute.thresholdReached);
+    },
+  );
 });
 
 describe("asymmetric end stops", () => {
   it("a 30–90 % range gets RB_A ≈ 3·RB_B (D_min ≈ R_A/ΣR, 1 − D_max ≈ R_B/ΣR; derived) and is met worst case", () => {
-    const spec = makeSpec({ supply_V: 24, load_A: 1, chain: "darlington-3", load_kind: "led", pwm_Hz: 4000, duty: [0.3, 0.9], override: { timing_npn: NPN_HIGH_GAIN } });
+    const spec = makeSpec({
+      supply_V: 24,
+      load_A: 1,
+      chain: "darlington-3",
+      load_kind: "led",
+      pwm_Hz: 4000,
+      duty: [0.3, 0.9],
+      override: { timing_npn: NPN_HIGH_GAIN },
+    });
     const ctx = makeContext(spec);
     const plan = CHAIN_PLANNERS[spec.chain](ctx);
     const t = designTiming(ctx, plan, designTap(ctx, plan));

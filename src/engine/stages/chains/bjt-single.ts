@@ -31,40 +31,112 @@ export function planBjtSingle(ctx: Ctx): ChainPlan {
   const iBleedMax = vClamp / (rBE * (1 - ctx.rTol));
   const vSwNom = vceSat(dev, ctx.iNom_A);
   const vSwMax = vceSat(dev, ctx.iMax_A);
-  const rbe = resistor("chain", "RBE", rBE, { a: "qb", b: "0" }, resistorPower_W(vClamp, rBE * (1 - ctx.rTol), 1), pol, "turn-off bleed");
-  const q = transistor("chain", "Q_POWER", dev, beta, { c: "sw", b: "qb", e: "0" }, { voltage_V: switchOffVoltage_V(ctx), current_A: ctx.iMax_A });
+  const rbe = resistor(
+    "chain",
+    "RBE",
+    rBE,
+    { a: "qb", b: "0" },
+    resistorPower_W(vClamp, rBE * (1 - ctx.rTol), 1),
+    pol,
+    "turn-off bleed",
+  );
+  const q = transistor(
+    "chain",
+    "Q_POWER",
+    dev,
+    beta,
+    { c: "sw", b: "qb", e: "0" },
+    { voltage_V: switchOffVoltage_V(ctx), current_A: ctx.iMax_A },
+  );
   return {
-    need: { kind: "base-current", i_A: iB_A + iBleedMax, vClamp_V: vClamp, vThreshold_V: vbeOn(dev, NOMINAL_TEMP_C), inverting: false },
+    need: {
+      kind: "base-current",
+      i_A: iB_A + iBleedMax,
+      vClamp_V: vClamp,
+      vThreshold_V: vbeOn(dev, NOMINAL_TEMP_C),
+      inverting: false,
+    },
     inputBleed_ohm: rBE,
     vSwNom_V: vSwNom,
     vSwMax_V: vSwMax,
     parts: [q, rbe.part],
     figures: [
-      figure("power_gain_min", "Power transistor minimum gain (cold, max current)", beta, "", "chain", "β_min(I_C,max, T_A,min) from the class's gain points, tempco applied", deviceSource(dev, "hfe")),
-      figure("power_base_current", "Power stage base current needed", iB_A, "A", "chain", "I_B = I_C,max / min(10, β_min/2)", "common-practice"),
+      figure(
+        "power_gain_min",
+        "Power transistor minimum gain (cold, max current)",
+        beta,
+        "",
+        "chain",
+        "β_min(I_C,max, T_A,min) from the class's gain points, tempco applied",
+        deviceSource(dev, "hfe"),
+      ),
+      figure(
+        "power_base_current",
+        "Power stage base current needed",
+        iB_A,
+        "A",
+        "chain",
+        "I_B = I_C,max / min(10, β_min/2)",
+        "common-practice",
+      ),
     ],
     problems: [...rbe.problems],
     checks: [...switchChecks(ctx, "Q_POWER", dev), ...rbe.checks],
     delays() {
-      return { on_s: dev.t_rise_s / 2, off_s: WEAK_TURNOFF_FACTOR * dev.t_storage_s + dev.t_fall_s / 2, note: "t_r/2 on; 2·t_s + t_f/2 off (no reverse base drive)" };
+      return {
+        on_s: dev.t_rise_s / 2,
+        off_s: WEAK_TURNOFF_FACTOR * dev.t_storage_s + dev.t_fall_s / 2,
+        note: "t_r/2 on; 2·t_s + t_f/2 off (no reverse base drive)",
+      };
     },
     finish(tap, op) {
-      const margin = (tap.iMin_A - iBleedMax) * beta / ctx.iMax_A;
       const pCond = conductionLossBjt_W(ctx.iMax_A, vSwMax, op.dutyMax);
-      const pSw = switchingLoss_W(switchedVoltage_V(ctx, ctx.vMax_V), ctx.iMax_A, dev.t_rise_s, dev.t_fall_s + dev.t_storage_s, op.fMax_Hz, ctx.switching);
+      const pSw = switchingLoss_W(
+        switchedVoltage_V(ctx, ctx.vMax_V),
+        ctx.iMax_A,
+        dev.t_rise_s,
+        dev.t_fall_s + dev.t_storage_s,
+        op.fMax_Hz,
+        ctx.switching,
+      );
       const pBase = conductionLossBjt_W(tap.iMax_A, vClamp, op.dutyMax);
       const p = pCond + pSw + pBase;
       return {
-        parts: [], problems: [], checks: [],
+        parts: [],
+        problems: [],
+        checks: [],
         figures: [
           driveMargin("power", "power transistor", tap.iMin_A - iBleedMax, ctx.iMax_A / beta),
-          figure("load_current_max", "Load current, worst case (max supply)", ctx.iMax_A, "A", "load", "I = (V_cc,max − V_f)/R_load (load model)", "derived"),
-          figure("conduction_loss", "Conduction loss, power device", pCond, "W", "chain", "P = I_C,max · V_CE(sat) · D_max", "common-practice"),
-          figure("switching_loss", "Switching loss, power device", pSw, "W", "chain", ctx.switching === "resistive" ? "P = ⅙·V·I·(t_r + t_s + t_f)·f" : "P = ½·V·I·(t_r + t_s + t_f)·f", ctx.switching === "resistive" ? "rashid-4e-ex4-2" : "mohan-3e-eq2-6"),
+          figure(
+            "load_current_max",
+            "Load current, worst case (max supply)",
+            ctx.iMax_A,
+            "A",
+            "load",
+            "I = (V_cc,max − V_f)/R_load (load model)",
+            "derived",
+          ),
+          figure(
+            "conduction_loss",
+            "Conduction loss, power device",
+            pCond,
+            "W",
+            "chain",
+            "P = I_C,max · V_CE(sat) · D_max",
+            "common-practice",
+          ),
+          figure(
+            "switching_loss",
+            "Switching loss, power device",
+            pSw,
+            "W",
+            "chain",
+            ctx.switching === "resistive" ? "P = ⅙·V·I·(t_r + t_s + t_f)·f" : "P = ½·V·I·(t_r + t_s + t_f)·f",
+            ctx.switching === "resistive" ? "rashid-4e-ex4-2" : "mohan-3e-eq2-6",
+          ),
         ],
         losses: [{ role: "Q_POWER", dev, family: "bjt", pCond_W: pCond + pBase, pSw_W: pSw, p_W: p, isPower: true }],
       };
     },
   };
 }
-

@@ -54,7 +54,10 @@ export function switchChecks(ctx: Ctx, role: PartRole, dev: BjtClass | MosfetCla
   return [
     checkStress(role, "voltage", switchOffVoltage_V(ctx), vRating, "V", fam.voltage, pol.marginal_above),
     checkStress(role, "current", ctx.iMax_A, iRating, "A", fam.current, pol.marginal_above),
-    { ...checkStress(role, "peak", peakCurrent_A(ctx), pulse, "A", peakRule, pol.marginal_above), what: "start-up peak current vs the pulse rating" },
+    {
+      ...checkStress(role, "peak", peakCurrent_A(ctx), pulse, "A", peakRule, pol.marginal_above),
+      what: "start-up peak current vs the pulse rating",
+    },
   ];
 }
 
@@ -74,7 +77,11 @@ export function needAtMinSupply(ctx: Ctx, vClamp_V: number, iAt: (supply_V: numb
 /** drive_margin_<stage>: base current provided (worst case) ÷ base current needed at minimum gain. */
 export function driveMargin(stageKey: string, what: string, provided_A: number, needed_A: number): Figure {
   return figure(
-    `drive_margin_${stageKey}`, `Drive margin, ${what}`, provided_A / needed_A, "", "chain",
+    `drive_margin_${stageKey}`,
+    `Drive margin, ${what}`,
+    provided_A / needed_A,
+    "",
+    "chain",
     "margin = I_B,provided(min supply, tolerances) ÷ (I_C,max / β_min(I_C, T_A,min))",
     "common-practice",
   );

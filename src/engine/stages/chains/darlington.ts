@@ -80,33 +80,96 @@ export function planDarlington(ctx: Ctx, n: 2 | 3): ChainPlan {
   const nom = stackCurrents(devs, ctx.iNom_A, rBE, NOMINAL_TEMP_C);
   const vSwMax = stackVoltage(devs, worst);
   const vSwNom = stackVoltageNominal(devs, nom);
-  const vClamp = devs.reduce((s, d, k) => s + vbeSat(d, Math.max(worst.ic[k]!, 1e-6)) + (vbeCold(d, ctx) - d.vbe_on_V), 0);
+  const vClamp = devs.reduce(
+    (s, d, k) => s + vbeSat(d, Math.max(worst.ic[k]!, 1e-6)) + (vbeCold(d, ctx) - d.vbe_on_V),
+    0,
+  );
   const vTh = devs.reduce((s, d) => s + vbeOn(d, NOMINAL_TEMP_C), 0);
   // Base current of the first stage, at minimum gain (cold), for the load current at each supply.
-  const ib1At = (v: number): number => stackCurrents(devs, loadCurrentAt_A(ctx, v), rBE * (1 - ctx.rTol), ctx.taMin_C).ib[0]!;
+  const ib1At = (v: number): number =>
+    stackCurrents(devs, loadCurrentAt_A(ctx, v), rBE * (1 - ctx.rTol), ctx.taMin_C).ib[0]!;
   const ib1Eq = needAtMinSupply(ctx, vClamp, ib1At);
   const lastBase = n === 2 ? "d2b" : "d3b";
-  const nets = n === 2 ? [["d1b", "d2b"], ["d2b", "0"]] : [["d1b", "d2b"], ["d2b", "d3b"], ["d3b", "0"]];
+  const nets =
+    n === 2
+      ? [
+          ["d1b", "d2b"],
+          ["d2b", "0"],
+        ]
+      : [
+          ["d1b", "d2b"],
+          ["d2b", "d3b"],
+          ["d3b", "0"],
+        ];
   const parts: Part[] = devs.map((d, k) =>
-    transistor("chain", STACK_ROLES[k]!, d, worst.beta[k], { c: "sw", b: nets[k]![0]!, e: nets[k]![1]! }, { voltage_V: switchOffVoltage_V(ctx), current_A: worst.ic[k]! }));
-  const rbe = resistor("chain", "RBE", rBE, { a: lastBase, b: "0" }, resistorPower_W(vbeCold(last, ctx), rBE * (1 - ctx.rTol), 1), pol, "bleed on the last base");
+    transistor(
+      "chain",
+      STACK_ROLES[k]!,
+      d,
+      worst.beta[k],
+      { c: "sw", b: nets[k]![0]!, e: nets[k]![1]! },
+      { voltage_V: switchOffVoltage_V(ctx), current_A: worst.ic[k]! },
+    ),
+  );
+  const rbe = resistor(
+    "chain",
+    "RBE",
+    rBE,
+    { a: lastBase, b: "0" },
+    resistorPower_W(vbeCold(last, ctx), rBE * (1 - ctx.rTol), 1),
+    pol,
+    "bleed on the last base",
+  );
   const checks = [...switchChecks(ctx, STACK_ROLES[n - 1]!, last), ...rbe.checks];
   // Inner stages: voltage and current against their own ratings.
   for (let k = 0; k < n - 1; k++) {
-    const r = switchChecks({ ...ctx, iMax_A: worst.ic[k]!, load: { ...ctx.load, peak_A: worst.ic[k]! * ctx.vNom_V / ctx.vMax_V } }, STACK_ROLES[k]!, devs[k]!);
+    const r = switchChecks(
+      { ...ctx, iMax_A: worst.ic[k]!, load: { ...ctx.load, peak_A: (worst.ic[k]! * ctx.vNom_V) / ctx.vMax_V } },
+      STACK_ROLES[k]!,
+      devs[k]!,
+    );
     checks.push(r[0]!, r[1]!);
   }
   // Output stage turn-off: no saturation charge, but its forward base charge I_C·τ_F (τ_F = 1/(2π f_T))
   // must leave through RBE at ≈ V_BE/RBE (charge control, derived); else 3 × t_f (from memory).
-  const tOffLast = last.ft_Hz !== undefined ? last.t_fall_s + (ctx.iMax_A / (2 * Math.PI * last.ft_Hz)) / worst.bleed_A : 3 * last.t_fall_s;
+  const tOffLast =
+    last.ft_Hz !== undefined
+      ? last.t_fall_s + ctx.iMax_A / (2 * Math.PI * last.ft_Hz) / worst.bleed_A
+      : 3 * last.t_fall_s;
   return {
-    need: { kind: "base-current", i_A: OVERDRIVE_K * ib1Eq, vClamp_V: vClamp, vThreshold_V: vTh, iEdge_A: ctx.switching === "clamped-inductive" ? nom.ib[0]! : nom.ib[0]! / 2, inverting: false },
-    vSwNom_V: vSwNom, vSwMax_V: vSwMax, parts: [...parts, rbe.part],
+    need: {
+      kind: "base-current",
+      i_A: OVERDRIVE_K * ib1Eq,
+      vClamp_V: vClamp,
+      vThreshold_V: vTh,
+      iEdge_A: ctx.switching === "clamped-inductive" ? nom.ib[0]! : nom.ib[0]! / 2,
+      inverting: false,
+    },
+    vSwNom_V: vSwNom,
+    vSwMax_V: vSwMax,
+    parts: [...parts, rbe.part],
     figures: [
-      figure("stack_gain_min", "Stack minimum gain (cold)", worst.beta.reduce((a, b) => a * b, 1), "", "chain", "β ≈ Π β_min,i (each at its stage current, T_A,min)", "common-practice"),
-      figure("turn_off_time", "Output stage turn-off time", tOffLast, "s", "chain", "t_off = t_f + (I_C/(2π f_T)) / (V_BE/R_BE)", "derived"),
+      figure(
+        "stack_gain_min",
+        "Stack minimum gain (cold)",
+        worst.beta.reduce((a, b) => a * b, 1),
+        "",
+        "chain",
+        "β ≈ Π β_min,i (each at its stage current, T_A,min)",
+        "common-practice",
+      ),
+      figure(
+        "turn_off_time",
+        "Output stage turn-off time",
+        tOffLast,
+        "s",
+        "chain",
+        "t_off = t_f + (I_C/(2π f_T)) / (V_BE/R_BE)",
+        "derived",
+      ),
     ],
-    problems: [...rbe.problems], checks,
+    problems: [...rbe.problems],
+    checks,
     delays() {
       // Clamped inductive load: on, the current rises fully (t_r) before the switch voltage falls;
       // off, the switch voltage (the measured edge) rises as soon as the stack
@@ -115,28 +178,80 @@ export function planDarlington(ctx: Ctx, n: 2 | 3): ChainPlan {
       // the current falls (the loss, not the edge). Resistive: the edge is the current's half-point,
       // after t_s,1 + half the charge-removal time (charge control; derived, checked against the
       // simulated 24 V pump in docs/method.md, "Darlington edges with a winding").
-      const off_s = ctx.switching === "clamped-inductive" ? devs[0]!.t_storage_s + last.t_fall_s / 2 : devs[0]!.t_storage_s + tOffLast / 2;
-      return { on_s: ctx.switching === "clamped-inductive" ? last.t_rise_s : last.t_rise_s / 2, off_s, note: ctx.switching === "clamped-inductive" ? "t_r on; t_s,1 + t_f/2 off (voltage edges of a winding)" : "t_r/2 on; t_s,1 + t_off/2 off" };
+      const off_s =
+        ctx.switching === "clamped-inductive"
+          ? devs[0]!.t_storage_s + last.t_fall_s / 2
+          : devs[0]!.t_storage_s + tOffLast / 2;
+      return {
+        on_s: ctx.switching === "clamped-inductive" ? last.t_rise_s : last.t_rise_s / 2,
+        off_s,
+        note:
+          ctx.switching === "clamped-inductive"
+            ? "t_r on; t_s,1 + t_f/2 off (voltage edges of a winding)"
+            : "t_r/2 on; t_s,1 + t_off/2 off",
+      };
     },
     finish(tap, op) {
       const losses: DeviceLoss[] = [];
       let vBelow = 0; // Σ V_BE of the stages after k
-      const pSw = switchingLoss_W(switchedVoltage_V(ctx, ctx.vMax_V), ctx.iMax_A, last.t_rise_s, tOffLast, op.fMax_Hz, ctx.switching);
+      const pSw = switchingLoss_W(
+        switchedVoltage_V(ctx, ctx.vMax_V),
+        ctx.iMax_A,
+        last.t_rise_s,
+        tOffLast,
+        op.fMax_Hz,
+        ctx.switching,
+      );
       for (let k = n - 1; k >= 0; k--) {
         const vce = vSwMax - vBelow;
         const pc = conductionLossBjt_W(worst.ic[k]!, Math.max(vce, 0), op.dutyMax);
         const sw = k === n - 1 ? pSw : 0;
-        losses.unshift({ role: STACK_ROLES[k]!, dev: devs[k]!, family: "bjt", pCond_W: pc, pSw_W: sw, p_W: pc + sw, isPower: k === n - 1 });
+        losses.unshift({
+          role: STACK_ROLES[k]!,
+          dev: devs[k]!,
+          family: "bjt",
+          pCond_W: pc,
+          pSw_W: sw,
+          p_W: pc + sw,
+          isPower: k === n - 1,
+        });
         vBelow += vbeSat(devs[k]!, Math.max(worst.ic[k]!, 1e-6));
       }
       const stackP = losses.reduce((s, l) => s + l.p_W, 0);
       return {
-        parts: [], problems: [], checks: [], losses,
+        parts: [],
+        problems: [],
+        checks: [],
+        losses,
         figures: [
           driveMargin("input", "stack input (Q_D1 base)", tap.iMin_A, ib1Eq),
-          figure("load_current_max", "Load current, worst case (max supply)", ctx.iMax_A, "A", "load", "I = (V_cc,max − V_f)/R_load (load model)", "derived"),
-          figure("conduction_loss", "Conduction loss, stack", stackP - pSw, "W", "chain", "P = Σ I_C,i · V_CE,i · D_max, V_CE,n = V_CE(sat),1 + Σ V_BE", "common-practice"),
-          figure("switching_loss", "Switching loss, output stage", pSw, "W", "chain", ctx.switching === "resistive" ? "P = ⅙·V·I·(t_r + t_off)·f" : "P = ½·V·I·(t_r + t_off)·f", ctx.switching === "resistive" ? "rashid-4e-ex4-2" : "mohan-3e-eq2-6"),
+          figure(
+            "load_current_max",
+            "Load current, worst case (max supply)",
+            ctx.iMax_A,
+            "A",
+            "load",
+            "I = (V_cc,max − V_f)/R_load (load model)",
+            "derived",
+          ),
+          figure(
+            "conduction_loss",
+            "Conduction loss, stack",
+            stackP - pSw,
+            "W",
+            "chain",
+            "P = Σ I_C,i · V_CE,i · D_max, V_CE,n = V_CE(sat),1 + Σ V_BE",
+            "common-practice",
+          ),
+          figure(
+            "switching_loss",
+            "Switching loss, output stage",
+            pSw,
+            "W",
+            "chain",
+            ctx.switching === "resistive" ? "P = ⅙·V·I·(t_r + t_off)·f" : "P = ½·V·I·(t_r + t_off)·f",
+            ctx.switching === "resistive" ? "rashid-4e-ex4-2" : "mohan-3e-eq2-6",
+          ),
           figure("stack_dissipation", "Dissipation in the whole stack", stackP, "W", "chain", "Σ P_i", "derived"),
         ],
       };

@@ -35,7 +35,15 @@ export function planDriverPnp(ctx: Ctx): ChainPlan {
   const rBPmax = (ctx.vMin_V - vEB - vceD) / (iCD * (1 + ctx.rTol));
   const problems = [];
   if (!(rBPmax > 0)) {
-    problems.push(problem("chain", "/parts/RB_P", "supply-too-low", "error", `The ${ctx.vMin_V.toFixed(1)} V minimum supply cannot drive the PNP base through its driver.`));
+    problems.push(
+      problem(
+        "chain",
+        "/parts/RB_P",
+        "supply-too-low",
+        "error",
+        `The ${ctx.vMin_V.toFixed(1)} V minimum supply cannot drive the PNP base through its driver.`,
+      ),
+    );
   }
   const rBP = rBPmax > 1 ? roundDown(rBPmax, "E24") : 1;
   const iRbpMax = (ctx.vMax_V - vbeOn(qp, ctx.taMax_C)) / (rBP * (1 - ctx.rTol));
@@ -68,20 +76,58 @@ export function planDriverPnp(ctx: Ctx): ChainPlan {
   // tap must rise until the driver sinks I/β_P + the pull-up's current (derived).
   const iEdge = inductive ? (ctx.iNom_A / betaPnom + iPUn) / betaDnom : undefined;
   return {
-    need: { kind: "base-current", i_A: iBD, vClamp_V: vClamp, vThreshold_V: vbeOn(qd, NOMINAL_TEMP_C), ...(iEdge === undefined ? {} : { iEdge_A: iEdge }), inverting: false },
-    vSwNom_V: vSwNom, vSwMax_V: vSwMax,
-    parts: [], figures: [
-      figure("power_gain_min", "Power PNP minimum gain (cold, max current)", betaP, "", "chain", "β_min(I_C,max, T_A,min)", deviceSource(qp, "hfe")),
-      figure("power_base_current", "Power PNP base current needed", iBP, "A", "chain", "I_B = I_C,max / min(10, β_min/2)", "common-practice"),
+    need: {
+      kind: "base-current",
+      i_A: iBD,
+      vClamp_V: vClamp,
+      vThreshold_V: vbeOn(qd, NOMINAL_TEMP_C),
+      ...(iEdge === undefined ? {} : { iEdge_A: iEdge }),
+      inverting: false,
+    },
+    vSwNom_V: vSwNom,
+    vSwMax_V: vSwMax,
+    parts: [],
+    figures: [
+      figure(
+        "power_gain_min",
+        "Power PNP minimum gain (cold, max current)",
+        betaP,
+        "",
+        "chain",
+        "β_min(I_C,max, T_A,min)",
+        deviceSource(qp, "hfe"),
+      ),
+      figure(
+        "power_base_current",
+        "Power PNP base current needed",
+        iBP,
+        "A",
+        "chain",
+        "I_B = I_C,max / min(10, β_min/2)",
+        "common-practice",
+      ),
       driveMargin("power", "power PNP (from the driver)", iRbpMin - iPU, ctx.iMax_A / betaP),
     ],
     problems,
     checks: [
       ...switchChecks(ctx, "Q_POWER", qp),
-      ...switchChecks({ ...ctx, iMax_A: iRbpMax, load: { ...ctx.load, peak_A: iRbpMax * ctx.vNom_V / ctx.vMax_V, inductive: false } }, "Q_DRV", qd).slice(0, 2),
+      ...switchChecks(
+        {
+          ...ctx,
+          iMax_A: iRbpMax,
+          load: { ...ctx.load, peak_A: (iRbpMax * ctx.vNom_V) / ctx.vMax_V, inductive: false },
+        },
+        "Q_DRV",
+        qd,
+      ).slice(0, 2),
     ],
     delays(tap) {
-      if (!inductive) return { on_s: qp.t_rise_s / 2, off_s: WEAK_TURNOFF_FACTOR * (qd.t_storage_s + qp.t_storage_s) + qp.t_fall_s / 2, note: "t_r/2 on; 2·(t_s,drv + t_s,pnp) + t_f/2 off" };
+      if (!inductive)
+        return {
+          on_s: qp.t_rise_s / 2,
+          off_s: WEAK_TURNOFF_FACTOR * (qd.t_storage_s + qp.t_storage_s) + qp.t_fall_s / 2,
+          note: "t_r/2 on; 2·(t_s,drv + t_s,pnp) + t_f/2 off",
+        };
       // Clamped winding: on, the current rises fully (t_r) before the voltage edge; off, the voltage
       // rises as soon as the stored charge is gone, the current falls after it at full voltage.
       // Storage by charge control (shared/storage.ts) at the nominal drive: the driver pulled out
@@ -90,31 +136,107 @@ export function planDriverPnp(ctx: Ctx): ChainPlan {
       const iBd1 = Math.max(0, (ctx.vNom_V - vClamp) / (tap.rC_ohm + tap.rTap_ohm));
       const tsD = storageTime_s(qd.t_storage_s, iBd1, vbeOn(qd, NOMINAL_TEMP_C) / tap.rTap_ohm, iRbpN, betaDnom);
       const tsP = storageTime_s(qp.t_storage_s, Math.max(0, iRbpN - iPUn), iPUn, ctx.iNom_A, betaPnom);
-      return { on_s: qp.t_rise_s, off_s: tsD + tsP, note: "t_r on; t_s,drv + t_s,pnp off (charge control, winding clamps the edges)" };
+      return {
+        on_s: qp.t_rise_s,
+        off_s: tsD + tsP,
+        note: "t_r on; t_s,drv + t_s,pnp off (charge control, winding clamps the edges)",
+      };
     },
     finish(tap, op) {
-      const rbp = resistor("chain", "RB_P", rBP, { a: "pbase", b: "drc" }, iRbpMax * iRbpMax * rBP * (1 + ctx.rTol) * op.dutyMax, pol, "sets the PNP base current");
-      const rpu = resistor("chain", "RPU", rPU, { a: "vbus", b: "pbase" }, (vEB * vEB) / (rPU * (1 - ctx.rTol)) * op.dutyMax, pol, "PNP turn-off pull-up");
-      const qDrv = transistor("chain", "Q_DRV", qd, betaD, { c: "drc", b: "drb", e: "0" }, { voltage_V: ctx.vMax_V, current_A: iRbpMax });
-      const qPow = transistor("chain", "Q_POWER", qp, betaP, { c: "sw", b: "pbase", e: "vbus" }, { voltage_V: off, current_A: ctx.iMax_A });
+      const rbp = resistor(
+        "chain",
+        "RB_P",
+        rBP,
+        { a: "pbase", b: "drc" },
+        iRbpMax * iRbpMax * rBP * (1 + ctx.rTol) * op.dutyMax,
+        pol,
+        "sets the PNP base current",
+      );
+      const rpu = resistor(
+        "chain",
+        "RPU",
+        rPU,
+        { a: "vbus", b: "pbase" },
+        ((vEB * vEB) / (rPU * (1 - ctx.rTol))) * op.dutyMax,
+        pol,
+        "PNP turn-off pull-up",
+      );
+      const qDrv = transistor(
+        "chain",
+        "Q_DRV",
+        qd,
+        betaD,
+        { c: "drc", b: "drb", e: "0" },
+        { voltage_V: ctx.vMax_V, current_A: iRbpMax },
+      );
+      const qPow = transistor(
+        "chain",
+        "Q_POWER",
+        qp,
+        betaP,
+        { c: "sw", b: "pbase", e: "vbus" },
+        { voltage_V: off, current_A: ctx.iMax_A },
+      );
       const pCond = conductionLossBjt_W(ctx.iMax_A, vSwMax, op.dutyMax) + conductionLossBjt_W(iRbpMax, vEB, op.dutyMax);
-      const pSw = switchingLoss_W(switchedVoltage_V(ctx, ctx.vMax_V), ctx.iMax_A, qp.t_rise_s, qp.t_fall_s + qp.t_storage_s, op.fMax_Hz, ctx.switching);
+      const pSw = switchingLoss_W(
+        switchedVoltage_V(ctx, ctx.vMax_V),
+        ctx.iMax_A,
+        qp.t_rise_s,
+        qp.t_fall_s + qp.t_storage_s,
+        op.fMax_Hz,
+        ctx.switching,
+      );
       // Nominal base drive: RB_P's current at V_nom less RPU's share, at the datasheet V_BE(sat).
       const vEBnom = vbeSat(qp, ctx.iNom_A);
       const iBnom = Math.max(0, (ctx.vNom_V - vEBnom - vceSat(qd, iCD)) / rBP - vEBnom / rPU);
       const baseNom_W = iBnom * vEBnom;
       const pDrv = conductionLossBjt_W(iRbpMax, vceD, op.dutyMax) + conductionLossBjt_W(tap.iMax_A, vClamp, op.dutyMax);
       return {
-        parts: [qDrv, rbp.part, rpu.part, qPow], problems: [...rbp.problems, ...rpu.problems], checks: [...rbp.checks, ...rpu.checks],
+        parts: [qDrv, rbp.part, rpu.part, qPow],
+        problems: [...rbp.problems, ...rpu.problems],
+        checks: [...rbp.checks, ...rpu.checks],
         losses: [
           { role: "Q_DRV", dev: qd, family: "bjt", pCond_W: pDrv, pSw_W: 0, p_W: pDrv, isPower: false },
-          { role: "Q_POWER", dev: qp, family: "bjt", pCond_W: pCond, pSw_W: pSw, p_W: pCond + pSw, isPower: true, pBaseNom_W: baseNom_W },
+          {
+            role: "Q_POWER",
+            dev: qp,
+            family: "bjt",
+            pCond_W: pCond,
+            pSw_W: pSw,
+            p_W: pCond + pSw,
+            isPower: true,
+            pBaseNom_W: baseNom_W,
+          },
         ],
         figures: [
           driveMargin("driver", "NPN driver", tap.iMin_A, ibdEq),
-          figure("load_current_max", "Load current, worst case (max supply)", ctx.iMax_A, "A", "load", "I = (V_cc,max − V_f)/R_load (load model)", "derived"),
-          figure("conduction_loss", "Conduction loss, power PNP", pCond, "W", "chain", "P = I_C,max · V_CE(sat) · D_max + I_B · V_EB · D_max", "common-practice"),
-          figure("switching_loss", "Switching loss, power PNP", pSw, "W", "chain", ctx.switching === "resistive" ? "P = ⅙·V·I·(t_r + t_s + t_f)·f" : "P = ½·V·I·(t_r + t_s + t_f)·f", ctx.switching === "resistive" ? "rashid-4e-ex4-2" : "mohan-3e-eq2-6"),
+          figure(
+            "load_current_max",
+            "Load current, worst case (max supply)",
+            ctx.iMax_A,
+            "A",
+            "load",
+            "I = (V_cc,max − V_f)/R_load (load model)",
+            "derived",
+          ),
+          figure(
+            "conduction_loss",
+            "Conduction loss, power PNP",
+            pCond,
+            "W",
+            "chain",
+            "P = I_C,max · V_CE(sat) · D_max + I_B · V_EB · D_max",
+            "common-practice",
+          ),
+          figure(
+            "switching_loss",
+            "Switching loss, power PNP",
+            pSw,
+            "W",
+            "chain",
+            ctx.switching === "resistive" ? "P = ⅙·V·I·(t_r + t_s + t_f)·f" : "P = ½·V·I·(t_r + t_s + t_f)·f",
+            ctx.switching === "resistive" ? "rashid-4e-ex4-2" : "mohan-3e-eq2-6",
+          ),
         ],
       };
     },

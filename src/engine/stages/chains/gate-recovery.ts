@@ -44,9 +44,17 @@ const MAX_STEPS = 2_000_000;
 /** Equivalent linear-ramp turn-on time, s; null when the drive never gets the gate across the plateau. */
 export function recoveringTurnOnEquivalent_s(d: RecoveringGateDrive): number | null {
   for (const [k, v] of Object.entries(d)) {
-    if (k !== "kind" && (typeof v !== "number" || !Number.isFinite(v) || (v < 0 && k !== "vStart_V"))) throw new EngineMisuseError(`gate-recovery: ${k} must be finite and ≥ 0, got ${String(v)}`);
+    if (k !== "kind" && (typeof v !== "number" || !Number.isFinite(v) || (v < 0 && k !== "vStart_V")))
+      throw new EngineMisuseError(`gate-recovery: ${k} must be finite and ≥ 0, got ${String(v)}`);
   }
-  if (!(d.vPlateau_V > d.vTh_V) || !(d.rC_ohm > 0) || !(d.rG_ohm > 0) || !(d.cT_F > 0) || !(d.cIss_F > 0) || !(d.qPlateau_C > 0)) {
+  if (
+    !(d.vPlateau_V > d.vTh_V) ||
+    !(d.rC_ohm > 0) ||
+    !(d.rG_ohm > 0) ||
+    !(d.cT_F > 0) ||
+    !(d.cIss_F > 0) ||
+    !(d.qPlateau_C > 0)
+  ) {
     throw new EngineMisuseError("gate-recovery: needs V_p > V_th and positive R_C, R_G, C_T, C_iss, Q_plateau");
   }
   const gGS = d.rGS_ohm === undefined || d.rGS_ohm === 0 ? 0 : 1 / d.rGS_ohm;

@@ -39,16 +39,25 @@ const STEPS = 400;
 function timeForCharge_s(q_C: number, iG_A: number, tau_s: number): number {
   const charge = (t: number): number => iG_A * (t - tau_s * (1 - Math.exp(-t / tau_s)));
   // Q(q/I + τ) ≥ q always, so [0, q/I + τ] brackets the root.
-  return findRoot((t) => charge(t) - q_C, 0, q_C / iG_A + tau_s, { xTolRel: 1e-12, what: "gate-release timeForCharge_s" });
+  return findRoot((t) => charge(t) - q_C, 0, q_C / iG_A + tau_s, {
+    xTolRel: 1e-12,
+    what: "gate-release timeForCharge_s",
+  });
 }
 
 /** Equivalent linear-ramp transition time, s (see the file comment). */
 export function releasedTurnOnEquivalent_s(e: ReleasedEdge): number {
   const { iG_A, tau_s, qRise_C, qPlateau_C, kind } = e;
-  for (const [k, v] of [["iG_A", iG_A], ["tau_s", tau_s], ["qPlateau_C", qPlateau_C]] as const) {
-    if (!Number.isFinite(v) || v <= 0) throw new EngineMisuseError(`gate-release: ${k} must be finite and > 0, got ${v}`);
+  for (const [k, v] of [
+    ["iG_A", iG_A],
+    ["tau_s", tau_s],
+    ["qPlateau_C", qPlateau_C],
+  ] as const) {
+    if (!Number.isFinite(v) || v <= 0)
+      throw new EngineMisuseError(`gate-release: ${k} must be finite and > 0, got ${v}`);
   }
-  if (!Number.isFinite(qRise_C) || qRise_C < 0) throw new EngineMisuseError(`gate-release: qRise_C must be finite and ≥ 0, got ${qRise_C}`);
+  if (!Number.isFinite(qRise_C) || qRise_C < 0)
+    throw new EngineMisuseError(`gate-release: qRise_C must be finite and ≥ 0, got ${qRise_C}`);
   const qRise = kind === "resistive" ? 0 : qRise_C; // resistive: current and voltage move together
   const tEnd = timeForCharge_s(qRise + qPlateau_C, iG_A, tau_s);
   const charge = (t: number): number => iG_A * (t - tau_s * (1 - Math.exp(-t / tau_s)));

@@ -5,7 +5,6 @@
  *   voltage, t ≈ Q_G · R / ΔV (common practice); never faster than the class's datasheet times.
  */
 import type { MosfetClass } from "../../../model/device.ts";
-import { EngineMisuseError } from "../../../model/errors.ts";
 import { plateau_V, plateauCharge_C, plateauTyp_V, vthTyp_V } from "../../shared/gate-charge.ts";
 import { rdsOnNominal_ohm } from "../../shared/rdson.ts";
 
@@ -21,7 +20,13 @@ export { rdsOn_ohm, rdsOnNominal_ohm, specVgs_V } from "../../shared/rdson.ts";
  * t_off = Q_pl·R_off/V_p; never faster than the datasheet t_r, t_f. Falls back to Q_G when the
  * class's data give no plateau charge.
  */
-export function gateTimesNominal(dev: MosfetClass, rOn_ohm: number, vDrive_V: number, rOff_ohm: number, vSwing_V: number): { tOn_s: number; tOff_s: number } {
+export function gateTimesNominal(
+  dev: MosfetClass,
+  rOn_ohm: number,
+  vDrive_V: number,
+  rOff_ohm: number,
+  vSwing_V: number,
+): { tOn_s: number; tOff_s: number } {
   const vp = plateauTyp_V(dev);
   const q = plateauCharge_C(dev, vSwing_V);
   const tOn = vDrive_V > vp ? (q * rOn_ohm) / (vDrive_V - vp) : dev.t_rise_s * 1e3;
@@ -30,7 +35,13 @@ export function gateTimesNominal(dev: MosfetClass, rOn_ohm: number, vDrive_V: nu
 }
 
 /** Turn-on and turn-off transition times through source/sink resistances (see file comment); worst case at the V_th,max plateau unless `vp` is given. */
-export function gateTimes(dev: MosfetClass, rOn_ohm: number, vDrive_V: number, rOff_ohm: number, vp: number = plateau_V(dev)): { tOn_s: number; tOff_s: number } {
+export function gateTimes(
+  dev: MosfetClass,
+  rOn_ohm: number,
+  vDrive_V: number,
+  rOff_ohm: number,
+  vp: number = plateau_V(dev),
+): { tOn_s: number; tOff_s: number } {
   const tOn = vDrive_V > vp ? (dev.qg_C * rOn_ohm) / (vDrive_V - vp) : dev.t_rise_s * 1e3;
   const tOff = (dev.qg_C * rOff_ohm) / vp;
   return { tOn_s: Math.max(dev.t_rise_s, tOn), tOff_s: Math.max(dev.t_fall_s, tOff) };

@@ -17,7 +17,16 @@ import { resistor, transistor, zener } from "../../../circuit/parts.ts";
 import { type Ctx, OVERDRIVE_K, switchedVoltage_V } from "../context.ts";
 import { driveMargin, switchChecks, switchOffVoltage_V, vbeCold } from "./common.ts";
 import { WEAK_TURNOFF_FACTOR } from "./bjt-single.ts";
-import { gateTimes, gateTimesNominal, plateau_V, plateauCharge_C, plateauTyp_V, rdsOn_ohm, rdsOnNominal_ohm, specVgs_V } from "./mosfet-common.ts";
+import {
+  gateTimes,
+  gateTimesNominal,
+  plateau_V,
+  plateauCharge_C,
+  plateauTyp_V,
+  rdsOn_ohm,
+  rdsOnNominal_ohm,
+  specVgs_V,
+} from "./mosfet-common.ts";
 import { releasedTurnOnEquivalent_s } from "./gate-release.ts";
 import type { ChainPlan } from "./types.ts";
 import { NOMINAL_TEMP_C } from "../../shared/temperature.ts";
@@ -84,35 +93,122 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
   const tNom = { tOn_s: Math.max(tNomDrive.tOn_s, tOnReleased), tOff_s: tNomDrive.tOff_s };
   const rds = rdsOn_ohm(mos, vgsMin, true);
   const problems = [];
-  if (vgsMin < vNeed) problems.push(problem("chain", "/parts/Q_POWER", "gate-drive-low", "warning", `The gate reaches only ${vgsMin.toFixed(2)} V at minimum supply, below the ${vNeed} V at which R_DS(on) is specified; R_DS(on) is estimated higher (${rds.toPrecision(3)} Ω hot).`, { limit: vNeed, actual: vgsMin, unit: "V" }));
+  if (vgsMin < vNeed)
+    problems.push(
+      problem(
+        "chain",
+        "/parts/Q_POWER",
+        "gate-drive-low",
+        "warning",
+        `The gate reaches only ${vgsMin.toFixed(2)} V at minimum supply, below the ${vNeed} V at which R_DS(on) is specified; R_DS(on) is estimated higher (${rds.toPrecision(3)} Ω hot).`,
+        { limit: vNeed, actual: vgsMin, unit: "V" },
+      ),
+    );
   const parts: Part[] = [
     transistor("chain", "Q_DRV", qd, betaD, { c: "drc", b: "drb", e: "0" }, { voltage_V: railMax, current_A: iCD }),
     transistor("chain", "Q_HI", qhi, betaHi, { c: rail, b: "drc", e: "pp" }, { voltage_V: railMax, current_A: iGpk }),
     transistor("chain", "Q_LO", qlo, betaLo, { c: "0", b: "drc", e: "pp" }, { voltage_V: railMax, current_A: iGpk }),
-    transistor("chain", "Q_POWER", mos, undefined, { d: "sw", g: "g", s: "0" }, { voltage_V: switchOffVoltage_V(ctx), current_A: ctx.iMax_A }),
+    transistor(
+      "chain",
+      "Q_POWER",
+      mos,
+      undefined,
+      { d: "sw", g: "g", s: "0" },
+      { voltage_V: switchOffVoltage_V(ctx), current_A: ctx.iMax_A },
+    ),
   ];
   return {
-    need: { kind: "base-current", i_A: iBD, vClamp_V: vClamp, vThreshold_V: vbeOn(qd, NOMINAL_TEMP_C), inverting: true },
+    need: {
+      kind: "base-current",
+      i_A: iBD,
+      vClamp_V: vClamp,
+      vThreshold_V: vbeOn(qd, NOMINAL_TEMP_C),
+      inverting: true,
+    },
     vSwNom_V: ctx.iNom_A * rdsOnNominal_ohm(mos, railNom - vbeHi),
     vSwMax_V: ctx.iMax_A * rds,
     parts,
     figures: [
-      figure("gate_voltage_min", "Gate voltage, worst case low", vgsMin, "V", "chain", useZener ? "V_GS = V_Z,min − V_BE(Q_HI, cold)" : "V_GS = V_cc,min − V_BE(Q_HI, cold)", "derived", [vgsMin, vgsMax]),
-      figure("switch_t_on", "Switch turn-on transition", t.tOn_s, "s", "chain", "t_on = Q_G·(R_G + R_P/β_HI)/(V_GS − V_plateau)", "common-practice"),
-      figure("switch_t_off", "Switch turn-off transition", t.tOff_s, "s", "chain", "t_off = Q_G·R_G/V_plateau", "common-practice"),
-      figure("rds_on_hot", "R_DS(on), hot, at the gate voltage reached", rds, "Ω", "chain", "R_DS(on),max(V_GS) × hot factor", deviceSource(mos, "rds_on_hot_factor")),
+      figure(
+        "gate_voltage_min",
+        "Gate voltage, worst case low",
+        vgsMin,
+        "V",
+        "chain",
+        useZener ? "V_GS = V_Z,min − V_BE(Q_HI, cold)" : "V_GS = V_cc,min − V_BE(Q_HI, cold)",
+        "derived",
+        [vgsMin, vgsMax],
+      ),
+      figure(
+        "switch_t_on",
+        "Switch turn-on transition",
+        t.tOn_s,
+        "s",
+        "chain",
+        "t_on = Q_G·(R_G + R_P/β_HI)/(V_GS − V_plateau)",
+        "common-practice",
+      ),
+      figure(
+        "switch_t_off",
+        "Switch turn-off transition",
+        t.tOff_s,
+        "s",
+        "chain",
+        "t_off = Q_G·R_G/V_plateau",
+        "common-practice",
+      ),
+      figure(
+        "rds_on_hot",
+        "R_DS(on), hot, at the gate voltage reached",
+        rds,
+        "Ω",
+        "chain",
+        "R_DS(on),max(V_GS) × hot factor",
+        deviceSource(mos, "rds_on_hot_factor"),
+      ),
     ],
     problems,
-    checks: [...switchChecks(ctx, "Q_POWER", mos), checkStress("Q_POWER", "vgs", vgsMax, mos.vgs_max_V, "V", pol.mosfet.vgs, pol.marginal_above)],
+    checks: [
+      ...switchChecks(ctx, "Q_POWER", mos),
+      checkStress("Q_POWER", "vgs", vgsMax, mos.vgs_max_V, "V", pol.mosfet.vgs, pol.marginal_above),
+    ],
     delays() {
-      return { on_s: WEAK_TURNOFF_FACTOR * qd.t_storage_s + t.tOn_s / 2, off_s: qd.t_rise_s + t.tOff_s / 2, note: "on: driver storage 2·t_s + t_on/2; off: driver t_r + t_off/2" };
+      return {
+        on_s: WEAK_TURNOFF_FACTOR * qd.t_storage_s + t.tOn_s / 2,
+        off_s: qd.t_rise_s + t.tOff_s / 2,
+        note: "on: driver storage 2·t_s + t_on/2; off: driver t_r + t_off/2",
+      };
     },
     finish(tap, op) {
       // RP and the driver conduct while the load is OFF; taken at 100 % of the time (conservative).
       const offFrac = 1;
-      const rp = resistor("chain", "RP", rP, { a: rail, b: "drc" }, (railMax * railMax) / (rP * (1 - ctx.rTol)) * offFrac, pol, "driver pull-up from the gate rail");
-      const rg = resistor("chain", "RG", rG, { a: "pp", b: "g" }, gateDrivePower_W(mos.qg_C, railMax, op.fMax_Hz), pol, "gate resistor");
-      const rgs = resistor("chain", "RGS", RGS_OHM, { a: "g", b: "0" }, (vgsMax * vgsMax) / (RGS_OHM * (1 - ctx.rTol)) * op.dutyMax, pol, "gate pull-down");
+      const rp = resistor(
+        "chain",
+        "RP",
+        rP,
+        { a: rail, b: "drc" },
+        ((railMax * railMax) / (rP * (1 - ctx.rTol))) * offFrac,
+        pol,
+        "driver pull-up from the gate rail",
+      );
+      const rg = resistor(
+        "chain",
+        "RG",
+        rG,
+        { a: "pp", b: "g" },
+        gateDrivePower_W(mos.qg_C, railMax, op.fMax_Hz),
+        pol,
+        "gate resistor",
+      );
+      const rgs = resistor(
+        "chain",
+        "RGS",
+        RGS_OHM,
+        { a: "g", b: "0" },
+        ((vgsMax * vgsMax) / (RGS_OHM * (1 - ctx.rTol))) * op.dutyMax,
+        pol,
+        "gate pull-down",
+      );
       const out = [rp, rg, rgs];
       const extra: Part[] = [];
       const checks = [];
@@ -123,33 +219,70 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
         const rZ = rZmax > 1 ? roundDown(rZmax, "E24") : 1;
         const iZmax = (ctx.vMax_V - railMin) / (rZ * (1 - ctx.rTol));
         const pZ = railMax * iZmax;
-        out.push(resistor("chain", "RZ", rZ, { a: "vbus", b: "vg" }, ((ctx.vMax_V - railMin) ** 2) / (rZ * (1 - ctx.rTol)), pol, "feeds the gate-rail zener"));
+        out.push(
+          resistor(
+            "chain",
+            "RZ",
+            rZ,
+            { a: "vbus", b: "vg" },
+            (ctx.vMax_V - railMin) ** 2 / (rZ * (1 - ctx.rTol)),
+            pol,
+            "feeds the gate-rail zener",
+          ),
+        );
         extra.push(zener("chain", "DZ", dz, { anode: "0", cathode: "vg" }, { power_W: pZ, current_A: iZmax }));
         checks.push(checkStress("DZ", "power", pZ, dz.pz_W, "W", pol.zener.power, pol.marginal_above));
-        if (!(rZmax > 1)) probs.push(problem("chain", "/parts/RZ", "zener-rail", "error", "The supply is too low above the zener voltage to feed the gate rail."));
+        if (!(rZmax > 1))
+          probs.push(
+            problem(
+              "chain",
+              "/parts/RZ",
+              "zener-rail",
+              "error",
+              "The supply is too low above the zener voltage to feed the gate rail.",
+            ),
+          );
       }
       // Nominal turn-off: Q_LO sinks the plateau charge with its base current taken from the driver,
       // which pulls only β_D·I_B − I_RP (I_B the tap's smallest current: the timing collector is
       // still recovering at the edge). The sink current grows from ≈ 0 over the plateau (the driver
       // comes out of cut-off through its Miller capacitance), so on average it is half of that:
       // t_off ≈ 2·Q_pl/I_sink (common practice for a linearly rising drive current).
-      const iSink_A = Math.min(plateauTyp_V(mos) / rG, hfeMin(qlo, iGpk, NOMINAL_TEMP_C) * Math.max(1e-6, hfeMin(qd, iCD, NOMINAL_TEMP_C) * tap.iMin_A - iRP));
+      const iSink_A = Math.min(
+        plateauTyp_V(mos) / rG,
+        hfeMin(qlo, iGpk, NOMINAL_TEMP_C) * Math.max(1e-6, hfeMin(qd, iCD, NOMINAL_TEMP_C) * tap.iMin_A - iRP),
+      );
       const tOffNom_s = Math.max(tNom.tOff_s, (2 * plateauCharge_C(mos, vSwingNom)) / iSink_A);
       const pCond = conductionLossMosfet_W(ctx.iMax_A, rds, op.dutyMax);
       // Worst case: the same release and sink limits at the cold minimum gains, lowest gate drive,
       // highest plateau and the largest drain swing; never shorter than the gate-charge times.
-      const vSwingMax = ctx.load.inductive ? switchOffVoltage_V(ctx) : Math.max(0.1 * ctx.vMax_V, ctx.vMax_V - ctx.load.vf_V);
+      const vSwingMax = ctx.load.inductive
+        ? switchOffVoltage_V(ctx)
+        : Math.max(0.1 * ctx.vMax_V, ctx.vMax_V - ctx.load.vf_V);
       const qPlMax = plateauCharge_C(mos, vSwingMax);
-      const tOnLoss = Math.max(t.tOn_s, releasedTurnOnEquivalent_s({
-        iG_A: Math.max(1e-9, (vgsMin - plateau_V(mos)) / rOn),
-        tau_s: (WEAK_TURNOFF_FACTOR * qd.t_storage_s) / Math.LN2,
-        qRise_C: mos.ciss_F * (plateau_V(mos) - plateauTyp_V(mos)),
-        qPlateau_C: qPlMax,
-        kind: ctx.switching,
-      }));
-      const iSinkMin_A = Math.min(plateauTyp_V(mos) / (rG * (1 + ctx.rTol)), betaLo * Math.max(1e-6, betaD * tap.iMin_A - iRP));
+      const tOnLoss = Math.max(
+        t.tOn_s,
+        releasedTurnOnEquivalent_s({
+          iG_A: Math.max(1e-9, (vgsMin - plateau_V(mos)) / rOn),
+          tau_s: (WEAK_TURNOFF_FACTOR * qd.t_storage_s) / Math.LN2,
+          qRise_C: mos.ciss_F * (plateau_V(mos) - plateauTyp_V(mos)),
+          qPlateau_C: qPlMax,
+          kind: ctx.switching,
+        }),
+      );
+      const iSinkMin_A = Math.min(
+        plateauTyp_V(mos) / (rG * (1 + ctx.rTol)),
+        betaLo * Math.max(1e-6, betaD * tap.iMin_A - iRP),
+      );
       const tOffLoss = Math.max(t.tOff_s, (2 * qPlMax) / iSinkMin_A);
-      const pSw = switchingLoss_W(switchedVoltage_V(ctx, ctx.vMax_V), ctx.iMax_A, tOnLoss, tOffLoss, op.fMax_Hz, ctx.switching);
+      const pSw = switchingLoss_W(
+        switchedVoltage_V(ctx, ctx.vMax_V),
+        ctx.iMax_A,
+        tOnLoss,
+        tOffLoss,
+        op.fMax_Hz,
+        ctx.switching,
+      );
       const pDrv = conductionLossBjt_W(iCD, vceSat(qd, iCD), 1) + conductionLossBjt_W(tap.iMax_A, vClamp, 1);
       return {
         parts: [...out.map((o) => o.part), ...extra],
@@ -157,14 +290,56 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
         checks: [...out.flatMap((o) => o.checks), ...checks],
         losses: [
           { role: "Q_DRV", dev: qd, family: "bjt", pCond_W: pDrv, pSw_W: 0, p_W: pDrv, isPower: false },
-          { role: "Q_POWER", dev: mos, family: "mosfet", pCond_W: pCond, pSw_W: pSw, p_W: pCond + pSw, isPower: true, tNom_s: { on: tNom.tOn_s, off: tOffNom_s } },
+          {
+            role: "Q_POWER",
+            dev: mos,
+            family: "mosfet",
+            pCond_W: pCond,
+            pSw_W: pSw,
+            p_W: pCond + pSw,
+            isPower: true,
+            tNom_s: { on: tNom.tOn_s, off: tOffNom_s },
+          },
         ],
         figures: [
           driveMargin("driver", "NPN driver", tap.iMin_A, iCD / betaD),
-          figure("gate_rail", "Gate rail voltage (nominal)", railNom, "V", "chain", useZener ? "V_g = V_Z (zener rail, RZ + DZ)" : "V_g = V_bus", useZener ? "device-class-typical" : "derived", [railMin, railMax]),
-          figure("load_current_max", "Load current, worst case (max supply)", ctx.iMax_A, "A", "load", "I = (V_cc,max − V_f)/R_load (load model)", "derived"),
-          figure("conduction_loss", "Conduction loss, power device", pCond, "W", "chain", "P = I_D,max² · R_DS(on),hot · D_max", "common-practice"),
-          figure("switching_loss", "Switching loss, power device", pSw, "W", "chain", `${ctx.switching === "resistive" ? "P = ⅙·V·I·(t_on + t_off)·f" : "P = ½·V·I·(t_on + t_off)·f"}; t_on: driver release (gate-release.ts), t_off: 2·Q_pl/I_sink`, ctx.switching === "resistive" ? "rashid-4e-ex4-2" : "mohan-3e-eq2-6"),
+          figure(
+            "gate_rail",
+            "Gate rail voltage (nominal)",
+            railNom,
+            "V",
+            "chain",
+            useZener ? "V_g = V_Z (zener rail, RZ + DZ)" : "V_g = V_bus",
+            useZener ? "device-class-typical" : "derived",
+            [railMin, railMax],
+          ),
+          figure(
+            "load_current_max",
+            "Load current, worst case (max supply)",
+            ctx.iMax_A,
+            "A",
+            "load",
+            "I = (V_cc,max − V_f)/R_load (load model)",
+            "derived",
+          ),
+          figure(
+            "conduction_loss",
+            "Conduction loss, power device",
+            pCond,
+            "W",
+            "chain",
+            "P = I_D,max² · R_DS(on),hot · D_max",
+            "common-practice",
+          ),
+          figure(
+            "switching_loss",
+            "Switching loss, power device",
+            pSw,
+            "W",
+            "chain",
+            `${ctx.switching === "resistive" ? "P = ⅙·V·I·(t_on + t_off)·f" : "P = ½·V·I·(t_on + t_off)·f"}; t_on: driver release (gate-release.ts), t_off: 2·Q_pl/I_sink`,
+            ctx.switching === "resistive" ? "rashid-4e-ex4-2" : "mohan-3e-eq2-6",
+          ),
         ],
       };
     },

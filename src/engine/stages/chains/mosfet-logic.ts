@@ -11,7 +11,16 @@ import { deviceSource } from "../../shared/sources.ts";
 import { transistor } from "../../../circuit/parts.ts";
 import { type Ctx, switchedVoltage_V } from "../context.ts";
 import { switchChecks, switchOffVoltage_V } from "./common.ts";
-import { gateTimes, gateTimesNominal, plateau_V, plateauAt_V, plateauCharge_C, plateauTyp_V, rdsOn_ohm, rdsOnNominal_ohm, specVgs_V } from "./mosfet-common.ts";
+import {
+  gateTimes,
+  gateTimesNominal,
+  plateauAt_V,
+  plateauCharge_C,
+  plateauTyp_V,
+  rdsOn_ohm,
+  rdsOnNominal_ohm,
+  specVgs_V,
+} from "./mosfet-common.ts";
 import { recoveringTurnOnEquivalent_s } from "./gate-recovery.ts";
 import type { ChainPlan } from "./types.ts";
 
@@ -22,10 +31,26 @@ export function planMosfetLogic(ctx: Ctx): ChainPlan {
   const rNom = rdsOn_ohm(dev, vNeed, false);
   const rHot = rdsOn_ohm(dev, vNeed, true);
   return {
-    need: { kind: "gate-voltage", vNeeded_V: vNeed, vMax_V: dev.vgs_max_V * pol.mosfet.vgs.factor, vThreshold_V: [dev.vgs_th_V.min, dev.vgs_th_V.max], cInput_F: dev.ciss_F, inverting: false },
+    need: {
+      kind: "gate-voltage",
+      vNeeded_V: vNeed,
+      vMax_V: dev.vgs_max_V * pol.mosfet.vgs.factor,
+      vThreshold_V: [dev.vgs_th_V.min, dev.vgs_th_V.max],
+      cInput_F: dev.ciss_F,
+      inverting: false,
+    },
     vSwNom_V: ctx.iNom_A * rNom,
     vSwMax_V: ctx.iMax_A * rHot,
-    parts: [transistor("chain", "Q_POWER", dev, undefined, { d: "sw", g: "g", s: "0" }, { voltage_V: switchOffVoltage_V(ctx), current_A: ctx.iMax_A })],
+    parts: [
+      transistor(
+        "chain",
+        "Q_POWER",
+        dev,
+        undefined,
+        { d: "sw", g: "g", s: "0" },
+        { voltage_V: switchOffVoltage_V(ctx), current_A: ctx.iMax_A },
+      ),
+    ],
     // R_DS(on) is shown in finish(), at the gate voltage the tap really reaches (the value the loss uses).
     figures: [],
     problems: [],
@@ -41,51 +66,161 @@ export function planMosfetLogic(ctx: Ctx): ChainPlan {
       const rGS = tap.rGS_ohm ?? 1e9;
       const rSrc = ((tap.rC_ohm + tap.rTap_ohm) * rGS) / (tap.rC_ohm + tap.rTap_ohm + rGS);
       const rOff = (tap.rTap_ohm * rGS) / (tap.rTap_ohm + rGS);
-      const vg = tap.rGS_ohm === undefined ? ctx.vNom_V : (ctx.vNom_V * tap.rGS_ohm) / (tap.rC_ohm + tap.rTap_ohm + tap.rGS_ohm);
+      const vg =
+        tap.rGS_ohm === undefined ? ctx.vNom_V : (ctx.vNom_V * tap.rGS_ohm) / (tap.rC_ohm + tap.rTap_ohm + tap.rGS_ohm);
       const vp = plateauAt_V(dev, ctx.iNom_A);
       // Plateau transits as gateTimesNominal, but at the plateau of the rated current (the same V_p as the lags).
       const q = plateauCharge_C(dev, ctx.vNom_V);
-      const t = { tOn_s: Math.max(dev.t_rise_s, vg > vp ? (q * rSrc) / (vg - vp) : dev.t_rise_s * 1e3), tOff_s: Math.max(dev.t_fall_s, (q * rOff) / vp) };
+      const t = {
+        tOn_s: Math.max(dev.t_rise_s, vg > vp ? (q * rSrc) / (vg - vp) : dev.t_rise_s * 1e3),
+        tOff_s: Math.max(dev.t_fall_s, (q * rOff) / vp),
+      };
       const lagOn = vg > vp ? rSrc * dev.ciss_F * Math.log(vg / (vg - vp)) : t.tOn_s;
       const lagOff = rOff * dev.ciss_F * Math.log(Math.max(vg / vp, 1));
-      return { on_s: lagOn + t.tOn_s / 2, off_s: lagOff + t.tOff_s / 2, note: "gate charge to the plateau R·C_iss·ln + half the plateau transit (nominal)" };
+      return {
+        on_s: lagOn + t.tOn_s / 2,
+        off_s: lagOff + t.tOff_s / 2,
+        note: "gate charge to the plateau R·C_iss·ln + half the plateau transit (nominal)",
+      };
     },
     finish(tap, op) {
       const [vgMin, vgMax] = tap.vGate_V ?? [vNeed, vNeed];
-      const rSrc = ((tap.rC_ohm + tap.rTap_ohm) * (tap.rGS_ohm ?? 1e9)) / (tap.rC_ohm + tap.rTap_ohm + (tap.rGS_ohm ?? 1e9));
+      const rSrc =
+        ((tap.rC_ohm + tap.rTap_ohm) * (tap.rGS_ohm ?? 1e9)) / (tap.rC_ohm + tap.rTap_ohm + (tap.rGS_ohm ?? 1e9));
       const rOff = (tap.rTap_ohm * (tap.rGS_ohm ?? 1e9)) / (tap.rTap_ohm + (tap.rGS_ohm ?? 1e9));
       const t = gateTimes(dev, rSrc, vgMin, rOff);
       // Nominal: the middle of the gate range reached, typical plateau (derived; for the nominal prediction).
       const tNomFlat = gateTimesNominal(dev, rSrc, (vgMin + vgMax) / 2, rOff, ctx.vNom_V);
       // Turn-on from the recovering collector (gate-recovery.ts) when the core is known: the gate
       // charges from a collector still rising through R_C·C_T, at the plateau of the rated current.
-      const tOnRec = op.core === undefined ? null : recoveringTurnOnEquivalent_s({
-        vHigh_V: ctx.vNom_V, vStart_V: op.core.vSat_V, rC_ohm: tap.rC_ohm, cT_F: op.core.c_F, rG_ohm: tap.rTap_ohm,
-        ...(tap.rGS_ohm === undefined ? {} : { rGS_ohm: tap.rGS_ohm }),
-        cIss_F: dev.ciss_F, vTh_V: plateauTyp_V(dev), vPlateau_V: plateauAt_V(dev, ctx.iNom_A),
-        qPlateau_C: plateauCharge_C(dev, ctx.vNom_V), kind: ctx.switching,
-      });
-      const tNom = { tOn_s: tOnRec === null ? tNomFlat.tOn_s : Math.max(dev.t_rise_s, tOnRec), tOff_s: tNomFlat.tOff_s };
+      const tOnRec =
+        op.core === undefined
+          ? null
+          : recoveringTurnOnEquivalent_s({
+              vHigh_V: ctx.vNom_V,
+              vStart_V: op.core.vSat_V,
+              rC_ohm: tap.rC_ohm,
+              cT_F: op.core.c_F,
+              rG_ohm: tap.rTap_ohm,
+              ...(tap.rGS_ohm === undefined ? {} : { rGS_ohm: tap.rGS_ohm }),
+              cIss_F: dev.ciss_F,
+              vTh_V: plateauTyp_V(dev),
+              vPlateau_V: plateauAt_V(dev, ctx.iNom_A),
+              qPlateau_C: plateauCharge_C(dev, ctx.vNom_V),
+              kind: ctx.switching,
+            });
+      const tNom = {
+        tOn_s: tOnRec === null ? tNomFlat.tOn_s : Math.max(dev.t_rise_s, tOnRec),
+        tOff_s: tNomFlat.tOff_s,
+      };
       const r = rdsOn_ohm(dev, vgMin, true);
       // Nominal gate voltage: the collector's high level through the divider, V_nom·R_GS/(R_C + R_G + R_GS).
-      const vgNom = tap.rGS_ohm === undefined ? ctx.vNom_V : (ctx.vNom_V * tap.rGS_ohm) / (tap.rC_ohm + tap.rTap_ohm + tap.rGS_ohm);
+      const vgNom =
+        tap.rGS_ohm === undefined ? ctx.vNom_V : (ctx.vNom_V * tap.rGS_ohm) / (tap.rC_ohm + tap.rTap_ohm + tap.rGS_ohm);
       const vSwNom_V = ctx.iNom_A * rdsOnNominal_ohm(dev, vgNom);
       const pCond = conductionLossMosfet_W(ctx.iMax_A, r, op.dutyMax);
-      const pSw = switchingLoss_W(switchedVoltage_V(ctx, ctx.vMax_V), ctx.iMax_A, t.tOn_s, t.tOff_s, op.fMax_Hz, ctx.switching);
+      const pSw = switchingLoss_W(
+        switchedVoltage_V(ctx, ctx.vMax_V),
+        ctx.iMax_A,
+        t.tOn_s,
+        t.tOff_s,
+        op.fMax_Hz,
+        ctx.switching,
+      );
       const problems = [];
-      if (vgMin < vNeed) problems.push(problem("chain", "/parts/Q_POWER", "gate-drive-low", "warning", `The gate reaches only ${vgMin.toFixed(2)} V at minimum supply, below the ${vNeed} V at which R_DS(on) is specified; R_DS(on) is estimated higher.`, { limit: vNeed, actual: vgMin, unit: "V" }));
+      if (vgMin < vNeed)
+        problems.push(
+          problem(
+            "chain",
+            "/parts/Q_POWER",
+            "gate-drive-low",
+            "warning",
+            `The gate reaches only ${vgMin.toFixed(2)} V at minimum supply, below the ${vNeed} V at which R_DS(on) is specified; R_DS(on) is estimated higher.`,
+            { limit: vNeed, actual: vgMin, unit: "V" },
+          ),
+        );
       return {
-        parts: [], problems, vSwNom_V,
+        parts: [],
+        problems,
+        vSwNom_V,
         checks: [checkStress("Q_POWER", "vgs", vgMax, dev.vgs_max_V, "V", pol.mosfet.vgs, pol.marginal_above)],
-        losses: [{ role: "Q_POWER", dev, family: "mosfet", pCond_W: pCond, pSw_W: pSw, p_W: pCond + pSw, isPower: true, tNom_s: { on: tNom.tOn_s, off: tNom.tOff_s } }],
+        losses: [
+          {
+            role: "Q_POWER",
+            dev,
+            family: "mosfet",
+            pCond_W: pCond,
+            pSw_W: pSw,
+            p_W: pCond + pSw,
+            isPower: true,
+            tNom_s: { on: tNom.tOn_s, off: tNom.tOff_s },
+          },
+        ],
         figures: [
-          figure("rds_on_hot", `R_DS(on), hot, at the gate voltage reached (${vgMin.toFixed(2)} V)`, r, "Ω", "chain", "R_DS(on),max(V_GS,min) × hot factor (the value the conduction loss uses)", deviceSource(dev, "rds_on_hot_factor")),
-          figure("gate_voltage_min", "Gate voltage, worst case low", vgMin, "V", "chain", "V_GS = V_C,high · R_GS/(R_G + R_GS), min supply, tolerances", "derived", [vgMin, vgMax]),
-          figure("switch_t_on", "Switch turn-on transition", t.tOn_s, "s", "chain", "t_on = Q_G·R_src/(V_GS − V_plateau)", "common-practice"),
-          figure("switch_t_off", "Switch turn-off transition", t.tOff_s, "s", "chain", "t_off = Q_G·R_sink/V_plateau", "common-practice"),
-          figure("load_current_max", "Load current, worst case (max supply)", ctx.iMax_A, "A", "load", "I = (V_cc,max − V_f)/R_load (load model)", "derived"),
-          figure("conduction_loss", "Conduction loss, power device", pCond, "W", "chain", "P = I_D,max² · R_DS(on),hot · D_max", "common-practice"),
-          figure("switching_loss", "Switching loss, power device", pSw, "W", "chain", ctx.switching === "resistive" ? "P = ⅙·V·I·(t_on + t_off)·f" : "P = ½·V·I·(t_on + t_off)·f", ctx.switching === "resistive" ? "rashid-4e-ex4-2" : "mohan-3e-eq2-6"),
+          figure(
+            "rds_on_hot",
+            `R_DS(on), hot, at the gate voltage reached (${vgMin.toFixed(2)} V)`,
+            r,
+            "Ω",
+            "chain",
+            "R_DS(on),max(V_GS,min) × hot factor (the value the conduction loss uses)",
+            deviceSource(dev, "rds_on_hot_factor"),
+          ),
+          figure(
+            "gate_voltage_min",
+            "Gate voltage, worst case low",
+            vgMin,
+            "V",
+            "chain",
+            "V_GS = V_C,high · R_GS/(R_G + R_GS), min supply, tolerances",
+            "derived",
+            [vgMin, vgMax],
+          ),
+          figure(
+            "switch_t_on",
+            "Switch turn-on transition",
+            t.tOn_s,
+            "s",
+            "chain",
+            "t_on = Q_G·R_src/(V_GS − V_plateau)",
+            "common-practice",
+          ),
+          figure(
+            "switch_t_off",
+            "Switch turn-off transition",
+            t.tOff_s,
+            "s",
+            "chain",
+            "t_off = Q_G·R_sink/V_plateau",
+            "common-practice",
+          ),
+          figure(
+            "load_current_max",
+            "Load current, worst case (max supply)",
+            ctx.iMax_A,
+            "A",
+            "load",
+            "I = (V_cc,max − V_f)/R_load (load model)",
+            "derived",
+          ),
+          figure(
+            "conduction_loss",
+            "Conduction loss, power device",
+            pCond,
+            "W",
+            "chain",
+            "P = I_D,max² · R_DS(on),hot · D_max",
+            "common-practice",
+          ),
+          figure(
+            "switching_loss",
+            "Switching loss, power device",
+            pSw,
+            "W",
+            "chain",
+            ctx.switching === "resistive" ? "P = ⅙·V·I·(t_on + t_off)·f" : "P = ½·V·I·(t_on + t_off)·f",
+            ctx.switching === "resistive" ? "rashid-4e-ex4-2" : "mohan-3e-eq2-6",
+          ),
         ],
       };
     },
