@@ -72,8 +72,9 @@ export async function runSize(root: string, args: string[], out: Out): Promise<n
 
   const data = { record: rec, devices: [...project.devices.values()], policy: project.policy };
   const r = sizeOwn(data, { supply_V, load_A, pwm_Hz, chain, load_kind }, { schematic: false });
-  // The flags were checked against the same limits above, so a refusal here is a gap between the two checks.
-  if (!r.ok) throw new Error(`size: inputs passed the CLI checks but not the engine's: ${r.errors.join(" ")}`);
+  // What the design's own limits refuse beyond the ranges checked above (a supply between two
+  // battery systems): the same words the design page's form shows.
+  if (!r.ok) throw new UsageError(`size: ${r.errors.join(" ")}`);
   const sized = r.sized;
   const spec = sized.spec;
   if (values.json) {

@@ -3,6 +3,7 @@
  * kind within the design's limits, through the very functions the build uses (expand → choose
  * devices → sizeVariant → renderVariantViews). Pure: bundled into the browser, called by tests on Node.
  */
+import { BATTERIES, batterySystem, batterySystemsText } from "../engine/shared/supply.ts";
 import type { DeratingPolicy } from "../model/derating.ts";
 import type { DesignRecord } from "../model/design.ts";
 import type { DeviceClass } from "../model/device.ts";
@@ -52,6 +53,23 @@ export function sizeOwnLimits(rec: DesignRecord): SizeOwnLimits {
   };
 }
 
+/**
+ * A record that names its battery chemistry covers only supplies inside one of that chemistry's
+ * systems (a 12 V lead-acid system spans 10.5–14.7 V): between two systems (18.5 V between a 12 V
+ * and a 24 V battery) there is no battery to size for. A supply the record states a window for is
+ * always accepted.
+ */
+function outsideBatteryWindows(rec: DesignRecord, supply_V: number): string | undefined {
+  const s = rec.supply;
+  if (s?.battery === undefined || !Number.isFinite(supply_V)) return undefined;
+  if (s.windows?.some((w) => Math.abs(w.nominal_V - supply_V) < 1e-9)) return undefined;
+  if (batterySystem(s.battery, supply_V) !== undefined) return undefined;
+  return (
+    `Supply voltage ${formatValue(supply_V, "V")} is not within a ${BATTERIES[s.battery].title} battery system ` +
+    `(${batterySystemsText(s.battery)}); this design runs from such a battery.`
+  );
+}
+
 export type SizeOwnResult = ({ ok: true; sized: SizedVariant } & VariantViews) | { ok: false; errors: string[] };
 
 export function sizeOwn(data: SizeOwnData, input: SizeOwnInput, opts: { schematic?: boolean } = {}): SizeOwnResult {
@@ -62,6 +80,8 @@ export function sizeOwn(data: SizeOwnData, input: SizeOwnInput, opts: { schemati
       errors.push(`${name} must be between ${formatValue(lo, unit)} and ${formatValue(hi, unit)} for this design.`);
   };
   inRange("Supply voltage", input.supply_V, lim.supply_V, "V");
+  const outside = outsideBatteryWindows(data.record, input.supply_V);
+  if (outside !== undefined) errors.push(outside);
   inRange("Load current", input.load_A, lim.load_A, "A");
   inRange("PWM frequency", input.pwm_Hz, lim.pwm_Hz, "Hz");
   if (!(lim.chains as string[]).includes(input.chain))

@@ -132,7 +132,7 @@ describe.skipIf(!CHROMIUM)("the published site in a browser", () => {
       const inputs = [
         { supply_V: 24, load_A: 2, pwm_Hz: d.record.targets.pwm_Hz, chain: chains[0]!, load_kind: "motor" as const },
         {
-          supply_V: 18.5,
+          supply_V: 13.2,
           load_A: 1.3,
           pwm_Hz: d.record.targets.pwm_Hz * 1.5,
           chain: chains[chains.length - 1]!,

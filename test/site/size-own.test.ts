@@ -25,6 +25,37 @@ describe("size your own", () => {
     });
   });
 
+  it("refuses a supply between two battery systems instead of failing inside the engine (regression)", () => {
+    // 18.5 V lies inside the axes' 12–24 V span but in no lead-acid system (12 V: 10.5–14.7 V,
+    // 24 V: 21–29.4 V; common practice): the engine has no window for it and used to throw.
+    const data = sizeOwnData(cat, fan)!;
+    const battery = { ...data, record: { ...data.record, supply: { battery: "lead-acid" as const } } };
+    const r = sizeOwn(battery, {
+      supply_V: 18.5,
+      load_A: 0.5,
+      pwm_Hz: 20000,
+      chain: "mosfet-driver",
+      load_kind: "motor",
+    });
+    expect(r.ok).toBe(false);
+    if (!r.ok)
+      expect(r.errors).toEqual([
+        expect.stringMatching(
+          /^Supply voltage 18\.5 V is not within a lead-acid battery system \(12 V: 10\.5–14\.7 V, 24 V: 21–29\.4 V/,
+        ),
+      ]);
+    // Inside the 12 V system: no battery complaint (an unoffered chain keeps the engine out of it).
+    const inside = sizeOwn(battery, {
+      supply_V: 13.2,
+      load_A: 0.5,
+      pwm_Hz: 20000,
+      chain: "bjt-single",
+      load_kind: "motor",
+    });
+    expect(inside.ok).toBe(false);
+    if (!inside.ok) expect(inside.errors).toEqual(["Output chain must be one of: darlington-2, mosfet-driver."]);
+  });
+
   it("refuses inputs outside the limits, naming each field and its range", () => {
     const data = sizeOwnData(cat, fan)!;
     const r = sizeOwn(data, { supply_V: 36, load_A: 0.5, pwm_Hz: 5000, chain: "bjt-single", load_kind: "lamp" });
