@@ -72,15 +72,13 @@ export function renderSchematic(circuit: CircuitModel, meta: { title: string; id
     const at = Object.entries(p.pins)
       .map(([k, v]) => `${k}:${v[0]},${v[1]}`)
       .join(" ");
-    const g = parts
-      .group()
-      .attr({
-        "data-ref": p.key,
-        "data-pins": pins,
-        "data-pin-at": at,
-        "data-box": boxAttr(p.box),
-        transform: transformOf(p),
-      });
+    const g = parts.group().attr({
+      "data-ref": p.key,
+      "data-pins": pins,
+      "data-pin-at": at,
+      "data-box": boxAttr(p.box),
+      transform: transformOf(p),
+    });
     if (p.part) g.attr({ "data-kind": p.part.kind, "data-role": p.part.role });
     else g.attr({ "data-instrument": p.key });
     p.sym.draw(g);
@@ -88,13 +86,11 @@ export function renderSchematic(circuit: CircuitModel, meta: { title: string; id
   for (const gp of routing.grounds) {
     const box = { x: gp[0] - 10, y: gp[1], w: 20, h: 20 };
     ground.draw(
-      parts
-        .group()
-        .attr({
-          "data-ground": `${gp[0]},${gp[1]}`,
-          "data-box": boxAttr(box),
-          transform: `translate(${gp[0]} ${gp[1]})`,
-        }),
+      parts.group().attr({
+        "data-ground": `${gp[0]},${gp[1]}`,
+        "data-box": boxAttr(box),
+        transform: `translate(${gp[0]} ${gp[1]})`,
+      }),
     );
   }
   const vcc = placed.find((p) => p.nets.a === "vcc" || p.nets.p === "vcc");
@@ -130,6 +126,8 @@ export function renderSchematic(circuit: CircuitModel, meta: { title: string; id
   c.element("text")
     .words(meta.title)
     .attr({ x: 20, y: height - 18, "font-size": 14, "font-weight": "bold", "data-caption": "", fill: INK });
-  const desc = `Schematic with ${circuit.parts.length} parts: ${placed.map((p) => p.key).join(", ")}. Supply on the left, load on the right; vbus rail along the top.`;
+  const desc =
+    `Schematic with ${circuit.parts.length} parts: ${placed.map((p) => p.key).join(", ")}. Supply on the left, ` +
+    `load on the right; vbus rail along the top.`;
   return finish(c, { id: idFragment(meta.id), title: meta.title, desc });
 }
