@@ -49,11 +49,13 @@ async function benchEngine(): Promise<void> {
         });
     }
   console.log(
-    `sizing:     ${specs.length} variants, median ${median(times).toFixed(3)} ms per variant incl. worst case (target ≤ 1 ms)`,
+    `sizing:     ${specs.length} variants, median ${median(times).toFixed(3)} ms per variant incl. worst case ` +
+      `(target ≤ 1 ms)`,
   );
   const r = benchRender(circuits, 3);
   console.log(
-    `schematic:  median ${r.schematicMedian_ms.toFixed(2)} ms per variant (target ≤ 10 ms); netlist median ${r.netlistBytesMedian} bytes`,
+    `schematic:  median ${r.schematicMedian_ms.toFixed(2)} ms per variant (target ≤ 10 ms); netlist median ` +
+      `${r.netlistBytesMedian} bytes`,
   );
 }
 
@@ -87,7 +89,8 @@ function benchBuilds(): void {
     cpSync(path.join(ROOT, "package.json"), path.join(root, "package.json"));
     const cold = build(root);
     console.log(
-      `cold build: ${cold.seconds.toFixed(1)} s, peak memory ${cold.peakRss_MB} MB (targets ≤ 90 s, ≤ 1.5 GB)\n            ${cold.summary}`,
+      `cold build: ${cold.seconds.toFixed(1)} s, peak memory ${cold.peakRss_MB} MB (targets ≤ 90 s, ≤ 1.5 ` +
+        `GB)\n            ${cold.summary}`,
     );
     const warm = build(root);
     console.log(`warm build: ${warm.seconds.toFixed(1)} s, peak memory ${warm.peakRss_MB} MB (target ≤ 5 s)`);

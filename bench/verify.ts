@@ -85,7 +85,10 @@ export async function benchVerify(jobCount = 6, log: (s: string) => void = conso
     await engine.close();
     if (!first.ok) log(`  (first job failed: ${first.message})`);
     log(
-      `${name}: start ${(tStart - t0).toFixed(0)} ms; cold ${(SIMS_PER_JOB / ((tFirst - t0) / 1000)).toFixed(2)} sim/s; warm ${(sims / ((tWarm - tFirst) / 1000)).toFixed(2)} sim/s (${((tWarm - tFirst) / sims).toFixed(0)} ms per sim)`,
+      `${name}: start ${(tStart - t0).toFixed(0)} ms; cold ` +
+        `${(SIMS_PER_JOB / ((tFirst - t0) / 1000)).toFixed(2)} sim/s; warm ` +
+        `${(sims / ((tWarm - tFirst) / 1000)).toFixed(2)} sim/s (${((tWarm - tFirst) / sims).toFixed(0)} ms per ` +
+        `sim)`,
     );
     for (const workers of [1, 2]) {
       const dir = mkdtempSync(join(tmpdir(), "pw-bench-"));
@@ -95,7 +98,8 @@ export async function benchVerify(jobCount = 6, log: (s: string) => void = conso
       await verifyAll(jobs, { engine: name, workers, cacheDir: dir });
       const w2 = performance.now();
       log(
-        `  pool ${workers} worker(s): ${(sims / ((w1 - w0) / 1000)).toFixed(2)} sim/s incl. worker start (${((w1 - w0) / 1000).toFixed(1)} s for ${sims} sims); all-cached rerun ${(w2 - w1).toFixed(0)} ms`,
+        `  pool ${workers} worker(s): ${(sims / ((w1 - w0) / 1000)).toFixed(2)} sim/s incl. worker start ` +
+          `(${((w1 - w0) / 1000).toFixed(1)} s for ${sims} sims); all-cached rerun ${(w2 - w1).toFixed(0)} ms`,
       );
     }
   }
@@ -124,7 +128,9 @@ export async function benchCatalogue(workerCounts: number[], log: (s: string) =>
     const count: Record<string, number> = {};
     for (const v of res.values()) count[v.status] = (count[v.status] ?? 0) + 1;
     log(
-      `  ${workers} worker(s): ${s.toFixed(1)} s, ${(jobs.length / s).toFixed(2)} variants/s, ${((1000 * s) / Math.max(1, jobs.length)).toFixed(0)} ms per variant, ${((SIMS_PER_JOB * jobs.length) / s).toFixed(1)} sims/s; ${JSON.stringify(count)}`,
+      `  ${workers} worker(s): ${s.toFixed(1)} s, ${(jobs.length / s).toFixed(2)} variants/s, ` +
+        `${((1000 * s) / Math.max(1, jobs.length)).toFixed(0)} ms per variant, ` +
+        `${((SIMS_PER_JOB * jobs.length) / s).toFixed(1)} sims/s; ${JSON.stringify(count)}`,
     );
   }
 }

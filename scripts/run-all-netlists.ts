@@ -41,6 +41,7 @@ for (const f of netlists) {
 }
 await engine.close();
 process.stdout.write(
-  `netlists: ${netlists.length} run in the embedded engine, ${failed} failed (${((performance.now() - t0) / 1000).toFixed(1)} s)\n`,
+  `netlists: ${netlists.length} run in the embedded engine, ${failed} failed ` +
+    `(${((performance.now() - t0) / 1000).toFixed(1)} s)\n`,
 );
 process.exitCode = failed === 0 ? 0 : 1;

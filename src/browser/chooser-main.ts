@@ -40,7 +40,8 @@ function start(): void {
       const li = el("li");
       const a = el(
         "a",
-        `${entry.designTitle}: ${chainLabel(entry.chain)}, ${formatValue(entry.supply_V, "V")}, ${formatValue(entry.load_A, "A")}, ${loadLabel(entry.load_kind)}`,
+        `${entry.designTitle}: ${chainLabel(entry.chain)}, ${formatValue(entry.supply_V, "V")}, ` +
+          `${formatValue(entry.load_A, "A")}, ${loadLabel(entry.load_kind)}`,
       );
       a.href = root + entry.url;
       li.append(a, el("br"), el("span", reason));

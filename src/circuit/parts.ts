@@ -60,7 +60,8 @@ export function resistor<S extends StageKind>(
             `/parts/${role}`,
             "resistor-power",
             "error",
-            `${role} (${formatValue(r_ohm, "Ω")}) dissipates ${formatValue(p_W, "W")}, beyond a 5 W resistor at the policy's ${rule.factor * 100} % derating; redesign this stage.`,
+            `${role} (${formatValue(r_ohm, "Ω")}) dissipates ${formatValue(p_W, "W")}, beyond a 5 W resistor ` +
+              `at the policy's ${rule.factor * 100} % derating; redesign this stage.`,
             { limit: rating * rule.factor, actual: p_W, unit: "W" },
           ),
         ]

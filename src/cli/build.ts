@@ -98,7 +98,8 @@ export async function runBuild(o: BuildOptions): Promise<number> {
       for (const v of d.variants)
         if (v.verification && (v.verification.status === "disagree" || v.verification.status === "failed"))
           o.out.log(
-            `  ${v.verification.status}: ${v.sized.spec.id}${v.verification.message ? ` — ${v.verification.message}` : ""}`,
+            `  ${v.verification.status}: ` +
+              `${v.sized.spec.id}${v.verification.message ? ` — ${v.verification.message}` : ""}`,
           );
     if (process.env["PULSEWRIGHT_REPORT_RSS"])
       o.out.log(`peak memory ${Math.round(process.resourceUsage().maxRSS / 1024)} MB`);

@@ -22,7 +22,8 @@ export async function runCheck(root: string, out: CheckOutput, options: LoadOpti
   }
   const variants = result.designs.reduce((n, d) => n + variantCount(d.record), 0);
   out.log(
-    `check passed: ${plural(result.designs.length, "design")}, ${plural(result.devices.size, "device class", "device classes")}, ` +
+    `check passed: ${plural(result.designs.length, "design")}, ` +
+      `${plural(result.devices.size, "device class", "device classes")}, ` +
       `${plural(variants, "variant")} would be built (policy ${result.policy.id} from ${result.policyFile})`,
   );
   return 0;

@@ -28,8 +28,10 @@ export function attachAlternatives(sized: SizedVariant[]): SizedVariant[] {
     const o = best.spec;
     const same = o.supply_V === s.supply_V && o.load_A === s.load_A;
     const why = same
-      ? `Same ${s.supply_V} V and ${s.load_A} A with the ${o.chain} chain: ${dissipation(best).toFixed(2)} W in the power device.`
-      : `Nearest feasible: ${o.chain} at ${o.supply_V} V, ${o.load_A} A (no chain is feasible at ${s.supply_V} V, ${s.load_A} A).`;
+      ? `Same ${s.supply_V} V and ${s.load_A} A with the ${o.chain} chain: ${dissipation(best).toFixed(2)} W in ` +
+        `the power device.`
+      : `Nearest feasible: ${o.chain} at ${o.supply_V} V, ${o.load_A} A (no chain is feasible at ${s.supply_V} ` +
+        `V, ${s.load_A} A).`;
     return { ...v, alternative: { chain: o.chain, id: o.id, why } };
   });
 }

@@ -176,7 +176,8 @@ function sizeInner(spec: VariantSpec): SizedVariant {
       efficiency,
       "",
       "chain",
-      "η = 1 − (ΣP_transistors + ΣP_resistors, zeners + P_freewheel) / (V_cc,max · I_max · D_max); each resistor at its worst-case dissipation",
+      "η = 1 − (ΣP_transistors + ΣP_resistors, zeners + P_freewheel) / (V_cc,max · I_max · D_max); each " +
+        "resistor at its worst-case dissipation",
       "derived",
     ),
   ]);
@@ -221,7 +222,8 @@ function sizeInner(spec: VariantSpec): SizedVariant {
  *    power includes the B–E junction;
  *  - switching from the NOMINAL transition times when the chain gives them (MOSFET chains: nominal
  *    gate drive, typical plateau) with the same ramp law as the worst case (Rashid Ex. 4.2 /
- *    Mohan Eq. 2-6) at V_nom, I_on and the core's nominal frequency at control 1; else the worst-case loss scaled by V·I·f (linear in each).
+ *    Mohan Eq. 2-6) at V_nom, I_on and the core's nominal frequency at control 1; else the worst-case loss scaled by
+ * V·I·f (linear in each).
  */
 function nominalDissipation(
   ctx: ReturnType<typeof makeContext>,

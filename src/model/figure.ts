@@ -5,7 +5,9 @@ import type { Confidence } from "./kinds.ts";
 export interface Provenance {
   /** e.g. "t = R·C·ln((2·Vcc − V_BE − V_CE(sat)) / (Vcc − V_BE))" */
   formula: string;
-  /** Key of the source in the bibliography (src/engine/shared/sources.ts, docs/sources.md), e.g. "millman-taub-1965". */
+  /**
+   * Key of the source in the bibliography (src/engine/shared/sources.ts, docs/sources.md), e.g. "millman-taub-1965".
+   */
   source: SourceKey;
   confidence: Confidence;
 }

@@ -89,7 +89,8 @@ export function checkTargets(d: LoadedDesign): RecordIssue[] {
         d.parsed,
         `/axes/load_kind/${at}`,
         'load kind "solenoid" needs the coil\'s data, and the record has no "solenoid" block',
-        'add "solenoid": { "tau_ms": 10, "pull_in_ms": 50, "pull_in_share": 0.85, "hold_share": 0.4 } with your coil\'s figures',
+        'add "solenoid": { "tau_ms": 10, "pull_in_ms": 50, "pull_in_share": 0.85, "hold_share": 0.4 } with ' +
+          "your coil's figures",
       ),
     );
   }
@@ -164,7 +165,10 @@ export function checkSupply(d: LoadedDesign): RecordIssue[] {
   return out;
 }
 
-/** Highest supply of one nominal (its window's max), or undefined when the statement is invalid (reported by checkSupply). */
+/**
+ * Highest supply of one nominal (its window's max), or undefined when the statement is invalid (reported by
+ * checkSupply).
+ */
 function supplyMax_V(rec: DesignRecord, nominal_V: number, tol: number): number | undefined {
   try {
     return supplyWindow({ ...rec.supply, tolerance: tol }, nominal_V).max_V;
@@ -230,7 +234,8 @@ function ratingIssues(
         issueAt(
           d.parsed,
           `/axes/supply_V/${i}`,
-          `supply ${s} V (${fmt(high_V)} V at the top of its window) exceeds ${v.name} ${v.value_V} V of "${dev.id}" bound to ${role}`,
+          `supply ${s} V (${fmt(high_V)} V at the top of its window) exceeds ${v.name} ${v.value_V} V of ` +
+            `"${dev.id}" bound to ${role}`,
           `bind a class rated above ${fmt(high_V)} V, or drop this supply`,
         ),
       );

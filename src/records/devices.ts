@@ -214,7 +214,8 @@ function cardIssues(d: LoadedDevice): RecordIssue[] {
         reporter(d, out)(
           member,
           `the SPICE model card of this class cannot be written: ${why.text}`,
-          "check the class's numbers against its datasheet; a value far outside the usual range makes a card parameter infinite",
+          "check the class's numbers against its datasheet; a value far outside the usual range makes a card " +
+            "parameter infinite",
         );
         return out;
       }
@@ -252,7 +253,8 @@ export function checkDefaults(
       if (d && d.device.family !== ROLE_FAMILY[role]) {
         reporter(d, out)(
           "/family",
-          `"${id}" is a default class for role ${role}, which needs a ${ROLE_FAMILY[role]}, but it is a ${d.device.family}`,
+          `"${id}" is a default class for role ${role}, which needs a ${ROLE_FAMILY[role]}, but it is a ` +
+            `${d.device.family}`,
           `restore the ${ROLE_FAMILY[role]} data of "${id}", or give this class another id`,
         );
       }
@@ -270,8 +272,12 @@ export function checkDefaults(
         line: p.line,
         col: p.col,
         pointer,
-        message: `role ${role} has no device class: the design binds none and none of its default classes (${ids.join(", ")}) is in designs/devices/`,
-        remedy: `restore one of ${ids.join(", ")} in designs/devices/, or bind a ${ROLE_FAMILY[role]} class to ${role} under "devices"`,
+        message:
+          `role ${role} has no device class: the design binds none and none of its default classes ` +
+          `(${ids.join(", ")}) is in designs/devices/`,
+        remedy:
+          `restore one of ${ids.join(", ")} in designs/devices/, or bind a ${ROLE_FAMILY[role]} class to ${role} ` +
+          `under "devices"`,
       });
     }
   }

@@ -40,7 +40,8 @@ export async function listJson(root: string, dir: string): Promise<Listing> {
     const reserved = reservedName(e.name);
     if (reserved) {
       whole(
-        `the file name uses "${reserved}", a device name reserved on Windows: the project could not be checked out there`,
+        `the file name uses "${reserved}", a device name reserved on Windows: the project could not be checked ` +
+          `out there`,
         "rename the file (and its id) to something else, e.g. add a word: con-fan.json",
       );
       continue;

@@ -182,7 +182,8 @@ export function scanJson(file: string, text: string): RecordIssue[] {
       report(
         at,
         ptr,
-        `the text holds the bidirectional control ${uplus(cp)}, which can make it display in a different order from what it says`,
+        `the text holds the bidirectional control ${uplus(cp)}, which can make it display in a different order ` +
+          `from what it says`,
         "remove it; right-to-left words display correctly without embedding, override or isolate controls",
       );
     }

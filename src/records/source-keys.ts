@@ -22,7 +22,8 @@ export function checkSourceKeys(parsed: ParsedFile): RecordIssue[] {
       message: `source "${key}" is not in the bibliography`,
       remedy:
         (near ? `did you mean "${near}"? ` : "") +
-        "use a key listed in docs/sources.md, or add the source to src/engine/shared/sources.ts and run `npm run sources`",
+        ("use a key listed in docs/sources.md, or add the source to src/engine/shared/sources.ts and run `npm " +
+          "run sources`"),
     });
   });
   return out;

@@ -97,6 +97,8 @@ export function renderPlot(w: WaveformSet, meta: { title: string }): string {
   return finish(c, {
     id: idFragment(meta.title),
     title: meta.title,
-    desc: `Waveforms: ${w.series.map((s) => `${s.name} in ${s.unit}`).join(", ")}, over ${tickText((t1 - t0) * tp.scale)} ${tp.prefix}s.`,
+    desc:
+      `Waveforms: ${w.series.map((s) => `${s.name} in ${s.unit}`).join(", ")}, over ` +
+      `${tickText((t1 - t0) * tp.scale)} ${tp.prefix}s.`,
   });
 }

@@ -126,6 +126,8 @@ export function renderSchematic(circuit: CircuitModel, meta: { title: string; id
   c.element("text")
     .words(meta.title)
     .attr({ x: 20, y: height - 18, "font-size": 14, "font-weight": "bold", "data-caption": "", fill: INK });
-  const desc = `Schematic with ${circuit.parts.length} parts: ${placed.map((p) => p.key).join(", ")}. Supply on the left, load on the right; vbus rail along the top.`;
+  const desc =
+    `Schematic with ${circuit.parts.length} parts: ${placed.map((p) => p.key).join(", ")}. Supply on the left, ` +
+    `load on the right; vbus rail along the top.`;
   return finish(c, { id: idFragment(meta.id), title: meta.title, desc });
 }

@@ -37,7 +37,9 @@ export function finish(canvas: Svg, a11y: { id: string; title: string; desc: str
     .replace(/ xmlns:xlink="[^"]*"/g, "")
     .replace(/ xmlns:svgjs="[^"]*"/g, "");
   const open = body.indexOf(">") + 1;
-  const head = `<title id="${a11y.id}-title">${xmlEscape(a11y.title)}</title><desc id="${a11y.id}-desc">${xmlEscape(a11y.desc)}</desc>`;
+  const head =
+    `<title id="${a11y.id}-title">${xmlEscape(a11y.title)}</title><desc ` +
+    `id="${a11y.id}-desc">${xmlEscape(a11y.desc)}</desc>`;
   return body.slice(0, open) + head + body.slice(open);
 }
 

@@ -94,7 +94,8 @@ function reasonFor(e: ChooserEntry, rank: number, group: ChooserEntry[], q: Choo
     if (w.fewestParts && e.parts !== undefined) lead.push(`fewest parts (${e.parts})`);
     if (lead.length === 0 && e.dissipation_W !== undefined)
       lead.push(
-        `coolest switch of ${sameClass.length} feasible chain${sameClass.length === 1 ? "" : "s"} (${formatValue(e.dissipation_W, "W")})`,
+        `coolest switch of ${sameClass.length} feasible chain${sameClass.length === 1 ? "" : "s"} ` +
+          `(${formatValue(e.dissipation_W, "W")})`,
       );
     bits.push(lead.length ? `Best match: ${lead.join(", ")}` : "Best match");
   } else {
@@ -106,7 +107,8 @@ function reasonFor(e: ChooserEntry, rank: number, group: ChooserEntry[], q: Choo
   else bits.push(`rated ${formatValue(e.load_A, "A")}`);
   if (e.supply_V !== q.supply_V)
     bits.push(
-      `sized for ${formatValue(e.supply_V, "V")} nominal, checked over ${formatValue(e.supplyMin_V, "V")} … ${formatValue(e.supplyMax_V, "V")}`,
+      `sized for ${formatValue(e.supply_V, "V")} nominal, checked over ${formatValue(e.supplyMin_V, "V")} … ` +
+        `${formatValue(e.supplyMax_V, "V")}`,
     );
   bits.push(e.heatsinkText);
   return `${bits.join("; ")}.`;
@@ -134,7 +136,9 @@ export function chooseVariants(index: readonly ChooserEntry[], q: ChooserQuery, 
     ].join(", ");
     return {
       picks: [],
-      note: `No variant for this load kind is checked at ${formatValue(q.supply_V, "V")}; the supply ranges offered are ${ranges}.`,
+      note:
+        `No variant for this load kind is checked at ${formatValue(q.supply_V, "V")}; the supply ranges offered ` +
+        `are ${ranges}.`,
     };
   }
   const supply = pickSupply([...new Set(inWindow.map((e) => e.supply_V))], q.supply_V)!;
@@ -146,7 +150,9 @@ export function chooseVariants(index: readonly ChooserEntry[], q: ChooserQuery, 
     const top = Math.max(...atSupply.map((e) => e.load_A));
     return {
       picks: [],
-      note: `No variant at ${formatValue(supply, "V")} is rated for ${formatValue(q.load_A, "A")}; the largest current class offered is ${formatValue(top, "A")}.`,
+      note:
+        `No variant at ${formatValue(supply, "V")} is rated for ${formatValue(q.load_A, "A")}; the largest ` +
+        `current class offered is ${formatValue(top, "A")}.`,
     };
   }
   const group = atSupply.filter((e) => classes.includes(e.load_A)).sort((a, b) => compare(a, b, w));
@@ -154,7 +160,8 @@ export function chooseVariants(index: readonly ChooserEntry[], q: ChooserQuery, 
   const notes: string[] = [];
   if (supply !== q.supply_V)
     notes.push(
-      `No variant is sized for ${formatValue(q.supply_V, "V")} nominal; showing ${formatValue(supply, "V")}, whose checked supply range contains it. Check your load's voltage rating.`,
+      `No variant is sized for ${formatValue(q.supply_V, "V")} nominal; showing ${formatValue(supply, "V")}, ` +
+        `whose checked supply range contains it. Check your load's voltage rating.`,
     );
   if (w.noHeatsink && group[0]!.heatsinkNeeded) notes.push("Every match needs a heatsink at this size.");
   const picks = group.slice(0, limit).map((entry, rank) => ({ entry, reason: reasonFor(entry, rank, group, q, w) }));

@@ -37,7 +37,9 @@ export function compareTables(d: BuiltDesign): CompareTable[] {
     const s = vs[0]!.sized.spec;
     return {
       key,
-      caption: `Chains compared at ${formatValue(s.supply_V, "V")}, ${formatValue(s.load_A, "A")}, ${loadLabel(s.load_kind)}`,
+      caption:
+        `Chains compared at ${formatValue(s.supply_V, "V")}, ${formatValue(s.load_A, "A")}, ` +
+        `${loadLabel(s.load_kind)}`,
       rows: vs.map((v) => {
         const z = v.sized;
         const f = verdictWords(z.verdict.status);

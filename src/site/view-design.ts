@@ -145,10 +145,16 @@ export function designView(d: BuiltDesign): DesignView {
     {
       label: "Supplies (each with the range every worst case uses)",
       value: [...new Map(d.variants.map((v) => [v.sized.spec.supply_V, v.sized.spec.supply_window])).values()]
-        .map(
-          (w) =>
-            `${formatValue(w.nominal_V, "V")} (${formatValue(w.min_V, "V")} … ${formatValue(w.max_V, "V")}, ${w.basis === "battery" ? w.text : w.basis === "declared" ? "stated window" : `±${formatPercent(t.supply_tolerance)}`})`,
-        )
+        .map((w) => {
+          const basis =
+            w.basis === "battery"
+              ? w.text
+              : w.basis === "declared"
+                ? "stated window"
+                : `±${formatPercent(t.supply_tolerance)}`;
+          const range = `${formatValue(w.min_V, "V")} … ${formatValue(w.max_V, "V")}`;
+          return `${formatValue(w.nominal_V, "V")} (${range}, ${basis})`;
+        })
         .join("; "),
     },
     { label: "Load currents", value: r.axes.load_A.map((v) => formatValue(v, "A")).join(", ") },

@@ -80,13 +80,17 @@ export function variantView(v: BuiltVariant, d: BuiltDesign, cat: BuiltCatalogue
     id: spec.id,
     page,
     root: relativeRoot(page),
-    title: `${d.record.title}: ${formatValue(spec.supply_V, "V")}, ${formatValue(spec.load_A, "A")}, ${chainLabel(spec.chain)}, ${loadLabel(spec.load_kind)}`,
+    title:
+      `${d.record.title}: ${formatValue(spec.supply_V, "V")}, ${formatValue(spec.load_A, "A")}, ` +
+      `${chainLabel(spec.chain)}, ${loadLabel(spec.load_kind)}`,
     design: { id: d.record.id, title: d.record.title, url: designPage(d.record.id), file: d.file },
     spec: [
       { label: "Supply (nominal)", value: `${formatValue(spec.supply_V, "V")} DC` },
       {
         label: "Supply range (every worst case)",
-        value: `${formatValue(spec.supply_window.min_V, "V")} … ${formatValue(spec.supply_window.max_V, "V")}: ${spec.supply_window.text}`,
+        value:
+          `${formatValue(spec.supply_window.min_V, "V")} … ${formatValue(spec.supply_window.max_V, "V")}: ` +
+          `${spec.supply_window.text}`,
       },
       { label: "Load current (rated)", value: formatValue(spec.load_A, "A") },
       { label: "Load kind", value: loadLabel(spec.load_kind) },

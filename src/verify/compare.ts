@@ -1,7 +1,8 @@
 /**
  * Measured vs predicted. Two kinds of check (reasons and tolerances in docs/verification.md):
  *  - like for like: the prediction made at the simulation's own conditions (SIM_FIGURES: nominal
- *    supply, nominal temperature NOMINAL_TEMP_C, minimum-gain models) against the measurement, within max(rel·|p|, abs);
+ *    supply, nominal temperature NOMINAL_TEMP_C, minimum-gain models) against the measurement, within max(rel·|p|,
+ * abs);
  *  - bound: a worst-case figure (max supply, cold gain, hot R_DS(on)) that has a nominal twin must
  *    not be exceeded by the nominal simulation (one-sided, with a small numerical allowance).
  * A check is made only when both the prediction and the measurement exist.

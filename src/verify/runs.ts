@@ -132,7 +132,12 @@ export async function runAt(
   let retryLevel = 0;
   while (end(res) < 0.99 * tStop_s) {
     stops.push(
-      `${end(res)} s${retryLevel === 0 ? "" : ` with ${levels[retryLevel - 1]![0]}${retryLevel === 2 ? ` and step ${levels[1]![1]} s` : ""}`}`,
+      `${end(res)} ` +
+        `s${
+          retryLevel === 0
+            ? ""
+            : ` with ` + `${levels[retryLevel - 1]![0]}${retryLevel === 2 ? ` and step ${levels[1]![1]} s` : ""}`
+        }`,
     );
     const next = levels[retryLevel];
     if (next === undefined)
@@ -195,7 +200,10 @@ export function switchVoltage(target: VerifyTarget, run: Run): Float64Array {
  */
 export const MIN_PULSE_PERIODS = 0.02;
 
-/** Gate hysteresis, a share of VTO: 10 % (0.2 V at 2 V) is well above gate pick-up from the drain's ringing through C_GD (mV). */
+/**
+ * Gate hysteresis, a share of VTO: 10 % (0.2 V at 2 V) is well above gate pick-up from the drain's ringing through C_GD
+ * (mV).
+ */
 export const GATE_HYST = 0.1;
 
 export function switchLevel(target: VerifyTarget, vbus_V: number): number {

@@ -122,67 +122,71 @@ describe.skipIf(!CHROMIUM)("the published site in a browser", () => {
       await page.close();
     });
 
-    it("size your own: the page's numbers equal the build-time engine's, for a catalogue point and an in-between one", async () => {
-      const d = cat.designs.find((x) => x.record.id === "nutrient-pump")!;
-      const page = await open(`designs/nutrient-pump/index.html`);
-      let lastNetlist = "";
-      const lib = new Map(cat.engine!.devices.map((x) => [x.id, x] as const));
-      // Chains from the design's own axis (the form offers only those), first and last.
-      const chains = d.record.axes.chain;
-      const inputs = [
-        { supply_V: 24, load_A: 2, pwm_Hz: d.record.targets.pwm_Hz, chain: chains[0]!, load_kind: "motor" as const },
-        {
-          supply_V: 13.2,
-          load_A: 1.3,
-          pwm_Hz: d.record.targets.pwm_Hz * 1.5,
-          chain: chains[chains.length - 1]!,
-          load_kind: "motor" as const,
-        },
-      ];
-      for (const inp of inputs) {
-        await page.getByLabel(/^Supply voltage/).fill(String(inp.supply_V));
-        await page.getByLabel(/^Load current/).fill(String(inp.load_A));
-        await page.getByLabel(/^PWM frequency/).fill(String(inp.pwm_Hz));
-        await page.getByLabel("Output chain").selectOption(inp.chain);
-        await page.getByRole("button", { name: "Size this variant" }).click();
-        const shown = await page
-          .locator("#syo-out td[data-key]")
-          .evaluateAll((tds) =>
-            tds.map(
-              (td) => [(td as HTMLElement).dataset["key"], Number((td as HTMLElement).dataset["value"])] as const,
-            ),
+    it(
+      "size your own: the page's numbers equal the build-time engine's, for a catalogue point and an in-between " +
+        "one",
+      async () => {
+        const d = cat.designs.find((x) => x.record.id === "nutrient-pump")!;
+        const page = await open(`designs/nutrient-pump/index.html`);
+        let lastNetlist = "";
+        const lib = new Map(cat.engine!.devices.map((x) => [x.id, x] as const));
+        // Chains from the design's own axis (the form offers only those), first and last.
+        const chains = d.record.axes.chain;
+        const inputs = [
+          { supply_V: 24, load_A: 2, pwm_Hz: d.record.targets.pwm_Hz, chain: chains[0]!, load_kind: "motor" as const },
+          {
+            supply_V: 13.2,
+            load_A: 1.3,
+            pwm_Hz: d.record.targets.pwm_Hz * 1.5,
+            chain: chains[chains.length - 1]!,
+            load_kind: "motor" as const,
+          },
+        ];
+        for (const inp of inputs) {
+          await page.getByLabel(/^Supply voltage/).fill(String(inp.supply_V));
+          await page.getByLabel(/^Load current/).fill(String(inp.load_A));
+          await page.getByLabel(/^PWM frequency/).fill(String(inp.pwm_Hz));
+          await page.getByLabel("Output chain").selectOption(inp.chain);
+          await page.getByRole("button", { name: "Size this variant" }).click();
+          const shown = await page
+            .locator("#syo-out td[data-key]")
+            .evaluateAll((tds) =>
+              tds.map(
+                (td) => [(td as HTMLElement).dataset["key"], Number((td as HTMLElement).dataset["value"])] as const,
+              ),
+            );
+          // Build-time path (as src/cli/size.ts does it), computed here on Node.
+          const rec = {
+            ...d.record,
+            targets: { ...d.record.targets, pwm_Hz: inp.pwm_Hz },
+            axes: { supply_V: [inp.supply_V], load_A: [inp.load_A], chain: [inp.chain], load_kind: [inp.load_kind] },
+          };
+          const [spec] = expandDesign(rec, {
+            choose: (r, s, a, c) => chooseDevices(r, lib, s, a, c),
+            policy: cat.engine!.policy,
+          });
+          const sized = sizeVariant(spec!);
+          lastNetlist = renderVariantViews(sized, lib, { titleNote: "sized on request" }).netlist;
+          expect(shown.length, "figures shown").toBe(sized.figures.length);
+          expect(shown.map(([k]) => k).sort()).toEqual(sized.figures.map((f) => f.key).sort());
+          // Same code, same inputs; Chromium's and Node's V8 may round a transcendental function
+          // (Math.pow, Math.exp) differently in the last bit, so equal means within 1e-12 relative
+          // (common practice: a few units in the last place of an IEEE 754 double).
+          for (const [k, v] of shown) expectClose(v, sized.figures.find((f) => f.key === k)!.value, 1e-12, k);
+          await expect(page.locator("#syo-out h3").first().textContent()).resolves.toContain(
+            sized.feasible ? "feasible" : "not feasible",
           );
-        // Build-time path (as src/cli/size.ts does it), computed here on Node.
-        const rec = {
-          ...d.record,
-          targets: { ...d.record.targets, pwm_Hz: inp.pwm_Hz },
-          axes: { supply_V: [inp.supply_V], load_A: [inp.load_A], chain: [inp.chain], load_kind: [inp.load_kind] },
-        };
-        const [spec] = expandDesign(rec, {
-          choose: (r, s, a, c) => chooseDevices(r, lib, s, a, c),
-          policy: cat.engine!.policy,
-        });
-        const sized = sizeVariant(spec!);
-        lastNetlist = renderVariantViews(sized, lib, { titleNote: "sized on request" }).netlist;
-        expect(shown.length, "figures shown").toBe(sized.figures.length);
-        expect(shown.map(([k]) => k).sort()).toEqual(sized.figures.map((f) => f.key).sort());
-        // Same code, same inputs; Chromium's and Node's V8 may round a transcendental function
-        // (Math.pow, Math.exp) differently in the last bit, so equal means within 1e-12 relative
-        // (common practice: a few units in the last place of an IEEE 754 double).
-        for (const [k, v] of shown) expectClose(v, sized.figures.find((f) => f.key === k)!.value, 1e-12, k);
-        await expect(page.locator("#syo-out h3").first().textContent()).resolves.toContain(
-          sized.feasible ? "feasible" : "not feasible",
-        );
-      }
-      if (await page.locator("#syo-out a.download").count()) {
-        const [dl] = await Promise.all([page.waitForEvent("download"), page.locator("#syo-out a.download").click()]);
-        // The page's render step is the build's (src/render/variant.ts): the same netlist, byte for byte.
-        expect(lastNetlist).toMatch(/\.tran [^]*\.end\n?$/);
-        expect(await readFile((await dl.path())!, "utf8")).toBe(lastNetlist);
-      }
-      await page.screenshot({ path: path.join(SHOTS, "design-size-your-own.png"), fullPage: true });
-      await page.close();
-    });
+        }
+        if (await page.locator("#syo-out a.download").count()) {
+          const [dl] = await Promise.all([page.waitForEvent("download"), page.locator("#syo-out a.download").click()]);
+          // The page's render step is the build's (src/render/variant.ts): the same netlist, byte for byte.
+          expect(lastNetlist).toMatch(/\.tran [^]*\.end\n?$/);
+          expect(await readFile((await dl.path())!, "utf8")).toBe(lastNetlist);
+        }
+        await page.screenshot({ path: path.join(SHOTS, "design-size-your-own.png"), fullPage: true });
+        await page.close();
+      },
+    );
 
     it("the design page's variant list filters by axis: picking a chain leaves only that chain's rows", async () => {
       const d = cat.designs.find((x) => x.record.id === "nutrient-pump")!;
@@ -210,33 +214,39 @@ describe.skipIf(!CHROMIUM)("the published site in a browser", () => {
       await page.close();
     });
 
-    it("crawled from the home page, every link and asset resolves inside the prefix; nothing is requested outside it", async () => {
-      const seen = new Set<string>();
-      const queue = [origin + PREFIX + "index.html"];
-      const broken: string[] = [];
-      while (queue.length) {
-        const url = queue.shift()!;
-        if (seen.has(url)) continue;
-        seen.add(url);
-        const res = await fetch(url);
-        if (res.status !== 200) broken.push(`${res.status} ${url}`);
-        if (!url.endsWith(".html")) continue;
-        const html = await res.text();
-        for (const m of html.matchAll(/\s(?:href|src)="([^"#]*)(?:#[^"]*)?"/g)) {
-          if (!m[1]) continue;
-          const next = new URL(m[1].replace(/&amp;/g, "&"), url).href;
-          if (!next.startsWith(origin + PREFIX)) outside.push(`${url} → ${next}`);
-          else queue.push(next);
+    it(
+      "crawled from the home page, every link and asset resolves inside the prefix; nothing is requested outside " +
+        "it",
+      async () => {
+        const seen = new Set<string>();
+        const queue = [origin + PREFIX + "index.html"];
+        const broken: string[] = [];
+        while (queue.length) {
+          const url = queue.shift()!;
+          if (seen.has(url)) continue;
+          seen.add(url);
+          const res = await fetch(url);
+          if (res.status !== 200) broken.push(`${res.status} ${url}`);
+          if (!url.endsWith(".html")) continue;
+          const html = await res.text();
+          for (const m of html.matchAll(/\s(?:href|src)="([^"#]*)(?:#[^"]*)?"/g)) {
+            if (!m[1]) continue;
+            const next = new URL(m[1].replace(/&amp;/g, "&"), url).href;
+            if (!next.startsWith(origin + PREFIX)) outside.push(`${url} → ${next}`);
+            else queue.push(next);
+          }
         }
-      }
-      expect(broken).toEqual([]);
-      expect(seen.size).toBeGreaterThan(variants().length * 2);
-      for (const rel of ["designs/ridge-fan/index.html", "designs/nutrient-pump/index.html"]) (await open(rel)).close();
-      expect(outside).toEqual([]);
-    });
+        expect(broken).toEqual([]);
+        expect(seen.size).toBeGreaterThan(variants().length * 2);
+        for (const rel of ["designs/ridge-fan/index.html", "designs/nutrient-pump/index.html"])
+          (await open(rel)).close();
+        expect(outside).toEqual([]);
+      },
+    );
 
     it(
-      "axe-core finds no WCAG 2.0/2.1 A or AA violation on the home page, design pages and one variant page of each state",
+      "axe-core finds no WCAG 2.0/2.1 A or AA violation on the home page, design pages and one variant page of " +
+        "each state",
       { timeout: 180_000 },
       async () => {
         // Every variant page comes from one template: axe (≈ 1 s a page here) runs on one of each state.
@@ -326,14 +336,18 @@ describe.skipIf(!CHROMIUM)("the published site in a browser", () => {
       await page.close();
     });
 
-    it("printed, a variant page is a build sheet: schematic, parts, figures and cautions, no downloads or navigation", async () => {
-      const page = await openFile("variants/circulation-fan-12v-0.5a-darlington-2-motor/index.html");
-      await page.emulateMedia({ media: "print" });
-      for (const sel of ["#schematic", "#parts", "#figures", "#cautions"])
-        expect(await page.locator(sel).isVisible(), sel).toBe(true);
-      for (const sel of [".downloads", ".masthead", ".crumbs"])
-        expect(await page.locator(sel).isVisible(), sel).toBe(false);
-      await page.close();
-    });
+    it(
+      "printed, a variant page is a build sheet: schematic, parts, figures and cautions, no downloads or " +
+        "navigation",
+      async () => {
+        const page = await openFile("variants/circulation-fan-12v-0.5a-darlington-2-motor/index.html");
+        await page.emulateMedia({ media: "print" });
+        for (const sel of ["#schematic", "#parts", "#figures", "#cautions"])
+          expect(await page.locator(sel).isVisible(), sel).toBe(true);
+        for (const sel of [".downloads", ".masthead", ".crumbs"])
+          expect(await page.locator(sel).isVisible(), sel).toBe(false);
+        await page.close();
+      },
+    );
   });
 });

@@ -39,20 +39,24 @@ describe.each(cases)("circuit of $chain $supply_V V $load_A A $load_kind", (c) =
       expect(p.ref).toBe(`${pre}${n}`);
     }
   });
-  it("every part has rating and stress; BJTs carry device and gain_min; semiconductors a SPICE model; the load its model", () => {
-    for (const p of circuit.parts) {
-      expect(Object.keys(p.rating).length, p.role).toBeGreaterThan(0);
-      expect(Object.keys(p.stress).length, p.role).toBeGreaterThan(0);
-      if (p.kind === "npn" || p.kind === "pnp") {
-        expect(p.device).toBeDefined();
-        expect(p.gain_min).toBeGreaterThan(0);
+  it(
+    "every part has rating and stress; BJTs carry device and gain_min; semiconductors a SPICE model; the load " +
+      "its model",
+    () => {
+      for (const p of circuit.parts) {
+        expect(Object.keys(p.rating).length, p.role).toBeGreaterThan(0);
+        expect(Object.keys(p.stress).length, p.role).toBeGreaterThan(0);
+        if (p.kind === "npn" || p.kind === "pnp") {
+          expect(p.device).toBeDefined();
+          expect(p.gain_min).toBeGreaterThan(0);
+        }
+        if (["npn", "pnp", "nmos", "diode", "zener"].includes(p.kind)) expect(p.spice?.model).toBe(p.device);
+        if (p.role === "LOAD") expect(p.spice?.r_ohm).toBeGreaterThan(0);
+        for (const v of [p.value, ...Object.values(p.rating), ...Object.values(p.stress)])
+          expect(Number.isFinite(v)).toBe(true);
       }
-      if (["npn", "pnp", "nmos", "diode", "zener"].includes(p.kind)) expect(p.spice?.model).toBe(p.device);
-      if (p.role === "LOAD") expect(p.spice?.r_ohm).toBeGreaterThan(0);
-      for (const v of [p.value, ...Object.values(p.rating), ...Object.values(p.stress)])
-        expect(Number.isFinite(v)).toBe(true);
-    }
-  });
+    },
+  );
   it("the pot's ends and the tap follow the chain's polarity; probes sit in the load loop", () => {
     expect(circuit.tapNet).toBe(c.chain === "mosfet-driver" ? "cb" : "ca");
     const pot = circuit.parts.find((p) => p.role === "RV_DUTY")!;

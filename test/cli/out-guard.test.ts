@@ -12,7 +12,9 @@ import { cleanRoots, fingerprint, makeRoot, runCli, stackLines } from "../harden
 
 afterAll(cleanRoots);
 
-/** A throw-away project with one small design record (the build test stays quick), a file and a folder of the user's. */
+/**
+ * A throw-away project with one small design record (the build test stays quick), a file and a folder of the user's.
+ */
 async function project(): Promise<string> {
   const root = await makeRoot();
   for (const f of await readdir(path.join(root, "designs")))

@@ -91,12 +91,17 @@ describe("the local server", () => {
     }
   });
 
-  it("serves a folder's index.html at its slash, and redirects the folder without one (relative links need it)", async () => {
-    expect((await ask("GET", "/designs/strip-and-mat/")).status).toBe(200);
-    const r = await ask("GET", "/designs/strip-and-mat");
-    expect(r.status).toBe(301);
-    expect(r.headers["location"]).toBe("/designs/strip-and-mat/");
-  });
+  it(
+    "serves a folder's index.html at its slash, and " +
+      "redirects the folder without one (relative links " +
+      "need it)",
+    async () => {
+      expect((await ask("GET", "/designs/strip-and-mat/")).status).toBe(200);
+      const r = await ask("GET", "/designs/strip-and-mat");
+      expect(r.status).toBe(301);
+      expect(r.headers["location"]).toBe("/designs/strip-and-mat/");
+    },
+  );
 
   it("never serves a file outside the site: dot segments, encoded dots, NUL, backslashes, symbolic links", async () => {
     for (const p of [
@@ -130,7 +135,8 @@ describe("serve from the command line", () => {
     expect(r.code).toBe(2);
     expect(stackLines(r.stderr)).toEqual([]);
     expect(r.stderr.trim()).toBe(
-      `serve: port ${port} on 127.0.0.1 is already in use (another server, or an earlier \`pulsewright serve\`) — choose another with --port N (1024 to 65535)`,
+      `serve: port ${port} on 127.0.0.1 is already in use (another server, or an earlier \`pulsewright ` +
+        `serve\`) — choose another with --port N (1024 to 65535)`,
     );
   }, 60_000);
 

@@ -19,7 +19,8 @@ import {
 
 const HOSTILE =
   "x | y `code` <img src=x onerror=alert(1)> [click](https://evil.example) ![i](https://evil.example/t.png) " +
-  "**bold** _em_ ~~gone~~ @team :warning: $x^2$ &amp; \\| \n# injected heading\r\n| a | b |\u001b[31mred\u202eevil\u0007";
+  ("**bold** _em_ ~~gone~~ @team :warning: $x^2$ &amp; \\| \n# injected heading\r\n| a | b " +
+    "|\u001b[31mred\u202eevil\u0007");
 
 const tmp = mkdtempSync(path.join(tmpdir(), "pw-diff-hostile-"));
 afterAll(() => rmSync(tmp, { recursive: true, force: true }));

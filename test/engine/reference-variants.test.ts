@@ -81,24 +81,29 @@ describe("R2 — 24 V 2 A darlington-2, motor (15 kHz): too slow to turn off for
     expectClose(fig(s, "turn_off_time"), t, 1e-9);
     expectClose(t, 6.855e-6, 1e-3);
   });
-  it("winding edges: the switch voltage rises after the driver's storage only, and falls once the stack carries the winding's current", () => {
-    // Clamped inductive load (derived, charge control; simulated 24 V pump, docs/method.md "Darlington
-    // edges with a winding"): the output's base charge (≈ 6.9 µs above) leaves at full voltage, after
-    // the edge, so the off-edge lags by t_s,1 + t_f/2 ≈ 0.5 µs, not t_s,1 + t_off/2 ≈ 3.7 µs; the on-edge
-    // waits for the full current rise t_r (clamped inductive turn-on, Mohan, Undeland, Robbins, 3rd ed., ch. 2, from memory).
-    const d1 = s.spec.devices.driver_npn as BjtClass;
-    const d2 = s.spec.devices.power_npn as BjtClass;
-    expectClose(
-      fig(s, "duty_error_delays"),
-      (d1.t_storage_s + d2.t_fall_s / 2 - d2.t_rise_s) * fig(s, "frequency_nominal"),
-      1e-9,
-    );
-    // On-edge: the tap must rise past Σ V_BE(on) by R_T·I_B1 (the first base's current at the rated
-    // winding current) before the switch voltage falls.
-    const rT = part(s, "RT").value;
-    expect(fig(s, "chain_threshold")).toBeGreaterThan(2 * 0.6 + rT * 1e-4);
-    expect(fig(s, "duty_error_threshold")).toBeLessThan(0);
-  });
+  it(
+    "winding edges: the switch voltage rises after the driver's storage only, and falls once the stack carries " +
+      "the winding's current",
+    () => {
+      // Clamped inductive load (derived, charge control; simulated 24 V pump, docs/method.md "Darlington
+      // edges with a winding"): the output's base charge (≈ 6.9 µs above) leaves at full voltage, after
+      // the edge, so the off-edge lags by t_s,1 + t_f/2 ≈ 0.5 µs, not t_s,1 + t_off/2 ≈ 3.7 µs; the on-edge
+      // waits for the full current rise t_r (clamped inductive turn-on, Mohan, Undeland, Robbins, 3rd ed., ch. 2, from
+      // memory).
+      const d1 = s.spec.devices.driver_npn as BjtClass;
+      const d2 = s.spec.devices.power_npn as BjtClass;
+      expectClose(
+        fig(s, "duty_error_delays"),
+        (d1.t_storage_s + d2.t_fall_s / 2 - d2.t_rise_s) * fig(s, "frequency_nominal"),
+        1e-9,
+      );
+      // On-edge: the tap must rise past Σ V_BE(on) by R_T·I_B1 (the first base's current at the rated
+      // winding current) before the switch voltage falls.
+      const rT = part(s, "RT").value;
+      expect(fig(s, "chain_threshold")).toBeGreaterThan(2 * 0.6 + rT * 1e-4);
+      expect(fig(s, "duty_error_threshold")).toBeLessThan(0);
+    },
+  );
   it("is not feasible: 20–80 % at 15 kHz is out of reach at the worst corner; shows the nearest range", () => {
     expect(s.feasible).toBe(false);
     expect(s.problems.map((p) => p.rule)).toContain("duty-range-worst-case");
@@ -184,7 +189,8 @@ describe("R4 — 24 V 3 A mosfet-driver, LED strip (3 kHz)", () => {
       1e-9,
       "V_T at 25 °C, CODATA constants",
     );
-    // With V_sw = 0.107 V: at 3.046 A, 6.092 + 0.6193·ln(3.046e12) = 6.092 + 0.6193·28.745 = 23.894 V ✓ (24 − 0.107 = 23.893).
+    // With V_sw = 0.107 V: at 3.046 A, 6.092 + 0.6193·ln(3.046e12) = 6.092 + 0.6193·28.745 = 23.894 V ✓ (24 − 0.107 =
+    // 23.893).
     expectClose(fig(s, "load_current_on"), 3.046, 2e-3, "hand solution above");
   });
   it("frequency within 5 % of the textbook T = C·(R_A + R_B + R_pot)·ln((2V − V_on − V_sat)/(V − V_γ))", () => {
@@ -245,45 +251,62 @@ describe("R6 — 12 V lead-acid, 1 A lamp, mosfet-logic: the cold filament's inr
   it("worst cases run over the lead-acid window 10.5–14.7 V (1.75–2.45 V/cell × 6, common practice)", () => {
     expect([s.spec.supply_window.min_V, s.spec.supply_window.max_V]).toEqual([10.5, 14.7]);
   });
-  it("inrush: 15 × 1 A × 14.7/12 = 18.375 A against the MOSFET class's 120 A pulse rating (Fink & Beaty, from memory)", () => {
-    // Cold filament ≈ R_hot/15 (Fink & Beaty, 11th ed., p. 22-8, from memory); hot R = 12 V/1 A = 12 Ω.
-    expectClose(fig(s, "startup_peak"), 18.375, 1e-12);
-    const pk = checkOf("Q_POWER", "peak");
-    expectClose(pk.stress, 18.375, 1e-12);
-    expect(pk.rating).toBe(120);
-    expect(pk.verdict).toBe("pass");
-  });
-  it("start-up I²t: filament 2·1.225·17.15·0.01 + 17.15²·0.01/2 = 0.420175 + 1.4706125; bulk 150 µF·14.7²/(2·0.1 Ω) = 0.1620675", () => {
-    // Running at 14.7 V: 14.7/12 = 1.225 A; ΔI = 18.375 − 1.225 = 17.15 A; τ = 10 ms (from memory).
-    // Bulk: 100 µF/A × 1.225 A = 122.5 µF → E6 up → 150 µF; loop 0.1 Ω (from memory); C·V²/(2R) derived.
-    expect(part(s, "C_BULK").value).toBeCloseTo(150e-6, 15);
-    expectClose(
-      fig(s, "startup_i2t"),
-      0.420175 + 1.4706125 + 0.1620675,
-      1e-9,
-      "derived integrals, checked numerically in fuse-peaks.test.ts",
-    );
-  });
-  it("fuse: 2 A would carry the current but its 4 A²s smallest pre-arcing I²t allows only 2 A²s < 2.053 A²s → 2.5 A time-lag", () => {
-    // Continuous 1.225 A + core ≤ 0.705 × 2 A = 1.41 A (75 % at 25 °C, −0.4 %/K to 40 °C: common practice / from memory).
-    // Pre-arcing at 10 × I_n ≥ 10 ms (IEC 60127-2 sheet 3, from memory): 2 A → (20 A)²·0.01 s = 4 A²s, half = 2 A²s;
-    // 2.5 A → (25 A)²·0.01 s = 6.25 A²s, half = 3.125 A²s ≥ 2.053 A²s.
-    expect(part(s, "F_SUPPLY").value).toBe(2.5);
-    const i2t = checkOf("F_SUPPLY", "i2t");
-    expectClose(i2t.rating, 6.25, 1e-12);
-    expect(i2t.allowed).toBe(0.5);
-    expect(i2t.verdict).not.toBe("fail");
-    expect(checkOf("F_SUPPLY", "current").verdict).not.toBe("fail");
-    expect(part(s, "F_SUPPLY").rating.voltage_V).toBe(250);
-  });
-  it("reverse diode coordinated: clearing ≤ (25 A)²·0.1 s·1.2 = 75 A²s needs more than the 1 A class's 3.75 A²s → 3 A class, 200²/240 = 166.7 A²s", () => {
-    // Surge I²t of a half-sine I_FSM over 8.3 ms: I_FSM²·(1/120 s)/2 (derived); I_FSM 30 A and 200 A recalled.
-    expect(s.spec.devices.reverse_diode.id).toBe("diode-rectifier-3a");
-    const c = checkOf("D_REVERSE", "i2t");
-    expectClose(c.stress, 75, 1e-12);
-    expectClose(c.rating, (200 * 200) / 240, 1e-12);
-    expect(c.verdict).not.toBe("fail");
-  });
+  it(
+    "inrush: 15 × 1 A × 14.7/12 = 18.375 A against the MOSFET class's 120 A pulse rating (Fink & Beaty, from " +
+      "memory)",
+    () => {
+      // Cold filament ≈ R_hot/15 (Fink & Beaty, 11th ed., p. 22-8, from memory); hot R = 12 V/1 A = 12 Ω.
+      expectClose(fig(s, "startup_peak"), 18.375, 1e-12);
+      const pk = checkOf("Q_POWER", "peak");
+      expectClose(pk.stress, 18.375, 1e-12);
+      expect(pk.rating).toBe(120);
+      expect(pk.verdict).toBe("pass");
+    },
+  );
+  it(
+    "start-up I²t: filament 2·1.225·17.15·0.01 + 17.15²·0.01/2 = 0.420175 + 1.4706125; bulk 150 µF·14.7²/(2·0.1 " +
+      "Ω) = 0.1620675",
+    () => {
+      // Running at 14.7 V: 14.7/12 = 1.225 A; ΔI = 18.375 − 1.225 = 17.15 A; τ = 10 ms (from memory).
+      // Bulk: 100 µF/A × 1.225 A = 122.5 µF → E6 up → 150 µF; loop 0.1 Ω (from memory); C·V²/(2R) derived.
+      expect(part(s, "C_BULK").value).toBeCloseTo(150e-6, 15);
+      expectClose(
+        fig(s, "startup_i2t"),
+        0.420175 + 1.4706125 + 0.1620675,
+        1e-9,
+        "derived integrals, checked numerically in fuse-peaks.test.ts",
+      );
+    },
+  );
+  it(
+    "fuse: 2 A would carry the current but its 4 A²s smallest pre-arcing I²t allows only 2 A²s < 2.053 A²s → 2.5 " +
+      "A time-lag",
+    () => {
+      // Continuous 1.225 A + core ≤ 0.705 × 2 A = 1.41 A (75 % at 25 °C, −0.4 %/K to 40 °C: common practice / from
+      // memory).
+      // Pre-arcing at 10 × I_n ≥ 10 ms (IEC 60127-2 sheet 3, from memory): 2 A → (20 A)²·0.01 s = 4 A²s, half = 2 A²s;
+      // 2.5 A → (25 A)²·0.01 s = 6.25 A²s, half = 3.125 A²s ≥ 2.053 A²s.
+      expect(part(s, "F_SUPPLY").value).toBe(2.5);
+      const i2t = checkOf("F_SUPPLY", "i2t");
+      expectClose(i2t.rating, 6.25, 1e-12);
+      expect(i2t.allowed).toBe(0.5);
+      expect(i2t.verdict).not.toBe("fail");
+      expect(checkOf("F_SUPPLY", "current").verdict).not.toBe("fail");
+      expect(part(s, "F_SUPPLY").rating.voltage_V).toBe(250);
+    },
+  );
+  it(
+    "reverse diode coordinated: clearing ≤ (25 A)²·0.1 s·1.2 = 75 A²s needs more than the 1 A class's 3.75 A²s → " +
+      "3 A class, 200²/240 = 166.7 A²s",
+    () => {
+      // Surge I²t of a half-sine I_FSM over 8.3 ms: I_FSM²·(1/120 s)/2 (derived); I_FSM 30 A and 200 A recalled.
+      expect(s.spec.devices.reverse_diode.id).toBe("diode-rectifier-3a");
+      const c = checkOf("D_REVERSE", "i2t");
+      expectClose(c.stress, 75, 1e-12);
+      expectClose(c.rating, (200 * 200) / 240, 1e-12);
+      expect(c.verdict).not.toBe("fail");
+    },
+  );
   it("is feasible: no failing check, and the verdict says so", () => {
     expect(s.checks.filter((c) => c.verdict === "fail")).toEqual([]);
     expect(s.verdict.status === "feasible" || s.verdict.status === "conditional").toBe(true);
@@ -303,21 +326,29 @@ describe("R7 — 24 V lead-acid, 5 A heater, mosfet-logic: a 58 V blade fuse and
     expect(fig(s, "fuse_continuous_current")).toBeGreaterThan(6.125);
     expect(fig(s, "fuse_continuous_current")).toBeLessThan(6.125 + 0.1);
   });
-  it("fuse: 6.125/0.705 = 8.7 A is beyond the 6.3 A miniature range; a 32 V blade is above 80 % at 29.4 V (91.9 %) → 58 V blade, 10 A", () => {
-    // ISO 8820-3 blade fuses (from memory); rated voltage ≥ V_max/0.8 (common practice).
-    expect(part(s, "F_SUPPLY").value).toBe(10);
-    expect(part(s, "F_SUPPLY").rating.voltage_V).toBe(58);
-    expectClose(checkOf("F_SUPPLY", "voltage").ratio, 29.4 / 58, 1e-12);
-    // Start-up: no load event; bulk 100 µF/A × 6.125 A = 612.5 µF → 680 µF: 680 µF·29.4²/(2·0.1 Ω) = 2.938824 A²s,
-    // against ½·(6 × 10 A)²·10 ms = 18 A²s (600 % gate, from memory).
-    expectClose(fig(s, "startup_i2t"), (680e-6 * 29.4 * 29.4) / 0.2, 1e-9);
-    expectClose(checkOf("F_SUPPLY", "i2t").rating, 36, 1e-12);
-  });
-  it("reverse diode: clearing ≤ (60 A)²·0.1 s·1.2 = 432 A²s > 166.7 A²s of the 3 A class → 6 A class, 400²/240 = 666.7 A²s", () => {
-    expect(s.spec.devices.reverse_diode.id).toBe("diode-rectifier-6a");
-    expectClose(checkOf("D_REVERSE", "i2t").stress, 432, 1e-12);
-    expect(checkOf("D_REVERSE", "i2t").verdict).not.toBe("fail");
-  });
+  it(
+    "fuse: 6.125/0.705 = 8.7 A is beyond the 6.3 A miniature range; a 32 V blade is above 80 % at 29.4 V (91.9 " +
+      "%) → 58 V blade, 10 A",
+    () => {
+      // ISO 8820-3 blade fuses (from memory); rated voltage ≥ V_max/0.8 (common practice).
+      expect(part(s, "F_SUPPLY").value).toBe(10);
+      expect(part(s, "F_SUPPLY").rating.voltage_V).toBe(58);
+      expectClose(checkOf("F_SUPPLY", "voltage").ratio, 29.4 / 58, 1e-12);
+      // Start-up: no load event; bulk 100 µF/A × 6.125 A = 612.5 µF → 680 µF: 680 µF·29.4²/(2·0.1 Ω) = 2.938824 A²s,
+      // against ½·(6 × 10 A)²·10 ms = 18 A²s (600 % gate, from memory).
+      expectClose(fig(s, "startup_i2t"), (680e-6 * 29.4 * 29.4) / 0.2, 1e-9);
+      expectClose(checkOf("F_SUPPLY", "i2t").rating, 36, 1e-12);
+    },
+  );
+  it(
+    "reverse diode: clearing ≤ (60 A)²·0.1 s·1.2 = 432 A²s > 166.7 A²s of the 3 A class → 6 A class, 400²/240 = " +
+      "666.7 A²s",
+    () => {
+      expect(s.spec.devices.reverse_diode.id).toBe("diode-rectifier-6a");
+      expectClose(checkOf("D_REVERSE", "i2t").stress, 432, 1e-12);
+      expect(checkOf("D_REVERSE", "i2t").verdict).not.toBe("fail");
+    },
+  );
 });
 
 describe("R8 — a declared current limit: linear-mode pulse against the single-pulse SOA, and a condition", () => {
@@ -389,7 +420,8 @@ describe("R9 — 24 V lead-acid, 1 A solenoid valve coil, mosfet-logic (2 kHz, 3
     expectClose(fig(s, "hold_current"), 0.3, 1e-12, "hold ≈ 30–50 % of pull-in (common practice)");
     expectClose(fig(s, "hold_duty"), (0.3 * 24 + vF) / (21 - vSw + vF), 1e-9);
     expectClose(fig(s, "hold_duty"), 0.3686, 3e-3, "hand value");
-    // At that duty and the nominal 24 V: I = [D·(24 − V_sw) − (1 − D)·V_F]/24 ≈ (0.3686 × 23.965 − 0.6314 × 0.836)/24 = (8.834 − 0.528)/24 = 0.346 A.
+    // At that duty and the nominal 24 V: I = [D·(24 − V_sw) − (1 − D)·V_F]/24 ≈ (0.3686 × 23.965 − 0.6314 × 0.836)/24 =
+    // (8.834 − 0.528)/24 = 0.346 A.
     const d = fig(s, "hold_duty");
     expectClose(fig(s, "hold_current_nominal"), (d * (24 - vSw) - (1 - d) * vF) / 24, 1e-9);
     expectClose(fig(s, "hold_current_nominal"), 0.346, 5e-3, "hand value");
@@ -399,23 +431,33 @@ describe("R9 — 24 V lead-acid, 1 A solenoid valve coil, mosfet-logic (2 kHz, 3
     // piecewise-exponential form differs from it by < 1 % at T/τ = 0.05 (derived).
     expectClose(fig(s, "hold_ripple"), 12.0e-3, 0.02, "hand value, small-ripple limit");
   });
-  it("the coil's kick-back is clamped: a freewheel diode across it, and the caution names the coil, not a motor", () => {
-    expect(part(s, "D_FREEWHEEL").pins).toEqual({ anode: "sw", cathode: "vbus" });
-    expect(s.cautions.some((c) => /kick-back/.test(c))).toBe(true);
-    expect(s.cautions.join(" ")).not.toMatch(/motor/i);
-    expect(part(s, "D_FREEWHEEL").description ?? "").not.toMatch(/motor/i);
-  });
-  it("start-up: a coil has no inrush beyond V_cc,max/R = 29.4/24 = 1.225 A; the peak check and the fuse see that", () => {
-    // The coil current rises with τ toward V/R and never above it (R–L step response, no back-EMF).
-    expectClose(fig(s, "startup_peak"), 29.4 / 24, 1e-12);
-    expectClose(checkOf("Q_POWER", "peak").stress, 29.4 / 24, 1e-12);
-    expect(checkOf("Q_POWER", "peak").verdict).toBe("pass");
-    // Fuse continuous current: the coil full on at 29.4 V plus the core's few mA.
-    expect(fig(s, "fuse_continuous_current")).toBeGreaterThan(1.225);
-    expect(fig(s, "fuse_continuous_current")).toBeLessThan(1.225 + 0.1);
-    expect(checkOf("F_SUPPLY", "current").verdict).not.toBe("fail");
-    expect(checkOf("F_SUPPLY", "i2t").verdict).not.toBe("fail");
-  });
+  it(
+    "the coil's kick-back is clamped: a freewheel diode " +
+      "across it, and the caution names the coil, not a " +
+      "motor",
+    () => {
+      expect(part(s, "D_FREEWHEEL").pins).toEqual({ anode: "sw", cathode: "vbus" });
+      expect(s.cautions.some((c) => /kick-back/.test(c))).toBe(true);
+      expect(s.cautions.join(" ")).not.toMatch(/motor/i);
+      expect(part(s, "D_FREEWHEEL").description ?? "").not.toMatch(/motor/i);
+    },
+  );
+  it(
+    "start-up: a coil has no inrush beyond V_cc,max/R = " +
+      "29.4/24 = 1.225 A; the peak check and the fuse see " +
+      "that",
+    () => {
+      // The coil current rises with τ toward V/R and never above it (R–L step response, no back-EMF).
+      expectClose(fig(s, "startup_peak"), 29.4 / 24, 1e-12);
+      expectClose(checkOf("Q_POWER", "peak").stress, 29.4 / 24, 1e-12);
+      expect(checkOf("Q_POWER", "peak").verdict).toBe("pass");
+      // Fuse continuous current: the coil full on at 29.4 V plus the core's few mA.
+      expect(fig(s, "fuse_continuous_current")).toBeGreaterThan(1.225);
+      expect(fig(s, "fuse_continuous_current")).toBeLessThan(1.225 + 0.1);
+      expect(checkOf("F_SUPPLY", "current").verdict).not.toBe("fail");
+      expect(checkOf("F_SUPPLY", "i2t").verdict).not.toBe("fail");
+    },
+  );
   it("the PWM at its top end gives < 0.75 A at 21 V, so the page warns that pull-in needs full on", () => {
     expect(fig(s, "pull_in_pwm_top_current")).toBeLessThan(0.75);
     expect(s.problems.map((p) => p.rule)).toContain("solenoid-pull-in-drive");

@@ -65,20 +65,24 @@ describe("expandDesign", () => {
     expect(none[0]?.protection.be_breakdown).toBe("none");
   });
 
-  it("asks for devices once per supply × current × chain (what a part sees depends on the chain), and hands each spec its own copy", () => {
-    const choose = vi.fn(fakeChoose);
-    const specs = expandDesign(record, { choose, policy });
-    expect(choose).toHaveBeenCalledTimes(12);
-    expect(choose.mock.calls.map((c) => [c[1], c[2], c[3]]).slice(0, 4)).toEqual([
-      [12, 0.5, "bjt-single"],
-      [12, 0.5, "mosfet-logic"],
-      [12, 2, "bjt-single"],
-      [12, 2, "mosfet-logic"],
-    ]);
-    expect(specs[5]?.devices.power_npn.id).toBe("power_npn-12-2"); // spec 5: 12 V, 2 A
-    expect(specs[0]?.devices).not.toBe(specs[1]?.devices);
-    expect(specs[0]?.policy).toBe(policy);
-  });
+  it(
+    "asks for devices once per supply × current × chain (what a part sees depends on the chain), and hands each " +
+      "spec its own copy",
+    () => {
+      const choose = vi.fn(fakeChoose);
+      const specs = expandDesign(record, { choose, policy });
+      expect(choose).toHaveBeenCalledTimes(12);
+      expect(choose.mock.calls.map((c) => [c[1], c[2], c[3]]).slice(0, 4)).toEqual([
+        [12, 0.5, "bjt-single"],
+        [12, 0.5, "mosfet-logic"],
+        [12, 2, "bjt-single"],
+        [12, 2, "mosfet-logic"],
+      ]);
+      expect(specs[5]?.devices.power_npn.id).toBe("power_npn-12-2"); // spec 5: 12 V, 2 A
+      expect(specs[0]?.devices).not.toBe(specs[1]?.devices);
+      expect(specs[0]?.policy).toBe(policy);
+    },
+  );
 });
 
 describe("the demo catalogue, with the real device library and chooser", () => {

@@ -54,49 +54,63 @@ describe("the demo catalogue, built by the real command", () => {
     expect(report.findings).toEqual([]);
   }, 60_000);
 
-  it("no SVG, as a file or inline in a page, carries script, foreignObject, on* handlers or javascript: URLs", async () => {
-    let svgs = 0;
-    for (const rel of firstPrint.keys()) {
-      if (!rel.endsWith(".svg") && !rel.endsWith(".html")) continue;
-      const text = await readFile(path.join(site, rel), "utf8");
-      for (const frag of rel.endsWith(".svg") ? [text] : svgFragments(text)) {
-        svgs++;
-        expect(svgHazards(frag), rel).toEqual([]);
+  it(
+    "no SVG, as a file or inline in a page, carries " + "script, foreignObject, on* handlers or javascript: " + "URLs",
+    async () => {
+      let svgs = 0;
+      for (const rel of firstPrint.keys()) {
+        if (!rel.endsWith(".svg") && !rel.endsWith(".html")) continue;
+        const text = await readFile(path.join(site, rel), "utf8");
+        for (const frag of rel.endsWith(".svg") ? [text] : svgFragments(text)) {
+          svgs++;
+          expect(svgHazards(frag), rel).toEqual([]);
+        }
       }
-    }
-    expect(svgs).toBeGreaterThan(20);
-  }, 60_000);
+      expect(svgs).toBeGreaterThan(20);
+    },
+    60_000,
+  );
 
-  it("a build killed (SIGKILL) while writing its staging folder leaves the previous _site/ byte-identical", async () => {
-    const { child, done } = startCli(root, buildArgs(root));
-    let staging: string | undefined;
-    const deadline = Date.now() + 150_000;
-    // Kill once the staging folder exists and has content: the new site is half-written.
-    while (Date.now() < deadline && child.exitCode === null) {
-      staging = (await readdir(root)).find((n) => n.startsWith("_site.staging-"));
-      if (staging && (await readdir(path.join(root, staging)).catch(() => [])).length > 0) break;
-      await sleep(25);
-    }
-    expect(staging, "the second build reached its staging folder").toBeDefined();
-    child.kill("SIGKILL");
-    const killed = await done;
-    expect(killed.signal).toBe("SIGKILL");
-    expect(
-      (await names(root)).filter((n) => n.startsWith("_site.staging-")),
-      "the killed build left its staging folder",
-    ).toHaveLength(1);
-    expect(await fingerprint(site)).toEqual(firstPrint);
-  }, 180_000);
+  it(
+    "a build killed (SIGKILL) while writing its " + "staging folder leaves the previous _site/ " + "byte-identical",
+    async () => {
+      const { child, done } = startCli(root, buildArgs(root));
+      let staging: string | undefined;
+      const deadline = Date.now() + 150_000;
+      // Kill once the staging folder exists and has content: the new site is half-written.
+      while (Date.now() < deadline && child.exitCode === null) {
+        staging = (await readdir(root)).find((n) => n.startsWith("_site.staging-"));
+        if (staging && (await readdir(path.join(root, staging)).catch(() => [])).length > 0) break;
+        await sleep(25);
+      }
+      expect(staging, "the second build reached its staging folder").toBeDefined();
+      child.kill("SIGKILL");
+      const killed = await done;
+      expect(killed.signal).toBe("SIGKILL");
+      expect(
+        (await names(root)).filter((n) => n.startsWith("_site.staging-")),
+        "the killed build left its staging folder",
+      ).toHaveLength(1);
+      expect(await fingerprint(site)).toEqual(firstPrint);
+    },
+    180_000,
+  );
 
-  it("the next build sweeps the leftovers, succeeds, and is byte-identical to the first (SOURCE_DATE_EPOCH set)", async () => {
-    const third = await runCli(root, buildArgs(root));
-    expect(third.code, third.stderr).toBe(0);
-    expect(await names(root)).toEqual(["_site", "designs", "package.json"]);
-    const thirdPrint = await fingerprint(site);
-    expect([...thirdPrint.keys()]).toEqual([...firstPrint.keys()]);
-    const differing = [...thirdPrint].filter(([f, h]) => firstPrint.get(f) !== h).map(([f]) => f);
-    // In a shared working tree, sources edited between the builds also change outputs: name them.
-    const edited = differing.length ? await editedSince(startedAt) : [];
-    expect(differing, `sources edited since the first build: ${edited.join(", ") || "none"}`).toEqual([]);
-  }, 180_000);
+  it(
+    "the next build sweeps the leftovers, succeeds, and " +
+      "is byte-identical to the first (SOURCE_DATE_EPOCH " +
+      "set)",
+    async () => {
+      const third = await runCli(root, buildArgs(root));
+      expect(third.code, third.stderr).toBe(0);
+      expect(await names(root)).toEqual(["_site", "designs", "package.json"]);
+      const thirdPrint = await fingerprint(site);
+      expect([...thirdPrint.keys()]).toEqual([...firstPrint.keys()]);
+      const differing = [...thirdPrint].filter(([f, h]) => firstPrint.get(f) !== h).map(([f]) => f);
+      // In a shared working tree, sources edited between the builds also change outputs: name them.
+      const edited = differing.length ? await editedSince(startedAt) : [];
+      expect(differing, `sources edited since the first build: ${edited.join(", ") || "none"}`).toEqual([]);
+    },
+    180_000,
+  );
 });

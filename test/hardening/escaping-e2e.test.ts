@@ -132,23 +132,27 @@ describe("hostile record text, built by the real command", () => {
     expect(sawTitle).toBe(true);
   });
 
-  it("netlists: record text appears only on * comment lines; no .control, .include or shell line is formed", async () => {
-    for (const f of of(".cir")) {
-      const lines = (await read(f)).split("\n");
-      for (const line of lines) {
-        expect(line, f).toMatch(/^[\x20-\x7e]*\r?$/); // printable ASCII only
-        if (line.startsWith("*") || line.trim() === "") continue;
-        expect(line, f).not.toMatch(
-          /__pw|onerror|onload|HYPERLINK|passwd|^\s*\.(control|endc|include|lib)\b|^\s*shell\b/i,
-        );
-        expect(line, f).toMatch(/^(\.[a-z]+\b|[A-Za-z][A-Za-z0-9_]*\s|\+)/); // element line, directive or continuation
+  it(
+    "netlists: record text appears only on * comment " + "lines; no .control, .include or shell line is " + "formed",
+    async () => {
+      for (const f of of(".cir")) {
+        const lines = (await read(f)).split("\n");
+        for (const line of lines) {
+          expect(line, f).toMatch(/^[\x20-\x7e]*\r?$/); // printable ASCII only
+          if (line.startsWith("*") || line.trim() === "") continue;
+          expect(line, f).not.toMatch(
+            /__pw|onerror|onload|HYPERLINK|passwd|^\s*\.(control|endc|include|lib)\b|^\s*shell\b/i,
+          );
+          // element line, directive or continuation
+          expect(line, f).toMatch(/^(\.[a-z]+\b|[A-Za-z][A-Za-z0-9_]*\s|\+)/);
+        }
+        expect(
+          lines.some((l) => l.startsWith("*") && l.includes("__pw=1")),
+          "the title is kept, as a comment",
+        ).toBe(true);
       }
-      expect(
-        lines.some((l) => l.startsWith("*") && l.includes("__pw=1")),
-        "the title is kept, as a comment",
-      ).toBe(true);
-    }
-  });
+    },
+  );
 
   it("the design's hostile summary reaches catalogue.json intact as JSON data (escaped, not altered)", async () => {
     const cat = JSON.parse(await read("catalogue.json")) as { designs: { id: string; title: string }[] };

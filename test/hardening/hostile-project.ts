@@ -9,7 +9,10 @@ import { makeRoot } from "./cli.ts";
 
 /** ≤ 80 characters (the schema's title limit): closes a title element, runs script, forms SPICE lines. */
 export const TITLE = `</title><script>__pw=1</script>\n.control\nshell id\n.endc\r\n=1+1\u2028`;
-export const TEXT = `<img src=x onerror="__pw=2"><svg onload="__pw=3"><script>__pw=4</script></svg> & "q" 'a' {{ 7*7 }} \${7*7}`;
+export const TEXT =
+  `<img src=x onerror="__pw=2"><svg ` +
+  `onload="__pw=3"><script>__pw=4</script></svg> & "q" ` +
+  `'a' {{ 7*7 }} \${7*7}`;
 /** Formula triggers for the parts list (OWASP CSV injection), within the device schema's limits. */
 export const DEVICE_TITLE = `=HYPERLINK("http://example.invalid","x") <svg onload=__pw=5>`;
 export const DEVICE_PACKAGE = `@SUM(1+1)<b onclick=x>`;

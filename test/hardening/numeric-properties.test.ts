@@ -212,14 +212,18 @@ describe("engine numbers over the schema's whole input space", () => {
     expect(found).toMatch(/duty_max = 1\.2 is outside \[0, 1\]/);
   });
 
-  it("no NaN or Infinity anywhere, and every value within physical bounds (R, C > 0, duty in [0, 1], T_J ≥ min ambient)", () => {
-    fc.assert(
-      fc.property(point, (p) => {
-        for (const v of size(record(p, [p.supply_V], [p.load_A]))) expect(violations(v), v.spec.id).toEqual([]);
-      }),
-      { seed: SEED, numRuns: 150 },
-    );
-  });
+  it(
+    "no NaN or Infinity anywhere, and every value within physical bounds (R, C > 0, duty in [0, 1], T_J ≥ min " +
+      "ambient)",
+    () => {
+      fc.assert(
+        fc.property(point, (p) => {
+          for (const v of size(record(p, [p.supply_V], [p.load_A]))) expect(violations(v), v.spec.id).toEqual([]);
+        }),
+        { seed: SEED, numRuns: 150 },
+      );
+    },
+  );
 
   it("renderers never throw on a sized variant, and views are non-empty for every circuit", () => {
     fc.assert(

@@ -24,7 +24,8 @@ describe("runCheck", () => {
     expect(io.err).toEqual([]);
     // 2 supplies × 2 currents × 2 chains × 1 load kind
     expect(io.out).toEqual([
-      "check passed: 1 design, 17 device classes, 8 variants would be built (policy default from designs/policies/default.json)",
+      "check passed: 1 design, 17 device classes, 8 variants would be built (policy default from " +
+        "designs/policies/default.json)",
     ]);
   });
 
@@ -60,29 +61,33 @@ describe("runCheck", () => {
     expect(io.out[0]).toMatch(/policy strict from designs\/policies\/strict\.json/);
   });
 
-  it("supply statements: a supply outside every system of the named chemistry, and a window off the axis, are reported at their place", async () => {
-    const rec = JSON.parse(await readFile(join(FIXTURES, "good", "valid-fixture.json"), "utf8")) as Record<
-      string,
-      unknown
-    > & { axes: { supply_V: number[] } };
-    rec["id"] = "battery-fixture";
-    rec.axes.supply_V = [12, 18];
-    // Lead-acid systems (1.75–2.45 V/cell, common practice): 12 V 10.5–14.7 V, 24 V 21–29.4 V; 18 V is in neither.
-    rec["supply"] = { battery: "lead-acid", windows: [{ nominal_V: 13.8, min_V: 10.5, max_V: 14.7 }] };
-    const root = await makeProject([{ path: "designs/battery-fixture.json", content: JSON.stringify(rec, null, 2) }]);
-    const io = capture();
-    expect(await runCheck(root, io)).toBe(1);
-    expect(
-      io.err.some((l) =>
-        /battery-fixture\.json:\d+:\d+ {2}\/axes\/supply_V\/1 {2}supply 18 V is not within a lead-acid battery system \(12 V: 10\.5–14\.7 V, 24 V: 21–29\.4 V/.test(
-          l,
+  it(
+    "supply statements: a supply outside every system of the named chemistry, and a window off the axis, are " +
+      "reported at their place",
+    async () => {
+      const rec = JSON.parse(await readFile(join(FIXTURES, "good", "valid-fixture.json"), "utf8")) as Record<
+        string,
+        unknown
+      > & { axes: { supply_V: number[] } };
+      rec["id"] = "battery-fixture";
+      rec.axes.supply_V = [12, 18];
+      // Lead-acid systems (1.75–2.45 V/cell, common practice): 12 V 10.5–14.7 V, 24 V 21–29.4 V; 18 V is in neither.
+      rec["supply"] = { battery: "lead-acid", windows: [{ nominal_V: 13.8, min_V: 10.5, max_V: 14.7 }] };
+      const root = await makeProject([{ path: "designs/battery-fixture.json", content: JSON.stringify(rec, null, 2) }]);
+      const io = capture();
+      expect(await runCheck(root, io)).toBe(1);
+      expect(
+        io.err.some((l) =>
+          /battery-fixture\.json:\d+:\d+ {2}\/axes\/supply_V\/1 {2}supply 18 V is not within a lead-acid battery system \(12 V: 10\.5–14\.7 V, 24 V: 21–29\.4 V/.test(
+            l,
+          ),
         ),
-      ),
-    ).toBe(true);
-    expect(
-      io.err.some((l) =>
-        /\/supply\/windows\/0\/nominal_V {2}window for 13\.8 V, but 13\.8 V is not in axes\.supply_V/.test(l),
-      ),
-    ).toBe(true);
-  });
+      ).toBe(true);
+      expect(
+        io.err.some((l) =>
+          /\/supply\/windows\/0\/nominal_V {2}window for 13\.8 V, but 13\.8 V is not in axes\.supply_V/.test(l),
+        ),
+      ).toBe(true);
+    },
+  );
 });

@@ -51,12 +51,16 @@ describe("demo design records", () => {
     });
   });
 
-  it("LED strips are dimmed at ≥ 3 kHz, the no-observable-effect bound of IEEE Std 1789-2015 §8.1.1 (seen in a reproduction)", async () => {
-    const strip = JSON.parse(await readFile(join(REPO, "designs", "grow-light-strip.json"), "utf8")) as {
-      targets: { pwm_Hz: number };
-    };
-    expect(strip.targets.pwm_Hz).toBeGreaterThanOrEqual(3000);
-  });
+  it(
+    "LED strips are dimmed at ≥ 3 kHz, the no-observable-effect bound of IEEE Std 1789-2015 §8.1.1 (seen in a " +
+      "reproduction)",
+    async () => {
+      const strip = JSON.parse(await readFile(join(REPO, "designs", "grow-light-strip.json"), "utf8")) as {
+        targets: { pwm_Hz: number };
+      };
+      expect(strip.targets.pwm_Hz).toBeGreaterThanOrEqual(3000);
+    },
+  );
 
   it("fans run above the audible band, ≈ 20 kHz (common practice)", async () => {
     const fan = JSON.parse(await readFile(join(REPO, "designs", "circulation-fan.json"), "utf8")) as {

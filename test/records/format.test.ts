@@ -25,7 +25,8 @@ describe("formatIssue", () => {
         }),
       ),
     ).toBe(
-      "designs/a.json:12:7  /axes/supply_V/1  1000000 V is above the largest allowed, 60 V — use a value from 3 to 60 V",
+      "designs/a.json:12:7  /axes/supply_V/1  1000000 V is above the largest allowed, 60 V — use a value from " +
+        "3 to 60 V",
     );
   });
   it("names the whole file when the pointer is empty", () => {

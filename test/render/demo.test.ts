@@ -79,18 +79,23 @@ describe("the demo catalogue renders", async () => {
     expect(problems).toEqual([]);
   }, 120_000);
 
-  it("schematics: wires clear of every symbol and label, correct junction dots, all inside the viewBox, no net flags", () => {
-    const problems: string[] = [];
-    for (const v of variants) {
-      const text = renderSchematic(v.circuit, { title: v.title, id: v.id });
-      problems.push(...geometryProblems(text).map((p) => `${v.id}: ${p}`));
-      // Every demo net can be drawn as a wire; a flag would mean a table route or placement is off.
-      if (text.includes("data-flag=")) problems.push(`${v.id}: uses net flags`);
-      const refused = layoutSchematic(v.circuit).routing.hintsRefused;
-      if (refused > 0) problems.push(`${v.id}: ${refused} drawn route(s) of the layout tables blocked`);
-    }
-    expect(problems.slice(0, 20)).toEqual([]);
-  }, 120_000);
+  it(
+    "schematics: wires clear of every symbol and label, correct junction dots, all inside the viewBox, no net " +
+      "flags",
+    () => {
+      const problems: string[] = [];
+      for (const v of variants) {
+        const text = renderSchematic(v.circuit, { title: v.title, id: v.id });
+        problems.push(...geometryProblems(text).map((p) => `${v.id}: ${p}`));
+        // Every demo net can be drawn as a wire; a flag would mean a table route or placement is off.
+        if (text.includes("data-flag=")) problems.push(`${v.id}: uses net flags`);
+        const refused = layoutSchematic(v.circuit).routing.hintsRefused;
+        if (refused > 0) problems.push(`${v.id}: ${refused} drawn route(s) of the layout tables blocked`);
+      }
+      expect(problems.slice(0, 20)).toEqual([]);
+    },
+    120_000,
+  );
 
   it("netlists: only generated line shapes, every part findable by its ref", () => {
     const problems: string[] = [];

@@ -76,15 +76,20 @@ describe.each(CIRCUIT_FIXTURES)("netlist of the $name fixture", (f) => {
     expect([...els.keys()].filter((n) => !expected.has(n))).toEqual([]);
   });
 
-  it("emits one .model card per device class used, plus a typical-junction card for the timing transistors' class", () => {
-    const used = new Set(
-      f.circuit.parts
-        .map((p) => (p.spice?.model ? `${p.spice.model}${isTimingTransistor(p) ? "#timing" : ""}` : undefined))
-        .filter(Boolean),
-    );
-    const cards = text.split("\n").filter((l) => l.startsWith(".model ") && !l.startsWith(".model LEDSTR_"));
-    expect(cards.length).toBe(used.size);
-  });
+  it(
+    "emits one .model card per device class used, plus a " +
+      "typical-junction card for the timing transistors' " +
+      "class",
+    () => {
+      const used = new Set(
+        f.circuit.parts
+          .map((p) => (p.spice?.model ? `${p.spice.model}${isTimingTransistor(p) ? "#timing" : ""}` : undefined))
+          .filter(Boolean),
+      );
+      const cards = text.split("\n").filter((l) => l.startsWith(".model ") && !l.startsWith(".model LEDSTR_"));
+      expect(cards.length).toBe(used.size);
+    },
+  );
 });
 
 describe("setCtrl", () => {

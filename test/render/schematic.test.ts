@@ -113,9 +113,13 @@ describe.each(CIRCUIT_FIXTURES)("schematic of the $name fixture", (f) => {
     }
   });
 
-  it("draws like a draftsman: no wire through a symbol, label or mark; dots only at ≥ 3-way joints; margin all round", () => {
-    expect(geometryProblems(text)).toEqual([]);
-  });
+  it(
+    "draws like a draftsman: no wire through a symbol, label or mark; dots only at ≥ 3-way joints; margin all " +
+      "round",
+    () => {
+      expect(geometryProblems(text)).toEqual([]);
+    },
+  );
 
   it("uses only nets of the circuit on wires", () => {
     expect(segs.filter((s) => !f.circuit.nets.includes(s.net))).toEqual([]);

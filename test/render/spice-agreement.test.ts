@@ -33,23 +33,27 @@ describe("the netlist runs at the nominal temperature", () => {
 });
 
 describe.skipIf(!hasNgspice)("engine relation = simulated card (ngspice, DC operating point)", () => {
-  it("thermal voltage: an ideal diode card (N = 1) at 1 mA drops k·T/q·ln(1 + I/IS) with T = the nominal temperature", () => {
-    const out = runNgspice(
-      [
-        "* vt",
-        "I1 0 a DC 1e-3",
-        "D1 a 0 DID",
-        `.model DID D(IS=1e-14 N=1 TNOM=${NOMINAL_TEMP_C})`,
-        ".dc I1 1e-3 1e-3 1",
-        ".print dc v(a)",
-        ".end",
-      ].join("\n"),
-    );
-    const v = lastRow(out)[0]!;
-    expectClose(v, thermalVoltage_V(NOMINAL_TEMP_C) * Math.log1p(1e-3 / 1e-14), 1e-4, "CODATA 2018 k, q");
-    // …and not SPICE's default 27 °C: 0.67 % apart, the `.temp` line is what puts it here.
-    expect(Math.abs(v / (thermalVoltage_V(27) * Math.log1p(1e-3 / 1e-14)) - 1)).toBeGreaterThan(3e-3);
-  });
+  it(
+    "thermal voltage: an ideal diode card (N = 1) at 1 mA drops k·T/q·ln(1 + I/IS) with T = the nominal " +
+      "temperature",
+    () => {
+      const out = runNgspice(
+        [
+          "* vt",
+          "I1 0 a DC 1e-3",
+          "D1 a 0 DID",
+          `.model DID D(IS=1e-14 N=1 TNOM=${NOMINAL_TEMP_C})`,
+          ".dc I1 1e-3 1e-3 1",
+          ".print dc v(a)",
+          ".end",
+        ].join("\n"),
+      );
+      const v = lastRow(out)[0]!;
+      expectClose(v, thermalVoltage_V(NOMINAL_TEMP_C) * Math.log1p(1e-3 / 1e-14), 1e-4, "CODATA 2018 k, q");
+      // …and not SPICE's default 27 °C: 0.67 % apart, the `.temp` line is what puts it here.
+      expect(Math.abs(v / (thermalVoltage_V(27) * Math.log1p(1e-3 / 1e-14)) - 1)).toBeGreaterThan(3e-3);
+    },
+  );
 
   const diodeCases = LIB_DIODES.flatMap((d) => [1, 0.1, 0.01, 1e-4].map((k) => ({ id: d.id, d, i_A: d.vf_at_A * k })));
   it.each(diodeCases)("diode $id at $i_A A: V_F from the card = diodeClassVf_V", ({ d, i_A }) => {

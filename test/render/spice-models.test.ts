@@ -38,12 +38,16 @@ describe("gain law the card's BF is read from (the engine's hfeNominal)", () => 
     expectClose(hfeNominal(npnSmall, Math.sqrt(0.01 * 0.1), "min"), Math.sqrt(3000), 1e-9);
     expect(hfeNominal(npnSmall, 0.01, "typ")).toBe(200);
   });
-  it("the card carries exactly that BF up to the last gain point, and holds it above (known divergence, spice-models.ts)", () => {
-    const bf = (ic_A: number) => Number(/ BF=([0-9.e+-]+)/.exec(spiceModel(npnSmall, { gain: "min", ic_A }))![1]);
-    expectClose(bf(0.03), hfeNominal(npnSmall, 0.03, "min"), 1e-11);
-    expectClose(bf(0.3), hfeNominal(npnSmall, 0.1, "min"), 1e-11);
-    expect(hfeNominal(npnSmall, 0.3, "min")).toBeLessThan(bf(0.3));
-  });
+  it(
+    "the card carries exactly that BF up to the last gain point, and holds it above (known divergence, " +
+      "spice-models.ts)",
+    () => {
+      const bf = (ic_A: number) => Number(/ BF=([0-9.e+-]+)/.exec(spiceModel(npnSmall, { gain: "min", ic_A }))![1]);
+      expectClose(bf(0.03), hfeNominal(npnSmall, 0.03, "min"), 1e-11);
+      expectClose(bf(0.3), hfeNominal(npnSmall, 0.1, "min"), 1e-11);
+      expect(hfeNominal(npnSmall, 0.3, "min")).toBeLessThan(bf(0.3));
+    },
+  );
 });
 
 describe("MOSFET card derivation", () => {

@@ -34,7 +34,8 @@ describe("escaping of record text", () => {
       const html = await read(site.dir, f);
       expect(html, f).not.toContain("<script>alert");
       expect(html, f).not.toContain("<img src=x");
-      // The only scripts are our own assets, loaded by relative URL, and inert JSON data blocks (chooser index, size-your-own data).
+      // The only scripts are our own assets, loaded by relative URL, and inert JSON data blocks (chooser index,
+      // size-your-own data).
       const tags = html.match(/<script\b[^>]*>/g) ?? [];
       for (const t of tags)
         expect(t, f).toMatch(

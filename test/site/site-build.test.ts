@@ -186,16 +186,19 @@ describe("what the pages say", () => {
     expect(h2).toContain(failed.verification!.message!);
   });
 
-  it("the design matrix is a table with header scopes and verdicts readable without colour, one per load kind", async () => {
-    const html = await read(site.dir, "designs/strip-and-mat/index.html");
-    const tables = html.match(/<table class="matrix"/g) ?? [];
-    expect(tables).toHaveLength(2);
-    expect(html).toContain('<th scope="col">Single NPN</th>');
-    expect(html).toContain('<th scope="row">12 V, 3 A</th>');
-    expect(html).toMatch(/✗<\/span> not feasible<\/a>/);
-    expect(html).toMatch(/✓<\/span> feasible<\/a>/);
-    expect(html).toMatch(/—<\/span> not offered/);
-  });
+  it(
+    "the design matrix is a table with header scopes and " + "verdicts readable without colour, one per load kind",
+    async () => {
+      const html = await read(site.dir, "designs/strip-and-mat/index.html");
+      const tables = html.match(/<table class="matrix"/g) ?? [];
+      expect(tables).toHaveLength(2);
+      expect(html).toContain('<th scope="col">Single NPN</th>');
+      expect(html).toContain('<th scope="row">12 V, 3 A</th>');
+      expect(html).toMatch(/✗<\/span> not feasible<\/a>/);
+      expect(html).toMatch(/✓<\/span> feasible<\/a>/);
+      expect(html).toMatch(/—<\/span> not offered/);
+    },
+  );
 
   it("the home page carries the safety cautions, the designs with counts and the build summary", async () => {
     const html = unescapeHtml(await read(site.dir, "index.html"));

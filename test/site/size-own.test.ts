@@ -84,28 +84,32 @@ describe("size your own", () => {
 });
 
 describe("size your own renders through the build's render step", () => {
-  it("gives, at a catalogue point of a real design, the build's netlist, parts list and schematic but for the title", async () => {
-    const real = await realCatalogue(["nutrient-pump"]);
-    const d = real.designs[0]!;
-    const v = d.variants.find((x) => x.sized.circuit !== null)!;
-    const s = v.sized.spec;
-    const r = sizeOwn(sizeOwnData(real, d)!, {
-      supply_V: s.supply_V,
-      load_A: s.load_A,
-      pwm_Hz: s.targets.pwm_Hz,
-      chain: s.chain,
-      load_kind: s.load_kind,
-    });
-    expect(r.ok).toBe(true);
-    if (!r.ok) return;
-    expect(r.sized.figures).toEqual(v.sized.figures);
-    expect(r.bomCsv).toBe(v.files.bomCsv);
-    const retitle = (text: string) =>
-      text.replaceAll(`${s.designTitle}, ${s.id} (sized on request)`, `${s.designTitle}, ${s.id}`);
-    expect(r.netlist).not.toBe(v.files.netlist); // the page says it was sized on request
-    expect(retitle(r.netlist)).toBe(v.files.netlist);
-    expect(retitle(r.schematicSvg)).toBe(v.files.schematicSvg);
-  });
+  it(
+    "gives, at a catalogue point of a real design, the build's netlist, parts list and schematic but for the " +
+      "title",
+    async () => {
+      const real = await realCatalogue(["nutrient-pump"]);
+      const d = real.designs[0]!;
+      const v = d.variants.find((x) => x.sized.circuit !== null)!;
+      const s = v.sized.spec;
+      const r = sizeOwn(sizeOwnData(real, d)!, {
+        supply_V: s.supply_V,
+        load_A: s.load_A,
+        pwm_Hz: s.targets.pwm_Hz,
+        chain: s.chain,
+        load_kind: s.load_kind,
+      });
+      expect(r.ok).toBe(true);
+      if (!r.ok) return;
+      expect(r.sized.figures).toEqual(v.sized.figures);
+      expect(r.bomCsv).toBe(v.files.bomCsv);
+      const retitle = (text: string) =>
+        text.replaceAll(`${s.designTitle}, ${s.id} (sized on request)`, `${s.designTitle}, ${s.id}`);
+      expect(r.netlist).not.toBe(v.files.netlist); // the page says it was sized on request
+      expect(retitle(r.netlist)).toBe(v.files.netlist);
+      expect(retitle(r.schematicSvg)).toBe(v.files.schematicSvg);
+    },
+  );
 });
 
 describe("chains compared", () => {

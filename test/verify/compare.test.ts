@@ -33,7 +33,8 @@ describe("checks against the engine's figures", () => {
     expect(out.map((c) => [c.key, c.ok, c.bound ?? "two-sided", c.tol_abs])).toEqual([
       ["switch_on_voltage", true, "two-sided", 0.15],
     ]);
-    expect(compare({ switch_on_voltage: p(0.9, "V") }, [m("switch_on_voltage", 1.2)])[0]?.ok).toBe(false); // > 0.9 + 0.225
+    // > 0.9 + 0.225
+    expect(compare({ switch_on_voltage: p(0.9, "V") }, [m("switch_on_voltage", 1.2)])[0]?.ok).toBe(false);
   });
 
   it("dissipation: the nominal twin is compared two-sided, the worst case only as an upper bound", () => {
@@ -44,20 +45,27 @@ describe("checks against the engine's figures", () => {
       ["device_dissipation_nominal", true, "two-sided"],
       ["device_dissipation", true, "upper"],
     ]);
-    expect(compare(predicted, [m("device_dissipation", 1.7)]).map((c) => c.ok)).toEqual([false, false]); // > 1.35 and > 1.68
+    // > 1.35 and > 1.68
+    expect(compare(predicted, [m("device_dissipation", 1.7)]).map((c) => c.ok)).toEqual([false, false]);
   });
 
-  it("without the nominal twin, a worst-case figure far above the nominal simulation still agrees (it is a bound)", () => {
-    const v = judge(
-      { device_dissipation: p(4.8, "W") },
-      { ok: true, elapsed_s: 0, measurements: [m("device_dissipation", 1.1)] },
-      eng,
-      "h",
-    );
-    expect(v.status).toBe("agree");
-    expect(v.comparisons[0]).toMatchObject({ bound: "upper", ok: true });
-    expect(v.comparisons[0]?.tol_rel).toBe(0.05); // the stated numerical allowance travels with the comparison, so the page can show it
-  });
+  it(
+    "without the nominal twin, a worst-case figure far " +
+      "above the nominal simulation still agrees (it is a " +
+      "bound)",
+    () => {
+      const v = judge(
+        { device_dissipation: p(4.8, "W") },
+        { ok: true, elapsed_s: 0, measurements: [m("device_dissipation", 1.1)] },
+        eng,
+        "h",
+      );
+      expect(v.status).toBe("agree");
+      expect(v.comparisons[0]).toMatchObject({ bound: "upper", ok: true });
+      // The stated numerical allowance travels with the comparison, so the page can show it.
+      expect(v.comparisons[0]?.tol_rel).toBe(0.05);
+    },
+  );
 
   it("a simulation above the worst-case bound disagrees, and the message says it exceeds the bound", () => {
     const measured: Measured = { ok: true, elapsed_s: 0, measurements: [m("device_dissipation", 2.2)] };

@@ -21,10 +21,14 @@ C1 out 0 100n
 const engines: EngineName[] = ["eecircuit-engine", ...(ngspiceAvailable() ? (["ngspice"] as const) : [])];
 if (!ngspiceAvailable())
   console.log(
-    "verify/engines: native ngspice not found at /usr/bin/ngspice: the ngspice cases and the cross-engine check are skipped",
+    "verify/engines: native ngspice not found at /usr/bin/ngspice: the ngspice cases and the cross-engine " +
+      "check are skipped",
   );
 
-/** The astable fixture's half-period measured at collector A (high while Q_A is off) and the model's own V_BE and V_CE(sat). */
+/**
+ * The astable fixture's half-period measured at collector A (high while Q_A is off) and the model's own V_BE and
+ * V_CE(sat).
+ */
 async function astable(engine: SpiceEngine) {
   const net = fixtureNetlist("astable-5v").replace(/^\.end\s*$/m, ".options method=gear\n.tran 1u 8m 0 2u\n.end");
   const r = await engine.run(net, ["v(ca)", "v(ba)"]);
@@ -52,23 +56,27 @@ describe.each(engines)("%s adapter", (name) => {
     expectClose(valueAt(r.t_s, r.vectors["v(out)"]!, 3 * tau_s), 10 * (1 - Math.exp(-3)), 2e-3);
   });
 
-  it("astable multivibrator: half-period = R·C·ln((2Vcc − V_BE − V_CE(sat)) / (Vcc − V_BE)) (Millman & Taub 1965, from memory)", async () => {
-    const { m, vbe_V, vcesat_V } = await astable(engine);
-    const R = 47e3;
-    const C = 10e-9;
-    const vcc = 5;
-    // Symmetric circuit: each half-period follows the formula, with the model's own V_BE and V_CE(sat).
-    const half_s = R * C * Math.log((2 * vcc - vbe_V - vcesat_V) / (vcc - vbe_V));
-    // 5 %: the formula takes the base as switching at exactly V_BE(on) and the full collector step
-    // coupling through C; the simulated base needs some overdrive and loses a little to r_b.
-    // 6 %: the formula lets the base start from V_BE(on) − swing and switch back on at the same
-    // V_BE(on); the model's junction starts conducting lower (cut-in), which shortens each half.
-    // Measured here: simulation 4.7 % below the formula in both engines.
-    expectClose(m.period_s, 2 * half_s, 0.06, `V_BE ${vbe_V.toFixed(3)} V, V_CE(sat) ${vcesat_V.toFixed(3)} V`);
-    expect(Math.abs(m.duty - 0.5)).toBeLessThan(0.02);
-    // Check coefficient at 5 V [src:millman-taub-1965] (V_BE 0.6, V_CE(sat) 0.1): 0.7484 → T = 2·0.7484·R·C.
-    expectClose(m.period_s, 2 * 0.7484 * R * C, 0.08, "coefficient 0.7484 at 5 V (derived [src:millman-taub-1965])");
-  });
+  it(
+    "astable multivibrator: half-period = R·C·ln((2Vcc − V_BE − V_CE(sat)) / (Vcc − V_BE)) (Millman & Taub 1965, " +
+      "from memory)",
+    async () => {
+      const { m, vbe_V, vcesat_V } = await astable(engine);
+      const R = 47e3;
+      const C = 10e-9;
+      const vcc = 5;
+      // Symmetric circuit: each half-period follows the formula, with the model's own V_BE and V_CE(sat).
+      const half_s = R * C * Math.log((2 * vcc - vbe_V - vcesat_V) / (vcc - vbe_V));
+      // 5 %: the formula takes the base as switching at exactly V_BE(on) and the full collector step
+      // coupling through C; the simulated base needs some overdrive and loses a little to r_b.
+      // 6 %: the formula lets the base start from V_BE(on) − swing and switch back on at the same
+      // V_BE(on); the model's junction starts conducting lower (cut-in), which shortens each half.
+      // Measured here: simulation 4.7 % below the formula in both engines.
+      expectClose(m.period_s, 2 * half_s, 0.06, `V_BE ${vbe_V.toFixed(3)} V, V_CE(sat) ${vcesat_V.toFixed(3)} V`);
+      expect(Math.abs(m.duty - 0.5)).toBeLessThan(0.02);
+      // Check coefficient at 5 V [src:millman-taub-1965] (V_BE 0.6, V_CE(sat) 0.1): 0.7484 → T = 2·0.7484·R·C.
+      expectClose(m.period_s, 2 * 0.7484 * R * C, 0.08, "coefficient 0.7484 at 5 V (derived [src:millman-taub-1965])");
+    },
+  );
 
   it("reports a netlist the engine cannot run as a SpiceRunError", async () => {
     await expect(

@@ -35,7 +35,9 @@ function target(o: Partial<VerifyTarget> = {}): VerifyTarget {
   };
 }
 
-/** Duty D; coil current runs out after `conduct` of the off-time; then a ring of amplitude V_bus − EMF (reaches 0 V). */
+/**
+ * Duty D; coil current runs out after `conduct` of the off-time; then a ring of amplitude V_bus − EMF (reaches 0 V).
+ */
 function valveRun(duty: number, conduct: number, withGate: boolean, periods = 8): Run {
   const t: number[] = [];
   const sw: number[] = [];
@@ -79,12 +81,16 @@ function valveRun(duty: number, conduct: number, withGate: boolean, periods = 8)
 }
 
 describe("an inductive load whose drain rings after its current has run out", () => {
-  it("the ring crosses the switched-node level several times a period: read there, the frequency comes out far too high", () => {
-    const m = loadTiming(target(), valveRun(0.3, 0.4, false), 0);
-    // Regression of the valve variants (2.3× the prediction): if this ever reads right, the
-    // synthetic ring no longer reaches the on-level and the gate test below proves nothing.
-    expect(m.kind === "pwm" ? m.frequency_Hz / 2162 : 0).toBeGreaterThan(1.5);
-  });
+  it(
+    "the ring crosses the switched-node level several times a period: read there, the frequency comes out far " +
+      "too high",
+    () => {
+      const m = loadTiming(target(), valveRun(0.3, 0.4, false), 0);
+      // Regression of the valve variants (2.3× the prediction): if this ever reads right, the
+      // synthetic ring no longer reaches the on-level and the gate test below proves nothing.
+      expect(m.kind === "pwm" ? m.frequency_Hz / 2162 : 0).toBeGreaterThan(1.5);
+    },
+  );
 
   it("read at the gate (V_GS through VTO), frequency and duty are those of the drive", () => {
     for (const duty of [0.2, 0.3, 0.55, 0.9]) {
@@ -100,7 +106,8 @@ describe("an inductive load whose drain rings after its current has run out", ()
 
 describe("gate probe from the netlist", () => {
   const netlist =
-    "MQ3 sw g 0 NMOS_LOGIC\n.model NMOS_LOGIC VDMOS(VTO=1.75 KP=16.16)\nMQ9 d gp vbus PM\n.model PM VDMOS(pchan VTO=-2 KP=3)\nQ4 c b 0 NPN\n";
+    "MQ3 sw g 0 NMOS_LOGIC\n.model NMOS_LOGIC VDMOS(VTO=1.75 KP=16.16)\nMQ9 d gp vbus PM\n.model PM " +
+    "VDMOS(pchan VTO=-2 KP=3)\nQ4 c b 0 NPN\n";
   it("finds gate, source, threshold and channel type", () => {
     expect(gateProbe(netlist, "mq3")).toEqual({ gateNet: "g", sourceNet: "0", vto_V: 1.75, sign: 1 });
     expect(gateProbe(netlist, "MQ9")).toEqual({ gateNet: "gp", sourceNet: "vbus", vto_V: -2, sign: -1 });
@@ -130,7 +137,8 @@ describe("a BJT switch whose collector rings after the winding's current has run
   });
   it("reads the output stage's cut-in from its card: V = NF·V_T·ln(1 + BF·I_B/IS) (Ebers–Moll forward law)", () => {
     const netlist =
-      "Q3 sw d1b d2b NS\nQ4 sw d2b 0 NP\n.model NS NPN(IS=7e-17 BF=335 NR=0.8)\n.model NP NPN(IS=2e-18 BF=24.7 NF=1.1)\n";
+      "Q3 sw d1b d2b NS\nQ4 sw d2b 0 NP\n.model NS NPN(IS=7e-17 BF=335 NR=0.8)\n.model NP NPN(IS=2e-18 BF=24.7 " +
+      "NF=1.1)\n";
     const p = baseProbe(netlist, ["q3", "q4"], 0.025693)!;
     expect(p).toMatchObject({ baseNet: "d2b", emitterNet: "0", sign: 1 });
     expectClose(p.cutIn_V, 1.1 * 0.025693 * Math.log1p((24.7 * 1e-7) / 2e-18), 1e-12, "cut-in");
@@ -160,13 +168,17 @@ describe("second solver retry", () => {
     };
   }
   const NETLIST = ".param ctrl=0.5\nVsupply vcc 0 DC 24\n.ic v(ca)=24 v(cb)=0\n.end\n";
-  it("runs with gear order 2, gmin, rshunt and a tenth of the step when the looser tolerances stop too, and says so", async () => {
-    const e = engine((d) => (d.includes("maxord=2") ? 1 : 0.6));
-    const run = await runAt(target({ inductive: false, loadTau_s: 0 }), NETLIST, e, 0.5);
-    expect([run.retried, run.retryLevel, e.decks.length]).toEqual([true, 2, 3]);
-    expect(e.decks[1]).toContain(RETRY_OPTIONS);
-    expect(e.decks[2]).toMatch(new RegExp(`^\\.options method=gear ${RETRY2_OPTIONS}$`, "m"));
-    const step = (d: string): number => Number(/^\.tran (\S+)/m.exec(d)![1]);
-    expectClose(step(e.decks[2]!), step(e.decks[0]!) / 10, 1e-9);
-  });
+  it(
+    "runs with gear order 2, gmin, rshunt and a tenth of the step when the looser tolerances stop too, and says " +
+      "so",
+    async () => {
+      const e = engine((d) => (d.includes("maxord=2") ? 1 : 0.6));
+      const run = await runAt(target({ inductive: false, loadTau_s: 0 }), NETLIST, e, 0.5);
+      expect([run.retried, run.retryLevel, e.decks.length]).toEqual([true, 2, 3]);
+      expect(e.decks[1]).toContain(RETRY_OPTIONS);
+      expect(e.decks[2]).toMatch(new RegExp(`^\\.options method=gear ${RETRY2_OPTIONS}$`, "m"));
+      const step = (d: string): number => Number(/^\.tran (\S+)/m.exec(d)![1]);
+      expectClose(step(e.decks[2]!), step(e.decks[0]!) / 10, 1e-9);
+    },
+  );
 });

@@ -46,10 +46,14 @@ describe("measureVariant on the darlington heater-mat fixture (12 V, 12 Ω)", ()
     expect(val(m, "duty_max")).toBeLessThanOrEqual(1);
   });
 
-  it("at ctrl = 1 the core stops: 5·R_C·C = 110 µs of collector recovery exceeds the short half-period R_B·C·ln 2 = 47 µs (recovery rule, common practice)", () => {
-    expect(val(m, "core_running_ctrl1")).toBe(0);
-    expect(val(m, "core_running_ctrl0")).toBe(1); // R_C = 1 kΩ on that side: 50 µs, recovers
-  });
+  it(
+    "at ctrl = 1 the core stops: 5·R_C·C = 110 µs of collector recovery exceeds the short half-period R_B·C·ln 2 " +
+      "= 47 µs (recovery rule, common practice)",
+    () => {
+      expect(val(m, "core_running_ctrl1")).toBe(0);
+      expect(val(m, "core_running_ctrl0")).toBe(1); // R_C = 1 kΩ on that side: 50 µs, recovers
+    },
+  );
 
   it("returns plot waveforms of at most 600 points per series, with finite values", () => {
     if (!m.ok || !m.waveforms) throw new Error("no waveforms");

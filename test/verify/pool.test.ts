@@ -56,7 +56,8 @@ describe("a simulation worker that dies does not hang the build", () => {
   });
 
   it(
-    "a worker that exits mid-job: the job is retried on a fresh worker, then reported failed with the reason; the rest agree",
+    "a worker that exits mid-job: the job is retried on a fresh worker, then reported failed with the reason; " +
+      "the rest agree",
     { timeout: 120_000 },
     async () => {
       const { cacheDir, result } = run(`exit-on=${MARK}`);

@@ -44,7 +44,10 @@ const DIODE_CURRENT_HEADROOM = 0.5;
 const DIODE_VOLTAGE_HEADROOM = 0.7;
 /** Standard-recovery rectifiers only up to this PWM frequency (recovery of several µs). */
 const STANDARD_RECOVERY_MAX_Hz = 1000;
-/** Timing-core supply current assumed when choosing the fuse ahead of sizing (tens of mA; the engine's own check follows). */
+/**
+ * Timing-core supply current assumed when choosing the fuse ahead of sizing (tens of mA; the engine's own check
+ * follows).
+ */
 const CORE_CURRENT_ESTIMATE_A = 0.05;
 
 /**
@@ -74,13 +77,24 @@ interface Need {
   pwm_Hz: number;
   ambientMin_C: number;
   ambientMax_C: number;
-  /** Highest off-state voltage across a load switch: V_cc,max plus the freewheel drop with a motor (as the engine checks it). */
+  /**
+   * Highest off-state voltage across a load switch: V_cc,max plus the freewheel drop with a motor (as the engine checks
+   * it).
+   */
   vOff_V: number;
-  /** Highest start-up peak a load switch carries over the record's load kinds (cold filament, stall; a declared limit applied). */
+  /**
+   * Highest start-up peak a load switch carries over the record's load kinds (cold filament, stall; a declared limit
+   * applied).
+   */
   peak_A: number;
-  /** Highest off-state voltage across the driver: a Darlington's first stage sits on the switch node (vOff_V), else V_cc,max. */
+  /**
+   * Highest off-state voltage across the driver: a Darlington's first stage sits on the switch node (vOff_V), else
+   * V_cc,max.
+   */
   driverVOff_V: number;
-  /** Largest clearing I²t of the supply fuse over the record's load kinds (0 when no fuse fits: the engine reports it). */
+  /**
+   * Largest clearing I²t of the supply fuse over the record's load kinds (0 when no fuse fits: the engine reports it).
+   */
   fuseClearing_A2s: number;
 }
 

@@ -75,7 +75,10 @@ export function loadModel(kind: LoadKind, supply_V: number, load_A: number, coil
         vf_V: 0,
         peak_A: lampInrush_A(load_A, "worst"),
         inductive: false,
-        note: `lamp: hot R = V/I; cold filament ≈ R/${LAMP_INRUSH_FACTOR.nominal} (up to 1/${LAMP_INRUSH_FACTOR.worst}), so the switch sees ≈ ${LAMP_INRUSH_FACTOR.worst}× inrush for a few ms (Fink & Beaty, 11th ed., from memory)`,
+        note:
+          `lamp: hot R = V/I; cold filament ≈ R/${LAMP_INRUSH_FACTOR.nominal} (up to ` +
+          `1/${LAMP_INRUSH_FACTOR.worst}), so the switch sees ≈ ${LAMP_INRUSH_FACTOR.worst}× inrush for a few ms ` +
+          `(Fink & Beaty, 11th ed., from memory)`,
       };
     }
     case "led": {
@@ -86,7 +89,9 @@ export function loadModel(kind: LoadKind, supply_V: number, load_A: number, coil
         vf_V: vf,
         peak_A: load_A,
         inductive: false,
-        note: `LED strip: string drop ≈ ${LED_STRING_SHARE * 100} % of the supply at nominal current, the rest in its series resistors (common practice)`,
+        note:
+          `LED strip: string drop ≈ ${LED_STRING_SHARE * 100} % of the supply at nominal current, the rest in ` +
+          `its series resistors (common practice)`,
       };
     }
     case "motor": {
@@ -97,7 +102,9 @@ export function loadModel(kind: LoadKind, supply_V: number, load_A: number, coil
         vf_V: supply_V - load_A * rWinding,
         peak_A: motorStall_A(supply_V, rWinding),
         inductive: true,
-        note: `motor: winding R = V/(${MOTOR_STALL_FACTOR}·I) from stall ≈ ${MOTOR_STALL_FACTOR}× running current, L = R·1 ms, back-EMF at running speed = V − I·R (typical small PM DC motor, from memory)`,
+        note:
+          `motor: winding R = V/(${MOTOR_STALL_FACTOR}·I) from stall ≈ ${MOTOR_STALL_FACTOR}× running current, L ` +
+          `= R·1 ms, back-EMF at running speed = V − I·R (typical small PM DC motor, from memory)`,
       };
     }
     case "solenoid": {
@@ -110,7 +117,9 @@ export function loadModel(kind: LoadKind, supply_V: number, load_A: number, coil
         vf_V: 0,
         peak_A: load_A,
         inductive: true,
-        note: `solenoid coil: R = V/I, L = R·τ with the record's τ = ${(coil.tau_s * 1e3).toPrecision(3)} ms, no back-EMF (armature closed; common practice)`,
+        note:
+          `solenoid coil: R = V/I, L = R·τ with the record's τ = ${(coil.tau_s * 1e3).toPrecision(3)} ms, no ` +
+          `back-EMF (armature closed; common practice)`,
       };
     }
     default: {

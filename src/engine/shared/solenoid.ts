@@ -47,7 +47,8 @@ export function holdDuty(v_V: number, vSw_V: number, vFw_V: number, i_A: number,
 
 /**
  * Peak-to-peak ripple of the coil current at duty D and frequency f, steady state, piecewise
- * exponential, with V' = V − V_sw + V_F passed as `vEff_V`: ΔI = (V'/R)·(1 − e^(−DT/τ))·(1 − e^(−(1−D)T/τ)) / (1 − e^(−T/τ)), V' = V − V_sw + V_F
+ * exponential, with V' = V − V_sw + V_F passed as `vEff_V`: ΔI = (V'/R)·(1 − e^(−DT/τ))·(1 − e^(−(1−D)T/τ)) / (1 −
+ * e^(−T/τ)), V' = V − V_sw + V_F
  * (derived from the step response above; for τ ≫ T it tends to V'·D·(1 − D)/(L·f), the buck-converter
  * ripple of Mohan et al., ch. 7).
  */

@@ -144,7 +144,8 @@ export const SOURCES = {
     kind: "standard",
     short: "JEDEC JESD51-2A",
     title:
-      "JEDEC JESD51-2A, Integrated Circuits Thermal Test Method Environmental Conditions — Natural Convection (Still Air)",
+      "JEDEC JESD51-2A, Integrated Circuits Thermal Test Method Environmental Conditions — Natural Convection " +
+      "(Still Air)",
     edition: "2008 (revision A)",
     where: "definition of θ_JA in still air",
     sureness: "seen",
@@ -180,7 +181,8 @@ export const SOURCES = {
     kind: "registered data",
     short: "still-air θ_JA by package",
     title:
-      "Still-air junction-to-ambient resistance of common discrete packages, as printed in data sheets of generic types",
+      "Still-air junction-to-ambient resistance of common discrete packages, as printed in data sheets of " +
+      "generic types",
     edition: "—",
     where: "thermal characteristics tables of generic-type data sheets",
     sureness: "seen",
@@ -199,7 +201,8 @@ export const SOURCES = {
     kind: "standard",
     short: "IEEE Std 1789-2015",
     title:
-      "IEEE Std 1789, Recommended Practices for Modulating Current in High-Brightness LEDs for Mitigating Health Risks to Viewers",
+      "IEEE Std 1789, Recommended Practices for Modulating Current in High-Brightness LEDs for Mitigating " +
+      "Health Risks to Viewers",
     edition: "2015",
     where: "§8.1.1 (low-risk and no-observable-effect regions)",
     sureness: "seen",
@@ -220,7 +223,8 @@ export const SOURCES = {
     kind: "standard",
     short: "NASA EEE-INST-002",
     title:
-      "NASA EEE-INST-002, Instructions for EEE Parts Selection, Screening, Qualification, and Derating (NASA/TP-2003-212242)",
+      "NASA EEE-INST-002, Instructions for EEE Parts Selection, Screening, Qualification, and Derating " +
+      "(NASA/TP-2003-212242)",
     edition: "2003, with Addendum 1 (2008)",
     where: "derating tables by part type",
     sureness: "from-memory",
@@ -400,7 +404,8 @@ export const SOURCES = {
     kind: "paper",
     short: "Gummel & Poon 1970",
     title:
-      "H. K. Gummel, H. C. Poon, An Integral Charge Control Model of Bipolar Transistors, Bell System Technical Journal 49",
+      "H. K. Gummel, H. C. Poon, An Integral Charge Control Model of Bipolar Transistors, Bell System " +
+      "Technical Journal 49",
     edition: "1970",
     where: "the model equations",
     sureness: "from-memory",
@@ -449,7 +454,9 @@ export const SOURCES = {
     where: "the ideal junction law",
     sureness: "from-memory",
     confidence: "from-memory",
-    note: "The junction current grows as exp(V/(N·V_T)) − 1; with a series resistance it is the law SPICE's diode obeys.",
+    note:
+      "The junction current grows as exp(V/(N·V_T)) − 1; with a series resistance it is the law SPICE's diode " +
+      "obeys.",
     values: [{ item: "junction law", value: "I = IS·(exp(V/(N·V_T)) − 1)", sureness: "from-memory" }],
   },
   "brent-1973": {

@@ -64,7 +64,8 @@ export function batterySystemsText(chem: BatteryChemistry): string {
   return b.cells
     .map(
       (n) =>
-        `${round3(n * b.nominal_VperCell)} V: ${round3(n * b.endOfDischarge_VperCell)}–${round3(n * b.charge_VperCell)} V`,
+        `${round3(n * b.nominal_VperCell)} V: ` +
+        `${round3(n * b.endOfDischarge_VperCell)}–${round3(n * b.charge_VperCell)} V`,
     )
     .join(", ");
 }
@@ -100,7 +101,8 @@ export function supplyWindow(s: SupplyStatement, nominal_V: number): SupplyWindo
     const sys = batterySystem(s.battery, nominal_V);
     if (sys === undefined) {
       throw new EngineMisuseError(
-        `supplyWindow: ${nominal_V} V is not within a ${BATTERIES[s.battery].title} system (${batterySystemsText(s.battery)})`,
+        `supplyWindow: ${nominal_V} V is not within a ${BATTERIES[s.battery].title} system ` +
+          `(${batterySystemsText(s.battery)})`,
       );
     }
     const b = BATTERIES[s.battery];

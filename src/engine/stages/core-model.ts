@@ -63,7 +63,9 @@ export const CUT_IN_VBE_V = 0.5;
  */
 export const CUT_IN_BASE_A = 1e-7;
 
-/** Base-node level at which an off timing transistor comes back on: V_γ (+ the base diode's V_F at the cut-in current). */
+/**
+ * Base-node level at which an off timing transistor comes back on: V_γ (+ the base diode's V_F at the cut-in current).
+ */
 export function cutIn_V(diodes: boolean, db: DiodeClass, t_C: number): number {
   return CUT_IN_VBE_V + VBE_TEMPCO_VperK * (t_C - NOMINAL_TEMP_C) + (diodes ? diodeVf_V(db, CUT_IN_BASE_A, t_C) : 0);
 }
@@ -128,7 +130,10 @@ export function evalCore(v: CoreValues, q: BjtClass, db: DiodeClass, k: Corner, 
   return { timing, f_Hz: 1 / timing.period_s, duty, dtTh_s, vOn_V, vCutIn_V, vSat_V };
 }
 
-/** All 2^9 corners of supply, temperature and the seven component tolerances (the brute-force reference for worst-corners.ts). */
+/**
+ * All 2^9 corners of supply, temperature and the seven component tolerances (the brute-force reference for
+ * worst-corners.ts).
+ */
 export function corners(
   vMin: number,
   vMax: number,

@@ -48,9 +48,17 @@ const LOAD_WORD: Record<string, string> = {
 function wiperFault(ctx: Ctx): string {
   const load = LOAD_WORD[ctx.spec.load_kind] ?? "load";
   if (ctx.spec.chain === "mosfet-driver") {
-    return `Lifted potentiometer wiper: both timing transistors lose their base feed and turn off; this chain inverts, so the ${load} turns off (fails safe).`;
+    return (
+      `Lifted potentiometer wiper: both timing transistors lose their base feed and turn off; this chain ` +
+      `inverts, so the ${load} turns off (fails safe).`
+    );
   }
-  return `Lifted potentiometer wiper (worn or dirty track): both timing transistors lose their base feed and turn off, both collectors rise to the rail, and this non-inverting chain holds the ${load} fully on at every setting. Use a sealed (cermet) potentiometer, and keep an independent way to switch the ${load} off${ctx.spec.load_kind === "resistive" ? " (and the heater's over-temperature cut-out)" : ""}.`;
+  return (
+    `Lifted potentiometer wiper (worn or dirty track): both timing transistors lose their base feed and turn ` +
+    `off, both collectors rise to the rail, and this non-inverting chain holds the ${load} fully on at every ` +
+    `setting. Use a sealed (cermet) potentiometer, and keep an independent way to switch the ${load} ` +
+    `off${ctx.spec.load_kind === "resistive" ? " (and the heater's over-temperature cut-out)" : ""}.`
+  );
 }
 
 function inputFault(ctx: Ctx): string {
@@ -59,13 +67,25 @@ function inputFault(ctx: Ctx): string {
       return "Open tap resistor: RBE holds the power transistor's base low, the load stays off (fails safe).";
     case "darlington-2":
     case "darlington-3":
-      return "Open tap resistor: the first base floats; RBE bleeds the last base, so only leakage flows and the load stays off (fails safe).";
+      return (
+        "Open tap resistor: the first base floats; RBE bleeds the last base, so only leakage flows and the load " +
+        "stays off (fails safe)."
+      );
     case "bjt-driver-pnp":
-      return "Open tap resistor or open RB_P: the PNP loses its base current and RPU holds it off (fails safe). An open RPU leaves the PNP base held only by the driver's leakage: the load may creep on when hot.";
+      return (
+        "Open tap resistor or open RB_P: the PNP loses its base current and RPU holds it off (fails safe). An " +
+        "open RPU leaves the PNP base held only by the driver's leakage: the load may creep on when hot."
+      );
     case "mosfet-logic":
-      return "Open gate feed resistor: RGS holds the gate low, the load stays off (fails safe). An open RGS leaves the gate charged when the tap falls slowly: check it at commissioning.";
+      return (
+        "Open gate feed resistor: RGS holds the gate low, the load stays off (fails safe). An open RGS leaves " +
+        "the gate charged when the tap falls slowly: check it at commissioning."
+      );
     case "mosfet-driver":
-      return "Open tap resistor: the NPN driver turns off, its pull-up drives the follower and the gate high, and the load runs fully on (this chain inverts). An open RG lets RGS hold the gate low (off).";
+      return (
+        "Open tap resistor: the NPN driver turns off, its pull-up drives the follower and the gate high, and the " +
+        "load runs fully on (this chain inverts). An open RG lets RGS hold the gate low (off)."
+      );
   }
 }
 
@@ -77,7 +97,11 @@ function shortFault(ctx: Ctx): string {
       : ctx.load.inductive
         ? " An open freewheel diode is the usual cause: the kick-back breaks the switch down."
         : "";
-  return `Shorted power switch (how an overstressed transistor usually fails): the ${load} runs fully on whatever the control says, and the fuse, sized for the ${load}'s own current, does not open; switch the supply off to stop it.${extra}`;
+  return (
+    `Shorted power switch (how an overstressed transistor usually fails): the ${load} runs fully on whatever the ` +
+    `control says, and the fuse, sized for the ${load}'s own current, does not open; switch the supply off to ` +
+    `stop it.${extra}`
+  );
 }
 
 /** `heatsunk`: roles the thermal stage puts on a heatsink (a condition of the verdict). */
@@ -103,13 +127,17 @@ export function reviewFailures(
       `${pkg} tab is the ${node} (switched node, live): mount with an insulator kit (pad and insulating bush)`,
     );
     cautions.push(
-      `Live tab: the ${pkg} tab of ${power.ref || power.role} is its ${node}, the switched node at up to ${ctx.vMax_V.toFixed(1)} V. Mount it on a grounded heatsink or chassis only with an insulator kit (thermal pad and insulating bush), and keep the tab from touching other metal.`,
+      `Live tab: the ${pkg} tab of ${power.ref || power.role} is its ${node}, the switched node at up to ` +
+        `${ctx.vMax_V.toFixed(1)} V. Mount it on a grounded heatsink or chassis only with an insulator kit ` +
+        `(thermal pad and insulating bush), and keep the tab from touching other metal.`,
     );
     if (heatsunk.has(power.role)) {
       conditions.push({
         rule: "insulator-kit",
         path: `/parts/${power.role}`,
-        text: `${power.role}'s live ${pkg} tab insulated from the heatsink by an insulator kit (its pad adds thermal resistance: allow for it in the heatsink), or the heatsink isolated from every other metal`,
+        text:
+          `${power.role}'s live ${pkg} tab insulated from the heatsink by an insulator kit (its pad adds thermal ` +
+          `resistance: allow for it in the heatsink), or the heatsink isolated from every other metal`,
       });
     }
   }
@@ -136,7 +164,9 @@ export function reviewFailures(
       hot = true;
       const ref = parts.find((p) => p.role === l.role)?.ref || l.role;
       cautions.push(
-        `Hot surface: ${ref}'s case reaches about ${tCase.toFixed(0)} °C at ${ctx.taMax_C} °C ambient without a heatsink (above ${HOT_SURFACE_C} °C: burns on touch). Keep it out of reach, away from plastics and plant material${l.isPower ? ", or fit a heatsink to run it cooler" : ""}.`,
+        `Hot surface: ${ref}'s case reaches about ${tCase.toFixed(0)} °C at ${ctx.taMax_C} °C ambient without ` +
+          `a heatsink (above ${HOT_SURFACE_C} °C: burns on touch). Keep it out of reach, away from plastics and ` +
+          `plant material${l.isPower ? ", or fit a heatsink to run it cooler" : ""}.`,
       );
     }
   }

@@ -57,18 +57,23 @@ export function verdictLead(ctx: Ctx): string {
 
 export function cautions(ctx: Ctx, hot: boolean): string[] {
   const out = [
-    "Low-voltage DC only. Build and install to local codes and licensed practice; this is a reviewed design, not a certified product.",
-    "Battery-backed supply: a short can deliver hundreds of amperes. Fit the fuse at the battery and use wire rated for the fuse.",
+    "Low-voltage DC only. Build and install to local codes and licensed practice; this is a reviewed design, " +
+      "not a certified product.",
+    "Battery-backed supply: a short can deliver hundreds of amperes. Fit the fuse at the battery and use wire " +
+      "rated for the fuse.",
   ];
   if (hot)
     out.push(
-      "Hot surfaces: the power device and its heatsink can exceed 60 °C — burn and fire risk; keep clear of plastics and plant material.",
+      "Hot surfaces: the power device and its heatsink can exceed 60 °C — burn and fire risk; keep clear of " +
+        "plastics and plant material.",
     );
   if (ctx.load.inductive) {
     out.push(
       ctx.spec.load_kind === "motor"
-        ? "Inductive kick-back: never run the motor without the freewheel diode fitted; a stalled motor draws several times its running current."
-        : "Inductive kick-back: never run the valve coil without the freewheel diode fitted; without it the coil's switch-off spike breaks the switch down.",
+        ? "Inductive kick-back: never run the motor without the freewheel diode fitted; a stalled motor draws " +
+            "several times its running current."
+        : "Inductive kick-back: never run the valve coil without the freewheel diode fitted; without it the " +
+            "coil's switch-off spike breaks the switch down.",
     );
   }
   if (ctx.spec.load_kind === "lamp")

@@ -89,7 +89,10 @@ export function loadStage(
         "/parts/LOAD",
         "load-starved",
         "error",
-        `The switch drops ${vSwNom_V.toFixed(2)} V when on, so the ${kind === "led" ? "LED strip" : kind === "resistive" ? "heater" : kind} ${what} (below ${pct(STARVED_FRACTION)}): choose a chain with a lower on-voltage (a MOSFET chain, or fewer Darlington stages).`,
+        `The switch drops ${vSwNom_V.toFixed(2)} V when on, so the ` +
+          `${kind === "led" ? "LED strip" : kind === "resistive" ? "heater" : kind} ${what} (below ` +
+          `${pct(STARVED_FRACTION)}): choose a chain with a lower on-voltage (a MOSFET chain, or fewer ` +
+          `Darlington stages).`,
         { limit: STARVED_FRACTION, actual: share, unit: "" },
       ),
     );
@@ -118,7 +121,9 @@ export function loadStage(
         vSwNom_V,
         "V",
         "chain",
-        "V_CE(sat) at forced β 10 (PNP driver: datasheet line V_0 + I·R_C at the actual I_C); Darlington V_CE(sat),1 (datasheet line) + Σ V_BE of the followers at I_B = I_C/β (junction law + R_B from the V_BE(sat) points); MOSFET I·R_DS(on) at the gate drive reached",
+        "V_CE(sat) at forced β 10 (PNP driver: datasheet line V_0 + I·R_C at the actual I_C); Darlington " +
+          "V_CE(sat),1 (datasheet line) + Σ V_BE of the followers at I_B = I_C/β (junction law + R_B from the " +
+          "V_BE(sat) points); MOSFET I·R_DS(on) at the gate drive reached",
         "derived",
       ),
       figure("load_current_on", "Load current when on (nominal supply)", iOn_A, "A", "load", formula, "derived"),

@@ -172,7 +172,8 @@ export function protectionStage(
           "/protection/inrush_limit/limit_A",
           "current-limit-too-low",
           "error",
-          `The declared current limit of ${lim.limit_A} A is not above the ${ev.iRun_A.toPrecision(3)} A the load draws running at ${ctx.vMax_V.toPrecision(3)} V: the load would never start. Raise the limit.`,
+          `The declared current limit of ${lim.limit_A} A is not above the ${ev.iRun_A.toPrecision(3)} A the ` +
+            `load draws running at ${ctx.vMax_V.toPrecision(3)} V: the load would never start. Raise the limit.`,
           { limit: ev.iRun_A, actual: lim.limit_A, unit: "A" },
         ),
       );
@@ -250,7 +251,9 @@ export function protectionStage(
           `/parts/${power.role}`,
           "soa-unknown",
           "error",
-          `${power.role} holds ${su.linear.p_W.toPrecision(3)} W for ${(su.linear.t_s * 1e3).toPrecision(3)} ms under the current limit, and its device class gives no single-pulse safe operating area: add soa_pulse to the class, or use one that has it.`,
+          `${power.role} holds ${su.linear.p_W.toPrecision(3)} W for ${(su.linear.t_s * 1e3).toPrecision(3)} ` +
+            `ms under the current limit, and its device class gives no single-pulse safe operating area: add ` +
+            `soa_pulse to the class, or use one that has it.`,
         ),
       );
     } else {
@@ -291,7 +294,9 @@ export function protectionStage(
         "/parts/F_SUPPLY",
         "no-fuse",
         "error",
-        `No fuse of the families known to the engine carries ${iCont.toPrecision(3)} A continuously and rides through a ${su.i2t_A2s.toPrecision(3)} A²s start-up at ${ctx.vMax_V.toPrecision(3)} V: declare a soft start or current limit, or split the load.`,
+        `No fuse of the families known to the engine carries ${iCont.toPrecision(3)} A continuously and rides ` +
+          `through a ${su.i2t_A2s.toPrecision(3)} A²s start-up at ${ctx.vMax_V.toPrecision(3)} V: declare a soft ` +
+          `start or current limit, or split the load.`,
       ),
     );
   }
@@ -303,7 +308,9 @@ export function protectionStage(
     role: "F_SUPPLY",
     value: fuse.rating_A,
     unit: "A",
-    description: `Fuse ${fuse.rating_A} A ${fam.title}, ${fam.voltage_V} V, fitted next to the battery — carries ${iCont.toPrecision(3)} A worst case; start-up ${su.i2t_A2s.toPrecision(2)} A²s`,
+    description:
+      `Fuse ${fuse.rating_A} A ${fam.title}, ${fam.voltage_V} V, fitted next to the battery — carries ` +
+      `${iCont.toPrecision(3)} A worst case; start-up ${su.i2t_A2s.toPrecision(2)} A²s`,
     rating: { current_A: fuse.rating_A, voltage_V: fam.voltage_V },
     stress: { current_A: iCont, voltage_V: ctx.vMax_V },
     pins: { a: "vcc", b: "vbus" },
@@ -364,7 +371,8 @@ export function protectionStage(
       fuse.rating_A,
       "A",
       "supply",
-      "smallest rating with I_cont ≤ 75 % (hot-rerated), V_max ≤ 80 % of rated voltage, start-up I²t ≤ ½ pre-arcing I²t",
+      "smallest rating with I_cont ≤ 75 % (hot-rerated), V_max ≤ 80 % of rated voltage, start-up I²t ≤ ½ " +
+        "pre-arcing I²t",
       fam.source,
     ),
   );
@@ -419,7 +427,11 @@ export function protectionStage(
         "/parts/D_REVERSE",
         "reverse-surge",
         "error",
-        `The reverse-polarity diode's surge rating (${rev.ifsm_A} A, ${diodeSurgeI2t_A2s(rev.ifsm_A).toPrecision(3)} A²s) is below the ${clearing.toPrecision(3)} A²s the ${fuse.rating_A} A fuse lets through before it clears: on a reversed battery the diode fails first. Bind a diode class with a higher I_FSM, or use series reverse protection (a series Schottky or P-MOSFET, not yet sized by this engine).`,
+        `The reverse-polarity diode's surge rating (${rev.ifsm_A} A, ` +
+          `${diodeSurgeI2t_A2s(rev.ifsm_A).toPrecision(3)} A²s) is below the ${clearing.toPrecision(3)} A²s the ` +
+          `${fuse.rating_A} A fuse lets through before it clears: on a reversed battery the diode fails first. ` +
+          `Bind a diode class with a higher I_FSM, or use series reverse protection (a series Schottky or ` +
+          `P-MOSFET, not yet sized by this engine).`,
         { limit: diodeSurgeI2t_A2s(rev.ifsm_A), actual: clearing, unit: "A²s" },
       ),
     );
@@ -487,7 +499,8 @@ export function protectionStage(
           "/parts/D_FREEWHEEL",
           "freewheel-recovery",
           share > 0.05 ? "error" : "warning",
-          `The ${fw.recovery}-recovery freewheel diode takes ${(fw.trr_s * 1e6).toPrecision(2)} µs to recover, ${(share * 100).toFixed(1)} % of the PWM period: use a fast or Schottky diode.`,
+          `The ${fw.recovery}-recovery freewheel diode takes ${(fw.trr_s * 1e6).toPrecision(2)} µs to recover, ` +
+            `${(share * 100).toFixed(1)} % of the PWM period: use a fast or Schottky diode.`,
           { limit: 0.01, actual: share, unit: "" },
         ),
       );
@@ -513,7 +526,8 @@ export function protectionStage(
           "/targets/pwm_Hz",
           "flicker",
           "warning",
-          `Full-depth PWM at ${fMin_Hz.toFixed(0)} Hz (worst case) is outside IEEE 1789's low-risk region (needs ≥ 1250 Hz); raise the PWM frequency for grow lights people work under.`,
+          `Full-depth PWM at ${fMin_Hz.toFixed(0)} Hz (worst case) is outside IEEE 1789's low-risk region ` +
+            `(needs ≥ 1250 Hz); raise the PWM frequency for grow lights people work under.`,
           { limit: 1250, actual: fMin_Hz, unit: "Hz" },
         ),
       );
@@ -524,7 +538,8 @@ export function protectionStage(
           "/targets/pwm_Hz",
           "flicker",
           "note",
-          `Full-depth PWM at ≥ ${fMin_Hz.toFixed(0)} Hz: IEEE 1789 ${region === "low-risk" ? "low-risk" : "no-observable-effect"} region.`,
+          `Full-depth PWM at ≥ ${fMin_Hz.toFixed(0)} Hz: IEEE 1789 ` +
+            `${region === "low-risk" ? "low-risk" : "no-observable-effect"} region.`,
         ),
       );
   }

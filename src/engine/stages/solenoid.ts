@@ -64,7 +64,9 @@ export function solenoidScheme(
         "/parts/LOAD",
         "solenoid-pull-in",
         "error",
-        `At the lowest supply (${ctx.vMin_V.toPrecision(3)} V) the coil draws at most ${A(iFullMin)} full on, below its ${A(iPull)} pull-in current: the valve would not open. Choose a chain with a lower on-voltage, or a coil rated for this supply.`,
+        `At the lowest supply (${ctx.vMin_V.toPrecision(3)} V) the coil draws at most ${A(iFullMin)} full on, ` +
+          `below its ${A(iPull)} pull-in current: the valve would not open. Choose a chain with a lower ` +
+          `on-voltage, or a coil rated for this supply.`,
         { limit: iPull, actual: iFullMin, unit: "A" },
       ),
     );
@@ -75,7 +77,10 @@ export function solenoidScheme(
         "/parts/LOAD",
         "solenoid-pull-in-drive",
         "warning",
-        `Pull-in needs the coil full on for ${(tFull * 1e3).toPrecision(3)} ms at the lowest supply; the PWM at its top end (duty ${pct(reach.hi)}) gives only ${A(iTopMin)} of the ${A(iPull)} pull-in current there. This driver has no pull-in timer: at the lowest supplies the valve may not open from the PWM alone.`,
+        `Pull-in needs the coil full on for ${(tFull * 1e3).toPrecision(3)} ms at the lowest supply; the PWM ` +
+          `at its top end (duty ${pct(reach.hi)}) gives only ${A(iTopMin)} of the ${A(iPull)} pull-in current ` +
+          `there. This driver has no pull-in timer: at the lowest supplies the valve may not open from the PWM ` +
+          `alone.`,
         { limit: iPull, actual: iTopMin, unit: "A" },
       ),
     );
@@ -87,7 +92,8 @@ export function solenoidScheme(
         "/targets/duty_max",
         "solenoid-hold",
         "error",
-        `Holding the armature needs a duty of ${pct(dHold)} at the lowest supply, above the ${pct(reach.hi)} the control surely reaches: raise duty_max or use a coil with a lower hold share.`,
+        `Holding the armature needs a duty of ${pct(dHold)} at the lowest supply, above the ${pct(reach.hi)} ` +
+          `the control surely reaches: raise duty_max or use a coil with a lower hold share.`,
         { limit: reach.hi, actual: dHold, unit: "" },
       ),
     );
@@ -98,7 +104,8 @@ export function solenoidScheme(
         "/targets/duty_min",
         "solenoid-hold-floor",
         "note",
-        `The hold current needs only ${pct(dHold)} duty at the lowest supply; the control's lowest setting (${pct(reach.lo)}) holds with ${A(iHoldNom)} at the nominal supply instead of ${A(iHold)}.`,
+        `The hold current needs only ${pct(dHold)} duty at the lowest supply; the control's lowest setting ` +
+          `(${pct(reach.lo)}) holds with ${A(iHoldNom)} at the nominal supply instead of ${A(iHold)}.`,
       ),
     );
   }
@@ -198,6 +205,8 @@ export function solenoidScheme(
   const pullText = Number.isFinite(tFull)
     ? `Pull-in ${A(iPull)} for ${(tFull * 1e3).toPrecision(3)} ms full on`
     : `Pull-in ${A(iPull)} is out of reach at the lowest supply (${A(iFullMin)} full on)`;
-  const note = `${pullText}, then hold at duty ${pct(dSet)} (${A(iHoldNom)} at ${ctx.vNom_V} V); the freewheel diode clamps the kick-back.`;
+  const note =
+    `${pullText}, then hold at duty ${pct(dSet)} (${A(iHoldNom)} at ${ctx.vNom_V} V); the freewheel diode clamps ` +
+    `the kick-back.`;
   return { iOn_A, figures, problems, note };
 }

@@ -130,7 +130,9 @@ export function designTap(ctx: Ctx, plan: ChainPlan): TapDesign {
           "/parts/RT",
           "tap-drive-insufficient",
           "error",
-          `The timing core cannot feed the chain's ${(need.i_A * 1e3).toPrecision(3)} mA input current: with R_C ≥ ${rcMin(ctx)} Ω (timing transistor current limit) there is no room for a tap resistor at ${ctx.vMin_V.toFixed(1)} V. Use a chain with a driver stage.`,
+          `The timing core cannot feed the chain's ${(need.i_A * 1e3).toPrecision(3)} mA input current: with ` +
+            `R_C ≥ ${rcMin(ctx)} Ω (timing transistor current limit) there is no room for a tap resistor at ` +
+            `${ctx.vMin_V.toFixed(1)} V. Use a chain with a driver stage.`,
           { limit: span / (rC * (1 + tol)), actual: need.i_A, unit: "A" },
         ),
       );
@@ -187,7 +189,8 @@ export function designTap(ctx: Ctx, plan: ChainPlan): TapDesign {
         "/parts/RG",
         "gate-window",
         "error",
-        `No gate divider keeps V_GS between ${need.vNeeded_V} V (at ${ctx.vMin_V.toFixed(1)} V) and the derated maximum ${need.vMax_V.toFixed(1)} V (at ${ctx.vMax_V.toFixed(1)} V).`,
+        `No gate divider keeps V_GS between ${need.vNeeded_V} V (at ${ctx.vMin_V.toFixed(1)} V) and the ` +
+          `derated maximum ${need.vMax_V.toFixed(1)} V (at ${ctx.vMax_V.toFixed(1)} V).`,
       ),
     );
     best = {

@@ -88,7 +88,9 @@ export function thermalStage(ctx: Ctx, losses: DeviceLoss[]): ThermalResult {
     // The check is computed under the condition that makes it hold (the heatsink), and says so.
     const tjCheck = checkTj(l.role, sinkOk ? tjSink : tj, l.dev.tj_max_C, pol, l.family);
     checks.push(sinkOk ? { ...tjCheck, condition: `on a heatsink of ≤ ${rSaShown.toFixed(1)} K/W` } : tjCheck);
-    const what = `${l.role} (${l.dev.package}) dissipates ${l.p_W.toFixed(2)} W: ${tj.toFixed(0)} °C free-standing at ${ta} °C ambient, over the ${limit.toFixed(0)} °C limit`;
+    const what =
+      `${l.role} (${l.dev.package}) dissipates ${l.p_W.toFixed(2)} W: ${tj.toFixed(0)} °C free-standing at ${ta} ` +
+      `°C ambient, over the ${limit.toFixed(0)} °C limit`;
     let verdict: HeatsinkVerdict;
     if (!canSink) {
       verdict = { needed: true, text: `not feasible: ${l.dev.package} cannot take a heatsink` };
@@ -114,7 +116,8 @@ export function thermalStage(ctx: Ctx, losses: DeviceLoss[]): ThermalResult {
           `/parts/${l.role}`,
           "heatsink-too-small",
           "error",
-          `${what}; needs a heatsink ≤ ${Math.max(rSa, 0).toFixed(2)} K/W, below the ${minOk} K/W this design accepts. Use a MOSFET chain.`,
+          `${what}; needs a heatsink ≤ ${Math.max(rSa, 0).toFixed(2)} K/W, below the ${minOk} K/W this design ` +
+            `accepts. Use a MOSFET chain.`,
           { limit: minOk, actual: Math.max(rSa, 0), unit: "K/W" },
         ),
       );

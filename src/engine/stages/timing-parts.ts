@@ -195,7 +195,9 @@ export function timingParts(
     value: v.pot_ohm,
     unit: "Ω",
     tolerance: POT_TOLERANCE,
-    description: `Linear potentiometer, ${potW} W ${potW > 1 ? "wirewound" : potW > 0.25 ? "cermet" : "carbon"} — duty control (wiper to the supply)`,
+    description:
+      `Linear potentiometer, ${potW} W ${potW > 1 ? "wirewound" : potW > 0.25 ? "cermet" : "carbon"} — duty ` +
+      `control (wiper to the supply)`,
     rating: { power_W: potW, current_A: Math.sqrt(potW / v.pot_ohm) },
     stress: { current_A: iBrms, power_W: pTrack },
     pins: { a: "pa", w: "vbus", b: "pb" },

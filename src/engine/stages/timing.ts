@@ -63,7 +63,9 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
           "/parts/Q_A",
           "vebo-breakdown",
           "error",
-          `At ${ctx.vMax_V.toFixed(1)} V the timing transistors' bases are driven ${vebReverse_V.toFixed(1)} V in reverse, over the derated V_EBO of ${vebAllowed.toFixed(1)} V: the B–E junctions break down. Allow series base diodes (protection.be_breakdown) or use a lower supply.`,
+          `At ${ctx.vMax_V.toFixed(1)} V the timing transistors' bases are driven ${vebReverse_V.toFixed(1)} V ` +
+            `in reverse, over the derated V_EBO of ${vebAllowed.toFixed(1)} V: the B–E junctions break down. ` +
+            `Allow series base diodes (protection.be_breakdown) or use a lower supply.`,
           { limit: vebAllowed, actual: vebReverse_V, unit: "V" },
         ),
       );
@@ -126,7 +128,11 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
         "/parts/RV_DUTY",
         "duty-range-unreachable",
         "error",
-        `No timing-core values reach the required duty range ${fmtPct(t.duty_min)}–${fmtPct(t.duty_max)} at ${ctx.f_Hz} Hz while keeping the timing transistors saturated (k ≥ 2 at minimum gain); the nearest reaches ${fmtPct(e0.duty)}–${fmtPct(e1.duty)} with overdrive k = ${search.overdrive.toFixed(2)} (R_C = ${v.rC_ohm} Ω, set by what the chain input needs; R_B,max ≤ β_min·R_C/2, and the pot's track current sets the smallest end resistor).`,
+        `No timing-core values reach the required duty range ${fmtPct(t.duty_min)}–${fmtPct(t.duty_max)} at ` +
+          `${ctx.f_Hz} Hz while keeping the timing transistors saturated (k ≥ 2 at minimum gain); the nearest ` +
+          `reaches ${fmtPct(e0.duty)}–${fmtPct(e1.duty)} with overdrive k = ${search.overdrive.toFixed(2)} (R_C ` +
+          `= ${v.rC_ohm} Ω, set by what the chain input needs; R_B,max ≤ β_min·R_C/2, and the pot's track ` +
+          `current sets the smallest end resistor).`,
       ),
     );
   // Any worst-case duty short of the record's range is a problem, whether or not the search passed.
@@ -141,7 +147,8 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
         "/parts/RV_DUTY",
         "duty-range-worst-case",
         "error",
-        `Worst case the control reaches only ${fmtPct(w.dMin.hi)}–${fmtPct(w.dMax.lo)} duty at the load, short of the required ${fmtPct(t.duty_min)}–${fmtPct(t.duty_max)}.`,
+        `Worst case the control reaches only ${fmtPct(w.dMin.hi)}–${fmtPct(w.dMax.lo)} duty at the load, short ` +
+          `of the required ${fmtPct(t.duty_min)}–${fmtPct(t.duty_max)}.`,
         { limit: t.duty_min, actual: w.dMin.hi, unit: "" },
       ),
     );
@@ -153,7 +160,10 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
         "/parts/DB_A",
         "base-diode-injection",
         "error",
-        `The base diodes' capacitance injects current into the floating base of the off timing transistor: 2·β·C_j·R_C/(R_B·C) = ${inj.toFixed(2)} (limit ${INJECTION_MAX}); the off collector sags and the core can stop with both transistors on. Use a larger timing capacitor with smaller base resistors, a smaller R_C, or a lower frequency.`,
+        `The base diodes' capacitance injects current into the floating base of the off timing transistor: ` +
+          `2·β·C_j·R_C/(R_B·C) = ${inj.toFixed(2)} (limit ${INJECTION_MAX}); the off collector sags and the core ` +
+          `can stop with both transistors on. Use a larger timing capacitor with smaller base resistors, a ` +
+          `smaller R_C, or a lower frequency.`,
         { limit: INJECTION_MAX, actual: inj, unit: "" },
       ),
     );
@@ -164,7 +174,8 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
         `/parts/${tap.tapNet === "ca" ? "RC_A" : "RC_B"}`,
         "threshold-unreached",
         "error",
-        "The tapped collector never rises to the chain's switching threshold at some corner: the load would not switch.",
+        "The tapped collector never rises to the chain's switching threshold at some corner: the load would " +
+          "not switch.",
       ),
     );
   // The worst-case frequency (every tolerance, supply and temperature corner) against the record's
@@ -176,7 +187,11 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
         "/parts/CT_A",
         "frequency-worst-case",
         "warning",
-        `Over every tolerance, supply and temperature corner the PWM frequency spans ${w.f.lo.toFixed(0)}–${w.f.hi.toFixed(0)} Hz around the ${ctx.f_Hz} Hz target (${fmtPct(w.f.lo / ctx.f_Hz - 1)} … ${fmtPct(w.f.hi / ctx.f_Hz - 1)}); the timing capacitors' tolerance dominates. If the load needs the target (audible whine, flicker), use 5 % capacitors or trim.`,
+        `Over every tolerance, supply and temperature corner the PWM frequency spans ` +
+          `${w.f.lo.toFixed(0)}–${w.f.hi.toFixed(0)} Hz around the ${ctx.f_Hz} Hz target ` +
+          `(${fmtPct(w.f.lo / ctx.f_Hz - 1)} … ${fmtPct(w.f.hi / ctx.f_Hz - 1)}); the timing capacitors' ` +
+          `tolerance dominates. If the load needs the target (audible whine, flicker), use 5 % capacitors or ` +
+          `trim.`,
         { limit: ctx.f_Hz, actual: w.f.lo, unit: "Hz" },
       ),
     );
@@ -198,7 +213,9 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
         "/parts/RC_A",
         "collector-recovery",
         "error",
-        `At worst case the collectors need 5·τ_c = ${w.recovery.toFixed(2)} × the shortest half-period to recover (limit ${MAX_RECOVERY}): the core can latch with both transistors on at the control's ends. Narrow the duty range or lower the frequency.`,
+        `At worst case the collectors need 5·τ_c = ${w.recovery.toFixed(2)} × the shortest half-period to ` +
+          `recover (limit ${MAX_RECOVERY}): the core can latch with both transistors on at the control's ends. ` +
+          `Narrow the duty range or lower the frequency.`,
         { limit: MAX_RECOVERY, actual: w.recovery, unit: "" },
       ),
     );
@@ -219,7 +236,10 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
       "/parts/RV_DUTY",
       "no-full-off-on",
       "note",
-      `The end resistors stop the control at ${fmtPct(e0.duty)}–${fmtPct(e1.duty)} (nominal); over all tolerances, supply and temperature the control is sure to reach ${fmtPct(w.dMin.hi)}–${fmtPct(w.dMax.lo)}. The load is never fully off or fully on from this control; use a separate switch for off.`,
+      `The end resistors stop the control at ${fmtPct(e0.duty)}–${fmtPct(e1.duty)} (nominal); over all ` +
+        `tolerances, supply and temperature the control is sure to reach ` +
+        `${fmtPct(w.dMin.hi)}–${fmtPct(w.dMax.lo)}. The load is never fully off or fully on from this control; ` +
+        `use a separate switch for off.`,
     ),
   );
   const built = timingParts(ctx, q, db, v, tap, { load: balance, diode: balanceDiode }, w, e5.vOn_V);

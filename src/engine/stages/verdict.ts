@@ -39,7 +39,10 @@ export const CHECK_WORDS: Record<string, string> = {
 export function checkMessage(c: StressCheck): string {
   const what = c.what ?? CHECK_WORDS[c.quantity] ?? c.quantity;
   const cond = c.condition !== undefined ? ` (${c.condition})` : "";
-  return `${c.ref}: ${what} ${c.stress.toPrecision(3)} ${c.unit} is ${(c.ratio * 100).toFixed(0)} % of its ${c.rating.toPrecision(3)} ${c.unit} rating${cond}; the rule allows ${(c.allowed * 100).toFixed(0)} %.`;
+  return (
+    `${c.ref}: ${what} ${c.stress.toPrecision(3)} ${c.unit} is ${(c.ratio * 100).toFixed(0)} % of its ` +
+    `${c.rating.toPrecision(3)} ${c.unit} rating${cond}; the rule allows ${(c.allowed * 100).toFixed(0)} %.`
+  );
 }
 
 export interface VerdictInput {

@@ -15,7 +15,8 @@ export function chooseEngine(requested?: EngineName): EngineName {
   const wanted = requested ?? (process.env["PULSEWRIGHT_SPICE"] === "ngspice" ? "ngspice" : "eecircuit-engine");
   if (wanted === "ngspice" && !ngspiceAvailable()) {
     throw new SpiceRunError(
-      "native ngspice was requested but no executable was found (install the ngspice package or unset PULSEWRIGHT_SPICE)",
+      "native ngspice was requested but no executable was found (install the ngspice package or unset " +
+        "PULSEWRIGHT_SPICE)",
     );
   }
   return wanted;

@@ -56,7 +56,8 @@ describe("chooseDevices: defaults by current and voltage", () => {
     [1, "npn-medium"],
     // 0.09 A: only the high-gain TO-92 is out (75 mA); 2N3904 β ≈ 30·(0.1/0.09)^-1 ≈ 33, 2N2222A ≈ 90 → TO-18.
     [0.5, "npn-medium"],
-    // 0.36 A: TO-18 free air 0.36 A × 0.47 V... and Darlington 0.15 A × 1.5 V = 0.23 W × 437.5 = 100 K → 145 °C → TO-220.
+    // 0.36 A: TO-18 free air 0.36 A × 0.47 V... and Darlington 0.15 A × 1.5 V = 0.23 W × 437.5 = 100 K → 145 °C →
+    // TO-220.
     [2, "npn-power-to220"],
   ])(
     "driver_npn for a %s A load → %s (highest minimum gain among the classes whose ratings fit; common practice)",
@@ -65,9 +66,13 @@ describe("chooseDevices: defaults by current and voltage", () => {
     },
   );
 
-  it("picks the high-gain small-signal class for a light driver duty (0.3 A: 0.054 A ≤ 75 mA; β_min ≈ 230 vs 2N3904 ≈ 75)", () => {
-    expect(chooseDevices(record(20e3), lib, 12, 0.3).driver_npn.id).toBe("npn-small-signal-high-gain");
-  });
+  it(
+    "picks the high-gain small-signal class for a light driver duty (0.3 A: 0.054 A ≤ 75 mA; β_min ≈ 230 vs " +
+      "2N3904 ≈ 75)",
+    () => {
+      expect(chooseDevices(record(20e3), lib, 12, 0.3).driver_npn.id).toBe("npn-small-signal-high-gain");
+    },
+  );
 
   it("takes the largest class when none fits, leaving the verdict to the engine's stress checks", () => {
     expect(chooseDevices(record(20e3), lib, 24, 25).power_npn.id).toBe("npn-power-to3");

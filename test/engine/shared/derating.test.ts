@@ -16,14 +16,19 @@ describe("the default policy carries the published factors (docs/sources.md)", (
     ]);
     expect(policy.mosfet.vgs.confidence).toBe("seen");
   });
-  it("diodes: I_F 50 %, V_R 70 %; resistors 60 % power; capacitors 60 % voltage (NASA EEE-INST-002, from memory)", () => {
-    expect([
-      policy.diode.current.factor,
-      policy.diode.voltage.factor,
-      policy.resistor.power.factor,
-      policy.capacitor.voltage.factor,
-    ]).toEqual([0.5, 0.7, 0.6, 0.6]);
-  });
+  it(
+    "diodes: I_F 50 %, V_R 70 %; resistors 60 % power; " +
+      "capacitors 60 % voltage (NASA EEE-INST-002, from " +
+      "memory)",
+    () => {
+      expect([
+        policy.diode.current.factor,
+        policy.diode.voltage.factor,
+        policy.resistor.power.factor,
+        policy.capacitor.voltage.factor,
+      ]).toEqual([0.5, 0.7, 0.6, 0.6]);
+    },
+  );
   it("every recalled factor is marked from-memory, and marginal_above is 0.9", () => {
     expect(policy.bjt.power.confidence).toBe("from-memory");
     expect(policy.marginal_above).toBe(0.9);

@@ -16,10 +16,14 @@ import { LIB_DIODES } from "../../render/spice-library.ts";
 
 describe("Shockley's law V = N·V_T·ln(1 + I/IS) + I·RS (Shockley 1949; SPICE D element)", () => {
   const ideal = { is_A: 1e-14, n: 1, rs_ohm: 0 };
-  it("an ideal junction (N = 1) rises ≈ 59.2 mV per decade at 25 °C: V_T·ln 10 (Sedra & Smith, 'about 60 mV per decade')", () => {
-    expectClose(diodeVoltage_V(ideal, 1e-2) - diodeVoltage_V(ideal, 1e-3), VT_NOMINAL_V * Math.LN10, 1e-9);
-    expectClose(VT_NOMINAL_V * Math.LN10, 0.05916, 1e-3);
-  });
+  it(
+    "an ideal junction (N = 1) rises ≈ 59.2 mV per decade at 25 °C: V_T·ln 10 (Sedra & Smith, 'about 60 mV per " +
+      "decade')",
+    () => {
+      expectClose(diodeVoltage_V(ideal, 1e-2) - diodeVoltage_V(ideal, 1e-3), VT_NOMINAL_V * Math.LN10, 1e-9);
+      expectClose(VT_NOMINAL_V * Math.LN10, 0.05916, 1e-3);
+    },
+  );
   it("IS = 1e-14 A, 1 mA → V = V_T·ln(1 + 1e11) = 0.6505 V at 25 °C (hand: 0.0256926·25.3284)", () => {
     expectClose(diodeVoltage_V(ideal, 1e-3), 0.65076, 1e-4);
   });

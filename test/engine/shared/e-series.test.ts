@@ -33,12 +33,16 @@ describe("IEC 60063 series lists", () => {
     expect(SERIES_MANTISSAS.E6.map((m) => m / 100)).toEqual(TABLE1_E6);
   });
 
-  it("E24 is not the rounded geometric series at 2.7 3.0 3.3 3.6 3.9 4.3 4.7 8.2 (IEC 60063 Table 1 [src:iec-60063])", () => {
-    const generated = Array.from({ length: 24 }, (_, k) => Math.round(10 * 10 ** (k / 24)) / 10);
-    const differs = TABLE1_E24.filter((v, k) => v !== generated[k]);
-    expect(differs).toEqual([2.7, 3.0, 3.3, 3.6, 3.9, 4.3, 4.7, 8.2]);
-    for (const v of differs) expect(isInSeries(v, "E24")).toBe(true);
-  });
+  it(
+    "E24 is not the rounded geometric series at 2.7 3.0 3.3 3.6 3.9 4.3 4.7 8.2 (IEC 60063 Table 1 " +
+      "[src:iec-60063])",
+    () => {
+      const generated = Array.from({ length: 24 }, (_, k) => Math.round(10 * 10 ** (k / 24)) / 10);
+      const differs = TABLE1_E24.filter((v, k) => v !== generated[k]);
+      expect(differs).toEqual([2.7, 3.0, 3.3, 3.6, 3.9, 4.3, 4.7, 8.2]);
+      for (const v of differs) expect(isInSeries(v, "E24")).toBe(true);
+    },
+  );
 
   it("E96 follows round(10^(k/96), 2) and matches Table 2 (from memory); E48 is every other E96 value", () => {
     expect([...SERIES_MANTISSAS.E96]).toEqual(TABLE2_E96);
@@ -61,9 +65,14 @@ describe("IEC 60063 series lists", () => {
     for (const v of SERIES_MANTISSAS.E12) expect(SERIES_MANTISSAS.E24).toContain(v);
   });
 
-  it("conventional tolerances: E6 20 %, E12 10 %, E24 5 %, E48 2 %, E96 1 % (IEC 60063 convention [src:iec-60063])", () => {
-    expect(SERIES_TOLERANCE).toEqual({ E6: 0.2, E12: 0.1, E24: 0.05, E48: 0.02, E96: 0.01 });
-  });
+  it(
+    "conventional tolerances: E6 20 %, E12 10 %, E24 5 %, " +
+      "E48 2 %, E96 1 % (IEC 60063 convention " +
+      "[src:iec-60063])",
+    () => {
+      expect(SERIES_TOLERANCE).toEqual({ E6: 0.2, E12: 0.1, E24: 0.05, E48: 0.02, E96: 0.01 });
+    },
+  );
 });
 
 describe("snapping across decades (exact values)", () => {
@@ -134,20 +143,24 @@ describe("snapping properties over many decades (fast-check)", () => {
     );
   });
 
-  it("roundUp and roundDown are adjacent: their ratio never exceeds the largest step of the IEC 60063 table lists above", () => {
-    const largestStep = (list: number[]) => Math.max(...list.map((x, i) => (list[i + 1] ?? list[0]! * 10) / x));
-    const e48 = TABLE2_E96.filter((_, k) => k % 2 === 0);
-    const maxStep = {
-      E6: largestStep(TABLE1_E6),
-      E12: largestStep(TABLE1_E12),
-      E24: largestStep(TABLE1_E24),
-      E48: largestStep(e48),
-      E96: largestStep(TABLE2_E96),
-    };
-    expect(maxStep.E12).toBeCloseTo(1.25, 12); // 1.2 → 1.5
-    fc.assert(
-      fc.property(value, series, (v, s) => roundUp(v, s) / roundDown(v, s) <= maxStep[s] * (1 + 1e-12)),
-      { numRuns: 2000 },
-    );
-  });
+  it(
+    "roundUp and roundDown are adjacent: their ratio never exceeds the largest step of the IEC 60063 table lists " +
+      "above",
+    () => {
+      const largestStep = (list: number[]) => Math.max(...list.map((x, i) => (list[i + 1] ?? list[0]! * 10) / x));
+      const e48 = TABLE2_E96.filter((_, k) => k % 2 === 0);
+      const maxStep = {
+        E6: largestStep(TABLE1_E6),
+        E12: largestStep(TABLE1_E12),
+        E24: largestStep(TABLE1_E24),
+        E48: largestStep(e48),
+        E96: largestStep(TABLE2_E96),
+      };
+      expect(maxStep.E12).toBeCloseTo(1.25, 12); // 1.2 → 1.5
+      fc.assert(
+        fc.property(value, series, (v, s) => roundUp(v, s) / roundDown(v, s) <= maxStep[s] * (1 + 1e-12)),
+        { numRuns: 2000 },
+      );
+    },
+  );
 });

@@ -66,7 +66,8 @@ describe("fuse rules", () => {
     expect([f?.family.id, f?.rating_A]).toEqual(["iec60127-t", 2]);
     // The same with a 2.1 A²s start-up: 2 A gives ½·4 = 2 A²s < 2.1 → 2.5 A (½·6.25 = 3.1 A²s).
     expect(chooseFuse({ continuous_A: 1.3, vMax_V: 14.7, taMax_C: 40, inrushI2t_A2s: 2.1 })?.rating_A).toBe(2.5);
-    // 8 A continuous at 29.4 V: beyond 6.3 A miniature; 32 V blade needs V_max ≤ 25.6 V → 58 V blade, 15 A (8/0.705 = 11.3 A).
+    // 8 A continuous at 29.4 V: beyond 6.3 A miniature; 32 V blade needs V_max ≤ 25.6 V → 58 V blade, 15 A (8/0.705 =
+    // 11.3 A).
     const b = chooseFuse({ continuous_A: 8, vMax_V: 29.4, taMax_C: 40, inrushI2t_A2s: 10 });
     expect([b?.family.id, b?.rating_A]).toEqual(["iso8820-58v", 15]);
   });

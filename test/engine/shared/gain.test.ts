@@ -8,23 +8,36 @@ const q3904 = bjt("npn-small-signal");
 const q3055 = bjt("npn-power-to3");
 
 describe("hfeMin: minimum gain from the class's gain points", () => {
-  it("returns the registered 2N3904 minima at their currents: 100 at 10 mA, 30 at 100 mA [src:jedec-registered]", () => {
-    expect(hfeMin(q3904, 0.01, 25)).toBe(100);
-    expect(hfeMin(q3904, 0.1, 25)).toBe(30);
-  });
+  it(
+    "returns the registered 2N3904 minima at their " +
+      "currents: 100 at 10 mA, 30 at 100 mA " +
+      "[src:jedec-registered]",
+    () => {
+      expect(hfeMin(q3904, 0.01, 25)).toBe(100);
+      expect(hfeMin(q3904, 0.1, 25)).toBe(30);
+    },
+  );
 
   it("returns the registered 2N3055 minima: 20 at 4 A, 5 at 10 A [src:jedec-registered]", () => {
     expect(hfeMin(q3055, 4, 25)).toBe(20);
     expect(hfeMin(q3055, 10, 25)).toBe(5);
   });
 
-  it("interpolates log-log: at the geometric mean of 10 mA and 50 mA the gain is the geometric mean of 100 and 60 (common practice: datasheet gain curves are straight on log-log paper)", () => {
-    expectClose(hfeMin(q3904, Math.sqrt(0.01 * 0.05), 25), Math.sqrt(100 * 60), 1e-12);
-  });
+  it(
+    "interpolates log-log: at the geometric mean of 10 mA and 50 mA the gain is the geometric mean of 100 and 60 " +
+      "(common practice: datasheet gain curves are straight on log-log paper)",
+    () => {
+      expectClose(hfeMin(q3904, Math.sqrt(0.01 * 0.05), 25), Math.sqrt(100 * 60), 1e-12);
+    },
+  );
 
-  it("above the last point it follows the last falling slope: 60→30 from 50 to 100 mA is slope −1, so 15 at 200 mA (derived)", () => {
-    expectClose(hfeMin(q3904, 0.2, 25), 15, 1e-12);
-  });
+  it(
+    "above the last point it follows the last falling slope: 60→30 from 50 to 100 mA is slope −1, so 15 at 200 " +
+      "mA (derived)",
+    () => {
+      expectClose(hfeMin(q3904, 0.2, 25), 15, 1e-12);
+    },
+  );
 
   it("never rises above the last point when the last segment rises", () => {
     const rising: BjtClass = {
@@ -41,9 +54,13 @@ describe("hfeMin: minimum gain from the class's gain points", () => {
     expect(hfeMin(q3904, 1e-5, 25)).toBe(40);
   });
 
-  it("falls when cold by the class tempco: 100 × (1 + 0.005 × (−40 − 25)) = 67.5 at −40 °C (common practice tempco)", () => {
-    expectClose(hfeMin(q3904, 0.01, -40), 67.5, 1e-12);
-  });
+  it(
+    "falls when cold by the class tempco: 100 × (1 + 0.005 × (−40 − 25)) = 67.5 at −40 °C (common practice " +
+      "tempco)",
+    () => {
+      expectClose(hfeMin(q3904, 0.01, -40), 67.5, 1e-12);
+    },
+  );
 
   it("is floored at 1, however far it is extrapolated", () => {
     expect(hfeMin(q3904, 100, -40)).toBe(1);
@@ -57,17 +74,25 @@ describe("hfeMin: minimum gain from the class's gain points", () => {
 });
 
 describe("saturation and on voltages", () => {
-  it("vceSat is the registered maximum at its points: 2N3055 class 1.1 V at 4 A, 2N2222A class 0.3 V at 150 mA and 1.0 V at 500 mA [src:jedec-registered]", () => {
-    expect(vceSat(q3055, 4)).toBe(1.1);
-    const q2222 = bjt("npn-medium");
-    expect(vceSat(q2222, 0.15)).toBe(0.3);
-    expect(vceSat(q2222, 0.5)).toBe(1.0);
-  });
+  it(
+    "vceSat is the registered maximum at its points: 2N3055 class 1.1 V at 4 A, 2N2222A class 0.3 V at 150 mA " +
+      "and 1.0 V at 500 mA [src:jedec-registered]",
+    () => {
+      expect(vceSat(q3055, 4)).toBe(1.1);
+      const q2222 = bjt("npn-medium");
+      expect(vceSat(q2222, 0.15)).toBe(0.3);
+      expect(vceSat(q2222, 0.5)).toBe(1.0);
+    },
+  );
 
-  it("vceSat interpolates linearly in I_C and extrapolates upward: 2N3904 class 0.25 V at 30 mA, 0.425 V at 100 mA (derived from its 10 and 50 mA points)", () => {
-    expectClose(vceSat(q3904, 0.03), 0.25, 1e-12);
-    expectClose(vceSat(q3904, 0.1), 0.3 + (0.1 / 0.04) * 0.05, 1e-12);
-  });
+  it(
+    "vceSat interpolates linearly in I_C and extrapolates upward: 2N3904 class 0.25 V at 30 mA, 0.425 V at 100 " +
+      "mA (derived from its 10 and 50 mA points)",
+    () => {
+      expectClose(vceSat(q3904, 0.03), 0.25, 1e-12);
+      expectClose(vceSat(q3904, 0.1), 0.3 + (0.1 / 0.04) * 0.05, 1e-12);
+    },
+  );
 
   it("vceSat below the first point holds the first (conservative) value", () => {
     expect(vceSat(q3904, 0.001)).toBe(0.2);

@@ -4,10 +4,14 @@ import { LOAD_KINDS } from "../../../src/model/kinds.ts";
 import { expectClose } from "../../helpers/close.ts";
 
 describe("peak currents", () => {
-  it("lamp inrush is 10–15× the running current: 12× nominal, 15× worst (Fink & Beaty, 11th ed., p. 22-8, from memory [src:fink-beaty-11e])", () => {
-    expect(lampInrush_A(1, "nominal")).toBe(12);
-    expect(lampInrush_A(1)).toBe(15);
-  });
+  it(
+    "lamp inrush is 10–15× the running current: 12× nominal, 15× worst (Fink & Beaty, 11th ed., p. 22-8, from " +
+      "memory [src:fink-beaty-11e])",
+    () => {
+      expect(lampInrush_A(1, "nominal")).toBe(12);
+      expect(lampInrush_A(1)).toBe(15);
+    },
+  );
   it("motor stall current = V / R_winding (Ohm's law with no back-EMF): 24 V / 3 Ω = 8 A", () => {
     expect(motorStall_A(24, 3)).toBe(8);
   });
@@ -31,14 +35,18 @@ describe("equivalent load models at rated current", () => {
     expectClose((24 - m.vf_V) / m.r_ohm, 2, 1e-12);
   });
 
-  it("motor: winding R = V/(4·I), L = R·1 ms, back-EMF makes the running current exactly I; stall = 4·I (typical small PM DC motor, from memory)", () => {
-    const m = loadModel("motor", 12, 2);
-    expectClose(m.r_ohm, 1.5, 1e-12);
-    expectClose(m.l_H, 1.5e-3, 1e-12);
-    expectClose((12 - m.vf_V) / m.r_ohm, 2, 1e-12, "running current");
-    expectClose(m.peak_A, 8, 1e-12, "stall current");
-    expect(m.inductive).toBe(true);
-  });
+  it(
+    "motor: winding R = V/(4·I), L = R·1 ms, back-EMF makes the running current exactly I; stall = 4·I (typical " +
+      "small PM DC motor, from memory)",
+    () => {
+      const m = loadModel("motor", 12, 2);
+      expectClose(m.r_ohm, 1.5, 1e-12);
+      expectClose(m.l_H, 1.5e-3, 1e-12);
+      expectClose((12 - m.vf_V) / m.r_ohm, 2, 1e-12, "running current");
+      expectClose(m.peak_A, 8, 1e-12, "stall current");
+      expect(m.inductive).toBe(true);
+    },
+  );
 
   it("every load kind yields finite, non-negative values and a note", () => {
     for (const k of LOAD_KINDS) {

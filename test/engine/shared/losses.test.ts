@@ -26,52 +26,60 @@ describe("switching loss follows from integrating linear ramps", () => {
     tOff = 0.8e-6,
     f = 15e3;
 
-  it("resistive load: v falls while i rises on the same ramp → ⅙·V·I·(t_on + t_off)·f (Rashid, Power Electronics, 4th ed., Example 4.2)", () => {
-    const on = energy(
-      (s) => V * (1 - s / tOn),
-      (s) => (I * s) / tOn,
-      tOn,
-    );
-    const off = energy(
-      (s) => (V * s) / tOff,
-      (s) => I * (1 - s / tOff),
-      tOff,
-    );
-    expectClose(switchingLoss_W(V, I, tOn, tOff, f, "resistive"), (on + off) * f, 1e-6);
-    expectClose(switchingLoss_W(V, I, tOn, tOff, f, "resistive"), (V * I * (tOn + tOff) * f) / 6, 1e-12);
-  });
+  it(
+    "resistive load: v falls while i rises on the same ramp → ⅙·V·I·(t_on + t_off)·f (Rashid, Power Electronics, " +
+      "4th ed., Example 4.2)",
+    () => {
+      const on = energy(
+        (s) => V * (1 - s / tOn),
+        (s) => (I * s) / tOn,
+        tOn,
+      );
+      const off = energy(
+        (s) => (V * s) / tOff,
+        (s) => I * (1 - s / tOff),
+        tOff,
+      );
+      expectClose(switchingLoss_W(V, I, tOn, tOff, f, "resistive"), (on + off) * f, 1e-6);
+      expectClose(switchingLoss_W(V, I, tOn, tOff, f, "resistive"), (V * I * (tOn + tOff) * f) / 6, 1e-12);
+    },
+  );
 
-  it("clamped inductive load: i ramps at full V, then v ramps at full I → ½·V·I·(t_on + t_off)·f (Mohan, Undeland, Robbins, 3rd ed., Eq. 2-6, from memory)", () => {
-    // Split each edge into a current ramp and a voltage ramp, in an arbitrary 30/70 proportion:
-    // the energy does not depend on the split.
-    const ri = 0.3 * tOn,
-      fv = 0.7 * tOn,
-      rv = 0.4 * tOff,
-      fi = 0.6 * tOff;
-    const on =
-      energy(
-        () => V,
-        (s) => (I * s) / ri,
-        ri,
-      ) +
-      energy(
-        (s) => V * (1 - s / fv),
-        () => I,
-        fv,
-      );
-    const off =
-      energy(
-        (s) => (V * s) / rv,
-        () => I,
-        rv,
-      ) +
-      energy(
-        () => V,
-        (s) => I * (1 - s / fi),
-        fi,
-      );
-    expectClose(switchingLoss_W(V, I, tOn, tOff, f, "clamped-inductive"), (on + off) * f, 1e-6);
-  });
+  it(
+    "clamped inductive load: i ramps at full V, then v ramps at full I → ½·V·I·(t_on + t_off)·f (Mohan, " +
+      "Undeland, Robbins, 3rd ed., Eq. 2-6, from memory)",
+    () => {
+      // Split each edge into a current ramp and a voltage ramp, in an arbitrary 30/70 proportion:
+      // the energy does not depend on the split.
+      const ri = 0.3 * tOn,
+        fv = 0.7 * tOn,
+        rv = 0.4 * tOff,
+        fi = 0.6 * tOff;
+      const on =
+        energy(
+          () => V,
+          (s) => (I * s) / ri,
+          ri,
+        ) +
+        energy(
+          (s) => V * (1 - s / fv),
+          () => I,
+          fv,
+        );
+      const off =
+        energy(
+          (s) => (V * s) / rv,
+          () => I,
+          rv,
+        ) +
+        energy(
+          () => V,
+          (s) => I * (1 - s / fi),
+          fi,
+        );
+      expectClose(switchingLoss_W(V, I, tOn, tOff, f, "clamped-inductive"), (on + off) * f, 1e-6);
+    },
+  );
 
   it("the clamped-inductive loss is three times the resistive one for the same edges (derived)", () => {
     expectClose(

@@ -9,10 +9,14 @@ import {
 import { expectClose } from "../../helpers/close.ts";
 
 describe("solenoid coil relations", () => {
-  it("step response: after one τ the current is (1 − 1/e) = 63.2 % of V/R (first-order R–L, Hayt & Kemmerly ch. 8, from memory)", () => {
-    expectClose(coilStep_A(24, 24, 0.01, 0.01), 1 - Math.exp(-1), 1e-12);
-    expectClose(coilStep_A(24, 24, 0.01, 0.05), 1 - Math.exp(-5), 1e-12);
-  });
+  it(
+    "step response: after one τ the current is (1 − 1/e) = 63.2 % of V/R (first-order R–L, Hayt & Kemmerly ch. " +
+      "8, from memory)",
+    () => {
+      expectClose(coilStep_A(24, 24, 0.01, 0.01), 1 - Math.exp(-1), 1e-12);
+      expectClose(coilStep_A(24, 24, 0.01, 0.05), 1 - Math.exp(-5), 1e-12);
+    },
+  );
   it("rise time inverts the step response; a current above V/R is never reached", () => {
     const t = coilRiseTime_s(20, 24, 0.01, 0.7);
     expectClose(coilStep_A(20, 24, 0.01, t), 0.7, 1e-12);
@@ -24,20 +28,24 @@ describe("solenoid coil relations", () => {
     // Ideal switch and diode: I = D·V/R.
     expectClose(coilAverage_A(24, 0, 0, 0.5, 24), 0.5, 1e-12);
   });
-  it("ripple tends to V·D(1 − D)/(L·f) for τ ≫ T (buck ripple, Mohan et al. ch. 7, from memory) and is 0 at D = 0 or 1", () => {
-    const exact = coilRipple_A(24, 0.5, 24, 1, 2000);
-    expectClose(exact, (24 * 0.25) / (24 * 2000), 1e-3);
-    expect(coilRipple_A(24, 1, 24, 0.01, 2000)).toBeCloseTo(0, 12);
-    // Simulated by stepping the exact exponential segments to steady state (derived check).
-    const [V, R, tau, f, D] = [24, 24, 0.002, 1000, 0.3];
-    let i = 0;
-    let lo = 0;
-    let hi = 0;
-    for (let k = 0; k < 200; k++) {
-      hi = V / R + (i - V / R) * Math.exp(-(D / f) / tau);
-      lo = hi * Math.exp(-((1 - D) / f) / tau);
-      i = lo;
-    }
-    expectClose(coilRipple_A(V, D, R, tau, f), hi - lo, 1e-9);
-  });
+  it(
+    "ripple tends to V·D(1 − D)/(L·f) for τ ≫ T (buck ripple, Mohan et al. ch. 7, from memory) and is 0 at D = 0 " +
+      "or 1",
+    () => {
+      const exact = coilRipple_A(24, 0.5, 24, 1, 2000);
+      expectClose(exact, (24 * 0.25) / (24 * 2000), 1e-3);
+      expect(coilRipple_A(24, 1, 24, 0.01, 2000)).toBeCloseTo(0, 12);
+      // Simulated by stepping the exact exponential segments to steady state (derived check).
+      const [V, R, tau, f, D] = [24, 24, 0.002, 1000, 0.3];
+      let i = 0;
+      let lo = 0;
+      let hi = 0;
+      for (let k = 0; k < 200; k++) {
+        hi = V / R + (i - V / R) * Math.exp(-(D / f) / tau);
+        lo = hi * Math.exp(-((1 - D) / f) / tau);
+        i = lo;
+      }
+      expectClose(coilRipple_A(V, D, R, tau, f), hi - lo, 1e-9);
+    },
+  );
 });

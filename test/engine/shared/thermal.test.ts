@@ -49,12 +49,16 @@ describe("heatsink bound (JESD51 series chain: R_θSA ≤ (T_J,lim − T_A)/P �
 });
 
 describe("power rating derated linearly above 25 °C", () => {
-  it("2N3904 class: 625 mW at 25 °C and T_J,max 150 °C imply θ_JA = 200 K/W, so at 85 °C both give 0.325 W (registered data [src:jedec-registered]; JESD51 relation)", () => {
-    const q = bjt("npn-small-signal");
-    const p85 = powerRatingAt_W(q.ptot_W, q.ptot_at, q.tj_max_C, 85);
-    expectClose(p85, 0.325, 1e-12);
-    expectClose(p85, (q.tj_max_C - 85) / q.rth_ja_KperW, 1e-12, "registered P_tot consistent with registered θ_JA");
-  });
+  it(
+    "2N3904 class: 625 mW at 25 °C and T_J,max 150 °C imply θ_JA = 200 K/W, so at 85 °C both give 0.325 W " +
+      "(registered data [src:jedec-registered]; JESD51 relation)",
+    () => {
+      const q = bjt("npn-small-signal");
+      const p85 = powerRatingAt_W(q.ptot_W, q.ptot_at, q.tj_max_C, 85);
+      expectClose(p85, 0.325, 1e-12);
+      expectClose(p85, (q.tj_max_C - 85) / q.rth_ja_KperW, 1e-12, "registered P_tot consistent with registered θ_JA");
+    },
+  );
 
   it("full rating at or below 25 °C, zero at or above T_J,max", () => {
     expect(powerRatingAt_W(115, "case", 200, 0)).toBe(115);

@@ -22,11 +22,15 @@ const setup = (o: SpecOpts) => {
 };
 
 describe("base-diode injection ratio 2·β·C_j·R_C/(R_B·C) (derived: i = C_j·dV/dt, I_C = β·I_B)", () => {
-  it("the simulated core that stopped with both transistors on: β 370, C_j 4 pF, R_C 10 kΩ, R_B 100 kΩ, C 150 pF → 1.973", () => {
-    // 2 × 370 × 4e-12 × 1e4 / (1e5 × 1.5e-10) = 2.96e-5 / 1.5e-5 = 1.97333
-    expectClose(baseInjectionRatio(370, 4e-12, 10_000, 100_000, 150e-12), 1.97333, 1e-5, "hand computation");
-    expect(baseInjectionRatio(370, 4e-12, 10_000, 100_000, 150e-12)).toBeGreaterThan(INJECTION_MAX);
-  });
+  it(
+    "the simulated core that stopped with both transistors on: β 370, C_j 4 pF, R_C 10 kΩ, R_B 100 kΩ, C 150 pF " +
+      "→ 1.973",
+    () => {
+      // 2 × 370 × 4e-12 × 1e4 / (1e5 × 1.5e-10) = 2.96e-5 / 1.5e-5 = 1.97333
+      expectClose(baseInjectionRatio(370, 4e-12, 10_000, 100_000, 150e-12), 1.97333, 1e-5, "hand computation");
+      expect(baseInjectionRatio(370, 4e-12, 10_000, 100_000, 150e-12)).toBeGreaterThan(INJECTION_MAX);
+    },
+  );
   it("the same core at mid control (R_B ≈ 335 kΩ, ran in simulation) is below the limit", () => {
     expect(baseInjectionRatio(370, 4e-12, 10_000, 335_000, 150e-12)).toBeLessThan(INJECTION_MAX);
   });

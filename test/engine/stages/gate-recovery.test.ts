@@ -26,17 +26,24 @@ const drive: RecoveringGateDrive = {
 const iSettled_A = (24 - 2) / 11e3 - 2 / 10e3;
 
 describe("turn-on from a recovering timing collector", () => {
-  it("with a vanishing timing capacitor reduces to the fixed-source law t = Q_pl·R/ΔV (resistive: ⅙·V·I·t exactly)", () => {
-    // Common practice gate-charge estimate; with a constant plateau current the x(1−x) overlap integrates to T/6 exactly.
-    const t = recoveringTurnOnEquivalent_s({ ...drive, cT_F: 1e-18 });
-    expectClose(t!, 7.2e-9 / iSettled_A, 0.01, "Q_pl / I_settled");
-  });
+  it(
+    "with a vanishing timing capacitor reduces to the " +
+      "fixed-source law t = Q_pl·R/ΔV (resistive: ⅙·V·I·t " +
+      "exactly)",
+    () => {
+      // Common practice gate-charge estimate; with a constant plateau current the x(1−x) overlap integrates to T/6
+      // exactly.
+      const t = recoveringTurnOnEquivalent_s({ ...drive, cT_F: 1e-18 });
+      expectClose(t!, 7.2e-9 / iSettled_A, 0.01, "Q_pl / I_settled");
+    },
+  );
 
   it("is slower than the fixed-source law when the collector is still rising through R_C·C_T", () => {
     const flat = 7.2e-9 / iSettled_A;
     const t = recoveringTurnOnEquivalent_s(drive)!;
     expect(t).toBeGreaterThan(flat * 1.02);
-    // The charge the gate misses while the collector catches up is ∫(V_ss − V_C)/R_G dt = δ₀·C_T·R_C/(R_C + R_G) ≤ C_T·V_ss
+    // The charge the gate misses while the collector catches up is ∫(V_ss − V_C)/R_G dt = δ₀·C_T·R_C/(R_C + R_G) ≤
+    // C_T·V_ss
     // (V_ss = 4 V here; derived from the node equation), so the delay is bounded by that charge at the settled current.
     expect(t).toBeLessThan((7.2e-9 + 820e-12 * 4.0) / iSettled_A);
   });
@@ -65,7 +72,8 @@ describe("turn-on from a recovering timing collector", () => {
 
 describe("plateau at the drain current", () => {
   it("follows the level-1 saturation law I = KP/2·(V_p − V_th)² with KP from the linear-region R_DS(on) law", () => {
-    // Derived: R_ch = 1/(KP·(V_GS − V_th)) in the linear region (same KP as saturation), common practice level-1 MOSFET law.
+    // Derived: R_ch = 1/(KP·(V_GS − V_th)) in the linear region (same KP as saturation), common practice level-1 MOSFET
+    // law.
     const dev = library().get("nmos-logic") as MosfetClass;
     const vto = plateauTyp_V(dev);
     const k = (rdsOnNominal_ohm(dev, vto + 1) - rdsOnNominal_ohm(dev, vto + 3)) / (1 - 1 / 3);

@@ -1,6 +1,7 @@
 /**
  * The load at its on-state operating point (src/engine/stages/load-point.ts, load.ts; the LED
- * string's diode law is src/engine/shared/diode.ts): LED string diode law, motor back-EMF at constant torque, the starved-load rule, and the nominal switching
+ * string's diode law is src/engine/shared/diode.ts): LED string diode law, motor back-EMF at constant torque, the
+ * starved-load rule, and the nominal switching
  * loss from nominal transition times. Hand arithmetic beside each check.
  */
 import { describe, expect, it } from "vitest";
@@ -51,20 +52,23 @@ describe("motor as a constant-torque load (average winding balance)", () => {
   });
 });
 
-describe(`starved load: on-state current (motor: load voltage) below ${STARVED_FRACTION * 100} % of rated is an error`, () => {
-  it("a 3-stage Darlington (≈ 2.5–3 V drop) on a 12 V LED strip starves it and says why", () => {
-    const s = size({ supply_V: 12, load_A: 1, chain: "darlington-3", load_kind: "led" });
-    const p = s.problems.find((x) => x.rule === "load-starved");
-    expect(p?.severity).toBe("error");
-    expect(p?.message).toMatch(/switch drops \d\.\d\d V .*lower on-voltage/);
-    expect(s.feasible).toBe(false);
-  });
-  it("a logic MOSFET on the same strip does not", () => {
-    const s = size({ supply_V: 12, load_A: 1, chain: "mosfet-logic", load_kind: "led" });
-    expect(s.problems.some((x) => x.rule === "load-starved")).toBe(false);
-    expect(fig(s, "load_current_on") / 1).toBeGreaterThan(STARVED_FRACTION);
-  });
-});
+describe(
+  `starved load: on-state current (motor: load voltage) ` + `below ${STARVED_FRACTION * 100} % of rated is an error`,
+  () => {
+    it("a 3-stage Darlington (≈ 2.5–3 V drop) on a 12 V LED strip starves it and says why", () => {
+      const s = size({ supply_V: 12, load_A: 1, chain: "darlington-3", load_kind: "led" });
+      const p = s.problems.find((x) => x.rule === "load-starved");
+      expect(p?.severity).toBe("error");
+      expect(p?.message).toMatch(/switch drops \d\.\d\d V .*lower on-voltage/);
+      expect(s.feasible).toBe(false);
+    });
+    it("a logic MOSFET on the same strip does not", () => {
+      const s = size({ supply_V: 12, load_A: 1, chain: "mosfet-logic", load_kind: "led" });
+      expect(s.problems.some((x) => x.rule === "load-starved")).toBe(false);
+      expect(fig(s, "load_current_on") / 1).toBeGreaterThan(STARVED_FRACTION);
+    });
+  },
+);
 
 describe("nominal device dissipation uses nominal transition times (MOSFET chains)", () => {
   it("12 V 1 A mosfet-logic LED strip: conduction + ⅙·V·I·(t_on,nom + t_off,nom)·f (Rashid 4th ed. Ex. 4.2)", () => {

@@ -40,12 +40,16 @@ describe("V_BE of a follower in the active region (diode law + ohmic base resist
     expectClose(vbeActiveNominal_V(npn, 1, 0.1), 1.2, 1e-12);
     expectClose(vbeActiveNominal_V(npn, 6, 0.6), 2.0, 1e-12);
   });
-  it("at 0.5 A and I_B = 0.5/25 A: junction 1.2 − R_B·0.1 + V_T·ln 0.5, R_B = (0.8 − V_T·ln 6)/0.5 (hand arithmetic)", () => {
-    // R_B = (0.8 − 0.025693·1.7918)/0.5 = 1.5079 Ω; 1.2 − 0.1508 − 0.0178 + 1.5079·0.02 = 1.0616 V.
-    expectClose(vbeActiveNominal_V(npn, 0.5, 0.02), 1.0616, 1e-3);
-    // Well below the forced-β maximum the engine's worst-case figure uses.
-    expect(vbeActiveNominal_V(npn, 0.5, 0.02)).toBeLessThan(vbeSat(npn, 0.5) - 0.1);
-  });
+  it(
+    "at 0.5 A and I_B = 0.5/25 A: junction 1.2 − R_B·0.1 + V_T·ln 0.5, R_B = (0.8 − V_T·ln 6)/0.5 (hand " +
+      "arithmetic)",
+    () => {
+      // R_B = (0.8 − 0.025693·1.7918)/0.5 = 1.5079 Ω; 1.2 − 0.1508 − 0.0178 + 1.5079·0.02 = 1.0616 V.
+      expectClose(vbeActiveNominal_V(npn, 0.5, 0.02), 1.0616, 1e-3);
+      // Well below the forced-β maximum the engine's worst-case figure uses.
+      expect(vbeActiveNominal_V(npn, 0.5, 0.02)).toBeLessThan(vbeSat(npn, 0.5) - 0.1);
+    },
+  );
   it("never below the typical law V_BE(on) + V_T·ln(I_C/(I_C,max/10)) at small currents", () => {
     const one = { ...npn, vce_sat: [{ ic_A: 1, ib_A: 0.1, vce_sat_V: 0.4, vbe_sat_V: 0.7 }] } as BjtClass;
     expectClose(vbeActiveNominal_V(one, 0.6, 0), 0.75, 1e-12);

@@ -34,7 +34,10 @@ export function gateTimesNominal(
   return { tOn_s: Math.max(dev.t_rise_s, tOn), tOff_s: Math.max(dev.t_fall_s, tOff) };
 }
 
-/** Turn-on and turn-off transition times through source/sink resistances (see file comment); worst case at the V_th,max plateau unless `vp` is given. */
+/**
+ * Turn-on and turn-off transition times through source/sink resistances (see file comment); worst case at the V_th,max
+ * plateau unless `vp` is given.
+ */
 export function gateTimes(
   dev: MosfetClass,
   rOn_ohm: number,

@@ -100,7 +100,8 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
         "/parts/Q_POWER",
         "gate-drive-low",
         "warning",
-        `The gate reaches only ${vgsMin.toFixed(2)} V at minimum supply, below the ${vNeed} V at which R_DS(on) is specified; R_DS(on) is estimated higher (${rds.toPrecision(3)} Ω hot).`,
+        `The gate reaches only ${vgsMin.toFixed(2)} V at minimum supply, below the ${vNeed} V at which ` +
+          `R_DS(on) is specified; R_DS(on) is estimated higher (${rds.toPrecision(3)} Ω hot).`,
         { limit: vNeed, actual: vgsMin, unit: "V" },
       ),
     );
@@ -337,7 +338,8 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
             pSw,
             "W",
             "chain",
-            `${ctx.switching === "resistive" ? "P = ⅙·V·I·(t_on + t_off)·f" : "P = ½·V·I·(t_on + t_off)·f"}; t_on: driver release (gate-release.ts), t_off: 2·Q_pl/I_sink`,
+            `${ctx.switching === "resistive" ? "P = ⅙·V·I·(t_on + t_off)·f" : "P = ½·V·I·(t_on + t_off)·f"}; ` +
+              `t_on: driver release (gate-release.ts), t_off: 2·Q_pl/I_sink`,
             ctx.switching === "resistive" ? "rashid-4e-ex4-2" : "mohan-3e-eq2-6",
           ),
         ],

@@ -135,7 +135,8 @@ export function planMosfetLogic(ctx: Ctx): ChainPlan {
             "/parts/Q_POWER",
             "gate-drive-low",
             "warning",
-            `The gate reaches only ${vgMin.toFixed(2)} V at minimum supply, below the ${vNeed} V at which R_DS(on) is specified; R_DS(on) is estimated higher.`,
+            `The gate reaches only ${vgMin.toFixed(2)} V at minimum supply, below the ${vNeed} V at which ` +
+              `R_DS(on) is specified; R_DS(on) is estimated higher.`,
             { limit: vNeed, actual: vgMin, unit: "V" },
           ),
         );
