@@ -11,7 +11,7 @@ import { conductionLossBjt_W, resistorPower_W, switchingLoss_W } from "../../sha
 import { deviceSource } from "../../shared/sources.ts";
 import { resistor, transistor } from "../../../circuit/parts.ts";
 import { type Ctx, FORCED_BETA, OVERDRIVE_K, switchedVoltage_V } from "../context.ts";
-import { driveMargin, switchChecks, switchOffVoltage_V, vbeCold } from "./common.ts";
+import { driveMargin, switchChecks, switchOffVoltage_V, vbeCold, lossFigures } from "./common.ts";
 import type { ChainPlan } from "./types.ts";
 import { NOMINAL_TEMP_C } from "../../shared/temperature.ts";
 
@@ -107,33 +107,14 @@ export function planBjtSingle(ctx: Ctx): ChainPlan {
         checks: [],
         figures: [
           driveMargin("power", "power transistor", tap.iMin_A - iBleedMax, ctx.iMax_A / beta),
-          figure(
-            "load_current_max",
-            "Load current, worst case (max supply)",
-            ctx.iMax_A,
-            "A",
-            "load",
-            "I = (V_cc,max − V_f)/R_load (load model)",
-            "derived",
-          ),
-          figure(
-            "conduction_loss",
-            "Conduction loss, power device",
-            pCond,
-            "W",
-            "chain",
-            "P = I_C,max · V_CE(sat) · D_max",
-            "common-practice",
-          ),
-          figure(
-            "switching_loss",
-            "Switching loss, power device",
-            pSw,
-            "W",
-            "chain",
-            ctx.switching === "resistive" ? "P = ⅙·V·I·(t_r + t_s + t_f)·f" : "P = ½·V·I·(t_r + t_s + t_f)·f",
-            ctx.switching === "resistive" ? "rashid-4e-ex4-2" : "mohan-3e-eq2-6",
-          ),
+          ...lossFigures(ctx, {
+            conductionLabel: "Conduction loss, power device",
+            conduction_W: pCond,
+            conductionFormula: "P = I_C,max · V_CE(sat) · D_max",
+            switchingLabel: "Switching loss, power device",
+            switching_W: pSw,
+            transitions: "t_r + t_s + t_f",
+          }),
         ],
         losses: [{ role: "Q_POWER", dev, family: "bjt", pCond_W: pCond + pBase, pSw_W: pSw, p_W: p, isPower: true }],
       };

@@ -86,3 +86,47 @@ export function driveMargin(stageKey: string, what: string, provided_A: number, 
     "common-practice",
   );
 }
+
+/** What a chain says about its switch's losses (labels, the conduction formula, the transition times). */
+export interface LossFigureInput {
+  conductionLabel: string;
+  conduction_W: number;
+  conductionFormula: string;
+  switchingLabel: string;
+  switching_W: number;
+  /** The transition times in the switching-loss formula, e.g. "t_r + t_f". */
+  transitions: string;
+  /** How those times were found, appended to the switching-loss formula. */
+  transitionsNote?: string;
+}
+
+/**
+ * The loss figures every chain shows: worst-case load current, conduction loss and switching loss
+ * (⅙·V·I·t·f for a resistive load [src:rashid-4e-ex4-2], ½·V·I·t·f for a clamped inductive one
+ * [src:mohan-3e-eq2-6]).
+ */
+export function lossFigures(ctx: Ctx, o: LossFigureInput): Figure[] {
+  const resistive = ctx.switching === "resistive";
+  const sw = `${resistive ? "P = ⅙·V·I·" : "P = ½·V·I·"}(${o.transitions})·f`;
+  return [
+    figure(
+      "load_current_max",
+      "Load current, worst case (max supply)",
+      ctx.iMax_A,
+      "A",
+      "load",
+      "I = (V_cc,max − V_f)/R_load (load model)",
+      "derived",
+    ),
+    figure("conduction_loss", o.conductionLabel, o.conduction_W, "W", "chain", o.conductionFormula, "common-practice"),
+    figure(
+      "switching_loss",
+      o.switchingLabel,
+      o.switching_W,
+      "W",
+      "chain",
+      o.transitionsNote === undefined ? sw : `${sw}; ${o.transitionsNote}`,
+      resistive ? "rashid-4e-ex4-2" : "mohan-3e-eq2-6",
+    ),
+  ];
+}

@@ -13,7 +13,7 @@ import { hfeMin, vbeOn, vbeSat, vceSat } from "../../shared/gain.ts";
 import { conductionLossBjt_W, resistorPower_W, switchingLoss_W } from "../../shared/losses.ts";
 import { resistor, transistor } from "../../../circuit/parts.ts";
 import { type Ctx, OVERDRIVE_K, loadCurrentAt_A, switchedVoltage_V } from "../context.ts";
-import { needAtMinSupply, driveMargin, switchChecks, switchOffVoltage_V, vbeCold } from "./common.ts";
+import { needAtMinSupply, driveMargin, switchChecks, switchOffVoltage_V, vbeCold, lossFigures } from "./common.ts";
 import { BLEED_SHARE } from "./bjt-single.ts";
 import type { ChainPlan, DeviceLoss } from "./types.ts";
 import { vceSatNominal_V } from "./sat-nominal.ts";
@@ -225,33 +225,14 @@ export function planDarlington(ctx: Ctx, n: 2 | 3): ChainPlan {
         losses,
         figures: [
           driveMargin("input", "stack input (Q_D1 base)", tap.iMin_A, ib1Eq),
-          figure(
-            "load_current_max",
-            "Load current, worst case (max supply)",
-            ctx.iMax_A,
-            "A",
-            "load",
-            "I = (V_cc,max − V_f)/R_load (load model)",
-            "derived",
-          ),
-          figure(
-            "conduction_loss",
-            "Conduction loss, stack",
-            stackP - pSw,
-            "W",
-            "chain",
-            "P = Σ I_C,i · V_CE,i · D_max, V_CE,n = V_CE(sat),1 + Σ V_BE",
-            "common-practice",
-          ),
-          figure(
-            "switching_loss",
-            "Switching loss, output stage",
-            pSw,
-            "W",
-            "chain",
-            ctx.switching === "resistive" ? "P = ⅙·V·I·(t_r + t_off)·f" : "P = ½·V·I·(t_r + t_off)·f",
-            ctx.switching === "resistive" ? "rashid-4e-ex4-2" : "mohan-3e-eq2-6",
-          ),
+          ...lossFigures(ctx, {
+            conductionLabel: "Conduction loss, stack",
+            conduction_W: stackP - pSw,
+            conductionFormula: "P = Σ I_C,i · V_CE,i · D_max, V_CE,n = V_CE(sat),1 + Σ V_BE",
+            switchingLabel: "Switching loss, output stage",
+            switching_W: pSw,
+            transitions: "t_r + t_off",
+          }),
           figure("stack_dissipation", "Dissipation in the whole stack", stackP, "W", "chain", "Σ P_i", "derived"),
         ],
       };

@@ -12,7 +12,7 @@ import { conductionLossBjt_W, switchingLoss_W } from "../../shared/losses.ts";
 import { deviceSource } from "../../shared/sources.ts";
 import { resistor, transistor } from "../../../circuit/parts.ts";
 import { type Ctx, FORCED_BETA, OVERDRIVE_K, switchedVoltage_V } from "../context.ts";
-import { needAtMinSupply, driveMargin, switchChecks, switchOffVoltage_V, vbeCold } from "./common.ts";
+import { needAtMinSupply, driveMargin, switchChecks, switchOffVoltage_V, vbeCold, lossFigures } from "./common.ts";
 import { BLEED_SHARE, WEAK_TURNOFF_FACTOR } from "./bjt-single.ts";
 import type { ChainPlan } from "./types.ts";
 import { vceSatNominal_V } from "./sat-nominal.ts";
@@ -210,33 +210,14 @@ export function planDriverPnp(ctx: Ctx): ChainPlan {
         ],
         figures: [
           driveMargin("driver", "NPN driver", tap.iMin_A, ibdEq),
-          figure(
-            "load_current_max",
-            "Load current, worst case (max supply)",
-            ctx.iMax_A,
-            "A",
-            "load",
-            "I = (V_cc,max − V_f)/R_load (load model)",
-            "derived",
-          ),
-          figure(
-            "conduction_loss",
-            "Conduction loss, power PNP",
-            pCond,
-            "W",
-            "chain",
-            "P = I_C,max · V_CE(sat) · D_max + I_B · V_EB · D_max",
-            "common-practice",
-          ),
-          figure(
-            "switching_loss",
-            "Switching loss, power PNP",
-            pSw,
-            "W",
-            "chain",
-            ctx.switching === "resistive" ? "P = ⅙·V·I·(t_r + t_s + t_f)·f" : "P = ½·V·I·(t_r + t_s + t_f)·f",
-            ctx.switching === "resistive" ? "rashid-4e-ex4-2" : "mohan-3e-eq2-6",
-          ),
+          ...lossFigures(ctx, {
+            conductionLabel: "Conduction loss, power PNP",
+            conduction_W: pCond,
+            conductionFormula: "P = I_C,max · V_CE(sat) · D_max + I_B · V_EB · D_max",
+            switchingLabel: "Switching loss, power PNP",
+            switching_W: pSw,
+            transitions: "t_r + t_s + t_f",
+          }),
         ],
       };
     },

@@ -15,7 +15,7 @@ import { conductionLossBjt_W, conductionLossMosfet_W, gateDrivePower_W, switchin
 import { deviceSource } from "../../shared/sources.ts";
 import { resistor, transistor, zener } from "../../../circuit/parts.ts";
 import { type Ctx, OVERDRIVE_K, switchedVoltage_V } from "../context.ts";
-import { driveMargin, switchChecks, switchOffVoltage_V, vbeCold } from "./common.ts";
+import { driveMargin, lossFigures, switchChecks, switchOffVoltage_V, vbeCold } from "./common.ts";
 import { WEAK_TURNOFF_FACTOR } from "./bjt-single.ts";
 import {
   gateTimes,
@@ -314,34 +314,15 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
             useZener ? "device-class-typical" : "derived",
             [railMin, railMax],
           ),
-          figure(
-            "load_current_max",
-            "Load current, worst case (max supply)",
-            ctx.iMax_A,
-            "A",
-            "load",
-            "I = (V_cc,max − V_f)/R_load (load model)",
-            "derived",
-          ),
-          figure(
-            "conduction_loss",
-            "Conduction loss, power device",
-            pCond,
-            "W",
-            "chain",
-            "P = I_D,max² · R_DS(on),hot · D_max",
-            "common-practice",
-          ),
-          figure(
-            "switching_loss",
-            "Switching loss, power device",
-            pSw,
-            "W",
-            "chain",
-            `${ctx.switching === "resistive" ? "P = ⅙·V·I·(t_on + t_off)·f" : "P = ½·V·I·(t_on + t_off)·f"}; ` +
-              `t_on: driver release (gate-release.ts), t_off: 2·Q_pl/I_sink`,
-            ctx.switching === "resistive" ? "rashid-4e-ex4-2" : "mohan-3e-eq2-6",
-          ),
+          ...lossFigures(ctx, {
+            conductionLabel: "Conduction loss, power device",
+            conduction_W: pCond,
+            conductionFormula: "P = I_D,max² · R_DS(on),hot · D_max",
+            switchingLabel: "Switching loss, power device",
+            switching_W: pSw,
+            transitions: "t_on + t_off",
+            transitionsNote: "t_on: driver release (gate-release.ts), t_off: 2·Q_pl/I_sink",
+          }),
         ],
       };
     },

@@ -10,7 +10,7 @@ import { conductionLossMosfet_W, switchingLoss_W } from "../../shared/losses.ts"
 import { deviceSource } from "../../shared/sources.ts";
 import { transistor } from "../../../circuit/parts.ts";
 import { type Ctx, switchedVoltage_V } from "../context.ts";
-import { switchChecks, switchOffVoltage_V } from "./common.ts";
+import { switchChecks, switchOffVoltage_V, lossFigures } from "./common.ts";
 import {
   gateTimes,
   gateTimesNominal,
@@ -195,33 +195,14 @@ export function planMosfetLogic(ctx: Ctx): ChainPlan {
             "t_off = Q_G·R_sink/V_plateau",
             "common-practice",
           ),
-          figure(
-            "load_current_max",
-            "Load current, worst case (max supply)",
-            ctx.iMax_A,
-            "A",
-            "load",
-            "I = (V_cc,max − V_f)/R_load (load model)",
-            "derived",
-          ),
-          figure(
-            "conduction_loss",
-            "Conduction loss, power device",
-            pCond,
-            "W",
-            "chain",
-            "P = I_D,max² · R_DS(on),hot · D_max",
-            "common-practice",
-          ),
-          figure(
-            "switching_loss",
-            "Switching loss, power device",
-            pSw,
-            "W",
-            "chain",
-            ctx.switching === "resistive" ? "P = ⅙·V·I·(t_on + t_off)·f" : "P = ½·V·I·(t_on + t_off)·f",
-            ctx.switching === "resistive" ? "rashid-4e-ex4-2" : "mohan-3e-eq2-6",
-          ),
+          ...lossFigures(ctx, {
+            conductionLabel: "Conduction loss, power device",
+            conduction_W: pCond,
+            conductionFormula: "P = I_D,max² · R_DS(on),hot · D_max",
+            switchingLabel: "Switching loss, power device",
+            switching_W: pSw,
+            transitions: "t_on + t_off",
+          }),
         ],
       };
     },
