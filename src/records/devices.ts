@@ -151,32 +151,24 @@ function mosfetData(dev: MosfetClass, report: Report): void {
   }
 }
 
+/** The bipolar card parameters and the members they come from (the same for NPN and PNP). */
+const BJT_CARD_SOURCE: Record<string, string> = {
+  IS: "/vce_sat",
+  BF: "/hfe",
+  BR: "/vce_sat",
+  NR: "/vce_sat",
+  RB: "/vce_sat",
+  RC: "/vce_sat",
+  TF: "/ft_Hz",
+  TR: "/t_storage_s",
+  CJE: "/cob_F",
+  CJC: "/cob_F",
+};
+
 /** Which member a `.model` parameter comes from (docs/spice-models.md), for the issue's pointer. */
 const CARD_SOURCE: Record<DeviceClass["family"], Record<string, string>> = {
-  npn: {
-    IS: "/vce_sat",
-    BF: "/hfe",
-    BR: "/vce_sat",
-    NR: "/vce_sat",
-    RB: "/vce_sat",
-    RC: "/vce_sat",
-    TF: "/ft_Hz",
-    TR: "/t_storage_s",
-    CJE: "/cob_F",
-    CJC: "/cob_F",
-  },
-  pnp: {
-    IS: "/vce_sat",
-    BF: "/hfe",
-    BR: "/vce_sat",
-    NR: "/vce_sat",
-    RB: "/vce_sat",
-    RC: "/vce_sat",
-    TF: "/ft_Hz",
-    TR: "/t_storage_s",
-    CJE: "/cob_F",
-    CJC: "/cob_F",
-  },
+  npn: BJT_CARD_SOURCE,
+  pnp: BJT_CARD_SOURCE,
   nmos: {
     VTO: "/vgs_th_V",
     KP: "/rds_on",

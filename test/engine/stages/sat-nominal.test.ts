@@ -1,38 +1,12 @@
 import { describe, it, expect } from "vitest";
 import type { BjtClass } from "../../../src/model/device.ts";
+import { demoPowerBjt } from "../fixtures.ts";
 import { vceSatNominal_V } from "../../../src/engine/stages/chains/sat-nominal.ts";
 import { vceSat } from "../../../src/engine/shared/gain.ts";
 import { expectClose } from "../../helpers/close.ts";
 
-// A generic 60 V 6 A power PNP with two datasheet saturation points (invented demo numbers shaped
-// like a registered TO-220 class: 0.4 V at 1 A and 1.5 V at 6 A, forced β 10).
-const pnp = {
-  id: "demo-pnp",
-  family: "pnp",
-  title: "demo",
-  generic_type: "demo",
-  package: "TO-220",
-  tj_max_C: 150,
-  rth_ja_KperW: 62.5,
-  vceo_V: 60,
-  vebo_V: 5,
-  ic_max_A: 6,
-  ptot_W: 65,
-  ptot_at: "case",
-  hfe: [
-    { ic_A: 0.3, min: 30 },
-    { ic_A: 3, min: 15 },
-  ],
-  hfe_tempco_perK: 0.005,
-  vce_sat: [
-    { ic_A: 1, ib_A: 0.1, vce_sat_V: 0.4, vbe_sat_V: 1.2 },
-    { ic_A: 6, ib_A: 0.6, vce_sat_V: 1.5, vbe_sat_V: 2 },
-  ],
-  vbe_on_V: 0.75,
-  t_rise_s: 6e-7,
-  t_fall_s: 5e-7,
-  t_storage_s: 1.5e-6,
-} as unknown as BjtClass;
+// Invented demo class (test/engine/fixtures.ts): a generic 60 V 6 A TO-220 PNP.
+const pnp = demoPowerBjt("pnp");
 
 describe("nominal V_CE(sat) below the datasheet's lowest saturation point", () => {
   it("follows the straight line V_0 + I·R_C through the two lowest points (common practice)", () => {

@@ -1,39 +1,13 @@
 import { describe, it, expect } from "vitest";
 import type { BjtClass } from "../../../src/model/device.ts";
+import { demoPowerBjt } from "../fixtures.ts";
 import { vbeActiveNominal_V } from "../../../src/engine/stages/chains/vbe-nominal.ts";
 import { VT_NOMINAL_V } from "../../../src/engine/shared/temperature.ts";
 import { vbeSat } from "../../../src/engine/shared/gain.ts";
 import { expectClose } from "../../helpers/close.ts";
 
-// Invented demo class shaped like a generic 60 V 6 A TO-220 NPN: V_BE(sat) 1.2 V at 1 A / 0.1 A and
-// 2.0 V at 6 A / 0.6 A (forced β 10), V_BE(on) 0.75 V.
-const npn = {
-  id: "demo-npn",
-  family: "npn",
-  title: "demo",
-  generic_type: "demo",
-  package: "TO-220",
-  tj_max_C: 150,
-  rth_ja_KperW: 62.5,
-  vceo_V: 60,
-  vebo_V: 5,
-  ic_max_A: 6,
-  ptot_W: 65,
-  ptot_at: "case",
-  hfe: [
-    { ic_A: 0.3, min: 30 },
-    { ic_A: 3, min: 15 },
-  ],
-  hfe_tempco_perK: 0.005,
-  vce_sat: [
-    { ic_A: 1, ib_A: 0.1, vce_sat_V: 0.4, vbe_sat_V: 1.2 },
-    { ic_A: 6, ib_A: 0.6, vce_sat_V: 1.5, vbe_sat_V: 2 },
-  ],
-  vbe_on_V: 0.75,
-  t_rise_s: 6e-7,
-  t_fall_s: 5e-7,
-  t_storage_s: 1.5e-6,
-} as unknown as BjtClass;
+// Invented demo class (test/engine/fixtures.ts): a generic 60 V 6 A TO-220 NPN.
+const npn = demoPowerBjt("npn");
 
 describe("V_BE of a follower in the active region (diode law + ohmic base resistance)", () => {
   it("passes through both datasheet V_BE(sat) points at their forced base currents", () => {
