@@ -5,6 +5,8 @@
  *   voltage, t ≈ Q_G · R / ΔV (common practice); never faster than the class's datasheet times.
  */
 import type { MosfetClass } from "../../../model/device.ts";
+import type { Figure } from "../../../model/figure.ts";
+import { figure } from "../../shared/figures.ts";
 import { plateau_V, plateauCharge_C, plateauTyp_V, vthTyp_V } from "../../shared/gate-charge.ts";
 import { rdsOnNominal_ohm } from "../../shared/rdson.ts";
 
@@ -62,4 +64,19 @@ export function plateauAt_V(dev: MosfetClass, i_A: number): number {
   const v2 = vto + 4;
   const k = (rdsOnNominal_ohm(dev, v1) - rdsOnNominal_ohm(dev, v2)) / (1 / (v1 - vto) - 1 / (v2 - vto));
   return k > 0 && Number.isFinite(k) && i_A > 0 ? vto + Math.sqrt(2 * i_A * k) : vto;
+}
+
+/**
+ * The gate-drive transition figures of a MOSFET switch (common practice: gate charge moved by the
+ * drive current through the plateau); each chain states the resistances in its own formula.
+ */
+export function transitionFigures(
+  t: { tOn_s: number; tOff_s: number },
+  onFormula: string,
+  offFormula: string,
+): Figure[] {
+  return [
+    figure("switch_t_on", "Switch turn-on transition", t.tOn_s, "s", "chain", onFormula, "common-practice"),
+    figure("switch_t_off", "Switch turn-off transition", t.tOff_s, "s", "chain", offFormula, "common-practice"),
+  ];
 }

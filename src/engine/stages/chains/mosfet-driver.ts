@@ -26,6 +26,7 @@ import {
   rdsOn_ohm,
   rdsOnNominal_ohm,
   specVgs_V,
+  transitionFigures,
 } from "./mosfet-common.ts";
 import { releasedTurnOnEquivalent_s } from "./gate-release.ts";
 import type { ChainPlan } from "./types.ts";
@@ -140,24 +141,7 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
         "derived",
         [vgsMin, vgsMax],
       ),
-      figure(
-        "switch_t_on",
-        "Switch turn-on transition",
-        t.tOn_s,
-        "s",
-        "chain",
-        "t_on = Q_G·(R_G + R_P/β_HI)/(V_GS − V_plateau)",
-        "common-practice",
-      ),
-      figure(
-        "switch_t_off",
-        "Switch turn-off transition",
-        t.tOff_s,
-        "s",
-        "chain",
-        "t_off = Q_G·R_G/V_plateau",
-        "common-practice",
-      ),
+      ...transitionFigures(t, "t_on = Q_G·(R_G + R_P/β_HI)/(V_GS − V_plateau)", "t_off = Q_G·R_G/V_plateau"),
       figure(
         "rds_on_hot",
         "R_DS(on), hot, at the gate voltage reached",

@@ -20,6 +20,7 @@ import {
   rdsOn_ohm,
   rdsOnNominal_ohm,
   specVgs_V,
+  transitionFigures,
 } from "./mosfet-common.ts";
 import { recoveringTurnOnEquivalent_s } from "./gate-recovery.ts";
 import type { ChainPlan } from "./types.ts";
@@ -177,24 +178,7 @@ export function planMosfetLogic(ctx: Ctx): ChainPlan {
             "derived",
             [vgMin, vgMax],
           ),
-          figure(
-            "switch_t_on",
-            "Switch turn-on transition",
-            t.tOn_s,
-            "s",
-            "chain",
-            "t_on = Q_G·R_src/(V_GS − V_plateau)",
-            "common-practice",
-          ),
-          figure(
-            "switch_t_off",
-            "Switch turn-off transition",
-            t.tOff_s,
-            "s",
-            "chain",
-            "t_off = Q_G·R_sink/V_plateau",
-            "common-practice",
-          ),
+          ...transitionFigures(t, "t_on = Q_G·R_src/(V_GS − V_plateau)", "t_off = Q_G·R_sink/V_plateau"),
           ...lossFigures(ctx, {
             conductionLabel: "Conduction loss, power device",
             conduction_W: pCond,
