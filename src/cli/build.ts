@@ -7,7 +7,7 @@ import { readFile } from "node:fs/promises";
 import path from "node:path";
 import { performance } from "node:perf_hooks";
 import { loadProject, formatIssue } from "../records/index.ts";
-import { sizeProject, renderVariant, assembleCatalogue } from "./pipeline.ts";
+import { sizeProject, renderVariant, assembleCatalogue, simulationJobs } from "./pipeline.ts";
 import { verifyAll } from "../verify/pool.ts";
 import { progressReporter } from "../verify/progress.ts";
 import { writeSite } from "../site/write.ts";
@@ -59,10 +59,7 @@ export async function runBuild(o: BuildOptions): Promise<number> {
 
   let verifications: Map<string, Verification> = new Map();
   if (o.simulate) {
-    const jobs = all
-      .filter((r) => r.sized.feasible && r.netlist)
-      .map((r) => ({ id: r.sized.spec.id, sized: r.sized, netlist: r.netlist }));
-    verifications = await verifyAll(jobs, {
+    verifications = await verifyAll(simulationJobs(all), {
       engine: o.spice,
       cacheDir: path.join(o.root, ".cache", "sim"),
       ...(o.workers !== undefined ? { workers: o.workers } : {}),

@@ -5,7 +5,7 @@
  * in-process.
  */
 import process from "node:process";
-import { UsageError, readFlags, wholeFlag } from "./args.ts";
+import { UsageError, readCommandLine, readFlags, wholeFlag } from "./args.ts";
 import { DIFF_USAGE } from "./diff.ts";
 
 // Each command's module is loaded only when that command runs: `size` or `serve` need not load the
@@ -21,6 +21,7 @@ commands:
   serve                 serve _site/ on http://127.0.0.1:8080 (after a build)
   size                  size one variant from flags and print its figures
   diff OLD NEW          what changed between two built catalogues (variants, verdicts, figures, parts)
+  merge-cache DIR...    gather the simulation results of \`build --shard\` runs into .cache/sim/
 
 build options:
   --out DIR             output folder (default _site): a new or empty folder, or one an earlier
@@ -31,6 +32,8 @@ build options:
   --no-sim              skip simulation (pages say "not simulated")
   --workers N           simulation worker threads, 1 to 64 (default: cores)
   --prefix PATH         URL prefix the site is served under (links are relative anyway)
+  --shard K/N           simulate only the K-th of N shares of the work and leave its results in
+                        .cache/shards/K-of-N/ (nothing is published); merge-cache, then build
 
 serve options:
   --port N              port on 127.0.0.1, 1 to 65535 (default 8080)
@@ -64,11 +67,15 @@ async function dispatch(argv: string[], root: string, out: Out): Promise<number>
     else out.log(USAGE);
     return command === undefined ? 2 : 0;
   }
-  if (!["check", "build", "serve", "size", "diff"].includes(command)) {
+  if (!["check", "build", "serve", "size", "diff", "merge-cache"].includes(command)) {
     out.error(`unknown command "${command}"\n\n${USAGE}`);
     return 2;
   }
   if (command === "diff") return (await import("./diff.ts")).runDiff(root, rest, out);
+  if (command === "merge-cache") {
+    const { positionals } = readCommandLine("merge-cache", rest, {}, true);
+    return (await import("./shard.ts")).runMergeCache(root, positionals, out);
+  }
   if (rest.includes("--help") || rest.includes("-h")) {
     out.log(USAGE);
     return 0;
@@ -79,6 +86,10 @@ async function dispatch(argv: string[], root: string, out: Out): Promise<number>
   }
   if (command === "serve") return (await import("./serve.ts")).runServe(root, rest, out);
   if (command === "size") return (await import("./size.ts")).runSize(root, rest, out);
+  return dispatchBuild(root, rest, out);
+}
+
+async function dispatchBuild(root: string, rest: string[], out: Out): Promise<number> {
   const values = readFlags("build", rest, {
     out: { type: "string" },
     strict: { type: "boolean" },
@@ -87,6 +98,7 @@ async function dispatch(argv: string[], root: string, out: Out): Promise<number>
     "no-sim": { type: "boolean" },
     workers: { type: "string" },
     prefix: { type: "string" },
+    shard: { type: "string" },
   });
   const spice = values.spice ?? process.env["PULSEWRIGHT_SPICE"] ?? "eecircuit-engine";
   if (spice !== "eecircuit-engine" && spice !== "ngspice") {
@@ -94,6 +106,24 @@ async function dispatch(argv: string[], root: string, out: Out): Promise<number>
     throw new UsageError(`build: ${given} is not an engine here — use eecircuit-engine or ngspice`);
   }
   const workers = values.workers === undefined ? undefined : wholeFlag("build", "workers", values.workers, 1, 64);
+  if (values.shard !== undefined) {
+    const shard = await import("./shard.ts");
+    const publishing = (["out", "prefix", "no-sim", "strict", "strict-failures"] as const).filter(
+      (f) => values[f] !== undefined,
+    );
+    if (publishing.length > 0)
+      throw new UsageError(
+        `build: --shard only simulates; it publishes nothing, so --${publishing[0]} does not apply — ` +
+          "give it to the build that runs after merge-cache",
+      );
+    return shard.runShard({
+      root,
+      shard: shard.parseShard(values.shard),
+      spice,
+      ...(workers !== undefined ? { workers } : {}),
+      out,
+    });
+  }
   return (await import("./build.ts")).runBuild({
     root,
     outDir: values.out ?? "_site",

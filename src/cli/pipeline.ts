@@ -14,6 +14,7 @@ import { chooseDevices } from "../engine/devices/choose.ts";
 import { sizeVariant, attachAlternatives } from "../engine/index.ts";
 import { renderPlot } from "../render/plot.ts";
 import { renderVariantViews, type VariantViews } from "../render/variant.ts";
+import type { VerifyJob } from "../verify/pool.ts";
 
 export interface RenderedVariant extends VariantViews {
   sized: SizedVariant;
@@ -35,6 +36,13 @@ export function sizeProject(
 /** The three circuit views of a variant (the render step the browser shares); none without a circuit. */
 export function renderVariant(sized: SizedVariant, devices: DeviceLibrary): RenderedVariant {
   return { sized, ...renderVariantViews(sized, devices) };
+}
+
+/** The simulation work of a build: every feasible variant that has a netlist, in catalogue order. */
+export function simulationJobs(rendered: readonly RenderedVariant[]): VerifyJob[] {
+  return rendered
+    .filter((r) => r.sized.feasible && r.netlist)
+    .map((r) => ({ id: r.sized.spec.id, sized: r.sized, netlist: r.netlist }));
 }
 
 /** Assemble the catalogue the site writer reads. */

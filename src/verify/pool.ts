@@ -52,6 +52,11 @@ export interface PoolOptions {
   warn?: (message: string) => void;
   /** The worker entry module. Tests substitute one that crashes; the build uses the default. */
   workerUrl?: URL;
+  /**
+   * A second cache folder that receives a copy of every entry this run answers from (cached or
+   * freshly simulated): one shard's share of the work, gathered later by `merge-cache`.
+   */
+  alsoCacheIn?: string;
 }
 
 interface Pending {
@@ -98,6 +103,7 @@ export async function verifyAll(jobs: VerifyJob[], opts: PoolOptions): Promise<M
     const hit = readCache(dir, key);
     if (hit === null) return void pending.push({ index, target, netlist: job.netlist, key, lost: 0 });
     stats.cached++;
+    if (opts.alsoCacheIn !== undefined) writeCache(opts.alsoCacheIn, key, hit);
     finish(index, judge(target.predicted, hit, eng, key));
   });
 
@@ -113,6 +119,7 @@ export async function verifyAll(jobs: VerifyJob[], opts: PoolOptions): Promise<M
         if (!cacheWarned) warn(`simulation cache ${dir} cannot be written (${why}): results are not kept`);
         cacheWarned = true;
       }
+      if (opts.alsoCacheIn !== undefined) writeCache(opts.alsoCacheIn, p.key, m);
     }
     stats.fresh++;
     finish(p.index, judge(p.target.predicted, m, eng, p.key));
