@@ -27,7 +27,8 @@ export interface SelfCheckRow {
 export interface SelfCheckView {
   file: string;
   command: string;
-  /** The control position the deck runs at, in words. */
+  /** The control position the deck runs at: the netlist line, and why there, in words. */
+  ctrlLine: string;
   ctrl: string;
   /** Expectations are published for feasible variants only. */
   feasible: boolean;
@@ -37,7 +38,7 @@ export interface SelfCheckView {
 function tolerance(e: SelfCheckExpectation): string {
   if (e.tol.abs !== undefined && e.tol.rel === undefined)
     return e.unit === ""
-      ? `± ${e.tol.abs} (absolute: ${displayNumber(e.tol.abs, e.unit, e.figure)} points)`
+      ? `± ${e.tol.abs} (${displayNumber(e.tol.abs, e.unit, e.figure).replace(" %", "")} percentage points)`
       : `± ${displayNumber(e.tol.abs, e.unit, e.figure)}`;
   if (e.tol.rel !== undefined && e.tol.abs === undefined) return `± ${formatPercent(e.tol.rel)} (relative)`;
   return `± ${formatPercent(e.tol.rel ?? 0)} or ± ${displayNumber(e.tol.abs ?? 0, e.unit, e.figure)}, the larger`;
@@ -58,8 +59,9 @@ export function selfCheckView(v: BuiltVariant): SelfCheckView | null {
   return {
     file,
     command: `ngspice -b ${file}`,
+    ctrlLine: `.param ctrl=${SELF_CHECK_CTRL}`,
     ctrl:
-      `duty control at ${formatPercent(SELF_CHECK_CTRL)} (.param ctrl=${SELF_CHECK_CTRL}): the highest duty, ` +
+      `duty control at ${formatPercent(SELF_CHECK_CTRL)}: the highest duty, ` +
       "where the switch runs hottest and where the on-current and the dissipation are predicted",
     feasible: v.sized.feasible,
     rows: exp.map((e) => ({

@@ -113,7 +113,7 @@ describe("the page's and the variant JSON's self-check", () => {
   it("shows the command, the control position and four expected values from the prediction", () => {
     const view = selfCheckView(built())!;
     expect(view.command).toBe(`ngspice -b ${led.s.spec.id}.cir`);
-    expect(view.ctrl).toMatch(/\.param ctrl=1/);
+    expect(view.ctrlLine).toBe(".param ctrl=1");
     expect(view.rows.map((r) => r.meas)).toEqual([
       "pwm_frequency_hz",
       "load_duty",
@@ -121,7 +121,7 @@ describe("the page's and the variant JSON's self-check", () => {
       "switch_dissipation_w",
     ]);
     expect(view.rows.every((r) => r.note === "")).toBe(true);
-    expect(view.rows[1]!.tolerance).toMatch(/^± 0\.05 \(absolute/);
+    expect(view.rows[1]!.tolerance).toBe("± 0.05 (5 percentage points)");
   });
 
   it("takes the frequency from the build's ctrl = 1 run, with a note, when it leaves the prediction's band", () => {
