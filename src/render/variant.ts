@@ -10,6 +10,8 @@ import { findFigure } from "../model/sized.ts";
 import { renderBom } from "./bom.ts";
 import { renderNetlist } from "./netlist.ts";
 import { renderSchematic } from "./schematic.ts";
+import { targetFromSized } from "../verify/target.ts";
+import { canSelfCheck, withSelfCheck } from "../verify/selfcheck.ts";
 
 /** The three views of a variant's circuit; empty strings when it has no circuit (not sized). */
 export interface VariantViews {
@@ -37,8 +39,12 @@ export function renderVariantViews(
   const meta = { id: spec.id, title };
   // The netlist's transient is set from the predicted frequency; the target stands in without one.
   const f_Hz = findFigure(sized, "frequency_nominal")?.value ?? spec.targets.pwm_Hz;
+  const plain = renderNetlist(c, { ...meta, supply_V: spec.supply_V, frequency_Hz: f_Hz, devices });
+  // The published deck carries its own batch run and `.meas` lines (verify/selfcheck.ts), planned
+  // from the prediction like the verifier's rated-load run.
+  const target = targetFromSized(sized);
   return {
-    netlist: renderNetlist(c, { ...meta, supply_V: spec.supply_V, frequency_Hz: f_Hz, devices }),
+    netlist: target !== null && canSelfCheck(target) ? withSelfCheck(plain, target, spec.supply_V) : plain,
     schematicSvg: opts.schematic === false ? "" : renderSchematic(c, meta),
     bomCsv: renderBom(c),
   };

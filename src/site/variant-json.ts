@@ -1,4 +1,5 @@
 import type { BuiltCatalogue, BuiltDesign, BuiltVariant } from "../model/catalogue.ts";
+import { selfCheckJson } from "./selfcheck-view.ts";
 
 /**
  * The downloadable variant record (`<id>.json`): every part, every figure, problems, checks and
@@ -15,6 +16,7 @@ export function variantJson(v: BuiltVariant, d: BuiltDesign, cat: BuiltCatalogue
       .map(([role, dev]) => [role, dev.id]),
   );
   const ver = v.verification;
+  const selfCheck = selfCheckJson(v);
   return {
     id: spec.id,
     design: { id: d.record.id, title: d.record.title, file: d.file },
@@ -75,6 +77,8 @@ export function variantJson(v: BuiltVariant, d: BuiltDesign, cat: BuiltCatalogue
           ...(ver.message !== undefined ? { message: ver.message } : {}),
         }
       : { status: "skipped", comparisons: [] },
+    // What `ngspice -b` on the published netlist should print (docs/verification.md).
+    ...(selfCheck !== null ? { selfCheck } : {}),
   };
 }
 

@@ -1,8 +1,9 @@
 /**
  * Content-hash cache of measurements: `.cache/sim/<sha256>.json`. The key covers everything the
- * measurements depend on (netlist, engine and version, measurement code version, the plan's
- * inputs), never the predictions, which are compared afresh on every build. Written atomically
- * (temp file + rename); an unreadable or malformed entry is treated as a miss and overwritten.
+ * measurements depend on (the netlist as the verifier simulates it, deck.ts `simBody`; engine and
+ * version, measurement code version, the plan's inputs), never the predictions, which are
+ * compared afresh on every build. Written atomically (temp file + rename); an unreadable or
+ * malformed entry is treated as a miss and overwritten.
  */
 import { createHash } from "node:crypto";
 import { mkdirSync, readFileSync, renameSync, writeFileSync } from "node:fs";
@@ -10,6 +11,7 @@ import { join } from "node:path";
 import type { EngineName } from "./engines/types.ts";
 import { MEASURE_CODE_VERSION, type Measured } from "./plan.ts";
 import type { VerifyTarget } from "./target.ts";
+import { simBody } from "./deck.ts";
 
 export const DEFAULT_CACHE_DIR = ".cache/sim";
 
@@ -27,7 +29,7 @@ export function cacheKey(netlist: string, engine: { name: EngineName; version: s
     target.predicted["chain_threshold"]?.value ?? null,
   ]);
   return createHash("sha256")
-    .update(netlist)
+    .update(simBody(netlist))
     .update("\0")
     .update(engine.name)
     .update("\0")

@@ -14,6 +14,34 @@ export function supplyVoltage(netlist: string): number {
   return v;
 }
 
+/**
+ * Markers of the published netlist's self-check block (selfcheck.ts): its probe source, solver
+ * option, `.save`, `.tran` and `.meas` lines serve `ngspice -b` only; the verifier sets its own.
+ */
+export const SELF_CHECK_BEGIN = "* self-check begin";
+export const SELF_CHECK_END = "* self-check end";
+const BLOCK = /^\* self-check begin$[\s\S]*?^\* self-check end$\n?/m;
+
+/** The netlist without its self-check block. */
+export function stripSelfCheck(netlist: string): string {
+  return netlist.replace(BLOCK, "");
+}
+
+/**
+ * What the verifier takes from a published netlist: the circuit, its `.ic`, `.temp` and
+ * `.options`, without the self-check block, the analysis lines and the control's value (each run
+ * sets its own). The cache is keyed on this text, so a change to the batch-run block (which holds
+ * predictions) or to the published control position keeps cached measurements valid.
+ */
+export function simBody(netlist: string): string {
+  return stripSelfCheck(netlist)
+    .replace(/^\s*\.(tran|ac|dc|op|noise)\b.*$/gim, "")
+    .replace(/^\.param ctrl=.*$/m, ".param ctrl=0.5")
+    .replace(/^\s*\.end\s*$/im, "")
+    .replace(/\n{2,}/g, "\n")
+    .replace(/\s+$/, "");
+}
+
 export interface DeckOptions {
   ctrl: number;
   tStop_s: number;
@@ -31,10 +59,7 @@ export interface DeckOptions {
  * multivibrator can sit at its balanced operating point for a while before it starts.
  */
 export function simDeck(netlist: string, o: DeckOptions): string {
-  const body = setCtrl(netlist, o.ctrl)
-    .replace(/^\s*\.(tran|ac|dc|op|noise)\b.*$/gim, "")
-    .replace(/^\s*\.end\s*$/im, "")
-    .replace(/\s+$/, "");
+  const body = setCtrl(simBody(netlist), o.ctrl);
   const extra = [
     `.options method=gear${o.options ? ` ${o.options}` : ""}`,
     `.tran ${o.tMax_s} ${o.tStop_s} 0 ${o.tMax_s}`,

@@ -19,7 +19,10 @@ export function readRawFile(buf: Buffer): Map<string, Float64Array> {
     .map((line) => line.trim().split(/\s+/)[1]?.toLowerCase() ?? "");
   const data = buf.subarray(marker + "Binary:\n".length);
   // A run stopped early leaves fewer complete rows than the header promised; keep what is there.
-  const rows = Math.min(nPoints, Math.floor(data.length / (8 * nVars)));
+  // ngspice writes the point count when the analysis ends, so an aborted run's header says 0
+  // (padded for the later rewrite) while the rows it reached are there: then the data decides.
+  const complete = Math.floor(data.length / (8 * nVars));
+  const rows = nPoints > 0 ? Math.min(nPoints, complete) : complete;
   const cols = names.map(() => new Float64Array(rows));
   for (let p = 0; p < rows; p++) {
     for (let v = 0; v < nVars; v++) cols[v]![p] = data.readDoubleLE((p * nVars + v) * 8);
