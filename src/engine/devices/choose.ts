@@ -7,10 +7,10 @@
 import type { DesignRecord, DeviceRole } from "../../model/design.ts";
 import type { ChainKind } from "../../model/kinds.ts";
 import { DEVICE_ROLES, ROLE_FAMILY } from "../../model/design.ts";
-import type { BjtClass, DeviceClass, DeviceLibrary } from "../../model/device.ts";
+import type { BjtClass, DeviceClass, DeviceLibrary, ZenerClass } from "../../model/device.ts";
 import { EngineMisuseError } from "../../model/errors.ts";
 import { hfeMin, vbeSat, vceSat } from "../shared/gain.ts";
-import { getDevice, isBjt, isDiode, isMosfet } from "./library.ts";
+import { getDevice, isBjt, isDiode, isMosfet, isZener } from "./library.ts";
 import { supplyWindow } from "../shared/supply.ts";
 import { diodeSurgeI2t_A2s } from "../shared/fuse.ts";
 import { loadModel } from "../shared/loads.ts";
@@ -32,7 +32,8 @@ export const DEFAULT_DEVICE_IDS: Readonly<Record<DeviceRole, readonly string[]>>
   signal_diode: ["diode-signal"],
   // Shunt reverse-polarity diodes by surge rating: 30 A, 200 A, 400 A I_FSM.
   reverse_diode: ["diode-rectifier-1a", "diode-rectifier-3a", "diode-rectifier-6a"],
-  gate_zener: ["zener-12v-0w5"],
+  // Highest rail first (most gate drive), then the smaller power class; see `zenerFits`.
+  gate_zener: ["zener-12v-0w5", "zener-12v-1w", "zener-10v-1w", "zener-8v2-1w"],
 };
 
 /** Family each role needs: the shared table (src/model/design.ts). */
@@ -42,6 +43,20 @@ export { ROLE_FAMILY } from "../../model/design.ts";
 const SWITCH_HEADROOM = 0.75;
 const DIODE_CURRENT_HEADROOM = 0.5;
 const DIODE_VOLTAGE_HEADROOM = 0.7;
+/**
+ * Gate-rail zener (mosfet-driver): its series resistor needs at least this much across it at the
+ * lowest supply to keep the zener on its knee over the supply window (ours; common practice for a
+ * shunt regulator is "a volt or more").
+ */
+const ZENER_FEED_MIN_V = 1.0;
+/**
+ * Current the gate rail draws, for choosing its zener ahead of sizing: knee 5 mA + driver pull-up
+ * ≈ 2 mA + gate charge·f + the 10 kΩ gate pull-down ≈ 1 mA, rounded up (derived from the
+ * mosfet-driver chain's sizing; the engine's own check of the zener follows).
+ */
+const ZENER_RAIL_CURRENT_A = 0.012;
+/** Zener power at selection, share of its rating (the derating policy's zener factor is 0.5). */
+const ZENER_POWER_HEADROOM = 0.5;
 /** Standard-recovery rectifiers only up to this PWM frequency (recovery of several µs). */
 const STANDARD_RECOVERY_MAX_Hz = 1000;
 /**
@@ -77,6 +92,10 @@ interface Need {
   pwm_Hz: number;
   ambientMin_C: number;
   ambientMax_C: number;
+  /** Highest running current over the record's load kinds, at the top of the supply window (A). */
+  iRunMax_A: number;
+  /** The record's smallest required duty (the freewheel diode carries the current for the rest). */
+  dutyMin: number;
   /**
    * Highest off-state voltage across a load switch: V_cc,max plus the freewheel drop with a motor (as the engine checks
    * it).
@@ -123,13 +142,39 @@ function fits(role: DeviceRole, d: DeviceClass, n: Need): boolean {
   if (isMosfet(d)) return d.vds_V * SWITCH_HEADROOM >= n.vOff_V;
   if (isDiode(d) && role === "freewheel_diode") {
     if (d.recovery === "standard" && n.pwm_Hz > STANDARD_RECOVERY_MAX_Hz) return false;
-    return d.if_avg_A * DIODE_CURRENT_HEADROOM >= n.load_A && d.vrrm_V * DIODE_VOLTAGE_HEADROOM >= vMax;
+    return d.if_avg_A * DIODE_CURRENT_HEADROOM >= freewheelCurrent_A(n) && d.vrrm_V * DIODE_VOLTAGE_HEADROOM >= vMax;
   }
+  if (isZener(d) && role === "gate_zener") return zenerFits(d, n);
   // Coordinated with the fuse the variant gets (protection.ts): the diode's surge I²t must exceed
   // the fuse's clearing I²t, so the fuse opens first on a reversed battery.
   if (isDiode(d) && role === "reverse_diode")
     return diodeSurgeI2t_A2s(d.ifsm_A) >= n.fuseClearing_A2s && d.vrrm_V * DIODE_VOLTAGE_HEADROOM >= vMax;
   return true;
+}
+
+/**
+ * Average current a freewheel diode carries: the running current at the top of the supply window
+ * for the off share of the period, taken at half the record's smallest duty (the worst-case
+ * control reaches below it), and never less than the rated current (the former rule).
+ */
+function freewheelCurrent_A(n: Need): number {
+  return Math.max(n.load_A, n.iRunMax_A * (1 - n.dutyMin / 2));
+}
+
+/**
+ * A gate-rail zener fits when its top voltage leaves ZENER_FEED_MIN_V across the feed resistor at
+ * the lowest supply and its worst dissipation — V_Z,max · (V_cc,max − V_Z,min)/R_Z with R_Z sized to
+ * pass the rail's current at the lowest supply — stays within half its rating (the policy's zener
+ * factor). A lower zener costs gate drive (the engine shows R_DS(on) at the gate voltage reached),
+ * so the list runs from the highest rail down.
+ */
+export function zenerFits(d: ZenerClass, n: Pick<Need, "vMin_V" | "vMax_V">): boolean {
+  const vzMax = d.vz_V * (1 + d.vz_tolerance);
+  const feed_V = n.vMin_V - vzMax;
+  if (feed_V < ZENER_FEED_MIN_V) return false;
+  const rZ_ohm = feed_V / ZENER_RAIL_CURRENT_A;
+  const p_W = (vzMax * (n.vMax_V - d.vz_V * (1 - d.vz_tolerance))) / rZ_ohm;
+  return p_W <= d.pz_W * ZENER_POWER_HEADROOM;
 }
 
 /**
@@ -198,6 +243,7 @@ export function chooseDevices(
     const peak_A = lim?.kind === "current-limit" ? Math.max(ev.iRun_A, Math.min(ev.iPeak_A, lim.limit_A)) : ev.iPeak_A;
     return {
       peak_A,
+      iRun_A: p.iMax_A,
       clearing_A2s: supplyFuse(p, CORE_CURRENT_ESTIMATE_A, record.targets.ambient_C[1]).fuse?.clearingMax_A2s ?? 0,
       inductive: load.inductive,
     };
@@ -210,6 +256,8 @@ export function chooseDevices(
         ? w.max_V + FREEWHEEL_DROP_V
         : w.max_V,
     fuseClearing_A2s,
+    iRunMax_A: Math.max(...starts.map((x) => x.iRun_A)),
+    dutyMin: record.targets.duty_min,
     peak_A: Math.max(...starts.map((x) => x.peak_A)),
     vOff_V: w.max_V + (starts.some((x) => x.inductive) ? FREEWHEEL_DROP_V : 0),
     vMin_V: w.min_V,
