@@ -90,7 +90,7 @@ describe("chooseDevices: defaults by current and voltage", () => {
     const coil: DesignRecord = {
       ...record(2000),
       axes: { supply_V: [24], load_A: [1.5], chain: ["mosfet-logic"], load_kind: ["solenoid"] },
-      targets: { pwm_Hz: 2000, duty_min: 0.3, duty_max: 0.85, ambient_C: [0, 45] },
+      targets: { pwm_Hz: 2000, duty_min: 0.3, duty_max: 0.85, ambient_C: [0, 45], supply_tolerance: 0.1 },
       supply: { battery: "lead-acid" },
       solenoid: { tau_ms: 10, pull_in_ms: 30, pull_in_share: 0.75, hold_share: 0.4 },
     };
