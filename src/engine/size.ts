@@ -28,6 +28,7 @@ import { reviewFailures } from "./stages/failure-modes.ts";
 import { protectionStage } from "./stages/protection.ts";
 import { cautions, checkProblems, verdictLead } from "./stages/feasibility.ts";
 import { decideVerdict } from "./stages/verdict.ts";
+import { type RcLowered, designDecisions } from "./stages/decisions.ts";
 
 export function sizeVariant(spec: VariantSpec): SizedVariant {
   try {
@@ -62,7 +63,7 @@ export function sizeVariant(spec: VariantSpec): SizedVariant {
 const RC_STEPS = [1.5, 2.2, 3.3, 4.7];
 
 /** The tap and the timing core, lowering R_C while the core does not pass (first passing wins). */
-function tapAndTiming(ctx: Ctx, plan: ChainPlan): { tap: TapDesign; timing: TimingResult } {
+function tapAndTiming(ctx: Ctx, plan: ChainPlan): { tap: TapDesign; timing: TimingResult; rcLowered?: RcLowered } {
   const tap = designTap(ctx, plan);
   const timing = designTiming(ctx, plan, tap);
   if (timing.search.passed) return { tap, timing };
@@ -70,7 +71,8 @@ function tapAndTiming(ctx: Ctx, plan: ChainPlan): { tap: TapDesign; timing: Timi
     const t2 = designTap(ctx, plan, tap.rC_ohm / step);
     if (t2.rC_ohm >= tap.rC_ohm) break; // the current floor holds R_C where it is
     const timing2 = designTiming(ctx, plan, t2);
-    if (timing2.search.passed) return { tap: t2, timing: timing2 };
+    if (timing2.search.passed)
+      return { tap: t2, timing: timing2, rcLowered: { from_ohm: tap.rC_ohm, to_ohm: t2.rC_ohm } };
   }
   return { tap, timing };
 }
@@ -78,7 +80,7 @@ function tapAndTiming(ctx: Ctx, plan: ChainPlan): { tap: TapDesign; timing: Timi
 function sizeInner(spec: VariantSpec): SizedVariant {
   const ctx = makeContext(spec);
   const plan = CHAIN_PLANNERS[spec.chain](ctx);
-  const { tap, timing } = tapAndTiming(ctx, plan);
+  const { tap, timing, rcLowered } = tapAndTiming(ctx, plan);
   const w = timing.search.worst;
   const fin = plan.finish(tap.info, {
     dutyMax: Math.min(1, w.dMax.hi),
@@ -229,6 +231,13 @@ function sizeInner(spec: VariantSpec): SizedVariant {
     heatsink: thermal.heatsink,
     circuit,
     cautions: [...cautions(ctx, hot), ...reviewed.cautions],
+    decisions: designDecisions(
+      spec,
+      circuit,
+      thermal.heatsink,
+      thermal.conditions.map((c) => /^\/parts\/(.+)$/.exec(c.path)?.[1]).flatMap((r) => (r ? [toRef(r)] : [])),
+      rcLowered,
+    ),
   };
   if (verdict.status === "not-feasible") out.reason = verdict.summary;
   return out;
