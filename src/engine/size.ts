@@ -237,6 +237,7 @@ function sizeInner(spec: VariantSpec): SizedVariant {
       thermal.heatsink,
       thermal.conditions.map((c) => /^\/parts\/(.+)$/.exec(c.path)?.[1]).flatMap((r) => (r ? [toRef(r)] : [])),
       rcLowered,
+      reviewed.conditions.some((c) => c.rule === "insulator-kit"),
     ),
   };
   if (verdict.status === "not-feasible") out.reason = verdict.summary;

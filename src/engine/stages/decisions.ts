@@ -37,6 +37,12 @@ function deviceRoleOf(spec: VariantSpec, p: Part): DeviceRole | undefined {
   return roles.find((r) => spec.devices[r].id === p.device);
 }
 
+/**
+ * Extra case-to-sink resistance of an insulator kit over grease alone, TO-220 size: a silicone pad
+ * or greased mica adds about 1–2 K/W (from memory; [src:common-practice]); the upper half is taken.
+ */
+export const INSULATOR_EXTRA_KperW = 1.5;
+
 const SIZES = GENERIC_HEATSINKS.map((h) => formatValue(h.rth_KperW, "K/W")).join(", ");
 
 /** What the timing search reports when it had to lower R_C (size.ts tapAndTiming). */
@@ -51,6 +57,7 @@ export function designDecisions(
   heatsink: HeatsinkVerdict,
   heatsinkRefs: string[],
   rcLowered?: RcLowered,
+  insulated = false,
 ): DesignDecision[] {
   const out: DesignDecision[] = [];
   const seen = new Set<DeviceRole>();
@@ -83,13 +90,18 @@ export function designDecisions(
     });
   }
   if (heatsink.needed && heatsink.rth_sa_max_KperW !== undefined && !heatsink.text.startsWith("not feasible")) {
-    const sink = pickHeatsink(heatsink.rth_sa_max_KperW);
+    // A live tab's insulator kit (pad or mica) sits between case and sink: the sink must be better by it.
+    const limit = heatsink.rth_sa_max_KperW - (insulated ? INSULATOR_EXTRA_KperW : 0);
+    const sink = pickHeatsink(limit);
     out.push({
       refs: heatsinkRefs,
       topic: "heatsink",
       choice: sink ? `${sink.name}, θ_SA ≈ ${formatValue(sink.rth_KperW, "K/W")}` : "a heatsink made to measure",
       reason:
-        `the junction limit needs θ_SA ≤ ${formatValue(heatsink.rth_sa_max_KperW, "K/W")} (with grease); ` +
+        `the junction limit needs θ_SA ≤ ${formatValue(heatsink.rth_sa_max_KperW, "K/W")} (with grease)` +
+        (insulated
+          ? `, ≤ ${formatValue(limit, "K/W")} with the insulator kit's ≈ ${INSULATOR_EXTRA_KperW} K/W more; `
+          : "; ") +
         (sink ? `the smallest of the generic sizes (${SIZES}) that meets it` : `none of the generic sizes meets it`),
     });
   }
