@@ -56,9 +56,8 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
   const railNom = useZener ? dz.vz_V : ctx.vNom_V;
   const vgsMin = railMin - vbeCold(qhi, ctx);
   const vgsMax = railMax - vbeOn(qhi, ctx.taMax_C);
-  // Gate resistor: keeps both followers' peak current within their continuous ratings (short pulses):
-  // Q_HI sources the turn-on current, Q_LO sinks the turn-off current, so the smaller rating sets it.
-  const rG = roundUp(Math.max(10, railMax / Math.min(qhi.ic_max_A, qlo.ic_max_A)), "E24");
+  // Gate resistor: keeps the follower's peak current within its continuous rating (short pulses).
+  const rG = roundUp(Math.max(10, railMax / qhi.ic_max_A), "E24");
   const iGpk = railMax / (rG * (1 - ctx.rTol));
   const betaHi = hfeMin(qhi, iGpk, ctx.taMin_C);
   const betaLo = hfeMin(qlo, iGpk, ctx.taMin_C);
