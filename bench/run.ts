@@ -7,7 +7,9 @@
  *   warm rebuild (nothing changed)                     target ≤ 5 s
  *   rebuild after editing one design record            (only its variants simulated again)
  *   peak memory of a build                             target ≤ 1.5 GB
- * Usage: npm run bench [-- --quick]   (--quick: sizing and drawing only)
+ *   coverage: feasible share of the demo and of the coverage grid (bench/coverage.ts), sized without
+ *   simulation, with the remaining reasons counted by kind
+ * Usage: npm run bench [-- --quick] [-- --no-coverage]   (--quick: sizing, drawing and coverage only)
  */
 import { spawnSync } from "node:child_process";
 import { cpSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
@@ -19,6 +21,7 @@ import { expandDesign } from "../src/expand/index.ts";
 import { chooseDevices } from "../src/engine/devices/choose.ts";
 import { sizeVariant } from "../src/engine/index.ts";
 import { benchRender } from "./render.ts";
+import { runCoverage } from "./coverage.ts";
 
 const ROOT = fileURLToPath(new URL("..", import.meta.url));
 const median = (xs: number[]): number => {
@@ -114,4 +117,5 @@ function benchBuilds(): void {
 }
 
 await benchEngine();
+if (!process.argv.includes("--no-coverage")) await runCoverage();
 if (!process.argv.includes("--quick")) benchBuilds();

@@ -10,7 +10,7 @@ import type { SizedVariant } from "../model/sized.ts";
 import type { Verification } from "../model/verification.ts";
 import type { DeviceLibrary } from "../model/device.ts";
 import { expandDesign } from "../expand/index.ts";
-import { chooseDevices } from "../engine/devices/choose.ts";
+import { chooseDevices, chooseDevicesWithReasons } from "../engine/devices/choose.ts";
 import { sizeVariant, attachAlternatives } from "../engine/index.ts";
 import { renderPlot } from "../render/plot.ts";
 import { renderVariantViews, type VariantViews } from "../render/variant.ts";
@@ -27,6 +27,8 @@ export function sizeProject(
   return project.designs.map((d) => {
     const specs = expandDesign(d.record, {
       choose: (rec, supply_V, load_A, c) => chooseDevices(rec, project.devices, supply_V, load_A, c),
+      explain: (rec, supply_V, load_A, c) =>
+        chooseDevicesWithReasons(rec, project.devices, supply_V, load_A, c).reasons,
       policy: project.policy,
     });
     return { design: d, sized: attachAlternatives(specs.map((s) => sizeVariant(s))) };

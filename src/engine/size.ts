@@ -13,21 +13,22 @@ import type { SizedVariant } from "../model/sized.ts";
 import type { VariantSpec } from "../model/variant.ts";
 import type { BjtClass, DiodeClass } from "../model/device.ts";
 import { diodeClassVf_V } from "./shared/diode.ts";
-import type { DeviceLoss } from "./stages/chains/types.ts";
+import type { ChainPlan, DeviceLoss } from "./stages/chains/types.ts";
 import { switchingLoss_W } from "./shared/losses.ts";
 import { assembleCircuit, refsByRole } from "../circuit/assemble.ts";
 import { figure, problem } from "./shared/figures.ts";
 import { NOMINAL_TEMP_C } from "./shared/temperature.ts";
-import { makeContext } from "./stages/context.ts";
+import { type Ctx, makeContext } from "./stages/context.ts";
 import { CHAIN_PLANNERS } from "./stages/chains/index.ts";
-import { designTap } from "./stages/tap.ts";
-import { designTiming } from "./stages/timing.ts";
+import { type TapDesign, designTap } from "./stages/tap.ts";
+import { type TimingResult, designTiming } from "./stages/timing.ts";
 import { loadStage } from "./stages/load.ts";
 import { thermalStage } from "./stages/thermal.ts";
 import { reviewFailures } from "./stages/failure-modes.ts";
 import { protectionStage } from "./stages/protection.ts";
 import { cautions, checkProblems, verdictLead } from "./stages/feasibility.ts";
 import { decideVerdict } from "./stages/verdict.ts";
+import { type RcLowered, designDecisions } from "./stages/decisions.ts";
 
 export function sizeVariant(spec: VariantSpec): SizedVariant {
   try {
@@ -52,11 +53,34 @@ export function sizeVariant(spec: VariantSpec): SizedVariant {
   }
 }
 
+/**
+ * R_C steps tried below the tap's choice when the core does not pass (E24 values at roughly
+ * 1/1.5, 1/2.2, 1/3.3 and 1/4.7 of it). The tap takes the largest R_C the chain's need allows, which
+ * favours the timing transistors' overdrive; a core that fails on its collectors' recovery
+ * (5·R_C·C against the shortest half-period) or on the base diodes' injection (∝ R_C) is what a
+ * designer fixes by lowering R_C, spending overdrive the search then re-checks (ours).
+ */
+const RC_STEPS = [1.5, 2.2, 3.3, 4.7];
+
+/** The tap and the timing core, lowering R_C while the core does not pass (first passing wins). */
+function tapAndTiming(ctx: Ctx, plan: ChainPlan): { tap: TapDesign; timing: TimingResult; rcLowered?: RcLowered } {
+  const tap = designTap(ctx, plan);
+  const timing = designTiming(ctx, plan, tap);
+  if (timing.search.passed) return { tap, timing };
+  for (const step of RC_STEPS) {
+    const t2 = designTap(ctx, plan, tap.rC_ohm / step);
+    if (t2.rC_ohm >= tap.rC_ohm) break; // the current floor holds R_C where it is
+    const timing2 = designTiming(ctx, plan, t2);
+    if (timing2.search.passed)
+      return { tap: t2, timing: timing2, rcLowered: { from_ohm: tap.rC_ohm, to_ohm: t2.rC_ohm } };
+  }
+  return { tap, timing };
+}
+
 function sizeInner(spec: VariantSpec): SizedVariant {
   const ctx = makeContext(spec);
   const plan = CHAIN_PLANNERS[spec.chain](ctx);
-  const tap = designTap(ctx, plan);
-  const timing = designTiming(ctx, plan, tap);
+  const { tap, timing, rcLowered } = tapAndTiming(ctx, plan);
   const w = timing.search.worst;
   const fin = plan.finish(tap.info, {
     dutyMax: Math.min(1, w.dMax.hi),
@@ -207,6 +231,14 @@ function sizeInner(spec: VariantSpec): SizedVariant {
     heatsink: thermal.heatsink,
     circuit,
     cautions: [...cautions(ctx, hot), ...reviewed.cautions],
+    decisions: designDecisions(
+      spec,
+      circuit,
+      thermal.heatsink,
+      thermal.conditions.map((c) => /^\/parts\/(.+)$/.exec(c.path)?.[1]).flatMap((r) => (r ? [toRef(r)] : [])),
+      rcLowered,
+      reviewed.conditions.some((c) => c.rule === "insulator-kit"),
+    ),
   };
   if (verdict.status === "not-feasible") out.reason = verdict.summary;
   return out;

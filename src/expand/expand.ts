@@ -23,6 +23,8 @@ export const PROTECTION_DEFAULTS: VariantSpec["protection"] = { be_breakdown: "s
 export interface ExpandDeps {
   /** Device classes for one variant; `chain` lets the choice follow what that chain puts across each part. */
   choose: (rec: DesignRecord, supply_V: number, load_A: number, chain: ChainKind) => Record<DeviceRole, DeviceClass>;
+  /** Optional: why each role got its class (shown on the page as design decisions). */
+  explain?: (rec: DesignRecord, supply_V: number, load_A: number, chain: ChainKind) => Record<DeviceRole, string>;
   policy: DeratingPolicy;
 }
 
@@ -48,6 +50,7 @@ export function expandDesign(rec: DesignRecord, deps: ExpandDeps): VariantSpec[]
     for (const load_A of rec.axes.load_A) {
       for (const chain of rec.axes.chain) {
         const devices = deps.choose(rec, supply_V, load_A, chain);
+        const reasons = deps.explain?.(rec, supply_V, load_A, chain);
         for (const load_kind of rec.axes.load_kind) {
           out.push({
             id: variantId(rec, supply_V, load_A, chain, load_kind),
@@ -61,6 +64,7 @@ export function expandDesign(rec: DesignRecord, deps: ExpandDeps): VariantSpec[]
             supply_window: supplyWindow({ ...rec.supply, tolerance: targets.supply_tolerance }, supply_V),
             protection: { ...protection },
             devices: { ...devices },
+            ...(reasons ? { deviceReasons: { ...reasons } } : {}),
             policy: deps.policy,
             ...(load_kind === "solenoid" && rec.solenoid !== undefined ? { solenoid: { ...rec.solenoid } } : {}),
           });

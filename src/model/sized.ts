@@ -85,6 +85,16 @@ export interface Verdict {
   summary: string;
 }
 
+/** A choice the engine made for this variant, and why (shown on the page). */
+export interface DesignDecision {
+  /** Reference designators the choice applies to (empty when it is about the whole variant). */
+  refs: string[];
+  /** What was chosen: "device class", "resistor power", "heatsink", "timing collector resistors". */
+  topic: string;
+  choice: string;
+  reason: string;
+}
+
 export interface SizedVariant {
   spec: VariantSpec;
   /** The one verdict; `feasible` and `reason` are read from it (feasible ⇔ status ≠ "not-feasible"). */
@@ -102,6 +112,8 @@ export interface SizedVariant {
   circuit: CircuitModel | null;
   /** Cautions for the page: hot parts, inrush, kick-back, ... (text, from the engine). */
   cautions: string[];
+  /** The engine's design decisions with their reasons (absent in catalogues built before they existed). */
+  decisions?: DesignDecision[];
 }
 
 /** The figure with this key, if the engine produced it. */

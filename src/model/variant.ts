@@ -20,6 +20,8 @@ export interface VariantSpec {
     Pick<NonNullable<DesignRecord["protection"]>, "inrush_limit">;
   /** Every role resolved to a device class (record's choice or the engine default). */
   devices: Record<DeviceRole, DeviceClass>;
+  /** Why each role got its class (the chooser's reasons), when the expansion asked for them. */
+  deviceReasons?: Record<DeviceRole, string>;
   policy: DeratingPolicy;
   /** The record's coil data, present on solenoid variants. */
   solenoid?: SolenoidRecord;

@@ -67,6 +67,7 @@ export function variantJson(v: BuiltVariant, d: BuiltDesign, cat: BuiltCatalogue
     checks: s.checks,
     heatsink: s.heatsink,
     cautions: s.cautions,
+    decisions: s.decisions ?? [],
     verification: ver
       ? {
           status: ver.status,

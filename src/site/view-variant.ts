@@ -46,6 +46,8 @@ export interface VariantView {
   selfCheck: SelfCheckView | null;
   plotSvg: string;
   cautions: string[];
+  /** The engine's design decisions: which parts, what was chosen, why. */
+  decisions: { refs: string; topic: string; choice: string; reason: string }[];
   downloads: Download[];
   policy: string;
   footerFile: string;
@@ -121,6 +123,12 @@ export function variantView(v: BuiltVariant, d: BuiltDesign, cat: BuiltCatalogue
     selfCheck: selfCheckView(v),
     plotSvg: inlineSvg(v.files.plotSvg),
     cautions: s.cautions,
+    decisions: (s.decisions ?? []).map((d) => ({
+      refs: d.refs.join(", "),
+      topic: d.topic,
+      choice: d.choice,
+      reason: d.reason,
+    })),
     downloads: availableDownloads(v).map((f) => ({ label: f.label, href: f.name, name: f.name, type: f.type })),
     policy: `${cat.policy.title} (${cat.policy.document})`,
     footerFile: d.file,

@@ -7,10 +7,10 @@
 import type { DesignRecord, DeviceRole } from "../../model/design.ts";
 import type { ChainKind } from "../../model/kinds.ts";
 import { DEVICE_ROLES, ROLE_FAMILY } from "../../model/design.ts";
-import type { BjtClass, DeviceClass, DeviceLibrary } from "../../model/device.ts";
+import type { BjtClass, DeviceClass, DeviceLibrary, ZenerClass } from "../../model/device.ts";
 import { EngineMisuseError } from "../../model/errors.ts";
 import { hfeMin, vbeSat, vceSat } from "../shared/gain.ts";
-import { getDevice, isBjt, isDiode, isMosfet } from "./library.ts";
+import { getDevice, isBjt, isDiode, isMosfet, isZener } from "./library.ts";
 import { supplyWindow } from "../shared/supply.ts";
 import { diodeSurgeI2t_A2s } from "../shared/fuse.ts";
 import { loadModel } from "../shared/loads.ts";
@@ -32,7 +32,8 @@ export const DEFAULT_DEVICE_IDS: Readonly<Record<DeviceRole, readonly string[]>>
   signal_diode: ["diode-signal"],
   // Shunt reverse-polarity diodes by surge rating: 30 A, 200 A, 400 A I_FSM.
   reverse_diode: ["diode-rectifier-1a", "diode-rectifier-3a", "diode-rectifier-6a"],
-  gate_zener: ["zener-12v-0w5"],
+  // Highest rail first (most gate drive), then the smaller power class; see `zenerFits`.
+  gate_zener: ["zener-12v-0w5", "zener-12v-1w", "zener-10v-1w", "zener-8v2-1w"],
 };
 
 /** Family each role needs: the shared table (src/model/design.ts). */
@@ -42,6 +43,20 @@ export { ROLE_FAMILY } from "../../model/design.ts";
 const SWITCH_HEADROOM = 0.75;
 const DIODE_CURRENT_HEADROOM = 0.5;
 const DIODE_VOLTAGE_HEADROOM = 0.7;
+/**
+ * Gate-rail zener (mosfet-driver): its series resistor needs at least this much across it at the
+ * lowest supply to keep the zener on its knee over the supply window (ours; common practice for a
+ * shunt regulator is "a volt or more").
+ */
+const ZENER_FEED_MIN_V = 1.0;
+/**
+ * Current the gate rail draws, for choosing its zener ahead of sizing: knee 5 mA + driver pull-up
+ * ≈ 2 mA + gate charge·f + the 10 kΩ gate pull-down ≈ 1 mA, rounded up (derived from the
+ * mosfet-driver chain's sizing; the engine's own check of the zener follows).
+ */
+const ZENER_RAIL_CURRENT_A = 0.012;
+/** Zener power at selection, share of its rating (the derating policy's zener factor is 0.5). */
+const ZENER_POWER_HEADROOM = 0.5;
 /** Standard-recovery rectifiers only up to this PWM frequency (recovery of several µs). */
 const STANDARD_RECOVERY_MAX_Hz = 1000;
 /**
@@ -77,6 +92,10 @@ interface Need {
   pwm_Hz: number;
   ambientMin_C: number;
   ambientMax_C: number;
+  /** Highest running current over the record's load kinds, at the top of the supply window (A). */
+  iRunMax_A: number;
+  /** The record's smallest required duty (the freewheel diode carries the current for the rest). */
+  dutyMin: number;
   /**
    * Highest off-state voltage across a load switch: V_cc,max plus the freewheel drop with a motor (as the engine checks
    * it).
@@ -106,30 +125,96 @@ function freeAirOk(d: BjtClass, p_W: number, n: Need): boolean {
   return n.ambientMax_C + p_W * d.rth_ja_KperW <= Math.min(125, d.tj_max_C - 40);
 }
 
-/** Does a candidate clear the variant for this role? (Roles without a rule take the first.) */
-function fits(role: DeviceRole, d: DeviceClass, n: Need): boolean {
+const f3 = (x: number): string => x.toPrecision(3);
+
+/** Roles whose candidates are judged by a rule at selection (the others take their first class). */
+const RULED_ROLES: ReadonlySet<DeviceRole> = new Set([
+  "power_npn",
+  "power_pnp",
+  "mosfet_logic",
+  "mosfet_standard",
+  "freewheel_diode",
+  "reverse_diode",
+  "gate_zener",
+]);
+/** The reason given for a role's first class when no selection rule applies (the checks judge it). */
+export const PREFERRED_REASON = "the preferred class for this role";
+
+/**
+ * Why a candidate does not clear the variant for this role, or null when it does (roles without a
+ * rule take the first). The reasons are shown on the page as the design decision's record.
+ */
+function whyNot(role: DeviceRole, d: DeviceClass, n: Need): string | null {
   const vMax = n.vMax_V;
   if (isBjt(d) && (role === "power_npn" || role === "power_pnp")) {
-    if (d.ic_max_A * SWITCH_HEADROOM < n.load_A || d.vceo_V * SWITCH_HEADROOM < n.vOff_V) return false;
+    if (d.ic_max_A * SWITCH_HEADROOM < n.load_A)
+      return `I_C,max ${f3(d.ic_max_A)} A × 75 % is below the ${f3(n.load_A)} A load`;
+    if (d.vceo_V * SWITCH_HEADROOM < n.vOff_V)
+      return `V_CEO ${f3(d.vceo_V)} V × 75 % is below ${f3(n.vOff_V)} V off-state`;
     // The start-up peak may reach but not exceed the pulse rating (the engine's peak check).
-    if ((d.icm_A ?? d.ic_max_A) < n.peak_A) return false;
+    if ((d.icm_A ?? d.ic_max_A) < n.peak_A)
+      return `pulse rating ${f3(d.icm_A ?? d.ic_max_A)} A is below the ${f3(n.peak_A)} A start-up peak`;
     // Case-rated packages may go on a heatsink (the thermal stage sizes it); small packages must
     // cope in free air at full duty.
     // The same class serves bjt-single (saturated, V_CE(sat)) and the Darlington output, which
     // cannot saturate: V_CE ≥ V_CE(sat),drv + V_BE(sat),out [src:common-practice]. Take the larger.
     const vOn = Math.max(vceSat(d, n.load_A), DARLINGTON_DRIVE_SAT_V + vbeSat(d, n.load_A));
-    return d.ptot_at === "case" || freeAirOk(d, n.load_A * vOn, n);
+    return d.ptot_at === "case" || freeAirOk(d, n.load_A * vOn, n)
+      ? null
+      : `${d.package} in free air at full duty runs over ${Math.min(125, d.tj_max_C - 40)} °C`;
   }
-  if (isMosfet(d)) return d.vds_V * SWITCH_HEADROOM >= n.vOff_V;
+  if (isMosfet(d))
+    return d.vds_V * SWITCH_HEADROOM >= n.vOff_V ? null : `V_DS ${f3(d.vds_V)} V × 75 % is below ${f3(n.vOff_V)} V`;
   if (isDiode(d) && role === "freewheel_diode") {
-    if (d.recovery === "standard" && n.pwm_Hz > STANDARD_RECOVERY_MAX_Hz) return false;
-    return d.if_avg_A * DIODE_CURRENT_HEADROOM >= n.load_A && d.vrrm_V * DIODE_VOLTAGE_HEADROOM >= vMax;
+    if (d.recovery === "standard" && n.pwm_Hz > STANDARD_RECOVERY_MAX_Hz)
+      return `standard recovery is too slow above ${STANDARD_RECOVERY_MAX_Hz} Hz PWM`;
+    if (d.if_avg_A * DIODE_CURRENT_HEADROOM < freewheelCurrent_A(n))
+      return `I_F(AV) ${f3(d.if_avg_A)} A × 50 % is below the ${f3(freewheelCurrent_A(n))} A it carries`;
+    return d.vrrm_V * DIODE_VOLTAGE_HEADROOM >= vMax ? null : `V_RRM ${f3(d.vrrm_V)} V × 70 % is below ${f3(vMax)} V`;
   }
+  if (isZener(d) && role === "gate_zener") return zenerWhyNot(d, n);
   // Coordinated with the fuse the variant gets (protection.ts): the diode's surge I²t must exceed
   // the fuse's clearing I²t, so the fuse opens first on a reversed battery.
-  if (isDiode(d) && role === "reverse_diode")
-    return diodeSurgeI2t_A2s(d.ifsm_A) >= n.fuseClearing_A2s && d.vrrm_V * DIODE_VOLTAGE_HEADROOM >= vMax;
-  return true;
+  if (isDiode(d) && role === "reverse_diode") {
+    if (diodeSurgeI2t_A2s(d.ifsm_A) < n.fuseClearing_A2s)
+      return (
+        `surge I²t ${f3(diodeSurgeI2t_A2s(d.ifsm_A))} A²s is below the fuse's ` +
+        `${f3(n.fuseClearing_A2s)} A²s clearing I²t`
+      );
+    return d.vrrm_V * DIODE_VOLTAGE_HEADROOM >= vMax ? null : `V_RRM ${f3(d.vrrm_V)} V × 70 % is below ${f3(vMax)} V`;
+  }
+  return null;
+}
+
+/**
+ * Average current a freewheel diode carries: the running current at the top of the supply window
+ * for the off share of the period, taken at half the record's smallest duty (the worst-case
+ * control reaches below it), and never less than the rated current (the former rule).
+ */
+function freewheelCurrent_A(n: Need): number {
+  return Math.max(n.load_A, n.iRunMax_A * (1 - n.dutyMin / 2));
+}
+
+/**
+ * A gate-rail zener fits (null) when its top voltage leaves ZENER_FEED_MIN_V across the feed resistor at
+ * the lowest supply and its worst dissipation — V_Z,max · (V_cc,max − V_Z,min)/R_Z with R_Z sized to
+ * pass the rail's current at the lowest supply — stays within half its rating (the policy's zener
+ * factor). A lower zener costs gate drive (the engine shows R_DS(on) at the gate voltage reached),
+ * so the list runs from the highest rail down.
+ */
+export function zenerWhyNot(d: ZenerClass, n: Pick<Need, "vMin_V" | "vMax_V">): string | null {
+  const vzMax = d.vz_V * (1 + d.vz_tolerance);
+  const feed_V = n.vMin_V - vzMax;
+  if (feed_V < ZENER_FEED_MIN_V)
+    return (
+      `only ${f3(Math.max(0, feed_V))} V is left across its feed resistor at ${f3(n.vMin_V)} V ` +
+      `(needs ≥ ${ZENER_FEED_MIN_V} V)`
+    );
+  const rZ_ohm = feed_V / ZENER_RAIL_CURRENT_A;
+  const p_W = (vzMax * (n.vMax_V - d.vz_V * (1 - d.vz_tolerance))) / rZ_ohm;
+  return p_W <= d.pz_W * ZENER_POWER_HEADROOM
+    ? null
+    : `it would dissipate ≈ ${f3(p_W)} W at ${f3(n.vMax_V)} V, over half its ${f3(d.pz_W)} W rating`;
 }
 
 /**
@@ -175,6 +260,17 @@ export function chooseDevices(
   load_A: number,
   chain?: ChainKind,
 ): Record<DeviceRole, DeviceClass> {
+  return chooseDevicesWithReasons(record, lib, supply_V, load_A, chain).devices;
+}
+
+/** The classes chooseDevices takes, with the reason for each role (shown as design decisions). */
+export function chooseDevicesWithReasons(
+  record: DesignRecord,
+  lib: DeviceLibrary,
+  supply_V: number,
+  load_A: number,
+  chain?: ChainKind,
+): { devices: Record<DeviceRole, DeviceClass>; reasons: Record<DeviceRole, string> } {
   if (!Number.isFinite(supply_V) || supply_V <= 0 || !Number.isFinite(load_A) || load_A <= 0) {
     throw new EngineMisuseError(
       `chooseDevices(${record.id}): supply_V and load_A must be finite and > 0 (got ${supply_V}, ${load_A})`,
@@ -198,6 +294,7 @@ export function chooseDevices(
     const peak_A = lim?.kind === "current-limit" ? Math.max(ev.iRun_A, Math.min(ev.iPeak_A, lim.limit_A)) : ev.iPeak_A;
     return {
       peak_A,
+      iRun_A: p.iMax_A,
       clearing_A2s: supplyFuse(p, CORE_CURRENT_ESTIMATE_A, record.targets.ambient_C[1]).fuse?.clearingMax_A2s ?? 0,
       inductive: load.inductive,
     };
@@ -210,6 +307,8 @@ export function chooseDevices(
         ? w.max_V + FREEWHEEL_DROP_V
         : w.max_V,
     fuseClearing_A2s,
+    iRunMax_A: Math.max(...starts.map((x) => x.iRun_A)),
+    dutyMin: record.targets.duty_min,
     peak_A: Math.max(...starts.map((x) => x.peak_A)),
     vOff_V: w.max_V + (starts.some((x) => x.inductive) ? FREEWHEEL_DROP_V : 0),
     vMin_V: w.min_V,
@@ -221,12 +320,14 @@ export function chooseDevices(
     ambientMax_C: record.targets.ambient_C[1],
   };
   const out = {} as Record<DeviceRole, DeviceClass>;
+  const reasons = {} as Record<DeviceRole, string>;
   // The driver is judged against the power stage it drives, so the power stage is chosen first.
   const order = [...DEVICE_ROLES.filter((r) => r !== "driver_npn"), "driver_npn" as const];
   for (const role of order) {
     const bound = record.devices?.[role];
     if (bound !== undefined) {
       out[role] = checkFamily(role, getDevice(lib, bound), `design "${record.id}" binds`);
+      reasons[role] = "bound by the design record";
       continue;
     }
     const ids = DEFAULT_DEVICE_IDS[role];
@@ -236,13 +337,40 @@ export function chooseDevices(
       throw new EngineMisuseError(
         `chooseDevices: no default class for role "${role}" in the library (expected one of ${ids.join(", ")})`,
       );
+    if (role === "driver_npn") {
+      const picked = pickDriver(present.filter(isBjt), out.power_npn as BjtClass, need);
+      out[role] = checkFamily(role, picked ?? last, "default");
+      reasons[role] = picked
+        ? `highest minimum gain among ${present.map((d) => d.id).join(", ")} whose ratings fit this drive`
+        : `none of ${present.map((d) => d.id).join(", ")} fits this drive with selection headroom: ` +
+          "the largest is taken";
+      continue;
+    }
+    const skipped: string[] = [];
+    let picked: DeviceClass | undefined;
+    for (const d of present) {
+      const why = whyNot(role, d, need);
+      if (why === null) {
+        picked = d;
+        break;
+      }
+      skipped.push(`${d.id}: ${why}`);
+    }
     // None fits: take the largest, and let the engine's stress checks say why it is not enough.
-    const picked =
-      role === "driver_npn"
-        ? pickDriver(present.filter(isBjt), out.power_npn as BjtClass, need)
-        : present.find((d) => fits(role, d, need));
     out[role] = checkFamily(role, picked ?? last, "default");
+    reasons[role] =
+      (picked
+        ? !RULED_ROLES.has(role)
+          ? PREFERRED_REASON
+          : present.length > 1
+            ? `first of ${present.map((d) => d.id).join(", ")} that clears this variant`
+            : "the one class for this role"
+        : "no class clears this variant with selection headroom: the largest is taken and the checks say why") +
+      (skipped.length ? ` (passed over: ${skipped.join("; ")})` : "");
   }
   // Keys in the contract's role order (stable output).
-  return Object.fromEntries(DEVICE_ROLES.map((r) => [r, out[r]])) as Record<DeviceRole, DeviceClass>;
+  return {
+    devices: Object.fromEntries(DEVICE_ROLES.map((r) => [r, out[r]])) as Record<DeviceRole, DeviceClass>,
+    reasons: Object.fromEntries(DEVICE_ROLES.map((r) => [r, reasons[r]])) as Record<DeviceRole, string>,
+  };
 }

@@ -586,6 +586,11 @@ export const SOURCES = {
         sureness: "seen",
       },
       {
+        item: "1N4728A–1N4764A zener series",
+        value: "1 W at T_L 50 °C, ±5 % (A suffix), T_J 200 °C",
+        sureness: "from-memory",
+      },
+      {
         item: "2N3906, 1N4148, 1N400x, 1N540x, 1N5822",
         value: "ratings as in the device files",
         sureness: "from-memory",

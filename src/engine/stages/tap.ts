@@ -111,7 +111,12 @@ function capRc(ctx: Ctx, rC_ohm: number): number {
   return rC_ohm <= lim ? rC_ohm : Math.max(rcMin(ctx), roundDown(lim, "E24"));
 }
 
-export function designTap(ctx: Ctx, plan: ChainPlan): TapDesign {
+/**
+ * `rcCap_ohm` (optional) caps R_C below what the chain's need would take (size.ts lowers it when the
+ * core fails on recovery or injection); the timing transistor's current floor still wins.
+ */
+export function designTap(ctx: Ctx, plan: ChainPlan, rcCap_ohm: number = RC_MAX_OHM): TapDesign {
+  const rcMax = Math.max(rcMin(ctx), Math.min(RC_MAX_OHM, roundDown(rcCap_ohm, "E24")));
   const need = plan.need;
   const tapNet = need.inverting ? "cb" : "ca";
   const inputNet = INPUT_NET[ctx.spec.chain]!;
@@ -121,7 +126,7 @@ export function designTap(ctx: Ctx, plan: ChainPlan): TapDesign {
   if (need.kind === "base-current") {
     const span = ctx.vMin_V - need.vClamp_V;
     const rCi = (TAP_SHARE_ALPHA * span) / need.i_A;
-    const rC = capRc(ctx, Math.min(RC_MAX_OHM, Math.max(rcMin(ctx), nearest(Math.max(rCi, 1), "E24"))));
+    const rC = capRc(ctx, Math.min(rcMax, Math.max(rcMin(ctx), nearest(Math.max(rCi, 1), "E24"))));
     const rTmax = span / (need.i_A * (1 + tol)) - rC;
     if (!(rTmax >= 1)) {
       problems.push(
@@ -171,7 +176,7 @@ export function designTap(ctx: Ctx, plan: ChainPlan): TapDesign {
   const rCfast = (0.02 * period * (ctx.vMin_V - plateau_V(dev))) / dev.qg_C;
   // R_C + R_G feeds the gate; R_G ≥ R_C·RG_SHARE_MIN, so R_C takes ≤ 1/(1 + share) of the fast limit.
   const rCg = rCfast / (1 + RG_SHARE_MIN);
-  const rC = capRc(ctx, Math.min(RC_MAX_OHM, Math.max(rcMin(ctx), rCg > 1 ? roundDown(rCg, "E24") : 1)));
+  const rC = capRc(ctx, Math.min(rcMax, Math.max(rcMin(ctx), rCg > 1 ? roundDown(rCg, "E24") : 1)));
   let best: { rG: number; rGS: number; lo: number; hi: number } | null = null;
   for (const rGS of seriesBetween(1000, 100_000, "E24")) {
     for (const rG of seriesBetween(100, 100_000, "E24")) {

@@ -84,6 +84,42 @@ describe("chooseDevices: defaults by current and voltage", () => {
     expect(chooseDevices(record(20e3), lib, 24, 5).freewheel_diode.id).toBe("diode-schottky-10a");
   });
 
+  it("freewheel diode: carries the running current at the top of the supply window, not only the rating", () => {
+    // 24 V lead-acid (21.0–29.4 V, common practice), 1.5 A coil: R = 24 V / 1.5 A = 16 Ω, full on at 29.4 V
+    // 1.84 A; off share ≤ 1 − 0.3/2 = 0.85 → 1.56 A average > 50 % of the 3 A classes → the 10 A Schottky.
+    const coil: DesignRecord = {
+      ...record(2000),
+      axes: { supply_V: [24], load_A: [1.5], chain: ["mosfet-logic"], load_kind: ["solenoid"] },
+      targets: { pwm_Hz: 2000, duty_min: 0.3, duty_max: 0.85, ambient_C: [0, 45], supply_tolerance: 0.1 },
+      supply: { battery: "lead-acid" },
+      solenoid: { tau_ms: 10, pull_in_ms: 30, pull_in_share: 0.75, hold_share: 0.4 },
+    };
+    expect(chooseDevices(coil, lib, 24, 1.5).freewheel_diode.id).toBe("diode-schottky-10a");
+    // 1 A coil: 1.23 A × 0.85 = 1.04 A ≤ 1.5 A → a 3 A class suffices; the 40 V Schottky is out at
+    // 29.4 V (70 % of 40 V is 28 V), so the 3 A fast-recovery rectifier.
+    expect(chooseDevices(coil, lib, 24, 1).freewheel_diode.id).toBe("diode-fast-3a");
+  });
+
+  // Gate-rail zener (mosfet-driver), hand arithmetic with a 12 mA rail and ≥ 1 V across its feed resistor
+  // (ours), dissipation V_Z,max·(V_max − V_Z,min)/R_Z within half the rating (the policy's zener factor):
+  it.each([
+    // 48 V ± 10 % (43.2–52.8 V): R_Z = (43.2 − 12.6)/0.012 = 2550 Ω; I = (52.8 − 11.4)/2550 = 16.2 mA;
+    // P = 12.6 × 0.0162 = 0.205 W ≤ 0.25 W → the 0.5 W part.
+    [48, undefined, "zener-12v-0w5"],
+    // 24 V lead-acid (21.0–29.4 V): R_Z = 700 Ω, I = 25.7 mA, P = 0.324 W > 0.25 W, ≤ 0.5 W → 12 V 1 W.
+    [24, "lead-acid", "zener-12v-1w"],
+    // 13.8 V ± 10 % (12.42–15.18 V): 12 V leaves no feed; 10 V: R_Z = 1.92/0.012 = 160 Ω,
+    // I = (15.18 − 9.5)/160 = 35.5 mA, P = 10.5 × 0.0355 = 0.373 W ≤ 0.5 W → 10 V 1 W.
+    [13.8, undefined, "zener-10v-1w"],
+    // 12 V lead-acid (10.5–14.7 V): 12 V and 10 V leave < 1 V; 8.2 V: R_Z = 1.89/0.012 = 157.5 Ω,
+    // I = (14.7 − 7.79)/157.5 = 43.9 mA, P = 8.61 × 0.0439 = 0.378 W ≤ 0.5 W → 8.2 V 1 W.
+    [12, "lead-acid", "zener-8v2-1w"],
+  ] as const)("gate zener at %s V (%s) → %s: the highest rail that the supply window can feed", (v, bat, id) => {
+    const r: DesignRecord = { ...record(20e3), axes: { ...record(20e3).axes, supply_V: [v] } };
+    if (bat !== undefined) r.supply = { battery: bat };
+    expect(chooseDevices(r, lib, v, 1, "mosfet-driver").gate_zener.id).toBe(id);
+  });
+
   it("a record's binding wins over the default", () => {
     expect(chooseDevices(record(20e3, { power_npn: "npn-power-to3" }), lib, 12, 0.1).power_npn.id).toBe(
       "npn-power-to3",

@@ -1,0 +1,119 @@
+/**
+ * Coverage of ordinary needs, measured without simulation: sizes every variant of the coverage
+ * grid (test/fixtures/coverage/designs/, written by bench/coverage-grid.ts) and of the demo, and
+ * prints the feasible share and the remaining reasons counted by kind (the verdict's first
+ * blocking rule, and every blocking rule). Figures are printed, never asserted.
+ * Usage: node --import tsx bench/coverage.ts [--by chain|supply|pwm|kind|load] [--rule <rule>]
+ */
+import { cpSync, mkdtempSync, rmSync } from "node:fs";
+import { tmpdir } from "node:os";
+import path from "node:path";
+import { fileURLToPath } from "node:url";
+import { loadProject } from "../src/records/index.ts";
+import { formatIssue } from "../src/records/index.ts";
+import { expandDesign } from "../src/expand/index.ts";
+import { chooseDevices } from "../src/engine/devices/choose.ts";
+import { sizeVariant } from "../src/engine/index.ts";
+import type { SizedVariant } from "../src/model/sized.ts";
+
+const ROOT = fileURLToPath(new URL("..", import.meta.url));
+
+/** Sizes every variant of the records under `<root>/designs`. */
+export async function sizeAll(root: string): Promise<SizedVariant[]> {
+  const project = await loadProject(root);
+  if (!project.ok) throw new Error(`records do not load:\n${project.issues.slice(0, 10).map(formatIssue).join("\n")}`);
+  const specs = project.designs.flatMap((d) =>
+    expandDesign(d.record, {
+      choose: (r, s, a, c) => chooseDevices(r, project.devices, s, a, c),
+      policy: project.policy,
+    }),
+  );
+  return specs.map((s) => sizeVariant(s));
+}
+
+/** A project root holding the coverage grid with the repository's devices, policy and schemas. */
+function gridRoot(): string {
+  const root = mkdtempSync(path.join(tmpdir(), "pulsewright-coverage-"));
+  for (const sub of ["devices", "policies", "schema"])
+    cpSync(path.join(ROOT, "designs", sub), path.join(root, "designs", sub), { recursive: true });
+  cpSync(path.join(ROOT, "test", "fixtures", "coverage", "designs"), path.join(root, "designs"), { recursive: true });
+  return root;
+}
+
+const share = (n: number, d: number): string => `${n}/${d} (${d ? ((100 * n) / d).toFixed(1) : "0"} %)`;
+
+function count<T>(xs: T[], key: (x: T) => string[]): [string, number][] {
+  const m = new Map<string, number>();
+  for (const x of xs) for (const k of key(x)) m.set(k, (m.get(k) ?? 0) + 1);
+  return [...m].sort((a, b) => b[1] - a[1] || (a[0] < b[0] ? -1 : 1));
+}
+
+function report(label: string, sized: SizedVariant[], by: string | undefined): void {
+  const feasible = sized.filter((s) => s.feasible).length;
+  console.log(`${label}: feasible ${share(feasible, sized.length)}`);
+  const blocked = sized.filter((s) => !s.feasible);
+  const first = count(blocked, (s) => [s.verdict.blocking[0]?.rule ?? "?"]);
+  console.log(`  first reason (rule: variants)`);
+  for (const [k, n] of first) console.log(`    ${k}: ${n}`);
+  const every = count(blocked, (s) => [...new Set(s.verdict.blocking.map((b) => b.rule))]);
+  console.log(`  every blocking rule (rule: variants carrying it)`);
+  for (const [k, n] of every) console.log(`    ${k}: ${n}`);
+  if (by) {
+    const keyOf = (s: SizedVariant): string =>
+      by === "chain"
+        ? s.spec.chain
+        : by === "supply"
+          ? `${s.spec.supply_V} V`
+          : by === "pwm"
+            ? `${s.spec.targets.pwm_Hz} Hz ${s.spec.targets.duty_min}-${s.spec.targets.duty_max}`
+            : by === "kind"
+              ? s.spec.load_kind
+              : `${s.spec.load_A} A`;
+    const groups = new Map<string, SizedVariant[]>();
+    for (const s of sized) groups.set(keyOf(s), [...(groups.get(keyOf(s)) ?? []), s]);
+    console.log(`  by ${by}`);
+    for (const [k, g] of groups) console.log(`    ${k}: ${share(g.filter((s) => s.feasible).length, g.length)}`);
+  }
+}
+
+const isMain = process.argv[1] !== undefined && fileURLToPath(import.meta.url) === path.resolve(process.argv[1]);
+if (isMain) {
+  const arg = (name: string): string | undefined => {
+    const i = process.argv.indexOf(name);
+    return i > 0 ? process.argv[i + 1] : undefined;
+  };
+  const t0 = performance.now();
+  await runCoverage({ by: arg("--by"), rule: arg("--rule"), demoOnly: process.argv.includes("--demo") });
+  console.log(`coverage: ${((performance.now() - t0) / 1000).toFixed(1)} s`);
+}
+
+export interface CoverageOptions {
+  by?: string | undefined;
+  rule?: string | undefined;
+  demoOnly?: boolean;
+}
+
+/** Prints the demo's and the grid's feasible shares and reasons. */
+export async function runCoverage(o: CoverageOptions = {}): Promise<void> {
+  const demo = await sizeAll(ROOT);
+  report("demo (sized, no simulation)", demo, o.by);
+  if (o.demoOnly) {
+    listRule(demo, o.rule);
+    return;
+  }
+  const root = gridRoot();
+  try {
+    const grid = await sizeAll(root);
+    report("coverage grid (sized, no simulation)", grid, o.by);
+    listRule(grid, o.rule);
+  } finally {
+    rmSync(root, { recursive: true, force: true });
+  }
+}
+
+/** A dozen variants whose first blocking reason is `rule`, with its message (for diagnosis). */
+function listRule(sized: SizedVariant[], rule: string | undefined): void {
+  if (!rule) return;
+  for (const s of sized.filter((v) => v.verdict.blocking[0]?.rule === rule).slice(0, 12))
+    console.log(`  ${s.spec.id}: ${s.verdict.blocking[0]!.message}`);
+}
