@@ -31,6 +31,8 @@ build options:
   --no-sim              skip simulation (pages say "not simulated")
   --workers N           simulation worker threads, 1 to 64 (default: cores)
   --prefix PATH         URL prefix the site is served under (links are relative anyway)
+  --rebuild             size, draw and render every page again and republish, ignoring the
+                        page caches in .cache/ (simulations still come from their cache)
 
 serve options:
   --port N              port on 127.0.0.1, 1 to 65535 (default 8080)
@@ -87,6 +89,7 @@ async function dispatch(argv: string[], root: string, out: Out): Promise<number>
     "no-sim": { type: "boolean" },
     workers: { type: "string" },
     prefix: { type: "string" },
+    rebuild: { type: "boolean" },
   });
   const spice = values.spice ?? process.env["PULSEWRIGHT_SPICE"] ?? "eecircuit-engine";
   if (spice !== "eecircuit-engine" && spice !== "ngspice") {
@@ -103,6 +106,7 @@ async function dispatch(argv: string[], root: string, out: Out): Promise<number>
     simulate: !(values["no-sim"] ?? false),
     ...(workers !== undefined ? { workers } : {}),
     pathPrefix: values.prefix ?? process.env["PATH_PREFIX"] ?? "/",
+    rebuild: values.rebuild ?? false,
     out,
   });
 }

@@ -102,3 +102,8 @@ export function renderPlot(w: WaveformSet, meta: { title: string }): string {
       `${tickText((t1 - t0) * tp.scale)} ${tp.prefix}s.`,
   });
 }
+
+/** The waveform plot of one simulated variant, titled with its id. */
+export function variantPlot(id: string, w: WaveformSet): string {
+  return renderPlot(w, { title: `Simulated waveforms, ${id}` });
+}
