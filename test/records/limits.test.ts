@@ -42,7 +42,7 @@ async function check(files: { id: string; text: string }[]): Promise<{ code: num
 describe("variant limits", () => {
   it("the documented numbers", () => {
     expect(MAX_VARIANTS_PER_DESIGN).toBe(2000);
-    expect(MAX_VARIANTS_TOTAL).toBe(20000);
+    expect(MAX_VARIANTS_TOTAL).toBe(10000);
   });
 
   it("a record of exactly 2,000 variants passes; 2,016 are refused at /axes with the count", async () => {
@@ -56,15 +56,15 @@ describe("variant limits", () => {
     );
   });
 
-  it("a catalogue of exactly 20,000 passes; one more record is refused, naming it and the totals", async () => {
-    const ten = Array.from({ length: 10 }, (_, i) => ({ id: `bulk-${i}`, text: record(`bulk-${i}`, 10, 10, 5, 4) }));
-    const at = await check(ten);
+  it("a catalogue of exactly 10,000 passes; one more record is refused, naming it and the totals", async () => {
+    const five = Array.from({ length: 5 }, (_, i) => ({ id: `bulk-${i}`, text: record(`bulk-${i}`, 10, 10, 5, 4) }));
+    const at = await check(five);
     expect(at.err).toBe("");
-    expect(at.out).toMatch(/20000 variants would be built/);
-    const past = await check([...ten, { id: "one-more", text: record("one-more", 1, 1, 1, 1) }]);
+    expect(at.out).toMatch(/10000 variants would be built/);
+    const past = await check([...five, { id: "one-more", text: record("one-more", 1, 1, 1, 1) }]);
     expect(past.code).toBe(1);
     expect(past.err).toMatch(
-      /^designs\/one-more\.json:5:3 {2}\/axes {2}the catalogue would hold more than the 20,000 variants allowed: this record adds 1 and brings it from 20,000 to 20,001, and all 11 records together hold 20,001 — /m,
+      /^designs\/one-more\.json:5:3 {2}\/axes {2}the catalogue would hold more than the 10,000 variants allowed: this record adds 1 and brings it from 10,000 to 10,001, and all 6 records together hold 10,001 — /m,
     );
   });
 });
