@@ -106,8 +106,12 @@ export async function runBuild(o: BuildOptions): Promise<number> {
     for (const v of verifications.values()) if (v.status === "disagree" || v.status === "failed") s[v.status]++;
     o.out.log(
       `nothing changed: ${path.relative(o.root, outDir) || "."}/ is up to date ` +
-        `(${all.length} variants) in ${((performance.now() - t0) / 1000).toFixed(1)} s`,
+        `(${all.length} variants; simulation: ${s.disagree} disagree, ${s.failed} failed) ` +
+        `in ${((performance.now() - t0) / 1000).toFixed(1)} s`,
     );
+    for (const [id, v] of verifications)
+      if (v.status === "disagree" || v.status === "failed")
+        o.out.log(`  ${v.status}: ${id}${v.message ? ` — ${v.message}` : ""}`);
     reportRss(o);
     return gate(o, s);
   }

@@ -41,7 +41,9 @@ describe("incremental rebuilds", () => {
   it("with nothing changed, nothing is sized or republished", () => {
     expect(second.code, second.stderr).toBe(0);
     expect(second.stdout).toMatch(/2 designs unchanged, 0 sized again/);
-    expect(second.stdout).toMatch(/nothing changed: .*_site\/ is up to date \(90 variants\)/);
+    expect(second.stdout).toMatch(
+      /nothing changed: .*_site\/ is up to date \(90 variants; simulation: 0 disagree, 0 failed\)/,
+    );
   });
 
   it("one record edited: only its design page and variant pages are rendered again (plus home and sources)", () => {
