@@ -36,7 +36,11 @@ function start(): void {
     }
     const pf = await load();
     const res = await pf.search(q);
-    const top = await Promise.all((res?.results ?? []).slice(0, 8).map((r) => r.data()));
+    // A design page before its variant pages: it is the way into them, and, long as its matrix
+    // makes it, the index would otherwise rank it below shorter pages holding the same words.
+    const found = await Promise.all((res?.results ?? []).slice(0, 16).map((r) => r.data()));
+    const isDesign = (u: string) => /(^|\/)designs\/[^/]+\/(index\.html)?$/.test(new URL(u, siteRoot).pathname);
+    const top = [...found.filter((d) => isDesign(d.url)), ...found.filter((d) => !isDesign(d.url))].slice(0, 8);
     if (mine !== seq) return; // a newer query has started
     out.replaceChildren();
     out.hidden = false;

@@ -7,14 +7,24 @@ import { readFile } from "node:fs/promises";
 import path from "node:path";
 import { performance } from "node:perf_hooks";
 import { loadProject, formatIssue } from "../records/index.ts";
-import { sizeProject, renderVariant, assembleCatalogue, simulationJobs } from "./pipeline.ts";
+import { assembleCatalogue, simulationJobs } from "./pipeline.ts";
+import { sizeAndRenderCached, type StageStats } from "./size-cache.ts";
 import { verifyAll } from "../verify/pool.ts";
 import { progressReporter } from "../verify/progress.ts";
-import { writeSite } from "../site/write.ts";
+import { publishedKey, recordPublished } from "./published.ts";
+import { cachedPlot } from "./plot-cache.ts";
+import { codeHash } from "../cache/code-hash.ts";
+import { hashParts, keyText } from "../cache/store.ts";
 import { makeStagingDir, swapIntoPlace, discardStaging, sweepLeftovers } from "./publish.ts";
 import { checkOutDir, writeSiteMarker } from "./out-guard.ts";
 import { buildDate } from "./build-date.ts";
 import type { Verification } from "../model/verification.ts";
+
+/**
+ * The code of the whole build after sizing (site writer, templates, browser scripts; sizing and
+ * simulation are in the closure of build.ts too). Part of the published site's input key.
+ */
+export const BUILD_CODE = ["src/cli/build.ts", "src/site/write.ts", "site", "src/browser"];
 
 export interface BuildOptions {
   root: string;
@@ -26,6 +36,8 @@ export interface BuildOptions {
   simulate: boolean;
   workers?: number;
   pathPrefix: string;
+  /** Ignore the sized and site caches (entries are still written) and always republish. */
+  rebuild?: boolean;
   out: { log(s: string): void; error(s: string): void };
 }
 
@@ -46,15 +58,17 @@ export async function runBuild(o: BuildOptions): Promise<number> {
   }
   await sweepLeftovers(outDir);
 
-  const sized = sizeProject(project);
-  const rendered = sized.map(({ design, sized: vs }) => ({
-    design,
-    rendered: vs.map((v) => renderVariant(v, project.devices)),
-  }));
+  // Each design is sized and drawn again only when its record, the devices, the policy or the code changed.
+  const sizeStats: StageStats = { hits: 0, misses: 0, keys: [] };
+  const rendered = sizeAndRenderCached(project, path.join(o.root, ".cache", "sized"), sizeStats, {
+    read: !o.rebuild,
+  });
   const tSized = performance.now();
   const all = rendered.flatMap((d) => d.rendered);
   o.out.log(
-    `sized and rendered ${all.length} variants of ${rendered.length} designs in ${((tSized - t0) / 1000).toFixed(1)} s`,
+    `sized and rendered ${all.length} variants of ${rendered.length} designs ` +
+      `in ${((tSized - t0) / 1000).toFixed(1)} s ` +
+      `(${sizeStats.hits} designs unchanged, ${sizeStats.misses} sized again)`,
   );
 
   let verifications: Map<string, Verification> = new Map();
@@ -69,10 +83,54 @@ export async function runBuild(o: BuildOptions): Promise<number> {
   const tSim = performance.now();
 
   const pkg = JSON.parse(await readFile(path.join(o.root, "package.json"), "utf8")) as { version: string };
-  const catalogue = assembleCatalogue(project, rendered, verifications, buildDate(), pkg.version);
+  const builtAt = buildDate();
+  // The published site is a function of these inputs and the code: when they equal those of the
+  // site in place (and the folder is as that build left it), there is nothing to republish. A date
+  // read from the clock is not an input; one pinned by SOURCE_DATE_EPOCH is.
+  const siteCache = path.join(o.root, ".cache", "site");
+  const inputKey = hashParts([
+    "published-site",
+    codeHash(BUILD_CODE),
+    ...rendered.map((d) => d.design.file),
+    ...sizeStats.keys,
+    keyText([...verifications].sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0))),
+    o.pathPrefix,
+    pkg.version,
+    process.env["SOURCE_DATE_EPOCH"] ? builtAt : "",
+  ]);
+  if (!o.rebuild && (await publishedKey(siteCache, outDir)) === inputKey) {
+    const s = { disagree: 0, failed: 0 };
+    for (const v of verifications.values()) if (v.status === "disagree" || v.status === "failed") s[v.status]++;
+    o.out.log(
+      `nothing changed: ${path.relative(o.root, outDir) || "."}/ is up to date ` +
+        `(${all.length} variants; simulation: ${s.disagree} disagree, ${s.failed} failed) ` +
+        `in ${((performance.now() - t0) / 1000).toFixed(1)} s`,
+    );
+    for (const [id, v] of verifications)
+      if (v.status === "disagree" || v.status === "failed")
+        o.out.log(`  ${v.status}: ${id}${v.message ? ` — ${v.message}` : ""}`);
+    reportRss(o);
+    return gate(o, s);
+  }
+
+  const catalogue = assembleCatalogue(
+    project,
+    rendered,
+    verifications,
+    builtAt,
+    pkg.version,
+    cachedPlot(path.join(o.root, ".cache", "plot"), !o.rebuild),
+  );
+  // Imported here: a build with nothing to republish never loads the site writer.
+  const { writeSite } = await import("../site/write.ts");
   const staging = await makeStagingDir(outDir);
   try {
-    const written = await writeSite(catalogue, staging, { pathPrefix: o.pathPrefix, quiet: true });
+    const written = await writeSite(catalogue, staging, {
+      pathPrefix: o.pathPrefix,
+      quiet: true,
+      cacheDir: siteCache,
+      readCache: !o.rebuild,
+    });
     await writeSiteMarker(staging);
     // Again just before the swap: the folder may have been filled by someone else meanwhile.
     const still = await checkOutDir(o.root, o.outDir);
@@ -84,9 +142,11 @@ export async function runBuild(o: BuildOptions): Promise<number> {
       return 2;
     }
     await swapIntoPlace(staging, outDir);
+    await recordPublished(siteCache, outDir, inputKey);
     const s = catalogue.summary;
     o.out.log(
-      `published ${written.pages} pages, ${written.files} files to ${path.relative(o.root, outDir) || "."}/ ` +
+      `published ${written.pages} pages (${written.rendered} rendered, search index ${written.searchIndex}), ` +
+        `${written.files} files to ${path.relative(o.root, outDir) || "."}/ ` +
         `(${s.variants} variants, ${s.feasible} feasible; simulation: ${s.agree} agree, ${s.disagree} disagree, ` +
         `${s.failed} failed${o.simulate ? "" : ", not run"}) in ${((performance.now() - t0) / 1000).toFixed(1)} s ` +
         `(simulation ${((tSim - tSized) / 1000).toFixed(1)} s)`,
@@ -98,19 +158,29 @@ export async function runBuild(o: BuildOptions): Promise<number> {
             `  ${v.verification.status}: ` +
               `${v.sized.spec.id}${v.verification.message ? ` — ${v.verification.message}` : ""}`,
           );
-    if (process.env["PULSEWRIGHT_REPORT_RSS"])
-      o.out.log(`peak memory ${Math.round(process.resourceUsage().maxRSS / 1024)} MB`);
-    if (o.strict && (s.disagree > 0 || s.failed > 0)) {
-      o.out.error(`--strict: ${s.disagree} disagreeing and ${s.failed} failed simulations`);
-      return 3;
-    }
-    if (o.strictFailures && s.failed > 0) {
-      o.out.error(`--strict-failures: ${s.failed} simulation(s) failed to run`);
-      return 3;
-    }
-    return 0;
+    reportRss(o);
+    return gate(o, s);
   } catch (err) {
     await discardStaging(staging);
     throw err;
   }
+}
+
+/** Peak memory, for the bench (PULSEWRIGHT_REPORT_RSS set). */
+function reportRss(o: BuildOptions): void {
+  if (process.env["PULSEWRIGHT_REPORT_RSS"])
+    o.out.log(`peak memory ${Math.round(process.resourceUsage().maxRSS / 1024)} MB`);
+}
+
+/** The --strict and --strict-failures gates over the simulation summary. */
+function gate(o: BuildOptions, s: { disagree: number; failed: number }): number {
+  if (o.strict && (s.disagree > 0 || s.failed > 0)) {
+    o.out.error(`--strict: ${s.disagree} disagreeing and ${s.failed} failed simulations`);
+    return 3;
+  }
+  if (o.strictFailures && s.failed > 0) {
+    o.out.error(`--strict-failures: ${s.failed} simulation(s) failed to run`);
+    return 3;
+  }
+  return 0;
 }

@@ -34,6 +34,8 @@ build options:
   --prefix PATH         URL prefix the site is served under (links are relative anyway)
   --shard K/N           simulate only the K-th of N shares of the work and leave its results in
                         .cache/shards/K-of-N/ (nothing is published); merge-cache, then build
+  --rebuild             size, draw and render every page again and republish, ignoring the
+                        page caches in .cache/ (simulations still come from their cache)
 
 serve options:
   --port N              port on 127.0.0.1, 1 to 65535 (default 8080)
@@ -99,6 +101,7 @@ async function dispatchBuild(root: string, rest: string[], out: Out): Promise<nu
     workers: { type: "string" },
     prefix: { type: "string" },
     shard: { type: "string" },
+    rebuild: { type: "boolean" },
   });
   const spice = values.spice ?? process.env["PULSEWRIGHT_SPICE"] ?? "eecircuit-engine";
   if (spice !== "eecircuit-engine" && spice !== "ngspice") {
@@ -108,7 +111,7 @@ async function dispatchBuild(root: string, rest: string[], out: Out): Promise<nu
   const workers = values.workers === undefined ? undefined : wholeFlag("build", "workers", values.workers, 1, 64);
   if (values.shard !== undefined) {
     const shard = await import("./shard.ts");
-    const publishing = (["out", "prefix", "no-sim", "strict", "strict-failures"] as const).filter(
+    const publishing = (["out", "prefix", "no-sim", "strict", "strict-failures", "rebuild"] as const).filter(
       (f) => values[f] !== undefined,
     );
     if (publishing.length > 0)
@@ -133,6 +136,7 @@ async function dispatchBuild(root: string, rest: string[], out: Out): Promise<nu
     simulate: !(values["no-sim"] ?? false),
     ...(workers !== undefined ? { workers } : {}),
     pathPrefix: values.prefix ?? process.env["PATH_PREFIX"] ?? "/",
+    rebuild: values.rebuild ?? false,
     out,
   });
 }

@@ -12,7 +12,7 @@ import type { DeviceLibrary } from "../model/device.ts";
 import { expandDesign } from "../expand/index.ts";
 import { chooseDevices, chooseDevicesWithReasons } from "../engine/devices/choose.ts";
 import { sizeVariant, attachAlternatives } from "../engine/index.ts";
-import { renderPlot } from "../render/plot.ts";
+import { variantPlot } from "../render/plot.ts";
 import { renderVariantViews, type VariantViews } from "../render/variant.ts";
 import type { VerifyJob } from "../verify/pool.ts";
 
@@ -24,15 +24,17 @@ export interface RenderedVariant extends VariantViews {
 export function sizeProject(
   project: LoadedProject,
 ): { design: LoadedProject["designs"][number]; sized: SizedVariant[] }[] {
-  return project.designs.map((d) => {
-    const specs = expandDesign(d.record, {
-      choose: (rec, supply_V, load_A, c) => chooseDevices(rec, project.devices, supply_V, load_A, c),
-      explain: (rec, supply_V, load_A, c) =>
-        chooseDevicesWithReasons(rec, project.devices, supply_V, load_A, c).reasons,
-      policy: project.policy,
-    });
-    return { design: d, sized: attachAlternatives(specs.map((s) => sizeVariant(s))) };
+  return project.designs.map((d) => ({ design: d, sized: sizeDesign(project, d) }));
+}
+
+/** Size every variant of one design (alternatives attached across the design's variants). */
+export function sizeDesign(project: LoadedProject, d: LoadedProject["designs"][number]): SizedVariant[] {
+  const specs = expandDesign(d.record, {
+    choose: (rec, supply_V, load_A, c) => chooseDevices(rec, project.devices, supply_V, load_A, c),
+    explain: (rec, supply_V, load_A, c) => chooseDevicesWithReasons(rec, project.devices, supply_V, load_A, c).reasons,
+    policy: project.policy,
   });
+  return attachAlternatives(specs.map((s) => sizeVariant(s)));
 }
 
 /** The three circuit views of a variant (the render step the browser shares); none without a circuit. */
@@ -54,6 +56,8 @@ export function assembleCatalogue(
   verifications: ReadonlyMap<string, Verification>,
   builtAt: string,
   version: string,
+  /** Draws a variant's waveform plot (the build passes a cached one: src/cli/plot-cache.ts). */
+  plot: (id: string, w: NonNullable<Verification["waveforms"]>) => string = variantPlot,
 ): BuiltCatalogue {
   const summary = { variants: 0, feasible: 0, agree: 0, disagree: 0, failed: 0, skipped: 0 };
   const built: BuiltDesign[] = designs.map(({ design, rendered }) => ({
@@ -64,9 +68,7 @@ export function assembleCatalogue(
       summary.variants++;
       if (r.sized.feasible) summary.feasible++;
       if (v) summary[v.status]++;
-      const plotSvg = v?.waveforms
-        ? renderPlot(v.waveforms, { title: `Simulated waveforms, ${r.sized.spec.id}` })
-        : undefined;
+      const plotSvg = v?.waveforms ? plot(r.sized.spec.id, v.waveforms) : undefined;
       return {
         sized: r.sized,
         ...(v ? { verification: v } : {}),

@@ -22,6 +22,7 @@ import { checkSourceKeys } from "./source-keys.ts";
 import { validateParsed } from "./validate.ts";
 import { checkDefaults, checkDeviceData } from "./devices.ts";
 import { checkRecordText } from "./text.ts";
+import { checkVariantLimits } from "./limits.ts";
 
 export type LoadResult =
   | {
@@ -103,6 +104,8 @@ export async function loadProject(root: string, options: LoadOptions = {}): Prom
     issues.push(...checkFileName(d.parsed, d.record.id, "/id"), ...checkTargets(d), ...checkBindings(d, library));
   }
   issues.push(...checkDefaults(designs, devices, library));
+  // Last: only records that are otherwise valid are counted (their axes hold what the schema allows).
+  issues.push(...checkVariantLimits(designs));
 
   if (issues.length > 0 || !policyParsed) return { ok: false, issues: sortIssues(uniqueIssues(issues)) };
   return {

@@ -73,7 +73,7 @@ export function renderPlot(w: WaveformSet, meta: { title: string }): string {
     g.element("text")
       .words(`${s.name} (${s.unit})`)
       .attr({ x: LEFT + 6, y: y0 + 14, fill: "#000", "font-weight": "bold" });
-    const pts = s.values.map((v, i) => [xOf(w.t_s[i]!), yOf(v)] as [number, number]);
+    const pts = tracePoints(s.values.map((v, i) => [xOf(w.t_s[i]!), yOf(v)] as [number, number]));
     g.polyline(pts).fill("none").stroke({ color: ACCENT, width: 2, linejoin: "round" });
     if (withThr) {
       const y = yOf(w.threshold_V!);
@@ -101,4 +101,35 @@ export function renderPlot(w: WaveformSet, meta: { title: string }): string {
       `Waveforms: ${w.series.map((s) => `${s.name} in ${s.unit}`).join(", ")}, over ` +
       `${tickText((t1 - t0) * tp.scale)} ${tp.prefix}s.`,
   });
+}
+
+/**
+ * The points of one trace as drawn: rounded to 0.1 px (the plot is 680 px wide, so finer steps are
+ * invisible), without repeats, and without the middle points of runs on one straight horizontal or
+ * vertical line (a PWM waveform is mostly flat). The same line is drawn with a fraction of the bytes.
+ */
+export function tracePoints(pts: readonly [number, number][]): [number, number][] {
+  const r = (x: number) => Math.round(x * 10) / 10;
+  const out: [number, number][] = [];
+  for (const [x0, y0] of pts) {
+    const p: [number, number] = [r(x0), r(y0)];
+    const last = out[out.length - 1];
+    if (last && last[0] === p[0] && last[1] === p[1]) continue;
+    const prev = out[out.length - 2];
+    if (last && prev && (onRun(prev, last, p, 1, 0) || onRun(prev, last, p, 0, 1)))
+      out[out.length - 1] = p; // extend the straight run instead of adding a point
+    else out.push(p);
+  }
+  return out;
+}
+
+/** b lies on the straight run from a to c: same coordinate `same`, and between them along `along`. */
+function onRun(a: [number, number], b: [number, number], c: [number, number], same: 0 | 1, along: 0 | 1): boolean {
+  if (a[same] !== b[same] || b[same] !== c[same]) return false;
+  return (a[along] <= b[along] && b[along] <= c[along]) || (a[along] >= b[along] && b[along] >= c[along]);
+}
+
+/** The waveform plot of one simulated variant, titled with its id. */
+export function variantPlot(id: string, w: WaveformSet): string {
+  return renderPlot(w, { title: `Simulated waveforms, ${id}` });
 }

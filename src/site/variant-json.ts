@@ -85,5 +85,6 @@ export function variantJson(v: BuiltVariant, d: BuiltDesign, cat: BuiltCatalogue
 
 /** Serialised form: two-space indent and a final newline, stable across builds. */
 export function variantJsonText(v: BuiltVariant, d: BuiltDesign, cat: BuiltCatalogue): string {
-  return `${JSON.stringify(variantJson(v, d, cat), null, 2)}\n`;
+  // Compact (one line): a download for programs; indenting made up a quarter of its bytes.
+  return `${JSON.stringify(variantJson(v, d, cat))}\n`;
 }

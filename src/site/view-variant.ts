@@ -5,7 +5,7 @@ import { orderedFigureRows, type FigureRow } from "./figures.ts";
 import { chainLabel, loadLabel, verdictWords } from "./labels.ts";
 import { checkRow, partRow, type CheckRow, type PartRow } from "./parts-view.ts";
 import { availableDownloads } from "./downloads.ts";
-import { designPage, relativeRoot, variantPage } from "./paths.ts";
+import { designPage, downloadNames, relativeRoot, variantPage } from "./paths.ts";
 import { verificationView, type VerificationView } from "./verification-view.ts";
 import { selfCheckView, type SelfCheckView } from "./selfcheck-view.ts";
 
@@ -36,7 +36,8 @@ export interface VariantView {
   };
   alternative: { url: string; label: string; why: string } | null;
   figures: FigureRow[];
-  schematicSvg: string;
+  /** The schematic, shown from its download file (one copy of the drawing, not a second one inline). */
+  schematic: Drawing | null;
   parts: PartRow[];
   checks: CheckRow[];
   heatsink: { needed: boolean; text: string };
@@ -44,13 +45,20 @@ export interface VariantView {
   verification: VerificationView;
   /** The published netlist's batch run and the values it should print (null: no such block). */
   selfCheck: SelfCheckView | null;
-  plotSvg: string;
+  /** The simulated waveforms, likewise from their download file. */
+  plot: Drawing | null;
   cautions: string[];
   /** The engine's design decisions: which parts, what was chosen, why. */
   decisions: { refs: string; topic: string; choice: string; reason: string }[];
   downloads: Download[];
   policy: string;
   footerFile: string;
+}
+
+/** A drawing shown as an image of its own file in the variant's folder. */
+export interface Drawing {
+  src: string;
+  alt: string;
 }
 
 /**
@@ -114,14 +122,27 @@ export function variantView(v: BuiltVariant, d: BuiltDesign, cat: BuiltCatalogue
     },
     alternative: alt ? { url: variantPage(alt.id), label: `${chainLabel(alt.chain)} (${alt.id})`, why: alt.why } : null,
     figures: orderedFigureRows(s.figures),
-    schematicSvg: s.circuit ? inlineSvg(v.files.schematicSvg) : "",
+    schematic:
+      s.circuit && v.files.schematicSvg
+        ? {
+            src: downloadNames(spec.id).schematic,
+            alt:
+              `Schematic of ${spec.id}: the timing core, the output chain and the load, with every part's ` +
+              "reference and value (listed in the parts table)",
+          }
+        : null,
     parts: (s.circuit?.parts ?? []).map(partRow),
     checks: s.checks.map(checkRow),
     heatsink: { needed: s.heatsink.needed, text: s.heatsink.text },
     problems: problems(s.problems),
     verification: verificationView(v.verification),
     selfCheck: selfCheckView(v),
-    plotSvg: inlineSvg(v.files.plotSvg),
+    plot: v.files.plotSvg
+      ? {
+          src: downloadNames(spec.id).waveforms,
+          alt: `Simulated waveforms of ${spec.id} (the measured values are in the table above)`,
+        }
+      : null,
     cautions: s.cautions,
     decisions: (s.decisions ?? []).map((d) => ({
       refs: d.refs.join(", "),

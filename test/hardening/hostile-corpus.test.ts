@@ -27,6 +27,7 @@ async function place(root: string, c: HostileCase): Promise<string> {
   for (const f of c.remove ?? []) await rm(path.join(root, f));
   for (const [src, dest] of Object.entries(c.extra ?? {}))
     await writeFile(path.join(root, dest), await readFile(path.join(CORPUS, "extra", src)));
+  for (const [dest, bytes] of Object.entries(c.more?.() ?? {})) await writeFile(path.join(root, dest), bytes);
   if (c.kind === "folder" || c.kind === "dangling" || c.kind === "outside") {
     if (c.kind === "folder") await mkdir(at);
     else await symlink(c.kind === "dangling" ? "missing-target.json" : path.join(CORPUS, "linked-design.json"), at);

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import type { WaveformSet } from "../../src/model/verification.ts";
-import { renderPlot } from "../../src/render/plot.ts";
+import { renderPlot, tracePoints } from "../../src/render/plot.ts";
 import { axisPrefix, niceTicks } from "../../src/render/plot-scale.ts";
 import { readSvg } from "./svg-read.ts";
 
@@ -82,5 +82,45 @@ describe("renderPlot", () => {
     const short = waves();
     short.series[2]!.values.pop();
     expect(() => renderPlot(short, { title: "x" })).toThrow(/600 values for 601/);
+  });
+});
+
+describe("trace points (tracePoints)", () => {
+  // Common practice (no source): a polyline simplification must not move or drop a visible corner.
+  it("collapses flat runs to their ends, keeps every corner and a spike on a vertical edge", () => {
+    const flat: [number, number][] = [0, 1, 2, 3, 4].map((x) => [x, 10]);
+    expect(tracePoints(flat)).toEqual([
+      [0, 10],
+      [4, 10],
+    ]);
+    const pulse: [number, number][] = [
+      [0, 10],
+      [1, 10],
+      [2, 10],
+      [2, 50],
+      [2, 20],
+      [3, 20],
+      [4, 20],
+    ];
+    expect(tracePoints(pulse)).toEqual([
+      [0, 10],
+      [2, 10],
+      [2, 50],
+      [2, 20],
+      [4, 20],
+    ]);
+  });
+
+  it("rounds to 0.1 px and drops repeats", () => {
+    expect(
+      tracePoints([
+        [1.04, 2.06],
+        [1.01, 2.09],
+        [3.333, 4.444],
+      ]),
+    ).toEqual([
+      [1, 2.1],
+      [3.3, 4.4],
+    ]);
   });
 });

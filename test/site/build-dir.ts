@@ -7,7 +7,7 @@ import { writeSite, type WriteSiteOptions } from "../../src/site/write.ts";
 
 export interface Built {
   dir: string;
-  result: { pages: number; files: number };
+  result: { pages: number; files: number; rendered: number; searchIndex: "built" | "cached" };
   cleanup: () => Promise<void>;
 }
 

@@ -62,7 +62,7 @@ describe("view models", () => {
   it("a variant without a circuit shows no schematic and no parts, and offers only its JSON", () => {
     const v = view.variants.find((x) => x.id === "strip-and-mat-12v-3a-bjt-single-resistive")!;
     expect(v.feasible).toBe(false);
-    expect(v.schematicSvg).toBe("");
+    expect(v.schematic).toBeNull();
     expect(v.parts).toEqual([]);
     expect(v.downloads.map((d) => d.name)).toEqual(["strip-and-mat-12v-3a-bjt-single-resistive.json"]);
     expect(v.alternative?.url).toBe("variants/strip-and-mat-12v-3a-mosfet-logic-resistive/index.html");

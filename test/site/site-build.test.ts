@@ -29,7 +29,8 @@ describe("files of the built site", () => {
     for (const d of cat.designs) expect(files).toContain(`designs/${d.record.id}/index.html`);
     for (const v of variants) expect(files).toContain(`variants/${v.sized.spec.id}/index.html`);
     expect(files.filter((f) => f.endsWith(".html"))).toHaveLength(2 + cat.designs.length + variants.length);
-    expect(site.result).toEqual({ pages: 2 + cat.designs.length + variants.length, files: files.length });
+    const pages = 2 + cat.designs.length + variants.length;
+    expect(site.result).toEqual({ pages, files: files.length, rendered: pages, searchIndex: "built" });
   });
 
   it("writes each variant's downloads beside its page under meaningful names, byte for byte", async () => {
