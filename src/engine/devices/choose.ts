@@ -23,7 +23,8 @@ export const DEFAULT_DEVICE_IDS: Readonly<Record<DeviceRole, readonly string[]>>
   timing_npn: ["npn-small-signal-high-gain", "npn-small-signal"],
   // Chosen by gain, not by size (see `pickDriver`); listed smallest first for ties.
   driver_npn: ["npn-small-signal-high-gain", "npn-small-signal", "npn-medium", "npn-power-to220"],
-  driver_pnp: ["pnp-small-signal"],
+  // The gate driver's sinking half: the first class that carries what its NPN half carries (`pickDriverPnp`).
+  driver_pnp: ["pnp-small-signal", "pnp-medium", "pnp-power-to220"],
   power_npn: ["npn-small-signal", "npn-medium", "npn-power-to220", "npn-power-to3"],
   power_pnp: ["pnp-small-signal", "pnp-power-to220"],
   mosfet_logic: ["nmos-logic"],
@@ -321,8 +322,13 @@ export function chooseDevicesWithReasons(
   };
   const out = {} as Record<DeviceRole, DeviceClass>;
   const reasons = {} as Record<DeviceRole, string>;
-  // The driver is judged against the power stage it drives, so the power stage is chosen first.
-  const order = [...DEVICE_ROLES.filter((r) => r !== "driver_npn"), "driver_npn" as const];
+  // The driver is judged against the power stage it drives, so the power stage is chosen first; the
+  // gate driver's PNP half is matched to its NPN half, so it comes last.
+  const order = [
+    ...DEVICE_ROLES.filter((r) => r !== "driver_npn" && r !== "driver_pnp"),
+    "driver_npn" as const,
+    "driver_pnp" as const,
+  ];
   for (const role of order) {
     const bound = record.devices?.[role];
     if (bound !== undefined) {
@@ -344,6 +350,17 @@ export function chooseDevicesWithReasons(
         ? `highest minimum gain among ${present.map((d) => d.id).join(", ")} whose ratings fit this drive`
         : `none of ${present.map((d) => d.id).join(", ")} fits this drive with selection headroom: ` +
           "the largest is taken";
+      continue;
+    }
+    if (role === "driver_pnp") {
+      const npn = out.driver_npn as BjtClass;
+      const picked = present.filter(isBjt).find((d) => pnpMatches(d, npn));
+      out[role] = checkFamily(role, picked ?? last, "default");
+      reasons[role] = picked
+        ? `first of ${present.map((d) => d.id).join(", ")} that carries the gate-drive peak its NPN half ` +
+          `(${npn.id}, ${npn.ic_max_A} A) is sized for`
+        : `none of ${present.map((d) => d.id).join(", ")} matches ${npn.id}: the largest is taken and the ` +
+          "checks say why";
       continue;
     }
     const skipped: string[] = [];
@@ -373,4 +390,14 @@ export function chooseDevicesWithReasons(
     devices: Object.fromEntries(DEVICE_ROLES.map((r) => [r, out[r]])) as Record<DeviceRole, DeviceClass>,
     reasons: Object.fromEntries(DEVICE_ROLES.map((r) => [r, reasons[r]])) as Record<DeviceRole, string>,
   };
+}
+
+/**
+ * The gate driver's emitter-follower pair (mosfet-driver: Q_HI NPN sources, Q_LO PNP sinks the gate
+ * current through the same R_G) carries the same peak both ways, and R_G is sized on the smaller of
+ * the two ratings: so the PNP half is the first class rated for at least the NPN half's collector
+ * current (common practice: a complementary pair of like ratings). Its voltage is checked by the engine.
+ */
+function pnpMatches(d: BjtClass, npn: BjtClass): boolean {
+  return d.ic_max_A >= npn.ic_max_A;
 }
