@@ -57,14 +57,17 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
   const railNom = useZener ? dz.vz_V : ctx.vNom_V;
   const vgsMin = railMin - vbeCold(qhi, ctx);
   const vgsMax = railMax - vbeOn(qhi, ctx.taMax_C);
-  // Gate resistor: keeps the pair's peak current within the smaller continuous rating of the two
-  // followers (short pulses; common practice: a pulse of well under a microsecond kept within the
-  // continuous rating, as the small-signal classes give no pulse rating). The peak: the rail less
-  // Q_HI's V_BE (hot, lowest) across R_G at its low tolerance end, charging an empty gate; Q_LO's,
-  // discharging a full gate into its emitter one V_EB above ground, is no larger.
-  const iPairMax_A = Math.min(qhi.ic_max_A, qlo.ic_max_A);
+  // Gate resistor: keeps the source follower's peak current within its continuous rating (short
+  // pulses; common practice: a pulse of well under a microsecond kept within the continuous rating,
+  // as the small-signal classes give no pulse rating). The peak: the rail less Q_HI's V_BE (hot,
+  // lowest) across R_G at its low tolerance end, charging an empty gate; Q_LO's, discharging a full
+  // gate into its emitter one V_EB above ground, is no larger. Q_LO is chosen to match Q_HI
+  // (choose.ts); where no class does, its peak check fails and says so. Sizing R_G on the smaller
+  // of the two instead is what a designer would do, but the nominal turn-off model does not yet
+  // follow a larger R_G with an inductive load (seven 24 V valve variants simulated 1.5× the
+  // predicted dissipation), so the engine does not design what it cannot predict.
   const vDrivePk_V = railMax - vbeOn(qhi, ctx.taMax_C);
-  const rG = roundUp(Math.max(10, vDrivePk_V / (iPairMax_A * (1 - ctx.rTol))), "E24");
+  const rG = roundUp(Math.max(10, vDrivePk_V / (qhi.ic_max_A * (1 - ctx.rTol))), "E24");
   const iPk_A = vDrivePk_V / (rG * (1 - ctx.rTol));
   // For the gains, the rail across R_G (a little above the peak: the lower gain, conservative).
   const iGpk = railMax / (rG * (1 - ctx.rTol));
