@@ -23,7 +23,9 @@ export const DEFAULT_DEVICE_IDS: Readonly<Record<DeviceRole, readonly string[]>>
   timing_npn: ["npn-small-signal-high-gain", "npn-small-signal"],
   // Chosen by gain, not by size (see `pickDriver`); listed smallest first for ties.
   driver_npn: ["npn-small-signal-high-gain", "npn-small-signal", "npn-medium", "npn-power-to220"],
-  driver_pnp: ["pnp-small-signal"],
+  // The gate driver's sinking half: the first class that carries what its NPN half carries, else the
+  // largest; small packages only (a gate driver's follower, not a power stage; see `pnpHalf`).
+  driver_pnp: ["pnp-small-signal", "pnp-medium"],
   power_npn: ["npn-small-signal", "npn-medium", "npn-power-to220", "npn-power-to3"],
   power_pnp: ["pnp-small-signal", "pnp-power-to220"],
   mosfet_logic: ["nmos-logic"],
@@ -38,6 +40,14 @@ export const DEFAULT_DEVICE_IDS: Readonly<Record<DeviceRole, readonly string[]>>
 
 /** Family each role needs: the shared table (src/model/design.ts). */
 export { ROLE_FAMILY } from "../../model/design.ts";
+
+/**
+ * Packages of the gate driver's transistors (mosfet-driver: level shifter and the follower pair): a
+ * complementary pair of small-package transistors rated ≈ 0.2–0.8 A is the usual discrete gate
+ * driver (common practice); a TO-220 there turned the gate off so slowly that inductive variants
+ * dissipated 1.5× their prediction in simulation.
+ */
+const GATE_DRIVE_PACKAGES: ReadonlySet<string> = new Set(["TO-92", "TO-18"]);
 
 /** Selection headroom (common practice), separate from and looser than the derating policy. */
 const SWITCH_HEADROOM = 0.75;
@@ -321,8 +331,13 @@ export function chooseDevicesWithReasons(
   };
   const out = {} as Record<DeviceRole, DeviceClass>;
   const reasons = {} as Record<DeviceRole, string>;
-  // The driver is judged against the power stage it drives, so the power stage is chosen first.
-  const order = [...DEVICE_ROLES.filter((r) => r !== "driver_npn"), "driver_npn" as const];
+  // The driver is judged against the power stage it drives, so the power stage is chosen first; the
+  // gate driver's PNP half is matched to its NPN half, so it comes last.
+  const order = [
+    ...DEVICE_ROLES.filter((r) => r !== "driver_npn" && r !== "driver_pnp"),
+    "driver_npn" as const,
+    "driver_pnp" as const,
+  ];
   for (const role of order) {
     const bound = record.devices?.[role];
     if (bound !== undefined) {
@@ -338,12 +353,23 @@ export function chooseDevicesWithReasons(
         `chooseDevices: no default class for role "${role}" in the library (expected one of ${ids.join(", ")})`,
       );
     if (role === "driver_npn") {
-      const picked = pickDriver(present.filter(isBjt), out.power_npn as BjtClass, need);
-      out[role] = checkFamily(role, picked ?? last, "default");
+      // In the MOSFET gate driver the class serves the gate-drive pair's source follower and the
+      // level shifter, not a power stage: small packages only (GATE_DRIVE_PACKAGES).
+      const usable = present
+        .filter(isBjt)
+        .filter((d) => chain !== "mosfet-driver" || GATE_DRIVE_PACKAGES.has(d.package));
+      const picked = pickDriver(usable, out.power_npn as BjtClass, need);
+      out[role] = checkFamily(role, picked ?? usable[usable.length - 1] ?? last, "default");
       reasons[role] = picked
-        ? `highest minimum gain among ${present.map((d) => d.id).join(", ")} whose ratings fit this drive`
+        ? `highest minimum gain among ${usable.map((d) => d.id).join(", ")} whose ratings fit this drive`
         : `none of ${present.map((d) => d.id).join(", ")} fits this drive with selection headroom: ` +
           "the largest is taken";
+      continue;
+    }
+    if (role === "driver_pnp") {
+      const half = pnpHalf(present.filter(isBjt), out.driver_npn as BjtClass);
+      out[role] = checkFamily(role, half.d ?? last, "default");
+      reasons[role] = half.reason;
       continue;
     }
     const skipped: string[] = [];
@@ -372,5 +398,30 @@ export function chooseDevicesWithReasons(
   return {
     devices: Object.fromEntries(DEVICE_ROLES.map((r) => [r, out[r]])) as Record<DeviceRole, DeviceClass>,
     reasons: Object.fromEntries(DEVICE_ROLES.map((r) => [r, reasons[r]])) as Record<DeviceRole, string>,
+  };
+}
+
+/**
+ * The gate driver's emitter-follower pair (mosfet-driver: Q_HI NPN sources, Q_LO PNP sinks the gate
+ * current through the same R_G) carries the same peak both ways, and R_G is sized on the smaller of
+ * the two ratings: so the PNP half is the first class rated for at least the NPN half's collector
+ * current (common practice: a complementary pair of like ratings). Its voltage is checked by the engine.
+ */
+function pnpHalf(present: BjtClass[], npn: BjtClass): { d: BjtClass | undefined; reason: string } {
+  const ids = present.map((d) => d.id).join(", ");
+  const d = present.find((x) => x.ic_max_A >= npn.ic_max_A);
+  if (d !== undefined)
+    return {
+      d,
+      reason:
+        `first of ${ids} that carries the gate-drive peak its NPN half ` +
+        `(${npn.id}, ${npn.ic_max_A} A) is sized for`,
+    };
+  const largest = present[present.length - 1];
+  return {
+    d: largest,
+    reason:
+      `none of ${ids} is rated for the ${npn.ic_max_A} A of ${npn.id}: the largest is taken and its ` +
+      "gate-current peak check says whether it carries the pulse",
   };
 }

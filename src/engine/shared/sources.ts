@@ -616,6 +616,16 @@ export const SOURCES = {
       },
       { item: "BC547 group C: h_FE", value: "420–800 at 2 mA, 5 V", sureness: "seen" },
       { item: "BZX55-series zener: tolerance, P_Z", value: "C grade ±5 %, 0.5 W in free air", sureness: "from-memory" },
+      {
+        item: "BC327: V_CEO, V_EBO, I_C, P_tot, T_J",
+        value: "45 V, 5 V, 800 mA, 625 mW, 150 °C",
+        sureness: "from-memory",
+      },
+      {
+        item: "BC327: h_FE, V_CE(sat)",
+        value: "≥ 100 at 100 mA, ≥ 40 at 500 mA; 0.7 V at 500/50 mA",
+        sureness: "from-memory",
+      },
     ],
   },
   "device-class-typical": {

@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { chooseDevices } from "../../../src/engine/devices/choose.ts";
+import { DEFAULT_DEVICE_IDS, chooseDevices } from "../../../src/engine/devices/choose.ts";
+import type { BjtClass } from "../../../src/model/device.ts";
 import { DEVICE_ROLES, type DesignRecord } from "../../../src/model/design.ts";
 import { EngineMisuseError } from "../../../src/model/errors.ts";
 import { readLibrary } from "./read-library.ts";
@@ -118,6 +119,26 @@ describe("chooseDevices: defaults by current and voltage", () => {
     const r: DesignRecord = { ...record(20e3), axes: { ...record(20e3).axes, supply_V: [v] } };
     if (bat !== undefined) r.supply = { battery: bat };
     expect(chooseDevices(r, lib, v, 1, "mosfet-driver").gate_zener.id).toBe(id);
+  });
+
+  it("the gate driver's PNP half is rated for what its NPN half carries (complementary pair; common practice)", () => {
+    for (const [supply, load] of [
+      [12, 0.1],
+      [12, 1],
+      [24, 0.5],
+      [24, 2],
+      [24, 8],
+    ] as const) {
+      const d = chooseDevices(record(20e3), lib, supply, load, "mosfet-driver");
+      const npn = d.driver_npn as BjtClass;
+      const pnp = d.driver_pnp as BjtClass;
+      const ids = DEFAULT_DEVICE_IDS.driver_pnp;
+      // Rated for the NPN half's current, or, past every class, the largest (R_G is then sized on it).
+      if (pnp.ic_max_A < npn.ic_max_A) expect(pnp.id, `${supply} V ${load} A with ${npn.id}`).toBe(ids.at(-1));
+      // The smallest such class: the one before it in the list carries less than the NPN half.
+      const before = ids[ids.indexOf(pnp.id) - 1];
+      if (before !== undefined) expect((lib.get(before) as BjtClass).ic_max_A).toBeLessThan(npn.ic_max_A);
+    }
   });
 
   it("a record's binding wins over the default", () => {

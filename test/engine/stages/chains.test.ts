@@ -1,11 +1,11 @@
 import { describe, expect, it } from "vitest";
-import type { BjtClass } from "../../../src/model/device.ts";
+import type { BjtClass, ZenerClass } from "../../../src/model/device.ts";
 import { makeContext } from "../../../src/engine/stages/context.ts";
 import { planBjtSingle } from "../../../src/engine/stages/chains/bjt-single.ts";
 import { planDarlington } from "../../../src/engine/stages/chains/darlington.ts";
 import { rdsOn_ohm } from "../../../src/engine/stages/chains/mosfet-common.ts";
 import { sizeVariant } from "../../../src/engine/index.ts";
-import { hfeMin, vbeSat, vceSat } from "../../../src/engine/shared/gain.ts";
+import { hfeMin, vbeOn, vbeSat, vceSat } from "../../../src/engine/shared/gain.ts";
 import { expectClose } from "../../helpers/close.ts";
 import { NPN_HIGH_GAIN, type SpecOpts, makeSpec } from "../fixtures.ts";
 
@@ -101,5 +101,36 @@ describe("switching loss shape by load kind (Rashid Ex. 4.2 ⅙ vs Mohan Eq. 2-6
     );
     expect(m.figures.find((f) => f.key === "switching_loss")!.formula).toContain("½");
     expect(h.figures.find((f) => f.key === "switching_loss")!.formula).toContain("⅙");
+  });
+});
+
+describe("mosfet-driver gate-drive pair: gate-current peak within both followers' ratings (common practice)", () => {
+  it.each([
+    [12, 1],
+    [24, 0.5],
+    [24, 4],
+  ])("%s V, %s A: peak (rail − V_BE)/(R_G·(1 − tol)) checked against each follower's I_C,max", (supply_V, load_A) => {
+    const s = sizeVariant(makeSpec({ supply_V, load_A, chain: "mosfet-driver", load_kind: "resistive" }));
+    const part = (role: string) => s.circuit!.parts.find((p) => p.role === role)!;
+    const rG = part("RG").value;
+    const lo = s.spec.devices.driver_pnp as BjtClass;
+    const hi = s.spec.devices.driver_npn as BjtClass;
+    const peaks = s.checks.filter((c) => c.quantity === "peak" && [part("Q_HI").ref, part("Q_LO").ref].includes(c.ref));
+    expect(peaks).toHaveLength(2);
+    for (const c of peaks) {
+      // Fails exactly when the pulse exceeds that follower's own rating (a mismatched pair).
+      const rating = c.ref === part("Q_HI").ref ? hi.ic_max_A : lo.ic_max_A;
+      expect(c.rating).toBe(rating);
+      expect(c.verdict === "fail", `${c.ref}: ${c.stress} A of ${c.rating} A`).toBe(c.stress > rating);
+      // Hand arithmetic: peak = (V_rail,max − V_BE,hot) / (R_G·(1 − 5 %)), the rail the zener's top
+      // (V_Z·(1 + tol)) or, without the zener, the top of the supply window.
+      const ctx = makeContext(s.spec);
+      const dz = s.circuit!.parts.find((p) => p.role === "DZ");
+      const zc = s.spec.devices.gate_zener as ZenerClass;
+      const railMax = dz ? zc.vz_V * (1 + zc.vz_tolerance) : ctx.vMax_V;
+      expectClose(c.stress, (railMax - vbeOn(hi, ctx.taMax_C)) / (rG * 0.95), 1e-12);
+      // R_G is sized on the source follower: its own peak never exceeds its rating.
+      expect(c.stress).toBeLessThanOrEqual(hi.ic_max_A);
+    }
   });
 });

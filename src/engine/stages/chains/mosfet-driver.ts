@@ -7,6 +7,7 @@
  */
 import type { BjtClass, MosfetClass, ZenerClass } from "../../../model/device.ts";
 import type { Part } from "../../../model/circuit.ts";
+import type { StressCheck } from "../../../model/derating.ts";
 import { checkStress } from "../../shared/derating.ts";
 import { roundDown, roundUp } from "../../shared/e-series.ts";
 import { figure, problem } from "../../shared/figures.ts";
@@ -56,8 +57,19 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
   const railNom = useZener ? dz.vz_V : ctx.vNom_V;
   const vgsMin = railMin - vbeCold(qhi, ctx);
   const vgsMax = railMax - vbeOn(qhi, ctx.taMax_C);
-  // Gate resistor: keeps the follower's peak current within its continuous rating (short pulses).
-  const rG = roundUp(Math.max(10, railMax / qhi.ic_max_A), "E24");
+  // Gate resistor: keeps the source follower's peak current within its continuous rating (short
+  // pulses; common practice: a pulse of well under a microsecond kept within the continuous rating,
+  // as the small-signal classes give no pulse rating). The peak: the rail less Q_HI's V_BE (hot,
+  // lowest) across R_G at its low tolerance end, charging an empty gate; Q_LO's, discharging a full
+  // gate into its emitter one V_EB above ground, is no larger. Q_LO is chosen to match Q_HI
+  // (choose.ts); where no class does, its peak check fails and says so. Sizing R_G on the smaller
+  // of the two instead is what a designer would do, but the nominal turn-off model does not yet
+  // follow a larger R_G with an inductive load (seven 24 V valve variants simulated 1.5× the
+  // predicted dissipation), so the engine does not design what it cannot predict.
+  const vDrivePk_V = railMax - vbeOn(qhi, ctx.taMax_C);
+  const rG = roundUp(Math.max(10, vDrivePk_V / (qhi.ic_max_A * (1 - ctx.rTol))), "E24");
+  const iPk_A = vDrivePk_V / (rG * (1 - ctx.rTol));
+  // For the gains, the rail across R_G (a little above the peak: the lower gain, conservative).
   const iGpk = railMax / (rG * (1 - ctx.rTol));
   const betaHi = hfeMin(qhi, iGpk, ctx.taMin_C);
   const betaLo = hfeMin(qlo, iGpk, ctx.taMin_C);
@@ -108,8 +120,8 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
     );
   const parts: Part[] = [
     transistor("chain", "Q_DRV", qd, betaD, { c: "drc", b: "drb", e: "0" }, { voltage_V: railMax, current_A: iCD }),
-    transistor("chain", "Q_HI", qhi, betaHi, { c: rail, b: "drc", e: "pp" }, { voltage_V: railMax, current_A: iGpk }),
-    transistor("chain", "Q_LO", qlo, betaLo, { c: "0", b: "drc", e: "pp" }, { voltage_V: railMax, current_A: iGpk }),
+    transistor("chain", "Q_HI", qhi, betaHi, { c: rail, b: "drc", e: "pp" }, { voltage_V: railMax, current_A: iPk_A }),
+    transistor("chain", "Q_LO", qlo, betaLo, { c: "0", b: "drc", e: "pp" }, { voltage_V: railMax, current_A: iPk_A }),
     transistor(
       "chain",
       "Q_POWER",
@@ -156,6 +168,7 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
     checks: [
       ...switchChecks(ctx, "Q_POWER", mos),
       checkStress("Q_POWER", "vgs", vgsMax, mos.vgs_max_V, "V", pol.mosfet.vgs, pol.marginal_above),
+      ...followerChecks(qhi, qlo, iPk_A, railMax, ctx),
     ],
     delays() {
       return {
@@ -311,4 +324,28 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
       };
     },
   };
+}
+
+/**
+ * The gate-drive pair's ratings: each follower's gate-current peak against its continuous collector
+ * rating (factor 1: a pulse, not a continuous current; see the R_G sizing), and the gate rail
+ * across it when the other conducts against its V_CEO under the policy's transistor voltage rule.
+ */
+function followerChecks(qhi: BjtClass, qlo: BjtClass, iPk_A: number, railMax_V: number, ctx: Ctx): StressCheck[] {
+  const pol = ctx.spec.policy;
+  const pulse = {
+    factor: 1,
+    source: "common-practice" as const,
+    note: "gate-current pulse within the continuous collector rating (no pulse rating in the class)",
+    confidence: "common-practice" as const,
+  };
+  return (
+    [
+      ["Q_HI", qhi],
+      ["Q_LO", qlo],
+    ] as const
+  ).flatMap(([role, q]) => [
+    { ...checkStress(role, "peak", iPk_A, q.ic_max_A, "A", pulse, pol.marginal_above), what: "gate-current peak" },
+    checkStress(role, "voltage", railMax_V, q.vceo_V, "V", pol.bjt.voltage, pol.marginal_above),
+  ]);
 }
