@@ -9,6 +9,7 @@ import { performance } from "node:perf_hooks";
 import { loadProject, formatIssue } from "../records/index.ts";
 import { sizeProject, renderVariant, assembleCatalogue } from "./pipeline.ts";
 import { verifyAll } from "../verify/pool.ts";
+import { cornerDecks } from "../verify/corner-deck.ts";
 import { progressReporter } from "../verify/progress.ts";
 import { writeSite } from "../site/write.ts";
 import { makeStagingDir, swapIntoPlace, discardStaging, sweepLeftovers } from "./publish.ts";
@@ -61,7 +62,12 @@ export async function runBuild(o: BuildOptions): Promise<number> {
   if (o.simulate) {
     const jobs = all
       .filter((r) => r.sized.feasible && r.netlist)
-      .map((r) => ({ id: r.sized.spec.id, sized: r.sized, netlist: r.netlist }));
+      .map((r) => ({
+        id: r.sized.spec.id,
+        sized: r.sized,
+        netlist: r.netlist,
+        corners: cornerDecks(r.sized, project.devices),
+      }));
     verifications = await verifyAll(jobs, {
       engine: o.spice,
       cacheDir: path.join(o.root, ".cache", "sim"),

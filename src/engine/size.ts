@@ -55,8 +55,17 @@ export function sizeVariant(spec: VariantSpec): SizedVariant {
 function sizeInner(spec: VariantSpec): SizedVariant {
   const ctx = makeContext(spec);
   const plan = CHAIN_PLANNERS[spec.chain](ctx);
-  const tap = designTap(ctx, plan);
-  const timing = designTiming(ctx, plan, tap);
+  // The tap's injection cap on R_C is an estimate; when the core sized under it fails, the uncapped
+  // R_C is tried (the search then checks injection exactly) and kept if its core passes.
+  let tap = designTap(ctx, plan);
+  let timing = designTiming(ctx, plan, tap);
+  if (!timing.search.passed) {
+    const tapFree = designTap(ctx, plan, false);
+    if (tapFree.rC_ohm !== tap.rC_ohm) {
+      const free = designTiming(ctx, plan, tapFree);
+      if (free.search.passed) [tap, timing] = [tapFree, free];
+    }
+  }
   const w = timing.search.worst;
   const fin = plan.finish(tap.info, {
     dutyMax: Math.min(1, w.dMax.hi),
@@ -207,6 +216,7 @@ function sizeInner(spec: VariantSpec): SizedVariant {
     heatsink: thermal.heatsink,
     circuit,
     cautions: [...cautions(ctx, hot), ...reviewed.cautions],
+    corners: timing.corners,
   };
   if (verdict.status === "not-feasible") out.reason = verdict.summary;
   return out;

@@ -7,6 +7,7 @@ import { checkRow, partRow, type CheckRow, type PartRow } from "./parts-view.ts"
 import { availableDownloads } from "./downloads.ts";
 import { designPage, relativeRoot, variantPage } from "./paths.ts";
 import { verificationView, type VerificationView } from "./verification-view.ts";
+import { cornerView, type CornerView } from "./corner-view.ts";
 
 export interface Download {
   label: string;
@@ -41,6 +42,8 @@ export interface VariantView {
   heatsink: { needed: boolean; text: string };
   problems: { severity: string; rule: string; stage: string; path: string; message: string }[];
   verification: VerificationView;
+  /** Predicted against simulated at the operating corners (null: none simulated). */
+  corners: CornerView | null;
   plotSvg: string;
   cautions: string[];
   downloads: Download[];
@@ -115,6 +118,7 @@ export function variantView(v: BuiltVariant, d: BuiltDesign, cat: BuiltCatalogue
     heatsink: { needed: s.heatsink.needed, text: s.heatsink.text },
     problems: problems(s.problems),
     verification: verificationView(v.verification),
+    corners: cornerView(v.verification),
     plotSvg: inlineSvg(v.files.plotSvg),
     cautions: s.cautions,
     downloads: availableDownloads(v).map((f) => ({ label: f.label, href: f.name, name: f.name, type: f.type })),
