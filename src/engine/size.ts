@@ -20,8 +20,7 @@ import { figure, problem } from "./shared/figures.ts";
 import { NOMINAL_TEMP_C } from "./shared/temperature.ts";
 import { makeContext } from "./stages/context.ts";
 import { CHAIN_PLANNERS } from "./stages/chains/index.ts";
-import { designTap } from "./stages/tap.ts";
-import { designTiming } from "./stages/timing.ts";
+import { designTapAndTiming } from "./stages/timing.ts";
 import { loadStage } from "./stages/load.ts";
 import { thermalStage } from "./stages/thermal.ts";
 import { reviewFailures } from "./stages/failure-modes.ts";
@@ -55,17 +54,7 @@ export function sizeVariant(spec: VariantSpec): SizedVariant {
 function sizeInner(spec: VariantSpec): SizedVariant {
   const ctx = makeContext(spec);
   const plan = CHAIN_PLANNERS[spec.chain](ctx);
-  // The tap's injection cap on R_C is an estimate; when the core sized under it fails, the uncapped
-  // R_C is tried (the search then checks injection exactly) and kept if its core passes.
-  let tap = designTap(ctx, plan);
-  let timing = designTiming(ctx, plan, tap);
-  if (!timing.search.passed) {
-    const tapFree = designTap(ctx, plan, false);
-    if (tapFree.rC_ohm !== tap.rC_ohm) {
-      const free = designTiming(ctx, plan, tapFree);
-      if (free.search.passed) [tap, timing] = [tapFree, free];
-    }
-  }
+  const { tap, timing } = designTapAndTiming(ctx, plan);
   const w = timing.search.worst;
   const fin = plan.finish(tap.info, {
     dutyMax: Math.min(1, w.dMax.hi),

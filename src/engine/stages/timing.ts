@@ -17,7 +17,7 @@ import type { Ctx } from "./context.ts";
 import { type CoreValues, NOMINAL_K, diodeVf_V, evalCore } from "./core-model.ts";
 import { MAX_RECOVERY, type Search, envelopeOf, injection, searchCore } from "./timing-search.ts";
 import { INJECTION_MAX } from "./astable.ts";
-import type { TapDesign } from "./tap.ts";
+import { type TapDesign, designTap } from "./tap.ts";
 import type { ChainPlan } from "./chains/types.ts";
 import { timingParts } from "./timing-parts.ts";
 import { NOMINAL_TEMP_C } from "../shared/temperature.ts";
@@ -47,6 +47,21 @@ const fmtPct = (x: number): string => `${(x * 100).toFixed(1)} %`;
 
 /** Worst-case frequency spread around the target beyond which the page shows a problem (ours). */
 export const FREQ_SPREAD_SHOWN = 0.05;
+
+/**
+ * The tap and the timing core together. The tap's injection cap on R_C (tap.ts) is an estimate;
+ * when the core sized under it fails, the uncapped R_C is tried (the search then checks injection
+ * exactly) and kept if its core passes.
+ */
+export function designTapAndTiming(ctx: Ctx, plan: ChainPlan): { tap: TapDesign; timing: TimingResult } {
+  const tap = designTap(ctx, plan);
+  const timing = designTiming(ctx, plan, tap);
+  if (timing.search.passed) return { tap, timing };
+  const tapFree = designTap(ctx, plan, false);
+  if (tapFree.rC_ohm === tap.rC_ohm) return { tap, timing };
+  const free = designTiming(ctx, plan, tapFree);
+  return free.search.passed ? { tap: tapFree, timing: free } : { tap, timing };
+}
 
 export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingResult {
   const q = ctx.spec.devices.timing_npn as BjtClass;
@@ -166,8 +181,8 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
         "base-diode-injection",
         "error",
         `The base diodes' capacitance injects current into the floating base of the off timing transistor: ` +
-          `2·β·C_j·R_C/(R_B·C) = ${inj.toFixed(2)} (limit ${INJECTION_MAX}); the off collector sags and the core ` +
-          `can stop with both transistors on. Use a larger timing capacitor with smaller base resistors, a ` +
+          `2·β·C_j·R_C/(R_B·C) = ${inj.toFixed(2)} (limit ${INJECTION_MAX}); the "off" transistor conducts, its long ` +
+          `half-period ends early and the core runs faster than its range (or stops with both transistors on). Use a larger timing capacitor with smaller base resistors, a ` +
           `smaller R_C, or a lower frequency.`,
         { limit: INJECTION_MAX, actual: inj, unit: "" },
       ),
