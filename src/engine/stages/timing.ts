@@ -182,8 +182,8 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
         "error",
         `The base diodes' capacitance injects current into the floating base of the off timing transistor: ` +
           `2·β·C_j·R_C/(R_B·C) = ${inj.toFixed(2)} (limit ${INJECTION_MAX}); the "off" transistor conducts, its long ` +
-          `half-period ends early and the core runs faster than its range (or stops with both transistors on). Use a larger timing capacitor with smaller base resistors, a ` +
-          `smaller R_C, or a lower frequency.`,
+          `half-period ends early and the core runs faster than its range (or stops with both transistors ` +
+          `on). Use a larger timing capacitor with smaller base resistors, a smaller R_C, or a lower frequency.`,
         { limit: INJECTION_MAX, actual: inj, unit: "" },
       ),
     );

@@ -31,7 +31,7 @@ describe("base-diode injection ratio 2·β·C_j·R_C/(R_B·C) (derived: i = C_j�
       expect(baseInjectionRatio(370, 4e-12, 10_000, 100_000, 150e-12)).toBeGreaterThan(INJECTION_MAX);
     },
   );
-  it("the same core at mid control (R_B ≈ 335 kΩ) ran in simulation, but above the limit measured at the corners", () => {
+  it("the same core at mid control (R_B ≈ 335 kΩ) ran in simulation, but is above the measured limit", () => {
     // 0.59: it oscillated, but the corner simulations showed cores at ratios ≥ 0.46 running up to
     // 1.6× faster than their published range (astable.ts INJECTION_MAX, docs/verification.md).
     expectClose(baseInjectionRatio(370, 4e-12, 10_000, 335_000, 150e-12), 0.58905, 1e-4, "hand computation");
