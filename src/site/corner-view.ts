@@ -66,6 +66,15 @@ export function cornerView(v: Verification | undefined): CornerView | null {
   };
 }
 
+/** Axis labels: short enough for five corners side by side. */
+const SHORT: Record<CornerResult["name"], string> = {
+  "duty-ctrl0-high": "ctrl 0",
+  "duty-ctrl1-low": "ctrl 1",
+  slow: "slow",
+  fast: "fast",
+  power: "power",
+};
+
 const W = 150;
 const H = 120;
 const PAD = { l: 6, r: 6, t: 18, b: 26 };
@@ -76,7 +85,12 @@ function panel(corners: readonly CornerResult[], pick: (c: CornerCheck) => boole
   const vals = pts.flatMap((c) =>
     c === undefined
       ? []
-      : [c.simulated, c.hi, ...(c.lo === null ? [] : [c.lo]), ...(c.predicted === undefined ? [] : [c.predicted])],
+      : [
+          c.simulated,
+          c.hi + c.allow,
+          ...(c.lo === null ? [] : [c.lo - c.allow]),
+          ...(c.predicted === undefined ? [] : [c.predicted]),
+        ],
   );
   if (vals.length === 0) return "";
   let lo = Math.min(...vals);
@@ -95,11 +109,19 @@ function panel(corners: readonly CornerResult[], pick: (c: CornerCheck) => boole
     const cx = PAD.l + dx * (i + 0.5);
     const k = corners[i]!;
     out.push(
-      `<text x="${cx.toFixed(1)}" y="${H - 14}" text-anchor="middle" font-size="7">${xmlEscape(k.name.replace(/^duty-/, ""))}</text>`,
+      `<text x="${cx.toFixed(1)}" y="${H - 14}" text-anchor="middle" font-size="7">${xmlEscape(SHORT[k.name])}</text>`,
     );
     if (c === undefined) return;
     const top = y(c.hi);
     const bottom = c.lo === null ? H - PAD.b : y(c.lo);
+    // The allowance beyond the range (the comparison's model tolerance), dashed.
+    const aTop = y(c.hi + c.allow);
+    const aBottom = c.lo === null ? bottom : y(c.lo - c.allow);
+    out.push(
+      `<rect x="${(cx - 6).toFixed(1)}" y="${aTop.toFixed(1)}" width="12" ` +
+        `height="${Math.max(1, aBottom - aTop).toFixed(1)}" fill="none" stroke="#5b8db8" stroke-width="0.5" ` +
+        `stroke-dasharray="2 1.5"/>`,
+    );
     out.push(
       `<rect x="${(cx - 4).toFixed(1)}" y="${top.toFixed(1)}" width="8" ` +
         `height="${Math.max(1, bottom - top).toFixed(1)}" fill="#cfe3f3" stroke="#5b8db8" stroke-width="0.6"/>`,
