@@ -10,6 +10,7 @@ import { loadProject, formatIssue } from "../records/index.ts";
 import { sizeProject, renderVariant, assembleCatalogue } from "./pipeline.ts";
 import { verifyAll } from "../verify/pool.ts";
 import { cornerDecks } from "../verify/corner-deck.ts";
+import { NOMINAL_RUNS } from "../verify/plan.ts";
 import { progressReporter } from "../verify/progress.ts";
 import { writeSite } from "../site/write.ts";
 import { makeStagingDir, swapIntoPlace, discardStaging, sweepLeftovers } from "./publish.ts";
@@ -59,6 +60,8 @@ export async function runBuild(o: BuildOptions): Promise<number> {
   );
 
   let verifications: Map<string, Verification> = new Map();
+  // Transient runs asked for (cached ones included): three nominal per variant plus its corners.
+  let runs = 0;
   if (o.simulate) {
     const jobs = all
       .filter((r) => r.sized.feasible && r.netlist)
@@ -68,6 +71,7 @@ export async function runBuild(o: BuildOptions): Promise<number> {
         netlist: r.netlist,
         corners: cornerDecks(r.sized, project.devices),
       }));
+    runs = jobs.reduce((n, j) => n + NOMINAL_RUNS + j.corners.length, 0);
     verifications = await verifyAll(jobs, {
       engine: o.spice,
       cacheDir: path.join(o.root, ".cache", "sim"),
@@ -98,7 +102,7 @@ export async function runBuild(o: BuildOptions): Promise<number> {
       `published ${written.pages} pages, ${written.files} files to ${path.relative(o.root, outDir) || "."}/ ` +
         `(${s.variants} variants, ${s.feasible} feasible; simulation: ${s.agree} agree, ${s.disagree} disagree, ` +
         `${s.failed} failed${o.simulate ? "" : ", not run"}) in ${((performance.now() - t0) / 1000).toFixed(1)} s ` +
-        `(simulation ${((tSim - tSized) / 1000).toFixed(1)} s)`,
+        `(simulation ${((tSim - tSized) / 1000).toFixed(1)} s, ${runs} transient runs)`,
     );
     for (const d of catalogue.designs)
       for (const v of d.variants)

@@ -26,6 +26,9 @@ import { SpiceRunError } from "../model/errors.ts";
 /** Bumped whenever measurement code changes what it reports: part of every cache key. */
 export const MEASURE_CODE_VERSION = "verify-measure-10";
 
+/** Transients of the nominal plan per variant (ctrl 0.5, 0, 1); corner runs come on top (corner-runs.ts). */
+export const NOMINAL_RUNS = 3;
+
 export type Measured =
   | { ok: true; measurements: Measurement[]; waveforms?: WaveformSet; corners?: CornerMeasured[]; elapsed_s: number }
   | { ok: false; message: string; elapsed_s: number };
