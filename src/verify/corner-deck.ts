@@ -66,7 +66,7 @@ export function setTemp(netlist: string, t_C: number): string {
   const line = `.temp ${spiceNum(t_C, "temp")}`;
   const re = /^\.temp\s.*$/m;
   if (re.test(netlist)) return netlist.replace(re, line);
-  return netlist.replace(/^\.end\s*$/m, `${line}\n.end`);
+  return netlist.replace(/^\.end[ \t]*$/m, `${line}\n.end`);
 }
 
 export function cornerDeck(sized: SizedVariant, devices: DeviceLibrary, k: SimCorner): CornerDeck {
