@@ -150,7 +150,13 @@ function benchBuilds(): void {
     const simulated = cold.summary.match(/(\d+) agree, (\d+) disagree, (\d+) failed/);
     if (simulated) {
       const n = Number(simulated[1]) + Number(simulated[2]) + Number(simulated[3]);
-      console.log(`simulation: ${n} variants in the cold build`);
+      const runs = cold.summary.match(/\(simulation ([\d.]+) s, (\d+) transient runs\)/);
+      const perVariant = runs ? (Number(runs[2]) / Math.max(1, n)).toFixed(2) : "?";
+      const perSecond = runs ? (Number(runs[2]) / Math.max(1e-9, Number(runs[1]))).toFixed(1) : "?";
+      console.log(
+        `simulation: ${n} variants in the cold build, ${perVariant} transient runs per variant ` +
+          `(3 nominal + corners), ${perSecond} runs/s`,
+      );
     }
   } finally {
     rmSync(root, { recursive: true, force: true });

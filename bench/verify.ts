@@ -19,6 +19,7 @@ import { ngspiceAvailable } from "../src/verify/engines/ngspice.ts";
 import { measureVariant } from "../src/verify/plan.ts";
 import { verifyAll, type VerifyJob } from "../src/verify/pool.ts";
 import { targetFromSized } from "../src/verify/target.ts";
+import { cornerDecks } from "../src/verify/corner-deck.ts";
 
 const SIMS_PER_JOB = 3;
 
@@ -115,11 +116,19 @@ export async function benchCatalogue(workerCounts: number[], log: (s: string) =>
   const jobs = sizeProject(project)
     .flatMap((d) => d.sized.map((v) => renderVariant(v, project.devices)))
     .filter((r) => r.sized.feasible && r.netlist)
-    .map((r) => ({ id: r.sized.spec.id, sized: r.sized, netlist: r.netlist }));
+    .map((r) => ({
+      id: r.sized.spec.id,
+      sized: r.sized,
+      netlist: r.netlist,
+      corners: cornerDecks(r.sized, project.devices),
+    }));
+  // Runs per variant: the nominal plan's three, plus one per simulated corner.
+  const runs = jobs.reduce((n, j) => n + SIMS_PER_JOB + j.corners.length, 0);
   log(
-    `catalogue: ${jobs.length} feasible variants; load average ${loadavg()
-      .map((x) => x.toFixed(2))
-      .join(" ")}`,
+    `catalogue: ${jobs.length} feasible variants, ${(runs / Math.max(1, jobs.length)).toFixed(2)} runs per variant ` +
+      `(${SIMS_PER_JOB} nominal + corners); load average ${loadavg()
+        .map((x) => x.toFixed(2))
+        .join(" ")}`,
   );
   for (const workers of workerCounts) {
     const t0 = performance.now();
@@ -130,7 +139,7 @@ export async function benchCatalogue(workerCounts: number[], log: (s: string) =>
     log(
       `  ${workers} worker(s): ${s.toFixed(1)} s, ${(jobs.length / s).toFixed(2)} variants/s, ` +
         `${((1000 * s) / Math.max(1, jobs.length)).toFixed(0)} ms per variant, ` +
-        `${((SIMS_PER_JOB * jobs.length) / s).toFixed(1)} sims/s; ${JSON.stringify(count)}`,
+        `${(runs / s).toFixed(1)} runs/s; ${JSON.stringify(count)}`,
     );
   }
 }

@@ -10,6 +10,7 @@ import { loadProject, formatIssue } from "../records/index.ts";
 import { assembleCatalogue, simulationJobs } from "./pipeline.ts";
 import { sizeAndRenderCached, type StageStats } from "./size-cache.ts";
 import { verifyAll } from "../verify/pool.ts";
+import { NOMINAL_RUNS } from "../verify/plan.ts";
 import { progressReporter } from "../verify/progress.ts";
 import { publishedKey, recordPublished } from "./published.ts";
 import { cachedPlot } from "./plot-cache.ts";
@@ -72,8 +73,12 @@ export async function runBuild(o: BuildOptions): Promise<number> {
   );
 
   let verifications: Map<string, Verification> = new Map();
+  // Transient runs asked for (cached ones included): three nominal per variant plus its corners.
+  let runs = 0;
   if (o.simulate) {
-    verifications = await verifyAll(simulationJobs(all), {
+    const jobs = simulationJobs(all, project.devices);
+    runs = jobs.reduce((n, j) => n + NOMINAL_RUNS + (j.corners?.length ?? 0), 0);
+    verifications = await verifyAll(jobs, {
       engine: o.spice,
       cacheDir: path.join(o.root, ".cache", "sim"),
       ...(o.workers !== undefined ? { workers: o.workers } : {}),
@@ -149,7 +154,7 @@ export async function runBuild(o: BuildOptions): Promise<number> {
         `${written.files} files to ${path.relative(o.root, outDir) || "."}/ ` +
         `(${s.variants} variants, ${s.feasible} feasible; simulation: ${s.agree} agree, ${s.disagree} disagree, ` +
         `${s.failed} failed${o.simulate ? "" : ", not run"}) in ${((performance.now() - t0) / 1000).toFixed(1)} s ` +
-        `(simulation ${((tSim - tSized) / 1000).toFixed(1)} s)`,
+        `(simulation ${((tSim - tSized) / 1000).toFixed(1)} s, ${runs} transient runs)`,
     );
     for (const d of catalogue.designs)
       for (const v of d.variants)

@@ -15,6 +15,7 @@ import { sizeVariant, attachAlternatives } from "../engine/index.ts";
 import { variantPlot } from "../render/plot.ts";
 import { renderVariantViews, type VariantViews } from "../render/variant.ts";
 import type { VerifyJob } from "../verify/pool.ts";
+import { cornerDecks } from "../verify/corner-deck.ts";
 
 export interface RenderedVariant extends VariantViews {
   sized: SizedVariant;
@@ -42,11 +43,19 @@ export function renderVariant(sized: SizedVariant, devices: DeviceLibrary): Rend
   return { sized, ...renderVariantViews(sized, devices) };
 }
 
-/** The simulation work of a build: every feasible variant that has a netlist, in catalogue order. */
-export function simulationJobs(rendered: readonly RenderedVariant[]): VerifyJob[] {
+/**
+ * The simulation work of a build: every feasible variant that has a netlist, in catalogue order,
+ * with the corner decks the verifier runs besides the nominal ones.
+ */
+export function simulationJobs(rendered: readonly RenderedVariant[], devices: DeviceLibrary): VerifyJob[] {
   return rendered
     .filter((r) => r.sized.feasible && r.netlist)
-    .map((r) => ({ id: r.sized.spec.id, sized: r.sized, netlist: r.netlist }));
+    .map((r) => ({
+      id: r.sized.spec.id,
+      sized: r.sized,
+      netlist: r.netlist,
+      corners: cornerDecks(r.sized, devices),
+    }));
 }
 
 /** Assemble the catalogue the site writer reads. */

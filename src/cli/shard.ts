@@ -74,7 +74,7 @@ export async function runShard(o: ShardOptions): Promise<number> {
   const rendered: RenderedVariant[] = sizeProject(project).flatMap(({ sized }) =>
     sized.map((s) => ({ sized: s, ...renderVariantViews(s, project.devices, { schematic: false }) })),
   );
-  const jobs = simulationJobs(rendered);
+  const jobs = simulationJobs(rendered, project.devices);
   const mine = shareOf(jobs, o.shard);
   const dir = shardDir(o.root, o.shard);
   // The folder holds exactly this share: entries of an earlier run of the same shard are dropped.

@@ -62,11 +62,23 @@ export function sizeVariant(spec: VariantSpec): SizedVariant {
  */
 const RC_STEPS = [1.5, 2.2, 3.3, 4.7];
 
-/** The tap and the timing core, lowering R_C while the core does not pass (first passing wins). */
-function tapAndTiming(ctx: Ctx, plan: ChainPlan): { tap: TapDesign; timing: TimingResult; rcLowered?: RcLowered } {
+/**
+ * The tap and the timing core; when the core does not pass, first without the tap's injection cap
+ * on R_C (an estimate; the search then checks injection exactly), then lowering R_C in steps. The
+ * first core that passes is kept.
+ */
+export function tapAndTiming(
+  ctx: Ctx,
+  plan: ChainPlan,
+): { tap: TapDesign; timing: TimingResult; rcLowered?: RcLowered } {
   const tap = designTap(ctx, plan);
   const timing = designTiming(ctx, plan, tap);
   if (timing.search.passed) return { tap, timing };
+  const tapFree = designTap(ctx, plan, undefined, false);
+  if (tapFree.rC_ohm !== tap.rC_ohm) {
+    const free = designTiming(ctx, plan, tapFree);
+    if (free.search.passed) return { tap: tapFree, timing: free };
+  }
   for (const step of RC_STEPS) {
     const t2 = designTap(ctx, plan, tap.rC_ohm / step);
     if (t2.rC_ohm >= tap.rC_ohm) break; // the current floor holds R_C where it is
@@ -239,6 +251,7 @@ function sizeInner(spec: VariantSpec): SizedVariant {
       rcLowered,
       reviewed.conditions.some((c) => c.rule === "insulator-kit"),
     ),
+    corners: timing.corners,
   };
   if (verdict.status === "not-feasible") out.reason = verdict.summary;
   return out;

@@ -4,6 +4,7 @@ import type { Figure } from "./figure.ts";
 import type { ChainKind } from "./kinds.ts";
 import type { DesignProblem } from "./problem.ts";
 import type { VariantSpec } from "./variant.ts";
+import type { SimCorner } from "./corners.ts";
 
 /**
  * Figure keys the engine always produces for a feasible variant (other stages add more). The
@@ -114,6 +115,8 @@ export interface SizedVariant {
   cautions: string[];
   /** The engine's design decisions with their reasons (absent in catalogues built before they existed). */
   decisions?: DesignDecision[];
+  /** Operating corners the verifier simulates besides the nominal run (absent: no timing core sized). */
+  corners?: SimCorner[];
 }
 
 /** The figure with this key, if the engine produced it. */

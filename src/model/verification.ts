@@ -1,3 +1,5 @@
+import type { SimCornerName } from "./corners.ts";
+
 /** What the SPICE verifier reports per variant. */
 export type VerificationStatus = "agree" | "disagree" | "failed" | "skipped";
 
@@ -44,4 +46,47 @@ export interface Verification {
   elapsed_s?: number;
   /** Every simulated value (optional; added by the verifier): the compared ones and the extras. */
   measurements?: Measurement[];
+  /** The corner runs against the page's worst-case ranges (absent: nominal runs only). */
+  corners?: CornerResult[];
+}
+
+/** What one corner run measured (src/verify/corner-runs.ts). */
+export interface CornerMeasured {
+  name: SimCornerName;
+  /** Absent when the load did not switch (duty 0 or 1). */
+  frequency_Hz?: number;
+  duty: number;
+  /** Control-1 corners only. */
+  load_current_on_A?: number;
+  device_dissipation_W?: number;
+  /** Solver retry level the run needed (absent: none). */
+  retry_level?: number;
+}
+
+/** One simulated corner value against the page's worst-case range (or bound) for it. */
+export interface CornerCheck {
+  /** The page figure whose range is checked, e.g. "frequency_nominal", "duty_min", "device_dissipation". */
+  figure: string;
+  label: string;
+  unit: string;
+  simulated: number;
+  /** The engine's prediction at this corner (absent for a bound-only check). */
+  predicted?: number;
+  /** The page's worst-case range; a bound has lo = −Infinity written as null. */
+  lo: number | null;
+  hi: number;
+  /** Allowance beyond the range for model and measurement error (docs/verification.md, "Corners"). */
+  allow: number;
+  ok: boolean;
+}
+
+export interface CornerResult {
+  name: SimCornerName;
+  label: string;
+  ctrl: number;
+  gain: "min" | "typ";
+  vcc_V: number;
+  t_C: number;
+  measured: CornerMeasured;
+  checks: CornerCheck[];
 }

@@ -10,7 +10,7 @@ import { card } from "./spice-card.ts";
 import { diodeModel, zenerModel } from "./spice-diode.ts";
 import { mosfetModel } from "./spice-mosfet.ts";
 import { spiceModelName, timingModelName } from "./spice-num.ts";
-import { hfeNominal, vbeRefCurrent_A } from "../engine/shared/gain.ts";
+import { gainTempExponent, hfeNominal, vbeRefCurrent_A } from "../engine/shared/gain.ts";
 import { NOMINAL_TEMP_C, VT_NOMINAL_V } from "../engine/shared/temperature.ts";
 
 export interface SpiceModelOptions {
@@ -21,6 +21,10 @@ export interface SpiceModelOptions {
   /** BJTs: "typical" junction for timing-core transistors (spice-bjt.ts fitBjt); default "worst". */
   junction?: "worst" | "typical";
 }
+
+/** Saturation-current temperature exponent and band gap of silicon (SPICE defaults, from memory). */
+export const BJT_XTI = 3;
+export const BJT_EG_eV = 1.11;
 
 function bjtModel(dev: BjtClass, opts: SpiceModelOptions): string {
   // BF: the engine's gain law (shared/gain.ts) at the highest current the class's parts carry, but
@@ -57,6 +61,12 @@ function bjtModel(dev: BjtClass, opts: SpiceModelOptions): string {
       ["CJC", cjc],
       ["TF", tf],
       ["TR", tr],
+      // Temperature: gain by XTB (shared/gain.ts gainTempExponent); V_BE through IS(T) with silicon's
+      // XTI = 3, EG = 1.11 eV (the SPICE defaults, stated so the card says what it assumes)
+      // [src:antognetti-massobrio-2e]. No effect at `.temp` = TNOM.
+      ["XTB", gainTempExponent(dev)],
+      ["XTI", BJT_XTI],
+      ["EG", BJT_EG_eV],
       ["TNOM", NOMINAL_TEMP_C],
     ],
   );

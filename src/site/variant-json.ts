@@ -76,6 +76,7 @@ export function variantJson(v: BuiltVariant, d: BuiltDesign, cat: BuiltCatalogue
           hash: ver.hash,
           comparisons: ver.comparisons,
           ...(ver.message !== undefined ? { message: ver.message } : {}),
+          ...(ver.corners !== undefined ? { corners: ver.corners } : {}),
         }
       : { status: "skipped", comparisons: [] },
     // What `ngspice -b` on the published netlist should print (docs/verification.md).

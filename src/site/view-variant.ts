@@ -8,6 +8,7 @@ import { availableDownloads } from "./downloads.ts";
 import { designPage, downloadNames, relativeRoot, variantPage } from "./paths.ts";
 import { verificationView, type VerificationView } from "./verification-view.ts";
 import { selfCheckView, type SelfCheckView } from "./selfcheck-view.ts";
+import { cornerView, type CornerView } from "./corner-view.ts";
 
 export interface Download {
   label: string;
@@ -45,6 +46,8 @@ export interface VariantView {
   verification: VerificationView;
   /** The published netlist's batch run and the values it should print (null: no such block). */
   selfCheck: SelfCheckView | null;
+  /** Predicted against simulated at the operating corners (null: none simulated). */
+  corners: CornerView | null;
   /** The simulated waveforms, likewise from their download file. */
   plot: Drawing | null;
   cautions: string[];
@@ -137,6 +140,7 @@ export function variantView(v: BuiltVariant, d: BuiltDesign, cat: BuiltCatalogue
     problems: problems(s.problems),
     verification: verificationView(v.verification),
     selfCheck: selfCheckView(v),
+    corners: cornerView(v.verification),
     plot: v.files.plotSvg
       ? {
           src: downloadNames(spec.id).waveforms,

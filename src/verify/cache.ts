@@ -27,6 +27,7 @@ export function cacheKey(netlist: string, engine: { name: EngineName; version: s
     target.loadTau_s,
     target.loadEmf_V,
     target.predicted["chain_threshold"]?.value ?? null,
+    (target.corners ?? []).map((d) => [d.corner.name, d.corner.ctrl, d.period_s, d.netlist]),
   ]);
   return createHash("sha256")
     .update(simBody(netlist))

@@ -13,6 +13,8 @@ import type { Measured } from "./plan.ts";
 import type { Predicted } from "./target.ts";
 import { SIM_FIGURES } from "../model/sized.ts";
 import { EngineMisuseError } from "../model/errors.ts";
+import type { SimCorner } from "../model/corners.ts";
+import { judgeCorners } from "./corner-compare.ts";
 
 export interface Tolerance {
   rel?: number;
@@ -111,12 +113,19 @@ export function compare(predicted: Record<string, Predicted>, measurements: read
   return out;
 }
 
+/** What the corner runs are judged against (target.ts: the corner decks and the page's ranges). */
+export interface CornerBasis {
+  corners?: readonly { corner: SimCorner }[];
+  ranges?: Readonly<Record<string, [number, number]>>;
+}
+
 /** The published verdict for one variant from its (possibly cached) measurements. */
 export function judge(
   predicted: Record<string, Predicted>,
   measured: Measured,
   engine: { name: EngineName; version: string },
   hash: string,
+  basis: CornerBasis = {},
 ): Verification {
   const base = { engine: engine.name, engineVersion: engine.version, hash, elapsed_s: measured.elapsed_s };
   if (!measured.ok) return { ...base, status: "failed", comparisons: [], message: measured.message };
@@ -124,6 +133,14 @@ export function judge(
   const v: Verification = { ...base, status: "agree", comparisons, measurements: measured.measurements };
   if (measured.waveforms !== undefined) v.waveforms = measured.waveforms;
   const bad = comparisons.filter((c) => !c.ok);
+  const corners = judgeCorners(
+    (basis.corners ?? []).map((d) => d.corner),
+    measured.corners ?? [],
+    basis.ranges ?? {},
+    predicted,
+  );
+  if (corners.length > 0) v.corners = corners;
+  const cornerBad = corners.flatMap((k) => k.checks.filter((c) => !c.ok).map((c) => ({ k, c })));
   if (comparisons.length === 0) {
     v.status = "skipped";
     v.message = "no predicted figure to compare with";
@@ -134,6 +151,16 @@ export function judge(
         ? `${c.key} simulated ${c.simulated} exceeds the worst-case bound ${c.predicted}`
         : `${c.key} predicted ${c.predicted}, simulated ${c.simulated}`;
     v.message = `outside tolerance: ${bad.map(say).join("; ")}`;
+  }
+  if (v.status === "agree" && cornerBad.length > 0) {
+    v.status = "disagree";
+    v.message =
+      "outside the worst-case range at a simulated corner: " +
+      cornerBad
+        .map(({ k, c }) => `${k.name} ${c.figure} simulated ${c.simulated}, range ${c.lo ?? "…"}–${c.hi}`)
+        .join("; ");
+  } else if (cornerBad.length > 0 && v.message !== undefined) {
+    v.message += `; corners: ${cornerBad.map(({ k, c }) => `${k.name} ${c.figure} ${c.simulated}`).join(", ")}`;
   }
   return v;
 }

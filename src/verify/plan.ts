@@ -3,7 +3,8 @@
  * timing core and at the power switch. Produces plain measurements (cached); the comparison with
  * the predictions happens afterwards (compare.ts), so changed predictions never need a re-run.
  */
-import type { Measurement, WaveformSet } from "../model/verification.ts";
+import type { CornerMeasured, Measurement, WaveformSet } from "../model/verification.ts";
+import { measureCorners } from "./corner-runs.ts";
 import type { PwmTiming } from "./edges.ts";
 import type { SpiceEngine } from "./engines/types.ts";
 import {
@@ -23,10 +24,13 @@ import type { VerifyTarget } from "./target.ts";
 import { SpiceRunError } from "../model/errors.ts";
 
 /** Bumped whenever measurement code changes what it reports: part of every cache key. */
-export const MEASURE_CODE_VERSION = "verify-measure-9";
+export const MEASURE_CODE_VERSION = "verify-measure-10";
+
+/** Transients of the nominal plan per variant (ctrl 0.5, 0, 1); corner runs come on top (corner-runs.ts). */
+export const NOMINAL_RUNS = 3;
 
 export type Measured =
-  | { ok: true; measurements: Measurement[]; waveforms?: WaveformSet; elapsed_s: number }
+  | { ok: true; measurements: Measurement[]; waveforms?: WaveformSet; corners?: CornerMeasured[]; elapsed_s: number }
   | { ok: false; message: string; elapsed_s: number };
 
 export async function measureVariant(
@@ -42,7 +46,8 @@ export async function measureVariant(
     const low = await runAt(target, netlist, engine, 0, plan);
     const high = await runAt(target, netlist, engine, 1, plan);
     const { measurements, waveforms } = collect(target, low, mid, high);
-    return { ok: true, measurements, waveforms, elapsed_s: elapsed() };
+    const corners = await measureCorners(target, engine, plan);
+    return { ok: true, measurements, waveforms, ...(corners.length > 0 ? { corners } : {}), elapsed_s: elapsed() };
   } catch (err) {
     return { ok: false, message: err instanceof Error ? err.message : String(err), elapsed_s: elapsed() };
   }
@@ -139,7 +144,7 @@ function collect(
  * primitives; otherwise switch voltage × load current while the freewheel diode is off (the load
  * current is the device current then; low side: sw ≤ vbus, high side: sw ≥ 0).
  */
-function devicePower(target: VerifyTarget, run: Run, vSw: Float64Array): Float64Array {
+export function devicePower(target: VerifyTarget, run: Run, vSw: Float64Array): Float64Array {
   const p = new Float64Array(run.t.length);
   if (run.powerVectors.length > 0) {
     for (const name of run.powerVectors) vec(run, name).forEach((x, k) => (p[k] = p[k]! + x));

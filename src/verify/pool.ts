@@ -28,12 +28,15 @@ import { chooseEngine, engineVersion, startEngine, type EngineName } from "./eng
 import { measureVariant, type Measured } from "./plan.ts";
 import { targetFromSized, type VerifyTarget } from "./target.ts";
 import { skipped } from "./verify.ts";
+import type { CornerDeck } from "./corner-deck.ts";
 import type { JobMessage, WorkerReply } from "./worker-main.ts";
 
 export interface VerifyJob {
   id: string;
   sized: SizedVariant;
   netlist: string;
+  /** Corner decks to run besides the nominal runs (corner-deck.ts); absent: nominal only. */
+  corners?: CornerDeck[];
 }
 export interface PoolProgress {
   done: number;
@@ -97,14 +100,15 @@ export async function verifyAll(jobs: VerifyJob[], opts: PoolOptions): Promise<M
   };
 
   jobs.forEach((job, index) => {
-    const target = job.sized.feasible ? targetFromSized(job.sized) : null;
-    if (target === null) return finish(index, skipped(job.sized, eng));
+    const found = job.sized.feasible ? targetFromSized(job.sized) : null;
+    if (found === null) return finish(index, skipped(job.sized, eng));
+    const target = job.corners && job.corners.length > 0 ? { ...found, corners: job.corners } : found;
     const key = cacheKey(job.netlist, eng, target);
     const hit = readCache(dir, key);
     if (hit === null) return void pending.push({ index, target, netlist: job.netlist, key, lost: 0 });
     stats.cached++;
     if (opts.alsoCacheIn !== undefined) writeCache(opts.alsoCacheIn, key, hit);
-    finish(index, judge(target.predicted, hit, eng, key));
+    finish(index, judge(target.predicted, hit, eng, key, target));
   });
 
   let cacheWarned = false;
@@ -122,7 +126,7 @@ export async function verifyAll(jobs: VerifyJob[], opts: PoolOptions): Promise<M
       if (opts.alsoCacheIn !== undefined) writeCache(opts.alsoCacheIn, p.key, m);
     }
     stats.fresh++;
-    finish(p.index, judge(p.target.predicted, m, eng, p.key));
+    finish(p.index, judge(p.target.predicted, m, eng, p.key, p.target));
   };
   const nWorkers = Math.min(opts.workers ?? availableParallelism(), pending.length);
   if (nWorkers <= 0 && pending.length > 0) {

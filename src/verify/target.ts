@@ -5,6 +5,7 @@
  */
 import type { SizedVariant } from "../model/sized.ts";
 import { POWER_ROLES } from "../model/part-roles.ts";
+import type { CornerDeck } from "./corner-deck.ts";
 
 export interface Predicted {
   value: number;
@@ -33,6 +34,10 @@ export interface VerifyTarget {
   loadTau_s: number;
   /** Back-EMF of a motor load in the netlist (0 otherwise): sets the switch's off level. */
   loadEmf_V: number;
+  /** Corner runs besides the nominal ones (corner-deck.ts); absent or empty: nominal only. */
+  corners?: CornerDeck[];
+  /** Worst-case ranges and bounds the corner runs are judged against, by figure key. */
+  ranges?: Record<string, [number, number]>;
 }
 
 /** Null when the variant has no circuit or no frequency prediction: nothing to simulate. */
@@ -40,7 +45,11 @@ export function targetFromSized(sized: SizedVariant): VerifyTarget | null {
   const c = sized.circuit;
   if (c === null) return null;
   const predicted: Record<string, Predicted> = {};
-  for (const f of sized.figures) predicted[f.key] = { value: f.value, label: f.label, unit: f.unit };
+  const ranges: Record<string, [number, number]> = {};
+  for (const f of sized.figures) {
+    predicted[f.key] = { value: f.value, label: f.label, unit: f.unit };
+    if (f.range !== undefined) ranges[f.key] = f.range;
+  }
   const f = predicted["frequency_nominal"]?.value;
   if (f === undefined || !(f > 0) || !Number.isFinite(f)) return null;
   const load = c.parts.find((p) => p.role === "LOAD");
@@ -59,6 +68,7 @@ export function targetFromSized(sized: SizedVariant): VerifyTarget | null {
     period_s: 1 / f,
     loadTau_s: l_H > 0 && r_ohm > 0 ? l_H / r_ohm : 0,
     loadEmf_V: load?.kind === "motor" ? Math.max(0, load.spice?.vf_V ?? 0) : 0,
+    ranges,
   };
 }
 

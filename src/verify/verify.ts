@@ -42,5 +42,5 @@ export async function verifyVariant(
   const hit = dir === false ? null : readCache(dir, key);
   const measured = hit ?? (await measureVariant(target, netlist, engine));
   if (hit === null && dir !== false) writeCache(dir, key, measured);
-  return judge(target.predicted, measured, engine, key);
+  return judge(target.predicted, measured, engine, key, target);
 }

@@ -165,8 +165,11 @@ describe("R3 — 12 V 5 A darlington-3, heater (200 Hz, 25–75 %), design accep
 
 describe("R4 — 24 V 3 A mosfet-driver, LED strip (3 kHz)", () => {
   const s = size({ supply_V: 24, load_A: 3, chain: "mosfet-driver", load_kind: "led", pwm_Hz: 3000 });
-  it("is feasible, with a 12 V zener gate rail (26.4 V − V_BE > 20 V × 0.7 derated V_GS max)", () => {
-    expect(s.feasible).toBe(true);
+  it("is refused on base-diode injection only (the limit measured in the corner simulations: astable.ts)", () => {
+    expect(s.feasible).toBe(false);
+    expect(s.verdict.blocking.map((b) => b.rule)).toContain("base-diode-injection");
+  });
+  it("has a 12 V zener gate rail (26.4 V − V_BE > 20 V × 0.7 derated V_GS max)", () => {
     expect(part(s, "DZ").value).toBe(12);
     // V_GS,min = 12 V × 0.95 − V_BE(Q_HI, −10 °C) = 11.4 − (0.75 + 0.002·35) = 10.58 V
     expectClose(fig(s, "gate_voltage_min"), 10.58, 1e-9, "zener tolerance + V_BE tempco (common practice)");
@@ -205,9 +208,10 @@ describe("R4 — 24 V 3 A mosfet-driver, LED strip (3 kHz)", () => {
     // ln((48 − 1.3 − 0.25)/(24 − 1.0)) = ln(46.45/23) = ln(2.0196) = 0.7029
     // → 390 pF · 1.36 MΩ · 0.7029 = 372.8 µs → 2.68 kHz (the engine's collector loading and
     // incomplete recovery shrink the swing a little: it predicts ≈ 2.75 kHz, +2.6 %).
-    expect(rA + rB + pot).toBe(1.36e6);
+    // (The hand values above are those of the core sized before the injection limit was measured;
+    // the refused core the engine now reports has other values, so the relation is checked on them.)
     const tHand = c * (rA + rB + pot) * Math.log((48 - 1.3 - 0.25) / (24 - 1.0));
-    expectClose(tHand, 372.8e-6, 1e-3, "hand arithmetic above");
+    expectClose(1.36e6 * 390e-12 * Math.log((48 - 1.3 - 0.25) / (24 - 1.0)), 372.8e-6, 1e-3, "hand arithmetic above");
     expectClose(
       fig(s, "frequency_nominal"),
       1 / tHand,

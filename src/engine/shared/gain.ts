@@ -6,7 +6,7 @@
 import type { BjtClass } from "../../model/device.ts";
 import { EngineMisuseError } from "../../model/errors.ts";
 import { JUNCTION_TEMPCO_VperK } from "./diode.ts";
-import { NOMINAL_TEMP_C } from "./temperature.ts";
+import { NOMINAL_TEMP_C, ZERO_CELSIUS_K } from "./temperature.ts";
 
 /** V_BE temperature coefficient, V/K (≈ −2 mV/K: common practice; the same as a diode's). */
 export const VBE_TEMPCO_VperK = JUNCTION_TEMPCO_VperK;
@@ -60,6 +60,17 @@ export function hfeMin(dev: BjtClass, ic_A: number, tj_C: number): number {
   checkTemp(dev, tj_C, "hfeMin");
   const g = hfeNominal(dev, ic_A, "min") * (1 + dev.hfe_tempco_perK * (tj_C - NOMINAL_TEMP_C));
   return Math.max(1, g);
+}
+
+/**
+ * The gain's temperature law as a SPICE card carries it: BF(T) = BF·(T/T_nom)^XTB (Gummel–Poon
+ * temperature scaling, Antognetti & Massobrio 2nd ed. ch. 2 [src:antognetti-massobrio-2e]). XTB is
+ * chosen so that its slope at the nominal temperature is the class's linear coefficient used by
+ * hfeMin: d ln β/dT = XTB/T_nom = hfe_tempco_perK. 0.5 %/K gives XTB ≈ 1.5, the value usually
+ * quoted for silicon (from memory). Over −20 … +70 °C the two laws differ by < 1.5 % of β.
+ */
+export function gainTempExponent(dev: BjtClass): number {
+  return dev.hfe_tempco_perK * (NOMINAL_TEMP_C + ZERO_CELSIUS_K);
 }
 
 /** Linear interpolation in x over ascending points; clamped below, extrapolated upward above. */

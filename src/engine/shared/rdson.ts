@@ -13,6 +13,7 @@ import type { MosfetClass } from "../../model/device.ts";
 import { EngineMisuseError } from "../../model/errors.ts";
 import { vthTyp_V } from "./gate-charge.ts";
 import { fit2 } from "./least-squares.ts";
+import { NOMINAL_TEMP_C, ZERO_CELSIUS_K } from "./temperature.ts";
 
 /** Ohmic share of R_DS(on) when the class states one gate voltage only (from memory). */
 export const RDS_FIXED_SHARE_SINGLE = 0.3;
@@ -82,4 +83,23 @@ export function rdsOnNominal_ohm(dev: MosfetClass, vgs_V: number): number {
   if (vgs_V <= vto + 0.1 || !dev.rds_on.some((p) => p.vgs_V > vto)) return rdsOn_ohm(dev, vgs_V, false);
   const { rFix_ohm, invKp } = rdsSplit(dev, vto, 1);
   return rFix_ohm + invKp / (vgs_V - vto);
+}
+
+/**
+ * R_DS(on)'s temperature law as the VDMOS card carries it, through the class's one datum: R_DS(on)
+ * is rds_on_hot_factor × its nominal value at T_J,max (the engine's worst case, rdsOn_ohm `hot`).
+ * The ohmic part RD + RS rises linearly (ngspice TRD1 = TRS1 = α), the channel part through the
+ * mobility, KP ∝ (T/T_nom)^BEX; both are set to give the factor at T_J,max, so the whole R_DS(on)
+ * does. The rise is the mobility falling with temperature (Baliga, Fundamentals of Power
+ * Semiconductor Devices, on-resistance vs temperature [src:baliga-power], from memory).
+ */
+export function rdsTempLaw(dev: MosfetClass): { alpha_perK: number; bex: number } {
+  const f = dev.rds_on_hot_factor;
+  const span_K = dev.tj_max_C - NOMINAL_TEMP_C;
+  if (!(f > 0) || !(span_K > 0))
+    throw new EngineMisuseError(
+      `MOSFET class ${dev.id}: rds_on_hot_factor and tj_max_C above the nominal temperature needed`,
+    );
+  const ratio = (dev.tj_max_C + ZERO_CELSIUS_K) / (NOMINAL_TEMP_C + ZERO_CELSIUS_K);
+  return { alpha_perK: (f - 1) / span_K, bex: -Math.log(f) / Math.log(ratio) };
 }

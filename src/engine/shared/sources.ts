@@ -429,6 +429,11 @@ export const SOURCES = {
     values: [
       { item: "diode law", value: "I = IS·(exp(V/(N·V_T)) − 1)", sureness: "from-memory" },
       { item: "defaults", value: "XTI = 3, EG = 1.11 eV", sureness: "from-memory" },
+      {
+        item: "gain temperature law",
+        value: "BF(T) = BF·(T/T_nom)^XTB, XTB ≈ 1.5 for silicon",
+        sureness: "from-memory",
+      },
     ],
   },
   "codata-2018": {
@@ -496,6 +501,11 @@ export const SOURCES = {
       "substrate and contact parts.",
     values: [
       { item: "on-resistance", value: "R_DS(on) = R_fix + R_ch, R_ch ∝ 1/(V_GS − V_th)", sureness: "from-memory" },
+      {
+        item: "on-resistance vs temperature",
+        value: "rises with temperature (carrier mobility falls), ≈ 1.5–2× from 25 °C to 150 °C",
+        sureness: "from-memory",
+      },
     ],
   },
   "fink-beaty-11e": {

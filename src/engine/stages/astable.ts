@@ -56,12 +56,20 @@ export function thresholdDelay_s(tau_s: number, vHigh_V: number, vSat_V: number,
 
 /**
  * Largest base-diode injection ratio allowed (see baseInjectionRatio), evaluated at the worst
- * tolerances (smallest R_B and C, largest R_C, gain hot). Calibrated on the simulated 24 V fan core
- * (R_C 10 kΩ, C 150 pF, 4 pF diodes, β 370 in the model): it ran at a nominal ratio of 0.6 (ctrl ½)
- * and stopped with both transistors on at 2.0 (ctrl 0); 1.5 at the worst corner is ≈ 1.0–1.1
- * nominal, near the geometric middle of the two (ours, two simulated points — a bound, not a law).
+ * tolerances (smallest R_B and C, largest R_C, gain hot). Measured, not derived: the corner
+ * simulations (docs/verification.md, "Corners") ran every feasible demo variant at its fast and
+ * duty-end corners. With base diodes the off transistor's base floats; the current the diode's
+ * capacitance (and the transistor's own C_BC) feeds into it is not drained, the "off" transistor
+ * conducts, and the long half-period ends early: the core runs fast. At the fast corner (highest
+ * supply, hot, typical gain) the simulated frequency exceeded the engine's prediction there by
+ * −3…+2 % at ratios ≤ 0.03, ≈ 8 % at 0.25–0.32, 10.5–11.6 % at 0.39–0.41 and 13.5 % at 0.45, and
+ * left the page's range by more than its 10 % allowance at every ratio ≥ 0.46 (44 variants, up to
+ * 1.6× the range's top) and at 0.37–0.45 for six redesigns. 0.35 keeps every variant's corners in
+ * range (the earlier limit, 1.5, was where a 24 V fan core stopped with both transistors on; the
+ * frequency is wrong long before that). A base bleed resistor would remove the cause (measured on
+ * the 24 V LED-strip core: 200 kΩ B–E brought the long half-period from −36 % to −5 %); not done yet.
  */
-export const INJECTION_MAX = 1.5;
+export const INJECTION_MAX = 0.35;
 
 /**
  * With series base diodes the off transistor's base floats: the diode blocks while its base node

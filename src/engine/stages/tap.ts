@@ -104,8 +104,14 @@ function rcInjectionMax(ctx: Ctx, q: BjtClass, rC_ohm: number): number {
   return (INJECTION_MAX * rbc) / (2 * beta * diodeCj_F(db) * (1 + ctx.rTol));
 }
 
-/** R_C within [R_C,min, R_C,max] and below the injection limit (never below R_C,min: the current limit wins). */
-function capRc(ctx: Ctx, rC_ohm: number): number {
+/**
+ * R_C within [R_C,min, R_C,max] and below the injection limit (never below R_C,min: the current limit wins).
+ * `cap` false skips the injection estimate: the timing search checks injection exactly, and the
+ * estimate's conservative end-stop time constant can push R_C below what a passing core needs
+ * (size.ts tries the capped value first, the uncapped one when the capped core fails).
+ */
+function capRc(ctx: Ctx, rC_ohm: number, cap: boolean): number {
+  if (!cap) return rC_ohm;
   const q = ctx.spec.devices.timing_npn as BjtClass;
   const lim = rcInjectionMax(ctx, q, rC_ohm);
   return rC_ohm <= lim ? rC_ohm : Math.max(rcMin(ctx), roundDown(lim, "E24"));
@@ -114,8 +120,9 @@ function capRc(ctx: Ctx, rC_ohm: number): number {
 /**
  * `rcCap_ohm` (optional) caps R_C below what the chain's need would take (size.ts lowers it when the
  * core fails on recovery or injection); the timing transistor's current floor still wins.
+ * `capInjection` false drops the injection estimate's cap (size.ts tries that first).
  */
-export function designTap(ctx: Ctx, plan: ChainPlan, rcCap_ohm: number = RC_MAX_OHM): TapDesign {
+export function designTap(ctx: Ctx, plan: ChainPlan, rcCap_ohm: number = RC_MAX_OHM, capInjection = true): TapDesign {
   const rcMax = Math.max(rcMin(ctx), Math.min(RC_MAX_OHM, roundDown(rcCap_ohm, "E24")));
   const need = plan.need;
   const tapNet = need.inverting ? "cb" : "ca";
@@ -126,7 +133,7 @@ export function designTap(ctx: Ctx, plan: ChainPlan, rcCap_ohm: number = RC_MAX_
   if (need.kind === "base-current") {
     const span = ctx.vMin_V - need.vClamp_V;
     const rCi = (TAP_SHARE_ALPHA * span) / need.i_A;
-    const rC = capRc(ctx, Math.min(rcMax, Math.max(rcMin(ctx), nearest(Math.max(rCi, 1), "E24"))));
+    const rC = capRc(ctx, Math.min(rcMax, Math.max(rcMin(ctx), nearest(Math.max(rCi, 1), "E24"))), capInjection);
     const rTmax = span / (need.i_A * (1 + tol)) - rC;
     if (!(rTmax >= 1)) {
       problems.push(
@@ -176,7 +183,7 @@ export function designTap(ctx: Ctx, plan: ChainPlan, rcCap_ohm: number = RC_MAX_
   const rCfast = (0.02 * period * (ctx.vMin_V - plateau_V(dev))) / dev.qg_C;
   // R_C + R_G feeds the gate; R_G ≥ R_C·RG_SHARE_MIN, so R_C takes ≤ 1/(1 + share) of the fast limit.
   const rCg = rCfast / (1 + RG_SHARE_MIN);
-  const rC = capRc(ctx, Math.min(rcMax, Math.max(rcMin(ctx), rCg > 1 ? roundDown(rCg, "E24") : 1)));
+  const rC = capRc(ctx, Math.min(rcMax, Math.max(rcMin(ctx), rCg > 1 ? roundDown(rCg, "E24") : 1)), capInjection);
   let best: { rG: number; rGS: number; lo: number; hi: number } | null = null;
   for (const rGS of seriesBetween(1000, 100_000, "E24")) {
     for (const rG of seriesBetween(100, 100_000, "E24")) {

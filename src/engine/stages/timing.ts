@@ -15,12 +15,15 @@ import { vbeOn, vceSat } from "../shared/gain.ts";
 import { evaluateCore, lnFactor, type CollectorLoad } from "./astable.ts";
 import type { Ctx } from "./context.ts";
 import { type CoreValues, NOMINAL_K, diodeVf_V, evalCore } from "./core-model.ts";
-import { MAX_RECOVERY, type Search, injection, searchCore } from "./timing-search.ts";
+import { MAX_RECOVERY, type Search, envelopeOf, injection, searchCore } from "./timing-search.ts";
 import { INJECTION_MAX } from "./astable.ts";
 import type { TapDesign } from "./tap.ts";
 import type { ChainPlan } from "./chains/types.ts";
 import { timingParts } from "./timing-parts.ts";
 import { NOMINAL_TEMP_C } from "../shared/temperature.ts";
+import type { SimCorner } from "../../model/corners.ts";
+import { simulationCorners } from "./sim-corners.ts";
+import { envelopeCorners } from "./worst-corners.ts";
 
 export interface TimingResult {
   search: Search;
@@ -36,6 +39,8 @@ export interface TimingResult {
   fCtrl1_Hz: number;
   /** Saturation voltage of a timing transistor at nominal supply, V. */
   vSatNom_V: number;
+  /** The corners the verifier simulates besides the nominal run (sim-corners.ts). */
+  corners: SimCorner[];
 }
 
 const fmtPct = (x: number): string => `${(x * 100).toFixed(1)} %`;
@@ -161,9 +166,9 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
         "base-diode-injection",
         "error",
         `The base diodes' capacitance injects current into the floating base of the off timing transistor: ` +
-          `2·β·C_j·R_C/(R_B·C) = ${inj.toFixed(2)} (limit ${INJECTION_MAX}); the off collector sags and the core ` +
-          `can stop with both transistors on. Use a larger timing capacitor with smaller base resistors, a ` +
-          `smaller R_C, or a lower frequency.`,
+          `2·β·C_j·R_C/(R_B·C) = ${inj.toFixed(2)} (limit ${INJECTION_MAX}); the "off" transistor conducts, its long ` +
+          `half-period ends early and the core runs faster than its range (or stops with both transistors ` +
+          `on). Use a larger timing capacitor with smaller base resistors, a smaller R_C, or a lower frequency.`,
         { limit: INJECTION_MAX, actual: inj, unit: "" },
       ),
     );
@@ -421,5 +426,6 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
     timingLoss_W: built.loss_W,
     fCtrl1_Hz: e1.f_Hz,
     vSatNom_V: e1.vSat_V,
+    corners: simulationCorners(v, q, db, envelopeCorners(envelopeOf(ctx)), { vMax: ctx.vMax_V, tMax: ctx.taMax_C }),
   };
 }

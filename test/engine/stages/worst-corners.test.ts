@@ -8,8 +8,7 @@ import { describe, expect, it } from "vitest";
 import type { BjtClass, DiodeClass } from "../../../src/model/device.ts";
 import { makeContext } from "../../../src/engine/stages/context.ts";
 import { CHAIN_PLANNERS } from "../../../src/engine/stages/chains/index.ts";
-import { designTap } from "../../../src/engine/stages/tap.ts";
-import { designTiming } from "../../../src/engine/stages/timing.ts";
+import { tapAndTiming as designTapAndTiming } from "../../../src/engine/size.ts";
 import { corners } from "../../../src/engine/stages/core-model.ts";
 import { POT_TOLERANCE } from "../../../src/engine/stages/context.ts";
 import { envelopeCorners, worstCaseBrute, worstCaseFast } from "../../../src/engine/stages/worst-corners.ts";
@@ -44,8 +43,7 @@ describe("worst case at the provably extreme corners = brute force over all 512 
       const spec = makeSpec(o);
       const ctx = makeContext(spec);
       const plan = CHAIN_PLANNERS[spec.chain](ctx);
-      const tap = designTap(ctx, plan);
-      const v = designTiming(ctx, plan, tap).values;
+      const v = designTapAndTiming(ctx, plan).timing.values;
       const q = spec.devices.timing_npn as BjtClass;
       const db = spec.devices.signal_diode as DiodeClass;
       const all = corners(ctx.vMin_V, ctx.vMax_V, ctx.taMin_C, ctx.taMax_C, ctx.rTol, POT_TOLERANCE, ctx.cTol);
@@ -76,10 +74,13 @@ describe("asymmetric end stops", () => {
     });
     const ctx = makeContext(spec);
     const plan = CHAIN_PLANNERS[spec.chain](ctx);
-    const t = designTiming(ctx, plan, designTap(ctx, plan));
+    const { timing: t } = designTapAndTiming(ctx, plan);
     const v = t.values;
     expect(v.rEndA_ohm / v.rEndB_ohm).toBeGreaterThan(2);
-    expect(t.search.passed).toBe(true);
+    // The end stops meet the duty range worst case (no duty problem). Whether the whole core passes
+    // is another question: at 24 V and 4 kHz this core is now refused on base-diode injection
+    // (astable.ts INJECTION_MAX, measured in the corner simulations), not on its end stops.
+    expect(t.problems.filter((p) => p.stage === "duty" && p.severity === "error")).toEqual([]);
     expect(t.search.worst.dMin.hi).toBeLessThanOrEqual(0.3);
     expect(t.search.worst.dMax.lo).toBeGreaterThanOrEqual(0.9);
     // "no more than needed": the next E24 value up on either end would miss worst case (checked by

@@ -1,0 +1,28 @@
+/**
+ * Operating corners the verifier simulates beside the nominal run (src/engine/stages/sim-corners.ts
+ * chooses them; docs/verification.md, "Corners", says why these).
+ */
+export const SIM_CORNER_NAMES = ["duty-ctrl0-high", "duty-ctrl1-low", "slow", "fast", "power"] as const;
+export type SimCornerName = (typeof SIM_CORNER_NAMES)[number];
+
+export interface SimCorner {
+  name: SimCornerName;
+  label: string;
+  /** Duty control position 0 … 1 of the run. */
+  ctrl: number;
+  /** Gain corner of the model cards ("min": the published deck's; "typ": typical gain and R_DS(on)). */
+  gain: "min" | "typ";
+  /** Supply, V, and ambient (the simulator's `.temp`), °C. */
+  vcc_V: number;
+  t_C: number;
+  /** Value multipliers (1 ± tolerance) of the timing parts: end stops, pot, capacitors, collector resistors. */
+  kEndA: number;
+  kEndB: number;
+  kPot: number;
+  kCA: number;
+  kCB: number;
+  kRCA: number;
+  kRCB: number;
+  /** The engine's prediction at this corner. */
+  predicted: { f_Hz: number; duty: number };
+}

@@ -1,0 +1,93 @@
+/**
+ * Corner decks: the variant's netlist as the simulator must see it at one of the engine's operating
+ * corners (src/model/corners.ts): timing parts moved to their tolerance ends, the supply and the
+ * simulator's `.temp` at the corner's values, the model cards at the corner's gain. Made in memory
+ * from the circuit model; the published netlist (nominal) is never changed. The cards carry their
+ * temperature laws (XTB/XTI/EG, TRD1/TRS1/BEX), so `.temp` moves gain, V_BE and R_DS(on) as the
+ * engine's corner does.
+ */
+import type { CircuitModel, Part } from "../model/circuit.ts";
+import type { SimCorner } from "../model/corners.ts";
+import type { DeviceLibrary } from "../model/device.ts";
+import type { PartRole } from "../model/part-roles.ts";
+import type { SizedVariant } from "../model/sized.ts";
+import { renderNetlist } from "../render/netlist.ts";
+import { spiceNum } from "../render/spice-num.ts";
+import { EngineMisuseError } from "../model/errors.ts";
+
+/** One corner run: which corner, its deck, and the period it is planned on (the engine's prediction there). */
+export interface CornerDeck {
+  corner: SimCorner;
+  netlist: string;
+  period_s: number;
+}
+
+/** The corner's value multiplier for a timing part, by role (1: not a toleranced timing part). */
+function multiplier(role: PartRole, k: SimCorner): number {
+  switch (role) {
+    case "RB_A":
+      return k.kEndA;
+    case "RB_B":
+      return k.kEndB;
+    case "RV_DUTY":
+      return k.kPot;
+    case "CT_A":
+      return k.kCA;
+    case "CT_B":
+      return k.kCB;
+    case "RC_A":
+      return k.kRCA;
+    case "RC_B":
+      return k.kRCB;
+    default:
+      return 1;
+  }
+}
+
+/**
+ * The circuit with every timing part at the corner's end of its tolerance. A motor's back-EMF
+ * follows its speed, and its speed the supply: the engine's running-current law (context.ts
+ * runningCurrentMax_A: current ∝ supply, common practice) is back-EMF ∝ supply on the netlist's
+ * line I = (V − EMF)/R, so the corner deck scales the EMF source by V_corner/V_nom. A fixed EMF
+ * would be a motor whose speed does not move with its supply (at +22 % supply, 1.9× the current).
+ */
+export function cornerCircuit(c: CircuitModel, k: SimCorner, vNom_V: number): CircuitModel {
+  const parts = c.parts.map((p): Part => {
+    if (p.kind === "motor" && p.spice?.vf_V !== undefined)
+      return { ...p, spice: { ...p.spice, vf_V: (p.spice.vf_V * k.vcc_V) / vNom_V } };
+    const m = multiplier(p.role, k);
+    return m === 1 ? p : { ...p, value: p.value * m };
+  });
+  return { ...c, parts };
+}
+
+/** Sets the deck's `.temp` (adds it before `.end` when the deck states none). */
+export function setTemp(netlist: string, t_C: number): string {
+  const line = `.temp ${spiceNum(t_C, "temp")}`;
+  const re = /^\.temp\s.*$/m;
+  if (re.test(netlist)) return netlist.replace(re, line);
+  return netlist.replace(/^\.end[ \t]*$/m, `${line}\n.end`);
+}
+
+export function cornerDeck(sized: SizedVariant, devices: DeviceLibrary, k: SimCorner): CornerDeck {
+  const c = sized.circuit;
+  if (c === null) throw new EngineMisuseError(`corner deck ${sized.spec.id}: the variant has no circuit`);
+  const f_Hz = k.predicted.f_Hz;
+  if (!(f_Hz > 0) || !Number.isFinite(f_Hz))
+    throw new EngineMisuseError(`corner deck ${sized.spec.id} (${k.name}): no predicted frequency`);
+  const netlist = renderNetlist(cornerCircuit(c, k, sized.spec.supply_V), {
+    id: sized.spec.id,
+    title: `${sized.spec.designTitle}, ${sized.spec.id}, corner ${k.name}`,
+    supply_V: k.vcc_V,
+    frequency_Hz: f_Hz,
+    devices,
+    gain: k.gain,
+  });
+  return { corner: k, netlist: setTemp(netlist, k.t_C), period_s: 1 / f_Hz };
+}
+
+/** Every corner deck of a feasible variant (none when the engine chose no corners). */
+export function cornerDecks(sized: SizedVariant, devices: DeviceLibrary): CornerDeck[] {
+  if (!sized.feasible || sized.circuit === null) return [];
+  return (sized.corners ?? []).map((k) => cornerDeck(sized, devices, k));
+}
