@@ -5,13 +5,8 @@
 export const SIM_CORNER_NAMES = ["duty-ctrl0-high", "duty-ctrl1-low", "slow", "fast", "power"] as const;
 export type SimCornerName = (typeof SIM_CORNER_NAMES)[number];
 
-export interface SimCorner {
-  name: SimCornerName;
-  label: string;
-  /** Duty control position 0 … 1 of the run. */
-  ctrl: number;
-  /** Gain corner of the model cards ("min": the published deck's; "typ": typical gain and R_DS(on)). */
-  gain: "min" | "typ";
+/** Multipliers (1 ± tolerance) and conditions of one worst-case corner (the engine's and the verifier's). */
+export interface Corner {
   /** Supply, V, and ambient (the simulator's `.temp`), °C. */
   vcc_V: number;
   t_C: number;
@@ -23,6 +18,15 @@ export interface SimCorner {
   kCB: number;
   kRCA: number;
   kRCB: number;
+}
+
+export interface SimCorner extends Corner {
+  name: SimCornerName;
+  label: string;
+  /** Duty control position 0 … 1 of the run. */
+  ctrl: number;
+  /** Gain corner of the model cards ("min": the published deck's; "typ": typical gain and R_DS(on)). */
+  gain: "min" | "typ";
   /** The engine's prediction at this corner. */
   predicted: { f_Hz: number; duty: number };
 }

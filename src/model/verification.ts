@@ -1,4 +1,4 @@
-import type { SimCornerName } from "./corners.ts";
+import type { SimCorner, SimCornerName } from "./corners.ts";
 
 /** What the SPICE verifier reports per variant. */
 export type VerificationStatus = "agree" | "disagree" | "failed" | "skipped";
@@ -80,13 +80,8 @@ export interface CornerCheck {
   ok: boolean;
 }
 
-export interface CornerResult {
-  name: SimCornerName;
-  label: string;
-  ctrl: number;
-  gain: "min" | "typ";
-  vcc_V: number;
-  t_C: number;
+/** One simulated corner: its conditions (as the engine chose them), what was measured and judged. */
+export interface CornerResult extends Pick<SimCorner, "name" | "label" | "ctrl" | "gain" | "vcc_V" | "t_C"> {
   measured: CornerMeasured;
   checks: CornerCheck[];
 }

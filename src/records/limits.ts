@@ -29,12 +29,10 @@ export function checkVariantLimits(designs: readonly LoadedDesign[]): RecordIssu
     const count = variantCount(d.record);
     const a = d.record.axes;
     const p = d.parsed.locate("/axes", true);
+    const at = { file: d.parsed.file, line: p.line, col: p.col, pointer: "/axes" };
     if (count > MAX_VARIANTS_PER_DESIGN) {
       out.push({
-        file: d.parsed.file,
-        line: p.line,
-        col: p.col,
-        pointer: "/axes",
+        ...at,
         message:
           `the axes expand to ${n(count)} variants (${a.supply_V.length} supplies × ${a.load_A.length} currents × ` +
           `${a.chain.length} chains × ${a.load_kind.length} load kinds), more than the ${n(MAX_VARIANTS_PER_DESIGN)} ` +
@@ -47,10 +45,7 @@ export function checkVariantLimits(designs: readonly LoadedDesign[]): RecordIssu
     if (!reported && total > MAX_VARIANTS_TOTAL) {
       reported = true;
       out.push({
-        file: d.parsed.file,
-        line: p.line,
-        col: p.col,
-        pointer: "/axes",
+        ...at,
         message:
           `the catalogue would hold more than the ${n(MAX_VARIANTS_TOTAL)} variants allowed: this record adds ` +
           `${n(count)} and brings it from ${n(before)} to ${n(total)}, and all ${designs.length} records together ` +

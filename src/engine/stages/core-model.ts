@@ -30,18 +30,9 @@ export interface CoreValues {
   delayOff_s: number;
 }
 
-/** Multipliers (1 ± tolerance) and conditions of one worst-case corner. */
-export interface Corner {
-  vcc_V: number;
-  t_C: number;
-  kEndA: number;
-  kEndB: number;
-  kPot: number;
-  kCA: number;
-  kCB: number;
-  kRCA: number;
-  kRCB: number;
-}
+/** Multipliers (1 ± tolerance) and conditions of one worst-case corner: one definition, in the model. */
+import type { Corner } from "../../model/corners.ts";
+export type { Corner };
 
 export const NOMINAL_K = { kEndA: 1, kEndB: 1, kPot: 1, kCA: 1, kCB: 1, kRCA: 1, kRCB: 1 } as const;
 
