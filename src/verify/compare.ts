@@ -28,6 +28,8 @@ export interface Check {
   measured: string;
   tol: Tolerance;
   bound?: "upper";
+  /** The comparison's own key and label, where one prediction is checked at several settings. */
+  as?: { key: string; label: string };
 }
 
 /** Two-sided tolerances by measured quantity (reasons in docs/verification.md). */
@@ -54,6 +56,17 @@ export const CHECKS: readonly Check[] = [
     if (tol === undefined) throw new EngineMisuseError(`compare.ts: no tolerance for ${key}`);
     return { key, measured, tol };
   }),
+  // The engine predicts one frequency for every control setting (the pot moves the charge between
+  // the two half-periods, not their sum): checked at the control's ends too, same band.
+  ...[0, 1].map((ctrl): Check => ({
+    key: "frequency_nominal",
+    measured: `frequency_ctrl${ctrl}`,
+    tol: TWO_SIDED["frequency_nominal"]!,
+    as: {
+      key: `frequency_ctrl${ctrl}`,
+      label: `PWM frequency at control ${ctrl} (the prediction holds at every setting)`,
+    },
+  })),
   ...SIM_FIGURES.filter((k) => k.endsWith("_nominal") && k !== "frequency_nominal").map((k): Check => ({
     key: k.replace(/_nominal$/, ""),
     measured: k.replace(/_nominal$/, ""),
@@ -99,8 +112,8 @@ export function compare(predicted: Record<string, Predicted>, measurements: read
       continue;
     }
     const c: Comparison = {
-      key: chk.key,
-      label: p.label,
+      key: chk.as?.key ?? chk.key,
+      label: chk.as?.label ?? p.label,
       unit: p.unit,
       predicted: p.value,
       simulated: m.value,

@@ -20,6 +20,19 @@ describe("checks against the engine's figures", () => {
     for (const c of CHECKS.filter((x) => !x.bound)) expect(SIM_FIGURES as readonly string[]).toContain(c.key);
   });
 
+  it("the one predicted frequency is held at mid control and at both ends of the control, ±10 % each", () => {
+    const out = compare({ frequency_nominal: p(1000, "Hz") }, [
+      m("frequency_nominal", 1000),
+      m("frequency_ctrl0", 1090),
+      m("frequency_ctrl1", 1120),
+    ]);
+    expect(out.map((c) => [c.key, c.ok])).toEqual([
+      ["frequency_nominal", true],
+      ["frequency_ctrl0", true],
+      ["frequency_ctrl1", false],
+    ]);
+  });
+
   it("the chain threshold is not compared, whatever the tap voltage was", () => {
     const out = compare({ chain_threshold: p(0.75, "V") }, [
       m("chain_threshold", 0.04),
