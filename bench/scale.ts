@@ -1,0 +1,77 @@
+/**
+ * `npm run bench:scale [-- 1000 3000 10000]`: builds synthetic catalogues of about N variants each
+ * without simulation (`build --no-sim`) and prints wall time and peak memory, so growth with the
+ * catalogue's size can be seen (targets at 10,000: ≤ 120 s, ≤ 1 GB on 2 cores). The records are
+ * written into a throw-away project root, never into designs/: copies of the demo's heater record
+ * (three supplies, four chains) with as many load-current values as it takes, at most 12 per record
+ * (the schema's limit; 144 variants a record), ids `scale-NNN`.
+ * Figures are printed, never asserted.
+ */
+import { spawnSync } from "node:child_process";
+import { cpSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import path from "node:path";
+import { fileURLToPath } from "node:url";
+
+const ROOT = fileURLToPath(new URL("..", import.meta.url));
+const PER_RECORD_CURRENTS = 12;
+
+interface Template {
+  id: string;
+  title: string;
+  axes: { supply_V: number[]; load_A: number[]; chain: string[]; load_kind: string[] };
+  [k: string]: unknown;
+}
+
+/** Writes records totalling about `n` variants into `root/designs`; returns the exact count. */
+function writeRecords(root: string, n: number): number {
+  const t = JSON.parse(readFileSync(path.join(ROOT, "designs", "seed-mat-heater.json"), "utf8")) as Template;
+  const perCurrent = t.axes.supply_V.length * t.axes.chain.length * t.axes.load_kind.length;
+  let left = Math.ceil(n / perCurrent);
+  let total = 0;
+  for (let i = 0; left > 0; i++) {
+    const k = Math.min(PER_RECORD_CURRENTS, left);
+    left -= k;
+    // Distinct currents from 0.1 A up, 0.1 A apart, shifted per record so no two records are alike.
+    const load_A = Array.from({ length: k }, (_, j) => Math.round((0.1 + 0.1 * j + 0.01 * (i % 10)) * 1000) / 1000);
+    const id = `scale-${String(i).padStart(3, "0")}`;
+    const rec = { ...t, id, title: `${t.title} (scale ${i})`, axes: { ...t.axes, load_A } };
+    writeFileSync(path.join(root, "designs", `${id}.json`), `${JSON.stringify(rec, null, 2)}\n`);
+    total += k * perCurrent;
+  }
+  return total;
+}
+
+function run(n: number): void {
+  const root = mkdtempSync(path.join(tmpdir(), "pulsewright-scale-"));
+  try {
+    for (const sub of ["devices", "policies", "schema"])
+      cpSync(path.join(ROOT, "designs", sub), path.join(root, "designs", sub), { recursive: true });
+    cpSync(path.join(ROOT, "package.json"), path.join(root, "package.json"));
+    const variants = writeRecords(root, n);
+    const t0 = performance.now();
+    const res = spawnSync(
+      process.execPath,
+      [path.join(ROOT, "bin", "pulsewright.mjs"), "build", "--no-sim", "--out", "_site"],
+      { cwd: root, encoding: "utf8", env: { ...process.env, PULSEWRIGHT_REPORT_RSS: "1" }, maxBuffer: 64 << 20 },
+    );
+    const s = (performance.now() - t0) / 1000;
+    if (res.status !== 0) {
+      console.log(`scale ${variants}: build failed (${res.status}): ${(res.stderr || res.stdout).slice(-600)}`);
+      return;
+    }
+    const rss = /peak memory (\d+) MB/.exec(res.stdout + res.stderr)?.[1] ?? "?";
+    console.log(
+      `scale:      ${variants} variants, no simulation: ${s.toFixed(1)} s (${((s * 1000) / variants).toFixed(1)} ms ` +
+        `per variant), peak memory ${rss} MB (targets at 10,000: ≤ 120 s, ≤ 1 GB)`,
+    );
+  } finally {
+    rmSync(root, { recursive: true, force: true });
+  }
+}
+
+const sizes = process.argv
+  .slice(2)
+  .map(Number)
+  .filter((x) => Number.isSafeInteger(x) && x > 0);
+for (const n of sizes.length ? sizes : [1000, 3000, 10000]) run(n);
