@@ -17,6 +17,7 @@ import type { StressCheck } from "../../model/derating.ts";
 import type { VerdictCondition } from "../../model/sized.ts";
 import type { PartRole } from "../../model/part-roles.ts";
 import { checkStress } from "../shared/derating.ts";
+import type { SourceKey } from "../shared/sources.ts";
 import { roundUp } from "../shared/e-series.ts";
 import { figure, problem } from "../shared/figures.ts";
 import { flickerLimits, flickerRegion } from "../shared/flicker.ts";
@@ -191,7 +192,19 @@ export function protectionStage(
       text: `a soft start ramping the duty from 0 over ≥ ${lim.ramp_s} s (not drawn in this schematic)`,
     });
   }
-  if (ctx.spec.load_kind === "solenoid") {
+  // The start-up peak by load kind: a coil's R–L step, a lamp's cold filament, a motor's stall.
+  const peakBasis: [string, SourceKey] | undefined =
+    ctx.spec.load_kind === "solenoid"
+      ? [
+          "I_pk = V_cc,max / R_coil (R–L step response: the current rises toward V/R, never beyond)",
+          "hayt-kemmerly-ch8",
+        ]
+      : ev.tau_s <= 0
+        ? undefined
+        : ctx.spec.load_kind === "lamp"
+          ? ["I_pk = 15 × I_run × V_cc,max/V_nom (cold filament ≈ R_hot/15)", "fink-beaty-11e"]
+          : ["I_pk = V_cc,max / R_winding (stall)", "motor-typical"];
+  if (peakBasis !== undefined)
     figures.push(
       figure(
         "startup_peak",
@@ -199,25 +212,10 @@ export function protectionStage(
         ev.iPeak_A,
         "A",
         "protection",
-        "I_pk = V_cc,max / R_coil (R–L step response: the current rises toward V/R, never beyond)",
-        "hayt-kemmerly-ch8",
+        peakBasis[0],
+        peakBasis[1],
       ),
     );
-  } else if (ev.tau_s > 0) {
-    figures.push(
-      figure(
-        "startup_peak",
-        `Start-up peak of the load (${ev.what}) at V_cc,max`,
-        ev.iPeak_A,
-        "A",
-        "protection",
-        ctx.spec.load_kind === "lamp"
-          ? "I_pk = 15 × I_run × V_cc,max/V_nom (cold filament ≈ R_hot/15)"
-          : "I_pk = V_cc,max / R_winding (stall)",
-        ctx.spec.load_kind === "lamp" ? "fink-beaty-11e" : "motor-typical",
-      ),
-    );
-  }
   figures.push(
     figure(
       "startup_i2t",
