@@ -3,7 +3,7 @@
  * datasheet saturation test: I_C and I_B = I_C / forced gain), in the form SPICE3 and ngspice
  * evaluate it, so the card derivation can predict what the simulator will print:
  *   I_f = IS·(exp(V_B'E'/(NF·V_T)) − 1),  I_r = IS·(exp(V_B'C'/(NR·V_T)) − 1)
- *   q_b = q1/2·(1 + √(1 + 4·I_f/IKF)),    q1 = 1/(1 − V_B'C'/VAF)
+ *   q_b = q1/2·(1 + (1 + 4·I_f/IKF)^NKF),  q1 = 1/(1 − V_B'C'/VAF)   (NKF = 0.5: the square root)
  *   I_C = (I_f − I_r)/q_b − I_r/BR,        I_B = I_f/BF + I_r/BR
  * (Gummel & Poon, Bell Syst. Tech. J. 49, 1970; SPICE2/3 form as in Antognetti & Massobrio,
  * Semiconductor Device Modeling with SPICE, 2nd ed., ch. 2 — from memory; no leakage terms).
@@ -23,6 +23,8 @@ export interface GpParams {
   vaf_V: number;
   /** Forward high-injection knee; Infinity = none. */
   ikf_A: number;
+  /** High-current roll-off exponent (ngspice NKF; 0.5 is the classic Gummel–Poon form). */
+  nkf: number;
   rb_ohm: number;
   rc_ohm: number;
   re_ohm: number;
@@ -44,7 +46,7 @@ function collectorCurrent(p: GpParams, if_A: number, ib_A: number): { ic: number
   const ir = Math.max(0, p.br * (ib_A - if_A / p.bf));
   const vbc = p.nr * VT_NOMINAL_V * Math.log1p(ir / p.is_A);
   const q1 = 1 / (1 - vbc / p.vaf_V);
-  const qb = (q1 / 2) * (1 + Math.sqrt(1 + (4 * if_A) / p.ikf_A));
+  const qb = (q1 / 2) * (1 + (1 + (4 * if_A) / p.ikf_A) ** p.nkf);
   return { ic: (if_A - ir) / qb - ir / p.br, ir, vbc };
 }
 

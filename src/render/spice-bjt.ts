@@ -1,7 +1,8 @@
 /**
  * Worst-case Gummel-Poon card for a BJT device class: minimum gain at the operating current, and
  * saturation voltages fitted to the class's datasheet maxima (docs/spice-models.md, "BJT").
- *  - BF = minimum h_FE at the operating current; no high-injection knee, so the gain stays there.
+ *  - BF = minimum h_FE at the operating current; a high-injection knee (IKF, NKF) only where the
+ *    class's parts run past its last gain point (spice-models.ts), so the gain falls as the engine's law.
  *  - V_BE(sat) points fix the intrinsic V_BE offset (IS, never below the typical V_BE(on)) and RB.
  *  - V_CE(sat) points fix NR (the B-C junction's share of the intrinsic saturation voltage) and RC.
  * Both are two-unknown least-squares fits on the exact DC equations (spice-bjt-dc.ts), so with two
@@ -11,7 +12,7 @@ import type { BjtClass } from "../model/device.ts";
 import { type GpParams, satPoint } from "./spice-bjt-dc.ts";
 import { fit2, type Row } from "../engine/shared/least-squares.ts";
 import { diodeSaturationCurrent_A } from "../engine/shared/diode.ts";
-import { vbeRefCurrent_A } from "../engine/shared/gain.ts";
+import { type GainKnee, vbeRefCurrent_A } from "../engine/shared/gain.ts";
 import { VT_NOMINAL_V } from "../engine/shared/temperature.ts";
 
 /** Early voltage, V (common practice for small discretes, from memory). */
@@ -39,7 +40,7 @@ export function isTypical_A(dev: BjtClass): number {
  * microamperes to milliamperes, where an offset fitted to V_BE(sat) at the top of the range would
  * move every threshold (docs/spice-models.md). V_CE(sat) is fitted either way.
  */
-export function fitBjt(dev: BjtClass, bf: number, junction: "worst" | "typical" = "worst"): BjtFit {
+export function fitBjt(dev: BjtClass, bf: number, junction: "worst" | "typical" = "worst", knee?: GainKnee): BjtFit {
   const isTyp = isTypical_A(dev);
   const p: GpParams = {
     is_A: isTyp,
@@ -48,7 +49,8 @@ export function fitBjt(dev: BjtClass, bf: number, junction: "worst" | "typical" 
     nf: 1,
     nr: 1,
     vaf_V: BJT_VAF_V,
-    ikf_A: Infinity,
+    ikf_A: knee?.ikf_A ?? Infinity,
+    nkf: knee?.nkf ?? 0.5,
     rb_ohm: 0,
     rc_ohm: 0,
     re_ohm: 0,

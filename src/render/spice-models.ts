@@ -10,7 +10,7 @@ import { card } from "./spice-card.ts";
 import { diodeModel, zenerModel } from "./spice-diode.ts";
 import { mosfetModel } from "./spice-mosfet.ts";
 import { spiceModelName, timingModelName } from "./spice-num.ts";
-import { gainTempExponent, hfeNominal, vbeRefCurrent_A } from "../engine/shared/gain.ts";
+import { gainKnee, gainTempExponent, hfeNominal, kneeQb, vbeRefCurrent_A } from "../engine/shared/gain.ts";
 import { NOMINAL_TEMP_C, VT_NOMINAL_V } from "../engine/shared/temperature.ts";
 
 export interface SpiceModelOptions {
@@ -27,17 +27,17 @@ export const BJT_XTI = 3;
 export const BJT_EG_eV = 1.11;
 
 function bjtModel(dev: BjtClass, opts: SpiceModelOptions): string {
-  // BF: the engine's gain law (shared/gain.ts) at the highest current the class's parts carry, but
-  // read no higher than the class's last gain point. Known divergence, kept on purpose for now: the
-  // card has no knee (IKF), so its BF holds at every current of the waveform; read at a brief peak
-  // (a gate-drive follower's charging pulse, 8× past the last point) the falling law gives a BF of a
-  // few units for the whole cycle, and the engine's mosfet-driver gate-drive relations, which use
-  // the falling law at that peak only, then under-predict the simulated nominal loss by ≈ 30–40 %
-  // (11 demo variants; docs/spice-models.md). Until that relation is fixed, the card holds there.
+  // BF: the engine's gain law (shared/gain.ts) at the highest current the class's parts carry. Up to
+  // the class's last gain point the card's gain is flat at that value (no knee). Where the parts run
+  // past the last gain point (a gate-drive follower's charging pulse), the card takes the law's
+  // Gummel–Poon knee (gainKnee: IKF, NKF) and BF = h(I_last)·q_b(I_last), so its gain falls above
+  // the last point exactly as the engine's law does — one law, read by both (docs/spice-models.md).
   const ic_A = opts.ic_A ?? dev.hfe[0]?.ic_A ?? vbeRefCurrent_A(dev);
   const lastGain_A = dev.hfe[dev.hfe.length - 1]?.ic_A ?? ic_A;
-  const bf = hfeNominal(dev, Math.min(ic_A, lastGain_A), opts.gain);
-  const { params: p } = fitBjt(dev, bf, opts.junction ?? "worst");
+  const knee = ic_A > lastGain_A ? gainKnee(dev, opts.gain) : null;
+  const hRef = hfeNominal(dev, Math.min(ic_A, lastGain_A), opts.gain);
+  const bf = knee === null ? hRef : hRef * kneeQb(lastGain_A, knee);
+  const { params: p } = fitBjt(dev, bf, opts.junction ?? "worst", knee ?? undefined);
   const iRef_A = vbeRefCurrent_A(dev);
   const cjc = dev.cob_F ?? 0;
   const cje = 2 * cjc; // C_ib ≈ 2–4 × C_ob for small discretes (from memory): take the low end
@@ -52,6 +52,12 @@ function bjtModel(dev: BjtClass, opts: SpiceModelOptions): string {
     [
       ["IS", p.is_A],
       ["BF", p.bf],
+      ...(knee === null
+        ? []
+        : ([
+            ["IKF", knee.ikf_A],
+            ["NKF", knee.nkf],
+          ] as [string, number][])),
       ["BR", p.br],
       ["NR", p.nr],
       ["VAF", BJT_VAF_V],

@@ -120,27 +120,40 @@ describe.skipIf(!hasNgspice)("engine relation = simulated card (ngspice, DC oper
   const bjtCases = LIB_BJTS.flatMap((d) =>
     d.hfe.slice(1).map((h, k) => ({ id: d.id, d, ic_A: Math.sqrt(h.ic_A * d.hfe[k]!.ic_A) })),
   );
-  it.each(bjtCases)("BJT $id, card for $ic_A A: forward gain I_C/I_B = hfeNominal(min) there", ({ d, ic_A }) => {
-    // Collector held where the intrinsic B–C junction sits at 0 V (V_C = V_B + I_C·RC − I_B·RB with
-    // the card's RB, RC): no Early factor, no reverse current, so Gummel-Poon gives I_C = BF·I_B.
-    const s = d.family === "npn" ? 1 : -1;
-    const ib_A = ic_A / hfeNominal(d, ic_A, "min");
-    const card = spiceModel(d, { gain: "min", ic_A });
-    const param = (k: string): number => Number(new RegExp(` ${k}=([0-9.e+-]+)`).exec(card)![1]);
-    const off_V = ic_A * param("RC") - ib_A * param("RB");
-    const out = runNgspice(
-      [
-        "* beta",
-        `Ib ${s > 0 ? "0 b" : "b 0"} DC ${ib_A}`,
-        "Ec c0 0 b 0 1",
-        `Vc c0 c DC ${-s * off_V}`,
-        `Q1 c b 0 ${spiceModelName(d.id)}`,
-        card,
-        `.dc Ib ${ib_A} ${ib_A} 1`,
-        ".print dc i(Vc)",
-        ".end",
-      ].join("\n"),
-    );
-    expectClose(Math.abs(lastRow(out)[0]!) / ib_A, hfeNominal(d, ic_A, "min"), 1e-3, `${d.id} β`);
-  });
+  // …and past the last gain point (the card for a part running 1.5× past it carries the knee):
+  // at 1.2× and 1.5× the card's gain is the engine's falling law (gain.ts gainKnee, kneeQb).
+  const kneeCases = LIB_BJTS.filter((d) => d.hfe.length > 1 && d.hfe.at(-1)!.min < d.hfe.at(-2)!.min).flatMap((d) =>
+    [1.2, 1.5].map((r) => ({
+      id: d.id,
+      d,
+      ic_A: Number((d.hfe.at(-1)!.ic_A * r).toPrecision(6)),
+      card_A: Number((d.hfe.at(-1)!.ic_A * 1.5).toPrecision(6)),
+    })),
+  );
+  it.each([...bjtCases.map((c) => ({ ...c, card_A: c.ic_A })), ...kneeCases])(
+    "BJT $id, card for $card_A A: forward gain I_C/I_B at $ic_A A = hfeNominal(min) there",
+    ({ d, ic_A, card_A }) => {
+      // Collector held where the intrinsic B–C junction sits at 0 V (V_C = V_B + I_C·RC − I_B·RB with
+      // the card's RB, RC): no Early factor, no reverse current, so Gummel-Poon gives I_C = BF·I_B.
+      const s = d.family === "npn" ? 1 : -1;
+      const ib_A = ic_A / hfeNominal(d, ic_A, "min");
+      const card = spiceModel(d, { gain: "min", ic_A: card_A });
+      const param = (k: string): number => Number(new RegExp(` ${k}=([0-9.e+-]+)`).exec(card)![1]);
+      const off_V = ic_A * param("RC") - ib_A * param("RB");
+      const out = runNgspice(
+        [
+          "* beta",
+          `Ib ${s > 0 ? "0 b" : "b 0"} DC ${ib_A}`,
+          "Ec c0 0 b 0 1",
+          `Vc c0 c DC ${-s * off_V}`,
+          `Q1 c b 0 ${spiceModelName(d.id)}`,
+          card,
+          `.dc Ib ${ib_A} ${ib_A} 1`,
+          ".print dc i(Vc)",
+          ".end",
+        ].join("\n"),
+      );
+      expectClose(Math.abs(lastRow(out)[0]!) / ib_A, hfeNominal(d, ic_A, "min"), 1e-3, `${d.id} β`);
+    },
+  );
 });

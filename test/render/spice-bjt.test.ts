@@ -48,6 +48,7 @@ describe("saturation-point solver (the card derivation's own model of SPICE)", (
     nr: 1,
     vaf_V: Infinity,
     ikf_A: Infinity,
+    nkf: 0.5,
     rb_ohm: 0,
     rc_ohm: 0,
     re_ohm: 0,

@@ -8,7 +8,7 @@
 import { describe, expect, it } from "vitest";
 import type { DiodeClass, MosfetClass } from "../../src/model/device.ts";
 import { spiceModel } from "../../src/render/spice-models.ts";
-import { hfeNominal } from "../../src/engine/shared/gain.ts";
+import { gainKnee, hfeNominal, kneeQb } from "../../src/engine/shared/gain.ts";
 import { mosfetCaps, QG_TEST_VDS_SHARE, vthTyp_V } from "../../src/engine/shared/gate-charge.ts";
 import { zenerTestCurrent_A } from "../../src/render/spice-diode.ts";
 import { spiceModelName } from "../../src/render/spice-num.ts";
@@ -29,23 +29,30 @@ const MOSFETS: MosfetClass[] = [nmosStd, ...LIB_MOSFETS];
 const DIODES: DiodeClass[] = [diodeSignal, diodeSchottky, diodeRectifier, ...LIB_DIODES];
 
 describe("gain law the card's BF is read from (the engine's hfeNominal)", () => {
-  it("is log-log between points, held below the first, falling on along the last segment above it", () => {
+  it("is log-log between points, held below the first, falling along the fitted knee above the last", () => {
     expect(hfeNominal(npnSmall, 0.001, "min")).toBe(100);
-    // above the last point (100 mA, 30) the last segment (10 mA, 100) → (100 mA, 30) goes on:
-    // one decade further gives 30·(30/100) = 9 (log-log; src/engine/shared/gain.ts says why).
-    expectClose(hfeNominal(npnSmall, 1, "min"), 9, 1e-9);
+    // above the last point (100 mA, 30) the law is the Gummel–Poon knee fitted to the last segment
+    // (gain.ts gainKnee): continuous there, falling below the point beyond it.
+    expectClose(hfeNominal(npnSmall, 0.1, "min"), 30, 1e-12);
+    expect(hfeNominal(npnSmall, 0.3, "min")).toBeLessThan(30 * 3 ** (Math.log(30 / 100) / Math.log(10)));
     // halfway in log(ic) between (10 mA, 100) and (100 mA, 30): geometric mean √(100·30)
     expectClose(hfeNominal(npnSmall, Math.sqrt(0.01 * 0.1), "min"), Math.sqrt(3000), 1e-9);
     expect(hfeNominal(npnSmall, 0.01, "typ")).toBe(200);
   });
   it(
-    "the card carries exactly that BF up to the last gain point, and holds it above (known divergence, " +
-      "spice-models.ts)",
+    "the card carries that BF flat up to the last gain point; past it the card takes the knee (IKF, NKF) " +
+      "with BF = h(I_last)·q_b(I_last), so BF/q_b(I) is the engine's law there",
     () => {
-      const bf = (ic_A: number) => Number(/ BF=([0-9.e+-]+)/.exec(spiceModel(npnSmall, { gain: "min", ic_A }))![1]);
-      expectClose(bf(0.03), hfeNominal(npnSmall, 0.03, "min"), 1e-11);
-      expectClose(bf(0.3), hfeNominal(npnSmall, 0.1, "min"), 1e-11);
-      expect(hfeNominal(npnSmall, 0.3, "min")).toBeLessThan(bf(0.3));
+      const card = (ic_A: number) => spiceModel(npnSmall, { gain: "min", ic_A });
+      const param = (c: string, k: string) => Number(new RegExp(` ${k}=([0-9.e+-]+)`).exec(c)?.[1]);
+      expectClose(param(card(0.03), "BF"), hfeNominal(npnSmall, 0.03, "min"), 1e-11);
+      expect(card(0.03)).not.toMatch(/ IKF=/);
+      const c = card(0.3);
+      const k = { ikf_A: param(c, "IKF"), nkf: param(c, "NKF") };
+      expectClose(k.ikf_A, gainKnee(npnSmall, "min")!.ikf_A, 1e-11, "IKF");
+      expectClose(k.nkf, gainKnee(npnSmall, "min")!.nkf, 1e-11, "NKF");
+      expectClose(param(c, "BF"), 30 * kneeQb(0.1, k), 1e-11);
+      for (const i of [0.1, 0.2, 0.3]) expectClose(param(c, "BF") / kneeQb(i, k), hfeNominal(npnSmall, i, "min"), 1e-9);
     },
   );
 });

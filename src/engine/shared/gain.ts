@@ -7,6 +7,7 @@ import type { BjtClass } from "../../model/device.ts";
 import { EngineMisuseError } from "../../model/errors.ts";
 import { JUNCTION_TEMPCO_VperK } from "./diode.ts";
 import { NOMINAL_TEMP_C, ZERO_CELSIUS_K } from "./temperature.ts";
+import { findRoot } from "./root.ts";
 
 /** V_BE temperature coefficient, V/K (≈ −2 mV/K: common practice; the same as a diode's). */
 export const VBE_TEMPCO_VperK = JUNCTION_TEMPCO_VperK;
@@ -22,15 +23,15 @@ function checkTemp(dev: BjtClass, tj_C: number, fn: string): void {
 /**
  * The gain law: h_FE at the nominal temperature and ic_A from the class's gain points ("min", or
  * "typ" where a point gives one, else its min), log-log between points, held at the first point
- * below it. Above the last point the law follows the last segment's slope if it falls, and never
- * rises above the last point.
+ * below it. Above the last point, when the last segment falls, the law is the Gummel–Poon
+ * high-injection knee fitted to that segment (gainKnee): h(I) = h_last·q_b(I_last)/q_b(I), the
+ * same law the netlist's card carries through IKF and NKF, so engine and card agree there; when
+ * the last segment does not fall, the law holds the last point.
  *
- * Why extrapolate rather than hold: past the gain peak h_FE falls with current (high-level
- * injection, the Webster effect: β ∝ 1/I_C in the limit — Sze, Physics of Semiconductor Devices, [src:sze-physics]
- * 2nd ed., §3.3, from memory); holding the last value would claim a gain the device class data do
- * not support. The netlist's Gummel-Poon card has no knee (IKF) and so a flat BF: it takes BF from
- * this law at the highest current its parts carry, but no higher than the last point — a known,
- * measured divergence above it (src/render/spice-models.ts and docs/spice-models.md say why).
+ * Why fall rather than hold: past the gain peak h_FE falls with current (high-level injection, the
+ * Webster effect: β ∝ 1/I_C in the limit — Sze, Physics of Semiconductor Devices, 2nd ed., §3.3,
+ * from memory [src:sze-physics]); holding the last value would claim a gain the device class data
+ * do not support.
  */
 export function hfeNominal(dev: BjtClass, ic_A: number, which: "min" | "typ" = "min"): number {
   checkCurrent(dev, ic_A, "hfeNominal");
@@ -45,9 +46,72 @@ export function hfeNominal(dev: BjtClass, ic_A: number, which: "min" | "typ" = "
     if (ic_A < b.ic_A) return logLog(a.ic_A, a.h, b.ic_A, b.h, ic_A);
   }
   const last = pts[pts.length - 1]!;
-  const prev = pts[pts.length - 2];
-  if (prev === undefined || last.h >= prev.h) return last.h;
-  return Math.min(last.h, logLog(prev.ic_A, prev.h, last.ic_A, last.h, ic_A));
+  const knee = gainKnee(dev, which);
+  if (knee === null) return last.h;
+  return Math.min(last.h, (last.h * kneeQb(last.ic_A, knee)) / kneeQb(ic_A, knee));
+}
+
+/**
+ * Gummel–Poon high-injection knee of a class: IKF and NKF of q_b = q1/2·(1 + (1 + 4·I_CC/IKF)^NKF),
+ * I_C = I_CC/q_b, so that β = BF/q_b (Gummel & Poon 1970; NKF as ngspice's BJT model carries it,
+ * default 0.5 — [src:gummel-poon-1970] [src:antognetti-massobrio-2e], from memory).
+ */
+export interface GainKnee {
+  ikf_A: number;
+  nkf: number;
+}
+
+/**
+ * Most I_last/IKF the fit puts the knee below the last gain point (ours): with NKF = 0.5 the law's
+ * log-log slope at the last point is −x/(1 + x), x = I_last/IKF, so x = 3 reaches −3/4; a steeper
+ * last segment keeps x = 3 and steepens the roll-off through NKF instead (GP with NKF = 0.5 cannot
+ * fall faster than 1/I_C). Keeping the knee within a factor 3 of the data keeps the card's gain
+ * below the last point from being lifted far above the data (q_b(I_last) ≤ 4 with NKF = 0.5).
+ */
+export const KNEE_RATIO_MAX = 3;
+
+/**
+ * q_b at collector current ic_A for a knee, with q1 = 1 (no Early effect): the root of
+ * q_b = ½·(1 + (1 + 4·q_b·I_C/IKF)^NKF); for NKF = 0.5 exactly q_b = 1 + I_C/IKF (derived:
+ * (2q_b − 1)² = 1 + 4·q_b·I_C/IKF).
+ */
+export function kneeQb(ic_A: number, k: GainKnee): number {
+  const x = ic_A / k.ikf_A;
+  if (k.nkf === 0.5) return 1 + x;
+  const f = (qb: number): number => qb - 0.5 * (1 + (1 + 4 * qb * x) ** k.nkf);
+  let hi = 2;
+  while (f(hi) < 0) hi *= 2;
+  return findRoot(f, 1, hi, { xTolRel: 1e-13, what: "kneeQb" });
+}
+
+/** Log-log slope d ln β / d ln I_C of the knee law at x = I_C/IKF (implicit derivative of kneeQb). */
+export function kneeSlope(x: number, nkf: number): number {
+  const qb = kneeQb(x, { ikf_A: 1, nkf });
+  const g = 2 * nkf * x * (1 + 4 * x * qb) ** (nkf - 1);
+  return -g / (1 - g);
+}
+
+/**
+ * The knee fitted to the class's last gain segment, or null when that segment does not fall: value
+ * and log-log slope of the law match the segment at the last point. The slope m of the segment
+ * gives x = I_last/IKF = −m/(1 + m) at NKF = 0.5 while x ≤ KNEE_RATIO_MAX; beyond, x = KNEE_RATIO_MAX
+ * and NKF solves kneeSlope(x, NKF) = m (derived).
+ */
+export function gainKnee(dev: BjtClass, which: "min" | "typ" = "min"): GainKnee | null {
+  const n = dev.hfe.length;
+  if (n < 2) return null;
+  const h = (i: number): number => (which === "typ" ? (dev.hfe[i]!.typ ?? dev.hfe[i]!.min) : dev.hfe[i]!.min);
+  const a = dev.hfe[n - 2]!;
+  const b = dev.hfe[n - 1]!;
+  if (h(n - 1) >= h(n - 2)) return null;
+  const m = Math.log(h(n - 1) / h(n - 2)) / Math.log(b.ic_A / a.ic_A);
+  const x0 = -m / (1 + m);
+  if (m > -1 && x0 <= KNEE_RATIO_MAX) return { ikf_A: b.ic_A / x0, nkf: 0.5 };
+  const x = KNEE_RATIO_MAX;
+  let hi = 0.6;
+  while (kneeSlope(x, hi) > m && hi < 0.99) hi = (hi + 1) / 2;
+  const nkf = findRoot((k) => kneeSlope(x, k) - m, 0.5, hi, { xTolRel: 1e-12, what: "gainKnee" });
+  return { ikf_A: b.ic_A / x, nkf };
 }
 
 function logLog(x0: number, y0: number, x1: number, y1: number, x: number): number {

@@ -1,5 +1,16 @@
 import { describe, expect, it } from "vitest";
-import { hfeMin, vbeOn, vbeSat, vceSat } from "../../../src/engine/shared/gain.ts";
+import {
+  KNEE_RATIO_MAX,
+  gainKnee,
+  hfeMin,
+  hfeNominal,
+  kneeQb,
+  kneeSlope,
+  vbeOn,
+  vbeSat,
+  vceSat,
+} from "../../../src/engine/shared/gain.ts";
+import { LIB_BJTS } from "../../render/spice-library.ts";
 import type { BjtClass } from "../../../src/model/device.ts";
 import { expectClose } from "../../helpers/close.ts";
 import { bjt } from "../devices/read-library.ts";
@@ -32,12 +43,50 @@ describe("hfeMin: minimum gain from the class's gain points", () => {
   );
 
   it(
-    "above the last point it follows the last falling slope: 60→30 from 50 to 100 mA is slope −1, so 15 at 200 " +
-      "mA (derived)",
+    "above the last point it follows the Gummel–Poon knee fitted to the last segment: value and log-log " +
+      "slope (60→30 from 50 to 100 mA: −1) match at the last point, and the fall steepens beyond (derived)",
     () => {
-      expectClose(hfeMin(q3904, 0.2, 25), 15, 1e-12);
+      expectClose(hfeMin(q3904, 0.1, 25), 30, 1e-12);
+      const k = gainKnee(q3904)!;
+      expectClose(kneeSlope(0.1 / k.ikf_A, k.nkf), -1, 1e-9);
+      // One step past the point the law is within 0.5 % of the straight log-log line, then falls below it.
+      expectClose(hfeMin(q3904, 0.101, 25), 30 * (0.101 / 0.1) ** -1, 5e-3);
+      expect(hfeMin(q3904, 0.2, 25)).toBeLessThan(15);
+      expect(hfeMin(q3904, 0.2, 25)).toBeGreaterThan(12);
     },
   );
+
+  it(
+    "the knee law: with NKF = 0.5, q_b = 1 + I_C/IKF solves q_b = ½(1 + √(1 + 4·q_b·I_C/IKF)), so β = " +
+      "BF/(1 + I_C/IKF) (Gummel–Poon 1970 high-injection form, derived; from memory)",
+    () => {
+      for (const x of [0.1, 1, 3, 30]) {
+        const qb = kneeQb(x, { ikf_A: 1, nkf: 0.5 });
+        expectClose(qb, 1 + x, 1e-15);
+        expectClose(qb, 0.5 * (1 + Math.sqrt(1 + 4 * qb * x)), 1e-12);
+        // slope −x/(1 + x): the classic GP limit of −1 (β ∝ 1/I_C, the Webster effect) [src:sze-physics]
+        expectClose(kneeSlope(x, 0.5), -x / (1 + x), 1e-9);
+      }
+      const q = kneeQb(2, { ikf_A: 1, nkf: 0.6 });
+      expectClose(q, 0.5 * (1 + (1 + 4 * q * 2) ** 0.6), 1e-12);
+    },
+  );
+
+  it("fits every falling library class: slope at the last point = the last segment's, knee within 3× of it", () => {
+    for (const d of LIB_BJTS) {
+      const n = d.hfe.length;
+      const [a, b] = [d.hfe[n - 2]!, d.hfe[n - 1]!];
+      const k = gainKnee(d);
+      if (b.min >= a.min) {
+        expect(k).toBeNull();
+        continue;
+      }
+      const m = Math.log(b.min / a.min) / Math.log(b.ic_A / a.ic_A);
+      expectClose(kneeSlope(b.ic_A / k!.ikf_A, k!.nkf), m, 1e-8, d.id);
+      expect(b.ic_A / k!.ikf_A).toBeLessThanOrEqual(KNEE_RATIO_MAX + 1e-12);
+      expect(hfeNominal(d, b.ic_A * 1.5, "min")).toBeLessThan(b.min);
+    }
+  });
 
   it("never rises above the last point when the last segment rises", () => {
     const rising: BjtClass = {
