@@ -5,6 +5,14 @@
 export const SIM_CORNER_NAMES = ["duty-ctrl0-high", "duty-ctrl1-low", "slow", "fast", "power"] as const;
 export type SimCornerName = (typeof SIM_CORNER_NAMES)[number];
 
+/**
+ * The two model-card sets: "worst-fit", the published deck's (fitted to each class's worst-case
+ * data), and "independent", derived from typical data by another route (docs/spice-models.md,
+ * "Second card set").
+ */
+export const CARD_SETS = ["worst-fit", "independent"] as const;
+export type CardSet = (typeof CARD_SETS)[number];
+
 /** Multipliers (1 ± tolerance) and conditions of one worst-case corner (the engine's and the verifier's). */
 export interface Corner {
   /** Supply, V, and ambient (the simulator's `.temp`), °C. */

@@ -6,6 +6,7 @@
  */
 import type { CircuitModel, Part } from "../model/circuit.ts";
 import type { DeviceLibrary } from "../model/device.ts";
+import type { CardSet } from "../model/corners.ts";
 import { STAGE_KINDS } from "../model/kinds.ts";
 import { elementLines, isTimingTransistor } from "./netlist-parts.ts";
 import { checkNet, commentLines } from "./netlist-text.ts";
@@ -24,6 +25,8 @@ export interface NetlistMeta {
   devices?: DeviceLibrary;
   /** Gain corner of the models; the verifier uses "min" (the default). */
   gain?: "min" | "typ";
+  /** Model-card set (default "worst-fit", the published deck's; corner decks may ask for "independent"). */
+  cards?: CardSet;
 }
 
 /** Periods simulated and steps per period of the ready-made `.tran` (verifier: ≈ 10–12 periods). */
@@ -49,7 +52,11 @@ function modelCards(circuit: CircuitModel, meta: NetlistMeta): string[] {
     const { id, timing, i } = ic.get(key)!;
     const dev = meta.devices?.get(id);
     if (!dev) throw new EngineMisuseError(`netlist ${meta.id}: device class "${id}" is not in the device library`);
-    const base = { gain: meta.gain ?? "min", ...(timing ? { junction: "typical" as const } : {}) };
+    const base = {
+      gain: meta.gain ?? "min",
+      ...(timing ? { junction: "typical" as const } : {}),
+      ...(meta.cards === "independent" ? { cards: meta.cards } : {}),
+    };
     return spiceModel(dev, i > 0 ? { ...base, ic_A: i } : base);
   });
 }

@@ -5,7 +5,9 @@
  * Gummel-Poon NPN/PNP (spice-bjt.ts), ngspice VDMOS (spice-mosfet.ts), SPICE D (spice-diode.ts).
  */
 import type { BjtClass, DeviceClass } from "../model/device.ts";
+import type { CardSet } from "../model/corners.ts";
 import { BJT_VAF_V, fitBjt } from "./spice-bjt.ts";
+import { MJ, VJ_V, independentBjt } from "./spice-bjt-independent.ts";
 import { card } from "./spice-card.ts";
 import { diodeModel, zenerModel } from "./spice-diode.ts";
 import { mosfetModel } from "./spice-mosfet.ts";
@@ -20,6 +22,12 @@ export interface SpiceModelOptions {
   ic_A?: number;
   /** BJTs: "typical" junction for timing-core transistors (spice-bjt.ts fitBjt); default "worst". */
   junction?: "worst" | "typical";
+  /**
+   * Which card set: "worst-fit" (default: the published deck's, fitted to the classes' worst-case
+   * data) or "independent" (the second set, derived from typical data by another route: BJTs by
+   * spice-bjt-independent.ts, MOSFETs at typical R_DS(on); diodes have one card).
+   */
+  cards?: CardSet;
 }
 
 /** Saturation-current temperature exponent and band gap of silicon (SPICE defaults, from memory). */
@@ -38,17 +46,9 @@ function bjtModel(dev: BjtClass, opts: SpiceModelOptions): string {
   const hRef = hfeNominal(dev, Math.min(ic_A, lastGain_A), opts.gain);
   const bf = knee === null ? hRef : hRef * kneeQb(lastGain_A, knee);
   const { params: p } = fitBjt(dev, bf, opts.junction ?? "worst", knee ?? undefined);
-  const iRef_A = vbeRefCurrent_A(dev);
-  const cjc = dev.cob_F ?? 0;
-  const cje = 2 * cjc; // C_ib ≈ 2–4 × C_ob for small discretes (from memory): take the low end
-  // f_T = 1/(2π·(TF + (CJE + CJC)·V_T/I_C)) at I_ref; the rest of 1/(2π f_T) is TF.
-  const tauT_s = dev.ft_Hz ? 1 / (2 * Math.PI * dev.ft_Hz) : 0;
-  const tf = Math.max(0.1 * tauT_s, tauT_s - ((cje + cjc) * VT_NOMINAL_V) / iRef_A);
-  // Storage time with I_B2 = I_B1 and I_C/β ≪ I_B1: t_s ≈ τ_s·ln2, τ_s ≈ TR (from memory).
-  const tr = dev.t_storage_s / Math.LN2;
-  return card(
-    opts.junction === "typical" ? timingModelName(dev.id) : spiceModelName(dev.id),
-    dev.family === "npn" ? "NPN" : "PNP",
+  return bjtCard(
+    dev,
+    opts,
     [
       ["IS", p.is_A],
       ["BF", p.bf],
@@ -63,6 +63,57 @@ function bjtModel(dev: BjtClass, opts: SpiceModelOptions): string {
       ["VAF", BJT_VAF_V],
       ["RB", p.rb_ohm],
       ["RC", p.rc_ohm],
+    ],
+    2 * (dev.cob_F ?? 0),
+    dev.cob_F ?? 0,
+  );
+}
+
+/** The independent card (spice-bjt-independent.ts): the whole typical gain curve, no operating current. */
+function bjtIndependentModel(dev: BjtClass, opts: SpiceModelOptions): string {
+  const p = independentBjt(dev);
+  const knee: [string, number][] = Number.isFinite(p.ikf_A)
+    ? [
+        ["IKF", p.ikf_A],
+        ["NKF", p.nkf],
+      ]
+    : [];
+  return bjtCard(
+    dev,
+    opts,
+    [
+      ["IS", p.is_A],
+      ["BF", p.bf],
+      ["ISE", p.ise_A],
+      ["NE", p.ne],
+      ...knee,
+      ["BR", 1],
+      ["NR", p.nr],
+      ["VAF", BJT_VAF_V],
+      ["RC", p.rc_ohm],
+      ["VJE", VJ_V],
+      ["MJE", MJ],
+      ["VJC", VJ_V],
+      ["MJC", MJ],
+    ],
+    p.cje_F,
+    p.cjc_F,
+  );
+}
+
+/** Charge storage and temperature, shared by both card sets. */
+function bjtCard(dev: BjtClass, opts: SpiceModelOptions, dc: [string, number][], cje: number, cjc: number): string {
+  const iRef_A = vbeRefCurrent_A(dev);
+  // f_T = 1/(2π·(TF + (CJE + CJC)·V_T/I_C)) at I_ref; the rest of 1/(2π f_T) is TF.
+  const tauT_s = dev.ft_Hz ? 1 / (2 * Math.PI * dev.ft_Hz) : 0;
+  const tf = Math.max(0.1 * tauT_s, tauT_s - ((cje + cjc) * VT_NOMINAL_V) / iRef_A);
+  // Storage time with I_B2 = I_B1 and I_C/β ≪ I_B1: t_s ≈ τ_s·ln2, τ_s ≈ TR (from memory).
+  const tr = dev.t_storage_s / Math.LN2;
+  return card(
+    opts.junction === "typical" ? timingModelName(dev.id) : spiceModelName(dev.id),
+    dev.family === "npn" ? "NPN" : "PNP",
+    [
+      ...dc,
       ["CJE", cje],
       ["CJC", cjc],
       ["TF", tf],
@@ -82,9 +133,9 @@ export function spiceModel(dev: DeviceClass, opts: SpiceModelOptions): string {
   switch (dev.family) {
     case "npn":
     case "pnp":
-      return bjtModel(dev, opts);
+      return opts.cards === "independent" ? bjtIndependentModel(dev, opts) : bjtModel(dev, opts);
     case "nmos":
-      return mosfetModel(dev, opts.gain);
+      return mosfetModel(dev, opts.cards === "independent" ? "typ" : opts.gain);
     case "diode":
       return diodeModel(dev);
     case "zener":

@@ -7,7 +7,7 @@
  * engine's corner does.
  */
 import type { CircuitModel, Part } from "../model/circuit.ts";
-import type { SimCorner } from "../model/corners.ts";
+import type { CardSet, SimCorner } from "../model/corners.ts";
 import type { DeviceLibrary } from "../model/device.ts";
 import type { PartRole } from "../model/part-roles.ts";
 import type { SizedVariant } from "../model/sized.ts";
@@ -69,7 +69,16 @@ export function setTemp(netlist: string, t_C: number): string {
   return netlist.replace(/^\.end[ \t]*$/m, `${line}\n.end`);
 }
 
-export function cornerDeck(sized: SizedVariant, devices: DeviceLibrary, k: SimCorner): CornerDeck {
+/**
+ * The deck of one corner; `cards` picks the model-card set (the published deck's by default; the
+ * second set for scripts/check-second-cards.ts).
+ */
+export function cornerDeck(
+  sized: SizedVariant,
+  devices: DeviceLibrary,
+  k: SimCorner,
+  cards: CardSet = "worst-fit",
+): CornerDeck {
   const c = sized.circuit;
   if (c === null) throw new EngineMisuseError(`corner deck ${sized.spec.id}: the variant has no circuit`);
   const f_Hz = k.predicted.f_Hz;
@@ -82,6 +91,7 @@ export function cornerDeck(sized: SizedVariant, devices: DeviceLibrary, k: SimCo
     frequency_Hz: f_Hz,
     devices,
     gain: k.gain,
+    ...(cards === "worst-fit" ? {} : { cards }),
   });
   return { corner: k, netlist: setTemp(netlist, k.t_C), period_s: 1 / f_Hz };
 }
