@@ -122,7 +122,9 @@ function sizeInner(spec: VariantSpec): SizedVariant {
     w.f.lo,
     w.f.hi,
     w.dMin.lo,
-    power === undefined ? undefined : { role: power.role, dev: power.dev },
+    power === undefined
+      ? undefined
+      : { role: power.role, dev: power.dev, ...(fin.drive === undefined ? {} : { drive: fin.drive }) },
   );
   const pIn = ctx.vMax_V * ctx.iMax_A * Math.min(1, w.dMax.hi);
   const pNominal = nominalDissipation(ctx, timing.figures, fin.losses, load.iOn_A, vSwNom_V, w.f.hi, timing.fCtrl1_Hz);

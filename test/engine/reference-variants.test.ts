@@ -498,3 +498,55 @@ describe("R9b — a coil that cannot pull in at the end of discharge is not feas
     expect(s.feasible).toBe(false);
   });
 });
+
+describe("R10 — 12 V lead-acid, 3 A lamp, mosfet-driver: the gate drive limits the cold-filament start", () => {
+  const s = size({
+    supply_V: 12,
+    load_A: 3,
+    chain: "mosfet-driver",
+    load_kind: "lamp",
+    duty: [0.25, 0.75],
+    supply: { battery: "lead-acid" },
+  });
+  it("the peak 15 × 3 A × 14.7/12 = 55.1 A is within the class's 120 A I_DM (from memory)", () => {
+    const pk = s.checks.find((c) => c.quantity === "peak" && c.rating === 120)!;
+    expectClose(pk.stress, 55.125, 1e-9);
+    expect(pk.verdict).toBe("pass");
+  });
+  // Square law above the knee (Sedra & Smith, MOSFET chapter, from memory).
+  it("but the gate reaches only 7.07 V: K/2·(7.07 − 4)² = 9.425/(2·0.168) = 28.05 A", () => {
+    // 1/K = 0.7·0.040 Ω·(10 − 4) V = 0.168 (one R_DS(on) point, 70 % channel, from memory); V_th,max 4 V.
+    const vg = fig(s, "gate_voltage_min");
+    expectClose(vg, 7.07, 1e-9);
+    expectClose(fig(s, "drive_limit_current"), (vg - 4) ** 2 / (2 * 0.168), 1e-9);
+  });
+  it("the switch holds 28.05·(14.7 − 28.05·0.2667) = 202.5 W for 2·10 ms·ln(51.45/24.375) = 14.9 ms: too much", () => {
+    // R_cold = 14.7/55.125 = 0.2667 Ω; I_run = 3 × 14.7/12 = 3.675 A. P(I) peaks at I = V/(2R_cold) = 27.6 A,
+    // below the drive's 28.05 A, so the drive's own limit is the worst point of the scan.
+    // SOA (nmos classes, from memory): 150 W at 10 ms, 90 W at 100 ms, log-log at 14.94 ms = 137.2 W at 25 °C,
+    // × (175 − 40)/(175 − 25) = 0.9 at 40 °C → 123.5 W allowed (derating common practice).
+    const i = fig(s, "drive_limit_current");
+    const soa = s.checks.find((c) => c.quantity === "soa")!;
+    expectClose(soa.stress, i * (14.7 - (i * 14.7) / 55.125), 1e-9);
+    const t = 2 * 0.01 * Math.log(51.45 / (i - 3.675));
+    expectClose(t, 0.01494, 1e-3);
+    expectClose(soa.rating, Math.exp(Math.log(150) + (Math.log(t / 0.01) / Math.log(10)) * Math.log(90 / 150)), 1e-9);
+    expectClose(soa.allowed, 0.9, 1e-12);
+    expect(soa.verdict).toBe("fail");
+    expect(s.feasible).toBe(false);
+  });
+});
+
+describe("R5b — the start-up peak above every class the chain can use is said plainly", () => {
+  const s = size({ supply_V: 12, load_A: 1, chain: "bjt-driver-pnp", load_kind: "lamp" });
+  it("16.5 A cold-filament peak vs the largest PNP class's 10 A I_CM (absolute maximum, common practice)", () => {
+    const p = s.problems.find((x) => x.rule === "peak-above-pulse-rating")!;
+    expect(p.severity).toBe("error");
+    expect(p.message).toContain("no class covers it");
+    expectClose(p.params.actual!, 16.5, 1e-9);
+    expect(p.params.limit).toBe(10);
+    // The stage's own words replace the generic derating line for the same part and quantity.
+    expect(s.problems.some((x) => x.rule === "derating-peak")).toBe(false);
+    expect(s.verdict.blocking.map((b) => b.rule)).toContain("peak-above-pulse-rating");
+  });
+});

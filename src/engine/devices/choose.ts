@@ -173,8 +173,13 @@ function whyNot(role: DeviceRole, d: DeviceClass, n: Need): string | null {
       ? null
       : `${d.package} in free air at full duty runs over ${Math.min(125, d.tj_max_C - 40)} °C`;
   }
-  if (isMosfet(d))
-    return d.vds_V * SWITCH_HEADROOM >= n.vOff_V ? null : `V_DS ${f3(d.vds_V)} V × 75 % is below ${f3(n.vOff_V)} V`;
+  if (isMosfet(d)) {
+    if (d.vds_V * SWITCH_HEADROOM < n.vOff_V) return `V_DS ${f3(d.vds_V)} V × 75 % is below ${f3(n.vOff_V)} V`;
+    // As for a BJT: the start-up peak may reach but not exceed the pulse rating I_DM.
+    return (d.idm_A ?? d.id_A) < n.peak_A
+      ? `pulse rating ${f3(d.idm_A ?? d.id_A)} A is below the ${f3(n.peak_A)} A start-up peak`
+      : null;
+  }
   if (isDiode(d) && role === "freewheel_diode") {
     if (d.recovery === "standard" && n.pwm_Hz > STANDARD_RECOVERY_MAX_Hz)
       return `standard recovery is too slow above ${STANDARD_RECOVERY_MAX_Hz} Hz PWM`;

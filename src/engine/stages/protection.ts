@@ -47,6 +47,8 @@ import type { Ctx } from "./context.ts";
 import type { LoadModel } from "../shared/loads.ts";
 import type { VariantSpec } from "../../model/variant.ts";
 import { capRating_V } from "./timing-parts.ts";
+import type { DriveLimit } from "./chains/types.ts";
+import { drivePulse, pulsePower_W } from "../shared/drive-limit.ts";
 
 export const BULK_PER_A_F = 100e-6;
 export const BULK_MIN_F = 100e-6;
@@ -149,7 +151,7 @@ export function protectionStage(
   fMin_Hz: number,
   fMax_Hz: number,
   dutyMinLo: number,
-  power?: { role: PartRole; dev: BjtClass | MosfetClass },
+  power?: { role: PartRole; dev: BjtClass | MosfetClass; drive?: DriveLimit },
 ): ProtectionResult {
   const pol = ctx.spec.policy;
   const D = ctx.spec.devices;
@@ -274,6 +276,12 @@ export function protectionStage(
         what: "linear-mode pulse power vs the single-pulse SOA",
       });
     }
+  }
+
+  if (power !== undefined) {
+    const top = lim?.kind === "current-limit" ? Math.min(ev.iPeak_A, lim.limit_A) : ev.iPeak_A;
+    peakProblem(ctx, power, top, ev.what, problems);
+    if (power.drive !== undefined) driveLimitedStart(ctx, { ...power, drive: power.drive }, top, figures, checks);
   }
 
   // Fuse: the smallest rating that carries the worst-case current and rides through the start-up.
@@ -542,4 +550,124 @@ export function protectionStage(
       );
   }
   return { parts, figures, problems, checks, conditions };
+}
+
+/** Pulse (absolute maximum) current rating of a switch: I_CM / I_DM, else the continuous rating. */
+export function pulseRating_A(dev: BjtClass | MosfetClass): number {
+  return dev.family === "nmos" ? (dev.idm_A ?? dev.id_A) : (dev.icm_A ?? dev.ic_max_A);
+}
+
+/**
+ * The start-up peak above the switch's pulse rating, said plainly: the chooser took the first class
+ * whose pulse rating covers the peak (devices/choose.ts), so when this fails either the record binds
+ * the class or no class of the library covers it. The check itself is in chains/common.ts.
+ */
+function peakProblem(
+  ctx: Ctx,
+  power: { role: PartRole; dev: BjtClass | MosfetClass },
+  peak_A: number,
+  what: string,
+  problems: DesignProblem[],
+): void {
+  const rating = pulseRating_A(power.dev);
+  if (!(peak_A > rating * (1 + 1e-9))) return;
+  const bound = ctx.spec.deviceReasons?.[roleOfSwitch(ctx)] === "bound by the design record";
+  problems.push(
+    problem(
+      "protection",
+      `/parts/${power.role}`,
+      "peak-above-pulse-rating",
+      "error",
+      `The load's start-up peak (${what}) reaches ${peak_A.toPrecision(3)} A at ` +
+        `${ctx.vMax_V.toPrecision(3)} V, above the ${rating.toPrecision(3)} A pulse rating of ${power.dev.title}` +
+        (bound
+          ? `, the class the record binds: bind a class with a higher pulse rating, `
+          : `, the largest class of the library this chain can use: no class covers it. Declare a current ` +
+            `limit below ${rating.toPrecision(3)} A or a soft start in the record, use a MOSFET chain, `) +
+        `or add a device class whose pulse rating covers the peak.`,
+      { limit: rating, actual: peak_A, unit: "A" },
+    ),
+  );
+}
+
+/** The device role the chain's load switch takes its class from. */
+function roleOfSwitch(ctx: Ctx): "power_npn" | "power_pnp" | "mosfet_logic" | "mosfet_standard" {
+  const c = ctx.spec.chain;
+  return c === "bjt-driver-pnp"
+    ? "power_pnp"
+    : c === "mosfet-logic"
+      ? "mosfet_logic"
+      : c === "mosfet-driver"
+        ? "mosfet_standard"
+        : "power_npn";
+}
+
+/**
+ * Where the worst-case drive holds the switch below the start-up peak, the switch leaves saturation
+ * for the event and dissipates V − I·R_load(t) at the current it holds: the pulse nearest the class's
+ * single-pulse SOA (shared/drive-limit.ts) is checked against it, derated from 25 °C to T_A,max.
+ */
+function driveLimitedStart(
+  ctx: Ctx,
+  power: { role: PartRole; dev: BjtClass | MosfetClass; drive: DriveLimit },
+  top_A: number,
+  figures: Figure[],
+  checks: StressCheck[],
+): void {
+  const ev = startEvent(startParams(ctx));
+  const dev = power.dev;
+  const pulse = drivePulse(
+    (t) => pulsePower_W(dev, t, ctx.taMax_C).p_W,
+    power.drive.i_A,
+    top_A,
+    ev.iPeak_A,
+    ev.iRun_A,
+    ctx.vMax_V,
+    ev.tau_s,
+  );
+  if (pulse === undefined) return;
+  const rated = pulsePower_W(dev, pulse.t_s, ctx.taMax_C);
+  figures.push(
+    figure(
+      "drive_limit_current",
+      "Start-up current the worst-case drive holds (the switch leaves saturation above it)",
+      power.drive.i_A,
+      "A",
+      "protection",
+      power.drive.how,
+      "sedra-smith",
+    ),
+    figure(
+      "drive_pulse_power",
+      `Switch power while the drive limits the start-up (at ${pulse.iAt_A.toPrecision(3)} A, ` +
+        `${(pulse.t_s * 1e3).toPrecision(3)} ms)`,
+      pulse.p_W,
+      "W",
+      "protection",
+      "P = I·(V_cc,max − I·R_cold) for I from the drive's limit up to the peak, t = 2τ·ln(ΔI/(I − I_run)); " +
+        "the one nearest the SOA",
+      "derived",
+    ),
+  );
+  const src = rated.fromSoa ? deviceSource(dev, "soa_pulse") : cite("common-practice");
+  checks.push({
+    ...checkStress(
+      power.role,
+      "soa",
+      pulse.p_W,
+      rated.p_W / rated.derate,
+      "W",
+      {
+        factor: rated.derate,
+        ...src,
+        note:
+          (rated.fromSoa
+            ? `single-pulse SOA of the class at ${(pulse.t_s * 1e3).toPrecision(3)} ms`
+            : "no pulse SOA in the class: its steady-state P_tot, a lower bound for any pulse (Z_th(t) ≤ R_th)") +
+          `, derated from 25 °C to ${ctx.taMax_C} °C × (T_J,max − T_A)/(T_J,max − 25 °C)`,
+      },
+      ctx.spec.policy.marginal_above,
+    ),
+    what: "drive-limited start-up pulse vs the single-pulse SOA",
+  });
 }
