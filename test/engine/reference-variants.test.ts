@@ -550,3 +550,23 @@ describe("R5b — the start-up peak above every class the chain can use is said 
     expect(s.verdict.blocking.map((b) => b.rule)).toContain("peak-above-pulse-rating");
   });
 });
+
+describe("R11 — 12 V lead-acid, 5 A LED strip, mosfet-logic: a 15 A fuse needs the 600 A shunt diode", () => {
+  const s = size({
+    supply_V: 12,
+    load_A: 5,
+    chain: "mosfet-logic",
+    load_kind: "led",
+    supply: { battery: "lead-acid" },
+  });
+  it("clearing ≤ (6 × 15 A)²·0.1 s·1.2 = 972 A²s: 400 A I_FSM gives 400²/240 = 666.7 A²s, 600 A gives 1500 A²s", () => {
+    // ISO 8820-3 600 % gate (from memory); surge I²t = I_FSM²·8.3 ms/2 (half-sine, derived); the fuse opens
+    // first (common practice).
+    expect(part(s, "F_SUPPLY").value).toBe(15);
+    expect(s.spec.devices.reverse_diode.id).toBe("diode-rectifier-10a");
+    const c = s.checks.find((x) => x.ref === part(s, "D_REVERSE").ref && x.quantity === "i2t")!;
+    expectClose(c.stress, 972, 1e-9);
+    expectClose(c.rating, (600 * 600) / 240, 1e-9);
+    expect(c.verdict).toBe("pass");
+  });
+});

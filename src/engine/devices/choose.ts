@@ -32,8 +32,8 @@ export const DEFAULT_DEVICE_IDS: Readonly<Record<DeviceRole, readonly string[]>>
   mosfet_standard: ["nmos-standard"],
   freewheel_diode: ["diode-rectifier-1a", "diode-schottky-3a", "diode-fast-3a", "diode-schottky-10a"],
   signal_diode: ["diode-signal"],
-  // Shunt reverse-polarity diodes by surge rating: 30 A, 200 A, 400 A I_FSM.
-  reverse_diode: ["diode-rectifier-1a", "diode-rectifier-3a", "diode-rectifier-6a"],
+  // Shunt reverse-polarity diodes by surge rating: 30 A, 200 A, 400 A, 600 A I_FSM.
+  reverse_diode: ["diode-rectifier-1a", "diode-rectifier-3a", "diode-rectifier-6a", "diode-rectifier-10a"],
   // Highest rail first (most gate drive), then the smaller power class; see `zenerFits`.
   gate_zener: ["zener-12v-0w5", "zener-12v-1w", "zener-10v-1w", "zener-8v2-1w"],
 };
