@@ -49,6 +49,7 @@ import type { VariantSpec } from "../../model/variant.ts";
 import { capRating_V } from "./timing-parts.ts";
 import type { DriveLimit } from "./chains/types.ts";
 import { drivePulse, pulsePower_W } from "../shared/drive-limit.ts";
+import { seriesReverseStage } from "./series-reverse.ts";
 
 export const BULK_PER_A_F = 100e-6;
 export const BULK_MIN_F = 100e-6;
@@ -167,33 +168,7 @@ export function protectionStage(
   const ev = startEvent(sp);
 
   // Declared inrush limit: its effect is counted above; the builder must fit it (a condition).
-  if (lim?.kind === "current-limit") {
-    if (!(lim.limit_A > ev.iRun_A)) {
-      problems.push(
-        problem(
-          "protection",
-          "/protection/inrush_limit/limit_A",
-          "current-limit-too-low",
-          "error",
-          `The declared current limit of ${lim.limit_A} A is not above the ${ev.iRun_A.toPrecision(3)} A the ` +
-            `load draws running at ${ctx.vMax_V.toPrecision(3)} V: the load would never start. Raise the limit.`,
-          { limit: ev.iRun_A, actual: lim.limit_A, unit: "A" },
-        ),
-      );
-    } else {
-      conditions.push({
-        rule: "inrush-limit",
-        path: "/protection/inrush_limit",
-        text: `a current limit of ≤ ${lim.limit_A} A in the load path (not drawn in this schematic)`,
-      });
-    }
-  } else if (lim?.kind === "soft-start") {
-    conditions.push({
-      rule: "inrush-limit",
-      path: "/protection/inrush_limit",
-      text: `a soft start ramping the duty from 0 over ≥ ${lim.ramp_s} s (not drawn in this schematic)`,
-    });
-  }
+  declaredLimit(ctx, ev.iRun_A, problems, conditions);
   // The start-up peak by load kind: a coil's R–L step, a lamp's cold filament, a motor's stall.
   const peakBasis: [string, SourceKey] | undefined =
     ctx.spec.load_kind === "solenoid"
@@ -319,7 +294,7 @@ export function protectionStage(
       `${iCont.toPrecision(3)} A worst case; start-up ${su.i2t_A2s.toPrecision(2)} A²s`,
     rating: { current_A: fuse.rating_A, voltage_V: fam.voltage_V },
     stress: { current_A: iCont, voltage_V: ctx.vMax_V },
-    pins: { a: "vcc", b: "vbus" },
+    pins: { a: "vcc", b: ctx.series ? "vrp" : "vbus" },
   });
   const share = fuseContinuousShare(ctx.taMax_C);
   checks.push({
@@ -394,53 +369,19 @@ export function protectionStage(
     ),
   );
 
+  if (ctx.series !== undefined) {
+    const out = seriesReverseStage(ctx, ctx.series, iCont, su.i2t_A2s, fuse);
+    parts.push(out.part);
+    checks.push(...out.checks);
+    figures.push(...out.figures);
+    problems.push(...out.problems);
+    conditions.push(...out.conditions);
+  }
   // Shunt reverse-polarity diode: conducts the reversed battery's fault current until the fuse
-  // opens, so its surge I²t must exceed the fuse's clearing I²t.
+  // opens, so its surge I²t must exceed the fuse's clearing I²t. Not fitted behind a series diode.
   const rev = D.reverse_diode as DiodeClass;
   const clearing = fuse.clearingMax_A2s;
-  parts.push(
-    diode(
-      "supply",
-      "D_REVERSE",
-      rev,
-      { anode: "0", cathode: "vbus" },
-      { voltage_V: ctx.vMax_V, current_A: fam.gate.multiple * fuse.rating_A },
-      "shunt reverse-polarity protection: conducts when reversed, the fuse opens",
-    ),
-  );
-  checks.push(checkStress("D_REVERSE", "voltage", ctx.vMax_V, rev.vrrm_V, "V", pol.diode.voltage, pol.marginal_above));
-  const surge = {
-    ...checkStress(
-      "D_REVERSE",
-      "i2t",
-      clearing,
-      diodeSurgeI2t_A2s(rev.ifsm_A),
-      "A²s",
-      {
-        factor: 1,
-        ...cite("common-practice"),
-        note: `diode surge I²t = I_FSM²·8.3 ms/2 above the fuse's clearing I²t (${fam.note})`,
-      },
-      pol.marginal_above,
-    ),
-    what: "fuse clearing I²t vs the diode's surge I²t",
-  };
-  checks.push(surge);
-  if (surge.verdict === "fail")
-    problems.push(
-      problem(
-        "supply",
-        "/parts/D_REVERSE",
-        "reverse-surge",
-        "error",
-        `The reverse-polarity diode's surge rating (${rev.ifsm_A} A, ` +
-          `${diodeSurgeI2t_A2s(rev.ifsm_A).toPrecision(3)} A²s) is below the ${clearing.toPrecision(3)} A²s the ` +
-          `${fuse.rating_A} A fuse lets through before it clears: on a reversed battery the diode fails first. ` +
-          `Bind a diode class with a higher I_FSM, or use series reverse protection (a series Schottky or ` +
-          `P-MOSFET, not yet sized by this engine).`,
-        { limit: diodeSurgeI2t_A2s(rev.ifsm_A), actual: clearing, unit: "A²s" },
-      ),
-    );
+  if (ctx.series === undefined) shuntReverse(ctx, rev, fuse, clearing, parts, checks, problems);
   // A battery supplies the low-frequency current; the bulk capacitor covers the switching edges
   // against the wiring's inductance: ≈ 100 µF per ampere switched, at least 100 µF (rule of thumb, from memory).
   const cRated = capRating_V(ctx, ctx.vMax_V);
@@ -670,4 +611,94 @@ function driveLimitedStart(
     ),
     what: "drive-limited start-up pulse vs the single-pulse SOA",
   });
+}
+
+/** The shunt reverse-polarity diode and its coordination with the fuse (fuse.ts rule 4). */
+function shuntReverse(
+  ctx: Ctx,
+  rev: DiodeClass,
+  fuse: FuseChoice,
+  clearing: number,
+  parts: Part[],
+  checks: StressCheck[],
+  problems: DesignProblem[],
+): void {
+  const pol = ctx.spec.policy;
+  const fam = fuse.family;
+  parts.push(
+    diode(
+      "supply",
+      "D_REVERSE",
+      rev,
+      { anode: "0", cathode: "vbus" },
+      { voltage_V: ctx.vMax_V, current_A: fam.gate.multiple * fuse.rating_A },
+      "shunt reverse-polarity protection: conducts when reversed, the fuse opens",
+    ),
+  );
+  checks.push(checkStress("D_REVERSE", "voltage", ctx.vMax_V, rev.vrrm_V, "V", pol.diode.voltage, pol.marginal_above));
+  const surge = {
+    ...checkStress(
+      "D_REVERSE",
+      "i2t",
+      clearing,
+      diodeSurgeI2t_A2s(rev.ifsm_A),
+      "A²s",
+      {
+        factor: 1,
+        ...cite("common-practice"),
+        note: `diode surge I²t = I_FSM²·8.3 ms/2 above the fuse's clearing I²t (${fam.note})`,
+      },
+      pol.marginal_above,
+    ),
+    what: "fuse clearing I²t vs the diode's surge I²t",
+  };
+  checks.push(surge);
+  if (surge.verdict === "fail")
+    problems.push(
+      problem(
+        "supply",
+        "/parts/D_REVERSE",
+        "reverse-surge",
+        "error",
+        `The reverse-polarity diode's surge rating (${rev.ifsm_A} A, ` +
+          `${diodeSurgeI2t_A2s(rev.ifsm_A).toPrecision(3)} A²s) is below the ${clearing.toPrecision(3)} A²s the ` +
+          `${fuse.rating_A} A fuse lets through before it clears: on a reversed battery the diode fails first. ` +
+          `Bind a diode class with a higher I_FSM, or use series reverse protection (a series Schottky or ` +
+          `P-MOSFET, not yet sized by this engine).`,
+        { limit: diodeSurgeI2t_A2s(rev.ifsm_A), actual: clearing, unit: "A²s" },
+      ),
+    );
+}
+
+/** A declared soft start or current limit: a condition of the verdict, or an error when it would stop the load. */
+function declaredLimit(ctx: Ctx, iRun_A: number, problems: DesignProblem[], conditions: VerdictCondition[]): void {
+  const lim = ctx.spec.protection.inrush_limit;
+  const ev = { iRun_A };
+  if (lim?.kind === "current-limit") {
+    if (!(lim.limit_A > ev.iRun_A)) {
+      problems.push(
+        problem(
+          "protection",
+          "/protection/inrush_limit/limit_A",
+          "current-limit-too-low",
+          "error",
+          `The declared current limit of ${lim.limit_A} A is not above the ${ev.iRun_A.toPrecision(3)} A the ` +
+            `load draws running at ${ctx.vMax_V.toPrecision(3)} V: the load would never start. Raise the limit.`,
+          { limit: ev.iRun_A, actual: lim.limit_A, unit: "A" },
+        ),
+      );
+    } else {
+      conditions.push({
+        rule: "inrush-limit",
+        path: "/protection/inrush_limit",
+        text: `a current limit of ≤ ${lim.limit_A} A in the load path (not drawn in this schematic)`,
+      });
+    }
+  } else if (lim?.kind === "soft-start") {
+    conditions.push({
+      rule: "inrush-limit",
+      path: "/protection/inrush_limit",
+      text: `a soft start ramping the duty from 0 over ≥ ${lim.ramp_s} s (not drawn in this schematic)`,
+    });
+  }
 }
