@@ -12,6 +12,7 @@ import { attachAlternatives, sizeVariant } from "../../src/engine/index.ts";
 import type { SizedVariant } from "../../src/model/sized.ts";
 import { expectClose } from "../helpers/close.ts";
 import { NPN_HIGH_GAIN, type SpecOpts, makeSpec, policy } from "./fixtures.ts";
+import { hfeMin } from "../../src/engine/shared/gain.ts";
 
 const hg = { override: { timing_npn: NPN_HIGH_GAIN } };
 const size = (o: SpecOpts): SizedVariant => sizeVariant(makeSpec({ ...hg, ...o }));
@@ -568,5 +569,31 @@ describe("R11 — 12 V lead-acid, 5 A LED strip, mosfet-logic: a 15 A fuse needs
     expectClose(c.stress, 972, 1e-9);
     expectClose(c.rating, (600 * 600) / 240, 1e-9);
     expect(c.verdict).toBe("pass");
+  });
+});
+
+describe("R6b — a lifted wiper in a non-inverting chain: why no one resistor makes it fail safe", () => {
+  // R6 again: mosfet-logic listens to collector A (RG on `ca`); R_C = 9.1 kΩ, R_B,max = 120 kΩ + 470 kΩ track.
+  const s = size({
+    supply_V: 12,
+    load_A: 1,
+    chain: "mosfet-logic",
+    load_kind: "lamp",
+    duty: [0.25, 0.75],
+    supply: { battery: "lead-acid" },
+  });
+  it("R_FS ≤ β_min·R_C·(10.5 − 1.4)/10.5 ≈ 2.5 MΩ beside 590 kΩ: the long half-period 19 % shorter", () => {
+    // Saturating Q_A from the rail needs I_B ≥ (V_cc,min/R_C)/β_min (forced gain at β_min, common practice);
+    // β_min of the high-gain class at 10.5 V/9.1 kΩ = 1.15 mA and −10 °C from its gain points (≈ 325).
+    // The half-period 0.69·R·C (Millman & Halkias) shortens by R_B/(R_B + R_FS) with R_FS in parallel.
+    const beta = hfeMin(NPN_HIGH_GAIN, 10.5 / 9100, -10);
+    const rFs = (beta * 9100 * 9.1) / 10.5;
+    expect(part(s, "RC_A").value).toBe(9100);
+    expect(part(s, "RB_A").value + part(s, "RV_DUTY").value).toBe(590e3);
+    const shift = 590e3 / (590e3 + rFs);
+    expectClose(shift, 0.189, 0.01);
+    const c = s.cautions.find((x) => x.startsWith("Lifted potentiometer wiper"))!;
+    expect(c).toContain(`by ${Math.round(shift * 100)} %`);
+    expect(c).toContain("No simple part fixes it here");
   });
 });
