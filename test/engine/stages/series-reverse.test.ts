@@ -10,32 +10,9 @@
 import { describe, expect, it } from "vitest";
 import { sizeVariant } from "../../../src/engine/index.ts";
 import { diodeClassVf_V } from "../../../src/engine/shared/diode.ts";
-import type { DiodeClass } from "../../../src/model/device.ts";
 import type { SizedVariant } from "../../../src/model/sized.ts";
 import { expectClose } from "../../helpers/close.ts";
-import { NPN_HIGH_GAIN, type SpecOpts, makeSpec } from "../fixtures.ts";
-
-/**
- * A 30 A 45 V Schottky in TO-247 (dual, halves paralleled), local to this test: typical values from
- * memory, to show a series diode that carries the current (the library's largest is 10 A).
- */
-const SCHOTTKY_30A: DiodeClass = {
-  id: "diode-schottky-30a",
-  family: "diode",
-  title: "Schottky 45 V 30 A, TO-247",
-  package: "TO-247",
-  tj_max_C: 150,
-  rth_ja_KperW: 40,
-  rth_jc_KperW: 1,
-  vrrm_V: 45,
-  if_avg_A: 30,
-  ifsm_A: 300,
-  vf_V: 0.6,
-  vf_at_A: 30,
-  trr_s: 1e-8,
-  recovery: "schottky",
-  sources: {},
-};
+import { NPN_HIGH_GAIN, SCHOTTKY_30A, type SpecOpts, makeSpec } from "../fixtures.ts";
 
 const base: SpecOpts = {
   supply_V: 12,
