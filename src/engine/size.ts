@@ -26,6 +26,7 @@ import { loadStage } from "./stages/load.ts";
 import { thermalStage } from "./stages/thermal.ts";
 import { reviewFailures } from "./stages/failure-modes.ts";
 import { protectionStage } from "./stages/protection.ts";
+import { seriesLoss_W } from "./stages/series-reverse.ts";
 import { cautions, checkProblems, verdictLead } from "./stages/feasibility.ts";
 import { decideVerdict } from "./stages/verdict.ts";
 import { type RcLowered, designDecisions } from "./stages/decisions.ts";
@@ -122,7 +123,9 @@ function sizeInner(spec: VariantSpec): SizedVariant {
     w.f.lo,
     w.f.hi,
     w.dMin.lo,
-    power === undefined ? undefined : { role: power.role, dev: power.dev },
+    power === undefined
+      ? undefined
+      : { role: power.role, dev: power.dev, ...(fin.drive === undefined ? {} : { drive: fin.drive }) },
   );
   const pIn = ctx.vMax_V * ctx.iMax_A * Math.min(1, w.dMax.hi);
   const pNominal = nominalDissipation(ctx, timing.figures, fin.losses, load.iOn_A, vSwNom_V, w.f.hi, timing.fCtrl1_Hz);
@@ -212,8 +215,8 @@ function sizeInner(spec: VariantSpec): SizedVariant {
       efficiency,
       "",
       "chain",
-      "η = 1 − (ΣP_transistors + ΣP_resistors, zeners + P_freewheel) / (V_cc,max · I_max · D_max); each " +
-        "resistor at its worst-case dissipation",
+      "η = 1 − (ΣP_transistors + ΣP_resistors, zeners + P_freewheel + P_series diode) / (V_cc,max · I_max · " +
+        "D_max); each resistor at its worst-case dissipation",
       "derived",
     ),
   ]);
@@ -320,7 +323,9 @@ function driverLoss_W(parts: Part[], losses: DeviceLoss[], ctx: ReturnType<typeo
     fw === undefined || fwDev === undefined
       ? 0
       : Math.max(0, diodeClassVf_V(fwDev, ctx.iMax_A, NOMINAL_TEMP_C)) * ctx.iMax_A * (1 - dMax);
-  return transistors + passive + pFw;
+  // A series reverse diode carries the load's current while it is on (and the core's all the time).
+  const pSeries = ctx.series === undefined ? 0 : seriesLoss_W(ctx.series.dev, ctx.iMax_A) * dMax;
+  return transistors + passive + pFw + pSeries;
 }
 
 /** Keep the first figure of each key (stages never mean to produce two; this guards the contract). */

@@ -81,6 +81,7 @@ export const DEVICE_ROLES = [
   "freewheel_diode",
   "signal_diode",
   "reverse_diode",
+  "reverse_series_diode",
   "gate_zener",
 ] as const;
 export type DeviceRole = (typeof DEVICE_ROLES)[number];
@@ -97,6 +98,7 @@ export const ROLE_FAMILY = {
   freewheel_diode: "diode",
   signal_diode: "diode",
   reverse_diode: "diode",
+  reverse_series_diode: "diode",
   gate_zener: "zener",
 } as const satisfies Record<DeviceRole, DeviceFamily>;
 

@@ -52,6 +52,8 @@ export const SUPPLY: StageLayout = {
   width: 280,
   slots: {
     F_SUPPLY: { x: 45, y: 50, rot: 270, label: "below" },
+    // A series reverse diode sits in the rail after the fuse (then no shunt D_REVERSE is fitted).
+    D_SERIES: { x: 120, y: 50, rot: 270, label: "below" },
     D_REVERSE: { x: 120, y: 140, rot: 180 },
     C_BULK: { x: 200, y: 140 },
   },

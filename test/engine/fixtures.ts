@@ -5,7 +5,7 @@
  */
 import { readFileSync, readdirSync } from "node:fs";
 import { join } from "node:path";
-import type { BjtClass, DeviceClass, DeviceLibrary } from "../../src/model/device.ts";
+import type { BjtClass, DeviceClass, DeviceLibrary, DiodeClass } from "../../src/model/device.ts";
 import type { DeratingPolicy } from "../../src/model/derating.ts";
 import type { DesignRecord, DeviceRole } from "../../src/model/design.ts";
 import type { ChainKind, LoadKind } from "../../src/model/kinds.ts";
@@ -97,6 +97,28 @@ export const NPN_HIGH_GAIN: BjtClass = {
       confidence: "from-memory",
     },
   },
+};
+
+/**
+ * A 30 A 45 V Schottky in TO-247 (dual, halves paralleled), local to this test: typical values from
+ * memory, to show a series reverse diode that carries the current (the library's largest is 10 A).
+ */
+export const SCHOTTKY_30A: DiodeClass = {
+  id: "diode-schottky-30a",
+  family: "diode",
+  title: "Schottky 45 V 30 A, TO-247",
+  package: "TO-247",
+  tj_max_C: 150,
+  rth_ja_KperW: 40,
+  rth_jc_KperW: 1,
+  vrrm_V: 45,
+  if_avg_A: 30,
+  ifsm_A: 300,
+  vf_V: 0.6,
+  vf_at_A: 30,
+  trr_s: 1e-8,
+  recovery: "schottky",
+  sources: {},
 };
 
 export function makeSpec(o: SpecOpts): VariantSpec {

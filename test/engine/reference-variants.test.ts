@@ -12,6 +12,7 @@ import { attachAlternatives, sizeVariant } from "../../src/engine/index.ts";
 import type { SizedVariant } from "../../src/model/sized.ts";
 import { expectClose } from "../helpers/close.ts";
 import { NPN_HIGH_GAIN, type SpecOpts, makeSpec, policy } from "./fixtures.ts";
+import { hfeMin } from "../../src/engine/shared/gain.ts";
 
 const hg = { override: { timing_npn: NPN_HIGH_GAIN } };
 const size = (o: SpecOpts): SizedVariant => sizeVariant(makeSpec({ ...hg, ...o }));
@@ -496,5 +497,103 @@ describe("R9b — a coil that cannot pull in at the end of discharge is not feas
     expect(s.verdict.status).toBe("not-feasible");
     expect(s.verdict.blocking.map((b) => b.rule)).toContain("solenoid-pull-in");
     expect(s.feasible).toBe(false);
+  });
+});
+
+describe("R10 — 12 V lead-acid, 3 A lamp, mosfet-driver: the gate drive limits the cold-filament start", () => {
+  const s = size({
+    supply_V: 12,
+    load_A: 3,
+    chain: "mosfet-driver",
+    load_kind: "lamp",
+    duty: [0.25, 0.75],
+    supply: { battery: "lead-acid" },
+  });
+  it("the peak 15 × 3 A × 14.7/12 = 55.1 A is within the class's 120 A I_DM (from memory)", () => {
+    const pk = s.checks.find((c) => c.quantity === "peak" && c.rating === 120)!;
+    expectClose(pk.stress, 55.125, 1e-9);
+    expect(pk.verdict).toBe("pass");
+  });
+  // Square law above the knee (Sedra & Smith, MOSFET chapter, from memory).
+  it("but the gate reaches only 7.07 V: K/2·(7.07 − 4)² = 9.425/(2·0.168) = 28.05 A", () => {
+    // 1/K = 0.7·0.040 Ω·(10 − 4) V = 0.168 (one R_DS(on) point, 70 % channel, from memory); V_th,max 4 V.
+    const vg = fig(s, "gate_voltage_min");
+    expectClose(vg, 7.07, 1e-9);
+    expectClose(fig(s, "drive_limit_current"), (vg - 4) ** 2 / (2 * 0.168), 1e-9);
+  });
+  it("the switch holds 28.05·(14.7 − 28.05·0.2667) = 202.5 W for 2·10 ms·ln(51.45/24.375) = 14.9 ms: too much", () => {
+    // R_cold = 14.7/55.125 = 0.2667 Ω; I_run = 3 × 14.7/12 = 3.675 A. P(I) peaks at I = V/(2R_cold) = 27.6 A,
+    // below the drive's 28.05 A, so the drive's own limit is the worst point of the scan.
+    // SOA (nmos classes, from memory): 150 W at 10 ms, 90 W at 100 ms, log-log at 14.94 ms = 137.2 W at 25 °C,
+    // × (175 − 40)/(175 − 25) = 0.9 at 40 °C → 123.5 W allowed (derating common practice).
+    const i = fig(s, "drive_limit_current");
+    const soa = s.checks.find((c) => c.quantity === "soa")!;
+    expectClose(soa.stress, i * (14.7 - (i * 14.7) / 55.125), 1e-9);
+    const t = 2 * 0.01 * Math.log(51.45 / (i - 3.675));
+    expectClose(t, 0.01494, 1e-3);
+    expectClose(soa.rating, Math.exp(Math.log(150) + (Math.log(t / 0.01) / Math.log(10)) * Math.log(90 / 150)), 1e-9);
+    expectClose(soa.allowed, 0.9, 1e-12);
+    expect(soa.verdict).toBe("fail");
+    expect(s.feasible).toBe(false);
+  });
+});
+
+describe("R5b — the start-up peak above every class the chain can use is said plainly", () => {
+  const s = size({ supply_V: 12, load_A: 1, chain: "bjt-driver-pnp", load_kind: "lamp" });
+  it("16.5 A cold-filament peak vs the largest PNP class's 10 A I_CM (absolute maximum, common practice)", () => {
+    const p = s.problems.find((x) => x.rule === "peak-above-pulse-rating")!;
+    expect(p.severity).toBe("error");
+    expect(p.message).toContain("no class covers it");
+    expectClose(p.params.actual!, 16.5, 1e-9);
+    expect(p.params.limit).toBe(10);
+    // The stage's own words replace the generic derating line for the same part and quantity.
+    expect(s.problems.some((x) => x.rule === "derating-peak")).toBe(false);
+    expect(s.verdict.blocking.map((b) => b.rule)).toContain("peak-above-pulse-rating");
+  });
+});
+
+describe("R11 — 12 V lead-acid, 5 A LED strip, mosfet-logic: a 15 A fuse needs the 600 A shunt diode", () => {
+  const s = size({
+    supply_V: 12,
+    load_A: 5,
+    chain: "mosfet-logic",
+    load_kind: "led",
+    supply: { battery: "lead-acid" },
+  });
+  it("clearing ≤ (6 × 15 A)²·0.1 s·1.2 = 972 A²s: 400 A I_FSM gives 400²/240 = 666.7 A²s, 600 A gives 1500 A²s", () => {
+    // ISO 8820-3 600 % gate (from memory); surge I²t = I_FSM²·8.3 ms/2 (half-sine, derived); the fuse opens
+    // first (common practice).
+    expect(part(s, "F_SUPPLY").value).toBe(15);
+    expect(s.spec.devices.reverse_diode.id).toBe("diode-rectifier-10a");
+    const c = s.checks.find((x) => x.ref === part(s, "D_REVERSE").ref && x.quantity === "i2t")!;
+    expectClose(c.stress, 972, 1e-9);
+    expectClose(c.rating, (600 * 600) / 240, 1e-9);
+    expect(c.verdict).toBe("pass");
+  });
+});
+
+describe("R6b — a lifted wiper in a non-inverting chain: why no one resistor makes it fail safe", () => {
+  // R6 again: mosfet-logic listens to collector A (RG on `ca`); R_C = 9.1 kΩ, R_B,max = 120 kΩ + 470 kΩ track.
+  const s = size({
+    supply_V: 12,
+    load_A: 1,
+    chain: "mosfet-logic",
+    load_kind: "lamp",
+    duty: [0.25, 0.75],
+    supply: { battery: "lead-acid" },
+  });
+  it("R_FS ≤ β_min·R_C·(10.5 − 1.4)/10.5 ≈ 2.5 MΩ beside 590 kΩ: the long half-period 19 % shorter", () => {
+    // Saturating Q_A from the rail needs I_B ≥ (V_cc,min/R_C)/β_min (forced gain at β_min, common practice);
+    // β_min of the high-gain class at 10.5 V/9.1 kΩ = 1.15 mA and −10 °C from its gain points (≈ 325).
+    // The half-period 0.69·R·C (Millman & Halkias) shortens by R_B/(R_B + R_FS) with R_FS in parallel.
+    const beta = hfeMin(NPN_HIGH_GAIN, 10.5 / 9100, -10);
+    const rFs = (beta * 9100 * 9.1) / 10.5;
+    expect(part(s, "RC_A").value).toBe(9100);
+    expect(part(s, "RB_A").value + part(s, "RV_DUTY").value).toBe(590e3);
+    const shift = 590e3 / (590e3 + rFs);
+    expectClose(shift, 0.189, 0.01);
+    const c = s.cautions.find((x) => x.startsWith("Lifted potentiometer wiper"))!;
+    expect(c).toContain(`by ${Math.round(shift * 100)} %`);
+    expect(c).toContain("No simple part fixes it here");
   });
 });

@@ -7,7 +7,7 @@
 import type { DesignRecord, DeviceRole } from "../../model/design.ts";
 import type { ChainKind } from "../../model/kinds.ts";
 import { DEVICE_ROLES, ROLE_FAMILY } from "../../model/design.ts";
-import type { BjtClass, DeviceClass, DeviceLibrary, ZenerClass } from "../../model/device.ts";
+import type { BjtClass, DeviceClass, DeviceLibrary, DiodeClass, ZenerClass } from "../../model/device.ts";
 import { EngineMisuseError } from "../../model/errors.ts";
 import { hfeMin, vbeSat, vceSat } from "../shared/gain.ts";
 import { getDevice, isBjt, isDiode, isMosfet, isZener } from "./library.ts";
@@ -16,6 +16,7 @@ import { diodeSurgeI2t_A2s } from "../shared/fuse.ts";
 import { loadModel } from "../shared/loads.ts";
 import { runningCurrentMax_A } from "../stages/context.ts";
 import { startEvent, supplyFuse } from "../stages/protection.ts";
+import { CORE_CURRENT_ESTIMATE_A } from "../stages/reverse.ts";
 import { FREEWHEEL_DROP_V } from "../stages/chains/common.ts";
 
 /** Candidate classes per role in order of preference (documented in docs/method.md). */
@@ -32,8 +33,10 @@ export const DEFAULT_DEVICE_IDS: Readonly<Record<DeviceRole, readonly string[]>>
   mosfet_standard: ["nmos-standard"],
   freewheel_diode: ["diode-rectifier-1a", "diode-schottky-3a", "diode-fast-3a", "diode-schottky-10a"],
   signal_diode: ["diode-signal"],
-  // Shunt reverse-polarity diodes by surge rating: 30 A, 200 A, 400 A I_FSM.
-  reverse_diode: ["diode-rectifier-1a", "diode-rectifier-3a", "diode-rectifier-6a"],
+  // Shunt reverse-polarity diodes by surge rating: 30 A, 200 A, 400 A, 600 A I_FSM.
+  reverse_diode: ["diode-rectifier-1a", "diode-rectifier-3a", "diode-rectifier-6a", "diode-rectifier-10a"],
+  // Series reverse-polarity diodes (where no shunt diode outlasts the fuse): Schottky for the least drop.
+  reverse_series_diode: ["diode-schottky-3a", "diode-schottky-10a"],
   // Highest rail first (most gate drive), then the smaller power class; see `zenerFits`.
   gate_zener: ["zener-12v-0w5", "zener-12v-1w", "zener-10v-1w", "zener-8v2-1w"],
 };
@@ -69,11 +72,6 @@ const ZENER_RAIL_CURRENT_A = 0.012;
 const ZENER_POWER_HEADROOM = 0.5;
 /** Standard-recovery rectifiers only up to this PWM frequency (recovery of several µs). */
 const STANDARD_RECOVERY_MAX_Hz = 1000;
-/**
- * Timing-core supply current assumed when choosing the fuse ahead of sizing (tens of mA; the engine's own check
- * follows).
- */
-const CORE_CURRENT_ESTIMATE_A = 0.05;
 
 /**
  * Driver current per ampere of load when it drives a power PNP (bjt-driver-pnp): the PNP's base
@@ -145,6 +143,7 @@ const RULED_ROLES: ReadonlySet<DeviceRole> = new Set([
   "mosfet_standard",
   "freewheel_diode",
   "reverse_diode",
+  "reverse_series_diode",
   "gate_zener",
 ]);
 /** The reason given for a role's first class when no selection rule applies (the checks judge it). */
@@ -155,7 +154,6 @@ export const PREFERRED_REASON = "the preferred class for this role";
  * rule take the first). The reasons are shown on the page as the design decision's record.
  */
 function whyNot(role: DeviceRole, d: DeviceClass, n: Need): string | null {
-  const vMax = n.vMax_V;
   if (isBjt(d) && (role === "power_npn" || role === "power_pnp")) {
     if (d.ic_max_A * SWITCH_HEADROOM < n.load_A)
       return `I_C,max ${f3(d.ic_max_A)} A × 75 % is below the ${f3(n.load_A)} A load`;
@@ -173,24 +171,43 @@ function whyNot(role: DeviceRole, d: DeviceClass, n: Need): string | null {
       ? null
       : `${d.package} in free air at full duty runs over ${Math.min(125, d.tj_max_C - 40)} °C`;
   }
-  if (isMosfet(d))
-    return d.vds_V * SWITCH_HEADROOM >= n.vOff_V ? null : `V_DS ${f3(d.vds_V)} V × 75 % is below ${f3(n.vOff_V)} V`;
-  if (isDiode(d) && role === "freewheel_diode") {
+  if (isMosfet(d)) {
+    if (d.vds_V * SWITCH_HEADROOM < n.vOff_V) return `V_DS ${f3(d.vds_V)} V × 75 % is below ${f3(n.vOff_V)} V`;
+    // As for a BJT: the start-up peak may reach but not exceed the pulse rating I_DM.
+    return (d.idm_A ?? d.id_A) < n.peak_A
+      ? `pulse rating ${f3(d.idm_A ?? d.id_A)} A is below the ${f3(n.peak_A)} A start-up peak`
+      : null;
+  }
+  if (isZener(d) && role === "gate_zener") return zenerWhyNot(d, n);
+  if (isDiode(d)) return diodeWhyNot(role, d, n);
+  return null;
+}
+
+/** whyNot for the diode roles: freewheel, shunt and series reverse-polarity. */
+function diodeWhyNot(role: DeviceRole, d: DiodeClass, n: Need): string | null {
+  const vMax = n.vMax_V;
+  if (role === "freewheel_diode") {
     if (d.recovery === "standard" && n.pwm_Hz > STANDARD_RECOVERY_MAX_Hz)
       return `standard recovery is too slow above ${STANDARD_RECOVERY_MAX_Hz} Hz PWM`;
     if (d.if_avg_A * DIODE_CURRENT_HEADROOM < freewheelCurrent_A(n))
       return `I_F(AV) ${f3(d.if_avg_A)} A × 50 % is below the ${f3(freewheelCurrent_A(n))} A it carries`;
     return d.vrrm_V * DIODE_VOLTAGE_HEADROOM >= vMax ? null : `V_RRM ${f3(d.vrrm_V)} V × 70 % is below ${f3(vMax)} V`;
   }
-  if (isZener(d) && role === "gate_zener") return zenerWhyNot(d, n);
   // Coordinated with the fuse the variant gets (protection.ts): the diode's surge I²t must exceed
   // the fuse's clearing I²t, so the fuse opens first on a reversed battery.
-  if (isDiode(d) && role === "reverse_diode") {
+  if (role === "reverse_diode") {
     if (diodeSurgeI2t_A2s(d.ifsm_A) < n.fuseClearing_A2s)
       return (
         `surge I²t ${f3(diodeSurgeI2t_A2s(d.ifsm_A))} A²s is below the fuse's ` +
         `${f3(n.fuseClearing_A2s)} A²s clearing I²t`
       );
+    return d.vrrm_V * DIODE_VOLTAGE_HEADROOM >= vMax ? null : `V_RRM ${f3(d.vrrm_V)} V × 70 % is below ${f3(vMax)} V`;
+  }
+  // In series with the supply it carries the whole running current and blocks a reversed battery.
+  if (role === "reverse_series_diode") {
+    const i = n.iRunMax_A + CORE_CURRENT_ESTIMATE_A;
+    if (d.if_avg_A * DIODE_CURRENT_HEADROOM < i)
+      return `I_F(AV) ${f3(d.if_avg_A)} A × 50 % is below the ${f3(i)} A it carries`;
     return d.vrrm_V * DIODE_VOLTAGE_HEADROOM >= vMax ? null : `V_RRM ${f3(d.vrrm_V)} V × 70 % is below ${f3(vMax)} V`;
   }
   return null;

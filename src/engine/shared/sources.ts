@@ -386,7 +386,9 @@ export const SOURCES = {
     short: "Sedra & Smith, Microelectronic Circuits",
     title: "A. S. Sedra, K. C. Smith, Microelectronic Circuits (Oxford University Press)",
     edition: "edition not pinned",
-    where: "the BJT chapter: i_C–v_BE exponential law and base spreading resistance",
+    where:
+      "the BJT chapter: i_C–v_BE exponential law, base spreading resistance, saturation (I_C < β·I_B); the " +
+      "MOSFET chapter: the square law above the knee",
     sureness: "from-memory",
     confidence: "from-memory",
     note:
@@ -396,6 +398,16 @@ export const SOURCES = {
       {
         item: "junction voltage against current",
         value: "V_BE,2 = V_BE,1 + V_T·ln(I_C2/I_C1)",
+        sureness: "from-memory",
+      },
+      {
+        item: "a BJT stays saturated only while",
+        value: "I_C < β·I_B; above it I_C ≈ β·I_B (active region)",
+        sureness: "from-memory",
+      },
+      {
+        item: "MOSFET drain current above the knee (level-1 square law)",
+        value: "I_D = K/2·(V_GS − V_th)², with R_ch = 1/(K·(V_GS − V_th)) below it",
         sureness: "from-memory",
       },
     ],

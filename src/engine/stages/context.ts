@@ -8,6 +8,7 @@ import type { LoadModel } from "../shared/loads.ts";
 import { loadModel } from "../shared/loads.ts";
 import type { SwitchingKind } from "../shared/losses.ts";
 import { SERIES_TOLERANCE } from "../shared/e-series.ts";
+import { type SeriesReverse, seriesReverse } from "./reverse.ts";
 
 /** Potentiometer track tolerance, ±20 % (common practice for carbon and cermet pots). */
 export const POT_TOLERANCE = 0.2;
@@ -34,18 +35,30 @@ export interface Ctx {
   rTol: number;
   cTol: number;
   highSide: boolean;
+  /**
+   * A series reverse-polarity diode (stages/reverse.ts), when the variant has one: vMin_V and vNom_V are then
+   * the rail after it (its drop taken off), vMax_V the supply's (the highest stresses).
+   */
+  series?: SeriesReverse;
+  /** The supply itself (before any series diode): the fuse and the reverse protection see it. */
+  supply: { min_V: number; nom_V: number; max_V: number };
 }
 
 export function makeContext(spec: VariantSpec): Ctx {
   const t = spec.targets;
-  const vNom_V = spec.supply_V;
   // The supply's real range (a battery's end of discharge … charging, or the record's window).
-  const vMin_V = spec.supply_window.min_V;
-  const vMax_V = spec.supply_window.max_V;
+  const supply = { min_V: spec.supply_window.min_V, nom_V: spec.supply_V, max_V: spec.supply_window.max_V };
+  // The load is rated at the record's nominal supply; the circuit runs from the rail after a series diode.
+  const series = seriesReverse(spec);
+  const vNom_V = supply.nom_V - (series?.dropNom_V ?? 0);
+  const vMin_V = supply.min_V - (series?.dropMin_V ?? 0);
+  const vMax_V = supply.max_V;
   const coil = spec.solenoid === undefined ? undefined : { tau_s: spec.solenoid.tau_ms * 1e-3 };
-  const load = loadModel(spec.load_kind, vNom_V, spec.load_A, coil);
-  const iMax_A = runningCurrentMax_A(spec.load_kind, load, spec.load_A, vNom_V, vMax_V);
+  const load = loadModel(spec.load_kind, supply.nom_V, spec.load_A, coil);
+  const iMax_A = runningCurrentMax_A(spec.load_kind, load, spec.load_A, supply.nom_V, vMax_V);
   return {
+    ...(series === undefined ? {} : { series }),
+    supply,
     spec,
     vNom_V,
     vMin_V,

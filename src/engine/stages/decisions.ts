@@ -27,6 +27,7 @@ const DEVICE_ROLE_OF: Partial<Record<PartRole, DeviceRole>> = {
   DBAL: "signal_diode",
   DZ: "gate_zener",
   D_REVERSE: "reverse_diode",
+  D_SERIES: "reverse_series_diode",
   D_FREEWHEEL: "freewheel_diode",
 };
 

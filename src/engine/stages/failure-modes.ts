@@ -16,6 +16,8 @@ import type { BjtClass, MosfetClass } from "../../model/device.ts";
 import type { Figure } from "../../model/figure.ts";
 import type { VerdictCondition } from "../../model/sized.ts";
 import { figure } from "../shared/figures.ts";
+import { hfeMin } from "../shared/gain.ts";
+import { formatValue } from "../../model/format.ts";
 import type { Ctx } from "./context.ts";
 import type { DeviceLoss } from "./chains/types.ts";
 
@@ -45,7 +47,45 @@ const LOAD_WORD: Record<string, string> = {
   solenoid: "valve coil",
 };
 
-function wiperFault(ctx: Ctx): string {
+/**
+ * Could one resistor make a lifted wiper fail safe in a non-inverting chain? R_FS from the rail to
+ * the tapped timing transistor's base would hold it on when the potentiometer stops feeding it (its
+ * collector low, the chain input low, the load off). Saturating it needs
+ * I_B = (V_cc,min − V_BE − V_D)/R_FS ≥ (V_cc,min/R_C)/β_min, i.e. R_FS ≤ β_min·R_C·(V_cc,min − 1.4 V)/V_cc,min
+ * (forced gain at β_min, no overdrive: the least it takes; common practice). In normal running R_FS
+ * sits in parallel with that side's base resistance, which at the long end of the control is
+ * R_B,max = end stop + whole track: the half-period 0.69·R·C shortens by R_B,max/(R_B,max + R_FS)
+ * (Millman & Halkias, the astable's half-period [src:millman-halkias-1972]). Fitted only when that
+ * is at most FAILSAFE_MAX_SHIFT (ours) would it be simple; the caution says which, with the numbers.
+ */
+export const FAILSAFE_MAX_SHIFT = 0.05;
+
+export interface FailSafeStudy {
+  rFsMax_ohm: number;
+  rBMax_ohm: number;
+  /** Share by which the long half-period would shorten with R_FS at its largest. */
+  shift: number;
+  ref: string;
+}
+
+export function failSafeStudy(ctx: Ctx, parts: Part[]): FailSafeStudy | undefined {
+  // The chain's input resistor on the tapped collector: the tap resistor, or mosfet-logic's gate feed.
+  const rt = parts.find((p) => (p.role === "RT" || p.role === "RG") && (p.pins.a === "ca" || p.pins.a === "cb"));
+  const side = rt?.pins.a === "ca" ? "A" : rt?.pins.a === "cb" ? "B" : undefined;
+  if (side === undefined) return undefined;
+  const rc = parts.find((p) => p.role === `RC_${side}`)?.value;
+  const rb = parts.find((p) => p.role === `RB_${side}`)?.value;
+  const pot = parts.find((p) => p.role === "RV_DUTY")?.value;
+  const q = parts.find((p) => p.role === `Q_${side}`);
+  if (rc === undefined || rb === undefined || pot === undefined || q === undefined) return undefined;
+  const v = ctx.vMin_V;
+  const beta = hfeMin(ctx.spec.devices.timing_npn as BjtClass, v / rc, ctx.taMin_C);
+  const rFsMax_ohm = (beta * rc * Math.max(0, v - 1.4)) / v;
+  const rBMax_ohm = rb + pot;
+  return { rFsMax_ohm, rBMax_ohm, shift: rBMax_ohm / (rBMax_ohm + rFsMax_ohm), ref: q.ref || q.role };
+}
+
+function wiperFault(ctx: Ctx, study?: FailSafeStudy): string {
   const load = LOAD_WORD[ctx.spec.load_kind] ?? "load";
   if (ctx.spec.chain === "mosfet-driver") {
     return (
@@ -57,7 +97,18 @@ function wiperFault(ctx: Ctx): string {
     `Lifted potentiometer wiper (worn or dirty track): both timing transistors lose their base feed and turn ` +
     `off, both collectors rise to the rail, and this non-inverting chain holds the ${load} fully on at every ` +
     `setting. Use a sealed (cermet) potentiometer, and keep an independent way to switch the ${load} ` +
-    `off${ctx.spec.load_kind === "resistive" ? " (and the heater's over-temperature cut-out)" : ""}.`
+    `off${ctx.spec.load_kind === "resistive" ? " (and the heater's over-temperature cut-out)" : ""}.` +
+    (study === undefined
+      ? ""
+      : study.shift <= FAILSAFE_MAX_SHIFT
+        ? ` A resistor of ≤ ${formatValue(study.rFsMax_ohm, "Ω")} from the rail to ${study.ref}'s base would hold ` +
+          `it on when the wiper lifts (load off), shortening the long half-period by only ` +
+          `${Math.round(study.shift * 100)} %; this engine does not fit it yet.`
+        : ` No simple part fixes it here: a resistor from the rail to ${study.ref}'s base would hold it on when ` +
+          `the wiper lifts (load off) only at ≤ ${formatValue(study.rFsMax_ohm, "Ω")}, and beside the ` +
+          `${formatValue(study.rBMax_ohm, "Ω")} base resistance at the end of the control it would shorten that ` +
+          `half-period by ${Math.round(study.shift * 100)} % and narrow the duty range. The inverting chain ` +
+          `(driven MOSFET) turns the load off instead.`)
   );
 }
 
@@ -112,7 +163,7 @@ export function reviewFailures(
   perRole: Map<string, { p_W: number; tj_C: number }>,
   heatsunk: ReadonlySet<string> = new Set(),
 ): FailureReview {
-  const cautions = [wiperFault(ctx), inputFault(ctx), shortFault(ctx)];
+  const cautions = [wiperFault(ctx, failSafeStudy(ctx, parts)), inputFault(ctx), shortFault(ctx)];
   const partNotes = new Map<string, string>();
   const figures: Figure[] = [];
   const conditions: VerdictCondition[] = [];

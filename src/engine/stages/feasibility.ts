@@ -25,6 +25,7 @@ const RULE_QUANTITY: Record<string, string> = {
   "tj-over-limit": "tj",
   "heatsink-too-small": "tj",
   "reverse-surge": "i2t",
+  "peak-above-pulse-rating": "peak",
 };
 
 export function checkProblems(checks: StressCheck[], existing: DesignProblem[]): DesignProblem[] {

@@ -62,10 +62,11 @@ export function loadStage(
     iOn_A = ctx.iNom_A;
     spice = { ...spice, vf_V: Math.max(0, emf) };
     formula = "I = I_rated (constant torque); E = D·(V_cc − V_sw) − (1 − D)·V_F,fw − I·R at control 1";
-    share = emf > 0 ? vLoad_V / ctx.vNom_V : 0;
+    // Against the supply itself: a series reverse diode's drop (ctx.series) is the load's loss too.
+    share = emf > 0 ? vLoad_V / ctx.supply.nom_V : 0;
     what =
       emf > 0
-        ? `gets ${vLoad_V.toPrecision(3)} V of the ${ctx.vNom_V} V supply when on`
+        ? `gets ${vLoad_V.toPrecision(3)} V of the ${ctx.supply.nom_V} V supply when on`
         : `cannot draw its rated ${ctx.iNom_A} A even at the highest duty (back-EMF would be ${emf.toPrecision(3)} V)`;
     emfNote = ` E = ${Math.max(0, emf).toPrecision(3)} V at D = ${pct(dutyOn)}.`;
   }
@@ -89,7 +90,9 @@ export function loadStage(
         "/parts/LOAD",
         "load-starved",
         "error",
-        `The switch drops ${vSwNom_V.toFixed(2)} V when on, so the ` +
+        `The switch drops ${vSwNom_V.toFixed(2)} V when on` +
+          (ctx.series ? ` (and the series reverse diode ${ctx.series.dropNom_V.toFixed(2)} V)` : "") +
+          `, so the ` +
           `${kind === "led" ? "LED strip" : kind === "resistive" ? "heater" : kind} ${what} (below ` +
           `${pct(STARVED_FRACTION)}): choose a chain with a lower on-voltage (a MOSFET chain, or fewer ` +
           `Darlington stages).`,
@@ -102,10 +105,10 @@ export function loadStage(
     kind: KIND[kind]!,
     stage: "load",
     role: "LOAD",
-    value: ctx.vNom_V * ctx.iNom_A,
+    value: ctx.supply.nom_V * ctx.iNom_A,
     unit: "W",
-    description: `${kind} load, ${ctx.vNom_V} V ${ctx.iNom_A} A rated — ${ctx.load.note}${emfNote}`,
-    rating: { voltage_V: ctx.vNom_V, current_A: ctx.iNom_A },
+    description: `${kind} load, ${ctx.supply.nom_V} V ${ctx.iNom_A} A rated — ${ctx.load.note}${emfNote}`,
+    rating: { voltage_V: ctx.supply.nom_V, current_A: ctx.iNom_A },
     stress: { voltage_V: ctx.vMax_V, current_A: ctx.iMax_A },
     pins,
     spice,

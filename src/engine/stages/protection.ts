@@ -47,6 +47,9 @@ import type { Ctx } from "./context.ts";
 import type { LoadModel } from "../shared/loads.ts";
 import type { VariantSpec } from "../../model/variant.ts";
 import { capRating_V } from "./timing-parts.ts";
+import type { DriveLimit } from "./chains/types.ts";
+import { drivePulse, pulsePower_W } from "../shared/drive-limit.ts";
+import { seriesReverseStage } from "./series-reverse.ts";
 
 export const BULK_PER_A_F = 100e-6;
 export const BULK_MIN_F = 100e-6;
@@ -149,7 +152,7 @@ export function protectionStage(
   fMin_Hz: number,
   fMax_Hz: number,
   dutyMinLo: number,
-  power?: { role: PartRole; dev: BjtClass | MosfetClass },
+  power?: { role: PartRole; dev: BjtClass | MosfetClass; drive?: DriveLimit },
 ): ProtectionResult {
   const pol = ctx.spec.policy;
   const D = ctx.spec.devices;
@@ -165,33 +168,7 @@ export function protectionStage(
   const ev = startEvent(sp);
 
   // Declared inrush limit: its effect is counted above; the builder must fit it (a condition).
-  if (lim?.kind === "current-limit") {
-    if (!(lim.limit_A > ev.iRun_A)) {
-      problems.push(
-        problem(
-          "protection",
-          "/protection/inrush_limit/limit_A",
-          "current-limit-too-low",
-          "error",
-          `The declared current limit of ${lim.limit_A} A is not above the ${ev.iRun_A.toPrecision(3)} A the ` +
-            `load draws running at ${ctx.vMax_V.toPrecision(3)} V: the load would never start. Raise the limit.`,
-          { limit: ev.iRun_A, actual: lim.limit_A, unit: "A" },
-        ),
-      );
-    } else {
-      conditions.push({
-        rule: "inrush-limit",
-        path: "/protection/inrush_limit",
-        text: `a current limit of ≤ ${lim.limit_A} A in the load path (not drawn in this schematic)`,
-      });
-    }
-  } else if (lim?.kind === "soft-start") {
-    conditions.push({
-      rule: "inrush-limit",
-      path: "/protection/inrush_limit",
-      text: `a soft start ramping the duty from 0 over ≥ ${lim.ramp_s} s (not drawn in this schematic)`,
-    });
-  }
+  declaredLimit(ctx, ev.iRun_A, problems, conditions);
   // The start-up peak by load kind: a coil's R–L step, a lamp's cold filament, a motor's stall.
   const peakBasis: [string, SourceKey] | undefined =
     ctx.spec.load_kind === "solenoid"
@@ -276,6 +253,12 @@ export function protectionStage(
     }
   }
 
+  if (power !== undefined) {
+    const top = lim?.kind === "current-limit" ? Math.min(ev.iPeak_A, lim.limit_A) : ev.iPeak_A;
+    peakProblem(ctx, power, top, ev.what, problems);
+    if (power.drive !== undefined) driveLimitedStart(ctx, { ...power, drive: power.drive }, top, figures, checks);
+  }
+
   // Fuse: the smallest rating that carries the worst-case current and rides through the start-up.
   const last = FUSE_FAMILIES[FUSE_FAMILIES.length - 1]!;
   const rLast = last.ratings_A[last.ratings_A.length - 1]!;
@@ -311,7 +294,7 @@ export function protectionStage(
       `${iCont.toPrecision(3)} A worst case; start-up ${su.i2t_A2s.toPrecision(2)} A²s`,
     rating: { current_A: fuse.rating_A, voltage_V: fam.voltage_V },
     stress: { current_A: iCont, voltage_V: ctx.vMax_V },
-    pins: { a: "vcc", b: "vbus" },
+    pins: { a: "vcc", b: ctx.series ? "vrp" : "vbus" },
   });
   const share = fuseContinuousShare(ctx.taMax_C);
   checks.push({
@@ -386,53 +369,19 @@ export function protectionStage(
     ),
   );
 
+  if (ctx.series !== undefined) {
+    const out = seriesReverseStage(ctx, ctx.series, iCont, su.i2t_A2s, fuse);
+    parts.push(out.part);
+    checks.push(...out.checks);
+    figures.push(...out.figures);
+    problems.push(...out.problems);
+    conditions.push(...out.conditions);
+  }
   // Shunt reverse-polarity diode: conducts the reversed battery's fault current until the fuse
-  // opens, so its surge I²t must exceed the fuse's clearing I²t.
+  // opens, so its surge I²t must exceed the fuse's clearing I²t. Not fitted behind a series diode.
   const rev = D.reverse_diode as DiodeClass;
   const clearing = fuse.clearingMax_A2s;
-  parts.push(
-    diode(
-      "supply",
-      "D_REVERSE",
-      rev,
-      { anode: "0", cathode: "vbus" },
-      { voltage_V: ctx.vMax_V, current_A: fam.gate.multiple * fuse.rating_A },
-      "shunt reverse-polarity protection: conducts when reversed, the fuse opens",
-    ),
-  );
-  checks.push(checkStress("D_REVERSE", "voltage", ctx.vMax_V, rev.vrrm_V, "V", pol.diode.voltage, pol.marginal_above));
-  const surge = {
-    ...checkStress(
-      "D_REVERSE",
-      "i2t",
-      clearing,
-      diodeSurgeI2t_A2s(rev.ifsm_A),
-      "A²s",
-      {
-        factor: 1,
-        ...cite("common-practice"),
-        note: `diode surge I²t = I_FSM²·8.3 ms/2 above the fuse's clearing I²t (${fam.note})`,
-      },
-      pol.marginal_above,
-    ),
-    what: "fuse clearing I²t vs the diode's surge I²t",
-  };
-  checks.push(surge);
-  if (surge.verdict === "fail")
-    problems.push(
-      problem(
-        "supply",
-        "/parts/D_REVERSE",
-        "reverse-surge",
-        "error",
-        `The reverse-polarity diode's surge rating (${rev.ifsm_A} A, ` +
-          `${diodeSurgeI2t_A2s(rev.ifsm_A).toPrecision(3)} A²s) is below the ${clearing.toPrecision(3)} A²s the ` +
-          `${fuse.rating_A} A fuse lets through before it clears: on a reversed battery the diode fails first. ` +
-          `Bind a diode class with a higher I_FSM, or use series reverse protection (a series Schottky or ` +
-          `P-MOSFET, not yet sized by this engine).`,
-        { limit: diodeSurgeI2t_A2s(rev.ifsm_A), actual: clearing, unit: "A²s" },
-      ),
-    );
+  if (ctx.series === undefined) shuntReverse(ctx, rev, fuse, clearing, parts, checks, problems);
   // A battery supplies the low-frequency current; the bulk capacitor covers the switching edges
   // against the wiring's inductance: ≈ 100 µF per ampere switched, at least 100 µF (rule of thumb, from memory).
   const cRated = capRating_V(ctx, ctx.vMax_V);
@@ -542,4 +491,214 @@ export function protectionStage(
       );
   }
   return { parts, figures, problems, checks, conditions };
+}
+
+/** Pulse (absolute maximum) current rating of a switch: I_CM / I_DM, else the continuous rating. */
+export function pulseRating_A(dev: BjtClass | MosfetClass): number {
+  return dev.family === "nmos" ? (dev.idm_A ?? dev.id_A) : (dev.icm_A ?? dev.ic_max_A);
+}
+
+/**
+ * The start-up peak above the switch's pulse rating, said plainly: the chooser took the first class
+ * whose pulse rating covers the peak (devices/choose.ts), so when this fails either the record binds
+ * the class or no class of the library covers it. The check itself is in chains/common.ts.
+ */
+function peakProblem(
+  ctx: Ctx,
+  power: { role: PartRole; dev: BjtClass | MosfetClass },
+  peak_A: number,
+  what: string,
+  problems: DesignProblem[],
+): void {
+  const rating = pulseRating_A(power.dev);
+  if (!(peak_A > rating * (1 + 1e-9))) return;
+  const bound = ctx.spec.deviceReasons?.[roleOfSwitch(ctx)] === "bound by the design record";
+  problems.push(
+    problem(
+      "protection",
+      `/parts/${power.role}`,
+      "peak-above-pulse-rating",
+      "error",
+      `The load's start-up peak (${what}) reaches ${peak_A.toPrecision(3)} A at ` +
+        `${ctx.vMax_V.toPrecision(3)} V, above the ${rating.toPrecision(3)} A pulse rating of ${power.dev.title}` +
+        (bound
+          ? `, the class the record binds: bind a class with a higher pulse rating, `
+          : `, the largest class of the library this chain can use: no class covers it. Declare a current ` +
+            `limit below ${rating.toPrecision(3)} A or a soft start in the record, use a MOSFET chain, `) +
+        `or add a device class whose pulse rating covers the peak.`,
+      { limit: rating, actual: peak_A, unit: "A" },
+    ),
+  );
+}
+
+/** The device role the chain's load switch takes its class from. */
+function roleOfSwitch(ctx: Ctx): "power_npn" | "power_pnp" | "mosfet_logic" | "mosfet_standard" {
+  const c = ctx.spec.chain;
+  return c === "bjt-driver-pnp"
+    ? "power_pnp"
+    : c === "mosfet-logic"
+      ? "mosfet_logic"
+      : c === "mosfet-driver"
+        ? "mosfet_standard"
+        : "power_npn";
+}
+
+/**
+ * Where the worst-case drive holds the switch below the start-up peak, the switch leaves saturation
+ * for the event and dissipates V − I·R_load(t) at the current it holds: the pulse nearest the class's
+ * single-pulse SOA (shared/drive-limit.ts) is checked against it, derated from 25 °C to T_A,max.
+ */
+function driveLimitedStart(
+  ctx: Ctx,
+  power: { role: PartRole; dev: BjtClass | MosfetClass; drive: DriveLimit },
+  top_A: number,
+  figures: Figure[],
+  checks: StressCheck[],
+): void {
+  const ev = startEvent(startParams(ctx));
+  const dev = power.dev;
+  const pulse = drivePulse(
+    (t) => pulsePower_W(dev, t, ctx.taMax_C).p_W,
+    power.drive.i_A,
+    top_A,
+    ev.iPeak_A,
+    ev.iRun_A,
+    ctx.vMax_V,
+    ev.tau_s,
+  );
+  if (pulse === undefined) return;
+  const rated = pulsePower_W(dev, pulse.t_s, ctx.taMax_C);
+  figures.push(
+    figure(
+      "drive_limit_current",
+      "Start-up current the worst-case drive holds (the switch leaves saturation above it)",
+      power.drive.i_A,
+      "A",
+      "protection",
+      power.drive.how,
+      "sedra-smith",
+    ),
+    figure(
+      "drive_pulse_power",
+      `Switch power while the drive limits the start-up (at ${pulse.iAt_A.toPrecision(3)} A, ` +
+        `${(pulse.t_s * 1e3).toPrecision(3)} ms)`,
+      pulse.p_W,
+      "W",
+      "protection",
+      "P = I·(V_cc,max − I·R_cold) for I from the drive's limit up to the peak, t = 2τ·ln(ΔI/(I − I_run)); " +
+        "the one nearest the SOA",
+      "derived",
+    ),
+  );
+  const src = rated.fromSoa ? deviceSource(dev, "soa_pulse") : cite("common-practice");
+  checks.push({
+    ...checkStress(
+      power.role,
+      "soa",
+      pulse.p_W,
+      rated.p_W / rated.derate,
+      "W",
+      {
+        factor: rated.derate,
+        ...src,
+        note:
+          (rated.fromSoa
+            ? `single-pulse SOA of the class at ${(pulse.t_s * 1e3).toPrecision(3)} ms`
+            : "no pulse SOA in the class: its steady-state P_tot, a lower bound for any pulse (Z_th(t) ≤ R_th)") +
+          `, derated from 25 °C to ${ctx.taMax_C} °C × (T_J,max − T_A)/(T_J,max − 25 °C)`,
+      },
+      ctx.spec.policy.marginal_above,
+    ),
+    what: "drive-limited start-up pulse vs the single-pulse SOA",
+  });
+}
+
+/** The shunt reverse-polarity diode and its coordination with the fuse (fuse.ts rule 4). */
+function shuntReverse(
+  ctx: Ctx,
+  rev: DiodeClass,
+  fuse: FuseChoice,
+  clearing: number,
+  parts: Part[],
+  checks: StressCheck[],
+  problems: DesignProblem[],
+): void {
+  const pol = ctx.spec.policy;
+  const fam = fuse.family;
+  parts.push(
+    diode(
+      "supply",
+      "D_REVERSE",
+      rev,
+      { anode: "0", cathode: "vbus" },
+      { voltage_V: ctx.vMax_V, current_A: fam.gate.multiple * fuse.rating_A },
+      "shunt reverse-polarity protection: conducts when reversed, the fuse opens",
+    ),
+  );
+  checks.push(checkStress("D_REVERSE", "voltage", ctx.vMax_V, rev.vrrm_V, "V", pol.diode.voltage, pol.marginal_above));
+  const surge = {
+    ...checkStress(
+      "D_REVERSE",
+      "i2t",
+      clearing,
+      diodeSurgeI2t_A2s(rev.ifsm_A),
+      "A²s",
+      {
+        factor: 1,
+        ...cite("common-practice"),
+        note: `diode surge I²t = I_FSM²·8.3 ms/2 above the fuse's clearing I²t (${fam.note})`,
+      },
+      pol.marginal_above,
+    ),
+    what: "fuse clearing I²t vs the diode's surge I²t",
+  };
+  checks.push(surge);
+  if (surge.verdict === "fail")
+    problems.push(
+      problem(
+        "supply",
+        "/parts/D_REVERSE",
+        "reverse-surge",
+        "error",
+        `The reverse-polarity diode's surge rating (${rev.ifsm_A} A, ` +
+          `${diodeSurgeI2t_A2s(rev.ifsm_A).toPrecision(3)} A²s) is below the ${clearing.toPrecision(3)} A²s the ` +
+          `${fuse.rating_A} A fuse lets through before it clears: on a reversed battery the diode fails first. ` +
+          `Bind a diode class with a higher I_FSM, or use series reverse protection (a series Schottky or ` +
+          `P-MOSFET, not yet sized by this engine).`,
+        { limit: diodeSurgeI2t_A2s(rev.ifsm_A), actual: clearing, unit: "A²s" },
+      ),
+    );
+}
+
+/** A declared soft start or current limit: a condition of the verdict, or an error when it would stop the load. */
+function declaredLimit(ctx: Ctx, iRun_A: number, problems: DesignProblem[], conditions: VerdictCondition[]): void {
+  const lim = ctx.spec.protection.inrush_limit;
+  const ev = { iRun_A };
+  if (lim?.kind === "current-limit") {
+    if (!(lim.limit_A > ev.iRun_A)) {
+      problems.push(
+        problem(
+          "protection",
+          "/protection/inrush_limit/limit_A",
+          "current-limit-too-low",
+          "error",
+          `The declared current limit of ${lim.limit_A} A is not above the ${ev.iRun_A.toPrecision(3)} A the ` +
+            `load draws running at ${ctx.vMax_V.toPrecision(3)} V: the load would never start. Raise the limit.`,
+          { limit: ev.iRun_A, actual: lim.limit_A, unit: "A" },
+        ),
+      );
+    } else {
+      conditions.push({
+        rule: "inrush-limit",
+        path: "/protection/inrush_limit",
+        text: `a current limit of ≤ ${lim.limit_A} A in the load path (not drawn in this schematic)`,
+      });
+    }
+  } else if (lim?.kind === "soft-start") {
+    conditions.push({
+      rule: "inrush-limit",
+      path: "/protection/inrush_limit",
+      text: `a soft start ramping the duty from 0 over ≥ ${lim.ramp_s} s (not drawn in this schematic)`,
+    });
+  }
 }

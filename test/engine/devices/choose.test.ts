@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { DEFAULT_DEVICE_IDS, chooseDevices } from "../../../src/engine/devices/choose.ts";
-import type { BjtClass } from "../../../src/model/device.ts";
+import { DEFAULT_DEVICE_IDS, chooseDevices, chooseDevicesWithReasons } from "../../../src/engine/devices/choose.ts";
+import type { BjtClass, MosfetClass } from "../../../src/model/device.ts";
 import { DEVICE_ROLES, type DesignRecord } from "../../../src/model/design.ts";
 import { EngineMisuseError } from "../../../src/model/errors.ts";
 import { readLibrary } from "./read-library.ts";
@@ -154,5 +154,18 @@ describe("chooseDevices: defaults by current and voltage", () => {
 
   it("rejects a non-finite supply", () => {
     expect(() => chooseDevices(record(20e3), lib, Number.NaN, 1)).toThrow(/supply_V/);
+  });
+});
+
+describe("chooseDevices: a MOSFET's pulse rating against the start-up peak (absolute maximum, common practice)", () => {
+  it("a class whose I_DM is below the stall peak is passed over, and the reason says so", () => {
+    // Motor stall ≈ 4× running (from memory): 4 × 4 A × 26.4/24 = 17.6 A at the top of 24 V ± 10 %.
+    const small: MosfetClass = { ...(lib.get("nmos-logic") as MosfetClass), idm_A: 10 };
+    const lib2 = new Map(lib);
+    lib2.set("nmos-logic", small);
+    const r: DesignRecord = { ...record(20e3), axes: { ...record(20e3).axes, chain: ["mosfet-logic"] } };
+    const { reasons } = chooseDevicesWithReasons(r, lib2, 24, 4, "mosfet-logic");
+    expect(reasons.mosfet_logic).toContain("pulse rating 10.0 A is below the 17.6 A start-up peak");
+    expect(chooseDevicesWithReasons(r, lib, 24, 4, "mosfet-logic").reasons.mosfet_logic).not.toContain("pulse");
   });
 });

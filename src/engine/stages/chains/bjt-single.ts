@@ -11,7 +11,8 @@ import { conductionLossBjt_W, resistorPower_W, switchingLoss_W } from "../../sha
 import { deviceSource } from "../../shared/sources.ts";
 import { resistor, transistor } from "../../../circuit/parts.ts";
 import { type Ctx, FORCED_BETA, OVERDRIVE_K, switchedVoltage_V } from "../context.ts";
-import { driveMargin, switchChecks, switchOffVoltage_V, vbeCold, lossFigures } from "./common.ts";
+import { driveMargin, loadPeak_A, switchChecks, switchOffVoltage_V, vbeCold, lossFigures } from "./common.ts";
+import { bjtDriveLimit_A } from "../../shared/drive-limit.ts";
 import type { ChainPlan } from "./types.ts";
 import { NOMINAL_TEMP_C } from "../../shared/temperature.ts";
 
@@ -101,7 +102,14 @@ export function planBjtSingle(ctx: Ctx): ChainPlan {
       );
       const pBase = conductionLossBjt_W(tap.iMax_A, vClamp, op.dutyMax);
       const p = pCond + pSw + pBase;
+      const iDrive = bjtDriveLimit_A(
+        (i) => i / hfeMin(dev, i, ctx.taMin_C),
+        tap.iMin_A - iBleedMax,
+        ctx.iMax_A,
+        loadPeak_A(ctx),
+      );
       return {
+        drive: { i_A: iDrive, how: "I_C = β_min(I_C, T_A,min) · (I_B,min − I_bleed)" },
         parts: [],
         problems: [],
         checks: [],

@@ -13,7 +13,16 @@ import { hfeMin, vbeOn, vbeSat, vceSat } from "../../shared/gain.ts";
 import { conductionLossBjt_W, resistorPower_W, switchingLoss_W } from "../../shared/losses.ts";
 import { resistor, transistor } from "../../../circuit/parts.ts";
 import { type Ctx, OVERDRIVE_K, loadCurrentAt_A, switchedVoltage_V } from "../context.ts";
-import { needAtMinSupply, driveMargin, switchChecks, switchOffVoltage_V, vbeCold, lossFigures } from "./common.ts";
+import {
+  needAtMinSupply,
+  driveMargin,
+  loadPeak_A,
+  switchChecks,
+  switchOffVoltage_V,
+  vbeCold,
+  lossFigures,
+} from "./common.ts";
+import { bjtDriveLimit_A } from "../../shared/drive-limit.ts";
 import { BLEED_SHARE } from "./bjt-single.ts";
 import type { ChainPlan, DeviceLoss } from "./types.ts";
 import { vceSatNominal_V } from "./sat-nominal.ts";
@@ -218,7 +227,14 @@ export function planDarlington(ctx: Ctx, n: 2 | 3): ChainPlan {
         vBelow += vbeSat(devs[k]!, Math.max(worst.ic[k]!, 1e-6));
       }
       const stackP = losses.reduce((s, l) => s + l.p_W, 0);
+      const iDrive = bjtDriveLimit_A(
+        (i) => stackCurrents(devs, i, rBE * (1 - ctx.rTol), ctx.taMin_C).ib[0]!,
+        tap.iMin_A,
+        ctx.iMax_A,
+        loadPeak_A(ctx),
+      );
       return {
+        drive: { i_A: iDrive, how: "stack current whose first base current at β_min (T_A,min) is I_B1,min" },
         parts: [],
         problems: [],
         checks: [],

@@ -12,7 +12,16 @@ import { conductionLossBjt_W, switchingLoss_W } from "../../shared/losses.ts";
 import { deviceSource } from "../../shared/sources.ts";
 import { resistor, transistor } from "../../../circuit/parts.ts";
 import { type Ctx, FORCED_BETA, OVERDRIVE_K, switchedVoltage_V } from "../context.ts";
-import { needAtMinSupply, driveMargin, switchChecks, switchOffVoltage_V, vbeCold, lossFigures } from "./common.ts";
+import {
+  needAtMinSupply,
+  driveMargin,
+  loadPeak_A,
+  switchChecks,
+  switchOffVoltage_V,
+  vbeCold,
+  lossFigures,
+} from "./common.ts";
+import { bjtDriveLimit_A } from "../../shared/drive-limit.ts";
 import { BLEED_SHARE, WEAK_TURNOFF_FACTOR } from "./bjt-single.ts";
 import type { ChainPlan } from "./types.ts";
 import { vceSatNominal_V } from "./sat-nominal.ts";
@@ -191,7 +200,9 @@ export function planDriverPnp(ctx: Ctx): ChainPlan {
       const iBnom = Math.max(0, (ctx.vNom_V - vEBnom - vceSat(qd, iCD)) / rBP - vEBnom / rPU);
       const baseNom_W = iBnom * vEBnom;
       const pDrv = conductionLossBjt_W(iRbpMax, vceD, op.dutyMax) + conductionLossBjt_W(tap.iMax_A, vClamp, op.dutyMax);
+      const iDrive = bjtDriveLimit_A((i) => i / hfeMin(qp, i, ctx.taMin_C), iRbpMin - iPU, ctx.iMax_A, loadPeak_A(ctx));
       return {
+        drive: { i_A: iDrive, how: "I_C = β_min(I_C, T_A,min) · (I_RBP,min − I_pull-up)" },
         parts: [qDrv, rbp.part, rpu.part, qPow],
         problems: [...rbp.problems, ...rpu.problems],
         checks: [...rbp.checks, ...rpu.checks],

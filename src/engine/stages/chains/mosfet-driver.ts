@@ -5,6 +5,7 @@
  * Gate rail: vbus, or a zener rail (RZ + DZ) when vbus,max − V_BE would exceed the derated V_GS max.
  * The follower's output resistance is ≈ RP/β (common practice), so RP = RG·β_min keeps it ≤ RG.
  */
+import { mosfetSaturation_A } from "../../shared/drive-limit.ts";
 import type { BjtClass, MosfetClass, ZenerClass } from "../../../model/device.ts";
 import type { Part } from "../../../model/circuit.ts";
 import type { StressCheck } from "../../../model/derating.ts";
@@ -283,6 +284,10 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
       );
       const pDrv = conductionLossBjt_W(iCD, vceSat(qd, iCD), 1) + conductionLossBjt_W(tap.iMax_A, vClamp, 1);
       return {
+        drive: {
+          i_A: mosfetSaturation_A(mos, vgsMin),
+          how: "I_D = K/2·(V_GS,min − V_th,max)², K from R_DS(on) maxima",
+        },
         parts: [...out.map((o) => o.part), ...extra],
         problems: [...out.flatMap((o) => o.problems), ...probs],
         checks: [...out.flatMap((o) => o.checks), ...checks],

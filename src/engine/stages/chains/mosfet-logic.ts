@@ -3,6 +3,7 @@
  * the pull-down RGS (a divider when the supply would exceed the derated V_GS max). The tap stage
  * sizes RG/RGS and the collector resistor; this module states the need and computes the losses.
  */
+import { mosfetSaturation_A } from "../../shared/drive-limit.ts";
 import type { MosfetClass } from "../../../model/device.ts";
 import { checkStress } from "../../shared/derating.ts";
 import { figure, problem } from "../../shared/figures.ts";
@@ -142,6 +143,7 @@ export function planMosfetLogic(ctx: Ctx): ChainPlan {
           ),
         );
       return {
+        drive: { i_A: mosfetSaturation_A(dev, vgMin), how: "I_D = K/2·(V_GS,min − V_th,max)², K from R_DS(on) maxima" },
         parts: [],
         problems,
         vSwNom_V,

@@ -45,6 +45,17 @@ export interface TapInfo {
   vGate_V?: [number, number];
 }
 
+/**
+ * The most load current the switch's worst-case drive holds (shared/drive-limit.ts): smallest base
+ * current and β_min cold, or the lowest gate voltage with V_th at its maximum. Above it the switch
+ * leaves saturation; the protection stage checks the start-up pulse against the device's SOA.
+ */
+export interface DriveLimit {
+  i_A: number;
+  /** How it was found, for the page's formula column. */
+  how: string;
+}
+
 export interface OperatingPoint {
   /** Highest load duty over the control range and tolerances. */
   dutyMax: number;
@@ -64,5 +75,8 @@ export interface ChainPlan extends StageResult {
   /** Stage-by-stage drive margins are in `figures`; this is the net the load's switch drives. */
   delays(tap: TapInfo): { on_s: number; off_s: number; note: string };
   /** `vSwNom_V`, when given, replaces the plan's: the on-voltage at the gate drive the tap really delivers. */
-  finish(tap: TapInfo, op: OperatingPoint): StageResult & { losses: DeviceLoss[]; vSwNom_V?: number };
+  finish(
+    tap: TapInfo,
+    op: OperatingPoint,
+  ): StageResult & { losses: DeviceLoss[]; vSwNom_V?: number; drive?: DriveLimit };
 }
