@@ -6,6 +6,7 @@
 import { sizeOwn, type SizeOwnData } from "../site/size-own.ts";
 import { orderedFigureRows } from "../site/figures.ts";
 import { checkRow, partRow } from "../site/parts-view.ts";
+import { factsContext } from "../render/part-facts.ts";
 import { verdictWords } from "../site/labels.ts";
 
 function el<K extends keyof HTMLElementTagNameMap>(tag: K, text?: string, cls?: string): HTMLElementTagNameMap[K] {
@@ -121,11 +122,14 @@ function sizeYourOwn(): void {
       out.append(fig);
     }
     if (s.circuit) {
+      const facts = factsContext(s, new Map(Object.values(s.spec.devices).map((c) => [c.id, c])));
       out.append(
         table(
           "Parts and values",
-          ["Ref", "Description", "Value", "Series, tolerance", "Rating", "Computed stress"],
-          s.circuit.parts.map(partRow).map((p) => [p.ref, p.description, p.value, p.series, p.rating, p.stress]),
+          ["Ref", "Generic type", "Value", "Key parameters", "Description", "Rating", "Computed stress"],
+          s.circuit.parts
+            .map((p) => partRow(p, facts))
+            .map((p) => [p.ref, p.type, p.value, p.params.join("; "), p.description, p.rating, p.stress]),
           [2],
         ),
       );

@@ -76,6 +76,8 @@ export function transistor<S extends StageKind>(
   gainMin: number | undefined,
   pins: Record<string, string>,
   stress: Part["stress"],
+  /** Collector current `gainMin` was read at, when it is not `stress.current_A`. */
+  gainAt_A: number | undefined = stress.current_A,
 ): Part {
   const kind = dev.family === "nmos" ? "nmos" : dev.family;
   const rating: Part["rating"] =
@@ -98,6 +100,7 @@ export function transistor<S extends StageKind>(
     spice: { model: dev.id },
   };
   if (gainMin !== undefined) part.gain_min = gainMin;
+  if (gainMin !== undefined && gainAt_A !== undefined) part.gain_at_A = gainAt_A;
   return part;
 }
 

@@ -75,8 +75,10 @@ export interface Part {
   tolerance?: number;
   /** Device class id (transistors, diodes, zeners). */
   device?: string;
-  /** Minimum gain the sizing used (transistors). */
+  /** Minimum gain the sizing used (transistors), at `gain_at_A` and the coldest ambient. */
   gain_min?: number;
+  /** Collector current the minimum gain was read at (A); the part's stress current unless a stage says. */
+  gain_at_A?: number;
   description: string; // "Carbon-film resistor, 0.25 W", "NPN small-signal (2N3904 class)"
   package?: string;
   rating: PartRating;

@@ -12,6 +12,8 @@ import * as L from "./schematic-layout.ts";
 import { SYMBOLS, type Box, type SymbolDef } from "./symbols/index.ts";
 import { probe } from "./symbols/probe.ts";
 import { EngineMisuseError } from "../model/errors.ts";
+import { RESISTOR_RATINGS_W } from "../circuit/parts.ts";
+import { typeParts, type FactsContext } from "./part-facts.ts";
 
 export const RAIL_Y = 50;
 export const LEFT_X = 60;
@@ -57,18 +59,63 @@ function transform(slot: L.Slot, p: Pt): Pt {
   return [x, y];
 }
 
-/** Label text: the ref, then the value (or the device class, wrapped at hyphens to ≤ 10 chars). */
-export function labelLines(part: Part | undefined, key: string): string[] {
-  if (!part) return [key];
-  if (part.value !== 0 || part.unit !== "") return [part.ref, formatValue(part.value, part.unit)];
-  const words = (part.device ?? part.kind).split("-");
-  const lines: string[] = [];
-  for (const w of words) {
+/** Parts whose value is their number (Ω, F, V, A, W); the rest are named by their generic type. */
+const VALUELESS = new Set<Part["kind"]>(["npn", "pnp", "nmos", "pmos", "diode", "led"]);
+
+/**
+ * What the simulation's current sense (a 0 V source in the load loop) is for a builder: the place to
+ * measure the load current, built as a wire link. Drawn dashed, labelled in italics.
+ */
+export const SENSE_LABEL = ["I_load", "(link)"] as const;
+
+/**
+ * Label lines are kept narrow (about 9 characters, the width the stage tables leave): the type's
+ * words and rating quantities are packed greedily; a line of ratings alone holds at most 8, since
+ * digits set wider than letters.
+ */
+const LINE_MAX = 9;
+const RATINGS_LINE_MAX = 8;
+
+function packLines(words: readonly string[], ratings: string): string[] {
+  const quantities = ratings.match(/[^ ]+ [^ ]+/g) ?? (ratings ? [ratings] : []);
+  const tokens = [...words.map((w) => ({ t: w, word: true })), ...quantities.map((q) => ({ t: q, word: false }))];
+  const lines: { text: string; words: boolean }[] = [];
+  for (const tok of tokens) {
     const last = lines[lines.length - 1];
-    if (last !== undefined && last.length + 1 + w.length <= 10) lines[lines.length - 1] = `${last}-${w}`;
-    else lines.push(w);
+    if (last !== undefined) {
+      const joined = `${last.text} ${tok.t}`;
+      const words = last.words || tok.word;
+      if (joined.length <= (words ? LINE_MAX : RATINGS_LINE_MAX)) {
+        lines[lines.length - 1] = { text: joined, words };
+        continue;
+      }
+    }
+    lines.push({ text: tok.t, words: tok.word });
   }
-  return [part.ref, ...lines];
+  return lines.map((l) => l.text);
+}
+
+/** Stages whose tables leave no room for a third label line under a resistor (the core's collector resistors). */
+const TIGHT_STAGES = new Set<Part["stage"]>(["timing", "duty"]);
+
+/**
+ * Label text in the builder's words: the ref, then the value and its rating (a resistor's power
+ * class above the smallest, 0.25 W; an electrolytic's voltage; a film or ceramic capacitor's
+ * voltage is in the parts list), or for semiconductors their generic type ("NPN 0.1 A", "45 V"),
+ * never a device-class id (part-facts.ts typeParts).
+ */
+export function labelLines(part: Part | undefined, key: string, ctx: FactsContext = {}): string[] {
+  if (!part) return key === "Vsense" ? [...SENSE_LABEL] : [key];
+  const t = typeParts(part, ctx);
+  if (VALUELESS.has(part.kind) || (part.value === 0 && part.unit === ""))
+    return [part.ref, ...packLines(t.words, t.ratings)];
+  const value = formatValue(part.value, part.unit);
+  const w = part.rating.power_W;
+  if (part.kind === "resistor") {
+    if (w === undefined || w <= RESISTOR_RATINGS_W[0]) return [part.ref, value];
+    return TIGHT_STAGES.has(part.stage) ? [part.ref, `${value} ${t.ratings}`] : [part.ref, value, t.ratings];
+  }
+  return [part.ref, value, ...(part.kind === "capacitor" ? [] : packLines([], t.ratings))];
 }
 
 function labelBox(slot: L.Slot, box: Box, cx: number, cy: number, lines: string[]): Box {
@@ -111,7 +158,7 @@ function stages(circuit: CircuitModel, highSide: boolean): Record<StageKind, Sta
   };
 }
 
-export function place(circuit: CircuitModel): { placed: Placed[]; hints: Hint[] } {
+export function place(circuit: CircuitModel, ctx: FactsContext = {}): { placed: Placed[]; hints: Hint[] } {
   const sense = circuit.instruments.find((i) => i.name === "Vsense");
   const highSide = sense !== undefined && sense.p === circuit.switchNet;
   const st = stages(circuit, highSide);
@@ -157,7 +204,7 @@ export function place(circuit: CircuitModel): { placed: Placed[]; hints: Hint[] 
       w: Math.abs(c1[0] - c2[0]),
       h: Math.abs(c1[1] - c2[1]),
     };
-    const lines = labelLines(it.part, it.key);
+    const lines = labelLines(it.part, it.key, ctx);
     placed.push({
       key: it.key,
       role: it.role,

@@ -5,6 +5,7 @@
  * `data-ref` and `data-pins` ("pin=net ..."), each wire `data-net`, so tests can read them back.
  */
 import type { CircuitModel } from "../model/circuit.ts";
+import type { DeviceLibrary } from "../model/device.ts";
 import { place, FONT_PX, LINE_PX, type Placed } from "./schematic-place.ts";
 import type { Routing } from "./schematic-route.ts";
 import { wire } from "./schematic-wire.ts";
@@ -26,13 +27,20 @@ function transformOf(p: Placed): string {
 }
 
 /** Placement and wiring without drawing (tests and tools inspect it). */
-export function layoutSchematic(circuit: CircuitModel): { placed: Placed[]; routing: Routing } {
-  const { placed, hints } = place(circuit);
+export function layoutSchematic(
+  circuit: CircuitModel,
+  devices?: DeviceLibrary,
+): { placed: Placed[]; routing: Routing } {
+  const { placed, hints } = place(circuit, devices === undefined ? {} : { devices });
   return { placed, routing: wire(placed, hints) };
 }
 
-export function renderSchematic(circuit: CircuitModel, meta: { title: string; id: string }): string {
-  const { placed, routing } = layoutSchematic(circuit);
+/** `meta.devices` (the device library) sharpens the labels' generic types (logic-level gate, Schottky). */
+export function renderSchematic(
+  circuit: CircuitModel,
+  meta: { title: string; id: string; devices?: DeviceLibrary },
+): string {
+  const { placed, routing } = layoutSchematic(circuit, meta.devices);
   const boxes = [...placed.flatMap((p) => [p.box, p.label.box]), ...routing.flags.map((f) => f.box)];
   const wireXs = routing.wires.flatMap((w) => w.segs.flatMap((s) => [s[0][0], s[1][0]]));
   const wireYs = routing.wires.flatMap((w) => w.segs.flatMap((s) => [s[0][1], s[1][1]]));
@@ -126,8 +134,9 @@ export function renderSchematic(circuit: CircuitModel, meta: { title: string; id
   c.element("text")
     .words(meta.title)
     .attr({ x: 20, y: height - 18, "font-size": 14, "font-weight": "bold", "data-caption": "", fill: INK });
+  const sense = placed.some((p) => p.key === "Vsense") ? " A dashed circle marks the load-current test point." : "";
   const desc =
-    `Schematic with ${circuit.parts.length} parts: ${placed.map((p) => p.key).join(", ")}. Supply on the left, ` +
-    `load on the right; vbus rail along the top.`;
+    `Schematic with ${circuit.parts.length} parts: ${circuit.parts.map((p) => p.ref).join(", ")}. Supply on the ` +
+    `left, load on the right; vbus rail along the top.${sense}`;
   return finish(c, { id: idFragment(meta.id), title: meta.title, desc });
 }

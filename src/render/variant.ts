@@ -8,6 +8,7 @@ import type { DeviceLibrary } from "../model/device.ts";
 import type { SizedVariant } from "../model/sized.ts";
 import { findFigure } from "../model/sized.ts";
 import { renderBom } from "./bom.ts";
+import { factsContext } from "./part-facts.ts";
 import { renderNetlist } from "./netlist.ts";
 import { renderSchematic } from "./schematic.ts";
 import { targetFromSized } from "../verify/target.ts";
@@ -43,9 +44,10 @@ export function renderVariantViews(
   // The published deck carries its own batch run and `.meas` lines (verify/selfcheck.ts), planned
   // from the prediction like the verifier's rated-load run.
   const target = targetFromSized(sized);
+  const facts = factsContext(sized, devices);
   return {
     netlist: target !== null && canSelfCheck(target) ? withSelfCheck(plain, target, spec.supply_V) : plain,
-    schematicSvg: opts.schematic === false ? "" : renderSchematic(c, meta),
-    bomCsv: renderBom(c),
+    schematicSvg: opts.schematic === false ? "" : renderSchematic(c, { ...meta, devices }),
+    bomCsv: renderBom(c, { ...facts, mounting: { heatsink: sized.heatsink, verdict: sized.verdict } }),
   };
 }

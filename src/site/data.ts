@@ -20,7 +20,19 @@ export interface HomeView {
   builtAt: string;
   version: string;
   policy: string;
-  designs: { id: string; title: string; summary: string; url: string; counts: DesignCounts }[];
+  /**
+   * `inSentence`: the title as it reads inside the intro's sentence ("circulation fan speed driver",
+   * "LED grow-strip dimmer"); `joiner`: what follows it there (", ", " and ", or "").
+   */
+  designs: {
+    id: string;
+    title: string;
+    inSentence: string;
+    joiner: string;
+    summary: string;
+    url: string;
+    counts: DesignCounts;
+  }[];
   chooser: ChooserView;
   summary: {
     designs: number;
@@ -42,6 +54,12 @@ export interface SiteView {
   sources: SourcesView;
 }
 
+/** A title inside a sentence: its first letter lower-cased unless the first word is an initialism ("LED"). */
+export function inSentence(title: string): string {
+  const first = title.split(/[\s-]/)[0] ?? "";
+  return first.length > 1 && first === first.toUpperCase() ? title : title.charAt(0).toLowerCase() + title.slice(1);
+}
+
 export function buildSiteView(cat: BuiltCatalogue): SiteView {
   const s = cat.summary;
   const home: HomeView = {
@@ -50,9 +68,11 @@ export function buildSiteView(cat: BuiltCatalogue): SiteView {
     builtAt: cat.builtAt,
     version: cat.version,
     policy: `${cat.policy.title} (${cat.policy.document})`,
-    designs: cat.designs.map((d) => ({
+    designs: cat.designs.map((d, i, all) => ({
       id: d.record.id,
       title: d.record.title,
+      inSentence: inSentence(d.record.title),
+      joiner: i === all.length - 1 ? "" : i === all.length - 2 ? " and " : ", ",
       summary: d.record.summary,
       url: designPage(d.record.id),
       counts: designCounts(d),

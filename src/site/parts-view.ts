@@ -3,6 +3,8 @@ import type { Part, PartRating, PartStress } from "../model/circuit.ts";
 import type { StressCheck } from "../model/derating.ts";
 import { formatPercent, formatValue } from "../model/format.ts";
 import { STRESS_QUANTITY_LABELS, STRESS_WORDS } from "./labels.ts";
+import { partFacts, type FactsContext } from "../render/part-facts.ts";
+import { mountingLines, type MountingInput } from "../render/bom-mounting.ts";
 
 export interface PartRow {
   ref: string;
@@ -13,7 +15,17 @@ export interface PartRow {
   rating: string;
   stress: string;
   device: string;
-  gain_min: string;
+  /** Generic type in a builder's words and the key parameters a substitute must meet (part-facts.ts). */
+  type: string;
+  params: string[];
+}
+
+/** A line of the parts list that is no circuit part: heatsink, insulator kit, fuse holder. */
+export interface MountingRow {
+  type: string;
+  description: string;
+  value: string;
+  params: string[];
 }
 
 /** Transistors carry value 0 by contract: their "value" is the device class, not a number. */
@@ -29,7 +41,8 @@ function quantities(q: PartRating | PartStress): string {
   return out.join(", ");
 }
 
-export function partRow(p: Part): PartRow {
+export function partRow(p: Part, ctx: FactsContext = {}): PartRow {
+  const facts = partFacts(p, ctx);
   return {
     ref: p.ref,
     kind: p.kind,
@@ -41,8 +54,14 @@ export function partRow(p: Part): PartRow {
     rating: quantities(p.rating),
     stress: quantities(p.stress),
     device: p.device ?? "",
-    gain_min: p.gain_min !== undefined ? formatValue(p.gain_min, "") : "",
+    type: facts.type,
+    params: facts.params,
   };
+}
+
+/** The parts list's mounting lines for the page, from the same function the CSV uses. */
+export function mountingRows(s: MountingInput): MountingRow[] {
+  return mountingLines(s).map((m) => ({ type: m.type, description: m.description, value: m.value, params: m.params }));
 }
 
 export interface CheckRow {

@@ -60,6 +60,7 @@ export function variantJson(v: BuiltVariant, d: BuiltDesign, cat: BuiltCatalogue
       stress: p.stress,
       ...(p.device !== undefined ? { device: p.device } : {}),
       ...(p.gain_min !== undefined ? { gain_min: p.gain_min } : {}),
+      ...(p.gain_at_A !== undefined ? { gain_at_A: p.gain_at_A } : {}),
       ...(p.package !== undefined ? { package: p.package } : {}),
       pins: p.pins,
     })),

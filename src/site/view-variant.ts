@@ -3,7 +3,9 @@ import type { DesignProblem } from "../model/problem.ts";
 import { formatPercent, formatValue } from "../model/format.ts";
 import { orderedFigureRows, type FigureRow } from "./figures.ts";
 import { chainLabel, loadLabel, verdictWords } from "./labels.ts";
-import { checkRow, partRow, type CheckRow, type PartRow } from "./parts-view.ts";
+import { checkRow, mountingRows, partRow, type CheckRow, type MountingRow, type PartRow } from "./parts-view.ts";
+import type { DeviceClass } from "../model/device.ts";
+import { factsContext } from "../render/part-facts.ts";
 import { availableDownloads } from "./downloads.ts";
 import { designPage, downloadNames, relativeRoot, variantPage } from "./paths.ts";
 import { verificationView, type VerificationView } from "./verification-view.ts";
@@ -40,6 +42,8 @@ export interface VariantView {
   /** The schematic, shown from its download file (one copy of the drawing, not a second one inline). */
   schematic: Drawing | null;
   parts: PartRow[];
+  /** Heatsink, insulator kit and fuse holder: bought with the parts, drawn in no schematic. */
+  mounting: MountingRow[];
   checks: CheckRow[];
   heatsink: { needed: boolean; text: string };
   problems: { severity: string; rule: string; stage: string; path: string; message: string }[];
@@ -92,6 +96,9 @@ export function variantView(v: BuiltVariant, d: BuiltDesign, cat: BuiltCatalogue
   const verdict = verdictWords(s.verdict.status);
   const alt = s.alternative;
   const t = spec.targets;
+  // The device classes the variant was sized with (its spec carries them), the catalogue's library besides.
+  const classes: DeviceClass[] = [...(cat.engine?.devices ?? []), ...Object.values(spec.devices)];
+  const facts = factsContext(s, new Map(classes.map((c) => [c.id, c])));
   return {
     id: spec.id,
     page,
@@ -134,7 +141,8 @@ export function variantView(v: BuiltVariant, d: BuiltDesign, cat: BuiltCatalogue
               "reference and value (listed in the parts table)",
           }
         : null,
-    parts: (s.circuit?.parts ?? []).map(partRow),
+    parts: (s.circuit?.parts ?? []).map((p) => partRow(p, facts)),
+    mounting: s.circuit ? mountingRows({ circuit: s.circuit, heatsink: s.heatsink, verdict: s.verdict }) : [],
     checks: s.checks.map(checkRow),
     heatsink: { needed: s.heatsink.needed, text: s.heatsink.text },
     problems: problems(s.problems),

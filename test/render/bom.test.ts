@@ -1,35 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { BOM_COLUMNS, compareRefs, csvCell, renderBom } from "../../src/render/bom.ts";
 import { CIRCUIT_FIXTURES } from "../fixtures/circuits/index.ts";
-
-/** Minimal RFC 4180 reader (quoted fields, doubled quotes, CRLF records) for reading the output back. */
-function parseCsv(text: string): string[][] {
-  const rows: string[][] = [];
-  let row: string[] = [];
-  let cell = "";
-  let q = false;
-  for (let i = 0; i < text.length; i++) {
-    const ch = text[i]!;
-    if (q) {
-      if (ch === '"' && text[i + 1] === '"') {
-        cell += '"';
-        i++;
-      } else if (ch === '"') q = false;
-      else cell += ch;
-    } else if (ch === '"') q = true;
-    else if (ch === ",") {
-      row.push(cell);
-      cell = "";
-    } else if (ch === "\r" && text[i + 1] === "\n") {
-      row.push(cell);
-      rows.push(row);
-      row = [];
-      cell = "";
-      i++;
-    } else cell += ch;
-  }
-  return rows;
-}
+import { parseCsv } from "./csv-read.ts";
 
 describe.each(CIRCUIT_FIXTURES)("parts list of the $name fixture", (f) => {
   const csv = renderBom(f.circuit);

@@ -57,7 +57,7 @@ describe("the demo catalogue renders", async () => {
   it("schematics: every part drawn, no overlapping symbols/labels/marks, every pin attached", () => {
     const problems: string[] = [];
     for (const v of variants) {
-      const text = renderSchematic(v.circuit, { title: v.title, id: v.id });
+      const text = renderSchematic(v.circuit, { title: v.title, id: v.id, devices });
       const doc = readSvg(text);
       const symbols = [...doc.find("[data-ref]")];
       const drawn = new Set(symbols.map((s) => String(s.attr("data-ref"))));
@@ -85,11 +85,11 @@ describe("the demo catalogue renders", async () => {
     () => {
       const problems: string[] = [];
       for (const v of variants) {
-        const text = renderSchematic(v.circuit, { title: v.title, id: v.id });
+        const text = renderSchematic(v.circuit, { title: v.title, id: v.id, devices });
         problems.push(...geometryProblems(text).map((p) => `${v.id}: ${p}`));
         // Every demo net can be drawn as a wire; a flag would mean a table route or placement is off.
         if (text.includes("data-flag=")) problems.push(`${v.id}: uses net flags`);
-        const refused = layoutSchematic(v.circuit).routing.hintsRefused;
+        const refused = layoutSchematic(v.circuit, devices).routing.hintsRefused;
         if (refused > 0) problems.push(`${v.id}: ${refused} drawn route(s) of the layout tables blocked`);
       }
       expect(problems.slice(0, 20)).toEqual([]);

@@ -31,6 +31,8 @@ export interface FuseFamily {
   /** Bibliography key of the family's standard, and what is read from it. */
   source: SourceKey;
   note: string;
+  /** The holder a builder fits the fuse in (for the parts list; common practice). */
+  holder: string;
 }
 
 export const FUSE_FAMILIES: readonly FuseFamily[] = [
@@ -42,6 +44,7 @@ export const FUSE_FAMILIES: readonly FuseFamily[] = [
     gate: { multiple: 10, tMin_s: 0.01, tMax_s: 0.1 },
     source: "iec-60127",
     note: "IEC 60127-2, standard sheet 3 (time-lag, 10 × I_n: 10–100 ms), from memory",
+    holder: "fuse holder for 5 × 20 mm fuses (in-line or panel mount)",
   },
   {
     id: "iso8820-32v",
@@ -51,6 +54,7 @@ export const FUSE_FAMILIES: readonly FuseFamily[] = [
     gate: { multiple: 6, tMin_s: 0.01, tMax_s: 0.1 },
     source: "iso-8820-3",
     note: "ISO 8820-3 blade fuses (600 % I_n: 10–100 ms), from memory",
+    holder: "holder for standard-size blade fuses (in-line or panel mount)",
   },
   {
     id: "iso8820-58v",
@@ -60,8 +64,14 @@ export const FUSE_FAMILIES: readonly FuseFamily[] = [
     gate: { multiple: 6, tMin_s: 0.01, tMax_s: 0.1 },
     source: "iso-8820-3",
     note: "ISO 8820-3 blade fuses, 58 V types (600 % I_n: 10–100 ms), from memory",
+    holder: "holder for standard-size blade fuses rated 58 V (in-line or panel mount)",
   },
 ];
+
+/** The family a fitted fuse belongs to, by its rated current and voltage (each family's voltage is its own). */
+export function fuseFamilyOf(rating_A: number, voltage_V: number): FuseFamily | undefined {
+  return FUSE_FAMILIES.find((f) => f.voltage_V === voltage_V && f.ratings_A.includes(rating_A));
+}
 
 /** Continuous current at most this share of the rating at 25 °C (common practice: 75–80 %). */
 export const FUSE_CONTINUOUS_SHARE = 0.75;

@@ -12,7 +12,7 @@ import type { VariantSpec } from "../../model/variant.ts";
 import type { PartRole } from "../../model/part-roles.ts";
 import { RESISTOR_RATINGS_W } from "../../circuit/parts.ts";
 import { formatValue } from "../../model/format.ts";
-import { GENERIC_HEATSINKS, pickHeatsink } from "../shared/heatsinks.ts";
+import { GENERIC_HEATSINKS, type GenericHeatsink, pickHeatsink } from "../shared/heatsinks.ts";
 import { PREFERRED_REASON } from "../devices/choose.ts";
 
 /** The device role a part of this role takes its class from, where the part role says it. */
@@ -45,6 +45,27 @@ function deviceRoleOf(spec: VariantSpec, p: Part): DeviceRole | undefined {
 export const INSULATOR_EXTRA_KperW = 1.5;
 
 const SIZES = GENERIC_HEATSINKS.map((h) => formatValue(h.rth_KperW, "K/W")).join(", ");
+
+/** The heatsink a variant is built with: the θ_SA it must meet and the generic size that meets it. */
+export interface HeatsinkChoice {
+  /** Largest θ_SA allowed, the insulator kit's share taken off where the tab is insulated. */
+  limit_KperW: number;
+  /** The smallest generic sink that meets it; undefined when none does (made to measure). */
+  sink?: GenericHeatsink;
+}
+
+/**
+ * The one choice of heatsink for a variant (the page's decision and the parts list read it): none
+ * when no heatsink is needed or none can be enough. A live tab's insulator kit (pad or mica) sits
+ * between case and sink, so with it the sink must be better by INSULATOR_EXTRA_KperW.
+ */
+export function heatsinkChoice(heatsink: HeatsinkVerdict, insulated: boolean): HeatsinkChoice | undefined {
+  if (!heatsink.needed || heatsink.rth_sa_max_KperW === undefined || heatsink.text.startsWith("not feasible"))
+    return undefined;
+  const limit_KperW = heatsink.rth_sa_max_KperW - (insulated ? INSULATOR_EXTRA_KperW : 0);
+  const sink = pickHeatsink(limit_KperW);
+  return sink === undefined ? { limit_KperW } : { limit_KperW, sink };
+}
 
 /** What the timing search reports when it had to lower R_C (size.ts tapAndTiming). */
 export interface RcLowered {
@@ -90,10 +111,9 @@ export function designDecisions(
         (next !== undefined ? ` — ${formatValue(next, "W")} would carry ${Math.round((100 * s) / next)} %` : ""),
     });
   }
-  if (heatsink.needed && heatsink.rth_sa_max_KperW !== undefined && !heatsink.text.startsWith("not feasible")) {
-    // A live tab's insulator kit (pad or mica) sits between case and sink: the sink must be better by it.
-    const limit = heatsink.rth_sa_max_KperW - (insulated ? INSULATOR_EXTRA_KperW : 0);
-    const sink = pickHeatsink(limit);
+  const hs = heatsinkChoice(heatsink, insulated);
+  if (hs !== undefined && heatsink.rth_sa_max_KperW !== undefined) {
+    const { limit_KperW: limit, sink } = hs;
     out.push({
       refs: heatsinkRefs,
       topic: "heatsink",

@@ -106,6 +106,7 @@ export function timingParts(
         gain,
         { c, b: side === "A" ? "ba" : "bb", e: "0" },
         { voltage_V: vMax, current_A: iQpk },
+        iCmax,
       ),
     );
     checks.push(checkStress(`Q_${side}`, "current", iQpk, q.ic_max_A, "A", pol.bjt.current, pol.marginal_above));

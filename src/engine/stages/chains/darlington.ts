@@ -36,6 +36,8 @@ interface StackCurrents {
   ic: number[];
   ib: number[];
   beta: number[];
+  /** The current each stage's gain was read at (its emitter current). */
+  betaAt: number[];
   bleed_A: number;
 }
 
@@ -45,18 +47,20 @@ function stackCurrents(devs: BjtClass[], i_A: number, rBE_ohm: number | null, tj
   const ic = new Array<number>(n).fill(0);
   const ib = new Array<number>(n).fill(0);
   const beta = new Array<number>(n).fill(1);
+  const betaAt = new Array<number>(n).fill(0);
   let bleed_A = 0;
   let iE = i_A; // emitter current of the stage being computed (last: ≈ I_C)
   for (let k = n - 1; k >= 0; k--) {
     const d = devs[k]!;
     const b = hfeMin(d, iE, tj_C);
     beta[k] = b;
+    betaAt[k] = iE;
     ic[k] = k === n - 1 ? i_A : (iE * b) / (b + 1);
     ib[k] = k === n - 1 ? i_A / b : iE / (b + 1);
     if (k === n - 1 && rBE_ohm !== null) bleed_A = vbeOn(d, tj_C) / rBE_ohm;
     iE = ib[k]! + (k === n - 1 ? bleed_A : 0);
   }
-  return { ic, ib, beta, bleed_A };
+  return { ic, ib, beta, betaAt, bleed_A };
 }
 
 /** V_sw = V_CE(sat),1 + Σ_{i≥2} V_BE(sat),i at the stage currents (max values). */
@@ -118,6 +122,7 @@ export function planDarlington(ctx: Ctx, n: 2 | 3): ChainPlan {
       worst.beta[k],
       { c: "sw", b: nets[k]![0]!, e: nets[k]![1]! },
       { voltage_V: switchOffVoltage_V(ctx), current_A: worst.ic[k]! },
+      worst.betaAt[k],
     ),
   );
   const rbe = resistor(

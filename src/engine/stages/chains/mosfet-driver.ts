@@ -121,8 +121,24 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
     );
   const parts: Part[] = [
     transistor("chain", "Q_DRV", qd, betaD, { c: "drc", b: "drb", e: "0" }, { voltage_V: railMax, current_A: iCD }),
-    transistor("chain", "Q_HI", qhi, betaHi, { c: rail, b: "drc", e: "pp" }, { voltage_V: railMax, current_A: iPk_A }),
-    transistor("chain", "Q_LO", qlo, betaLo, { c: "0", b: "drc", e: "pp" }, { voltage_V: railMax, current_A: iPk_A }),
+    transistor(
+      "chain",
+      "Q_HI",
+      qhi,
+      betaHi,
+      { c: rail, b: "drc", e: "pp" },
+      { voltage_V: railMax, current_A: iPk_A },
+      iGpk,
+    ),
+    transistor(
+      "chain",
+      "Q_LO",
+      qlo,
+      betaLo,
+      { c: "0", b: "drc", e: "pp" },
+      { voltage_V: railMax, current_A: iPk_A },
+      iGpk,
+    ),
     transistor(
       "chain",
       "Q_POWER",
