@@ -386,7 +386,7 @@ export const SOURCES = {
     short: "Sedra & Smith, Microelectronic Circuits",
     title: "A. S. Sedra, K. C. Smith, Microelectronic Circuits (Oxford University Press)",
     edition: "edition not pinned",
-    where: "the BJT chapter: i_C–v_BE exponential law and base spreading resistance",
+    where: "the BJT chapter: i_C–v_BE exponential law, base spreading resistance, the emitter follower",
     sureness: "from-memory",
     confidence: "from-memory",
     note:
@@ -396,6 +396,11 @@ export const SOURCES = {
       {
         item: "junction voltage against current",
         value: "V_BE,2 = V_BE,1 + V_T·ln(I_C2/I_C1)",
+        sureness: "from-memory",
+      },
+      {
+        item: "emitter-follower output resistance",
+        value: "R_out ≈ r_e + R_source/(β + 1)",
         sureness: "from-memory",
       },
     ],
