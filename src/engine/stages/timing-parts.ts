@@ -121,7 +121,9 @@ export function timingParts(
       stressV: vMax,
       pins: { a: v.follower ? "sa" : "ca", b: baseB },
       polarised: false,
-      why: "timing, couples collector A into base B",
+      why: v.follower
+        ? "timing, couples follower A (through RS_A) into base B"
+        : "timing, couples collector A into base B",
     }),
   );
   parts.push(
@@ -133,7 +135,9 @@ export function timingParts(
       stressV: vMax,
       pins: { a: v.follower ? "sb" : "cb", b: baseA },
       polarised: false,
-      why: "timing, couples collector B into base A",
+      why: v.follower
+        ? "timing, couples follower B (through RS_B) into base A"
+        : "timing, couples collector B into base A",
     }),
   );
   checks.push(checkStress("CT_A", "voltage", vMax, cRated, "V", pol.capacitor.voltage, pol.marginal_above));
