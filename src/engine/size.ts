@@ -20,7 +20,7 @@ import { figure, problem } from "./shared/figures.ts";
 import { NOMINAL_TEMP_C } from "./shared/temperature.ts";
 import { type Ctx, makeContext } from "./stages/context.ts";
 import { CHAIN_PLANNERS } from "./stages/chains/index.ts";
-import { type TapDesign, designTap } from "./stages/tap.ts";
+import { type TapDesign, designFollowerTap, designTap } from "./stages/tap.ts";
 import { type TimingResult, designTiming } from "./stages/timing.ts";
 import { loadStage } from "./stages/load.ts";
 import { thermalStage } from "./stages/thermal.ts";
@@ -29,7 +29,7 @@ import { protectionStage } from "./stages/protection.ts";
 import { seriesLoss_W } from "./stages/series-reverse.ts";
 import { cautions, checkProblems, verdictLead } from "./stages/feasibility.ts";
 import { decideVerdict } from "./stages/verdict.ts";
-import { type RcLowered, designDecisions } from "./stages/decisions.ts";
+import { type FollowerChosen, type RcLowered, designDecisions } from "./stages/decisions.ts";
 
 export function sizeVariant(spec: VariantSpec): SizedVariant {
   try {
@@ -71,7 +71,27 @@ const RC_STEPS = [1.5, 2.2, 3.3, 4.7];
 export function tapAndTiming(
   ctx: Ctx,
   plan: ChainPlan,
-): { tap: TapDesign; timing: TimingResult; rcLowered?: RcLowered } {
+): { tap: TapDesign; timing: TimingResult; rcLowered?: RcLowered; follower?: FollowerChosen } {
+  const plain = plainTapAndTiming(ctx, plan);
+  if (plain.timing.search.passed) return plain;
+  // The follower core (docs/method.md, "Follower core"), only where the plain one does not pass.
+  for (const cap of [true, false]) {
+    const ft = designFollowerTap(ctx, plan, cap);
+    if (ft === null) break;
+    const timing = designTiming(ctx, plan, ft);
+    if (timing.search.passed && !timing.problems.some((p) => p.rule === "follower-off-level")) {
+      const why = plain.timing.problems.find((p) => p.severity === "error");
+      return {
+        tap: ft,
+        timing,
+        follower: { rule: why?.rule ?? "duty-range-worst-case", plainRc_ohm: plain.tap.rC_ohm },
+      };
+    }
+  }
+  return plain;
+}
+
+function plainTapAndTiming(ctx: Ctx, plan: ChainPlan): { tap: TapDesign; timing: TimingResult; rcLowered?: RcLowered } {
   const tap = designTap(ctx, plan);
   const timing = designTiming(ctx, plan, tap);
   if (timing.search.passed) return { tap, timing };
@@ -93,7 +113,7 @@ export function tapAndTiming(
 function sizeInner(spec: VariantSpec): SizedVariant {
   const ctx = makeContext(spec);
   const plan = CHAIN_PLANNERS[spec.chain](ctx);
-  const { tap, timing, rcLowered } = tapAndTiming(ctx, plan);
+  const { tap, timing, rcLowered, follower } = tapAndTiming(ctx, plan);
   const w = timing.search.worst;
   const fin = plan.finish(tap.info, {
     dutyMax: Math.min(1, w.dMax.hi),
@@ -113,7 +133,18 @@ function sizeInner(spec: VariantSpec): SizedVariant {
     p_W: timing.timingLoss_W,
     isPower: false,
   });
-  const losses = [...fin.losses, timingLoss("Q_A"), timingLoss("Q_B")];
+  const followerLoss = (role: SidedRole<"QF">): DeviceLoss => ({
+    ...timingLoss("Q_A"),
+    role,
+    pCond_W: timing.followerLoss_W,
+    p_W: timing.followerLoss_W,
+  });
+  const coreLosses = [
+    timingLoss("Q_A"),
+    timingLoss("Q_B"),
+    ...(tap.follower ? [followerLoss("QF_A"), followerLoss("QF_B")] : []),
+  ];
+  const losses = [...fin.losses, ...coreLosses];
   const thermal = thermalStage(ctx, losses);
   const power = fin.losses.find((l) => l.isPower);
   // The core's own current at the highest supply counts toward the fuse's continuous current.
@@ -144,12 +175,7 @@ function sizeInner(spec: VariantSpec): SizedVariant {
     const note = review.partNotes.get(p.role);
     return note === undefined ? p : { ...p, notes: [...(p.notes ?? []), note] };
   });
-  const driverLoss = driverLoss_W(
-    parts,
-    [...fin.losses, timingLoss("Q_A"), timingLoss("Q_B")],
-    ctx,
-    Math.min(1, w.dMax.hi),
-  );
+  const driverLoss = driverLoss_W(parts, [...fin.losses, ...coreLosses], ctx, Math.min(1, w.dMax.hi));
   const efficiency = Math.max(0, 1 - driverLoss / pIn);
   const circuit = assembleCircuit(parts, {
     supply_V: spec.supply_V,
@@ -253,6 +279,7 @@ function sizeInner(spec: VariantSpec): SizedVariant {
       thermal.conditions.map((c) => /^\/parts\/(.+)$/.exec(c.path)?.[1]).flatMap((r) => (r ? [toRef(r)] : [])),
       rcLowered,
       reviewed.conditions.some((c) => c.rule === "insulator-kit"),
+      follower,
     ),
     corners: timing.corners,
   };

@@ -78,7 +78,54 @@ const CORE_TEMPLATE: Record<TemplateRole, Slot> = {
   CT_R: { x: 590, y: 230, rot: 90, label: "above" },
   RC_R: { x: CORE_R, y: 120 },
   Q_R: { x: CORE_R - 10, y: BASE_Y },
+  // Follower core only (coreLayout moves RC and CT for it, FOLLOWER_SLOTS): each follower sits
+  // outside its collector line, its emitter column carrying the clamp diode back to the collector.
+  QF_L: { x: CORE_L - 55, y: 140, mirror: true, label: "left" },
+  DF_L: { x: CORE_L - 35, y: 195, rot: 270, label: "left" },
+  RS_L: { x: 215, y: 214, rot: 270, label: "below" },
+  QF_R: { x: CORE_R + 55, y: 140 },
+  DF_R: { x: CORE_R + 35, y: 195, rot: 90, label: "right" },
+  RS_R: { x: 625, y: 240, rot: 90, label: "above" },
 };
+/**
+ * The follower core (docs/topologies.md, "Follower core"): each collector feeds its follower's
+ * base, drawn outside the collector line; from the emitter the clamp diode runs back to the
+ * collector and the series resistor on to the coupling capacitor. The two plates run in separate
+ * lanes (untapped side at y 214 to the right, tapped side at y 240 to the left): each crosses the
+ * other's drop and its own collector line only as a bare wire.
+ */
+const FOLLOWER_SLOTS: Partial<Record<TemplateRole, Slot>> = {
+  RC_L: { x: CORE_L, y: 110 },
+  RC_R: { x: CORE_R, y: 110, label: "left" },
+  CT_L: { x: 360, y: 214, rot: 270, label: "above" },
+  CT_R: { x: 480, y: 240, rot: 90, label: "below" },
+};
+const FOLLOWER_ROUTES: Route[] = [
+  ["RC_L.b", "Q_L.c"],
+  ["RC_R.b", "Q_R.c"],
+  ["QF_L.b", [CORE_L, "QF_L.b"]],
+  ["QF_R.b", [CORE_R, "QF_R.b"]],
+  ["QF_L.e", "DF_L.anode"],
+  ["QF_R.e", "DF_R.anode"],
+  ["DF_L.anode", ["DF_L.anode", "RS_L.a"], "RS_L.a"],
+  ["DF_R.anode", ["DF_R.anode", "RS_R.a"], "RS_R.a"],
+  ["DF_L.cathode", [CORE_L, "DF_L.cathode"]],
+  ["DF_R.cathode", [CORE_R, "DF_R.cathode"]],
+  ["RS_L.b", "CT_L.a"],
+  ["RS_R.b", "CT_R.a"],
+  ["RBAL.a", [70, 232], ["DF_L.anode", 232], ["DF_L.anode", "RS_L.a"]],
+  ["RBAL.b", "DBAL.anode"],
+  ["Q_L.b", "DB_L.cathode"],
+  ["Q_R.b", "DB_R.cathode"],
+  ["DB_L.anode", "RB_L.b"],
+  ["DB_R.anode", "RB_R.b"],
+  ["Q_L.b", "RB_L.b"],
+  ["Q_R.b", "RB_R.b"],
+  ["RB_L.a", [390, BASE_Y]],
+  ["RB_R.a", [450, BASE_Y]],
+  ["CT_L.b", [535, "CT_L.b"], [535, BASE_Y]],
+  ["CT_R.b", [305, "CT_R.b"], [305, BASE_Y]],
+];
 const NODE_L = 305; // where CT_R lands on the left base line
 const NODE_R = 535;
 const CORE_ROUTES: Route[] = [
@@ -124,17 +171,18 @@ function subPt(p: RoutePt, tapSide: CoreSide): RoutePt {
   return typeof p === "string" ? sidePin(p, tapSide) : [s(p[0]), s(p[1])];
 }
 
-/** Timing core plus duty control, with the tapped collector on the right. */
-export function coreLayout(tapSide: CoreSide): StageLayout {
+/** Timing core plus duty control, with the tapped collector on the right; `follower` for the follower core. */
+export function coreLayout(tapSide: CoreSide, follower = false): StageLayout {
   const slots: Partial<Record<PlacedRole, Slot>> = {};
   for (const role of Object.keys(CORE_TEMPLATE).filter(isTemplateRole))
-    slots[sideRole(role, tapSide)] = CORE_TEMPLATE[role];
+    slots[sideRole(role, tapSide)] = (follower ? FOLLOWER_SLOTS[role] : undefined) ?? CORE_TEMPLATE[role];
   // The wiper points up to the rail; end `a` (pa, toward RB_A) must face side A.
   slots.RV_DUTY =
     tapSide === "B"
       ? { x: 420, y: BASE_Y, rot: 270, label: "below" }
       : { x: 420, y: BASE_Y, rot: 90, mirror: true, label: "below" };
-  return { slots, routes: CORE_ROUTES.map((r) => r.map((p) => subPt(p, tapSide))), width: CORE_WIDTH };
+  const routes = follower ? FOLLOWER_ROUTES : CORE_ROUTES;
+  return { slots, routes: routes.map((r) => r.map((p) => subPt(p, tapSide))), width: CORE_WIDTH };
 }
 
 /** Resolves "RC_R.b"-style references outside the core (the chain's tap wire). */

@@ -143,7 +143,10 @@ function stages(circuit: CircuitModel, highSide: boolean): Record<StageKind, Sta
   const tapSide = circuit.tapNet === "ca" ? "A" : "B";
   const chainRoles = new Set(circuit.parts.filter((p) => p.stage === "chain").map((p) => p.role));
   const chain = CHAIN[L.chainKindOf(chainRoles)];
-  const core = L.coreLayout(tapSide);
+  const core = L.coreLayout(
+    tapSide,
+    circuit.parts.some((p) => p.role === "QF_A"),
+  );
   const x1 = LEFT_X + L.SUPPLY.width;
   const x2 = x1 + core.width;
   const x3 = x2 + chain.outX;

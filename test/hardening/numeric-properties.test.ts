@@ -6,6 +6,7 @@
  * Physical relations used: conduction loss grows with current (P = I·V_sat·D or I²·R·D), and
  * off-state voltage stress follows the supply [src:common-practice].
  */
+import { RT_MAX_OHM } from "../../src/engine/stages/tap.ts";
 import fc from "fast-check";
 import { beforeAll, describe, expect, it } from "vitest";
 import { loadProject } from "../../src/records/index.ts";
@@ -258,7 +259,12 @@ describe("engine numbers over the schema's whole input space", () => {
         if (p.chain !== "mosfet-logic" && p.chain !== "mosfet-driver") {
           const da = driveCurrent(a);
           const db = driveCurrent(b);
-          if (da !== undefined && db !== undefined)
+          // With both tap resistors at their cap (tap.ts RT_MAX_OHM) the drive is not sized by the
+          // need: it is (V − V_clamp)/(R_T,max + …), and the stack's clamp rises with its current, so
+          // the larger load may get a few per cent less (still above its need; the chain's checks say so).
+          const rt = (v: SizedVariant) => v.circuit?.parts.find((x) => x.role === "RT")?.value;
+          const capped = rt(a) === RT_MAX_OHM && rt(b) === RT_MAX_OHM;
+          if (da !== undefined && db !== undefined && !capped)
             expect(db, `drive ${a.spec.id} → ${b.spec.id}`).toBeGreaterThanOrEqual(da * (1 - REL));
         }
       }),

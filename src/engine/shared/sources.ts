@@ -387,8 +387,8 @@ export const SOURCES = {
     title: "A. S. Sedra, K. C. Smith, Microelectronic Circuits (Oxford University Press)",
     edition: "edition not pinned",
     where:
-      "the BJT chapter: i_C–v_BE exponential law, base spreading resistance, saturation (I_C < β·I_B); the " +
-      "MOSFET chapter: the square law above the knee",
+      "the BJT chapter: i_C–v_BE exponential law, base spreading resistance, saturation (I_C < β·I_B), the " +
+      "emitter follower; the MOSFET chapter: the square law above the knee",
     sureness: "from-memory",
     confidence: "from-memory",
     note:
@@ -408,6 +408,11 @@ export const SOURCES = {
       {
         item: "MOSFET drain current above the knee (level-1 square law)",
         value: "I_D = K/2·(V_GS − V_th)², with R_ch = 1/(K·(V_GS − V_th)) below it",
+        sureness: "from-memory",
+      },
+      {
+        item: "emitter-follower output resistance",
+        value: "R_out ≈ r_e + R_source/(β + 1)",
         sureness: "from-memory",
       },
     ],

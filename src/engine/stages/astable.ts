@@ -109,6 +109,51 @@ export interface CoreParams {
   rBB_ohm: number;
   loadA?: CollectorLoad;
   loadB?: CollectorLoad;
+  /** Recovery followers (follower-core arrangement); absent: the plain core. The loads then sit on the emitters. */
+  follower?: FollowerParams;
+}
+
+/**
+ * The recovery-follower arrangement per side X: an emitter follower Q_FX (base on the collector,
+ * collector to the rail) drives the coupling capacitor through a series resistor R_S; a diode D_FX
+ * from the follower's emitter to the collector pulls the plate down when Q_X saturates.
+ */
+export interface FollowerParams {
+  /** The follower's V_BE while it carries the chain (or the recharge) current, V. */
+  vBe_V: number;
+  /** The follower's minimum gain. */
+  beta: number;
+  /** Series resistor between the follower's emitter and the coupling capacitor, Ω. */
+  rS_ohm: number;
+  /** Forward drop of D_FA and D_FB at the current they carry when their side saturates, V. */
+  vFA_V: number;
+  vFB_V: number;
+}
+
+/**
+ * Thevenin equivalent of a follower's emitter node: the collector's R_C seen through the follower's
+ * base is R_C/(β + 1), behind a source V_cc − V_BE,F (emitter-follower output resistance
+ * R_out ≈ r_e + R_source/(β + 1), Sedra & Smith, the emitter-follower section, from memory
+ * [src:sedra-smith]; r_e ≈ V_T/I_E is a few ohms at the currents here and is left out), loaded
+ * like a collector (collectorThevenin).
+ */
+export function followerThevenin(
+  vcc_V: number,
+  rC_ohm: number,
+  f: Pick<FollowerParams, "vBe_V" | "beta">,
+  load?: CollectorLoad,
+): { v_V: number; r_ohm: number } {
+  return collectorThevenin(vcc_V - f.vBe_V, rC_ohm / (f.beta + 1), load);
+}
+
+/**
+ * The step the follower core couples into the opposite base: from the emitter's high level
+ * V_E,high = V_C,high − V_BE,F down to the clamped plate V_CE(sat) + V_F (the diode conducts into the
+ * saturated collector): V_swing = V_C,high − V_BE,F − (V_CE(sat) + V_F) (derived). Its recovery
+ * constant is (R_out + R_S)·C, R_out the emitter node's Thevenin resistance (followerThevenin).
+ */
+export function followerSwing_V(vEHigh_V: number, vSat_V: number, vF_V: number): number {
+  return Math.max(0, vEHigh_V - vSat_V - vF_V);
 }
 
 export interface CoreTiming {
@@ -117,6 +162,7 @@ export interface CoreTiming {
   period_s: number;
   /** Fraction of the period collector A is high (Q_A off). */
   aHigh: number;
+  /** High level of each driven node: the collector (plain core) or the follower's emitter. */
   vHighA_V: number;
   vHighB_V: number;
   swingA_V: number;
@@ -131,12 +177,13 @@ export interface CoreTiming {
  * recovery term e^(−t/τ) is small in any sane design).
  */
 export function evaluateCore(p: CoreParams): CoreTiming {
-  const a = collectorThevenin(p.vcc_V, p.rCA_ohm, p.loadA);
-  const b = collectorThevenin(p.vcc_V, p.rCB_ohm, p.loadB);
-  const fullA = Math.max(0, a.v_V - p.vSat_V);
-  const fullB = Math.max(0, b.v_V - p.vSat_V);
-  const tauA_s = a.r_ohm * p.cA_F;
-  const tauB_s = b.r_ohm * p.cB_F;
+  const fo = p.follower;
+  const a = fo ? followerThevenin(p.vcc_V, p.rCA_ohm, fo, p.loadA) : collectorThevenin(p.vcc_V, p.rCA_ohm, p.loadA);
+  const b = fo ? followerThevenin(p.vcc_V, p.rCB_ohm, fo, p.loadB) : collectorThevenin(p.vcc_V, p.rCB_ohm, p.loadB);
+  const fullA = fo ? followerSwing_V(a.v_V, p.vSat_V, fo.vFA_V) : Math.max(0, a.v_V - p.vSat_V);
+  const fullB = fo ? followerSwing_V(b.v_V, p.vSat_V, fo.vFB_V) : Math.max(0, b.v_V - p.vSat_V);
+  const tauA_s = (a.r_ohm + (fo?.rS_ohm ?? 0)) * p.cA_F;
+  const tauB_s = (b.r_ohm + (fo?.rS_ohm ?? 0)) * p.cB_F;
   const vGamma = p.vCutIn_V ?? p.vOn_V;
   let swingA = fullA;
   let swingB = fullB;

@@ -7,10 +7,17 @@
  * (collector A is high, and collector B low, exactly while Q_A is off; ctrl raises R_BA.)
  */
 import type { BjtClass, DiodeClass } from "../../model/device.ts";
-import { VBE_TEMPCO_VperK, vbeOn, vceSat } from "../shared/gain.ts";
+import { VBE_TEMPCO_VperK, hfeMin, vbeOn, vceSat } from "../shared/gain.ts";
 import { diodeClassVf_V } from "../shared/diode.ts";
 import { NOMINAL_TEMP_C } from "../shared/temperature.ts";
-import { type CollectorLoad, type CoreTiming, evaluateCore, thresholdDelay_s } from "./astable.ts";
+import {
+  type CollectorLoad,
+  type CoreTiming,
+  type FollowerParams,
+  evaluateCore,
+  followerThevenin,
+  thresholdDelay_s,
+} from "./astable.ts";
 
 export interface CoreValues {
   c_F: number;
@@ -28,6 +35,12 @@ export interface CoreValues {
   vThTap_V: number;
   delayOn_s: number;
   delayOff_s: number;
+  /**
+   * Recovery followers (docs/topologies.md, "Follower core"): the series resistor R_S between each
+   * follower's emitter and its coupling capacitor. Absent: the plain core. With followers the tap
+   * load (and any balance) sits on the follower emitters, and the chain is fed from the tapped one.
+   */
+  follower?: { rS_ohm: number };
 }
 
 /** Multipliers (1 ± tolerance) and conditions of one worst-case corner: one definition, in the model. */
@@ -71,6 +84,36 @@ export interface CoreEval {
   vOn_V: number;
   vCutIn_V: number;
   vSat_V: number;
+  /** The followers' parameters at this corner (follower core only). */
+  follower?: FollowerParams;
+}
+
+/** Smallest follower current its gain is read at, A (the untapped follower carries little; ours). */
+export const FOLLOWER_I_MIN_A = 1e-3;
+
+/**
+ * The followers at one corner: V_BE(on) and the minimum gain of the timing transistor class (the
+ * followers are the same small-signal NPN) at the tapped follower's load current; each diode's
+ * drop at the base-resistor current it carries while its side saturates (D_FA carries R_BB's
+ * current: CT_A recharges base node B through it), ≈ V_cc/R_B (derived).
+ */
+export function followerAt(
+  v: CoreValues,
+  q: BjtClass,
+  db: DiodeClass,
+  k: Corner,
+  rBA_ohm: number,
+  rBB_ohm: number,
+): FollowerParams | undefined {
+  if (v.follower === undefined) return undefined;
+  const iLoad = Math.max(FOLLOWER_I_MIN_A, (k.vcc_V - v.tapLoad.v_V) / v.tapLoad.r_ohm);
+  return {
+    vBe_V: vbeOn(q, k.t_C),
+    beta: hfeMin(q, Math.min(q.ic_max_A, iLoad), k.t_C),
+    rS_ohm: v.follower.rS_ohm,
+    vFA_V: diodeVf_V(db, k.vcc_V / rBB_ohm, k.t_C),
+    vFB_V: diodeVf_V(db, k.vcc_V / rBA_ohm, k.t_C),
+  };
 }
 
 export function evalCore(v: CoreValues, q: BjtClass, db: DiodeClass, k: Corner, ctrl: number): CoreEval {
@@ -92,6 +135,7 @@ export function evalCore(v: CoreValues, q: BjtClass, db: DiodeClass, k: Corner, 
     if (v.balance) loads.loadA = v.balance;
   }
   const vCutIn_V = Math.min(vOn_V, cutIn_V(v.diodes, db, k.t_C));
+  const fo = followerAt(v, q, db, k, rBA, rBB);
   const timing = evaluateCore({
     vcc_V: k.vcc_V,
     vOn_V,
@@ -104,21 +148,35 @@ export function evalCore(v: CoreValues, q: BjtClass, db: DiodeClass, k: Corner, 
     rBA_ohm: rBA,
     rBB_ohm: rBB,
     ...loads,
+    ...(fo ? { follower: fo } : {}),
   });
   // The tapped collector's rise before the chain conducts: R_C towards Vcc, in parallel with any
   // linear input network; it charges its own coupling capacitor.
   const rCX = tapA ? rCA : rCB;
   const cX = v.c_F * (tapA ? k.kCA : k.kCB);
   const pre = v.preLinear_ohm;
-  const vInf = pre === undefined ? k.vcc_V : (k.vcc_V * pre) / (rCX + pre);
-  const rTh = pre === undefined ? rCX : (rCX * pre) / (rCX + pre);
-  const dtTh_s = thresholdDelay_s(rTh * cX, vInf, vSat_V, v.vThTap_V);
+  const preLoad = pre === undefined ? undefined : { r_ohm: pre, v_V: 0 };
+  let dtTh_s: number | null;
+  if (fo === undefined) {
+    const vInf = pre === undefined ? k.vcc_V : (k.vcc_V * pre) / (rCX + pre);
+    const rTh = pre === undefined ? rCX : (rCX * pre) / (rCX + pre);
+    dtTh_s = thresholdDelay_s(rTh * cX, vInf, vSat_V, v.vThTap_V);
+  } else {
+    // The follower's emitter feeds the chain. When Q_X turns off the emitter leaves its clamped
+    // level V_low = V_CE(sat) + V_F at once, except for the drop the capacitor's recharge current
+    // makes across R_out: e(t) = V_th − R_out/(R_out + R_S)·(V_th − V_low)·e^(−t/τ), τ = (R_out + R_S)·C
+    // (derived from the emitter node's Thevenin equivalent, followerThevenin).
+    const th = followerThevenin(k.vcc_V, rCX, fo, preLoad);
+    const vLow = vSat_V + (tapA ? fo.vFA_V : fo.vFB_V);
+    const vStart = th.v_V - (th.r_ohm / (th.r_ohm + fo.rS_ohm)) * Math.max(0, th.v_V - vLow);
+    dtTh_s = thresholdDelay_s((th.r_ohm + fo.rS_ohm) * cX, th.v_V, vStart, v.vThTap_V);
+  }
   const dt = dtTh_s ?? timing.period_s;
   const tOn = v.inverting
     ? timing.tAoff_s + dt + v.delayOff_s - v.delayOn_s
     : timing.tAoff_s - dt - v.delayOn_s + v.delayOff_s;
   const duty = Math.min(1, Math.max(0, tOn / timing.period_s));
-  return { timing, f_Hz: 1 / timing.period_s, duty, dtTh_s, vOn_V, vCutIn_V, vSat_V };
+  return { timing, f_Hz: 1 / timing.period_s, duty, dtTh_s, vOn_V, vCutIn_V, vSat_V, ...(fo ? { follower: fo } : {}) };
 }
 
 /**

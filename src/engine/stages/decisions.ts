@@ -19,6 +19,10 @@ import { PREFERRED_REASON } from "../devices/choose.ts";
 const DEVICE_ROLE_OF: Partial<Record<PartRole, DeviceRole>> = {
   Q_A: "timing_npn",
   Q_B: "timing_npn",
+  QF_A: "timing_npn",
+  QF_B: "timing_npn",
+  DF_A: "signal_diode",
+  DF_B: "signal_diode",
   Q_DRV: "driver_npn",
   Q_HI: "driver_npn",
   Q_LO: "driver_pnp",
@@ -73,6 +77,23 @@ export interface RcLowered {
   to_ohm: number;
 }
 
+/** What size.ts tapAndTiming reports when it chose the follower core: the plain core's first failure. */
+export interface FollowerChosen {
+  rule: string;
+  plainRc_ohm: number;
+}
+
+/** Why the plain core failed, in the builder's words, by the rule its timing stage reported. */
+const PLAIN_FAILURE: Partial<Record<string, string>> = {
+  "collector-recovery":
+    "its collectors, which both recharge the coupling capacitors and feed the chain, recover too slowly",
+  "duty-range-unreachable": "its base resistors cannot span the duty range while keeping the transistors saturated",
+  "duty-range-worst-case": "its control falls short of the duty range at worst case",
+  "tap-drive-insufficient": "its collector resistor cannot feed the chain's input current",
+  "base-diode-injection": "its base diodes' capacitance injects too much current at the R_C it needs",
+  "threshold-unreached": "its tapped collector does not reach the chain's threshold at every corner",
+};
+
 export function designDecisions(
   spec: VariantSpec,
   circuit: CircuitModel,
@@ -80,6 +101,7 @@ export function designDecisions(
   heatsinkRefs: string[],
   rcLowered?: RcLowered,
   insulated = false,
+  follower?: FollowerChosen,
 ): DesignDecision[] {
   const out: DesignDecision[] = [];
   const seen = new Set<DeviceRole>();
@@ -136,6 +158,21 @@ export function designDecisions(
         `with ${formatValue(rcLowered.from_ohm, "Ω")} (the largest the chain's input allows) no core passed: the ` +
         `collectors' recovery 5·R_C·C or the base diodes' injection was over its limit; the smaller value passes ` +
         `every limit with the overdrive the search requires`,
+    });
+  }
+  if (follower !== undefined) {
+    const refs = circuit.parts
+      .filter((p) => ["QF_A", "QF_B", "DF_A", "DF_B", "RS_A", "RS_B"].includes(p.role))
+      .map((p) => p.ref);
+    out.push({
+      refs,
+      topic: "timing core arrangement",
+      choice: "recovery followers: an emitter follower, a clamp diode and a series resistor per side",
+      reason:
+        `the plain core (R_C ${formatValue(follower.plainRc_ohm, "Ω")}) does not pass: ` +
+        `${PLAIN_FAILURE[follower.rule] ?? follower.rule}. Each follower recharges its coupling capacitor ` +
+        `through R_S (τ ≈ R_S·C instead of R_C·C) and feeds the chain from its emitter, so R_C only feeds a ` +
+        `follower's base and may be larger, which lets the base resistors span a wider duty range`,
     });
   }
   return out;

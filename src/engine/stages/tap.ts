@@ -10,7 +10,9 @@
  * the derated V_GS max (V_cc,max), with R_C small enough that Q_G moves in ≤ 2 % of the period.
  */
 import type { BjtClass, DiodeClass, MosfetClass } from "../../model/device.ts";
-import { hfeMin, vbeOn, vceSat } from "../shared/gain.ts";
+import { VBE_TEMPCO_VperK, hfeMin, vbeOn, vceSat } from "../shared/gain.ts";
+import { diodeClassVf_V } from "../shared/diode.ts";
+import { NOMINAL_TEMP_C } from "../shared/temperature.ts";
 import { INJECTION_MAX } from "./astable.ts";
 import { diodeCj_F } from "../shared/diode.ts";
 import type { Part } from "../../model/circuit.ts";
@@ -56,7 +58,12 @@ const INPUT_NET: Record<string, string> = {
 };
 
 export interface TapDesign {
+  /** The tapped side's collector (the side whose state the chain follows). */
   tapNet: "ca" | "cb";
+  /** The net the chain's input network hangs on: the tapped collector, or its follower's emitter. */
+  driveNet?: "fa" | "fb";
+  /** Recovery followers (follower core): the series resistor to each coupling capacitor, Ω. */
+  follower?: { rS_ohm: number };
   inputNet: string;
   rC_ohm: number;
   load: CollectorLoad;
@@ -251,5 +258,112 @@ export function designTap(ctx: Ctx, plan: ChainPlan, rcCap_ohm: number = RC_MAX_
     parts: [rg.part, rgs.part],
     problems: [...problems, ...rg.problems, ...rgs.problems],
     checks: [...rg.checks, ...rgs.checks],
+  };
+}
+
+/**
+ * Chains a follower core may feed from its emitter, with the number of B–E junctions in series at
+ * their input. The follower's emitter only falls to the clamped level V_CE(sat) + V_F while its
+ * side saturates (the diode D_FX holds it there), about 0.7 V: an input of one junction would
+ * still conduct there, a stack of two or three does not (docs/topologies.md, "Follower core").
+ */
+export const FOLLOWER_CHAIN_JUNCTIONS: Partial<Record<string, number>> = { "darlington-2": 2, "darlington-3": 3 };
+/**
+ * Least margin between the chain's hot threshold and the emitter's clamped low level, V: 0.15 V is
+ * about six thermal voltages, so the chain's input current there is ≈ e^(−0.15/(n·V_T)) ≲ 1/100 of
+ * its threshold current (the junction's exponential law, Sedra & Smith [src:sedra-smith], from
+ * memory; the margin itself is ours).
+ */
+export const FOLLOWER_OFF_MARGIN_V = 0.15;
+/** Share of the span V_cc,min − V_BE,F − V_clamp the follower's base drop R_C·I/(β + 1) may take (ours). */
+export const FOLLOWER_SHARE_ALPHA = 0.25;
+/**
+ * Diode current at which the tap's first estimate of the clamped low level is read, A: the opposite
+ * base resistor's current V_cc/R_B, R_B ≳ 10 kΩ (order of magnitude; ours). The timing stage checks
+ * the level again with the base resistors chosen (followerOffLevel_V).
+ */
+const CLAMP_I_A = 1e-3;
+
+/**
+ * Highest level the follower's emitter sits at while its side saturates: V_CE(sat) + V_F of D_FX at
+ * the current it carries, the opposite base resistor's, at most (2·V_cc,max − V_on)/R_end,min right
+ * after the edge (as the base resistor's peak, timing-parts.ts), cold (derived).
+ */
+export function followerOffLevel_V(ctx: Ctx, q: BjtClass, db: DiodeClass, rC_ohm: number, iDiode_A: number): number {
+  return vceSat(q, Math.min(q.ic_max_A, ctx.vMax_V / rC_ohm)) + diodeClassVf_V(db, iDiode_A, ctx.taMin_C);
+}
+
+/** The chain's threshold at the tap when hot (each of its n junctions −2 mV/K [src:vbe-tempco]). */
+export function followerChainThresholdHot_V(ctx: Ctx, plan: ChainPlan): number | null {
+  const nJ = FOLLOWER_CHAIN_JUNCTIONS[ctx.spec.chain];
+  if (plan.need.kind !== "base-current" || nJ === undefined) return null;
+  return plan.need.vThreshold_V + nJ * VBE_TEMPCO_VperK * (ctx.taMax_C - NOMINAL_TEMP_C);
+}
+
+/**
+ * The tap of the follower core (base-current chains of FOLLOWER_CHAIN_JUNCTIONS): the chain's tap
+ * resistor hangs on the tapped follower's emitter, a source V_cc − V_BE,F behind R_C/(β_F + 1)
+ * (astable.ts followerThevenin). R_C is no longer what recharges the coupling capacitor and feeds
+ * the chain, only the follower's base: it may be β_F times larger, R_C = α·span·(β_F,min + 1)/I_need
+ * within [R_C,min, RC_MAX_OHM] (α = 0.25, ours), which lifts the timing transistors' largest base
+ * resistor β·R_C/k. The series resistor R_S to each coupling capacitor bounds the recharge current
+ * into the opposite base and the follower's peak: V_cc,max/R_S + I_chain,max within the class's
+ * derated current, the smallest E24 value that does (so τ = (R_out + R_S)·C stays short).
+ * Null when the chain is not one a follower may feed, or the class cannot carry the chain's current.
+ */
+export function designFollowerTap(ctx: Ctx, plan: ChainPlan, capInjection = true): TapDesign | null {
+  const need = plan.need;
+  const nJ = FOLLOWER_CHAIN_JUNCTIONS[ctx.spec.chain];
+  if (need.kind !== "base-current" || nJ === undefined) return null;
+  const q = ctx.spec.devices.timing_npn as BjtClass;
+  const db = ctx.spec.devices.signal_diode as DiodeClass;
+  const pol = ctx.spec.policy;
+  const tol = ctx.rTol;
+  const iAllowed = q.ic_max_A * pol.bjt.current.factor;
+  // Off state: the chain's threshold when hot against the clamped emitter level when cold.
+  const vThHot = followerChainThresholdHot_V(ctx, plan)!;
+  if (vThHot - followerOffLevel_V(ctx, q, db, rcMin(ctx), CLAMP_I_A) < FOLLOWER_OFF_MARGIN_V) return null;
+  const vBeCold = vbeOn(q, ctx.taMin_C);
+  const vBeHot = vbeOn(q, ctx.taMax_C);
+  const span = ctx.vMin_V - vBeCold - need.vClamp_V;
+  const beta = hfeMin(q, Math.min(q.ic_max_A, need.i_A * (1 + tol)), ctx.taMin_C);
+  if (!(span > 0) || need.i_A * (1 + tol) >= iAllowed) return null;
+  const rCi = (FOLLOWER_SHARE_ALPHA * span * (beta + 1)) / need.i_A;
+  const rC = capRc(ctx, Math.min(RC_MAX_OHM, Math.max(rcMin(ctx), roundDown(Math.max(rCi, 1), "E24"))), capInjection);
+  const rOut = (rC * (1 + tol)) / (beta + 1);
+  const rTmax = span / (need.i_A * (1 + tol)) - rOut / (1 - tol);
+  if (!(rTmax >= 1)) return null;
+  const rT = Math.min(RT_MAX_OHM, roundDown(rTmax, "E24"));
+  const iMin = span / (rT * (1 + tol) + rOut);
+  const iMax = (ctx.vMax_V - vBeHot - need.vThreshold_V) / (rT * (1 - tol));
+  if (!(iMax < iAllowed)) return null;
+  const rS = roundUp(ctx.vMax_V / ((iAllowed - iMax) * (1 - tol)), "E24");
+  const tapNet = need.inverting ? "cb" : "ca";
+  const driveNet = need.inverting ? "fb" : "fa";
+  const inputNet = INPUT_NET[ctx.spec.chain]!;
+  const rt = resistor(
+    "chain",
+    "RT",
+    rT,
+    { a: driveNet, b: inputNet },
+    iMax * iMax * rT * (1 + tol),
+    pol,
+    "tap: the timing follower's emitter to the chain input",
+  );
+  const bleed = plan.inputBleed_ohm;
+  return {
+    tapNet,
+    driveNet,
+    follower: { rS_ohm: rS },
+    inputNet,
+    rC_ohm: rC,
+    load: { r_ohm: rT, v_V: need.vClamp_V },
+    ...(bleed !== undefined ? { preLinear_ohm: rT + bleed } : {}),
+    vThTap_V:
+      bleed !== undefined ? (need.vThreshold_V * (rT + bleed)) / bleed : need.vThreshold_V + rT * (need.iEdge_A ?? 0),
+    info: { rC_ohm: rC, rTap_ohm: rT, iMin_A: iMin, iMax_A: iMax },
+    parts: [rt.part],
+    problems: rt.problems,
+    checks: rt.checks,
   };
 }

@@ -7,7 +7,7 @@ import type { Part } from "../../model/circuit.ts";
 import type { DesignProblem } from "../../model/problem.ts";
 import type { StressCheck } from "../../model/derating.ts";
 import { checkStress } from "../shared/derating.ts";
-import { hfeMin, vceSat } from "../shared/gain.ts";
+import { hfeMin, vbeOn, vceSat } from "../shared/gain.ts";
 import { capacitor, diode, resistor, transistor } from "../../circuit/parts.ts";
 import type { CollectorLoad } from "./astable.ts";
 import { type Ctx, POT_TOLERANCE } from "./context.ts";
@@ -35,7 +35,7 @@ export function timingParts(
   bal: { load: CollectorLoad | undefined; diode: boolean },
   w: WorstCase,
   vOn_V: number,
-): { parts: Part[]; problems: DesignProblem[]; checks: StressCheck[]; loss_W: number } {
+): { parts: Part[]; problems: DesignProblem[]; checks: StressCheck[]; loss_W: number; followerLoss_W: number } {
   const pol = ctx.spec.policy;
   const { load: balance, diode: balanceDiode } = bal;
   const tol = ctx.rTol;
@@ -120,9 +120,11 @@ export function timingParts(
       tol: ctx.cTol,
       ratedV: cRated,
       stressV: vMax,
-      pins: { a: "ca", b: baseB },
+      pins: { a: v.follower ? "sa" : "ca", b: baseB },
       polarised: false,
-      why: "timing, couples collector A into base B",
+      why: v.follower
+        ? "timing, couples follower A (through RS_A) into base B"
+        : "timing, couples collector A into base B",
     }),
   );
   parts.push(
@@ -132,9 +134,11 @@ export function timingParts(
       tol: ctx.cTol,
       ratedV: cRated,
       stressV: vMax,
-      pins: { a: "cb", b: baseA },
+      pins: { a: v.follower ? "sb" : "cb", b: baseA },
       polarised: false,
-      why: "timing, couples collector B into base A",
+      why: v.follower
+        ? "timing, couples follower B (through RS_B) into base A"
+        : "timing, couples collector B into base A",
     }),
   );
   checks.push(checkStress("CT_A", "voltage", vMax, cRated, "V", pol.capacitor.voltage, pol.marginal_above));
@@ -155,7 +159,7 @@ export function timingParts(
     }
   }
   if (balance !== undefined) {
-    const untapped = tap.tapNet === "ca" ? "cb" : "ca";
+    const untapped = v.follower ? (tap.tapNet === "ca" ? "fb" : "fa") : tap.tapNet === "ca" ? "cb" : "ca";
     const i = (vMax - balance.v_V) / ((v.rC_ohm + balance.r_ohm) * (1 - tol));
     const rb = resistor(
       "timing",
@@ -204,8 +208,80 @@ export function timingParts(
     pins: { a: "pa", w: "vbus", b: "pb" },
   });
   checks.push(checkStress("RV_DUTY", "power", pTrack, potW, "W", potRule, pol.marginal_above));
-  void w;
+  const followerLoss_W = v.follower
+    ? followerParts(ctx, { q, db, gain }, v, v.follower.rS_ohm, { tap, w, iBpk_A: iBpk }, { parts, problems, checks })
+    : 0;
   // Each timing transistor: I_C·V_CE(sat) while on (≤ 100 % of the time) + base drive (conservative).
   const loss_W = iCmax * vceSat(q, iCmax) + iBpk * vOn_V;
-  return { parts, problems, checks, loss_W };
+  return { parts, problems, checks, loss_W, followerLoss_W };
+}
+
+/**
+ * The recovery followers' parts (follower core): Q_FX, D_FX and R_SX per side, with their worst-case
+ * stresses; returns one follower's worst-case dissipation, W.
+ *  - Q_FX peak current: the chain's largest input current plus the largest recharge current
+ *    V_cc,max/R_S (the whole step across R_S at the edge; derived), V_CE ≤ V_cc,max.
+ *  - Q_FX dissipation: the chain current at V_CE = V_BE,F + R_C·I/(β_F + 1) for the whole period, plus
+ *    the charge C·V_cc,max the capacitor takes from the rail each period at up to V_cc,max:
+ *    P = I·V_CE + C·V_cc,max²·f_max (conservative; derived).
+ *  - R_SX: each charge and each discharge of C through it dissipates ½·C·V² (the energy lost charging
+ *    a capacitor through a resistor; Hayt & Kemmerly, first-order circuits, from memory
+ *    [src:hayt-kemmerly-ch8]), so P = C·V_cc,max²·f_max.
+ *  - D_FX carries the opposite base resistor's current (and the chain input's stored charge at the
+ *    edge): peak (2·V_cc,max − V_on)/R_end,min plus the chain's current, reverse only V_BE,F.
+ */
+function followerParts(
+  ctx: Ctx,
+  dev: { q: BjtClass; db: DiodeClass; gain: number },
+  v: CoreValues,
+  rS_ohm: number,
+  at: { tap: TapDesign; w: WorstCase; iBpk_A: number },
+  out: { parts: Part[]; problems: DesignProblem[]; checks: StressCheck[] },
+): number {
+  const { q, db, gain } = dev;
+  const { tap, w, iBpk_A } = at;
+  const pol = ctx.spec.policy;
+  const tol = ctx.rTol;
+  const vMax = ctx.vMax_V;
+  const fMax = w.f.hi;
+  const cMax = v.c_F * (1 + ctx.cTol);
+  const iChain = tap.info.iMax_A;
+  const iFpk = vMax / (rS_ohm * (1 - tol)) + iChain;
+  const betaF = hfeMin(q, Math.min(q.ic_max_A, Math.max(iChain, 1e-3)), ctx.taMin_C);
+  const vCeF = vbeOn(q, ctx.taMin_C) + (v.rC_ohm * (1 + tol) * iChain) / (betaF + 1);
+  const pRecharge = cMax * vMax * vMax * fMax;
+  const pF = iChain * vCeF + pRecharge;
+  for (const side of ["A", "B"] as const) {
+    const c = side === "A" ? "ca" : "cb";
+    const e = side === "A" ? "fa" : "fb";
+    const plate = side === "A" ? "sa" : "sb";
+    out.parts.push(
+      transistor("timing", `QF_${side}`, q, gain, { c: "vbus", b: c, e }, { voltage_V: vMax, current_A: iFpk }),
+    );
+    out.checks.push(checkStress(`QF_${side}`, "current", iFpk, q.ic_max_A, "A", pol.bjt.current, pol.marginal_above));
+    out.checks.push(checkStress(`QF_${side}`, "voltage", vMax, q.vceo_V, "V", pol.bjt.voltage, pol.marginal_above));
+    out.parts.push(
+      diode(
+        "timing",
+        `DF_${side}`,
+        db,
+        { anode: e, cathode: c },
+        { voltage_V: vbeOn(q, ctx.taMin_C), current_A: iBpk_A + iChain },
+        `pulls the capacitor plate down when Q_${side} saturates`,
+      ),
+    );
+    const rs = resistor(
+      "timing",
+      `RS_${side}`,
+      rS_ohm,
+      { a: e, b: plate },
+      pRecharge * (1 + tol),
+      pol,
+      `bounds the recharge current of CT_${side}`,
+    );
+    out.parts.push(rs.part);
+    out.checks.push(...rs.checks);
+    out.problems.push(...rs.problems);
+  }
+  return pF;
 }

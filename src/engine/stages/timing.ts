@@ -12,12 +12,12 @@ import type { StressCheck } from "../../model/derating.ts";
 import { nearest } from "../shared/e-series.ts";
 import { figure, problem } from "../shared/figures.ts";
 import { vbeOn, vceSat } from "../shared/gain.ts";
-import { evaluateCore, lnFactor, type CollectorLoad } from "./astable.ts";
+import { evaluateCore, followerThevenin, lnFactor, type CollectorLoad } from "./astable.ts";
 import type { Ctx } from "./context.ts";
-import { type CoreValues, NOMINAL_K, diodeVf_V, evalCore } from "./core-model.ts";
+import { type CoreEval, type CoreValues, NOMINAL_K, diodeVf_V, evalCore, followerAt } from "./core-model.ts";
 import { MAX_RECOVERY, type Search, envelopeOf, injection, searchCore } from "./timing-search.ts";
 import { INJECTION_MAX } from "./astable.ts";
-import type { TapDesign } from "./tap.ts";
+import { FOLLOWER_OFF_MARGIN_V, type TapDesign, followerChainThresholdHot_V, followerOffLevel_V } from "./tap.ts";
 import type { ChainPlan } from "./chains/types.ts";
 import { timingParts } from "./timing-parts.ts";
 import { NOMINAL_TEMP_C } from "../shared/temperature.ts";
@@ -35,6 +35,8 @@ export interface TimingResult {
   /** Reverse B–E voltage an unprotected timing transistor would see, V. */
   vebReverse_V: number;
   timingLoss_W: number;
+  /** Worst-case dissipation of one recovery follower, W (0: plain core). */
+  followerLoss_W: number;
   /** Nominal frequency with the control at 1 (where the nominal dissipation is read), Hz. */
   fCtrl1_Hz: number;
   /** Saturation voltage of a timing transistor at nominal supply, V. */
@@ -44,6 +46,62 @@ export interface TimingResult {
 }
 
 const fmtPct = (x: number): string => `${(x * 100).toFixed(1)} %`;
+
+/** The chain must stay off while the tapped follower's emitter sits clamped (tap.ts); none for the plain core. */
+function followerOffProblems(ctx: Ctx, plan: ChainPlan, q: BjtClass, db: DiodeClass, v: CoreValues): DesignProblem[] {
+  if (v.follower === undefined) return [];
+  const iD = (2 * ctx.vMax_V) / (Math.min(v.rEndA_ohm, v.rEndB_ohm) * (1 - ctx.rTol));
+  const vOff = followerOffLevel_V(ctx, q, db, v.rC_ohm, iD);
+  const vTh = followerChainThresholdHot_V(ctx, plan);
+  if (vTh === null || vTh - vOff >= FOLLOWER_OFF_MARGIN_V) return [];
+  return [
+    problem(
+      "timing",
+      "/parts/DF_A",
+      "follower-off-level",
+      "error",
+      `While its side saturates the follower's emitter sits at V_CE(sat) + V_F = ${vOff.toFixed(2)} V, within ` +
+        `${FOLLOWER_OFF_MARGIN_V} V of the chain's hot threshold ${vTh.toFixed(2)} V: the load would not ` +
+        `switch fully off. Use the plain core or a chain with more junctions at its input.`,
+      { limit: vTh - FOLLOWER_OFF_MARGIN_V, actual: vOff, unit: "V" },
+    ),
+  ];
+}
+
+/** The follower core's own figures (none for the plain core). */
+function followerFigures(v: CoreValues, e: CoreEval, recovery: number): Figure[] {
+  const fo = e.follower;
+  if (v.follower === undefined || fo === undefined) return [];
+  return [
+    figure(
+      "follower_series_resistor",
+      "Follower series resistors R_S (each)",
+      v.follower.rS_ohm,
+      "Ω",
+      "timing",
+      "R_S = V_cc,max/(I_C,max·derating − I_chain,max), E24 up: bounds the recharge current into the opposite base",
+      "derived",
+    ),
+    figure(
+      "follower_swing",
+      "Coupled swing of the follower core (nominal, side A)",
+      e.timing.swingA_V,
+      "V",
+      "timing",
+      "V_swing = V_C,high − V_BE,F − (V_CE(sat) + V_F); emitter node V_cc − V_BE,F behind R_C/(β_F + 1)",
+      "derived",
+    ),
+    figure(
+      "follower_recovery_constant",
+      "Follower recovery constant τ = (R_out + R_S)·C (nominal, side A)",
+      e.timing.tauA_s,
+      "s",
+      "timing",
+      "τ = (R_C/(β_F + 1) ∥ R_load + R_S)·C; 5·τ ≤ shortest half-period (worst " + recovery.toFixed(2) + ")",
+      "sedra-smith",
+    ),
+  ];
+}
 
 /** Worst-case frequency spread around the target beyond which the page shows a problem (ours). */
 export const FREQ_SPREAD_SHOWN = 0.05;
@@ -85,10 +143,16 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
     delayOn_s: delays.on_s,
     delayOff_s: delays.off_s,
     ...(tap.preLinear_ohm !== undefined ? { preLinear_ohm: tap.preLinear_ohm } : {}),
+    ...(tap.follower !== undefined ? { follower: tap.follower } : {}),
   };
   // Skew from loading the tapped collector only (full recovery, equal R_B and C): the two ln factors differ.
   const vOnNom = vbeOn(q, NOMINAL_TEMP_C) + (diodes ? diodeVf_V(db, ctx.vNom_V / 10_000, NOMINAL_TEMP_C) : 0);
   const vSat = vceSat(q, ctx.vNom_V / tap.rC_ohm);
+  // The node that drives each coupling capacitor, as a source: the collector (R_C from V_cc), or
+  // the follower's emitter (V_cc − V_BE,F behind R_C/(β_F + 1), astable.ts followerThevenin).
+  const nomK = { vcc_V: ctx.vNom_V, t_C: NOMINAL_TEMP_C, ...NOMINAL_K };
+  const fo = followerAt({ ...base, c_F: 1, pot_ohm: 1, rEndA_ohm: 1e7, rEndB_ohm: 1e7 }, q, db, nomK, 1e7, 1e7);
+  const src = fo ? followerThevenin(ctx.vNom_V, tap.rC_ohm, fo) : { v_V: ctx.vNom_V, r_ohm: tap.rC_ohm };
   const skewOf = (bal?: CollectorLoad): number => {
     const c = evaluateCore({
       vcc_V: ctx.vNom_V,
@@ -102,6 +166,7 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
       rBB_ohm: 1e7,
       loadA: tap.load,
       ...(bal ? { loadB: bal } : {}),
+      ...(fo ? { follower: fo } : {}),
     });
     return Math.abs(c.aHigh - 0.5);
   };
@@ -109,12 +174,12 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
   let balance: CollectorLoad | undefined;
   let balanceDiode = false;
   if (skewRaw > t.duty_skew_max) {
-    // Match the untapped collector's high level to the tapped one's (Thevenin).
-    const vHigh = (ctx.vNom_V * tap.load.r_ohm + tap.load.v_V * tap.rC_ohm) / (tap.rC_ohm + tap.load.r_ohm);
-    const vF = diodeVf_V(db, (ctx.vNom_V - vHigh) / tap.rC_ohm, NOMINAL_TEMP_C);
+    // Match the untapped driving node's high level to the tapped one's (Thevenin).
+    const vHigh = (src.v_V * tap.load.r_ohm + tap.load.v_V * src.r_ohm) / (src.r_ohm + tap.load.r_ohm);
+    const vF = diodeVf_V(db, (src.v_V - vHigh) / src.r_ohm, NOMINAL_TEMP_C);
     balanceDiode = tap.load.v_V > 0 && vHigh > vF;
     const vL = balanceDiode ? vF : 0;
-    const r = nearest((tap.rC_ohm * (vHigh - vL)) / (ctx.vNom_V - vHigh), "E24");
+    const r = nearest((src.r_ohm * (vHigh - vL)) / (src.v_V - vHigh), "E24");
     balance = { r_ohm: r, v_V: vL };
   }
   const search = searchCore(ctx, q, db, { ...base, ...(balance ? { balance } : {}) });
@@ -157,6 +222,7 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
         { limit: t.duty_min, actual: w.dMin.hi, unit: "" },
       ),
     );
+  problems.push(...followerOffProblems(ctx, plan, q, db, v));
   const inj = injection(ctx, q, db, v);
   if (inj > INJECTION_MAX)
     problems.push(
@@ -405,6 +471,7 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
       "V_EB,rev = V_cc,max − V_CE(sat) − V_BE(hot)",
       "common-practice",
     ),
+    ...followerFigures(v, e5, w.recovery),
     figure(
       "tap_current_min",
       "Chain input current, worst case low",
@@ -424,6 +491,7 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
     checks: built.checks,
     vebReverse_V,
     timingLoss_W: built.loss_W,
+    followerLoss_W: built.followerLoss_W,
     fCtrl1_Hz: e1.f_Hz,
     vSatNom_V: e1.vSat_V,
     corners: simulationCorners(v, q, db, envelopeCorners(envelopeOf(ctx)), { vMax: ctx.vMax_V, tMax: ctx.taMax_C }),
