@@ -238,7 +238,7 @@ function followerParts(
   at: { tap: TapDesign; w: WorstCase; iBpk_A: number },
   out: { parts: Part[]; problems: DesignProblem[]; checks: StressCheck[] },
 ): number {
-  const { q, db, gain } = dev;
+  const { q, db } = dev;
   const { tap, w, iBpk_A } = at;
   const pol = ctx.spec.policy;
   const tol = ctx.rTol;
@@ -247,7 +247,8 @@ function followerParts(
   const cMax = v.c_F * (1 + ctx.cTol);
   const iChain = tap.info.iMax_A;
   const iFpk = vMax / (rS_ohm * (1 - tol)) + iChain;
-  const betaF = hfeMin(q, Math.min(q.ic_max_A, Math.max(iChain, 1e-3)), ctx.taMin_C);
+  const iGainF = Math.min(q.ic_max_A, Math.max(iChain, 1e-3));
+  const betaF = hfeMin(q, iGainF, ctx.taMin_C);
   const vCeF = vbeOn(q, ctx.taMin_C) + (v.rC_ohm * (1 + tol) * iChain) / (betaF + 1);
   const pRecharge = cMax * vMax * vMax * fMax;
   const pF = iChain * vCeF + pRecharge;
@@ -256,7 +257,15 @@ function followerParts(
     const e = side === "A" ? "fa" : "fb";
     const plate = side === "A" ? "sa" : "sb";
     out.parts.push(
-      transistor("timing", `QF_${side}`, q, gain, { c: "vbus", b: c, e }, { voltage_V: vMax, current_A: iFpk }),
+      transistor(
+        "timing",
+        `QF_${side}`,
+        q,
+        betaF,
+        { c: "vbus", b: c, e },
+        { voltage_V: vMax, current_A: iFpk },
+        iGainF,
+      ),
     );
     out.checks.push(checkStress(`QF_${side}`, "current", iFpk, q.ic_max_A, "A", pol.bjt.current, pol.marginal_above));
     out.checks.push(checkStress(`QF_${side}`, "voltage", vMax, q.vceo_V, "V", pol.bjt.voltage, pol.marginal_above));
