@@ -11,7 +11,7 @@ import { REF_PREFIX, STAGE_KINDS, type PartKind, type StageKind } from "./kinds.
 /** Roles per stage, in reference-designator numbering order (docs/topologies.md, "Role vocabulary"). */
 export const STAGE_ROLES = {
   supply: ["F_SUPPLY", "D_REVERSE", "C_BULK"],
-  timing: ["Q_A", "Q_B", "RC_A", "RC_B", "CT_A", "CT_B", "DB_A", "DB_B", "RBAL", "DBAL"],
+  timing: ["Q_A", "Q_B", "RC_A", "RC_B", "CT_A", "CT_B", "DB_A", "DB_B", "RBL_A", "RBL_B", "RBAL", "DBAL"],
   duty: ["RV_DUTY", "RB_A", "RB_B"],
   chain: [
     "RT",
@@ -48,7 +48,7 @@ export const PART_ROLES: readonly PartRole[] = STAGE_KINDS.flatMap((s): readonly
 export type CoreSide = "A" | "B";
 
 /** Role bases that come once per side of the timing core and duty control (`RC_A`, `RC_B`, ...). */
-export type SidedRoleBase = "Q" | "RC" | "CT" | "DB" | "RB";
+export type SidedRoleBase = "Q" | "RC" | "CT" | "DB" | "RBL" | "RB";
 
 /** A per-side role for a side letter; the constraint proves every combination is a listed role. */
 export type SidedRole<B extends SidedRoleBase = SidedRoleBase, S extends CoreSide = CoreSide> = `${B}_${S}` & PartRole;

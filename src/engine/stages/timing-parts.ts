@@ -7,7 +7,7 @@ import type { Part } from "../../model/circuit.ts";
 import type { DesignProblem } from "../../model/problem.ts";
 import type { StressCheck } from "../../model/derating.ts";
 import { checkStress } from "../shared/derating.ts";
-import { hfeMin, vceSat } from "../shared/gain.ts";
+import { hfeMin, vbeOn, vceSat } from "../shared/gain.ts";
 import { capacitor, diode, resistor, transistor } from "../../circuit/parts.ts";
 import type { CollectorLoad } from "./astable.ts";
 import { type Ctx, POT_TOLERANCE } from "./context.ts";
@@ -151,6 +151,24 @@ export function timingParts(
         ),
       );
       checks.push(checkStress(`DB_${side}`, "voltage", vMax, db.vrrm_V, "V", pol.diode.voltage, pol.marginal_above));
+    }
+  }
+  if (v.bleed_ohm !== undefined) {
+    // Base–emitter bleed (base-bleed.ts): V_BE(on) across it while its transistor conducts.
+    const vBe = vbeOn(q, ctx.taMin_C);
+    for (const side of ["A", "B"] as const) {
+      const r = resistor(
+        "timing",
+        `RBL_${side}`,
+        v.bleed_ohm,
+        { a: side === "A" ? "ba" : "bb", b: "0" },
+        (vBe * vBe) / (v.bleed_ohm * (1 - tol)),
+        pol,
+        "base–emitter bleed: holds the off transistor's floating base below cut-in",
+      );
+      parts.push(r.part);
+      checks.push(...r.checks);
+      problems.push(...r.problems);
     }
   }
   if (balance !== undefined) {
