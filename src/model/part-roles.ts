@@ -20,6 +20,8 @@ export const STAGE_ROLES = {
     "CT_B",
     "DB_A",
     "DB_B",
+    "RBL_A",
+    "RBL_B",
     "RBAL",
     "DBAL",
     "QF_A",
@@ -65,7 +67,7 @@ export const PART_ROLES: readonly PartRole[] = STAGE_KINDS.flatMap((s): readonly
 export type CoreSide = "A" | "B";
 
 /** Role bases that come once per side of the timing core and duty control (`RC_A`, `RC_B`, ...). */
-export type SidedRoleBase = "Q" | "RC" | "CT" | "DB" | "RB" | "QF" | "DF" | "RS";
+export type SidedRoleBase = "Q" | "RC" | "CT" | "DB" | "RBL" | "RB" | "QF" | "DF" | "RS";
 
 /** A per-side role for a side letter; the constraint proves every combination is a listed role. */
 export type SidedRole<B extends SidedRoleBase = SidedRoleBase, S extends CoreSide = CoreSide> = `${B}_${S}` & PartRole;

@@ -72,6 +72,8 @@ const CORE_TEMPLATE: Record<TemplateRole, Slot> = {
   Q_L: { x: CORE_L + 10, y: BASE_Y, mirror: true, label: "left" },
   CT_L: { x: 250, y: 190, rot: 270, label: "above" },
   DB_L: { x: 260, y: BASE_Y, rot: 90, label: "below" },
+  RBL_L: { x: 225, y: 370, label: "left" },
+  RBL_R: { x: 615, y: 370, label: "right" },
   RB_L: { x: 350, y: BASE_Y, rot: 90, label: "below" },
   RB_R: { x: 490, y: BASE_Y, rot: 270, label: "below" },
   DB_R: { x: 580, y: BASE_Y, rot: 270, label: "below" },
@@ -139,6 +141,8 @@ const CORE_ROUTES: Route[] = [
   ["DB_R.anode", "RB_R.b"],
   ["Q_L.b", "RB_L.b"],
   ["Q_R.b", "RB_R.b"], // without base diodes
+  ["RBL_L.a", ["RBL_L.a", BASE_Y]],
+  ["RBL_R.a", ["RBL_R.a", BASE_Y]],
   ["RB_L.a", [390, BASE_Y]],
   ["RB_R.a", [450, BASE_Y]],
   ["CT_L.b", [NODE_R, "CT_L.b"], [NODE_R, BASE_Y]],

@@ -28,6 +28,11 @@ export interface CoreValues {
   rEndB_ohm: number;
   rC_ohm: number;
   diodes: boolean;
+  /**
+   * Base–emitter bleed of each timing transistor (with base diodes), Ω: holds the off transistor's
+   * floating base below cut-in (base-bleed.ts).
+   */
+  bleed_ohm?: number;
   tapLoad: CollectorLoad;
   balance?: CollectorLoad;
   inverting: boolean;
@@ -68,10 +73,14 @@ export const CUT_IN_VBE_V = 0.5;
 export const CUT_IN_BASE_A = 1e-7;
 
 /**
- * Base-node level at which an off timing transistor comes back on: V_γ (+ the base diode's V_F at the cut-in current).
+ * Base-node level at which an off timing transistor comes back on: V_γ (+ the base diode's V_F at the
+ * cut-in current). With a base–emitter bleed the diode must also carry the bleed's V_γ/R_BE at that
+ * moment, so its V_F is read there (derived).
  */
-export function cutIn_V(diodes: boolean, db: DiodeClass, t_C: number): number {
-  return CUT_IN_VBE_V + VBE_TEMPCO_VperK * (t_C - NOMINAL_TEMP_C) + (diodes ? diodeVf_V(db, CUT_IN_BASE_A, t_C) : 0);
+export function cutIn_V(diodes: boolean, db: DiodeClass, t_C: number, bleed_ohm?: number): number {
+  const vGamma = CUT_IN_VBE_V + VBE_TEMPCO_VperK * (t_C - NOMINAL_TEMP_C);
+  const iD = CUT_IN_BASE_A + (bleed_ohm === undefined ? 0 : vGamma / bleed_ohm);
+  return vGamma + (diodes ? diodeVf_V(db, iD, t_C) : 0);
 }
 
 export interface CoreEval {
@@ -134,7 +143,7 @@ export function evalCore(v: CoreValues, q: BjtClass, db: DiodeClass, k: Corner, 
     loads.loadB = v.tapLoad;
     if (v.balance) loads.loadA = v.balance;
   }
-  const vCutIn_V = Math.min(vOn_V, cutIn_V(v.diodes, db, k.t_C));
+  const vCutIn_V = Math.min(vOn_V, cutIn_V(v.diodes, db, k.t_C, v.bleed_ohm));
   const fo = followerAt(v, q, db, k, rBA, rBB);
   const timing = evaluateCore({
     vcc_V: k.vcc_V,

@@ -158,6 +158,24 @@ export function timingParts(
       checks.push(checkStress(`DB_${side}`, "voltage", vMax, db.vrrm_V, "V", pol.diode.voltage, pol.marginal_above));
     }
   }
+  if (v.bleed_ohm !== undefined) {
+    // Base–emitter bleed (base-bleed.ts): V_BE(on) across it while its transistor conducts.
+    const vBe = vbeOn(q, ctx.taMin_C);
+    for (const side of ["A", "B"] as const) {
+      const r = resistor(
+        "timing",
+        `RBL_${side}`,
+        v.bleed_ohm,
+        { a: side === "A" ? "ba" : "bb", b: "0" },
+        (vBe * vBe) / (v.bleed_ohm * (1 - tol)),
+        pol,
+        "base–emitter bleed: holds the off transistor's floating base below cut-in",
+      );
+      parts.push(r.part);
+      checks.push(...r.checks);
+      problems.push(...r.problems);
+    }
+  }
   if (balance !== undefined) {
     const untapped = v.follower ? (tap.tapNet === "ca" ? "fb" : "fa") : tap.tapNet === "ca" ? "cb" : "ca";
     const i = (vMax - balance.v_V) / ((v.rC_ohm + balance.r_ohm) * (1 - tol));

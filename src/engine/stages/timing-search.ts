@@ -19,6 +19,7 @@ import { type Ctx, OVERDRIVE_K, POT_TOLERANCE } from "./context.ts";
 import { type CoreValues, type Corner, NOMINAL_K, diodeVf_V, evalCore } from "./core-model.ts";
 import { diodeCj_F } from "../shared/diode.ts";
 import { INJECTION_MAX, baseInjectionRatio } from "./astable.ts";
+import { bleedFor_ohm } from "./base-bleed.ts";
 import { POT_RATINGS_W, RB_MS_FACTOR } from "./timing-parts.ts";
 import {
   type CornerSets,
@@ -76,7 +77,10 @@ export function overdrive(
   const iC = (ctx.vMin_V - vceSat(q, ctx.vMin_V / base.rC_ohm)) / (base.rC_ohm * (1 - ctx.rTol));
   const iB0 = ctx.vMin_V / rB;
   const vOn = vbeOn(q, ctx.taMin_C) + (base.diodes ? diodeVf_V(db, iB0, ctx.taMin_C) : 0);
-  const iB = (ctx.vMin_V - vOn) / rB;
+  // The base–emitter bleed (base-bleed.ts) takes V_BE(cold)/R_BE of it.
+  const bleed = bleedFor_ohm(ctx, q, db, { diodes: base.diodes, pot_ohm: pot, rEndA_ohm: rEndA, rEndB_ohm: rEndB });
+  const iBleed = bleed === undefined ? 0 : vbeOn(q, ctx.taMin_C) / (bleed * (1 - ctx.rTol));
+  const iB = (ctx.vMin_V - vOn) / rB - iBleed;
   return (iB * hfeMin(q, iC, ctx.taMin_C)) / iC;
 }
 
@@ -138,6 +142,13 @@ interface Cand {
   ok: boolean;
 }
 
+/** The values with the bleed their base resistances call for (base-bleed.ts; none without base diodes). */
+function bled(ctx: Ctx, q: BjtClass, db: DiodeClass, v: CoreValues): CoreValues {
+  const { bleed_ohm: _old, ...rest } = v;
+  const bleed = bleedFor_ohm(ctx, q, db, v);
+  return bleed === undefined ? rest : { ...rest, bleed_ohm: bleed };
+}
+
 export function searchCore(ctx: Ctx, q: BjtClass, db: DiodeClass, base: Base): Search {
   const t = ctx.spec.targets;
   const env = envelopeOf(ctx);
@@ -173,7 +184,7 @@ export function searchCore(ctx: Ctx, q: BjtClass, db: DiodeClass, base: Base): S
     if (floor === null) continue;
     const rA = roundUp(Math.max(floor, roundDown(Math.max(a, R_END_MIN_OHM), "E24")), "E24");
     const rB = roundUp(Math.max(floor, roundDown(Math.max(b, R_END_MIN_OHM), "E24")), "E24");
-    const unit: CoreValues = { ...base, c_F: 1, pot_ohm: pot, rEndA_ohm: rA, rEndB_ohm: rB };
+    const unit = bled(ctx, q, db, { ...base, c_F: 1, pot_ohm: pot, rEndA_ohm: rA, rEndB_ohm: rB });
     const t1 = evalCore(unit, q, db, nominal, 0.5).timing.period_s; // period per farad (T ∝ C)
     const cIdeal = tTarget / t1;
     if (cIdeal > C_MAX_F * 1.2 || cIdeal < C_MIN_F) continue;
@@ -199,7 +210,12 @@ export function searchCore(ctx: Ctx, q: BjtClass, db: DiodeClass, base: Base): S
   const sets = envelopeCorners(env);
   let first: Search | null = null;
   for (const cand of ranked.filter((r) => r.ok).slice(0, REFINE_CANDIDATES)) {
-    const v = refineEnds(ctx, q, db, cand.v, sets, endFloor(ctx, q, base.rC_ohm, cand.v.pot_ohm) ?? R_END_MIN_OHM);
+    const v = bled(
+      ctx,
+      q,
+      db,
+      refineEnds(ctx, q, db, cand.v, sets, endFloor(ctx, q, base.rC_ohm, cand.v.pot_ohm) ?? R_END_MIN_OHM),
+    );
     const od = overdrive(ctx, q, db, base, v.pot_ohm, v.rEndA_ohm, v.rEndB_ohm);
     const worst = worstCaseFast(v, q, db, sets);
     const passed =
@@ -226,13 +242,13 @@ export function searchCore(ctx: Ctx, q: BjtClass, db: DiodeClass, base: Base): S
   // Nothing buildable at all: report the plain ln 2 design so the reason can be shown.
   const pot = 10_000,
     rEnd = 1_000;
-  const v = {
+  const v = bled(ctx, q, db, {
     ...base,
     c_F: roundUp(tTarget / (Math.LN2 * (2 * rEnd + pot)), "E12"),
     pot_ohm: pot,
     rEndA_ohm: rEnd,
     rEndB_ohm: rEnd,
-  };
+  });
   return {
     values: v,
     worst: worstCaseFast(v, q, db, sets),

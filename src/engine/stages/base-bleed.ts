@@ -1,0 +1,57 @@
+/**
+ * The base–emitter bleed of a timing core with series base diodes. With the diodes the off
+ * transistor's base floats: while its base node recharges, the reverse-biased diode's junction
+ * capacitance and the transistor's own collector–base capacitance pass i = C·dV/dt into the base,
+ * and the "off" transistor amplifies it, so its long half-period ends early and the core runs fast
+ * (astable.ts baseInjectionRatio; docs/verification.md, "Corners" and "Second card set"). A
+ * resistor from base to emitter takes that current: while i·R_BE stays below the cut-in voltage the
+ * transistor stays off (the base return resistor of a transistor switch — Millman & Taub, Pulse,
+ * Digital and Switching Waveforms, 1965, ch. 11, from memory) [src:millman-taub-1965].
+ *
+ * Sized by what the drive affords: the bleed takes BLEED_SHARE of the smallest base current,
+ * R_BE = V_BE(cold)/(BLEED_SHARE·I_B,min), I_B,min = (V_cc,min − V_on)/R_B,max at the tolerance ends,
+ * rounded up in E24 (so it takes at most that share). Measured, not derived: on the demo's decks that
+ * ran fast at the fast corner with the second card set, a bleed of about a tenth of the base current
+ * brought every tried one into its range (docs/verification.md, "Second card set"); a bleed sized
+ * from the injected current alone (C·dV/dt) asked for 5–10× smaller resistors than the measurement
+ * needs. Its costs are in the model: the share of the overdrive (timing-search.ts overdrive) and a
+ * higher cut-in level (core-model.ts cutIn_V).
+ */
+import type { BjtClass, DiodeClass } from "../../model/device.ts";
+import { roundUp } from "../shared/e-series.ts";
+import { vbeOn } from "../shared/gain.ts";
+import type { Ctx } from "./context.ts";
+import { POT_TOLERANCE } from "./context.ts";
+import { diodeVf_V } from "./core-model.ts";
+
+/** Share of the smallest base current the bleed takes (ours, from the measurement above). */
+export const BLEED_SHARE = 0.1;
+
+/** Smallest base current of a core, A: V_cc,min, cold, the larger base resistance at +tolerance. */
+export function baseCurrentMin_A(
+  ctx: Ctx,
+  q: BjtClass,
+  db: DiodeClass,
+  diodes: boolean,
+  pot_ohm: number,
+  rEndA_ohm: number,
+  rEndB_ohm: number,
+): number {
+  const rB = Math.max(rEndA_ohm, rEndB_ohm) * (1 + ctx.rTol) + pot_ohm * (1 + POT_TOLERANCE);
+  const iB0 = ctx.vMin_V / rB;
+  const vOn = vbeOn(q, ctx.taMin_C) + (diodes ? diodeVf_V(db, iB0, ctx.taMin_C) : 0);
+  return (ctx.vMin_V - vOn) / rB;
+}
+
+/** The bleed for these values (with base diodes), Ω; undefined without diodes. */
+export function bleedFor_ohm(
+  ctx: Ctx,
+  q: BjtClass,
+  db: DiodeClass,
+  v: { diodes: boolean; pot_ohm: number; rEndA_ohm: number; rEndB_ohm: number },
+): number | undefined {
+  if (!v.diodes) return undefined;
+  const iB = baseCurrentMin_A(ctx, q, db, true, v.pot_ohm, v.rEndA_ohm, v.rEndB_ohm);
+  if (!(iB > 0)) return undefined;
+  return roundUp(vbeOn(q, ctx.taMin_C) / (BLEED_SHARE * iB * (1 - ctx.rTol)), "E24");
+}
