@@ -12,7 +12,7 @@ import { REF_PREFIX, STAGE_KINDS, type PartKind, type StageKind } from "./kinds.
 export const STAGE_ROLES = {
   supply: ["F_SUPPLY", "D_REVERSE", "C_BULK"],
   timing: ["Q_A", "Q_B", "RC_A", "RC_B", "CT_A", "CT_B", "DB_A", "DB_B", "RBAL", "DBAL"],
-  duty: ["RV_DUTY", "RB_A", "RB_B"],
+  duty: ["RV_DUTY", "RB_A", "RB_B", "C_PULL", "R_PULL", "RB_PULL", "DB_PULL", "D_PULL", "Q_PULL"],
   chain: [
     "RT",
     "Q_D1",
