@@ -134,7 +134,7 @@ function sizeInner(spec: VariantSpec): SizedVariant {
   const pIn = ctx.vMax_V * ctx.iMax_A * Math.min(1, w.dMax.hi);
   const pNominal = nominalDissipation(ctx, timing.figures, fin.losses, load.iOn_A, vSwNom_V, w.f.hi, timing.fCtrl1_Hz);
 
-  const timer = pullInTimer(ctx, timing, load.pullIn, prot.parts);
+  const timer = pullInTimer(ctx, timing, load.pullIn, prot.parts, vSwNom_V);
   const rawParts: Part[] = [
     ...prot.parts,
     ...timing.parts,
@@ -364,6 +364,7 @@ function pullInTimer(
   timing: TimingResult,
   need: { tNeed_s: number; iHoldLow_A: number } | undefined,
   supplyParts: Part[],
+  vSwNom_V: number,
 ): PullInTimer | undefined {
   if (need === undefined || !Number.isFinite(need.tNeed_s)) return undefined;
   const cBulk = supplyParts.find((p) => p.role === "C_BULK")?.value ?? 0;
@@ -373,6 +374,12 @@ function pullInTimer(
     tNeed_s: need.tNeed_s,
     cBulk_F: cBulk,
     iHold_A: need.iHoldLow_A,
+    sim: {
+      duty: timing.figures.find((f) => f.key === "duty_min")?.value ?? ctx.spec.targets.duty_min,
+      vSw_V: vSwNom_V,
+      r_ohm: ctx.load.r_ohm,
+      fw: ctx.spec.devices.freewheel_diode as DiodeClass | undefined,
+    },
   });
 }
 

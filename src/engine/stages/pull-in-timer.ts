@@ -31,6 +31,7 @@ import { formatValue } from "../../model/format.ts";
 import { figure, problem } from "../shared/figures.ts";
 import { NOMINAL_TEMP_C } from "../shared/temperature.ts";
 import { type TimerPoint, timerHold_s, timerStepFor_V, timerTau_s } from "../shared/pull-in-timer.ts";
+import { coilAverage_A } from "../shared/solenoid.ts";
 import { capacitor, diode, resistor, transistor } from "../../circuit/parts.ts";
 import { capRating_V } from "./timing-parts.ts";
 import type { Ctx } from "./context.ts";
@@ -70,6 +71,8 @@ export interface TimerInputs {
   cBulk_F: number;
   /** The hold current at the set duty, lowest supply (what discharges the rail when cut), A. */
   iHold_A: number;
+  /** The pull-in run's conditions (nominal supply, 25 °C, control 0): its duty, the switch's drop, the coil. */
+  sim: { duty: number; vSw_V: number; r_ohm: number; fw: DiodeClass | undefined };
 }
 
 export interface PullInTimer {
@@ -322,6 +325,7 @@ export function designPullInTimer(ctx: Ctx, x: TimerInputs): PullInTimer {
       "derived",
     ),
   ];
+  figures.push(holdSimFigure(ctx, x.sim));
   if (Number.isFinite(tRearm))
     figures.push(
       figure(
@@ -355,6 +359,26 @@ export function designPullInTimer(ctx: Ctx, x: TimerInputs): PullInTimer {
         : "."),
   };
   return { parts, checks, problems, figures, decision, tHoldNom_s };
+}
+
+/**
+ * The settled hold current the pull-in run ends in: the coil's average law at the nominal supply and
+ * control 0's nominal duty, with the freewheel diode's V_F taken at that current (one refinement).
+ */
+function holdSimFigure(ctx: Ctx, s: TimerInputs["sim"]): Figure {
+  const vfAt = (i: number): number =>
+    s.fw === undefined ? 0 : Math.max(0, diodeClassVf_V(s.fw, Math.max(i, 1e-3), NOMINAL_TEMP_C));
+  const i0 = coilAverage_A(ctx.vNom_V, s.vSw_V, vfAt(ctx.iNom_A), s.duty, s.r_ohm);
+  const i1 = coilAverage_A(ctx.vNom_V, s.vSw_V, vfAt(i0), s.duty, s.r_ohm);
+  return figure(
+    "hold_current_sim",
+    "Hold current after the pull-in, control 0 (nominal supply, 25 °C)",
+    i1,
+    "A",
+    "duty",
+    "I = [D·(V_cc − V_sw) − (1 − D)·V_F]/R, D = the nominal duty at control 0, V_F at I",
+    "derived",
+  );
 }
 
 /** Capacitance at the cold end is reduced below this ambient (the data's 20 °C reference). */

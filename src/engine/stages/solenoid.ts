@@ -110,7 +110,22 @@ export function solenoidScheme(
       ),
     );
   }
+  // The pull-in run's conditions (nominal supply, the 20 °C coil of the netlist, nominal drop).
+  const tReachSim = coilRiseTime_s(ctx.vNom_V - vSw_V, r, tau_s, iPull);
   const figures: Figure[] = [
+    ...(Number.isFinite(tReachSim)
+      ? [
+          figure(
+            "pull_in_reach_sim",
+            "Coil reaches the pull-in current after switch-on (nominal supply, 25 °C)",
+            tReachSim,
+            "s",
+            "load",
+            "t = −τ·ln(1 − I_pull·R/(V_cc − V_sw))",
+            "hayt-kemmerly-ch8",
+          ),
+        ]
+      : []),
     figure("coil_resistance", "Coil resistance", r, "Ω", "load", "R_coil = V_nom / I_rated", "common-practice"),
     figure(
       "coil_inductance",
