@@ -109,6 +109,22 @@ export function solenoidScheme(
           `(${pct(reach.lo)}) holds with ${A(iHoldNom)} at the nominal supply instead of ${A(iHold)}.`,
       ),
     );
+  } else if (Number.isFinite(tRise)) {
+    // The control reaches below the hold duty: turned down that far, the valve drops out, and the
+    // pull-in timer fires only when the supply returns.
+    problems.push(
+      problem(
+        "load",
+        "/targets/duty_min",
+        "solenoid-drop-out",
+        "note",
+        `Set the control to at least ${pct(dHold)} duty: below it the valve may drop out at the lowest supply. ` +
+          (iTopMin >= iPull
+            ? `Turning the control to its top end pulls it in again.`
+            : `It then opens again only when the supply is switched off and on (the pull-in timer fires at ` +
+              `switch-on); the PWM at its top end gives ${A(iTopMin)} of the ${A(iPull)} pull-in current there.`),
+      ),
+    );
   }
   // The pull-in run's conditions (nominal supply, the 20 °C coil of the netlist, nominal drop).
   const tReachSim = coilRiseTime_s(ctx.vNom_V - vSw_V, r, tau_s, iPull);
