@@ -30,6 +30,7 @@ import { seriesLoss_W } from "./stages/series-reverse.ts";
 import { cautions, checkProblems, verdictLead } from "./stages/feasibility.ts";
 import { decideVerdict } from "./stages/verdict.ts";
 import { type FollowerChosen, type RcLowered, designDecisions } from "./stages/decisions.ts";
+import { type PullInTimer, designPullInTimer } from "./stages/pull-in-timer.ts";
 
 export function sizeVariant(spec: VariantSpec): SizedVariant {
   try {
@@ -122,7 +123,13 @@ function sizeInner(spec: VariantSpec): SizedVariant {
   });
   const dOn = timing.figures.find((f) => f.key === "duty_max")?.value ?? Math.min(1, w.dMax.hi);
   const vSwNom_V = fin.vSwNom_V ?? plan.vSwNom_V;
-  const load = loadStage(ctx, vSwNom_V, dOn, { lo: Math.min(1, w.dMin.hi), hi: Math.min(1, w.dMax.lo) });
+  const load = loadStage(
+    ctx,
+    vSwNom_V,
+    dOn,
+    { lo: Math.min(1, w.dMin.hi), hi: Math.min(1, w.dMax.lo) },
+    Math.max(vSwNom_V, plan.vSwMax_V),
+  );
   const q = spec.devices.timing_npn as BjtClass;
   const timingLoss = (role: SidedRole<"Q">): DeviceLoss => ({
     role,
@@ -161,7 +168,16 @@ function sizeInner(spec: VariantSpec): SizedVariant {
   const pIn = ctx.vMax_V * ctx.iMax_A * Math.min(1, w.dMax.hi);
   const pNominal = nominalDissipation(ctx, timing.figures, fin.losses, load.iOn_A, vSwNom_V, w.f.hi, timing.fCtrl1_Hz);
 
-  const rawParts: Part[] = [...prot.parts, ...timing.parts, ...tap.parts, ...plan.parts, ...fin.parts, load.part];
+  const timer = pullInTimer(ctx, timing, load.pullIn, prot.parts, vSwNom_V);
+  const rawParts: Part[] = [
+    ...prot.parts,
+    ...timing.parts,
+    ...(timer?.parts ?? []),
+    ...tap.parts,
+    ...plan.parts,
+    ...fin.parts,
+    load.part,
+  ];
   const stressed = rawParts.map((p) => {
     const th = thermal.perRole.get(p.role);
     return th === undefined ? p : { ...p, stress: { ...p.stress, power_W: th.p_W, tj_C: th.tj_C } };
@@ -200,6 +216,7 @@ function sizeInner(spec: VariantSpec): SizedVariant {
     ...fin.checks,
     ...thermal.checks,
     ...prot.checks,
+    ...(timer?.checks ?? []),
   ].map((c) => ({ ...c, ref: toRef(c.ref) }));
   const fixPath = (p: DesignProblem): DesignProblem => {
     const m = /^\/parts\/(.+)$/.exec(p.path);
@@ -212,6 +229,7 @@ function sizeInner(spec: VariantSpec): SizedVariant {
     ...load.problems,
     ...thermal.problems,
     ...prot.problems,
+    ...(timer?.problems ?? []),
   ].map(fixPath);
   const problems = [...stageProblems, ...checkProblems(checks, stageProblems)];
   const figures: Figure[] = dedupe([
@@ -219,6 +237,7 @@ function sizeInner(spec: VariantSpec): SizedVariant {
     ...plan.figures,
     ...fin.figures,
     ...load.figures,
+    ...(timer?.figures ?? []),
     ...thermal.figures,
     ...reviewed.figures,
     ...prot.figures,
@@ -272,15 +291,27 @@ function sizeInner(spec: VariantSpec): SizedVariant {
     heatsink: thermal.heatsink,
     circuit,
     cautions: [...cautions(ctx, hot), ...reviewed.cautions],
-    decisions: designDecisions(
-      spec,
-      circuit,
-      thermal.heatsink,
-      thermal.conditions.map((c) => /^\/parts\/(.+)$/.exec(c.path)?.[1]).flatMap((r) => (r ? [toRef(r)] : [])),
-      rcLowered,
-      reviewed.conditions.some((c) => c.rule === "insulator-kit"),
-      follower,
-    ),
+    decisions: [
+      ...designDecisions(
+        spec,
+        circuit,
+        thermal.heatsink,
+        thermal.conditions.map((c) => /^\/parts\/(.+)$/.exec(c.path)?.[1]).flatMap((r) => (r ? [toRef(r)] : [])),
+        rcLowered,
+        reviewed.conditions.some((c) => c.rule === "insulator-kit"),
+        follower,
+      ),
+      ...(timer === undefined
+        ? []
+        : [
+            {
+              refs: timer.decision.roles.map(toRef),
+              topic: timer.decision.topic,
+              choice: timer.decision.choice,
+              reason: timer.decision.reason,
+            },
+          ]),
+    ],
     corners: timing.corners,
   };
   if (verdict.status === "not-feasible") out.reason = verdict.summary;
@@ -353,6 +384,35 @@ function driverLoss_W(parts: Part[], losses: DeviceLoss[], ctx: ReturnType<typeo
   // A series reverse diode carries the load's current while it is on (and the core's all the time).
   const pSeries = ctx.series === undefined ? 0 : seriesLoss_W(ctx.series.dev, ctx.iMax_A) * dMax;
   return transistors + passive + pFw + pSeries;
+}
+
+/**
+ * The solenoid's power-on pull-in timer (stages/pull-in-timer.ts), sized for the full-on time the
+ * load stage found the coil needs; absent for other loads, or when the coil cannot pull in at all
+ * (the load stage's error already says so).
+ */
+function pullInTimer(
+  ctx: Ctx,
+  timing: TimingResult,
+  need: { tNeed_s: number; iHoldLow_A: number } | undefined,
+  supplyParts: Part[],
+  vSwNom_V: number,
+): PullInTimer | undefined {
+  if (need === undefined || !Number.isFinite(need.tNeed_s)) return undefined;
+  const cBulk = supplyParts.find((p) => p.role === "C_BULK")?.value ?? 0;
+  return designPullInTimer(ctx, {
+    rEndA_ohm: timing.values.rEndA_ohm,
+    baseDiodes: timing.values.diodes,
+    tNeed_s: need.tNeed_s,
+    cBulk_F: cBulk,
+    iHold_A: need.iHoldLow_A,
+    sim: {
+      duty: timing.figures.find((f) => f.key === "duty_min")?.value ?? ctx.spec.targets.duty_min,
+      vSw_V: vSwNom_V,
+      r_ohm: ctx.load.r_ohm,
+      fw: ctx.spec.devices.freewheel_diode as DiodeClass | undefined,
+    },
+  });
 }
 
 /** Keep the first figure of each key (stages never mean to produce two; this guards the contract). */

@@ -59,6 +59,11 @@ export interface PartSpice {
    * average at control 1), so the simulation starts near its steady state instead of from zero.
    */
   i0_A?: number;
+  /**
+   * Capacitors: start the transient charged to the deck's supply voltage (IC = supply), so a
+   * power-on timer starts run out, in its steady state; the verifier's pull-in run drops the IC.
+   */
+  v0_supply?: boolean;
 }
 
 export interface Part {

@@ -51,9 +51,13 @@ export function elementLines(p: Part, supply_V: number): ElementOut {
   const inner = `${ref.toLowerCase()}_int`;
   switch (p.kind) {
     case "resistor":
-    case "capacitor":
-    case "capacitor-polarised":
       return { lines: [`${ref} ${n.join(" ")} ${v(p.value, "value")}`], models: [] };
+    case "capacitor":
+    case "capacitor-polarised": {
+      // IC: charged to the supply (a power-on timer run out; honoured by the `.tran … uic` start).
+      const ic = p.spice?.v0_supply === true ? ` IC=${v(supply_V, "supply")}` : "";
+      return { lines: [`${ref} ${n.join(" ")} ${v(p.value, "value")}${ic}`], models: [] };
+    }
     case "potentiometer": {
       const r = v(p.value, "value");
       // a–w = R·ctrl, w–b = R·(1 − ctrl), each floored at 1 mΩ so neither end is a short.

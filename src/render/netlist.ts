@@ -106,7 +106,15 @@ export function renderNetlist(circuit: CircuitModel, meta: NetlistMeta): string 
   const step = spiceNum(period_s / STEPS_PER_PERIOD, "tran step");
   // Asymmetric start: one collector high, the other low, so the core never sits balanced.
   const hasCore = circuit.nets.includes("ca") && circuit.nets.includes("cb");
-  if (hasCore) out.push(`.ic v(ca)=${spiceNum(meta.supply_V, "ic")} v(cb)=0`);
+  // A power-on timer's capacitor starts charged (run out): the rail and its node start settled too,
+  // or the rail's rise through the supply would discharge it and fire the timer in every run.
+  const charged = circuit.parts.filter((p) => p.spice?.v0_supply === true);
+  const settled = charged
+    .flatMap((p) => Object.values(p.pins))
+    .filter((n, k, all) => all.indexOf(n) === k)
+    .map((n) => ` v(${checkNet(n, "ic")})=${n === "vbus" ? spiceNum(meta.supply_V, "ic") : "0"}`)
+    .join("");
+  if (hasCore) out.push(`.ic v(ca)=${spiceNum(meta.supply_V, "ic")} v(cb)=0${settled}`);
   out.push(
     // The simulator runs at the nominal temperature the pages and the predictions speak of; every
     // card states TNOM equal to it, so no parameter is scaled (src/engine/shared/temperature.ts).

@@ -127,6 +127,8 @@ const FOLLOWER_ROUTES: Route[] = [
   ["RB_R.a", [450, BASE_Y]],
   ["CT_L.b", [535, "CT_L.b"], [535, BASE_Y]],
   ["CT_R.b", [305, "CT_R.b"], [305, BASE_Y]],
+  ["RBL_L.a", ["RBL_L.a", BASE_Y]],
+  ["RBL_R.a", ["RBL_R.a", BASE_Y]],
 ];
 const NODE_L = 305; // where CT_R lands on the left base line
 const NODE_R = 535;
@@ -185,9 +187,37 @@ export function coreLayout(tapSide: CoreSide, follower = false): StageLayout {
     tapSide === "B"
       ? { x: 420, y: BASE_Y, rot: 270, label: "below" }
       : { x: 420, y: BASE_Y, rot: 90, mirror: true, label: "below" };
+  // Pull-in timer (solenoid loads), in a row under the core, beneath timing transistor A's side.
+  for (const [role, slot] of Object.entries(PULL_IN_ROW) as [PlacedRole, Slot][])
+    slots[role] =
+      tapSide === "A"
+        ? slot
+        : {
+            ...slot,
+            x: CORE_MIRROR_X - slot.x,
+            mirror: !(slot.mirror ?? false),
+            // A horizontal two-pin part turns the other way round instead (mirroring leaves it as it is).
+            ...(slot.rot === 90 || slot.rot === 270 ? { rot: slot.rot === 90 ? 270 : 90, mirror: false } : {}),
+            ...(slot.label ? { label: FLIP_LABEL[slot.label] } : {}),
+          };
   const routes = follower ? FOLLOWER_ROUTES : CORE_ROUTES;
   return { slots, routes: routes.map((r) => r.map((p) => subPt(p, tapSide))), width: CORE_WIDTH };
 }
+
+/** The pull-in timer's row when transistor A is on the right (tapped side A); mirrored otherwise. */
+const PULL_IN_Y = 470;
+const CORE_MIRROR_X = CORE_L + CORE_R;
+const PULL_IN_ROW: Partial<Record<PlacedRole, Slot>> = {
+  // C_PULL drops straight from the rail in the clear column left of the core's far transistor.
+  // (below the balance diode's ground when the core has one).
+  C_PULL: { x: 85, y: PULL_IN_Y + 20, label: "right" },
+  D_PULL: { x: 85, y: PULL_IN_Y + 110, rot: 180, label: "left" },
+  R_PULL: { x: 200, y: PULL_IN_Y + 110, label: "right" },
+  RB_PULL: { x: 460, y: PULL_IN_Y, rot: 270, label: "above" },
+  DB_PULL: { x: 540, y: PULL_IN_Y, rot: 270, label: "above" },
+  Q_PULL: { x: 610, y: PULL_IN_Y, label: "right" },
+};
+const FLIP_LABEL = { left: "right", right: "left", above: "above", below: "below" } as const;
 
 /** Resolves "RC_R.b"-style references outside the core (the chain's tap wire). */
 export const resolveSide = subPt;

@@ -28,6 +28,8 @@ export function cacheKey(netlist: string, engine: { name: EngineName; version: s
     target.loadEmf_V,
     target.predicted["chain_threshold"]?.value ?? null,
     (target.corners ?? []).map((d) => [d.corner.name, d.corner.ctrl, d.period_s, d.netlist]),
+    // The pull-in run's length and level (solenoids only; absent, the key is as before).
+    ...(target.pullIn !== undefined ? [target.pullIn] : []),
   ]);
   return createHash("sha256")
     .update(simBody(netlist))

@@ -22,9 +22,10 @@ import { meanOnState, peakAfter, pwmTiming, timeAverage, upperLevel, valueAt } f
 import { plotWaveforms } from "./waveforms.ts";
 import type { VerifyTarget } from "./target.ts";
 import { SpiceRunError } from "../model/errors.ts";
+import { measurePullIn } from "./pull-in.ts";
 
 /** Bumped whenever measurement code changes what it reports: part of every cache key. */
-export const MEASURE_CODE_VERSION = "verify-measure-10";
+export const MEASURE_CODE_VERSION = "verify-measure-11";
 
 /** Transients of the nominal plan per variant (ctrl 0.5, 0, 1); corner runs come on top (corner-runs.ts). */
 export const NOMINAL_RUNS = 3;
@@ -46,6 +47,8 @@ export async function measureVariant(
     const low = await runAt(target, netlist, engine, 0, plan);
     const high = await runAt(target, netlist, engine, 1, plan);
     const { measurements, waveforms } = collect(target, low, mid, high);
+    // Solenoid variants: one cold-start run at nominal conditions shows the pull-in and the hold.
+    measurements.push(...(await measurePullIn(target, netlist, engine)));
     const corners = await measureCorners(target, engine, plan);
     return { ok: true, measurements, waveforms, ...(corners.length > 0 ? { corners } : {}), elapsed_s: elapsed() };
   } catch (err) {

@@ -38,6 +38,8 @@ export interface VerifyTarget {
   corners?: CornerDeck[];
   /** Worst-case ranges and bounds the corner runs are judged against, by figure key. */
   ranges?: Record<string, [number, number]>;
+  /** Solenoid variants with a pull-in timer: the predicted nominal hold and the pull-in current (pull-in.ts). */
+  pullIn?: { tHold_s: number; iPull_A: number };
 }
 
 /** Null when the variant has no circuit or no frequency prediction: nothing to simulate. */
@@ -69,7 +71,14 @@ export function targetFromSized(sized: SizedVariant): VerifyTarget | null {
     loadTau_s: l_H > 0 && r_ohm > 0 ? l_H / r_ohm : 0,
     loadEmf_V: load?.kind === "motor" ? Math.max(0, load.spice?.vf_V ?? 0) : 0,
     ranges,
+    ...pullInOf(predicted),
   };
+}
+
+function pullInOf(predicted: Record<string, Predicted>): { pullIn?: { tHold_s: number; iPull_A: number } } {
+  const t = predicted["pull_in_hold_sim"]?.value;
+  const i = predicted["pull_in_current"]?.value;
+  return t !== undefined && i !== undefined && t > 0 && i > 0 ? { pullIn: { tHold_s: t, iPull_A: i } } : {};
 }
 
 /**

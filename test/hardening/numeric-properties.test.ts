@@ -126,7 +126,9 @@ function numbers(v: SizedVariant): [string, unknown][] {
     if (p.gain_min !== undefined) out.push([`${p.ref} gain_min`, p.gain_min]);
     for (const [k, x] of Object.entries(p.rating)) out.push([`${p.ref} rating.${k}`, x]);
     for (const [k, x] of Object.entries(p.stress)) out.push([`${p.ref} stress.${k}`, x]);
-    for (const [k, x] of Object.entries(p.spice ?? {})) if (typeof x !== "string") out.push([`${p.ref} spice.${k}`, x]);
+    // Names (model) and flags (v0_supply) are not numbers; every other spice entry is.
+    for (const [k, x] of Object.entries(p.spice ?? {}))
+      if (typeof x !== "string" && typeof x !== "boolean") out.push([`${p.ref} spice.${k}`, x]);
   }
   if (v.heatsink.rth_sa_max_KperW !== undefined) out.push(["heatsink rth_sa_max", v.heatsink.rth_sa_max_KperW]);
   return out;

@@ -10,7 +10,8 @@ export function classify(line: string): LineKind | null {
   if (ELEMENT.test(line)) return "element";
   if (/^\.param ctrl=[0-9.e-]+$/.test(line)) return "param";
   if (/^\.model [A-Z0-9_]+ (NPN|PNP|VDMOS|D)\(([A-Z][A-Z0-9]*=-?[0-9.e+-]+ ?)+\)$/.test(line)) return "model";
-  if (/^\.ic v\(ca\)=[0-9.e+-]+ v\(cb\)=0$/.test(line)) return "ic";
+  // A power-on timer (solenoid loads) adds its settled rail and node: v(vbus)=supply v(pit)=0.
+  if (/^\.ic v\(ca\)=[0-9.e+-]+ v\(cb\)=0( v\(vbus\)=[0-9.e+-]+ v\(pit\)=0)?$/.test(line)) return "ic";
   if (line === ".temp 25") return "temp";
   if (line === ".options method=gear" || line === ".options method=gear abstol=1e-9 vntol=1e-5") return "options";
   if (/^\.tran [0-9.e+-]+ [0-9.e+-]+ 0 [0-9.e+-]+( uic)?$/.test(line)) return "tran";

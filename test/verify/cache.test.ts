@@ -57,6 +57,8 @@ describe("content-hash cache of measurements", () => {
     expect(cacheKey(c.netlist.replace("10n", "12n"), eng, t)).not.toBe(k);
     expect(cacheKey(c.netlist, { ...eng, version: "1.8.1" }, t)).not.toBe(k);
     expect(cacheKey(c.netlist, eng, { ...t, period_s: t.period_s * 2 })).not.toBe(k);
+    // A solenoid's pull-in run (its length and level) keys the entry; without one the key is as before.
+    expect(cacheKey(c.netlist, eng, { ...t, pullIn: { tHold_s: 0.1, iPull_A: 0.75 } })).not.toBe(k);
     expect(
       cacheKey(c.netlist, eng, { ...t, predicted: { ...t.predicted, duty_max: { value: 0.5, label: "", unit: "" } } }),
     ).toBe(k);

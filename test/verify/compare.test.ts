@@ -7,7 +7,7 @@
 import { describe, expect, it } from "vitest";
 import { SIM_FIGURES } from "../../src/model/sized.ts";
 import type { Measurement } from "../../src/model/verification.ts";
-import { CHECKS, compare, judge, withinBound } from "../../src/verify/compare.ts";
+import { CHECKS, PULL_IN_CHECKS, compare, judge, withinBound } from "../../src/verify/compare.ts";
 import type { Measured } from "../../src/verify/plan.ts";
 import type { Predicted } from "../../src/verify/target.ts";
 
@@ -17,7 +17,11 @@ const eng = { name: "eecircuit-engine" as const, version: "test" };
 
 describe("checks against the engine's figures", () => {
   it("every two-sided check uses a figure the engine predicts at the simulation's conditions", () => {
-    for (const c of CHECKS.filter((x) => !x.bound)) expect(SIM_FIGURES as readonly string[]).toContain(c.key);
+    // … or, for solenoids, at the pull-in run's (PULL_IN_CHECKS: nominal, cold start, control 0).
+    const pullIn = PULL_IN_CHECKS.map((c) => c.key);
+    for (const c of CHECKS.filter((x) => !x.bound))
+      expect([...SIM_FIGURES, ...pullIn] as readonly string[]).toContain(c.key);
+    expect(pullIn).toEqual(["pull_in_hold_sim", "pull_in_reach_sim", "hold_current_sim"]);
   });
 
   it("the one predicted frequency is held at mid control and at both ends of the control, ±10 % each", () => {

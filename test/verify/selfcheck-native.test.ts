@@ -21,7 +21,7 @@ import { REPO } from "../records/project.ts";
 const SAMPLE = [
   "circulation-fan-12v-250ma-bjt-driver-pnp-motor",
   "seed-mat-heater-12v-500ma-darlington-2-resistive",
-  "irrigation-valve-bank-24v-1a-darlington-3-solenoid",
+  "irrigation-valve-bank-24v-1a-mosfet-logic-solenoid",
   "grow-light-strip-12v-1a5-mosfet-driver-led",
   "work-lamp-24v-1a-mosfet-logic-lamp",
   "work-lamp-27v6-250ma-mosfet-driver-lamp",

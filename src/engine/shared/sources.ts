@@ -689,6 +689,57 @@ export const SOURCES = {
       { item: "electrical time constant", value: "≈ 1 ms", sureness: "from-memory" },
     ],
   },
+  "iec-60028": {
+    kind: "standard",
+    short: "IEC 60028",
+    title: "IEC 60028, International standard of resistance for copper",
+    edition: "edition not pinned",
+    where: "the standard annealed copper's resistivity and its temperature coefficient at 20 °C",
+    sureness: "from-memory",
+    confidence: "from-memory",
+    note:
+      "Annealed copper's resistance rises by 0.393 % per kelvin from its 20 °C value. A solenoid coil's " +
+      "rated current is stated at a 20 °C coil (common practice), so the engine takes its resistance at the " +
+      "hottest ambient as R₂₀·(1 + 0.00393·(T − 20 °C)) for the pull-in and hold checks.",
+    values: [
+      { item: "α₂₀ of annealed copper", value: "0.00393 /K", sureness: "from-memory" },
+      { item: "coil data temperature", value: "20 °C", sureness: "common-practice" },
+    ],
+  },
+  "aluminium-electrolytic": {
+    kind: "trade practice",
+    short: "aluminium electrolytic capacitors, common practice",
+    title: "Capacitance tolerance, cold drift and leakage of general-purpose aluminium electrolytic capacitors",
+    edition: "—",
+    where: "—",
+    sureness: "common-practice",
+    confidence: "common-practice",
+    note:
+      "General-purpose aluminium electrolytics are sold at ±20 % and lose capacitance in the cold (about " +
+      "10 % at 0 °C against 20 °C for small radial parts, more below); their leakage after a few minutes at " +
+      "rated voltage is at most about 0.01·C·V or 3 µA, whichever is larger.",
+    values: [
+      { item: "tolerance", value: "±20 %", sureness: "common-practice" },
+      { item: "capacitance at 0 °C", value: "≈ −10 % against 20 °C", sureness: "from-memory" },
+      { item: "leakage", value: "≤ 0.01·C·V or 3 µA, whichever is larger", sureness: "common-practice" },
+    ],
+  },
+  "film-capacitor": {
+    kind: "trade practice",
+    short: "polyester film capacitors, common practice",
+    title: "Tolerance and temperature drift of general-purpose polyester (PET) film capacitors",
+    edition: "—",
+    where: "—",
+    sureness: "common-practice",
+    confidence: "common-practice",
+    note:
+      "Polyester film capacitors up to a few µF are sold at ±10 % (K) in the E6/E12 values; their " +
+      "capacitance moves by a few per cent over 0–50 °C and their leakage is negligible beside a megaohm.",
+    values: [
+      { item: "tolerance", value: "±10 %", sureness: "common-practice" },
+      { item: "drift 0–50 °C", value: "within ≈ ±3 %", sureness: "from-memory" },
+    ],
+  },
   "hayt-kemmerly-ch8": {
     kind: "textbook",
     short: "Hayt & Kemmerly, ch. 8",

@@ -38,7 +38,15 @@ export function loadStage(
   vSwNom_V: number,
   dutyOn: number,
   reach: { lo: number; hi: number } = { lo: dutyOn, hi: dutyOn },
-): { part: Part; figures: Figure[]; problems: DesignProblem[]; iOn_A: number } {
+  vSwMax_V: number = vSwNom_V,
+): {
+  part: Part;
+  figures: Figure[];
+  problems: DesignProblem[];
+  iOn_A: number;
+  /** Solenoid loads: what the pull-in timer must cover (solenoid.ts). */
+  pullIn?: { tNeed_s: number; iHoldLow_A: number };
+} {
   const kind = ctx.spec.load_kind;
   const vLoad_V = ctx.vNom_V - vSwNom_V;
   let spice: PartSpice = { r_ohm: ctx.load.r_ohm, l_H: ctx.load.l_H, vf_V: ctx.load.vf_V };
@@ -72,9 +80,11 @@ export function loadStage(
   }
   const problems: DesignProblem[] = [];
   const extra: Figure[] = [];
+  let pullIn: { tNeed_s: number; iHoldLow_A: number } | undefined;
   if (kind === "solenoid") {
     const fw = ctx.spec.devices.freewheel_diode as DiodeClass | undefined;
-    const sch = solenoidScheme(ctx, vSwNom_V, dutyOn, reach, fw);
+    const sch = solenoidScheme(ctx, vSwNom_V, dutyOn, reach, fw, vSwMax_V);
+    pullIn = { tNeed_s: sch.tNeed_s, iHoldLow_A: sch.iHoldLow_A };
     iOn_A = sch.iOn_A;
     share = 1;
     formula = "I = [D·(V_cc − V_sw) − (1 − D)·V_F,fw]/R_coil at control 1 (average coil current, continuous)";
@@ -116,6 +126,7 @@ export function loadStage(
   return {
     part,
     iOn_A,
+    ...(pullIn !== undefined ? { pullIn } : {}),
     problems,
     figures: [
       figure(

@@ -13,11 +13,16 @@ import { figure, problem } from "../shared/figures.ts";
 import { coilAverage_A, coilRipple_A, coilRiseTime_s, holdDuty } from "../shared/solenoid.ts";
 import { diodeClassVf_V } from "../shared/diode.ts";
 import { NOMINAL_TEMP_C } from "../shared/temperature.ts";
+import { COIL_RATED_AT_C, coilResistanceAt_ohm } from "../shared/pull-in-timer.ts";
 import type { Ctx } from "./context.ts";
 
 export interface SolenoidScheme {
   /** Average coil current at control 1, nominal supply (the simulation's on-state figure). */
   iOn_A: number;
+  /** Full-on time the coil needs at the lowest supply, hot coil, worst switch drop (∞ when out of reach). */
+  tNeed_s: number;
+  /** Hold current at the set duty, lowest supply, hot coil (what discharges the rail when the supply is cut). */
+  iHoldLow_A: number;
   figures: Figure[];
   problems: DesignProblem[];
   note: string;
@@ -32,25 +37,33 @@ export function solenoidScheme(
   dutyOn: number,
   reach: { lo: number; hi: number },
   fw: DiodeClass | undefined,
+  vSwMax_V: number = vSw_V,
 ): SolenoidScheme {
   const sol = ctx.spec.solenoid;
   if (sol === undefined)
     throw new EngineMisuseError("solenoidScheme: the variant carries no solenoid data (record block `solenoid`)");
   const r = ctx.load.r_ohm;
   const tau_s = ctx.load.l_H / r;
+  // Pull-in and hold are checked with the coil at the hottest ambient (the rated current is stated
+  // at a 20 °C coil; copper +0.393 %/K [src:iec-60028]) and the switch's worst-case drop: a valve
+  // must open at the end of discharge on a hot day. L is taken as constant, so τ shrinks as R grows.
+  const rHot = coilResistanceAt_ohm(r, Math.max(COIL_RATED_AT_C, ctx.taMax_C));
+  const tauHot_s = ctx.load.l_H / rHot;
   const vf = fw === undefined ? 0 : Math.max(0, diodeClassVf_V(fw, ctx.iNom_A, NOMINAL_TEMP_C));
   const iPull = sol.pull_in_share * ctx.iNom_A;
   const iHold = sol.hold_share * iPull;
   // Pull-in at the lowest supply, switch full on: the current must first rise to I_pull, then
   // flow for the armature's pull-in time.
-  const tRise = coilRiseTime_s(ctx.vMin_V - vSw_V, r, tau_s, iPull);
+  const tRise = coilRiseTime_s(ctx.vMin_V - vSwMax_V, rHot, tauHot_s, iPull);
   const tFull = tRise + sol.pull_in_ms * 1e-3;
-  const iFullMin = Math.max(0, (ctx.vMin_V - vSw_V) / r);
-  // Hold: the duty that keeps I_hold at the lowest supply; the same setting gives more at higher supplies.
-  const dHold = holdDuty(ctx.vMin_V, vSw_V, vf, iHold, r);
+  const iFullMin = Math.max(0, (ctx.vMin_V - vSwMax_V) / rHot);
+  // Hold: the duty that keeps I_hold at the lowest supply, hot coil; the same setting gives more at
+  // higher supplies.
+  const dHold = holdDuty(ctx.vMin_V, vSwMax_V, vf, iHold, rHot);
   const dSet = Math.min(1, Math.max(reach.lo, dHold));
   const iHoldNom = coilAverage_A(ctx.vNom_V, vSw_V, vf, dSet, r);
   const iHoldMax = coilAverage_A(ctx.vMax_V, vSw_V, vf, dSet, r);
+  const iHoldLow = coilAverage_A(ctx.vMin_V, vSwMax_V, vf, dSet, rHot);
   const ripple = coilRipple_A(ctx.vNom_V - vSw_V + vf, dSet, r, tau_s, ctx.f_Hz);
   const iOn_A = coilAverage_A(ctx.vNom_V, vSw_V, vf, dutyOn, r);
   // What the PWM alone gives at its top end, lowest supply: a start at control 1 pulls the
@@ -64,24 +77,12 @@ export function solenoidScheme(
         "/parts/LOAD",
         "solenoid-pull-in",
         "error",
-        `At the lowest supply (${ctx.vMin_V.toPrecision(3)} V) the coil draws at most ${A(iFullMin)} full on, ` +
-          `below its ${A(iPull)} pull-in current: the valve would not open. Choose a chain with a lower ` +
-          `on-voltage, or a coil rated for this supply.`,
+        `At the lowest supply (${ctx.vMin_V.toPrecision(3)} V), with the switch's worst-case drop ` +
+          `(${vSwMax_V.toFixed(2)} V) and the coil hot (${ctx.taMax_C} °C: ${rHot.toPrecision(3)} Ω against ` +
+          `${r.toPrecision(3)} Ω at 20 °C), the coil draws at most ${A(iFullMin)} full on, below its ` +
+          `${A(iPull)} pull-in current: the valve would not open. Choose a chain with a lower on-voltage, or a ` +
+          `coil rated for this supply.`,
         { limit: iPull, actual: iFullMin, unit: "A" },
-      ),
-    );
-  } else if (iTopMin < iPull) {
-    problems.push(
-      problem(
-        "load",
-        "/parts/LOAD",
-        "solenoid-pull-in-drive",
-        "warning",
-        `Pull-in needs the coil full on for ${(tFull * 1e3).toPrecision(3)} ms at the lowest supply; the PWM ` +
-          `at its top end (duty ${pct(reach.hi)}) gives only ${A(iTopMin)} of the ${A(iPull)} pull-in current ` +
-          `there. This driver has no pull-in timer: at the lowest supplies the valve may not open from the PWM ` +
-          `alone.`,
-        { limit: iPull, actual: iTopMin, unit: "A" },
       ),
     );
   }
@@ -108,8 +109,39 @@ export function solenoidScheme(
           `(${pct(reach.lo)}) holds with ${A(iHoldNom)} at the nominal supply instead of ${A(iHold)}.`,
       ),
     );
+  } else if (Number.isFinite(tRise)) {
+    // The control reaches below the hold duty: turned down that far, the valve drops out, and the
+    // pull-in timer fires only when the supply returns.
+    problems.push(
+      problem(
+        "load",
+        "/targets/duty_min",
+        "solenoid-drop-out",
+        "note",
+        `Set the control to at least ${pct(dHold)} duty: below it the valve may drop out at the lowest supply. ` +
+          (iTopMin >= iPull
+            ? `Turning the control to its top end pulls it in again.`
+            : `It then opens again only when the supply is switched off and on (the pull-in timer fires at ` +
+              `switch-on); the PWM at its top end gives ${A(iTopMin)} of the ${A(iPull)} pull-in current there.`),
+      ),
+    );
   }
+  // The pull-in run's conditions (nominal supply, the 20 °C coil of the netlist, nominal drop).
+  const tReachSim = coilRiseTime_s(ctx.vNom_V - vSw_V, r, tau_s, iPull);
   const figures: Figure[] = [
+    ...(Number.isFinite(tReachSim)
+      ? [
+          figure(
+            "pull_in_reach_sim",
+            "Coil reaches the pull-in current after switch-on (nominal supply, 25 °C)",
+            tReachSim,
+            "s",
+            "load",
+            "t = −τ·ln(1 − I_pull·R/(V_cc − V_sw))",
+            "hayt-kemmerly-ch8",
+          ),
+        ]
+      : []),
     figure("coil_resistance", "Coil resistance", r, "Ω", "load", "R_coil = V_nom / I_rated", "common-practice"),
     figure(
       "coil_inductance",
@@ -135,7 +167,7 @@ export function solenoidScheme(
       Number.isFinite(tFull) ? tFull : 0,
       "s",
       "load",
-      "t = −τ·ln(1 − I_pull·R/(V_cc,min − V_sw)) + t_pull",
+      "t = −τ_hot·ln(1 − I_pull·R_hot/(V_cc,min − V_sw,max)) + t_pull, R_hot = R·(1 + 0.00393·(T_a,max − 20 °C))",
       "hayt-kemmerly-ch8",
     ),
     figure(
@@ -144,7 +176,7 @@ export function solenoidScheme(
       iTopMin,
       "A",
       "load",
-      "I = [D_max·(V_cc,min − V_sw) − (1 − D_max)·V_F]/R",
+      "I = [D_max·(V_cc,min − V_sw) − (1 − D_max)·V_F]/R (without the pull-in timer's full-on start)",
       "derived",
     ),
     figure(
@@ -162,7 +194,7 @@ export function solenoidScheme(
       dHold,
       "",
       "load",
-      "D = (I_hold·R + V_F)/(V_cc,min − V_sw + V_F)",
+      "D = (I_hold·R_hot + V_F)/(V_cc,min − V_sw,max + V_F)",
       "derived",
     ),
     figure(
@@ -203,10 +235,10 @@ export function solenoidScheme(
     ),
   ];
   const pullText = Number.isFinite(tFull)
-    ? `Pull-in ${A(iPull)} for ${(tFull * 1e3).toPrecision(3)} ms full on`
+    ? `Pull-in ${A(iPull)} for ${(tFull * 1e3).toPrecision(3)} ms full on (the pull-in timer)`
     : `Pull-in ${A(iPull)} is out of reach at the lowest supply (${A(iFullMin)} full on)`;
   const note =
     `${pullText}, then hold at duty ${pct(dSet)} (${A(iHoldNom)} at ${ctx.vNom_V} V); the freewheel diode clamps ` +
     `the kick-back.`;
-  return { iOn_A, figures, problems, note };
+  return { iOn_A, tNeed_s: tFull, iHoldLow_A: iHoldLow, figures, problems, note };
 }

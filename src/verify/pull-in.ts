@@ -1,0 +1,112 @@
+/**
+ * The pull-in run of a solenoid variant (docs/verification.md, "Pull-in"): one transient from a
+ * cold switch-on, once per variant at nominal conditions, control 0 (the pot at timing side A's
+ * end: the largest current the pull-in timer must sink, and the lowest hold duty). The deck is the
+ * published circuit with the supply stepped from 0 V and no initial conditions, so the timer fires
+ * as it does when the supply is switched on. Measured: how long the load stays fully on, when the
+ * coil current reaches its pull-in current, and the settled hold current after the release.
+ */
+import type { Measurement } from "../model/verification.ts";
+import { SpiceRunError } from "../model/errors.ts";
+import { simBody, supplyVoltage } from "./deck.ts";
+import { setCtrl } from "../render/netlist.ts";
+import type { SpiceEngine, SimResult } from "./engines/types.ts";
+import { RETRY2_OPTIONS, RETRY_OPTIONS } from "./runs.ts";
+import { timeAverage } from "./signal.ts";
+import type { VerifyTarget } from "./target.ts";
+
+/** Steps per PWM period of the pull-in run: the coil current is smooth; edges get the solver's own steps. */
+export const PULL_IN_STEPS_PER_PERIOD = 40;
+/** Settling after the release, in coil time constants (e^−5 < 1 % of the pull-in-to-hold step). */
+export const PULL_IN_SETTLE_TAU = 5;
+/** Periods averaged for the settled hold current, at the end of the run. */
+export const PULL_IN_HOLD_PERIODS = 10;
+/** The run covers this multiple of the predicted nominal hold before the settling starts. */
+export const PULL_IN_HOLD_SPAN = 1.3;
+
+/**
+ * The cold-start deck: analysis lines, self-check block and initial conditions removed, the supply a
+ * 1 µs step from 0 V (a supply switched on through the fuse reaches the rail within microseconds).
+ */
+export function pullInDeck(netlist: string, tStop_s: number, tMax_s: number, options?: string): string {
+  const v = supplyVoltage(netlist);
+  const body = setCtrl(simBody(netlist), 0)
+    .replace(/^\s*\.ic\b.*$/gim, "")
+    .replace(/ IC=[-+0-9.eE]+$/gm, "")
+    .replace(/^(vsupply\s+\S+\s+\S+)\s+(?:dc\s+)?[-+0-9.eE]+\s*$/im, `$1 PULSE(0 ${v} 0 1u 1u 10 20)`);
+  return `${body}\n.options method=gear${options ? ` ${options}` : ""}\n.tran ${tMax_s} ${tStop_s} 0 ${tMax_s}\n.end\n`;
+}
+
+/** First time after `from` where `on(k)` turns false, interpolated on the crossing; NaN when it never does. */
+function firstOff(t: Float64Array, s: Float64Array, level: number): number {
+  let wasOn = false;
+  for (let k = 1; k < t.length; k++) {
+    if (s[k]! < level) wasOn = true;
+    else if (wasOn && s[k - 1]! < level) {
+      const f = (level - s[k - 1]!) / (s[k]! - s[k - 1]!);
+      return t[k - 1]! + f * (t[k]! - t[k - 1]!);
+    }
+  }
+  return Number.NaN;
+}
+
+/** First time `y` reaches `level`, interpolated; NaN when it never does. */
+function firstReach(t: Float64Array, y: Float64Array, level: number): number {
+  for (let k = 1; k < t.length; k++)
+    if (y[k]! >= level && y[k - 1]! < level) {
+      const f = (level - y[k - 1]!) / (y[k]! - y[k - 1]!);
+      return t[k - 1]! + f * (t[k]! - t[k - 1]!);
+    }
+  return Number.NaN;
+}
+
+export async function measurePullIn(
+  target: VerifyTarget,
+  netlist: string,
+  engine: SpiceEngine,
+): Promise<Measurement[]> {
+  const p = target.pullIn;
+  if (p === undefined) return [];
+  const settle_s = PULL_IN_SETTLE_TAU * target.loadTau_s + PULL_IN_HOLD_PERIODS * target.period_s;
+  const tStop_s = PULL_IN_HOLD_SPAN * p.tHold_s + settle_s;
+  const tMax_s = target.period_s / PULL_IN_STEPS_PER_PERIOD;
+  const vectors = ["v(vbus)", `v(${target.switchNet})`, "i(vsense)"];
+  const end = (r: SimResult): number => r.t_s[r.t_s.length - 1] ?? 0;
+  let res = await engine.run(pullInDeck(netlist, tStop_s, tMax_s), vectors);
+  for (const opts of [RETRY_OPTIONS, RETRY2_OPTIONS]) {
+    if (end(res) >= 0.99 * tStop_s) break;
+    res = await engine.run(pullInDeck(netlist, tStop_s, tMax_s, opts), vectors);
+  }
+  if (end(res) < 0.99 * tStop_s)
+    throw new SpiceRunError(`pull-in run: transient stopped early at ${end(res)} s of ${tStop_s} s`);
+  const t = res.t_s;
+  const bus = res.vectors["v(vbus)"]!;
+  const sw = res.vectors[`v(${target.switchNet})`]!;
+  const i = res.vectors["i(vsense)"]!;
+  // The switch's voltage (low side: sw; high side: vbus − sw), against half the rail: the load is on below it.
+  const vSw = target.highSide ? sw.map((x, k) => bus[k]! - x) : sw;
+  const level = supplyVoltage(netlist) / 2;
+  const out: Measurement[] = [];
+  const put = (key: string, label: string, unit: string, value: number): void => {
+    if (Number.isFinite(value)) out.push({ key, label, unit, value });
+  };
+  const tOff = firstOff(t, vSw, level);
+  if (!Number.isFinite(tOff))
+    throw new SpiceRunError(`pull-in run: the load never left its full-on start within ${tStop_s} s`);
+  put("pull_in_forced_time", "Pull-in: load held fully on from switch-on (control 0)", "s", tOff);
+  put("pull_in_reach_time", "Pull-in: coil current reaches the pull-in current", "s", firstReach(t, i, p.iPull_A));
+  put(
+    "pull_in_peak_current",
+    "Pull-in: coil current when the timer lets go",
+    "A",
+    i[Math.max(0, t.findIndex((x) => x >= tOff) - 1)] ?? Number.NaN,
+  );
+  const tEnd = end(res);
+  put(
+    "hold_current_settled",
+    "Hold: settled average coil current after the pull-in (control 0)",
+    "A",
+    timeAverage(t, i, tEnd - PULL_IN_HOLD_PERIODS * target.period_s, tEnd),
+  );
+  return out;
+}
