@@ -26,6 +26,8 @@ export function cacheKey(netlist: string, engine: { name: EngineName; version: s
     target.period_s,
     target.loadTau_s,
     target.loadEmf_V,
+    target.loadR_ohm,
+    target.supply_V,
     target.predicted["chain_threshold"]?.value ?? null,
     (target.corners ?? []).map((d) => [d.corner.name, d.corner.ctrl, d.period_s, d.netlist]),
   ]);

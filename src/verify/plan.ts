@@ -24,7 +24,7 @@ import type { VerifyTarget } from "./target.ts";
 import { SpiceRunError } from "../model/errors.ts";
 
 /** Bumped whenever measurement code changes what it reports: part of every cache key. */
-export const MEASURE_CODE_VERSION = "verify-measure-10";
+export const MEASURE_CODE_VERSION = "verify-measure-11";
 
 /** Transients of the nominal plan per variant (ctrl 0.5, 0, 1); corner runs come on top (corner-runs.ts). */
 export const NOMINAL_RUNS = 3;
@@ -44,7 +44,7 @@ export async function measureVariant(
   try {
     const mid = await runAt(target, netlist, engine, 0.5, plan);
     const low = await runAt(target, netlist, engine, 0, plan);
-    const high = await runAt(target, netlist, engine, 1, plan);
+    const high = await runAt(target, netlist, engine, 1, plan, target.predicted["duty_max"]?.value);
     const { measurements, waveforms } = collect(target, low, mid, high);
     const corners = await measureCorners(target, engine, plan);
     return { ok: true, measurements, waveforms, ...(corners.length > 0 ? { corners } : {}), elapsed_s: elapsed() };
