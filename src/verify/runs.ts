@@ -29,10 +29,12 @@ export interface RunPlan {
   /** Settling of an inductive load at ctrl = 1, in L/R time constants, from an unprepared start. */
   settleTau: number;
   /**
-   * Settling of an inductive load at ctrl = 1, in L/R time constants, when the run starts the
-   * load at its estimated settled current (`loadPreset`); absent: no preset, `settleTau` applies.
+   * Settling, in periods, of an inductive load at ctrl = 1 started at its settled current (from the
+   * preparatory run): the core's first period after its `.ic` disturbs the winding current, and
+   * that disturbance decays with L/R (docs/verification.md). Absent: no preparatory run, the
+   * 3·L/R settle (`settleTau`) from an unprepared start.
    */
-  presetSettleTau?: number;
+  presetSettlePeriods?: number;
   /** Solver options for every run, e.g. "abstol=1e-9 vntol=1e-5" (none: ngspice defaults). */
   options?: string;
   /**
@@ -45,18 +47,19 @@ export interface RunPlan {
 }
 export const POWER_RUN_OPTIONS = "reltol=1e-4";
 /**
- * L/R time constants an inductive load settles for once started at its settled current (from the
- * preparatory run): none beyond the core's settle periods (docs/verification.md, "Where the time
- * goes", for the measured effect on the demo).
+ * Periods an inductive load settles for once started at its settled current. The disturbance of
+ * the core's first period is ∝ P/τ and decays as e^(−t/τ), so its residual share after n periods,
+ * (P/τ)·e^(−n·P/τ), is ≤ 3 % of the first-period dip after 10 periods for any τ
+ * (docs/verification.md, "Run plan").
  */
-export const PRESET_SETTLE_TAU = 0;
+export const PRESET_SETTLE_PERIODS = 10;
 export const DEFAULT_RUN_PLAN: Readonly<RunPlan> = {
   periods: 5,
   settlePeriods: 1,
   stepsPerPeriod: 150,
   timingStepsPerPeriod: 50,
   settleTau: 3,
-  presetSettleTau: PRESET_SETTLE_TAU,
+  presetSettlePeriods: PRESET_SETTLE_PERIODS,
   powerOptions: POWER_RUN_OPTIONS,
 };
 
@@ -88,8 +91,9 @@ export const MAX_SETTLE_PERIODS = 60;
 export function settleTime(target: VerifyTarget, ctrl: number, plan: RunPlan, preset = false): number {
   const base_s = plan.settlePeriods * target.period_s;
   if (ctrl < 1 || target.loadTau_s <= 0) return base_s;
-  const tau = preset && plan.presetSettleTau !== undefined ? plan.presetSettleTau : plan.settleTau;
-  return Math.max(base_s, Math.min(tau * target.loadTau_s, MAX_SETTLE_PERIODS * target.period_s));
+  const unprepared_s = Math.min(plan.settleTau * target.loadTau_s, MAX_SETTLE_PERIODS * target.period_s);
+  if (!preset || plan.presetSettlePeriods === undefined) return Math.max(base_s, unprepared_s);
+  return Math.max(base_s, Math.min(plan.presetSettlePeriods * target.period_s, unprepared_s));
 }
 
 /**
@@ -101,7 +105,7 @@ export function settleTime(target: VerifyTarget, ctrl: number, plan: RunPlan, pr
  * I_settled = (mean terminal voltage − E)/R, exact where the terminal voltage does not depend on
  * the current's residual (the switch's and the freewheel diode's drops move it a little). The
  * measured run then holds the load node at the voltage that makes that current flow during its
- * operating point (`loadHold`) and settles for `presetSettleTau`·L/R. A corner deck scales E with
+ * operating point (`loadHold`) and settles for `presetSettlePeriods`. A corner deck scales E with
  * its supply (corner-deck.ts); so does `runEmf`.
  */
 export function runEmf(target: VerifyTarget, netlist: string): number {
@@ -144,9 +148,15 @@ export function settledLoadCurrent(target: VerifyTarget, run: Run, netlist: stri
   return Math.max(0, (vTerm - runEmf(target, netlist)) / target.loadR_ohm);
 }
 
-/** Whether this run starts its load at the settled current (inductive load, ctrl = 1, plan allows). */
+/**
+ * Whether this run starts its load at the settled current: an inductive load at ctrl = 1, when the
+ * preparatory run plus the shorter settle is shorter than settling from an unprepared start.
+ */
 export function presetsLoad(target: VerifyTarget, ctrl: number, plan: RunPlan): boolean {
-  return ctrl === 1 && plan.presetSettleTau !== undefined && target.inductive && target.loadR_ohm > 0;
+  if (ctrl !== 1 || plan.presetSettlePeriods === undefined || !target.inductive || !(target.loadR_ohm > 0))
+    return false;
+  const unprepared = Math.min(plan.settleTau * target.loadTau_s, MAX_SETTLE_PERIODS * target.period_s);
+  return unprepared > (plan.presetSettlePeriods + plan.periods) * target.period_s;
 }
 
 /**
@@ -181,7 +191,7 @@ export async function runAt(
     // Preparatory run: core settled, load started at the predicted current, default tolerances.
     const prepPlan: RunPlan = {
       ...plan,
-      presetSettleTau: 0,
+      presetSettlePeriods: plan.settlePeriods,
       stepsPerPeriod: plan.timingStepsPerPeriod ?? plan.stepsPerPeriod,
     };
     delete prepPlan.powerOptions;

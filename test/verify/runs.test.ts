@@ -98,15 +98,11 @@ describe("settling", () => {
     expect(settleTime(target({ loadTau_s: 1e-3 }), 1, DEFAULT_RUN_PLAN)).toBeCloseTo(3e-3, 12);
     expect(settleTime(target({ loadTau_s: 1 }), 1, DEFAULT_RUN_PLAN)).toBeCloseTo(60 * T, 12);
   });
-  it("started at its estimated settled current, it settles for the plan's preset time constants", () => {
-    const tau = DEFAULT_RUN_PLAN.presetSettleTau!;
-    expect(tau).toBeLessThan(DEFAULT_RUN_PLAN.settleTau);
-    expect(settleTime(target({ loadTau_s: 1e-3 }), 1, DEFAULT_RUN_PLAN, true)).toBeCloseTo(
-      Math.max(DEFAULT_RUN_PLAN.settlePeriods * T, tau * 1e-3),
-      12,
-    );
-    const half = { ...DEFAULT_RUN_PLAN, presetSettleTau: 0.5 };
-    expect(settleTime(target({ loadTau_s: 1e-3 }), 1, half, true)).toBeCloseTo(0.5e-3, 12);
+  it("started at its settled current, it settles for the plan's preset periods (never longer than unprepared)", () => {
+    const n = DEFAULT_RUN_PLAN.presetSettlePeriods!;
+    expect(n * T).toBeLessThan(DEFAULT_RUN_PLAN.settleTau * 1e-3);
+    expect(settleTime(target({ loadTau_s: 1e-3 }), 1, DEFAULT_RUN_PLAN, true)).toBeCloseTo(n * T, 12);
+    expect(settleTime(target({ loadTau_s: 1e-4 }), 1, DEFAULT_RUN_PLAN, true)).toBeCloseTo(Math.min(n * T, 3e-4), 12);
     expect(settleTime(target({ loadTau_s: 1e-3 }), 0.5, DEFAULT_RUN_PLAN, true)).toBeCloseTo(
       DEFAULT_RUN_PLAN.settlePeriods * T,
       12,
@@ -183,8 +179,10 @@ describe("an inductive load starts at its settled current (R, L, back-EMF in ser
     const vTerm = 0.6 * (12 - 0.2) + 0.4 * (12 - 12.5); // load voltage vbus − sw, whole periods
     expectClose(settledLoadCurrent(target({ loadEmf_V: 3 }), run, NETLIST), (vTerm - 3) / 10, 0.01);
   });
-  it("only an inductive load's control-1 run is prepared", () => {
+  it("only an inductive load's control-1 run is prepared, and only where that is shorter", () => {
     expect(presetsLoad(target(), 1, DEFAULT_RUN_PLAN)).toBe(true);
+    // τ = 4 periods: 3·L/R = 12 periods of settling cost less than a preparatory run plus 10.
+    expect(presetsLoad(target({ loadTau_s: 4 * T }), 1, DEFAULT_RUN_PLAN)).toBe(false);
     expect(presetsLoad(target(), 0.5, DEFAULT_RUN_PLAN)).toBe(false);
     expect(presetsLoad(target({ inductive: false, loadR_ohm: 0 }), 1, DEFAULT_RUN_PLAN)).toBe(false);
   });
