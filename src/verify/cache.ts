@@ -1,8 +1,9 @@
 /**
  * Content-hash cache of measurements: `.cache/sim/<sha256>.json`. The key covers everything the
  * measurements depend on (the netlist as the verifier simulates it, deck.ts `simBody`; engine and
- * version, measurement code version, the plan's inputs), never the predictions, which are
- * compared afresh on every build. Written atomically (temp file + rename); an unreadable or
+ * version, measurement code version, the plan's inputs, among them the predictions an inductive
+ * load's preparatory run starts from), never the predictions compared, which are compared afresh
+ * on every build. Written atomically (temp file + rename); an unreadable or
  * malformed entry is treated as a miss and overwritten.
  */
 import { createHash } from "node:crypto";
@@ -26,8 +27,20 @@ export function cacheKey(netlist: string, engine: { name: EngineName; version: s
     target.period_s,
     target.loadTau_s,
     target.loadEmf_V,
+    target.loadR_ohm,
+    target.supply_V,
     target.predicted["chain_threshold"]?.value ?? null,
-    (target.corners ?? []).map((d) => [d.corner.name, d.corner.ctrl, d.period_s, d.netlist]),
+    // Where an inductive load's preparatory run starts (runs.ts predictedLoadCurrent).
+    target.inductive
+      ? [target.predicted["duty_max"]?.value ?? null, target.predicted["switch_on_voltage"]?.value ?? null]
+      : null,
+    (target.corners ?? []).map((d) => [
+      d.corner.name,
+      d.corner.ctrl,
+      d.period_s,
+      d.netlist,
+      target.inductive ? d.corner.predicted.duty : null,
+    ]),
     // The pull-in run's length and level (solenoids only; absent, the key is as before).
     ...(target.pullIn !== undefined ? [target.pullIn] : []),
   ]);

@@ -23,7 +23,7 @@ export async function measureCorners(
     const t: VerifyTarget = { ...target, period_s: deck.period_s };
     let run;
     try {
-      run = await runAt(t, deck.netlist, engine, k.ctrl, plan);
+      run = await runAt(t, deck.netlist, engine, k.ctrl, plan, k.predicted.duty);
     } catch (err) {
       throw new SpiceRunError(`corner ${k.name}: ${err instanceof Error ? err.message : String(err)}`);
     }

@@ -4,6 +4,7 @@
  * published netlist is never changed.
  */
 import { setCtrl } from "../render/netlist.ts";
+import { spiceNum } from "../render/spice-num.ts";
 import { SpiceRunError } from "../model/errors.ts";
 
 /** Supply voltage from the `Vsupply` line (`Vsupply vcc 0 [DC] 12`). */
@@ -51,6 +52,8 @@ export interface DeckOptions {
   kickNet: string;
   /** Extra `.options` (solver tolerances), appended to the gear line. */
   options?: string;
+  /** Further nodes held during the operating point (`.ic`), e.g. the load node (runs.ts loadPreset). */
+  hold?: Record<string, number>;
 }
 
 /**
@@ -65,5 +68,7 @@ export function simDeck(netlist: string, o: DeckOptions): string {
     `.tran ${o.tMax_s} ${o.tStop_s} 0 ${o.tMax_s}`,
   ];
   if (!/^\s*\.ic\b/im.test(body)) extra.unshift(`.ic v(${o.kickNet})=${supplyVoltage(netlist)}`);
+  const hold = Object.entries(o.hold ?? {});
+  if (hold.length > 0) extra.unshift(`.ic ${hold.map(([n, v]) => `v(${n})=${spiceNum(v, "hold")}`).join(" ")}`);
   return `${body}\n${extra.join("\n")}\n.end\n`;
 }

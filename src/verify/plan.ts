@@ -25,7 +25,7 @@ import { SpiceRunError } from "../model/errors.ts";
 import { measurePullIn } from "./pull-in.ts";
 
 /** Bumped whenever measurement code changes what it reports: part of every cache key. */
-export const MEASURE_CODE_VERSION = "verify-measure-11";
+export const MEASURE_CODE_VERSION = "verify-measure-12";
 
 /** Transients of the nominal plan per variant (ctrl 0.5, 0, 1); corner runs come on top (corner-runs.ts). */
 export const NOMINAL_RUNS = 3;
@@ -45,7 +45,7 @@ export async function measureVariant(
   try {
     const mid = await runAt(target, netlist, engine, 0.5, plan);
     const low = await runAt(target, netlist, engine, 0, plan);
-    const high = await runAt(target, netlist, engine, 1, plan);
+    const high = await runAt(target, netlist, engine, 1, plan, target.predicted["duty_max"]?.value);
     const { measurements, waveforms } = collect(target, low, mid, high);
     // Solenoid variants: one cold-start run at nominal conditions shows the pull-in and the hold.
     measurements.push(...(await measurePullIn(target, netlist, engine)));

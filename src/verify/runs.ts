@@ -1,7 +1,7 @@
 /**
  * One transient per duty-control setting, and the load's on/off signal derived from it.
  */
-import { simDeck } from "./deck.ts";
+import { simDeck, supplyVoltage } from "./deck.ts";
 import type { SimResult, SpiceEngine } from "./engines/types.ts";
 import { pwmTiming, type PwmTiming } from "./edges.ts";
 import { timeAverage, upperLevel } from "./signal.ts";
@@ -12,15 +12,29 @@ import { SpiceRunError } from "../model/errors.ts";
 
 /**
  * Transient length, start-up discarded and largest step, in predicted periods. The core starts from
- * an `.ic` with one collector high, so it is settled after one or two periods; the figures behind
- * these defaults (settling, step-size accuracy, speed) are in docs/verification.md.
+ * an `.ic` with one collector high and is settled after its first period; the figures behind these
+ * defaults (settling, step-size accuracy, speed) are in docs/verification.md.
  */
 export interface RunPlan {
   periods: number;
   settlePeriods: number;
   stepsPerPeriod: number;
-  /** Settling of an inductive load at ctrl = 1, in L/R time constants. */
+  /**
+   * Largest step, per period, of runs that read timing only: control below 1 (frequency, duty, the
+   * plot) and the preparatory run (a mean voltage). The solver's own error control sets the steps at
+   * the edges either way; the largest step only bounds the smooth stretches between them. Absent:
+   * `stepsPerPeriod` for every run.
+   */
+  timingStepsPerPeriod?: number;
+  /** Settling of an inductive load at ctrl = 1, in L/R time constants, from an unprepared start. */
   settleTau: number;
+  /**
+   * Settling, in periods, of an inductive load at ctrl = 1 started at its settled current (from the
+   * preparatory run): the core's first period after its `.ic` disturbs the winding current, and
+   * that disturbance decays with L/R (docs/verification.md). Absent: no preparatory run, the
+   * 3·L/R settle (`settleTau`) from an unprepared start.
+   */
+  presetSettlePeriods?: number;
   /** Solver options for every run, e.g. "abstol=1e-9 vntol=1e-5" (none: ngspice defaults). */
   options?: string;
   /**
@@ -32,11 +46,20 @@ export interface RunPlan {
   powerOptions?: string;
 }
 export const POWER_RUN_OPTIONS = "reltol=1e-4";
+/**
+ * Periods an inductive load settles for once started at its settled current. The disturbance of
+ * the core's first period is ∝ P/τ and decays as e^(−t/τ), so its residual share after n periods,
+ * (P/τ)·e^(−n·P/τ), is ≤ 3 % of the first-period dip after 10 periods for any τ
+ * (docs/verification.md, "Run plan").
+ */
+export const PRESET_SETTLE_PERIODS = 10;
 export const DEFAULT_RUN_PLAN: Readonly<RunPlan> = {
-  periods: 6,
-  settlePeriods: 2,
+  periods: 5,
+  settlePeriods: 1,
   stepsPerPeriod: 150,
+  timingStepsPerPeriod: 50,
   settleTau: 3,
+  presetSettlePeriods: PRESET_SETTLE_PERIODS,
   powerOptions: POWER_RUN_OPTIONS,
 };
 
@@ -65,10 +88,75 @@ export interface Run {
  * is then within e^−3 ≈ 5 % of its start-up error), capped at MAX_SETTLE_PERIODS.
  */
 export const MAX_SETTLE_PERIODS = 60;
-export function settleTime(target: VerifyTarget, ctrl: number, plan: RunPlan): number {
+export function settleTime(target: VerifyTarget, ctrl: number, plan: RunPlan, preset = false): number {
   const base_s = plan.settlePeriods * target.period_s;
   if (ctrl < 1 || target.loadTau_s <= 0) return base_s;
-  return Math.max(base_s, Math.min(plan.settleTau * target.loadTau_s, MAX_SETTLE_PERIODS * target.period_s));
+  const unprepared_s = Math.min(plan.settleTau * target.loadTau_s, MAX_SETTLE_PERIODS * target.period_s);
+  if (!preset || plan.presetSettlePeriods === undefined) return Math.max(base_s, unprepared_s);
+  return Math.max(base_s, Math.min(plan.presetSettlePeriods * target.period_s, unprepared_s));
+}
+
+/**
+ * An inductive load (winding resistance R, inductance L, back-EMF E in series) takes L/R to settle,
+ * tens of PWM periods for the demo's fans. Rather than simulate that from an arbitrary start, the
+ * rated-load run starts the load at its settled current: a short preparatory run (the plan's settle
+ * and measured periods, no L/R settle) gives the load's mean terminal voltage over whole periods,
+ * and since the inductance's mean voltage is L·Δi/W (zero once settled),
+ * I_settled = (mean terminal voltage − E)/R, exact where the terminal voltage does not depend on
+ * the current's residual (the switch's and the freewheel diode's drops move it a little). The
+ * measured run then holds the load node at the voltage that makes that current flow during its
+ * operating point (`loadHold`) and settles for `presetSettlePeriods`. A corner deck scales E with
+ * its supply (corner-deck.ts); so does `runEmf`.
+ */
+export function runEmf(target: VerifyTarget, netlist: string): number {
+  const v_V = supplyVoltage(netlist);
+  return target.supply_V > 0 ? (target.loadEmf_V * v_V) / target.supply_V : target.loadEmf_V;
+}
+
+/**
+ * The current aimed at before any run, for the preparatory run's start: the mean with the switch
+ * conducting for the predicted share D of each period at its predicted on-voltage, and the
+ * freewheel diode for the rest, I = max(0, D·(V − V_sw) − (1 − D)·V_F − E)/R. V_F is a typical
+ * freewheel drop (FREEWHEEL_DROP_V); an error here only makes the preparatory run's start further
+ * from settled, which the preparatory run then corrects.
+ */
+export const FREEWHEEL_DROP_V = 0.6;
+export function predictedLoadCurrent(target: VerifyTarget, netlist: string, duty: number): number {
+  const d = Math.min(1, Math.max(0, duty));
+  const vSw_V = target.predicted["switch_on_voltage"]?.value;
+  const sw_V = vSw_V !== undefined && Number.isFinite(vSw_V) ? Math.max(0, vSw_V) : 0;
+  const mean_V = d * (supplyVoltage(netlist) - sw_V) - (1 - d) * FREEWHEEL_DROP_V;
+  return Math.max(0, mean_V - runEmf(target, netlist)) / target.loadR_ohm;
+}
+
+/**
+ * The load node's voltage to hold during the operating point for a load current i_A: the
+ * inductance is a short there, so holding the switched end `ls` sets I = (V_ls − E)/R (high side,
+ * load from ls to ground) or (V − E − V_ls)/R (low side, load from the bus).
+ */
+export function loadHold(target: VerifyTarget, netlist: string, i_A: number): Record<string, number> {
+  const emf_V = runEmf(target, netlist);
+  const drop_V = Math.max(0, i_A) * target.loadR_ohm;
+  return { ls: target.highSide ? emf_V + drop_V : supplyVoltage(netlist) - emf_V - drop_V };
+}
+
+/** Settled load current from a run: (mean terminal voltage over whole periods − E)/R. */
+export function settledLoadCurrent(target: VerifyTarget, run: Run, netlist: string): number {
+  const tm = loadTiming(target, run, 0);
+  const [t0, t1] = tm.kind === "pwm" ? [tm.from_s, tm.to_s] : [run.from_s, run.tEnd_s];
+  const vTerm = timeAverage(run.t, loadVoltage(target, run), t0, t1);
+  return Math.max(0, (vTerm - runEmf(target, netlist)) / target.loadR_ohm);
+}
+
+/**
+ * Whether this run starts its load at the settled current: an inductive load at ctrl = 1, when the
+ * preparatory run plus the shorter settle is shorter than settling from an unprepared start.
+ */
+export function presetsLoad(target: VerifyTarget, ctrl: number, plan: RunPlan): boolean {
+  if (ctrl !== 1 || plan.presetSettlePeriods === undefined || !target.inductive || !(target.loadR_ohm > 0))
+    return false;
+  const unprepared = Math.min(plan.settleTau * target.loadTau_s, MAX_SETTLE_PERIODS * target.period_s);
+  return unprepared > (plan.presetSettlePeriods + plan.periods) * target.period_s;
 }
 
 /**
@@ -93,8 +181,29 @@ export async function runAt(
   engine: SpiceEngine,
   ctrl: number,
   plan: RunPlan = DEFAULT_RUN_PLAN,
+  /** The predicted duty of this run: an inductive load at ctrl = 1 then starts at its settled current. */
+  duty?: number,
+  /** Load node held during the operating point (the preparatory run's start). */
+  given?: { hold: Record<string, number> },
 ): Promise<Run> {
-  const settle_s = settleTime(target, ctrl, plan);
+  let hold: Record<string, number> | undefined;
+  if (presetsLoad(target, ctrl, plan) && duty !== undefined && Number.isFinite(duty)) {
+    // Preparatory run: core settled, load started at the predicted current, default tolerances.
+    const prepPlan: RunPlan = {
+      ...plan,
+      presetSettlePeriods: plan.settlePeriods,
+      stepsPerPeriod: plan.timingStepsPerPeriod ?? plan.stepsPerPeriod,
+    };
+    delete prepPlan.powerOptions;
+    const prep = await runAt(target, netlist, engine, ctrl, prepPlan, undefined, {
+      hold: loadHold(target, netlist, predictedLoadCurrent(target, netlist, duty)),
+    }).catch((err: unknown) => {
+      const why = err instanceof Error ? err.message : String(err);
+      throw new SpiceRunError(`preparatory run (load started at its predicted current): ${why}`, { cause: err });
+    });
+    hold = loadHold(target, netlist, settledLoadCurrent(target, prep, netlist));
+  } else if (given?.hold !== undefined) hold = given.hold;
+  const settle_s = settleTime(target, ctrl, plan, hold !== undefined);
   const tStop_s = settle_s + (plan.periods - plan.settlePeriods) * target.period_s;
   const elements = target.powerRefs.map((r) => transistorElement(netlist, r));
   const powerVectors = elements.every((e) => e !== null) ? elements.map((e) => `@${e}[p]`) : [];
@@ -110,7 +219,8 @@ export async function runAt(
   ].filter((n) => n !== "0");
   const nets = ["vbus", target.tapNet, target.otherNet, target.chainInputNet, target.switchNet, "ls", ...gateNets];
   const vectors = [...new Set(nets)].map((n) => `v(${n})`).concat("i(vsense)", powerVectors);
-  const tMax_s = target.period_s / plan.stepsPerPeriod;
+  const tMax_s =
+    target.period_s / (ctrl !== 1 ? (plan.timingStepsPerPeriod ?? plan.stepsPerPeriod) : plan.stepsPerPeriod);
   const attempt = async (options: string | undefined, step_s = tMax_s): Promise<SimResult> => {
     const deck = simDeck(netlist, {
       ctrl,
@@ -118,6 +228,7 @@ export async function runAt(
       tMax_s: step_s,
       kickNet: target.otherNet,
       ...(options ? { options } : {}),
+      ...(hold ? { hold } : {}),
     });
     return engine.run(deck, vectors);
   };

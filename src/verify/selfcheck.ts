@@ -5,10 +5,11 @@
  * (`.print`, `.plot`, `.four` or `.meas`); `.meas` lines are that request and print their results.
  *
  * The deck runs at ctrl = 1, the verifier's rated-load run (highest duty, the switch hottest; where
- * the on-current and dissipation are predicted), with that run's settle rule (`settleTime`) and
- * solver options, then MEASURED_PERIODS periods are read. The block sits between two comment
- * markers; the verifier strips it (deck.ts `simBody`) and so does the cache key: it holds
- * predictions (the current level that counts as "on"), which never key the cache.
+ * the on-current and dissipation are predicted), with that run's solver options and the settle
+ * rule of an unprepared start (`SELF_CHECK_PLAN`), then MEASURED_PERIODS periods are read. The
+ * block sits between two comment markers; the verifier strips it (deck.ts `simBody`) and so does
+ * the cache key: it holds predictions (the current level that counts as "on"), which never key
+ * the cache.
  * Format and reasons: docs/verification.md, "The published netlist checks itself".
  */
 import { DEFAULT_RUN_PLAN, POWER_RUN_OPTIONS, settleTime, switchLevel, type RunPlan } from "./runs.ts";
@@ -21,6 +22,14 @@ import { EngineMisuseError } from "../model/errors.ts";
 import { SELF_CHECK_BEGIN, SELF_CHECK_END, stripSelfCheck } from "./deck.ts";
 
 export { SELF_CHECK_BEGIN, SELF_CHECK_END, stripSelfCheck };
+
+/**
+ * The batch run's plan: the verifier's, but settling as from an unprepared start. A batch run has
+ * no preparatory run to start an inductive load at its settled current (runs.ts `loadHold`), so it
+ * settles 3·L/R (`settleTau`), and the core 2 periods from its `.ic` (the verifier's 1, plus one
+ * for the `.meas` lines, which cannot skip a late first edge).
+ */
+export const SELF_CHECK_PLAN: Readonly<RunPlan> = { ...DEFAULT_RUN_PLAN, settlePeriods: 2, periods: 6 };
 
 /** The duty-control position the published deck runs at. */
 export const SELF_CHECK_CTRL = 1;
@@ -155,7 +164,7 @@ export function selfCheckBlock(
   target: VerifyTarget,
   netlist: string,
   supply_V: number,
-  plan: RunPlan = DEFAULT_RUN_PLAN,
+  plan: RunPlan = SELF_CHECK_PLAN,
 ): SelfCheckDeck {
   const ctrl = SELF_CHECK_CTRL;
   const settle_s = settleTime(target, ctrl, plan);

@@ -34,6 +34,10 @@ export interface VerifyTarget {
   loadTau_s: number;
   /** Back-EMF of a motor load in the netlist (0 otherwise): sets the switch's off level. */
   loadEmf_V: number;
+  /** DC resistance of an inductive load (0 otherwise): with the back-EMF, its settled current. */
+  loadR_ohm: number;
+  /** Nominal supply (the published netlist's); a corner deck scales a motor's back-EMF from it. */
+  supply_V: number;
   /** Corner runs besides the nominal ones (corner-deck.ts); absent or empty: nominal only. */
   corners?: CornerDeck[];
   /** Worst-case ranges and bounds the corner runs are judged against, by figure key. */
@@ -70,6 +74,8 @@ export function targetFromSized(sized: SizedVariant): VerifyTarget | null {
     period_s: 1 / f,
     loadTau_s: l_H > 0 && r_ohm > 0 ? l_H / r_ohm : 0,
     loadEmf_V: load?.kind === "motor" ? Math.max(0, load.spice?.vf_V ?? 0) : 0,
+    loadR_ohm: l_H > 0 && r_ohm > 0 ? r_ohm : 0,
+    supply_V: sized.spec.supply_V,
     ranges,
     ...pullInOf(predicted),
   };

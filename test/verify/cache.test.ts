@@ -62,6 +62,13 @@ describe("content-hash cache of measurements", () => {
     expect(
       cacheKey(c.netlist, eng, { ...t, predicted: { ...t.predicted, duty_max: { value: 0.5, label: "", unit: "" } } }),
     ).toBe(k);
+    // An inductive load's preparatory run starts from the predicted duty and on-voltage: they key it.
+    const ind = { ...t, inductive: true };
+    const withDuty = (d: number): typeof ind => ({
+      ...ind,
+      predicted: { ...ind.predicted, duty_max: { value: d, label: "", unit: "" } },
+    });
+    expect(cacheKey(c.netlist, eng, withDuty(0.5))).not.toBe(cacheKey(c.netlist, eng, withDuty(0.9)));
   });
 
   it("ignores entries of the wrong shape", () => {

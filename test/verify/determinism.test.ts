@@ -31,6 +31,8 @@ const LAMP: VerifyTarget = {
   period_s: 1 / 1044.6022596757318,
   loadTau_s: 0,
   loadEmf_V: 0,
+  loadR_ohm: 0,
+  supply_V: 24,
 };
 const LAMP_V = 24;
 const LAMP_R = 48;

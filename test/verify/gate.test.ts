@@ -31,6 +31,8 @@ function target(o: Partial<VerifyTarget> = {}): VerifyTarget {
     period_s: T,
     loadTau_s: 1e-3,
     loadEmf_V: EMF,
+    loadR_ohm: 50,
+    supply_V: VBUS,
     ...o,
   };
 }

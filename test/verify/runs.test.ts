@@ -10,6 +10,10 @@ import {
   RETRY_OPTIONS,
   runAt,
   settleTime,
+  loadHold,
+  predictedLoadCurrent,
+  presetsLoad,
+  settledLoadCurrent,
   switchLevel,
   type Run,
 } from "../../src/verify/runs.ts";
@@ -32,6 +36,8 @@ function target(o: Partial<VerifyTarget> = {}): VerifyTarget {
     period_s: T,
     loadTau_s: 1e-3,
     loadEmf_V: 9,
+    loadR_ohm: 10,
+    supply_V: 12,
     ...o,
   };
 }
@@ -92,6 +98,16 @@ describe("settling", () => {
     expect(settleTime(target({ loadTau_s: 1e-3 }), 1, DEFAULT_RUN_PLAN)).toBeCloseTo(3e-3, 12);
     expect(settleTime(target({ loadTau_s: 1 }), 1, DEFAULT_RUN_PLAN)).toBeCloseTo(60 * T, 12);
   });
+  it("started at its settled current, it settles for the plan's preset periods (never longer than unprepared)", () => {
+    const n = DEFAULT_RUN_PLAN.presetSettlePeriods!;
+    expect(n * T).toBeLessThan(DEFAULT_RUN_PLAN.settleTau * 1e-3);
+    expect(settleTime(target({ loadTau_s: 1e-3 }), 1, DEFAULT_RUN_PLAN, true)).toBeCloseTo(n * T, 12);
+    expect(settleTime(target({ loadTau_s: 1e-4 }), 1, DEFAULT_RUN_PLAN, true)).toBeCloseTo(Math.min(n * T, 3e-4), 12);
+    expect(settleTime(target({ loadTau_s: 1e-3 }), 0.5, DEFAULT_RUN_PLAN, true)).toBeCloseTo(
+      DEFAULT_RUN_PLAN.settlePeriods * T,
+      12,
+    );
+  });
 });
 
 /** A fake engine: answers each run from `stopAt(deck)` (fraction of the requested stop time reached). */
@@ -134,6 +150,58 @@ describe("a transient that stops early", () => {
     const e = fakeEngine(() => 1);
     const run = await runAt(target({ inductive: false, loadTau_s: 0 }), NETLIST, e, 0);
     expect([run.retried, e.decks.length]).toEqual([false, 1]);
+  });
+});
+
+describe("an inductive load starts at its settled current (R, L, back-EMF in series)", () => {
+  // 12 V motor, 10 Ω winding, 9 V back-EMF at 12 V: at duty 0.9 the mean winding voltage is
+  // 0.9·12 − 9 = 1.8 V, so 0.18 A (Ohm's law on the mean: the inductance's mean voltage is zero once settled).
+  it("the preparatory run's start: I = max(0, D·(V − V_sw) − (1 − D)·V_F − E)/R", () => {
+    // No predicted on-voltage: 0.9·12 − 0.1·0.6 − 9 = 1.74 V over 10 Ω.
+    expectClose(predictedLoadCurrent(target(), NETLIST, 0.9), 0.174, 1e-9);
+    // Predicted on-voltage 0.5 V: 0.9·11.5 − 0.06 − 9 = 1.29 V.
+    const withSw = target({ predicted: { switch_on_voltage: { value: 0.5, label: "", unit: "V" } } });
+    expectClose(predictedLoadCurrent(withSw, NETLIST, 0.9), 0.129, 1e-9);
+    expect(predictedLoadCurrent(target(), NETLIST, 0.5)).toBe(0);
+  });
+  it("low side: the switched end held at V − E − I·R; high side at E + I·R", () => {
+    expectClose(loadHold(target(), NETLIST, 0.18)["ls"]!, 12 - 9 - 1.8, 1e-9);
+    expectClose(loadHold(target({ highSide: true }), NETLIST, 0.18)["ls"]!, 9 + 1.8, 1e-9);
+  });
+  it("a corner deck's supply scales the back-EMF as the corner deck does (13.2 V: E = 9.9 V)", () => {
+    const deck = NETLIST.replace("DC 12", "DC 13.2");
+    expectClose(loadHold(target({ highSide: true }), deck, 0.1)["ls"]!, 9.9 + 1, 1e-9);
+  });
+  it("the settled current from a run: (mean terminal voltage over whole periods − E)/R", () => {
+    // motorRun: low side, on 0.2 V for D, off at V_bus + V_F while the diode conducts, then E.
+    const m = motorRun(0.6, 1);
+    const run = { ...m, v: { ...m.v, "v(ls)": m.v["v(sw)"]! } }; // Vsense (0 V) joins sw and ls
+    const vTerm = 0.6 * (12 - 0.2) + 0.4 * (12 - 12.5); // load voltage vbus − sw, whole periods
+    expectClose(settledLoadCurrent(target({ loadEmf_V: 3 }), run, NETLIST), (vTerm - 3) / 10, 0.01);
+  });
+  it("only an inductive load's control-1 run is prepared, and only where that is shorter", () => {
+    expect(presetsLoad(target(), 1, DEFAULT_RUN_PLAN)).toBe(true);
+    // τ = 4 periods: 3·L/R = 12 periods of settling cost less than a preparatory run plus 10.
+    expect(presetsLoad(target({ loadTau_s: 4 * T }), 1, DEFAULT_RUN_PLAN)).toBe(false);
+    expect(presetsLoad(target(), 0.5, DEFAULT_RUN_PLAN)).toBe(false);
+    expect(presetsLoad(target({ inductive: false, loadR_ohm: 0 }), 1, DEFAULT_RUN_PLAN)).toBe(false);
+  });
+  it("the control-1 run: a preparatory run, then the measured run held at the settled current", async () => {
+    const e = fakeEngine(() => 1);
+    await runAt(target(), NETLIST, e, 1, DEFAULT_RUN_PLAN, 0.9);
+    expect(e.decks).toHaveLength(2);
+    expect(e.decks[0]).toMatch(/^\.ic v\(ls\)=1\.26$/m);
+    expect(e.decks[0]).not.toMatch(/reltol/);
+    // The fake engine's flat vectors (bus 12 V, ls 0 V) read as a terminal voltage of 12 V: 0.3 A.
+    expect(Math.abs(Number(/^\.ic v\(ls\)=(\S+)$/m.exec(e.decks[1]!)![1]))).toBeLessThan(1e-9);
+    expect(e.decks[1]).toMatch(/reltol=1e-4/);
+    const tStop = Number(/^\.tran \S+ (\S+)/m.exec(e.decks[1]!)![1]);
+    const measured = (DEFAULT_RUN_PLAN.periods - DEFAULT_RUN_PLAN.settlePeriods) * T;
+    expectClose(tStop, settleTime(target(), 1, DEFAULT_RUN_PLAN, true) + measured, 1e-9);
+    const plain = fakeEngine(() => 1);
+    await runAt(target(), NETLIST, plain, 0.5, DEFAULT_RUN_PLAN, 0.9);
+    expect(plain.decks).toHaveLength(1);
+    expect(plain.decks[0]).not.toMatch(/v\(ls\)/);
   });
 });
 

@@ -13,9 +13,10 @@ import {
   selfCheckExpectations,
   SELF_CHECK_BEGIN,
   stripSelfCheck,
+  SELF_CHECK_PLAN,
 } from "../../src/verify/selfcheck.ts";
 import { targetFromSized } from "../../src/verify/target.ts";
-import { settleTime, DEFAULT_RUN_PLAN } from "../../src/verify/runs.ts";
+import { settleTime } from "../../src/verify/runs.ts";
 import { findFigure } from "../../src/model/sized.ts";
 import { REPO } from "../records/project.ts";
 import { selfCheckJson, selfCheckView } from "../../src/site/selfcheck-view.ts";
@@ -40,8 +41,8 @@ describe("self-check block of a published netlist", () => {
     expect(n).toMatch(/^\.param ctrl=1$/m);
     const tran = /^\.tran (\S+) (\S+) 0 (\S+)$/m.exec(n);
     expect(tran).not.toBeNull();
-    // Settle rule of the verifier (3·L/R of the motor here, capped at 60 periods), then 8 periods.
-    const settle = settleTime(target, 1, DEFAULT_RUN_PLAN);
+    // Settle rule of an unprepared start (3·L/R of the motor here, capped at 60 periods), then 8 periods.
+    const settle = settleTime(target, 1, SELF_CHECK_PLAN);
     expect(settle).toBeGreaterThan(2 * target.period_s);
     expect(Number(tran![2])).toBeCloseTo(settle + 8 * target.period_s, 9);
     for (const name of ["pwm_frequency_hz", "load_duty", "load_on_current_a", "switch_dissipation_w"])
