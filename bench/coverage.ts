@@ -5,7 +5,7 @@
  * blocking rule, and every blocking rule). Figures are printed, never asserted.
  * Usage: node --import tsx bench/coverage.ts [--by chain|supply|pwm|kind|load] [--rule <rule>]
  */
-import { cpSync, mkdtempSync, rmSync } from "node:fs";
+import { cpSync, mkdtempSync, readdirSync, rmSync } from "node:fs";
 import { tmpdir } from "node:os";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
@@ -31,13 +31,23 @@ export async function sizeAll(root: string): Promise<SizedVariant[]> {
   return specs.map((s) => sizeVariant(s));
 }
 
-/** A project root holding the coverage grid with the repository's devices, policy and schemas. */
-function gridRoot(): string {
-  const root = mkdtempSync(path.join(tmpdir(), "pulsewright-coverage-"));
-  for (const sub of ["devices", "policies", "schema"])
-    cpSync(path.join(ROOT, "designs", sub), path.join(root, "designs", sub), { recursive: true });
-  cpSync(path.join(ROOT, "test", "fixtures", "coverage", "designs"), path.join(root, "designs"), { recursive: true });
-  return root;
+/**
+ * Project roots holding the coverage grid with the repository's devices, policy and schemas: one
+ * record per root, because the grid (25 200 variants) is past the catalogue limit a single project
+ * may hold (src/records/limits.ts); each record alone is within its own limit.
+ */
+function gridRoots(): string[] {
+  const grid = path.join(ROOT, "test", "fixtures", "coverage", "designs");
+  return readdirSync(grid)
+    .filter((f) => f.endsWith(".json"))
+    .sort()
+    .map((f) => {
+      const root = mkdtempSync(path.join(tmpdir(), "pulsewright-coverage-"));
+      for (const sub of ["devices", "policies", "schema"])
+        cpSync(path.join(ROOT, "designs", sub), path.join(root, "designs", sub), { recursive: true });
+      cpSync(path.join(grid, f), path.join(root, "designs", f));
+      return root;
+    });
 }
 
 const share = (n: number, d: number): string => `${n}/${d} (${d ? ((100 * n) / d).toFixed(1) : "0"} %)`;
@@ -101,13 +111,14 @@ export async function runCoverage(o: CoverageOptions = {}): Promise<void> {
     listRule(demo, o.rule);
     return;
   }
-  const root = gridRoot();
+  const roots = gridRoots();
   try {
-    const grid = await sizeAll(root);
+    const grid: SizedVariant[] = [];
+    for (const root of roots) grid.push(...(await sizeAll(root)));
     report("coverage grid (sized, no simulation)", grid, o.by);
     listRule(grid, o.rule);
   } finally {
-    rmSync(root, { recursive: true, force: true });
+    for (const root of roots) rmSync(root, { recursive: true, force: true });
   }
 }
 
