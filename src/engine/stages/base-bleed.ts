@@ -18,6 +18,8 @@
  * higher cut-in level (core-model.ts cutIn_V).
  */
 import type { BjtClass, DiodeClass } from "../../model/device.ts";
+import type { Figure } from "../../model/figure.ts";
+import { figure } from "../shared/figures.ts";
 import { roundUp } from "../shared/e-series.ts";
 import { vbeOn } from "../shared/gain.ts";
 import type { Ctx } from "./context.ts";
@@ -54,4 +56,20 @@ export function bleedFor_ohm(
   const iB = baseCurrentMin_A(ctx, q, db, true, v.pot_ohm, v.rEndA_ohm, v.rEndB_ohm);
   if (!(iB > 0)) return undefined;
   return roundUp(vbeOn(q, ctx.taMin_C) / (BLEED_SHARE * iB * (1 - ctx.rTol)), "E24");
+}
+
+/** The bleed's figure on the page (none without one). */
+export function bleedFigures(bleed_ohm: number | undefined): Figure[] {
+  if (bleed_ohm === undefined) return [];
+  return [
+    figure(
+      "base_bleed",
+      "Base–emitter bleed RBL_A, RBL_B (each)",
+      bleed_ohm,
+      "Ω",
+      "timing",
+      `R_BE = V_BE(cold)/(${BLEED_SHARE}·I_B,min), E24 up; holds the off base below cut-in`,
+      "millman-taub-1965",
+    ),
+  ];
 }

@@ -17,7 +17,7 @@ import type { Ctx } from "./context.ts";
 import { type CoreEval, type CoreValues, NOMINAL_K, diodeVf_V, evalCore, followerAt } from "./core-model.ts";
 import { MAX_RECOVERY, type Search, envelopeOf, injection, searchCore } from "./timing-search.ts";
 import { INJECTION_MAX } from "./astable.ts";
-import { BLEED_SHARE } from "./base-bleed.ts";
+import { bleedFigures } from "./base-bleed.ts";
 import { FOLLOWER_OFF_MARGIN_V, type TapDesign, followerChainThresholdHot_V, followerOffLevel_V } from "./tap.ts";
 import type { ChainPlan } from "./chains/types.ts";
 import { timingParts } from "./timing-parts.ts";
@@ -483,18 +483,7 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
       "derived",
     ),
   ];
-  if (v.bleed_ohm !== undefined)
-    figures.push(
-      figure(
-        "base_bleed",
-        "Base–emitter bleed RBL_A, RBL_B (each)",
-        v.bleed_ohm,
-        "Ω",
-        "timing",
-        `R_BE = V_BE(cold)/(${BLEED_SHARE}·I_B,min), E24 up; holds the off base below cut-in`,
-        "millman-taub-1965",
-      ),
-    );
+  figures.push(...bleedFigures(v.bleed_ohm));
   return {
     search,
     values: v,
