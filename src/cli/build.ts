@@ -8,7 +8,8 @@ import path from "node:path";
 import { performance } from "node:perf_hooks";
 import { loadProject, formatIssue } from "../records/index.ts";
 import { assembleDesign, catalogueHead, simulationJobs } from "./pipeline.ts";
-import { sizeAndRenderDesign, type StageStats } from "./size-cache.ts";
+import { cachedDesign, sizeAndRenderDesign, sizedKey, type StageStats } from "./size-cache.ts";
+import { sizeInWorkers, sizingWorkers } from "./size-pool.ts";
 import { verifyAll, type VerifyJob } from "../verify/pool.ts";
 import { NOMINAL_RUNS } from "../verify/plan.ts";
 import { progressReporter } from "../verify/progress.ts";
@@ -67,13 +68,34 @@ export async function runBuild(o: BuildOptions): Promise<number> {
   const sizeStats: StageStats = { hits: 0, misses: 0, keys: [] };
   let variants = 0;
   let feasible = 0;
+  const count = (n: { variants: number; feasible: number }): void => {
+    variants += n.variants;
+    feasible += n.feasible;
+  };
+  const misses: number[] = [];
+  project.designs.forEach((design, i) => {
+    sizeStats.keys.push(sizedKey(project, design));
+    const hit = o.rebuild ? null : cachedDesign(project, design, sizedDir);
+    if (hit) count({ variants: hit.length, feasible: hit.filter((r) => r.sized.feasible).length });
+    else misses.push(i);
+  });
+  sizeStats.hits = project.designs.length - misses.length;
+  sizeStats.misses = misses.length;
+  // The designs to size again: on every core when there are enough of them (size-pool.ts).
+  const workers = sizingWorkers(project, misses);
+  if (workers > 0) for (const n of (await sizeInWorkers(o.root, project, misses, sizedDir, workers)).values()) count(n);
+  else
+    for (const i of misses) {
+      const { rendered } = sizeAndRenderDesign(project, project.designs[i]!, sizedDir, undefined, { read: false });
+      count({ variants: rendered.length, feasible: rendered.filter((r) => r.sized.feasible).length });
+    }
+  // The simulation work, in catalogue order, read back from the entries.
   const jobs: VerifyJob[] = [];
-  for (const design of project.designs) {
-    const { rendered } = sizeAndRenderDesign(project, design, sizedDir, sizeStats, { read: !o.rebuild });
-    variants += rendered.length;
-    feasible += rendered.filter((r) => r.sized.feasible).length;
-    if (o.simulate) jobs.push(...simulationJobs(rendered, project.devices));
-  }
+  if (o.simulate)
+    for (const design of project.designs) {
+      const { rendered } = sizeAndRenderDesign(project, design, sizedDir, undefined, { read: true });
+      jobs.push(...simulationJobs(rendered, project.devices));
+    }
   const tSized = performance.now();
   o.out.log(
     `sized and rendered ${variants} variants of ${project.designs.length} designs ` +
@@ -182,10 +204,13 @@ export async function runBuild(o: BuildOptions): Promise<number> {
   }
 }
 
-/** Peak memory, for the bench (PULSEWRIGHT_REPORT_RSS set). */
+/** Peak memory and processor time of the build's own process, for the bench (PULSEWRIGHT_REPORT_RSS set). */
 function reportRss(o: BuildOptions): void {
-  if (process.env["PULSEWRIGHT_REPORT_RSS"])
-    o.out.log(`peak memory ${Math.round(process.resourceUsage().maxRSS / 1024)} MB`);
+  if (!process.env["PULSEWRIGHT_REPORT_RSS"]) return;
+  const u = process.resourceUsage();
+  o.out.log(
+    `peak memory ${Math.round(u.maxRSS / 1024)} MB, cpu ${((u.userCPUTime + u.systemCPUTime) / 1e6).toFixed(1)} s`,
+  );
 }
 
 /** The --strict and --strict-failures gates over the simulation summary. */

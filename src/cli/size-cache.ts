@@ -61,6 +61,12 @@ export function sizeAndRenderCached(
   return project.designs.map((design) => sizeAndRenderDesign(project, design, cacheDir, stats, opts));
 }
 
+/** A design's sized and rendered variants from its entry, or null when there is none (or it is unreadable). */
+export function cachedDesign(project: LoadedProject, design: Design, cacheDir: string): RenderedVariant[] | null {
+  const hit = decode(readEntry(cacheDir, `${sizedKey(project, design)}.bin`));
+  return hit ? hit.sized.map((sized, i) => ({ sized, ...hit.views[i]! })) : null;
+}
+
 /**
  * Size and render one design, or read it from its entry when its inputs and code are unchanged.
  * A build calls this design by design and keeps nothing of one design once the next is asked for.

@@ -3,13 +3,14 @@
  * of and the code that makes it (src/cache/code-hash.ts), so no version string is ever bumped by
  * hand:
  *
- * - a design page: its view model, the site code and templates, the URL prefix, and what the shared
- *   layout prints on every page (catalogue version, derating policy);
+ * - a design page, and each group page of a large design: its view model, the site code and
+ *   templates, the URL prefix, and what the shared layout prints on every page (catalogue version,
+ *   derating policy);
  * - a variant page with its downloads: its view model, the built variant (sized figures, circuit
  *   files, simulation), its design's record and file, the policy, and the same shared parts;
  * - the browser scripts: the code under src/browser/ and the bundler's version;
- * - the search index: every page's key (the home page's without the build date, which is printed
- *   only outside the indexed main content) and the indexer's version.
+ * - the search index: every page's key (the home page's without the build date, which no search
+ *   record holds) and the indexer's version.
  *
  * The build date is printed on the home page only (site/_includes/base.njk), so that every other
  * page stays byte-identical between builds of the same content and can be reused. Whether the
