@@ -61,6 +61,24 @@ export function sizeAndRenderCached(
   return project.designs.map((design) => sizeAndRenderDesign(project, design, cacheDir, stats, opts));
 }
 
+/**
+ * Size and render one design and write its entry, keeping nothing: for the sizing workers, which
+ * report counts only (the build reads the entry back when it needs the variants).
+ */
+export function sizeAndStoreDesign(
+  project: LoadedProject,
+  design: Design,
+  cacheDir: string,
+): { variants: number; feasible: number } {
+  const rendered = sizeDesign(project, design).map((v) => renderVariant(v, project.devices));
+  const entry: Entry = {
+    sized: rendered.map((r) => r.sized),
+    views: rendered.map((r) => ({ netlist: r.netlist, schematicSvg: r.schematicSvg, bomCsv: r.bomCsv })),
+  };
+  writeEntry(cacheDir, `${sizedKey(project, design)}.bin`, serialize(entry));
+  return { variants: rendered.length, feasible: rendered.filter((r) => r.sized.feasible).length };
+}
+
 /** A design's sized and rendered variants from its entry, or null when there is none (or it is unreadable). */
 export function cachedDesign(project: LoadedProject, design: Design, cacheDir: string): RenderedVariant[] | null {
   const hit = decode(readEntry(cacheDir, `${sizedKey(project, design)}.bin`));

@@ -20,6 +20,16 @@ export function axesProduct(d: LoadedProject["designs"][number]): number {
   return a.supply_V.length * a.load_A.length * a.chain.length * a.load_kind.length;
 }
 
+/**
+ * A sizing worker's heap limit for designs of up to `variants` variants. Left to itself each
+ * worker's heap grows to several hundred megabytes of garbage before it collects; a limit sized to
+ * what one design needs (its sized variants and their circuit files, about half a megabyte per
+ * variant while its entry is encoded) keeps the build's peak memory flat.
+ */
+export function workerHeapMb(variants: number): number {
+  return Math.ceil(160 + 0.5 * variants);
+}
+
 /** Whether sizing these designs is worth worker threads, and how many. 0: size in this thread. */
 export function sizingWorkers(project: LoadedProject, misses: readonly number[], asked?: number): number {
   const work = misses.reduce((n, i) => n + axesProduct(project.designs[i]!), 0);
@@ -40,10 +50,14 @@ export async function sizeInWorkers(
   workers: number,
 ): Promise<Map<number, { variants: number; feasible: number }>> {
   const queue = [...misses];
+  const heap = workerHeapMb(Math.max(...misses.map((i) => axesProduct(project.designs[i]!))));
   const done = new Map<number, { variants: number; feasible: number }>();
   const slot = (): Promise<void> =>
     new Promise((resolve, reject) => {
-      const w = new Worker(WORKER_URL, { workerData: { root, cacheDir } });
+      const w = new Worker(WORKER_URL, {
+        workerData: { root, cacheDir },
+        resourceLimits: { maxOldGenerationSizeMb: heap },
+      });
       let failed: Error | undefined;
       const fail = (e: Error): void => {
         failed ??= e;

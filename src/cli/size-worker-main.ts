@@ -7,7 +7,7 @@
 import process from "node:process";
 import { parentPort, workerData } from "node:worker_threads";
 import { loadProject } from "../records/index.ts";
-import { sizeAndRenderDesign } from "./size-cache.ts";
+import { sizeAndStoreDesign } from "./size-cache.ts";
 
 export type SizeReply =
   | { ready: true }
@@ -30,8 +30,7 @@ else {
     try {
       const design = project.designs[msg.index];
       if (design === undefined) throw new Error(`no design #${msg.index}`);
-      const { rendered } = sizeAndRenderDesign(project, design, cacheDir, undefined, { read: false });
-      reply({ index: msg.index, variants: rendered.length, feasible: rendered.filter((r) => r.sized.feasible).length });
+      reply({ index: msg.index, ...sizeAndStoreDesign(project, design, cacheDir) });
     } catch (err) {
       reply({ index: msg.index, error: err instanceof Error ? (err.stack ?? err.message) : String(err) });
     }
