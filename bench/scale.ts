@@ -1,5 +1,5 @@
 /**
- * `npm run bench:scale [-- 1000 3000 10000]`: builds synthetic catalogues of about N variants each
+ * `npm run bench:scale [-- 1000 3000 10000]`: builds synthetic catalogues of at most N variants each
  * without simulation (`build --no-sim`) and prints wall time and peak memory, so growth with the
  * catalogue's size can be seen (targets at 10,000: ≤ 120 s, ≤ 1 GB on 2 cores). The records are
  * written into a throw-away project root, never into designs/: copies of the demo's heater record
@@ -31,7 +31,10 @@ interface Template {
   [k: string]: unknown;
 }
 
-/** Writes records totalling at most `n` variants (as close as whole currents allow) into `root/designs`; returns the exact count. */
+/**
+ * Writes records totalling at most `n` variants (as close as whole currents allow) into
+ * `root/designs`; returns the exact count.
+ */
 function writeRecords(root: string, n: number): number {
   const t = JSON.parse(readFileSync(path.join(ROOT, "designs", "seed-mat-heater.json"), "utf8")) as Template;
   const perCurrent = t.axes.supply_V.length * t.axes.chain.length * t.axes.load_kind.length;
