@@ -82,7 +82,7 @@ export async function runBuild(o: BuildOptions): Promise<number> {
   sizeStats.hits = project.designs.length - misses.length;
   sizeStats.misses = misses.length;
   // The designs to size again: on every core when there are enough of them (size-pool.ts).
-  const workers = sizingWorkers(project, misses);
+  const workers = sizingWorkers(project, misses, o.workers);
   if (workers > 0) for (const n of (await sizeInWorkers(o.root, project, misses, sizedDir, workers)).values()) count(n);
   else
     for (const i of misses) {

@@ -33,8 +33,9 @@ export function workerHeapMb(variants: number): number {
 /** Whether sizing these designs is worth worker threads, and how many. 0: size in this thread. */
 export function sizingWorkers(project: LoadedProject, misses: readonly number[], asked?: number): number {
   const work = misses.reduce((n, i) => n + axesProduct(project.designs[i]!), 0);
-  if (work < PARALLEL_FROM_VARIANTS) return 0;
-  return Math.max(0, Math.min(asked ?? availableParallelism(), misses.length));
+  const n = Math.min(asked ?? availableParallelism(), misses.length);
+  // One worker would only add its start-up and its heap to this thread's.
+  return work < PARALLEL_FROM_VARIANTS || n < 2 ? 0 : n;
 }
 
 /**
