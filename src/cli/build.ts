@@ -7,9 +7,10 @@ import { readFile } from "node:fs/promises";
 import path from "node:path";
 import { performance } from "node:perf_hooks";
 import { loadProject, formatIssue } from "../records/index.ts";
-import { assembleCatalogue, simulationJobs } from "./pipeline.ts";
-import { sizeAndRenderCached, type StageStats } from "./size-cache.ts";
-import { verifyAll } from "../verify/pool.ts";
+import { assembleDesign, catalogueHead, simulationJobs } from "./pipeline.ts";
+import { cachedDesign, sizeAndRenderDesign, sizedKey, type StageStats } from "./size-cache.ts";
+import { sizeInWorkers, sizingWorkers } from "./size-pool.ts";
+import { verifyAll, type VerifyJob } from "../verify/pool.ts";
 import { NOMINAL_RUNS } from "../verify/plan.ts";
 import { progressReporter } from "../verify/progress.ts";
 import { publishedKey, recordPublished } from "./published.ts";
@@ -20,6 +21,7 @@ import { makeStagingDir, swapIntoPlace, discardStaging, sweepLeftovers } from ".
 import { checkOutDir, writeSiteMarker } from "./out-guard.ts";
 import { buildDate } from "./build-date.ts";
 import type { Verification } from "../model/verification.ts";
+import type { BuiltDesign } from "../model/catalogue.ts";
 
 /**
  * The code of the whole build after sizing (site writer, templates, browser scripts; sizing and
@@ -59,15 +61,44 @@ export async function runBuild(o: BuildOptions): Promise<number> {
   }
   await sweepLeftovers(outDir);
 
-  // Each design is sized and drawn again only when its record, the devices, the policy or the code changed.
+  // Each design is sized and drawn again only when its record, the devices, the policy or the code
+  // changed. Designs pass one at a time and are let go: only the simulation work (when simulating)
+  // and a few counts are kept, so memory does not grow with the catalogue.
+  const sizedDir = path.join(o.root, ".cache", "sized");
   const sizeStats: StageStats = { hits: 0, misses: 0, keys: [] };
-  const rendered = sizeAndRenderCached(project, path.join(o.root, ".cache", "sized"), sizeStats, {
-    read: !o.rebuild,
+  let variants = 0;
+  let feasible = 0;
+  const count = (n: { variants: number; feasible: number }): void => {
+    variants += n.variants;
+    feasible += n.feasible;
+  };
+  const misses: number[] = [];
+  project.designs.forEach((design, i) => {
+    sizeStats.keys.push(sizedKey(project, design));
+    const hit = o.rebuild ? null : cachedDesign(project, design, sizedDir);
+    if (hit) count({ variants: hit.length, feasible: hit.filter((r) => r.sized.feasible).length });
+    else misses.push(i);
   });
+  sizeStats.hits = project.designs.length - misses.length;
+  sizeStats.misses = misses.length;
+  // The designs to size again: on every core when there are enough of them (size-pool.ts).
+  const workers = sizingWorkers(project, misses, o.workers);
+  if (workers > 0) for (const n of (await sizeInWorkers(o.root, project, misses, sizedDir, workers)).values()) count(n);
+  else
+    for (const i of misses) {
+      const { rendered } = sizeAndRenderDesign(project, project.designs[i]!, sizedDir, undefined, { read: false });
+      count({ variants: rendered.length, feasible: rendered.filter((r) => r.sized.feasible).length });
+    }
+  // The simulation work, in catalogue order, read back from the entries.
+  const jobs: VerifyJob[] = [];
+  if (o.simulate)
+    for (const design of project.designs) {
+      const { rendered } = sizeAndRenderDesign(project, design, sizedDir, undefined, { read: true });
+      jobs.push(...simulationJobs(rendered, project.devices));
+    }
   const tSized = performance.now();
-  const all = rendered.flatMap((d) => d.rendered);
   o.out.log(
-    `sized and rendered ${all.length} variants of ${rendered.length} designs ` +
+    `sized and rendered ${variants} variants of ${project.designs.length} designs ` +
       `in ${((tSized - t0) / 1000).toFixed(1)} s ` +
       `(${sizeStats.hits} designs unchanged, ${sizeStats.misses} sized again)`,
   );
@@ -76,7 +107,6 @@ export async function runBuild(o: BuildOptions): Promise<number> {
   // Transient runs asked for (cached ones included): three nominal per variant plus its corners.
   let runs = 0;
   if (o.simulate) {
-    const jobs = simulationJobs(all, project.devices);
     runs = jobs.reduce((n, j) => n + NOMINAL_RUNS + (j.corners?.length ?? 0), 0);
     verifications = await verifyAll(jobs, {
       engine: o.spice,
@@ -85,6 +115,12 @@ export async function runBuild(o: BuildOptions): Promise<number> {
       onProgress: progressReporter(process.stderr),
     });
   }
+  // The simulation work is done: its sized variants and netlists are not needed any more.
+  const problems = jobs.flatMap((j) => {
+    const v = verifications.get(j.id);
+    return v && (v.status === "disagree" || v.status === "failed") ? [{ id: j.id, v }] : [];
+  });
+  jobs.length = 0;
   const tSim = performance.now();
 
   const pkg = JSON.parse(await readFile(path.join(o.root, "package.json"), "utf8")) as { version: string };
@@ -96,7 +132,7 @@ export async function runBuild(o: BuildOptions): Promise<number> {
   const inputKey = hashParts([
     "published-site",
     codeHash(BUILD_CODE),
-    ...rendered.map((d) => d.design.file),
+    ...project.designs.map((d) => d.file),
     ...sizeStats.keys,
     keyText([...verifications].sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0))),
     o.pathPrefix,
@@ -108,29 +144,32 @@ export async function runBuild(o: BuildOptions): Promise<number> {
     for (const v of verifications.values()) if (v.status === "disagree" || v.status === "failed") s[v.status]++;
     o.out.log(
       `nothing changed: ${path.relative(o.root, outDir) || "."}/ is up to date ` +
-        `(${all.length} variants; simulation: ${s.disagree} disagree, ${s.failed} failed) ` +
+        `(${variants} variants; simulation: ${s.disagree} disagree, ${s.failed} failed) ` +
         `in ${((performance.now() - t0) / 1000).toFixed(1)} s`,
     );
-    for (const [id, v] of verifications)
-      if (v.status === "disagree" || v.status === "failed")
-        o.out.log(`  ${v.status}: ${id}${v.message ? ` — ${v.message}` : ""}`);
+    for (const { id, v } of problems) o.out.log(`  ${v.status}: ${id}${v.message ? ` — ${v.message}` : ""}`);
     reportRss(o);
     return gate(o, s);
   }
 
-  const catalogue = assembleCatalogue(
-    project,
-    rendered,
-    verifications,
-    builtAt,
-    pkg.version,
-    cachedPlot(path.join(o.root, ".cache", "plot"), !o.rebuild),
-  );
+  const summary = { variants, feasible, agree: 0, disagree: 0, failed: 0, skipped: 0 };
+  for (const v of verifications.values()) summary[v.status]++;
+  const head = { ...catalogueHead(project, builtAt, pkg.version), summary };
+  const plot = cachedPlot(path.join(o.root, ".cache", "plot"), !o.rebuild);
+  // The second pass: each design read back from its entry (just written, or unchanged), handed to
+  // the site writer and let go before the next.
+  const loaded = project;
+  function* designs(): Generator<BuiltDesign> {
+    for (const design of loaded.designs) {
+      const { rendered } = sizeAndRenderDesign(loaded, design, sizedDir, undefined, { read: true });
+      yield assembleDesign(design, rendered, verifications, plot);
+    }
+  }
   // Imported here: a build with nothing to republish never loads the site writer.
-  const { writeSite } = await import("../site/write.ts");
+  const { writeSiteStream } = await import("../site/write.ts");
   const staging = await makeStagingDir(outDir);
   try {
-    const written = await writeSite(catalogue, staging, {
+    const written = await writeSiteStream(head, designs(), staging, {
       pathPrefix: o.pathPrefix,
       quiet: true,
       cacheDir: siteCache,
@@ -148,7 +187,7 @@ export async function runBuild(o: BuildOptions): Promise<number> {
     }
     await swapIntoPlace(staging, outDir);
     await recordPublished(siteCache, outDir, inputKey);
-    const s = catalogue.summary;
+    const s = summary;
     o.out.log(
       `published ${written.pages} pages (${written.rendered} rendered, search index ${written.searchIndex}), ` +
         `${written.files} files to ${path.relative(o.root, outDir) || "."}/ ` +
@@ -156,13 +195,7 @@ export async function runBuild(o: BuildOptions): Promise<number> {
         `${s.failed} failed${o.simulate ? "" : ", not run"}) in ${((performance.now() - t0) / 1000).toFixed(1)} s ` +
         `(simulation ${((tSim - tSized) / 1000).toFixed(1)} s, ${runs} transient runs)`,
     );
-    for (const d of catalogue.designs)
-      for (const v of d.variants)
-        if (v.verification && (v.verification.status === "disagree" || v.verification.status === "failed"))
-          o.out.log(
-            `  ${v.verification.status}: ` +
-              `${v.sized.spec.id}${v.verification.message ? ` — ${v.verification.message}` : ""}`,
-          );
+    for (const { id, v } of problems) o.out.log(`  ${v.status}: ${id}${v.message ? ` — ${v.message}` : ""}`);
     reportRss(o);
     return gate(o, s);
   } catch (err) {
@@ -171,10 +204,13 @@ export async function runBuild(o: BuildOptions): Promise<number> {
   }
 }
 
-/** Peak memory, for the bench (PULSEWRIGHT_REPORT_RSS set). */
+/** Peak memory and processor time of the build's own process, for the bench (PULSEWRIGHT_REPORT_RSS set). */
 function reportRss(o: BuildOptions): void {
-  if (process.env["PULSEWRIGHT_REPORT_RSS"])
-    o.out.log(`peak memory ${Math.round(process.resourceUsage().maxRSS / 1024)} MB`);
+  if (!process.env["PULSEWRIGHT_REPORT_RSS"]) return;
+  const u = process.resourceUsage();
+  o.out.log(
+    `peak memory ${Math.round(u.maxRSS / 1024)} MB, cpu ${((u.userCPUTime + u.systemCPUTime) / 1e6).toFixed(1)} s`,
+  );
 }
 
 /** The --strict and --strict-failures gates over the simulation summary. */

@@ -30,7 +30,7 @@ build options:
   --strict-failures     exit non-zero when any simulation fails to run (engine error, no oscillation)
   --spice ENGINE        eecircuit-engine (default, embedded) | ngspice (native, if on PATH)
   --no-sim              skip simulation (pages say "not simulated")
-  --workers N           simulation worker threads, 1 to 64 (default: cores)
+  --workers N           simulation and sizing worker threads, 1 to 64 (default: cores)
   --prefix PATH         URL prefix the site is served under (links are relative anyway)
   --shard K/N           simulate only the K-th of N shares of the work and leave its results in
                         .cache/shards/K-of-N/ (nothing is published); merge-cache, then build

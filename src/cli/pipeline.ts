@@ -58,25 +58,21 @@ export function simulationJobs(rendered: readonly RenderedVariant[], devices: De
     }));
 }
 
-/** Assemble the catalogue the site writer reads. */
-export function assembleCatalogue(
-  project: LoadedProject,
-  designs: { design: LoadedProject["designs"][number]; rendered: RenderedVariant[] }[],
+/** Draws a variant's waveform plot (the build passes a cached one: src/cli/plot-cache.ts). */
+export type PlotFn = (id: string, w: NonNullable<Verification["waveforms"]>) => string;
+
+/** One design as the site writer reads it: its variants with their simulation and files. */
+export function assembleDesign(
+  design: LoadedProject["designs"][number],
+  rendered: readonly RenderedVariant[],
   verifications: ReadonlyMap<string, Verification>,
-  builtAt: string,
-  version: string,
-  /** Draws a variant's waveform plot (the build passes a cached one: src/cli/plot-cache.ts). */
-  plot: (id: string, w: NonNullable<Verification["waveforms"]>) => string = variantPlot,
-): BuiltCatalogue {
-  const summary = { variants: 0, feasible: 0, agree: 0, disagree: 0, failed: 0, skipped: 0 };
-  const built: BuiltDesign[] = designs.map(({ design, rendered }) => ({
+  plot: PlotFn = variantPlot,
+): BuiltDesign {
+  return {
     record: design.record,
     file: design.file,
     variants: rendered.map((r): BuiltVariant => {
       const v = verifications.get(r.sized.spec.id);
-      summary.variants++;
-      if (r.sized.feasible) summary.feasible++;
-      if (v) summary[v.status]++;
       const plotSvg = v?.waveforms ? plot(r.sized.spec.id, v.waveforms) : undefined;
       return {
         sized: r.sized,
@@ -84,15 +80,41 @@ export function assembleCatalogue(
         files: { schematicSvg: r.schematicSvg, netlist: r.netlist, bomCsv: r.bomCsv, ...(plotSvg ? { plotSvg } : {}) },
       };
     }),
-  }));
+  };
+}
+
+/** Everything of the catalogue but its designs (and their count): what every page shares. */
+export function catalogueHead(
+  project: LoadedProject,
+  builtAt: string,
+  version: string,
+): Omit<BuiltCatalogue, "designs" | "summary"> {
   const p = project.policy;
   const devices = [...project.devices.values()].sort((a, b) => a.id.localeCompare(b.id));
   return {
     builtAt,
     version,
-    designs: built,
     policy: { id: p.id, title: p.title, document: p.document },
-    summary,
     engine: { devices, policy: p },
   };
+}
+
+/** Assemble the catalogue the site writer reads (whole, in memory: tests and small catalogues). */
+export function assembleCatalogue(
+  project: LoadedProject,
+  designs: { design: LoadedProject["designs"][number]; rendered: RenderedVariant[] }[],
+  verifications: ReadonlyMap<string, Verification>,
+  builtAt: string,
+  version: string,
+  plot: PlotFn = variantPlot,
+): BuiltCatalogue {
+  const summary = { variants: 0, feasible: 0, agree: 0, disagree: 0, failed: 0, skipped: 0 };
+  const built = designs.map(({ design, rendered }) => assembleDesign(design, rendered, verifications, plot));
+  for (const d of built)
+    for (const v of d.variants) {
+      summary.variants++;
+      if (v.sized.feasible) summary.feasible++;
+      if (v.verification) summary[v.verification.status]++;
+    }
+  return { ...catalogueHead(project, builtAt, version), designs: built, summary };
 }

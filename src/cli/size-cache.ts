@@ -58,25 +58,61 @@ export function sizeAndRenderCached(
   stats: StageStats = { hits: 0, misses: 0, keys: [] },
   opts: { read?: boolean } = {},
 ): { design: Design; rendered: RenderedVariant[] }[] {
-  return project.designs.map((design) => {
-    const key = sizedKey(project, design);
-    stats.keys.push(key);
-    const hit = cacheDir && opts.read !== false ? decode(readEntry(cacheDir, `${key}.bin`)) : null;
-    if (hit) {
-      stats.hits++;
-      return { design, rendered: hit.sized.map((sized, i) => ({ sized, ...hit.views[i]! })) };
-    }
-    stats.misses++;
-    const rendered = sizeDesign(project, design).map((v) => renderVariant(v, project.devices));
-    const entry: Entry = {
-      sized: rendered.map((r) => r.sized),
-      views: rendered.map((r) => ({ netlist: r.netlist, schematicSvg: r.schematicSvg, bomCsv: r.bomCsv })),
-    };
-    const bytes = serialize(entry);
-    if (cacheDir) writeEntry(cacheDir, `${key}.bin`, bytes);
-    // Continue with the decoded copy, as a later build will: the keys of the next stages hash these
-    // values' encoding, which must not depend on whether they came from the engine or the cache.
-    const same = decode(bytes)!;
-    return { design, rendered: same.sized.map((sized, i) => ({ sized, ...same.views[i]! })) };
-  });
+  return project.designs.map((design) => sizeAndRenderDesign(project, design, cacheDir, stats, opts));
+}
+
+/**
+ * Size and render one design and write its entry, keeping nothing: for the sizing workers, which
+ * report counts only (the build reads the entry back when it needs the variants).
+ */
+export function sizeAndStoreDesign(
+  project: LoadedProject,
+  design: Design,
+  cacheDir: string,
+): { variants: number; feasible: number } {
+  const rendered = sizeDesign(project, design).map((v) => renderVariant(v, project.devices));
+  const entry: Entry = {
+    sized: rendered.map((r) => r.sized),
+    views: rendered.map((r) => ({ netlist: r.netlist, schematicSvg: r.schematicSvg, bomCsv: r.bomCsv })),
+  };
+  writeEntry(cacheDir, `${sizedKey(project, design)}.bin`, serialize(entry));
+  return { variants: rendered.length, feasible: rendered.filter((r) => r.sized.feasible).length };
+}
+
+/** A design's sized and rendered variants from its entry, or null when there is none (or it is unreadable). */
+export function cachedDesign(project: LoadedProject, design: Design, cacheDir: string): RenderedVariant[] | null {
+  const hit = decode(readEntry(cacheDir, `${sizedKey(project, design)}.bin`));
+  return hit ? hit.sized.map((sized, i) => ({ sized, ...hit.views[i]! })) : null;
+}
+
+/**
+ * Size and render one design, or read it from its entry when its inputs and code are unchanged.
+ * A build calls this design by design and keeps nothing of one design once the next is asked for.
+ */
+export function sizeAndRenderDesign(
+  project: LoadedProject,
+  design: Design,
+  cacheDir: string | null,
+  stats: StageStats = { hits: 0, misses: 0, keys: [] },
+  opts: { read?: boolean } = {},
+): { design: Design; rendered: RenderedVariant[] } {
+  const key = sizedKey(project, design);
+  stats.keys.push(key);
+  const hit = cacheDir && opts.read !== false ? decode(readEntry(cacheDir, `${key}.bin`)) : null;
+  if (hit) {
+    stats.hits++;
+    return { design, rendered: hit.sized.map((sized, i) => ({ sized, ...hit.views[i]! })) };
+  }
+  stats.misses++;
+  const rendered = sizeDesign(project, design).map((v) => renderVariant(v, project.devices));
+  const entry: Entry = {
+    sized: rendered.map((r) => r.sized),
+    views: rendered.map((r) => ({ netlist: r.netlist, schematicSvg: r.schematicSvg, bomCsv: r.bomCsv })),
+  };
+  const bytes = serialize(entry);
+  if (cacheDir) writeEntry(cacheDir, `${key}.bin`, bytes);
+  // Continue with the decoded copy, as a later build will: the keys of the next stages hash these
+  // values' encoding, which must not depend on whether they came from the engine or the cache.
+  const same = decode(bytes)!;
+  return { design, rendered: same.sized.map((sized, i) => ({ sized, ...same.views[i]! })) };
 }

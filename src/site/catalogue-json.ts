@@ -1,4 +1,4 @@
-import type { BuiltCatalogue } from "../model/catalogue.ts";
+import type { BuiltCatalogue, BuiltDesign, BuiltVariant } from "../model/catalogue.ts";
 import type { Figure } from "../model/figure.ts";
 import { availableDownloads } from "./downloads.ts";
 import { designPage, downloadUrl, variantPage } from "./paths.ts";
@@ -31,55 +31,94 @@ function predicted(figures: readonly Figure[]): Record<string, number> {
   return out;
 }
 
+/** One variant's entry in `catalogue.json`. */
+export function catalogueVariantRow(v: BuiltVariant, d: BuiltDesign): object {
+  const s = v.sized;
+  const id = s.spec.id;
+  const files = new Set(availableDownloads(v).map((f) => f.kind));
+  const urls: Record<string, string> = { page: variantPage(id) };
+  for (const kind of ["json", "netlist", "schematic", "bom", "waveforms"] as const)
+    if (files.has(kind)) urls[kind] = downloadUrl(id, kind);
+  const comps = v.verification?.comparisons ?? [];
+  return {
+    id,
+    design: d.record.id,
+    supply_V: s.spec.supply_V,
+    load_A: s.spec.load_A,
+    chain: s.spec.chain,
+    load_kind: s.spec.load_kind,
+    feasible: s.feasible,
+    verdict: s.verdict,
+    ...(s.reason !== undefined ? { reason: s.reason } : {}),
+    ...(s.alternative ? { alternative: s.alternative.id } : {}),
+    predicted: predicted(s.figures),
+    heatsink: s.heatsink.text,
+    simulation: {
+      status: v.verification?.status ?? "skipped",
+      agree: comps.filter((c) => c.ok).length,
+      disagree: comps.filter((c) => !c.ok).length,
+    },
+    urls,
+  };
+}
+
+/** One design's entry in `catalogue.json`. */
+export function catalogueDesignRow(d: BuiltDesign): object {
+  return {
+    id: d.record.id,
+    title: d.record.title,
+    file: d.file,
+    page: designPage(d.record.id),
+    variants: d.variants.length,
+  };
+}
+
 /** The machine-readable index of the site. URLs are relative to the site root (no leading slash). */
 export function catalogueJson(cat: BuiltCatalogue): object {
-  const variants = cat.designs.flatMap((d) =>
-    d.variants.map((v) => {
-      const s = v.sized;
-      const id = s.spec.id;
-      const files = new Set(availableDownloads(v).map((f) => f.kind));
-      const urls: Record<string, string> = { page: variantPage(id) };
-      for (const kind of ["json", "netlist", "schematic", "bom", "waveforms"] as const)
-        if (files.has(kind)) urls[kind] = downloadUrl(id, kind);
-      const comps = v.verification?.comparisons ?? [];
-      return {
-        id,
-        design: d.record.id,
-        supply_V: s.spec.supply_V,
-        load_A: s.spec.load_A,
-        chain: s.spec.chain,
-        load_kind: s.spec.load_kind,
-        feasible: s.feasible,
-        verdict: s.verdict,
-        ...(s.reason !== undefined ? { reason: s.reason } : {}),
-        ...(s.alternative ? { alternative: s.alternative.id } : {}),
-        predicted: predicted(s.figures),
-        heatsink: s.heatsink.text,
-        simulation: {
-          status: v.verification?.status ?? "skipped",
-          agree: comps.filter((c) => c.ok).length,
-          disagree: comps.filter((c) => !c.ok).length,
-        },
-        urls,
-      };
-    }),
-  );
   return {
     generated: cat.builtAt,
     version: cat.version,
     policy: cat.policy,
-    designs: cat.designs.map((d) => ({
-      id: d.record.id,
-      title: d.record.title,
-      file: d.file,
-      page: designPage(d.record.id),
-      variants: d.variants.length,
-    })),
-    variants,
+    designs: cat.designs.map(catalogueDesignRow),
+    variants: cat.designs.flatMap((d) => d.variants.map((v) => catalogueVariantRow(v, d))),
     summary: { designs: cat.designs.length, ...cat.summary },
   };
 }
 
 export function catalogueJsonText(cat: BuiltCatalogue): string {
   return `${JSON.stringify(catalogueJson(cat), null, 2)}\n`;
+}
+
+/**
+ * `catalogue.json` written piece by piece, so a build streaming its designs holds each variant's
+ * entry as text (not the variant): the same bytes as `catalogueJsonText` of the whole catalogue.
+ */
+export class CatalogueJsonWriter {
+  private readonly designs: object[] = [];
+  private readonly variants: string[] = [];
+
+  addDesign(d: BuiltDesign): void {
+    this.designs.push(catalogueDesignRow(d));
+    // An array element sits two levels deep in the file: its inner lines are indented by four more spaces.
+    for (const v of d.variants)
+      this.variants.push(`    ${JSON.stringify(catalogueVariantRow(v, d), null, 2).replace(/\n/g, "\n    ")}`);
+  }
+
+  text(head: Pick<BuiltCatalogue, "builtAt" | "version" | "policy" | "summary">): string {
+    const marker = "\u0001variants\u0001";
+    const outline = JSON.stringify(
+      {
+        generated: head.builtAt,
+        version: head.version,
+        policy: head.policy,
+        designs: this.designs,
+        variants: marker,
+        summary: { designs: this.designs.length, ...head.summary },
+      },
+      null,
+      2,
+    );
+    const list = this.variants.length ? `[\n${this.variants.join(",\n")}\n  ]` : "[]";
+    return `${outline.replace(JSON.stringify(marker), () => list)}\n`;
+  }
 }

@@ -1,8 +1,10 @@
-import type { BuiltCatalogue } from "../model/catalogue.ts";
-import { designCounts, designView, type DesignCounts, type DesignView } from "./view-design.ts";
+import type { BuiltCatalogue, BuiltDesign } from "../model/catalogue.ts";
+import { chooserEntries } from "./chooser-index.ts";
+import type { ChooserEntry } from "./chooser.ts";
+import { designCounts, designViews, type DesignCounts, type DesignGroupView, type DesignView } from "./view-design.ts";
 import { variantView, type VariantView } from "./view-variant.ts";
 import { designPage } from "./paths.ts";
-import { chooserView, type ChooserView } from "./view-chooser.ts";
+import { chooserViewOf, type ChooserView } from "./view-chooser.ts";
 import { compareTables, type CompareTable } from "./view-compare.ts";
 import { sizeOwnView, type SizeOwnView } from "./view-size-own.ts";
 import { sourcesView, type SourcesView } from "./bibliography.ts";
@@ -49,6 +51,8 @@ export interface HomeView {
 export interface SiteView {
   home: HomeView;
   designs: DesignPageView[];
+  /** The group pages of large designs. */
+  groups: DesignGroupPageView[];
   variants: VariantView[];
   /** The one sources page every citation links to. */
   sources: SourcesView;
@@ -60,26 +64,63 @@ export function inSentence(title: string): string {
   return first.length > 1 && first === first.toUpperCase() ? title : title.charAt(0).toLowerCase() + title.slice(1);
 }
 
-export function buildSiteView(cat: BuiltCatalogue): SiteView {
+/** A page of a large design's variants at one supply and load kind, with their chain comparison. */
+export type DesignGroupPageView = DesignGroupView & { compare: CompareTable[] };
+
+/**
+ * A design page's view (the design, its chain comparison, its "size your own" form) and, for a
+ * large design, the views of its group pages (view-design.ts: GROUP_ABOVE).
+ */
+export function designPageViews(
+  d: BuiltDesign,
+  cat: Pick<BuiltCatalogue, "engine" | "designs">,
+): { page: DesignPageView; groups: DesignGroupPageView[] } {
+  const v = designViews(d);
+  const syo = sizeOwnView(cat, d);
+  if (v.groups.length === 0) return { page: { ...v.design, compare: compareTables(d), syo }, groups: [] };
+  return {
+    page: { ...v.design, compare: [], syo },
+    groups: v.groups.map((g) => {
+      const ids = new Set(g.variants.map((x) => x.id));
+      return { ...g, compare: compareTables({ ...d, variants: d.variants.filter((x) => ids.has(x.sized.spec.id)) }) };
+    }),
+  };
+}
+
+/** The home page's row for one design. */
+export function homeDesignRow(d: BuiltDesign): HomeView["designs"][number] {
+  return {
+    id: d.record.id,
+    title: d.record.title,
+    inSentence: inSentence(d.record.title),
+    joiner: "",
+    summary: d.record.summary,
+    url: designPage(d.record.id),
+    counts: designCounts(d),
+  };
+}
+
+/** The home page from what every design contributed (its row and its chooser entries) and the totals. */
+export function homeView(
+  cat: Pick<BuiltCatalogue, "builtAt" | "version" | "policy" | "summary">,
+  designs: HomeView["designs"],
+  chooser: readonly ChooserEntry[],
+): HomeView {
   const s = cat.summary;
-  const home: HomeView = {
+  return {
     root: "",
     title: "Driver catalogue",
     builtAt: cat.builtAt,
     version: cat.version,
     policy: `${cat.policy.title} (${cat.policy.document})`,
-    designs: cat.designs.map((d, i, all) => ({
-      id: d.record.id,
-      title: d.record.title,
-      inSentence: inSentence(d.record.title),
+    // Each row's joiner in the intro's sentence: ", " between, " and " before the last.
+    designs: designs.map((d, i, all) => ({
+      ...d,
       joiner: i === all.length - 1 ? "" : i === all.length - 2 ? " and " : ", ",
-      summary: d.record.summary,
-      url: designPage(d.record.id),
-      counts: designCounts(d),
     })),
-    chooser: chooserView(cat),
+    chooser: chooserViewOf(chooser),
     summary: {
-      designs: cat.designs.length,
+      designs: designs.length,
       variants: s.variants,
       feasible: s.feasible,
       notFeasible: s.variants - s.feasible,
@@ -90,9 +131,14 @@ export function buildSiteView(cat: BuiltCatalogue): SiteView {
       notSimulated: Math.max(0, s.variants - s.agree - s.disagree - s.failed),
     },
   };
+}
+
+export function buildSiteView(cat: BuiltCatalogue): SiteView {
+  const pages = cat.designs.map((d) => designPageViews(d, cat));
   return {
-    home,
-    designs: cat.designs.map((d) => ({ ...designView(d), compare: compareTables(d), syo: sizeOwnView(cat, d) })),
+    home: homeView(cat, cat.designs.map(homeDesignRow), cat.designs.flatMap(chooserEntries)),
+    designs: pages.map((p) => p.page),
+    groups: pages.flatMap((p) => p.groups),
     variants: cat.designs.flatMap((d) => d.variants.map((v) => variantView(v, d, cat))),
     sources: sourcesView(),
   };

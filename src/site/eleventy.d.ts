@@ -4,6 +4,8 @@ declare module "@11ty/eleventy" {
     addGlobalData(name: string, data: unknown): void;
     addFilter(name: string, fn: (...args: never[]) => unknown): void;
     setTemplateFormats(formats: string[]): void;
+    /** Globs of input files the run leaves out. */
+    ignores: Set<string>;
     setNunjucksEnvironmentOptions(options: Record<string, unknown>): void;
     setDataFileBaseName?(name: string): void;
     on(event: string, fn: (arg: { directories: { output: string } }) => unknown): void;

@@ -3,13 +3,14 @@
  * of and the code that makes it (src/cache/code-hash.ts), so no version string is ever bumped by
  * hand:
  *
- * - a design page: its view model, the site code and templates, the URL prefix, and what the shared
- *   layout prints on every page (catalogue version, derating policy);
+ * - a design page, and each group page of a large design: its view model, the site code and
+ *   templates, the URL prefix, and what the shared layout prints on every page (catalogue version,
+ *   derating policy);
  * - a variant page with its downloads: its view model, the built variant (sized figures, circuit
  *   files, simulation), its design's record and file, the policy, and the same shared parts;
  * - the browser scripts: the code under src/browser/ and the bundler's version;
- * - the search index: every page's key (the home page's without the build date, which is printed
- *   only outside the indexed main content) and the indexer's version.
+ * - the search index: every page's key (the home page's without the build date, which no search
+ *   record holds) and the indexer's version.
  *
  * The build date is printed on the home page only (site/_includes/base.njk), so that every other
  * page stays byte-identical between builds of the same content and can be reused. Whether the
@@ -17,9 +18,10 @@
  */
 import { codeHash } from "../cache/code-hash.ts";
 import { hashParts, keyText } from "../cache/store.ts";
-import type { BuiltCatalogue } from "../model/catalogue.ts";
-import type { SiteView } from "./data.ts";
-import { variantDir } from "./paths.ts";
+import type { BuiltCatalogue, BuiltDesign, BuiltVariant } from "../model/catalogue.ts";
+import type { SourcesView } from "./bibliography.ts";
+import type { DesignGroupPageView, DesignPageView, HomeView } from "./data.ts";
+import type { VariantView } from "./view-variant.ts";
 
 /** The code and templates of the pages (write.ts reaches every view and the plugin; site/ is read as files). */
 export const SITE_CODE = ["src/site/write.ts", "site"];
@@ -28,51 +30,52 @@ export const SCRIPTS_CODE = ["src/site/bundle.ts", "src/browser"];
 /** The search indexer. */
 export const SEARCH_CODE = ["src/site/search-index.ts"];
 
-export interface PagePlan {
-  key: string;
-  /** Folder of the page in the site, relative, with a trailing slash. */
-  dir: string;
-  /** [design index, variant index] for a variant page (its downloads are part of the entry). */
-  variant?: [number, number];
+/** What every page key shares: the site code, the URL prefix and what the layout prints everywhere. */
+export function sharedKeyParts(home: { version: string; policy: string }, pathPrefix: string): string[] {
+  return [codeHash(SITE_CODE), pathPrefix, keyText([home.version, home.policy])];
 }
 
-export interface SitePlan {
-  designs: PagePlan[];
-  variants: PagePlan[];
-  scriptsKey: string;
-  searchKey: string;
+export function designPageKey(shared: readonly string[], view: DesignPageView): string {
+  return hashParts(["design-page", ...shared, keyText(view)]);
 }
 
-export function planSite(cat: BuiltCatalogue, view: SiteView, pathPrefix: string): SitePlan {
-  const site = codeHash(SITE_CODE);
-  const shared = [site, pathPrefix, keyText([view.home.version, view.home.policy])];
-  const designs: PagePlan[] = view.designs.map((d) => ({
-    key: hashParts(["design-page", ...shared, keyText(d)]),
-    dir: `designs/${d.id}/`,
-  }));
-  const variants: PagePlan[] = [];
-  let i = 0;
-  for (const [di, d] of cat.designs.entries()) {
-    const designPart = keyText([d.record, d.file, cat.policy]);
-    for (const [vi, v] of d.variants.entries()) {
-      const pageView = view.variants[i++]!;
-      variants.push({
-        key: hashParts(["variant-page", ...shared, designPart, keyText(pageView), keyText(v)]),
-        dir: variantDir(v.sized.spec.id),
-        variant: [di, vi],
-      });
-    }
-  }
-  const home = hashParts(["home", ...shared, keyText({ ...view.home, builtAt: "" })]);
-  const sources = hashParts(["sources", ...shared, keyText(view.sources)]);
-  const scriptsKey = hashParts(["scripts", codeHash(SCRIPTS_CODE)]);
-  const searchKey = hashParts([
-    "search",
-    codeHash(SEARCH_CODE),
-    home,
-    sources,
-    ...designs.map((p) => p.key),
-    ...variants.map((p) => p.key),
-  ]);
-  return { designs, variants, scriptsKey, searchKey };
+export function groupPageKey(shared: readonly string[], view: DesignGroupPageView): string {
+  return hashParts(["design-group-page", ...shared, keyText(view)]);
+}
+
+/** The part of a variant page's key that its design gives (the same for all its variants). */
+export function designKeyPart(d: BuiltDesign, policy: BuiltCatalogue["policy"]): string {
+  return keyText([d.record, d.file, policy]);
+}
+
+export function variantPageKey(
+  shared: readonly string[],
+  designPart: string,
+  view: VariantView,
+  v: BuiltVariant,
+): string {
+  return hashParts(["variant-page", ...shared, designPart, keyText(view), keyText(v)]);
+}
+
+/** The home page's key, without the build date (printed only outside the indexed content). */
+export function homeKey(shared: readonly string[], home: HomeView): string {
+  return hashParts(["home", ...shared, keyText({ ...home, builtAt: "" })]);
+}
+
+export function sourcesKey(shared: readonly string[], sources: SourcesView): string {
+  return hashParts(["sources", ...shared, keyText(sources)]);
+}
+
+export function scriptsKey(): string {
+  return hashParts(["scripts", codeHash(SCRIPTS_CODE)]);
+}
+
+/** The search index: every page's key, design pages first, then variant pages, in catalogue order. */
+export function searchKey(
+  home: string,
+  sources: string,
+  designs: readonly string[],
+  variants: readonly string[],
+): string {
+  return hashParts(["search", codeHash(SEARCH_CODE), home, sources, ...designs, ...variants]);
 }

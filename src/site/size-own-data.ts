@@ -7,18 +7,20 @@ import type { BuiltCatalogue, BuiltDesign } from "../model/catalogue.ts";
 import type { DeviceClass } from "../model/device.ts";
 import type { SizeOwnData } from "./size-own.ts";
 
-export function sizeOwnData(cat: BuiltCatalogue, d: BuiltDesign): SizeOwnData | null {
-  if (cat.engine) return { record: d.record, devices: cat.engine.devices, policy: cat.engine.policy };
+export function sizeOwnData(cat: Pick<BuiltCatalogue, "engine" | "designs">, d: BuiltDesign): SizeOwnData | null {
+  const engine = catalogueEngine(cat);
+  return engine ? { record: d.record, devices: engine.devices, policy: engine.policy } : null;
+}
+
+/** The engine inputs a catalogue offers the form: its `engine` field, else what the variants' specs carry. */
+export function catalogueEngine(cat: Pick<BuiltCatalogue, "engine" | "designs">): BuiltCatalogue["engine"] {
+  if (cat.engine) return cat.engine;
   const specs = cat.designs.flatMap((x) => x.variants.map((v) => v.sized.spec));
   const first = specs[0];
-  if (!first) return null;
+  if (!first) return undefined;
   const devices = new Map<string, DeviceClass>();
   for (const s of specs) for (const dev of Object.values(s.devices)) if (!devices.has(dev.id)) devices.set(dev.id, dev);
-  return {
-    record: d.record,
-    devices: [...devices.values()].sort((a, b) => (a.id < b.id ? -1 : 1)),
-    policy: first.policy,
-  };
+  return { devices: [...devices.values()].sort((a, b) => (a.id < b.id ? -1 : 1)), policy: first.policy };
 }
 
 /** JSON safe inside <script type="application/json">. */

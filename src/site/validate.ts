@@ -1,4 +1,4 @@
-import type { BuiltCatalogue } from "../model/catalogue.ts";
+import type { BuiltCatalogue, BuiltDesign } from "../model/catalogue.ts";
 import { isSafeId } from "./paths.ts";
 import { RecordError } from "../model/errors.ts";
 
@@ -28,12 +28,26 @@ function firstNonFinite(value: unknown, pointer: string): string | null {
 
 /** Checks what the site relies on: safe unique ids, consistent design links, finite numbers. */
 export function validateCatalogue(cat: BuiltCatalogue): void {
-  const top = "catalogue";
-  if (typeof cat.builtAt !== "string" || cat.builtAt === "")
-    throw new RecordError(top, "/builtAt", "missing build date");
-  const designIds = new Set<string>();
-  const variantIds = new Set<string>();
-  cat.designs.forEach((d, di) => {
+  const check = new CatalogueChecks(cat);
+  cat.designs.forEach((d, di) => check.design(d, di));
+  check.finish();
+}
+
+/**
+ * The same checks for a catalogue that arrives one design at a time: `design` as each arrives,
+ * `finish` once all have (alternatives may name a variant of a design not seen yet).
+ */
+export class CatalogueChecks {
+  private readonly designIds = new Set<string>();
+  private readonly variantIds = new Set<string>();
+  private readonly alternatives: { file: string; pointer: string; id: string }[] = [];
+
+  constructor(cat: Pick<BuiltCatalogue, "builtAt">) {
+    if (typeof cat.builtAt !== "string" || cat.builtAt === "")
+      throw new RecordError("catalogue", "/builtAt", "missing build date");
+  }
+
+  design(d: BuiltDesign, di: number): void {
     const file = typeof d.file === "string" && d.file !== "" ? d.file : `design #${di}`;
     const at = `/designs/${di}`;
     if (!isSafeId(d.record.id))
@@ -42,9 +56,9 @@ export function validateCatalogue(cat: BuiltCatalogue): void {
         `${at}/record/id`,
         `design id ${JSON.stringify(d.record.id)} is not usable as a folder name (a-z, 0-9, '.', '_', '-')`,
       );
-    if (designIds.has(d.record.id))
+    if (this.designIds.has(d.record.id))
       throw new RecordError(file, `${at}/record/id`, `design id "${d.record.id}" appears twice`);
-    designIds.add(d.record.id);
+    this.designIds.add(d.record.id);
     d.variants.forEach((v, vi) => {
       const vat = `${at}/variants/${vi}`;
       const id = v.sized.spec.id;
@@ -54,8 +68,9 @@ export function validateCatalogue(cat: BuiltCatalogue): void {
           `${vat}/sized/spec/id`,
           `variant id ${JSON.stringify(id)} is not usable as a folder name`,
         );
-      if (variantIds.has(id)) throw new RecordError(file, `${vat}/sized/spec/id`, `variant id "${id}" appears twice`);
-      variantIds.add(id);
+      if (this.variantIds.has(id))
+        throw new RecordError(file, `${vat}/sized/spec/id`, `variant id "${id}" appears twice`);
+      this.variantIds.add(id);
       if (v.sized.spec.design !== d.record.id)
         throw new RecordError(
           file,
@@ -75,17 +90,14 @@ export function validateCatalogue(cat: BuiltCatalogue): void {
       const bad =
         firstNonFinite(v.sized, `${vat}/sized`) ?? firstNonFinite(v.verification ?? null, `${vat}/verification`);
       if (bad) throw new RecordError(file, bad, `not a finite number in variant "${id}"`);
-    });
-  });
-  cat.designs.forEach((d, di) =>
-    d.variants.forEach((v, vi) => {
       const alt = v.sized.alternative;
-      if (alt && !variantIds.has(alt.id))
-        throw new RecordError(
-          d.file,
-          `/designs/${di}/variants/${vi}/sized/alternative/id`,
-          `alternative "${alt.id}" is not in the catalogue`,
-        );
-    }),
-  );
+      if (alt) this.alternatives.push({ file: d.file, pointer: `${vat}/sized/alternative/id`, id: alt.id });
+    });
+  }
+
+  finish(): void {
+    for (const a of this.alternatives)
+      if (!this.variantIds.has(a.id))
+        throw new RecordError(a.file, a.pointer, `alternative "${a.id}" is not in the catalogue`);
+  }
 }

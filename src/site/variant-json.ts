@@ -7,7 +7,7 @@ import { selfCheckJson } from "./selfcheck-view.ts";
  * parses both and compares). Simulated waveform samples are left out (the plot shows them and the
  * netlist reproduces them); everything else the verifier reported is kept.
  */
-export function variantJson(v: BuiltVariant, d: BuiltDesign, cat: BuiltCatalogue): object {
+export function variantJson(v: BuiltVariant, d: BuiltDesign, cat: Pick<BuiltCatalogue, "policy">): object {
   const s = v.sized;
   const spec = s.spec;
   const devices = Object.fromEntries(
@@ -86,7 +86,7 @@ export function variantJson(v: BuiltVariant, d: BuiltDesign, cat: BuiltCatalogue
 }
 
 /** Serialised form: two-space indent and a final newline, stable across builds. */
-export function variantJsonText(v: BuiltVariant, d: BuiltDesign, cat: BuiltCatalogue): string {
+export function variantJsonText(v: BuiltVariant, d: BuiltDesign, cat: Pick<BuiltCatalogue, "policy">): string {
   // Compact (one line): a download for programs; indenting made up a quarter of its bytes.
   return `${JSON.stringify(variantJson(v, d, cat))}\n`;
 }

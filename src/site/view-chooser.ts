@@ -7,7 +7,8 @@ import type { BuiltCatalogue } from "../model/catalogue.ts";
 import { formatValue } from "../model/format.ts";
 import { LOAD_KINDS } from "../model/kinds.ts";
 import { chooseVariants } from "./chooser.ts";
-import { chooserIndex, chooserIndexJson } from "./chooser-index.ts";
+import { chooserIndex, embedIndex } from "./chooser-index.ts";
+import type { ChooserEntry } from "./chooser.ts";
 import { chainLabel, loadLabel } from "./labels.ts";
 
 export interface ChooserView {
@@ -18,7 +19,11 @@ export interface ChooserView {
 }
 
 export function chooserView(cat: BuiltCatalogue): ChooserView {
-  const index = chooserIndex(cat);
+  return chooserViewOf(chooserIndex(cat));
+}
+
+/** The chooser's view from its index (the entries of every design, in catalogue order). */
+export function chooserViewOf(index: readonly ChooserEntry[]): ChooserView {
   const kinds = LOAD_KINDS.filter((k) => index.some((e) => e.load_kind === k));
   const staticPicks: ChooserView["staticPicks"] = [];
   for (const k of kinds) {
@@ -40,7 +45,7 @@ export function chooserView(cat: BuiltCatalogue): ChooserView {
   }
   const supplies = index.map((e) => e.supply_V);
   return {
-    indexJson: chooserIndexJson(cat),
+    indexJson: embedIndex(index),
     loads: kinds.map((k) => ({ value: k, label: loadLabel(k) })),
     supplyDefault: supplies.length ? Math.max(...supplies) : 12,
     staticPicks,

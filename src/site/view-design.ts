@@ -55,6 +55,34 @@ export interface DesignView {
   }[];
   counts: DesignCounts;
   footerFile: string;
+  /**
+   * A design of more than GROUP_ABOVE variants: its variants are shown on one page per supply and
+   * load kind (these links), not on the design page. null: all on the design page.
+   */
+  groups: GroupLink[] | null;
+}
+
+/** Above this many variants a design page links one page per supply and load kind instead of listing every variant. */
+export const GROUP_ABOVE = 150;
+
+/** The design page's table of groups: one row per supply, one cell per load kind. */
+export interface GroupLink {
+  supply: string;
+  cells: { load: string; url: string; text: string; present: boolean }[];
+}
+
+/** One page of a large design: the variants at one supply and load kind. */
+export interface DesignGroupView {
+  id: string;
+  page: string;
+  root: string;
+  title: string;
+  caption: string;
+  design: { id: string; title: string; url: string };
+  tables: MatrixTable[];
+  variants: DesignView["variants"];
+  counts: DesignCounts;
+  footerFile: string;
 }
 
 export function designCounts(d: BuiltDesign): DesignCounts {
@@ -194,5 +222,79 @@ export function designView(d: BuiltDesign): DesignView {
     }),
     counts: designCounts(d),
     footerFile: d.file,
+    groups: null,
   };
+}
+
+/** Folder name of a group: "12v-resistive", "27v6-motor" (the variant ids' spelling of a supply). */
+function groupSlug(supply_V: number, load: string): string {
+  const v = String(supply_V).replace(".", "v");
+  return `${v}${v.includes("v") ? "" : "v"}-${load}`;
+}
+
+/** A design's groups of variants, by supply (ascending) and load kind (the record's order). */
+function groupsOf(d: BuiltDesign): { supply_V: number; load: string; variants: BuiltVariant[] }[] {
+  const supplies = [...new Set(d.variants.map((v) => v.sized.spec.supply_V))].sort((a, b) => a - b);
+  const present = new Set(d.variants.map((v) => v.sized.spec.load_kind as string));
+  const loads = [
+    ...d.record.axes.load_kind.filter((k) => present.has(k)),
+    ...[...present].filter((k) => !(d.record.axes.load_kind as string[]).includes(k)).sort(),
+  ];
+  return supplies.flatMap((s) =>
+    loads.map((load) => ({
+      supply_V: s,
+      load,
+      variants: d.variants.filter((v) => v.sized.spec.supply_V === s && v.sized.spec.load_kind === load),
+    })),
+  );
+}
+
+export function groupPage(designId: string, supply_V: number, load: string): string {
+  return `designs/${designId}/${groupSlug(supply_V, load)}/index.html`;
+}
+
+/**
+ * A design page and, for a design of more than GROUP_ABOVE variants, its group pages: the design
+ * page then carries a table of groups instead of the matrix, the list and the comparison, which
+ * move to the group pages (each at most axes' currents × chains variants).
+ */
+export function designViews(d: BuiltDesign): { design: DesignView; groups: DesignGroupView[] } {
+  const whole = designView(d);
+  if (d.variants.length <= GROUP_ABOVE) return { design: whole, groups: [] };
+  const groups = groupsOf(d);
+  const loads = [...new Set(groups.map((g) => g.load))];
+  const supplies = [...new Set(groups.map((g) => g.supply_V))];
+  const links: GroupLink[] = supplies.map((s) => ({
+    supply: formatValue(s, "V"),
+    cells: loads.map((load) => {
+      const g = groups.find((x) => x.supply_V === s && x.load === load)!;
+      const feasible = g.variants.filter((v) => v.sized.feasible).length;
+      return {
+        load: loadLabel(load),
+        url: groupPage(d.record.id, s, load),
+        text: `${g.variants.length} variants, ${feasible} feasible`,
+        present: g.variants.length > 0,
+      };
+    }),
+  }));
+  const pages = groups
+    .filter((g) => g.variants.length > 0)
+    .map((g): DesignGroupView => {
+      const sub = designView({ ...d, variants: g.variants });
+      const page = groupPage(d.record.id, g.supply_V, g.load);
+      const caption = `${formatValue(g.supply_V, "V")}, ${loadLabel(g.load)}`;
+      return {
+        id: d.record.id,
+        page,
+        root: relativeRoot(page),
+        title: `${d.record.title}: ${caption}`,
+        caption,
+        design: { id: d.record.id, title: d.record.title, url: designPage(d.record.id) },
+        tables: sub.tables,
+        variants: sub.variants,
+        counts: sub.counts,
+        footerFile: d.file,
+      };
+    });
+  return { design: { ...whole, tables: [], variants: [], groups: links }, groups: pages };
 }

@@ -14,7 +14,7 @@ export interface SizeOwnView {
   loads: { value: string; label: string }[];
 }
 
-export function sizeOwnView(cat: BuiltCatalogue, d: BuiltDesign): SizeOwnView | null {
+export function sizeOwnView(cat: Pick<BuiltCatalogue, "engine" | "designs">, d: BuiltDesign): SizeOwnView | null {
   const data = sizeOwnData(cat, d);
   if (!data) return null;
   const l = sizeOwnLimits(d.record);

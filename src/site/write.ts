@@ -1,22 +1,52 @@
 import { copyFile, mkdir, readdir, readFile, writeFile } from "node:fs/promises";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
-import type { BuiltCatalogue } from "../model/catalogue.ts";
-import { catalogueJsonText } from "./catalogue-json.ts";
-import { buildSiteView, type SiteView } from "./data.ts";
+import type { BuiltCatalogue, BuiltDesign } from "../model/catalogue.ts";
+import { sourcesView } from "./bibliography.ts";
+import { CatalogueJsonWriter } from "./catalogue-json.ts";
+import { chooserEntries } from "./chooser-index.ts";
+import type { ChooserEntry } from "./chooser.ts";
+import {
+  designPageViews,
+  homeDesignRow,
+  homeView,
+  type DesignGroupPageView,
+  type HomeView,
+  type SiteView,
+} from "./data.ts";
 import { availableDownloads, downloadText } from "./downloads.ts";
 import { variantDir } from "./paths.ts";
 import { pulsewrightSite } from "./plugin.ts";
-import { validateCatalogue } from "./validate.ts";
+import { catalogueEngine } from "./size-own-data.ts";
+import { CatalogueChecks } from "./validate.ts";
 import { variantJsonText } from "./variant-json.ts";
+import { variantView, type VariantView } from "./view-variant.ts";
+import type { DesignPageView } from "./data.ts";
 import { BROWSER_SCRIPTS, writeBrowserScripts } from "./bundle.ts";
 import { writeSearchIndex } from "./search-index.ts";
-import { planSite, type SitePlan } from "./site-cache.ts";
+import { designRecord, homeRecord, sourcesRecord, variantRecord, type SearchRecord } from "./search-records.ts";
+import {
+  designKeyPart,
+  designPageKey,
+  groupPageKey,
+  homeKey,
+  scriptsKey,
+  searchKey,
+  sharedKeyParts,
+  sourcesKey,
+  variantPageKey,
+} from "./site-cache.ts";
 import { readBundle, writeBundle, type Bundle } from "./site-bundle.ts";
 
 /** The Eleventy input folder (templates) and the static assets copied as they are. */
 export const SITE_INPUT_DIR = fileURLToPath(new URL("../../site/", import.meta.url));
 const ASSETS_DIR = path.join(SITE_INPUT_DIR, "assets");
+
+/**
+ * Pages rendered per run of the template engine. The writer holds the view models of this many
+ * pages at a time (and the template engine their output), whatever the size of the catalogue.
+ */
+const CHUNK_PAGES = 400;
 
 export interface WriteSiteOptions {
   /** URL prefix the site is served under. Links are relative, so it changes no link. */
@@ -30,8 +60,6 @@ export interface WriteSiteOptions {
   cacheDir?: string;
   /** false: produce everything, but still write the cache entries (`build --rebuild`). */
   readCache?: boolean;
-  /** The plan (keys) when the caller made it already (build.ts, to tell "nothing changed"). */
-  plan?: SitePlan;
 }
 
 export interface WriteStats {
@@ -42,6 +70,12 @@ export interface WriteStats {
   searchIndex: "built" | "cached";
 }
 
+/**
+ * What the site needs of a catalogue besides its designs. `summary` may be left out when the
+ * designs are streamed: it is then counted from them as they pass.
+ */
+export type CatalogueHead = Omit<BuiltCatalogue, "designs" | "summary"> & { summary?: BuiltCatalogue["summary"] };
+
 async function countFiles(dir: string): Promise<number> {
   let n = 0;
   for (const e of await readdir(dir, { withFileTypes: true }))
@@ -50,51 +84,43 @@ async function countFiles(dir: string): Promise<number> {
 }
 
 /** A variant's downloads as (file name, text), in the order the page lists them. */
-function variantDownloads(cat: BuiltCatalogue, di: number, vi: number): [string, string][] {
-  const d = cat.designs[di]!;
+function variantDownloads(head: CatalogueHead, d: BuiltDesign, vi: number): [string, string][] {
   const v = d.variants[vi]!;
   return availableDownloads(v).map((f) => [
     f.name,
-    f.kind === "json" ? variantJsonText(v, d, cat) : downloadText(v, f.kind),
+    f.kind === "json" ? variantJsonText(v, d, head) : downloadText(v, f.kind),
   ]);
 }
 
 /**
- * Downloads, variant JSON, `catalogue.json`, the static assets, the bundled browser scripts and the
- * search index (pagefind/): written as bytes, not templated.
+ * Renders pages with Eleventy (imported only when some page must be rendered). `only` names the
+ * templates of this run: the design and variant pages of a chunk, or the home and sources pages.
  */
-export async function writeSiteFiles(cat: BuiltCatalogue, outDir: string): Promise<void> {
-  for (const [di, d] of cat.designs.entries()) {
-    for (const [vi, v] of d.variants.entries()) {
-      const dir = path.join(outDir, variantDir(v.sized.spec.id));
-      await mkdir(dir, { recursive: true });
-      for (const [name, text] of variantDownloads(cat, di, vi)) await writeFile(path.join(dir, name), text, "utf8");
-    }
-  }
-  await writeCommonFiles(cat, outDir);
-  await writeBrowserScripts(outDir);
-  // Last: the search index reads the finished pages.
-  await writeSearchIndex(outDir);
-}
-
-async function writeCommonFiles(cat: BuiltCatalogue, outDir: string): Promise<void> {
-  await writeFile(path.join(outDir, "catalogue.json"), catalogueJsonText(cat), "utf8");
-  await mkdir(path.join(outDir, "assets"), { recursive: true });
-  for (const name of (await readdir(ASSETS_DIR)).sort())
-    await copyFile(path.join(ASSETS_DIR, name), path.join(outDir, "assets", name));
-}
-
-/** Renders the pages of `view` with Eleventy (imported only when some page must be rendered). */
-async function renderPages(view: SiteView, out: string, opts: WriteSiteOptions): Promise<void> {
+async function renderPages(view: SiteView, out: string, opts: WriteSiteOptions, only: "chunk" | "home"): Promise<void> {
   const { default: Eleventy } = await import("@11ty/eleventy");
+  const skip = only === "chunk" ? ["index.njk", "sources.njk"] : ["design.njk", "design-group.njk", "variant.njk"];
   const eleventy = new Eleventy(SITE_INPUT_DIR, out, {
     quietMode: opts.quiet ?? true,
     configPath: "", // no project config file: everything comes from the plugin below
     pathPrefix: opts.pathPrefix ?? "/",
-    config: (cfg) => pulsewrightSite(cfg, view),
+    config: (cfg) => {
+      pulsewrightSite(cfg, view);
+      for (const t of skip) cfg.ignores.add(`**/${t}`);
+    },
   });
   if (opts.quiet ?? true) eleventy.disableLogger();
   await eleventy.write();
+}
+
+/** One design's pages waiting in the current chunk, with their cache keys. */
+interface Pending {
+  design: BuiltDesign;
+  view: DesignPageView;
+  groups: DesignGroupPageView[];
+  variants: VariantView[];
+  designKey: string;
+  groupKeys: string[];
+  variantKeys: string[];
 }
 
 /**
@@ -104,95 +130,181 @@ async function renderPages(view: SiteView, out: string, opts: WriteSiteOptions):
  * be published.
  */
 export async function writeSite(cat: BuiltCatalogue, outDir: string, opts: WriteSiteOptions = {}): Promise<WriteStats> {
-  validateCatalogue(cat);
-  const view = buildSiteView(cat);
+  const check = new CatalogueChecks(cat);
+  cat.designs.forEach((d, di) => check.design(d, di));
+  check.finish();
+  const { designs, ...head } = cat;
+  const engine = catalogueEngine(cat);
+  return writeSiteStream({ ...head, ...(engine ? { engine } : {}) }, designs, outDir, opts);
+}
+
+/**
+ * The site writer proper, for a catalogue whose designs arrive one at a time (the build streams
+ * them from its caches): each design's pages and downloads are written, in chunks of about
+ * CHUNK_PAGES pages, and only small per-variant rows are kept (catalogue.json, the chooser index,
+ * the search records, page keys); the home page, `catalogue.json` and the search index follow
+ * the last design. Memory therefore stays flat in the number of variants, apart from those rows.
+ */
+export async function writeSiteStream(
+  head: CatalogueHead,
+  designs: Iterable<BuiltDesign> | AsyncIterable<BuiltDesign>,
+  outDir: string,
+  opts: WriteSiteOptions = {},
+): Promise<WriteStats> {
+  const check = new CatalogueChecks(head);
   const out = path.resolve(outDir);
   await mkdir(out, { recursive: true });
-  const pages = 2 + view.designs.length + view.variants.length;
-  if (opts.cacheDir === undefined) {
-    await renderPages(view, out, opts);
-    await writeSiteFiles(cat, out);
-    return { pages, files: await countFiles(out), rendered: pages, searchIndex: "built" };
-  }
   const cache = opts.cacheDir;
   const read = (key: string): Promise<Bundle | null> =>
-    opts.readCache === false ? Promise.resolve(null) : readBundle(cache, key);
-  const plan = opts.plan ?? planSite(cat, view, opts.pathPrefix ?? "/");
+    cache === undefined || opts.readCache === false ? Promise.resolve(null) : readBundle(cache, key);
+  const write = async (key: string, files: Bundle): Promise<void> => {
+    if (cache !== undefined) await writeBundle(cache, key, files);
+  };
+  const prefix = opts.pathPrefix ?? "/";
+  const summary = { variants: 0, feasible: 0, agree: 0, disagree: 0, failed: 0, skipped: 0 };
+  // The layout prints the version and policy on every page; the rest of the home view comes last.
+  const pageHome = homeView({ ...head, summary }, [], []);
+  const shared = sharedKeyParts(pageHome, prefix);
+  const sources = sourcesView();
 
-  // Pages and each variant's downloads: from the cache where the key is known, else produced.
-  const missDesigns: number[] = [];
-  const missVariants: number[] = [];
-  const cached = new Map<string, Bundle>();
-  for (const [i, p] of plan.designs.entries()) {
-    const b = await read(p.key);
-    if (b) cached.set(p.key, b);
-    else missDesigns.push(i);
-  }
-  for (const [i, p] of plan.variants.entries()) {
-    const b = await read(p.key);
-    if (b) cached.set(p.key, b);
-    else missVariants.push(i);
-  }
-  // Home and sources are two small pages: rendered whenever the template engine runs at all.
-  await renderPages(
-    {
-      ...view,
-      designs: missDesigns.map((i) => view.designs[i]!),
-      variants: missVariants.map((i) => view.variants[i]!),
-    },
-    out,
-    opts,
-  );
-  for (const p of [...plan.designs, ...plan.variants]) {
-    const dir = path.join(out, p.dir);
-    const hit = cached.get(p.key);
-    if (hit) {
-      await mkdir(dir, { recursive: true });
-      for (const [name, bytes] of hit) await writeFile(path.join(dir, name), bytes);
-      continue;
-    }
-    const files: Bundle = [["index.html", await readFile(path.join(dir, "index.html"))]];
-    if (p.variant)
-      for (const [name, text] of variantDownloads(cat, p.variant[0], p.variant[1])) {
-        const bytes = Buffer.from(text, "utf8");
-        await writeFile(path.join(dir, name), bytes);
-        files.push([name, bytes]);
+  const homeRows: HomeView["designs"] = [];
+  const chooser: ChooserEntry[] = [];
+  const json = new CatalogueJsonWriter();
+  const records: SearchRecord[] = [];
+  const designKeys: string[] = [];
+  const variantKeys: string[] = [];
+  let pages = 2;
+  let rendered = 2; // home and sources: rendered whenever the site is written
+
+  let chunk: Pending[] = [];
+  let chunkPages = 0;
+  const flush = async (): Promise<void> => {
+    const missDesigns: DesignPageView[] = [];
+    const missGroups: DesignGroupPageView[] = [];
+    const missVariants: VariantView[] = [];
+    const toStore: { key: string; dir: string; design?: BuiltDesign; vi?: number }[] = [];
+    for (const p of chunk) {
+      const hitD = await read(p.designKey);
+      if (hitD) await copyBundle(out, `designs/${p.view.id}/`, hitD);
+      else {
+        missDesigns.push(p.view);
+        toStore.push({ key: p.designKey, dir: `designs/${p.view.id}/` });
       }
-    await writeBundle(cache, p.key, files);
-  }
-  await writeCommonFiles(cat, out);
+      for (const [gi, g] of p.groups.entries()) {
+        const key = p.groupKeys[gi]!;
+        const dir = g.page.slice(0, -"index.html".length);
+        const hit = await read(key);
+        if (hit) await copyBundle(out, dir, hit);
+        else {
+          missGroups.push(g);
+          toStore.push({ key, dir });
+        }
+      }
+      for (const [vi, vv] of p.variants.entries()) {
+        const key = p.variantKeys[vi]!;
+        const dir = variantDir(vv.id);
+        const hit = await read(key);
+        if (hit) await copyBundle(out, dir, hit);
+        else {
+          missVariants.push(vv);
+          toStore.push({ key, dir, design: p.design, vi });
+        }
+      }
+    }
+    const misses = missDesigns.length + missGroups.length + missVariants.length;
+    if (misses > 0)
+      await renderPages(
+        { home: pageHome, designs: missDesigns, groups: missGroups, variants: missVariants, sources },
+        out,
+        opts,
+        "chunk",
+      );
+    rendered += misses;
+    for (const s of toStore) {
+      const dir = path.join(out, s.dir);
+      const files: Bundle = [["index.html", await readFile(path.join(dir, "index.html"))]];
+      if (s.design && s.vi !== undefined)
+        for (const [name, text] of variantDownloads(head, s.design, s.vi)) {
+          const bytes = Buffer.from(text, "utf8");
+          await writeFile(path.join(dir, name), bytes);
+          files.push([name, bytes]);
+        }
+      await write(s.key, files);
+    }
+    chunk = [];
+    chunkPages = 0;
+  };
 
-  const scripts = await read(plan.scriptsKey);
+  let di = 0;
+  for await (const d of designs) {
+    check.design(d, di++);
+    for (const v of d.variants) {
+      summary.variants++;
+      if (v.sized.feasible) summary.feasible++;
+      if (v.verification) summary[v.verification.status]++;
+    }
+    const { page: view, groups } = designPageViews(d, { ...(head.engine ? { engine: head.engine } : {}), designs: [] });
+    const variants = d.variants.map((v) => variantView(v, d, head));
+    const designKey = designPageKey(shared, view);
+    const groupKeys = groups.map((g) => groupPageKey(shared, g));
+    const part = designKeyPart(d, head.policy);
+    const keys = d.variants.map((v, vi) => variantPageKey(shared, part, variants[vi]!, v));
+    designKeys.push(designKey, ...groupKeys);
+    variantKeys.push(...keys);
+    homeRows.push(homeDesignRow(d));
+    chooser.push(...chooserEntries(d));
+    json.addDesign(d);
+    records.push(designRecord(view), ...variants.map(variantRecord));
+    pages += 1 + groups.length + d.variants.length;
+    chunk.push({ design: d, view, groups, variants, designKey, groupKeys, variantKeys: keys });
+    chunkPages += 1 + groups.length + d.variants.length;
+    if (chunkPages >= CHUNK_PAGES) await flush();
+  }
+  await flush();
+  check.finish();
+
+  const totals = head.summary ?? summary;
+  const home = homeView({ ...head, summary: totals }, homeRows, chooser);
+  await renderPages({ home, designs: [], groups: [], variants: [], sources }, out, opts, "home");
+  records.unshift(homeRecord(home), sourcesRecord(sources));
+
+  await writeFile(path.join(out, "catalogue.json"), json.text({ ...head, summary: totals }), "utf8");
+  await mkdir(path.join(out, "assets"), { recursive: true });
+  for (const name of (await readdir(ASSETS_DIR)).sort())
+    await copyFile(path.join(ASSETS_DIR, name), path.join(out, "assets", name));
+
+  const sKey = scriptsKey();
+  const scripts = await read(sKey);
   if (scripts) for (const [name, bytes] of scripts) await writeFile(path.join(out, "assets", name), bytes);
   else {
     await writeBrowserScripts(out);
     const names = Object.values(BROWSER_SCRIPTS).sort();
-    await writeBundle(
-      cache,
-      plan.scriptsKey,
+    await write(
+      sKey,
       await Promise.all(
         names.map(async (n): Promise<[string, Buffer]> => [n, await readFile(path.join(out, "assets", n))]),
       ),
     );
   }
 
-  // Last: the search index reads the finished pages (their main content: see site-cache.ts).
-  const index = await read(plan.searchKey);
-  if (index) {
-    for (const [name, bytes] of index) {
-      await mkdir(path.dirname(path.join(out, "pagefind", name)), { recursive: true });
-      await writeFile(path.join(out, "pagefind", name), bytes);
-    }
-  } else {
-    await writeSearchIndex(out);
-    await writeBundle(cache, plan.searchKey, await readTree(path.join(out, "pagefind")));
+  // The search index: one short record per page (search-records.ts), in a fixed order.
+  const iKey = searchKey(homeKey(shared, home), sourcesKey(shared, sources), designKeys, variantKeys);
+  const index = await read(iKey);
+  if (index) await copyBundle(out, "pagefind/", index);
+  else {
+    await writeSearchIndex(out, records);
+    if (cache !== undefined) await write(iKey, await readTree(path.join(out, "pagefind")));
   }
-  return {
-    pages,
-    files: await countFiles(out),
-    rendered: 2 + missDesigns.length + missVariants.length,
-    searchIndex: index ? "cached" : "built",
-  };
+  return { pages, files: await countFiles(out), rendered, searchIndex: index ? "cached" : "built" };
+}
+
+/** Writes a cached bundle's files below `dir` (relative to `out`, with a trailing slash). */
+async function copyBundle(out: string, dir: string, files: Bundle): Promise<void> {
+  for (const [name, bytes] of files) {
+    const file = path.join(out, dir, name);
+    await mkdir(path.dirname(file), { recursive: true });
+    await writeFile(file, bytes);
+  }
 }
 
 /** Every file below `dir` as (relative path with /, bytes), sorted. */

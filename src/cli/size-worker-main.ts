@@ -1,0 +1,39 @@
+/**
+ * Sizing worker body: loads the project once, then sizes and draws one design per message and
+ * writes its entry into the sized cache (size-cache.ts), replying with the design's counts only.
+ * Protocol: in `{ index }` or `"close"`; out `{ ready }` once the project is loaded, `{ index,
+ * variants, feasible }` per design, or `{ index, error }` / `{ fatal }` when it cannot.
+ */
+import process from "node:process";
+import { parentPort, workerData } from "node:worker_threads";
+import { loadProject } from "../records/index.ts";
+import { sizeAndStoreDesign } from "./size-cache.ts";
+
+export type SizeReply =
+  | { ready: true }
+  | { fatal: string }
+  | { index: number; variants: number; feasible: number }
+  | { index: number; error: string };
+
+const port = parentPort;
+if (port === null) throw new Error("size-worker-main.ts must run in a worker thread");
+const { root, cacheDir } = workerData as { root: string; cacheDir: string };
+const reply = (r: SizeReply): void => port.postMessage(r);
+const project = await loadProject(root);
+if (!project.ok) reply({ fatal: `the records of ${root} no longer load` });
+else {
+  port.on("message", (msg: { index: number } | "close") => {
+    if (msg === "close") {
+      process.exit(0);
+      return;
+    }
+    try {
+      const design = project.designs[msg.index];
+      if (design === undefined) throw new Error(`no design #${msg.index}`);
+      reply({ index: msg.index, ...sizeAndStoreDesign(project, design, cacheDir) });
+    } catch (err) {
+      reply({ index: msg.index, error: err instanceof Error ? (err.stack ?? err.message) : String(err) });
+    }
+  });
+  reply({ ready: true });
+}
