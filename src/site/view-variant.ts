@@ -89,7 +89,11 @@ function problems(list: readonly DesignProblem[]): VariantView["problems"] {
     .map(({ p }) => ({ severity: p.severity, rule: p.rule, stage: p.stage, path: p.path, message: p.message }));
 }
 
-export function variantView(v: BuiltVariant, d: BuiltDesign, cat: Pick<BuiltCatalogue, "policy" | "engine">): VariantView {
+export function variantView(
+  v: BuiltVariant,
+  d: BuiltDesign,
+  cat: Pick<BuiltCatalogue, "policy" | "engine">,
+): VariantView {
   const s = v.sized;
   const spec = s.spec;
   const page = variantPage(spec.id);
