@@ -72,8 +72,10 @@ const CORE_TEMPLATE: Record<TemplateRole, Slot> = {
   Q_L: { x: CORE_L + 10, y: BASE_Y, mirror: true, label: "left" },
   CT_L: { x: 250, y: 190, rot: 270, label: "above" },
   DB_L: { x: 260, y: BASE_Y, rot: 90, label: "below" },
-  RBL_L: { x: 225, y: 370, label: "left" },
-  RBL_R: { x: 615, y: 370, label: "right" },
+  // Base–emitter bleeds hang from the base line beside each transistor; the pull-in timer's
+  // transistor (solenoid loads) rises to base A just outside them (x 630, or 210 mirrored).
+  RBL_L: { x: 225, y: 395, label: "right" },
+  RBL_R: { x: 615, y: 395, label: "left" },
   RB_L: { x: 350, y: BASE_Y, rot: 90, label: "below" },
   RB_R: { x: 490, y: BASE_Y, rot: 270, label: "below" },
   DB_R: { x: 580, y: BASE_Y, rot: 270, label: "below" },
@@ -86,7 +88,7 @@ const CORE_TEMPLATE: Record<TemplateRole, Slot> = {
   DF_L: { x: CORE_L - 35, y: 195, rot: 270, label: "left" },
   RS_L: { x: 215, y: 214, rot: 270, label: "below" },
   QF_R: { x: CORE_R + 55, y: 140 },
-  DF_R: { x: CORE_R + 35, y: 195, rot: 90, label: "right" },
+  DF_R: { x: CORE_R + 35, y: 205, rot: 90, label: "right" },
   RS_R: { x: 625, y: 240, rot: 90, label: "above" },
 };
 /**
@@ -205,7 +207,7 @@ export function coreLayout(tapSide: CoreSide, follower = false): StageLayout {
 }
 
 /** The pull-in timer's row when transistor A is on the right (tapped side A); mirrored otherwise. */
-const PULL_IN_Y = 470;
+const PULL_IN_Y = 490;
 const CORE_MIRROR_X = CORE_L + CORE_R;
 const PULL_IN_ROW: Partial<Record<PlacedRole, Slot>> = {
   // C_PULL drops straight from the rail in the clear column left of the core's far transistor.
@@ -215,7 +217,7 @@ const PULL_IN_ROW: Partial<Record<PlacedRole, Slot>> = {
   R_PULL: { x: 200, y: PULL_IN_Y + 110, label: "right" },
   RB_PULL: { x: 460, y: PULL_IN_Y, rot: 270, label: "above" },
   DB_PULL: { x: 540, y: PULL_IN_Y, rot: 270, label: "above" },
-  Q_PULL: { x: 610, y: PULL_IN_Y, label: "right" },
+  Q_PULL: { x: 620, y: PULL_IN_Y, label: "right" },
 };
 const FLIP_LABEL = { left: "right", right: "left", above: "above", below: "below" } as const;
 

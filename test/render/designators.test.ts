@@ -7,27 +7,10 @@
  * marked test point, never as a part, and none of them is in the parts list. Common practice.
  */
 import { describe, expect, it } from "vitest";
-import { expandDesign } from "../../src/expand/expand.ts";
-import { chooseDevices } from "../../src/engine/devices/choose.ts";
-import { sizeVariant } from "../../src/engine/size.ts";
-import type { SizedVariant } from "../../src/model/sized.ts";
-import type { DeviceLibrary } from "../../src/model/device.ts";
-import { loadProject } from "../../src/records/load.ts";
 import { renderVariantViews } from "../../src/render/variant.ts";
 import { SENSE_LABEL } from "../../src/render/schematic-place.ts";
-import { REPO } from "../records/project.ts";
 import { parseCsv } from "./csv-read.ts";
-
-async function demo(): Promise<{ sized: SizedVariant[]; devices: DeviceLibrary }> {
-  const r = await loadProject(REPO);
-  if (!r.ok) throw new Error(`demo records must load: ${r.issues[0]?.message}`);
-  const sized = r.designs.flatMap(({ record }) =>
-    expandDesign(record, { choose: (x, v, a, c) => chooseDevices(x, r.devices, v, a, c), policy: r.policy }).map(
-      sizeVariant,
-    ),
-  );
-  return { sized: sized.filter((s) => s.circuit !== null), devices: r.devices };
-}
+import { demo } from "./demo-sized.ts";
 
 /** Element name → the part ref it stands for ("RRV1A" → RV1, "MQ6" → Q6, "RF1" → F1, "R3" → R3). */
 function refOfElement(name: string): string {

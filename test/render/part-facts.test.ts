@@ -4,32 +4,16 @@
  * never a second computation that could drift.
  */
 import { describe, expect, it } from "vitest";
-import { expandDesign } from "../../src/expand/expand.ts";
-import { chooseDevices } from "../../src/engine/devices/choose.ts";
-import { sizeVariant } from "../../src/engine/size.ts";
 import { hfeMin, hfeNominal } from "../../src/engine/shared/gain.ts";
 import { FUSE_FAMILIES } from "../../src/engine/shared/fuse.ts";
-import type { SizedVariant } from "../../src/model/sized.ts";
-import type { BjtClass, DeviceLibrary, DiodeClass, ZenerClass } from "../../src/model/device.ts";
+import type { BjtClass, DiodeClass, ZenerClass } from "../../src/model/device.ts";
 import { findFigure } from "../../src/model/sized.ts";
 import { formatPercent, formatValue } from "../../src/model/format.ts";
-import { loadProject } from "../../src/records/load.ts";
 import { factsContext, genericType, keyParameters } from "../../src/render/part-facts.ts";
 import { BOM_COLUMNS, renderBom } from "../../src/render/bom.ts";
 import { labelLines } from "../../src/render/schematic-place.ts";
-import { REPO } from "../records/project.ts";
 import { parseCsv } from "./csv-read.ts";
-
-async function demo(): Promise<{ sized: SizedVariant[]; devices: DeviceLibrary }> {
-  const r = await loadProject(REPO);
-  if (!r.ok) throw new Error(`demo records must load: ${r.issues[0]?.message}`);
-  const sized = r.designs.flatMap(({ record }) =>
-    expandDesign(record, { choose: (x, v, a, c) => chooseDevices(x, r.devices, v, a, c), policy: r.policy }).map(
-      sizeVariant,
-    ),
-  );
-  return { sized: sized.filter((s) => s.circuit !== null), devices: r.devices };
-}
+import { demo } from "./demo-sized.ts";
 
 const col = (name: (typeof BOM_COLUMNS)[number]): number => BOM_COLUMNS.indexOf(name);
 
