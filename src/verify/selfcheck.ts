@@ -13,6 +13,9 @@
  * Format and reasons: docs/verification.md, "The published netlist checks itself".
  */
 import { DEFAULT_RUN_PLAN, POWER_RUN_OPTIONS, settleTime, switchLevel, type RunPlan } from "./runs.ts";
+
+/** The published batch run's convergence aid (see withSelfCheck's block). */
+export const BATCH_RSHUNT = "rshunt=1e9";
 import { baseProbe, gateProbe } from "./gate.ts";
 import { transistorElement, type VerifyTarget } from "./target.ts";
 import { TOLERANCES, type Tolerance } from "./compare.ts";
@@ -197,7 +200,10 @@ export function selfCheckBlock(
     "* (averaged over whole periods; the current and dissipation over the whole window after settling).",
     "* chk_on is a probe (no load on the circuit): positive while the load counts as on.",
     `Bchk_on chk_on 0 V=${onSignal(target, netlist, supply_V)}`,
-    `.options ${POWER_RUN_OPTIONS}`,
+    // A user's batch run has no retry ladder: a 1 GΩ shunt from every node to ground (ngspice's
+    // rshunt; 24 nA at 24 V, below anything measured) keeps a momentarily floating node from
+    // stopping the run with "timestep too small" (one valve deck did without it).
+    `.options ${POWER_RUN_OPTIONS} ${BATCH_RSHUNT}`,
     `.save all${prims.map((e) => ` @${e}[p]`).join("")}`,
     `.tran ${step} ${t1} 0 ${step}`,
     ...k.map((i) => `.meas tran chk_rise${i} when v(chk_on)=0 rise=${i} td=${td}`),
