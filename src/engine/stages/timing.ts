@@ -107,6 +107,24 @@ function followerFigures(v: CoreValues, e: CoreEval, recovery: number): Figure[]
 /** Worst-case frequency spread around the target beyond which the page shows a problem (ours). */
 export const FREQ_SPREAD_SHOWN = 0.05;
 
+/**
+ * The balancing load on the untapped driving node: its Thevenin high level matched to the tapped
+ * one's (RBAL, with DBAL when the chain input clamps at a V_BE). A chain input that clamps at or
+ * above the driving level leaves nothing to balance (the tap's own checks say why).
+ */
+function balanceFor(
+  src: { v_V: number; r_ohm: number },
+  load: CollectorLoad,
+  db: DiodeClass,
+): { balance: CollectorLoad | undefined; balanceDiode: boolean } {
+  const vHigh = (src.v_V * load.r_ohm + load.v_V * src.r_ohm) / (src.r_ohm + load.r_ohm);
+  if (!(vHigh > 0 && vHigh < src.v_V)) return { balance: undefined, balanceDiode: false };
+  const vF = diodeVf_V(db, (src.v_V - vHigh) / src.r_ohm, NOMINAL_TEMP_C);
+  const balanceDiode = load.v_V > 0 && vHigh > vF;
+  const vL = balanceDiode ? vF : 0;
+  return { balance: { r_ohm: nearest((src.r_ohm * (vHigh - vL)) / (src.v_V - vHigh), "E24"), v_V: vL }, balanceDiode };
+}
+
 export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingResult {
   const q = ctx.spec.devices.timing_npn as BjtClass;
   const db = ctx.spec.devices.signal_diode as DiodeClass;
@@ -172,17 +190,8 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
     return Math.abs(c.aHigh - 0.5);
   };
   const skewRaw = skewOf();
-  let balance: CollectorLoad | undefined;
-  let balanceDiode = false;
-  if (skewRaw > t.duty_skew_max) {
-    // Match the untapped driving node's high level to the tapped one's (Thevenin).
-    const vHigh = (src.v_V * tap.load.r_ohm + tap.load.v_V * src.r_ohm) / (src.r_ohm + tap.load.r_ohm);
-    const vF = diodeVf_V(db, (src.v_V - vHigh) / src.r_ohm, NOMINAL_TEMP_C);
-    balanceDiode = tap.load.v_V > 0 && vHigh > vF;
-    const vL = balanceDiode ? vF : 0;
-    const r = nearest((src.r_ohm * (vHigh - vL)) / (src.v_V - vHigh), "E24");
-    balance = { r_ohm: r, v_V: vL };
-  }
+  const { balance, balanceDiode } =
+    skewRaw > t.duty_skew_max ? balanceFor(src, tap.load, db) : { balance: undefined, balanceDiode: false };
   const search = searchCore(ctx, q, db, { ...base, ...(balance ? { balance } : {}) });
   const v = search.values;
   const w = search.worst;
