@@ -199,3 +199,14 @@ export function demoPowerBjt(family: "npn" | "pnp"): BjtClass {
     t_storage_s: 1.5e-6,
   } as unknown as BjtClass;
 }
+
+/** The series-reverse-diode case both its engine and its simulation test size: 12 V lead-acid, 10 A heater. */
+export const SERIES_REVERSE_SPEC: SpecOpts = {
+  supply_V: 12,
+  load_A: 10,
+  chain: "mosfet-logic",
+  load_kind: "resistive",
+  supply: { battery: "lead-acid" },
+  duty: [0.25, 0.75],
+  override: { timing_npn: NPN_HIGH_GAIN },
+};

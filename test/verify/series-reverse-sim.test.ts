@@ -10,7 +10,7 @@ import { sizeVariant } from "../../src/engine/index.ts";
 import { renderVariantViews } from "../../src/render/variant.ts";
 import { startEngine, type SpiceEngine } from "../../src/verify/engines/index.ts";
 import { verifyVariant } from "../../src/verify/verify.ts";
-import { NPN_HIGH_GAIN, SCHOTTKY_30A, library, makeSpec } from "../engine/fixtures.ts";
+import { NPN_HIGH_GAIN, SCHOTTKY_30A, SERIES_REVERSE_SPEC, library, makeSpec } from "../engine/fixtures.ts";
 
 let engine: SpiceEngine;
 beforeAll(async () => {
@@ -24,13 +24,8 @@ describe("series reverse diode: predictions agree with the simulated netlist", (
   it("12 V lead-acid, 10 A heater, mosfet-logic (20 A fuse, D_SERIES in the rail)", async () => {
     const s = sizeVariant(
       makeSpec({
-        supply_V: 12,
-        load_A: 10,
-        chain: "mosfet-logic",
-        load_kind: "resistive",
-        supply: { battery: "lead-acid" },
-        duty: [0.25, 0.75],
-        override: { timing_npn: NPN_HIGH_GAIN, reverse_series_diode: SCHOTTKY_30A },
+        ...SERIES_REVERSE_SPEC,
+        override: { ...SERIES_REVERSE_SPEC.override, reverse_series_diode: SCHOTTKY_30A },
       }),
     );
     expect(s.feasible).toBe(true);

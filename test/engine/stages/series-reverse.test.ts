@@ -12,17 +12,9 @@ import { sizeVariant } from "../../../src/engine/index.ts";
 import { diodeClassVf_V } from "../../../src/engine/shared/diode.ts";
 import type { SizedVariant } from "../../../src/model/sized.ts";
 import { expectClose } from "../../helpers/close.ts";
-import { NPN_HIGH_GAIN, SCHOTTKY_30A, type SpecOpts, makeSpec } from "../fixtures.ts";
+import { NPN_HIGH_GAIN, SCHOTTKY_30A, SERIES_REVERSE_SPEC, type SpecOpts, makeSpec } from "../fixtures.ts";
 
-const base: SpecOpts = {
-  supply_V: 12,
-  load_A: 10,
-  chain: "mosfet-logic",
-  load_kind: "resistive",
-  supply: { battery: "lead-acid" },
-  duty: [0.25, 0.75],
-  override: { timing_npn: NPN_HIGH_GAIN },
-};
+const base: SpecOpts = SERIES_REVERSE_SPEC;
 const size = (o: Partial<SpecOpts> = {}): SizedVariant => sizeVariant(makeSpec({ ...base, ...o }));
 const fig = (s: SizedVariant, k: string): number => s.figures.find((f) => f.key === k)!.value;
 const part = (s: SizedVariant, role: string) => s.circuit!.parts.find((p) => p.role === role);
