@@ -41,10 +41,13 @@ describe("LED string diode law (Shockley, one diode for the string)", () => {
 describe("motor as a constant-torque load (winding balance: test/engine/shared/winding.test.ts)", () => {
   it("a 24 V 2 A motor on a MOSFET: rated current predicted, the back-EMF goes to the netlist", () => {
     const s = size({ supply_V: 24, load_A: 2, chain: "mosfet-driver", load_kind: "motor", pwm_Hz: 1000 });
-    // L/R = 1 ms against a 1 ms period: continuous, the on-state mean within 1 % of the average
-    // (a nearly straight ramp's mean is its midpoint; Mohan et al. 3rd ed. ch. 7, from memory).
+    // L/R = 1 ms against a 1 ms period: continuous. The on-state reading (the middle 60 % of the on
+    // time) of a straight ramp would be its midpoint, the average (Mohan et al. 3rd ed. ch. 7, from
+    // memory); the exponential ramp bends toward its end value, so the reading sits a little above
+    // (1.5 % here; derived), within 3 %.
     expect(fig(s, "winding_discontinuous")).toBe(0);
-    expectClose(fig(s, "load_current_on"), 2, 0.01);
+    expectClose(fig(s, "load_current_on"), 2, 0.03);
+    expect(fig(s, "load_current_on")).toBeGreaterThan(2);
     const e = s.circuit!.parts.find((p) => p.role === "LOAD")!.spice!.vf_V!;
     expect(e).toBeGreaterThan(0);
     expect(e).toBeLessThan(24 - 2 * 3); // below the full-voltage back-EMF: the duty is < 1
@@ -97,10 +100,15 @@ describe("motor in discontinuous conduction (150 Hz, L/R = 1 ms): modelled, not 
   it("a 12 V 0.6 A fan on a MOSFET at 150 Hz: E from the exact waveform, peak and RMS shown", () => {
     const s = size({ supply_V: 12, load_A: 0.6, chain: "mosfet-driver", load_kind: "motor", pwm_Hz: 150 });
     expect(s.problems.map((p) => p.rule)).not.toContain("motor-current-discontinuous");
-    // The off time (≥ 20 % of 6.7 ms) is longer than L/R: the peak is well above the average, and
-    // the RMS while on above the mean while on (a ramp's form factor).
-    expect(fig(s, "winding_peak_current")).toBeGreaterThan(0.6);
-    expect(fig(s, "switch_rms_current_on")).toBeGreaterThan(fig(s, "load_current_on"));
+    // The off time (≥ 13 % of 6.7 ms) is about L/R: the current stops, the peak is above the
+    // average, and the RMS while on lies between that of a straight ramp from zero, I_pk/√3, and the
+    // peak (the exponential rise is concave, so above the ramp; derived).
+    expect(fig(s, "winding_discontinuous")).toBe(1);
+    expect(fig(s, "winding_valley_current")).toBe(0);
+    const pk = fig(s, "winding_peak_current");
+    expect(pk).toBeGreaterThan(0.6);
+    expect(fig(s, "switch_rms_current_on")).toBeGreaterThan(pk / Math.sqrt(3));
+    expect(fig(s, "switch_rms_current_on")).toBeLessThan(pk);
     const e = s.circuit!.parts.find((p) => p.role === "LOAD")!.spice!.vf_V!;
     expect(e).toBeGreaterThan(0);
   });
