@@ -2,6 +2,7 @@ import { SOURCES, sourceUrl } from "../engine/shared/sources.ts";
 import type { Figure } from "../model/figure.ts";
 import { formatPercent, formatValue } from "../model/format.ts";
 import { KEY_FIGURES } from "../model/sized.ts";
+import { formulaUrl } from "./formulas-view.ts";
 
 /**
  * How one number is printed. Duty figures and other shares are ratios (unit "") in the engine and
@@ -26,6 +27,13 @@ export interface FigureRow {
   text: string;
   range: string; // "" when the figure has no worst-case range
   formula: string;
+  /**
+   * Anchor of the formula on the shared formulas page (formulas-view.ts): the page links the row
+   * there instead of printing the formula and its source in every row of every page.
+   */
+  formulaId: string;
+  /** That entry's URL, relative to the site root. */
+  formulaUrl: string;
   /** Bibliography key, its short citation, and its anchor on the sources page (root-relative). */
   source: string;
   sourceTitle: string;
@@ -50,7 +58,23 @@ export function confidenceWord(c: string): string {
   return CONFIDENCE_WORDS[c] ?? c;
 }
 
+/**
+ * A short, stable anchor for one figure's formula with its source and confidence: the figure key
+ * (most keys have one formula) and a 32-bit FNV-1a hash of the three texts, since a few keys have
+ * a formula per chain. It depends on nothing but the figure, so a page is the same whatever else
+ * the catalogue holds (and works in the browser bundle, which has no node:crypto).
+ */
+export function formulaId(f: Pick<Figure, "key" | "formula" | "source" | "confidence">): string {
+  let h = 0x811c9dc5;
+  for (const ch of `${f.formula}\u0000${f.source}\u0000${f.confidence}`) {
+    h ^= ch.codePointAt(0)!;
+    h = Math.imul(h, 0x01000193) >>> 0;
+  }
+  return `${f.key}-${h.toString(36)}`;
+}
+
 export function figureRow(f: Figure): FigureRow {
+  const id = formulaId(f);
   return {
     key: f.key,
     label: f.label,
@@ -59,6 +83,8 @@ export function figureRow(f: Figure): FigureRow {
     text: displayNumber(f.value, f.unit, f.key),
     range: f.range ? `${displayNumber(f.range[0], f.unit, f.key)} … ${displayNumber(f.range[1], f.unit, f.key)}` : "",
     formula: f.formula,
+    formulaId: id,
+    formulaUrl: formulaUrl(id),
     source: f.source,
     sourceTitle: SOURCES[f.source].short,
     sourceUrl: sourceUrl(f.source),

@@ -28,8 +28,8 @@ describe("files of the built site", () => {
     expect(files).toContain("assets/site.css");
     for (const d of cat.designs) expect(files).toContain(`designs/${d.record.id}/index.html`);
     for (const v of variants) expect(files).toContain(`variants/${v.sized.spec.id}/index.html`);
-    expect(files.filter((f) => f.endsWith(".html"))).toHaveLength(2 + cat.designs.length + variants.length);
-    const pages = 2 + cat.designs.length + variants.length;
+    expect(files.filter((f) => f.endsWith(".html"))).toHaveLength(3 + cat.designs.length + variants.length);
+    const pages = 3 + cat.designs.length + variants.length;
     expect(site.result).toEqual({ pages, files: files.length, rendered: pages, searchIndex: "built" });
   });
 
@@ -103,7 +103,7 @@ describe("links", () => {
   it("every page parses as HTML and every internal link and resource resolves inside the site", async () => {
     const report = await auditSite(site.dir);
     expect(report.findings).toEqual([]);
-    expect(report.pages).toBe(2 + cat.designs.length + variants.length);
+    expect(report.pages).toBe(3 + cat.designs.length + variants.length);
     expect(report.links).toBeGreaterThan(50); // the audit really walked the pages
   });
 
@@ -146,6 +146,46 @@ describe("variant pages print the numbers of their JSON download", () => {
       });
     });
   }
+
+  it("every figure links to its formula and source on the formulas page; every check to its rule", async () => {
+    const formulas = unescapeHtml(await read(site.dir, "formulas/index.html"));
+    const entry = (id: string): string => {
+      const at = formulas.indexOf(`<dt id="${id}">`);
+      expect(at, id).toBeGreaterThan(0);
+      return formulas.slice(at, formulas.indexOf("</dd>", at));
+    };
+    for (const v of variants) {
+      const id = v.sized.spec.id;
+      const html = unescapeHtml(await read(site.dir, `variants/${id}/index.html`));
+      const json = JSON.parse(await read(site.dir, `variants/${id}/${id}.json`));
+      const links = [
+        ...html.matchAll(/data-key="([^"]+)" data-value[^]*?href="\.\.\/\.\.\/formulas\/index\.html#([^"]+)"/g),
+      ];
+      expect(links).toHaveLength(json.figures.length);
+      for (const [, key, anchor] of links) {
+        const f = json.figures.find((x: { key: string }) => x.key === key);
+        const e = entry(anchor!);
+        expect(e).toContain(`<code>${f.formula}</code>`);
+        expect(e).toContain(`href="../sources/index.html#${f.source}"`);
+        expect(e).toContain(f.label);
+      }
+      const rules = new Map(
+        [
+          ...html.matchAll(
+            /<li id="rule-(\d+)"><a href="\.\.\/\.\.\/sources\/index\.html#([^"]+)">[^<]*<\/a>(?:: ([^<]*))?<\/li>/g,
+          ),
+        ].map((m) => [m[1]!, { source: m[2]!, note: m[3] ?? "" }]),
+      );
+      const used = [...html.matchAll(/<td><a href="#rule-(\d+)">\d+<\/a><\/td><\/tr>/g)].map((m) => m[1]!);
+      expect(used).toHaveLength(json.checks.length);
+      used.forEach((n, i) => {
+        expect(rules.get(n), `${id} check ${i}`).toEqual({
+          source: json.checks[i].source,
+          note: json.checks[i].note ?? "",
+        });
+      });
+    }
+  });
 
   it("the JSON holds every part with value, rating, stress, device class and minimum gain", async () => {
     const v = variants[0]!;
