@@ -140,7 +140,7 @@ export function buildSiteView(cat: BuiltCatalogue): SiteView {
   const pages = cat.designs.map((d) => designPageViews(d, cat));
   const variants = cat.designs.flatMap((d) => d.variants.map((v) => variantView(v, d, cat)));
   const formulas = new FormulaIndex();
-  for (const v of variants) formulas.add(v.figures);
+  for (const d of cat.designs) for (const v of d.variants) formulas.add(v.sized.figures, v.sized.checks);
   return {
     home: homeView(cat, cat.designs.map(homeDesignRow), cat.designs.flatMap(chooserEntries)),
     designs: pages.map((p) => p.page),

@@ -2,7 +2,7 @@ import { SOURCES, sourceUrl } from "../engine/shared/sources.ts";
 import type { Figure } from "../model/figure.ts";
 import { formatPercent, formatValue } from "../model/format.ts";
 import { KEY_FIGURES } from "../model/sized.ts";
-import { formulaUrl } from "./formulas-view.ts";
+import { formulaId, formulaUrl } from "./basis.ts";
 
 /**
  * How one number is printed. Duty figures and other shares are ratios (unit "") in the engine and
@@ -21,7 +21,7 @@ export function displayNumber(value: number, unit: string, key = ""): string {
 export interface FigureRow {
   key: string;
   label: string;
-  /** Raw value (also printed as a data attribute, so a reader can check it against the JSON). */
+  /** Raw value (the page prints `text`; the variant JSON beside it holds this). */
   value: number;
   unit: string;
   text: string;
@@ -56,21 +56,6 @@ const CONFIDENCE_WORDS: Record<string, string> = {
 
 export function confidenceWord(c: string): string {
   return CONFIDENCE_WORDS[c] ?? c;
-}
-
-/**
- * A short, stable anchor for one figure's formula with its source and confidence: the figure key
- * (most keys have one formula) and a 32-bit FNV-1a hash of the three texts, since a few keys have
- * a formula per chain. It depends on nothing but the figure, so a page is the same whatever else
- * the catalogue holds (and works in the browser bundle, which has no node:crypto).
- */
-export function formulaId(f: Pick<Figure, "key" | "formula" | "source" | "confidence">): string {
-  let h = 0x811c9dc5;
-  for (const ch of `${f.formula}\u0000${f.source}\u0000${f.confidence}`) {
-    h ^= ch.codePointAt(0)!;
-    h = Math.imul(h, 0x01000193) >>> 0;
-  }
-  return `${f.key}-${h.toString(36)}`;
 }
 
 export function figureRow(f: Figure): FigureRow {

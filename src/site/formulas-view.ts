@@ -1,17 +1,17 @@
+import { SOURCES, sourceUrl, type SourceKey } from "../engine/shared/sources.ts";
+import type { StressCheck } from "../model/derating.ts";
+import type { Figure } from "../model/figure.ts";
+import { FORMULAS_PAGE, formulaId, ruleId } from "./basis.ts";
+import { confidenceWord } from "./figures.ts";
 import { relativeRoot } from "./paths.ts";
-import type { FigureRow } from "./figures.ts";
 
 /**
- * The shared formulas page: every distinct formula behind a figure of the catalogue, once, with
- * its source and how sure that source is. Variant pages link each figure to its entry here
- * (FigureRow.formulaId) rather than repeating the same few dozen formulas on every page; the
- * variant's JSON download still carries each figure's formula and source in full.
+ * The basis shared by every variant: each distinct formula behind a figure and each distinct
+ * derating rule behind a check, once. Variant pages link each figure to its formula's entry on the
+ * formulas page, and the variant JSON names each figure's formula and each check's rule, which
+ * `basis.json` spells out (basis.ts names them), rather than repeating the same few hundred texts
+ * in every one of thousands of variants.
  */
-export const FORMULAS_PAGE = "formulas/index.html";
-
-export function formulaUrl(id: string): string {
-  return `${FORMULAS_PAGE}#${id}`;
-}
 
 export interface FormulaEntry {
   id: string;
@@ -48,45 +48,91 @@ function stageHeading(stage: string): string {
   return words.charAt(0).toUpperCase() + words.slice(1);
 }
 
+interface FormulaItem {
+  key: string;
+  formula: string;
+  source: SourceKey;
+  confidence: string;
+  stage: string;
+  labels: Set<string>;
+}
+
 /**
- * Collects the formulas of the figure rows it is shown (one design at a time, as the site writer
- * streams them) and makes the page's view. The view is sorted by stage, key and anchor, so it does
- * not depend on the order the designs arrive in.
+ * Collects the formulas and rules of the variants it is shown (one design at a time, as the site
+ * writer streams them). Its outputs are sorted, so they do not depend on the order the designs
+ * arrive in.
  */
 export class FormulaIndex {
-  private readonly entries = new Map<string, { row: FigureRow; labels: Set<string> }>();
+  private readonly formulas = new Map<string, FormulaItem>();
+  private readonly rules = new Map<string, { source: SourceKey; note: string }>();
 
-  add(rows: readonly FigureRow[]): void {
-    for (const r of rows) {
-      const e = this.entries.get(r.formulaId);
-      if (e) e.labels.add(r.label);
-      else this.entries.set(r.formulaId, { row: r, labels: new Set([r.label]) });
+  add(figures: readonly Figure[], checks: readonly StressCheck[]): void {
+    for (const f of figures) {
+      const id = formulaId(f);
+      const e = this.formulas.get(id);
+      if (e) e.labels.add(f.label);
+      else
+        this.formulas.set(id, {
+          key: f.key,
+          formula: f.formula,
+          source: f.source,
+          confidence: f.confidence,
+          stage: f.stage,
+          labels: new Set([f.label]),
+        });
+    }
+    for (const c of checks) {
+      const id = ruleId(c.source, c.note);
+      if (!this.rules.has(id)) this.rules.set(id, { source: c.source, note: c.note ?? "" });
     }
   }
 
+  private sortedFormulas(): [string, FormulaItem][] {
+    return [...this.formulas.entries()].sort(
+      ([ia, a], [ib, b]) => cmp(a.stage, b.stage) || cmp(a.key, b.key) || cmp(ia, ib),
+    );
+  }
+
+  /** The formulas page. */
   view(): FormulasView {
     const byStage = new Map<string, FormulaEntry[]>();
-    const sorted = [...this.entries.values()].sort(
-      (a, b) => cmp(a.row.stage, b.row.stage) || cmp(a.row.key, b.row.key) || cmp(a.row.formulaId, b.row.formulaId),
-    );
-    for (const { row, labels } of sorted) {
-      const list = byStage.get(row.stage) ?? [];
+    for (const [id, f] of this.sortedFormulas()) {
+      const list = byStage.get(f.stage) ?? [];
       list.push({
-        id: row.formulaId,
-        key: row.key,
-        labels: [...labels].sort(cmp),
-        formula: row.formula,
-        sourceTitle: row.sourceTitle,
-        sourceUrl: row.sourceUrl,
-        confidence: row.confidence,
+        id,
+        key: f.key,
+        labels: [...f.labels].sort(cmp),
+        formula: f.formula,
+        sourceTitle: SOURCES[f.source].short,
+        sourceUrl: sourceUrl(f.source),
+        confidence: confidenceWord(f.confidence),
       });
-      byStage.set(row.stage, list);
+      byStage.set(f.stage, list);
     }
     return {
       root: relativeRoot(FORMULAS_PAGE),
       title: "Formulas",
       groups: [...byStage.entries()].map(([stage, entries]) => ({ stage, heading: stageHeading(stage), entries })),
     };
+  }
+
+  /** `basis.json`: what each name in the variant JSON (a figure's `basis`, a check's `rule`) stands for. */
+  jsonText(): string {
+    const formulas = Object.fromEntries(
+      this.sortedFormulas().map(([id, f]) => [
+        id,
+        {
+          key: f.key,
+          labels: [...f.labels].sort(cmp),
+          formula: f.formula,
+          source: f.source,
+          confidence: f.confidence,
+          stage: f.stage,
+        },
+      ]),
+    );
+    const rules = Object.fromEntries([...this.rules.entries()].sort(([a], [b]) => cmp(a, b)));
+    return `${JSON.stringify({ formulas, rules })}\n`;
   }
 }
 

@@ -22,6 +22,7 @@ import { CatalogueChecks } from "./validate.ts";
 import { variantJsonText } from "./variant-json.ts";
 import { variantView, type VariantView } from "./view-variant.ts";
 import { FormulaIndex } from "./formulas-view.ts";
+import { BASIS_JSON } from "./basis.ts";
 import type { DesignPageView } from "./data.ts";
 import { BROWSER_SCRIPTS, writeBrowserScripts } from "./bundle.ts";
 import { writeSearchIndex } from "./search-index.ts";
@@ -168,7 +169,7 @@ export async function writeSiteStream(
   const pageHome = homeView({ ...head, summary }, [], []);
   const shared = sharedKeyParts(pageHome, prefix);
   const sources = sourcesView();
-  // Filled as the designs pass; the formulas page is rendered with the home page, after the last one.
+  // Filled as the designs pass; the formulas page and basis.json are written after the last one.
   const formulaIndex = new FormulaIndex();
   const noFormulas = new FormulaIndex().view();
 
@@ -257,7 +258,7 @@ export async function writeSiteStream(
     }
     const { page: view, groups } = designPageViews(d, { ...(head.engine ? { engine: head.engine } : {}), designs: [] });
     const variants = d.variants.map((v) => variantView(v, d, head));
-    for (const vv of variants) formulaIndex.add(vv.figures);
+    for (const v of d.variants) formulaIndex.add(v.sized.figures, v.sized.checks);
     const designKey = designPageKey(shared, view);
     const groupKeys = groups.map((g) => groupPageKey(shared, g));
     const part = designKeyPart(d, head.policy);
@@ -283,6 +284,7 @@ export async function writeSiteStream(
   records.unshift(homeRecord(home), sourcesRecord(sources));
 
   await writeFile(path.join(out, "catalogue.json"), json.text({ ...head, summary: totals }), "utf8");
+  await writeFile(path.join(out, BASIS_JSON), formulaIndex.jsonText(), "utf8");
   await mkdir(path.join(out, "assets"), { recursive: true });
   for (const name of (await readdir(ASSETS_DIR)).sort())
     await copyFile(path.join(ASSETS_DIR, name), path.join(out, "assets", name));
