@@ -151,7 +151,8 @@ describe("Darlington turn-off: the first stage's collector–base (Miller) charg
     expect(t).toBeGreaterThan(q / (vIn / (rT * (1 - ctx.rTol)) + ctx.iMax_A / (0.5 * betaTyp)));
     expect(t).toBeLessThan(q / (ctx.iMax_A / (2 * betaTyp)));
   });
-  it("is counted in the worst-case switching loss: ½·V·I·(t_r + t_off + t_M)·f (Mohan, Undeland, Robbins, 3rd ed., Eq. 2-6, from memory)", () => {
+  // Mohan, Undeland, Robbins, Power Electronics, 3rd ed., Eq. 2-6 (from memory).
+  it("is counted in the worst-case switching loss: ½·V·I·(t_r + t_off + t_M)·f", () => {
     const fMax = s.figures.find((f) => f.key === "frequency_nominal")!.range![1];
     const tAll = d2.t_rise_s + fig(s, "turn_off_time") + fig(s, "turn_off_miller_time");
     expectClose(fig(s, "switching_loss"), 0.5 * ctx.vMax_V * ctx.iMax_A * tAll * fMax, 1e-9);

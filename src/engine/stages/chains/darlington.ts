@@ -89,9 +89,9 @@ function stackVoltageNominal(devs: BjtClass[], s: StackCurrents): number {
  * or the falling resistive one), so the charge C_CB,1 takes over 0 → V_sw,off flows into the first
  * base and leaves only as fast as the input resistor sinks it, (ΣV_BE − V_tap,low)/R_T, plus what
  * the stack's first base draws, I_C/β_stack (charge control: the Miller plateau, derived). The gain
- * is the typical curve (gain.ts hfeTypicalCurve, the one the second card set is fitted to): a higher gain draws less and makes the edge slower, so the minimum gain is not
- * the worst case here (found with the second model-card set, docs/verification.md, "Second card
- * set"). Q_CB from the class's C_ob by the junction law (shared/junction.ts); 0 without C_ob.
+ * is the typical curve (gain.ts hfeTypicalCurve, the one the second card set is fitted to): a
+ * higher gain draws less and makes the edge slower, so the minimum gain is not the worst case here
+ * (found with the second model-card set, docs/verification.md, "Second card set"). Q_CB from the class's C_ob by the junction law (shared/junction.ts); 0 without C_ob.
  */
 function millerTime_s(
   ctx: Ctx,
