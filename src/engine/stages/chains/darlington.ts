@@ -91,7 +91,8 @@ function stackVoltageNominal(devs: BjtClass[], s: StackCurrents): number {
  * the stack's first base draws, I_C/β_stack (charge control: the Miller plateau, derived). The gain
  * is the typical curve (gain.ts hfeTypicalCurve, the one the second card set is fitted to): a
  * higher gain draws less and makes the edge slower, so the minimum gain is not the worst case here
- * (found with the second model-card set, docs/verification.md, "Second card set"). Q_CB from the class's C_ob by the junction law (shared/junction.ts); 0 without C_ob.
+ * (found with the second model-card set, docs/verification.md, "Second card set"). Q_CB from the
+ * class's C_ob by the junction law (shared/junction.ts); 0 without C_ob.
  */
 function millerTime_s(
   ctx: Ctx,
