@@ -139,9 +139,12 @@ function millerChecked(ctx: Ctx, q: BjtClass, db: DiodeClass, base: Parameters<t
   const fast = simulationCorners(v, q, db, envelopeCorners(envelopeOf(ctx)), env).find((k) => k.name === "fast");
   if (fast === undefined) return search;
   const tShort_s = (1 - fast.predicted.duty) / fast.predicted.f_Hz;
+  // Only a design that passed is worth re-bleeding; a failed search's nearest values can have no
+  // short half-period at all (duty 1 at the fast corner), and their refusal stands as it is.
+  if (!search.passed || !(tShort_s > 0)) return search;
   const z = millerIndex(q.cob_F, fast.vcc_V, v.bleed_ohm, vbeOn(q, NOMINAL_TEMP_C), tShort_s);
-  if (!(z <= MILLER_INDEX_MAX)) return searchCore(ctx, q, db, { ...base, bleedScale: MILLER_INDEX_TARGET / z });
-  return search;
+  if (!Number.isFinite(z) || z <= MILLER_INDEX_MAX) return search;
+  return searchCore(ctx, q, db, { ...base, bleedScale: MILLER_INDEX_TARGET / z });
 }
 
 export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingResult {
