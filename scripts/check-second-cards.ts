@@ -2,10 +2,12 @@
  * Runs every feasible demo variant's five corners again with the second, independently derived
  * model-card set (src/render/spice-bjt-independent.ts; docs/spice-models.md, "Second card set") and
  * judges each value against the page's worst-case range, as the build judges the published set's
- * corner runs. A diagnostic, not yet a gate (docs/verification.md, "Second card set" says why and
- * what is measured). Two lanes, one engine each.
- * Usage: node --import tsx scripts/check-second-cards.ts [--spice ngspice] [--design ID]
- * Prints each value outside its range and a summary; exits 3 when any is outside with --strict.
+ * corner runs. With --strict a gate: CI runs it after the build (.ci/run; docs/verification.md,
+ * "Second card set"). Two lanes, one engine each. The runs are cached beside the build's
+ * (src/verify/cache.ts cornerCacheKey), so a second run with nothing changed simulates nothing.
+ * Usage: node --import tsx scripts/check-second-cards.ts [--spice ngspice] [--design ID] [--strict]
+ * Prints each value outside its range and a summary; exits 3 when any is outside (or a run failed)
+ * with --strict.
  */
 import { loadProject } from "../src/records/load.ts";
 import { sizeDesign } from "../src/cli/pipeline.ts";
@@ -13,7 +15,8 @@ import { targetFromSized } from "../src/verify/target.ts";
 import { cornerDeck } from "../src/verify/corner-deck.ts";
 import { measureCorners } from "../src/verify/corner-runs.ts";
 import { judgeCorners } from "../src/verify/corner-compare.ts";
-import { chooseEngine, startEngine } from "../src/verify/engines/index.ts";
+import { chooseEngine, engineVersion, startEngine } from "../src/verify/engines/index.ts";
+import { DEFAULT_CACHE_DIR, cornerCacheKey, readCornerCache, writeCornerCache } from "../src/verify/cache.ts";
 import type { EngineName } from "../src/verify/engines/index.ts";
 import type { SizedVariant } from "../src/model/sized.ts";
 
@@ -34,7 +37,9 @@ const variants: SizedVariant[] = project.designs
   .filter((s) => s.feasible && s.circuit !== null);
 const engineName = chooseEngine(opt("--spice") as EngineName | undefined);
 const t0 = performance.now();
+const engineId = { name: engineName, version: engineVersion(engineName) };
 let runs = 0;
+let cached = 0;
 let outside = 0;
 let failed = 0;
 const worst = new Map<string, number>();
@@ -47,7 +52,11 @@ async function lane(): Promise<void> {
       const corners = s.corners ?? [];
       const decks = corners.map((k) => cornerDeck(s, project.ok ? project.devices : new Map(), k, "independent"));
       try {
-        const measured = await measureCorners({ ...target, corners: decks }, engine);
+        const key = cornerCacheKey(engineId, { ...target, corners: decks });
+        const hit = readCornerCache(DEFAULT_CACHE_DIR, key);
+        const measured = hit ?? (await measureCorners({ ...target, corners: decks }, engine));
+        if (hit === null) writeCornerCache(DEFAULT_CACHE_DIR, key, measured);
+        else cached += measured.length;
         runs += measured.length;
         for (const k of judgeCorners(corners, measured, target.ranges ?? {}, target.predicted))
           for (const c of k.checks.filter((x) => !x.ok)) {
@@ -73,7 +82,8 @@ async function lane(): Promise<void> {
 await Promise.all([lane(), lane()]);
 const byKey = [...worst].map(([k, r]) => `${k} (worst ${(r * 100).toFixed(1)} % past its end)`).join("; ");
 process.stdout.write(
-  `second card set: ${variants.length} feasible variants, ${runs} corner runs with ${engineName} in ` +
+  `second card set: ${variants.length} feasible variants, ${runs} corner runs (${cached} cached) with ` +
+    `${engineName} in ` +
     `${((performance.now() - t0) / 1000).toFixed(1)} s; ${outside} value(s) outside the page's range, ` +
     `${failed} failed${byKey ? `: ${byKey}` : ""}\n`,
 );

@@ -21,17 +21,14 @@
  */
 import type { BjtClass } from "../model/device.ts";
 import { fit2, type Row } from "../engine/shared/least-squares.ts";
-import { type GainKnee, kneeQb } from "../engine/shared/gain.ts";
+import { type GainKnee, kneeQb, typicalGainRatio } from "../engine/shared/gain.ts";
 import { fitBjt, isTypical_A } from "./spice-bjt.ts";
+import { CIB_TEST_V, COB_TEST_V, zeroBiasCapacitance_F } from "../engine/shared/junction.ts";
 
 /** Emission coefficient of the B–E recombination current (from memory: 1.5 for small silicon BJTs). */
 export const NE_INDEPENDENT = 1.5;
-/** Junction potential and grading of the capacitance law (the SPICE defaults). */
-export const VJ_V = 0.75;
-export const MJ = 0.33;
-/** Reverse biases at which data sheets state C_ob (V_CB) and C_ib (V_EB), V (common practice). */
-export const COB_TEST_V = 10;
-export const CIB_TEST_V = 0.5;
+/** The junction law and the data sheets' test biases: one definition with the engine (shared/junction.ts). */
+export { VJ_V, MJ, COB_TEST_V, CIB_TEST_V, zeroBiasCapacitance_F } from "../engine/shared/junction.ts";
 
 export interface IndependentBjt {
   is_A: number;
@@ -48,14 +45,8 @@ export interface IndependentBjt {
 
 /** The typical gain curve: every point's min scaled by the mean typ/min ratio of the points that give typ. */
 export function typicalGainPoints(dev: BjtClass): { ic_A: number; h: number }[] {
-  const ratios = dev.hfe.filter((p) => p.typ !== undefined).map((p) => p.typ! / p.min);
-  const r = ratios.length === 0 ? 1 : Math.exp(ratios.reduce((s, x) => s + Math.log(x), 0) / ratios.length);
+  const r = typicalGainRatio(dev);
   return dev.hfe.map((p) => ({ ic_A: p.ic_A, h: p.min * r }));
-}
-
-/** Zero-bias capacitance of a junction measured at reverse bias v_V: C(v) = C0/(1 + v/VJ)^MJ. */
-export function zeroBiasCapacitance_F(c_F: number, v_V: number): number {
-  return c_F * (1 + v_V / VJ_V) ** MJ;
 }
 
 /** β of the Gummel–Poon DC law (Early factor left out) at collector current ic_A. */

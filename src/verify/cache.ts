@@ -12,6 +12,7 @@ import { join } from "node:path";
 import type { EngineName } from "./engines/types.ts";
 import { MEASURE_CODE_VERSION, type Measured } from "./plan.ts";
 import type { VerifyTarget } from "./target.ts";
+import type { CornerMeasured } from "../model/verification.ts";
 import { simBody } from "./deck.ts";
 
 export const DEFAULT_CACHE_DIR = ".cache/sim";
@@ -76,6 +77,43 @@ export function writeCache(dir: string, key: string, value: Measured): void {
   mkdirSync(dir, { recursive: true });
   const tmp = join(dir, `.${key}.${process.pid}.${Math.random().toString(36).slice(2)}.tmp`);
   writeFileSync(tmp, JSON.stringify(value));
+  renameSync(tmp, join(dir, `${key}.json`));
+}
+
+/**
+ * The second model-card set's corner runs (scripts/check-second-cards.ts) in the same folder: the
+ * key of the corner decks it ran (their netlists carry the second set's cards, so it never meets
+ * a published-set entry), tagged apart all the same.
+ */
+export function cornerCacheKey(engine: { name: EngineName; version: string }, target: VerifyTarget): string {
+  return createHash("sha256")
+    .update("second-card-set\0")
+    .update(cacheKey("", engine, target))
+    .digest("hex");
+}
+
+export function readCornerCache(dir: string, key: string): CornerMeasured[] | null {
+  try {
+    const entry = JSON.parse(readFileSync(join(dir, `${key}.json`), "utf8")) as unknown;
+    const corners = (entry as { corners?: unknown } | null)?.corners;
+    if (!Array.isArray(corners)) return null;
+    const ok = corners.every(
+      (c) =>
+        typeof c === "object" &&
+        c !== null &&
+        typeof (c as { name?: unknown }).name === "string" &&
+        Number.isFinite((c as { duty?: unknown }).duty),
+    );
+    return ok ? (corners as CornerMeasured[]) : null;
+  } catch {
+    return null;
+  }
+}
+
+export function writeCornerCache(dir: string, key: string, corners: CornerMeasured[]): void {
+  mkdirSync(dir, { recursive: true });
+  const tmp = join(dir, `.${key}.${process.pid}.${Math.random().toString(36).slice(2)}.tmp`);
+  writeFileSync(tmp, JSON.stringify({ corners }));
   renameSync(tmp, join(dir, `${key}.json`));
 }
 

@@ -119,6 +119,24 @@ function logLog(x0: number, y0: number, x1: number, y1: number, x: number): numb
   return Math.exp(Math.log(y0) + t * (Math.log(y1) - Math.log(y0)));
 }
 
+/**
+ * Typical over minimum gain of a class: the geometric mean of typ/min over the points that give a
+ * typical value (1 when none does). Data sheets draw the typical curve with the shape of the
+ * guaranteed one (common practice), so the typical curve is the minimum curve times this ratio.
+ */
+export function typicalGainRatio(dev: BjtClass): number {
+  const ratios = dev.hfe.filter((p) => p.typ !== undefined).map((p) => p.typ! / p.min);
+  return ratios.length === 0 ? 1 : Math.exp(ratios.reduce((s, x) => s + Math.log(x), 0) / ratios.length);
+}
+
+/**
+ * The typical gain curve at ic_A (nominal temperature): the minimum law times typicalGainRatio. The
+ * same curve the second model-card set is fitted to (render/spice-bjt-independent.ts).
+ */
+export function hfeTypicalCurve(dev: BjtClass, ic_A: number): number {
+  return hfeNominal(dev, ic_A, "min") * typicalGainRatio(dev);
+}
+
 /** Minimum DC gain at ic_A and junction temperature tj_C (gain falls when cold), floored at 1. */
 export function hfeMin(dev: BjtClass, ic_A: number, tj_C: number): number {
   checkTemp(dev, tj_C, "hfeMin");

@@ -33,6 +33,11 @@ export interface CoreValues {
    * floating base below cut-in (base-bleed.ts).
    */
   bleed_ohm?: number;
+  /**
+   * Factor (< 1) on the bleed the drive share gives, when the off transistor's collector–base
+   * injection asks for a stronger one (base-bleed.ts millerIndex); absent: 1.
+   */
+  bleedScale?: number;
   tapLoad: CollectorLoad;
   balance?: CollectorLoad;
   inverting: boolean;

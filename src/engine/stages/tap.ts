@@ -77,6 +77,11 @@ export interface TapDesign {
   checks: StressCheck[];
 }
 
+/** The timing transistor's class. */
+function q0(ctx: Ctx): BjtClass {
+  return ctx.spec.devices.timing_npn as BjtClass;
+}
+
 function rcMin(ctx: Ctx): number {
   const q = ctx.spec.devices.timing_npn as BjtClass;
   return roundUp(ctx.vMax_V / (0.5 * q.ic_max_A), "E24");
@@ -178,7 +183,13 @@ export function designTap(ctx: Ctx, plan: ChainPlan, rcCap_ohm: number = RC_MAX_
       ...pre,
       vThTap_V:
         bleed !== undefined ? (need.vThreshold_V * (rT + bleed)) / bleed : need.vThreshold_V + rT * (need.iEdge_A ?? 0),
-      info: { rC_ohm: rC, rTap_ohm: rT, iMin_A: iMin, iMax_A: iMax },
+      info: {
+        rC_ohm: rC,
+        rTap_ohm: rT,
+        iMin_A: iMin,
+        iMax_A: iMax,
+        vLow_V: vceSat(q0(ctx), Math.min(q0(ctx).ic_max_A, ctx.vMax_V / rC)),
+      },
       parts: [rt.part],
       problems: [...problems, ...rt.problems],
       checks: rt.checks,
@@ -361,7 +372,13 @@ export function designFollowerTap(ctx: Ctx, plan: ChainPlan, capInjection = true
     ...(bleed !== undefined ? { preLinear_ohm: rT + bleed } : {}),
     vThTap_V:
       bleed !== undefined ? (need.vThreshold_V * (rT + bleed)) / bleed : need.vThreshold_V + rT * (need.iEdge_A ?? 0),
-    info: { rC_ohm: rC, rTap_ohm: rT, iMin_A: iMin, iMax_A: iMax },
+    info: {
+      rC_ohm: rC,
+      rTap_ohm: rT,
+      iMin_A: iMin,
+      iMax_A: iMax,
+      vLow_V: followerOffLevel_V(ctx, q, db, rC, CLAMP_I_A),
+    },
     parts: [rt.part],
     problems: rt.problems,
     checks: rt.checks,

@@ -78,7 +78,13 @@ export function overdrive(
   const iB0 = ctx.vMin_V / rB;
   const vOn = vbeOn(q, ctx.taMin_C) + (base.diodes ? diodeVf_V(db, iB0, ctx.taMin_C) : 0);
   // The base–emitter bleed (base-bleed.ts) takes V_BE(cold)/R_BE of it.
-  const bleed = bleedFor_ohm(ctx, q, db, { diodes: base.diodes, pot_ohm: pot, rEndA_ohm: rEndA, rEndB_ohm: rEndB });
+  const bleed = bleedFor_ohm(ctx, q, db, {
+    diodes: base.diodes,
+    pot_ohm: pot,
+    rEndA_ohm: rEndA,
+    rEndB_ohm: rEndB,
+    ...(base.bleedScale === undefined ? {} : { bleedScale: base.bleedScale }),
+  });
   const iBleed = bleed === undefined ? 0 : vbeOn(q, ctx.taMin_C) / (bleed * (1 - ctx.rTol));
   const iB = (ctx.vMin_V - vOn) / rB - iBleed;
   return (iB * hfeMin(q, iC, ctx.taMin_C)) / iC;

@@ -17,7 +17,7 @@ import type { Ctx } from "./context.ts";
 import { type CoreEval, type CoreValues, NOMINAL_K, diodeVf_V, evalCore, followerAt } from "./core-model.ts";
 import { MAX_RECOVERY, type Search, envelopeOf, injection, searchCore } from "./timing-search.ts";
 import { INJECTION_MAX } from "./astable.ts";
-import { bleedFigures } from "./base-bleed.ts";
+import { MILLER_INDEX_MAX, MILLER_INDEX_TARGET, bleedFigures, millerIndex } from "./base-bleed.ts";
 import { FOLLOWER_OFF_MARGIN_V, type TapDesign, followerChainThresholdHot_V, followerOffLevel_V } from "./tap.ts";
 import type { ChainPlan } from "./chains/types.ts";
 import { timingParts } from "./timing-parts.ts";
@@ -125,6 +125,28 @@ function balanceFor(
   return { balance: { r_ohm: nearest((src.r_ohm * (vHigh - vL)) / (src.v_V - vHigh), "E24"), v_V: vL }, balanceDiode };
 }
 
+/**
+ * The value search, once more with a stronger base bleed when the off transistor's collector–base
+ * injection at the fast corner passes what the bleed was measured to hold (base-bleed.ts
+ * millerIndex): the bleed is then re-sized to the index at which the measurement found the
+ * frequency on its prediction, and the search redone (the stronger bleed costs overdrive).
+ */
+function millerChecked(ctx: Ctx, q: BjtClass, db: DiodeClass, base: Parameters<typeof searchCore>[3]): Search {
+  const search = searchCore(ctx, q, db, base);
+  const v = search.values;
+  if (v.bleed_ohm === undefined || q.cob_F === undefined) return search;
+  const env = { vMax: ctx.vMax_V, tMax: ctx.taMax_C };
+  const fast = simulationCorners(v, q, db, envelopeCorners(envelopeOf(ctx)), env).find((k) => k.name === "fast");
+  if (fast === undefined) return search;
+  const tShort_s = (1 - fast.predicted.duty) / fast.predicted.f_Hz;
+  // Only a design that passed is worth re-bleeding; a failed search's nearest values can have no
+  // short half-period at all (duty 1 at the fast corner), and their refusal stands as it is.
+  if (!search.passed || !(tShort_s > 0)) return search;
+  const z = millerIndex(q.cob_F, fast.vcc_V, v.bleed_ohm, vbeOn(q, NOMINAL_TEMP_C), tShort_s);
+  if (!Number.isFinite(z) || z <= MILLER_INDEX_MAX) return search;
+  return searchCore(ctx, q, db, { ...base, bleedScale: MILLER_INDEX_TARGET / z });
+}
+
 export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingResult {
   const q = ctx.spec.devices.timing_npn as BjtClass;
   const db = ctx.spec.devices.signal_diode as DiodeClass;
@@ -192,7 +214,7 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
   const skewRaw = skewOf();
   const { balance, balanceDiode } =
     skewRaw > t.duty_skew_max ? balanceFor(src, tap.load, db) : { balance: undefined, balanceDiode: false };
-  const search = searchCore(ctx, q, db, { ...base, ...(balance ? { balance } : {}) });
+  const search = millerChecked(ctx, q, db, { ...base, ...(balance ? { balance } : {}) });
   const v = search.values;
   const w = search.worst;
   const nominal = { vcc_V: ctx.vNom_V, t_C: NOMINAL_TEMP_C, ...NOMINAL_K };

@@ -5,7 +5,8 @@ import { planBjtSingle } from "../../../src/engine/stages/chains/bjt-single.ts";
 import { planDarlington } from "../../../src/engine/stages/chains/darlington.ts";
 import { rdsOn_ohm } from "../../../src/engine/stages/chains/mosfet-common.ts";
 import { sizeVariant } from "../../../src/engine/index.ts";
-import { hfeMax, hfeMin, vbeOn, vbeSat, vceSat } from "../../../src/engine/shared/gain.ts";
+import { hfeMax, hfeMin, hfeTypicalCurve, vbeOn, vbeSat, vceSat } from "../../../src/engine/shared/gain.ts";
+import { junctionCharge_C } from "../../../src/engine/shared/junction.ts";
 import { expectClose } from "../../helpers/close.ts";
 import { NPN_HIGH_GAIN, type SpecOpts, makeSpec } from "../fixtures.ts";
 
@@ -173,5 +174,28 @@ describe("Darlington inner stages at the load's start-up peak (derived: I_E = (�
       expect(ib1).toBeGreaterThan(0);
       expect(ib1).toBeLessThan(0.01);
     }
+  });
+});
+
+describe("Darlington turn-off: the first stage's collector–base (Miller) charge (charge control, derived)", () => {
+  // t_M = Q_CB,1(0 → V) / ((ΣV_BE − V_tap,low)/R_T + I_C/β_stack,typ): bounded below by the largest
+  // sink (V_tap,low = 0, V_BE cold) and above by the stack's base current alone.
+  const s = sizeVariant(makeSpec({ ...hg, supply_V: 24, load_A: 0.5, chain: "darlington-2", load_kind: "motor" }));
+  const ctx = makeContext(makeSpec({ ...hg, supply_V: 24, load_A: 0.5, chain: "darlington-2", load_kind: "motor" }));
+  const [d1, d2] = [ctx.spec.devices.driver_npn as BjtClass, ctx.spec.devices.power_npn as BjtClass];
+  const rT = s.circuit!.parts.find((p) => p.role === "RT")!.value;
+  const q = junctionCharge_C(d1.cob_F!, ctx.vMax_V);
+  const betaTyp = hfeTypicalCurve(d1, ctx.iMax_A / hfeTypicalCurve(d2, ctx.iMax_A)) * hfeTypicalCurve(d2, ctx.iMax_A);
+  it("lies between the charge over the largest sink and over the stack's base current alone", () => {
+    const t = fig(s, "turn_off_miller_time");
+    const vIn = vbeOn(d1, ctx.taMin_C) + vbeOn(d2, ctx.taMin_C);
+    expect(t).toBeGreaterThan(q / (vIn / (rT * (1 - ctx.rTol)) + ctx.iMax_A / (0.5 * betaTyp)));
+    expect(t).toBeLessThan(q / (ctx.iMax_A / (2 * betaTyp)));
+  });
+  // Mohan, Undeland, Robbins, Power Electronics, 3rd ed., Eq. 2-6 (from memory).
+  it("is counted in the worst-case switching loss: ½·V·I·(t_r + t_off + t_M)·f", () => {
+    const fMax = s.figures.find((f) => f.key === "frequency_nominal")!.range![1];
+    const tAll = d2.t_rise_s + fig(s, "turn_off_time") + fig(s, "turn_off_miller_time");
+    expectClose(fig(s, "switching_loss"), 0.5 * ctx.vMax_V * ctx.iMax_A * tAll * fMax, 1e-9);
   });
 });

@@ -9,7 +9,8 @@ import type { Part } from "../../../model/circuit.ts";
 import type { PartRole } from "../../../model/part-roles.ts";
 import { nearest } from "../../shared/e-series.ts";
 import { figure } from "../../shared/figures.ts";
-import { hfeMax, hfeMin, vbeOn, vbeSat, vceSat } from "../../shared/gain.ts";
+import { hfeMax, hfeMin, hfeTypicalCurve, vbeOn, vbeSat, vceSat } from "../../shared/gain.ts";
+import { junctionCharge_C } from "../../shared/junction.ts";
 import { conductionLossBjt_W, resistorPower_W, switchingLoss_W } from "../../shared/losses.ts";
 import { resistor, transistor } from "../../../circuit/parts.ts";
 import { type Ctx, OVERDRIVE_K, loadCurrentAt_A, switchedVoltage_V } from "../context.ts";
@@ -25,7 +26,7 @@ import {
 } from "./common.ts";
 import { bjtDriveLimit_A } from "../../shared/drive-limit.ts";
 import { BLEED_SHARE } from "./bjt-single.ts";
-import type { ChainPlan, DeviceLoss } from "./types.ts";
+import type { ChainPlan, DeviceLoss, TapInfo } from "./types.ts";
 import { vceSatNominal_V } from "./sat-nominal.ts";
 import { vbeActiveNominal_V } from "./vbe-nominal.ts";
 import { NOMINAL_TEMP_C } from "../../shared/temperature.ts";
@@ -108,6 +109,34 @@ function stackVoltageNominal(devs: BjtClass[], s: StackCurrents): number {
   let v = vceSatNominal_V(devs[0]!, Math.max(s.ic[0]!, 1e-6));
   for (let k = 1; k < devs.length; k++) v += vbeActiveNominal_V(devs[k]!, s.ic[k]!, s.ib[k]!);
   return v;
+}
+
+/**
+ * Time the stack's collector takes to rise at turn-off, held back by the first stage's collector–base
+ * capacitance: while the switch voltage rises the stack must still conduct (the winding's current,
+ * or the falling resistive one), so the charge C_CB,1 takes over 0 → V_sw,off flows into the first
+ * base and leaves only as fast as the input resistor sinks it, (ΣV_BE − V_tap,low)/R_T, plus what
+ * the stack's first base draws, I_C/β_stack (charge control: the Miller plateau, derived). The gain
+ * is the typical curve (gain.ts hfeTypicalCurve, the one the second card set is fitted to): a
+ * higher gain draws less and makes the edge slower, so the minimum gain is not the worst case here
+ * (found with the second model-card set, docs/verification.md, "Second card set"). Q_CB from the
+ * class's C_ob by the junction law (shared/junction.ts); 0 without C_ob.
+ */
+function millerTime_s(
+  ctx: Ctx,
+  devs: BjtClass[],
+  s: StackCurrents,
+  tap: TapInfo,
+  gain: (d: BjtClass, ic_A: number) => number = hfeTypicalCurve,
+): number {
+  const first = devs[0]!;
+  if (first.cob_F === undefined) return 0;
+  const q_C = junctionCharge_C(first.cob_F, switchedVoltage_V(ctx, ctx.vMax_V));
+  const vIn_V = devs.reduce((sum, d) => sum + vbeOn(d, ctx.taMax_C), 0);
+  const beta = devs.reduce((p, d, k) => p * gain(d, Math.max(s.ic[k]!, 1e-6)), 1);
+  const iSink_A =
+    Math.max(0, vIn_V - (tap.vLow_V ?? 0)) / (tap.rTap_ohm * (1 + ctx.rTol)) + ctx.iMax_A / Math.max(beta, 1);
+  return q_C / iSink_A;
 }
 
 export function planDarlington(ctx: Ctx, n: 2 | 3): ChainPlan {
@@ -233,11 +262,13 @@ export function planDarlington(ctx: Ctx, n: 2 | 3): ChainPlan {
     finish(tap, op) {
       const losses: DeviceLoss[] = [];
       let vBelow = 0; // Σ V_BE of the stages after k
+      const tMiller = millerTime_s(ctx, devs, worst, tap);
+      const tMillerMin = millerTime_s(ctx, devs, nom, tap, (d, ic) => hfeMin(d, ic, NOMINAL_TEMP_C));
       const pSw = switchingLoss_W(
         switchedVoltage_V(ctx, ctx.vMax_V),
         ctx.iMax_A,
         last.t_rise_s,
-        tOffLast,
+        tOffLast + tMiller,
         op.fMax_Hz,
         ctx.switching,
       );
@@ -253,6 +284,8 @@ export function planDarlington(ctx: Ctx, n: 2 | 3): ChainPlan {
           pSw_W: sw,
           p_W: pc + sw,
           isPower: k === n - 1,
+          // Nominal: the published cards' minimum gain at 25 °C (the run the figure is compared with).
+          ...(k === n - 1 ? { tNom_s: { on: last.t_rise_s, off: tOffLast + tMillerMin } } : {}),
         });
         vBelow += vbeSat(devs[k]!, Math.max(worst.ic[k]!, 1e-6));
       }
@@ -273,13 +306,22 @@ export function planDarlington(ctx: Ctx, n: 2 | 3): ChainPlan {
         losses,
         figures: [
           driveMargin("input", "stack input (Q_D1 base)", tap.iMin_A, ib1Eq),
+          figure(
+            "turn_off_miller_time",
+            "Stack turn-off: the first stage's collector–base charge (Miller)",
+            tMiller,
+            "s",
+            "chain",
+            "t_M = Q_CB,1(0→V_sw,off) / ((ΣV_BE − V_tap,low)/R_T + I_C/β_stack,typ)",
+            "derived",
+          ),
           ...lossFigures(ctx, {
             conductionLabel: "Conduction loss, stack",
             conduction_W: stackP - pSw,
             conductionFormula: "P = Σ I_C,i · V_CE,i · D_max, V_CE,n = V_CE(sat),1 + Σ V_BE",
             switchingLabel: "Switching loss, output stage",
             switching_W: pSw,
-            transitions: "t_r + t_off",
+            transitions: "t_r + t_off + t_M",
           }),
           figure("stack_dissipation", "Dissipation in the whole stack", stackP, "W", "chain", "Σ P_i", "derived"),
         ],

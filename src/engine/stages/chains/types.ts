@@ -41,6 +41,11 @@ export interface TapInfo {
   /** Smallest and largest input current (BJT input) over the worst case, A. */
   iMin_A: number;
   iMax_A: number;
+  /**
+   * Highest level the tap holds the chain's input resistor at while the chain is off, V (BJT input):
+   * V_CE(sat) of the tapped collector, or the follower's clamped emitter. Absent: not known (0 taken).
+   */
+  vLow_V?: number;
   /** Gate voltage range reached (mosfet-logic), V. */
   vGate_V?: [number, number];
 }
