@@ -144,7 +144,8 @@ describe("saturation counts the other side's base-resistor current", () => {
     const db = cable.devices.signal_diode as DiodeClass;
     // Without base diodes (no bleed): V_on = V_BE cold; R_B,max = 75 kΩ·1.05 + 1 MΩ·1.2.
     const base = { rC_ohm: 10_000, diodes: false, tapLoad: { r_ohm: 1e6, v_V: 0 }, inverting: false };
-    const v = { ...base, vThTap_V: 2, delayOn_s: 0, delayOff_s: 0 };
+    const plain = { ...base, vThTap_V: 2, delayOn_s: 0, delayOff_s: 0 };
+    const v = { ...plain, follower: { rS_ohm: 430, onCollector: true } };
     const vMin = ctx.vMin_V;
     const vOn = vbeOn(q, ctx.taMin_C);
     const iRc = (vMin - vceSat(q, vMin / 10_000)) / (10_000 * 0.95);
@@ -154,6 +155,8 @@ describe("saturation counts the other side's base-resistor current", () => {
     expect(overdrive(ctx, q, db, v, 1e6, 75_000, 68_000)).toBeCloseTo(k, 12);
     // The extra current is a fifth of R_C's here: k falls by more than that against R_C alone.
     expect(iOpp / iRc).toBeGreaterThan(0.2);
+    // The plain core counts R_C's current only (its recovery limit keeps R_end,min ≳ 7·R_C; docs/method.md).
+    expect(overdrive(ctx, q, db, plain, 1e6, 75_000, 68_000)).toBeCloseTo((iB * hfeMin(q, iRc, ctx.taMin_C)) / iRc, 12);
   });
 
   it("the inverting driver chain of the same 24 V cable is refused, no longer sized into chatter", () => {
