@@ -83,16 +83,23 @@ export function tapAndTiming(
     timing,
     follower: { rule: why, plainRc_ohm: plain.tap.rC_ohm, ...(onCollector ? { onCollector } : {}) },
   });
+  // Without the injection cap the tap differs only when the cap bound R_C: a tap met before is not searched again.
+  let seen: number | undefined;
   for (const cap of [true, false]) {
     const ft = designFollowerTap(ctx, plan, cap);
     if (ft === null) break;
+    if (ft.rC_ohm === seen) continue;
+    seen = ft.rC_ohm;
     const timing = designTiming(ctx, plan, ft);
     if (timing.search.passed && !timing.problems.some((p) => p.rule === "follower-off-level"))
       return chosen(ft, timing, false);
   }
+  seen = undefined;
   for (const cap of [true, false]) {
     const ft = designFollowerCollectorTap(ctx, plan, undefined, cap);
     if (ft === null) break;
+    if (ft.rC_ohm === seen) continue;
+    seen = ft.rC_ohm;
     const timing = designTiming(ctx, plan, ft);
     if (timing.search.passed) return chosen(ft, timing, true);
   }
