@@ -23,6 +23,8 @@ import { CHAIN_PLANNERS } from "./stages/chains/index.ts";
 import { type TapDesign, designFollowerCollectorTap, designFollowerTap, designTap } from "./stages/tap.ts";
 import { type TimingResult, designTiming } from "./stages/timing.ts";
 import { loadStage } from "./stages/load.ts";
+import { windingSwitchTerms, withWindingForm } from "./stages/winding-losses.ts";
+import type { WindingWaveform } from "./shared/winding.ts";
 import { thermalStage } from "./stages/thermal.ts";
 import { reviewFailures } from "./stages/failure-modes.ts";
 import { protectionStage } from "./stages/protection.ts";
@@ -143,6 +145,7 @@ function sizeInner(spec: VariantSpec): SizedVariant {
     dOn,
     { lo: Math.min(1, w.dMin.hi), hi: Math.min(1, w.dMax.lo) },
     Math.max(vSwNom_V, plan.vSwMax_V),
+    Number.isFinite(timing.fCtrl1_Hz) && timing.fCtrl1_Hz > 0 ? timing.fCtrl1_Hz : ctx.f_Hz,
   );
   const q = spec.devices.timing_npn as BjtClass;
   const timingLoss = (role: SidedRole<"Q">): DeviceLoss => ({
@@ -165,9 +168,10 @@ function sizeInner(spec: VariantSpec): SizedVariant {
     timingLoss("Q_B"),
     ...(tap.follower ? [followerLoss("QF_A"), followerLoss("QF_B")] : []),
   ];
-  const losses = [...fin.losses, ...coreLosses];
+  const finLosses = withWindingForm(fin.losses, load.winding);
+  const losses = [...finLosses, ...coreLosses];
   const thermal = thermalStage(ctx, losses);
-  const power = fin.losses.find((l) => l.isPower);
+  const power = finLosses.find((l) => l.isPower);
   // The core's own current at the highest supply counts toward the fuse's continuous current.
   const prot = protectionStage(
     ctx,
@@ -180,7 +184,16 @@ function sizeInner(spec: VariantSpec): SizedVariant {
       : { role: power.role, dev: power.dev, ...(fin.drive === undefined ? {} : { drive: fin.drive }) },
   );
   const pIn = ctx.vMax_V * ctx.iMax_A * Math.min(1, w.dMax.hi);
-  const pNominal = nominalDissipation(ctx, timing.figures, fin.losses, load.iOn_A, vSwNom_V, w.f.hi, timing.fCtrl1_Hz);
+  const pNominal = nominalDissipation(
+    ctx,
+    timing.figures,
+    fin.losses,
+    load.iOn_A,
+    vSwNom_V,
+    w.f.hi,
+    timing.fCtrl1_Hz,
+    load.winding,
+  );
 
   const timer = pullInTimer(ctx, timing, load.pullIn, prot.parts, vSwNom_V);
   const rawParts: Part[] = [
@@ -205,7 +218,7 @@ function sizeInner(spec: VariantSpec): SizedVariant {
     const note = review.partNotes.get(p.role);
     return note === undefined ? p : { ...p, notes: [...(p.notes ?? []), note] };
   });
-  const driverLoss = driverLoss_W(parts, [...fin.losses, ...coreLosses], ctx, Math.min(1, w.dMax.hi));
+  const driverLoss = driverLoss_W(parts, [...finLosses, ...coreLosses], ctx, Math.min(1, w.dMax.hi));
   const efficiency = Math.max(0, 1 - driverLoss / pIn);
   const circuit = assembleCircuit(parts, {
     supply_V: spec.supply_V,
@@ -264,7 +277,10 @@ function sizeInner(spec: VariantSpec): SizedVariant {
             pNominal,
             "W",
             "thermal",
-            "P = I_on·V_sw,nom·D_max,nom (MOSFET I_on²·R_DS(on),nom·D) + k·V_nom·I_on·(t_on,nom + t_off,nom)·f_nom",
+            load.winding === undefined
+              ? "P = I_on·V_sw,nom·D_max,nom (MOSFET I_on²·R_DS(on),nom·D) + k·V_nom·I_on·(t_on,nom + t_off,nom)·f_nom"
+              : "P = I_on·V_sw,nom·D (MOSFET I_rms,on²·R_DS(on),nom·D) + ½·V_nom·(I_valley·t_on + I_peak·t_off)·f + " +
+                  "V_nom·Q_rr(I_valley)·f, from the winding's waveform at control 1",
             "derived",
           ),
         ]),
@@ -353,6 +369,7 @@ function nominalDissipation(
   vSwNom_V: number,
   fMax_Hz: number,
   fCtrl1_Hz: number,
+  winding?: WindingWaveform,
 ): number | undefined {
   const dMax = timingFigures.find((f) => f.key === "duty_max")?.value;
   // The frequency of the run the figure is compared with (control at 1), not at mid control: with
@@ -364,15 +381,30 @@ function nominalDissipation(
   const power = losses.find((l) => l.isPower);
   if (dMax === undefined || fNom === undefined || power === undefined || !(ctx.iMax_A > 0) || !(fMax_Hz > 0))
     return undefined;
-  const pCond = power.family === "mosfet" ? iOn_A * iOn_A * (vSwNom_V / ctx.iNom_A) * dMax : iOn_A * vSwNom_V * dMax;
   const pBase = (power.pBaseNom_W ?? 0) * dMax;
   // Voltage the switch holds while its current ramps: an LED string's forward voltage is not across
   // it (the string's current starts at its knee); inductive loads clamp at the supply.
   const vOverlap_V = ctx.load.inductive ? ctx.vNom_V : Math.max(0, ctx.vNom_V - ctx.load.vf_V);
+  const scaled = (i_A: number): number =>
+    (power.pSw_W * (ctx.vNom_V * i_A * fNom)) / (ctx.vMax_V * ctx.iMax_A * fMax_Hz);
+  if (winding !== undefined) {
+    const t = windingSwitchTerms(winding, power, {
+      v_V: vOverlap_V,
+      vSw_V: vSwNom_V,
+      rOn_ohm: vSwNom_V / ctx.iNom_A,
+      duty: dMax,
+      f_Hz: fNom,
+      kind: ctx.switching,
+      freewheel: ctx.spec.devices.freewheel_diode as DiodeClass | undefined,
+      scaled,
+    });
+    return t.cond_W + pBase + t.sw_W + t.rr_W;
+  }
+  const pCond = power.family === "mosfet" ? iOn_A * iOn_A * (vSwNom_V / ctx.iNom_A) * dMax : iOn_A * vSwNom_V * dMax;
   const pSw =
     power.tNom_s !== undefined
       ? switchingLoss_W(vOverlap_V, iOn_A, power.tNom_s.on, power.tNom_s.off, fNom, ctx.switching)
-      : (power.pSw_W * (ctx.vNom_V * iOn_A * fNom)) / (ctx.vMax_V * ctx.iMax_A * fMax_Hz);
+      : scaled(iOn_A);
   return pCond + pBase + pSw;
 }
 

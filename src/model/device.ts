@@ -44,6 +44,8 @@ export interface GainPoint {
   ic_A: number;
   min: number;
   typ?: number;
+  /** Registered maximum at this point (the top of the type's gain spread), where the data give one. */
+  max?: number;
 }
 /** Saturation voltage, specified at forced gain ic/ib. */
 export interface SatPoint {

@@ -78,6 +78,13 @@ function bjtData(dev: BjtClass, report: Report): void {
         "typ must be at least min; check the datasheet values",
       );
     }
+    if (p.max !== undefined && p.max < (p.typ ?? p.min)) {
+      report(
+        `/hfe/${i}/max`,
+        `maximum gain ${p.max} is below the ${p.typ !== undefined ? "typical" : "minimum"} gain ${p.typ ?? p.min}`,
+        "max must be at least typ and min; check the datasheet values",
+      );
+    }
   });
   dev.vce_sat.forEach((p, i) => {
     if (p.ib_A >= p.ic_A) {

@@ -3,7 +3,7 @@
  * The forward law is the engine's (src/engine/shared/diode.ts diodeClassLaw): printed, not re-derived.
  */
 import type { DiodeClass, ZenerClass } from "../model/device.ts";
-import { diodeCj_F, diodeClassLaw } from "../engine/shared/diode.ts";
+import { diodeCj_F, diodeClassLaw, diodeTransitTime_s } from "../engine/shared/diode.ts";
 import { NOMINAL_TEMP_C } from "../engine/shared/temperature.ts";
 import { card } from "./spice-card.ts";
 import { spiceModelName } from "./spice-num.ts";
@@ -11,11 +11,8 @@ import { spiceModelName } from "./spice-num.ts";
 export function diodeModel(dev: DiodeClass): string {
   const law = diodeClassLaw(dev);
   const cjo = diodeCj_F(dev);
-  // Charge control: Q = TT·I_F leaves at I_R = I_F in t_s = TT·ln(1 + I_F/I_R) = TT·ln2
-  // (Kuno's storage-time relation, from memory), so TT = t_rr/ln2 for the I_F = I_R test. A Schottky
-  // diode stores no minority charge (common practice): its data-sheet t_rr is the junction
-  // capacitance's discharge, which CJO already models, so TT = 0.
-  const tt_s = dev.recovery === "schottky" ? 0 : dev.trr_s / Math.LN2;
+  // The engine's recovery loss uses the same transit time.
+  const tt_s = diodeTransitTime_s(dev);
   return card(spiceModelName(dev.id), "D", [
     ["IS", law.is_A],
     ["N", law.n],

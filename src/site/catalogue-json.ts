@@ -85,8 +85,18 @@ export function catalogueJson(cat: BuiltCatalogue): object {
   };
 }
 
+/**
+ * The text of `catalogue.json`: indented, except that each variant's entry is one line (a program
+ * reads it; a person greps it), which keeps the file a fifth smaller for a large catalogue.
+ */
 export function catalogueJsonText(cat: BuiltCatalogue): string {
-  return `${JSON.stringify(catalogueJson(cat), null, 2)}\n`;
+  const whole = catalogueJson(cat) as { variants: object[] };
+  const variants = whole.variants;
+  const marker = "\u0001variants\u0001";
+  const list = variants.length ? `[\n${variants.map((v) => `    ${JSON.stringify(v)}`).join(",\n")}\n  ]` : "[]";
+  // The same keys in the same order, the variants replaced by a marker for their lines.
+  const outline = JSON.stringify({ ...whole, variants: marker }, null, 2);
+  return `${outline.replace(JSON.stringify(marker), () => list)}\n`;
 }
 
 /**
@@ -99,9 +109,8 @@ export class CatalogueJsonWriter {
 
   addDesign(d: BuiltDesign): void {
     this.designs.push(catalogueDesignRow(d));
-    // An array element sits two levels deep in the file: its inner lines are indented by four more spaces.
-    for (const v of d.variants)
-      this.variants.push(`    ${JSON.stringify(catalogueVariantRow(v, d), null, 2).replace(/\n/g, "\n    ")}`);
+    // One line per variant, indented as an element two levels deep (catalogueJsonText).
+    for (const v of d.variants) this.variants.push(`    ${JSON.stringify(catalogueVariantRow(v, d))}`);
   }
 
   text(head: Pick<BuiltCatalogue, "builtAt" | "version" | "policy" | "summary">): string {

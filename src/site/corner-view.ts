@@ -100,43 +100,46 @@ function panel(corners: readonly CornerResult[], pick: (c: CornerCheck) => boole
   hi += pad;
   const y = (x: number): number => fin(PAD.t + (H - PAD.t - PAD.b) * (1 - (x - lo) / (hi - lo)), title);
   const dx = (W - PAD.l - PAD.r) / corners.length;
-  const out: string[] = [
-    `<g transform="translate(${x0} 0)">`,
-    `<rect x="0.5" y="0.5" width="${W - 1}" height="${H - 1}" fill="none" stroke="#999"/>`,
-    `<text x="${W / 2}" y="12" text-anchor="middle" font-size="9">${xmlEscape(title)}</text>`,
-  ];
+  // Shapes of one kind share their style on a group rather than repeating it on every shape (the
+  // plot sits inline on every simulated variant's page); bars, rings and dots of neighbouring
+  // corners never overlap, so drawing kind by kind looks the same as drawing corner by corner.
+  const labels: string[] = [];
+  const allowances: string[] = [];
+  const bars: string[] = [];
+  const rings: string[] = [];
+  const dots: string[] = [];
   pts.forEach((c, i) => {
-    const cx = PAD.l + dx * (i + 0.5);
-    const k = corners[i]!;
-    out.push(
-      `<text x="${cx.toFixed(1)}" y="${H - 14}" text-anchor="middle" font-size="7">${xmlEscape(SHORT[k.name])}</text>`,
-    );
+    const cx = (PAD.l + dx * (i + 0.5)).toFixed(1);
+    labels.push(`<text x="${cx}" y="${H - 14}">${xmlEscape(SHORT[corners[i]!.name])}</text>`);
     if (c === undefined) return;
     const top = y(c.hi);
     const bottom = c.lo === null ? H - PAD.b : y(c.lo);
     // The allowance beyond the range (the comparison's model tolerance), dashed.
     const aTop = y(c.hi + c.allow);
     const aBottom = c.lo === null ? bottom : y(c.lo - c.allow);
-    out.push(
-      `<rect x="${(cx - 6).toFixed(1)}" y="${aTop.toFixed(1)}" width="12" ` +
-        `height="${Math.max(1, aBottom - aTop).toFixed(1)}" fill="none" stroke="#5b8db8" stroke-width="0.5" ` +
-        `stroke-dasharray="2 1.5"/>`,
+    const x = Number(cx);
+    allowances.push(
+      `<rect x="${(x - 6).toFixed(1)}" y="${aTop.toFixed(1)}" width="12" ` +
+        `height="${Math.max(1, aBottom - aTop).toFixed(1)}"/>`,
     );
-    out.push(
-      `<rect x="${(cx - 4).toFixed(1)}" y="${top.toFixed(1)}" width="8" ` +
-        `height="${Math.max(1, bottom - top).toFixed(1)}" fill="#cfe3f3" stroke="#5b8db8" stroke-width="0.6"/>`,
+    bars.push(
+      `<rect x="${(x - 4).toFixed(1)}" y="${top.toFixed(1)}" width="8" ` +
+        `height="${Math.max(1, bottom - top).toFixed(1)}"/>`,
     );
-    if (c.predicted !== undefined)
-      out.push(
-        `<circle cx="${cx.toFixed(1)}" cy="${y(c.predicted).toFixed(1)}" r="3.2" fill="none" ` +
-          `stroke="#444" stroke-width="0.8"/>`,
-      );
-    out.push(
-      `<circle cx="${cx.toFixed(1)}" cy="${y(c.simulated).toFixed(1)}" r="2" fill="${c.ok ? "#1b6e2d" : "#b3261e"}"/>`,
-    );
+    if (c.predicted !== undefined) rings.push(`<circle cx="${cx}" cy="${y(c.predicted).toFixed(1)}" r="3.2"/>`);
+    dots.push(`<circle cx="${cx}" cy="${y(c.simulated).toFixed(1)}" r="2"${c.ok ? "" : ' fill="#b3261e"'}/>`);
   });
-  out.push("</g>");
-  return out.join("");
+  return (
+    `<g transform="translate(${x0} 0)">` +
+    `<rect x="0.5" y="0.5" width="${W - 1}" height="${H - 1}" fill="none" stroke="#999"/>` +
+    `<text x="${W / 2}" y="12" text-anchor="middle" font-size="9">${xmlEscape(title)}</text>` +
+    `<g text-anchor="middle" font-size="7">${labels.join("")}</g>` +
+    `<g fill="none" stroke="#5b8db8" stroke-width="0.5" stroke-dasharray="2 1.5">${allowances.join("")}</g>` +
+    `<g fill="#cfe3f3" stroke="#5b8db8" stroke-width="0.6">${bars.join("")}</g>` +
+    `<g fill="none" stroke="#444" stroke-width="0.8">${rings.join("")}</g>` +
+    `<g fill="#1b6e2d">${dots.join("")}</g>` +
+    `</g>`
+  );
 }
 
 /** Frequency and duty across the corners (each duty against the range of its control position). */

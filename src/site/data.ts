@@ -8,6 +8,7 @@ import { chooserViewOf, type ChooserView } from "./view-chooser.ts";
 import { compareTables, type CompareTable } from "./view-compare.ts";
 import { sizeOwnView, type SizeOwnView } from "./view-size-own.ts";
 import { sourcesView, type SourcesView } from "./bibliography.ts";
+import { FormulaIndex, type FormulasView } from "./formulas-view.ts";
 
 /** A design page: the design view plus the chain comparison and the "size your own" form. */
 export type DesignPageView = DesignView & { compare: CompareTable[]; syo: SizeOwnView | null };
@@ -56,6 +57,8 @@ export interface SiteView {
   variants: VariantView[];
   /** The one sources page every citation links to. */
   sources: SourcesView;
+  /** The one formulas page every figure links to. */
+  formulas: FormulasView;
 }
 
 /** A title inside a sentence: its first letter lower-cased unless the first word is an initialism ("LED"). */
@@ -135,11 +138,15 @@ export function homeView(
 
 export function buildSiteView(cat: BuiltCatalogue): SiteView {
   const pages = cat.designs.map((d) => designPageViews(d, cat));
+  const variants = cat.designs.flatMap((d) => d.variants.map((v) => variantView(v, d, cat)));
+  const formulas = new FormulaIndex();
+  for (const d of cat.designs) for (const v of d.variants) formulas.add(v.sized.figures, v.sized.checks);
   return {
     home: homeView(cat, cat.designs.map(homeDesignRow), cat.designs.flatMap(chooserEntries)),
     designs: pages.map((p) => p.page),
     groups: pages.flatMap((p) => p.groups),
-    variants: cat.designs.flatMap((d) => d.variants.map((v) => variantView(v, d, cat))),
+    variants,
     sources: sourcesView(),
+    formulas: formulas.view(),
   };
 }

@@ -9,6 +9,25 @@ declare module "@11ty/eleventy" {
     setNunjucksEnvironmentOptions(options: Record<string, unknown>): void;
     setDataFileBaseName?(name: string): void;
     on(event: string, fn: (arg: { directories: { output: string } }) => unknown): void;
+    /** Emitted once a Nunjucks engine is set up: the library and the environment it renders with. */
+    on(event: "eleventy.engine.njk", fn: (arg: { nunjucks: NunjucksLib; environment: unknown }) => unknown): void;
+    /** Overrides how a template language compiles (here: njk, to keep one compiled template per file). */
+    addExtension(
+      ext: string,
+      options: {
+        compile(str: string, inputPath: string): (data: object) => Promise<string>;
+        compileOptions?: { permalink?: (str: string, inputPath: string) => (data: object) => Promise<string> };
+      },
+    ): void;
+  }
+  /** The part of the Nunjucks library the compile cache uses. */
+  export interface NunjucksLib {
+    Template: new (
+      src: string,
+      env: unknown,
+      path: string,
+      eagerCompile: boolean,
+    ) => { render(ctx: object, cb: (err: Error | null, out: string) => void): void };
   }
   export interface EleventyResult {
     inputPath: string;

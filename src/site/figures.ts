@@ -2,6 +2,7 @@ import { SOURCES, sourceUrl } from "../engine/shared/sources.ts";
 import type { Figure } from "../model/figure.ts";
 import { formatPercent, formatValue } from "../model/format.ts";
 import { KEY_FIGURES } from "../model/sized.ts";
+import { formulaId, formulaUrl } from "./basis.ts";
 
 /**
  * How one number is printed. Duty figures and other shares are ratios (unit "") in the engine and
@@ -20,12 +21,19 @@ export function displayNumber(value: number, unit: string, key = ""): string {
 export interface FigureRow {
   key: string;
   label: string;
-  /** Raw value (also printed as a data attribute, so a reader can check it against the JSON). */
+  /** Raw value (the page prints `text`; the variant JSON beside it holds this). */
   value: number;
   unit: string;
   text: string;
   range: string; // "" when the figure has no worst-case range
   formula: string;
+  /**
+   * Anchor of the formula on the shared formulas page (formulas-view.ts): the page links the row
+   * there instead of printing the formula and its source in every row of every page.
+   */
+  formulaId: string;
+  /** That entry's URL, relative to the site root. */
+  formulaUrl: string;
   /** Bibliography key, its short citation, and its anchor on the sources page (root-relative). */
   source: string;
   sourceTitle: string;
@@ -51,6 +59,7 @@ export function confidenceWord(c: string): string {
 }
 
 export function figureRow(f: Figure): FigureRow {
+  const id = formulaId(f);
   return {
     key: f.key,
     label: f.label,
@@ -59,6 +68,8 @@ export function figureRow(f: Figure): FigureRow {
     text: displayNumber(f.value, f.unit, f.key),
     range: f.range ? `${displayNumber(f.range[0], f.unit, f.key)} … ${displayNumber(f.range[1], f.unit, f.key)}` : "",
     formula: f.formula,
+    formulaId: id,
+    formulaUrl: formulaUrl(id),
     source: f.source,
     sourceTitle: SOURCES[f.source].short,
     sourceUrl: sourceUrl(f.source),

@@ -1,11 +1,15 @@
 import type { BuiltCatalogue, BuiltDesign, BuiltVariant } from "../model/catalogue.ts";
 import { selfCheckJson } from "./selfcheck-view.ts";
+import { BASIS_JSON, formulaId, ruleId } from "./basis.ts";
+import { relativeRoot, variantPage } from "./paths.ts";
 
 /**
  * The downloadable variant record (`<id>.json`): every part, every figure, problems, checks and
- * the verification. Numbers are the engine's, unrounded; the page prints the same numbers (a test
- * parses both and compares). Simulated waveform samples are left out (the plot shows them and the
- * netlist reproduces them); everything else the verifier reported is kept.
+ * the verification. Formulas and derating rules, the same few hundred texts for every variant,
+ * are named here and spelled out once in the site's `basis.json` (formulas-view.ts). Numbers are
+ * the engine's, unrounded; the page prints the same numbers (a test parses both and compares).
+ * Simulated waveform samples are left out (the plot shows them and the netlist reproduces them);
+ * everything else the verifier reported is kept.
  */
 export function variantJson(v: BuiltVariant, d: BuiltDesign, cat: Pick<BuiltCatalogue, "policy">): object {
   const s = v.sized;
@@ -19,6 +23,9 @@ export function variantJson(v: BuiltVariant, d: BuiltDesign, cat: Pick<BuiltCata
   const selfCheck = selfCheckJson(v);
   return {
     id: spec.id,
+    // Each figure's `basis` names its formula, source, confidence and stage, and each check's `rule`
+    // its derating rule, in this file (shared by every variant; a URL relative to this one).
+    basis: `${relativeRoot(variantPage(spec.id))}${BASIS_JSON}`,
     design: { id: d.record.id, title: d.record.title, file: d.file },
     spec: {
       supply_V: spec.supply_V,
@@ -41,10 +48,7 @@ export function variantJson(v: BuiltVariant, d: BuiltDesign, cat: Pick<BuiltCata
       value: f.value,
       unit: f.unit,
       ...(f.range ? { range: f.range } : {}),
-      formula: f.formula,
-      source: f.source,
-      confidence: f.confidence,
-      stage: f.stage,
+      basis: formulaId(f),
     })),
     parts: (s.circuit?.parts ?? []).map((p) => ({
       ref: p.ref,
@@ -65,7 +69,7 @@ export function variantJson(v: BuiltVariant, d: BuiltDesign, cat: Pick<BuiltCata
       pins: p.pins,
     })),
     problems: s.problems,
-    checks: s.checks,
+    checks: s.checks.map(({ source, note, ...c }) => ({ ...c, rule: ruleId(source, note) })),
     heatsink: s.heatsink,
     cautions: s.cautions,
     decisions: s.decisions ?? [],

@@ -44,7 +44,13 @@ export interface VariantView {
   parts: PartRow[];
   /** Heatsink, insulator kit and fuse holder: bought with the parts, drawn in no schematic. */
   mounting: MountingRow[];
-  checks: CheckRow[];
+  /** Each check with the number of its rule in `rules`. */
+  checks: (CheckRow & { rule: number })[];
+  /**
+   * The distinct derating rules the checks apply, each once under the table (a page has a few
+   * dozen checks but only a handful of rules, each a sentence long).
+   */
+  rules: { n: number; sourceTitle: string; sourceUrl: string; note: string }[];
   heatsink: { needed: boolean; text: string };
   problems: { severity: string; rule: string; stage: string; path: string; message: string }[];
   verification: VerificationView;
@@ -87,6 +93,23 @@ function problems(list: readonly DesignProblem[]): VariantView["problems"] {
     .map((p, i) => ({ p, i }))
     .sort((a, b) => SEVERITY_ORDER[a.p.severity] - SEVERITY_ORDER[b.p.severity] || a.i - b.i)
     .map(({ p }) => ({ severity: p.severity, rule: p.rule, stage: p.stage, path: p.path, message: p.message }));
+}
+
+/** Numbers the distinct rules (source and note) in the order the checks first use them. */
+function derating(rows: readonly CheckRow[]): Pick<VariantView, "checks" | "rules"> {
+  const rules: VariantView["rules"] = [];
+  const seen = new Map<string, number>();
+  const checks = rows.map((c) => {
+    const id = `${c.source}\u0000${c.note}`;
+    let n = seen.get(id);
+    if (n === undefined) {
+      n = rules.length + 1;
+      seen.set(id, n);
+      rules.push({ n, sourceTitle: c.sourceTitle, sourceUrl: c.sourceUrl, note: c.note });
+    }
+    return { ...c, rule: n };
+  });
+  return { checks, rules };
 }
 
 export function variantView(
@@ -147,7 +170,7 @@ export function variantView(
         : null,
     parts: (s.circuit?.parts ?? []).map((p) => partRow(p, facts)),
     mounting: s.circuit ? mountingRows({ circuit: s.circuit, heatsink: s.heatsink, verdict: s.verdict }) : [],
-    checks: s.checks.map(checkRow),
+    ...derating(s.checks.map(checkRow)),
     heatsink: { needed: s.heatsink.needed, text: s.heatsink.text },
     problems: problems(s.problems),
     verification: verificationView(v.verification),

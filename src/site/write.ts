@@ -21,6 +21,8 @@ import { catalogueEngine } from "./size-own-data.ts";
 import { CatalogueChecks } from "./validate.ts";
 import { variantJsonText } from "./variant-json.ts";
 import { variantView, type VariantView } from "./view-variant.ts";
+import { FormulaIndex } from "./formulas-view.ts";
+import { BASIS_JSON } from "./basis.ts";
 import type { DesignPageView } from "./data.ts";
 import { BROWSER_SCRIPTS, writeBrowserScripts } from "./bundle.ts";
 import { writeSearchIndex } from "./search-index.ts";
@@ -98,7 +100,8 @@ function variantDownloads(head: CatalogueHead, d: BuiltDesign, vi: number): [str
  */
 async function renderPages(view: SiteView, out: string, opts: WriteSiteOptions, only: "chunk" | "home"): Promise<void> {
   const { default: Eleventy } = await import("@11ty/eleventy");
-  const skip = only === "chunk" ? ["index.njk", "sources.njk"] : ["design.njk", "design-group.njk", "variant.njk"];
+  const skip =
+    only === "chunk" ? ["index.njk", "sources.njk", "formulas.njk"] : ["design.njk", "design-group.njk", "variant.njk"];
   const eleventy = new Eleventy(SITE_INPUT_DIR, out, {
     quietMode: opts.quiet ?? true,
     configPath: "", // no project config file: everything comes from the plugin below
@@ -166,6 +169,9 @@ export async function writeSiteStream(
   const pageHome = homeView({ ...head, summary }, [], []);
   const shared = sharedKeyParts(pageHome, prefix);
   const sources = sourcesView();
+  // Filled as the designs pass; the formulas page and basis.json are written after the last one.
+  const formulaIndex = new FormulaIndex();
+  const noFormulas = new FormulaIndex().view();
 
   const homeRows: HomeView["designs"] = [];
   const chooser: ChooserEntry[] = [];
@@ -173,8 +179,8 @@ export async function writeSiteStream(
   const records: SearchRecord[] = [];
   const designKeys: string[] = [];
   const variantKeys: string[] = [];
-  let pages = 2;
-  let rendered = 2; // home and sources: rendered whenever the site is written
+  let pages = 3;
+  let rendered = 3; // home, sources and formulas: rendered whenever the site is written
 
   let chunk: Pending[] = [];
   let chunkPages = 0;
@@ -214,7 +220,14 @@ export async function writeSiteStream(
     const misses = missDesigns.length + missGroups.length + missVariants.length;
     if (misses > 0)
       await renderPages(
-        { home: pageHome, designs: missDesigns, groups: missGroups, variants: missVariants, sources },
+        {
+          home: pageHome,
+          designs: missDesigns,
+          groups: missGroups,
+          variants: missVariants,
+          sources,
+          formulas: noFormulas,
+        },
         out,
         opts,
         "chunk",
@@ -245,6 +258,7 @@ export async function writeSiteStream(
     }
     const { page: view, groups } = designPageViews(d, { ...(head.engine ? { engine: head.engine } : {}), designs: [] });
     const variants = d.variants.map((v) => variantView(v, d, head));
+    for (const v of d.variants) formulaIndex.add(v.sized.figures, v.sized.checks);
     const designKey = designPageKey(shared, view);
     const groupKeys = groups.map((g) => groupPageKey(shared, g));
     const part = designKeyPart(d, head.policy);
@@ -265,10 +279,12 @@ export async function writeSiteStream(
 
   const totals = head.summary ?? summary;
   const home = homeView({ ...head, summary: totals }, homeRows, chooser);
-  await renderPages({ home, designs: [], groups: [], variants: [], sources }, out, opts, "home");
+  const formulas = formulaIndex.view();
+  await renderPages({ home, designs: [], groups: [], variants: [], sources, formulas }, out, opts, "home");
   records.unshift(homeRecord(home), sourcesRecord(sources));
 
   await writeFile(path.join(out, "catalogue.json"), json.text({ ...head, summary: totals }), "utf8");
+  await writeFile(path.join(out, BASIS_JSON), formulaIndex.jsonText(), "utf8");
   await mkdir(path.join(out, "assets"), { recursive: true });
   for (const name of (await readdir(ASSETS_DIR)).sort())
     await copyFile(path.join(ASSETS_DIR, name), path.join(out, "assets", name));

@@ -61,7 +61,11 @@ describe("R2 — 24 V 2 A darlington-2, motor (15 kHz): too slow to turn off for
     // for D = duty_max; the current freewheels through the diode for 1 − D:
     // E = D·(24 − V_sw,nom) − (1 − D)·V_F − 2 A·3 Ω (Mohan, Undeland, Robbins 3rd ed. ch. 7, from memory),
     // V_sw,nom ≈ 1.454 V checked above.
-    expectClose(fig(s, "load_current_on"), 2, 1e-12, "constant-torque load at rated current");
+    // The on-state reading is the mean over the middle of the on time: at 15 kHz with L/R = 1 ms the
+    // ramp is nearly straight (Δi ≈ (22.55 − 13.1 − 6) V·56.7 µs/3 mH ≈ 65 mA), so the reading is
+    // the ramp's midpoint, the average, within 0.1 % (the exact waveform's curvature; derived).
+    expectClose(fig(s, "load_current_on"), 2, 1e-3, "constant-torque load at rated current");
+    expect(fig(s, "winding_discontinuous")).toBe(0);
     const d = fig(s, "duty_max");
     const fw = s.spec.devices.freewheel_diode as { vf_V: number; vf_at_A: number; recovery: string };
     // class law at 25 °C (Shockley with RS, as the diode card): through V_F,max at its test current,

@@ -57,7 +57,10 @@ describe("escaping of record text", () => {
     const cat = hostileCatalogue();
     const id = cat.designs[0]!.variants[0]!.sized.spec.id;
     const html = await read(site.dir, `variants/${id}/index.html`);
-    for (const word of ["Label", "f", "Caution", "Problem", "Part"])
-      expect(html, word).toContain(`${word} &lt;script&gt;`);
+    for (const word of ["Label", "Caution", "Problem", "Part"]) expect(html, word).toContain(`${word} &lt;script&gt;`);
+    // The formula is printed once, on the shared formulas page the figure links to.
+    const formulas = await read(site.dir, "formulas/index.html");
+    expect(formulas).toContain("f &lt;script&gt;");
+    expect(formulas).toContain("Label &lt;script&gt;");
   });
 });

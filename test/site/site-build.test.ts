@@ -28,8 +28,8 @@ describe("files of the built site", () => {
     expect(files).toContain("assets/site.css");
     for (const d of cat.designs) expect(files).toContain(`designs/${d.record.id}/index.html`);
     for (const v of variants) expect(files).toContain(`variants/${v.sized.spec.id}/index.html`);
-    expect(files.filter((f) => f.endsWith(".html"))).toHaveLength(2 + cat.designs.length + variants.length);
-    const pages = 2 + cat.designs.length + variants.length;
+    expect(files.filter((f) => f.endsWith(".html"))).toHaveLength(3 + cat.designs.length + variants.length);
+    const pages = 3 + cat.designs.length + variants.length;
     expect(site.result).toEqual({ pages, files: files.length, rendered: pages, searchIndex: "built" });
   });
 
@@ -103,7 +103,7 @@ describe("links", () => {
   it("every page parses as HTML and every internal link and resource resolves inside the site", async () => {
     const report = await auditSite(site.dir);
     expect(report.findings).toEqual([]);
-    expect(report.pages).toBe(2 + cat.designs.length + variants.length);
+    expect(report.pages).toBe(3 + cat.designs.length + variants.length);
     expect(report.links).toBeGreaterThan(50); // the audit really walked the pages
   });
 
@@ -121,16 +121,13 @@ describe("variant pages print the numbers of their JSON download", () => {
     it(`${id}: every figure and every comparison`, async () => {
       const html = await read(site.dir, `variants/${id}/index.html`);
       const json = JSON.parse(await read(site.dir, `variants/${id}/${id}.json`));
-      const cells = [
-        ...html.matchAll(/<td class="num" data-key="([^"]+)" data-value="([^"]+)" data-unit="([^"]*)">([^<]*)<\/td>/g),
-      ];
+      const cells = [...html.matchAll(/<td class="num" data-key="([^"]+)">([^<]*)<\/td>/g)];
       expect(cells.map((m) => m[1])).toEqual(expect.arrayContaining(json.figures.map((f: { key: string }) => f.key)));
       expect(cells).toHaveLength(json.figures.length);
-      for (const [, key, value, unit, text] of cells) {
+      // The page prints each number once, formatted; the JSON beside it holds the unrounded value.
+      for (const [, key, text] of cells) {
         const f = json.figures.find((x: { key: string }) => x.key === key);
-        expect(Number(value), key).toBe(f.value);
-        expect(unescapeHtml(unit!)).toBe(f.unit);
-        expect(unescapeHtml(text!)).toBe(displayNumber(f.value, f.unit, f.key));
+        expect(unescapeHtml(text!), key).toBe(displayNumber(f.value, f.unit, f.key));
       }
       const rows = [
         ...html.matchAll(
@@ -147,6 +144,46 @@ describe("variant pages print the numbers of their JSON download", () => {
     });
   }
 
+  it("every figure links to its formula and source on the formulas page; every check to its rule", async () => {
+    const formulas = unescapeHtml(await read(site.dir, "formulas/index.html"));
+    const entry = (id: string): string => {
+      const at = formulas.indexOf(`<dt id="${id}">`);
+      expect(at, id).toBeGreaterThan(0);
+      return formulas.slice(at, formulas.indexOf("</dd>", at));
+    };
+    for (const v of variants) {
+      const id = v.sized.spec.id;
+      const html = unescapeHtml(await read(site.dir, `variants/${id}/index.html`));
+      const json = JSON.parse(await read(site.dir, `variants/${id}/${id}.json`));
+      const links = [...html.matchAll(/data-key="([^"]+)">[^]*?href="\.\.\/\.\.\/formulas\/index\.html#([^"]+)"/g)];
+      expect(links).toHaveLength(json.figures.length);
+      for (const [, key, anchor] of links) {
+        // The engine's figure, not the JSON's: the page, the JSON and basis.json must all lead back to it.
+        const f = v.sized.figures.find((x) => x.key === key)!;
+        expect(json.figures.find((x: { key: string }) => x.key === key).basis).toBe(anchor);
+        const e = entry(anchor!);
+        expect(e).toContain(`<code>${f.formula}</code>`);
+        expect(e).toContain(`href="../sources/index.html#${f.source}"`);
+        expect(e).toContain(f.label);
+      }
+      const rules = new Map(
+        [
+          ...html.matchAll(
+            /<li id="rule-(\d+)"><a href="\.\.\/\.\.\/sources\/index\.html#([^"]+)">[^<]*<\/a>(?:: ([^<]*))?<\/li>/g,
+          ),
+        ].map((m) => [m[1]!, { source: m[2]!, note: m[3] ?? "" }]),
+      );
+      const used = [...html.matchAll(/<td><a href="#rule-(\d+)">\d+<\/a><\/td><\/tr>/g)].map((m) => m[1]!);
+      expect(used).toHaveLength(v.sized.checks.length);
+      used.forEach((n, i) => {
+        expect(rules.get(n), `${id} check ${i}`).toEqual({
+          source: v.sized.checks[i]!.source,
+          note: v.sized.checks[i]!.note ?? "",
+        });
+      });
+    }
+  });
+
   it("the JSON holds every part with value, rating, stress, device class and minimum gain", async () => {
     const v = variants[0]!;
     const json = JSON.parse(await read(site.dir, `variants/${v.sized.spec.id}/${v.sized.spec.id}.json`));
@@ -162,8 +199,30 @@ describe("variant pages print the numbers of their JSON download", () => {
       device: q.device,
       gain_min: q.gain_min,
     });
-    expect(json.checks).toEqual(v.sized.checks);
     expect(json.problems).toEqual(v.sized.problems);
+  });
+
+  it("the JSON names each figure's formula and each check's rule, and basis.json spells them out", async () => {
+    const basis = JSON.parse(await read(site.dir, "basis.json"));
+    for (const v of variants) {
+      const id = v.sized.spec.id;
+      const json = JSON.parse(await read(site.dir, `variants/${id}/${id}.json`));
+      expect(json.basis).toBe("../../basis.json");
+      expect(json.figures).toHaveLength(v.sized.figures.length);
+      v.sized.figures.forEach((f, i) => {
+        const { formula, source, confidence, stage, ...rest } = f;
+        const j = json.figures[i];
+        expect({ ...j, basis: undefined }).toEqual({ ...rest, basis: undefined });
+        expect(basis.formulas[j.basis]).toMatchObject({ key: f.key, formula, source, confidence, stage });
+        expect(basis.formulas[j.basis].labels).toContain(f.label);
+      });
+      // Every check as the engine made it, once its rule is looked up.
+      const checks = json.checks.map(({ rule, ...c }: { rule: string }) => {
+        const r = basis.rules[rule];
+        return { ...c, source: r.source, ...(r.note !== "" ? { note: r.note } : {}) };
+      });
+      expect(checks).toEqual(v.sized.checks);
+    }
   });
 });
 

@@ -18,6 +18,7 @@ import { runningCurrentMax_A } from "../stages/context.ts";
 import { startEvent, supplyFuse } from "../stages/protection.ts";
 import { CORE_CURRENT_ESTIMATE_A } from "../stages/reverse.ts";
 import { FREEWHEEL_DROP_V } from "../stages/chains/common.ts";
+import { OVERDRIVE_K } from "../stages/context.ts";
 
 /** Candidate classes per role in order of preference (documented in docs/method.md). */
 export const DEFAULT_DEVICE_IDS: Readonly<Record<DeviceRole, readonly string[]>> = {
@@ -119,6 +120,11 @@ interface Need {
    * V_cc,max.
    */
   driverVOff_V: number;
+  /**
+   * Stages of the Darlington the driver class may serve (the chain's, or the most of the record's
+   * chains when none is given); 0 when it serves none.
+   */
+  darlington: 0 | 2 | 3;
   /**
    * Largest clearing I²t of the supply fuse over the record's load kinds (0 when no fuse fits: the engine reports it).
    */
@@ -251,6 +257,21 @@ export function zenerWhyNot(d: ZenerClass, n: Pick<Need, "vMin_V" | "vMax_V">): 
  * the two currents (β_min from the class's gain points). Ratings: 75 % selection headroom on
  * current and voltage, and free-air T_J at full duty (common practice).
  */
+/**
+ * Start-up peak a Darlington's driver class would carry (0 outside a Darlington), as darlington.ts
+ * innerPeaks bounds it, estimated ahead of sizing: the power stage's share of the load's peak at its
+ * β_min there; in the two-stage stack also at most what the tap's drive lets through — about
+ * OVERDRIVE_K × the running need, × the driver's gain spread (max/min), × V_cc,max/V_cc,min. In the
+ * three-stage stack the first stage's spread multiplies that again, so the peak's share stands.
+ */
+function driverPeak_A(d: BjtClass, power: BjtClass, n: Need): number {
+  if (n.darlington === 0) return 0;
+  const share = (i_A: number): number => (DARLINGTON_DRIVER_FACTOR * i_A) / hfeMin(power, i_A, n.ambientMin_C);
+  const spread = Math.max(0, ...d.hfe.map((p) => (p.max === undefined ? 0 : p.max / p.min)));
+  if (n.darlington === 3 || spread === 0) return share(n.peak_A);
+  return Math.min(share(n.peak_A), OVERDRIVE_K * spread * (n.vMax_V / n.vMin_V) * share(n.iRunMax_A));
+}
+
 export function pickDriver(cands: BjtClass[], power: BjtClass, n: Need): BjtClass | undefined {
   const iPnp = n.load_A * pnpDriverShare(n);
   const iDar = (DARLINGTON_DRIVER_FACTOR * n.load_A) / hfeMin(power, n.load_A, n.ambientMin_C);
@@ -261,6 +282,7 @@ export function pickDriver(cands: BjtClass[], power: BjtClass, n: Need): BjtClas
     // Darlington first stage: V_CE = V_CE(sat) of the stage before + its own V_BE(sat) (the engine's model).
     const p_W = Math.max(iPnp * vceSat(d, iPnp), iDar * (DARLINGTON_DRIVE_SAT_V + vbeSat(d, iDar)));
     if (d.ic_max_A * SWITCH_HEADROOM < iMax || d.vceo_V * SWITCH_HEADROOM < vMax || !freeAirOk(d, p_W, n)) continue;
+    if ((d.icm_A ?? d.ic_max_A) < driverPeak_A(d, power, n)) continue;
     const g = Math.min(hfeMin(d, iPnp, n.ambientMin_C), hfeMin(d, iDar, n.ambientMin_C));
     if (best === undefined || g > best.g) best = { d, g };
   }
@@ -274,6 +296,12 @@ function checkFamily(role: DeviceRole, d: DeviceClass, how: string): DeviceClass
     );
   }
   return d;
+}
+
+/** Most stages of a Darlington among the chains (0: none is a Darlington). */
+function darlingtonStages(chains: readonly ChainKind[]): 0 | 2 | 3 {
+  if (chains.includes("darlington-3")) return 3;
+  return chains.includes("darlington-2") ? 2 : 0;
 }
 
 /**
@@ -327,12 +355,10 @@ export function chooseDevicesWithReasons(
     };
   });
   const fuseClearing_A2s = Math.max(0, ...starts.map((x) => x.clearing_A2s));
+  const darlington = darlingtonStages(chain === undefined ? record.axes.chain : [chain]);
   const need: Need = {
-    driverVOff_V:
-      (chain === undefined ? record.axes.chain : [chain]).some((c) => c.startsWith("darlington")) &&
-      starts.some((x) => x.inductive)
-        ? w.max_V + FREEWHEEL_DROP_V
-        : w.max_V,
+    darlington,
+    driverVOff_V: darlington && starts.some((x) => x.inductive) ? w.max_V + FREEWHEEL_DROP_V : w.max_V,
     fuseClearing_A2s,
     iRunMax_A: Math.max(...starts.map((x) => x.iRun_A)),
     dutyMin: record.targets.duty_min,

@@ -77,6 +77,16 @@ export function diodeClassVf_V(dev: DiodeClass, i_A: number, t_C: number): numbe
 }
 
 /**
+ * Transit time τ_T of a diode class (the SPICE card's TT): charge control, Q = τ_T·I_F leaves at
+ * I_R = I_F in t_s = τ_T·ln(1 + I_F/I_R) = τ_T·ln 2 (Kuno's storage-time relation, from memory), so
+ * τ_T = t_rr/ln 2 for the I_F = I_R test. A Schottky diode stores no minority charge (common
+ * practice): its data-sheet t_rr is the junction capacitance's discharge, which CJO models, so 0.
+ */
+export function diodeTransitTime_s(dev: DiodeClass): number {
+  return dev.recovery === "schottky" ? 0 : dev.trr_s / Math.LN2;
+}
+
+/**
  * Zero-bias junction capacitance of a diode class, F — one figure shared by the engine (base-diode
  * injection into a floating base) and the netlist's diode card (CJO): small-signal diodes
  * (< 0.5 A) ≈ 4 pF, larger p-n rectifiers ≈ 15 pF, Schottky ≈ 100 pF per ampere of rating

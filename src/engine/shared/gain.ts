@@ -127,6 +127,21 @@ export function hfeMin(dev: BjtClass, ic_A: number, tj_C: number): number {
 }
 
 /**
+ * Highest gain a part of the class can have at ic_A and T_J: the minimum-gain curve scaled by the
+ * class's registered spread (the largest max/min of its gain points), with hfeMin's temperature law
+ * (gain rises when hot). Data sheets draw one normalised h_FE curve for every gain group of a type,
+ * so the spread holds along the curve (from memory). null when no point gives a maximum: the class
+ * then gives no upper bound and a caller must not assume one.
+ */
+export function hfeMax(dev: BjtClass, ic_A: number, tj_C: number): number | null {
+  checkTemp(dev, tj_C, "hfeMax");
+  const spreads = dev.hfe.flatMap((p) => (p.max === undefined ? [] : [p.max / p.min]));
+  if (spreads.length === 0) return null;
+  const t = Math.max(1, 1 + dev.hfe_tempco_perK * (tj_C - NOMINAL_TEMP_C));
+  return hfeNominal(dev, ic_A, "min") * Math.max(...spreads) * t;
+}
+
+/**
  * The gain's temperature law as a SPICE card carries it: BF(T) = BF·(T/T_nom)^XTB (Gummel–Poon
  * temperature scaling, Antognetti & Massobrio 2nd ed. ch. 2 [src:antognetti-massobrio-2e]). XTB is
  * chosen so that its slope at the nominal temperature is the class's linear coefficient used by

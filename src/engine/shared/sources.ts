@@ -365,6 +365,13 @@ export const SOURCES = {
       "D·(V − V_sw) − (1 − D)·V_F = E + I·R, which gives the back-EMF at a duty and current.",
     values: [
       { item: "averaged winding balance", value: "D·(V − V_sw) − (1 − D)·V_F = E + I·R", sureness: "from-memory" },
+      {
+        item: "discontinuous conduction",
+        value:
+          "when the freewheeling current reaches zero before the next period the winding rests at E, so the " +
+          "averaged balance no longer holds; the engine solves the exact waveform instead (derived)",
+        sureness: "from-memory",
+      },
     ],
   },
   "horowitz-hill-3e": {

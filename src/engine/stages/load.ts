@@ -5,7 +5,8 @@
  *   LED strip:    R·I + N·V_T·ln(1 + I/IS) = V_cc − V_sw, the string's diode law given to the
  *                 netlist in spice.is_A / spice.n (one source of truth);
  *   motor:        constant-torque load at its rated current; the back-EMF E at the duty of
- *                 control 1 (spice.vf_V) follows from the average winding balance.
+ *                 control 1 (spice.vf_V) is where the winding's exact period-average current is
+ *                 the rated one, in continuous or discontinuous conduction (shared/winding.ts).
  * A load the switch's drop starves (below STARVED_FRACTION of rated) is an error.
  */
 import type { DiodeClass } from "../../model/device.ts";
@@ -17,7 +18,8 @@ import { figure, problem } from "../shared/figures.ts";
 import { type Ctx, loadCurrentOn_A } from "./context.ts";
 import { diodeClassVf_V, diodeSeriesCurrent_A, ledStringLaw } from "../shared/diode.ts";
 import { NOMINAL_TEMP_C } from "../shared/temperature.ts";
-import { STARVED_FRACTION, motorEmf_V } from "./load-point.ts";
+import { STARVED_FRACTION } from "./load-point.ts";
+import { type WindingWaveform, motorEmfAtCurrent_V, windingWaveform } from "../shared/winding.ts";
 import { solenoidScheme } from "./solenoid.ts";
 
 const KIND: Record<string, PartKind> = {
@@ -30,16 +32,9 @@ const KIND: Record<string, PartKind> = {
 const pct = (x: number): string => `${(x * 100).toFixed(0)} %`;
 
 /**
- * Largest peak-to-peak winding ripple, relative to the rated current, for which the motor's
- * average model (continuous conduction) is used (ours: the current then never falls below half its
- * average). Found by a record outside the demo: a 12 V fan at 150 Hz with L/R = 1 ms simulated
- * 1.4× the predicted on-current.
- */
-export const MOTOR_RIPPLE_MAX = 1;
-
-/**
  * `dutyOn` is the nominal duty at control 1 (the point the simulation measures on-state values at);
- * `reach` the duty range the control surely reaches over the worst case (solenoid hold).
+ * `reach` the duty range the control surely reaches over the worst case (solenoid hold);
+ * `fOn_Hz` the core's nominal frequency at control 1 (a discontinuous winding's current depends on it).
  */
 export function loadStage(
   ctx: Ctx,
@@ -47,6 +42,7 @@ export function loadStage(
   dutyOn: number,
   reach: { lo: number; hi: number } = { lo: dutyOn, hi: dutyOn },
   vSwMax_V: number = vSwNom_V,
+  fOn_Hz: number = ctx.f_Hz,
 ): {
   part: Part;
   figures: Figure[];
@@ -54,6 +50,8 @@ export function loadStage(
   iOn_A: number;
   /** Solenoid loads: what the pull-in timer must cover (solenoid.ts). */
   pullIn?: { tNeed_s: number; iHoldLow_A: number };
+  /** Motors: the winding current over one period at control 1, nominal supply (shared/winding.ts). */
+  winding?: WindingWaveform;
 } {
   const kind = ctx.spec.load_kind;
   const vLoad_V = ctx.vNom_V - vSwNom_V;
@@ -63,6 +61,7 @@ export function loadStage(
   let share = iOn_A / ctx.iNom_A;
   let what = `draws ${iOn_A.toPrecision(3)} A of its rated ${ctx.iNom_A} A`;
   let emfNote = "";
+  let winding: WindingWaveform | undefined;
   if (kind === "led") {
     // Fitted at the current the netlist fitted it at before (the worst-case current, iMax).
     const law = ledStringLaw(ctx.load.vf_V, ctx.iMax_A);
@@ -72,58 +71,25 @@ export function loadStage(
     what = `draws ${iOn_A.toPrecision(3)} A of its rated ${ctx.iNom_A} A`;
     formula = `R·I + N·V_T·ln(1 + I/IS) = V_cc − V_sw (string diode law, V_T at ${NOMINAL_TEMP_C} °C)`;
   } else if (kind === "motor") {
-    const fw = ctx.spec.devices.freewheel_diode as DiodeClass | undefined;
-    const vf = fw === undefined ? 0 : Math.max(0, diodeClassVf_V(fw, ctx.iNom_A, NOMINAL_TEMP_C));
-    const emf = motorEmf_V(ctx.vNom_V, vSwNom_V, dutyOn, vf, ctx.iNom_A, ctx.load.r_ohm);
-    iOn_A = ctx.iNom_A;
-    spice = { ...spice, vf_V: Math.max(0, emf) };
-    formula = "I = I_rated (constant torque); E = D·(V_cc − V_sw) − (1 − D)·V_F,fw − I·R at control 1";
+    const m = motorOnState(ctx, vLoad_V, dutyOn, fOn_Hz);
+    iOn_A = m.wave?.onReading_A ?? ctx.iNom_A;
+    winding = m.wave;
+    spice = { ...spice, vf_V: Math.max(0, m.emf_V) };
+    formula =
+      "E where the winding's period-average current is I_rated (constant torque), exact R–L–E waveform with " +
+      "the freewheel diode (continuous or discontinuous); I = mean over the middle 60 % of the on time, control 1";
     // Against the supply itself: a series reverse diode's drop (ctx.series) is the load's loss too.
-    share = emf > 0 ? vLoad_V / ctx.supply.nom_V : 0;
+    share = m.emf_V > 0 ? vLoad_V / ctx.supply.nom_V : 0;
     what =
-      emf > 0
+      m.emf_V > 0
         ? `gets ${vLoad_V.toPrecision(3)} V of the ${ctx.supply.nom_V} V supply when on`
-        : `cannot draw its rated ${ctx.iNom_A} A even at the highest duty (back-EMF would be ${emf.toPrecision(3)} V)`;
-    emfNote = ` E = ${Math.max(0, emf).toPrecision(3)} V at D = ${pct(dutyOn)}.`;
+        : `cannot draw its rated ${ctx.iNom_A} A even at the highest duty (back-EMF would be ` +
+          `${m.emf_V.toPrecision(3)} V)`;
+    const mode = m.wave ? `, ${m.wave.mode} current` : "";
+    emfNote = ` E = ${Math.max(0, m.emf_V).toPrecision(3)} V at D = ${pct(dutyOn)}${mode}.`;
   }
   const problems: DesignProblem[] = [];
-  const extra: Figure[] = [];
-  if (kind === "motor") {
-    // The average balance above holds while the winding current flows all period (continuous
-    // conduction). Its peak-to-peak ripple, Δi = (V_load − E − I·R)·D·T/L (the winding's di/dt while on,
-    // linear when T ≪ L/R; derived), must stay well below I: at Δi = I the current dips to half its
-    // average; far beyond, it stops each period and the on-state current is no longer I.
-    const emf = spice.vf_V ?? 0;
-    const ripple_A = ((vLoad_V - emf - ctx.iNom_A * ctx.load.r_ohm) * dutyOn) / (ctx.f_Hz * ctx.load.l_H);
-    const rel = Math.max(0, ripple_A) / ctx.iNom_A;
-    extra.push(
-      figure(
-        "motor_ripple",
-        "Winding current ripple / rated current (control 1)",
-        rel,
-        "",
-        "load",
-        "Δi/I = (V_load − E − I·R)·D/(f·L·I) ≤ 1 (continuous conduction)",
-        "derived",
-      ),
-    );
-    if (rel > MOTOR_RIPPLE_MAX)
-      problems.push(
-        problem(
-          "load",
-          "/parts/LOAD",
-          "motor-current-discontinuous",
-          "error",
-          `At ${ctx.f_Hz} Hz the winding's current ripple is ${rel.toFixed(1)}× its rated ${ctx.iNom_A} A ` +
-            `(L/R = ${((ctx.load.l_H / ctx.load.r_ohm) * 1000).toPrecision(2)} ms against a ` +
-            `${(1000 / ctx.f_Hz).toPrecision(3)} ms period): the current stops each period, and the engine's ` +
-            `average model of the motor (continuous current) does not hold, so its on-current and dissipation ` +
-            `cannot be predicted. Use a PWM frequency of at least ` +
-            `${Math.ceil((ctx.f_Hz * rel) / MOTOR_RIPPLE_MAX)} Hz.`,
-          { limit: MOTOR_RIPPLE_MAX, actual: rel, unit: "" },
-        ),
-      );
-  }
+  const extra: Figure[] = winding === undefined ? [] : windingFigures(winding);
   let pullIn: { tNeed_s: number; iHoldLow_A: number } | undefined;
   if (kind === "solenoid") {
     const fw = ctx.spec.devices.freewheel_diode as DiodeClass | undefined;
@@ -171,6 +137,7 @@ export function loadStage(
     part,
     iOn_A,
     ...(pullIn !== undefined ? { pullIn } : {}),
+    ...(winding !== undefined ? { winding } : {}),
     problems,
     figures: [
       figure(
@@ -197,4 +164,46 @@ export function loadStage(
       ...extra,
     ],
   };
+}
+
+/**
+ * A constant-torque motor at control 1: the back-EMF at which its winding carries the rated current
+ * on average, and the winding's waveform there. The freewheel diode's V_F is its class law at the
+ * rated current (nominal temperature). A motor that cannot carry its rated current even at E = 0
+ * gets no waveform (the starved-load error says why). Its peak current is below the stall current
+ * V/R the protection stage already checks against the switch's pulse rating, so discontinuous
+ * conduction needs no rule of its own.
+ */
+function motorOnState(
+  ctx: Ctx,
+  vLoad_V: number,
+  duty: number,
+  f_Hz: number,
+): { emf_V: number; wave: WindingWaveform | undefined } {
+  const fw = ctx.spec.devices.freewheel_diode as DiodeClass | undefined;
+  const vf = fw === undefined ? 0 : Math.max(0, diodeClassVf_V(fw, ctx.iNom_A, NOMINAL_TEMP_C));
+  const drive = { vOn_V: vLoad_V, vF_V: vf, r_ohm: ctx.load.r_ohm, l_H: ctx.load.l_H, duty, f_Hz };
+  if (!(duty > 0) || !(ctx.load.l_H > 0)) return { emf_V: -1, wave: undefined };
+  const emf_V = motorEmfAtCurrent_V(drive, ctx.iNom_A);
+  return { emf_V, wave: emf_V > 0 ? windingWaveform({ ...drive, emf_V }) : undefined };
+}
+
+function windingFigures(w: WindingWaveform): Figure[] {
+  const f = (key: string, label: string, value: number, unit: string, formula: string): Figure =>
+    figure(key, label, value, unit, "load", formula, "derived");
+  const law = "exact piecewise R–L–E waveform over one period, steady state (shared/winding.ts)";
+  return [
+    f(
+      "winding_discontinuous",
+      "Winding current stops each period at control 1 (1 yes, 0 no)",
+      w.mode === "discontinuous" ? 1 : 0,
+      "",
+      "discontinuous when the freewheeling current reaches zero before the next turn-on",
+    ),
+    f("winding_peak_current", "Winding current at turn-off (control 1)", w.iPeak_A, "A", law),
+    f("winding_valley_current", "Winding current at turn-on (control 1)", w.iValley_A, "A", law),
+    f("winding_rms_current", "Winding RMS current (control 1)", w.rms_A, "A", law),
+    f("switch_rms_current_on", "Switch RMS current while on (control 1)", w.onRms_A, "A", law),
+    f("freewheel_loss_nominal", "Freewheel diode loss (control 1, nominal)", w.diodeLoss_W, "W", `V_F·∫i dt/T; ${law}`),
+  ];
 }

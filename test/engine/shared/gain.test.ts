@@ -2,6 +2,7 @@ import { describe, expect, it } from "vitest";
 import {
   KNEE_RATIO_MAX,
   gainKnee,
+  hfeMax,
   hfeMin,
   hfeNominal,
   kneeQb,
@@ -157,5 +158,21 @@ describe("saturation and on voltages", () => {
     expectClose(vbeSat(q3904, 0.03), 0.9, 1e-12);
     const noVbe: BjtClass = { ...q3904, vce_sat: [{ ic_A: 0.01, ib_A: 0.001, vce_sat_V: 0.2 }] };
     expectClose(vbeSat(noVbe, 0.05), 0.8, 1e-12);
+  });
+});
+
+describe("hfeMax: the top of a class's gain spread", () => {
+  it("2N3904 class: 300 at 10 mA, 25 °C — registered 100–300 at 10 mA, 1 V [src:jedec-registered]", () => {
+    expectClose(hfeMax(q3904, 0.01, 25)!, 300, 1e-12);
+  });
+  it("keeps the spread along the curve (one normalised curve per type, from memory): 3 × 30 at 100 mA", () => {
+    expectClose(hfeMax(q3904, 0.1, 25)!, 90, 1e-12);
+  });
+  it("rises when hot by the class's coefficient (+0.5 %/K: × 1.075 at 40 °C) and never falls when cold", () => {
+    expectClose(hfeMax(q3904, 0.01, 40)!, 300 * 1.075, 1e-12);
+    expectClose(hfeMax(q3904, 0.01, -10)!, 300, 1e-12);
+  });
+  it("gives no bound (null) for a class without a registered maximum", () => {
+    expect(hfeMax(q3055, 4, 25)).toBeNull();
   });
 });

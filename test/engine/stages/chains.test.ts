@@ -5,7 +5,7 @@ import { planBjtSingle } from "../../../src/engine/stages/chains/bjt-single.ts";
 import { planDarlington } from "../../../src/engine/stages/chains/darlington.ts";
 import { rdsOn_ohm } from "../../../src/engine/stages/chains/mosfet-common.ts";
 import { sizeVariant } from "../../../src/engine/index.ts";
-import { hfeMin, vbeOn, vbeSat, vceSat } from "../../../src/engine/shared/gain.ts";
+import { hfeMax, hfeMin, vbeOn, vbeSat, vceSat } from "../../../src/engine/shared/gain.ts";
 import { expectClose } from "../../helpers/close.ts";
 import { NPN_HIGH_GAIN, type SpecOpts, makeSpec } from "../fixtures.ts";
 
@@ -131,6 +131,47 @@ describe("mosfet-driver gate-drive pair: gate-current peak within both followers
       expectClose(c.stress, (railMax - vbeOn(hi, ctx.taMax_C)) / (rG * 0.95), 1e-12);
       // R_G is sized on the source follower: its own peak never exceeds its rating.
       expect(c.stress).toBeLessThanOrEqual(hi.ic_max_A);
+    }
+  });
+});
+
+describe("Darlington inner stages at the load's start-up peak (derived: I_E = (β + 1)·I_B stage by stage)", () => {
+  const peakRow = (s: ReturnType<typeof sizeVariant>, role: string) => {
+    const ref = s.circuit!.parts.find((p) => p.role === role)!.ref;
+    return s.checks.find((c) => c.ref === ref && c.quantity === "peak");
+  };
+  it("3-stage, cold filament: the middle stage is checked against its pulse rating at the power stage's share", () => {
+    const spec = makeSpec({ supply_V: 24, load_A: 0.5, chain: "darlington-3", load_kind: "lamp" });
+    const s = sizeVariant(spec);
+    const ctx = makeContext(spec);
+    const out = ctx.spec.devices.power_npn as BjtClass;
+    const peak = s.figures.find((f) => f.key === "startup_peak")!.value;
+    const row = peakRow(s, "Q_D2")!;
+    // The bound: the peak through the output stage at its β_min (cold), plus the bleed V_BE(cold)/R_BE
+    // at −tolerance, is the middle stage's emitter current; its collector takes β/(β + 1) of it.
+    const rBE = s.circuit!.parts.find((p) => p.role === "RBE")!.value;
+    const iE = peak / hfeMin(out, peak, ctx.taMin_C) + vbeOn(out, ctx.taMin_C) / (rBE * (1 - ctx.rTol));
+    const mid = ctx.spec.devices.driver_npn as BjtClass;
+    const b = hfeMin(mid, iE, ctx.taMin_C);
+    expectClose(row.stress, (iE * b) / (b + 1), 1e-9);
+    expect(row.rating).toBe(mid.icm_A ?? mid.ic_max_A);
+  });
+  it("2-stage, cold filament: the driver carries no more than the tap's largest drive lets through", () => {
+    const spec = makeSpec({ supply_V: 12, load_A: 0.5, chain: "darlington-2", load_kind: "lamp" });
+    const s = sizeVariant(spec);
+    const ctx = makeContext(spec);
+    const d1 = ctx.spec.devices.driver_npn as BjtClass;
+    const row = peakRow(s, "Q_D1")!;
+    const out = ctx.spec.devices.power_npn as BjtClass;
+    const peak = s.figures.find((f) => f.key === "startup_peak")!.value;
+    // At most the peak's share, at least the running current's …
+    expect(row.stress).toBeLessThanOrEqual(peak / (hfeMin(out, peak, ctx.taMin_C) + 1) + 0.01);
+    expect(row.stress).toBeGreaterThan(ctx.iMax_A / (hfeMin(out, ctx.iMax_A, ctx.taMin_C) + 1));
+    // … and self-consistent with the drive: I = (β_max(I) + 1)·I_B1,max solved for I.
+    if (hfeMax(d1, row.stress, ctx.taMax_C) !== null) {
+      const ib1 = row.stress / (hfeMax(d1, row.stress, ctx.taMax_C)! + 1);
+      expect(ib1).toBeGreaterThan(0);
+      expect(ib1).toBeLessThan(0.01);
     }
   });
 });

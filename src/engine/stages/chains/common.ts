@@ -39,8 +39,17 @@ export function peakCurrent_A(ctx: Ctx): number {
   return lim?.kind === "current-limit" ? Math.max(ctx.iMax_A, Math.min(pk, lim.limit_A)) : pk;
 }
 
-/** Voltage and current checks of the load switch: continuous (policy) and peak (absolute pulse rating). */
-export function switchChecks(ctx: Ctx, role: PartRole, dev: BjtClass | MosfetClass): StressCheck[] {
+/**
+ * Voltage and current checks of the load switch: continuous (policy) and peak (absolute pulse rating).
+ * `at` gives a stage's own continuous and peak currents where it carries a share of the load's
+ * (a Darlington's inner stages); by default the load's own.
+ */
+export function switchChecks(
+  ctx: Ctx,
+  role: PartRole,
+  dev: BjtClass | MosfetClass,
+  at: { iMax_A: number; peak_A: number } = { iMax_A: ctx.iMax_A, peak_A: peakCurrent_A(ctx) },
+): StressCheck[] {
   const pol = ctx.spec.policy;
   const fam = dev.family === "nmos" ? pol.mosfet : pol.bjt;
   const vRating = dev.family === "nmos" ? dev.vds_V : dev.vceo_V;
@@ -53,9 +62,9 @@ export function switchChecks(ctx: Ctx, role: PartRole, dev: BjtClass | MosfetCla
   };
   return [
     checkStress(role, "voltage", switchOffVoltage_V(ctx), vRating, "V", fam.voltage, pol.marginal_above),
-    checkStress(role, "current", ctx.iMax_A, iRating, "A", fam.current, pol.marginal_above),
+    checkStress(role, "current", at.iMax_A, iRating, "A", fam.current, pol.marginal_above),
     {
-      ...checkStress(role, "peak", peakCurrent_A(ctx), pulse, "A", peakRule, pol.marginal_above),
+      ...checkStress(role, "peak", at.peak_A, pulse, "A", peakRule, pol.marginal_above),
       what: "start-up peak current vs the pulse rating",
     },
   ];

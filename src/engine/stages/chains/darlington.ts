@@ -9,7 +9,7 @@ import type { Part } from "../../../model/circuit.ts";
 import type { PartRole } from "../../../model/part-roles.ts";
 import { nearest } from "../../shared/e-series.ts";
 import { figure } from "../../shared/figures.ts";
-import { hfeMin, vbeOn, vbeSat, vceSat } from "../../shared/gain.ts";
+import { hfeMax, hfeMin, vbeOn, vbeSat, vceSat } from "../../shared/gain.ts";
 import { conductionLossBjt_W, resistorPower_W, switchingLoss_W } from "../../shared/losses.ts";
 import { resistor, transistor } from "../../../circuit/parts.ts";
 import { type Ctx, OVERDRIVE_K, loadCurrentAt_A, switchedVoltage_V } from "../context.ts";
@@ -17,6 +17,7 @@ import {
   needAtMinSupply,
   driveMargin,
   loadPeak_A,
+  peakCurrent_A,
   switchChecks,
   switchOffVoltage_V,
   vbeCold,
@@ -61,6 +62,33 @@ function stackCurrents(devs: BjtClass[], i_A: number, rBE_ohm: number | null, tj
     iE = ib[k]! + (k === n - 1 ? bleed_A : 0);
   }
   return { ic, ib, beta, betaAt, bleed_A };
+}
+
+/**
+ * Start-up peak current of each inner stage (all but the output), A. Two bounds, the smaller holds:
+ *  - the load's peak through the stages after k at their minimum gain (cold): a part with more
+ *    gain asks less of stage k (stackCurrents);
+ *  - the drive: from the tap's largest current I_B1,max, each stage's emitter current at most
+ *    I_E = (β_max(I_E) + 1)·I_B (gain.ts hfeMax at the hottest ambient; solved like the drive limit),
+ *    its base current the emitter current of the stage before; where a class gives no maximum
+ *    gain this bound is not taken.
+ * Below the load's peak the drive holds the stack in its linear region (protection.ts checks that
+ * pulse); the inner stages then carry only what their own drive lets through (derived).
+ */
+function innerPeaks(ctx: Ctx, devs: BjtClass[], worst: StackCurrents, rBE_ohm: number, ib1Max_A: number): number[] {
+  const atPeak = stackCurrents(devs, peakCurrent_A(ctx), rBE_ohm * (1 - ctx.rTol), ctx.taMin_C);
+  const peaks: number[] = [];
+  let ib_A: number | null = ib1Max_A;
+  for (let k = 0; k < devs.length - 1; k++) {
+    const dev = devs[k]!;
+    const cap = atPeak.ic[k]!;
+    if (ib_A !== null && hfeMax(dev, cap, ctx.taMax_C) !== null) {
+      const ibAt = (i: number): number => i / (hfeMax(dev, i, ctx.taMax_C)! + 1);
+      ib_A = bjtDriveLimit_A(ibAt, ib_A, Math.min(worst.ic[k]!, cap), Math.max(worst.ic[k]!, cap));
+    } else ib_A = null;
+    peaks.push(Math.max(worst.ic[k]!, ib_A === null ? cap : Math.min(cap, ib_A)));
+  }
+  return peaks;
 }
 
 /** V_sw = V_CE(sat),1 + Σ_{i≥2} V_BE(sat),i at the stage currents (max values). */
@@ -135,13 +163,10 @@ export function planDarlington(ctx: Ctx, n: 2 | 3): ChainPlan {
     "bleed on the last base",
   );
   const checks = [...switchChecks(ctx, STACK_ROLES[n - 1]!, last), ...rbe.checks];
-  // Inner stages: voltage and current against their own ratings.
+  // Inner stages: voltage and continuous current here; their start-up peak in finish(), once the
+  // tap's largest drive is known (innerPeaks).
   for (let k = 0; k < n - 1; k++) {
-    const r = switchChecks(
-      { ...ctx, iMax_A: worst.ic[k]!, load: { ...ctx.load, peak_A: (worst.ic[k]! * ctx.vNom_V) / ctx.vMax_V } },
-      STACK_ROLES[k]!,
-      devs[k]!,
-    );
+    const r = switchChecks(ctx, STACK_ROLES[k]!, devs[k]!, { iMax_A: worst.ic[k]!, peak_A: worst.ic[k]! });
     checks.push(r[0]!, r[1]!);
   }
   // Output stage turn-off: no saturation charge, but its forward base charge I_C·τ_F (τ_F = 1/(2π f_T))
@@ -242,7 +267,9 @@ export function planDarlington(ctx: Ctx, n: 2 | 3): ChainPlan {
         drive: { i_A: iDrive, how: "stack current whose first base current at β_min (T_A,min) is I_B1,min" },
         parts: [],
         problems: [],
-        checks: [],
+        checks: innerPeaks(ctx, devs, worst, rBE, tap.iMax_A).flatMap((peak_A, k) =>
+          switchChecks(ctx, STACK_ROLES[k]!, devs[k]!, { iMax_A: worst.ic[k]!, peak_A }).slice(2),
+        ),
         losses,
         figures: [
           driveMargin("input", "stack input (Q_D1 base)", tap.iMin_A, ib1Eq),

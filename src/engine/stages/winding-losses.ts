@@ -1,0 +1,68 @@
+/**
+ * The power switch's nominal dissipation with a motor winding (shared/winding.ts), term by term,
+ * from the winding's own waveform rather than a flat current: conduction from the switch's RMS
+ * current while on (MOSFET) or its mean (BJT), turn-on at the current the freewheel diode hands
+ * over (zero when the current stopped) and turn-off at the peak, and the reverse recovery of a
+ * junction freewheel diode that still conducts when the switch turns on. Pure.
+ */
+import type { DiodeClass } from "../../model/device.ts";
+import type { WindingWaveform } from "../shared/winding.ts";
+import { recoveryCharge_C, recoveryLoss_W } from "../shared/winding.ts";
+import { diodeTransitTime_s } from "../shared/diode.ts";
+import { type SwitchingKind, switchingLoss_W } from "../shared/losses.ts";
+import type { DeviceLoss } from "./chains/types.ts";
+
+export interface WindingSwitchTerms {
+  cond_W: number;
+  sw_W: number;
+  /** Reverse recovery of the freewheel diode, paid by the switch at turn-on. */
+  rr_W: number;
+}
+
+/**
+ * `rOn_ohm`: the switch's nominal on-resistance (V_sw,nom/I_rated) for a MOSFET; `vSw_V` its
+ * nominal on-voltage (a BJT's conduction is V_CE(sat)·I). `duty`, `f_Hz`: control 1, nominal.
+ */
+export function windingSwitchTerms(
+  w: WindingWaveform,
+  power: DeviceLoss,
+  o: {
+    v_V: number;
+    vSw_V: number;
+    rOn_ohm: number;
+    duty: number;
+    f_Hz: number;
+    kind: SwitchingKind;
+    freewheel: DiodeClass | undefined;
+    /** Without nominal transition times: the chain's worst-case switching loss scaled to a current. */
+    scaled: (i_A: number) => number;
+  },
+): WindingSwitchTerms {
+  const cond_W = power.family === "mosfet" ? w.onRms_A ** 2 * o.rOn_ohm * o.duty : w.onMean_A * o.vSw_V * o.duty;
+  const t = power.tNom_s;
+  // Each edge at its own current: the ramp law is linear in I (Mohan Eq. 2-6 [src:mohan-3e-eq2-6]).
+  const sw_W =
+    t === undefined
+      ? o.scaled((w.iValley_A + w.iPeak_A) / 2)
+      : switchingLoss_W(o.v_V, w.iValley_A, t.on, 0, o.f_Hz, o.kind) +
+        switchingLoss_W(o.v_V, w.iPeak_A, 0, t.off, o.f_Hz, o.kind);
+  // The diode's current falls as the switch's rises: its current-rise time is at most the whole
+  // turn-on, so this takes the smallest charge the edge can leave (the lower estimate).
+  const tt_s = o.freewheel === undefined ? 0 : diodeTransitTime_s(o.freewheel);
+  const tRise_s = t?.on ?? power.dev.t_rise_s;
+  const rr_W = recoveryLoss_W(o.v_V, recoveryCharge_C(w.iValley_A, tt_s, tRise_s), o.f_Hz);
+  return { cond_W, sw_W, rr_W };
+}
+
+/**
+ * The worst-case losses with a MOSFET's conduction scaled by the winding current's form factor
+ * while on, (I_rms,on/I_mean,on)² ≥ 1: the chains take I²·R_DS(on) at a flat current, which a
+ * rippling or discontinuous winding current exceeds (its shape taken at control 1, nominal).
+ */
+export function withWindingForm(losses: DeviceLoss[], w: WindingWaveform | undefined): DeviceLoss[] {
+  if (w === undefined || !(w.onMean_A > 0)) return losses;
+  const k = (w.onRms_A / w.onMean_A) ** 2;
+  return losses.map((l) =>
+    l.isPower && l.family === "mosfet" ? { ...l, pCond_W: l.pCond_W * k, p_W: l.p_W + l.pCond_W * (k - 1) } : l,
+  );
+}
