@@ -20,7 +20,7 @@ import { figure, problem } from "./shared/figures.ts";
 import { NOMINAL_TEMP_C } from "./shared/temperature.ts";
 import { type Ctx, makeContext } from "./stages/context.ts";
 import { CHAIN_PLANNERS } from "./stages/chains/index.ts";
-import { type TapDesign, designFollowerTap, designTap } from "./stages/tap.ts";
+import { type TapDesign, designFollowerCollectorTap, designFollowerTap, designTap } from "./stages/tap.ts";
 import { type TimingResult, designTiming } from "./stages/timing.ts";
 import { loadStage } from "./stages/load.ts";
 import { windingSwitchTerms, withWindingForm } from "./stages/winding-losses.ts";
@@ -77,19 +77,33 @@ export function tapAndTiming(
 ): { tap: TapDesign; timing: TimingResult; rcLowered?: RcLowered; follower?: FollowerChosen } {
   const plain = plainTapAndTiming(ctx, plan);
   if (plain.timing.search.passed) return plain;
-  // The follower core (docs/method.md, "Follower core"), only where the plain one does not pass.
+  // The follower core (docs/method.md, "Follower core"), only where the plain one does not pass:
+  // the chain on the follower's emitter where its input allows it, else on the collector.
+  const why = plain.timing.problems.find((p) => p.severity === "error")?.rule ?? "duty-range-worst-case";
+  const chosen = (tap: TapDesign, timing: TimingResult, onCollector: boolean): ReturnType<typeof tapAndTiming> => ({
+    tap,
+    timing,
+    follower: { rule: why, plainRc_ohm: plain.tap.rC_ohm, ...(onCollector ? { onCollector } : {}) },
+  });
+  // Without the injection cap the tap differs only when the cap bound R_C: a tap met before is not searched again.
+  let seen: number | undefined;
   for (const cap of [true, false]) {
     const ft = designFollowerTap(ctx, plan, cap);
     if (ft === null) break;
+    if (ft.rC_ohm === seen) continue;
+    seen = ft.rC_ohm;
     const timing = designTiming(ctx, plan, ft);
-    if (timing.search.passed && !timing.problems.some((p) => p.rule === "follower-off-level")) {
-      const why = plain.timing.problems.find((p) => p.severity === "error");
-      return {
-        tap: ft,
-        timing,
-        follower: { rule: why?.rule ?? "duty-range-worst-case", plainRc_ohm: plain.tap.rC_ohm },
-      };
-    }
+    if (timing.search.passed && !timing.problems.some((p) => p.rule === "follower-off-level"))
+      return chosen(ft, timing, false);
+  }
+  seen = undefined;
+  for (const cap of [true, false]) {
+    const ft = designFollowerCollectorTap(ctx, plan, undefined, cap);
+    if (ft === null) break;
+    if (ft.rC_ohm === seen) continue;
+    seen = ft.rC_ohm;
+    const timing = designTiming(ctx, plan, ft);
+    if (timing.search.passed) return chosen(ft, timing, true);
   }
   return plain;
 }

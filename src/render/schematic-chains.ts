@@ -1,14 +1,15 @@
 /**
  * Drive-chain tables (same conventions as schematic-layout.ts). Signal flows left to right: the tap
- * wire comes in from the core's right collector at TAP_Y, runs through the input resistor into the
- * first device; the switched column (outX) is where the load and its probe hang.
+ * wire comes in from the core's right collector at the core's tap height (StageLayout.tapY), runs
+ * through the input resistor into the first device; the switched column (outX) is where the load
+ * and its probe hang.
  */
 import type { ChainKind } from "../model/kinds.ts";
 import type { PartRole } from "../model/part-roles.ts";
-import { TAP_Y, type ChainLayout, type Route } from "./schematic-layout.ts";
+import { TAP_COORD, type ChainLayout, type Route } from "./schematic-layout.ts";
 
 /** Tap wire from the tapped collector (RC_R.b's column) to the chain's input resistor. */
-const tap = (input: PartRole): Route => [`${input}.a`, [15, `${input}.a`], [15, TAP_Y], ["RC_R.b", TAP_Y]];
+const tap = (input: PartRole): Route => [`${input}.a`, [15, `${input}.a`], [15, TAP_COORD], ["RC_R.b", TAP_COORD]];
 
 export const CHAIN: Record<ChainKind, ChainLayout> = {
   "bjt-single": {

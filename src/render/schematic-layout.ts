@@ -33,7 +33,9 @@ export interface Slot {
   mirror?: boolean;
   label?: "left" | "right" | "above" | "below";
 }
-export type Coord = number | PinRef;
+/** "tapY": the height where the chain's tap wire joins the tapped collector line (StageLayout.tapY of the core). */
+export const TAP_COORD = "tapY";
+export type Coord = number | PinRef | typeof TAP_COORD;
 export type RoutePt = PinRef | readonly [Coord, Coord];
 export type Route = readonly RoutePt[];
 export interface StageLayout {
@@ -41,6 +43,8 @@ export interface StageLayout {
   routes: Route[];
   /** Horizontal room the stage takes (its labels included). */
   width: number;
+  /** Core only: where the chain's tap wire joins the tapped collector line. */
+  tapY?: number;
 }
 export interface ChainLayout extends StageLayout {
   /** x of the switched column the load hangs in, and the topmost switched pin of the chain. */
@@ -63,7 +67,11 @@ export const SUPPLY: StageLayout = {
 /** Core template: `_L` is the side the chain does not listen to, `_R` the tapped side. */
 const CORE_L = 180; // x of the left collector line
 const CORE_R = 660; // x of the right collector line (the tap)
-export const TAP_Y = 200; // the tap leaves the right collector at this height
+const TAP_Y = 200; // the tap leaves the right collector at this height
+// In the follower core the right of the collector line above y 240 carries the follower (base
+// wire, clamp diode, emitter column and the series resistor's lane at y 240), so the tap leaves
+// between that lane and the collector pin (y 270), below the clamp diode's label.
+const FOLLOWER_TAP_Y = 256;
 const BASE_Y = 300;
 const CORE_TEMPLATE: Record<TemplateRole, Slot> = {
   RBAL: { x: 70, y: 280, label: "left" },
@@ -175,7 +183,7 @@ function sidePin(ref: PinRef, tapSide: CoreSide): PinRef {
 }
 
 function subPt(p: RoutePt, tapSide: CoreSide): RoutePt {
-  const s = (c: Coord): Coord => (typeof c === "string" ? sidePin(c, tapSide) : c);
+  const s = (c: Coord): Coord => (typeof c === "string" && c !== TAP_COORD ? sidePin(c, tapSide) : c);
   return typeof p === "string" ? sidePin(p, tapSide) : [s(p[0]), s(p[1])];
 }
 
@@ -190,7 +198,8 @@ export function coreLayout(tapSide: CoreSide, follower = false): StageLayout {
       ? { x: 420, y: BASE_Y, rot: 270, label: "below" }
       : { x: 420, y: BASE_Y, rot: 90, mirror: true, label: "below" };
   // Pull-in timer (solenoid loads), in a row under the core, beneath timing transistor A's side.
-  for (const [role, slot] of Object.entries(PULL_IN_ROW) as [PlacedRole, Slot][])
+  const row = follower ? { ...PULL_IN_ROW, ...FOLLOWER_PULL_IN } : PULL_IN_ROW;
+  for (const [role, slot] of Object.entries(row) as [PlacedRole, Slot][])
     slots[role] =
       tapSide === "A"
         ? slot
@@ -203,7 +212,12 @@ export function coreLayout(tapSide: CoreSide, follower = false): StageLayout {
             ...(slot.label ? { label: FLIP_LABEL[slot.label] } : {}),
           };
   const routes = follower ? FOLLOWER_ROUTES : CORE_ROUTES;
-  return { slots, routes: routes.map((r) => r.map((p) => subPt(p, tapSide))), width: CORE_WIDTH };
+  return {
+    slots,
+    routes: routes.map((r) => r.map((p) => subPt(p, tapSide))),
+    width: CORE_WIDTH,
+    tapY: follower ? FOLLOWER_TAP_Y : TAP_Y,
+  };
 }
 
 /** The pull-in timer's row when transistor A is on the right (tapped side A); mirrored otherwise. */
@@ -218,6 +232,18 @@ const PULL_IN_ROW: Partial<Record<PlacedRole, Slot>> = {
   RB_PULL: { x: 460, y: PULL_IN_Y, rot: 270, label: "above" },
   DB_PULL: { x: 540, y: PULL_IN_Y, rot: 270, label: "above" },
   Q_PULL: { x: 620, y: PULL_IN_Y, label: "right" },
+};
+/**
+ * In the follower core the far follower's collector, its label and its clamp diode's label fill
+ * the column at x 85, so the pull-in capacitor and its diode drop at the core's left edge, between
+ * the supply's bulk capacitor label and the balance network's labels. (Mirrored for tapped side B,
+ * that column lands in the chain: no demo variant has a follower core with side B tapped and a
+ * solenoid load; the render test would flag one.)
+ */
+const FOLLOWER_PULL_X = -8;
+const FOLLOWER_PULL_IN: Partial<Record<PlacedRole, Slot>> = {
+  C_PULL: { ...PULL_IN_ROW.C_PULL!, x: FOLLOWER_PULL_X },
+  D_PULL: { ...PULL_IN_ROW.D_PULL!, x: FOLLOWER_PULL_X },
 };
 const FLIP_LABEL = { left: "right", right: "left", above: "above", below: "below" } as const;
 

@@ -246,7 +246,15 @@ function resolveHints(placed: Placed[], st: ReturnType<typeof stages>): Hint[] {
         return p?.pins[name];
       };
       const coord = (c: L.Coord, axis: 0 | 1): number | undefined =>
-        typeof c === "number" ? (axis === 0 ? x0 + c : c) : pin(c)?.[axis];
+        typeof c === "number"
+          ? axis === 0
+            ? x0 + c
+            : c
+          : c === L.TAP_COORD
+            ? axis === 1
+              ? st.timing.layout.tapY
+              : undefined
+            : pin(c)?.[axis];
       const pts: Pt[] = [];
       for (const raw of route) {
         const rp = L.resolveSide(raw, st.tapSide);

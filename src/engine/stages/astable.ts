@@ -128,6 +128,12 @@ export interface FollowerParams {
   /** Forward drop of D_FA and D_FB at the current they carry when their side saturates, V. */
   vFA_V: number;
   vFB_V: number;
+  /**
+   * Where the loads (the chain's tap, the balance) hang: absent, on the followers' emitters (chains
+   * with two or more input junctions); true, on the collectors themselves (every other chain, whose
+   * input would still conduct at the emitter's clamped low level: docs/topologies.md, "Follower core").
+   */
+  loadsOnCollector?: boolean;
 }
 
 /**
@@ -144,6 +150,30 @@ export function followerThevenin(
   load?: CollectorLoad,
 ): { v_V: number; r_ohm: number } {
   return collectorThevenin(vcc_V - f.vBe_V, rC_ohm / (f.beta + 1), load);
+}
+
+/**
+ * The follower's emitter node when the load hangs on the collector instead: the loaded collector's
+ * Thevenin source (collectorThevenin) seen through the follower, V_th − V_BE,F behind R_th/(β_F + 1)
+ * (the same emitter-follower relation as followerThevenin [src:sedra-smith], from memory).
+ */
+export function followerOfCollector(
+  collector: { v_V: number; r_ohm: number },
+  f: Pick<FollowerParams, "vBe_V" | "beta">,
+): { v_V: number; r_ohm: number } {
+  return { v_V: collector.v_V - f.vBe_V, r_ohm: collector.r_ohm / (f.beta + 1) };
+}
+
+/** The node that drives side X's coupling capacitor, as a source (plain core, or either follower arrangement). */
+export function drivingThevenin(
+  vcc_V: number,
+  rC_ohm: number,
+  fo: FollowerParams | undefined,
+  load?: CollectorLoad,
+): { v_V: number; r_ohm: number } {
+  if (fo === undefined) return collectorThevenin(vcc_V, rC_ohm, load);
+  if (fo.loadsOnCollector === true) return followerOfCollector(collectorThevenin(vcc_V, rC_ohm, load), fo);
+  return followerThevenin(vcc_V, rC_ohm, fo, load);
 }
 
 /**
@@ -178,8 +208,8 @@ export interface CoreTiming {
  */
 export function evaluateCore(p: CoreParams): CoreTiming {
   const fo = p.follower;
-  const a = fo ? followerThevenin(p.vcc_V, p.rCA_ohm, fo, p.loadA) : collectorThevenin(p.vcc_V, p.rCA_ohm, p.loadA);
-  const b = fo ? followerThevenin(p.vcc_V, p.rCB_ohm, fo, p.loadB) : collectorThevenin(p.vcc_V, p.rCB_ohm, p.loadB);
+  const a = drivingThevenin(p.vcc_V, p.rCA_ohm, fo, p.loadA);
+  const b = drivingThevenin(p.vcc_V, p.rCB_ohm, fo, p.loadB);
   const fullA = fo ? followerSwing_V(a.v_V, p.vSat_V, fo.vFA_V) : Math.max(0, a.v_V - p.vSat_V);
   const fullB = fo ? followerSwing_V(b.v_V, p.vSat_V, fo.vFB_V) : Math.max(0, b.v_V - p.vSat_V);
   const tauA_s = (a.r_ohm + (fo?.rS_ohm ?? 0)) * p.cA_F;

@@ -14,7 +14,9 @@ import {
   type CollectorLoad,
   type CoreTiming,
   type FollowerParams,
+  collectorThevenin,
   evaluateCore,
+  followerOfCollector,
   followerThevenin,
   thresholdDelay_s,
 } from "./astable.ts";
@@ -48,9 +50,20 @@ export interface CoreValues {
   /**
    * Recovery followers (docs/topologies.md, "Follower core"): the series resistor R_S between each
    * follower's emitter and its coupling capacitor. Absent: the plain core. With followers the tap
-   * load (and any balance) sits on the follower emitters, and the chain is fed from the tapped one.
+   * load (and any balance) sits on the follower emitters, and the chain is fed from the tapped one,
+   * unless `onCollector` keeps them on the collectors (FollowerValues).
    */
-  follower?: { rS_ohm: number };
+  follower?: FollowerValues;
+}
+
+/**
+ * The followers as built: R_S, and where the chain listens. `onCollector` true: the chain's tap
+ * (and any balance) hangs on the timing collector, the followers only recharge the capacitors
+ * (every chain with fewer than two junctions at its input, docs/topologies.md "Follower core").
+ */
+export interface FollowerValues {
+  rS_ohm: number;
+  onCollector?: boolean;
 }
 
 /** Multipliers (1 ± tolerance) and conditions of one worst-case corner: one definition, in the model. */
@@ -120,13 +133,20 @@ export function followerAt(
   rBB_ohm: number,
 ): FollowerParams | undefined {
   if (v.follower === undefined) return undefined;
-  const iLoad = Math.max(FOLLOWER_I_MIN_A, (k.vcc_V - v.tapLoad.v_V) / v.tapLoad.r_ohm);
+  // On the collector the follower carries only the recharge pulse: its gain is read at the pulse's
+  // start V_cc/R_S, where it is lowest (derived; the gain falls with current above its peak).
+  const onC = v.follower.onCollector === true;
+  const iLoad = Math.max(
+    FOLLOWER_I_MIN_A,
+    onC ? k.vcc_V / v.follower.rS_ohm : (k.vcc_V - v.tapLoad.v_V) / v.tapLoad.r_ohm,
+  );
   return {
     vBe_V: vbeOn(q, k.t_C),
     beta: hfeMin(q, Math.min(q.ic_max_A, iLoad), k.t_C),
     rS_ohm: v.follower.rS_ohm,
     vFA_V: diodeVf_V(db, k.vcc_V / rBB_ohm, k.t_C),
     vFB_V: diodeVf_V(db, k.vcc_V / rBA_ohm, k.t_C),
+    ...(onC ? { loadsOnCollector: true } : {}),
   };
 }
 
@@ -175,6 +195,17 @@ export function evalCore(v: CoreValues, q: BjtClass, db: DiodeClass, k: Corner, 
     const vInf = pre === undefined ? k.vcc_V : (k.vcc_V * pre) / (rCX + pre);
     const rTh = pre === undefined ? rCX : (rCX * pre) / (rCX + pre);
     dtTh_s = thresholdDelay_s(rTh * cX, vInf, vSat_V, v.vThTap_V);
+  } else if (fo.loadsOnCollector === true) {
+    // The chain listens to the collector; the follower only recharges the capacitor. Its base current
+    // i/(β_F + 1) is the collector's only extra load, so the collector moves with the emitter, one V_BE
+    // above it: c(t) = V_th − R_out/(R_out + R_S)·(V_th − V_BE,F − V_low)·e^(−t/τ), with V_th, R_th the
+    // loaded collector's Thevenin source (linear input network included), R_out = R_th/(β_F + 1) and
+    // τ = (R_out + R_S)·C (derived from followerOfCollector).
+    const c = collectorThevenin(k.vcc_V, rCX, preLoad);
+    const e = followerOfCollector(c, fo);
+    const vLow = vSat_V + (tapA ? fo.vFA_V : fo.vFB_V);
+    const vStart = c.v_V - (e.r_ohm / (e.r_ohm + fo.rS_ohm)) * Math.max(0, e.v_V - vLow);
+    dtTh_s = thresholdDelay_s((e.r_ohm + fo.rS_ohm) * cX, c.v_V, Math.max(vSat_V, vStart), v.vThTap_V);
   } else {
     // The follower's emitter feeds the chain. When Q_X turns off the emitter leaves its clamped
     // level V_low = V_CE(sat) + V_F at once, except for the drop the capacitor's recharge current

@@ -84,6 +84,8 @@ export interface RcLowered {
 export interface FollowerChosen {
   rule: string;
   plainRc_ohm: number;
+  /** The chain listens to the timing collector, not the follower's emitter (its input has one junction or a gate). */
+  onCollector?: boolean;
 }
 
 /** Why the plain core failed, in the builder's words, by the rule its timing stage reported. */
@@ -174,8 +176,13 @@ export function designDecisions(
       reason:
         `the plain core (R_C ${formatValue(follower.plainRc_ohm, "Ω")}) does not pass: ` +
         `${PLAIN_FAILURE[follower.rule] ?? follower.rule}. Each follower recharges its coupling capacitor ` +
-        `through R_S (τ ≈ R_S·C instead of R_C·C) and feeds the chain from its emitter, so R_C only feeds a ` +
-        `follower's base and may be larger, which lets the base resistors span a wider duty range`,
+        `through R_S (τ ≈ R_S·C instead of R_C·C) ` +
+        (follower.onCollector === true
+          ? `while the chain stays on the timing collector, whose low level V_CE(sat) keeps an input of one ` +
+            `junction or a gate off (the follower's emitter sits a diode higher); freed from the collector's ` +
+            `recovery, the base resistors may be much smaller than R_C and span a wider duty range`
+          : `and feeds the chain from its emitter, so R_C only feeds a follower's base and may be larger, which ` +
+            `lets the base resistors span a wider duty range`),
     });
   }
   return out;

@@ -23,6 +23,7 @@ import { problem } from "../shared/figures.ts";
 import { resistor } from "../../circuit/parts.ts";
 import type { CollectorLoad } from "./astable.ts";
 import type { Ctx } from "./context.ts";
+import type { FollowerValues } from "./core-model.ts";
 import type { ChainPlan, TapInfo } from "./chains/types.ts";
 import { plateau_V } from "./chains/mosfet-common.ts";
 
@@ -62,8 +63,11 @@ export interface TapDesign {
   tapNet: "ca" | "cb";
   /** The net the chain's input network hangs on: the tapped collector, or its follower's emitter. */
   driveNet?: "fa" | "fb";
-  /** Recovery followers (follower core): the series resistor to each coupling capacitor, Ω. */
-  follower?: { rS_ohm: number };
+  /**
+   * Recovery followers (follower core): the series resistor to each coupling capacitor, Ω, and
+   * whether the chain listens to the collector (`onCollector`) rather than the follower's emitter.
+   */
+  follower?: FollowerValues;
   inputNet: string;
   rC_ohm: number;
   load: CollectorLoad;
@@ -383,4 +387,32 @@ export function designFollowerTap(ctx: Ctx, plan: ChainPlan, capInjection = true
     problems: rt.problems,
     checks: rt.checks,
   };
+}
+
+/**
+ * The follower core for every other chain (one junction, a driver stage or a MOSFET gate at the
+ * input): the followers only recharge the coupling capacitors, and the chain keeps its tap on the
+ * timing collector, sized as in the plain core (designTap). The collector's low level is V_CE(sat),
+ * so the chain is off as honestly as in the plain core; its high level carries, besides the chain,
+ * only the follower's base current during the recharge pulse, i/(β_F + 1) (core-model.ts evalCore
+ * takes that sag into the threshold delay). What the followers remove is the recovery limit
+ * 5·R_C·C ≤ t_min that bounds the smallest base resistor in the plain core (docs/method.md,
+ * "Follower core"). R_S = V_cc,max/(I_C,max·derating), E24 up: the whole step across R_S at the
+ * edge stays within the follower's derated current (it carries no chain current here; derived).
+ * Null when the timing class cannot carry even the recharge pulse, or the collector cannot feed the chain.
+ */
+export function designFollowerCollectorTap(
+  ctx: Ctx,
+  plan: ChainPlan,
+  rcCap_ohm: number = RC_MAX_OHM,
+  capInjection = true,
+): TapDesign | null {
+  const q = ctx.spec.devices.timing_npn as BjtClass;
+  const iAllowed = q.ic_max_A * ctx.spec.policy.bjt.current.factor;
+  if (!(iAllowed > 0)) return null;
+  const tap = designTap(ctx, plan, rcCap_ohm, capInjection);
+  // A collector that cannot feed the chain is not helped by followers (the plain core says why).
+  if (tap.problems.some((p) => p.severity === "error")) return null;
+  const rS = roundUp(ctx.vMax_V / (iAllowed * (1 - ctx.rTol)), "E24");
+  return { ...tap, follower: { rS_ohm: rS, onCollector: true } };
 }

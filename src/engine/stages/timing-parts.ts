@@ -177,7 +177,8 @@ export function timingParts(
     }
   }
   if (balance !== undefined) {
-    const untapped = v.follower ? (tap.tapNet === "ca" ? "fb" : "fa") : tap.tapNet === "ca" ? "cb" : "ca";
+    const onEmitter = v.follower !== undefined && v.follower.onCollector !== true;
+    const untapped = onEmitter ? (tap.tapNet === "ca" ? "fb" : "fa") : tap.tapNet === "ca" ? "cb" : "ca";
     const i = (vMax - balance.v_V) / ((v.rC_ohm + balance.r_ohm) * (1 - tol));
     const rb = resistor(
       "timing",
@@ -263,7 +264,8 @@ function followerParts(
   const vMax = ctx.vMax_V;
   const fMax = w.f.hi;
   const cMax = v.c_F * (1 + ctx.cTol);
-  const iChain = tap.info.iMax_A;
+  // With the chain on the collector (onCollector) the follower carries only the recharge pulse.
+  const iChain = v.follower?.onCollector === true ? 0 : tap.info.iMax_A;
   const iFpk = vMax / (rS_ohm * (1 - tol)) + iChain;
   const iGainF = Math.min(q.ic_max_A, Math.max(iChain, 1e-3));
   const betaF = hfeMin(q, iGainF, ctx.taMin_C);

@@ -50,7 +50,8 @@ const fmtPct = (x: number): string => `${(x * 100).toFixed(1)} %`;
 
 /** The chain must stay off while the tapped follower's emitter sits clamped (tap.ts); none for the plain core. */
 function followerOffProblems(ctx: Ctx, plan: ChainPlan, q: BjtClass, db: DiodeClass, v: CoreValues): DesignProblem[] {
-  if (v.follower === undefined) return [];
+  // On the collector the chain sees V_CE(sat) while its side saturates, as in the plain core.
+  if (v.follower === undefined || v.follower.onCollector === true) return [];
   const iD = (2 * ctx.vMax_V) / (Math.min(v.rEndA_ohm, v.rEndB_ohm) * (1 - ctx.rTol));
   const vOff = followerOffLevel_V(ctx, q, db, v.rC_ohm, iD);
   const vTh = followerChainThresholdHot_V(ctx, plan);
@@ -193,7 +194,10 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
   // the follower's emitter (V_cc − V_BE,F behind R_C/(β_F + 1), astable.ts followerThevenin).
   const nomK = { vcc_V: ctx.vNom_V, t_C: NOMINAL_TEMP_C, ...NOMINAL_K };
   const fo = followerAt({ ...base, c_F: 1, pot_ohm: 1, rEndA_ohm: 1e7, rEndB_ohm: 1e7 }, q, db, nomK, 1e7, 1e7);
-  const src = fo ? followerThevenin(ctx.vNom_V, tap.rC_ohm, fo) : { v_V: ctx.vNom_V, r_ohm: tap.rC_ohm };
+  const src =
+    fo && fo.loadsOnCollector !== true
+      ? followerThevenin(ctx.vNom_V, tap.rC_ohm, fo)
+      : { v_V: ctx.vNom_V, r_ohm: tap.rC_ohm };
   const skewOf = (bal?: CollectorLoad): number => {
     const c = evaluateCore({
       vcc_V: ctx.vNom_V,
