@@ -123,7 +123,10 @@ export async function runBuild(o: BuildOptions): Promise<number> {
   jobs.length = 0;
   const tSim = performance.now();
 
-  const pkg = JSON.parse(await readFile(path.join(o.root, "package.json"), "utf8")) as { version: string };
+  // The program's own version, read beside its code: a records project need not be an npm package.
+  const pkg = JSON.parse(await readFile(new URL("../../package.json", import.meta.url), "utf8")) as {
+    version: string;
+  };
   const builtAt = buildDate();
   // The published site is a function of these inputs and the code: when they equal those of the
   // site in place (and the folder is as that build left it), there is nothing to republish. A date

@@ -1,6 +1,8 @@
 /**
- * Runs the real `pulsewright` command in throw-away project roots (a copy of designs/ and
- * package.json), and fingerprints output trees so tests can say "untouched" and "byte-identical".
+ * Runs the real `pulsewright` command in throw-away project roots (a copy of designs/ only: a
+ * records project need not be an npm package — regression: the build read its version from the
+ * project's package.json and stopped with an internal error without one), and fingerprints output
+ * trees so tests can say "untouched" and "byte-identical".
  */
 import { spawn, type ChildProcess } from "node:child_process";
 import { createHash } from "node:crypto";
@@ -23,7 +25,6 @@ export async function makeRoot(opts: { designs?: boolean } = {}): Promise<string
   const root = await mkdtemp(path.join(tmpdir(), "pw-hard-"));
   made.push(root);
   if (opts.designs !== false) await cp(path.join(REPO, "designs"), path.join(root, "designs"), { recursive: true });
-  await cp(path.join(REPO, "package.json"), path.join(root, "package.json"));
   return root;
 }
 

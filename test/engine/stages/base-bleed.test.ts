@@ -33,6 +33,9 @@ describe("base bleed: the Miller index", () => {
         const fast = s.corners?.find((k) => k.name === "fast");
         const q = s.spec.devices.timing_npn as BjtClass;
         if (bleed === undefined || fast === undefined || q.cob_F === undefined) continue;
+        // A core the value search could not pass is refused as it is (timing.ts millerChecked
+        // re-bleeds only a design that passed): its nearest values are not a design to hold.
+        if (s.problems.some((p) => p.stage === "timing" && p.severity === "error")) continue;
         seen++;
         const tShort = (1 - fast.predicted.duty) / fast.predicted.f_Hz;
         const z = millerIndex(q.cob_F!, fast.vcc_V, bleed, vbeOn(q, NOMINAL_TEMP_C), tShort);
