@@ -18,6 +18,12 @@
 import { EngineMisuseError } from "../../model/errors.ts";
 import { findRoot } from "./root.ts";
 
+/** Engine misuse unless every named input is finite and ≥ 0. */
+function finiteNonNegative(inputs: Record<string, number>): void {
+  for (const [what, x] of Object.entries(inputs))
+    if (!Number.isFinite(x) || x < 0) throw new EngineMisuseError(`winding: ${what} must be finite and ≥ 0, got ${x}`);
+}
+
 /**
  * Share of each on interval left out at either edge when the on-state current is read from a
  * waveform (the verifier's reading, src/verify/signal.ts `meanOnState`, trims the same share).
@@ -152,12 +158,7 @@ export function motorEmfAtCurrent_V(d: Omit<WindingDrive, "emf_V">, i_A: number)
  * (src/engine/shared/diode.ts `diodeTransitTime_s`).
  */
 export function recoveryCharge_C(iF_A: number, tt_s: number, tRise_s: number): number {
-  for (const [x, what] of [
-    [iF_A, "iF_A"],
-    [tt_s, "tt_s"],
-    [tRise_s, "tRise_s"],
-  ] as const)
-    if (!Number.isFinite(x) || x < 0) throw new EngineMisuseError(`winding: ${what} must be finite and ≥ 0, got ${x}`);
+  finiteNonNegative({ iF_A, tt_s, tRise_s });
   if (tt_s === 0 || iF_A === 0) return 0;
   const r = tRise_s / tt_s;
   return iF_A * tt_s * (r > 1e-9 ? -Math.expm1(-r) / r : 1);
@@ -168,11 +169,6 @@ export function recoveryCharge_C(iF_A: number, tt_s: number, tRise_s: number): n
  * voltage before its own voltage can fall, V·Q each turn-on (common practice), so P = V·Q·f.
  */
 export function recoveryLoss_W(v_V: number, q_C: number, f_Hz: number): number {
-  for (const [x, what] of [
-    [v_V, "v_V"],
-    [q_C, "q_C"],
-    [f_Hz, "f_Hz"],
-  ] as const)
-    if (!Number.isFinite(x) || x < 0) throw new EngineMisuseError(`winding: ${what} must be finite and ≥ 0, got ${x}`);
+  finiteNonNegative({ v_V, q_C, f_Hz });
   return v_V * q_C * f_Hz;
 }

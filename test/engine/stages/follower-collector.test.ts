@@ -13,13 +13,7 @@ import {
   lnFactor,
 } from "../../../src/engine/stages/astable.ts";
 import { sizeVariant } from "../../../src/engine/size.ts";
-import { renderVariantViews } from "../../../src/render/variant.ts";
-import { startEngine, type SpiceEngine } from "../../../src/verify/engines/index.ts";
-import { verifyVariant } from "../../../src/verify/verify.ts";
-import { cornerDecks } from "../../../src/verify/corner-deck.ts";
-import { measureCorners } from "../../../src/verify/corner-runs.ts";
-import { judgeCorners } from "../../../src/verify/corner-compare.ts";
-import { targetFromSized } from "../../../src/verify/target.ts";
+import { itAgreesWithSpice } from "./sim-agreement.ts";
 import { type SpecOpts, library, makeSpec } from "../fixtures.ts";
 import { makeContext } from "../../../src/engine/stages/context.ts";
 import { overdrive } from "../../../src/engine/stages/timing-search.ts";
@@ -170,42 +164,6 @@ describe("saturation counts the other side's base-resistor current", () => {
 });
 
 describe("the chain on the collector against SPICE (embedded engine)", () => {
-  let engine: SpiceEngine;
   const sized = sizeVariant(cable);
-  const views = renderVariantViews(sized, library(), { schematic: false });
-
-  it("nominal frequency and duty at the control's ends and middle agree within the verifier's allowances", async () => {
-    engine = await startEngine("eecircuit-engine");
-    try {
-      const v = await verifyVariant(sized, views.netlist, engine, { cacheDir: false });
-      const bad = v.comparisons.filter((c) => !c.ok).map((c) => `${c.key} ${c.predicted} vs ${c.simulated}`);
-      expect(bad).toEqual([]);
-      expect(v.status).toBe("agree");
-    } finally {
-      await engine.close();
-    }
-  }, 300_000);
-
-  it("every published corner holds, and the engine's corner predictions are within 0.05 duty and 10 %", async () => {
-    engine = await startEngine("eecircuit-engine");
-    try {
-      const target = targetFromSized(sized)!;
-      const decks = cornerDecks(sized, library());
-      expect(decks.length).toBeGreaterThan(0);
-      const measured = await measureCorners({ ...target, corners: decks }, engine);
-      const judged = judgeCorners(sized.corners ?? [], measured, target.ranges ?? {}, target.predicted);
-      const bad = judged.flatMap((c) =>
-        c.checks.filter((k) => !k.ok).map((k) => `${c.name} ${k.figure} ${k.simulated} ∉ [${k.lo}, ${k.hi}]`),
-      );
-      expect(bad).toEqual([]);
-      for (const c of judged)
-        for (const k of c.checks) {
-          if (k.predicted === undefined) continue;
-          if (k.unit === "") expect(Math.abs(k.simulated - k.predicted), `${c.name} ${k.figure}`).toBeLessThan(0.05);
-          else expect(Math.abs(k.simulated / k.predicted - 1), `${c.name} ${k.figure}`).toBeLessThan(0.1);
-        }
-    } finally {
-      await engine.close();
-    }
-  }, 600_000);
+  itAgreesWithSpice(sized);
 });

@@ -13,14 +13,8 @@ import {
   lnFactor,
 } from "../../../src/engine/stages/astable.ts";
 import { sizeVariant } from "../../../src/engine/size.ts";
-import { renderVariantViews } from "../../../src/render/variant.ts";
-import { startEngine, type SpiceEngine } from "../../../src/verify/engines/index.ts";
-import { verifyVariant } from "../../../src/verify/verify.ts";
-import { cornerDecks } from "../../../src/verify/corner-deck.ts";
-import { measureCorners } from "../../../src/verify/corner-runs.ts";
-import { judgeCorners } from "../../../src/verify/corner-compare.ts";
-import { targetFromSized } from "../../../src/verify/target.ts";
-import { library, makeSpec } from "../fixtures.ts";
+import { itAgreesWithSpice } from "./sim-agreement.ts";
+import { makeSpec } from "../fixtures.ts";
 
 describe("follower relations (closed form)", () => {
   it("the emitter node is V_cc − V_BE behind R_C/(β + 1), then loaded like a collector", () => {
@@ -103,47 +97,6 @@ describe("the engine chooses the follower core only where the plain core fails",
 });
 
 describe("the follower core against SPICE (embedded engine)", () => {
-  let engine: SpiceEngine;
   const sized = sizeVariant(heater);
-  const views = renderVariantViews(sized, library(), { schematic: false });
-
-  it("nominal frequency and duty at the control's ends and middle agree within the verifier's allowances", async () => {
-    engine = await startEngine("eecircuit-engine");
-    try {
-      const v = await verifyVariant(sized, views.netlist, engine, { cacheDir: false });
-      const bad = v.comparisons.filter((c) => !c.ok).map((c) => `${c.key} ${c.predicted} vs ${c.simulated}`);
-      expect(bad).toEqual([]);
-      expect(v.status).toBe("agree");
-      const keys = new Set(v.comparisons.map((c) => c.key));
-      for (const k of ["frequency_nominal", "duty_min", "duty_mid", "duty_max"]) expect(keys.has(k)).toBe(true);
-    } finally {
-      await engine.close();
-    }
-  }, 300_000);
-
-  it("every published corner holds: simulated frequency and duty inside the page's worst-case ranges", async () => {
-    engine = await startEngine("eecircuit-engine");
-    try {
-      const target = targetFromSized(sized)!;
-      const decks = cornerDecks(sized, library());
-      expect(decks.length).toBeGreaterThan(0);
-      const measured = await measureCorners({ ...target, corners: decks }, engine);
-      const judged = judgeCorners(sized.corners ?? [], measured, target.ranges ?? {}, target.predicted);
-      const bad = judged.flatMap((c) =>
-        c.checks.filter((k) => !k.ok).map((k) => `${c.name} ${k.figure} ${k.simulated} ∉ [${k.lo}, ${k.hi}]`),
-      );
-      expect(bad).toEqual([]);
-      expect(judged.flatMap((c) => c.checks).length).toBeGreaterThanOrEqual(decks.length);
-      // The engine's prediction at each corner, not only the range: within 0.05 duty and 10 % frequency
-      // (the nominal allowances, docs/verification.md).
-      for (const c of judged)
-        for (const k of c.checks) {
-          if (k.predicted === undefined) continue;
-          if (k.unit === "") expect(Math.abs(k.simulated - k.predicted), `${c.name} ${k.figure}`).toBeLessThan(0.05);
-          else expect(Math.abs(k.simulated / k.predicted - 1), `${c.name} ${k.figure}`).toBeLessThan(0.1);
-        }
-    } finally {
-      await engine.close();
-    }
-  }, 600_000);
+  itAgreesWithSpice(sized);
 });
