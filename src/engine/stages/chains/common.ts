@@ -50,24 +50,39 @@ export function switchChecks(
   dev: BjtClass | MosfetClass,
   at: { iMax_A: number; peak_A: number } = { iMax_A: ctx.iMax_A, peak_A: peakCurrent_A(ctx) },
 ): StressCheck[] {
+  return [...switchSteadyChecks(ctx, role, dev, at.iMax_A), switchPeakCheck(ctx, role, dev, at.peak_A)];
+}
+
+/** The switch's off-state voltage and continuous current against the policy's derated ratings. */
+export function switchSteadyChecks(
+  ctx: Ctx,
+  role: PartRole,
+  dev: BjtClass | MosfetClass,
+  iMax_A: number,
+): StressCheck[] {
   const pol = ctx.spec.policy;
   const fam = dev.family === "nmos" ? pol.mosfet : pol.bjt;
   const vRating = dev.family === "nmos" ? dev.vds_V : dev.vceo_V;
   const iRating = dev.family === "nmos" ? dev.id_A : dev.ic_max_A;
+  return [
+    checkStress(role, "voltage", switchOffVoltage_V(ctx), vRating, "V", fam.voltage, pol.marginal_above),
+    checkStress(role, "current", iMax_A, iRating, "A", fam.current, pol.marginal_above),
+  ];
+}
+
+/** The switch's start-up or stall peak against its absolute maximum (pulse) rating. */
+export function switchPeakCheck(ctx: Ctx, role: PartRole, dev: BjtClass | MosfetClass, peak_A: number): StressCheck {
+  const pol = ctx.spec.policy;
   const pulse = dev.family === "nmos" ? (dev.idm_A ?? dev.id_A) : (dev.icm_A ?? dev.ic_max_A);
   const peakRule: DeratingRule = {
     factor: 1,
     ...cite("common-practice"),
     note: "absolute maximum (pulse) rating: a start-up or stall peak may reach but not exceed it",
   };
-  return [
-    checkStress(role, "voltage", switchOffVoltage_V(ctx), vRating, "V", fam.voltage, pol.marginal_above),
-    checkStress(role, "current", at.iMax_A, iRating, "A", fam.current, pol.marginal_above),
-    {
-      ...checkStress(role, "peak", at.peak_A, pulse, "A", peakRule, pol.marginal_above),
-      what: "start-up peak current vs the pulse rating",
-    },
-  ];
+  return {
+    ...checkStress(role, "peak", peak_A, pulse, "A", peakRule, pol.marginal_above),
+    what: "start-up peak current vs the pulse rating",
+  };
 }
 
 /**

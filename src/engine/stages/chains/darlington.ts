@@ -20,6 +20,8 @@ import {
   loadPeak_A,
   peakCurrent_A,
   switchChecks,
+  switchPeakCheck,
+  switchSteadyChecks,
   switchOffVoltage_V,
   vbeCold,
   lossFigures,
@@ -194,10 +196,7 @@ export function planDarlington(ctx: Ctx, n: 2 | 3): ChainPlan {
   const checks = [...switchChecks(ctx, STACK_ROLES[n - 1]!, last), ...rbe.checks];
   // Inner stages: voltage and continuous current here; their start-up peak in finish(), once the
   // tap's largest drive is known (innerPeaks).
-  for (let k = 0; k < n - 1; k++) {
-    const r = switchChecks(ctx, STACK_ROLES[k]!, devs[k]!, { iMax_A: worst.ic[k]!, peak_A: worst.ic[k]! });
-    checks.push(r[0]!, r[1]!);
-  }
+  for (let k = 0; k < n - 1; k++) checks.push(...switchSteadyChecks(ctx, STACK_ROLES[k]!, devs[k]!, worst.ic[k]!));
   // Output stage turn-off: no saturation charge, but its forward base charge I_C·τ_F (τ_F = 1/(2π f_T))
   // must leave through RBE at ≈ V_BE/RBE (charge control, derived); else 3 × t_f (from memory).
   const tOffLast =
@@ -300,8 +299,8 @@ export function planDarlington(ctx: Ctx, n: 2 | 3): ChainPlan {
         drive: { i_A: iDrive, how: "stack current whose first base current at β_min (T_A,min) is I_B1,min" },
         parts: [],
         problems: [],
-        checks: innerPeaks(ctx, devs, worst, rBE, tap.iMax_A).flatMap((peak_A, k) =>
-          switchChecks(ctx, STACK_ROLES[k]!, devs[k]!, { iMax_A: worst.ic[k]!, peak_A }).slice(2),
+        checks: innerPeaks(ctx, devs, worst, rBE, tap.iMax_A).map((peak_A, k) =>
+          switchPeakCheck(ctx, STACK_ROLES[k]!, devs[k]!, peak_A),
         ),
         losses,
         figures: [
