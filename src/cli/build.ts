@@ -75,11 +75,16 @@ export async function runBuild(o: BuildOptions): Promise<number> {
     feasible += n.feasible;
   };
   const misses: number[] = [];
+  // The simulation work of each design, in catalogue order; a design read from its entry gives its
+  // work here, so the entry is decoded once.
+  const designJobs: VerifyJob[][] = [];
   project.designs.forEach((design, i) => {
     sizeStats.keys.push(sizedKey(project, design));
     const hit = o.rebuild ? null : cachedDesign(project, design, sizedDir);
-    if (hit) count({ variants: hit.length, feasible: hit.filter((r) => r.sized.feasible).length });
-    else misses.push(i);
+    if (hit) {
+      count({ variants: hit.length, feasible: hit.filter((r) => r.sized.feasible).length });
+      if (o.simulate) designJobs[i] = simulationJobs(hit, project.devices);
+    } else misses.push(i);
   });
   sizeStats.hits = project.designs.length - misses.length;
   sizeStats.misses = misses.length;
@@ -121,10 +126,16 @@ export async function runBuild(o: BuildOptions): Promise<number> {
   // The simulation work, in catalogue order, read back from the entries.
   const jobs: VerifyJob[] = [];
   if (o.simulate)
-    for (const design of project.designs) {
-      const { rendered } = sizeAndRenderDesign(project, design, sizedDir, undefined, { read: true });
-      jobs.push(...simulationJobs(rendered, project.devices));
-    }
+    project.designs.forEach((design, i) => {
+      const own =
+        designJobs[i] ??
+        simulationJobs(
+          sizeAndRenderDesign(project, design, sizedDir, undefined, { read: true }).rendered,
+          project.devices,
+        );
+      jobs.push(...own);
+    });
+  designJobs.length = 0;
   const tSized = performance.now();
   o.out.log(
     `sized and rendered ${variants} variants of ${project.designs.length} designs ` +
