@@ -131,19 +131,22 @@ function bjtCard(dev: BjtClass, opts: SpiceModelOptions, dc: [string, number][],
 
 export function spiceModel(dev: DeviceClass, opts: SpiceModelOptions): string {
   // Every deck of every variant carries the cards of its classes, and a BJT card is a least-squares
-  // fit: each card is made once per process for the same class data and options.
-  const key = `${JSON.stringify(dev)}\0${opts.gain}\0${opts.ic_A}\0${opts.junction}\0${opts.cards}`;
-  const kept = CARDS.get(key);
+  // fit: each card is made once per class object (the loaded library's classes are never changed)
+  // and set of options.
+  let cards = CARDS.get(dev);
+  if (cards === undefined) CARDS.set(dev, (cards = new Map()));
+  const key = `${opts.gain}\0${opts.ic_A}\0${opts.junction}\0${opts.cards}`;
+  const kept = cards.get(key);
   if (kept !== undefined) return kept;
   const card = makeModel(dev, opts);
-  if (CARDS.size >= CARDS_MAX) CARDS.clear();
-  CARDS.set(key, card);
+  // A class is read at a few currents per design; the bound keeps memory flat over a large catalogue.
+  if (cards.size >= CARDS_PER_CLASS_MAX) cards.clear();
+  cards.set(key, card);
   return card;
 }
 
-/** Cards kept (a catalogue has tens of classes, each read at a few currents); the bound keeps memory flat. */
-const CARDS_MAX = 2048;
-const CARDS = new Map<string, string>();
+const CARDS_PER_CLASS_MAX = 256;
+const CARDS = new WeakMap<DeviceClass, Map<string, string>>();
 
 function makeModel(dev: DeviceClass, opts: SpiceModelOptions): string {
   switch (dev.family) {
