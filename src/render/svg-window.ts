@@ -4,8 +4,9 @@
  * module with src/browser/svgdom-shim.ts (src/site/bundle.ts), which hands over the page's window.
  */
 import { createRequire } from "node:module";
+import type * as SvgDomModule from "svgdom";
 
-type SvgDom = typeof import("svgdom");
+type SvgDom = typeof SvgDomModule;
 
 let svgdom: SvgDom | undefined;
 
