@@ -22,6 +22,8 @@ import { checkOutDir, writeSiteMarker } from "./out-guard.ts";
 import { buildDate } from "./build-date.ts";
 import type { Verification } from "../model/verification.ts";
 import type { BuiltDesign } from "../model/catalogue.ts";
+import type { LoadedProject } from "./pipeline.ts";
+import type { CatalogueHead, WriteStats } from "../site/write.ts";
 
 /**
  * The code of the whole build after sizing (site writer, templates, browser scripts; sizing and
@@ -73,17 +75,49 @@ export async function runBuild(o: BuildOptions): Promise<number> {
     feasible += n.feasible;
   };
   const misses: number[] = [];
+  // The simulation work of each design, in catalogue order; a design read from its entry gives its
+  // work here, so the entry is decoded once.
+  const designJobs: VerifyJob[][] = [];
   project.designs.forEach((design, i) => {
     sizeStats.keys.push(sizedKey(project, design));
     const hit = o.rebuild ? null : cachedDesign(project, design, sizedDir);
-    if (hit) count({ variants: hit.length, feasible: hit.filter((r) => r.sized.feasible).length });
-    else misses.push(i);
+    if (hit) {
+      count({ variants: hit.length, feasible: hit.filter((r) => r.sized.feasible).length });
+      if (o.simulate) designJobs[i] = simulationJobs(hit, project.devices);
+    } else misses.push(i);
   });
   sizeStats.hits = project.designs.length - misses.length;
   sizeStats.misses = misses.length;
+  // The program's own version, read beside its code: a records project need not be an npm package.
+  const pkg = JSON.parse(await readFile(new URL("../../package.json", import.meta.url), "utf8")) as {
+    version: string;
+  };
+  const builtAt = buildDate();
+  const siteCache = path.join(o.root, ".cache", "site");
   // The designs to size again: on every core when there are enough of them (size-pool.ts).
   const workers = sizingWorkers(project, misses, o.workers);
-  if (workers > 0) for (const n of (await sizeInWorkers(o.root, project, misses, sizedDir, workers)).values()) count(n);
+  // Without simulation the pages need nothing but each design's own entry, so the site writer
+  // starts on the first design while the workers size the rest (unless nothing would be written).
+  if (
+    workers > 0 &&
+    !o.simulate &&
+    (o.rebuild ||
+      (await publishedKey(siteCache, outDir)) !== siteKey(o, project, sizeStats.keys, new Map(), pkg, builtAt))
+  )
+    return overlappedBuild(o, {
+      project,
+      outDir,
+      sizedDir,
+      siteCache,
+      misses,
+      workers,
+      sizeStats,
+      counted: { variants, feasible },
+      pkg,
+      builtAt,
+      t0,
+    });
+  if (workers > 0) for (const n of (await sizeInWorkers(project, misses, sizedDir, workers)).values()) count(n);
   else
     for (const i of misses) {
       const { rendered } = sizeAndRenderDesign(project, project.designs[i]!, sizedDir, undefined, { read: false });
@@ -92,10 +126,16 @@ export async function runBuild(o: BuildOptions): Promise<number> {
   // The simulation work, in catalogue order, read back from the entries.
   const jobs: VerifyJob[] = [];
   if (o.simulate)
-    for (const design of project.designs) {
-      const { rendered } = sizeAndRenderDesign(project, design, sizedDir, undefined, { read: true });
-      jobs.push(...simulationJobs(rendered, project.devices));
-    }
+    project.designs.forEach((design, i) => {
+      const own =
+        designJobs[i] ??
+        simulationJobs(
+          sizeAndRenderDesign(project, design, sizedDir, undefined, { read: true }).rendered,
+          project.devices,
+        );
+      jobs.push(...own);
+    });
+  designJobs.length = 0;
   const tSized = performance.now();
   o.out.log(
     `sized and rendered ${variants} variants of ${project.designs.length} designs ` +
@@ -123,25 +163,7 @@ export async function runBuild(o: BuildOptions): Promise<number> {
   jobs.length = 0;
   const tSim = performance.now();
 
-  // The program's own version, read beside its code: a records project need not be an npm package.
-  const pkg = JSON.parse(await readFile(new URL("../../package.json", import.meta.url), "utf8")) as {
-    version: string;
-  };
-  const builtAt = buildDate();
-  // The published site is a function of these inputs and the code: when they equal those of the
-  // site in place (and the folder is as that build left it), there is nothing to republish. A date
-  // read from the clock is not an input; one pinned by SOURCE_DATE_EPOCH is.
-  const siteCache = path.join(o.root, ".cache", "site");
-  const inputKey = hashParts([
-    "published-site",
-    codeHash(BUILD_CODE),
-    ...project.designs.map((d) => d.file),
-    ...sizeStats.keys,
-    keyText([...verifications].sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0))),
-    o.pathPrefix,
-    pkg.version,
-    process.env["SOURCE_DATE_EPOCH"] ? builtAt : "",
-  ]);
+  const inputKey = siteKey(o, project, sizeStats.keys, verifications, pkg, builtAt);
   if (!o.rebuild && (await publishedKey(siteCache, outDir)) === inputKey) {
     const s = { disagree: 0, failed: 0 };
     for (const v of verifications.values()) if (v.status === "disagree" || v.status === "failed") s[v.status]++;
@@ -168,43 +190,166 @@ export async function runBuild(o: BuildOptions): Promise<number> {
       yield assembleDesign(design, rendered, verifications, plot);
     }
   }
+  const published = await publishSite(o, head, designs(), { outDir, siteCache, inputKey });
+  if (typeof published === "number") return published;
+  const s = summary;
+  o.out.log(
+    `published ${published.pages} pages (${published.rendered} rendered, search index ${published.searchIndex}), ` +
+      `${published.files} files to ${path.relative(o.root, outDir) || "."}/ ` +
+      `(${s.variants} variants, ${s.feasible} feasible; simulation: ${s.agree} agree, ${s.disagree} disagree, ` +
+      `${s.failed} failed${o.simulate ? "" : ", not run"}) in ${((performance.now() - t0) / 1000).toFixed(1)} s ` +
+      `(simulation ${((tSim - tSized) / 1000).toFixed(1)} s, ${runs} transient runs)`,
+  );
+  for (const { id, v } of problems) o.out.log(`  ${v.status}: ${id}${v.message ? ` — ${v.message}` : ""}`);
+  reportRss(o);
+  return gate(o, s);
+}
+
+/**
+ * The published site's input key: it is a function of these inputs and the code, so when they
+ * equal those of the site in place (and the folder is as that build left it), there is nothing to
+ * republish. A date read from the clock is not an input; one pinned by SOURCE_DATE_EPOCH is.
+ */
+function siteKey(
+  o: BuildOptions,
+  project: LoadedProject,
+  sizedKeys: readonly string[],
+  verifications: Map<string, Verification>,
+  pkg: { version: string },
+  builtAt: string,
+): string {
+  return hashParts([
+    "published-site",
+    codeHash(BUILD_CODE),
+    ...project.designs.map((d) => d.file),
+    ...sizedKeys,
+    keyText([...verifications].sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0))),
+    o.pathPrefix,
+    pkg.version,
+    process.env["SOURCE_DATE_EPOCH"] ? builtAt : "",
+  ]);
+}
+
+/** Writes the site into a staging folder and swaps it into place; the exit code when it could not. */
+async function publishSite(
+  o: BuildOptions,
+  head: CatalogueHead,
+  designs: Iterable<BuiltDesign> | AsyncIterable<BuiltDesign>,
+  at: { outDir: string; siteCache: string; inputKey: string },
+): Promise<WriteStats | number> {
   // Imported here: a build with nothing to republish never loads the site writer.
   const { writeSiteStream } = await import("../site/write.ts");
-  const staging = await makeStagingDir(outDir);
+  const staging = await makeStagingDir(at.outDir);
   try {
-    const written = await writeSiteStream(head, designs(), staging, {
+    const written = await writeSiteStream(head, designs, staging, {
       pathPrefix: o.pathPrefix,
       quiet: true,
-      cacheDir: siteCache,
+      cacheDir: at.siteCache,
       readCache: !o.rebuild,
     });
     await writeSiteMarker(staging);
     // Again just before the swap: the folder may have been filled by someone else meanwhile.
     const still = await checkOutDir(o.root, o.outDir);
-    if (!still.ok || still.dir !== outDir) {
+    if (!still.ok || still.dir !== at.outDir) {
       await discardStaging(staging);
       o.out.error(
         still.ok ? `--out ${JSON.stringify(o.outDir)}: now resolves elsewhere; nothing was published` : still.message,
       );
       return 2;
     }
-    await swapIntoPlace(staging, outDir);
-    await recordPublished(siteCache, outDir, inputKey);
-    const s = summary;
-    o.out.log(
-      `published ${written.pages} pages (${written.rendered} rendered, search index ${written.searchIndex}), ` +
-        `${written.files} files to ${path.relative(o.root, outDir) || "."}/ ` +
-        `(${s.variants} variants, ${s.feasible} feasible; simulation: ${s.agree} agree, ${s.disagree} disagree, ` +
-        `${s.failed} failed${o.simulate ? "" : ", not run"}) in ${((performance.now() - t0) / 1000).toFixed(1)} s ` +
-        `(simulation ${((tSim - tSized) / 1000).toFixed(1)} s, ${runs} transient runs)`,
-    );
-    for (const { id, v } of problems) o.out.log(`  ${v.status}: ${id}${v.message ? ` — ${v.message}` : ""}`);
-    reportRss(o);
-    return gate(o, s);
+    await swapIntoPlace(staging, at.outDir);
+    await recordPublished(at.siteCache, at.outDir, at.inputKey);
+    return written;
   } catch (err) {
     await discardStaging(staging);
     throw err;
   }
+}
+
+interface Overlap {
+  project: LoadedProject;
+  outDir: string;
+  sizedDir: string;
+  siteCache: string;
+  misses: number[];
+  workers: number;
+  sizeStats: StageStats;
+  /** Variants and feasible ones of the designs read from their entries. */
+  counted: { variants: number; feasible: number };
+  pkg: { version: string };
+  builtAt: string;
+  t0: number;
+}
+
+/**
+ * A build without simulation whose designs need sizing on worker threads: the site writer takes
+ * the designs in catalogue order, each as soon as its entry is written, while the workers size the
+ * rest, so the writer's thread and the workers share the cores instead of taking turns. The pages
+ * are those of the sequential build: each design is read back from its entry either way, and the
+ * catalogue's totals are counted by the writer as the designs pass.
+ */
+async function overlappedBuild(o: BuildOptions, x: Overlap): Promise<number> {
+  const { project, sizedDir } = x;
+  const ready = new Map<number, { promise: Promise<void>; resolve: () => void; reject: (e: unknown) => void }>();
+  for (const i of x.misses) {
+    let resolve!: () => void;
+    let reject!: (e: unknown) => void;
+    const promise = new Promise<void>((res, rej) => {
+      resolve = res;
+      reject = rej;
+    });
+    // A design the writer never reaches (it stopped on an earlier one) must not be an unhandled rejection.
+    promise.catch(() => undefined);
+    ready.set(i, { promise, resolve, reject });
+  }
+  const sizing = sizeInWorkers(project, x.misses, sizedDir, x.workers, (i) => ready.get(i)?.resolve());
+  const total = { ...x.counted };
+  const sized = sizing.then(
+    (counts) => {
+      for (const n of counts.values()) {
+        total.variants += n.variants;
+        total.feasible += n.feasible;
+      }
+      o.out.log(
+        `sized and rendered ${total.variants} variants of ${project.designs.length} designs ` +
+          `in ${((performance.now() - x.t0) / 1000).toFixed(1)} s, the site written meanwhile ` +
+          `(${x.sizeStats.hits} designs unchanged, ${x.sizeStats.misses} sized again)`,
+      );
+    },
+    (err: unknown) => {
+      for (const d of ready.values()) d.reject(err);
+      throw err;
+    },
+  );
+  sized.catch(() => undefined);
+  const head = catalogueHead(project, x.builtAt, x.pkg.version);
+  const plot = cachedPlot(path.join(o.root, ".cache", "plot"), !o.rebuild);
+  const none = new Map<string, Verification>();
+  async function* designs(): AsyncGenerator<BuiltDesign> {
+    for (const [i, design] of project.designs.entries()) {
+      await ready.get(i)?.promise;
+      const { rendered } = sizeAndRenderDesign(project, design, sizedDir, undefined, { read: true });
+      yield assembleDesign(design, rendered, none, plot);
+    }
+  }
+  const inputKey = siteKey(o, project, x.sizeStats.keys, none, x.pkg, x.builtAt);
+  let published: WriteStats | number;
+  try {
+    published = await publishSite(o, head, designs(), { outDir: x.outDir, siteCache: x.siteCache, inputKey });
+  } finally {
+    // The workers finish (or have failed) before the build returns, whatever the writer did.
+    await sized.catch(() => undefined);
+  }
+  await sized;
+  if (typeof published === "number") return published;
+  o.out.log(
+    `published ${published.pages} pages (${published.rendered} rendered, search index ${published.searchIndex}), ` +
+      `${published.files} files to ${path.relative(o.root, x.outDir) || "."}/ ` +
+      `(${total.variants} variants, ${total.feasible} feasible; simulation: 0 agree, 0 disagree, ` +
+      `0 failed, not run) in ${((performance.now() - x.t0) / 1000).toFixed(1)} s (simulation 0.0 s, 0 transient runs)`,
+  );
+  reportRss(o);
+  return 0;
 }
 
 /** Peak memory and processor time of the build's own process, for the bench (PULSEWRIGHT_REPORT_RSS set). */

@@ -7,7 +7,7 @@
 import { availableParallelism } from "node:os";
 import { Worker } from "node:worker_threads";
 import type { LoadedProject } from "./pipeline.ts";
-import type { SizeReply } from "./size-worker-main.ts";
+import type { SizeReply, SizeWorkerData } from "./size-worker-main.ts";
 
 const WORKER_URL = new URL("./size-worker.mjs", import.meta.url);
 
@@ -40,15 +40,16 @@ export function sizingWorkers(project: LoadedProject, misses: readonly number[],
 
 /**
  * Sizes the designs `misses` (indexes into the project) on `workers` threads, each entry written
- * into `cacheDir`. Resolves with each design's counts; rejects, naming the design's file, on the
- * first design that cannot be sized.
+ * into `cacheDir`; `onDesign` hears of each design as soon as its entry is written (so the site
+ * writer can start on it). Resolves with each design's counts; rejects, naming the design's file,
+ * on the first design that cannot be sized.
  */
 export async function sizeInWorkers(
-  root: string,
   project: LoadedProject,
   misses: readonly number[],
   cacheDir: string,
   workers: number,
+  onDesign?: (index: number) => void,
 ): Promise<Map<number, { variants: number; feasible: number }>> {
   const queue = [...misses];
   const heap = workerHeapMb(Math.max(...misses.map((i) => axesProduct(project.designs[i]!))));
@@ -56,7 +57,7 @@ export async function sizeInWorkers(
   const slot = (): Promise<void> =>
     new Promise((resolve, reject) => {
       const w = new Worker(WORKER_URL, {
-        workerData: { root, cacheDir },
+        workerData: { cacheDir, project } satisfies SizeWorkerData,
         resourceLimits: { maxOldGenerationSizeMb: heap },
       });
       let failed: Error | undefined;
@@ -77,6 +78,7 @@ export async function sizeInWorkers(
           fail(new Error(`sizing ${project.designs[msg.index]?.file ?? `design #${msg.index}`} failed: ${msg.error}`));
         else {
           done.set(msg.index, { variants: msg.variants, feasible: msg.feasible });
+          onDesign?.(msg.index);
           next();
         }
       });

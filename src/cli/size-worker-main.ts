@@ -1,12 +1,14 @@
 /**
- * Sizing worker body: loads the project once, then sizes and draws one design per message and
- * writes its entry into the sized cache (size-cache.ts), replying with the design's counts only.
- * Protocol: in `{ index }` or `"close"`; out `{ ready }` once the project is loaded, `{ index,
+ * Sizing worker body: takes the project the build loaded (passed as a structured clone, so the
+ * worker neither reads nor validates the records again, nor compiles their schemas), then sizes and
+ * draws one design per message and writes its entry into the sized cache (size-cache.ts), replying
+ * with the design's counts only.
+ * Protocol: in `{ index }` or `"close"`; out `{ ready }` once the project is in, `{ index,
  * variants, feasible }` per design, or `{ index, error }` / `{ fatal }` when it cannot.
  */
 import process from "node:process";
 import { parentPort, workerData } from "node:worker_threads";
-import { loadProject } from "../records/index.ts";
+import type { LoadedProject } from "./pipeline.ts";
 import { sizeAndStoreDesign } from "./size-cache.ts";
 
 export type SizeReply =
@@ -15,12 +17,17 @@ export type SizeReply =
   | { index: number; variants: number; feasible: number }
   | { index: number; error: string };
 
+/** What the pool hands each worker. */
+export interface SizeWorkerData {
+  cacheDir: string;
+  project: LoadedProject;
+}
+
 const port = parentPort;
 if (port === null) throw new Error("size-worker-main.ts must run in a worker thread");
-const { root, cacheDir } = workerData as { root: string; cacheDir: string };
+const { cacheDir, project } = workerData as SizeWorkerData;
 const reply = (r: SizeReply): void => port.postMessage(r);
-const project = await loadProject(root);
-if (!project.ok) reply({ fatal: `the records of ${root} no longer load` });
+if (project?.ok !== true || !Array.isArray(project.designs)) reply({ fatal: "the worker was given no loaded project" });
 else {
   port.on("message", (msg: { index: number } | "close") => {
     if (msg === "close") {

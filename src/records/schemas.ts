@@ -1,8 +1,9 @@
 /**
- * The JSON Schemas in designs/schema/, compiled once per load. A schema that is missing or does
- * not compile becomes an issue on that schema file, never an exception.
+ * The JSON Schemas in designs/schema/, compiled once per process for the same schema files. A
+ * schema that is missing or does not compile becomes an issue on that schema file, never an exception.
  */
 import { readdir, readFile } from "node:fs/promises";
+import { createHash } from "node:crypto";
 import { join } from "node:path";
 import { Ajv2020, type ValidateFunction } from "ajv/dist/2020.js";
 import addFormatsModule from "ajv-formats";
@@ -15,6 +16,34 @@ export type SchemaName = "design" | "device" | "derating";
 export type SchemaSet = { validators: Partial<Record<SchemaName, ValidateFunction>>; issues: RecordIssue[] };
 
 export async function loadSchemas(root: string): Promise<SchemaSet> {
+  let names: string[];
+  try {
+    names = (await readdir(join(root, SCHEMA_DIR))).filter((n) => n.endsWith(".schema.json")).sort();
+  } catch {
+    const issues = [whole(SCHEMA_DIR, "the schema folder is missing", "restore designs/schema/ from the repository")];
+    return { validators: {}, issues };
+  }
+  const texts = new Map<string, Buffer>();
+  for (const name of names) texts.set(name, await readFile(join(root, SCHEMA_DIR, name)));
+  // Compiling the schemas costs more than reading every record: a process that loads the same
+  // schemas again (check then build, the tests, the bench) reuses what it compiled, keyed by the
+  // files' names and bytes.
+  const hash = createHash("sha256");
+  for (const [name, bytes] of texts) hash.update(`${name}\0${bytes.length}\0`).update(bytes);
+  const key = hash.digest("hex");
+  const kept = COMPILED.get(key);
+  if (kept !== undefined) return { validators: { ...kept.validators }, issues: [...kept.issues] };
+  const set = compileSchemas(names, texts);
+  if (COMPILED.size >= COMPILED_MAX) COMPILED.clear();
+  COMPILED.set(key, set);
+  return { validators: { ...set.validators }, issues: [...set.issues] };
+}
+
+/** Compiled schema sets kept by this process (a handful of schema folders at most). */
+const COMPILED_MAX = 8;
+const COMPILED = new Map<string, SchemaSet>();
+
+function compileSchemas(names: string[], texts: Map<string, Buffer>): SchemaSet {
   const ajv = new Ajv2020({
     allErrors: true,
     verbose: true,
@@ -25,17 +54,10 @@ export async function loadSchemas(root: string): Promise<SchemaSet> {
   addFormatsModule.default(ajv);
   const issues: RecordIssue[] = [];
   const validators: SchemaSet["validators"] = {};
-  let names: string[];
-  try {
-    names = (await readdir(join(root, SCHEMA_DIR))).filter((n) => n.endsWith(".schema.json")).sort();
-  } catch {
-    issues.push(whole(SCHEMA_DIR, "the schema folder is missing", "restore designs/schema/ from the repository"));
-    return { validators, issues };
-  }
   const bodies = new Map<string, object>();
   for (const name of names) {
     const file = `${SCHEMA_DIR}/${name}`;
-    const parsed = parseRecordFile(file, await readFile(join(root, file)));
+    const parsed = parseRecordFile(file, texts.get(name)!);
     if (!parsed.ok) {
       issues.push(...parsed.issues);
       continue;

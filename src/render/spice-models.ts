@@ -130,6 +130,25 @@ function bjtCard(dev: BjtClass, opts: SpiceModelOptions, dc: [string, number][],
 }
 
 export function spiceModel(dev: DeviceClass, opts: SpiceModelOptions): string {
+  // Every deck of every variant carries the cards of its classes, and a BJT card is a least-squares
+  // fit: each card is made once per class object (the loaded library's classes are never changed)
+  // and set of options.
+  let cards = CARDS.get(dev);
+  if (cards === undefined) CARDS.set(dev, (cards = new Map()));
+  const key = `${opts.gain}\0${opts.ic_A}\0${opts.junction}\0${opts.cards}`;
+  const kept = cards.get(key);
+  if (kept !== undefined) return kept;
+  const card = makeModel(dev, opts);
+  // A class is read at a few currents per design; the bound keeps memory flat over a large catalogue.
+  if (cards.size >= CARDS_PER_CLASS_MAX) cards.clear();
+  cards.set(key, card);
+  return card;
+}
+
+const CARDS_PER_CLASS_MAX = 256;
+const CARDS = new WeakMap<DeviceClass, Map<string, string>>();
+
+function makeModel(dev: DeviceClass, opts: SpiceModelOptions): string {
   switch (dev.family) {
     case "npn":
     case "pnp":

@@ -2,7 +2,7 @@
  * svg.js on svgdom, registered once per process, and the output clean-up that makes the text
  * deterministic (no generated ids, no svg.js bookkeeping attributes) and safe to inline.
  */
-import { createSVGWindow } from "svgdom";
+import { createSVGWindow } from "./svg-window.ts";
 import { SVG, registerWindow, type Svg } from "@svgdotjs/svg.js";
 import { EngineMisuseError } from "../model/errors.ts";
 

@@ -16,11 +16,16 @@ export const BROWSER_SCRIPTS = {
   "design-main.ts": "design.js",
 } as const;
 
-/** `svgdom` is Node's stand-in for a DOM; in the browser the page's own DOM is used instead. */
+/**
+ * `svgdom` is Node's stand-in for a DOM, loaded through src/render/svg-window.ts; in the browser the
+ * page's own DOM is used instead.
+ */
 const svgdomToRealDom: Plugin = {
   name: "svgdom-to-real-dom",
   setup(b) {
-    b.onResolve({ filter: /^svgdom$/ }, () => ({ path: path.join(BROWSER_DIR, "svgdom-shim.ts") }));
+    const shim = { path: path.join(BROWSER_DIR, "svgdom-shim.ts") };
+    b.onResolve({ filter: /^svgdom$/ }, () => shim);
+    b.onResolve({ filter: /\/svg-window\.ts$/ }, () => shim);
   },
 };
 

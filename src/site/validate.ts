@@ -5,25 +5,38 @@ import { RecordError } from "../model/errors.ts";
 // Bad input for the site writer is a RecordError naming the design record file and a JSON pointer
 // into the BuiltCatalogue, so the caller can find the offending entry.
 
-/** Walks a value and reports the first number that is NaN or ±Infinity (never printed on a page). */
+/**
+ * Walks a value and reports the first number that is NaN or ±Infinity (never printed on a page), as
+ * a JSON pointer below `pointer`. The walk visits every number of every variant, so the pointer is
+ * spelled out only for the one found (from the keys collected on the way back up).
+ */
 function firstNonFinite(value: unknown, pointer: string): string | null {
-  if (typeof value === "number") return Number.isFinite(value) ? null : pointer;
+  const path: string[] = [];
+  if (!nonFiniteBelow(value, path)) return null;
+  return pointer + path.reverse().join("");
+}
+
+/** True when a number below `value` is not finite; `path` then holds its steps, innermost first. */
+function nonFiniteBelow(value: unknown, path: string[]): boolean {
+  if (typeof value === "number") return !Number.isFinite(value);
+  if (value === null || typeof value !== "object") return false;
   if (Array.isArray(value)) {
-    for (let i = 0; i < value.length; i++) {
-      const hit = firstNonFinite(value[i], `${pointer}/${i}`);
-      if (hit) return hit;
-    }
-    return null;
+    for (let i = 0; i < value.length; i++)
+      if (nonFiniteBelow(value[i], path)) {
+        path.push(`/${i}`);
+        return true;
+      }
+    return false;
   }
-  if (value !== null && typeof value === "object") {
-    for (const [k, v] of Object.entries(value)) {
-      // The resolved device library and policy are engine inputs, checked where they are loaded.
-      if (k === "devices" || k === "policy" || k === "waveforms") continue;
-      const hit = firstNonFinite(v, `${pointer}/${k.replace(/~/g, "~0").replace(/\//g, "~1")}`);
-      if (hit) return hit;
+  for (const k of Object.keys(value)) {
+    // The resolved device library and policy are engine inputs, checked where they are loaded.
+    if (k === "devices" || k === "policy" || k === "waveforms") continue;
+    if (nonFiniteBelow((value as Record<string, unknown>)[k], path)) {
+      path.push(`/${k.replace(/~/g, "~0").replace(/\//g, "~1")}`);
+      return true;
     }
   }
-  return null;
+  return false;
 }
 
 /** Checks what the site relies on: safe unique ids, consistent design links, finite numbers. */

@@ -62,10 +62,22 @@ export const DIODE_RS_SHARE = 0.1;
  * RS = 10 % of V_F/I_F. The netlist's diode card carries exactly these IS, N and RS.
  */
 export function diodeClassLaw(dev: DiodeClass): DiodeLaw {
+  // The timing search reads a class's law thousands of times per variant: it is derived once per
+  // class object and kept while the three fields it depends on are unchanged.
+  const kept = LAWS.get(dev);
+  if (kept !== undefined && kept.vf_V === dev.vf_V && kept.vf_at_A === dev.vf_at_A && kept.recovery === dev.recovery)
+    return kept.law;
   const n = DIODE_N_BY_RECOVERY[dev.recovery];
   const rs_ohm = (DIODE_RS_SHARE * dev.vf_V) / dev.vf_at_A;
-  return { is_A: diodeSaturationCurrent_A(dev.vf_V, dev.vf_at_A, n, rs_ohm), n, rs_ohm };
+  const law: DiodeLaw = Object.freeze({ is_A: diodeSaturationCurrent_A(dev.vf_V, dev.vf_at_A, n, rs_ohm), n, rs_ohm });
+  LAWS.set(dev, { vf_V: dev.vf_V, vf_at_A: dev.vf_at_A, recovery: dev.recovery, law });
+  return law;
 }
+
+const LAWS = new WeakMap<
+  DiodeClass,
+  { vf_V: number; vf_at_A: number; recovery: DiodeClass["recovery"]; law: DiodeLaw }
+>();
 
 /**
  * Forward drop of a diode class at i_A and t_C, V: the class law at the nominal temperature, −2 mV/K

@@ -48,12 +48,19 @@ function checkInput(value: number, fn: string): void {
 }
 
 /** Series values in the decades around `value` (one decade either side), ascending. */
-function candidates(value: number, series: SeriesName): number[] {
+function candidates(value: number, series: SeriesName): readonly number[] {
   const d = Math.floor(Math.log10(value));
+  // The list depends on the decade only; the value search rounds thousands of times per variant.
+  const key = `${series}/${d}`;
+  const kept = CANDIDATES.get(key);
+  if (kept !== undefined) return kept;
   const out: number[] = [];
   for (let e = d - 1; e <= d + 1; e++) for (const m of SERIES_MANTISSAS[series]) out.push(build(m, e));
+  CANDIDATES.set(key, Object.freeze(out));
   return out;
 }
+/** Candidate lists by series and decade (at most five series × the decades a catalogue uses). */
+const CANDIDATES = new Map<string, readonly number[]>();
 
 /** Relative slack for "already a series value" (float noise from upstream arithmetic only). */
 const SAME_REL = 1e-9;

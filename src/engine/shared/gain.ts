@@ -3,7 +3,7 @@
  * and saturation points are datasheet-style (src/model/device.ts); between points the curves are
  * interpolated the way datasheet graphs are drawn: h_FE log-log, V_CE(sat) linear in I_C.
  */
-import type { BjtClass } from "../../model/device.ts";
+import type { BjtClass, GainPoint, SatPoint } from "../../model/device.ts";
 import { EngineMisuseError } from "../../model/errors.ts";
 import { JUNCTION_TEMPCO_VperK } from "./diode.ts";
 import { NOMINAL_TEMP_C, ZERO_CELSIUS_K } from "./temperature.ts";
@@ -35,7 +35,7 @@ function checkTemp(dev: BjtClass, tj_C: number, fn: string): void {
  */
 export function hfeNominal(dev: BjtClass, ic_A: number, which: "min" | "typ" = "min"): number {
   checkCurrent(dev, ic_A, "hfeNominal");
-  const pts = dev.hfe.map((p) => ({ ic_A: p.ic_A, h: which === "typ" ? (p.typ ?? p.min) : p.min }));
+  const pts = gainPoints(dev, which);
   const first = pts[0];
   if (first === undefined) throw new EngineMisuseError(`hfeNominal(${dev.id}): the class has no gain points`);
   if (ic_A <= first.ic_A) return first.h;
@@ -46,9 +46,40 @@ export function hfeNominal(dev: BjtClass, ic_A: number, which: "min" | "typ" = "
     if (ic_A < b.ic_A) return logLog(a.ic_A, a.h, b.ic_A, b.h, ic_A);
   }
   const last = pts[pts.length - 1]!;
-  const knee = gainKnee(dev, which);
+  const knee = keptKnee(dev, which);
   if (knee === null) return last.h;
   return Math.min(last.h, (last.h * kneeQb(last.ic_A, knee)) / kneeQb(ic_A, knee));
+}
+
+/**
+ * A class's gain points as (I_C, h) and its fitted knee, derived once per gain-point list: the
+ * timing search reads the gain law thousands of times per variant, and the knee fit solves a root.
+ * Keyed by the list itself, so a class given other points gets its own entry.
+ */
+interface KeptGain {
+  pts: { ic_A: number; h: number }[];
+  knee?: GainKnee | null;
+}
+const GAIN = { min: new WeakMap<readonly GainPoint[], KeptGain>(), typ: new WeakMap<readonly GainPoint[], KeptGain>() };
+
+function keptGain(dev: BjtClass, which: "min" | "typ"): KeptGain {
+  let k = GAIN[which].get(dev.hfe);
+  if (k === undefined || k.pts.length !== dev.hfe.length) {
+    k = { pts: dev.hfe.map((p) => ({ ic_A: p.ic_A, h: which === "typ" ? (p.typ ?? p.min) : p.min })) };
+    GAIN[which].set(dev.hfe, k);
+  }
+  return k;
+}
+
+function gainPoints(dev: BjtClass, which: "min" | "typ"): readonly { ic_A: number; h: number }[] {
+  return keptGain(dev, which).pts;
+}
+
+/** gainKnee, fitted on first use (only currents above the last point need it). */
+function keptKnee(dev: BjtClass, which: "min" | "typ"): GainKnee | null {
+  const k = keptGain(dev, which);
+  if (k.knee === undefined) k.knee = gainKnee(dev, which);
+  return k.knee;
 }
 
 /**
@@ -189,15 +220,19 @@ function linearUp(points: [number, number][], x: number, singleProportional: boo
   return yl + Math.max(0, slope) * (x - xl);
 }
 
+/** The (I_C, V_CE(sat)) pairs of each saturation-point list, built once per list (read per corner by the search). */
+const SAT_POINTS = new WeakMap<readonly SatPoint[], [number, number][]>();
+
 /** Maximum V_CE(sat) at ic_A, at the forced gain of the datasheet's saturation points. */
 export function vceSat(dev: BjtClass, ic_A: number): number {
   checkCurrent(dev, ic_A, "vceSat");
   if (dev.vce_sat.length === 0) throw new EngineMisuseError(`vceSat(${dev.id}): the class has no saturation points`);
-  return linearUp(
-    dev.vce_sat.map((p) => [p.ic_A, p.vce_sat_V]),
-    ic_A,
-    true,
-  );
+  let pts = SAT_POINTS.get(dev.vce_sat);
+  if (pts === undefined || pts.length !== dev.vce_sat.length) {
+    pts = dev.vce_sat.map((p) => [p.ic_A, p.vce_sat_V]);
+    SAT_POINTS.set(dev.vce_sat, pts);
+  }
+  return linearUp(pts, ic_A, true);
 }
 
 /**

@@ -25,7 +25,7 @@ import {
   type CornerSets,
   type Envelope,
   type WorstCase,
-  dutyExtreme,
+  dutyWithin,
   envelopeCorners,
   worstCaseFast,
 } from "./worst-corners.ts";
@@ -238,10 +238,13 @@ export function searchCore(ctx: Ctx, q: BjtClass, db: DiodeClass, base: Base): S
       refineEnds(ctx, q, db, cand.v, sets, endFloor(ctx, q, base.rC_ohm, cand.v.pot_ohm) ?? R_END_MIN_OHM),
     );
     const od = overdrive(ctx, q, db, base, v.pot_ohm, v.rEndA_ohm, v.rEndB_ohm);
+    const limitsOk = od >= OVERDRIVE_K && injection(ctx, q, db, v) <= INJECTION_MAX;
+    // Only the first candidate's result is kept when none passes: a later one that fails the
+    // cheap limits needs no worst case.
+    if (!limitsOk && first !== null) continue;
     const worst = worstCaseFast(v, q, db, sets);
     const passed =
-      od >= OVERDRIVE_K &&
-      injection(ctx, q, db, v) <= INJECTION_MAX &&
+      limitsOk &&
       worst.thresholdReached &&
       worst.dMin.hi <= t.duty_min &&
       worst.dMax.lo >= t.duty_max &&
@@ -296,8 +299,19 @@ export function refineEnds(
 ): CoreValues {
   const t = ctx.spec.targets;
   let v = v0;
-  const okA = (x: CoreValues): boolean => dutyExtreme(x, q, db, sets.dMinHi, 0, 1) <= t.duty_min;
-  const okB = (x: CoreValues): boolean => dutyExtreme(x, q, db, sets.dMaxLo, 1, -1) >= t.duty_max;
+  // Only the two end stops change here (walk), so each verdict is kept by their pair: the walks and
+  // the second round ask again about pairs already judged.
+  const judged = (test: (x: CoreValues) => boolean): ((x: CoreValues) => boolean) => {
+    const seen = new Map<string, boolean>();
+    return (x) => {
+      const key = `${x.rEndA_ohm},${x.rEndB_ohm}`;
+      let r = seen.get(key);
+      if (r === undefined) seen.set(key, (r = test(x)));
+      return r;
+    };
+  };
+  const okA = judged((x) => dutyWithin(x, q, db, sets.dMinHi, 0, 1, t.duty_min));
+  const okB = judged((x) => dutyWithin(x, q, db, sets.dMaxLo, 1, -1, t.duty_max));
   for (let round = 0; round < 2; round++) {
     v = walk(v, "rEndA_ohm", okA, floor_ohm);
     v = walk(v, "rEndB_ohm", okB, floor_ohm);

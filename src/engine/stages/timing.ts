@@ -132,20 +132,27 @@ function balanceFor(
  * millerIndex): the bleed is then re-sized to the index at which the measurement found the
  * frequency on its prediction, and the search redone (the stronger bleed costs overdrive).
  */
-function millerChecked(ctx: Ctx, q: BjtClass, db: DiodeClass, base: Parameters<typeof searchCore>[3]): Search {
+function millerChecked(
+  ctx: Ctx,
+  q: BjtClass,
+  db: DiodeClass,
+  base: Parameters<typeof searchCore>[3],
+): { search: Search; corners?: SimCorner[] } {
   const search = searchCore(ctx, q, db, base);
   const v = search.values;
-  if (v.bleed_ohm === undefined || q.cob_F === undefined) return search;
+  if (v.bleed_ohm === undefined || q.cob_F === undefined) return { search };
   const env = { vMax: ctx.vMax_V, tMax: ctx.taMax_C };
-  const fast = simulationCorners(v, q, db, envelopeCorners(envelopeOf(ctx)), env).find((k) => k.name === "fast");
-  if (fast === undefined) return search;
+  // The corners of the values kept are returned with them, so designTiming need not work them out again.
+  const corners = simulationCorners(v, q, db, envelopeCorners(envelopeOf(ctx)), env);
+  const fast = corners.find((k) => k.name === "fast");
+  if (fast === undefined) return { search, corners };
   const tShort_s = (1 - fast.predicted.duty) / fast.predicted.f_Hz;
   // Only a design that passed is worth re-bleeding; a failed search's nearest values can have no
   // short half-period at all (duty 1 at the fast corner), and their refusal stands as it is.
-  if (!search.passed || !(tShort_s > 0)) return search;
+  if (!search.passed || !(tShort_s > 0)) return { search, corners };
   const z = millerIndex(q.cob_F, fast.vcc_V, v.bleed_ohm, vbeOn(q, NOMINAL_TEMP_C), tShort_s);
-  if (!Number.isFinite(z) || z <= MILLER_INDEX_MAX) return search;
-  return searchCore(ctx, q, db, { ...base, bleedScale: MILLER_INDEX_TARGET / z });
+  if (!Number.isFinite(z) || z <= MILLER_INDEX_MAX) return { search, corners };
+  return { search: searchCore(ctx, q, db, { ...base, bleedScale: MILLER_INDEX_TARGET / z }) };
 }
 
 export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingResult {
@@ -218,7 +225,8 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
   const skewRaw = skewOf();
   const { balance, balanceDiode } =
     skewRaw > t.duty_skew_max ? balanceFor(src, tap.load, db) : { balance: undefined, balanceDiode: false };
-  const search = millerChecked(ctx, q, db, { ...base, ...(balance ? { balance } : {}) });
+  const checked = millerChecked(ctx, q, db, { ...base, ...(balance ? { balance } : {}) });
+  const search = checked.search;
   const v = search.values;
   const w = search.worst;
   const nominal = { vcc_V: ctx.vNom_V, t_C: NOMINAL_TEMP_C, ...NOMINAL_K };
@@ -531,6 +539,8 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
     followerLoss_W: built.followerLoss_W,
     fCtrl1_Hz: e1.f_Hz,
     vSatNom_V: e1.vSat_V,
-    corners: simulationCorners(v, q, db, envelopeCorners(envelopeOf(ctx)), { vMax: ctx.vMax_V, tMax: ctx.taMax_C }),
+    corners:
+      checked.corners ??
+      simulationCorners(v, q, db, envelopeCorners(envelopeOf(ctx)), { vMax: ctx.vMax_V, tMax: ctx.taMax_C }),
   };
 }

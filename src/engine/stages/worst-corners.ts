@@ -100,29 +100,44 @@ export const SETS = {
   rec: { kEndA: -1, kEndB: -1, kPot: -1, kCA: 0, kCB: 0 },
 } as const satisfies Record<string, Fixed>;
 
-export function envelopeCorners(e: Envelope): Record<keyof typeof SETS, Corner[]> {
-  const o = {} as Record<keyof typeof SETS, Corner[]>;
-  for (const k of Object.keys(SETS) as (keyof typeof SETS)[]) o[k] = cornerSet(e, SETS[k]);
+export function envelopeCorners(e: Envelope): Record<keyof typeof SETS, readonly Corner[]> {
+  // Every search of a variant (and every variant of the same supply range and tolerances) asks for
+  // the same sets: they are built once per envelope and shared, frozen so no reader can change them.
+  const key = `${e.vMin},${e.vMax},${e.tMin},${e.tMax},${e.rTol},${e.potTol},${e.cTol}`;
+  const kept = KEPT_SETS.get(key);
+  if (kept !== undefined) return kept;
+  const o = {} as Record<keyof typeof SETS, readonly Corner[]>;
+  for (const k of Object.keys(SETS) as (keyof typeof SETS)[])
+    o[k] = Object.freeze(cornerSet(e, SETS[k]).map((c) => Object.freeze(c)));
+  if (KEPT_SETS.size >= KEPT_SETS_MAX) KEPT_SETS.clear();
+  KEPT_SETS.set(key, Object.freeze(o));
   return o;
 }
 
+/** Envelopes whose corner sets are kept (a catalogue has a few supply ranges; the bound keeps memory flat). */
+const KEPT_SETS_MAX = 64;
+const KEPT_SETS = new Map<string, Record<keyof typeof SETS, readonly Corner[]>>();
+
 export type CornerSets = ReturnType<typeof envelopeCorners>;
 
-/** Highest (sign +1) or lowest (−1) load duty over a corner set at one control position. */
-export function dutyExtreme(
+/**
+ * Whether every corner of the set keeps the load duty at or below `limit` (sign +1) or at or above
+ * it (−1): dutyExtreme(...) ≤ limit (≥ limit), answered at the first corner past it.
+ */
+export function dutyWithin(
   v: CoreValues,
   q: BjtClass,
   db: DiodeClass,
-  set: Corner[],
+  set: readonly Corner[],
   ctrl: number,
   sign: 1 | -1,
-): number {
-  let best = sign > 0 ? -Infinity : Infinity;
+  limit: number,
+): boolean {
   for (const k of set) {
     const d = evalCore(v, q, db, k, ctrl).duty;
-    best = sign > 0 ? Math.max(best, d) : Math.min(best, d);
+    if (sign > 0 ? !(d <= limit) : !(d >= limit)) return false;
   }
-  return best;
+  return true;
 }
 
 /** The worst case from the extreme corners only (≈ 700 evaluations instead of 1536). */
@@ -131,7 +146,7 @@ export function worstCaseFast(v: CoreValues, q: BjtClass, db: DiodeClass, s: Cor
   const w = { f: r(), dMin: r(), dMid: r(), dMax: r() };
   let recovery = 0;
   let reached = true;
-  const duty = (set: Corner[], ctrl: number, x: Range): void => {
+  const duty = (set: readonly Corner[], ctrl: number, x: Range): void => {
     for (const k of set) {
       const e = evalCore(v, q, db, k, ctrl);
       x.lo = Math.min(x.lo, e.duty);
