@@ -248,21 +248,17 @@ export function planDriverPnpSink(ctx: Ctx, plain: PlainDrive): ChainPlan {
       const iProvided = iSet.min_A - iPUmax;
       const iDrive = bjtDriveLimit_A((i) => i / hfeMin(qp, i, ctx.taMin_C), iProvided, ctx.iMax_A, loadPeak_A(ctx));
       const ib = (i: number): number => i / hfeMin(qd, i, ctx.taMin_C);
-      const qClChecks = [
-        checkStress("Q_CL", "current", clampI, qc.ic_max_A, "A", pol.bjt.current, pol.marginal_above),
-      ];
+      const qClChecks = [checkStress("Q_CL", "current", clampI, qc.ic_max_A, "A", pol.bjt.current, pol.marginal_above)];
       return {
         drive: { i_A: iDrive, how: "I_C = β_min(I_C, T_A,min) · (I_sink,min − I_pull-up)" },
         parts: [qDrv, qCl, re.part, rbp.part, rpu.part, qPow],
         problems: [...at.problems, ...rbp.problems, ...re.problems, ...rpu.problems],
         checks: [
           ...switchChecks(ctx, "Q_POWER", qp),
-          ...switchChecks(
-            { ...ctx, iMax_A: iSet.max_A, load: { ...ctx.load, inductive: false } },
-            "Q_DRV",
-            qd,
-            { iMax_A: iSet.max_A, peak_A: iSet.max_A },
-          ).slice(0, 2),
+          ...switchChecks({ ...ctx, iMax_A: iSet.max_A, load: { ...ctx.load, inductive: false } }, "Q_DRV", qd, {
+            iMax_A: iSet.max_A,
+            peak_A: iSet.max_A,
+          }).slice(0, 2),
           ...qClChecks,
           ...rbp.checks,
           ...re.checks,
@@ -334,4 +330,3 @@ export function planDriverPnpSink(ctx: Ctx, plain: PlainDrive): ChainPlan {
     },
   };
 }
-

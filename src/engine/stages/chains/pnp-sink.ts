@@ -46,7 +46,11 @@ export interface SinkParts {
  * [src:vbe-tempco]. Its base current is a small share of the shunted current and is neglected.
  */
 export function vbeTypicalAt_V(q: BjtClass, i_A: number, t_C: number): number {
-  return q.vbe_on_V + VT_NOMINAL_V * Math.log(Math.max(i_A, 1e-9) / vbeRefCurrent_A(q)) + VBE_TEMPCO_VperK * (t_C - NOMINAL_TEMP_C);
+  return (
+    q.vbe_on_V +
+    VT_NOMINAL_V * Math.log(Math.max(i_A, 1e-9) / vbeRefCurrent_A(q)) +
+    VBE_TEMPCO_VperK * (t_C - NOMINAL_TEMP_C)
+  );
 }
 
 /**
