@@ -18,6 +18,7 @@ import { runningCurrentMax_A } from "../stages/context.ts";
 import { startEvent, supplyFuse } from "../stages/protection.ts";
 import { CORE_CURRENT_ESTIMATE_A } from "../stages/reverse.ts";
 import { FREEWHEEL_DROP_V } from "../stages/chains/common.ts";
+import { SINK_ESTIMATE_SHARE, plainPnpDriveEstimate } from "../stages/chains/pnp-sink.ts";
 import { OVERDRIVE_K } from "../stages/context.ts";
 
 /** Candidate classes per role in order of preference (documented in docs/method.md). */
@@ -279,25 +280,14 @@ function driverPeak_A(d: BjtClass, power: BjtClass, n: Need): number {
 }
 
 /**
- * RB_P's dissipation above which the engine replaces the resistor-fed PNP drive by a current sink, W:
- * 5 W at the default policy's 60 % (an estimate for choosing the driver; driver-pnp.ts decides with the
- * record's policy and exact values).
+ * The largest resistor's allowed dissipation, W: 5 W at the default policy's 60 % (the chooser has no
+ * policy; driver-pnp.ts takes the record's). With SINK_ESTIMATE_SHARE, the rule by which the PNP
+ * drive becomes a current sink.
  */
 const PNP_SINK_ABOVE_W = 3;
 /** Collector–emitter voltage the sink's driver keeps at V_cc,min besides the supply's rise, V (pnp-sink.ts). */
 const SINK_DRIVER_FLOOR_V = 1;
 
-/**
- * The resistor-fed PNP drive as driver-pnp.ts sizes it, estimated ahead of sizing: the PNP's base current
- * at forced β min(10, β_min/2) of the highest running current, + 10 % for its pull-up; RB_P sized at
- * V_cc,min across V − 1.5 V passes (V_cc,max − 0.7 V)/(V_cc,min − 1.5 V) × 1.05/0.95 of it at V_cc,max.
- * Returns that current and RB_P's dissipation there (derived).
- */
-function plainPnpDrive(power: BjtClass, n: Pick<Need, "vMin_V" | "vMax_V" | "iRunMax_A" | "ambientMin_C">) {
-  const iB_A = (1.1 * n.iRunMax_A) / Math.min(10, hfeMin(power, n.iRunMax_A, n.ambientMin_C) / OVERDRIVE_K);
-  const i_A = iB_A * ((n.vMax_V - 0.7) / Math.max(n.vMin_V - 1.5, 0.5)) * (1.05 / 0.95);
-  return { iB_A, i_A, rbp_W: i_A * (n.vMax_V - 0.7) };
-}
 /** Most over least current of the PNP drive's sink (V_BE spread, temperature, tolerance; ≈ pnp-sink.ts). */
 const SINK_SPREAD = 1.6;
 
@@ -429,8 +419,8 @@ export function chooseDevicesWithReasons(
         `chooseDevices: no default class for role "${role}" in the library (expected one of ${ids.join(", ")})`,
       );
     if (role === "driver_npn") {
-      const plain = isBjt(out.power_pnp) ? plainPnpDrive(out.power_pnp, need) : undefined;
-      if (chain === "bjt-driver-pnp" && plain !== undefined && plain.rbp_W > PNP_SINK_ABOVE_W)
+      const plain = isBjt(out.power_pnp) ? plainPnpDriveEstimate(out.power_pnp, need) : undefined;
+      if (chain === "bjt-driver-pnp" && plain !== undefined && plain.rbp_W > SINK_ESTIMATE_SHARE * PNP_SINK_ABOVE_W)
         need.pnpSink_A = SINK_SPREAD * plain.iB_A;
       // In the MOSFET gate driver the class serves the gate-drive pair's source follower and the
       // level shifter, not a power stage: small packages only (GATE_DRIVE_PACKAGES).

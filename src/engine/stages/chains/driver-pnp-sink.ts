@@ -322,7 +322,11 @@ export function planDriverPnpSink(ctx: Ctx, plain: PlainDrive): ChainPlan {
           choice: `constant-current sink: ${formatValue(iSet.min_A, "A")} … ${formatValue(iSet.max_A, "A")} set by R_E`,
           reason:
             `fed through a resistor from the supply, RB_P would dissipate ${formatValue(plain.plainRbp_W, "W")} at ` +
-            `${ctx.vMax_V.toFixed(1)} V and full duty, more than the largest resistor carries under the policy; ` +
+            `${ctx.vMax_V.toFixed(1)} V and full duty, ` +
+            (plain.plainRbp_W > largestResistor_W(pol)
+              ? "more than the largest resistor carries under the policy; "
+              : `close to the ${formatValue(largestResistor_W(pol), "W")} the largest resistor carries under the ` +
+                "policy (the device chooser's estimate is over 75 % of it); ") +
             "a current sink draws the same base current at every supply, so only the supply's rise above its " +
             "minimum is spent, in the driver",
         },

@@ -18,6 +18,7 @@ import type { BjtClass } from "../../../model/device.ts";
 import { roundDown } from "../../shared/e-series.ts";
 import { hfeMin, VBE_TEMPCO_VperK, vbeRefCurrent_A } from "../../shared/gain.ts";
 import { NOMINAL_TEMP_C, VT_NOMINAL_V } from "../../shared/temperature.ts";
+import { FORCED_BETA, OVERDRIVE_K } from "../context.ts";
 import { vbeActiveNominal_V } from "./vbe-nominal.ts";
 
 /**
@@ -101,6 +102,30 @@ export function sinkRange_A(
   );
   return { min_A: Math.min(...lo), max_A: Math.max(...hi) };
 }
+
+/**
+ * The resistor-fed PNP drive as driver-pnp.ts sizes it, estimated from the supply window, the highest
+ * running current and the PNP class alone (the device chooser has no more): the PNP's base current at
+ * forced β min(10, β_min/2) of the highest running current, + 10 % for its pull-up; RB_P sized at
+ * V_cc,min across V − 1.5 V passes (V_cc,max − 0.7 V)/(V_cc,min − 1.5 V) × 1.05/0.95 of it at
+ * V_cc,max and dissipates that current times V_cc,max − 0.7 V (derived).
+ */
+export function plainPnpDriveEstimate(
+  power: BjtClass,
+  n: { vMin_V: number; vMax_V: number; iRunMax_A: number; ambientMin_C: number },
+): { iB_A: number; i_A: number; rbp_W: number } {
+  const iB_A = (1.1 * n.iRunMax_A) / Math.min(FORCED_BETA, hfeMin(power, n.iRunMax_A, n.ambientMin_C) / OVERDRIVE_K);
+  const i_A = iB_A * ((n.vMax_V - 0.7) / Math.max(n.vMin_V - 1.5, 0.5)) * (1.05 / 0.95);
+  return { iB_A, i_A, rbp_W: i_A * (n.vMax_V - 0.7) };
+}
+
+/**
+ * Share of the largest resistor's allowed dissipation above which the estimate alone already calls for
+ * the sink (ours): the estimate runs within about 20 % of the sizing (E24 rounding of RB_P, the pull-up's
+ * exact share), and the chooser and the chain must agree, or the sink gets a driver chosen for a
+ * saturated switch.
+ */
+export const SINK_ESTIMATE_SHARE = 0.75;
 
 /**
  * Largest of I·(V0 − I·R) over I in [iMin, iMax], W: the driver's dissipation with a fixed voltage V0
