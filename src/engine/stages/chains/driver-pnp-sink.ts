@@ -10,7 +10,7 @@ import type { BjtClass } from "../../../model/device.ts";
 import { checkStress } from "../../shared/derating.ts";
 import { figure, problem } from "../../shared/figures.ts";
 import { hfeMin, vbeOn, vbeSat, vceSat } from "../../shared/gain.ts";
-import { roundDown } from "../../shared/e-series.ts";
+import { nearest, roundDown } from "../../shared/e-series.ts";
 import { conductionLossBjt_W, switchingLoss_W } from "../../shared/losses.ts";
 import { deviceSource } from "../../shared/sources.ts";
 import { largestResistor_W, resistor, transistor } from "../../../circuit/parts.ts";
@@ -37,6 +37,13 @@ import {
 } from "./pnp-sink.ts";
 
 /** What the resistor-fed sizing already found (driver-pnp.ts). */
+/**
+ * Share of the PNP's base current the turn-off pull-up carries with the sink and a winding (ours; the
+ * resistor-fed drive's is BLEED_SHARE, 10 %): with 10 % a 20 kHz fan's PNP stayed on through its
+ * off-time under the second card set, its storage time several µs longer than the first set's.
+ */
+export const SINK_PULLUP_SHARE = 0.3;
+
 export interface PlainDrive {
   rPU: number;
   iBP: number;
@@ -61,7 +68,14 @@ export function planDriverPnpSink(ctx: Ctx, plain: PlainDrive): ChainPlan {
   const pol = ctx.spec.policy;
   const sp: SinkParts = { qc, rTol: ctx.rTol };
   const temps = [ctx.taMin_C, ctx.taMax_C] as const;
-  const { rPU } = plain;
+  // RPU alone pulls the PNP's stored charge out at turn-off, while the sink, sized for the coldest gain
+  // with its spread, overdrives the base more than the resistor-fed drive does. With a winding the
+  // switch's voltage edge waits for that charge to leave, so there the pull-up takes a larger share
+  // of the base current (SINK_PULLUP_SHARE); a resistive load keeps the resistor-fed drive's pull-up.
+  const rPU =
+    ctx.switching === "clamped-inductive"
+      ? nearest(vbeOn(qp, NOMINAL_TEMP_C) / (SINK_PULLUP_SHARE * plain.iBP), "E24")
+      : plain.rPU;
   // The PNP's base need at temperature t: forced β min(10, β_min/2) at the highest current, plus the
   // pull-up's share at V_EB(sat) shifted −2 mV/K (its most at the coldest end) [src:horowitz-hill-3e].
   const vEB = (t: number): number => vbeSat(qp, ctx.iMax_A) + (vbeOn(qp, t) - qp.vbe_on_V);
