@@ -288,6 +288,12 @@ const PNP_SINK_ABOVE_W = 3;
 /** Collector–emitter voltage the sink's driver keeps at V_cc,min besides the supply's rise, V (pnp-sink.ts). */
 const SINK_DRIVER_FLOOR_V = 1;
 
+/** The sink's most current when the PNP drive will be one (pnp-sink.ts's estimate), else 0, A. */
+function pnpSinkCurrent_A(power: DeviceClass | undefined, n: Need): number {
+  if (power === undefined || !isBjt(power)) return 0;
+  const plain = plainPnpDriveEstimate(power, n);
+  return plain.rbp_W > SINK_ESTIMATE_SHARE * PNP_SINK_ABOVE_W ? SINK_SPREAD * plain.iB_A : 0;
+}
 /** Most over least current of the PNP drive's sink (V_BE spread, temperature, tolerance; ≈ pnp-sink.ts). */
 const SINK_SPREAD = 1.6;
 
@@ -419,9 +425,7 @@ export function chooseDevicesWithReasons(
         `chooseDevices: no default class for role "${role}" in the library (expected one of ${ids.join(", ")})`,
       );
     if (role === "driver_npn") {
-      const plain = isBjt(out.power_pnp) ? plainPnpDriveEstimate(out.power_pnp, need) : undefined;
-      if (chain === "bjt-driver-pnp" && plain !== undefined && plain.rbp_W > SINK_ESTIMATE_SHARE * PNP_SINK_ABOVE_W)
-        need.pnpSink_A = SINK_SPREAD * plain.iB_A;
+      need.pnpSink_A = chain === "bjt-driver-pnp" ? pnpSinkCurrent_A(out.power_pnp, need) : 0;
       // In the MOSFET gate driver the class serves the gate-drive pair's source follower and the
       // level shifter, not a power stage: small packages only (GATE_DRIVE_PACKAGES).
       const usable = present

@@ -4,8 +4,9 @@
  * base on that emitter shunts the tap's current away from Q_DRV's base as soon as R_E·I reaches its
  * V_BE, so Q_DRV sinks I = V_BE(Q_CL)/R_E from the PNP's base at every supply (the feedback current
  * source [src:horowitz-hill-3e-current-source]). A pair of diodes clamping the base was tried first:
- * their ohmic drop at the tap's spread of currents (1 → 10 mA) moved 2·V_F − V_BE by 0.3 V on 0.6 V. RB_P then only takes a share of the driver's voltage; the
- * rest of the supply's rise above V_cc,min falls across Q_DRV, which stays out of saturation.
+ * their ohmic drop at the tap's spread of currents (1 → 10 mA) moved 2·V_F − V_BE by 0.3 V on 0.6 V.
+ * RB_P then only takes a share of the driver's voltage; the rest of the supply's rise above V_cc,min
+ * falls across Q_DRV, which stays out of saturation.
  *
  * Why: fed through a resistor from the whole supply, the PNP's base current grows with the supply
  * (a lead-acid window of 10.5–14.7 V nearly doubles it), and at forced β ≈ 8 of a power PNP at
@@ -23,10 +24,13 @@ import { vbeActiveNominal_V } from "./vbe-nominal.ts";
 
 /**
  * Part-to-part spread of the sense transistor's V_BE around its law, V (±30 mV: one type at one
- * current, from memory; [src:common-practice]). Taken off for the least sink current and added for the most.
+ * current, from memory; [src:common-practice]). Taken off for the least sink current and added for
+ * the most.
  */
 export const SINK_VE_SPREAD_V = 0.03;
-/** Least collector current kept in the sense transistor at V_cc,min, A (well into its exponential law; common practice). */
+/**
+ * Least collector current kept in the sense transistor at V_cc,min, A (on its exponential law;
+ * common practice). */
 export const CLAMP_BIAS_A = 1e-3;
 /**
  * Collector–emitter headroom kept above V_CE(sat) of Q_DRV at V_cc,min, V, so it still acts as a
