@@ -16,6 +16,11 @@ import { formatValue } from "../model/format.ts";
 /** Standard resistor power ratings, W (common practice). */
 export const RESISTOR_RATINGS_W = [0.25, 0.5, 1, 2, 3, 5] as const;
 
+/** Most a resistor of the largest standard rating may dissipate under the policy, W. */
+export function largestResistor_W(policy: DeratingPolicy): number {
+  return Math.max(...RESISTOR_RATINGS_W) * policy.resistor.power.factor;
+}
+
 export interface Built {
   part: Part;
   checks: StressCheck[];

@@ -331,6 +331,16 @@ function sizeInner(spec: VariantSpec): SizedVariant {
         reviewed.conditions.some((c) => c.rule === "insulator-kit"),
         follower,
       ),
+      ...(fin.decision === undefined
+        ? []
+        : [
+            {
+              refs: fin.decision.roles.map(toRef),
+              topic: fin.decision.topic,
+              choice: fin.decision.choice,
+              reason: fin.decision.reason,
+            },
+          ]),
       ...(timer === undefined
         ? []
         : [

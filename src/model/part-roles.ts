@@ -38,6 +38,8 @@ export const STAGE_ROLES = {
     "Q_D2",
     "Q_D3",
     "Q_DRV",
+    "Q_CL",
+    "RE_DRV",
     "RB_P",
     "RPU",
     "RP",

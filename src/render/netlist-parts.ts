@@ -27,9 +27,12 @@ function pins(p: Part): string[] {
   });
 }
 
-/** Timing-core transistors use their class's typical-junction card (spice-models.ts timingModelName). */
+/**
+ * Timing-core transistors use their class's typical-junction card (spice-models.ts timingModelName); so
+ * does the PNP drive's sense transistor Q_CL, whose V_BE at milliamperes sets the sink current.
+ */
 export function isTimingTransistor(p: Part): boolean {
-  return p.stage === "timing" && (p.kind === "npn" || p.kind === "pnp");
+  return (p.stage === "timing" || p.role === "Q_CL") && (p.kind === "npn" || p.kind === "pnp");
 }
 
 function modelOf(p: Part): string {

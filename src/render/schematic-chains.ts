@@ -85,8 +85,20 @@ export const CHAIN: Record<ChainKind, ChainLayout> = {
       RB_P: { x: 180, y: 200 },
       RPU: { x: 180, y: 100 },
       Q_POWER: { x: 300, y: 150 },
+      // Constant-current drive only: the emitter resistor under the driver, its sense transistor to the left.
+      RE_DRV: { x: 180, y: 400 },
+      Q_CL: { x: 115, y: 370, mirror: true, label: "left" },
     },
-    routes: [tap("RT"), ["RT.b", "Q_DRV.b"], ["RB_P.b", "Q_DRV.c"], ["RPU.b", "RB_P.a"], ["Q_POWER.b", [180, 150]]],
+    routes: [
+      tap("RT"),
+      ["RT.b", "Q_DRV.b"],
+      ["RB_P.b", "Q_DRV.c"],
+      ["RPU.b", "RB_P.a"],
+      ["Q_POWER.b", [180, 150]],
+      ["Q_DRV.e", "RE_DRV.a"],
+      ["Q_CL.c", [105, 290]],
+      ["Q_CL.b", [180, 370]],
+    ],
   },
   // Inverting driver stage, optional zener gate rail, complementary follower, gate network.
   "mosfet-driver": {

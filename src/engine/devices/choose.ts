@@ -18,6 +18,7 @@ import { runningCurrentMax_A } from "../stages/context.ts";
 import { startEvent, supplyFuse } from "../stages/protection.ts";
 import { CORE_CURRENT_ESTIMATE_A } from "../stages/reverse.ts";
 import { FREEWHEEL_DROP_V } from "../stages/chains/common.ts";
+import { SINK_ESTIMATE_SHARE, plainPnpDriveEstimate } from "../stages/chains/pnp-sink.ts";
 import { OVERDRIVE_K } from "../stages/context.ts";
 
 /** Candidate classes per role in order of preference (documented in docs/method.md). */
@@ -125,6 +126,12 @@ interface Need {
    * chains when none is given); 0 when it serves none.
    */
   darlington: 0 | 2 | 3;
+  /**
+   * The most current of the PNP drive's constant-current sink, A, when it will be one (driver-pnp.ts decides
+   * it when the resistor-fed RB_P would run over the largest resistor), else 0: its driver then carries the
+   * supply's rise, I·(V_cc,max − V_cc,min), not a saturated V_CE(sat).
+   */
+  pnpSink_A: number;
   /**
    * Largest clearing I²t of the supply fuse over the record's load kinds (0 when no fuse fits: the engine reports it).
    */
@@ -272,16 +279,37 @@ function driverPeak_A(d: BjtClass, power: BjtClass, n: Need): number {
   return Math.min(share(n.peak_A), OVERDRIVE_K * spread * (n.vMax_V / n.vMin_V) * share(n.iRunMax_A));
 }
 
+/**
+ * The largest resistor's allowed dissipation, W: 5 W at the default policy's 60 % (the chooser has no
+ * policy; driver-pnp.ts takes the record's). With SINK_ESTIMATE_SHARE, the rule by which the PNP
+ * drive becomes a current sink.
+ */
+const PNP_SINK_ABOVE_W = 3;
+/** Collector–emitter voltage the sink's driver keeps at V_cc,min besides the supply's rise, V (pnp-sink.ts). */
+const SINK_DRIVER_FLOOR_V = 1;
+
+/** The sink's most current when the PNP drive will be one (pnp-sink.ts's estimate), else 0, A. */
+function pnpSinkCurrent_A(power: DeviceClass | undefined, n: Need): number {
+  if (power === undefined || !isBjt(power)) return 0;
+  const plain = plainPnpDriveEstimate(power, n);
+  return plain.rbp_W > SINK_ESTIMATE_SHARE * PNP_SINK_ABOVE_W ? SINK_SPREAD * plain.iB_A : 0;
+}
+/** Most over least current of the PNP drive's sink (V_BE spread, temperature, tolerance; ≈ pnp-sink.ts). */
+const SINK_SPREAD = 1.6;
+
 export function pickDriver(cands: BjtClass[], power: BjtClass, n: Need): BjtClass | undefined {
-  const iPnp = n.load_A * pnpDriverShare(n);
+  const iPnp = n.pnpSink_A > 0 ? n.pnpSink_A : n.load_A * pnpDriverShare(n);
+  const pSink_W = n.pnpSink_A * (n.vMax_V - n.vMin_V + SINK_DRIVER_FLOOR_V);
   const iDar = (DARLINGTON_DRIVER_FACTOR * n.load_A) / hfeMin(power, n.load_A, n.ambientMin_C);
   const iMax = Math.max(iPnp, iDar);
   const vMax = n.driverVOff_V;
   let best: { d: BjtClass; g: number } | undefined;
   for (const d of cands) {
     // Darlington first stage: V_CE = V_CE(sat) of the stage before + its own V_BE(sat) (the engine's model).
-    const p_W = Math.max(iPnp * vceSat(d, iPnp), iDar * (DARLINGTON_DRIVE_SAT_V + vbeSat(d, iDar)));
-    if (d.ic_max_A * SWITCH_HEADROOM < iMax || d.vceo_V * SWITCH_HEADROOM < vMax || !freeAirOk(d, p_W, n)) continue;
+    const p_W = Math.max(iPnp * vceSat(d, iPnp), iDar * (DARLINGTON_DRIVE_SAT_V + vbeSat(d, iDar)), pSink_W);
+    // A sink's driver in a case-rated package may go on a heatsink (the thermal stage sizes it).
+    const cool = freeAirOk(d, p_W, n) || (pSink_W > 0 && d.ptot_at === "case");
+    if (d.ic_max_A * SWITCH_HEADROOM < iMax || d.vceo_V * SWITCH_HEADROOM < vMax || !cool) continue;
     if ((d.icm_A ?? d.ic_max_A) < driverPeak_A(d, power, n)) continue;
     const g = Math.min(hfeMin(d, iPnp, n.ambientMin_C), hfeMin(d, iDar, n.ambientMin_C));
     if (best === undefined || g > best.g) best = { d, g };
@@ -357,6 +385,7 @@ export function chooseDevicesWithReasons(
   const fuseClearing_A2s = Math.max(0, ...starts.map((x) => x.clearing_A2s));
   const darlington = darlingtonStages(chain === undefined ? record.axes.chain : [chain]);
   const need: Need = {
+    pnpSink_A: 0,
     darlington,
     driverVOff_V: darlington && starts.some((x) => x.inductive) ? w.max_V + FREEWHEEL_DROP_V : w.max_V,
     fuseClearing_A2s,
@@ -396,6 +425,7 @@ export function chooseDevicesWithReasons(
         `chooseDevices: no default class for role "${role}" in the library (expected one of ${ids.join(", ")})`,
       );
     if (role === "driver_npn") {
+      need.pnpSink_A = chain === "bjt-driver-pnp" ? pnpSinkCurrent_A(out.power_pnp, need) : 0;
       // In the MOSFET gate driver the class serves the gate-drive pair's source follower and the
       // level shifter, not a power stage: small packages only (GATE_DRIVE_PACKAGES).
       const usable = present

@@ -388,6 +388,20 @@ export const SOURCES = {
       "from reverse breakdown with a series or anti-parallel diode.",
     values: [{ item: "forced gain for a hard switch", value: "β_forced ≈ 10", sureness: "common-practice" }],
   },
+  "horowitz-hill-3e-current-source": {
+    kind: "textbook",
+    short: "Horowitz & Hill 3rd ed., current sources",
+    title: "P. Horowitz, W. Hill, The Art of Electronics (Cambridge University Press)",
+    edition: "3rd edition (2015)",
+    where: "chapter 2, the transistor current source (section number from memory)",
+    sureness: "from-memory",
+    confidence: "from-memory",
+    note:
+      "A transistor with its base held at a fixed voltage (a divider, a zener or diodes) and a resistor in " +
+      "its emitter sinks I = (V_B − V_BE)/R_E whatever its collector voltage, as long as it stays out of " +
+      "saturation; a diode in the base string offsets V_BE and its temperature drift.",
+    values: [{ item: "sink current", value: "I_C ≈ (V_B − V_BE)/R_E", sureness: "from-memory" }],
+  },
   "sedra-smith": {
     kind: "textbook",
     short: "Sedra & Smith, Microelectronic Circuits",

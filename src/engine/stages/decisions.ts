@@ -24,6 +24,7 @@ const DEVICE_ROLE_OF: Partial<Record<PartRole, DeviceRole>> = {
   DF_A: "signal_diode",
   DF_B: "signal_diode",
   Q_DRV: "driver_npn",
+  Q_CL: "timing_npn",
   Q_HI: "driver_npn",
   Q_LO: "driver_pnp",
   Q_PULL: "timing_npn",

@@ -10,7 +10,9 @@ import { figure, problem } from "../../shared/figures.ts";
 import { hfeMin, vbeOn, vbeSat, vceSat } from "../../shared/gain.ts";
 import { conductionLossBjt_W, switchingLoss_W } from "../../shared/losses.ts";
 import { deviceSource } from "../../shared/sources.ts";
-import { resistor, transistor } from "../../../circuit/parts.ts";
+import { largestResistor_W, resistor, transistor } from "../../../circuit/parts.ts";
+import { planDriverPnpSink } from "./driver-pnp-sink.ts";
+import { SINK_ESTIMATE_SHARE, plainPnpDriveEstimate } from "./pnp-sink.ts";
 import { type Ctx, FORCED_BETA, OVERDRIVE_K, switchedVoltage_V } from "../context.ts";
 import {
   needAtMinSupply,
@@ -56,6 +58,21 @@ export function planDriverPnp(ctx: Ctx): ChainPlan {
   }
   const rBP = rBPmax > 1 ? roundDown(rBPmax, "E24") : 1;
   const iRbpMax = (ctx.vMax_V - vbeOn(qp, ctx.taMax_C)) / (rBP * (1 - ctx.rTol));
+  // Design decision: a resistor-fed base drive whose RB_P would dissipate more than the largest
+  // resistor carries under the policy (at full duty: a dimmer may sit at its top end) is replaced
+  // by a constant-current sink (driver-pnp-sink.ts), whose draw does not grow with the supply. The
+  // device chooser's estimate of the same (pnp-sink.ts) also decides it, so the sink always gets the
+  // driver class chosen for it.
+  const plainRbp_W = iRbpMax * iRbpMax * rBP * (1 + ctx.rTol);
+  const est = plainPnpDriveEstimate(qp, {
+    vMin_V: ctx.supply.min_V,
+    vMax_V: ctx.vMax_V,
+    iRunMax_A: ctx.iMax_A,
+    ambientMin_C: ctx.taMin_C,
+  });
+  const limit_W = largestResistor_W(pol);
+  if (rBPmax > 0 && (plainRbp_W > limit_W || est.rbp_W > SINK_ESTIMATE_SHARE * limit_W))
+    return planDriverPnpSink(ctx, { rPU, iBP, plainRbp_W });
   const iRbpMin = (ctx.vMin_V - vEB - vceD) / (rBP * (1 + ctx.rTol));
   const betaD = hfeMin(qd, iRbpMax, ctx.taMin_C);
   // The driver is a small-signal switch carrying only the PNP's base current: overdrive k = 2 at

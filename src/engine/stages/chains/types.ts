@@ -83,5 +83,13 @@ export interface ChainPlan extends StageResult {
   finish(
     tap: TapInfo,
     op: OperatingPoint,
-  ): StageResult & { losses: DeviceLoss[]; vSwNom_V?: number; drive?: DriveLimit };
+  ): StageResult & { losses: DeviceLoss[]; vSwNom_V?: number; drive?: DriveLimit; decision?: ChainDecision };
+}
+
+/** A choice of arrangement the chain made for this variant, for the page's design decisions. */
+export interface ChainDecision {
+  roles: PartRole[];
+  topic: string;
+  choice: string;
+  reason: string;
 }
