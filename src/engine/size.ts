@@ -24,6 +24,7 @@ import { type TapDesign, designFollowerCollectorTap, designFollowerTap, designTa
 import { type TimingResult, designTiming } from "./stages/timing.ts";
 import { loadStage } from "./stages/load.ts";
 import { windingSwitchTerms, withWindingForm } from "./stages/winding-losses.ts";
+import { type MotorRuns, motorRuns } from "./stages/motor-runs.ts";
 import type { WindingWaveform } from "./shared/winding.ts";
 import { thermalStage } from "./stages/thermal.ts";
 import { reviewFailures } from "./stages/failure-modes.ts";
@@ -192,8 +193,16 @@ function sizeInner(spec: VariantSpec): SizedVariant {
     vSwNom_V,
     w.f.hi,
     timing.fCtrl1_Hz,
-    load.winding,
+    load.winding === undefined ? undefined : { wave: load.winding },
   );
+  const motor = motorRunsOf(ctx, timing, vSwNom_V, load.winding, (wave, duty, f_Hz) =>
+    nominalDissipation(ctx, timing.figures, fin.losses, load.iOn_A, vSwNom_V, w.f.hi, timing.fCtrl1_Hz, {
+      wave,
+      at: { duty, f_Hz },
+    }),
+  );
+  const loadPart: Part =
+    motor === undefined ? load.part : { ...load.part, spice: { ...load.part.spice, emf_by_ctrl: motor.emfByCtrl } };
 
   const timer = pullInTimer(ctx, timing, load.pullIn, prot.parts, vSwNom_V);
   const rawParts: Part[] = [
@@ -203,7 +212,7 @@ function sizeInner(spec: VariantSpec): SizedVariant {
     ...tap.parts,
     ...plan.parts,
     ...fin.parts,
-    load.part,
+    loadPart,
   ];
   const stressed = rawParts.map((p) => {
     const th = thermal.perRole.get(p.role);
@@ -268,6 +277,7 @@ function sizeInner(spec: VariantSpec): SizedVariant {
     ...thermal.figures,
     ...reviewed.figures,
     ...prot.figures,
+    ...(motor?.figures ?? []),
     ...(pNominal === undefined
       ? []
       : [
@@ -342,7 +352,7 @@ function sizeInner(spec: VariantSpec): SizedVariant {
             },
           ]),
     ],
-    corners: timing.corners,
+    corners: motor?.corners ?? timing.corners,
   };
   if (verdict.status === "not-feasible") out.reason = verdict.summary;
   return out;
@@ -369,15 +379,19 @@ function nominalDissipation(
   vSwNom_V: number,
   fMax_Hz: number,
   fCtrl1_Hz: number,
-  winding?: WindingWaveform,
+  /** A winding's waveform; `duty` and `f_Hz` for another run than control 1 (a motor at control ½). */
+  winding?: { wave: WindingWaveform; at?: { duty: number; f_Hz: number } },
 ): number | undefined {
-  const dMax = timingFigures.find((f) => f.key === "duty_max")?.value;
+  const at = winding?.at;
+  const dMax = at?.duty ?? timingFigures.find((f) => f.key === "duty_max")?.value;
   // The frequency of the run the figure is compared with (control at 1), not at mid control: with
   // very unequal halves the core's frequency moves (collector recovery and base drive differ).
   const fNom =
-    Number.isFinite(fCtrl1_Hz) && fCtrl1_Hz > 0
-      ? fCtrl1_Hz
-      : timingFigures.find((f) => f.key === "frequency_nominal")?.value;
+    at !== undefined
+      ? at.f_Hz
+      : Number.isFinite(fCtrl1_Hz) && fCtrl1_Hz > 0
+        ? fCtrl1_Hz
+        : timingFigures.find((f) => f.key === "frequency_nominal")?.value;
   const power = losses.find((l) => l.isPower);
   if (dMax === undefined || fNom === undefined || power === undefined || !(ctx.iMax_A > 0) || !(fMax_Hz > 0))
     return undefined;
@@ -388,7 +402,7 @@ function nominalDissipation(
   const scaled = (i_A: number): number =>
     (power.pSw_W * (ctx.vNom_V * i_A * fNom)) / (ctx.vMax_V * ctx.iMax_A * fMax_Hz);
   if (winding !== undefined) {
-    const t = windingSwitchTerms(winding, power, {
+    const t = windingSwitchTerms(winding.wave, power, {
       v_V: vOverlap_V,
       vSw_V: vSwNom_V,
       rOn_ohm: vSwNom_V / ctx.iNom_A,
@@ -406,6 +420,25 @@ function nominalDissipation(
       ? switchingLoss_W(vOverlap_V, iOn_A, power.tNom_s.on, power.tNom_s.off, fNom, ctx.switching)
       : scaled(iOn_A);
   return pCond + pBase + pSw;
+}
+
+/**
+ * A motor's back-EMF at every simulated run and its mid-control predictions (motor-runs.ts); none
+ * for other loads, or a motor the load stage found starved (no waveform).
+ */
+function motorRunsOf(
+  ctx: Ctx,
+  timing: TimingResult,
+  vSwNom_V: number,
+  winding: WindingWaveform | undefined,
+  dissipation: (w: WindingWaveform, duty: number, f_Hz: number) => number | undefined,
+): MotorRuns | undefined {
+  const fig = (key: string): number | undefined => timing.figures.find((f) => f.key === key)?.value;
+  const [dMin, dMid, dMax, fNom_Hz] = [fig("duty_min"), fig("duty_mid"), fig("duty_max"), fig("frequency_nominal")];
+  if (ctx.spec.load_kind !== "motor" || winding === undefined) return undefined;
+  if (dMin === undefined || dMid === undefined || dMax === undefined || fNom_Hz === undefined) return undefined;
+  const fCtrl1_Hz = Number.isFinite(timing.fCtrl1_Hz) && timing.fCtrl1_Hz > 0 ? timing.fCtrl1_Hz : ctx.f_Hz;
+  return motorRuns(ctx, vSwNom_V, { dMin, dMid, dMax, fNom_Hz, fCtrl1_Hz }, timing.corners, dissipation);
 }
 
 /**
