@@ -23,7 +23,7 @@ import { CHAIN_PLANNERS } from "./stages/chains/index.ts";
 import { type TapDesign, designFollowerCollectorTap, designFollowerTap, designTap } from "./stages/tap.ts";
 import { type TimingResult, designTiming } from "./stages/timing.ts";
 import { loadStage } from "./stages/load.ts";
-import { windingSwitchTerms, withWindingForm } from "./stages/winding-losses.ts";
+import { coilRecovery_W, windingSwitchTerms, withWindingForm } from "./stages/winding-losses.ts";
 import { type MotorRuns, motorRuns } from "./stages/motor-runs.ts";
 import type { WindingWaveform } from "./shared/winding.ts";
 import { thermalStage } from "./stages/thermal.ts";
@@ -288,7 +288,12 @@ function sizeInner(spec: VariantSpec): SizedVariant {
             "W",
             "thermal",
             load.winding === undefined
-              ? "P = I_on·V_sw,nom·D_max,nom (MOSFET I_on²·R_DS(on),nom·D) + k·V_nom·I_on·(t_on,nom + t_off,nom)·f_nom"
+              ? "P = I_on·V_sw,nom·D_max,nom (MOSFET I_on²·R_DS(on),nom·D) + " +
+                  "k·V_nom·I_on·(t_on,nom + t_off,nom)·f_nom" +
+                  (spec.load_kind === "solenoid"
+                    ? " + V_nom·Q_rr(I_valley)·f, the freewheel diode's recovery (coil current at turn-on: its exact " +
+                      "R–L waveform at control 1)"
+                    : "")
               : "P = I_on·V_sw,nom·D (MOSFET I_rms,on²·R_DS(on),nom·D) + ½·V_nom·(I_valley·t_on + I_peak·t_off)·f + " +
                   "V_nom·Q_rr(I_valley)·f, from the winding's waveform at control 1",
             "derived",
@@ -419,7 +424,16 @@ function nominalDissipation(
     power.tNom_s !== undefined
       ? switchingLoss_W(vOverlap_V, iOn_A, power.tNom_s.on, power.tNom_s.off, fNom, ctx.switching)
       : scaled(iOn_A);
-  return pCond + pBase + pSw;
+  return pCond + pBase + pSw + coilRecoveryNominal_W(ctx, power, vSwNom_V, vOverlap_V, dMax, fNom);
+}
+
+/** A solenoid coil's freewheel recovery at nominal conditions (winding-losses.ts); 0 for other loads. */
+function coilRecoveryNominal_W(ctx: Ctx, power: DeviceLoss, vSw_V: number, v_V: number, duty: number, f_Hz: number) {
+  if (ctx.spec.load_kind !== "solenoid") return 0;
+  const fw = ctx.spec.devices.freewheel_diode as DiodeClass | undefined;
+  const vF_V = fw === undefined ? 0 : Math.max(0, diodeClassVf_V(fw, ctx.iNom_A, NOMINAL_TEMP_C));
+  const coil = { vOn_V: ctx.vNom_V - vSw_V, vF_V, r_ohm: ctx.load.r_ohm, l_H: ctx.load.l_H, duty, f_Hz };
+  return coilRecovery_W(coil, power, { v_V, freewheel: fw });
 }
 
 /**
