@@ -63,11 +63,12 @@ describe("corner decks", () => {
     expect(deck.netlist.match(/^\.temp .*$/gm)).toEqual([`.temp ${slow.t_C}`]);
     expectClose(deck.period_s, 1 / slow.predicted.f_Hz, 1e-12);
   });
-  it("sets a motor's back-EMF to the engine's E at the corner (its duty, supply and frequency)", () => {
+  it("sets a motor's back-EMF to the engine's E for the corner (control-1 E × V_corner/V_nom for now)", () => {
     const m = sized.circuit!.parts.find((p) => p.kind === "motor")!;
     expect(deck.netlist).toMatch(new RegExp(`^V${m.ref}EMF \\S+ \\S+ DC \\{emf\\}$`, "m"));
     expect(slow.predicted.emf_V).toBeDefined();
     expectClose(deckEmf(deck.netlist), slow.predicted.emf_V!, 1e-9, "the corner's E");
+    expectClose(deckEmf(deck.netlist), (m.spice!.vf_V! * slow.vcc_V) / sized.spec.supply_V, 1e-9, "EMF × V/V_nom");
     // Not the nominal runs' list: that comment belongs to the published deck only.
     expect(deck.netlist).not.toMatch(/follows the motor's speed/);
   });

