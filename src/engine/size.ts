@@ -23,7 +23,8 @@ import { CHAIN_PLANNERS } from "./stages/chains/index.ts";
 import { type TapDesign, designFollowerCollectorTap, designFollowerTap, designTap } from "./stages/tap.ts";
 import { type TimingResult, designTiming } from "./stages/timing.ts";
 import { loadStage } from "./stages/load.ts";
-import { windingSwitchTerms, withWindingForm } from "./stages/winding-losses.ts";
+import { coilRecovery_W, windingSwitchTerms, withWindingForm } from "./stages/winding-losses.ts";
+import { type MotorRuns, motorRuns } from "./stages/motor-runs.ts";
 import type { WindingWaveform } from "./shared/winding.ts";
 import { thermalStage } from "./stages/thermal.ts";
 import { reviewFailures } from "./stages/failure-modes.ts";
@@ -192,8 +193,16 @@ function sizeInner(spec: VariantSpec): SizedVariant {
     vSwNom_V,
     w.f.hi,
     timing.fCtrl1_Hz,
-    load.winding,
+    load.winding === undefined ? undefined : { wave: load.winding },
   );
+  const motor = motorRunsOf(ctx, timing, vSwNom_V, load.winding, (wave, duty, f_Hz) =>
+    nominalDissipation(ctx, timing.figures, fin.losses, load.iOn_A, vSwNom_V, w.f.hi, timing.fCtrl1_Hz, {
+      wave,
+      at: { duty, f_Hz },
+    }),
+  );
+  const loadPart: Part =
+    motor === undefined ? load.part : { ...load.part, spice: { ...load.part.spice, emf_by_ctrl: motor.emfByCtrl } };
 
   const timer = pullInTimer(ctx, timing, load.pullIn, prot.parts, vSwNom_V);
   const rawParts: Part[] = [
@@ -203,7 +212,7 @@ function sizeInner(spec: VariantSpec): SizedVariant {
     ...tap.parts,
     ...plan.parts,
     ...fin.parts,
-    load.part,
+    loadPart,
   ];
   const stressed = rawParts.map((p) => {
     const th = thermal.perRole.get(p.role);
@@ -268,6 +277,7 @@ function sizeInner(spec: VariantSpec): SizedVariant {
     ...thermal.figures,
     ...reviewed.figures,
     ...prot.figures,
+    ...(motor?.figures ?? []),
     ...(pNominal === undefined
       ? []
       : [
@@ -278,7 +288,12 @@ function sizeInner(spec: VariantSpec): SizedVariant {
             "W",
             "thermal",
             load.winding === undefined
-              ? "P = I_on·V_sw,nom·D_max,nom (MOSFET I_on²·R_DS(on),nom·D) + k·V_nom·I_on·(t_on,nom + t_off,nom)·f_nom"
+              ? "P = I_on·V_sw,nom·D_max,nom (MOSFET I_on²·R_DS(on),nom·D) + " +
+                  "k·V_nom·I_on·(t_on,nom + t_off,nom)·f_nom" +
+                  (spec.load_kind === "solenoid"
+                    ? " + V_nom·Q_rr(I_valley)·f, the freewheel diode's recovery (coil current at turn-on: its exact " +
+                      "R–L waveform at control 1)"
+                    : "")
               : "P = I_on·V_sw,nom·D (MOSFET I_rms,on²·R_DS(on),nom·D) + ½·V_nom·(I_valley·t_on + I_peak·t_off)·f + " +
                   "V_nom·Q_rr(I_valley)·f, from the winding's waveform at control 1",
             "derived",
@@ -352,7 +367,7 @@ function sizeInner(spec: VariantSpec): SizedVariant {
             },
           ]),
     ],
-    corners: timing.corners,
+    corners: motor?.corners ?? timing.corners,
   };
   if (verdict.status === "not-feasible") out.reason = verdict.summary;
   return out;
@@ -379,15 +394,19 @@ function nominalDissipation(
   vSwNom_V: number,
   fMax_Hz: number,
   fCtrl1_Hz: number,
-  winding?: WindingWaveform,
+  /** A winding's waveform; `duty` and `f_Hz` for another run than control 1 (a motor at control ½). */
+  winding?: { wave: WindingWaveform; at?: { duty: number; f_Hz: number } },
 ): number | undefined {
-  const dMax = timingFigures.find((f) => f.key === "duty_max")?.value;
+  const at = winding?.at;
+  const dMax = at?.duty ?? timingFigures.find((f) => f.key === "duty_max")?.value;
   // The frequency of the run the figure is compared with (control at 1), not at mid control: with
   // very unequal halves the core's frequency moves (collector recovery and base drive differ).
   const fNom =
-    Number.isFinite(fCtrl1_Hz) && fCtrl1_Hz > 0
-      ? fCtrl1_Hz
-      : timingFigures.find((f) => f.key === "frequency_nominal")?.value;
+    at !== undefined
+      ? at.f_Hz
+      : Number.isFinite(fCtrl1_Hz) && fCtrl1_Hz > 0
+        ? fCtrl1_Hz
+        : timingFigures.find((f) => f.key === "frequency_nominal")?.value;
   const power = losses.find((l) => l.isPower);
   if (dMax === undefined || fNom === undefined || power === undefined || !(ctx.iMax_A > 0) || !(fMax_Hz > 0))
     return undefined;
@@ -398,7 +417,7 @@ function nominalDissipation(
   const scaled = (i_A: number): number =>
     (power.pSw_W * (ctx.vNom_V * i_A * fNom)) / (ctx.vMax_V * ctx.iMax_A * fMax_Hz);
   if (winding !== undefined) {
-    const t = windingSwitchTerms(winding, power, {
+    const t = windingSwitchTerms(winding.wave, power, {
       v_V: vOverlap_V,
       vSw_V: vSwNom_V,
       rOn_ohm: vSwNom_V / ctx.iNom_A,
@@ -415,7 +434,35 @@ function nominalDissipation(
     power.tNom_s !== undefined
       ? switchingLoss_W(vOverlap_V, iOn_A, power.tNom_s.on, power.tNom_s.off, fNom, ctx.switching)
       : scaled(iOn_A);
-  return pCond + pBase + pSw;
+  return pCond + pBase + pSw + coilRecoveryNominal_W(ctx, power, vSwNom_V, vOverlap_V, dMax, fNom);
+}
+
+/** A solenoid coil's freewheel recovery at nominal conditions (winding-losses.ts); 0 for other loads. */
+function coilRecoveryNominal_W(ctx: Ctx, power: DeviceLoss, vSw_V: number, v_V: number, duty: number, f_Hz: number) {
+  if (ctx.spec.load_kind !== "solenoid") return 0;
+  const fw = ctx.spec.devices.freewheel_diode as DiodeClass | undefined;
+  const vF_V = fw === undefined ? 0 : Math.max(0, diodeClassVf_V(fw, ctx.iNom_A, NOMINAL_TEMP_C));
+  const coil = { vOn_V: ctx.vNom_V - vSw_V, vF_V, r_ohm: ctx.load.r_ohm, l_H: ctx.load.l_H, duty, f_Hz };
+  return coilRecovery_W(coil, power, { v_V, freewheel: fw });
+}
+
+/**
+ * A motor's back-EMF at every simulated run and its mid-control predictions (motor-runs.ts); none
+ * for other loads, or a motor the load stage found starved (no waveform).
+ */
+function motorRunsOf(
+  ctx: Ctx,
+  timing: TimingResult,
+  vSwNom_V: number,
+  winding: WindingWaveform | undefined,
+  dissipation: (w: WindingWaveform, duty: number, f_Hz: number) => number | undefined,
+): MotorRuns | undefined {
+  const fig = (key: string): number | undefined => timing.figures.find((f) => f.key === key)?.value;
+  const [dMin, dMid, dMax, fNom_Hz] = [fig("duty_min"), fig("duty_mid"), fig("duty_max"), fig("frequency_nominal")];
+  if (ctx.spec.load_kind !== "motor" || winding === undefined) return undefined;
+  if (dMin === undefined || dMid === undefined || dMax === undefined || fNom_Hz === undefined) return undefined;
+  const fCtrl1_Hz = Number.isFinite(timing.fCtrl1_Hz) && timing.fCtrl1_Hz > 0 ? timing.fCtrl1_Hz : ctx.f_Hz;
+  return motorRuns(ctx, vSwNom_V, { dMin, dMid, dMax, fNom_Hz, fCtrl1_Hz }, timing.corners, dissipation);
 }
 
 /**

@@ -64,6 +64,11 @@ export interface PartSpice {
    * power-on timer starts run out, in its steady state; the verifier's pull-in run drops the IC.
    */
   v0_supply?: boolean;
+  /**
+   * Motors: the back-EMF of each nominal run by its control setting (0, 0.5, 1), the engine's
+   * (src/engine/stages/motor-runs.ts); `vf_V` is the one at control 1, the published deck's.
+   */
+  emf_by_ctrl?: { ctrl: number; emf_V: number }[];
 }
 
 export interface Part {

@@ -35,6 +35,9 @@ export interface SimCorner extends Corner {
   ctrl: number;
   /** Gain corner of the model cards ("min": the published deck's; "typ": typical gain and R_DS(on)). */
   gain: "min" | "typ";
-  /** The engine's prediction at this corner. */
-  predicted: { f_Hz: number; duty: number };
+  /**
+   * The engine's prediction at this corner; for a motor load also its back-EMF there (the netlist's
+   * `emf` at this corner: src/engine/stages/motor-runs.ts).
+   */
+  predicted: { f_Hz: number; duty: number; emf_V?: number };
 }

@@ -18,6 +18,20 @@ export interface ElementOut {
   models: string[];
 }
 
+/** The netlist parameter that sets a motor's back-EMF (deck.ts `setEmf` rewrites it per run). */
+export const EMF_PARAM = "emf";
+
+/** The comment that tells a reader which E belongs to which control setting. */
+function emfComment(p: Part): string[] {
+  const runs = p.spice?.emf_by_ctrl ?? [];
+  if (runs.length === 0) return [];
+  const list = runs.map((r) => `${Number(r.emf_V.toPrecision(4))} V at ctrl=${r.ctrl}`).join(", ");
+  return [
+    `* ${p.ref} back-EMF follows the motor's speed, and so the control: ${list};`,
+    `* set ${EMF_PARAM} together with ctrl (this deck: the value at ctrl=1)`,
+  ];
+}
+
 function pins(p: Part): string[] {
   return PIN_NAMES[p.kind].map((name) => {
     const net = p.pins[name];
@@ -88,17 +102,20 @@ export function elementLines(p: Part, supply_V: number): ElementOut {
         models: [],
       };
     case "motor": {
-      // Running-motor equivalent: winding resistance, winding inductance and the back-EMF at rated
-      // speed as a DC source (spice.vf_V), so the on-state current is the rated one, not the stall.
+      // Running-motor equivalent: winding resistance, winding inductance and the back-EMF as a DC
+      // source set by `.param emf`, so the on-current is the running one, not the stall. The speed,
+      // and so E, follows the control: the engine gives E for each run (spice.emf_by_ctrl) and the
+      // verifier sets `emf` with `ctrl`; the deck as published holds the control-1 value (spice.vf_V).
       const l = p.spice?.l_H ?? 0;
-      const emf = p.spice?.vf_V ?? 0;
-      const lines = [`R${ref} ${n[0]} ${inner} ${v(loadR(p), "r_ohm")}`];
+      const emf = Math.max(0, p.spice?.vf_V ?? 0);
+      const lines = [...emfComment(p), `.param ${EMF_PARAM}=${v(emf, "vf_V")}`];
+      lines.push(`R${ref} ${n[0]} ${inner} ${v(loadR(p), "r_ohm")}`);
       let at = inner;
       if (l > 0) {
         lines.push(`L${ref} ${at} ${inner}l ${v(l, "l_H")}`);
         at = `${inner}l`;
       }
-      lines.push(emf > 0 ? `V${ref}EMF ${at} ${n[1]} DC ${v(emf, "vf_V")}` : `V${ref}EMF ${at} ${n[1]} DC 0`);
+      lines.push(`V${ref}EMF ${at} ${n[1]} DC {${EMF_PARAM}}`);
       return { lines, models: [] };
     }
     case "solenoid": {

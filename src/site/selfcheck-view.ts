@@ -10,6 +10,8 @@ import { SELF_CHECK_CTRL, selfCheckExpectations, type SelfCheckExpectation } fro
 import { targetFromSized } from "../verify/target.ts";
 import { displayNumber } from "./figures.ts";
 import { downloadNames } from "./paths.ts";
+import { EMF_PARAM } from "../render/netlist-parts.ts";
+import { spiceNum } from "../render/spice-num.ts";
 
 export interface SelfCheckRow {
   meas: string;
@@ -30,6 +32,11 @@ export interface SelfCheckView {
   /** The control position the deck runs at: the netlist line, and why there, in words. */
   ctrlLine: string;
   ctrl: string;
+  /**
+   * A motor: the deck's back-EMF line (set for the control the deck runs at) and the engine's E at
+   * the other nominal control settings, so a reader who moves `ctrl` moves `emf` with it.
+   */
+  emf?: { line: string; at: string; others: string };
   /** Expectations are published for feasible variants only. */
   feasible: boolean;
   rows: SelfCheckRow[];
@@ -63,6 +70,7 @@ export function selfCheckView(v: BuiltVariant): SelfCheckView | null {
     ctrl:
       `duty control at ${formatPercent(SELF_CHECK_CTRL)}: the highest duty, ` +
       "where the switch runs hottest and where the on-current and the dissipation are predicted",
+    ...emfView(v),
     feasible: v.sized.feasible,
     rows: exp.map((e) => ({
       meas: e.meas,
@@ -104,5 +112,26 @@ export function selfCheckJson(v: BuiltVariant): object | null {
       low: e.low,
       high: e.high,
     })),
+  };
+}
+
+/** The motor's back-EMF as the deck sets it, and at the other nominal controls (absent for other loads). */
+function emfView(v: BuiltVariant): { emf?: { line: string; at: string; others: string } } {
+  const load = v.sized.circuit?.parts.find((p) => p.role === "LOAD");
+  const runs = load?.kind === "motor" ? load.spice?.emf_by_ctrl : undefined;
+  const here = runs?.find((r) => r.ctrl === SELF_CHECK_CTRL);
+  if (runs === undefined || here === undefined) return {};
+  const say = (r: { ctrl: number; emf_V: number }): string =>
+    `${displayNumber(r.emf_V, "V", "motor_emf")} at control ${formatPercent(r.ctrl)}` +
+    (r.emf_V === 0 ? " (the motor stands still there)" : "");
+  return {
+    emf: {
+      line: `.param ${EMF_PARAM}=${spiceNum(here.emf_V, "emf")}`,
+      at: say(here),
+      others: runs
+        .filter((r) => r.ctrl !== SELF_CHECK_CTRL)
+        .map(say)
+        .join(", "),
+    },
   };
 }

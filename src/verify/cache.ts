@@ -28,12 +28,21 @@ export function cacheKey(netlist: string, engine: { name: EngineName; version: s
     target.period_s,
     target.loadTau_s,
     target.loadEmf_V,
+    // A motor's E per nominal run, and whether its control-½ run reads the load (runs.ts readsLoad).
+    ...(target.emfByCtrl !== undefined ? [target.emfByCtrl, target.midLoad ?? false] : []),
     target.loadR_ohm,
     target.supply_V,
     target.predicted["chain_threshold"]?.value ?? null,
     // Where an inductive load's preparatory run starts (runs.ts predictedLoadCurrent).
     target.inductive
-      ? [target.predicted["duty_max"]?.value ?? null, target.predicted["switch_on_voltage"]?.value ?? null]
+      ? [
+          target.predicted["duty_max"]?.value ?? null,
+          target.predicted["switch_on_voltage"]?.value ?? null,
+          // A motor's runs at control 0 and ½ start from their predicted currents too (runs.ts settlesLoad).
+          ...(target.emfByCtrl !== undefined
+            ? [target.predicted["duty_min"]?.value ?? null, target.predicted["duty_mid"]?.value ?? null]
+            : []),
+        ]
       : null,
     (target.corners ?? []).map((d) => [
       d.corner.name,

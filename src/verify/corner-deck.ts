@@ -46,15 +46,20 @@ function multiplier(role: PartRole, k: SimCorner): number {
 
 /**
  * The circuit with every timing part at the corner's end of its tolerance. A motor's back-EMF
- * follows its speed, and its speed the supply: the engine's running-current law (context.ts
- * runningCurrentMax_A: current ∝ supply, common practice) is back-EMF ∝ supply on the netlist's
- * line I = (V − EMF)/R, so the corner deck scales the EMF source by V_corner/V_nom. A fixed EMF
- * would be a motor whose speed does not move with its supply (at +22 % supply, 1.9× the current).
+ * follows its speed, and its speed the duty and the supply: the engine gives E at the corner's
+ * duty, supply and frequency (src/engine/stages/motor-runs.ts, `predicted.emf_V`), and the deck
+ * carries that value. The per-control list of the nominal runs does not belong to a corner deck.
  */
-export function cornerCircuit(c: CircuitModel, k: SimCorner, vNom_V: number): CircuitModel {
+export function cornerCircuit(c: CircuitModel, k: SimCorner): CircuitModel {
   const parts = c.parts.map((p): Part => {
-    if (p.kind === "motor" && p.spice?.vf_V !== undefined)
-      return { ...p, spice: { ...p.spice, vf_V: (p.spice.vf_V * k.vcc_V) / vNom_V } };
+    if (p.kind === "motor") {
+      const emf_V = k.predicted.emf_V;
+      if (emf_V === undefined || !Number.isFinite(emf_V))
+        throw new EngineMisuseError(`corner deck (${k.name}): the motor ${p.ref} has no back-EMF for this corner`);
+      const spice = { ...p.spice, vf_V: emf_V };
+      delete spice.emf_by_ctrl;
+      return { ...p, spice };
+    }
     const m = multiplier(p.role, k);
     return m === 1 ? p : { ...p, value: p.value * m };
   });
@@ -84,7 +89,7 @@ export function cornerDeck(
   const f_Hz = k.predicted.f_Hz;
   if (!(f_Hz > 0) || !Number.isFinite(f_Hz))
     throw new EngineMisuseError(`corner deck ${sized.spec.id} (${k.name}): no predicted frequency`);
-  const netlist = renderNetlist(cornerCircuit(c, k, sized.spec.supply_V), {
+  const netlist = renderNetlist(cornerCircuit(c, k), {
     id: sized.spec.id,
     title: `${sized.spec.designTitle}, ${sized.spec.id}, corner ${k.name}`,
     supply_V: k.vcc_V,

@@ -20,7 +20,11 @@ export async function measureCorners(
   const out: CornerMeasured[] = [];
   for (const deck of target.corners ?? []) {
     const k = deck.corner;
+    // A corner deck carries its own back-EMF; the nominal runs' per-control values and their
+    // settling (runs.ts settlesLoad) are theirs only.
     const t: VerifyTarget = { ...target, period_s: deck.period_s };
+    delete t.emfByCtrl;
+    delete t.midLoad;
     let run;
     try {
       run = await runAt(t, deck.netlist, engine, k.ctrl, plan, k.predicted.duty);

@@ -5,6 +5,7 @@
  */
 import { setCtrl } from "../render/netlist.ts";
 import { spiceNum } from "../render/spice-num.ts";
+import { EMF_PARAM } from "../render/netlist-parts.ts";
 import { SpiceRunError } from "../model/errors.ts";
 
 /** Supply voltage from the `Vsupply` line (`Vsupply vcc 0 [DC] 12`). */
@@ -13,6 +14,24 @@ export function supplyVoltage(netlist: string): number {
   const v = m ? Number(m[1]) : Number.NaN;
   if (!Number.isFinite(v)) throw new SpiceRunError("netlist has no readable `Vsupply` source");
   return v;
+}
+
+/** The `.param emf=` line of a motor deck (render/netlist-parts.ts EMF_PARAM). */
+const EMF_LINE = new RegExp(`^\\.param ${EMF_PARAM}=(.*)$`, "m");
+
+/** A motor deck's back-EMF (its `.param emf=` value); 0 for a deck without a motor. */
+export function deckEmf(netlist: string): number {
+  const m = EMF_LINE.exec(netlist);
+  if (m === null) return 0;
+  const x = Number(m[1]);
+  if (!Number.isFinite(x)) throw new SpiceRunError(`netlist has an unreadable \`.param ${EMF_PARAM}=\` line`);
+  return x;
+}
+
+/** The deck with its motor's back-EMF set to `emf_V` (unchanged when it has no motor). */
+export function setEmf(netlist: string, emf_V: number): string {
+  if (!EMF_LINE.test(netlist)) return netlist;
+  return netlist.replace(EMF_LINE, `.param ${EMF_PARAM}=${spiceNum(Math.max(0, emf_V), "emf")}`);
 }
 
 /**

@@ -11,7 +11,9 @@ import {
   DEFAULT_RUN_PLAN,
   loadTiming,
   loadVoltage,
+  nominalRunDeck,
   onCurrent,
+  readsLoad,
   runAt,
   switchVoltage,
   vec,
@@ -43,9 +45,11 @@ export async function measureVariant(
   const start = performance.now();
   const elapsed = (): number => (performance.now() - start) / 1000;
   try {
-    const mid = await runAt(target, netlist, engine, 0.5, plan);
-    const low = await runAt(target, netlist, engine, 0, plan);
-    const high = await runAt(target, netlist, engine, 1, plan, target.predicted["duty_max"]?.value);
+    // A motor's back-EMF follows the control: each run's deck carries the engine's E for it.
+    const at = (ctrl: number): string => nominalRunDeck(target, netlist, ctrl);
+    const mid = await runAt(target, at(0.5), engine, 0.5, plan, target.predicted["duty_mid"]?.value);
+    const low = await runAt(target, at(0), engine, 0, plan, target.predicted["duty_min"]?.value);
+    const high = await runAt(target, at(1), engine, 1, plan, target.predicted["duty_max"]?.value);
     const { measurements, waveforms } = collect(target, low, mid, high);
     // Solenoid variants: one cold-start run at nominal conditions shows the pull-in and the hold.
     measurements.push(...(await measurePullIn(target, netlist, engine)));
@@ -124,6 +128,21 @@ function collect(
     "W",
     timeAverage(high.t, devicePower(target, high, vSw), p0, p1),
   );
+  if (readsLoad(target, mid.ctrl)) {
+    // A motor at control ½ (its E at that duty): the on-current and the switch's dissipation, read as at control 1.
+    put(
+      "load_current_on_mid",
+      "Load current when on, control 0.5",
+      "A",
+      meanOnState(mid.t, vec(mid, "i(vsense)"), tMid.on),
+    );
+    put(
+      "device_dissipation_mid",
+      "Power device average dissipation, control 0.5",
+      "W",
+      timeAverage(mid.t, devicePower(target, mid, switchVoltage(target, mid)), tMid.from_s, tMid.to_s),
+    );
+  }
   const retries = [low, mid, high].filter((r) => r.retried).length;
   if (retries > 0) put("solver_retries", "Runs that needed a solver retry (of 3)", "", retries);
   const level = Math.max(0, ...[low, mid, high].map((r) => r.retryLevel ?? 0));

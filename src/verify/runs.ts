@@ -1,7 +1,7 @@
 /**
  * One transient per duty-control setting, and the load's on/off signal derived from it.
  */
-import { simDeck, supplyVoltage } from "./deck.ts";
+import { deckEmf, setEmf, simDeck, supplyVoltage } from "./deck.ts";
 import type { SimResult, SpiceEngine } from "./engines/types.ts";
 import { pwmTiming, type PwmTiming } from "./edges.ts";
 import { timeAverage, upperLevel } from "./signal.ts";
@@ -70,6 +70,8 @@ export interface Run {
   from_s: number;
   tEnd_s: number;
   vbus_V: number;
+  /** The run's motor back-EMF (its deck's `.param emf`; 0 without a motor). */
+  emf_V?: number;
   /** Power-device element names whose `@name[p]` was saved. */
   powerVectors: string[];
   /** True when the run needed a retry with other solver options (reported as a measurement). */
@@ -90,10 +92,39 @@ export interface Run {
 export const MAX_SETTLE_PERIODS = 60;
 export function settleTime(target: VerifyTarget, ctrl: number, plan: RunPlan, preset = false): number {
   const base_s = plan.settlePeriods * target.period_s;
-  if (ctrl < 1 || target.loadTau_s <= 0) return base_s;
+  if (!settlesLoad(target, ctrl) || target.loadTau_s <= 0) return base_s;
   const unprepared_s = Math.min(plan.settleTau * target.loadTau_s, MAX_SETTLE_PERIODS * target.period_s);
   if (!preset || plan.presetSettlePeriods === undefined) return Math.max(base_s, unprepared_s);
   return Math.max(base_s, Math.min(plan.presetSettlePeriods * target.period_s, unprepared_s));
+}
+
+/**
+ * Whether a run reads the load's on-current and the switch's dissipation: the control-1 run, and
+ * for a motor whose back-EMF follows the control (target.midLoad) the control-½ run too. Such a run
+ * settles the load, takes the fine step and the power run's solver options.
+ */
+export function readsLoad(target: VerifyTarget, ctrl: number): boolean {
+  return ctrl === 1 || (ctrl === 0.5 && target.midLoad === true);
+}
+
+/**
+ * Whether a run settles an inductive load before it is read: every run that reads the load, and
+ * every run of a motor whose back-EMF follows the control (target.emfByCtrl). A motor's current at
+ * control 0 differs most from where the operating point leaves it (at E = 0, a standing motor, it
+ * started at 5× its settled value and the switch's storage time then shortened the measured duty
+ * by 0.085 on a PNP high-side fan), so its timing is read only once the winding has settled.
+ */
+export function settlesLoad(target: VerifyTarget, ctrl: number): boolean {
+  return readsLoad(target, ctrl) || target.emfByCtrl !== undefined;
+}
+
+/**
+ * A nominal run's deck: the published netlist with a motor's back-EMF at the engine's value for that
+ * control setting (target.emfByCtrl; src/engine/stages/motor-runs.ts). Corner decks carry their own.
+ */
+export function nominalRunDeck(target: VerifyTarget, netlist: string, ctrl: number): string {
+  const e = target.emfByCtrl?.[String(ctrl)];
+  return e === undefined ? netlist : setEmf(netlist, e);
 }
 
 /**
@@ -105,12 +136,11 @@ export function settleTime(target: VerifyTarget, ctrl: number, plan: RunPlan, pr
  * I_settled = (mean terminal voltage − E)/R, exact where the terminal voltage does not depend on
  * the current's residual (the switch's and the freewheel diode's drops move it a little). The
  * measured run then holds the load node at the voltage that makes that current flow during its
- * operating point (`loadHold`) and settles for `presetSettlePeriods`. A corner deck scales E with
- * its supply (corner-deck.ts); so does `runEmf`.
+ * operating point (`loadHold`) and settles for `presetSettlePeriods`. E is the deck's own
+ * (`.param emf`: the run's value, nominal or corner).
  */
-export function runEmf(target: VerifyTarget, netlist: string): number {
-  const v_V = supplyVoltage(netlist);
-  return target.supply_V > 0 ? (target.loadEmf_V * v_V) / target.supply_V : target.loadEmf_V;
+export function runEmf(_target: VerifyTarget, netlist: string): number {
+  return deckEmf(netlist);
 }
 
 /**
@@ -153,7 +183,12 @@ export function settledLoadCurrent(target: VerifyTarget, run: Run, netlist: stri
  * preparatory run plus the shorter settle is shorter than settling from an unprepared start.
  */
 export function presetsLoad(target: VerifyTarget, ctrl: number, plan: RunPlan): boolean {
-  if (ctrl !== 1 || plan.presetSettlePeriods === undefined || !target.inductive || !(target.loadR_ohm > 0))
+  if (
+    !settlesLoad(target, ctrl) ||
+    plan.presetSettlePeriods === undefined ||
+    !target.inductive ||
+    !(target.loadR_ohm > 0)
+  )
     return false;
   const unprepared = Math.min(plan.settleTau * target.loadTau_s, MAX_SETTLE_PERIODS * target.period_s);
   return unprepared > (plan.presetSettlePeriods + plan.periods) * target.period_s;
@@ -220,7 +255,8 @@ export async function runAt(
   const nets = ["vbus", target.tapNet, target.otherNet, target.chainInputNet, target.switchNet, "ls", ...gateNets];
   const vectors = [...new Set(nets)].map((n) => `v(${n})`).concat("i(vsense)", powerVectors);
   const tMax_s =
-    target.period_s / (ctrl !== 1 ? (plan.timingStepsPerPeriod ?? plan.stepsPerPeriod) : plan.stepsPerPeriod);
+    target.period_s /
+    (!readsLoad(target, ctrl) ? (plan.timingStepsPerPeriod ?? plan.stepsPerPeriod) : plan.stepsPerPeriod);
   const attempt = async (options: string | undefined, step_s = tMax_s): Promise<SimResult> => {
     const deck = simDeck(netlist, {
       ctrl,
@@ -233,7 +269,8 @@ export async function runAt(
     return engine.run(deck, vectors);
   };
   const end = (r: SimResult): number => r.t_s[r.t_s.length - 1] ?? 0;
-  const base = [plan.options, ctrl === 1 ? plan.powerOptions : undefined].filter(Boolean).join(" ") || undefined;
+  const base =
+    [plan.options, readsLoad(target, ctrl) ? plan.powerOptions : undefined].filter(Boolean).join(" ") || undefined;
   const levels: [string, number][] = [
     [RETRY_OPTIONS, tMax_s],
     [RETRY2_OPTIONS, RETRY2_STEP_SHARE * tMax_s],
@@ -267,6 +304,7 @@ export async function runAt(
     from_s,
     tEnd_s,
     vbus_V: timeAverage(res.t_s, vbus, from_s, tEnd_s),
+    emf_V: deckEmf(netlist),
     powerVectors,
     retried,
     ...(retried ? { retryLevel } : {}),
@@ -317,8 +355,8 @@ export const MIN_PULSE_PERIODS = 0.02;
  */
 export const GATE_HYST = 0.1;
 
-export function switchLevel(target: VerifyTarget, vbus_V: number): number {
-  return Math.min(vbus_V, vbus_V - target.loadEmf_V) / 2;
+export function switchLevel(target: VerifyTarget, vbus_V: number, emf_V: number = target.loadEmf_V): number {
+  return Math.min(vbus_V, vbus_V - emf_V) / 2;
 }
 
 export function loadTiming(target: VerifyTarget, run: Run, onCurrent_A: number): PwmTiming {
@@ -334,7 +372,7 @@ export function loadTiming(target: VerifyTarget, run: Run, onCurrent_A: number):
     });
   }
   if (target.inductive) {
-    const level = switchLevel(target, run.vbus_V);
+    const level = switchLevel(target, run.vbus_V, run.emf_V ?? target.loadEmf_V);
     const s = switchVoltage(target, run).map((x) => 2 * level - x); // high while the switch is on
     if (run.base !== undefined) {
       // A BJT switch is on only while its output stage's base is past cut-in (gate.ts baseProbe):

@@ -12,7 +12,7 @@
  * the cache.
  * Format and reasons: docs/verification.md, "The published netlist checks itself".
  */
-import { DEFAULT_RUN_PLAN, POWER_RUN_OPTIONS, settleTime, switchLevel, type RunPlan } from "./runs.ts";
+import { DEFAULT_RUN_PLAN, POWER_RUN_OPTIONS, nominalRunDeck, settleTime, switchLevel, type RunPlan } from "./runs.ts";
 
 /** The published batch run's convergence aid (see withSelfCheck's block). */
 export const BATCH_RSHUNT = "rshunt=1e9";
@@ -199,6 +199,9 @@ export function selfCheckBlock(
     "* pwm_frequency_hz, load_duty, load_on_current_a and switch_dissipation_w are the results",
     "* (averaged over whole periods; the current and dissipation over the whole window after settling).",
     "* chk_on is a probe (no load on the circuit): positive while the load counts as on.",
+    ...(target.emfByCtrl !== undefined
+      ? [`* the motor's back-EMF (.param emf) is set for ctrl = ${ctrl}; move it with ctrl (values in the load stage)`]
+      : []),
     `Bchk_on chk_on 0 V=${onSignal(target, netlist, supply_V)}`,
     // A user's batch run has no retry ladder: a 1 GΩ shunt from every node to ground (ngspice's
     // rshunt; 24 nA at 24 V, below anything measured) keeps a momentarily floating node from
@@ -236,7 +239,8 @@ export function withSelfCheck(netlist: string, target: VerifyTarget, supply_V: n
   const tran = /^\.tran\b.*$\n?/m;
   if (!tran.test(netlist)) throw new EngineMisuseError(`${target.id}: netlist has no .tran line to replace`);
   const { lines, ctrl } = selfCheckBlock(target, stripSelfCheck(netlist), supply_V);
-  return stripSelfCheck(netlist)
+  // A motor's back-EMF at the deck's control (runs.ts nominalRunDeck, as the verifier's own run).
+  return nominalRunDeck(target, stripSelfCheck(netlist), ctrl)
     .replace(/^\.param ctrl=.*$/m, `.param ctrl=${spiceNum(ctrl, "ctrl")}`)
     .replace(tran, `${lines.join("\n")}\n`);
 }

@@ -4,6 +4,7 @@
  * and the predicted figures to compare with. Plain data, so it can cross to a worker thread.
  */
 import type { SizedVariant } from "../model/sized.ts";
+import type { Part } from "../model/circuit.ts";
 import { POWER_ROLES } from "../model/part-roles.ts";
 import type { CornerDeck } from "./corner-deck.ts";
 
@@ -32,8 +33,15 @@ export interface VerifyTarget {
   period_s: number;
   /** L/R of the load (0 when not inductive): how long its current takes to settle. */
   loadTau_s: number;
-  /** Back-EMF of a motor load in the netlist (0 otherwise): sets the switch's off level. */
+  /** Back-EMF of a motor load in the published netlist, control 1 (0 otherwise). */
   loadEmf_V: number;
+  /**
+   * A motor's back-EMF in each nominal run, by control setting ("0", "0.5", "1"): the engine's
+   * (src/engine/stages/motor-runs.ts); each run's deck is set to its value (runs.ts nominalRunDeck).
+   */
+  emfByCtrl?: Record<string, number>;
+  /** The control-½ run reads the load's current and the switch's dissipation too (a motor: runs.ts readsLoad). */
+  midLoad?: boolean;
   /** DC resistance of an inductive load (0 otherwise): with the back-EMF, its settled current. */
   loadR_ohm: number;
   /** Nominal supply (the published netlist's); a corner deck scales a motor's back-EMF from it. */
@@ -76,8 +84,21 @@ export function targetFromSized(sized: SizedVariant): VerifyTarget | null {
     loadEmf_V: load?.kind === "motor" ? Math.max(0, load.spice?.vf_V ?? 0) : 0,
     loadR_ohm: l_H > 0 && r_ohm > 0 ? r_ohm : 0,
     supply_V: sized.spec.supply_V,
+    ...motorRunsOf(load, predicted),
     ranges,
     ...pullInOf(predicted),
+  };
+}
+
+function motorRunsOf(
+  load: Part | undefined,
+  predicted: Record<string, Predicted>,
+): { emfByCtrl?: Record<string, number>; midLoad?: boolean } {
+  const runs = load?.kind === "motor" ? load.spice?.emf_by_ctrl : undefined;
+  if (runs === undefined || runs.length === 0) return {};
+  return {
+    emfByCtrl: Object.fromEntries(runs.map((r) => [String(r.ctrl), r.emf_V])),
+    ...(predicted["load_current_on_mid"] !== undefined ? { midLoad: true } : {}),
   };
 }
 

@@ -7,9 +7,10 @@
 import { describe, expect, it } from "vitest";
 import { SIM_FIGURES } from "../../src/model/sized.ts";
 import type { Measurement } from "../../src/model/verification.ts";
-import { CHECKS, PULL_IN_CHECKS, compare, judge, withinBound } from "../../src/verify/compare.ts";
+import { CHECKS, MID_CHECKS, PULL_IN_CHECKS, compare, judge, withinBound } from "../../src/verify/compare.ts";
 import type { Measured } from "../../src/verify/plan.ts";
 import type { Predicted } from "../../src/verify/target.ts";
+import { expectClose } from "../helpers/close.ts";
 
 const p = (value: number, unit = ""): Predicted => ({ value, label: "x", unit });
 const m = (key: string, value: number): Measurement => ({ key, label: key, unit: "", value });
@@ -18,9 +19,12 @@ const eng = { name: "eecircuit-engine" as const, version: "test" };
 describe("checks against the engine's figures", () => {
   it("every two-sided check uses a figure the engine predicts at the simulation's conditions", () => {
     // … or, for solenoids, at the pull-in run's (PULL_IN_CHECKS: nominal, cold start, control 0).
+    // … or, for motors, at control ½ (MID_CHECKS: nominal, the run's own back-EMF).
     const pullIn = PULL_IN_CHECKS.map((c) => c.key);
+    const mid = MID_CHECKS.map((c) => c.key);
     for (const c of CHECKS.filter((x) => !x.bound))
-      expect([...SIM_FIGURES, ...pullIn] as readonly string[]).toContain(c.key);
+      expect([...SIM_FIGURES, ...pullIn, ...mid] as readonly string[]).toContain(c.key);
+    expect(mid).toEqual(["load_current_on_mid", "device_dissipation_mid"]);
     expect(pullIn).toEqual(["pull_in_hold_sim", "pull_in_reach_sim", "hold_current_sim"]);
   });
 
@@ -35,6 +39,25 @@ describe("checks against the engine's figures", () => {
       ["frequency_ctrl0", true],
       ["frequency_ctrl1", false],
     ]);
+  });
+
+  it("a motor at control ½: the band is 10 % plus the engine's slope × the simulated duty's difference", () => {
+    // Hand: predicted 0.25 A, dI/dD = 1.0 A per unit duty, duty 0.56 predicted, 0.60 simulated:
+    // allowance 0.1·0.25 + 1.0·0.04 = 0.065 A, so 0.31 A agrees and 0.32 A does not.
+    const predicted = {
+      load_current_on_mid: p(0.25, "A"),
+      load_current_on_mid_per_duty: p(1.0, "A"),
+      duty_mid: p(0.56),
+    };
+    const at = (i: number) =>
+      compare(predicted, [m("duty_mid", 0.6), m("load_current_on_mid", i)]).find(
+        (c) => c.key === "load_current_on_mid",
+      )!;
+    expectClose(at(0.31).tol_abs!, 0.065, 1e-9);
+    expect([at(0.31).ok, at(0.32).ok, at(0.19).ok, at(0.18).ok]).toEqual([true, false, true, false]);
+    // Without the duty measured, the band is the model's alone: 0.025 A.
+    const alone = compare(predicted, [m("load_current_on_mid", 0.27)])[0]!;
+    expect([alone.ok, alone.tol_abs]).toEqual([true, 0.025]);
   });
 
   it("the chain threshold is not compared, whatever the tap voltage was", () => {

@@ -15,8 +15,12 @@ import {
   presetsLoad,
   settledLoadCurrent,
   switchLevel,
+  nominalRunDeck,
+  readsLoad,
+  settlesLoad,
   type Run,
 } from "../../src/verify/runs.ts";
+import { deckEmf, setEmf } from "../../src/verify/deck.ts";
 import type { VerifyTarget } from "../../src/verify/target.ts";
 import { coreState } from "../../src/verify/plan.ts";
 import { expectClose } from "../helpers/close.ts";
@@ -130,7 +134,7 @@ function fakeEngine(stopAt: (deck: string) => number): SpiceEngine & { decks: st
     async close() {},
   };
 }
-const NETLIST = ".param ctrl=0.5\nVsupply vcc 0 DC 12\n.ic v(ca)=12 v(cb)=0\n.end\n";
+const NETLIST = ".param ctrl=0.5\nVsupply vcc 0 DC 12\n.param emf=9\n.ic v(ca)=12 v(cb)=0\n.end\n";
 
 describe("a transient that stops early", () => {
   it("is run once more with looser absolute tolerances, and the run says so", async () => {
@@ -168,16 +172,36 @@ describe("an inductive load starts at its settled current (R, L, back-EMF in ser
     expectClose(loadHold(target(), NETLIST, 0.18)["ls"]!, 12 - 9 - 1.8, 1e-9);
     expectClose(loadHold(target({ highSide: true }), NETLIST, 0.18)["ls"]!, 9 + 1.8, 1e-9);
   });
-  it("a corner deck's supply scales the back-EMF as the corner deck does (13.2 V: E = 9.9 V)", () => {
-    const deck = NETLIST.replace("DC 12", "DC 13.2");
+  it("E is the deck's own `.param emf` (a corner deck's or a run's value: 9.9 V here)", () => {
+    const deck = setEmf(NETLIST.replace("DC 12", "DC 13.2"), 9.9);
+    expect(deckEmf(deck)).toBe(9.9);
     expectClose(loadHold(target({ highSide: true }), deck, 0.1)["ls"]!, 9.9 + 1, 1e-9);
+  });
+  it("each nominal run's deck carries the engine's E for its control; a deck without a motor is left alone", () => {
+    const t = target({ emfByCtrl: { "0": 0, "0.5": 4.25, "1": 9 } });
+    expect(deckEmf(nominalRunDeck(t, NETLIST, 0.5))).toBe(4.25);
+    expect(deckEmf(nominalRunDeck(t, NETLIST, 0))).toBe(0);
+    expect(nominalRunDeck(t, NETLIST, 1)).toBe(NETLIST);
+    const plain = NETLIST.replace(".param emf=9\n", "");
+    expect(nominalRunDeck(t, plain, 0.5)).toBe(plain);
+    expect(deckEmf(plain)).toBe(0);
+  });
+  it("a motor whose E follows the control settles and reads its load at control ½, and settles at control 0", () => {
+    const t = target({ emfByCtrl: { "0": 0, "0.5": 4.25, "1": 9 }, midLoad: true });
+    expect([readsLoad(t, 0.5), readsLoad(t, 0), settlesLoad(t, 0), presetsLoad(t, 0.5, DEFAULT_RUN_PLAN)]).toEqual([
+      true,
+      false,
+      true,
+      true,
+    ]);
+    expect([readsLoad(target(), 0.5), settlesLoad(target(), 0)]).toEqual([false, false]);
   });
   it("the settled current from a run: (mean terminal voltage over whole periods − E)/R", () => {
     // motorRun: low side, on 0.2 V for D, off at V_bus + V_F while the diode conducts, then E.
     const m = motorRun(0.6, 1);
     const run = { ...m, v: { ...m.v, "v(ls)": m.v["v(sw)"]! } }; // Vsense (0 V) joins sw and ls
     const vTerm = 0.6 * (12 - 0.2) + 0.4 * (12 - 12.5); // load voltage vbus − sw, whole periods
-    expectClose(settledLoadCurrent(target({ loadEmf_V: 3 }), run, NETLIST), (vTerm - 3) / 10, 0.01);
+    expectClose(settledLoadCurrent(target({ loadEmf_V: 3 }), run, setEmf(NETLIST, 3)), (vTerm - 3) / 10, 0.01);
   });
   it("only an inductive load's control-1 run is prepared, and only where that is shorter", () => {
     expect(presetsLoad(target(), 1, DEFAULT_RUN_PLAN)).toBe(true);

@@ -16,10 +16,11 @@ import type { PartKind } from "../../model/kinds.ts";
 import type { DesignProblem } from "../../model/problem.ts";
 import { figure, problem } from "../shared/figures.ts";
 import { type Ctx, loadCurrentOn_A } from "./context.ts";
-import { diodeClassVf_V, diodeSeriesCurrent_A, ledStringLaw } from "../shared/diode.ts";
+import { diodeSeriesCurrent_A, ledStringLaw } from "../shared/diode.ts";
 import { NOMINAL_TEMP_C } from "../shared/temperature.ts";
 import { STARVED_FRACTION } from "./load-point.ts";
-import { type WindingWaveform, motorEmfAtCurrent_V, windingWaveform } from "../shared/winding.ts";
+import type { WindingWaveform } from "../shared/winding.ts";
+import { motorRun } from "./motor-runs.ts";
 import { solenoidScheme } from "./solenoid.ts";
 
 const KIND: Record<string, PartKind> = {
@@ -71,7 +72,7 @@ export function loadStage(
     what = `draws ${iOn_A.toPrecision(3)} A of its rated ${ctx.iNom_A} A`;
     formula = `R·I + N·V_T·ln(1 + I/IS) = V_cc − V_sw (string diode law, V_T at ${NOMINAL_TEMP_C} °C)`;
   } else if (kind === "motor") {
-    const m = motorOnState(ctx, vLoad_V, dutyOn, fOn_Hz);
+    const m = motorOnState(ctx, vSwNom_V, dutyOn, fOn_Hz);
     iOn_A = m.wave?.onReading_A ?? ctx.iNom_A;
     winding = m.wave;
     spice = { ...spice, vf_V: Math.max(0, m.emf_V) };
@@ -168,24 +169,19 @@ export function loadStage(
 
 /**
  * A constant-torque motor at control 1: the back-EMF at which its winding carries the rated current
- * on average, and the winding's waveform there. The freewheel diode's V_F is its class law at the
- * rated current (nominal temperature). A motor that cannot carry its rated current even at E = 0
- * gets no waveform (the starved-load error says why). Its peak current is below the stall current
- * V/R the protection stage already checks against the switch's pulse rating, so discontinuous
- * conduction needs no rule of its own.
+ * on average, and the winding's waveform there (motor-runs.ts, the same solve as every other run).
+ * A motor that cannot carry its rated current even at E = 0 gets no waveform (the starved-load
+ * error says why). Its peak current is below the stall current V/R the protection stage already
+ * checks against the switch's pulse rating, so discontinuous conduction needs no rule of its own.
  */
 function motorOnState(
   ctx: Ctx,
-  vLoad_V: number,
+  vSw_V: number,
   duty: number,
   f_Hz: number,
 ): { emf_V: number; wave: WindingWaveform | undefined } {
-  const fw = ctx.spec.devices.freewheel_diode as DiodeClass | undefined;
-  const vf = fw === undefined ? 0 : Math.max(0, diodeClassVf_V(fw, ctx.iNom_A, NOMINAL_TEMP_C));
-  const drive = { vOn_V: vLoad_V, vF_V: vf, r_ohm: ctx.load.r_ohm, l_H: ctx.load.l_H, duty, f_Hz };
-  if (!(duty > 0) || !(ctx.load.l_H > 0)) return { emf_V: -1, wave: undefined };
-  const emf_V = motorEmfAtCurrent_V(drive, ctx.iNom_A);
-  return { emf_V, wave: emf_V > 0 ? windingWaveform({ ...drive, emf_V }) : undefined };
+  const run = motorRun(ctx, vSw_V, { supply_V: ctx.supply.nom_V, duty, f_Hz });
+  return { emf_V: run.solved_V, wave: run.stalled ? undefined : run.wave };
 }
 
 function windingFigures(w: WindingWaveform): Figure[] {

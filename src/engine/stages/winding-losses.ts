@@ -6,8 +6,8 @@
  * junction freewheel diode that still conducts when the switch turns on. Pure.
  */
 import type { DiodeClass } from "../../model/device.ts";
-import type { WindingWaveform } from "../shared/winding.ts";
-import { recoveryCharge_C, recoveryLoss_W } from "../shared/winding.ts";
+import type { WindingDrive, WindingWaveform } from "../shared/winding.ts";
+import { recoveryCharge_C, recoveryLoss_W, windingWaveform } from "../shared/winding.ts";
 import { diodeTransitTime_s } from "../shared/diode.ts";
 import { type SwitchingKind, switchingLoss_W } from "../shared/losses.ts";
 import type { DeviceLoss } from "./chains/types.ts";
@@ -46,12 +46,26 @@ export function windingSwitchTerms(
       ? o.scaled((w.iValley_A + w.iPeak_A) / 2)
       : switchingLoss_W(o.v_V, w.iValley_A, t.on, 0, o.f_Hz, o.kind) +
         switchingLoss_W(o.v_V, w.iPeak_A, 0, t.off, o.f_Hz, o.kind);
-  // The diode's current falls as the switch's rises: its current-rise time is at most the whole
-  // turn-on, so this takes the smallest charge the edge can leave (the lower estimate).
-  const tt_s = o.freewheel === undefined ? 0 : diodeTransitTime_s(o.freewheel);
-  const tRise_s = t?.on ?? power.dev.t_rise_s;
-  const rr_W = recoveryLoss_W(o.v_V, recoveryCharge_C(w.iValley_A, tt_s, tRise_s), o.f_Hz);
+  const rr_W = freewheelRecovery_W(w.iValley_A, power, o);
   return { cond_W, sw_W, rr_W };
+}
+
+/**
+ * The freewheel diode's reverse recovery, paid by the switch at each turn-on: V·Q_rr·f, Q_rr the
+ * charge a junction diode still holds when the switch takes over `iValley_A` (shared/winding.ts
+ * `recoveryCharge_C`, `recoveryLoss_W`). The one definition for every winding: a motor's armature
+ * and a solenoid coil. The diode's current falls as the switch's rises: its current-rise time is
+ * at most the whole turn-on, so this takes the smallest charge the edge can leave (the lower
+ * estimate).
+ */
+export function freewheelRecovery_W(
+  iValley_A: number,
+  power: DeviceLoss,
+  o: { v_V: number; f_Hz: number; freewheel: DiodeClass | undefined },
+): number {
+  const tt_s = o.freewheel === undefined ? 0 : diodeTransitTime_s(o.freewheel);
+  const tRise_s = power.tNom_s?.on ?? power.dev.t_rise_s;
+  return recoveryLoss_W(o.v_V, recoveryCharge_C(Math.max(0, iValley_A), tt_s, tRise_s), o.f_Hz);
 }
 
 /**
@@ -65,4 +79,19 @@ export function withWindingForm(losses: DeviceLoss[], w: WindingWaveform | undef
   return losses.map((l) =>
     l.isPower && l.family === "mosfet" ? { ...l, pCond_W: l.pCond_W * k, p_W: l.p_W + l.pCond_W * (k - 1) } : l,
   );
+}
+
+/**
+ * A solenoid coil's freewheel recovery at the switch: the coil is the winding with no back-EMF
+ * (armature held), so its current at turn-on is the same exact waveform's valley (continuous, or 0
+ * once it stops), and the loss the same `freewheelRecovery_W`. 0 without a freewheel diode.
+ */
+export function coilRecovery_W(
+  coil: Omit<WindingDrive, "emf_V">,
+  power: DeviceLoss,
+  o: { v_V: number; freewheel: DiodeClass | undefined },
+): number {
+  if (o.freewheel === undefined || !(coil.vF_V > 0) || !(coil.duty > 0) || !(coil.vOn_V > 0)) return 0;
+  const w = windingWaveform({ ...coil, emf_V: 0 });
+  return freewheelRecovery_W(w.iValley_A, power, { v_V: o.v_V, f_Hz: coil.f_Hz, freewheel: o.freewheel });
 }
