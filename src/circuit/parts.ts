@@ -169,11 +169,14 @@ export interface CapacitorSpec {
   pins: Record<string, string>;
   polarised: boolean;
   why: string;
+  /** The dielectric named in the description of a non-polarised part (default: film or ceramic, any). */
+  dielectric?: string;
 }
 
 /** Capacitor; `series` is the E-series it was picked from. */
 export function capacitor<S extends StageKind>(stage: S, role: RoleIn<S>, spec: CapacitorSpec): Part {
   const { c_F, series, tol, ratedV, stressV, pins, polarised, why } = spec;
+  const kind = polarised ? "Aluminium electrolytic" : (spec.dielectric ?? "Film or C0G/X7R ceramic");
   return {
     ref: "",
     kind: polarised ? "capacitor-polarised" : "capacitor",
@@ -183,7 +186,7 @@ export function capacitor<S extends StageKind>(stage: S, role: RoleIn<S>, spec: 
     unit: "F",
     series,
     tolerance: tol,
-    description: `${polarised ? "Aluminium electrolytic" : "Film or C0G/X7R ceramic"} capacitor, ${ratedV} V — ${why}`,
+    description: `${kind} capacitor, ${ratedV} V — ${why}`,
     rating: { voltage_V: ratedV },
     stress: { voltage_V: stressV },
     pins,

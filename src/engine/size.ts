@@ -32,7 +32,8 @@ import { protectionStage } from "./stages/protection.ts";
 import { seriesLoss_W } from "./stages/series-reverse.ts";
 import { cautions, checkProblems, verdictLead } from "./stages/feasibility.ts";
 import { decideVerdict } from "./stages/verdict.ts";
-import { type FollowerChosen, type RcLowered, designDecisions } from "./stages/decisions.ts";
+import { type CapsTightened, type FollowerChosen, type RcLowered, designDecisions } from "./stages/decisions.ts";
+import { TIGHT_CAPS, tightCapsAllowed } from "./stages/timing-caps.ts";
 import { type PullInTimer, designPullInTimer } from "./stages/pull-in-timer.ts";
 
 export function sizeVariant(spec: VariantSpec): SizedVariant {
@@ -75,13 +76,33 @@ const RC_STEPS = [1.5, 2.2, 3.3, 4.7];
 export function tapAndTiming(
   ctx: Ctx,
   plan: ChainPlan,
+): { tap: TapDesign; timing: TimingResult; rcLowered?: RcLowered; follower?: FollowerChosen; caps?: CapsTightened } {
+  const general = coreAttempts(ctx, plan);
+  if (general.timing.search.passed || !tightCapsAllowed(ctx.taMin_C, ctx.taMax_C, ctx.spec.load_kind)) return general;
+  // Every arrangement failed with ±10 % timing capacitors: the same attempts once more with the
+  // ±5 % class (timing-caps.ts), kept only when a core passes with a capacitance the class is sold in.
+  const tightCtx: Ctx = { ...ctx, caps: TIGHT_CAPS, cTol: TIGHT_CAPS.engineTol };
+  const tight = coreAttempts(tightCtx, plan);
+  if (!tight.timing.search.passed || tight.timing.values.c_F > TIGHT_CAPS.cMax_F) return general;
+  const rule = general.timing.problems.find((p) => p.severity === "error")?.rule ?? "duty-range-worst-case";
+  return { ...tight, caps: { rule } };
+}
+
+/**
+ * The plain core, then the follower core on the emitter and on the collector, each with the
+ * timing-capacitor class of `ctx`; the first that passes is kept (else the plain core's attempt).
+ * Exported for the tests.
+ */
+export function coreAttempts(
+  ctx: Ctx,
+  plan: ChainPlan,
 ): { tap: TapDesign; timing: TimingResult; rcLowered?: RcLowered; follower?: FollowerChosen } {
   const plain = plainTapAndTiming(ctx, plan);
   if (plain.timing.search.passed) return plain;
   // The follower core (docs/method.md, "Follower core"), only where the plain one does not pass:
   // the chain on the follower's emitter where its input allows it, else on the collector.
   const why = plain.timing.problems.find((p) => p.severity === "error")?.rule ?? "duty-range-worst-case";
-  const chosen = (tap: TapDesign, timing: TimingResult, onCollector: boolean): ReturnType<typeof tapAndTiming> => ({
+  const chosen = (tap: TapDesign, timing: TimingResult, onCollector: boolean): ReturnType<typeof coreAttempts> => ({
     tap,
     timing,
     follower: { rule: why, plainRc_ohm: plain.tap.rC_ohm, ...(onCollector ? { onCollector } : {}) },
@@ -131,7 +152,7 @@ function plainTapAndTiming(ctx: Ctx, plan: ChainPlan): { tap: TapDesign; timing:
 function sizeInner(spec: VariantSpec): SizedVariant {
   const ctx = makeContext(spec);
   const plan = CHAIN_PLANNERS[spec.chain](ctx);
-  const { tap, timing, rcLowered, follower } = tapAndTiming(ctx, plan);
+  const { tap, timing, rcLowered, follower, caps } = tapAndTiming(ctx, plan);
   const w = timing.search.worst;
   const fin = plan.finish(tap.info, {
     dutyMax: Math.min(1, w.dMax.hi),
@@ -345,6 +366,7 @@ function sizeInner(spec: VariantSpec): SizedVariant {
         rcLowered,
         reviewed.conditions.some((c) => c.rule === "insulator-kit"),
         follower,
+        caps,
       ),
       ...(fin.decision === undefined
         ? []

@@ -755,10 +755,15 @@ export const SOURCES = {
     confidence: "common-practice",
     note:
       "Polyester film capacitors up to a few µF are sold at ±10 % (K) in the E6/E12 values; their " +
-      "capacitance moves by a few per cent over 0–50 °C and their leakage is negligible beside a megaohm.",
+      "capacitance moves by a few per cent over 0–50 °C and their leakage is negligible beside a megaohm. " +
+      "Polypropylene film (up to a few µF) and C0G ceramic (up to about 100 nF) are sold at ±5 % (J) in the " +
+      "same values and drift far less: polypropylene ≈ −200 ppm/K, C0G 0 ± 30 ppm/K.",
     values: [
       { item: "tolerance", value: "±10 %", sureness: "common-practice" },
       { item: "drift 0–50 °C", value: "within ≈ ±3 %", sureness: "from-memory" },
+      { item: "tolerance, polypropylene film or C0G", value: "±5 %", sureness: "common-practice" },
+      { item: "temperature coefficient, polypropylene film", value: "≈ −200 ppm/K", sureness: "from-memory" },
+      { item: "temperature coefficient, C0G ceramic", value: "0 ± 30 ppm/K", sureness: "from-memory" },
     ],
   },
   "hayt-kemmerly-ch8": {

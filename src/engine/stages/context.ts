@@ -9,6 +9,7 @@ import { loadModel } from "../shared/loads.ts";
 import type { SwitchingKind } from "../shared/losses.ts";
 import { SERIES_TOLERANCE } from "../shared/e-series.ts";
 import { type SeriesReverse, seriesReverse } from "./reverse.ts";
+import { GENERAL_CAPS, type TimingCapClass } from "./timing-caps.ts";
 
 /** Potentiometer track tolerance, ±20 % (common practice for carbon and cermet pots). */
 export const POT_TOLERANCE = 0.2;
@@ -33,7 +34,10 @@ export interface Ctx {
   /** Switching-loss waveform shape: resistive, or clamped inductive (motor with freewheel diode). */
   switching: SwitchingKind;
   rTol: number;
+  /** The timing capacitors' tolerance the corners sweep: `caps.engineTol`. */
   cTol: number;
+  /** The timing capacitors' part class (timing-caps.ts): general ±10 %, or ±5 % where chosen. */
+  caps: TimingCapClass;
   highSide: boolean;
   /**
    * A series reverse-polarity diode (stages/reverse.ts), when the variant has one: vMin_V and vNom_V are then
@@ -71,7 +75,8 @@ export function makeContext(spec: VariantSpec): Ctx {
     iMax_A,
     switching: load.inductive ? "clamped-inductive" : "resistive",
     rTol: SERIES_TOLERANCE.E24,
-    cTol: SERIES_TOLERANCE.E12,
+    cTol: GENERAL_CAPS.engineTol,
+    caps: GENERAL_CAPS,
     highSide: spec.chain === "bjt-driver-pnp",
   };
 }

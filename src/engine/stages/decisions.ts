@@ -11,9 +11,10 @@ import type { DesignDecision, HeatsinkVerdict } from "../../model/sized.ts";
 import type { VariantSpec } from "../../model/variant.ts";
 import type { PartRole } from "../../model/part-roles.ts";
 import { RESISTOR_RATINGS_W } from "../../circuit/parts.ts";
-import { formatValue } from "../../model/format.ts";
+import { formatPercent, formatValue } from "../../model/format.ts";
 import { GENERIC_HEATSINKS, type GenericHeatsink, pickHeatsink } from "../shared/heatsinks.ts";
 import { PREFERRED_REASON } from "../devices/choose.ts";
+import { GENERAL_CAPS, TIGHT_CAPS } from "./timing-caps.ts";
 
 /** The device role a part of this role takes its class from, where the part role says it. */
 const DEVICE_ROLE_OF: Partial<Record<PartRole, DeviceRole>> = {
@@ -89,6 +90,11 @@ export interface FollowerChosen {
   onCollector?: boolean;
 }
 
+/** What size.ts tapAndTiming reports when it chose the ±5 % timing capacitors: the ±10 % attempt's first failure. */
+export interface CapsTightened {
+  rule: string;
+}
+
 /** Why the plain core failed, in the builder's words, by the rule its timing stage reported. */
 const PLAIN_FAILURE: Partial<Record<string, string>> = {
   "collector-recovery":
@@ -108,6 +114,7 @@ export function designDecisions(
   rcLowered?: RcLowered,
   insulated = false,
   follower?: FollowerChosen,
+  caps?: CapsTightened,
 ): DesignDecision[] {
   const out: DesignDecision[] = [];
   const seen = new Set<DeviceRole>();
@@ -186,5 +193,30 @@ export function designDecisions(
             `lets the base resistors span a wider duty range`),
     });
   }
+  if (caps !== undefined) out.push(capsDecision(circuit, caps));
   return out;
 }
+
+function capsDecision(circuit: CircuitModel, caps: CapsTightened): DesignDecision {
+  const refs = circuit.parts.filter((p) => p.role === "CT_A" || p.role === "CT_B").map((p) => p.ref);
+  return {
+    refs,
+    topic: "timing capacitor class",
+    choice: `${TIGHT_CAPS.dielectric}, ±${formatPercent(TIGHT_CAPS.partTol)}`,
+    reason:
+      `with ±${formatPercent(GENERAL_CAPS.partTol)} capacitors no timing core passes (` +
+      `${CAP_FAILURE[caps.rule] ?? PLAIN_FAILURE[caps.rule] ?? caps.rule}): the two capacitors, each free within ` +
+      `its tolerance, move the ratio of the half-periods and so the control's ends. The ±` +
+      `${formatPercent(TIGHT_CAPS.partTol)} class (counted at ±` +
+      `${formatPercent(TIGHT_CAPS.engineTol)}, its drift over the ambient range included) passes every limit`,
+  };
+}
+
+/** The ±10 % attempt's failure in the builder's words, where it differs from the plain core's wording. */
+const CAP_FAILURE: Partial<Record<string, string>> = {
+  "duty-range-unreachable":
+    "no base resistors span the duty range at every tolerance corner while keeping the transistors saturated",
+  "duty-range-worst-case": "the control falls short of the duty range at worst case",
+  "base-diode-injection":
+    "the end stops the range needs are so small that the base diodes' capacitance injects too much current",
+};

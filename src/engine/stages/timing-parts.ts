@@ -117,7 +117,8 @@ export function timingParts(
     capacitor("timing", "CT_A", {
       c_F: v.c_F,
       series: "E12",
-      tol: ctx.cTol,
+      tol: ctx.caps.partTol,
+      dielectric: ctx.caps.dielectric,
       ratedV: cRated,
       stressV: vMax,
       pins: { a: v.follower ? "sa" : "ca", b: baseB },
@@ -131,7 +132,8 @@ export function timingParts(
     capacitor("timing", "CT_B", {
       c_F: v.c_F,
       series: "E12",
-      tol: ctx.cTol,
+      tol: ctx.caps.partTol,
+      dielectric: ctx.caps.dielectric,
       ratedV: cRated,
       stressV: vMax,
       pins: { a: v.follower ? "sb" : "cb", b: baseA },

@@ -12,7 +12,8 @@ import {
   followerSwing_V,
   lnFactor,
 } from "../../../src/engine/stages/astable.ts";
-import { sizeVariant } from "../../../src/engine/size.ts";
+import { coreAttempts, sizeVariant } from "../../../src/engine/size.ts";
+import { CHAIN_PLANNERS } from "../../../src/engine/stages/chains/index.ts";
 import { itAgreesWithSpice } from "./sim-agreement.ts";
 import { type SpecOpts, library, makeSpec } from "../fixtures.ts";
 import { makeContext } from "../../../src/engine/stages/context.ts";
@@ -98,6 +99,7 @@ const cableOpts: SpecOpts = {
   supply: { battery: "lead-acid" },
 };
 const cable = makeSpec(cableOpts);
+const cableDriver = sizeVariant(makeSpec({ ...cableOpts, chain: "mosfet-driver" }));
 
 describe("the engine puts a gate or a single junction on the collector", () => {
   const s = sizeVariant(cable);
@@ -153,14 +155,28 @@ describe("saturation counts the other side's base-resistor current", () => {
     expect(overdrive(ctx, q, db, plain, 1e6, 75_000, 68_000)).toBeCloseTo((iB * hfeMin(q, iRc, ctx.taMin_C)) / iRc, 12);
   });
 
-  it("the inverting driver chain of the same 24 V cable is refused, no longer sized into chatter", () => {
+  it("the driver chain of the same 24 V cable is refused with ±10 % capacitors, no longer sized into chatter", () => {
     // Simulated before this rule (native ngspice, corner "slow": 29.4 V, −10 °C, minimum gain,
     // control 0): the timing transistor on the weak 1.27 MΩ side left saturation while the 79 kΩ
     // side recharged through it, and the driver chain chattered at tens of kHz at every on-edge.
-    const s = sizeVariant(makeSpec({ ...cableOpts, chain: "mosfet-driver" }));
-    expect(s.feasible).toBe(false);
-    expect(s.verdict.blocking[0]?.rule).toBe("duty-range-unreachable");
+    const spec = makeSpec({ ...cableOpts, chain: "mosfet-driver" });
+    const ctx = makeContext(spec);
+    const general = coreAttempts(ctx, CHAIN_PLANNERS[spec.chain](ctx));
+    expect(general.timing.search.passed).toBe(false);
+    expect(general.timing.problems.some((p) => p.rule === "duty-range-unreachable")).toBe(true);
   });
+
+  it("with ±5 % capacitors (timing-caps.ts) its core keeps the overdrive, the other side's current counted", () => {
+    // The same saturation rule (k ≥ 2 at minimum gain, cold, lowest supply [src:common-practice]);
+    // the tighter capacitors let the end stops sit further out, so the weak side's resistance falls.
+    expect(cableDriver.feasible).toBe(true);
+    expect(cableDriver.decisions?.some((d) => d.topic === "timing capacitor class")).toBe(true);
+    expect(cableDriver.figures.find((f) => f.key === "timing_overdrive")!.value).toBeGreaterThanOrEqual(2);
+  });
+});
+
+describe("the driver chain's cable core with ±5 % capacitors against SPICE (embedded engine)", () => {
+  itAgreesWithSpice(cableDriver);
 });
 
 describe("the chain on the collector against SPICE (embedded engine)", () => {
