@@ -127,8 +127,11 @@ function numbers(v: SizedVariant): [string, unknown][] {
     for (const [k, x] of Object.entries(p.rating)) out.push([`${p.ref} rating.${k}`, x]);
     for (const [k, x] of Object.entries(p.stress)) out.push([`${p.ref} stress.${k}`, x]);
     // Names (model) and flags (v0_supply) are not numbers; every other spice entry is.
+    // A motor's per-run back-EMF list (emf_by_ctrl) holds numbers in its entries.
     for (const [k, x] of Object.entries(p.spice ?? {}))
-      if (typeof x !== "string" && typeof x !== "boolean") out.push([`${p.ref} spice.${k}`, x]);
+      if (Array.isArray(x))
+        x.forEach((e, i) => Object.entries(e).forEach(([f, y]) => out.push([`${p.ref} spice.${k}[${i}].${f}`, y])));
+      else if (typeof x !== "string" && typeof x !== "boolean") out.push([`${p.ref} spice.${k}`, x]);
   }
   if (v.heatsink.rth_sa_max_KperW !== undefined) out.push(["heatsink rth_sa_max", v.heatsink.rth_sa_max_KperW]);
   return out;
