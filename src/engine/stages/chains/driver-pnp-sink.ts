@@ -11,15 +11,22 @@ import { checkStress } from "../../shared/derating.ts";
 import { figure, problem } from "../../shared/figures.ts";
 import { hfeMin, vbeOn, vbeSat, vceSat } from "../../shared/gain.ts";
 import { nearest, roundDown } from "../../shared/e-series.ts";
-import { conductionLossBjt_W, switchingLoss_W } from "../../shared/losses.ts";
-import { deviceSource } from "../../shared/sources.ts";
+import { conductionLossBjt_W } from "../../shared/losses.ts";
 import { largestResistor_W, resistor, transistor } from "../../../circuit/parts.ts";
 import { formatValue } from "../../../model/format.ts";
-import { type Ctx, FORCED_BETA, OVERDRIVE_K, switchedVoltage_V } from "../context.ts";
-import { driveMargin, loadPeak_A, lossFigures, needAtMinSupply, switchChecks, switchOffVoltage_V } from "./common.ts";
+import { type Ctx, FORCED_BETA, OVERDRIVE_K } from "../context.ts";
+import {
+  driveMargin,
+  loadPeak_A,
+  needAtMinSupply,
+  switchChecks,
+  switchOffVoltage_V,
+  switchSteadyChecks,
+} from "./common.ts";
 import { bjtDriveLimit_A } from "../../shared/drive-limit.ts";
 import { WEAK_TURNOFF_FACTOR } from "./bjt-single.ts";
 import type { ChainPlan, TapInfo } from "./types.ts";
+import { pnpGainFigures, pnpLossFigures, pnpLosses, pnpPowerPart, pnpSwitchingLoss_W } from "./pnp-power.ts";
 import { vceSatNominal_V } from "./sat-nominal.ts";
 import { storageTime_s } from "../../shared/storage.ts";
 import { NOMINAL_TEMP_C } from "../../shared/temperature.ts";
@@ -149,26 +156,7 @@ export function planDriverPnpSink(ctx: Ctx, plain: PlainDrive): ChainPlan {
     vSwNom_V: vSwNom,
     vSwMax_V: vSwMax,
     parts: [],
-    figures: [
-      figure(
-        "power_gain_min",
-        "Power PNP minimum gain (cold, max current)",
-        betaP,
-        "",
-        "chain",
-        "β_min(I_C,max, T_A,min)",
-        deviceSource(qp, "hfe"),
-      ),
-      figure(
-        "power_base_current",
-        "Power PNP base current needed",
-        plain.iBP,
-        "A",
-        "chain",
-        "I_B = I_C,max / min(10, β_min/2)",
-        "common-practice",
-      ),
-    ],
+    figures: [...pnpGainFigures(qp, betaP, plain.iBP)],
     problems: [],
     checks: [],
     delays(tap) {
@@ -240,24 +228,10 @@ export function planDriverPnpSink(ctx: Ctx, plain: PlainDrive): ChainPlan {
         { c: "drc", b: "drb", e: "dre" },
         { voltage_V: ctx.vMax_V, current_A: iSet.max_A },
       );
-      const qPow = transistor(
-        "chain",
-        "Q_POWER",
-        qp,
-        betaP,
-        { c: "sw", b: "pbase", e: "vbus" },
-        { voltage_V: off, current_A: ctx.iMax_A },
-      );
+      const qPow = pnpPowerPart(ctx, qp, betaP, off);
       const pCond =
         conductionLossBjt_W(ctx.iMax_A, vSwMax, d) + conductionLossBjt_W(iSet.max_A - iPUn, vEB(ctx.taMin_C), d);
-      const pSw = switchingLoss_W(
-        switchedVoltage_V(ctx, ctx.vMax_V),
-        ctx.iMax_A,
-        qp.t_rise_s,
-        qp.t_fall_s + qp.t_storage_s,
-        op.fMax_Hz,
-        ctx.switching,
-      );
+      const pSw = pnpSwitchingLoss_W(ctx, qp, op.fMax_Hz);
       const iBnom = Math.max(0, at.iSetNom_A - vEBn / rPU);
       const iProvided = iSet.min_A - iPUmax;
       const iDrive = bjtDriveLimit_A((i) => i / hfeMin(qp, i, ctx.taMin_C), iProvided, ctx.iMax_A, loadPeak_A(ctx));
@@ -269,28 +243,18 @@ export function planDriverPnpSink(ctx: Ctx, plain: PlainDrive): ChainPlan {
         problems: [...at.problems, ...rbp.problems, ...re.problems, ...rpu.problems],
         checks: [
           ...switchChecks(ctx, "Q_POWER", qp),
-          ...switchChecks({ ...ctx, iMax_A: iSet.max_A, load: { ...ctx.load, inductive: false } }, "Q_DRV", qd, {
-            iMax_A: iSet.max_A,
-            peak_A: iSet.max_A,
-          }).slice(0, 2),
+          ...switchSteadyChecks(
+            { ...ctx, iMax_A: iSet.max_A, load: { ...ctx.load, inductive: false } },
+            "Q_DRV",
+            qd,
+            iSet.max_A,
+          ),
           ...qClChecks,
           ...rbp.checks,
           ...re.checks,
           ...rpu.checks,
         ],
-        losses: [
-          { role: "Q_DRV", dev: qd, family: "bjt", pCond_W: pDrv, pSw_W: 0, p_W: pDrv, isPower: false },
-          {
-            role: "Q_POWER",
-            dev: qp,
-            family: "bjt",
-            pCond_W: pCond,
-            pSw_W: pSw,
-            p_W: pCond + pSw,
-            isPower: true,
-            pBaseNom_W: iBnom * vEBn,
-          },
-        ],
+        losses: pnpLosses(qd, pDrv, qp, pCond, pSw, iBnom * vEBn),
         figures: [
           figure(
             "sink_current_range",
@@ -321,14 +285,7 @@ export function planDriverPnpSink(ctx: Ctx, plain: PlainDrive): ChainPlan {
           ),
           driveMargin("power", "power PNP (from the current sink)", iProvided, ctx.iMax_A / betaP),
           driveMargin("driver", "NPN sink", tap.iMin_A - CLAMP_BIAS_A, ib(iSet.max_A)),
-          ...lossFigures(ctx, {
-            conductionLabel: "Conduction loss, power PNP",
-            conduction_W: pCond,
-            conductionFormula: "P = I_C,max · V_CE(sat) · D_max + I_B · V_EB · D_max",
-            switchingLabel: "Switching loss, power PNP",
-            switching_W: pSw,
-            transitions: "t_r + t_s + t_f",
-          }),
+          ...pnpLossFigures(ctx, pCond, pSw),
         ],
         decision: {
           roles: ["Q_DRV", "Q_CL", "RE_DRV", "RB_P"],

@@ -6,23 +6,15 @@
  */
 import type { BjtClass } from "../../../model/device.ts";
 import { nearest, roundDown } from "../../shared/e-series.ts";
-import { figure, problem } from "../../shared/figures.ts";
+import { problem } from "../../shared/figures.ts";
 import { hfeMin, vbeOn, vbeSat, vceSat } from "../../shared/gain.ts";
-import { conductionLossBjt_W, switchingLoss_W } from "../../shared/losses.ts";
-import { deviceSource } from "../../shared/sources.ts";
+import { conductionLossBjt_W } from "../../shared/losses.ts";
 import { largestResistor_W, resistor, transistor } from "../../../circuit/parts.ts";
 import { planDriverPnpSink } from "./driver-pnp-sink.ts";
+import { pnpGainFigures, pnpLossFigures, pnpLosses, pnpPowerPart, pnpSwitchingLoss_W } from "./pnp-power.ts";
 import { SINK_ESTIMATE_SHARE, plainPnpDriveEstimate } from "./pnp-sink.ts";
-import { type Ctx, FORCED_BETA, OVERDRIVE_K, switchedVoltage_V } from "../context.ts";
-import {
-  needAtMinSupply,
-  driveMargin,
-  loadPeak_A,
-  switchChecks,
-  switchOffVoltage_V,
-  vbeCold,
-  lossFigures,
-} from "./common.ts";
+import { type Ctx, FORCED_BETA, OVERDRIVE_K } from "../context.ts";
+import { needAtMinSupply, driveMargin, loadPeak_A, switchChecks, switchOffVoltage_V, vbeCold } from "./common.ts";
 import { bjtDriveLimit_A } from "../../shared/drive-limit.ts";
 import { BLEED_SHARE, WEAK_TURNOFF_FACTOR } from "./bjt-single.ts";
 import type { ChainPlan } from "./types.ts";
@@ -114,24 +106,7 @@ export function planDriverPnp(ctx: Ctx): ChainPlan {
     vSwMax_V: vSwMax,
     parts: [],
     figures: [
-      figure(
-        "power_gain_min",
-        "Power PNP minimum gain (cold, max current)",
-        betaP,
-        "",
-        "chain",
-        "β_min(I_C,max, T_A,min)",
-        deviceSource(qp, "hfe"),
-      ),
-      figure(
-        "power_base_current",
-        "Power PNP base current needed",
-        iBP,
-        "A",
-        "chain",
-        "I_B = I_C,max / min(10, β_min/2)",
-        "common-practice",
-      ),
+      ...pnpGainFigures(qp, betaP, iBP),
       driveMargin("power", "power PNP (from the driver)", iRbpMin - iPU, ctx.iMax_A / betaP),
     ],
     problems,
@@ -195,23 +170,9 @@ export function planDriverPnp(ctx: Ctx): ChainPlan {
         { c: "drc", b: "drb", e: "0" },
         { voltage_V: ctx.vMax_V, current_A: iRbpMax },
       );
-      const qPow = transistor(
-        "chain",
-        "Q_POWER",
-        qp,
-        betaP,
-        { c: "sw", b: "pbase", e: "vbus" },
-        { voltage_V: off, current_A: ctx.iMax_A },
-      );
+      const qPow = pnpPowerPart(ctx, qp, betaP, off);
       const pCond = conductionLossBjt_W(ctx.iMax_A, vSwMax, op.dutyMax) + conductionLossBjt_W(iRbpMax, vEB, op.dutyMax);
-      const pSw = switchingLoss_W(
-        switchedVoltage_V(ctx, ctx.vMax_V),
-        ctx.iMax_A,
-        qp.t_rise_s,
-        qp.t_fall_s + qp.t_storage_s,
-        op.fMax_Hz,
-        ctx.switching,
-      );
+      const pSw = pnpSwitchingLoss_W(ctx, qp, op.fMax_Hz);
       // Nominal base drive: RB_P's current at V_nom less RPU's share, at the datasheet V_BE(sat).
       const vEBnom = vbeSat(qp, ctx.iNom_A);
       const iBnom = Math.max(0, (ctx.vNom_V - vEBnom - vceSat(qd, iCD)) / rBP - vEBnom / rPU);
@@ -223,30 +184,8 @@ export function planDriverPnp(ctx: Ctx): ChainPlan {
         parts: [qDrv, rbp.part, rpu.part, qPow],
         problems: [...rbp.problems, ...rpu.problems],
         checks: [...rbp.checks, ...rpu.checks],
-        losses: [
-          { role: "Q_DRV", dev: qd, family: "bjt", pCond_W: pDrv, pSw_W: 0, p_W: pDrv, isPower: false },
-          {
-            role: "Q_POWER",
-            dev: qp,
-            family: "bjt",
-            pCond_W: pCond,
-            pSw_W: pSw,
-            p_W: pCond + pSw,
-            isPower: true,
-            pBaseNom_W: baseNom_W,
-          },
-        ],
-        figures: [
-          driveMargin("driver", "NPN driver", tap.iMin_A, ibdEq),
-          ...lossFigures(ctx, {
-            conductionLabel: "Conduction loss, power PNP",
-            conduction_W: pCond,
-            conductionFormula: "P = I_C,max · V_CE(sat) · D_max + I_B · V_EB · D_max",
-            switchingLabel: "Switching loss, power PNP",
-            switching_W: pSw,
-            transitions: "t_r + t_s + t_f",
-          }),
-        ],
+        losses: pnpLosses(qd, pDrv, qp, pCond, pSw, baseNom_W),
+        figures: [driveMargin("driver", "NPN driver", tap.iMin_A, ibdEq), ...pnpLossFigures(ctx, pCond, pSw)],
       };
     },
   };
