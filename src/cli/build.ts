@@ -55,7 +55,7 @@ export async function runBuild(o: BuildOptions): Promise<number> {
     return 2;
   }
   const outDir = guard.dir;
-  const project = await loadProject(o.root);
+  const project = await loadProject(o.root, { schemaCache: path.join(o.root, ".cache", "schemas") });
   if (!project.ok) {
     for (const issue of project.issues) o.out.error(formatIssue(issue));
     o.out.error(`\n${project.issues.length} problem(s) in the records: nothing was built, ${o.outDir}/ is unchanged.`);

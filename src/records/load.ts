@@ -37,13 +37,15 @@ export type LoadResult =
 export interface LoadOptions {
   /** Policy file relative to the root (default designs/policies/default.json). */
   policy?: string;
+  /** Folder that keeps the compiled schemas across processes (a build's `.cache/schemas`); none: compile. */
+  schemaCache?: string;
 }
 
 export const DEFAULT_POLICY = "designs/policies/default.json";
 
 export async function loadProject(root: string, options: LoadOptions = {}): Promise<LoadResult> {
   const issues: RecordIssue[] = [];
-  const schemas = await loadSchemas(root);
+  const schemas = await loadSchemas(root, options.schemaCache);
   issues.push(...schemas.issues);
   const { design: vDesign, device: vDevice, derating: vPolicy } = schemas.validators;
 
