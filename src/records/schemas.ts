@@ -91,7 +91,6 @@ export function standaloneValidators(code: Buffer | null): SchemaSet | null {
   try {
     const module = { exports: {} as Record<string, unknown> };
     // The library's own generated code, written by compileSchemas below into the build's cache.
-    // eslint-disable-next-line @typescript-eslint/no-implied-eval
     new Function("exports", "require", "module", code.toString("utf8"))(module.exports, requireHere, module);
     const validators: SchemaSet["validators"] = {};
     for (const kind of KINDS) {
