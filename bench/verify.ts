@@ -23,7 +23,7 @@ import { cornerDecks } from "../src/verify/corner-deck.ts";
 
 const SIMS_PER_JOB = 3;
 
-function benchJobs(n: number): VerifyJob[] {
+function benchJobs(n: number): (VerifyJob & { sized: SizedVariant })[] {
   const base = new URL("../test/fixtures/netlists/", import.meta.url);
   const kinds = [
     {

@@ -7,7 +7,8 @@ import { readFile } from "node:fs/promises";
 import path from "node:path";
 import { performance } from "node:perf_hooks";
 import { loadProject, formatIssue } from "../records/index.ts";
-import { assembleDesign, catalogueHead, simulationJobs } from "./pipeline.ts";
+import { assembleDesign, catalogueHead } from "./pipeline.ts";
+import { cachedJobs, keepJobs } from "./job-cache.ts";
 import { cachedDesign, sizeAndRenderDesign, sizedKey, type StageStats } from "./size-cache.ts";
 import { sizeInWorkers, sizingWorkers } from "./size-pool.ts";
 import { verifyAll, type VerifyJob } from "../verify/pool.ts";
@@ -78,12 +79,22 @@ export async function runBuild(o: BuildOptions): Promise<number> {
   // The simulation work of each design, in catalogue order; a design read from its entry gives its
   // work here, so the entry is decoded once.
   const designJobs: VerifyJob[][] = [];
+  // A simulated build of an unchanged design takes its work from the job entry (job-cache.ts)
+  // without decoding the sized variants or rendering their corner decks.
+  const jobsDir = path.join(o.root, ".cache", "jobs");
   project.designs.forEach((design, i) => {
-    sizeStats.keys.push(sizedKey(project, design));
+    const key = sizedKey(project, design);
+    sizeStats.keys.push(key);
+    const kept = o.simulate && !o.rebuild ? cachedJobs(jobsDir, sizedDir, key) : null;
+    if (kept) {
+      count(kept);
+      designJobs[i] = kept.jobs;
+      return;
+    }
     const hit = o.rebuild ? null : cachedDesign(project, design, sizedDir);
     if (hit) {
       count({ variants: hit.length, feasible: hit.filter((r) => r.sized.feasible).length });
-      if (o.simulate) designJobs[i] = simulationJobs(hit, project.devices);
+      if (o.simulate) designJobs[i] = keepJobs(jobsDir, key, hit, project.devices).jobs;
     } else misses.push(i);
   });
   sizeStats.hits = project.designs.length - misses.length;
@@ -129,10 +140,12 @@ export async function runBuild(o: BuildOptions): Promise<number> {
     project.designs.forEach((design, i) => {
       const own =
         designJobs[i] ??
-        simulationJobs(
+        keepJobs(
+          jobsDir,
+          sizeStats.keys[i]!,
           sizeAndRenderDesign(project, design, sizedDir, undefined, { read: true }).rendered,
           project.devices,
-        );
+        ).jobs;
       jobs.push(...own);
     });
   designJobs.length = 0;

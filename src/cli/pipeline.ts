@@ -47,7 +47,10 @@ export function renderVariant(sized: SizedVariant, devices: DeviceLibrary): Rend
  * The simulation work of a build: every feasible variant that has a netlist, in catalogue order,
  * with the corner decks the verifier runs besides the nominal ones.
  */
-export function simulationJobs(rendered: readonly RenderedVariant[], devices: DeviceLibrary): VerifyJob[] {
+export function simulationJobs(
+  rendered: readonly RenderedVariant[],
+  devices: DeviceLibrary,
+): (VerifyJob & { sized: SizedVariant })[] {
   return rendered
     .filter((r) => r.sized.feasible && r.netlist)
     .map((r) => ({

@@ -26,18 +26,21 @@ import { DEFAULT_CACHE_DIR, cacheKey, readCache, writeCache } from "./cache.ts";
 import { judge } from "./compare.ts";
 import { chooseEngine, engineVersion, startEngine, type EngineName } from "./engines/index.ts";
 import { measureVariant, type Measured } from "./plan.ts";
-import { targetFromSized, type VerifyTarget } from "./target.ts";
-import { skipped } from "./verify.ts";
+import type { VerifyTarget } from "./target.ts";
+import { planOf, skippedBecause, type JobPlan } from "./verify.ts";
 import type { CornerDeck } from "./corner-deck.ts";
 import type { JobMessage, WorkerReply } from "./worker-main.ts";
 
-export interface VerifyJob {
+export type VerifyJob = {
   id: string;
-  sized: SizedVariant;
   netlist: string;
   /** Corner decks to run besides the nominal runs (corner-deck.ts); absent: nominal only. */
   corners?: CornerDeck[];
-}
+} & (
+  | { sized: SizedVariant; plan?: undefined }
+  /** A job a build kept (src/cli/job-cache.ts): the plan its sized variant gave (verify.ts planOf). */
+  | { plan: JobPlan; sized?: undefined }
+);
 export interface PoolProgress {
   done: number;
   total: number;
@@ -100,8 +103,9 @@ export async function verifyAll(jobs: VerifyJob[], opts: PoolOptions): Promise<M
   };
 
   jobs.forEach((job, index) => {
-    const found = job.sized.feasible ? targetFromSized(job.sized) : null;
-    if (found === null) return finish(index, skipped(job.sized, eng));
+    const plan = job.plan ?? planOf(job.sized);
+    if ("skipped" in plan) return finish(index, skippedBecause(plan.skipped, eng));
+    const found = plan.target;
     const target = job.corners && job.corners.length > 0 ? { ...found, corners: job.corners } : found;
     const key = cacheKey(job.netlist, eng, target);
     const hit = readCache(dir, key);

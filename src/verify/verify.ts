@@ -8,17 +8,30 @@ import { DEFAULT_CACHE_DIR, cacheKey, readCache, writeCache } from "./cache.ts";
 import { judge } from "./compare.ts";
 import type { SpiceEngine } from "./engines/types.ts";
 import { measureVariant } from "./plan.ts";
-import { targetFromSized } from "./target.ts";
+import { targetFromSized, type VerifyTarget } from "./target.ts";
 
 export interface VerifyOptions {
   /** Cache folder; `false` turns the cache off. Default `.cache/sim`. */
   cacheDir?: string | false;
 }
 
-export function skipped(sized: SizedVariant, engine: { name: SpiceEngine["name"]; version: string }): Verification {
+/**
+ * What the verifier takes from a sized variant: its target, or why there is nothing to simulate.
+ * Plain data: a build keeps it with the design's simulation work (src/cli/job-cache.ts).
+ */
+export type JobPlan = { target: VerifyTarget } | { skipped: string };
+
+export function planOf(sized: SizedVariant): JobPlan {
+  const target = sized.feasible ? targetFromSized(sized) : null;
+  if (target !== null) return { target };
   const why = !sized.feasible
     ? `not feasible: ${sized.reason ?? "see problems"}`
     : "no circuit or no predicted frequency to plan a simulation";
+  return { skipped: why };
+}
+
+/** The verdict of a variant with nothing to simulate, `why` from its plan. */
+export function skippedBecause(why: string, engine: { name: SpiceEngine["name"]; version: string }): Verification {
   return {
     status: "skipped",
     engine: engine.name,
@@ -29,14 +42,20 @@ export function skipped(sized: SizedVariant, engine: { name: SpiceEngine["name"]
   };
 }
 
+export function skipped(sized: SizedVariant, engine: { name: SpiceEngine["name"]; version: string }): Verification {
+  const plan = planOf(sized);
+  return skippedBecause("skipped" in plan ? plan.skipped : "", engine);
+}
+
 export async function verifyVariant(
   sized: SizedVariant,
   netlist: string,
   engine: SpiceEngine,
   opts: VerifyOptions = {},
 ): Promise<Verification> {
-  const target = sized.feasible ? targetFromSized(sized) : null;
-  if (target === null) return skipped(sized, engine);
+  const plan = planOf(sized);
+  if ("skipped" in plan) return skippedBecause(plan.skipped, engine);
+  const target = plan.target;
   const dir = opts.cacheDir ?? DEFAULT_CACHE_DIR;
   const key = cacheKey(netlist, engine, target);
   const hit = dir === false ? null : readCache(dir, key);
