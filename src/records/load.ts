@@ -110,6 +110,7 @@ export async function loadProject(root: string, options: LoadOptions = {}): Prom
   issues.push(...checkVariantLimits(designs));
 
   if (issues.length > 0 || !policyParsed) return { ok: false, issues: sortIssues(uniqueIssues(issues)) };
+  schemas.keep?.();
   return {
     ok: true,
     designs: designs.map((d) => ({ file: d.parsed.file, record: d.record })),

@@ -22,7 +22,12 @@ import { parseRecordFile } from "./parse.ts";
 export const SCHEMA_DIR = "designs/schema";
 export type SchemaName = "design" | "device" | "derating";
 
-export type SchemaSet = { validators: Partial<Record<SchemaName, ValidateFunction>>; issues: RecordIssue[] };
+export type SchemaSet = {
+  validators: Partial<Record<SchemaName, ValidateFunction>>;
+  issues: RecordIssue[];
+  /** Keeps the compiled validators in the cache folder given to loadSchemas (absent: nothing to keep). */
+  keep?: () => void;
+};
 
 const KINDS = ["design", "device", "derating"] as const;
 
@@ -55,8 +60,11 @@ export async function loadSchemas(root: string, cacheDir?: string): Promise<Sche
     if (COMPILED.size >= COMPILED_MAX) COMPILED.clear();
     COMPILED.set(key, kept);
   }
-  if (cacheDir !== undefined && kept.code !== undefined) keep(cacheDir, entry, kept.code);
-  return { validators: { ...kept.validators }, issues: [...kept.issues] };
+  const code = kept.code;
+  // Written only when the caller says so (loadProject: once every record is valid), so a build
+  // refused for its records leaves the project folder as it found it.
+  const store = cacheDir !== undefined && code !== undefined ? { keep: () => keep(cacheDir, entry, code) } : {};
+  return { validators: { ...kept.validators }, issues: [...kept.issues], ...store };
 }
 
 /** A schema set as this process keeps it: with its standalone code when every schema compiled. */

@@ -36,6 +36,7 @@ describe("compiled schemas kept across processes", () => {
   it("the stored validators give the compiled ones' verdicts, errors and defaults on every sample", async () => {
     const compiled = await loadSchemas(REPO, cache);
     expect(compiled.issues).toEqual([]);
+    compiled.keep!();
     const entries = readdirSync(cache).filter((n) => n.endsWith(".cjs"));
     expect(entries).toHaveLength(1);
     const stored = standaloneValidators(readFileSync(join(cache, entries[0]!)));
@@ -63,13 +64,13 @@ describe("compiled schemas kept across processes", () => {
     const root = join(tmp, "project");
     cpSync(join(REPO, SCHEMA_DIR), join(root, SCHEMA_DIR), { recursive: true });
     const own = join(tmp, "own-cache");
-    await loadSchemas(root, own);
+    (await loadSchemas(root, own)).keep!();
     const [first] = readdirSync(own);
     const file = join(root, SCHEMA_DIR, "derating.schema.json");
     const schema = JSON.parse(readFileSync(file, "utf8")) as { description?: string };
     schema.description = `${schema.description ?? ""} (edited)`;
     writeFileSync(file, JSON.stringify(schema));
-    await loadSchemas(root, own);
+    (await loadSchemas(root, own)).keep!();
     expect(readdirSync(own).sort()).toEqual([first, ...readdirSync(own).filter((n) => n !== first)].sort());
     expect(readdirSync(own)).toHaveLength(2);
     expect(standaloneValidators(Buffer.from("this is not a module"))).toBeNull();
