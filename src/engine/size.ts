@@ -15,12 +15,19 @@ import type { BjtClass, DiodeClass } from "../model/device.ts";
 import { diodeClassVf_V } from "./shared/diode.ts";
 import type { ChainPlan, DeviceLoss } from "./stages/chains/types.ts";
 import { switchingLoss_W } from "./shared/losses.ts";
+import { hfeMin } from "./shared/gain.ts";
 import { assembleCircuit, refsByRole } from "../circuit/assemble.ts";
 import { figure, problem } from "./shared/figures.ts";
 import { NOMINAL_TEMP_C } from "./shared/temperature.ts";
 import { type Ctx, makeContext } from "./stages/context.ts";
 import { CHAIN_PLANNERS } from "./stages/chains/index.ts";
-import { type TapDesign, designFollowerCollectorTap, designFollowerTap, designTap } from "./stages/tap.ts";
+import {
+  GATE_EDGE_SHARE_FOLLOWER,
+  type TapDesign,
+  designFollowerCollectorTap,
+  designFollowerTap,
+  designTap,
+} from "./stages/tap.ts";
 import { type TimingResult, designTiming } from "./stages/timing.ts";
 import { loadStage } from "./stages/load.ts";
 import { coilRecovery_W, windingSwitchTerms, withWindingForm } from "./stages/winding-losses.ts";
@@ -127,7 +134,29 @@ export function coreAttempts(
     const timing = designTiming(ctx, plan, ft);
     if (timing.search.passed) return chosen(ft, timing, true);
   }
-  return plain;
+  const slower = gateEdgeAttempt(ctx, plan);
+  if (slower === null) return plain;
+  const base = chosen(slower.tap, slower.timing, true);
+  return { ...base, follower: { ...base.follower!, gateEdgeShare: GATE_EDGE_SHARE_FOLLOWER } };
+}
+
+/**
+ * The follower core on the collector with the gate's edge budget widened (docs/method.md, "Gate edge
+ * budget in the follower core"): tried last, only for a gate-fed chain, with and without the injection
+ * cap; null when neither passes.
+ */
+function gateEdgeAttempt(ctx: Ctx, plan: ChainPlan): { tap: TapDesign; timing: TimingResult } | null {
+  if (plan.need.kind !== "gate-voltage") return null;
+  let seen: number | undefined;
+  for (const cap of [true, false]) {
+    const ft = designFollowerCollectorTap(ctx, plan, undefined, cap, GATE_EDGE_SHARE_FOLLOWER);
+    if (ft === null) return null;
+    if (ft.rC_ohm === seen) continue;
+    seen = ft.rC_ohm;
+    const timing = designTiming(ctx, plan, ft);
+    if (timing.search.passed) return { tap: ft, timing };
+  }
+  return null;
 }
 
 function plainTapAndTiming(ctx: Ctx, plan: ChainPlan): { tap: TapDesign; timing: TimingResult; rcLowered?: RcLowered } {
@@ -149,6 +178,20 @@ function plainTapAndTiming(ctx: Ctx, plan: ChainPlan): { tap: TapDesign; timing:
   return { tap, timing };
 }
 
+/**
+ * The coupling capacitance the gate's turn-on model sees on the tapped collector (gate-recovery.ts).
+ * With the widened gate edge (follower core on the collector) the follower, not R_C, recharges C_T:
+ * the collector carries only the follower's base current, C_T/(β_F + 1) seen through it (the
+ * emitter-follower's impedance relation [src:sedra-smith], from memory; β_F at the recharge pulse's
+ * start V_nom/R_S, nominal temperature). Every other core: C_T itself, as before.
+ */
+function gateSeenCapacitance_F(ctx: Ctx, timing: TimingResult, follower: FollowerChosen | undefined): number {
+  const rS = timing.values.follower?.rS_ohm;
+  if (follower?.gateEdgeShare === undefined || rS === undefined) return timing.values.c_F;
+  const q = ctx.spec.devices.timing_npn as BjtClass;
+  return timing.values.c_F / (hfeMin(q, Math.min(q.ic_max_A, ctx.vNom_V / rS), NOMINAL_TEMP_C) + 1);
+}
+
 function sizeInner(spec: VariantSpec): SizedVariant {
   const ctx = makeContext(spec);
   const plan = CHAIN_PLANNERS[spec.chain](ctx);
@@ -157,7 +200,7 @@ function sizeInner(spec: VariantSpec): SizedVariant {
   const fin = plan.finish(tap.info, {
     dutyMax: Math.min(1, w.dMax.hi),
     fMax_Hz: w.f.hi,
-    core: { c_F: timing.values.c_F, vSat_V: timing.vSatNom_V },
+    core: { c_F: gateSeenCapacitance_F(ctx, timing, follower), vSat_V: timing.vSatNom_V },
   });
   const dOn = timing.figures.find((f) => f.key === "duty_max")?.value ?? Math.min(1, w.dMax.hi);
   const vSwNom_V = fin.vSwNom_V ?? plan.vSwNom_V;
