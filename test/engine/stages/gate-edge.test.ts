@@ -19,7 +19,9 @@ import {
 } from "../../../src/engine/stages/tap.ts";
 import type { MosfetClass } from "../../../src/model/device.ts";
 import { itAgreesWithSpice } from "./sim-agreement.ts";
-import { type SpecOpts, makeSpec } from "../fixtures.ts";
+import { type SpecOpts, library, makeSpec } from "../fixtures.ts";
+import { renderSchematic } from "../../../src/render/schematic.ts";
+import { geometryProblems } from "../../render/schematic-geometry.ts";
 
 // A 12 V propagation-bench mister pump on a logic-level MOSFET, 30–85 % at 20 kHz (above the audible
 // band), lead-acid battery, −5 … 45 °C: a need invented for the test, the shape of the demo's fan.
@@ -88,6 +90,15 @@ describe("the engine widens the gate's edge only where no other core passes", ()
     expect(d?.reason).toMatch(/gate edge of 4 % of the period instead of 2 %/);
     // The required 30–85 % at worst case (docs/method.md, "Worst-case frequency and duty").
     expect(sized.problems.filter((p) => p.severity === "error")).toEqual([]);
+  });
+});
+
+describe("the drawing of the widened-edge core", () => {
+  it("draws the gate feed from the tapped collector, clear of the followers, without net flags", () => {
+    const sized = sizeVariant(spec);
+    const text = renderSchematic(sized.circuit!, { title: "mister", id: "mister", devices: library() });
+    expect(geometryProblems(text)).toEqual([]);
+    expect(text.includes("data-flag=")).toBe(false);
   });
 });
 
