@@ -15,7 +15,6 @@ import type { BjtClass, DiodeClass } from "../model/device.ts";
 import { diodeClassVf_V } from "./shared/diode.ts";
 import type { ChainPlan, DeviceLoss } from "./stages/chains/types.ts";
 import { switchingLoss_W } from "./shared/losses.ts";
-import { hfeMin } from "./shared/gain.ts";
 import { assembleCircuit, refsByRole } from "../circuit/assemble.ts";
 import { figure, problem } from "./shared/figures.ts";
 import { NOMINAL_TEMP_C } from "./shared/temperature.ts";
@@ -178,20 +177,6 @@ function plainTapAndTiming(ctx: Ctx, plan: ChainPlan): { tap: TapDesign; timing:
   return { tap, timing };
 }
 
-/**
- * The coupling capacitance the gate's turn-on model sees on the tapped collector (gate-recovery.ts).
- * With the widened gate edge (follower core on the collector) the follower, not R_C, recharges C_T:
- * the collector carries only the follower's base current, C_T/(β_F + 1) seen through it (the
- * emitter-follower's impedance relation [src:sedra-smith], from memory; β_F at the recharge pulse's
- * start V_nom/R_S, nominal temperature). Every other core: C_T itself, as before.
- */
-function gateSeenCapacitance_F(ctx: Ctx, timing: TimingResult, follower: FollowerChosen | undefined): number {
-  const rS = timing.values.follower?.rS_ohm;
-  if (follower?.gateEdgeShare === undefined || rS === undefined) return timing.values.c_F;
-  const q = ctx.spec.devices.timing_npn as BjtClass;
-  return timing.values.c_F / (hfeMin(q, Math.min(q.ic_max_A, ctx.vNom_V / rS), NOMINAL_TEMP_C) + 1);
-}
-
 function sizeInner(spec: VariantSpec): SizedVariant {
   const ctx = makeContext(spec);
   const plan = CHAIN_PLANNERS[spec.chain](ctx);
@@ -200,7 +185,7 @@ function sizeInner(spec: VariantSpec): SizedVariant {
   const fin = plan.finish(tap.info, {
     dutyMax: Math.min(1, w.dMax.hi),
     fMax_Hz: w.f.hi,
-    core: { c_F: gateSeenCapacitance_F(ctx, timing, follower), vSat_V: timing.vSatNom_V },
+    core: { c_F: timing.values.c_F, vSat_V: timing.vSatNom_V },
   });
   const dOn = timing.figures.find((f) => f.key === "duty_max")?.value ?? Math.min(1, w.dMax.hi);
   const vSwNom_V = fin.vSwNom_V ?? plan.vSwNom_V;
