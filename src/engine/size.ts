@@ -20,7 +20,13 @@ import { figure, problem } from "./shared/figures.ts";
 import { NOMINAL_TEMP_C } from "./shared/temperature.ts";
 import { type Ctx, makeContext } from "./stages/context.ts";
 import { CHAIN_PLANNERS } from "./stages/chains/index.ts";
-import { type TapDesign, designFollowerCollectorTap, designFollowerTap, designTap } from "./stages/tap.ts";
+import {
+  GATE_EDGE_SHARE_FOLLOWER,
+  type TapDesign,
+  designFollowerCollectorTap,
+  designFollowerTap,
+  designTap,
+} from "./stages/tap.ts";
 import { type TimingResult, designTiming } from "./stages/timing.ts";
 import { loadStage } from "./stages/load.ts";
 import { coilRecovery_W, windingSwitchTerms, withWindingForm } from "./stages/winding-losses.ts";
@@ -127,7 +133,29 @@ export function coreAttempts(
     const timing = designTiming(ctx, plan, ft);
     if (timing.search.passed) return chosen(ft, timing, true);
   }
-  return plain;
+  const slower = gateEdgeAttempt(ctx, plan);
+  if (slower === null) return plain;
+  const base = chosen(slower.tap, slower.timing, true);
+  return { ...base, follower: { ...base.follower!, gateEdgeShare: GATE_EDGE_SHARE_FOLLOWER } };
+}
+
+/**
+ * The follower core on the collector with the gate's edge budget widened (docs/method.md, "Gate edge
+ * budget in the follower core"): tried last, only for a gate-fed chain, with and without the injection
+ * cap; null when neither passes.
+ */
+function gateEdgeAttempt(ctx: Ctx, plan: ChainPlan): { tap: TapDesign; timing: TimingResult } | null {
+  if (plan.need.kind !== "gate-voltage") return null;
+  let seen: number | undefined;
+  for (const cap of [true, false]) {
+    const ft = designFollowerCollectorTap(ctx, plan, undefined, cap, GATE_EDGE_SHARE_FOLLOWER);
+    if (ft === null) return null;
+    if (ft.rC_ohm === seen) continue;
+    seen = ft.rC_ohm;
+    const timing = designTiming(ctx, plan, ft);
+    if (timing.search.passed) return { tap: ft, timing };
+  }
+  return null;
 }
 
 function plainTapAndTiming(ctx: Ctx, plan: ChainPlan): { tap: TapDesign; timing: TimingResult; rcLowered?: RcLowered } {

@@ -15,6 +15,7 @@ import { formatPercent, formatValue } from "../../model/format.ts";
 import { GENERIC_HEATSINKS, type GenericHeatsink, pickHeatsink } from "../shared/heatsinks.ts";
 import { PREFERRED_REASON } from "../devices/choose.ts";
 import { GENERAL_CAPS, TIGHT_CAPS } from "./timing-caps.ts";
+import { GATE_EDGE_SHARE } from "./tap.ts";
 
 /** The device role a part of this role takes its class from, where the part role says it. */
 const DEVICE_ROLE_OF: Partial<Record<PartRole, DeviceRole>> = {
@@ -88,6 +89,11 @@ export interface FollowerChosen {
   plainRc_ohm: number;
   /** The chain listens to the timing collector, not the follower's emitter (its input has one junction or a gate). */
   onCollector?: boolean;
+  /**
+   * The gate's edge budget (share of the period) when it was widened past the plain core's to size R_C
+   * (size.ts gateEdgeAttempt); absent: the plain core's budget.
+   */
+  gateEdgeShare?: number;
 }
 
 /** What size.ts tapAndTiming reports when it chose the ±5 % timing capacitors: the ±10 % attempt's first failure. */
@@ -188,7 +194,13 @@ export function designDecisions(
         (follower.onCollector === true
           ? `while the chain stays on the timing collector, whose low level V_CE(sat) keeps an input of one ` +
             `junction or a gate off (the follower's emitter sits a diode higher); freed from the collector's ` +
-            `recovery, the base resistors may be much smaller than R_C and span a wider duty range`
+            `recovery, the base resistors may be much smaller than R_C and span a wider duty range` +
+            (follower.gateEdgeShare === undefined
+              ? ""
+              : `; R_C now feeds only the gate and the followers' bases, so it is sized for a gate edge of ` +
+                `${formatPercent(follower.gateEdgeShare)} of the period instead of ` +
+                `${formatPercent(GATE_EDGE_SHARE)}, and the larger R_C keeps the timing transistors saturated ` +
+                `with the larger base resistors the duty range needs`)
           : `and feeds the chain from its emitter, so R_C only feeds a follower's base and may be larger, which ` +
             `lets the base resistors span a wider duty range`),
     });

@@ -30,6 +30,20 @@ import { plateau_V } from "./chains/mosfet-common.ts";
 export const TAP_SHARE_ALPHA = 0.5;
 export const RC_MAX_OHM = 10_000;
 /**
+ * Share of the period the gate charge Q_G may take to move through R_C + R_G: it sets the largest
+ * R_C a gate-fed tap takes, (share·T·(V_cc,min − V_plateau)/Q_G)/(1 + RG_SHARE_MIN) (ours). In the
+ * plain core R_C also recharges the coupling capacitor, so 2 % keeps the collector's edge sharp.
+ */
+export const GATE_EDGE_SHARE = 0.02;
+/**
+ * The same budget when recovery followers recharge the capacitors and the gate stays on the collector
+ * (size.ts gateEdgeAttempt, docs/method.md "Gate edge budget in the follower core"): R_C then feeds
+ * only the gate and the followers' bases, and a larger R_C buys the timing transistors' overdrive
+ * (R_B,max ≤ β·R_C/k) at the cost of a gate edge still ≤ 4 % of the period, whose delay and switching
+ * loss the chain counts (ours; 4 % is twice the plain core's share).
+ */
+export const GATE_EDGE_SHARE_FOLLOWER = 0.04;
+/**
  * Largest tap resistor into a transistor base (common practice: a switching stage's base resistor
  * stays ≲ 100 kΩ). A megaohm tap feeds the base a few µA: the stage then switches only as fast as
  * the timing collector's slow RC recovery lets its base current grow, and a gain below the sizing
@@ -138,7 +152,13 @@ function capRc(ctx: Ctx, rC_ohm: number, cap: boolean): number {
  * core fails on recovery or injection); the timing transistor's current floor still wins.
  * `capInjection` false drops the injection estimate's cap (size.ts tries that first).
  */
-export function designTap(ctx: Ctx, plan: ChainPlan, rcCap_ohm: number = RC_MAX_OHM, capInjection = true): TapDesign {
+export function designTap(
+  ctx: Ctx,
+  plan: ChainPlan,
+  rcCap_ohm: number = RC_MAX_OHM,
+  capInjection = true,
+  gateEdgeShare: number = GATE_EDGE_SHARE,
+): TapDesign {
   const rcMax = Math.max(rcMin(ctx), Math.min(RC_MAX_OHM, roundDown(rcCap_ohm, "E24")));
   const need = plan.need;
   const tapNet = need.inverting ? "cb" : "ca";
@@ -202,7 +222,7 @@ export function designTap(ctx: Ctx, plan: ChainPlan, rcCap_ohm: number = RC_MAX_
   // Gate-voltage input (mosfet-logic).
   const dev = ctx.spec.devices.mosfet_logic as MosfetClass;
   const period = 1 / ctx.f_Hz;
-  const rCfast = (0.02 * period * (ctx.vMin_V - plateau_V(dev))) / dev.qg_C;
+  const rCfast = (gateEdgeShare * period * (ctx.vMin_V - plateau_V(dev))) / dev.qg_C;
   // R_C + R_G feeds the gate; R_G ≥ R_C·RG_SHARE_MIN, so R_C takes ≤ 1/(1 + share) of the fast limit.
   const rCg = rCfast / (1 + RG_SHARE_MIN);
   const rC = capRc(ctx, Math.min(rcMax, Math.max(rcMin(ctx), rCg > 1 ? roundDown(rCg, "E24") : 1)), capInjection);
@@ -406,11 +426,12 @@ export function designFollowerCollectorTap(
   plan: ChainPlan,
   rcCap_ohm: number = RC_MAX_OHM,
   capInjection = true,
+  gateEdgeShare: number = GATE_EDGE_SHARE,
 ): TapDesign | null {
   const q = ctx.spec.devices.timing_npn as BjtClass;
   const iAllowed = q.ic_max_A * ctx.spec.policy.bjt.current.factor;
   if (!(iAllowed > 0)) return null;
-  const tap = designTap(ctx, plan, rcCap_ohm, capInjection);
+  const tap = designTap(ctx, plan, rcCap_ohm, capInjection, gateEdgeShare);
   // A collector that cannot feed the chain is not helped by followers (the plain core says why).
   if (tap.problems.some((p) => p.severity === "error")) return null;
   const rS = roundUp(ctx.vMax_V / (iAllowed * (1 - ctx.rTol)), "E24");
