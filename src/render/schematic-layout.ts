@@ -238,12 +238,12 @@ function withEnds(core: StageLayout, tapSide: CoreSide): StageLayout {
   slots[role(tapSide)] = { x: 460, y: ENDS_S_Y, mirror: true, label: "right" };
   // The pot's end toward side A is `a` (coreLayout turns it so).
   const potEnd = (side: "A" | "B"): PinRef => (side === "A" ? "RV_DUTY.a" : "RV_DUTY.b");
-  const rb = (side: "A" | "B"): PinRef => (side === "A" ? "RB_A.a" : "RB_B.a");
   const routes = core.routes.filter(
     (r) => !(typeof r[0] === "string" && (r[0] === "RB_A.a" || r[0] === "RB_B.a") && r.length === 2),
   );
-  for (const side of ["A", "B"] as const)
-    routes.push([rb(side), `${role(side)}.com`], [`${role(side)}.nc`, potEnd(side)]);
+  // The drop from each end resistor to its contact's common is left to the router: a wide label
+  // under the resistor ("2.4 kΩ 0.5 W") sits across the straight drop, and the router goes round it.
+  for (const side of ["A", "B"] as const) routes.push([`${role(side)}.nc`, potEnd(side)]);
   return { ...core, slots, routes };
 }
 
