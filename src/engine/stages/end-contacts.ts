@@ -114,7 +114,8 @@ function contact(ctx: Ctx, role: "S_OFF" | "S_ON", side: "A" | "B", rEnd_ohm: nu
     unit: "",
     description:
       `Changeover contact (SPDT), ≥ ${ratedV} V DC ${CONTACT_CURRENT_A} A, gold-plated for a few-mA signal — ` +
-      `worked at the control's ${end}: opens RB_${side}'s feed and grounds it. Buy a potentiometer with a ` +
+      `worked at the control's ${end}: lifts side ${side}'s end-stop resistor off the potentiometer and grounds ` +
+      `it. Buy a potentiometer with a ` +
       `changeover switch at each end of its travel, or fit a cam on the potentiometer's shaft that works two ` +
       `snap-action changeover switches`,
     rating: { voltage_V: ratedV, current_A: CONTACT_CURRENT_A },
@@ -191,9 +192,9 @@ export function designEndContacts(
       "note",
       `The control runs: off · ${pct(range.nominal[0])}–${pct(range.nominal[1])} · full on (nominal; over every ` +
         `tolerance, supply and temperature corner the travel between the ends is sure to reach ` +
-        `${pct(range.worst[0])}–${pct(range.worst[1])}). At the counter-clockwise end S_OFF stops the oscillator ` +
-        `with the load fully off; at the clockwise end S_ON stops it with the load fully on, which the switch, its ` +
-        `drive and its heatsink are sized for continuously.`,
+        `${pct(range.worst[0])}–${pct(range.worst[1])}). At the counter-clockwise end a contact stops the ` +
+        `oscillator with the load fully off; at the clockwise end another stops it with the load fully on, which ` +
+        `the switch, its drive and its heatsink are sized for continuously.`,
     ),
   );
   const parts = [contact(ctx, "S_OFF", "B", v.rEndB_ohm), contact(ctx, "S_ON", "A", v.rEndA_ohm)];
@@ -232,8 +233,8 @@ export function designEndContacts(
     roles: ["S_OFF", "S_ON", "RB_A", "RB_B"],
     topic: "control ends",
     choice:
-      "changeover contacts at the potentiometer's ends: counter-clockwise opens RB_B's feed and grounds it " +
-      "(load fully off), clockwise does the same to RB_A (load fully on)",
+      "changeover contacts at the potentiometer's ends: counter-clockwise lifts side B's end-stop resistor off " +
+      "the potentiometer and grounds it (load fully off), clockwise does the same on side A (load fully on)",
     reason:
       `the record asks for a true off and on; stopping the oscillator in a defined state needs no new timing ` +
       `part, and the side that loses its feed is held off by its own end resistor to ground (a floating base ` +
