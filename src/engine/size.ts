@@ -41,6 +41,7 @@ import { decideVerdict } from "./stages/verdict.ts";
 import { type CapsTightened, type FollowerChosen, type RcLowered, designDecisions } from "./stages/decisions.ts";
 import { TIGHT_CAPS, tightCapsAllowed } from "./stages/timing-caps.ts";
 import { type PullInTimer, designPullInTimer } from "./stages/pull-in-timer.ts";
+import { type ControlEnds, controlEnds, dutyReach } from "./stages/end-contacts.ts";
 
 export function sizeVariant(spec: VariantSpec): SizedVariant {
   try {
@@ -182,8 +183,11 @@ function sizeInner(spec: VariantSpec): SizedVariant {
   const plan = CHAIN_PLANNERS[spec.chain](ctx);
   const { tap, timing, rcLowered, follower, caps } = tapAndTiming(ctx, plan);
   const w = timing.search.worst;
+  // With the control's ends (stages/end-contacts.ts) the load runs at duty 1 and duty 0 too: every
+  // duty-weighted figure is taken over that widened range.
+  const { hi: dutyHi, lo: dutyLo } = dutyReach(spec.targets.off_on_ends, w);
   const fin = plan.finish(tap.info, {
-    dutyMax: Math.min(1, w.dMax.hi),
+    dutyMax: dutyHi,
     fMax_Hz: w.f.hi,
     core: { c_F: timing.values.c_F, vSat_V: timing.vSatNom_V },
   });
@@ -228,12 +232,12 @@ function sizeInner(spec: VariantSpec): SizedVariant {
     ctx.vMax_V / timing.values.rC_ohm,
     w.f.lo,
     w.f.hi,
-    w.dMin.lo,
+    dutyLo,
     power === undefined
       ? undefined
       : { role: power.role, dev: power.dev, ...(fin.drive === undefined ? {} : { drive: fin.drive }) },
   );
-  const pIn = ctx.vMax_V * ctx.iMax_A * Math.min(1, w.dMax.hi);
+  const pIn = ctx.vMax_V * ctx.iMax_A * dutyHi;
   const pNominal = nominalDissipation(
     ctx,
     timing.figures,
@@ -254,10 +258,12 @@ function sizeInner(spec: VariantSpec): SizedVariant {
     motor === undefined ? load.part : { ...load.part, spice: { ...load.part.spice, emf_by_ctrl: motor.emfByCtrl } };
 
   const timer = pullInTimer(ctx, timing, load.pullIn, prot.parts, vSwNom_V);
+  const endc: ControlEnds = controlEnds(ctx, timing, { power, iOn_A: load.iOn_A, vSwNom_V });
   const rawParts: Part[] = [
     ...prot.parts,
-    ...timing.parts,
+    ...endc.rewire(timing.parts),
     ...(timer?.parts ?? []),
+    ...endc.parts,
     ...tap.parts,
     ...plan.parts,
     ...fin.parts,
@@ -276,7 +282,7 @@ function sizeInner(spec: VariantSpec): SizedVariant {
     const note = review.partNotes.get(p.role);
     return note === undefined ? p : { ...p, notes: [...(p.notes ?? []), note] };
   });
-  const driverLoss = driverLoss_W(parts, [...finLosses, ...coreLosses], ctx, Math.min(1, w.dMax.hi));
+  const driverLoss = driverLoss_W(parts, [...finLosses, ...coreLosses], ctx, dutyHi);
   const efficiency = Math.max(0, 1 - driverLoss / pIn);
   const circuit = assembleCircuit(parts, {
     supply_V: spec.supply_V,
@@ -308,7 +314,8 @@ function sizeInner(spec: VariantSpec): SizedVariant {
     return m === null ? p : { ...p, path: `/parts/${toRef(m[1]!)}` };
   };
   const stageProblems = [
-    ...timing.problems,
+    ...timing.problems.filter(endc.keepTimingProblem),
+    ...endc.problems,
     ...plan.problems,
     ...fin.problems,
     ...load.problems,
@@ -323,6 +330,7 @@ function sizeInner(spec: VariantSpec): SizedVariant {
     ...fin.figures,
     ...load.figures,
     ...(timer?.figures ?? []),
+    ...endc.figures,
     ...thermal.figures,
     ...reviewed.figures,
     ...prot.figures,
@@ -416,8 +424,9 @@ function sizeInner(spec: VariantSpec): SizedVariant {
               reason: timer.decision.reason,
             },
           ]),
+      ...endc.decisions(toRef),
     ],
-    corners: motor?.corners ?? timing.corners,
+    corners: endc.corners(motor?.corners ?? timing.corners),
   };
   if (verdict.status === "not-feasible") out.reason = verdict.summary;
   return out;

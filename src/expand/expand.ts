@@ -16,6 +16,7 @@ export const TARGET_DEFAULTS = {
   supply_tolerance: 0.1,
   duty_skew_max: 0.02,
   heatsink_min_KperW: 2.0,
+  off_on_ends: false,
 } as const;
 
 export const PROTECTION_DEFAULTS: VariantSpec["protection"] = { be_breakdown: "series-base-diode" };
@@ -38,6 +39,7 @@ export function fillTargets(t: DesignRecord["targets"]): VariantSpec["targets"] 
     supply_tolerance: t.supply_tolerance ?? TARGET_DEFAULTS.supply_tolerance,
     duty_skew_max: t.duty_skew_max ?? TARGET_DEFAULTS.duty_skew_max,
     heatsink_min_KperW: t.heatsink_min_KperW ?? TARGET_DEFAULTS.heatsink_min_KperW,
+    off_on_ends: t.off_on_ends ?? TARGET_DEFAULTS.off_on_ends,
   };
 }
 

@@ -28,6 +28,7 @@ export const PIN_NAMES = {
   lamp: ["a", "b"],
   heater: ["a", "b"],
   "led-strip": ["a", "b"],
+  switch: ["com", "nc", "no"],
 } as const satisfies Record<PartKind, readonly string[]>;
 
 export interface PartRating {

@@ -37,7 +37,8 @@ export interface SimCorner extends Corner {
   gain: "min" | "typ";
   /**
    * The engine's prediction at this corner; for a motor load also its back-EMF there (the netlist's
-   * `emf` at this corner: src/engine/stages/motor-runs.ts).
+   * `emf` at this corner: src/engine/stages/motor-runs.ts); with the control's ends
+   * (targets.off_on_ends) the load's full on-current at this corner (stages/end-contacts.ts).
    */
-  predicted: { f_Hz: number; duty: number; emf_V?: number };
+  predicted: { f_Hz: number; duty: number; emf_V?: number; iEndOn_A?: number };
 }

@@ -27,6 +27,11 @@ export interface DesignRecord {
     duty_skew_max?: number;
     /** Smallest heatsink thermal resistance the design accepts before it is "not feasible" (default 2 K/W). */
     heatsink_min_KperW?: number;
+    /**
+     * A true off and on at the ends of the control's travel (stages/end-contacts.ts): a contact at
+     * each end of the potentiometer stops the core in a defined state (default false).
+     */
+    off_on_ends?: boolean;
   };
   /**
    * The supply's real range. `battery` names a chemistry whose window (end of discharge … charging)

@@ -42,6 +42,7 @@ export const PART_KINDS = [
   "heater",
   "led-strip",
   "solenoid",
+  "switch", // changeover contact (common, normally closed, normally open), worked by the control's shaft
 ] as const;
 export type PartKind = (typeof PART_KINDS)[number];
 
@@ -64,6 +65,7 @@ export const REF_PREFIX = {
   lamp: "E",
   heater: "E",
   "led-strip": "E",
+  switch: "S",
   solenoid: "Y", // IEC 60750 class Y: electrically operated mechanical device (valve, brake), from memory
 } as const satisfies Record<PartKind, string>;
 

@@ -31,7 +31,7 @@ export const STAGE_ROLES = {
     "RS_A",
     "RS_B",
   ],
-  duty: ["RV_DUTY", "RB_A", "RB_B", "C_PULL", "R_PULL", "RB_PULL", "DB_PULL", "D_PULL", "Q_PULL"],
+  duty: ["RV_DUTY", "RB_A", "RB_B", "C_PULL", "R_PULL", "RB_PULL", "DB_PULL", "D_PULL", "Q_PULL", "S_OFF", "S_ON"],
   chain: [
     "RT",
     "Q_D1",

@@ -4,6 +4,7 @@
  */
 import { DEVICE_ROLES, type DesignRecord, type DeviceRole } from "../model/design.ts";
 import type { DeviceClass } from "../model/device.ts";
+import type { LoadKind } from "../model/kinds.ts";
 import type { RecordIssue } from "./issue.ts";
 import type { ParsedFile } from "./parse.ts";
 import { LOAD_SWITCH_CHAINS, ROLE_FAMILY, currentRating, voltageRating } from "./roles.ts";
@@ -105,7 +106,32 @@ export function checkTargets(d: LoadedDesign): RecordIssue[] {
       ),
     );
   }
-  return [...out, ...checkSupply(d)];
+  return [...out, ...checkEnds(d), ...checkSupply(d)];
+}
+
+/** Load kinds the control's ends (targets.off_on_ends) are not offered for, and why. */
+export const ENDS_NOT_FOR: Readonly<Partial<Record<LoadKind, string>>> = {
+  motor: "a motor's run-on and back-EMF at a stopped control are not modelled",
+  solenoid: "the power-on pull-in timer already holds timing transistor A off at switch-on",
+};
+
+/** targets.off_on_ends only with load kinds the engine designs the ends for (stages/end-contacts.ts). */
+function checkEnds(d: LoadedDesign): RecordIssue[] {
+  if (d.record.targets.off_on_ends !== true) return [];
+  return d.record.axes.load_kind.flatMap((k, i) => {
+    const why = ENDS_NOT_FOR[k];
+    return why === undefined
+      ? []
+      : [
+          issueAt(
+            d.parsed,
+            `/axes/load_kind/${i}`,
+            `targets.off_on_ends is not offered for load kind "${k}": ${why}`,
+            `remove "${k}" from axes.load_kind (give it its own record without off_on_ends), or set ` +
+              "targets.off_on_ends to false and add a separate off switch",
+          ),
+        ];
+  });
 }
 
 /**

@@ -35,6 +35,7 @@ export const TARGET_KEYS = [
   "supply_tolerance",
   "duty_skew_max",
   "heatsink_min_KperW",
+  "off_on_ends",
 ] as const;
 export const PROTECTION_KEYS = ["be_breakdown", "inrush_limit"] as const;
 export const SOLENOID_KEYS = ["tau_ms", "pull_in_ms", "pull_in_share", "hold_share"] as const;

@@ -61,6 +61,12 @@ function loadR(p: Part): number {
   return r;
 }
 
+/**
+ * The deck parameters that work the control's end contacts (1: the contact is at its end, the
+ * oscillator stopped); both 0 as published, so the deck runs the core (docs/topologies.md).
+ */
+export const END_PARAMS = { S_OFF: "end_off", S_ON: "end_on" } as const;
+
 export function elementLines(p: Part, supply_V: number): ElementOut {
   const ref = checkRef(p.ref);
   const n = pins(p);
@@ -96,6 +102,15 @@ export function elementLines(p: Part, supply_V: number): ElementOut {
     case "zener":
     case "led":
       return { lines: [`${ref} ${n.join(" ")} ${modelOf(p)}`], models: [] };
+    case "switch": {
+      // A changeover contact as two resistors set by its end parameter (END_PARAMS): common–nc closed
+      // (1 mΩ) and common–no open (1 GΩ) while the control is between its ends; swapped at its end.
+      const e = END_PARAMS[p.role === "S_ON" ? "S_ON" : "S_OFF"];
+      return {
+        lines: [`R${ref}NC ${n[0]} ${n[1]} {${e} > 0.5 ? 1G : 1m}`, `R${ref}NO ${n[0]} ${n[2]} {${e} > 0.5 ? 1m : 1G}`],
+        models: [],
+      };
+    }
     case "fuse":
       return {
         lines: [`R${ref} ${n.join(" ")} ${v(p.spice?.r_ohm ?? FUSE_R_DEFAULT_OHM, "fuse resistance")}`],

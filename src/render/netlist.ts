@@ -8,7 +8,7 @@ import type { CircuitModel, Part } from "../model/circuit.ts";
 import type { DeviceLibrary } from "../model/device.ts";
 import type { CardSet } from "../model/corners.ts";
 import { STAGE_KINDS } from "../model/kinds.ts";
-import { elementLines, isTimingTransistor } from "./netlist-parts.ts";
+import { END_PARAMS, elementLines, isTimingTransistor } from "./netlist-parts.ts";
 import { checkNet, commentLines } from "./netlist-text.ts";
 import { spiceModel } from "./spice-models.ts";
 import { spiceNum } from "./spice-num.ts";
@@ -84,6 +84,12 @@ export function renderNetlist(circuit: CircuitModel, meta: NetlistMeta): string 
   }
   const out = header(circuit, meta);
   out.push(".param ctrl=0.5");
+  if (circuit.parts.some((p) => p.kind === "switch"))
+    out.push(
+      "* the control's ends: end_off=1 opens the counter-clockwise contact (load fully off, set ctrl=0),",
+      "* end_on=1 the clockwise one (load fully on, set ctrl=1); both 0: the oscillator runs",
+      `.param ${END_PARAMS.S_OFF}=0 ${END_PARAMS.S_ON}=0`,
+    );
   const extraModels: string[] = [];
   for (const inst of circuit.instruments) {
     const [p, n] = [checkNet(inst.p, inst.name), checkNet(inst.n, inst.name)];
@@ -136,4 +142,18 @@ export function setCtrl(netlist: string, ctrl: number): string {
   const re = /^\.param ctrl=.*$/m;
   if (!re.test(netlist)) throw new EngineMisuseError("setCtrl: netlist has no `.param ctrl=` line");
   return netlist.replace(re, `.param ctrl=${spiceNum(ctrl, "ctrl")}`);
+}
+
+const ENDS_LINE = new RegExp(`^\\.param ${END_PARAMS.S_OFF}=.*$`, "m");
+
+/** Whether a netlist made by renderNetlist has the control's end contacts. */
+export function hasEnds(netlist: string): boolean {
+  return ENDS_LINE.test(netlist);
+}
+
+/** Rewrites the end contacts' parameter line: `end` "off" or "on" opens that end's contact. */
+export function setEnd(netlist: string, end: "off" | "on" | "none"): string {
+  if (!hasEnds(netlist)) throw new EngineMisuseError(`setEnd: netlist has no \`.param ${END_PARAMS.S_OFF}=\` line`);
+  const [off, on] = [end === "off" ? 1 : 0, end === "on" ? 1 : 0];
+  return netlist.replace(ENDS_LINE, `.param ${END_PARAMS.S_OFF}=${off} ${END_PARAMS.S_ON}=${on}`);
 }

@@ -99,6 +99,8 @@ export function typeParts(p: Part, ctx: FactsContext = {}): { words: string[]; r
       return { words: ["electrolytic"], ratings: volts };
     case "fuse":
       return { words: ["fuse", formatValue(p.value, "A")], ratings: volts };
+    case "switch":
+      return { words: ["changeover", p.role === "S_ON" ? "on end" : "off end"], ratings: ivs };
     case "motor":
     case "solenoid":
     case "lamp":

@@ -188,7 +188,7 @@ function subPt(p: RoutePt, tapSide: CoreSide): RoutePt {
 }
 
 /** Timing core plus duty control, with the tapped collector on the right; `follower` for the follower core. */
-export function coreLayout(tapSide: CoreSide, follower = false): StageLayout {
+export function coreLayout(tapSide: CoreSide, follower = false, ends = false): StageLayout {
   const slots: Partial<Record<PlacedRole, Slot>> = {};
   for (const role of Object.keys(CORE_TEMPLATE).filter(isTemplateRole))
     slots[sideRole(role, tapSide)] = (follower ? FOLLOWER_SLOTS[role] : undefined) ?? CORE_TEMPLATE[role];
@@ -211,13 +211,40 @@ export function coreLayout(tapSide: CoreSide, follower = false): StageLayout {
             ...(slot.rot === 90 || slot.rot === 270 ? { rot: slot.rot === 90 ? 270 : 90, mirror: false } : {}),
             ...(slot.label ? { label: FLIP_LABEL[slot.label] } : {}),
           };
-  const routes = follower ? FOLLOWER_ROUTES : CORE_ROUTES;
+  const routes = (follower ? FOLLOWER_ROUTES : CORE_ROUTES).map((r) => r.map((p) => subPt(p, tapSide)));
+  if (ends) return withEnds({ slots, routes, width: CORE_WIDTH, tapY: follower ? FOLLOWER_TAP_Y : TAP_Y }, tapSide);
   return {
     slots,
-    routes: routes.map((r) => r.map((p) => subPt(p, tapSide))),
+    routes,
     width: CORE_WIDTH,
     tapY: follower ? FOLLOWER_TAP_Y : TAP_Y,
   };
+}
+
+/**
+ * The control's end contacts (docs/topologies.md, stage `duty`): the potentiometer drops below the
+ * base line, and each contact stands between its end resistor (common on top) and the pot's end
+ * below (normally closed), its normally-open side to a local ground. Side A's contact (S_ON) and
+ * side B's (S_OFF) sit on their sides of the core.
+ */
+const ENDS_POT_Y = BASE_Y + 160;
+const ENDS_S_Y = BASE_Y + 80;
+function withEnds(core: StageLayout, tapSide: CoreSide): StageLayout {
+  const slots = { ...core.slots };
+  const left: "A" | "B" = tapSide === "A" ? "B" : "A";
+  slots.RV_DUTY = { ...slots.RV_DUTY!, y: ENDS_POT_Y };
+  const role = (side: "A" | "B"): "S_ON" | "S_OFF" => (side === "A" ? "S_ON" : "S_OFF");
+  slots[role(left)] = { x: 380, y: ENDS_S_Y, label: "left" };
+  slots[role(tapSide)] = { x: 460, y: ENDS_S_Y, mirror: true, label: "right" };
+  // The pot's end toward side A is `a` (coreLayout turns it so).
+  const potEnd = (side: "A" | "B"): PinRef => (side === "A" ? "RV_DUTY.a" : "RV_DUTY.b");
+  const routes = core.routes.filter(
+    (r) => !(typeof r[0] === "string" && (r[0] === "RB_A.a" || r[0] === "RB_B.a") && r.length === 2),
+  );
+  // The drop from each end resistor to its contact's common is left to the router: a wide label
+  // under the resistor ("2.4 kΩ 0.5 W") sits across the straight drop, and the router goes round it.
+  for (const side of ["A", "B"] as const) routes.push([`${role(side)}.nc`, potEnd(side)]);
+  return { ...core, slots, routes };
 }
 
 /** The pull-in timer's row when transistor A is on the right (tapped side A); mirrored otherwise. */

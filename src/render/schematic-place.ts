@@ -146,6 +146,7 @@ function stages(circuit: CircuitModel, highSide: boolean): Record<StageKind, Sta
   const core = L.coreLayout(
     tapSide,
     circuit.parts.some((p) => p.role === "QF_A"),
+    circuit.parts.some((p) => p.kind === "switch"),
   );
   const x1 = LEFT_X + L.SUPPLY.width;
   const x2 = x1 + core.width;

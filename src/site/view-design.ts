@@ -2,6 +2,7 @@ import type { BuiltDesign, BuiltVariant } from "../model/catalogue.ts";
 import { formatPercent, formatValue } from "../model/format.ts";
 import { chainLabel, loadLabel, SIM_WORDS, verdictWords } from "./labels.ts";
 import { designPage, relativeRoot, variantPage } from "./paths.ts";
+import { dutyRangeText } from "./ends-view.ts";
 
 export interface DesignCounts {
   variants: number;
@@ -168,7 +169,7 @@ export function designView(d: BuiltDesign): DesignView {
   const page = designPage(r.id);
   const targets = [
     { label: "PWM frequency", value: formatValue(t.pwm_Hz, "Hz") },
-    { label: "Duty range", value: `${formatPercent(t.duty_min)} … ${formatPercent(t.duty_max)}` },
+    { label: "Duty range", value: dutyRangeText(t) },
     { label: "Ambient", value: `${formatValue(t.ambient_C[0], "°C")} … ${formatValue(t.ambient_C[1], "°C")}` },
     {
       label: "Supplies (each with the range every worst case uses)",

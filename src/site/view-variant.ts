@@ -1,6 +1,6 @@
 import type { BuiltCatalogue, BuiltDesign, BuiltVariant } from "../model/catalogue.ts";
 import type { DesignProblem } from "../model/problem.ts";
-import { formatPercent, formatValue } from "../model/format.ts";
+import { formatValue } from "../model/format.ts";
 import { orderedFigureRows, type FigureRow } from "./figures.ts";
 import { chainLabel, loadLabel, verdictWords } from "./labels.ts";
 import { checkRow, mountingRows, partRow, type CheckRow, type MountingRow, type PartRow } from "./parts-view.ts";
@@ -11,6 +11,7 @@ import { designPage, downloadNames, relativeRoot, variantPage } from "./paths.ts
 import { verificationView, type VerificationView } from "./verification-view.ts";
 import { selfCheckView, type SelfCheckView } from "./selfcheck-view.ts";
 import { cornerView, type CornerView } from "./corner-view.ts";
+import { dutyRangeText, endRows } from "./ends-view.ts";
 
 export interface Download {
   label: string;
@@ -146,7 +147,8 @@ export function variantView(
       { label: "Load kind", value: loadLabel(spec.load_kind) },
       { label: "Output chain", value: chainLabel(spec.chain) },
       { label: "PWM frequency target", value: formatValue(t.pwm_Hz, "Hz") },
-      { label: "Duty range target", value: `${formatPercent(t.duty_min)} … ${formatPercent(t.duty_max)}` },
+      { label: "Duty range target", value: dutyRangeText(t) },
+      ...endRows(s, v.verification),
       { label: "Ambient range", value: `${formatValue(t.ambient_C[0], "°C")} … ${formatValue(t.ambient_C[1], "°C")}` },
     ],
     feasible: s.feasible,

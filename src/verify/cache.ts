@@ -14,6 +14,8 @@ import { MEASURE_CODE_VERSION, type Measured } from "./plan.ts";
 import type { VerifyTarget } from "./target.ts";
 import type { CornerMeasured } from "../model/verification.ts";
 import { simBody } from "./deck.ts";
+import { hasEnds } from "../render/netlist.ts";
+import { END_RUN_PLAN } from "./end-runs.ts";
 
 export const DEFAULT_CACHE_DIR = ".cache/sim";
 
@@ -53,6 +55,8 @@ export function cacheKey(netlist: string, engine: { name: EngineName; version: s
     ]),
     // The pull-in run's length and level (solenoids only; absent, the key is as before).
     ...(target.pullIn !== undefined ? [target.pullIn] : []),
+    // The control's end runs (end-runs.ts), where the netlist has the end contacts (absent, as before).
+    ...(hasEnds(netlist) ? [END_RUN_PLAN] : []),
   ]);
   return createHash("sha256")
     .update(simBody(netlist))

@@ -15,6 +15,7 @@ import { SIM_FIGURES } from "../model/sized.ts";
 import { EngineMisuseError } from "../model/errors.ts";
 import type { SimCorner } from "../model/corners.ts";
 import { judgeCorners } from "./corner-compare.ts";
+import { judgeEnds } from "./end-runs.ts";
 
 export interface Tolerance {
   rel?: number;
@@ -211,7 +212,14 @@ export function judge(
 ): Verification {
   const base = { engine: engine.name, engineVersion: engine.version, hash, elapsed_s: measured.elapsed_s };
   if (!measured.ok) return { ...base, status: "failed", comparisons: [], message: measured.message };
-  const comparisons = compare(predicted, measured.measurements);
+  const comparisons = [
+    ...compare(predicted, measured.measurements),
+    ...judgeEnds(
+      predicted,
+      measured.measurements,
+      (basis.corners ?? []).map((d) => d.corner),
+    ),
+  ];
   const v: Verification = { ...base, status: "agree", comparisons, measurements: measured.measurements };
   if (measured.waveforms !== undefined) v.waveforms = measured.waveforms;
   const bad = comparisons.filter((c) => !c.ok);

@@ -25,6 +25,7 @@ import { plotWaveforms } from "./waveforms.ts";
 import type { VerifyTarget } from "./target.ts";
 import { SpiceRunError } from "../model/errors.ts";
 import { measurePullIn } from "./pull-in.ts";
+import { measureEnds } from "./end-runs.ts";
 
 /** Bumped whenever measurement code changes what it reports: part of every cache key. */
 export const MEASURE_CODE_VERSION = "verify-measure-12";
@@ -54,6 +55,8 @@ export async function measureVariant(
     // Solenoid variants: one cold-start run at nominal conditions shows the pull-in and the hold.
     measurements.push(...(await measurePullIn(target, netlist, engine)));
     const corners = await measureCorners(target, engine, plan);
+    // The control's ends, where the variant has them: short runs at every place simulated above.
+    measurements.push(...(await measureEnds(target, netlist, engine)));
     return { ok: true, measurements, waveforms, ...(corners.length > 0 ? { corners } : {}), elapsed_s: elapsed() };
   } catch (err) {
     return { ok: false, message: err instanceof Error ? err.message : String(err), elapsed_s: elapsed() };

@@ -78,7 +78,8 @@ describe("part roles: one closed vocabulary", () => {
 
   it("every role has a place in the schematic tables", () => {
     const placed = new Set<string>();
-    for (const side of ["A", "B"] as const) for (const r of Object.keys(coreLayout(side).slots)) placed.add(r);
+    for (const side of ["A", "B"] as const)
+      for (const ends of [false, true]) for (const r of Object.keys(coreLayout(side, false, ends).slots)) placed.add(r);
     for (const l of [
       SUPPLY,
       loadLayout(false, "Q_POWER.c"),

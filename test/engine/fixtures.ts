@@ -45,6 +45,8 @@ export interface SpecOpts {
   /** protection.inrush_limit of the record. */
   inrushLimit?: NonNullable<DesignRecord["protection"]>["inrush_limit"];
   be?: "series-base-diode" | "none";
+  /** targets.off_on_ends of the record (the control's end contacts). */
+  off_on_ends?: boolean;
   devices?: DesignRecord["devices"];
   /** Replace resolved roles with local classes (e.g. a class not yet in the library). */
   override?: Partial<Record<DeviceRole, DeviceClass>>;
@@ -132,6 +134,7 @@ export function makeSpec(o: SpecOpts): VariantSpec {
     supply_tolerance: o.supply_tolerance ?? 0.1,
     duty_skew_max: 0.02,
     heatsink_min_KperW: 2,
+    off_on_ends: o.off_on_ends ?? false,
   };
   const rec: DesignRecord = {
     id: "test-design",

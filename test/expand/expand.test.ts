@@ -58,6 +58,7 @@ describe("expandDesign", () => {
       supply_tolerance: 0.15,
       duty_skew_max: 0.02,
       heatsink_min_KperW: 2,
+      off_on_ends: false,
     });
     expect(TARGET_DEFAULTS.supply_tolerance).toBe(0.1);
     expect(spec?.protection).toEqual({ be_breakdown: "series-base-diode" });

@@ -109,7 +109,7 @@ describe("the demo catalogue renders", async () => {
       });
       for (const l of text.trimEnd().split("\n")) if (classify(l) === null) problems.push(`${v.id}: ${l}`);
       for (const p of v.circuit.parts)
-        if (!new RegExp(`^[A-Z]*${p.ref}[AB]? `, "m").test(text)) problems.push(`${v.id}: ${p.ref} missing`);
+        if (!new RegExp(`^[A-Z]*${p.ref}([AB]|NC|NO)? `, "m").test(text)) problems.push(`${v.id}: ${p.ref} missing`);
     }
     expect(problems).toEqual([]);
   });

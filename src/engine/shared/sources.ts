@@ -794,6 +794,24 @@ export const SOURCES = {
     note: "V_BE of a silicon junction at constant current falls by about 2 mV per kelvin.",
     values: [{ item: "dV_BE/dT", value: "≈ −2 mV/K", sureness: "common-practice" }],
   },
+  "icbo-leakage": {
+    kind: "trade practice",
+    short: "collector–base leakage, common practice",
+    title: "Collector–base leakage I_CBO of a small-signal silicon transistor and its temperature law",
+    edition: "—",
+    where: "—",
+    sureness: "from-memory",
+    confidence: "from-memory",
+    note:
+      "Small-signal silicon NPN data sheets state a collector cut-off current of at most about 50 nA at " +
+      "25 °C and a few tens of volts; the reverse current of a silicon junction roughly doubles for every " +
+      "10 K rise. A transistor whose base is held by a resistor R to its emitter stays off while I_CBO·R " +
+      "stays well below its cut-in voltage.",
+    values: [
+      { item: "I_CBO at 25 °C", value: "≤ 50 nA", sureness: "from-memory" },
+      { item: "temperature law", value: "× 2 per 10 K", sureness: "from-memory" },
+    ],
+  },
   "battery-windows": {
     kind: "trade practice",
     short: "battery voltage windows, common practice",

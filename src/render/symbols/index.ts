@@ -2,7 +2,7 @@
 import type { PartKind } from "../../model/kinds.ts";
 import { diode, led, zener } from "./diodes.ts";
 import { heater, lamp, ledStrip, motor, solenoid } from "./loads.ts";
-import { capacitor, capacitorPolarised, fuse, potentiometer, resistor } from "./passive.ts";
+import { capacitor, capacitorPolarised, changeover, fuse, potentiometer, resistor } from "./passive.ts";
 import { nmos, npn, pmos, pnp } from "./transistors.ts";
 import type { SymbolDef } from "./types.ts";
 
@@ -24,6 +24,7 @@ export const SYMBOLS = {
   heater,
   "led-strip": ledStrip,
   solenoid,
+  switch: changeover,
 } as const satisfies Record<PartKind, SymbolDef>;
 
 export type { Box, SymbolDef } from "./types.ts";

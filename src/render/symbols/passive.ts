@@ -57,3 +57,21 @@ export const fuse: SymbolDef = {
     g.rect(12, 30).move(-6, -15);
   },
 };
+
+/**
+ * Changeover contact (IEC 60617 style): the common terminal on top with its pivot, the blade resting
+ * on the normally-closed contact (right), the normally-open contact (left) apart from it.
+ */
+export const changeover: SymbolDef = {
+  pins: { com: [0, -30], nc: [10, 30], no: [-14, 30] },
+  body: { x: -20, y: -30, w: 36, h: 60 },
+  draw(g) {
+    g.line(0, -30, 0, -10);
+    g.circle(4).center(0, -10).fill(INK);
+    g.line(0, -10, 12, 10);
+    g.line(10, 12, 10, 30);
+    g.line(4, 12, 14, 12);
+    g.line(-14, 12, -14, 30);
+    g.line(-18, 12, -8, 12);
+  },
+};
