@@ -46,6 +46,8 @@ export function toSignificant(x: number, digits = 3): string {
   const abs = Math.abs(x);
   if (abs >= 1e21) return scientific(x, d);
   const rounded = Number(x.toPrecision(d));
+  // Rounding can carry a value just below 1e21 up to it, where toString turns to "1e+21".
+  if (Math.abs(rounded) >= 1e21) return scientific(x, d);
   const s = rounded.toString();
   if (!s.includes("e")) return s;
   // toString switches to e-notation below 1e-6; print small values as plain decimals while short.

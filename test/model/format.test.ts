@@ -60,6 +60,7 @@ describe("formatValue on any finite number", () => {
     expect(formatValue(1e-7, "F")).toBe("100 nF");
     expect(formatValue(4700, "Ω")).toBe("4.7 kΩ");
     expect(formatValue(999.96, "Ω")).toBe("1 kΩ");
+    expect(formatValue(-9.5e20, "Ω", 1)).toBe("-1e21 Ω");
     expect(formatPercent(0.25)).toBe("25 %");
     expect(toSignificant(1.5e-7)).toBe("0.00000015");
   });
