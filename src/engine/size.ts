@@ -40,7 +40,7 @@ import {
   designDecisions,
 } from "./stages/decisions.ts";
 import { TIGHT_CAPS, tightCapsAllowed } from "./stages/timing-caps.ts";
-import { CROSS_CHAINS } from "./stages/cross-checks.ts";
+import { crossAllowed } from "./stages/cross-checks.ts";
 import { type PullInTimer, designPullInTimer } from "./stages/pull-in-timer.ts";
 
 export function sizeVariant(spec: VariantSpec): SizedVariant {
@@ -109,7 +109,7 @@ export function tapAndTiming(
   }
   // The cross-returned bleed (docs/method.md, "Cross-returned bleed") only where no other core passes
   // with either capacitor class, so every variant that passed before keeps its design.
-  if (!CROSS_CHAINS.includes(ctx.spec.chain)) return general;
+  if (!crossAllowed(ctx.spec.chain, ctx.spec.load_kind)) return general;
   const cross = plainTapAndTiming(ctx, plan, true);
   if (cross.timing.search.passed) return { ...cross, cross: { rule, cross: true } };
   if (tightOk) {

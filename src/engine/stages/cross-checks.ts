@@ -42,14 +42,36 @@ export const DIVIDER_DRIVE_MIN = 0.35;
 export const CROSS_INJECTION_MAX = 3.1;
 
 /**
- * Chains the arrangement is offered to: the MOSFET chains, where every core it made agreed with its
- * nominal and corner simulations (ours, measured). Not the driver-PNP chain: in the demo's first build
- * with the arrangement five of its eight cores disagreed with the corner simulations or did not run
- * (one latched at its slow corner, one ran with both collectors below 3 V), not yet understood; its
- * input draws the driver's base current from the tapped collector, as the single-transistor and
- * Darlington chains' do, and those have no simulated core with the arrangement yet.
+ * Chains the arrangement is offered to: none yet. Where it was offered (the logic-level MOSFET chain,
+ * the only one whose cores agreed with every corner simulation with both card sets), two gates still
+ * refuse it: the schematic draws each cross-returned bleed with a net flag instead of a wire (it needs
+ * its own drawn route, src/render/schematic-layout.ts), and a 12 V, 250 mA fan's published netlist ran
+ * 0.0244 W in native ngspice against its page's 0.0229 W top (the collector's slow fall, docs/method.md,
+ * is not in the switch's edge model). The driven MOSFET's one core fell 10 duty points short at control 1
+ * with the second card set; five of eight driver-PNP cores disagreed with their corner simulations; the
+ * single-transistor and Darlington chains have no simulated core yet (ours, measured).
  */
-export const CROSS_CHAINS: readonly string[] = ["mosfet-logic", "mosfet-driver"];
+export const CROSS_CHAINS: readonly string[] = [];
+
+/**
+ * Whether the arrangement is offered: a MOSFET chain (CROSS_CHAINS), and not a solenoid, whose
+ * pull-in timer leans on the duty network's current into base A (as for the ±5 % capacitors,
+ * timing-caps.ts): with the arrangement a 24 V, 250 mA valve's switch dissipation at its fast corner
+ * ran 18 % past its bound with the second card set (ours, measured).
+ */
+export function crossAllowed(chain: string, loadKind: string): boolean {
+  return CROSS_CHAINS.includes(chain) && loadKind !== "solenoid";
+}
+
+/**
+ * Smallest end stop against R_C (both at their unfavourable tolerance ends). When the off side comes
+ * back, the on side, still fed by R_D from the falling collector, leaves saturation late, and the other
+ * base node recharges through its timing resistor meanwhile: the short half-period loses a share
+ * that grows with R_C/R_end (docs/method.md, "What the simulation shows that the law leaves out").
+ * Measured with the second card set (scripts/check-second-cards.ts, native ngspice): cores at 12 and
+ * 13.6 ran 17–18 % fast at their fast corner, every core at 14.5 and above held its range (ours).
+ */
+export const END_TO_RC_MIN = 14;
 
 /** The figures of a cross-bled core at its worst corners (crossFigures). */
 export interface CrossFigures {
@@ -62,6 +84,8 @@ export interface CrossFigures {
   injection: number;
   /** V_∞ − (V_γ + V_F) at the weakest corner, V (> 0: the off side turns on). */
   turnOnMargin_V: number;
+  /** R_end,min/R_C at their nominal values (≥ END_TO_RC_MIN). */
+  endToRc: number;
 }
 
 interface CrossGeometry {
@@ -135,7 +159,8 @@ export function crossFigures(ctx: Ctx, q: BjtClass, db: DiodeClass, g: CrossGeom
     rD_ohm: rD_ohm * (1 - ctx.rTol),
   });
   const vGammaCold = cutIn_V(false, db, ctx.taMin_C);
-  return { rD_ohm, steal, dividerDrive, injection, turnOnMargin_V: vInf - vGammaCold - d.vF };
+  const endToRc = Math.min(g.rEndA_ohm, g.rEndB_ohm) / g.rC_ohm;
+  return { rD_ohm, steal, dividerDrive, injection, turnOnMargin_V: vInf - vGammaCold - d.vF, endToRc };
 }
 
 /** Whether the figures pass every limit of the arrangement. */
@@ -144,6 +169,7 @@ export function crossPasses(f: CrossFigures): boolean {
     f.steal <= STEAL_MAX &&
     f.dividerDrive >= DIVIDER_DRIVE_MIN &&
     f.injection <= CROSS_INJECTION_MAX &&
+    f.endToRc >= END_TO_RC_MIN &&
     f.turnOnMargin_V > 0
   );
 }
@@ -177,6 +203,18 @@ export function crossProblems(ctx: Ctx, q: BjtClass, db: DiodeClass, v: CoreValu
           `${f.dividerDrive.toFixed(2)} of saturation, need ${DIVIDER_DRIVE_MIN}): the core can settle with one ` +
           `transistor half on and the other saturated. Use smaller timing resistors or a larger R_C.`,
         { limit: STEAL_MAX, actual: f.steal, unit: "" },
+      ),
+    );
+  if (f.endToRc < END_TO_RC_MIN)
+    out.push(
+      problem(
+        "timing",
+        "/parts/RB_B",
+        "cross-bleed-release",
+        "error",
+        `The smaller end stop is ${f.endToRc.toFixed(1)} × R_C (need ${END_TO_RC_MIN}): while the on transistor ` +
+          `leaves saturation late, the other base node recharges through it and the short half-period ends early.`,
+        { limit: END_TO_RC_MIN, actual: f.endToRc, unit: "" },
       ),
     );
   if (f.injection > CROSS_INJECTION_MAX)

@@ -17,7 +17,6 @@ import { sizeVariant } from "../../../src/engine/size.ts";
 import { makeContext } from "../../../src/engine/stages/context.ts";
 import { roundDown } from "../../../src/engine/shared/e-series.ts";
 import type { BjtClass, DiodeClass } from "../../../src/model/device.ts";
-import { itAgreesWithSpice } from "./sim-agreement.ts";
 import { makeSpec } from "../fixtures.ts";
 
 // The hand core of docs/method.md: 12 V, a 210 kΩ timing resistance, 3.3 nF, R_D 47 kΩ; the node
@@ -60,65 +59,47 @@ describe("the two-segment charging law (derived, hand arithmetic)", () => {
   });
 });
 
-// A 12 V LED bar dimmer, 5–95 % at 2 kHz on a logic-level MOSFET (a need invented for the test; 2 kHz
-// stays above the 1.25 kHz IEEE Std 1789-2015 §8.1.1 counts as low risk for full-depth modulation
-// [src:ieee-1789]): the plain core, the followers and the ±5 % capacitors all fall short.
-const dimmer = makeSpec({
-  supply_V: 12,
-  load_A: 1,
-  chain: "mosfet-logic",
-  load_kind: "led",
-  pwm_Hz: 2000,
-  duty: [0.05, 0.95],
-  ambient_C: [5, 40],
-  supply: { battery: "lead-acid" },
-});
-const sized = sizeVariant(dimmer);
-
-describe("the engine chooses the cross-returned bleed where no other core passes", () => {
-  it("returns each base's bleed to the opposite collector, recorded as a design decision", () => {
-    expect(sized.feasible).toBe(true);
-    const parts = sized.circuit!.parts;
-    const rbl = (role: string) => parts.find((p) => p.role === role)!;
-    expect(rbl("RBL_A").pins).toEqual({ a: "ba", b: "cb" });
-    expect(rbl("RBL_B").pins).toEqual({ a: "bb", b: "ca" });
-    expect(parts.some((p) => p.role === "DB_A")).toBe(true);
-    expect(
-      sized.decisions?.some((d) => d.topic === "timing core arrangement" && /opposite collector/.test(d.choice)),
-    ).toBe(true);
+describe("the arrangement is not offered yet (cross-checks.ts CROSS_CHAINS)", () => {
+  it("a 12 V LED bar dimmer, 5–95 % at 500 Hz, keeps the refusal of the other cores", () => {
+    // A need invented for the test; the arrangement's gates are not all met yet (docs/method.md).
+    const dimmer = makeSpec({
+      supply_V: 12,
+      load_A: 1,
+      chain: "mosfet-logic",
+      load_kind: "led",
+      pwm_Hz: 500,
+      duty: [0.05, 0.95],
+      ambient_C: [5, 40],
+      supply: { battery: "lead-acid" },
+    });
+    const s = sizeVariant(dimmer);
+    expect(s.circuit?.parts.find((p) => p.role === "RBL_A")?.pins.b).not.toBe("cb");
+    expect(s.decisions?.some((d) => /opposite collector/.test(d.choice))).toBe(false);
   });
 
-  it("reaches 5–95 % at worst case with the overdrive k ≥ 2 at minimum gain", () => {
-    // k ≥ 2 at V_cc,min, cold, minimum gain (common practice [src:common-practice]).
-    const fig = (k: string) => sized.figures.find((f) => f.key === k)!;
-    expect(fig("duty_min").range![1]).toBeLessThanOrEqual(0.05);
-    expect(fig("duty_max").range![0]).toBeGreaterThanOrEqual(0.95);
-    expect(fig("timing_overdrive").value).toBeGreaterThanOrEqual(2);
-  });
-
-  it("R_D is the smallest E24 value within the measured latch limits", () => {
-    const ctx = makeContext(dimmer);
-    const q = dimmer.devices.timing_npn as BjtClass;
-    const db = dimmer.devices.signal_diode as DiodeClass;
-    const rD = sized.figures.find((f) => f.key === "cross_bleed_resistor")!.value;
-    const c = sized.circuit!.parts;
-    const val = (role: string) => c.find((p) => p.role === role)!.value;
-    const g = {
-      rC_ohm: val("RC_A"),
-      pot_ohm: val("RV_DUTY"),
-      rEndA_ohm: val("RB_A"),
-      rEndB_ohm: val("RB_B"),
-      c_F: val("CT_A"),
-    };
-    expect(crossBleedFor_ohm(ctx, q, db, g)).toBe(rD);
+  it("R_D is the smallest E24 value within the measured latch limits (12 V dimmer core of the hand netlist)", () => {
+    const ctx = makeContext(
+      makeSpec({
+        supply_V: 12,
+        load_A: 1,
+        chain: "mosfet-logic",
+        load_kind: "led",
+        pwm_Hz: 2000,
+        duty: [0.05, 0.95],
+        ambient_C: [5, 40],
+        supply: { battery: "lead-acid" },
+      }),
+    );
+    const q = ctx.spec.devices.timing_npn as BjtClass;
+    const db = ctx.spec.devices.signal_diode as DiodeClass;
+    const g = { rC_ohm: 1000, pot_ohm: 200_000, rEndA_ohm: 10_000, rEndB_ohm: 10_000, c_F: 3.3e-9 };
+    const rD = crossBleedFor_ohm(ctx, q, db, g)!;
     const at = crossFigures(ctx, q, db, g, rD);
     expect(at.steal).toBeLessThanOrEqual(STEAL_MAX);
     expect(at.dividerDrive).toBeGreaterThanOrEqual(DIVIDER_DRIVE_MIN);
     const below = crossFigures(ctx, q, db, g, roundDown(rD * 0.999, "E24"));
     expect(below.steal > STEAL_MAX || below.dividerDrive < DIVIDER_DRIVE_MIN).toBe(true);
+    // The hand netlist ran at 47 kΩ for β 100–1000 and latched at 22–33 kΩ at β 100 (native ngspice, ours).
+    expect(rD).toBeGreaterThanOrEqual(33_000);
   });
-});
-
-describe("the cross-bled dimmer against SPICE (embedded engine)", () => {
-  itAgreesWithSpice(sized);
 });
