@@ -38,8 +38,15 @@ import { protectionStage } from "./stages/protection.ts";
 import { seriesLoss_W } from "./stages/series-reverse.ts";
 import { cautions, checkProblems, verdictLead } from "./stages/feasibility.ts";
 import { decideVerdict } from "./stages/verdict.ts";
-import { type CapsTightened, type FollowerChosen, type RcLowered, designDecisions } from "./stages/decisions.ts";
+import {
+  type CapsTightened,
+  type CrossChosen,
+  type FollowerChosen,
+  type RcLowered,
+  designDecisions,
+} from "./stages/decisions.ts";
 import { TIGHT_CAPS, tightCapsAllowed } from "./stages/timing-caps.ts";
+import { crossAllowed } from "./stages/cross-checks.ts";
 import { type PullInTimer, designPullInTimer } from "./stages/pull-in-timer.ts";
 import { type ControlEnds, controlEnds, dutyReach } from "./stages/end-contacts.ts";
 
@@ -74,6 +81,11 @@ export function sizeVariant(spec: VariantSpec): SizedVariant {
  * designer fixes by lowering R_C, spending overdrive the search then re-checks (ours).
  */
 const RC_STEPS = [1.5, 2.2, 3.3, 4.7];
+/**
+ * The cross-returned bleed's R_C steps: finer, because its limits pull R_C both ways (the divider's
+ * drive of the off transistor ∝ R_C, the collectors' recovery ∝ R_C) and often leave a narrow window (ours).
+ */
+const CROSS_RC_STEPS = [1.2, 1.5, 1.8, 2.2, 2.7, 3.3, 3.9, 4.7];
 
 /**
  * The tap and the timing core; when the core does not pass, first without the tap's injection cap
@@ -83,16 +95,36 @@ const RC_STEPS = [1.5, 2.2, 3.3, 4.7];
 export function tapAndTiming(
   ctx: Ctx,
   plan: ChainPlan,
-): { tap: TapDesign; timing: TimingResult; rcLowered?: RcLowered; follower?: FollowerChosen; caps?: CapsTightened } {
+): {
+  tap: TapDesign;
+  timing: TimingResult;
+  rcLowered?: RcLowered;
+  follower?: FollowerChosen;
+  cross?: CrossChosen;
+  caps?: CapsTightened;
+} {
   const general = coreAttempts(ctx, plan);
-  if (general.timing.search.passed || !tightCapsAllowed(ctx.taMin_C, ctx.taMax_C, ctx.spec.load_kind)) return general;
+  if (general.timing.search.passed) return general;
+  const rule = general.timing.problems.find((p) => p.severity === "error")?.rule ?? "duty-range-worst-case";
   // Every arrangement failed with ±10 % timing capacitors: the same attempts once more with the
   // ±5 % class (timing-caps.ts), kept only when a core passes with a capacitance the class is sold in.
+  const tightOk = tightCapsAllowed(ctx.taMin_C, ctx.taMax_C, ctx.spec.load_kind);
   const tightCtx: Ctx = { ...ctx, caps: TIGHT_CAPS, cTol: TIGHT_CAPS.engineTol };
-  const tight = coreAttempts(tightCtx, plan);
-  if (!tight.timing.search.passed || tight.timing.values.c_F > TIGHT_CAPS.cMax_F) return general;
-  const rule = general.timing.problems.find((p) => p.severity === "error")?.rule ?? "duty-range-worst-case";
-  return { ...tight, caps: { rule } };
+  if (tightOk) {
+    const tight = coreAttempts(tightCtx, plan);
+    if (tight.timing.search.passed && tight.timing.values.c_F <= TIGHT_CAPS.cMax_F) return { ...tight, caps: { rule } };
+  }
+  // The cross-returned bleed (docs/method.md, "Cross-returned bleed") only where no other core passes
+  // with either capacitor class, so every variant that passed before keeps its design.
+  if (!crossAllowed(ctx.spec.chain, ctx.spec.load_kind)) return general;
+  const cross = plainTapAndTiming(ctx, plan, true);
+  if (cross.timing.search.passed) return { ...cross, cross: { rule, cross: true } };
+  if (tightOk) {
+    const tightCross = plainTapAndTiming(tightCtx, plan, true);
+    if (tightCross.timing.search.passed && tightCross.timing.values.c_F <= TIGHT_CAPS.cMax_F)
+      return { ...tightCross, cross: { rule, cross: true }, caps: { rule } };
+  }
+  return general;
 }
 
 /**
@@ -159,19 +191,24 @@ function gateEdgeAttempt(ctx: Ctx, plan: ChainPlan): { tap: TapDesign; timing: T
   return null;
 }
 
-function plainTapAndTiming(ctx: Ctx, plan: ChainPlan): { tap: TapDesign; timing: TimingResult; rcLowered?: RcLowered } {
+function plainTapAndTiming(
+  ctx: Ctx,
+  plan: ChainPlan,
+  cross = false,
+): { tap: TapDesign; timing: TimingResult; rcLowered?: RcLowered } {
+  const opts = { cross };
   const tap = designTap(ctx, plan);
-  const timing = designTiming(ctx, plan, tap);
+  const timing = designTiming(ctx, plan, tap, opts);
   if (timing.search.passed) return { tap, timing };
   const tapFree = designTap(ctx, plan, undefined, false);
   if (tapFree.rC_ohm !== tap.rC_ohm) {
-    const free = designTiming(ctx, plan, tapFree);
+    const free = designTiming(ctx, plan, tapFree, opts);
     if (free.search.passed) return { tap: tapFree, timing: free };
   }
-  for (const step of RC_STEPS) {
+  for (const step of cross ? CROSS_RC_STEPS : RC_STEPS) {
     const t2 = designTap(ctx, plan, tap.rC_ohm / step);
     if (t2.rC_ohm >= tap.rC_ohm) break; // the current floor holds R_C where it is
-    const timing2 = designTiming(ctx, plan, t2);
+    const timing2 = designTiming(ctx, plan, t2, opts);
     if (timing2.search.passed)
       return { tap: t2, timing: timing2, rcLowered: { from_ohm: tap.rC_ohm, to_ohm: t2.rC_ohm } };
   }
@@ -181,7 +218,7 @@ function plainTapAndTiming(ctx: Ctx, plan: ChainPlan): { tap: TapDesign; timing:
 function sizeInner(spec: VariantSpec): SizedVariant {
   const ctx = makeContext(spec);
   const plan = CHAIN_PLANNERS[spec.chain](ctx);
-  const { tap, timing, rcLowered, follower, caps } = tapAndTiming(ctx, plan);
+  const { tap, timing, rcLowered, follower, cross, caps } = tapAndTiming(ctx, plan);
   const w = timing.search.worst;
   // With the control's ends (stages/end-contacts.ts) the load runs at duty 1 and duty 0 too: every
   // duty-weighted figure is taken over that widened range.
@@ -401,7 +438,7 @@ function sizeInner(spec: VariantSpec): SizedVariant {
         thermal.conditions.map((c) => /^\/parts\/(.+)$/.exec(c.path)?.[1]).flatMap((r) => (r ? [toRef(r)] : [])),
         rcLowered,
         reviewed.conditions.some((c) => c.rule === "insulator-kit"),
-        follower,
+        follower ?? cross,
         caps,
       ),
       ...(fin.decision === undefined

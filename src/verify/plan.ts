@@ -28,7 +28,7 @@ import { measurePullIn } from "./pull-in.ts";
 import { measureEnds } from "./end-runs.ts";
 
 /** Bumped whenever measurement code changes what it reports: part of every cache key. */
-export const MEASURE_CODE_VERSION = "verify-measure-12";
+export const MEASURE_CODE_VERSION = "verify-measure-13";
 
 /** Transients of the nominal plan per variant (ctrl 0.5, 0, 1); corner runs come on top (corner-runs.ts). */
 export const NOMINAL_RUNS = 3;
@@ -150,7 +150,12 @@ function collect(
   if (retries > 0) put("solver_retries", "Runs that needed a solver retry (of 3)", "", retries);
   const level = Math.max(0, ...[low, mid, high].map((r) => r.retryLevel ?? 0));
   if (level > 0)
-    put("solver_retry_level", "Highest solver retry used (1 looser tolerances, 2 stiff-circuit settings)", "", level);
+    put(
+      "solver_retry_level",
+      "Highest solver retry used (1 looser tolerances, 2 stiff-circuit settings, 3 small step alone)",
+      "",
+      level,
+    );
   put(
     "timing_from_gate",
     "Load on/off timed at the switch's gate (1) or at the switched node / load current (0)",

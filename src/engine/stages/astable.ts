@@ -12,11 +12,19 @@
  * τ_c = (R_C ∥ R_load)·C the collector's recovery constant over the time t it was off (derived).
  * Pure functions; nothing rounded.
  */
+import { offTime_s } from "./cross-bleed.ts";
 
 /** A load on a timing collector seen as a resistance to a fixed voltage (a clamp, or 0 V). */
 export interface CollectorLoad {
   r_ohm: number;
   v_V: number;
+}
+
+/** Two loads on one node as one: R₁ ∥ R₂ to (V₁/R₁ + V₂/R₂)·(R₁ ∥ R₂) (Thevenin, derived). */
+export function parallelLoads(a: CollectorLoad | undefined, b: CollectorLoad): CollectorLoad {
+  if (a === undefined) return b;
+  const r = (a.r_ohm * b.r_ohm) / (a.r_ohm + b.r_ohm);
+  return { r_ohm: r, v_V: (a.v_V / a.r_ohm + b.v_V / b.r_ohm) * r };
 }
 
 /**
@@ -111,6 +119,11 @@ export interface CoreParams {
   loadB?: CollectorLoad;
   /** Recovery followers (follower-core arrangement); absent: the plain core. The loads then sit on the emitters. */
   follower?: FollowerParams;
+  /**
+   * Cross-returned bleed (cross-bleed.ts): each off phase follows the two-segment charging law
+   * (R_D, the base diode's drop at cut-in, the base's cut-in level V_γ). Absent: the single ln law.
+   */
+  cross?: { rD_ohm: number; vF_V: number; vGamma_V: number };
 }
 
 /**
@@ -219,11 +232,28 @@ export function evaluateCore(p: CoreParams): CoreTiming {
   let swingB = fullB;
   let tAoff = 0;
   let tBoff = 0;
+  const cross = p.cross;
+  // A swing smaller than V_on − V_γ never takes the base below cut-in: that side does not turn
+  // off (the core latches). The floor keeps the numbers finite; the recovery figure rejects it.
+  const off = (rB: number, c: number, swing: number): number =>
+    cross === undefined
+      ? rB * c * Math.max(LN_FLOOR, lnFactor(p.vcc_V, p.vOn_V, swing, vGamma))
+      : Math.max(
+          rB * c * LN_FLOOR,
+          offTime_s({
+            rB_ohm: rB,
+            c_F: c,
+            vcc_V: p.vcc_V,
+            vStart_V: p.vOn_V - swing,
+            vSat_V: p.vSat_V,
+            vF_V: cross.vF_V,
+            vGamma_V: cross.vGamma_V,
+            rD_ohm: cross.rD_ohm,
+          }),
+        );
   for (let i = 0; i < 40; i++) {
-    // A swing smaller than V_on − V_γ never takes the base below cut-in: that side does not turn
-    // off (the core latches). The floor keeps the numbers finite; the recovery figure rejects it.
-    tBoff = p.rBB_ohm * p.cA_F * Math.max(LN_FLOOR, lnFactor(p.vcc_V, p.vOn_V, swingA, vGamma));
-    tAoff = p.rBA_ohm * p.cB_F * Math.max(LN_FLOOR, lnFactor(p.vcc_V, p.vOn_V, swingB, vGamma));
+    tBoff = off(p.rBB_ohm, p.cA_F, swingA);
+    tAoff = off(p.rBA_ohm, p.cB_F, swingB);
     const nA = fullA * (1 - Math.exp(-tAoff / tauA_s));
     const nB = fullB * (1 - Math.exp(-tBoff / tauB_s));
     const done = Math.abs(nA - swingA) < 1e-12 * fullA && Math.abs(nB - swingB) < 1e-12 * fullB;

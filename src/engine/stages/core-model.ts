@@ -16,6 +16,7 @@ import {
   type FollowerParams,
   collectorThevenin,
   evaluateCore,
+  parallelLoads,
   followerOfCollector,
   followerThevenin,
   thresholdDelay_s,
@@ -54,6 +55,16 @@ export interface CoreValues {
    * unless `onCollector` keeps them on the collectors (FollowerValues).
    */
   follower?: FollowerValues;
+  /**
+   * The search sizes a cross-returned bleed for these values (cross-checks.ts): set on the base the
+   * search starts from; the value it chose is `crossBleed_ohm`.
+   */
+  crossBleed?: true;
+  /**
+   * Cross-returned bleed R_D (docs/topologies.md, RBL_A from `ba` to `cb`, RBL_B from `bb` to `ca`;
+   * cross-bleed.ts), Ω: replaces `bleed_ohm`; the off phases follow the two-segment law.
+   */
+  crossBleed_ohm?: number;
 }
 
 /**
@@ -168,7 +179,16 @@ export function evalCore(v: CoreValues, q: BjtClass, db: DiodeClass, k: Corner, 
     loads.loadB = v.tapLoad;
     if (v.balance) loads.loadA = v.balance;
   }
-  const vCutIn_V = Math.min(vOn_V, cutIn_V(v.diodes, db, k.t_C, v.bleed_ohm));
+  const cross = crossAt(v, q, db, k, vSat_V);
+  if (cross !== undefined) {
+    // While a collector is high, R_D feeds the opposite (conducting) base at V_BE(on): a load on it.
+    loads.loadA = parallelLoads(loads.loadA, cross.load);
+    loads.loadB = parallelLoads(loads.loadB, cross.load);
+  }
+  const vCutIn_V =
+    cross === undefined
+      ? Math.min(vOn_V, cutIn_V(v.diodes, db, k.t_C, v.bleed_ohm))
+      : Math.min(vOn_V, cross.params.vGamma_V + cross.params.vF_V);
   const fo = followerAt(v, q, db, k, rBA, rBB);
   const timing = evaluateCore({
     vcc_V: k.vcc_V,
@@ -183,6 +203,7 @@ export function evalCore(v: CoreValues, q: BjtClass, db: DiodeClass, k: Corner, 
     rBB_ohm: rBB,
     ...loads,
     ...(fo ? { follower: fo } : {}),
+    ...(cross ? { cross: cross.params } : {}),
   });
   // The tapped collector's rise before the chain conducts: R_C towards Vcc, in parallel with any
   // linear input network; it charges its own coupling capacitor.
@@ -191,7 +212,11 @@ export function evalCore(v: CoreValues, q: BjtClass, db: DiodeClass, k: Corner, 
   const pre = v.preLinear_ohm;
   const preLoad = pre === undefined ? undefined : { r_ohm: pre, v_V: 0 };
   let dtTh_s: number | null;
-  if (fo === undefined) {
+  if (cross !== undefined && fo === undefined) {
+    // The tapped collector rises towards its Thevenin level with the linear input network and R_D.
+    const th = collectorThevenin(k.vcc_V, rCX, parallelLoads(preLoad, cross.load));
+    dtTh_s = thresholdDelay_s(th.r_ohm * cX, th.v_V, vSat_V, v.vThTap_V);
+  } else if (fo === undefined) {
     const vInf = pre === undefined ? k.vcc_V : (k.vcc_V * pre) / (rCX + pre);
     const rTh = pre === undefined ? rCX : (rCX * pre) / (rCX + pre);
     dtTh_s = thresholdDelay_s(rTh * cX, vInf, vSat_V, v.vThTap_V);
@@ -222,6 +247,25 @@ export function evalCore(v: CoreValues, q: BjtClass, db: DiodeClass, k: Corner, 
     : timing.tAoff_s - dt - v.delayOn_s + v.delayOff_s;
   const duty = Math.min(1, Math.max(0, tOn / timing.period_s));
   return { timing, f_Hz: 1 / timing.period_s, duty, dtTh_s, vOn_V, vCutIn_V, vSat_V, ...(fo ? { follower: fo } : {}) };
+}
+
+/**
+ * The cross-returned bleed at one corner (cross-bleed.ts): the base's cut-in level V_γ, the base
+ * diode's drop at the current it carries then ((V_γ − V_CE(sat))/R_D + the base's own cut-in current,
+ * derived), and R_D as a load on each high collector towards the conducting base's V_BE(on).
+ */
+function crossAt(
+  v: CoreValues,
+  q: BjtClass,
+  db: DiodeClass,
+  k: Corner,
+  vSat_V: number,
+): { params: { rD_ohm: number; vF_V: number; vGamma_V: number }; load: CollectorLoad } | undefined {
+  const rD = v.crossBleed_ohm;
+  if (rD === undefined) return undefined;
+  const vGamma_V = cutIn_V(false, db, k.t_C);
+  const vF_V = diodeVf_V(db, Math.max(0, vGamma_V - vSat_V) / rD + CUT_IN_BASE_A, k.t_C);
+  return { params: { rD_ohm: rD, vF_V, vGamma_V }, load: { r_ohm: rD, v_V: vbeOn(q, k.t_C) } };
 }
 
 /**

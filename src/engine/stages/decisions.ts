@@ -96,6 +96,12 @@ export interface FollowerChosen {
   gateEdgeShare?: number;
 }
 
+/** What size.ts coreAttempts reports when it chose the cross-returned bleed: the plain core's first failure. */
+export interface CrossChosen {
+  rule: string;
+  cross: true;
+}
+
 /** What size.ts tapAndTiming reports when it chose the ±5 % timing capacitors: the ±10 % attempt's first failure. */
 export interface CapsTightened {
   rule: string;
@@ -119,7 +125,7 @@ export function designDecisions(
   heatsinkRefs: string[],
   rcLowered?: RcLowered,
   insulated = false,
-  follower?: FollowerChosen,
+  arrangement?: FollowerChosen | CrossChosen,
   caps?: CapsTightened,
 ): DesignDecision[] {
   const out: DesignDecision[] = [];
@@ -179,11 +185,19 @@ export function designDecisions(
         `every limit with the overdrive the search requires`,
     });
   }
-  if (follower !== undefined) {
+  if (arrangement !== undefined) out.push(arrangementDecision(circuit, arrangement));
+  if (caps !== undefined) out.push(capsDecision(circuit, caps));
+  return out;
+}
+
+/** The timing core's arrangement when it is not the plain core: the recovery followers or the cross-returned bleed. */
+function arrangementDecision(circuit: CircuitModel, arrangement: FollowerChosen | CrossChosen): DesignDecision {
+  if (!("cross" in arrangement)) {
+    const follower = arrangement;
     const refs = circuit.parts
       .filter((p) => ["QF_A", "QF_B", "DF_A", "DF_B", "RS_A", "RS_B"].includes(p.role))
       .map((p) => p.ref);
-    out.push({
+    return {
       refs,
       topic: "timing core arrangement",
       choice: "recovery followers: an emitter follower, a clamp diode and a series resistor per side",
@@ -203,10 +217,21 @@ export function designDecisions(
                 `with the larger base resistors the duty range needs`)
           : `and feeds the chain from its emitter, so R_C only feeds a follower's base and may be larger, which ` +
             `lets the base resistors span a wider duty range`),
-    });
+    };
   }
-  if (caps !== undefined) out.push(capsDecision(circuit, caps));
-  return out;
+  const cross = arrangement;
+  const refs = circuit.parts.filter((p) => p.role === "RBL_A" || p.role === "RBL_B").map((p) => p.ref);
+  return {
+    refs,
+    topic: "timing core arrangement",
+    choice: "cross-returned base bleeds: each base's bleed resistor returns to the opposite collector",
+    reason:
+      `the plain core and the recovery followers do not pass (the plain core: ` +
+      `${PLAIN_FAILURE[cross.rule] ?? cross.rule}). While a transistor is off its bleed holds the base at the ` +
+      `other collector's V_CE(sat), so its timing resistor charges the capacitor alone; while it is on, the ` +
+      `bleed adds base current from the other collector's high level, so the largest timing resistor no ` +
+      `longer has to saturate the transistor by itself and the control spans a wider duty range`,
+  };
 }
 
 function capsDecision(circuit: CircuitModel, caps: CapsTightened): DesignDecision {

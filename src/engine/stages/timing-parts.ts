@@ -178,6 +178,7 @@ export function timingParts(
       problems.push(...r.problems);
     }
   }
+  if (v.crossBleed_ohm !== undefined) crossBleedParts(ctx, q, v.crossBleed_ohm, { parts, problems, checks });
   if (balance !== undefined) {
     const onEmitter = v.follower !== undefined && v.follower.onCollector !== true;
     const untapped = onEmitter ? (tap.tapNet === "ca" ? "fb" : "fa") : tap.tapNet === "ca" ? "cb" : "ca";
@@ -315,4 +316,31 @@ function followerParts(
     out.problems.push(...rs.problems);
   }
   return pF;
+}
+
+/**
+ * The cross-returned bleeds (cross-bleed.ts): from each base to the OPPOSITE collector; at most
+ * V_cc,max − V_BE across each while the other collector is high and its own base conducts.
+ */
+function crossBleedParts(
+  ctx: Ctx,
+  q: BjtClass,
+  rD_ohm: number,
+  out: { parts: Part[]; problems: DesignProblem[]; checks: StressCheck[] },
+): void {
+  const vBe = vbeOn(q, ctx.taMax_C);
+  for (const side of ["A", "B"] as const) {
+    const r = resistor(
+      "timing",
+      `RBL_${side}`,
+      rD_ohm,
+      { a: side === "A" ? "ba" : "bb", b: side === "A" ? "cb" : "ca" },
+      (ctx.vMax_V - vBe) ** 2 / (rD_ohm * (1 - ctx.rTol)),
+      ctx.spec.policy,
+      `cross-returned bleed: holds base ${side} near the other collector's V_CE(sat) while off, adds drive while on`,
+    );
+    out.parts.push(r.part);
+    out.checks.push(...r.checks);
+    out.problems.push(...r.problems);
+  }
 }

@@ -20,6 +20,9 @@ import { type CoreValues, type Corner, NOMINAL_K, diodeVf_V, evalCore } from "./
 import { diodeCj_F } from "../shared/diode.ts";
 import { INJECTION_MAX, baseInjectionRatio } from "./astable.ts";
 import { bleedFor_ohm } from "./base-bleed.ts";
+import { crossBleedFor_ohm, crossFigures, crossPasses } from "./cross-checks.ts";
+import { crossDrive_A } from "./cross-bleed.ts";
+import { collectorThevenin } from "./astable.ts";
 import { POT_RATINGS_W, RB_MS_FACTOR } from "./timing-parts.ts";
 import {
   type CornerSets,
@@ -92,6 +95,7 @@ export function overdrive(
   const vOn = vbeOn(q, ctx.taMin_C) + (base.diodes ? diodeVf_V(db, iB0, ctx.taMin_C) : 0);
   const iOpp = base.follower === undefined ? 0 : (2 * ctx.vMin_V - vOn) / (Math.min(rEndA, rEndB) * (1 - ctx.rTol));
   const iC = iRc + iOpp;
+  if (base.crossBleed === true) return crossOverdrive(ctx, q, db, base, { pot, rEndA, rEndB, rB, vOn, iRc });
   // The base–emitter bleed (base-bleed.ts) takes V_BE(cold)/R_BE of it.
   const bleed = bleedFor_ohm(ctx, q, db, {
     diodes: base.diodes,
@@ -106,11 +110,48 @@ export function overdrive(
 }
 
 /**
+ * The overdrive of a cross-bled core (cross-bleed.ts): the timing resistor's current plus what R_D
+ * brings from the other collector's high level, loaded by the chain's tap (the lower of the two;
+ * R_C and R_D at +tolerance), against R_C's current plus the off side's divider current, which R_D
+ * returns into this saturated collector ((V_cc − V_F − V_CE(sat))/(R_end,min + R_D), derived).
+ */
+function crossOverdrive(
+  ctx: Ctx,
+  q: BjtClass,
+  db: DiodeClass,
+  base: Base,
+  at: { pot: number; rEndA: number; rEndB: number; rB: number; vOn: number; iRc: number },
+): number {
+  const rD = crossBleedFor_ohm(ctx, q, db, {
+    rC_ohm: base.rC_ohm,
+    pot_ohm: at.pot,
+    rEndA_ohm: at.rEndA,
+    rEndB_ohm: at.rEndB,
+    c_F: 1,
+  });
+  if (rD === undefined) return 0;
+  const vBe = vbeOn(q, ctx.taMin_C);
+  const high = collectorThevenin(ctx.vMin_V, base.rC_ohm * (1 + ctx.rTol), base.tapLoad);
+  const iB = (ctx.vMin_V - at.vOn) / at.rB + crossDrive_A(high.v_V, high.r_ohm, vBe, rD * (1 + ctx.rTol));
+  const iDiv = (ctx.vMin_V - (at.vOn - vBe)) / ((Math.min(at.rEndA, at.rEndB) + rD) * (1 - ctx.rTol));
+  const iC = at.iRc + iDiv;
+  return (iB * hfeMin(q, iC, ctx.taMin_C)) / iC;
+}
+
+/** Whether a cross-bled core passes its own limits (cross-checks.ts); true for every other core. */
+export function crossOk(ctx: Ctx, q: BjtClass, db: DiodeClass, v: CoreValues): boolean {
+  if (v.crossBleed !== true) return true;
+  if (v.crossBleed_ohm === undefined) return false;
+  return crossPasses(crossFigures(ctx, q, db, v, v.crossBleed_ohm));
+}
+
+/**
  * Worst base-diode injection ratio of a core (astable.ts baseInjectionRatio): smallest end resistor
  * and C at −tolerance, R_C at +tolerance, the gain hot (highest). 0 without base diodes.
  */
 export function injection(ctx: Ctx, q: BjtClass, db: DiodeClass, v: CoreValues): number {
-  if (!v.diodes) return 0;
+  // A cross-bled base is held, not floating: its own figure (cross-checks.ts) replaces this one.
+  if (!v.diodes || v.crossBleed === true) return 0;
   const rC = v.rC_ohm * (1 + ctx.rTol);
   const beta = hfeMin(q, Math.min(q.ic_max_A, ctx.vMax_V / (v.rC_ohm * (1 - ctx.rTol))), ctx.taMax_C);
   const rB = Math.min(v.rEndA_ohm, v.rEndB_ohm) * (1 - ctx.rTol);
@@ -165,7 +206,11 @@ interface Cand {
 
 /** The values with the bleed their base resistances call for (base-bleed.ts; none without base diodes). */
 function bled(ctx: Ctx, q: BjtClass, db: DiodeClass, v: CoreValues): CoreValues {
-  const { bleed_ohm: _old, ...rest } = v;
+  const { bleed_ohm: _old, crossBleed_ohm: _cross, ...rest } = v;
+  if (v.crossBleed === true) {
+    const rD = crossBleedFor_ohm(ctx, q, db, v);
+    return rD === undefined ? rest : { ...rest, crossBleed_ohm: rD };
+  }
   const bleed = bleedFor_ohm(ctx, q, db, v);
   return bleed === undefined ? rest : { ...rest, bleed_ohm: bleed };
 }
@@ -222,7 +267,7 @@ export function searchCore(ctx: Ctx, q: BjtClass, db: DiodeClass, base: Base): S
       const short = Math.max(0, OVERDRIVE_K - od);
       // Injection is judged after the end stops are refined (a larger end stop lowers it), so here
       // it only ranks; the pass test below applies the limit.
-      const inj = Math.max(0, injection(ctx, q, db, v) - INJECTION_MAX);
+      const inj = Math.max(0, injection(ctx, q, db, v) - INJECTION_MAX) + (crossOk(ctx, q, db, v) ? 0 : 1);
       const ok = miss === 0 && short === 0;
       ranked.push({ v, od, ok, score: fErr + 0.2 * Math.max(0, rec - 1) + 10 * miss + 10 * short + 10 * inj });
     }
@@ -238,7 +283,7 @@ export function searchCore(ctx: Ctx, q: BjtClass, db: DiodeClass, base: Base): S
       refineEnds(ctx, q, db, cand.v, sets, endFloor(ctx, q, base.rC_ohm, cand.v.pot_ohm) ?? R_END_MIN_OHM),
     );
     const od = overdrive(ctx, q, db, base, v.pot_ohm, v.rEndA_ohm, v.rEndB_ohm);
-    const limitsOk = od >= OVERDRIVE_K && injection(ctx, q, db, v) <= INJECTION_MAX;
+    const limitsOk = od >= OVERDRIVE_K && injection(ctx, q, db, v) <= INJECTION_MAX && crossOk(ctx, q, db, v);
     // Only the first candidate's result is kept when none passes: a later one that fails the
     // cheap limits needs no worst case.
     if (!limitsOk && first !== null) continue;

@@ -25,6 +25,7 @@ import { NOMINAL_TEMP_C } from "../shared/temperature.ts";
 import type { SimCorner } from "../../model/corners.ts";
 import { simulationCorners } from "./sim-corners.ts";
 import { envelopeCorners } from "./worst-corners.ts";
+import { crossBleedFigures, crossProblems } from "./cross-checks.ts";
 
 export interface TimingResult {
   search: Search;
@@ -155,7 +156,34 @@ function millerChecked(
   return { search: searchCore(ctx, q, db, { ...base, bleedScale: MILLER_INDEX_TARGET / z }) };
 }
 
-export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingResult {
+/** What the value search starts from: the tap's values, the chain's delays and the core's arrangement. */
+function coreBase(
+  tap: TapDesign,
+  plan: ChainPlan,
+  delays: { on_s: number; off_s: number },
+  diodes: boolean,
+  cross: boolean,
+): Parameters<typeof searchCore>[3] {
+  return {
+    rC_ohm: tap.rC_ohm,
+    // The cross-returned bleed works through the series base diodes: fitted whatever the reverse swing.
+    diodes: diodes || cross,
+    tapLoad: tap.load,
+    inverting: plan.need.inverting,
+    vThTap_V: tap.vThTap_V,
+    delayOn_s: delays.on_s,
+    delayOff_s: delays.off_s,
+    ...(tap.preLinear_ohm !== undefined ? { preLinear_ohm: tap.preLinear_ohm } : {}),
+    ...(tap.follower !== undefined ? { follower: tap.follower } : {}),
+    ...(cross ? { crossBleed: true as const } : {}),
+  };
+}
+
+/**
+ * The timing stage for one tap. `opts.cross`: the cross-returned bleed (cross-bleed.ts), which needs
+ * the series base diodes, so they are fitted whatever the reverse swing.
+ */
+export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign, opts: { cross?: boolean } = {}): TimingResult {
   const q = ctx.spec.devices.timing_npn as BjtClass;
   const db = ctx.spec.devices.signal_diode as DiodeClass;
   const pol = ctx.spec.policy;
@@ -183,17 +211,7 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
       );
   }
   const delays = plan.delays(tap.info);
-  const base = {
-    rC_ohm: tap.rC_ohm,
-    diodes,
-    tapLoad: tap.load,
-    inverting: plan.need.inverting,
-    vThTap_V: tap.vThTap_V,
-    delayOn_s: delays.on_s,
-    delayOff_s: delays.off_s,
-    ...(tap.preLinear_ohm !== undefined ? { preLinear_ohm: tap.preLinear_ohm } : {}),
-    ...(tap.follower !== undefined ? { follower: tap.follower } : {}),
-  };
+  const base = coreBase(tap, plan, delays, diodes, opts.cross === true);
   // Skew from loading the tapped collector only (full recovery, equal R_B and C): the two ln factors differ.
   const vOnNom = vbeOn(q, NOMINAL_TEMP_C) + (diodes ? diodeVf_V(db, ctx.vNom_V / 10_000, NOMINAL_TEMP_C) : 0);
   const vSat = vceSat(q, ctx.vNom_V / tap.rC_ohm);
@@ -267,6 +285,7 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
       ),
     );
   problems.push(...followerOffProblems(ctx, plan, q, db, v));
+  problems.push(...crossProblems(ctx, q, db, v));
   const inj = injection(ctx, q, db, v);
   if (inj > INJECTION_MAX)
     problems.push(
@@ -527,6 +546,7 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign): TimingR
     ),
   ];
   figures.push(...bleedFigures(v.bleed_ohm));
+  figures.push(...crossBleedFigures(ctx, q, db, v));
   return {
     search,
     values: v,

@@ -1,0 +1,80 @@
+/**
+ * The cross-returned base bleed (docs/method.md, "Cross-returned bleed"; roles RBL_A/RBL_B in
+ * docs/topologies.md): with series base diodes, each base's bleed R_D returns not to ground but to the
+ * OPPOSITE collector (RBL_A from `ba` to `cb`, RBL_B from `bb` to `ca`).
+ *
+ *  - While X is off the other collector sits at V_CE(sat): R_D holds base X near V_CE(sat), below
+ *    cut-in, and X's base node (the diode's anode) charges through its timing resistor R_B alone
+ *    towards V_cc until the diode conducts (segment 1), then towards the divider R_B/R_D (segment 2)
+ *    until base X reaches the cut-in level: the two-segment charging law (offTime_s).
+ *  - While X is on, the other collector is high and R_D adds ≈ (V_C,high − V_BE)/(R_C + R_D) to X's
+ *    base current: the overdrive no longer falls with the largest timing resistor alone.
+ *
+ * The resistive cross-coupling is the bistable's, the capacitive one the astable's (Millman & Taub,
+ * Pulse, Digital and Switching Waveforms, 1965, ch. 10–11, from memory [src:millman-taub-1965]); the
+ * combination, its charging law and its conditions are ours (derived), the latch limits measured.
+ * Pure functions; nothing rounded.
+ */
+
+/** One side's off phase with the cross-returned bleed, at one corner. */
+export interface CrossOffParams {
+  /** Timing resistance of this side (end stop + its pot share), Ω. */
+  rB_ohm: number;
+  /** The coupling capacitor that feeds this side's base node, F. */
+  c_F: number;
+  vcc_V: number;
+  /** The base node's level at the start of the off phase, V_on − V_swing, V. */
+  vStart_V: number;
+  /** The other (saturated) collector's level, where R_D returns, V. */
+  vSat_V: number;
+  /** The base diode's drop once it conducts (read at the cut-in current), V. */
+  vF_V: number;
+  /** The base's cut-in level V_γ (without the diode), V. */
+  vGamma_V: number;
+  rD_ohm: number;
+}
+
+/** Smallest ln used for segment 2 (a divider that never reaches cut-in): keeps the numbers finite. */
+const SEG2_FLOOR = 1e-3;
+
+/**
+ * The base node's level once the diode conducts, towards which segment 2 charges:
+ * V_∞ = V_k + (V_cc − V_k)·R_D/(R_B + R_D), V_k = V_CE(sat) + V_F (the diode's anode when base X sits
+ * at the other collector's level; derived, the divider R_B/R_D with the diode as a fixed drop).
+ */
+export function dividerLevel_V(p: Pick<CrossOffParams, "rB_ohm" | "vcc_V" | "vSat_V" | "vF_V" | "rD_ohm">): number {
+  const vK = p.vSat_V + p.vF_V;
+  return vK + ((p.vcc_V - vK) * p.rD_ohm) / (p.rB_ohm + p.rD_ohm);
+}
+
+/** Whether the divider lifts base X above cut-in at all: V_∞ > V_γ + V_F (the turn-on condition, derived). */
+export function turnsOn(p: CrossOffParams): boolean {
+  return dividerLevel_V(p) > p.vGamma_V + p.vF_V;
+}
+
+/**
+ * The two-segment charging law of one off phase (derived from the RC charge of the base node):
+ *   segment 1: V_start → V_k = V_CE(sat) + V_F towards V_cc, τ₁ = R_B·C:
+ *     t₁ = R_B·C·ln((V_cc − V_start)/(V_cc − V_k))
+ *   segment 2: V_k → V_γ + V_F towards V_∞ (dividerLevel_V), τ₂ = (R_B ∥ R_D)·C:
+ *     t₂ = τ₂·ln((V_∞ − V_k)/(V_∞ − V_γ − V_F))
+ * (base X sits at V_CE(sat) + i_D·R_D, so it reaches V_γ when the node is V_γ + V_F above ground,
+ * with V_F read at the diode's current then, (V_γ − V_CE(sat))/R_D). A divider that never reaches
+ * cut-in (turnsOn false) is floored (the search refuses it by crossChecks).
+ */
+export function offTime_s(p: CrossOffParams): number {
+  const vK = p.vSat_V + p.vF_V;
+  const t1 = p.vStart_V < vK ? p.rB_ohm * p.c_F * Math.log((p.vcc_V - p.vStart_V) / (p.vcc_V - vK)) : 0;
+  const vInf = dividerLevel_V(p);
+  const vEnd = p.vGamma_V + p.vF_V;
+  const from = Math.max(vK, p.vStart_V);
+  if (from >= vEnd) return t1;
+  const tau2 = ((p.rB_ohm * p.rD_ohm) / (p.rB_ohm + p.rD_ohm)) * p.c_F;
+  const ln2 = Math.max(SEG2_FLOOR, Math.log(Math.max(1e-12, vInf - from) / Math.max(1e-12, vInf - vEnd)));
+  return t1 + tau2 * (vInf > vEnd ? ln2 : Math.log(1 / SEG2_FLOOR));
+}
+
+/** The extra base current R_D brings the on side, A: from the other collector's loaded high level (derived). */
+export function crossDrive_A(vHigh_V: number, rHigh_ohm: number, vBe_V: number, rD_ohm: number): number {
+  return Math.max(0, (vHigh_V - vBe_V) / (rHigh_ohm + rD_ohm));
+}
