@@ -15,18 +15,21 @@ import type { Part } from "../../src/model/circuit.ts";
 import { parseCsv } from "./csv-read.ts";
 import { library, makeSpec } from "../engine/fixtures.ts";
 
-const spec = makeSpec({
-  supply_V: 24,
-  load_A: 1,
-  chain: "mosfet-driver",
-  load_kind: "led",
-  pwm_Hz: 4000,
-  duty: [0.2, 0.8],
-  ambient_C: [5, 40],
-  supply: { battery: "lead-acid" },
-  off_on_ends: true,
-});
-const sized = sizeVariant(spec);
+/** A 24 V LED strip on the driven MOSFET; `ends` asks for the control's end contacts. */
+function stripSpec(ends: boolean) {
+  return makeSpec({
+    supply_V: 24,
+    load_A: 1,
+    chain: "mosfet-driver",
+    load_kind: "led",
+    pwm_Hz: 4000,
+    duty: [0.2, 0.8],
+    ambient_C: [5, 40],
+    supply: { battery: "lead-acid" },
+    ...(ends ? { off_on_ends: true } : {}),
+  });
+}
+const sized = sizeVariant(stripSpec(true));
 const views = renderVariantViews(sized, library());
 const contacts = (sized.circuit?.parts ?? []).filter((p) => p.kind === "switch");
 
@@ -93,18 +96,7 @@ describe("end contacts: schematic = netlist = parts list", () => {
   });
 
   it("a variant without the ends has no contact, no parameter line, no drawn switch", () => {
-    const plain = sizeVariant(
-      makeSpec({
-        supply_V: 24,
-        load_A: 1,
-        chain: "mosfet-driver",
-        load_kind: "led",
-        pwm_Hz: 4000,
-        duty: [0.2, 0.8],
-        ambient_C: [5, 40],
-        supply: { battery: "lead-acid" },
-      }),
-    );
+    const plain = sizeVariant(stripSpec(false));
     const v = renderVariantViews(plain, library());
     expect(hasEnds(v.netlist)).toBe(false);
     expect(v.schematicSvg).not.toContain('data-kind="switch"');
