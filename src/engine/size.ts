@@ -13,7 +13,7 @@ import type { SizedVariant } from "../model/sized.ts";
 import type { VariantSpec } from "../model/variant.ts";
 import type { BjtClass, DiodeClass } from "../model/device.ts";
 import { diodeClassVf_V } from "./shared/diode.ts";
-import type { ChainPlan, DeviceLoss } from "./stages/chains/types.ts";
+import type { ChainPlan, DeviceLoss, OperatingPoint } from "./stages/chains/types.ts";
 import { switchingLoss_W } from "./shared/losses.ts";
 import { assembleCircuit, refsByRole } from "../circuit/assemble.ts";
 import { figure, problem } from "./shared/figures.ts";
@@ -215,6 +215,12 @@ function plainTapAndTiming(
   return { tap, timing };
 }
 
+/** The timing core as the chain's nominal edges see it (OperatingPoint.core). */
+function coreAtNominal(timing: TimingResult): NonNullable<OperatingPoint["core"]> {
+  const core = { c_F: timing.values.c_F, vSat_V: timing.vSatNom_V };
+  return timing.tapSinkNom_A === undefined ? core : { ...core, sink_A: timing.tapSinkNom_A };
+}
+
 function sizeInner(spec: VariantSpec): SizedVariant {
   const ctx = makeContext(spec);
   const plan = CHAIN_PLANNERS[spec.chain](ctx);
@@ -226,7 +232,7 @@ function sizeInner(spec: VariantSpec): SizedVariant {
   const fin = plan.finish(tap.info, {
     dutyMax: dutyHi,
     fMax_Hz: w.f.hi,
-    core: { c_F: timing.values.c_F, vSat_V: timing.vSatNom_V },
+    core: coreAtNominal(timing),
   });
   const dOn = timing.figures.find((f) => f.key === "duty_max")?.value ?? Math.min(1, w.dMax.hi);
   const vSwNom_V = fin.vSwNom_V ?? plan.vSwNom_V;

@@ -140,6 +140,35 @@ const FOLLOWER_ROUTES: Route[] = [
   ["RBL_L.a", ["RBL_L.a", BASE_Y]],
   ["RBL_R.a", ["RBL_R.a", BASE_Y]],
 ];
+/**
+ * The cross-returned bleeds (docs/topologies.md, "Cross-returned bleed"): each bleed keeps its place
+ * under its own base and returns to the OPPOSITE collector. The base line and the transistors close
+ * the core's middle, so each wire leaves downwards, runs in its own lane under the base network and
+ * rises outside the far transistor and its label to join that collector line from outside, above the
+ * transistor: an X under the core with one crossing (no dot). A bleed returned to ground puts two
+ * nets on these routes, so they are skipped for every other core.
+ */
+const CROSS_LANE_L = 450; // RBL_L's lane (to the tapped collector, right)
+const CROSS_LANE_R = 470; // RBL_R's lane (to the other collector, left)
+const CROSS_JOIN_Y = 255; // where each joins its collector line: below the capacitor, above the transistor
+const CROSS_RISE_L = 85; // between the balance resistor's column (x 70) and the left transistor's label
+const CROSS_RISE_R = 750; // between the right transistor's label and the chain's tap drop
+const CROSS_ROUTES: Route[] = [
+  [
+    "RBL_L.b",
+    ["RBL_L.b", CROSS_LANE_L],
+    [CROSS_RISE_R, CROSS_LANE_L],
+    [CROSS_RISE_R, CROSS_JOIN_Y],
+    [CORE_R, CROSS_JOIN_Y],
+  ],
+  [
+    "RBL_R.b",
+    ["RBL_R.b", CROSS_LANE_R],
+    [CROSS_RISE_L, CROSS_LANE_R],
+    [CROSS_RISE_L, CROSS_JOIN_Y],
+    [CORE_L, CROSS_JOIN_Y],
+  ],
+];
 const NODE_L = 305; // where CT_R lands on the left base line
 const NODE_R = 535;
 const CORE_ROUTES: Route[] = [
@@ -161,6 +190,7 @@ const CORE_ROUTES: Route[] = [
   ["CT_R.b", [NODE_L, "CT_R.b"], [NODE_L, BASE_Y]],
   [[CORE_L, 240], [70, 240], "RBAL.a"],
   ["RBAL.b", "DBAL.anode"],
+  ...CROSS_ROUTES,
 ];
 export const CORE_WIDTH = 770;
 

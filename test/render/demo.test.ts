@@ -54,6 +54,11 @@ describe("the demo catalogue renders", async () => {
 
   it("has circuits to render", () => expect(variants.length).toBeGreaterThan(50));
 
+  it("includes cross-returned cores, so the drawing checks below cover their bleeds' wires", () => {
+    const cross = variants.filter((v) => v.circuit.parts.some((p) => p.role === "RBL_A" && p.pins.b === "cb"));
+    expect(cross.length).toBeGreaterThan(0);
+  });
+
   it("schematics: every part drawn, no overlapping symbols/labels/marks, every pin attached", () => {
     const problems: string[] = [];
     for (const v of variants) {

@@ -78,3 +78,27 @@ export function offTime_s(p: CrossOffParams): number {
 export function crossDrive_A(vHigh_V: number, rHigh_ohm: number, vBe_V: number, rD_ohm: number): number {
   return Math.max(0, (vHigh_V - vBe_V) / (rHigh_ohm + rD_ohm));
 }
+
+/**
+ * The tapped transistor's collector current while it comes on, before the other side lets go, A:
+ * β·I_B with its base fed by its own timing resistor alone (less what its bleed R_D returns to the
+ * other, still saturated, collector). With the series base diodes the other side's collector fall
+ * reaches this base only through its capacitor, which the diode blocks in that direction, and the other
+ * side stays saturated while R_D still feeds it from the falling collector: no regenerative kick
+ * until the tapped collector is nearly down, so it falls as a ramp with this current (measured, ours:
+ * a 12 V, 470 Ω core at 20 kHz in native ngspice, its collector falling at ≈ 7 V/µs while the other
+ * stayed at 0.33 V; docs/method.md, "Cross-returned bleed"). I_B = (V_cc − V_F − V_BE)/R_B − (V_BE −
+ * V_CE(sat))/R_D (derived).
+ */
+export function crossTapSink_A(p: {
+  beta: number;
+  vcc_V: number;
+  vBe_V: number;
+  vF_V: number;
+  vSat_V: number;
+  rB_ohm: number;
+  rD_ohm: number;
+}): number {
+  const iB = (p.vcc_V - p.vF_V - p.vBe_V) / p.rB_ohm - (p.vBe_V - p.vSat_V) / p.rD_ohm;
+  return Math.max(0, p.beta * iB);
+}

@@ -42,16 +42,14 @@ export const DIVIDER_DRIVE_MIN = 0.35;
 export const CROSS_INJECTION_MAX = 3.1;
 
 /**
- * Chains the arrangement is offered to: none yet. Where it was offered (the logic-level MOSFET chain,
- * the only one whose cores agreed with every corner simulation with both card sets), two gates still
- * refuse it: the schematic draws each cross-returned bleed with a net flag instead of a wire (it needs
- * its own drawn route, src/render/schematic-layout.ts), and a 12 V, 250 mA fan's published netlist ran
- * 0.0244 W in native ngspice against its page's 0.0229 W top (the collector's slow fall, docs/method.md,
- * is not in the switch's edge model). The driven MOSFET's one core fell 10 duty points short at control 1
- * with the second card set; five of eight driver-PNP cores disagreed with their corner simulations; the
+ * Chains the arrangement is offered to: the logic-level MOSFET, whose cores agreed with every nominal
+ * and corner simulation with both card sets, and whose published netlists print their expected values
+ * in native ngspice (ours, measured; docs/method.md, "Cross-returned bleed", "When it is chosen").
+ * Not yet elsewhere: the driven MOSFET's one core fell 10 duty points short at control 1 with the
+ * second card set; five of eight driver-PNP cores disagreed with their corner simulations; the
  * single-transistor and Darlington chains have no simulated core yet (ours, measured).
  */
-export const CROSS_CHAINS: readonly string[] = [];
+export const CROSS_CHAINS: readonly string[] = ["mosfet-logic"];
 
 /**
  * Whether the arrangement is offered: a MOSFET chain (CROSS_CHAINS), and not a solenoid, whose

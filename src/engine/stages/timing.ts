@@ -11,7 +11,7 @@ import type { DesignProblem } from "../../model/problem.ts";
 import type { StressCheck } from "../../model/derating.ts";
 import { nearest } from "../shared/e-series.ts";
 import { figure, problem } from "../shared/figures.ts";
-import { vbeOn, vceSat } from "../shared/gain.ts";
+import { hfeNominal, vbeOn, vceSat } from "../shared/gain.ts";
 import { evaluateCore, followerThevenin, lnFactor, type CollectorLoad } from "./astable.ts";
 import type { Ctx } from "./context.ts";
 import { type CoreEval, type CoreValues, NOMINAL_K, diodeVf_V, evalCore, followerAt } from "./core-model.ts";
@@ -26,6 +26,7 @@ import type { SimCorner } from "../../model/corners.ts";
 import { simulationCorners } from "./sim-corners.ts";
 import { envelopeCorners } from "./worst-corners.ts";
 import { crossBleedFigures, crossProblems } from "./cross-checks.ts";
+import { crossTapSink_A } from "./cross-bleed.ts";
 
 export interface TimingResult {
   search: Search;
@@ -45,7 +46,38 @@ export interface TimingResult {
   vSatNom_V: number;
   /** The corners the verifier simulates besides the nominal run (sim-corners.ts). */
   corners: SimCorner[];
+  /**
+   * Cross-returned bleed only: the most current the tapped transistor sinks as it comes on, before
+   * the other side lets go (cross-bleed.ts crossTapSink_A), nominal, control at 1, A.
+   */
+  tapSinkNom_A?: number;
 }
+
+/**
+ * The tapped transistor's sink current as it comes on in a cross-bled core (crossTapSink_A), at the
+ * nominal supply, 25 °C and control 1 (the run the nominal dissipation is read at): its base fed by
+ * its own timing resistor at control 1, the gain the netlist's card carries read at the current it
+ * sinks (one step from R_C's current: the gain falls past its peak, shared/gain.ts).
+ */
+function tapSinkNom_A(ctx: Ctx, q: BjtClass, db: DiodeClass, v: CoreValues, vSat_V: number): number | undefined {
+  if (v.crossBleed_ohm === undefined) return undefined;
+  const rB = v.inverting ? v.rEndB_ohm : v.rEndA_ohm + v.pot_ohm;
+  const at = (iC_A: number): number =>
+    crossTapSink_A({
+      beta: hfeNominal(q, Math.min(q.ic_max_A, iC_A)),
+      vcc_V: ctx.vNom_V,
+      vBe_V: vbeOn(q, NOMINAL_TEMP_C),
+      vF_V: diodeVf_V(db, ctx.vNom_V / rB, NOMINAL_TEMP_C),
+      vSat_V,
+      rB_ohm: rB,
+      rD_ohm: v.crossBleed_ohm!,
+    });
+  const iRc_A = ctx.vNom_V / v.rC_ohm;
+  return at(Math.max(iRc_A, at(iRc_A)));
+}
+
+const optional = <K extends string>(k: K, x: number | undefined): Partial<Record<K, number>> =>
+  x === undefined ? {} : ({ [k]: x } as Partial<Record<K, number>>);
 
 const fmtPct = (x: number): string => `${(x * 100).toFixed(1)} %`;
 
@@ -559,6 +591,7 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign, opts: { 
     followerLoss_W: built.followerLoss_W,
     fCtrl1_Hz: e1.f_Hz,
     vSatNom_V: e1.vSat_V,
+    ...optional("tapSinkNom_A", tapSinkNom_A(ctx, q, db, v, e1.vSat_V)),
     corners:
       checked.corners ??
       simulationCorners(v, q, db, envelopeCorners(envelopeOf(ctx)), { vMax: ctx.vMax_V, tMax: ctx.taMax_C }),

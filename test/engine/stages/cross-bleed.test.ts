@@ -5,7 +5,7 @@
  * corner predictions against a real SPICE engine (the embedded one).
  */
 import { describe, expect, it } from "vitest";
-import { dividerLevel_V, offTime_s, turnsOn } from "../../../src/engine/stages/cross-bleed.ts";
+import { crossTapSink_A, dividerLevel_V, offTime_s, turnsOn } from "../../../src/engine/stages/cross-bleed.ts";
 import {
   DIVIDER_DRIVE_MIN,
   STEAL_MAX,
@@ -17,6 +17,7 @@ import { sizeVariant } from "../../../src/engine/size.ts";
 import { makeContext } from "../../../src/engine/stages/context.ts";
 import { roundDown } from "../../../src/engine/shared/e-series.ts";
 import type { BjtClass, DiodeClass } from "../../../src/model/device.ts";
+import { itAgreesWithSpice } from "./sim-agreement.ts";
 import { makeSpec } from "../fixtures.ts";
 
 // The hand core of docs/method.md: 12 V, a 210 kΩ timing resistance, 3.3 nF, R_D 47 kΩ; the node
@@ -59,22 +60,37 @@ describe("the two-segment charging law (derived, hand arithmetic)", () => {
   });
 });
 
-describe("the arrangement is not offered yet (cross-checks.ts CROSS_CHAINS)", () => {
-  it("a 12 V LED bar dimmer, 5–95 % at 500 Hz, keeps the refusal of the other cores", () => {
-    // A need invented for the test; the arrangement's gates are not all met yet (docs/method.md).
-    const dimmer = makeSpec({
-      supply_V: 12,
-      load_A: 1,
-      chain: "mosfet-logic",
-      load_kind: "led",
-      pwm_Hz: 500,
-      duty: [0.05, 0.95],
-      ambient_C: [5, 40],
-      supply: { battery: "lead-acid" },
-    });
-    const s = sizeVariant(dimmer);
-    expect(s.circuit?.parts.find((p) => p.role === "RBL_A")?.pins.b).not.toBe("cb");
-    expect(s.decisions?.some((d) => /opposite collector/.test(d.choice))).toBe(false);
+// A 12 V LED bar dimmer, 5–95 % at 500 Hz on a logic-level MOSFET (a need invented for the test): the
+// plain core, the followers and the ±5 % capacitors all fall short, so the engine offers the arrangement.
+const dimmer = sizeVariant(
+  makeSpec({
+    supply_V: 12,
+    load_A: 1,
+    chain: "mosfet-logic",
+    load_kind: "led",
+    pwm_Hz: 500,
+    duty: [0.05, 0.95],
+    ambient_C: [5, 40],
+    supply: { battery: "lead-acid" },
+  }),
+);
+
+describe("the arrangement, offered to the logic-level MOSFET (cross-checks.ts CROSS_CHAINS)", () => {
+  it("returns each base's bleed to the opposite collector, recorded as a design decision", () => {
+    expect(dimmer.feasible).toBe(true);
+    const parts = dimmer.circuit!.parts;
+    const rbl = (role: string) => parts.find((p) => p.role === role)!;
+    expect(rbl("RBL_A").pins).toEqual({ a: "ba", b: "cb" });
+    expect(rbl("RBL_B").pins).toEqual({ a: "bb", b: "ca" });
+    expect(dimmer.decisions?.some((d) => /opposite collector/.test(d.choice))).toBe(true);
+  });
+
+  it("reaches 5–95 % at worst case with the overdrive k ≥ 2 at minimum gain", () => {
+    // k ≥ 2 at V_cc,min, cold, minimum gain (common practice [src:common-practice]).
+    const fig = (k: string) => dimmer.figures.find((f) => f.key === k)!;
+    expect(fig("duty_min").range![1]).toBeLessThanOrEqual(0.05);
+    expect(fig("duty_max").range![0]).toBeGreaterThanOrEqual(0.95);
+    expect(fig("timing_overdrive").value).toBeGreaterThanOrEqual(2);
   });
 
   it("R_D is the smallest E24 value within the measured latch limits (12 V dimmer core of the hand netlist)", () => {
@@ -102,4 +118,28 @@ describe("the arrangement is not offered yet (cross-checks.ts CROSS_CHAINS)", ()
     // The hand netlist ran at 47 kΩ for β 100–1000 and latched at 22–33 kΩ at β 100 (native ngspice, ours).
     expect(rD).toBeGreaterThanOrEqual(33_000);
   });
+});
+
+describe("the tapped transistor's sink as it comes on (crossTapSink_A, derived, hand arithmetic)", () => {
+  it("is β times its own timing resistor's current less what R_D returns to the saturated collector", () => {
+    // 12 V, R_B 60 kΩ at control 1, R_D 15 kΩ, V_BE 0.68 V, V_F 0.65 V, V_CE(sat) 0.31 V, β 214.
+    const iB = (12 - 0.65 - 0.68) / 60e3 - (0.68 - 0.31) / 15e3;
+    const sink = crossTapSink_A({
+      beta: 214,
+      vcc_V: 12,
+      vBe_V: 0.68,
+      vF_V: 0.65,
+      vSat_V: 0.31,
+      rB_ohm: 60e3,
+      rD_ohm: 15e3,
+    });
+    expect(sink).toBeCloseTo(214 * iB, 12);
+    expect(
+      crossTapSink_A({ beta: 214, vcc_V: 1, vBe_V: 0.68, vF_V: 0.65, vSat_V: 0.31, rB_ohm: 60e3, rD_ohm: 15e3 }),
+    ).toBe(0);
+  });
+});
+
+describe("the cross-bled dimmer against SPICE (embedded engine)", () => {
+  itAgreesWithSpice(dimmer);
 });

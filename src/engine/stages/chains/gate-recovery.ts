@@ -88,3 +88,38 @@ export function recoveringTurnOnEquivalent_s(d: RecoveringGateDrive): number | n
   }
   return null;
 }
+
+/**
+ * Turn-off plateau of a gate discharged into a collector whose transistor sinks at most `sink_A`
+ * (the cross-returned bleed's tapped transistor before the other side lets go, cross-bleed.ts
+ * crossTapSink_A). While the transistor is active the collector node carries R_C's current and the
+ * gate's: I_sink = (V_high − V_C)/R_C + I_G, I_G = (V_p − V_C)/R_G, so
+ *   I_G = (I_sink − (V_high − V_p)/R_C)·R_C/(R_C + R_G)   (+ V_p/R_GS through the pull-down),
+ * and the plateau charge Q_pl moves in Q_pl/I_G (node equation, derived). When the transistor can
+ * sink more than the saturated case asks, (V_high − V_sat)/R_C + (V_p − V_sat)/R_G, it saturates and
+ * the edge is the plain one (null); when it cannot even carry R_C's current at the plateau level, the
+ * gate waits for the other side's release, which this does not model (null too; the caller keeps
+ * the plain edge and the simulation judges it).
+ */
+export function sinkLimitedTurnOff_s(d: {
+  vHigh_V: number;
+  vSat_V: number;
+  rC_ohm: number;
+  rG_ohm: number;
+  rGS_ohm?: number;
+  vPlateau_V: number;
+  qPlateau_C: number;
+  sink_A: number;
+}): number | null {
+  for (const [k, v] of Object.entries(d))
+    if (typeof v !== "number" || !Number.isFinite(v) || v < 0)
+      throw new EngineMisuseError(`gate-recovery: ${k} must be finite and ≥ 0, got ${String(v)}`);
+  if (!(d.rC_ohm > 0) || !(d.rG_ohm > 0) || !(d.qPlateau_C > 0))
+    throw new EngineMisuseError("gate-recovery: needs positive R_C, R_G and Q_plateau");
+  const saturated = (d.vHigh_V - d.vSat_V) / d.rC_ohm + Math.max(0, d.vPlateau_V - d.vSat_V) / d.rG_ohm;
+  if (d.sink_A >= saturated) return null;
+  const iG = ((d.sink_A - (d.vHigh_V - d.vPlateau_V) / d.rC_ohm) * d.rC_ohm) / (d.rC_ohm + d.rG_ohm);
+  if (!(iG > 0)) return null;
+  const iGS = d.rGS_ohm === undefined || d.rGS_ohm === 0 ? 0 : d.vPlateau_V / d.rGS_ohm;
+  return d.qPlateau_C / (iG + iGS);
+}

@@ -23,7 +23,7 @@ import {
   specVgs_V,
   transitionFigures,
 } from "./mosfet-common.ts";
-import { recoveringTurnOnEquivalent_s } from "./gate-recovery.ts";
+import { recoveringTurnOnEquivalent_s, sinkLimitedTurnOff_s } from "./gate-recovery.ts";
 import type { ChainPlan } from "./types.ts";
 
 export function planMosfetLogic(ctx: Ctx): ChainPlan {
@@ -111,9 +111,25 @@ export function planMosfetLogic(ctx: Ctx): ChainPlan {
               qPlateau_C: plateauCharge_C(dev, ctx.vNom_V),
               kind: ctx.switching,
             });
+      // Turn-off into a collector whose transistor comes on with limited current (the cross-returned
+      // bleed, gate-recovery.ts sinkLimitedTurnOff_s): the plateau's current is what that transistor
+      // sinks beyond R_C's, at the same plateau and plateau charge as the plain edge.
+      const tOffSink =
+        op.core?.sink_A === undefined
+          ? null
+          : sinkLimitedTurnOff_s({
+              vHigh_V: ctx.vNom_V,
+              vSat_V: op.core.vSat_V,
+              rC_ohm: tap.rC_ohm,
+              rG_ohm: tap.rTap_ohm,
+              ...(tap.rGS_ohm === undefined ? {} : { rGS_ohm: tap.rGS_ohm }),
+              vPlateau_V: plateauAt_V(dev, ctx.iNom_A),
+              qPlateau_C: plateauCharge_C(dev, ctx.vNom_V),
+              sink_A: op.core.sink_A,
+            });
       const tNom = {
         tOn_s: tOnRec === null ? tNomFlat.tOn_s : Math.max(dev.t_rise_s, tOnRec),
-        tOff_s: tNomFlat.tOff_s,
+        tOff_s: tOffSink === null ? tNomFlat.tOff_s : Math.max(tNomFlat.tOff_s, tOffSink),
       };
       const r = rdsOn_ohm(dev, vgMin, true);
       // Nominal gate voltage: the collector's high level through the divider, V_nom·R_GS/(R_C + R_G + R_GS).

@@ -67,7 +67,12 @@ export interface OperatingPoint {
   /** Highest PWM frequency over tolerances. */
   fMax_Hz: number;
   /** The timing core as built, at nominal supply (for chains fed from a recovering collector). */
-  core?: { c_F: number; vSat_V: number };
+  core?: {
+    c_F: number;
+    vSat_V: number;
+    /** Cross-returned bleed only: the tapped transistor's sink current as it comes on (cross-bleed.ts). */
+    sink_A?: number;
+  };
 }
 
 export interface ChainPlan extends StageResult {
