@@ -6,8 +6,9 @@
  * runs, the pull-in runs — with its retry level and whether it stopped early. Run:
  *   node --import tsx bench/sim-profile.ts [--shard K/N] [--out measured.json] [--runs runs.jsonl]
  * Prints a table per class and the slowest decks. `--only A,B` measures the variants whose id
- * contains A or B; `--dump DIR` writes every deck the engine ran there. `--out` keeps every variant's measurements (to
- * compare two versions of the run plan: bench/sim-compare.ts); `--runs` one line per engine call.
+ * contains A or B; `--dump DIR` writes every deck the engine ran there. `--out` keeps every
+ * variant's measurements (to compare two versions of the run plan: bench/sim-compare.ts); `--runs`
+ * one line per engine call.
  */
 import { writeFileSync } from "node:fs";
 import { loadavg } from "node:os";
