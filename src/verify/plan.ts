@@ -28,7 +28,7 @@ import { measurePullIn } from "./pull-in.ts";
 import { measureEnds } from "./end-runs.ts";
 
 /** Bumped whenever measurement code changes what it reports: part of every cache key. */
-export const MEASURE_CODE_VERSION = "verify-measure-13";
+export const MEASURE_CODE_VERSION = "verify-measure-14";
 
 /** Transients of the nominal plan per variant (ctrl 0.5, 0, 1); corner runs come on top (corner-runs.ts). */
 export const NOMINAL_RUNS = 3;
@@ -152,7 +152,7 @@ function collect(
   if (level > 0)
     put(
       "solver_retry_level",
-      "Highest solver retry used (1 looser tolerances, 2 stiff-circuit settings, 3 small step alone)",
+      "Highest solver retry used (1 junction conductance, 2 stiff-circuit settings, 3 small step alone)",
       "",
       level,
     );

@@ -171,8 +171,8 @@ describe("second solver retry", () => {
   }
   const NETLIST = ".param ctrl=0.5\nVsupply vcc 0 DC 24\n.ic v(ca)=24 v(cb)=0\n.end\n";
   it(
-    "runs with gear order 2, gmin, rshunt and a tenth of the step when the looser tolerances stop too, and says " +
-      "so",
+    "runs with gear order 2, gmin, rshunt and a tenth of the step when the junction conductance alone stops " +
+      "too, and says so",
     async () => {
       const e = engine((d) => (d.includes("maxord=2") ? 1 : 0.6));
       const run = await runAt(target({ inductive: false, loadTau_s: 0 }), NETLIST, e, 0.5);

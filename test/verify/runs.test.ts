@@ -137,18 +137,27 @@ function fakeEngine(stopAt: (deck: string) => number): SpiceEngine & { decks: st
 const NETLIST = ".param ctrl=0.5\nVsupply vcc 0 DC 12\n.param emf=9\n.ic v(ca)=12 v(cb)=0\n.end\n";
 
 describe("a transient that stops early", () => {
-  it("is run once more with looser absolute tolerances, and the run says so", async () => {
+  it("is run once more with a junction conductance (gmin) at the same step, and the run says so", async () => {
     const e = fakeEngine((d) => (d.includes(RETRY_OPTIONS) ? 1 : 0.8));
     const run = await runAt(target({ inductive: false, loadTau_s: 0 }), NETLIST, e, 0.5);
     expect(run.retried).toBe(true);
     expect(e.decks).toHaveLength(2);
-    expect(e.decks[1]).toMatch(/^\.options method=gear abstol=1e-9 vntol=1e-5$/m);
+    expect(e.decks[1]).toMatch(/^\.options method=gear abstol=1e-9 vntol=1e-5 gmin=1e-10$/m);
+    const step = (d: string): number => Number(/^\.tran (\S+)/m.exec(d)![1]);
+    expect(step(e.decks[1]!)).toBe(step(e.decks[0]!));
   });
   it("fails with every attempt named when both retry levels stop too", async () => {
     const e = fakeEngine(() => 0.5);
     await expect(runAt(target({ inductive: false, loadTau_s: 0 }), NETLIST, e, 1)).rejects.toThrow(
-      /stopped early at ctrl = 1 .*: at .* s, at .* with abstol=1e-9 vntol=1e-5, at .* with .*maxord=2.* and step/,
+      /stopped early at ctrl = 1 .*: at .* s, at .* with abstol=1e-9 vntol=1e-5 gmin=1e-10, at .* with .*maxord=2.* and step .*, at .* with abstol=1e-9 vntol=1e-5 and step/,
     );
+  });
+  it("skips a retry whose settings the netlist's `.options` already carry (it stops where it stopped)", async () => {
+    const e = fakeEngine((d) => (d.includes("maxord=2") ? 1 : 0.8));
+    const own = NETLIST.replace(".end", ".options method=gear abstol=1e-9 vntol=1e-5 gmin=1e-10\n.end");
+    const run = await runAt(target({ inductive: false, loadTau_s: 0 }), own, e, 0.5);
+    expect([run.retried, run.retryLevel, e.decks.length]).toEqual([true, 2, 2]);
+    expect(e.decks[1]).toContain("maxord=2");
   });
   it("a run that completes is not retried", async () => {
     const e = fakeEngine(() => 1);

@@ -1,0 +1,158 @@
+/**
+ * Where the simulation time of the demo goes, run by run: every feasible variant is measured in
+ * this thread with the embedded engine (no cache), and each engine call's processor time
+ * (`process.cpuUsage`, so other work on a shared machine counts little) is put in a class — the
+ * nominal runs at each control, the preparatory runs of inductive loads, the corner runs, the end
+ * runs, the pull-in runs — with its retry level and whether it stopped early. Run:
+ *   node --import tsx bench/sim-profile.ts [--shard K/N] [--out measured.json] [--runs runs.jsonl]
+ * Prints a table per class and the slowest decks. `--only A,B` measures the variants whose id
+ * contains A or B; `--dump DIR` writes every deck the engine ran there. `--out` keeps every
+ * variant's measurements (to compare two versions of the run plan: bench/sim-compare.ts); `--runs`
+ * one line per engine call.
+ */
+import { writeFileSync } from "node:fs";
+import { loadavg } from "node:os";
+import { fileURLToPath } from "node:url";
+import { startEngine } from "../src/verify/engines/index.ts";
+import type { SpiceEngine } from "../src/verify/engines/types.ts";
+import { measureVariant, type Measured } from "../src/verify/plan.ts";
+import { planOf } from "../src/verify/verify.ts";
+import { cornerDecks } from "../src/verify/corner-deck.ts";
+import { RETRY_OPTIONS, RETRY2_OPTIONS, RETRY3_OPTIONS } from "../src/verify/runs.ts";
+
+interface RunRecord {
+  id: string;
+  kind: string;
+  ctrl: number;
+  level: number;
+  cpu_ms: number;
+  wall_ms: number;
+  points: number;
+  tStop_s: number;
+  tEnd_s: number;
+  stopped: boolean;
+}
+
+function arg(name: string): string | undefined {
+  const k = process.argv.indexOf(name);
+  return k >= 0 ? process.argv[k + 1] : undefined;
+}
+
+/** The class of an engine call, from the deck and the caller (the async stack names it). */
+function kindOf(deck: string, stack: string): string {
+  const ctrl = /^\.param ctrl=(\S+)/m.exec(deck)?.[1] ?? "?";
+  const held = /^\.ic .*v\(ls\)=/m.test(deck);
+  if (stack.includes("measureEnds") || stack.includes("endRun")) return `end ctrl ${ctrl}`;
+  if (stack.includes("measurePullIn")) return "pull-in";
+  const prep = held && !/reltol=1e-4/.test(deck);
+  const where = stack.includes("measureCorners") ? "corner" : "nominal";
+  return `${where} ctrl ${ctrl}${prep ? " (preparatory)" : ""}`;
+}
+
+/** The retry level of a deck, from the `.options` line the run plan appends (the last one). */
+function levelOf(deck: string): number {
+  const lines = [...deck.matchAll(/^\.options (.*)$/gm)];
+  const opts = lines[lines.length - 1]?.[1] ?? "";
+  if (opts.includes(RETRY2_OPTIONS)) return 2;
+  if (opts.includes(RETRY_OPTIONS)) return 1;
+  if (opts.includes(RETRY3_OPTIONS)) return 3;
+  return 0;
+}
+
+function profiled(engine: SpiceEngine, records: RunRecord[], id: () => string): SpiceEngine {
+  return {
+    name: engine.name,
+    version: engine.version,
+    close: () => engine.close(),
+    async run(deck, vectors) {
+      const stack = new Error().stack ?? "";
+      const tran = /^\.tran (\S+) (\S+)/m.exec(deck);
+      const tStop = Number(tran?.[2]);
+      const c0 = process.cpuUsage();
+      const w0 = performance.now();
+      const res = await engine.run(deck, vectors);
+      if (dumpDir) writeFileSync(`${dumpDir}/${id()}-${records.length}.cir`, deck);
+      const cpu = process.cpuUsage(c0);
+      const end = res.t_s[res.t_s.length - 1] ?? 0;
+      const level = levelOf(deck);
+      const kind = kindOf(deck, stack);
+      records.push({
+        id: id(),
+        kind,
+        ctrl: Number(/^\.param ctrl=(\S+)/m.exec(deck)?.[1]),
+        level,
+        cpu_ms: (cpu.user + cpu.system) / 1000,
+        wall_ms: performance.now() - w0,
+        points: res.t_s.length,
+        tStop_s: tStop,
+        tEnd_s: end,
+        stopped: end < 0.99 * tStop,
+      });
+      return res;
+    },
+  };
+}
+
+const dumpDir = arg("--dump");
+const only = arg("--only");
+const shard = (arg("--shard") ?? "1/1").split("/").map(Number) as [number, number];
+const { loadProject } = await import("../src/records/index.ts");
+const { sizeProject, renderVariant } = await import("../src/cli/pipeline.ts");
+const project = await loadProject(fileURLToPath(new URL("..", import.meta.url)));
+if (!project.ok) throw new Error("the records do not load: run `pulsewright check`");
+const jobs = sizeProject(project)
+  .flatMap((d) => d.sized.map((v) => renderVariant(v, project.devices)))
+  .filter((r) => r.sized.feasible && r.netlist)
+  .filter((_, k) => k % shard[1] === shard[0] - 1)
+  .filter((r) => only === undefined || only.split(",").some((o) => r.sized.spec.id.includes(o)));
+const records: RunRecord[] = [];
+let current = "";
+const engine = profiled(await startEngine("eecircuit-engine"), records, () => current);
+const measured: Record<string, Measured> = {};
+const la0 = loadavg()[0]!;
+const c0 = process.cpuUsage();
+const w0 = performance.now();
+for (const r of jobs) {
+  const plan = planOf(r.sized);
+  if ("skipped" in plan) continue;
+  current = r.sized.spec.id;
+  const corners = cornerDecks(r.sized, project.devices);
+  const target = { ...plan.target, ...(corners.length > 0 ? { corners } : {}) };
+  const m = await measureVariant(target, r.netlist, engine);
+  measured[current] = m;
+  if (!m.ok) console.log(`FAILED ${current}: ${m.message}`);
+}
+const cpu = process.cpuUsage(c0);
+const wall_s = (performance.now() - w0) / 1000;
+await engine.close();
+
+const byKind = new Map<string, RunRecord[]>();
+for (const r of records) {
+  const k = `${r.kind}${r.level > 0 ? ` retry ${r.level}` : ""}${r.stopped ? " STOPPED" : ""}`;
+  byKind.set(k, [...(byKind.get(k) ?? []), r]);
+}
+const total_ms = records.reduce((s, r) => s + r.cpu_ms, 0);
+console.log(
+  `${jobs.length} variants, ${records.length} engine calls, engine CPU ${(total_ms / 1000).toFixed(1)} s, ` +
+    `process CPU ${((cpu.user + cpu.system) / 1e6).toFixed(1)} s, wall ${wall_s.toFixed(1)} s, load average ` +
+    `${la0.toFixed(2)} → ${loadavg()[0]!.toFixed(2)}`,
+);
+console.log("class | calls | CPU s | share | mean ms | mean points");
+for (const [k, rs] of [...byKind].sort((a, b) => a[0].localeCompare(b[0]))) {
+  const s = rs.reduce((x, r) => x + r.cpu_ms, 0);
+  const pts = rs.reduce((x, r) => x + r.points, 0) / rs.length;
+  console.log(
+    `${k} | ${rs.length} | ${(s / 1000).toFixed(1)} | ${((100 * s) / total_ms).toFixed(1)} % | ` +
+      `${(s / rs.length).toFixed(0)} | ${pts.toFixed(0)}`,
+  );
+}
+console.log("slowest calls:");
+for (const r of [...records].sort((a, b) => b.cpu_ms - a.cpu_ms).slice(0, 15))
+  console.log(
+    `  ${r.cpu_ms.toFixed(0)} ms ${r.id} ${r.kind} level ${r.level}${r.stopped ? ` stopped at ${r.tEnd_s}` : ""} ` +
+      `(${r.points} points)`,
+  );
+const out = arg("--out");
+if (out) writeFileSync(out, JSON.stringify(measured));
+const runsOut = arg("--runs");
+if (runsOut) writeFileSync(runsOut, records.map((r) => JSON.stringify(r)).join("\n") + "\n");
