@@ -17,6 +17,7 @@ import { formatPercent, formatValue } from "../model/format.ts";
 import { hfeNominal } from "../engine/shared/gain.ts";
 import { rdsOn_ohm } from "../engine/shared/rdson.ts";
 import { NOMINAL_TEMP_C } from "../engine/shared/temperature.ts";
+import { fuseFamilyOf } from "../engine/shared/fuse.ts";
 
 /** What the facts may draw on besides the part itself; each is optional (a bare circuit still gets types). */
 export interface FactsContext {
@@ -205,6 +206,12 @@ function ratedSees(sym: string, rated: number | undefined, sees: number | undefi
   return [`${sym} ≥ ${formatValue(rated, unit)}${sees === undefined ? "" : ` (sees ${formatValue(sees, unit)})`}`];
 }
 
+/** What a fuse-link must break (its family's words), where the family is known. */
+function fuseBreaking(p: Part): string[] {
+  const fam = p.rating.voltage_V === undefined ? undefined : fuseFamilyOf(p.value, p.rating.voltage_V);
+  return fam === undefined ? [] : [fam.breaking];
+}
+
 /** The key parameters a substitute for this part must meet. */
 export function keyParameters(p: Part, ctx: FactsContext = {}): string[] {
   switch (p.kind) {
@@ -229,6 +236,7 @@ export function keyParameters(p: Part, ctx: FactsContext = {}): string[] {
       return [
         ...ratedSees("I_n", p.rating.current_A, p.stress.current_A, "A"),
         ...ratedSees("V", p.rating.voltage_V, p.stress.voltage_V, "V"),
+        ...fuseBreaking(p),
       ];
     default:
       return [];

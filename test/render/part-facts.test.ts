@@ -87,6 +87,17 @@ describe("key parameters and generic types of the demo's parts", async () => {
       );
   });
 
+  it("fuses: what the link must break, a glass miniature link ruled out on a battery (common practice)", () => {
+    const fuses = all.filter(({ p }) => p.kind === "fuse");
+    expect(fuses.length).toBeGreaterThan(0);
+    for (const { p, ctx } of fuses) {
+      const params = keyParameters(p, ctx);
+      expect(params.join("; ")).toMatch(/short-circuit current/);
+      // The miniature family's 250 V is an AC rating: the line must not let it pass for a DC one.
+      if (p.rating.voltage_V === 250) expect(params.join("; ")).toMatch(/high-breaking-capacity \(H\).*DC rating/);
+    }
+  });
+
   it("schematic labels and generic types never show a device-class id", () => {
     const ids = [...devices.keys()];
     for (const { p, ctx } of all) {

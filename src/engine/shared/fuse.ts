@@ -33,6 +33,12 @@ export interface FuseFamily {
   note: string;
   /** The holder a builder fits the fuse in (for the parts list; common practice). */
   holder: string;
+  /**
+   * What the fuse-link must break, in a builder's words (for the parts list). A battery's short-circuit
+   * current is hundreds to thousands of amperes, far past what a glass low-breaking-capacity link is
+   * made to interrupt, and a rating printed for AC says nothing about breaking DC (common practice).
+   */
+  breaking: string;
 }
 
 export const FUSE_FAMILIES: readonly FuseFamily[] = [
@@ -45,6 +51,9 @@ export const FUSE_FAMILIES: readonly FuseFamily[] = [
     source: "iec-60127",
     note: "IEC 60127-2, standard sheet 3 (time-lag, 10 × I_n: 10–100 ms), from memory",
     holder: "fuse holder for 5 × 20 mm fuses (in-line or panel mount)",
+    breaking:
+      "ceramic high-breaking-capacity (H) link, not glass (L), to break the battery's short-circuit current " +
+      "(250 V is its AC rating: check the maker's DC rating)",
   },
   {
     id: "iso8820-32v",
@@ -55,6 +64,7 @@ export const FUSE_FAMILIES: readonly FuseFamily[] = [
     source: "iso-8820-3",
     note: "ISO 8820-3 blade fuses (600 % I_n: 10–100 ms), from memory",
     holder: "holder for standard-size blade fuses (in-line or panel mount)",
+    breaking: "rated for DC, its breaking capacity at least the battery's short-circuit current (from the maker)",
   },
   {
     id: "iso8820-58v",
@@ -65,6 +75,7 @@ export const FUSE_FAMILIES: readonly FuseFamily[] = [
     source: "iso-8820-3",
     note: "ISO 8820-3 blade fuses, 58 V types (600 % I_n: 10–100 ms), from memory",
     holder: "holder for standard-size blade fuses rated 58 V (in-line or panel mount)",
+    breaking: "rated for DC, its breaking capacity at least the battery's short-circuit current (from the maker)",
   },
 ];
 
