@@ -10,6 +10,7 @@ import { DEVICE_ROLES, ROLE_FAMILY } from "../../model/design.ts";
 import type { BjtClass, DeviceClass, DeviceLibrary, DiodeClass, ZenerClass } from "../../model/device.ts";
 import { EngineMisuseError } from "../../model/errors.ts";
 import { hfeMin, vbeSat, vceSat } from "../shared/gain.ts";
+import { specVgs_V } from "../shared/rdson.ts";
 import { getDevice, isBjt, isDiode, isMosfet, isZener } from "./library.ts";
 import { supplyWindow } from "../shared/supply.ts";
 import { diodeSurgeI2t_A2s } from "../shared/fuse.ts";
@@ -43,6 +44,24 @@ export const DEFAULT_DEVICE_IDS: Readonly<Record<DeviceRole, readonly string[]>>
   gate_zener: ["zener-12v-0w5", "zener-12v-1w", "zener-10v-1w", "zener-8v2-1w"],
 };
 
+/**
+ * Classes of raised ratings (80 V small-signal transistors, 100 V MOSFETs, a MOSFET rated at V_GS
+ * 2.5 V), listed after the ordinary ones and offered only when no ordinary class of the role clears
+ * the variant's voltage or gate drive (`stressWhyNot`): a variant the ordinary classes serve keeps
+ * them, and the raised class is the smallest that passes, recorded on the page as a design decision.
+ */
+export const RAISED_DEVICE_IDS: Readonly<Partial<Record<DeviceRole, readonly string[]>>> = {
+  // The timing core wants gain (its base resistors set the timing): the high-gain class first.
+  timing_npn: ["npn-small-signal-hv-high-gain", "npn-small-signal-hv"],
+  driver_npn: ["npn-small-signal-hv-high-gain", "npn-small-signal-hv", "npn-power-to220-100v"],
+  driver_pnp: ["pnp-small-signal-hv"],
+  power_npn: ["npn-small-signal-hv", "npn-power-to220-100v"],
+  power_pnp: ["pnp-small-signal-hv", "pnp-power-to220-100v"],
+  // 100 V first at a high supply; the 2.5 V-rated class at a low one (its 20 V rating rules it out above).
+  mosfet_logic: ["nmos-logic-100v", "nmos-logic-2v5"],
+  mosfet_standard: ["nmos-standard-100v"],
+};
+
 /** Family each role needs: the shared table (src/model/design.ts). */
 export { ROLE_FAMILY } from "../../model/design.ts";
 
@@ -56,6 +75,19 @@ const GATE_DRIVE_PACKAGES: ReadonlySet<string> = new Set(["TO-92", "TO-18"]);
 
 /** Selection headroom (common practice), separate from and looser than the derating policy. */
 const SWITCH_HEADROOM = 0.75;
+/**
+ * Voltage shares a class must keep to for the raised classes to be passed over (`stressWhyNot`): the
+ * default policy's factors (transistor V_CE 75 %, MOSFET V_DS 60 %; docs/derating.md). The chooser has
+ * no policy; the engine's stress checks apply the record's.
+ */
+const BJT_VOLTAGE_SHARE = 0.75;
+const MOSFET_VOLTAGE_SHARE = 0.6;
+/**
+ * The most of V_cc,min a gate fed from the timing collector can reach: the divider R_C + R_G over
+ * R_GS never passes V_cc,min less its resistors' tolerance, 0.95/1.05 at 5 % (tap.ts sizes it;
+ * derived). A logic class rated at a higher V_GS cannot be driven at all.
+ */
+const GATE_REACH_SHARE = 0.95 / 1.05;
 const DIODE_CURRENT_HEADROOM = 0.5;
 const DIODE_VOLTAGE_HEADROOM = 0.7;
 /**
@@ -317,6 +349,54 @@ export function pickDriver(cands: BjtClass[], power: BjtClass, n: Need): BjtClas
   return best?.d;
 }
 
+/**
+ * Why an ordinary class cannot serve this role at this variant's voltage or gate drive (null: it
+ * can). Only when every ordinary class of a role fails here are the raised classes offered.
+ */
+function stressWhyNot(role: DeviceRole, d: DeviceClass, n: Need): string | null {
+  if (isBjt(d)) {
+    const v =
+      role === "driver_npn" ? n.driverVOff_V : role === "power_npn" || role === "power_pnp" ? n.vOff_V : n.vMax_V;
+    return d.vceo_V * BJT_VOLTAGE_SHARE >= v
+      ? null
+      : `V_CEO ${f3(d.vceo_V)} V × ${BJT_VOLTAGE_SHARE * 100} % is below the ${f3(v)} V it blocks`;
+  }
+  if (!isMosfet(d)) return null;
+  if (d.vds_V * MOSFET_VOLTAGE_SHARE < n.vOff_V)
+    return `V_DS ${f3(d.vds_V)} V × ${MOSFET_VOLTAGE_SHARE * 100} % is below ${f3(n.vOff_V)} V off-state`;
+  // Only the logic chain's gate hangs off the timing collector; the gate driver has its own rail.
+  const reach_V = n.vMin_V * GATE_REACH_SHARE;
+  return role === "mosfet_logic" && specVgs_V(d) > reach_V
+    ? `rated at V_GS ${f3(specVgs_V(d))} V, above the ${f3(reach_V)} V the gate can reach at ${f3(n.vMin_V)} V`
+    : null;
+}
+
+/**
+ * The classes a role chooses among: the ordinary ones when any clears the stress, else the raised
+ * ones present that do (all raised ones present when none does), with the reason to tell.
+ */
+function candidates(
+  role: DeviceRole,
+  ordinary: DeviceClass[],
+  lib: DeviceLibrary,
+  n: Need,
+): { present: DeviceClass[]; raised?: string } {
+  const raisedIds = RAISED_DEVICE_IDS[role] ?? [];
+  // The driver is judged among small packages (a power-package driver is a last resort, and none in
+  // the gate driver): the raised classes join when no small ordinary one clears the voltage.
+  const judged = role === "driver_npn" ? ordinary.filter((d) => GATE_DRIVE_PACKAGES.has(d.package)) : ordinary;
+  if (raisedIds.length === 0 || judged.some((d) => stressWhyNot(role, d, n) === null)) return { present: ordinary };
+  const raised = raisedIds.filter((id) => lib.has(id)).map((id) => getDevice(lib, id));
+  const fit = raised.filter((d) => stressWhyNot(role, d, n) === null);
+  if (raised.length === 0) return { present: ordinary };
+  const why = judged.map((d) => `${d.id}: ${stressWhyNot(role, d, n)}`).join("; ");
+  const pool = fit.length > 0 ? fit : raised;
+  return {
+    present: role === "driver_npn" ? [...ordinary, ...pool] : pool,
+    raised: `no ordinary class clears the voltage or gate drive (${why})`,
+  };
+}
+
 function checkFamily(role: DeviceRole, d: DeviceClass, how: string): DeviceClass {
   if (d.family !== ROLE_FAMILY[role]) {
     throw new EngineMisuseError(
@@ -418,12 +498,14 @@ export function chooseDevicesWithReasons(
       continue;
     }
     const ids = DEFAULT_DEVICE_IDS[role];
-    const present = ids.filter((id) => lib.has(id)).map((id) => getDevice(lib, id));
-    const last = present[present.length - 1];
-    if (last === undefined)
+    const ordinary = ids.filter((id) => lib.has(id)).map((id) => getDevice(lib, id));
+    if (ordinary.length === 0)
       throw new EngineMisuseError(
         `chooseDevices: no default class for role "${role}" in the library (expected one of ${ids.join(", ")})`,
       );
+    const { present, raised } = candidates(role, ordinary, lib, need);
+    const last = present[present.length - 1]!;
+    const tell = (reason: string): string => (raised === undefined ? reason : `${raised}; ${reason}`);
     if (role === "driver_npn") {
       need.pnpSink_A = chain === "bjt-driver-pnp" ? pnpSinkCurrent_A(out.power_pnp, need) : 0;
       // In the MOSFET gate driver the class serves the gate-drive pair's source follower and the
@@ -433,16 +515,18 @@ export function chooseDevicesWithReasons(
         .filter((d) => chain !== "mosfet-driver" || GATE_DRIVE_PACKAGES.has(d.package));
       const picked = pickDriver(usable, out.power_npn as BjtClass, need);
       out[role] = checkFamily(role, picked ?? usable[usable.length - 1] ?? last, "default");
-      reasons[role] = picked
-        ? `highest minimum gain among ${usable.map((d) => d.id).join(", ")} whose ratings fit this drive`
-        : `none of ${present.map((d) => d.id).join(", ")} fits this drive with selection headroom: ` +
-          "the largest is taken";
+      reasons[role] = tell(
+        picked
+          ? `highest minimum gain among ${usable.map((d) => d.id).join(", ")} whose ratings fit this drive`
+          : `none of ${present.map((d) => d.id).join(", ")} fits this drive with selection headroom: ` +
+              "the largest is taken",
+      );
       continue;
     }
     if (role === "driver_pnp") {
       const half = pnpHalf(present.filter(isBjt), out.driver_npn as BjtClass);
       out[role] = checkFamily(role, half.d ?? last, "default");
-      reasons[role] = half.reason;
+      reasons[role] = tell(half.reason);
       continue;
     }
     const skipped: string[] = [];
@@ -457,15 +541,18 @@ export function chooseDevicesWithReasons(
     }
     // None fits: take the largest, and let the engine's stress checks say why it is not enough.
     out[role] = checkFamily(role, picked ?? last, "default");
-    reasons[role] =
+    reasons[role] = tell(
       (picked
-        ? !RULED_ROLES.has(role)
-          ? PREFERRED_REASON
-          : present.length > 1
-            ? `first of ${present.map((d) => d.id).join(", ")} that clears this variant`
-            : "the one class for this role"
+        ? raised !== undefined && (!RULED_ROLES.has(role) || present.length === 1)
+          ? "the smallest class of raised rating that clears this variant"
+          : !RULED_ROLES.has(role)
+            ? PREFERRED_REASON
+            : present.length > 1
+              ? `first of ${present.map((d) => d.id).join(", ")} that clears this variant`
+              : "the one class for this role"
         : "no class clears this variant with selection headroom: the largest is taken and the checks say why") +
-      (skipped.length ? ` (passed over: ${skipped.join("; ")})` : "");
+        (skipped.length ? ` (passed over: ${skipped.join("; ")})` : ""),
+    );
   }
   // Keys in the contract's role order (stable output).
   return {

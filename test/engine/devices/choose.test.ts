@@ -1,5 +1,10 @@
 import { describe, expect, it } from "vitest";
-import { DEFAULT_DEVICE_IDS, chooseDevices, chooseDevicesWithReasons } from "../../../src/engine/devices/choose.ts";
+import {
+  DEFAULT_DEVICE_IDS,
+  RAISED_DEVICE_IDS,
+  chooseDevices,
+  chooseDevicesWithReasons,
+} from "../../../src/engine/devices/choose.ts";
 import type { BjtClass, MosfetClass } from "../../../src/model/device.ts";
 import { DEVICE_ROLES, type DesignRecord } from "../../../src/model/design.ts";
 import { EngineMisuseError } from "../../../src/model/errors.ts";
@@ -167,5 +172,56 @@ describe("chooseDevices: a MOSFET's pulse rating against the start-up peak (abso
     const { reasons } = chooseDevicesWithReasons(r, lib2, 24, 4, "mosfet-logic");
     expect(reasons.mosfet_logic).toContain("pulse rating 10.0 A is below the 17.6 A start-up peak");
     expect(chooseDevicesWithReasons(r, lib, 24, 4, "mosfet-logic").reasons.mosfet_logic).not.toContain("pulse");
+  });
+});
+
+/** A coverage-style test record (not demo data): one chain, one load kind, 1 kHz, 20–80 %, 0–40 °C. */
+function need(chain: DesignRecord["axes"]["chain"][number], supply_V: number): DesignRecord {
+  return {
+    id: "stress-test",
+    title: "Stress test",
+    summary: "test record",
+    axes: { supply_V: [supply_V], load_A: [1], chain: [chain], load_kind: ["led"] },
+    targets: { pwm_Hz: 1000, duty_min: 0.2, duty_max: 0.8, ambient_C: [0, 40], supply_tolerance: 0.1 },
+  };
+}
+
+describe("chooseDevices: classes of raised rating, only where the ordinary ones cannot serve", () => {
+  // The default policy's shares (docs/derating.md): transistor V_CE ≤ 75 % [src:nasa-eee-inst-002],
+  // MOSFET V_DS ≤ 60 % [src:mil-dtl-917]; the supply window 36 V ± 10 % (record tolerance).
+  it("at 36 V (39.6 V at the top) the 45 V timing class is passed over for the 120 V high-gain one (45·0.75 = 33.75 V)", () => {
+    const { devices, reasons } = chooseDevicesWithReasons(need("mosfet-logic", 36), lib, 36, 1, "mosfet-logic");
+    expect(devices.timing_npn.id).toBe("npn-small-signal-hv-high-gain");
+    expect(reasons.timing_npn).toContain("npn-small-signal-high-gain: V_CEO 45.0 V × 75 % is below the 39.6 V");
+    // 60 V · 0.6 = 36 V < 39.6 V: the 100 V logic class (100 · 0.6 = 60 V).
+    expect(devices.mosfet_logic.id).toBe("nmos-logic-100v");
+    expect(reasons.mosfet_logic).toContain("nmos-logic: V_DS 60.0 V × 60 % is below 39.6 V");
+  });
+  it("at 48 V (52.8 V) the power stages take the 100 V grade (60·0.75 = 45 V < 52.8 V)", () => {
+    const d = chooseDevices(need("bjt-driver-pnp", 48), lib, 48, 1, "bjt-driver-pnp");
+    expect(d.power_pnp.id).toBe("pnp-power-to220-100v");
+    expect((d.timing_npn as BjtClass).vceo_V * 0.75).toBeGreaterThanOrEqual(52.8);
+    expect((d.driver_npn as BjtClass).vceo_V * 0.75).toBeGreaterThanOrEqual(52.8);
+    expect(chooseDevices(need("mosfet-driver", 48), lib, 48, 1, "mosfet-driver").mosfet_standard.id).toBe(
+      "nmos-standard-100v",
+    );
+  });
+  it("at 5 V the logic class rated at V_GS 4.5 V cannot be reached (4.5 V · 0.95/1.05 = 4.07 V): the 2.5 V-rated one", () => {
+    const { devices, reasons } = chooseDevicesWithReasons(need("mosfet-logic", 5), lib, 5, 0.5, "mosfet-logic");
+    expect(devices.mosfet_logic.id).toBe("nmos-logic-2v5");
+    expect(Math.min(...(devices.mosfet_logic as MosfetClass).rds_on.map((p) => p.vgs_V))).toBe(2.5);
+    expect(reasons.mosfet_logic).toContain("rated at V_GS 4.50 V, above the 4.07 V the gate can reach");
+  });
+  it("at 12 and 24 V, and at 6 V where the 4.5 V class is still reachable, every role keeps an ordinary class", () => {
+    for (const [v, chain] of [
+      [12, "mosfet-logic"],
+      [24, "bjt-driver-pnp"],
+      [24, "mosfet-driver"],
+      [6, "mosfet-logic"],
+    ] as const) {
+      const d = chooseDevices(need(chain, v), lib, v, 1, chain);
+      for (const role of DEVICE_ROLES)
+        expect(RAISED_DEVICE_IDS[role] ?? [], `${v} V ${role}`).not.toContain(d[role].id);
+    }
   });
 });
