@@ -106,6 +106,31 @@ const ZENER_RAIL_CURRENT_A = 0.012;
 const ZENER_POWER_HEADROOM = 0.5;
 /** Standard-recovery rectifiers only up to this PWM frequency (recovery of several µs). */
 const STANDARD_RECOVERY_MAX_Hz = 1000;
+/**
+ * …and only up to this product of PWM frequency and the top of the supply window, V·Hz: the
+ * recovery loss the switch takes at turn-on grows as Q_rr·V·f, and the 1 kHz limit was simulated
+ * up to ≈ 30 V (the demo's 24 V lead-acid window). A 48 V fan at 1 kHz on the 1 A rectifier ran its
+ * switch at 0.09–0.12 W in simulation against a predicted 0.084 W at most; on the 3 A fast
+ * rectifier it agreed (derived from that build; the engine does not yet model the recovery charge).
+ */
+const STANDARD_RECOVERY_MAX_VHz = 33 * STANDARD_RECOVERY_MAX_Hz;
+
+/**
+ * The gate rail's current for choosing its zener when the gate driver is a raised-rating class, A:
+ * ZENER_RAIL_CURRENT_A (derived with the ordinary driver classes), or more when that driver's
+ * pull-up draws more than the ≈ 2 mA the constant allows for. The pull-up is at least
+ * R_G·β_HI (mosfet-driver.ts: R_G keeps the follower's peak within its I_C,max, so a larger class
+ * gets a smaller R_G and pull-up), and draws the rail's top over it (derived from that sizing).
+ */
+function gateRailCurrent_A(d: ZenerClass, drv: BjtClass, n: Need): number {
+  const vzMax = d.vz_V * (1 + d.vz_tolerance);
+  const rG_ohm = Math.max(10, (vzMax - drv.vbe_on_V) / drv.ic_max_A);
+  const rP_ohm = Math.min(GATE_PULLUP_MAX_OHM, rG_ohm * hfeMin(drv, vzMax / rG_ohm, n.ambientMin_C));
+  return Math.max(ZENER_RAIL_CURRENT_A, ZENER_RAIL_CURRENT_A - GATE_PULLUP_ALLOWED_A + vzMax / rP_ohm);
+}
+/** The pull-up current ZENER_RAIL_CURRENT_A allows for, A, and the pull-up's cap (mosfet-driver.ts). */
+const GATE_PULLUP_ALLOWED_A = 0.002;
+const GATE_PULLUP_MAX_OHM = 10_000;
 
 /**
  * Driver current per ampere of load when it drives a power PNP (bjt-driver-pnp): the PNP's base
@@ -127,6 +152,8 @@ const DARLINGTON_DRIVER_FACTOR = 1.3;
 const DARLINGTON_DRIVE_SAT_V = 0.3;
 
 interface Need {
+  /** The gate driver's NPN class once chosen (the gate-rail zener's pull-up current follows it). */
+  driver?: BjtClass;
   vMin_V: number;
   vMax_V: number;
   supply_V: number;
@@ -223,7 +250,8 @@ function whyNot(role: DeviceRole, d: DeviceClass, n: Need): string | null {
       ? `pulse rating ${f3(d.idm_A ?? d.id_A)} A is below the ${f3(n.peak_A)} A start-up peak`
       : null;
   }
-  if (isZener(d) && role === "gate_zener") return zenerWhyNot(d, n);
+  if (isZener(d) && role === "gate_zener")
+    return zenerWhyNot(d, n, n.driver === undefined ? ZENER_RAIL_CURRENT_A : gateRailCurrent_A(d, n.driver, n));
   if (isDiode(d)) return diodeWhyNot(role, d, n);
   return null;
 }
@@ -234,6 +262,11 @@ function diodeWhyNot(role: DeviceRole, d: DiodeClass, n: Need): string | null {
   if (role === "freewheel_diode") {
     if (d.recovery === "standard" && n.pwm_Hz > STANDARD_RECOVERY_MAX_Hz)
       return `standard recovery is too slow above ${STANDARD_RECOVERY_MAX_Hz} Hz PWM`;
+    if (d.recovery === "standard" && n.pwm_Hz * vMax > STANDARD_RECOVERY_MAX_VHz)
+      return (
+        `standard recovery at ${f3(vMax)} V and ${f3(n.pwm_Hz)} Hz exceeds the ` +
+        `${STANDARD_RECOVERY_MAX_VHz / 1000} kV/s (V·f) its recovery loss has been verified for`
+      );
     if (d.if_avg_A * DIODE_CURRENT_HEADROOM < freewheelCurrent_A(n))
       return `I_F(AV) ${f3(d.if_avg_A)} A × 50 % is below the ${f3(freewheelCurrent_A(n))} A it carries`;
     return d.vrrm_V * DIODE_VOLTAGE_HEADROOM >= vMax ? null : `V_RRM ${f3(d.vrrm_V)} V × 70 % is below ${f3(vMax)} V`;
@@ -274,7 +307,11 @@ function freewheelCurrent_A(n: Need): number {
  * factor). A lower zener costs gate drive (the engine shows R_DS(on) at the gate voltage reached),
  * so the list runs from the highest rail down.
  */
-export function zenerWhyNot(d: ZenerClass, n: Pick<Need, "vMin_V" | "vMax_V">): string | null {
+export function zenerWhyNot(
+  d: ZenerClass,
+  n: Pick<Need, "vMin_V" | "vMax_V">,
+  railCurrent_A = ZENER_RAIL_CURRENT_A,
+): string | null {
   const vzMax = d.vz_V * (1 + d.vz_tolerance);
   const feed_V = n.vMin_V - vzMax;
   if (feed_V < ZENER_FEED_MIN_V)
@@ -282,7 +319,7 @@ export function zenerWhyNot(d: ZenerClass, n: Pick<Need, "vMin_V" | "vMax_V">): 
       `only ${f3(Math.max(0, feed_V))} V is left across its feed resistor at ${f3(n.vMin_V)} V ` +
       `(needs ≥ ${ZENER_FEED_MIN_V} V)`
     );
-  const rZ_ohm = feed_V / ZENER_RAIL_CURRENT_A;
+  const rZ_ohm = feed_V / railCurrent_A;
   const p_W = (vzMax * (n.vMax_V - d.vz_V * (1 - d.vz_tolerance))) / rZ_ohm;
   return p_W <= d.pz_W * ZENER_POWER_HEADROOM
     ? null
@@ -485,10 +522,12 @@ export function chooseDevicesWithReasons(
   const reasons = {} as Record<DeviceRole, string>;
   // The driver is judged against the power stage it drives, so the power stage is chosen first; the
   // gate driver's PNP half is matched to its NPN half, so it comes last.
+  // The gate-rail zener feeds the gate driver's pull-up, so it follows the drivers.
   const order = [
-    ...DEVICE_ROLES.filter((r) => r !== "driver_npn" && r !== "driver_pnp"),
+    ...DEVICE_ROLES.filter((r) => r !== "driver_npn" && r !== "driver_pnp" && r !== "gate_zener"),
     "driver_npn" as const,
     "driver_pnp" as const,
+    "gate_zener" as const,
   ];
   for (const role of order) {
     const bound = record.devices?.[role];
@@ -515,6 +554,9 @@ export function chooseDevicesWithReasons(
         .filter((d) => chain !== "mosfet-driver" || GATE_DRIVE_PACKAGES.has(d.package));
       const picked = pickDriver(usable, out.power_npn as BjtClass, need);
       out[role] = checkFamily(role, picked ?? usable[usable.length - 1] ?? last, "default");
+      // ZENER_RAIL_CURRENT_A was derived with the ordinary driver classes; a raised one is counted.
+      if (chain === "mosfet-driver" && raised !== undefined && !ordinary.includes(out[role]))
+        need.driver = out[role] as BjtClass;
       reasons[role] = tell(
         picked
           ? `highest minimum gain among ${usable.map((d) => d.id).join(", ")} whose ratings fit this drive`

@@ -109,9 +109,12 @@ describe("chooseDevices: defaults by current and voltage", () => {
   // Gate-rail zener (mosfet-driver), hand arithmetic with a 12 mA rail and ≥ 1 V across its feed resistor
   // (ours), dissipation V_Z,max·(V_max − V_Z,min)/R_Z within half the rating (the policy's zener factor):
   it.each([
-    // 48 V ± 10 % (43.2–52.8 V): R_Z = (43.2 − 12.6)/0.012 = 2550 Ω; I = (52.8 − 11.4)/2550 = 16.2 mA;
-    // P = 12.6 × 0.0162 = 0.205 W ≤ 0.25 W → the 0.5 W part.
-    [48, undefined, "zener-12v-0w5"],
+    // 48 V ± 10 % (43.2–52.8 V) with the raised 80 V 0.5 A gate-driver NPN: R_G = (12.6 − 0.65)/0.5 =
+    // 23.9 Ω, β_min(0.53 A, −10 °C) = 27.9, R_P ≥ R_G·β = 667 Ω draws 18.9 mA: rail 12 − 2 + 18.9 = 28.9 mA;
+    // R_Z = (43.2 − 12.6)/0.0289 = 1059 Ω; I = (52.8 − 11.4)/1059 = 39.1 mA; P = 12.6 × 0.0391 = 0.49 W:
+    // over 0.25 W, within 0.5 W → 12 V 1 W (with the 12 mA constant it took the 0.5 W part, which the
+    // engine then found at 69–75 % of its rating at 36–48 V).
+    [48, undefined, "zener-12v-1w"],
     // 24 V lead-acid (21.0–29.4 V): R_Z = 700 Ω, I = 25.7 mA, P = 0.324 W > 0.25 W, ≤ 0.5 W → 12 V 1 W.
     [24, "lead-acid", "zener-12v-1w"],
     // 13.8 V ± 10 % (12.42–15.18 V): 12 V leaves no feed; 10 V: R_Z = 1.92/0.012 = 160 Ω,
@@ -211,6 +214,17 @@ describe("chooseDevices: classes of raised rating, only where the ordinary ones 
     expect(devices.mosfet_logic.id).toBe("nmos-logic-2v5");
     expect(Math.min(...(devices.mosfet_logic as MosfetClass).rds_on.map((p) => p.vgs_V))).toBe(2.5);
     expect(reasons.mosfet_logic).toContain("rated at V_GS 4.50 V, above the 4.07 V the gate can reach");
+  });
+  it("a standard-recovery freewheel rectifier is passed over at 48 V and 1 kHz (52.8 V · 1 kHz over 33 kV/s), kept at 24 V", () => {
+    // Recovery loss ∝ Q_rr·V·f (common practice); the 33 kV/s limit is ours (choose.ts).
+    const fan = (v: number): DesignRecord => ({
+      ...need("mosfet-driver", v),
+      axes: { ...need("mosfet-driver", v).axes, load_kind: ["motor"] },
+    });
+    const at48 = chooseDevicesWithReasons(fan(48), lib, 48, 0.5, "mosfet-driver");
+    expect(at48.devices.freewheel_diode.id).toBe("diode-fast-3a");
+    expect(at48.reasons.freewheel_diode).toContain("diode-rectifier-1a: standard recovery at 52.8 V and 1.00e+3 Hz");
+    expect(chooseDevices(fan(24), lib, 24, 0.5, "mosfet-driver").freewheel_diode.id).toBe("diode-rectifier-1a");
   });
   it("at 12 and 24 V, and at 6 V where the 4.5 V class is still reachable, every role keeps an ordinary class", () => {
     for (const [v, chain] of [
