@@ -7,10 +7,11 @@
 import type { DesignRecord, DeviceRole } from "../../model/design.ts";
 import type { ChainKind } from "../../model/kinds.ts";
 import { DEVICE_ROLES, ROLE_FAMILY } from "../../model/design.ts";
-import type { BjtClass, DeviceClass, DeviceLibrary, DiodeClass, ZenerClass } from "../../model/device.ts";
+import type { BjtClass, DeviceClass, DeviceLibrary, DiodeClass, MosfetClass, ZenerClass } from "../../model/device.ts";
 import { EngineMisuseError } from "../../model/errors.ts";
 import { hfeMin, vbeSat, vceSat } from "../shared/gain.ts";
 import { specVgs_V } from "../shared/rdson.ts";
+import { plateau_V } from "../shared/gate-charge.ts";
 import { getDevice, isBjt, isDiode, isMosfet, isZener } from "./library.ts";
 import { supplyWindow } from "../shared/supply.ts";
 import { diodeSurgeI2t_A2s } from "../shared/fuse.ts";
@@ -118,14 +119,18 @@ const STANDARD_RECOVERY_MAX_VHz = 33 * STANDARD_RECOVERY_MAX_Hz;
 /**
  * The gate rail's current for choosing its zener when the gate driver is a raised-rating class, A:
  * ZENER_RAIL_CURRENT_A (derived with the ordinary driver classes), or more when that driver's
- * pull-up draws more than the ≈ 2 mA the constant allows for. The pull-up is at least
- * R_G·β_HI (mosfet-driver.ts: R_G keeps the follower's peak within its I_C,max, so a larger class
- * gets a smaller R_G and pull-up), and draws the rail's top over it (derived from that sizing).
+ * pull-up draws more than the ≈ 2 mA the constant allows for. As mosfet-driver.ts sizes it: R_G keeps
+ * the follower's peak within its I_C,max (a larger class gets a smaller R_G), and the pull-up R_P =
+ * β·max(R_G, the budget that moves Q_G in 1 % of the period), at most 10 kΩ; it draws the rail's top.
+ * V_BE is taken 0.1 V above the class's V_BE(on) for the cold corner (derived, conservative).
  */
-function gateRailCurrent_A(d: ZenerClass, drv: BjtClass, n: Need): number {
+function gateRailCurrent_A(d: ZenerClass, drv: BjtClass, mos: MosfetClass, n: Need): number {
   const vzMax = d.vz_V * (1 + d.vz_tolerance);
+  const vgsMin = d.vz_V * (1 - d.vz_tolerance) - (drv.vbe_on_V + 0.1);
   const rG_ohm = Math.max(10, (vzMax - drv.vbe_on_V) / drv.ic_max_A);
-  const rP_ohm = Math.min(GATE_PULLUP_MAX_OHM, rG_ohm * hfeMin(drv, vzMax / rG_ohm, n.ambientMin_C));
+  const budget_ohm = (0.01 * (vgsMin - plateau_V(mos))) / (n.pwm_Hz * mos.qg_C) - rG_ohm;
+  const beta = hfeMin(drv, vzMax / rG_ohm, n.ambientMin_C);
+  const rP_ohm = Math.min(GATE_PULLUP_MAX_OHM, beta * Math.max(rG_ohm, budget_ohm));
   return Math.max(ZENER_RAIL_CURRENT_A, ZENER_RAIL_CURRENT_A - GATE_PULLUP_ALLOWED_A + vzMax / rP_ohm);
 }
 /** The pull-up current ZENER_RAIL_CURRENT_A allows for, A, and the pull-up's cap (mosfet-driver.ts). */
@@ -153,7 +158,7 @@ const DARLINGTON_DRIVE_SAT_V = 0.3;
 
 interface Need {
   /** The gate driver's NPN class once chosen (the gate-rail zener's pull-up current follows it). */
-  driver?: BjtClass;
+  driver?: { npn: BjtClass; mos: MosfetClass };
   vMin_V: number;
   vMax_V: number;
   supply_V: number;
@@ -251,7 +256,11 @@ function whyNot(role: DeviceRole, d: DeviceClass, n: Need): string | null {
       : null;
   }
   if (isZener(d) && role === "gate_zener")
-    return zenerWhyNot(d, n, n.driver === undefined ? ZENER_RAIL_CURRENT_A : gateRailCurrent_A(d, n.driver, n));
+    return zenerWhyNot(
+      d,
+      n,
+      n.driver === undefined ? ZENER_RAIL_CURRENT_A : gateRailCurrent_A(d, n.driver.npn, n.driver.mos, n),
+    );
   if (isDiode(d)) return diodeWhyNot(role, d, n);
   return null;
 }
@@ -556,7 +565,7 @@ export function chooseDevicesWithReasons(
       out[role] = checkFamily(role, picked ?? usable[usable.length - 1] ?? last, "default");
       // ZENER_RAIL_CURRENT_A was derived with the ordinary driver classes; a raised one is counted.
       if (chain === "mosfet-driver" && raised !== undefined && !ordinary.includes(out[role]))
-        need.driver = out[role] as BjtClass;
+        need.driver = { npn: out[role] as BjtClass, mos: out.mosfet_standard as MosfetClass };
       reasons[role] = tell(
         picked
           ? `highest minimum gain among ${usable.map((d) => d.id).join(", ")} whose ratings fit this drive`

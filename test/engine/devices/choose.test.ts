@@ -109,11 +109,12 @@ describe("chooseDevices: defaults by current and voltage", () => {
   // Gate-rail zener (mosfet-driver), hand arithmetic with a 12 mA rail and ≥ 1 V across its feed resistor
   // (ours), dissipation V_Z,max·(V_max − V_Z,min)/R_Z within half the rating (the policy's zener factor):
   it.each([
-    // 48 V ± 10 % (43.2–52.8 V) with the raised 80 V 0.5 A gate-driver NPN: R_G = (12.6 − 0.65)/0.5 =
-    // 23.9 Ω, β_min(0.53 A, −10 °C) = 27.9, R_P ≥ R_G·β = 667 Ω draws 18.9 mA: rail 12 − 2 + 18.9 = 28.9 mA;
-    // R_Z = (43.2 − 12.6)/0.0289 = 1059 Ω; I = (52.8 − 11.4)/1059 = 39.1 mA; P = 12.6 × 0.0391 = 0.49 W:
-    // over 0.25 W, within 0.5 W → 12 V 1 W (with the 12 mA constant it took the 0.5 W part, which the
-    // engine then found at 69–75 % of its rating at 36–48 V).
+    // 48 V ± 10 % (43.2–52.8 V) with the raised 80 V 0.5 A gate-driver NPN and the 100 V MOSFET
+    // (Q_G 45 nC, plateau 4 V) at 20 kHz: R_G = (12.6 − 0.65)/0.5 = 23.9 Ω; the 1 % budget
+    // 0.01·(11.4 − 0.75 − 4)/(20 kHz · 45 nC) − 23.9 = 50 Ω; β_min(0.53 A, −10 °C) = 27.9, R_P = 1395 Ω
+    // draws 9.0 mA: rail 12 − 2 + 9.0 = 19.0 mA; R_Z = (43.2 − 12.6)/0.019 = 1611 Ω;
+    // I = (52.8 − 11.4)/1611 = 25.7 mA; P = 12.6 × 0.0257 = 0.324 W: over 0.25 W, within 0.5 W → 12 V 1 W
+    // (the 12 mA constant took the 0.5 W part, which the engine then found at 69–75 % of its rating).
     [48, undefined, "zener-12v-1w"],
     // 24 V lead-acid (21.0–29.4 V): R_Z = 700 Ω, I = 25.7 mA, P = 0.324 W > 0.25 W, ≤ 0.5 W → 12 V 1 W.
     [24, "lead-acid", "zener-12v-1w"],
