@@ -443,6 +443,40 @@ function candidates(
   };
 }
 
+/** The first of `present` that clears the variant for the role, with every class passed over and why. */
+function firstClearing(
+  role: DeviceRole,
+  present: DeviceClass[],
+  n: Need,
+): { picked: DeviceClass | undefined; skipped: string[] } {
+  const skipped: string[] = [];
+  for (const d of present) {
+    const why = whyNot(role, d, n);
+    if (why === null) return { picked: d, skipped };
+    skipped.push(`${d.id}: ${why}`);
+  }
+  return { picked: undefined, skipped };
+}
+
+/** The reason shown for a first-clearing choice (`raised`: the candidates are the raised classes). */
+function firstReason(
+  role: DeviceRole,
+  present: DeviceClass[],
+  first: { picked: DeviceClass | undefined; skipped: string[] },
+  raised: boolean,
+): string {
+  const why = first.picked
+    ? raised && (!RULED_ROLES.has(role) || present.length === 1)
+      ? "the smallest class of raised rating that clears this variant"
+      : !RULED_ROLES.has(role)
+        ? PREFERRED_REASON
+        : present.length > 1
+          ? `first of ${present.map((d) => d.id).join(", ")} that clears this variant`
+          : "the one class for this role"
+    : "no class clears this variant with selection headroom: the largest is taken and the checks say why";
+  return why + (first.skipped.length ? ` (passed over: ${first.skipped.join("; ")})` : "");
+}
+
 function checkFamily(role: DeviceRole, d: DeviceClass, how: string): DeviceClass {
   if (d.family !== ROLE_FAMILY[role]) {
     throw new EngineMisuseError(
@@ -580,30 +614,10 @@ export function chooseDevicesWithReasons(
       reasons[role] = tell(half.reason);
       continue;
     }
-    const skipped: string[] = [];
-    let picked: DeviceClass | undefined;
-    for (const d of present) {
-      const why = whyNot(role, d, need);
-      if (why === null) {
-        picked = d;
-        break;
-      }
-      skipped.push(`${d.id}: ${why}`);
-    }
+    const first = firstClearing(role, present, need);
     // None fits: take the largest, and let the engine's stress checks say why it is not enough.
-    out[role] = checkFamily(role, picked ?? last, "default");
-    reasons[role] = tell(
-      (picked
-        ? raised !== undefined && (!RULED_ROLES.has(role) || present.length === 1)
-          ? "the smallest class of raised rating that clears this variant"
-          : !RULED_ROLES.has(role)
-            ? PREFERRED_REASON
-            : present.length > 1
-              ? `first of ${present.map((d) => d.id).join(", ")} that clears this variant`
-              : "the one class for this role"
-        : "no class clears this variant with selection headroom: the largest is taken and the checks say why") +
-        (skipped.length ? ` (passed over: ${skipped.join("; ")})` : ""),
-    );
+    out[role] = checkFamily(role, first.picked ?? last, "default");
+    reasons[role] = tell(firstReason(role, present, first, raised !== undefined));
   }
   // Keys in the contract's role order (stable output).
   return {

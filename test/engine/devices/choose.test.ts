@@ -193,7 +193,7 @@ function need(chain: DesignRecord["axes"]["chain"][number], supply_V: number): D
 describe("chooseDevices: classes of raised rating, only where the ordinary ones cannot serve", () => {
   // The default policy's shares (docs/derating.md): transistor V_CE ≤ 75 % [src:nasa-eee-inst-002],
   // MOSFET V_DS ≤ 60 % [src:mil-dtl-917]; the supply window 36 V ± 10 % (record tolerance).
-  it("at 36 V (39.6 V at the top) the 45 V timing class is passed over for the 120 V high-gain one (45·0.75 = 33.75 V)", () => {
+  it("at 36 V (39.6 V at the top) the 45 V timing class (45·0.75 = 33.75 V) gives way to the 120 V one", () => {
     const { devices, reasons } = chooseDevicesWithReasons(need("mosfet-logic", 36), lib, 36, 1, "mosfet-logic");
     expect(devices.timing_npn.id).toBe("npn-small-signal-hv-high-gain");
     expect(reasons.timing_npn).toContain("npn-small-signal-high-gain: V_CEO 45.0 V × 75 % is below the 39.6 V");
@@ -210,13 +210,13 @@ describe("chooseDevices: classes of raised rating, only where the ordinary ones 
       "nmos-standard-100v",
     );
   });
-  it("at 5 V the logic class rated at V_GS 4.5 V cannot be reached (4.5 V · 0.95/1.05 = 4.07 V): the 2.5 V-rated one", () => {
+  it("at 5 V a V_GS 4.5 V rating is out of reach (4.5 V · 0.95/1.05 = 4.07 V): the 2.5 V-rated class", () => {
     const { devices, reasons } = chooseDevicesWithReasons(need("mosfet-logic", 5), lib, 5, 0.5, "mosfet-logic");
     expect(devices.mosfet_logic.id).toBe("nmos-logic-2v5");
     expect(Math.min(...(devices.mosfet_logic as MosfetClass).rds_on.map((p) => p.vgs_V))).toBe(2.5);
     expect(reasons.mosfet_logic).toContain("rated at V_GS 4.50 V, above the 4.07 V the gate can reach");
   });
-  it("a standard-recovery freewheel rectifier is passed over at 48 V and 1 kHz (52.8 V · 1 kHz over 33 kV/s), kept at 24 V", () => {
+  it("no standard-recovery freewheel rectifier at 48 V, 1 kHz (52.8 V · 1 kHz > 33 kV/s); kept at 24 V", () => {
     // Recovery loss ∝ Q_rr·V·f (common practice); the 33 kV/s limit is ours (choose.ts).
     const fan = (v: number): DesignRecord => ({
       ...need("mosfet-driver", v),
