@@ -7,7 +7,7 @@
  */
 import { DEVICE_ROLES, ROLE_FAMILY } from "../model/design.ts";
 import type { BjtClass, DeviceClass, MosfetClass } from "../model/device.ts";
-import { DEFAULT_DEVICE_IDS } from "../engine/devices/choose.ts";
+import { DEFAULT_DEVICE_IDS, RAISED_DEVICE_IDS } from "../engine/devices/choose.ts";
 import { spiceModel, type SpiceModelOptions } from "../render/spice-models.ts";
 import type { LoadedDesign, LoadedDevice } from "./cross.ts";
 import type { RecordIssue } from "./issue.ts";
@@ -247,7 +247,7 @@ export function checkDefaults(
   const out: RecordIssue[] = [];
   const byId = new Map(devices.map((d) => [d.device.id, d]));
   for (const role of DEVICE_ROLES) {
-    for (const id of DEFAULT_DEVICE_IDS[role]) {
+    for (const id of [...DEFAULT_DEVICE_IDS[role], ...(RAISED_DEVICE_IDS[role] ?? [])]) {
       const d = byId.get(id);
       if (d && d.device.family !== ROLE_FAMILY[role]) {
         reporter(d, out)(

@@ -7,9 +7,11 @@
 import type { DesignRecord, DeviceRole } from "../../model/design.ts";
 import type { ChainKind } from "../../model/kinds.ts";
 import { DEVICE_ROLES, ROLE_FAMILY } from "../../model/design.ts";
-import type { BjtClass, DeviceClass, DeviceLibrary, DiodeClass, ZenerClass } from "../../model/device.ts";
+import type { BjtClass, DeviceClass, DeviceLibrary, DiodeClass, MosfetClass, ZenerClass } from "../../model/device.ts";
 import { EngineMisuseError } from "../../model/errors.ts";
 import { hfeMin, vbeSat, vceSat } from "../shared/gain.ts";
+import { specVgs_V } from "../shared/rdson.ts";
+import { plateau_V } from "../shared/gate-charge.ts";
 import { getDevice, isBjt, isDiode, isMosfet, isZener } from "./library.ts";
 import { supplyWindow } from "../shared/supply.ts";
 import { diodeSurgeI2t_A2s } from "../shared/fuse.ts";
@@ -43,6 +45,24 @@ export const DEFAULT_DEVICE_IDS: Readonly<Record<DeviceRole, readonly string[]>>
   gate_zener: ["zener-12v-0w5", "zener-12v-1w", "zener-10v-1w", "zener-8v2-1w"],
 };
 
+/**
+ * Classes of raised ratings (80 V small-signal transistors, 100 V MOSFETs, a MOSFET rated at V_GS
+ * 2.5 V), listed after the ordinary ones and offered only when no ordinary class of the role clears
+ * the variant's voltage or gate drive (`stressWhyNot`): a variant the ordinary classes serve keeps
+ * them, and the raised class is the smallest that passes, recorded on the page as a design decision.
+ */
+export const RAISED_DEVICE_IDS: Readonly<Partial<Record<DeviceRole, readonly string[]>>> = {
+  // The timing core wants gain (its base resistors set the timing): the high-gain class first.
+  timing_npn: ["npn-small-signal-hv-high-gain", "npn-small-signal-hv"],
+  driver_npn: ["npn-small-signal-hv-high-gain", "npn-small-signal-hv", "npn-power-to220-100v"],
+  driver_pnp: ["pnp-small-signal-hv"],
+  power_npn: ["npn-small-signal-hv", "npn-power-to220-100v"],
+  power_pnp: ["pnp-small-signal-hv", "pnp-power-to220-100v"],
+  // 100 V first at a high supply; the 2.5 V-rated class at a low one (its 20 V rating rules it out above).
+  mosfet_logic: ["nmos-logic-100v", "nmos-logic-2v5"],
+  mosfet_standard: ["nmos-standard-100v"],
+};
+
 /** Family each role needs: the shared table (src/model/design.ts). */
 export { ROLE_FAMILY } from "../../model/design.ts";
 
@@ -56,6 +76,19 @@ const GATE_DRIVE_PACKAGES: ReadonlySet<string> = new Set(["TO-92", "TO-18"]);
 
 /** Selection headroom (common practice), separate from and looser than the derating policy. */
 const SWITCH_HEADROOM = 0.75;
+/**
+ * Voltage shares a class must keep to for the raised classes to be passed over (`stressWhyNot`): the
+ * default policy's factors (transistor V_CE 75 %, MOSFET V_DS 60 %; docs/derating.md). The chooser has
+ * no policy; the engine's stress checks apply the record's.
+ */
+const BJT_VOLTAGE_SHARE = 0.75;
+const MOSFET_VOLTAGE_SHARE = 0.6;
+/**
+ * The most of V_cc,min a gate fed from the timing collector can reach: the divider R_C + R_G over
+ * R_GS never passes V_cc,min less its resistors' tolerance, 0.95/1.05 at 5 % (tap.ts sizes it;
+ * derived). A logic class rated at a higher V_GS cannot be driven at all.
+ */
+const GATE_REACH_SHARE = 0.95 / 1.05;
 const DIODE_CURRENT_HEADROOM = 0.5;
 const DIODE_VOLTAGE_HEADROOM = 0.7;
 /**
@@ -74,6 +107,35 @@ const ZENER_RAIL_CURRENT_A = 0.012;
 const ZENER_POWER_HEADROOM = 0.5;
 /** Standard-recovery rectifiers only up to this PWM frequency (recovery of several µs). */
 const STANDARD_RECOVERY_MAX_Hz = 1000;
+/**
+ * …and only up to this product of PWM frequency and the top of the supply window, V·Hz: the
+ * recovery loss the switch takes at turn-on grows as Q_rr·V·f, and the 1 kHz limit was simulated
+ * up to ≈ 30 V (the demo's 24 V lead-acid window). A 48 V fan at 1 kHz on the 1 A rectifier ran its
+ * switch at 0.09–0.12 W in simulation against a predicted 0.084 W at most; on the 3 A fast
+ * rectifier it agreed (derived from that build; the engine does not yet model the recovery charge).
+ */
+const STANDARD_RECOVERY_MAX_VHz = 33 * STANDARD_RECOVERY_MAX_Hz;
+
+/**
+ * The gate rail's current for choosing its zener when the gate driver is a raised-rating class, A:
+ * ZENER_RAIL_CURRENT_A (derived with the ordinary driver classes), or more when that driver's
+ * pull-up draws more than the ≈ 2 mA the constant allows for. As mosfet-driver.ts sizes it: R_G keeps
+ * the follower's peak within its I_C,max (a larger class gets a smaller R_G), and the pull-up R_P =
+ * β·max(R_G, the budget that moves Q_G in 1 % of the period), at most 10 kΩ; it draws the rail's top.
+ * V_BE is taken 0.1 V above the class's V_BE(on) for the cold corner (derived, conservative).
+ */
+function gateRailCurrent_A(d: ZenerClass, drv: BjtClass, mos: MosfetClass, n: Need): number {
+  const vzMax = d.vz_V * (1 + d.vz_tolerance);
+  const vgsMin = d.vz_V * (1 - d.vz_tolerance) - (drv.vbe_on_V + 0.1);
+  const rG_ohm = Math.max(10, (vzMax - drv.vbe_on_V) / drv.ic_max_A);
+  const budget_ohm = (0.01 * (vgsMin - plateau_V(mos))) / (n.pwm_Hz * mos.qg_C) - rG_ohm;
+  const beta = hfeMin(drv, vzMax / rG_ohm, n.ambientMin_C);
+  const rP_ohm = Math.min(GATE_PULLUP_MAX_OHM, beta * Math.max(rG_ohm, budget_ohm));
+  return Math.max(ZENER_RAIL_CURRENT_A, ZENER_RAIL_CURRENT_A - GATE_PULLUP_ALLOWED_A + vzMax / rP_ohm);
+}
+/** The pull-up current ZENER_RAIL_CURRENT_A allows for, A, and the pull-up's cap (mosfet-driver.ts). */
+const GATE_PULLUP_ALLOWED_A = 0.002;
+const GATE_PULLUP_MAX_OHM = 10_000;
 
 /**
  * Driver current per ampere of load when it drives a power PNP (bjt-driver-pnp): the PNP's base
@@ -95,6 +157,8 @@ const DARLINGTON_DRIVER_FACTOR = 1.3;
 const DARLINGTON_DRIVE_SAT_V = 0.3;
 
 interface Need {
+  /** The gate driver's NPN class once chosen (the gate-rail zener's pull-up current follows it). */
+  driver?: { npn: BjtClass; mos: MosfetClass };
   vMin_V: number;
   vMax_V: number;
   supply_V: number;
@@ -191,7 +255,12 @@ function whyNot(role: DeviceRole, d: DeviceClass, n: Need): string | null {
       ? `pulse rating ${f3(d.idm_A ?? d.id_A)} A is below the ${f3(n.peak_A)} A start-up peak`
       : null;
   }
-  if (isZener(d) && role === "gate_zener") return zenerWhyNot(d, n);
+  if (isZener(d) && role === "gate_zener")
+    return zenerWhyNot(
+      d,
+      n,
+      n.driver === undefined ? ZENER_RAIL_CURRENT_A : gateRailCurrent_A(d, n.driver.npn, n.driver.mos, n),
+    );
   if (isDiode(d)) return diodeWhyNot(role, d, n);
   return null;
 }
@@ -202,6 +271,11 @@ function diodeWhyNot(role: DeviceRole, d: DiodeClass, n: Need): string | null {
   if (role === "freewheel_diode") {
     if (d.recovery === "standard" && n.pwm_Hz > STANDARD_RECOVERY_MAX_Hz)
       return `standard recovery is too slow above ${STANDARD_RECOVERY_MAX_Hz} Hz PWM`;
+    if (d.recovery === "standard" && n.pwm_Hz * vMax > STANDARD_RECOVERY_MAX_VHz)
+      return (
+        `standard recovery at ${f3(vMax)} V and ${f3(n.pwm_Hz)} Hz exceeds the ` +
+        `${STANDARD_RECOVERY_MAX_VHz / 1000} kV/s (V·f) its recovery loss has been verified for`
+      );
     if (d.if_avg_A * DIODE_CURRENT_HEADROOM < freewheelCurrent_A(n))
       return `I_F(AV) ${f3(d.if_avg_A)} A × 50 % is below the ${f3(freewheelCurrent_A(n))} A it carries`;
     return d.vrrm_V * DIODE_VOLTAGE_HEADROOM >= vMax ? null : `V_RRM ${f3(d.vrrm_V)} V × 70 % is below ${f3(vMax)} V`;
@@ -242,7 +316,11 @@ function freewheelCurrent_A(n: Need): number {
  * factor). A lower zener costs gate drive (the engine shows R_DS(on) at the gate voltage reached),
  * so the list runs from the highest rail down.
  */
-export function zenerWhyNot(d: ZenerClass, n: Pick<Need, "vMin_V" | "vMax_V">): string | null {
+export function zenerWhyNot(
+  d: ZenerClass,
+  n: Pick<Need, "vMin_V" | "vMax_V">,
+  railCurrent_A = ZENER_RAIL_CURRENT_A,
+): string | null {
   const vzMax = d.vz_V * (1 + d.vz_tolerance);
   const feed_V = n.vMin_V - vzMax;
   if (feed_V < ZENER_FEED_MIN_V)
@@ -250,7 +328,7 @@ export function zenerWhyNot(d: ZenerClass, n: Pick<Need, "vMin_V" | "vMax_V">): 
       `only ${f3(Math.max(0, feed_V))} V is left across its feed resistor at ${f3(n.vMin_V)} V ` +
       `(needs ≥ ${ZENER_FEED_MIN_V} V)`
     );
-  const rZ_ohm = feed_V / ZENER_RAIL_CURRENT_A;
+  const rZ_ohm = feed_V / railCurrent_A;
   const p_W = (vzMax * (n.vMax_V - d.vz_V * (1 - d.vz_tolerance))) / rZ_ohm;
   return p_W <= d.pz_W * ZENER_POWER_HEADROOM
     ? null
@@ -315,6 +393,88 @@ export function pickDriver(cands: BjtClass[], power: BjtClass, n: Need): BjtClas
     if (best === undefined || g > best.g) best = { d, g };
   }
   return best?.d;
+}
+
+/**
+ * Why an ordinary class cannot serve this role at this variant's voltage or gate drive (null: it
+ * can). Only when every ordinary class of a role fails here are the raised classes offered.
+ */
+function stressWhyNot(role: DeviceRole, d: DeviceClass, n: Need): string | null {
+  if (isBjt(d)) {
+    const v =
+      role === "driver_npn" ? n.driverVOff_V : role === "power_npn" || role === "power_pnp" ? n.vOff_V : n.vMax_V;
+    return d.vceo_V * BJT_VOLTAGE_SHARE >= v
+      ? null
+      : `V_CEO ${f3(d.vceo_V)} V × ${BJT_VOLTAGE_SHARE * 100} % is below the ${f3(v)} V it blocks`;
+  }
+  if (!isMosfet(d)) return null;
+  if (d.vds_V * MOSFET_VOLTAGE_SHARE < n.vOff_V)
+    return `V_DS ${f3(d.vds_V)} V × ${MOSFET_VOLTAGE_SHARE * 100} % is below ${f3(n.vOff_V)} V off-state`;
+  // Only the logic chain's gate hangs off the timing collector; the gate driver has its own rail.
+  const reach_V = n.vMin_V * GATE_REACH_SHARE;
+  return role === "mosfet_logic" && specVgs_V(d) > reach_V
+    ? `rated at V_GS ${f3(specVgs_V(d))} V, above the ${f3(reach_V)} V the gate can reach at ${f3(n.vMin_V)} V`
+    : null;
+}
+
+/**
+ * The classes a role chooses among: the ordinary ones when any clears the stress, else the raised
+ * ones present that do (all raised ones present when none does), with the reason to tell.
+ */
+function candidates(
+  role: DeviceRole,
+  ordinary: DeviceClass[],
+  lib: DeviceLibrary,
+  n: Need,
+): { present: DeviceClass[]; raised?: string } {
+  const raisedIds = RAISED_DEVICE_IDS[role] ?? [];
+  // The driver is judged among small packages (a power-package driver is a last resort, and none in
+  // the gate driver): the raised classes join when no small ordinary one clears the voltage.
+  const judged = role === "driver_npn" ? ordinary.filter((d) => GATE_DRIVE_PACKAGES.has(d.package)) : ordinary;
+  if (raisedIds.length === 0 || judged.some((d) => stressWhyNot(role, d, n) === null)) return { present: ordinary };
+  const raised = raisedIds.filter((id) => lib.has(id)).map((id) => getDevice(lib, id));
+  const fit = raised.filter((d) => stressWhyNot(role, d, n) === null);
+  if (raised.length === 0) return { present: ordinary };
+  const why = judged.map((d) => `${d.id}: ${stressWhyNot(role, d, n)}`).join("; ");
+  const pool = fit.length > 0 ? fit : raised;
+  return {
+    present: role === "driver_npn" ? [...ordinary, ...pool] : pool,
+    raised: `no ordinary class clears the voltage or gate drive (${why})`,
+  };
+}
+
+/** The first of `present` that clears the variant for the role, with every class passed over and why. */
+function firstClearing(
+  role: DeviceRole,
+  present: DeviceClass[],
+  n: Need,
+): { picked: DeviceClass | undefined; skipped: string[] } {
+  const skipped: string[] = [];
+  for (const d of present) {
+    const why = whyNot(role, d, n);
+    if (why === null) return { picked: d, skipped };
+    skipped.push(`${d.id}: ${why}`);
+  }
+  return { picked: undefined, skipped };
+}
+
+/** The reason shown for a first-clearing choice (`raised`: the candidates are the raised classes). */
+function firstReason(
+  role: DeviceRole,
+  present: DeviceClass[],
+  first: { picked: DeviceClass | undefined; skipped: string[] },
+  raised: boolean,
+): string {
+  const why = first.picked
+    ? raised && (!RULED_ROLES.has(role) || present.length === 1)
+      ? "the smallest class of raised rating that clears this variant"
+      : !RULED_ROLES.has(role)
+        ? PREFERRED_REASON
+        : present.length > 1
+          ? `first of ${present.map((d) => d.id).join(", ")} that clears this variant`
+          : "the one class for this role"
+    : "no class clears this variant with selection headroom: the largest is taken and the checks say why";
+  return why + (first.skipped.length ? ` (passed over: ${first.skipped.join("; ")})` : "");
 }
 
 function checkFamily(role: DeviceRole, d: DeviceClass, how: string): DeviceClass {
@@ -405,10 +565,12 @@ export function chooseDevicesWithReasons(
   const reasons = {} as Record<DeviceRole, string>;
   // The driver is judged against the power stage it drives, so the power stage is chosen first; the
   // gate driver's PNP half is matched to its NPN half, so it comes last.
+  // The gate-rail zener feeds the gate driver's pull-up, so it follows the drivers.
   const order = [
-    ...DEVICE_ROLES.filter((r) => r !== "driver_npn" && r !== "driver_pnp"),
+    ...DEVICE_ROLES.filter((r) => r !== "driver_npn" && r !== "driver_pnp" && r !== "gate_zener"),
     "driver_npn" as const,
     "driver_pnp" as const,
+    "gate_zener" as const,
   ];
   for (const role of order) {
     const bound = record.devices?.[role];
@@ -418,12 +580,14 @@ export function chooseDevicesWithReasons(
       continue;
     }
     const ids = DEFAULT_DEVICE_IDS[role];
-    const present = ids.filter((id) => lib.has(id)).map((id) => getDevice(lib, id));
-    const last = present[present.length - 1];
-    if (last === undefined)
+    const ordinary = ids.filter((id) => lib.has(id)).map((id) => getDevice(lib, id));
+    if (ordinary.length === 0)
       throw new EngineMisuseError(
         `chooseDevices: no default class for role "${role}" in the library (expected one of ${ids.join(", ")})`,
       );
+    const { present, raised } = candidates(role, ordinary, lib, need);
+    const last = present[present.length - 1]!;
+    const tell = (reason: string): string => (raised === undefined ? reason : `${raised}; ${reason}`);
     if (role === "driver_npn") {
       need.pnpSink_A = chain === "bjt-driver-pnp" ? pnpSinkCurrent_A(out.power_pnp, need) : 0;
       // In the MOSFET gate driver the class serves the gate-drive pair's source follower and the
@@ -433,39 +597,27 @@ export function chooseDevicesWithReasons(
         .filter((d) => chain !== "mosfet-driver" || GATE_DRIVE_PACKAGES.has(d.package));
       const picked = pickDriver(usable, out.power_npn as BjtClass, need);
       out[role] = checkFamily(role, picked ?? usable[usable.length - 1] ?? last, "default");
-      reasons[role] = picked
-        ? `highest minimum gain among ${usable.map((d) => d.id).join(", ")} whose ratings fit this drive`
-        : `none of ${present.map((d) => d.id).join(", ")} fits this drive with selection headroom: ` +
-          "the largest is taken";
+      // ZENER_RAIL_CURRENT_A was derived with the ordinary driver classes; a raised one is counted.
+      if (chain === "mosfet-driver" && raised !== undefined && !ordinary.includes(out[role]))
+        need.driver = { npn: out[role] as BjtClass, mos: out.mosfet_standard as MosfetClass };
+      reasons[role] = tell(
+        picked
+          ? `highest minimum gain among ${usable.map((d) => d.id).join(", ")} whose ratings fit this drive`
+          : `none of ${present.map((d) => d.id).join(", ")} fits this drive with selection headroom: ` +
+              "the largest is taken",
+      );
       continue;
     }
     if (role === "driver_pnp") {
       const half = pnpHalf(present.filter(isBjt), out.driver_npn as BjtClass);
       out[role] = checkFamily(role, half.d ?? last, "default");
-      reasons[role] = half.reason;
+      reasons[role] = tell(half.reason);
       continue;
     }
-    const skipped: string[] = [];
-    let picked: DeviceClass | undefined;
-    for (const d of present) {
-      const why = whyNot(role, d, need);
-      if (why === null) {
-        picked = d;
-        break;
-      }
-      skipped.push(`${d.id}: ${why}`);
-    }
+    const first = firstClearing(role, present, need);
     // None fits: take the largest, and let the engine's stress checks say why it is not enough.
-    out[role] = checkFamily(role, picked ?? last, "default");
-    reasons[role] =
-      (picked
-        ? !RULED_ROLES.has(role)
-          ? PREFERRED_REASON
-          : present.length > 1
-            ? `first of ${present.map((d) => d.id).join(", ")} that clears this variant`
-            : "the one class for this role"
-        : "no class clears this variant with selection headroom: the largest is taken and the checks say why") +
-      (skipped.length ? ` (passed over: ${skipped.join("; ")})` : "");
+    out[role] = checkFamily(role, first.picked ?? last, "default");
+    reasons[role] = tell(firstReason(role, present, first, raised !== undefined));
   }
   // Keys in the contract's role order (stable output).
   return {

@@ -1,5 +1,10 @@
 import { describe, expect, it } from "vitest";
-import { DEFAULT_DEVICE_IDS, chooseDevices, chooseDevicesWithReasons } from "../../../src/engine/devices/choose.ts";
+import {
+  DEFAULT_DEVICE_IDS,
+  RAISED_DEVICE_IDS,
+  chooseDevices,
+  chooseDevicesWithReasons,
+} from "../../../src/engine/devices/choose.ts";
 import type { BjtClass, MosfetClass } from "../../../src/model/device.ts";
 import { DEVICE_ROLES, type DesignRecord } from "../../../src/model/design.ts";
 import { EngineMisuseError } from "../../../src/model/errors.ts";
@@ -104,9 +109,13 @@ describe("chooseDevices: defaults by current and voltage", () => {
   // Gate-rail zener (mosfet-driver), hand arithmetic with a 12 mA rail and ≥ 1 V across its feed resistor
   // (ours), dissipation V_Z,max·(V_max − V_Z,min)/R_Z within half the rating (the policy's zener factor):
   it.each([
-    // 48 V ± 10 % (43.2–52.8 V): R_Z = (43.2 − 12.6)/0.012 = 2550 Ω; I = (52.8 − 11.4)/2550 = 16.2 mA;
-    // P = 12.6 × 0.0162 = 0.205 W ≤ 0.25 W → the 0.5 W part.
-    [48, undefined, "zener-12v-0w5"],
+    // 48 V ± 10 % (43.2–52.8 V) with the raised 80 V 0.5 A gate-driver NPN and the 100 V MOSFET
+    // (Q_G 45 nC, plateau 4 V) at 20 kHz: R_G = (12.6 − 0.65)/0.5 = 23.9 Ω; the 1 % budget
+    // 0.01·(11.4 − 0.75 − 4)/(20 kHz · 45 nC) − 23.9 = 50 Ω; β_min(0.53 A, −10 °C) = 27.9, R_P = 1395 Ω
+    // draws 9.0 mA: rail 12 − 2 + 9.0 = 19.0 mA; R_Z = (43.2 − 12.6)/0.019 = 1611 Ω;
+    // I = (52.8 − 11.4)/1611 = 25.7 mA; P = 12.6 × 0.0257 = 0.324 W: over 0.25 W, within 0.5 W → 12 V 1 W
+    // (the 12 mA constant took the 0.5 W part, which the engine then found at 69–75 % of its rating).
+    [48, undefined, "zener-12v-1w"],
     // 24 V lead-acid (21.0–29.4 V): R_Z = 700 Ω, I = 25.7 mA, P = 0.324 W > 0.25 W, ≤ 0.5 W → 12 V 1 W.
     [24, "lead-acid", "zener-12v-1w"],
     // 13.8 V ± 10 % (12.42–15.18 V): 12 V leaves no feed; 10 V: R_Z = 1.92/0.012 = 160 Ω,
@@ -167,5 +176,67 @@ describe("chooseDevices: a MOSFET's pulse rating against the start-up peak (abso
     const { reasons } = chooseDevicesWithReasons(r, lib2, 24, 4, "mosfet-logic");
     expect(reasons.mosfet_logic).toContain("pulse rating 10.0 A is below the 17.6 A start-up peak");
     expect(chooseDevicesWithReasons(r, lib, 24, 4, "mosfet-logic").reasons.mosfet_logic).not.toContain("pulse");
+  });
+});
+
+/** A coverage-style test record (not demo data): one chain, one load kind, 1 kHz, 20–80 %, 0–40 °C. */
+function need(chain: DesignRecord["axes"]["chain"][number], supply_V: number): DesignRecord {
+  return {
+    id: "stress-test",
+    title: "Stress test",
+    summary: "test record",
+    axes: { supply_V: [supply_V], load_A: [1], chain: [chain], load_kind: ["led"] },
+    targets: { pwm_Hz: 1000, duty_min: 0.2, duty_max: 0.8, ambient_C: [0, 40], supply_tolerance: 0.1 },
+  };
+}
+
+describe("chooseDevices: classes of raised rating, only where the ordinary ones cannot serve", () => {
+  // The default policy's shares (docs/derating.md): transistor V_CE ≤ 75 % [src:nasa-eee-inst-002],
+  // MOSFET V_DS ≤ 60 % [src:mil-dtl-917]; the supply window 36 V ± 10 % (record tolerance).
+  it("at 36 V (39.6 V at the top) the 45 V timing class (45·0.75 = 33.75 V) gives way to the 120 V one", () => {
+    const { devices, reasons } = chooseDevicesWithReasons(need("mosfet-logic", 36), lib, 36, 1, "mosfet-logic");
+    expect(devices.timing_npn.id).toBe("npn-small-signal-hv-high-gain");
+    expect(reasons.timing_npn).toContain("npn-small-signal-high-gain: V_CEO 45.0 V × 75 % is below the 39.6 V");
+    // 60 V · 0.6 = 36 V < 39.6 V: the 100 V logic class (100 · 0.6 = 60 V).
+    expect(devices.mosfet_logic.id).toBe("nmos-logic-100v");
+    expect(reasons.mosfet_logic).toContain("nmos-logic: V_DS 60.0 V × 60 % is below 39.6 V");
+  });
+  it("at 48 V (52.8 V) the power stages take the 100 V grade (60·0.75 = 45 V < 52.8 V)", () => {
+    const d = chooseDevices(need("bjt-driver-pnp", 48), lib, 48, 1, "bjt-driver-pnp");
+    expect(d.power_pnp.id).toBe("pnp-power-to220-100v");
+    expect((d.timing_npn as BjtClass).vceo_V * 0.75).toBeGreaterThanOrEqual(52.8);
+    expect((d.driver_npn as BjtClass).vceo_V * 0.75).toBeGreaterThanOrEqual(52.8);
+    expect(chooseDevices(need("mosfet-driver", 48), lib, 48, 1, "mosfet-driver").mosfet_standard.id).toBe(
+      "nmos-standard-100v",
+    );
+  });
+  it("at 5 V a V_GS 4.5 V rating is out of reach (4.5 V · 0.95/1.05 = 4.07 V): the 2.5 V-rated class", () => {
+    const { devices, reasons } = chooseDevicesWithReasons(need("mosfet-logic", 5), lib, 5, 0.5, "mosfet-logic");
+    expect(devices.mosfet_logic.id).toBe("nmos-logic-2v5");
+    expect(Math.min(...(devices.mosfet_logic as MosfetClass).rds_on.map((p) => p.vgs_V))).toBe(2.5);
+    expect(reasons.mosfet_logic).toContain("rated at V_GS 4.50 V, above the 4.07 V the gate can reach");
+  });
+  it("no standard-recovery freewheel rectifier at 48 V, 1 kHz (52.8 V · 1 kHz > 33 kV/s); kept at 24 V", () => {
+    // Recovery loss ∝ Q_rr·V·f (common practice); the 33 kV/s limit is ours (choose.ts).
+    const fan = (v: number): DesignRecord => ({
+      ...need("mosfet-driver", v),
+      axes: { ...need("mosfet-driver", v).axes, load_kind: ["motor"] },
+    });
+    const at48 = chooseDevicesWithReasons(fan(48), lib, 48, 0.5, "mosfet-driver");
+    expect(at48.devices.freewheel_diode.id).toBe("diode-fast-3a");
+    expect(at48.reasons.freewheel_diode).toContain("diode-rectifier-1a: standard recovery at 52.8 V and 1.00e+3 Hz");
+    expect(chooseDevices(fan(24), lib, 24, 0.5, "mosfet-driver").freewheel_diode.id).toBe("diode-rectifier-1a");
+  });
+  it("at 12 and 24 V, and at 6 V where the 4.5 V class is still reachable, every role keeps an ordinary class", () => {
+    for (const [v, chain] of [
+      [12, "mosfet-logic"],
+      [24, "bjt-driver-pnp"],
+      [24, "mosfet-driver"],
+      [6, "mosfet-logic"],
+    ] as const) {
+      const d = chooseDevices(need(chain, v), lib, v, 1, chain);
+      for (const role of DEVICE_ROLES)
+        expect(RAISED_DEVICE_IDS[role] ?? [], `${v} V ${role}`).not.toContain(d[role].id);
+    }
   });
 });

@@ -2,7 +2,7 @@ import { join } from "node:path";
 import { Ajv2020 } from "ajv/dist/2020.js";
 import { describe, expect, it } from "vitest";
 import type { DeviceClass } from "../../../src/model/device.ts";
-import { DEFAULT_DEVICE_IDS } from "../../../src/engine/devices/choose.ts";
+import { DEFAULT_DEVICE_IDS, RAISED_DEVICE_IDS, ROLE_FAMILY } from "../../../src/engine/devices/choose.ts";
 import { indexLibrary, isBjt, isMosfet } from "../../../src/engine/devices/library.ts";
 import { DEVICE_DIR, ROOT, bjt, deviceFiles, readJson, readLibrary } from "./read-library.ts";
 
@@ -25,6 +25,15 @@ describe("device library files", () => {
   it("holds every class the default chooser may name", () => {
     const lib = readLibrary();
     for (const ids of Object.values(DEFAULT_DEVICE_IDS)) for (const id of ids) expect(lib.has(id), id).toBe(true);
+  });
+
+  it("holds every raised-rating class, each of its role's family and not among the ordinary ones", () => {
+    const lib = readLibrary();
+    for (const [role, ids] of Object.entries(RAISED_DEVICE_IDS) as [keyof typeof ROLE_FAMILY, string[]][])
+      for (const id of ids) {
+        expect(lib.get(id)?.family, `${role}: ${id}`).toBe(ROLE_FAMILY[role]);
+        expect(DEFAULT_DEVICE_IDS[role], `${role}: ${id}`).not.toContain(id);
+      }
   });
 
   it("gain and saturation points ascend in current; MOSFET thresholds are ordered", () => {
