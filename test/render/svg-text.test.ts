@@ -4,7 +4,9 @@ import { EngineMisuseError } from "../../src/model/errors.ts";
 import { readSvg } from "./svg-read.ts";
 
 describe("SVG text writer", () => {
-  it("escapes the XML specials in text and attribute values (Extensible Markup Language (XML) 1.0, Fifth Edition, §2.4: & and < must be escaped)", () => {
+  // Extensible Markup Language (XML) 1.0, Fifth Edition, §2.4 Character Data and Markup: & and < must be
+  // escaped in text and attribute values; > and " are escaped too (common practice, and safe inline in HTML).
+  it("escapes the XML specials in text and attribute values", () => {
     expect(escapeText(`a & b < c > d "e" 'f'`)).toBe("a &amp; b &lt; c &gt; d &quot;e&quot; 'f'");
     const text = new SvgPen().textElement("text", { "data-x": `<"&>` }, "R & <C>").toString();
     expect(text).toBe('<text data-x="&lt;&quot;&amp;&gt;">R &amp; &lt;C&gt;</text>');
