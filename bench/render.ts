@@ -24,7 +24,7 @@ export function benchRender(
   repeats = 5,
 ): { schematicMedian_ms: number; netlistBytesMedian: number } {
   if (circuits.length === 0) throw new RangeError("benchRender: no circuits");
-  for (const c of circuits) renderSchematic(c.circuit, c.meta); // warm-up (svgdom, JIT)
+  for (const c of circuits) renderSchematic(c.circuit, c.meta); // warm-up (JIT)
   const times: number[] = [];
   for (let r = 0; r < repeats; r++) {
     for (const c of circuits) {

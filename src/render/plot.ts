@@ -7,7 +7,8 @@ import { formatValue } from "../model/format.ts";
 import type { WaveformSet } from "../model/verification.ts";
 import { axisPrefix, niceTicks, tickText } from "./plot-scale.ts";
 import { ACCENT } from "./schematic.ts";
-import { fin, finish, idFragment, newCanvas } from "./svg-doc.ts";
+import { fin, idFragment } from "./svg-doc.ts";
+import { svgDocument, type SvgPen } from "./svg-text.ts";
 import { EngineMisuseError } from "../model/errors.ts";
 
 const W = 680;
@@ -16,6 +17,10 @@ const GAP = 26;
 const LEFT = 78;
 const RIGHT = 20;
 const TOP = 34;
+const WHITE = "#ffffff";
+const BLACK = "#000000";
+/** Grid lines: thin and light, under the trace. */
+const GRID = { "stroke-width": 0.75, stroke: "#bbbbbb" } as const;
 
 export function renderPlot(w: WaveformSet, meta: { title: string }): string {
   const n = w.t_s.length;
@@ -36,8 +41,7 @@ export function renderPlot(w: WaveformSet, meta: { title: string }): string {
   const xOf = (t: number) => LEFT + ((t - t0) / (t1 - t0)) * plotW;
   const height = TOP + w.series.length * (PANEL_H + GAP) + 30;
 
-  const c = newCanvas();
-  c.attr({
+  const attrs = {
     viewBox: `0 0 ${W} ${height}`,
     width: W,
     height,
@@ -45,62 +49,80 @@ export function renderPlot(w: WaveformSet, meta: { title: string }): string {
     "font-family": "DejaVu Sans, Arial, sans-serif",
     "font-size": 12,
     class: "pw-plot",
+  };
+  const desc =
+    `Waveforms: ${w.series.map((s) => `${s.name} in ${s.unit}`).join(", ")}, over ` +
+    `${tickText((t1 - t0) * tp.scale)} ${tp.prefix}s.`;
+  return svgDocument(attrs, { id: idFragment(meta.title), title: meta.title, desc }, (c) => {
+    c.empty("rect", { width: W, height, fill: WHITE });
+    c.textElement("text", { x: LEFT, y: 20, "font-size": 14, "font-weight": "bold", fill: BLACK }, meta.title);
+    let firstVolt = true;
+    w.series.forEach((s, k) => {
+      const withThr = s.unit === "V" && firstVolt && w.threshold_V !== undefined;
+      if (s.unit === "V") firstVolt = false;
+      const last = k === w.series.length - 1;
+      c.group({ "data-series": s.name }, (g) =>
+        drawPanel(
+          g,
+          s,
+          { y0: TOP + k * (PANEL_H + GAP), plotW, xOf, t_s: w.t_s, tTicks, tp, last },
+          withThr ? w.threshold_V : undefined,
+        ),
+      );
+    });
   });
-  c.rect(W, height).fill("#fff");
-  c.element("text").words(meta.title).attr({ x: LEFT, y: 20, "font-size": 14, "font-weight": "bold", fill: "#000" });
-  let firstVolt = true;
-  w.series.forEach((s, k) => {
-    const y0 = TOP + k * (PANEL_H + GAP);
-    const withThr = s.unit === "V" && firstVolt && w.threshold_V !== undefined;
-    if (s.unit === "V") firstVolt = false;
-    const lo = Math.min(...s.values, withThr ? w.threshold_V! : Infinity, 0);
-    const hi = Math.max(...s.values, withThr ? w.threshold_V! : -Infinity);
-    const yt = niceTicks(lo, hi, 4);
-    const yLo = yt.ticks[0]!;
-    const yHi = yt.ticks[yt.ticks.length - 1]!;
-    const yOf = (v: number) => y0 + PANEL_H - ((v - yLo) / (yHi - yLo)) * PANEL_H;
-    const g = c.group().attr({ "data-series": s.name });
-    g.rect(plotW, PANEL_H).move(LEFT, y0).fill("none").stroke({ color: "#000", width: 1.5 });
-    for (const v of yt.ticks) {
-      const y = yOf(v);
-      g.line(LEFT, y, LEFT + plotW, y).stroke({ color: "#bbb", width: 0.75 });
-      g.element("text")
-        .words(tickText(v))
-        .attr({ x: LEFT - 6, y: y + 4, "text-anchor": "end", fill: "#000" });
-    }
-    for (const t of tTicks)
-      g.line(xOf(t / tp.scale), y0, xOf(t / tp.scale), y0 + PANEL_H).stroke({ color: "#bbb", width: 0.75 });
-    g.element("text")
-      .words(`${s.name} (${s.unit})`)
-      .attr({ x: LEFT + 6, y: y0 + 14, fill: "#000", "font-weight": "bold" });
-    const pts = tracePoints(s.values.map((v, i) => [xOf(w.t_s[i]!), yOf(v)] as [number, number]));
-    g.polyline(pts).fill("none").stroke({ color: ACCENT, width: 2, linejoin: "round" });
-    if (withThr) {
-      const y = yOf(w.threshold_V!);
-      g.line(LEFT, y, LEFT + plotW, y)
-        .stroke({ color: "#000", width: 1.5, dasharray: "6 4" })
-        .attr({ "data-threshold": "" });
-      g.element("text")
-        .words(`threshold ${formatValue(w.threshold_V!, "V")}`)
-        .attr({ x: LEFT + plotW - 4, y: y - 4, "text-anchor": "end", fill: "#000" });
-    }
-    if (k === w.series.length - 1) {
-      for (const t of tTicks)
-        g.element("text")
-          .words(tickText(t))
-          .attr({ x: xOf(t / tp.scale), y: y0 + PANEL_H + 16, "text-anchor": "middle", fill: "#000" });
-      g.element("text")
-        .words(`time (${tp.prefix}s)`)
-        .attr({ x: LEFT + plotW / 2, y: y0 + PANEL_H + 32, "text-anchor": "middle", fill: "#000" });
-    }
-  });
-  return finish(c, {
-    id: idFragment(meta.title),
-    title: meta.title,
-    desc:
-      `Waveforms: ${w.series.map((s) => `${s.name} in ${s.unit}`).join(", ")}, over ` +
-      `${tickText((t1 - t0) * tp.scale)} ${tp.prefix}s.`,
-  });
+}
+
+interface PanelFrame {
+  y0: number;
+  plotW: number;
+  xOf: (t: number) => number;
+  t_s: readonly number[];
+  tTicks: number[];
+  tp: { prefix: string; scale: number };
+  /** The bottom panel carries the time axis' numbers and name. */
+  last: boolean;
+}
+
+function drawPanel(g: SvgPen, s: WaveformSet["series"][number], f: PanelFrame, threshold_V: number | undefined): void {
+  const { y0, plotW, xOf, tp } = f;
+  const lo = Math.min(...s.values, threshold_V ?? Infinity, 0);
+  const hi = Math.max(...s.values, threshold_V ?? -Infinity);
+  const yt = niceTicks(lo, hi, 4);
+  const yLo = yt.ticks[0]!;
+  const yHi = yt.ticks[yt.ticks.length - 1]!;
+  const yOf = (v: number) => y0 + PANEL_H - ((v - yLo) / (yHi - yLo)) * PANEL_H;
+  g.rect(LEFT, y0, plotW, PANEL_H, { fill: "none", "stroke-width": 1.5, stroke: BLACK });
+  for (const v of yt.ticks) {
+    const y = yOf(v);
+    g.line(LEFT, y, LEFT + plotW, y, GRID);
+    g.textElement("text", { x: LEFT - 6, y: y + 4, "text-anchor": "end", fill: BLACK }, tickText(v));
+  }
+  for (const t of f.tTicks) g.line(xOf(t / tp.scale), y0, xOf(t / tp.scale), y0 + PANEL_H, GRID);
+  g.textElement("text", { x: LEFT + 6, y: y0 + 14, fill: BLACK, "font-weight": "bold" }, `${s.name} (${s.unit})`);
+  const pts = tracePoints(s.values.map((v, i) => [xOf(f.t_s[i]!), yOf(v)] as [number, number]));
+  g.polyline(pts, { fill: "none", "stroke-linejoin": "round", "stroke-width": 2, stroke: ACCENT });
+  if (threshold_V !== undefined) {
+    const y = yOf(threshold_V);
+    g.line(LEFT, y, LEFT + plotW, y, {
+      "stroke-dasharray": "6 4",
+      "stroke-width": 1.5,
+      stroke: BLACK,
+      "data-threshold": "",
+    });
+    const at = { x: LEFT + plotW - 4, y: y - 4, "text-anchor": "end", fill: BLACK };
+    g.textElement("text", at, `threshold ${formatValue(threshold_V, "V")}`);
+  }
+  if (f.last) {
+    for (const t of f.tTicks)
+      g.textElement(
+        "text",
+        { x: xOf(t / tp.scale), y: y0 + PANEL_H + 16, "text-anchor": "middle", fill: BLACK },
+        tickText(t),
+      );
+    const name = { x: LEFT + plotW / 2, y: y0 + PANEL_H + 32, "text-anchor": "middle", fill: BLACK };
+    g.textElement("text", name, `time (${tp.prefix}s)`);
+  }
 }
 
 /**

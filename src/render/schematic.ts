@@ -1,8 +1,9 @@
 /**
- * Schematic SVG of a circuit model, drawn at build time with svg.js on svgdom. Symbols after
- * IEC 60617 / IEEE Std 315 [src:iec-60617] [src:ieee-315] (src/render/symbols/), placement by stage and role
- * (schematic-layout.ts), orthogonal wiring by net (schematic-route.ts). Each drawn part carries
- * `data-ref` and `data-pins` ("pin=net ..."), each wire `data-net`, so tests can read them back.
+ * Schematic SVG of a circuit model, written as text (svg-text.ts): the same bytes at build time and
+ * in the browser. Symbols after IEC 60617 / IEEE Std 315 [src:iec-60617] [src:ieee-315]
+ * (src/render/symbols/), placement by stage and role (schematic-layout.ts), orthogonal wiring by net
+ * (schematic-route.ts). Each drawn part carries `data-ref` and `data-pins` ("pin=net ..."), each wire
+ * `data-net`, so tests can read them back.
  */
 import type { CircuitModel } from "../model/circuit.ts";
 import type { DeviceLibrary } from "../model/device.ts";
@@ -11,11 +12,13 @@ import type { Routing } from "./schematic-route.ts";
 import { wire } from "./schematic-wire.ts";
 import { ground, terminal } from "./symbols/index.ts";
 import { INK, STROKE_PX } from "./symbols/types.ts";
-import { fin, finish, idFragment, newCanvas } from "./svg-doc.ts";
+import { fin, idFragment } from "./svg-doc.ts";
+import { svgDocument, type SvgPen } from "./svg-text.ts";
 
 /** Our accent for nets and net labels (deep teal, ≈ 7:1 on white). */
 export const ACCENT = "#005f73";
 const FONT = "DejaVu Sans, Arial, sans-serif";
+const WHITE = "#ffffff";
 
 const boxAttr = (b: { x: number; y: number; w: number; h: number }) => `${b.x} ${b.y} ${b.w} ${b.h}`;
 
@@ -48,8 +51,7 @@ export function renderSchematic(
   const height =
     Math.max(...boxes.map((b) => fin(b.y + b.h, "extent")), ...wireYs, ...routing.grounds.map((g) => g[1] + 20)) + 50;
 
-  const c = newCanvas();
-  c.attr({
+  const attrs = {
     viewBox: `0 0 ${width} ${height}`,
     width,
     height,
@@ -58,21 +60,50 @@ export function renderSchematic(
     "font-family": FONT,
     "font-size": FONT_PX,
     class: "pw-schematic",
+  };
+  const sense = placed.some((p) => p.key === "Vsense") ? " A dashed circle marks the load-current test point." : "";
+  const desc =
+    `Schematic with ${circuit.parts.length} parts: ${circuit.parts.map((p) => p.ref).join(", ")}. Supply on the ` +
+    `left, load on the right; vbus rail along the top.${sense}`;
+  const vccAt = supplyPin(placed);
+  return svgDocument(attrs, { id: idFragment(meta.id), title: meta.title, desc }, (c) => {
+    c.empty("rect", { width, height, fill: WHITE });
+    c.group(
+      { class: "pw-wires", "stroke-linecap": "square", "stroke-width": STROKE_PX, stroke: ACCENT, fill: "none" },
+      (g) => drawWires(g, routing),
+    );
+    c.group(
+      { "stroke-linejoin": "round", "stroke-linecap": "round", "stroke-width": STROKE_PX, stroke: INK, fill: "none" },
+      (g) => drawParts(g, placed, routing, vccAt),
+    );
+    if (vccAt) {
+      const at = vccAt;
+      const netlabel = { x: at[0] - 14, y: at[1] + 4, "text-anchor": "end", fill: ACCENT, "data-netlabel": "vcc" };
+      c.textElement("text", netlabel, "vcc +");
+    }
+    c.group({ fill: INK }, (g) => drawLabels(g, placed));
+    for (const f of routing.flags) drawFlag(c, f);
+    const caption = { x: 20, y: height - 18, "font-size": 14, "font-weight": "bold", "data-caption": "", fill: INK };
+    c.textElement("text", caption, meta.title);
   });
-  c.rect(width, height).fill("#fff");
+}
 
-  const wires = c
-    .group()
-    .attr({ class: "pw-wires" })
-    .stroke({ color: ACCENT, width: STROKE_PX, linecap: "square" })
-    .fill("none");
+function drawWires(g: SvgPen, routing: Routing): void {
   for (const w of routing.wires)
     for (const [a, b] of w.segs)
-      wires.line(fin(a[0], w.net), fin(a[1], w.net), fin(b[0], w.net), fin(b[1], w.net)).attr({ "data-net": w.net });
+      g.line(fin(a[0], w.net), fin(a[1], w.net), fin(b[0], w.net), fin(b[1], w.net), { "data-net": w.net });
   for (const d of routing.dots)
-    wires.circle(7).center(d.at[0], d.at[1]).fill(ACCENT).attr({ "data-net": d.net, class: "pw-junction" });
+    g.circle(d.at[0], d.at[1], 3.5, { fill: ACCENT, "data-net": d.net, class: "pw-junction" });
+}
 
-  const parts = c.group().stroke({ color: INK, width: STROKE_PX, linecap: "round", linejoin: "round" }).fill("none");
+/** Where the supply enters: the pin on net vcc, drawn as a terminal with the net's name. */
+function supplyPin(placed: Placed[]): readonly [number, number] | undefined {
+  const vcc = placed.find((p) => p.nets.a === "vcc" || p.nets.p === "vcc");
+  const vccPin = vcc && Object.entries(vcc.nets).find(([, n]) => n === "vcc");
+  return vcc && vccPin ? vcc.pins[vccPin[0]] : undefined;
+}
+
+function drawParts(g: SvgPen, placed: Placed[], routing: Routing, vccAt: readonly [number, number] | undefined): void {
   for (const p of placed) {
     const pins = Object.entries(p.nets)
       .map(([k, v]) => `${k}=${v}`)
@@ -80,63 +111,44 @@ export function renderSchematic(
     const at = Object.entries(p.pins)
       .map(([k, v]) => `${k}:${v[0]},${v[1]}`)
       .join(" ");
-    const g = parts.group().attr({
+    const attrs = {
       "data-ref": p.key,
       "data-pins": pins,
       "data-pin-at": at,
       "data-box": boxAttr(p.box),
       transform: transformOf(p),
-    });
-    if (p.part) g.attr({ "data-kind": p.part.kind, "data-role": p.part.role });
-    else g.attr({ "data-instrument": p.key });
-    p.sym.draw(g);
+      ...(p.part ? { "data-kind": p.part.kind, "data-role": p.part.role } : { "data-instrument": p.key }),
+    };
+    g.group(attrs, (s) => p.sym.draw(s));
   }
   for (const gp of routing.grounds) {
     const box = { x: gp[0] - 10, y: gp[1], w: 20, h: 20 };
-    ground.draw(
-      parts.group().attr({
-        "data-ground": `${gp[0]},${gp[1]}`,
-        "data-box": boxAttr(box),
-        transform: `translate(${gp[0]} ${gp[1]})`,
-      }),
-    );
+    const attrs = {
+      "data-ground": `${gp[0]},${gp[1]}`,
+      "data-box": boxAttr(box),
+      transform: `translate(${gp[0]} ${gp[1]})`,
+    };
+    g.group(attrs, (s) => ground.draw(s));
   }
-  const vcc = placed.find((p) => p.nets.a === "vcc" || p.nets.p === "vcc");
-  const vccPin = vcc && Object.entries(vcc.nets).find(([, n]) => n === "vcc");
-  if (vcc && vccPin) {
-    const at = vcc.pins[vccPin[0]]!;
-    terminal.draw(parts.group().attr({ "data-terminal": "vcc", transform: `translate(${at[0]} ${at[1]})` }));
-    c.element("text")
-      .words("vcc +")
-      .attr({ x: at[0] - 14, y: at[1] + 4, "text-anchor": "end", fill: ACCENT, "data-netlabel": "vcc" });
-  }
+  if (vccAt)
+    g.group({ "data-terminal": "vcc", transform: `translate(${vccAt[0]} ${vccAt[1]})` }, (s) => terminal.draw(s));
+}
 
-  const labels = c.group().fill(INK);
+function drawLabels(g: SvgPen, placed: Placed[]): void {
   for (const p of placed) {
-    // Plain <text>/<tspan> elements: svg.js's text helpers measure fonts, which is slow and not needed.
-    const t = labels.element("text").attr({ "data-label-for": p.key, "font-size": FONT_PX });
-    p.label.lines.forEach((line, i) =>
-      t
-        .element("tspan")
-        .attr({ x: p.label.box.x, y: p.label.box.y + (i + 1) * LINE_PX - 3 })
-        .words(line),
+    const attrs = { "data-label-for": p.key, "font-size": FONT_PX, ...(p.part ? {} : { "font-style": "italic" }) };
+    g.element("text", attrs, (t) =>
+      p.label.lines.forEach((line, i) =>
+        t.textElement("tspan", { x: p.label.box.x, y: p.label.box.y + (i + 1) * LINE_PX - 3 }, line),
+      ),
     );
-    if (!p.part) t.attr({ "font-style": "italic" });
   }
-  for (const f of routing.flags) {
-    const g = c.group().attr({ "data-flag": `${f.at[0]},${f.at[1]}`, "data-net": f.net, "data-box": boxAttr(f.box) });
-    g.rect(f.box.w, f.box.h).move(f.box.x, f.box.y).fill("#fff").stroke({ color: ACCENT, width: 1.5 });
-    g.element("text")
-      .words(f.net)
-      .attr({ "font-size": FONT_PX, x: f.box.x + 4, y: f.box.y + f.box.h - 4, fill: ACCENT });
-    g.circle(5).center(f.at[0], f.at[1]).fill(ACCENT);
-  }
-  c.element("text")
-    .words(meta.title)
-    .attr({ x: 20, y: height - 18, "font-size": 14, "font-weight": "bold", "data-caption": "", fill: INK });
-  const sense = placed.some((p) => p.key === "Vsense") ? " A dashed circle marks the load-current test point." : "";
-  const desc =
-    `Schematic with ${circuit.parts.length} parts: ${circuit.parts.map((p) => p.ref).join(", ")}. Supply on the ` +
-    `left, load on the right; vbus rail along the top.${sense}`;
-  return finish(c, { id: idFragment(meta.id), title: meta.title, desc });
+}
+
+function drawFlag(c: SvgPen, f: Routing["flags"][number]): void {
+  c.group({ "data-flag": `${f.at[0]},${f.at[1]}`, "data-net": f.net, "data-box": boxAttr(f.box) }, (g) => {
+    g.rect(f.box.x, f.box.y, f.box.w, f.box.h, { fill: WHITE, "stroke-width": 1.5, stroke: ACCENT });
+    g.textElement("text", { "font-size": FONT_PX, x: f.box.x + 4, y: f.box.y + f.box.h - 4, fill: ACCENT }, f.net);
+    g.circle(f.at[0], f.at[1], 2.5, { fill: ACCENT });
+  });
 }

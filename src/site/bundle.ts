@@ -3,7 +3,7 @@
  * assets/ folder: one self-contained classic script per page feature, no external requests.
  * Same sources → same bytes (no timestamps, no source maps).
  */
-import { build, type Plugin } from "esbuild";
+import { build } from "esbuild";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
 
@@ -15,19 +15,6 @@ export const BROWSER_SCRIPTS = {
   "search-main.ts": "search.js",
   "design-main.ts": "design.js",
 } as const;
-
-/**
- * `svgdom` is Node's stand-in for a DOM, loaded through src/render/svg-window.ts; in the browser the
- * page's own DOM is used instead.
- */
-const svgdomToRealDom: Plugin = {
-  name: "svgdom-to-real-dom",
-  setup(b) {
-    const shim = { path: path.join(BROWSER_DIR, "svgdom-shim.ts") };
-    b.onResolve({ filter: /^svgdom$/ }, () => shim);
-    b.onResolve({ filter: /\/svg-window\.ts$/ }, () => shim);
-  },
-};
 
 export async function writeBrowserScripts(
   outDir: string,
@@ -47,7 +34,6 @@ export async function writeBrowserScripts(
       legalComments: "none",
       charset: "utf8",
       logLevel: "silent",
-      plugins: [svgdomToRealDom],
     });
     written.push(file);
   }

@@ -1,12 +1,12 @@
 /** Diode, zener and LED (IEC 60617 / IEEE 315): anode at the top, cathode bar at the bottom. */
-import type { G } from "@svgdotjs/svg.js";
+import type { SvgPen } from "../svg-text.ts";
 import { arrowHead, INK, type SymbolDef } from "./types.ts";
 
 const PINS = { anode: [0, -30], cathode: [0, 30] } as const;
 
-function diodeBody(g: G): void {
+function diodeBody(g: SvgPen): void {
   g.line(0, -30, 0, -8);
-  g.polygon([-10, -8, 10, -8, 0, 8]).fill(INK);
+  g.polygon([-10, -8, 10, -8, 0, 8], { fill: INK });
   g.line(0, 8, 0, 30);
 }
 

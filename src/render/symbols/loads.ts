@@ -12,10 +12,12 @@ export const motor: SymbolDef = {
   body: { x: -17, y: -30, w: 34, h: 60 },
   draw(g) {
     g.line(0, -30, 0, -16);
-    g.circle(32).center(0, 0);
-    g.element("text")
-      .words("M")
-      .attr({ x: 0, y: 6, stroke: "none", "font-size": 16, "text-anchor": "middle", "font-weight": "bold", fill: INK });
+    g.circle(0, 0, 16);
+    g.textElement(
+      "text",
+      { x: 0, y: 6, stroke: "none", "font-size": 16, "text-anchor": "middle", "font-weight": "bold", fill: INK },
+      "M",
+    );
     g.line(0, 16, 0, 30);
   },
 };
@@ -25,7 +27,7 @@ export const lamp: SymbolDef = {
   body: { x: -15, y: -30, w: 30, h: 60 },
   draw(g) {
     g.line(0, -30, 0, -14);
-    g.circle(28).center(0, 0);
+    g.circle(0, 0, 14);
     g.line(-10, -10, 10, 10);
     g.line(-10, 10, 10, -10);
     g.line(0, 14, 0, 30);
@@ -37,7 +39,7 @@ export const heater: SymbolDef = {
   body: { x: -13, y: -30, w: 26, h: 60 },
   draw(g) {
     g.line(0, -30, 0, -18);
-    g.rect(24, 36).move(-12, -18);
+    g.rect(-12, -18, 24, 36);
     g.polyline([0, -18, 0, -13, -6, -9, 6, -3, -6, 3, 6, 9, 0, 13, 0, 18]);
     g.line(0, 18, 0, 30);
   },
@@ -47,11 +49,9 @@ export const ledStrip: SymbolDef = {
   pins: TWO_PIN,
   body: { x: -16, y: -30, w: 36, h: 60 },
   draw(g) {
-    g.rect(30, 48).move(-15, -24).attr({ "stroke-dasharray": "4 3" });
-    for (const cy of [-11, 11]) {
-      const d = g.group().transform({ translateX: 0, translateY: cy, scale: 0.5 });
-      diode.draw(d);
-    }
+    g.rect(-15, -24, 30, 48, { "stroke-dasharray": "4 3" });
+    // Each LED at half size, as the affine matrix (a b c d e f) of scale 0.5 then a shift by cy.
+    for (const cy of [-11, 11]) g.group({ transform: `matrix(0.5,0,0,0.5,0,${cy})` }, (d) => diode.draw(d));
     g.line(0, -30, 0, -26);
     g.line(0, 26, 0, 30);
     arrowHead(g, [6, -4], [17, -13], 5);
@@ -63,7 +63,7 @@ export const solenoid: SymbolDef = {
   body: { x: -13, y: -30, w: 26, h: 60 },
   draw(g) {
     g.line(0, -30, 0, -14);
-    g.rect(24, 28).move(-12, -14);
+    g.rect(-12, -14, 24, 28);
     g.line(-12, 14, 12, -14);
     g.line(0, 14, 0, 30);
   },

@@ -9,7 +9,7 @@ export const resistor: SymbolDef = {
   body: { x: -8, y: -30, w: 16, h: 60 },
   draw(g) {
     g.line(0, -30, 0, -18);
-    g.rect(14, 36).move(-7, -18);
+    g.rect(-7, -18, 14, 36);
     g.line(0, 18, 0, 30);
   },
 };
@@ -41,8 +41,8 @@ export const capacitorPolarised: SymbolDef = {
   body: { x: -15, y: -30, w: 30, h: 60 },
   draw(g) {
     g.line(0, -30, 0, -6);
-    g.rect(28, 5).move(-14, -6);
-    g.rect(28, 5).move(-14, 3).fill(INK);
+    g.rect(-14, -6, 28, 5);
+    g.rect(-14, 3, 28, 5, { fill: INK });
     g.line(0, 8, 0, 30);
     g.line(-12, -16, -6, -16);
     g.line(-9, -19, -9, -13);
@@ -54,7 +54,7 @@ export const fuse: SymbolDef = {
   body: { x: -8, y: -30, w: 16, h: 60 },
   draw(g) {
     g.line(0, -30, 0, 30);
-    g.rect(12, 30).move(-6, -15);
+    g.rect(-6, -15, 12, 30);
   },
 };
 
@@ -67,7 +67,7 @@ export const changeover: SymbolDef = {
   body: { x: -20, y: -30, w: 36, h: 60 },
   draw(g) {
     g.line(0, -30, 0, -10);
-    g.circle(4).center(0, -10).fill(INK);
+    g.circle(0, -10, 2, { fill: INK });
     g.line(0, -10, 12, 10);
     g.line(10, 12, 10, 30);
     g.line(4, 12, 14, 12);

@@ -9,7 +9,7 @@ export const probe: SymbolDef = {
   body: { x: -11, y: -30, w: 22, h: 60 },
   draw(g) {
     g.line(0, -30, 0, -10);
-    g.circle(20).center(0, 0).attr({ "stroke-dasharray": "3 2" });
+    g.circle(0, 0, 10, { "stroke-dasharray": "3 2" });
     g.line(0, -6, 0, 4);
     arrowHead(g, [0, 0], [0, 7], 5);
     g.line(0, 10, 0, 30);

@@ -18,7 +18,7 @@ export const terminal: SymbolDef = {
   pins: { p: [0, 0] },
   body: { x: -12, y: -5, w: 12, h: 10 },
   draw(g) {
-    g.circle(8).center(-6, 0).fill("#fff");
+    g.circle(-6, 0, 4, { fill: "#ffffff" });
     g.line(-2, 0, 0, 0);
   },
 };

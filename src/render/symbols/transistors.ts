@@ -3,15 +3,15 @@
  * on the left at (−30, 0). NPN: collector up, emitter down. PNP: emitter up, collector down (the
  * way both sit in a complementary follower and a high-side switch). MOSFET: drain up, source down.
  */
-import type { G } from "@svgdotjs/svg.js";
+import type { SvgPen } from "../svg-text.ts";
 import { arrowHead, type SymbolDef } from "./types.ts";
 
 const BODY = { x: -30, y: -30, w: 52, h: 60 };
 
-function bjtFrame(g: G): void {
-  g.circle(38).center(2, 0);
+function bjtFrame(g: SvgPen): void {
+  g.circle(2, 0, 19);
   g.line(-30, 0, -8, 0);
-  g.line(-8, -12, -8, 12).stroke({ width: 3 });
+  g.line(-8, -12, -8, 12, { "stroke-width": 3 });
   g.line(-8, -6, 10, -18);
   g.line(10, -18, 10, -30);
   g.line(-8, 6, 10, 18);
@@ -36,8 +36,8 @@ export const pnp: SymbolDef = {
   },
 };
 
-function mosFrame(g: G): void {
-  g.circle(38).center(2, 0);
+function mosFrame(g: SvgPen): void {
+  g.circle(2, 0, 19);
   g.line(-30, 0, -11, 0);
   g.line(-11, -11, -11, 11);
   for (const [y1, y2] of [
@@ -45,7 +45,7 @@ function mosFrame(g: G): void {
     [-3, 3],
     [7, 14],
   ] as const)
-    g.line(-5, y1, -5, y2).stroke({ width: 3 });
+    g.line(-5, y1, -5, y2, { "stroke-width": 3 });
   g.line(-5, -11, 10, -11);
   g.line(10, -11, 10, -30);
   g.line(-5, 11, 10, 11);
