@@ -12,7 +12,6 @@
  */
 import { writeFileSync } from "node:fs";
 import { loadavg } from "node:os";
-import { fileURLToPath } from "node:url";
 import { startEngine } from "../src/verify/engines/index.ts";
 import type { SpiceEngine } from "../src/verify/engines/types.ts";
 import { measureVariant, type Measured } from "../src/verify/plan.ts";
@@ -96,13 +95,9 @@ function profiled(engine: SpiceEngine, records: RunRecord[], id: () => string): 
 const dumpDir = arg("--dump");
 const only = arg("--only");
 const shard = (arg("--shard") ?? "1/1").split("/").map(Number) as [number, number];
-const { loadProject } = await import("../src/records/index.ts");
-const { sizeProject, renderVariant } = await import("../src/cli/pipeline.ts");
-const project = await loadProject(fileURLToPath(new URL("..", import.meta.url)));
-if (!project.ok) throw new Error("the records do not load: run `pulsewright check`");
-const jobs = sizeProject(project)
-  .flatMap((d) => d.sized.map((v) => renderVariant(v, project.devices)))
-  .filter((r) => r.sized.feasible && r.netlist)
+const { feasibleDemoRenders } = await import("./demo-renders.ts");
+const { devices, renders } = await feasibleDemoRenders();
+const jobs = renders
   .filter((_, k) => k % shard[1] === shard[0] - 1)
   .filter((r) => only === undefined || only.split(",").some((o) => r.sized.spec.id.includes(o)));
 const records: RunRecord[] = [];
@@ -116,7 +111,7 @@ for (const r of jobs) {
   const plan = planOf(r.sized);
   if ("skipped" in plan) continue;
   current = r.sized.spec.id;
-  const corners = cornerDecks(r.sized, project.devices);
+  const corners = cornerDecks(r.sized, devices);
   const target = { ...plan.target, ...(corners.length > 0 ? { corners } : {}) };
   const m = await measureVariant(target, r.netlist, engine);
   measured[current] = m;

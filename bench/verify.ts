@@ -11,7 +11,7 @@
 import { mkdtempSync, readFileSync } from "node:fs";
 import { loadavg, tmpdir } from "node:os";
 import { join } from "node:path";
-import { fileURLToPath, pathToFileURL } from "node:url";
+import { pathToFileURL } from "node:url";
 import type { Part } from "../src/model/circuit.ts";
 import type { SizedVariant } from "../src/model/sized.ts";
 import { startEngine, type EngineName } from "../src/verify/engines/index.ts";
@@ -109,19 +109,14 @@ export async function benchVerify(jobCount = 6, log: (s: string) => void = conso
 
 /** Cold verification of the whole catalogue, once per worker count. */
 export async function benchCatalogue(workerCounts: number[], log: (s: string) => void = console.log): Promise<void> {
-  const { loadProject } = await import("../src/records/index.ts");
-  const { sizeProject, renderVariant } = await import("../src/cli/pipeline.ts");
-  const project = await loadProject(fileURLToPath(new URL("..", import.meta.url)));
-  if (!project.ok) throw new Error("the records do not load: run `pulsewright check`");
-  const jobs = sizeProject(project)
-    .flatMap((d) => d.sized.map((v) => renderVariant(v, project.devices)))
-    .filter((r) => r.sized.feasible && r.netlist)
-    .map((r) => ({
-      id: r.sized.spec.id,
-      sized: r.sized,
-      netlist: r.netlist,
-      corners: cornerDecks(r.sized, project.devices),
-    }));
+  const { feasibleDemoRenders } = await import("./demo-renders.ts");
+  const { devices, renders } = await feasibleDemoRenders();
+  const jobs = renders.map((r) => ({
+    id: r.sized.spec.id,
+    sized: r.sized,
+    netlist: r.netlist,
+    corners: cornerDecks(r.sized, devices),
+  }));
   // Runs per variant: the nominal plan's three, plus one per simulated corner.
   const runs = jobs.reduce((n, j) => n + SIMS_PER_JOB + j.corners.length, 0);
   log(
