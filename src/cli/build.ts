@@ -22,9 +22,8 @@ import { makeStagingDir, swapIntoPlace, discardStaging, sweepLeftovers } from ".
 import { checkOutDir, writeSiteMarker } from "./out-guard.ts";
 import { buildDate } from "./build-date.ts";
 import type { Verification } from "../model/verification.ts";
-import type { BuiltDesign } from "../model/catalogue.ts";
 import type { LoadedProject } from "./pipeline.ts";
-import type { CatalogueHead, WriteStats } from "../site/write.ts";
+import type { CatalogueHead, StreamedDesign, WriteStats } from "../site/write.ts";
 
 /**
  * The code of the whole build after sizing (site writer, templates, browser scripts; sizing and
@@ -197,10 +196,12 @@ export async function runBuild(o: BuildOptions): Promise<number> {
   // The second pass: each design read back from its entry (just written, or unchanged), handed to
   // the site writer and let go before the next.
   const loaded = project;
-  function* designs(): Generator<BuiltDesign> {
-    for (const design of loaded.designs) {
+  const keys = sizeStats.keys;
+  function* designs(): Generator<StreamedDesign> {
+    for (const [i, design] of loaded.designs.entries()) {
       const { rendered } = sizeAndRenderDesign(loaded, design, sizedDir, undefined, { read: true });
-      yield assembleDesign(design, rendered, verifications, plot);
+      // The sized key decides the design's built variants but for their simulation: the pages are keyed by it.
+      yield { ...assembleDesign(design, rendered, verifications, plot), builtKey: keys[i]! };
     }
   }
   const published = await publishSite(o, head, designs(), { outDir, siteCache, inputKey });
@@ -247,7 +248,7 @@ function siteKey(
 async function publishSite(
   o: BuildOptions,
   head: CatalogueHead,
-  designs: Iterable<BuiltDesign> | AsyncIterable<BuiltDesign>,
+  designs: Iterable<StreamedDesign> | AsyncIterable<StreamedDesign>,
   at: { outDir: string; siteCache: string; inputKey: string },
 ): Promise<WriteStats | number> {
   // Imported here: a build with nothing to republish never loads the site writer.
@@ -338,11 +339,11 @@ async function overlappedBuild(o: BuildOptions, x: Overlap): Promise<number> {
   const head = catalogueHead(project, x.builtAt, x.pkg.version);
   const plot = cachedPlot(path.join(o.root, ".cache", "plot"), !o.rebuild);
   const none = new Map<string, Verification>();
-  async function* designs(): AsyncGenerator<BuiltDesign> {
+  async function* designs(): AsyncGenerator<StreamedDesign> {
     for (const [i, design] of project.designs.entries()) {
       await ready.get(i)?.promise;
       const { rendered } = sizeAndRenderDesign(project, design, sizedDir, undefined, { read: true });
-      yield assembleDesign(design, rendered, none, plot);
+      yield { ...assembleDesign(design, rendered, none, plot), builtKey: x.sizeStats.keys[i]! };
     }
   }
   const inputKey = siteKey(o, project, x.sizeStats.keys, none, x.pkg, x.builtAt);

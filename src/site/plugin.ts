@@ -6,14 +6,26 @@ import type { SiteView } from "./data.ts";
  * The Eleventy side of the site, as a plain plugin function: global data `pw` (the view models)
  * and two thin display filters over src/model/format.ts. Autoescape stays on: every record text is
  * escaped; only renderer-produced SVG is printed with `| safe`.
+ *
+ * Returns `release`, to be called once the run has written its pages: Eleventy keeps every run's
+ * configuration reachable from module-level caches (its compile cache is keyed per configuration,
+ * its layout cache keeps the first run's layout), so a configuration holding the view models
+ * would keep each chunk's views alive to the end of the build, ≈ 60 KB per variant. The views are
+ * handed over through a holder that `release` empties, and the compiled templates are dropped.
  */
-export function pulsewrightSite(cfg: EleventyUserConfig, view: SiteView): void {
+export function pulsewrightSite(cfg: EleventyUserConfig, view: SiteView): () => void {
   cfg.setTemplateFormats(["njk"]);
   cfg.setNunjucksEnvironmentOptions({ autoescape: true, trimBlocks: true, lstripBlocks: true });
-  cfg.addGlobalData("pw", view);
+  const held: { view: SiteView | null } = { view };
+  // A function as global data is called once per run, when the data are gathered.
+  cfg.addGlobalData("pw", () => held.view);
   cfg.addFilter("unitValue", (value: number, unit: string) => formatValue(value, unit));
   cfg.addFilter("percent", (ratio: number) => formatPercent(ratio));
-  cacheCompiledTemplates(cfg);
+  const compiled = cacheCompiledTemplates(cfg);
+  return () => {
+    held.view = null;
+    compiled.clear();
+  };
 }
 
 /**
@@ -23,7 +35,7 @@ export function pulsewrightSite(cfg: EleventyUserConfig, view: SiteView): void {
  * environment Eleventy set up (its loader, options and filters), and rendered per page as before:
  * the output is the same, byte for byte.
  */
-function cacheCompiledTemplates(cfg: EleventyUserConfig): void {
+function cacheCompiledTemplates(cfg: EleventyUserConfig): Map<string, unknown> {
   let njk: { lib: NunjucksLib; env: unknown } | null = null;
   cfg.on("eleventy.engine.njk", ({ nunjucks, environment }) => {
     njk = { lib: nunjucks, env: environment };
@@ -46,4 +58,5 @@ function cacheCompiledTemplates(cfg: EleventyUserConfig): void {
     };
   // Permalinks ("variants/{{ variant.id }}/index.html") are templates too, rendered the same way.
   cfg.addExtension("njk", { compile: renderer, compileOptions: { permalink: renderer } });
+  return compiled;
 }

@@ -48,12 +48,33 @@ export function designKeyPart(d: BuiltDesign, policy: BuiltCatalogue["policy"]):
   return keyText([d.record, d.file, policy]);
 }
 
+/**
+ * A variant page's key. With `built`, the key of what decided the design's built variants (the
+ * build passes its sized key: record, device library, policy and the code that sizes, draws and
+ * plots), the page is keyed by that key, the variant's place and id, its simulation and the
+ * catalogue's engine data (`engineKey`), all of which the view is a function of (with the site
+ * code in `shared`), so neither the view nor the variant's circuit files are written out as JSON
+ * again for every page (≈ 1.5 s of the writer's thread per thousand variants). Without it (a
+ * catalogue handed over whole, as in the tests), the view and the built variant are hashed as text.
+ */
 export function variantPageKey(
   shared: readonly string[],
   designPart: string,
   view: VariantView,
   v: BuiltVariant,
+  built?: { key: string; index: number; engineKey: string },
 ): string {
+  if (built)
+    return hashParts([
+      "variant-page-built",
+      ...shared,
+      designPart,
+      built.engineKey,
+      built.key,
+      String(built.index),
+      v.sized.spec.id,
+      keyText(v.verification ?? null),
+    ]);
   return hashParts(["variant-page", ...shared, designPart, keyText(view), keyText(v)]);
 }
 

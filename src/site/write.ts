@@ -39,6 +39,15 @@ import {
   variantPageKey,
 } from "./site-cache.ts";
 import { readBundle, writeBundle, type Bundle } from "./site-bundle.ts";
+import { hashParts, keyText } from "../cache/store.ts";
+
+/**
+ * A design as the build streams it to the site writer: `builtKey`, when given, is the key of
+ * everything that decided its built variants apart from their simulation (the build's sized key,
+ * which covers the record, the device library, the policy and the code that sizes, draws and
+ * plots). Pages are then keyed by it instead of by the JSON text of each view (site-cache.ts).
+ */
+export type StreamedDesign = BuiltDesign & { builtKey?: string };
 
 /** The Eleventy input folder (templates) and the static assets copied as they are. */
 export const SITE_INPUT_DIR = fileURLToPath(new URL("../../site/", import.meta.url));
@@ -102,17 +111,22 @@ async function renderPages(view: SiteView, out: string, opts: WriteSiteOptions, 
   const { default: Eleventy } = await import("@11ty/eleventy");
   const skip =
     only === "chunk" ? ["index.njk", "sources.njk", "formulas.njk"] : ["design.njk", "design-group.njk", "variant.njk"];
+  let release = (): void => undefined;
   const eleventy = new Eleventy(SITE_INPUT_DIR, out, {
     quietMode: opts.quiet ?? true,
     configPath: "", // no project config file: everything comes from the plugin below
     pathPrefix: opts.pathPrefix ?? "/",
     config: (cfg) => {
-      pulsewrightSite(cfg, view);
+      release = pulsewrightSite(cfg, view);
       for (const t of skip) cfg.ignores.add(`**/${t}`);
     },
   });
   if (opts.quiet ?? true) eleventy.disableLogger();
-  await eleventy.write();
+  try {
+    await eleventy.write();
+  } finally {
+    release();
+  }
 }
 
 /** One design's pages waiting in the current chunk, with their cache keys. */
@@ -150,7 +164,7 @@ export async function writeSite(cat: BuiltCatalogue, outDir: string, opts: Write
  */
 export async function writeSiteStream(
   head: CatalogueHead,
-  designs: Iterable<BuiltDesign> | AsyncIterable<BuiltDesign>,
+  designs: Iterable<StreamedDesign> | AsyncIterable<StreamedDesign>,
   outDir: string,
   opts: WriteSiteOptions = {},
 ): Promise<WriteStats> {
@@ -168,6 +182,8 @@ export async function writeSiteStream(
   // The layout prints the version and policy on every page; the rest of the home view comes last.
   const pageHome = homeView({ ...head, summary }, [], []);
   const shared = sharedKeyParts(pageHome, prefix);
+  // The engine data every variant view reads (device library, policy): hashed once per build.
+  const engineKey = hashParts([keyText(head.engine ?? null)]);
   const sources = sourcesView();
   // Filled as the designs pass; the formulas page and basis.json are written after the last one.
   const formulaIndex = new FormulaIndex();
@@ -262,7 +278,10 @@ export async function writeSiteStream(
     const designKey = designPageKey(shared, view);
     const groupKeys = groups.map((g) => groupPageKey(shared, g));
     const part = designKeyPart(d, head.policy);
-    const keys = d.variants.map((v, vi) => variantPageKey(shared, part, variants[vi]!, v));
+    const built = d.builtKey;
+    const keys = d.variants.map((v, vi) =>
+      variantPageKey(shared, part, variants[vi]!, v, built ? { key: built, index: vi, engineKey } : undefined),
+    );
     designKeys.push(designKey, ...groupKeys);
     variantKeys.push(...keys);
     homeRows.push(homeDesignRow(d));
