@@ -25,12 +25,14 @@ function flat(m: Measured): Map<string, number> {
   return out;
 }
 
-/** Quantities compared as absolute differences (shares, duties, flags, near-zero end-run figures). */
-const ABSOLUTE =
-  /duty|symmetry|spread|retr|timing_from|on_needs|core_running|end_.*_(creep|swing|current@)|end_.*_(ca|cb)@/;
+/**
+ * Quantities compared as absolute differences (shares, duties, flags, near-zero end-run figures),
+ * by the quantity's name without its corner: a corner named `duty-…` holds relative figures too.
+ */
+const ABSOLUTE = /duty|symmetry|spread|retr|timing_from|on_needs|core_running|^end_.*_(creep|swing|current|ca|cb)$/;
 
 const [a, b] = [load(process.argv[2] ?? ""), load(process.argv[3] ?? "")];
-const worst = new Map<string, { change: number; id: string; from: number; to: number; n: number }>();
+const worst = new Map<string, { change: number; abs: boolean; id: string; from: number; to: number; n: number }>();
 let failed = 0;
 for (const [id, ma] of Object.entries(a)) {
   const mb = b[id];
@@ -44,11 +46,11 @@ for (const [id, ma] of Object.entries(a)) {
     const vb = fb.get(k);
     if (vb === undefined) continue;
     const q = k.replace(/@.*$/, "").replace(/^corner_/, "corner ");
-    const abs = ABSOLUTE.test(k);
+    const abs = ABSOLUTE.test(q);
     const change = abs ? Math.abs(vb - va) : Math.abs(vb - va) / Math.max(Math.abs(va), 1e-12);
     const w = worst.get(q);
     if (w === undefined || change > w.change)
-      worst.set(q, { change, id: `${id} ${k}`, from: va, to: vb, n: w?.n ?? 0 });
+      worst.set(q, { change, abs, id: `${id} ${k}`, from: va, to: vb, n: w?.n ?? 0 });
     worst.get(q)!.n++;
   }
 }
@@ -56,6 +58,6 @@ console.log(`variants compared: ${Object.keys(a).filter((id) => id in b).length}
 console.log("quantity | values | largest change | where");
 for (const [q, w] of [...worst].sort((x, y) => x[0].localeCompare(y[0])))
   console.log(
-    `${q} | ${w.n} | ${ABSOLUTE.test(w.id) ? w.change.toPrecision(3) : `${(100 * w.change).toPrecision(3)} %`} | ` +
+    `${q} | ${w.n} | ${w.abs ? w.change.toPrecision(3) : `${(100 * w.change).toPrecision(3)} %`} | ` +
       `${w.id}: ${w.from.toPrecision(5)} → ${w.to.toPrecision(5)}`,
   );

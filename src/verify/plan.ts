@@ -9,6 +9,7 @@ import type { PwmTiming } from "./edges.ts";
 import type { SpiceEngine } from "./engines/types.ts";
 import {
   DEFAULT_RUN_PLAN,
+  MIN_WHOLE_PERIODS,
   loadTiming,
   loadVoltage,
   nominalRunDeck,
@@ -28,7 +29,7 @@ import { measurePullIn } from "./pull-in.ts";
 import { measureEnds } from "./end-runs.ts";
 
 /** Bumped whenever measurement code changes what it reports: part of every cache key. */
-export const MEASURE_CODE_VERSION = "verify-measure-14";
+export const MEASURE_CODE_VERSION = "verify-measure-15";
 
 /** Transients of the nominal plan per variant (ctrl 0.5, 0, 1); corner runs come on top (corner-runs.ts). */
 export const NOMINAL_RUNS = 3;
@@ -226,7 +227,11 @@ function coreSymmetry(run: Run): number {
     const y = vec(run, `v(${net})`);
     const lo = Math.min(...y.subarray(y.length >> 1));
     const hi = upperLevel(run.t, y, run.from_s, run.tEnd_s);
-    const tm = pwmTiming(run.t, y, (lo + hi) / 2, { hyst: 0.05 * (hi - lo), from_s: run.from_s });
+    const tm = pwmTiming(run.t, y, (lo + hi) / 2, {
+      hyst: 0.05 * (hi - lo),
+      from_s: run.from_s,
+      minPeriods: MIN_WHOLE_PERIODS,
+    });
     return tm.kind === "pwm" ? tm.duty * tm.period_s : Number.NaN;
   };
   const a = highTime("ca");

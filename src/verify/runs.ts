@@ -13,7 +13,8 @@ import { SpiceRunError } from "../model/errors.ts";
 /**
  * Transient length, start-up discarded and largest step, in predicted periods. The core starts from
  * an `.ic` with one collector high and is settled after its first period; the figures behind these
- * defaults (settling, step-size accuracy, speed) are in docs/verification.md.
+ * defaults (settling, step-size accuracy, speed, and what reading 3 periods instead of 4 moved) are
+ * in docs/verification.md.
  */
 export interface RunPlan {
   periods: number;
@@ -35,6 +36,12 @@ export interface RunPlan {
    * 3·L/R settle (`settleTau`) from an unprepared start.
    */
   presetSettlePeriods?: number;
+  /**
+   * Length of an inductive load's preparatory run, in predicted periods (its settle included):
+   * the settled-current estimate averages the load's terminal voltage over its whole periods.
+   * Absent: `periods`.
+   */
+  preparatoryPeriods?: number;
   /** Solver options for every run, e.g. "abstol=1e-9 vntol=1e-5" (none: ngspice defaults). */
   options?: string;
   /**
@@ -54,12 +61,13 @@ export const POWER_RUN_OPTIONS = "reltol=1e-4";
  */
 export const PRESET_SETTLE_PERIODS = 10;
 export const DEFAULT_RUN_PLAN: Readonly<RunPlan> = {
-  periods: 5,
+  periods: 4,
   settlePeriods: 1,
   stepsPerPeriod: 150,
   timingStepsPerPeriod: 50,
   settleTau: 3,
   presetSettlePeriods: PRESET_SETTLE_PERIODS,
+  preparatoryPeriods: 5,
   powerOptions: POWER_RUN_OPTIONS,
 };
 
@@ -241,6 +249,7 @@ export async function runAt(
     // Preparatory run: core settled, load started at the predicted current, default tolerances.
     const prepPlan: RunPlan = {
       ...plan,
+      periods: plan.preparatoryPeriods ?? plan.periods,
       presetSettlePeriods: plan.settlePeriods,
       stepsPerPeriod: plan.timingStepsPerPeriod ?? plan.stepsPerPeriod,
     };
@@ -368,6 +377,13 @@ export function switchVoltage(target: VerifyTarget, run: Run): Float64Array {
 export const MIN_PULSE_PERIODS = 0.02;
 
 /**
+ * Whole periods a run's timing is read over, at least. The run is settled after its first period
+ * (docs/verification.md, "Run plan"), so one whole period gives the frequency and the duty; three
+ * predicted periods after the settle then hold one for a period up to 1.5 × the predicted one.
+ */
+export const MIN_WHOLE_PERIODS = 1;
+
+/**
  * Gate hysteresis, a share of VTO: 10 % (0.2 V at 2 V) is well above gate pick-up from the drain's ringing through C_GD
  * (mV).
  */
@@ -386,6 +402,7 @@ export function loadTiming(target: VerifyTarget, run: Run, onCurrent_A: number):
     return pwmTiming(run.t, drive, level, {
       hyst: GATE_HYST * level,
       from_s: run.from_s,
+      minPeriods: MIN_WHOLE_PERIODS,
       minPulse_s: MIN_PULSE_PERIODS * target.period_s,
     });
   }
@@ -404,11 +421,16 @@ export function loadTiming(target: VerifyTarget, run: Run, onCurrent_A: number):
     return pwmTiming(run.t, s, level, {
       hyst: 0.1 * level,
       from_s: run.from_s,
+      minPeriods: MIN_WHOLE_PERIODS,
       minPulse_s: MIN_PULSE_PERIODS * target.period_s,
     });
   }
   const level = onCurrent_A / 2;
-  return pwmTiming(run.t, vec(run, "i(vsense)"), level, { hyst: 0.1 * level, from_s: run.from_s });
+  return pwmTiming(run.t, vec(run, "i(vsense)"), level, {
+    hyst: 0.1 * level,
+    from_s: run.from_s,
+    minPeriods: MIN_WHOLE_PERIODS,
+  });
 }
 
 /** The load's on-current, from a run where it is on for a good part of the time (ctrl = 1). */

@@ -12,7 +12,14 @@
  * the cache.
  * Format and reasons: docs/verification.md, "The published netlist checks itself".
  */
-import { DEFAULT_RUN_PLAN, POWER_RUN_OPTIONS, nominalRunDeck, settleTime, switchLevel, type RunPlan } from "./runs.ts";
+import {
+  PRESET_SETTLE_PERIODS,
+  POWER_RUN_OPTIONS,
+  nominalRunDeck,
+  settleTime,
+  switchLevel,
+  type RunPlan,
+} from "./runs.ts";
 
 /** The published batch run's convergence aid (see withSelfCheck's block). */
 export const BATCH_RSHUNT = "rshunt=1e9";
@@ -27,16 +34,25 @@ import { SELF_CHECK_BEGIN, SELF_CHECK_END, stripSelfCheck } from "./deck.ts";
 export { SELF_CHECK_BEGIN, SELF_CHECK_END, stripSelfCheck };
 
 /**
- * The batch run's plan: the verifier's, but settling as from an unprepared start. A batch run has
+ * The batch run's plan, its own numbers so the published text does not follow the verifier's
+ * (which reads 3 periods since 2026-12-03): settling as from an unprepared start. A batch run has
  * no preparatory run to start an inductive load at its settled current (runs.ts `loadHold`), so it
  * settles 3·L/R (`settleTau`), and the core 2 periods from its `.ic` (the verifier's 1, plus one
  * for the `.meas` lines, which cannot skip a late first edge).
  */
-export const SELF_CHECK_PLAN: Readonly<RunPlan> = { ...DEFAULT_RUN_PLAN, settlePeriods: 2, periods: 6 };
+export const SELF_CHECK_PLAN: Readonly<RunPlan> = {
+  periods: 6,
+  settlePeriods: 2,
+  stepsPerPeriod: 150,
+  timingStepsPerPeriod: 50,
+  settleTau: 3,
+  presetSettlePeriods: PRESET_SETTLE_PERIODS,
+  powerOptions: POWER_RUN_OPTIONS,
+};
 
 /** The duty-control position the published deck runs at. */
 export const SELF_CHECK_CTRL = 1;
-/** Whole periods the `.meas` lines average over (the verifier's plan measures 4 as well). */
+/** Whole periods the `.meas` lines average over (a batch run has no settled start to lean on). */
 export const MEASURED_PERIODS = 4;
 /**
  * Predicted periods simulated after the settle time: the measured periods plus room for a
