@@ -13,6 +13,7 @@
  * Pure functions; nothing rounded.
  */
 import { offTime_s } from "./cross-bleed.ts";
+import { junctionTailCurrent_A } from "./core-levels.ts";
 
 /** A load on a timing collector seen as a resistance to a fixed voltage (a clamp, or 0 V). */
 export interface CollectorLoad {
@@ -124,6 +125,25 @@ export interface CoreParams {
    * (R_D, the base diode's drop at cut-in, the base's cut-in level V_γ). Absent: the single ln law.
    */
   cross?: { rD_ohm: number; vF_V: number; vGamma_V: number };
+  /**
+   * The low-supply levels (core-levels.ts): a capacitor-only follower's V_BE at its tail current, and
+   * each side's return level. Absent: V_BE,F and V_γ fixed (the plain textbook form).
+   */
+  levels?: CoreLevels;
+}
+
+/** The two levels of core-levels.ts, evaluated by the caller at its corner. */
+export interface CoreLevels {
+  /** Thermal voltage at the corner, V. */
+  vT_V: number;
+  /** The followers' V_BE at the current i_A (the timing transistors' typical junction law), V. */
+  followerVbe_V(i_A: number): number;
+  /**
+   * Base-node level at which side X's transistor turns the core over, V; `clampVbe_V` is X's
+   * follower's V_BE at the end of X's off phase when the follower's diode must clamp the plate
+   * (null: no follower, or one whose emitter load pulls the plate down with the collector).
+   */
+  returnLevel_V(side: "A" | "B", clampVbe_V: number | null): number;
 }
 
 /**
@@ -212,6 +232,9 @@ export interface CoreTiming {
   swingB_V: number;
   tauA_s: number;
   tauB_s: number;
+  /** Base-node level at which each side's transistor turned the core over (V_γ, or CoreParams.levels), V. */
+  returnA_V: number;
+  returnB_V: number;
 }
 
 /**
@@ -221,10 +244,21 @@ export interface CoreTiming {
  */
 export function evaluateCore(p: CoreParams): CoreTiming {
   const fo = p.follower;
-  const a = drivingThevenin(p.vcc_V, p.rCA_ohm, fo, p.loadA);
-  const b = drivingThevenin(p.vcc_V, p.rCB_ohm, fo, p.loadB);
-  const fullA = fo ? followerSwing_V(a.v_V, p.vSat_V, fo.vFA_V) : Math.max(0, a.v_V - p.vSat_V);
-  const fullB = fo ? followerSwing_V(b.v_V, p.vSat_V, fo.vFB_V) : Math.max(0, b.v_V - p.vSat_V);
+  const lv = p.levels;
+  // A follower whose emitter carries only its capacitor: its plate's high level and clamp drop follow
+  // the tail law (core-levels.ts); one that feeds the chain keeps its V_BE at the chain's current.
+  const tailA = fo !== undefined && lv !== undefined && (fo.loadsOnCollector === true || p.loadA === undefined);
+  const tailB = fo !== undefined && lv !== undefined && (fo.loadsOnCollector === true || p.loadB === undefined);
+  let vbeFA = fo?.vBe_V ?? 0;
+  let vbeFB = fo?.vBe_V ?? 0;
+  const drive = (rC: number, load: CollectorLoad | undefined, vbe: number): { v_V: number; r_ohm: number } =>
+    drivingThevenin(p.vcc_V, rC, fo === undefined ? undefined : { ...fo, vBe_V: vbe }, load);
+  const fullOf = (d: { v_V: number }, vF: number): number =>
+    fo ? followerSwing_V(d.v_V, p.vSat_V, vF) : Math.max(0, d.v_V - p.vSat_V);
+  let a = drive(p.rCA_ohm, p.loadA, vbeFA);
+  let b = drive(p.rCB_ohm, p.loadB, vbeFB);
+  let fullA = fullOf(a, fo?.vFA_V ?? 0);
+  let fullB = fullOf(b, fo?.vFB_V ?? 0);
   const tauA_s = (a.r_ohm + (fo?.rS_ohm ?? 0)) * p.cA_F;
   const tauB_s = (b.r_ohm + (fo?.rS_ohm ?? 0)) * p.cB_F;
   const vGamma = p.vCutIn_V ?? p.vOn_V;
@@ -235,9 +269,9 @@ export function evaluateCore(p: CoreParams): CoreTiming {
   const cross = p.cross;
   // A swing smaller than V_on − V_γ never takes the base below cut-in: that side does not turn
   // off (the core latches). The floor keeps the numbers finite; the recovery figure rejects it.
-  const off = (rB: number, c: number, swing: number): number =>
+  const off = (rB: number, c: number, swing: number, vReturn: number): number =>
     cross === undefined
-      ? rB * c * Math.max(LN_FLOOR, lnFactor(p.vcc_V, p.vOn_V, swing, vGamma))
+      ? rB * c * Math.max(LN_FLOOR, lnFactor(p.vcc_V, p.vOn_V, swing, vReturn))
       : Math.max(
           rB * c * LN_FLOOR,
           offTime_s({
@@ -251,12 +285,31 @@ export function evaluateCore(p: CoreParams): CoreTiming {
             rD_ohm: cross.rD_ohm,
           }),
         );
+  const returnOf = (side: "A" | "B", tail: boolean, vbe: number): number =>
+    lv === undefined ? vGamma : Math.min(p.vOn_V, lv.returnLevel_V(side, tail ? vbe : null));
+  let returnA = vGamma;
+  let returnB = vGamma;
   for (let i = 0; i < 40; i++) {
-    tBoff = off(p.rBB_ohm, p.cA_F, swingA);
-    tAoff = off(p.rBA_ohm, p.cB_F, swingB);
+    returnA = returnOf("A", tailA, vbeFA);
+    returnB = returnOf("B", tailB, vbeFB);
+    tBoff = off(p.rBB_ohm, p.cA_F, swingA, returnB);
+    tAoff = off(p.rBA_ohm, p.cB_F, swingB, returnA);
+    let moved = 0;
+    if (lv !== undefined && (tailA || tailB)) {
+      // Plate X is high (and its follower in its tail) for X's off phase.
+      const nA = tailA ? lv.followerVbe_V(junctionTailCurrent_A(p.cA_F, tAoff, lv.vT_V)) : vbeFA;
+      const nB = tailB ? lv.followerVbe_V(junctionTailCurrent_A(p.cB_F, tBoff, lv.vT_V)) : vbeFB;
+      moved = Math.max(Math.abs(nA - vbeFA), Math.abs(nB - vbeFB));
+      vbeFA = nA;
+      vbeFB = nB;
+      a = drive(p.rCA_ohm, p.loadA, vbeFA);
+      b = drive(p.rCB_ohm, p.loadB, vbeFB);
+      fullA = fullOf(a, fo!.vFA_V);
+      fullB = fullOf(b, fo!.vFB_V);
+    }
     const nA = fullA * (1 - Math.exp(-tAoff / tauA_s));
     const nB = fullB * (1 - Math.exp(-tBoff / tauB_s));
-    const done = Math.abs(nA - swingA) < 1e-12 * fullA && Math.abs(nB - swingB) < 1e-12 * fullB;
+    const done = moved < 1e-9 && Math.abs(nA - swingA) < 1e-12 * fullA && Math.abs(nB - swingB) < 1e-12 * fullB;
     swingA = nA;
     swingB = nB;
     if (done) break;
@@ -273,5 +326,7 @@ export function evaluateCore(p: CoreParams): CoreTiming {
     swingB_V: swingB,
     tauA_s,
     tauB_s,
+    returnA_V: returnA,
+    returnB_V: returnB,
   };
 }
