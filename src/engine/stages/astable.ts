@@ -237,6 +237,93 @@ export interface CoreTiming {
   returnB_V: number;
 }
 
+/** A capacitor-only follower's V_BE t_s into its plate's high phase (core-levels.ts, the tail law). */
+function tailVbe_V(lv: CoreLevels, c_F: number, t_s: number): number {
+  return lv.followerVbe_V(junctionTailCurrent_A(c_F, t_s, lv.vT_V));
+}
+
+/**
+ * One off phase: the single ln law, or the cross-returned bleed's two segments. A swing smaller than
+ * V_on − V_γ never takes the base below its return level: that side does not turn off (the core
+ * latches). The floor keeps the numbers finite; the recovery figure rejects it.
+ */
+function offPhase_s(p: CoreParams, rB: number, c: number, swing: number, vReturn: number): number {
+  const cross = p.cross;
+  if (cross === undefined) return rB * c * Math.max(LN_FLOOR, lnFactor(p.vcc_V, p.vOn_V, swing, vReturn));
+  return Math.max(
+    rB * c * LN_FLOOR,
+    offTime_s({
+      rB_ohm: rB,
+      c_F: c,
+      vcc_V: p.vcc_V,
+      vStart_V: p.vOn_V - swing,
+      vSat_V: p.vSat_V,
+      vF_V: cross.vF_V,
+      vGamma_V: cross.vGamma_V,
+      rD_ohm: cross.rD_ohm,
+    }),
+  );
+}
+
+/** One side's driving node while the fixed point runs: its follower's V_BE, source, full swing and return level. */
+interface SideState {
+  /** A follower whose emitter carries only its capacitor (core-levels.ts, the tail law). */
+  tail: boolean;
+  vbeF_V: number;
+  drive: { v_V: number; r_ohm: number };
+  full: number;
+  vReturn: number;
+}
+
+function sideDrive(p: CoreParams, x: "A" | "B", vbe: number): { drive: { v_V: number; r_ohm: number }; full: number } {
+  const fo = p.follower;
+  const rC = x === "A" ? p.rCA_ohm : p.rCB_ohm;
+  const load = x === "A" ? p.loadA : p.loadB;
+  const drive = drivingThevenin(p.vcc_V, rC, fo === undefined ? undefined : { ...fo, vBe_V: vbe }, load);
+  const full =
+    fo === undefined
+      ? Math.max(0, drive.v_V - p.vSat_V)
+      : followerSwing_V(drive.v_V, p.vSat_V, x === "A" ? fo.vFA_V : fo.vFB_V);
+  return { drive, full };
+}
+
+function returnLevel(p: CoreParams, s: SideState, x: "A" | "B"): number {
+  const lv = p.levels;
+  if (lv === undefined) return p.vCutIn_V ?? p.vOn_V;
+  return Math.min(p.vOn_V, lv.returnLevel_V(x, s.tail ? s.vbeF_V : null));
+}
+
+/**
+ * Side X at the start: a follower in its tail (no DC load on its emitter, or the chain on the
+ * collector) starts from the textbook half-period R_B·C·ln 2, so the fixed point has little left to move.
+ */
+function startSide(p: CoreParams, x: "A" | "B"): SideState {
+  const fo = p.follower;
+  const lv = p.levels;
+  const load = x === "A" ? p.loadA : p.loadB;
+  const tail = fo !== undefined && lv !== undefined && (fo.loadsOnCollector === true || load === undefined);
+  const t0_s = x === "A" ? p.rBA_ohm * p.cB_F * Math.LN2 : p.rBB_ohm * p.cA_F * Math.LN2;
+  const vbeF_V = tail ? tailVbe_V(lv!, x === "A" ? p.cA_F : p.cB_F, t0_s) : (fo?.vBe_V ?? 0);
+  const s: SideState = { tail, vbeF_V, ...sideDrive(p, x, vbeF_V), vReturn: 0 };
+  s.vReturn = returnLevel(p, s, x);
+  return s;
+}
+
+/** A side without a tail keeps its return level; one with a tail follows its follower's V_BE. */
+function refreshReturn(p: CoreParams, s: SideState, x: "A" | "B"): void {
+  if (s.tail) s.vReturn = returnLevel(p, s, x);
+}
+
+/** Moves side X's tail V_BE to the one its off time t_s gives; returns how far it moved, V. */
+function moveTail(p: CoreParams, lv: CoreLevels, s: SideState, x: "A" | "B", t_s: number): number {
+  if (!s.tail) return 0;
+  const n = tailVbe_V(lv, x === "A" ? p.cA_F : p.cB_F, t_s);
+  const moved = Math.abs(n - s.vbeF_V);
+  s.vbeF_V = n;
+  Object.assign(s, sideDrive(p, x, n));
+  return moved;
+}
+
 /**
  * Both half-periods with loading and incomplete collector recovery, solved as a fixed point
  * (each side's swing depends on the other side's off time; converges in a few steps because the
@@ -245,75 +332,36 @@ export interface CoreTiming {
 export function evaluateCore(p: CoreParams): CoreTiming {
   const fo = p.follower;
   const lv = p.levels;
-  // A follower whose emitter carries only its capacitor: its plate's high level and clamp drop follow
-  // the tail law (core-levels.ts); one that feeds the chain keeps its V_BE at the chain's current.
-  const tailA = fo !== undefined && lv !== undefined && (fo.loadsOnCollector === true || p.loadA === undefined);
-  const tailB = fo !== undefined && lv !== undefined && (fo.loadsOnCollector === true || p.loadB === undefined);
-  let vbeFA = fo?.vBe_V ?? 0;
-  let vbeFB = fo?.vBe_V ?? 0;
-  const drive = (rC: number, load: CollectorLoad | undefined, vbe: number): { v_V: number; r_ohm: number } =>
-    drivingThevenin(p.vcc_V, rC, fo === undefined ? undefined : { ...fo, vBe_V: vbe }, load);
-  const fullOf = (d: { v_V: number }, vF: number): number =>
-    fo ? followerSwing_V(d.v_V, p.vSat_V, vF) : Math.max(0, d.v_V - p.vSat_V);
-  let a = drive(p.rCA_ohm, p.loadA, vbeFA);
-  let b = drive(p.rCB_ohm, p.loadB, vbeFB);
-  let fullA = fullOf(a, fo?.vFA_V ?? 0);
-  let fullB = fullOf(b, fo?.vFB_V ?? 0);
-  const tauA_s = (a.r_ohm + (fo?.rS_ohm ?? 0)) * p.cA_F;
-  const tauB_s = (b.r_ohm + (fo?.rS_ohm ?? 0)) * p.cB_F;
-  const vGamma = p.vCutIn_V ?? p.vOn_V;
-  let swingA = fullA;
-  let swingB = fullB;
+  const sideA = startSide(p, "A");
+  const sideB = startSide(p, "B");
+  const tauA_s = (sideA.drive.r_ohm + (fo?.rS_ohm ?? 0)) * p.cA_F;
+  const tauB_s = (sideB.drive.r_ohm + (fo?.rS_ohm ?? 0)) * p.cB_F;
+  let swingA = sideA.full;
+  let swingB = sideB.full;
   let tAoff = 0;
   let tBoff = 0;
-  const cross = p.cross;
-  // A swing smaller than V_on − V_γ never takes the base below cut-in: that side does not turn
-  // off (the core latches). The floor keeps the numbers finite; the recovery figure rejects it.
-  const off = (rB: number, c: number, swing: number, vReturn: number): number =>
-    cross === undefined
-      ? rB * c * Math.max(LN_FLOOR, lnFactor(p.vcc_V, p.vOn_V, swing, vReturn))
-      : Math.max(
-          rB * c * LN_FLOOR,
-          offTime_s({
-            rB_ohm: rB,
-            c_F: c,
-            vcc_V: p.vcc_V,
-            vStart_V: p.vOn_V - swing,
-            vSat_V: p.vSat_V,
-            vF_V: cross.vF_V,
-            vGamma_V: cross.vGamma_V,
-            rD_ohm: cross.rD_ohm,
-          }),
-        );
-  const returnOf = (side: "A" | "B", tail: boolean, vbe: number): number =>
-    lv === undefined ? vGamma : Math.min(p.vOn_V, lv.returnLevel_V(side, tail ? vbe : null));
-  let returnA = vGamma;
-  let returnB = vGamma;
   for (let i = 0; i < 40; i++) {
-    returnA = returnOf("A", tailA, vbeFA);
-    returnB = returnOf("B", tailB, vbeFB);
-    tBoff = off(p.rBB_ohm, p.cA_F, swingA, returnB);
-    tAoff = off(p.rBA_ohm, p.cB_F, swingB, returnA);
-    let moved = 0;
-    if (lv !== undefined && (tailA || tailB)) {
-      // Plate X is high (and its follower in its tail) for X's off phase.
-      const nA = tailA ? lv.followerVbe_V(junctionTailCurrent_A(p.cA_F, tAoff, lv.vT_V)) : vbeFA;
-      const nB = tailB ? lv.followerVbe_V(junctionTailCurrent_A(p.cB_F, tBoff, lv.vT_V)) : vbeFB;
-      moved = Math.max(Math.abs(nA - vbeFA), Math.abs(nB - vbeFB));
-      vbeFA = nA;
-      vbeFB = nB;
-      a = drive(p.rCA_ohm, p.loadA, vbeFA);
-      b = drive(p.rCB_ohm, p.loadB, vbeFB);
-      fullA = fullOf(a, fo!.vFA_V);
-      fullB = fullOf(b, fo!.vFB_V);
+    if (i > 0) {
+      refreshReturn(p, sideA, "A");
+      refreshReturn(p, sideB, "B");
     }
-    const nA = fullA * (1 - Math.exp(-tAoff / tauA_s));
-    const nB = fullB * (1 - Math.exp(-tBoff / tauB_s));
-    const done = moved < 1e-9 && Math.abs(nA - swingA) < 1e-12 * fullA && Math.abs(nB - swingB) < 1e-12 * fullB;
+    tBoff = offPhase_s(p, p.rBB_ohm, p.cA_F, swingA, sideB.vReturn);
+    tAoff = offPhase_s(p, p.rBA_ohm, p.cB_F, swingB, sideA.vReturn);
+    // Plate X is high (and its follower in its tail) for X's off phase.
+    const moved =
+      lv === undefined ? 0 : Math.max(moveTail(p, lv, sideA, "A", tAoff), moveTail(p, lv, sideB, "B", tBoff));
+    const nA = sideA.full * (1 - Math.exp(-tAoff / tauA_s));
+    const nB = sideB.full * (1 - Math.exp(-tBoff / tauB_s));
+    const done =
+      moved < 1e-7 && Math.abs(nA - swingA) < 1e-12 * sideA.full && Math.abs(nB - swingB) < 1e-12 * sideB.full;
     swingA = nA;
     swingB = nB;
     if (done) break;
   }
+  const a = sideA.drive;
+  const b = sideB.drive;
+  const returnA = sideA.vReturn;
+  const returnB = sideB.vReturn;
   const period_s = tAoff + tBoff;
   return {
     tAoff_s: tAoff,
