@@ -295,15 +295,14 @@ function returnLevel(p: CoreParams, s: SideState, x: "A" | "B"): number {
 
 /**
  * Side X at the start: a follower in its tail (no DC load on its emitter, or the chain on the
- * collector) starts from the textbook half-period R_B·C·ln 2, so the fixed point has little left to move.
+ * collector) starts from V_BE(on), and the fixed point moves it to its tail level.
  */
 function startSide(p: CoreParams, x: "A" | "B"): SideState {
   const fo = p.follower;
   const lv = p.levels;
   const load = x === "A" ? p.loadA : p.loadB;
   const tail = fo !== undefined && lv !== undefined && (fo.loadsOnCollector === true || load === undefined);
-  const t0_s = x === "A" ? p.rBA_ohm * p.cB_F * Math.LN2 : p.rBB_ohm * p.cA_F * Math.LN2;
-  const vbeF_V = tail ? tailVbe_V(lv!, x === "A" ? p.cA_F : p.cB_F, t0_s) : (fo?.vBe_V ?? 0);
+  const vbeF_V = fo?.vBe_V ?? 0;
   const s: SideState = { tail, vbeF_V, ...sideDrive(p, x, vbeF_V), vReturn: 0 };
   s.vReturn = returnLevel(p, s, x);
   return s;
@@ -353,7 +352,7 @@ export function evaluateCore(p: CoreParams): CoreTiming {
     const nA = sideA.full * (1 - Math.exp(-tAoff / tauA_s));
     const nB = sideB.full * (1 - Math.exp(-tBoff / tauB_s));
     const done =
-      moved < 1e-7 && Math.abs(nA - swingA) < 1e-12 * sideA.full && Math.abs(nB - swingB) < 1e-12 * sideB.full;
+      moved < 1e-9 && Math.abs(nA - swingA) < 1e-12 * sideA.full && Math.abs(nB - swingB) < 1e-12 * sideB.full;
     swingA = nA;
     swingB = nB;
     if (done) break;

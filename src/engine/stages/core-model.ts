@@ -292,13 +292,13 @@ function coreLevels(
   },
 ): CoreLevels {
   const vbeAt = (i_A: number): number => vbeTypical_V(q, Math.max(LEVEL_I_MIN_A, i_A), k.t_C);
-  // Each side's gain at its saturated current: for its excess while it conducts, and (read there too,
-  // the gain moving little over the decade between) for the base current it draws when it returns.
-  const betaA = hfeMin(q, Math.min(q.ic_max_A, k.vcc_V / c.rCA), k.t_C);
-  const betaB = hfeMin(q, Math.min(q.ic_max_A, k.vcc_V / c.rCB), k.t_C);
+  const excess = (rB: number, rC: number): number => {
+    const iC = k.vcc_V / rC;
+    return excessBaseCurrent_A(k.vcc_V, c.vOn_V, rB, iC, hfeMin(q, Math.min(q.ic_max_A, iC), k.t_C));
+  };
   // Side A returns against side B's excess, and the reverse.
-  const excA = excessBaseCurrent_A(k.vcc_V, c.vOn_V, c.rBB, k.vcc_V / c.rCB, betaB);
-  const excB = excessBaseCurrent_A(k.vcc_V, c.vOn_V, c.rBA, k.vcc_V / c.rCA, betaA);
+  const excA = excess(c.rBB, c.rCB);
+  const excB = excess(c.rBA, c.rCA);
   const rCollA = c.onCollector ? collectorThevenin(k.vcc_V, c.rCA, c.loadA).r_ohm : c.rCA;
   const rCollB = c.onCollector ? collectorThevenin(k.vcc_V, c.rCB, c.loadB).r_ohm : c.rCB;
   return {
@@ -310,7 +310,8 @@ function coreLevels(
       const iReg = regenerationCurrent_A(clamp, side === "A" ? rCollA : rCollB, exc);
       const vbe = vbeAt(iReg);
       if (!v.diodes) return vbe;
-      const iB = iReg / (side === "A" ? betaA : betaB);
+      // The returning transistor's base current at its gain there.
+      const iB = iReg / hfeMin(q, Math.min(q.ic_max_A, Math.max(LEVEL_I_MIN_A, iReg)), k.t_C);
       return vbe + diodeVf_V(db, iB + (v.bleed_ohm === undefined ? 0 : vbe / v.bleed_ohm), k.t_C);
     },
   };
