@@ -6,7 +6,7 @@
 import type { BjtClass, GainPoint, SatPoint } from "../../model/device.ts";
 import { EngineMisuseError } from "../../model/errors.ts";
 import { JUNCTION_TEMPCO_VperK } from "./diode.ts";
-import { NOMINAL_TEMP_C, VT_NOMINAL_V, ZERO_CELSIUS_K } from "./temperature.ts";
+import { NOMINAL_TEMP_C, ZERO_CELSIUS_K } from "./temperature.ts";
 import { findRoot } from "./root.ts";
 
 /** V_BE temperature coefficient, V/K (≈ −2 mV/K: common practice; the same as a diode's). */
@@ -247,18 +247,6 @@ export function vbeRefCurrent_A(dev: BjtClass): number {
 export function vbeOn(dev: BjtClass, tj_C: number): number {
   checkTemp(dev, tj_C, "vbeOn");
   return dev.vbe_on_V + VBE_TEMPCO_VperK * (tj_C - NOMINAL_TEMP_C);
-}
-
-/**
- * Typical V_BE of a conducting B–E junction at ic_A and tj_C: the class's V_BE(on) at its reference
- * current, V_T·ln(I_C/I_ref) away from it, −2 mV/K. The diode law with N = 1 (Shockley [src:shockley-1949];
- * the BJT's i_C–v_BE relation, Sedra & Smith, from memory [src:sedra-smith]): the law the timing
- * transistors' netlist card puts its IS through (src/render/spice-bjt.ts isTypical_A), so the engine
- * reads V_BE at microamperes where the card does.
- */
-export function vbeTypical_V(dev: BjtClass, ic_A: number, tj_C: number): number {
-  checkCurrent(dev, ic_A, "vbeTypical_V");
-  return vbeOn(dev, tj_C) + VT_NOMINAL_V * Math.log(ic_A / vbeRefCurrent_A(dev));
 }
 
 /** Maximum V_BE(sat) at ic_A from the saturation points; else nominal V_BE(on) + 0.15 V. */

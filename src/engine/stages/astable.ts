@@ -13,7 +13,6 @@
  * Pure functions; nothing rounded.
  */
 import { offTime_s } from "./cross-bleed.ts";
-import { junctionTailCurrent_A } from "./core-levels.ts";
 
 /** A load on a timing collector seen as a resistance to a fixed voltage (a clamp, or 0 V). */
 export interface CollectorLoad {
@@ -125,25 +124,6 @@ export interface CoreParams {
    * (R_D, the base diode's drop at cut-in, the base's cut-in level V_γ). Absent: the single ln law.
    */
   cross?: { rD_ohm: number; vF_V: number; vGamma_V: number };
-  /**
-   * The low-supply levels (core-levels.ts): a capacitor-only follower's V_BE at its tail current, and
-   * each side's return level. Absent: V_BE,F and V_γ fixed (the plain textbook form).
-   */
-  levels?: CoreLevels;
-}
-
-/** The two levels of core-levels.ts, evaluated by the caller at its corner. */
-export interface CoreLevels {
-  /** Thermal voltage at the corner, V. */
-  vT_V: number;
-  /** The followers' V_BE at the current i_A (the timing transistors' typical junction law), V. */
-  followerVbe_V(i_A: number): number;
-  /**
-   * Base-node level at which side X's transistor turns the core over, V; `clampVbe_V` is X's
-   * follower's V_BE at the end of X's off phase when the follower's diode must clamp the plate
-   * (null: no follower, or one whose emitter load pulls the plate down with the collector).
-   */
-  returnLevel_V(side: "A" | "B", clampVbe_V: number | null): number;
 }
 
 /**
@@ -232,95 +212,6 @@ export interface CoreTiming {
   swingB_V: number;
   tauA_s: number;
   tauB_s: number;
-  /** Base-node level at which each side's transistor turned the core over (V_γ, or CoreParams.levels), V. */
-  returnA_V: number;
-  returnB_V: number;
-}
-
-/** A capacitor-only follower's V_BE t_s into its plate's high phase (core-levels.ts, the tail law). */
-function tailVbe_V(lv: CoreLevels, c_F: number, t_s: number): number {
-  return lv.followerVbe_V(junctionTailCurrent_A(c_F, t_s, lv.vT_V));
-}
-
-/**
- * One off phase: the single ln law, or the cross-returned bleed's two segments. A swing smaller than
- * V_on − V_γ never takes the base below its return level: that side does not turn off (the core
- * latches). The floor keeps the numbers finite; the recovery figure rejects it.
- */
-function offPhase_s(p: CoreParams, rB: number, c: number, swing: number, vReturn: number): number {
-  const cross = p.cross;
-  if (cross === undefined) return rB * c * Math.max(LN_FLOOR, lnFactor(p.vcc_V, p.vOn_V, swing, vReturn));
-  return Math.max(
-    rB * c * LN_FLOOR,
-    offTime_s({
-      rB_ohm: rB,
-      c_F: c,
-      vcc_V: p.vcc_V,
-      vStart_V: p.vOn_V - swing,
-      vSat_V: p.vSat_V,
-      vF_V: cross.vF_V,
-      vGamma_V: cross.vGamma_V,
-      rD_ohm: cross.rD_ohm,
-    }),
-  );
-}
-
-/** One side's driving node while the fixed point runs: its follower's V_BE, source, full swing and return level. */
-interface SideState {
-  /** A follower whose emitter carries only its capacitor (core-levels.ts, the tail law). */
-  tail: boolean;
-  vbeF_V: number;
-  drive: { v_V: number; r_ohm: number };
-  full: number;
-  vReturn: number;
-}
-
-function sideDrive(p: CoreParams, x: "A" | "B", vbe: number): { drive: { v_V: number; r_ohm: number }; full: number } {
-  const fo = p.follower;
-  const rC = x === "A" ? p.rCA_ohm : p.rCB_ohm;
-  const load = x === "A" ? p.loadA : p.loadB;
-  const drive = drivingThevenin(p.vcc_V, rC, fo === undefined ? undefined : { ...fo, vBe_V: vbe }, load);
-  const full =
-    fo === undefined
-      ? Math.max(0, drive.v_V - p.vSat_V)
-      : followerSwing_V(drive.v_V, p.vSat_V, x === "A" ? fo.vFA_V : fo.vFB_V);
-  return { drive, full };
-}
-
-function returnLevel(p: CoreParams, s: SideState, x: "A" | "B"): number {
-  const lv = p.levels;
-  if (lv === undefined) return p.vCutIn_V ?? p.vOn_V;
-  return Math.min(p.vOn_V, lv.returnLevel_V(x, s.tail ? s.vbeF_V : null));
-}
-
-/**
- * Side X at the start: a follower in its tail (no DC load on its emitter, or the chain on the
- * collector) starts from V_BE(on), and the fixed point moves it to its tail level.
- */
-function startSide(p: CoreParams, x: "A" | "B"): SideState {
-  const fo = p.follower;
-  const lv = p.levels;
-  const load = x === "A" ? p.loadA : p.loadB;
-  const tail = fo !== undefined && lv !== undefined && (fo.loadsOnCollector === true || load === undefined);
-  const vbeF_V = fo?.vBe_V ?? 0;
-  const s: SideState = { tail, vbeF_V, ...sideDrive(p, x, vbeF_V), vReturn: 0 };
-  s.vReturn = returnLevel(p, s, x);
-  return s;
-}
-
-/** A side without a tail keeps its return level; one with a tail follows its follower's V_BE. */
-function refreshReturn(p: CoreParams, s: SideState, x: "A" | "B"): void {
-  if (s.tail) s.vReturn = returnLevel(p, s, x);
-}
-
-/** Moves side X's tail V_BE to the one its off time t_s gives; returns how far it moved, V. */
-function moveTail(p: CoreParams, lv: CoreLevels, s: SideState, x: "A" | "B", t_s: number): number {
-  if (!s.tail) return 0;
-  const n = tailVbe_V(lv, x === "A" ? p.cA_F : p.cB_F, t_s);
-  const moved = Math.abs(n - s.vbeF_V);
-  s.vbeF_V = n;
-  Object.assign(s, sideDrive(p, x, n));
-  return moved;
 }
 
 /**
@@ -330,37 +221,46 @@ function moveTail(p: CoreParams, lv: CoreLevels, s: SideState, x: "A" | "B", t_s
  */
 export function evaluateCore(p: CoreParams): CoreTiming {
   const fo = p.follower;
-  const lv = p.levels;
-  const sideA = startSide(p, "A");
-  const sideB = startSide(p, "B");
-  const tauA_s = (sideA.drive.r_ohm + (fo?.rS_ohm ?? 0)) * p.cA_F;
-  const tauB_s = (sideB.drive.r_ohm + (fo?.rS_ohm ?? 0)) * p.cB_F;
-  let swingA = sideA.full;
-  let swingB = sideB.full;
+  const a = drivingThevenin(p.vcc_V, p.rCA_ohm, fo, p.loadA);
+  const b = drivingThevenin(p.vcc_V, p.rCB_ohm, fo, p.loadB);
+  const fullA = fo ? followerSwing_V(a.v_V, p.vSat_V, fo.vFA_V) : Math.max(0, a.v_V - p.vSat_V);
+  const fullB = fo ? followerSwing_V(b.v_V, p.vSat_V, fo.vFB_V) : Math.max(0, b.v_V - p.vSat_V);
+  const tauA_s = (a.r_ohm + (fo?.rS_ohm ?? 0)) * p.cA_F;
+  const tauB_s = (b.r_ohm + (fo?.rS_ohm ?? 0)) * p.cB_F;
+  const vGamma = p.vCutIn_V ?? p.vOn_V;
+  let swingA = fullA;
+  let swingB = fullB;
   let tAoff = 0;
   let tBoff = 0;
+  const cross = p.cross;
+  // A swing smaller than V_on − V_γ never takes the base below cut-in: that side does not turn
+  // off (the core latches). The floor keeps the numbers finite; the recovery figure rejects it.
+  const off = (rB: number, c: number, swing: number): number =>
+    cross === undefined
+      ? rB * c * Math.max(LN_FLOOR, lnFactor(p.vcc_V, p.vOn_V, swing, vGamma))
+      : Math.max(
+          rB * c * LN_FLOOR,
+          offTime_s({
+            rB_ohm: rB,
+            c_F: c,
+            vcc_V: p.vcc_V,
+            vStart_V: p.vOn_V - swing,
+            vSat_V: p.vSat_V,
+            vF_V: cross.vF_V,
+            vGamma_V: cross.vGamma_V,
+            rD_ohm: cross.rD_ohm,
+          }),
+        );
   for (let i = 0; i < 40; i++) {
-    if (i > 0) {
-      refreshReturn(p, sideA, "A");
-      refreshReturn(p, sideB, "B");
-    }
-    tBoff = offPhase_s(p, p.rBB_ohm, p.cA_F, swingA, sideB.vReturn);
-    tAoff = offPhase_s(p, p.rBA_ohm, p.cB_F, swingB, sideA.vReturn);
-    // Plate X is high (and its follower in its tail) for X's off phase.
-    const moved =
-      lv === undefined ? 0 : Math.max(moveTail(p, lv, sideA, "A", tAoff), moveTail(p, lv, sideB, "B", tBoff));
-    const nA = sideA.full * (1 - Math.exp(-tAoff / tauA_s));
-    const nB = sideB.full * (1 - Math.exp(-tBoff / tauB_s));
-    const done =
-      moved < 1e-9 && Math.abs(nA - swingA) < 1e-12 * sideA.full && Math.abs(nB - swingB) < 1e-12 * sideB.full;
+    tBoff = off(p.rBB_ohm, p.cA_F, swingA);
+    tAoff = off(p.rBA_ohm, p.cB_F, swingB);
+    const nA = fullA * (1 - Math.exp(-tAoff / tauA_s));
+    const nB = fullB * (1 - Math.exp(-tBoff / tauB_s));
+    const done = Math.abs(nA - swingA) < 1e-12 * fullA && Math.abs(nB - swingB) < 1e-12 * fullB;
     swingA = nA;
     swingB = nB;
     if (done) break;
   }
-  const a = sideA.drive;
-  const b = sideB.drive;
-  const returnA = sideA.vReturn;
-  const returnB = sideB.vReturn;
   const period_s = tAoff + tBoff;
   return {
     tAoff_s: tAoff,
@@ -373,7 +273,5 @@ export function evaluateCore(p: CoreParams): CoreTiming {
     swingB_V: swingB,
     tauA_s,
     tauB_s,
-    returnA_V: returnA,
-    returnB_V: returnB,
   };
 }

@@ -7,13 +7,11 @@
  * (collector A is high, and collector B low, exactly while Q_A is off; ctrl raises R_BA.)
  */
 import type { BjtClass, DiodeClass } from "../../model/device.ts";
-import { VBE_TEMPCO_VperK, hfeMin, vbeOn, vbeTypical_V, vceSat } from "../shared/gain.ts";
+import { VBE_TEMPCO_VperK, hfeMin, vbeOn, vceSat } from "../shared/gain.ts";
 import { diodeClassVf_V } from "../shared/diode.ts";
-import { NOMINAL_TEMP_C, thermalVoltage_V } from "../shared/temperature.ts";
-import { excessBaseCurrent_A, regenerationCurrent_A } from "./core-levels.ts";
+import { NOMINAL_TEMP_C } from "../shared/temperature.ts";
 import {
   type CollectorLoad,
-  type CoreLevels,
   type CoreTiming,
   type FollowerParams,
   collectorThevenin,
@@ -192,10 +190,6 @@ export function evalCore(v: CoreValues, q: BjtClass, db: DiodeClass, k: Corner, 
       ? Math.min(vOn_V, cutIn_V(v.diodes, db, k.t_C, v.bleed_ohm))
       : Math.min(vOn_V, cross.params.vGamma_V + cross.params.vF_V);
   const fo = followerAt(v, q, db, k, rBA, rBB);
-  const levels =
-    cross === undefined
-      ? coreLevels(v, q, db, k, { vOn_V, rCA, rCB, rBA, rBB, onCollector: fo?.loadsOnCollector === true, ...loads })
-      : undefined;
   const timing = evaluateCore({
     vcc_V: k.vcc_V,
     vOn_V,
@@ -210,7 +204,6 @@ export function evalCore(v: CoreValues, q: BjtClass, db: DiodeClass, k: Corner, 
     ...loads,
     ...(fo ? { follower: fo } : {}),
     ...(cross ? { cross: cross.params } : {}),
-    ...(levels ? { levels } : {}),
   });
   // The tapped collector's rise before the chain conducts: R_C towards Vcc, in parallel with any
   // linear input network; it charges its own coupling capacitor.
@@ -253,68 +246,7 @@ export function evalCore(v: CoreValues, q: BjtClass, db: DiodeClass, k: Corner, 
     ? timing.tAoff_s + dt + v.delayOff_s - v.delayOn_s
     : timing.tAoff_s - dt - v.delayOn_s + v.delayOff_s;
   const duty = Math.min(1, Math.max(0, tOn / timing.period_s));
-  return {
-    timing,
-    f_Hz: 1 / timing.period_s,
-    duty,
-    dtTh_s,
-    vOn_V,
-    vCutIn_V: timing.returnA_V,
-    vSat_V,
-    ...(fo ? { follower: fo } : {}),
-  };
-}
-
-/** Smallest current the junction laws are read at, A (below it leakage rules; ours). */
-const LEVEL_I_MIN_A = 1e-9;
-
-/**
- * The low-supply levels at one corner (core-levels.ts; docs/method.md, "The timing core at 5–6 V"):
- * the followers' tail V_BE on the timing transistors' typical junction law, and the level at which
- * each side's base node turns the core over. The conducting side Y carries V_cc/R_CY (as V_CE(sat) is
- * read) at its minimum gain; the returning side X's collector falls across R_CX with any load on it
- * (only a follower on the collector has a clamp to overcome there).
- */
-function coreLevels(
-  v: CoreValues,
-  q: BjtClass,
-  db: DiodeClass,
-  k: Corner,
-  c: {
-    vOn_V: number;
-    rCA: number;
-    rCB: number;
-    rBA: number;
-    rBB: number;
-    onCollector: boolean;
-    loadA?: CollectorLoad;
-    loadB?: CollectorLoad;
-  },
-): CoreLevels {
-  const vbeAt = (i_A: number): number => vbeTypical_V(q, Math.max(LEVEL_I_MIN_A, i_A), k.t_C);
-  const excess = (rB: number, rC: number): number => {
-    const iC = k.vcc_V / rC;
-    return excessBaseCurrent_A(k.vcc_V, c.vOn_V, rB, iC, hfeMin(q, Math.min(q.ic_max_A, iC), k.t_C));
-  };
-  // Side A returns against side B's excess, and the reverse.
-  const excA = excess(c.rBB, c.rCB);
-  const excB = excess(c.rBA, c.rCA);
-  const rCollA = c.onCollector ? collectorThevenin(k.vcc_V, c.rCA, c.loadA).r_ohm : c.rCA;
-  const rCollB = c.onCollector ? collectorThevenin(k.vcc_V, c.rCB, c.loadB).r_ohm : c.rCB;
-  return {
-    vT_V: thermalVoltage_V(k.t_C),
-    followerVbe_V: vbeAt,
-    returnLevel_V(side, clampVbe_V) {
-      const exc = side === "A" ? excA : excB;
-      const clamp = clampVbe_V === null ? 0 : clampVbe_V + diodeVf_V(db, Math.max(LEVEL_I_MIN_A, exc), k.t_C);
-      const iReg = regenerationCurrent_A(clamp, side === "A" ? rCollA : rCollB, exc);
-      const vbe = vbeAt(iReg);
-      if (!v.diodes) return vbe;
-      // The returning transistor's base current at its gain there.
-      const iB = iReg / hfeMin(q, Math.min(q.ic_max_A, Math.max(LEVEL_I_MIN_A, iReg)), k.t_C);
-      return vbe + diodeVf_V(db, iB + (v.bleed_ohm === undefined ? 0 : vbe / v.bleed_ohm), k.t_C);
-    },
-  };
+  return { timing, f_Hz: 1 / timing.period_s, duty, dtTh_s, vOn_V, vCutIn_V, vSat_V, ...(fo ? { follower: fo } : {}) };
 }
 
 /**
