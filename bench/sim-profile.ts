@@ -8,7 +8,9 @@
  * Prints a table per class and the slowest decks. `--only A,B` measures the variants whose id
  * contains A or B; `--dump DIR` writes every deck the engine ran there. `--out` keeps every
  * variant's measurements (to compare two versions of the run plan: bench/sim-compare.ts); `--runs`
- * one line per engine call.
+ * one line per engine call. `--reference` measures the nominal and corner runs with a long plan
+ * (REFERENCE_PLAN below; the pull-in and end runs keep their own plans): the yardstick a shorter
+ * plan's settling is proven against (docs/verification.md, "Third pass").
  */
 import { writeFileSync } from "node:fs";
 import { loadavg } from "node:os";
@@ -17,7 +19,24 @@ import type { SpiceEngine } from "../src/verify/engines/types.ts";
 import { measureVariant, type Measured } from "../src/verify/plan.ts";
 import { planOf } from "../src/verify/verify.ts";
 import { cornerDecks } from "../src/verify/corner-deck.ts";
-import { RETRY_OPTIONS, RETRY2_OPTIONS, RETRY3_OPTIONS } from "../src/verify/runs.ts";
+import { POWER_RUN_OPTIONS, RETRY_OPTIONS, RETRY2_OPTIONS, RETRY3_OPTIONS, type RunPlan } from "../src/verify/runs.ts";
+
+/**
+ * The long reference plan (`--reference`): every run that settles a winding settles it 60 periods
+ * (started at its settled mean current by the preparatory run, so the first period's dip has decayed
+ * to e^(−60·P/τ) and the estimate's 0.3 % with it), the others 1, then 8 read at period / 150.
+ */
+const REFERENCE_PLAN: RunPlan = {
+  periods: 9,
+  settlePeriods: 1,
+  stepsPerPeriod: 150,
+  timingStepsPerPeriod: 150,
+  settleTau: 1e6,
+  presetSettlePeriods: 60,
+  prepareAlways: true,
+  preparatoryPeriods: 5,
+  powerOptions: POWER_RUN_OPTIONS,
+};
 
 interface RunRecord {
   id: string;
@@ -43,9 +62,11 @@ function kindOf(deck: string, stack: string): string {
   const held = /^\.ic .*v\(ls\)=/m.test(deck);
   if (stack.includes("measureEnds") || stack.includes("endRun")) return `end ctrl ${ctrl}`;
   if (stack.includes("measurePullIn")) return "pull-in";
-  const prep = held && !/reltol=1e-4/.test(deck);
+  // A run started from a handed-over state holds every node, the supply's included (runs.ts handOver).
+  const handed = /^\.ic .*v\(vbus\)=/m.test(deck);
+  const prep = held && !handed && !/reltol=1e-4/.test(deck);
   const where = stack.includes("measureCorners") ? "corner" : "nominal";
-  return `${where} ctrl ${ctrl}${prep ? " (preparatory)" : ""}`;
+  return `${where} ctrl ${ctrl}${prep ? " (preparatory)" : handed ? " (handed over)" : ""}`;
 }
 
 /** The retry level of a deck, from the `.options` line the run plan appends (the last one). */
@@ -93,6 +114,7 @@ function profiled(engine: SpiceEngine, records: RunRecord[], id: () => string): 
 }
 
 const dumpDir = arg("--dump");
+const reference = process.argv.includes("--reference");
 const only = arg("--only");
 const shard = (arg("--shard") ?? "1/1").split("/").map(Number) as [number, number];
 const { feasibleDemoRenders } = await import("./demo-renders.ts");
@@ -113,7 +135,7 @@ for (const r of jobs) {
   current = r.sized.spec.id;
   const corners = cornerDecks(r.sized, devices);
   const target = { ...plan.target, ...(corners.length > 0 ? { corners } : {}) };
-  const m = await measureVariant(target, r.netlist, engine);
+  const m = await measureVariant(target, r.netlist, engine, ...(reference ? [REFERENCE_PLAN] : []));
   measured[current] = m;
   if (!m.ok) console.log(`FAILED ${current}: ${m.message}`);
 }

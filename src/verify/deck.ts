@@ -73,6 +73,11 @@ export interface DeckOptions {
   options?: string;
   /** Further nodes held during the operating point (`.ic`), e.g. the load node (runs.ts loadPreset). */
   hold?: Record<string, number>;
+  /**
+   * A settled run's whole state handed over (hand-over.ts): it replaces the netlist's own `.ic`
+   * (the start-up collector) and the nudge; `hold` still applies on top.
+   */
+  state?: Record<string, number>;
 }
 
 /**
@@ -81,13 +86,15 @@ export interface DeckOptions {
  * multivibrator can sit at its balanced operating point for a while before it starts.
  */
 export function simDeck(netlist: string, o: DeckOptions): string {
-  const body = setCtrl(simBody(netlist), o.ctrl);
+  const plain = setCtrl(simBody(netlist), o.ctrl);
+  const body = o.state === undefined ? plain : plain.replace(/^\s*\.ic\b.*\n?/gim, "");
   const extra = [
     `.options method=gear${o.options ? ` ${o.options}` : ""}`,
     `.tran ${o.tMax_s} ${o.tStop_s} 0 ${o.tMax_s}`,
   ];
-  if (!/^\s*\.ic\b/im.test(body)) extra.unshift(`.ic v(${o.kickNet})=${supplyVoltage(netlist)}`);
-  const hold = Object.entries(o.hold ?? {});
+  if (o.state === undefined && !/^\s*\.ic\b/im.test(body))
+    extra.unshift(`.ic v(${o.kickNet})=${supplyVoltage(netlist)}`);
+  const hold = Object.entries({ ...o.state, ...o.hold });
   if (hold.length > 0) extra.unshift(`.ic ${hold.map(([n, v]) => `v(${n})=${spiceNum(v, "hold")}`).join(" ")}`);
   return `${body}\n${extra.join("\n")}\n.end\n`;
 }

@@ -9,6 +9,7 @@ import { transistorElement, type VerifyTarget } from "./target.ts";
 import { baseProbe, gateDrive, gateProbe, type BaseProbe, type GateProbe } from "./gate.ts";
 import { VT_NOMINAL_V } from "../engine/shared/temperature.ts";
 import { SpiceRunError } from "../model/errors.ts";
+import { handOverInstant, handedCurrent, heldNodes, nodeVoltagesAt } from "./hand-over.ts";
 
 /**
  * Transient length, start-up discarded and largest step, in predicted periods. The core starts from
@@ -42,6 +43,19 @@ export interface RunPlan {
    * Absent: `periods`.
    */
   preparatoryPeriods?: number;
+  /**
+   * Settling, in periods, of a run that starts from the state a preparatory run ended in (every node
+   * voltage and the winding current, read at one instant: hand-over.ts). Absent: the preparatory run
+   * hands over the winding current alone and the run settles `presetSettlePeriods`.
+   */
+  handedSettlePeriods?: number;
+  /**
+   * Periods read by a second preparatory run that starts from the first one's handed-over state and
+   * hands over its own (after `handedSettlePeriods`). Absent: one preparatory run.
+   */
+  refinePeriods?: number;
+  /** Prepare every load that settles, however short its L/R (a reference plan: bench/sim-profile.ts). */
+  prepareAlways?: boolean;
   /** Solver options for every run, e.g. "abstol=1e-9 vntol=1e-5" (none: ngspice defaults). */
   options?: string;
   /**
@@ -60,6 +74,11 @@ export const POWER_RUN_OPTIONS = "reltol=1e-4";
  * (docs/verification.md, "Run plan").
  */
 export const PRESET_SETTLE_PERIODS = 10;
+/**
+ * Periods a run started from a handed-over settled state discards: none, measured against
+ * 60-period references (docs/verification.md, "Third pass: the settled state handed over").
+ */
+export const HANDED_SETTLE_PERIODS = 1;
 export const DEFAULT_RUN_PLAN: Readonly<RunPlan> = {
   periods: 4,
   settlePeriods: 1,
@@ -67,6 +86,8 @@ export const DEFAULT_RUN_PLAN: Readonly<RunPlan> = {
   timingStepsPerPeriod: 50,
   settleTau: 3,
   presetSettlePeriods: PRESET_SETTLE_PERIODS,
+  handedSettlePeriods: HANDED_SETTLE_PERIODS,
+  refinePeriods: 3,
   preparatoryPeriods: 5,
   powerOptions: POWER_RUN_OPTIONS,
 };
@@ -187,6 +208,27 @@ export function settledLoadCurrent(target: VerifyTarget, run: Run, netlist: stri
 }
 
 /**
+ * The state a preparatory run hands to the measured run: every node's voltage at the middle of the
+ * longer half of its last whole period, and the winding current there (hand-over.ts), held through
+ * `ls` (`loadHold`). Null when the run shows no whole period to read it at (a load held on or off):
+ * the measured run then starts the winding at the settled mean and settles as before.
+ */
+export function handOver(
+  target: VerifyTarget,
+  prep: Run,
+  netlist: string,
+  settled_A: number,
+): { state: Record<string, number>; hold: Record<string, number> } | null {
+  const tm = loadTiming(target, prep, 0);
+  if (tm.kind !== "pwm" || tm.on.length === 0) return null;
+  const lastOn = tm.on[tm.on.length - 1]!;
+  const t_h = handOverInstant(lastOn, tm.to_s);
+  const i_A = handedCurrent(prep.t, vec(prep, "i(vsense)"), [lastOn[0], tm.to_s], t_h, settled_A, target.loadTau_s);
+  const nodes = heldNodes(netlist).filter((n) => n !== "ls");
+  return { state: nodeVoltagesAt(prep.t, prep.v, nodes, t_h), hold: loadHold(target, netlist, i_A) };
+}
+
+/**
  * Whether this run starts its load at the settled current: an inductive load at ctrl = 1, when the
  * preparatory run plus the shorter settle is shorter than settling from an unprepared start.
  */
@@ -198,8 +240,14 @@ export function presetsLoad(target: VerifyTarget, ctrl: number, plan: RunPlan): 
     !(target.loadR_ohm > 0)
   )
     return false;
+  if (plan.prepareAlways === true) return true;
   const unprepared = Math.min(plan.settleTau * target.loadTau_s, MAX_SETTLE_PERIODS * target.period_s);
-  return unprepared > (plan.presetSettlePeriods + plan.periods) * target.period_s;
+  // Prepared: the preparatory run, then the handed-over state's settle or the preset's.
+  const prepared =
+    plan.handedSettlePeriods !== undefined
+      ? (plan.preparatoryPeriods ?? plan.periods) + plan.handedSettlePeriods
+      : plan.presetSettlePeriods + plan.periods;
+  return unprepared > prepared * target.period_s;
 }
 
 /**
@@ -233,6 +281,68 @@ export function netlistOptions(netlist: string): string[] {
   return [...simBody(netlist).matchAll(/^\s*\.options\s+(.*)$/gim)].flatMap((m) => m[1]!.trim().split(/\s+/));
 }
 
+/** How a run starts: the load node held, and the rest of a handed-over state (absent: the netlist's `.ic`). */
+interface RunStart {
+  hold: Record<string, number>;
+  state?: Record<string, number>;
+}
+
+/**
+ * An inductive load's preparatory runs (docs/verification.md, "Run plan"): the first from the
+ * predicted current, core settled, default tolerances, coarse step; with a hand-over, a second from
+ * the first one's state, whose estimate is taken near settled. Returns the measured run's start.
+ */
+async function prepareLoad(
+  target: VerifyTarget,
+  netlist: string,
+  engine: SpiceEngine,
+  ctrl: number,
+  plan: RunPlan,
+  duty: number,
+): Promise<RunStart> {
+  const prepPlan: RunPlan = {
+    ...plan,
+    periods: plan.preparatoryPeriods ?? plan.periods,
+    presetSettlePeriods: plan.settlePeriods,
+    stepsPerPeriod: plan.timingStepsPerPeriod ?? plan.stepsPerPeriod,
+  };
+  delete prepPlan.powerOptions;
+  delete prepPlan.handedSettlePeriods;
+  const failed =
+    (what: string) =>
+    (err: unknown): never => {
+      const why = err instanceof Error ? err.message : String(err);
+      throw new SpiceRunError(`${what}: ${why}`, { cause: err });
+    };
+  const prep = await runAt(target, netlist, engine, ctrl, prepPlan, undefined, {
+    hold: loadHold(target, netlist, predictedLoadCurrent(target, netlist, duty)),
+    saveState: plan.handedSettlePeriods !== undefined,
+  }).catch(failed("preparatory run (load started at its predicted current)"));
+  const settled_A = settledLoadCurrent(target, prep, netlist);
+  let handed = plan.handedSettlePeriods !== undefined ? handOver(target, prep, netlist, settled_A) : null;
+  if (handed !== null && plan.refinePeriods !== undefined) {
+    // Near settled, the switch and diode drops no longer depend on how far the current is off, so
+    // the second run's estimate is the better one (docs/verification.md, "Third pass").
+    const refinePlan: RunPlan = {
+      ...prepPlan,
+      periods: plan.settlePeriods + plan.refinePeriods,
+      handedSettlePeriods: plan.handedSettlePeriods ?? 0,
+    };
+    const refine = await runAt(target, netlist, engine, ctrl, refinePlan, undefined, {
+      ...handed,
+      saveState: true,
+    }).catch(failed("second preparatory run (from the first one's state)"));
+    handed = handOver(target, refine, netlist, settledLoadCurrent(target, refine, netlist)) ?? handed;
+  }
+  return handed ?? { hold: loadHold(target, netlist, settled_A) };
+}
+
+/** Start-up discarded for a run: `handedSettlePeriods` from a handed-over state, else `settleTime`. */
+function startSettle(target: VerifyTarget, ctrl: number, plan: RunPlan, start: RunStart | undefined): number {
+  if (start?.state !== undefined) return (plan.handedSettlePeriods ?? 0) * target.period_s;
+  return settleTime(target, ctrl, plan, start !== undefined);
+}
+
 export async function runAt(
   target: VerifyTarget,
   netlist: string,
@@ -242,27 +352,15 @@ export async function runAt(
   /** The predicted duty of this run: an inductive load at ctrl = 1 then starts at its settled current. */
   duty?: number,
   /** Load node held during the operating point (the preparatory run's start). */
-  given?: { hold: Record<string, number> },
+  given?: RunStart & { saveState?: boolean },
 ): Promise<Run> {
-  let hold: Record<string, number> | undefined;
-  if (presetsLoad(target, ctrl, plan) && duty !== undefined && Number.isFinite(duty)) {
-    // Preparatory run: core settled, load started at the predicted current, default tolerances.
-    const prepPlan: RunPlan = {
-      ...plan,
-      periods: plan.preparatoryPeriods ?? plan.periods,
-      presetSettlePeriods: plan.settlePeriods,
-      stepsPerPeriod: plan.timingStepsPerPeriod ?? plan.stepsPerPeriod,
-    };
-    delete prepPlan.powerOptions;
-    const prep = await runAt(target, netlist, engine, ctrl, prepPlan, undefined, {
-      hold: loadHold(target, netlist, predictedLoadCurrent(target, netlist, duty)),
-    }).catch((err: unknown) => {
-      const why = err instanceof Error ? err.message : String(err);
-      throw new SpiceRunError(`preparatory run (load started at its predicted current): ${why}`, { cause: err });
-    });
-    hold = loadHold(target, netlist, settledLoadCurrent(target, prep, netlist));
-  } else if (given?.hold !== undefined) hold = given.hold;
-  const settle_s = settleTime(target, ctrl, plan, hold !== undefined);
+  const start =
+    presetsLoad(target, ctrl, plan) && duty !== undefined && Number.isFinite(duty)
+      ? await prepareLoad(target, netlist, engine, ctrl, plan, duty)
+      : given;
+  const hold = start?.hold;
+  const state = start?.state;
+  const settle_s = startSettle(target, ctrl, plan, start);
   const tStop_s = settle_s + (plan.periods - plan.settlePeriods) * target.period_s;
   const elements = target.powerRefs.map((r) => transistorElement(netlist, r));
   const powerVectors = elements.every((e) => e !== null) ? elements.map((e) => `@${e}[p]`) : [];
@@ -277,7 +375,9 @@ export async function runAt(
     ...(baseQ === null ? [] : [baseQ.baseNet, baseQ.emitterNet]),
   ].filter((n) => n !== "0");
   const nets = ["vbus", target.tapNet, target.otherNet, target.chainInputNet, target.switchNet, "ls", ...gateNets];
-  const vectors = [...new Set(nets)].map((n) => `v(${n})`).concat("i(vsense)", powerVectors);
+  // A preparatory run that hands its state over saves every node it will hand over.
+  const stateNets = given?.saveState === true ? heldNodes(netlist) : [];
+  const vectors = [...new Set([...nets, ...stateNets])].map((n) => `v(${n})`).concat("i(vsense)", powerVectors);
   const tMax_s =
     target.period_s /
     (!readsLoad(target, ctrl) ? (plan.timingStepsPerPeriod ?? plan.stepsPerPeriod) : plan.stepsPerPeriod);
@@ -289,6 +389,7 @@ export async function runAt(
       kickNet: target.otherNet,
       ...(options ? { options } : {}),
       ...(hold ? { hold } : {}),
+      ...(state ? { state } : {}),
     });
     return engine.run(deck, vectors);
   };

@@ -214,8 +214,14 @@ describe("an inductive load starts at its settled current (R, L, back-EMF in ser
   });
   it("only an inductive load's control-1 run is prepared, and only where that is shorter", () => {
     expect(presetsLoad(target(), 1, DEFAULT_RUN_PLAN)).toBe(true);
-    // τ = 4 periods: 3·L/R = 12 periods of settling cost less than a preparatory run plus 10.
-    expect(presetsLoad(target({ loadTau_s: 4 * T }), 1, DEFAULT_RUN_PLAN)).toBe(false);
+    // τ = 1.5 periods: 3·L/R = 4.5 periods of settling cost less than a preparatory run (5) plus the
+    // handed-over run's settle (1); τ = 4 periods (12) cost more.
+    expect(presetsLoad(target({ loadTau_s: 1.5 * T }), 1, DEFAULT_RUN_PLAN)).toBe(false);
+    expect(presetsLoad(target({ loadTau_s: 4 * T }), 1, DEFAULT_RUN_PLAN)).toBe(true);
+    // Without a hand-over the preset run settles 10 periods, so τ = 4 periods was not prepared.
+    const presetOnly = { ...DEFAULT_RUN_PLAN };
+    delete presetOnly.handedSettlePeriods;
+    expect(presetsLoad(target({ loadTau_s: 4 * T }), 1, presetOnly)).toBe(false);
     expect(presetsLoad(target(), 0.5, DEFAULT_RUN_PLAN)).toBe(false);
     expect(presetsLoad(target({ inductive: false, loadR_ohm: 0 }), 1, DEFAULT_RUN_PLAN)).toBe(false);
   });
