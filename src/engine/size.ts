@@ -237,9 +237,17 @@ function coreOf(spec: VariantSpec, crossOffered = true): CoreChoice {
 }
 
 /**
+ * Chains the step is offered to: the MOSFET chains. On the three-stage Darlington it made four 24 V,
+ * 20 kHz fan variants pass sizing whose load current and switch dissipation then disagreed with the
+ * embedded engine (1.13–1.25 × and 0.41–0.59 × the prediction): the chain's model at that frequency, never
+ * reached before, not the core, is unproven there.
+ */
+const STEP_CHAINS: ReadonlySet<string> = new Set(["mosfet-logic", "mosfet-driver"]);
+
+/**
  * Every core attempt with the timing core's signal diodes stepped to the low-capacitance class
- * (docs/method.md, "Low-capacitance base diodes"): only when no core passes with the ordinary class,
- * the failing core has series base diodes (their capacitance is what the class lowers), the load is
+ * (docs/method.md, "Low-capacitance base diodes"): only on a MOSFET chain, when no core passes with the
+ * ordinary class, the failing core has series base diodes (their capacitance is what the class lowers), the load is
  * not a solenoid (its pull-in timer is not proven with a stepped core, as for the ±5 % capacitors) and
  * the class holds off V_cc,max under the policy. Kept only when a core passes, so every variant that
  * passed before keeps its design; the step is recorded as the role's device-class decision.
@@ -249,7 +257,7 @@ function steppedDiodes(first: CoreChoice): CoreChoice | null {
   const low = spec.stressClasses?.signal_diode;
   const ordinary = spec.devices.signal_diode as DiodeClass;
   if (low === undefined || low.family !== "diode" || low.id === ordinary.id) return null;
-  if (!core.timing.values.diodes || spec.load_kind === "solenoid") return null;
+  if (!STEP_CHAINS.has(spec.chain) || !core.timing.values.diodes || spec.load_kind === "solenoid") return null;
   if (low.vrrm_V * spec.policy.diode.voltage.factor < ctx.vMax_V) return null;
   const rule = core.timing.problems.find((p) => p.severity === "error")?.rule ?? "duty-range-worst-case";
   const reason =
