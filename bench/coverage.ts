@@ -12,7 +12,7 @@ import { fileURLToPath } from "node:url";
 import { loadProject } from "../src/records/index.ts";
 import { formatIssue } from "../src/records/index.ts";
 import { expandDesign } from "../src/expand/index.ts";
-import { chooseDevices } from "../src/engine/devices/choose.ts";
+import { chooseDevices, stressClasses } from "../src/engine/devices/choose.ts";
 import { sizeVariant } from "../src/engine/index.ts";
 import type { SizedVariant } from "../src/model/sized.ts";
 
@@ -25,6 +25,7 @@ export async function sizeAll(root: string): Promise<SizedVariant[]> {
   const specs = project.designs.flatMap((d) =>
     expandDesign(d.record, {
       choose: (r, s, a, c) => chooseDevices(r, project.devices, s, a, c),
+      stressClasses: (r) => stressClasses(r, project.devices),
       policy: project.policy,
     }),
   );

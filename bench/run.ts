@@ -22,7 +22,7 @@ import path from "node:path";
 import { fileURLToPath } from "node:url";
 import { loadProject } from "../src/records/index.ts";
 import { expandDesign } from "../src/expand/index.ts";
-import { chooseDevices } from "../src/engine/devices/choose.ts";
+import { chooseDevices, stressClasses } from "../src/engine/devices/choose.ts";
 import { sizeVariant } from "../src/engine/index.ts";
 import { benchRender } from "./render.ts";
 import { runCoverage } from "./coverage.ts";
@@ -40,7 +40,11 @@ async function benchEngine(): Promise<void> {
   const project = await loadProject(ROOT);
   if (!project.ok) throw new Error("records do not load: run `npm run check`");
   const specs = project.designs.flatMap((d) =>
-    expandDesign(d.record, { choose: (r, s, a) => chooseDevices(r, project.devices, s, a), policy: project.policy }),
+    expandDesign(d.record, {
+      choose: (r, s, a) => chooseDevices(r, project.devices, s, a),
+      stressClasses: (r) => stressClasses(r, project.devices),
+      policy: project.policy,
+    }),
   );
   for (const s of specs) sizeVariant(s); // warm-up
   const times: number[] = [];

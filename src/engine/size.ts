@@ -8,11 +8,12 @@ import type { Part } from "../model/circuit.ts";
 import { isPartRole, type SidedRole } from "../model/part-roles.ts";
 import type { DesignProblem } from "../model/problem.ts";
 import { EngineMisuseError } from "../model/errors.ts";
+import { formatValue } from "../model/format.ts";
 import type { StressCheck } from "../model/derating.ts";
 import type { SizedVariant } from "../model/sized.ts";
 import type { VariantSpec } from "../model/variant.ts";
 import type { BjtClass, DiodeClass } from "../model/device.ts";
-import { diodeClassVf_V } from "./shared/diode.ts";
+import { diodeCj_F, diodeClassVf_V } from "./shared/diode.ts";
 import type { ChainPlan, DeviceLoss, OperatingPoint } from "./stages/chains/types.ts";
 import { switchingLoss_W } from "./shared/losses.ts";
 import { assembleCircuit, refsByRole } from "../circuit/assemble.ts";
@@ -95,6 +96,7 @@ const CROSS_RC_STEPS = [1.2, 1.5, 1.8, 2.2, 2.7, 3.3, 3.9, 4.7];
 export function tapAndTiming(
   ctx: Ctx,
   plan: ChainPlan,
+  crossOffered = true,
 ): {
   tap: TapDesign;
   timing: TimingResult;
@@ -116,7 +118,7 @@ export function tapAndTiming(
   }
   // The cross-returned bleed (docs/method.md, "Cross-returned bleed") only where no other core passes
   // with either capacitor class, so every variant that passed before keeps its design.
-  if (!crossAllowed(ctx.spec.chain, ctx.spec.load_kind)) return general;
+  if (!crossOffered || !crossAllowed(ctx.spec.chain, ctx.spec.load_kind)) return general;
   const cross = plainTapAndTiming(ctx, plan, true);
   if (cross.timing.search.passed) return { ...cross, cross: { rule, cross: true } };
   if (tightOk) {
@@ -221,10 +223,68 @@ function coreAtNominal(timing: TimingResult): NonNullable<OperatingPoint["core"]
   return timing.tapSinkNom_A === undefined ? core : { ...core, sink_A: timing.tapSinkNom_A };
 }
 
-function sizeInner(spec: VariantSpec): SizedVariant {
+interface CoreChoice {
+  spec: VariantSpec;
+  ctx: Ctx;
+  plan: ChainPlan;
+  core: ReturnType<typeof tapAndTiming>;
+}
+
+function coreOf(spec: VariantSpec, crossOffered = true): CoreChoice {
   const ctx = makeContext(spec);
   const plan = CHAIN_PLANNERS[spec.chain](ctx);
-  const { tap, timing, rcLowered, follower, cross, caps } = tapAndTiming(ctx, plan);
+  return { spec, ctx, plan, core: tapAndTiming(ctx, plan, crossOffered) };
+}
+
+/**
+ * Chains the step is offered to: the MOSFET chains. On the three-stage Darlington it made four 24 V,
+ * 20 kHz fan variants pass sizing whose load current and switch dissipation then disagreed with the
+ * embedded engine (1.13–1.25 × and 0.41–0.59 × the prediction): the chain's model at that frequency, never
+ * reached before, not the core, is unproven there.
+ */
+const STEP_CHAINS: ReadonlySet<string> = new Set(["mosfet-logic", "mosfet-driver"]);
+
+/**
+ * Every core attempt with the timing core's signal diodes stepped to the low-capacitance class
+ * (docs/method.md, "Low-capacitance base diodes"): only on a MOSFET chain, when no core passes with the
+ * ordinary class, the failing core has series base diodes (their capacitance is what the class lowers), the load is
+ * not a solenoid (its pull-in timer is not proven with a stepped core, as for the ±5 % capacitors) and
+ * the class holds off V_cc,max under the policy. Kept only when a core passes, so every variant that
+ * passed before keeps its design; the step is recorded as the role's device-class decision.
+ */
+function steppedDiodes(first: CoreChoice): CoreChoice | null {
+  const { spec, ctx, core } = first;
+  const low = spec.stressClasses?.signal_diode;
+  const ordinary = spec.devices.signal_diode as DiodeClass;
+  if (low === undefined || low.family !== "diode" || low.id === ordinary.id) return null;
+  if (!STEP_CHAINS.has(spec.chain) || !core.timing.values.diodes || spec.load_kind === "solenoid") return null;
+  if (low.vrrm_V * spec.policy.diode.voltage.factor < ctx.vMax_V) return null;
+  const rule = core.timing.problems.find((p) => p.severity === "error")?.rule ?? "duty-range-worst-case";
+  const reason =
+    `stepped up under stress: with ${ordinary.title} (C_D ≈ ${formatValue(diodeCj_F(ordinary), "F")} at 0 V) no ` +
+    `timing core passes (${rule}); the series base diodes' capacitance injects C_j·dV/dt into the base at the ` +
+    `start of the off phase, and ${low.title} (C_D ≈ ${formatValue(diodeCj_F(low), "F")}) lets a core pass every limit`;
+  const stepped: VariantSpec = {
+    ...spec,
+    devices: { ...spec.devices, signal_diode: low },
+    ...(spec.deviceReasons === undefined ? {} : { deviceReasons: { ...spec.deviceReasons, signal_diode: reason } }),
+  };
+  // Not with the cross-returned bleed: its held-base lift limit was measured with the ordinary class, and
+  // a 12 V, 25 kHz fan core it passed with this class stopped at both ends of the control in simulation.
+  const second = coreOf(stepped, false);
+  return second.core.timing.search.passed ? second : null;
+}
+
+/** The variant's timing core: with its own classes, else with the signal diodes stepped up (above). */
+function chooseCore(specIn: VariantSpec): CoreChoice {
+  const first = coreOf(specIn);
+  return first.core.timing.search.passed ? first : (steppedDiodes(first) ?? first);
+}
+
+function sizeInner(specIn: VariantSpec): SizedVariant {
+  const chosen = chooseCore(specIn);
+  const { spec, ctx, plan } = chosen;
+  const { tap, timing, rcLowered, follower, cross, caps } = chosen.core;
   const w = timing.search.worst;
   // With the control's ends (stages/end-contacts.ts) the load runs at duty 1 and duty 0 too: every
   // duty-weighted figure is taken over that widened range.

@@ -26,6 +26,8 @@ export interface ExpandDeps {
   choose: (rec: DesignRecord, supply_V: number, load_A: number, chain: ChainKind) => Record<DeviceRole, DeviceClass>;
   /** Optional: why each role got its class (shown on the page as design decisions). */
   explain?: (rec: DesignRecord, supply_V: number, load_A: number, chain: ChainKind) => Record<DeviceRole, string>;
+  /** Optional: classes the engine may step a role up to while sizing (VariantSpec.stressClasses). */
+  stressClasses?: (rec: DesignRecord) => Partial<Record<DeviceRole, DeviceClass>>;
   policy: DeratingPolicy;
 }
 
@@ -46,6 +48,8 @@ export function fillTargets(t: DesignRecord["targets"]): VariantSpec["targets"] 
 export function expandDesign(rec: DesignRecord, deps: ExpandDeps): VariantSpec[] {
   const targets = fillTargets(rec.targets);
   const protection = { ...PROTECTION_DEFAULTS, ...rec.protection };
+  const stress = deps.stressClasses?.(rec) ?? {};
+  const stressClasses = Object.keys(stress).length > 0 ? { stressClasses: stress } : {};
   const out: VariantSpec[] = [];
   for (const supply_V of rec.axes.supply_V) {
     // Every worst case of the variant uses this window's min and max (src/engine/shared/supply.ts).
@@ -67,6 +71,7 @@ export function expandDesign(rec: DesignRecord, deps: ExpandDeps): VariantSpec[]
             protection: { ...protection },
             devices: { ...devices },
             ...(reasons ? { deviceReasons: { ...reasons } } : {}),
+            ...stressClasses,
             policy: deps.policy,
             ...(load_kind === "solenoid" && rec.solenoid !== undefined ? { solenoid: { ...rec.solenoid } } : {}),
           });

@@ -113,6 +113,8 @@ export interface DiodeClass extends DeviceBase {
   vf_at_A: number;
   trr_s: number;
   recovery: "standard" | "fast" | "ultrafast" | "schottky";
+  /** Junction capacitance at 0 V (data sheet C_D), F; absent: the family's typical figure (diode.ts diodeCj_F). */
+  cj0_F?: number;
 }
 
 export interface ZenerClass extends DeviceBase {

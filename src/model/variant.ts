@@ -22,6 +22,11 @@ export interface VariantSpec {
   devices: Record<DeviceRole, DeviceClass>;
   /** Why each role got its class (the chooser's reasons), when the expansion asked for them. */
   deviceReasons?: Record<DeviceRole, string>;
+  /**
+   * Classes the engine may step a role up to under stress while sizing, never chosen ahead of it
+   * (src/engine/devices/choose.ts STRESS_DEVICE_IDS): present when the record binds no class for the role.
+   */
+  stressClasses?: Partial<Record<DeviceRole, DeviceClass>>;
   policy: DeratingPolicy;
   /** The record's coil data, present on solenoid variants. */
   solenoid?: SolenoidRecord;

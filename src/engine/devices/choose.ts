@@ -63,6 +63,27 @@ export const RAISED_DEVICE_IDS: Readonly<Partial<Record<DeviceRole, readonly str
   mosfet_standard: ["nmos-standard-100v"],
 };
 
+/**
+ * Classes the engine steps a role up to under stress while it sizes a variant, never chosen here: the
+ * low-capacitance switching diode for the timing core's signal diodes, taken only where no core passes
+ * with the ordinary class (size.ts, docs/method.md "Low-capacitance base diodes"). A record that binds
+ * the role keeps its class.
+ */
+export const STRESS_DEVICE_IDS: Readonly<Partial<Record<DeviceRole, readonly string[]>>> = {
+  signal_diode: ["diode-signal-lowcap"],
+};
+
+/** The classes of STRESS_DEVICE_IDS present in the library, for the roles the record does not bind. */
+export function stressClasses(record: DesignRecord, lib: DeviceLibrary): Partial<Record<DeviceRole, DeviceClass>> {
+  const out: Partial<Record<DeviceRole, DeviceClass>> = {};
+  for (const [role, ids] of Object.entries(STRESS_DEVICE_IDS) as [DeviceRole, readonly string[]][]) {
+    if (record.devices?.[role] !== undefined) continue;
+    const id = ids.find((x) => lib.has(x));
+    if (id !== undefined) out[role] = checkFamily(role, getDevice(lib, id), "stress step");
+  }
+  return out;
+}
+
 /** Family each role needs: the shared table (src/model/design.ts). */
 export { ROLE_FAMILY } from "../../model/design.ts";
 

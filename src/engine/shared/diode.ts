@@ -100,11 +100,13 @@ export function diodeTransitTime_s(dev: DiodeClass): number {
 
 /**
  * Zero-bias junction capacitance of a diode class, F — one figure shared by the engine (base-diode
- * injection into a floating base) and the netlist's diode card (CJO): small-signal diodes
- * (< 0.5 A) ≈ 4 pF, larger p-n rectifiers ≈ 15 pF, Schottky ≈ 100 pF per ampere of rating
- * (typical data-sheet C_D at 0 V, from memory).
+ * injection into a floating or held base) and the netlist's diode card (CJO): the class's own data-sheet
+ * C_D at 0 V where it states one (`cj0_F`, e.g. the low-capacitance switching class), else the family's
+ * typical figure: small-signal diodes (< 0.5 A) ≈ 4 pF, larger p-n rectifiers ≈ 15 pF, Schottky
+ * ≈ 100 pF per ampere of rating (typical data-sheet C_D at 0 V, from memory).
  */
 export function diodeCj_F(d: DiodeClass): number {
+  if (d.cj0_F !== undefined) return d.cj0_F;
   return d.recovery === "schottky" ? 100e-12 * d.if_avg_A : d.if_avg_A < 0.5 ? 4e-12 : 15e-12;
 }
 
