@@ -23,7 +23,8 @@ import { checkOutDir, writeSiteMarker } from "./out-guard.ts";
 import { buildDate } from "./build-date.ts";
 import type { Verification } from "../model/verification.ts";
 import type { LoadedProject } from "./pipeline.ts";
-import type { CatalogueHead, StreamedDesign, WriteStats } from "../site/write.ts";
+import type { CatalogueHead, StreamedDesign, WriteStats, WrittenDesign } from "../site/write.ts";
+import type { DesignRows } from "../site/design-pages.ts";
 
 /**
  * The code of the whole build after sizing (site writer, templates, browser scripts; sizing and
@@ -122,7 +123,6 @@ export async function runBuild(o: BuildOptions): Promise<number> {
       misses,
       workers,
       sizeStats,
-      counted: { variants, feasible },
       pkg,
       builtAt,
       t0,
@@ -204,7 +204,12 @@ export async function runBuild(o: BuildOptions): Promise<number> {
       yield { ...assembleDesign(design, rendered, verifications, plot), builtKey: keys[i]! };
     }
   }
-  const published = await publishSite(o, head, designs(), { outDir, siteCache, inputKey });
+  const published = await publishSite(o, head, () => designs(), {
+    outDir,
+    siteCache,
+    inputKey,
+    designs: project.designs,
+  });
   if (typeof published === "number") return published;
   const s = summary;
   o.out.log(
@@ -244,22 +249,28 @@ function siteKey(
   ]);
 }
 
-/** Writes the site into a staging folder and swaps it into place; the exit code when it could not. */
+type SiteDesigns = Iterable<StreamedDesign | WrittenDesign> | AsyncIterable<StreamedDesign | WrittenDesign>;
+
+/**
+ * Writes the site into a staging folder and swaps it into place; the exit code when it could not.
+ * `designs` is given the staging folder (the sizing workers may write pages into it).
+ */
 async function publishSite(
   o: BuildOptions,
   head: CatalogueHead,
-  designs: Iterable<StreamedDesign> | AsyncIterable<StreamedDesign>,
-  at: { outDir: string; siteCache: string; inputKey: string },
+  designs: (staging: string) => SiteDesigns,
+  at: { outDir: string; siteCache: string; inputKey: string; designs: LoadedProject["designs"] },
 ): Promise<WriteStats | number> {
   // Imported here: a build with nothing to republish never loads the site writer.
   const { writeSiteStream } = await import("../site/write.ts");
   const staging = await makeStagingDir(at.outDir);
   try {
-    const written = await writeSiteStream(head, designs, staging, {
+    const written = await writeSiteStream(head, designs(staging), staging, {
       pathPrefix: o.pathPrefix,
       quiet: true,
       cacheDir: at.siteCache,
       readCache: !o.rebuild,
+      designsAhead: at.designs.map((d) => ({ title: d.record.title, summary: d.record.summary })),
     });
     await writeSiteMarker(staging);
     // Again just before the swap: the folder may have been filled by someone else meanwhile.
@@ -288,27 +299,39 @@ interface Overlap {
   misses: number[];
   workers: number;
   sizeStats: StageStats;
-  /** Variants and feasible ones of the designs read from their entries. */
-  counted: { variants: number; feasible: number };
   pkg: { version: string };
   builtAt: string;
   t0: number;
 }
 
 /**
- * A build without simulation whose designs need sizing on worker threads: the site writer takes
- * the designs in catalogue order, each as soon as its entry is written, while the workers size the
- * rest, so the writer's thread and the workers share the cores instead of taking turns. The pages
- * are those of the sequential build: each design is read back from its entry either way, and the
- * catalogue's totals are counted by the writer as the designs pass.
+ * Pages per run of the template engine in a sizing worker: fewer than the writer's own runs
+ * (design-pages.ts), as two workers render at once beside the build's thread.
+ */
+const WORKER_CHUNK_PAGES = 300;
+
+/**
+ * A build without simulation whose designs need sizing on worker threads: each worker sizes a
+ * design (or reads its entry) and writes its pages and downloads into the staging folder itself,
+ * as the site writer would (src/site/design-pages.ts), replying with the small rows the writer
+ * keeps; the writer's thread takes those rows in catalogue order and writes what follows the last
+ * design (home page, `catalogue.json`, search index). The workers' threads were idle once sizing
+ * was done; the writer's thread was the long path. The pages are those of the sequential build,
+ * byte for byte (test/cli/worker-pages.test.ts).
  */
 async function overlappedBuild(o: BuildOptions, x: Overlap): Promise<number> {
   const { project, sizedDir } = x;
-  const ready = new Map<number, { promise: Promise<void>; resolve: () => void; reject: (e: unknown) => void }>();
-  for (const i of x.misses) {
-    let resolve!: () => void;
+  const all = project.designs.map((_, i) => i);
+  const missing = new Set(x.misses);
+  const cached = new Set(all.filter((i) => !missing.has(i)));
+  const ready = new Map<
+    number,
+    { promise: Promise<DesignRows>; resolve: (r: DesignRows) => void; reject: (e: unknown) => void }
+  >();
+  for (const i of all) {
+    let resolve!: (r: DesignRows) => void;
     let reject!: (e: unknown) => void;
-    const promise = new Promise<void>((res, rej) => {
+    const promise = new Promise<DesignRows>((res, rej) => {
       resolve = res;
       reject = rej;
     });
@@ -316,43 +339,70 @@ async function overlappedBuild(o: BuildOptions, x: Overlap): Promise<number> {
     promise.catch(() => undefined);
     ready.set(i, { promise, resolve, reject });
   }
-  const sizing = sizeInWorkers(project, x.misses, sizedDir, x.workers, (i) => ready.get(i)?.resolve());
-  const total = { ...x.counted };
-  const sized = sizing.then(
-    (counts) => {
-      for (const n of counts.values()) {
-        total.variants += n.variants;
-        total.feasible += n.feasible;
-      }
-      o.out.log(
-        `sized and rendered ${total.variants} variants of ${project.designs.length} designs ` +
-          `in ${((performance.now() - x.t0) / 1000).toFixed(1)} s, the site written meanwhile ` +
-          `(${x.sizeStats.hits} designs unchanged, ${x.sizeStats.misses} sized again)`,
-      );
-    },
-    (err: unknown) => {
-      for (const d of ready.values()) d.reject(err);
-      throw err;
-    },
-  );
-  sized.catch(() => undefined);
-  const head = catalogueHead(project, x.builtAt, x.pkg.version);
-  const plot = cachedPlot(path.join(o.root, ".cache", "plot"), !o.rebuild);
-  const none = new Map<string, Verification>();
-  async function* designs(): AsyncGenerator<StreamedDesign> {
-    for (const [i, design] of project.designs.entries()) {
-      await ready.get(i)?.promise;
-      const { rendered } = sizeAndRenderDesign(project, design, sizedDir, undefined, { read: true });
-      yield { ...assembleDesign(design, rendered, none, plot), builtKey: x.sizeStats.keys[i]! };
+  const total = { variants: 0, feasible: 0 };
+  let sized: Promise<void> | null = null;
+  const start = (staging: string): Promise<void> => {
+    const job = {
+      out: staging,
+      cacheDir: x.siteCache,
+      readCache: !o.rebuild,
+      pathPrefix: o.pathPrefix,
+      builtAt: x.builtAt,
+      version: x.pkg.version,
+      chunkPages: WORKER_CHUNK_PAGES,
+    };
+    const p = sizeInWorkers(
+      project,
+      all,
+      sizedDir,
+      x.workers,
+      (i, rows) => (rows ? ready.get(i)?.resolve(rows) : ready.get(i)?.reject(new Error(`no pages for design #${i}`))),
+      { job, cached },
+    ).then(
+      (counts) => {
+        for (const n of counts.values()) {
+          total.variants += n.variants;
+          total.feasible += n.feasible;
+        }
+        o.out.log(
+          `sized and rendered ${total.variants} variants of ${project.designs.length} designs ` +
+            `in ${((performance.now() - x.t0) / 1000).toFixed(1)} s, their pages written meanwhile ` +
+            `(${x.sizeStats.hits} designs unchanged, ${x.sizeStats.misses} sized again)`,
+        );
+      },
+      (err: unknown) => {
+        for (const d of ready.values()) d.reject(err);
+        throw err;
+      },
+    );
+    p.catch(() => undefined);
+    return p;
+  };
+  async function* designs(staging: string): AsyncGenerator<WrittenDesign> {
+    const pool = (sized = start(staging));
+    try {
+      for (const i of all) yield { written: await ready.get(i)!.promise };
+    } finally {
+      // Every worker's last pages are written before the writer counts the files and publishes,
+      // and before a writer that stopped early discards the staging folder the workers write into.
+      await pool.catch(() => undefined);
     }
+    await pool;
   }
+  const head = catalogueHead(project, x.builtAt, x.pkg.version);
+  const none = new Map<string, Verification>();
   const inputKey = siteKey(o, project, x.sizeStats.keys, none, x.pkg, x.builtAt);
   let published: WriteStats | number;
   try {
-    published = await publishSite(o, head, designs(), { outDir: x.outDir, siteCache: x.siteCache, inputKey });
+    published = await publishSite(o, head, (staging) => designs(staging), {
+      outDir: x.outDir,
+      siteCache: x.siteCache,
+      inputKey,
+      designs: project.designs,
+    });
   } finally {
     // The workers finish (or have failed) before the build returns, whatever the writer did.
-    await sized.catch(() => undefined);
+    await (sized as Promise<void> | null)?.catch(() => undefined);
   }
   await sized;
   if (typeof published === "number") return published;

@@ -6,8 +6,10 @@
  */
 import { availableParallelism } from "node:os";
 import { Worker } from "node:worker_threads";
+import { RecordError } from "../model/errors.ts";
+import type { DesignRows } from "../site/design-pages.ts";
 import type { LoadedProject } from "./pipeline.ts";
-import type { SizeReply, SizeWorkerData } from "./size-worker-main.ts";
+import type { PagesJob, SizeReply, SizeWorkerData } from "./size-worker-main.ts";
 
 const WORKER_URL = new URL("./size-worker.mjs", import.meta.url);
 
@@ -30,6 +32,15 @@ export function workerHeapMb(variants: number): number {
   return Math.ceil(160 + 0.5 * variants);
 }
 
+/**
+ * The heap a worker that also writes pages needs besides: one run of the template engine over
+ * `chunkPages` pages (their views, ≈ 60 KB each, and the engine's own garbage, ≈ 0.5 MB a page
+ * before a collection when left unbounded). A bound keeps the collector at work.
+ */
+export function pageHeapMb(chunkPages: number): number {
+  return Math.ceil(96 + 0.6 * chunkPages);
+}
+
 /** Whether sizing these designs is worth worker threads, and how many. 0: size in this thread. */
 export function sizingWorkers(project: LoadedProject, misses: readonly number[], asked?: number): number {
   const work = misses.reduce((n, i) => n + axesProduct(project.designs[i]!), 0);
@@ -38,26 +49,38 @@ export function sizingWorkers(project: LoadedProject, misses: readonly number[],
   return work < PARALLEL_FROM_VARIANTS || n < 2 ? 0 : n;
 }
 
+/** Workers that write pages besides (size-worker-main.ts): the site's settings, and which designs to read. */
+export interface PoolPages {
+  job: PagesJob;
+  /** The designs whose sized entry is there: read from it, not sized again. */
+  cached: ReadonlySet<number>;
+}
+
 /**
  * Sizes the designs `misses` (indexes into the project) on `workers` threads, each entry written
  * into `cacheDir`; `onDesign` hears of each design as soon as its entry is written (so the site
  * writer can start on it). Resolves with each design's counts; rejects, naming the design's file,
- * on the first design that cannot be sized.
+ * on the first design that cannot be sized. With `pages`, `misses` lists every design to write
+ * pages for (those in `pages.cached` are read, not sized), `onDesign` is given each design's rows,
+ * and the pool resolves once every worker has written its last pages.
  */
 export async function sizeInWorkers(
   project: LoadedProject,
   misses: readonly number[],
   cacheDir: string,
   workers: number,
-  onDesign?: (index: number) => void,
+  onDesign?: (index: number, rows?: DesignRows) => void,
+  pages?: PoolPages,
 ): Promise<Map<number, { variants: number; feasible: number }>> {
   const queue = [...misses];
-  const heap = workerHeapMb(Math.max(...misses.map((i) => axesProduct(project.designs[i]!))));
+  const heap =
+    workerHeapMb(Math.max(...misses.map((i) => axesProduct(project.designs[i]!)))) +
+    (pages ? pageHeapMb(pages.job.chunkPages) : 0);
   const done = new Map<number, { variants: number; feasible: number }>();
   const slot = (): Promise<void> =>
     new Promise((resolve, reject) => {
       const w = new Worker(WORKER_URL, {
-        workerData: { cacheDir, project } satisfies SizeWorkerData,
+        workerData: { cacheDir, project, ...(pages ? { pages: pages.job } : {}) } satisfies SizeWorkerData,
         resourceLimits: { maxOldGenerationSizeMb: heap },
       });
       let failed: Error | undefined;
@@ -69,16 +92,17 @@ export async function sizeInWorkers(
       const next = (): void => {
         const index = queue.shift();
         if (index === undefined) w.postMessage("close");
-        else w.postMessage({ index });
+        else w.postMessage({ index, ...(pages?.cached.has(index) ? { read: true } : {}) });
       };
       w.on("message", (msg: SizeReply) => {
         if ("fatal" in msg) fail(new Error(`sizing worker: ${msg.fatal}`));
         else if ("ready" in msg) next();
+        else if ("record" in msg) fail(new RecordError(msg.record.file, msg.record.pointer, msg.record.detail));
         else if ("error" in msg)
           fail(new Error(`sizing ${project.designs[msg.index]?.file ?? `design #${msg.index}`} failed: ${msg.error}`));
         else {
           done.set(msg.index, { variants: msg.variants, feasible: msg.feasible });
-          onDesign?.(msg.index);
+          onDesign?.(msg.index, msg.rows);
           next();
         }
       });

@@ -113,6 +113,12 @@ export class CatalogueJsonWriter {
     for (const v of d.variants) this.variants.push(`    ${JSON.stringify(catalogueVariantRow(v, d))}`);
   }
 
+  /** A design's entry and its variants' lines, made elsewhere (design-pages.ts), in the same form. */
+  addRows(design: object, lines: readonly string[]): void {
+    this.designs.push(design);
+    this.variants.push(...lines);
+  }
+
   text(head: Pick<BuiltCatalogue, "builtAt" | "version" | "policy" | "summary">): string {
     const marker = "\u0001variants\u0001";
     const outline = JSON.stringify(

@@ -62,6 +62,12 @@ interface FormulaItem {
  * writer streams them). Its outputs are sorted, so they do not depend on the order the designs
  * arrive in.
  */
+/** What one design adds to the index, as plain data (it crosses from a worker thread). */
+export interface FormulaPart {
+  formulas: [string, Omit<FormulaItem, "labels"> & { labels: string[] }][];
+  rules: [string, { source: SourceKey; note: string }][];
+}
+
 export class FormulaIndex {
   private readonly formulas = new Map<string, FormulaItem>();
   private readonly rules = new Map<string, { source: SourceKey; note: string }>();
@@ -85,6 +91,24 @@ export class FormulaIndex {
       const id = ruleId(c.source, c.note);
       if (!this.rules.has(id)) this.rules.set(id, { source: c.source, note: c.note ?? "" });
     }
+  }
+
+  /** This index's entries as plain data, for `merge` into another. */
+  part(): FormulaPart {
+    return {
+      formulas: [...this.formulas].map(([id, f]) => [id, { ...f, labels: [...f.labels] }]),
+      rules: [...this.rules],
+    };
+  }
+
+  /** Adds what another index collected, as `add` would have from the same figures and checks. */
+  merge(p: FormulaPart): void {
+    for (const [id, f] of p.formulas) {
+      const e = this.formulas.get(id);
+      if (e) for (const l of f.labels) e.labels.add(l);
+      else this.formulas.set(id, { ...f, labels: new Set(f.labels) });
+    }
+    for (const [id, r] of p.rules) if (!this.rules.has(id)) this.rules.set(id, r);
   }
 
   private sortedFormulas(): [string, FormulaItem][] {

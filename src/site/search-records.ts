@@ -6,8 +6,9 @@
  * page rather than by the size of the page.
  */
 import type { SourcesView } from "./bibliography.ts";
-import type { DesignPageView, HomeView } from "./data.ts";
-import type { VariantView } from "./view-variant.ts";
+import type { HomeView } from "./data.ts";
+import type { DesignView } from "./view-design.ts";
+import type { VariantSearchHead } from "./view-variant.ts";
 
 export interface SearchRecord {
   /** Root-relative URL of the page (no leading slash). */
@@ -25,7 +26,8 @@ function text(parts: readonly string[]): string {
     .join(" ");
 }
 
-export function variantRecord(v: VariantView): SearchRecord {
+/** A variant page's record: from its view, or from the few fields of it the record reads. */
+export function variantRecord(v: VariantSearchHead): SearchRecord {
   return {
     url: v.page,
     title: v.title,
@@ -42,7 +44,7 @@ export function variantRecord(v: VariantView): SearchRecord {
   };
 }
 
-export function designRecord(d: DesignPageView): SearchRecord {
+export function designRecord(d: DesignView): SearchRecord {
   return {
     url: d.page,
     title: d.title,
@@ -57,7 +59,10 @@ export function designRecord(d: DesignPageView): SearchRecord {
   };
 }
 
-export function homeRecord(h: HomeView): SearchRecord {
+/** The home page's record: from the designs' titles and summaries only (known before any is built). */
+export function homeRecord(h: {
+  designs: readonly Pick<HomeView["designs"][number], "title" | "summary">[];
+}): SearchRecord {
   return {
     url: "index.html",
     title: "Driver catalogue of the greenhouse cooperative",

@@ -3,9 +3,10 @@
  * of and the code that makes it (src/cache/code-hash.ts), so no version string is ever bumped by
  * hand:
  *
- * - a design page, and each group page of a large design: its view model, the site code and
- *   templates, the URL prefix, and what the shared layout prints on every page (catalogue version,
- *   derating policy);
+ * - a design page, and each group page of a large design: in a build, the design's sized key,
+ *   record, file and simulations and the engine data (otherwise its view model), the site code
+ *   and templates, the URL prefix, and what the shared layout prints on every page (catalogue
+ *   version, derating policy);
  * - a variant page with its downloads: its view model, the built variant (sized figures, circuit
  *   files, simulation), its design's record and file, the policy, and the same shared parts;
  * - the browser scripts: the code under src/browser/ and the bundler's version;
@@ -35,12 +36,51 @@ export function sharedKeyParts(home: { version: string; policy: string }, pathPr
   return [codeHash(SITE_CODE), pathPrefix, keyText([home.version, home.policy])];
 }
 
-export function designPageKey(shared: readonly string[], view: DesignPageView): string {
-  return hashParts(["design-page", ...shared, keyText(view)]);
+/**
+ * What a streamed build knows of a design before any view is made: its sized key (record, device
+ * library, policy and the code that sizes, draws and plots), the catalogue's engine data and each
+ * variant's simulation as text. Every view of the design and of its variants is a function of
+ * these and of the site code (in `shared`).
+ */
+export interface BuiltDesignKey {
+  key: string;
+  engineKey: string;
+  sims: readonly string[];
 }
 
-export function groupPageKey(shared: readonly string[], view: DesignGroupPageView): string {
-  return hashParts(["design-group-page", ...shared, keyText(view)]);
+/**
+ * A design page's key. With `built`, from the design's built key (above) instead of the JSON text
+ * of its view (the chain comparison and the "size your own" data are made only when this misses);
+ * without it (a catalogue handed over whole, as in the tests), from the view's text.
+ */
+export function designPageKey(
+  shared: readonly string[],
+  designPart: string,
+  view: () => DesignPageView,
+  built?: BuiltDesignKey,
+): string {
+  if (built) return hashParts(["design-page-built", ...shared, designPart, built.engineKey, built.key, ...built.sims]);
+  return hashParts(["design-page", ...shared, keyText(view())]);
+}
+
+/** A group page's key: as its design page's, with the group's page path. */
+export function groupPageKey(
+  shared: readonly string[],
+  designPart: string,
+  view: () => DesignGroupPageView,
+  built?: BuiltDesignKey & { page: string },
+): string {
+  if (built)
+    return hashParts([
+      "design-group-page-built",
+      ...shared,
+      designPart,
+      built.engineKey,
+      built.key,
+      built.page,
+      ...built.sims,
+    ]);
+  return hashParts(["design-group-page", ...shared, keyText(view())]);
 }
 
 /** The part of a variant page's key that its design gives (the same for all its variants). */
@@ -51,18 +91,19 @@ export function designKeyPart(d: BuiltDesign, policy: BuiltCatalogue["policy"]):
 /**
  * A variant page's key. With `built`, the key of what decided the design's built variants (the
  * build passes its sized key: record, device library, policy and the code that sizes, draws and
- * plots), the page is keyed by that key, the variant's place and id, its simulation and the
- * catalogue's engine data (`engineKey`), all of which the view is a function of (with the site
- * code in `shared`), so neither the view nor the variant's circuit files are written out as JSON
- * again for every page (≈ 1.5 s of the writer's thread per thousand variants). Without it (a
- * catalogue handed over whole, as in the tests), the view and the built variant are hashed as text.
+ * plots), the page is keyed by that key, the variant's place and id, its simulation (`sim`, its
+ * text, when the caller has it already) and the catalogue's engine data (`engineKey`), all of
+ * which the view is a function of (with the site code in `shared`), so neither the view nor the
+ * variant's circuit files are written out as JSON again for every page, and the view is made only
+ * when the key misses. Without it (a catalogue handed over whole, as in the tests), the view and
+ * the built variant are hashed as text.
  */
 export function variantPageKey(
   shared: readonly string[],
   designPart: string,
-  view: VariantView,
+  view: VariantView | (() => VariantView),
   v: BuiltVariant,
-  built?: { key: string; index: number; engineKey: string },
+  built?: { key: string; index: number; engineKey: string; sim?: string },
 ): string {
   if (built)
     return hashParts([
@@ -73,9 +114,15 @@ export function variantPageKey(
       built.key,
       String(built.index),
       v.sized.spec.id,
-      keyText(v.verification ?? null),
+      built.sim ?? keyText(v.verification ?? null),
     ]);
-  return hashParts(["variant-page", ...shared, designPart, keyText(view), keyText(v)]);
+  return hashParts([
+    "variant-page",
+    ...shared,
+    designPart,
+    keyText(typeof view === "function" ? view() : view),
+    keyText(v),
+  ]);
 }
 
 /** The home page's key, without the build date (printed only outside the indexed content). */

@@ -47,6 +47,18 @@ export function validateCatalogue(cat: BuiltCatalogue): void {
 }
 
 /**
+ * What the checks across designs need of one design (its ids and the alternatives it names), for
+ * a design whose own checks ran on another thread (a sizing worker that wrote its pages).
+ */
+export interface DesignIds {
+  design: string;
+  file: string;
+  variants: string[];
+  /** Each alternative named, with the place of the variant naming it. */
+  alternatives: { vi: number; id: string }[];
+}
+
+/**
  * The same checks for a catalogue that arrives one design at a time: `design` as each arrives,
  * `finish` once all have (alternatives may name a variant of a design not seen yet).
  */
@@ -58,6 +70,26 @@ export class CatalogueChecks {
   constructor(cat: Pick<BuiltCatalogue, "builtAt">) {
     if (typeof cat.builtAt !== "string" || cat.builtAt === "")
       throw new RecordError("catalogue", "/builtAt", "missing build date");
+  }
+
+  /**
+   * The checks across designs for a design whose own checks passed elsewhere (`design` on a
+   * fresh instance): its id and its variants' ids appear nowhere before, its alternatives are kept
+   * for `finish`. The errors are those `design` gives.
+   */
+  known(ids: DesignIds, di: number): void {
+    const file = ids.file !== "" ? ids.file : `design #${di}`;
+    const at = `/designs/${di}`;
+    if (this.designIds.has(ids.design))
+      throw new RecordError(file, `${at}/record/id`, `design id "${ids.design}" appears twice`);
+    this.designIds.add(ids.design);
+    ids.variants.forEach((id, vi) => {
+      if (this.variantIds.has(id))
+        throw new RecordError(file, `${at}/variants/${vi}/sized/spec/id`, `variant id "${id}" appears twice`);
+      this.variantIds.add(id);
+    });
+    for (const a of ids.alternatives)
+      this.alternatives.push({ file: ids.file, pointer: `${at}/variants/${a.vi}/sized/alternative/id`, id: a.id });
   }
 
   design(d: BuiltDesign, di: number): void {

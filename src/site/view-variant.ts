@@ -113,24 +113,21 @@ function derating(rows: readonly CheckRow[]): Pick<VariantView, "checks" | "rule
   return { checks, rules };
 }
 
-export function variantView(
-  v: BuiltVariant,
-  d: BuiltDesign,
-  cat: Pick<BuiltCatalogue, "policy" | "engine">,
-): VariantView {
+/** The fields of a variant's view its search record reads: cheap, made without the rest of the view. */
+export type VariantSearchHead = Pick<
+  VariantView,
+  "id" | "page" | "title" | "design" | "spec" | "verdict" | "alternative" | "heatsink"
+>;
+
+export function variantSearchHead(v: BuiltVariant, d: BuiltDesign): VariantSearchHead {
   const s = v.sized;
   const spec = s.spec;
-  const page = variantPage(spec.id);
   const verdict = verdictWords(s.verdict.status);
   const alt = s.alternative;
   const t = spec.targets;
-  // The device classes the variant was sized with (its spec carries them), the catalogue's library besides.
-  const classes: DeviceClass[] = [...(cat.engine?.devices ?? []), ...Object.values(spec.devices)];
-  const facts = factsContext(s, new Map(classes.map((c) => [c.id, c])));
   return {
     id: spec.id,
-    page,
-    root: relativeRoot(page),
+    page: variantPage(spec.id),
     title:
       `${d.record.title}: ${formatValue(spec.supply_V, "V")}, ${formatValue(spec.load_A, "A")}, ` +
       `${chainLabel(spec.chain)}, ${loadLabel(spec.load_kind)}`,
@@ -151,7 +148,6 @@ export function variantView(
       ...endRows(s, v.verification),
       { label: "Ambient range", value: `${formatValue(t.ambient_C[0], "°C")} … ${formatValue(t.ambient_C[1], "°C")}` },
     ],
-    feasible: s.feasible,
     verdict: {
       status: s.verdict.status,
       ...verdict,
@@ -160,6 +156,31 @@ export function variantView(
       blocking: s.verdict.blocking.map((b) => b.message),
     },
     alternative: alt ? { url: variantPage(alt.id), label: `${chainLabel(alt.chain)} (${alt.id})`, why: alt.why } : null,
+    heatsink: { needed: s.heatsink.needed, text: s.heatsink.text },
+  };
+}
+
+export function variantView(
+  v: BuiltVariant,
+  d: BuiltDesign,
+  cat: Pick<BuiltCatalogue, "policy" | "engine">,
+): VariantView {
+  const s = v.sized;
+  const spec = s.spec;
+  const h = variantSearchHead(v, d);
+  // The device classes the variant was sized with (its spec carries them), the catalogue's library besides.
+  const classes: DeviceClass[] = [...(cat.engine?.devices ?? []), ...Object.values(spec.devices)];
+  const facts = factsContext(s, new Map(classes.map((c) => [c.id, c])));
+  return {
+    id: h.id,
+    page: h.page,
+    root: relativeRoot(h.page),
+    title: h.title,
+    design: h.design,
+    spec: h.spec,
+    feasible: s.feasible,
+    verdict: h.verdict,
+    alternative: h.alternative,
     figures: orderedFigureRows(s.figures),
     schematic:
       s.circuit && v.files.schematicSvg
@@ -173,7 +194,7 @@ export function variantView(
     parts: (s.circuit?.parts ?? []).map((p) => partRow(p, facts)),
     mounting: s.circuit ? mountingRows({ circuit: s.circuit, heatsink: s.heatsink, verdict: s.verdict }) : [],
     ...derating(s.checks.map(checkRow)),
-    heatsink: { needed: s.heatsink.needed, text: s.heatsink.text },
+    heatsink: h.heatsink,
     problems: problems(s.problems),
     verification: verificationView(v.verification),
     selfCheck: selfCheckView(v),

@@ -1,45 +1,22 @@
 import { copyFile, mkdir, readdir, readFile, writeFile } from "node:fs/promises";
 import path from "node:path";
-import { fileURLToPath } from "node:url";
 import type { BuiltCatalogue, BuiltDesign } from "../model/catalogue.ts";
-import { sourcesView } from "./bibliography.ts";
 import { CatalogueJsonWriter } from "./catalogue-json.ts";
-import { chooserEntries } from "./chooser-index.ts";
 import type { ChooserEntry } from "./chooser.ts";
-import {
-  designPageViews,
-  homeDesignRow,
-  homeView,
-  type DesignGroupPageView,
-  type HomeView,
-  type SiteView,
-} from "./data.ts";
-import { availableDownloads, downloadText } from "./downloads.ts";
-import { variantDir } from "./paths.ts";
-import { pulsewrightSite } from "./plugin.ts";
+import { homeView, type HomeView } from "./data.ts";
 import { catalogueEngine } from "./size-own-data.ts";
 import { CatalogueChecks } from "./validate.ts";
-import { variantJsonText } from "./variant-json.ts";
-import { variantView, type VariantView } from "./view-variant.ts";
 import { FormulaIndex } from "./formulas-view.ts";
 import { BASIS_JSON } from "./basis.ts";
-import type { DesignPageView } from "./data.ts";
 import { BROWSER_SCRIPTS, writeBrowserScripts } from "./bundle.ts";
-import { writeSearchIndex } from "./search-index.ts";
-import { designRecord, homeRecord, sourcesRecord, variantRecord, type SearchRecord } from "./search-records.ts";
-import {
-  designKeyPart,
-  designPageKey,
-  groupPageKey,
-  homeKey,
-  scriptsKey,
-  searchKey,
-  sharedKeyParts,
-  sourcesKey,
-  variantPageKey,
-} from "./site-cache.ts";
+import { SearchIndexWriter, writeSearchIndex } from "./search-index.ts";
+import { homeRecord, sourcesRecord, type SearchRecord } from "./search-records.ts";
+import { homeKey, scriptsKey, searchKey, sourcesKey } from "./site-cache.ts";
 import { readBundle, writeBundle, type Bundle } from "./site-bundle.ts";
-import { hashParts, keyText } from "../cache/store.ts";
+import { keyText } from "../cache/store.ts";
+import { copyBundle, PageWriter, pageSetup, renderPages, SITE_INPUT_DIR, type DesignRows } from "./design-pages.ts";
+
+export { SITE_INPUT_DIR } from "./design-pages.ts";
 
 /**
  * A design as the build streams it to the site writer: `builtKey`, when given, is the key of
@@ -49,15 +26,17 @@ import { hashParts, keyText } from "../cache/store.ts";
  */
 export type StreamedDesign = BuiltDesign & { builtKey?: string };
 
-/** The Eleventy input folder (templates) and the static assets copied as they are. */
-export const SITE_INPUT_DIR = fileURLToPath(new URL("../../site/", import.meta.url));
-const ASSETS_DIR = path.join(SITE_INPUT_DIR, "assets");
-
 /**
- * Pages rendered per run of the template engine. The writer holds the view models of this many
- * pages at a time (and the template engine their output), whatever the size of the catalogue.
+ * A design whose pages and downloads another thread has already written into the output folder
+ * (a sizing worker, design-pages.ts): the writer keeps its rows, and `ids` go through the checks
+ * across designs (its own checks ran where its pages were made).
  */
-const CHUNK_PAGES = 400;
+export interface WrittenDesign {
+  written: DesignRows;
+}
+
+/** The static assets, copied as they are. */
+const ASSETS_DIR = path.join(SITE_INPUT_DIR, "assets");
 
 export interface WriteSiteOptions {
   /** URL prefix the site is served under. Links are relative, so it changes no link. */
@@ -71,6 +50,13 @@ export interface WriteSiteOptions {
   cacheDir?: string;
   /** false: produce everything, but still write the cache entries (`build --rebuild`). */
   readCache?: boolean;
+  /**
+   * The designs' titles and summaries in catalogue order, when known before the designs arrive
+   * (the build knows them from the records): the search index is then filled as the designs pass,
+   * beginning with the home page's record, which is made of these, so only writing its files is
+   * left after the last design. Should the home page's record differ, the index is made afresh.
+   */
+  designsAhead?: readonly { title: string; summary: string }[];
 }
 
 export interface WriteStats {
@@ -92,52 +78,6 @@ async function countFiles(dir: string): Promise<number> {
   for (const e of await readdir(dir, { withFileTypes: true }))
     n += e.isDirectory() ? await countFiles(path.join(dir, e.name)) : 1;
   return n;
-}
-
-/** A variant's downloads as (file name, text), in the order the page lists them. */
-function variantDownloads(head: CatalogueHead, d: BuiltDesign, vi: number): [string, string][] {
-  const v = d.variants[vi]!;
-  return availableDownloads(v).map((f) => [
-    f.name,
-    f.kind === "json" ? variantJsonText(v, d, head) : downloadText(v, f.kind),
-  ]);
-}
-
-/**
- * Renders pages with Eleventy (imported only when some page must be rendered). `only` names the
- * templates of this run: the design and variant pages of a chunk, or the home and sources pages.
- */
-async function renderPages(view: SiteView, out: string, opts: WriteSiteOptions, only: "chunk" | "home"): Promise<void> {
-  const { default: Eleventy } = await import("@11ty/eleventy");
-  const skip =
-    only === "chunk" ? ["index.njk", "sources.njk", "formulas.njk"] : ["design.njk", "design-group.njk", "variant.njk"];
-  let release = (): void => undefined;
-  const eleventy = new Eleventy(SITE_INPUT_DIR, out, {
-    quietMode: opts.quiet ?? true,
-    configPath: "", // no project config file: everything comes from the plugin below
-    pathPrefix: opts.pathPrefix ?? "/",
-    config: (cfg) => {
-      release = pulsewrightSite(cfg, view);
-      for (const t of skip) cfg.ignores.add(`**/${t}`);
-    },
-  });
-  if (opts.quiet ?? true) eleventy.disableLogger();
-  try {
-    await eleventy.write();
-  } finally {
-    release();
-  }
-}
-
-/** One design's pages waiting in the current chunk, with their cache keys. */
-interface Pending {
-  design: BuiltDesign;
-  view: DesignPageView;
-  groups: DesignGroupPageView[];
-  variants: VariantView[];
-  designKey: string;
-  groupKeys: string[];
-  variantKeys: string[];
 }
 
 /**
@@ -164,7 +104,7 @@ export async function writeSite(cat: BuiltCatalogue, outDir: string, opts: Write
  */
 export async function writeSiteStream(
   head: CatalogueHead,
-  designs: Iterable<StreamedDesign> | AsyncIterable<StreamedDesign>,
+  designs: Iterable<StreamedDesign | WrittenDesign> | AsyncIterable<StreamedDesign | WrittenDesign>,
   outDir: string,
   opts: WriteSiteOptions = {},
 ): Promise<WriteStats> {
@@ -177,17 +117,47 @@ export async function writeSiteStream(
   const write = async (key: string, files: Bundle): Promise<void> => {
     if (cache !== undefined) await writeBundle(cache, key, files);
   };
-  const prefix = opts.pathPrefix ?? "/";
+  const setup = pageSetup(head, opts.pathPrefix ?? "/");
+  // The template engine renders the home page at the end whatever else is cached: loaded while
+  // the designs are still on their way, not after the last one.
+  import("@11ty/eleventy").catch(() => undefined);
+  // The search index, filled as the designs pass (see `designsAhead`).
+  const early = opts.designsAhead
+    ? { home: homeRecord({ designs: opts.designsAhead }), index: new SearchIndexWriter() }
+    : null;
+  early?.index.add([early.home, sourcesRecord(setup.sources)]);
+  try {
+    return await writeStream(head, designs, out, opts, { check, read, write, setup, early });
+  } finally {
+    await early?.index.close();
+  }
+}
+
+interface StreamParts {
+  check: CatalogueChecks;
+  read: (key: string) => Promise<Bundle | null>;
+  write: (key: string, files: Bundle) => Promise<void>;
+  setup: ReturnType<typeof pageSetup>;
+  early: { home: SearchRecord; index: SearchIndexWriter } | null;
+}
+
+async function writeStream(
+  head: CatalogueHead,
+  designs: Iterable<StreamedDesign | WrittenDesign> | AsyncIterable<StreamedDesign | WrittenDesign>,
+  out: string,
+  opts: WriteSiteOptions,
+  { check, read, write, setup, early }: StreamParts,
+): Promise<WriteStats> {
+  const { shared, sources } = setup;
+  const cache = opts.cacheDir;
+  const writer = new PageWriter(setup, out, {
+    quiet: opts.quiet ?? true,
+    ...(cache !== undefined ? { cacheDir: cache } : {}),
+    ...(opts.readCache !== undefined ? { readCache: opts.readCache } : {}),
+  });
   const summary = { variants: 0, feasible: 0, agree: 0, disagree: 0, failed: 0, skipped: 0 };
-  // The layout prints the version and policy on every page; the rest of the home view comes last.
-  const pageHome = homeView({ ...head, summary }, [], []);
-  const shared = sharedKeyParts(pageHome, prefix);
-  // The engine data every variant view reads (device library, policy): hashed once per build.
-  const engineKey = hashParts([keyText(head.engine ?? null)]);
-  const sources = sourcesView();
   // Filled as the designs pass; the formulas page and basis.json are written after the last one.
   const formulaIndex = new FormulaIndex();
-  const noFormulas = new FormulaIndex().view();
 
   const homeRows: HomeView["designs"] = [];
   const chooser: ChooserEntry[] = [];
@@ -198,102 +168,29 @@ export async function writeSiteStream(
   let pages = 3;
   let rendered = 3; // home, sources and formulas: rendered whenever the site is written
 
-  let chunk: Pending[] = [];
-  let chunkPages = 0;
-  const flush = async (): Promise<void> => {
-    const missDesigns: DesignPageView[] = [];
-    const missGroups: DesignGroupPageView[] = [];
-    const missVariants: VariantView[] = [];
-    const toStore: { key: string; dir: string; design?: BuiltDesign; vi?: number }[] = [];
-    for (const p of chunk) {
-      const hitD = await read(p.designKey);
-      if (hitD) await copyBundle(out, `designs/${p.view.id}/`, hitD);
-      else {
-        missDesigns.push(p.view);
-        toStore.push({ key: p.designKey, dir: `designs/${p.view.id}/` });
-      }
-      for (const [gi, g] of p.groups.entries()) {
-        const key = p.groupKeys[gi]!;
-        const dir = g.page.slice(0, -"index.html".length);
-        const hit = await read(key);
-        if (hit) await copyBundle(out, dir, hit);
-        else {
-          missGroups.push(g);
-          toStore.push({ key, dir });
-        }
-      }
-      for (const [vi, vv] of p.variants.entries()) {
-        const key = p.variantKeys[vi]!;
-        const dir = variantDir(vv.id);
-        const hit = await read(key);
-        if (hit) await copyBundle(out, dir, hit);
-        else {
-          missVariants.push(vv);
-          toStore.push({ key, dir, design: p.design, vi });
-        }
-      }
-    }
-    const misses = missDesigns.length + missGroups.length + missVariants.length;
-    if (misses > 0)
-      await renderPages(
-        {
-          home: pageHome,
-          designs: missDesigns,
-          groups: missGroups,
-          variants: missVariants,
-          sources,
-          formulas: noFormulas,
-        },
-        out,
-        opts,
-        "chunk",
-      );
-    rendered += misses;
-    for (const s of toStore) {
-      const dir = path.join(out, s.dir);
-      const files: Bundle = [["index.html", await readFile(path.join(dir, "index.html"))]];
-      if (s.design && s.vi !== undefined)
-        for (const [name, text] of variantDownloads(head, s.design, s.vi)) {
-          const bytes = Buffer.from(text, "utf8");
-          await writeFile(path.join(dir, name), bytes);
-          files.push([name, bytes]);
-        }
-      await write(s.key, files);
-    }
-    chunk = [];
-    chunkPages = 0;
-  };
-
   let di = 0;
-  for await (const d of designs) {
-    check.design(d, di++);
-    for (const v of d.variants) {
-      summary.variants++;
-      if (v.sized.feasible) summary.feasible++;
-      if (v.verification) summary[v.verification.status]++;
+  for await (const item of designs) {
+    let rows: DesignRows;
+    if ("written" in item) {
+      rows = item.written;
+      check.known(rows.ids, di++);
+    } else {
+      check.design(item, di++);
+      rows = await writer.design(item);
     }
-    const { page: view, groups } = designPageViews(d, { ...(head.engine ? { engine: head.engine } : {}), designs: [] });
-    const variants = d.variants.map((v) => variantView(v, d, head));
-    for (const v of d.variants) formulaIndex.add(v.sized.figures, v.sized.checks);
-    const designKey = designPageKey(shared, view);
-    const groupKeys = groups.map((g) => groupPageKey(shared, g));
-    const part = designKeyPart(d, head.policy);
-    const built = d.builtKey;
-    const keys = d.variants.map((v, vi) =>
-      variantPageKey(shared, part, variants[vi]!, v, built ? { key: built, index: vi, engineKey } : undefined),
-    );
-    designKeys.push(designKey, ...groupKeys);
-    variantKeys.push(...keys);
-    homeRows.push(homeDesignRow(d));
-    chooser.push(...chooserEntries(d));
-    json.addDesign(d);
-    records.push(designRecord(view), ...variants.map(variantRecord));
-    pages += 1 + groups.length + d.variants.length;
-    chunk.push({ design: d, view, groups, variants, designKey, groupKeys, variantKeys: keys });
-    chunkPages += 1 + groups.length + d.variants.length;
-    if (chunkPages >= CHUNK_PAGES) await flush();
+    for (const k of Object.keys(summary) as (keyof typeof summary)[]) summary[k] += rows.counts[k];
+    formulaIndex.merge(rows.formulas);
+    designKeys.push(...rows.designKeys);
+    variantKeys.push(...rows.variantKeys);
+    homeRows.push(rows.homeRow);
+    chooser.push(...rows.chooser);
+    json.addRows(rows.json.design, rows.json.lines);
+    records.push(...rows.records);
+    early?.index.add(rows.records);
+    pages += rows.pages;
+    rendered += rows.rendered;
   }
-  await flush();
+  await writer.flush();
   check.finish();
 
   const totals = head.summary ?? summary;
@@ -327,19 +224,11 @@ export async function writeSiteStream(
   const index = await read(iKey);
   if (index) await copyBundle(out, "pagefind/", index);
   else {
-    await writeSearchIndex(out, records);
+    if (early && keyText(early.home) === keyText(records[0])) await early.index.write(out);
+    else await writeSearchIndex(out, records);
     if (cache !== undefined) await write(iKey, await readTree(path.join(out, "pagefind")));
   }
   return { pages, files: await countFiles(out), rendered, searchIndex: index ? "cached" : "built" };
-}
-
-/** Writes a cached bundle's files below `dir` (relative to `out`, with a trailing slash). */
-async function copyBundle(out: string, dir: string, files: Bundle): Promise<void> {
-  for (const [name, bytes] of files) {
-    const file = path.join(out, dir, name);
-    await mkdir(path.dirname(file), { recursive: true });
-    await writeFile(file, bytes);
-  }
 }
 
 /** Every file below `dir` as (relative path with /, bytes), sorted. */

@@ -229,6 +229,8 @@ describe("engine numbers over the schema's whole input space", () => {
         { seed: SEED, numRuns: 150 },
       );
     },
+    // 150 sizings: a ceiling for a busy machine, not a speed target (speed is measured by npm run bench).
+    240_000,
   );
 
   it("renderers never throw on a sized variant, and views are non-empty for every circuit", () => {
