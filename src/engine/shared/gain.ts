@@ -6,7 +6,7 @@
 import type { BjtClass, GainPoint, SatPoint } from "../../model/device.ts";
 import { EngineMisuseError } from "../../model/errors.ts";
 import { JUNCTION_TEMPCO_VperK } from "./diode.ts";
-import { NOMINAL_TEMP_C, ZERO_CELSIUS_K } from "./temperature.ts";
+import { NOMINAL_TEMP_C, VT_NOMINAL_V, ZERO_CELSIUS_K } from "./temperature.ts";
 import { findRoot } from "./root.ts";
 
 /** V_BE temperature coefficient, V/K (≈ −2 mV/K: common practice; the same as a diode's). */
@@ -35,7 +35,8 @@ function checkTemp(dev: BjtClass, tj_C: number, fn: string): void {
  */
 export function hfeNominal(dev: BjtClass, ic_A: number, which: "min" | "typ" = "min"): number {
   checkCurrent(dev, ic_A, "hfeNominal");
-  const pts = gainPoints(dev, which);
+  const kept = keptGain(dev, which);
+  const pts = kept.pts;
   const first = pts[0];
   if (first === undefined) throw new EngineMisuseError(`hfeNominal(${dev.id}): the class has no gain points`);
   if (ic_A <= first.ic_A) return first.h;
@@ -43,7 +44,7 @@ export function hfeNominal(dev: BjtClass, ic_A: number, which: "min" | "typ" = "
     const a = pts[i - 1]!;
     const b = pts[i]!;
     if (ic_A === b.ic_A) return b.h; // exact at the datasheet points
-    if (ic_A < b.ic_A) return logLog(a.ic_A, a.h, b.ic_A, b.h, ic_A);
+    if (ic_A < b.ic_A) return segmentLogLog(kept, i, a.ic_A, ic_A);
   }
   const last = pts[pts.length - 1]!;
   const knee = keptKnee(dev, which);
@@ -59,6 +60,8 @@ export function hfeNominal(dev: BjtClass, ic_A: number, which: "min" | "typ" = "
 interface KeptGain {
   pts: { ic_A: number; h: number }[];
   knee?: GainKnee | null;
+  /** Per segment i (points i − 1 … i): logLog's logarithms of the end points, taken once. */
+  seg?: { lnX: number; lnY0: number; dLnY: number }[];
 }
 const GAIN = { min: new WeakMap<readonly GainPoint[], KeptGain>(), typ: new WeakMap<readonly GainPoint[], KeptGain>() };
 
@@ -69,10 +72,6 @@ function keptGain(dev: BjtClass, which: "min" | "typ"): KeptGain {
     GAIN[which].set(dev.hfe, k);
   }
   return k;
-}
-
-function gainPoints(dev: BjtClass, which: "min" | "typ"): readonly { ic_A: number; h: number }[] {
-  return keptGain(dev, which).pts;
 }
 
 /** gainKnee, fitted on first use (only currents above the last point need it). */
@@ -145,9 +144,20 @@ export function gainKnee(dev: BjtClass, which: "min" | "typ" = "min"): GainKnee 
   return { ikf_A: b.ic_A / x, nkf };
 }
 
-function logLog(x0: number, y0: number, x1: number, y1: number, x: number): number {
-  const t = Math.log(x / x0) / Math.log(x1 / x0);
-  return Math.exp(Math.log(y0) + t * (Math.log(y1) - Math.log(y0)));
+/**
+ * Log-log interpolation on segment i of a kept gain list (points i − 1 and i), as data-sheet
+ * graphs are drawn: ln h linear in ln I_C. The segment's logarithms are taken once: the timing search
+ * reads the gain law hundreds of thousands of times per variant.
+ */
+function segmentLogLog(k: KeptGain, i: number, x0: number, x: number): number {
+  if (k.seg === undefined)
+    k.seg = k.pts.map((b, j) => {
+      const a = k.pts[Math.max(0, j - 1)]!;
+      return { lnX: Math.log(b.ic_A / a.ic_A), lnY0: Math.log(a.h), dLnY: Math.log(b.h) - Math.log(a.h) };
+    });
+  const s = k.seg[i]!;
+  const t = Math.log(x / x0) / s.lnX;
+  return Math.exp(s.lnY0 + t * s.dLnY);
 }
 
 /**
@@ -247,6 +257,18 @@ export function vbeRefCurrent_A(dev: BjtClass): number {
 export function vbeOn(dev: BjtClass, tj_C: number): number {
   checkTemp(dev, tj_C, "vbeOn");
   return dev.vbe_on_V + VBE_TEMPCO_VperK * (tj_C - NOMINAL_TEMP_C);
+}
+
+/**
+ * Typical V_BE of a conducting B–E junction at ic_A and tj_C: the class's V_BE(on) at its reference
+ * current, V_T·ln(I_C/I_ref) away from it, −2 mV/K. The diode law with N = 1 (Shockley [src:shockley-1949];
+ * the BJT's i_C–v_BE relation, Sedra & Smith, from memory [src:sedra-smith]): the law the timing
+ * transistors' netlist card puts its IS through (src/render/spice-bjt.ts isTypical_A), so the engine
+ * reads V_BE at microamperes where the card does.
+ */
+export function vbeTypical_V(dev: BjtClass, ic_A: number, tj_C: number): number {
+  checkCurrent(dev, ic_A, "vbeTypical_V");
+  return vbeOn(dev, tj_C) + VT_NOMINAL_V * Math.log(ic_A / vbeRefCurrent_A(dev));
 }
 
 /** Maximum V_BE(sat) at ic_A from the saturation points; else nominal V_BE(on) + 0.15 V. */

@@ -13,6 +13,7 @@
  * Pure functions; nothing rounded.
  */
 import { offTime_s } from "./cross-bleed.ts";
+import { junctionTailCurrent_A } from "./core-levels.ts";
 
 /** A load on a timing collector seen as a resistance to a fixed voltage (a clamp, or 0 V). */
 export interface CollectorLoad {
@@ -115,15 +116,37 @@ export interface CoreParams {
   /** Total base resistance of each side (end resistor + its share of the pot). */
   rBA_ohm: number;
   rBB_ohm: number;
-  loadA?: CollectorLoad;
-  loadB?: CollectorLoad;
+  loadA?: CollectorLoad | undefined;
+  loadB?: CollectorLoad | undefined;
   /** Recovery followers (follower-core arrangement); absent: the plain core. The loads then sit on the emitters. */
-  follower?: FollowerParams;
+  follower?: FollowerParams | undefined;
   /**
    * Cross-returned bleed (cross-bleed.ts): each off phase follows the two-segment charging law
    * (R_D, the base diode's drop at cut-in, the base's cut-in level V_γ). Absent: the single ln law.
    */
-  cross?: { rD_ohm: number; vF_V: number; vGamma_V: number };
+  cross?: { rD_ohm: number; vF_V: number; vGamma_V: number } | undefined;
+  /**
+   * The low-supply levels (core-levels.ts): a capacitor-only follower's V_BE at its tail current, and
+   * each side's return level. Absent: V_BE,F and V_γ fixed (the plain textbook form).
+   */
+  levels?: CoreLevels | undefined;
+}
+
+/**
+ * The two levels of core-levels.ts, evaluated by the caller at its corner (an object with methods,
+ * made once per corner, so the fixed point allocates nothing).
+ */
+export interface CoreLevels {
+  /** Thermal voltage at the corner (the tail current's V_T), V. */
+  vT_V: number;
+  /** The followers' V_BE at the current i_A (the timing transistors' typical junction law), V. */
+  followerVbe_V(i_A: number): number;
+  /**
+   * Base-node level at which side X's transistor turns the core over, V; `clampVbe_V` is X's
+   * follower's V_BE at the end of X's off phase when the follower's diode must clamp the plate
+   * (null: no follower, or one whose emitter load pulls the plate down with the collector).
+   */
+  returnLevel_V(side: "A" | "B", clampVbe_V: number | null): number;
 }
 
 /**
@@ -212,51 +235,153 @@ export interface CoreTiming {
   swingB_V: number;
   tauA_s: number;
   tauB_s: number;
+  /** Base-node level at which each side's transistor turned the core over (V_γ, or CoreParams.levels), V. */
+  returnA_V: number;
+  returnB_V: number;
 }
+
+/**
+ * One off phase: the single ln law, or the cross-returned bleed's two segments. A swing smaller than
+ * V_on − V_γ never takes the base below its return level: that side does not turn off (the core
+ * latches). The floor keeps the numbers finite; the recovery figure rejects it.
+ */
+function offPhase_s(p: CoreParams, rB: number, c: number, swing: number, vReturn: number): number {
+  const cross = p.cross;
+  if (cross === undefined) return rB * c * Math.max(LN_FLOOR, lnFactor(p.vcc_V, p.vOn_V, swing, vReturn));
+  return Math.max(
+    rB * c * LN_FLOOR,
+    offTime_s({
+      rB_ohm: rB,
+      c_F: c,
+      vcc_V: p.vcc_V,
+      vStart_V: p.vOn_V - swing,
+      vSat_V: p.vSat_V,
+      vF_V: cross.vF_V,
+      vGamma_V: cross.vGamma_V,
+      rD_ohm: cross.rD_ohm,
+    }),
+  );
+}
+
+/**
+ * Side X's driving node while the fixed point runs. A follower "in its tail" feeds nothing but its
+ * capacitor (the chain on the collector, or no load on its emitter): its node is V_0 − V_BE,F behind
+ * a fixed resistance (followerOfCollector, followerThevenin without a load), so its high level and full
+ * swing follow V_BE,F linearly and nothing is rebuilt when V_BE,F moves.
+ */
+interface Side {
+  tail: boolean;
+  /** The follower's V_BE (its tail level once the fixed point has run), V. */
+  vbeF_V: number;
+  /** The driving node's high level with V_BE,F = 0 (tail sides; else the node's level), V. */
+  v0_V: number;
+  /** The clamped low level the swing is measured to: V_CE(sat) (+ V_F of the follower's diode), V. */
+  low_V: number;
+  r_ohm: number;
+  vReturn_V: number;
+}
+
+function side(p: CoreParams, x: "A" | "B"): Side {
+  const fo = p.follower;
+  const load = x === "A" ? p.loadA : p.loadB;
+  const drive = drivingThevenin(p.vcc_V, x === "A" ? p.rCA_ohm : p.rCB_ohm, fo, load);
+  const tail = fo !== undefined && p.levels !== undefined && (fo.loadsOnCollector === true || load === undefined);
+  const vbeF_V = fo?.vBe_V ?? 0;
+  return {
+    tail,
+    vbeF_V,
+    v0_V: tail ? drive.v_V + vbeF_V : drive.v_V,
+    low_V: p.vSat_V + (fo === undefined ? 0 : x === "A" ? fo.vFA_V : fo.vFB_V),
+    r_ohm: drive.r_ohm,
+    vReturn_V: p.vCutIn_V ?? p.vOn_V,
+  };
+}
+
+/** The driving node's high level (followerSwing_V's V_E,high; the collector's in the plain core), V. */
+function highLevel_V(s: Side): number {
+  return s.tail ? s.v0_V - s.vbeF_V : s.v0_V;
+}
+
+/** The level side X's base node returns at, never above V_on (CoreLevels.returnLevel_V). */
+function returnOf(p: CoreParams, lv: CoreLevels, s: Side, x: "A" | "B"): number {
+  return Math.min(p.vOn_V, lv.returnLevel_V(x, s.tail ? s.vbeF_V : null));
+}
+
+/**
+ * A tail side's V_BE,F when its plate has been high for t_s: the junction law at the tail current
+ * C·V_T/t (core-levels.ts).
+ */
+function tailVbe_V(lv: CoreLevels, c_F: number, t_s: number): number {
+  return lv.followerVbe_V(junctionTailCurrent_A(c_F, t_s, lv.vT_V));
+}
+
+/**
+ * The levels at the start of the fixed point. A tail side's V_BE,F is read at its own off time as the
+ * ln law gives it with the fixed levels (V_BE(on), V_γ) and full swings, and each side's return level
+ * is read once, at that V_BE,F. The fixed point then moves V_BE,F by a few millivolts (V_T times the
+ * relative change of the off time), which moves the return level by V_T/(I_reg·R_C′) ≈ 1/40 of that,
+ * tens of microvolts (a few ppm of a half-period): the return level is not iterated, the cheap tail
+ * law is (docs/method.md, "Timing core at low supplies").
+ */
+function startLevels(p: CoreParams, lv: CoreLevels, a: Side, b: Side): void {
+  const vRet0 = p.vCutIn_V ?? p.vOn_V;
+  if (a.tail || b.tail) {
+    const fullA = Math.max(0, highLevel_V(a) - a.low_V);
+    const fullB = Math.max(0, highLevel_V(b) - b.low_V);
+    const tA = offPhase_s(p, p.rBA_ohm, p.cB_F, fullB, vRet0);
+    const tB = offPhase_s(p, p.rBB_ohm, p.cA_F, fullA, vRet0);
+    if (a.tail) a.vbeF_V = tailVbe_V(lv, p.cA_F, tA);
+    if (b.tail) b.vbeF_V = tailVbe_V(lv, p.cB_F, tB);
+  }
+  a.vReturn_V = returnOf(p, lv, a, "A");
+  b.vReturn_V = returnOf(p, lv, b, "B");
+}
+
+/** Fixed-point tolerance on the tail V_BE, V (its effect on a half-period is ≈ 0.2 ppm per µV). */
+const TAIL_TOL_V = 1e-9;
 
 /**
  * Both half-periods with loading and incomplete collector recovery, solved as a fixed point
  * (each side's swing depends on the other side's off time; converges in a few steps because the
- * recovery term e^(−t/τ) is small in any sane design).
+ * recovery term e^(−t/τ) is small in any sane design). With the low-supply levels the tail sides'
+ * V_BE,F (and with it their swing) joins the fixed point: V_BE,F X is read at X's own off time (plate
+ * X is high, and its follower in its tail, for exactly that phase); the return levels are read once
+ * (startLevels).
  */
 export function evaluateCore(p: CoreParams): CoreTiming {
   const fo = p.follower;
-  const a = drivingThevenin(p.vcc_V, p.rCA_ohm, fo, p.loadA);
-  const b = drivingThevenin(p.vcc_V, p.rCB_ohm, fo, p.loadB);
-  const fullA = fo ? followerSwing_V(a.v_V, p.vSat_V, fo.vFA_V) : Math.max(0, a.v_V - p.vSat_V);
-  const fullB = fo ? followerSwing_V(b.v_V, p.vSat_V, fo.vFB_V) : Math.max(0, b.v_V - p.vSat_V);
-  const tauA_s = (a.r_ohm + (fo?.rS_ohm ?? 0)) * p.cA_F;
-  const tauB_s = (b.r_ohm + (fo?.rS_ohm ?? 0)) * p.cB_F;
-  const vGamma = p.vCutIn_V ?? p.vOn_V;
+  const lv = p.levels;
+  const a = side(p, "A");
+  const b = side(p, "B");
+  if (lv !== undefined) startLevels(p, lv, a, b);
+  const rS = fo?.rS_ohm ?? 0;
+  const tauA_s = (a.r_ohm + rS) * p.cA_F;
+  const tauB_s = (b.r_ohm + rS) * p.cB_F;
+  let fullA = Math.max(0, highLevel_V(a) - a.low_V);
+  let fullB = Math.max(0, highLevel_V(b) - b.low_V);
   let swingA = fullA;
   let swingB = fullB;
   let tAoff = 0;
   let tBoff = 0;
-  const cross = p.cross;
-  // A swing smaller than V_on − V_γ never takes the base below cut-in: that side does not turn
-  // off (the core latches). The floor keeps the numbers finite; the recovery figure rejects it.
-  const off = (rB: number, c: number, swing: number): number =>
-    cross === undefined
-      ? rB * c * Math.max(LN_FLOOR, lnFactor(p.vcc_V, p.vOn_V, swing, vGamma))
-      : Math.max(
-          rB * c * LN_FLOOR,
-          offTime_s({
-            rB_ohm: rB,
-            c_F: c,
-            vcc_V: p.vcc_V,
-            vStart_V: p.vOn_V - swing,
-            vSat_V: p.vSat_V,
-            vF_V: cross.vF_V,
-            vGamma_V: cross.vGamma_V,
-            rD_ohm: cross.rD_ohm,
-          }),
-        );
   for (let i = 0; i < 40; i++) {
-    tBoff = off(p.rBB_ohm, p.cA_F, swingA);
-    tAoff = off(p.rBA_ohm, p.cB_F, swingB);
+    tBoff = offPhase_s(p, p.rBB_ohm, p.cA_F, swingA, b.vReturn_V);
+    tAoff = offPhase_s(p, p.rBA_ohm, p.cB_F, swingB, a.vReturn_V);
+    let moved = 0;
+    if (lv !== undefined && a.tail) {
+      const n = tailVbe_V(lv, p.cA_F, tAoff);
+      moved = Math.abs(n - a.vbeF_V);
+      a.vbeF_V = n;
+      fullA = Math.max(0, highLevel_V(a) - a.low_V);
+    }
+    if (lv !== undefined && b.tail) {
+      const n = tailVbe_V(lv, p.cB_F, tBoff);
+      moved = Math.max(moved, Math.abs(n - b.vbeF_V));
+      b.vbeF_V = n;
+      fullB = Math.max(0, highLevel_V(b) - b.low_V);
+    }
     const nA = fullA * (1 - Math.exp(-tAoff / tauA_s));
     const nB = fullB * (1 - Math.exp(-tBoff / tauB_s));
-    const done = Math.abs(nA - swingA) < 1e-12 * fullA && Math.abs(nB - swingB) < 1e-12 * fullB;
+    const done = moved < TAIL_TOL_V && Math.abs(nA - swingA) < 1e-12 * fullA && Math.abs(nB - swingB) < 1e-12 * fullB;
     swingA = nA;
     swingB = nB;
     if (done) break;
@@ -267,11 +392,13 @@ export function evaluateCore(p: CoreParams): CoreTiming {
     tBoff_s: tBoff,
     period_s,
     aHigh: tAoff / period_s,
-    vHighA_V: a.v_V,
-    vHighB_V: b.v_V,
+    vHighA_V: highLevel_V(a),
+    vHighB_V: highLevel_V(b),
     swingA_V: swingA,
     swingB_V: swingB,
     tauA_s,
     tauB_s,
+    returnA_V: a.vReturn_V,
+    returnB_V: b.vReturn_V,
   };
 }

@@ -7,11 +7,13 @@
  * (collector A is high, and collector B low, exactly while Q_A is off; ctrl raises R_BA.)
  */
 import type { BjtClass, DiodeClass } from "../../model/device.ts";
-import { VBE_TEMPCO_VperK, hfeMin, vbeOn, vceSat } from "../shared/gain.ts";
+import { VBE_TEMPCO_VperK, hfeMin, vbeOn, vbeTypical_V, vceSat } from "../shared/gain.ts";
 import { diodeClassVf_V } from "../shared/diode.ts";
-import { NOMINAL_TEMP_C } from "../shared/temperature.ts";
+import { NOMINAL_TEMP_C, thermalVoltage_V } from "../shared/temperature.ts";
+import { excessBaseCurrent_A, regenerationCurrent_A } from "./core-levels.ts";
 import {
   type CollectorLoad,
+  type CoreLevels,
   type CoreTiming,
   type FollowerParams,
   collectorThevenin,
@@ -157,7 +159,7 @@ export function followerAt(
     rS_ohm: v.follower.rS_ohm,
     vFA_V: diodeVf_V(db, k.vcc_V / rBB_ohm, k.t_C),
     vFB_V: diodeVf_V(db, k.vcc_V / rBA_ohm, k.t_C),
-    ...(onC ? { loadsOnCollector: true } : {}),
+    loadsOnCollector: onC,
   };
 }
 
@@ -171,25 +173,29 @@ export function evalCore(v: CoreValues, q: BjtClass, db: DiodeClass, k: Corner, 
   const iB = k.vcc_V / Math.max(rBA, rBB);
   const vOn_V = vbeOn(q, k.t_C) + (v.diodes ? diodeVf_V(db, iB, k.t_C) : 0);
   const tapA = !v.inverting;
-  const loads: { loadA?: CollectorLoad; loadB?: CollectorLoad } = {};
-  if (tapA) {
-    loads.loadA = v.tapLoad;
-    if (v.balance) loads.loadB = v.balance;
-  } else {
-    loads.loadB = v.tapLoad;
-    if (v.balance) loads.loadA = v.balance;
-  }
+  // Every object handed on below keeps one shape (absent parts as undefined): the search makes
+  // millions of them, and a property read that meets many shapes is several times slower.
+  let loadA: CollectorLoad | undefined = tapA ? v.tapLoad : v.balance;
+  let loadB: CollectorLoad | undefined = tapA ? v.balance : v.tapLoad;
   const cross = crossAt(v, q, db, k, vSat_V);
   if (cross !== undefined) {
     // While a collector is high, R_D feeds the opposite (conducting) base at V_BE(on): a load on it.
-    loads.loadA = parallelLoads(loads.loadA, cross.load);
-    loads.loadB = parallelLoads(loads.loadB, cross.load);
+    loadA = parallelLoads(loadA, cross.load);
+    loadB = parallelLoads(loadB, cross.load);
   }
-  const vCutIn_V =
-    cross === undefined
-      ? Math.min(vOn_V, cutIn_V(v.diodes, db, k.t_C, v.bleed_ohm))
-      : Math.min(vOn_V, cross.params.vGamma_V + cross.params.vF_V);
   const fo = followerAt(v, q, db, k, rBA, rBB);
+  const levels =
+    cross === undefined
+      ? coreLevels(v, q, db, k, { vOn_V, rCA, rCB, rBA, rBB, onCollector: fo?.loadsOnCollector === true, loadA, loadB })
+      : undefined;
+  // The cut-in level: the cross-returned bleed's own return level; with followers the fixed point's
+  // start (astable.ts startLevels); the plain core's levels need no start (V_on stands in).
+  const vCutIn_V =
+    cross !== undefined
+      ? Math.min(vOn_V, cross.params.vGamma_V + cross.params.vF_V)
+      : fo !== undefined
+        ? Math.min(vOn_V, cutIn_V(v.diodes, db, k.t_C, v.bleed_ohm))
+        : vOn_V;
   const timing = evaluateCore({
     vcc_V: k.vcc_V,
     vOn_V,
@@ -201,10 +207,13 @@ export function evalCore(v: CoreValues, q: BjtClass, db: DiodeClass, k: Corner, 
     cB_F: v.c_F * k.kCB,
     rBA_ohm: rBA,
     rBB_ohm: rBB,
-    ...loads,
-    ...(fo ? { follower: fo } : {}),
-    ...(cross ? { cross: cross.params } : {}),
+    loadA,
+    loadB,
+    follower: fo,
+    cross: cross?.params,
+    levels,
   });
+
   // The tapped collector's rise before the chain conducts: R_C towards Vcc, in parallel with any
   // linear input network; it charges its own coupling capacitor.
   const rCX = tapA ? rCA : rCB;
@@ -246,7 +255,172 @@ export function evalCore(v: CoreValues, q: BjtClass, db: DiodeClass, k: Corner, 
     ? timing.tAoff_s + dt + v.delayOff_s - v.delayOn_s
     : timing.tAoff_s - dt - v.delayOn_s + v.delayOff_s;
   const duty = Math.min(1, Math.max(0, tOn / timing.period_s));
-  return { timing, f_Hz: 1 / timing.period_s, duty, dtTh_s, vOn_V, vCutIn_V, vSat_V, ...(fo ? { follower: fo } : {}) };
+  return {
+    timing,
+    f_Hz: 1 / timing.period_s,
+    duty,
+    dtTh_s,
+    vOn_V,
+    vCutIn_V: timing.returnA_V,
+    vSat_V,
+    ...(fo ? { follower: fo } : {}),
+  };
+}
+
+/** Smallest current the junction laws are read at, A (below it leakage rules; ours). */
+const LEVEL_I_MIN_A = 1e-9;
+
+/** What coreLevels needs of the corner's evaluation besides the values and classes. */
+interface LevelInputs {
+  vOn_V: number;
+  rCA: number;
+  rCB: number;
+  rBA: number;
+  rBB: number;
+  onCollector: boolean;
+  loadA?: CollectorLoad | undefined;
+  loadB?: CollectorLoad | undefined;
+}
+
+/**
+ * The low-supply levels at one corner (core-levels.ts; docs/method.md, "Timing core at low supplies"):
+ * the followers' tail V_BE on the timing transistors' typical junction law, and the level at which
+ * each side's base node turns the core over. The conducting side Y carries V_cc/R_CY (as V_CE(sat) is
+ * read) at its minimum gain; the returning side X's collector falls across R_CX with any load on it
+ * (only a follower on the collector has a clamp to overcome there).
+ */
+class CornerLevels implements CoreLevels {
+  readonly vT_V: number;
+  private readonly excA: number;
+  private readonly excB: number;
+  private readonly rCollA: number;
+  private readonly rCollB: number;
+  /** The return level without a clamp, per side, once read (NaN: not yet). */
+  private plainA = NaN;
+  private plainB = NaN;
+  /** The follower diode's drop at the excess, per side, once read (NaN: not yet). */
+  private vfA = NaN;
+  private vfB = NaN;
+
+  constructor(
+    readonly diodes: boolean,
+    readonly bleed_ohm: number | undefined,
+    readonly q: BjtClass,
+    readonly db: DiodeClass,
+    readonly vcc_V: number,
+    readonly t_C: number,
+    readonly c: LevelInputs,
+  ) {
+    this.vT_V = thermalVoltage_V(t_C);
+    // Side A returns against side B's excess, and the reverse.
+    this.excA = this.excess(c.vOn_V, c.rBB, c.rCB);
+    this.excB = this.excess(c.vOn_V, c.rBA, c.rCA);
+    this.rCollA = c.onCollector ? collectorThevenin(vcc_V, c.rCA, c.loadA).r_ohm : c.rCA;
+    this.rCollB = c.onCollector ? collectorThevenin(vcc_V, c.rCB, c.loadB).r_ohm : c.rCB;
+  }
+
+  /** Whether these levels are the ones for the given corner's inputs (the capacitors do not enter). */
+  fits(v: CoreValues, q: BjtClass, db: DiodeClass, vcc_V: number, t_C: number, c: LevelInputs): boolean {
+    const o = this.c;
+    return (
+      this.diodes === v.diodes &&
+      this.bleed_ohm === v.bleed_ohm &&
+      this.q === q &&
+      this.db === db &&
+      this.vcc_V === vcc_V &&
+      this.t_C === t_C &&
+      o.vOn_V === c.vOn_V &&
+      o.rCA === c.rCA &&
+      o.rCB === c.rCB &&
+      o.rBA === c.rBA &&
+      o.rBB === c.rBB &&
+      o.onCollector === c.onCollector &&
+      o.loadA === c.loadA &&
+      o.loadB === c.loadB
+    );
+  }
+
+  private excess(vOn_V: number, rB: number, rC: number): number {
+    const iC = this.vcc_V / rC;
+    return excessBaseCurrent_A(
+      this.vcc_V,
+      vOn_V,
+      rB,
+      iC,
+      saturatedGain(this.q, Math.min(this.q.ic_max_A, iC), this.t_C),
+    );
+  }
+
+  followerVbe_V(i_A: number): number {
+    return vbeTypical_V(this.q, Math.max(LEVEL_I_MIN_A, i_A), this.t_C);
+  }
+
+  returnLevel_V(side: "A" | "B", clampVbe_V: number | null): number {
+    if (clampVbe_V !== null) return this.level(side, clampVbe_V);
+    if (side === "A") return Number.isNaN(this.plainA) ? (this.plainA = this.level("A", null)) : this.plainA;
+    return Number.isNaN(this.plainB) ? (this.plainB = this.level("B", null)) : this.plainB;
+  }
+
+  /** The follower's diode carries the excess into the collector as it falls (derived): its drop there, read once. */
+  private clampVf_V(side: "A" | "B"): number {
+    if (side === "A")
+      return Number.isNaN(this.vfA)
+        ? (this.vfA = diodeVf_V(this.db, Math.max(LEVEL_I_MIN_A, this.excA), this.t_C))
+        : this.vfA;
+    return Number.isNaN(this.vfB)
+      ? (this.vfB = diodeVf_V(this.db, Math.max(LEVEL_I_MIN_A, this.excB), this.t_C))
+      : this.vfB;
+  }
+
+  private level(side: "A" | "B", clampVbe_V: number | null): number {
+    const exc = side === "A" ? this.excA : this.excB;
+    const clamp = clampVbe_V === null ? 0 : clampVbe_V + this.clampVf_V(side);
+    const iReg = regenerationCurrent_A(clamp, side === "A" ? this.rCollA : this.rCollB, exc);
+    const vbe = this.followerVbe_V(iReg);
+    if (!this.diodes) return vbe;
+    // The returning transistor's base current at its gain there.
+    const q = this.q;
+    const iB = iReg / hfeMin(q, Math.min(q.ic_max_A, Math.max(LEVEL_I_MIN_A, iReg)), this.t_C);
+    return vbe + diodeVf_V(this.db, iB + (this.bleed_ohm === undefined ? 0 : vbe / this.bleed_ohm), this.t_C);
+  }
+}
+
+/**
+ * hfeMin at a saturated timing collector's current, for the last few (class, current, temperature)
+ * asked: within one candidate of the search that current takes a handful of values (V_cc at its two
+ * ends over R_C at its two tolerances, at two temperatures), so the gain law is read once per value.
+ */
+const KEPT_GAINS = 16;
+const gainQ: (BjtClass | undefined)[] = new Array<BjtClass | undefined>(KEPT_GAINS);
+const gainHfe: (BjtClass["hfe"] | undefined)[] = new Array<BjtClass["hfe"] | undefined>(KEPT_GAINS);
+const gainI = new Float64Array(KEPT_GAINS);
+const gainT = new Float64Array(KEPT_GAINS);
+const gainH = new Float64Array(KEPT_GAINS);
+let gainNext = 0;
+function saturatedGain(q: BjtClass, iC_A: number, t_C: number): number {
+  for (let j = 0; j < KEPT_GAINS; j++)
+    if (gainQ[j] === q && gainHfe[j] === q.hfe && gainI[j] === iC_A && gainT[j] === t_C) return gainH[j]!;
+  const h = hfeMin(q, iC_A, t_C);
+  gainQ[gainNext] = q;
+  gainHfe[gainNext] = q.hfe;
+  gainI[gainNext] = iC_A;
+  gainT[gainNext] = t_C;
+  gainH[gainNext] = h;
+  gainNext = (gainNext + 1) % KEPT_GAINS;
+  return h;
+}
+
+/**
+ * The levels last made, reused while only the capacitors change between corners: the search sweeps
+ * the capacitors' tolerances innermost (worst-corners.ts cornerSet), and nothing of the levels but a
+ * follower's tail depends on them. The same numbers as made afresh, made once.
+ */
+let lastLevels: CornerLevels | undefined;
+
+function coreLevels(v: CoreValues, q: BjtClass, db: DiodeClass, k: Corner, c: LevelInputs): CoreLevels {
+  const l = lastLevels;
+  if (l !== undefined && l.fits(v, q, db, k.vcc_V, k.t_C, c)) return l;
+  return (lastLevels = new CornerLevels(v.diodes, v.bleed_ohm, q, db, k.vcc_V, k.t_C, c));
 }
 
 /**

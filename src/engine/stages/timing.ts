@@ -431,7 +431,8 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign, opts: { 
       lnFactor(ctx.vNom_V, e5.vOn_V, e5.timing.swingB_V, e5.vCutIn_V),
       "",
       "timing",
-      "ln((V_cc − V_on + V_swing)/(V_cc − V_γ)), V_γ the cut-in level → ln 2 when V_swing = V_cc − V_on = V_cc − V_γ",
+      "ln((V_cc − V_on + V_swing)/(V_cc − V_γ)), V_γ the level the base returns at (core-levels.ts) → ln 2 " +
+        "when V_swing = V_cc − V_on = V_cc − V_γ",
       M,
     ),
     figure(
