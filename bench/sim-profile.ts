@@ -19,24 +19,10 @@ import type { SpiceEngine } from "../src/verify/engines/types.ts";
 import { measureVariant, type Measured } from "../src/verify/plan.ts";
 import { planOf } from "../src/verify/verify.ts";
 import { cornerDecks } from "../src/verify/corner-deck.ts";
-import { POWER_RUN_OPTIONS, RETRY_OPTIONS, RETRY2_OPTIONS, RETRY3_OPTIONS, type RunPlan } from "../src/verify/runs.ts";
+import { REFERENCE_RUN_PLAN, RETRY_OPTIONS, RETRY2_OPTIONS, RETRY3_OPTIONS, type RunPlan } from "../src/verify/runs.ts";
 
-/**
- * The long reference plan (`--reference`): every run that settles a winding settles it 60 periods
- * (started at its settled mean current by the preparatory run, so the first period's dip has decayed
- * to e^(−60·P/τ) and the estimate's 0.3 % with it), the others 1, then 8 read at period / 150.
- */
-const REFERENCE_PLAN: RunPlan = {
-  periods: 9,
-  settlePeriods: 1,
-  stepsPerPeriod: 150,
-  timingStepsPerPeriod: 150,
-  settleTau: 1e6,
-  presetSettlePeriods: 60,
-  prepareAlways: true,
-  preparatoryPeriods: 5,
-  powerOptions: POWER_RUN_OPTIONS,
-};
+/** The long reference plan (`--reference`), defined once in the verifier. */
+const REFERENCE_PLAN: RunPlan = REFERENCE_RUN_PLAN;
 
 interface RunRecord {
   id: string;

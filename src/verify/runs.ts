@@ -94,6 +94,24 @@ export const DEFAULT_RUN_PLAN: Readonly<RunPlan> = {
   powerOptions: POWER_RUN_OPTIONS,
 };
 
+/**
+ * A long plan to check settling against (bench/sim-profile.ts `--reference`, test/verify/hand-over.test.ts):
+ * every run that settles a winding settles it 60 periods, started at its settled mean current by the
+ * preparatory run, so the first period's dip has decayed to e^(−60·P/τ) and the estimate's 0.3 % with
+ * it; the others 1; then 8 periods read at period / 150.
+ */
+export const REFERENCE_RUN_PLAN: Readonly<RunPlan> = {
+  periods: 9,
+  settlePeriods: 1,
+  stepsPerPeriod: 150,
+  timingStepsPerPeriod: 150,
+  settleTau: 1e6,
+  presetSettlePeriods: 60,
+  prepareAlways: true,
+  preparatoryPeriods: 5,
+  powerOptions: POWER_RUN_OPTIONS,
+};
+
 export interface Run {
   ctrl: number;
   t: Float64Array;

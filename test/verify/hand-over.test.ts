@@ -6,15 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { handOverInstant, handedCurrent, heldNodes, nodeVoltagesAt } from "../../src/verify/hand-over.ts";
 import { simDeck } from "../../src/verify/deck.ts";
 import { startEngine, type SpiceEngine } from "../../src/verify/engines/index.ts";
-import {
-  DEFAULT_RUN_PLAN,
-  POWER_RUN_OPTIONS,
-  loadTiming,
-  runAt,
-  vec,
-  type Run,
-  type RunPlan,
-} from "../../src/verify/runs.ts";
+import { DEFAULT_RUN_PLAN, REFERENCE_RUN_PLAN, loadTiming, runAt, vec, type Run } from "../../src/verify/runs.ts";
 import { meanOnState } from "../../src/verify/measure.ts";
 import { targetFromSized } from "../../src/verify/target.ts";
 import { figure, motorCase } from "./fixtures.ts";
@@ -139,21 +131,8 @@ describe("the hand-over in a real SPICE engine (eecircuit-engine)", () => {
     expect(decks).toHaveLength(3);
     expect(decks[2]).toMatch(/^\.ic .*v\(ca\)=\S+ .*v\(vbus\)=\S+ v\(ls\)=\S+$/m);
     expect(decks[2]).not.toMatch(/^\.ic v\(ca\)=12 v\(cb\)=0$/m);
-    const reference = await runAt(target, netlist, engine, 1, REFERENCE, 0.9);
+    const reference = await runAt(target, netlist, engine, 1, REFERENCE_RUN_PLAN, 0.9);
     // A tenth of the on-current's ±10 % band (docs/verification.md, "Third pass").
     expectClose(onCurrent(handed), onCurrent(reference), 0.01);
   });
 });
-
-/** 60 periods of settling from the settled mean (the preset), then 8 read: bench/sim-profile.ts `--reference`. */
-const REFERENCE: RunPlan = {
-  periods: 9,
-  settlePeriods: 1,
-  stepsPerPeriod: 150,
-  timingStepsPerPeriod: 150,
-  settleTau: 1e6,
-  presetSettlePeriods: 60,
-  prepareAlways: true,
-  preparatoryPeriods: 5,
-  powerOptions: POWER_RUN_OPTIONS,
-};
