@@ -2,7 +2,7 @@
  * Low-capacitance base diodes (docs/method.md, "Low-capacitance base diodes"): the class's junction
  * capacitance is one figure for the engine and the SPICE card, the injection ratio scales with it as the
  * hand arithmetic says, the engine steps the timing core's signal diodes up only where no core passes with
- * the ordinary class, and a 12 V, 5 kHz, 10–90 % dimmer core of our own agrees with a real SPICE engine
+ * the ordinary class, and a 12 V, 2 kHz, 10–90 % dimmer core of our own agrees with a real SPICE engine
  * (the embedded one) at nominal and at every published corner. A last test runs that core's fast corner
  * with the ordinary class's 4 pF on the same card and shows the injection the limit guards against.
  */
@@ -63,14 +63,14 @@ describe("the class's junction capacitance (shared/diode.ts diodeCj_F, one defin
   });
 });
 
-// A 12 V LED bar dimmer at 5 kHz, 10–90 %, 1 A on the driven MOSFET (a need invented for the test): every
+// A 12 V LED bar dimmer at 2 kHz, 10–90 %, 1 A on the driven MOSFET (a need invented for the test): every
 // core fails with the ordinary class (the base diodes' injection bounds the end stops the range needs).
 const barOpts: SpecOpts = {
   supply_V: 12,
   load_A: 1,
   chain: "mosfet-driver",
   load_kind: "led",
-  pwm_Hz: 5000,
+  pwm_Hz: 2000,
   duty: [0.1, 0.9],
   ambient_C: [5, 40],
   supply: { battery: "lead-acid" },
@@ -114,7 +114,7 @@ describe("the step to the low-capacitance class (size.ts steppedDiodes)", () => 
     expect(injection(ctx, q, ordinary, v)).toBeGreaterThan(INJECTION_MAX);
   });
 
-  it("leaves a variant that passes with the ordinary class untouched (the logic-level MOSFET at 5 kHz)", () => {
+  it("leaves a variant that passes with the ordinary class untouched (the logic-level MOSFET at 2 kHz)", () => {
     const a = sizeVariant(buildSpec({ ...barOpts, chain: "mosfet-logic" }));
     expect(a.feasible).toBe(true);
     expect(a.spec.devices.signal_diode.id).toBe("diode-signal");
@@ -127,7 +127,7 @@ describe("the step to the low-capacitance class (size.ts steppedDiodes)", () => 
   });
 });
 
-describe("the 12 V, 5 kHz, 10–90 % dimmer core against the embedded SPICE engine", () => {
+describe("the 12 V, 2 kHz, 10–90 % dimmer core against the embedded SPICE engine", () => {
   itAgreesWithSpice(bar);
 
   it("with the ordinary 4 pF on the same core, the fast corner runs faster than with 1.5 pF", async () => {
