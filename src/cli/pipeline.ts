@@ -10,7 +10,7 @@ import type { SizedVariant } from "../model/sized.ts";
 import type { Verification } from "../model/verification.ts";
 import type { DeviceLibrary } from "../model/device.ts";
 import { expandDesign } from "../expand/index.ts";
-import { chooseDevices, chooseDevicesWithReasons } from "../engine/devices/choose.ts";
+import { chooseDevices, chooseDevicesWithReasons, stressClasses } from "../engine/devices/choose.ts";
 import { sizeVariant, attachAlternatives } from "../engine/index.ts";
 import { variantPlot } from "../render/plot.ts";
 import { renderVariantViews, type VariantViews } from "../render/variant.ts";
@@ -33,9 +33,9 @@ export function sizeDesign(project: LoadedProject, d: LoadedProject["designs"][n
   const specs = expandDesign(d.record, {
     choose: (rec, supply_V, load_A, c) => chooseDevices(rec, project.devices, supply_V, load_A, c),
     explain: (rec, supply_V, load_A, c) => chooseDevicesWithReasons(rec, project.devices, supply_V, load_A, c).reasons,
-    // The low-capacitance step (VariantSpec.stressClasses) is not offered to builds: the second, independently
-    // derived card set ran every core it made feasible at 1.7–2.2 × its frequency at the fast corner
-    // (docs/method.md, "Low-capacitance base diodes"); the engine keeps the mechanism, tested alone.
+    // Offered again since the bleed turn-off guard (stages/base-bleed.ts bleedTurnOffIndex) holds the cores it
+    // makes feasible with both card sets (docs/method.md, "Low-capacitance base diodes").
+    stressClasses: (rec) => stressClasses(rec, project.devices),
     policy: project.policy,
   });
   return attachAlternatives(specs.map((s) => sizeVariant(s)));

@@ -28,10 +28,14 @@ import type { BjtClass, DiodeClass } from "../../model/device.ts";
 import type { Figure } from "../../model/figure.ts";
 import { figure } from "../shared/figures.ts";
 import { roundDown, roundUp } from "../shared/e-series.ts";
-import { vbeOn } from "../shared/gain.ts";
+import { gainTempExponent, hfeTypicalCurve, vbeOn, vceSat } from "../shared/gain.ts";
+import { NOMINAL_TEMP_C, ZERO_CELSIUS_K } from "../shared/temperature.ts";
+import type { SimCorner } from "../../model/corners.ts";
 import type { Ctx } from "./context.ts";
 import { POT_TOLERANCE } from "./context.ts";
-import { diodeVf_V } from "./core-model.ts";
+import { type CoreValues, diodeVf_V } from "./core-model.ts";
+import { junctionCharge_C } from "../shared/junction.ts";
+import { storageTime_s } from "../shared/storage.ts";
 
 /** Share of the smallest base current the bleed takes (ours, from the measurement above). */
 export const BLEED_SHARE = 0.1;
@@ -99,4 +103,137 @@ export function bleedFigures(bleed_ohm: number | undefined): Figure[] {
       "millman-taub-1965",
     ),
   ];
+}
+
+/**
+ * Highest bleed turn-off index (bleedTurnOffIndex) at which the measured cores held their range at the
+ * fast corner with both model-card sets (measured 2026-12-03, native ngspice, docs/verification.md,
+ * "Second card set"): every feasible demo variant lies at ≤ 0.59 and holds; the 20 kHz driven-MOSFET
+ * fans with the low-capacitance diodes, their bleed stepped from 62 kΩ down, held at 0.58 (12 V, 22 kΩ)
+ * and 0.66 (24 V, 22 kΩ) and ran 5 % (12 V at 0.65) to 110 % (at 0.98) past their range's top above it.
+ * Ours, from that measurement.
+ */
+export const BLEED_TURN_OFF_MAX = 0.6;
+/** The index a bleed is re-sized to when the limit is passed (below the lowest point that ran fast). */
+export const BLEED_TURN_OFF_TARGET = 0.5;
+
+/**
+ * How long the off transistor of a core with series base diodes takes to leave conduction when its
+ * base is left to the bleed alone, s. The diode blocks the reverse base current that pulls a plain
+ * core's base charge out at each edge, so:
+ *
+ * 1. storage: the saturated transistor's excess charge leaves through the bleed only, I_B2 = V_BE/R_BE
+ *    (charge control, storage.ts storageTime_s [src:millman-halkias-1972]), from the forward base current
+ *    I_B1 the short side's base resistor gave it;
+ * 2. the collector's rise (a Miller plateau): while it conducts in its active region its base current
+ *    I_C/β has only one source, the collector–base displacement current C_CB(v)·dv/dt, less what the
+ *    bleed takes: C_CB(v)·dv/dt = V_BE/R_BE + (V_th − v)/(β·R_th) (derived: I_C = β·I_B with
+ *    I_C = (V_th − v)/R_th, the collector's pull-up). The time to go from V_CE(sat) to `riseShare` of the
+ *    swing is ∫ C_CB(v)/(V_BE/R_BE + (V_th − v)/(β·R_th)) dv, with C_CB by the junction law from the
+ *    class's C_ob (junction.ts, the law the second card's CJC comes from), integrated in steps of the
+ *    junction charge.
+ *
+ * The higher the gain, the slower both (less base current is needed to stay on): the caller passes the
+ * typical gain, hot, the curve the second card set is fitted to. Ours, derived; the limit it is read
+ * against (BLEED_TURN_OFF_MAX) is measured (docs/verification.md, "Second card set").
+ */
+export function bleedTurnOff_s(p: {
+  /** The class's collector–base capacitance at its test bias, F. */
+  cob_F: number;
+  /** The class's data-sheet storage time, s (storage.ts). */
+  tStorage_s: number;
+  /** Collector pull-up: its open-circuit level and resistance. */
+  vTh_V: number;
+  rTh_ohm: number;
+  vSat_V: number;
+  vbe_V: number;
+  bleed_ohm: number;
+  beta: number;
+  /** Forward base current while it was on, A. */
+  iB1_A: number;
+  /** Share of the swing the collector must reach (ours: 0.9). */
+  riseShare?: number;
+}): { storage_s: number; rise_s: number; total_s: number } {
+  const i0_A = p.vbe_V / p.bleed_ohm;
+  const iC_A = Math.max(0, (p.vTh_V - p.vSat_V) / p.rTh_ohm);
+  const storage_s = storageTime_s(p.tStorage_s, Math.max(0, p.iB1_A), i0_A, iC_A, p.beta);
+  const vEnd_V = p.vSat_V + (p.riseShare ?? 0.9) * (p.vTh_V - p.vSat_V);
+  const steps = 64;
+  let rise_s = 0;
+  for (let i = 0; i < steps; i++) {
+    const v0 = p.vSat_V + ((vEnd_V - p.vSat_V) * i) / steps;
+    const v1 = p.vSat_V + ((vEnd_V - p.vSat_V) * (i + 1)) / steps;
+    // Charge the collector–base junction takes over the step (its reverse bias is v − V_BE).
+    const q_C =
+      junctionCharge_C(p.cob_F, Math.max(0, v1 - p.vbe_V)) - junctionCharge_C(p.cob_F, Math.max(0, v0 - p.vbe_V));
+    const vm = (v0 + v1) / 2;
+    rise_s += q_C / (i0_A + (p.vTh_V - vm) / (p.beta * p.rTh_ohm));
+  }
+  return { storage_s, rise_s, total_s: storage_s + rise_s };
+}
+
+/**
+ * The bleed turn-off index of a core's values at a corner (the engine's fast corner): the off
+ * transistor's turn-off on the bleed alone (bleedTurnOff_s) over the shorter half-period there,
+ * min(D, 1 − D)/f. The transistor whose off phase is the short one was on through the smaller base
+ * resistance (the short side's), so it carries the most stored charge. Gain: the typical curve at the
+ * saturated current, raised to the corner's temperature by the cards' law (gain.ts gainTempExponent).
+ * Undefined without a bleed, a stated C_ob or a short half-period.
+ */
+export function bleedTurnOffIndex(
+  v: Pick<CoreValues, "bleed_ohm" | "rC_ohm" | "rEndA_ohm" | "rEndB_ohm" | "pot_ohm">,
+  q: BjtClass,
+  db: DiodeClass,
+  k: Pick<SimCorner, "vcc_V" | "t_C" | "ctrl" | "kEndA" | "kEndB" | "kPot" | "kRCA" | "kRCB" | "predicted">,
+): { index: number; total_s: number; tShort_s: number } | undefined {
+  if (v.bleed_ohm === undefined || q.cob_F === undefined) return undefined;
+  const tShort_s = Math.min(k.predicted.duty, 1 - k.predicted.duty) / k.predicted.f_Hz;
+  if (!(tShort_s > 0) || !Number.isFinite(tShort_s)) return undefined;
+  const rTh_ohm = v.rC_ohm * Math.max(k.kRCA, k.kRCB);
+  const iC_A = k.vcc_V / rTh_ohm;
+  const beta =
+    hfeTypicalCurve(q, iC_A) * ((k.t_C + ZERO_CELSIUS_K) / (NOMINAL_TEMP_C + ZERO_CELSIUS_K)) ** gainTempExponent(q);
+  const vbe_V = vbeOn(q, k.t_C);
+  const rBA = v.rEndA_ohm * k.kEndA + v.pot_ohm * k.kPot * k.ctrl;
+  const rBB = v.rEndB_ohm * k.kEndB + v.pot_ohm * k.kPot * (1 - k.ctrl);
+  const rBShort = Math.min(rBA, rBB);
+  const vF_V = diodeVf_V(db, k.vcc_V / rBShort, k.t_C);
+  const t = bleedTurnOff_s({
+    cob_F: q.cob_F,
+    tStorage_s: q.t_storage_s,
+    vTh_V: k.vcc_V,
+    rTh_ohm,
+    vSat_V: vceSat(q, iC_A),
+    vbe_V,
+    bleed_ohm: v.bleed_ohm,
+    beta,
+    iB1_A: (k.vcc_V - vbe_V - vF_V) / rBShort,
+  });
+  return { index: t.total_s / tShort_s, total_s: t.total_s, tShort_s };
+}
+
+/**
+ * The factor on a core's bleed that brings its turn-off index to `target` at the corner (bisection on
+ * the resistance; the index rises with it), for the value search's bleedScale. Undefined when the index
+ * cannot be evaluated.
+ */
+export function bleedScaleForTurnOff(
+  v: Parameters<typeof bleedTurnOffIndex>[0],
+  q: BjtClass,
+  db: DiodeClass,
+  k: Parameters<typeof bleedTurnOffIndex>[3],
+  target: number,
+): number | undefined {
+  const r0 = v.bleed_ohm;
+  if (r0 === undefined) return undefined;
+  const at = (r_ohm: number): number | undefined => bleedTurnOffIndex({ ...v, bleed_ohm: r_ohm }, q, db, k)?.index;
+  if (at(r0) === undefined) return undefined;
+  let lo = r0 / 1000;
+  let hi = r0;
+  for (let i = 0; i < 40; i++) {
+    const mid = Math.sqrt(lo * hi);
+    if ((at(mid) ?? Infinity) > target) hi = mid;
+    else lo = mid;
+  }
+  return lo / r0;
 }

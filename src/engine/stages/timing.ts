@@ -17,7 +17,16 @@ import type { Ctx } from "./context.ts";
 import { type CoreEval, type CoreValues, NOMINAL_K, diodeVf_V, evalCore, followerAt } from "./core-model.ts";
 import { MAX_RECOVERY, type Search, envelopeOf, injection, searchCore } from "./timing-search.ts";
 import { INJECTION_MAX } from "./astable.ts";
-import { MILLER_INDEX_MAX, MILLER_INDEX_TARGET, bleedFigures, millerIndex } from "./base-bleed.ts";
+import {
+  BLEED_TURN_OFF_MAX,
+  BLEED_TURN_OFF_TARGET,
+  MILLER_INDEX_MAX,
+  MILLER_INDEX_TARGET,
+  bleedFigures,
+  bleedScaleForTurnOff,
+  bleedTurnOffIndex,
+  millerIndex,
+} from "./base-bleed.ts";
 import { FOLLOWER_OFF_MARGIN_V, type TapDesign, followerChainThresholdHot_V, followerOffLevel_V } from "./tap.ts";
 import type { ChainPlan } from "./chains/types.ts";
 import { timingParts } from "./timing-parts.ts";
@@ -160,10 +169,12 @@ function balanceFor(
 }
 
 /**
- * The value search, once more with a stronger base bleed when the off transistor's collector–base
- * injection at the fast corner passes what the bleed was measured to hold (base-bleed.ts
- * millerIndex): the bleed is then re-sized to the index at which the measurement found the
- * frequency on its prediction, and the search redone (the stronger bleed costs overdrive).
+ * The value search, once more with a stronger base bleed when the bleed cannot hold the off transistor
+ * at the fast corner: its collector–base injection passes what the bleed was measured to hold
+ * (base-bleed.ts millerIndex), or its turn-off on the bleed alone takes too large a share of the short
+ * half-period (base-bleed.ts bleedTurnOffIndex). The bleed is then re-sized to the index at which the
+ * measurement found the frequency on its prediction (the stronger of the two), and the search redone
+ * (the stronger bleed costs overdrive, which the search counts).
  */
 function millerChecked(
   ctx: Ctx,
@@ -184,8 +195,40 @@ function millerChecked(
   // short half-period at all (duty 1 at the fast corner), and their refusal stands as it is.
   if (!search.passed || !(tShort_s > 0)) return { search, corners };
   const z = millerIndex(q.cob_F, fast.vcc_V, v.bleed_ohm, vbeOn(q, NOMINAL_TEMP_C), tShort_s);
-  if (!Number.isFinite(z) || z <= MILLER_INDEX_MAX) return { search, corners };
-  return { search: searchCore(ctx, q, db, { ...base, bleedScale: MILLER_INDEX_TARGET / z }) };
+  const millerScale = Number.isFinite(z) && z > MILLER_INDEX_MAX ? MILLER_INDEX_TARGET / z : undefined;
+  const turnOff = bleedTurnOffIndex(v, q, db, fast);
+  const turnOffScale =
+    turnOff !== undefined && turnOff.index > BLEED_TURN_OFF_MAX
+      ? bleedScaleForTurnOff(v, q, db, fast, BLEED_TURN_OFF_TARGET)
+      : undefined;
+  if (millerScale === undefined && turnOffScale === undefined) return { search, corners };
+  const bleedScale = Math.min(millerScale ?? Infinity, turnOffScale ?? Infinity);
+  return { search: searchCore(ctx, q, db, { ...base, bleedScale }) };
+}
+
+/**
+ * The bleed's hold on the off transistor at the fast corner, checked on the values kept (millerChecked
+ * re-sizes the bleed once; a redone search can still land past the limit, and is then refused).
+ */
+function turnOffProblems(q: BjtClass, db: DiodeClass, v: CoreValues, corners: SimCorner[]): DesignProblem[] {
+  const fast = corners.find((k) => k.name === "fast");
+  const w = fast === undefined ? undefined : bleedTurnOffIndex(v, q, db, fast);
+  if (w === undefined || w.index <= BLEED_TURN_OFF_MAX) return [];
+  return [
+    problem(
+      "timing",
+      "/parts/RBL_A",
+      "bleed-turn-off",
+      "error",
+      `With series base diodes only the base–emitter bleed (${v.bleed_ohm} Ω) drains the off timing ` +
+        `transistor's base: at the fast corner it takes ${(w.total_s * 1e6).toFixed(2)} µs to leave conduction ` +
+        `(storage, then its collector's rise against its own collector–base capacitance), ` +
+        `${w.index.toFixed(2)} × the shortest half-period of ${(w.tShort_s * 1e6).toFixed(2)} µs (limit ` +
+        `${BLEED_TURN_OFF_MAX}): the collector does not reach its high level, the coupled swing shrinks and ` +
+        `the core runs fast. Use a lower frequency, a narrower duty range or a lower-gain timing transistor.`,
+      { limit: BLEED_TURN_OFF_MAX, actual: w.index, unit: "" },
+    ),
+  ];
 }
 
 /** What the value search starts from: the tap's values, the chain's delays and the core's arrangement. */
@@ -318,6 +361,10 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign, opts: { 
     );
   problems.push(...followerOffProblems(ctx, plan, q, db, v));
   problems.push(...crossProblems(ctx, q, db, v));
+  const corners =
+    checked.corners ??
+    simulationCorners(v, q, db, envelopeCorners(envelopeOf(ctx)), { vMax: ctx.vMax_V, tMax: ctx.taMax_C });
+  problems.push(...turnOffProblems(q, db, v, corners));
   const inj = injection(ctx, q, db, v);
   if (inj > INJECTION_MAX)
     problems.push(
@@ -593,8 +640,6 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign, opts: { 
     fCtrl1_Hz: e1.f_Hz,
     vSatNom_V: e1.vSat_V,
     ...optional("tapSinkNom_A", tapSinkNom_A(ctx, q, db, v, e1.vSat_V)),
-    corners:
-      checked.corners ??
-      simulationCorners(v, q, db, envelopeCorners(envelopeOf(ctx)), { vMax: ctx.vMax_V, tMax: ctx.taMax_C }),
+    corners,
   };
 }
