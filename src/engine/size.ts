@@ -19,7 +19,7 @@ import { switchingLoss_W } from "./shared/losses.ts";
 import { assembleCircuit, refsByRole } from "../circuit/assemble.ts";
 import { figure, problem } from "./shared/figures.ts";
 import { NOMINAL_TEMP_C } from "./shared/temperature.ts";
-import { type Ctx, makeContext } from "./stages/context.ts";
+import { type Ctx, makeContext, switchedVoltageNominal_V } from "./stages/context.ts";
 import { CHAIN_PLANNERS } from "./stages/chains/index.ts";
 import {
   GATE_EDGE_SHARE_FOLLOWER,
@@ -219,7 +219,11 @@ function plainTapAndTiming(
 
 /** The timing core as the chain's nominal edges see it (OperatingPoint.core). */
 function coreAtNominal(timing: TimingResult): NonNullable<OperatingPoint["core"]> {
-  const core = { c_F: timing.values.c_F, vSat_V: timing.vSatNom_V };
+  const core = {
+    c_F: timing.values.c_F,
+    vSat_V: timing.vSatNom_V,
+    ...(timing.rechargeNom === undefined ? {} : { follower: timing.rechargeNom }),
+  };
   return timing.tapSinkNom_A === undefined ? core : { ...core, sink_A: timing.tapSinkNom_A };
 }
 
@@ -574,8 +578,8 @@ function nominalDissipation(
     return undefined;
   const pBase = (power.pBaseNom_W ?? 0) * dMax;
   // Voltage the switch holds while its current ramps: an LED string's forward voltage is not across
-  // it (the string's current starts at its knee); inductive loads clamp at the supply.
-  const vOverlap_V = ctx.load.inductive ? ctx.vNom_V : Math.max(0, ctx.vNom_V - ctx.load.vf_V);
+  // it (the string's current starts at its knee); inductive loads clamp at the supply plus the freewheel's V_F.
+  const vOverlap_V = switchedVoltageNominal_V(ctx);
   const scaled = (i_A: number): number =>
     (power.pSw_W * (ctx.vNom_V * i_A * fNom)) / (ctx.vMax_V * ctx.iMax_A * fMax_Hz);
   if (winding !== undefined) {

@@ -4,6 +4,9 @@
  * is rounded.
  */
 import type { VariantSpec } from "../../model/variant.ts";
+import type { DiodeClass } from "../../model/device.ts";
+import { diodeClassVf_V } from "../shared/diode.ts";
+import { NOMINAL_TEMP_C } from "../shared/temperature.ts";
 import type { LoadModel } from "../shared/loads.ts";
 import { loadModel } from "../shared/loads.ts";
 import type { SwitchingKind } from "../shared/losses.ts";
@@ -120,4 +123,16 @@ export function loadCurrentAt_A(ctx: Ctx, supply_V: number): number {
  */
 export function switchedVoltage_V(ctx: Ctx, supply_V: number): number {
   return ctx.load.inductive ? supply_V : Math.max(0, supply_V - ctx.load.vf_V);
+}
+
+/**
+ * The same at the nominal supply, rated current and 25 °C, for the nominal predictions: an inductive
+ * load's freewheel diode clamps the switch at V + V_F, not V (its forward law, shared/diode.ts), so the
+ * drain swings and the edges overlap across V + V_F. Measured (native ngspice, 5 V 0.1 A motor with a
+ * 1 A rectifier freewheel): the drain rose to 5.6 V at turn-off; the worst case keeps switchedVoltage_V.
+ */
+export function switchedVoltageNominal_V(ctx: Ctx): number {
+  const fw = ctx.spec.devices.freewheel_diode as DiodeClass | undefined;
+  const vF_V = ctx.load.inductive && fw !== undefined ? Math.max(0, diodeClassVf_V(fw, ctx.iNom_A, NOMINAL_TEMP_C)) : 0;
+  return switchedVoltage_V(ctx, ctx.vNom_V) + vF_V;
 }

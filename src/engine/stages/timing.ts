@@ -60,6 +60,12 @@ export interface TimingResult {
    * the other side lets go (cross-bleed.ts crossTapSink_A), nominal, control at 1, A.
    */
   tapSinkNom_A?: number;
+  /**
+   * Follower core with the chain on the collector only: the tapped side's recharge follower at the
+   * nominal supply, 25 °C and control 1 (its gain and V_BE as the core model reads them) and C_T's
+   * plate as its transistor lets go (V_CE(sat) + V_F of the clamp), for the gate's turn-on edge.
+   */
+  rechargeNom?: { rS_ohm: number; beta: number; vBe_V: number; vPlate_V: number };
 }
 
 /**
@@ -110,6 +116,17 @@ function followerOffProblems(ctx: Ctx, plan: ChainPlan, q: BjtClass, db: DiodeCl
       { limit: vTh - FOLLOWER_OFF_MARGIN_V, actual: vOff, unit: "V" },
     ),
   ];
+}
+
+/**
+ * The tapped side's recharge follower at the nominal run (TimingResult.rechargeNom), when the chain hangs
+ * on the collector; C_T's plate as its transistor lets go: V_CE(sat) + V_F of that side's clamp diode.
+ */
+function rechargeNom(e1: CoreEval, inverting: boolean): Pick<TimingResult, "rechargeNom"> {
+  const fo = e1.follower;
+  if (fo?.loadsOnCollector !== true) return {};
+  const vPlate_V = e1.vSat_V + (inverting ? fo.vFB_V : fo.vFA_V);
+  return { rechargeNom: { rS_ohm: fo.rS_ohm, beta: fo.beta, vBe_V: fo.vBe_V, vPlate_V } };
 }
 
 /** The follower core's own figures (none for the plain core). */
@@ -640,6 +657,7 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign, opts: { 
     fCtrl1_Hz: e1.f_Hz,
     vSatNom_V: e1.vSat_V,
     ...optional("tapSinkNom_A", tapSinkNom_A(ctx, q, db, v, e1.vSat_V)),
+    ...rechargeNom(e1, v.inverting),
     corners,
   };
 }

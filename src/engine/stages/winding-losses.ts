@@ -54,9 +54,11 @@ export function windingSwitchTerms(
  * The freewheel diode's reverse recovery, paid by the switch at each turn-on: V·Q_rr·f, Q_rr the
  * charge a junction diode still holds when the switch takes over `iValley_A` (shared/winding.ts
  * `recoveryCharge_C`, `recoveryLoss_W`). The one definition for every winding: a motor's armature
- * and a solenoid coil. The diode's current falls as the switch's rises: its current-rise time is
- * at most the whole turn-on, so this takes the smallest charge the edge can leave (the lower
- * estimate).
+ * and a solenoid coil. The diode's current falls as the switch's rises: over the chain's
+ * current-rise time where it states one (`tNom_s.rise`: the gate's threshold-to-plateau transit,
+ * mosfet-logic), else over the whole turn-on (the smallest charge the edge can leave, the lower
+ * estimate). Measured on a 6 V, 0.1 A motor with a 1 A rectifier freewheel (τ_T 2.9 µs; native ngspice):
+ * the switch swept ≈ 0.27 µC at full voltage, close to I_F·τ_T, the current rising in ≈ 0.1 µs.
  */
 export function freewheelRecovery_W(
   iValley_A: number,
@@ -64,7 +66,7 @@ export function freewheelRecovery_W(
   o: { v_V: number; f_Hz: number; freewheel: DiodeClass | undefined },
 ): number {
   const tt_s = o.freewheel === undefined ? 0 : diodeTransitTime_s(o.freewheel);
-  const tRise_s = power.tNom_s?.on ?? power.dev.t_rise_s;
+  const tRise_s = power.tNom_s?.rise ?? power.tNom_s?.on ?? power.dev.t_rise_s;
   return recoveryLoss_W(o.v_V, recoveryCharge_C(Math.max(0, iValley_A), tt_s, tRise_s), o.f_Hz);
 }
 

@@ -10,7 +10,7 @@ import { figure, problem } from "../../shared/figures.ts";
 import { conductionLossMosfet_W, switchingLoss_W } from "../../shared/losses.ts";
 import { deviceSource } from "../../shared/sources.ts";
 import { transistor } from "../../../circuit/parts.ts";
-import { type Ctx, switchedVoltage_V } from "../context.ts";
+import { type Ctx, switchedVoltage_V, switchedVoltageNominal_V } from "../context.ts";
 import { switchChecks, switchOffVoltage_V, lossFigures } from "./common.ts";
 import {
   gateTimes,
@@ -23,7 +23,7 @@ import {
   specVgs_V,
   transitionFigures,
 } from "./mosfet-common.ts";
-import { recoveringTurnOnEquivalent_s, sinkLimitedTurnOff_s } from "./gate-recovery.ts";
+import { recoveringTurnOn, saturatedTurnOff_s, sinkLimitedTurnOff_s } from "./gate-recovery.ts";
 import type { ChainPlan } from "./types.ts";
 
 export function planMosfetLogic(ctx: Ctx): ChainPlan {
@@ -92,13 +92,16 @@ export function planMosfetLogic(ctx: Ctx): ChainPlan {
       const rOff = (tap.rTap_ohm * (tap.rGS_ohm ?? 1e9)) / (tap.rTap_ohm + (tap.rGS_ohm ?? 1e9));
       const t = gateTimes(dev, rSrc, vgMin, rOff);
       // Nominal: the middle of the gate range reached, typical plateau (derived; for the nominal prediction).
-      const tNomFlat = gateTimesNominal(dev, rSrc, (vgMin + vgMax) / 2, rOff, ctx.vNom_V);
+      // The drain's nominal swing: the supply, plus the freewheel diode's drop on an inductive load, less
+      // an LED string's (context.ts switchedVoltageNominal_V; mosfet-driver's plateau takes the LED's so too).
+      const vSwing_V = switchedVoltageNominal_V(ctx);
+      const tNomFlat = gateTimesNominal(dev, rSrc, (vgMin + vgMax) / 2, rOff, vSwing_V);
       // Turn-on from the recovering collector (gate-recovery.ts) when the core is known: the gate
       // charges from a collector still rising through R_C·C_T, at the plateau of the rated current.
       const tOnRec =
         op.core === undefined
           ? null
-          : recoveringTurnOnEquivalent_s({
+          : recoveringTurnOn({
               vHigh_V: ctx.vNom_V,
               vStart_V: op.core.vSat_V,
               rC_ohm: tap.rC_ohm,
@@ -108,8 +111,9 @@ export function planMosfetLogic(ctx: Ctx): ChainPlan {
               cIss_F: dev.ciss_F,
               vTh_V: plateauTyp_V(dev),
               vPlateau_V: plateauAt_V(dev, ctx.iNom_A),
-              qPlateau_C: plateauCharge_C(dev, ctx.vNom_V),
+              qPlateau_C: plateauCharge_C(dev, vSwing_V),
               kind: ctx.switching,
+              ...(op.core.follower === undefined ? {} : { follower: op.core.follower }),
             });
       // Turn-off into a collector whose transistor comes on with limited current (the cross-returned
       // bleed, gate-recovery.ts sinkLimitedTurnOff_s): the plateau's current is what that transistor
@@ -124,12 +128,27 @@ export function planMosfetLogic(ctx: Ctx): ChainPlan {
               rG_ohm: tap.rTap_ohm,
               ...(tap.rGS_ohm === undefined ? {} : { rGS_ohm: tap.rGS_ohm }),
               vPlateau_V: plateauAt_V(dev, ctx.iNom_A),
-              qPlateau_C: plateauCharge_C(dev, ctx.vNom_V),
+              qPlateau_C: plateauCharge_C(dev, vSwing_V),
               sink_A: op.core.sink_A,
             });
+      // Turn-off into the saturating collector (gate-recovery.ts saturatedTurnOff_s) when the core is known.
+      const tOffSat =
+        op.core === undefined
+          ? null
+          : saturatedTurnOff_s({
+              vSat_V: op.core.vSat_V,
+              rG_ohm: tap.rTap_ohm,
+              ...(tap.rGS_ohm === undefined ? {} : { rGS_ohm: tap.rGS_ohm }),
+              cIss_F: dev.ciss_F,
+              vTh_V: plateauTyp_V(dev),
+              vPlateau_V: plateauAt_V(dev, ctx.iNom_A),
+              qPlateau_C: plateauCharge_C(dev, vSwing_V),
+              kind: ctx.switching,
+            });
+      const tOffPlain = tOffSat === null ? tNomFlat.tOff_s : Math.max(dev.t_fall_s, tOffSat);
       const tNom = {
-        tOn_s: tOnRec === null ? tNomFlat.tOn_s : Math.max(dev.t_rise_s, tOnRec),
-        tOff_s: tOffSink === null ? tNomFlat.tOff_s : Math.max(tNomFlat.tOff_s, tOffSink),
+        tOn_s: tOnRec === null ? tNomFlat.tOn_s : Math.max(dev.t_rise_s, tOnRec.tEq_s),
+        tOff_s: tOffSink === null ? tOffPlain : Math.max(tOffPlain, tOffSink),
       };
       const r = rdsOn_ohm(dev, vgMin, true);
       // Nominal gate voltage: the collector's high level through the divider, V_nom·R_GS/(R_C + R_G + R_GS).
@@ -173,7 +192,11 @@ export function planMosfetLogic(ctx: Ctx): ChainPlan {
             pSw_W: pSw,
             p_W: pCond + pSw,
             isPower: true,
-            tNom_s: { on: tNom.tOn_s, off: tNom.tOff_s },
+            tNom_s: {
+              on: tNom.tOn_s,
+              off: tNom.tOff_s,
+              ...(tOnRec === null ? {} : { rise: Math.max(dev.t_rise_s, tOnRec.tRise_s) }),
+            },
           },
         ],
         figures: [

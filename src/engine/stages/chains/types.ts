@@ -7,6 +7,7 @@
 import type { BjtClass, MosfetClass } from "../../../model/device.ts";
 import type { PartRole } from "../../../model/part-roles.ts";
 import type { ChainInputNeed, StageResult } from "../../contracts.ts";
+import type { RechargeFollower } from "./gate-recovery.ts";
 
 export interface DeviceLoss {
   role: PartRole;
@@ -18,7 +19,11 @@ export interface DeviceLoss {
    * Nominal transition times (nominal drive and temperature, typical threshold) for the nominal dissipation
    * prediction; absent: the worst-case times stand (BJT datasheet times are typical already).
    */
-  tNom_s?: { on: number; off: number };
+  /**
+   * `rise`, when known: the part of the nominal turn-on in which the drain current rises (the freewheel
+   * diode's hand-over time, winding-losses.ts); absent: the whole turn-on is taken.
+   */
+  tNom_s?: { on: number; off: number; rise?: number };
   /**
    * Nominal base-drive loss of a BJT at duty 1 (I_B·V_BE at nominal supply), W: the simulator's
    * device power includes the B–E junction, so the nominal prediction adds it times the duty.
@@ -72,6 +77,8 @@ export interface OperatingPoint {
     vSat_V: number;
     /** Cross-returned bleed only: the tapped transistor's sink current as it comes on (cross-bleed.ts). */
     sink_A?: number;
+    /** Follower core with the chain on the collector: the follower that recharges C_T (gate-recovery.ts). */
+    follower?: RechargeFollower;
   };
 }
 
