@@ -3,7 +3,9 @@
  * grid (test/fixtures/coverage/designs/, written by bench/coverage-grid.ts) and of the demo, and
  * prints the feasible share and the remaining reasons counted by kind (the verdict's first
  * blocking rule, and every blocking rule). Figures are printed, never asserted.
- * Usage: node --import tsx bench/coverage.ts [--by chain|supply|pwm|kind|load] [--rule <rule>]
+ * Usage: node --import tsx bench/coverage.ts [--by chain|supply|pwm|kind|load] [--rule <rule>] [--gate-buffer]
+ * `--gate-buffer` offers the logic-level MOSFET's gate buffer, which builds do not offer
+ * (size.ts sizeVariantWithGateBuffer; docs/method.md, "Buffered gate").
  */
 import { cpSync, mkdtempSync, readdirSync, rmSync } from "node:fs";
 import { tmpdir } from "node:os";
@@ -14,12 +16,13 @@ import { formatIssue } from "../src/records/index.ts";
 import { expandDesign } from "../src/expand/index.ts";
 import { chooseDevices, stressClasses } from "../src/engine/devices/choose.ts";
 import { sizeVariant } from "../src/engine/index.ts";
+import { sizeVariantWithGateBuffer } from "../src/engine/size.ts";
 import type { SizedVariant } from "../src/model/sized.ts";
 
 const ROOT = fileURLToPath(new URL("..", import.meta.url));
 
 /** Sizes every variant of the records under `<root>/designs`. */
-export async function sizeAll(root: string): Promise<SizedVariant[]> {
+export async function sizeAll(root: string, gateBuffer = false): Promise<SizedVariant[]> {
   const project = await loadProject(root);
   if (!project.ok) throw new Error(`records do not load:\n${project.issues.slice(0, 10).map(formatIssue).join("\n")}`);
   const specs = project.designs.flatMap((d) =>
@@ -29,7 +32,7 @@ export async function sizeAll(root: string): Promise<SizedVariant[]> {
       policy: project.policy,
     }),
   );
-  return specs.map((s) => sizeVariant(s));
+  return specs.map((s) => (gateBuffer ? sizeVariantWithGateBuffer(s) : sizeVariant(s)));
 }
 
 /**
@@ -94,7 +97,12 @@ if (isMain) {
     return i > 0 ? process.argv[i + 1] : undefined;
   };
   const t0 = performance.now();
-  await runCoverage({ by: arg("--by"), rule: arg("--rule"), demoOnly: process.argv.includes("--demo") });
+  await runCoverage({
+    by: arg("--by"),
+    rule: arg("--rule"),
+    demoOnly: process.argv.includes("--demo"),
+    gateBuffer: process.argv.includes("--gate-buffer"),
+  });
   console.log(`coverage: ${((performance.now() - t0) / 1000).toFixed(1)} s`);
 }
 
@@ -102,11 +110,13 @@ export interface CoverageOptions {
   by?: string | undefined;
   rule?: string | undefined;
   demoOnly?: boolean;
+  /** Offer the gate buffer (not offered to builds). */
+  gateBuffer?: boolean;
 }
 
 /** Prints the demo's and the grid's feasible shares and reasons. */
 export async function runCoverage(o: CoverageOptions = {}): Promise<void> {
-  const demo = await sizeAll(ROOT);
+  const demo = await sizeAll(ROOT, o.gateBuffer);
   report("demo (sized, no simulation)", demo, o.by);
   if (o.demoOnly) {
     listRule(demo, o.rule);
@@ -115,7 +125,7 @@ export async function runCoverage(o: CoverageOptions = {}): Promise<void> {
   const roots = gridRoots();
   try {
     const grid: SizedVariant[] = [];
-    for (const root of roots) grid.push(...(await sizeAll(root)));
+    for (const root of roots) grid.push(...(await sizeAll(root, o.gateBuffer)));
     report("coverage grid (sized, no simulation)", grid, o.by);
     listRule(grid, o.rule);
   } finally {

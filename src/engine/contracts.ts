@@ -39,6 +39,30 @@ export type ChainInputNeed =
       /** Gate input capacitance (C_iss) that the tap must charge. */
       cInput_F: number;
       inverting: boolean;
+    }
+  | {
+      /**
+       * A MOSFET gate behind a complementary emitter-follower pair whose bases sit on the tapped
+       * collector (chains/gate-buffer.ts): the collector feeds only the pair's base current, and the
+       * gate network (R_G, R_GS) hangs on the pair's emitters. The chain sizes R_G and R_GS itself.
+       */
+      kind: "buffered-gate";
+      /** Gate network from the pair's emitters: series R_G and pull-down R_GS, Ω. */
+      rG_ohm: number;
+      rGS_ohm: number;
+      /** Minimum gain of the source follower (Q_HI), cold, at the gate-current peak. */
+      betaMin: number;
+      /** V_BE of the source follower: nominal (25 °C), cold (highest) and hot (lowest), V. */
+      vbe_V: { nom: number; cold: number; hot: number };
+      /** Gate voltage needed for the specified R_DS(on), and the derated V_GS max, V. */
+      vNeeded_V: number;
+      vMax_V: number;
+      /** Gate threshold range [min, max]. */
+      vThreshold_V: [number, number];
+      /** Gate charge the pair moves and the worst-case plateau it moves it across (for R_C's edge budget). */
+      qG_C: number;
+      vPlateau_V: number;
+      inverting: boolean;
     };
 
 /** A stage's result: its parts (refs left empty: the assembler numbers them), figures, problems, checks. */

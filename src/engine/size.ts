@@ -21,6 +21,7 @@ import { figure, problem } from "./shared/figures.ts";
 import { NOMINAL_TEMP_C } from "./shared/temperature.ts";
 import { type Ctx, makeContext, switchedVoltageNominal_V } from "./stages/context.ts";
 import { CHAIN_PLANNERS } from "./stages/chains/index.ts";
+import { planGateBuffer } from "./stages/chains/gate-buffer.ts";
 import {
   GATE_EDGE_SHARE_FOLLOWER,
   type TapDesign,
@@ -227,7 +228,7 @@ function coreAtNominal(timing: TimingResult): NonNullable<OperatingPoint["core"]
   return timing.tapSinkNom_A === undefined ? core : { ...core, sink_A: timing.tapSinkNom_A };
 }
 
-interface CoreChoice {
+export interface CoreChoice {
   spec: VariantSpec;
   ctx: Ctx;
   plan: ChainPlan;
@@ -285,8 +286,56 @@ function chooseCore(specIn: VariantSpec): CoreChoice {
   return first.core.timing.search.passed ? first : (steppedDiodes(first) ?? first);
 }
 
+/**
+ * The core with the logic-level MOSFET's gate behind the follower pair (chains/gate-buffer.ts,
+ * docs/method.md "Buffered gate"): every core attempt again with the buffered chain, but not the
+ * cross-returned bleed (its limits were measured with the gate on the collector). Null when the
+ * chain is not the logic-level MOSFET, its gate network cannot hold the window or the off level,
+ * or no core passes.
+ */
+export function bufferedGateCore(chosen: CoreChoice): CoreChoice | null {
+  if (chosen.spec.chain !== "mosfet-logic") return null;
+  const why = chosen.core.timing.problems.find((p) => p.severity === "error")?.rule ?? "duty-range-worst-case";
+  const plan = planGateBuffer(chosen.ctx, why);
+  if (plan.problems.some((p) => p.severity === "error")) return null;
+  const core = tapAndTiming(chosen.ctx, plan, false);
+  return core.timing.search.passed ? { ...chosen, plan, core } : null;
+}
+
 function sizeInner(specIn: VariantSpec): SizedVariant {
-  const chosen = chooseCore(specIn);
+  return sizeChosen(chooseCore(specIn));
+}
+
+/**
+ * sizeVariant with the gate buffer offered: tried only where no core passes (so every variant that
+ * passed before keeps its design) and kept only when the variant it makes is feasible (so a refusal
+ * keeps its page). Not offered to builds (src/cli/pipeline.ts, the browser sizer): it made no variant
+ * of the demo or of the measured grid records feasible, and no variant it makes has been proven with
+ * both card sets (docs/method.md, "Buffered gate"); the coverage bench measures it (`--gate-buffer`).
+ */
+export function sizeVariantWithGateBuffer(spec: VariantSpec): SizedVariant {
+  const out = sizeVariant(spec);
+  if (out.feasible || spec.chain !== "mosfet-logic") return out;
+  try {
+    const chosen = chooseCore(spec);
+    if (chosen.core.timing.search.passed) return out;
+    const buffered = bufferedGateCore(chosen);
+    const alt = buffered === null ? null : sizeChosen(buffered);
+    return alt?.feasible === true ? alt : out;
+  } catch (err) {
+    // A misuse inside the buffered attempt must not cost the variant the refusal it already has.
+    if (err instanceof EngineMisuseError) return out;
+    throw err;
+  }
+}
+
+/** The variant sized with the gate buffer forced, where a core passes with it (tests and measurements). */
+export function sizeWithGateBuffer(spec: VariantSpec): SizedVariant | null {
+  const buffered = bufferedGateCore(coreOf(spec));
+  return buffered === null ? null : sizeChosen(buffered);
+}
+
+function sizeChosen(chosen: CoreChoice): SizedVariant {
   const { spec, ctx, plan } = chosen;
   const { tap, timing, rcLowered, follower, cross, caps } = chosen.core;
   const w = timing.search.worst;

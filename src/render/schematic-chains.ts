@@ -133,3 +133,28 @@ export const CHAIN: Record<ChainKind, ChainLayout> = {
     ],
   },
 };
+
+/**
+ * The logic-level MOSFET with its gate buffer (chains/gate-buffer.ts): the gate driver's follower
+ * pair drawn as in `mosfet-driver`, its joined bases fed straight from the tapped collector.
+ */
+export const GATE_BUFFER: ChainLayout = {
+  width: 440,
+  outX: 360,
+  outPin: "Q_POWER.d",
+  slots: {
+    Q_HI: { x: 110, y: 270 },
+    Q_LO: { x: 110, y: 360 },
+    RG: { x: 250, y: 315, rot: 270 },
+    RGS: { x: 300, y: 375, label: "left" },
+    Q_POWER: { x: 350, y: 315 },
+  },
+  routes: [
+    ["Q_HI.b", [15, "Q_HI.b"], [15, TAP_COORD], ["RC_R.b", TAP_COORD]],
+    ["Q_HI.b", [50, 270], [50, 360], "Q_LO.b"],
+    ["Q_HI.e", "Q_LO.e"],
+    ["RG.a", [120, 315]],
+    ["RG.b", "Q_POWER.g"],
+    ["RGS.a", [300, 315]],
+  ],
+};

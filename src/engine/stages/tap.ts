@@ -26,6 +26,7 @@ import type { Ctx } from "./context.ts";
 import type { FollowerValues } from "./core-model.ts";
 import type { ChainPlan, TapInfo } from "./chains/types.ts";
 import { plateau_V } from "./chains/mosfet-common.ts";
+import { designBufferedTap } from "./tap-buffered.ts";
 
 export const TAP_SHARE_ALPHA = 0.5;
 export const RC_MAX_OHM = 10_000;
@@ -166,6 +167,9 @@ export function designTap(
   const tol = ctx.rTol;
   const pol = ctx.spec.policy;
   const problems: DesignProblem[] = [];
+  // The buffered gate (tap-buffered.ts): the follower pair's bases on the collector.
+  if (need.kind === "buffered-gate")
+    return designBufferedTap(ctx, need, rcMin(ctx), rcMax, (r) => capRc(ctx, r, capInjection), gateEdgeShare);
   if (need.kind === "base-current") {
     const span = ctx.vMin_V - need.vClamp_V;
     const rCi = (TAP_SHARE_ALPHA * span) / need.i_A;

@@ -597,11 +597,13 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign, opts: { 
       "chain",
       plan.need.kind === "gate-voltage"
         ? "V_th,tap = V_GS(th)·(R_G + R_GS)/R_GS"
-        : tap.preLinear_ohm !== undefined
-          ? "V_th,tap = V_BE·(R_T + R_BE)/R_BE"
-          : plan.need.iEdge_A !== undefined
-            ? "V_th,tap = n·V_BE(on) + R_T·I_B1 at the load's edge current"
-            : "V_th,tap = n·V_BE(on)",
+        : plan.need.kind === "buffered-gate"
+          ? "V_th,tap = V_BE(Q_HI) + V_GS(th)·(R_G + R_GS)/R_GS"
+          : tap.preLinear_ohm !== undefined
+            ? "V_th,tap = V_BE·(R_T + R_BE)/R_BE"
+            : plan.need.iEdge_A !== undefined
+              ? "V_th,tap = n·V_BE(on) + R_T·I_B1 at the load's edge current"
+              : "V_th,tap = n·V_BE(on)",
       "common-practice",
     ),
     figure(

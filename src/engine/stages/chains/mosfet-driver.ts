@@ -121,24 +121,7 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
     );
   const parts: Part[] = [
     transistor("chain", "Q_DRV", qd, betaD, { c: "drc", b: "drb", e: "0" }, { voltage_V: railMax, current_A: iCD }),
-    transistor(
-      "chain",
-      "Q_HI",
-      qhi,
-      betaHi,
-      { c: rail, b: "drc", e: "pp" },
-      { voltage_V: railMax, current_A: iPk_A },
-      iGpk,
-    ),
-    transistor(
-      "chain",
-      "Q_LO",
-      qlo,
-      betaLo,
-      { c: "0", b: "drc", e: "pp" },
-      { voltage_V: railMax, current_A: iPk_A },
-      iGpk,
-    ),
+    ...followerPair({ qhi, qlo, betaHi, betaLo, rail, base: "drc", railMax_V: railMax, iPk_A, iGpk_A: iGpk }),
     transistor(
       "chain",
       "Q_POWER",
@@ -348,11 +331,41 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
 }
 
 /**
+ * The complementary emitter-follower pair (docs/topologies.md): Q_HI (NPN, collector on the gate rail)
+ * sources and Q_LO (PNP, collector to ground) sinks the gate current, bases joined on `base`, emitters
+ * joined on `pp`, where the gate network hangs. Shared with the buffered gate of the logic-level MOSFET
+ * (gate-buffer.ts), so the pair is one definition.
+ */
+export function followerPair(p: {
+  qhi: BjtClass;
+  qlo: BjtClass;
+  betaHi: number;
+  betaLo: number;
+  rail: string;
+  base: string;
+  railMax_V: number;
+  iPk_A: number;
+  iGpk_A: number;
+}): Part[] {
+  const stress = { voltage_V: p.railMax_V, current_A: p.iPk_A };
+  return [
+    transistor("chain", "Q_HI", p.qhi, p.betaHi, { c: p.rail, b: p.base, e: "pp" }, stress, p.iGpk_A),
+    transistor("chain", "Q_LO", p.qlo, p.betaLo, { c: "0", b: p.base, e: "pp" }, { ...stress }, p.iGpk_A),
+  ];
+}
+
+/**
  * The gate-drive pair's ratings: each follower's gate-current peak against its continuous collector
  * rating (factor 1: a pulse, not a continuous current; see the R_G sizing), and the gate rail
  * across it when the other conducts against its V_CEO under the policy's transistor voltage rule.
  */
-function followerChecks(qhi: BjtClass, qlo: BjtClass, iPk_A: number, railMax_V: number, ctx: Ctx): StressCheck[] {
+export function followerChecks(
+  qhi: BjtClass,
+  qlo: BjtClass,
+  iPk_A: number,
+  railMax_V: number,
+  ctx: Ctx,
+): StressCheck[] {
   const pol = ctx.spec.policy;
   const pulse = {
     factor: 1,
