@@ -3,8 +3,8 @@
  * TypeScript loader. Node 20 runs a registered loader's hooks on a thread of their own, one per
  * worker, and every module the worker loads (ours, and the template engine's few hundred) is
  * resolved and loaded through it: in a 996-variant build that cost each worker ≈ 3 s of the
- * loader's thread and ≈ 1.5 s of its own (docs/build-pipeline.md, "Workers without the TypeScript
- * loader"). The bundle is made once per version of the worker's code, with esbuild, and kept in
+ * loader's thread and ≈ 1.5 s of its own (DEVELOPERS.md, "Incremental builds and the caches").
+ * The bundle is made once per version of the worker's code, with esbuild, and kept in
  * the records project's `.cache/code/`, keyed by `codeHash` of the worker's module closure.
  *
  * The modules behave as when loaded one by one: each module's `import.meta.url` is replaced by its
