@@ -107,9 +107,8 @@ export async function sizeInWorkers(
       };
       w.on("message", (msg: SizeReply) => {
         if ("fatal" in msg) fail(new Error(`sizing worker: ${msg.fatal}`));
-        else if ("ready" in msg) {
-          next();
-        } else if ("record" in msg) fail(new RecordError(msg.record.file, msg.record.pointer, msg.record.detail));
+        else if ("ready" in msg) next();
+        else if ("record" in msg) fail(new RecordError(msg.record.file, msg.record.pointer, msg.record.detail));
         else if ("error" in msg)
           fail(new Error(`sizing ${project.designs[msg.index]?.file ?? `design #${msg.index}`} failed: ${msg.error}`));
         else {
