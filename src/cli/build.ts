@@ -10,7 +10,7 @@ import { loadProject, formatIssue } from "../records/index.ts";
 import { assembleDesign, catalogueHead } from "./pipeline.ts";
 import { cachedJobs, keepJobs } from "./job-cache.ts";
 import { cachedDesign, sizeAndRenderDesign, sizedKey, type StageStats } from "./size-cache.ts";
-import { sizeInWorkers, sizingWorkers } from "./size-pool.ts";
+import { EarlyWorkers, sizeInWorkers, sizingWorkers } from "./size-pool.ts";
 import { verifyAll, type VerifyJob } from "../verify/pool.ts";
 import { NOMINAL_RUNS } from "../verify/plan.ts";
 import { progressReporter } from "../verify/progress.ts";
@@ -63,11 +63,29 @@ export async function runBuild(o: BuildOptions): Promise<number> {
     return 1;
   }
   await sweepLeftovers(outDir);
+  const sizedDir = path.join(o.root, ".cache", "sized");
+  // Without simulation the designs may be sized, and their pages written, on worker threads: they
+  // are started now, so that loading their code overlaps this thread's work until they are handed
+  // theirs (or stopped when there is none).
+  const early = o.simulate ? null : EarlyWorkers.start(project, sizedDir, o.workers, WORKER_CHUNK_PAGES);
+  try {
+    return await buildLoaded(o, project, outDir, sizedDir, early, t0);
+  } finally {
+    await early?.stop();
+  }
+}
 
+async function buildLoaded(
+  o: BuildOptions,
+  project: LoadedProject,
+  outDir: string,
+  sizedDir: string,
+  early: EarlyWorkers | null,
+  t0: number,
+): Promise<number> {
   // Each design is sized and drawn again only when its record, the devices, the policy or the code
   // changed. Designs pass one at a time and are let go: only the simulation work (when simulating)
   // and a few counts are kept, so memory does not grow with the catalogue.
-  const sizedDir = path.join(o.root, ".cache", "sized");
   const sizeStats: StageStats = { hits: 0, misses: 0, keys: [] };
   let variants = 0;
   let feasible = 0;
@@ -126,8 +144,11 @@ export async function runBuild(o: BuildOptions): Promise<number> {
       pkg,
       builtAt,
       t0,
+      early,
     });
-  if (workers > 0) for (const n of (await sizeInWorkers(project, misses, sizedDir, workers)).values()) count(n);
+  if (workers > 0)
+    for (const n of (await sizeInWorkers(project, misses, sizedDir, workers, undefined, undefined, { early })).values())
+      count(n);
   else
     for (const i of misses) {
       const { rendered } = sizeAndRenderDesign(project, project.designs[i]!, sizedDir, undefined, { read: false });
@@ -302,6 +323,7 @@ interface Overlap {
   pkg: { version: string };
   builtAt: string;
   t0: number;
+  early: EarlyWorkers | null;
 }
 
 /**
@@ -358,6 +380,7 @@ async function overlappedBuild(o: BuildOptions, x: Overlap): Promise<number> {
       x.workers,
       (i, rows) => (rows ? ready.get(i)?.resolve(rows) : ready.get(i)?.reject(new Error(`no pages for design #${i}`))),
       { job, cached },
+      { early: x.early },
     ).then(
       (counts) => {
         for (const n of counts.values()) {

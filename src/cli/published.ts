@@ -6,7 +6,8 @@
  * folder since, or anything unreadable here, means a full republish.
  */
 import { createHash } from "node:crypto";
-import { readdir, readFile, stat } from "node:fs/promises";
+import { readdirSync, statSync } from "node:fs";
+import { readFile } from "node:fs/promises";
 import path from "node:path";
 import { writeEntry } from "../cache/store.ts";
 
@@ -29,23 +30,25 @@ async function readAll(cacheDir: string): Promise<Record<string, Published>> {
 /** sha256 over (path, size, mtime) of every entry below `dir`, in sorted order; null if unreadable. */
 async function listing(dir: string): Promise<string | null> {
   const h = createHash("sha256");
-  const walk = async (rel: string): Promise<void> => {
-    const entries = (await readdir(path.join(dir, rel), { withFileTypes: true })).sort((a, b) =>
+  // One call after another without the event loop: a 10,000-variant site has ≈ 60,000 files, and
+  // a stat through the thread pool and a promise per file took 3–4 s where this takes a fraction.
+  const walk = (rel: string): void => {
+    const entries = readdirSync(path.join(dir, rel), { withFileTypes: true }).sort((a, b) =>
       a.name < b.name ? -1 : 1,
     );
     for (const e of entries) {
       const r = rel ? `${rel}/${e.name}` : e.name;
       if (e.isDirectory()) {
         h.update(`${r}/\0`);
-        await walk(r);
+        walk(r);
       } else {
-        const s = await stat(path.join(dir, r));
+        const s = statSync(path.join(dir, r));
         h.update(`${r}\0${s.size}\0${s.mtimeMs}\0${e.isFile() ? "f" : "o"}\0`);
       }
     }
   };
   try {
-    await walk("");
+    walk("");
     return h.digest("hex");
   } catch {
     return null;

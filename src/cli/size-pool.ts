@@ -5,12 +5,15 @@
  * sized in this thread. Entries are the same bytes either way: sizing is a pure function.
  */
 import { availableParallelism } from "node:os";
+import path from "node:path";
 import { Worker } from "node:worker_threads";
 import { RecordError } from "../model/errors.ts";
 import type { DesignRows } from "../site/design-pages.ts";
 import type { LoadedProject } from "./pipeline.ts";
 import type { PagesJob, SizeReply, SizeWorkerData } from "./size-worker-main.ts";
+import { sizeWorkerBundle, workerExecArgv } from "./worker-bundle.ts";
 
+/** The worker started through the TypeScript loader (when its bundle cannot be made, or when asked). */
 const WORKER_URL = new URL("./size-worker.mjs", import.meta.url);
 
 /** Below this many variants to size (estimated from the records' axes) one thread does it all. */
@@ -71,18 +74,26 @@ export async function sizeInWorkers(
   workers: number,
   onDesign?: (index: number, rows?: DesignRows) => void,
   pages?: PoolPages,
+  start: { loader?: "bundle" | "tsx"; early?: EarlyWorkers | null } = {},
 ): Promise<Map<number, { variants: number; feasible: number }>> {
   const queue = [...misses];
-  const heap =
-    workerHeapMb(Math.max(...misses.map((i) => axesProduct(project.designs[i]!)))) +
-    (pages ? pageHeapMb(pages.job.chunkPages) : 0);
+  const heap = poolHeapMb(project, misses, pages?.job.chunkPages);
+  const data: SizeWorkerData = { cacheDir, project, ...(pages ? { pages: pages.job } : {}) };
+  // Workers started early are handed their work; any still missing are started now.
+  const early = start.loader === "tsx" ? [] : ((await start.early?.take(workers, heap)) ?? []);
+  const bundle = early.length >= workers || start.loader === "tsx" ? null : await sizeWorkerBundle(codeDirOf(cacheDir));
   const done = new Map<number, { variants: number; feasible: number }>();
-  const slot = (): Promise<void> =>
+  const slot = (k: number): Promise<void> =>
     new Promise((resolve, reject) => {
-      const w = new Worker(WORKER_URL, {
-        workerData: { cacheDir, project, ...(pages ? { pages: pages.job } : {}) } satisfies SizeWorkerData,
-        resourceLimits: { maxOldGenerationSizeMb: heap },
-      });
+      const given = early[k];
+      const w =
+        given ??
+        new Worker(bundle ?? WORKER_URL, {
+          ...(bundle ? { execArgv: workerExecArgv() } : {}),
+          workerData: data,
+          resourceLimits: { maxOldGenerationSizeMb: heap },
+        });
+      if (given) given.postMessage({ init: data });
       let failed: Error | undefined;
       const fail = (e: Error): void => {
         failed ??= e;
@@ -113,6 +124,76 @@ export async function sizeInWorkers(
         else resolve();
       });
     });
-  await Promise.all(Array.from({ length: workers }, slot));
+  await Promise.all(Array.from({ length: workers }, (_, k) => slot(k)));
   return done;
+}
+
+/** The folder of the worker's bundle: `.cache/code/` beside the sized cache (worker-bundle.ts). */
+function codeDirOf(sizedDir: string): string {
+  return path.join(path.dirname(sizedDir), "code");
+}
+
+/** The heap limit of a pool's workers: the largest design's sizing, and a run of pages when they write pages. */
+export function poolHeapMb(project: LoadedProject, designs: readonly number[], chunkPages?: number): number {
+  return (
+    workerHeapMb(Math.max(...designs.map((i) => axesProduct(project.designs[i]!)))) +
+    (chunkPages !== undefined ? pageHeapMb(chunkPages) : 0)
+  );
+}
+
+/**
+ * Worker threads started as soon as the records are loaded, before the build has worked out which
+ * designs need sizing: loading their code (≈ 0.5–1.5 s each) then overlaps the build's own work
+ * (the sized keys, the caches, the site writer's start). The build hands them their work
+ * (`sizeInWorkers`, `early`) or stops them when it has none (`stop`).
+ */
+export class EarlyWorkers {
+  private readonly dead = new Set<Worker>();
+  private taken = false;
+
+  private constructor(
+    private readonly workers: Promise<Worker[]>,
+    private readonly heapMb: number,
+  ) {}
+
+  /**
+   * Starts them when the catalogue could need them: as many as `sizingWorkers` would ask for were
+   * every design to be sized, each with the heap the largest design needs. Null when it could not.
+   */
+  static start(project: LoadedProject, sizedDir: string, asked?: number, chunkPages?: number): EarlyWorkers | null {
+    const all = project.designs.map((_, i) => i);
+    const n = sizingWorkers(project, all, asked);
+    if (n === 0) return null;
+    const heapMb = poolHeapMb(project, all, chunkPages);
+    const workers = sizeWorkerBundle(codeDirOf(sizedDir)).then((bundle) =>
+      bundle
+        ? Array.from({ length: n }, () => {
+            const w = new Worker(bundle, {
+              execArgv: workerExecArgv(),
+              resourceLimits: { maxOldGenerationSizeMb: heapMb },
+            });
+            // A worker that fails before it is handed its work is not used (see take).
+            w.on("error", () => early.dead.add(w));
+            w.on("exit", () => early.dead.add(w));
+            return w;
+          })
+        : [],
+    );
+    const early = new EarlyWorkers(workers, heapMb);
+    return early;
+  }
+
+  /** At most `n` of the workers, alive and with at least `heapMb` of heap; the others are stopped. */
+  async take(n: number, heapMb: number): Promise<Worker[]> {
+    const all = this.taken ? [] : await this.workers;
+    this.taken = true;
+    const usable = heapMb <= this.heapMb ? all.filter((w) => !this.dead.has(w)).slice(0, n) : [];
+    for (const w of all) if (!usable.includes(w)) void w.terminate();
+    return usable;
+  }
+
+  /** Stops every worker not taken. */
+  async stop(): Promise<void> {
+    await this.take(0, 0);
+  }
 }

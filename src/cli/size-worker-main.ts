@@ -10,6 +10,10 @@
  * replies with the rows the writer keeps; a design whose sized entry is already there (`read`) is
  * read from it instead of being sized. The writer's thread then only gathers rows.
  *
+ * A worker may be started before the build knows its work (size-pool.ts, `prestartWorkers`: loading
+ * the code then overlaps the build's own start-up); it is then handed its work, the same object as
+ * `workerData` would be, in a first message `{ init }`.
+ *
  * Protocol: in `{ index, read? }` or `"close"`; out `{ ready }` once the project is in, `{ index,
  * variants, feasible, rows? }` per design (after `"close"`, the last pages are written before the
  * worker exits), or `{ index, error }` / `{ index, record }` (a design the site cannot publish) / `{ fatal }`.
@@ -52,11 +56,12 @@ export interface SizeWorkerData {
 
 const port = parentPort;
 if (port === null) throw new Error("size-worker-main.ts must run in a worker thread");
-const { cacheDir, project, pages } = workerData as SizeWorkerData;
 const reply = (r: SizeReply): void => port.postMessage(r);
 
 /** Sizes (or reads) one design, writes its pages, and returns its rows. */
 async function designPages(
+  project: LoadedProject,
+  cacheDir: string,
   writer: PageWriter,
   head: ReturnType<typeof catalogueHead>,
   index: number,
@@ -81,8 +86,12 @@ async function designPages(
   return { index, variants, feasible, rows: await writer.design(d) };
 }
 
-if (project?.ok !== true || !Array.isArray(project.designs)) reply({ fatal: "the worker was given no loaded project" });
-else {
+/** Takes designs one message at a time, as the module comment says. */
+function serve({ cacheDir, project, pages }: SizeWorkerData): void {
+  if (project?.ok !== true || !Array.isArray(project.designs)) {
+    reply({ fatal: "the worker was given no loaded project" });
+    return;
+  }
   const head = pages ? catalogueHead(project, pages.builtAt, pages.version) : null;
   const writer =
     pages && head
@@ -94,7 +103,7 @@ else {
       : null;
   // One message at a time: the pool sends the next design only after this one's reply.
   let work: Promise<void> = Promise.resolve();
-  port.on("message", (msg: { index: number; read?: boolean } | "close") => {
+  port!.on("message", (msg: { index: number; read?: boolean } | "close") => {
     work = work.then(async () => {
       if (msg === "close") {
         try {
@@ -106,7 +115,7 @@ else {
         return;
       }
       try {
-        if (writer && head) reply(await designPages(writer, head, msg.index, msg.read === true));
+        if (writer && head) reply(await designPages(project, cacheDir, writer, head, msg.index, msg.read === true));
         else {
           const design = project.designs[msg.index];
           if (design === undefined) throw new Error(`no design #${msg.index}`);
@@ -119,3 +128,8 @@ else {
   });
   reply({ ready: true });
 }
+
+// Started with its work (workerData), or started early and handed its work as the first message.
+const given = workerData as SizeWorkerData | null | undefined;
+if (given?.project !== undefined) serve(given);
+else port.once("message", (msg: { init: SizeWorkerData }) => serve(msg.init));
