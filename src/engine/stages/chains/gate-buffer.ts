@@ -19,10 +19,9 @@ import { roundUp, seriesBetween } from "../../shared/e-series.ts";
 import { figure, problem } from "../../shared/figures.ts";
 import { hfeMin, vbeOn } from "../../shared/gain.ts";
 import { conductionLossMosfet_W, gateDrivePower_W, switchingLoss_W } from "../../shared/losses.ts";
-import { deviceSource } from "../../shared/sources.ts";
 import { NOMINAL_TEMP_C } from "../../shared/temperature.ts";
 import { resistor, transistor } from "../../../circuit/parts.ts";
-import { type Ctx, switchedVoltage_V } from "../context.ts";
+import { type Ctx, switchedVoltage_V, switchedVoltageNominal_V } from "../context.ts";
 import { lossFigures, switchChecks, switchOffVoltage_V } from "./common.ts";
 import { followerChecks, followerPair, RGS_OHM } from "./mosfet-driver.ts";
 import {
@@ -34,9 +33,10 @@ import {
   rdsOn_ohm,
   rdsOnNominal_ohm,
   specVgs_V,
+  rdsOnHotFigure,
   transitionFigures,
 } from "./mosfet-common.ts";
-import { recoveringTurnOnEquivalent_s } from "./gate-recovery.ts";
+import { recoveringTurnOn } from "./gate-recovery.ts";
 import type { ChainPlan, TapInfo } from "./types.ts";
 
 /**
@@ -258,9 +258,9 @@ export function planGateBuffer(ctx: Ctx, why: string): ChainPlan {
       const tOnRec =
         op.core === undefined
           ? null
-          : recoveringTurnOnEquivalent_s({
-              vHigh_V: ctx.vNom_V - vbe.nom,
-              vStart_V: 0,
+          : recoveringTurnOn({
+              vHigh_V: ctx.vNom_V,
+              vStart_V: op.core.vSat_V,
               rC_ohm: tap.rC_ohm,
               cT_F: op.core.c_F,
               rG_ohm: tap.rTap_ohm,
@@ -268,10 +268,12 @@ export function planGateBuffer(ctx: Ctx, why: string): ChainPlan {
               cIss_F: dev.ciss_F,
               vTh_V: plateauTyp_V(dev),
               vPlateau_V: plateauAt_V(dev, ctx.iNom_A),
-              qPlateau_C: plateauCharge_C(dev, ctx.vNom_V),
+              qPlateau_C: plateauCharge_C(dev, switchedVoltageNominal_V(ctx)),
               kind: ctx.switching,
+              ...(op.core.follower === undefined ? {} : { follower: op.core.follower }),
+              buffer: { beta: betaNom, vBe_V: vbe.nom },
             });
-      const tOnNom = tOnRec === null ? nom.tOn : Math.max(dev.t_rise_s, tOnRec);
+      const tOnNom = tOnRec === null ? nom.tOn : Math.max(dev.t_rise_s, tOnRec.tEq_s);
       const r = rdsOn_ohm(dev, vgMin, true);
       const vgNom = (ctx.vNom_V - vbe.nom) * gateSource(tap, betaNom, net.rGS_ohm).share;
       const pCond = conductionLossMosfet_W(ctx.iMax_A, r, op.dutyMax);
@@ -345,7 +347,11 @@ export function planGateBuffer(ctx: Ctx, why: string): ChainPlan {
             pSw_W: pSw,
             p_W: pCond + pSw,
             isPower: true,
-            tNom_s: { on: tOnNom, off: nom.tOff },
+            tNom_s: {
+              on: tOnNom,
+              off: nom.tOff,
+              ...(tOnRec === null ? {} : { rise: Math.max(dev.t_rise_s, tOnRec.tRise_s) }),
+            },
           },
         ],
         decision: {
@@ -361,15 +367,7 @@ export function planGateBuffer(ctx: Ctx, why: string): ChainPlan {
             "(push-pull follower, Horowitz & Hill, ch. 2)",
         },
         figures: [
-          figure(
-            "rds_on_hot",
-            `R_DS(on), hot, at the gate voltage reached (${vgMin.toFixed(2)} V)`,
-            r,
-            "Ω",
-            "chain",
-            "R_DS(on),max(V_GS,min) × hot factor (the value the conduction loss uses)",
-            deviceSource(dev, "rds_on_hot_factor"),
-          ),
+          rdsOnHotFigure(dev, r, vgMin),
           figure(
             "gate_voltage_min",
             "Gate voltage, worst case low",

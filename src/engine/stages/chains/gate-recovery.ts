@@ -63,6 +63,11 @@ export interface RecoveringGateDrive {
   kind: SwitchingKind;
   /** Follower core with the chain on the collector: C_T is recharged through this follower. */
   follower?: RechargeFollower;
+  /**
+   * A follower pair between the collector and R_G (gate-buffer.ts): the gate is fed from V_C − V_BE,
+   * and the collector carries only the gate current's 1/(β + 1) share.
+   */
+  buffer?: { beta: number; vBe_V: number };
 }
 
 const STEPS_PER_TAU = 400;
@@ -80,8 +85,8 @@ export function recoveringTurnOnEquivalent_s(d: RecoveringGateDrive): number | n
  * threshold-to-plateau interval). Null when the gate never crosses the plateau.
  */
 function checkDrive(d: RecoveringGateDrive): void {
-  for (const [k, v] of [...Object.entries(d), ...Object.entries(d.follower ?? {})]) {
-    if (k === "kind" || k === "follower") continue;
+  for (const [k, v] of [...Object.entries(d), ...Object.entries(d.follower ?? {}), ...Object.entries(d.buffer ?? {})]) {
+    if (k === "kind" || k === "follower" || k === "buffer") continue;
     if (typeof v !== "number" || !Number.isFinite(v) || (v < 0 && k !== "vStart_V"))
       throw new EngineMisuseError(`gate-recovery: ${k} must be finite and ≥ 0, got ${String(v)}`);
   }
@@ -110,24 +115,31 @@ function followerStep(
   vPl: number,
   dt: number,
 ): { vC: number; vPl: number } {
-  const gSum = 1 / d.rC_ohm + 1 / d.rG_ohm;
-  const vOff = (d.vHigh_V / d.rC_ohm + vG / d.rG_ohm) / gSum;
+  // The gate seen from the collector: through R_G, or through the buffer's base (R_G·(β + 1), V_BE up).
+  const rGc = d.buffer === undefined ? d.rG_ohm : d.rG_ohm * (d.buffer.beta + 1);
+  const vGc = d.buffer === undefined ? vG : vG + d.buffer.vBe_V;
+  const gSum = 1 / d.rC_ohm + 1 / rGc;
+  const vOff = (d.vHigh_V / d.rC_ohm + vGc / rGc) / gSum;
   if (!(vOff > vPl + fo.vBe_V)) return { vC: vOff, vPl };
   const gF = 1 / (fo.rS_ohm * (fo.beta + 1));
-  const vC = (d.vHigh_V / d.rC_ohm + vG / d.rG_ohm + (vPl + fo.vBe_V) * gF) / (gSum + gF);
+  const vC = (d.vHigh_V / d.rC_ohm + vGc / rGc + (vPl + fo.vBe_V) * gF) / (gSum + gF);
   return { vC, vPl: vPl + ((vC - fo.vBe_V - vPl) / fo.rS_ohm / d.cT_F) * dt };
 }
 
 export function recoveringTurnOn(d: RecoveringGateDrive): { tEq_s: number; tRise_s: number } | null {
   checkDrive(d);
   const gGS = d.rGS_ohm === undefined || d.rGS_ohm === 0 ? 0 : 1 / d.rGS_ohm;
+  // With a buffer the gate hangs V_BE below the collector and loads it by 1/(β + 1) of its current.
+  const vBeBuf = d.buffer?.vBe_V ?? 0;
+  const rGc = d.buffer === undefined ? d.rG_ohm : d.rG_ohm * (d.buffer.beta + 1);
+  const rSrc = d.buffer === undefined ? d.rC_ohm + d.rG_ohm : d.rC_ohm / (d.buffer.beta + 1) + d.rG_ohm;
   // The settled plateau current must be positive, else the gate never crosses the plateau.
-  if ((d.vHigh_V - d.vPlateau_V) / (d.rC_ohm + d.rG_ohm) - d.vPlateau_V * gGS <= 0) return null;
-  const iSettled_A = (d.vHigh_V - d.vPlateau_V) / (d.rC_ohm + d.rG_ohm) - d.vPlateau_V * gGS;
+  const iSettled_A = (d.vHigh_V - vBeBuf - d.vPlateau_V) / rSrc - d.vPlateau_V * gGS;
+  if (iSettled_A <= 0) return null;
   // Step from the gate's own time scales; the collector is advanced exactly (exponential step),
   // so a collector much faster than the step stays stable (it is then quasi-static).
   const dt = Math.min(d.cIss_F * d.rG_ohm, d.qPlateau_C / iSettled_A) / STEPS_PER_TAU;
-  const tauC_s = (d.cT_F * d.rC_ohm * d.rG_ohm) / (d.rC_ohm + d.rG_ohm);
+  const tauC_s = (d.cT_F * d.rC_ohm * rGc) / (d.rC_ohm + rGc);
   const decay = Math.exp(-dt / tauC_s);
   const inductive = d.kind === "clamped-inductive";
   const fo = d.follower;
@@ -139,8 +151,8 @@ export function recoveringTurnOn(d: RecoveringGateDrive): { tEq_s: number; tRise
   let tRise = 0;
   for (let n = 0; n < MAX_STEPS; n++) {
     if (fo !== undefined) ({ vC, vPl } = followerStep(d, fo, vG, vPl, dt));
-    const iG = (vC - vG) / d.rG_ohm;
-    const vCInf = (d.vHigh_V * d.rG_ohm + vG * d.rC_ohm) / (d.rC_ohm + d.rG_ohm);
+    const iG = Math.max(0, vC - vBeBuf - vG) / d.rG_ohm;
+    const vCInf = (d.vHigh_V * rGc + (vG + vBeBuf) * d.rC_ohm) / (d.rC_ohm + rGc);
     if (vG < d.vPlateau_V) {
       const x = vG > d.vTh_V ? ((vG - d.vTh_V) / (d.vPlateau_V - d.vTh_V)) ** 2 : 0;
       if (inductive) energy += x * dt;

@@ -7,6 +7,7 @@
 import type { MosfetClass } from "../../../model/device.ts";
 import type { Figure } from "../../../model/figure.ts";
 import { figure } from "../../shared/figures.ts";
+import { deviceSource } from "../../shared/sources.ts";
 import { plateau_V, plateauCharge_C, plateauTyp_V, vthTyp_V } from "../../shared/gate-charge.ts";
 import { rdsOnNominal_ohm } from "../../shared/rdson.ts";
 
@@ -79,4 +80,20 @@ export function transitionFigures(
     figure("switch_t_on", "Switch turn-on transition", t.tOn_s, "s", "chain", onFormula, "common-practice"),
     figure("switch_t_off", "Switch turn-off transition", t.tOff_s, "s", "chain", offFormula, "common-practice"),
   ];
+}
+
+/**
+ * The hot on-resistance figure every MOSFET chain shows: R_DS(on),max at the worst-case low gate voltage
+ * reached, times the class's hot factor — the value the conduction loss uses.
+ */
+export function rdsOnHotFigure(dev: MosfetClass, rdsHot_ohm: number, vgsMin_V: number): Figure {
+  return figure(
+    "rds_on_hot",
+    `R_DS(on), hot, at the gate voltage reached (${vgsMin_V.toFixed(2)} V)`,
+    rdsHot_ohm,
+    "Ω",
+    "chain",
+    "R_DS(on),max(V_GS,min) × hot factor (the value the conduction loss uses)",
+    deviceSource(dev, "rds_on_hot_factor"),
+  );
 }

@@ -14,7 +14,6 @@ import { roundDown, roundUp } from "../../shared/e-series.ts";
 import { figure, problem } from "../../shared/figures.ts";
 import { hfeMin, vbeOn, vceSat } from "../../shared/gain.ts";
 import { conductionLossBjt_W, conductionLossMosfet_W, gateDrivePower_W, switchingLoss_W } from "../../shared/losses.ts";
-import { deviceSource } from "../../shared/sources.ts";
 import { resistor, transistor, zener } from "../../../circuit/parts.ts";
 import { type Ctx, OVERDRIVE_K, switchedVoltage_V } from "../context.ts";
 import { driveMargin, lossFigures, switchChecks, switchOffVoltage_V, vbeCold } from "./common.ts";
@@ -28,6 +27,7 @@ import {
   rdsOn_ohm,
   rdsOnNominal_ohm,
   specVgs_V,
+  rdsOnHotFigure,
   transitionFigures,
 } from "./mosfet-common.ts";
 import { releasedTurnOnEquivalent_s } from "./gate-release.ts";
@@ -154,15 +154,7 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
         [vgsMin, vgsMax],
       ),
       ...transitionFigures(t, "t_on = Q_G·(R_G + R_P/β_HI)/(V_GS − V_plateau)", "t_off = Q_G·R_G/V_plateau"),
-      figure(
-        "rds_on_hot",
-        "R_DS(on), hot, at the gate voltage reached",
-        rds,
-        "Ω",
-        "chain",
-        "R_DS(on),max(V_GS) × hot factor",
-        deviceSource(mos, "rds_on_hot_factor"),
-      ),
+      rdsOnHotFigure(mos, rds, vgsMin),
     ],
     problems,
     checks: [

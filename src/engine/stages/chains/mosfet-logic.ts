@@ -8,7 +8,6 @@ import type { MosfetClass } from "../../../model/device.ts";
 import { checkStress } from "../../shared/derating.ts";
 import { figure, problem } from "../../shared/figures.ts";
 import { conductionLossMosfet_W, switchingLoss_W } from "../../shared/losses.ts";
-import { deviceSource } from "../../shared/sources.ts";
 import { transistor } from "../../../circuit/parts.ts";
 import { type Ctx, switchedVoltage_V, switchedVoltageNominal_V } from "../context.ts";
 import { switchChecks, switchOffVoltage_V, lossFigures } from "./common.ts";
@@ -21,6 +20,7 @@ import {
   rdsOn_ohm,
   rdsOnNominal_ohm,
   specVgs_V,
+  rdsOnHotFigure,
   transitionFigures,
 } from "./mosfet-common.ts";
 import { recoveringTurnOn, saturatedTurnOff_s, sinkLimitedTurnOff_s } from "./gate-recovery.ts";
@@ -200,15 +200,7 @@ export function planMosfetLogic(ctx: Ctx): ChainPlan {
           },
         ],
         figures: [
-          figure(
-            "rds_on_hot",
-            `R_DS(on), hot, at the gate voltage reached (${vgMin.toFixed(2)} V)`,
-            r,
-            "Ω",
-            "chain",
-            "R_DS(on),max(V_GS,min) × hot factor (the value the conduction loss uses)",
-            deviceSource(dev, "rds_on_hot_factor"),
-          ),
+          rdsOnHotFigure(dev, r, vgMin),
           figure(
             "gate_voltage_min",
             "Gate voltage, worst case low",
