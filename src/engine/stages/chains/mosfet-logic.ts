@@ -98,6 +98,15 @@ export function planMosfetLogic(ctx: Ctx): ChainPlan {
       const tNomFlat = gateTimesNominal(dev, rSrc, (vgMin + vgMax) / 2, rOff, vSwing_V);
       // Turn-on from the recovering collector (gate-recovery.ts) when the core is known: the gate
       // charges from a collector still rising through R_C·C_T, at the plateau of the rated current.
+      // The gate's pull-down and the plateau every nominal edge below shares.
+      const pullDown = tap.rGS_ohm === undefined ? {} : { rGS_ohm: tap.rGS_ohm };
+      const plateau = {
+        cIss_F: dev.ciss_F,
+        vTh_V: plateauTyp_V(dev),
+        vPlateau_V: plateauAt_V(dev, ctx.iNom_A),
+        qPlateau_C: plateauCharge_C(dev, vSwing_V),
+        kind: ctx.switching,
+      };
       const tOnRec =
         op.core === undefined
           ? null
@@ -107,12 +116,8 @@ export function planMosfetLogic(ctx: Ctx): ChainPlan {
               rC_ohm: tap.rC_ohm,
               cT_F: op.core.c_F,
               rG_ohm: tap.rTap_ohm,
-              ...(tap.rGS_ohm === undefined ? {} : { rGS_ohm: tap.rGS_ohm }),
-              cIss_F: dev.ciss_F,
-              vTh_V: plateauTyp_V(dev),
-              vPlateau_V: plateauAt_V(dev, ctx.iNom_A),
-              qPlateau_C: plateauCharge_C(dev, vSwing_V),
-              kind: ctx.switching,
+              ...pullDown,
+              ...plateau,
               ...(op.core.follower === undefined ? {} : { follower: op.core.follower }),
             });
       // Turn-off into a collector whose transistor comes on with limited current (the cross-returned
@@ -126,25 +131,16 @@ export function planMosfetLogic(ctx: Ctx): ChainPlan {
               vSat_V: op.core.vSat_V,
               rC_ohm: tap.rC_ohm,
               rG_ohm: tap.rTap_ohm,
-              ...(tap.rGS_ohm === undefined ? {} : { rGS_ohm: tap.rGS_ohm }),
-              vPlateau_V: plateauAt_V(dev, ctx.iNom_A),
-              qPlateau_C: plateauCharge_C(dev, vSwing_V),
+              ...pullDown,
+              vPlateau_V: plateau.vPlateau_V,
+              qPlateau_C: plateau.qPlateau_C,
               sink_A: op.core.sink_A,
             });
       // Turn-off into the saturating collector (gate-recovery.ts saturatedTurnOff_s) when the core is known.
       const tOffSat =
         op.core === undefined
           ? null
-          : saturatedTurnOff_s({
-              vSat_V: op.core.vSat_V,
-              rG_ohm: tap.rTap_ohm,
-              ...(tap.rGS_ohm === undefined ? {} : { rGS_ohm: tap.rGS_ohm }),
-              cIss_F: dev.ciss_F,
-              vTh_V: plateauTyp_V(dev),
-              vPlateau_V: plateauAt_V(dev, ctx.iNom_A),
-              qPlateau_C: plateauCharge_C(dev, vSwing_V),
-              kind: ctx.switching,
-            });
+          : saturatedTurnOff_s({ vSat_V: op.core.vSat_V, rG_ohm: tap.rTap_ohm, ...pullDown, ...plateau });
       const tOffPlain = tOffSat === null ? tNomFlat.tOff_s : Math.max(dev.t_fall_s, tOffSat);
       const tNom = {
         tOn_s: tOnRec === null ? tNomFlat.tOn_s : Math.max(dev.t_rise_s, tOnRec.tEq_s),
