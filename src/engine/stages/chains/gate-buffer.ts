@@ -20,9 +20,9 @@ import { figure, problem } from "../../shared/figures.ts";
 import { hfeMin, vbeOn } from "../../shared/gain.ts";
 import { conductionLossMosfet_W, gateDrivePower_W, switchingLoss_W } from "../../shared/losses.ts";
 import { NOMINAL_TEMP_C } from "../../shared/temperature.ts";
-import { resistor, transistor } from "../../../circuit/parts.ts";
+import { resistor } from "../../../circuit/parts.ts";
 import { type Ctx, switchedVoltage_V, switchedVoltageNominal_V } from "../context.ts";
-import { lossFigures, switchChecks, switchOffVoltage_V } from "./common.ts";
+import { lossFigures, switchChecks } from "./common.ts";
 import { followerChecks, followerPair, RGS_OHM } from "./mosfet-driver.ts";
 import {
   gateTimes,
@@ -34,6 +34,7 @@ import {
   rdsOnNominal_ohm,
   specVgs_V,
   rdsOnHotFigure,
+  lowSideMosfet,
   transitionFigures,
 } from "./mosfet-common.ts";
 import { recoveringTurnOn } from "./gate-recovery.ts";
@@ -203,17 +204,7 @@ export function planGateBuffer(ctx: Ctx, why: string): ChainPlan {
     },
     vSwNom_V: ctx.iNom_A * rdsOn_ohm(dev, vNeed, false),
     vSwMax_V: ctx.iMax_A * rdsOn_ohm(dev, vNeed, true),
-    parts: [
-      ...pair,
-      transistor(
-        "chain",
-        "Q_POWER",
-        dev,
-        undefined,
-        { d: "sw", g: "g", s: "0" },
-        { voltage_V: switchOffVoltage_V(ctx), current_A: ctx.iMax_A },
-      ),
-    ],
+    parts: [...pair, lowSideMosfet(ctx, dev)],
     figures: [],
     problems: net.ok
       ? []

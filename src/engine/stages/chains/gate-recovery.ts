@@ -84,12 +84,22 @@ export function recoveringTurnOnEquivalent_s(d: RecoveringGateDrive): number | n
  * inductive: the current the freewheel diode hands over to the switch; the level-1 law's
  * threshold-to-plateau interval). Null when the gate never crosses the plateau.
  */
-function checkDrive(d: RecoveringGateDrive): void {
-  for (const [k, v] of [...Object.entries(d), ...Object.entries(d.follower ?? {}), ...Object.entries(d.buffer ?? {})]) {
+/**
+ * Every number of an edge's inputs finite and ≥ 0 (the switching kind and the nested follower/buffer
+ * objects, checked on their own, skipped; `mayBeNegative` names the exceptions).
+ */
+function requireFiniteInputs(fields: object, mayBeNegative: readonly string[] = []): void {
+  for (const [k, v] of Object.entries(fields)) {
     if (k === "kind" || k === "follower" || k === "buffer") continue;
-    if (typeof v !== "number" || !Number.isFinite(v) || (v < 0 && k !== "vStart_V"))
+    if (typeof v !== "number" || !Number.isFinite(v) || (v < 0 && !mayBeNegative.includes(k)))
       throw new EngineMisuseError(`gate-recovery: ${k} must be finite and ≥ 0, got ${String(v)}`);
   }
+}
+
+function checkDrive(d: RecoveringGateDrive): void {
+  requireFiniteInputs(d, ["vStart_V"]);
+  requireFiniteInputs(d.follower ?? {});
+  requireFiniteInputs(d.buffer ?? {});
   if (d.follower !== undefined && !(d.follower.rS_ohm > 0 && d.follower.beta > 0))
     throw new EngineMisuseError("gate-recovery: the recharge follower needs positive R_S and β");
   if (
@@ -191,9 +201,7 @@ export function sinkLimitedTurnOff_s(d: {
   qPlateau_C: number;
   sink_A: number;
 }): number | null {
-  for (const [k, v] of Object.entries(d))
-    if (typeof v !== "number" || !Number.isFinite(v) || v < 0)
-      throw new EngineMisuseError(`gate-recovery: ${k} must be finite and ≥ 0, got ${String(v)}`);
+  requireFiniteInputs(d);
   if (!(d.rC_ohm > 0) || !(d.rG_ohm > 0) || !(d.qPlateau_C > 0))
     throw new EngineMisuseError("gate-recovery: needs positive R_C, R_G and Q_plateau");
   const saturated = (d.vHigh_V - d.vSat_V) / d.rC_ohm + Math.max(0, d.vPlateau_V - d.vSat_V) / d.rG_ohm;
@@ -227,9 +235,7 @@ export function saturatedTurnOff_s(d: {
   qPlateau_C: number;
   kind: SwitchingKind;
 }): number | null {
-  for (const [k, v] of Object.entries(d))
-    if (k !== "kind" && (typeof v !== "number" || !Number.isFinite(v) || v < 0))
-      throw new EngineMisuseError(`gate-recovery: ${k} must be finite and ≥ 0, got ${String(v)}`);
+  requireFiniteInputs(d);
   if (!(d.rG_ohm > 0) || !(d.qPlateau_C > 0) || !(d.vPlateau_V >= d.vTh_V))
     throw new EngineMisuseError("gate-recovery: needs positive R_G and Q_plateau, and V_p ≥ V_th");
   const gGS = d.rGS_ohm === undefined || d.rGS_ohm === 0 ? 0 : 1 / d.rGS_ohm;

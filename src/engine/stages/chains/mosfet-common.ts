@@ -6,7 +6,11 @@
  */
 import type { MosfetClass } from "../../../model/device.ts";
 import type { Figure } from "../../../model/figure.ts";
+import type { Part } from "../../../model/circuit.ts";
+import { transistor } from "../../../circuit/parts.ts";
 import { figure } from "../../shared/figures.ts";
+import type { Ctx } from "../context.ts";
+import { switchOffVoltage_V } from "./common.ts";
 import { deviceSource } from "../../shared/sources.ts";
 import { plateau_V, plateauCharge_C, plateauTyp_V, vthTyp_V } from "../../shared/gate-charge.ts";
 import { rdsOnNominal_ohm } from "../../shared/rdson.ts";
@@ -95,5 +99,17 @@ export function rdsOnHotFigure(dev: MosfetClass, rdsHot_ohm: number, vgsMin_V: n
     "chain",
     "R_DS(on),max(V_GS,min) × hot factor (the value the conduction loss uses)",
     deviceSource(dev, "rds_on_hot_factor"),
+  );
+}
+
+/** The low-side power MOSFET every MOSFET chain ends in: drain on the switched node, source at ground. */
+export function lowSideMosfet(ctx: Ctx, dev: MosfetClass): Part {
+  return transistor(
+    "chain",
+    "Q_POWER",
+    dev,
+    undefined,
+    { d: "sw", g: "g", s: "0" },
+    { voltage_V: switchOffVoltage_V(ctx), current_A: ctx.iMax_A },
   );
 }

@@ -28,6 +28,7 @@ import {
   rdsOnNominal_ohm,
   specVgs_V,
   rdsOnHotFigure,
+  lowSideMosfet,
   transitionFigures,
 } from "./mosfet-common.ts";
 import { releasedTurnOnEquivalent_s } from "./gate-release.ts";
@@ -122,14 +123,7 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
   const parts: Part[] = [
     transistor("chain", "Q_DRV", qd, betaD, { c: "drc", b: "drb", e: "0" }, { voltage_V: railMax, current_A: iCD }),
     ...followerPair({ qhi, qlo, betaHi, betaLo, rail, base: "drc", railMax_V: railMax, iPk_A, iGpk_A: iGpk }),
-    transistor(
-      "chain",
-      "Q_POWER",
-      mos,
-      undefined,
-      { d: "sw", g: "g", s: "0" },
-      { voltage_V: switchOffVoltage_V(ctx), current_A: ctx.iMax_A },
-    ),
+    lowSideMosfet(ctx, mos),
   ];
   return {
     need: {

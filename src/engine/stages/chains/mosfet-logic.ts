@@ -8,9 +8,8 @@ import type { MosfetClass } from "../../../model/device.ts";
 import { checkStress } from "../../shared/derating.ts";
 import { figure, problem } from "../../shared/figures.ts";
 import { conductionLossMosfet_W, switchingLoss_W } from "../../shared/losses.ts";
-import { transistor } from "../../../circuit/parts.ts";
 import { type Ctx, switchedVoltage_V, switchedVoltageNominal_V } from "../context.ts";
-import { switchChecks, switchOffVoltage_V, lossFigures } from "./common.ts";
+import { switchChecks, lossFigures } from "./common.ts";
 import {
   gateTimes,
   gateTimesNominal,
@@ -21,6 +20,7 @@ import {
   rdsOnNominal_ohm,
   specVgs_V,
   rdsOnHotFigure,
+  lowSideMosfet,
   transitionFigures,
 } from "./mosfet-common.ts";
 import { recoveringTurnOn, saturatedTurnOff_s, sinkLimitedTurnOff_s } from "./gate-recovery.ts";
@@ -43,16 +43,7 @@ export function planMosfetLogic(ctx: Ctx): ChainPlan {
     },
     vSwNom_V: ctx.iNom_A * rNom,
     vSwMax_V: ctx.iMax_A * rHot,
-    parts: [
-      transistor(
-        "chain",
-        "Q_POWER",
-        dev,
-        undefined,
-        { d: "sw", g: "g", s: "0" },
-        { voltage_V: switchOffVoltage_V(ctx), current_A: ctx.iMax_A },
-      ),
-    ],
+    parts: [lowSideMosfet(ctx, dev)],
     // R_DS(on) is shown in finish(), at the gate voltage the tap really reaches (the value the loss uses).
     figures: [],
     problems: [],
