@@ -30,6 +30,7 @@ import {
   designTap,
 } from "./stages/tap.ts";
 import { type TimingResult, designTiming } from "./stages/timing.ts";
+import { withCoreMemo } from "./stages/core-model.ts";
 import { loadStage } from "./stages/load.ts";
 import { coilRecovery_W, windingSwitchTerms, withWindingForm } from "./stages/winding-losses.ts";
 import { type MotorRuns, motorRuns } from "./stages/motor-runs.ts";
@@ -54,7 +55,8 @@ import { type ControlEnds, controlEnds, dutyReach } from "./stages/end-contacts.
 
 export function sizeVariant(spec: VariantSpec): SizedVariant {
   try {
-    return sizeInner(spec);
+    // The core's evaluations are kept for this variant only (core-model.ts withCoreMemo).
+    return withCoreMemo(() => sizeInner(spec));
   } catch (err) {
     if (!(err instanceof EngineMisuseError)) throw err;
     const msg = `The engine could not size this variant (${err.message}).`;
@@ -314,6 +316,10 @@ function sizeInner(specIn: VariantSpec): SizedVariant {
  * both card sets (docs/method.md, "Buffered gate"); the coverage bench measures it (`--gate-buffer`).
  */
 export function sizeVariantWithGateBuffer(spec: VariantSpec): SizedVariant {
+  return withCoreMemo(() => withGateBuffer(spec));
+}
+
+function withGateBuffer(spec: VariantSpec): SizedVariant {
   const out = sizeVariant(spec);
   if (out.feasible || spec.chain !== "mosfet-logic") return out;
   try {
@@ -331,8 +337,10 @@ export function sizeVariantWithGateBuffer(spec: VariantSpec): SizedVariant {
 
 /** The variant sized with the gate buffer forced, where a core passes with it (tests and measurements). */
 export function sizeWithGateBuffer(spec: VariantSpec): SizedVariant | null {
-  const buffered = bufferedGateCore(coreOf(spec));
-  return buffered === null ? null : sizeChosen(buffered);
+  return withCoreMemo(() => {
+    const buffered = bufferedGateCore(coreOf(spec));
+    return buffered === null ? null : sizeChosen(buffered);
+  });
 }
 
 function sizeChosen(chosen: CoreChoice): SizedVariant {

@@ -50,17 +50,19 @@ function checkInput(value: number, fn: string): void {
 /** Series values in the decades around `value` (one decade either side), ascending. */
 function candidates(value: number, series: SeriesName): readonly number[] {
   const d = Math.floor(Math.log10(value));
-  // The list depends on the decade only; the value search rounds thousands of times per variant.
-  const key = `${series}/${d}`;
-  const kept = CANDIDATES.get(key);
+  // The list depends on the decade only; the value search rounds thousands of times per variant, so
+  // the lists are kept per series and decade (a number key: no string is built per call).
+  let bySeries = CANDIDATES.get(series);
+  if (bySeries === undefined) CANDIDATES.set(series, (bySeries = new Map<number, readonly number[]>()));
+  const kept = bySeries.get(d);
   if (kept !== undefined) return kept;
   const out: number[] = [];
   for (let e = d - 1; e <= d + 1; e++) for (const m of SERIES_MANTISSAS[series]) out.push(build(m, e));
-  CANDIDATES.set(key, Object.freeze(out));
+  bySeries.set(d, Object.freeze(out));
   return out;
 }
-/** Candidate lists by series and decade (at most five series × the decades a catalogue uses). */
-const CANDIDATES = new Map<string, readonly number[]>();
+/** Candidate lists by series, then decade (at most five series × the decades a catalogue uses). */
+const CANDIDATES = new Map<SeriesName, Map<number, readonly number[]>>();
 
 /** Relative slack for "already a series value" (float noise from upstream arithmetic only). */
 const SAME_REL = 1e-9;
@@ -83,19 +85,19 @@ export function nearest(value: number, series: SeriesName): number {
 /** Smallest series value ≥ value (a value already in the series is returned as is). */
 export function roundUp(value: number, series: SeriesName): number {
   checkInput(value, "roundUp");
-  const c = candidates(value, series).find((x) => x >= value * (1 - SAME_REL));
-  if (c === undefined) throw new EngineMisuseError(`roundUp: no ${series} value found above ${value}`);
-  return c;
+  const list = candidates(value, series);
+  const bound = value * (1 - SAME_REL);
+  for (let i = 0; i < list.length; i++) if (list[i]! >= bound) return list[i]!;
+  throw new EngineMisuseError(`roundUp: no ${series} value found above ${value}`);
 }
 
-/** Largest series value ≤ value. */
+/** Largest series value ≤ value (the list is ascending: the last one within the bound, found from the top). */
 export function roundDown(value: number, series: SeriesName): number {
   checkInput(value, "roundDown");
-  const c = candidates(value, series)
-    .filter((x) => x <= value * (1 + SAME_REL))
-    .pop();
-  if (c === undefined) throw new EngineMisuseError(`roundDown: no ${series} value found below ${value}`);
-  return c;
+  const list = candidates(value, series);
+  const bound = value * (1 + SAME_REL);
+  for (let i = list.length - 1; i >= 0; i--) if (list[i]! <= bound) return list[i]!;
+  throw new EngineMisuseError(`roundDown: no ${series} value found below ${value}`);
 }
 
 export function isInSeries(value: number, series: SeriesName): boolean {

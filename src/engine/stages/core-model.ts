@@ -10,6 +10,7 @@ import type { BjtClass, DiodeClass } from "../../model/device.ts";
 import { VBE_TEMPCO_VperK, hfeMin, vbeOn, vbeTypical_V, vceSat } from "../shared/gain.ts";
 import { diodeClassVf_V } from "../shared/diode.ts";
 import { NOMINAL_TEMP_C, thermalVoltage_V } from "../shared/temperature.ts";
+import { CoreMemo } from "./core-memo.ts";
 import { excessBaseCurrent_A, regenerationCurrent_A } from "./core-levels.ts";
 import {
   type CollectorLoad,
@@ -163,7 +164,20 @@ export function followerAt(
   };
 }
 
+/**
+ * The core evaluated (evalCoreDirect), answered from the evaluations kept while one variant is sized
+ * (withCoreMemo; core-memo.ts): the same answer, once per distinct input.
+ */
 export function evalCore(v: CoreValues, q: BjtClass, db: DiodeClass, k: Corner, ctrl: number): CoreEval {
+  return CORE_MEMO.call(v, q, db, k, ctrl);
+}
+
+/** Runs `body` (one variant's sizing) with the core's evaluations kept until it returns. */
+export function withCoreMemo<T>(body: () => T): T {
+  return CORE_MEMO.within(body);
+}
+
+export function evalCoreDirect(v: CoreValues, q: BjtClass, db: DiodeClass, k: Corner, ctrl: number): CoreEval {
   const rCA = v.rC_ohm * k.kRCA;
   const rCB = v.rC_ohm * k.kRCB;
   const iC = k.vcc_V / Math.min(rCA, rCB);
@@ -266,6 +280,8 @@ export function evalCore(v: CoreValues, q: BjtClass, db: DiodeClass, k: Corner, 
     ...(fo ? { follower: fo } : {}),
   };
 }
+
+const CORE_MEMO = new CoreMemo<CoreValues, CoreEval>(evalCoreDirect);
 
 /** Smallest current the junction laws are read at, A (below it leakage rules; ours). */
 const LEVEL_I_MIN_A = 1e-9;

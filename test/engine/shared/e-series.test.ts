@@ -99,6 +99,30 @@ describe("snapping across decades (exact values)", () => {
     expect(roundDown(4.69e3, "E12")).toBe(3900);
   });
 
+  it("roundUp and roundDown equal a scan of every series value (derived: the definitions themselves)", () => {
+    // The scan builds the values afresh (mantissa × 10^exp) over wide decades, with the same float slack.
+    const all = (series: keyof typeof SERIES_MANTISSAS): number[] =>
+      [-13, -12, -11, -10, -9, -8, -7, -6, -5, -4, -3, -2, -1, 0, 1, 2, 3, 4, 5, 6, 7, 8].flatMap((e) =>
+        SERIES_MANTISSAS[series].map((m) => (e - 2 >= 0 ? m * 10 ** (e - 2) : m / 10 ** (2 - e))),
+      );
+    for (const series of ["E6", "E12", "E24", "E96"] as const) {
+      const values = all(series);
+      fc.assert(
+        fc.property(fc.double({ min: 1e-11, max: 1e7, noNaN: true }), (x) => {
+          expect(roundUp(x, series)).toBe(values.find((c) => c >= x * (1 - 1e-9)));
+          expect(roundDown(x, series)).toBe(values.filter((c) => c <= x * (1 + 1e-9)).pop());
+        }),
+        { numRuns: 300 },
+      );
+      // Series values themselves and float noise around them.
+      for (const c of values.filter((c) => c > 1e-11 && c < 1e7))
+        for (const x of [c, c * (1 + 1e-12), c * (1 - 1e-12)]) {
+          expect(roundUp(x, series)).toBe(values.find((y) => y >= x * (1 - 1e-9)));
+          expect(roundDown(x, series)).toBe(values.filter((y) => y <= x * (1 + 1e-9)).pop());
+        }
+    }
+  });
+
   it("nearest uses ratio (logarithmic) distance: 8.6 → 8.2 in E24, 9.6 → 10 in E24", () => {
     // 8.6/8.2 = 1.0488, 9.1/8.6 = 1.0581 → 8.2; 10/9.6 = 1.0417, 9.6/9.1 = 1.0549 → 10.
     expect(nearest(8.6, "E24")).toBe(8.2);

@@ -1,0 +1,106 @@
+/**
+ * The core's evaluations kept while one variant is sized (src/engine/stages/core-memo.ts) must be the
+ * evaluations computed afresh: on real variants of the demo scenario, every corner of the worst case's
+ * sets at control 0, ½ and 1, the value search as a whole, and values that differ in one property only.
+ * No external source: the reference is the direct computation (evalCoreDirect), derived.
+ */
+import { describe, expect, it } from "vitest";
+import type { BjtClass, DiodeClass } from "../../../src/model/device.ts";
+import { makeContext } from "../../../src/engine/stages/context.ts";
+import { CHAIN_PLANNERS } from "../../../src/engine/stages/chains/index.ts";
+import { tapAndTiming } from "../../../src/engine/size.ts";
+import { evalCore, evalCoreDirect, withCoreMemo } from "../../../src/engine/stages/core-model.ts";
+import { contentText } from "../../../src/engine/stages/core-memo.ts";
+import { envelopeCorners } from "../../../src/engine/stages/worst-corners.ts";
+import { envelopeOf } from "../../../src/engine/stages/timing-search.ts";
+import { NPN_HIGH_GAIN, type SpecOpts, makeSpec } from "../fixtures.ts";
+
+const sample: SpecOpts[] = [
+  { supply_V: 12, chain: "mosfet-driver", load_kind: "motor", pwm_Hz: 20000, load_A: 2 },
+  { supply_V: 24, chain: "darlington-3", load_kind: "led", pwm_Hz: 4000, load_A: 1, duty: [0.3, 0.9] },
+  {
+    supply_V: 24,
+    chain: "mosfet-logic",
+    load_kind: "resistive",
+    pwm_Hz: 200,
+    load_A: 2,
+    override: { timing_npn: NPN_HIGH_GAIN },
+  },
+  { supply_V: 12, chain: "bjt-driver-pnp", load_kind: "lamp", pwm_Hz: 1000, load_A: 0.5 },
+];
+
+const name = (o: SpecOpts): string => `${o.supply_V} V ${o.chain} ${o.load_kind} ${o.pwm_Hz} Hz`;
+
+describe("kept core evaluations equal the direct ones", () => {
+  it.each(sample.map((o) => [name(o), o] as const))("%s: the whole value search", (_n, o) => {
+    const spec = makeSpec(o);
+    const ctx = makeContext(spec);
+    const plan = CHAIN_PLANNERS[spec.chain](ctx);
+    // Outside a scope nothing is kept: this is the search computed afresh throughout.
+    const direct = tapAndTiming(ctx, plan);
+    const kept = withCoreMemo(() => tapAndTiming(ctx, plan));
+    expect(JSON.stringify(kept)).toBe(JSON.stringify(direct));
+  });
+
+  it.each(sample.map((o) => [name(o), o] as const))("%s: every set corner, asked twice", (_n, o) => {
+    const spec = makeSpec(o);
+    const ctx = makeContext(spec);
+    const plan = CHAIN_PLANNERS[spec.chain](ctx);
+    const v = tapAndTiming(ctx, plan).timing.values;
+    const q = spec.devices.timing_npn as BjtClass;
+    const db = spec.devices.signal_diode as DiodeClass;
+    const sets = envelopeCorners(envelopeOf(ctx));
+    withCoreMemo(() => {
+      for (const set of Object.values(sets))
+        for (const k of set)
+          for (const ctrl of [0, 0.5, 1, 0.25]) {
+            const want = evalCoreDirect(v, q, db, k, ctrl);
+            expect(evalCore(v, q, db, k, ctrl)).toEqual(want);
+            // Again, and through a copy that reads alike (keys in another order).
+            const copy = Object.fromEntries(Object.entries(v).reverse()) as typeof v;
+            expect(evalCore(copy, q, db, k, ctrl)).toEqual(want);
+          }
+    });
+  });
+
+  it("values that differ in one property, or in a device class, get their own answers", () => {
+    const o = sample[0]!;
+    const spec = makeSpec(o);
+    const ctx = makeContext(spec);
+    const plan = CHAIN_PLANNERS[spec.chain](ctx);
+    const v = tapAndTiming(ctx, plan).timing.values;
+    const q = spec.devices.timing_npn as BjtClass;
+    const db = spec.devices.signal_diode as DiodeClass;
+    const k = envelopeCorners(envelopeOf(ctx)).dMinHi[5]!;
+    const variants = [
+      v,
+      { ...v, rEndA_ohm: v.rEndA_ohm * (1 + Number.EPSILON) },
+      { ...v, c_F: v.c_F * 1.1 },
+      { ...v, tapLoad: { ...v.tapLoad, r_ohm: v.tapLoad.r_ohm * 2 } },
+      { ...v, bleed_ohm: 10_000 },
+      { ...v, diodes: !v.diodes },
+      { ...v, inverting: !v.inverting },
+    ];
+    const q2: BjtClass = { ...q, vce_sat: q.vce_sat.map((p) => ({ ...p, vce_sat_V: p.vce_sat_V * 1.5 })) };
+    withCoreMemo(() => {
+      for (const x of variants) {
+        expect(evalCore(x, q, db, k, 0)).toEqual(evalCoreDirect(x, q, db, k, 0));
+        expect(evalCore(x, q2, db, k, 1)).toEqual(evalCoreDirect(x, q2, db, k, 1));
+      }
+      const distinct = new Set(variants.map((x) => JSON.stringify(evalCore(x, q, db, k, 0))));
+      expect(distinct.size).toBeGreaterThan(3);
+    });
+  });
+});
+
+describe("content text", () => {
+  it("reads alike whatever the key order, and tells apart what differs", () => {
+    expect(contentText({ a: 1, b: { c: 2, d: true } })).toBe(contentText({ b: { d: true, c: 2 }, a: 1 }));
+    expect(contentText({ a: 0 })).not.toBe(contentText({ a: -0 }));
+    expect(contentText({ a: 0.1 + 0.2 })).not.toBe(contentText({ a: 0.3 }));
+    expect(contentText({ a: undefined })).not.toBe(contentText({ a: null }));
+    expect(contentText({ a: "1" })).not.toBe(contentText({ a: 1 }));
+    expect(contentText({ a: [1, 2] })).not.toBe(contentText({ a: [2, 1] }));
+    expect(contentText({ a: Number.NaN })).not.toBe(contentText({ a: Infinity }));
+  });
+});
