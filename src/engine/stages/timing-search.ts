@@ -284,9 +284,10 @@ export function searchCore(ctx: Ctx, q: BjtClass, db: DiodeClass, base: Base): S
     );
     const od = overdrive(ctx, q, db, base, v.pot_ohm, v.rEndA_ohm, v.rEndB_ohm);
     const limitsOk = od >= OVERDRIVE_K && injection(ctx, q, db, v) <= INJECTION_MAX && crossOk(ctx, q, db, v);
-    // Only the first candidate's result is kept when none passes: a later one that fails the
-    // cheap limits needs no worst case.
-    if (!limitsOk && first !== null) continue;
+    // Only the first candidate's result is kept when none passes: a later one needs its worst case
+    // only if it passes, so it is first tested at the corners that decide that, stopping at the
+    // first that fails (the same evaluations and comparisons the pass test below makes).
+    if (first !== null && !(limitsOk && mayPass(v, q, db, sets, t.duty_min, t.duty_max))) continue;
     const worst = worstCaseFast(v, q, db, sets);
     const passed =
       limitsOk &&
@@ -325,6 +326,37 @@ export function searchCore(ctx: Ctx, q: BjtClass, db: DiodeClass, base: Base): S
     passed: false,
     found: false,
   };
+}
+
+/**
+ * Whether the worst case of `v` (worstCaseFast) would pass the search's test: every duty set's threshold
+ * reached, dMin.hi ≤ duty_min, dMax.lo ≥ duty_max, recovery ≤ MAX_RECOVERY. Read at the same corners and
+ * control positions as worstCaseFast and compared the same way (a NaN fails, as it does there through
+ * Math.min/max), but answered at the first corner that fails; the frequency corners do not enter.
+ */
+function mayPass(v: CoreValues, q: BjtClass, db: DiodeClass, sets: CornerSets, dMin: number, dMax: number): boolean {
+  const duty = (set: readonly Corner[], ctrl: number, ok: (d: number) => boolean): boolean => {
+    for (const k of set) {
+      const e = evalCore(v, q, db, k, ctrl);
+      if (e.dtTh_s === null || !ok(e.duty)) return false;
+    }
+    return true;
+  };
+  const atMost = (d: number): boolean => d <= dMin;
+  const atLeast = (d: number): boolean => d >= dMax;
+  const any = (): boolean => true;
+  if (!duty(sets.dMinHi, 0, atMost) || !duty(sets.dMaxLo, 1, atLeast)) return false;
+  for (const k of sets.rec) {
+    const a = evalCore(v, q, db, k, 0).timing;
+    const b = evalCore(v, q, db, k, 1).timing;
+    if (!((5 * a.tauA_s) / a.tAoff_s <= MAX_RECOVERY && (5 * b.tauB_s) / b.tBoff_s <= MAX_RECOVERY)) return false;
+  }
+  return (
+    duty(sets.dMinLo, 0, atMost) &&
+    duty(sets.dMaxHi, 1, atLeast) &&
+    duty(sets.dMidHi, 0.5, any) &&
+    duty(sets.dMidLo, 0.5, any)
+  );
 }
 
 /**
