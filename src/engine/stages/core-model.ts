@@ -164,20 +164,24 @@ export function followerAt(
   };
 }
 
-/**
- * The core evaluated (evalCoreDirect), answered from the evaluations kept while one variant is sized
- * (withCoreMemo; core-memo.ts): the same answer, once per distinct input.
- */
-export function evalCore(v: CoreValues, q: BjtClass, db: DiodeClass, k: Corner, ctrl: number): CoreEval {
-  return CORE_MEMO.call(v, q, db, k, ctrl);
+/** What evalCoreDirect reads before the capacitors enter: the same at the corners that differ in them only. */
+interface Prefix {
+  rCA: number;
+  rCB: number;
+  vSat_V: number;
+  rBA: number;
+  rBB: number;
+  vOn_V: number;
+  tapA: boolean;
+  loadA: CollectorLoad | undefined;
+  loadB: CollectorLoad | undefined;
+  cross: ReturnType<typeof crossAt>;
+  fo: FollowerParams | undefined;
+  levels: CoreLevels | undefined;
+  vCutIn_V: number;
 }
 
-/** Runs `body` (one variant's sizing) with the core's evaluations kept until it returns. */
-export function withCoreMemo<T>(body: () => T): T {
-  return CORE_MEMO.within(body);
-}
-
-export function evalCoreDirect(v: CoreValues, q: BjtClass, db: DiodeClass, k: Corner, ctrl: number): CoreEval {
+function makePrefix(v: CoreValues, q: BjtClass, db: DiodeClass, k: Corner, ctrl: number): Prefix {
   const rCA = v.rC_ohm * k.kRCA;
   const rCB = v.rC_ohm * k.kRCB;
   const iC = k.vcc_V / Math.min(rCA, rCB);
@@ -210,6 +214,82 @@ export function evalCoreDirect(v: CoreValues, q: BjtClass, db: DiodeClass, k: Co
       : fo !== undefined
         ? Math.min(vOn_V, cutIn_V(v.diodes, db, k.t_C, v.bleed_ohm))
         : vOn_V;
+  return { rCA, rCB, vSat_V, rBA, rBB, vOn_V, tapA, loadA, loadB, cross, fo, levels, vCutIn_V };
+}
+
+/**
+ * The prefixes last made, with what each was made of (two: the recovery corners alternate control 0
+ * and 1 at each corner, worst-corners.ts): the sets sweep the capacitors innermost (cornerSet), so
+ * three corners in four reuse one. Nothing in a prefix depends on the capacitors, and the values
+ * object is never changed after it is handed on (the search makes a new one for every change), so
+ * the numbers are those made afresh.
+ */
+interface KeptPrefix {
+  v: CoreValues;
+  q: BjtClass;
+  db: DiodeClass;
+  ctrl: number;
+  vcc_V: number;
+  t_C: number;
+  kRCA: number;
+  kRCB: number;
+  kEndA: number;
+  kEndB: number;
+  kPot: number;
+  p: Prefix;
+}
+const keptPrefixes: (KeptPrefix | undefined)[] = [undefined, undefined];
+let nextPrefix = 0;
+
+function prefixOf(v: CoreValues, q: BjtClass, db: DiodeClass, k: Corner, ctrl: number): Prefix {
+  for (const l of keptPrefixes)
+    if (
+      l !== undefined &&
+      l.v === v &&
+      l.q === q &&
+      l.db === db &&
+      Object.is(l.ctrl, ctrl) &&
+      Object.is(l.vcc_V, k.vcc_V) &&
+      Object.is(l.t_C, k.t_C) &&
+      Object.is(l.kRCA, k.kRCA) &&
+      Object.is(l.kRCB, k.kRCB) &&
+      Object.is(l.kEndA, k.kEndA) &&
+      Object.is(l.kEndB, k.kEndB) &&
+      Object.is(l.kPot, k.kPot)
+    )
+      return l.p;
+  const p = makePrefix(v, q, db, k, ctrl);
+  const { vcc_V, t_C, kRCA, kRCB, kEndA, kEndB, kPot } = k;
+  keptPrefixes[nextPrefix] = { v, q, db, ctrl, vcc_V, t_C, kRCA, kRCB, kEndA, kEndB, kPot, p };
+  nextPrefix = 1 - nextPrefix;
+  return p;
+}
+
+/**
+ * The core evaluated (evalCoreDirect), answered from the evaluations kept while one variant is sized
+ * (withCoreMemo; core-memo.ts): the same answer, once per distinct input.
+ */
+export function evalCore(v: CoreValues, q: BjtClass, db: DiodeClass, k: Corner, ctrl: number): CoreEval {
+  return CORE_MEMO.call(v, q, db, k, ctrl);
+}
+
+/** Runs `body` (one variant's sizing) with the core's evaluations kept until it returns. */
+export function withCoreMemo<T>(body: () => T): T {
+  return CORE_MEMO.within(body);
+}
+
+/** The core at one corner and control position, computed (its prefix kept for the next corner: prefixOf). */
+export function evalCoreDirect(v: CoreValues, q: BjtClass, db: DiodeClass, k: Corner, ctrl: number): CoreEval {
+  return evalFrom(v, k, prefixOf(v, q, db, k, ctrl));
+}
+
+/** The same, every part made afresh (the reference the tests hold the kept prefixes and answers to). */
+export function evalCoreFresh(v: CoreValues, q: BjtClass, db: DiodeClass, k: Corner, ctrl: number): CoreEval {
+  return evalFrom(v, k, makePrefix(v, q, db, k, ctrl));
+}
+
+function evalFrom(v: CoreValues, k: Corner, made: Prefix): CoreEval {
+  const { rCA, rCB, vSat_V, rBA, rBB, vOn_V, tapA, loadA, loadB, cross, fo, levels, vCutIn_V } = made;
   const timing = evaluateCore({
     vcc_V: k.vcc_V,
     vOn_V,
