@@ -9,8 +9,8 @@
  * The key is the CONTENT of the values (every own property, nested loads and followers included,
  * numbers written exactly), so two objects that read alike share their answers and two that differ
  * anywhere never do; the device classes are keyed by identity (a variant's classes are fixed while it
- * is sized), and so are the corners, which are kept only when frozen (the worst case's shared sets:
- * a frozen object cannot change). The content of a values object is read once per object: the search
+ * is sized); corners are kept only when frozen (the worst case's shared sets: a frozen object cannot
+ * change, so its content is read once). The content of a values object is read once per object: the search
  * makes a new object for every change (never writes into one it handed on), and the kept answers end
  * with the scope, so nothing outlives the variant or grows with the catalogue.
  */
@@ -30,10 +30,27 @@ interface Scope<R> {
 
 /**
  * Ids of frozen corners (the worst case's shared sets, worst-corners.ts envelopeCorners): a frozen
- * object cannot change, so its identity stands for its content. Weak: an id goes with its corner.
+ * object cannot change, so its content is read once. Corners that read alike share an id (the
+ * fastest corners are also recovery corners). Weak: an id goes with its corner; the content map is
+ * emptied past a bound (ids keep counting up, so an id is never given to other content).
  */
 const FROZEN_IDS = new WeakMap<object, number>();
-let frozenCount = 0;
+const CORNER_IDS = new Map<string, number>();
+const CORNER_IDS_MAX = 100_000;
+let cornerCount = 0;
+
+function cornerId(k: object): number {
+  let id = FROZEN_IDS.get(k);
+  if (id !== undefined) return id;
+  const text = contentText(k);
+  id = CORNER_IDS.get(text);
+  if (id === undefined) {
+    if (CORNER_IDS.size >= CORNER_IDS_MAX) CORNER_IDS.clear();
+    CORNER_IDS.set(text, (id = cornerCount++));
+  }
+  FROZEN_IDS.set(k, id);
+  return id;
+}
 
 /**
  * Exact text of a number: String(x) is the shortest text that reads back as the same double, so
@@ -110,8 +127,7 @@ export class CoreMemo<V extends object, R> {
     const s = this.scope;
     const ci = ctrlIndex(ctrl);
     if (s === undefined || ci < 0 || !Object.isFrozen(k)) return this.f(v, q, db, k, ctrl);
-    let kid = FROZEN_IDS.get(k);
-    if (kid === undefined) FROZEN_IDS.set(k, (kid = frozenCount++));
+    const kid = cornerId(k);
     const kept = keptFor(s, v, q, db);
     const slot = kid * 3 + ci;
     const hit = kept.get(slot);

@@ -59,6 +59,8 @@ describe("kept core evaluations equal the direct ones", () => {
             // Again, and through a copy that reads alike (keys in another order).
             const copy = Object.fromEntries(Object.entries(v).reverse()) as typeof v;
             expect(evalCore(copy, q, db, k, ctrl)).toEqual(want);
+            // A frozen corner that reads alike (another set's object) shares the answer; it is the same.
+            expect(evalCore(v, q, db, Object.freeze({ ...k }), ctrl)).toEqual(want);
           }
     });
   });
