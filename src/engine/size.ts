@@ -280,62 +280,10 @@ function steppedDiodes(first: CoreChoice): CoreChoice | null {
   return second.core.timing.search.passed ? second : null;
 }
 
-/**
- * Chains the lower-gain timing pair is offered to (docs/method.md, "Lower-gain timing pair"): the driven
- * MOSFET, whose 20 kHz fans it made feasible and which held every corner with both card sets. Not the
- * PNP driver: the one demo variant it passed there (24 V, 0.25 A fan) stopped with the load on at its
- * power corner with the second card set (duty 1.000) and dissipated 16 % past its bound at
- * `duty-ctrl1-low`. Not the Darlington chains (STEP_CHAINS), nor the logic-level MOSFET, where it made
- * no demo variant pass.
- */
-const TIMING_STEP_CHAINS: ReadonlySet<string> = new Set(["mosfet-driver"]);
-
-/**
- * Every core attempt with the timing pair stepped to the lower-gain class (STRESS_DEVICE_IDS.timing_npn),
- * then, where none passes, with the signal diodes stepped as well: only where no core passes with the
- * variant's own classes (so every variant that passed before keeps its design), on TIMING_STEP_CHAINS, not
- * for a solenoid (its pull-in timer is not proven with a stepped core), and when the class's V_CEO under the
- * policy holds V_cc,max. Why the lower gain helps (measured on the demo's 20 kHz fans, docs/method.md): the
- * base diodes' injection 2·β_hot·C_j·R_C/(R_B·C) grows with the gain, so the high-gain pair caps R_C near
- * 2 kΩ; there the bleed turn-off guard (its Miller plateau slower the higher β is) asks for a bleed that
- * leaves no overdrive. With a fifth of the gain R_C can be 10 kΩ and every limit holds.
- * The cross-returned bleed is not offered: its limits were measured with the ordinary class.
- */
-function steppedTiming(first: CoreChoice): CoreChoice | null {
-  const { spec, ctx, core } = first;
-  const low = spec.stressClasses?.timing_npn;
-  const ordinary = spec.devices.timing_npn as BjtClass;
-  if (low === undefined || low.family !== "npn" || low.id === ordinary.id) return null;
-  if (!TIMING_STEP_CHAINS.has(spec.chain) || spec.load_kind === "solenoid") return null;
-  if (low.vceo_V * spec.policy.bjt.voltage.factor < ctx.vMax_V) return null;
-  const rule = core.timing.problems.find((p) => p.severity === "error")?.rule ?? "duty-range-worst-case";
-  const gain = (q: BjtClass): string => {
-    const pt = q.hfe.find((h) => h.max !== undefined) ?? q.hfe[0]!;
-    return `h_FE ${pt.min}${pt.max === undefined ? "" : `–${pt.max}`} at ${formatValue(pt.ic_A, "A")}`;
-  };
-  const reason =
-    `stepped under stress: with ${ordinary.title} ` +
-    `(${gain(ordinary)}, t_s ≈ ${formatValue(ordinary.t_storage_s, "s")}) ` +
-    `no timing core passes (${rule}); ${low.title} (${gain(low)}, t_s ≈ ${formatValue(low.t_storage_s, "s")}) ` +
-    `injects less through the base diodes (2·β·C_j·R_C/(R_B·C) falls with the gain) and leaves saturation sooner on ` +
-    `its base–emitter bleed, so the core can take a larger R_C and pass every limit`;
-  const stepped: VariantSpec = {
-    ...spec,
-    devices: { ...spec.devices, timing_npn: low },
-    ...(spec.deviceReasons === undefined ? {} : { deviceReasons: { ...spec.deviceReasons, timing_npn: reason } }),
-  };
-  const second = coreOf(stepped, false);
-  return second.core.timing.search.passed ? second : steppedDiodes(second);
-}
-
-/**
- * The variant's timing core: with its own classes, else with the signal diodes stepped up (above), else
- * with the lower-gain timing pair (and then its signal diodes stepped too).
- */
+/** The variant's timing core: with its own classes, else with the signal diodes stepped up (above). */
 function chooseCore(specIn: VariantSpec): CoreChoice {
   const first = coreOf(specIn);
-  if (first.core.timing.search.passed) return first;
-  return steppedDiodes(first) ?? steppedTiming(first) ?? first;
+  return first.core.timing.search.passed ? first : (steppedDiodes(first) ?? first);
 }
 
 /**
@@ -355,40 +303,7 @@ export function bufferedGateCore(chosen: CoreChoice): CoreChoice | null {
 }
 
 function sizeInner(specIn: VariantSpec): SizedVariant {
-  const chosen = chooseCore(specIn);
-  const sized = sizeChosen(chosen);
-  return steppedZener(chosen, sized) ?? sized;
-}
-
-/**
- * The gate rail's zener stepped to the larger power class of the same voltage and tolerance
- * (STRESS_DEVICE_IDS.gate_zener), only where its power check fails with the variant's own class: the rail,
- * and so the core and every other value, stays the same, and the part carries its dissipation within the policy. A
- * faster gate driver draws more from the rail (its pull-up moves Q_G within 1 % of the period), and a
- * shunt zener takes the whole of that current at V_cc,max (common practice: size the zener for the load
- * removed at the highest input). Recorded as the role's device-class decision.
- */
-function steppedZener(chosen: CoreChoice, sized: SizedVariant): SizedVariant | null {
-  const spec = chosen.spec;
-  const big = spec.stressClasses?.gate_zener;
-  const own = spec.devices.gate_zener;
-  if (big === undefined || own === undefined || big.family !== "zener" || own.family !== "zener") return null;
-  if (big.id === own.id || big.vz_V !== own.vz_V || big.vz_tolerance !== own.vz_tolerance) return null;
-  const ref = sized.circuit?.parts.find((p) => p.role === "DZ")?.ref;
-  const dz = sized.checks.find((c) => c.ref === ref && c.quantity === "power" && c.verdict === "fail");
-  if (dz === undefined || dz.stress > big.pz_W * spec.policy.zener.power.factor) return null;
-  const reason =
-    `stepped up under stress: ${own.title} would dissipate ${formatValue(dz.stress, "W")}, ` +
-    `${Math.round(100 * dz.ratio)} % of its rating (the policy allows ${Math.round(100 * dz.allowed)} %); ` +
-    `${big.title} carries it at ${Math.round((100 * dz.stress) / big.pz_W)} %`;
-  const stepped: VariantSpec = {
-    ...spec,
-    devices: { ...spec.devices, gate_zener: big },
-    ...(spec.deviceReasons === undefined ? {} : { deviceReasons: { ...spec.deviceReasons, gate_zener: reason } }),
-  };
-  // The same core: the rail the plan and the core see depends on V_Z and its tolerance only.
-  const ctx = makeContext(stepped);
-  return sizeChosen({ spec: stepped, ctx, plan: CHAIN_PLANNERS[stepped.chain](ctx), core: chosen.core });
+  return sizeChosen(chooseCore(specIn));
 }
 
 /**

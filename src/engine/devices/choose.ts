@@ -66,16 +66,11 @@ export const RAISED_DEVICE_IDS: Readonly<Partial<Record<DeviceRole, readonly str
 /**
  * Classes the engine steps a role up to under stress while it sizes a variant, never chosen here: the
  * low-capacitance switching diode for the timing core's signal diodes, taken only where no core passes
- * with the ordinary class (size.ts, docs/method.md "Low-capacitance base diodes"); the lower-gain timing
- * pair and the 5 W gate-rail zener likewise (docs/method.md, "Lower-gain timing pair"). A record that binds
+ * with the ordinary class (size.ts, docs/method.md "Low-capacitance base diodes"). A record that binds
  * the role keeps its class.
  */
 export const STRESS_DEVICE_IDS: Readonly<Partial<Record<DeviceRole, readonly string[]>>> = {
   signal_diode: ["diode-signal-lowcap"],
-  // The lower-gain, faster-switching timing pair (size.ts `steppedTiming`, docs/method.md "Lower-gain timing pair").
-  timing_npn: ["npn-small-signal"],
-  // The gate rail's zener of the same voltage and a larger power class (size.ts `steppedZener`).
-  gate_zener: ["zener-8v2-5w"],
 };
 
 /** The classes of STRESS_DEVICE_IDS present in the library, for the roles the record does not bind. */
