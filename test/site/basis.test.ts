@@ -33,6 +33,6 @@ describe("formula and rule names", () => {
       expect(ruleId("src", note)).toBe(`rule-${fnv1a(`src\u0000${note}`)}`);
     }
     expect(formulaId(f)).toBe(expected);
-    expect(ruleId("src")).toBe(`rule-${fnv1a("src\u0000")}`);
+    expect(ruleId("src", undefined)).toBe(`rule-${fnv1a("src\u0000")}`);
   });
 });
