@@ -76,7 +76,7 @@ export async function sizeInWorkers(
   pages?: PoolPages,
   start: { loader?: "bundle" | "tsx"; early?: EarlyWorkers | null } = {},
 ): Promise<Map<number, { variants: number; feasible: number }>> {
-  const queue = [...misses];
+  const queue = largestFirst(project, misses);
   const heap = poolHeapMb(project, misses, pages?.job.chunkPages);
   const data: SizeWorkerData = { cacheDir, project, ...(pages ? { pages: pages.job } : {}) };
   // Workers started early are handed their work; any still missing are started now.
@@ -126,6 +126,18 @@ export async function sizeInWorkers(
     });
   await Promise.all(Array.from({ length: workers }, (_, k) => slot(k)));
   return done;
+}
+
+/**
+ * The order the workers take designs in: the largest first (by the variants their axes expand to),
+ * in catalogue order among equals, so that the last designs handed out are small ones and both
+ * workers finish close together instead of one sizing a large design alone at the end.
+ */
+export function largestFirst(project: LoadedProject, designs: readonly number[]): number[] {
+  return designs
+    .map((i) => ({ i, n: axesProduct(project.designs[i]!) }))
+    .sort((a, b) => b.n - a.n || a.i - b.i)
+    .map((x) => x.i);
 }
 
 /** The folder of the worker's bundle: `.cache/code/` beside the sized cache (worker-bundle.ts). */

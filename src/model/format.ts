@@ -59,9 +59,30 @@ export function toSignificant(x: number, digits = 3): string {
     .replace(/\.$/, "");
 }
 
+/**
+ * Texts already made, per unit and digits, by value: a catalogue formats the same few thousand
+ * values (E24 parts, device ratings, supplies) over and over, and each fresh text costs several
+ * rounding passes. Keyed by the number itself (0 and -0 print alike); emptied when it grows large.
+ */
+const made: Map<string, Map<number, string>>[] = [];
+const MADE_PER_UNIT = 4096;
+
 export function formatValue(value: number, unit: string, digits = 3): string {
   if (!Number.isFinite(value)) throw new EngineMisuseError(`cannot format non-finite value ${value} ${unit}`);
   const d = clampDigits(digits);
+  const units = (made[d] ??= new Map());
+  let byValue = units.get(unit);
+  if (byValue === undefined) units.set(unit, (byValue = new Map()));
+  const hit = byValue.get(value);
+  if (hit !== undefined) return hit;
+  const text = formatFresh(value, unit, d);
+  if (byValue.size >= MADE_PER_UNIT) byValue.clear();
+  byValue.set(value, text);
+  return text;
+}
+
+/** `formatValue` for `d` already clamped (the memo above keeps its results). */
+function formatFresh(value: number, unit: string, d: number): string {
   if (unit === "%") {
     const pct = value * 100;
     // ×100 can overflow a double near its largest value: shift the exponent instead.

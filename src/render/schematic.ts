@@ -8,6 +8,7 @@
 import type { CircuitModel } from "../model/circuit.ts";
 import type { DeviceLibrary } from "../model/device.ts";
 import { place, FONT_PX, LINE_PX, type Placed } from "./schematic-place.ts";
+import { RouteMemo } from "./route-memo.ts";
 import type { Routing } from "./schematic-route.ts";
 import { wire } from "./schematic-wire.ts";
 import { ground, terminal } from "./symbols/index.ts";
@@ -29,13 +30,16 @@ function transformOf(p: Placed): string {
   return parts.join(" ");
 }
 
-/** Placement and wiring without drawing (tests and tools inspect it). */
+/** Routings of recent geometries: variants of a design that differ only in values route alike. */
+const routes = new RouteMemo();
+
+/** Placement and wiring without drawing (tests and tools inspect it; the routing is frozen). */
 export function layoutSchematic(
   circuit: CircuitModel,
   devices?: DeviceLibrary,
 ): { placed: Placed[]; routing: Routing } {
   const { placed, hints } = place(circuit, devices === undefined ? {} : { devices });
-  return { placed, routing: wire(placed, hints) };
+  return { placed, routing: routes.get(placed, hints, () => wire(placed, hints)) };
 }
 
 /** `meta.devices` (the device library) sharpens the labels' generic types (logic-level gate, Schottky). */

@@ -9,14 +9,27 @@
 export const FORMULAS_PAGE = "formulas/index.html";
 export const BASIS_JSON = "basis.json";
 
+/**
+ * Names already made, by their joined texts: the same few hundred formulas and rules are named on
+ * every page, and hashing a formula's text character by character each time showed in profiles.
+ */
+const named = new Map<string, string>();
+
 /** 32-bit FNV-1a over the texts (joined by NUL), in base 36: short, stable, the same on every machine. */
 function shortHash(...texts: string[]): string {
+  const joined = texts.join("\u0000");
+  const known = named.get(joined);
+  if (known !== undefined) return known;
   let h = 0x811c9dc5;
-  for (const ch of texts.join("\u0000")) {
+  for (const ch of joined) {
     h ^= ch.codePointAt(0)!;
     h = Math.imul(h, 0x01000193) >>> 0;
   }
-  return h.toString(36);
+  const name = h.toString(36);
+  // A catalogue names a few hundred; a bound keeps a stray caller from growing it without end.
+  if (named.size >= 8192) named.clear();
+  named.set(joined, name);
+  return name;
 }
 
 /**

@@ -69,3 +69,30 @@ describe("formatValue on any finite number", () => {
     for (const bad of [NaN, Infinity, -Infinity]) expect(() => formatValue(bad, "V")).toThrow(EngineMisuseError);
   });
 });
+
+describe("formatValue's memo of texts already made (common practice: a cache returns what it stands for)", () => {
+  it("prints a value the same whether fresh, remembered, or after the memo was emptied", () => {
+    const probe: [number, string, number][] = [
+      [4700, "Ω", 3],
+      [4700, "Ω", 2],
+      [4700, "F", 3],
+      [0.0473, "%", 3],
+      [0.0473, "", 3],
+      [999.96, "Ω", 4],
+      [-2.2e-9, "F", 3],
+    ];
+    const first = probe.map(([x, u, d]) => formatValue(x, u, d));
+    expect(first).toEqual(["4.7 kΩ", "4.7 kΩ", "4.7 kF", "4.73 %", "0.0473", "1 kΩ", "-2.2 nF"]);
+    // Thousands of other values in the same units: each unit's memo is emptied on the way.
+    for (let i = 1; i <= 10_000; i++) for (const u of ["Ω", "%", ""]) formatValue(i * 1.37, u);
+    expect(probe.map(([x, u, d]) => formatValue(x, u, d))).toEqual(first);
+    expect(probe.map(([x, u, d]) => formatValue(x, u, d))).toEqual(first);
+  });
+
+  it("prints 0 and -0 alike, and still refuses what is not finite after a finite value was remembered", () => {
+    for (const u of ["V", "%", "", "K/W"]) expect(formatValue(-0, u)).toBe(formatValue(0, u));
+    formatValue(1, "V");
+    expect(() => formatValue(Number.NaN, "V")).toThrow(EngineMisuseError);
+    expect(() => formatValue(Number.POSITIVE_INFINITY, "V")).toThrow(EngineMisuseError);
+  });
+});
