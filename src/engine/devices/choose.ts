@@ -60,7 +60,9 @@ export const RAISED_DEVICE_IDS: Readonly<Partial<Record<DeviceRole, readonly str
   power_pnp: ["pnp-small-signal-hv", "pnp-power-to220-100v"],
   // 100 V first at a high supply; the 2.5 V-rated class at a low one (its 20 V rating rules it out above).
   mosfet_logic: ["nmos-logic-100v", "nmos-logic-2v5"],
-  mosfet_standard: ["nmos-standard-100v"],
+  // 100 V at a high supply; at a low one the logic-level classes, whose gate the driver's rail
+  // still enhances (`stressWhyNot`: the rail less the follower's V_BE against the class's threshold).
+  mosfet_standard: ["nmos-standard-100v", "nmos-logic", "nmos-logic-100v", "nmos-logic-2v5"],
 };
 
 /**
@@ -110,6 +112,21 @@ const MOSFET_VOLTAGE_SHARE = 0.6;
  * derived). A logic class rated at a higher V_GS cannot be driven at all.
  */
 const GATE_REACH_SHARE = 0.95 / 1.05;
+/**
+ * V_BE of the gate driver's source follower, cold, at its gate-charging current (≈ 0.8 V for the
+ * small-signal classes the driver uses; common practice). The driver is chosen after the MOSFET, so
+ * the chooser takes this estimate; mosfet-driver.ts computes the gate voltage from the chosen class.
+ */
+const DRIVER_VBE_COLD_V = 0.8;
+/**
+ * The least gate drive a class is driven with by the gate driver: its worst-case threshold plus half
+ * of the overdrive at which its R_DS(on) is specified, V_th,max + (V_GS,spec − V_th,max)/2. Below it
+ * the worst-case channel law (shared/rdson.ts) puts R_DS(on) above twice the rated value, and near
+ * V_th,max a worst-case part barely conducts (ours: the gate-voltage counterpart of the 2× margin).
+ */
+function driverGateFloor_V(d: MosfetClass): number {
+  return d.vgs_th_V.max + (specVgs_V(d) - d.vgs_th_V.max) / 2;
+}
 const DIODE_CURRENT_HEADROOM = 0.5;
 const DIODE_VOLTAGE_HEADROOM = 0.7;
 /**
@@ -431,6 +448,15 @@ function stressWhyNot(role: DeviceRole, d: DeviceClass, n: Need): string | null 
   if (!isMosfet(d)) return null;
   if (d.vds_V * MOSFET_VOLTAGE_SHARE < n.vOff_V)
     return `V_DS ${f3(d.vds_V)} V × ${MOSFET_VOLTAGE_SHARE * 100} % is below ${f3(n.vOff_V)} V off-state`;
+  // The gate driver's rail is the supply (or a zener rail at a high one) less its follower's V_BE.
+  if (role === "mosfet_standard") {
+    const drive_V = n.vMin_V - DRIVER_VBE_COLD_V;
+    const floor_V = driverGateFloor_V(d);
+    return drive_V >= floor_V
+      ? null
+      : `its gate driver reaches ${f3(drive_V)} V at ${f3(n.vMin_V)} V, below ${f3(floor_V)} V ` +
+          `(V_th,max ${f3(d.vgs_th_V.max)} V plus half the way to the ${f3(specVgs_V(d))} V its R_DS(on) is rated at)`;
+  }
   // Only the logic chain's gate hangs off the timing collector; the gate driver has its own rail.
   const reach_V = n.vMin_V * GATE_REACH_SHARE;
   return role === "mosfet_logic" && specVgs_V(d) > reach_V

@@ -28,6 +28,9 @@ export interface ThermalResult {
   perRole: Map<PartRole, { p_W: number; tj_C: number }>;
 }
 
+/** What a MOSFET chain's heatsink refusal advises (a MOSFET chain already is one). */
+const LOWER_RDS_ADVICE = "Use a MOSFET class of lower R_DS(on), or split the load.";
+
 /** Packages a heatsink can be bolted to (common practice). */
 const SINKABLE = new Set(["TO-220", "TO-3", "TO-126", "TO-247"]);
 
@@ -117,7 +120,7 @@ export function thermalStage(ctx: Ctx, losses: DeviceLoss[]): ThermalResult {
           "heatsink-too-small",
           "error",
           `${what}; needs a heatsink ≤ ${Math.max(rSa, 0).toFixed(2)} K/W, below the ${minOk} K/W this design ` +
-            `accepts. Use a MOSFET chain.`,
+            `accepts. ${l.family === "mosfet" ? LOWER_RDS_ADVICE : "Use a MOSFET chain."}`,
           { limit: minOk, actual: Math.max(rSa, 0), unit: "K/W" },
         ),
       );

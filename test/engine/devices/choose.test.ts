@@ -216,6 +216,24 @@ describe("chooseDevices: classes of raised rating, only where the ordinary ones 
     expect(Math.min(...(devices.mosfet_logic as MosfetClass).rds_on.map((p) => p.vgs_V))).toBe(2.5);
     expect(reasons.mosfet_logic).toContain("rated at V_GS 4.50 V, above the 4.07 V the gate can reach");
   });
+  it("the gate driver's MOSFET at 5–6 V: a logic-level class, because the standard one is barely enhanced", () => {
+    // Floor V_th,max + (V_GS,spec − V_th,max)/2 (ours, choose.ts driverGateFloor_V): standard 4 + (10 − 4)/2 = 7 V,
+    // logic 2.5 + (4.5 − 2.5)/2 = 3.5 V. Drive at the window's low end less the follower's V_BE, 0.8 V (common
+    // practice): 5 V ± 10 % → 4.5 − 0.8 = 3.7 V; 6 V → 4.6 V; 9 V → 7.3 V; 12 V → 10.0 V.
+    for (const [v, id, drive] of [
+      [5, "nmos-logic", "3.70"],
+      [6, "nmos-logic", "4.60"],
+    ] as const) {
+      const { devices, reasons } = chooseDevicesWithReasons(need("mosfet-driver", v), lib, v, 1, "mosfet-driver");
+      expect(devices.mosfet_standard.id, `${v} V`).toBe(id);
+      expect(reasons.mosfet_standard).toContain(`nmos-standard: its gate driver reaches ${drive} V`);
+      expect(reasons.mosfet_standard).toContain("below 7.00 V");
+    }
+    for (const v of [9, 12, 24])
+      expect(chooseDevices(need("mosfet-driver", v), lib, v, 1, "mosfet-driver").mosfet_standard.id).toBe(
+        "nmos-standard",
+      );
+  });
   it("no standard-recovery freewheel rectifier at 48 V, 1 kHz (52.8 V · 1 kHz > 33 kV/s); kept at 24 V", () => {
     // Recovery loss ∝ Q_rr·V·f (common practice); the 33 kV/s limit is ours (choose.ts).
     const fan = (v: number): DesignRecord => ({
@@ -235,7 +253,8 @@ describe("chooseDevices: classes of raised rating, only where the ordinary ones 
       [6, "mosfet-logic"],
     ] as const) {
       const d = chooseDevices(need(chain, v), lib, v, 1, chain);
-      for (const role of DEVICE_ROLES)
+      // The gate driver's MOSFET serves the mosfet-driver chain only; at 6 V it takes a logic class (test above).
+      for (const role of DEVICE_ROLES.filter((r) => r !== "mosfet_standard" || chain === "mosfet-driver"))
         expect(RAISED_DEVICE_IDS[role] ?? [], `${v} V ${role}`).not.toContain(d[role].id);
     }
   });

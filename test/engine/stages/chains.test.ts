@@ -8,7 +8,7 @@ import { sizeVariant } from "../../../src/engine/index.ts";
 import { hfeMax, hfeMin, hfeTypicalCurve, vbeOn, vbeSat, vceSat } from "../../../src/engine/shared/gain.ts";
 import { junctionCharge_C } from "../../../src/engine/shared/junction.ts";
 import { expectClose } from "../../helpers/close.ts";
-import { NPN_HIGH_GAIN, type SpecOpts, makeSpec } from "../fixtures.ts";
+import { NPN_HIGH_GAIN, type SpecOpts, library, makeSpec } from "../fixtures.ts";
 
 const hg = { override: { timing_npn: NPN_HIGH_GAIN } };
 const fig = (s: ReturnType<typeof sizeVariant>, k: string): number => {
@@ -197,5 +197,29 @@ describe("Darlington turn-off: the first stage's collector–base (Miller) charg
     const fMax = s.figures.find((f) => f.key === "frequency_nominal")!.range![1];
     const tAll = d2.t_rise_s + fig(s, "turn_off_time") + fig(s, "turn_off_miller_time");
     expectClose(fig(s, "switching_loss"), 0.5 * ctx.vMax_V * ctx.iMax_A * tAll * fMax, 1e-9);
+  });
+});
+
+describe("mosfet-driver with a standard-gate MOSFET bound at 5 V: the gate does not clear the threshold", () => {
+  it("refuses with gate-below-threshold: 4.5 V less the follower's cold V_BE is not above V_th,max 4 V", () => {
+    // Common practice: a MOSFET driven at or below its worst-case threshold V_GS(th),max may not conduct at all.
+    // The record binds the standard class (the chooser would take a logic-level one here: choose.test.ts).
+    const standard = library().get("nmos-standard")!;
+    const s = sizeVariant(
+      makeSpec({
+        supply_V: 5,
+        load_A: 1,
+        chain: "mosfet-driver",
+        load_kind: "resistive",
+        override: { mosfet_standard: standard },
+      }),
+    );
+    expect(s.spec.devices.mosfet_standard.id).toBe("nmos-standard");
+    const vg = fig(s, "gate_voltage_min");
+    expect(vg).toBeLessThanOrEqual(4);
+    expect(vg).toBeGreaterThan(3);
+    expect(s.feasible).toBe(false);
+    const b = s.verdict.blocking.find((x) => x.rule === "gate-below-threshold");
+    expect(b?.message).toContain("not above the MOSFET's worst-case threshold of 4 V");
   });
 });

@@ -108,7 +108,22 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
   const tNom = { tOn_s: Math.max(tNomDrive.tOn_s, tOnReleased), tOff_s: tNomDrive.tOff_s };
   const rds = rdsOn_ohm(mos, vgsMin, true);
   const problems = [];
-  if (vgsMin < vNeed)
+  // At or below the worst-case threshold a worst-case part does not turn on at all: R_DS(on) has no
+  // meaning there (rdson.ts puts 1000 × the rated value), so the chain cannot switch the load.
+  if (vgsMin <= mos.vgs_th_V.max)
+    problems.push(
+      problem(
+        "chain",
+        "/parts/Q_POWER",
+        "gate-below-threshold",
+        "error",
+        `The gate reaches only ${vgsMin.toFixed(2)} V at minimum supply, not above the MOSFET's worst-case ` +
+          `threshold of ${mos.vgs_th_V.max} V: a worst-case part would not turn on. Use a logic-level MOSFET class ` +
+          `(the engine takes one when the record leaves the class open), or a higher supply.`,
+        { limit: mos.vgs_th_V.max, actual: vgsMin, unit: "V" },
+      ),
+    );
+  else if (vgsMin < vNeed)
     problems.push(
       problem(
         "chain",
