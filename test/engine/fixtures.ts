@@ -108,7 +108,8 @@ export const NPN_HIGH_GAIN: BjtClass = {
  * memory, to show a series reverse diode that carries the current (the library's largest is 10 A).
  */
 export const SCHOTTKY_30A: DiodeClass = {
-  id: "diode-schottky-30a",
+  // A test class (not the library's 100 V TO-220 one of the same current): 45 V, TO-247.
+  id: "test-schottky-30a-45v",
   family: "diode",
   title: "Schottky 45 V 30 A, TO-247",
   package: "TO-247",

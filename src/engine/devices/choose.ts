@@ -35,12 +35,20 @@ export const DEFAULT_DEVICE_IDS: Readonly<Record<DeviceRole, readonly string[]>>
   power_pnp: ["pnp-small-signal", "pnp-power-to220"],
   mosfet_logic: ["nmos-logic"],
   mosfet_standard: ["nmos-standard"],
-  freewheel_diode: ["diode-rectifier-1a", "diode-schottky-3a", "diode-fast-3a", "diode-schottky-10a"],
+  // The 30 A, 100 V Schottky last: the 5–10 A motor or coil, and any inductive load at 48 V (V_RRM).
+  freewheel_diode: [
+    "diode-rectifier-1a",
+    "diode-schottky-3a",
+    "diode-fast-3a",
+    "diode-schottky-10a",
+    "diode-schottky-30a",
+  ],
   signal_diode: ["diode-signal"],
   // Shunt reverse-polarity diodes by surge rating: 30 A, 200 A, 400 A, 600 A I_FSM.
   reverse_diode: ["diode-rectifier-1a", "diode-rectifier-3a", "diode-rectifier-6a", "diode-rectifier-10a"],
   // Series reverse-polarity diodes (where no shunt diode outlasts the fuse): Schottky for the least drop.
-  reverse_series_diode: ["diode-schottky-3a", "diode-schottky-10a"],
+  // The 30 A, 100 V class for a 5–10 A load's supply current and for 48 V (its V_RRM and surge).
+  reverse_series_diode: ["diode-schottky-3a", "diode-schottky-10a", "diode-schottky-30a"],
   // Highest rail first (most gate drive), then the smaller power class; see `zenerFits`.
   gate_zener: ["zener-12v-0w5", "zener-12v-1w", "zener-10v-1w", "zener-8v2-1w"],
 };

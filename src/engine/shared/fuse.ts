@@ -16,13 +16,19 @@
  *  - miniature 5 × 20 mm time-lag (T) fuses, IEC 60127-2: rated 250 V; R10 ratings 0.1–6.3 A;
  *    pre-arcing time at 10 × I_n between 10 ms and 100 ms (standard sheet 3, from memory);
  *  - blade fuses, ISO 8820-3: rated 32 V (58 V types for 42/48 V systems); ratings 1–40 A;
- *    pre-arcing time at 6 × I_n (600 %) between 10 ms and 100 ms (from memory).
+ *    pre-arcing time at 6 × I_n (600 %) between 10 ms and 100 ms (from memory);
+ *  - cylindrical 10 × 38 mm DC fuse-links, IEC 60269-6 (gPV): rated for DC (the 600 V types taken),
+ *    ratings 1–32 A; the standard fixes only the conventional currents (1.13/1.45 × I_n at 1 h), so the
+ *    gate is bounded from makers' curves: pre-arcing time at 10 × I_n between 2 ms and 20 ms (from
+ *    memory). They are what a 48 V battery or solar system fuses a branch with above 6.3 A: the blade
+ *    families' 58 V is below 1/0.8 of a 48 V battery's 52.8 V charging top, and the 5 × 20 mm family
+ *    stops at 6.3 A. Listed last, so that a variant an earlier family serves keeps it.
  */
 import { EngineMisuseError } from "../../model/errors.ts";
 import type { SourceKey } from "./sources.ts";
 
 export interface FuseFamily {
-  id: "iec60127-t" | "iso8820-32v" | "iso8820-58v";
+  id: "iec60127-t" | "iso8820-32v" | "iso8820-58v" | "iec60269-gpv";
   title: string;
   voltage_V: number;
   ratings_A: readonly number[];
@@ -76,6 +82,21 @@ export const FUSE_FAMILIES: readonly FuseFamily[] = [
     note: "ISO 8820-3 blade fuses, 58 V types (600 % I_n: 10–100 ms), from memory",
     holder: "holder for standard-size blade fuses rated 58 V (in-line or panel mount)",
     breaking: "rated for DC, its breaking capacity at least the battery's short-circuit current (from the maker)",
+  },
+  {
+    id: "iec60269-gpv",
+    title: "10 × 38 mm DC fuse-link (gPV)",
+    voltage_V: 600,
+    ratings_A: [1, 2, 3, 4, 5, 6, 8, 10, 12, 15, 16, 20, 25, 30, 32],
+    gate: { multiple: 10, tMin_s: 0.002, tMax_s: 0.02 },
+    source: "iec-60269-6",
+    note:
+      "IEC 60269-6 gPV fuse-links, 10 × 38 mm, rated 600 V DC or more (10 × I_n: 2–20 ms pre-arcing, " +
+      "from makers' curves, from memory)",
+    holder: "DIN-rail or panel holder for 10 × 38 mm fuse-links, itself rated for DC at the link's voltage",
+    breaking:
+      "gPV (rated and tested for DC), its breaking capacity at least the battery's short-circuit current " +
+      "(several kA for a 48 V battery bank: from the maker)",
   },
 ];
 

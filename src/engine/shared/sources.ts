@@ -140,6 +140,41 @@ export const SOURCES = {
       { item: "gate at 600 % I_n", value: "pre-arcing 10 ms … 100 ms", sureness: "from-memory" },
     ],
   },
+  "iec-60269-6": {
+    kind: "standard",
+    short: "IEC 60269-6 (gPV fuse-links)",
+    title:
+      "IEC 60269-6, Low-voltage fuses — Part 6: Supplementary requirements for fuse-links for the protection " +
+      "of solar photovoltaic energy systems",
+    edition: "edition not pinned",
+    where: "gPV utilization category: DC rated voltage, conventional currents and times; the 10 × 38 mm size",
+    sureness: "from-memory",
+    confidence: "from-memory",
+    note:
+      "Full-range (gPV) fuse-links made and tested to break direct current, in the cylindrical 10 × 38 mm " +
+      "size rated from about 1 A to 32 A at 600–1000 V DC: the usual branch fuse of 48 V solar and battery " +
+      "installations, where automotive blade fuses (32 V, 58 V) are too low in voltage. The standard fixes " +
+      "the conventional non-fusing and fusing currents (1.13 and 1.45 × I_n, 1 h); the pre-arcing time at a " +
+      "multiple of the rating is read from the makers' time–current curves, which the engine bounds.",
+    values: [
+      { item: "ratings used", value: "1, 2, 3, 4, 5, 6, 8, 10, 12, 15, 16, 20, 25, 30, 32 A", sureness: "from-memory" },
+      {
+        item: "DC rated voltage taken",
+        value: "600 V (the lowest of the usual 600/800/1000 V DC types)",
+        sureness: "from-memory",
+      },
+      {
+        item: "conventional currents (I_n ≤ 63 A, 1 h)",
+        value: "non-fusing 1.13 × I_n; fusing 1.45 × I_n",
+        sureness: "from-memory",
+      },
+      {
+        item: "pre-arcing time at 10 × I_n (makers' curves, bounded)",
+        value: "2 ms … 20 ms",
+        sureness: "from-memory",
+      },
+    ],
+  },
   "jesd51-2a": {
     kind: "standard",
     short: "JEDEC JESD51-2A",

@@ -50,6 +50,9 @@ import { capRating_V } from "./timing-parts.ts";
 import type { DriveLimit } from "./chains/types.ts";
 import { drivePulse, pulsePower_W } from "../shared/drive-limit.ts";
 import { seriesReverseStage } from "./series-reverse.ts";
+import { diodeJunction } from "./diode-junction.ts";
+import { diodeClassVf_V } from "../shared/diode.ts";
+import { NOMINAL_TEMP_C } from "../shared/temperature.ts";
 
 export const BULK_PER_A_F = 100e-6;
 export const BULK_MIN_F = 100e-6;
@@ -413,13 +416,23 @@ export function protectionStage(
     const fw = D.freewheel_diode as DiodeClass;
     const iAvg = ctx.iMax_A * (1 - dutyMinLo);
     const pins = ctx.highSide ? { anode: "0", cathode: "sw" } : { anode: "sw", cathode: "vbus" };
+    // Its conduction loss over the off share, V_F(I_max, 25 °C)·I_avg (the higher drop; as the series
+    // diode's): a 5–10 A motor's freewheel diode dissipates watts and may need a heatsink.
+    const pFw_W = Math.max(0, diodeClassVf_V(fw, ctx.iMax_A, NOMINAL_TEMP_C)) * iAvg;
+    const junction = diodeJunction(
+      ctx,
+      "D_FREEWHEEL",
+      fw,
+      pFw_W,
+      ctx.highSide ? "the switched output" : "the supply rail",
+    );
     parts.push(
       diode(
         "protection",
         "D_FREEWHEEL",
         fw,
         pins,
-        { voltage_V: ctx.vMax_V, current_A: iAvg },
+        { voltage_V: ctx.vMax_V, current_A: iAvg, power_W: pFw_W, tj_C: junction.tj_C },
         `freewheel: clamps the ${ctx.spec.load_kind === "solenoid" ? "coil" : "motor"}'s kick-back`,
       ),
     );
@@ -427,6 +440,8 @@ export function protectionStage(
     checks.push(
       checkStress("D_FREEWHEEL", "voltage", ctx.vMax_V, fw.vrrm_V, "V", pol.diode.voltage, pol.marginal_above),
     );
+    checks.push(junction.check);
+    if (junction.condition !== undefined) conditions.push(junction.condition);
     const share = fw.trr_s * fMax_Hz;
     figures.push(
       figure(

@@ -18,19 +18,17 @@ import type { Part } from "../../model/circuit.ts";
 import type { DesignProblem } from "../../model/problem.ts";
 import type { StressCheck } from "../../model/derating.ts";
 import type { VerdictCondition } from "../../model/sized.ts";
-import { checkStress, checkTj, tjLimit_C } from "../shared/derating.ts";
+import { checkStress } from "../shared/derating.ts";
 import { diodeClassVf_V } from "../shared/diode.ts";
 import { figure, problem } from "../shared/figures.ts";
 import { diodeSurgeI2t_A2s, type FuseChoice } from "../shared/fuse.ts";
 import { cite } from "../shared/sources.ts";
 import { NOMINAL_TEMP_C } from "../shared/temperature.ts";
-import { heatsinkMax_KperW, junctionTemp_C, rthCsFor_KperW } from "../shared/thermal.ts";
+import { junctionTemp_C } from "../shared/thermal.ts";
 import { diode } from "../../circuit/parts.ts";
 import type { Ctx } from "./context.ts";
 import type { SeriesReverse } from "./reverse.ts";
-
-/** Packages a heatsink can be bolted to (as the thermal stage; common practice). */
-const SINKABLE = new Set(["TO-220", "TO-3", "TO-126", "TO-247"]);
+import { diodeJunction } from "./diode-junction.ts";
 
 /** Loss of the series diode carrying `i_A` continuously: V_F(I, 25 °C)·I, W. */
 export function seriesLoss_W(dev: DiodeClass, i_A: number): number {
@@ -54,9 +52,7 @@ export function seriesReverseStage(
   const dev = s.dev;
   const vRev_V = ctx.supply.max_V;
   const p_W = seriesLoss_W(dev, iCont_A);
-  const ta = ctx.taMax_C;
-  const tj = junctionTemp_C(ta, p_W, dev.rth_ja_KperW);
-  const limit = tjLimit_C(pol, "diode", dev.tj_max_C);
+  const tj = junctionTemp_C(ctx.taMax_C, p_W, dev.rth_ja_KperW);
   const checks: StressCheck[] = [
     checkStress("D_SERIES", "voltage", vRev_V, dev.vrrm_V, "V", pol.diode.voltage, pol.marginal_above),
     checkStress("D_SERIES", "current", iCont_A, dev.if_avg_A, "A", pol.diode.current, pol.marginal_above),
@@ -79,25 +75,9 @@ export function seriesReverseStage(
   ];
   const problems: DesignProblem[] = [];
   const conditions: VerdictCondition[] = [];
-  const rJc = dev.rth_jc_KperW;
-  if (tj <= limit || !SINKABLE.has(dev.package) || rJc === undefined) {
-    checks.push(checkTj("D_SERIES", tj, dev.tj_max_C, pol, "diode"));
-  } else {
-    const rCs = rthCsFor_KperW(dev.package);
-    const rSa = heatsinkMax_KperW(limit, ta, p_W, rJc, rCs);
-    const shown = Math.max(Math.floor(rSa * 10) / 10, 0);
-    const ok = rSa >= ctx.spec.targets.heatsink_min_KperW;
-    const c = checkTj("D_SERIES", ok ? junctionTemp_C(ta, p_W, rJc + rCs + shown) : tj, dev.tj_max_C, pol, "diode");
-    checks.push(ok ? { ...c, condition: `on a heatsink of ≤ ${shown.toFixed(1)} K/W` } : c);
-    if (ok)
-      conditions.push({
-        rule: "heatsink",
-        path: "/parts/D_SERIES",
-        text:
-          `D_SERIES on a heatsink of ≤ ${shown.toFixed(1)} K/W (with grease); its tab is the supply rail, so ` +
-          `insulate it from a heatsink it shares`,
-      });
-  }
+  const junction = diodeJunction(ctx, "D_SERIES", dev, p_W, "the supply rail");
+  checks.push(junction.check);
+  if (junction.condition !== undefined) conditions.push(junction.condition);
   if (checks.some((c) => c.verdict === "fail"))
     problems.push(
       problem(

@@ -90,6 +90,26 @@ describe("chooseDevices: defaults by current and voltage", () => {
     expect(chooseDevices(record(20e3), lib, 24, 5).freewheel_diode.id).toBe("diode-schottky-10a");
   });
 
+  it("5–10 A and 48 V: the 30 A 100 V Schottky for freewheel and series reverse duty", () => {
+    // Class data (designs/devices/diode-schottky-30a.json, typical class figures from memory): 100 V, 30 A, 250 A
+    // I_FSM. Selection rule (common practice): I_F(AV) × 50 % and V_RRM × 70 %.
+    const motor = (supply_V: number, load_A: number): DesignRecord => ({
+      ...record(1000),
+      axes: { supply_V: [supply_V], load_A: [load_A], chain: ["mosfet-logic"], load_kind: ["motor"] },
+      targets: { pwm_Hz: 1000, duty_min: 0.2, duty_max: 0.8, ambient_C: [0, 40], supply_tolerance: 0.1 },
+    });
+    // 12 V ± 10 % (13.2 V top), 10 A motor: freewheel ≥ 10 A > 50 % of the 10 A Schottky → 30 A class (15 A).
+    expect(chooseDevices(motor(12, 10), lib, 12, 10).freewheel_diode.id).toBe("diode-schottky-30a");
+    // 48 V ± 10 %, 2 A motor: it carries max(2 A, 2.2 A × (1 − 0.2/2)) = 2 A > 1.5 A (50 % of the 3 A classes), and
+    // 52.8 V > 42 V (70 % of the 10 A Schottky's 60 V) → the 30 A class (70 % of 100 V = 70 V).
+    expect(chooseDevices(motor(48, 2), lib, 48, 2).freewheel_diode.id).toBe("diode-schottky-30a");
+    const w = chooseDevicesWithReasons(motor(12, 10), lib, 12, 10);
+    // Series reverse diode: the motor's running current at the 13.2 V top, 10 A × 1.1 = 11 A, plus the core's
+    // estimate, is over 50 % of 10 A → the 30 A class (≤ 15 A).
+    expect(w.devices.reverse_series_diode.id).toBe("diode-schottky-30a");
+    expect(w.reasons.reverse_series_diode).toMatch(/diode-schottky-10a: I_F\(AV\) 10\.0 A × 50 % is below/);
+  });
+
   it("freewheel diode: carries the running current at the top of the supply window, not only the rating", () => {
     // 24 V lead-acid (21.0–29.4 V, common practice), 1.5 A coil: R = 24 V / 1.5 A = 16 Ω, full on at 29.4 V
     // 1.84 A; off share ≤ 1 − 0.3/2 = 0.85 → 1.56 A average > 50 % of the 3 A classes → the 10 A Schottky.

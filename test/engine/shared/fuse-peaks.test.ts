@@ -71,6 +71,27 @@ describe("fuse rules", () => {
     const b = chooseFuse({ continuous_A: 8, vMax_V: 29.4, taMax_C: 40, inrushI2t_A2s: 10 });
     expect([b?.family.id, b?.rating_A]).toEqual(["iso8820-58v", 15]);
   });
+  it("48 V battery above 6.3 A: the 10 × 38 mm gPV DC family, never a blade fuse at 91 % of its 58 V", () => {
+    // 48 V lead-acid top 52.8 V (common practice: 2.2 V/cell × 24): 58 V blades need V_max ≤ 0.8 × 58 = 46.4 V,
+    // so out; gPV taken at 600 V DC (IEC 60269-6 [src:iec-60269-6], from memory), 0.8 × 600 = 480 V.
+    // 5.51 A continuous at 40 °C: 5.51/0.705 = 7.82 A → 8 A; inrush 9.48 A²s against ½·(10·8 A)²·2 ms = 6.4 A²s:
+    // too little → 10 A, ½·(100 A)²·2 ms = 10 A²s ≥ 9.48 A²s (gate 10 × I_n: 2–20 ms, from memory).
+    const f = chooseFuse({ continuous_A: 5.51, vMax_V: 52.8, taMax_C: 40, inrushI2t_A2s: 9.48 });
+    expect([f?.family.id, f?.rating_A]).toEqual(["iec60269-gpv", 10]);
+    expectClose(f!.prearcingMin_A2s, 20, 1e-12, "(10 × 10 A)² × 2 ms");
+    // Clearing bound (100 A)² × 20 ms × 1.2 = 240 A²s: below the 10 A rectifier's 600²/240 = 1500 A²s.
+    expectClose(f!.clearingMax_A2s, 240, 1e-12, "(10 × 10 A)² × 20 ms × 1.2");
+    // 11 A continuous (a 10 A heater): 11/0.705 = 15.6 A → 16 A; ½·(160 A)²·2 ms = 25.6 A²s ≥ 20.9 A²s.
+    const h = chooseFuse({ continuous_A: 11, vMax_V: 52.8, taMax_C: 40, inrushI2t_A2s: 20.9 });
+    expect([h?.family.id, h?.rating_A]).toEqual(["iec60269-gpv", 16]);
+    // A 10 A motor's 148 A²s stall start needs ½·(10·I_n)²·2 ms ≥ 148 → I_n ≥ 38.5 A: past the 32 A top, no fuse
+    // (the page asks for a soft start or current limit).
+    expect(chooseFuse({ continuous_A: 11, vMax_V: 52.8, taMax_C: 40, inrushI2t_A2s: 148 })).toBeUndefined();
+    // At 12 V the earlier families still serve a 5 A load: 5.51/0.705 = 7.82 A → the 32 V blade's 10 A.
+    expect(chooseFuse({ continuous_A: 5.51, vMax_V: 14.4, taMax_C: 40, inrushI2t_A2s: 9.48 })?.family.id).toBe(
+      "iso8820-32v",
+    );
+  });
   it("a shunt diode's surge I²t: 1N400x class 30 A I_FSM → 30²·(1/120)/2 = 3.75 A²s (half-sine, derived)", () => {
     expectClose(diodeSurgeI2t_A2s(30), 3.75, 1e-12);
   });

@@ -12,7 +12,7 @@ import { sizeVariant } from "../../../src/engine/index.ts";
 import { diodeClassVf_V } from "../../../src/engine/shared/diode.ts";
 import type { SizedVariant } from "../../../src/model/sized.ts";
 import { expectClose } from "../../helpers/close.ts";
-import { NPN_HIGH_GAIN, SCHOTTKY_30A, SERIES_REVERSE_SPEC, type SpecOpts, makeSpec } from "../fixtures.ts";
+import { NPN_HIGH_GAIN, SCHOTTKY_30A, SERIES_REVERSE_SPEC, type SpecOpts, library, makeSpec } from "../fixtures.ts";
 
 const base: SpecOpts = SERIES_REVERSE_SPEC;
 const size = (o: Partial<SpecOpts> = {}): SizedVariant => sizeVariant(makeSpec({ ...base, ...o }));
@@ -57,9 +57,17 @@ describe("12 V lead-acid, 10 A heater: a 20 A fuse no shunt diode outlasts", () 
   });
 });
 
-describe("the library's largest series class falls short at 12 A, said plainly", () => {
-  const s = size();
-  it("10 A Schottky × 50 % (diode current factor, from memory) < 12.25 A: not feasible, with the reason", () => {
+describe("at 12 A the 30 A Schottky class carries the series duty; past it, said plainly", () => {
+  it("12.25 A ≤ 30 A × 50 % (diode current factor, from memory): the 30 A 100 V class passes its current check", () => {
+    const s = size();
+    expect(s.spec.devices.reverse_series_diode.id).toBe("diode-schottky-30a");
+    const ref = part(s, "D_SERIES")!.ref;
+    expect(s.checks.find((x) => x.ref === ref && x.quantity === "current")?.verdict).not.toBe("fail");
+  });
+  it("a 10 A class bound by the record (10 A × 50 % < 12.25 A): not feasible, with the reason", () => {
+    const s = size({
+      override: { timing_npn: NPN_HIGH_GAIN, reverse_series_diode: library().get("diode-schottky-10a")! },
+    });
     expect(s.spec.devices.reverse_series_diode.id).toBe("diode-schottky-10a");
     expect(s.feasible).toBe(false);
     expect(s.problems.find((p) => p.rule === "series-reverse-limits")?.message).toContain("P-MOSFET");
