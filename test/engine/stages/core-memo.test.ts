@@ -29,6 +29,15 @@ const sample: SpecOpts[] = [
   { supply_V: 12, chain: "bjt-driver-pnp", load_kind: "lamp", pwm_Hz: 1000, load_A: 0.5 },
 ];
 
+/** A sample variant's context, its searched core values, and its timing transistor and base diode classes. */
+function sized(o: SpecOpts) {
+  const spec = makeSpec(o);
+  const ctx = makeContext(spec);
+  const plan = CHAIN_PLANNERS[spec.chain](ctx);
+  const v = tapAndTiming(ctx, plan).timing.values;
+  return { ctx, v, q: spec.devices.timing_npn as BjtClass, db: spec.devices.signal_diode as DiodeClass };
+}
+
 const name = (o: SpecOpts): string => `${o.supply_V} V ${o.chain} ${o.load_kind} ${o.pwm_Hz} Hz`;
 
 describe("kept core evaluations equal the direct ones", () => {
@@ -43,12 +52,7 @@ describe("kept core evaluations equal the direct ones", () => {
   });
 
   it.each(sample.map((o) => [name(o), o] as const))("%s: every set corner, asked twice", (_n, o) => {
-    const spec = makeSpec(o);
-    const ctx = makeContext(spec);
-    const plan = CHAIN_PLANNERS[spec.chain](ctx);
-    const v = tapAndTiming(ctx, plan).timing.values;
-    const q = spec.devices.timing_npn as BjtClass;
-    const db = spec.devices.signal_diode as DiodeClass;
+    const { ctx, v, q, db } = sized(o);
     const sets = envelopeCorners(envelopeOf(ctx));
     withCoreMemo(() => {
       for (const set of Object.values(sets))
@@ -66,12 +70,7 @@ describe("kept core evaluations equal the direct ones", () => {
   });
 
   it.each(sample.map((o) => [name(o), o] as const))("%s: kept prefixes, in set order and shuffled", (_n, o) => {
-    const spec = makeSpec(o);
-    const ctx = makeContext(spec);
-    const plan = CHAIN_PLANNERS[spec.chain](ctx);
-    const v = tapAndTiming(ctx, plan).timing.values;
-    const q = spec.devices.timing_npn as BjtClass;
-    const db = spec.devices.signal_diode as DiodeClass;
+    const { ctx, v, q, db } = sized(o);
     const asked = Object.values(envelopeCorners(envelopeOf(ctx))).flatMap((set) =>
       set.flatMap((k) => [0, 0.5, 1].map((ctrl) => [k, ctrl] as const)),
     );
@@ -83,12 +82,7 @@ describe("kept core evaluations equal the direct ones", () => {
 
   it("values that differ in one property, or in a device class, get their own answers", () => {
     const o = sample[0]!;
-    const spec = makeSpec(o);
-    const ctx = makeContext(spec);
-    const plan = CHAIN_PLANNERS[spec.chain](ctx);
-    const v = tapAndTiming(ctx, plan).timing.values;
-    const q = spec.devices.timing_npn as BjtClass;
-    const db = spec.devices.signal_diode as DiodeClass;
+    const { ctx, v, q, db } = sized(o);
     const k = envelopeCorners(envelopeOf(ctx)).dMinHi[5]!;
     const variants = [
       v,
