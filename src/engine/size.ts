@@ -547,6 +547,13 @@ function sizeChosen(chosen: CoreChoice): SizedVariant {
   const verdict = decideVerdict({ checks, problems, conditions, lead: verdictLead(ctx) });
   // The generic hot-surface line stays for heatsinked parts; free-standing ones get their case temperature.
   const hot = thermal.heatsink.needed;
+  // Power diodes the protection stage puts on a heatsink (freewheel, series reverse) get the same caution.
+  const sunkDiodes = prot.conditions
+    .filter((c) => c.rule === "heatsink")
+    .flatMap((c) => {
+      const role = /^\/parts\/(.+)$/.exec(c.path)?.[1];
+      return role === undefined ? [] : [toRef(role)];
+    });
   const out: SizedVariant = {
     spec,
     verdict,
@@ -556,7 +563,7 @@ function sizeChosen(chosen: CoreChoice): SizedVariant {
     checks,
     heatsink: thermal.heatsink,
     circuit,
-    cautions: [...cautions(ctx, hot), ...reviewed.cautions],
+    cautions: [...cautions(ctx, hot, sunkDiodes), ...reviewed.cautions],
     decisions: [
       ...designDecisions(
         spec,

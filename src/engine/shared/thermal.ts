@@ -66,6 +66,50 @@ export function rthCsFor_KperW(pkg: string): number {
   return RTH_CS_KperW_BY_PACKAGE[pkg] ?? 1.0;
 }
 
+/** Packages a heatsink can be bolted to (common practice). */
+const SINKABLE_PACKAGES: ReadonlySet<string> = new Set(["TO-220", "TO-3", "TO-126", "TO-247"]);
+
+/** What a part over its junction limit free-standing gets on the largest heatsink that holds it. */
+export interface SinkSizing {
+  /** The package takes a heatsink and its θ_JC is known. */
+  canSink: boolean;
+  /** Largest θ_SA that holds the limit (−1 when the package cannot take a heatsink). */
+  rSa_KperW: number;
+  /** The same rounded down to 0.1 K/W, as the page shows it (never below 0). */
+  shown_KperW: number;
+  /** T_J on the heatsink the page names, so a check lands at or below the limit, not on it within rounding. */
+  tjSink_C: number;
+  /** A heatsink is possible and no smaller than the design accepts (targets.heatsink_min_KperW). */
+  ok: boolean;
+}
+
+/**
+ * The heatsink for a part dissipating `p_W` that must stay at or below `limit_C` at ambient `ta_C`
+ * (θ_SA from `heatsinkMax_KperW`, θ_CS by package); `minSa_KperW` is the smallest θ_SA the design
+ * accepts. One definition for the power device and the power diodes.
+ */
+export function sinkSizing(
+  dev: { package: string; rth_jc_KperW?: number },
+  p_W: number,
+  limit_C: number,
+  ta_C: number,
+  minSa_KperW: number,
+): SinkSizing {
+  const rJc = dev.rth_jc_KperW;
+  if (!SINKABLE_PACKAGES.has(dev.package) || rJc === undefined)
+    return { canSink: false, rSa_KperW: -1, shown_KperW: 0, tjSink_C: NaN, ok: false };
+  const rCs = rthCsFor_KperW(dev.package);
+  const rSa = heatsinkMax_KperW(limit_C, ta_C, p_W, rJc, rCs);
+  const shown = Math.max(Math.floor(rSa * 10) / 10, 0);
+  return {
+    canSink: true,
+    rSa_KperW: rSa,
+    shown_KperW: shown,
+    tjSink_C: junctionTemp_C(ta_C, p_W, rJc + rCs + shown),
+    ok: rSa >= minSa_KperW,
+  };
+}
+
 /**
  * Power rating at temperature t_C (ambient when ptot_at = "ambient", case when "case"):
  * linear derating from P_tot at the data sheet's reference temperature (NOMINAL_TEMP_C, 25 °C) to

@@ -10,11 +10,8 @@ import type { StressCheck } from "../../model/derating.ts";
 import type { PartRole } from "../../model/part-roles.ts";
 import type { VerdictCondition } from "../../model/sized.ts";
 import { checkTj, tjLimit_C } from "../shared/derating.ts";
-import { heatsinkMax_KperW, junctionTemp_C, rthCsFor_KperW } from "../shared/thermal.ts";
+import { junctionTemp_C, sinkSizing } from "../shared/thermal.ts";
 import type { Ctx } from "./context.ts";
-
-/** Packages a heatsink can be bolted to (as the thermal stage; common practice). */
-const SINKABLE = new Set(["TO-220", "TO-3", "TO-126", "TO-247"]);
 
 /**
  * The junction check of `role` dissipating `p_W`, with its heatsink condition when it needs one;
@@ -31,14 +28,11 @@ export function diodeJunction(
   const ta = ctx.taMax_C;
   const tj = junctionTemp_C(ta, p_W, dev.rth_ja_KperW);
   const limit = tjLimit_C(pol, "diode", dev.tj_max_C);
-  const rJc = dev.rth_jc_KperW;
-  if (tj <= limit || !SINKABLE.has(dev.package) || rJc === undefined)
-    return { check: checkTj(role, tj, dev.tj_max_C, pol, "diode"), tj_C: tj };
-  const rCs = rthCsFor_KperW(dev.package);
-  const rSa = heatsinkMax_KperW(limit, ta, p_W, rJc, rCs);
-  const shown = Math.max(Math.floor(rSa * 10) / 10, 0);
-  const ok = rSa >= ctx.spec.targets.heatsink_min_KperW;
-  const c = checkTj(role, ok ? junctionTemp_C(ta, p_W, rJc + rCs + shown) : tj, dev.tj_max_C, pol, "diode");
+  if (tj <= limit) return { check: checkTj(role, tj, dev.tj_max_C, pol, "diode"), tj_C: tj };
+  const sink = sinkSizing(dev, p_W, limit, ta, ctx.spec.targets.heatsink_min_KperW);
+  if (!sink.canSink) return { check: checkTj(role, tj, dev.tj_max_C, pol, "diode"), tj_C: tj };
+  const { ok, shown_KperW: shown } = sink;
+  const c = checkTj(role, ok ? sink.tjSink_C : tj, dev.tj_max_C, pol, "diode");
   if (!ok) return { check: c, tj_C: tj };
   return {
     check: { ...c, condition: `on a heatsink of ≤ ${shown.toFixed(1)} K/W` },

@@ -56,17 +56,28 @@ export function verdictLead(ctx: Ctx): string {
   return `${CHAIN_TITLE[ctx.spec.chain]} at ${ctx.iNom_A} A, ${ctx.vNom_V} V`;
 }
 
-export function cautions(ctx: Ctx, hot: boolean): string[] {
+/**
+ * The cautions every variant carries, by what it has: `hot` when the power device needs a heatsink,
+ * `sunkDiodes` the reference designators of power diodes that hold their junction limit only on a
+ * heatsink (the freewheel or series reverse diode of a heavy load), named so the builder knows which
+ * parts burn on touch.
+ */
+export function cautions(ctx: Ctx, hot: boolean, sunkDiodes: readonly string[] = []): string[] {
   const out = [
     "Low-voltage DC only. Build and install to local codes and licensed practice; this is a reviewed design, " +
       "not a certified product.",
     "Battery-backed supply: a short can deliver hundreds of amperes. Fit the fuse at the battery and use wire " +
       "rated for the fuse.",
   ];
-  if (hot)
+  const diodes = sunkDiodes.join(", ");
+  const which = !hot
+    ? `${diodes} and ${sunkDiodes.length > 1 ? "their heatsinks" : "its heatsink"}`
+    : sunkDiodes.length > 0
+      ? `the power device, ${diodes} and their heatsinks`
+      : "the power device and its heatsink";
+  if (hot || sunkDiodes.length > 0)
     out.push(
-      "Hot surfaces: the power device and its heatsink can exceed 60 °C — burn and fire risk; keep clear of " +
-        "plastics and plant material.",
+      `Hot surfaces: ${which} can exceed 60 °C — burn and fire risk; keep clear of ` + "plastics and plant material.",
     );
   if (ctx.load.inductive) {
     out.push(

@@ -12,7 +12,7 @@ import type { HeatsinkVerdict, VerdictCondition } from "../../model/sized.ts";
 import type { PartRole } from "../../model/part-roles.ts";
 import { checkTj, tjLimit_C } from "../shared/derating.ts";
 import { figure, problem } from "../shared/figures.ts";
-import { heatsinkMax_KperW, junctionTemp_C, powerRatingAt_W, rthCsFor_KperW } from "../shared/thermal.ts";
+import { junctionTemp_C, powerRatingAt_W, sinkSizing } from "../shared/thermal.ts";
 import { checkStress } from "../shared/derating.ts";
 import type { Ctx } from "./context.ts";
 import type { DeviceLoss } from "./chains/types.ts";
@@ -30,9 +30,6 @@ export interface ThermalResult {
 
 /** What a MOSFET chain's heatsink refusal advises (a MOSFET chain already is one). */
 const LOWER_RDS_ADVICE = "Use a MOSFET class of lower R_DS(on), or split the load.";
-
-/** Packages a heatsink can be bolted to (common practice). */
-const SINKABLE = new Set(["TO-220", "TO-3", "TO-126", "TO-247"]);
 
 export function thermalStage(ctx: Ctx, losses: DeviceLoss[]): ThermalResult {
   const pol = ctx.spec.policy;
@@ -79,15 +76,10 @@ export function thermalStage(ctx: Ctx, losses: DeviceLoss[]): ThermalResult {
         checks.push(checkStress(l.role, "power", l.p_W, pRate, "W", pol[l.family].power, pol.marginal_above));
       continue;
     }
-    const rJc = l.dev.rth_jc_KperW;
-    const canSink = SINKABLE.has(l.dev.package) && rJc !== undefined;
-    const rSa = canSink ? heatsinkMax_KperW(limit, ta, l.p_W, rJc, rthCsFor_KperW(l.dev.package)) : -1;
-    // T_J on the heatsink the page names (R_θSA rounded down to 0.1 K/W, as shown), so the check
-    // lands at or below the limit rather than on it within rounding.
-    const rSaShown = Math.max(Math.floor(rSa * 10) / 10, 0);
-    const tjSink = canSink ? junctionTemp_C(ta, l.p_W, rJc + rthCsFor_KperW(l.dev.package) + rSaShown) : tj;
     const minOk = ctx.spec.targets.heatsink_min_KperW;
-    const sinkOk = canSink && rSa >= minOk;
+    const sink = sinkSizing(l.dev, l.p_W, limit, ta, minOk);
+    const { canSink, rSa_KperW: rSa, shown_KperW: rSaShown, ok: sinkOk } = sink;
+    const tjSink = canSink ? sink.tjSink_C : tj;
     // The check is computed under the condition that makes it hold (the heatsink), and says so.
     const tjCheck = checkTj(l.role, sinkOk ? tjSink : tj, l.dev.tj_max_C, pol, l.family);
     checks.push(sinkOk ? { ...tjCheck, condition: `on a heatsink of ≤ ${rSaShown.toFixed(1)} K/W` } : tjCheck);

@@ -5,6 +5,7 @@ import {
   heatsinkMax_KperW,
   junctionTemp_C,
   powerRatingAt_W,
+  sinkSizing,
 } from "../../../src/engine/shared/thermal.ts";
 import { expectClose } from "../../helpers/close.ts";
 import { bjt } from "../devices/read-library.ts";
@@ -64,5 +65,32 @@ describe("power rating derated linearly above 25 °C", () => {
     expect(powerRatingAt_W(115, "case", 200, 0)).toBe(115);
     expect(powerRatingAt_W(115, "case", 200, 200)).toBe(0);
     expect(powerRatingAt_W(115, "case", 200, 250)).toBe(0);
+  });
+});
+
+// θ_CS with grease from memory (TO-220 0.5 K/W).
+describe("heatsink for a part over its limit (JESD51 series chain)", () => {
+  it("TO-220, θ_JC 1.5 K/W, 10 W, limit 110 °C at 40 °C: θ_SA ≤ 70/10 − 1.5 − 0.5 = 5.0 K/W (hand arithmetic)", () => {
+    const s = sinkSizing({ package: "TO-220", rth_jc_KperW: 1.5 }, 10, 110, 40, 1);
+    expect(s.canSink).toBe(true);
+    expectClose(s.rSa_KperW, 5.0, 1e-12);
+    expect(s.shown_KperW).toBe(5.0);
+    // On the named heatsink the junction lands on the limit: 40 + 10·(1.5 + 0.5 + 5.0) = 110 °C.
+    expectClose(s.tjSink_C, 110, 1e-9);
+    expect(s.ok).toBe(true);
+  });
+  it("rounds the shown θ_SA down to 0.1 K/W, so T_J on it stays at or below the limit", () => {
+    // 7 W: 70/7 − 2 = 8 K/W exactly; 6.9 W: 70/6.9 − 2 = 8.1449… → 8.1 K/W, T_J = 40 + 6.9·10.1 = 109.69 °C.
+    const s = sinkSizing({ package: "TO-220", rth_jc_KperW: 1.5 }, 6.9, 110, 40, 1);
+    expect(s.shown_KperW).toBe(8.1);
+    expectClose(s.tjSink_C, 109.69, 1e-9);
+    expect(s.tjSink_C).toBeLessThanOrEqual(110);
+  });
+  it("is not ok below the smallest θ_SA the design accepts, and impossible for a package without a tab", () => {
+    expect(sinkSizing({ package: "TO-220", rth_jc_KperW: 1.5 }, 10, 110, 40, 6).ok).toBe(false);
+    const none = sinkSizing({ package: "TO-92" }, 1, 110, 40, 1);
+    expect(none.canSink).toBe(false);
+    expect(none.ok).toBe(false);
+    expect(sinkSizing({ package: "TO-220" }, 1, 110, 40, 1).canSink).toBe(false); // θ_JC unknown
   });
 });

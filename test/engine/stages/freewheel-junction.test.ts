@@ -44,4 +44,15 @@ describe("12 V, 10 A motor on the logic-level MOSFET: the 30 A Schottky freewhee
     expect(c.verdict).not.toBe("fail");
     expect(s.verdict.conditions.some((x) => x.path === `/parts/${fw.ref}` && x.rule === "heatsink")).toBe(true);
   });
+  it("and the hot-surface caution names it beside the power device (burns on touch; common practice)", () => {
+    const hot = s.cautions.filter((c) => c.startsWith("Hot surfaces"));
+    expect(hot).toHaveLength(1);
+    expect(hot[0]).toContain(fw.ref);
+    // The MOSFET itself needs a heatsink at 10 A too (its own condition), and so does the series reverse
+    // diode at 11 A: every part on a heatsink is named, in the order of the verdict's conditions.
+    expect(s.heatsink.needed).toBe(true);
+    const series = s.circuit!.parts.find((p) => p.role === "D_SERIES")!;
+    expect(s.verdict.conditions.some((x) => x.path === `/parts/${series.ref}` && x.rule === "heatsink")).toBe(true);
+    expect(hot[0]).toContain(`the power device, ${series.ref}, ${fw.ref} and their heatsinks`);
+  });
 });
