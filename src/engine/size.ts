@@ -39,6 +39,7 @@ import { thermalStage } from "./stages/thermal.ts";
 import { reviewFailures } from "./stages/failure-modes.ts";
 import { protectionStage } from "./stages/protection.ts";
 import { seriesLoss_W } from "./stages/series-reverse.ts";
+import { switchSteps } from "./stages/switch-step.ts";
 import { cautions, checkProblems, verdictLead } from "./stages/feasibility.ts";
 import { decideVerdict } from "./stages/verdict.ts";
 import {
@@ -54,6 +55,17 @@ import { type PullInTimer, designPullInTimer } from "./stages/pull-in-timer.ts";
 import { type ControlEnds, controlEnds, dutyReach } from "./stages/end-contacts.ts";
 
 export function sizeVariant(spec: VariantSpec): SizedVariant {
+  const out = sizeOnce(spec);
+  if (out.feasible) return out;
+  // The switch stepped up under stress (stages/switch-step.ts): kept only when feasible.
+  for (const stepped of switchSteps(spec, out)) {
+    const alt = sizeOnce(stepped);
+    if (alt.feasible) return alt;
+  }
+  return out;
+}
+
+function sizeOnce(spec: VariantSpec): SizedVariant {
   try {
     // The core's evaluations are kept for this variant only (core-model.ts withCoreMemo).
     return withCoreMemo(() => sizeInner(spec));

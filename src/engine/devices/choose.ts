@@ -76,11 +76,18 @@ export const RAISED_DEVICE_IDS: Readonly<Partial<Record<DeviceRole, readonly str
 /**
  * Classes the engine steps a role up to under stress while it sizes a variant, never chosen here: the
  * low-capacitance switching diode for the timing core's signal diodes, taken only where no core passes
- * with the ordinary class (size.ts, docs/method.md "Low-capacitance base diodes"). A record that binds
- * the role keeps its class.
+ * with the ordinary class (size.ts, docs/method.md "Low-capacitance base diodes"), and the low-R_DS(on)
+ * MOSFET classes, taken only where the variant is refused with its own switch and passes with one of
+ * them (stages/switch-step.ts, docs/method.md "Power classes by stress"). A record that binds the role
+ * keeps its class.
  */
 export const STRESS_DEVICE_IDS: Readonly<Partial<Record<DeviceRole, readonly string[]>>> = {
   signal_diode: ["diode-signal-lowcap"],
+  // The MOSFET chains' switch where the ordinary classes are refused for heat, the start-up peak or
+  // the drop (stages/switch-step.ts; kept only when the variant then passes): a low-R_DS(on) 60 V
+  // logic-level class, and for the gate driver also a 100 V standard-gate one (36–48 V).
+  mosfet_logic: ["nmos-logic-low-rds"],
+  mosfet_standard: ["nmos-standard-100v-low-rds"],
 };
 
 /** The classes of STRESS_DEVICE_IDS present in the library, for the roles the record does not bind. */

@@ -44,6 +44,7 @@ import {
 import { cite, deviceSource } from "../shared/sources.ts";
 import { capacitor, diode } from "../../circuit/parts.ts";
 import type { Ctx } from "./context.ts";
+import { stepClasses } from "./switch-step.ts";
 import type { LoadModel } from "../shared/loads.ts";
 import type { VariantSpec } from "../../model/variant.ts";
 import { capRating_V } from "./timing-parts.ts";
@@ -528,6 +529,24 @@ function peakProblem(
   const rating = pulseRating_A(power.dev);
   if (!(peak_A > rating * (1 + 1e-9))) return;
   const bound = ctx.spec.deviceReasons?.[roleOfSwitch(ctx)] === "bound by the design record";
+  // A stress class that covers the peak was tried and left out (stages/switch-step.ts): say so.
+  const stepped = stepClasses(ctx.spec).find((d) => pulseRating_A(d) >= peak_A);
+  if (!bound && stepped !== undefined && stepped.id !== power.dev.id) {
+    problems.push(
+      problem(
+        "protection",
+        `/parts/${power.role}`,
+        "peak-above-pulse-rating",
+        "error",
+        `The load's start-up peak (${what}) reaches ${peak_A.toPrecision(3)} A at ` +
+          `${ctx.vMax_V.toPrecision(3)} V, above the ${rating.toPrecision(3)} A pulse rating of ${power.dev.title}. ` +
+          `${stepped.title} (pulse rating ${pulseRating_A(stepped).toPrecision(3)} A) covers it, but the variant ` +
+          `does not pass every other check with it either (see the other problems), so it is not taken.`,
+        { limit: rating, actual: peak_A, unit: "A" },
+      ),
+    );
+    return;
+  }
   problems.push(
     problem(
       "protection",

@@ -42,6 +42,8 @@ export function thermalStage(ctx: Ctx, losses: DeviceLoss[]): ThermalResult {
   let heatsink: HeatsinkVerdict = { needed: false, text: "no heatsink needed" };
   let worstMargin = Infinity;
   for (const l of losses) {
+    // No channel (the gate below V_th,max): the chain refuses; its stand-in loss is no dissipation.
+    if (l.noChannel === true) continue;
     const tj = junctionTemp_C(ta, l.p_W, l.dev.rth_ja_KperW);
     const limit = tjLimit_C(pol, l.family, l.dev.tj_max_C);
     perRole.set(l.role, { p_W: l.p_W, tj_C: tj });

@@ -36,6 +36,9 @@ import {
   rdsOnHotFigure,
   lowSideMosfet,
   transitionFigures,
+  noChannel,
+  channelFigures,
+  gateBelowThreshold,
 } from "./mosfet-common.ts";
 import { recoveringTurnOn } from "./gate-recovery.ts";
 import type { ChainPlan, TapInfo } from "./types.ts";
@@ -287,6 +290,11 @@ export function planGateBuffer(ctx: Ctx, why: string): ChainPlan {
       const vOffHot = bufferedOffLevel_V(vLow, qlo, ctx.taMax_C);
       const vthHot = vthMinAt_V(dev, ctx.taMax_C);
       const problems = [];
+      // No channel at the gate reached (mosfet-common.ts noChannel): refused by name, no stand-in loss shown.
+      if (noChannel(dev, vgMin))
+        problems.push(
+          gateBelowThreshold(dev, vgMin, "Use a MOSFET class rated at a lower gate voltage, or a higher supply."),
+        );
       if (!(vOffHot < vthHot))
         problems.push(
           problem(
@@ -338,6 +346,7 @@ export function planGateBuffer(ctx: Ctx, why: string): ChainPlan {
             pSw_W: pSw,
             p_W: pCond + pSw,
             isPower: true,
+            ...(noChannel(dev, vgMin) ? { noChannel: true as const } : {}),
             tNom_s: {
               on: tOnNom,
               off: nom.tOff,
@@ -358,7 +367,7 @@ export function planGateBuffer(ctx: Ctx, why: string): ChainPlan {
             "(push-pull follower, Horowitz & Hill, ch. 2)",
         },
         figures: [
-          rdsOnHotFigure(dev, r, vgMin),
+          ...channelFigures([rdsOnHotFigure(dev, r, vgMin)], dev, vgMin),
           figure(
             "gate_voltage_min",
             "Gate voltage, worst case low",
@@ -402,14 +411,18 @@ export function planGateBuffer(ctx: Ctx, why: string): ChainPlan {
             "t_on = Q_G·((R_C/(β+1) + R_G) ∥ R_GS)/(V_GS − V_plateau)",
             "t_off = Q_G·(R_G ∥ R_GS)/(V_plateau − V_off)",
           ),
-          ...lossFigures(ctx, {
-            conductionLabel: "Conduction loss, power device",
-            conduction_W: pCond,
-            conductionFormula: "P = I_D,max² · R_DS(on),hot · D_max",
-            switchingLabel: "Switching loss, power device",
-            switching_W: pSw,
-            transitions: "t_on + t_off",
-          }),
+          ...channelFigures(
+            lossFigures(ctx, {
+              conductionLabel: "Conduction loss, power device",
+              conduction_W: pCond,
+              conductionFormula: "P = I_D,max² · R_DS(on),hot · D_max",
+              switchingLabel: "Switching loss, power device",
+              switching_W: pSw,
+              transitions: "t_on + t_off",
+            }),
+            dev,
+            vgMin,
+          ),
         ],
       };
     },

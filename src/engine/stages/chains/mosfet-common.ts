@@ -8,7 +8,8 @@ import type { MosfetClass } from "../../../model/device.ts";
 import type { Figure } from "../../../model/figure.ts";
 import type { Part } from "../../../model/circuit.ts";
 import { transistor } from "../../../circuit/parts.ts";
-import { figure } from "../../shared/figures.ts";
+import type { DesignProblem } from "../../../model/problem.ts";
+import { figure, problem } from "../../shared/figures.ts";
 import type { Ctx } from "../context.ts";
 import { switchOffVoltage_V } from "./common.ts";
 import { deviceSource } from "../../shared/sources.ts";
@@ -99,6 +100,35 @@ export function rdsOnHotFigure(dev: MosfetClass, rdsHot_ohm: number, vgsMin_V: n
     "chain",
     "R_DS(on),max(V_GS,min) × hot factor (the value the conduction loss uses)",
     deviceSource(dev, "rds_on_hot_factor"),
+  );
+}
+
+/**
+ * Whether a worst-case part has no channel at this gate voltage: at or below V_th,max it does not turn
+ * on, and R_DS(on) (rdson.ts's 1000 × stand-in) with its conduction loss has no meaning there.
+ */
+export function noChannel(dev: MosfetClass, vgsMin_V: number): boolean {
+  return vgsMin_V <= dev.vgs_th_V.max;
+}
+
+/** Figures that hang on R_DS(on) at the gate voltage reached: left out where the part has no channel. */
+const CHANNEL_FIGURE_KEYS: ReadonlySet<string> = new Set(["rds_on_hot", "conduction_loss"]);
+
+/** `figs` without the R_DS(on) and conduction-loss figures when the gate does not clear V_th,max. */
+export function channelFigures(figs: Figure[], dev: MosfetClass, vgsMin_V: number): Figure[] {
+  return noChannel(dev, vgsMin_V) ? figs.filter((f) => !CHANNEL_FIGURE_KEYS.has(f.key)) : figs;
+}
+
+/** The refusal of a gate that does not clear the worst-case threshold, naming both voltages. */
+export function gateBelowThreshold(dev: MosfetClass, vgsMin_V: number, remedy: string): DesignProblem {
+  return problem(
+    "chain",
+    "/parts/Q_POWER",
+    "gate-below-threshold",
+    "error",
+    `The gate reaches only ${vgsMin_V.toFixed(2)} V at minimum supply, not above the MOSFET's worst-case ` +
+      `threshold of ${dev.vgs_th_V.max} V: a worst-case part would not turn on. ${remedy}`,
+    { limit: dev.vgs_th_V.max, actual: vgsMin_V, unit: "V" },
   );
 }
 

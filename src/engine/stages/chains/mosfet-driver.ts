@@ -30,6 +30,9 @@ import {
   rdsOnHotFigure,
   lowSideMosfet,
   transitionFigures,
+  noChannel,
+  channelFigures,
+  gateBelowThreshold,
 } from "./mosfet-common.ts";
 import { releasedTurnOnEquivalent_s } from "./gate-release.ts";
 import type { ChainPlan } from "./types.ts";
@@ -110,17 +113,13 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
   const problems = [];
   // At or below the worst-case threshold a worst-case part does not turn on at all: R_DS(on) has no
   // meaning there (rdson.ts puts 1000 × the rated value), so the chain cannot switch the load.
-  if (vgsMin <= mos.vgs_th_V.max)
+  if (noChannel(mos, vgsMin))
     problems.push(
-      problem(
-        "chain",
-        "/parts/Q_POWER",
-        "gate-below-threshold",
-        "error",
-        `The gate reaches only ${vgsMin.toFixed(2)} V at minimum supply, not above the MOSFET's worst-case ` +
-          `threshold of ${mos.vgs_th_V.max} V: a worst-case part would not turn on. Use a logic-level MOSFET class ` +
-          `(the engine takes one when the record leaves the class open), or a higher supply.`,
-        { limit: mos.vgs_th_V.max, actual: vgsMin, unit: "V" },
+      gateBelowThreshold(
+        mos,
+        vgsMin,
+        "Use a logic-level MOSFET class (the engine takes one when the record leaves the class open), " +
+          "or a higher supply.",
       ),
     );
   else if (vgsMin < vNeed)
@@ -163,7 +162,7 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
         [vgsMin, vgsMax],
       ),
       ...transitionFigures(t, "t_on = Q_G·(R_G + R_P/β_HI)/(V_GS − V_plateau)", "t_off = Q_G·R_G/V_plateau"),
-      rdsOnHotFigure(mos, rds, vgsMin),
+      ...channelFigures([rdsOnHotFigure(mos, rds, vgsMin)], mos, vgsMin),
     ],
     problems,
     checks: [
@@ -302,6 +301,7 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
             p_W: pCond + pSw,
             isPower: true,
             tNom_s: { on: tNom.tOn_s, off: tOffNom_s },
+            ...(noChannel(mos, vgsMin) ? { noChannel: true as const } : {}),
           },
         ],
         figures: [
@@ -316,15 +316,19 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
             useZener ? "device-class-typical" : "derived",
             [railMin, railMax],
           ),
-          ...lossFigures(ctx, {
-            conductionLabel: "Conduction loss, power device",
-            conduction_W: pCond,
-            conductionFormula: "P = I_D,max² · R_DS(on),hot · D_max",
-            switchingLabel: "Switching loss, power device",
-            switching_W: pSw,
-            transitions: "t_on + t_off",
-            transitionsNote: "t_on: driver release (gate-release.ts), t_off: 2·Q_pl/I_sink",
-          }),
+          ...channelFigures(
+            lossFigures(ctx, {
+              conductionLabel: "Conduction loss, power device",
+              conduction_W: pCond,
+              conductionFormula: "P = I_D,max² · R_DS(on),hot · D_max",
+              switchingLabel: "Switching loss, power device",
+              switching_W: pSw,
+              transitions: "t_on + t_off",
+              transitionsNote: "t_on: driver release (gate-release.ts), t_off: 2·Q_pl/I_sink",
+            }),
+            mos,
+            vgsMin,
+          ),
         ],
       };
     },

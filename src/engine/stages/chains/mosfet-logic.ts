@@ -22,6 +22,9 @@ import {
   rdsOnHotFigure,
   lowSideMosfet,
   transitionFigures,
+  noChannel,
+  channelFigures,
+  gateBelowThreshold,
 } from "./mosfet-common.ts";
 import { recoveringTurnOn, saturatedTurnOff_s, sinkLimitedTurnOff_s } from "./gate-recovery.ts";
 import type { ChainPlan } from "./types.ts";
@@ -152,7 +155,18 @@ export function planMosfetLogic(ctx: Ctx): ChainPlan {
         ctx.switching,
       );
       const problems = [];
-      if (vgMin < vNeed)
+      // At or below V_th,max a worst-case part has no channel (mosfet-common.ts noChannel): a refusal
+      // naming the gate voltage, never a dissipation from the stand-in R_DS(on).
+      if (noChannel(dev, vgMin))
+        problems.push(
+          gateBelowThreshold(
+            dev,
+            vgMin,
+            "The gate network holds no V_GS window at this supply; use a MOSFET class rated at a lower gate " +
+              "voltage, the MOSFET gate-driver chain, or a higher supply.",
+          ),
+        );
+      else if (vgMin < vNeed)
         problems.push(
           problem(
             "chain",
@@ -179,6 +193,7 @@ export function planMosfetLogic(ctx: Ctx): ChainPlan {
             pSw_W: pSw,
             p_W: pCond + pSw,
             isPower: true,
+            ...(noChannel(dev, vgMin) ? { noChannel: true as const } : {}),
             tNom_s: {
               on: tNom.tOn_s,
               off: tNom.tOff_s,
@@ -186,28 +201,32 @@ export function planMosfetLogic(ctx: Ctx): ChainPlan {
             },
           },
         ],
-        figures: [
-          rdsOnHotFigure(dev, r, vgMin),
-          figure(
-            "gate_voltage_min",
-            "Gate voltage, worst case low",
-            vgMin,
-            "V",
-            "chain",
-            "V_GS = V_C,high · R_GS/(R_G + R_GS), min supply, tolerances",
-            "derived",
-            [vgMin, vgMax],
-          ),
-          ...transitionFigures(t, "t_on = Q_G·R_src/(V_GS − V_plateau)", "t_off = Q_G·R_sink/V_plateau"),
-          ...lossFigures(ctx, {
-            conductionLabel: "Conduction loss, power device",
-            conduction_W: pCond,
-            conductionFormula: "P = I_D,max² · R_DS(on),hot · D_max",
-            switchingLabel: "Switching loss, power device",
-            switching_W: pSw,
-            transitions: "t_on + t_off",
-          }),
-        ],
+        figures: channelFigures(
+          [
+            rdsOnHotFigure(dev, r, vgMin),
+            figure(
+              "gate_voltage_min",
+              "Gate voltage, worst case low",
+              vgMin,
+              "V",
+              "chain",
+              "V_GS = V_C,high · R_GS/(R_G + R_GS), min supply, tolerances",
+              "derived",
+              [vgMin, vgMax],
+            ),
+            ...transitionFigures(t, "t_on = Q_G·R_src/(V_GS − V_plateau)", "t_off = Q_G·R_sink/V_plateau"),
+            ...lossFigures(ctx, {
+              conductionLabel: "Conduction loss, power device",
+              conduction_W: pCond,
+              conductionFormula: "P = I_D,max² · R_DS(on),hot · D_max",
+              switchingLabel: "Switching loss, power device",
+              switching_W: pSw,
+              transitions: "t_on + t_off",
+            }),
+          ],
+          dev,
+          vgMin,
+        ),
       };
     },
   };

@@ -33,6 +33,13 @@ export interface DeviceLoss {
   p_W: number;
   /** The device that switches the load (the one a heatsink verdict is about). */
   isPower: boolean;
+  /**
+   * The gate does not clear the worst-case threshold V_th,max at the lowest supply: a worst-case part
+   * has no channel, so p_W is no dissipation (rdson.ts's below-threshold stand-in only keeps the
+   * arithmetic finite). The chain refuses with `gate-below-threshold`; the thermal stage shows no
+   * dissipation, junction temperature or heatsink for it.
+   */
+  noChannel?: true;
 }
 
 /** What the tap stage built, as the chain needs to know it. */
