@@ -2,8 +2,8 @@
  * The timing core on a regulated rail (docs/method.md, "Regulated core rail"): at a high supply the
  * duty network's end stops must carry √2.26·V_cc,max/R_end in a short piece of the potentiometer's
  * track, which caps the reachable range; a designer runs the core from a local rail instead — a
- * series resistor and a zener (common practice; Horowitz & Hill, The Art of Electronics, 2nd ed.,
- * §2.04 "Zener regulator", from memory). The core then sees a low, steady supply whatever the
+ * series resistor, a zener and a capacitor across it (common practice
+ * [src:horowitz-hill-3e-zener-regulator]). The core then sees a low, steady supply whatever the
  * battery does, its transistors and potentiometer stay away from the high voltage, and the chain's
  * input (the logic MOSFET's gate through the collector resistor) is driven from the rail.
  * Offered by size.ts only where no core passes on the supply itself, so every design that passed
@@ -52,7 +52,10 @@ export function railOffers(spec: VariantSpec, ctx: Ctx): RailOffer[] {
   if (!RAIL_CHAINS.has(spec.chain) || spec.load_kind === "solenoid" || spec.targets.off_on_ends) return [];
   const chosenZ = spec.devices.gate_zener as ZenerClass | undefined;
   const stepZ = spec.stressClasses?.gate_zener as ZenerClass | undefined;
-  const zeners = [chosenZ, stepZ].filter((z): z is ZenerClass => z !== undefined && z.family === "zener");
+  const zeners = [chosenZ, stepZ].filter(
+    (z, k, all): z is ZenerClass =>
+      z !== undefined && z.family === "zener" && all.findIndex((y) => y?.id === z.id) === k,
+  );
   const timed = withCoreTransistor(spec);
   return zeners.flatMap((dz): RailOffer[] => {
     const w = zenerRailWindow(dz, spec.policy);

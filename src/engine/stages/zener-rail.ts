@@ -2,7 +2,7 @@
  * A zener rail fed through a series resistor (R_Z from the supply, D_Z to ground): the driven
  * MOSFET's gate rail (chains/mosfet-driver.ts) and the regulated rail the timing core runs from at a
  * high supply (docs/method.md, "Regulated core rail"). One sizing for both (common practice: the
- * shunt-zener regulator; Horowitz & Hill, The Art of Electronics, 2nd ed., §2.04, from memory):
+ * shunt-zener regulator [src:horowitz-hill-3e-zener-regulator]):
  *  - R_Z so that at the lowest supply, with the rail at its highest, the resistor still carries the
  *    rail's whole load plus the zener's knee current: R_Z ≤ (V_min − V_rail,max)/((I_load + I_knee)·(1 + tol));
  *  - the zener's worst current at the highest supply with no load at all (every milliampere the load
