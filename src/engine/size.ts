@@ -53,6 +53,18 @@ import { TIGHT_CAPS, tightCapsAllowed } from "./stages/timing-caps.ts";
 import { crossAllowed } from "./stages/cross-checks.ts";
 import { type PullInTimer, designPullInTimer } from "./stages/pull-in-timer.ts";
 import { type ControlEnds, controlEnds, dutyReach } from "./stages/end-contacts.ts";
+import {
+  coreRailLoad_A,
+  cornersOnSupply,
+  onRail,
+  railCap_F,
+  railCapPart,
+  railDecision,
+  railFigure,
+  type RailOffer,
+  railOffers,
+  railTimingCtx,
+} from "./stages/core-rail.ts";
 
 export function sizeVariant(spec: VariantSpec): SizedVariant {
   const out = sizeOnce(spec);
@@ -247,6 +259,8 @@ export interface CoreChoice {
   ctx: Ctx;
   plan: ChainPlan;
   core: ReturnType<typeof tapAndTiming>;
+  /** The core on a regulated rail (stages/core-rail.ts): its largest current there, and why it was chosen. */
+  rail?: { load_A: number; why: string; cap_F: number };
 }
 
 function coreOf(spec: VariantSpec, crossOffered = true): CoreChoice {
@@ -294,6 +308,35 @@ function steppedDiodes(first: CoreChoice): CoreChoice | null {
   return second.core.timing.search.passed ? second : null;
 }
 
+/**
+ * The timing core on a regulated zener rail (stages/core-rail.ts; docs/method.md, "Regulated core
+ * rail"): only where no core passes on the supply, with either diode class, so every variant that
+ * passed before keeps its design. The timing stages see the rail's window; the chain is planned on
+ * the supply with the rail known (its input levels come from the rail); the corners the verifier
+ * simulates run at the supply's ends, the rail following through its own parts.
+ */
+function railedCore(first: CoreChoice, offer: RailOffer): CoreChoice | null {
+  const ctx: Ctx = { ...makeContext(offer.spec), coreRail: offer.rail };
+  const timingCtx = railTimingCtx(ctx);
+  const plan = CHAIN_PLANNERS[offer.spec.chain](ctx);
+  const core = tapAndTiming(timingCtx, plan);
+  if (!core.timing.search.passed) return null;
+  const v = core.timing.values;
+  const coreParts = [...core.timing.parts, ...core.tap.parts];
+  const load_A = coreRailLoad_A(coreParts, {
+    railMax_V: offer.rail.max_V,
+    rTol: ctx.rTol,
+    rEndMin_ohm: Math.min(v.rEndA_ohm, v.rEndB_ohm),
+    cT_F: v.c_F * (1 + timingCtx.cTol),
+    fMax_Hz: core.timing.search.worst.f.hi,
+  });
+  if (load_A === null) return null;
+  const why = first.core.timing.problems.find((p) => p.severity === "error")?.rule ?? "duty-range-worst-case";
+  const timing = { ...core.timing, corners: cornersOnSupply(core.timing.corners, timingCtx, ctx) };
+  const cap_F = railCap_F(v.c_F * (1 + timingCtx.cTol), core.tap.follower !== undefined);
+  return { spec: offer.spec, ctx, plan, core: { ...core, timing }, rail: { load_A, why, cap_F } };
+}
+
 /** The variant's timing core: with its own classes, else with the signal diodes stepped up (above). */
 function chooseCore(specIn: VariantSpec): CoreChoice {
   const first = coreOf(specIn);
@@ -316,8 +359,20 @@ export function bufferedGateCore(chosen: CoreChoice): CoreChoice | null {
   return core.timing.search.passed ? { ...chosen, plan, core } : null;
 }
 
+/**
+ * The variant sized on its chosen core; where no core passes, on a regulated rail (railedCore), kept
+ * only when the variant it makes is feasible, so a refusal keeps its page as before.
+ */
 function sizeInner(specIn: VariantSpec): SizedVariant {
-  return sizeChosen(chooseCore(specIn));
+  const chosen = chooseCore(specIn);
+  const out = sizeChosen(chosen);
+  if (out.feasible || chosen.core.timing.search.passed) return out;
+  for (const offer of railOffers(chosen.spec, chosen.ctx)) {
+    const railed = railedCore(chosen, offer);
+    const alt = railed === null ? null : sizeChosen(railed);
+    if (alt?.feasible === true) return alt;
+  }
+  return out;
 }
 
 /**
@@ -347,12 +402,57 @@ function withGateBuffer(spec: VariantSpec): SizedVariant {
   }
 }
 
+/** The variant sized with its core on the regulated rail forced, where a core passes there (tests and measurements). */
+export function sizeWithCoreRail(spec: VariantSpec): SizedVariant | null {
+  return withCoreMemo(() => {
+    const first = coreOf(spec);
+    const offer = railOffers(spec, first.ctx)[0];
+    const railed = offer === undefined ? null : railedCore(first, offer);
+    return railed === null ? null : sizeChosen(railed);
+  });
+}
+
 /** The variant sized with the gate buffer forced, where a core passes with it (tests and measurements). */
 export function sizeWithGateBuffer(spec: VariantSpec): SizedVariant | null {
   return withCoreMemo(() => {
     const buffered = bufferedGateCore(coreOf(spec));
     return buffered === null ? null : sizeChosen(buffered);
   });
+}
+
+/** The chain's operating point's share of a regulated core rail: the core's current there. */
+function railOp(chosen: CoreChoice): { railLoad_A?: number } {
+  return chosen.rail === undefined ? {} : { railLoad_A: chosen.rail.load_A };
+}
+
+/**
+ * What a regulated core rail (stages/core-rail.ts) adds to a sized variant: the core's parts moved
+ * onto it, its capacitor with its check, its figure and decision, and the core's supply current (R_Z's
+ * at the highest supply; without a rail the collector resistor's, as before).
+ */
+function railPieces(chosen: CoreChoice, finParts: Part[], timing: TimingResult) {
+  const { ctx, rail } = chosen;
+  const r = ctx.coreRail;
+  const plain = ctx.vMax_V / timing.values.rC_ohm;
+  if (rail === undefined || r === undefined)
+    return {
+      moved: (ps: Part[]) => ps,
+      parts: [] as Part[],
+      checks: [] as StressCheck[],
+      figures: [] as Figure[],
+      coreCurrent_A: plain,
+      decisions: (_toRef: (role: string) => string) => [] as ReturnType<typeof railDecision>[],
+    };
+  const rZ = finParts.find((p) => p.role === "RZ");
+  const cap = railCapPart(ctx, r, rail.cap_F);
+  return {
+    moved: onRail,
+    parts: [cap.part],
+    checks: cap.checks,
+    figures: [railFigure(r)],
+    coreCurrent_A: rZ === undefined ? plain : (ctx.vMax_V - r.min_V) / (rZ.value * (1 - ctx.rTol)),
+    decisions: (toRef: (role: string) => string) => [railDecision(r, ["RZ", "DZ", "C_RAIL"].map(toRef), rail.why)],
+  };
 }
 
 function sizeChosen(chosen: CoreChoice): SizedVariant {
@@ -366,7 +466,9 @@ function sizeChosen(chosen: CoreChoice): SizedVariant {
     dutyMax: dutyHi,
     fMax_Hz: w.f.hi,
     core: coreAtNominal(timing),
+    ...railOp(chosen),
   });
+  const rail = railPieces(chosen, fin.parts, timing);
   const dOn = timing.figures.find((f) => f.key === "duty_max")?.value ?? Math.min(1, w.dMax.hi);
   const vSwNom_V = fin.vSwNom_V ?? plan.vSwNom_V;
   const load = loadStage(
@@ -405,7 +507,7 @@ function sizeChosen(chosen: CoreChoice): SizedVariant {
   // The core's own current at the highest supply counts toward the fuse's continuous current.
   const prot = protectionStage(
     ctx,
-    ctx.vMax_V / timing.values.rC_ohm,
+    rail.coreCurrent_A,
     w.f.lo,
     w.f.hi,
     dutyLo,
@@ -437,12 +539,13 @@ function sizeChosen(chosen: CoreChoice): SizedVariant {
   const endc: ControlEnds = controlEnds(ctx, timing, { power, iOn_A: load.iOn_A, vSwNom_V });
   const rawParts: Part[] = [
     ...prot.parts,
-    ...endc.rewire(timing.parts),
+    ...rail.moved(endc.rewire(timing.parts)),
     ...(timer?.parts ?? []),
     ...endc.parts,
-    ...tap.parts,
+    ...rail.moved(tap.parts),
     ...plan.parts,
     ...fin.parts,
+    ...rail.parts,
     loadPart,
   ];
   const stressed = rawParts.map((p) => {
@@ -481,6 +584,7 @@ function sizeChosen(chosen: CoreChoice): SizedVariant {
     ...tap.checks,
     ...plan.checks,
     ...fin.checks,
+    ...rail.checks,
     ...thermal.checks,
     ...prot.checks,
     ...(timer?.checks ?? []),
@@ -501,6 +605,7 @@ function sizeChosen(chosen: CoreChoice): SizedVariant {
   ].map(fixPath);
   const problems = [...stageProblems, ...checkProblems(checks, stageProblems)];
   const figures: Figure[] = dedupe([
+    ...rail.figures,
     ...timing.figures,
     ...plan.figures,
     ...fin.figures,
@@ -608,6 +713,7 @@ function sizeChosen(chosen: CoreChoice): SizedVariant {
             },
           ]),
       ...endc.decisions(toRef),
+      ...rail.decisions(toRef),
     ],
     corners: endc.corners(motor?.corners ?? timing.corners),
   };

@@ -10,6 +10,7 @@ import type { ChainKind } from "../model/kinds.ts";
 import type { VariantSpec } from "../model/variant.ts";
 import { variantId } from "./variant-id.ts";
 import { supplyWindow } from "../engine/shared/supply.ts";
+import { stressStepApplies } from "../engine/devices/choose.ts";
 
 /** Defaults of optional targets (values documented in docs/writing-a-design.md). */
 export const TARGET_DEFAULTS = {
@@ -49,7 +50,16 @@ export function expandDesign(rec: DesignRecord, deps: ExpandDeps): VariantSpec[]
   const targets = fillTargets(rec.targets);
   const protection = { ...PROTECTION_DEFAULTS, ...rec.protection };
   const stress = deps.stressClasses?.(rec) ?? {};
-  const stressClasses = Object.keys(stress).length > 0 ? { stressClasses: stress } : {};
+  // A variant carries the stress classes that are a step from the classes chosen for it
+  // (choose.ts stressStepApplies), so a variant that needs none keeps its spec as before.
+  const stressFor = (devices: Record<DeviceRole, DeviceClass>): Pick<VariantSpec, "stressClasses"> => {
+    const own = Object.fromEntries(
+      Object.entries(stress).filter(([role, c]) =>
+        stressStepApplies(role as DeviceRole, devices[role as DeviceRole], c),
+      ),
+    );
+    return Object.keys(own).length > 0 ? { stressClasses: own } : {};
+  };
   const out: VariantSpec[] = [];
   for (const supply_V of rec.axes.supply_V) {
     // Every worst case of the variant uses this window's min and max (src/engine/shared/supply.ts).
@@ -71,7 +81,7 @@ export function expandDesign(rec: DesignRecord, deps: ExpandDeps): VariantSpec[]
             protection: { ...protection },
             devices: { ...devices },
             ...(reasons ? { deviceReasons: { ...reasons } } : {}),
-            ...stressClasses,
+            ...stressFor(devices),
             policy: deps.policy,
             ...(load_kind === "solenoid" && rec.solenoid !== undefined ? { solenoid: { ...rec.solenoid } } : {}),
           });

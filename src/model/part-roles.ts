@@ -45,6 +45,7 @@ export const STAGE_ROLES = {
     "RP",
     "RZ",
     "DZ",
+    "C_RAIL",
     "Q_HI",
     "Q_LO",
     "RG",

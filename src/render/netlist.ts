@@ -120,7 +120,12 @@ export function renderNetlist(circuit: CircuitModel, meta: NetlistMeta): string 
     .filter((n, k, all) => all.indexOf(n) === k)
     .map((n) => ` v(${checkNet(n, "ic")})=${n === "vbus" ? spiceNum(meta.supply_V, "ic") : "0"}`)
     .join("");
-  if (hasCore) out.push(`.ic v(ca)=${spiceNum(meta.supply_V, "ic")} v(cb)=0${settled}`);
+  // A core on its regulated rail (C_RAIL across the zener): the rail starts at the zener's voltage and
+  // the high collector at the rail, as on a supply-fed core it starts at the supply.
+  const rail = coreRailStart(circuit, meta.supply_V);
+  const high = rail === null ? meta.supply_V : rail.v_V;
+  const railIc = rail === null ? "" : ` v(${checkNet(rail.net, "ic")})=${spiceNum(rail.v_V, "ic")}`;
+  if (hasCore) out.push(`.ic v(ca)=${spiceNum(high, "ic")} v(cb)=0${railIc}${settled}`);
   out.push(
     // The simulator runs at the nominal temperature the pages and the predictions speak of; every
     // card states TNOM equal to it, so no parameter is scaled (src/engine/shared/temperature.ts).
@@ -133,6 +138,14 @@ export function renderNetlist(circuit: CircuitModel, meta: NetlistMeta): string 
     ".end",
   );
   return out.join("\n") + "\n";
+}
+
+/** The core rail's net and starting level (its zener's voltage, at most the supply), or null without one. */
+function coreRailStart(circuit: CircuitModel, supply_V: number): { net: string; v_V: number } | null {
+  const cap = circuit.parts.find((p) => p.role === "C_RAIL");
+  const net = cap?.pins["plus"];
+  const dz = circuit.parts.find((p) => p.kind === "zener" && p.pins["cathode"] === net);
+  return net === undefined || dz === undefined ? null : { net, v_V: Math.min(supply_V, dz.value) };
 }
 
 /** Rewrites the `.param ctrl` line (0 … 1) of a netlist made by renderNetlist. */

@@ -31,6 +31,11 @@ export const CHAIN: Record<ChainKind, ChainLayout> = {
       RG: { x: 60, y: 300, rot: 270 },
       Q_POWER: { x: 170, y: 300 },
       RGS: { x: 115, y: 360, label: "left" },
+      // The timing core's regulated rail, when chosen (stages/core-rail.ts): feed resistor down from
+      // vbus, zener and rail capacitor to ground beside it; the rail runs left to the core.
+      RZ: { x: 60, y: 100 },
+      DZ: { x: 60, y: 185, rot: 180, label: "right" },
+      C_RAIL: { x: 125, y: 225, label: "right" },
     },
     routes: [tap("RG"), ["RG.b", "Q_POWER.g"], ["RGS.a", [115, 300]]],
   },
@@ -111,6 +116,8 @@ export const CHAIN: Record<ChainKind, ChainLayout> = {
       RP: { x: 180, y: 240 },
       RZ: { x: 180, y: 110 },
       DZ: { x: 110, y: 220, rot: 180 },
+      // With the timing core on the gate rail (stages/core-rail.ts) its capacitor beside the zener.
+      C_RAIL: { x: 250, y: 210 },
       Q_HI: { x: 350, y: 270 },
       Q_LO: { x: 350, y: 360 },
       RG: { x: 490, y: 315, rot: 270 },

@@ -5,6 +5,7 @@
 import type { DiodeClass, ZenerClass } from "../model/device.ts";
 import { diodeCj_F, diodeClassLaw, diodeTransitTime_s } from "../engine/shared/diode.ts";
 import { NOMINAL_TEMP_C } from "../engine/shared/temperature.ts";
+import { zenerRs_ohm, zenerTestCurrent_A } from "../engine/shared/zener.ts";
 import { card } from "./spice-card.ts";
 import { spiceModelName } from "./spice-num.ts";
 
@@ -25,17 +26,14 @@ export function diodeModel(dev: DiodeClass): string {
   ]);
 }
 
-/** Zener test current assumed where the class gives none: ¼ of P_Z/V_Z (from memory). */
-export function zenerTestCurrent_A(dev: ZenerClass): number {
-  return dev.pz_W / dev.vz_V / 4;
-}
+export { zenerTestCurrent_A } from "../engine/shared/zener.ts";
 
 export function zenerModel(dev: ZenerClass): string {
   const izt_A = zenerTestCurrent_A(dev);
   return card(spiceModelName(dev.id), "D", [
     ["IS", 1e-14],
     ["N", 1],
-    ["RS", (0.02 * dev.vz_V) / izt_A],
+    ["RS", zenerRs_ohm(dev)],
     ["BV", dev.vz_V],
     ["IBV", izt_A],
     ["CJO", 50e-12],

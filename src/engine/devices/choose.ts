@@ -78,8 +78,9 @@ export const RAISED_DEVICE_IDS: Readonly<Partial<Record<DeviceRole, readonly str
  * low-capacitance switching diode for the timing core's signal diodes, taken only where no core passes
  * with the ordinary class (size.ts, docs/method.md "Low-capacitance base diodes"), and the low-R_DS(on)
  * MOSFET classes, taken only where the variant is refused with its own switch and passes with one of
- * them (stages/switch-step.ts, docs/method.md "Power classes by stress"). A record that binds the role
- * keeps its class.
+ * them (stages/switch-step.ts, docs/method.md "Power classes by stress"), and the timing transistor and
+ * zener of a core moved onto a regulated rail (stages/core-rail.ts, docs/method.md "Regulated core rail").
+ * A record that binds the role keeps its class.
  */
 export const STRESS_DEVICE_IDS: Readonly<Partial<Record<DeviceRole, readonly string[]>>> = {
   signal_diode: ["diode-signal-lowcap"],
@@ -88,7 +89,25 @@ export const STRESS_DEVICE_IDS: Readonly<Partial<Record<DeviceRole, readonly str
   // logic-level class, and for the gate driver also a 100 V standard-gate one (36–48 V).
   mosfet_logic: ["nmos-logic-low-rds"],
   mosfet_standard: ["nmos-standard-100v-low-rds"],
+  // For a timing core the engine moves onto a regulated rail (stages/core-rail.ts): the ordinary timing
+  // transistor where the supply made the chooser take a raised class, and the 1 W zener where it took
+  // the 0.5 W one of the same voltage (the rail feeds the core too); carried only then (`stressStepApplies`).
+  timing_npn: ["npn-small-signal-high-gain"],
+  gate_zener: ["zener-12v-1w"],
 };
+
+/**
+ * Whether a variant carries the stress class `step` of a role beside its chosen class (expand.ts): the
+ * low-capacitance diode wherever it differs; the ordinary timing transistor only over a raised one; the
+ * larger zener only over a smaller one of the same voltage. A variant that carries none keeps its spec.
+ */
+export function stressStepApplies(role: DeviceRole, chosen: DeviceClass | undefined, step: DeviceClass): boolean {
+  if (chosen === undefined || chosen.id === step.id) return false;
+  if (role === "timing_npn") return (RAISED_DEVICE_IDS.timing_npn ?? []).includes(chosen.id);
+  if (role === "gate_zener")
+    return isZener(chosen) && isZener(step) && chosen.vz_V === step.vz_V && chosen.pz_W < step.pz_W;
+  return true;
+}
 
 /** The classes of STRESS_DEVICE_IDS present in the library, for the roles the record does not bind. */
 export function stressClasses(record: DesignRecord, lib: DeviceLibrary): Partial<Record<DeviceRole, DeviceClass>> {

@@ -437,6 +437,24 @@ export const SOURCES = {
       "saturation; a diode in the base string offsets V_BE and its temperature drift.",
     values: [{ item: "sink current", value: "I_C ≈ (V_B − V_BE)/R_E", sureness: "from-memory" }],
   },
+  "horowitz-hill-3e-zener-regulator": {
+    kind: "textbook",
+    short: "Horowitz & Hill 3rd ed., zener regulator",
+    title: "P. Horowitz, W. Hill, The Art of Electronics (Cambridge University Press)",
+    edition: "3rd edition (2015)",
+    where: "chapter 2, the zener diode and the zener-referenced follower (section numbers from memory)",
+    sureness: "from-memory",
+    confidence: "from-memory",
+    note:
+      "A zener fed through a series resistor from an unregulated supply holds a local rail: the resistor must " +
+      "pass the load's largest current plus the zener's knee current at the lowest input, and the zener takes " +
+      "everything the load does not at the highest input (its power is checked there); a capacitor across the " +
+      "zener supplies the load's short peaks; an emitter follower on the zener serves a larger load.",
+    values: [
+      { item: "feed resistor", value: "R ≤ (V_in,min − V_Z)/(I_load,max + I_knee)", sureness: "from-memory" },
+      { item: "zener power", value: "P_Z = V_Z·(V_in,max − V_Z)/R (no load)", sureness: "from-memory" },
+    ],
+  },
   "sedra-smith": {
     kind: "textbook",
     short: "Sedra & Smith, Microelectronic Circuits",

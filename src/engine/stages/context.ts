@@ -4,7 +4,7 @@
  * is rounded.
  */
 import type { VariantSpec } from "../../model/variant.ts";
-import type { DiodeClass } from "../../model/device.ts";
+import type { DiodeClass, ZenerClass } from "../../model/device.ts";
 import { diodeClassVf_V } from "../shared/diode.ts";
 import { NOMINAL_TEMP_C } from "../shared/temperature.ts";
 import type { LoadModel } from "../shared/loads.ts";
@@ -49,6 +49,27 @@ export interface Ctx {
   series?: SeriesReverse;
   /** The supply itself (before any series diode): the fuse and the reverse protection see it. */
   supply: { min_V: number; nom_V: number; max_V: number };
+  /**
+   * The regulated rail the timing core runs from (size.ts `railedCore`, stages/zener-rail.ts), when
+   * the search chose one: the chain then takes its input levels from it. Absent: the core is on vbus.
+   */
+  coreRail?: CoreRail;
+}
+
+/** A zener rail (R_Z + D_Z on net `vg`) and the window it holds (zener-rail.ts zenerRailWindow). */
+export interface CoreRail {
+  dz: ZenerClass;
+  min_V: number;
+  nom_V: number;
+  max_V: number;
+}
+
+/** The net of the core's regulated rail (shared with the driven MOSFET's gate rail). */
+export const CORE_RAIL_NET = "vg";
+
+/** The supply the timing core's collectors hang from: the regulated rail when chosen, else the supply. */
+export function coreSupply(ctx: Ctx): { min_V: number; nom_V: number; max_V: number } {
+  return ctx.coreRail ?? { min_V: ctx.vMin_V, nom_V: ctx.vNom_V, max_V: ctx.vMax_V };
 }
 
 export function makeContext(spec: VariantSpec): Ctx {

@@ -11,6 +11,7 @@ import type { Part } from "../../../model/circuit.ts";
 import type { StressCheck } from "../../../model/derating.ts";
 import { checkStress } from "../../shared/derating.ts";
 import { roundDown, roundUp } from "../../shared/e-series.ts";
+import { ZENER_KNEE_A, sizeZenerRail } from "../zener-rail.ts";
 import { figure, problem } from "../../shared/figures.ts";
 import { hfeMin, vbeOn, vceSat } from "../../shared/gain.ts";
 import { conductionLossBjt_W, conductionLossMosfet_W, gateDrivePower_W, switchingLoss_W } from "../../shared/losses.ts";
@@ -38,8 +39,7 @@ import { releasedTurnOnEquivalent_s } from "./gate-release.ts";
 import type { ChainPlan } from "./types.ts";
 import { NOMINAL_TEMP_C } from "../../shared/temperature.ts";
 
-/** Smallest zener current that keeps the zener on its knee (common practice, ≈ 5 mA for 0.5 W parts). */
-export const ZENER_KNEE_A = 0.005;
+export { ZENER_KNEE_A };
 /** Gate pull-down (common practice). */
 export const RGS_OHM = 10_000;
 
@@ -54,12 +54,15 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
   const vNeed = specVgs_V(mos);
   const vgsAllowed = mos.vgs_max_V * pol.mosfet.vgs.factor;
   const vbeHi = vbeOn(qhi, NOMINAL_TEMP_C);
-  const useZener = ctx.vMax_V - vbeOn(qhi, ctx.taMax_C) > vgsAllowed;
+  // With the timing core on a regulated rail (ctx.coreRail) the gate drive shares it: one R_Z and D_Z,
+  // and the rail's window then includes the zener's current-dependent drop (zener-rail.ts).
+  const shared = ctx.coreRail;
+  const useZener = shared !== undefined || ctx.vMax_V - vbeOn(qhi, ctx.taMax_C) > vgsAllowed;
   // Without the zener rail, the driver and follower hang from vbus (docs/topologies.md: vg = vbus).
   const rail = useZener ? "vg" : "vbus";
-  const railMin = useZener ? dz.vz_V * (1 - dz.vz_tolerance) : ctx.vMin_V;
-  const railMax = useZener ? dz.vz_V * (1 + dz.vz_tolerance) : ctx.vMax_V;
-  const railNom = useZener ? dz.vz_V : ctx.vNom_V;
+  const railMin = shared?.min_V ?? (useZener ? dz.vz_V * (1 - dz.vz_tolerance) : ctx.vMin_V);
+  const railMax = shared?.max_V ?? (useZener ? dz.vz_V * (1 + dz.vz_tolerance) : ctx.vMax_V);
+  const railNom = shared?.nom_V ?? (useZener ? dz.vz_V : ctx.vNom_V);
   const vgsMin = railMin - vbeCold(qhi, ctx);
   const vgsMax = railMax - vbeOn(qhi, ctx.taMax_C);
   // Gate resistor: keeps the source follower's peak current within its continuous rating (short
@@ -212,25 +215,33 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
       const checks = [];
       const probs = [];
       if (useZener) {
-        const iLoadRail = iRP + mos.qg_C * op.fMax_Hz + railMax / RGS_OHM;
-        const rZmax = (ctx.vMin_V - railMax) / ((iLoadRail + ZENER_KNEE_A) * (1 + ctx.rTol));
-        const rZ = rZmax > 1 ? roundDown(rZmax, "E24") : 1;
-        const iZmax = (ctx.vMax_V - railMin) / (rZ * (1 - ctx.rTol));
-        const pZ = railMax * iZmax;
+        // The gate drive's own load, and the timing core's when it shares the rail (op.railLoad_A).
+        const iLoadRail = iRP + mos.qg_C * op.fMax_Hz + railMax / RGS_OHM + (op.railLoad_A ?? 0);
+        const z = sizeZenerRail({
+          vMin_V: ctx.vMin_V,
+          vMax_V: ctx.vMax_V,
+          railMin_V: railMin,
+          railMax_V: railMax,
+          iLoad_A: iLoadRail,
+          rTol: ctx.rTol,
+        });
+        const [rZ, iZmax, pZ] = [z.rZ_ohm, z.iZmax_A, z.pZ_W];
         out.push(
           resistor(
             "chain",
             "RZ",
             rZ,
             { a: "vbus", b: "vg" },
-            (ctx.vMax_V - railMin) ** 2 / (rZ * (1 - ctx.rTol)),
+            z.pR_W,
             pol,
-            "feeds the gate-rail zener",
+            shared === undefined
+              ? "feeds the gate-rail zener"
+              : "feeds the timing core's and the gate drive's zener rail",
           ),
         );
         extra.push(zener("chain", "DZ", dz, { anode: "0", cathode: "vg" }, { power_W: pZ, current_A: iZmax }));
         checks.push(checkStress("DZ", "power", pZ, dz.pz_W, "W", pol.zener.power, pol.marginal_above));
-        if (!(rZmax > 1))
+        if (!z.fed)
           probs.push(
             problem(
               "chain",

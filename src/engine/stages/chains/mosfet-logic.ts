@@ -8,7 +8,8 @@ import type { MosfetClass } from "../../../model/device.ts";
 import { checkStress } from "../../shared/derating.ts";
 import { figure, problem } from "../../shared/figures.ts";
 import { conductionLossMosfet_W, switchingLoss_W } from "../../shared/losses.ts";
-import { type Ctx, switchedVoltage_V, switchedVoltageNominal_V } from "../context.ts";
+import { CORE_RAIL_NET, type Ctx, coreSupply, switchedVoltage_V, switchedVoltageNominal_V } from "../context.ts";
+import { railParts } from "../core-rail.ts";
 import { switchChecks, lossFigures } from "./common.ts";
 import {
   gateTimes,
@@ -35,6 +36,8 @@ export function planMosfetLogic(ctx: Ctx): ChainPlan {
   const vNeed = specVgs_V(dev);
   const rNom = rdsOn_ohm(dev, vNeed, false);
   const rHot = rdsOn_ohm(dev, vNeed, true);
+  // The collector that feeds the gate pulls up to the core's supply: the regulated rail when chosen.
+  const vHighNom_V = coreSupply(ctx).nom_V;
   return {
     need: {
       kind: "gate-voltage",
@@ -63,7 +66,7 @@ export function planMosfetLogic(ctx: Ctx): ChainPlan {
       const rSrc = ((tap.rC_ohm + tap.rTap_ohm) * rGS) / (tap.rC_ohm + tap.rTap_ohm + rGS);
       const rOff = (tap.rTap_ohm * rGS) / (tap.rTap_ohm + rGS);
       const vg =
-        tap.rGS_ohm === undefined ? ctx.vNom_V : (ctx.vNom_V * tap.rGS_ohm) / (tap.rC_ohm + tap.rTap_ohm + tap.rGS_ohm);
+        tap.rGS_ohm === undefined ? vHighNom_V : (vHighNom_V * tap.rGS_ohm) / (tap.rC_ohm + tap.rTap_ohm + tap.rGS_ohm);
       const vp = plateauAt_V(dev, ctx.iNom_A);
       // Plateau transits as gateTimesNominal, but at the plateau of the rated current (the same V_p as the lags).
       const q = plateauCharge_C(dev, ctx.vNom_V);
@@ -105,7 +108,7 @@ export function planMosfetLogic(ctx: Ctx): ChainPlan {
         op.core === undefined
           ? null
           : recoveringTurnOn({
-              vHigh_V: ctx.vNom_V,
+              vHigh_V: vHighNom_V,
               vStart_V: op.core.vSat_V,
               rC_ohm: tap.rC_ohm,
               cT_F: op.core.c_F,
@@ -121,7 +124,7 @@ export function planMosfetLogic(ctx: Ctx): ChainPlan {
         op.core?.sink_A === undefined
           ? null
           : sinkLimitedTurnOff_s({
-              vHigh_V: ctx.vNom_V,
+              vHigh_V: vHighNom_V,
               vSat_V: op.core.vSat_V,
               rC_ohm: tap.rC_ohm,
               rG_ohm: tap.rTap_ohm,
@@ -143,7 +146,7 @@ export function planMosfetLogic(ctx: Ctx): ChainPlan {
       const r = rdsOn_ohm(dev, vgMin, true);
       // Nominal gate voltage: the collector's high level through the divider, V_nom·R_GS/(R_C + R_G + R_GS).
       const vgNom =
-        tap.rGS_ohm === undefined ? ctx.vNom_V : (ctx.vNom_V * tap.rGS_ohm) / (tap.rC_ohm + tap.rTap_ohm + tap.rGS_ohm);
+        tap.rGS_ohm === undefined ? vHighNom_V : (vHighNom_V * tap.rGS_ohm) / (tap.rC_ohm + tap.rTap_ohm + tap.rGS_ohm);
       const vSwNom_V = ctx.iNom_A * rdsOnNominal_ohm(dev, vgNom);
       const pCond = conductionLossMosfet_W(ctx.iMax_A, r, op.dutyMax);
       const pSw = switchingLoss_W(
@@ -178,12 +181,17 @@ export function planMosfetLogic(ctx: Ctx): ChainPlan {
             { limit: vNeed, actual: vgMin, unit: "V" },
           ),
         );
+      // The core's regulated rail, when chosen: its feed resistor and zener (core-rail.ts).
+      const rail = ctx.coreRail === undefined ? null : railParts(ctx, ctx.coreRail, op.railLoad_A ?? 0, CORE_RAIL_NET);
       return {
         drive: { i_A: mosfetSaturation_A(dev, vgMin), how: "I_D = K/2·(V_GS,min − V_th,max)², K from R_DS(on) maxima" },
-        parts: [],
-        problems,
+        parts: rail?.parts ?? [],
+        problems: [...problems, ...(rail?.problems ?? [])],
         vSwNom_V,
-        checks: [checkStress("Q_POWER", "vgs", vgMax, dev.vgs_max_V, "V", pol.mosfet.vgs, pol.marginal_above)],
+        checks: [
+          checkStress("Q_POWER", "vgs", vgMax, dev.vgs_max_V, "V", pol.mosfet.vgs, pol.marginal_above),
+          ...(rail?.checks ?? []),
+        ],
         losses: [
           {
             role: "Q_POWER",

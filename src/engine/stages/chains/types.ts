@@ -87,6 +87,11 @@ export interface OperatingPoint {
     /** Follower core with the chain on the collector: the follower that recharges C_T (gate-recovery.ts). */
     follower?: RechargeFollower;
   };
+  /**
+   * The timing core's largest current from its regulated rail (ctx.coreRail), A: the chain sizes the
+   * rail's feed resistor for it beside its own load. Absent: the core is on vbus.
+   */
+  railLoad_A?: number;
 }
 
 export interface ChainPlan extends StageResult {
