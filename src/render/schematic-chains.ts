@@ -31,11 +31,6 @@ export const CHAIN: Record<ChainKind, ChainLayout> = {
       RG: { x: 60, y: 300, rot: 270 },
       Q_POWER: { x: 170, y: 300 },
       RGS: { x: 115, y: 360, label: "left" },
-      // The timing core's regulated rail, when chosen (stages/core-rail.ts): feed resistor down from
-      // vbus, zener and rail capacitor to ground beside it; the rail runs left to the core.
-      RZ: { x: 60, y: 100 },
-      DZ: { x: 60, y: 185, rot: 180, label: "right" },
-      C_RAIL: { x: 125, y: 225, label: "right" },
     },
     routes: [tap("RG"), ["RG.b", "Q_POWER.g"], ["RGS.a", [115, 300]]],
   },
@@ -163,5 +158,32 @@ export const GATE_BUFFER: ChainLayout = {
     ["RG.a", [120, 315]],
     ["RG.b", "Q_POWER.g"],
     ["RGS.a", [300, 315]],
+  ],
+};
+
+/**
+ * The logic-level MOSFET with the timing core on a regulated rail (stages/core-rail.ts): the rail's
+ * feed resistor down from vbus, its zener and capacitor to ground beside it, left of the gate network
+ * (which is the plain table's, moved right), so the rail runs left to the core and no part of it sits
+ * in the switched column. Only railed drawings use it; every other drawing keeps the plain table.
+ */
+export const RAILED_LOGIC: ChainLayout = {
+  width: 380,
+  outX: 300,
+  outPin: "Q_POWER.d",
+  slots: {
+    RZ: { x: 80, y: 100 },
+    DZ: { x: 80, y: 185, rot: 180, label: "right" },
+    C_RAIL: { x: 160, y: 185, label: "right" },
+    RG: { x: 180, y: 300, rot: 270 },
+    Q_POWER: { x: 290, y: 300 },
+    RGS: { x: 235, y: 360, label: "left" },
+  },
+  routes: [
+    tap("RG"),
+    ["RG.b", "Q_POWER.g"],
+    ["RGS.a", [235, 300]],
+    // The rail to the core's top line (the collector resistors hang from it).
+    ["DZ.cathode", [45, "DZ.cathode"], [45, "RC_R.a"], "RC_R.a"],
   ],
 };

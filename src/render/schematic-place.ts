@@ -7,7 +7,7 @@
 import type { CircuitModel, Part } from "../model/circuit.ts";
 import { formatValue } from "../model/format.ts";
 import type { StageKind } from "../model/kinds.ts";
-import { CHAIN, GATE_BUFFER } from "./schematic-chains.ts";
+import { CHAIN, GATE_BUFFER, RAILED_LOGIC } from "./schematic-chains.ts";
 import * as L from "./schematic-layout.ts";
 import { SYMBOLS, type Box, type SymbolDef } from "./symbols/index.ts";
 import { probe } from "./symbols/probe.ts";
@@ -143,7 +143,13 @@ function stages(circuit: CircuitModel, highSide: boolean): Record<StageKind, Sta
   const tapSide = circuit.tapNet === "ca" ? "A" : "B";
   const chainRoles = new Set(circuit.parts.filter((p) => p.stage === "chain").map((p) => p.role));
   // The follower pair without a driver stage is the logic-level MOSFET's gate buffer.
-  const chain = chainRoles.has("Q_HI") && !chainRoles.has("Q_DRV") ? GATE_BUFFER : CHAIN[L.chainKindOf(chainRoles)];
+  const kind = L.chainKindOf(chainRoles);
+  const chain =
+    chainRoles.has("Q_HI") && !chainRoles.has("Q_DRV")
+      ? GATE_BUFFER
+      : kind === "mosfet-logic" && chainRoles.has("RZ")
+        ? RAILED_LOGIC
+        : CHAIN[kind];
   const core = L.coreLayout(
     tapSide,
     circuit.parts.some((p) => p.role === "QF_A"),

@@ -10,6 +10,7 @@ import { zenerRs_ohm, zenerTestCurrent_A, zenerVoltage_V } from "../../../src/en
 import { railCap_F } from "../../../src/engine/stages/core-rail.ts";
 import { makeContext } from "../../../src/engine/stages/context.ts";
 import { sizeVariant } from "../../../src/engine/size.ts";
+import { layoutSchematic } from "../../../src/render/schematic.ts";
 import { zenerModel } from "../../../src/render/spice-diode.ts";
 import type { ZenerClass } from "../../../src/model/device.ts";
 import { itAgreesWithSpice } from "./sim-agreement.ts";
@@ -93,6 +94,17 @@ describe("a 48 V heating cable, 5–95 % at 20 Hz, from the regulated core rail"
     expect(railed.decisions?.some((d) => d.topic === "timing core supply")).toBe(true);
     // The timing transistors step back from the 80 V class to the ordinary one on the rail.
     expect(railed.spec.devices.timing_npn.id).toBe("npn-small-signal-high-gain");
+  });
+
+  it("draws the rail as wires: no net flags, its parts left of the gate network, none in the switched column", () => {
+    const { placed, routing } = layoutSchematic(railed.circuit!);
+    expect(routing.flags).toEqual([]);
+    expect(routing.hintsRefused).toBe(0);
+    const x = (role: string) => placed.find((p) => p.role === role)!.cx;
+    for (const r of ["RZ", "DZ", "C_RAIL"]) {
+      expect(x(r)).toBeLessThan(x("RG"));
+      expect(x(r)).toBeLessThan(x("Q_POWER"));
+    }
   });
 
   it("sizes R_Z, the zener and the resistor at the supply's ends (common practice, hand-checked)", () => {
