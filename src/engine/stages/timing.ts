@@ -202,16 +202,17 @@ function millerChecked(
 ): { search: Search; corners?: SimCorner[] } {
   const search = searchCore(ctx, q, db, base);
   const v = search.values;
-  if (v.bleed_ohm === undefined || q.cob_F === undefined) return { search };
+  // Only a design that passed is worth re-bleeding; a failed search's refusal stands as it is, and its
+  // corners are worked out by designTiming if its result is ever read (the same function of the same values).
+  if (v.bleed_ohm === undefined || q.cob_F === undefined || !search.passed) return { search };
   const env = { vMax: ctx.vMax_V, tMax: ctx.taMax_C };
   // The corners of the values kept are returned with them, so designTiming need not work them out again.
   const corners = simulationCorners(v, q, db, envelopeCorners(envelopeOf(ctx)), env);
   const fast = corners.find((k) => k.name === "fast");
   if (fast === undefined) return { search, corners };
   const tShort_s = (1 - fast.predicted.duty) / fast.predicted.f_Hz;
-  // Only a design that passed is worth re-bleeding; a failed search's nearest values can have no
-  // short half-period at all (duty 1 at the fast corner), and their refusal stands as it is.
-  if (!search.passed || !(tShort_s > 0)) return { search, corners };
+  // No short half-period at all (duty 1 at the fast corner): nothing to re-bleed against.
+  if (!(tShort_s > 0)) return { search, corners };
   const z = millerIndex(q.cob_F, fast.vcc_V, v.bleed_ohm, vbeOn(q, NOMINAL_TEMP_C), tShort_s);
   const millerScale = Number.isFinite(z) && z > MILLER_INDEX_MAX ? MILLER_INDEX_TARGET / z : undefined;
   const turnOff = bleedTurnOffIndex(v, q, db, fast);
