@@ -134,24 +134,27 @@ export function tapAndTiming(
 } {
   const general = coreAttempts(ctx, plan);
   if (general.timing.search.passed) return general;
-  const rule = general.timing.problems.find((p) => p.severity === "error")?.rule ?? "duty-range-worst-case";
+  // Read only when an attempt below is kept: the failed attempt's problems are made when first read.
+  const ruleOf = (): string =>
+    general.timing.problems.find((p) => p.severity === "error")?.rule ?? "duty-range-worst-case";
   // Every arrangement failed with ±10 % timing capacitors: the same attempts once more with the
   // ±5 % class (timing-caps.ts), kept only when a core passes with a capacitance the class is sold in.
   const tightOk = tightCapsAllowed(ctx.taMin_C, ctx.taMax_C, ctx.spec.load_kind);
   const tightCtx: Ctx = { ...ctx, caps: TIGHT_CAPS, cTol: TIGHT_CAPS.engineTol };
   if (tightOk) {
     const tight = coreAttempts(tightCtx, plan);
-    if (tight.timing.search.passed && tight.timing.values.c_F <= TIGHT_CAPS.cMax_F) return { ...tight, caps: { rule } };
+    if (tight.timing.search.passed && tight.timing.values.c_F <= TIGHT_CAPS.cMax_F)
+      return { ...tight, caps: { rule: ruleOf() } };
   }
   // The cross-returned bleed (docs/method.md, "Cross-returned bleed") only where no other core passes
   // with either capacitor class, so every variant that passed before keeps its design.
   if (!crossOffered || !crossAllowed(ctx.spec.chain, ctx.spec.load_kind)) return general;
   const cross = plainTapAndTiming(ctx, plan, true);
-  if (cross.timing.search.passed) return { ...cross, cross: { rule, cross: true } };
+  if (cross.timing.search.passed) return { ...cross, cross: { rule: ruleOf(), cross: true } };
   if (tightOk) {
     const tightCross = plainTapAndTiming(tightCtx, plan, true);
     if (tightCross.timing.search.passed && tightCross.timing.values.c_F <= TIGHT_CAPS.cMax_F)
-      return { ...tightCross, cross: { rule, cross: true }, caps: { rule } };
+      return { ...tightCross, cross: { rule: ruleOf(), cross: true }, caps: { rule: ruleOf() } };
   }
   return general;
 }
@@ -169,11 +172,12 @@ export function coreAttempts(
   if (plain.timing.search.passed) return plain;
   // The follower core (docs/method.md, "Follower core"), only where the plain one does not pass:
   // the chain on the follower's emitter where its input allows it, else on the collector.
-  const why = plain.timing.problems.find((p) => p.severity === "error")?.rule ?? "duty-range-worst-case";
+  // Read only when a follower core is kept: the plain attempt's problems are made when first read.
+  const why = (): string => plain.timing.problems.find((p) => p.severity === "error")?.rule ?? "duty-range-worst-case";
   const chosen = (tap: TapDesign, timing: TimingResult, onCollector: boolean): ReturnType<typeof coreAttempts> => ({
     tap,
     timing,
-    follower: { rule: why, plainRc_ohm: plain.tap.rC_ohm, ...(onCollector ? { onCollector } : {}) },
+    follower: { rule: why(), plainRc_ohm: plain.tap.rC_ohm, ...(onCollector ? { onCollector } : {}) },
   });
   // Without the injection cap the tap differs only when the cap bound R_C: a tap met before is not searched again.
   let seen: number | undefined;

@@ -26,6 +26,11 @@ interface Scope<R> {
   /** Device class → small id, for the values' text (a variant's classes are fixed while it is sized). */
   readonly classIds: WeakMap<object, number>;
   classes: number;
+  /** The values and classes asked about last, and their answers (a sweep asks for one values object many times). */
+  lastV: object | undefined;
+  lastQ: BjtClass | undefined;
+  lastDb: DiodeClass | undefined;
+  lastKept: Map<number, R> | undefined;
 }
 
 /**
@@ -110,7 +115,16 @@ export class CoreMemo<V extends object, R> {
    */
   within<T>(body: () => T): T {
     if (this.scope !== undefined) return body();
-    this.scope = { byText: new Map(), byObject: new WeakMap(), classIds: new WeakMap(), classes: 0 };
+    this.scope = {
+      byText: new Map(),
+      byObject: new WeakMap(),
+      classIds: new WeakMap(),
+      classes: 0,
+      lastV: undefined,
+      lastQ: undefined,
+      lastDb: undefined,
+      lastKept: undefined,
+    };
     try {
       return body();
     } finally {
@@ -146,6 +160,16 @@ function classId<R>(s: Scope<R>, c: object): number {
 
 /** The answers kept for the content of `v` with these classes (shared by every object that reads alike). */
 function keptFor<R>(s: Scope<R>, v: object, q: BjtClass, db: DiodeClass): Map<number, R> {
+  if (v === s.lastV && q === s.lastQ && db === s.lastDb) return s.lastKept!;
+  const kept = keptByContent(s, v, q, db);
+  s.lastV = v;
+  s.lastQ = q;
+  s.lastDb = db;
+  s.lastKept = kept;
+  return kept;
+}
+
+function keptByContent<R>(s: Scope<R>, v: object, q: BjtClass, db: DiodeClass): Map<number, R> {
   const seen = s.byObject.get(v);
   if (seen !== undefined && seen.q === q && seen.db === db) return seen.kept;
   const text = `${classId(s, q)},${classId(s, db)},${contentText(v)}`;

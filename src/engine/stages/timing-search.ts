@@ -284,31 +284,17 @@ export function searchCore(ctx: Ctx, q: BjtClass, db: DiodeClass, base: Base): S
     );
     const od = overdrive(ctx, q, db, base, v.pot_ohm, v.rEndA_ohm, v.rEndB_ohm);
     const limitsOk = od >= OVERDRIVE_K && injection(ctx, q, db, v) <= INJECTION_MAX && crossOk(ctx, q, db, v);
-    // Only the first candidate's result is kept when none passes: a later one needs its worst case
-    // only if it passes, so it is first tested at the corners that decide that, stopping at the
-    // first that fails (the same evaluations and comparisons the pass test below makes).
-    if (first !== null && !(limitsOk && mayPass(v, q, db, sets, t.duty_min, t.duty_max))) continue;
-    const worst = worstCaseFast(v, q, db, sets);
-    const passed =
-      limitsOk &&
-      worst.thresholdReached &&
-      worst.dMin.hi <= t.duty_min &&
-      worst.dMax.lo >= t.duty_max &&
-      worst.recovery <= MAX_RECOVERY;
-    const s = { values: v, worst, overdrive: od, passed, found: true };
-    if (passed) return s;
-    first ??= s;
+    // Whether a candidate passes is decided at the corners that decide it, stopping at the first that
+    // fails (mayPass: the same evaluations and comparisons as the test on its worst case); the whole
+    // worst case is read only when asked for (lazySearch), i.e. for the attempt a variant keeps. Only
+    // the first candidate's result is kept when none passes.
+    const passed = limitsOk && mayPass(v, q, db, sets, t.duty_min, t.duty_max);
+    if (passed) return lazySearch(v, q, db, sets, od, true, true);
+    first ??= lazySearch(v, q, db, sets, od, false, true);
   }
   if (first !== null) return first;
   const near = ranked[0];
-  if (near !== undefined)
-    return {
-      values: near.v,
-      worst: worstCaseFast(near.v, q, db, sets),
-      overdrive: near.od,
-      passed: false,
-      found: false,
-    };
+  if (near !== undefined) return lazySearch(near.v, q, db, sets, near.od, false, false);
   // Nothing buildable at all: report the plain ln 2 design so the reason can be shown.
   const pot = 10_000,
     rEnd = 1_000;
@@ -319,12 +305,32 @@ export function searchCore(ctx: Ctx, q: BjtClass, db: DiodeClass, base: Base): S
     rEndA_ohm: rEnd,
     rEndB_ohm: rEnd,
   });
+  return lazySearch(v, q, db, sets, overdrive(ctx, q, db, base, pot, rEnd, rEnd), false, false);
+}
+
+/**
+ * A search result whose worst case (worstCaseFast, a pure function of its arguments) is read when first
+ * asked for, then kept: a search that is redone (timing.ts millerChecked) or an attempt the variant does
+ * not keep never reads it. Its pass verdict is decided before (mayPass).
+ */
+function lazySearch(
+  v: CoreValues,
+  q: BjtClass,
+  db: DiodeClass,
+  sets: CornerSets,
+  od: number,
+  passed: boolean,
+  found: boolean,
+): Search {
+  let worst: WorstCase | undefined;
   return {
     values: v,
-    worst: worstCaseFast(v, q, db, sets),
-    overdrive: overdrive(ctx, q, db, base, pot, rEnd, rEnd),
-    passed: false,
-    found: false,
+    get worst(): WorstCase {
+      return (worst ??= worstCaseFast(v, q, db, sets));
+    },
+    overdrive: od,
+    passed,
+    found,
   };
 }
 

@@ -12,7 +12,7 @@ import type { StressCheck } from "../../model/derating.ts";
 import { nearest } from "../shared/e-series.ts";
 import { figure, problem } from "../shared/figures.ts";
 import { hfeNominal, vbeOn, vceSat } from "../shared/gain.ts";
-import { evaluateCore, followerThevenin, lnFactor, type CollectorLoad } from "./astable.ts";
+import { evaluateCore, followerThevenin, lnFactor, type CollectorLoad, type FollowerParams } from "./astable.ts";
 import type { Ctx } from "./context.ts";
 import { type CoreEval, type CoreValues, NOMINAL_K, diodeVf_V, evalCore, followerAt } from "./core-model.ts";
 import { MAX_RECOVERY, type Search, envelopeOf, injection, searchCore } from "./timing-search.ts";
@@ -34,6 +34,7 @@ import { NOMINAL_TEMP_C } from "../shared/temperature.ts";
 import type { SimCorner } from "../../model/corners.ts";
 import { simulationCorners } from "./sim-corners.ts";
 import { envelopeCorners } from "./worst-corners.ts";
+import { deferred } from "./deferred.ts";
 import { crossBleedFigures, crossProblems } from "./cross-checks.ts";
 import { crossTapSink_A } from "./cross-bleed.ts";
 
@@ -201,16 +202,17 @@ function millerChecked(
 ): { search: Search; corners?: SimCorner[] } {
   const search = searchCore(ctx, q, db, base);
   const v = search.values;
-  if (v.bleed_ohm === undefined || q.cob_F === undefined) return { search };
+  // Only a design that passed is worth re-bleeding; a failed search's refusal stands as it is, and its
+  // corners are worked out by designTiming if its result is ever read (the same function of the same values).
+  if (v.bleed_ohm === undefined || q.cob_F === undefined || !search.passed) return { search };
   const env = { vMax: ctx.vMax_V, tMax: ctx.taMax_C };
   // The corners of the values kept are returned with them, so designTiming need not work them out again.
   const corners = simulationCorners(v, q, db, envelopeCorners(envelopeOf(ctx)), env);
   const fast = corners.find((k) => k.name === "fast");
   if (fast === undefined) return { search, corners };
   const tShort_s = (1 - fast.predicted.duty) / fast.predicted.f_Hz;
-  // Only a design that passed is worth re-bleeding; a failed search's nearest values can have no
-  // short half-period at all (duty 1 at the fast corner), and their refusal stands as it is.
-  if (!search.passed || !(tShort_s > 0)) return { search, corners };
+  // No short half-period at all (duty 1 at the fast corner): nothing to re-bleed against.
+  if (!(tShort_s > 0)) return { search, corners };
   const z = millerIndex(q.cob_F, fast.vcc_V, v.bleed_ohm, vbeOn(q, NOMINAL_TEMP_C), tShort_s);
   const millerScale = Number.isFinite(z) && z > MILLER_INDEX_MAX ? MILLER_INDEX_TARGET / z : undefined;
   const turnOff = bleedTurnOffIndex(v, q, db, fast);
@@ -271,11 +273,35 @@ function coreBase(
   };
 }
 
+/** The node that drives a coupling capacitor, as a source: the collector, or the follower's emitter. */
+function couplingSource(vcc_V: number, rC_ohm: number, fo: FollowerParams | undefined): { v_V: number; r_ohm: number } {
+  return fo && fo.loadsOnCollector !== true ? followerThevenin(vcc_V, rC_ohm, fo) : { v_V: vcc_V, r_ohm: rC_ohm };
+}
+
+/**
+ * A search that did not pass, made fresh here (not handed in): the timing result to be made from it when
+ * first read. Undefined when the search passed or was handed in (the result is then made at once).
+ */
+function unlessPassed(
+  searched: { search: Search } | undefined,
+  checked: { search: Search },
+  make: () => TimingResult,
+): TimingResult | undefined {
+  if (searched !== undefined || checked.search.passed) return undefined;
+  return deferred({ search: checked.search, values: checked.search.values }, make);
+}
+
 /**
  * The timing stage for one tap. `opts.cross`: the cross-returned bleed (cross-bleed.ts), which needs
  * the series base diodes, so they are fitted whatever the reverse swing.
  */
-export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign, opts: { cross?: boolean } = {}): TimingResult {
+export function designTiming(
+  ctx: Ctx,
+  plan: ChainPlan,
+  tap: TapDesign,
+  opts: { cross?: boolean } = {},
+  searched?: ReturnType<typeof millerChecked>,
+): TimingResult {
   const q = ctx.spec.devices.timing_npn as BjtClass;
   const db = ctx.spec.devices.signal_diode as DiodeClass;
   const pol = ctx.spec.policy;
@@ -311,10 +337,7 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign, opts: { 
   // the follower's emitter (V_cc − V_BE,F behind R_C/(β_F + 1), astable.ts followerThevenin).
   const nomK = { vcc_V: ctx.vNom_V, t_C: NOMINAL_TEMP_C, ...NOMINAL_K };
   const fo = followerAt({ ...base, c_F: 1, pot_ohm: 1, rEndA_ohm: 1e7, rEndB_ohm: 1e7 }, q, db, nomK, 1e7, 1e7);
-  const src =
-    fo && fo.loadsOnCollector !== true
-      ? followerThevenin(ctx.vNom_V, tap.rC_ohm, fo)
-      : { v_V: ctx.vNom_V, r_ohm: tap.rC_ohm };
+  const src = couplingSource(ctx.vNom_V, tap.rC_ohm, fo);
   const skewOf = (bal?: CollectorLoad): number => {
     const c = evaluateCore({
       vcc_V: ctx.vNom_V,
@@ -335,7 +358,11 @@ export function designTiming(ctx: Ctx, plan: ChainPlan, tap: TapDesign, opts: { 
   const skewRaw = skewOf();
   const { balance, balanceDiode } =
     skewRaw > t.duty_skew_max ? balanceFor(src, tap.load, db) : { balance: undefined, balanceDiode: false };
-  const checked = millerChecked(ctx, q, db, { ...base, ...(balance ? { balance } : {}) });
+  const checked = searched ?? millerChecked(ctx, q, db, { ...base, ...(balance ? { balance } : {}) });
+  // A core that does not pass is mostly tried and left (size.ts tries the next arrangement): the rest
+  // of its result, its worst case included, is made when first read, from the same search (deferred.ts).
+  const later = unlessPassed(searched, checked, () => designTiming(ctx, plan, tap, opts, checked));
+  if (later !== undefined) return later;
   const search = checked.search;
   const v = search.values;
   const w = search.worst;
