@@ -531,6 +531,9 @@ function peakProblem(
   const bound = ctx.spec.deviceReasons?.[roleOfSwitch(ctx)] === "bound by the design record";
   // A stress class that covers the peak was tried and left out (stages/switch-step.ts): say so.
   const stepped = stepClasses(ctx.spec).find((d) => pulseRating_A(d) >= peak_A);
+  const above =
+    `The load's start-up peak (${what}) reaches ${peak_A.toPrecision(3)} A at ` +
+    `${ctx.vMax_V.toPrecision(3)} V, above the ${rating.toPrecision(3)} A pulse rating of ${power.dev.title}`;
   if (!bound && stepped !== undefined && stepped.id !== power.dev.id) {
     problems.push(
       problem(
@@ -538,8 +541,7 @@ function peakProblem(
         `/parts/${power.role}`,
         "peak-above-pulse-rating",
         "error",
-        `The load's start-up peak (${what}) reaches ${peak_A.toPrecision(3)} A at ` +
-          `${ctx.vMax_V.toPrecision(3)} V, above the ${rating.toPrecision(3)} A pulse rating of ${power.dev.title}. ` +
+        `${above}. ` +
           `${stepped.title} (pulse rating ${pulseRating_A(stepped).toPrecision(3)} A) covers it, but the variant ` +
           `does not pass every other check with it either (see the other problems), so it is not taken.`,
         { limit: rating, actual: peak_A, unit: "A" },
@@ -553,8 +555,7 @@ function peakProblem(
       `/parts/${power.role}`,
       "peak-above-pulse-rating",
       "error",
-      `The load's start-up peak (${what}) reaches ${peak_A.toPrecision(3)} A at ` +
-        `${ctx.vMax_V.toPrecision(3)} V, above the ${rating.toPrecision(3)} A pulse rating of ${power.dev.title}` +
+      above +
         (bound
           ? `, the class the record binds: bind a class with a higher pulse rating, `
           : `, the largest class of the library this chain can use: no class covers it. Declare a current ` +

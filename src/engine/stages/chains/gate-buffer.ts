@@ -22,7 +22,7 @@ import { conductionLossMosfet_W, gateDrivePower_W, switchingLoss_W } from "../..
 import { NOMINAL_TEMP_C } from "../../shared/temperature.ts";
 import { resistor } from "../../../circuit/parts.ts";
 import { type Ctx, switchedVoltage_V, switchedVoltageNominal_V } from "../context.ts";
-import { lossFigures, switchChecks } from "./common.ts";
+import { switchChecks } from "./common.ts";
 import { followerChecks, followerPair, RGS_OHM } from "./mosfet-driver.ts";
 import {
   gateTimes,
@@ -39,6 +39,7 @@ import {
   noChannel,
   channelFigures,
   gateBelowThreshold,
+  mosfetLossFigures,
 } from "./mosfet-common.ts";
 import { recoveringTurnOn } from "./gate-recovery.ts";
 import type { ChainPlan, TapInfo } from "./types.ts";
@@ -411,18 +412,7 @@ export function planGateBuffer(ctx: Ctx, why: string): ChainPlan {
             "t_on = Q_G·((R_C/(β+1) + R_G) ∥ R_GS)/(V_GS − V_plateau)",
             "t_off = Q_G·(R_G ∥ R_GS)/(V_plateau − V_off)",
           ),
-          ...channelFigures(
-            lossFigures(ctx, {
-              conductionLabel: "Conduction loss, power device",
-              conduction_W: pCond,
-              conductionFormula: "P = I_D,max² · R_DS(on),hot · D_max",
-              switchingLabel: "Switching loss, power device",
-              switching_W: pSw,
-              transitions: "t_on + t_off",
-            }),
-            dev,
-            vgMin,
-          ),
+          ...channelFigures(mosfetLossFigures(ctx, pCond, pSw), dev, vgMin),
         ],
       };
     },

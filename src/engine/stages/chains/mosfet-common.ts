@@ -11,7 +11,7 @@ import { transistor } from "../../../circuit/parts.ts";
 import type { DesignProblem } from "../../../model/problem.ts";
 import { figure, problem } from "../../shared/figures.ts";
 import type { Ctx } from "../context.ts";
-import { switchOffVoltage_V } from "./common.ts";
+import { lossFigures, switchOffVoltage_V } from "./common.ts";
 import { deviceSource } from "../../shared/sources.ts";
 import { plateau_V, plateauCharge_C, plateauTyp_V, vthTyp_V } from "../../shared/gate-charge.ts";
 import { rdsOnNominal_ohm } from "../../shared/rdson.ts";
@@ -142,4 +142,21 @@ export function lowSideMosfet(ctx: Ctx, dev: MosfetClass): Part {
     { d: "sw", g: "g", s: "0" },
     { voltage_V: switchOffVoltage_V(ctx), current_A: ctx.iMax_A },
   );
+}
+
+/**
+ * The MOSFET switch's conduction and switching loss figures (`lossFigures` with the MOSFET's conduction
+ * law, I²·R_DS(on),hot·D); `transitionsNote` says where a chain's edge times come from when they are not
+ * the plain gate-charge ones.
+ */
+export function mosfetLossFigures(ctx: Ctx, pCond_W: number, pSw_W: number, transitionsNote?: string): Figure[] {
+  return lossFigures(ctx, {
+    conductionLabel: "Conduction loss, power device",
+    conduction_W: pCond_W,
+    conductionFormula: "P = I_D,max² · R_DS(on),hot · D_max",
+    switchingLabel: "Switching loss, power device",
+    switching_W: pSw_W,
+    transitions: "t_on + t_off",
+    ...(transitionsNote === undefined ? {} : { transitionsNote }),
+  });
 }

@@ -17,7 +17,7 @@ import { hfeMin, vbeOn, vceSat } from "../../shared/gain.ts";
 import { conductionLossBjt_W, conductionLossMosfet_W, gateDrivePower_W, switchingLoss_W } from "../../shared/losses.ts";
 import { resistor, transistor, zener } from "../../../circuit/parts.ts";
 import { type Ctx, OVERDRIVE_K, switchedVoltage_V } from "../context.ts";
-import { driveMargin, lossFigures, switchChecks, switchOffVoltage_V, vbeCold } from "./common.ts";
+import { driveMargin, switchChecks, switchOffVoltage_V, vbeCold } from "./common.ts";
 import { WEAK_TURNOFF_FACTOR } from "./bjt-single.ts";
 import {
   gateTimes,
@@ -34,6 +34,7 @@ import {
   noChannel,
   channelFigures,
   gateBelowThreshold,
+  mosfetLossFigures,
 } from "./mosfet-common.ts";
 import { releasedTurnOnEquivalent_s } from "./gate-release.ts";
 import type { ChainPlan } from "./types.ts";
@@ -328,15 +329,7 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
             [railMin, railMax],
           ),
           ...channelFigures(
-            lossFigures(ctx, {
-              conductionLabel: "Conduction loss, power device",
-              conduction_W: pCond,
-              conductionFormula: "P = I_D,max² · R_DS(on),hot · D_max",
-              switchingLabel: "Switching loss, power device",
-              switching_W: pSw,
-              transitions: "t_on + t_off",
-              transitionsNote: "t_on: driver release (gate-release.ts), t_off: 2·Q_pl/I_sink",
-            }),
+            mosfetLossFigures(ctx, pCond, pSw, "t_on: driver release (gate-release.ts), t_off: 2·Q_pl/I_sink"),
             mos,
             vgsMin,
           ),

@@ -10,7 +10,7 @@ import { figure, problem } from "../../shared/figures.ts";
 import { conductionLossMosfet_W, switchingLoss_W } from "../../shared/losses.ts";
 import { CORE_RAIL_NET, type Ctx, coreSupply, switchedVoltage_V, switchedVoltageNominal_V } from "../context.ts";
 import { railParts } from "../core-rail.ts";
-import { switchChecks, lossFigures } from "./common.ts";
+import { switchChecks } from "./common.ts";
 import {
   gateTimes,
   gateTimesNominal,
@@ -26,6 +26,7 @@ import {
   noChannel,
   channelFigures,
   gateBelowThreshold,
+  mosfetLossFigures,
 } from "./mosfet-common.ts";
 import { recoveringTurnOn, saturatedTurnOff_s, sinkLimitedTurnOff_s } from "./gate-recovery.ts";
 import type { ChainPlan } from "./types.ts";
@@ -223,14 +224,7 @@ export function planMosfetLogic(ctx: Ctx): ChainPlan {
               [vgMin, vgMax],
             ),
             ...transitionFigures(t, "t_on = Q_G·R_src/(V_GS − V_plateau)", "t_off = Q_G·R_sink/V_plateau"),
-            ...lossFigures(ctx, {
-              conductionLabel: "Conduction loss, power device",
-              conduction_W: pCond,
-              conductionFormula: "P = I_D,max² · R_DS(on),hot · D_max",
-              switchingLabel: "Switching loss, power device",
-              switching_W: pSw,
-              transitions: "t_on + t_off",
-            }),
+            ...mosfetLossFigures(ctx, pCond, pSw),
           ],
           dev,
           vgMin,
