@@ -27,7 +27,7 @@ export async function sizeAll(root: string, gateBuffer = false): Promise<SizedVa
   if (!project.ok) throw new Error(`records do not load:\n${project.issues.slice(0, 10).map(formatIssue).join("\n")}`);
   const specs = project.designs.flatMap((d) =>
     expandDesign(d.record, {
-      choose: (r, s, a, c) => chooseDevices(r, project.devices, s, a, c),
+      choose: (r, s, a, c, k) => chooseDevices(r, project.devices, s, a, c, k),
       stressClasses: (r) => stressClasses(r, project.devices),
       policy: project.policy,
     }),

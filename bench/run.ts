@@ -41,7 +41,7 @@ async function benchEngine(): Promise<void> {
   if (!project.ok) throw new Error("records do not load: run `npm run check`");
   const specs = project.designs.flatMap((d) =>
     expandDesign(d.record, {
-      choose: (r, s, a) => chooseDevices(r, project.devices, s, a),
+      choose: (r, s, a, c, k) => chooseDevices(r, project.devices, s, a, c, k),
       stressClasses: (r) => stressClasses(r, project.devices),
       policy: project.policy,
     }),

@@ -31,8 +31,9 @@ export function sizeProject(
 /** Size every variant of one design (alternatives attached across the design's variants). */
 export function sizeDesign(project: LoadedProject, d: LoadedProject["designs"][number]): SizedVariant[] {
   const specs = expandDesign(d.record, {
-    choose: (rec, supply_V, load_A, c) => chooseDevices(rec, project.devices, supply_V, load_A, c),
-    explain: (rec, supply_V, load_A, c) => chooseDevicesWithReasons(rec, project.devices, supply_V, load_A, c).reasons,
+    choose: (rec, supply_V, load_A, c, k) => chooseDevices(rec, project.devices, supply_V, load_A, c, k),
+    explain: (rec, supply_V, load_A, c, k) =>
+      chooseDevicesWithReasons(rec, project.devices, supply_V, load_A, c, k).reasons,
     // Offered again since the bleed turn-off guard (stages/base-bleed.ts bleedTurnOffIndex) holds the cores it
     // makes feasible with both card sets (docs/method.md, "Low-capacitance base diodes").
     stressClasses: (rec) => stressClasses(rec, project.devices),

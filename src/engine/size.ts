@@ -12,6 +12,7 @@ import { formatValue } from "../model/format.ts";
 import type { StressCheck } from "../model/derating.ts";
 import type { SizedVariant } from "../model/sized.ts";
 import type { VariantSpec } from "../model/variant.ts";
+import { DEVICE_ROLES, type DeviceRole } from "../model/design.ts";
 import type { BjtClass, DiodeClass } from "../model/device.ts";
 import { diodeCj_F, diodeClassVf_V } from "./shared/diode.ts";
 import type { ChainPlan, DeviceLoss, OperatingPoint } from "./stages/chains/types.ts";
@@ -67,6 +68,15 @@ import {
 } from "./stages/core-rail.ts";
 
 export function sizeVariant(spec: VariantSpec): SizedVariant {
+  const out = sizeStepped(spec);
+  if (out.feasible || spec.everyKindChoice === undefined) return out;
+  // The classes chosen for this load kind alone are refused: the record's every-kind classes (the
+  // larger start-up peak among its load kinds chose them), kept only when feasible.
+  const alt = sizeStepped(withEveryKindChoice(spec, out));
+  return alt.feasible ? alt : out;
+}
+
+function sizeStepped(spec: VariantSpec): SizedVariant {
   const out = sizeOnce(spec);
   if (out.feasible) return out;
   // The switch stepped up under stress (stages/switch-step.ts): kept only when feasible.
@@ -74,6 +84,34 @@ export function sizeVariant(spec: VariantSpec): SizedVariant {
     const alt = sizeOnce(stepped);
     if (alt.feasible) return alt;
   }
+  return out;
+}
+
+/**
+ * The spec with the record's every-kind classes in place of this load kind's own; each role whose class
+ * changes says why in its decision (the own class's refusal).
+ */
+function withEveryKindChoice(spec: VariantSpec, refused: SizedVariant): VariantSpec {
+  const every = spec.everyKindChoice;
+  if (every === undefined) return spec;
+  const rule = refused.verdict.blocking[0]?.rule ?? "not feasible";
+  const out: VariantSpec = { ...spec, devices: { ...every.devices } };
+  delete out.everyKindChoice;
+  delete out.deviceReasons;
+  delete out.stressClasses;
+  if (every.deviceReasons !== undefined) {
+    const why = every.deviceReasons;
+    out.deviceReasons = Object.fromEntries(
+      DEVICE_ROLES.map((role) => [
+        role,
+        every.devices[role].id === spec.devices[role].id
+          ? why[role]
+          : `${why[role]}; chosen for every load kind of the record: the class chosen for the ${spec.load_kind} ` +
+            `load alone (${spec.devices[role].id}) leaves the variant refused (${rule})`,
+      ]),
+    ) as Record<DeviceRole, string>;
+  }
+  if (every.stressClasses !== undefined) out.stressClasses = { ...every.stressClasses };
   return out;
 }
 

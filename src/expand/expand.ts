@@ -4,10 +4,10 @@
  * sees complete targets. Pure: the device choice and the policy come in as dependencies.
  */
 import type { DeratingPolicy } from "../model/derating.ts";
-import type { DesignRecord, DeviceRole } from "../model/design.ts";
+import { DEVICE_ROLES, type DesignRecord, type DeviceRole } from "../model/design.ts";
 import type { DeviceClass } from "../model/device.ts";
-import type { ChainKind } from "../model/kinds.ts";
-import type { VariantSpec } from "../model/variant.ts";
+import type { ChainKind, LoadKind } from "../model/kinds.ts";
+import type { DeviceChoice, VariantSpec } from "../model/variant.ts";
 import { variantId } from "./variant-id.ts";
 import { supplyWindow } from "../engine/shared/supply.ts";
 import { stressStepApplies } from "../engine/devices/choose.ts";
@@ -23,10 +23,25 @@ export const TARGET_DEFAULTS = {
 export const PROTECTION_DEFAULTS: VariantSpec["protection"] = { be_breakdown: "series-base-diode" };
 
 export interface ExpandDeps {
-  /** Device classes for one variant; `chain` lets the choice follow what that chain puts across each part. */
-  choose: (rec: DesignRecord, supply_V: number, load_A: number, chain: ChainKind) => Record<DeviceRole, DeviceClass>;
+  /**
+   * Device classes for one variant; `chain` and `loadKind` let the choice follow what that chain and
+   * that load put across each part (a lamp's cold-filament peak is not a heater's).
+   */
+  choose: (
+    rec: DesignRecord,
+    supply_V: number,
+    load_A: number,
+    chain: ChainKind,
+    loadKind?: LoadKind,
+  ) => Record<DeviceRole, DeviceClass>;
   /** Optional: why each role got its class (shown on the page as design decisions). */
-  explain?: (rec: DesignRecord, supply_V: number, load_A: number, chain: ChainKind) => Record<DeviceRole, string>;
+  explain?: (
+    rec: DesignRecord,
+    supply_V: number,
+    load_A: number,
+    chain: ChainKind,
+    loadKind?: LoadKind,
+  ) => Record<DeviceRole, string>;
   /** Optional: classes the engine may step a role up to while sizing (VariantSpec.stressClasses). */
   stressClasses?: (rec: DesignRecord) => Partial<Record<DeviceRole, DeviceClass>>;
   policy: DeratingPolicy;
@@ -65,9 +80,11 @@ export function expandDesign(rec: DesignRecord, deps: ExpandDeps): VariantSpec[]
     // Every worst case of the variant uses this window's min and max (src/engine/shared/supply.ts).
     for (const load_A of rec.axes.load_A) {
       for (const chain of rec.axes.chain) {
-        const devices = deps.choose(rec, supply_V, load_A, chain);
-        const reasons = deps.explain?.(rec, supply_V, load_A, chain);
+        const every = rec.axes.load_kind.length > 1 ? choiceOf(deps, stressFor, rec, supply_V, load_A, chain) : null;
         for (const load_kind of rec.axes.load_kind) {
+          const devices = deps.choose(rec, supply_V, load_A, chain, load_kind);
+          const reasons = deps.explain?.(rec, supply_V, load_A, chain, load_kind);
+          const differs = every !== null && DEVICE_ROLES.some((role) => every.devices[role].id !== devices[role].id);
           out.push({
             id: variantId(rec, supply_V, load_A, chain, load_kind),
             design: rec.id,
@@ -82,6 +99,7 @@ export function expandDesign(rec: DesignRecord, deps: ExpandDeps): VariantSpec[]
             devices: { ...devices },
             ...(reasons ? { deviceReasons: { ...reasons } } : {}),
             ...stressFor(devices),
+            ...(differs ? { everyKindChoice: every } : {}),
             policy: deps.policy,
             ...(load_kind === "solenoid" && rec.solenoid !== undefined ? { solenoid: { ...rec.solenoid } } : {}),
           });
@@ -90,6 +108,23 @@ export function expandDesign(rec: DesignRecord, deps: ExpandDeps): VariantSpec[]
     }
   }
   return out;
+}
+
+/**
+ * The classes chosen for every load kind of the record at once (the chooser without a load kind: the
+ * largest start-up peak among the kinds decides), with their reasons and stress classes.
+ */
+function choiceOf(
+  deps: ExpandDeps,
+  stressFor: (devices: Record<DeviceRole, DeviceClass>) => Pick<VariantSpec, "stressClasses">,
+  rec: DesignRecord,
+  supply_V: number,
+  load_A: number,
+  chain: ChainKind,
+): DeviceChoice {
+  const devices = deps.choose(rec, supply_V, load_A, chain);
+  const reasons = deps.explain?.(rec, supply_V, load_A, chain);
+  return { devices, ...(reasons ? { deviceReasons: reasons } : {}), ...stressFor(devices) };
 }
 
 /** How many variants a record expands to, without choosing devices. */

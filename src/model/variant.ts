@@ -27,10 +27,19 @@ export interface VariantSpec {
    * (src/engine/devices/choose.ts STRESS_DEVICE_IDS): present when the record binds no class for the role.
    */
   stressClasses?: Partial<Record<DeviceRole, DeviceClass>>;
+  /**
+   * The classes chosen for every load kind of the record at once (the larger start-up peak among them
+   * decides), present only where they differ from this load kind's own choice: the engine sizes the
+   * variant with its own classes first and takes these only when those are refused (src/engine/size.ts).
+   */
+  everyKindChoice?: DeviceChoice;
   policy: DeratingPolicy;
   /** The record's coil data, present on solenoid variants. */
   solenoid?: SolenoidRecord;
 }
+
+/** A variant's device classes with the chooser's reasons and the classes they may step up to. */
+export type DeviceChoice = Pick<VariantSpec, "devices" | "deviceReasons" | "stressClasses">;
 
 /** Battery chemistries whose windows the engine knows (src/engine/shared/supply.ts). */
 export const BATTERY_CHEMISTRIES = ["lead-acid", "lifepo4"] as const;

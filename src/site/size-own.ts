@@ -102,8 +102,8 @@ export function sizeOwn(data: SizeOwnData, input: SizeOwnInput, opts: { schemati
     },
   };
   const [spec] = expandDesign(rec, {
-    choose: (r, s, a, c) => chooseDevices(r, lib, s, a, c),
-    explain: (r, s, a, c) => chooseDevicesWithReasons(r, lib, s, a, c).reasons,
+    choose: (r, s, a, c, k) => chooseDevices(r, lib, s, a, c, k),
+    explain: (r, s, a, c, k) => chooseDevicesWithReasons(r, lib, s, a, c, k).reasons,
     stressClasses: (r) => stressClasses(r, lib),
     policy: data.policy,
   });

@@ -21,7 +21,7 @@ export async function realCatalogue(designIds: string[] = ["circulation-fan"]): 
     .filter((d) => designIds.includes(d.record.id))
     .map((d) => {
       const specs = expandDesign(d.record, {
-        choose: (r, s, a, c) => chooseDevices(r, project.devices, s, a, c),
+        choose: (r, s, a, c, k) => chooseDevices(r, project.devices, s, a, c, k),
         policy: project.policy,
       });
       const sized = attachAlternatives(specs.map((s) => sizeVariant(s)));

@@ -162,7 +162,7 @@ describe.skipIf(!CHROMIUM)("the published site in a browser", () => {
             axes: { supply_V: [inp.supply_V], load_A: [inp.load_A], chain: [inp.chain], load_kind: [inp.load_kind] },
           };
           const [spec] = expandDesign(rec, {
-            choose: (r, s, a, c) => chooseDevices(r, lib, s, a, c),
+            choose: (r, s, a, c, k) => chooseDevices(r, lib, s, a, c, k),
             policy: cat.engine!.policy,
           });
           const sized = sizeVariant(spec!);

@@ -165,7 +165,7 @@ export function makeSpec(o: SpecOpts): VariantSpec {
       be_breakdown: o.be ?? "series-base-diode",
       ...(o.inrushLimit ? { inrush_limit: o.inrushLimit } : {}),
     },
-    devices: { ...chooseDevices(rec, library(), o.supply_V, o.load_A, o.chain), ...(o.override ?? {}) },
+    devices: { ...chooseDevices(rec, library(), o.supply_V, o.load_A, o.chain, o.load_kind), ...(o.override ?? {}) },
     ...(o.stress === true ? { stressClasses: stressClasses(rec, library()) } : {}),
     policy: policy(),
     ...(rec.solenoid ? { solenoid: rec.solenoid } : {}),

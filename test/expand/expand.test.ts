@@ -28,6 +28,7 @@ const fakeChoose = (
   supply_V: number,
   load_A: number,
   _chain?: string,
+  _kind?: string,
 ): Record<DeviceRole, DeviceClass> =>
   Object.fromEntries(
     DEVICE_ROLES.map((role) => [role, { id: `${role}-${supply_V}-${load_A}` } as DeviceClass]),
@@ -67,23 +68,45 @@ describe("expandDesign", () => {
   });
 
   it(
-    "asks for devices once per supply × current × chain (what a part sees depends on the chain), and hands each " +
-      "spec its own copy",
+    "asks for devices once per supply × current × chain × load kind (what a part sees depends on the chain and " +
+      "the load), and hands each spec its own copy",
     () => {
       const choose = vi.fn(fakeChoose);
       const specs = expandDesign(record, { choose, policy });
-      expect(choose).toHaveBeenCalledTimes(12);
-      expect(choose.mock.calls.map((c) => [c[1], c[2], c[3]]).slice(0, 4)).toEqual([
-        [12, 0.5, "bjt-single"],
-        [12, 0.5, "mosfet-logic"],
-        [12, 2, "bjt-single"],
-        [12, 2, "mosfet-logic"],
-      ]);
+      const own = choose.mock.calls.filter((c) => c[4] !== undefined);
+      expect(own.map((c) => [c[1], c[2], c[3], c[4]])).toEqual(
+        specs.map((s) => [s.supply_V, s.load_A, s.chain, s.load_kind]),
+      );
+      // Once more per supply × current × chain for every load kind at once (two kinds here); equal
+      // classes, so no spec carries that choice.
+      expect(choose).toHaveBeenCalledTimes(specs.length + specs.length / 2);
+      expect(specs.some((s) => s.everyKindChoice !== undefined)).toBe(false);
       expect(specs[5]?.devices.power_npn.id).toBe("power_npn-12-2"); // spec 5: 12 V, 2 A
       expect(specs[0]?.devices).not.toBe(specs[1]?.devices);
       expect(specs[0]?.policy).toBe(policy);
     },
   );
+});
+
+describe("expandDesign: the record's every-kind choice", () => {
+  it("is carried where a load kind's own classes differ from it, and only there", () => {
+    // A chooser whose switch class depends on the load kind (as a lamp's cold-filament peak does).
+    const byKind = (
+      _r: DesignRecord,
+      supply_V: number,
+      load_A: number,
+      _chain?: string,
+      kind?: string,
+    ): Record<DeviceRole, DeviceClass> => {
+      const out = fakeChoose(_r, supply_V, load_A);
+      return { ...out, power_npn: { id: kind === "resistive" ? "small" : "large" } as DeviceClass };
+    };
+    const specs = expandDesign(record, { choose: byKind, policy });
+    for (const s of specs) {
+      if (s.load_kind === "resistive") expect(s.everyKindChoice?.devices.power_npn.id).toBe("large");
+      else expect(s.everyKindChoice).toBeUndefined();
+    }
+  });
 });
 
 describe("the demo catalogue, with the real device library and chooser", () => {
@@ -94,7 +117,7 @@ describe("the demo catalogue, with the real device library and chooser", () => {
     const ids: string[] = [];
     for (const { record: rec } of r.designs) {
       const specs = expandDesign(rec, {
-        choose: (x, v, a, c) => chooseDevices(x, r.devices, v, a, c),
+        choose: (x, v, a, c, k) => chooseDevices(x, r.devices, v, a, c, k),
         policy: r.policy,
       });
       counts[rec.id] = specs.length;

@@ -104,7 +104,7 @@ function record(p: Point, supplies: number[], loads: number[]): DesignRecord {
 /** Size every variant of a record exactly as the build does. */
 function size(rec: DesignRecord): SizedVariant[] {
   const specs = expandDesign(rec, {
-    choose: (r, s, l, c) => chooseDevices(r, project.devices, s, l, c),
+    choose: (r, s, l, c, k) => chooseDevices(r, project.devices, s, l, c, k),
     policy: project.policy,
   });
   return specs.map((s) => sizeVariant(s));

@@ -11,7 +11,7 @@ export async function demo(): Promise<{ sized: SizedVariant[]; devices: DeviceLi
   const r = await loadProject(REPO);
   if (!r.ok) throw new Error(`demo records must load: ${r.issues[0]?.message}`);
   const sized = r.designs.flatMap(({ record }) =>
-    expandDesign(record, { choose: (x, v, a, c) => chooseDevices(x, r.devices, v, a, c), policy: r.policy }).map(
+    expandDesign(record, { choose: (x, v, a, c, k) => chooseDevices(x, r.devices, v, a, c, k), policy: r.policy }).map(
       sizeVariant,
     ),
   );

@@ -32,7 +32,7 @@ async function demo(): Promise<{ variants: Demo[]; devices: DeviceLibrary }> {
   const variants: Demo[] = [];
   for (const { record } of r.designs) {
     for (const spec of expandDesign(record, {
-      choose: (x, v, a, c) => chooseDevices(x, r.devices, v, a, c),
+      choose: (x, v, a, c, k) => chooseDevices(x, r.devices, v, a, c, k),
       policy: r.policy,
     })) {
       const sized = sizeVariant(spec);

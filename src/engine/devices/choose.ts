@@ -5,7 +5,7 @@
  * reports problems, so a default that is still too small shows up as a design problem, not here.
  */
 import type { DesignRecord, DeviceRole } from "../../model/design.ts";
-import type { ChainKind } from "../../model/kinds.ts";
+import type { ChainKind, LoadKind } from "../../model/kinds.ts";
 import { DEVICE_ROLES, ROLE_FAMILY } from "../../model/design.ts";
 import type { BjtClass, DeviceClass, DeviceLibrary, DiodeClass, MosfetClass, ZenerClass } from "../../model/device.ts";
 import { EngineMisuseError } from "../../model/errors.ts";
@@ -94,6 +94,12 @@ export const STRESS_DEVICE_IDS: Readonly<Partial<Record<DeviceRole, readonly str
   // the 0.5 W one of the same voltage (the rail feeds the core too); carried only then (`stressStepApplies`).
   timing_npn: ["npn-small-signal-high-gain"],
   gate_zener: ["zener-12v-1w"],
+  // The BJT chains' switch where the smaller ordinary class the chooser took is refused for heat, the
+  // start-up peak or the drop that starves the load (an LED strip at 0.1 A behind a TO-92 PNP's
+  // V_CE(sat)): the TO-220 class of the same polarity (stages/switch-step.ts; kept only when the
+  // variant then passes); carried only where the chooser took a smaller class (`stressStepApplies`).
+  power_npn: ["npn-power-to220"],
+  power_pnp: ["pnp-power-to220"],
 };
 
 /**
@@ -106,6 +112,11 @@ export function stressStepApplies(role: DeviceRole, chosen: DeviceClass | undefi
   if (role === "timing_npn") return (RAISED_DEVICE_IDS.timing_npn ?? []).includes(chosen.id);
   if (role === "gate_zener")
     return isZener(chosen) && isZener(step) && chosen.vz_V === step.vz_V && chosen.pz_W < step.pz_W;
+  if (role === "power_npn" || role === "power_pnp") {
+    const order = DEFAULT_DEVICE_IDS[role];
+    const at = order.indexOf(chosen.id);
+    return at >= 0 && at < order.indexOf(step.id);
+  }
   return true;
 }
 
@@ -240,8 +251,6 @@ interface Need {
   ambientMax_C: number;
   /** Highest running current over the record's load kinds, at the top of the supply window (A). */
   iRunMax_A: number;
-  /** The record's smallest required duty (the freewheel diode carries the current for the rest). */
-  dutyMin: number;
   /**
    * Highest off-state voltage across a load switch: V_cc,max plus the freewheel drop with a motor (as the engine checks
    * it).
@@ -313,9 +322,11 @@ function whyNot(role: DeviceRole, d: DeviceClass, n: Need): string | null {
       return `pulse rating ${f3(d.icm_A ?? d.ic_max_A)} A is below the ${f3(n.peak_A)} A start-up peak`;
     // Case-rated packages may go on a heatsink (the thermal stage sizes it); small packages must
     // cope in free air at full duty.
-    // The same class serves bjt-single (saturated, V_CE(sat)) and the Darlington output, which
-    // cannot saturate: V_CE ≥ V_CE(sat),drv + V_BE(sat),out [src:common-practice]. Take the larger.
-    const vOn = Math.max(vceSat(d, n.load_A), DARLINGTON_DRIVE_SAT_V + vbeSat(d, n.load_A));
+    // A saturated single stage drops V_CE(sat); a Darlington output cannot saturate:
+    // V_CE ≥ V_CE(sat),drv + V_BE(sat),out [src:common-practice]. Where the class serves a Darlington
+    // (the chain asked for, or any chain of the record when none is named), take the larger.
+    const vSat = vceSat(d, n.load_A);
+    const vOn = n.darlington === 0 ? vSat : Math.max(vSat, DARLINGTON_DRIVE_SAT_V + vbeSat(d, n.load_A));
     return d.ptot_at === "case" || freeAirOk(d, n.load_A * vOn, n)
       ? null
       : `${d.package} in free air at full duty runs over ${Math.min(125, d.tj_max_C - 40)} °C`;
@@ -374,11 +385,14 @@ function diodeWhyNot(role: DeviceRole, d: DiodeClass, n: Need): string | null {
 
 /**
  * Average current a freewheel diode carries: the running current at the top of the supply window
- * for the off share of the period, taken at half the record's smallest duty (the worst-case
- * control reaches below it), and never less than the rated current (the former rule).
+ * over the whole period, and never less than the rated current. The engine's check takes the off
+ * share at the lowest duty the worst-case control reaches (protection.ts), which lies below the
+ * record's smallest duty by an amount known only once the core is sized (6 % for a 20–80 % record
+ * at 5 V, 1 kHz, where half the smallest duty, the former estimate, chose a class the check then
+ * refused at 51 % of its rating); the whole period bounds it.
  */
 function freewheelCurrent_A(n: Need): number {
-  return Math.max(n.load_A, n.iRunMax_A * (1 - n.dutyMin / 2));
+  return Math.max(n.load_A, n.iRunMax_A);
 }
 
 /**
@@ -576,6 +590,8 @@ function darlingtonStages(chains: readonly ChainKind[]): 0 | 2 | 3 {
 /**
  * `chain`, when given, is the chain the classes serve (a Darlington's first stage sits on the
  * switch node and sees the freewheel drop, other drivers do not); absent, every chain of the record.
+ * `loadKind`, when given, is the load the classes serve (a cold filament's start-up peak asks a larger
+ * switch and fuse than a heater's of the same rated current); absent, every load kind of the record.
  */
 export function chooseDevices(
   record: DesignRecord,
@@ -583,8 +599,9 @@ export function chooseDevices(
   supply_V: number,
   load_A: number,
   chain?: ChainKind,
+  loadKind?: LoadKind,
 ): Record<DeviceRole, DeviceClass> {
-  return chooseDevicesWithReasons(record, lib, supply_V, load_A, chain).devices;
+  return chooseDevicesWithReasons(record, lib, supply_V, load_A, chain, loadKind).devices;
 }
 
 /** The classes chooseDevices takes, with the reason for each role (shown as design decisions). */
@@ -594,6 +611,7 @@ export function chooseDevicesWithReasons(
   supply_V: number,
   load_A: number,
   chain?: ChainKind,
+  loadKind?: LoadKind,
 ): { devices: Record<DeviceRole, DeviceClass>; reasons: Record<DeviceRole, string> } {
   if (!Number.isFinite(supply_V) || supply_V <= 0 || !Number.isFinite(load_A) || load_A <= 0) {
     throw new EngineMisuseError(
@@ -604,7 +622,7 @@ export function chooseDevicesWithReasons(
   const w = supplyWindow({ ...record.supply, tolerance: record.targets.supply_tolerance ?? 0.1 }, supply_V);
   const lim = record.protection?.inrush_limit;
   const coil = record.solenoid === undefined ? undefined : { tau_s: record.solenoid.tau_ms * 1e-3 };
-  const starts = record.axes.load_kind.map((kind) => {
+  const starts = (loadKind === undefined ? record.axes.load_kind : [loadKind]).map((kind) => {
     const load = loadModel(kind, supply_V, load_A, coil);
     const p = {
       kind,
@@ -631,7 +649,6 @@ export function chooseDevicesWithReasons(
     driverVOff_V: darlington && starts.some((x) => x.inductive) ? w.max_V + FREEWHEEL_DROP_V : w.max_V,
     fuseClearing_A2s,
     iRunMax_A: Math.max(...starts.map((x) => x.iRun_A)),
-    dutyMin: record.targets.duty_min,
     peak_A: Math.max(...starts.map((x) => x.peak_A)),
     vOff_V: w.max_V + (starts.some((x) => x.inductive) ? FREEWHEEL_DROP_V : 0),
     vMin_V: w.min_V,

@@ -1,15 +1,16 @@
 /**
- * The load switch stepped up under stress (docs/method.md, "Power classes by stress"): a MOSFET chain
- * whose variant is refused by what its switch carries (conduction heat, the start-up peak against the
- * pulse rating, the drop that starves the load) is sized again with the library's low-R_DS(on)
- * classes (devices/choose.ts STRESS_DEVICE_IDS), and the stepped design is kept only when it is
- * feasible: a variant that passed before keeps its design byte for byte, and a refusal that the
- * larger class does not cure keeps its page. A record that binds the role keeps its class (no
- * stress class is offered for a bound role). The step is the role's device-class decision, with
- * the refusal it cures as its reason.
+ * The load switch stepped up under stress (docs/method.md, "Power classes by stress"): a variant
+ * refused by what its switch carries (conduction heat, the start-up peak against the pulse rating,
+ * the drop that starves the load) is sized again with a stronger class — for the MOSFET chains the
+ * library's low-R_DS(on) classes, for the BJT chains the TO-220 class of the switch's polarity where
+ * the chooser took a smaller one (devices/choose.ts STRESS_DEVICE_IDS) — and the stepped design is
+ * kept only when it is feasible: a variant that passed before keeps its design byte for byte, and a
+ * refusal that the larger class does not cure keeps its page. A record that binds the role keeps
+ * its class (no stress class is offered for a bound role). The step is the role's device-class
+ * decision, with the refusal it cures as its reason.
  */
 import type { DeviceRole } from "../../model/design.ts";
-import type { MosfetClass } from "../../model/device.ts";
+import type { BjtClass, MosfetClass } from "../../model/device.ts";
 import type { SizedVariant } from "../../model/sized.ts";
 import type { VariantSpec } from "../../model/variant.ts";
 import { formatValue } from "../../model/format.ts";
@@ -29,19 +30,54 @@ const SWITCH_RULES: ReadonlySet<string> = new Set([
   "gate-below-threshold",
 ]);
 
-/** The role a MOSFET chain's switch takes its class from, or null for the other chains. */
-function switchRole(chain: string): Extract<DeviceRole, "mosfet_logic" | "mosfet_standard"> | null {
-  return chain === "mosfet-logic" ? "mosfet_logic" : chain === "mosfet-driver" ? "mosfet_standard" : null;
+type SwitchRole = Extract<DeviceRole, "mosfet_logic" | "mosfet_standard" | "power_npn" | "power_pnp">;
+
+/** The role a chain's load switch takes its class from. */
+function switchRole(chain: string): SwitchRole | null {
+  switch (chain) {
+    case "mosfet-logic":
+      return "mosfet_logic";
+    case "mosfet-driver":
+      return "mosfet_standard";
+    case "bjt-single":
+    case "darlington-2":
+    case "darlington-3":
+      return "power_npn";
+    case "bjt-driver-pnp":
+      return "power_pnp";
+    default:
+      return null;
+  }
 }
 
-/** The stress classes a MOSFET chain's switch may be stepped to (none for a bound role or another chain). */
-export function stepClasses(spec: VariantSpec): MosfetClass[] {
+/** The stress classes a chain's switch may be stepped to (none for a bound role). */
+export function stepClasses(spec: VariantSpec): (MosfetClass | BjtClass)[] {
   const role = switchRole(spec.chain);
   const stress = spec.stressClasses;
   if (role === null || stress?.[role] === undefined) return [];
   const ordinary = spec.devices[role];
+  if (role === "power_npn" || role === "power_pnp") {
+    // A step up only: the stress class must carry more than the class the chooser took.
+    const d = stress[role];
+    return d !== undefined && d.family === ordinary.family && (d as BjtClass).ic_max_A > (ordinary as BjtClass).ic_max_A
+      ? [d as BjtClass]
+      : [];
+  }
   const candidates = role === "mosfet_logic" ? [stress.mosfet_logic] : [stress.mosfet_logic, stress.mosfet_standard];
   return candidates.filter((d): d is MosfetClass => d !== undefined && d.family === "nmos" && d.id !== ordinary.id);
+}
+
+/** What the stepped class offers, in the decision's words. */
+function offers(d: MosfetClass | BjtClass): string {
+  if (d.family === "nmos") {
+    const r = [...d.rds_on].sort((a, b) => a.vgs_V - b.vgs_V)[0]!;
+    return (
+      `R_DS(on) ≤ ${formatValue(r.max_ohm, "Ω")} at V_GS ${specVgs_V(d)} V, pulse rating ` +
+      `${d.idm_A ?? d.id_A} A, θ_JC ${d.rth_jc_KperW ?? "—"} K/W`
+    );
+  }
+  const pulse_A = d.icm_A ?? d.ic_max_A;
+  return `I_C,max ${d.ic_max_A} A, pulse rating ${pulse_A} A, ${d.package}, θ_JC ${d.rth_jc_KperW ?? "—"} K/W`;
 }
 
 /**
@@ -57,13 +93,11 @@ export function switchSteps(spec: VariantSpec, out: SizedVariant): VariantSpec[]
   const rules = [...new Set(out.verdict.blocking.map((b) => b.rule))];
   const cured = rules.filter((r) => SWITCH_RULES.has(r));
   if (cured.length === 0) return [];
-  const ordinary = spec.devices[role] as MosfetClass;
+  const ordinary = spec.devices[role];
   return classes.map((d) => {
-    const r = [...d.rds_on].sort((a, b) => a.vgs_V - b.vgs_V)[0]!;
     const reason =
       `stepped up under stress: with ${ordinary.title} the variant is refused (${cured.join(", ")}); ` +
-      `${d.title} (R_DS(on) ≤ ${formatValue(r.max_ohm, "Ω")} at V_GS ${specVgs_V(d)} V, pulse rating ` +
-      `${d.idm_A ?? d.id_A} A, θ_JC ${d.rth_jc_KperW ?? "—"} K/W) passes every check`;
+      `${d.title} (${offers(d)}) passes every check`;
     return {
       ...spec,
       devices: { ...spec.devices, [role]: d },

@@ -87,7 +87,10 @@ describe("chooseDevices: defaults by current and voltage", () => {
   it("freewheel diode: no standard-recovery rectifier at 20 kHz PWM; allowed at slow PWM", () => {
     expect(chooseDevices(record(20e3), lib, 12, 0.3).freewheel_diode.id).toBe("diode-schottky-3a");
     expect(chooseDevices(record(200), lib, 12, 0.3).freewheel_diode.id).toBe("diode-rectifier-1a");
-    expect(chooseDevices(record(20e3), lib, 24, 5).freewheel_diode.id).toBe("diode-schottky-10a");
+    // 5 A motor at 24 V +10 %: 5.5 A over the whole period (the worst-case control may reach near 0 %) is past
+    // the 10 A class × 50 % (policy's diode current factor) → the 30 A class; 3 A at 24 V → 3.3 A ≤ 5 A → 10 A class.
+    expect(chooseDevices(record(20e3), lib, 24, 5).freewheel_diode.id).toBe("diode-schottky-30a");
+    expect(chooseDevices(record(20e3), lib, 24, 3).freewheel_diode.id).toBe("diode-schottky-10a");
   });
 
   it("5–10 A and 48 V: the 30 A 100 V Schottky for freewheel and series reverse duty", () => {
@@ -263,7 +266,8 @@ describe("chooseDevices: classes of raised rating, only where the ordinary ones 
     const at48 = chooseDevicesWithReasons(fan(48), lib, 48, 0.5, "mosfet-driver");
     expect(at48.devices.freewheel_diode.id).toBe("diode-fast-3a");
     expect(at48.reasons.freewheel_diode).toContain("diode-rectifier-1a: standard recovery at 52.8 V and 1.00e+3 Hz");
-    expect(chooseDevices(fan(24), lib, 24, 0.5, "mosfet-driver").freewheel_diode.id).toBe("diode-rectifier-1a");
+    // 0.4 A at 26.4 V: 0.44 A ≤ 1 A × 50 % → the standard rectifier (24 V · 1 kHz within the limit).
+    expect(chooseDevices(fan(24), lib, 24, 0.4, "mosfet-driver").freewheel_diode.id).toBe("diode-rectifier-1a");
   });
   it("at 12 and 24 V, and at 6 V where the 4.5 V class is still reachable, every role keeps an ordinary class", () => {
     for (const [v, chain] of [
@@ -277,5 +281,35 @@ describe("chooseDevices: classes of raised rating, only where the ordinary ones 
       for (const role of DEVICE_ROLES.filter((r) => r !== "mosfet_standard" || chain === "mosfet-driver"))
         expect(RAISED_DEVICE_IDS[role] ?? [], `${v} V ${role}`).not.toContain(d[role].id);
     }
+  });
+});
+
+describe("chooseDevices: per chain and per load kind", () => {
+  // One record offering a saturated single stage and a Darlington, for a lamp and a heater of 0.25 A at 12 V ±10 %.
+  const both: DesignRecord = {
+    id: "bench-lamp-and-heater",
+    title: "Bench lamp and heater (test)",
+    summary: "test record",
+    axes: { supply_V: [12], load_A: [0.25], chain: ["bjt-single", "darlington-2"], load_kind: ["lamp", "resistive"] },
+    targets: { pwm_Hz: 200, duty_min: 0.2, duty_max: 0.8, ambient_C: [-10, 45], supply_tolerance: 0.1 },
+  };
+  it("sizes the heater's switch for the heater, not for the lamp's cold filament", () => {
+    // Lamp: cold-filament peak ≈ 15 × the rated current (from memory) at 13.2 V: 15 × 0.25 A × 1.1 = 4.13 A,
+    // past the TO-18 class's 0.8 A pulse rating (absolute maximum, common practice) → TO-220.
+    expect(chooseDevices(both, lib, 12, 0.25, "bjt-single", "lamp").power_npn.id).toBe("npn-power-to220");
+    // Asked for every kind at once, the lamp's peak decides for the heater too (the choice before).
+    expect(chooseDevices(both, lib, 12, 0.25, "bjt-single").power_npn.id).toBe("npn-power-to220");
+    // Heater: peak = running current 0.275 A; TO-18 saturated: V_CE(sat) at 0.25 A between the class's points
+    // (0.15 A, 0.3 V) and (0.5 A, 1.0 V) = 0.5 V; 0.25 A × 0.5 V × 437.5 K/W = 55 K → 100 °C at 45 °C,
+    // within min(125 °C, T_J,max − 40 K) (free-air rule, common practice) → TO-18.
+    expect(chooseDevices(both, lib, 12, 0.25, "bjt-single", "resistive").power_npn.id).toBe("npn-medium");
+  });
+  it("keeps the Darlington output's unsaturated drop in the free-air rule", () => {
+    // Darlington output: V_CE ≥ V_CE(sat),drv + V_BE(sat),out = 0.3 + 1.43 V (V_BE(sat) linear between the
+    // class's points 1.2 V at 0.15 A and 2.0 V at 0.5 A); 0.25 A × 1.73 V × 437.5 K/W ≈ 189 K → far over → TO-220
+    // (common practice).
+    const d = chooseDevicesWithReasons(both, lib, 12, 0.25, "darlington-2", "resistive");
+    expect(d.devices.power_npn.id).toBe("npn-power-to220");
+    expect(d.reasons.power_npn).toContain("TO-18 in free air at full duty runs over 125 °C");
   });
 });

@@ -177,7 +177,7 @@ describe("a 6 V, 0.5 A fan motor on the logic-level MOSFET against the embedded 
   const file = join(import.meta.dirname, "..", "..", "fixtures", "edge", "designs", "seedling-fan-6v.json");
   const rec = JSON.parse(readFileSync(file, "utf8")) as DesignRecord;
   const [spec] = expandDesign(rec, {
-    choose: (r, supply_V, load_A, chain) => chooseDevices(r, library(), supply_V, load_A, chain),
+    choose: (r, supply_V, load_A, chain, k) => chooseDevices(r, library(), supply_V, load_A, chain, k),
     policy: policy(),
   });
   const sized = sizeVariant(spec!);

@@ -115,3 +115,27 @@ describe("gate below the worst-case threshold: a refusal by name, never a stand-
     for (const f of s.figures) if (f.unit === "W") expect(f.value).toBeLessThan(100);
   });
 });
+
+describe("the BJT chains' switch by stress: 9 V, 0.1 A LED strip on the PNP driver (1 kHz, 20–80 %)", () => {
+  const o: SpecOpts = { supply_V: 9, load_A: 0.1, chain: "bjt-driver-pnp", load_kind: "led" };
+  const plain = sizeVariant({ ...makeSpec(o), stressClasses: {} });
+  const stepped = sizeVariant(built(o));
+
+  it("the TO-92 class the chooser takes starves the strip; the TO-220 class of the same polarity passes", () => {
+    expect(plain.spec.devices.power_pnp.id).toBe("pnp-small-signal");
+    // The load-starved rule: the strip must draw ≥ 90 % of its rated current with the switch on (ours).
+    expect(plain.verdict.blocking[0]?.rule).toBe("load-starved");
+    expect(plain.verdict.blocking[0]?.message).toMatch(/draws 0\.0\d+ A of its rated 0\.1 A/);
+    expect(stepped.spec.devices.power_pnp.id).toBe("pnp-power-to220");
+    expect(stepped.feasible).toBe(true);
+    expect(stepped.spec.deviceReasons?.power_pnp).toContain("stepped up under stress");
+    expect(stepped.spec.deviceReasons?.power_pnp).toContain("load-starved");
+  });
+
+  it("never steps down: a stress class that carries less than the chosen one is not tried", () => {
+    const big = makeSpec({ ...o, load_A: 2, chain: "bjt-single", load_kind: "resistive" });
+    const to3 = { ...big, devices: { ...big.devices, power_npn: library().get("npn-power-to3")! } };
+    const s = sizeVariant({ ...to3, stressClasses: { power_npn: library().get("npn-power-to220")! } });
+    expect(s.spec.devices.power_npn.id).toBe("npn-power-to3");
+  });
+});
