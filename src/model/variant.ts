@@ -1,5 +1,5 @@
 import type { DesignRecord, DeviceRole, SolenoidRecord } from "./design.ts";
-import type { DeviceClass } from "./device.ts";
+import type { DeviceClass, ZenerClass } from "./device.ts";
 import type { ChainKind, LoadKind } from "./kinds.ts";
 import type { DeratingPolicy } from "./derating.ts";
 
@@ -27,6 +27,11 @@ export interface VariantSpec {
    * (src/engine/devices/choose.ts STRESS_DEVICE_IDS): present when the record binds no class for the role.
    */
   stressClasses?: Partial<Record<DeviceRole, DeviceClass>>;
+  /**
+   * Zener classes the engine may build the timing core's regulated rail on, after the gate-rail class
+   * (src/engine/stages/core-rail.ts): present only on variants the rail is offered to.
+   */
+  railZeners?: ZenerClass[];
   policy: DeratingPolicy;
   /** The record's coil data, present on solenoid variants. */
   solenoid?: SolenoidRecord;
