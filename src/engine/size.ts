@@ -63,8 +63,11 @@ import {
   railDecision,
   railFigure,
   type RailOffer,
+  type RailWhy,
   railOffers,
   railTimingCtx,
+  railWanted,
+  CORE_RULES,
 } from "./stages/core-rail.ts";
 
 export function sizeVariant(spec: VariantSpec): SizedVariant {
@@ -302,7 +305,7 @@ export interface CoreChoice {
   plan: ChainPlan;
   core: ReturnType<typeof tapAndTiming>;
   /** The core on a regulated rail (stages/core-rail.ts): its largest current there, and why it was chosen. */
-  rail?: { load_A: number; why: string; cap_F: number };
+  rail?: { load_A: number; why: RailWhy; cap_F: number };
 }
 
 function coreOf(spec: VariantSpec, crossOffered = true): CoreChoice {
@@ -328,7 +331,16 @@ const STEP_CHAINS: ReadonlySet<string> = new Set(["mosfet-logic", "mosfet-driver
  * passed before keeps its design; the step is recorded as the role's device-class decision.
  */
 function steppedDiodes(first: CoreChoice): CoreChoice | null {
-  const { spec, ctx, core } = first;
+  const stepped = steppedDiodeSpec(first.spec, first.ctx, first.core);
+  if (stepped === null) return null;
+  // Not with the cross-returned bleed: its held-base lift limit was measured with the ordinary class, and
+  // a 12 V, 25 kHz fan core it passed with this class stopped at both ends of the control in simulation.
+  const second = coreOf(stepped, false);
+  return second.core.timing.search.passed ? second : null;
+}
+
+/** The spec with the low-capacitance base diodes (steppedDiodes' conditions), or null where they are not offered. */
+function steppedDiodeSpec(spec: VariantSpec, ctx: Ctx, core: CoreChoice["core"]): VariantSpec | null {
   const low = spec.stressClasses?.signal_diode;
   const ordinary = spec.devices.signal_diode as DiodeClass;
   if (low === undefined || low.family !== "diode" || low.id === ordinary.id) return null;
@@ -339,15 +351,11 @@ function steppedDiodes(first: CoreChoice): CoreChoice | null {
     `stepped up under stress: with ${ordinary.title} (C_D ≈ ${formatValue(diodeCj_F(ordinary), "F")} at 0 V) no ` +
     `timing core passes (${rule}); the series base diodes' capacitance injects C_j·dV/dt into the base at the ` +
     `start of the off phase, and ${low.title} (C_D ≈ ${formatValue(diodeCj_F(low), "F")}) lets a core pass every limit`;
-  const stepped: VariantSpec = {
+  return {
     ...spec,
     devices: { ...spec.devices, signal_diode: low },
     ...(spec.deviceReasons === undefined ? {} : { deviceReasons: { ...spec.deviceReasons, signal_diode: reason } }),
   };
-  // Not with the cross-returned bleed: its held-base lift limit was measured with the ordinary class, and
-  // a 12 V, 25 kHz fan core it passed with this class stopped at both ends of the control in simulation.
-  const second = coreOf(stepped, false);
-  return second.core.timing.search.passed ? second : null;
 }
 
 /**
@@ -357,11 +365,22 @@ function steppedDiodes(first: CoreChoice): CoreChoice | null {
  * the supply with the rail known (its input levels come from the rail); the corners the verifier
  * simulates run at the supply's ends, the rail following through its own parts.
  */
-function railedCore(first: CoreChoice, offer: RailOffer): CoreChoice | null {
-  const ctx: Ctx = { ...makeContext(offer.spec), coreRail: offer.rail };
-  const timingCtx = railTimingCtx(ctx);
-  const plan = CHAIN_PLANNERS[offer.spec.chain](ctx);
-  const core = tapAndTiming(timingCtx, plan);
+function railedCore(offer: RailOffer, why: RailWhy): CoreChoice | null {
+  const attempt = (spec: VariantSpec, crossOffered: boolean) => {
+    const ctx: Ctx = { ...makeContext(spec), coreRail: offer.rail };
+    const timingCtx = railTimingCtx(ctx);
+    const plan = CHAIN_PLANNERS[spec.chain](ctx);
+    return { spec, ctx, timingCtx, plan, core: tapAndTiming(timingCtx, plan, crossOffered) };
+  };
+  let a = attempt(offer.spec, true);
+  // As on the supply (steppedDiodes): the low-capacitance base diodes where no core passes on the rail
+  // with the ordinary class (the diodes see the rail), not with the cross-returned bleed.
+  const stepped = a.core.timing.search.passed ? null : steppedDiodeSpec(a.spec, a.timingCtx, a.core);
+  if (stepped !== null) {
+    const b = attempt(stepped, false);
+    if (b.core.timing.search.passed) a = b;
+  }
+  const { spec, ctx, timingCtx, plan, core } = a;
   if (!core.timing.search.passed) return null;
   const v = core.timing.values;
   const coreParts = [...core.timing.parts, ...core.tap.parts];
@@ -373,10 +392,9 @@ function railedCore(first: CoreChoice, offer: RailOffer): CoreChoice | null {
     fMax_Hz: core.timing.search.worst.f.hi,
   });
   if (load_A === null) return null;
-  const why = first.core.timing.problems.find((p) => p.severity === "error")?.rule ?? "duty-range-worst-case";
   const timing = { ...core.timing, corners: cornersOnSupply(core.timing.corners, timingCtx, ctx) };
   const cap_F = railCap_F(v.c_F * (1 + timingCtx.cTol), core.tap.follower !== undefined);
-  return { spec: offer.spec, ctx, plan, core: { ...core, timing }, rail: { load_A, why, cap_F } };
+  return { spec, ctx, plan, core: { ...core, timing }, rail: { load_A, why, cap_F } };
 }
 
 /** The variant's timing core: with its own classes, else with the signal diodes stepped up (above). */
@@ -402,19 +420,30 @@ export function bufferedGateCore(chosen: CoreChoice): CoreChoice | null {
 }
 
 /**
- * The variant sized on its chosen core; where no core passes, on a regulated rail (railedCore), kept
- * only when the variant it makes is feasible, so a refusal keeps its page as before.
+ * The variant sized on its chosen core; where it is refused for its core (core-rail.ts railWanted), on
+ * a regulated rail (railedCore), each rail offered in turn, kept only when the variant it makes is
+ * feasible, so a refusal keeps its page as before.
  */
 function sizeInner(specIn: VariantSpec): SizedVariant {
   const chosen = chooseCore(specIn);
   const out = sizeChosen(chosen);
-  if (out.feasible || chosen.core.timing.search.passed) return out;
+  const corePassed = chosen.core.timing.search.passed;
+  if (!railWanted(out, corePassed)) return out;
+  const why: RailWhy = { rule: railRule(chosen, out), corePassed, above: [] };
   for (const offer of railOffers(chosen.spec, chosen.ctx)) {
-    const railed = railedCore(chosen, offer);
+    const railed = railedCore(offer, { ...why, above: [...why.above] });
     const alt = railed === null ? null : sizeChosen(railed);
     if (alt?.feasible === true) return alt;
+    why.above.push({ rail: offer.rail, rule: alt?.verdict.blocking[0]?.rule ?? "no timing core passes" });
   }
   return out;
+}
+
+/** The rule the rail's decision names: the supply-fed core's first error, else the variant's first core rule. */
+function railRule(chosen: CoreChoice, out: SizedVariant): string {
+  if (!chosen.core.timing.search.passed)
+    return chosen.core.timing.problems.find((p) => p.severity === "error")?.rule ?? "duty-range-worst-case";
+  return out.verdict.blocking.find((b) => CORE_RULES.has(b.rule))?.rule ?? "duty-range-worst-case";
 }
 
 /**
@@ -449,7 +478,11 @@ export function sizeWithCoreRail(spec: VariantSpec): SizedVariant | null {
   return withCoreMemo(() => {
     const first = coreOf(spec);
     const offer = railOffers(spec, first.ctx)[0];
-    const railed = offer === undefined ? null : railedCore(first, offer);
+    const passed = first.core.timing.search.passed;
+    const rule = passed
+      ? "duty-range-worst-case"
+      : (first.core.timing.problems.find((p) => p.severity === "error")?.rule ?? "duty-range-worst-case");
+    const railed = offer === undefined ? null : railedCore(offer, { rule, corePassed: passed, above: [] });
     return railed === null ? null : sizeChosen(railed);
   });
 }

@@ -5,12 +5,13 @@
  */
 import type { DeratingPolicy } from "../model/derating.ts";
 import { DEVICE_ROLES, type DesignRecord, type DeviceRole } from "../model/design.ts";
-import type { DeviceClass } from "../model/device.ts";
+import type { DeviceClass, ZenerClass } from "../model/device.ts";
 import type { ChainKind, LoadKind } from "../model/kinds.ts";
 import type { DeviceChoice, VariantSpec } from "../model/variant.ts";
 import { variantId } from "./variant-id.ts";
 import { supplyWindow } from "../engine/shared/supply.ts";
 import { stressStepApplies } from "../engine/devices/choose.ts";
+import { railByStress, railOffered } from "../engine/stages/core-rail.ts";
 
 /** Defaults of optional targets (values documented in docs/writing-a-design.md). */
 export const TARGET_DEFAULTS = {
@@ -44,6 +45,8 @@ export interface ExpandDeps {
   ) => Record<DeviceRole, string>;
   /** Optional: classes the engine may step a role up to while sizing (VariantSpec.stressClasses). */
   stressClasses?: (rec: DesignRecord) => Partial<Record<DeviceRole, DeviceClass>>;
+  /** Optional: zener classes for the timing core's regulated rail (VariantSpec.railZeners). */
+  railZeners?: (rec: DesignRecord) => ZenerClass[];
   policy: DeratingPolicy;
 }
 
@@ -75,6 +78,12 @@ export function expandDesign(rec: DesignRecord, deps: ExpandDeps): VariantSpec[]
     );
     return Object.keys(own).length > 0 ? { stressClasses: own } : {};
   };
+  const railZeners = deps.railZeners?.(rec) ?? [];
+  // Only on variants offered the regulated core rail by stress, so every other spec stays as before.
+  const railFor = (chain: ChainKind, load_kind: VariantSpec["load_kind"]): Pick<VariantSpec, "railZeners"> =>
+    railZeners.length > 0 && railByStress(chain, targets.pwm_Hz) && railOffered(chain, load_kind, targets.off_on_ends)
+      ? { railZeners: [...railZeners] }
+      : {};
   const out: VariantSpec[] = [];
   for (const supply_V of rec.axes.supply_V) {
     // Every worst case of the variant uses this window's min and max (src/engine/shared/supply.ts).
@@ -100,6 +109,7 @@ export function expandDesign(rec: DesignRecord, deps: ExpandDeps): VariantSpec[]
             ...(reasons ? { deviceReasons: { ...reasons } } : {}),
             ...stressFor(devices),
             ...(differs ? { everyKindChoice: every } : {}),
+            ...railFor(chain, load_kind),
             policy: deps.policy,
             ...(load_kind === "solenoid" && rec.solenoid !== undefined ? { solenoid: { ...rec.solenoid } } : {}),
           });

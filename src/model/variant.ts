@@ -1,5 +1,5 @@
 import type { DesignRecord, DeviceRole, SolenoidRecord } from "./design.ts";
-import type { DeviceClass } from "./device.ts";
+import type { DeviceClass, ZenerClass } from "./device.ts";
 import type { ChainKind, LoadKind } from "./kinds.ts";
 import type { DeratingPolicy } from "./derating.ts";
 
@@ -33,6 +33,11 @@ export interface VariantSpec {
    * variant with its own classes first and takes these only when those are refused (src/engine/size.ts).
    */
   everyKindChoice?: DeviceChoice;
+  /**
+   * Zener classes the engine may build the timing core's regulated rail on, after the gate-rail class
+   * (src/engine/stages/core-rail.ts): present only on variants the rail is offered to.
+   */
+  railZeners?: ZenerClass[];
   policy: DeratingPolicy;
   /** The record's coil data, present on solenoid variants. */
   solenoid?: SolenoidRecord;

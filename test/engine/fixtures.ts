@@ -11,7 +11,7 @@ import type { DesignRecord, DeviceRole } from "../../src/model/design.ts";
 import type { ChainKind, LoadKind } from "../../src/model/kinds.ts";
 import type { VariantSpec } from "../../src/model/variant.ts";
 import { indexLibrary } from "../../src/engine/devices/library.ts";
-import { chooseDevices, stressClasses } from "../../src/engine/devices/choose.ts";
+import { chooseDevices, railZenerClasses, stressClasses } from "../../src/engine/devices/choose.ts";
 import { supplyWindow } from "../../src/engine/shared/supply.ts";
 
 const ROOT = join(import.meta.dirname, "..", "..");
@@ -52,7 +52,7 @@ export interface SpecOpts {
   override?: Partial<Record<DeviceRole, DeviceClass>>;
   /** Coil data for a solenoid load (defaults: the valve bank's demo values). */
   solenoid?: NonNullable<DesignRecord["solenoid"]>;
-  /** Offer the engine the library's stress-step classes (VariantSpec.stressClasses), as a build does. */
+  /** Offer the engine the library's stress-step classes and rail zeners (stressClasses, railZeners), as builds do. */
   stress?: boolean;
 }
 
@@ -166,7 +166,9 @@ export function makeSpec(o: SpecOpts): VariantSpec {
       ...(o.inrushLimit ? { inrush_limit: o.inrushLimit } : {}),
     },
     devices: { ...chooseDevices(rec, library(), o.supply_V, o.load_A, o.chain, o.load_kind), ...(o.override ?? {}) },
-    ...(o.stress === true ? { stressClasses: stressClasses(rec, library()) } : {}),
+    ...(o.stress === true
+      ? { stressClasses: stressClasses(rec, library()), railZeners: railZenerClasses(rec, library()) }
+      : {}),
     policy: policy(),
     ...(rec.solenoid ? { solenoid: rec.solenoid } : {}),
   };

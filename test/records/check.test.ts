@@ -24,7 +24,7 @@ describe("runCheck", () => {
     expect(io.err).toEqual([]);
     // 2 supplies × 2 currents × 2 chains × 1 load kind
     expect(io.out).toEqual([
-      "check passed: 1 design, 34 device classes, 8 variants would be built (policy default from " +
+      "check passed: 1 design, 35 device classes, 8 variants would be built (policy default from " +
         "designs/policies/default.json)",
     ]);
   });

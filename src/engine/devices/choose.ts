@@ -120,6 +120,22 @@ export function stressStepApplies(role: DeviceRole, chosen: DeviceClass | undefi
   return true;
 }
 
+/**
+ * The zener classes a timing core's regulated rail may be built on (stages/core-rail.ts, docs/method.md
+ * "Regulated core rail"), offered by the engine after the variant's own gate-rail class, highest voltage
+ * first: a lower rail is tried only where the higher ones leave the variant refused. The 1 W classes
+ * (a rail feeds the core and, on the driven chain, the gate drive: the smaller class's power rarely holds).
+ */
+export const RAIL_ZENER_IDS: readonly string[] = ["zener-12v-1w", "zener-10v-1w", "zener-8v2-1w", "zener-6v8-1w"];
+
+/** The classes of RAIL_ZENER_IDS present in the library; none when the record binds the gate-rail zener. */
+export function railZenerClasses(record: DesignRecord, lib: DeviceLibrary): ZenerClass[] {
+  if (record.devices?.gate_zener !== undefined) return [];
+  return RAIL_ZENER_IDS.filter((id) => lib.has(id)).map(
+    (id) => checkFamily("gate_zener", getDevice(lib, id), "regulated core rail") as ZenerClass,
+  );
+}
+
 /** The classes of STRESS_DEVICE_IDS present in the library, for the roles the record does not bind. */
 export function stressClasses(record: DesignRecord, lib: DeviceLibrary): Partial<Record<DeviceRole, DeviceClass>> {
   const out: Partial<Record<DeviceRole, DeviceClass>> = {};

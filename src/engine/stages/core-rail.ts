@@ -6,8 +6,9 @@
  * [src:horowitz-hill-3e-zener-regulator]). The core then sees a low, steady supply whatever the
  * battery does, its transistors and potentiometer stay away from the high voltage, and the chain's
  * input (the logic MOSFET's gate through the collector resistor) is driven from the rail.
- * Offered by size.ts only where no core passes on the supply itself, so every design that passed
- * before keeps its design.
+ * Offered by size.ts only where the variant is refused on the supply (no core passes there, or a core
+ * rule refuses it at its worst case) and kept only when the railed variant is feasible, so every design
+ * that passed before keeps its design.
  */
 import type { Part } from "../../model/circuit.ts";
 import type { BjtClass, ZenerClass } from "../../model/device.ts";
@@ -15,6 +16,7 @@ import type { DesignProblem } from "../../model/problem.ts";
 import type { StressCheck } from "../../model/derating.ts";
 import type { SimCorner } from "../../model/corners.ts";
 import type { VariantSpec } from "../../model/variant.ts";
+import type { SizedVariant } from "../../model/sized.ts";
 import { EngineMisuseError } from "../../model/errors.ts";
 import { formatValue } from "../../model/format.ts";
 import { capacitor, resistor, zener } from "../../circuit/parts.ts";
@@ -28,11 +30,96 @@ import { sizeZenerRail, zenerRailWindow, ZENER_KNEE_A } from "./zener-rail.ts";
 
 /** Chains the rail is offered to: the MOSFET chains, whose gate or driver input the rail feeds directly. */
 export const RAIL_CHAINS: ReadonlySet<string> = new Set(["mosfet-logic", "mosfet-driver"]);
+
 /**
- * Headroom the lowest supply must keep over the rail's highest level for the rail to be offered (V,
- * ours): below it the feed resistor is a few ohms and the zener's current swings with the battery.
+ * Chains offered the rail by stress (the library's lower rails, `railFeedable` in place of a fixed
+ * headroom, and the rail where a core passed its search but a core rule refuses the variant): the driven
+ * MOSFET, whose rail feeds a driver transistor's base. The logic-level MOSFET keeps the former offer (its
+ * own gate-rail class, only where no core passes, RAIL_HEADROOM_V): its gate network loads the timing
+ * collector, and on the 6.8 V and 8.2 V rails 4 of 8 of its variants of a 1 kHz, 5–95 % LED dimmer
+ * stalled at a corner in simulation and 3 ran 20 % fast with the second card set (docs/method.md).
+ */
+export const STRESS_RAIL_CHAINS: ReadonlySet<string> = new Set(["mosfet-driver"]);
+/**
+ * Highest PWM frequency the rail by stress is offered at (Hz, measured): every railed driven variant of
+ * our records at 1 kHz and 5 kHz agreed with simulation with both card sets; at 25 kHz three of three
+ * (6.8 V and 8.2 V rails, fans) simulated 5–8 points more duty than predicted. Above it the former offer.
+ */
+export const STRESS_RAIL_MAX_HZ = 5000;
+
+/** Whether a variant of this chain at this PWM frequency is offered the rail by stress (above). */
+export function railByStress(chain: string, pwm_Hz: number): boolean {
+  return STRESS_RAIL_CHAINS.has(chain) && pwm_Hz <= STRESS_RAIL_MAX_HZ;
+}
+
+/**
+ * Headroom the lowest supply keeps over the rail's highest level for the logic-level MOSFET's rail
+ * (V, ours; the driven MOSFET's rail is judged by `railFeedable`).
  */
 export const RAIL_HEADROOM_V = 4;
+
+/**
+ * Whether the rail is offered to a variant of this chain and load at all: a MOSFET chain, not a solenoid
+ * (its pull-in timer is proven on the supply-fed core), not the control's ends (proven likewise).
+ */
+export function railOffered(chain: string, loadKind: string, offOnEnds: boolean): boolean {
+  return RAIL_CHAINS.has(chain) && loadKind !== "solenoid" && !offOnEnds;
+}
+
+/**
+ * The timing core's rules (stages/timing.ts and its checks): a variant refused on one of them, with a
+ * core that passed its search on the supply, is offered the rail too (its worst case then spans the
+ * rail's narrow window, not the battery's).
+ */
+export const CORE_RULES: ReadonlySet<string> = new Set([
+  "duty-range-worst-case",
+  "duty-range-unreachable",
+  "collector-recovery",
+  "bleed-turn-off",
+  "base-diode-injection",
+  "frequency-worst-case",
+  "frequency-error",
+  "duty-skew",
+  "follower-off-level",
+  "threshold-unreached",
+  "vebo-breakdown",
+]);
+
+/**
+ * Whether a variant sized on the supply is offered the rail: refused, and either no core passed its
+ * search there or a core rule (CORE_RULES) is among its blocking reasons.
+ */
+export function railWanted(out: SizedVariant, corePassed: boolean): boolean {
+  if (out.feasible) return false;
+  if (!corePassed) return true;
+  return (
+    railByStress(out.spec.chain, out.spec.targets.pwm_Hz) && out.verdict.blocking.some((b) => CORE_RULES.has(b.rule))
+  );
+}
+
+/**
+ * Whether the supply can feed a rail on this window at all (replaces a fixed headroom): with R_Z sized
+ * at the lowest supply for the zener's knee current alone (zener-rail.ts, the least load any core puts
+ * on it), the zener's current at the highest supply, I_Z = (V_max − V_rail,min)/(R_Z·(1 − tol)), must
+ * stay within the current its derated power allows (the window's `iZallowed_A`). The swing ratio
+ * (V_max − V_rail,min)/(V_min − V_rail,max) is what a low supply raises: a rail it fails on fails the
+ * zener's power check with any core, so it is not offered; one it passes is sized for the real load and
+ * checked (railParts). Every 24–48 V rail the former 4 V headroom admitted passes it (their ratio ≤ 2.2).
+ */
+export function railFeedable(
+  w: { min_V: number; max_V: number; iZallowed_A: number },
+  ctx: Pick<Ctx, "vMin_V" | "vMax_V" | "rTol">,
+): boolean {
+  const z = sizeZenerRail({
+    vMin_V: ctx.vMin_V,
+    vMax_V: ctx.vMax_V,
+    railMin_V: w.min_V,
+    railMax_V: w.max_V,
+    iLoad_A: 0,
+    rTol: ctx.rTol,
+  });
+  return z.fed && z.iZmax_A <= w.iZallowed_A;
+}
 
 /** What the rail step offers a variant: the rail, and the spec with the timing class it runs on. */
 export interface RailOffer {
@@ -41,30 +128,37 @@ export interface RailOffer {
 }
 
 /**
- * The rails offered to a variant, smallest zener first (none where the rail is not offered): not a
- * MOSFET chain, a solenoid (its pull-in timer is proven on the supply-fed core), the control's ends
- * (proven likewise), or a supply too low above the rail. The zener: the variant's gate-rail class
+ * The rails offered to a variant, in the order they are tried (none where the rail is not offered,
+ * `railOffered`, or the supply cannot feed it, `railFeedable`). The zener: the variant's gate-rail class
  * (the chooser's: the highest rail that fits), then the larger class of the same voltage its stress
- * classes carry (choose.ts), each recorded as the role's decision; the timing transistors step back
- * from a raised (high-voltage) class to the ordinary one, since the core no longer sees the supply.
+ * classes carry (choose.ts), then the library's rail classes (VariantSpec.railZeners) highest voltage
+ * first: a designer takes the highest rail that works (the MOSFET's gate drive comes from it, and the
+ * feed resistor drops and dissipates less), stepping lower only where a higher rail leaves the variant
+ * refused. Each is recorded as the role's decision; the timing transistors step back from a raised
+ * (high-voltage) class to the ordinary one, since the core no longer sees the supply.
  */
 export function railOffers(spec: VariantSpec, ctx: Ctx): RailOffer[] {
-  if (!RAIL_CHAINS.has(spec.chain) || spec.load_kind === "solenoid" || spec.targets.off_on_ends) return [];
+  if (!railOffered(spec.chain, spec.load_kind, spec.targets.off_on_ends)) return [];
   const chosenZ = spec.devices.gate_zener as ZenerClass | undefined;
   const stepZ = spec.stressClasses?.gate_zener as ZenerClass | undefined;
-  const zeners = [chosenZ, stepZ].filter(
+  const byStress = railByStress(spec.chain, spec.targets.pwm_Hz);
+  const ladder = byStress ? [...(spec.railZeners ?? [])].sort((a, b) => b.vz_V - a.vz_V || a.pz_W - b.pz_W) : [];
+  const zeners = [chosenZ, stepZ, ...ladder].filter(
     (z, k, all): z is ZenerClass =>
       z !== undefined && z.family === "zener" && all.findIndex((y) => y?.id === z.id) === k,
   );
   const timed = withCoreTransistor(spec);
   return zeners.flatMap((dz): RailOffer[] => {
     const w = zenerRailWindow(dz, spec.policy);
-    if (ctx.vMin_V < w.max_V + RAIL_HEADROOM_V) return [];
+    if (byStress ? !railFeedable(w, ctx) : ctx.vMin_V < w.max_V + RAIL_HEADROOM_V) return [];
     const rail: CoreRail = { dz, min_V: w.min_V, nom_V: w.nom_V, max_V: w.max_V };
     if (dz.id === chosenZ?.id) return [{ rail, spec: timed }];
     const reason =
-      `stepped up under stress: the gate rail also feeds the timing core (regulated core rail), and ` +
-      `${chosenZ?.title ?? "the chosen zener"} exceeds its derated power there; ${dz.title} is the same voltage`;
+      dz.id === stepZ?.id
+        ? `stepped up under stress: the gate rail also feeds the timing core (regulated core rail), and ` +
+          `${chosenZ?.title ?? "the chosen zener"} exceeds its derated power there; ${dz.title} is the same voltage`
+        : `the timing core's regulated rail: ${dz.title}, the highest rail class the supply feeds on which ` +
+          `the variant passes (the design decision on the core's supply says why a higher one does not)`;
     const devices = { ...timed.devices, gate_zener: dz };
     const reasons =
       timed.deviceReasons === undefined ? {} : { deviceReasons: { ...timed.deviceReasons, gate_zener: reason } };
@@ -227,12 +321,39 @@ export function railFigure(rail: CoreRail): Figure {
   );
 }
 
+/** Why the rail was chosen: the rule the supply-fed variant failed on, and the higher rails tried first. */
+export interface RailWhy {
+  /** The first error of the supply-fed core, or the first core rule the supply-fed variant was refused on. */
+  rule: string;
+  /** Whether a core passed its search on the supply (the variant was refused at its worst case). */
+  corePassed: boolean;
+  /** Higher rails tried before this one, each with the first reason it was refused for. */
+  above: { rail: CoreRail; rule: string }[];
+}
+
 /** The design decision the page shows for the rail. */
 export function railDecision(
   rail: CoreRail,
   refs: string[],
-  why: string,
+  why: RailWhy,
 ): { refs: string[]; topic: string; choice: string; reason: string } {
+  const supply = why.corePassed
+    ? `on the supply itself a timing core passes its search but the variant is refused at its worst case ` +
+      `(${why.rule}): the core's worst case spans the supply's whole window, its charging currents and the ` +
+      `pot's track current follow the battery; from a zener rail fed by a resistor the core sees the rail's ` +
+      `narrow window instead`
+    : `on the supply itself no timing core passes (${why.rule}): the potentiometer's track current at the highest ` +
+      `supply sets the smallest end stop, which caps the duty range; from a zener rail fed by a resistor the ` +
+      `core reaches the record's range`;
+  const higher = why.above.filter((a) => a.rail.nom_V > rail.nom_V);
+  const lower =
+    higher.length === 0
+      ? ""
+      : `; the highest rail on which the variant passes: on ${higher
+          .map((a) => `the ${formatValue(a.rail.nom_V, "V")} rail (${a.rule})`)
+          .filter((t, k, all) => all.indexOf(t) === k)
+          .join(", ")} it is refused, and a higher rail gives the MOSFET more gate drive and its feed resistor ` +
+        `less to drop`;
   return {
     refs,
     topic: "timing core supply",
@@ -240,11 +361,9 @@ export function railDecision(
       `regulated rail, ${formatValue(rail.nom_V, "V")} zener ` +
       `(${formatValue(rail.min_V, "V")} … ${formatValue(rail.max_V, "V")})`,
     reason:
-      `on the supply itself no timing core passes (${why}): the potentiometer's track current at the highest ` +
-      `supply sets the smallest end stop, which caps the duty range; from a zener rail fed by a resistor the ` +
-      `core reaches the record's range, its frequency no longer follows the battery, and the chain's input is ` +
+      `${supply}, its frequency no longer follows the battery, and the chain's input is ` +
       `driven from the rail (feed resistor sized at the lowest supply for the core's and the drive's current ` +
-      `plus the zener's knee current; zener and resistor power at the highest supply)`,
+      `plus the zener's knee current; zener and resistor power at the highest supply)${lower}`,
   };
 }
 
