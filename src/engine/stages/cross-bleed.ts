@@ -102,3 +102,25 @@ export function crossTapSink_A(p: {
   const iB = (p.vcc_V - p.vF_V - p.vBe_V) / p.rB_ohm - (p.vBe_V - p.vSat_V) / p.rD_ohm;
   return Math.max(0, p.beta * iB);
 }
+
+/**
+ * How fast the returning side comes back, against what it must take from the on side. The returning
+ * (long-off) base is fed by its divider current I alone; once its node reaches the junctions (the base
+ * diode and the base–emitter, emission n_D + 1) the base current grows at up to I²/(C·n·V_T) (the node's
+ * capacitor on the junctions' slope); the collector follows as R_C′·β·i_B while R_C′·C is the shorter
+ * time, and the coupling capacitor (C again) passes C·dV/dt = R_C′·β·I²/(n·V_T) into the on side's base
+ * node; the capacitor cancels. Regeneration needs that current above the on side's excess base current
+ * I_exc = (V_cc − V_on)/R_end (the picture of regeneration of Millman & Taub 1965, ch. 11, from memory
+ * [src:millman-taub-1965]; the rate derived, ours). The result is that ratio. Measured (docs/method.md,
+ * "The returning side's rate"): it ranks seven of eight simulated cross-bled cores, not the eighth.
+ */
+export function regenerationRate(p: {
+  rHigh_ohm: number;
+  beta: number;
+  iDiv_A: number;
+  nVt_V: number;
+  iExc_A: number;
+}): number {
+  const i = Math.max(0, p.iDiv_A);
+  return (p.rHigh_ohm * p.beta * i * i) / (p.nVt_V * p.iExc_A);
+}

@@ -12,7 +12,11 @@ import type { DesignProblem } from "../../model/problem.ts";
 import type { Figure } from "../../model/figure.ts";
 import { figure, problem } from "../shared/figures.ts";
 import { type CoreValues, cutIn_V, diodeVf_V } from "./core-model.ts";
-import { dividerLevel_V } from "./cross-bleed.ts";
+import { dividerLevel_V, regenerationRate } from "./cross-bleed.ts";
+import { diodeClassLaw } from "../shared/diode.ts";
+import { VT_NOMINAL_V } from "../shared/temperature.ts";
+import { railOffers } from "./core-rail.ts";
+import { type CollectorLoad, collectorThevenin } from "./astable.ts";
 
 /**
  * Largest share of the divider's current R_D may take from the off base at cut-in, (V_BE − V_CE(sat))/R_D
@@ -71,6 +75,19 @@ export function crossAllowed(chain: string, loadKind: string): boolean {
  */
 export const END_TO_RC_MIN = 14;
 
+/**
+ * Smallest rate of the returning side's collector fall against the on side's excess base current
+ * (cross-bleed.ts `regenerationRate`), asked of a supply-fed cross-bled core only where the variant is
+ * offered the regulated core rail (core-rail.ts `railOffers`), whose follower core turns over by full
+ * saturation. Measured, ours (docs/method.md, "The returning side's rate"): 24 V cores at 1.28–1.76 (20 and
+ * 100 Hz, 5–95 %) turned over erratically at their slow end, with spurious pulses at the tap in native
+ * ngspice at a fine step and stalls at the verifier's; 36 V cores at 3.29 and the demo's 24 V fans at 11.1
+ * held every corner. A 12 V, 500 Hz dimmer core at 1.13 held its corners at every step too: the rate
+ * does not explain it, so below the rail's supplies, where the arrangement is the only one left,
+ * they are not asked and the arrangement keeps the limits it was measured with.
+ */
+export const REGEN_MIN = 3;
+
 /** The figures of a cross-bled core at its worst corners (crossFigures). */
 export interface CrossFigures {
   rD_ohm: number;
@@ -84,6 +101,10 @@ export interface CrossFigures {
   turnOnMargin_V: number;
   /** R_end,min/R_C at their nominal values (≥ END_TO_RC_MIN). */
   endToRc: number;
+  /** The returning side's collector fall rate over the on side's excess base current. */
+  regen: number;
+  /** Whether REGEN_MIN applies (a supply-fed core of a variant the regulated rail is offered to). */
+  regenAsked: boolean;
 }
 
 interface CrossGeometry {
@@ -92,6 +113,10 @@ interface CrossGeometry {
   rEndA_ohm: number;
   rEndB_ohm: number;
   c_F: number;
+  /** The chain's load on the tapped collector (absent: unloaded). */
+  tapLoad?: CollectorLoad;
+  /** The balance on the other collector (absent: unloaded). */
+  balance?: CollectorLoad;
 }
 
 /** Largest timing resistance at +tolerance (end stop + the whole pot), Ω. */
@@ -134,6 +159,38 @@ export function crossBleedFor_ohm(ctx: Ctx, q: BjtClass, db: DiodeClass, g: Cros
   return r;
 }
 
+/**
+ * regenerationRate at V_cc,min, cold (minimum gain), R_B,max: the returning collector's Thevenin
+ * resistance under the heavier of the two loads (the slower fall), the junction stack's slope at the
+ * base diode's emission plus one at the nominal V_T, the on side's excess base current through the
+ * smaller end stop at −tolerance (the largest).
+ */
+function regenOf(ctx: Ctx, g: CrossGeometry, d: ReturnType<typeof divider>, db: DiodeClass, beta: number): number {
+  const rHigh = Math.min(
+    ...[g.tapLoad, g.balance].map((load) => collectorThevenin(ctx.vMin_V, g.rC_ohm * (1 - ctx.rTol), load).r_ohm),
+  );
+  const rEndMin = Math.min(g.rEndA_ohm, g.rEndB_ohm) * (1 - ctx.rTol);
+  return regenerationRate({
+    rHigh_ohm: rHigh,
+    beta,
+    iDiv_A: d.iRT - d.iD,
+    nVt_V: (1 + diodeClassLaw(db).n) * VT_NOMINAL_V,
+    iExc_A: (ctx.vMin_V - d.vF - d.vBe) / rEndMin,
+  });
+}
+
+const railKnown = new WeakMap<Ctx, boolean>();
+/** Whether the variant's core runs on the supply and the regulated rail is offered to it (kept per context). */
+function railAvailable(ctx: Ctx): boolean {
+  if (ctx.coreRail !== undefined) return false;
+  let known = railKnown.get(ctx);
+  if (known === undefined) {
+    known = railOffers(ctx.spec, ctx).length > 0;
+    railKnown.set(ctx, known);
+  }
+  return known;
+}
+
 /** The figures the search and the page judge a cross-bled core by (see the limits above). */
 export function crossFigures(ctx: Ctx, q: BjtClass, db: DiodeClass, g: CrossGeometry, rD_ohm: number): CrossFigures {
   const d = divider(ctx, q, db, g, rD_ohm);
@@ -158,7 +215,18 @@ export function crossFigures(ctx: Ctx, q: BjtClass, db: DiodeClass, g: CrossGeom
   });
   const vGammaCold = cutIn_V(false, db, ctx.taMin_C);
   const endToRc = Math.min(g.rEndA_ohm, g.rEndB_ohm) / g.rC_ohm;
-  return { rD_ohm, steal, dividerDrive, injection, turnOnMargin_V: vInf - vGammaCold - d.vF, endToRc };
+  const regen = regenOf(ctx, g, d, db, beta);
+  const regenAsked = railAvailable(ctx);
+  return {
+    rD_ohm,
+    steal,
+    dividerDrive,
+    injection,
+    turnOnMargin_V: vInf - vGammaCold - d.vF,
+    endToRc,
+    regen,
+    regenAsked,
+  };
 }
 
 /** Whether the figures pass every limit of the arrangement. */
@@ -168,7 +236,8 @@ export function crossPasses(f: CrossFigures): boolean {
     f.dividerDrive >= DIVIDER_DRIVE_MIN &&
     f.injection <= CROSS_INJECTION_MAX &&
     f.endToRc >= END_TO_RC_MIN &&
-    f.turnOnMargin_V > 0
+    f.turnOnMargin_V > 0 &&
+    (!f.regenAsked || f.regen >= REGEN_MIN)
   );
 }
 
@@ -201,6 +270,20 @@ export function crossProblems(ctx: Ctx, q: BjtClass, db: DiodeClass, v: CoreValu
           `${f.dividerDrive.toFixed(2)} of saturation, need ${DIVIDER_DRIVE_MIN}): the core can settle with one ` +
           `transistor half on and the other saturated. Use smaller timing resistors or a larger R_C.`,
         { limit: STEAL_MAX, actual: f.steal, unit: "" },
+      ),
+    );
+  if (f.regenAsked && f.regen < REGEN_MIN)
+    out.push(
+      problem(
+        "timing",
+        "/parts/RV_DUTY",
+        "cross-bleed-regeneration",
+        "error",
+        `On its divider current alone the returning transistor pulls its collector down too slowly: the ` +
+          `coupling capacitor passes ${f.regen.toFixed(2)} × the other side's excess base current (need ` +
+          `${REGEN_MIN} where the regulated core rail is offered), so the core turns over unreliably at the ` +
+          `slow end of the control. Run the core from the regulated rail, or use a smaller potentiometer.`,
+        { limit: REGEN_MIN, actual: f.regen, unit: "" },
       ),
     );
   if (f.endToRc < END_TO_RC_MIN)
@@ -272,6 +355,16 @@ export function crossBleedFigures(ctx: Ctx, q: BjtClass, db: DiodeClass, v: Core
       "",
       stage,
       `C_j·(2·V_cc,max/(R_end,min·C))·R_D/(V_γ,hot − V_CE(sat)) ≤ ${CROSS_INJECTION_MAX}`,
+      "derived",
+    ),
+    figure(
+      "cross_bleed_regeneration",
+      "Returning side's collector fall against the on side's excess base current (worst case)",
+      f.regen,
+      "",
+      stage,
+      `R_C′·β_min·I_div,net²/((n_D + 1)·V_T·I_exc), I_exc = (V_cc,min − V_F − V_BE)/R_end,min` +
+        (f.regenAsked ? ` ≥ ${REGEN_MIN} (the regulated rail is offered)` : " (no limit: the rail is not offered)"),
       "derived",
     ),
     figure(

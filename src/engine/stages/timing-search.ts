@@ -128,6 +128,8 @@ function crossOverdrive(
     rEndA_ohm: at.rEndA,
     rEndB_ohm: at.rEndB,
     c_F: 1,
+    tapLoad: base.tapLoad,
+    ...(base.balance === undefined ? {} : { balance: base.balance }),
   });
   if (rD === undefined) return 0;
   const vBe = vbeOn(q, ctx.taMin_C);
