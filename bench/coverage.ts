@@ -14,7 +14,7 @@ import { fileURLToPath } from "node:url";
 import { loadProject } from "../src/records/index.ts";
 import { formatIssue } from "../src/records/index.ts";
 import { expandDesign } from "../src/expand/index.ts";
-import { chooseDevices, stressClasses } from "../src/engine/devices/choose.ts";
+import { chooseDevices, returnGuardClasses, stressClasses } from "../src/engine/devices/choose.ts";
 import { sizeVariant } from "../src/engine/index.ts";
 import { sizeVariantWithGateBuffer } from "../src/engine/size.ts";
 import type { SizedVariant } from "../src/model/sized.ts";
@@ -29,6 +29,7 @@ export async function sizeAll(root: string, gateBuffer = false): Promise<SizedVa
     expandDesign(d.record, {
       choose: (r, s, a, c) => chooseDevices(r, project.devices, s, a, c),
       stressClasses: (r) => stressClasses(r, project.devices),
+      returnGuardClasses: (r) => returnGuardClasses(r, project.devices),
       policy: project.policy,
     }),
   );

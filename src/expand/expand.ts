@@ -7,10 +7,11 @@ import type { DeratingPolicy } from "../model/derating.ts";
 import type { DesignRecord, DeviceRole } from "../model/design.ts";
 import type { DeviceClass } from "../model/device.ts";
 import type { ChainKind } from "../model/kinds.ts";
-import type { VariantSpec } from "../model/variant.ts";
+import type { ReturnGuardClasses, VariantSpec } from "../model/variant.ts";
 import { variantId } from "./variant-id.ts";
 import { supplyWindow } from "../engine/shared/supply.ts";
 import { stressStepApplies } from "../engine/devices/choose.ts";
+import { seriesReverse } from "../engine/stages/reverse.ts";
 
 /** Defaults of optional targets (values documented in docs/writing-a-design.md). */
 export const TARGET_DEFAULTS = {
@@ -29,6 +30,8 @@ export interface ExpandDeps {
   explain?: (rec: DesignRecord, supply_V: number, load_A: number, chain: ChainKind) => Record<DeviceRole, string>;
   /** Optional: classes the engine may step a role up to while sizing (VariantSpec.stressClasses). */
   stressClasses?: (rec: DesignRecord) => Partial<Record<DeviceRole, DeviceClass>>;
+  /** Optional: classes for the return-line reverse guard (VariantSpec.returnGuardClasses). */
+  returnGuardClasses?: (rec: DesignRecord) => ReturnGuardClasses;
   policy: DeratingPolicy;
 }
 
@@ -50,6 +53,12 @@ export function expandDesign(rec: DesignRecord, deps: ExpandDeps): VariantSpec[]
   const targets = fillTargets(rec.targets);
   const protection = { ...PROTECTION_DEFAULTS, ...rec.protection };
   const stress = deps.stressClasses?.(rec) ?? {};
+  const guard = deps.returnGuardClasses?.(rec);
+  // Carried only where the variant gets a series diode (stages/reverse.ts), the guard's place.
+  const withFets = (spec: VariantSpec): VariantSpec =>
+    guard !== undefined && guard.fets.length > 0 && seriesReverse(spec) !== undefined
+      ? { ...spec, returnGuardClasses: guard }
+      : spec;
   // A variant carries the stress classes that are a step from the classes chosen for it
   // (choose.ts stressStepApplies), so a variant that needs none keeps its spec as before.
   const stressFor = (devices: Record<DeviceRole, DeviceClass>): Pick<VariantSpec, "stressClasses"> => {
@@ -68,7 +77,7 @@ export function expandDesign(rec: DesignRecord, deps: ExpandDeps): VariantSpec[]
         const devices = deps.choose(rec, supply_V, load_A, chain);
         const reasons = deps.explain?.(rec, supply_V, load_A, chain);
         for (const load_kind of rec.axes.load_kind) {
-          out.push({
+          const spec: VariantSpec = {
             id: variantId(rec, supply_V, load_A, chain, load_kind),
             design: rec.id,
             designTitle: rec.title,
@@ -84,7 +93,8 @@ export function expandDesign(rec: DesignRecord, deps: ExpandDeps): VariantSpec[]
             ...stressFor(devices),
             policy: deps.policy,
             ...(load_kind === "solenoid" && rec.solenoid !== undefined ? { solenoid: { ...rec.solenoid } } : {}),
-          });
+          };
+          out.push(withFets(spec));
         }
       }
     }

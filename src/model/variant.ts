@@ -1,5 +1,5 @@
 import type { DesignRecord, DeviceRole, SolenoidRecord } from "./design.ts";
-import type { DeviceClass } from "./device.ts";
+import type { DeviceClass, MosfetClass, ZenerClass } from "./device.ts";
 import type { ChainKind, LoadKind } from "./kinds.ts";
 import type { DeratingPolicy } from "./derating.ts";
 
@@ -27,9 +27,26 @@ export interface VariantSpec {
    * (src/engine/devices/choose.ts STRESS_DEVICE_IDS): present when the record binds no class for the role.
    */
   stressClasses?: Partial<Record<DeviceRole, DeviceClass>>;
+  /**
+   * Classes the reverse-polarity guard in the return line may take (src/engine/devices/choose.ts
+   * `returnGuardClasses`): present where the variant gets a series diode.
+   */
+  returnGuardClasses?: ReturnGuardClasses;
+  /**
+   * Set by the stress step only (src/engine/stages/return-fet.ts `returnFetSteps`): reverse polarity by
+   * the N-MOSFET in the return line instead of the series diode, with the rules that refused the variant
+   * with the diode (the design decision's reason).
+   */
+  returnFet?: { refused: readonly string[] };
   policy: DeratingPolicy;
   /** The record's coil data, present on solenoid variants. */
   solenoid?: SolenoidRecord;
+}
+
+/** The guard's N-MOSFET classes (smallest first) and its gate clamp's zener classes (highest voltage first). */
+export interface ReturnGuardClasses {
+  fets: readonly MosfetClass[];
+  clamps: readonly ZenerClass[];
 }
 
 /** Battery chemistries whose windows the engine knows (src/engine/shared/supply.ts). */

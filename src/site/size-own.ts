@@ -11,7 +11,7 @@ import type { ChainKind, LoadKind } from "../model/kinds.ts";
 import type { SizedVariant } from "../model/sized.ts";
 import { formatValue } from "../model/format.ts";
 import { expandDesign } from "../expand/index.ts";
-import { chooseDevices, chooseDevicesWithReasons, stressClasses } from "../engine/devices/choose.ts";
+import { chooseDevices, chooseDevicesWithReasons, returnGuardClasses, stressClasses } from "../engine/devices/choose.ts";
 import { sizeVariant } from "../engine/index.ts";
 import { renderVariantViews, type VariantViews } from "../render/variant.ts";
 
@@ -105,6 +105,7 @@ export function sizeOwn(data: SizeOwnData, input: SizeOwnInput, opts: { schemati
     choose: (r, s, a, c) => chooseDevices(r, lib, s, a, c),
     explain: (r, s, a, c) => chooseDevicesWithReasons(r, lib, s, a, c).reasons,
     stressClasses: (r) => stressClasses(r, lib),
+    returnGuardClasses: (r) => returnGuardClasses(r, lib),
     policy: data.policy,
   });
   if (!spec) return { ok: false, errors: ["Nothing to size for these inputs."] };

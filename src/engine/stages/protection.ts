@@ -51,6 +51,7 @@ import { capRating_V } from "./timing-parts.ts";
 import type { DriveLimit } from "./chains/types.ts";
 import { drivePulse, pulsePower_W } from "../shared/drive-limit.ts";
 import { seriesReverseStage } from "./series-reverse.ts";
+import { returnFetStage } from "./return-fet-stage.ts";
 import { diodeJunction } from "./diode-junction.ts";
 import { diodeClassVf_V } from "../shared/diode.ts";
 import { NOMINAL_TEMP_C } from "../shared/temperature.ts";
@@ -167,7 +168,9 @@ export function protectionStage(
   const conditions: VerdictCondition[] = [];
   const cBulk = bulkCapacitance_F(ctx.iMax_A);
   const sp = startParams(ctx);
-  const { fuse: chosen, startUp: su, continuous_A: iCont } = supplyFuse(sp, coreCurrent_A, ctx.taMax_C);
+  // The fuse carries the reverse guard's gate network too (its clamp's current at V_cc,max).
+  const gate_A = ctx.returnFet?.gate_A ?? 0;
+  const { fuse: chosen, startUp: su, continuous_A: iCont } = supplyFuse(sp, coreCurrent_A + gate_A, ctx.taMax_C);
   const lim = ctx.spec.protection.inrush_limit;
   const ev = startEvent(sp);
 
@@ -381,11 +384,20 @@ export function protectionStage(
     problems.push(...out.problems);
     conditions.push(...out.conditions);
   }
+  if (ctx.returnFet !== undefined) {
+    const out = returnFetStage(ctx, ctx.returnFet);
+    parts.push(...out.parts);
+    checks.push(...out.checks);
+    figures.push(...out.figures);
+    problems.push(...out.problems);
+    conditions.push(...out.conditions);
+  }
   // Shunt reverse-polarity diode: conducts the reversed battery's fault current until the fuse
-  // opens, so its surge I²t must exceed the fuse's clearing I²t. Not fitted behind a series diode.
+  // opens, so its surge I²t must exceed the fuse's clearing I²t. Not fitted behind a series guard.
   const rev = D.reverse_diode as DiodeClass;
   const clearing = fuse.clearingMax_A2s;
-  if (ctx.series === undefined) shuntReverse(ctx, rev, fuse, clearing, parts, checks, problems);
+  if (ctx.series === undefined && ctx.returnFet === undefined)
+    shuntReverse(ctx, rev, fuse, clearing, parts, checks, problems);
   // A battery supplies the low-frequency current; the bulk capacitor covers the switching edges
   // against the wiring's inductance: ≈ 100 µF per ampere switched, at least 100 µF (rule of thumb, from memory).
   const cRated = capRating_V(ctx, ctx.vMax_V);
