@@ -26,15 +26,21 @@ export function returnFetStage(
   conditions: VerdictCondition[];
 } {
   const pol = ctx.spec.policy;
+  const q = transistor(
+    "supply",
+    "Q_RETURN",
+    g.dev,
+    undefined,
+    { d: BATTERY_NEG_NET, g: RETURN_GATE_NET, s: "0" },
+    { voltage_V: ctx.supply.max_V, current_A: g.iCont_A, power_W: g.p_W, tj_C: g.tj_C },
+  );
   const parts: Part[] = [
-    transistor(
-      "supply",
-      "Q_RETURN",
-      g.dev,
-      undefined,
-      { d: BATTERY_NEG_NET, g: RETURN_GATE_NET, s: "0" },
-      { voltage_V: ctx.supply.max_V, current_A: g.iCont_A, power_W: g.p_W, tj_C: g.tj_C },
-    ),
+    {
+      ...q,
+      description:
+        `${q.description} — reverse guard in the return line: drain to the battery's −, source to the ` +
+        `circuit's 0 V`,
+    },
   ];
   const rg = resistor(
     "supply",
