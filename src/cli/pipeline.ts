@@ -10,7 +10,12 @@ import type { SizedVariant } from "../model/sized.ts";
 import type { Verification } from "../model/verification.ts";
 import type { DeviceLibrary } from "../model/device.ts";
 import { expandDesign } from "../expand/index.ts";
-import { chooseDevices, chooseDevicesWithReasons, returnGuardClasses, stressClasses } from "../engine/devices/choose.ts";
+import {
+  chooseDevices,
+  chooseDevicesWithReasons,
+  returnGuardClasses,
+  stressClasses,
+} from "../engine/devices/choose.ts";
 import { sizeVariant, attachAlternatives } from "../engine/index.ts";
 import { variantPlot } from "../render/plot.ts";
 import { renderVariantViews, type VariantViews } from "../render/variant.ts";

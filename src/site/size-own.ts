@@ -11,7 +11,12 @@ import type { ChainKind, LoadKind } from "../model/kinds.ts";
 import type { SizedVariant } from "../model/sized.ts";
 import { formatValue } from "../model/format.ts";
 import { expandDesign } from "../expand/index.ts";
-import { chooseDevices, chooseDevicesWithReasons, returnGuardClasses, stressClasses } from "../engine/devices/choose.ts";
+import {
+  chooseDevices,
+  chooseDevicesWithReasons,
+  returnGuardClasses,
+  stressClasses,
+} from "../engine/devices/choose.ts";
 import { sizeVariant } from "../engine/index.ts";
 import { renderVariantViews, type VariantViews } from "../render/variant.ts";
 

@@ -55,7 +55,7 @@ export interface SpecOpts {
   solenoid?: NonNullable<DesignRecord["solenoid"]>;
   /** Offer the engine the library's stress-step classes (VariantSpec.stressClasses), as a build does. */
   stress?: boolean;
-  /** Offer the reverse guard's classes (VariantSpec.returnGuardClasses) where a series diode applies, as a build does. */
+  /** Offer the reverse guard's classes (VariantSpec.returnGuardClasses) where a series diode applies. */
   guard?: boolean;
 }
 

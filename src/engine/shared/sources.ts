@@ -899,7 +899,7 @@ export const SOURCES = {
       "supply exceeds it. The same circuit is drawn in many makers' notes and in common practice.",
     values: [
       { item: "drop in normal use", value: "I·R_DS(on) at the gate voltage the rail gives", sureness: "from-memory" },
-      { item: "reverse blocking", value: "the body diode, V_DS rating ≥ the reversed battery", sureness: "from-memory" },
+      { item: "reverse blocking", value: "the body diode, V_DS ≥ the reversed battery", sureness: "from-memory" },
       { item: "gate clamp", value: "zener gate–source where V_supply,max > V_GS rating", sureness: "common-practice" },
       { item: "gate resistor", value: "≈ 10–100 kΩ", sureness: "common-practice" },
     ],

@@ -37,7 +37,7 @@ import { CORE_CURRENT_ESTIMATE_A, seriesReverse } from "./reverse.ts";
 import { startEvent } from "./protection.ts";
 import { switchSteps } from "./switch-step.ts";
 
-/** The gate resistor from the positive rail: 10 kΩ (common practice, 10–100 kΩ; it carries only the clamp's current). */
+/** The gate resistor from the positive rail: 10 kΩ (common practice, 10–100 kΩ; it carries only the clamp current). */
 export const RETURN_GATE_R_OHM = 10e3;
 /** The net between the battery's negative terminal and the guard's drain (0 V stays the circuit's ground). */
 export { BATTERY_NEG_NET } from "../../model/circuit.ts";
@@ -213,11 +213,20 @@ export function returnFet(spec: VariantSpec): ReturnFet | undefined {
 }
 
 /**
- * The spec to try with the guard instead of the series diode: only for a refused variant that has a
- * series diode and carries candidate classes (the step keeps it only when the variant then passes).
+ * The chains the guard is offered to: the MOSFET chains. On the coverage grid's BJT chains (2, 5 and
+ * 10 A, all 15 records, 6,300 variants, 1,860 of them with the series diode) it made none feasible —
+ * their refusals are the tap's drive, the duty range and the switch's own heat and drop — and cost
+ * their refused 10 A variants 58 % more sizing time (measured 2026-12-04; docs/method.md).
+ */
+const GUARDED_CHAINS: ReadonlySet<string> = new Set(["mosfet-logic", "mosfet-driver"]);
+
+/**
+ * The spec to try with the guard instead of the series diode: only for a refused MOSFET-chain variant
+ * that has a series diode and carries candidate classes (the step keeps it only when the variant then passes).
  */
 export function returnFetSteps(spec: VariantSpec, out: SizedVariant): VariantSpec[] {
-  if (out.feasible || spec.returnFet !== undefined || (spec.returnGuardClasses?.fets ?? []).length === 0) return [];
+  if (out.feasible || spec.returnFet !== undefined || !GUARDED_CHAINS.has(spec.chain)) return [];
+  if ((spec.returnGuardClasses?.fets ?? []).length === 0) return [];
   if (out.circuit !== null && !out.circuit.parts.some((p) => p.role === "D_SERIES")) return [];
   const refused = [...new Set(out.verdict.blocking.map((b) => b.rule))];
   return chooseReturnFet(spec) === undefined ? [] : [{ ...spec, returnFet: { refused } }];
