@@ -888,8 +888,3 @@ function dedupe(figs: Figure[]): Figure[] {
   const seen = new Set<string>();
   return figs.filter((f) => (seen.has(f.key) ? false : (seen.add(f.key), true)));
 }
-
-/** One sizing without the stress steps (tests and measurement scripts). */
-export function sizeOnceForTest(spec: VariantSpec): SizedVariant {
-  return sizeOnce(spec);
-}
