@@ -14,7 +14,7 @@ import { fileURLToPath } from "node:url";
 import { loadProject } from "../src/records/index.ts";
 import { formatIssue } from "../src/records/index.ts";
 import { expandDesign } from "../src/expand/index.ts";
-import { chooseDevices, railZenerClasses, stressClasses } from "../src/engine/devices/choose.ts";
+import { chooseDevices, railZenerClasses, returnGuardClasses, stressClasses } from "../src/engine/devices/choose.ts";
 import { sizeVariant } from "../src/engine/index.ts";
 import { sizeVariantWithGateBuffer } from "../src/engine/size.ts";
 import type { SizedVariant } from "../src/model/sized.ts";
@@ -30,6 +30,7 @@ export async function sizeAll(root: string, gateBuffer = false): Promise<SizedVa
       choose: (r, s, a, c, k) => chooseDevices(r, project.devices, s, a, c, k),
       stressClasses: (r) => stressClasses(r, project.devices),
       railZeners: (r) => railZenerClasses(r, project.devices),
+      returnGuardClasses: (r) => returnGuardClasses(r, project.devices),
       policy: project.policy,
     }),
   );

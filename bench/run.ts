@@ -22,7 +22,7 @@ import path from "node:path";
 import { fileURLToPath } from "node:url";
 import { loadProject } from "../src/records/index.ts";
 import { expandDesign } from "../src/expand/index.ts";
-import { chooseDevices, stressClasses } from "../src/engine/devices/choose.ts";
+import { chooseDevices, returnGuardClasses, stressClasses } from "../src/engine/devices/choose.ts";
 import { sizeVariant } from "../src/engine/index.ts";
 import { benchRender } from "./render.ts";
 import { runCoverage } from "./coverage.ts";
@@ -43,6 +43,7 @@ async function benchEngine(): Promise<void> {
     expandDesign(d.record, {
       choose: (r, s, a, c, k) => chooseDevices(r, project.devices, s, a, c, k),
       stressClasses: (r) => stressClasses(r, project.devices),
+      returnGuardClasses: (r) => returnGuardClasses(r, project.devices),
       policy: project.policy,
     }),
   );

@@ -3,7 +3,7 @@
  * load, protection), then by the role order of docs/topologies.md, each letter code from 1; adds
  * the simulation instruments and the net list.
  */
-import type { CircuitModel, Instrument, Part } from "../model/circuit.ts";
+import { BATTERY_NEG_NET, type CircuitModel, type Instrument, type Part } from "../model/circuit.ts";
 import { REF_PREFIX, STAGE_KINDS } from "../model/kinds.ts";
 import { PART_ROLES, stageOfRole, type PartRole } from "../model/part-roles.ts";
 import { EngineMisuseError } from "../model/errors.ts";
@@ -38,7 +38,14 @@ export function assembleCircuit(
     return { ...p, ref: `${prefix}${n}` };
   });
   const instruments: Instrument[] = [
-    { name: "Vsupply", p: "vcc", n: "0", value_V: opts.supply_V },
+    // With the reverse guard in the return line the battery's negative is its own net (the guard's
+    // drain); 0 V stays the circuit's ground, so every measurement is taken as before.
+    {
+      name: "Vsupply",
+      p: "vcc",
+      n: numbered.some((p) => p.role === "Q_RETURN") ? BATTERY_NEG_NET : "0",
+      value_V: opts.supply_V,
+    },
     opts.highSide ? { name: "Vsense", p: "sw", n: "ls", value_V: 0 } : { name: "Vsense", p: "ls", n: "sw", value_V: 0 },
   ];
   const nets = new Set<string>();

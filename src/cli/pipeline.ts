@@ -10,7 +10,13 @@ import type { SizedVariant } from "../model/sized.ts";
 import type { Verification } from "../model/verification.ts";
 import type { DeviceLibrary } from "../model/device.ts";
 import { expandDesign } from "../expand/index.ts";
-import { chooseDevices, chooseDevicesWithReasons, railZenerClasses, stressClasses } from "../engine/devices/choose.ts";
+import {
+  chooseDevices,
+  chooseDevicesWithReasons,
+  railZenerClasses,
+  returnGuardClasses,
+  stressClasses,
+} from "../engine/devices/choose.ts";
 import { sizeVariant, attachAlternatives } from "../engine/index.ts";
 import { variantPlot } from "../render/plot.ts";
 import { renderVariantViews, type VariantViews } from "../render/variant.ts";
@@ -38,6 +44,7 @@ export function sizeDesign(project: LoadedProject, d: LoadedProject["designs"][n
     // makes feasible with both card sets (docs/method.md, "Low-capacitance base diodes").
     stressClasses: (rec) => stressClasses(rec, project.devices),
     railZeners: (rec) => railZenerClasses(rec, project.devices),
+    returnGuardClasses: (rec) => returnGuardClasses(rec, project.devices),
     policy: project.policy,
   });
   return attachAlternatives(specs.map((s) => sizeVariant(s)));

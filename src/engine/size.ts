@@ -41,6 +41,7 @@ import { reviewFailures } from "./stages/failure-modes.ts";
 import { protectionStage } from "./stages/protection.ts";
 import { seriesLoss_W } from "./stages/series-reverse.ts";
 import { switchSteps } from "./stages/switch-step.ts";
+import { guardedSwitchSteps, returnFetSteps, returnLoss_W } from "./stages/return-fet.ts";
 import { cautions, checkProblems, verdictLead } from "./stages/feasibility.ts";
 import { decideVerdict } from "./stages/verdict.ts";
 import {
@@ -86,6 +87,16 @@ function sizeStepped(spec: VariantSpec): SizedVariant {
   for (const stepped of switchSteps(spec, out)) {
     const alt = sizeOnce(stepped);
     if (alt.feasible) return alt;
+  }
+  // The reverse guard in the return line instead of the series diode (stages/return-fet.ts), with the
+  // ordinary switch and then, for the gate driver, with each stepped one: kept only when feasible.
+  for (const guarded of returnFetSteps(spec, out)) {
+    const alt = sizeOnce(guarded);
+    if (alt.feasible) return alt;
+    for (const stepped of guardedSwitchSteps(guarded, alt)) {
+      const alt2 = sizeOnce(stepped);
+      if (alt2.feasible) return alt2;
+    }
   }
   return out;
 }
@@ -909,7 +920,9 @@ function driverLoss_W(parts: Part[], losses: DeviceLoss[], ctx: ReturnType<typeo
       : Math.max(0, diodeClassVf_V(fwDev, ctx.iMax_A, NOMINAL_TEMP_C)) * ctx.iMax_A * (1 - dMax);
   // A series reverse diode carries the load's current while it is on (and the core's all the time).
   const pSeries = ctx.series === undefined ? 0 : seriesLoss_W(ctx.series.dev, ctx.iMax_A) * dMax;
-  return transistors + passive + pFw + pSeries;
+  // The return-line guard likewise (I²·R_DS(on),hot); its gate resistor and clamp are among the passives.
+  const pGuard = ctx.returnFet === undefined ? 0 : returnLoss_W(ctx.iMax_A, ctx.returnFet.rdsHot_ohm) * dMax;
+  return transistors + passive + pFw + pSeries + pGuard;
 }
 
 /**

@@ -7,11 +7,12 @@ import type { DeratingPolicy } from "../model/derating.ts";
 import { DEVICE_ROLES, type DesignRecord, type DeviceRole } from "../model/design.ts";
 import type { DeviceClass, ZenerClass } from "../model/device.ts";
 import type { ChainKind, LoadKind } from "../model/kinds.ts";
-import type { DeviceChoice, VariantSpec } from "../model/variant.ts";
+import type { DeviceChoice, ReturnGuardClasses, VariantSpec } from "../model/variant.ts";
 import { variantId } from "./variant-id.ts";
 import { supplyWindow } from "../engine/shared/supply.ts";
 import { stressStepApplies } from "../engine/devices/choose.ts";
 import { railByStress, railOffered } from "../engine/stages/core-rail.ts";
+import { seriesReverse } from "../engine/stages/reverse.ts";
 
 /** Defaults of optional targets (values documented in docs/writing-a-design.md). */
 export const TARGET_DEFAULTS = {
@@ -47,6 +48,8 @@ export interface ExpandDeps {
   stressClasses?: (rec: DesignRecord) => Partial<Record<DeviceRole, DeviceClass>>;
   /** Optional: zener classes for the timing core's regulated rail (VariantSpec.railZeners). */
   railZeners?: (rec: DesignRecord) => ZenerClass[];
+  /** Optional: classes for the return-line reverse guard (VariantSpec.returnGuardClasses). */
+  returnGuardClasses?: (rec: DesignRecord) => ReturnGuardClasses;
   policy: DeratingPolicy;
 }
 
@@ -68,6 +71,12 @@ export function expandDesign(rec: DesignRecord, deps: ExpandDeps): VariantSpec[]
   const targets = fillTargets(rec.targets);
   const protection = { ...PROTECTION_DEFAULTS, ...rec.protection };
   const stress = deps.stressClasses?.(rec) ?? {};
+  const guard = deps.returnGuardClasses?.(rec);
+  // Carried only where the variant gets a series diode (stages/reverse.ts), the guard's place.
+  const withFets = (spec: VariantSpec): VariantSpec =>
+    guard !== undefined && guard.fets.length > 0 && seriesReverse(spec) !== undefined
+      ? { ...spec, returnGuardClasses: guard }
+      : spec;
   // A variant carries the stress classes that are a step from the classes chosen for it
   // (choose.ts stressStepApplies), so a variant that needs none keeps its spec as before.
   const stressFor = (devices: Record<DeviceRole, DeviceClass>): Pick<VariantSpec, "stressClasses"> => {
@@ -94,7 +103,7 @@ export function expandDesign(rec: DesignRecord, deps: ExpandDeps): VariantSpec[]
           const devices = deps.choose(rec, supply_V, load_A, chain, load_kind);
           const reasons = deps.explain?.(rec, supply_V, load_A, chain, load_kind);
           const differs = every !== null && DEVICE_ROLES.some((role) => every.devices[role].id !== devices[role].id);
-          out.push({
+          const spec: VariantSpec = {
             id: variantId(rec, supply_V, load_A, chain, load_kind),
             design: rec.id,
             designTitle: rec.title,
@@ -112,7 +121,8 @@ export function expandDesign(rec: DesignRecord, deps: ExpandDeps): VariantSpec[]
             ...railFor(chain, load_kind),
             policy: deps.policy,
             ...(load_kind === "solenoid" && rec.solenoid !== undefined ? { solenoid: { ...rec.solenoid } } : {}),
-          });
+          };
+          out.push(withFets(spec));
         }
       }
     }

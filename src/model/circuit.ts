@@ -6,10 +6,15 @@ import type { PartRole } from "./part-roles.ts";
  * are views of it. Net names are lower-case SPICE-safe identifiers; "0" is ground.
  *
  * Pin names per part kind (PIN_NAMES below). Conventional nets (docs/topologies.md):
- *   vcc   supply input (+), the `Vsupply` source sits between vcc and 0
+ *   vcc   supply input (+), the `Vsupply` source sits between vcc and 0 (or batneg)
+ *   batneg the battery's negative terminal where a reverse guard sits in the return line (its drain);
+ *         0 stays the circuit's ground, the `Vsupply` source then sits between vcc and batneg
  *   vbus  rail after the fuse; everything but the fuse hangs on vbus
  *   ca/cb timing-core collectors A/B, ba/bb their bases, na/nb the capacitor-side base nodes
  */
+/** The battery's negative terminal's net when a reverse guard sits in the return line (BATTERY_NEG_NET). */
+export const BATTERY_NEG_NET = "batneg";
+
 export const PIN_NAMES = {
   resistor: ["a", "b"],
   potentiometer: ["a", "w", "b"],

@@ -10,7 +10,7 @@ import { REF_PREFIX, STAGE_KINDS, type PartKind, type StageKind } from "./kinds.
 
 /** Roles per stage, in reference-designator numbering order (docs/topologies.md, "Role vocabulary"). */
 export const STAGE_ROLES = {
-  supply: ["F_SUPPLY", "D_SERIES", "D_REVERSE", "C_BULK"],
+  supply: ["F_SUPPLY", "D_SERIES", "D_REVERSE", "Q_RETURN", "RG_RETURN", "DZ_RETURN", "C_BULK"],
   timing: [
     "Q_A",
     "Q_B",

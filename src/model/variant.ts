@@ -1,5 +1,5 @@
 import type { DesignRecord, DeviceRole, SolenoidRecord } from "./design.ts";
-import type { DeviceClass, ZenerClass } from "./device.ts";
+import type { DeviceClass, MosfetClass, ZenerClass } from "./device.ts";
 import type { ChainKind, LoadKind } from "./kinds.ts";
 import type { DeratingPolicy } from "./derating.ts";
 
@@ -38,6 +38,17 @@ export interface VariantSpec {
    * (src/engine/stages/core-rail.ts): present only on variants the rail is offered to.
    */
   railZeners?: ZenerClass[];
+  /**
+   * Classes the reverse-polarity guard in the return line may take (src/engine/devices/choose.ts
+   * `returnGuardClasses`): present where the variant gets a series diode.
+   */
+  returnGuardClasses?: ReturnGuardClasses;
+  /**
+   * Set by the stress step only (src/engine/stages/return-fet.ts `returnFetSteps`): reverse polarity by
+   * the N-MOSFET in the return line instead of the series diode, with the rules that refused the variant
+   * with the diode (the design decision's reason).
+   */
+  returnFet?: { refused: readonly string[] };
   policy: DeratingPolicy;
   /** The record's coil data, present on solenoid variants. */
   solenoid?: SolenoidRecord;
@@ -45,6 +56,12 @@ export interface VariantSpec {
 
 /** A variant's device classes with the chooser's reasons and the classes they may step up to. */
 export type DeviceChoice = Pick<VariantSpec, "devices" | "deviceReasons" | "stressClasses">;
+
+/** The guard's N-MOSFET classes (smallest first) and its gate clamp's zener classes (highest voltage first). */
+export interface ReturnGuardClasses {
+  fets: readonly MosfetClass[];
+  clamps: readonly ZenerClass[];
+}
 
 /** Battery chemistries whose windows the engine knows (src/engine/shared/supply.ts). */
 export const BATTERY_CHEMISTRIES = ["lead-acid", "lifepo4"] as const;

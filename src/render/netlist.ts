@@ -74,6 +74,23 @@ function header(circuit: CircuitModel, meta: NetlistMeta): string[] {
   ];
 }
 
+/**
+ * A reverse guard in the return line (Q_RETURN) starts conducting: the rail and the bulk capacitor at
+ * the supply, the gate at the supply or its clamp's voltage. Started from 0 V instead, the bulk
+ * capacitor's first charge would be forced through the guard's body diode at the full supply in the
+ * first time step, which the solver cannot take; a real battery connects through the wiring's
+ * resistance and the body diode then the channel carry that charge (docs/method.md).
+ */
+function guardStart(circuit: CircuitModel, supply_V: number, settled: string): string {
+  const q = circuit.parts.find((p) => p.role === "Q_RETURN");
+  const gate = q?.pins["g"];
+  if (q === undefined || gate === undefined) return "";
+  const dz = circuit.parts.find((p) => p.role === "DZ_RETURN");
+  const vg = dz === undefined ? supply_V : Math.min(supply_V, dz.value);
+  const vbus = settled.includes(" v(vbus)=") ? "" : ` v(vbus)=${spiceNum(supply_V, "ic")}`;
+  return `${vbus} v(${checkNet(gate, "ic")})=${spiceNum(vg, "ic")}`;
+}
+
 export function renderNetlist(circuit: CircuitModel, meta: NetlistMeta): string {
   for (const [k, x] of [
     ["supply_V", meta.supply_V],
@@ -125,7 +142,10 @@ export function renderNetlist(circuit: CircuitModel, meta: NetlistMeta): string 
   const rail = coreRailStart(circuit, meta.supply_V);
   const high = rail === null ? meta.supply_V : rail.v_V;
   const railIc = rail === null ? "" : ` v(${checkNet(rail.net, "ic")})=${spiceNum(rail.v_V, "ic")}`;
-  if (hasCore) out.push(`.ic v(ca)=${spiceNum(high, "ic")} v(cb)=0${railIc}${settled}`);
+  if (hasCore)
+    out.push(
+      `.ic v(ca)=${spiceNum(high, "ic")} v(cb)=0${railIc}${settled}${guardStart(circuit, meta.supply_V, settled)}`,
+    );
   out.push(
     // The simulator runs at the nominal temperature the pages and the predictions speak of; every
     // card states TNOM equal to it, so no parameter is scaled (src/engine/shared/temperature.ts).

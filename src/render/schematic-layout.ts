@@ -59,6 +59,13 @@ export const SUPPLY: StageLayout = {
     // A series reverse diode sits in the rail after the fuse (then no shunt D_REVERSE is fitted).
     D_SERIES: { x: 120, y: 50, rot: 270, label: "below" },
     D_REVERSE: { x: 120, y: 140, rot: 180 },
+    // The reverse guard in the return line (then no D_SERIES or D_REVERSE): its gate resistor drops
+    // from the rail where the shunt diode would sit, the gate line runs straight down to the clamp
+    // zener, the MOSFET hangs beside it with its drain up to the battery's − terminal and its
+    // source on the circuit's 0 V (ground).
+    RG_RETURN: { x: 120, y: 140, label: "left" },
+    Q_RETURN: { x: 150, y: 250, label: "right" },
+    DZ_RETURN: { x: 120, y: 310, rot: 180, label: "left" },
     C_BULK: { x: 200, y: 140 },
   },
   routes: [],

@@ -98,6 +98,9 @@ function packLines(words: readonly string[], ratings: string): string[] {
 /** Stages whose tables leave no room for a third label line under a resistor (the core's collector resistors). */
 const TIGHT_STAGES = new Set<Part["stage"]>(["timing", "duty"]);
 
+/** A part whose job the drawing alone does not show gets it named under its ref. */
+const PURPOSE: Partial<Record<Part["role"], readonly string[]>> = { Q_RETURN: ["reverse guard"] };
+
 /**
  * Label text in the builder's words: the ref, then the value and its rating (a resistor's power
  * class above the smallest, 0.25 W; an electrolytic's voltage; a film or ceramic capacitor's
@@ -108,7 +111,7 @@ export function labelLines(part: Part | undefined, key: string, ctx: FactsContex
   if (!part) return key === "Vsense" ? [...SENSE_LABEL] : [key];
   const t = typeParts(part, ctx);
   if (VALUELESS.has(part.kind) || (part.value === 0 && part.unit === ""))
-    return [part.ref, ...packLines(t.words, t.ratings)];
+    return [part.ref, ...(PURPOSE[part.role] ?? []), ...packLines(t.words, t.ratings)];
   const value = formatValue(part.value, part.unit);
   const w = part.rating.power_W;
   if (part.kind === "resistor") {

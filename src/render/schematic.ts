@@ -5,7 +5,7 @@
  * (schematic-route.ts). Each drawn part carries `data-ref` and `data-pins` ("pin=net ..."), each wire
  * `data-net`, so tests can read them back.
  */
-import type { CircuitModel } from "../model/circuit.ts";
+import { BATTERY_NEG_NET, type CircuitModel } from "../model/circuit.ts";
 import type { DeviceLibrary } from "../model/device.ts";
 import { place, FONT_PX, LINE_PX, type Placed } from "./schematic-place.ts";
 import { RouteMemo } from "./route-memo.ts";
@@ -70,6 +70,7 @@ export function renderSchematic(
     `Schematic with ${circuit.parts.length} parts: ${circuit.parts.map((p) => p.ref).join(", ")}. Supply on the ` +
     `left, load on the right; vbus rail along the top.${sense}`;
   const vccAt = supplyPin(placed);
+  const negAt = batteryNegPin(placed);
   return svgDocument(attrs, { id: idFragment(meta.id), title: meta.title, desc }, (c) => {
     c.empty("rect", { width, height, fill: WHITE });
     c.group(
@@ -78,12 +79,17 @@ export function renderSchematic(
     );
     c.group(
       { "stroke-linejoin": "round", "stroke-linecap": "round", "stroke-width": STROKE_PX, stroke: INK, fill: "none" },
-      (g) => drawParts(g, placed, routing, vccAt),
+      (g) => drawParts(g, placed, routing, vccAt, negAt),
     );
     if (vccAt) {
       const at = vccAt;
       const netlabel = { x: at[0] - 14, y: at[1] + 4, "text-anchor": "end", fill: ACCENT, "data-netlabel": "vcc" };
       c.textElement("text", netlabel, "vcc +");
+    }
+    if (negAt) {
+      const at = negAt;
+      const netlabel = { x: at[0] + 10, y: at[1] - 8, fill: ACCENT, "data-netlabel": BATTERY_NEG_NET };
+      c.textElement("text", netlabel, "battery −");
     }
     c.group({ fill: INK }, (g) => drawLabels(g, placed));
     for (const f of routing.flags) drawFlag(c, f);
@@ -107,7 +113,22 @@ function supplyPin(placed: Placed[]): readonly [number, number] | undefined {
   return vcc && vccPin ? vcc.pins[vccPin[0]] : undefined;
 }
 
-function drawParts(g: SvgPen, placed: Placed[], routing: Routing, vccAt: readonly [number, number] | undefined): void {
+/**
+ * Where the battery's negative terminal joins a reverse guard in the return line (its drain, net
+ * `batneg`): drawn as a terminal, since the circuit's 0 V is not the battery's negative.
+ */
+function batteryNegPin(placed: Placed[]): readonly [number, number] | undefined {
+  const q = placed.find((p) => p.nets.d === BATTERY_NEG_NET);
+  return q?.pins.d;
+}
+
+function drawParts(
+  g: SvgPen,
+  placed: Placed[],
+  routing: Routing,
+  vccAt: readonly [number, number] | undefined,
+  negAt?: readonly [number, number],
+): void {
   for (const p of placed) {
     const pins = Object.entries(p.nets)
       .map(([k, v]) => `${k}=${v}`)
@@ -136,6 +157,11 @@ function drawParts(g: SvgPen, placed: Placed[], routing: Routing, vccAt: readonl
   }
   if (vccAt)
     g.group({ "data-terminal": "vcc", transform: `translate(${vccAt[0]} ${vccAt[1]})` }, (s) => terminal.draw(s));
+  // The terminal turned to face up, its pin at the drain below it.
+  if (negAt)
+    g.group({ "data-terminal": BATTERY_NEG_NET, transform: `translate(${negAt[0]} ${negAt[1]}) rotate(90)` }, (s) =>
+      terminal.draw(s),
+    );
 }
 
 function drawLabels(g: SvgPen, placed: Placed[]): void {

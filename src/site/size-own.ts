@@ -11,7 +11,13 @@ import type { ChainKind, LoadKind } from "../model/kinds.ts";
 import type { SizedVariant } from "../model/sized.ts";
 import { formatValue } from "../model/format.ts";
 import { expandDesign } from "../expand/index.ts";
-import { chooseDevices, chooseDevicesWithReasons, railZenerClasses, stressClasses } from "../engine/devices/choose.ts";
+import {
+  chooseDevices,
+  chooseDevicesWithReasons,
+  railZenerClasses,
+  returnGuardClasses,
+  stressClasses,
+} from "../engine/devices/choose.ts";
 import { sizeVariant } from "../engine/index.ts";
 import { renderVariantViews, type VariantViews } from "../render/variant.ts";
 
@@ -106,6 +112,7 @@ export function sizeOwn(data: SizeOwnData, input: SizeOwnInput, opts: { schemati
     explain: (r, s, a, c, k) => chooseDevicesWithReasons(r, lib, s, a, c, k).reasons,
     stressClasses: (r) => stressClasses(r, lib),
     railZeners: (r) => railZenerClasses(r, lib),
+    returnGuardClasses: (r) => returnGuardClasses(r, lib),
     policy: data.policy,
   });
   if (!spec) return { ok: false, errors: ["Nothing to size for these inputs."] };

@@ -11,7 +11,8 @@ import type { DesignRecord, DeviceRole } from "../../src/model/design.ts";
 import type { ChainKind, LoadKind } from "../../src/model/kinds.ts";
 import type { VariantSpec } from "../../src/model/variant.ts";
 import { indexLibrary } from "../../src/engine/devices/library.ts";
-import { chooseDevices, railZenerClasses, stressClasses } from "../../src/engine/devices/choose.ts";
+import { chooseDevices, railZenerClasses, returnGuardClasses, stressClasses } from "../../src/engine/devices/choose.ts";
+import { seriesReverse } from "../../src/engine/stages/reverse.ts";
 import { supplyWindow } from "../../src/engine/shared/supply.ts";
 
 const ROOT = join(import.meta.dirname, "..", "..");
@@ -54,6 +55,8 @@ export interface SpecOpts {
   solenoid?: NonNullable<DesignRecord["solenoid"]>;
   /** Offer the engine the library's stress-step classes and rail zeners (stressClasses, railZeners), as builds do. */
   stress?: boolean;
+  /** Offer the reverse guard's classes (VariantSpec.returnGuardClasses) where a series diode applies. */
+  guard?: boolean;
 }
 
 /**
@@ -151,7 +154,7 @@ export function makeSpec(o: SpecOpts): VariantSpec {
       ? { solenoid: o.solenoid ?? { tau_ms: 10, pull_in_ms: 30, pull_in_share: 0.75, hold_share: 0.4 } }
       : {}),
   };
-  return {
+  const spec: VariantSpec = {
     id: `test-${o.supply_V}v-${o.load_A}a-${o.chain}-${o.load_kind}`,
     design: rec.id,
     designTitle: rec.title,
@@ -172,6 +175,9 @@ export function makeSpec(o: SpecOpts): VariantSpec {
     policy: policy(),
     ...(rec.solenoid ? { solenoid: rec.solenoid } : {}),
   };
+  return o.guard === true && seriesReverse(spec) !== undefined
+    ? { ...spec, returnGuardClasses: returnGuardClasses(rec, library()) }
+    : spec;
 }
 
 /**

@@ -9,6 +9,7 @@ import type { ChainKind, LoadKind } from "../../model/kinds.ts";
 import { DEVICE_ROLES, ROLE_FAMILY } from "../../model/design.ts";
 import type { BjtClass, DeviceClass, DeviceLibrary, DiodeClass, MosfetClass, ZenerClass } from "../../model/device.ts";
 import { EngineMisuseError } from "../../model/errors.ts";
+import type { ReturnGuardClasses } from "../../model/variant.ts";
 import { hfeMin, vbeSat, vceSat } from "../shared/gain.ts";
 import { specVgs_V } from "../shared/rdson.ts";
 import { plateau_V } from "../shared/gate-charge.ts";
@@ -134,6 +135,38 @@ export function railZenerClasses(record: DesignRecord, lib: DeviceLibrary): Zene
   return RAIL_ZENER_IDS.filter((id) => lib.has(id)).map(
     (id) => checkFamily("gate_zener", getDevice(lib, id), "regulated core rail") as ZenerClass,
   );
+}
+
+/**
+ * N-MOSFET classes for the reverse-polarity guard in the return line (stages/return-fet.ts), smallest
+ * first: logic-level classes first, so the gate clears at a 5–6 V supply too, the 100 V classes for a
+ * reversed 24–48 V battery, the low-R_DS(on) classes for 5–10 A. The stage takes the first that passes
+ * every check; the guard itself is offered only where the series diode leaves the variant refused.
+ */
+export const RETURN_FET_IDS: readonly string[] = [
+  "nmos-logic",
+  "nmos-logic-100v",
+  "nmos-logic-low-rds",
+  "nmos-standard-100v-low-rds",
+];
+
+/**
+ * The guard's classes present in the library: the N-MOSFETs of RETURN_FET_IDS, and its gate clamp from
+ * the gate zeners (the record's bound one, else DEFAULT_DEVICE_IDS.gate_zener, highest voltage first,
+ * so the gate gets the most drive the clamp allows). None when the record binds the series diode.
+ */
+export function returnGuardClasses(record: DesignRecord, lib: DeviceLibrary): ReturnGuardClasses {
+  if (record.devices?.reverse_series_diode !== undefined) return { fets: [], clamps: [] };
+  const bound = record.devices?.gate_zener;
+  const fets = RETURN_FET_IDS.filter((x) => lib.has(x))
+    .map((x) => getDevice(lib, x))
+    .filter((d): d is MosfetClass => isMosfet(d));
+  const clamps = (bound !== undefined ? [bound] : DEFAULT_DEVICE_IDS.gate_zener)
+    .filter((x) => lib.has(x))
+    .map((x) => getDevice(lib, x))
+    .filter((d): d is ZenerClass => isZener(d))
+    .sort((a, b) => b.vz_V - a.vz_V);
+  return { fets, clamps };
 }
 
 /** The classes of STRESS_DEVICE_IDS present in the library, for the roles the record does not bind. */

@@ -882,6 +882,28 @@ export const SOURCES = {
       { item: "12 V LiFePO4 (4 cells)", value: "≈ 10.0 V … 14.6 V", sureness: "common-practice" },
     ],
   },
+  "reverse-battery-return-fet": {
+    kind: "trade practice",
+    short: "Reverse-battery protection application note (2003)",
+    title: "Reverse Current/Battery Protection Circuits (a semiconductor maker's application note)",
+    edition: "2003",
+    where: "the N-channel MOSFET in the ground return, gate from the positive rail, gate–source zener",
+    sureness: "from-memory",
+    confidence: "from-memory",
+    note:
+      "An N-channel MOSFET in the supply's return line, drain to the battery's negative terminal and source " +
+      "to the circuit's 0 V, its gate fed from the positive rail through a resistor: with the battery the " +
+      "right way round the body diode conducts first and the gate then enhances the channel, so the line " +
+      "drops only I·R_DS(on); reversed, the gate is at or below the source and the body diode is reverse " +
+      "biased, so the circuit is cut off. A zener from gate to source holds V_GS below its rating where the " +
+      "supply exceeds it. The same circuit is drawn in many makers' notes and in common practice.",
+    values: [
+      { item: "drop in normal use", value: "I·R_DS(on) at the gate voltage the rail gives", sureness: "from-memory" },
+      { item: "reverse blocking", value: "the body diode, V_DS ≥ the reversed battery", sureness: "from-memory" },
+      { item: "gate clamp", value: "zener gate–source where V_supply,max > V_GS rating", sureness: "common-practice" },
+      { item: "gate resistor", value: "≈ 10–100 kΩ", sureness: "common-practice" },
+    ],
+  },
   "common-practice": {
     kind: "trade practice",
     short: "common practice",

@@ -12,6 +12,7 @@ import { loadModel } from "../shared/loads.ts";
 import type { SwitchingKind } from "../shared/losses.ts";
 import { SERIES_TOLERANCE } from "../shared/e-series.ts";
 import { type SeriesReverse, seriesReverse } from "./reverse.ts";
+import { type ReturnFet, returnFet } from "./return-fet.ts";
 import { GENERAL_CAPS, type TimingCapClass } from "./timing-caps.ts";
 
 /** Potentiometer track tolerance, ±20 % (common practice for carbon and cermet pots). */
@@ -47,6 +48,11 @@ export interface Ctx {
    * the rail after it (its drop taken off), vMax_V the supply's (the highest stresses).
    */
   series?: SeriesReverse;
+  /**
+   * The N-MOSFET guard in the return line instead of the series diode (stages/return-fet.ts), when the
+   * stress step chose it: vMin_V and vNom_V are then the rail over the circuit's 0 V (its drop taken off).
+   */
+  returnFet?: ReturnFet;
   /** The supply itself (before any series diode): the fuse and the reverse protection see it. */
   supply: { min_V: number; nom_V: number; max_V: number };
   /**
@@ -77,15 +83,18 @@ export function makeContext(spec: VariantSpec): Ctx {
   // The supply's real range (a battery's end of discharge … charging, or the record's window).
   const supply = { min_V: spec.supply_window.min_V, nom_V: spec.supply_V, max_V: spec.supply_window.max_V };
   // The load is rated at the record's nominal supply; the circuit runs from the rail after a series diode.
-  const series = seriesReverse(spec);
-  const vNom_V = supply.nom_V - (series?.dropNom_V ?? 0);
-  const vMin_V = supply.min_V - (series?.dropMin_V ?? 0);
+  const guard = returnFet(spec);
+  const series = guard === undefined ? seriesReverse(spec) : undefined;
+  const drop = guard ?? series;
+  const vNom_V = supply.nom_V - (drop?.dropNom_V ?? 0);
+  const vMin_V = supply.min_V - (drop?.dropMin_V ?? 0);
   const vMax_V = supply.max_V;
   const coil = spec.solenoid === undefined ? undefined : { tau_s: spec.solenoid.tau_ms * 1e-3 };
   const load = loadModel(spec.load_kind, supply.nom_V, spec.load_A, coil);
   const iMax_A = runningCurrentMax_A(spec.load_kind, load, spec.load_A, supply.nom_V, vMax_V);
   return {
     ...(series === undefined ? {} : { series }),
+    ...(guard === undefined ? {} : { returnFet: guard }),
     supply,
     spec,
     vNom_V,

@@ -16,6 +16,8 @@ import { GENERIC_HEATSINKS, type GenericHeatsink, pickHeatsink } from "../shared
 import { PREFERRED_REASON } from "../devices/choose.ts";
 import { GENERAL_CAPS, TIGHT_CAPS } from "./timing-caps.ts";
 import { GATE_EDGE_SHARE } from "./tap.ts";
+import { returnFet } from "./return-fet.ts";
+import { seriesReverse } from "./reverse.ts";
 
 /** The device role a part of this role takes its class from, where the part role says it. */
 const DEVICE_ROLE_OF: Partial<Record<PartRole, DeviceRole>> = {
@@ -41,7 +43,11 @@ const DEVICE_ROLE_OF: Partial<Record<PartRole, DeviceRole>> = {
   D_FREEWHEEL: "freewheel_diode",
 };
 
+/** The reverse guard's parts: their classes are its own decision (`returnGuardDecision`), not a role's. */
+const GUARD_ROLES: ReadonlySet<PartRole> = new Set(["Q_RETURN", "RG_RETURN", "DZ_RETURN"]);
+
 function deviceRoleOf(spec: VariantSpec, p: Part): DeviceRole | undefined {
+  if (GUARD_ROLES.has(p.role)) return undefined;
   const named = DEVICE_ROLE_OF[p.role];
   if (named !== undefined) return spec.devices[named].id === p.device ? named : undefined;
   const roles = Object.keys(spec.devices) as DeviceRole[];
@@ -185,9 +191,38 @@ export function designDecisions(
         `every limit with the overdrive the search requires`,
     });
   }
+  const guard = returnGuardDecision(spec, circuit);
+  if (guard !== undefined) out.push(guard);
   if (arrangement !== undefined) out.push(arrangementDecision(circuit, arrangement));
   if (caps !== undefined) out.push(capsDecision(circuit, caps));
   return out;
+}
+
+/**
+ * The reverse guard in the return line instead of the series diode (stages/return-fet.ts): what the
+ * diode cost, what refused the variant with it, and the class the guard takes.
+ */
+function returnGuardDecision(spec: VariantSpec, circuit: CircuitModel): DesignDecision | undefined {
+  const g = returnFet(spec);
+  const diode = seriesReverse(spec);
+  if (g === undefined || diode === undefined || spec.returnFet === undefined) return undefined;
+  const refs = circuit.parts
+    .filter((p) => p.role === "Q_RETURN" || p.role === "RG_RETURN" || p.role === "DZ_RETURN")
+    .map((p) => p.ref);
+  const offered = (spec.returnGuardClasses?.fets ?? []).map((d) => d.title).join("; ");
+  return {
+    refs,
+    topic: "reverse-polarity protection",
+    choice: `an N-MOSFET in the return line: ${g.dev.title}` + (g.clamp ? `, gate clamped by ${g.clamp.title}` : ""),
+    reason:
+      `with the series diode (${diode.dev.title}, ${formatValue(diode.dropMin_V, "V")} off V_cc,min) the variant ` +
+      `is refused (${spec.returnFet.refused.join(", ")}); the MOSFET drops ` +
+      `${formatValue(g.dropMin_V, "V")} there (I·R_DS(on),hot at V_GS ${formatValue(g.vgsMin_V, "V")}) and ` +
+      `dissipates ${formatValue(g.p_W, "W")}` +
+      (g.sink_KperW === undefined ? " free-standing" : ` on a heatsink of ≤ ${formatValue(g.sink_KperW, "K/W")}`) +
+      `; the first of the offered classes (${offered}) that passes every check and drops less than the diode` +
+      (g.clamp ? `; V_cc,max exceeds its derated V_GS rating, so a zener holds the gate` : ""),
+  };
 }
 
 /** The timing core's arrangement when it is not the plain core: the recovery followers or the cross-returned bleed. */

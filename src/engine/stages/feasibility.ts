@@ -88,6 +88,12 @@ export function cautions(ctx: Ctx, hot: boolean, sunkDiodes: readonly string[] =
             "coil's switch-off spike breaks the switch down.",
     );
   }
+  if (ctx.returnFet !== undefined)
+    out.push(
+      "Reverse guard in the return line: the circuit's 0 V is not the battery's negative. Do not tie the load's " +
+        "return, the circuit's 0 V or a heatsink to the battery's negative or to the chassis ahead of the guard " +
+        "MOSFET: that bypasses it, and a reversed battery then drives current through the circuit.",
+    );
   if (ctx.spec.load_kind === "lamp")
     out.push("Lamp inrush: a cold filament draws 10–15× its running current for a few milliseconds.");
   if (ctx.spec.load_kind === "resistive")

@@ -51,6 +51,7 @@ import { capRating_V } from "./timing-parts.ts";
 import type { DriveLimit } from "./chains/types.ts";
 import { drivePulse, pulsePower_W } from "../shared/drive-limit.ts";
 import { seriesReverseStage } from "./series-reverse.ts";
+import { returnFetStage } from "./return-fet-stage.ts";
 import { diodeJunction } from "./diode-junction.ts";
 import { diodeClassVf_V } from "../shared/diode.ts";
 import { NOMINAL_TEMP_C } from "../shared/temperature.ts";
@@ -167,7 +168,9 @@ export function protectionStage(
   const conditions: VerdictCondition[] = [];
   const cBulk = bulkCapacitance_F(ctx.iMax_A);
   const sp = startParams(ctx);
-  const { fuse: chosen, startUp: su, continuous_A: iCont } = supplyFuse(sp, coreCurrent_A, ctx.taMax_C);
+  // The fuse carries the reverse guard's gate network too (its clamp's current at V_cc,max).
+  const gate_A = ctx.returnFet?.gate_A ?? 0;
+  const { fuse: chosen, startUp: su, continuous_A: iCont } = supplyFuse(sp, coreCurrent_A + gate_A, ctx.taMax_C);
   const lim = ctx.spec.protection.inrush_limit;
   const ev = startEvent(sp);
 
@@ -373,19 +376,7 @@ export function protectionStage(
     ),
   );
 
-  if (ctx.series !== undefined) {
-    const out = seriesReverseStage(ctx, ctx.series, iCont, su.i2t_A2s, fuse);
-    parts.push(out.part);
-    checks.push(...out.checks);
-    figures.push(...out.figures);
-    problems.push(...out.problems);
-    conditions.push(...out.conditions);
-  }
-  // Shunt reverse-polarity diode: conducts the reversed battery's fault current until the fuse
-  // opens, so its surge I²t must exceed the fuse's clearing I²t. Not fitted behind a series diode.
-  const rev = D.reverse_diode as DiodeClass;
-  const clearing = fuse.clearingMax_A2s;
-  if (ctx.series === undefined) shuntReverse(ctx, rev, fuse, clearing, parts, checks, problems);
+  reverseProtection(ctx, fuse, iCont, su.i2t_A2s, { parts, checks, figures, problems, conditions });
   // A battery supplies the low-frequency current; the bulk capacitor covers the switching edges
   // against the wiring's inductance: ≈ 100 µF per ampere switched, at least 100 µF (rule of thumb, from memory).
   const cRated = capRating_V(ctx, ctx.vMax_V);
@@ -507,6 +498,39 @@ export function protectionStage(
       );
   }
   return { parts, figures, problems, checks, conditions };
+}
+
+/**
+ * The reverse-polarity protection after the fuse: the series diode (stages/series-reverse.ts) or the
+ * guard in the return line (stages/return-fet-stage.ts) where the variant has one, else the shunt diode.
+ */
+function reverseProtection(
+  ctx: Ctx,
+  fuse: FuseChoice,
+  iCont_A: number,
+  startI2t_A2s: number,
+  out: ProtectionResult,
+): void {
+  const add = (r: Pick<ProtectionResult, "checks" | "figures" | "problems" | "conditions">): void => {
+    out.checks.push(...r.checks);
+    out.figures.push(...r.figures);
+    out.problems.push(...r.problems);
+    out.conditions.push(...r.conditions);
+  };
+  if (ctx.series !== undefined) {
+    const r = seriesReverseStage(ctx, ctx.series, iCont_A, startI2t_A2s, fuse);
+    out.parts.push(r.part);
+    add(r);
+  } else if (ctx.returnFet !== undefined) {
+    const r = returnFetStage(ctx, ctx.returnFet);
+    out.parts.push(...r.parts);
+    add(r);
+  } else {
+    // Shunt reverse-polarity diode: conducts the reversed battery's fault current until the fuse
+    // opens, so its surge I²t must exceed the fuse's clearing I²t. Not fitted behind a series guard.
+    const rev = ctx.spec.devices.reverse_diode as DiodeClass;
+    shuntReverse(ctx, rev, fuse, fuse.clearingMax_A2s, out.parts, out.checks, out.problems);
+  }
 }
 
 /** Pulse (absolute maximum) current rating of a switch: I_CM / I_DM, else the continuous rating. */

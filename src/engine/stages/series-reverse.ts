@@ -87,9 +87,9 @@ export function seriesReverseStage(
         "warning",
         `No shunt diode of the library outlasts the ${fuse.rating_A} A fuse (clearing I²t ` +
           `${s.clearing_A2s.toPrecision(3)} A²s), so a series diode blocks a reversed battery instead; ` +
-          `${dev.title} is the largest series class and the checks below say where it falls short. A P-MOSFET in ` +
-          `the supply line (its body diode blocks, the gate held on from ground through a resistor and ` +
-          `clamped by a zener) drops far less; this engine does not size it yet.`,
+          `${dev.title} is the largest series class and the checks below say where it falls short. An N-MOSFET ` +
+          `in the return line drops far less: the engine offers it where this diode leaves the variant refused ` +
+          `and keeps it only when the variant then passes every check, which it did not here.`,
       ),
     );
   const figures: Figure[] = [

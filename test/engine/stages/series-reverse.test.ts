@@ -70,7 +70,9 @@ describe("at 12 A the 30 A Schottky class carries the series duty; past it, said
     });
     expect(s.spec.devices.reverse_series_diode.id).toBe("diode-schottky-10a");
     expect(s.feasible).toBe(false);
-    expect(s.problems.find((p) => p.rule === "series-reverse-limits")?.message).toContain("P-MOSFET");
+    expect(s.problems.find((p) => p.rule === "series-reverse-limits")?.message).toContain(
+      "N-MOSFET in the return line",
+    );
   });
 });
 
