@@ -13,8 +13,7 @@ import path from "node:path";
 import { fileURLToPath } from "node:url";
 import { loadProject } from "../src/records/index.ts";
 import { formatIssue } from "../src/records/index.ts";
-import { expandDesign } from "../src/expand/index.ts";
-import { chooseDevices, railZenerClasses, returnGuardClasses, stressClasses } from "../src/engine/devices/choose.ts";
+import { expandDesign, libraryDeps } from "../src/expand/index.ts";
 import { sizeVariant } from "../src/engine/index.ts";
 import { sizeVariantWithGateBuffer } from "../src/engine/size.ts";
 import type { SizedVariant } from "../src/model/sized.ts";
@@ -25,15 +24,7 @@ const ROOT = fileURLToPath(new URL("..", import.meta.url));
 export async function sizeAll(root: string, gateBuffer = false): Promise<SizedVariant[]> {
   const project = await loadProject(root);
   if (!project.ok) throw new Error(`records do not load:\n${project.issues.slice(0, 10).map(formatIssue).join("\n")}`);
-  const specs = project.designs.flatMap((d) =>
-    expandDesign(d.record, {
-      choose: (r, s, a, c, k) => chooseDevices(r, project.devices, s, a, c, k),
-      stressClasses: (r) => stressClasses(r, project.devices),
-      railZeners: (r) => railZenerClasses(r, project.devices),
-      returnGuardClasses: (r) => returnGuardClasses(r, project.devices),
-      policy: project.policy,
-    }),
-  );
+  const specs = project.designs.flatMap((d) => expandDesign(d.record, libraryDeps(project.devices, project.policy)));
   return specs.map((s) => (gateBuffer ? sizeVariantWithGateBuffer(s) : sizeVariant(s)));
 }
 

@@ -21,8 +21,7 @@ import { loadavg, tmpdir } from "node:os";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
 import { loadProject } from "../src/records/index.ts";
-import { expandDesign } from "../src/expand/index.ts";
-import { chooseDevices, returnGuardClasses, stressClasses } from "../src/engine/devices/choose.ts";
+import { expandDesign, libraryDeps } from "../src/expand/index.ts";
 import { sizeVariant } from "../src/engine/index.ts";
 import { benchRender } from "./render.ts";
 import { runCoverage } from "./coverage.ts";
@@ -39,14 +38,7 @@ const median = (xs: number[]): number => {
 async function benchEngine(): Promise<void> {
   const project = await loadProject(ROOT);
   if (!project.ok) throw new Error("records do not load: run `npm run check`");
-  const specs = project.designs.flatMap((d) =>
-    expandDesign(d.record, {
-      choose: (r, s, a, c, k) => chooseDevices(r, project.devices, s, a, c, k),
-      stressClasses: (r) => stressClasses(r, project.devices),
-      returnGuardClasses: (r) => returnGuardClasses(r, project.devices),
-      policy: project.policy,
-    }),
-  );
+  const specs = project.designs.flatMap((d) => expandDesign(d.record, libraryDeps(project.devices, project.policy)));
   for (const s of specs) sizeVariant(s); // warm-up
   const times: number[] = [];
   const circuits = [];

@@ -9,14 +9,7 @@ import type { BuiltCatalogue, BuiltDesign, BuiltVariant } from "../model/catalog
 import type { SizedVariant } from "../model/sized.ts";
 import type { Verification } from "../model/verification.ts";
 import type { DeviceLibrary } from "../model/device.ts";
-import { expandDesign } from "../expand/index.ts";
-import {
-  chooseDevices,
-  chooseDevicesWithReasons,
-  railZenerClasses,
-  returnGuardClasses,
-  stressClasses,
-} from "../engine/devices/choose.ts";
+import { expandDesign, libraryDeps } from "../expand/index.ts";
 import { sizeVariant, attachAlternatives } from "../engine/index.ts";
 import { variantPlot } from "../render/plot.ts";
 import { renderVariantViews, type VariantViews } from "../render/variant.ts";
@@ -36,17 +29,7 @@ export function sizeProject(
 
 /** Size every variant of one design (alternatives attached across the design's variants). */
 export function sizeDesign(project: LoadedProject, d: LoadedProject["designs"][number]): SizedVariant[] {
-  const specs = expandDesign(d.record, {
-    choose: (rec, supply_V, load_A, c, k) => chooseDevices(rec, project.devices, supply_V, load_A, c, k),
-    explain: (rec, supply_V, load_A, c, k) =>
-      chooseDevicesWithReasons(rec, project.devices, supply_V, load_A, c, k).reasons,
-    // Offered again since the bleed turn-off guard (stages/base-bleed.ts bleedTurnOffIndex) holds the cores it
-    // makes feasible with both card sets (docs/method.md, "Low-capacitance base diodes").
-    stressClasses: (rec) => stressClasses(rec, project.devices),
-    railZeners: (rec) => railZenerClasses(rec, project.devices),
-    returnGuardClasses: (rec) => returnGuardClasses(rec, project.devices),
-    policy: project.policy,
-  });
+  const specs = expandDesign(d.record, libraryDeps(project.devices, project.policy));
   return attachAlternatives(specs.map((s) => sizeVariant(s)));
 }
 

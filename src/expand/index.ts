@@ -7,3 +7,4 @@ export {
   type ExpandDeps,
 } from "./expand.ts";
 export { variantId, currentTag, tagValue } from "./variant-id.ts";
+export { libraryDeps } from "./library-deps.ts";

@@ -10,14 +10,7 @@ import type { DeviceClass } from "../model/device.ts";
 import type { ChainKind, LoadKind } from "../model/kinds.ts";
 import type { SizedVariant } from "../model/sized.ts";
 import { formatValue } from "../model/format.ts";
-import { expandDesign } from "../expand/index.ts";
-import {
-  chooseDevices,
-  chooseDevicesWithReasons,
-  railZenerClasses,
-  returnGuardClasses,
-  stressClasses,
-} from "../engine/devices/choose.ts";
+import { expandDesign, libraryDeps } from "../expand/index.ts";
 import { sizeVariant } from "../engine/index.ts";
 import { renderVariantViews, type VariantViews } from "../render/variant.ts";
 
@@ -107,14 +100,7 @@ export function sizeOwn(data: SizeOwnData, input: SizeOwnInput, opts: { schemati
       load_kind: [input.load_kind as LoadKind],
     },
   };
-  const [spec] = expandDesign(rec, {
-    choose: (r, s, a, c, k) => chooseDevices(r, lib, s, a, c, k),
-    explain: (r, s, a, c, k) => chooseDevicesWithReasons(r, lib, s, a, c, k).reasons,
-    stressClasses: (r) => stressClasses(r, lib),
-    railZeners: (r) => railZenerClasses(r, lib),
-    returnGuardClasses: (r) => returnGuardClasses(r, lib),
-    policy: data.policy,
-  });
+  const [spec] = expandDesign(rec, libraryDeps(lib, data.policy));
   if (!spec) return { ok: false, errors: ["Nothing to size for these inputs."] };
   const sized = sizeVariant(spec);
   const views = renderVariantViews(sized, lib, {
