@@ -16,7 +16,7 @@ import { DEVICE_ROLES, type DeviceRole } from "../model/design.ts";
 import type { BjtClass, DiodeClass } from "../model/device.ts";
 import { diodeCj_F, diodeClassVf_V } from "./shared/diode.ts";
 import type { ChainPlan, DeviceLoss, OperatingPoint } from "./stages/chains/types.ts";
-import { switchingLoss_W } from "./shared/losses.ts";
+import { conductionLossMosfet_W, switchingLoss_W } from "./shared/losses.ts";
 import { assembleCircuit, refsByRole } from "../circuit/assemble.ts";
 import { figure, problem } from "./shared/figures.ts";
 import { NOMINAL_TEMP_C } from "./shared/temperature.ts";
@@ -41,7 +41,7 @@ import { reviewFailures } from "./stages/failure-modes.ts";
 import { protectionStage } from "./stages/protection.ts";
 import { seriesLoss_W } from "./stages/series-reverse.ts";
 import { switchSteps } from "./stages/switch-step.ts";
-import { guardedSwitchSteps, returnFetSteps, returnLoss_W } from "./stages/return-fet.ts";
+import { guardedSwitchSteps, returnFetSteps } from "./stages/return-fet.ts";
 import { cautions, checkProblems, verdictLead } from "./stages/feasibility.ts";
 import { decideVerdict } from "./stages/verdict.ts";
 import {
@@ -921,7 +921,7 @@ function driverLoss_W(parts: Part[], losses: DeviceLoss[], ctx: ReturnType<typeo
   // A series reverse diode carries the load's current while it is on (and the core's all the time).
   const pSeries = ctx.series === undefined ? 0 : seriesLoss_W(ctx.series.dev, ctx.iMax_A) * dMax;
   // The return-line guard likewise (I²·R_DS(on),hot); its gate resistor and clamp are among the passives.
-  const pGuard = ctx.returnFet === undefined ? 0 : returnLoss_W(ctx.iMax_A, ctx.returnFet.rdsHot_ohm) * dMax;
+  const pGuard = ctx.returnFet === undefined ? 0 : conductionLossMosfet_W(ctx.iMax_A, ctx.returnFet.rdsHot_ohm, dMax);
   return transistors + passive + pFw + pSeries + pGuard;
 }
 

@@ -23,6 +23,7 @@
  *  - the clamp zener's power and the gate resistor's power at V_cc,max.
  * Its drop is taken off the rail the circuit runs from (context.ts), as the series diode's is.
  */
+import { conductionLossMosfet_W } from "../shared/losses.ts";
 import type { MosfetClass, ZenerClass } from "../../model/device.ts";
 import type { StressCheck } from "../../model/derating.ts";
 import type { SizedVariant } from "../../model/sized.ts";
@@ -82,11 +83,6 @@ export interface ReturnFet {
   checks: StressCheck[];
 }
 
-/** Conduction loss of the guard: I²·R_DS(on), W. */
-export function returnLoss_W(i_A: number, rds_ohm: number): number {
-  return i_A * i_A * rds_ohm;
-}
-
 /** The guard sized with one class (exported for the tests). */
 export function returnFetFor(spec: VariantSpec, dev: MosfetClass): ReturnFet {
   const pol = spec.policy;
@@ -113,7 +109,7 @@ export function returnFetFor(spec: VariantSpec, dev: MosfetClass): ReturnFet {
   const lo = gateAt(w.min_V, iCont_A, true);
   const vgsNom_V = Math.min(spec.supply_V, vzMin_V);
   const rdsNom_ohm = rdsOnNominal_ohm(dev, vgsNom_V);
-  const p_W = returnLoss_W(iCont_A, lo.r_ohm);
+  const p_W = conductionLossMosfet_W(iCont_A, lo.r_ohm, 1);
   const ta_C = spec.targets.ambient_C[1];
   const tjFree_C = junctionTemp_C(ta_C, p_W, dev.rth_ja_KperW);
   const tjMaxOk_C = tjLimit_C(pol, "mosfet", dev.tj_max_C);
