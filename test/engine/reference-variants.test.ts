@@ -43,6 +43,18 @@ describe("R1 — 12 V 0.5 A bjt-single, resistive (1 kHz): the timing core canno
     expectClose(fig(s, "load_current_on"), 11.6 / 24, 1e-9, "Ohm's law on the load model R = V/I");
   });
 });
+describe("R1b — 12 V 5 A bjt-driver-pnp, resistive: the driver's own base current is past the core", () => {
+  const s = size({ supply_V: 12, load_A: 5, chain: "bjt-driver-pnp", load_kind: "resistive" });
+  it("names a chain with more gain, not the driver stage it already has", () => {
+    // The driver NPN carries the power PNP's base current (forced β, common practice), so its own
+    // base asks the timing collector for a current a small-signal core cannot give.
+    const p = s.problems.find((x) => x.rule === "tap-drive-insufficient");
+    expect(p).toBeDefined();
+    expect(p!.message).toMatch(/MOSFET chain/);
+    expect(p!.message).not.toMatch(/Use a chain with a driver stage/);
+    expect(p!.message).toMatch(/\d mA input current/);
+  });
+});
 
 describe("R2 — 24 V 2 A darlington-2, motor (15 kHz): too slow to turn off for the duty range", () => {
   const s = size({ supply_V: 24, load_A: 2, chain: "darlington-2", load_kind: "motor", pwm_Hz: 15000 });

@@ -24,6 +24,7 @@ import { resistor } from "../../circuit/parts.ts";
 import type { CollectorLoad } from "./astable.ts";
 import type { Ctx } from "./context.ts";
 import type { FollowerValues } from "./core-model.ts";
+import { formatValue } from "../../model/format.ts";
 import type { ChainPlan, TapInfo } from "./chains/types.ts";
 import { plateau_V } from "./chains/mosfet-common.ts";
 import { designBufferedTap } from "./tap-buffered.ts";
@@ -149,6 +150,17 @@ function capRc(ctx: Ctx, rC_ohm: number, cap: boolean): number {
 }
 
 /**
+ * What to do when the core cannot feed the chain's input: a chain whose first stage is the output
+ * device needs a driver stage; one that already has a driver (the PNP driver chain, whose NPN feeds
+ * the power PNP's base) needs more current gain than a driver stage gives, i.e. a MOSFET chain.
+ */
+export function tapDriveAdvice(chain: string): string {
+  return chain === "bjt-driver-pnp"
+    ? "Its driver stage already carries the power transistor's base current: use a MOSFET chain."
+    : "Use a chain with a driver stage, or a MOSFET chain.";
+}
+
+/**
  * `rcCap_ohm` (optional) caps R_C below what the chain's need would take (size.ts lowers it when the
  * core fails on recovery or injection); the timing transistor's current floor still wins.
  * `capInjection` false drops the injection estimate's cap (size.ts tries that first).
@@ -182,9 +194,9 @@ export function designTap(
           "/parts/RT",
           "tap-drive-insufficient",
           "error",
-          `The timing core cannot feed the chain's ${(need.i_A * 1e3).toPrecision(3)} mA input current: with ` +
+          `The timing core cannot feed the chain's ${formatValue(need.i_A, "A")} input current: with ` +
             `R_C ≥ ${rcMin(ctx)} Ω (timing transistor current limit) there is no room for a tap resistor at ` +
-            `${ctx.vMin_V.toFixed(1)} V. Use a chain with a driver stage.`,
+            `${ctx.vMin_V.toFixed(1)} V. ${tapDriveAdvice(ctx.spec.chain)}`,
           { limit: span / (rC * (1 + tol)), actual: need.i_A, unit: "A" },
         ),
       );
