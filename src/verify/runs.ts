@@ -528,7 +528,8 @@ export const MIN_PULSE_PERIODS = 0.02;
 /**
  * Whole periods a run's timing is read over, at least. The run is settled after its first period
  * (docs/verification.md, "Run plan"), so one whole period gives the frequency and the duty; three
- * predicted periods after the settle then hold one for a period up to 1.5 × the predicted one.
+ * predicted periods after the settle then hold one for a period up to 1.5 × the predicted one, the 2.5
+ * of `PLAIN_LOAD_PLAN` one up to 1.25 ×.
  */
 export const MIN_WHOLE_PERIODS = 1;
 
