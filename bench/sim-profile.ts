@@ -10,7 +10,9 @@
  * variant's measurements (to compare two versions of the run plan: bench/sim-compare.ts); `--runs`
  * one line per engine call. `--reference` measures the nominal and corner runs with a long plan
  * (REFERENCE_PLAN below; the pull-in and end runs keep their own plans): the yardstick a shorter
- * plan's settling is proven against (docs/verification.md, "Third pass").
+ * plan's settling is proven against (docs/verification.md, "Third pass"). `--plan JSON` lays fields
+ * over the run plan (e.g. `--plan '{"preparatoryPeriods":4}'`), to measure a change to it before
+ * making it (docs/verification.md, "Fourth pass").
  */
 import { writeFileSync } from "node:fs";
 import { loadavg } from "node:os";
@@ -19,7 +21,14 @@ import type { SpiceEngine } from "../src/verify/engines/types.ts";
 import { measureVariant, type Measured } from "../src/verify/plan.ts";
 import { planOf } from "../src/verify/verify.ts";
 import { cornerDecks } from "../src/verify/corner-deck.ts";
-import { REFERENCE_RUN_PLAN, RETRY_OPTIONS, RETRY2_OPTIONS, RETRY3_OPTIONS, type RunPlan } from "../src/verify/runs.ts";
+import {
+  DEFAULT_RUN_PLAN,
+  REFERENCE_RUN_PLAN,
+  RETRY_OPTIONS,
+  RETRY2_OPTIONS,
+  RETRY3_OPTIONS,
+  type RunPlan,
+} from "../src/verify/runs.ts";
 
 /** The long reference plan (`--reference`), defined once in the verifier. */
 const REFERENCE_PLAN: RunPlan = REFERENCE_RUN_PLAN;
@@ -101,6 +110,9 @@ function profiled(engine: SpiceEngine, records: RunRecord[], id: () => string): 
 
 const dumpDir = arg("--dump");
 const reference = process.argv.includes("--reference");
+/** `--plan JSON`: fields laid over the default run plan (or the reference plan), to try a change. */
+const planOverride = JSON.parse(arg("--plan") ?? "{}") as Partial<RunPlan>;
+const runPlan: RunPlan = { ...(reference ? REFERENCE_PLAN : DEFAULT_RUN_PLAN), ...planOverride };
 const only = arg("--only");
 const shard = (arg("--shard") ?? "1/1").split("/").map(Number) as [number, number];
 const { feasibleDemoRenders } = await import("./demo-renders.ts");
@@ -121,7 +133,7 @@ for (const r of jobs) {
   current = r.sized.spec.id;
   const corners = cornerDecks(r.sized, devices);
   const target = { ...plan.target, ...(corners.length > 0 ? { corners } : {}) };
-  const m = await measureVariant(target, r.netlist, engine, ...(reference ? [REFERENCE_PLAN] : []));
+  const m = await measureVariant(target, r.netlist, engine, runPlan);
   measured[current] = m;
   if (!m.ok) console.log(`FAILED ${current}: ${m.message}`);
 }

@@ -40,8 +40,9 @@ export function cacheKey(netlist: string, engine: { name: EngineName; version: s
       ? [
           target.predicted["duty_max"]?.value ?? null,
           target.predicted["switch_on_voltage"]?.value ?? null,
-          // A motor's runs at control 0 and ½ start from their predicted currents too (runs.ts settlesLoad).
-          ...(target.emfByCtrl !== undefined
+          // A motor's runs at control 0 and ½, and a solenoid's at control 0, start from their
+          // predicted currents too (runs.ts settlesLoad).
+          ...(target.emfByCtrl !== undefined || target.pullIn !== undefined
             ? [target.predicted["duty_min"]?.value ?? null, target.predicted["duty_mid"]?.value ?? null]
             : []),
         ]

@@ -25,6 +25,8 @@ export async function measureCorners(
     const t: VerifyTarget = { ...target, period_s: deck.period_s };
     delete t.emfByCtrl;
     delete t.midLoad;
+    // The hold current after the pull-in is read at nominal conditions only (plan.ts).
+    delete t.pullIn;
     let run;
     try {
       run = await runAt(t, deck.netlist, engine, k.ctrl, plan, k.predicted.duty);

@@ -29,7 +29,7 @@ import { measurePullIn } from "./pull-in.ts";
 import { measureEnds } from "./end-runs.ts";
 
 /** Bumped whenever measurement code changes what it reports: part of every cache key. */
-export const MEASURE_CODE_VERSION = "verify-measure-16";
+export const MEASURE_CODE_VERSION = "verify-measure-17";
 
 /** Transients of the nominal plan per variant (ctrl 0.5, 0, 1); corner runs come on top (corner-runs.ts). */
 export const NOMINAL_RUNS = 3;
@@ -53,7 +53,8 @@ export async function measureVariant(
     const low = await runAt(target, at(0), engine, 0, plan, target.predicted["duty_min"]?.value);
     const high = await runAt(target, at(1), engine, 1, plan, target.predicted["duty_max"]?.value);
     const { measurements, waveforms } = collect(target, low, mid, high);
-    // Solenoid variants: one cold-start run at nominal conditions shows the pull-in and the hold.
+    // Solenoid variants: one cold-start run at nominal conditions shows the pull-in (the hold's
+    // settled current comes from the control-0 run above).
     measurements.push(...(await measurePullIn(target, netlist, engine)));
     const corners = await measureCorners(target, engine, plan);
     // The control's ends, where the variant has them: short runs at every place simulated above.
@@ -116,6 +117,18 @@ function collect(
     put(key, `Duty at the load, control ${run.ctrl}`, "", tm.duty);
     if (tm.kind === "pwm")
       put(`frequency_ctrl${run.ctrl}`, `PWM frequency at control ${run.ctrl}`, "Hz", tm.frequency_Hz);
+    if (run === low && target.pullIn !== undefined) {
+      // A solenoid's hold after the pull-in is this circuit's settled current at control 0 (the timer
+      // run out, as the published netlist starts it): the coil is settled in this run (runs.ts
+      // settlesLoad), the mean taken over whole periods.
+      const [h0, h1] = tm.kind === "pwm" ? [tm.from_s, tm.to_s] : [run.from_s, run.tEnd_s];
+      put(
+        "hold_current_settled",
+        "Hold: settled average coil current after the pull-in (control 0)",
+        "A",
+        timeAverage(run.t, vec(run, "i(vsense)"), h0, h1),
+      );
+    }
   }
 
   // Rated-load figures at ctrl = 1: the highest duty, where the power device runs hottest.
@@ -196,13 +209,18 @@ export function coreState(run: Run): string {
   return describeCore(run).text;
 }
 
+/**
+ * The collectors' swings over the latter half of the window read (≥ 1.25 predicted periods: a
+ * running core swings fully within its longer half-period), so that a core dying out after its start
+ * (a collector drifting 2 V over the first period and a quarter, then still) is not taken for running.
+ */
 function describeCore(run: Run): { stopped: boolean; text: string } {
+  const from_s = run.from_s + 0.5 * (run.tEnd_s - run.from_s);
   const swing = (net: string): [number, number] => {
     const y = vec(run, `v(${net})`);
     let lo = Infinity;
     let hi = -Infinity;
-    for (let k = 0; k < y.length; k++)
-      if (run.t[k]! >= run.from_s) [lo, hi] = [Math.min(lo, y[k]!), Math.max(hi, y[k]!)];
+    for (let k = 0; k < y.length; k++) if (run.t[k]! >= from_s) [lo, hi] = [Math.min(lo, y[k]!), Math.max(hi, y[k]!)];
     return [lo, hi];
   };
   const [a, b] = [swing("ca"), swing("cb")];

@@ -4,15 +4,18 @@
  * end: the largest current the pull-in timer must sink, and the lowest hold duty). The deck is the
  * published circuit with the supply stepped from 0 V and no initial conditions, so the timer fires
  * as it does when the supply is switched on. Measured: how long the load stays fully on, when the
- * coil current reaches its pull-in current, and the settled hold current after the release.
+ * coil current reaches its pull-in current, and the current at the release. The run ends soon after
+ * the release: the settled hold current after it is the published circuit's own settled current at
+ * control 0 (the timer run out), read by the nominal control-0 run, which settles the coil from a
+ * handed-over state for solenoids (runs.ts `settlesLoad`; docs/verification.md, "Pull-in").
  */
 import type { Measurement } from "../model/verification.ts";
-import { SpiceRunError } from "../model/errors.ts";
+import { EngineMisuseError, SpiceRunError } from "../model/errors.ts";
+import { PULL_IN_CHECKS } from "./compare.ts";
 import { simBody, supplyVoltage } from "./deck.ts";
 import { setCtrl } from "../render/netlist.ts";
 import type { SpiceEngine, SimResult } from "./engines/types.ts";
 import { netlistOptions, RETRY2_OPTIONS, RETRY_OPTIONS } from "./runs.ts";
-import { timeAverage } from "./signal.ts";
 import type { VerifyTarget } from "./target.ts";
 
 /**
@@ -21,12 +24,27 @@ import type { VerifyTarget } from "./target.ts";
  * A fortieth until 2026-12-03 (docs/verification.md, "Pull-in": what the twentieth moved).
  */
 export const PULL_IN_STEPS_PER_PERIOD = 20;
-/** Settling after the release, in coil time constants (e^−5 < 1 % of the pull-in-to-hold step). */
-export const PULL_IN_SETTLE_TAU = 5;
-/** Periods averaged for the settled hold current, at the end of the run. */
-export const PULL_IN_HOLD_PERIODS = 10;
-/** The run covers this multiple of the predicted nominal hold before the settling starts. */
-export const PULL_IN_HOLD_SPAN = 1.3;
+/**
+ * The run covers the predicted nominal hold and the comparison's band above it (`pull_in_hold_sim`,
+ * 15 %: 1.15 × the hold), then `PULL_IN_AFTER_PERIODS` periods, so that a release inside the band is
+ * always seen in this run. After the release the core runs its PWM at control 0, ≈ 10 ms of
+ * processor time a period, so every period past the release counts. Until 2026-12-04 the run went on
+ * for 1.3 × the hold, five coil time constants and ten periods (the settled hold current read at its
+ * end, ≈ 120 periods of PWM and most of its time points).
+ */
+export function pullInHoldSpan(): number {
+  // Read when called: compare.ts reaches this module through plan.ts, so at load time its checks
+  // may not be defined yet.
+  return 1 + bandOf("pull_in_hold_sim");
+}
+/** Periods after the span, so that a release at its end still shows a whole switching edge. */
+export const PULL_IN_AFTER_PERIODS = 2;
+/**
+ * Where the release is not within the span (a timer far slower than predicted, which the comparison
+ * then shows), the run is made again this many times the predicted hold long, so that the figure is
+ * measured rather than the run failed.
+ */
+export const PULL_IN_LONG_SPAN = 3;
 
 /**
  * The cold-start deck: analysis lines, self-check block and initial conditions removed, the supply a
@@ -39,6 +57,14 @@ export function pullInDeck(netlist: string, tStop_s: number, tMax_s: number, opt
     .replace(/ IC=[-+0-9.eE]+$/gm, "")
     .replace(/^(vsupply\s+\S+\s+\S+)\s+(?:dc\s+)?[-+0-9.eE]+\s*$/im, `$1 PULSE(0 ${v} 0 1u 1u 10 20)`);
   return `${body}\n.options method=gear${options ? ` ${options}` : ""}\n.tran ${tMax_s} ${tStop_s} 0 ${tMax_s}\n.end\n`;
+}
+
+/** The relative band of a pull-in check (compare.ts PULL_IN_CHECKS). */
+function bandOf(key: string): number {
+  const tol = PULL_IN_CHECKS.find((c) => c.key === key)?.tol;
+  const rel = tol !== undefined && "rel" in tol ? tol.rel : undefined;
+  if (rel === undefined) throw new EngineMisuseError(`pull-in check ${key} has no relative band`);
+  return rel;
 }
 
 /** First time after `from` where `on(k)` turns false, interpolated on the crossing; NaN when it never does. */
@@ -71,10 +97,56 @@ export async function measurePullIn(
 ): Promise<Measurement[]> {
   const p = target.pullIn;
   if (p === undefined) return [];
-  const settle_s = PULL_IN_SETTLE_TAU * target.loadTau_s + PULL_IN_HOLD_PERIODS * target.period_s;
-  const tStop_s = PULL_IN_HOLD_SPAN * p.tHold_s + settle_s;
   const tMax_s = target.period_s / PULL_IN_STEPS_PER_PERIOD;
   const vectors = ["v(vbus)", `v(${target.switchNet})`, "i(vsense)"];
+  const level = supplyVoltage(netlist) / 2;
+  const short = await pullInRun(target, netlist, engine, pullInHoldSpan(), tMax_s, vectors);
+  const released = (r: RunOut): boolean => Number.isFinite(firstOff(r.res.t_s, switchVoltageIn(target, r.res), level));
+  const run = released(short) ? short : await pullInRun(target, netlist, engine, PULL_IN_LONG_SPAN, tMax_s, vectors);
+  const res = run.res;
+  const t = res.t_s;
+  const i = res.vectors["i(vsense)"]!;
+  const vSw = switchVoltageIn(target, res);
+  const out: Measurement[] = [];
+  const put = (key: string, label: string, unit: string, value: number): void => {
+    if (Number.isFinite(value)) out.push({ key, label, unit, value });
+  };
+  const tOff = firstOff(t, vSw, level);
+  if (!Number.isFinite(tOff))
+    throw new SpiceRunError(`pull-in run: the load never left its full-on start within ${run.tStop_s} s`);
+  put("pull_in_forced_time", "Pull-in: load held fully on from switch-on (control 0)", "s", tOff);
+  put("pull_in_reach_time", "Pull-in: coil current reaches the pull-in current", "s", firstReach(t, i, p.iPull_A));
+  put(
+    "pull_in_peak_current",
+    "Pull-in: coil current when the timer lets go",
+    "A",
+    i[Math.max(0, t.findIndex((x) => x >= tOff) - 1)] ?? Number.NaN,
+  );
+  return out;
+}
+
+interface RunOut {
+  res: SimResult;
+  tStop_s: number;
+}
+
+/** The switch's voltage (low side: sw; high side: vbus − sw): the load is on below half the rail. */
+function switchVoltageIn(target: VerifyTarget, res: SimResult): Float64Array {
+  const bus = res.vectors["v(vbus)"]!;
+  const sw = res.vectors[`v(${target.switchNet})`]!;
+  return target.highSide ? sw.map((x, k) => bus[k]! - x) : sw;
+}
+
+/** One cold-start run `span` × the predicted hold long (plus `PULL_IN_AFTER_PERIODS`), with the solver retries. */
+async function pullInRun(
+  target: VerifyTarget,
+  netlist: string,
+  engine: SpiceEngine,
+  span: number,
+  tMax_s: number,
+  vectors: string[],
+): Promise<RunOut> {
+  const tStop_s = span * target.pullIn!.tHold_s + PULL_IN_AFTER_PERIODS * target.period_s;
   const end = (r: SimResult): number => r.t_s[r.t_s.length - 1] ?? 0;
   let res = await engine.run(pullInDeck(netlist, tStop_s, tMax_s), vectors);
   // A retry whose settings the netlist's own `.options` already carry would stop where the first
@@ -87,34 +159,5 @@ export async function measurePullIn(
   }
   if (end(res) < 0.99 * tStop_s)
     throw new SpiceRunError(`pull-in run: transient stopped early at ${end(res)} s of ${tStop_s} s`);
-  const t = res.t_s;
-  const bus = res.vectors["v(vbus)"]!;
-  const sw = res.vectors[`v(${target.switchNet})`]!;
-  const i = res.vectors["i(vsense)"]!;
-  // The switch's voltage (low side: sw; high side: vbus − sw), against half the rail: the load is on below it.
-  const vSw = target.highSide ? sw.map((x, k) => bus[k]! - x) : sw;
-  const level = supplyVoltage(netlist) / 2;
-  const out: Measurement[] = [];
-  const put = (key: string, label: string, unit: string, value: number): void => {
-    if (Number.isFinite(value)) out.push({ key, label, unit, value });
-  };
-  const tOff = firstOff(t, vSw, level);
-  if (!Number.isFinite(tOff))
-    throw new SpiceRunError(`pull-in run: the load never left its full-on start within ${tStop_s} s`);
-  put("pull_in_forced_time", "Pull-in: load held fully on from switch-on (control 0)", "s", tOff);
-  put("pull_in_reach_time", "Pull-in: coil current reaches the pull-in current", "s", firstReach(t, i, p.iPull_A));
-  put(
-    "pull_in_peak_current",
-    "Pull-in: coil current when the timer lets go",
-    "A",
-    i[Math.max(0, t.findIndex((x) => x >= tOff) - 1)] ?? Number.NaN,
-  );
-  const tEnd = end(res);
-  put(
-    "hold_current_settled",
-    "Hold: settled average coil current after the pull-in (control 0)",
-    "A",
-    timeAverage(t, i, tEnd - PULL_IN_HOLD_PERIODS * target.period_s, tEnd),
-  );
-  return out;
+  return { res, tStop_s };
 }

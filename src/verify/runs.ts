@@ -54,6 +54,15 @@ export interface RunPlan {
    * hands over its own (after `handedSettlePeriods`). Absent: one preparatory run.
    */
   refinePeriods?: number;
+  /**
+   * Start-up discarded and run length, in predicted periods, for a load without inductance (heater,
+   * lamp, LED strip), whose runs start from the netlist's `.ic`: its timing core is settled from its
+   * first edge on, and nothing else in the circuit settles slower. Absent: `settlePeriods` and
+   * `periods` for every load. An inductive load keeps those: where its winding is not settled
+   * before a run, the window reads part of its drift, and a shorter or earlier window reads another
+   * (docs/verification.md, "Fourth pass").
+   */
+  plainLoad?: { settlePeriods: number; periods: number; stepsPerPeriod?: number };
   /** Prepare every load that settles, however short its L/R (a reference plan: bench/sim-profile.ts). */
   prepareAlways?: boolean;
   /** Solver options for every run, e.g. "abstol=1e-9 vntol=1e-5" (none: ngspice defaults). */
@@ -81,6 +90,14 @@ export const PRESET_SETTLE_PERIODS = 10;
  * current 2.1 % off, the rest closer; docs/verification.md, "Third pass: the settled state handed over").
  */
 export const HANDED_SETTLE_PERIODS = 1;
+/**
+ * A load without inductance: half a period discarded, 2.5 read (one whole period for a period up to
+ * 1.25 × the predicted one). Traced on heater and LED-strip decks over 10 periods from the `.ic`, the
+ * first whole period after the first edge read within 0.3 % in period and 0.002 in duty of the
+ * later ones; the cost of a run is its simulated time (≈ 10 ms of processor time per period, the
+ * start ≈ 3 ms), so this run costs ≈ 3/4 of the 1 + 3 periods before (docs/verification.md, "Fourth pass").
+ */
+export const PLAIN_LOAD_PLAN = { settlePeriods: 0.5, periods: 3 } as const;
 export const DEFAULT_RUN_PLAN: Readonly<RunPlan> = {
   periods: 4,
   settlePeriods: 1,
@@ -92,6 +109,7 @@ export const DEFAULT_RUN_PLAN: Readonly<RunPlan> = {
   refinePeriods: 3,
   preparatoryPeriods: 5,
   powerOptions: POWER_RUN_OPTIONS,
+  plainLoad: PLAIN_LOAD_PLAN,
 };
 
 /**
@@ -161,10 +179,12 @@ export function readsLoad(target: VerifyTarget, ctrl: number): boolean {
  * every run of a motor whose back-EMF follows the control (target.emfByCtrl). A motor's current at
  * control 0 differs most from where the operating point leaves it (at E = 0, a standing motor, it
  * started at 5× its settled value and the switch's storage time then shortened the measured duty
- * by 0.085 on a PNP high-side fan), so its timing is read only once the winding has settled.
+ * by 0.085 on a PNP high-side fan), so its timing is read only once the winding has settled. A
+ * solenoid's control-0 run settles its coil too: the settled hold current is read there
+ * (`hold_current_settled`; the pull-in run ends soon after the release, pull-in.ts).
  */
 export function settlesLoad(target: VerifyTarget, ctrl: number): boolean {
-  return readsLoad(target, ctrl) || target.emfByCtrl !== undefined;
+  return readsLoad(target, ctrl) || target.emfByCtrl !== undefined || (ctrl === 0 && target.pullIn !== undefined);
 }
 
 /**
@@ -357,6 +377,13 @@ async function prepareLoad(
   return handed ?? { hold: loadHold(target, netlist, settled_A) };
 }
 
+/** The plan a target's runs take: `plainLoad`'s settle and length for a load without inductance. */
+export function planFor(target: VerifyTarget, plan: RunPlan): RunPlan {
+  if (target.inductive || plan.plainLoad === undefined) return plan;
+  const { plainLoad, ...rest } = plan;
+  return { ...rest, ...plainLoad };
+}
+
 /** Start-up discarded for a run: `handedSettlePeriods` from a handed-over state, else `settleTime`. */
 function startSettle(target: VerifyTarget, ctrl: number, plan: RunPlan, start: RunStart | undefined): number {
   if (start?.state !== undefined) return (plan.handedSettlePeriods ?? 0) * target.period_s;
@@ -374,6 +401,7 @@ export async function runAt(
   /** Load node held during the operating point (the preparatory run's start). */
   given?: RunStart & { saveState?: boolean },
 ): Promise<Run> {
+  plan = planFor(target, plan);
   const start =
     presetsLoad(target, ctrl, plan) && duty !== undefined && Number.isFinite(duty)
       ? await prepareLoad(target, netlist, engine, ctrl, plan, duty)
@@ -500,7 +528,8 @@ export const MIN_PULSE_PERIODS = 0.02;
 /**
  * Whole periods a run's timing is read over, at least. The run is settled after its first period
  * (docs/verification.md, "Run plan"), so one whole period gives the frequency and the duty; three
- * predicted periods after the settle then hold one for a period up to 1.5 × the predicted one.
+ * predicted periods after the settle then hold one for a period up to 1.5 × the predicted one, the 2.5
+ * of `PLAIN_LOAD_PLAN` one up to 1.25 ×.
  */
 export const MIN_WHOLE_PERIODS = 1;
 

@@ -9,6 +9,7 @@ import {
   loadTiming,
   RETRY_OPTIONS,
   runAt,
+  PLAIN_LOAD_PLAN,
   settleTime,
   loadHold,
   predictedLoadCurrent,
@@ -163,6 +164,29 @@ describe("a transient that stops early", () => {
     const e = fakeEngine(() => 1);
     const run = await runAt(target({ inductive: false, loadTau_s: 0 }), NETLIST, e, 0);
     expect([run.retried, e.decks.length]).toEqual([false, 1]);
+  });
+});
+
+describe("run length", () => {
+  const tStop = (d: string): number => Number(/^\.tran \S+ (\S+)/m.exec(d)![1]);
+  it("a load without inductance: half a period discarded, 2.5 read (PLAIN_LOAD_PLAN)", async () => {
+    const e = fakeEngine(() => 1);
+    const run = await runAt(target({ inductive: false, loadTau_s: 0 }), NETLIST, e, 0.5);
+    expect(PLAIN_LOAD_PLAN).toEqual({ settlePeriods: 0.5, periods: 3 });
+    expectClose(tStop(e.decks[0]!), 3 * T, 1e-9);
+    expectClose(run.from_s, 0.5 * T, 1e-9);
+  });
+  it("an inductive load unprepared at control ½: the plan's own 1 + 3 periods", async () => {
+    const e = fakeEngine(() => 1);
+    const run = await runAt(target(), NETLIST, e, 0.5, DEFAULT_RUN_PLAN, 0.9);
+    expectClose(tStop(e.decks[0]!), DEFAULT_RUN_PLAN.periods * T, 1e-9);
+    expectClose(run.from_s, DEFAULT_RUN_PLAN.settlePeriods * T, 1e-9);
+  });
+  it("a plan without `plainLoad` (the reference) runs every load alike", async () => {
+    const e = fakeEngine(() => 1);
+    const { plainLoad: _, ...plan } = DEFAULT_RUN_PLAN;
+    await runAt(target({ inductive: false, loadTau_s: 0 }), NETLIST, e, 0.5, plan);
+    expectClose(tStop(e.decks[0]!), DEFAULT_RUN_PLAN.periods * T, 1e-9);
   });
 });
 
