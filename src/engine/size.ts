@@ -52,7 +52,7 @@ import {
   designDecisions,
 } from "./stages/decisions.ts";
 import { TIGHT_CAPS, tightCapsAllowed } from "./stages/timing-caps.ts";
-import { crossAllowed } from "./stages/cross-checks.ts";
+import { CROSS_TURNOVER_CHAINS, crossAllowed, withCrossWithheld } from "./stages/cross-checks.ts";
 import { type PullInTimer, designPullInTimer } from "./stages/pull-in-timer.ts";
 import { type ControlEnds, controlEnds, dutyReach } from "./stages/end-contacts.ts";
 import {
@@ -72,6 +72,24 @@ import {
 } from "./stages/core-rail.ts";
 
 export function sizeVariant(spec: VariantSpec): SizedVariant {
+  if (!CROSS_TURNOVER_CHAINS.includes(spec.chain)) return sizeKinds(spec);
+  // The BJT chains' cross-returned bleed (docs/method.md, "The cross-returned bleed on the BJT chains")
+  // only where the variant is refused without it, and kept only when feasible: a variant that passed
+  // before with a stepped switch or the every-kind classes keeps that design, a refusal its page.
+  const without = withCrossWithheld(() => sizeKinds(spec));
+  // Sized again only where the arrangement can change the outcome: a timing-core rule among the
+  // refusal's reasons (the arrangement is tried only where no other core passes), not a solenoid.
+  if (
+    without.feasible ||
+    spec.load_kind === "solenoid" ||
+    !without.verdict.blocking.some((b) => CORE_RULES.has(b.rule))
+  )
+    return without;
+  const alt = sizeKinds(spec);
+  return alt.feasible ? alt : without;
+}
+
+function sizeKinds(spec: VariantSpec): SizedVariant {
   const out = sizeStepped(spec);
   if (out.feasible || spec.everyKindChoice === undefined) return out;
   // The classes chosen for this load kind alone are refused: the record's every-kind classes (the
@@ -200,7 +218,8 @@ export function tapAndTiming(
   }
   // The cross-returned bleed (docs/method.md, "Cross-returned bleed") only where no other core passes
   // with either capacitor class, so every variant that passed before keeps its design.
-  if (!crossOffered || !crossAllowed(ctx.spec.chain, ctx.spec.load_kind)) return general;
+  if (!crossOffered || !crossAllowed(ctx.spec.chain, ctx.spec.load_kind, ctx.spec.supply_V, ctx.spec.targets.pwm_Hz))
+    return general;
   const cross = plainTapAndTiming(ctx, plan, true);
   if (cross.timing.search.passed) return { ...cross, cross: { rule: ruleOf(), cross: true } };
   if (tightOk) {

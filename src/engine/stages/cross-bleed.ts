@@ -124,3 +124,34 @@ export function regenerationRate(p: {
   const i = Math.max(0, p.iDiv_A);
   return (p.rHigh_ohm * p.beta * i * i) / (p.nVt_V * p.iExc_A);
 }
+
+/**
+ * How firmly the returning collector holds the on side saturated through R_D, before the turnover.
+ * The returning (long-off) transistor comes on with its divider current I_div alone (the other side's
+ * capacitor cannot reach its base through its diode), so its collector only falls to
+ * V_ret = V_th − R_th·β_ret·I_div (its loaded Thevenin source, at least V_CE(sat)); the on side's own
+ * base node is then pulled below its diode by the coupling capacitor, and its base is fed by R_D from
+ * that collector alone, (V_ret − V_BE)/R_D. While that current keeps it saturated, β_on·I_B ≥ I_C,on,
+ * the on collector does not rise, nothing couples back, and the core stops with the returning side
+ * active (found in native ngspice on 36 V Darlington and driver-PNP cores at 1 kHz: Q1 saturated,
+ * the other collector parked at 6.7–13.8 V; ours, derived). The result is that ratio,
+ * β_on·(V_ret − V_BE)/(R_D·I_C,on): above 1 the turnover leans on the stored charge and the
+ * capacitive coupling; the limit is measured (cross-checks.ts HOLD_MAX).
+ */
+export function returnHold(p: {
+  /** The returning collector's loaded Thevenin source (its high level and resistance). */
+  vTh_V: number;
+  rTh_ohm: number;
+  /** The returning transistor's gain and its net divider current (timing resistor less R_D's share). */
+  betaReturn: number;
+  iDivNet_A: number;
+  vSat_V: number;
+  vBe_V: number;
+  rD_ohm: number;
+  /** The on transistor's gain and collector current. */
+  betaOn: number;
+  iCOn_A: number;
+}): number {
+  const vRet = Math.max(p.vSat_V, p.vTh_V - p.rTh_ohm * p.betaReturn * Math.max(0, p.iDivNet_A));
+  return (p.betaOn * Math.max(0, vRet - p.vBe_V)) / (p.rD_ohm * p.iCOn_A);
+}

@@ -5,14 +5,14 @@
  */
 import type { BjtClass, DiodeClass } from "../../model/device.ts";
 import { roundUp } from "../shared/e-series.ts";
-import { hfeMin, vbeOn, vceSat } from "../shared/gain.ts";
+import { hfeMax, hfeMin, vbeOn, vceSat } from "../shared/gain.ts";
 import { diodeCj_F } from "../shared/diode.ts";
 import { type Ctx, POT_TOLERANCE } from "./context.ts";
 import type { DesignProblem } from "../../model/problem.ts";
 import type { Figure } from "../../model/figure.ts";
 import { figure, problem } from "../shared/figures.ts";
 import { type CoreValues, cutIn_V, diodeVf_V } from "./core-model.ts";
-import { dividerLevel_V, regenerationRate } from "./cross-bleed.ts";
+import { dividerLevel_V, regenerationRate, returnHold } from "./cross-bleed.ts";
 import { diodeClassLaw } from "../shared/diode.ts";
 import { VT_NOMINAL_V } from "../shared/temperature.ts";
 import { railOffers } from "./core-rail.ts";
@@ -46,23 +46,103 @@ export const DIVIDER_DRIVE_MIN = 0.35;
 export const CROSS_INJECTION_MAX = 3.1;
 
 /**
- * Chains the arrangement is offered to: the logic-level MOSFET, whose cores agreed with every nominal
- * and corner simulation with both card sets, and whose published netlists print their expected values
- * in native ngspice (ours, measured; docs/method.md, "Cross-returned bleed", "When it is chosen").
+ * Chains the arrangement is offered to (ours, measured; docs/method.md, "Cross-returned bleed", "When it
+ * is chosen", and "The cross-returned bleed on the BJT chains"):
+ *  - the logic-level MOSFET, whose cores agreed with every nominal and corner simulation with both
+ *    card sets, and whose published netlists print their expected values in native ngspice;
+ *  - the two-stage Darlington and the driver-PNP chain, with the turnover limits of
+ *    CROSS_TURNOVER_CHAINS: all 21 variants sized on the arrangement within them (17 of the coverage
+ *    grid's 1 kHz, 10–90 % record, 3 of our own, 1 of the demo) agreed with the embedded engine at nominal
+ *    and at every corner and with the second card set; with the earlier limits alone 51 of 78 grid
+ *    variants and 4 of 8 of our own disagreed or failed (latched with the returning side active,
+ *    stalled or slow at the slow corner).
  * Not yet elsewhere: the driven MOSFET's one core fell 10 duty points short at control 1 with the
- * second card set; five of eight driver-PNP cores disagreed with their corner simulations; the
- * single-transistor and Darlington chains have no simulated core yet (ours, measured).
+ * second card set; the three-stage Darlington's light-load variants leave their ranges with the second
+ * card set with or without the arrangement (a chain effect, open); the single-transistor chain gained no
+ * core on the coverage grid's 1 kHz, 10–90 % and 100 Hz, 5–95 % records (its need for base current bounds
+ * R_C first), so none was simulated.
  */
-export const CROSS_CHAINS: readonly string[] = ["mosfet-logic"];
+export const CROSS_CHAINS: readonly string[] = ["mosfet-logic", "darlington-2", "bjt-driver-pnp"];
 
 /**
- * Whether the arrangement is offered: a MOSFET chain (CROSS_CHAINS), and not a solenoid, whose
- * pull-in timer leans on the duty network's current into base A (as for the ±5 % capacitors,
- * timing-caps.ts): with the arrangement a 24 V, 250 mA valve's switch dissipation at its fast corner
- * ran 18 % past its bound with the second card set (ours, measured).
+ * Chains whose cross-bled cores must meet the turnover limits whatever the supply (REGEN_MIN, HOLD_MAX,
+ * LEVEL_MIN): the BJT chains, to which the regulated core rail is not offered, so no sturdier core
+ * stands behind them (ours, measured: docs/method.md, "The cross-returned bleed on the BJT chains").
  */
-export function crossAllowed(chain: string, loadKind: string): boolean {
+export const CROSS_TURNOVER_CHAINS: readonly string[] = ["darlington-2", "bjt-driver-pnp"];
+
+/**
+ * Largest hold of the on side by the returning collector through R_D (cross-bleed.ts `returnHold`), at
+ * V_cc,min, cold, the returning side at minimum gain and the on side at the class's maximum. Measured in
+ * the embedded engine (build, nominal and every corner; ours): Darlington and driver-PNP cores at 1 kHz,
+ * 10–90 %, 12–48 V: at 2.3–6.4 every core with a regeneration rate ≥ 3 and a loaded level ≥ LEVEL_MIN
+ * agreed (24 variants); at 9.7–26.5, 66 of 73 variants disagreed or failed (the 36 V cores latched at
+ * control 0 with the returning collector parked at 6.7–13.8 V in native ngspice). 6.5 sits above the
+ * agreeing ones (ours).
+ */
+export const HOLD_MAX = 6.5;
+
+/**
+ * Smallest loaded high level of a timing collector against the supply, V_th/V_cc (V_cc,min, R_C at its
+ * high end, the chain's input or the balance on it). A heavy chain input lowers the level the collector
+ * couples and feeds R_D from, and the turnover comes late at the slow corner or the short half-period
+ * ends early. Measured in the embedded engine (build, nominal and every corner; ours): 24 V Darlington and
+ * driver-PNP cores at 1 kHz, 10–90 %, with a heavy chain input disagreed at 0.61, 0.72, 0.77 and 0.79
+ * (14–52 % below their frequency range at the slow corner, or too few periods there); 36 and 48 V,
+ * 500 mA Darlington cores at 5 kHz, 20–80 %, at 0.90, 0.91 and 0.93 (5 duty points short of the
+ * predicted 15 % at control 0). Agreeing cores lay at 0.68–0.94 too, but every core at 0.95 and above
+ * agreed (60 variants): the limit (ours).
+ */
+export const LEVEL_MIN = 0.95;
+
+/**
+ * Whether the arrangement is offered: a chain of CROSS_CHAINS (unless withheld: withCrossWithheld),
+ * and not a solenoid, whose pull-in timer leans on the duty network's current into base A (as for the ±5 % capacitors,
+ * timing-caps.ts): with the arrangement a 24 V, 250 mA valve's switch dissipation at its fast corner
+ * ran 18 % past its bound with the second card set (ours, measured). Nor a motor on the two-stage
+ * Darlington: at 5 and 25 kHz its switch dissipation simulated 0.4–0.6 × the prediction, on the plain
+ * core as on the arrangement (a chain effect, open; ours, measured). Nor the driver-PNP chain above
+ * CROSS_PNP_SUPPLY_MAX_V, nor a BJT chain above CROSS_BJT_PWM_MAX_HZ.
+ */
+export function crossAllowed(chain: string, loadKind: string, supply_V = 0, pwm_Hz = 0): boolean {
+  if (crossWithheld && CROSS_TURNOVER_CHAINS.includes(chain)) return false;
+  if (CROSS_TURNOVER_CHAINS.includes(chain) && pwm_Hz > CROSS_BJT_PWM_MAX_HZ) return false;
+  if (chain === "darlington-2" && loadKind === "motor") return false;
+  if (chain === "bjt-driver-pnp" && supply_V > CROSS_PNP_SUPPLY_MAX_V) return false;
   return CROSS_CHAINS.includes(chain) && loadKind !== "solenoid";
+}
+
+/**
+ * Highest nominal supply the driver-PNP chain is offered the arrangement at (ours, measured): its 36 and
+ * 48 V cross-bled variants at 5 kHz, 20–80 % agreed with the embedded engine but left their ranges with
+ * the second card set in 7 of 13 (the power corner's dissipation 13–36 % past its bound with a motor,
+ * 24–25 % duty at control 0 against 19 % with a 50 mA load); the chain's plain-core variants show the same
+ * at light load (a chain effect, open). Every variant at 5–24 V held with both card sets.
+ */
+export const CROSS_PNP_SUPPLY_MAX_V = 30;
+
+/**
+ * Highest PWM frequency the BJT chains are offered the arrangement at (ours, measured): at 25 kHz,
+ * 20–80 %, eight 5–12 V driver-PNP variants agreed with the embedded engine, but seven left their ranges
+ * with the second card set (the fast corner 13–45 % above its frequency range, 25–33 % duty at control 0
+ * against 19 %). At 1 and 5 kHz every variant within the other limits held with both card sets.
+ */
+export const CROSS_BJT_PWM_MAX_HZ = 5000;
+
+let crossWithheld = false;
+/**
+ * Runs `fn` with the arrangement withheld from CROSS_TURNOVER_CHAINS (size.ts sizeVariant sizes those
+ * chains without it first, so every variant that passed before, with a stepped switch or the record's
+ * every-kind classes, keeps its design). Synchronous and restored on exit.
+ */
+export function withCrossWithheld<T>(fn: () => T): T {
+  const prev = crossWithheld;
+  crossWithheld = true;
+  try {
+    return fn();
+  } finally {
+    crossWithheld = prev;
+  }
 }
 
 /**
@@ -103,8 +183,14 @@ export interface CrossFigures {
   endToRc: number;
   /** The returning side's collector fall rate over the on side's excess base current. */
   regen: number;
-  /** Whether REGEN_MIN applies (a supply-fed core of a variant the regulated rail is offered to). */
+  /** Whether REGEN_MIN applies (a supply-fed core of a variant the regulated rail is offered to, or a BJT chain). */
   regenAsked: boolean;
+  /** The returning collector's hold of the on side through R_D (cross-bleed.ts returnHold). */
+  hold: number;
+  /** The lower loaded high level of the two collectors over the supply (V_cc,min). */
+  level: number;
+  /** Whether HOLD_MAX and LEVEL_MIN apply (CROSS_TURNOVER_CHAINS). */
+  turnoverAsked: boolean;
 }
 
 interface CrossGeometry {
@@ -179,6 +265,43 @@ function regenOf(ctx: Ctx, g: CrossGeometry, d: ReturnType<typeof divider>, db: 
   });
 }
 
+/**
+ * returnHold at V_cc,min, cold: the returning side at minimum gain on its net divider current, its
+ * collector under the lighter of the two loads (the higher level it parks at), R_C and R_D at their low
+ * ends; the on side at the class's maximum gain at its collector current (minimum gain where the class
+ * gives no maximum). Also the lower loaded level of the two collectors over the supply.
+ */
+function turnoverOf(
+  ctx: Ctx,
+  q: BjtClass,
+  g: CrossGeometry,
+  d: ReturnType<typeof divider>,
+  beta: number,
+  rD_ohm: number,
+): { hold: number; level: number } {
+  const loads = [g.tapLoad, g.balance];
+  const hold = Math.max(
+    ...loads.map((load) => {
+      const th = collectorThevenin(ctx.vMin_V, g.rC_ohm * (1 - ctx.rTol), load);
+      return returnHold({
+        vTh_V: th.v_V,
+        rTh_ohm: th.r_ohm,
+        betaReturn: beta,
+        iDivNet_A: d.iRT - d.iD,
+        vSat_V: d.vSat,
+        vBe_V: d.vBe,
+        rD_ohm: rD_ohm * (1 - ctx.rTol),
+        betaOn: hfeMax(q, Math.min(q.ic_max_A, d.iC), ctx.taMin_C) ?? beta,
+        iCOn_A: d.iC,
+      });
+    }),
+  );
+  const level = Math.min(
+    ...loads.map((load) => collectorThevenin(ctx.vMin_V, g.rC_ohm * (1 + ctx.rTol), load).v_V / ctx.vMin_V),
+  );
+  return { hold, level };
+}
+
 const railKnown = new WeakMap<Ctx, boolean>();
 /** Whether the variant's core runs on the supply and the regulated rail is offered to it (kept per context). */
 function railAvailable(ctx: Ctx): boolean {
@@ -216,7 +339,9 @@ export function crossFigures(ctx: Ctx, q: BjtClass, db: DiodeClass, g: CrossGeom
   const vGammaCold = cutIn_V(false, db, ctx.taMin_C);
   const endToRc = Math.min(g.rEndA_ohm, g.rEndB_ohm) / g.rC_ohm;
   const regen = regenOf(ctx, g, d, db, beta);
-  const regenAsked = railAvailable(ctx);
+  const turnoverAsked = CROSS_TURNOVER_CHAINS.includes(ctx.spec.chain);
+  const regenAsked = turnoverAsked || railAvailable(ctx);
+  const { hold, level } = turnoverOf(ctx, q, g, d, beta, rD_ohm);
   return {
     rD_ohm,
     steal,
@@ -226,6 +351,9 @@ export function crossFigures(ctx: Ctx, q: BjtClass, db: DiodeClass, g: CrossGeom
     endToRc,
     regen,
     regenAsked,
+    hold,
+    level,
+    turnoverAsked,
   };
 }
 
@@ -237,7 +365,8 @@ export function crossPasses(f: CrossFigures): boolean {
     f.injection <= CROSS_INJECTION_MAX &&
     f.endToRc >= END_TO_RC_MIN &&
     f.turnOnMargin_V > 0 &&
-    (!f.regenAsked || f.regen >= REGEN_MIN)
+    (!f.regenAsked || f.regen >= REGEN_MIN) &&
+    (!f.turnoverAsked || (f.hold <= HOLD_MAX && f.level >= LEVEL_MIN))
   );
 }
 
@@ -284,6 +413,33 @@ export function crossProblems(ctx: Ctx, q: BjtClass, db: DiodeClass, v: CoreValu
           `${REGEN_MIN} where the regulated core rail is offered), so the core turns over unreliably at the ` +
           `slow end of the control. Run the core from the regulated rail, or use a smaller potentiometer.`,
         { limit: REGEN_MIN, actual: f.regen, unit: "" },
+      ),
+    );
+  if (f.turnoverAsked && f.hold > HOLD_MAX)
+    out.push(
+      problem(
+        "timing",
+        "/parts/RBL_A",
+        "cross-bleed-hold",
+        "error",
+        `When the long-off transistor comes back on its divider current alone, its collector stays high ` +
+          `enough to keep the other transistor saturated through R_D = ${rD} Ω (${f.hold.toFixed(2)} × what ` +
+          `saturation needs, limit ${HOLD_MAX}): the core can stop with one side saturated and the other ` +
+          `half on. Use a smaller potentiometer, a larger R_C, or a MOSFET chain.`,
+        { limit: HOLD_MAX, actual: f.hold, unit: "" },
+      ),
+    );
+  if (f.turnoverAsked && f.level < LEVEL_MIN)
+    out.push(
+      problem(
+        "timing",
+        "/parts/RC_A",
+        "cross-bleed-level",
+        "error",
+        `The chain's input (or the balance) pulls a timing collector's high level down to ` +
+          `${(100 * f.level).toFixed(0)} % of the supply (need ${100 * LEVEL_MIN} % with the cross-returned ` +
+          `bleed): the core turns over late at its slow corner. Use a smaller R_C or a chain with a lighter input.`,
+        { limit: LEVEL_MIN, actual: f.level, unit: "" },
       ),
     );
   if (f.endToRc < END_TO_RC_MIN)
@@ -364,9 +520,33 @@ export function crossBleedFigures(ctx: Ctx, q: BjtClass, db: DiodeClass, v: Core
       "",
       stage,
       `R_C′·β_min·I_div,net²/((n_D + 1)·V_T·I_exc), I_exc = (V_cc,min − V_F − V_BE)/R_end,min` +
-        (f.regenAsked ? ` ≥ ${REGEN_MIN} (the regulated rail is offered)` : " (no limit: the rail is not offered)"),
+        (f.regenAsked
+          ? ` ≥ ${REGEN_MIN} (${f.turnoverAsked ? "a BJT chain" : "the regulated rail is offered"})`
+          : " (no limit: the rail is not offered)"),
       "derived",
     ),
+    ...(f.turnoverAsked
+      ? [
+          figure(
+            "cross_bleed_hold",
+            "Returning collector's hold of the on side through R_D (worst case)",
+            f.hold,
+            "",
+            stage,
+            `β_max·(V_ret − V_BE)/(R_D·I_C), V_ret = V_th − R_th·β_min·I_div,net ≤ ${HOLD_MAX} (measured)`,
+            "derived",
+          ),
+          figure(
+            "cross_bleed_level",
+            "Lower loaded collector high level over the supply (worst case)",
+            f.level,
+            "",
+            stage,
+            `V_th/V_cc,min with R_C at +tolerance ≥ ${LEVEL_MIN} (measured)`,
+            "derived",
+          ),
+        ]
+      : []),
     figure(
       "cross_bleed_turn_on_margin",
       "Divider level above cut-in at the weakest corner",
