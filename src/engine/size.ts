@@ -53,6 +53,7 @@ import {
 } from "./stages/decisions.ts";
 import { TIGHT_CAPS, tightCapsAllowed } from "./stages/timing-caps.ts";
 import { CROSS_TURNOVER_CHAINS, crossAllowed, withCrossWithheld } from "./stages/cross-checks.ts";
+import { potStepOffered } from "./stages/duty-pot.ts";
 import { type PullInTimer, designPullInTimer } from "./stages/pull-in-timer.ts";
 import { type ControlEnds, controlEnds, dutyReach } from "./stages/end-contacts.ts";
 import {
@@ -72,6 +73,17 @@ import {
 } from "./stages/core-rail.ts";
 
 export function sizeVariant(spec: VariantSpec): SizedVariant {
+  const out = sizeCrossStep(spec);
+  if (out.feasible || !potStepOffered(spec)) return out;
+  // Refused with every arrangement, class step and rail on the ±20 % duty pot: the same again with a
+  // ±10 % cermet or wirewound track (stages/duty-pot.ts), kept only when feasible, so every variant that
+  // passed before keeps its design and a refusal keeps its page.
+  const refused = [...new Set(out.verdict.blocking.map((b) => b.rule))];
+  const alt = sizeCrossStep({ ...spec, dutyPot: { refused } });
+  return alt.feasible ? alt : out;
+}
+
+function sizeCrossStep(spec: VariantSpec): SizedVariant {
   if (!CROSS_TURNOVER_CHAINS.includes(spec.chain)) return sizeKinds(spec);
   // The BJT chains' cross-returned bleed (docs/method.md, "The cross-returned bleed on the BJT chains")
   // only where the variant is refused without it, and kept only when feasible: a variant that passed
@@ -218,7 +230,14 @@ export function tapAndTiming(
   }
   // The cross-returned bleed (docs/method.md, "Cross-returned bleed") only where no other core passes
   // with either capacitor class, so every variant that passed before keeps its design.
-  if (!crossOffered || !crossAllowed(ctx.spec.chain, ctx.spec.load_kind, ctx.spec.supply_V, ctx.spec.targets.pwm_Hz))
+  // Not with the ±10 % duty pot (stages/duty-pot.ts): the arrangement's limits and its tapped collector's
+  // edge were measured with the ±20 % track, and the 9 V, 25 kHz fan cores the pair made pass were
+  // predicted to dissipate 3–6 × what the embedded engine simulated (docs/method.md).
+  if (
+    !crossOffered ||
+    ctx.spec.dutyPot !== undefined ||
+    !crossAllowed(ctx.spec.chain, ctx.spec.load_kind, ctx.spec.supply_V, ctx.spec.targets.pwm_Hz)
+  )
     return general;
   const cross = plainTapAndTiming(ctx, plan, true);
   if (cross.timing.search.passed) return { ...cross, cross: { rule: ruleOf(), cross: true } };
@@ -361,6 +380,9 @@ const STEP_CHAINS: ReadonlySet<string> = new Set(["mosfet-logic", "mosfet-driver
  * passed before keeps its design; the step is recorded as the role's device-class decision.
  */
 function steppedDiodes(first: CoreChoice): CoreChoice | null {
+  // Not with the ±10 % duty pot (stages/duty-pot.ts): the one core that took both, a 5 V, 5 A LED panel
+  // at 5 kHz, 5–95 %, ran at twice its frequency at control 1 in the embedded engine.
+  if (first.spec.dutyPot !== undefined) return null;
   const stepped = steppedDiodeSpec(first.spec, first.ctx, first.core);
   if (stepped === null) return null;
   // Not with the cross-returned bleed: its held-base lift limit was measured with the ordinary class, and
@@ -405,7 +427,10 @@ function railedCore(offer: RailOffer, why: RailWhy): CoreChoice | null {
   let a = attempt(offer.spec, true);
   // As on the supply (steppedDiodes): the low-capacitance base diodes where no core passes on the rail
   // with the ordinary class (the diodes see the rail), not with the cross-returned bleed.
-  const stepped = a.core.timing.search.passed ? null : steppedDiodeSpec(a.spec, a.timingCtx, a.core);
+  const stepped =
+    a.core.timing.search.passed || offer.spec.dutyPot !== undefined
+      ? null
+      : steppedDiodeSpec(a.spec, a.timingCtx, a.core);
   if (stepped !== null) {
     const b = attempt(stepped, false);
     if (b.core.timing.search.passed) a = b;

@@ -49,6 +49,12 @@ export interface VariantSpec {
    * with the diode (the design decision's reason).
    */
   returnFet?: { refused: readonly string[] };
+  /**
+   * Set by the pot step only (src/engine/stages/duty-pot.ts, src/engine/size.ts `sizeVariant`): the duty
+   * control as a ±10 % cermet or wirewound track instead of the ±20 % one, with the rules that refused
+   * the variant with the ±20 % track (the design decision's reason).
+   */
+  dutyPot?: { refused: readonly string[] };
   policy: DeratingPolicy;
   /** The record's coil data, present on solenoid variants. */
   solenoid?: SolenoidRecord;

@@ -32,7 +32,6 @@ import { gainTempExponent, hfeTypicalCurve, vbeOn, vceSat } from "../shared/gain
 import { NOMINAL_TEMP_C, ZERO_CELSIUS_K } from "../shared/temperature.ts";
 import type { SimCorner } from "../../model/corners.ts";
 import type { Ctx } from "./context.ts";
-import { POT_TOLERANCE } from "./context.ts";
 import { type CoreValues, diodeVf_V } from "./core-model.ts";
 import { junctionCharge_C } from "../shared/junction.ts";
 import { storageTime_s } from "../shared/storage.ts";
@@ -68,7 +67,7 @@ export function baseCurrentMin_A(
   rEndA_ohm: number,
   rEndB_ohm: number,
 ): number {
-  const rB = Math.max(rEndA_ohm, rEndB_ohm) * (1 + ctx.rTol) + pot_ohm * (1 + POT_TOLERANCE);
+  const rB = Math.max(rEndA_ohm, rEndB_ohm) * (1 + ctx.rTol) + pot_ohm * (1 + ctx.potTol);
   const iB0 = ctx.vMin_V / rB;
   const vOn = vbeOn(q, ctx.taMin_C) + (diodes ? diodeVf_V(db, iB0, ctx.taMin_C) : 0);
   return (ctx.vMin_V - vOn) / rB;

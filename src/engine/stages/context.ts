@@ -14,9 +14,10 @@ import { SERIES_TOLERANCE } from "../shared/e-series.ts";
 import { type SeriesReverse, seriesReverse } from "./reverse.ts";
 import { type ReturnFet, returnFet } from "./return-fet.ts";
 import { GENERAL_CAPS, type TimingCapClass } from "./timing-caps.ts";
+import { type DutyPotClass, GENERAL_POT, dutyPotOf } from "./duty-pot.ts";
 
-/** Potentiometer track tolerance, ±20 % (common practice for carbon and cermet pots). */
-export const POT_TOLERANCE = 0.2;
+/** Potentiometer track tolerance of the general class, ±20 % (common practice for carbon and cermet pots). */
+export const POT_TOLERANCE = GENERAL_POT.tol;
 /** Overdrive kept over the minimum gain for every saturating stage (k ≥ 2 [src:common-practice]). */
 export const OVERDRIVE_K = 2;
 /** Forced gain for a saturating power stage: I_C/I_B = 10 (common practice, datasheet V_CE(sat) condition). */
@@ -42,6 +43,10 @@ export interface Ctx {
   cTol: number;
   /** The timing capacitors' part class (timing-caps.ts): general ±10 %, or ±5 % where chosen. */
   caps: TimingCapClass;
+  /** The duty potentiometer's track tolerance the corners sweep: `pot.tol`. */
+  potTol: number;
+  /** The duty potentiometer's class (duty-pot.ts): ±20 %, or ±10 % where the pot step chose it. */
+  pot: DutyPotClass;
   highSide: boolean;
   /**
    * A series reverse-polarity diode (stages/reverse.ts), when the variant has one: vMin_V and vNom_V are then
@@ -92,6 +97,7 @@ export function makeContext(spec: VariantSpec): Ctx {
   const coil = spec.solenoid === undefined ? undefined : { tau_s: spec.solenoid.tau_ms * 1e-3 };
   const load = loadModel(spec.load_kind, supply.nom_V, spec.load_A, coil);
   const iMax_A = runningCurrentMax_A(spec.load_kind, load, spec.load_A, supply.nom_V, vMax_V);
+  const pot = dutyPotOf(spec);
   return {
     ...(series === undefined ? {} : { series }),
     ...(guard === undefined ? {} : { returnFet: guard }),
@@ -110,6 +116,8 @@ export function makeContext(spec: VariantSpec): Ctx {
     rTol: SERIES_TOLERANCE.E24,
     cTol: GENERAL_CAPS.engineTol,
     caps: GENERAL_CAPS,
+    potTol: pot.tol,
+    pot,
     highSide: spec.chain === "bjt-driver-pnp",
   };
 }

@@ -7,7 +7,7 @@ import type { BjtClass, DiodeClass } from "../../model/device.ts";
 import { roundUp } from "../shared/e-series.ts";
 import { hfeMax, hfeMin, vbeOn, vceSat } from "../shared/gain.ts";
 import { diodeCj_F } from "../shared/diode.ts";
-import { type Ctx, POT_TOLERANCE } from "./context.ts";
+import type { Ctx } from "./context.ts";
 import type { DesignProblem } from "../../model/problem.ts";
 import type { Figure } from "../../model/figure.ts";
 import { figure, problem } from "../shared/figures.ts";
@@ -207,7 +207,7 @@ interface CrossGeometry {
 
 /** Largest timing resistance at +tolerance (end stop + the whole pot), Ω. */
 function rBMax(ctx: Ctx, g: CrossGeometry): number {
-  return Math.max(g.rEndA_ohm, g.rEndB_ohm) * (1 + ctx.rTol) + g.pot_ohm * (1 + POT_TOLERANCE);
+  return Math.max(g.rEndA_ohm, g.rEndB_ohm) * (1 + ctx.rTol) + g.pot_ohm * (1 + ctx.potTol);
 }
 
 /**

@@ -15,6 +15,7 @@ import { formatPercent, formatValue } from "../../model/format.ts";
 import { GENERIC_HEATSINKS, type GenericHeatsink, pickHeatsink } from "../shared/heatsinks.ts";
 import { PREFERRED_REASON } from "../devices/choose.ts";
 import { GENERAL_CAPS, TIGHT_CAPS } from "./timing-caps.ts";
+import { GENERAL_POT, TIGHT_POT } from "./duty-pot.ts";
 import { GATE_EDGE_SHARE } from "./tap.ts";
 import { returnFet } from "./return-fet.ts";
 import { seriesReverse } from "./reverse.ts";
@@ -193,6 +194,8 @@ export function designDecisions(
   }
   const guard = returnGuardDecision(spec, circuit);
   if (guard !== undefined) out.push(guard);
+  const pot = potDecision(spec, circuit);
+  if (pot !== undefined) out.push(pot);
   if (arrangement !== undefined) out.push(arrangementDecision(circuit, arrangement));
   if (caps !== undefined) out.push(capsDecision(circuit, caps));
   return out;
@@ -266,6 +269,26 @@ function arrangementDecision(circuit: CircuitModel, arrangement: FollowerChosen 
       `other collector's V_CE(sat), so its timing resistor charges the capacitor alone; while it is on, the ` +
       `bleed adds base current from the other collector's high level, so the largest timing resistor no ` +
       `longer has to saturate the transistor by itself and the control spans a wider duty range`,
+  };
+}
+
+/**
+ * The ±10 % duty pot (stages/duty-pot.ts): what refused the variant with the ±20 % track, and why the
+ * tighter track lifts it.
+ */
+function potDecision(spec: VariantSpec, circuit: CircuitModel): DesignDecision | undefined {
+  if (spec.dutyPot === undefined) return undefined;
+  const refs = circuit.parts.filter((p) => p.role === "RV_DUTY").map((p) => p.ref);
+  const refused = spec.dutyPot.refused.map((r) => CAP_FAILURE[r] ?? PLAIN_FAILURE[r] ?? r).join("; ");
+  return {
+    refs,
+    topic: "duty potentiometer class",
+    choice: `a ${TIGHT_POT.track} instead of ±${formatPercent(GENERAL_POT.tol)}`,
+    reason:
+      `with a ±${formatPercent(GENERAL_POT.tol)} track the variant is refused with every core arrangement ` +
+      `(${refused}): the track's tolerance moves the end stops' share of the timing resistance and so the ` +
+      `control's ends, and the period with it; at ±${formatPercent(TIGHT_POT.tol)} a core passes every limit at ` +
+      `every tolerance corner`,
   };
 }
 

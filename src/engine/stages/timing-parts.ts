@@ -10,7 +10,7 @@ import { checkStress } from "../shared/derating.ts";
 import { hfeMin, vbeOn, vceSat } from "../shared/gain.ts";
 import { capacitor, diode, resistor, transistor } from "../../circuit/parts.ts";
 import type { CollectorLoad } from "./astable.ts";
-import { type Ctx, POT_TOLERANCE } from "./context.ts";
+import type { Ctx } from "./context.ts";
 import type { CoreValues } from "./core-model.ts";
 import type { TapDesign } from "./tap.ts";
 import type { WorstCase } from "./timing-search.ts";
@@ -211,9 +211,11 @@ export function timingParts(
   }
   // Pot: a full-track rating P allows a current √(P/R) in any part of the track (common practice);
   // checked as the power the whole track would dissipate at the segment's RMS current.
-  const pTrack = iBrms * iBrms * v.pot_ohm * (1 + POT_TOLERANCE);
+  const pTrack = iBrms * iBrms * v.pot_ohm * (1 + ctx.potTol);
   const potRule = pol.resistor.power;
   const potW = POT_RATINGS_W.find((r) => pTrack <= r * potRule.factor) ?? POT_RATINGS_W[POT_RATINGS_W.length - 1]!;
+  // The ±10 % class names its track (duty-pot.ts); the general one by its rating, as before.
+  const track = ctx.pot.track || (potW > 1 ? "wirewound" : potW > 0.25 ? "cermet" : "carbon");
   parts.push({
     ref: "",
     kind: "potentiometer",
@@ -221,10 +223,8 @@ export function timingParts(
     role: "RV_DUTY",
     value: v.pot_ohm,
     unit: "Ω",
-    tolerance: POT_TOLERANCE,
-    description:
-      `Linear potentiometer, ${potW} W ${potW > 1 ? "wirewound" : potW > 0.25 ? "cermet" : "carbon"} — duty ` +
-      `control (wiper to the supply)`,
+    tolerance: ctx.potTol,
+    description: `Linear potentiometer, ${potW} W ${track} — duty control (wiper to the supply)`,
     rating: { power_W: potW, current_A: Math.sqrt(potW / v.pot_ohm) },
     stress: { current_A: iBrms, power_W: pTrack },
     pins: { a: "pa", w: "vbus", b: "pb" },

@@ -15,7 +15,7 @@
 import type { BjtClass, DiodeClass } from "../../model/device.ts";
 import { roundDown, roundUp } from "../shared/e-series.ts";
 import { hfeMin, vbeOn, vceSat } from "../shared/gain.ts";
-import { type Ctx, OVERDRIVE_K, POT_TOLERANCE } from "./context.ts";
+import { type Ctx, OVERDRIVE_K } from "./context.ts";
 import { type CoreValues, type Corner, NOMINAL_K, diodeVf_V, evalCore } from "./core-model.ts";
 import { diodeCj_F } from "../shared/diode.ts";
 import { INJECTION_MAX, baseInjectionRatio } from "./astable.ts";
@@ -89,7 +89,7 @@ export function overdrive(
   rEndA: number,
   rEndB: number,
 ): number {
-  const rB = Math.max(rEndA, rEndB) * (1 + ctx.rTol) + pot * (1 + POT_TOLERANCE);
+  const rB = Math.max(rEndA, rEndB) * (1 + ctx.rTol) + pot * (1 + ctx.potTol);
   const iRc = (ctx.vMin_V - vceSat(q, ctx.vMin_V / base.rC_ohm)) / (base.rC_ohm * (1 - ctx.rTol));
   const iB0 = ctx.vMin_V / rB;
   const vOn = vbeOn(q, ctx.taMin_C) + (base.diodes ? diodeVf_V(db, iB0, ctx.taMin_C) : 0);
@@ -167,7 +167,7 @@ export function envelopeOf(ctx: Ctx): Envelope {
     tMin: ctx.taMin_C,
     tMax: ctx.taMax_C,
     rTol: ctx.rTol,
-    potTol: POT_TOLERANCE,
+    potTol: ctx.potTol,
     cTol: ctx.cTol,
   };
 }
@@ -184,7 +184,7 @@ export function endFloor(ctx: Ctx, q: BjtClass, rC_ohm: number, pot: number): nu
   if (!(iLeft > 0)) return null;
   const byCurrent = (2 * ctx.vMax_V) / (iLeft * (1 - tol));
   const pMax = POT_RATINGS_W[POT_RATINGS_W.length - 1]! * ctx.spec.policy.resistor.power.factor;
-  const byPot = (Math.sqrt(RB_MS_FACTOR) * ctx.vMax_V) / ((1 - tol) * Math.sqrt(pMax / (pot * (1 + POT_TOLERANCE))));
+  const byPot = (Math.sqrt(RB_MS_FACTOR) * ctx.vMax_V) / ((1 - tol) * Math.sqrt(pMax / (pot * (1 + ctx.potTol))));
   return Math.max(R_END_MIN_OHM, byCurrent, byPot);
 }
 
