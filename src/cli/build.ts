@@ -180,6 +180,14 @@ async function buildLoaded(
   // Transient runs asked for (cached ones included): three nominal per variant plus its corners.
   let runs = 0;
   if (o.simulate) {
+    // A design sized again has pages to render: the site writer and its template engine are loaded
+    // while the simulations run on the workers (≈ 0.3 s off a one-record rebuild), not after them.
+    // A build that sized nothing may have nothing to publish, and then loads neither.
+    if (sizeStats.misses > 0)
+      void import("../site/write.ts").then(
+        (m) => m.preloadTemplateEngine(),
+        () => undefined,
+      );
     runs = jobs.reduce((n, j) => n + NOMINAL_RUNS + (j.corners?.length ?? 0), 0);
     verifications = await verifyAll(jobs, {
       engine: o.spice,

@@ -47,6 +47,9 @@ export const SITE_INPUT_DIR = fileURLToPath(new URL("../../site/", import.meta.u
  */
 export const CHUNK_PAGES = 400;
 
+/** Cached pages looked up and copied at once (PageWriter `takeAll`): enough to overlap the file system's waits. */
+const COPY_BATCH = 32;
+
 /** What every design's pages share: the catalogue head and the key parts every page key holds. */
 export interface PageSetup {
   head: CatalogueHead;
@@ -156,21 +159,9 @@ export class PageWriter {
     const groupKeys = layout.groups.map((g, gi) =>
       groupPageKey(s.shared, part, () => fullViews().groups[gi]!, dBuilt && { ...dBuilt, page: g.page }),
     );
-    let rendered = 0;
-    if (await this.take(designKey, `designs/${d.record.id}/`)) {
-      this.designs.push(fullViews().page);
-      rendered++;
-    }
-    for (const [gi, g] of layout.groups.entries())
-      if (await this.take(groupKeys[gi]!, g.page.slice(0, -"index.html".length))) {
-        this.groups.push(fullViews().groups[gi]!);
-        rendered++;
-      }
-
-    const records: SearchRecord[] = [designRecord(layout.design)];
-    const variantKeys: string[] = [];
-    const lines: string[] = [];
-    for (const [vi, v] of d.variants.entries()) {
+    // Every page's key first, then the cache looked up and copied a batch at a time (`takeAll`); the
+    // pages that missed are queued in the order they were before: design, groups, variants.
+    const variantKeys = d.variants.map((v, vi) => {
       let view: VariantView | null = null;
       const viewOf = (): VariantView => (view ??= variantView(v, d, s.head));
       const key = variantPageKey(
@@ -180,12 +171,37 @@ export class PageWriter {
         v,
         built ? { key: built, index: vi, engineKey: s.engineKey, sim: sims[vi]! } : undefined,
       );
-      variantKeys.push(key);
-      if (await this.take(key, variantDir(v.sized.spec.id), { design: d, vi })) {
-        this.variants.push(viewOf());
+      return { key, viewOf, peek: (): VariantView | null => view };
+    });
+    const missed = await this.takeAll([
+      { key: designKey, dir: `designs/${d.record.id}/` },
+      ...layout.groups.map((g, gi) => ({ key: groupKeys[gi]!, dir: g.page.slice(0, -"index.html".length) })),
+      ...d.variants.map((v, vi) => ({
+        key: variantKeys[vi]!.key,
+        dir: variantDir(v.sized.spec.id),
+        variant: { design: d, vi },
+      })),
+    ]);
+    let rendered = 0;
+    if (missed[0]) {
+      this.designs.push(fullViews().page);
+      rendered++;
+    }
+    for (const gi of layout.groups.keys())
+      if (missed[1 + gi]) {
+        this.groups.push(fullViews().groups[gi]!);
         rendered++;
       }
-      records.push(variantRecord(view ?? variantSearchHead(v, d)));
+
+    const records: SearchRecord[] = [designRecord(layout.design)];
+    const lines: string[] = [];
+    for (const [vi, v] of d.variants.entries()) {
+      const k = variantKeys[vi]!;
+      if (missed[1 + layout.groups.length + vi]) {
+        this.variants.push(k.viewOf());
+        rendered++;
+      }
+      records.push(variantRecord(k.peek() ?? variantSearchHead(v, d)));
       // One line per variant, indented as an element two levels deep (catalogue-json.ts).
       lines.push(`    ${JSON.stringify(catalogueVariantRow(v, d))}`);
     }
@@ -203,22 +219,30 @@ export class PageWriter {
       json: { design: catalogueDesignRow(d), lines },
       records,
       designKeys: [designKey, ...groupKeys],
-      variantKeys,
+      variantKeys: variantKeys.map((k) => k.key),
       formulas: formulas.part(),
       pages: 1 + layout.groups.length + d.variants.length,
       rendered,
     };
   }
 
-  /** Copies the page from the cache; false when it is there, true when it must be rendered (queued). */
-  private async take(key: string, dir: string, variant?: Miss["variant"]): Promise<boolean> {
-    const hit = await this.read(key);
-    if (hit) {
-      await copyBundle(this.out, dir, hit);
-      return false;
+  /**
+   * Copies each page that is in the cache and queues the others; true for each page that must be
+   * rendered. Looked up and copied COPY_BATCH pages at a time, so the file system's waits overlap
+   * while at most that many cached pages are held.
+   */
+  private async takeAll(pages: readonly Miss[]): Promise<boolean[]> {
+    const missed: boolean[] = [];
+    for (let i = 0; i < pages.length; i += COPY_BATCH) {
+      const batch = pages.slice(i, i + COPY_BATCH);
+      const hits = await Promise.all(batch.map((p) => this.read(p.key)));
+      await Promise.all(hits.map((hit, j) => (hit ? copyBundle(this.out, batch[j]!.dir, hit) : undefined)));
+      for (const [j, hit] of hits.entries()) {
+        if (!hit) this.misses.push(batch[j]!);
+        missed.push(!hit);
+      }
     }
-    this.misses.push({ key, dir, ...(variant ? { variant } : {}) });
-    return true;
+    return missed;
   }
 
   /** Renders the queued pages, writes their downloads and their cache entries. */
@@ -295,9 +319,7 @@ export async function renderPages(
 
 /** Writes a cached bundle's files below `dir` (relative to `out`, with a trailing slash). */
 export async function copyBundle(out: string, dir: string, files: Bundle): Promise<void> {
-  for (const [name, bytes] of files) {
-    const file = path.join(out, dir, name);
-    await mkdir(path.dirname(file), { recursive: true });
-    await writeFile(file, bytes);
-  }
+  const at = files.map(([name, bytes]) => ({ file: path.join(out, dir, name), bytes }));
+  for (const folder of new Set(at.map((f) => path.dirname(f.file)))) await mkdir(folder, { recursive: true });
+  await Promise.all(at.map((f) => writeFile(f.file, f.bytes)));
 }

@@ -98,6 +98,11 @@ export async function writeSite(cat: BuiltCatalogue, outDir: string, opts: Write
   return writeSiteStream({ ...head, ...(engine ? { engine } : {}) }, designs, outDir, opts);
 }
 
+/** Starts loading the template engine (Eleventy) without waiting for it: a later render finds it loaded. */
+export function preloadTemplateEngine(): void {
+  import("@11ty/eleventy").catch(() => undefined);
+}
+
 /**
  * The site writer proper, for a catalogue whose designs arrive one at a time (the build streams
  * them from its caches): each design's pages and downloads are written, in chunks of about
@@ -123,7 +128,7 @@ export async function writeSiteStream(
   const setup = pageSetup(head, opts.pathPrefix ?? "/");
   // The template engine renders the home page at the end whatever else is cached: loaded while
   // the designs are still on their way, not after the last one.
-  import("@11ty/eleventy").catch(() => undefined);
+  preloadTemplateEngine();
   // The search index, filled as the designs pass (see `designsAhead`).
   const early = opts.designsAhead
     ? { home: homeRecord({ designs: opts.designsAhead }), index: new SearchIndexWriter() }
