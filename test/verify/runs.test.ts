@@ -8,6 +8,7 @@ import {
   DEFAULT_RUN_PLAN,
   loadTiming,
   RETRY_OPTIONS,
+  RETRY4_OPTIONS,
   runAt,
   PLAIN_LOAD_PLAN,
   settleTime,
@@ -147,11 +148,20 @@ describe("a transient that stops early", () => {
     const step = (d: string): number => Number(/^\.tran (\S+)/m.exec(d)![1]);
     expect(step(e.decks[1]!)).toBe(step(e.decks[0]!));
   });
-  it("fails with every attempt named when both retry levels stop too", async () => {
+  it("fails with every attempt named when every retry level stops too", async () => {
     const e = fakeEngine(() => 0.5);
     await expect(runAt(target({ inductive: false, loadTau_s: 0 }), NETLIST, e, 1)).rejects.toThrow(
-      /stopped early at ctrl = 1 .*: at .* s, at .* with abstol=1e-9 vntol=1e-5 gmin=1e-10, at .* with .*maxord=2.* and step .*, at .* with abstol=1e-9 vntol=1e-5 and step/,
+      /stopped early at ctrl = 1 .*: at .* s, at .* with abstol=1e-9 vntol=1e-5 gmin=1e-10, at .* with .*maxord=2.* and step .*, at .* with abstol=1e-9 vntol=1e-5 and step .*, at .* with abstol=1e-9 vntol=1e-5 gmin=1e-9$/,
     );
+    expect(e.decks).toHaveLength(5);
+  });
+  it("level 4: ten times the junction conductance, at the plan's own step, after the small step", async () => {
+    const e = fakeEngine((d) => (d.includes(RETRY4_OPTIONS) ? 1 : 0.3));
+    const run = await runAt(target({ inductive: false, loadTau_s: 0 }), NETLIST, e, 0.5);
+    expect([run.retried, run.retryLevel, e.decks.length]).toEqual([true, 4, 5]);
+    const step = (d: string): number => Number(/^\.tran (\S+)/m.exec(d)![1]);
+    expect(step(e.decks[4]!)).toBe(step(e.decks[0]!));
+    expect(e.decks[4]).toMatch(/^\.options method=gear abstol=1e-9 vntol=1e-5 gmin=1e-9$/m);
   });
   it("skips a retry whose settings the netlist's `.options` already carry (it stops where it stopped)", async () => {
     const e = fakeEngine((d) => (d.includes("maxord=2") ? 1 : 0.8));
