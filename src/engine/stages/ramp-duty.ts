@@ -20,7 +20,7 @@ import { thermalVoltage_V, NOMINAL_TEMP_C } from "../shared/temperature.ts";
 import { rcRampExtremes, segmentTime_s } from "../shared/rc-ramp.ts";
 import { VBE_MISMATCH_V, pairSteer_V } from "../shared/diff-pair.ts";
 import { storageTime_s } from "../shared/storage.ts";
-import { nearest, roundUp } from "../shared/e-series.ts";
+import { nearest, roundDown, roundUp } from "../shared/e-series.ts";
 
 /** The core's collector A at one corner, as the ramp sees it. */
 export interface RampCore {
@@ -234,7 +234,10 @@ export interface RampWorst {
   f: { lo: number; hi: number };
   /** Largest reverse base–emitter voltage of the off pair transistor, V. */
   vebRev_V: number;
-  /** Smallest PNP overdrive I_B1·β_min/I_C over the corners (≥ 1: saturates). */
+  /**
+   * Smallest PNP overdrive I_B1·β_min/I_C over the corners (≥ 1: saturates), with the wiper at the ramp's
+   * bottom: the least tail current the tap still pulses with.
+   */
   overdrive: number;
 }
 
@@ -281,7 +284,9 @@ export function rampWorst(
         }
         const iC = core.rail_V / v.rOut_ohm + chain.tapLoad_A;
         const vbeOut = vbeOn(dev.out, k.t_C);
-        const iB1 = e0.tail_A - vbeOut / (v.rCmp_ohm * k.kCmp);
+        // The least tail the tap still pulses with: the wiper at the ramp's bottom.
+        const tailBottom = Math.max(0, (e0.rampMin_V - vbe) / (v.rTail_ohm * k.kTail));
+        const iB1 = tailBottom - vbeOut / (v.rCmp_ohm * k.kCmp);
         w.overdrive = Math.min(w.overdrive, (iB1 * hfeMin(dev.out, iC, k.t_C)) / iC);
       }
   return w;
@@ -342,32 +347,37 @@ export function sizeRamp(req: RampRequest): RampSizing {
   const cRamp = nearest((RAMP_TAU_PER_PERIOD * period) / rRamp, "E12");
   const nomCore = req.coreAt(req.vNom_V, NOMINAL_TEMP_C)[0];
   if (nomCore === undefined) throw new EngineMisuseError("sizeRamp: coreAt gave no core");
-  const vMinRail = Math.min(...req.supplies.map((s) => req.coreAt(s, NOMINAL_TEMP_C)[0]?.rail_V ?? s));
-  const vbe = vbeOn(req.dev.pair, req.tMax_C);
-  // The pair switches lowest near the ramp's bottom, about a third of the lowest rail: the tail there
-  // must still feed the PNP 2× its least-gain base current besides R_CMP's share.
-  const uLow = vMinRail / 3;
+  const vMinSupply = Math.min(...req.supplies);
   const vMaxRail = Math.max(...req.supplies.map((s) => req.coreAt(s, NOMINAL_TEMP_C)[0]?.rail_V ?? s));
-  const iC = vMaxRail / req.rOut_ohm + req.tapLoad_A;
-  const iB1 = (RAMP_OVERDRIVE * iC) / hfeMin(req.dev.out, iC, req.tMin_C);
-  const tailNeed = Math.max(RAMP_TAIL_A, iB1 / (1 - RAMP_STEER_SHARE));
-  const rTail = nearest(Math.max(1000, (uLow - vbe) / tailNeed), "E24");
-  const vbeOut = vbeOn(req.dev.out, req.tMin_C);
-  const rCmp = nearest(vbeOut / (RAMP_STEER_SHARE * ((uLow - vbe) / rTail)), "E24");
-  let v: RampValues = {
+  // The lowest level the tap still pulses at is the ramp's bottom at the lowest supply, cold (V_BE
+  // highest): the tail there, (V_ramp,min − V_BE)/R_TAIL, must feed R_CMP's share and twice the PNP's
+  // least-gain base current for R_OUT and the chain's load.
+  const provisional: RampValues = {
     rRamp_ohm: rRamp,
     cRamp_F: cRamp,
     rHi_ohm: 10_000,
     pot_ohm: RAMP_POT_OHM,
     rLo_ohm: 10_000,
     rHys_ohm: 1e6,
-    rTail_ohm: rTail,
-    rCmp_ohm: rCmp,
+    rTail_ohm: 10_000,
+    rCmp_ohm: 10_000,
     rOut_ohm: req.rOut_ohm,
     potReversed: req.inverting,
   };
-  const k0: RampCorner = { t_C: NOMINAL_TEMP_C, ...RAMP_NOMINAL };
   const chain = { inverting: req.inverting, tapLoad_A: req.tapLoad_A };
+  const lowCore = req.coreAt(vMinSupply, req.tMin_C)[0] ?? nomCore;
+  const kCold: RampCorner = { t_C: req.tMin_C, ...RAMP_NOMINAL };
+  const uLow = evalRamp(provisional, lowCore, req.dev, kCold, 0.5, chain).rampMin_V;
+  // A ramp that sits within 0.2 V of V_BE leaves no tail: sized at that floor, the overdrive check refuses it.
+  const head = Math.max(0.2, uLow - vbeOn(req.dev.pair, req.tMin_C));
+  const iC = vMaxRail / req.rOut_ohm + req.tapLoad_A;
+  const iB1 = (RAMP_OVERDRIVE * iC) / hfeMin(req.dev.out, iC, req.tMin_C);
+  const tailNeed = Math.max(RAMP_TAIL_A, iB1 / (1 - RAMP_STEER_SHARE));
+  const rTail = roundDown(Math.max(1000, head / tailNeed), "E24");
+  const vbeOut = vbeOn(req.dev.out, req.tMin_C);
+  const rCmp = nearest(vbeOut / (RAMP_STEER_SHARE * (head / rTail)), "E24");
+  let v: RampValues = { ...provisional, rTail_ohm: rTail, rCmp_ohm: rCmp };
+  const k0: RampCorner = { t_C: NOMINAL_TEMP_C, ...RAMP_NOMINAL };
   const e = evalRamp(v, nomCore, req.dev, k0, 0.5, chain);
   const span = e.rampMax_V - e.rampMin_V;
   const ks = rampCorners(req.tMin_C, req.tMax_C, req.rTol, req.potTol, req.cTol);

@@ -177,6 +177,12 @@ describe("sizing: a 12 V lead-acid core at ≈ 4.5 kHz asked 5–95 % (demo numb
     expect(inv.worst.d0.hi).toBeLessThanOrEqual(0.05);
     expect(inv.worst.d1.lo).toBeGreaterThanOrEqual(0.95);
   });
+  it("asked for a true off and on, both ends pass beyond the ramp at every corner", () => {
+    const ends = sizeRamp({ ...REQUEST, beyondEnds: true });
+    expect(ends.found).toBe(true);
+    expect(ends.worst.d0.hi).toBe(0);
+    expect(ends.worst.d1.lo).toBe(1);
+  });
   it("a too-weak comparator for a heavy tap is refused, naming the PNP's drive", () => {
     const weak = sizeRamp({ ...REQUEST, rOut_ohm: 22, tapLoad_A: 0.2 });
     expect(weak.found).toBe(false);
