@@ -2,8 +2,9 @@
  * Reach of the ramp-and-comparator duty stage (src/engine/stages/ramp-duty.ts, not yet offered by
  * sizeVariant), sized without simulation over rails, PWM frequencies, duty asks and both chain
  * polarities, on a plain core (R_C 1 kΩ, R_B 22 kΩ, C_T for the frequency, base diodes) loaded by the
- * ramp branches. Prints one row per case (found or the refusal, the worst-case duty at control 0 and
- * 1, the pair's reverse V_BE, the PNP's overdrive, the sizing's time) and a summary; asserts nothing.
+ * ramp branches, at its two extremes of collector duty over R_B ±1 % and C_T ±5 %. Prints one row per
+ * case (found or the refusal, the worst-case duty at control 0 and 1, the pair's reverse V_BE, the PNP's
+ * overdrive, the sizing's time) and a summary; asserts nothing.
  * Usage: node --import tsx bench/ramp-reach.ts
  */
 import { readFileSync } from "node:fs";
@@ -15,6 +16,11 @@ import { type RampCore, sizeRamp } from "../src/engine/stages/ramp-duty.ts";
 
 const device = (id: string): BjtClass =>
   JSON.parse(readFileSync(new URL(`../designs/devices/${id}.json`, import.meta.url), "utf8")) as BjtClass;
+const BJT_VOLTAGE_FACTOR = (
+  JSON.parse(readFileSync(new URL("../designs/policies/default.json", import.meta.url), "utf8")) as {
+    bjt: { voltage: { factor: number } };
+  }
+).bjt.voltage.factor;
 const pair = device("npn-small-signal");
 const out = device("pnp-small-signal");
 const RAILS: [string, number, number, number][] = [
@@ -29,25 +35,26 @@ const R_C = 1000;
 const R_B = 22_000;
 const R_OUT = 1000;
 
+/** Collector A at its two extremes of duty over the core's tolerances (R_B ±1 %, C_T ±5 %, crosswise). */
 function coreAt(c_F: number) {
   return (vcc_V: number, t_C: number): RampCore[] => {
     const vSat = vceSat(pair, vcc_V / R_C);
     const load = { v_V: vcc_V / 2, r_ohm: Math.max(10 * R_C, 4700) };
-    const e = evaluateCore({
-      vcc_V,
-      vOn_V: vbeOn(pair, t_C) + 0.65,
-      vSat_V: vSat,
-      rCA_ohm: R_C,
-      rCB_ohm: R_C,
-      cA_F: c_F,
-      cB_F: c_F,
-      rBA_ohm: R_B,
-      rBB_ohm: R_B,
-      loadA: load,
-      loadB: load,
-    });
-    return [
-      {
+    return [1, -1].map((s) => {
+      const e = evaluateCore({
+        vcc_V,
+        vOn_V: vbeOn(pair, t_C) + 0.65,
+        vSat_V: vSat,
+        rCA_ohm: R_C,
+        rCB_ohm: R_C,
+        cA_F: c_F * (1 + 0.05 * s),
+        cB_F: c_F * (1 - 0.05 * s),
+        rBA_ohm: R_B * (1 - 0.01 * s),
+        rBB_ohm: R_B * (1 + 0.01 * s),
+        loadA: load,
+        loadB: load,
+      });
+      return {
         tHigh_s: e.tAoff_s,
         tLow_s: e.tBoff_s,
         vSrcHigh_V: vcc_V,
@@ -55,8 +62,8 @@ function coreAt(c_F: number) {
         vSat_V: vSat,
         cT_F: c_F,
         rail_V: vcc_V,
-      },
-    ];
+      };
+    });
   };
 }
 
@@ -93,6 +100,7 @@ for (const [name, lo, nom, hi] of RAILS)
           tapLoad_A: 0,
           dev: { pair, out },
           coreAt: coreAt(c_F),
+          vebFactor: BJT_VOLTAGE_FACTOR,
         });
         const dt = performance.now() - t0;
         total++;

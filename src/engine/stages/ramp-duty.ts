@@ -314,6 +314,8 @@ export interface RampRequest {
   tapLoad_A: number;
   dev: RampDevices;
   coreAt: CoreAt;
+  /** The derating policy's transistor voltage factor: the pair's reverse V_BE is held under V_EBO × it. */
+  vebFactor: number;
 }
 
 export interface RampSizing {
@@ -332,8 +334,11 @@ export const RAMP_STEER_SHARE = 0.35;
 export const RAMP_OVERDRIVE = 2;
 /** Hysteresis aimed at on the wiper, V: a few times the pair's ±4·V_T steering window. */
 export const RAMP_HYSTERESIS_V = 0.15;
-/** Ramp time constant over the period (τ = T: ±tanh(¼) ≈ ±25 % of the collector swing). */
-export const RAMP_TAU_PER_PERIOD = 1;
+/**
+ * Ramp time constants tried, over the period: τ = T first (±tanh(¼) ≈ ±25 % of the collector swing), then
+ * longer ones (a smaller ramp) where the pair's reverse V_BE is refused; the first that passes is kept.
+ */
+export const RAMP_TAU_PER_PERIOD = [1, 1.5, 2.2] as const;
 /** The potentiometer's value, Ω (the track carries only the divider's current). */
 export const RAMP_POT_OHM = 10_000;
 
@@ -342,9 +347,20 @@ export const RAMP_POT_OHM = 10_000;
  * 70 % of its span) and widen, each on its own, until every corner reaches the asked end.
  */
 export function sizeRamp(req: RampRequest): RampSizing {
+  let first: RampSizing | undefined;
+  for (const tauPerPeriod of RAMP_TAU_PER_PERIOD) {
+    const s = sizeRampAt(req, tauPerPeriod);
+    if (s.found) return s;
+    first ??= s;
+    if (!s.refusals.some((r) => r.rule === "ramp-pair-reverse")) break;
+  }
+  return first!;
+}
+
+function sizeRampAt(req: RampRequest, tauPerPeriod: number): RampSizing {
   const period = 1 / req.f_Hz;
   const rRamp = roundUp(Math.max(10 * req.rC_ohm, 4700), "E12");
-  const cRamp = nearest((RAMP_TAU_PER_PERIOD * period) / rRamp, "E12");
+  const cRamp = nearest((tauPerPeriod * period) / rRamp, "E12");
   const nomCore = req.coreAt(req.vNom_V, NOMINAL_TEMP_C)[0];
   if (nomCore === undefined) throw new EngineMisuseError("sizeRamp: coreAt gave no core");
   const vMinSupply = Math.min(...req.supplies);
@@ -492,12 +508,14 @@ function refusalsOf(
         `the divider's ends reach ${(100 * w.d0.hi).toFixed(1)} % … ${(100 * w.d1.lo).toFixed(1)} % at the worst ` +
         `corner, short of ${(100 * want.lo).toFixed(1)} % … ${(100 * want.hi).toFixed(1)} %`,
     });
-  if (w.vebRev_V >= req.dev.pair.vebo_V)
+  const vebAllowed = req.dev.pair.vebo_V * req.vebFactor;
+  if (w.vebRev_V > vebAllowed)
     out.push({
       rule: "ramp-pair-reverse",
       message:
-        `the pair's off transistor sees ${w.vebRev_V.toFixed(2)} V base–emitter reverse, at or above its ` +
-        `V_EBO ${req.dev.pair.vebo_V} V: a longer ramp time constant (smaller ramp) keeps it lower`,
+        `the pair's off transistor sees ${w.vebRev_V.toFixed(2)} V base–emitter reverse, above ` +
+        `${vebAllowed.toFixed(2)} V (V_EBO ${req.dev.pair.vebo_V} V × ${req.vebFactor}) even with the longest ramp ` +
+        `time constant tried: a lower core rail or a pair class with a higher V_EBO`,
     });
   if (!(w.overdrive >= 1))
     out.push({
