@@ -336,6 +336,48 @@ export const SOURCES = {
       },
     ],
   },
+  "millman-taub-1965-rc-lowpass": {
+    kind: "textbook",
+    short: "Millman & Taub 1965, ch. 2",
+    title: "J. Millman, H. Taub, Pulse, Digital and Switching Waveforms (McGraw-Hill)",
+    edition: "1965",
+    where: "chapter 2 (linear wave shaping: the low-pass RC circuit with a square-wave input)",
+    sureness: "from-memory",
+    confidence: "from-memory",
+    note:
+      "In steady state a low-pass RC fed a square wave rises and falls along exponential segments between " +
+      "two levels that repeat each period; for a symmetric square wave of swing V and period T they lie at " +
+      "the mean ± (V/2)·tanh(T/(4·RC)), a near-triangle when RC ≫ T/2.",
+    values: [
+      { item: "steady-state extremes", value: "V_mean ± (V/2)·tanh(T/(4·RC))", sureness: "from-memory" },
+      {
+        item: "unequal segments and time constants",
+        value: "V_max = (V_H(1 − a) + a(1 − b)V_L)/(1 − ab), a = e^(−t_H/τ_H), b = e^(−t_L/τ_L)",
+        sureness: "derived",
+      },
+    ],
+  },
+  "horowitz-hill-3e-differential-pair": {
+    kind: "textbook",
+    short: "Horowitz & Hill 3rd ed., differential amplifier",
+    title: "P. Horowitz, W. Hill, The Art of Electronics (Cambridge University Press)",
+    edition: "3rd edition (2015)",
+    where: "chapter 2, the differential (long-tailed pair) amplifier (section number from memory)",
+    sureness: "from-memory",
+    confidence: "from-memory",
+    note:
+      "Two transistors with joined emitters and a common tail share its current by the junction law, " +
+      "I_C1/I_C2 = e^(ΔV/V_T); a few V_T of input difference steers the whole tail to one side, which makes " +
+      "the pair a comparator. Its input offset is the two transistors' V_BE difference at equal current.",
+    values: [
+      { item: "current split", value: "I_C1/I_C2 = e^(ΔV_BE/V_T)", sureness: "from-memory" },
+      {
+        item: "V_BE difference of unmatched transistors of one type",
+        value: "up to ≈ 25 mV (a few mV within a batch)",
+        sureness: "from-memory",
+      },
+    ],
+  },
   "millman-halkias-1972": {
     kind: "textbook",
     short: "Millman & Halkias 1972",

@@ -12,6 +12,7 @@
  * τ_c = (R_C ∥ R_load)·C the collector's recovery constant over the time t it was off (derived).
  * Pure functions; nothing rounded.
  */
+import { segmentTime_s } from "../shared/rc-ramp.ts";
 import { offTime_s } from "./cross-bleed.ts";
 import { junctionTailCurrent_A } from "./core-levels.ts";
 
@@ -60,7 +61,7 @@ export function collectorThevenin(vcc_V: number, rC_ohm: number, load?: Collecto
 export function thresholdDelay_s(tau_s: number, vHigh_V: number, vSat_V: number, vTh_V: number): number | null {
   if (vTh_V >= vHigh_V) return null;
   if (vTh_V <= vSat_V) return 0;
-  return tau_s * Math.log((vHigh_V - vSat_V) / (vHigh_V - vTh_V));
+  return segmentTime_s(tau_s, vSat_V, vHigh_V, vTh_V);
 }
 
 /**

@@ -1,0 +1,282 @@
+/**
+ * The ramp-and-comparator duty stage (src/engine/stages/ramp-duty.ts) against hand arithmetic and
+ * against a real SPICE engine (native ngspice).
+ */
+import { spawnSync } from "node:child_process";
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { describe, expect, it } from "vitest";
+import { rcRampExtremes, segmentTime_s } from "../../../src/engine/shared/rc-ramp.ts";
+import { pairSteer_V } from "../../../src/engine/shared/diff-pair.ts";
+import { VT_NOMINAL_V } from "../../../src/engine/shared/temperature.ts";
+import {
+  RAMP_NOMINAL,
+  evalRamp,
+  rampCorners,
+  rampWorst,
+  sizeRamp,
+  wiperThevenin,
+} from "../../../src/engine/stages/ramp-duty.ts";
+import type { RampCore, RampValues } from "../../../src/engine/stages/ramp-duty.ts";
+import { spiceModel } from "../../../src/render/spice-models.ts";
+import type { DeviceClass } from "../../../src/model/device.ts";
+import { HAND_CORE, device, handCore, handCores } from "./ramp-fixture.ts";
+import { NGSPICE, hasNgspice } from "../../render/ngspice.ts";
+
+const pair = device("npn-small-signal");
+const out = device("pnp-small-signal");
+const dev = { pair, out };
+const NOM = { t_C: 25, ...RAMP_NOMINAL };
+/** The default derating policy's transistor voltage factor (designs/policies/default.json). */
+const BJT_VOLTAGE_FACTOR = (
+  JSON.parse(readFileSync(new URL("../../../designs/policies/default.json", import.meta.url), "utf8")) as {
+    bjt: { voltage: { factor: number } };
+  }
+).bjt.voltage.factor;
+
+describe("the RC ramp on a square wave [src:millman-taub-1965-rc-lowpass]", () => {
+  it("symmetric drive: the mean ± half the swing × tanh(T/(4τ)) (Millman & Taub 1965, ch. 2, from memory)", () => {
+    // 0 V / 12 V, τ = 1 ms, T = 1 ms: tanh(0.25) = 0.244919, 6 × 0.244919 = 1.469512 V.
+    const r = rcRampExtremes({ vHigh_V: 12, tauHigh_s: 1e-3, tHigh_s: 5e-4, vLow_V: 0, tauLow_s: 1e-3, tLow_s: 5e-4 });
+    expect(r.max_V).toBeCloseTo(7.469512, 5);
+    expect(r.min_V).toBeCloseTo(4.530488, 5);
+  });
+  it("unequal segments: each end level is the other segment's exponential start (hand arithmetic)", () => {
+    // a = e^(−0.2/1) = 0.818731, b = e^(−0.6/2) = 0.740818; 1 − ab = 0.393469;
+    // V_max = (10·0.181269 + 0.818731·0.259182·2)/0.393469 = (1.812692 + 0.424400)/0.393469 = 5.685558 V;
+    // V_min = (2·0.259182 + 0.740818·0.181269·10)/0.393469 = (0.518364 + 1.342876)/0.393469 = 4.730328 V.
+    const r = rcRampExtremes({ vHigh_V: 10, tauHigh_s: 1, tHigh_s: 0.2, vLow_V: 2, tauLow_s: 2, tLow_s: 0.6 });
+    expect(r.max_V).toBeCloseTo(5.685558, 5);
+    expect(r.min_V).toBeCloseTo(4.730328, 5);
+  });
+  it("a segment reaches halfway in τ·ln 2 and never passes its asymptote", () => {
+    expect(segmentTime_s(1e-3, 0, 10, 5)).toBeCloseTo(1e-3 * Math.LN2, 12);
+    expect(segmentTime_s(1e-3, 10, 0, 5)).toBeCloseTo(1e-3 * Math.LN2, 12);
+    expect(segmentTime_s(1e-3, 0, 10, 11)).toBeNull();
+    expect(segmentTime_s(1e-3, 5, 10, 4)).toBeNull();
+  });
+});
+
+describe("the emitter-coupled pair's split [src:horowitz-hill-3e-differential-pair]", () => {
+  // Horowitz & Hill 3rd ed., ch. 2, the differential amplifier (from memory).
+  it("I_C1/I_C2 = e^(ΔV/V_T): equal at 0, 1/(1 + e) of the tail one V_T below", () => {
+    expect(pairSteer_V(0.5, VT_NOMINAL_V)).toBe(0);
+    expect(pairSteer_V(1 / (1 + Math.E), VT_NOMINAL_V)).toBeCloseTo(-VT_NOMINAL_V, 12);
+    expect(() => pairSteer_V(1, VT_NOMINAL_V)).toThrow(/strictly within/);
+  });
+});
+
+/** A symmetric ideal case: equal segments and time constants, no hysteresis, the pair split evenly. */
+function symmetricCase(ctrl: number): { v: RampValues; core: RampCore } {
+  const core: RampCore = {
+    tHigh_s: 1e-4,
+    tLow_s: 1e-4,
+    vSrcHigh_V: 12,
+    rSrcHigh_ohm: 1e-9,
+    vSat_V: 0,
+    cT_F: 0,
+    rail_V: 12,
+  };
+  const base: RampValues = {
+    rRamp_ohm: 10_000,
+    cRamp_F: 2e-8,
+    rHi_ohm: 10_000,
+    pot_ohm: 10_000,
+    rLo_ohm: 10_000,
+    rHys_ohm: 1e15,
+    rTail_ohm: 10_000,
+    rCmp_ohm: 1,
+    rOut_ohm: 2200,
+    potReversed: false,
+  };
+  // R_CMP such that the PNP's V_BE is reached at exactly half the tail at this wiper level.
+  const u = wiperThevenin(base, { ...NOM }, 12, ctrl).v_V;
+  const tail = (u - 0.65) / base.rTail_ohm;
+  return { v: { ...base, rCmp_ohm: 0.65 / (0.5 * tail) }, core };
+}
+
+describe("duty at a control position, from the ramp's exponential segments", () => {
+  it("wiper at the ramp's middle: half the period, plus the PNP's storage (symmetry, hand)", () => {
+    // Divider 10k + 10k pot + 10k: ctrl 0.5 puts the wiper at 6 V, the ramp's mean by symmetry.
+    const { v, core } = symmetricCase(0.5);
+    const e = evalRamp(v, core, dev, NOM, 0.5, { inverting: false, tapLoad_A: 0 });
+    expect((e.rampMin_V + e.rampMax_V) / 2).toBeCloseTo(6, 9);
+    expect(e.tapDuty - e.store_s / e.period_s).toBeCloseTo(0.5, 6);
+  });
+  it("wiper at 5.5 V: the time the ramp spends below it (hand arithmetic)", () => {
+    // τ = 200 µs, T/2 = 100 µs: extremes 6 ± 6·tanh(0.25) = 4.530488 … 7.469512 V.
+    // Falling towards 0 from 7.469512 V: 5.5 V after 200µs·ln(7.469512/5.5) = 61.216 µs, so 38.784 µs of
+    // the low segment remain below; rising towards 12 V from 4.530488 V: 5.5 V after
+    // 200µs·ln(7.469512/6.5) = 27.805 µs. Below for 66.589 µs of 200 µs: 0.332946.
+    const { v, core } = symmetricCase(0.5);
+    // 10k + 10k pot + 10k at ctrl 0.375: bottom 13.75 kΩ, top 16.25 kΩ → 12·13.75/30 = 5.5 V.
+    const ctrl = 0.375;
+    const { v: v2 } = symmetricCase(ctrl);
+    const e = evalRamp({ ...v, rCmp_ohm: v2.rCmp_ohm }, core, dev, NOM, ctrl, { inverting: false, tapLoad_A: 0 });
+    expect(wiperThevenin(v, NOM, 12, ctrl).v_V).toBeCloseTo(5.5, 9);
+    expect(e.tapDuty - e.store_s / e.period_s).toBeCloseTo(0.332946, 5);
+    // The inverting chain sees the complement.
+    const inv = evalRamp({ ...v, rCmp_ohm: v2.rCmp_ohm }, core, dev, NOM, ctrl, { inverting: true, tapLoad_A: 0 });
+    expect(inv.duty).toBeCloseTo(1 - e.tapDuty, 12);
+  });
+  it("a wiper beyond the ramp stops the tap: low below it, high above it", () => {
+    const { v, core } = symmetricCase(0.5);
+    const lo = evalRamp({ ...v, rLo_ohm: 1000, rHi_ohm: 30_000 }, core, dev, NOM, 0, {
+      inverting: false,
+      tapLoad_A: 0,
+    });
+    expect(lo.stuck).toBe("low");
+    expect(lo.duty).toBe(0);
+    const hi = evalRamp({ ...v, rLo_ohm: 30_000, rHi_ohm: 1000 }, core, dev, NOM, 1, {
+      inverting: false,
+      tapLoad_A: 0,
+    });
+    expect(hi.stuck).toBe("high");
+    expect(hi.duty).toBe(1);
+  });
+});
+
+const REQUEST = {
+  f_Hz: 1 / 219e-6,
+  supplies: [10.5, 14.7],
+  vNom_V: 12,
+  tMin_C: -10,
+  tMax_C: 50,
+  dutyMin: 0.05,
+  dutyMax: 0.95,
+  beyondEnds: false,
+  inverting: false,
+  rTol: 0.01,
+  potTol: 0.2,
+  cTol: 0.05,
+  rC_ohm: HAND_CORE.rC_ohm,
+  rOut_ohm: 2200,
+  tapLoad_A: 0,
+  dev,
+  coreAt: (vcc_V: number, t_C: number) => handCores(pair, vcc_V, t_C, 10_000),
+  vebFactor: BJT_VOLTAGE_FACTOR,
+};
+
+describe("sizing: a 12 V lead-acid core at ≈ 4.5 kHz asked 5–95 % (demo numbers)", () => {
+  const s = sizeRamp(REQUEST);
+  it("reaches both ends at every corner with the PNP saturated and the pair's reverse V_BE below V_EBO", () => {
+    expect(s.refusals).toEqual([]);
+    expect(s.found).toBe(true);
+    expect(s.worst.d0.hi).toBeLessThanOrEqual(0.05);
+    expect(s.worst.d1.lo).toBeGreaterThanOrEqual(0.95);
+    expect(s.worst.overdrive).toBeGreaterThanOrEqual(1);
+    expect(s.worst.vebRev_V).toBeLessThanOrEqual(pair.vebo_V * BJT_VOLTAGE_FACTOR);
+  });
+  it("the worst case it reports is the brute force over every corner (the search's few corners only guide it)", () => {
+    const all = rampCorners(REQUEST.tMin_C, REQUEST.tMax_C, REQUEST.rTol, REQUEST.potTol, REQUEST.cTol);
+    const brute = rampWorst(s.values, dev, REQUEST.supplies, all, REQUEST.coreAt, REQUEST);
+    expect(s.worst).toEqual(brute);
+  });
+  it("the duty at a control position hardly moves with the supply (both ends ratiometric)", () => {
+    const d = (vcc: number) =>
+      evalRamp(s.values, handCore(pair, vcc, 25, s.values.rRamp_ohm), dev, NOM, 0.5, REQUEST).duty;
+    // Measured in native ngspice on this design: 55.3 % at 12 V and 57.2 % at 14.7 V (hot); a wiper held at a
+    // fixed voltage instead would move the switching levels by the ramp's whole shift (≈ 1.2 V of a 1.9 V span).
+    expect(Math.abs(d(10.5) - d(14.7))).toBeLessThan(0.03);
+  });
+  it("an inverting chain gets the pot reversed, so control 0 is still its least duty", () => {
+    const inv = sizeRamp({ ...REQUEST, inverting: true });
+    expect(inv.values.potReversed).toBe(true);
+    expect(inv.worst.d0.hi).toBeLessThanOrEqual(0.05);
+    expect(inv.worst.d1.lo).toBeGreaterThanOrEqual(0.95);
+  });
+  it("asked for a true off and on, both ends pass beyond the ramp at every corner", () => {
+    const ends = sizeRamp({ ...REQUEST, beyondEnds: true });
+    expect(ends.found).toBe(true);
+    expect(ends.worst.d0.hi).toBe(0);
+    expect(ends.worst.d1.lo).toBe(1);
+  });
+  it("a too-weak comparator for a heavy tap is refused, naming the PNP's drive", () => {
+    const weak = sizeRamp({ ...REQUEST, rOut_ohm: 22, tapLoad_A: 0.2 });
+    expect(weak.found).toBe(false);
+    expect(weak.refusals.map((r) => r.rule)).toContain("ramp-output-drive");
+  });
+
+  it.skipIf(!hasNgspice)(
+    "native ngspice runs the sized stage on the hand core within 2 % duty and 5 % frequency",
+    () => {
+      const v = s.values;
+      const ctrls = [0, 0.2, 0.3, 0.5, 0.7, 0.8, 1];
+      const card = (d: DeviceClass, ic_A: number) => spiceModel(d, { gain: "typ", ic_A });
+      const diode = JSON.parse(
+        readFileSync(new URL("../../../designs/devices/diode-signal.json", import.meta.url), "utf8"),
+      ) as DeviceClass;
+      const deck = [
+        "* ramp-and-comparator duty stage on the hand core (test only)",
+        ".param ctrl=0.5",
+        "VCC vcc 0 12",
+        `RCA vcc ca ${HAND_CORE.rC_ohm}`,
+        `RCB vcc cb ${HAND_CORE.rC_ohm}`,
+        `RBA vcc ba ${HAND_CORE.rB_ohm}`,
+        `RBB vcc bb ${HAND_CORE.rB_ohm}`,
+        `CA ca bb ${HAND_CORE.c_F}`,
+        `CB cb ba ${HAND_CORE.c_F}`,
+        "DA ba bqa DIODE_SIGNAL",
+        "DB bb bqb DIODE_SIGNAL",
+        "QA ca bqa 0 NPN_SMALL_SIGNAL",
+        "QB cb bqb 0 NPN_SMALL_SIGNAL",
+        `RRA ca ramp ${v.rRamp_ohm}`,
+        `CRA ramp 0 ${v.cRamp_F}`,
+        `RRB cb rbal ${v.rRamp_ohm}`,
+        `CRB rbal 0 ${v.cRamp_F}`,
+        `RHI vcc pt ${v.rHi_ohm}`,
+        `RVA pt vset {max(1e-3, ${v.pot_ohm}*(1-ctrl))}`,
+        `RVB vset pl {max(1e-3, ${v.pot_ohm}*ctrl)}`,
+        `RLO pl 0 ${v.rLo_ohm}`,
+        `RHYS tap vset ${v.rHys_ohm}`,
+        "QCA vcc ramp em NPN_SMALL_SIGNAL",
+        "QCB cmp vset em NPN_SMALL_SIGNAL",
+        `RTAIL em 0 ${v.rTail_ohm}`,
+        `RCMP vcc cmp ${v.rCmp_ohm}`,
+        "QOUT tap cmp vcc PNP_SMALL_SIGNAL",
+        `ROUT tap 0 ${v.rOut_ohm}`,
+        "BD dd 0 V=u(v(tap)-6)",
+        card(pair, 0.002),
+        card(out, 0.005),
+        card(diode, 0.001),
+        ".ic v(bqa)=0 v(ba)=-5",
+        ".temp 25",
+        ".control",
+        `foreach c ${ctrls.join(" ")}`,
+        "  alterparam ctrl = $c",
+        "  reset",
+        "  tran 0.1u 8m 4m",
+        "  meas tran t1 when v(ca)=6 rise=2",
+        "  meas tran t2 when v(ca)=6 rise=12",
+        "  meas tran duty avg v(dd) from=t1 to=t2",
+        "  let per = (t2-t1)/10",
+        '  echo "RES $c $&per $&duty"',
+        "end",
+        ".endc",
+        ".end",
+      ].join("\n");
+      const dir = mkdtempSync(join(tmpdir(), "pw-ramp-"));
+      let text: string;
+      try {
+        writeFileSync(join(dir, "in.cir"), `${deck}\n`);
+        text = spawnSync(NGSPICE, ["-b", join(dir, "in.cir")], { encoding: "utf8", timeout: 120_000 }).stdout;
+      } finally {
+        rmSync(dir, { recursive: true, force: true });
+      }
+      const rows = text.split("\n").filter((l) => l.startsWith("RES "));
+      expect(rows.length, text).toBe(ctrls.length);
+      const core = handCore(pair, 12, 25, v.rRamp_ohm);
+      for (const row of rows) {
+        const [, c, per, duty] = row.split(" ").map(Number) as [number, number, number, number];
+        const e = evalRamp(v, core, dev, NOM, c, REQUEST);
+        expect(Math.abs(duty - e.duty), `ctrl ${c}: simulated ${duty}, predicted ${e.duty}`).toBeLessThan(0.02);
+        expect(Math.abs(1 / per / (1 / e.period_s) - 1), `ctrl ${c}`).toBeLessThan(0.05);
+      }
+      // The ends pass beyond the ramp: no pulses at control 0, always on at control 1.
+      expect(rows[0]!.split(" ")[3]).toBe("0");
+      expect(rows.at(-1)!.split(" ")[3]).toBe("1");
+    },
+    180_000,
+  );
+});
