@@ -89,7 +89,11 @@ export function simDeck(netlist: string, o: DeckOptions): string {
   const plain = setCtrl(simBody(netlist), o.ctrl);
   const body = o.state === undefined ? plain : plain.replace(/^\s*\.ic\b.*\n?/gim, "");
   const extra = [
-    `.options method=gear${o.options ? ` ${o.options}` : ""}`,
+    // Gear integration unless the options name a method (a retry level may: runs.ts RETRY5_OPTIONS);
+    // within one `.options` line the engines keep the first `method=`, so it is given once.
+    /\bmethod=/.test(o.options ?? "")
+      ? `.options ${o.options}`
+      : `.options method=gear${o.options ? ` ${o.options}` : ""}`,
     `.tran ${o.tMax_s} ${o.tStop_s} 0 ${o.tMax_s}`,
   ];
   if (o.state === undefined && !/^\s*\.ic\b/im.test(body))

@@ -167,7 +167,7 @@ function collect(
     put(
       "solver_retry_level",
       "Highest solver retry used (1 junction conductance, 2 stiff-circuit settings, 3 small step alone, " +
-        "4 larger junction conductance)",
+        "4 larger junction conductance, 5 trapezoidal integration)",
       "",
       level,
     );

@@ -145,7 +145,7 @@ export interface Run {
   retried: boolean;
   /**
    * Which retry ran it through: 1 junction conductance, 2 stiff-circuit settings, 3 small step, 4 larger
-   * junction conductance (absent: none).
+   * junction conductance, 5 trapezoidal integration (absent: none).
    */
   retryLevel?: number;
   /** MOSFET power switch with an inductive load: its gate, whose vectors were saved (gate.ts). */
@@ -315,7 +315,11 @@ export function presetsLoad(target: VerifyTarget, ctrl: number, plan: RunPlan): 
  * ambient maximum at 41 °C (24 V, 0.25 A, logic-level MOSFET, cross-returned core) stopped at
  * 0.26–2.6 ns at levels 0–3 in its fast corner at control 1, the load node preset while the gate sat
  * fully on, and in native ngspice too at levels 0, 1 and 3 (ngspice names the motor's back-EMF
- * branch); at 1e-9 S both engines run it through, and its verification agrees (2026-12-04). A
+ * branch); at 1e-9 S both engines run it through, and its verification agrees (2026-12-04). Level 5,
+ * at the plan's own step: trapezoidal integration instead of gear, with the published tolerances. The
+ * same variant with the ambient maximum at 37 °C stopped at levels 0–4 (gmin 1e-9 no longer enough);
+ * trapezoidal integration ran it through in both engines. Trapezoidal integration can ring at a hard
+ * edge, so it is the last resort, and the run says it needed it (`solver_retry_level` 5). A
  * retry whose settings an attempt already had is skipped (the engines are deterministic). A run that
  * stops at every level fails the variant, naming each attempt: a failure that persists is never hidden.
  */
@@ -323,6 +327,7 @@ export const RETRY_OPTIONS = "abstol=1e-9 vntol=1e-5 gmin=1e-10";
 export const RETRY2_OPTIONS = "abstol=1e-9 vntol=1e-5 maxord=2 gmin=1e-10 rshunt=1e12";
 export const RETRY3_OPTIONS = "abstol=1e-9 vntol=1e-5";
 export const RETRY4_OPTIONS = "abstol=1e-9 vntol=1e-5 gmin=1e-9";
+export const RETRY5_OPTIONS = "method=trap abstol=1e-9 vntol=1e-5";
 export const RETRY2_STEP_SHARE = 0.1;
 
 /** The solver options a netlist carries in its own `.options` lines, as single settings. */
@@ -458,6 +463,7 @@ export async function runAt(
     [RETRY2_OPTIONS, RETRY2_STEP_SHARE * tMax_s],
     [RETRY3_OPTIONS, RETRY2_STEP_SHARE * tMax_s],
     [RETRY4_OPTIONS, tMax_s],
+    [RETRY5_OPTIONS, tMax_s],
   ];
   // The engines are deterministic (docs/verification.md, "Determinism"): a retry whose solver
   // settings are those of an attempt already made stops where that one stopped, so it is skipped.

@@ -151,9 +151,9 @@ describe("a transient that stops early", () => {
   it("fails with every attempt named when every retry level stops too", async () => {
     const e = fakeEngine(() => 0.5);
     await expect(runAt(target({ inductive: false, loadTau_s: 0 }), NETLIST, e, 1)).rejects.toThrow(
-      /stopped early at ctrl = 1 .*: at .* s, at .* with abstol=1e-9 vntol=1e-5 gmin=1e-10, at .* with .*maxord=2.* and step .*, at .* with abstol=1e-9 vntol=1e-5 and step .*, at .* with abstol=1e-9 vntol=1e-5 gmin=1e-9$/,
+      /stopped early at ctrl = 1 .*: at .* s, at .* with abstol=1e-9 vntol=1e-5 gmin=1e-10, at .* with .*maxord=2.* and step .*, at .* with abstol=1e-9 vntol=1e-5 and step .*, at .* with abstol=1e-9 vntol=1e-5 gmin=1e-9, at .* with method=trap abstol=1e-9 vntol=1e-5$/,
     );
-    expect(e.decks).toHaveLength(5);
+    expect(e.decks).toHaveLength(6);
   });
   it("level 4: ten times the junction conductance, at the plan's own step, after the small step", async () => {
     const e = fakeEngine((d) => (d.includes(RETRY4_OPTIONS) ? 1 : 0.3));
@@ -162,6 +162,13 @@ describe("a transient that stops early", () => {
     const step = (d: string): number => Number(/^\.tran (\S+)/m.exec(d)![1]);
     expect(step(e.decks[4]!)).toBe(step(e.decks[0]!));
     expect(e.decks[4]).toMatch(/^\.options method=gear abstol=1e-9 vntol=1e-5 gmin=1e-9$/m);
+  });
+  it("level 5: trapezoidal integration, the method given once in the line (the engines keep the first)", async () => {
+    const e = fakeEngine((d) => (d.includes("method=trap") ? 1 : 0.3));
+    const run = await runAt(target({ inductive: false, loadTau_s: 0 }), NETLIST, e, 0.5);
+    expect([run.retried, run.retryLevel, e.decks.length]).toEqual([true, 5, 6]);
+    expect(e.decks[5]).toMatch(/^\.options method=trap abstol=1e-9 vntol=1e-5$/m);
+    expect(e.decks[5]).not.toMatch(/method=gear/);
   });
   it("skips a retry whose settings the netlist's `.options` already carry (it stops where it stopped)", async () => {
     const e = fakeEngine((d) => (d.includes("maxord=2") ? 1 : 0.8));
