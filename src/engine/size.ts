@@ -260,6 +260,10 @@ export function coreAttempts(
 ): { tap: TapDesign; timing: TimingResult; rcLowered?: RcLowered; follower?: FollowerChosen } {
   const plain = plainTapAndTiming(ctx, plan);
   if (plain.timing.search.passed) return plain;
+  // Not with a solenoid's pull-in timer (docs/method.md, "Follower core"): its slow release let a
+  // follower core come on with both transistors saturated and stay so, the coil fully on for good
+  // (24 V driven-MOSFET valves, 0–39 °C; native ngspice and the embedded engine alike).
+  if (ctx.spec.load_kind === "solenoid") return plain;
   // The follower core (docs/method.md, "Follower core"), only where the plain one does not pass:
   // the chain on the follower's emitter where its input allows it, else on the collector.
   // Read only when a follower core is kept: the plain attempt's problems are made when first read.
