@@ -482,7 +482,7 @@ class MonotoneJudge {
     private readonly limit: number,
   ) {}
 
-  /** +1: (a, b) passes whenever (a0, b0) does (it is at least as easy); −1 the reverse; 0 neither. */
+  /** Whether the pair (a, b) is at least as easy to pass as (a0, b0): it passes whenever that one does. */
   private easier(a: number, b: number, a0: number, b0: number): boolean {
     // Upper limit: smaller A and larger B lower the duty. Lower limit: larger A and smaller B raise it.
     return this.sign > 0 ? a <= a0 && b >= b0 : a >= a0 && b <= b0;
