@@ -1,36 +1,69 @@
 /**
- * The timing core's evaluations kept for the length of one variant's sizing (size.ts sizeVariant):
- * the value search, its worst case, the Miller re-check and the simulation corners ask again and again
- * for the same core at the same corner and control position (the simulation corners are picked from
- * the very sets the worst case has just swept; a refined end stop often lands on a pair already
- * judged). evalCore is a pure function of the values, the two device classes, the corner and the
- * control position, so an answer kept under those inputs is the answer computed afresh.
+ * The timing core's evaluations kept while variants are sized (size.ts sizeVariant): the value search,
+ * its worst case, the Miller re-check and the simulation corners ask again and again for the same core
+ * at the same corner and control position (the simulation corners are picked from the very sets the
+ * worst case has just swept; a refined end stop often lands on a pair already judged), and the variants
+ * of one record that share the core's inputs (the same supply window, frequency, duty range, ambient
+ * range and tap: a chain whose input need does not change with the load current) ask for the very same
+ * cores. evalCore is a pure function of the values, the two device classes, the corner and the control
+ * position, so an answer kept under those inputs is the answer computed afresh.
  *
  * The key is the CONTENT of the values (every own property, nested loads and followers included,
  * numbers written exactly), so two objects that read alike share their answers and two that differ
- * anywhere never do; the device classes are keyed by identity (a variant's classes are fixed while it
- * is sized); corners are kept only when frozen (the worst case's shared sets: a frozen object cannot
- * change, so its content is read once). The content of a values object is read once per object: the search
- * makes a new object for every change (never writes into one it handed on), and the kept answers end
- * with the scope, so nothing outlives the variant or grows with the catalogue.
+ * anywhere never do; the device classes are keyed by identity (a project's classes are not changed
+ * once loaded: shared/diode.ts keeps each class's junction law by identity too, and a class that
+ * differs is another object); corners are kept only when frozen (the worst case's shared sets: a frozen
+ * object cannot change, so its content is read once). The content of a values object is read once per
+ * object: the search makes a new object for every change (never writes into one it handed on).
+ *
+ * Answers are kept only inside a scope (`within`: one variant's sizing), but the store outlives it,
+ * bounded: two generations of at most KEPT_PER_GENERATION answers each; when the newer one is full it
+ * becomes the older and the oldest answers go (an answer found in the older generation moves to the
+ * newer). So the answers a record's next variant asks for again are still there, and the memory stays
+ * flat however large the catalogue.
  */
 import type { BjtClass, DiodeClass } from "../../model/device.ts";
 import type { Corner } from "../../model/corners.ts";
 
-/** One scope's entries. */
+/**
+ * Answers kept in one generation of the store, at most: enough for the next several variants of a record
+ * (≈ 1,000 answers each); the demo sized twice keeps ≈ 9 MB more heap than with one variant's answers only.
+ */
+export const KEPT_PER_GENERATION = 10_000;
+
+/** The answers for one content (values with their classes), in the generation that holds them. */
+interface Kept<R> {
+  readonly answers: Map<number, R>;
+  /** The generation that holds them (Store.generation when made or last moved up). */
+  generation: number;
+}
+
+/** The kept answers: two generations, the newer filled first (see the module's comment). */
+interface Store<R> {
+  /** Content text of values with their classes → the answers kept for them (newer generation). */
+  newer: Map<string, Kept<R>>;
+  older: Map<string, Kept<R>>;
+  generation: number;
+  /** Answers in the newer generation. */
+  count: number;
+  /**
+   * Values object → its classes and its content text (read once per object). The text, not the entry:
+   * an object kept alive elsewhere (a kept search's values) holds no answers past their generation.
+   */
+  byObject: WeakMap<object, { q: BjtClass; db: DiodeClass; text: string }>;
+}
+
+/** Device class → small id, for the values' text (a class is not changed once loaded; see above). */
+const CLASS_IDS = new WeakMap<object, number>();
+let classCount = 0;
+
+/** One scope's fast path. */
 interface Scope<R> {
-  /** Content text of values with their classes → the answers kept for them. */
-  readonly byText: Map<string, Map<number, R>>;
-  /** Values object → its classes and the answers for its content (its text read once per object). */
-  readonly byObject: WeakMap<object, { q: BjtClass; db: DiodeClass; kept: Map<number, R> }>;
-  /** Device class → small id, for the values' text (a variant's classes are fixed while it is sized). */
-  readonly classIds: WeakMap<object, number>;
-  classes: number;
   /** The values and classes asked about last, and their answers (a sweep asks for one values object many times). */
   lastV: object | undefined;
   lastQ: BjtClass | undefined;
   lastDb: DiodeClass | undefined;
-  lastKept: Map<number, R> | undefined;
+  lastKept: Kept<R> | undefined;
 }
 
 /**
@@ -102,34 +135,52 @@ function ctrlIndex(ctrl: number): number {
 }
 
 /**
- * A memo of `f(v, q, db, k, ctrl)` for one scope at a time. Outside a scope `call` is `f` itself.
+ * A memo of `f(v, q, db, k, ctrl)`: kept answers are read and made inside a scope only. Outside a
+ * scope `call` is `f` itself.
  */
 export class CoreMemo<V extends object, R> {
   private scope: Scope<R> | undefined;
+  private readonly store: Store<R> = {
+    newer: new Map(),
+    older: new Map(),
+    generation: 0,
+    count: 0,
+    byObject: new WeakMap(),
+  };
 
-  constructor(private readonly f: (v: V, q: BjtClass, db: DiodeClass, k: Corner, ctrl: number) => R) {}
+  constructor(
+    private readonly f: (v: V, q: BjtClass, db: DiodeClass, k: Corner, ctrl: number) => R,
+    /** Answers per generation (the tests use a small one). */
+    private readonly perGeneration: number = KEPT_PER_GENERATION,
+  ) {}
 
   /**
-   * Runs `body` with the answers kept until it returns (or throws). A scope opened inside another
-   * shares the outer one's entries (the answers are the same either way).
+   * Runs `body` with the answers kept (see the module's comment) read and made until it returns (or
+   * throws). A scope opened inside another is the outer one (the answers are the same either way).
    */
   within<T>(body: () => T): T {
     if (this.scope !== undefined) return body();
-    this.scope = {
-      byText: new Map(),
-      byObject: new WeakMap(),
-      classIds: new WeakMap(),
-      classes: 0,
-      lastV: undefined,
-      lastQ: undefined,
-      lastDb: undefined,
-      lastKept: undefined,
-    };
+    this.scope = { lastV: undefined, lastQ: undefined, lastDb: undefined, lastKept: undefined };
     try {
       return body();
     } finally {
       this.scope = undefined;
     }
+  }
+
+  /** Whether a scope is open (answers are kept and read). */
+  get active(): boolean {
+    return this.scope !== undefined;
+  }
+
+  /** Forgets every kept answer (the tests; a caller that wants the first-time cost). */
+  clear(): void {
+    const st = this.store;
+    st.newer = new Map();
+    st.older = new Map();
+    st.generation += 2;
+    st.count = 0;
+    st.byObject = new WeakMap();
   }
 
   /**
@@ -142,39 +193,70 @@ export class CoreMemo<V extends object, R> {
     const ci = ctrlIndex(ctrl);
     if (s === undefined || ci < 0 || !Object.isFrozen(k)) return this.f(v, q, db, k, ctrl);
     const kid = cornerId(k);
-    const kept = keptFor(s, v, q, db);
+    const kept = this.keptFor(s, v, q, db);
     const slot = kid * 3 + ci;
-    const hit = kept.get(slot);
+    const hit = kept.answers.get(slot);
     if (hit !== undefined) return hit;
     const r = this.f(v, q, db, k, ctrl);
-    kept.set(slot, r);
+    kept.answers.set(slot, r);
+    if (++this.store.count >= this.perGeneration) this.age();
     return r;
+  }
+
+  /** The newer generation becomes the older; the older one's answers go. */
+  private age(): void {
+    const st = this.store;
+    st.older = st.newer;
+    st.newer = new Map();
+    st.generation++;
+    st.count = 0;
+  }
+
+  /** The answers kept for the content of `v` with these classes (shared by every object that reads alike). */
+  private keptFor(s: Scope<R>, v: object, q: BjtClass, db: DiodeClass): Kept<R> {
+    const st = this.store;
+    const last = s.lastKept;
+    if (v === s.lastV && q === s.lastQ && db === s.lastDb && last !== undefined && last.generation === st.generation)
+      return last;
+    let text: string;
+    const seen = st.byObject.get(v);
+    if (seen !== undefined && seen.q === q && seen.db === db) text = seen.text;
+    else {
+      text = `${classId(q)},${classId(db)},${contentText(v)}`;
+      st.byObject.set(v, { q, db, text });
+    }
+    const kept = this.entry(text);
+    s.lastV = v;
+    s.lastQ = q;
+    s.lastDb = db;
+    s.lastKept = kept;
+    return kept;
+  }
+
+  /**
+   * The entry for a content text: the newer generation's; the older one's, moved into the newer with its
+   * answers; or a new one.
+   */
+  private entry(text: string): Kept<R> {
+    const st = this.store;
+    const n = st.newer.get(text);
+    if (n !== undefined) return n;
+    const o = st.older.get(text);
+    const kept: Kept<R> = o ?? { answers: new Map(), generation: st.generation };
+    if (o !== undefined) {
+      st.older.delete(text);
+      st.count += o.answers.size;
+      o.generation = st.generation;
+    }
+    st.newer.set(text, kept);
+    if (st.count >= this.perGeneration) this.age();
+    return kept;
   }
 }
 
-function classId<R>(s: Scope<R>, c: object): number {
-  let id = s.classIds.get(c);
-  if (id === undefined) s.classIds.set(c, (id = s.classes++));
+/** A device class's small id (by identity: a class is not changed once loaded), for content keys. */
+export function classId(c: object): number {
+  let id = CLASS_IDS.get(c);
+  if (id === undefined) CLASS_IDS.set(c, (id = classCount++));
   return id;
-}
-
-/** The answers kept for the content of `v` with these classes (shared by every object that reads alike). */
-function keptFor<R>(s: Scope<R>, v: object, q: BjtClass, db: DiodeClass): Map<number, R> {
-  if (v === s.lastV && q === s.lastQ && db === s.lastDb) return s.lastKept!;
-  const kept = keptByContent(s, v, q, db);
-  s.lastV = v;
-  s.lastQ = q;
-  s.lastDb = db;
-  s.lastKept = kept;
-  return kept;
-}
-
-function keptByContent<R>(s: Scope<R>, v: object, q: BjtClass, db: DiodeClass): Map<number, R> {
-  const seen = s.byObject.get(v);
-  if (seen !== undefined && seen.q === q && seen.db === db) return seen.kept;
-  const text = `${classId(s, q)},${classId(s, db)},${contentText(v)}`;
-  let kept = s.byText.get(text);
-  if (kept === undefined) s.byText.set(text, (kept = new Map()));
-  s.byObject.set(v, { q, db, kept });
-  return kept;
 }

@@ -273,9 +273,19 @@ export function evalCore(v: CoreValues, q: BjtClass, db: DiodeClass, k: Corner, 
   return CORE_MEMO.call(v, q, db, k, ctrl);
 }
 
-/** Runs `body` (one variant's sizing) with the core's evaluations kept until it returns. */
+/** Runs `body` (one variant's sizing) with the core's evaluations kept (core-memo.ts: read and made only there). */
 export function withCoreMemo<T>(body: () => T): T {
   return CORE_MEMO.within(body);
+}
+
+/** Whether the core's evaluations are being kept (inside withCoreMemo). */
+export function coreMemoActive(): boolean {
+  return CORE_MEMO.active;
+}
+
+/** Forgets the kept evaluations (a bench that wants the first-time cost; the answers are the same either way). */
+export function clearCoreMemo(): void {
+  CORE_MEMO.clear();
 }
 
 /** The core at one corner and control position, computed (its prefix kept for the next corner: prefixOf). */

@@ -16,7 +16,8 @@ import type { BjtClass, DiodeClass } from "../../model/device.ts";
 import { roundDown, roundUp } from "../shared/e-series.ts";
 import { hfeMin, vbeOn, vceSat } from "../shared/gain.ts";
 import { type Ctx, OVERDRIVE_K } from "./context.ts";
-import { type CoreValues, type Corner, NOMINAL_K, diodeVf_V, evalCore } from "./core-model.ts";
+import { type CoreValues, type Corner, NOMINAL_K, coreMemoActive, diodeVf_V, evalCore } from "./core-model.ts";
+import { classId, contentText } from "./core-memo.ts";
 import { diodeCj_F } from "../shared/diode.ts";
 import { INJECTION_MAX, baseInjectionRatio } from "./astable.ts";
 import { bleedFor_ohm } from "./base-bleed.ts";
@@ -24,14 +25,7 @@ import { crossBleedFor_ohm, crossFigures, crossPasses } from "./cross-checks.ts"
 import { crossDrive_A } from "./cross-bleed.ts";
 import { collectorThevenin } from "./astable.ts";
 import { POT_RATINGS_W, RB_MS_FACTOR } from "./timing-parts.ts";
-import {
-  type CornerSets,
-  type Envelope,
-  type WorstCase,
-  dutyWithin,
-  envelopeCorners,
-  worstCaseFast,
-} from "./worst-corners.ts";
+import { type CornerSets, type Envelope, type WorstCase, envelopeCorners, worstCaseFast } from "./worst-corners.ts";
 import { NOMINAL_TEMP_C } from "../shared/temperature.ts";
 
 export type { Range, WorstCase } from "./worst-corners.ts";
@@ -217,7 +211,66 @@ function bled(ctx: Ctx, q: BjtClass, db: DiodeClass, v: CoreValues): CoreValues 
   return bleed === undefined ? rest : { ...rest, bleed_ohm: bleed };
 }
 
+/**
+ * What the search reads of a variant's context, and nothing more: the supply window and nominal, the
+ * ambient range, the tolerances, the frequency, the duty range and the two policy factors of endFloor.
+ * A plain or follower core is searched with this context only, so the search's result is a function of
+ * these, the device classes and the base values (a search that read more would read `undefined` here).
+ */
+function searchContext(ctx: Ctx): Ctx {
+  const { targets, policy } = ctx.spec;
+  return {
+    vNom_V: ctx.vNom_V,
+    vMin_V: ctx.vMin_V,
+    vMax_V: ctx.vMax_V,
+    taMin_C: ctx.taMin_C,
+    taMax_C: ctx.taMax_C,
+    f_Hz: ctx.f_Hz,
+    rTol: ctx.rTol,
+    potTol: ctx.potTol,
+    cTol: ctx.cTol,
+    spec: {
+      targets: { duty_min: targets.duty_min, duty_max: targets.duty_max },
+      policy: {
+        bjt: { current: { factor: policy.bjt.current.factor } },
+        resistor: { power: { factor: policy.resistor.power.factor } },
+      },
+    },
+  } as unknown as Ctx;
+}
+
+/**
+ * Searches kept by the content of their inputs (searchContext, the base values, the device classes by
+ * identity as core-memo.ts keys them): the variants of a record that share the core's inputs (the same
+ * supply window, frequency, duty range, ambient range and tap) ask for the very same search, and a
+ * search is a pure function of them, so the kept result (its lazily read worst case included) is the one
+ * made afresh. Kept only while the core's evaluations are (withCoreMemo, i.e. while variants are sized),
+ * never for a cross-bled core (its limits read the whole variant: cross-checks.ts), bounded like the
+ * corner sets (emptied when full).
+ */
+const KEPT_SEARCHES = new Map<string, Search>();
+const KEPT_SEARCHES_MAX = 4096;
+
+/** Forgets the kept searches (a bench that wants the first-time cost; the results are the same either way). */
+export function clearSearches(): void {
+  KEPT_SEARCHES.clear();
+}
+
 export function searchCore(ctx: Ctx, q: BjtClass, db: DiodeClass, base: Base): Search {
+  if (base.crossBleed === true) return searchFresh(ctx, q, db, base);
+  const sctx = searchContext(ctx);
+  if (!coreMemoActive()) return searchFresh(sctx, q, db, base);
+  const { spec, ...env } = sctx;
+  const key = `${classId(q)},${classId(db)},${contentText({ env, spec, base })}`;
+  const kept = KEPT_SEARCHES.get(key);
+  if (kept !== undefined) return kept;
+  const made = searchFresh(sctx, q, db, base);
+  if (KEPT_SEARCHES.size >= KEPT_SEARCHES_MAX) KEPT_SEARCHES.clear();
+  KEPT_SEARCHES.set(key, made);
+  return made;
+}
+
+function searchFresh(ctx: Ctx, q: BjtClass, db: DiodeClass, base: Base): Search {
   const t = ctx.spec.targets;
   const env = envelopeOf(ctx);
   const nominal: Corner = { vcc_V: ctx.vNom_V, t_C: NOMINAL_TEMP_C, ...NOMINAL_K };
@@ -231,6 +284,9 @@ export function searchCore(ctx: Ctx, q: BjtClass, db: DiodeClass, base: Base): S
       a = endFor(t.duty_min, b, pot, env);
       b = endFor(1 - t.duty_max, a, pot, env);
     }
+    // The floor depends on the pot alone: a pot it rules out is left before any evaluation.
+    const floor = endFloor(ctx, q, base.rC_ohm, pot);
+    if (floor === null) continue;
     const probe: CoreValues = {
       ...base,
       c_F: 1,
@@ -248,8 +304,6 @@ export function searchCore(ctx: Ctx, q: BjtClass, db: DiodeClass, base: Base): S
       a = endFor(t.duty_min - off0, b, pot, env);
       b = endFor(1 - t.duty_max + off1, a, pot, env);
     }
-    const floor = endFloor(ctx, q, base.rC_ohm, pot);
-    if (floor === null) continue;
     const rA = roundUp(Math.max(floor, roundDown(Math.max(a, R_END_MIN_OHM), "E24")), "E24");
     const rB = roundUp(Math.max(floor, roundDown(Math.max(b, R_END_MIN_OHM), "E24")), "E24");
     const unit = bled(ctx, q, db, { ...base, c_F: 1, pot_ohm: pot, rEndA_ohm: rA, rEndB_ohm: rB });
@@ -338,9 +392,18 @@ function lazySearch(
 
 /**
  * Whether the worst case of `v` (worstCaseFast) would pass the search's test: every duty set's threshold
- * reached, dMin.hi ≤ duty_min, dMax.lo ≥ duty_max, recovery ≤ MAX_RECOVERY. Read at the same corners and
- * control positions as worstCaseFast and compared the same way (a NaN fails, as it does there through
- * Math.min/max), but answered at the first corner that fails; the frequency corners do not enter.
+ * reached, dMin.hi ≤ duty_min, dMax.lo ≥ duty_max, recovery ≤ MAX_RECOVERY; answered at the first corner
+ * that fails. Only three of the worst case's sets decide it:
+ *  - dMin.hi and dMax.lo are the extremes of dMinHi and dMaxLo (worst-corners.ts): at every corner of
+ *    dMinLo the duty at control 0 is at most that of the dMinHi corner with the same supply, temperature,
+ *    collector resistors and capacitors (lower R_BA, higher R_BB), so it passes when that one does; dMaxHi
+ *    likewise against dMaxLo, and the control-½ sets do not enter the test but for the threshold;
+ *  - whether the tapped collector reaches the chain's threshold depends on the supply, the temperature
+ *    and that collector's R_C only (its high level: core-model.ts evalFrom; not on the base resistances,
+ *    the capacitors or the control), and dMinHi holds every combination of those: a threshold reached at
+ *    all of its corners is reached at every corner of every set;
+ *  - the recovery corners are read as in worstCaseFast.
+ * A NaN fails, as it does there through Math.min/max. The frequency corners do not enter.
  */
 function mayPass(v: CoreValues, q: BjtClass, db: DiodeClass, sets: CornerSets, dMin: number, dMax: number): boolean {
   const duty = (set: readonly Corner[], ctrl: number, ok: (d: number) => boolean): boolean => {
@@ -350,21 +413,13 @@ function mayPass(v: CoreValues, q: BjtClass, db: DiodeClass, sets: CornerSets, d
     }
     return true;
   };
-  const atMost = (d: number): boolean => d <= dMin;
-  const atLeast = (d: number): boolean => d >= dMax;
-  const any = (): boolean => true;
-  if (!duty(sets.dMinHi, 0, atMost) || !duty(sets.dMaxLo, 1, atLeast)) return false;
+  if (!duty(sets.dMinHi, 0, (d) => d <= dMin) || !duty(sets.dMaxLo, 1, (d) => d >= dMax)) return false;
   for (const k of sets.rec) {
     const a = evalCore(v, q, db, k, 0).timing;
     const b = evalCore(v, q, db, k, 1).timing;
     if (!((5 * a.tauA_s) / a.tAoff_s <= MAX_RECOVERY && (5 * b.tauB_s) / b.tBoff_s <= MAX_RECOVERY)) return false;
   }
-  return (
-    duty(sets.dMinLo, 0, atMost) &&
-    duty(sets.dMaxHi, 1, atLeast) &&
-    duty(sets.dMidHi, 0.5, any) &&
-    duty(sets.dMidLo, 0.5, any)
-  );
+  return true;
 }
 
 /**
@@ -373,6 +428,13 @@ function mayPass(v: CoreValues, q: BjtClass, db: DiodeClass, sets: CornerSets, d
  * control 1 ≥ duty_max). Each side is monotonic in its own resistor (worst-corners.ts), so a
  * walk down until it passes, or up while it still passes, finds it. Limits that tighten as a
  * resistor shrinks (peak current, pot rating, recovery) are re-checked by the caller.
+ *
+ * The walk reads few corners (the same end stops as a walk that judges every step on its whole set):
+ * every corner's duty rises with R_BA and falls with R_BB (worst-corners.ts), so a pair of end stops
+ * judged once settles every pair it dominates (`MonotoneJudge`), and one corner past the limit settles
+ * a step as failed. A step up is first screened at the corner that decided the last judgement; the
+ * screens find the first step that certainly fails, and the whole set is then read from the step below
+ * it downwards until one passes (mostly the first: one whole set where the walk read one per step).
  */
 export function refineEnds(
   ctx: Ctx,
@@ -384,48 +446,122 @@ export function refineEnds(
 ): CoreValues {
   const t = ctx.spec.targets;
   let v = v0;
-  // Only the two end stops change here (walk), so each verdict is kept by their pair: the walks and
-  // the second round ask again about pairs already judged.
-  const judged = (test: (x: CoreValues) => boolean): ((x: CoreValues) => boolean) => {
-    const seen = new Map<string, boolean>();
-    return (x) => {
-      const key = `${x.rEndA_ohm},${x.rEndB_ohm}`;
-      let r = seen.get(key);
-      if (r === undefined) seen.set(key, (r = test(x)));
-      return r;
-    };
-  };
-  const okA = judged((x) => dutyWithin(x, q, db, sets.dMinHi, 0, 1, t.duty_min));
-  const okB = judged((x) => dutyWithin(x, q, db, sets.dMaxLo, 1, -1, t.duty_max));
+  // RB_A: the highest duty at control 0 must stay ≤ duty_min; it rises with R_BA, falls with R_BB.
+  const okA = new MonotoneJudge(q, db, sets.dMinHi, 0, 1, t.duty_min);
+  // RB_B: the lowest duty at control 1 must stay ≥ duty_max; it falls with R_BB, rises with R_BA.
+  const okB = new MonotoneJudge(q, db, sets.dMaxLo, 1, -1, t.duty_max);
   for (let round = 0; round < 2; round++) {
     v = walk(v, "rEndA_ohm", okA, floor_ohm);
     v = walk(v, "rEndB_ohm", okB, floor_ohm);
-    if (okA(v)) break; // B's move shifts A's share slightly; one more round settles it
+    if (okA.ok(v)) break; // B's move shifts A's share slightly; one more round settles it
   }
   return v;
 }
 
-function walk(
-  v: CoreValues,
-  key: "rEndA_ohm" | "rEndB_ohm",
-  ok: (x: CoreValues) => boolean,
-  floor_ohm: number,
-): CoreValues {
-  const at = (r: number): CoreValues => ({ ...v, [key]: r });
-  let r = v[key];
-  if (ok(v)) {
-    for (let i = 0; i < MAX_STEPS; i++) {
-      const up = roundUp(r * 1.001, "E24");
-      if (!ok(at(up))) break;
-      r = up;
-    }
-    return at(r);
+/**
+ * Whether every corner of a duty set keeps the duty at the given control on the required side of a
+ * limit (dutyWithin), for values that differ from each other in their end stops only; answered from the pairs already
+ * judged where monotonicity settles it. The duty at every corner rises with R_BA (end A) and falls
+ * with R_BB (end B) (worst-corners.ts), so for an upper limit (sign +1, duty ≤ limit) a pair that passes
+ * makes every pair with a smaller or equal A and a larger or equal B pass, and a pair that fails makes
+ * every pair with a larger or equal A and a smaller or equal B fail; for a lower limit (sign −1) the
+ * other way round. The corner that failed last is read first (`screen` reads only it).
+ */
+class MonotoneJudge {
+  private readonly passed: [number, number][] = [];
+  private readonly failed: [number, number][] = [];
+  /** Index in the set of the corner that decided the last judgement (failed, or the extreme of a pass). */
+  private decider = 0;
+
+  constructor(
+    private readonly q: BjtClass,
+    private readonly db: DiodeClass,
+    private readonly set: readonly Corner[],
+    private readonly ctrl: number,
+    private readonly sign: 1 | -1,
+    private readonly limit: number,
+  ) {}
+
+  /** Whether the pair (a, b) is at least as easy to pass as (a0, b0): it passes whenever that one does. */
+  private easier(a: number, b: number, a0: number, b0: number): boolean {
+    // Upper limit: smaller A and larger B lower the duty. Lower limit: larger A and smaller B raise it.
+    return this.sign > 0 ? a <= a0 && b >= b0 : a >= a0 && b <= b0;
   }
+
+  private known(x: CoreValues): boolean | undefined {
+    const a = x.rEndA_ohm,
+      b = x.rEndB_ohm;
+    for (const [a0, b0] of this.passed) if (this.easier(a, b, a0, b0)) return true;
+    for (const [a0, b0] of this.failed) if (this.easier(a0, b0, a, b)) return false;
+    return undefined;
+  }
+
+  private holds(d: number): boolean {
+    return this.sign > 0 ? d <= this.limit : d >= this.limit;
+  }
+
+  private duty(x: CoreValues, i: number): number {
+    return evalCore(x, this.q, this.db, this.set[i]!, this.ctrl).duty;
+  }
+
+  /** The judgement on the whole set (dutyWithin), the last deciding corner read first. */
+  ok(x: CoreValues): boolean {
+    const k = this.known(x);
+    if (k !== undefined) return k;
+    const pair: [number, number] = [x.rEndA_ohm, x.rEndB_ohm];
+    const n = this.set.length;
+    let worst = this.decider,
+      worstD = -Infinity;
+    for (let j = 0; j < n; j++) {
+      const i = (this.decider + j) % n;
+      const d = this.duty(x, i);
+      if (!this.holds(d)) {
+        this.decider = i;
+        this.failed.push(pair);
+        return false;
+      }
+      if (this.sign * d > worstD) {
+        worstD = this.sign * d;
+        worst = i;
+      }
+    }
+    this.decider = worst;
+    this.passed.push(pair);
+    return true;
+  }
+
+  /** False when the corner that decided last already fails (then the whole set fails); else unknown (true). */
+  screen(x: CoreValues): boolean {
+    const k = this.known(x);
+    if (k !== undefined) return k;
+    if (this.holds(this.duty(x, this.decider))) return true;
+    this.failed.push([x.rEndA_ohm, x.rEndB_ohm]);
+    return false;
+  }
+}
+
+function walk(v: CoreValues, key: "rEndA_ohm" | "rEndB_ohm", judge: MonotoneJudge, floor_ohm: number): CoreValues {
+  const at = (r: number): CoreValues => ({ ...v, [key]: r });
+  // Going up the duty moves towards the limit for both ends (A: R_BA raises the duty at control 0;
+  // B: R_BB lowers it at control 1), so `ok` holds up to some step and fails beyond it.
+  if (judge.screen(v)) {
+    const steps: number[] = [];
+    let r = v[key];
+    for (let i = 0; i < MAX_STEPS; i++) {
+      r = roundUp(r * 1.001, "E24");
+      if (!judge.screen(at(r))) break;
+      steps.push(r);
+    }
+    // The largest screened step that passes as a whole (every step above it fails), else the start.
+    for (let i = steps.length - 1; i >= 0; i--) if (judge.ok(at(steps[i]!))) return at(steps[i]!);
+    if (judge.ok(v)) return v;
+  }
+  let r = v[key];
   for (let i = 0; i < MAX_STEPS; i++) {
     const down = roundDown(r * 0.999, "E24");
     if (down < floor_ohm) break;
     r = down;
-    if (ok(at(r))) break;
+    if (judge.ok(at(r))) break;
   }
   return at(r);
 }
