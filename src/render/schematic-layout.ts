@@ -359,3 +359,64 @@ export function chainKindOf(roles: ReadonlySet<PartRole>): ChainKind {
   if (roles.has("RG")) return "mosfet-logic";
   return "bjt-single";
 }
+
+/**
+ * The ramp-and-comparator duty stage (docs/topologies.md, "The ramp-and-comparator duty stage"), drawn
+ * on the core with collector A tapped (on the right): the core keeps its slots (no potentiometer in
+ * it, its base resistors straight from the rail), the ramp's twin hangs under collector B's column
+ * where the balance network sits otherwise, and a column between the core and the chain carries, left
+ * to right, the ramp, the pair (ramp side, wiper side mirrored, emitters joined over the tail), the
+ * level-shifting PNP with its pull-down and the hysteresis resistor, and the divider with the
+ * potentiometer, its wiper facing the pair. `potTopA`: the potentiometer's end `a` is the divider's
+ * top (inverting chains), so it stands upright mirrored; otherwise turned half round.
+ */
+const RAMP_X = CORE_WIDTH; // the column's origin, relative to the core's
+const PAIR_Y = 350;
+const TAIL_Y = 410;
+const LVL_Y = 210;
+const DIV_X = RAMP_X + 680;
+const HYS_Y = 260;
+export const RAMP_WIDTH = 780;
+export function rampLayout(core: StageLayout, potTopA: boolean): StageLayout {
+  const slots: Partial<Record<PlacedRole, Slot>> = { ...core.slots };
+  delete slots.RV_DUTY;
+  Object.assign(slots, {
+    RR_B: { x: 70, y: 280, label: "left" },
+    CR_B: { x: 70, y: 380, label: "left" },
+    RR_A: { x: RAMP_X + 70, y: TAP_Y, rot: 270, label: "above" },
+    CR_A: { x: RAMP_X + 130, y: 260, label: "left" },
+    Q_CR: { x: RAMP_X + 220, y: PAIR_Y, label: "right" },
+    Q_CW: { x: RAMP_X + 430, y: PAIR_Y, mirror: true, label: "left" },
+    R_TAIL: { x: RAMP_X + 325, y: TAIL_Y + 30, label: "right" },
+    R_CMP: { x: RAMP_X + 420, y: 150, label: "right" },
+    Q_LVL: { x: RAMP_X + 530, y: LVL_Y, label: "right" },
+    R_LVL: { x: RAMP_X + 540, y: 330, label: "right" },
+    R_HYS: { x: RAMP_X + 595, y: HYS_Y, rot: 270, label: "below" },
+    RD_HI: { x: DIV_X, y: 150, label: "right" },
+    RV_DUTY: potTopA
+      ? { x: DIV_X, y: HYS_Y, mirror: true, label: "right" }
+      : { x: DIV_X, y: HYS_Y, rot: 180, label: "right" },
+    RD_LO: { x: DIV_X, y: 370, label: "right" },
+  } satisfies Partial<Record<PlacedRole, Slot>>);
+  const routes: Route[] = [
+    ...core.routes,
+    [[CORE_L, 240], [70, 240], "RR_B.a"],
+    ["RR_B.b", "CR_B.a"],
+    ["RR_A.a", ["RC_A.b", "RR_A.a"]],
+    ["RR_A.b", [RAMP_X + 175, "RR_A.b"], [RAMP_X + 175, PAIR_Y], "Q_CR.b"],
+    ["CR_A.a", ["CR_A.a", "RR_A.b"]],
+    ["Q_CR.e", ["Q_CR.e", TAIL_Y], ["Q_CW.e", TAIL_Y], "Q_CW.e"],
+    ["R_TAIL.a", ["R_TAIL.a", TAIL_Y]],
+    ["R_CMP.b", "Q_CW.c"],
+    ["Q_LVL.b", ["R_CMP.b", "Q_LVL.b"]],
+    ["Q_LVL.c", "R_LVL.a"],
+    ["R_HYS.a", ["Q_LVL.c", "R_HYS.a"]],
+    ["R_HYS.b", "RV_DUTY.w"],
+    [[DIV_X - 40, HYS_Y], [DIV_X - 40, TAIL_Y + 40], [RAMP_X + 470, TAIL_Y + 40], [RAMP_X + 470, PAIR_Y], "Q_CW.b"],
+    ["RD_HI.b", "RV_DUTY.a"],
+    ["RD_HI.b", "RV_DUTY.b"],
+    ["RD_LO.a", "RV_DUTY.a"],
+    ["RD_LO.a", "RV_DUTY.b"],
+  ];
+  return { ...core, slots, routes, width: CORE_WIDTH + RAMP_WIDTH };
+}

@@ -143,7 +143,9 @@ interface Stage {
 }
 
 function stages(circuit: CircuitModel, highSide: boolean): Record<StageKind, Stage> & { tapSide: "A" | "B" } {
-  const tapSide = circuit.tapNet === "ca" ? "A" : "B";
+  // The ramp-and-comparator duty stage listens to collector A (its ramp), drawn on the right.
+  const ramp = circuit.parts.some((p) => p.role === "Q_CR");
+  const tapSide = ramp || circuit.tapNet === "ca" ? "A" : "B";
   const chainRoles = new Set(circuit.parts.filter((p) => p.stage === "chain").map((p) => p.role));
   // The follower pair without a driver stage is the logic-level MOSFET's gate buffer.
   const kind = L.chainKindOf(chainRoles);
@@ -153,11 +155,14 @@ function stages(circuit: CircuitModel, highSide: boolean): Record<StageKind, Sta
       : kind === "mosfet-logic" && chainRoles.has("RZ")
         ? RAILED_LOGIC
         : CHAIN[kind];
-  const core = L.coreLayout(
+  const plain = L.coreLayout(
     tapSide,
     circuit.parts.some((p) => p.role === "QF_A"),
     circuit.parts.some((p) => p.kind === "switch"),
   );
+  const top = circuit.parts.find((p) => p.role === "RD_HI")?.pins["b"];
+  const potTopA = circuit.parts.some((p) => p.role === "RV_DUTY" && p.pins["a"] === top);
+  const core = ramp ? L.rampLayout(plain, potTopA) : plain;
   const x1 = LEFT_X + L.SUPPLY.width;
   const x2 = x1 + core.width;
   const x3 = x2 + chain.outX;

@@ -17,7 +17,7 @@ import {
 } from "../../src/model/part-roles.ts";
 import { assembleCircuit } from "../../src/circuit/assemble.ts";
 import { CHAIN } from "../../src/render/schematic-chains.ts";
-import { SUPPLY, coreLayout, loadLayout, protectionLayout } from "../../src/render/schematic-layout.ts";
+import { SUPPLY, coreLayout, loadLayout, protectionLayout, rampLayout } from "../../src/render/schematic-layout.ts";
 import { EngineMisuseError } from "../../src/model/errors.ts";
 import type { Part } from "../../src/model/circuit.ts";
 
@@ -80,6 +80,8 @@ describe("part roles: one closed vocabulary", () => {
     const placed = new Set<string>();
     for (const side of ["A", "B"] as const)
       for (const ends of [false, true]) for (const r of Object.keys(coreLayout(side, false, ends).slots)) placed.add(r);
+    for (const potTopA of [false, true])
+      for (const r of Object.keys(rampLayout(coreLayout("A"), potTopA).slots)) placed.add(r);
     for (const l of [
       SUPPLY,
       loadLayout(false, "Q_POWER.c"),
