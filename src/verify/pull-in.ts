@@ -47,16 +47,29 @@ export const PULL_IN_AFTER_PERIODS = 2;
 export const PULL_IN_LONG_SPAN = 3;
 
 /**
- * The cold-start deck: analysis lines, self-check block and initial conditions removed, the supply a
- * 1 µs step from 0 V (a supply switched on through the fuse reaches the rail within microseconds).
+ * The cold-start deck: analysis lines, self-check block and initial conditions removed (so no
+ * capacitor starts charged and nothing kicks the core), the control at `ctrl`, and the supply a
+ * ramp from 0 V to its value over `rise` (SPICE time text, e.g. "1u" or "5m").
  */
-export function pullInDeck(netlist: string, tStop_s: number, tMax_s: number, options?: string): string {
+export function coldStartDeck(
+  netlist: string,
+  o: { ctrl: number; rise: string; tStop_s: number; tMax_s: number; options?: string },
+): string {
   const v = supplyVoltage(netlist);
-  const body = setCtrl(simBody(netlist), 0)
+  const body = setCtrl(simBody(netlist), o.ctrl)
     .replace(/^\s*\.ic\b.*$/gim, "")
     .replace(/ IC=[-+0-9.eE]+$/gm, "")
-    .replace(/^(vsupply\s+\S+\s+\S+)\s+(?:dc\s+)?[-+0-9.eE]+\s*$/im, `$1 PULSE(0 ${v} 0 1u 1u 10 20)`);
-  return `${body}\n.options method=gear${options ? ` ${options}` : ""}\n.tran ${tMax_s} ${tStop_s} 0 ${tMax_s}\n.end\n`;
+    .replace(/^(vsupply\s+\S+\s+\S+)\s+(?:dc\s+)?[-+0-9.eE]+\s*$/im, `$1 PULSE(0 ${v} 0 ${o.rise} 1u 10 20)`);
+  const t = `.tran ${o.tMax_s} ${o.tStop_s} 0 ${o.tMax_s}`;
+  return `${body}\n.options method=gear${o.options ? ` ${o.options}` : ""}\n${t}\n.end\n`;
+}
+
+/**
+ * The pull-in run's deck: a cold start at control 0 with the supply a 1 µs step (a supply switched
+ * on through the fuse reaches the rail within microseconds).
+ */
+export function pullInDeck(netlist: string, tStop_s: number, tMax_s: number, options?: string): string {
+  return coldStartDeck(netlist, { ctrl: 0, rise: "1u", tStop_s, tMax_s, ...(options ? { options } : {}) });
 }
 
 /** The relative band of a pull-in check (compare.ts PULL_IN_CHECKS). */
