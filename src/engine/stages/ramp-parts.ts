@@ -16,7 +16,7 @@ import type { RoleIn } from "../../model/part-roles.ts";
 import { capacitor, resistor, transistor, type Built } from "../../circuit/parts.ts";
 import { checkStress } from "../shared/derating.ts";
 import { hfeMin, vbeOn } from "../shared/gain.ts";
-import { CAP_RATINGS_V, POT_RATINGS_W, RB_MS_FACTOR } from "./timing-parts.ts";
+import { CAP_RATINGS_V, dutyPotPart, RB_MS_FACTOR } from "./timing-parts.ts";
 import type { RampDevices, RampValues } from "./ramp-duty.ts";
 
 /** The stage's own nets (docs/topologies.md). */
@@ -130,24 +130,17 @@ export function rampParts(x: RampPartsInput): RampParts {
   checks.push(checkStress("CR_A", "voltage", vMax, cRated, "V", pol.capacitor.voltage, pol.marginal_above));
   // The potentiometer: a–w = R·ctrl in the netlist, so end `a` is where the wiper sits at ctrl 0.
   const pTrack = iDiv * iDiv * v.pot_ohm * (1 + x.potTol);
-  const potW = POT_RATINGS_W.find((r) => pTrack <= r * pol.resistor.power.factor) ?? POT_RATINGS_W.at(-1)!;
   const [endA, endB] = v.potReversed ? [n.top, n.bottom] : [n.bottom, n.top];
-  parts.push({
-    ref: "",
-    kind: "potentiometer",
-    stage: "duty",
-    role: "RV_DUTY",
-    value: v.pot_ohm,
-    unit: "Ω",
-    tolerance: x.potTol,
-    description:
-      `Linear potentiometer, ${potW} W ${potW > 1 ? "wirewound" : potW > 0.25 ? "cermet" : "carbon"} — ` +
-      "duty control (sets the comparator's threshold)",
-    rating: { power_W: potW, current_A: Math.sqrt(potW / v.pot_ohm) },
-    stress: { current_A: iDiv, power_W: pTrack },
+  const pot = dutyPotPart(pol, {
+    value_ohm: v.pot_ohm,
+    tol: x.potTol,
+    current_A: iDiv,
+    power_W: pTrack,
+    purpose: "duty control (sets the comparator's threshold)",
     pins: { a: endA, w: n.wiper, b: endB },
   });
-  checks.push(checkStress("RV_DUTY", "power", pTrack, potW, "W", pol.resistor.power, pol.marginal_above));
+  parts.push(pot.part);
+  checks.push(pot.check);
   // The pair: collector–emitter at most the rail, the tail at most the rail over R_TAIL; the off
   // transistor's reverse base–emitter voltage against V_EBO.
   const iTail = vMax / (v.rTail_ohm * lo);

@@ -19,6 +19,45 @@ import type { WorstCase } from "./timing-search.ts";
 export const CAP_RATINGS_V = [16, 25, 35, 50, 63, 100, 250] as const;
 /** Linear potentiometer full-track ratings, W: carbon 0.25, cermet 0.5–1, wirewound 2 (common practice). */
 export const POT_RATINGS_W = [0.25, 0.5, 1, 2] as const;
+
+/**
+ * The duty potentiometer as a part: the smallest full-track rating whose derated power carries the
+ * track's dissipation `power_W` (the largest where none does: the check then fails), named by its
+ * track (carbon up to 0.25 W, cermet up to 1 W, wirewound above; common practice) unless the class
+ * names it; with its power check. Shared by the resistance-setting pot and the ramp stage's divider.
+ */
+export function dutyPotPart(
+  pol: Ctx["spec"]["policy"],
+  o: {
+    value_ohm: number;
+    tol: number;
+    current_A: number;
+    power_W: number;
+    track?: string;
+    purpose: string;
+    pins: Part["pins"];
+  },
+): { part: Part; check: StressCheck; potW: number } {
+  const potW = POT_RATINGS_W.find((r) => o.power_W <= r * pol.resistor.power.factor) ?? POT_RATINGS_W.at(-1)!;
+  const track = o.track || (potW > 1 ? "wirewound" : potW > 0.25 ? "cermet" : "carbon");
+  return {
+    potW,
+    part: {
+      ref: "",
+      kind: "potentiometer",
+      stage: "duty",
+      role: "RV_DUTY",
+      value: o.value_ohm,
+      unit: "Ω",
+      tolerance: o.tol,
+      description: `Linear potentiometer, ${potW} W ${track} — ${o.purpose}`,
+      rating: { power_W: potW, current_A: Math.sqrt(potW / o.value_ohm) },
+      stress: { current_A: o.current_A, power_W: o.power_W },
+      pins: o.pins,
+    },
+    check: checkStress("RV_DUTY", "power", o.power_W, potW, "W", pol.resistor.power, pol.marginal_above),
+  };
+}
 /** Mean-square factor of the base-resistor current over an off phase (derived, see below). */
 export const RB_MS_FACTOR = 2.26;
 
@@ -212,24 +251,18 @@ export function timingParts(
   // Pot: a full-track rating P allows a current √(P/R) in any part of the track (common practice);
   // checked as the power the whole track would dissipate at the segment's RMS current.
   const pTrack = iBrms * iBrms * v.pot_ohm * (1 + ctx.potTol);
-  const potRule = pol.resistor.power;
-  const potW = POT_RATINGS_W.find((r) => pTrack <= r * potRule.factor) ?? POT_RATINGS_W[POT_RATINGS_W.length - 1]!;
-  // The ±10 % class names its track (duty-pot.ts); the general one by its rating, as before.
-  const track = ctx.pot.track || (potW > 1 ? "wirewound" : potW > 0.25 ? "cermet" : "carbon");
-  parts.push({
-    ref: "",
-    kind: "potentiometer",
-    stage: "duty",
-    role: "RV_DUTY",
-    value: v.pot_ohm,
-    unit: "Ω",
-    tolerance: ctx.potTol,
-    description: `Linear potentiometer, ${potW} W ${track} — duty control (wiper to the supply)`,
-    rating: { power_W: potW, current_A: Math.sqrt(potW / v.pot_ohm) },
-    stress: { current_A: iBrms, power_W: pTrack },
+  const pot = dutyPotPart(ctx.spec.policy, {
+    value_ohm: v.pot_ohm,
+    tol: ctx.potTol,
+    current_A: iBrms,
+    power_W: pTrack,
+    // The ±10 % class names its track (duty-pot.ts); the general one by its rating, as before.
+    ...(ctx.pot.track ? { track: ctx.pot.track } : {}),
+    purpose: "duty control (wiper to the supply)",
     pins: { a: "pa", w: "vbus", b: "pb" },
   });
-  checks.push(checkStress("RV_DUTY", "power", pTrack, potW, "W", potRule, pol.marginal_above));
+  parts.push(pot.part);
+  checks.push(pot.check);
   const followerLoss_W = v.follower
     ? followerParts(ctx, { q, db, gain }, v, v.follower.rS_ohm, { tap, w, iBpk_A: iBpk }, { parts, problems, checks })
     : 0;
