@@ -10,6 +10,12 @@
  * square-wave input — from memory; for τ_H = τ_L = τ and t_H = t_L = T/2 it is the book's
  * V_max,min = V_mean ± ((V_H − V_L)/2)·tanh(T/(4τ))). Each segment is an exponential, so the time
  * it takes to reach a level is τ·ln((V_∞ − V_start)/(V_∞ − V)).
+ *
+ * The same relation for any number of segments (periodicSegmentStarts, derived): segment i moves a
+ * start level v to V_∞,i + (v − V_∞,i)·e_i with e_i = e^(−t_i/τ_i); one period composes these into
+ * v ↦ A·v + B, so the level that repeats is B/(1 − A). Two segments give the formulas above; more
+ * serve a source whose load changes within a segment (a ramp that a comparator's input draws on for
+ * part of the period).
  */
 import { EngineMisuseError } from "../../model/errors.ts";
 
@@ -33,13 +39,48 @@ export function rcRampExtremes(d: TwoLevelDrive): RampExtremes {
   if (!(d.tauHigh_s > 0 && d.tauLow_s > 0 && d.tHigh_s > 0 && d.tLow_s > 0))
     throw new EngineMisuseError("rcRampExtremes: time constants and segment lengths must be > 0");
   if (!(d.vHigh_V > d.vLow_V)) throw new EngineMisuseError("rcRampExtremes: vHigh_V must exceed vLow_V");
-  const a = Math.exp(-d.tHigh_s / d.tauHigh_s);
-  const b = Math.exp(-d.tLow_s / d.tauLow_s);
-  const den = 1 - a * b;
-  return {
-    max_V: (d.vHigh_V * (1 - a) + a * (1 - b) * d.vLow_V) / den,
-    min_V: (d.vLow_V * (1 - b) + b * (1 - a) * d.vHigh_V) / den,
-  };
+  const [min_V, max_V] = periodicSegmentStarts([
+    { vInf_V: d.vHigh_V, tau_s: d.tauHigh_s, t_s: d.tHigh_s },
+    { vInf_V: d.vLow_V, tau_s: d.tauLow_s, t_s: d.tLow_s },
+  ]) as [number, number];
+  return { min_V, max_V };
+}
+
+/** One exponential segment of a periodic drive: the level it tends to, its time constant and its length. */
+export interface ExpSegment {
+  vInf_V: number;
+  tau_s: number;
+  t_s: number;
+}
+
+/**
+ * The steady-state level at the start of each segment of a periodic chain of exponential segments
+ * (the relation at the top of this file, for any number of segments). Segments of zero length are
+ * allowed; the period as a whole must have a positive length.
+ */
+export function periodicSegmentStarts(segs: readonly ExpSegment[]): number[] {
+  let a = 1;
+  let b = 0;
+  const decay: number[] = [];
+  for (const [i, s] of segs.entries()) {
+    if (!(Number.isFinite(s.vInf_V) && s.tau_s > 0 && Number.isFinite(s.tau_s) && s.t_s >= 0 && Number.isFinite(s.t_s)))
+      throw new EngineMisuseError(
+        `periodicSegmentStarts: segment ${i} needs a finite level, τ > 0 and a length ≥ 0, got ${JSON.stringify(s)}`,
+      );
+    const e = Math.exp(-s.t_s / s.tau_s);
+    decay.push(e);
+    // v ↦ e·v + (1 − e)·V_∞ composed after the segments before it.
+    a *= e;
+    b = e * b + (1 - e) * s.vInf_V;
+  }
+  if (!(a < 1)) throw new EngineMisuseError("periodicSegmentStarts: the segments' total length must be > 0");
+  const starts = [b / (1 - a)];
+  for (const [i, s] of segs.entries()) {
+    if (i === segs.length - 1) break;
+    const v = starts[i]!;
+    starts.push(s.vInf_V + (v - s.vInf_V) * decay[i]!);
+  }
+  return starts;
 }
 
 /**

