@@ -10,8 +10,8 @@ import { chooseDevices } from "../../../src/engine/devices/choose.ts";
 import { sizeVariant } from "../../../src/engine/size.ts";
 import { loadProject } from "../../../src/records/load.ts";
 import { assembleCircuit } from "../../../src/circuit/assemble.ts";
-import { evaluateCore } from "../../../src/engine/stages/astable.ts";
-import { vbeOn, vceSat } from "../../../src/engine/shared/gain.ts";
+import { coreExtremes } from "./ramp-fixture.ts";
+import { vbeOn } from "../../../src/engine/shared/gain.ts";
 import { diodeClassVf_V } from "../../../src/engine/shared/diode.ts";
 import { nearest } from "../../../src/engine/shared/e-series.ts";
 import { RAMP_NOMINAL, evalRamp, sizeRamp, type RampCore } from "../../../src/engine/stages/ramp-duty.ts";
@@ -65,36 +65,10 @@ const rT = role("RT").value;
 const [vMin, vMax] = [variant.supply_window.min_V, variant.supply_window.max_V];
 const tapLoad_A = (vMax - vbeOn(dev<BjtClass>(role("Q_DRV").device!), variant.targets.ambient_C[0])) / rT;
 
-/** Collector A of this core at its two extremes of duty over R_B ±1 % and C_T ±5 % (as ramp-fixture.ts). */
+/** Collector A of this core at its two extremes of duty over R_B ±1 % and C_T ±5 % (ramp-fixture.ts). */
 function coreAt(vcc_V: number, t_C: number, tol = { r: 0.01, c: 0.05 }): RampCore[] {
   const vOn = vbeOn(q, t_C) + diodeClassVf_V(db, (vcc_V - 1.3) / rB, t_C);
-  const vSat = vceSat(q, vcc_V / rC);
-  const load = { v_V: vcc_V / 2, r_ohm: rRampLoad };
-  const signs = tol.r === 0 && tol.c === 0 ? [0] : [1, -1];
-  return signs.map((s) => {
-    const c = evaluateCore({
-      vcc_V,
-      vOn_V: vOn,
-      vSat_V: vSat,
-      rCA_ohm: rC,
-      rCB_ohm: rC,
-      cA_F: cT * (1 + s * tol.c),
-      cB_F: cT * (1 - s * tol.c),
-      rBA_ohm: rB * (1 - s * tol.r),
-      rBB_ohm: rB * (1 + s * tol.r),
-      loadA: load,
-      loadB: load,
-    });
-    return {
-      tHigh_s: c.tAoff_s,
-      tLow_s: c.tBoff_s,
-      vSrcHigh_V: vcc_V,
-      rSrcHigh_ohm: rC,
-      vSat_V: vSat,
-      cT_F: cT,
-      rail_V: vcc_V,
-    };
-  });
+  return coreExtremes(q, { rC_ohm: rC, rB_ohm: rB, c_F: cT }, vOn, vcc_V, rRampLoad, tol);
 }
 
 const chain = { inverting: true, tapLoad_A };
