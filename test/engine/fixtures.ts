@@ -225,3 +225,22 @@ export const SERIES_REVERSE_SPEC: SpecOpts = {
   duty: [0.25, 0.75],
   override: { timing_npn: NPN_HIGH_GAIN },
 };
+
+/**
+ * Four variants whose timing cores differ in every way the core search cares about (supply, chain,
+ * load, frequency, duty range, timing class): the sample the search's caching tests hold to answers
+ * computed afresh (stages/core-memo.test.ts, stages/search-reuse.test.ts).
+ */
+export const CORE_SEARCH_SAMPLE: SpecOpts[] = [
+  { supply_V: 12, chain: "mosfet-driver", load_kind: "motor", pwm_Hz: 20000, load_A: 2 },
+  { supply_V: 24, chain: "darlington-3", load_kind: "led", pwm_Hz: 4000, load_A: 1, duty: [0.3, 0.9] },
+  {
+    supply_V: 24,
+    chain: "mosfet-logic",
+    load_kind: "resistive",
+    pwm_Hz: 200,
+    load_A: 2,
+    override: { timing_npn: NPN_HIGH_GAIN },
+  },
+  { supply_V: 12, chain: "bjt-driver-pnp", load_kind: "lamp", pwm_Hz: 1000, load_A: 0.5 },
+];

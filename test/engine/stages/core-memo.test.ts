@@ -13,21 +13,9 @@ import { evalCore, evalCoreDirect, evalCoreFresh, withCoreMemo } from "../../../
 import { contentText } from "../../../src/engine/stages/core-memo.ts";
 import { envelopeCorners } from "../../../src/engine/stages/worst-corners.ts";
 import { envelopeOf } from "../../../src/engine/stages/timing-search.ts";
-import { NPN_HIGH_GAIN, type SpecOpts, makeSpec } from "../fixtures.ts";
+import { CORE_SEARCH_SAMPLE, type SpecOpts, makeSpec } from "../fixtures.ts";
 
-const sample: SpecOpts[] = [
-  { supply_V: 12, chain: "mosfet-driver", load_kind: "motor", pwm_Hz: 20000, load_A: 2 },
-  { supply_V: 24, chain: "darlington-3", load_kind: "led", pwm_Hz: 4000, load_A: 1, duty: [0.3, 0.9] },
-  {
-    supply_V: 24,
-    chain: "mosfet-logic",
-    load_kind: "resistive",
-    pwm_Hz: 200,
-    load_A: 2,
-    override: { timing_npn: NPN_HIGH_GAIN },
-  },
-  { supply_V: 12, chain: "bjt-driver-pnp", load_kind: "lamp", pwm_Hz: 1000, load_A: 0.5 },
-];
+const sample = CORE_SEARCH_SAMPLE;
 
 /** A sample variant's context, its searched core values, and its timing transistor and base diode classes. */
 function sized(o: SpecOpts) {

@@ -25,20 +25,10 @@ import {
   worstCaseFast,
 } from "../../../src/engine/stages/worst-corners.ts";
 import { endFloor, envelopeOf, refineEnds, searchCore } from "../../../src/engine/stages/timing-search.ts";
-import { NPN_HIGH_GAIN, type SpecOpts, makeSpec } from "../fixtures.ts";
+import { CORE_SEARCH_SAMPLE, type SpecOpts, makeSpec } from "../fixtures.ts";
 
 const sample: SpecOpts[] = [
-  { supply_V: 12, chain: "mosfet-driver", load_kind: "motor", pwm_Hz: 20000, load_A: 2 },
-  { supply_V: 24, chain: "darlington-3", load_kind: "led", pwm_Hz: 4000, load_A: 1, duty: [0.3, 0.9] },
-  {
-    supply_V: 24,
-    chain: "mosfet-logic",
-    load_kind: "resistive",
-    pwm_Hz: 200,
-    load_A: 2,
-    override: { timing_npn: NPN_HIGH_GAIN },
-  },
-  { supply_V: 12, chain: "bjt-driver-pnp", load_kind: "lamp", pwm_Hz: 1000, load_A: 0.5 },
+  ...CORE_SEARCH_SAMPLE,
   { supply_V: 24, chain: "darlington-2", load_kind: "lamp", pwm_Hz: 1000, load_A: 0.5, duty: [0.1, 0.9] },
 ];
 const name = (o: SpecOpts): string => `${o.supply_V} V ${o.chain} ${o.load_kind} ${o.pwm_Hz} Hz`;
