@@ -7,8 +7,17 @@
 import type { CornerMeasured } from "../model/verification.ts";
 import type { SpiceEngine } from "./engines/types.ts";
 import { meanOnState, timeAverage } from "./measure.ts";
-import { coreState, devicePower } from "./plan.ts";
-import { DEFAULT_RUN_PLAN, loadTiming, onCurrent, runAt, switchVoltage, vec, type RunPlan } from "./runs.ts";
+import { coreState, devicePower, tooFew } from "./plan.ts";
+import {
+  DEFAULT_RUN_PLAN,
+  loadTiming,
+  longStartPlan,
+  onCurrent,
+  runAt,
+  switchVoltage,
+  vec,
+  type RunPlan,
+} from "./runs.ts";
 import type { VerifyTarget } from "./target.ts";
 import { SpiceRunError } from "../model/errors.ts";
 
@@ -33,6 +42,13 @@ export async function measureCorners(
     } catch (err) {
       throw new SpiceRunError(`corner ${k.name}: ${err instanceof Error ? err.message : String(err)}`);
     }
+    // Too few periods read: once more with a longer start (runs.ts LONG_START_EXTRA_PERIODS).
+    if (tooFew(t, run, onCurrent(run)))
+      try {
+        run = await runAt(t, deck.netlist, engine, k.ctrl, longStartPlan(t, plan), k.predicted.duty);
+      } catch (err) {
+        throw new SpiceRunError(`corner ${k.name}: ${err instanceof Error ? err.message : String(err)}`);
+      }
     const iOn_A = onCurrent(run);
     if (!(iOn_A > 1e-4))
       throw new SpiceRunError(

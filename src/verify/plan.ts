@@ -12,6 +12,7 @@ import {
   MIN_WHOLE_PERIODS,
   loadTiming,
   loadVoltage,
+  longStartPlan,
   nominalRunDeck,
   onCurrent,
   readsLoad,
@@ -29,7 +30,7 @@ import { measurePullIn } from "./pull-in.ts";
 import { measureEnds } from "./end-runs.ts";
 
 /** Bumped whenever measurement code changes what it reports: part of every cache key. */
-export const MEASURE_CODE_VERSION = "verify-measure-19";
+export const MEASURE_CODE_VERSION = "verify-measure-20";
 
 /** Transients of the nominal plan per variant (ctrl 0.5, 0, 1); corner runs come on top (corner-runs.ts). */
 export const NOMINAL_RUNS = 3;
@@ -49,9 +50,18 @@ export async function measureVariant(
   try {
     // A motor's back-EMF follows the control: each run's deck carries the engine's E for it.
     const at = (ctrl: number): string => nominalRunDeck(target, netlist, ctrl);
-    const mid = await runAt(target, at(0.5), engine, 0.5, plan, target.predicted["duty_mid"]?.value);
-    const low = await runAt(target, at(0), engine, 0, plan, target.predicted["duty_min"]?.value);
-    const high = await runAt(target, at(1), engine, 1, plan, target.predicted["duty_max"]?.value);
+    const duty = (ctrl: number): number | undefined =>
+      target.predicted[ctrl === 0 ? "duty_min" : ctrl === 1 ? "duty_max" : "duty_mid"]?.value;
+    const run = (ctrl: number, p: RunPlan): Promise<Run> => runAt(target, at(ctrl), engine, ctrl, p, duty(ctrl));
+    let mid = await run(0.5, plan);
+    let low = await run(0, plan);
+    let high = await run(1, plan);
+    // A run whose reading window holds too few whole periods once more with a longer start
+    // (runs.ts LONG_START_EXTRA_PERIODS); the control-1 run first, as the others read its on-current.
+    if (tooFew(target, high, onCurrent(high))) high = await run(1, longStartPlan(target, plan));
+    const iOn_A = onCurrent(high);
+    if (tooFew(target, mid, iOn_A)) mid = await run(0.5, longStartPlan(target, plan));
+    if (tooFew(target, low, iOn_A)) low = await run(0, longStartPlan(target, plan));
     const { measurements, waveforms } = collect(target, low, mid, high);
     // Solenoid variants: one cold-start run at nominal conditions shows the pull-in (the hold's
     // settled current comes from the control-0 run above).
@@ -63,6 +73,11 @@ export async function measureVariant(
   } catch (err) {
     return { ok: false, message: err instanceof Error ? err.message : String(err), elapsed_s: elapsed() };
   }
+}
+
+/** Whether the load's timing in `run` has too few settled periods to be read (runs.ts loadTiming). */
+export function tooFew(target: VerifyTarget, run: Run, iOn_A: number): boolean {
+  return iOn_A > 1e-4 && loadTiming(target, run, iOn_A).kind === "too-few";
 }
 
 function collect(

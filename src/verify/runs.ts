@@ -398,6 +398,31 @@ export function planFor(target: VerifyTarget, plan: RunPlan): RunPlan {
   return { ...rest, ...plainLoad };
 }
 
+/**
+ * Periods added before the reading when a run's first reading window holds too few whole periods.
+ * Started from the kick (one collector at the rail, the other at 0 V), a core whose control sits at
+ * an end can take several periods for its first long half-period: the timing capacitor of the long
+ * side starts from its operating point, not from where a settled cycle leaves it. Measured on a 5 V,
+ * 1 kHz PNP-driver lamp dimmer (follower core, control 0, duty 5 %): the load's first pulse came
+ * 2.47 periods after the kick, so the plain-load plan's 0.5 + 2.5 periods read none, while the
+ * published deck (2 periods of settle, 8 read) printed the prediction in native ngspice. Four more
+ * periods hold a first half-period up to ≈ 4 periods; a core slower to start still fails, as it should.
+ */
+export const LONG_START_EXTRA_PERIODS = 4;
+
+/**
+ * The plan once more with `LONG_START_EXTRA_PERIODS` more settle and a reading window of at least the
+ * default plan's (the plain-load plan's shorter window is for loads that start in step with the kick).
+ */
+export function longStartPlan(target: VerifyTarget, plan: RunPlan): RunPlan {
+  const p = planFor(target, plan);
+  const settlePeriods = p.settlePeriods + LONG_START_EXTRA_PERIODS;
+  const read = Math.max(p.periods - p.settlePeriods, DEFAULT_RUN_PLAN.periods - DEFAULT_RUN_PLAN.settlePeriods);
+  const longer: RunPlan = { ...p, settlePeriods, periods: settlePeriods + read };
+  delete longer.plainLoad;
+  return longer;
+}
+
 /** Start-up discarded for a run: `handedSettlePeriods` from a handed-over state, else `settleTime`. */
 function startSettle(target: VerifyTarget, ctrl: number, plan: RunPlan, start: RunStart | undefined): number {
   if (start?.state !== undefined) return (plan.handedSettlePeriods ?? 0) * target.period_s;
