@@ -105,10 +105,27 @@ export function isInSeries(value: number, series: SeriesName): boolean {
   return candidates(value, series).some((c) => Math.abs(c - value) <= c * SAME_REL);
 }
 
-/** All values of a series between lo and hi inclusive, ascending (for choosers that scan). */
-export function seriesBetween(lo: number, hi: number, series: SeriesName): number[] {
+/**
+ * All values of a series between lo and hi inclusive, ascending (for choosers that scan). The gate
+ * choosers scan a nested pair of these per variant, so the lists are kept by their bounds (a
+ * catalogue asks for a handful), frozen so no caller can change a kept list.
+ */
+export function seriesBetween(lo: number, hi: number, series: SeriesName): readonly number[] {
   checkInput(lo, "seriesBetween");
   checkInput(hi, "seriesBetween");
+  const key = `${series} ${lo} ${hi}`;
+  const kept = BETWEEN.get(key);
+  if (kept !== undefined) return kept;
+  const out = Object.freeze(scanBetween(lo, hi, series));
+  if (BETWEEN.size >= BETWEEN_MAX) BETWEEN.clear();
+  BETWEEN.set(key, out);
+  return out;
+}
+/** Kept lists of seriesBetween, at most BETWEEN_MAX (memory stays flat in catalogue size). */
+const BETWEEN = new Map<string, readonly number[]>();
+const BETWEEN_MAX = 256;
+
+function scanBetween(lo: number, hi: number, series: SeriesName): number[] {
   const out: number[] = [];
   for (let e = Math.floor(Math.log10(lo)) - 1; e <= Math.floor(Math.log10(hi)) + 1; e++) {
     for (const m of SERIES_MANTISSAS[series]) {
