@@ -39,7 +39,8 @@ export interface FailureReview {
   hot: boolean;
 }
 
-const LOAD_WORD: Record<string, string> = {
+/** The load in a builder's words, by load kind (the cautions name it so). */
+export const LOAD_WORD: Record<string, string> = {
   resistive: "heater",
   lamp: "lamp",
   led: "LED strip",

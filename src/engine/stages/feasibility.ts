@@ -11,6 +11,8 @@ import type { StressCheck } from "../../model/derating.ts";
 import { problem } from "../shared/figures.ts";
 import type { Ctx } from "./context.ts";
 import { checkMessage } from "./verdict.ts";
+import { LOAD_WORD } from "./failure-modes.ts";
+import { formatValue } from "../../model/format.ts";
 
 export const CHAIN_TITLE: Record<string, string> = {
   "bjt-single": "Single BJT",
@@ -100,5 +102,43 @@ export function cautions(ctx: Ctx, hot: boolean, sunkDiodes: readonly string[] =
     out.push(
       "Heater: keep an independent over-temperature cut-out; a switch failing short leaves the heater fully on.",
     );
+  const over = overRatedLoad(ctx);
+  if (over !== undefined) out.push(over);
   return out;
+}
+
+/**
+ * A load is rated at the record's nominal supply; at the supply's upper end it draws more (an LED
+ * strip's current rises steeply past its rated voltage, through its series resistors). Above this share
+ * over its rated current the page says so: the driver is sized for it, the load may not be (common practice).
+ */
+export const OVER_RATED_LOAD_SHARE = 0.15;
+
+/**
+ * Why a load kind suffers from running above its rated supply (common practice). Motors and valve
+ * coils sold for a battery system's nominal voltage are made for its charging level, so they are left out.
+ */
+const OVER_RATED_EFFECT: Record<string, string> = {
+  led: "an LED strip runs hot and ages fast above its rated voltage",
+  lamp: "a filament's life falls steeply with over-voltage",
+  resistive: "a heater's power rises with the square of the voltage",
+};
+
+/** The over-rated load caution, when the load's current at V_cc,max is past OVER_RATED_LOAD_SHARE. */
+function overRatedLoad(ctx: Ctx): string | undefined {
+  const share = ctx.iMax_A / ctx.iNom_A - 1;
+  const effect = OVER_RATED_EFFECT[ctx.spec.load_kind];
+  if (!(share > OVER_RATED_LOAD_SHARE) || effect === undefined) return undefined;
+  const word = LOAD_WORD[ctx.spec.load_kind] ?? "load";
+  const [vMax, iMax, iNom, vNom] = [
+    formatValue(ctx.vMax_V, "V"),
+    formatValue(ctx.iMax_A, "A"),
+    formatValue(ctx.iNom_A, "A"),
+    formatValue(ctx.spec.supply_V, "V"),
+  ];
+  return (
+    `Supply above the load's rating: at ${vMax} the ${word} draws ${iMax}, ${Math.round(share * 100)} % over its ` +
+    `rated ${iNom} at ${vNom} (${effect}). The driver is sized for it; check that the ${word} is rated for the ` +
+    `supply's upper end, or feed it from a supply that stays at its rating.`
+  );
 }
