@@ -14,6 +14,8 @@ import type { SizedVariant } from "../model/sized.ts";
 import type { VariantSpec } from "../model/variant.ts";
 import { DEVICE_ROLES, type DeviceRole } from "../model/design.ts";
 import type { BjtClass, DiodeClass } from "../model/device.ts";
+import { vceSat, vceSatSlope_ohm } from "./shared/gain.ts";
+import { vceSatNominal_V, vceSatNominalSlope_ohm } from "./stages/chains/sat-nominal.ts";
 import { diodeCj_F, diodeClassVf_V } from "./shared/diode.ts";
 import type { ChainPlan, DeviceLoss, OperatingPoint } from "./stages/chains/types.ts";
 import { conductionLossMosfet_W, switchingLoss_W } from "./shared/losses.ts";
@@ -634,7 +636,7 @@ function sizeChosen(chosen: CoreChoice): SizedVariant {
     timingLoss("Q_B"),
     ...(tap.follower ? [followerLoss("QF_A"), followerLoss("QF_B")] : []),
   ];
-  const finLosses = withWindingForm(fin.losses, load.winding);
+  const finLosses = windingFormLosses(ctx, fin.losses, load.winding);
   const losses = [...finLosses, ...coreLosses];
   const thermal = thermalStage(ctx, losses);
   const power = finLosses.find((l) => l.isPower);
@@ -899,7 +901,11 @@ function nominalDissipation(
   const scaled = (i_A: number): number =>
     (power.pSw_W * (ctx.vNom_V * i_A * fNom)) / (ctx.vMax_V * ctx.iMax_A * fMax_Hz);
   if (winding !== undefined) {
+    const sat = saturatedSwitch(ctx, losses);
     const t = windingSwitchTerms(winding.wave, power, {
+      ...(sat === undefined
+        ? {}
+        : { vSwAt: (i_A: number) => ({ v_V: vceSatNominal_V(sat, i_A), r_ohm: vceSatNominalSlope_ohm(sat, i_A) }) }),
       v_V: vOverlap_V,
       vSw_V: vSwNom_V,
       rOn_ohm: vSwNom_V / ctx.iNom_A,
@@ -917,6 +923,28 @@ function nominalDissipation(
       ? switchingLoss_W(vOverlap_V, iOn_A, power.tNom_s.on, power.tNom_s.off, fNom, ctx.switching)
       : scaled(iOn_A);
   return pCond + pBase + pSw + coilRecoveryNominal_W(ctx, power, vSwNom_V, vOverlap_V, dMax, fNom);
+}
+
+/** The chain's worst-case losses with the winding's form factor (winding-losses.ts `withWindingForm`). */
+function windingFormLosses(ctx: Ctx, losses: DeviceLoss[], winding: WindingWaveform | undefined): DeviceLoss[] {
+  const sat = saturatedSwitch(ctx, losses);
+  const at =
+    sat === undefined
+      ? undefined
+      : { i_A: ctx.iMax_A, v_V: vceSat(sat, ctx.iMax_A), r_ohm: vceSatSlope_ohm(sat, ctx.iMax_A) };
+  return withWindingForm(losses, winding, at);
+}
+
+/**
+ * The power BJT of a chain whose switch is one saturated transistor (a single BJT, or the driver
+ * chain's power PNP): its on-voltage is V_CE(sat) as a law of its current, which a winding's varying
+ * current reads along (winding-losses.ts). Undefined for Darlington stacks (an on-voltage of
+ * V_CE(sat) of the driver plus V_BE of the output) and MOSFETs (their R_DS(on) is the law already).
+ */
+function saturatedSwitch(ctx: Ctx, losses: readonly DeviceLoss[]): BjtClass | undefined {
+  if (ctx.spec.chain !== "bjt-single" && ctx.spec.chain !== "bjt-driver-pnp") return undefined;
+  const power = losses.find((l) => l.isPower);
+  return power?.family === "bjt" ? (power.dev as BjtClass) : undefined;
 }
 
 /** A solenoid coil's freewheel recovery at nominal conditions (winding-losses.ts); 0 for other loads. */

@@ -246,6 +246,27 @@ export function vceSat(dev: BjtClass, ic_A: number): number {
 }
 
 /**
+ * dV_CE(sat)/dI_C of `vceSat` at ic_A, Ω: the slope of the datasheet segment the current falls in (0
+ * below the lowest point, where the maximum is held; the last segment's above the highest; V/I above a
+ * lone point, which vceSat scales ∝ I_C). The ohmic part of the law, for a current that varies while on.
+ */
+export function vceSatSlope_ohm(dev: BjtClass, ic_A: number): number {
+  checkCurrent(dev, ic_A, "vceSatSlope_ohm");
+  const pts = [...dev.vce_sat].sort((a, b) => a.ic_A - b.ic_A);
+  const first = pts[0];
+  if (first === undefined)
+    throw new EngineMisuseError(`vceSatSlope_ohm(${dev.id}): the class has no saturation points`);
+  if (ic_A <= first.ic_A) return 0;
+  if (pts.length === 1) return first.vce_sat_V / first.ic_A;
+  for (let i = 1; i < pts.length; i++) {
+    const a = pts[i - 1]!;
+    const b = pts[i]!;
+    if (ic_A <= b.ic_A || i === pts.length - 1) return Math.max(0, (b.vce_sat_V - a.vce_sat_V) / (b.ic_A - a.ic_A));
+  }
+  return 0;
+}
+
+/**
  * Collector current at which the class's typical V_BE(on) is read: I_C(max)/10 (ours; the middle
  * of the range where data sheets state V_BE(on)). The netlist's BJT card puts its IS through it.
  */

@@ -19,6 +19,29 @@ export function conductionLossBjt_W(ic_A: number, vceSat_V: number, duty: number
   return ic_A * vceSat_V * duty;
 }
 
+/**
+ * Conduction loss of a saturated BJT whose current varies while it is on (a winding's ripple, or a
+ * motor's discontinuous pulses): V_CE(sat) on its tangent at the mean on-current Ī, V(i) ≈ V(Ī) +
+ * r·(i − Ī), averaged over the on-time: P = D·(V(Ī)·Ī + r·(I_rms² − Ī²)). Exact for a V_CE(sat) that is
+ * linear in I_C (a junction part plus an ohmic part, which the datasheet's saturation points and the
+ * netlist card's collector resistance both make it; common practice). With r = 0 it is I·V·D.
+ */
+export function conductionLossBjtWave_W(
+  onMean_A: number,
+  onRms_A: number,
+  vAtMean_V: number,
+  slope_ohm: number,
+  duty: number,
+): number {
+  nonNeg(onMean_A, "onMean_A");
+  nonNeg(vAtMean_V, "vAtMean_V");
+  nonNeg(slope_ohm, "slope_ohm");
+  dutyOk(duty);
+  if (!(onRms_A >= onMean_A * (1 - 1e-9)))
+    throw new EngineMisuseError(`losses: an RMS current (${onRms_A} A) is never below the mean (${onMean_A} A)`);
+  return duty * (vAtMean_V * onMean_A + slope_ohm * Math.max(0, onRms_A * onRms_A - onMean_A * onMean_A));
+}
+
 /** P = I_D² · R_DS(on) · D (common practice; pass the hot R_DS(on) for worst case). */
 export function conductionLossMosfet_W(id_A: number, rds_ohm: number, duty: number): number {
   nonNeg(id_A, "id_A");

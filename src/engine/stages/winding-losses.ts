@@ -9,7 +9,7 @@ import type { DiodeClass } from "../../model/device.ts";
 import type { WindingDrive, WindingWaveform } from "../shared/winding.ts";
 import { recoveryCharge_C, recoveryLoss_W, windingWaveform } from "../shared/winding.ts";
 import { diodeTransitTime_s } from "../shared/diode.ts";
-import { type SwitchingKind, switchingLoss_W } from "../shared/losses.ts";
+import { type SwitchingKind, conductionLossBjtWave_W, switchingLoss_W } from "../shared/losses.ts";
 import type { DeviceLoss } from "./chains/types.ts";
 
 export interface WindingSwitchTerms {
@@ -36,9 +36,20 @@ export function windingSwitchTerms(
     freewheel: DiodeClass | undefined;
     /** Without nominal transition times: the chain's worst-case switching loss scaled to a current. */
     scaled: (i_A: number) => number;
+    /**
+     * A saturated BJT's on-voltage as a law of its current (value and slope): the conduction is then
+     * taken at the waveform's own current (losses.ts `conductionLossBjtWave_W`), not at `vSw_V`.
+     */
+    vSwAt?: (i_A: number) => { v_V: number; r_ohm: number };
   },
 ): WindingSwitchTerms {
-  const cond_W = power.family === "mosfet" ? w.onRms_A ** 2 * o.rOn_ohm * o.duty : w.onMean_A * o.vSw_V * o.duty;
+  const law = o.vSwAt?.(w.onMean_A);
+  const cond_W =
+    power.family === "mosfet"
+      ? w.onRms_A ** 2 * o.rOn_ohm * o.duty
+      : law === undefined
+        ? w.onMean_A * o.vSw_V * o.duty
+        : conductionLossBjtWave_W(w.onMean_A, w.onRms_A, law.v_V, law.r_ohm, o.duty);
   const t = power.tNom_s;
   // Each edge at its own current: the ramp law is linear in I (Mohan Eq. 2-6 [src:mohan-3e-eq2-6]).
   const sw_W =
@@ -75,12 +86,25 @@ export function freewheelRecovery_W(
  * while on, (I_rms,on/I_mean,on)² ≥ 1: the chains take I²·R_DS(on) at a flat current, which a
  * rippling or discontinuous winding current exceeds (its shape taken at control 1, nominal).
  */
-export function withWindingForm(losses: DeviceLoss[], w: WindingWaveform | undefined): DeviceLoss[] {
+export function withWindingForm(
+  losses: DeviceLoss[],
+  w: WindingWaveform | undefined,
+  /**
+   * A saturated BJT switch (a single transistor or the driver chain's power PNP): its worst-case
+   * conduction I·V_CE(sat)(I)·D at the flat current `i_A`, whose ohmic part r·I grows with the same form
+   * factor: + r·I²·(k − 1)·D = pCond·r·I·(k − 1)/V_CE(sat)(I) (losses.ts `conductionLossBjtWave_W`).
+   */
+  bjt?: { i_A: number; v_V: number; r_ohm: number },
+): DeviceLoss[] {
   if (w === undefined || !(w.onMean_A > 0)) return losses;
   const k = (w.onRms_A / w.onMean_A) ** 2;
-  return losses.map((l) =>
-    l.isPower && l.family === "mosfet" ? { ...l, pCond_W: l.pCond_W * k, p_W: l.p_W + l.pCond_W * (k - 1) } : l,
-  );
+  // The ohmic share of a saturated BJT's V_CE(sat) grows with the form factor; a MOSFET's whole conduction does.
+  const factor = (l: DeviceLoss): number =>
+    l.family === "mosfet" ? k : bjt === undefined || !(bjt.v_V > 0) ? 1 : 1 + (bjt.r_ohm * bjt.i_A * (k - 1)) / bjt.v_V;
+  return losses.map((l) => {
+    const f = l.isPower ? factor(l) : 1;
+    return f === 1 ? l : { ...l, pCond_W: l.pCond_W * f, p_W: l.p_W + l.pCond_W * (f - 1) };
+  });
 }
 
 /**

@@ -12,18 +12,30 @@
  * to ≤ 0 V, the junction part is unknown and the value is scaled ∝ I_C (all ohmic, from memory).
  */
 import type { BjtClass } from "../../../model/device.ts";
-import { vceSat } from "../../shared/gain.ts";
+import { vceSat, vceSatSlope_ohm } from "../../shared/gain.ts";
 
 export function vceSatNominal_V(dev: BjtClass, ic_A: number): number {
-  const worst = vceSat(dev, ic_A);
+  const below = belowFirstPoint(dev, ic_A);
+  return below === undefined ? vceSat(dev, ic_A) : below.v0_V + below.r_ohm * ic_A;
+}
+
+/**
+ * dV/dI of `vceSatNominal_V` at ic_A, Ω: the line's slope below the lowest point (V/I where the value
+ * is scaled ∝ I_C), the datasheet segment's above it (gain.ts `vceSatSlope_ohm`).
+ */
+export function vceSatNominalSlope_ohm(dev: BjtClass, ic_A: number): number {
+  return belowFirstPoint(dev, ic_A)?.r_ohm ?? vceSatSlope_ohm(dev, ic_A);
+}
+
+/** The law below the lowest saturation point (see the file comment); undefined at or above it. */
+function belowFirstPoint(dev: BjtClass, ic_A: number): { v0_V: number; r_ohm: number } | undefined {
   const pts = [...dev.vce_sat].sort((a, b) => a.ic_A - b.ic_A);
   const p0 = pts[0];
-  if (p0 === undefined || ic_A >= p0.ic_A) return worst;
+  if (p0 === undefined || ic_A >= p0.ic_A) return undefined;
   const p1 = pts[1];
-  const proportional = (p0.vce_sat_V * ic_A) / p0.ic_A;
+  const proportional = { v0_V: 0, r_ohm: p0.vce_sat_V / p0.ic_A };
   if (p1 === undefined || !(p1.ic_A > p0.ic_A)) return proportional;
   const slope_ohm = (p1.vce_sat_V - p0.vce_sat_V) / (p1.ic_A - p0.ic_A);
   const v0_V = p0.vce_sat_V - slope_ohm * p0.ic_A;
-  if (!(slope_ohm >= 0) || !(v0_V > 0)) return proportional;
-  return v0_V + slope_ohm * ic_A;
+  return !(slope_ohm >= 0) || !(v0_V > 0) ? proportional : { v0_V, r_ohm: slope_ohm };
 }
