@@ -42,7 +42,7 @@ import { thermalStage } from "./stages/thermal.ts";
 import { reviewFailures } from "./stages/failure-modes.ts";
 import { protectionStage } from "./stages/protection.ts";
 import { seriesLoss_W } from "./stages/series-reverse.ts";
-import { switchSteps } from "./stages/switch-step.ts";
+import { driverSteps, switchSteps } from "./stages/switch-step.ts";
 import { guardedSwitchSteps, returnFetSteps } from "./stages/return-fet.ts";
 import { cautions, checkProblems, verdictLead } from "./stages/feasibility.ts";
 import { decideVerdict } from "./stages/verdict.ts";
@@ -117,6 +117,11 @@ function sizeStepped(spec: VariantSpec): SizedVariant {
   if (out.feasible) return out;
   // The switch stepped up under stress (stages/switch-step.ts): kept only when feasible.
   for (const stepped of switchSteps(spec, out)) {
+    const alt = sizeOnce(stepped);
+    if (alt.feasible) return alt;
+  }
+  // The chain's driver likewise, where the refusal is its own load (switch-step.ts driverSteps).
+  for (const stepped of driverSteps(spec, out)) {
     const alt = sizeOnce(stepped);
     if (alt.feasible) return alt;
   }

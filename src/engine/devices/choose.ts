@@ -101,6 +101,10 @@ export const STRESS_DEVICE_IDS: Readonly<Partial<Record<DeviceRole, readonly str
   // variant then passes); carried only where the chooser took a smaller class (`stressStepApplies`).
   power_npn: ["npn-power-to220"],
   power_pnp: ["pnp-power-to220"],
+  // The driver of the PNP chain and the two-stage Darlington's first stage where the chooser's estimate
+  // took a small-signal class and the sized drive then loads it past the derating policy (its current
+  // or its heat): the medium class (stages/switch-step.ts `driverSteps`; kept only when the variant passes).
+  driver_npn: ["npn-medium"],
 };
 
 /**
@@ -113,7 +117,7 @@ export function stressStepApplies(role: DeviceRole, chosen: DeviceClass | undefi
   if (role === "timing_npn") return (RAISED_DEVICE_IDS.timing_npn ?? []).includes(chosen.id);
   if (role === "gate_zener")
     return isZener(chosen) && isZener(step) && chosen.vz_V === step.vz_V && chosen.pz_W < step.pz_W;
-  if (role === "power_npn" || role === "power_pnp") {
+  if (role === "power_npn" || role === "power_pnp" || role === "driver_npn") {
     const order = DEFAULT_DEVICE_IDS[role];
     const at = order.indexOf(chosen.id);
     return at >= 0 && at < order.indexOf(step.id);

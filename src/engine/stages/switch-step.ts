@@ -105,3 +105,49 @@ export function switchSteps(spec: VariantSpec, out: SizedVariant): VariantSpec[]
     };
   });
 }
+
+/**
+ * Refusals of the chain's NPN driver that a class carrying more cures: its current, its power, its
+ * junction temperature against the derating policy.
+ */
+const DRIVER_RULES: ReadonlySet<string> = new Set([
+  "derating-current",
+  "check-current",
+  "derating-power",
+  "check-power",
+  "derating-tj",
+  "check-tj",
+]);
+
+/** The parts that take the driver class, by chain: the PNP chain's driver, the 2-stage Darlington's first stage. */
+const DRIVER_PART_ROLE: Readonly<Record<string, string>> = { "bjt-driver-pnp": "Q_DRV", "darlington-2": "Q_D1" };
+
+/**
+ * The chain's driver stepped up under stress (devices/choose.ts STRESS_DEVICE_IDS.driver_npn): where the
+ * refusal is the driver's own current, power or heat, the same variant with the medium class in its
+ * place. The chooser picks the driver from an estimate of its current before the drive is sized; at a
+ * wide supply window the sized drive can load a small-signal class past the policy (a 6 V, 0.3 A PNP
+ * chain at ±15 %: 79 mA in a 0.1 A class against 75 % allowed). Kept only when feasible (size.ts).
+ */
+export function driverSteps(spec: VariantSpec, out: SizedVariant): VariantSpec[] {
+  const partRole = DRIVER_PART_ROLE[spec.chain];
+  const step = spec.stressClasses?.driver_npn;
+  const ordinary = spec.devices.driver_npn;
+  if (partRole === undefined || step === undefined || step.family !== ordinary.family) return [];
+  if (!((step as BjtClass).ic_max_A > (ordinary as BjtClass).ic_max_A)) return [];
+  const refs = new Set((out.circuit?.parts ?? []).filter((p) => p.role === partRole).map((p) => `/parts/${p.ref}`));
+  const cured = [
+    ...new Set(out.verdict.blocking.filter((b) => refs.has(b.path) && DRIVER_RULES.has(b.rule)).map((b) => b.rule)),
+  ];
+  if (cured.length === 0) return [];
+  const reason =
+    `stepped up under stress: with ${ordinary.title} the driver is loaded past the derating policy ` +
+    `(${cured.join(", ")}); ${step.title} (${offers(step as BjtClass)}) passes every check`;
+  return [
+    {
+      ...spec,
+      devices: { ...spec.devices, driver_npn: step },
+      ...(spec.deviceReasons === undefined ? {} : { deviceReasons: { ...spec.deviceReasons, driver_npn: reason } }),
+    },
+  ];
+}

@@ -139,3 +139,44 @@ describe("the BJT chains' switch by stress: 9 V, 0.1 A LED strip on the PNP driv
     expect(s.spec.devices.power_npn.id).toBe("npn-power-to3");
   });
 });
+
+describe("the PNP chain's driver stepped up under stress: 6 V ±15 %, 0.3 A motor (200 Hz, 20–90 %)", () => {
+  // The chooser estimates the driver's current before the drive is sized; at this wide window the sized
+  // drive loads the 0.1 A small-signal class to 79 % against the policy's 75 % (its current rating).
+  const o: SpecOpts = {
+    supply_V: 6,
+    load_A: 0.3,
+    chain: "bjt-driver-pnp",
+    load_kind: "motor",
+    pwm_Hz: 200,
+    duty: [0.2, 0.9],
+    ambient_C: [5, 35],
+    supply_tolerance: 0.15,
+  };
+  const plain = sizeVariant(makeSpec(o));
+  const stepped = sizeVariant(built(o));
+  const drv = (s: ReturnType<typeof sizeVariant>) => s.circuit?.parts.find((p) => p.role === "Q_DRV");
+
+  it("without the step the driver's current fails the policy; with the medium class the variant passes", () => {
+    expect(plain.feasible).toBe(false);
+    expect(
+      plain.verdict.blocking.some((b) => b.rule === "check-current" && b.path === `/parts/${drv(plain)!.ref}`),
+    ).toBe(true);
+    expect(stepped.spec.devices.driver_npn.id).toBe("npn-medium");
+    expect(stepped.feasible).toBe(true);
+  });
+
+  it("the driver carries the same current in both (the drive is the chain's, not the class's), now within 75 %", () => {
+    const a = drv(plain)!;
+    const b = drv(stepped)!;
+    expectClose(b.stress.current_A!, a.stress.current_A!, 0.05);
+    expect(b.stress.current_A! / b.rating.current_A!).toBeLessThanOrEqual(0.75);
+  });
+
+  it("the step is the driver's design decision, naming the refusal it cures", () => {
+    const d = stepped.decisions?.find((x) => x.topic === "device class" && x.refs.includes(drv(stepped)!.ref));
+    expect(d?.reason).toMatch(
+      /stepped up under stress: .* the driver is loaded past the derating policy \(.*check-current/,
+    );
+  });
+});
