@@ -23,7 +23,7 @@ function rank(p: Part): [number, number] {
 
 export function assembleCircuit(
   parts: Part[],
-  opts: { supply_V: number; highSide: boolean; tapNet: string; chainInputNet: string },
+  opts: { supply_V: number; highSide: boolean; tapNet: string; chainInputNet: string; startHighA_ratio?: number },
 ): CircuitModel {
   const ranked = parts.map((p) => ({ p, r: rank(p) }));
   const sorted = ranked.sort((a, b) => a.r[0] - b.r[0] || a.r[1] - b.r[1]).map((x) => x.p);
@@ -64,6 +64,7 @@ export function assembleCircuit(
     chainInputNet: opts.chainInputNet,
     switchNet: "sw",
     ctrlPart: pot?.ref ?? "",
+    ...(opts.startHighA_ratio === undefined ? {} : { startHighA_ratio: opts.startHighA_ratio }),
   };
 }
 

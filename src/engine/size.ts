@@ -709,6 +709,7 @@ function sizeChosen(chosen: CoreChoice): SizedVariant {
     highSide: ctx.highSide,
     tapNet: tap.tapNet,
     chainInputNet: tap.inputNet,
+    startHighA_ratio: timing.startHighA_ratio,
   });
   // The review again on the assembled parts, so its cautions name parts by their reference designators.
   const reviewed = reviewFailures(ctx, circuit.parts, losses, thermal.perRole, heatsunk);

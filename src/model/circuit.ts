@@ -126,4 +126,10 @@ export interface CircuitModel {
   switchNet: string;
   /** Potentiometer position → load duty: ctrl 0 gives the minimum duty, 1 the maximum. */
   ctrlPart: string; // ref of the potentiometer
+  /**
+   * Where the netlist's start (`.ic`) puts the high timing collector `ca`, over the core's supply (the
+   * supply, or its regulated rail): the engine's loaded high level of collector A at nominal
+   * (src/engine/stages/astable.ts CoreTiming.collectorHighA_V). Absent: 1 (an unloaded collector).
+   */
+  startHighA_ratio?: number;
 }

@@ -137,10 +137,13 @@ export function renderNetlist(circuit: CircuitModel, meta: NetlistMeta): string 
     .filter((n, k, all) => all.indexOf(n) === k)
     .map((n) => ` v(${checkNet(n, "ic")})=${n === "vbus" ? spiceNum(meta.supply_V, "ic") : "0"}`)
     .join("");
-  // A core on its regulated rail (C_RAIL across the zener): the rail starts at the zener's voltage and
-  // the high collector at the rail, as on a supply-fed core it starts at the supply.
+  // A core on its regulated rail (C_RAIL across the zener): the rail starts at the zener's voltage. The
+  // high collector starts at its loaded high level, the engine's share of the core's supply (the rail,
+  // or the supply): held at the supply instead, a collector whose chain loads it to a third of that
+  // would couple two thirds of the supply too much into the other base, and the first half-period
+  // would run several periods long.
   const rail = coreRailStart(circuit, meta.supply_V);
-  const high = rail === null ? meta.supply_V : rail.v_V;
+  const high = (rail === null ? meta.supply_V : rail.v_V) * startShare(circuit);
   const railIc = rail === null ? "" : ` v(${checkNet(rail.net, "ic")})=${spiceNum(rail.v_V, "ic")}`;
   if (hasCore)
     out.push(
@@ -158,6 +161,15 @@ export function renderNetlist(circuit: CircuitModel, meta: NetlistMeta): string 
     ".end",
   );
   return out.join("\n") + "\n";
+}
+
+/** The high collector's start over the core's supply (CircuitModel.startHighA_ratio), within 0…1. */
+function startShare(circuit: CircuitModel): number {
+  const r = circuit.startHighA_ratio;
+  if (r === undefined) return 1;
+  if (!Number.isFinite(r) || r <= 0)
+    throw new EngineMisuseError(`netlist: startHighA_ratio must be a positive number, got ${r}`);
+  return Math.min(1, r);
 }
 
 /** The core rail's net and starting level (its zener's voltage, at most the supply), or null without one. */

@@ -11,6 +11,7 @@ import { renderVariantViews } from "../../src/render/variant.ts";
 import { targetFromSized, type Predicted } from "../../src/verify/target.ts";
 import { startEngine, type SpiceEngine } from "../../src/verify/engines/index.ts";
 import type { Measurement } from "../../src/model/verification.ts";
+import { spiceNum } from "../../src/render/spice-num.ts";
 import { library, makeSpec } from "../engine/fixtures.ts";
 
 const spec = makeSpec({
@@ -26,17 +27,19 @@ const spec = makeSpec({
 });
 const sized = sizeVariant(spec);
 const netlist = renderVariantViews(sized, library()).netlist;
+/** The published start's high collector: the engine's loaded level of collector A (render/netlist.ts). */
+const HIGH = spiceNum(12 * (sized.circuit!.startHighA_ratio ?? 1), "ic").replace(".", "\\.");
 
 describe("end decks", () => {
   it("the off end opens end_off and keeps the published start (collector A high: A starts off)", () => {
     const d = endDeck(netlist, "off");
     expect(d).toMatch(/^\.param end_off=1 end_on=0$/m);
-    expect(d).toMatch(/^\.ic v\(ca\)=12 v\(cb\)=0/m);
+    expect(d).toMatch(new RegExp(`^\\.ic v\\(ca\\)=${HIGH} v\\(cb\\)=0`, "m"));
   });
   it("the on end opens end_on and starts with B off (collector B high), the state it must leave", () => {
     const d = endDeck(netlist, "on");
     expect(d).toMatch(/^\.param end_off=0 end_on=1$/m);
-    expect(d).toMatch(/^\.ic v\(ca\)=0 v\(cb\)=12/m);
+    expect(d).toMatch(new RegExp(`^\\.ic v\\(ca\\)=0 v\\(cb\\)=${HIGH}`, "m"));
   });
 });
 

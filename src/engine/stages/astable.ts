@@ -232,6 +232,12 @@ export interface CoreTiming {
   /** High level of each driven node: the collector (plain core) or the follower's emitter. */
   vHighA_V: number;
   vHighB_V: number;
+  /**
+   * Collector A's own high level under its loads (Q_A off, settled), V: vHighA_V in the plain core; with
+   * followers their emitter's level plus V_BE,F (the collector sits one V_BE above the emitter it
+   * drives, followerThevenin, followerOfCollector). The netlist's start (`.ic`) puts collector A there.
+   */
+  collectorHighA_V: number;
   swingA_V: number;
   swingB_V: number;
   tauA_s: number;
@@ -395,6 +401,7 @@ export function evaluateCore(p: CoreParams): CoreTiming {
     aHigh: tAoff / period_s,
     vHighA_V: highLevel_V(a),
     vHighB_V: highLevel_V(b),
+    collectorHighA_V: highLevel_V(a) + (fo === undefined ? 0 : a.vbeF_V),
     swingA_V: swingA,
     swingB_V: swingB,
     tauA_s,

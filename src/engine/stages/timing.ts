@@ -54,6 +54,11 @@ export interface TimingResult {
   fCtrl1_Hz: number;
   /** Saturation voltage of a timing transistor at nominal supply, V. */
   vSatNom_V: number;
+  /**
+   * Collector A's loaded high level over the core's supply (CoreTiming.collectorHighA_V at the nominal
+   * supply, 25 °C, control ½): where the netlist's start puts the high collector (CircuitModel).
+   */
+  startHighA_ratio: number;
   /** The corners the verifier simulates besides the nominal run (sim-corners.ts). */
   corners: SimCorner[];
   /**
@@ -685,6 +690,7 @@ export function designTiming(
     followerLoss_W: built.followerLoss_W,
     fCtrl1_Hz: e1.f_Hz,
     vSatNom_V: e1.vSat_V,
+    startHighA_ratio: e5.timing.collectorHighA_V / ctx.vNom_V,
     ...optional("tapSinkNom_A", tapSinkNom_A(ctx, q, db, v, e1.vSat_V)),
     ...rechargeNom(e1, v.inverting),
     corners,
