@@ -666,7 +666,7 @@ function coreView(chosen: CoreChoice): CoreView {
 /**
  * The ramp stage (stages/ramp-offer.ts) on a core sized for a narrow band about 50 %: it takes the pot
  * network's place and the chain's tap; its duty reach, figures, parts, checks and decision stand for the
- * core's, the core's corners give way (the stage's are the engine's 2^11 per supply, not simulated yet).
+ * core's, and its simulated corners the core's (ramp-offer.ts rampSimCorners).
  */
 function rampView(chosen: CoreChoice, ramp: RampOffer): CoreView {
   const core = chosen.core.timing;
@@ -677,7 +677,7 @@ function rampView(chosen: CoreChoice, ramp: RampOffer): CoreView {
     checks: core.checks.filter((c) => kept(c.ref)),
     problems: core.problems.filter((p) => kept(/^\/parts\/(.+)$/.exec(p.path)?.[1] ?? "")),
     figures: [...core.figures.filter((f) => !ramp.dropFigures.has(f.key)), ...ramp.figures],
-    corners: [],
+    corners: ramp.corners,
   };
   const d = ramp.decision;
   return {

@@ -29,7 +29,18 @@ import type { Ctx } from "./context.ts";
 import type { ChainPlan, TapInfo } from "./chains/types.ts";
 import type { TapDesign } from "./tap.ts";
 import type { TimingResult } from "./timing.ts";
-import { RAMP_NOMINAL, evalRamp, sizeRamp, type RampCore, type RampSizing } from "./ramp-duty.ts";
+import {
+  RAMP_NOMINAL,
+  evalRamp,
+  rampCorners,
+  sizeRamp,
+  type RampCore,
+  type RampCorner,
+  type RampDevices,
+  type RampSizing,
+  type RampValues,
+} from "./ramp-duty.ts";
+import type { SimCorner, SimCornerName } from "../../model/corners.ts";
 import { RAMP_NETS, rampParts } from "./ramp-parts.ts";
 
 /**
@@ -43,6 +54,13 @@ export const RAMP_OFFER_CHAINS: ReadonlySet<string> = new Set(["mosfet-driver"])
  * collector duty needs a term the model lacks (docs/method.md).
  */
 export const RAMP_OFFER_MAX_HZ = 5000;
+/**
+ * The fixed core's base resistors' tolerance: 1 % metal film (sold in E24 values; common practice). The
+ * core's collector duty, and with it the ramp's level, follows their match: with the 5 % class the ends
+ * must pass beyond a ramp that moves twice as far, and the pair's reverse V_EB then passes V_EBO (12 V
+ * bench strip, 2 kHz: 7.0 V against 4.5 V).
+ */
+export const RAMP_RB_TOL = 0.01;
 /** The duty band the fixed core is sized for: the engine's own core search about 50 % (ours). */
 export const RAMP_CORE_DUTY = { min: 0.45, max: 0.55 } as const;
 /** Load kinds: not a winding (motors and solenoids were never simulated with the stage). */
@@ -89,6 +107,8 @@ export interface RampOffer {
   duty: { hi: number; lo: number; on: number; load: { lo: number; hi: number } };
   f: { lo: number; hi: number };
   decision: { roles: string[]; topic: string; choice: string; reason: string };
+  /** The operating corners the verifier simulates (rampSimCorners). */
+  corners: SimCorner[];
 }
 
 const DROP_ROLES = new Set(["RB_A", "RB_B", "RV_DUTY", "RBAL", "DBAL"]);
@@ -141,35 +161,37 @@ export function rampOffer(
     vbeOn(q, t_C) + (db === undefined ? 0 : diodeClassVf_V(db, (vcc - 1.3) / rB, t_C));
   const rRampLoad = Math.max(10 * rC, 4700);
   const cTol = ctx.cTol;
-  // Collector A at the core's two extremes of duty over R_B ±1 % and C_T crosswise (ramp-duty.ts CoreAt).
-  const coreAt = (vcc: number, t_C: number, signs: readonly number[] = [1, -1]): RampCore[] => {
+  // Collector A of the core with its base resistors and timing capacitors at multipliers `m`.
+  const coreWith = (vcc: number, t_C: number, m: CoreTols): RampCore => {
     const vSat = vceSat(q, vcc / rC);
     const load = { v_V: vcc / 2, r_ohm: rRampLoad };
-    return signs.map((s) => {
-      const c = evaluateCore({
-        vcc_V: vcc,
-        vOn_V: vOn(vcc, t_C),
-        vSat_V: vSat,
-        rCA_ohm: rC,
-        rCB_ohm: rC,
-        cA_F: v.c_F * (1 + s * cTol),
-        cB_F: v.c_F * (1 - s * cTol),
-        rBA_ohm: rB * (1 - s * 0.01),
-        rBB_ohm: rB * (1 + s * 0.01),
-        loadA: load,
-        loadB: load,
-      });
-      return {
-        tHigh_s: c.tAoff_s,
-        tLow_s: c.tBoff_s,
-        vSrcHigh_V: vcc,
-        rSrcHigh_ohm: rC,
-        vSat_V: vSat,
-        cT_F: v.c_F,
-        rail_V: vcc,
-      };
+    const c = evaluateCore({
+      vcc_V: vcc,
+      vOn_V: vOn(vcc, t_C),
+      vSat_V: vSat,
+      rCA_ohm: rC,
+      rCB_ohm: rC,
+      cA_F: v.c_F * m.cA,
+      cB_F: v.c_F * m.cB,
+      rBA_ohm: rB * m.rA,
+      rBB_ohm: rB * m.rB,
+      loadA: load,
+      loadB: load,
     });
+    return {
+      tHigh_s: c.tAoff_s,
+      tLow_s: c.tBoff_s,
+      vSrcHigh_V: vcc,
+      rSrcHigh_ohm: rC,
+      vSat_V: vSat,
+      cT_F: v.c_F,
+      rail_V: vcc,
+    };
   };
+  // Its two extremes of collector duty (ramp-duty.ts CoreAt): the base resistors (1 % parts) and the
+  // timing capacitors crosswise; `signs` [0] gives the nominal core.
+  const coreAt = (vcc: number, t_C: number, signs: readonly number[] = [1, -1]): RampCore[] =>
+    signs.map((s) => coreWith(vcc, t_C, crosswise(s, RAMP_RB_TOL, cTol)));
   const t = spec.targets;
   const potTol = ctx.potTol;
   const sizing = sizeRamp({
@@ -205,6 +227,7 @@ export function rampOffer(
     tMin_C: t.ambient_C[0],
     vOn_V: vOn(ctx.vMax_V, t.ambient_C[0]),
     rTol: tol,
+    rBTol: RAMP_RB_TOL,
     potTol,
     cap: { tol: cTol },
     tapLoad_A,
@@ -270,7 +293,16 @@ export function rampOffer(
     ),
   ];
   const v2 = sizing.values;
+  const corners = rampSimCorners(sizing.values, dev, chain, {
+    supplies: [ctx.vMin_V, ctx.vMax_V],
+    ks: rampCorners(t.ambient_C[0], t.ambient_C[1], tol, potTol, cTol),
+    coreWith,
+    rTol: RAMP_RB_TOL,
+    cTol,
+    ends,
+  });
   return {
+    corners,
     spec,
     sizing,
     info: { rC_ohm: rOut, rTap_ohm: rT, iMin_A: iMin, iMax_A: iMax, vLow_V: 0 },
@@ -287,7 +319,7 @@ export function rampOffer(
       on: e1.duty,
       load: { lo: Math.min(1, w.d0.hi), hi: Math.min(1, w.d1.lo) },
     },
-    f: w.f,
+    f: timing.search.worst.f,
     decision: {
       roles: ["Q_CR", "Q_CW", "Q_LVL", "RV_DUTY", "RR_A", "CR_A"],
       topic: "duty stage",
@@ -302,4 +334,123 @@ export function rampOffer(
         `reaches ${ends ? "0 % and 100 % at the control's ends" : "the asked range"}`,
     },
   };
+}
+
+/** The core's tolerance extreme `s` (coreAt's ±1) and one corner of the stage as a simulated corner's multipliers. */
+function cornerOf(
+  name: SimCornerName,
+  label: string,
+  vcc_V: number,
+  m: CoreTols,
+  k: RampCorner,
+  ctrl: number,
+  predicted: { f_Hz: number; duty: number },
+): SimCorner {
+  return {
+    name,
+    label,
+    vcc_V,
+    t_C: k.t_C,
+    kEndA: m.rA,
+    kEndB: m.rB,
+    kPot: k.kPot,
+    kCA: m.cA,
+    kCB: m.cB,
+    kRCA: 1,
+    kRCB: 1,
+    ctrl,
+    gain: "min",
+    predicted,
+    scale: {
+      RR_A: k.kRamp,
+      RR_B: k.kRamp,
+      CR_A: k.kCRamp,
+      CR_B: k.kCRamp,
+      RD_HI: k.kHi,
+      RD_LO: k.kLo,
+      R_HYS: k.kHys,
+      R_TAIL: k.kTail,
+      R_CMP: k.kCmp,
+    },
+  };
+}
+
+/** Multipliers of the fixed core's base resistors and timing capacitors. */
+export interface CoreTols {
+  rA: number;
+  rB: number;
+  cA: number;
+  cB: number;
+}
+
+/** One side's R·C long and the other's short (`s` = 1), the reverse (−1), or nominal (0). */
+export function crosswise(s: number, rTol: number, cTol: number): CoreTols {
+  return { rA: 1 - s * rTol, rB: 1 + s * rTol, cA: 1 + s * cTol, cB: 1 - s * cTol };
+}
+
+/** Every timing R and C at one end: `s` = 1 the slowest core, −1 the fastest. */
+function alike(s: number, rTol: number, cTol: number): CoreTols {
+  return { rA: 1 + s * rTol, rB: 1 + s * rTol, cA: 1 + s * cTol, cB: 1 + s * cTol };
+}
+
+/**
+ * The corners the verifier simulates for the stage, with the published deck's cards (least gain, an
+ * identical pair: no offset; the prediction is taken likewise): the control's upper end at the corner
+ * that leaves it least margin (with a true on, the ramp's bottom closest above the level at which the
+ * tap would rise, over both supplies × the stage's 2^9 tolerance corners × both ambient ends × the
+ * core's two extremes), and the slowest and fastest core at control ½ (the frequency's range). The
+ * lower end is not simulated at a corner: with a true off the load never switches on there, and the
+ * corner runs read the on-current (src/verify/corner-runs.ts).
+ */
+export function rampSimCorners(
+  v: RampValues,
+  dev: RampDevices,
+  chain: { inverting: boolean; tapLoad_A: number },
+  env: {
+    supplies: readonly number[];
+    ks: readonly RampCorner[];
+    coreWith: (vcc: number, t_C: number, m: CoreTols) => RampCore;
+    rTol: number;
+    cTol: number;
+    ends: boolean;
+  },
+): SimCorner[] {
+  // The deck's pair is identical and its cards at least gain: one offset and one gain corner stand for all.
+  const ks = env.ks
+    .filter((k) => k.offset_V > 0 && k.pairGain === "min")
+    .map((k) => ({ ...k, offset_V: 0, pairGain: "min" as const }));
+  let top: { margin: number; c: SimCorner } | undefined;
+  let slow: SimCorner | undefined;
+  let fast: SimCorner | undefined;
+  const label = "control 1, the stage's tolerances leaving the least margin to its end";
+  for (const vcc of env.supplies)
+    for (const t_C of [...new Set(ks.map((k) => k.t_C))]) {
+      for (const s of [1, -1]) {
+        const m = crosswise(s, env.rTol, env.cTol);
+        const core = env.coreWith(vcc, t_C, m);
+        for (const k of ks.filter((x) => x.t_C === t_C)) {
+          const e = evalRamp(v, core, dev, k, 1, chain);
+          // Control 1 is the inverting chain's most duty: with a true on the tap held low, the ramp's
+          // bottom above the level at which it would rise; else the least duty there.
+          const margin = env.ends ? e.rampMin_V - e.levelOn_V : e.duty;
+          if (top === undefined || margin < top.margin)
+            top = {
+              margin,
+              c: cornerOf("duty-ctrl1-low", label, vcc, m, k, 1, { f_Hz: 1 / e.period_s, duty: e.duty }),
+            };
+        }
+        // The frequency's two ends: every timing R and C at one end of its tolerance, control ½.
+        const mf = alike(s, env.rTol, env.cTol);
+        const k0 = { ...RAMP_NOMINAL, t_C, pairGain: "min" as const };
+        const e5 = evalRamp(v, env.coreWith(vcc, t_C, mf), dev, k0, 0.5, chain);
+        const f = 1 / e5.period_s;
+        const at = (name: SimCornerName, what: string) =>
+          cornerOf(name, what, vcc, mf, k0, 0.5, { f_Hz: f, duty: e5.duty });
+        if (s > 0 && (slow === undefined || f < slow.predicted.f_Hz))
+          slow = at("slow", "slowest: every timing R and C at the upper end, control ½");
+        if (s < 0 && (fast === undefined || f > fast.predicted.f_Hz))
+          fast = at("fast", "fastest: every timing R and C at the lower end, control ½");
+      }
+    }
+  return [top?.c, slow, fast].filter((c): c is SimCorner => c !== undefined);
 }

@@ -17,6 +17,7 @@ import { renderBom } from "../../../src/render/bom.ts";
 import { rampSettlePeriods, RAMP_SETTLE_TAU, withRampSettle } from "../../../src/verify/ramp-plan.ts";
 import { DEFAULT_RUN_PLAN, planFor } from "../../../src/verify/runs.ts";
 import { targetFromSized } from "../../../src/verify/target.ts";
+import { cornerCircuit } from "../../../src/verify/corner-deck.ts";
 import type { DesignRecord } from "../../../src/model/design.ts";
 import { REPO } from "../../records/project.ts";
 import { NGSPICE, hasNgspice, withStatements } from "../../render/ngspice.ts";
@@ -107,6 +108,27 @@ describe(`the ramp stage offered by sizeVariant (${ID}, demo numbers)`, () => {
     expect(s24.feasible).toBe(false);
     expect(s24.circuit?.parts.some((p) => p.role === "Q_LVL") ?? false).toBe(false);
     expect(sizeWithRamp(v24)).toBeNull();
+  });
+
+  it("the verifier's corners: the control's upper end at its least margin, the slowest and fastest core", () => {
+    const ks = sized.corners!;
+    expect(ks.map((k) => k.name)).toEqual(["duty-ctrl1-low", "slow", "fast"]);
+    const [top, slow, fast] = ks as [(typeof ks)[0], (typeof ks)[0], (typeof ks)[0]];
+    expect(top.ctrl).toBe(1);
+    expect(top.predicted.duty).toBe(1);
+    expect(slow.predicted.f_Hz).toBeLessThan(fig("frequency_nominal").value);
+    expect(fast.predicted.f_Hz).toBeGreaterThan(fig("frequency_nominal").value);
+    // Both inside the published frequency range (the narrow core's own worst case).
+    const [fLo, fHi] = fig("frequency_nominal").range!;
+    expect(slow.predicted.f_Hz).toBeGreaterThanOrEqual(fLo);
+    expect(fast.predicted.f_Hz).toBeLessThanOrEqual(fHi);
+    // The stage's own parts move to the corner's ends in its deck; the base resistors are 1 % parts.
+    const moved = cornerCircuit(circuit, top);
+    const at = (c: typeof circuit, r: string) => c.parts.find((p) => p.role === r)!.value;
+    for (const r of ["RR_A", "CR_A", "RD_HI", "RD_LO", "R_HYS", "R_TAIL", "R_CMP"])
+      expect(at(moved, r) / at(circuit, r), r).toBeCloseTo(top.scale![r]!, 12);
+    expect(role("RB_A")!.tolerance).toBe(0.01);
+    expect([1.01, 0.99]).toContain(Number((at(moved, "RB_A") / at(circuit, "RB_A")).toFixed(6)));
   });
 
   it("reference designators are the same in the netlist, the schematic and the parts list", () => {
