@@ -97,6 +97,10 @@ describe(`the ramp stage offered by sizeVariant (${ID}, demo numbers)`, () => {
     expect(fig("duty_min").range).toEqual([0, 0]);
     expect(fig("duty_max").value).toBe(1);
     expect(fig("duty_max").range).toEqual([1, 1]);
+    // A lifted wiper latches the comparator (derived; native ngspice, 2026-12-05: control 0 then lifted stays
+    // off, control 1 then lifted stays fully on): the caution says so, not the pot core's "fails safe".
+    expect(sized.cautions.some((c) => /latches in the state it was in/.test(c))).toBe(true);
+    expect(sized.cautions.some((c) => /fails safe\)\.$/.test(c) && /wiper/.test(c))).toBe(false);
     const d = sized.decisions!.find((x) => x.topic === "duty stage")!;
     expect(d.choice).toMatch(/ramp and comparator/);
     expect(d.reason).toMatch(/5–95 % with a true off and on \(duty-range/);
