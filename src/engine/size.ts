@@ -75,11 +75,21 @@ import {
 } from "./stages/core-rail.ts";
 
 export function sizeVariant(spec: VariantSpec): SizedVariant {
-  const out = sizePotCore(spec);
+  return sizePotCore(spec);
+}
+
+/**
+ * sizeVariant with the ramp-and-comparator duty stage offered (stages/ramp-offer.ts; docs/method.md, "A
+ * duty stage that sets a voltage"): tried only where sizeVariant refuses the variant on its duty range
+ * (`rampOffered`), kept only when the variant it makes passes every check, so every variant that passes
+ * keeps its design and a refusal keeps its page. Not offered to builds (src/cli/pipeline.ts, the browser
+ * sizer): simulated, its duty at control ½ came out 6–13 points below the prediction on several cores
+ * (docs/method.md, "Offered"); the tests and the measurements call it.
+ */
+export function sizeVariantWithRampStage(spec: VariantSpec): SizedVariant {
+  const out = sizeVariant(spec);
   if (out.feasible || !rampOffered(spec, out)) return out;
-  // Refused on the duty range with every potentiometer core: the ramp-and-comparator duty stage
-  // (stages/ramp-offer.ts), kept only when the variant it makes passes every check, so every variant
-  // that passed before keeps its design and a refusal keeps its page.
+  // Refused on the duty range with every potentiometer core: the ramp stage, kept only when feasible.
   const why = out.verdict.blocking.find((b) => b.rule.startsWith("duty-range"))?.rule ?? "duty-range-unreachable";
   try {
     const alt = withCoreMemo(() => sizeWithRamp(spec, why));

@@ -50,10 +50,19 @@ import { RAMP_NETS, rampParts } from "./ramp-parts.ts";
  */
 export const RAMP_OFFER_CHAINS: ReadonlySet<string> = new Set(["mosfet-driver"]);
 /**
- * Highest PWM frequency it is offered at, Hz: measured at 4–5 kHz; at 20 kHz and up the core's
- * collector duty needs a term the model lacks (docs/method.md).
+ * The PWM frequencies it is offered at, Hz. Simulated in both engines within their bands at 2 kHz (12 V
+ * bench strip), 4 kHz (the demo's grow strip, native ngspice) and 5 kHz (12 V grid cores); at 1 kHz the
+ * grid's 6 V and 12 V cores put the duty at control ½ 6–13 points below the prediction (the ramp's top
+ * 0.15 V lower than predicted on the 12 V one); at 20 kHz and up the core's collector duty needs a term
+ * the model lacks (docs/method.md).
  */
+export const RAMP_OFFER_MIN_HZ = 2000;
 export const RAMP_OFFER_MAX_HZ = 5000;
+/**
+ * The lowest nominal supply it is offered at, V: at 9 V (grid, 5 kHz) the frequency came out 12 % below
+ * the core's prediction in both engines; the pair's reverse V_EB refuses 24 V and up.
+ */
+export const RAMP_OFFER_MIN_V = 12;
 /**
  * The fixed core's base resistors' tolerance: 1 % metal film (sold in E24 values; common practice). The
  * core's collector duty, and with it the ramp's level, follows their match: with the 5 % class the ends
@@ -67,13 +76,15 @@ export const RAMP_CORE_DUTY = { min: 0.45, max: 0.55 } as const;
 const RAMP_LOADS: ReadonlySet<string> = new Set(["led", "lamp", "resistive"]);
 
 /**
- * Whether the stage is offered after `refused`: the chain and frequency above, a load that is not a
- * winding, and a refusal with a duty-range rule among its reasons (the one thing the stage changes).
+ * Whether the stage is offered after `refused`: the chain, frequencies and supply above, a load that is
+ * not a winding, and a refusal with a duty-range rule among its reasons (the one thing the stage changes).
  */
 export function rampOffered(spec: VariantSpec, refused: SizedVariant): boolean {
   return (
     RAMP_OFFER_CHAINS.has(spec.chain) &&
+    spec.targets.pwm_Hz >= RAMP_OFFER_MIN_HZ &&
     spec.targets.pwm_Hz <= RAMP_OFFER_MAX_HZ &&
+    spec.supply_V >= RAMP_OFFER_MIN_V &&
     RAMP_LOADS.has(spec.load_kind) &&
     refused.verdict.blocking.some((b) => b.rule.startsWith("duty-range"))
   );
