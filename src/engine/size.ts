@@ -10,14 +10,14 @@ import type { DesignProblem } from "../model/problem.ts";
 import { EngineMisuseError } from "../model/errors.ts";
 import { formatValue } from "../model/format.ts";
 import type { StressCheck } from "../model/derating.ts";
-import type { SizedVariant } from "../model/sized.ts";
+import type { DesignDecision, SizedVariant } from "../model/sized.ts";
 import type { VariantSpec } from "../model/variant.ts";
 import { DEVICE_ROLES, type DeviceRole } from "../model/design.ts";
 import type { BjtClass, DiodeClass } from "../model/device.ts";
 import { vceSat, vceSatSlope_ohm } from "./shared/gain.ts";
 import { vceSatNominal_V, vceSatNominalSlope_ohm } from "./stages/chains/sat-nominal.ts";
 import { diodeCj_F, diodeClassVf_V } from "./shared/diode.ts";
-import type { ChainPlan, DeviceLoss, OperatingPoint } from "./stages/chains/types.ts";
+import type { ChainPlan, DeviceLoss, OperatingPoint, TapInfo } from "./stages/chains/types.ts";
 import { conductionLossMosfet_W, switchingLoss_W } from "./shared/losses.ts";
 import { assembleCircuit, refsByRole } from "../circuit/assemble.ts";
 import { figure, problem } from "./shared/figures.ts";
@@ -56,6 +56,8 @@ import {
 import { TIGHT_CAPS, tightCapsAllowed } from "./stages/timing-caps.ts";
 import { CROSS_TURNOVER_CHAINS, crossAllowed, withCrossWithheld } from "./stages/cross-checks.ts";
 import { potStepOffered } from "./stages/duty-pot.ts";
+import { type RampOffer, rampCoreSpec, rampOffer, rampOffered } from "./stages/ramp-offer.ts";
+import { RAMP_NETS } from "./stages/ramp-parts.ts";
 import { type PullInTimer, designPullInTimer } from "./stages/pull-in-timer.ts";
 import { type ControlEnds, controlEnds, dutyReach } from "./stages/end-contacts.ts";
 import {
@@ -75,6 +77,33 @@ import {
 } from "./stages/core-rail.ts";
 
 export function sizeVariant(spec: VariantSpec): SizedVariant {
+  return sizePotCore(spec);
+}
+
+/**
+ * sizeVariant with the ramp-and-comparator duty stage offered (stages/ramp-offer.ts; docs/method.md, "A
+ * duty stage that sets a voltage"): tried only where sizeVariant refuses the variant on its duty range
+ * (`rampOffered`), kept only when the variant it makes passes every check, so every variant that passes
+ * keeps its design and a refusal keeps its page. Not offered to builds (src/cli/pipeline.ts, the browser
+ * sizer): simulated, its duty at control ½ came out 6–13 points below the prediction on several cores
+ * (docs/method.md, "Offered"); the tests and the measurements call it.
+ */
+export function sizeVariantWithRampStage(spec: VariantSpec): SizedVariant {
+  const out = sizeVariant(spec);
+  if (out.feasible || !rampOffered(spec, out)) return out;
+  // Refused on the duty range with every potentiometer core: the ramp stage, kept only when feasible.
+  const why = out.verdict.blocking.find((b) => b.rule.startsWith("duty-range"))?.rule ?? "duty-range-unreachable";
+  try {
+    const alt = withCoreMemo(() => sizeWithRamp(spec, why));
+    return alt?.feasible === true ? alt : out;
+  } catch (err) {
+    // A misuse inside the ramp attempt must not cost the variant the refusal it already has.
+    if (err instanceof EngineMisuseError) return out;
+    throw err;
+  }
+}
+
+function sizePotCore(spec: VariantSpec): SizedVariant {
   const out = sizeCrossStep(spec);
   if (out.feasible || !potStepOffered(spec)) return out;
   // Refused with every arrangement, class step and rail on the ±20 % duty pot: the same again with a
@@ -561,6 +590,17 @@ export function sizeWithGateBuffer(spec: VariantSpec): SizedVariant | null {
   });
 }
 
+/**
+ * The variant on a plain core sized for ≈ 50 % with the ramp stage setting the duty (stages/ramp-offer.ts;
+ * docs/method.md, "A duty stage that sets a voltage"); null where none is found.
+ */
+export function sizeWithRamp(spec: VariantSpec, why = "duty-range-unreachable"): SizedVariant | null {
+  const chosen = coreOf(rampCoreSpec(spec), false);
+  if (!chosen.core.timing.search.passed || chosen.core.cross !== undefined) return null;
+  const offer = rampOffer(spec, chosen.ctx, chosen.plan, chosen.core.tap, chosen.core.timing, why);
+  return offer === null ? null : sizeChosen(chosen, offer);
+}
+
 /** The chain's operating point's share of a regulated core rail: the core's current there. */
 function railOp(chosen: CoreChoice): { railLoad_A?: number } {
   return chosen.rail === undefined ? {} : { railLoad_A: chosen.rail.load_A };
@@ -596,27 +636,108 @@ function railPieces(chosen: CoreChoice, finParts: Part[], timing: TimingResult) 
   };
 }
 
-function sizeChosen(chosen: CoreChoice): SizedVariant {
-  const { spec, ctx, plan } = chosen;
-  const { tap, timing, rcLowered, follower, cross, caps } = chosen.core;
+/** What sizeChosen reads of the core and its duty stage: the pot core's own, or the ramp stage's (rampView). */
+interface CoreView {
+  /** The variant as asked. */
+  spec: VariantSpec;
+  timing: TimingResult;
+  /** Duty reach every duty-weighted figure is taken over, and the frequency's worst-case span. */
+  duty: { hi: number; lo: number };
+  f: { lo: number; hi: number };
+  /** The duty at control 1 (nominal) and the load's band, for the load stage. */
+  dOn: number;
+  loadBand: { lo: number; hi: number };
+  info: TapInfo;
+  tapNet: string;
+  tapParts: Part[];
+  /** The tap's checks and the duty stage's own. */
+  tapChecks: StressCheck[];
+  stageParts: Part[];
+  problems: DesignProblem[];
+  decisions: (toRef: (role: string) => string) => DesignDecision[];
+}
+
+function coreView(chosen: CoreChoice): CoreView {
+  const { spec } = chosen;
+  const { tap, timing } = chosen.core;
   const w = timing.search.worst;
-  // With the control's ends (stages/end-contacts.ts) the load runs at duty 1 and duty 0 too: every
-  // duty-weighted figure is taken over that widened range.
-  const { hi: dutyHi, lo: dutyLo } = dutyReach(spec.targets.off_on_ends, w);
-  const fin = plan.finish(tap.info, {
+  return {
+    spec,
+    timing,
+    // With the control's ends (stages/end-contacts.ts) the load runs at duty 1 and duty 0 too: every
+    // duty-weighted figure is taken over that widened range.
+    duty: dutyReach(spec.targets.off_on_ends, w),
+    f: w.f,
+    dOn: timing.figures.find((f) => f.key === "duty_max")?.value ?? Math.min(1, w.dMax.hi),
+    loadBand: { lo: Math.min(1, w.dMin.hi), hi: Math.min(1, w.dMax.lo) },
+    info: tap.info,
+    tapNet: tap.tapNet,
+    tapParts: tap.parts,
+    tapChecks: tap.checks,
+    stageParts: [],
+    problems: [],
+    decisions: () => [],
+  };
+}
+
+/**
+ * The ramp stage (stages/ramp-offer.ts) on a core sized for a narrow band about 50 %: it takes the pot
+ * network's place and the chain's tap; its duty reach, figures, parts, checks and decision stand for the
+ * core's, and its simulated corners the core's (ramp-offer.ts rampSimCorners).
+ */
+function rampView(chosen: CoreChoice, ramp: RampOffer): CoreView {
+  const core = chosen.core.timing;
+  const kept = (ref: string): boolean => !ramp.dropRoles.has(ref);
+  const timing: TimingResult = {
+    ...core,
+    parts: core.parts.filter((p) => kept(p.role)),
+    checks: core.checks.filter((c) => kept(c.ref)),
+    problems: core.problems.filter((p) => kept(/^\/parts\/(.+)$/.exec(p.path)?.[1] ?? "")),
+    figures: [...core.figures.filter((f) => !ramp.dropFigures.has(f.key)), ...ramp.figures],
+    corners: ramp.corners,
+  };
+  const d = ramp.decision;
+  return {
+    spec: ramp.spec,
+    timing,
+    duty: { hi: ramp.duty.hi, lo: ramp.duty.lo },
+    f: ramp.f,
+    dOn: ramp.duty.on,
+    loadBand: ramp.duty.load,
+    info: ramp.info,
+    tapNet: RAMP_NETS.tap,
+    tapParts: [ramp.rt.part],
+    tapChecks: [...ramp.rt.checks, ...ramp.checks],
+    stageParts: ramp.parts,
+    problems: [...ramp.problems, ...ramp.rt.problems],
+    decisions: (toRef) => [{ refs: d.roles.map(toRef), topic: d.topic, choice: d.choice, reason: d.reason }],
+  };
+}
+
+/**
+ * The sized variant on its chosen core. With `ramp` (stages/ramp-offer.ts) the core was sized for a
+ * narrow band about 50 % and the ramp stage takes the pot network's place and the chain's tap: its duty
+ * reach, figures, parts, checks and decision stand for the core's, and the variant carries the asked spec.
+ */
+function sizeChosen(chosen: CoreChoice, ramp?: RampOffer): SizedVariant {
+  const { ctx, plan } = chosen;
+  const { tap, rcLowered, follower, cross, caps } = chosen.core;
+  const view = ramp === undefined ? coreView(chosen) : rampView(chosen, ramp);
+  const { spec, timing } = view;
+  const { hi: dutyHi, lo: dutyLo } = view.duty;
+  const fin = plan.finish(view.info, {
     dutyMax: dutyHi,
-    fMax_Hz: w.f.hi,
+    fMax_Hz: view.f.hi,
     core: coreAtNominal(timing),
     ...railOp(chosen),
   });
   const rail = railPieces(chosen, fin.parts, timing);
-  const dOn = timing.figures.find((f) => f.key === "duty_max")?.value ?? Math.min(1, w.dMax.hi);
   const vSwNom_V = fin.vSwNom_V ?? plan.vSwNom_V;
   const load = loadStage(
     ctx,
     vSwNom_V,
-    dOn,
-    { lo: Math.min(1, w.dMin.hi), hi: Math.min(1, w.dMax.lo) },
+    view.dOn,
+    view.loadBand,
     Math.max(vSwNom_V, plan.vSwMax_V),
     Number.isFinite(timing.fCtrl1_Hz) && timing.fCtrl1_Hz > 0 ? timing.fCtrl1_Hz : ctx.f_Hz,
   );
@@ -649,8 +770,8 @@ function sizeChosen(chosen: CoreChoice): SizedVariant {
   const prot = protectionStage(
     ctx,
     rail.coreCurrent_A,
-    w.f.lo,
-    w.f.hi,
+    view.f.lo,
+    view.f.hi,
     dutyLo,
     power === undefined
       ? undefined
@@ -663,12 +784,12 @@ function sizeChosen(chosen: CoreChoice): SizedVariant {
     fin.losses,
     load.iOn_A,
     vSwNom_V,
-    w.f.hi,
+    view.f.hi,
     timing.fCtrl1_Hz,
     load.winding === undefined ? undefined : { wave: load.winding },
   );
   const motor = motorRunsOf(ctx, timing, vSwNom_V, load.winding, (wave, duty, f_Hz) =>
-    nominalDissipation(ctx, timing.figures, fin.losses, load.iOn_A, vSwNom_V, w.f.hi, timing.fCtrl1_Hz, {
+    nominalDissipation(ctx, timing.figures, fin.losses, load.iOn_A, vSwNom_V, view.f.hi, timing.fCtrl1_Hz, {
       wave,
       at: { duty, f_Hz },
     }),
@@ -683,7 +804,8 @@ function sizeChosen(chosen: CoreChoice): SizedVariant {
     ...rail.moved(endc.rewire(timing.parts)),
     ...(timer?.parts ?? []),
     ...endc.parts,
-    ...rail.moved(tap.parts),
+    ...rail.moved(view.tapParts),
+    ...view.stageParts,
     ...plan.parts,
     ...fin.parts,
     ...rail.parts,
@@ -707,7 +829,7 @@ function sizeChosen(chosen: CoreChoice): SizedVariant {
   const circuit = assembleCircuit(parts, {
     supply_V: spec.supply_V,
     highSide: ctx.highSide,
-    tapNet: tap.tapNet,
+    tapNet: view.tapNet,
     chainInputNet: tap.inputNet,
     startHighA_ratio: timing.startHighA_ratio,
   });
@@ -723,7 +845,7 @@ function sizeChosen(chosen: CoreChoice): SizedVariant {
   };
   const checks: StressCheck[] = [
     ...timing.checks,
-    ...tap.checks,
+    ...view.tapChecks,
     ...plan.checks,
     ...fin.checks,
     ...rail.checks,
@@ -737,6 +859,7 @@ function sizeChosen(chosen: CoreChoice): SizedVariant {
   };
   const stageProblems = [
     ...timing.problems.filter(endc.keepTimingProblem),
+    ...view.problems,
     ...endc.problems,
     ...plan.problems,
     ...fin.problems,
@@ -856,6 +979,7 @@ function sizeChosen(chosen: CoreChoice): SizedVariant {
           ]),
       ...endc.decisions(toRef),
       ...rail.decisions(toRef),
+      ...view.decisions(toRef),
     ],
     corners: endc.corners(motor?.corners ?? timing.corners),
   };

@@ -41,4 +41,9 @@ export interface SimCorner extends Corner {
    * (targets.off_on_ends) the load's full on-current at this corner (stages/end-contacts.ts).
    */
   predicted: { f_Hz: number; duty: number; emf_V?: number; iEndOn_A?: number };
+  /**
+   * Value multipliers of parts outside the core's timing set, by role: the ramp-and-comparator duty
+   * stage's (src/engine/stages/ramp-offer.ts). Absent: those parts at their values.
+   */
+  scale?: Readonly<Record<string, number>>;
 }

@@ -34,6 +34,8 @@ export function cacheKey(netlist: string, engine: { name: EngineName; version: s
     ...(target.emfByCtrl !== undefined ? [target.emfByCtrl, target.midLoad ?? false] : []),
     target.loadR_ohm,
     target.supply_V,
+    // The ramp stage's settling (ramp-plan.ts): present only for its variants, so other keys stay as they were.
+    ...(target.rampTau_s !== undefined ? [target.rampTau_s] : []),
     target.predicted["chain_threshold"]?.value ?? null,
     // Where an inductive load's preparatory run starts (runs.ts predictedLoadCurrent).
     target.inductive

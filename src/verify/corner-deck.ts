@@ -60,7 +60,7 @@ export function cornerCircuit(c: CircuitModel, k: SimCorner): CircuitModel {
       delete spice.emf_by_ctrl;
       return { ...p, spice };
     }
-    const m = multiplier(p.role, k);
+    const m = k.scale?.[p.role] ?? multiplier(p.role, k);
     return m === 1 ? p : { ...p, value: p.value * m };
   });
   return { ...c, parts };

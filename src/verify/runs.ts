@@ -9,6 +9,7 @@ import { transistorElement, type VerifyTarget } from "./target.ts";
 import { baseProbe, gateDrive, gateProbe, type BaseProbe, type GateProbe } from "./gate.ts";
 import { VT_NOMINAL_V } from "../engine/shared/temperature.ts";
 import { SpiceRunError } from "../model/errors.ts";
+import { withRampSettle } from "./ramp-plan.ts";
 import { handOverInstant, handedCurrent, heldNodes, nodeVoltagesAt } from "./hand-over.ts";
 
 /**
@@ -393,9 +394,9 @@ async function prepareLoad(
 
 /** The plan a target's runs take: `plainLoad`'s settle and length for a load without inductance. */
 export function planFor(target: VerifyTarget, plan: RunPlan): RunPlan {
-  if (target.inductive || plan.plainLoad === undefined) return plan;
+  if (target.inductive || plan.plainLoad === undefined) return withRampSettle(target, plan);
   const { plainLoad, ...rest } = plan;
-  return { ...rest, ...plainLoad };
+  return withRampSettle(target, { ...rest, ...plainLoad });
 }
 
 /**

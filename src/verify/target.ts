@@ -52,6 +52,11 @@ export interface VerifyTarget {
   ranges?: Record<string, [number, number]>;
   /** Solenoid variants with a pull-in timer: the predicted nominal hold and the pull-in current (pull-in.ts). */
   pullIn?: { tHold_s: number; iPull_A: number };
+  /**
+   * The ramp-and-comparator duty stage's time constant R_RAMP·C_RAMP, s (its runs settle over several:
+   * ramp-plan.ts); absent without the stage.
+   */
+  rampTau_s?: number;
 }
 
 /** Null when the variant has no circuit or no frequency prediction: nothing to simulate. */
@@ -69,12 +74,13 @@ export function targetFromSized(sized: SizedVariant): VerifyTarget | null {
   const load = c.parts.find((p) => p.role === "LOAD");
   const l_H = load?.spice?.l_H ?? 0;
   const r_ohm = load?.spice?.r_ohm ?? 0;
+  const coreTap = coreTapOf(c.tapNet);
   return {
     id: sized.spec.id,
     highSide: sized.spec.chain === "bjt-driver-pnp",
     inductive: load !== undefined && (load.kind === "motor" || (load.spice?.l_H ?? 0) > 0),
-    tapNet: c.tapNet,
-    otherNet: c.tapNet === "ca" ? "cb" : "ca",
+    tapNet: coreTap,
+    otherNet: coreTap === "ca" ? "cb" : "ca",
     chainInputNet: c.chainInputNet,
     switchNet: c.switchNet,
     powerRefs: c.parts.filter((p) => (POWER_ROLES as readonly string[]).includes(p.role)).map((p) => p.ref),
@@ -87,7 +93,23 @@ export function targetFromSized(sized: SizedVariant): VerifyTarget | null {
     ...motorRunsOf(load, predicted),
     ranges,
     ...pullInOf(predicted),
+    ...rampOf(predicted),
   };
+}
+
+/**
+ * The timing collector the runs probe as the tap: with the ramp stage the chain listens to the level
+ * shifter's tap, which follows collector A's ramp, so collector A stands in its place (both collectors
+ * are probed as for any core).
+ */
+function coreTapOf(tapNet: string): "ca" | "cb" {
+  return tapNet === "cb" ? "cb" : "ca";
+}
+
+/** The ramp stage's time constant (its runs settle over several: ramp-plan.ts). */
+function rampOf(predicted: Record<string, Predicted>): { rampTau_s?: number } {
+  const tau = predicted["ramp_time_constant"]?.value;
+  return tau !== undefined && tau > 0 ? { rampTau_s: tau } : {};
 }
 
 function motorRunsOf(

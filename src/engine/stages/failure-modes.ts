@@ -86,8 +86,17 @@ export function failSafeStudy(ctx: Ctx, parts: Part[]): FailSafeStudy | undefine
   return { rFsMax_ohm, rBMax_ohm, shift: rBMax_ohm / (rBMax_ohm + rFsMax_ohm), ref: q.ref || q.role };
 }
 
-function wiperFault(ctx: Ctx, study?: FailSafeStudy): string {
+function wiperFault(ctx: Ctx, study?: FailSafeStudy, ramp = false): string {
   const load = LOAD_WORD[ctx.spec.load_kind] ?? "load";
+  // The ramp-and-comparator duty stage (ramp-offer.ts): the threshold input then hangs on R_HYS alone,
+  // from the output it switches, so the comparator holds whichever state it was in (derived).
+  if (ramp)
+    return (
+      `Lifted potentiometer wiper (worn or dirty track): the comparator's threshold then hangs on the hysteresis ` +
+      `resistor alone, fed from the output it switches, so the comparator latches in the state it was in: the ` +
+      `${load} stays fully off or fully on at every setting until the supply is switched off. Use a sealed ` +
+      `(cermet) potentiometer, and keep an independent way to switch the ${load} off.`
+    );
   if (ctx.spec.chain === "mosfet-driver") {
     return (
       `Lifted potentiometer wiper: both timing transistors lose their base feed and turn off; this chain ` +
@@ -164,7 +173,8 @@ export function reviewFailures(
   perRole: Map<string, { p_W: number; tj_C: number }>,
   heatsunk: ReadonlySet<string> = new Set(),
 ): FailureReview {
-  const cautions = [wiperFault(ctx, failSafeStudy(ctx, parts)), inputFault(ctx), shortFault(ctx)];
+  const ramp = parts.some((p) => p.role === "Q_LVL");
+  const cautions = [wiperFault(ctx, failSafeStudy(ctx, parts), ramp), inputFault(ctx), shortFault(ctx)];
   const partNotes = new Map<string, string>();
   const figures: Figure[] = [];
   const conditions: VerdictCondition[] = [];

@@ -45,6 +45,11 @@ export interface RampPartsInput {
   /** The core's base turn-on level (V_BE plus a series base diode's V_F), V. */
   vOn_V: number;
   rTol: number;
+  /**
+   * The equal base resistors' tolerance where it is tighter than `rTol` (1 % parts: the core's collector
+   * duty, and with it the ramp's level, follows their match). Absent: `rTol`.
+   */
+  rBTol?: number;
   potTol: number;
   /** C_RAMP's class: its tolerance and the dielectric named in its description. */
   cap: { tol: number; dielectric?: string };
@@ -85,15 +90,19 @@ export function rampParts(x: RampPartsInput): RampParts {
   };
   // The fixed-duty core: equal base resistors straight from the rail (no pot in the core).
   const iBrms = (Math.sqrt(RB_MS_FACTOR) * (vMax - x.vOn_V)) / (x.rB_ohm * lo);
-  for (const side of ["A", "B"] as const)
+  const rBTol = x.rBTol ?? rTol;
+  for (const side of ["A", "B"] as const) {
     res(
       `RB_${side}`,
       x.rB_ohm,
       x.rail,
       x.baseNets[side],
       iBrms * iBrms * x.rB_ohm * hi,
-      `base resistor ${side}: with its twin, sets the fixed ≈ 50 % core's frequency`,
+      `base resistor ${side}${rBTol < rTol ? `, ${Math.round(rBTol * 100)} %` : ""}: with its twin, sets the fixed ` +
+        "≈ 50 % core's frequency",
     );
+    built[built.length - 1]!.part.tolerance = rBTol;
+  }
   // The ramp on collector A and its twin on B (keeps the core symmetric).
   const pRamp = (vMax * vMax) / (v.rRamp_ohm * lo);
   res("RR_A", v.rRamp_ohm, "ca", n.ramp, pRamp, "ramp resistor: collector A charges the ramp capacitor");

@@ -1,0 +1,467 @@
+/**
+ * Offering the ramp-and-comparator duty stage (ramp-duty.ts, ramp-parts.ts; docs/method.md, "A duty
+ * stage that sets a voltage") to a variant whose potentiometer core is refused on its duty range.
+ *
+ * The core is the engine's own plain core sized for a narrow band about 50 % (RAMP_CORE_DUTY): it
+ * then sets only the frequency, its pot network split into two equal base resistors of half the
+ * network each (the same period: both sides' R·C summed). Every check that core passed was taken
+ * with the pot wholly on one side or the other, so the equal split sits inside what was checked.
+ * The chain's input leaves the collector for the PNP's collector (the tap): RT is fed from the
+ * rail through the saturated PNP, not through R_C, and the tap's pull-down R_LVL is the core's R_C
+ * (the chain's turn-off sees the resistor its turn-on saw before, mirrored; common practice).
+ */
+import type { BjtClass, DiodeClass } from "../../model/device.ts";
+import type { Figure } from "../../model/figure.ts";
+import type { Part } from "../../model/circuit.ts";
+import type { DesignProblem } from "../../model/problem.ts";
+import type { StressCheck } from "../../model/derating.ts";
+import type { SizedVariant } from "../../model/sized.ts";
+import type { VariantSpec } from "../../model/variant.ts";
+import { formatValue } from "../../model/format.ts";
+import { resistor } from "../../circuit/parts.ts";
+import { vbeOn, vceSat } from "../shared/gain.ts";
+import { diodeClassVf_V } from "../shared/diode.ts";
+import { nearest } from "../shared/e-series.ts";
+import { figure } from "../shared/figures.ts";
+import { NOMINAL_TEMP_C } from "../shared/temperature.ts";
+import { evaluateCore } from "./astable.ts";
+import type { Ctx } from "./context.ts";
+import type { ChainPlan, TapInfo } from "./chains/types.ts";
+import type { TapDesign } from "./tap.ts";
+import type { TimingResult } from "./timing.ts";
+import {
+  RAMP_NOMINAL,
+  evalRamp,
+  rampCorners,
+  sizeRamp,
+  type RampCore,
+  type RampCorner,
+  type RampDevices,
+  type RampSizing,
+  type RampValues,
+} from "./ramp-duty.ts";
+import type { SimCorner, SimCornerName } from "../../model/corners.ts";
+import { RAMP_NETS, rampParts } from "./ramp-parts.ts";
+
+/**
+ * Chains the stage is offered to: the driven MOSFET (its input is RT into an NPN's base, the chain the
+ * whole-circuit test ran in native ngspice: ramp-circuit.test.ts). The logic-level MOSFET's gate would
+ * be discharged by R_LVL alone (a passive turn-off), which its chain model does not describe.
+ */
+export const RAMP_OFFER_CHAINS: ReadonlySet<string> = new Set(["mosfet-driver"]);
+/**
+ * The PWM frequencies it is offered at, Hz. Simulated in both engines within their bands at 2 kHz (12 V
+ * bench strip), 4 kHz (the demo's grow strip, native ngspice) and 5 kHz (12 V grid cores); at 1 kHz the
+ * grid's 6 V and 12 V cores put the duty at control ½ 6–13 points below the prediction (the ramp's top
+ * 0.15 V lower than predicted on the 12 V one); at 20 kHz and up the core's collector duty needs a term
+ * the model lacks (docs/method.md).
+ */
+export const RAMP_OFFER_MIN_HZ = 2000;
+export const RAMP_OFFER_MAX_HZ = 5000;
+/**
+ * The lowest nominal supply it is offered at, V: at 9 V (grid, 5 kHz) the frequency came out 12 % below
+ * the core's prediction in both engines; the pair's reverse V_EB refuses 24 V and up.
+ */
+export const RAMP_OFFER_MIN_V = 12;
+/**
+ * The fixed core's base resistors' tolerance: 1 % metal film (sold in E24 values; common practice). The
+ * core's collector duty, and with it the ramp's level, follows their match: with the 5 % class the ends
+ * must pass beyond a ramp that moves twice as far, and the pair's reverse V_EB then passes V_EBO (12 V
+ * bench strip, 2 kHz: 7.0 V against 4.5 V).
+ */
+export const RAMP_RB_TOL = 0.01;
+/** The duty band the fixed core is sized for: the engine's own core search about 50 % (ours). */
+export const RAMP_CORE_DUTY = { min: 0.45, max: 0.55 } as const;
+/** Load kinds: not a winding (motors and solenoids were never simulated with the stage). */
+const RAMP_LOADS: ReadonlySet<string> = new Set(["led", "lamp", "resistive"]);
+
+/**
+ * Whether the stage is offered after `refused`: the chain, frequencies and supply above, a load that is
+ * not a winding, and a refusal with a duty-range rule among its reasons (the one thing the stage changes).
+ */
+export function rampOffered(spec: VariantSpec, refused: SizedVariant): boolean {
+  return (
+    RAMP_OFFER_CHAINS.has(spec.chain) &&
+    spec.targets.pwm_Hz >= RAMP_OFFER_MIN_HZ &&
+    spec.targets.pwm_Hz <= RAMP_OFFER_MAX_HZ &&
+    spec.supply_V >= RAMP_OFFER_MIN_V &&
+    RAMP_LOADS.has(spec.load_kind) &&
+    refused.verdict.blocking.some((b) => b.rule.startsWith("duty-range"))
+  );
+}
+
+/** The spec the fixed core is sized on: the narrow band about 50 %, no contacts at the control's ends. */
+export function rampCoreSpec(spec: VariantSpec): VariantSpec {
+  const targets = { ...spec.targets, duty_min: RAMP_CORE_DUTY.min, duty_max: RAMP_CORE_DUTY.max, off_on_ends: false };
+  const { dutyPot: _pot, ...rest } = spec;
+  return { ...rest, targets };
+}
+
+/** What the stage puts in place of the pot core's duty stage and the chain's tap. */
+export interface RampOffer {
+  /** The variant as asked (its own targets): the sized variant carries it. */
+  spec: VariantSpec;
+  sizing: RampSizing;
+  /** The chain's input as the PNP's collector feeds it. */
+  info: TapInfo;
+  /** RT moved onto the tap, with its stress through the saturated PNP. */
+  rt: { part: Part; checks: StressCheck[]; problems: DesignProblem[] };
+  parts: Part[];
+  checks: StressCheck[];
+  problems: DesignProblem[];
+  /** The core's roles the stage replaces (its pot network and the balance load on the untapped collector). */
+  dropRoles: ReadonlySet<string>;
+  /** The core's figures the stage's own replace. */
+  dropFigures: ReadonlySet<string>;
+  figures: Figure[];
+  /** Duty reach over the worst case: the highest and lowest duty any weighted figure takes, the load's band. */
+  duty: { hi: number; lo: number; on: number; load: { lo: number; hi: number } };
+  f: { lo: number; hi: number };
+  decision: { roles: string[]; topic: string; choice: string; reason: string };
+  /** The operating corners the verifier simulates (rampSimCorners). */
+  corners: SimCorner[];
+}
+
+const DROP_ROLES = new Set(["RB_A", "RB_B", "RV_DUTY", "RBAL", "DBAL"]);
+const DROP_FIGURES = new Set([
+  "duty_min",
+  "duty_mid",
+  "duty_max",
+  "duty_pot",
+  "duty_end_resistor",
+  "duty_end_resistor_b",
+  "duty_skew",
+  "duty_error_threshold",
+  "duty_error_delays",
+]);
+
+/**
+ * The stage for a plain core that passed on the narrow band (`timing`, `tap`), or null where it is not
+ * found (its refusals) or the core is not a plain one (follower, cross-returned bleed: never measured
+ * with the stage).
+ */
+export function rampOffer(
+  spec: VariantSpec,
+  ctx: Ctx,
+  plan: ChainPlan,
+  tap: TapDesign,
+  timing: TimingResult,
+  why: string,
+): RampOffer | null {
+  const v = timing.values;
+  if (tap.follower !== undefined || v.crossBleed_ohm !== undefined || ctx.coreRail !== undefined) return null;
+  if (plan.need.kind !== "base-current" || !plan.need.inverting) return null;
+  const need = plan.need;
+  const q = spec.devices.timing_npn as BjtClass;
+  const pnp = spec.devices.driver_pnp as BjtClass | undefined;
+  if (pnp === undefined || pnp.family !== "pnp") return null;
+  const db = v.diodes ? (spec.devices.signal_diode as DiodeClass) : undefined;
+  const dev = { pair: q, out: pnp };
+  const rB = nearest((v.rEndA_ohm + v.rEndB_ohm + v.pot_ohm) / 2, "E24");
+  const rC = v.rC_ohm;
+  const rOut = rC;
+  const tol = ctx.rTol;
+  const rT = tap.info.rTap_ohm;
+  // The chain's input through RT from the PNP's collector: the rail less its saturation voltage.
+  const vSatOut = vceSat(pnp, (ctx.vMax_V / rOut) * 2);
+  const iMin = (ctx.vMin_V - vSatOut - need.vClamp_V) / (rT * (1 + tol));
+  const iMax = (ctx.vMax_V - need.vThreshold_V) / (rT * (1 - tol));
+  if (!(iMin >= need.i_A)) return null;
+  const tapLoad_A = iMax;
+  const vOn = (vcc: number, t_C: number): number =>
+    vbeOn(q, t_C) + (db === undefined ? 0 : diodeClassVf_V(db, (vcc - 1.3) / rB, t_C));
+  const rRampLoad = Math.max(10 * rC, 4700);
+  const cTol = ctx.cTol;
+  // Collector A of the core with its base resistors and timing capacitors at multipliers `m`.
+  const coreWith = (vcc: number, t_C: number, m: CoreTols): RampCore => {
+    const vSat = vceSat(q, vcc / rC);
+    const load = { v_V: vcc / 2, r_ohm: rRampLoad };
+    const c = evaluateCore({
+      vcc_V: vcc,
+      vOn_V: vOn(vcc, t_C),
+      vSat_V: vSat,
+      rCA_ohm: rC,
+      rCB_ohm: rC,
+      cA_F: v.c_F * m.cA,
+      cB_F: v.c_F * m.cB,
+      rBA_ohm: rB * m.rA,
+      rBB_ohm: rB * m.rB,
+      loadA: load,
+      loadB: load,
+    });
+    return {
+      tHigh_s: c.tAoff_s,
+      tLow_s: c.tBoff_s,
+      vSrcHigh_V: vcc,
+      rSrcHigh_ohm: rC,
+      vSat_V: vSat,
+      cT_F: v.c_F,
+      rail_V: vcc,
+    };
+  };
+  // Its two extremes of collector duty (ramp-duty.ts CoreAt): the base resistors (1 % parts) and the
+  // timing capacitors crosswise; `signs` [0] gives the nominal core.
+  const coreAt = (vcc: number, t_C: number, signs: readonly number[] = [1, -1]): RampCore[] =>
+    signs.map((s) => coreWith(vcc, t_C, crosswise(s, RAMP_RB_TOL, cTol)));
+  const t = spec.targets;
+  const potTol = ctx.potTol;
+  const sizing = sizeRamp({
+    f_Hz: t.pwm_Hz,
+    supplies: [ctx.vMin_V, ctx.vMax_V],
+    vNom_V: spec.supply_V,
+    tMin_C: t.ambient_C[0],
+    tMax_C: t.ambient_C[1],
+    dutyMin: t.duty_min,
+    dutyMax: t.duty_max,
+    beyondEnds: t.off_on_ends === true,
+    inverting: true,
+    rTol: tol,
+    potTol,
+    cTol,
+    rC_ohm: rC,
+    rOut_ohm: rOut,
+    tapLoad_A,
+    dev,
+    coreAt: (vcc, t_C) => coreAt(vcc, t_C),
+    vebFactor: spec.policy.bjt.voltage.factor,
+  });
+  if (!sizing.found) return null;
+  const basePins = timing.parts.filter((p) => p.role === "RB_A" || p.role === "RB_B");
+  const baseNet = (role: string): string => basePins.find((p) => p.role === role)?.pins["b"] ?? "";
+  const built = rampParts({
+    values: sizing.values,
+    dev,
+    rB_ohm: rB,
+    baseNets: { A: baseNet("RB_A"), B: baseNet("RB_B") },
+    rail: "vbus",
+    vMax_V: ctx.vMax_V,
+    tMin_C: t.ambient_C[0],
+    vOn_V: vOn(ctx.vMax_V, t.ambient_C[0]),
+    rTol: tol,
+    rBTol: RAMP_RB_TOL,
+    potTol,
+    cap: { tol: cTol },
+    tapLoad_A,
+    vebRev_V: sizing.worst.vebRev_V,
+    policy: spec.policy,
+  });
+  const rt = resistor(
+    "chain",
+    "RT",
+    rT,
+    { a: RAMP_NETS.tap, b: tap.inputNet },
+    iMax * iMax * rT * (1 + tol),
+    spec.policy,
+    "tap: the level shifter's collector to the chain input",
+  );
+  const w = sizing.worst;
+  const ends = t.off_on_ends === true;
+  // The nominal prediction on the nominal core (no tolerance), the corners on its extremes.
+  const nomCore = coreAt(spec.supply_V, NOMINAL_TEMP_C, [0])[0]!;
+  const chain = { inverting: true, tapLoad_A };
+  const at = (ctrl: number) =>
+    evalRamp(sizing.values, nomCore, dev, { t_C: NOMINAL_TEMP_C, ...RAMP_NOMINAL }, ctrl, chain);
+  const [e0, e5, e1] = [at(0), at(0.5), at(1)];
+  const src = "derived";
+  const figures = [
+    figure("duty_min", "Duty at the load, control at 0 (nominal)", e0.duty, "", "duty", "D at ctrl 0 (evalRamp)", src, [
+      w.d0.lo,
+      w.d0.hi,
+    ]),
+    figure("duty_mid", "Duty at the load, control at ½ (nominal)", e5.duty, "", "duty", "D at ctrl ½ (evalRamp)", src),
+    figure("duty_max", "Duty at the load, control at 1 (nominal)", e1.duty, "", "duty", "D at ctrl 1 (evalRamp)", src, [
+      w.d1.lo,
+      w.d1.hi,
+    ]),
+    figure(
+      "ramp_time_constant",
+      "Ramp time constant R_RAMP·C_RAMP",
+      sizing.values.rRamp_ohm * sizing.values.cRamp_F,
+      "s",
+      "duty",
+      "τ = R_RAMP·C_RAMP",
+      src,
+    ),
+    figure("ramp_min", "Ramp's lowest level (nominal)", e5.rampMin_V, "V", "duty", "rcRampExtremes, pair load", src),
+    figure("ramp_max", "Ramp's highest level (nominal)", e5.rampMax_V, "V", "duty", "rcRampExtremes, pair load", src),
+    figure(
+      "ramp_pair_reverse",
+      "Comparator pair's reverse V_EB (worst case)",
+      w.vebRev_V,
+      "V",
+      "duty",
+      "max(V_ramp,max − V_BE − V_wiper, V_wiper − V_BE − V_ramp,min) over every corner",
+      src,
+    ),
+    figure(
+      "ramp_output_overdrive",
+      "Level-shifter PNP overdrive (worst case)",
+      w.overdrive,
+      "",
+      "duty",
+      "I_B1·β_min/I_C with the wiper at the ramp's bottom",
+      src,
+    ),
+  ];
+  const v2 = sizing.values;
+  const corners = rampSimCorners(sizing.values, dev, chain, {
+    supplies: [ctx.vMin_V, ctx.vMax_V],
+    ks: rampCorners(t.ambient_C[0], t.ambient_C[1], tol, potTol, cTol),
+    coreWith,
+    rTol: RAMP_RB_TOL,
+    cTol,
+    ends,
+  });
+  return {
+    corners,
+    spec,
+    sizing,
+    info: { rC_ohm: rOut, rTap_ohm: rT, iMin_A: iMin, iMax_A: iMax, vLow_V: 0 },
+    rt,
+    parts: built.parts,
+    checks: built.checks,
+    problems: built.problems,
+    dropRoles: DROP_ROLES,
+    dropFigures: DROP_FIGURES,
+    figures,
+    duty: {
+      hi: ends ? 1 : Math.min(1, w.d1.hi),
+      lo: ends ? 0 : Math.max(0, w.d0.lo),
+      on: e1.duty,
+      load: { lo: Math.min(1, w.d0.hi), hi: Math.min(1, w.d1.lo) },
+    },
+    f: timing.search.worst.f,
+    decision: {
+      roles: ["Q_CR", "Q_CW", "Q_LVL", "RV_DUTY", "RR_A", "CR_A"],
+      topic: "duty stage",
+      choice:
+        `ramp and comparator: the core at a fixed ≈ 50 % (two ${formatValue(rB, "Ω")} base resistors), a ` +
+        `${formatValue(v2.rRamp_ohm, "Ω")} / ${formatValue(v2.cRamp_F, "F")} ramp on collector A compared with ` +
+        `the control's wiper`,
+      reason:
+        `with the potentiometer in the timing network no core reaches ${Math.round(t.duty_min * 100)}–` +
+        `${Math.round(t.duty_max * 100)} %${ends ? " with a true off and on" : ""} (${why}); here the pot carries ` +
+        `only a divider's current and the core's resistors do not depend on the duty range, and every corner ` +
+        `reaches ${ends ? "0 % and 100 % at the control's ends" : "the asked range"}`,
+    },
+  };
+}
+
+/** The core's tolerance extreme `s` (coreAt's ±1) and one corner of the stage as a simulated corner's multipliers. */
+function cornerOf(
+  name: SimCornerName,
+  label: string,
+  vcc_V: number,
+  m: CoreTols,
+  k: RampCorner,
+  ctrl: number,
+  predicted: { f_Hz: number; duty: number },
+): SimCorner {
+  return {
+    name,
+    label,
+    vcc_V,
+    t_C: k.t_C,
+    kEndA: m.rA,
+    kEndB: m.rB,
+    kPot: k.kPot,
+    kCA: m.cA,
+    kCB: m.cB,
+    kRCA: 1,
+    kRCB: 1,
+    ctrl,
+    gain: "min",
+    predicted,
+    scale: {
+      RR_A: k.kRamp,
+      RR_B: k.kRamp,
+      CR_A: k.kCRamp,
+      CR_B: k.kCRamp,
+      RD_HI: k.kHi,
+      RD_LO: k.kLo,
+      R_HYS: k.kHys,
+      R_TAIL: k.kTail,
+      R_CMP: k.kCmp,
+    },
+  };
+}
+
+/** Multipliers of the fixed core's base resistors and timing capacitors. */
+export interface CoreTols {
+  rA: number;
+  rB: number;
+  cA: number;
+  cB: number;
+}
+
+/** One side's R·C long and the other's short (`s` = 1), the reverse (−1), or nominal (0). */
+export function crosswise(s: number, rTol: number, cTol: number): CoreTols {
+  return { rA: 1 - s * rTol, rB: 1 + s * rTol, cA: 1 + s * cTol, cB: 1 - s * cTol };
+}
+
+/** Every timing R and C at one end: `s` = 1 the slowest core, −1 the fastest. */
+function alike(s: number, rTol: number, cTol: number): CoreTols {
+  return { rA: 1 + s * rTol, rB: 1 + s * rTol, cA: 1 + s * cTol, cB: 1 + s * cTol };
+}
+
+/**
+ * The corners the verifier simulates for the stage, with the published deck's cards (least gain, an
+ * identical pair: no offset; the prediction is taken likewise): the control's upper end at the corner
+ * that leaves it least margin (with a true on, the ramp's bottom closest above the level at which the
+ * tap would rise, over both supplies × the stage's 2^9 tolerance corners × both ambient ends × the
+ * core's two extremes), and the slowest and fastest core at control ½ (the frequency's range). The
+ * lower end is not simulated at a corner: with a true off the load never switches on there, and the
+ * corner runs read the on-current (src/verify/corner-runs.ts).
+ */
+export function rampSimCorners(
+  v: RampValues,
+  dev: RampDevices,
+  chain: { inverting: boolean; tapLoad_A: number },
+  env: {
+    supplies: readonly number[];
+    ks: readonly RampCorner[];
+    coreWith: (vcc: number, t_C: number, m: CoreTols) => RampCore;
+    rTol: number;
+    cTol: number;
+    ends: boolean;
+  },
+): SimCorner[] {
+  // The deck's pair is identical and its cards at least gain: one offset and one gain corner stand for all.
+  const ks = env.ks
+    .filter((k) => k.offset_V > 0 && k.pairGain === "min")
+    .map((k) => ({ ...k, offset_V: 0, pairGain: "min" as const }));
+  let top: { margin: number; c: SimCorner } | undefined;
+  let slow: SimCorner | undefined;
+  let fast: SimCorner | undefined;
+  const label = "control 1, the stage's tolerances leaving the least margin to its end";
+  for (const vcc of env.supplies)
+    for (const t_C of [...new Set(ks.map((k) => k.t_C))]) {
+      for (const s of [1, -1]) {
+        const m = crosswise(s, env.rTol, env.cTol);
+        const core = env.coreWith(vcc, t_C, m);
+        for (const k of ks.filter((x) => x.t_C === t_C)) {
+          const e = evalRamp(v, core, dev, k, 1, chain);
+          // Control 1 is the inverting chain's most duty: with a true on the tap held low, the ramp's
+          // bottom above the level at which it would rise; else the least duty there.
+          const margin = env.ends ? e.rampMin_V - e.levelOn_V : e.duty;
+          if (top === undefined || margin < top.margin)
+            top = {
+              margin,
+              c: cornerOf("duty-ctrl1-low", label, vcc, m, k, 1, { f_Hz: 1 / e.period_s, duty: e.duty }),
+            };
+        }
+        // The frequency's two ends: every timing R and C at one end of its tolerance, control ½.
+        const mf = alike(s, env.rTol, env.cTol);
+        const k0 = { ...RAMP_NOMINAL, t_C, pairGain: "min" as const };
+        const e5 = evalRamp(v, env.coreWith(vcc, t_C, mf), dev, k0, 0.5, chain);
+        const f = 1 / e5.period_s;
+        const at = (name: SimCornerName, what: string) =>
+          cornerOf(name, what, vcc, mf, k0, 0.5, { f_Hz: f, duty: e5.duty });
+        if (s > 0 && (slow === undefined || f < slow.predicted.f_Hz))
+          slow = at("slow", "slowest: every timing R and C at the upper end, control ½");
+        if (s < 0 && (fast === undefined || f > fast.predicted.f_Hz))
+          fast = at("fast", "fastest: every timing R and C at the lower end, control ½");
+      }
+    }
+  return [top?.c, slow, fast].filter((c): c is SimCorner => c !== undefined);
+}
