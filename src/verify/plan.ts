@@ -30,7 +30,7 @@ import { measureEnds } from "./end-runs.ts";
 import { measureColdStart } from "./cold-start.ts";
 
 /** Bumped whenever measurement code changes what it reports: part of every cache key. */
-export const MEASURE_CODE_VERSION = "verify-measure-20";
+export const MEASURE_CODE_VERSION = "verify-measure-21";
 
 /** Transients of the nominal plan per variant (ctrl 0.5, 0, 1); corner runs come on top (corner-runs.ts). */
 export const NOMINAL_RUNS = 3;
