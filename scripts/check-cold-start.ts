@@ -7,7 +7,9 @@
  * quarter of the supply each); a two-transistor astable can instead come up with both transistors
  * saturated and stay so (the classic failure to start, common practice), the load then stuck.
  * Solenoid variants are left out: their pull-in timer holds the load on for longer than the run.
- * The build's verification starts every run from a kick (`.ic`), so it does not see this.
+ * The build's proof runs one stated rise at the control's ends (src/verify/cold-start.ts: 0 V to full in
+ * 20 ms, the motor at rest); this script sweeps any rise and control, the whole ramp, with the published
+ * back-EMF.
  * Exit 1 if any variant does not start. Two runs at a time (2-core machines).
  * Usage: node --import tsx scripts/check-cold-start.ts [_site] [--rise 5m] [--ctrl 0.5]
  */

@@ -13,6 +13,8 @@ import { cachedDesign, sizeAndRenderDesign, sizedKey, type StageStats } from "./
 import { EarlyWorkers, sizeInWorkers, sizingWorkers } from "./size-pool.ts";
 import { verifyAll, type VerifyJob } from "../verify/pool.ts";
 import { NOMINAL_RUNS } from "../verify/plan.ts";
+import { COLD_RUNS, coldStartApplies, coldStartFailed } from "../verify/cold-start.ts";
+import { planOf } from "../verify/verify.ts";
 import { progressReporter } from "../verify/progress.ts";
 import { publishedKey, recordPublished } from "./published.ts";
 import { cachedPlot } from "./plot-cache.ts";
@@ -188,7 +190,11 @@ async function buildLoaded(
         (m) => m.preloadTemplateEngine(),
         () => undefined,
       );
-    runs = jobs.reduce((n, j) => n + NOMINAL_RUNS + (j.corners?.length ?? 0), 0);
+    const cold = (j: VerifyJob): number => {
+      const plan = j.plan ?? planOf(j.sized);
+      return "target" in plan && coldStartApplies(plan.target) ? COLD_RUNS : 0;
+    };
+    runs = jobs.reduce((n, j) => n + NOMINAL_RUNS + (j.corners?.length ?? 0) + cold(j), 0);
     verifications = await verifyAll(jobs, {
       engine: o.spice,
       cacheDir: path.join(o.root, ".cache", "sim"),
@@ -218,7 +224,10 @@ async function buildLoaded(
     return gate(o, s);
   }
 
-  const summary = { variants, feasible, agree: 0, disagree: 0, failed: 0, skipped: 0 };
+  // Variants whose core did not start from a cold supply are not feasible (cold-start.ts withColdStartVerdict).
+  let refused = 0;
+  for (const v of verifications.values()) if (coldStartFailed(v.comparisons).length > 0) refused++;
+  const summary = { variants, feasible: feasible - refused, agree: 0, disagree: 0, failed: 0, skipped: 0 };
   for (const v of verifications.values()) summary[v.status]++;
   const head = { ...catalogueHead(project, builtAt, pkg.version), summary };
   const plot = cachedPlot(path.join(o.root, ".cache", "plot"), !o.rebuild);

@@ -2,6 +2,7 @@
  * The build pipeline from loaded records to a BuiltCatalogue, without touching the output folder:
  * expand → size → render → verify. Every step but verification is a pure function of the previous.
  */
+import { withColdStartVerdict } from "../verify/cold-start.ts";
 import type { LoadResult } from "../records/index.ts";
 
 export type LoadedProject = Extract<LoadResult, { ok: true }>;
@@ -73,7 +74,7 @@ export function assembleDesign(
       const v = verifications.get(r.sized.spec.id);
       const plotSvg = v?.waveforms ? plot(r.sized.spec.id, v.waveforms) : undefined;
       return {
-        sized: r.sized,
+        sized: v ? withColdStartVerdict(r.sized, v.comparisons) : r.sized,
         ...(v ? { verification: v } : {}),
         files: { schematicSvg: r.schematicSvg, netlist: r.netlist, bomCsv: r.bomCsv, ...(plotSvg ? { plotSvg } : {}) },
       };

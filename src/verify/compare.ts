@@ -16,6 +16,7 @@ import { EngineMisuseError } from "../model/errors.ts";
 import type { SimCorner } from "../model/corners.ts";
 import { judgeCorners } from "./corner-compare.ts";
 import { judgeEnds } from "./end-runs.ts";
+import { coldStartFailed, judgeColdStart } from "./cold-start.ts";
 
 export interface Tolerance {
   rel?: number;
@@ -219,10 +220,13 @@ export function judge(
       measured.measurements,
       (basis.corners ?? []).map((d) => d.corner),
     ),
+    ...judgeColdStart(measured.measurements),
   ];
   const v: Verification = { ...base, status: "agree", comparisons, measurements: measured.measurements };
   if (measured.waveforms !== undefined) v.waveforms = measured.waveforms;
-  const bad = comparisons.filter((c) => !c.ok);
+  // A core that does not start from a cold supply is not a disagreement with a prediction: it makes
+  // the variant not feasible (src/cli/pipeline.ts, cold-start.ts `withColdStartVerdict`).
+  const bad = comparisons.filter((c) => !c.ok && coldStartFailed([c]).length === 0);
   const corners = judgeCorners(
     (basis.corners ?? []).map((d) => d.corner),
     measured.corners ?? [],

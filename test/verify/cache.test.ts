@@ -7,6 +7,8 @@ import { startEngine, type SpiceEngine } from "../../src/verify/engines/index.ts
 import { targetFromSized } from "../../src/verify/target.ts";
 import { verifyVariant } from "../../src/verify/verify.ts";
 import { darlingtonCase, figure } from "./fixtures.ts";
+import { NOMINAL_RUNS } from "../../src/verify/plan.ts";
+import { COLD_RUNS } from "../../src/verify/cold-start.ts";
 
 let real: SpiceEngine;
 let runs = 0;
@@ -30,18 +32,19 @@ afterAll(async () => real.close());
 describe("content-hash cache of measurements", () => {
   const c = darlingtonCase([figure("frequency_nominal", 1900, "Hz"), figure("duty_max", 1)]);
 
-  it("miss runs the three transients, hit runs none, a corrupt entry is recomputed and replaced", async () => {
+  it("miss runs nominal and cold-start runs, hit none, a corrupt entry is recomputed and replaced", async () => {
     const dir = mkdtempSync(join(tmpdir(), "pw-cache-"));
     runs = 0;
     const cold = await verifyVariant(c.sized, c.netlist, counting, { cacheDir: dir });
-    expect(runs).toBe(3);
+    const perMiss = NOMINAL_RUNS + COLD_RUNS;
+    expect(runs).toBe(perMiss);
     const warm = await verifyVariant(c.sized, c.netlist, counting, { cacheDir: dir });
-    expect(runs).toBe(3);
+    expect(runs).toBe(perMiss);
     expect(warm).toEqual(cold);
     const [file] = readdirSync(dir).filter((f) => f.endsWith(".json"));
     writeFileSync(join(dir, file!), '{"ok": true, "measure');
     const again = await verifyVariant(c.sized, c.netlist, counting, { cacheDir: dir });
-    expect(runs).toBe(6);
+    expect(runs).toBe(2 * perMiss);
     expect(again.comparisons).toEqual(cold.comparisons);
     expect(() => JSON.parse(readFileSync(join(dir, file!), "utf8")) as unknown).not.toThrow();
     expect(

@@ -10,6 +10,7 @@ import type { SizedVariant } from "../../../src/model/sized.ts";
 import { renderVariantViews } from "../../../src/render/variant.ts";
 import { startEngine } from "../../../src/verify/engines/index.ts";
 import { verifyVariant } from "../../../src/verify/verify.ts";
+import { coldStartFailed } from "../../../src/verify/cold-start.ts";
 import { cornerDecks } from "../../../src/verify/corner-deck.ts";
 import { measureCorners } from "../../../src/verify/corner-runs.ts";
 import { judgeCorners } from "../../../src/verify/corner-compare.ts";
@@ -24,7 +25,11 @@ export function itAgreesWithSpice(sized: SizedVariant): void {
     const engine = await startEngine("eecircuit-engine");
     try {
       const v = await verifyVariant(sized, views.netlist, engine, { cacheDir: false });
-      const bad = v.comparisons.filter((c) => !c.ok).map((c) => `${c.key} ${c.predicted} vs ${c.simulated}`);
+      // The predictions only: whether the core starts from a cold supply is not one, it decides the verdict
+      // (src/verify/cold-start.ts; test/verify/cold-start-native.test.ts).
+      const bad = v.comparisons
+        .filter((c) => !c.ok && coldStartFailed([c]).length === 0)
+        .map((c) => `${c.key} ${c.predicted} vs ${c.simulated}`);
       expect(bad).toEqual([]);
       expect(v.status).toBe("agree");
       const keys = new Set(v.comparisons.map((c) => c.key));
