@@ -67,14 +67,22 @@ export function assembleDesign(
   verifications: ReadonlyMap<string, Verification>,
   plot: PlotFn = variantPlot,
 ): BuiltDesign {
+  // The simulation's verdicts first (a core that does not start is not feasible), then the nearest
+  // feasible alternatives again, so no page points to a variant the proof refused.
+  const judged = rendered.map((r) => {
+    const v = verifications.get(r.sized.spec.id);
+    return v ? withColdStartVerdict(r.sized, v.comparisons) : r.sized;
+  });
+  const refused = judged.some((s, i) => s !== rendered[i]!.sized);
+  const sized = refused ? attachAlternatives(judged) : judged;
   return {
     record: design.record,
     file: design.file,
-    variants: rendered.map((r): BuiltVariant => {
+    variants: rendered.map((r, i): BuiltVariant => {
       const v = verifications.get(r.sized.spec.id);
       const plotSvg = v?.waveforms ? plot(r.sized.spec.id, v.waveforms) : undefined;
       return {
-        sized: v ? withColdStartVerdict(r.sized, v.comparisons) : r.sized,
+        sized: sized[i]!,
         ...(v ? { verification: v } : {}),
         files: { schematicSvg: r.schematicSvg, netlist: r.netlist, bomCsv: r.bomCsv, ...(plotSvg ? { plotSvg } : {}) },
       };

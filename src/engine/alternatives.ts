@@ -24,7 +24,13 @@ export function attachAlternatives(sized: SizedVariant[]): SizedVariant[] {
         y = score(b);
       return x[0] - y[0] || x[1] - y[1] || x[2] - y[2];
     })[0];
-    if (best === undefined) return v;
+    if (best === undefined) {
+      // No feasible sibling (any more: attached again after the simulation's verdicts): no hint.
+      if (v.alternative === undefined) return v;
+      const rest = { ...v };
+      delete rest.alternative;
+      return rest;
+    }
     const o = best.spec;
     const same = o.supply_V === s.supply_V && o.load_A === s.load_A;
     const why = same

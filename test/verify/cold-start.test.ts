@@ -17,6 +17,9 @@ import {
   withColdStartVerdict,
 } from "../../src/verify/cold-start.ts";
 import { judge } from "../../src/verify/compare.ts";
+import { assembleDesign } from "../../src/cli/pipeline.ts";
+import { attachAlternatives } from "../../src/engine/alternatives.ts";
+import type { Verification } from "../../src/model/verification.ts";
 import type { SizedVariant } from "../../src/model/sized.ts";
 
 const NETLIST = [
@@ -140,5 +143,60 @@ describe("the cold-start check and the verdict", () => {
     );
     expect(v.status).toBe("agree");
     expect(v.comparisons.filter((c) => c.key.startsWith("cold_start")).map((c) => c.ok)).toEqual([false, false]);
+  });
+});
+
+describe("alternatives after the cold-start verdict (src/cli/pipeline.ts assembleDesign)", () => {
+  // Three variants of one design at 12 V: the 1 A one is refused by sizing; of the two feasible siblings
+  // the 1 A MOSFET one is its hint, until the proof finds that it does not start.
+  const variant = (id: string, chain: string, load_A: number, feasible: boolean, p_W: number): SizedVariant =>
+    ({
+      spec: { id, design: "d", supply_V: 12, load_A, chain, load_kind: "led" },
+      feasible,
+      verdict: feasible
+        ? { status: "feasible", blocking: [], conditions: [], summary: "feasible" }
+        : {
+            status: "not-feasible",
+            blocking: [{ kind: "problem", rule: "r", path: "", message: "m" }],
+            conditions: [],
+            summary: "m",
+          },
+      figures: [{ key: "device_dissipation", value: p_W }],
+    }) as unknown as SizedVariant;
+  const refused = variant("d-1a-darlington-2", "darlington-2", 1, false, 1);
+  const stuck = variant("d-1a-mosfet-logic", "mosfet-logic", 1, true, 0.1);
+  const other = variant("d-2a-mosfet-logic", "mosfet-logic", 2, true, 0.3);
+  const sized = attachAlternatives([refused, stuck, other]);
+  const rendered = sized.map((s) => ({ sized: s, schematicSvg: "", netlist: "x", bomCsv: "" }));
+  const verification = (cold: number[]): Verification => ({
+    status: "agree",
+    engine: "ngspice",
+    engineVersion: "",
+    hash: "",
+    comparisons: judgeColdStart(cold.map((value, ctrl) => ({ key: coldKey(ctrl), label: "", unit: "", value }))),
+  });
+
+  it("before the proof the refused variant points to the same-current sibling", () => {
+    expect(sized[0]!.alternative?.id).toBe("d-1a-mosfet-logic");
+  });
+  it("once that sibling does not start, the hint moves to the nearest one that does", () => {
+    const verifications = new Map([
+      ["d-1a-mosfet-logic", verification([0.9, 0.01])],
+      ["d-2a-mosfet-logic", verification([0.9, 0.9])],
+    ]);
+    const built = assembleDesign({ record: {}, file: "" } as never, rendered as never, verifications, () => "");
+    const byId = new Map(built.variants.map((v) => [v.sized.spec.id, v.sized]));
+    expect(byId.get("d-1a-mosfet-logic")!.feasible).toBe(false);
+    expect(byId.get("d-1a-darlington-2")!.alternative?.id).toBe("d-2a-mosfet-logic");
+    // The stuck one is refused now and gets a hint of its own.
+    expect(byId.get("d-1a-mosfet-logic")!.alternative?.id).toBe("d-2a-mosfet-logic");
+  });
+  it("with no feasible sibling left, no hint at all", () => {
+    const verifications = new Map([
+      ["d-1a-mosfet-logic", verification([0.01, 0.9])],
+      ["d-2a-mosfet-logic", verification([0.01, 0.01])],
+    ]);
+    const built = assembleDesign({ record: {}, file: "" } as never, rendered as never, verifications, () => "");
+    expect(built.variants.every((v) => v.sized.alternative === undefined)).toBe(true);
   });
 });
