@@ -225,6 +225,7 @@ interface Outcome {
 interface VariantJson {
   feasible: boolean;
   reason?: string;
+  verdict?: { blocking: { rule: string; message: string }[] };
   verification: {
     status: string;
     message?: string;
@@ -242,6 +243,10 @@ function outcomeOf(site: string, id: string): Outcome {
   const file = path.join(site, "variants", id, `${id}.json`);
   if (!existsSync(file)) return { status: "missing", reasons: [`no ${file}`] };
   const v = JSON.parse(readFileSync(file, "utf8")) as VariantJson;
+  // Refused by the proof's cold start (sized feasible, its core does not start): a verdict simulation
+  // does not bear out, as a disagreement is (docs/verification.md, "Cold start").
+  const cold = v.verdict?.blocking.find((b) => b.rule === "cold-start");
+  if (!v.feasible && cold !== undefined) return { status: "cold-start", reasons: [cold.message] };
   if (!v.feasible) return { status: "not-feasible-alone", reasons: [v.reason ?? "not feasible in its own record"] };
   const ver = v.verification;
   const reasons = [
