@@ -13,14 +13,14 @@ if (!hasNgspice) console.warn(`render tests: ${NGSPICE} not found; SPICE checks 
  * Runs `text`; a deck without its own `.temp` runs at the nominal temperature, as the published
  * netlist does (every card's TNOM equals it: src/engine/shared/temperature.ts).
  */
-export function runNgspice(text: string): string {
+export function runNgspice(text: string, timeout_ms = 60_000): string {
   if (!/^\.temp\b/im.test(text))
     text = withStatements(text.endsWith("\n") ? text : `${text}\n`, [`.temp ${NOMINAL_TEMP_C}`]);
   const dir = mkdtempSync(join(tmpdir(), "pw-render-"));
   try {
     const file = join(dir, "in.cir");
     writeFileSync(file, text);
-    const r = spawnSync(NGSPICE, ["-b", file], { encoding: "utf8", timeout: 60_000 });
+    const r = spawnSync(NGSPICE, ["-b", file], { encoding: "utf8", timeout: timeout_ms });
     const out = `${r.stdout}\n${r.stderr}`;
     if (r.status !== 0 || /\berror\b/i.test(out)) throw new Error(`ngspice failed (${r.status}):\n${out}`);
     return out;

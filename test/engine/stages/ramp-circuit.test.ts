@@ -22,11 +22,7 @@ import { renderBom } from "../../../src/render/bom.ts";
 import type { BjtClass, DiodeClass } from "../../../src/model/device.ts";
 import type { Part } from "../../../src/model/circuit.ts";
 import { REPO } from "../../records/project.ts";
-import { spawnSync } from "node:child_process";
-import { mkdtempSync, rmSync, writeFileSync } from "node:fs";
-import { tmpdir } from "node:os";
-import { join } from "node:path";
-import { NGSPICE, hasNgspice, withStatements } from "../../render/ngspice.ts";
+import { hasNgspice, meas, runNgspice, withStatements } from "../../render/ngspice.ts";
 import { geometryProblems } from "../../render/schematic-geometry.ts";
 import { boxAttr, overlaps, readSvg, type B } from "../../render/svg-read.ts";
 import { parseCsv } from "../../render/csv-read.ts";
@@ -224,20 +220,8 @@ describe(`the ramp-and-comparator duty stage in a whole circuit (${ID}, demo num
           "quit",
           ".endc",
         ]);
-        const dir = mkdtempSync(join(tmpdir(), "pw-ramp-circuit-"));
-        let text: string;
-        try {
-          writeFileSync(join(dir, "in.cir"), deck);
-          const r = spawnSync(NGSPICE, ["-b", join(dir, "in.cir")], { encoding: "utf8", timeout: 120_000 });
-          text = `${r.stdout}\n${r.stderr}`;
-        } finally {
-          rmSync(dir, { recursive: true, force: true });
-        }
-        const get = (name: string): number => {
-          const m = new RegExp(`^${name}\\s*=\\s*([-0-9.e+]+)`, "m").exec(text);
-          if (m === null) throw new Error(`ctrl ${ctrl}: no "${name}" in the ngspice output:\n${text}`);
-          return Number(m[1]);
-        };
+        const text = runNgspice(deck, 120_000);
+        const get = (name: string): number => meas(text, name);
         const period = (get("t2") - get("t1")) / 8;
         const at = (pairGain: "min" | "typ" | "max") =>
           evalRamp(ramp.values, nom, { pair, out }, { t_C: 25, ...RAMP_NOMINAL, pairGain }, ctrl, chain);

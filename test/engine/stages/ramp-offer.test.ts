@@ -21,14 +21,10 @@ import { targetFromSized } from "../../../src/verify/target.ts";
 import { cornerCircuit } from "../../../src/verify/corner-deck.ts";
 import type { DesignRecord } from "../../../src/model/design.ts";
 import { REPO } from "../../records/project.ts";
-import { NGSPICE, hasNgspice, withStatements } from "../../render/ngspice.ts";
+import { hasNgspice, meas, runNgspice, withStatements } from "../../render/ngspice.ts";
 import { elements } from "../../render/netlist-read.ts";
 import { readSvg } from "../../render/svg-read.ts";
 import { parseCsv } from "../../render/csv-read.ts";
-import { spawnSync } from "node:child_process";
-import { mkdtempSync, rmSync, writeFileSync } from "node:fs";
-import { tmpdir } from "node:os";
-import { join } from "node:path";
 
 const project = await loadProject(REPO);
 if (!project.ok) throw new Error(`demo records must load: ${project.issues[0]?.message}`);
@@ -201,20 +197,8 @@ describe(`the ramp stage offered by sizeVariantWithRampStage (${ID}, demo number
           "quit",
           ".endc",
         ]);
-        const dir = mkdtempSync(join(tmpdir(), "pw-ramp-offer-"));
-        let text: string;
-        try {
-          writeFileSync(join(dir, "in.cir"), deck);
-          const r = spawnSync(NGSPICE, ["-b", join(dir, "in.cir")], { encoding: "utf8", timeout: 120_000 });
-          text = `${r.stdout}\n${r.stderr}`;
-        } finally {
-          rmSync(dir, { recursive: true, force: true });
-        }
-        const get = (name: string): number => {
-          const m = new RegExp(`^${name}\\s*=\\s*([-0-9.e+]+)`, "m").exec(text);
-          if (m === null) throw new Error(`ctrl ${ctrl}: no "${name}" in the ngspice output:\n${text}`);
-          return Number(m[1]);
-        };
+        const text = runNgspice(deck, 120_000);
+        const get = (name: string): number => meas(text, name);
         got[ctrl] = { load: get("dload"), period: (get("t2") - get("t1")) / 6 };
       }
       const msg = JSON.stringify(got);
