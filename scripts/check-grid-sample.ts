@@ -247,8 +247,11 @@ function outcomeOf(site: string, id: string): Outcome {
   // does not bear out, as a disagreement is (docs/verification.md, "Cold start").
   const cold = v.verdict?.blocking.find((b) => b.rule === "cold-start");
   if (!v.feasible && cold !== undefined) return { status: "cold-start", reasons: [cold.message] };
-  if (!v.feasible) return { status: "not-feasible-alone", reasons: [v.reason ?? "not feasible in its own record"] };
   const ver = v.verification;
+  // Refused by sizing in its own record; a variant the simulation refused (it disagrees or failed: the
+  // build's verdict once simulated, src/verify/sim-verdict.ts) is read from its verification below.
+  if (!v.feasible && ver.status !== "disagree" && ver.status !== "failed")
+    return { status: "not-feasible-alone", reasons: [v.reason ?? "not feasible in its own record"] };
   const reasons = [
     ...(ver.message !== undefined && ver.status !== "agree" ? [ver.message] : []),
     ...ver.comparisons

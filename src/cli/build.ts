@@ -13,7 +13,8 @@ import { cachedDesign, sizeAndRenderDesign, sizedKey, type StageStats } from "./
 import { EarlyWorkers, sizeInWorkers, sizingWorkers } from "./size-pool.ts";
 import { verifyAll, type VerifyJob } from "../verify/pool.ts";
 import { NOMINAL_RUNS } from "../verify/plan.ts";
-import { COLD_RUNS, coldStartApplies, coldStartFailed } from "../verify/cold-start.ts";
+import { COLD_RUNS, coldStartApplies } from "../verify/cold-start.ts";
+import { refusedBySimulation } from "../verify/sim-verdict.ts";
 import { planOf } from "../verify/verify.ts";
 import { progressReporter } from "../verify/progress.ts";
 import { publishedKey, recordPublished } from "./published.ts";
@@ -224,9 +225,9 @@ async function buildLoaded(
     return gate(o, s);
   }
 
-  // Variants whose core did not start from a cold supply are not feasible (cold-start.ts withColdStartVerdict).
+  // Variants the simulation refuses are not feasible (verify/sim-verdict.ts withSimulationVerdict).
   let refused = 0;
-  for (const v of verifications.values()) if (coldStartFailed(v.comparisons).length > 0) refused++;
+  for (const v of verifications.values()) if (refusedBySimulation(v)) refused++;
   const summary = { variants, feasible: feasible - refused, agree: 0, disagree: 0, failed: 0, skipped: 0 };
   for (const v of verifications.values()) summary[v.status]++;
   const head = { ...catalogueHead(project, builtAt, pkg.version), summary };

@@ -2,7 +2,7 @@
  * The build pipeline from loaded records to a BuiltCatalogue, without touching the output folder:
  * expand → size → render → verify. Every step but verification is a pure function of the previous.
  */
-import { withColdStartVerdict } from "../verify/cold-start.ts";
+import { withSimulationVerdict } from "../verify/sim-verdict.ts";
 import type { LoadResult } from "../records/index.ts";
 
 export type LoadedProject = Extract<LoadResult, { ok: true }>;
@@ -67,11 +67,11 @@ export function assembleDesign(
   verifications: ReadonlyMap<string, Verification>,
   plot: PlotFn = variantPlot,
 ): BuiltDesign {
-  // The simulation's verdicts first (a core that does not start is not feasible), then the nearest
-  // feasible alternatives again, so no page points to a variant the proof refused.
+  // The simulation's verdicts first (verify/sim-verdict.ts: a core that does not start, a simulation that
+  // disagrees or fails), then the nearest feasible alternatives again, so no page points to a refused variant.
   const judged = rendered.map((r) => {
     const v = verifications.get(r.sized.spec.id);
-    return v ? withColdStartVerdict(r.sized, v.comparisons) : r.sized;
+    return v ? withSimulationVerdict(r.sized, v) : r.sized;
   });
   const refused = judged.some((s, i) => s !== rendered[i]!.sized);
   const sized = refused ? attachAlternatives(judged) : judged;
