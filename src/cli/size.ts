@@ -83,7 +83,12 @@ export async function runSize(root: string, args: string[], out: Out): Promise<n
     out.log(JSON.stringify({ id: spec.id, feasible, reason: sized.reason ?? null, figures, problems, parts }, null, 2));
     return 0;
   }
-  out.log(`${spec.id}: ${sized.feasible ? "feasible" : `NOT FEASIBLE — ${sized.reason ?? ""}`}`);
+  // Sized only: the build's simulation (a cold start among its runs) can still refuse a sized-feasible
+  // variant (src/verify/sim-verdict.ts), so the line says which verdict it is.
+  const verdict = sized.feasible
+    ? "feasible as sized (not simulated: build it to simulate)"
+    : `NOT FEASIBLE — ${sized.reason ?? ""}`;
+  out.log(`${spec.id}: ${verdict}`);
   for (const f of sized.figures) out.log(`  ${f.label.padEnd(44)} ${formatValue(f.value, f.unit)}`);
   for (const p of sized.problems) out.log(`  [${p.severity}] ${p.message}`);
   return 0;
