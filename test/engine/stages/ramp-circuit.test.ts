@@ -25,8 +25,7 @@ import { REPO } from "../../records/project.ts";
 import { hasNgspice, meas, runNgspice, withStatements } from "../../render/ngspice.ts";
 import { geometryProblems } from "../../render/schematic-geometry.ts";
 import { boxAttr, overlaps, readSvg, type B } from "../../render/svg-read.ts";
-import { parseCsv } from "../../render/csv-read.ts";
-import { elements } from "../../render/netlist-read.ts";
+import { expectSameDesignators } from "../../render/designators.ts";
 
 const ID = "grow-light-strip-12v-1a-mosfet-driver-led";
 
@@ -156,21 +155,7 @@ describe(`the ramp-and-comparator duty stage in a whole circuit (${ID}, demo num
   });
 
   it("reference designators are the same in the netlist, the schematic and the parts list", () => {
-    const refs = circuit.parts.map((p) => p.ref).sort();
-    const inNetlist = [...elements(netlist).keys()];
-    for (const r of refs)
-      expect(
-        inNetlist.some((e) => e === r || e === `M${r}` || e.startsWith(`R${r}`)),
-        r,
-      ).toBe(true);
-    const drawn = [...readSvg(svg).find("[data-ref]")]
-      .map((s) => String(s.attr("data-ref")))
-      .filter((r) => r !== "Vsense");
-    expect(drawn.sort()).toEqual(refs);
-    const listed = parseCsv(bom)
-      .slice(1)
-      .flatMap((row) => (row[0] ? row[0].split(" ") : []));
-    expect(listed.sort()).toEqual(refs);
+    expectSameDesignators(circuit, netlist, svg, bom);
   });
 
   it("the schematic draws it without overlaps, stray wires or pins left unconnected", () => {

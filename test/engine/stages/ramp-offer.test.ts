@@ -22,9 +22,7 @@ import { cornerCircuit } from "../../../src/verify/corner-deck.ts";
 import type { DesignRecord } from "../../../src/model/design.ts";
 import { REPO } from "../../records/project.ts";
 import { hasNgspice, meas, runNgspice, withStatements } from "../../render/ngspice.ts";
-import { elements } from "../../render/netlist-read.ts";
-import { readSvg } from "../../render/svg-read.ts";
-import { parseCsv } from "../../render/csv-read.ts";
+import { expectSameDesignators } from "../../render/designators.ts";
 
 const project = await loadProject(REPO);
 if (!project.ok) throw new Error(`demo records must load: ${project.issues[0]?.message}`);
@@ -143,21 +141,12 @@ describe(`the ramp stage offered by sizeVariantWithRampStage (${ID}, demo number
   });
 
   it("reference designators are the same in the netlist, the schematic and the parts list", () => {
-    const refs = circuit.parts.map((p) => p.ref).sort();
-    const inNetlist = [...elements(netlist).keys()];
-    for (const r of refs)
-      expect(
-        inNetlist.some((e) => e === r || e === `M${r}` || e.startsWith(`R${r}`)),
-        r,
-      ).toBe(true);
-    const drawn = [...readSvg(renderSchematic(circuit, meta)).find("[data-ref]")]
-      .map((s) => String(s.attr("data-ref")))
-      .filter((r) => r !== "Vsense");
-    expect(drawn.sort()).toEqual(refs);
-    const listed = parseCsv(renderBom(circuit, { devices: project.devices }))
-      .slice(1)
-      .flatMap((row) => (row[0] ? row[0].split(" ") : []));
-    expect(listed.sort()).toEqual(refs);
+    expectSameDesignators(
+      circuit,
+      netlist,
+      renderSchematic(circuit, meta),
+      renderBom(circuit, { devices: project.devices }),
+    );
   });
 
   it("the verifier's runs settle the ramp: 7 time constants in whole periods before the read window", () => {
