@@ -4,10 +4,14 @@
  * prints the feasible share and the remaining reasons counted by kind (the verdict's first
  * blocking rule, and every blocking rule). Figures are printed, never asserted.
  * Usage: node --import tsx bench/coverage.ts [--by chain|supply|pwm|kind|load] [--rule <rule>] [--gate-buffer]
+ *        [--demo] [--first-asks]
+ * `--first-asks` sizes the demo once more with the targets its growers first asked for
+ * (test/fixtures/coverage/first-asks.json: frequency and duty range) in place of the records' own, and
+ * prints that share beside the demo's; `--demo` skips the grid.
  * `--gate-buffer` offers the logic-level MOSFET's gate buffer, which builds do not offer
  * (size.ts sizeVariantWithGateBuffer; docs/method.md, "Buffered gate").
  */
-import { cpSync, mkdtempSync, readdirSync, rmSync } from "node:fs";
+import { cpSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
@@ -26,6 +30,35 @@ export async function sizeAll(root: string, gateBuffer = false): Promise<SizedVa
   if (!project.ok) throw new Error(`records do not load:\n${project.issues.slice(0, 10).map(formatIssue).join("\n")}`);
   const specs = project.designs.flatMap((d) => expandDesign(d.record, libraryDeps(project.devices, project.policy)));
   return specs.map((s) => (gateBuffer ? sizeVariantWithGateBuffer(s) : sizeVariant(s)));
+}
+
+/** The first asks: design id → the targets its growers first asked for (fixture, see the module comment). */
+type FirstAsks = Record<string, { pwm_Hz: number; duty_min: number; duty_max: number }>;
+
+/**
+ * A project root holding the demo's records with the first asks' targets in place of their own (every
+ * other field as in the record); a record the fixture does not name, or a name no record has, is an error.
+ */
+function firstAsksRoot(): string {
+  const file = path.join(ROOT, "test", "fixtures", "coverage", "first-asks.json");
+  const asks = JSON.parse(readFileSync(file, "utf8")) as FirstAsks & { $comment?: string };
+  const root = mkdtempSync(path.join(tmpdir(), "pulsewright-first-asks-"));
+  cpSync(path.join(ROOT, "designs"), path.join(root, "designs"), { recursive: true });
+  const records = readdirSync(path.join(root, "designs")).filter((f) => f.endsWith(".json"));
+  const named = new Set(Object.keys(asks).filter((k) => k !== "$comment"));
+  for (const f of records) {
+    const id = f.replace(/\.json$/, "");
+    const ask = asks[id];
+    if (ask === undefined) throw new Error(`${file}: no first ask for the demo record designs/${f}; add one`);
+    named.delete(id);
+    const p = path.join(root, "designs", f);
+    const rec = JSON.parse(readFileSync(p, "utf8")) as { targets: Record<string, unknown> };
+    rec.targets = { ...rec.targets, pwm_Hz: ask.pwm_Hz, duty_min: ask.duty_min, duty_max: ask.duty_max };
+    writeFileSync(p, JSON.stringify(rec, null, 2));
+  }
+  if (named.size > 0)
+    throw new Error(`${file}: first asks for records the demo does not have: ${[...named].join(", ")}`);
+  return root;
 }
 
 /**
@@ -95,6 +128,7 @@ if (isMain) {
     rule: arg("--rule"),
     demoOnly: process.argv.includes("--demo"),
     gateBuffer: process.argv.includes("--gate-buffer"),
+    firstAsks: process.argv.includes("--first-asks"),
   });
   console.log(`coverage: ${((performance.now() - t0) / 1000).toFixed(1)} s`);
 }
@@ -105,12 +139,22 @@ export interface CoverageOptions {
   demoOnly?: boolean;
   /** Offer the gate buffer (not offered to builds). */
   gateBuffer?: boolean;
+  /** Also size the demo at its growers' first asks (test/fixtures/coverage/first-asks.json). */
+  firstAsks?: boolean;
 }
 
 /** Prints the demo's and the grid's feasible shares and reasons. */
 export async function runCoverage(o: CoverageOptions = {}): Promise<void> {
   const demo = await sizeAll(ROOT, o.gateBuffer);
   report("demo (sized, no simulation)", demo, o.by);
+  if (o.firstAsks) {
+    const root = firstAsksRoot();
+    try {
+      report("demo at the growers' first asks (sized, no simulation)", await sizeAll(root, o.gateBuffer), o.by);
+    } finally {
+      rmSync(root, { recursive: true, force: true });
+    }
+  }
   if (o.demoOnly) {
     listRule(demo, o.rule);
     return;

@@ -11,8 +11,8 @@
  *   rebuild after editing one design record            target ≤ 5 s plus its simulations
  *   peak memory of a build                             target ≤ 1.5 GB
  *   variant page HTML (median), site per variant       targets ≤ 60 KB, ≤ 120 KB
- *   coverage: feasible share of the demo and of the coverage grid (bench/coverage.ts), sized without
- *   simulation, with the remaining reasons counted by kind
+ *   coverage: feasible share of the demo, of the demo at its growers' first asks, and of the coverage
+ *   grid (bench/coverage.ts), sized without simulation, with the remaining reasons counted by kind
  * Usage: npm run bench [-- --quick] [-- --no-coverage]   (--quick: sizing, drawing and coverage only)
  */
 import { spawnSync } from "node:child_process";
@@ -172,5 +172,5 @@ function benchBuilds(): void {
 
 await benchEngine();
 benchCodeHash();
-if (!process.argv.includes("--no-coverage")) await runCoverage();
+if (!process.argv.includes("--no-coverage")) await runCoverage({ firstAsks: true });
 if (!process.argv.includes("--quick")) benchBuilds();

@@ -74,4 +74,16 @@ describe("demo design records", () => {
     expect(r.ok ? [] : r.issues.slice(0, 10).map(formatIssue)).toEqual([]);
     if (r.ok) expect(r.designs.length).toBe(DEMO.length);
   });
+  it("each has the growers' first ask on file for the coverage bench, and that ask is at least as wide", async () => {
+    // bench/coverage.ts --first-asks sizes the demo at these targets; a record narrowed below its first ask
+    // shows there as the distance still to go (test/fixtures/coverage/first-asks.json).
+    const asks = JSON.parse(await readFile(join(REPO, "test", "fixtures", "coverage", "first-asks.json"), "utf8"));
+    delete asks.$comment;
+    expect(Object.keys(asks).sort()).toEqual(DEMO);
+    for (const id of DEMO) {
+      const rec = JSON.parse(await readFile(join(REPO, "designs", `${id}.json`), "utf8"));
+      expect(asks[id].duty_min, id).toBeLessThanOrEqual(rec.targets.duty_min);
+      expect(asks[id].duty_max, id).toBeGreaterThanOrEqual(rec.targets.duty_max);
+    }
+  });
 });
