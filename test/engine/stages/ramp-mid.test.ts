@@ -1,7 +1,7 @@
 /**
  * The ramp duty stage's duty at control ½ on grid cores against a real SPICE engine (native ngspice):
  * variants of the coverage grid (test/fixtures/coverage/designs) sized with the stage
- * (sizeVariantWithRampStage / sizeWithRamp), their published netlists run long enough for the ramp to
+ * (sizeWithRamp, as sizeVariant offers it), their published netlists run long enough for the ramp to
  * settle, the tap's duty read against the nominal prediction (evalRamp, the pair at its class's typical
  * gain). Two of these cores were 6–8 points off while the comparator pair's card was read at the
  * current of the chain's follower (same class): docs/method.md, "A duty stage that sets a voltage".
