@@ -1,5 +1,5 @@
 /**
- * Reach of the ramp-and-comparator duty stage (src/engine/stages/ramp-duty.ts, not yet offered by
+ * Reach of the ramp-and-comparator duty stage (src/engine/stages/ramp-duty.ts, offered by
  * sizeVariant), sized without simulation over rails, PWM frequencies, duty asks and both chain
  * polarities, on a plain core (R_C 1 kΩ, R_B 22 kΩ, C_T for the frequency, base diodes) loaded by the
  * ramp branches, at its two extremes of collector duty over R_B ±1 % and C_T ±5 %. Prints one row per

@@ -56,7 +56,7 @@ import {
 import { TIGHT_CAPS, tightCapsAllowed } from "./stages/timing-caps.ts";
 import { CROSS_TURNOVER_CHAINS, crossAllowed, withCrossWithheld } from "./stages/cross-checks.ts";
 import { potStepOffered } from "./stages/duty-pot.ts";
-import { type RampOffer, rampCoreSpec, rampOffer, rampOffered } from "./stages/ramp-offer.ts";
+import { type RampOffer, rampCoreSpec, rampLossesModelled, rampOffer, rampOffered } from "./stages/ramp-offer.ts";
 import { RAMP_NETS } from "./stages/ramp-parts.ts";
 import { type PullInTimer, designPullInTimer } from "./stages/pull-in-timer.ts";
 import { type ControlEnds, controlEnds, dutyReach } from "./stages/end-contacts.ts";
@@ -77,25 +77,19 @@ import {
 } from "./stages/core-rail.ts";
 
 export function sizeVariant(spec: VariantSpec): SizedVariant {
-  return sizePotCore(spec);
-}
-
-/**
- * sizeVariant with the ramp-and-comparator duty stage offered (stages/ramp-offer.ts; docs/method.md, "A
- * duty stage that sets a voltage"): tried only where sizeVariant refuses the variant on its duty range
- * (`rampOffered`), kept only when the variant it makes passes every check, so every variant that passes
- * keeps its design and a refusal keeps its page. Not offered to builds (src/cli/pipeline.ts, the browser
- * sizer): simulated, its duty at control ½ came out 6–13 points below the prediction on several cores
- * (docs/method.md, "Offered"); the tests and the measurements call it.
- */
-export function sizeVariantWithRampStage(spec: VariantSpec): SizedVariant {
-  const out = sizeVariant(spec);
+  const out = sizePotCore(spec);
+  // The ramp-and-comparator duty stage (stages/ramp-offer.ts; docs/method.md, "A duty stage that sets a
+  // voltage"): tried only where every potentiometer core refuses the variant on its duty range
+  // (`rampOffered`), kept only when the variant it makes passes every check, so every variant that
+  // passes on a pot core keeps its design and a refusal keeps its page; and only where the switching loss
+  // is a small share of the dissipation (`rampLossesModelled`: the chain's edges from the PNP's tap are not
+  // yet modelled).
   if (out.feasible || !rampOffered(spec, out)) return out;
   // Refused on the duty range with every potentiometer core: the ramp stage, kept only when feasible.
   const why = out.verdict.blocking.find((b) => b.rule.startsWith("duty-range"))?.rule ?? "duty-range-unreachable";
   try {
     const alt = withCoreMemo(() => sizeWithRamp(spec, why));
-    return alt?.feasible === true ? alt : out;
+    return alt?.feasible === true && rampLossesModelled(alt) ? alt : out;
   } catch (err) {
     // A misuse inside the ramp attempt must not cost the variant the refusal it already has.
     if (err instanceof EngineMisuseError) return out;
@@ -103,7 +97,8 @@ export function sizeVariantWithRampStage(spec: VariantSpec): SizedVariant {
   }
 }
 
-function sizePotCore(spec: VariantSpec): SizedVariant {
+/** sizeVariant without the ramp stage: the potentiometer cores alone (what the stage is tried after). */
+export function sizePotCore(spec: VariantSpec): SizedVariant {
   const out = sizeCrossStep(spec);
   if (out.feasible || !potStepOffered(spec)) return out;
   // Refused with every arrangement, class step and rail on the ±20 % duty pot: the same again with a

@@ -6,7 +6,7 @@ import { PIN_NAMES, type Part } from "../model/circuit.ts";
 import { checkNet, checkRef } from "./netlist-text.ts";
 import { ledStringLaw } from "../engine/shared/diode.ts";
 import { NOMINAL_TEMP_C } from "../engine/shared/temperature.ts";
-import { spiceModelName, spiceNum, timingModelName } from "./spice-num.ts";
+import { pairModelName, spiceModelName, spiceNum, timingModelName } from "./spice-num.ts";
 import { EngineMisuseError } from "../model/errors.ts";
 
 /** Fuse stand-in when the part gives no resistance: a few tens of mΩ (common practice, from memory). */
@@ -49,10 +49,21 @@ export function isTimingTransistor(p: Part): boolean {
   return (p.stage === "timing" || p.role === "Q_CL") && (p.kind === "npn" || p.kind === "pnp");
 }
 
+/**
+ * The ramp duty stage's comparator pair (Q_CR, Q_CW) gets its class's card with the gain read at the
+ * pair's own tail current: read with the class's other parts (a gate-drive follower at tens of
+ * milliamperes) its gain came out 100–113 where the class gives ≥ 300 at the pair's 0.3–1.5 mA, and the
+ * ramp side's base current through R_RAMP then moved the duty at control ½ by up to 11 points
+ * (docs/method.md, "A duty stage that sets a voltage").
+ */
+export function isComparatorPair(p: Part): boolean {
+  return (p.role === "Q_CR" || p.role === "Q_CW") && (p.kind === "npn" || p.kind === "pnp");
+}
+
 function modelOf(p: Part): string {
   const id = p.spice?.model ?? p.device;
   if (!id) throw new EngineMisuseError(`netlist: part ${p.ref} (${p.kind}) names no device class for its .model`);
-  return isTimingTransistor(p) ? timingModelName(id) : spiceModelName(id);
+  return isTimingTransistor(p) ? timingModelName(id) : isComparatorPair(p) ? pairModelName(id) : spiceModelName(id);
 }
 
 function loadR(p: Part): number {

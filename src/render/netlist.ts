@@ -8,7 +8,7 @@ import type { CircuitModel, Part } from "../model/circuit.ts";
 import type { DeviceLibrary } from "../model/device.ts";
 import type { CardSet } from "../model/corners.ts";
 import { STAGE_KINDS } from "../model/kinds.ts";
-import { END_PARAMS, elementLines, isTimingTransistor } from "./netlist-parts.ts";
+import { END_PARAMS, elementLines, isComparatorPair, isTimingTransistor } from "./netlist-parts.ts";
 import { checkNet, commentLines } from "./netlist-text.ts";
 import { spiceModel } from "./spice-models.ts";
 import { spiceNum } from "./spice-num.ts";
@@ -37,24 +37,27 @@ export const STEPS_PER_PERIOD = 400;
 
 function modelCards(circuit: CircuitModel, meta: NetlistMeta): string[] {
   // Gain is read at the largest operating current any part of the class carries (the lowest gain);
-  // timing-core transistors get their own card (typical junction), keyed apart.
-  const ic = new Map<string, { id: string; timing: boolean; i: number }>();
+  // timing-core transistors get their own card (typical junction), keyed apart, and so does a
+  // comparator pair (its gain read at its own tail current: netlist-parts.ts isComparatorPair).
+  const ic = new Map<string, { id: string; timing: boolean; pair: boolean; i: number }>();
   for (const p of circuit.parts) {
     const id = p.spice?.model ?? p.device;
     if (!id || p.kind === "led-strip") continue;
     const timing = isTimingTransistor(p);
-    const key = `${id}${timing ? "#timing" : ""}`;
-    const e = ic.get(key) ?? { id, timing, i: 0 };
+    const pair = !timing && isComparatorPair(p);
+    const key = `${id}${timing ? "#timing" : pair ? "#pair" : ""}`;
+    const e = ic.get(key) ?? { id, timing, pair, i: 0 };
     e.i = Math.max(e.i, p.stress.current_A ?? 0);
     ic.set(key, e);
   }
   return [...ic.keys()].sort().map((key) => {
-    const { id, timing, i } = ic.get(key)!;
+    const { id, timing, pair, i } = ic.get(key)!;
     const dev = meta.devices?.get(id);
     if (!dev) throw new EngineMisuseError(`netlist ${meta.id}: device class "${id}" is not in the device library`);
     const base = {
       gain: meta.gain ?? "min",
       ...(timing ? { junction: "typical" as const } : {}),
+      ...(pair ? { pair: true } : {}),
       ...(meta.cards === "independent" ? { cards: meta.cards } : {}),
     };
     return spiceModel(dev, i > 0 ? { ...base, ic_A: i } : base);

@@ -11,7 +11,7 @@ import { MJ, VJ_V, independentBjt } from "./spice-bjt-independent.ts";
 import { card } from "./spice-card.ts";
 import { diodeModel, zenerModel } from "./spice-diode.ts";
 import { mosfetModel } from "./spice-mosfet.ts";
-import { spiceModelName, timingModelName } from "./spice-num.ts";
+import { pairModelName, spiceModelName, timingModelName } from "./spice-num.ts";
 import { gainKnee, gainTempExponent, hfeNominal, kneeQb, vbeRefCurrent_A } from "../engine/shared/gain.ts";
 import { NOMINAL_TEMP_C, VT_NOMINAL_V } from "../engine/shared/temperature.ts";
 
@@ -22,6 +22,8 @@ export interface SpiceModelOptions {
   ic_A?: number;
   /** BJTs: "typical" junction for timing-core transistors (spice-bjt.ts fitBjt); default "worst". */
   junction?: "worst" | "typical";
+  /** The card of a comparator pair's transistors, named apart (spice-num.ts pairModelName). */
+  pair?: boolean;
   /**
    * Which card set: "worst-fit" (default: the published deck's, fitted to the classes' worst-case
    * data) or "independent" (the second set, derived from typical data by another route: BJTs by
@@ -110,7 +112,11 @@ function bjtCard(dev: BjtClass, opts: SpiceModelOptions, dc: [string, number][],
   // Storage time with I_B2 = I_B1 and I_C/β ≪ I_B1: t_s ≈ τ_s·ln2, τ_s ≈ TR (from memory).
   const tr = dev.t_storage_s / Math.LN2;
   return card(
-    opts.junction === "typical" ? timingModelName(dev.id) : spiceModelName(dev.id),
+    opts.junction === "typical"
+      ? timingModelName(dev.id)
+      : opts.pair === true
+        ? pairModelName(dev.id)
+        : spiceModelName(dev.id),
     dev.family === "npn" ? "NPN" : "PNP",
     [
       ...dc,
@@ -135,7 +141,7 @@ export function spiceModel(dev: DeviceClass, opts: SpiceModelOptions): string {
   // and set of options.
   let cards = CARDS.get(dev);
   if (cards === undefined) CARDS.set(dev, (cards = new Map()));
-  const key = `${opts.gain}\0${opts.ic_A}\0${opts.junction}\0${opts.cards}`;
+  const key = `${opts.gain}\0${opts.ic_A}\0${opts.junction}\0${opts.cards}\0${opts.pair === true}`;
   const kept = cards.get(key);
   if (kept !== undefined) return kept;
   const card = makeModel(dev, opts);

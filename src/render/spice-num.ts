@@ -17,6 +17,14 @@ export function spiceModelName(deviceId: string): string {
   return deviceId.toUpperCase().replace(/[^A-Z0-9]/g, "_");
 }
 
+/**
+ * Card name of a comparator-pair transistor's class (the ramp duty stage's Q_CR/Q_CW): its own card,
+ * with the gain read at the pair's own current (netlist.ts modelCards).
+ */
+export function pairModelName(id: string): string {
+  return `${spiceModelName(id)}_P`;
+}
+
 /** Card name of a timing-core transistor's class (typical junction: spice-bjt.ts fitBjt). */
 export function timingModelName(id: string): string {
   return `${spiceModelName(id)}_T`;

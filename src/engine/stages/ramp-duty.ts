@@ -11,7 +11,7 @@
  * one. Both the ramp and the wiper are proportional to the rail, so the duty at a control position
  * hardly moves with the supply.
  *
- * Pure functions; built and tested, not yet offered by sizeVariant (docs/method.md says what remains).
+ * Pure functions; sizeVariant offers the stage through ramp-offer.ts (docs/method.md says where).
  */
 import type { BjtClass } from "../../model/device.ts";
 import { EngineMisuseError } from "../../model/errors.ts";

@@ -1,6 +1,5 @@
 /**
- * The ramp-and-comparator duty stage as sizeVariantWithRampStage offers it (src/engine/stages/ramp-offer.ts;
- * not offered to builds): a bench
+ * The ramp-and-comparator duty stage as sizeVariant offers it (src/engine/stages/ramp-offer.ts): a bench
  * LED strip dimmer asking 5–95 % at 2 kHz with a true off and on at the control's ends, which no
  * potentiometer core reaches, sized with the stage in the driven-MOSFET chain, and its published netlist
  * run in a real SPICE engine (native ngspice).
@@ -8,7 +7,7 @@
 import { describe, expect, it } from "vitest";
 import { expandDesign } from "../../../src/expand/expand.ts";
 import { chooseDevices } from "../../../src/engine/devices/choose.ts";
-import { sizeVariant, sizeVariantWithRampStage, sizeWithRamp } from "../../../src/engine/size.ts";
+import { sizePotCore, sizeVariant, sizeWithRamp } from "../../../src/engine/size.ts";
 import { RAMP_CORE_DUTY, rampCoreSpec, rampOffered } from "../../../src/engine/stages/ramp-offer.ts";
 import { RAMP_NETS } from "../../../src/engine/stages/ramp-parts.ts";
 import { loadProject } from "../../../src/records/load.ts";
@@ -44,7 +43,7 @@ const variants = expandDesign(record, {
 const spec = (id: string) => variants.find((v) => v.id === id)!;
 const ID = "bench-strip-12v-1a-mosfet-driver-led";
 const v12 = spec(ID);
-const sized = sizeVariantWithRampStage(v12);
+const sized = sizeVariant(v12);
 const circuit = sized.circuit!;
 const role = (r: string) => circuit.parts.find((p) => p.role === r);
 const fig = (k: string) => sized.figures.find((f) => f.key === k)!;
@@ -57,16 +56,16 @@ const meta = {
 };
 const netlist = renderNetlist(circuit, meta);
 
-describe(`the ramp stage offered by sizeVariantWithRampStage (${ID}, demo numbers)`, () => {
-  it("sizeVariant itself does not offer it: the builds keep the potentiometer core's refusal", () => {
-    const plain = sizeVariant(v12);
+describe(`the ramp stage offered by sizeVariant (${ID}, demo numbers)`, () => {
+  it("every potentiometer core refuses the variant on its duty range: the stage is tried after them", () => {
+    const plain = sizePotCore(v12);
     expect(plain.feasible).toBe(false);
     expect(plain.circuit?.parts.some((p) => p.role === "Q_LVL") ?? false).toBe(false);
     expect(plain.verdict.blocking.some((b) => b.rule.startsWith("duty-range"))).toBe(true);
   });
 
   it("offered only to the driven MOSFET refused on its duty range; the core sized for a narrow band about 50 %", () => {
-    const logic = sizeVariantWithRampStage(spec("bench-strip-12v-1a-mosfet-logic-led"));
+    const logic = sizeVariant(spec("bench-strip-12v-1a-mosfet-logic-led"));
     // The logic-level MOSFET is not offered the stage: refused on the duty range, it keeps its pot core's page.
     expect(logic.feasible).toBe(false);
     expect(logic.verdict.blocking.some((b) => b.rule.startsWith("duty-range"))).toBe(true);
@@ -74,9 +73,13 @@ describe(`the ramp stage offered by sizeVariantWithRampStage (${ID}, demo number
     expect(rampOffered(logic.spec, logic)).toBe(false);
     expect(rampOffered(v12, { ...logic, spec: v12 })).toBe(true);
     expect(rampOffered({ ...v12, targets: { ...v12.targets, pwm_Hz: 20_000 } }, { ...logic, spec: v12 })).toBe(false);
-    // 1 kHz and 9 V: simulated outside their bands (ramp-offer.ts RAMP_OFFER_MIN_HZ, RAMP_OFFER_MIN_V).
+    // 2 kHz and 5 V are within the simulated bands (ramp-offer.ts RAMP_OFFER_MIN_HZ, RAMP_OFFER_MIN_V), below not.
+    expect(rampOffered({ ...v12, targets: { ...v12.targets, pwm_Hz: 2000 } }, { ...logic, spec: v12 })).toBe(true);
     expect(rampOffered({ ...v12, targets: { ...v12.targets, pwm_Hz: 1000 } }, { ...logic, spec: v12 })).toBe(false);
-    expect(rampOffered({ ...v12, supply_V: 9 }, { ...logic, spec: v12 })).toBe(false);
+    expect(rampOffered({ ...v12, supply_V: 5 }, { ...logic, spec: v12 })).toBe(true);
+    expect(rampOffered({ ...v12, supply_V: 4.5 }, { ...logic, spec: v12 })).toBe(false);
+    // Not for a winding (never simulated with the stage).
+    expect(rampOffered({ ...v12, load_kind: "motor" }, { ...logic, spec: v12 })).toBe(false);
     expect(rampCoreSpec(v12).targets).toMatchObject({
       duty_min: RAMP_CORE_DUTY.min,
       duty_max: RAMP_CORE_DUTY.max,
@@ -113,7 +116,7 @@ describe(`the ramp stage offered by sizeVariantWithRampStage (${ID}, demo number
 
   it("the 24 V variant stays refused with its pot core's page (the pair's reverse V_EB refuses the stage)", () => {
     const v24 = spec("bench-strip-24v-1a-mosfet-driver-led");
-    const s24 = sizeVariantWithRampStage(v24);
+    const s24 = sizeVariant(v24);
     expect(s24.feasible).toBe(false);
     expect(s24.circuit?.parts.some((p) => p.role === "Q_LVL") ?? false).toBe(false);
     expect(sizeWithRamp(v24)).toBeNull();
