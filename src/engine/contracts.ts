@@ -8,6 +8,15 @@ import type { DesignProblem } from "../model/problem.ts";
 import type { StressCheck } from "../model/derating.ts";
 import type { Part } from "../model/circuit.ts";
 
+/**
+ * A clamp of `junctions` base–emitter junctions in series at their typical V_BE(on): `v25_V` at the
+ * nominal 25 °C, each junction moving with V_BE's temperature coefficient (shared/gain.ts).
+ */
+export interface TypicalClamp {
+  v25_V: number;
+  junctions: number;
+}
+
 /** What the first device of a chain needs at its input, as seen from the tapped timing collector. */
 export type ChainInputNeed =
   | {
@@ -16,6 +25,12 @@ export type ChainInputNeed =
       i_A: number;
       /** Voltage the chain input clamps the tap at while on (n·V_BE(on) for an n-stage stack). */
       vClamp_V: number;
+      /**
+       * The same clamp with typical devices (each junction at its typical V_BE(on)), by temperature:
+       * the low end of the clamp's spread, which the fastest corners take (astable.ts typicalLoad).
+       * Absent: the clamp has no spread the core's timing sees.
+       */
+      clampTypical?: TypicalClamp;
       /** Tap-node voltage at which the chain starts to switch (≈ vClamp_V for a BJT input). */
       vThreshold_V: number;
       /**

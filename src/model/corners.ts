@@ -26,6 +26,12 @@ export interface Corner {
   kCB: number;
   kRCA: number;
   kRCB: number;
+  /**
+   * The chain input's clamp at its typical end (typical V_BE(on)) instead of the data-sheet maximum:
+   * set on the fastest corners of the frequency range (src/engine/stages/worst-corners.ts SETS.fHiTypical).
+   * Absent: the maximum.
+   */
+  typicalLoad?: true;
 }
 
 export interface SimCorner extends Corner {

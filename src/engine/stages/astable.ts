@@ -13,6 +13,9 @@
  * Pure functions; nothing rounded.
  */
 import { segmentTime_s } from "../shared/rc-ramp.ts";
+import { VBE_TEMPCO_VperK } from "../shared/gain.ts";
+import { NOMINAL_TEMP_C } from "../shared/temperature.ts";
+import type { TypicalClamp } from "../contracts.ts";
 import { offTime_s } from "./cross-bleed.ts";
 import { junctionTailCurrent_A } from "./core-levels.ts";
 
@@ -20,6 +23,24 @@ import { junctionTailCurrent_A } from "./core-levels.ts";
 export interface CollectorLoad {
   r_ohm: number;
   v_V: number;
+  /**
+   * The clamp with typical devices (a chain input's junctions at their typical V_BE(on)); `v_V` is its
+   * high end (maximum V_BE(sat), cold). Absent: a clamp without spread.
+   */
+  typical?: TypicalClamp;
+}
+
+/**
+ * The load with its clamp at the typical end, at t_C (the fastest corners: worst-corners.ts SETS.fHiTypical).
+ * A lower clamp holds the loaded collector lower, so the coupled swing is smaller and the half-periods
+ * shorter: the fast end of the frequency range is set by the typical chain input, not by the data
+ * sheet's maximum V_BE(sat) the drive is sized for. Each junction moves with V_BE's temperature
+ * coefficient (shared/gain.ts, common practice).
+ */
+export function typicalLoad(load: CollectorLoad | undefined, t_C: number): CollectorLoad | undefined {
+  if (load?.typical === undefined) return load;
+  const { v25_V, junctions } = load.typical;
+  return { r_ohm: load.r_ohm, v_V: v25_V + junctions * VBE_TEMPCO_VperK * (t_C - NOMINAL_TEMP_C) };
 }
 
 /** Two loads on one node as one: R₁ ∥ R₂ to (V₁/R₁ + V₂/R₂)·(R₁ ∥ R₂) (Thevenin, derived). */

@@ -23,6 +23,7 @@ import {
   followerOfCollector,
   followerThevenin,
   thresholdDelay_s,
+  typicalLoad,
 } from "./astable.ts";
 
 export interface CoreValues {
@@ -193,8 +194,10 @@ function makePrefix(v: CoreValues, q: BjtClass, db: DiodeClass, k: Corner, ctrl:
   const tapA = !v.inverting;
   // Every object handed on below keeps one shape (absent parts as undefined): the search makes
   // millions of them, and a property read that meets many shapes is several times slower.
-  let loadA: CollectorLoad | undefined = tapA ? v.tapLoad : v.balance;
-  let loadB: CollectorLoad | undefined = tapA ? v.balance : v.tapLoad;
+  // At the fastest corners the chain input's clamp sits at its typical end (astable.ts typicalLoad).
+  const tapLoad = k.typicalLoad === true ? typicalLoad(v.tapLoad, k.t_C)! : v.tapLoad;
+  let loadA: CollectorLoad | undefined = tapA ? tapLoad : v.balance;
+  let loadB: CollectorLoad | undefined = tapA ? v.balance : tapLoad;
   const cross = crossAt(v, q, db, k, vSat_V);
   if (cross !== undefined) {
     // While a collector is high, R_D feeds the opposite (conducting) base at V_BE(on): a load on it.
@@ -236,6 +239,7 @@ interface KeptPrefix {
   kEndA: number;
   kEndB: number;
   kPot: number;
+  typicalLoad: true | undefined;
   p: Prefix;
 }
 const keptPrefixes: (KeptPrefix | undefined)[] = [undefined, undefined];
@@ -255,12 +259,13 @@ function prefixOf(v: CoreValues, q: BjtClass, db: DiodeClass, k: Corner, ctrl: n
       Object.is(l.kRCB, k.kRCB) &&
       Object.is(l.kEndA, k.kEndA) &&
       Object.is(l.kEndB, k.kEndB) &&
-      Object.is(l.kPot, k.kPot)
+      Object.is(l.kPot, k.kPot) &&
+      l.typicalLoad === k.typicalLoad
     )
       return l.p;
   const p = makePrefix(v, q, db, k, ctrl);
-  const { vcc_V, t_C, kRCA, kRCB, kEndA, kEndB, kPot } = k;
-  keptPrefixes[nextPrefix] = { v, q, db, ctrl, vcc_V, t_C, kRCA, kRCB, kEndA, kEndB, kPot, p };
+  const { vcc_V, t_C, kRCA, kRCB, kEndA, kEndB, kPot, typicalLoad } = k;
+  keptPrefixes[nextPrefix] = { v, q, db, ctrl, vcc_V, t_C, kRCA, kRCB, kEndA, kEndB, kPot, typicalLoad, p };
   nextPrefix = 1 - nextPrefix;
   return p;
 }

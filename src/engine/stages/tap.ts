@@ -219,7 +219,7 @@ export function designTap(
       tapNet,
       inputNet,
       rC_ohm: rC,
-      load: { r_ohm: rT, v_V: need.vClamp_V },
+      load: { r_ohm: rT, v_V: need.vClamp_V, ...(need.clampTypical ? { typical: need.clampTypical } : {}) },
       ...pre,
       vThTap_V:
         bleed !== undefined ? (need.vThreshold_V * (rT + bleed)) / bleed : need.vThreshold_V + rT * (need.iEdge_A ?? 0),
@@ -408,7 +408,7 @@ export function designFollowerTap(ctx: Ctx, plan: ChainPlan, capInjection = true
     follower: { rS_ohm: rS },
     inputNet,
     rC_ohm: rC,
-    load: { r_ohm: rT, v_V: need.vClamp_V },
+    load: { r_ohm: rT, v_V: need.vClamp_V, ...(need.clampTypical ? { typical: need.clampTypical } : {}) },
     ...(bleed !== undefined ? { preLinear_ohm: rT + bleed } : {}),
     vThTap_V:
       bleed !== undefined ? (need.vThreshold_V * (rT + bleed)) / bleed : need.vThreshold_V + rT * (need.iEdge_A ?? 0),

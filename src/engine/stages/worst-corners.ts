@@ -44,6 +44,8 @@ interface Fixed {
   kPot: Dir;
   kCA: Dir;
   kCB: Dir;
+  /** The chain input's clamp at its typical end (Corner.typicalLoad): the fastest corners. */
+  typicalLoad?: true;
 }
 
 const ends = (d: Dir): number[] => (d === 0 ? [-1, 1] : [d]);
@@ -79,6 +81,7 @@ export function cornerSet(e: Envelope, fx: Fixed): Corner[] {
     kCB: m(e.cTol, cb!),
     kRCA: m(e.rTol, ra!),
     kRCB: m(e.rTol, rb!),
+    ...(fx.typicalLoad === true ? { typicalLoad: true as const } : {}),
   }));
 }
 
@@ -96,6 +99,12 @@ export const SETS = {
   /** Period longest / shortest: every R_B and C at the same end. */
   fLo: { kEndA: 1, kEndB: 1, kPot: 1, kCA: 1, kCB: 1 },
   fHi: { kEndA: -1, kEndB: -1, kPot: -1, kCA: -1, kCB: -1 },
+  /**
+   * The shortest period again with the chain input's clamp at its typical end (a lower loaded collector,
+   * a smaller swing: astable.ts typicalLoad): the frequency range's top only. The simulated fast corner
+   * stays in fHi, where the published cards (fitted to the maximum V_BE(sat)) run fastest.
+   */
+  fHiTypical: { kEndA: -1, kEndB: -1, kPot: -1, kCA: -1, kCB: -1, typicalLoad: true },
   /** Recovery 5·τ_c/t_off, largest: all base resistances low (shortest off times); C swept. */
   rec: { kEndA: -1, kEndB: -1, kPot: -1, kCA: 0, kCB: 0 },
 } as const satisfies Record<string, Fixed>;
@@ -161,7 +170,7 @@ export function worstCaseFast(v: CoreValues, q: BjtClass, db: DiodeClass, s: Cor
   duty(s.dMidHi, 0.5, w.dMid);
   duty(s.dMidLo, 0.5, w.dMid);
   for (const ctrl of [0, 0.5, 1])
-    for (const k of [...s.fLo, ...s.fHi]) {
+    for (const k of [...s.fLo, ...s.fHi, ...s.fHiTypical]) {
       const e = evalCore(v, q, db, k, ctrl);
       w.f.lo = Math.min(w.f.lo, e.f_Hz);
       w.f.hi = Math.max(w.f.hi, e.f_Hz);
@@ -175,7 +184,10 @@ export function worstCaseFast(v: CoreValues, q: BjtClass, db: DiodeClass, s: Cor
   return { ...w, recovery, thresholdReached: reached };
 }
 
-/** Brute force over the given corners at control 0, ½, 1: the reference the fast path is tested against. */
+/**
+ * Brute force over the given corners at control 0, ½, 1, the frequency with either end of the chain
+ * input's clamp: the reference the fast path is tested against.
+ */
 export function worstCaseBrute(v: CoreValues, q: BjtClass, db: DiodeClass, all: Corner[]): WorstCase {
   const r = (): Range => ({ lo: Infinity, hi: -Infinity });
   const w = { f: r(), dMin: r(), dMid: r(), dMax: r() };
@@ -196,6 +208,8 @@ export function worstCaseBrute(v: CoreValues, q: BjtClass, db: DiodeClass, all: 
       put(d, e.duty);
       if (e.dtTh_s === null) reached = false;
       recovery = Math.max(recovery, (5 * e.timing.tauA_s) / e.timing.tAoff_s, (5 * e.timing.tauB_s) / e.timing.tBoff_s);
+      // The frequency also with the chain input's clamp at its typical end (Corner.typicalLoad).
+      put(w.f, evalCore(v, q, db, { ...k, typicalLoad: true }, ctrl).f_Hz);
     }
   }
   return { ...w, recovery, thresholdReached: reached };

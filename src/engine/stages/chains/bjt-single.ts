@@ -54,6 +54,7 @@ export function planBjtSingle(ctx: Ctx): ChainPlan {
       kind: "base-current",
       i_A: iB_A + iBleedMax,
       vClamp_V: vClamp,
+      clampTypical: { v25_V: dev.vbe_on_V, junctions: 1 },
       vThreshold_V: vbeOn(dev, NOMINAL_TEMP_C),
       inverting: false,
     },

@@ -208,6 +208,7 @@ export function planDarlington(ctx: Ctx, n: 2 | 3): ChainPlan {
       kind: "base-current",
       i_A: OVERDRIVE_K * ib1Eq,
       vClamp_V: vClamp,
+      clampTypical: { v25_V: devs.reduce((s, d) => s + d.vbe_on_V, 0), junctions: devs.length },
       vThreshold_V: vTh,
       iEdge_A: ctx.switching === "clamped-inductive" ? nom.ib[0]! : nom.ib[0]! / 2,
       inverting: false,

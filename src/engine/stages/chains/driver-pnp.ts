@@ -98,6 +98,7 @@ export function planDriverPnp(ctx: Ctx): ChainPlan {
       kind: "base-current",
       i_A: iBD,
       vClamp_V: vClamp,
+      clampTypical: { v25_V: qd.vbe_on_V, junctions: 1 },
       vThreshold_V: vbeOn(qd, NOMINAL_TEMP_C),
       ...(iEdge === undefined ? {} : { iEdge_A: iEdge }),
       inverting: false,

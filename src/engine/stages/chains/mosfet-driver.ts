@@ -148,6 +148,7 @@ export function planMosfetDriver(ctx: Ctx): ChainPlan {
       kind: "base-current",
       i_A: iBD,
       vClamp_V: vClamp,
+      clampTypical: { v25_V: qd.vbe_on_V, junctions: 1 },
       vThreshold_V: vbeOn(qd, NOMINAL_TEMP_C),
       inverting: true,
     },
