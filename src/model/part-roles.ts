@@ -30,6 +30,17 @@ export const STAGE_ROLES = {
     "DF_B",
     "RS_A",
     "RS_B",
+    // The start network (docs/topologies.md, "Start network"): follower and cross-returned cores.
+    "DK_A",
+    "DK_B",
+    "RK_OR",
+    "RK_DIV",
+    "RK_SET",
+    "QK_SENSE",
+    "RK_MEM",
+    "CK_MEM",
+    "RK_HOLD",
+    "QK_HOLD",
   ],
   duty: [
     "RV_DUTY",

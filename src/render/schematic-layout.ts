@@ -234,8 +234,9 @@ export function coreLayout(tapSide: CoreSide, follower = false, ends = false): S
     tapSide === "B"
       ? { x: 420, y: BASE_Y, rot: 270, label: "below" }
       : { x: 420, y: BASE_Y, rot: 90, mirror: true, label: "below" };
-  // Pull-in timer (solenoid loads), in a row under the core, beneath timing transistor A's side.
-  const row = follower ? { ...PULL_IN_ROW, ...FOLLOWER_PULL_IN } : PULL_IN_ROW;
+  // Pull-in timer (solenoid loads), in a row under the core, beneath timing transistor A's side; the start
+  // network (never with a pull-in timer) in the same row.
+  const row = follower ? { ...PULL_IN_ROW, ...FOLLOWER_PULL_IN, ...START_ROW } : { ...PULL_IN_ROW, ...START_ROW };
   for (const [role, slot] of Object.entries(row) as [PlacedRole, Slot][])
     slots[role] =
       tapSide === "A"
@@ -308,6 +309,26 @@ const FOLLOWER_PULL_X = -8;
 const FOLLOWER_PULL_IN: Partial<Record<PlacedRole, Slot>> = {
   C_PULL: { ...PULL_IN_ROW.C_PULL!, x: FOLLOWER_PULL_X },
   D_PULL: { ...PULL_IN_ROW.D_PULL!, x: FOLLOWER_PULL_X },
+};
+/**
+ * The start network (docs/topologies.md, "Start network") as a small block under the core, drawn for
+ * tapped side A (mirrored otherwise like the pull-in row): the two collector diodes meet at the
+ * detector's node on the left, the divider drops to ground, the detector transistor and its delay
+ * (resistor from the rail, capacitor to ground) in the middle, and the holding transistor on the right,
+ * under timing transistor A, its collector rising to A's base.
+ */
+const START_Y = 600;
+const START_ROW: Partial<Record<PlacedRole, Slot>> = {
+  DK_B: { x: 150, y: START_Y - 40, rot: 90, label: "above" },
+  DK_A: { x: 150, y: START_Y + 10, rot: 90, label: "below" },
+  RK_OR: { x: 225, y: START_Y + 70, label: "right" },
+  RK_DIV: { x: 280, y: START_Y - 15, rot: 270, label: "above" },
+  RK_SET: { x: 345, y: START_Y + 70, label: "right" },
+  QK_SENSE: { x: 400, y: START_Y, label: "right" },
+  RK_MEM: { x: 480, y: START_Y - 70, label: "right" },
+  CK_MEM: { x: 520, y: START_Y + 70, label: "right" },
+  RK_HOLD: { x: 580, y: START_Y - 15, rot: 270, label: "above" },
+  QK_HOLD: { x: 640, y: START_Y, label: "right" },
 };
 const FLIP_LABEL = { left: "right", right: "left", above: "above", below: "below" } as const;
 

@@ -91,3 +91,15 @@ export function geometryProblems(text: string): string[] {
     if (!inside(...s.a) || !inside(...s.b)) problems.push(`${s.net} wire outside the viewBox margin`);
   return problems;
 }
+
+/**
+ * Net flags a drawing should not need: every flag, except (for now) those of the nets the start network
+ * joins across the core (the timing collectors and the rail), which the block under the core reaches by
+ * name until the layout tables give them lanes (docs/schematic.md).
+ */
+export function unexpectedFlags(svg: string): string[] {
+  const doc = readSvg(svg);
+  const start = [...doc.find("[data-role]")].some((s) => s.attr("data-role") === "QK_HOLD");
+  const allowed = new Set(start ? ["ca", "cb", "vbus"] : []);
+  return [...doc.find("[data-flag]")].map((g) => String(g.attr("data-net"))).filter((n) => !allowed.has(n));
+}

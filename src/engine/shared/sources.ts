@@ -970,6 +970,13 @@ export const SOURCES = {
         sureness: "common-practice",
       },
       { item: "small-signal V_EBO", value: "≈ 5–7 V", sureness: "common-practice" },
+      {
+        item: "start-up transistor of an astable",
+        value:
+          "holds one timing transistor off until its collector has risen " +
+          "(the start network: arrangement our own, measured)",
+        sureness: "common-practice",
+      },
       { item: "gain against temperature", value: "rises ≈ 0.5 %/K", sureness: "common-practice" },
       { item: "bulk capacitor", value: "≈ 100 µF per ampere, ≥ 100 µF", sureness: "common-practice" },
       { item: "solenoid hold current", value: "≈ 30–50 % of pull-in", sureness: "common-practice" },

@@ -140,6 +140,11 @@ export interface CoreParams {
   rBB_ohm: number;
   loadA?: CollectorLoad | undefined;
   loadB?: CollectorLoad | undefined;
+  /**
+   * A load on each timing collector itself while it is high, whatever the arrangement (the start
+   * network's divider, shared/start-network.ts startNetLoad): with followers it sits before them.
+   */
+  collectorLoad?: CollectorLoad | undefined;
   /** Recovery followers (follower-core arrangement); absent: the plain core. The loads then sit on the emitters. */
   follower?: FollowerParams | undefined;
   /**
@@ -206,8 +211,12 @@ export function followerThevenin(
   rC_ohm: number,
   f: Pick<FollowerParams, "vBe_V" | "beta">,
   load?: CollectorLoad,
+  collectorLoad?: CollectorLoad,
 ): { v_V: number; r_ohm: number } {
-  return collectorThevenin(vcc_V - f.vBe_V, rC_ohm / (f.beta + 1), load);
+  if (collectorLoad === undefined) return collectorThevenin(vcc_V - f.vBe_V, rC_ohm / (f.beta + 1), load);
+  // A load on the collector itself (the start network) first: the follower sees the loaded collector.
+  const c = collectorThevenin(vcc_V, rC_ohm, collectorLoad);
+  return collectorThevenin(c.v_V - f.vBe_V, c.r_ohm / (f.beta + 1), load);
 }
 
 /**
@@ -228,10 +237,12 @@ export function drivingThevenin(
   rC_ohm: number,
   fo: FollowerParams | undefined,
   load?: CollectorLoad,
+  collectorLoad?: CollectorLoad,
 ): { v_V: number; r_ohm: number } {
-  if (fo === undefined) return collectorThevenin(vcc_V, rC_ohm, load);
-  if (fo.loadsOnCollector === true) return followerOfCollector(collectorThevenin(vcc_V, rC_ohm, load), fo);
-  return followerThevenin(vcc_V, rC_ohm, fo, load);
+  const onCollector = collectorLoad === undefined ? load : parallelLoads(load, collectorLoad);
+  if (fo === undefined) return collectorThevenin(vcc_V, rC_ohm, onCollector);
+  if (fo.loadsOnCollector === true) return followerOfCollector(collectorThevenin(vcc_V, rC_ohm, onCollector), fo);
+  return followerThevenin(vcc_V, rC_ohm, fo, load, collectorLoad);
 }
 
 /**
@@ -312,7 +323,7 @@ interface Side {
 function side(p: CoreParams, x: "A" | "B"): Side {
   const fo = p.follower;
   const load = x === "A" ? p.loadA : p.loadB;
-  const drive = drivingThevenin(p.vcc_V, x === "A" ? p.rCA_ohm : p.rCB_ohm, fo, load);
+  const drive = drivingThevenin(p.vcc_V, x === "A" ? p.rCA_ohm : p.rCB_ohm, fo, load, p.collectorLoad);
   const tail = fo !== undefined && p.levels !== undefined && (fo.loadsOnCollector === true || load === undefined);
   const vbeF_V = fo?.vBe_V ?? 0;
   return {

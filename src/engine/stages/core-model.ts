@@ -10,6 +10,7 @@ import type { BjtClass, DiodeClass } from "../../model/device.ts";
 import { VBE_TEMPCO_VperK, hfeMin, vbeOn, vbeTypical_V, vceSat } from "../shared/gain.ts";
 import { diodeClassVf_V } from "../shared/diode.ts";
 import { NOMINAL_TEMP_C, thermalVoltage_V } from "../shared/temperature.ts";
+import { START_NET, startNetLoad } from "../shared/start-network.ts";
 import { CoreMemo } from "./core-memo.ts";
 import { excessBaseCurrent_A, regenerationCurrent_A } from "./core-levels.ts";
 import {
@@ -69,6 +70,11 @@ export interface CoreValues {
    * cross-bleed.ts), Ω: replaces `bleed_ohm`; the off phases follow the two-segment law.
    */
   crossBleed_ohm?: number;
+  /**
+   * The start network (shared/start-network.ts; docs/method.md, "Start network") on the timing
+   * collectors: its divider loads the high collector (startNetLoad) at every corner.
+   */
+  startNet?: true;
 }
 
 /**
@@ -177,6 +183,10 @@ interface Prefix {
   loadA: CollectorLoad | undefined;
   loadB: CollectorLoad | undefined;
   cross: ReturnType<typeof crossAt>;
+  /** The start network's load on the collector itself, where the loads otherwise sit on the followers' emitters. */
+  collLoad: CollectorLoad | undefined;
+  /** The start network's load (undefined: no network), for the tapped collector's rise. */
+  startLoad: CollectorLoad | undefined;
   fo: FollowerParams | undefined;
   levels: CoreLevels | undefined;
   vCutIn_V: number;
@@ -204,6 +214,16 @@ function makePrefix(v: CoreValues, q: BjtClass, db: DiodeClass, k: Corner, ctrl:
     loadA = parallelLoads(loadA, cross.load);
     loadB = parallelLoads(loadB, cross.load);
   }
+  const startLoad = startNetAt(v, q, db, k);
+  // On the collectors (plain core, chain on the collector) it joins the collector loads; with the chain on
+  // the followers' emitters it stays on the collector, before the follower (astable.ts followerThevenin).
+  const onEmitters = v.follower !== undefined && v.follower.onCollector !== true;
+  let collLoad: CollectorLoad | undefined;
+  if (startLoad !== undefined && onEmitters) collLoad = startLoad;
+  else if (startLoad !== undefined) {
+    loadA = parallelLoads(loadA, startLoad);
+    loadB = parallelLoads(loadB, startLoad);
+  }
   const fo = followerAt(v, q, db, k, rBA, rBB);
   const levels =
     cross === undefined
@@ -217,7 +237,18 @@ function makePrefix(v: CoreValues, q: BjtClass, db: DiodeClass, k: Corner, ctrl:
       : fo !== undefined
         ? Math.min(vOn_V, cutIn_V(v.diodes, db, k.t_C, v.bleed_ohm))
         : vOn_V;
-  return { rCA, rCB, vSat_V, rBA, rBB, vOn_V, tapA, loadA, loadB, cross, fo, levels, vCutIn_V };
+  return { rCA, rCB, vSat_V, rBA, rBB, vOn_V, tapA, loadA, loadB, cross, collLoad, startLoad, fo, levels, vCutIn_V };
+}
+
+/**
+ * The start network's load on a high collector at one corner (startNetLoad): DK's drop read at the
+ * current V_cc/(RK1 ∥ RK2) (a little more than it carries: the load comes out slightly heavier), QK2's
+ * base at V_BE(on) of the timing class (its own class). Undefined without the network.
+ */
+export function startNetAt(v: CoreValues, q: BjtClass, db: DiodeClass, k: Corner): CollectorLoad | undefined {
+  if (v.startNet !== true) return undefined;
+  const rPar = (START_NET.rOr_ohm * START_NET.rDiv_ohm) / (START_NET.rOr_ohm + START_NET.rDiv_ohm);
+  return startNetLoad(diodeVf_V(db, k.vcc_V / rPar, k.t_C), vbeOn(q, k.t_C));
 }
 
 /**
@@ -304,7 +335,8 @@ export function evalCoreFresh(v: CoreValues, q: BjtClass, db: DiodeClass, k: Cor
 }
 
 function evalFrom(v: CoreValues, k: Corner, made: Prefix): CoreEval {
-  const { rCA, rCB, vSat_V, rBA, rBB, vOn_V, tapA, loadA, loadB, cross, fo, levels, vCutIn_V } = made;
+  const { rCA, rCB, vSat_V, rBA, rBB, vOn_V, tapA, loadA, loadB, cross, collLoad, startLoad, fo, levels, vCutIn_V } =
+    made;
   const timing = evaluateCore({
     vcc_V: k.vcc_V,
     vOn_V,
@@ -318,6 +350,7 @@ function evalFrom(v: CoreValues, k: Corner, made: Prefix): CoreEval {
     rBB_ohm: rBB,
     loadA,
     loadB,
+    collectorLoad: collLoad,
     follower: fo,
     cross: cross?.params,
     levels,
@@ -328,13 +361,16 @@ function evalFrom(v: CoreValues, k: Corner, made: Prefix): CoreEval {
   const rCX = tapA ? rCA : rCB;
   const cX = v.c_F * (tapA ? k.kCA : k.kCB);
   const pre = v.preLinear_ohm;
-  const preLoad = pre === undefined ? undefined : { r_ohm: pre, v_V: 0 };
+  const preOnly = pre === undefined ? undefined : { r_ohm: pre, v_V: 0 };
+  // The start network loads the rising collector as well (where the loads sit on the collector).
+  const preLoad = startLoad === undefined || collLoad !== undefined ? preOnly : parallelLoads(preOnly, startLoad);
   let dtTh_s: number | null;
   if (cross !== undefined && fo === undefined) {
     // The tapped collector rises towards its Thevenin level with the linear input network and R_D.
     const th = collectorThevenin(k.vcc_V, rCX, parallelLoads(preLoad, cross.load));
     dtTh_s = thresholdDelay_s(th.r_ohm * cX, th.v_V, vSat_V, v.vThTap_V);
   } else if (fo === undefined) {
+    // (No start network here: it is offered on the cross-returned and follower cores only.)
     const vInf = pre === undefined ? k.vcc_V : (k.vcc_V * pre) / (rCX + pre);
     const rTh = pre === undefined ? rCX : (rCX * pre) / (rCX + pre);
     dtTh_s = thresholdDelay_s(rTh * cX, vInf, vSat_V, v.vThTap_V);
@@ -354,7 +390,7 @@ function evalFrom(v: CoreValues, k: Corner, made: Prefix): CoreEval {
     // level V_low = V_CE(sat) + V_F at once, except for the drop the capacitor's recharge current
     // makes across R_out: e(t) = V_th − R_out/(R_out + R_S)·(V_th − V_low)·e^(−t/τ), τ = (R_out + R_S)·C
     // (derived from the emitter node's Thevenin equivalent, followerThevenin).
-    const th = followerThevenin(k.vcc_V, rCX, fo, preLoad);
+    const th = followerThevenin(k.vcc_V, rCX, fo, preLoad, collLoad);
     const vLow = vSat_V + (tapA ? fo.vFA_V : fo.vFB_V);
     const vStart = th.v_V - (th.r_ohm / (th.r_ohm + fo.rS_ohm)) * Math.max(0, th.v_V - vLow);
     dtTh_s = thresholdDelay_s((th.r_ohm + fo.rS_ohm) * cX, th.v_V, vStart, v.vThTap_V);

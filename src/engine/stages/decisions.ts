@@ -19,6 +19,7 @@ import { GENERAL_POT, TIGHT_POT } from "./duty-pot.ts";
 import { GATE_EDGE_SHARE } from "./tap.ts";
 import { returnFet } from "./return-fet.ts";
 import { seriesReverse } from "./reverse.ts";
+import { START_NET, startThreshold_V } from "../shared/start-network.ts";
 
 /** The device role a part of this role takes its class from, where the part role says it. */
 const DEVICE_ROLE_OF: Partial<Record<PartRole, DeviceRole>> = {
@@ -28,6 +29,10 @@ const DEVICE_ROLE_OF: Partial<Record<PartRole, DeviceRole>> = {
   QF_B: "timing_npn",
   DF_A: "signal_diode",
   DF_B: "signal_diode",
+  QK_SENSE: "timing_npn",
+  QK_HOLD: "timing_npn",
+  DK_A: "signal_diode",
+  DK_B: "signal_diode",
   Q_DRV: "driver_npn",
   Q_CL: "timing_npn",
   Q_HI: "driver_npn",
@@ -197,6 +202,8 @@ export function designDecisions(
   const pot = potDecision(spec, circuit);
   if (pot !== undefined) out.push(pot);
   if (arrangement !== undefined) out.push(arrangementDecision(circuit, arrangement));
+  const start = startNetDecision(circuit);
+  if (start !== undefined) out.push(start);
   if (caps !== undefined) out.push(capsDecision(circuit, caps));
   return out;
 }
@@ -269,6 +276,52 @@ function arrangementDecision(circuit: CircuitModel, arrangement: FollowerChosen 
       `other collector's V_CE(sat), so its timing resistor charges the capacitor alone; while it is on, the ` +
       `bleed adds base current from the other collector's high level, so the largest timing resistor no ` +
       `longer has to saturate the transistor by itself and the control spans a wider duty range`,
+  };
+}
+
+/** The start network's roles (stages/start-network.ts), in the parts list's order. */
+const START_NET_ROLES: ReadonlySet<PartRole> = new Set([
+  "DK_A",
+  "DK_B",
+  "RK_OR",
+  "RK_DIV",
+  "RK_SET",
+  "QK_SENSE",
+  "RK_MEM",
+  "CK_MEM",
+  "RK_HOLD",
+  "QK_HOLD",
+]);
+
+/**
+ * The start network on a follower or cross-returned core (stages/start-network.ts): why it is there and
+ * how its threshold was set. No published source: the start-up transistor is common practice, the
+ * arrangement our own, measured (docs/verification.md, "Cold start").
+ */
+function startNetDecision(circuit: CircuitModel): DesignDecision | undefined {
+  const parts = circuit.parts.filter((p) => START_NET_ROLES.has(p.role));
+  const set = parts.find((p) => p.role === "RK_SET");
+  if (set === undefined) return undefined;
+  const follower = circuit.parts.some((p) => p.role === "QF_A");
+  const cMem_F = parts.find((p) => p.role === "CK_MEM")?.value ?? 0;
+  return {
+    refs: parts.map((p) => p.ref),
+    topic: "start network",
+    choice:
+      `a start network: two diodes pass the higher timing collector to a detector transistor, which after a ` +
+      `${formatValue(START_NET.rMem_ohm * cMem_F, "s")} delay lets a second transistor hold timing ` +
+      `transistor A's base at ground while both collectors stay below ` +
+      `${formatValue(startThreshold_V(set.value), "V")} (${set.ref} ${formatValue(set.value, "Ω")})`,
+    reason:
+      `from a supply that rises slowly (0 V to full in 20 ms) the ` +
+      (follower ? "follower core" : "cross-returned core") +
+      ` would come up with both transistors on and stay so: nothing lets one of them go. The network lets ` +
+      `collector A rise first, so A starts with a whole edge and turns B off as in a running core; the delay ` +
+      `(at most the longer of 1 ms and the period) keeps it out of a running core's edges, and its divider ` +
+      `loads the high collector a little (in the worst case). The threshold is ½ of collector A's high ` +
+      `level, its lower resistor rounded down in E24 so the threshold stays at or above ½; a start-up ` +
+      `transistor is common practice, this arrangement our own, ` +
+      `measured in native ngspice`,
   };
 }
 

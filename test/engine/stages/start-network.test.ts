@@ -1,0 +1,198 @@
+/**
+ * The start network (docs/method.md, "Start network"; src/engine/shared/start-network.ts,
+ * src/engine/stages/start-network.ts): its relations against hand calculations, where the engine fits it
+ * (follower cores only), its load in the core model, the same designators in netlist,
+ * schematic and parts list, and a real SPICE engine (native ngspice): a demo follower core with the
+ * network starts from the 20 ms supply rise, the same circuit without it does not.
+ */
+import { describe, expect, it } from "vitest";
+import { expandDesign } from "../../../src/expand/expand.ts";
+import { chooseDevices } from "../../../src/engine/devices/choose.ts";
+import { sizeVariant, tapAndTiming } from "../../../src/engine/size.ts";
+import { makeContext } from "../../../src/engine/stages/context.ts";
+import { CHAIN_PLANNERS } from "../../../src/engine/stages/chains/index.ts";
+import { loadProject } from "../../../src/records/load.ts";
+import { renderVariantViews } from "../../../src/render/variant.ts";
+import { evalCore, NOMINAL_K, type CoreValues } from "../../../src/engine/stages/core-model.ts";
+import { NOMINAL_TEMP_C } from "../../../src/engine/shared/temperature.ts";
+import {
+  START_NET,
+  startMemoryCap_F,
+  startMemoryPeak_V,
+  startNetLoad,
+  startThresholdE24_ohm,
+  startThresholdExact_ohm,
+  startThreshold_V,
+} from "../../../src/engine/shared/start-network.ts";
+import { coldRunDeck, coldSwingShare, COLD_SWING_SHARE } from "../../../src/verify/cold-start.ts";
+import { startNgspice } from "../../../src/verify/engines/ngspice.ts";
+import { supplyVoltage } from "../../../src/verify/deck.ts";
+import type { BjtClass, DiodeClass } from "../../../src/model/device.ts";
+import type { SizedVariant } from "../../../src/model/sized.ts";
+import type { Part } from "../../../src/model/circuit.ts";
+import { REPO } from "../../records/project.ts";
+import { hasNgspice } from "../../render/ngspice.ts";
+import { expectSameDesignators } from "../../render/designators.ts";
+
+const NET_ROLES: Part["role"][] = [
+  "DK_A",
+  "DK_B",
+  "RK_OR",
+  "RK_DIV",
+  "RK_SET",
+  "QK_SENSE",
+  "RK_MEM",
+  "CK_MEM",
+  "RK_HOLD",
+  "QK_HOLD",
+];
+
+describe("start network relations (hand calculations)", () => {
+  it("loads the high collector with RK1 ∥ RK2 towards V_F + V_BE·RK1/(RK1 + RK2)", () => {
+    // Two resistors to 0 V and to a 0.65 V base, seen through a 0.6 V diode: the Thevenin equivalent of a
+    // divider (common practice): 470 k ∥ 470 k = 235 kΩ towards 0.6 + 0.65/2 = 0.925 V.
+    const l = startNetLoad(0.6, 0.65);
+    expect(l.r_ohm).toBeCloseTo(235_000, 6);
+    expect(l.v_V).toBeCloseTo(0.925, 12);
+    // On a 12 V collector behind 1 kΩ the high level falls by R_C/(R_C + R_L)·(V_cc − V_L) ≈ 46.8 mV (derived by hand).
+    const vHigh = (12 * l.r_ohm + l.v_V * 1000) / (1000 + l.r_ohm);
+    expect(12 - vHigh).toBeCloseTo((1000 / 236_000) * (12 - 0.925), 9);
+    expect(12 - vHigh).toBeCloseTo(0.04693, 4);
+  });
+
+  it("sets RK5 = RK2/(V_th/0.6 V − 1), rounded down in E24 so V_th stays at or above its aim", () => {
+    // V_th 6 V: 470 k/(10 − 1) = 52.2 kΩ; E24 below it is 51 kΩ (IEC 60063:2015, table 1), which puts the
+    // threshold at 0.6·(1 + 470/51) = 6.13 V (by hand).
+    expect(startThresholdExact_ohm(6)).toBeCloseTo(52_222.2, 1);
+    expect(startThresholdE24_ohm(6)).toBe(51_000);
+    expect(startThreshold_V(51_000)).toBeCloseTo(6.1294, 4);
+    for (const vTh of [1.5, 2.4, 5.5, 7.1, 11.75, 13.3]) {
+      const r = startThresholdE24_ohm(vTh);
+      expect(startThreshold_V(r)).toBeGreaterThanOrEqual(vTh);
+      expect(startThreshold_V(r)).toBeLessThan(vTh * 1.11);
+    }
+  });
+
+  it("delays by at most the longer of 1 ms and the period (CKM E12 down) and charges km as a first-order RC", () => {
+    expect(startMemoryCap_F(1 / 20_000)).toBeCloseTo(10e-9, 15); // 1 ms / 100 kΩ
+    expect(startMemoryCap_F(1 / 960)).toBeCloseTo(10e-9, 15); // 1.04 ms → 10.4 nF → E12 10 nF
+    expect(startMemoryCap_F(1 / 95)).toBeCloseTo(100e-9, 15); // 10.5 ms / 100 kΩ → 105 nF → E12 100 nF
+    expect(startMemoryCap_F(1 / 200)).toBeCloseTo(47e-9, 15); // 5 ms → 50 nF → E12 47 nF
+    // 1 − e^(−1) of the way in one time constant (Hayt & Kemmerly, first-order circuits, from memory).
+    expect(startMemoryPeak_V(12, 0.05, START_NET.rMem_ohm * 10e-9, 10e-9)).toBeCloseTo(
+      0.05 + 11.95 * (1 - Math.exp(-1)),
+      12,
+    );
+    expect(startMemoryPeak_V(12, 0.05, 0, 10e-9)).toBe(0.05);
+  });
+});
+
+const project = await loadProject(REPO);
+if (!project.ok) throw new Error("demo records must load");
+const specs = project.designs.flatMap(({ record }) =>
+  expandDesign(record, {
+    choose: (x, v, a, c, k) => chooseDevices(x, project.devices, v, a, c, k),
+    policy: project.policy,
+  }),
+);
+const sized = new Map<string, SizedVariant>();
+function sizedOf(id: string): SizedVariant {
+  const s = sized.get(id) ?? sizeVariant(specs.find((x) => x.id === id)!);
+  sized.set(id, s);
+  return s;
+}
+const FOLLOWER = "circulation-fan-12v-1a-mosfet-logic-motor";
+const CROSS = "circulation-fan-24v-1a-mosfet-logic-motor";
+const PUMP = "nutrient-pump-24v-1a-darlington-3-motor";
+
+describe("where the engine fits it (the demo records)", () => {
+  it("on every follower core but a solenoid's or a railed one, and on no plain or cross-returned core", () => {
+    let withNet = 0;
+    for (const spec of specs) {
+      const s = sizeVariant(spec);
+      const parts = s.circuit?.parts ?? [];
+      const follower = parts.some((p) => p.role === "QF_A");
+      const cross = parts.some((p) => p.role === "RBL_A" && p.pins["b"] === "cb");
+      const railed = parts.some((p) => p.role === "C_RAIL");
+      const want = follower && !cross && spec.load_kind !== "solenoid" && !railed;
+      const roles = parts.filter((p) => NET_ROLES.includes(p.role)).map((p) => p.role);
+      expect(roles.sort(), spec.id).toEqual(want ? [...NET_ROLES].sort() : []);
+      expect(
+        (s.decisions ?? []).some((d) => d.topic === "start network"),
+        spec.id,
+      ).toBe(want);
+      if (want) withNet++;
+    }
+    expect(withNet).toBeGreaterThan(20);
+  });
+
+  it("rates its parts under the policy: DK reverse and QK V_CE at V_cc,max, RK3 at V_cc,max²/RK3", () => {
+    const s = sizedOf(FOLLOWER);
+    const vMax = s.spec.supply_window.max_V;
+    const role = (r: Part["role"]): Part => s.circuit!.parts.find((p) => p.role === r)!;
+    expect(role("DK_A").stress.voltage_V).toBe(vMax);
+    expect(role("QK_SENSE").stress.voltage_V).toBe(vMax);
+    expect(role("QK_HOLD").stress.voltage_V).toBe(vMax);
+    expect(role("CK_MEM").stress.voltage_V).toBe(vMax);
+    expect(role("RK_MEM").stress.power_W).toBeCloseTo((vMax * vMax) / (100_000 * 0.95), 12);
+    const refs = new Set(NET_ROLES.map((r) => role(r).ref));
+    const failed = s.checks.filter((c) => refs.has(c.ref as never) && c.verdict === "fail");
+    expect(failed).toEqual([]);
+    expect(s.problems.filter((p) => p.rule.startsWith("start-network"))).toEqual([]);
+  });
+
+  it("reference designators are the same in the netlist, the schematic and the parts list", () => {
+    expect(sizedOf(CROSS).circuit!.parts.some((p) => p.role === "QK_HOLD")).toBe(false);
+    for (const id of [FOLLOWER, PUMP]) {
+      const s = sizedOf(id);
+      const v = renderVariantViews(s, project.devices);
+      expectSameDesignators(s.circuit!, v.netlist, v.schematicSvg, v.bomCsv);
+    }
+  });
+});
+
+describe("the network's load in the core model", () => {
+  it("raises the predicted frequency a little, as the simulation shows (+0.15 … +3.1 %, measured)", () => {
+    for (const id of [FOLLOWER, PUMP]) {
+      const ctx = makeContext(specs.find((x) => x.id === id)!);
+      const core = tapAndTiming(ctx, CHAIN_PLANNERS[ctx.spec.chain](ctx));
+      const q = ctx.spec.devices.timing_npn as BjtClass;
+      const db = ctx.spec.devices.signal_diode as DiodeClass;
+      const v: CoreValues = core.timing.values;
+      expect(v.startNet, id).toBe(true);
+      const { startNet: _n, ...without } = v;
+      void _n;
+      const k = { vcc_V: ctx.vNom_V, t_C: NOMINAL_TEMP_C, ...NOMINAL_K };
+      const f1 = evalCore(v, q, db, k, 1).f_Hz;
+      const f0 = evalCore(without, q, db, k, 1).f_Hz;
+      expect(f1 / f0 - 1, id).toBeGreaterThan(0.0005);
+      expect(f1 / f0 - 1, id).toBeLessThan(0.04);
+    }
+  });
+});
+
+describe.skipIf(!hasNgspice)("a real cold start (native ngspice, the proof's 20 ms rise)", () => {
+  const NET_LINE = /^(D\d+ c[ab] kh |R\d+ kh |R\d+ kb2 |Q\d+ km kb2 |R\d+ \S+ km |C\d+ km |R\d+ km kb1 |Q\d+ ba kb1 )/;
+  it("a demo follower core with the network starts at control 0 and 1; without it, it does not", async () => {
+    const s = sizedOf(FOLLOWER);
+    const netlist = renderVariantViews(s, project.devices, { schematic: false }).netlist;
+    const without = netlist
+      .split("\n")
+      .filter((l) => !NET_LINE.test(l))
+      .join("\n");
+    expect(netlist.split("\n").length - without.split("\n").length).toBe(10);
+    const f = s.figures.find((x) => x.key === "frequency_nominal")!.value;
+    const vbus = supplyVoltage(netlist);
+    const engine = startNgspice();
+    try {
+      for (const ctrl of [0, 1]) {
+        const on = await engine.run(coldRunDeck(netlist, 1 / f, ctrl), ["v(ca)", "v(cb)"]);
+        expect(coldSwingShare(on, 1 / f, vbus), `with, ctrl ${ctrl}`).toBeGreaterThan(COLD_SWING_SHARE);
+        const off = await engine.run(coldRunDeck(without, 1 / f, ctrl), ["v(ca)", "v(cb)"]);
+        expect(coldSwingShare(off, 1 / f, vbus), `without, ctrl ${ctrl}`).toBeLessThan(COLD_SWING_SHARE);
+      }
+    } finally {
+      await engine.close();
+    }
+  }, 120_000);
+});
