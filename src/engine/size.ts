@@ -56,7 +56,14 @@ import {
 import { TIGHT_CAPS, tightCapsAllowed } from "./stages/timing-caps.ts";
 import { CROSS_TURNOVER_CHAINS, crossAllowed, withCrossWithheld } from "./stages/cross-checks.ts";
 import { potStepOffered } from "./stages/duty-pot.ts";
-import { type RampOffer, rampCoreSpec, rampLossesModelled, rampOffer, rampOffered } from "./stages/ramp-offer.ts";
+import {
+  RAMP_OFFER_PROTECTED_PAIR,
+  type RampOffer,
+  rampCoreSpec,
+  rampLossesModelled,
+  rampOffer,
+  rampOffered,
+} from "./stages/ramp-offer.ts";
 import { RAMP_NETS } from "./stages/ramp-parts.ts";
 import { type PullInTimer, designPullInTimer } from "./stages/pull-in-timer.ts";
 import { type ControlEnds, controlEnds, dutyReach } from "./stages/end-contacts.ts";
@@ -589,10 +596,14 @@ export function sizeWithGateBuffer(spec: VariantSpec): SizedVariant | null {
  * The variant on a plain core sized for ≈ 50 % with the ramp stage setting the duty (stages/ramp-offer.ts;
  * docs/method.md, "A duty stage that sets a voltage"); null where none is found.
  */
-export function sizeWithRamp(spec: VariantSpec, why = "duty-range-unreachable"): SizedVariant | null {
+export function sizeWithRamp(
+  spec: VariantSpec,
+  why = "duty-range-unreachable",
+  protectPair = RAMP_OFFER_PROTECTED_PAIR,
+): SizedVariant | null {
   const chosen = coreOf(rampCoreSpec(spec), false);
   if (!chosen.core.timing.search.passed || chosen.core.cross !== undefined) return null;
-  const offer = rampOffer(spec, chosen.ctx, chosen.plan, chosen.core.tap, chosen.core.timing, why);
+  const offer = rampOffer(spec, chosen.ctx, chosen.plan, chosen.core.tap, chosen.core.timing, why, protectPair);
   return offer === null ? null : sizeChosen(chosen, offer);
 }
 

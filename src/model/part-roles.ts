@@ -68,6 +68,11 @@ export const STAGE_ROLES = {
     "Q_LVL",
     "R_LVL",
     "R_HYS",
+    // Its pair's base–emitter protection: a diode in series with each emitter, one across each junction.
+    "D_ER",
+    "D_EW",
+    "D_KR",
+    "D_KW",
   ],
   chain: [
     "RT",

@@ -398,7 +398,8 @@ const LVL_Y = 210;
 const DIV_X = RAMP_X + 680;
 const HYS_Y = 260;
 export const RAMP_WIDTH = 780;
-export function rampLayout(core: StageLayout, potTopA: boolean): StageLayout {
+export function rampLayout(core: StageLayout, potTopA: boolean, protect = false): StageLayout {
+  if (protect) return protectedPair(rampLayout(core, potTopA));
   const slots: Partial<Record<PlacedRole, Slot>> = { ...core.slots };
   delete slots.RV_DUTY;
   Object.assign(slots, {
@@ -440,4 +441,41 @@ export function rampLayout(core: StageLayout, potTopA: boolean): StageLayout {
     ["RD_LO.a", "RV_DUTY.b"],
   ];
   return { ...core, slots, routes, width: CORE_WIDTH + RAMP_WIDTH };
+}
+
+/**
+ * The pair's base–emitter protection (docs/topologies.md): a diode under each emitter down to the tail,
+ * drawn lower, and a clamp from each emitter back to its base beside it (the ramp's and the wiper's
+ * lines move out to make room).
+ */
+const TAIL_P = 490;
+const CLAMP_Y = 390;
+function protectedPair(l: StageLayout): StageLayout {
+  const slots: Partial<Record<PlacedRole, Slot>> = {
+    ...l.slots,
+    R_TAIL: { x: RAMP_X + 325, y: TAIL_P + 30, label: "right" },
+    D_ER: { x: RAMP_X + 230, y: 430, label: "right" },
+    D_EW: { x: RAMP_X + 420, y: 430, label: "left" },
+    D_KR: { x: RAMP_X + 195, y: CLAMP_Y, rot: 90, label: "below" },
+    D_KW: { x: RAMP_X + 460, y: CLAMP_Y, rot: 270, label: "below" },
+  };
+  const drop = new Set(["Q_CR.e", "R_TAIL.a", "RR_A.b"]);
+  const routes: Route[] = [
+    ...l.routes.filter((r) => {
+      const h = r[0];
+      if (typeof h === "string") return !drop.has(h);
+      return !(Array.isArray(h) && h[0] === DIV_X - 40 && h[1] === HYS_Y);
+    }),
+    ["RR_A.b", [RAMP_X + 160, "RR_A.b"], [RAMP_X + 160, PAIR_Y], "Q_CR.b"],
+    ["Q_CR.e", "D_ER.anode"],
+    ["Q_CW.e", "D_EW.anode"],
+    ["D_KR.anode", [RAMP_X + 230, CLAMP_Y]],
+    ["D_KR.cathode", [RAMP_X + 160, CLAMP_Y], [RAMP_X + 160, PAIR_Y]],
+    ["D_KW.anode", [RAMP_X + 420, CLAMP_Y]],
+    ["D_KW.cathode", [RAMP_X + 500, CLAMP_Y]],
+    ["D_ER.cathode", ["D_ER.cathode", TAIL_P], ["D_EW.cathode", TAIL_P], "D_EW.cathode"],
+    ["R_TAIL.a", ["R_TAIL.a", TAIL_P]],
+    [[DIV_X - 40, HYS_Y], [DIV_X - 40, TAIL_Y + 40], [RAMP_X + 500, TAIL_Y + 40], [RAMP_X + 500, PAIR_Y], "Q_CW.b"],
+  ];
+  return { ...l, slots, routes };
 }

@@ -162,7 +162,8 @@ function stages(circuit: CircuitModel, highSide: boolean): Record<StageKind, Sta
   );
   const top = circuit.parts.find((p) => p.role === "RD_HI")?.pins["b"];
   const potTopA = circuit.parts.some((p) => p.role === "RV_DUTY" && p.pins["a"] === top);
-  const core = ramp ? L.rampLayout(plain, potTopA) : plain;
+  const protect = circuit.parts.some((p) => p.role === "D_ER");
+  const core = ramp ? L.rampLayout(plain, potTopA, protect) : plain;
   const x1 = LEFT_X + L.SUPPLY.width;
   const x2 = x1 + core.width;
   const x3 = x2 + chain.outX;

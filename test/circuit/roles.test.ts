@@ -81,7 +81,8 @@ describe("part roles: one closed vocabulary", () => {
     for (const side of ["A", "B"] as const)
       for (const ends of [false, true]) for (const r of Object.keys(coreLayout(side, false, ends).slots)) placed.add(r);
     for (const potTopA of [false, true])
-      for (const r of Object.keys(rampLayout(coreLayout("A"), potTopA).slots)) placed.add(r);
+      for (const protect of [false, true])
+        for (const r of Object.keys(rampLayout(coreLayout("A"), potTopA, protect).slots)) placed.add(r);
     for (const l of [
       SUPPLY,
       loadLayout(false, "Q_POWER.c"),

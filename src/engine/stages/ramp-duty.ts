@@ -13,7 +13,7 @@
  *
  * Pure functions; sizeVariant offers the stage through ramp-offer.ts (docs/method.md says where).
  */
-import type { BjtClass } from "../../model/device.ts";
+import type { BjtClass, DiodeClass } from "../../model/device.ts";
 import { EngineMisuseError } from "../../model/errors.ts";
 import { hfeMax, hfeMin, typicalGainRatio, vbeOn, vceSat } from "../shared/gain.ts";
 import { thermalVoltage_V, NOMINAL_TEMP_C } from "../shared/temperature.ts";
@@ -21,6 +21,7 @@ import { periodicSegmentStarts, segmentTime_s } from "../shared/rc-ramp.ts";
 import { VBE_MISMATCH_V, loadedByPairInput, pairSteer_V } from "../shared/diff-pair.ts";
 import { storageTime_s } from "../shared/storage.ts";
 import { nearest, roundDown, roundUp } from "../shared/e-series.ts";
+import { diodeClassLaw, diodeClassVf_V } from "../shared/diode.ts";
 
 /** The core's collector A at one corner, as the ramp sees it. */
 export interface RampCore {
@@ -50,6 +51,11 @@ export interface RampValues {
   rOut_ohm: number;
   /** True: control 0 puts the wiper at the top (inverting chains). */
   potReversed: boolean;
+  /**
+   * The pair's base–emitter protection (pairProtection): a signal diode in series with each emitter into
+   * the tail and one across each base–emitter junction, reversed. Absent: the bare pair.
+   */
+  pairDiodes?: true;
 }
 
 /** Tolerance multipliers and disturbances of one corner (core supply and temperature come with RampCore). */
@@ -88,6 +94,41 @@ export const RAMP_NOMINAL: Omit<RampCorner, "t_C"> = {
 export interface RampDevices {
   pair: BjtClass;
   out: BjtClass;
+  /** The signal diode class the pair's protection is built of (absent: the protection is not offered). */
+  pairDiode?: DiodeClass;
+}
+
+/**
+ * A signal diode's reverse leakage bound at the ambients rated here, A (from memory: 1N4148 class,
+ * 25 nA at 20 V and 25 °C registered, roughly doubling every 10 K): the current the clamp across the
+ * off transistor's base–emitter junction carries, so its forward drop there bounds that junction's reverse.
+ */
+export const PAIR_CLAMP_LEAK_A = 1e-6;
+
+/**
+ * The drop from a pair input to the tail node while that side conducts, V: V_BE, plus the series
+ * diode's V_F with the protection (read at the tail with the emitters at half the rail: V_F moves
+ * n·V_T·ln 2 ≈ 30 mV for a factor of two in current). The conducting input loads its node as a
+ * resistance returned to this level (loadedByPairInput).
+ */
+export function pairDrop_V(v: RampValues, dev: RampDevices, t_C: number, rail_V: number, kTail = 1): number {
+  const vbe = vbeOn(dev.pair, t_C);
+  if (v.pairDiodes !== true) return vbe;
+  if (dev.pairDiode === undefined)
+    throw new EngineMisuseError("pairDrop_V: the pair's protection needs its diode class (RampDevices.pairDiode)");
+  const i = Math.max(1e-6, (rail_V / 2 - vbe - 0.6) / (v.rTail_ohm * kTail));
+  return vbe + diodeClassVf_V(dev.pairDiode, i, t_C);
+}
+
+/**
+ * Input difference that steers the share f of the tail to one side, V: V_T·ln(f/(1 − f)) for the bare
+ * pair (pairSteer_V); with a diode in series with each emitter each side's drop is two junctions in
+ * series carrying the same current, so the difference grows by the diode's emission coefficient:
+ * (1 + N)·V_T·ln(f/(1 − f)) (derived from the junction law, as pairSteer_V).
+ */
+function steer_V(v: RampValues, dev: RampDevices, f: number, vT_V: number): number {
+  const n = v.pairDiodes === true && dev.pairDiode !== undefined ? diodeClassLaw(dev.pairDiode).n : 0;
+  return (1 + n) * pairSteer_V(f, vT_V);
 }
 
 export interface RampEval {
@@ -146,8 +187,10 @@ export function evalRamp(
   chain: { inverting: boolean; tapLoad_A: number },
 ): RampEval {
   const vT = thermalVoltage_V(k.t_C);
-  const vbe = vbeOn(dev.pair, k.t_C);
+  const vbe = pairDrop_V(v, dev, k.t_C, core.rail_V, k.kTail);
   const vbeOut = vbeOn(dev.out, k.t_C);
+  // Two unmatched junctions per side with the protection: each adds its mismatch to the offset.
+  const offset_V = v.pairDiodes === true ? 2 * k.offset_V : k.offset_V;
   const rR = v.rRamp_ohm * k.kRamp;
   const cR = v.cRamp_F * k.kCRamp;
   const rTail = v.rTail_ohm * k.kTail;
@@ -174,7 +217,7 @@ export function evalRamp(
     const tailL = tail_A(v, k, vbe, loaded);
     const fL = tailL > 0 ? vbeOut / (v.rCmp_ohm * k.kCmp * tailL) : Infinity;
     if (!(fL < 1)) return { lvl: -Infinity, f: fL, tail: tailL };
-    return { lvl: loaded - pairSteer_V(fL, vT) - k.offset_V, f: fL, tail: tailL };
+    return { lvl: loaded - steer_V(v, dev, fL, vT) - offset_V, f: fL, tail: tailL };
   };
   const on = steerAt(uOn);
   const off = steerAt(uOff);
@@ -315,8 +358,13 @@ export interface RampWorst {
   d0: { lo: number; hi: number };
   d1: { lo: number; hi: number };
   f: { lo: number; hi: number };
-  /** Largest reverse base–emitter voltage of the off pair transistor, V. */
+  /**
+   * Largest reverse base–emitter voltage of the off pair transistor, V: with the protection, the clamp's
+   * forward drop at the series diode's leakage (PAIR_CLAMP_LEAK_A).
+   */
   vebRev_V: number;
+  /** Largest reverse voltage across the off side's series diode, V (0 without the protection). */
+  diodeRev_V: number;
   /**
    * Smallest PNP overdrive I_B1·β_min/I_C over the corners (≥ 1: saturates), with the wiper at the ramp's
    * bottom: the least tail current the tap still pulses with.
@@ -340,6 +388,7 @@ export function rampWorst(
     d1: { lo: 1, hi: 0 },
     f: { lo: Infinity, hi: 0 },
     vebRev_V: 0,
+    diodeRev_V: 0,
     overdrive: Infinity,
   };
   // The core depends on supply and temperature only: read once per pair.
@@ -359,11 +408,17 @@ export function rampWorst(
         w.d1 = { lo: Math.min(w.d1.lo, e1.duty), hi: Math.max(w.d1.hi, e1.duty) };
         const f = 1 / e0.period_s;
         w.f = { lo: Math.min(w.f.lo, f), hi: Math.max(w.f.hi, f) };
-        const vbe = vbeOn(dev.pair, k.t_C);
+        const vbe = pairDrop_V(v, dev, k.t_C, core.rail_V, k.kTail);
         for (const c of [0, 1]) {
           const wv = wiperThevenin(v, k, core.rail_V, c).v_V;
+          // From the off input to the tail node: the bare junction's reverse, or the series diode's and
+          // the clamp's together (the clamp conducts the diode's leakage, so the diode takes the rest).
           const rev = Math.max(e0.rampMax_V - vbe - wv, wv - vbe - e0.rampMin_V);
-          w.vebRev_V = Math.max(w.vebRev_V, rev);
+          if (v.pairDiodes === true && dev.pairDiode !== undefined) {
+            const clamp = diodeClassVf_V(dev.pairDiode, PAIR_CLAMP_LEAK_A, k.t_C);
+            w.vebRev_V = Math.max(w.vebRev_V, Math.min(Math.max(rev, 0), clamp));
+            w.diodeRev_V = Math.max(w.diodeRev_V, rev);
+          } else w.vebRev_V = Math.max(w.vebRev_V, rev);
         }
         const iC = core.rail_V / v.rOut_ohm + chain.tapLoad_A;
         const vbeOut = vbeOn(dev.out, k.t_C);
@@ -399,6 +454,8 @@ export interface RampRequest {
   coreAt: CoreAt;
   /** The derating policy's transistor voltage factor: the pair's reverse V_BE is held under V_EBO × it. */
   vebFactor: number;
+  /** The policy's diode voltage factor: the protection's series diode is held under V_RRM × it. */
+  diodeFactor?: number;
 }
 
 export interface RampSizing {
@@ -432,15 +489,23 @@ export const RAMP_POT_OHM = 10_000;
 export function sizeRamp(req: RampRequest): RampSizing {
   let first: RampSizing | undefined;
   for (const tauPerPeriod of RAMP_TAU_PER_PERIOD) {
-    const s = sizeRampAt(req, tauPerPeriod);
+    const s = sizeRampAt(req, tauPerPeriod, false);
     if (s.found) return s;
     first ??= s;
-    if (!s.refusals.some((r) => r.rule === "ramp-pair-reverse")) break;
+    if (!s.refusals.some((r) => r.rule === "ramp-pair-reverse")) return first;
+  }
+  // Every time constant refused on the pair's reverse V_EB: protect its junctions (pairProtection),
+  // where the request names the diode class and the policy's diode factor, from τ = T again.
+  if (req.dev.pairDiode === undefined || req.diodeFactor === undefined) return first!;
+  for (const tauPerPeriod of RAMP_TAU_PER_PERIOD) {
+    const s = sizeRampAt(req, tauPerPeriod, true);
+    if (s.found) return s;
+    if (!s.refusals.some((r) => r.rule === "ramp-pair-reverse")) return s;
   }
   return first!;
 }
 
-function sizeRampAt(req: RampRequest, tauPerPeriod: number): RampSizing {
+function sizeRampAt(req: RampRequest, tauPerPeriod: number, protect: boolean): RampSizing {
   const period = 1 / req.f_Hz;
   const rRamp = roundUp(Math.max(10 * req.rC_ohm, 4700), "E12");
   const cRamp = nearest((tauPerPeriod * period) / rRamp, "E12");
@@ -462,13 +527,14 @@ function sizeRampAt(req: RampRequest, tauPerPeriod: number): RampSizing {
     rCmp_ohm: 10_000,
     rOut_ohm: req.rOut_ohm,
     potReversed: req.inverting,
+    ...(protect ? { pairDiodes: true as const } : {}),
   };
   const chain = { inverting: req.inverting, tapLoad_A: req.tapLoad_A };
   const lowCore = req.coreAt(vMinSupply, req.tMin_C)[0] ?? nomCore;
   const kCold: RampCorner = { t_C: req.tMin_C, ...RAMP_NOMINAL };
   const uLow = evalRamp(provisional, lowCore, req.dev, kCold, 0.5, chain).rampMin_V;
   // A ramp that sits within 0.2 V of V_BE leaves no tail: sized at that floor, the overdrive check refuses it.
-  const head = Math.max(0.2, uLow - vbeOn(req.dev.pair, req.tMin_C));
+  const head = Math.max(0.2, uLow - pairDrop_V(provisional, req.dev, req.tMin_C, lowCore.rail_V));
   const iC = vMaxRail / req.rOut_ohm + req.tapLoad_A;
   const iB1 = (RAMP_OVERDRIVE * iC) / hfeMin(req.dev.out, iC, req.tMin_C);
   const tailNeed = Math.max(RAMP_TAIL_A, iB1 / (1 - RAMP_STEER_SHARE));
@@ -600,6 +666,17 @@ function refusalsOf(
         `${vebAllowed.toFixed(2)} V (V_EBO ${req.dev.pair.vebo_V} V × ${req.vebFactor}) even with the longest ramp ` +
         `time constant tried: a lower core rail or a pair class with a higher V_EBO`,
     });
+  const d = req.dev.pairDiode;
+  if (v.pairDiodes === true && d !== undefined) {
+    const dAllowed = d.vrrm_V * (req.diodeFactor ?? 0);
+    if (w.diodeRev_V > dAllowed)
+      out.push({
+        rule: "ramp-pair-reverse",
+        message:
+          `the pair's protection diode sees ${w.diodeRev_V.toFixed(2)} V reverse, above ${dAllowed.toFixed(2)} V ` +
+          `(V_RRM ${d.vrrm_V} V × ${req.diodeFactor}): a diode class with a higher V_RRM or a lower core rail`,
+      });
+  }
   if (!(w.overdrive >= 1))
     out.push({
       rule: "ramp-output-drive",

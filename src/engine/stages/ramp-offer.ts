@@ -60,10 +60,20 @@ export const RAMP_OFFER_CHAINS: ReadonlySet<string> = new Set(["mosfet-driver"])
 export const RAMP_OFFER_MIN_HZ = 2000;
 export const RAMP_OFFER_MAX_HZ = 5000;
 /**
- * The lowest nominal supply it is offered at, V: simulated on grid cores at 5, 6, 9 and 12 V (the pair's
- * reverse V_EB refuses 24 V and up).
+ * The lowest nominal supply it is offered at, V: simulated on grid cores at 5, 6, 9 and 12 V (24 V and up
+ * need the pair's protection, not yet offered: RAMP_OFFER_PROTECTED_PAIR).
  */
 export const RAMP_OFFER_MIN_V = 5;
+/**
+ * Whether builds (`sizeVariant`) are offered the stage with the pair's base–emitter protection, which lets it
+ * size at 24 V and up (ramp-duty.ts `sizeRamp`; docs/method.md, "The pair's protection at 24 V and up").
+ * Not yet: the protection itself agrees in native ngspice (the junctions ≤ 0.25 V reverse, duty ½ within
+ * 0.3 points), but the fixed ≈ 50 % core under it failed the cold-start runs on every variant it made
+ * feasible (the demo's grow strip at 24 and 27.6 V at its growers' first ask, 4 kHz 5–95 %: 12 of 12, both
+ * timing transistors on, with the bare pair as with the protected one), as the 1 kHz cores did. Until the
+ * core's start network is in, `sizeWithRamp(spec, why, true)` sizes it for tests and measurements.
+ */
+export const RAMP_OFFER_PROTECTED_PAIR = false;
 /**
  * The fixed core's base resistors' tolerance: 1 % metal film (sold in E24 values; common practice). The
  * core's collector duty, and with it the ramp's level, follows their match: with the 5 % class the ends
@@ -168,6 +178,7 @@ export function rampOffer(
   tap: TapDesign,
   timing: TimingResult,
   why: string,
+  protectPair = RAMP_OFFER_PROTECTED_PAIR,
 ): RampOffer | null {
   const v = timing.values;
   if (tap.follower !== undefined || v.crossBleed_ohm !== undefined || ctx.coreRail !== undefined) return null;
@@ -177,7 +188,8 @@ export function rampOffer(
   const pnp = spec.devices.driver_pnp as BjtClass | undefined;
   if (pnp === undefined || pnp.family !== "pnp") return null;
   const db = v.diodes ? (spec.devices.signal_diode as DiodeClass) : undefined;
-  const dev = { pair: q, out: pnp };
+  const sig = spec.devices.signal_diode as DiodeClass | undefined;
+  const dev = { pair: q, out: pnp, ...(protectPair && sig?.family === "diode" ? { pairDiode: sig } : {}) };
   const rB = nearest((v.rEndA_ohm + v.rEndB_ohm + v.pot_ohm) / 2, "E24");
   const rC = v.rC_ohm;
   const rOut = rC;
@@ -245,6 +257,7 @@ export function rampOffer(
     dev,
     coreAt: (vcc, t_C) => coreAt(vcc, t_C),
     vebFactor: spec.policy.bjt.voltage.factor,
+    diodeFactor: spec.policy.diode.voltage.factor,
   });
   if (!sizing.found) return null;
   const basePins = timing.parts.filter((p) => p.role === "RB_A" || p.role === "RB_B");
@@ -264,6 +277,7 @@ export function rampOffer(
     cap: { tol: cTol },
     tapLoad_A,
     vebRev_V: sizing.worst.vebRev_V,
+    diodeRev_V: sizing.worst.diodeRev_V,
     policy: spec.policy,
   });
   const rt = resistor(
@@ -311,9 +325,24 @@ export function rampOffer(
       w.vebRev_V,
       "V",
       "duty",
-      "max(V_ramp,max − V_BE − V_wiper, V_wiper − V_BE − V_ramp,min) over every corner",
+      sizing.values.pairDiodes === true
+        ? "the clamp's V_F at the series diode's leakage (PAIR_CLAMP_LEAK_A)"
+        : "max(V_ramp,max − V_BE − V_wiper, V_wiper − V_BE − V_ramp,min) over every corner",
       src,
     ),
+    ...(sizing.values.pairDiodes === true
+      ? [
+          figure(
+            "ramp_pair_diode_reverse",
+            "Comparator pair's protection diode reverse voltage (worst case)",
+            w.diodeRev_V,
+            "V",
+            "duty",
+            "max(V_ramp,max − V_BE − V_F − V_wiper, V_wiper − V_BE − V_F − V_ramp,min) over every corner",
+            src,
+          ),
+        ]
+      : []),
     figure(
       "ramp_output_overdrive",
       "Level-shifter PNP overdrive (worst case)",
@@ -353,7 +382,15 @@ export function rampOffer(
     },
     f: timing.search.worst.f,
     decision: {
-      roles: ["Q_CR", "Q_CW", "Q_LVL", "RV_DUTY", "RR_A", "CR_A"],
+      roles: [
+        "Q_CR",
+        "Q_CW",
+        "Q_LVL",
+        "RV_DUTY",
+        "RR_A",
+        "CR_A",
+        ...(v2.pairDiodes === true ? (["D_ER", "D_EW", "D_KR", "D_KW"] as const) : []),
+      ],
       topic: "duty stage",
       choice:
         `ramp and comparator: the core at a fixed ≈ 50 % (two ${formatValue(rB, "Ω")} base resistors), a ` +
@@ -363,7 +400,12 @@ export function rampOffer(
         `with the potentiometer in the timing network no core reaches ${Math.round(t.duty_min * 100)}–` +
         `${Math.round(t.duty_max * 100)} %${ends ? " with a true off and on" : ""} (${why}); here the pot carries ` +
         `only a divider's current and the core's resistors do not depend on the duty range, and every corner ` +
-        `reaches ${ends ? "0 % and 100 % at the control's ends" : "the asked range"}`,
+        `reaches ${ends ? "0 % and 100 % at the control's ends" : "the asked range"}` +
+        (v2.pairDiodes === true
+          ? `; the pair's inputs swing ${w.diodeRev_V.toFixed(1)} V apart, past its transistors' base–emitter ` +
+            `reverse rating, so a signal diode in series with each emitter blocks it and one across each ` +
+            `base–emitter junction holds that junction under ${w.vebRev_V.toFixed(2)} V`
+          : ""),
     },
   };
 }

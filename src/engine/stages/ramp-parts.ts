@@ -13,7 +13,7 @@ import type { Part } from "../../model/circuit.ts";
 import type { DeratingPolicy, StressCheck } from "../../model/derating.ts";
 import type { DesignProblem } from "../../model/problem.ts";
 import type { RoleIn } from "../../model/part-roles.ts";
-import { capacitor, resistor, transistor, type Built } from "../../circuit/parts.ts";
+import { capacitor, diode, resistor, transistor, type Built } from "../../circuit/parts.ts";
 import { checkStress } from "../shared/derating.ts";
 import { hfeMin, vbeOn } from "../shared/gain.ts";
 import { CAP_RATINGS_V, dutyPotPart, RB_MS_FACTOR } from "./timing-parts.ts";
@@ -29,6 +29,9 @@ export const RAMP_NETS = {
   tail: "tail",
   cmp: "cmp",
   tap: "tap",
+  /** The pair's emitters above their series diodes (with the protection). */
+  emitterRamp: "ecr",
+  emitterWiper: "ecw",
 } as const;
 
 export interface RampPartsInput {
@@ -57,6 +60,8 @@ export interface RampPartsInput {
   tapLoad_A: number;
   /** Largest reverse base–emitter voltage of the pair's off transistor over every corner (rampWorst), V. */
   vebRev_V: number;
+  /** Largest reverse voltage across the protection's series diode (rampWorst), V; 0 without it. */
+  diodeRev_V?: number;
   policy: DeratingPolicy;
 }
 
@@ -154,13 +159,16 @@ export function rampParts(x: RampPartsInput): RampParts {
   // transistor's reverse base–emitter voltage against V_EBO.
   const iTail = vMax / (v.rTail_ohm * lo);
   const pairGain = hfeMin(dev.pair, iTail, x.tMin_C);
+  const protect = v.pairDiodes === true;
+  const eR = protect ? n.emitterRamp : n.tail;
+  const eW = protect ? n.emitterWiper : n.tail;
   parts.push(
     transistor(
       "duty",
       "Q_CR",
       dev.pair,
       pairGain,
-      { c: x.rail, b: n.ramp, e: n.tail },
+      { c: x.rail, b: n.ramp, e: eR },
       { voltage_V: vMax, current_A: iTail },
     ),
     transistor(
@@ -168,7 +176,7 @@ export function rampParts(x: RampPartsInput): RampParts {
       "Q_CW",
       dev.pair,
       pairGain,
-      { c: n.cmp, b: n.wiper, e: n.tail },
+      { c: n.cmp, b: n.wiper, e: eW },
       { voltage_V: vMax, current_A: iTail },
     ),
   );
@@ -178,8 +186,57 @@ export function rampParts(x: RampPartsInput): RampParts {
   }
   checks.push({
     ...checkStress("Q_CR", "peak", x.vebRev_V, dev.pair.vebo_V, "V", pol.bjt.voltage, pol.marginal_above),
-    note: "reverse base–emitter voltage of the pair's off transistor against V_EBO",
+    note:
+      "reverse base–emitter voltage of the pair's off transistor against V_EBO" +
+      (protect ? ": its clamp's drop at the series diode's leakage" : ""),
   });
+  if (protect) {
+    const d = dev.pairDiode;
+    if (d === undefined)
+      throw new Error("rampParts: the pair's protection needs its diode class (RampDevices.pairDiode)");
+    const dRev = x.diodeRev_V ?? 0;
+    // Series diodes: the tail current forward, the off side's reverse; clamps: the series diode's
+    // leakage forward, the conducting side's V_BE reverse.
+    const vbeMax = vbeOn(dev.pair, x.tMin_C);
+    parts.push(
+      diode(
+        "duty",
+        "D_ER",
+        d,
+        { anode: n.emitterRamp, cathode: n.tail },
+        { voltage_V: dRev, current_A: iTail },
+        "blocks the ramp side's reverse base–emitter voltage",
+      ),
+      diode(
+        "duty",
+        "D_EW",
+        d,
+        { anode: n.emitterWiper, cathode: n.tail },
+        { voltage_V: dRev, current_A: iTail },
+        "blocks the wiper side's reverse base–emitter voltage",
+      ),
+      diode(
+        "duty",
+        "D_KR",
+        d,
+        { anode: n.emitterRamp, cathode: n.ramp },
+        { voltage_V: vbeMax, current_A: 1e-6 },
+        "holds the ramp side's base–emitter reverse near zero",
+      ),
+      diode(
+        "duty",
+        "D_KW",
+        d,
+        { anode: n.emitterWiper, cathode: n.wiper },
+        { voltage_V: vbeMax, current_A: 1e-6 },
+        "holds the wiper side's base–emitter reverse near zero",
+      ),
+    );
+    for (const role of ["D_ER", "D_EW"] as const) {
+      checks.push(checkStress(role, "voltage", dRev, d.vrrm_V, "V", pol.diode.voltage, pol.marginal_above));
+      checks.push(checkStress(role, "current", iTail, d.if_avg_A, "A", pol.diode.current, pol.marginal_above));
+    }
+  }
   // The level-shifting PNP: emitter on the rail, collector the tap.
   parts.push(
     transistor(

@@ -11,9 +11,13 @@ import { periodicSegmentStarts, rcRampExtremes, segmentTime_s } from "../../../s
 import { loadedByPairInput, pairSteer_V } from "../../../src/engine/shared/diff-pair.ts";
 import { hfeMin, typicalGainRatio, vbeOn } from "../../../src/engine/shared/gain.ts";
 import { VT_NOMINAL_V } from "../../../src/engine/shared/temperature.ts";
+import { diodeClassLaw, diodeClassVf_V } from "../../../src/engine/shared/diode.ts";
+import type { DiodeClass } from "../../../src/model/device.ts";
 import {
+  PAIR_CLAMP_LEAK_A,
   RAMP_NOMINAL,
   evalRamp,
+  pairDrop_V,
   rampCorners,
   rampWorst,
   sizeRamp,
@@ -261,6 +265,51 @@ const REQUEST = {
   coreAt: (vcc_V: number, t_C: number) => handCores(pair, vcc_V, t_C, 10_000),
   vebFactor: BJT_VOLTAGE_FACTOR,
 };
+
+describe("the pair protected: a series emitter diode and a base–emitter clamp (derived: two junctions a side)", () => {
+  const diode = JSON.parse(
+    readFileSync(new URL("../../../designs/devices/diode-signal.json", import.meta.url), "utf8"),
+  ) as DiodeClass;
+  const devD = { ...devNoBase, pairDiode: diode };
+  it("the tail is (u − V_BE − V_F)/R_TAIL and the steering (1 + N)·V_T·ln(f/(1 − f)) (hand arithmetic)", () => {
+    const { v, core } = symmetricCase(0.5);
+    const vp: RampValues = { ...v, pairDiodes: true };
+    // V_F read at the tail with the emitters at half the rail: (6 − V_BE − 0.6)/10 kΩ.
+    const vbe = vbeOn(pair, 25);
+    const vf = diodeClassVf_V(diode, (6 - vbe - 0.6) / 10_000, 25);
+    expect(pairDrop_V(vp, devD, 25, 12)).toBeCloseTo(vbe + vf, 12);
+    expect(pairDrop_V(v, devD, 25, 12)).toBeCloseTo(vbe, 12);
+    const e = evalRamp(vp, core, devD, NONE, 0.5, { inverting: false, tapLoad_A: 0 });
+    // No base current (NONE): the wiper at 6 V (R_HYS open), the tail (6 − V_BE − V_F)/R_TAIL, the PNP's
+    // share f = V_BE,PNP/(R_CMP·I_tail), and the switching level 6 − (1 + N)·V_T·ln(f/(1 − f)).
+    const tail = (6 - vbe - vf) / 10_000;
+    expect(e.tail_A).toBeCloseTo(tail, 12);
+    const f = vbeOn(out, 25) / (v.rCmp_ohm * tail);
+    const n = diodeClassLaw(diode).n;
+    expect(e.levelOn_V).toBeCloseTo(6 - (1 + n) * VT_NOMINAL_V * Math.log(f / (1 - f)), 4);
+    // The offset corner counts twice (two unmatched junctions a side).
+    const off = evalRamp(vp, core, devD, { ...NONE, offset_V: 0.025 }, 0.5, { inverting: false, tapLoad_A: 0 });
+    expect(e.levelOn_V - off.levelOn_V).toBeCloseTo(0.05, 4);
+  });
+  it("the junction's reverse is the clamp's drop at the diode's leakage; the series diode takes the rest", () => {
+    const { v, core } = symmetricCase(0.5);
+    const vp: RampValues = { ...v, pairDiodes: true, rLo_ohm: 1000, rHi_ohm: 1000 };
+    const coreAt = () => [core];
+    const ks = [{ ...NONE }];
+    const { pairDiodes: _p, ...bareValues } = vp;
+    const bare = rampWorst(bareValues, devD, [12], ks, coreAt, {
+      inverting: false,
+      tapLoad_A: 0,
+    });
+    const w = rampWorst(vp, devD, [12], ks, coreAt, { inverting: false, tapLoad_A: 0 });
+    const vbe = vbeOn(pair, 25);
+    const vf = diodeClassVf_V(diode, (6 - vbe - 0.6) / 10_000, 25);
+    // The whole swing less one more drop (V_F) lies across the series diode.
+    expect(w.diodeRev_V).toBeCloseTo(bare.vebRev_V - vf, 2);
+    expect(bare.diodeRev_V).toBe(0);
+    expect(w.vebRev_V).toBeCloseTo(diodeClassVf_V(diode, PAIR_CLAMP_LEAK_A, 25), 12);
+  });
+});
 
 describe("sizing: a 12 V lead-acid core at ≈ 4.5 kHz asked 5–95 % (demo numbers)", () => {
   const s = sizeRamp(REQUEST);
