@@ -338,6 +338,28 @@ function unlessPassed(
 }
 
 /**
+ * Whether the core gets the start network, and the series base diodes it needs. The network's hold
+ * transistor sits on base A: in a core without series base diodes that base swings to ≈ −(V_cc − 2 V) each
+ * half-period, the hold transistor's B–C junction conducts and RK_MEM's current flows into the timing node
+ * (measured, native ngspice: a 5 V, 1 kHz follower lamp core ran at 1198 Hz against 969 Hz without the
+ * network, −0.5 mA peak out of QK_HOLD's collector, base A at −2.85 V). So the network comes with the
+ * series base diodes, which keep base A near ground; a record that declines them (protection.be_breakdown
+ * "none") gets no network (docs/method.md, "Start network").
+ */
+function withStartNet(
+  ctx: Ctx,
+  tap: TapDesign,
+  opts: { cross?: boolean; noStartNet?: boolean },
+  diodes: boolean,
+): { startNet: boolean; diodes: boolean } {
+  const startNet = startNetWanted(ctx, tap, opts);
+  if (!startNet || diodes) return { startNet, diodes };
+  return ctx.spec.protection.be_breakdown === "series-base-diode"
+    ? { startNet: true, diodes: true }
+    : { startNet: false, diodes };
+}
+
+/**
  * The timing stage for one tap. `opts.cross`: the cross-returned bleed (cross-bleed.ts), which needs
  * the series base diodes, so they are fitted whatever the reverse swing.
  */
@@ -374,8 +396,11 @@ export function designTiming(
         ),
       );
   }
+  const fitted = withStartNet(ctx, tap, opts, diodes);
+  diodes = fitted.diodes;
+  const startNet = fitted.startNet;
   const delays = plan.delays(tap.info);
-  const base = coreBase(tap, plan, delays, diodes, opts.cross === true, startNetWanted(ctx, tap, opts));
+  const base = coreBase(tap, plan, delays, diodes, opts.cross === true, startNet);
   // Skew from loading the tapped collector only (full recovery, equal R_B and C): the two ln factors differ.
   const vOnNom = vbeOn(q, NOMINAL_TEMP_C) + (diodes ? diodeVf_V(db, ctx.vNom_V / 10_000, NOMINAL_TEMP_C) : 0);
   const vSat = vceSat(q, ctx.vNom_V / tap.rC_ohm);
