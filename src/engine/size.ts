@@ -745,7 +745,8 @@ function sizeChosen(chosen: CoreChoice, ramp?: RampOffer): SizedVariant {
     view.dOn,
     view.loadBand,
     Math.max(vSwNom_V, plan.vSwMax_V),
-    Number.isFinite(timing.fCtrl1_Hz) && timing.fCtrl1_Hz > 0 ? timing.fCtrl1_Hz : ctx.f_Hz,
+    positiveOr(timing.fCtrl1_Hz, ctx.f_Hz),
+    positiveOr(view.f.hi, ctx.f_Hz),
   );
   const q = spec.devices.timing_npn as BjtClass;
   const timingLoss = (role: SidedRole<"Q">): DeviceLoss => ({
@@ -1159,11 +1160,18 @@ function pullInTimer(
     iHold_A: need.iHoldLow_A,
     sim: {
       duty: timing.figures.find((f) => f.key === "duty_min")?.value ?? ctx.spec.targets.duty_min,
+      f_Hz: timing.figures.find((f) => f.key === "frequency_nominal")?.value ?? ctx.f_Hz,
       vSw_V: vSwNom_V,
       r_ohm: ctx.load.r_ohm,
+      tau_s: ctx.load.l_H / ctx.load.r_ohm,
       fw: ctx.spec.devices.freewheel_diode as DiodeClass | undefined,
     },
   });
+}
+
+/** `x` where it is a finite positive number, else `fallback`. */
+function positiveOr(x: number, fallback: number): number {
+  return Number.isFinite(x) && x > 0 ? x : fallback;
 }
 
 /** Keep the first figure of each key (stages never mean to produce two; this guards the contract). */

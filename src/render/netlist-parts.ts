@@ -6,11 +6,12 @@ import { PIN_NAMES, type Part } from "../model/circuit.ts";
 import { checkNet, checkRef } from "./netlist-text.ts";
 import { ledStringLaw } from "../engine/shared/diode.ts";
 import { NOMINAL_TEMP_C } from "../engine/shared/temperature.ts";
+import { FUSE_MODEL_R_OHM } from "../engine/shared/fuse.ts";
 import { pairModelName, spiceModelName, spiceNum, timingModelName } from "./spice-num.ts";
 import { EngineMisuseError } from "../model/errors.ts";
 
-/** Fuse stand-in when the part gives no resistance: a few tens of mΩ (common practice, from memory). */
-export const FUSE_R_DEFAULT_OHM = 0.02;
+/** Fuse stand-in when the part gives no resistance: the engine's model value (shared/fuse.ts). */
+export const FUSE_R_DEFAULT_OHM = FUSE_MODEL_R_OHM;
 
 export interface ElementOut {
   lines: string[];

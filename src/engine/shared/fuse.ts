@@ -106,6 +106,12 @@ export function fuseFamilyOf(rating_A: number, voltage_V: number): FuseFamily | 
 }
 
 /** Continuous current at most this share of the rating at 25 °C (common practice: 75–80 %). */
+/**
+ * The fuse's resistance in the netlist (a fuse and its holder: a few tens of mΩ, common practice,
+ * from memory). The engine counts it in a winding's loop (stages/motor-runs.ts `windingLoop`), where
+ * a low-resistance motor feels it.
+ */
+export const FUSE_MODEL_R_OHM = 0.02;
 export const FUSE_CONTINUOUS_SHARE = 0.75;
 /** Hot rerating above 25 °C, per kelvin (typical of makers' rerating curves, from memory). */
 export const FUSE_RERATING_PER_K = 0.004;

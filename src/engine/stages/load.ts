@@ -35,7 +35,8 @@ const pct = (x: number): string => `${(x * 100).toFixed(0)} %`;
 /**
  * `dutyOn` is the nominal duty at control 1 (the point the simulation measures on-state values at);
  * `reach` the duty range the control surely reaches over the worst case (solenoid hold);
- * `fOn_Hz` the core's nominal frequency at control 1 (a discontinuous winding's current depends on it).
+ * `fOn_Hz` the core's nominal frequency at control 1 (a discontinuous winding's current depends on it);
+ * `fMax_Hz` the highest frequency over the worst case (a discontinuous coil holds least there).
  */
 export function loadStage(
   ctx: Ctx,
@@ -44,6 +45,7 @@ export function loadStage(
   reach: { lo: number; hi: number } = { lo: dutyOn, hi: dutyOn },
   vSwMax_V: number = vSwNom_V,
   fOn_Hz: number = ctx.f_Hz,
+  fMax_Hz: number = fOn_Hz,
 ): {
   part: Part;
   figures: Figure[];
@@ -94,12 +96,18 @@ export function loadStage(
   let pullIn: { tNeed_s: number; iHoldLow_A: number } | undefined;
   if (kind === "solenoid") {
     const fw = ctx.spec.devices.freewheel_diode as DiodeClass | undefined;
-    const sch = solenoidScheme(ctx, vSwNom_V, dutyOn, reach, fw, vSwMax_V);
+    const sch = solenoidScheme(ctx, vSwNom_V, dutyOn, reach, fw, vSwMax_V, {
+      on_Hz: fOn_Hz,
+      max_Hz: Math.max(fOn_Hz, fMax_Hz),
+    });
     pullIn = { tNeed_s: sch.tNeed_s, iHoldLow_A: sch.iHoldLow_A };
     iOn_A = sch.iOn_A;
     share = 1;
-    formula = "I = [D·(V_cc − V_sw) − (1 − D)·V_F,fw]/R_coil at control 1 (average coil current, continuous)";
-    spice = { ...spice, i0_A: sch.iOn_A };
+    formula =
+      "coil current over the middle 60 % of the on time at control 1: exact R–L waveform with the freewheel " +
+      "diode, continuous or discontinuous (shared/winding.ts with no back-EMF); for a continuous coil with " +
+      "small ripple the average [D·(V_cc − V_sw) − (1 − D)·V_F,fw]/R_coil";
+    spice = { ...spice, i0_A: sch.iAvgOn_A };
     extra.push(...sch.figures);
     problems.push(...sch.problems);
     emfNote = ` ${sch.note}`;

@@ -19,6 +19,7 @@ import { figure } from "../shared/figures.ts";
 import { type WindingDrive, type WindingWaveform, motorEmfAtCurrent_V, windingWaveform } from "../shared/winding.ts";
 import { diodeClassVf_V } from "../shared/diode.ts";
 import { NOMINAL_TEMP_C } from "../shared/temperature.ts";
+import { FUSE_MODEL_R_OHM } from "../shared/fuse.ts";
 import { type Ctx, runningCurrentMax_A } from "./context.ts";
 
 /** One run's operating point: the supply (before any series reverse diode), the duty and frequency. */
@@ -52,9 +53,15 @@ export function motorRun(ctx: Ctx, vSw_V: number, p: MotorRunPoint): MotorRun {
   const need_A = runningCurrentMax_A("motor", ctx.load, ctx.iNom_A, ctx.supply.nom_V, p.supply_V);
   const fw = ctx.spec.devices.freewheel_diode as DiodeClass | undefined;
   const vF_V = fw === undefined ? 0 : Math.max(0, diodeClassVf_V(fw, ctx.iNom_A, NOMINAL_TEMP_C));
-  // The rail after a series reverse diode: the supply less the diode's nominal drop.
-  const vRail_V = p.supply_V - (ctx.supply.nom_V - ctx.vNom_V);
-  const drive = { vOn_V: vRail_V - vSw_V, vF_V, r_ohm: ctx.load.r_ohm, l_H: ctx.load.l_H, duty: p.duty, f_Hz: p.f_Hz };
+  const loop = windingLoop(ctx, vSw_V);
+  const drive = {
+    vOn_V: p.supply_V - loop.drop_V,
+    vF_V,
+    r_ohm: ctx.load.r_ohm + loop.r_ohm,
+    l_H: ctx.load.l_H,
+    duty: p.duty,
+    f_Hz: p.f_Hz,
+  };
   if (!(p.duty > 0) || !(ctx.load.l_H > 0) || !(drive.vOn_V > 0))
     return { emf_V: 0, solved_V: -1, need_A, stalled: true };
   const e_V = motorEmfAtCurrent_V(drive, need_A);
@@ -62,6 +69,27 @@ export function motorRun(ctx: Ctx, vSw_V: number, p: MotorRunPoint): MotorRun {
   // E = 0 with V_F = 0 would never end a freewheel (the winding relation's misuse guard).
   const wave = emf_V > 0 || vF_V > 0 ? windingWaveform({ ...drive, emf_V }) : undefined;
   return { emf_V, solved_V: e_V, need_A, stalled: !(e_V > 0), ...(wave === undefined ? {} : { wave }), drive };
+}
+
+/**
+ * What else the winding's current flows through while the switch is on, split into a fixed drop and a
+ * series resistance: the supply fuse (its model resistance, the netlist's), the reverse protection
+ * (a series diode's nominal drop, or the return-line N-MOSFET's nominal R_DS(on)), and the switch (a
+ * MOSFET's on-voltage at rated load is I·R_DS(on), so a resistance; a BJT's saturated V_CE a drop).
+ * A low-resistance winding (a 6 V, 10 A motor's 0.15 Ω) at twice its rated current at mid control
+ * sees these resistances as much as its own: taken as drops at the rated current they over-predicted
+ * the mid-control current by 30 % (docs/method.md, "Motors").
+ */
+export function windingLoop(ctx: Ctx, vSw_V: number): { drop_V: number; r_ohm: number } {
+  const mosfet = ctx.spec.chain === "mosfet-logic" || ctx.spec.chain === "mosfet-driver";
+  const guard = ctx.returnFet;
+  const rGuard_ohm = guard !== undefined && ctx.iNom_A > 0 ? guard.dropNom_V / ctx.iNom_A : 0;
+  const dSeries_V = guard === undefined ? ctx.supply.nom_V - ctx.vNom_V : 0;
+  const rSw_ohm = mosfet && ctx.iNom_A > 0 ? vSw_V / ctx.iNom_A : 0;
+  return {
+    drop_V: dSeries_V + (mosfet ? 0 : vSw_V),
+    r_ohm: FUSE_MODEL_R_OHM + rGuard_ohm + rSw_ohm,
+  };
 }
 
 /** The control settings of the nominal runs (src/verify/plan.ts runs 0, ½ and 1). */

@@ -72,7 +72,8 @@ export interface TimerInputs {
   /** The hold current at the set duty, lowest supply (what discharges the rail when cut), A. */
   iHold_A: number;
   /** The pull-in run's conditions (nominal supply, 25 °C, control 0): its duty, the switch's drop, the coil. */
-  sim: { duty: number; vSw_V: number; r_ohm: number; fw: DiodeClass | undefined };
+  /** The control-0 run's conditions: nominal duty and frequency there, the coil's R and τ. */
+  sim: { duty: number; f_Hz: number; vSw_V: number; r_ohm: number; tau_s: number; fw: DiodeClass | undefined };
 }
 
 export interface PullInTimer {
@@ -362,21 +363,24 @@ export function designPullInTimer(ctx: Ctx, x: TimerInputs): PullInTimer {
 }
 
 /**
- * The settled hold current the pull-in run ends in: the coil's average law at the nominal supply and
- * control 0's nominal duty, with the freewheel diode's V_F taken at that current (one refinement).
+ * The settled hold current the pull-in run ends in: the coil's average law (shared/solenoid.ts, exact
+ * in either conduction mode) at the nominal supply and control 0's nominal duty and frequency, with the
+ * freewheel diode's V_F taken at that current (one refinement).
  */
 function holdSimFigure(ctx: Ctx, s: TimerInputs["sim"]): Figure {
   const vfAt = (i: number): number =>
     s.fw === undefined ? 0 : Math.max(0, diodeClassVf_V(s.fw, Math.max(i, 1e-3), NOMINAL_TEMP_C));
-  const i0 = coilAverage_A(ctx.vNom_V, s.vSw_V, vfAt(ctx.iNom_A), s.duty, s.r_ohm);
-  const i1 = coilAverage_A(ctx.vNom_V, s.vSw_V, vfAt(i0), s.duty, s.r_ohm);
+  const pwm = { tau_s: s.tau_s, f_Hz: s.f_Hz };
+  const i0 = coilAverage_A(ctx.vNom_V, s.vSw_V, vfAt(ctx.iNom_A), s.duty, s.r_ohm, pwm);
+  const i1 = coilAverage_A(ctx.vNom_V, s.vSw_V, vfAt(i0), s.duty, s.r_ohm, pwm);
   return figure(
     "hold_current_sim",
     "Hold current after the pull-in, control 0 (nominal supply, 25 °C)",
     i1,
     "A",
     "duty",
-    "I = [D·(V_cc − V_sw) − (1 − D)·V_F]/R, D = the nominal duty at control 0, V_F at I",
+    "coil average at D = the nominal duty at control 0 and the nominal frequency: exact R–L waveform with the " +
+      "freewheel diode (continuous: [D·(V_cc − V_sw) − (1 − D)·V_F]/R), V_F at I",
     "derived",
   );
 }

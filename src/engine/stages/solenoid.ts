@@ -10,15 +10,28 @@ import type { Figure } from "../../model/figure.ts";
 import type { DesignProblem } from "../../model/problem.ts";
 import { EngineMisuseError } from "../../model/errors.ts";
 import { figure, problem } from "../shared/figures.ts";
-import { coilAverage_A, coilRipple_A, coilRiseTime_s, holdDuty } from "../shared/solenoid.ts";
+import {
+  type CoilPwm,
+  coilAverage_A,
+  coilRipple_A,
+  coilRiseTime_s,
+  coilWaveform,
+  holdDuty,
+} from "../shared/solenoid.ts";
 import { diodeClassVf_V } from "../shared/diode.ts";
 import { NOMINAL_TEMP_C } from "../shared/temperature.ts";
 import { COIL_RATED_AT_C, coilResistanceAt_ohm } from "../shared/pull-in-timer.ts";
 import type { Ctx } from "./context.ts";
 
 export interface SolenoidScheme {
-  /** Average coil current at control 1, nominal supply (the simulation's on-state figure). */
+  /**
+   * Coil current while the switch is on at control 1, nominal supply: the middle of the on time, as
+   * the simulation reads it (`onReading_A` of the exact waveform; the average where the current is
+   * continuous and its ripple small).
+   */
   iOn_A: number;
+  /** Period-average coil current at control 1, nominal supply (the coil's starting current in the netlist). */
+  iAvgOn_A: number;
   /** Full-on time the coil needs at the lowest supply, hot coil, worst switch drop (∞ when out of reach). */
   tNeed_s: number;
   /** Hold current at the set duty, lowest supply, hot coil (what discharges the rail when the supply is cut). */
@@ -38,6 +51,7 @@ export function solenoidScheme(
   reach: { lo: number; hi: number },
   fw: DiodeClass | undefined,
   vSwMax_V: number = vSw_V,
+  f: { on_Hz: number; max_Hz: number } = { on_Hz: ctx.f_Hz, max_Hz: ctx.f_Hz },
 ): SolenoidScheme {
   const sol = ctx.spec.solenoid;
   if (sol === undefined)
@@ -59,16 +73,26 @@ export function solenoidScheme(
   const iFullMin = Math.max(0, (ctx.vMin_V - vSwMax_V) / rHot);
   // Hold: the duty that keeps I_hold at the lowest supply, hot coil; the same setting gives more at
   // higher supplies.
-  const dHold = holdDuty(ctx.vMin_V, vSwMax_V, vf, iHold, rHot);
+  // The coil's average at a duty is the exact R–L waveform's (continuous or discontinuous). A
+  // discontinuous coil's average falls as the frequency rises, so the worst-case hold is taken at
+  // the highest frequency; the nominal figures at the core's nominal frequency at control 1.
+  const nom: CoilPwm = { tau_s, f_Hz: f.on_Hz };
+  const worst: CoilPwm = { tau_s: tauHot_s, f_Hz: f.max_Hz };
+  const dHold = holdDuty(ctx.vMin_V, vSwMax_V, vf, iHold, rHot, worst);
   const dSet = Math.min(1, Math.max(reach.lo, dHold));
-  const iHoldNom = coilAverage_A(ctx.vNom_V, vSw_V, vf, dSet, r);
-  const iHoldMax = coilAverage_A(ctx.vMax_V, vSw_V, vf, dSet, r);
-  const iHoldLow = coilAverage_A(ctx.vMin_V, vSwMax_V, vf, dSet, rHot);
-  const ripple = coilRipple_A(ctx.vNom_V - vSw_V + vf, dSet, r, tau_s, ctx.f_Hz);
-  const iOn_A = coilAverage_A(ctx.vNom_V, vSw_V, vf, dutyOn, r);
+  const iHoldNom = coilAverage_A(ctx.vNom_V, vSw_V, vf, dSet, r, nom);
+  const iHoldMax = coilAverage_A(ctx.vMax_V, vSw_V, vf, dSet, r, nom);
+  const iHoldLow = coilAverage_A(ctx.vMin_V, vSwMax_V, vf, dSet, rHot, worst);
+  const holdWave = coilWaveform(ctx.vNom_V, vSw_V, vf, dSet, r, nom);
+  const ripple =
+    holdWave !== undefined
+      ? holdWave.iPeak_A - holdWave.iValley_A
+      : coilRipple_A(ctx.vNom_V - vSw_V + vf, dSet, r, tau_s, f.on_Hz);
+  const iAvgOn_A = coilAverage_A(ctx.vNom_V, vSw_V, vf, dutyOn, r, nom);
+  const iOn_A = coilWaveform(ctx.vNom_V, vSw_V, vf, dutyOn, r, nom)?.onReading_A ?? iAvgOn_A;
   // What the PWM alone gives at its top end, lowest supply: a start at control 1 pulls the
   // armature in only if this reaches I_pull.
-  const iTopMin = coilAverage_A(ctx.vMin_V, vSw_V, vf, reach.hi, r);
+  const iTopMin = coilAverage_A(ctx.vMin_V, vSw_V, vf, reach.hi, r, { tau_s, f_Hz: f.max_Hz });
   const problems: DesignProblem[] = [];
   if (!Number.isFinite(tRise)) {
     problems.push(
@@ -176,7 +200,8 @@ export function solenoidScheme(
       iTopMin,
       "A",
       "load",
-      "I = [D_max·(V_cc,min − V_sw) − (1 − D_max)·V_F]/R (without the pull-in timer's full-on start)",
+      "coil average at D_max, V_cc,min, highest frequency: exact R–L waveform with the freewheel diode (continuous: " +
+        "[D·(V − V_sw) − (1 − D)·V_F]/R), without the pull-in timer's full-on start",
       "derived",
     ),
     figure(
@@ -194,7 +219,8 @@ export function solenoidScheme(
       dHold,
       "",
       "load",
-      "D = (I_hold·R_hot + V_F)/(V_cc,min − V_sw,max + V_F)",
+      "D where the coil average at V_cc,min, V_sw,max, R_hot and the highest frequency is I_hold (exact R–L " +
+        "waveform; continuous: D = (I_hold·R_hot + V_F)/(V_cc,min − V_sw,max + V_F))",
       "derived",
     ),
     figure(
@@ -203,7 +229,8 @@ export function solenoidScheme(
       iHoldNom,
       "A",
       "load",
-      "I = [D·(V_cc − V_sw) − (1 − D)·V_F]/R",
+      "coil average at that duty: exact R–L waveform with the freewheel diode (continuous: " +
+        "[D·(V_cc − V_sw) − (1 − D)·V_F]/R)",
       "derived",
     ),
     figure(
@@ -212,7 +239,8 @@ export function solenoidScheme(
       iHoldMax,
       "A",
       "load",
-      "I = [D·(V_cc,max − V_sw) − (1 − D)·V_F]/R",
+      "coil average at that duty and V_cc,max: exact R–L waveform (continuous: " +
+        "[D·(V_cc,max − V_sw) − (1 − D)·V_F]/R)",
       "derived",
     ),
     figure(
@@ -221,7 +249,8 @@ export function solenoidScheme(
       ripple,
       "A",
       "load",
-      "ΔI = (V'/R)(1 − e^(−DT/τ))(1 − e^(−(1−D)T/τ))/(1 − e^(−T/τ))",
+      "I_peak − I_valley of the exact R–L waveform (continuous: ΔI = (V'/R)(1 − e^(−DT/τ))(1 − " +
+        "e^(−(1−D)T/τ))/(1 − e^(−T/τ)); discontinuous: the peak, the valley being 0)",
       "derived",
     ),
     figure(
@@ -240,5 +269,5 @@ export function solenoidScheme(
   const note =
     `${pullText}, then hold at duty ${pct(dSet)} (${A(iHoldNom)} at ${ctx.vNom_V} V); the freewheel diode clamps ` +
     `the kick-back.`;
-  return { iOn_A, tNeed_s: tFull, iHoldLow_A: iHoldLow, figures, problems, note };
+  return { iOn_A, iAvgOn_A, tNeed_s: tFull, iHoldLow_A: iHoldLow, figures, problems, note };
 }
