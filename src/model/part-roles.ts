@@ -8,6 +8,20 @@
  */
 import { REF_PREFIX, STAGE_KINDS, type PartKind, type StageKind } from "./kinds.ts";
 
+/** The start network's roles (src/engine/stages/start-network.ts), in numbering order: part of the timing stage. */
+export const START_NET_ROLES = [
+  "DK_A",
+  "DK_B",
+  "RK_OR",
+  "RK_DIV",
+  "RK_SET",
+  "QK_SENSE",
+  "RK_MEM",
+  "CK_MEM",
+  "RK_HOLD",
+  "QK_HOLD",
+] as const;
+
 /** Roles per stage, in reference-designator numbering order (docs/topologies.md, "Role vocabulary"). */
 export const STAGE_ROLES = {
   supply: ["F_SUPPLY", "D_SERIES", "D_REVERSE", "Q_RETURN", "RG_RETURN", "DZ_RETURN", "C_BULK"],
@@ -30,17 +44,8 @@ export const STAGE_ROLES = {
     "DF_B",
     "RS_A",
     "RS_B",
-    // The start network (docs/topologies.md, "Start network"): follower and cross-returned cores.
-    "DK_A",
-    "DK_B",
-    "RK_OR",
-    "RK_DIV",
-    "RK_SET",
-    "QK_SENSE",
-    "RK_MEM",
-    "CK_MEM",
-    "RK_HOLD",
-    "QK_HOLD",
+    // The start network (docs/topologies.md, "Start network"): follower cores.
+    ...START_NET_ROLES,
   ],
   duty: [
     "RV_DUTY",

@@ -9,7 +9,7 @@ import type { CircuitModel, Part } from "../../model/circuit.ts";
 import type { DeviceRole } from "../../model/design.ts";
 import type { DesignDecision, HeatsinkVerdict } from "../../model/sized.ts";
 import type { VariantSpec } from "../../model/variant.ts";
-import type { PartRole } from "../../model/part-roles.ts";
+import { START_NET_ROLES, type PartRole } from "../../model/part-roles.ts";
 import { RESISTOR_RATINGS_W } from "../../circuit/parts.ts";
 import { formatPercent, formatValue } from "../../model/format.ts";
 import { GENERIC_HEATSINKS, type GenericHeatsink, pickHeatsink } from "../shared/heatsinks.ts";
@@ -279,19 +279,8 @@ function arrangementDecision(circuit: CircuitModel, arrangement: FollowerChosen 
   };
 }
 
-/** The start network's roles (stages/start-network.ts), in the parts list's order. */
-const START_NET_ROLES: ReadonlySet<PartRole> = new Set([
-  "DK_A",
-  "DK_B",
-  "RK_OR",
-  "RK_DIV",
-  "RK_SET",
-  "QK_SENSE",
-  "RK_MEM",
-  "CK_MEM",
-  "RK_HOLD",
-  "QK_HOLD",
-]);
+/** The start network's roles (stages/start-network.ts). */
+const START_NET_ROLE_SET: ReadonlySet<PartRole> = new Set(START_NET_ROLES);
 
 /**
  * The start network on a follower or cross-returned core (stages/start-network.ts): why it is there and
@@ -299,7 +288,7 @@ const START_NET_ROLES: ReadonlySet<PartRole> = new Set([
  * arrangement our own, measured (docs/verification.md, "Cold start").
  */
 function startNetDecision(circuit: CircuitModel): DesignDecision | undefined {
-  const parts = circuit.parts.filter((p) => START_NET_ROLES.has(p.role));
+  const parts = circuit.parts.filter((p) => START_NET_ROLE_SET.has(p.role));
   const set = parts.find((p) => p.role === "RK_SET");
   if (set === undefined) return undefined;
   const follower = circuit.parts.some((p) => p.role === "QF_A");

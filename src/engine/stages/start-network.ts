@@ -247,21 +247,15 @@ export function startNetParts(
     `start network: threshold divider, lower (detector on above ${sn.vTh_V.toFixed(2)} V)`,
   );
   const iK = vMax / (START_NET.rMem_ohm * (1 - tol));
-  out.parts.push(
-    transistor(
-      "timing",
-      "QK_SENSE",
-      q,
-      hfeMin(q, iK, ctx.taMin_C),
-      { c: "km", b: "kb2", e: "0" },
-      {
-        voltage_V: vMax,
-        current_A: iK,
-      },
-    ),
-  );
-  out.checks.push(checkStress("QK_SENSE", "voltage", vMax, q.vceo_V, "V", pol.bjt.voltage, pol.marginal_above));
-  out.checks.push(checkStress("QK_SENSE", "current", iK, q.ic_max_A, "A", pol.bjt.current, pol.marginal_above));
+  // A start-network transistor of the timing class, rated at the whole rail and its own current.
+  const switchQ = (role: "QK_SENSE" | "QK_HOLD", pins: { c: string; b: string; e: string }, i_A: number): void => {
+    out.parts.push(
+      transistor("timing", role, q, hfeMin(q, i_A, ctx.taMin_C), pins, { voltage_V: vMax, current_A: i_A }),
+    );
+    out.checks.push(checkStress(role, "voltage", vMax, q.vceo_V, "V", pol.bjt.voltage, pol.marginal_above));
+    out.checks.push(checkStress(role, "current", i_A, q.ic_max_A, "A", pol.bjt.current, pol.marginal_above));
+  };
+  switchQ("QK_SENSE", { c: "km", b: "kb2", e: "0" }, iK);
   res("RK_MEM", START_NET.rMem_ohm, { a: "vbus", b: "km" }, "start network: delay (with the delay capacitor)");
   const cRated = capRating_V(ctx, vMax);
   out.parts.push(
@@ -279,19 +273,5 @@ export function startNetParts(
   );
   out.checks.push(checkStress("CK_MEM", "voltage", vMax, cRated, "V", pol.capacitor.voltage, pol.marginal_above));
   res("RK_HOLD", START_NET.rHold_ohm, { a: "km", b: "kb1" }, "start network: holding transistor's base");
-  out.parts.push(
-    transistor(
-      "timing",
-      "QK_HOLD",
-      q,
-      hfeMin(q, iBasePk_A, ctx.taMin_C),
-      { c: "ba", b: "kb1", e: "0" },
-      {
-        voltage_V: vMax,
-        current_A: iBasePk_A,
-      },
-    ),
-  );
-  out.checks.push(checkStress("QK_HOLD", "voltage", vMax, q.vceo_V, "V", pol.bjt.voltage, pol.marginal_above));
-  out.checks.push(checkStress("QK_HOLD", "current", iBasePk_A, q.ic_max_A, "A", pol.bjt.current, pol.marginal_above));
+  switchQ("QK_HOLD", { c: "ba", b: "kb1", e: "0" }, iBasePk_A);
 }

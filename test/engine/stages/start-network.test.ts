@@ -31,21 +31,11 @@ import type { BjtClass, DiodeClass } from "../../../src/model/device.ts";
 import type { SizedVariant } from "../../../src/model/sized.ts";
 import type { Part } from "../../../src/model/circuit.ts";
 import { REPO } from "../../records/project.ts";
+import { START_NET_ROLES } from "../../../src/model/part-roles.ts";
 import { hasNgspice, meas, runNgspice } from "../../render/ngspice.ts";
 import { expectSameDesignators } from "../../render/designators.ts";
 
-const NET_ROLES: Part["role"][] = [
-  "DK_A",
-  "DK_B",
-  "RK_OR",
-  "RK_DIV",
-  "RK_SET",
-  "QK_SENSE",
-  "RK_MEM",
-  "CK_MEM",
-  "RK_HOLD",
-  "QK_HOLD",
-];
+const NET_ROLES: Part["role"][] = [...START_NET_ROLES];
 
 describe("start network relations (hand calculations)", () => {
   it("loads the high collector with RK1 ∥ RK2 towards V_F + V_BE·RK1/(RK1 + RK2)", () => {
