@@ -370,7 +370,7 @@ function evalFrom(v: CoreValues, k: Corner, made: Prefix): CoreEval {
     const th = collectorThevenin(k.vcc_V, rCX, parallelLoads(preLoad, cross.load));
     dtTh_s = thresholdDelay_s(th.r_ohm * cX, th.v_V, vSat_V, v.vThTap_V);
   } else if (fo === undefined) {
-    // (No start network here: it is offered on the cross-returned and follower cores only.)
+    // (No start network here: it is fitted on follower cores only (start-network.ts startNetWanted).)
     const vInf = pre === undefined ? k.vcc_V : (k.vcc_V * pre) / (rCX + pre);
     const rTh = pre === undefined ? rCX : (rCX * pre) / (rCX + pre);
     dtTh_s = thresholdDelay_s(rTh * cX, vInf, vSat_V, v.vThTap_V);
