@@ -67,3 +67,35 @@ export function plateauCharge_C(dev: MosfetClass, vSwing_V: number): number {
   if (millerChargeTest_C(dev) <= 0) return dev.qg_C;
   return mosfetCaps(dev).cgd_F * Math.max(0, vSwing_V);
 }
+
+/** The three phases of a gate charged from a step source (gateStepCharge), s. */
+export interface GateStepCharge {
+  /** C_iss from 0 to the plateau: R_src·C_iss·ln(V_G/(V_G − V_p)). */
+  toPlateau_s: number;
+  /** Across the plateau: Q_pl·R_src/(V_G − V_p). */
+  plateau_s: number;
+  /** From the start until the gate is within e^−5 of V_G: the two above plus 5·R_src·C_iss. */
+  settled_s: number;
+}
+
+/**
+ * A gate charged from a step source V_G behind R_src: C_iss rises to the plateau V_p as a first-order
+ * step response, R_src·C_iss·ln(V_G/(V_G − V_p)) (derived); the plateau charge Q_pl moves at the
+ * constant current (V_G − V_p)/R_src (the gate-charge method, common practice); then C_iss settles
+ * towards V_G with τ = R_src·C_iss, within e^−5 (0.7 %) after 5·τ (the "5 τ" of a recovered node,
+ * common practice). A source that never reaches the plateau (V_G ≤ V_p) never gets there nor across
+ * (Infinity), and the gate, C_iss alone, settles in 5·τ (the channel never conducts, so no Miller charge).
+ */
+export function gateStepCharge(
+  vG_V: number,
+  vP_V: number,
+  rSrc_ohm: number,
+  ciss_F: number,
+  qPlateau_C: number,
+): GateStepCharge {
+  const tau_s = rSrc_ohm * ciss_F;
+  if (!(vG_V > vP_V)) return { toPlateau_s: Infinity, plateau_s: Infinity, settled_s: 5 * tau_s };
+  const toPlateau_s = tau_s * Math.log(vG_V / (vG_V - vP_V));
+  const plateau_s = (qPlateau_C * rSrc_ohm) / (vG_V - vP_V);
+  return { toPlateau_s, plateau_s, settled_s: toPlateau_s + plateau_s + 5 * tau_s };
+}

@@ -54,6 +54,12 @@ export interface CoreValues {
   delayOn_s: number;
   delayOff_s: number;
   /**
+   * The time the tapped collector takes to reach its high level against the chain input's charge (a
+   * gate on the collector, ChainPlan.collectorRise), s; absent: no such input. Read by the recovery
+   * check only (worst-corners.ts recoveryIndex): the evaluation assumes the collector recovered.
+   */
+  gateRise_s?: number;
+  /**
    * Recovery followers (docs/topologies.md, "Follower core"): the series resistor R_S between each
    * follower's emitter and its coupling capacitor. Absent: the plain core. With followers the tap
    * load (and any balance) sits on the follower emitters, and the chain is fed from the tapped one,

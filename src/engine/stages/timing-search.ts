@@ -25,7 +25,14 @@ import { crossBleedFor_ohm, crossFigures, crossPasses } from "./cross-checks.ts"
 import { crossDrive_A } from "./cross-bleed.ts";
 import { collectorThevenin } from "./astable.ts";
 import { POT_RATINGS_W, RB_MS_FACTOR } from "./timing-parts.ts";
-import { type CornerSets, type Envelope, type WorstCase, envelopeCorners, worstCaseFast } from "./worst-corners.ts";
+import {
+  type CornerSets,
+  type Envelope,
+  type WorstCase,
+  envelopeCorners,
+  recoveryIndex,
+  worstCaseFast,
+} from "./worst-corners.ts";
 import { NOMINAL_TEMP_C } from "../shared/temperature.ts";
 
 export type { Range, WorstCase } from "./worst-corners.ts";
@@ -417,7 +424,7 @@ function mayPass(v: CoreValues, q: BjtClass, db: DiodeClass, sets: CornerSets, d
   for (const k of sets.rec) {
     const a = evalCore(v, q, db, k, 0).timing;
     const b = evalCore(v, q, db, k, 1).timing;
-    if (!((5 * a.tauA_s) / a.tAoff_s <= MAX_RECOVERY && (5 * b.tauB_s) / b.tBoff_s <= MAX_RECOVERY)) return false;
+    if (!(recoveryIndex(v, a, b) <= MAX_RECOVERY)) return false;
   }
   return true;
 }

@@ -294,6 +294,26 @@ function turnOffProblems(q: BjtClass, db: DiodeClass, v: CoreValues, corners: Si
   ];
 }
 
+/** The collector-recovery refusal, naming the gate on the tapped collector if any (worst-corners.ts recoveryIndex). */
+function recoveryMessage(gateRise_s: number | undefined, recovery: number): string {
+  const why =
+    gateRise_s === undefined
+      ? `At worst case the collectors need 5·τ_c = ${recovery.toFixed(2)} × the shortest half-period to ` +
+        `recover (limit ${MAX_RECOVERY}): the core can latch with both transistors on at the control's ends. `
+      : `At worst case the collectors need ${recovery.toFixed(2)} × the shortest half-period to recover ` +
+        `(limit ${MAX_RECOVERY}; 5·τ_c, and the gate on the tapped collector charged through R_C + R_G, ` +
+        `${(gateRise_s * 1e6).toFixed(1)} µs to settle): a collector that has not recovered couples a ` +
+        `smaller swing, so the other side's half-period shortens (the core runs fast) or the core latches. `;
+  return `${why}Narrow the duty range or lower the frequency.`;
+}
+
+/** The recovery figure's formula (worst-corners.ts recoveryIndex). */
+function recoveryFormula(gateRise_s: number | undefined): string {
+  return gateRise_s === undefined
+    ? "5·(R_C ∥ R_load)·C / t_off,min (≤ 1: recovered)"
+    : "max(5·τ_c, t_gate) / t_off,min (≤ 1: recovered); t_gate the gate on the tapped collector settled";
+}
+
 /** What the value search starts from: the tap's values, the chain's delays and the core's arrangement. */
 function coreBase(
   tap: TapDesign,
@@ -312,6 +332,7 @@ function coreBase(
     vThTap_V: tap.vThTap_V,
     delayOn_s: delays.on_s,
     delayOff_s: delays.off_s,
+    ...(plan.collectorRise !== undefined ? { gateRise_s: plan.collectorRise(tap.info) } : {}),
     ...(tap.preLinear_ohm !== undefined ? { preLinear_ohm: tap.preLinear_ohm } : {}),
     ...(tap.follower !== undefined ? { follower: tap.follower } : {}),
     ...(cross ? { crossBleed: true as const } : {}),
@@ -526,16 +547,11 @@ export function designTiming(
     );
   if (w.recovery > MAX_RECOVERY)
     problems.push(
-      problem(
-        "timing",
-        "/parts/RC_A",
-        "collector-recovery",
-        "error",
-        `At worst case the collectors need 5·τ_c = ${w.recovery.toFixed(2)} × the shortest half-period to ` +
-          `recover (limit ${MAX_RECOVERY}): the core can latch with both transistors on at the control's ends. ` +
-          `Narrow the duty range or lower the frequency.`,
-        { limit: MAX_RECOVERY, actual: w.recovery, unit: "" },
-      ),
+      problem("timing", "/parts/RC_A", "collector-recovery", "error", recoveryMessage(v.gateRise_s, w.recovery), {
+        limit: MAX_RECOVERY,
+        actual: w.recovery,
+        unit: "",
+      }),
     );
   if (skew > t.duty_skew_max)
     problems.push(
@@ -651,7 +667,7 @@ export function designTiming(
       w.recovery,
       "",
       "timing",
-      "5·(R_C ∥ R_load)·C / t_off,min (≤ 1: recovered)",
+      recoveryFormula(v.gateRise_s),
       "derived",
     ),
     figure(

@@ -13,6 +13,7 @@
  */
 import type { BjtClass, DiodeClass } from "../../model/device.ts";
 import { type CoreValues, type Corner, evalCore } from "./core-model.ts";
+import type { CoreTiming } from "./astable.ts";
 
 export interface Envelope {
   vMin: number;
@@ -149,6 +150,18 @@ export function dutyWithin(
   return true;
 }
 
+/**
+ * The collectors' recovery at one corner, as a share of the half-period it must fit in (≤ MAX_RECOVERY:
+ * recovered): 5·τ_c over each side's off time (`a` read at control 0, where side A's is shortest, `b` at
+ * control 1), and the tapped collector's rise against a gate on it (CoreValues.gateRise_s) over its own
+ * side's off time (derived; "5 τ_c < t_i", common practice).
+ */
+export function recoveryIndex(v: CoreValues, a: CoreTiming, b: CoreTiming): number {
+  const r = Math.max((5 * a.tauA_s) / a.tAoff_s, (5 * b.tauB_s) / b.tBoff_s);
+  if (v.gateRise_s === undefined) return r;
+  return Math.max(r, v.gateRise_s / (v.inverting ? b.tBoff_s : a.tAoff_s));
+}
+
 /** The worst case from the extreme corners only (≈ 700 evaluations instead of 1536). */
 export function worstCaseFast(v: CoreValues, q: BjtClass, db: DiodeClass, s: CornerSets): WorstCase {
   const r = (): Range => ({ lo: Infinity, hi: -Infinity });
@@ -179,7 +192,7 @@ export function worstCaseFast(v: CoreValues, q: BjtClass, db: DiodeClass, s: Cor
   for (const k of s.rec) {
     const a = evalCore(v, q, db, k, 0).timing;
     const b = evalCore(v, q, db, k, 1).timing;
-    recovery = Math.max(recovery, (5 * a.tauA_s) / a.tAoff_s, (5 * b.tauB_s) / b.tBoff_s);
+    recovery = Math.max(recovery, recoveryIndex(v, a, b));
   }
   return { ...w, recovery, thresholdReached: reached };
 }
@@ -207,7 +220,7 @@ export function worstCaseBrute(v: CoreValues, q: BjtClass, db: DiodeClass, all: 
       put(w.f, e.f_Hz);
       put(d, e.duty);
       if (e.dtTh_s === null) reached = false;
-      recovery = Math.max(recovery, (5 * e.timing.tauA_s) / e.timing.tAoff_s, (5 * e.timing.tauB_s) / e.timing.tBoff_s);
+      recovery = Math.max(recovery, recoveryIndex(v, e.timing, e.timing));
       // The frequency also with the chain input's clamp at its typical end (Corner.typicalLoad).
       put(w.f, evalCore(v, q, db, { ...k, typicalLoad: true }, ctrl).f_Hz);
     }

@@ -6,6 +6,7 @@
 import { mosfetSaturation_A } from "../../shared/drive-limit.ts";
 import type { MosfetClass } from "../../../model/device.ts";
 import { checkStress } from "../../shared/derating.ts";
+import { gateStepCharge } from "../../shared/gate-charge.ts";
 import { figure, problem } from "../../shared/figures.ts";
 import { conductionLossMosfet_W, switchingLoss_W } from "../../shared/losses.ts";
 import { CORE_RAIL_NET, type Ctx, coreSupply, switchedVoltage_V, switchedVoltageNominal_V } from "../context.ts";
@@ -14,6 +15,7 @@ import { switchChecks } from "./common.ts";
 import {
   gateTimes,
   gateTimesNominal,
+  plateau_V,
   plateauAt_V,
   plateauCharge_C,
   plateauTyp_V,
@@ -71,17 +73,37 @@ export function planMosfetLogic(ctx: Ctx): ChainPlan {
       const vp = plateauAt_V(dev, ctx.iNom_A);
       // Plateau transits as gateTimesNominal, but at the plateau of the rated current (the same V_p as the lags).
       const q = plateauCharge_C(dev, ctx.vNom_V);
+      const step = gateStepCharge(vg, vp, rSrc, dev.ciss_F, q);
       const t = {
-        tOn_s: Math.max(dev.t_rise_s, vg > vp ? (q * rSrc) / (vg - vp) : dev.t_rise_s * 1e3),
+        tOn_s: Math.max(dev.t_rise_s, vg > vp ? step.plateau_s : dev.t_rise_s * 1e3),
         tOff_s: Math.max(dev.t_fall_s, (q * rOff) / vp),
       };
-      const lagOn = vg > vp ? rSrc * dev.ciss_F * Math.log(vg / (vg - vp)) : t.tOn_s;
+      const lagOn = vg > vp ? step.toPlateau_s : t.tOn_s;
       const lagOff = rOff * dev.ciss_F * Math.log(Math.max(vg / vp, 1));
       return {
         on_s: lagOn + t.tOn_s / 2,
         off_s: lagOff + t.tOff_s / 2,
         note: "gate charge to the plateau R·C_iss·ln + half the plateau transit (nominal)",
       };
+    },
+    collectorRise(tap) {
+      // The gate hangs on the timing collector, so that collector reaches its high level only as the
+      // gate settles (gateStepCharge: to the plateau, across it, then 5·R_src·C_iss): at the lowest and
+      // the highest supply (the gate's source and the Miller charge both move with it), the worst-case
+      // plateau (V_th,max). The timing core's recovery check holds it against the shortest half-period.
+      const rGS = tap.rGS_ohm ?? 1e9;
+      const rSrc = ((tap.rC_ohm + tap.rTap_ohm) * rGS) / (tap.rC_ohm + tap.rTap_ohm + rGS);
+      const sup = coreSupply(ctx);
+      let worst_s = 0;
+      for (const [vCore_V, vLoad_V] of [
+        [sup.min_V, ctx.vMin_V],
+        [sup.max_V, ctx.vMax_V],
+      ] as const) {
+        const vg = tap.rGS_ohm === undefined ? vCore_V : (vCore_V * rGS) / (tap.rC_ohm + tap.rTap_ohm + rGS);
+        const q = plateauCharge_C(dev, switchedVoltage_V(ctx, vLoad_V));
+        worst_s = Math.max(worst_s, gateStepCharge(vg, plateau_V(dev), rSrc, dev.ciss_F, q).settled_s);
+      }
+      return worst_s;
     },
     finish(tap, op) {
       const [vgMin, vgMax] = tap.vGate_V ?? [vNeed, vNeed];

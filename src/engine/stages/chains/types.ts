@@ -103,6 +103,13 @@ export interface ChainPlan extends StageResult {
   vSwMax_V: number;
   /** Stage-by-stage drive margins are in `figures`; this is the net the load's switch drives. */
   delays(tap: TapInfo): { on_s: number; off_s: number; note: string };
+  /**
+   * The time the collector the chain's input hangs on takes to reach its high level against the input's
+   * own charge (a gate on the collector: mosfet-logic), s, the worst over the supply; absent: the input
+   * draws no charge that slows the collector. The core's recovery check holds it against the shortest
+   * half-period of that collector's side (worst-corners.ts recoveryIndex).
+   */
+  collectorRise?(tap: TapInfo): number;
   /** `vSwNom_V`, when given, replaces the plan's: the on-voltage at the gate drive the tap really delivers. */
   finish(
     tap: TapInfo,
