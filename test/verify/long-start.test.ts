@@ -70,12 +70,15 @@ describe("a core slow to start from the kick, measured (embedded ngspice)", () =
     expect(Math.abs(got("duty_min") - want("duty_min"))).toBeLessThan(0.05);
   });
 
-  // Since the core carries the start network with its series base diodes (2026-12-05), its short off
-  // half-period at control 1 is eaten by the power PNP's storage at typical gain: the load stays on
-  // (simulated 1.0 against 0.942 predicted), the gap traced in docs/verification.md ("Motors at mid
-  // control"), which the engine's duty model (minimum gain only) does not carry yet. The verifier reads
-  // it, so the catalogue refuses the variant; this pins the reading until the model carries the storage.
-  it("reads the load fully on at control 1 (the PNP's storage at typical gain, not yet in the model)", () => {
+  // Since the core carries the start network with its series base diodes (2026-12-05), it stops at
+  // control 1 (simulated 1.0 against 0.942 predicted). Traced in native ngspice (docs/verification.md,
+  // "A core slow to start from the kick"): not the power PNP's storage (2.2 µs), but a soft turnover — the
+  // off timing transistor's base, fed through R_BA = 107 kΩ, comes on so slowly against the other side's
+  // 7.5 kΩ feed that the coupled edge cannot pull that side out of saturation; collector A sinks past the
+  // network's threshold and the network's hold transistor takes base A's current: the core rests with
+  // collector A at 1.96 V. Without the network the same deck runs (885 Hz, duty 0.958). The engine does not
+  // model the soft turnover yet; the verifier reads it, so the catalogue refuses the variant; this pins it.
+  it("reads the load fully on at control 1 (a soft turnover parks the core in the network's balance)", () => {
     if (!m.ok) throw new Error(m.message);
     expect(got("duty_max")).toBeGreaterThan(want("duty_max") + 0.05);
   });
