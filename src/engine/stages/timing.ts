@@ -663,7 +663,9 @@ export function designTiming(
     ),
     figure(
       "collector_recovery",
-      "Collector recovery 5·τ_c / shortest half-period (worst)",
+      v.gateRise_s === undefined
+        ? "Collector recovery 5·τ_c / shortest half-period (worst)"
+        : "Collector recovery (5·τ_c, or the gate on it settled) / shortest half-period (worst)",
       w.recovery,
       "",
       "timing",
