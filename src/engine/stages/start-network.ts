@@ -151,7 +151,8 @@ export function turnoverBelow_s(
 /**
  * The two running checks, at the supply's and the ambient's ends and the control's ends:
  *  - `start-network-release`: km's peak over an edge's both-low instant (startMemoryPeak_V, t_low the
- *    rising collector's way to V_th + V_F of DK) stays below QK1's cut-in, hot;
+ *    rising collector's way to V_th + V_F of DK, and on the cross-returned core the turnover's dwell below
+ *    it, turnoverBelow_s) stays below QK1's cut-in, hot;
  *  - `start-network-sense`: with the lower high collector, cold, QK2 keeps an overdrive ≥ 1.5 (its base
  *    current (kh − V_BE)/RK2 − V_BE/RK5, kh = V_C,high − V_F) so km stays at V_CE(sat) while the core runs.
  */
