@@ -60,6 +60,8 @@ export function cacheKey(netlist: string, engine: { name: EngineName; version: s
     ...(target.pullIn !== undefined ? [target.pullIn] : []),
     // The control's end runs (end-runs.ts), where the netlist has the end contacts (absent, as before).
     ...(hasEnds(netlist) ? [END_RUN_PLAN] : []),
+    // The cold start's swing reference on a regulated core rail (cold-start.ts; absent, as before).
+    ...(target.coreRail_V !== undefined ? [target.coreRail_V] : []),
   ]);
   return createHash("sha256")
     .update(simBody(netlist))

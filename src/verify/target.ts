@@ -57,6 +57,11 @@ export interface VerifyTarget {
    * ramp-plan.ts); absent without the stage.
    */
   rampTau_s?: number;
+  /**
+   * The regulated core rail's nominal level, V (figure `core_rail`; absent on a core fed from the supply):
+   * the cold start reads the collectors' swing against it (cold-start.ts measureColdStart).
+   */
+  coreRail_V?: number;
 }
 
 /** Null when the variant has no circuit or no frequency prediction: nothing to simulate. */
@@ -94,7 +99,14 @@ export function targetFromSized(sized: SizedVariant): VerifyTarget | null {
     ranges,
     ...pullInOf(predicted),
     ...rampOf(predicted),
+    ...railOf(predicted),
   };
+}
+
+/** The regulated core rail's nominal level, where the core has one. */
+function railOf(predicted: Record<string, Predicted>): { coreRail_V?: number } {
+  const v = predicted["core_rail"]?.value;
+  return v !== undefined && v > 0 ? { coreRail_V: v } : {};
 }
 
 /**

@@ -306,7 +306,10 @@ function startNetDecision(circuit: CircuitModel): DesignDecision | undefined {
       (follower ? "follower core" : "cross-returned core") +
       ` would come up with both transistors on and stay so: nothing lets one of them go. The network lets ` +
       `collector A rise first, so A starts with a whole edge and turns B off as in a running core; the delay ` +
-      `(at most the longer of 1 ms and the period) keeps it out of a running core's edges, and its divider ` +
+      (follower
+        ? `(at most the longer of 1 ms and the period) keeps it out of a running core's edges, and its divider `
+        : `(the longer of 1 ms and the period, longer still where a turnover parks the returning collector ` +
+          `below the threshold for tens of µs: up to 10 ms) keeps it out of a running core's edges, and its divider `) +
       `loads the high collector a little (in the worst case). The threshold is ½ of collector A's high ` +
       `level, its lower resistor rounded down in E24 so the threshold stays at or above ½; a start-up ` +
       `transistor is common practice, this arrangement our own, ` +

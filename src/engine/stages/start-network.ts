@@ -9,8 +9,9 @@ import type { DesignProblem } from "../../model/problem.ts";
 import type { StressCheck } from "../../model/derating.ts";
 import { capacitor, diode, resistor, transistor } from "../../circuit/parts.ts";
 import { checkStress } from "../shared/derating.ts";
+import { seriesBetween } from "../shared/e-series.ts";
 import { problem } from "../shared/figures.ts";
-import { hfeMin, vbeOn, vceSat } from "../shared/gain.ts";
+import { hfeMax, hfeMin, vbeOn, vceSat } from "../shared/gain.ts";
 import {
   START_NET,
   startMemoryCap_F,
@@ -19,6 +20,7 @@ import {
   startThreshold_V,
 } from "../shared/start-network.ts";
 import { thresholdDelay_s } from "./astable.ts";
+import { returnHold, returnLevel_V, turnoverDwell_s } from "./cross-bleed.ts";
 import type { Ctx } from "./context.ts";
 import { type CoreEval, type CoreValues, NOMINAL_K, cutIn_V, diodeVf_V, evalCore } from "./core-model.ts";
 import { capRating_V } from "./timing-parts.ts";
@@ -26,20 +28,19 @@ import type { TapDesign } from "./tap.ts";
 import type { Corner, SimCorner } from "../../model/corners.ts";
 
 /**
- * Whether a core gets the start network: the follower core, whose arrangement was measured to come up with
- * both timing transistors on from a slowly rising supply (docs/verification.md, "Cold start"). Not the
- * plain core (measured: it stopped slow 24 V heaters that start without it), not with a solenoid's
- * pull-in timer (which holds base A itself), not on a regulated core rail (the rail's own RC smooths the
- * supply's rise, the collector passes the threshold slowly and the detector settles in its own balance,
- * collector A half on: the coverage grid's 36 V, 100 Hz railed follower core, which starts without it),
- * and not yet on the cross-returned core: there it starts the demo's 24 V fans, but it stopped a running
- * 24 V, 1 kHz two-stage Darlington cable core at its slow corner at control 1 (duty 1 in the embedded
- * engine, 0.96 without the network), which neither running check predicts.
+ * Whether a core gets the start network: the follower core and the cross-returned core, whose arrangements
+ * were measured to come up with both timing transistors on from a slowly rising supply (docs/verification.md,
+ * "Cold start"). Not the plain core (measured: it stopped slow 24 V heaters that start without it), not
+ * with a solenoid's pull-in timer (which holds base A itself), not on a regulated core rail (the rail's own
+ * RC smooths the supply's rise, the collector passes the threshold slowly and the detector settles in its
+ * own balance, collector A half on: the coverage grid's 36 V, 100 Hz railed follower core, which starts
+ * without it). On the cross-returned core a turnover can park the returning collector below the threshold
+ * (turnoverBelow_s): the release check reads it, and the delay grows to outlast it (crossMemory).
  */
 export function startNetWanted(ctx: Ctx, tap: TapDesign, opts: { cross?: boolean; noStartNet?: boolean }): boolean {
-  if (opts.noStartNet === true || opts.cross === true) return false;
+  if (opts.noStartNet === true) return false;
   if (ctx.spec.load_kind === "solenoid" || ctx.coreRail !== undefined) return false;
-  return tap.follower !== undefined;
+  return opts.cross === true || tap.follower !== undefined;
 }
 
 /**
@@ -93,9 +94,65 @@ function riseBelow_s(e: CoreEval, side: "A" | "B", c_F: number, thr_V: number): 
 }
 
 /**
+ * On the cross-returned core, how long both collectors can sit below the level `thr_V` at a turnover, s:
+ * the returning collector parks at V_ret (cross-bleed.ts returnLevel_V) while the on side stays saturated
+ * on R_D's current (returnHold), for the on side's base node's recovery (turnoverDwell_s); only a V_ret
+ * below `thr_V` counts. The longest over both sides, the returning side at its minimum and its maximum
+ * gain (the on side at its maximum, as the hold limit reads it: cross-checks.ts). 0 on other cores.
+ */
+export function turnoverBelow_s(
+  v: CoreValues,
+  q: BjtClass,
+  db: DiodeClass,
+  e: CoreEval,
+  k: Corner,
+  ctrl: number,
+  thr_V: number,
+): number {
+  const rD = v.crossBleed_ohm;
+  if (rD === undefined) return 0;
+  const t = e.timing;
+  const vBe = vbeOn(q, k.t_C);
+  const rBA = v.rEndA_ohm * k.kEndA + v.pot_ohm * k.kPot * ctrl;
+  const rBB = v.rEndB_ohm * k.kEndB + v.pot_ohm * k.kPot * (1 - ctrl);
+  let worst = 0;
+  for (const side of ["A", "B"] as const) {
+    const a = side === "A";
+    // The returning collector's capacitor couples its fall into the on side's base node.
+    const c_F = v.c_F * (a ? k.kCA : k.kCB);
+    const rTh = (a ? t.tauA_s : t.tauB_s) / c_F;
+    const vHigh = a ? t.vHighA_V : t.vHighB_V;
+    const rBRet = a ? rBA : rBB;
+    const iCOn = k.vcc_V / (v.rC_ohm * (a ? k.kRCB : k.kRCA));
+    const iC = Math.min(q.ic_max_A, iCOn);
+    const vF = diodeVf_V(db, k.vcc_V / rBRet, k.t_C);
+    const iDiv = (k.vcc_V - vF - vBe) / rBRet - (vBe - e.vSat_V) / rD;
+    const betaMin = hfeMin(q, iC, k.t_C);
+    const betaOn = hfeMax(q, iC, k.t_C) ?? betaMin;
+    for (const betaReturn of [betaMin, betaOn]) {
+      const at = { vTh_V: vHigh, rTh_ohm: rTh, betaReturn, iDivNet_A: iDiv, vSat_V: e.vSat_V };
+      const vRet = returnLevel_V(at);
+      if (vRet >= thr_V) continue;
+      const hold = returnHold({ ...at, vBe_V: vBe, rD_ohm: rD, betaOn, iCOn_A: iCOn });
+      const dwell = turnoverDwell_s({
+        hold,
+        rBOn_ohm: a ? rBB : rBA,
+        c_F,
+        vcc_V: k.vcc_V,
+        vNode_V: e.vOn_V,
+        fall_V: vHigh - vRet,
+      });
+      worst = Math.max(worst, dwell);
+    }
+  }
+  return worst;
+}
+
+/**
  * The two running checks, at the supply's and the ambient's ends and the control's ends:
  *  - `start-network-release`: km's peak over an edge's both-low instant (startMemoryPeak_V, t_low the
- *    rising collector's way to V_th + V_F of DK) stays below QK1's cut-in, hot;
+ *    rising collector's way to V_th + V_F of DK, and on the cross-returned core the turnover's dwell below
+ *    it, turnoverBelow_s) stays below QK1's cut-in, hot;
  *  - `start-network-sense`: with the lower high collector, cold, QK2 keeps an overdrive ≥ 1.5 (its base
  *    current (kh − V_BE)/RK2 − V_BE/RK5, kh = V_C,high − V_F) so km stays at V_CE(sat) while the core runs.
  */
@@ -121,7 +178,10 @@ export function startNetProblems(
     const e = evalCore(v, q, db, corner, ctrl);
     const vF = diodeVf_V(db, vcc_V / (START_NET.rOr_ohm / 2), t_C);
     const thr = sn.vTh_V + vF;
-    const tLow = Math.max(riseBelow_s(e, "A", v.c_F, thr), riseBelow_s(e, "B", v.c_F, thr));
+    // A cross-returned core's turnover may park the returning collector below the threshold first.
+    const tLow =
+      Math.max(riseBelow_s(e, "A", v.c_F, thr), riseBelow_s(e, "B", v.c_F, thr)) +
+      turnoverBelow_s(v, q, db, e, corner, ctrl, thr);
     const iK = vcc_V / START_NET.rMem_ohm;
     const km = startMemoryPeak_V(vcc_V, vceSat(q, iK), tLow, sn.cMem_F);
     const limit = cutIn_V(false, db, t_C) - START_HOLD_OFF_MARGIN_V;
@@ -175,12 +235,41 @@ export function fitStartNet(
   out: { parts: Part[]; problems: DesignProblem[]; checks: StressCheck[] },
 ): boolean {
   if (v.startNet !== true) return true;
-  const sn = startNetValues(at.nominalMid);
-  if (startNetProblems(ctx, dev.q, dev.db, v, sn, at.corners).length > 0) return false;
+  const sn = crossMemory(ctx, dev, v, startNetValues(at.nominalMid), at.corners);
+  if (sn === undefined) return false;
   const iBasePk_A = (2 * ctx.vMax_V - at.nominalMid.vOn_V) / (Math.min(v.rEndA_ohm, v.rEndB_ohm) * (1 - ctx.rTol));
   startNetParts(ctx, dev, sn, iBasePk_A, out);
   return true;
 }
+
+/**
+ * The network's values that pass its running checks, or undefined. On the cross-returned core a turnover
+ * can park the returning collector below the threshold for tens of µs (turnoverBelow_s), longer than the
+ * delay CKM gives: there CKM climbs in E12 steps up to START_CROSS_MEM_MAX_F until the release check passes
+ * (the start itself measured with the larger values: docs/method.md, "Start network").
+ */
+function crossMemory(
+  ctx: Ctx,
+  dev: { q: BjtClass; db: DiodeClass },
+  v: CoreValues,
+  sn: StartNetValues,
+  corners: readonly SimCorner[],
+): StartNetValues | undefined {
+  const passes = (x: StartNetValues): boolean => startNetProblems(ctx, dev.q, dev.db, v, x, corners).length === 0;
+  if (passes(sn)) return sn;
+  if (v.crossBleed_ohm === undefined) return undefined;
+  for (const cMem_F of seriesBetween(sn.cMem_F * 1.01, START_CROSS_MEM_MAX_F, "E12")) {
+    const x = { ...sn, cMem_F };
+    if (passes(x)) return x;
+  }
+  return undefined;
+}
+
+/**
+ * The largest delay capacitor CKM on a cross-returned core, F (τ = RK3·CKM = 10 ms): the largest value the
+ * network was measured to start cores with (shared/start-network.ts startMemoryCap_F; docs/method.md).
+ */
+export const START_CROSS_MEM_MAX_F = 100e-9;
 
 /**
  * The network's parts (docs/topologies.md, roles DK_A … QK_HOLD) with their worst-case stresses:

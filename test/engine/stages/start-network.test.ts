@@ -1,7 +1,7 @@
 /**
  * The start network (docs/method.md, "Start network"; src/engine/shared/start-network.ts,
  * src/engine/stages/start-network.ts): its relations against hand calculations, where the engine fits it
- * (follower cores only), its load in the core model, the same designators in netlist,
+ * (follower and cross-returned cores), its load in the core model, the same designators in netlist,
  * schematic and parts list, and a real SPICE engine (native ngspice): a demo follower core with the
  * network starts from the 20 ms supply rise, the same circuit without it does not.
  */
@@ -96,7 +96,7 @@ const CROSS = "circulation-fan-24v-1a-mosfet-logic-motor";
 const PUMP = "nutrient-pump-24v-1a-darlington-3-motor";
 
 describe("where the engine fits it (the demo records)", () => {
-  it("on every follower core but a solenoid's or a railed one, and on no plain or cross-returned core", () => {
+  it("on every follower and cross-returned core but a solenoid's or a railed one, and on no plain core", () => {
     let withNet = 0;
     for (const spec of specs) {
       const s = sizeVariant(spec);
@@ -104,7 +104,7 @@ describe("where the engine fits it (the demo records)", () => {
       const follower = parts.some((p) => p.role === "QF_A");
       const cross = parts.some((p) => p.role === "RBL_A" && p.pins["b"] === "cb");
       const railed = parts.some((p) => p.role === "C_RAIL");
-      const want = follower && !cross && spec.load_kind !== "solenoid" && !railed;
+      const want = (follower || cross) && spec.load_kind !== "solenoid" && !railed;
       const roles = parts.filter((p) => NET_ROLES.includes(p.role)).map((p) => p.role);
       expect(roles.sort(), spec.id).toEqual(want ? [...NET_ROLES].sort() : []);
       expect(
@@ -132,8 +132,8 @@ describe("where the engine fits it (the demo records)", () => {
   });
 
   it("reference designators are the same in the netlist, the schematic and the parts list", () => {
-    expect(sizedOf(CROSS).circuit!.parts.some((p) => p.role === "QK_HOLD")).toBe(false);
-    for (const id of [FOLLOWER, PUMP]) {
+    expect(sizedOf(CROSS).circuit!.parts.some((p) => p.role === "QK_HOLD")).toBe(true);
+    for (const id of [FOLLOWER, PUMP, CROSS]) {
       const s = sizedOf(id);
       const v = renderVariantViews(s, project.devices);
       expectSameDesignators(s.circuit!, v.netlist, v.schematicSvg, v.bomCsv);
