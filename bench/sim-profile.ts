@@ -3,7 +3,7 @@
  * this thread with the embedded engine (no cache), and each engine call's processor time
  * (`process.cpuUsage`, so other work on a shared machine counts little) is put in a class — the
  * nominal runs at each control, the preparatory runs of inductive loads, the corner runs, the end
- * runs, the pull-in runs — with its retry level and whether it stopped early. Run:
+ * runs, the pull-in runs, the cold-start runs — with its retry level and whether it stopped early. Run:
  *   node --import tsx bench/sim-profile.ts [--shard K/N] [--out measured.json] [--runs runs.jsonl]
  * Prints a table per class and the slowest decks. `--only A,B` measures the variants whose id
  * contains A or B; `--dump DIR` writes every deck the engine ran there. `--out` keeps every
@@ -44,6 +44,8 @@ interface RunRecord {
   tStop_s: number;
   tEnd_s: number;
   stopped: boolean;
+  /** The variant's predicted frequency, Hz. */
+  f_Hz: number;
 }
 
 function arg(name: string): string | undefined {
@@ -57,6 +59,8 @@ function kindOf(deck: string, stack: string): string {
   const held = /^\.ic .*v\(ls\)=/m.test(deck);
   if (stack.includes("measureEnds") || stack.includes("endRun")) return `end ctrl ${ctrl}`;
   if (stack.includes("measurePullIn")) return "pull-in";
+  // The cold-start runs (cold-start.ts): a supply rising from 0 V, read at the control's ends.
+  if (stack.includes("coldRun") || stack.includes("measureColdStart")) return `cold start ctrl ${ctrl}`;
   // A run started from a handed-over state holds every node, the supply's included (runs.ts handOver).
   const handed = /^\.ic .*v\(vbus\)=/m.test(deck);
   const prep = held && !handed && !/reltol=1e-4/.test(deck);
@@ -74,7 +78,7 @@ function levelOf(deck: string): number {
   return 0;
 }
 
-function profiled(engine: SpiceEngine, records: RunRecord[], id: () => string): SpiceEngine {
+function profiled(engine: SpiceEngine, records: RunRecord[], who: () => { id: string; f_Hz: number }): SpiceEngine {
   return {
     name: engine.name,
     version: engine.version,
@@ -86,13 +90,14 @@ function profiled(engine: SpiceEngine, records: RunRecord[], id: () => string): 
       const c0 = process.cpuUsage();
       const w0 = performance.now();
       const res = await engine.run(deck, vectors);
-      if (dumpDir) writeFileSync(`${dumpDir}/${id()}-${records.length}.cir`, deck);
+      if (dumpDir) writeFileSync(`${dumpDir}/${who().id}-${records.length}.cir`, deck);
       const cpu = process.cpuUsage(c0);
       const end = res.t_s[res.t_s.length - 1] ?? 0;
       const level = levelOf(deck);
       const kind = kindOf(deck, stack);
       records.push({
-        id: id(),
+        id: who().id,
+        f_Hz: who().f_Hz,
         kind,
         ctrl: Number(/^\.param ctrl=(\S+)/m.exec(deck)?.[1]),
         level,
@@ -122,7 +127,8 @@ const jobs = renders
   .filter((r) => only === undefined || only.split(",").some((o) => r.sized.spec.id.includes(o)));
 const records: RunRecord[] = [];
 let current = "";
-const engine = profiled(await startEngine("eecircuit-engine"), records, () => current);
+let currentF_Hz = 0;
+const engine = profiled(await startEngine("eecircuit-engine"), records, () => ({ id: current, f_Hz: currentF_Hz }));
 const measured: Record<string, Measured> = {};
 const la0 = loadavg()[0]!;
 const c0 = process.cpuUsage();
@@ -131,6 +137,7 @@ for (const r of jobs) {
   const plan = planOf(r.sized);
   if ("skipped" in plan) continue;
   current = r.sized.spec.id;
+  currentF_Hz = 1 / plan.target.period_s;
   const corners = cornerDecks(r.sized, devices);
   const target = { ...plan.target, ...(corners.length > 0 ? { corners } : {}) };
   const m = await measureVariant(target, r.netlist, engine, runPlan);
@@ -160,6 +167,27 @@ for (const [k, rs] of [...byKind].sort((a, b) => a[0].localeCompare(b[0]))) {
     `${k} | ${rs.length} | ${(s / 1000).toFixed(1)} | ${((100 * s) / total_ms).toFixed(1)} % | ` +
       `${(s / rs.length).toFixed(0)} | ${pts.toFixed(0)}`,
   );
+}
+// The cold-start runs by the core's frequency: the 6 ms rise spans 1–2 periods of a 200 Hz core and
+// ≈ 130 of a 20 kHz one, so their cost follows the frequency (docs/performance.md).
+const coldBands: [string, number][] = [
+  ["< 600 Hz", 600],
+  ["0.6–2 kHz", 2000],
+  ["2–8 kHz", 8000],
+  ["≥ 8 kHz", Infinity],
+];
+const colds = records.filter((r) => r.kind.startsWith("cold start"));
+if (colds.length > 0) {
+  console.log("cold-start runs by frequency | calls | CPU s | mean points");
+  let lo = 0;
+  for (const [label, hi] of coldBands) {
+    const rs = colds.filter((r) => r.f_Hz >= lo && r.f_Hz < hi);
+    lo = hi;
+    if (rs.length === 0) continue;
+    const s = rs.reduce((x, r) => x + r.cpu_ms, 0);
+    const pts = rs.reduce((x, r) => x + r.points, 0) / rs.length;
+    console.log(`${label} | ${rs.length} | ${(s / 1000).toFixed(1)} | ${pts.toFixed(0)}`);
+  }
 }
 console.log("slowest calls:");
 for (const r of [...records].sort((a, b) => b.cpu_ms - a.cpu_ms).slice(0, 15))
