@@ -55,10 +55,19 @@ export const RAMP_OFFER_CHAINS: ReadonlySet<string> = new Set(["mosfet-driver"])
  * (the demo's grow strip) and 5 kHz (grid cores, 5–12 V): the duty at control ½ within 2 points of the
  * prediction once the comparator pair's card reads its gain at the pair's own current (docs/method.md,
  * "The mid-control gap"). At 1 kHz the duty at control ½ agrees too (9 and 12 V grid cores, within
- * 1 point), but both grid cores' fixed-duty cores failed the cold-start runs (both transistors come up
- * on); at 20 kHz and up the core's collector duty needs a term the model lacks.
+ * 1 point; the work lamp's 24 / 27.6 V lamps at their first ask, within 0.4 points), and the fixed core
+ * starts where it carries the start network (below RAMP_OFFER_BARE_CORE_MIN_HZ it must); at 20 kHz and up
+ * the core's collector duty needs a term the model lacks.
  */
-export const RAMP_OFFER_MIN_HZ = 2000;
+export const RAMP_OFFER_MIN_HZ = 1000;
+/**
+ * Below this frequency, Hz, the stage is kept only where its fixed core carries the start network
+ * (start-network.ts fitStartNet): without it the 1 kHz cores measured stuck in the cold-start runs (both
+ * timing transistors on: the 9 and 12 V grid cores, and the work lamp's 12 V, 2 A lamp at its first ask,
+ * whose network the release check refuses even with CKM at 15 nF), while from 2 kHz the 5–12 V cores that
+ * the check refuses it started without it.
+ */
+export const RAMP_OFFER_BARE_CORE_MIN_HZ = 2000;
 export const RAMP_OFFER_MAX_HZ = 5000;
 /**
  * The lowest nominal supply it is offered at, V: simulated on grid cores at 5, 6, 9 and 12 V (24 V and up
@@ -183,6 +192,7 @@ export function rampOffer(
 ): RampOffer | null {
   const v = timing.values;
   if (tap.follower !== undefined || v.crossBleed_ohm !== undefined || ctx.coreRail !== undefined) return null;
+  if (spec.targets.pwm_Hz < RAMP_OFFER_BARE_CORE_MIN_HZ && v.startNet !== true) return null;
   if (plan.need.kind !== "base-current" || !plan.need.inverting) return null;
   const need = plan.need;
   const q = spec.devices.timing_npn as BjtClass;

@@ -73,9 +73,10 @@ describe(`the ramp stage offered by sizeVariant (${ID}, demo numbers)`, () => {
     expect(rampOffered(logic.spec, logic)).toBe(false);
     expect(rampOffered(v12, { ...logic, spec: v12 })).toBe(true);
     expect(rampOffered({ ...v12, targets: { ...v12.targets, pwm_Hz: 20_000 } }, { ...logic, spec: v12 })).toBe(false);
-    // 2 kHz and 5 V are within the simulated bands (ramp-offer.ts RAMP_OFFER_MIN_HZ, RAMP_OFFER_MIN_V), below not.
+    // 1 kHz and 5 V are within the simulated bands (ramp-offer.ts RAMP_OFFER_MIN_HZ, RAMP_OFFER_MIN_V), below not.
     expect(rampOffered({ ...v12, targets: { ...v12.targets, pwm_Hz: 2000 } }, { ...logic, spec: v12 })).toBe(true);
-    expect(rampOffered({ ...v12, targets: { ...v12.targets, pwm_Hz: 1000 } }, { ...logic, spec: v12 })).toBe(false);
+    expect(rampOffered({ ...v12, targets: { ...v12.targets, pwm_Hz: 1000 } }, { ...logic, spec: v12 })).toBe(true);
+    expect(rampOffered({ ...v12, targets: { ...v12.targets, pwm_Hz: 500 } }, { ...logic, spec: v12 })).toBe(false);
     expect(rampOffered({ ...v12, supply_V: 5 }, { ...logic, spec: v12 })).toBe(true);
     expect(rampOffered({ ...v12, supply_V: 4.5 }, { ...logic, spec: v12 })).toBe(false);
     // Not for a winding (never simulated with the stage).
