@@ -24,6 +24,7 @@ import { renderBom } from "../../../src/render/bom.ts";
 import { COLD_SWING_SHARE, coldRunDeck, coldSwingShare } from "../../../src/verify/cold-start.ts";
 import { startNgspice } from "../../../src/verify/engines/ngspice.ts";
 import { supplyVoltage } from "../../../src/verify/deck.ts";
+import { RETRY_OPTIONS } from "../../../src/verify/runs.ts";
 import type { DesignRecord } from "../../../src/model/design.ts";
 import { REPO } from "../../records/project.ts";
 import { hasNgspice, meas, runNgspice, withStatements } from "../../render/ngspice.ts";
@@ -66,11 +67,19 @@ function withoutNet(c: CircuitModel): CircuitModel {
 }
 
 /** Load duty (the switch node below half the rail) over periods 30–38 of a 60-period run. */
-function loadDuty(netlist: string, supply_V: number, f_Hz: number, ctrl: number): { load: number; f_Hz: number } {
+function loadDuty(
+  netlist: string,
+  supply_V: number,
+  f_Hz: number,
+  ctrl: number,
+  options?: string,
+): { load: number; f_Hz: number } {
   const half = supply_V / 2;
   const tran = /^\.tran (\S+) (\S+) 0 (\S+)(.*)$/m.exec(netlist)!;
   // Without `uic` (as the verifier's decks: src/verify/deck.ts simDeck): the operating point holds the `.ic`.
-  const long = netlist.replace(tran[0], `.tran ${tran[1]} ${60 / f_Hz} 0 ${tran[3]}`);
+  const run = netlist.replace(tran[0], `.tran ${tran[1]} ${60 / f_Hz} 0 ${tran[3]}`);
+  const long =
+    options === undefined ? run : run.replace(/^\.options method=gear.*$/m, `.options method=gear ${options}`);
   const deck = withStatements(setCtrl(long.replace(/^\.meas .*$/gm, ""), ctrl), [
     `Bdload dload 0 V=u(${half}-v(sw))`,
     ".control",
@@ -181,6 +190,60 @@ describe("the start network on the ramp stage's fixed core", () => {
         // Measured (2026-12-05): 0.90–0.91 with the network, 0.00 without (both timing transistors on).
         for (const s of withNet) expect(s, msg).toBeGreaterThan(COLD_SWING_SHARE);
         expect(bare, msg).toBeLessThan(COLD_SWING_SHARE);
+      } finally {
+        await engine.close();
+      }
+    },
+    600_000,
+  );
+});
+
+describe("the stage at 1 kHz: kept only on a core that carries the start network", () => {
+  // Demo numbers (the greenhouse's potting shed): a record of this test's own, outside designs/.
+  const lampRecord = {
+    id: "shed-lamp",
+    title: "Potting shed lamp",
+    summary: "A dimmable incandescent lamp over the potting shed's bench.",
+    use: "One knob from a dull glow to nearly full.",
+    axes: { supply_V: [24], load_A: [2], chain: ["mosfet-driver"], load_kind: ["lamp"] },
+    targets: { pwm_Hz: 1000, duty_min: 0.15, duty_max: 0.95, ambient_C: [0, 40] },
+    supply: { battery: "lead-acid" },
+    protection: { be_breakdown: "series-base-diode" },
+  } as unknown as DesignRecord;
+  const lamp = expandDesign(lampRecord, {
+    choose: (x, v, a, c, k) => chooseDevices(x, devices, v, a, c, k),
+    policy: project.policy,
+  })[0]!;
+  const sized = sizeVariant(lamp);
+  const parts = sized.circuit?.parts ?? [];
+
+  it("the 24 V, 2 A lamp at 1 kHz, 15–95 % is feasible with the stage and its core's network", () => {
+    expect(sized.feasible, sized.reason).toBe(true);
+    expect(parts.some((p) => p.role === "Q_CR")).toBe(true);
+    expect(parts.some((p) => p.role === "QK_HOLD")).toBe(true);
+  });
+
+  it.skipIf(!hasNgspice)(
+    "native ngspice: the duty at control ½ within 3 points of the prediction, and the cold start at both ends",
+    async () => {
+      const meta = { id: lamp.id, title: "shed lamp (test)", supply_V: 24, frequency_Hz: 1000, devices };
+      const netlist = renderNetlist(sized.circuit!, meta);
+      const f = sized.figures.find((x) => x.key === "frequency_nominal")!.value;
+      // The verifier's first retry options (src/verify/runs.ts RETRY_OPTIONS): with the default ones the
+      // chain's follower PNP stops the step at control ½ (native ngspice 39).
+      const mid = loadDuty(netlist, 24, f, 0.5, RETRY_OPTIONS);
+      const pred = sized.figures.find((x) => x.key === "duty_mid")!.value;
+      // Measured (2026-12-05, the work lamp's 24 V, 2 A core at its first ask, embedded engine): 0.502 against
+      // 0.506. Band: 3 points, inside the verifier's 5 (src/verify/compare.ts; common practice).
+      expect(Math.abs(mid.load - pred), JSON.stringify({ mid, pred })).toBeLessThan(0.03);
+      const engine = startNgspice();
+      try {
+        const shares = [];
+        for (const c of [0, 1]) {
+          const r = await engine.run(coldRunDeck(netlist, 1 / 1000, c), ["v(ca)", "v(cb)"]);
+          shares.push(coldSwingShare(r, 1 / 1000, supplyVoltage(netlist)));
+        }
+        for (const s of shares) expect(s, JSON.stringify(shares)).toBeGreaterThan(COLD_SWING_SHARE);
       } finally {
         await engine.close();
       }
