@@ -55,6 +55,12 @@ export interface VariantSpec {
    * the variant with the ±20 % track (the design decision's reason).
    */
   dutyPot?: { refused: readonly string[] };
+  /**
+   * Set by the ramp stage only (src/engine/stages/ramp-offer.ts `rampCoreSpec`): the spec is the fixed
+   * ≈ 50 % plain core under the ramp-and-comparator duty stage, which gets the start network
+   * (src/engine/stages/start-network.ts `startNetWanted`).
+   */
+  rampCore?: true;
   policy: DeratingPolicy;
   /** The record's coil data, present on solenoid variants. */
   solenoid?: SolenoidRecord;

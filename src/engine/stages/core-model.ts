@@ -376,10 +376,10 @@ function evalFrom(v: CoreValues, k: Corner, made: Prefix): CoreEval {
     const th = collectorThevenin(k.vcc_V, rCX, parallelLoads(preLoad, cross.load));
     dtTh_s = thresholdDelay_s(th.r_ohm * cX, th.v_V, vSat_V, v.vThTap_V);
   } else if (fo === undefined) {
-    // (No start network here: it is fitted on follower cores only (start-network.ts startNetWanted).)
-    const vInf = pre === undefined ? k.vcc_V : (k.vcc_V * pre) / (rCX + pre);
-    const rTh = pre === undefined ? rCX : (rCX * pre) / (rCX + pre);
-    dtTh_s = thresholdDelay_s(rTh * cX, vInf, vSat_V, v.vThTap_V);
+    // The collector's Thevenin source with the linear input network and the start network's load (the
+    // ramp stage's fixed core carries one: start-network.ts startNetWanted).
+    const th = collectorThevenin(k.vcc_V, rCX, preLoad);
+    dtTh_s = thresholdDelay_s(th.r_ohm * cX, th.v_V, vSat_V, v.vThTap_V);
   } else if (fo.loadsOnCollector === true) {
     // The chain listens to the collector; the follower only recharges the capacitor. Its base current
     // i/(β_F + 1) is the collector's only extra load, so the collector moves with the emitter, one V_BE

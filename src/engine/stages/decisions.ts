@@ -283,7 +283,7 @@ function arrangementDecision(circuit: CircuitModel, arrangement: FollowerChosen 
 const START_NET_ROLE_SET: ReadonlySet<PartRole> = new Set(START_NET_ROLES);
 
 /**
- * The start network on a follower or cross-returned core (stages/start-network.ts): why it is there and
+ * The start network on a follower, cross-returned or ramp stage's core (stages/start-network.ts): why it is there and
  * how its threshold was set. No published source: the start-up transistor is common practice, the
  * arrangement our own, measured (docs/verification.md, "Cold start").
  */
@@ -292,7 +292,18 @@ function startNetDecision(circuit: CircuitModel): DesignDecision | undefined {
   const set = parts.find((p) => p.role === "RK_SET");
   if (set === undefined) return undefined;
   const follower = circuit.parts.some((p) => p.role === "QF_A");
+  // The ramp stage's fixed ≈ 50 % core (stages/ramp-offer.ts): its comparator pair's ramp side is Q_CR.
+  const ramp = circuit.parts.some((p) => p.role === "Q_CR");
+  const core = follower ? "follower core" : ramp ? "fixed ≈ 50 % core under the ramp stage" : "cross-returned core";
   const cMem_F = parts.find((p) => p.role === "CK_MEM")?.value ?? 0;
+  // On the ramp stage's core CKM may step up (start-network.ts RAMP_CORE_MEM_MAX); on the cross-returned
+  // core further, past a turnover's dwell (start-network.ts crossMemory).
+  const delay = follower
+    ? "(at most the longer of 1 ms and the period)"
+    : ramp
+      ? "(at most the longer of 1 ms and the period, or up to 1.5 ms where a running edge would reach it)"
+      : "(the longer of 1 ms and the period, longer still where a turnover parks the returning collector " +
+        "below the threshold for tens of µs: up to 10 ms)";
   return {
     refs: parts.map((p) => p.ref),
     topic: "start network",
@@ -302,14 +313,10 @@ function startNetDecision(circuit: CircuitModel): DesignDecision | undefined {
       `transistor A's base at ground while both collectors stay below ` +
       `${formatValue(startThreshold_V(set.value), "V")} (${set.ref} ${formatValue(set.value, "Ω")})`,
     reason:
-      `from a supply that rises slowly (0 V to full in 20 ms) the ` +
-      (follower ? "follower core" : "cross-returned core") +
+      `from a supply that rises slowly (0 V to full in 20 ms) the ${core}` +
       ` would come up with both transistors on and stay so: nothing lets one of them go. The network lets ` +
       `collector A rise first, so A starts with a whole edge and turns B off as in a running core; the delay ` +
-      (follower
-        ? `(at most the longer of 1 ms and the period) keeps it out of a running core's edges, and its divider `
-        : `(the longer of 1 ms and the period, longer still where a turnover parks the returning collector ` +
-          `below the threshold for tens of µs: up to 10 ms) keeps it out of a running core's edges, and its divider `) +
+      `${delay} keeps it out of a running core's edges, and its divider ` +
       `loads the high collector a little (in the worst case). The threshold is ½ of collector A's high ` +
       `level, its lower resistor rounded down in E24 so the threshold stays at or above ½; a start-up ` +
       `transistor is common practice, this arrangement our own, ` +

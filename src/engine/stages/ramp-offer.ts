@@ -24,7 +24,8 @@ import { diodeClassVf_V } from "../shared/diode.ts";
 import { nearest } from "../shared/e-series.ts";
 import { figure } from "../shared/figures.ts";
 import { NOMINAL_TEMP_C } from "../shared/temperature.ts";
-import { evaluateCore } from "./astable.ts";
+import { collectorThevenin, evaluateCore, parallelLoads } from "./astable.ts";
+import { NOMINAL_K, startNetAt } from "./core-model.ts";
 import type { Ctx } from "./context.ts";
 import type { ChainPlan, TapInfo } from "./chains/types.ts";
 import type { TapDesign } from "./tap.ts";
@@ -54,10 +55,19 @@ export const RAMP_OFFER_CHAINS: ReadonlySet<string> = new Set(["mosfet-driver"])
  * (the demo's grow strip) and 5 kHz (grid cores, 5–12 V): the duty at control ½ within 2 points of the
  * prediction once the comparator pair's card reads its gain at the pair's own current (docs/method.md,
  * "The mid-control gap"). At 1 kHz the duty at control ½ agrees too (9 and 12 V grid cores, within
- * 1 point), but both grid cores' fixed-duty cores failed the cold-start runs (both transistors come up
- * on); at 20 kHz and up the core's collector duty needs a term the model lacks.
+ * 1 point; the work lamp's 24 / 27.6 V lamps at their first ask, within 0.4 points), and the fixed core
+ * starts where it carries the start network (below RAMP_OFFER_BARE_CORE_MIN_HZ it must); at 20 kHz and up
+ * the core's collector duty needs a term the model lacks.
  */
-export const RAMP_OFFER_MIN_HZ = 2000;
+export const RAMP_OFFER_MIN_HZ = 1000;
+/**
+ * Below this frequency, Hz, the stage is kept only where its fixed core carries the start network
+ * (start-network.ts fitStartNet): without it the 1 kHz cores measured stuck in the cold-start runs (both
+ * timing transistors on: the 9 and 12 V grid cores, and the work lamp's 12 V, 2 A lamp at its first ask,
+ * whose network the release check refuses even with CKM at 15 nF), while from 2 kHz the 5–12 V cores that
+ * the check refuses it started without it.
+ */
+export const RAMP_OFFER_BARE_CORE_MIN_HZ = 2000;
 export const RAMP_OFFER_MAX_HZ = 5000;
 /**
  * The lowest nominal supply it is offered at, V: simulated on grid cores at 5, 6, 9 and 12 V (24 V and up
@@ -67,13 +77,13 @@ export const RAMP_OFFER_MIN_V = 5;
 /**
  * Whether builds (`sizeVariant`) are offered the stage with the pair's base–emitter protection, which lets it
  * size at 24 V and up (ramp-duty.ts `sizeRamp`; docs/method.md, "The pair's protection at 24 V and up").
- * Not yet: the protection itself agrees in native ngspice (the junctions ≤ 0.25 V reverse, duty ½ within
- * 0.3 points), but the fixed ≈ 50 % core under it failed the cold-start runs on every variant it made
- * feasible (the demo's grow strip at 24 and 27.6 V at its growers' first ask, 4 kHz 5–95 %: 12 of 12, both
- * timing transistors on, with the bare pair as with the protected one), as the 1 kHz cores did. Until the
- * core's start network is in, `sizeWithRamp(spec, why, true)` sizes it for tests and measurements.
+ * The protection agrees in native ngspice (the junctions ≤ 0.25 V reverse, duty ½ within 0.3 points); the
+ * fixed ≈ 50 % core under it failed the cold-start runs (the demo's grow strip at 24 and 27.6 V at its
+ * growers' first ask, 4 kHz 5–95 %: 12 of 12, both timing transistors on) until it got the start network
+ * (start-network.ts startNetWanted, `rampCore`); with it every one starts and agrees (docs/method.md, "The
+ * start network on the stage's fixed core").
  */
-export const RAMP_OFFER_PROTECTED_PAIR = false;
+export const RAMP_OFFER_PROTECTED_PAIR = true;
 /**
  * The fixed core's base resistors' tolerance: 1 % metal film (sold in E24 values; common practice). The
  * core's collector duty, and with it the ramp's level, follows their match: with the 5 % class the ends
@@ -125,7 +135,7 @@ export function rampOffered(spec: VariantSpec, refused: SizedVariant): boolean {
 export function rampCoreSpec(spec: VariantSpec): VariantSpec {
   const targets = { ...spec.targets, duty_min: RAMP_CORE_DUTY.min, duty_max: RAMP_CORE_DUTY.max, off_on_ends: false };
   const { dutyPot: _pot, ...rest } = spec;
-  return { ...rest, targets };
+  return { ...rest, targets, rampCore: true };
 }
 
 /** What the stage puts in place of the pot core's duty stage and the chain's tap. */
@@ -182,6 +192,7 @@ export function rampOffer(
 ): RampOffer | null {
   const v = timing.values;
   if (tap.follower !== undefined || v.crossBleed_ohm !== undefined || ctx.coreRail !== undefined) return null;
+  if (spec.targets.pwm_Hz < RAMP_OFFER_BARE_CORE_MIN_HZ && v.startNet !== true) return null;
   if (plan.need.kind !== "base-current" || !plan.need.inverting) return null;
   const need = plan.need;
   const q = spec.devices.timing_npn as BjtClass;
@@ -205,10 +216,15 @@ export function rampOffer(
     vbeOn(q, t_C) + (db === undefined ? 0 : diodeClassVf_V(db, (vcc - 1.3) / rB, t_C));
   const rRampLoad = Math.max(10 * rC, 4700);
   const cTol = ctx.cTol;
-  // Collector A of the core with its base resistors and timing capacitors at multipliers `m`.
+  // Collector A of the core with its base resistors and timing capacitors at multipliers `m`. With the
+  // start network (start-network.ts) its divider loads whichever collector is high (core-model.ts
+  // startNetAt, the one relation startNetLoad): the core's half-periods and the ramp's source both see it.
   const coreWith = (vcc: number, t_C: number, m: CoreTols): RampCore => {
     const vSat = vceSat(q, vcc / rC);
-    const load = { v_V: vcc / 2, r_ohm: rRampLoad };
+    const startLoad = startNetAt(v, q, ctx.spec.devices.signal_diode as DiodeClass, { vcc_V: vcc, t_C, ...NOMINAL_K });
+    const rampLoad = { v_V: vcc / 2, r_ohm: rRampLoad };
+    const load = startLoad === undefined ? rampLoad : parallelLoads(rampLoad, startLoad);
+    const src = collectorThevenin(vcc, rC, startLoad);
     const c = evaluateCore({
       vcc_V: vcc,
       vOn_V: vOn(vcc, t_C),
@@ -225,8 +241,8 @@ export function rampOffer(
     return {
       tHigh_s: c.tAoff_s,
       tLow_s: c.tBoff_s,
-      vSrcHigh_V: vcc,
-      rSrcHigh_ohm: rC,
+      vSrcHigh_V: src.v_V,
+      rSrcHigh_ohm: src.r_ohm,
       vSat_V: vSat,
       cT_F: v.c_F,
       rail_V: vcc,

@@ -35,12 +35,12 @@ import type { Corner, SimCorner } from "../../model/corners.ts";
  * RC smooths the supply's rise, the collector passes the threshold slowly and the detector settles in its
  * own balance, collector A half on: the coverage grid's 36 V, 100 Hz railed follower core, which starts
  * without it). On the cross-returned core a turnover can park the returning collector below the threshold
- * (turnoverBelow_s): the release check reads it, and the delay grows to outlast it (crossMemory).
+ * (turnoverBelow_s): the release check reads it, and the delay grows to outlast it (steppedMemory).
  */
 export function startNetWanted(ctx: Ctx, tap: TapDesign, opts: { cross?: boolean; noStartNet?: boolean }): boolean {
   if (opts.noStartNet === true) return false;
   if (ctx.spec.load_kind === "solenoid" || ctx.coreRail !== undefined) return false;
-  return opts.cross === true || tap.follower !== undefined;
+  return opts.cross === true || tap.follower !== undefined || ctx.spec.rampCore === true;
 }
 
 /**
@@ -65,12 +65,26 @@ export interface StartNetValues {
   vHighA_V: number;
 }
 
-/** RK5 for the core evaluated at nominal (the level the netlist's start puts collector A at). */
-export function startNetValues(nominalMid: CoreEval): StartNetValues {
+/**
+ * RK5 for the core evaluated at nominal (the level the netlist's start puts collector A at); CKM by
+ * startMemoryCap_F unless `cMem_F` is given (a ramp core's step, fitStartNet).
+ */
+export function startNetValues(nominalMid: CoreEval, cMem_F?: number): StartNetValues {
   const vHighA_V = nominalMid.timing.collectorHighA_V;
   const rSet_ohm = startThresholdE24_ohm(START_NET.thresholdShare * vHighA_V);
-  return { rSet_ohm, cMem_F: startMemoryCap_F(1 / nominalMid.f_Hz), vTh_V: startThreshold_V(rSet_ohm), vHighA_V };
+  const c = cMem_F ?? startMemoryCap_F(1 / nominalMid.f_Hz);
+  return { rSet_ohm, cMem_F: c, vTh_V: startThreshold_V(rSet_ohm), vHighA_V };
 }
+
+/**
+ * The ramp stage's fixed core (ramp-offer.ts rampCoreSpec) may take CKM up the E12 series to this multiple
+ * of startMemoryCap_F's where the release check refuses that one (ours, measured: docs/method.md, "The
+ * start network on the stage's fixed core"). Its plain collectors rise with R_C·C: on the 24 / 27.6 V
+ * cores at 4 kHz the check's km peak came out 0.51 V against a 0.47 V hot cut-in with 10 nF (native
+ * ngspice at that point: 0.36 V, the running core's duty and frequency as predicted); 12 and 15 nF
+ * lower the checked rise by a sixth and a third, and every such core then starts cold in the proof's deck.
+ */
+export const RAMP_CORE_MEM_MAX = 1.5;
 
 /**
  * How long a rising collector stays below the level `thr_V` after its transistor turns off, s: the
@@ -235,7 +249,7 @@ export function fitStartNet(
   out: { parts: Part[]; problems: DesignProblem[]; checks: StressCheck[] },
 ): boolean {
   if (v.startNet !== true) return true;
-  const sn = crossMemory(ctx, dev, v, startNetValues(at.nominalMid), at.corners);
+  const sn = steppedMemory(ctx, dev, v, startNetValues(at.nominalMid), at.corners);
   if (sn === undefined) return false;
   const iBasePk_A = (2 * ctx.vMax_V - at.nominalMid.vOn_V) / (Math.min(v.rEndA_ohm, v.rEndB_ohm) * (1 - ctx.rTol));
   startNetParts(ctx, dev, sn, iBasePk_A, out);
@@ -243,12 +257,14 @@ export function fitStartNet(
 }
 
 /**
- * The network's values that pass its running checks, or undefined. On the cross-returned core a turnover
- * can park the returning collector below the threshold for tens of µs (turnoverBelow_s), longer than the
- * delay CKM gives: there CKM climbs in E12 steps up to START_CROSS_MEM_MAX_F until the release check passes
- * (the start itself measured with the larger values: docs/method.md, "Start network").
+ * The network's values that pass its running checks, or undefined. Where the check refuses the delay
+ * startMemoryCap_F gives, CKM climbs in E12 steps until it passes, on two cores only: the cross-returned
+ * core, where a turnover can park the returning collector below the threshold for tens of µs
+ * (turnoverBelow_s), up to START_CROSS_MEM_MAX_F; the ramp stage's fixed core, whose plain collectors rise
+ * with R_C·C, up to RAMP_CORE_MEM_MAX times the first value (each start measured with the larger values:
+ * docs/method.md, "Start network" and "The start network on the stage's fixed core").
  */
-function crossMemory(
+function steppedMemory(
   ctx: Ctx,
   dev: { q: BjtClass; db: DiodeClass },
   v: CoreValues,
@@ -257,8 +273,14 @@ function crossMemory(
 ): StartNetValues | undefined {
   const passes = (x: StartNetValues): boolean => startNetProblems(ctx, dev.q, dev.db, v, x, corners).length === 0;
   if (passes(sn)) return sn;
-  if (v.crossBleed_ohm === undefined) return undefined;
-  for (const cMem_F of seriesBetween(sn.cMem_F * 1.01, START_CROSS_MEM_MAX_F, "E12")) {
+  const cMax_F =
+    v.crossBleed_ohm !== undefined
+      ? START_CROSS_MEM_MAX_F
+      : ctx.spec.rampCore === true
+        ? sn.cMem_F * RAMP_CORE_MEM_MAX * 1.001
+        : undefined;
+  if (cMax_F === undefined) return undefined;
+  for (const cMem_F of seriesBetween(sn.cMem_F * 1.01, cMax_F, "E12")) {
     const x = { ...sn, cMem_F };
     if (passes(x)) return x;
   }

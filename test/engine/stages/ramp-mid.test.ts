@@ -37,7 +37,9 @@ const PERIODS = 60;
 // of its own (the published deck's pair gain 113 and 102 where the class gives ≥ 300 at its tail).
 const CASES = [
   { file: "grid-5000hz-5-95.json", v: 12, a: 0.05, kind: "resistive", rC: 9100, rRamp: 100_000 },
-  { file: "grid-5000hz-5-95.json", v: 9, a: 0.05, kind: "resistive", rC: 5600, rRamp: 56_000 },
+  // With the fixed core's start network (its divider's load in the core search) the 9 V core sizes on
+  // R_C 9.1 kΩ (5.6 kΩ / 56 kΩ before, measured 0.470 against 0.471).
+  { file: "grid-5000hz-5-95.json", v: 9, a: 0.05, kind: "resistive", rC: 9100, rRamp: 100_000 },
 ] as const;
 
 describe("the ramp stage's duty at control ½ on grid cores (native ngspice)", () => {
@@ -68,7 +70,9 @@ describe("the ramp stage's duty at control ½ on grid cores (native ngspice)", (
         expect(bf).toBeGreaterThan(250);
         const half = spec.supply_V / 2;
         const tran = /^\.tran (\S+) (\S+) 0 (\S+) uic$/m.exec(netlist)!;
-        const long = netlist.replace(tran[0], `.tran ${tran[1]} ${PERIODS / spec.targets.pwm_Hz} 0 ${tran[3]} uic`);
+        // Without `uic` (as the verifier's decks, src/verify/deck.ts simDeck): the operating point holds the
+        // `.ic`, and the fixed core's start network (its detector node) starts from its own balance.
+        const long = netlist.replace(tran[0], `.tran ${tran[1]} ${PERIODS / spec.targets.pwm_Hz} 0 ${tran[3]}`);
         const deck = withStatements(setCtrl(long, 0.5), [
           `Bdtap dtap 0 V=u(v(tap)-${half})`,
           ".control",
