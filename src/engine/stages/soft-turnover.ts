@@ -10,7 +10,7 @@
  * d_r = I_BY·t_e/C = (1 + n_D)·V_T·I_BY/I_RX. From there the edge needs about one more e-fold (the
  * regeneration itself and the on side's storage) before the other collector rises. The collector
  * therefore sits more than `margin` below its high level for t_e·(ln(d_r/margin) + 1) (derived, the one
- * e-fold fitted; measured in native ngspice, docs/method.md: within −31 … +40 % on seven 5–12 V follower
+ * e-fold fitted; measured in native ngspice, docs/method.md: within −33 … +43 % on seven 5–12 V follower
  * cores at control 0 and 1). Pure functions.
  */
 
