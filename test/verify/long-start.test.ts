@@ -70,16 +70,16 @@ describe("a core slow to start from the kick, measured (embedded ngspice)", () =
     expect(Math.abs(got("duty_min") - want("duty_min"))).toBeLessThan(0.05);
   });
 
-  // Since the core carries the start network with its series base diodes (2026-12-05), it stops at
-  // control 1 (simulated 1.0 against 0.942 predicted). Traced in native ngspice (docs/verification.md,
-  // "A core slow to start from the kick"): not the power PNP's storage (2.2 µs), but a soft turnover — the
-  // off timing transistor's base, fed through R_BA = 107 kΩ, comes on so slowly against the other side's
-  // 7.5 kΩ feed that the coupled edge cannot pull that side out of saturation; collector A sinks past the
-  // network's threshold and the network's hold transistor takes base A's current: the core rests with
-  // collector A at 1.96 V. Without the network the same deck runs (885 Hz, duty 0.958). The engine does not
-  // model the soft turnover yet; the verifier reads it, so the catalogue refuses the variant; this pins it.
-  it("reads the load fully on at control 1 (a soft turnover parks the core in the network's balance)", () => {
+  // Since the core carries the start network with its series base diodes (2026-12-05) a soft turnover at
+  // control 1 (side A's base fed through R_BA = 107 kΩ against side B's 7.5 kΩ) holds collector A below the
+  // network's threshold for ≈ 74 µs (native ngspice), long enough for the 1 ms delay (10 nF) to let the hold
+  // transistor stall the turnover (simulated 1.0 against 0.942 predicted). The release check now reads that
+  // turnover (soft-turnover.ts, docs/method.md "The soft turnover on the follower core") and the engine gives
+  // the network 27 nF: measured in native ngspice 894 Hz and 0.958 at control 1 (978 Hz, 0.942 predicted).
+  it("reads duty and frequency at control 1 within the comparison's bands (the delay outlasts the turnover)", () => {
     if (!m.ok) throw new Error(m.message);
-    expect(got("duty_max")).toBeGreaterThan(want("duty_max") + 0.05);
+    expect(Math.abs(got("duty_max") - want("duty_max"))).toBeLessThan(0.05);
+    const f1 = got("frequency_ctrl1");
+    expect(Math.abs(f1 / want("frequency_nominal") - 1)).toBeLessThan(0.1);
   });
 });

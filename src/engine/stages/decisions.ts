@@ -297,9 +297,10 @@ function startNetDecision(circuit: CircuitModel): DesignDecision | undefined {
   const core = follower ? "follower core" : ramp ? "fixed ≈ 50 % core under the ramp stage" : "cross-returned core";
   const cMem_F = parts.find((p) => p.role === "CK_MEM")?.value ?? 0;
   // On the ramp stage's core CKM may step up (start-network.ts RAMP_CORE_MEM_MAX); on the cross-returned
-  // core further, past a turnover's dwell (start-network.ts crossMemory).
+  // follower and cross-returned cores further, past a turnover (start-network.ts steppedMemory).
   const delay = follower
-    ? "(at most the longer of 1 ms and the period)"
+    ? "(the longer of 1 ms and the period, longer still where a slow turnover at the control's ends holds a " +
+      "collector below the threshold: up to 10 ms)"
     : ramp
       ? "(at most the longer of 1 ms and the period, or up to 1.5 ms where a running edge would reach it)"
       : "(the longer of 1 ms and the period, longer still where a turnover parks the returning collector " +

@@ -21,6 +21,9 @@ import {
 } from "../shared/start-network.ts";
 import { thresholdDelay_s } from "./astable.ts";
 import { returnHold, returnLevel_V, turnoverDwell_s } from "./cross-bleed.ts";
+import { softTurnoverBelow_s } from "./soft-turnover.ts";
+import { diodeClassLaw } from "../shared/diode.ts";
+import { thermalVoltage_V } from "../shared/temperature.ts";
 import type { Ctx } from "./context.ts";
 import { type CoreEval, type CoreValues, NOMINAL_K, cutIn_V, diodeVf_V, evalCore } from "./core-model.ts";
 import { capRating_V } from "./timing-parts.ts";
@@ -35,7 +38,9 @@ import type { Corner, SimCorner } from "../../model/corners.ts";
  * RC smooths the supply's rise, the collector passes the threshold slowly and the detector settles in its
  * own balance, collector A half on: the coverage grid's 36 V, 100 Hz railed follower core, which starts
  * without it). On the cross-returned core a turnover can park the returning collector below the threshold
- * (turnoverBelow_s): the release check reads it, and the delay grows to outlast it (steppedMemory).
+ * (turnoverBelow_s), on the follower core a soft turnover at the control's ends can hold the turning-on
+ * collector below it (followerTurnoverBelow_s): the release check reads both, and the delay grows to outlast
+ * them (steppedMemory).
  */
 export function startNetWanted(ctx: Ctx, tap: TapDesign, opts: { cross?: boolean; noStartNet?: boolean }): boolean {
   if (opts.noStartNet === true) return false;
@@ -112,7 +117,9 @@ function riseBelow_s(e: CoreEval, side: "A" | "B", c_F: number, thr_V: number): 
  * the returning collector parks at V_ret (cross-bleed.ts returnLevel_V) while the on side stays saturated
  * on R_D's current (returnHold), for the on side's base node's recovery (turnoverDwell_s); only a V_ret
  * below `thr_V` counts. The longest over both sides, the returning side at its minimum and its maximum
- * gain (the on side at its maximum, as the hold limit reads it: cross-checks.ts). 0 on other cores.
+ * gain (the on side at its maximum, as the hold limit reads it: cross-checks.ts). On the follower core the
+ * soft turnover's time instead (followerTurnoverBelow_s: another mechanism, the turning-on transistor's slow
+ * rise against the on side's base feed); 0 on other cores.
  */
 export function turnoverBelow_s(
   v: CoreValues,
@@ -124,7 +131,7 @@ export function turnoverBelow_s(
   thr_V: number,
 ): number {
   const rD = v.crossBleed_ohm;
-  if (rD === undefined) return 0;
+  if (rD === undefined) return followerTurnoverBelow_s(v, db, e, k, ctrl, thr_V);
   const t = e.timing;
   const vBe = vbeOn(q, k.t_C);
   const rBA = v.rEndA_ohm * k.kEndA + v.pot_ohm * k.kPot * ctrl;
@@ -163,10 +170,47 @@ export function turnoverBelow_s(
 }
 
 /**
+ * On the follower core, how long a collector sits below the level `thr_V` at a soft turnover, s
+ * (soft-turnover.ts): the side that turns on, fed through its base resistor alone, comes on slowly against
+ * the on side's base feed, and its collector sinks quasi-statically before the edge regenerates. The longest over both
+ * sides; the margin is the collector's high level less `thr_V`. 0 on other cores and without series base
+ * diodes (the network is fitted with them only).
+ */
+export function followerTurnoverBelow_s(
+  v: CoreValues,
+  db: DiodeClass,
+  e: CoreEval,
+  k: Corner,
+  ctrl: number,
+  thr_V: number,
+): number {
+  if (e.follower === undefined || !v.diodes) return 0;
+  const t = e.timing;
+  const rBA = v.rEndA_ohm * k.kEndA + v.pot_ohm * k.kPot * ctrl;
+  const rBB = v.rEndB_ohm * k.kEndB + v.pot_ohm * k.kPot * (1 - ctrl);
+  const nVt_V = (1 + diodeClassLaw(db).n) * thermalVoltage_V(k.t_C);
+  const vbeF = t.collectorHighA_V - t.vHighA_V;
+  let worst = 0;
+  for (const side of ["A", "B"] as const) {
+    const a = side === "A";
+    const p = {
+      // X's base node is charged through the other side's capacitor.
+      c_F: v.c_F * (a ? k.kCB : k.kCA),
+      iRise_A: (k.vcc_V - e.vCutIn_V) / (a ? rBA : rBB),
+      iOnFeed_A: (k.vcc_V - e.vOn_V) / (a ? rBB : rBA),
+      nVt_V,
+    };
+    const vHigh = a ? t.collectorHighA_V : t.vHighB_V + vbeF;
+    worst = Math.max(worst, softTurnoverBelow_s(p, vHigh - thr_V));
+  }
+  return worst;
+}
+
+/**
  * The two running checks, at the supply's and the ambient's ends and the control's ends:
  *  - `start-network-release`: km's peak over an edge's both-low instant (startMemoryPeak_V, t_low the
- *    rising collector's way to V_th + V_F of DK, and on the cross-returned core the turnover's dwell below
- *    it, turnoverBelow_s) stays below QK1's cut-in, hot;
+ *    rising collector's way to V_th + V_F of DK, and the turnover's time below it on the cross-returned and
+ *    the follower core, turnoverBelow_s) stays below QK1's cut-in, hot;
  *  - `start-network-sense`: with the lower high collector, cold, QK2 keeps an overdrive ≥ 1.5 (its base
  *    current (kh − V_BE)/RK2 − V_BE/RK5, kh = V_C,high − V_F) so km stays at V_CE(sat) while the core runs.
  */
@@ -192,7 +236,7 @@ export function startNetProblems(
     const e = evalCore(v, q, db, corner, ctrl);
     const vF = diodeVf_V(db, vcc_V / (START_NET.rOr_ohm / 2), t_C);
     const thr = sn.vTh_V + vF;
-    // A cross-returned core's turnover may park the returning collector below the threshold first.
+    // A cross-returned core's turnover, or a follower core's soft one, may hold a collector below the threshold first.
     const tLow =
       Math.max(riseBelow_s(e, "A", v.c_F, thr), riseBelow_s(e, "B", v.c_F, thr)) +
       turnoverBelow_s(v, q, db, e, corner, ctrl, thr);
@@ -258,11 +302,13 @@ export function fitStartNet(
 
 /**
  * The network's values that pass its running checks, or undefined. Where the check refuses the delay
- * startMemoryCap_F gives, CKM climbs in E12 steps until it passes, on two cores only: the cross-returned
- * core, where a turnover can park the returning collector below the threshold for tens of µs
- * (turnoverBelow_s), up to START_CROSS_MEM_MAX_F; the ramp stage's fixed core, whose plain collectors rise
- * with R_C·C, up to RAMP_CORE_MEM_MAX times the first value (each start measured with the larger values:
- * docs/method.md, "Start network" and "The start network on the stage's fixed core").
+ * startMemoryCap_F gives, CKM climbs in E12 steps until it passes: on the cross-returned core, where a
+ * turnover can park the returning collector below the threshold for tens of µs (turnoverBelow_s), and on
+ * the follower core, where a soft turnover can hold the turning-on collector below it as long
+ * (followerTurnoverBelow_s), up to START_CROSS_MEM_MAX_F; on the ramp stage's fixed core, whose plain
+ * collectors rise with R_C·C, up to RAMP_CORE_MEM_MAX times the first value (each start measured with the
+ * larger values: docs/method.md, "Start network", "The soft turnover on the follower core" and "The start
+ * network on the stage's fixed core"; the cold-start proof still reads every variant).
  */
 function steppedMemory(
   ctx: Ctx,
@@ -273,13 +319,7 @@ function steppedMemory(
 ): StartNetValues | undefined {
   const passes = (x: StartNetValues): boolean => startNetProblems(ctx, dev.q, dev.db, v, x, corners).length === 0;
   if (passes(sn)) return sn;
-  const cMax_F =
-    v.crossBleed_ohm !== undefined
-      ? START_CROSS_MEM_MAX_F
-      : ctx.spec.rampCore === true
-        ? sn.cMem_F * RAMP_CORE_MEM_MAX * 1.001
-        : undefined;
-  if (cMax_F === undefined) return undefined;
+  const cMax_F = ctx.spec.rampCore === true ? sn.cMem_F * RAMP_CORE_MEM_MAX * 1.001 : START_CROSS_MEM_MAX_F;
   for (const cMem_F of seriesBetween(sn.cMem_F * 1.01, cMax_F, "E12")) {
     const x = { ...sn, cMem_F };
     if (passes(x)) return x;
@@ -288,7 +328,8 @@ function steppedMemory(
 }
 
 /**
- * The largest delay capacitor CKM on a cross-returned core, F (τ = RK3·CKM = 10 ms): the largest value the
+ * The largest delay capacitor CKM on a cross-returned or follower core that needs a longer one, F
+ * (τ = RK3·CKM = 10 ms): the largest value the
  * network was measured to start cores with (shared/start-network.ts startMemoryCap_F; docs/method.md).
  */
 export const START_CROSS_MEM_MAX_F = 100e-9;
