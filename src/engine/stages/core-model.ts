@@ -146,6 +146,20 @@ export interface CoreEval {
 export const FOLLOWER_I_MIN_A = 1e-3;
 
 /**
+ * Side A's base resistance at one corner and control position: its end stop and the pot's share that the
+ * control gives it (the control raises R_BA), each at the corner's tolerance. Scalars, so the hot path
+ * allocates nothing.
+ */
+export function baseResistanceA_ohm(v: CoreValues, k: Corner, ctrl: number): number {
+  return v.rEndA_ohm * k.kEndA + v.pot_ohm * k.kPot * ctrl;
+}
+
+/** Side B's base resistance at one corner and control position (baseResistanceA_ohm's other side). */
+export function baseResistanceB_ohm(v: CoreValues, k: Corner, ctrl: number): number {
+  return v.rEndB_ohm * k.kEndB + v.pot_ohm * k.kPot * (1 - ctrl);
+}
+
+/**
  * The followers at one corner: V_BE(on) and the minimum gain of the timing transistor class (the
  * followers are the same small-signal NPN) at the tapped follower's load current; each diode's
  * drop at the base-resistor current it carries while its side saturates (D_FA carries R_BB's
@@ -203,8 +217,8 @@ function makePrefix(v: CoreValues, q: BjtClass, db: DiodeClass, k: Corner, ctrl:
   const rCB = v.rC_ohm * k.kRCB;
   const iC = k.vcc_V / Math.min(rCA, rCB);
   const vSat_V = vceSat(q, iC);
-  const rBA = v.rEndA_ohm * k.kEndA + v.pot_ohm * k.kPot * ctrl;
-  const rBB = v.rEndB_ohm * k.kEndB + v.pot_ohm * k.kPot * (1 - ctrl);
+  const rBA = baseResistanceA_ohm(v, k, ctrl);
+  const rBB = baseResistanceB_ohm(v, k, ctrl);
   const iB = k.vcc_V / Math.max(rBA, rBB);
   const vOn_V = vbeOn(q, k.t_C) + (v.diodes ? diodeVf_V(db, iB, k.t_C) : 0);
   const tapA = !v.inverting;

@@ -25,7 +25,16 @@ import { softTurnoverBelow_s } from "./soft-turnover.ts";
 import { diodeClassLaw } from "../shared/diode.ts";
 import { thermalVoltage_V } from "../shared/temperature.ts";
 import type { Ctx } from "./context.ts";
-import { type CoreEval, type CoreValues, NOMINAL_K, cutIn_V, diodeVf_V, evalCore } from "./core-model.ts";
+import {
+  type CoreEval,
+  type CoreValues,
+  NOMINAL_K,
+  baseResistanceA_ohm,
+  baseResistanceB_ohm,
+  cutIn_V,
+  diodeVf_V,
+  evalCore,
+} from "./core-model.ts";
 import { capRating_V } from "./timing-parts.ts";
 import type { TapDesign } from "./tap.ts";
 import type { Corner, SimCorner } from "../../model/corners.ts";
@@ -134,8 +143,8 @@ export function turnoverBelow_s(
   if (rD === undefined) return followerTurnoverBelow_s(v, db, e, k, ctrl, thr_V);
   const t = e.timing;
   const vBe = vbeOn(q, k.t_C);
-  const rBA = v.rEndA_ohm * k.kEndA + v.pot_ohm * k.kPot * ctrl;
-  const rBB = v.rEndB_ohm * k.kEndB + v.pot_ohm * k.kPot * (1 - ctrl);
+  const rBA = baseResistanceA_ohm(v, k, ctrl);
+  const rBB = baseResistanceB_ohm(v, k, ctrl);
   let worst = 0;
   for (const side of ["A", "B"] as const) {
     const a = side === "A";
@@ -186,8 +195,8 @@ export function followerTurnoverBelow_s(
 ): number {
   if (e.follower === undefined || !v.diodes) return 0;
   const t = e.timing;
-  const rBA = v.rEndA_ohm * k.kEndA + v.pot_ohm * k.kPot * ctrl;
-  const rBB = v.rEndB_ohm * k.kEndB + v.pot_ohm * k.kPot * (1 - ctrl);
+  const rBA = baseResistanceA_ohm(v, k, ctrl);
+  const rBB = baseResistanceB_ohm(v, k, ctrl);
   const nVt_V = (1 + diodeClassLaw(db).n) * thermalVoltage_V(k.t_C);
   const vbeF = t.collectorHighA_V - t.vHighA_V;
   let worst = 0;
