@@ -244,3 +244,19 @@ export const CORE_SEARCH_SAMPLE: SpecOpts[] = [
   },
   { supply_V: 12, chain: "bjt-driver-pnp", load_kind: "lamp", pwm_Hz: 1000, load_A: 0.5 },
 ];
+
+/**
+ * A 5 V lamp dimmer on a power bank (±5 %), 0.25 A, 1 kHz, 10–90 %, NPN driver + power PNP (a record of our
+ * own, invented numbers): the core slow to start from the kick (test/verify/long-start.test.ts) and the soft
+ * turnover at control 1 (test/engine/stages/soft-turnover.test.ts).
+ */
+export const POWER_BANK_LAMP: SpecOpts = {
+  supply_V: 5,
+  load_A: 0.25,
+  chain: "bjt-driver-pnp",
+  load_kind: "lamp",
+  pwm_Hz: 1000,
+  duty: [0.1, 0.9],
+  ambient_C: [5, 35],
+  supply_tolerance: 0.05,
+};

@@ -20,18 +20,9 @@ import {
   longStartPlan,
   planFor,
 } from "../../src/verify/runs.ts";
-import { library, makeSpec } from "../engine/fixtures.ts";
+import { library, makeSpec, POWER_BANK_LAMP } from "../engine/fixtures.ts";
 
-const spec = makeSpec({
-  supply_V: 5,
-  load_A: 0.25,
-  chain: "bjt-driver-pnp",
-  load_kind: "lamp",
-  pwm_Hz: 1000,
-  duty: [0.1, 0.9],
-  ambient_C: [5, 35],
-  supply_tolerance: 0.05,
-});
+const spec = makeSpec(POWER_BANK_LAMP);
 const sized = sizeVariant(spec);
 const target = targetFromSized(sized);
 const netlist = renderVariantViews(sized, library()).netlist;

@@ -17,6 +17,7 @@ import {
 import { sizeVariant, tapAndTiming } from "../../../src/engine/size.ts";
 import { CHAIN_PLANNERS } from "../../../src/engine/stages/chains/index.ts";
 import { NOMINAL_TEMP_C } from "../../../src/engine/shared/temperature.ts";
+import { START_NET_ROLES } from "../../../src/model/part-roles.ts";
 import { makeContext } from "../../../src/engine/stages/context.ts";
 import { NOMINAL_K, diodeVf_V, evalCore } from "../../../src/engine/stages/core-model.ts";
 import {
@@ -33,7 +34,7 @@ import { renderVariantViews } from "../../../src/render/variant.ts";
 import { startNgspice } from "../../../src/verify/engines/ngspice.ts";
 import type { BjtClass, DiodeClass } from "../../../src/model/device.ts";
 import { hasNgspice } from "../../render/ngspice.ts";
-import { library, makeSpec } from "../fixtures.ts";
+import { library, makeSpec, POWER_BANK_LAMP } from "../fixtures.ts";
 
 describe("the soft turnover's relation (derived, hand arithmetic)", () => {
   // The lamp below at control 1, nominal: C 33 nF, I_RX 37.4 µA, I_BY 482 µA, (1 + 1.8)·25.69 mV.
@@ -54,19 +55,9 @@ describe("the soft turnover's relation (derived, hand arithmetic)", () => {
 });
 
 // A 5 V lamp dimmer on a power bank (±5 %), 0.25 A, 1 kHz, 10–90 %: the case test/verify/long-start.test.ts reads.
-const spec = makeSpec({
-  supply_V: 5,
-  load_A: 0.25,
-  chain: "bjt-driver-pnp",
-  load_kind: "lamp",
-  pwm_Hz: 1000,
-  duty: [0.1, 0.9],
-  ambient_C: [5, 35],
-  supply_tolerance: 0.05,
-});
+const spec = makeSpec(POWER_BANK_LAMP);
 const lamp = sizeVariant(spec);
 const part = (role: string) => lamp.circuit!.parts.find((p) => p.role === role);
-const NET_ROLES = ["DK_A", "DK_B", "RK_OR", "RK_DIV", "RK_SET", "QK_SENSE", "RK_MEM", "CK_MEM", "RK_HOLD", "QK_HOLD"];
 const ctx = makeContext(lamp.spec);
 const q = ctx.spec.devices.timing_npn as BjtClass;
 const db = ctx.spec.devices.signal_diode as DiodeClass;
@@ -94,7 +85,7 @@ describe("the lamp's network (the engine's choice)", () => {
 /** The deck at control `ctrl`, `periods` long, with the network's delay `cMem` or without the network. */
 function deckAt(ctrl: number, periods: number, cMem: string | null): string {
   let nl = setCtrl(renderVariantViews(lamp, library(), { schematic: false }).netlist, ctrl);
-  const refs = NET_ROLES.map((r) => part(r)!.ref);
+  const refs = START_NET_ROLES.map((r) => part(r)!.ref);
   if (cMem === null)
     nl = nl
       .split("\n")
