@@ -12,7 +12,9 @@
  * (REFERENCE_PLAN below; the pull-in and end runs keep their own plans): the yardstick a shorter
  * plan's settling is proven against (docs/verification.md, "Third pass"). `--plan JSON` lays fields
  * over the run plan (e.g. `--plan '{"preparatoryPeriods":4}'`), to measure a change to it before
- * making it (docs/verification.md, "Fourth pass").
+ * making it (docs/verification.md, "Fourth pass"). The cold-start runs are made as the build makes
+ * them, one pair per distinct timing core and chain (src/verify/cold-share.ts); `--cold-own` runs
+ * every variant's own pair instead (the plan before the sharing), `--cold-only` the cold runs alone.
  */
 import { writeFileSync } from "node:fs";
 import { loadavg } from "node:os";
@@ -20,6 +22,8 @@ import { startEngine } from "../src/verify/engines/index.ts";
 import type { SpiceEngine } from "../src/verify/engines/types.ts";
 import { measureVariant, type Measured } from "../src/verify/plan.ts";
 import { planOf } from "../src/verify/verify.ts";
+import { measureColdTask, ownColdTask, shareColdStarts, type ColdTask } from "../src/verify/cold-share.ts";
+import { coldStartApplies } from "../src/verify/cold-start.ts";
 import { cornerDecks } from "../src/verify/corner-deck.ts";
 import {
   DEFAULT_RUN_PLAN,
@@ -130,20 +134,40 @@ let current = "";
 let currentF_Hz = 0;
 const engine = profiled(await startEngine("eecircuit-engine"), records, () => ({ id: current, f_Hz: currentF_Hz }));
 const measured: Record<string, Measured> = {};
+const coldOnly = process.argv.includes("--cold-only");
+const coldOwn = process.argv.includes("--cold-own");
 const la0 = loadavg()[0]!;
 const c0 = process.cpuUsage();
 const w0 = performance.now();
-for (const r of jobs) {
+const candidates: { id: string; netlist: string; target: NonNullable<ReturnType<typeof targetOf>> }[] = [];
+function targetOf(r: (typeof jobs)[number]) {
   const plan = planOf(r.sized);
-  if ("skipped" in plan) continue;
+  return "skipped" in plan ? null : plan.target;
+}
+for (const r of jobs) {
+  const found = targetOf(r);
+  if (found === null) continue;
   current = r.sized.spec.id;
-  currentF_Hz = 1 / plan.target.period_s;
+  currentF_Hz = 1 / found.period_s;
+  candidates.push({ id: current, netlist: r.netlist, target: found });
+  if (coldOnly) continue;
   const corners = cornerDecks(r.sized, devices);
-  const target = { ...plan.target, ...(corners.length > 0 ? { corners } : {}) };
+  const target = { ...found, ...(corners.length > 0 ? { corners } : {}) };
   const m = await measureVariant(target, r.netlist, engine, runPlan);
   measured[current] = m;
   if (!m.ok) console.log(`FAILED ${current}: ${m.message}`);
 }
+// The cold starts: one task per distinct timing core and chain, as the build runs them (or each variant's own).
+const tasks: ColdTask[] = coldOwn
+  ? candidates.filter((c) => coldStartApplies(c.target)).map((c) => ownColdTask(c.id, c.netlist, c.target))
+  : [...new Map([...shareColdStarts(candidates).values()].map((t) => [t.id, t])).values()];
+for (const t of tasks) {
+  current = t.id;
+  currentF_Hz = 1 / t.period_s;
+  const m = await measureColdTask(t, engine);
+  if (!m.ok) console.log(`FAILED cold start ${current}: ${m.message}`);
+}
+console.log(`cold-start tasks: ${tasks.length} (${coldOwn ? "each variant's own" : "shared per core and chain"})`);
 const cpu = process.cpuUsage(c0);
 const wall_s = (performance.now() - w0) / 1000;
 await engine.close();

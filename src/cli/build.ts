@@ -11,11 +11,10 @@ import { assembleDesign, catalogueHead } from "./pipeline.ts";
 import { cachedJobs, keepJobs } from "./job-cache.ts";
 import { cachedDesign, sizeAndRenderDesign, sizedKey, type StageStats } from "./size-cache.ts";
 import { EarlyWorkers, sizeInWorkers, sizingWorkers } from "./size-pool.ts";
-import { verifyAll, type VerifyJob } from "../verify/pool.ts";
+import { coldTasks, verifyAll, type VerifyJob } from "../verify/pool.ts";
 import { NOMINAL_RUNS } from "../verify/plan.ts";
-import { COLD_RUNS, coldStartApplies } from "../verify/cold-start.ts";
+import { coldRunCount } from "../verify/cold-share.ts";
 import { refusedBySimulation } from "../verify/sim-verdict.ts";
-import { planOf } from "../verify/verify.ts";
 import { progressReporter } from "../verify/progress.ts";
 import { publishedKey, recordPublished } from "./published.ts";
 import { cachedPlot } from "./plot-cache.ts";
@@ -191,11 +190,9 @@ async function buildLoaded(
         (m) => m.preloadTemplateEngine(),
         () => undefined,
       );
-    const cold = (j: VerifyJob): number => {
-      const plan = j.plan ?? planOf(j.sized);
-      return "target" in plan && coldStartApplies(plan.target) ? COLD_RUNS : 0;
-    };
-    runs = jobs.reduce((n, j) => n + NOMINAL_RUNS + (j.corners?.length ?? 0) + cold(j), 0);
+    // The cold starts: one pair per distinct timing core and chain (verify/cold-share.ts).
+    runs =
+      jobs.reduce((n, j) => n + NOMINAL_RUNS + (j.corners?.length ?? 0), 0) + coldRunCount(coldTasks(jobs).values());
     verifications = await verifyAll(jobs, {
       engine: o.spice,
       cacheDir: path.join(o.root, ".cache", "sim"),

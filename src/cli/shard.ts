@@ -90,6 +90,8 @@ export async function runShard(o: ShardOptions): Promise<number> {
     engine: o.spice,
     cacheDir: path.join(o.root, ".cache", "sim"),
     alsoCacheIn: dir,
+    // The cold starts shared among the whole build's jobs, so every shard runs the decks one machine would.
+    coldAmong: jobs,
     ...(o.workers !== undefined ? { workers: o.workers } : {}),
     onProgress: progressReporter(process.stderr),
   });

@@ -112,28 +112,41 @@ export function coldKey(ctrl: number): string {
   return `cold_start_swing_ctrl${ctrl}`;
 }
 
-/** The cold-start runs of a variant: one measurement per control setting (none for a solenoid). */
+/** The cold-start runs of a variant on its own netlist: one measurement per control setting (none for a solenoid). */
 export async function measureColdStart(
   target: VerifyTarget,
   netlist: string,
   engine: SpiceEngine,
 ): Promise<Measurement[]> {
   if (!coldStartApplies(target)) return [];
+  return measureCold(netlist, target.period_s, target.coreRail_V, engine);
+}
+
+/**
+ * The cold-start runs of a netlist at each control setting, timed by `period_s`; the swing is read against
+ * the core rail where there is one (`coreRail_V`), else the supply.
+ */
+export async function measureCold(
+  netlist: string,
+  period_s: number,
+  coreRail_V: number | undefined,
+  engine: SpiceEngine,
+): Promise<Measurement[]> {
   // The core's own supply: on a regulated core rail the collectors swing within the rail, not the supply
   // (measured, native ngspice: a 48 V, 20 Hz railed follower core on its 12 V rail ran from the cold rise with
   // a swing of 0.90 of the rail, 0.23 of the supply, and was read as stuck).
-  const v = target.coreRail_V ?? supplyVoltage(netlist);
+  const v = coreRail_V ?? supplyVoltage(netlist);
   const out: Measurement[] = [];
   for (const ctrl of COLD_CONTROLS) {
-    const res = await coldRun(netlist, target.period_s, ctrl, engine);
+    const res = await coldRun(netlist, period_s, ctrl, engine);
     out.push({
       key: coldKey(ctrl),
       label:
         `Cold start, control ${ctrl}: the smaller timing-collector swing at the end, as a share of the ` +
-        `${target.coreRail_V !== undefined ? "core rail" : "supply"} ` +
+        `${coreRail_V !== undefined ? "core rail" : "supply"} ` +
         `(supply rising from 0 V at ${COLD_RISE_S * 1000} ms for its full value)`,
       unit: "",
-      value: coldSwingShare(res, target.period_s, v),
+      value: coldSwingShare(res, period_s, v),
     });
   }
   return out;
@@ -174,7 +187,10 @@ async function coldRun(netlist: string, period_s: number, ctrl: number, engine: 
  * The cold-start checks: at each control setting run, the core must run (both collectors swinging
  * by more than COLD_SWING_SHARE of the supply). Shown as "runs (1)" against the simulated 1 or 0.
  */
-export function judgeColdStart(measurements: readonly Measurement[]): Comparison[] {
+export function judgeColdStart(
+  measurements: readonly Measurement[],
+  share?: { id: string; shared: number },
+): Comparison[] {
   const out: Comparison[] = [];
   for (const ctrl of COLD_CONTROLS) {
     const m = measurements.find((x) => x.key === coldKey(ctrl));
@@ -185,7 +201,11 @@ export function judgeColdStart(measurements: readonly Measurement[]): Comparison
       label:
         `Starts from a cold supply (0 V to full in ${COLD_RISE_S * 1000} ms), control ${ctrl}: ` +
         `1 the timing core runs, 0 it stays with both transistors on and the load never runs ` +
-        `(collector swing ${(m.value * 100).toFixed(0)} % of the core's supply)`,
+        `(collector swing ${(m.value * 100).toFixed(0)} % of the core's supply` +
+        (share !== undefined && share.shared > 1
+          ? `; run once for the ${share.shared} variants with this timing core and chain, on the heaviest load ` +
+            `among them, ${share.id})`
+          : ")"),
       unit: "",
       predicted: 1,
       simulated: runs,

@@ -201,6 +201,8 @@ export function compare(predicted: Record<string, Predicted>, measurements: read
 export interface CornerBasis {
   corners?: readonly { corner: SimCorner }[];
   ranges?: Readonly<Record<string, [number, number]>>;
+  /** Whose circuit the cold start ran on, when shared (cold-share.ts): said beside its check. */
+  coldShare?: { id: string; shared: number };
 }
 
 /** The published verdict for one variant from its (possibly cached) measurements. */
@@ -220,7 +222,7 @@ export function judge(
       measured.measurements,
       (basis.corners ?? []).map((d) => d.corner),
     ),
-    ...judgeColdStart(measured.measurements),
+    ...judgeColdStart(measured.measurements, basis.coldShare),
   ];
   const v: Verification = { ...base, status: "agree", comparisons, measurements: measured.measurements };
   if (measured.waveforms !== undefined) v.waveforms = measured.waveforms;

@@ -28,10 +28,9 @@ import type { VerifyTarget } from "./target.ts";
 import { SpiceRunError } from "../model/errors.ts";
 import { measurePullIn } from "./pull-in.ts";
 import { measureEnds } from "./end-runs.ts";
-import { measureColdStart } from "./cold-start.ts";
 
 /** Bumped whenever measurement code changes what it reports: part of every cache key. */
-export const MEASURE_CODE_VERSION = "verify-measure-22";
+export const MEASURE_CODE_VERSION = "verify-measure-23";
 
 /** Transients of the nominal plan per variant (ctrl 0.5, 0, 1); corner runs come on top (corner-runs.ts). */
 export const NOMINAL_RUNS = 3;
@@ -70,8 +69,7 @@ export async function measureVariant(
     const corners = await measureCorners(target, engine, plan);
     // The control's ends, where the variant has them: short runs at every place simulated above.
     measurements.push(...(await measureEnds(target, netlist, engine)));
-    // From a cold supply rising at a bench supply's or wall adapter's rate, at the control's ends (cold-start.ts).
-    measurements.push(...(await measureColdStart(target, netlist, engine)));
+    // The cold start (cold-start.ts) is measured apart, once per timing core and chain (cold-share.ts).
     return { ok: true, measurements, waveforms, ...(corners.length > 0 ? { corners } : {}), elapsed_s: elapsed() };
   } catch (err) {
     return { ok: false, message: err instanceof Error ? err.message : String(err), elapsed_s: elapsed() };

@@ -30,6 +30,7 @@ import type { VerifyTarget } from "./target.ts";
 import { planOf, skippedBecause, type JobPlan } from "./verify.ts";
 import type { CornerDeck } from "./corner-deck.ts";
 import type { JobMessage, WorkerReply } from "./worker-main.ts";
+import { coldCacheKey, measureColdTask, shareColdStarts, withCold, type ColdTask } from "./cold-share.ts";
 
 export type VerifyJob = {
   id: string;
@@ -63,15 +64,23 @@ export interface PoolOptions {
    * freshly simulated): one shard's share of the work, gathered later by `merge-cache`.
    */
   alsoCacheIn?: string;
+  /**
+   * The jobs the cold starts are shared among (cold-share.ts), when `jobs` is a share of them (a shard):
+   * every shard then runs the decks the whole build would. Default: `jobs`.
+   */
+  coldAmong?: VerifyJob[];
 }
 
+/** One unit of simulation work: a variant's runs, or a cold task shared by variants (`cold`). */
 interface Pending {
+  /** A job's index, or for a cold task jobs.length + its number. */
   index: number;
   target: VerifyTarget;
   netlist: string;
   key: string;
   /** Runs already lost to a dying worker (0 or 1: a job is retried once). */
   lost: number;
+  cold?: ColdTask;
 }
 
 const WORKER_URL = new URL("./worker.mjs", import.meta.url);
@@ -102,17 +111,64 @@ export async function verifyAll(jobs: VerifyJob[], opts: PoolOptions): Promise<M
     report();
   };
 
+  // The cold starts, one task per distinct timing core and chain (cold-share.ts), and the variants waiting on each.
+  const tasks = coldTasks(opts.coldAmong ?? jobs);
+  const coldMeasured = new Map<string, Measured>();
+  const variantMeasured = new Map<number, { p: Pending; m: Measured }>();
+  const coldOf: ({ key: string; task: ColdTask } | undefined)[] = new Array(jobs.length);
+  const queuedCold = new Set<string>();
+  const judged = (index: number, target: VerifyTarget, key: string, m: Measured): void => {
+    const c = coldOf[index];
+    const share = c !== undefined && c.task.shared > 1 ? { coldShare: { id: c.task.id, shared: c.task.shared } } : {};
+    finish(
+      index,
+      judge(target.predicted, withCold(m, c && coldMeasured.get(c.key), c?.task), eng, key, { ...target, ...share }),
+    );
+  };
+  /** Judges a variant once its own runs and its cold task (if any) are both measured. */
+  const settle = (index: number): void => {
+    const v = variantMeasured.get(index);
+    const c = coldOf[index];
+    if (v === undefined || (c !== undefined && !coldMeasured.has(c.key))) return;
+    variantMeasured.delete(index);
+    judged(index, v.p.target, v.p.key, v.m);
+  };
+  const waiting = new Map<string, number[]>();
+
   jobs.forEach((job, index) => {
     const plan = job.plan ?? planOf(job.sized);
     if ("skipped" in plan) return finish(index, skippedBecause(plan.skipped, eng));
     const found = plan.target;
     const target = job.corners && job.corners.length > 0 ? { ...found, corners: job.corners } : found;
+    const task = tasks.get(job.id);
+    if (task !== undefined) {
+      const key = coldCacheKey(task, eng);
+      coldOf[index] = { key, task };
+      waiting.set(key, [...(waiting.get(key) ?? []), index]);
+      if (!queuedCold.has(key)) {
+        queuedCold.add(key);
+        const hit = readCache(dir, key);
+        if (hit !== null) {
+          coldMeasured.set(key, hit);
+          if (opts.alsoCacheIn !== undefined) writeCache(opts.alsoCacheIn, key, hit);
+        } else
+          pending.push({
+            index: jobs.length + queuedCold.size,
+            target,
+            netlist: task.netlist,
+            key,
+            lost: 0,
+            cold: task,
+          });
+      }
+    }
     const key = cacheKey(job.netlist, eng, target);
     const hit = readCache(dir, key);
     if (hit === null) return void pending.push({ index, target, netlist: job.netlist, key, lost: 0 });
     stats.cached++;
     if (opts.alsoCacheIn !== undefined) writeCache(opts.alsoCacheIn, key, hit);
-    finish(index, judge(target.predicted, hit, eng, key, target));
+    variantMeasured.set(index, { p: { index, target, netlist: job.netlist, key, lost: 0 }, m: hit });
+    settle(index);
   });
 
   let cacheWarned = false;
@@ -129,14 +185,20 @@ export async function verifyAll(jobs: VerifyJob[], opts: PoolOptions): Promise<M
       }
       if (opts.alsoCacheIn !== undefined) writeCache(opts.alsoCacheIn, p.key, m);
     }
+    if (p.cold !== undefined) {
+      coldMeasured.set(p.key, m);
+      for (const i of waiting.get(p.key) ?? []) settle(i);
+      return;
+    }
     stats.fresh++;
-    finish(p.index, judge(p.target.predicted, m, eng, p.key, p.target));
+    variantMeasured.set(p.index, { p, m });
+    settle(p.index);
   };
   const nWorkers = Math.min(opts.workers ?? availableParallelism(), pending.length);
   if (nWorkers <= 0 && pending.length > 0) {
     const engine = await startEngine(name);
     try {
-      for (const p of pending) onMeasured(p, await measureVariant(p.target, p.netlist, engine));
+      for (const p of pending) onMeasured(p, await measureUnit(p, engine));
     } finally {
       await engine.close();
     }
@@ -152,6 +214,20 @@ export async function verifyAll(jobs: VerifyJob[], opts: PoolOptions): Promise<M
 }
 
 type OnMeasured = (p: Pending, m: Measured, store?: boolean) => void;
+
+/** A unit's runs in `engine`: a variant's, or a cold task's. */
+function measureUnit(p: Pending, engine: Awaited<ReturnType<typeof startEngine>>): Promise<Measured> {
+  return p.cold !== undefined ? measureColdTask(p.cold, engine) : measureVariant(p.target, p.netlist, engine);
+}
+
+/** The cold task of every job that gets one (cold-share.ts), by job id. */
+export function coldTasks(jobs: readonly VerifyJob[]): Map<string, ColdTask> {
+  const candidates = jobs.flatMap((job) => {
+    const plan = job.plan ?? planOf(job.sized);
+    return "target" in plan ? [{ id: job.id, netlist: job.netlist, target: plan.target }] : [];
+  });
+  return shareColdStarts(candidates);
+}
 
 /**
  * One worker slot: runs workers one after another while there is work. A job whose worker died is
@@ -210,7 +286,12 @@ function runWorker(
         grace.unref();
         return;
       }
-      const msg: JobMessage = { index: current.index, target: current.target, netlist: current.netlist };
+      const msg: JobMessage = {
+        index: current.index,
+        target: current.target,
+        netlist: current.netlist,
+        ...(current.cold !== undefined ? { cold: current.cold } : {}),
+      };
       w.postMessage(msg);
     };
     w.on("message", (msg: WorkerReply) => {

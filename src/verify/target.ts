@@ -62,6 +62,11 @@ export interface VerifyTarget {
    * the cold start reads the collectors' swing against it (cold-start.ts measureColdStart).
    */
   coreRail_V?: number;
+  /**
+   * Where the cold start was shared (cold-share.ts): the member whose circuit ran it and how many variants
+   * share it. Set by the pool for the judgement only; never part of a cache key.
+   */
+  coldShare?: { id: string; shared: number };
 }
 
 /** Null when the variant has no circuit or no frequency prediction: nothing to simulate. */

@@ -9,6 +9,8 @@ import { judge } from "./compare.ts";
 import type { SpiceEngine } from "./engines/types.ts";
 import { measureVariant } from "./plan.ts";
 import { targetFromSized, type VerifyTarget } from "./target.ts";
+import { coldStartApplies } from "./cold-start.ts";
+import { coldCacheKey, measureColdTask, ownColdTask, withCold } from "./cold-share.ts";
 
 export interface VerifyOptions {
   /** Cache folder; `false` turns the cache off. Default `.cache/sim`. */
@@ -61,5 +63,12 @@ export async function verifyVariant(
   const hit = dir === false ? null : readCache(dir, key);
   const measured = hit ?? (await measureVariant(target, netlist, engine));
   if (hit === null && dir !== false) writeCache(dir, key, measured);
-  return judge(target.predicted, measured, engine, key, target);
+  // One variant alone: its cold start on its own circuit (the pool shares it across variants: pool.ts).
+  if (!coldStartApplies(target)) return judge(target.predicted, measured, engine, key, target);
+  const task = ownColdTask(target.id, netlist, target);
+  const coldKey = coldCacheKey(task, engine);
+  const coldHit = dir === false ? null : readCache(dir, coldKey);
+  const cold = coldHit ?? (await measureColdTask(task, engine));
+  if (coldHit === null && dir !== false) writeCache(dir, coldKey, cold);
+  return judge(target.predicted, withCold(measured, cold, task), engine, key, target);
 }

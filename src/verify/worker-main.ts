@@ -1,19 +1,23 @@
 /**
  * Worker body: starts its engine once, then measures one job per message until asked to close.
- * Protocol: in `{ index, target, netlist }` or `"close"`; out `{ ready }` once the engine runs,
- * `{ index, measured }` per job, or `{ fatal }` when the engine cannot start. On "close" the engine
- * is closed and the worker exits; the pool (pool.ts) handles a worker that dies instead.
+ * Protocol: in `{ index, target, netlist }` (with `cold`: a shared cold task, cold-share.ts) or
+ * `"close"`; out `{ ready }` once the engine runs, `{ index, measured }` per job, or `{ fatal }` when
+ * the engine cannot start. On "close" the engine is closed and the worker exits; the pool (pool.ts)
+ * handles a worker that dies instead.
  */
 import process from "node:process";
 import { parentPort, workerData } from "node:worker_threads";
 import { startEngine, type EngineName } from "./engines/index.ts";
 import { measureVariant, type Measured } from "./plan.ts";
 import type { VerifyTarget } from "./target.ts";
+import { measureColdTask, type ColdTask } from "./cold-share.ts";
 
 export interface JobMessage {
   index: number;
   target: VerifyTarget;
   netlist: string;
+  /** Present: run this cold task instead of the variant's runs. */
+  cold?: ColdTask;
 }
 
 export type WorkerReply = { ready: true } | { fatal: string } | { index: number; measured: Measured };
@@ -29,7 +33,7 @@ try {
       void engine.close().finally(() => process.exit(0));
       return;
     }
-    void measureVariant(msg.target, msg.netlist, engine)
+    void (msg.cold !== undefined ? measureColdTask(msg.cold, engine) : measureVariant(msg.target, msg.netlist, engine))
       .catch((err: unknown): Measured => {
         return { ok: false, message: err instanceof Error ? err.message : String(err), elapsed_s: 0 };
       })
