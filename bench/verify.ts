@@ -17,7 +17,8 @@ import type { SizedVariant } from "../src/model/sized.ts";
 import { startEngine, type EngineName } from "../src/verify/engines/index.ts";
 import { ngspiceAvailable } from "../src/verify/engines/ngspice.ts";
 import { measureVariant } from "../src/verify/plan.ts";
-import { verifyAll, type VerifyJob } from "../src/verify/pool.ts";
+import { coldTasks, verifyAll, type VerifyJob } from "../src/verify/pool.ts";
+import { coldRunCount } from "../src/verify/cold-share.ts";
 import { targetFromSized } from "../src/verify/target.ts";
 import { cornerDecks } from "../src/verify/corner-deck.ts";
 
@@ -117,11 +118,12 @@ export async function benchCatalogue(workerCounts: number[], log: (s: string) =>
     netlist: r.netlist,
     corners: cornerDecks(r.sized, devices),
   }));
-  // Runs per variant: the nominal plan's three, plus one per simulated corner.
-  const runs = jobs.reduce((n, j) => n + SIMS_PER_JOB + j.corners.length, 0);
+  // Runs per variant: the nominal plan's three, plus one per simulated corner; and the cold-start pairs, one per
+  // distinct timing core and chain (src/verify/cold-share.ts), which the pool runs too.
+  const runs = jobs.reduce((n, j) => n + SIMS_PER_JOB + j.corners.length, 0) + coldRunCount(coldTasks(jobs).values());
   log(
     `catalogue: ${jobs.length} feasible variants, ${(runs / Math.max(1, jobs.length)).toFixed(2)} runs per variant ` +
-      `(${SIMS_PER_JOB} nominal + corners); load average ${loadavg()
+      `(${SIMS_PER_JOB} nominal + corners + shared cold starts); load average ${loadavg()
         .map((x) => x.toFixed(2))
         .join(" ")}`,
   );
