@@ -79,8 +79,11 @@ describe(`the ramp stage offered by sizeVariant (${ID}, demo numbers)`, () => {
     expect(rampOffered({ ...v12, targets: { ...v12.targets, pwm_Hz: 500 } }, { ...logic, spec: v12 })).toBe(false);
     expect(rampOffered({ ...v12, supply_V: 5 }, { ...logic, spec: v12 })).toBe(true);
     expect(rampOffered({ ...v12, supply_V: 4.5 }, { ...logic, spec: v12 })).toBe(false);
-    // Not for a winding (never simulated with the stage).
-    expect(rampOffered({ ...v12, load_kind: "motor" }, { ...logic, spec: v12 })).toBe(false);
+    // A motor since the 15 kHz pump ran in agreement (ramp-winding.test.ts); not a solenoid (its pull-in never
+    // simulated with the stage); 15 kHz offered, 20 kHz not (the core's collector duty there).
+    expect(rampOffered({ ...v12, load_kind: "motor" }, { ...logic, spec: v12 })).toBe(true);
+    expect(rampOffered({ ...v12, load_kind: "solenoid" }, { ...logic, spec: v12 })).toBe(false);
+    expect(rampOffered({ ...v12, targets: { ...v12.targets, pwm_Hz: 15_000 } }, { ...logic, spec: v12 })).toBe(true);
     expect(rampCoreSpec(v12).targets).toMatchObject({
       duty_min: RAMP_CORE_DUTY.min,
       duty_max: RAMP_CORE_DUTY.max,
