@@ -10,7 +10,7 @@ import type { StressCheck } from "../../model/derating.ts";
 import { capacitor, diode, resistor, transistor } from "../../circuit/parts.ts";
 import { checkStress } from "../shared/derating.ts";
 import { problem } from "../shared/figures.ts";
-import { hfeMin, vbeOn, vceSat } from "../shared/gain.ts";
+import { hfeMin, vbeOn, vbeSat, vceSat } from "../shared/gain.ts";
 import {
   START_NET,
   holdPath_A,
@@ -241,8 +241,9 @@ export function fitStartNet(
  *    collector on base A carries at most base A's peak feed (2·V_cc,max − V_on)/R_end,min;
  *  - DK_HOLD: forward at most RK3's feed, reverse never (km ≥ kd), rated at V_cc,max as the others;
  *  - RK_MEM: V_cc,max²/RK3 (the latch on); RK_FIRE: km,max²/RK8 (its peak as the latch fires; no steady
- *    current); RK_OR, RK_DIV, RK_SET, RK_LATCH, RK_HOLD, RK_OFF: at most V_cc,max² over each (conservative:
- *    the whole rail across it);
+ *    current); RK_LATCH and RK_OFF: a base–emitter junction's voltage at most, V_BE(sat)² over each (the
+ *    PNP's at the pair's current, QK_HOLD's at base A's feed); RK_OR, RK_DIV, RK_SET, RK_HOLD: at most
+ *    V_cc,max² over each (conservative: the whole rail across it);
  *  - CK_MEM: V_cc,max.
  */
 export function startNetParts(
@@ -312,7 +313,13 @@ export function startNetParts(
     out.checks.push(checkStress(role, "current", i_A, cls.ic_max_A, "A", pol.bjt.current, pol.marginal_above));
   };
   switchQ("QK_SENSE", q, { c: "kp", b: "kb2", e: "0" }, iK);
-  res("RK_LATCH", START_NET.rLatch_ohm, { a: "km", b: "kp" }, "start network: the latch PNP's base–emitter resistor");
+  res(
+    "RK_LATCH",
+    START_NET.rLatch_ohm,
+    { a: "km", b: "kp" },
+    "start network: the latch PNP's base–emitter resistor",
+    vbeSat(qp, iK),
+  );
   switchQ("QK_LATCH", qp, { c: "kb2", b: "kp", e: "km" }, iK);
   res("RK_MEM", START_NET.rMem_ohm, { a: "vbus", b: "km" }, "start network: delay, and the latch's holding current");
   res(
@@ -349,6 +356,7 @@ export function startNetParts(
     START_NET.rOff_ohm,
     { a: "kb1", b: "0" },
     "start network: holds the holding transistor off once latched",
+    vbeSat(q, iBasePk_A),
   );
   switchQ("QK_HOLD", q, { c: "ba", b: "kb1", e: "0" }, iBasePk_A);
 }
