@@ -77,6 +77,7 @@ export interface SolenoidRecord {
 /** Roles a design may bind to a device class. */
 export const DEVICE_ROLES = [
   "timing_npn",
+  "timing_pnp",
   "driver_npn",
   "driver_pnp",
   "power_npn",
@@ -94,6 +95,7 @@ export type DeviceRole = (typeof DEVICE_ROLES)[number];
 /** The device family each role needs (records check it; the engine's chooser relies on it). */
 export const ROLE_FAMILY = {
   timing_npn: "npn",
+  timing_pnp: "pnp",
   driver_npn: "npn",
   power_npn: "npn",
   driver_pnp: "pnp",

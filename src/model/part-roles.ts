@@ -16,9 +16,14 @@ export const START_NET_ROLES = [
   "RK_DIV",
   "RK_SET",
   "QK_SENSE",
+  "RK_LATCH",
+  "QK_LATCH",
   "RK_MEM",
+  "RK_FIRE",
   "CK_MEM",
+  "DK_HOLD",
   "RK_HOLD",
+  "RK_OFF",
   "QK_HOLD",
 ] as const;
 

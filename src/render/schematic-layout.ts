@@ -313,11 +313,13 @@ const FOLLOWER_PULL_IN: Partial<Record<PlacedRole, Slot>> = {
 /**
  * The start network (docs/topologies.md, "Start network") as a small block under the core, drawn for
  * tapped side A (mirrored otherwise like the pull-in row): the two collector diodes meet at the
- * detector's node on the left, the divider drops to ground, the detector transistor and its delay
- * (resistor from the rail, capacitor to ground) in the middle, and the holding transistor on the right,
- * under timing transistor A, its collector rising to A's base.
+ * detector's node on the left, the divider drops to ground, the detector transistor with the latch's PNP
+ * above it and its delay (resistor from the rail, the capacitor behind its series resistor to ground) in
+ * the middle, and the holding transistor on the right, under timing transistor A, its collector rising to
+ * A's base. The block sits low enough (START_Y) that the latch's PNP and the delay resistor stay under the
+ * control's end contacts and the cross-returned core's bleed lanes.
  */
-const START_Y = 600;
+const START_Y = 680;
 const START_ROW: Partial<Record<PlacedRole, Slot>> = {
   DK_B: { x: 150, y: START_Y - 40, rot: 90, label: "above" },
   DK_A: { x: 150, y: START_Y + 10, rot: 90, label: "below" },
@@ -325,10 +327,15 @@ const START_ROW: Partial<Record<PlacedRole, Slot>> = {
   RK_DIV: { x: 280, y: START_Y - 15, rot: 270, label: "above" },
   RK_SET: { x: 345, y: START_Y + 70, label: "right" },
   QK_SENSE: { x: 400, y: START_Y, label: "right" },
-  RK_MEM: { x: 480, y: START_Y - 70, label: "right" },
-  CK_MEM: { x: 520, y: START_Y + 70, label: "right" },
-  RK_HOLD: { x: 580, y: START_Y - 15, rot: 270, label: "above" },
-  QK_HOLD: { x: 640, y: START_Y, label: "right" },
+  RK_LATCH: { x: 440, y: START_Y - 80, label: "right" },
+  QK_LATCH: { x: 345, y: START_Y - 110, mirror: true, label: "left" },
+  RK_MEM: { x: 480, y: START_Y - 150, label: "right" },
+  RK_FIRE: { x: 520, y: START_Y + 20, label: "right" },
+  CK_MEM: { x: 520, y: START_Y + 90, label: "right" },
+  DK_HOLD: { x: 560, y: START_Y - 15, rot: 270, label: "above" },
+  RK_HOLD: { x: 630, y: START_Y - 15, rot: 270, label: "above" },
+  RK_OFF: { x: 670, y: START_Y + 70, label: "right" },
+  QK_HOLD: { x: 710, y: START_Y, label: "right" },
 };
 const FLIP_LABEL = { left: "right", right: "left", above: "above", below: "below" } as const;
 

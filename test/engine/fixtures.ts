@@ -248,7 +248,7 @@ export const CORE_SEARCH_SAMPLE: SpecOpts[] = [
 /**
  * A 5 V lamp dimmer on a power bank (±5 %), 0.25 A, 1 kHz, 10–90 %, NPN driver + power PNP (a record of our
  * own, invented numbers): the core slow to start from the kick (test/verify/long-start.test.ts) and the soft
- * turnover at control 1 (test/engine/stages/soft-turnover.test.ts).
+ * turnover at control 1 (test/engine/stages/start-network-follower.test.ts).
  */
 export const POWER_BANK_LAMP: SpecOpts = {
   supply_V: 5,

@@ -23,13 +23,12 @@ import {
 } from "../../src/verify/cold-start.ts";
 import { targetFromSized } from "../../src/verify/target.ts";
 import { REPO } from "../records/project.ts";
+import { START_NET_LINE } from "./cold-share.ts";
 
 const STUCK = "nutrient-pump-12v-750ma-darlington-2-motor";
 const STARTS = "nutrient-pump-12v-1a-mosfet-driver-motor";
 
 /** The start network's element lines in a published netlist (docs/topologies.md, "Start network"). */
-const START_NET_LINE =
-  /^(D\d+ c[ab] kh |R\d+ kh |R\d+ kb2 |Q\d+ km kb2 |R\d+ \S+ km |C\d+ km |R\d+ km kb1 |Q\d+ ba kb1 )/;
 const withoutStartNet = (netlist: string): string =>
   netlist
     .split("\n")
@@ -67,7 +66,7 @@ describe.runIf(have)("cold-start runs on demo variants, native ngspice and the e
     async () => {
       const v = find(STUCK);
       const bare = withoutStartNet(v.netlist);
-      expect(v.netlist.split("\n").length - bare.split("\n").length).toBe(10);
+      expect(v.netlist.split("\n").length - bare.split("\n").length).toBe(15);
       for (const engine of engines) {
         const m = await measureColdStart(v.target, bare, engine);
         expect(m.map((x) => x.key)).toEqual(COLD_CONTROLS.map((c) => `cold_start_swing_ctrl${c}`));

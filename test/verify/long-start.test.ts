@@ -63,11 +63,11 @@ describe("a core slow to start from the kick, measured (embedded ngspice)", () =
 
   // Since the core carries the start network with its series base diodes (2026-12-05) a soft turnover at
   // control 1 (side A's base fed through R_BA = 107 kΩ against side B's 7.5 kΩ) holds collector A below the
-  // network's threshold for ≈ 74 µs (native ngspice), long enough for the 1 ms delay (10 nF) to let the hold
-  // transistor stall the turnover (simulated 1.0 against 0.942 predicted). The release check now reads that
-  // turnover (soft-turnover.ts, docs/method.md "The soft turnover on the follower core") and the engine gives
-  // the network 27 nF: measured in native ngspice 894 Hz and 0.958 at control 1 (978 Hz, 0.942 predicted).
-  it("reads duty and frequency at control 1 within the comparison's bands (the delay outlasts the turnover)", () => {
+  // network's threshold for ≈ 74 µs (native ngspice). Before the network had its latch, that let the hold
+  // transistor stall the turnover with the 1 ms delay (10 nF; simulated 1.0 against 0.942 predicted), and the
+  // engine gave it 27 nF. The latched network no longer acts once the core runs: 10 nF again
+  // (docs/method.md, "Start network").
+  it("reads duty and frequency at control 1 within the comparison's bands (the latched network stays out)", () => {
     if (!m.ok) throw new Error(m.message);
     expect(Math.abs(got("duty_max") - want("duty_max"))).toBeLessThan(0.05);
     const f1 = got("frequency_ctrl1");

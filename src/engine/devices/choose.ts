@@ -27,6 +27,8 @@ import { OVERDRIVE_K } from "../stages/context.ts";
 /** Candidate classes per role in order of preference (documented in docs/method.md). */
 export const DEFAULT_DEVICE_IDS: Readonly<Record<DeviceRole, readonly string[]>> = {
   timing_npn: ["npn-small-signal-high-gain", "npn-small-signal"],
+  // The start network's latch (stages/start-network.ts QK_LATCH): microamps, so the small-signal class.
+  timing_pnp: ["pnp-small-signal"],
   // Chosen by gain, not by size (see `pickDriver`); listed smallest first for ties.
   driver_npn: ["npn-small-signal-high-gain", "npn-small-signal", "npn-medium", "npn-power-to220"],
   // The gate driver's sinking half: the first class that carries what its NPN half carries, else the
@@ -63,6 +65,7 @@ export const DEFAULT_DEVICE_IDS: Readonly<Record<DeviceRole, readonly string[]>>
 export const RAISED_DEVICE_IDS: Readonly<Partial<Record<DeviceRole, readonly string[]>>> = {
   // The timing core wants gain (its base resistors set the timing): the high-gain class first.
   timing_npn: ["npn-small-signal-hv-high-gain", "npn-small-signal-hv"],
+  timing_pnp: ["pnp-small-signal-hv"],
   driver_npn: ["npn-small-signal-hv-high-gain", "npn-small-signal-hv", "npn-power-to220-100v"],
   driver_pnp: ["pnp-small-signal-hv"],
   power_npn: ["npn-small-signal-hv", "npn-power-to220-100v"],

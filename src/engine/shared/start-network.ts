@@ -1,14 +1,20 @@
 /**
  * The start network of a timing core (docs/method.md, "Start network"): a detector that sees both timing
- * collectors low and holds timing transistor A's base at ground until collector A has risen, then lets go.
- * The idea of a start-up transistor is common practice [src:common-practice]; the arrangement and its
- * values are our own, measured in native ngspice on the demo's and the coverage grid's cores that did not
- * start from a slowly rising supply (docs/verification.md, "Cold start").
+ * collectors low and holds timing transistor A's base at ground until collector A has risen, then lets go
+ * for good: the detector is the NPN half of a two-transistor latch that collector A's first pass over the
+ * threshold fires. The idea of a start-up transistor, and of a PNP–NPN latch as a one-shot trigger, is
+ * common practice [src:common-practice]; the arrangement and its values are our own, measured in native
+ * ngspice on the demo's and the coverage grid's cores that did not start from a slowly rising supply
+ * (docs/verification.md, "Cold start").
  *
  *   DK1 ca→kh, DK2 cb→kh: kh follows the higher collector, one diode drop below it;
  *   RK1 kh–0 and RK2 kh–kb2 (RK5 kb2–0): QK2 (base kb2) conducts once kh passes the threshold V_th;
- *   RK3 vbus–km with CKM km–0 (τ = RK3·CKM): km rises only while both collectors stay low that long;
- *   RK4 km–kb1: QK1 (base kb1) then holds base A (`ba`) at ground.
+ *   RK3 vbus–km with CKM kc–0 behind RK8 km–kc (τ ≈ RK3·CKM): km rises while the latch is off; RK8
+ *   bounds the current CKM pours into the latch as it fires;
+ *   QK2's collector kp, RK6 km–kp, the PNP QK3 (emitter km, base kp, collector kb2): once QK2 draws
+ *   V_EB/RK6 the pair latches, km falls to V_BE + V_CE(sat) and stays there while RK3 feeds it;
+ *   DK3 km→kd, RK4 kd–kb1, RK7 kb1–0: QK1 (base kb1) holds base A (`ba`) at ground while km is high, and
+ *   lets go once the latched km less DK3's drop no longer reaches its cut-in.
  *
  * Pure relations; nothing rounded here but the one E24 choice of RK5 (startThreshold_ohm).
  */
@@ -24,11 +30,27 @@ export const START_NET = {
   rMem_ohm: 100e3,
   /** Shortest delay τ = RK3·CKM, s (CKM: startMemoryCap_F). */
   tauMin_s: 1e-3,
-  /** RK4, km–kb1, Ω. */
+  /** RK4, kd–kb1 (after DK3), Ω. */
   rHold_ohm: 10e3,
+  /** RK6, km–kp: the latch PNP's base–emitter resistor, Ω (sets the current that fires the latch). */
+  rLatch_ohm: 100e3,
+  /** RK7, kb1–0: the holding transistor's base–emitter resistor, Ω (keeps it off at the latched km). */
+  rOff_ohm: 47e3,
+  /**
+   * RK8, km–kc, in series with CKM, Ω: without it CKM discharged straight through the latch as it fired,
+   * 0.2–0.3 A peaks in both transistors (measured, native ngspice, 24–27.6 V demo cores); with it the peak
+   * is at most km's highest level over RK8, and τ = (RK3 + RK8)·CKM is within 5 % of RK3·CKM.
+   */
+  rFire_ohm: 4.7e3,
   /** The detector's turn-on level the threshold divider is set for, V (silicon V_BE ≈ 0.6 V, common practice). */
   vbeSet_V: 0.6,
-  /** V_th as a share of collector A's loaded high level (measured: ½ starts every stuck demo and grid core). */
+  /**
+   * V_th as a share of collector A's loaded high level (measured, docs/method.md "Start network"): ½ starts
+   * every stuck demo and grid core; with the latch, which fires once at that share of a slow rise, it starts
+   * all 66 demo cores with the network from a linear 20 ms rise too. 0.7 would fire later in the rise (a
+   * 5 V follower lamp needs that), but then the latch no longer fires at the lowest supply, cold, on 64 of
+   * the 66 (start-network-sense).
+   */
   thresholdShare: 0.5,
 } as const;
 
@@ -61,8 +83,8 @@ export function startThresholdExact_ohm(
 }
 
 /**
- * RK5 in E24, rounded DOWN: the threshold then sits at or above ½ of the high level (never below it),
- * so QK1 lets go of base A only once collector A has made at least the half-swing the network was
+ * RK5 in E24, rounded DOWN: the threshold then sits at or above its share of the high level (never below it),
+ * so QK1 lets go of base A only once collector A has made at least the share of its swing the network was
  * measured with (a later release still gives A a whole edge; an earlier one a smaller kick). The step
  * of E24 keeps V_th within ≈ +10 % of its aim.
  */
@@ -88,12 +110,52 @@ export function startNetLoad(vF_V: number, vBe_V: number): { r_ohm: number; v_V:
 }
 
 /**
- * km's highest level while the core runs, V: QK2 saturated (V_CE(sat)), except while both collectors sit
- * below the threshold at an edge (for t_low, the rising collector's way up to V_th + V_F): then CKM
- * charges from V_CE(sat) towards the rail through RK3, km = V_sat + (V_cc − V_sat)·(1 − e^(−t_low/τ))
- * (first-order RC charge, Hayt & Kemmerly [src:hayt-kemmerly-ch8], from memory).
+ * QK2's collector current that fires the latch, A: the current RK6 takes at the PNP's turn-on V_EB; from
+ * there each µA of the PNP's collector current into kb2 adds β of QK2's, and the pair regenerates
+ * (two-transistor latch, common practice [src:common-practice]).
  */
-export function startMemoryPeak_V(vcc_V: number, vSatK_V: number, tLow_s: number, cMem_F: number): number {
-  const tau = START_NET.rMem_ohm * cMem_F;
-  return vSatK_V + (vcc_V - vSatK_V) * (1 - Math.exp(-Math.max(0, tLow_s) / tau));
+export function latchTrigger_A(vEb_V: number, rLatch_ohm = START_NET.rLatch_ohm): number {
+  return vEb_V / rLatch_ohm;
+}
+
+/**
+ * km's highest level, V: while the latch is off QK1 conducts and its base path DK3–RK4 takes what RK3 feeds,
+ * so km stays below V_F + V_BE + RK4·V_cc/RK3 (all of RK3's feed through RK4: an upper bound).
+ */
+export function memoryPeak_V(vcc_V: number, vF_V: number, vBe_V: number): number {
+  return vF_V + vBe_V + (START_NET.rHold_ohm * vcc_V) / START_NET.rMem_ohm;
+}
+
+/** km while the latch holds, V: QK2's V_BE (kb2) plus the saturated PNP's V_CE(sat) (km − kb2). */
+export function latchedLevel_V(vBeSense_V: number, vSatLatch_V: number): number {
+  return vBeSense_V + vSatLatch_V;
+}
+
+/**
+ * QK1's base while the latch holds, V: the latched km less DK3's drop over the divider RK4–RK7 (QK1's own
+ * base current left out: it only lowers kb1, so the level is an upper bound).
+ */
+export function latchedHoldBase_V(km_V: number, vF_V: number): number {
+  return (Math.max(0, km_V - vF_V) * START_NET.rOff_ohm) / (START_NET.rHold_ohm + START_NET.rOff_ohm);
+}
+
+/** The current the hold path DK3–RK4–RK7 takes from km, A (QK1's base current left out, as above). */
+export function holdPath_A(km_V: number, vF_V: number): number {
+  return Math.max(0, km_V - vF_V) / (START_NET.rHold_ohm + START_NET.rOff_ohm);
+}
+
+/**
+ * The PNP's emitter current while the latch holds, A: RK3's feed from the rail (km at its latched level)
+ * less what RK6 and the hold path take (Kirchhoff's current law at km; CKM carries none in the steady state).
+ */
+export function latchEmitter_A(vcc_V: number, km_V: number, vEb_V: number, iHold_A: number): number {
+  return (vcc_V - km_V) / START_NET.rMem_ohm - vEb_V / START_NET.rLatch_ohm - iHold_A;
+}
+
+/**
+ * The current kb2 sheds past QK2's base while the latch holds with both collectors low (kh at 0), A:
+ * V_BE over RK5 ∥ RK2; the PNP's collector current must exceed it for the pair to stay on.
+ */
+export function latchBypass_A(vBe_V: number, rSet_ohm: number, rDiv_ohm = START_NET.rDiv_ohm): number {
+  return vBe_V / rSet_ohm + vBe_V / rDiv_ohm;
 }

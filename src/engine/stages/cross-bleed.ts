@@ -159,7 +159,7 @@ export function returnHold(p: {
 /**
  * The level the returning collector parks at while the on side still holds, V: its loaded Thevenin
  * source less what its divider current alone sinks, V_ret = V_th − R_th·β_ret·I_div, at least V_CE(sat)
- * (derived; returnHold, and the start network's running check, stages/start-network.ts).
+ * (derived; returnHold).
  */
 export function returnLevel_V(p: {
   vTh_V: number;
@@ -169,30 +169,4 @@ export function returnLevel_V(p: {
   vSat_V: number;
 }): number {
   return Math.max(p.vSat_V, p.vTh_V - p.rTh_ohm * p.betaReturn * Math.max(0, p.iDivNet_A));
-}
-
-/**
- * How long the returning collector waits at V_ret before the turnover, s (ours, derived; measured below).
- * While the on side stays saturated on R_D's current from that collector (returnHold ≥ 1), its base node,
- * thrown down by the collector's fall ΔV = V_high − V_ret through the coupling capacitor (its series diode
- * blocks), recovers through its own timing resistor towards V_cc; only once it is back at its conduction
- * level V_node does the capacitor pass the collector's further fall into the on base, and the core
- * regenerates: t = R_B,on·C·ln((V_cc − V_node + ΔV)/(V_cc − V_node)) (first-order RC charge). With a hold
- * below 1 the on side leaves saturation at once: 0. Measured (native ngspice, a 24 V, 1 kHz two-stage
- * Darlington core at its slow corner, V_cc 21 V, control 1, R_B,on 86.1 kΩ, C 1.32 nF): collector A
- * parked at 7.0–7.3 V and the other collector rose 57 µs after A passed 11.7 V on its way down; this
- * relation gives 56 µs from the simulated 12.4 V fall.
- */
-export function turnoverDwell_s(p: {
-  hold: number;
-  rBOn_ohm: number;
-  c_F: number;
-  vcc_V: number;
-  vNode_V: number;
-  fall_V: number;
-}): number {
-  if (!(p.hold >= 1) || !(p.fall_V > 0)) return 0;
-  const head = p.vcc_V - p.vNode_V;
-  if (!(head > 0)) return Number.POSITIVE_INFINITY;
-  return p.rBOn_ohm * p.c_F * Math.log((head + p.fall_V) / head);
 }

@@ -31,6 +31,8 @@ const DEVICE_ROLE_OF: Partial<Record<PartRole, DeviceRole>> = {
   DF_B: "signal_diode",
   QK_SENSE: "timing_npn",
   QK_HOLD: "timing_npn",
+  QK_LATCH: "timing_pnp",
+  DK_HOLD: "signal_diode",
   DK_A: "signal_diode",
   DK_B: "signal_diode",
   Q_DRV: "driver_npn",
@@ -296,15 +298,6 @@ function startNetDecision(circuit: CircuitModel): DesignDecision | undefined {
   const ramp = circuit.parts.some((p) => p.role === "Q_CR");
   const core = follower ? "follower core" : ramp ? "fixed ≈ 50 % core under the ramp stage" : "cross-returned core";
   const cMem_F = parts.find((p) => p.role === "CK_MEM")?.value ?? 0;
-  // On the ramp stage's core CKM may step up (start-network.ts RAMP_CORE_MEM_MAX); on the cross-returned
-  // follower and cross-returned cores further, past a turnover (start-network.ts steppedMemory).
-  const delay = follower
-    ? "(the longer of 1 ms and the period, longer still where a slow turnover at the control's ends holds a " +
-      "collector below the threshold: up to 10 ms)"
-    : ramp
-      ? "(at most the longer of 1 ms and the period, or up to 1.5 ms where a running edge would reach it)"
-      : "(the longer of 1 ms and the period, longer still where a turnover parks the returning collector " +
-        "below the threshold for tens of µs: up to 10 ms)";
   return {
     refs: parts.map((p) => p.ref),
     topic: "start network",
@@ -312,16 +305,20 @@ function startNetDecision(circuit: CircuitModel): DesignDecision | undefined {
       `a start network: two diodes pass the higher timing collector to a detector transistor, which after a ` +
       `${formatValue(START_NET.rMem_ohm * cMem_F, "s")} delay lets a second transistor hold timing ` +
       `transistor A's base at ground while both collectors stay below ` +
-      `${formatValue(startThreshold_V(set.value), "V")} (${set.ref} ${formatValue(set.value, "Ω")})`,
+      `${formatValue(startThreshold_V(set.value), "V")} (${set.ref} ${formatValue(set.value, "Ω")}); the detector ` +
+      `and a PNP form a latch that collector A's first pass over that level fires, and that keeps the holding ` +
+      `transistor off for as long as the supply is up`,
     reason:
       `from a supply that rises slowly (0 V to full in 20 ms) the ${core}` +
       ` would come up with both transistors on and stay so: nothing lets one of them go. The network lets ` +
-      `collector A rise first, so A starts with a whole edge and turns B off as in a running core; the delay ` +
-      `${delay} keeps it out of a running core's edges, and its divider ` +
-      `loads the high collector a little (in the worst case). The threshold is ½ of collector A's high ` +
-      `level, its lower resistor rounded down in E24 so the threshold stays at or above ½; a start-up ` +
-      `transistor is common practice, this arrangement our own, ` +
-      `measured in native ngspice`,
+      `collector A rise first, so A starts with a whole edge and turns B off as in a running core. The latch ` +
+      `lets go at once and for good, so a slow rise cannot settle the network in a balance with collector A ` +
+      `parked at the threshold, and a running core's edges no longer reach it; its divider loads the high ` +
+      `collector a little (in the worst case). The threshold is ${Math.round(START_NET.thresholdShare * 100)} % of ` +
+      `collector A's high level, where the core runs on after the latch fires, its lower resistor rounded ` +
+      `down in E24 so the threshold stays at or above that share; a start-up ` +
+      `transistor and a two-transistor latch as a one-shot trigger are common practice, this arrangement our ` +
+      `own, measured in native ngspice`,
   };
 }
 

@@ -3,7 +3,9 @@
  * src/engine/stages/start-network.ts): its relations against hand calculations, where the engine fits it
  * (follower and cross-returned cores), its load in the core model, the same designators in netlist,
  * schematic and parts list, and a real SPICE engine (native ngspice): a demo follower core with the
- * network starts from the 20 ms supply rise, the same circuit without it does not.
+ * network starts from the proof's two-rate rise, the same circuit without it does not; a demo Darlington
+ * lamp's core starts from a plain linear 20 ms rise with the latch, and settles at the threshold with the
+ * earlier network that had none (ours, measured).
  */
 import { describe, expect, it } from "vitest";
 import { expandDesign } from "../../../src/expand/expand.ts";
@@ -16,15 +18,21 @@ import { renderVariantViews } from "../../../src/render/variant.ts";
 import { evalCore, NOMINAL_K, type CoreValues } from "../../../src/engine/stages/core-model.ts";
 import { NOMINAL_TEMP_C } from "../../../src/engine/shared/temperature.ts";
 import {
-  START_NET,
+  holdPath_A,
+  latchBypass_A,
+  latchEmitter_A,
+  latchTrigger_A,
+  latchedHoldBase_V,
+  latchedLevel_V,
   startMemoryCap_F,
-  startMemoryPeak_V,
   startNetLoad,
   startThresholdE24_ohm,
   startThresholdExact_ohm,
   startThreshold_V,
 } from "../../../src/engine/shared/start-network.ts";
 import { coldRunDeck, coldSwingShare, COLD_SWING_SHARE } from "../../../src/verify/cold-start.ts";
+import { START_NET_LINE, earlierNetwork, linearRiseDeck } from "../../verify/cold-share.ts";
+import { latchAt } from "../../../src/engine/stages/start-network.ts";
 import { startNgspice } from "../../../src/verify/engines/ngspice.ts";
 import { supplyVoltage } from "../../../src/verify/deck.ts";
 import type { BjtClass, DiodeClass } from "../../../src/model/device.ts";
@@ -63,17 +71,25 @@ describe("start network relations (hand calculations)", () => {
     }
   });
 
-  it("delays by at most the longer of 1 ms and the period (CKM E12 down) and charges km as a first-order RC", () => {
+  it("delays by at most the longer of 1 ms and the period (CKM E12 down)", () => {
     expect(startMemoryCap_F(1 / 20_000)).toBeCloseTo(10e-9, 15); // 1 ms / 100 kΩ
     expect(startMemoryCap_F(1 / 960)).toBeCloseTo(10e-9, 15); // 1.04 ms → 10.4 nF → E12 10 nF
     expect(startMemoryCap_F(1 / 95)).toBeCloseTo(100e-9, 15); // 10.5 ms / 100 kΩ → 105 nF → E12 100 nF
     expect(startMemoryCap_F(1 / 200)).toBeCloseTo(47e-9, 15); // 5 ms → 50 nF → E12 47 nF
-    // 1 − e^(−1) of the way in one time constant (Hayt & Kemmerly, first-order circuits, from memory).
-    expect(startMemoryPeak_V(12, 0.05, START_NET.rMem_ohm * 10e-9, 10e-9)).toBeCloseTo(
-      0.05 + 11.95 * (1 - Math.exp(-1)),
-      12,
-    );
-    expect(startMemoryPeak_V(12, 0.05, 0, 10e-9)).toBe(0.05);
+  });
+
+  it("latches: fires at V_EB/RK6, holds km at V_BE + V_CE(sat), keeps QK1's base on the RK4–RK7 divider", () => {
+    // Kirchhoff's laws on the latch by hand (a two-transistor latch, common practice): 0.6 V over 100 kΩ = 6 µA.
+    expect(latchTrigger_A(0.6)).toBeCloseTo(6e-6, 15);
+    expect(latchedLevel_V(0.65, 0.1)).toBeCloseTo(0.75, 12);
+    // (0.85 − 0.45)·47/(10 + 47) = 0.3298 V; the path takes 0.4 V/57 kΩ = 7.02 µA.
+    expect(latchedHoldBase_V(0.85, 0.45)).toBeCloseTo(0.4 * (47 / 57), 12);
+    expect(holdPath_A(0.85, 0.45)).toBeCloseTo(0.4 / 57_000, 15);
+    expect(latchedHoldBase_V(0.3, 0.45)).toBe(0);
+    // At 12 V: (12 − 0.85)/100 k = 111.5 µA, less 6 µA and 7.02 µA = 98.5 µA into the PNP's emitter.
+    expect(latchEmitter_A(12, 0.85, 0.6, 0.4 / 57_000)).toBeCloseTo(111.5e-6 - 6e-6 - 0.4 / 57_000, 12);
+    // kb2 sheds 0.6 V over 56 k and over 470 k: 10.71 + 1.28 µA.
+    expect(latchBypass_A(0.6, 56_000)).toBeCloseTo(0.6 / 56_000 + 0.6 / 470_000, 15);
   });
 });
 
@@ -94,6 +110,7 @@ function sizedOf(id: string): SizedVariant {
 const FOLLOWER = "circulation-fan-12v-1a-mosfet-logic-motor";
 const CROSS = "circulation-fan-24v-1a-mosfet-logic-motor";
 const PUMP = "nutrient-pump-24v-1a-darlington-3-motor";
+const LAMP = "work-lamp-12v-3a-darlington-2-lamp";
 
 describe("where the engine fits it (the demo records)", () => {
   it("on every follower and cross-returned core but a solenoid's or a railed one, and on no plain core", () => {
@@ -123,6 +140,9 @@ describe("where the engine fits it (the demo records)", () => {
     expect(role("DK_A").stress.voltage_V).toBe(vMax);
     expect(role("QK_SENSE").stress.voltage_V).toBe(vMax);
     expect(role("QK_HOLD").stress.voltage_V).toBe(vMax);
+    expect(role("QK_LATCH").stress.voltage_V).toBe(vMax);
+    expect(role("QK_LATCH").pins).toEqual({ c: "kb2", b: "kp", e: "km" });
+    expect(role("DK_HOLD").stress.voltage_V).toBe(vMax);
     expect(role("CK_MEM").stress.voltage_V).toBe(vMax);
     expect(role("RK_MEM").stress.power_W).toBeCloseTo((vMax * vMax) / (100_000 * 0.95), 12);
     const refs = new Set(NET_ROLES.map((r) => role(r).ref));
@@ -161,16 +181,15 @@ describe("the network's load in the core model", () => {
   });
 });
 
-describe.skipIf(!hasNgspice)("a real cold start (native ngspice, the proof's 20 ms rise)", () => {
-  const NET_LINE = /^(D\d+ c[ab] kh |R\d+ kh |R\d+ kb2 |Q\d+ km kb2 |R\d+ \S+ km |C\d+ km |R\d+ km kb1 |Q\d+ ba kb1 )/;
-  it("a demo follower core with the network starts at control 0 and 1; without it, it does not", async () => {
+describe.skipIf(!hasNgspice)("a real cold start (native ngspice)", () => {
+  it("a demo follower core starts from the proof's rise at control 0 and 1 with the network, not without", async () => {
     const s = sizedOf(FOLLOWER);
     const netlist = renderVariantViews(s, project.devices, { schematic: false }).netlist;
     const without = netlist
       .split("\n")
-      .filter((l) => !NET_LINE.test(l))
+      .filter((l) => !START_NET_LINE.test(l))
       .join("\n");
-    expect(netlist.split("\n").length - without.split("\n").length).toBe(10);
+    expect(netlist.split("\n").length - without.split("\n").length).toBe(15);
     const f = s.figures.find((x) => x.key === "frequency_nominal")!.value;
     const vbus = supplyVoltage(netlist);
     const engine = startNgspice();
@@ -185,6 +204,47 @@ describe.skipIf(!hasNgspice)("a real cold start (native ngspice, the proof's 20 
       await engine.close();
     }
   }, 120_000);
+
+  it(
+    "a demo Darlington lamp's core starts from a linear 20 ms rise with the latch, at the latched levels the " +
+      "relations give; the earlier network settles at its threshold (ours, measured)",
+    async () => {
+      const s = sizedOf(LAMP);
+      const netlist = renderVariantViews(s, project.devices, { schematic: false }).netlist;
+      const f = s.figures.find((x) => x.key === "frequency_nominal")!.value;
+      const vbus = supplyVoltage(netlist);
+      const q = s.spec.devices.timing_npn as BjtClass;
+      const qp = s.spec.devices.timing_pnp as BjtClass;
+      const db = s.spec.devices.signal_diode as DiodeClass;
+      const rSet = s.circuit!.parts.find((p) => p.role === "RK_SET")!.value;
+      // The netlist's `.temp` (25 °C) and its supply.
+      const latched = latchAt(q, qp, db, rSet, vbus, 25);
+      const engine = startNgspice();
+      try {
+        for (const ctrl of [0, 1]) {
+          const lin = await engine.run(linearRiseDeck(netlist, 1 / f, ctrl), ["v(ca)", "v(cb)", "v(km)", "v(kb1)"]);
+          expect(coldSwingShare(lin, 1 / f, vbus), `linear, ctrl ${ctrl}`).toBeGreaterThan(COLD_SWING_SHARE);
+          const two = await engine.run(coldRunDeck(netlist, 1 / f, ctrl), ["v(ca)", "v(cb)"]);
+          expect(coldSwingShare(two, 1 / f, vbus), `two-rate, ctrl ${ctrl}`).toBeGreaterThan(COLD_SWING_SHARE);
+          // Latched for the whole run's end: km at V_BE + V_CE(sat) at most (the relation reads the class's
+          // saturation at RK3's whole feed, an upper bound; measured 0.67–0.70 V against 0.91 V), far below
+          // the unlatched km (the rail); QK1's base at most the relation's (measured 0.13–0.16 V against 0.29 V).
+          const km = lin.vectors["v(km)"]!;
+          const kb1 = lin.vectors["v(kb1)"]!;
+          const tail = Math.floor(km.length / 2);
+          expect(Math.max(...km.slice(tail)), `km, ctrl ${ctrl}`).toBeLessThan(latched.km_V);
+          expect(Math.min(...km.slice(tail)), `km, ctrl ${ctrl}`).toBeGreaterThan(0.5);
+          expect(Math.max(...kb1.slice(tail)), `kb1, ctrl ${ctrl}`).toBeLessThan(latched.kb1_V);
+          // The earlier network: collector A parked at the threshold, no swing (measured: 6.10 V, km 0.64 V).
+          const old = await engine.run(linearRiseDeck(earlierNetwork(netlist), 1 / f, ctrl), ["v(ca)", "v(cb)"]);
+          expect(coldSwingShare(old, 1 / f, vbus), `earlier network, ctrl ${ctrl}`).toBeLessThan(COLD_SWING_SHARE);
+        }
+      } finally {
+        await engine.close();
+      }
+    },
+    240_000,
+  );
 });
 
 /**
