@@ -31,7 +31,7 @@ import {
   startThreshold_V,
 } from "../../../src/engine/shared/start-network.ts";
 import { coldRunDeck, coldSwingShare, COLD_SWING_SHARE } from "../../../src/verify/cold-start.ts";
-import { START_NET_LINE, earlierNetwork, linearRiseDeck } from "../../verify/cold-share.ts";
+import { START_NET_LINE, earlierNetwork, twoRateDeck } from "../../verify/cold-share.ts";
 import { latchAt } from "../../../src/engine/stages/start-network.ts";
 import { startNgspice } from "../../../src/verify/engines/ngspice.ts";
 import { supplyVoltage } from "../../../src/verify/deck.ts";
@@ -222,9 +222,9 @@ describe.skipIf(!hasNgspice)("a real cold start (native ngspice)", () => {
       const engine = startNgspice();
       try {
         for (const ctrl of [0, 1]) {
-          const lin = await engine.run(linearRiseDeck(netlist, 1 / f, ctrl), ["v(ca)", "v(cb)", "v(km)", "v(kb1)"]);
+          const lin = await engine.run(coldRunDeck(netlist, 1 / f, ctrl), ["v(ca)", "v(cb)", "v(km)", "v(kb1)"]);
           expect(coldSwingShare(lin, 1 / f, vbus), `linear, ctrl ${ctrl}`).toBeGreaterThan(COLD_SWING_SHARE);
-          const two = await engine.run(coldRunDeck(netlist, 1 / f, ctrl), ["v(ca)", "v(cb)"]);
+          const two = await engine.run(twoRateDeck(netlist, 1 / f, ctrl), ["v(ca)", "v(cb)"]);
           expect(coldSwingShare(two, 1 / f, vbus), `two-rate, ctrl ${ctrl}`).toBeGreaterThan(COLD_SWING_SHARE);
           // Latched for the whole run's end: km at V_BE + V_CE(sat) at most (the relation reads the class's
           // saturation at RK3's whole feed, an upper bound; measured 0.67–0.70 V against 0.91 V), far below
@@ -236,7 +236,7 @@ describe.skipIf(!hasNgspice)("a real cold start (native ngspice)", () => {
           expect(Math.min(...km.slice(tail)), `km, ctrl ${ctrl}`).toBeGreaterThan(0.5);
           expect(Math.max(...kb1.slice(tail)), `kb1, ctrl ${ctrl}`).toBeLessThan(latched.kb1_V);
           // The earlier network: collector A parked at the threshold, no swing (measured: 6.10 V, km 0.64 V).
-          const old = await engine.run(linearRiseDeck(earlierNetwork(netlist), 1 / f, ctrl), ["v(ca)", "v(cb)"]);
+          const old = await engine.run(coldRunDeck(earlierNetwork(netlist), 1 / f, ctrl), ["v(ca)", "v(cb)"]);
           expect(coldSwingShare(old, 1 / f, vbus), `earlier network, ctrl ${ctrl}`).toBeLessThan(COLD_SWING_SHARE);
         }
       } finally {
