@@ -203,6 +203,19 @@ export class CoreMemo<V extends object, R> {
     return r;
   }
 
+  /**
+   * f's answer, read from the kept answers where one is kept (as `call`), else computed and NOT kept: for
+   * the corners no later question asks for again (worst-corners.ts worstCaseFast), whose answers would only
+   * fill the store (and the garbage collector's work) without being read.
+   */
+  peek(v: V, q: BjtClass, db: DiodeClass, k: Corner, ctrl: number): R {
+    const s = this.scope;
+    const ci = ctrlIndex(ctrl);
+    if (s === undefined || ci < 0 || !Object.isFrozen(k)) return this.f(v, q, db, k, ctrl);
+    const hit = this.keptFor(s, v, q, db).answers.get(cornerId(k) * 3 + ci);
+    return hit !== undefined ? hit : this.f(v, q, db, k, ctrl);
+  }
+
   /** The newer generation becomes the older; the older one's answers go. */
   private age(): void {
     const st = this.store;
