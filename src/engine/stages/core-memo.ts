@@ -116,12 +116,21 @@ export function contentText(x: unknown): string {
       return "u";
     case "object": {
       if (x === null) return "n";
-      if (Array.isArray(x)) return `[${x.map(contentText).join(",")}]`;
+      // Written with plain loops (the same text as map and join): the search asks for the text of every
+      // new values object it makes.
+      if (Array.isArray(x)) {
+        let a = "[";
+        for (let i = 0; i < x.length; i++) a += (i === 0 ? "" : ",") + contentText(x[i]);
+        return a + "]";
+      }
       const o = x as Record<string, unknown>;
-      return `{${Object.keys(o)
-        .sort()
-        .map((k) => `${k}:${contentText(o[k])}`)
-        .join(",")}}`;
+      const keys = Object.keys(o).sort();
+      let t = "{";
+      for (let i = 0; i < keys.length; i++) {
+        const k = keys[i]!;
+        t += (i === 0 ? "" : ",") + k + ":" + contentText(o[k]);
+      }
+      return t + "}";
     }
     default:
       // Functions, symbols and bigints have no place in the core's values: a text no other shares.
