@@ -157,6 +157,12 @@ export interface CoreParams {
    * each side's return level. Absent: V_BE,F and V_γ fixed (the plain textbook form).
    */
   levels?: CoreLevels | undefined;
+  /**
+   * Each side's driving node as drivingThevenin gives it for these loads, where the caller has it already
+   * (core-model.ts keeps it across the corners that differ in the capacitors only); absent: worked out here.
+   */
+  driveA?: { v_V: number; r_ohm: number } | undefined;
+  driveB?: { v_V: number; r_ohm: number } | undefined;
 }
 
 /**
@@ -303,47 +309,30 @@ function offPhase_s(p: CoreParams, rB: number, c: number, swing: number, vReturn
 }
 
 /**
- * Side X's driving node while the fixed point runs. A follower "in its tail" feeds nothing but its
- * capacitor (the chain on the collector, or no load on its emitter): its node is V_0 − V_BE,F behind
+ * Side X's driving node while the fixed point runs, as scalars (evaluateCore is called millions of times
+ * while a catalogue is sized, and keeps no object per side). A follower "in its tail" feeds nothing but
+ * its capacitor (the chain on the collector, or no load on its emitter): its node is V_0 − V_BE,F behind
  * a fixed resistance (followerOfCollector, followerThevenin without a load), so its high level and full
  * swing follow V_BE,F linearly and nothing is rebuilt when V_BE,F moves.
+ *   tail: whether side X's follower is in its tail;
+ *   vbeF: the follower's V_BE (its tail level once the fixed point has run), V;
+ *   v0: the driving node's high level with V_BE,F = 0 (tail sides; else the node's level), V;
+ *   low: the clamped low level the swing is measured to, V_CE(sat) (+ V_F of the follower's diode), V;
+ *   r: the driving node's Thevenin resistance, Ω.
  */
-interface Side {
-  tail: boolean;
-  /** The follower's V_BE (its tail level once the fixed point has run), V. */
-  vbeF_V: number;
-  /** The driving node's high level with V_BE,F = 0 (tail sides; else the node's level), V. */
-  v0_V: number;
-  /** The clamped low level the swing is measured to: V_CE(sat) (+ V_F of the follower's diode), V. */
-  low_V: number;
-  r_ohm: number;
-  vReturn_V: number;
-}
-
-function side(p: CoreParams, x: "A" | "B"): Side {
+function isTail(p: CoreParams, load: CollectorLoad | undefined): boolean {
   const fo = p.follower;
-  const load = x === "A" ? p.loadA : p.loadB;
-  const drive = drivingThevenin(p.vcc_V, x === "A" ? p.rCA_ohm : p.rCB_ohm, fo, load, p.collectorLoad);
-  const tail = fo !== undefined && p.levels !== undefined && (fo.loadsOnCollector === true || load === undefined);
-  const vbeF_V = fo?.vBe_V ?? 0;
-  return {
-    tail,
-    vbeF_V,
-    v0_V: tail ? drive.v_V + vbeF_V : drive.v_V,
-    low_V: p.vSat_V + (fo === undefined ? 0 : x === "A" ? fo.vFA_V : fo.vFB_V),
-    r_ohm: drive.r_ohm,
-    vReturn_V: p.vCutIn_V ?? p.vOn_V,
-  };
+  return fo !== undefined && p.levels !== undefined && (fo.loadsOnCollector === true || load === undefined);
 }
 
 /** The driving node's high level (followerSwing_V's V_E,high; the collector's in the plain core), V. */
-function highLevel_V(s: Side): number {
-  return s.tail ? s.v0_V - s.vbeF_V : s.v0_V;
+function highLevel_V(tail: boolean, v0_V: number, vbeF_V: number): number {
+  return tail ? v0_V - vbeF_V : v0_V;
 }
 
 /** The level side X's base node returns at, never above V_on (CoreLevels.returnLevel_V). */
-function returnOf(p: CoreParams, lv: CoreLevels, s: Side, x: "A" | "B"): number {
-  return Math.min(p.vOn_V, lv.returnLevel_V(x, s.tail ? s.vbeF_V : null));
+function returnOf(p: CoreParams, lv: CoreLevels, tail: boolean, vbeF_V: number, x: "A" | "B"): number {
+  return Math.min(p.vOn_V, lv.returnLevel_V(x, tail ? vbeF_V : null));
 }
 
 /**
@@ -352,28 +341,6 @@ function returnOf(p: CoreParams, lv: CoreLevels, s: Side, x: "A" | "B"): number 
  */
 function tailVbe_V(lv: CoreLevels, c_F: number, t_s: number): number {
   return lv.followerVbe_V(junctionTailCurrent_A(c_F, t_s, lv.vT_V));
-}
-
-/**
- * The levels at the start of the fixed point. A tail side's V_BE,F is read at its own off time as the
- * ln law gives it with the fixed levels (V_BE(on), V_γ) and full swings, and each side's return level
- * is read once, at that V_BE,F. The fixed point then moves V_BE,F by a few millivolts (V_T times the
- * relative change of the off time), which moves the return level by V_T/(I_reg·R_C′) ≈ 1/40 of that,
- * tens of microvolts (a few ppm of a half-period): the return level is not iterated, the cheap tail
- * law is (docs/method.md, "Timing core at low supplies").
- */
-function startLevels(p: CoreParams, lv: CoreLevels, a: Side, b: Side): void {
-  const vRet0 = p.vCutIn_V ?? p.vOn_V;
-  if (a.tail || b.tail) {
-    const fullA = Math.max(0, highLevel_V(a) - a.low_V);
-    const fullB = Math.max(0, highLevel_V(b) - b.low_V);
-    const tA = offPhase_s(p, p.rBA_ohm, p.cB_F, fullB, vRet0);
-    const tB = offPhase_s(p, p.rBB_ohm, p.cA_F, fullA, vRet0);
-    if (a.tail) a.vbeF_V = tailVbe_V(lv, p.cA_F, tA);
-    if (b.tail) b.vbeF_V = tailVbe_V(lv, p.cB_F, tB);
-  }
-  a.vReturn_V = returnOf(p, lv, a, "A");
-  b.vReturn_V = returnOf(p, lv, b, "B");
 }
 
 /** Fixed-point tolerance on the tail V_BE, V (its effect on a half-period is ≈ 0.2 ppm per µV). */
@@ -385,38 +352,66 @@ const TAIL_TOL_V = 1e-9;
  * recovery term e^(−t/τ) is small in any sane design). With the low-supply levels the tail sides'
  * V_BE,F (and with it their swing) joins the fixed point: V_BE,F X is read at X's own off time (plate
  * X is high, and its follower in its tail, for exactly that phase); the return levels are read once
- * (startLevels).
+ * (once, before the fixed point).
  */
 export function evaluateCore(p: CoreParams): CoreTiming {
   const fo = p.follower;
   const lv = p.levels;
-  const a = side(p, "A");
-  const b = side(p, "B");
-  if (lv !== undefined) startLevels(p, lv, a, b);
+  const driveA = p.driveA ?? drivingThevenin(p.vcc_V, p.rCA_ohm, fo, p.loadA, p.collectorLoad);
+  const driveB = p.driveB ?? drivingThevenin(p.vcc_V, p.rCB_ohm, fo, p.loadB, p.collectorLoad);
+  const aTail = isTail(p, p.loadA);
+  const bTail = isTail(p, p.loadB);
+  let aVbeF = fo?.vBe_V ?? 0;
+  let bVbeF = aVbeF;
+  const aV0 = aTail ? driveA.v_V + aVbeF : driveA.v_V;
+  const bV0 = bTail ? driveB.v_V + bVbeF : driveB.v_V;
+  const aLow = p.vSat_V + (fo === undefined ? 0 : fo.vFA_V);
+  const bLow = p.vSat_V + (fo === undefined ? 0 : fo.vFB_V);
+  let aReturn = p.vCutIn_V ?? p.vOn_V;
+  let bReturn = aReturn;
+  if (lv !== undefined) {
+    // The levels at the start of the fixed point. A tail side's V_BE,F is read at its own off time as the
+    // ln law gives it with the fixed levels (V_BE(on), V_γ) and full swings, and each side's return level
+    // is read once, at that V_BE,F. The fixed point then moves V_BE,F by a few millivolts (V_T times the
+    // relative change of the off time), which moves the return level by V_T/(I_reg·R_C′) ≈ 1/40 of that,
+    // tens of microvolts (a few ppm of a half-period): the return level is not iterated, the cheap tail
+    // law is (docs/method.md, "Timing core at low supplies").
+    const vRet0 = p.vCutIn_V ?? p.vOn_V;
+    if (aTail || bTail) {
+      const fullA = Math.max(0, highLevel_V(aTail, aV0, aVbeF) - aLow);
+      const fullB = Math.max(0, highLevel_V(bTail, bV0, bVbeF) - bLow);
+      const tA = offPhase_s(p, p.rBA_ohm, p.cB_F, fullB, vRet0);
+      const tB = offPhase_s(p, p.rBB_ohm, p.cA_F, fullA, vRet0);
+      if (aTail) aVbeF = tailVbe_V(lv, p.cA_F, tA);
+      if (bTail) bVbeF = tailVbe_V(lv, p.cB_F, tB);
+    }
+    aReturn = returnOf(p, lv, aTail, aVbeF, "A");
+    bReturn = returnOf(p, lv, bTail, bVbeF, "B");
+  }
   const rS = fo?.rS_ohm ?? 0;
-  const tauA_s = (a.r_ohm + rS) * p.cA_F;
-  const tauB_s = (b.r_ohm + rS) * p.cB_F;
-  let fullA = Math.max(0, highLevel_V(a) - a.low_V);
-  let fullB = Math.max(0, highLevel_V(b) - b.low_V);
+  const tauA_s = (driveA.r_ohm + rS) * p.cA_F;
+  const tauB_s = (driveB.r_ohm + rS) * p.cB_F;
+  let fullA = Math.max(0, highLevel_V(aTail, aV0, aVbeF) - aLow);
+  let fullB = Math.max(0, highLevel_V(bTail, bV0, bVbeF) - bLow);
   let swingA = fullA;
   let swingB = fullB;
   let tAoff = 0;
   let tBoff = 0;
   for (let i = 0; i < 40; i++) {
-    tBoff = offPhase_s(p, p.rBB_ohm, p.cA_F, swingA, b.vReturn_V);
-    tAoff = offPhase_s(p, p.rBA_ohm, p.cB_F, swingB, a.vReturn_V);
+    tBoff = offPhase_s(p, p.rBB_ohm, p.cA_F, swingA, bReturn);
+    tAoff = offPhase_s(p, p.rBA_ohm, p.cB_F, swingB, aReturn);
     let moved = 0;
-    if (lv !== undefined && a.tail) {
+    if (lv !== undefined && aTail) {
       const n = tailVbe_V(lv, p.cA_F, tAoff);
-      moved = Math.abs(n - a.vbeF_V);
-      a.vbeF_V = n;
-      fullA = Math.max(0, highLevel_V(a) - a.low_V);
+      moved = Math.abs(n - aVbeF);
+      aVbeF = n;
+      fullA = Math.max(0, highLevel_V(aTail, aV0, aVbeF) - aLow);
     }
-    if (lv !== undefined && b.tail) {
+    if (lv !== undefined && bTail) {
       const n = tailVbe_V(lv, p.cB_F, tBoff);
-      moved = Math.max(moved, Math.abs(n - b.vbeF_V));
-      b.vbeF_V = n;
-      fullB = Math.max(0, highLevel_V(b) - b.low_V);
+      moved = Math.max(moved, Math.abs(n - bVbeF));
+      bVbeF = n;
+      fullB = Math.max(0, highLevel_V(bTail, bV0, bVbeF) - bLow);
     }
     const nA = fullA * (1 - Math.exp(-tAoff / tauA_s));
     const nB = fullB * (1 - Math.exp(-tBoff / tauB_s));
@@ -431,14 +426,14 @@ export function evaluateCore(p: CoreParams): CoreTiming {
     tBoff_s: tBoff,
     period_s,
     aHigh: tAoff / period_s,
-    vHighA_V: highLevel_V(a),
-    vHighB_V: highLevel_V(b),
-    collectorHighA_V: highLevel_V(a) + (fo === undefined ? 0 : a.vbeF_V),
+    vHighA_V: highLevel_V(aTail, aV0, aVbeF),
+    vHighB_V: highLevel_V(bTail, bV0, bVbeF),
+    collectorHighA_V: highLevel_V(aTail, aV0, aVbeF) + (fo === undefined ? 0 : aVbeF),
     swingA_V: swingA,
     swingB_V: swingB,
     tauA_s,
     tauB_s,
-    returnA_V: a.vReturn_V,
-    returnB_V: b.vReturn_V,
+    returnA_V: aReturn,
+    returnB_V: bReturn,
   };
 }

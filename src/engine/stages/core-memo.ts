@@ -116,12 +116,21 @@ export function contentText(x: unknown): string {
       return "u";
     case "object": {
       if (x === null) return "n";
-      if (Array.isArray(x)) return `[${x.map(contentText).join(",")}]`;
+      // Written with plain loops (the same text as map and join): the search asks for the text of every
+      // new values object it makes.
+      if (Array.isArray(x)) {
+        let a = "[";
+        for (let i = 0; i < x.length; i++) a += (i === 0 ? "" : ",") + contentText(x[i]);
+        return a + "]";
+      }
       const o = x as Record<string, unknown>;
-      return `{${Object.keys(o)
-        .sort()
-        .map((k) => `${k}:${contentText(o[k])}`)
-        .join(",")}}`;
+      const keys = Object.keys(o).sort();
+      let t = "{";
+      for (let i = 0; i < keys.length; i++) {
+        const k = keys[i]!;
+        t += (i === 0 ? "" : ",") + k + ":" + contentText(o[k]);
+      }
+      return t + "}";
     }
     default:
       // Functions, symbols and bigints have no place in the core's values: a text no other shares.
@@ -201,6 +210,19 @@ export class CoreMemo<V extends object, R> {
     kept.answers.set(slot, r);
     if (++this.store.count >= this.perGeneration) this.age();
     return r;
+  }
+
+  /**
+   * f's answer, read from the kept answers where one is kept (as `call`), else computed and NOT kept: for
+   * the corners no later question asks for again (worst-corners.ts worstCaseFast), whose answers would only
+   * fill the store (and the garbage collector's work) without being read.
+   */
+  peek(v: V, q: BjtClass, db: DiodeClass, k: Corner, ctrl: number): R {
+    const s = this.scope;
+    const ci = ctrlIndex(ctrl);
+    if (s === undefined || ci < 0 || !Object.isFrozen(k)) return this.f(v, q, db, k, ctrl);
+    const hit = this.keptFor(s, v, q, db).answers.get(cornerId(k) * 3 + ci);
+    return hit !== undefined ? hit : this.f(v, q, db, k, ctrl);
   }
 
   /** The newer generation becomes the older; the older one's answers go. */

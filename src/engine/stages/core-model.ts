@@ -16,9 +16,11 @@ import { excessBaseCurrent_A, regenerationCurrent_A } from "./core-levels.ts";
 import {
   type CollectorLoad,
   type CoreLevels,
+  type CoreParams,
   type CoreTiming,
   type FollowerParams,
   collectorThevenin,
+  drivingThevenin,
   evaluateCore,
   parallelLoads,
   followerOfCollector,
@@ -210,6 +212,13 @@ interface Prefix {
   fo: FollowerParams | undefined;
   levels: CoreLevels | undefined;
   vCutIn_V: number;
+  /** Each side's driving node (astable.ts drivingThevenin of the same loads), for evaluateCore. */
+  driveA: { v_V: number; r_ohm: number };
+  driveB: { v_V: number; r_ohm: number };
+  /** The tapped collector's rise but for its capacitor (riseOf). */
+  riseR_ohm: number;
+  riseHigh_V: number;
+  riseFrom_V: number;
 }
 
 function makePrefix(v: CoreValues, q: BjtClass, db: DiodeClass, k: Corner, ctrl: number): Prefix {
@@ -257,7 +266,78 @@ function makePrefix(v: CoreValues, q: BjtClass, db: DiodeClass, k: Corner, ctrl:
       : fo !== undefined
         ? Math.min(vOn_V, cutIn_V(v.diodes, db, k.t_C, v.bleed_ohm))
         : vOn_V;
-  return { rCA, rCB, vSat_V, rBA, rBB, vOn_V, tapA, loadA, loadB, cross, collLoad, startLoad, fo, levels, vCutIn_V };
+  const rise = riseOf(v, k, { rCA, rCB, vSat_V, tapA, cross, collLoad, startLoad, fo });
+  return {
+    rCA,
+    rCB,
+    vSat_V,
+    rBA,
+    rBB,
+    vOn_V,
+    tapA,
+    loadA,
+    loadB,
+    cross,
+    collLoad,
+    startLoad,
+    fo,
+    levels,
+    vCutIn_V,
+    driveA: drivingThevenin(k.vcc_V, rCA, fo, loadA, collLoad),
+    driveB: drivingThevenin(k.vcc_V, rCB, fo, loadB, collLoad),
+    riseR_ohm: rise.r_ohm,
+    riseHigh_V: rise.high_V,
+    riseFrom_V: rise.from_V,
+  };
+}
+
+/**
+ * The tapped collector's rise before the chain conducts, but for its coupling capacitor C_X (the threshold
+ * delay is thresholdDelay_s(r_ohm·C_X, high_V, from_V, V_th)): R_C towards V_cc, in parallel with any
+ * linear input network, charging its own coupling capacitor.
+ */
+function riseOf(
+  v: CoreValues,
+  k: Corner,
+  made: Pick<Prefix, "rCA" | "rCB" | "vSat_V" | "tapA" | "cross" | "collLoad" | "startLoad" | "fo">,
+): { r_ohm: number; high_V: number; from_V: number } {
+  const { rCA, rCB, vSat_V, tapA, cross, collLoad, startLoad, fo } = made;
+  const rCX = tapA ? rCA : rCB;
+  const pre = v.preLinear_ohm;
+  const preOnly = pre === undefined ? undefined : { r_ohm: pre, v_V: 0 };
+  // The start network loads the rising collector as well (where the loads sit on the collector).
+  const preLoad = startLoad === undefined || collLoad !== undefined ? preOnly : parallelLoads(preOnly, startLoad);
+  if (cross !== undefined && fo === undefined) {
+    // The tapped collector rises towards its Thevenin level with the linear input network and R_D.
+    const th = collectorThevenin(k.vcc_V, rCX, parallelLoads(preLoad, cross.load));
+    return { r_ohm: th.r_ohm, high_V: th.v_V, from_V: vSat_V };
+  }
+  if (fo === undefined) {
+    // The collector's Thevenin source with the linear input network and the start network's load (the
+    // ramp stage's fixed core carries one: start-network.ts startNetWanted).
+    const th = collectorThevenin(k.vcc_V, rCX, preLoad);
+    return { r_ohm: th.r_ohm, high_V: th.v_V, from_V: vSat_V };
+  }
+  if (fo.loadsOnCollector === true) {
+    // The chain listens to the collector; the follower only recharges the capacitor. Its base current
+    // i/(β_F + 1) is the collector's only extra load, so the collector moves with the emitter, one V_BE
+    // above it: c(t) = V_th − R_out/(R_out + R_S)·(V_th − V_BE,F − V_low)·e^(−t/τ), with V_th, R_th the
+    // loaded collector's Thevenin source (linear input network included), R_out = R_th/(β_F + 1) and
+    // τ = (R_out + R_S)·C (derived from followerOfCollector).
+    const c = collectorThevenin(k.vcc_V, rCX, preLoad);
+    const e = followerOfCollector(c, fo);
+    const vLow = vSat_V + (tapA ? fo.vFA_V : fo.vFB_V);
+    const vStart = c.v_V - (e.r_ohm / (e.r_ohm + fo.rS_ohm)) * Math.max(0, e.v_V - vLow);
+    return { r_ohm: e.r_ohm + fo.rS_ohm, high_V: c.v_V, from_V: Math.max(vSat_V, vStart) };
+  }
+  // The follower's emitter feeds the chain. When Q_X turns off the emitter leaves its clamped
+  // level V_low = V_CE(sat) + V_F at once, except for the drop the capacitor's recharge current
+  // makes across R_out: e(t) = V_th − R_out/(R_out + R_S)·(V_th − V_low)·e^(−t/τ), τ = (R_out + R_S)·C
+  // (derived from the emitter node's Thevenin equivalent, followerThevenin).
+  const th = followerThevenin(k.vcc_V, rCX, fo, preLoad, collLoad);
+  const vLow = vSat_V + (tapA ? fo.vFA_V : fo.vFB_V);
+  const vStart = th.v_V - (th.r_ohm / (th.r_ohm + fo.rS_ohm)) * Math.max(0, th.v_V - vLow);
+  return { r_ohm: th.r_ohm + fo.rS_ohm, high_V: th.v_V, from_V: vStart };
 }
 
 /**
@@ -329,6 +409,14 @@ export function evalCore(v: CoreValues, q: BjtClass, db: DiodeClass, k: Corner, 
   return CORE_MEMO.call(v, q, db, k, ctrl);
 }
 
+/**
+ * evalCore for a question no later one repeats: a kept answer is read, a new one is not kept
+ * (core-memo.ts peek). The same answer as evalCore.
+ */
+export function evalCoreOnce(v: CoreValues, q: BjtClass, db: DiodeClass, k: Corner, ctrl: number): CoreEval {
+  return CORE_MEMO.peek(v, q, db, k, ctrl);
+}
+
 /** Runs `body` (one variant's sizing) with the core's evaluations kept (core-memo.ts: read and made only there). */
 export function withCoreMemo<T>(body: () => T): T {
   return CORE_MEMO.within(body);
@@ -354,82 +442,74 @@ export function evalCoreFresh(v: CoreValues, q: BjtClass, db: DiodeClass, k: Cor
   return evalFrom(v, k, makePrefix(v, q, db, k, ctrl));
 }
 
-function evalFrom(v: CoreValues, k: Corner, made: Prefix): CoreEval {
-  const { rCA, rCB, vSat_V, rBA, rBB, vOn_V, tapA, loadA, loadB, cross, collLoad, startLoad, fo, levels, vCutIn_V } =
-    made;
-  const timing = evaluateCore({
-    vcc_V: k.vcc_V,
-    vOn_V,
-    vCutIn_V,
-    vSat_V,
-    rCA_ohm: rCA,
-    rCB_ohm: rCB,
-    cA_F: v.c_F * k.kCA,
-    cB_F: v.c_F * k.kCB,
-    rBA_ohm: rBA,
-    rBB_ohm: rBB,
-    loadA,
-    loadB,
-    collectorLoad: collLoad,
-    follower: fo,
-    cross: cross?.params,
-    levels,
-  });
+/**
+ * The parameters evalFrom hands evaluateCore, one object written afresh for every evaluation (evaluateCore
+ * keeps nothing of it, and calls back into nothing that evaluates the core): the search and the worst
+ * case evaluate the core millions of times per catalogue, and a new object each time was a large share of
+ * the garbage the collector had to sweep. Every field is written on every use, so nothing of an earlier
+ * evaluation is read.
+ */
+const PARAMS: Required<
+  Omit<CoreParams, "loadA" | "loadB" | "collectorLoad" | "follower" | "cross" | "levels" | "driveA" | "driveB">
+> &
+  CoreParams = {
+  vcc_V: 0,
+  vOn_V: 0,
+  vCutIn_V: 0,
+  vSat_V: 0,
+  rCA_ohm: 0,
+  rCB_ohm: 0,
+  cA_F: 0,
+  cB_F: 0,
+  rBA_ohm: 0,
+  rBB_ohm: 0,
+  loadA: undefined,
+  loadB: undefined,
+  collectorLoad: undefined,
+  follower: undefined,
+  cross: undefined,
+  levels: undefined,
+  driveA: undefined,
+  driveB: undefined,
+};
 
-  // The tapped collector's rise before the chain conducts: R_C towards Vcc, in parallel with any
-  // linear input network; it charges its own coupling capacitor.
-  const rCX = tapA ? rCA : rCB;
+function evalFrom(v: CoreValues, k: Corner, made: Prefix): CoreEval {
+  const { rCA, rCB, vSat_V, rBA, rBB, vOn_V, tapA, loadA, loadB, cross, collLoad, fo, levels, vCutIn_V } = made;
+  const p = PARAMS;
+  p.vcc_V = k.vcc_V;
+  p.vOn_V = vOn_V;
+  p.vCutIn_V = vCutIn_V;
+  p.vSat_V = vSat_V;
+  p.rCA_ohm = rCA;
+  p.rCB_ohm = rCB;
+  p.cA_F = v.c_F * k.kCA;
+  p.cB_F = v.c_F * k.kCB;
+  p.rBA_ohm = rBA;
+  p.rBB_ohm = rBB;
+  p.loadA = loadA;
+  p.loadB = loadB;
+  p.collectorLoad = collLoad;
+  p.follower = fo;
+  p.cross = cross?.params;
+  p.levels = levels;
+  p.driveA = made.driveA;
+  p.driveB = made.driveB;
+  const timing = evaluateCore(p);
+
+  // The tapped collector's rise to the chain's threshold (the prefix's rise: makePrefix), through its own
+  // coupling capacitor.
   const cX = v.c_F * (tapA ? k.kCA : k.kCB);
-  const pre = v.preLinear_ohm;
-  const preOnly = pre === undefined ? undefined : { r_ohm: pre, v_V: 0 };
-  // The start network loads the rising collector as well (where the loads sit on the collector).
-  const preLoad = startLoad === undefined || collLoad !== undefined ? preOnly : parallelLoads(preOnly, startLoad);
-  let dtTh_s: number | null;
-  if (cross !== undefined && fo === undefined) {
-    // The tapped collector rises towards its Thevenin level with the linear input network and R_D.
-    const th = collectorThevenin(k.vcc_V, rCX, parallelLoads(preLoad, cross.load));
-    dtTh_s = thresholdDelay_s(th.r_ohm * cX, th.v_V, vSat_V, v.vThTap_V);
-  } else if (fo === undefined) {
-    // The collector's Thevenin source with the linear input network and the start network's load (the
-    // ramp stage's fixed core carries one: start-network.ts startNetWanted).
-    const th = collectorThevenin(k.vcc_V, rCX, preLoad);
-    dtTh_s = thresholdDelay_s(th.r_ohm * cX, th.v_V, vSat_V, v.vThTap_V);
-  } else if (fo.loadsOnCollector === true) {
-    // The chain listens to the collector; the follower only recharges the capacitor. Its base current
-    // i/(β_F + 1) is the collector's only extra load, so the collector moves with the emitter, one V_BE
-    // above it: c(t) = V_th − R_out/(R_out + R_S)·(V_th − V_BE,F − V_low)·e^(−t/τ), with V_th, R_th the
-    // loaded collector's Thevenin source (linear input network included), R_out = R_th/(β_F + 1) and
-    // τ = (R_out + R_S)·C (derived from followerOfCollector).
-    const c = collectorThevenin(k.vcc_V, rCX, preLoad);
-    const e = followerOfCollector(c, fo);
-    const vLow = vSat_V + (tapA ? fo.vFA_V : fo.vFB_V);
-    const vStart = c.v_V - (e.r_ohm / (e.r_ohm + fo.rS_ohm)) * Math.max(0, e.v_V - vLow);
-    dtTh_s = thresholdDelay_s((e.r_ohm + fo.rS_ohm) * cX, c.v_V, Math.max(vSat_V, vStart), v.vThTap_V);
-  } else {
-    // The follower's emitter feeds the chain. When Q_X turns off the emitter leaves its clamped
-    // level V_low = V_CE(sat) + V_F at once, except for the drop the capacitor's recharge current
-    // makes across R_out: e(t) = V_th − R_out/(R_out + R_S)·(V_th − V_low)·e^(−t/τ), τ = (R_out + R_S)·C
-    // (derived from the emitter node's Thevenin equivalent, followerThevenin).
-    const th = followerThevenin(k.vcc_V, rCX, fo, preLoad, collLoad);
-    const vLow = vSat_V + (tapA ? fo.vFA_V : fo.vFB_V);
-    const vStart = th.v_V - (th.r_ohm / (th.r_ohm + fo.rS_ohm)) * Math.max(0, th.v_V - vLow);
-    dtTh_s = thresholdDelay_s((th.r_ohm + fo.rS_ohm) * cX, th.v_V, vStart, v.vThTap_V);
-  }
+  const dtTh_s = thresholdDelay_s(made.riseR_ohm * cX, made.riseHigh_V, made.riseFrom_V, v.vThTap_V);
   const dt = dtTh_s ?? timing.period_s;
   const tOn = v.inverting
     ? timing.tAoff_s + dt + v.delayOff_s - v.delayOn_s
     : timing.tAoff_s - dt - v.delayOn_s + v.delayOff_s;
   const duty = Math.min(1, Math.max(0, tOn / timing.period_s));
-  return {
-    timing,
-    f_Hz: 1 / timing.period_s,
-    duty,
-    dtTh_s,
-    vOn_V,
-    vCutIn_V: timing.returnA_V,
-    vSat_V,
-    ...(fo ? { follower: fo } : {}),
-  };
+  const f_Hz = 1 / timing.period_s;
+  const vCutInOut_V = timing.returnA_V;
+  return fo
+    ? { timing, f_Hz, duty, dtTh_s, vOn_V, vCutIn_V: vCutInOut_V, vSat_V, follower: fo }
+    : { timing, f_Hz, duty, dtTh_s, vOn_V, vCutIn_V: vCutInOut_V, vSat_V };
 }
 
 const CORE_MEMO = new CoreMemo<CoreValues, CoreEval>(evalCoreDirect);

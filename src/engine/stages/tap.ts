@@ -242,14 +242,21 @@ export function designTap(
   // R_C + R_G feeds the gate; R_G ≥ R_C·RG_SHARE_MIN, so R_C takes ≤ 1/(1 + share) of the fast limit.
   const rCg = rCfast / (1 + RG_SHARE_MIN);
   const rC = capRc(ctx, Math.min(rcMax, Math.max(rcMin(ctx), rCg > 1 ? roundDown(rCg, "E24") : 1)), capInjection);
+  // The smallest R_G that keeps the window, and for it the largest R_GS. Both lists ascend, so for one
+  // R_GS the first R_G that keeps the window is the only one that can be kept: every later one is larger.
   let best: { rG: number; rGS: number; lo: number; hi: number } | null = null;
-  for (const rGS of seriesBetween(1000, 100_000, "E24")) {
-    for (const rG of seriesBetween(100, 100_000, "E24")) {
+  const rGSs = seriesBetween(1000, 100_000, "E24");
+  const rGs = seriesBetween(100, 100_000, "E24");
+  for (let i = 0; i < rGSs.length; i++) {
+    const rGS = rGSs[i]!;
+    for (let j = 0; j < rGs.length; j++) {
+      const rG = rGs[j]!;
       if (rG < RG_SHARE_MIN * rC) continue;
       const lo = (ctx.vMin_V * rGS * (1 - tol)) / (rC * (1 + tol) + rG * (1 + tol) + rGS * (1 - tol));
       const hi = (ctx.vMax_V * rGS * (1 + tol)) / (rC * (1 - tol) + rG * (1 - tol) + rGS * (1 + tol));
       if (lo < need.vNeeded_V || hi > need.vMax_V) continue;
       if (best === null || rG < best.rG || (rG === best.rG && rGS > best.rGS)) best = { rG, rGS, lo, hi };
+      break;
     }
   }
   if (best === null) {

@@ -12,7 +12,7 @@
  * test/engine/stages/worst-corners.test.ts checks every result against the brute-force sweep.
  */
 import type { BjtClass, DiodeClass } from "../../model/device.ts";
-import { type CoreValues, type Corner, evalCore } from "./core-model.ts";
+import { type CoreValues, type Corner, evalCore, evalCoreOnce } from "./core-model.ts";
 import type { CoreTiming } from "./astable.ts";
 
 export interface Envelope {
@@ -168,25 +168,32 @@ export function worstCaseFast(v: CoreValues, q: BjtClass, db: DiodeClass, s: Cor
   const w = { f: r(), dMin: r(), dMid: r(), dMax: r() };
   let recovery = 0;
   let reached = true;
-  const duty = (set: readonly Corner[], ctrl: number, x: Range): void => {
+  // The sets no later question reads again (the simulation corners, sim-corners.ts, pick theirs from
+  // dMinHi, dMaxLo, dMaxHi, fLo and fHi; the search's pass test reads dMinHi, dMaxLo and rec) are read
+  // without keeping their answers (evalCoreOnce: the same answers).
+  const duty = (set: readonly Corner[], ctrl: number, x: Range, again = true): void => {
+    const ev = again ? evalCore : evalCoreOnce;
     for (const k of set) {
-      const e = evalCore(v, q, db, k, ctrl);
+      const e = ev(v, q, db, k, ctrl);
       x.lo = Math.min(x.lo, e.duty);
       x.hi = Math.max(x.hi, e.duty);
       if (e.dtTh_s === null) reached = false;
     }
   };
   duty(s.dMinHi, 0, w.dMin);
-  duty(s.dMinLo, 0, w.dMin);
+  duty(s.dMinLo, 0, w.dMin, false);
   duty(s.dMaxHi, 1, w.dMax);
   duty(s.dMaxLo, 1, w.dMax);
-  duty(s.dMidHi, 0.5, w.dMid);
-  duty(s.dMidLo, 0.5, w.dMid);
+  duty(s.dMidHi, 0.5, w.dMid, false);
+  duty(s.dMidLo, 0.5, w.dMid, false);
   for (const ctrl of [0, 0.5, 1])
-    for (const k of [...s.fLo, ...s.fHi, ...s.fHiTypical]) {
-      const e = evalCore(v, q, db, k, ctrl);
-      w.f.lo = Math.min(w.f.lo, e.f_Hz);
-      w.f.hi = Math.max(w.f.hi, e.f_Hz);
+    for (const set of [s.fLo, s.fHi, s.fHiTypical]) {
+      const ev = set === s.fHiTypical ? evalCoreOnce : evalCore;
+      for (const k of set) {
+        const e = ev(v, q, db, k, ctrl);
+        w.f.lo = Math.min(w.f.lo, e.f_Hz);
+        w.f.hi = Math.max(w.f.hi, e.f_Hz);
+      }
     }
   // Side A's off time is shortest at control 0, side B's at control 1.
   for (const k of s.rec) {

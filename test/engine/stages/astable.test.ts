@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import {
   collectorThevenin,
+  drivingThevenin,
   evaluateCore,
   halfPeriod_s,
   lnFactor,
@@ -75,5 +76,30 @@ describe("evaluateCore", () => {
     const c = evaluateCore({ ...base, rCA_ohm: 20_000, rCB_ohm: 20_000, rBA_ohm: 30_000 });
     expectClose(c.swingA_V, 11.9 * (1 - Math.exp(-c.tAoff_s / c.tauA_s)), 1e-9);
     expect(c.swingA_V).toBeLessThan(11.9);
+  });
+});
+
+describe("evaluateCore with its driving nodes handed in (derived: the same function of the same inputs)", () => {
+  it("gives the very numbers it works out itself, plain and follower cores", () => {
+    const loadA = { r_ohm: 2000, v_V: 0.7 };
+    const follower = { vBe_V: 0.65, beta: 80, rS_ohm: 220, vFA_V: 0.6, vFB_V: 0.62 };
+    for (const fo of [undefined, follower, { ...follower, loadsOnCollector: true }]) {
+      const p = {
+        vcc_V: 12,
+        vOn_V: 0.6,
+        vSat_V: 0.1,
+        rCA_ohm: 1000,
+        rCB_ohm: 1200,
+        cA_F: 1e-7,
+        cB_F: 1.1e-7,
+        rBA_ohm: 40_000,
+        rBB_ohm: 60_000,
+        loadA,
+        follower: fo,
+      };
+      const driveA = drivingThevenin(p.vcc_V, p.rCA_ohm, fo, loadA);
+      const driveB = drivingThevenin(p.vcc_V, p.rCB_ohm, fo, undefined);
+      expect(evaluateCore({ ...p, driveA, driveB })).toEqual(evaluateCore(p));
+    }
   });
 });

@@ -9,8 +9,14 @@ import type { BjtClass, DiodeClass } from "../../../src/model/device.ts";
 import { makeContext } from "../../../src/engine/stages/context.ts";
 import { CHAIN_PLANNERS } from "../../../src/engine/stages/chains/index.ts";
 import { tapAndTiming } from "../../../src/engine/size.ts";
-import { evalCore, evalCoreDirect, evalCoreFresh, withCoreMemo } from "../../../src/engine/stages/core-model.ts";
-import { contentText } from "../../../src/engine/stages/core-memo.ts";
+import {
+  evalCore,
+  evalCoreDirect,
+  evalCoreFresh,
+  evalCoreOnce,
+  withCoreMemo,
+} from "../../../src/engine/stages/core-model.ts";
+import { CoreMemo, contentText } from "../../../src/engine/stages/core-memo.ts";
 import { envelopeCorners } from "../../../src/engine/stages/worst-corners.ts";
 import { envelopeOf } from "../../../src/engine/stages/timing-search.ts";
 import { CORE_SEARCH_SAMPLE, type SpecOpts, makeSpec } from "../fixtures.ts";
@@ -90,6 +96,42 @@ describe("kept core evaluations equal the direct ones", () => {
       const distinct = new Set(variants.map((x) => JSON.stringify(evalCore(x, q, db, k, 0))));
       expect(distinct.size).toBeGreaterThan(3);
     });
+  });
+});
+
+describe("answers read but not kept (peek, evalCoreOnce)", () => {
+  it.each(sample.map((o) => [name(o), o] as const))("%s: the same answers at every set corner", (_n, o) => {
+    const { ctx, v, q, db } = sized(o);
+    const sets = envelopeCorners(envelopeOf(ctx));
+    withCoreMemo(() => {
+      for (const set of Object.values(sets))
+        for (const k of set)
+          for (const ctrl of [0, 0.5, 1])
+            expect(evalCoreOnce(v, q, db, k, ctrl)).toEqual(evalCoreFresh(v, q, db, k, ctrl));
+    });
+  });
+
+  it("reads a kept answer, keeps none of its own", () => {
+    const { ctx, v, q, db } = sized(sample[0]!);
+    const [k1, k2] = envelopeCorners(envelopeOf(ctx)).dMidHi;
+    let made = 0;
+    const memo = new CoreMemo<typeof v, number>((x, _q, _db, k) => {
+      made++;
+      return x.c_F * k.kCA;
+    });
+    memo.within(() => {
+      const kept = memo.call(v, q, db, k1!, 0.5);
+      expect(memo.peek(v, q, db, k1!, 0.5)).toBe(kept);
+      expect(made).toBe(1);
+      // Not kept: asked twice, made twice, and `call` then makes it once more.
+      expect(memo.peek(v, q, db, k2!, 0.5)).toBe(memo.peek(v, q, db, k2!, 0.5));
+      expect(made).toBe(3);
+      memo.call(v, q, db, k2!, 0.5);
+      expect(made).toBe(4);
+    });
+    // Outside a scope it is the function itself.
+    memo.peek(v, q, db, k1!, 0.5);
+    expect(made).toBe(5);
   });
 });
 
