@@ -5,7 +5,7 @@
  * chain, so their cold decks differ only beyond the chain's output. Such variants form a group, and the
  * group's cold runs are made once, on the circuit of the member with the heaviest load (its own published
  * netlist, whole): the member whose load sags the core's supply most (a larger current through the fuse's
- * resistance, a larger bulk capacitor to charge in the rise's fast top) and whose switch couples the most
+ * resistance, a larger bulk capacitor to charge as the supply rises) and whose switch couples the most
  * charge back into the chain's input (its Miller plateau rises with the drain current) — the hardest start
  * of the group. What is run is that member's cold decks; their text (cold-start.ts coldRunDeck) is the
  * cache key, so identical decks run once by construction.
