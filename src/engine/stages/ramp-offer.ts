@@ -43,13 +43,14 @@ import {
 } from "./ramp-duty.ts";
 import type { SimCorner, SimCornerName } from "../../model/corners.ts";
 import { RAMP_NETS, rampParts } from "./ramp-parts.ts";
+import { bufferedGate_V, bufferedGatePeak_A } from "./chains/gate-buffer.ts";
 
 /**
  * Chains the stage is offered to: the driven MOSFET (its input is RT into an NPN's base, the chain the
  * whole-circuit test ran in native ngspice: ramp-circuit.test.ts). The logic-level MOSFET's gate would
  * be discharged by R_LVL alone (a passive turn-off), which its chain model does not describe.
  */
-export const RAMP_OFFER_CHAINS: ReadonlySet<string> = new Set(["mosfet-driver"]);
+export const RAMP_OFFER_CHAINS: ReadonlySet<string> = new Set(["mosfet-driver", "mosfet-logic"]);
 /**
  * The PWM frequencies it is offered at, Hz. Simulated within its bands at 2 kHz (12 V bench strip), 4 kHz
  * (the demo's grow strip) and 5 kHz (grid cores, 5–12 V): the duty at control ½ within 2 points of the
@@ -111,6 +112,14 @@ export function rampLossesModelled(sized: SizedVariant): boolean {
   return sw <= RAMP_SWITCHING_SHARE_MAX * total;
 }
 
+/**
+ * How far the fixed core's nominal frequency, evaluated with the stage's load on collector A in place of
+ * the chain's input, may lie from the frequency it was sized for (ours): the grow strip's 24 V logic-level
+ * core sized with its gate divider on the collector came out 45 % slow without it (4523 Hz sized, 2520 Hz
+ * in native ngspice); the cores the stage ran in simulation agreed within 3 %.
+ */
+export const RAMP_CORE_F_AGREE = 0.05;
+
 /** The duty band the fixed core is sized for: the engine's own core search about 50 % (ours). */
 export const RAMP_CORE_DUTY = { min: 0.45, max: 0.55 } as const;
 /** Load kinds: not a winding (motors and solenoids were never simulated with the stage). */
@@ -145,8 +154,8 @@ export interface RampOffer {
   sizing: RampSizing;
   /** The chain's input as the PNP's collector feeds it. */
   info: TapInfo;
-  /** RT moved onto the tap, with its stress through the saturated PNP. */
-  rt: { part: Part; checks: StressCheck[]; problems: DesignProblem[] };
+  /** RT moved onto the tap, with its stress through the saturated PNP (a base-current input; absent: a gate). */
+  rt?: { part: Part; checks: StressCheck[]; problems: DesignProblem[] };
   parts: Part[];
   checks: StressCheck[];
   problems: DesignProblem[];
@@ -193,8 +202,6 @@ export function rampOffer(
   const v = timing.values;
   if (tap.follower !== undefined || v.crossBleed_ohm !== undefined || ctx.coreRail !== undefined) return null;
   if (spec.targets.pwm_Hz < RAMP_OFFER_BARE_CORE_MIN_HZ && v.startNet !== true) return null;
-  if (plan.need.kind !== "base-current" || !plan.need.inverting) return null;
-  const need = plan.need;
   const q = spec.devices.timing_npn as BjtClass;
   const pnp = spec.devices.driver_pnp as BjtClass | undefined;
   if (pnp === undefined || pnp.family !== "pnp") return null;
@@ -205,13 +212,11 @@ export function rampOffer(
   const rC = v.rC_ohm;
   const rOut = rC;
   const tol = ctx.rTol;
-  const rT = tap.info.rTap_ohm;
-  // The chain's input through RT from the PNP's collector: the rail less its saturation voltage.
+  // The chain's input on the PNP's collector: the rail less its saturation voltage.
   const vSatOut = vceSat(pnp, (ctx.vMax_V / rOut) * 2);
-  const iMin = (ctx.vMin_V - vSatOut - need.vClamp_V) / (rT * (1 + tol));
-  const iMax = (ctx.vMax_V - need.vThreshold_V) / (rT * (1 - tol));
-  if (!(iMin >= need.i_A)) return null;
-  const tapLoad_A = iMax;
+  const input = rampTapInput(plan, tap, ctx, vSatOut, rOut);
+  if (input === null) return null;
+  const { tapLoad_A, inverting } = input;
   const vOn = (vcc: number, t_C: number): number =>
     vbeOn(q, t_C) + (db === undefined ? 0 : diodeClassVf_V(db, (vcc - 1.3) / rB, t_C));
   const rRampLoad = Math.max(10 * rC, 4700);
@@ -263,7 +268,7 @@ export function rampOffer(
     dutyMin: t.duty_min,
     dutyMax: t.duty_max,
     beyondEnds: t.off_on_ends === true,
-    inverting: true,
+    inverting,
     rTol: tol,
     potTol,
     cTol,
@@ -276,6 +281,10 @@ export function rampOffer(
     diodeFactor: spec.policy.diode.voltage.factor,
   });
   if (!sizing.found) return null;
+  // The core as the stage runs it (its chain's input moved off collector A) keeps the period it was sized for.
+  const fNom = timing.figures.find((f) => f.key === "frequency_nominal")?.value;
+  const c0 = coreAt(spec.supply_V, NOMINAL_TEMP_C, [0])[0]!;
+  if (fNom === undefined || !(Math.abs(1 / (c0.tHigh_s + c0.tLow_s) / fNom - 1) <= RAMP_CORE_F_AGREE)) return null;
   const basePins = timing.parts.filter((p) => p.role === "RB_A" || p.role === "RB_B");
   const baseNet = (role: string): string => basePins.find((p) => p.role === role)?.pins["b"] ?? "";
   const built = rampParts({
@@ -296,20 +305,11 @@ export function rampOffer(
     diodeRev_V: sizing.worst.diodeRev_V,
     policy: spec.policy,
   });
-  const rt = resistor(
-    "chain",
-    "RT",
-    rT,
-    { a: RAMP_NETS.tap, b: tap.inputNet },
-    iMax * iMax * rT * (1 + tol),
-    spec.policy,
-    "tap: the level shifter's collector to the chain input",
-  );
   const w = sizing.worst;
   const ends = t.off_on_ends === true;
   // The nominal prediction on the nominal core (no tolerance), the corners on its extremes.
   const nomCore = coreAt(spec.supply_V, NOMINAL_TEMP_C, [0])[0]!;
-  const chain = { inverting: true, tapLoad_A };
+  const chain = { inverting, tapLoad_A };
   const at = (ctrl: number) =>
     evalRamp(sizing.values, nomCore, dev, { t_C: NOMINAL_TEMP_C, ...RAMP_NOMINAL }, ctrl, chain);
   const [e0, e5, e1] = [at(0), at(0.5), at(1)];
@@ -382,8 +382,8 @@ export function rampOffer(
     corners,
     spec,
     sizing,
-    info: { rC_ohm: rOut, rTap_ohm: rT, iMin_A: iMin, iMax_A: iMax, vLow_V: 0 },
-    rt,
+    info: input.info,
+    ...(input.rt === undefined ? {} : { rt: input.rt }),
     parts: built.parts,
     checks: built.checks,
     problems: built.problems,
@@ -423,6 +423,76 @@ export function rampOffer(
             `base–emitter junction holds that junction under ${w.vebRev_V.toFixed(2)} V`
           : ""),
     },
+  };
+}
+
+/** The chain's input on the stage's tap: its polarity, its current there, what the chain is told of the tap. */
+interface RampTapInput {
+  inverting: boolean;
+  /** The chain input's current while the tap is high (it flows in the PNP's collector with R_LVL's), A. */
+  tapLoad_A: number;
+  info: TapInfo;
+  rt?: { part: Part; checks: StressCheck[]; problems: DesignProblem[] };
+}
+
+/**
+ * The chain's input moved onto the PNP's collector (the tap; R_LVL = `rOut_ohm` its only pull-down), or
+ * null where it does not fit there:
+ * - a base-current input (the driven MOSFET's NPN, the BJT chains' first base) fed through RT, inverting
+ *   only: its current is (V − V_CE(sat) − V_clamp)/RT with no R_C in series;
+ * - the buffered gate (chains/gate-buffer.ts, its pair's bases on the tap): the gate at
+ *   (V − V_CE(sat) − V_BE)·R_GS/(R_G + R_GS) within the gate's window at both supply ends, the tap feeding
+ *   Q_HI's base share of the gate-current peak.
+ */
+function rampTapInput(
+  plan: ChainPlan,
+  tap: TapDesign,
+  ctx: Ctx,
+  vSatOut_V: number,
+  rOut_ohm: number,
+): RampTapInput | null {
+  const need = plan.need;
+  const tol = ctx.rTol;
+  if (need.kind === "buffered-gate" && !need.inverting) {
+    const lo = bufferedGate_V(ctx.vMin_V - vSatOut_V, need.vbe_V.cold, need.rG_ohm, need.rGS_ohm, tol, true);
+    const hi = bufferedGate_V(ctx.vMax_V, need.vbe_V.hot, need.rG_ohm, need.rGS_ohm, tol, false);
+    if (!(lo >= need.vNeeded_V && hi <= need.vMax_V)) return null;
+    const iPkBase = bufferedGatePeak_A(ctx.vMax_V, need.vbe_V.hot, need.rG_ohm, tol) / (need.betaMin + 1);
+    const iB = (ctx.vMin_V - need.vbe_V.cold) / ((need.rG_ohm + need.rGS_ohm) * (1 - tol) * (need.betaMin + 1));
+    return {
+      inverting: false,
+      tapLoad_A: iPkBase,
+      info: {
+        rC_ohm: rOut_ohm,
+        rTap_ohm: need.rG_ohm,
+        rGS_ohm: need.rGS_ohm,
+        iMin_A: iB,
+        iMax_A: iPkBase,
+        vLow_V: 0,
+        vGate_V: [lo, hi],
+        pullDown_ohm: rOut_ohm,
+      },
+    };
+  }
+  if (need.kind !== "base-current" || !need.inverting) return null;
+  const rT = tap.info.rTap_ohm;
+  const iMin = (ctx.vMin_V - vSatOut_V - need.vClamp_V) / (rT * (1 + tol));
+  const iMax = (ctx.vMax_V - need.vThreshold_V) / (rT * (1 - tol));
+  if (!(iMin >= need.i_A)) return null;
+  const rt = resistor(
+    "chain",
+    "RT",
+    rT,
+    { a: RAMP_NETS.tap, b: tap.inputNet },
+    iMax * iMax * rT * (1 + tol),
+    ctx.spec.policy,
+    "tap: the level shifter's collector to the chain input",
+  );
+  return {
+    inverting: true,
+    tapLoad_A: iMax,
+    info: { rC_ohm: rOut_ohm, rTap_ohm: rT, iMin_A: iMin, iMax_A: iMax, vLow_V: 0 },
+    rt,
   };
 }
 
