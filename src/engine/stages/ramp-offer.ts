@@ -46,11 +46,20 @@ import { RAMP_NETS, rampParts } from "./ramp-parts.ts";
 import { bufferedGate_V, bufferedGatePeak_A } from "./chains/gate-buffer.ts";
 
 /**
- * Chains the stage is offered to: the driven MOSFET (its input is RT into an NPN's base, the chain the
- * whole-circuit test ran in native ngspice: ramp-circuit.test.ts). The logic-level MOSFET's gate would
- * be discharged by R_LVL alone (a passive turn-off), which its chain model does not describe.
+ * Chains the stage is offered to, each simulated on the stage's tap in native ngspice (duty at the control's
+ * ends and ½, frequency, the switch's dissipation): the driven MOSFET (RT into its NPN, inverting:
+ * ramp-circuit.test.ts); the logic-level MOSFET, its gate behind the complementary followers since the tap is
+ * pulled low only through R_LVL (size.ts rampChain: ramp-logic.test.ts); the two- and three-stage Darlingtons
+ * (RT into the first base, non-inverting, turned off through RT + R_LVL: ramp-darlington.test.ts). Not the
+ * PNP-driven chain: no variant of the first asks it was tried on came out feasible (peak and SOA limits),
+ * so it was never simulated with the stage.
  */
-export const RAMP_OFFER_CHAINS: ReadonlySet<string> = new Set(["mosfet-driver", "mosfet-logic"]);
+export const RAMP_OFFER_CHAINS: ReadonlySet<string> = new Set([
+  "mosfet-driver",
+  "mosfet-logic",
+  "darlington-2",
+  "darlington-3",
+]);
 /**
  * The PWM frequencies it is offered at, Hz. Simulated within its bands at 2 kHz (12 V bench strip), 4 kHz
  * (the demo's grow strip) and 5 kHz (grid cores, 5–12 V): the duty at control ½ within 2 points of the
@@ -474,7 +483,7 @@ function rampTapInput(
       },
     };
   }
-  if (need.kind !== "base-current" || !need.inverting) return null;
+  if (need.kind !== "base-current") return null;
   const rT = tap.info.rTap_ohm;
   const iMin = (ctx.vMin_V - vSatOut_V - need.vClamp_V) / (rT * (1 + tol));
   const iMax = (ctx.vMax_V - need.vThreshold_V) / (rT * (1 - tol));
@@ -488,10 +497,12 @@ function rampTapInput(
     ctx.spec.policy,
     "tap: the level shifter's collector to the chain input",
   );
+  // A non-inverting input (the Darlingtons) turns off through RT and R_LVL in series: the chain is told.
+  const down = need.inverting ? {} : { pullDown_ohm: rOut_ohm };
   return {
-    inverting: true,
+    inverting: need.inverting,
     tapLoad_A: iMax,
-    info: { rC_ohm: rOut_ohm, rTap_ohm: rT, iMin_A: iMin, iMax_A: iMax, vLow_V: 0 },
+    info: { rC_ohm: rOut_ohm, rTap_ohm: rT, iMin_A: iMin, iMax_A: iMax, vLow_V: 0, ...down },
     rt,
   };
 }

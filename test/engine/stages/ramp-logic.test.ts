@@ -16,12 +16,13 @@ import { bufferedGate_V } from "../../../src/engine/stages/chains/gate-buffer.ts
 import { vbeOn, vceSat } from "../../../src/engine/shared/gain.ts";
 import type { BjtClass } from "../../../src/model/device.ts";
 import { loadProject } from "../../../src/records/load.ts";
-import { renderNetlist, setCtrl } from "../../../src/render/netlist.ts";
+import { renderNetlist } from "../../../src/render/netlist.ts";
 import { renderSchematic } from "../../../src/render/schematic.ts";
 import { renderBom } from "../../../src/render/bom.ts";
 import type { DesignRecord } from "../../../src/model/design.ts";
 import { REPO } from "../../records/project.ts";
-import { hasNgspice, meas, runNgspice, withStatements } from "../../render/ngspice.ts";
+import { hasNgspice } from "../../render/ngspice.ts";
+import { type RampRun, rampRunAt } from "./ramp-runs.ts";
 import { expectSameDesignators } from "../../render/designators.ts";
 
 const project = await loadProject(REPO);
@@ -52,53 +53,6 @@ function sizedAt(id: string) {
   const fig = (k: string) => sized.figures.find((f) => f.key === k)!;
   const meta = { id, title: "shelf logic strip (test)", supply_V: s.supply_V, frequency_Hz: s.targets.pwm_Hz, devices };
   return { s, sized, circuit, role, fig, meta, netlist: renderNetlist(circuit, meta) };
-}
-
-interface Run {
-  load: number;
-  f_Hz: number;
-  /** The MOSFET's mean dissipation, v(sw)·i(vsense), W. */
-  p_W: number;
-  /** The gate's rise from 1 V to 8 V and fall from 8 V to 1 V, s (the ends do not switch: NaN). */
-  rise_s: number;
-  fall_s: number;
-}
-
-/** Load duty, frequency, the switch's dissipation and the gate's edges over periods 30–38 of a 60-period run. */
-function runAt(netlist: string, supply_V: number, f_Hz: number, ctrl: number): Run {
-  const half = supply_V / 2;
-  const tran = /^\.tran (\S+) (\S+) 0 (\S+)(.*)$/m.exec(netlist)!;
-  // Without `uic` (as the verifier's decks: src/verify/deck.ts simDeck): the operating point holds the `.ic`.
-  const run = netlist.replace(tran[0], `.tran ${tran[1]} ${60 / f_Hz} 0 ${tran[3]}`);
-  const switching = ctrl > 0 && ctrl < 1;
-  const deck = withStatements(setCtrl(run.replace(/^\.meas .*$/gm, ""), ctrl), [
-    `Bdload dload 0 V=u(${half}-v(sw))`,
-    "Bpsw psw 0 V=v(sw)*i(vsense)",
-    ".control",
-    "run",
-    `meas tran t1 when v(ca)=${half} rise=30`,
-    `meas tran t2 when v(ca)=${half} rise=38`,
-    "meas tran dload avg v(dload) from=t1 to=t2",
-    "meas tran psw avg v(psw) from=t1 to=t2",
-    ...(switching
-      ? [
-          "meas tran gr1 when v(g)=1 rise=32",
-          "meas tran gr8 when v(g)=8 rise=32",
-          "meas tran gf8 when v(g)=8 fall=32",
-          "meas tran gf1 when v(g)=1 fall=32",
-        ]
-      : []),
-    "quit",
-    ".endc",
-  ]);
-  const text = runNgspice(deck, 240_000);
-  return {
-    load: meas(text, "dload"),
-    f_Hz: 8 / (meas(text, "t2") - meas(text, "t1")),
-    p_W: meas(text, "psw"),
-    rise_s: switching ? meas(text, "gr8") - meas(text, "gr1") : NaN,
-    fall_s: switching ? meas(text, "gf1") - meas(text, "gf8") : NaN,
-  };
 }
 
 describe("the ramp stage on the logic-level MOSFET: the gate behind followers on the stage's tap", () => {
@@ -156,7 +110,11 @@ describe("the ramp stage on the logic-level MOSFET: the gate behind followers on
     () => {
       for (const v of [v1, v3]) {
         const f = v.fig("frequency_nominal").value;
-        const [r0, r5, r1] = [0, 0.5, 1].map((c) => runAt(v.netlist, 12, f, c)) as [Run, Run, Run];
+        const [r0, r5, r1] = [0, 0.5, 1].map((c) => rampRunAt(v.netlist, 12, f, c, true)) as [
+          RampRun,
+          RampRun,
+          RampRun,
+        ];
         const msg = `${v.s.id}: ${JSON.stringify({ r0, r5, r1 })}`;
         // Measured (native ngspice 39, 2026-12-05): 1 A: 0 / 0.522 / 1 against 0 / 0.514 / 1 predicted,
         // 3903 Hz against 3969 Hz; gate 193 ns up, 237 ns down against 50 ns and 0.91 µs worst case.

@@ -70,8 +70,9 @@ describe(`the ramp stage offered by sizeVariant (${ID}, demo numbers)`, () => {
     expect(logic.feasible).toBe(false);
     expect(logic.verdict.blocking.some((b) => b.rule.startsWith("duty-range"))).toBe(true);
     expect(rampOffered(logic.spec, logic)).toBe(true);
-    // The BJT chains are not (their turn-off through R_LVL and the Darlington's storage are not modelled).
-    expect(rampOffered({ ...logic.spec, chain: "darlington-2" }, logic)).toBe(false);
+    // So are the Darlingtons (ramp-darlington.test.ts); the PNP-driven chain is not (never simulated with it).
+    expect(rampOffered({ ...logic.spec, chain: "darlington-2" }, logic)).toBe(true);
+    expect(rampOffered({ ...logic.spec, chain: "bjt-driver-pnp" }, logic)).toBe(false);
     expect(rampOffered(v12, { ...logic, spec: v12 })).toBe(true);
     expect(rampOffered({ ...v12, targets: { ...v12.targets, pwm_Hz: 20_000 } }, { ...logic, spec: v12 })).toBe(false);
     // 1 kHz and 5 V are within the simulated bands (ramp-offer.ts RAMP_OFFER_MIN_HZ, RAMP_OFFER_MIN_V), below not.
