@@ -601,10 +601,47 @@ export function sizeWithRamp(
   why = "duty-range-unreachable",
   protectPair = RAMP_OFFER_PROTECTED_PAIR,
 ): SizedVariant | null {
-  const chosen = coreOf(rampCoreSpec(spec), false);
-  if (!chosen.core.timing.search.passed || chosen.core.cross !== undefined) return null;
-  const offer = rampOffer(spec, chosen.ctx, chosen.plan, chosen.core.tap, chosen.core.timing, why, protectPair);
-  return offer === null ? null : sizeChosen(chosen, offer);
+  for (const core of rampCores(spec, why)) {
+    const c = core();
+    if (c === null || !c.core.timing.search.passed || c.core.cross !== undefined) continue;
+    const chosen = rampChain(c, why);
+    if (chosen === null) continue;
+    const offer = rampOffer(spec, chosen.ctx, chosen.plan, chosen.core.tap, chosen.core.timing, why, protectPair);
+    if (offer !== null) return sizeChosen(chosen, offer);
+  }
+  return null;
+}
+
+/**
+ * The stage's fixed core (ramp-offer.ts rampCoreSpec), in the order tried. The core is sized with its
+ * chain's input on collector A, which the stage then takes away (rampOffer refuses a core whose period
+ * moves with that: RAMP_CORE_F_AGREE). For the logic-level MOSFET that input is a gate divider, at 24 V
+ * R_G + R_GS ≈ 1.5 kΩ against R_C 5.6 kΩ, which held the collector to a fifth of its swing (the core ran
+ * at 2.5 kHz without it, sized at 4.5 kHz); so it is tried second with the buffered gate's followers on
+ * the collector instead (their input, (R_G + R_GS)·(β + 1)).
+ */
+function rampCores(spec: VariantSpec, why: string): (() => CoreChoice | null)[] {
+  const coreSpec = rampCoreSpec(spec);
+  const plain = (): CoreChoice => coreOf(coreSpec, false);
+  if (spec.chain !== "mosfet-logic") return [plain];
+  const buffered = (): CoreChoice | null => {
+    const ctx = makeContext(coreSpec);
+    const plan = planGateBuffer(ctx, why);
+    if (plan.problems.some((p) => p.severity === "error")) return null;
+    return { spec: coreSpec, ctx, plan, core: tapAndTiming(ctx, plan, false) };
+  };
+  return [plain, buffered];
+}
+
+/**
+ * The chain as it hangs on the ramp stage's tap: the logic-level MOSFET's gate behind the complementary
+ * followers (chains/gate-buffer.ts, their bases on the tap), since only R_LVL pulls the tap low; every
+ * other chain as planned. Null where the buffered gate finds no gate network.
+ */
+function rampChain(chosen: CoreChoice, why: string): CoreChoice | null {
+  if (chosen.spec.chain !== "mosfet-logic") return chosen;
+  const plan = planGateBuffer(chosen.ctx, why, RAMP_NETS.tap);
+  return plan.problems.some((p) => p.severity === "error") ? null : { ...chosen, plan };
 }
 
 /** The chain's operating point's share of a regulated core rail: the core's current there. */
@@ -712,10 +749,10 @@ function rampView(chosen: CoreChoice, ramp: RampOffer): CoreView {
     loadBand: ramp.duty.load,
     info: ramp.info,
     tapNet: RAMP_NETS.tap,
-    tapParts: [ramp.rt.part],
-    tapChecks: [...ramp.rt.checks, ...ramp.checks],
+    tapParts: ramp.rt === undefined ? [] : [ramp.rt.part],
+    tapChecks: [...(ramp.rt?.checks ?? []), ...ramp.checks],
     stageParts: ramp.parts,
-    problems: [...ramp.problems, ...ramp.rt.problems],
+    problems: [...ramp.problems, ...(ramp.rt?.problems ?? [])],
     decisions: (toRef) => [{ refs: d.roles.map(toRef), topic: d.topic, choice: d.choice, reason: d.reason }],
   };
 }

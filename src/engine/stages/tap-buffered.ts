@@ -14,7 +14,7 @@ import { roundDown } from "../shared/e-series.ts";
 import { vceSat } from "../shared/gain.ts";
 import type { ChainInputNeed } from "../contracts.ts";
 import type { Ctx } from "./context.ts";
-import { bufferedGate_V } from "./chains/gate-buffer.ts";
+import { bufferedGate_V, bufferedGatePeak_A } from "./chains/gate-buffer.ts";
 import type { TapDesign } from "./tap.ts";
 
 type BufferedNeed = Extract<ChainInputNeed, { kind: "buffered-gate" }>;
@@ -55,7 +55,7 @@ export function designBufferedTap(
   const q = ctx.spec.devices.timing_npn as BjtClass;
   const dev = ctx.spec.devices.mosfet_logic as MosfetClass;
   const vthMid = (dev.vgs_th_V.min + dev.vgs_th_V.max) / 2;
-  const iPkBase = (ctx.vMax_V - need.vbe_V.hot) / (need.rG_ohm * (1 - tol) * (need.betaMin + 1));
+  const iPkBase = bufferedGatePeak_A(ctx.vMax_V, need.vbe_V.hot, need.rG_ohm, tol) / (need.betaMin + 1);
   return {
     tapNet: "ca",
     inputNet: "g",

@@ -64,13 +64,15 @@ describe(`the ramp stage offered by sizeVariant (${ID}, demo numbers)`, () => {
     expect(plain.verdict.blocking.some((b) => b.rule.startsWith("duty-range"))).toBe(true);
   });
 
-  it("offered only to the driven MOSFET refused on its duty range; the core sized for a narrow band about 50 %", () => {
-    const logic = sizeVariant(spec("bench-strip-12v-1a-mosfet-logic-led"));
-    // The logic-level MOSFET is not offered the stage: refused on the duty range, it keeps its pot core's page.
+  it("offered to the MOSFET chains refused on their duty range; the core sized for a narrow band about 50 %", () => {
+    const logic = sizePotCore(spec("bench-strip-12v-1a-mosfet-logic-led"));
+    // The logic-level MOSFET is offered the stage too (its gate behind the followers: ramp-logic.test.ts).
     expect(logic.feasible).toBe(false);
     expect(logic.verdict.blocking.some((b) => b.rule.startsWith("duty-range"))).toBe(true);
-    expect(logic.circuit?.parts.some((p) => p.role === "Q_LVL") ?? false).toBe(false);
-    expect(rampOffered(logic.spec, logic)).toBe(false);
+    expect(rampOffered(logic.spec, logic)).toBe(true);
+    // So are the Darlingtons (ramp-darlington.test.ts); the PNP-driven chain is not (never simulated with it).
+    expect(rampOffered({ ...logic.spec, chain: "darlington-2" }, logic)).toBe(true);
+    expect(rampOffered({ ...logic.spec, chain: "bjt-driver-pnp" }, logic)).toBe(false);
     expect(rampOffered(v12, { ...logic, spec: v12 })).toBe(true);
     expect(rampOffered({ ...v12, targets: { ...v12.targets, pwm_Hz: 20_000 } }, { ...logic, spec: v12 })).toBe(false);
     // 1 kHz and 5 V are within the simulated bands (ramp-offer.ts RAMP_OFFER_MIN_HZ, RAMP_OFFER_MIN_V), below not.
@@ -84,6 +86,15 @@ describe(`the ramp stage offered by sizeVariant (${ID}, demo numbers)`, () => {
     expect(rampOffered({ ...v12, load_kind: "motor" }, { ...logic, spec: v12 })).toBe(true);
     expect(rampOffered({ ...v12, load_kind: "solenoid" }, { ...logic, spec: v12 })).toBe(false);
     expect(rampOffered({ ...v12, targets: { ...v12.targets, pwm_Hz: 15_000 } }, { ...logic, spec: v12 })).toBe(true);
+    // The logic-level MOSFET and the Darlingtons were simulated on the stage at 1–4 kHz without a winding only:
+    // offered up to 5 kHz, not on a motor (ramp-offer.ts rampMaxHz).
+    const lv = { ...v12, chain: "mosfet-logic" as const };
+    expect(rampOffered({ ...lv, targets: { ...lv.targets, pwm_Hz: 5000 } }, { ...logic, spec: lv })).toBe(true);
+    expect(rampOffered({ ...lv, targets: { ...lv.targets, pwm_Hz: 10_000 } }, { ...logic, spec: lv })).toBe(false);
+    expect(rampOffered({ ...lv, load_kind: "motor" }, { ...logic, spec: lv })).toBe(false);
+    const dv = { ...v12, chain: "darlington-3" as const };
+    expect(rampOffered({ ...dv, targets: { ...dv.targets, pwm_Hz: 15_000 } }, { ...logic, spec: dv })).toBe(false);
+    expect(rampOffered({ ...dv, load_kind: "motor" }, { ...logic, spec: dv })).toBe(false);
     expect(rampCoreSpec(v12).targets).toMatchObject({
       duty_min: RAMP_CORE_DUTY.min,
       duty_max: RAMP_CORE_DUTY.max,

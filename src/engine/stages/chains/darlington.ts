@@ -136,8 +136,10 @@ function millerTime_s(
   const q_C = junctionCharge_C(first.cob_F, switchedVoltage_V(ctx, ctx.vMax_V));
   const vIn_V = devs.reduce((sum, d) => sum + vbeOn(d, ctx.taMax_C), 0);
   const beta = devs.reduce((p, d, k) => p * gain(d, Math.max(s.ic[k]!, 1e-6)), 1);
+  // On the ramp stage's tap (TapInfo.pullDown_ohm) the base sinks through R_T and R_LVL in series.
+  const rSink_ohm = tap.rTap_ohm + (tap.pullDown_ohm ?? 0);
   const iSink_A =
-    Math.max(0, vIn_V - (tap.vLow_V ?? 0)) / (tap.rTap_ohm * (1 + ctx.rTol)) + ctx.iMax_A / Math.max(beta, 1);
+    Math.max(0, vIn_V - (tap.vLow_V ?? 0)) / (rSink_ohm * (1 + ctx.rTol)) + ctx.iMax_A / Math.max(beta, 1);
   return q_C / iSink_A;
 }
 
@@ -312,7 +314,9 @@ export function planDarlington(ctx: Ctx, n: 2 | 3): ChainPlan {
             tMiller,
             "s",
             "chain",
-            "t_M = Q_CB,1(0→V_sw,off) / ((ΣV_BE − V_tap,low)/R_T + I_C/β_stack,typ)",
+            tap.pullDown_ohm === undefined
+              ? "t_M = Q_CB,1(0→V_sw,off) / ((ΣV_BE − V_tap,low)/R_T + I_C/β_stack,typ)"
+              : "t_M = Q_CB,1(0→V_sw,off) / (ΣV_BE/(R_T + R_LVL) + I_C/β_stack,typ)",
             "derived",
           ),
           ...lossFigures(ctx, {

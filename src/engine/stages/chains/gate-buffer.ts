@@ -42,7 +42,8 @@ import {
   mosfetLossFigures,
 } from "./mosfet-common.ts";
 import { recoveringTurnOn } from "./gate-recovery.ts";
-import type { ChainPlan, TapInfo } from "./types.ts";
+import type { ChainDecision, ChainPlan, TapInfo } from "./types.ts";
+import { formatValue } from "../../../model/format.ts";
 
 /**
  * Threshold temperature coefficient of a power MOSFET, V/K: data sheets show V_GS(th) falling by
@@ -81,6 +82,14 @@ export function bufferedGate_V(
 }
 
 /**
+ * The pair's gate-current peak through R_G, A: the gate rail less the source follower's hot V_BE across
+ * R_G at its low end, (V_cc,max − V_BE,hot)/(R_G·(1 − tol)) (derived; the gate driver's rule).
+ */
+export function bufferedGatePeak_A(vMax_V: number, vbeHot_V: number, rG_ohm: number, tol: number): number {
+  return (vMax_V - vbeHot_V) / (rG_ohm * (1 - tol));
+}
+
+/**
  * R_G and R_GS: R_G at least the value that keeps the pair's gate-current peak within the smaller of
  * the two collector ratings (the gate driver's rule, mosfet-driver.ts, on both halves), R_GS = 10 kΩ
  * where the supply's gate level stays within the derated V_GS max, else the divider with the smallest
@@ -108,7 +117,7 @@ export function gateNetwork(ctx: Ctx, sag_V: number): GateNetwork {
       for (const rG of seriesBetween(rGpk, 100_000, "E24"))
         if (fits(rG, rGS) && (pick === null || rG < pick.rG || (rG === pick.rG && rGS > pick.rGS))) pick = { rG, rGS };
   const net = pick ?? { rG: rGpk, rGS: RGS_OHM };
-  const iPk_A = (ctx.vMax_V - vbeHot) / (net.rG * (1 - tol));
+  const iPk_A = bufferedGatePeak_A(ctx.vMax_V, vbeHot, net.rG, tol);
   return {
     rG_ohm: net.rG,
     rGS_ohm: net.rGS,
@@ -137,17 +146,61 @@ export function vthMinAt_V(dev: MosfetClass, t_C: number): number {
  * emitter-follower output resistance, Sedra & Smith [src:sedra-smith]) in series with R_G, seen
  * through the R_GS divider as a Thevenin source (derived).
  */
-function gateSource(tap: TapInfo, beta: number, rGS: number): { rOn_ohm: number; rOff_ohm: number; share: number } {
-  const rOut = tap.rC_ohm / (beta + 1) + tap.rTap_ohm;
+function gateSource(
+  tap: TapInfo,
+  beta: number,
+  rGS: number,
+  betaLo = beta,
+): { rOn_ohm: number; rOff_ohm: number; share: number } {
+  const par = (r: number): number => (r * rGS) / (r + rGS);
+  // The ramp stage's tap (TapInfo.pullDown_ohm) is the mirror: its saturated PNP holds the bases up, so
+  // Q_HI's source is R_G alone, while R_LVL alone pulls them down, so Q_LO's is R_LVL/(β + 1) + R_G.
+  const down = tap.pullDown_ohm;
+  const rOn = down === undefined ? tap.rC_ohm / (beta + 1) + tap.rTap_ohm : tap.rTap_ohm;
+  const rOff = down === undefined ? tap.rTap_ohm : down / (betaLo + 1) + tap.rTap_ohm;
+  return { rOn_ohm: par(rOn), rOff_ohm: par(rOff), share: rGS / (rOn + rGS) };
+}
+
+/** The decision on a timing collector: R_C freed from the gate's edge budget. */
+function collectorDecision(tap: TapInfo, why: string): ChainDecision {
   return {
-    rOn_ohm: (rOut * rGS) / (rOut + rGS),
-    rOff_ohm: (tap.rTap_ohm * rGS) / (tap.rTap_ohm + rGS),
-    share: rGS / (rOut + rGS),
+    roles: ["Q_HI", "Q_LO"],
+    topic: "Gate buffer",
+    choice:
+      "complementary emitter followers between the timing collector and the gate " +
+      `(R_C ${tap.rC_ohm} Ω feeds only their base current)`,
+    reason:
+      `without it no timing core passes (${why}): fed from the collector, the gate's edge budget caps R_C ` +
+      "and with it the timing transistors' largest base resistor β·R_C/k; through the followers the " +
+      "collector supplies ≈ Q_G/(β + 1), so R_C is sized for the core " +
+      "(push-pull follower, Horowitz & Hill, ch. 2)",
   };
 }
 
-/** Plan of the buffered gate; `why` is the failure every unbuffered core attempt gave. */
-export function planGateBuffer(ctx: Ctx, why: string): ChainPlan {
+/**
+ * The decision on the ramp stage's tap (ramp-offer.ts): the level shifter's PNP drives the tap high, and
+ * only R_LVL pulls it low, so a gate hung on it would be discharged through R_LVL alone.
+ */
+function rampTapDecision(tap: TapInfo, src: { rOff_ohm: number }, qg_C: number): ChainDecision {
+  const rLvl = tap.pullDown_ohm ?? tap.rC_ohm;
+  return {
+    roles: ["Q_HI", "Q_LO"],
+    topic: "Gate buffer",
+    choice: `complementary emitter followers between the duty stage's output and the gate (R_LVL ${rLvl} Ω)`,
+    reason:
+      "the duty stage's output transistor drives its output high, but only R_LVL pulls it low: a gate on it " +
+      `would discharge its ${formatValue(qg_C, "C")} through R_LVL; through the followers it discharges through ` +
+      `R_LVL/(β + 1) + R_G, ${formatValue(src.rOff_ohm, "Ω")} with R_GS at the slow corner ` +
+      "(push-pull follower, Horowitz & Hill, ch. 2)",
+  };
+}
+
+/**
+ * Plan of the buffered gate; `why` is the failure every unbuffered core attempt gave. `base` is the net
+ * the pair's bases sit on: the tapped timing collector A, or the ramp stage's tap (ramp-offer.ts), whose
+ * TapInfo then carries `pullDown_ohm`.
+ */
+export function planGateBuffer(ctx: Ctx, why: string, base = "ca"): ChainPlan {
   const D = ctx.spec.devices;
   const dev = D.mosfet_logic as MosfetClass;
   const qhi = D.driver_npn as BjtClass;
@@ -162,12 +215,13 @@ export function planGateBuffer(ctx: Ctx, why: string): ChainPlan {
   const net = gateNetwork(ctx, 10_000 * (1 + tol) * iBstatic);
   const vbe = { nom: vbeOn(qhi, NOMINAL_TEMP_C), cold: vbeOn(qhi, ctx.taMin_C), hot: vbeOn(qhi, ctx.taMax_C) };
   const betaNom = hfeMin(qhi, Math.min(qhi.ic_max_A, net.iPk_A), NOMINAL_TEMP_C);
+  const betaLoNom = hfeMin(qlo, Math.min(qlo.ic_max_A, net.iPk_A), NOMINAL_TEMP_C);
   const vOffNom = (vLow: number): number => bufferedOffLevel_V(vLow, qlo, NOMINAL_TEMP_C);
   // Drain swing while current flows (as the gate driver's nominal edges, mosfet-driver.ts).
   const vSwingNom = ctx.load.inductive ? ctx.vNom_V : Math.max(0.1 * ctx.vNom_V, ctx.vNom_V - ctx.load.vf_V);
   /** Nominal edges: delays (lag to the plateau + half the transit) and the transits themselves. */
   const nominal = (tap: TapInfo) => {
-    const src = gateSource(tap, betaNom, net.rGS_ohm);
+    const src = gateSource(tap, betaNom, net.rGS_ohm, betaLoNom);
     const vLow = tap.vLow_V ?? 0;
     const vg = (ctx.vNom_V - vbe.nom) * src.share;
     const vOff = Math.min(vOffNom(vLow), 0.5 * plateauAt_V(dev, ctx.iNom_A));
@@ -187,7 +241,7 @@ export function planGateBuffer(ctx: Ctx, why: string): ChainPlan {
     betaLo: net.betaLo,
     rail: "vbus",
     // Non-inverting: the tap stage taps collector A (tap.ts), where the pair's bases sit.
-    base: "ca",
+    base,
     railMax_V: ctx.vMax_V,
     iPk_A: net.iPk_A,
     iGpk_A: Math.min(qhi.ic_max_A, net.iPk_A),
@@ -237,10 +291,12 @@ export function planGateBuffer(ctx: Ctx, why: string): ChainPlan {
       // Worst case: cold minimum gain, resistors at their slow ends, the off level at the hot corner
       // (the lowest V_EB: the emitter follows the collector closest) is not the slow one, so the
       // off transit is taken from the highest off level (cold).
+      const slow = { rC_ohm: tap.rC_ohm * (1 + tol), rTap_ohm: tap.rTap_ohm * (1 + tol) };
       const src = gateSource(
-        { ...tap, rC_ohm: tap.rC_ohm * (1 + tol), rTap_ohm: tap.rTap_ohm * (1 + tol) },
+        { ...tap, ...slow, ...(tap.pullDown_ohm === undefined ? {} : { pullDown_ohm: tap.pullDown_ohm * (1 + tol) }) },
         net.betaHi,
         net.rGS_ohm,
+        net.betaLo,
       );
       const vOffCold = bufferedOffLevel_V(vLow, qlo, ctx.taMin_C);
       // Referred to the off level (the gate swings between it and V_G): t ≈ Q_G·R/ΔV.
@@ -250,8 +306,9 @@ export function planGateBuffer(ctx: Ctx, why: string): ChainPlan {
       // gate follows the collector one V_BE down, so the collector's rise through R_C·C_T paces the
       // plateau; the model's collector also carries the gate current (here only its 1/(β + 1) share),
       // so it errs slow, the side a loss estimate may err on.
+      // The ramp stage's tap is not a recovering collector: its PNP drives the bases high at once.
       const tOnRec =
-        op.core === undefined
+        op.core === undefined || tap.pullDown_ohm !== undefined
           ? null
           : recoveringTurnOn({
               vHigh_V: ctx.vNom_V,
@@ -355,18 +412,7 @@ export function planGateBuffer(ctx: Ctx, why: string): ChainPlan {
             },
           },
         ],
-        decision: {
-          roles: ["Q_HI", "Q_LO"],
-          topic: "Gate buffer",
-          choice:
-            "complementary emitter followers between the timing collector and the gate " +
-            `(R_C ${tap.rC_ohm} Ω feeds only their base current)`,
-          reason:
-            `without it no timing core passes (${why}): fed from the collector, the gate's edge budget caps R_C ` +
-            "and with it the timing transistors' largest base resistor β·R_C/k; through the followers the " +
-            "collector supplies ≈ Q_G/(β + 1), so R_C is sized for the core " +
-            "(push-pull follower, Horowitz & Hill, ch. 2)",
-        },
+        decision: tap.pullDown_ohm === undefined ? collectorDecision(tap, why) : rampTapDecision(tap, src, dev.qg_C),
         figures: [
           ...channelFigures([rdsOnHotFigure(dev, r, vgMin)], dev, vgMin),
           figure(
@@ -375,7 +421,10 @@ export function planGateBuffer(ctx: Ctx, why: string): ChainPlan {
             vgMin,
             "V",
             "chain",
-            "V_GS = (V_C,high − V_BE(Q_HI)) · R_GS/(R_G + R_GS); V_C,high = V_cc,min − R_C·I_B, cold, tolerances",
+            tap.pullDown_ohm === undefined
+              ? "V_GS = (V_C,high − V_BE(Q_HI)) · R_GS/(R_G + R_GS); V_C,high = V_cc,min − R_C·I_B, cold, tolerances"
+              : "V_GS = (V_tap,high − V_BE(Q_HI)) · R_GS/(R_G + R_GS); V_tap,high = V_cc,min − V_CE(sat) of the " +
+                  "duty stage's PNP, cold, tolerances",
             "derived",
             [vgMin, vgMax],
           ),
@@ -385,7 +434,8 @@ export function planGateBuffer(ctx: Ctx, why: string): ChainPlan {
             vOffHot,
             "V",
             "chain",
-            `V_CE(sat) + V_EB(Q_LO), against V_GS(th),min ${vthHot.toFixed(2)} V at ${ctx.taMax_C} °C ` +
+            `${tap.pullDown_ohm === undefined ? "V_CE(sat)" : "0 V (R_LVL)"} + V_EB(Q_LO), against V_GS(th),min ` +
+              `${vthHot.toFixed(2)} V at ${ctx.taMax_C} °C ` +
               `(${(VTH_TEMPCO_VperK * 1e3).toFixed(0)} mV/K, from memory)`,
             "derived",
           ),
@@ -407,11 +457,17 @@ export function planGateBuffer(ctx: Ctx, why: string): ChainPlan {
             "P = Q_G·V_cc,max·f_max + V_cc,max²/(R_G + R_GS)·D_max",
             "derived",
           ),
-          ...transitionFigures(
-            t,
-            "t_on = Q_G·((R_C/(β+1) + R_G) ∥ R_GS)/(V_GS − V_plateau)",
-            "t_off = Q_G·(R_G ∥ R_GS)/(V_plateau − V_off)",
-          ),
+          ...(tap.pullDown_ohm === undefined
+            ? transitionFigures(
+                t,
+                "t_on = Q_G·((R_C/(β+1) + R_G) ∥ R_GS)/(V_GS − V_plateau)",
+                "t_off = Q_G·(R_G ∥ R_GS)/(V_plateau − V_off)",
+              )
+            : transitionFigures(
+                t,
+                "t_on = Q_G·(R_G ∥ R_GS)/(V_GS − V_plateau)",
+                "t_off = Q_G·((R_LVL/(β+1) + R_G) ∥ R_GS)/(V_plateau − V_off)",
+              )),
           ...channelFigures(mosfetLossFigures(ctx, pCond, pSw), dev, vgMin),
         ],
       };

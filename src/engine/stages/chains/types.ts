@@ -60,6 +60,12 @@ export interface TapInfo {
   vLow_V?: number;
   /** Gate voltage range reached (mosfet-logic), V. */
   vGate_V?: [number, number];
+  /**
+   * The tap is the ramp stage's level-shifter collector (ramp-offer.ts): driven high by a saturated PNP and
+   * pulled low only through this resistor (R_LVL), Ω — the mirror of a timing collector, which R_C pulls
+   * up and its transistor pulls down. Absent: a timing collector.
+   */
+  pullDown_ohm?: number;
 }
 
 /**
