@@ -8,26 +8,18 @@
  * dissipation against the model.
  */
 import { describe, expect, it } from "vitest";
-import { expandDesign } from "../../../src/expand/expand.ts";
-import { chooseDevices } from "../../../src/engine/devices/choose.ts";
-import { sizePotCore, sizeVariant } from "../../../src/engine/size.ts";
+import { sizePotCore } from "../../../src/engine/size.ts";
 import { RAMP_NETS } from "../../../src/engine/stages/ramp-parts.ts";
 import { makeContext } from "../../../src/engine/stages/context.ts";
 import { planDarlington } from "../../../src/engine/stages/chains/darlington.ts";
 import { START_NET_ROLES } from "../../../src/model/part-roles.ts";
-import { loadProject } from "../../../src/records/load.ts";
-import { renderNetlist } from "../../../src/render/netlist.ts";
 import { renderSchematic } from "../../../src/render/schematic.ts";
 import { renderBom } from "../../../src/render/bom.ts";
 import type { DesignRecord } from "../../../src/model/design.ts";
-import { REPO } from "../../records/project.ts";
+import { devices, recordSizer } from "./ramp-sized.ts";
 import { hasNgspice } from "../../render/ngspice.ts";
 import { expectSameDesignators } from "../../render/designators.ts";
 import { type RampRun, rampRunAt } from "./ramp-runs.ts";
-
-const project = await loadProject(REPO);
-if (!project.ok) throw new Error(`demo records must load: ${project.issues[0]?.message}`);
-const devices = project.devices;
 
 // Demo numbers (the greenhouse's potting shed): a record of this test's own, outside designs/.
 const record = {
@@ -39,21 +31,7 @@ const record = {
   targets: { pwm_Hz: 1000, duty_min: 0.15, duty_max: 0.95, ambient_C: [0, 40] },
   supply: { battery: "lead-acid" },
 } as unknown as DesignRecord;
-const variants = expandDesign(record, {
-  choose: (x, v, a, c, k) => chooseDevices(x, devices, v, a, c, k),
-  policy: project.policy,
-});
-const spec = (id: string) => variants.find((v) => v.id === id)!;
-
-function sizedAt(id: string) {
-  const s = spec(id);
-  const sized = sizeVariant(s);
-  const circuit = sized.circuit!;
-  const role = (r: string) => circuit.parts.find((p) => p.role === r);
-  const fig = (k: string) => sized.figures.find((f) => f.key === k)!;
-  const meta = { id, title: "shed lamp (test)", supply_V: s.supply_V, frequency_Hz: s.targets.pwm_Hz, devices };
-  return { s, sized, circuit, role, fig, meta, netlist: renderNetlist(circuit, meta) };
-}
+const sizedAt = recordSizer(record, "shed lamp (test)");
 
 describe("the ramp stage on the Darlington chains: RT from the stage's tap into the stack", () => {
   const d2 = sizedAt("shed-lamp-24v-250ma-darlington-2-lamp");

@@ -8,26 +8,18 @@
  * and the MOSFET's dissipation against the model.
  */
 import { describe, expect, it } from "vitest";
-import { expandDesign } from "../../../src/expand/expand.ts";
-import { chooseDevices } from "../../../src/engine/devices/choose.ts";
-import { sizePotCore, sizeVariant } from "../../../src/engine/size.ts";
+import { sizePotCore } from "../../../src/engine/size.ts";
 import { RAMP_NETS } from "../../../src/engine/stages/ramp-parts.ts";
 import { bufferedGate_V } from "../../../src/engine/stages/chains/gate-buffer.ts";
 import { vbeOn, vceSat } from "../../../src/engine/shared/gain.ts";
 import type { BjtClass } from "../../../src/model/device.ts";
-import { loadProject } from "../../../src/records/load.ts";
-import { renderNetlist } from "../../../src/render/netlist.ts";
 import { renderSchematic } from "../../../src/render/schematic.ts";
 import { renderBom } from "../../../src/render/bom.ts";
 import type { DesignRecord } from "../../../src/model/design.ts";
-import { REPO } from "../../records/project.ts";
+import { devices, recordSizer } from "./ramp-sized.ts";
 import { hasNgspice } from "../../render/ngspice.ts";
 import { type RampRun, rampRunAt } from "./ramp-runs.ts";
 import { expectSameDesignators } from "../../render/designators.ts";
-
-const project = await loadProject(REPO);
-if (!project.ok) throw new Error(`demo records must load: ${project.issues[0]?.message}`);
-const devices = project.devices;
 
 // Demo numbers (the greenhouse's propagation shelf): a record of this test's own, outside designs/.
 const record = {
@@ -39,21 +31,7 @@ const record = {
   targets: { pwm_Hz: 4000, duty_min: 0.05, duty_max: 0.95, off_on_ends: true, ambient_C: [5, 40] },
   supply: { battery: "lead-acid" },
 } as unknown as DesignRecord;
-const variants = expandDesign(record, {
-  choose: (x, v, a, c, k) => chooseDevices(x, devices, v, a, c, k),
-  policy: project.policy,
-});
-const spec = (id: string) => variants.find((v) => v.id === id)!;
-
-function sizedAt(id: string) {
-  const s = spec(id);
-  const sized = sizeVariant(s);
-  const circuit = sized.circuit!;
-  const role = (r: string) => circuit.parts.find((p) => p.role === r);
-  const fig = (k: string) => sized.figures.find((f) => f.key === k)!;
-  const meta = { id, title: "shelf logic strip (test)", supply_V: s.supply_V, frequency_Hz: s.targets.pwm_Hz, devices };
-  return { s, sized, circuit, role, fig, meta, netlist: renderNetlist(circuit, meta) };
-}
+const sizedAt = recordSizer(record, "shelf logic strip (test)");
 
 describe("the ramp stage on the logic-level MOSFET: the gate behind followers on the stage's tap", () => {
   const v1 = sizedAt("shelf-logic-12v-1a-mosfet-logic-led");

@@ -7,8 +7,6 @@
  * supply (the proof's two-rate rise and a linear 20 ms one) with and without the network.
  */
 import { describe, expect, it } from "vitest";
-import { expandDesign } from "../../../src/expand/expand.ts";
-import { chooseDevices } from "../../../src/engine/devices/choose.ts";
 import { sizeVariant } from "../../../src/engine/size.ts";
 import { collectorThevenin } from "../../../src/engine/stages/astable.ts";
 import { NOMINAL_K, startNetAt } from "../../../src/engine/stages/core-model.ts";
@@ -16,7 +14,6 @@ import { START_NET, startMemoryCap_F } from "../../../src/engine/shared/start-ne
 import { START_NET_ROLES } from "../../../src/model/part-roles.ts";
 import type { CircuitModel } from "../../../src/model/circuit.ts";
 import type { BjtClass, DiodeClass } from "../../../src/model/device.ts";
-import { loadProject } from "../../../src/records/load.ts";
 import { renderNetlist, setCtrl } from "../../../src/render/netlist.ts";
 import { renderSchematic } from "../../../src/render/schematic.ts";
 import { renderBom } from "../../../src/render/bom.ts";
@@ -26,13 +23,9 @@ import { startNgspice } from "../../../src/verify/engines/ngspice.ts";
 import { supplyVoltage } from "../../../src/verify/deck.ts";
 import { RETRY_OPTIONS } from "../../../src/verify/runs.ts";
 import type { DesignRecord } from "../../../src/model/design.ts";
-import { REPO } from "../../records/project.ts";
+import { devices, expandOwn, recordSizer } from "./ramp-sized.ts";
 import { hasNgspice, meas, runNgspice, withStatements } from "../../render/ngspice.ts";
 import { expectSameDesignators } from "../../render/designators.ts";
-
-const project = await loadProject(REPO);
-if (!project.ok) throw new Error(`demo records must load: ${project.issues[0]?.message}`);
-const devices = project.devices;
 
 // Demo numbers (the greenhouse's propagation shelf): a record of this test's own, outside designs/.
 const record = {
@@ -44,21 +37,7 @@ const record = {
   targets: { pwm_Hz: 4000, duty_min: 0.05, duty_max: 0.95, off_on_ends: true, ambient_C: [5, 40] },
   supply: { battery: "lead-acid" },
 } as unknown as DesignRecord;
-const variants = expandDesign(record, {
-  choose: (x, v, a, c, k) => chooseDevices(x, devices, v, a, c, k),
-  policy: project.policy,
-});
-const spec = (id: string) => variants.find((v) => v.id === id)!;
-
-function sizedAt(id: string) {
-  const s = spec(id);
-  const sized = sizeVariant(s);
-  const circuit = sized.circuit!;
-  const role = (r: string) => circuit.parts.find((p) => p.role === r);
-  const fig = (k: string) => sized.figures.find((f) => f.key === k)!;
-  const meta = { id, title: "shelf strip (test)", supply_V: s.supply_V, frequency_Hz: s.targets.pwm_Hz, devices };
-  return { s, sized, circuit, role, fig, meta, netlist: renderNetlist(circuit, meta) };
-}
+const sizedAt = recordSizer(record, "shelf strip (test)");
 
 /** The circuit without the start network (its roles dropped), for the runs that compare. */
 function withoutNet(c: CircuitModel): CircuitModel {
@@ -211,10 +190,7 @@ describe("the stage at 1 kHz: kept only on a core that carries the start network
     supply: { battery: "lead-acid" },
     protection: { be_breakdown: "series-base-diode" },
   } as unknown as DesignRecord;
-  const lamp = expandDesign(lampRecord, {
-    choose: (x, v, a, c, k) => chooseDevices(x, devices, v, a, c, k),
-    policy: project.policy,
-  })[0]!;
+  const lamp = expandOwn(lampRecord)[0]!;
   const sized = sizeVariant(lamp);
   const parts = sized.circuit?.parts ?? [];
 
