@@ -5,7 +5,8 @@
  */
 import { expandDesign } from "../../../src/expand/expand.ts";
 import { chooseDevices } from "../../../src/engine/devices/choose.ts";
-import { sizeVariant } from "../../../src/engine/size.ts";
+import { expect } from "vitest";
+import { sizePotCore, sizeVariant } from "../../../src/engine/size.ts";
 import { loadProject } from "../../../src/records/load.ts";
 import { renderNetlist } from "../../../src/render/netlist.ts";
 import type { DesignRecord } from "../../../src/model/design.ts";
@@ -38,4 +39,19 @@ export function recordSizer(record: DesignRecord, title: string) {
     const meta = { id, title, supply_V: s.supply_V, frequency_Hz: s.targets.pwm_Hz, devices };
     return { s, sized, circuit, role, fig, meta, netlist: renderNetlist(circuit, meta) };
   };
+}
+
+/**
+ * The stage is what makes `v` feasible: every potentiometer core refuses it on a duty-range rule, and sized
+ * with the stage it is feasible with the stage's level shifter Q_LVL in place.
+ */
+export function expectStageNeeded(v: ReturnType<ReturnType<typeof recordSizer>>): void {
+  const plain = sizePotCore(v.s);
+  expect(plain.feasible, v.s.id).toBe(false);
+  expect(
+    plain.verdict.blocking.some((b) => b.rule.startsWith("duty-range")),
+    v.s.id,
+  ).toBe(true);
+  expect(v.sized.feasible, `${v.s.id}: ${v.sized.reason}`).toBe(true);
+  expect(v.role("Q_LVL"), v.s.id).toBeDefined();
 }
