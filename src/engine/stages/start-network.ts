@@ -34,13 +34,15 @@ import type { Corner, SimCorner } from "../../model/corners.ts";
  * Whether a core gets the start network: the follower core, the cross-returned core and the ramp stage's
  * fixed core, whose arrangements were measured to come up with both timing transistors on from a slowly
  * rising supply (docs/verification.md, "Cold start"). Not the plain core (measured: it stopped slow 24 V
- * heaters that start without it), not with a solenoid's pull-in timer (which holds base A itself), not on
- * a regulated core rail (the rail's own RC smooths the supply's rise; measured with the network before
- * its latch: the coverage grid's 36 V, 100 Hz railed follower core starts without it).
+ * heaters that start without it), not with a solenoid's pull-in timer (which holds base A itself). On a
+ * regulated core rail too: the rail follows the supply's rise, and under the whole 20 ms rise the coverage
+ * grid's 36 V, 100 Hz railed follower core stuck without the network and runs with it (its parts on
+ * vbus are moved onto the rail with the core's, so the latch is fed from the rail; measured 2026-12-05,
+ * test/verify/cold-start-rail-net.test.ts). Before the latch the network had balanced on that core.
  */
 export function startNetWanted(ctx: Ctx, tap: TapDesign, opts: { cross?: boolean; noStartNet?: boolean }): boolean {
   if (opts.noStartNet === true) return false;
-  if (ctx.spec.load_kind === "solenoid" || ctx.coreRail !== undefined) return false;
+  if (ctx.spec.load_kind === "solenoid") return false;
   return opts.cross === true || tap.follower !== undefined || ctx.spec.rampCore === true;
 }
 
