@@ -24,6 +24,9 @@ export interface Routing {
 }
 
 const eq = (a: number, b: number) => Math.abs(a - b) < 0.01;
+/** How far beyond two points' span a fallback route's middle leg may run, and its step (drawing units). */
+const WIDE_REACH = 120;
+const WIDE_STEP = 10;
 
 function segHitsBox(s: Seg, b: Box, m: number): boolean {
   const [[x1, y1], [x2, y2]] = s;
@@ -146,6 +149,45 @@ export class Router {
         [[bx, my], b],
       ]);
     }
+    return out;
+  }
+
+  /**
+   * The fallback when no route of `routes` is clear: Z routes whose middle leg runs anywhere across the
+   * two points' span and up to WIDE_REACH beyond it, nearest the middle first (a long connection, such as
+   * the start network's diodes up to the timing collectors, often finds its clear column away from the
+   * middle). Only tried for a pin that would otherwise get a flag, so drawings that route today stay.
+   */
+  static wideRoutes(a: Pt, b: Pt): Seg[][] {
+    const [ax, ay] = a;
+    const [bx, by] = b;
+    const out: Seg[][] = [];
+    const span = (u: number, v: number) => {
+      const mid = (u + v) / 2;
+      const lo = Math.min(u, v) - WIDE_REACH;
+      const hi = Math.max(u, v) + WIDE_REACH;
+      const xs: number[] = [];
+      for (let m = Math.ceil(lo / WIDE_STEP) * WIDE_STEP; m <= hi; m += WIDE_STEP) xs.push(m);
+      return xs.sort((p, q) => Math.abs(p - mid) - Math.abs(q - mid));
+    };
+    for (const mx of span(ax, bx))
+      out.push([
+        [a, [mx, ay]],
+        [
+          [mx, ay],
+          [mx, by],
+        ],
+        [[mx, by], b],
+      ]);
+    for (const my of span(ay, by))
+      out.push([
+        [a, [ax, my]],
+        [
+          [ax, my],
+          [bx, my],
+        ],
+        [[bx, my], b],
+      ]);
     return out;
   }
 

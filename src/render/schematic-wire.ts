@@ -97,6 +97,19 @@ export function wire(placed: Placed[], hints: readonly Hint[] = []): Routing {
           break;
         }
       }
+      const targets = targetsFor(next.pt).slice(0, 4);
+      for (let i = 0; !done && i < targets.length; i++) {
+        const ok = Router.wideRoutes(next.pt, targets[i]!).find((route) =>
+          route.every((s) => (s[0][0] === s[1][0] && s[0][1] === s[1][1] ? true : r.clear(s, net))),
+        );
+        if (ok) {
+          r.add(
+            net,
+            ok.filter((s) => s[0][0] !== s[1][0] || s[0][1] !== s[1][1]),
+          );
+          done = true;
+        }
+      }
       if (!done) {
         r.flag(net, next.pt, next.centre);
         if (!flagged) r.flag(net, first.pt, first.centre);

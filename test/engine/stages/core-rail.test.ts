@@ -96,9 +96,13 @@ describe("a 48 V heating cable, 5–95 % at 20 Hz, from the regulated core rail"
     expect(railed.spec.devices.timing_npn.id).toBe("npn-small-signal-high-gain");
   });
 
-  it("draws the rail as wires: no net flags, its parts left of the gate network, none in the switched column", () => {
+  it("draws the rail as wires: no flags on it, its parts left of the gate network, none in the switched column", () => {
     const { placed, routing } = layoutSchematic(railed.circuit!);
-    expect(routing.flags).toEqual([]);
+    // The core carries the start network (on rails since 2026-12-05); its two collector diodes, in the row
+    // under the core, reach the timing collectors by net labels on this core (as on the same core fed from
+    // the supply: the row's layout, docs/schematic.md). Nothing else is flagged.
+    expect(railed.circuit!.parts.some((p) => p.role === "QK_LATCH")).toBe(true);
+    expect(routing.flags.filter((f) => f.net !== "ca" && f.net !== "cb")).toEqual([]);
     expect(routing.hintsRefused).toBe(0);
     const x = (role: string) => placed.find((p) => p.role === role)!.cx;
     for (const r of ["RZ", "DZ", "C_RAIL"]) {
