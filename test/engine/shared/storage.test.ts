@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { storageTime_s } from "../../../src/engine/shared/storage.ts";
+import { activeTurnOff, storageTime_s } from "../../../src/engine/shared/storage.ts";
 import { expectClose } from "../../helpers/close.ts";
 
 // Charge-control storage time t_s = τ_s·ln((I_B1 + I_B2)/(I_C/β + I_B2)) (Millman & Halkias,
@@ -21,5 +21,44 @@ describe("storage time in the circuit from the datasheet's", () => {
   });
   it("rejects non-finite input", () => {
     expect(() => storageTime_s(1e-6, Number.NaN, 0, 0.1, 50)).toThrow(/iB1_A/);
+  });
+});
+
+// Turn-off of a transistor held out of saturation (charge control with recombination, Millman & Halkias 1972,
+// from memory; the solution derived): dQ/dt = −I_out − Q/(β·τ_F), I_C = Q/τ_F.
+describe("active-region turn-off (a Darlington's output stage)", () => {
+  it("worked example: 1.1 A, f_T 3 MHz, β 20, 9.7 mA bleed: t = 2.01 µs, loss time 1.41 µs (bleed alone 6.01)", () => {
+    const tauF = 1 / (2 * Math.PI * 3e6); // 53.05 ns
+    const r = activeTurnOff(1.1, tauF, 0.0097, 20);
+    // τ_B = 20·53.05 ns = 1.061 µs; x = 1.1/(20·0.0097) = 5.670; t = 1.061·ln 6.670 = 2.0115 µs;
+    // Q_F − I_out·t = 58.35 nC − 19.51 nC = 38.84 nC; t_loss = 2·20·38.84 nC/1.1 A = 1.4124 µs.
+    expectClose(r.t_s, 2.0115e-6, 1e-3);
+    expectClose(r.tLoss_s, 1.4105e-6, 2e-3);
+    const bleedOnly = activeTurnOff(1.1, tauF, 0.0097, Number.POSITIVE_INFINITY);
+    expectClose(bleedOnly.t_s, (1.1 * tauF) / 0.0097, 1e-12);
+    expectClose(bleedOnly.tLoss_s, bleedOnly.t_s, 1e-12);
+  });
+  it("matches the charge equation integrated step by step (time to zero and the charge the current passes)", () => {
+    const [iC, tauF, iOut, beta] = [0.5, 40e-9, 0.004, 35];
+    const tauB = beta * tauF;
+    let q = iC * tauF;
+    let t = 0;
+    let passed = 0; // ∫ I_C dt
+    const dt = 1e-11;
+    while (q > 0) {
+      const dq = -iOut - q / tauB;
+      passed += (q / tauF) * dt;
+      q += dq * dt;
+      t += dt;
+    }
+    const r = activeTurnOff(iC, tauF, iOut, beta);
+    expectClose(r.t_s, t, 1e-3);
+    expectClose(r.tLoss_s, (2 * passed) / iC, 1e-3);
+  });
+  it("is faster with more recombination (lower gain) and tends to the bleed-only time as the gain grows", () => {
+    const tauF = 50e-9;
+    expect(activeTurnOff(1, tauF, 0.01, 10).t_s).toBeLessThan(activeTurnOff(1, tauF, 0.01, 100).t_s);
+    expectClose(activeTurnOff(1, tauF, 0.01, 1e9).t_s, tauF / 0.01, 1e-6);
+    expect(activeTurnOff(1, tauF, 0, 20).tLoss_s).toBeCloseTo(2 * 20 * 50e-9, 15);
   });
 });

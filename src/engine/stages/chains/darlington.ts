@@ -11,6 +11,7 @@ import { nearest } from "../../shared/e-series.ts";
 import { figure } from "../../shared/figures.ts";
 import { hfeMax, hfeMin, hfeTypicalCurve, vbeOn, vbeSat, vceSat } from "../../shared/gain.ts";
 import { junctionCharge_C } from "../../shared/junction.ts";
+import { activeTurnOff } from "../../shared/storage.ts";
 import { conductionLossBjt_W, resistorPower_W, switchingLoss_W } from "../../shared/losses.ts";
 import { resistor, transistor } from "../../../circuit/parts.ts";
 import { type Ctx, OVERDRIVE_K, loadCurrentAt_A, switchedVoltage_V } from "../context.ts";
@@ -200,11 +201,27 @@ export function planDarlington(ctx: Ctx, n: 2 | 3): ChainPlan {
   // tap's largest drive is known (innerPeaks).
   for (let k = 0; k < n - 1; k++) checks.push(...switchSteadyChecks(ctx, STACK_ROLES[k]!, devs[k]!, worst.ic[k]!));
   // Output stage turn-off: no saturation charge, but its forward base charge I_C·τ_F (τ_F = 1/(2π f_T))
-  // must leave through RBE at ≈ V_BE/RBE (charge control, derived); else 3 × t_f (from memory).
-  const tOffLast =
-    last.ft_Hz !== undefined
-      ? last.t_fall_s + ctx.iMax_A / (2 * Math.PI * last.ft_Hz) / worst.bleed_A
-      : 3 * last.t_fall_s;
+  // must leave, through RBE and by recombination (shared/storage.ts activeTurnOff, charge control); without
+  // f_T, 3 × t_f (from memory). Three readings of the one relation:
+  //  - the edge (delays below): RBE's cold current alone (no recombination, the fastest bleed), as the
+  //    edges were measured and agree (docs/method.md, "Darlington edges with a winding");
+  //  - the worst-case loss and the turn-off figure: the slowest, the highest gain (gain.ts hfeMax, hot) and
+  //    the least bleed (hot V_BE over R_BE at its high end); a class without a maximum gain gives no
+  //    recombination (the bleed alone, slower still);
+  //  - the nominal loss (compared with the published cards' run): minimum gain and V_BE at 25 °C, R_BE nominal.
+  const tauF_s = last.ft_Hz === undefined ? undefined : 1 / (2 * Math.PI * last.ft_Hz);
+  const offAt = (beta: number, bleed_A: number): { t_s: number; tLoss_s: number } =>
+    tauF_s === undefined
+      ? { t_s: 3 * last.t_fall_s, tLoss_s: 3 * last.t_fall_s }
+      : (({ t_s, tLoss_s }) => ({ t_s: last.t_fall_s + t_s, tLoss_s: last.t_fall_s + tLoss_s }))(
+          activeTurnOff(ctx.iMax_A, tauF_s, bleed_A, beta),
+        );
+  const tOffEdge = offAt(Number.POSITIVE_INFINITY, worst.bleed_A).t_s;
+  const offWorst = offAt(
+    hfeMax(last, ctx.iMax_A, ctx.taMax_C) ?? Number.POSITIVE_INFINITY,
+    vbeOn(last, ctx.taMax_C) / (rBE * (1 + ctx.rTol)),
+  );
+  const offNom = offAt(hfeMin(last, ctx.iMax_A, NOMINAL_TEMP_C), vbeOn(last, NOMINAL_TEMP_C) / rBE);
   return {
     need: {
       kind: "base-current",
@@ -230,12 +247,13 @@ export function planDarlington(ctx: Ctx, n: 2 | 3): ChainPlan {
       ),
       figure(
         "turn_off_time",
-        "Output stage turn-off time",
-        tOffLast,
+        "Output stage turn-off time (worst case)",
+        offWorst.t_s,
         "s",
         "chain",
-        "t_off = t_f + (I_C/(2π f_T)) / (V_BE/R_BE)",
-        "derived",
+        "t_off = t_f + τ_B·ln(1 + I_C/(β·I_RBE)), τ_B = β/(2π f_T), β = β_max (hot), I_RBE = V_BE,hot/R_BE,max " +
+          "(charge control with recombination)",
+        "millman-halkias-1972",
       ),
     ],
     problems: [...rbe.problems],
@@ -251,7 +269,7 @@ export function planDarlington(ctx: Ctx, n: 2 | 3): ChainPlan {
       const off_s =
         ctx.switching === "clamped-inductive"
           ? devs[0]!.t_storage_s + last.t_fall_s / 2
-          : devs[0]!.t_storage_s + tOffLast / 2;
+          : devs[0]!.t_storage_s + tOffEdge / 2;
       return {
         on_s: ctx.switching === "clamped-inductive" ? last.t_rise_s : last.t_rise_s / 2,
         off_s,
@@ -270,7 +288,7 @@ export function planDarlington(ctx: Ctx, n: 2 | 3): ChainPlan {
         switchedVoltage_V(ctx, ctx.vMax_V),
         ctx.iMax_A,
         last.t_rise_s,
-        tOffLast + tMiller,
+        offWorst.tLoss_s + tMiller,
         op.fMax_Hz,
         ctx.switching,
       );
@@ -287,7 +305,7 @@ export function planDarlington(ctx: Ctx, n: 2 | 3): ChainPlan {
           p_W: pc + sw,
           isPower: k === n - 1,
           // Nominal: the published cards' minimum gain at 25 °C (the run the figure is compared with).
-          ...(k === n - 1 ? { tNom_s: { on: last.t_rise_s, off: tOffLast + tMillerMin } } : {}),
+          ...(k === n - 1 ? { tNom_s: { on: last.t_rise_s, off: offNom.tLoss_s + tMillerMin } } : {}),
         });
         vBelow += vbeSat(devs[k]!, Math.max(worst.ic[k]!, 1e-6));
       }
@@ -325,7 +343,10 @@ export function planDarlington(ctx: Ctx, n: 2 | 3): ChainPlan {
             conductionFormula: "P = Σ I_C,i · V_CE,i · D_max, V_CE,n = V_CE(sat),1 + Σ V_BE",
             switchingLabel: "Switching loss, output stage",
             switching_W: pSw,
-            transitions: "t_r + t_off + t_M",
+            transitions: "t_r + t_off,loss + t_M",
+            transitionsNote:
+              "t_off,loss = t_f + 2·β·(Q_F − I_RBE·t)/I_C, the charge the falling current passes (charge control " +
+              "with recombination, Q_F = I_C/(2π f_T)), at the turn-off figure's worst case",
           }),
           figure("stack_dissipation", "Dissipation in the whole stack", stackP, "W", "chain", "Σ P_i", "derived"),
         ],
