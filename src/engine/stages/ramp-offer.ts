@@ -255,8 +255,8 @@ export function rampOffer(
   if (input === null) return null;
   const { tapLoad_A, inverting } = input;
   // The load's edges lag the tap's by the chain's own delays, read with the tap's drive (RampChain.delays).
-  const { on_s, off_s } = plan.delays(input.info);
-  const delays = { on_s, off_s };
+  const chainDelays = plan.delays(input.info);
+  const delays = { on_s: chainDelays.on_s, off_s: chainDelays.off_s };
   const vOn = (vcc: number, t_C: number): number =>
     vbeOn(q, t_C) + (db === undefined ? 0 : diodeClassVf_V(db, (vcc - 1.3) / rB, t_C));
   const rRampLoad = Math.max(10 * rC, 4700);
@@ -366,6 +366,15 @@ export function rampOffer(
       w.d1.lo,
       w.d1.hi,
     ]),
+    figure(
+      "duty_error_delays",
+      "Duty error from device delays (tap to load)",
+      (delays.off_s - delays.on_s) / e5.period_s,
+      "",
+      "duty",
+      `(d_off − d_on)/T, in duty_min/mid/max; ${chainDelays.note}`,
+      "common-practice",
+    ),
     figure(
       "ramp_time_constant",
       "Ramp time constant R_RAMP·C_RAMP",
