@@ -22,6 +22,7 @@ import { VBE_MISMATCH_V, loadedByPairInput, pairSteer_V } from "../shared/diff-p
 import { storageTime_s } from "../shared/storage.ts";
 import { nearest, roundDown, roundUp } from "../shared/e-series.ts";
 import { diodeClassLaw, diodeClassVf_V } from "../shared/diode.ts";
+import { dutyAfterDelays } from "../shared/edge-delays.ts";
 
 /** The core's collector A at one corner, as the ramp sees it. */
 export interface RampCore {
@@ -131,10 +132,21 @@ function steer_V(v: RampValues, dev: RampDevices, f: number, vT_V: number): numb
   return (1 + n) * pairSteer_V(f, vT_V);
 }
 
+/**
+ * The chain on the tap as the stage sees it: its polarity, its input's current while the tap is high, and
+ * the delays from the tap's edges to the load's (ChainPlan.delays with the tap's TapInfo), s; absent
+ * delays: none (the load follows the tap's edges).
+ */
+export interface RampChain {
+  inverting: boolean;
+  tapLoad_A: number;
+  delays?: { on_s: number; off_s: number };
+}
+
 export interface RampEval {
   /** Duty at the tap (high fraction), 0…1. */
   tapDuty: number;
-  /** Duty the chain passes to the load (1 − tapDuty for an inverting chain). */
+  /** Duty the chain passes to the load (1 − tapDuty for an inverting chain, moved by the chain's delays). */
   duty: number;
   /** The tap stays at one level (the load does not pulse): "low", "high" or null. */
   stuck: "low" | "high" | null;
@@ -184,7 +196,7 @@ export function evalRamp(
   dev: RampDevices,
   k: RampCorner,
   ctrl: number,
-  chain: { inverting: boolean; tapLoad_A: number },
+  chain: RampChain,
 ): RampEval {
   const vT = thermalVoltage_V(k.t_C);
   const vbe = pairDrop_V(v, dev, k.t_C, core.rail_V, k.kTail);
@@ -239,7 +251,12 @@ export function evalRamp(
   // Tap high from the falling ramp's crossing of levelOn to the rising ramp's crossing of levelOff.
   const onTime = tLow - ramp.tLoadedLow_s + ramp.tFreeHigh_s + store;
   const tapDuty = Math.min(1, Math.max(0, onTime / period));
-  return { ...common, tapDuty, duty: chain.inverting ? 1 - tapDuty : tapDuty, stuck: null };
+  // The load's edges lag the tap's by the chain's delays (shared/edge-delays.ts): at 20 kHz the driven
+  // MOSFET's turn-on from the falling tap (its driver's storage) is 2–5 % of the period.
+  const input = chain.inverting ? 1 - tapDuty : tapDuty;
+  const d = chain.delays;
+  const duty = d === undefined ? input : dutyAfterDelays(input, period, d.on_s, d.off_s);
+  return { ...common, tapDuty, duty, stuck: null };
 }
 
 /**
@@ -381,7 +398,7 @@ export function rampWorst(
   supplies: readonly number[],
   ks: readonly RampCorner[],
   coreAt: CoreAt,
-  chain: { inverting: boolean; tapLoad_A: number },
+  chain: RampChain,
 ): RampWorst {
   const w: RampWorst = {
     d0: { lo: 1, hi: 0 },
@@ -450,6 +467,8 @@ export interface RampRequest {
   /** What the chain needs of the tap: R_OUT (its turn-off pull-down) and its input current when high. */
   rOut_ohm: number;
   tapLoad_A: number;
+  /** The chain's delays from the tap's edges to the load's (RampChain.delays); absent: none. */
+  delays?: { on_s: number; off_s: number };
   dev: RampDevices;
   coreAt: CoreAt;
   /** The derating policy's transistor voltage factor: the pair's reverse V_BE is held under V_EBO × it. */
@@ -529,7 +548,11 @@ function sizeRampAt(req: RampRequest, tauPerPeriod: number, protect: boolean): R
     potReversed: req.inverting,
     ...(protect ? { pairDiodes: true as const } : {}),
   };
-  const chain = { inverting: req.inverting, tapLoad_A: req.tapLoad_A };
+  const chain: RampChain = {
+    inverting: req.inverting,
+    tapLoad_A: req.tapLoad_A,
+    ...(req.delays === undefined ? {} : { delays: req.delays }),
+  };
   const lowCore = req.coreAt(vMinSupply, req.tMin_C)[0] ?? nomCore;
   const kCold: RampCorner = { t_C: req.tMin_C, ...RAMP_NOMINAL };
   const uLow = evalRamp(provisional, lowCore, req.dev, kCold, 0.5, chain).rampMin_V;
@@ -606,7 +629,7 @@ export function directionalCorners(
   v: RampValues,
   req: Pick<RampRequest, "supplies" | "tMin_C" | "tMax_C" | "rTol" | "potTol" | "cTol" | "dev" | "coreAt">,
   all: readonly RampCorner[],
-  chain: { inverting: boolean; tapLoad_A: number },
+  chain: RampChain,
 ): RampCorner[] {
   const keys = ["kRamp", "kCRamp", "kHi", "kLo", "kPot", "kHys", "kTail", "kCmp", "offset_V", "pairGain"] as const;
   type Key = (typeof keys)[number];

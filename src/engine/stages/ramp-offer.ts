@@ -36,6 +36,7 @@ import {
   rampCorners,
   sizeRamp,
   type RampCore,
+  type RampChain,
   type RampCorner,
   type RampDevices,
   type RampSizing,
@@ -253,6 +254,9 @@ export function rampOffer(
   const input = rampTapInput(plan, tap, ctx, vSatOut, rOut);
   if (input === null) return null;
   const { tapLoad_A, inverting } = input;
+  // The load's edges lag the tap's by the chain's own delays, read with the tap's drive (RampChain.delays).
+  const chainDelays = plan.delays(input.info);
+  const delays = { on_s: chainDelays.on_s, off_s: chainDelays.off_s };
   const vOn = (vcc: number, t_C: number): number =>
     vbeOn(q, t_C) + (db === undefined ? 0 : diodeClassVf_V(db, (vcc - 1.3) / rB, t_C));
   const rRampLoad = Math.max(10 * rC, 4700);
@@ -311,6 +315,7 @@ export function rampOffer(
     rC_ohm: rC,
     rOut_ohm: rOut,
     tapLoad_A,
+    delays,
     dev,
     coreAt: (vcc, t_C) => coreAt(vcc, t_C),
     vebFactor: spec.policy.bjt.voltage.factor,
@@ -346,7 +351,7 @@ export function rampOffer(
   const ends = t.off_on_ends === true;
   // The nominal prediction on the nominal core (no tolerance), the corners on its extremes.
   const nomCore = coreAt(spec.supply_V, NOMINAL_TEMP_C, [0])[0]!;
-  const chain = { inverting, tapLoad_A };
+  const chain = { inverting, tapLoad_A, delays };
   const at = (ctrl: number) =>
     evalRamp(sizing.values, nomCore, dev, { t_C: NOMINAL_TEMP_C, ...RAMP_NOMINAL }, ctrl, chain);
   const [e0, e5, e1] = [at(0), at(0.5), at(1)];
@@ -361,6 +366,15 @@ export function rampOffer(
       w.d1.lo,
       w.d1.hi,
     ]),
+    figure(
+      "duty_error_delays",
+      "Duty error from device delays (tap to load)",
+      (delays.off_s - delays.on_s) / e5.period_s,
+      "",
+      "duty",
+      `(d_off − d_on)/T, in duty_min/mid/max; ${chainDelays.note}`,
+      "common-practice",
+    ),
     figure(
       "ramp_time_constant",
       "Ramp time constant R_RAMP·C_RAMP",
@@ -604,7 +618,7 @@ function alike(s: number, rTol: number, cTol: number): CoreTols {
 export function rampSimCorners(
   v: RampValues,
   dev: RampDevices,
-  chain: { inverting: boolean; tapLoad_A: number },
+  chain: RampChain,
   env: {
     supplies: readonly number[];
     ks: readonly RampCorner[];

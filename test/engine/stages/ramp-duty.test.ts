@@ -8,6 +8,7 @@ import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { describe, expect, it } from "vitest";
 import { periodicSegmentStarts, rcRampExtremes, segmentTime_s } from "../../../src/engine/shared/rc-ramp.ts";
+import { dutyAfterDelays } from "../../../src/engine/shared/edge-delays.ts";
 import { loadedByPairInput, pairSteer_V } from "../../../src/engine/shared/diff-pair.ts";
 import { hfeMin, typicalGainRatio, vbeOn } from "../../../src/engine/shared/gain.ts";
 import { VT_NOMINAL_V } from "../../../src/engine/shared/temperature.ts";
@@ -242,6 +243,28 @@ describe("duty at a control position, from the ramp's exponential segments", () 
     });
     expect(hi.stuck).toBe("high");
     expect(hi.duty).toBe(1);
+  });
+  it("the chain's edge delays move the load's duty by (t_off − t_on)/T; the stuck ends stay 0 and 1 (derived)", () => {
+    // The inverting case above at 0.332946 of the tap: the load 1 − tapDuty. A turn-on delay of 3 µs and a
+    // turn-off delay of 1 µs over the 200 µs period take (1 − 3)/200 = 0.01 of the load's duty.
+    const { v, core } = symmetricCase(0.375);
+    const chain = { inverting: true, tapLoad_A: 0 };
+    const plain = evalRamp(v, core, devNoBase, NONE, 0.375, chain);
+    const late = evalRamp(v, core, devNoBase, NONE, 0.375, { ...chain, delays: { on_s: 3e-6, off_s: 1e-6 } });
+    expect(late.tapDuty).toBe(plain.tapDuty);
+    expect(late.duty).toBeCloseTo(1 - plain.tapDuty - 0.01, 12);
+    const stuck = evalRamp({ ...v, rLo_ohm: 1000, rHi_ohm: 30_000 }, core, devNoBase, NONE, 0, {
+      ...chain,
+      delays: { on_s: 3e-6, off_s: 1e-6 },
+    });
+    expect(stuck.duty).toBe(1);
+  });
+  it("dutyAfterDelays: the input's share plus (t_off − t_on)/T, held within 0…1; bad input named (hand)", () => {
+    expect(dutyAfterDelays(0.5, 50e-6, 1.5e-6, 0.4e-6)).toBeCloseTo(0.5 - 1.1 / 50, 12);
+    expect(dutyAfterDelays(0.99, 50e-6, 0, 1e-6)).toBe(1);
+    expect(dutyAfterDelays(0.01, 50e-6, 1e-6, 0)).toBe(0);
+    expect(() => dutyAfterDelays(0.5, 0, 0, 0)).toThrow(/period > 0/);
+    expect(() => dutyAfterDelays(0.5, 1e-3, -1e-6, 0)).toThrow(/≥ 0/);
   });
 });
 

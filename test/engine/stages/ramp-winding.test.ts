@@ -100,12 +100,17 @@ describe(`the ramp stage on a motor at 15 kHz (${ID}, the growers' first ask)`, 
       const msg =
         `load duty ${duty}, tap ${tap} simulated; ${fig("duty_mid")} predicted at the load; ${f} Hz against ` +
         `${fig("frequency_nominal")}`;
-      // Measured (ngspice 39, 2026-12-05): the tap high 0.441 of the period against 1 − 0.577 predicted (the
-      // inverting chain passes its complement), the load on 0.543 (the chain's edges take the rest; the
-      // embedded engine's verifier read 0.550), 13 960 Hz against 13 762 Hz. Bands: the stage's own 3 points
-      // (as ramp-mid.test.ts) on the tap and the verifier's 5 on the load (src/verify/compare.ts; common practice).
-      expect(Math.abs(tap - (1 - fig("duty_mid"))), msg).toBeLessThan(0.03);
-      expect(Math.abs(duty - fig("duty_mid")), msg).toBeLessThan(0.05);
+      // Measured (ngspice 39, 2026-12-05): the tap high 0.438–0.441 of the period against 1 − 0.577 predicted at
+      // the tap (the inverting chain passes its complement), the load on 0.543–0.544, 13 960 Hz against
+      // 13 762 Hz. The load's edges lag the tap's by the chain's delays (its driver's storage on the falling
+      // tap: 2.0 % of the period at turn-on, 0.25 % at turn-off, simulated); with them in the prediction
+      // (duty_error_delays, −1.0 point) the load reads 0.544 against 0.567, 3.4 points before. Bands: the
+      // stage's own 3 points (as ramp-mid.test.ts) on the tap and on the load (the verifier's is 5:
+      // src/verify/compare.ts; common practice).
+      const tapPredicted = 1 - (fig("duty_mid") - fig("duty_error_delays"));
+      expect(fig("duty_error_delays"), msg).toBeLessThan(0);
+      expect(Math.abs(tap - tapPredicted), msg).toBeLessThan(0.03);
+      expect(Math.abs(duty - fig("duty_mid")), msg).toBeLessThan(0.03);
       expect(Math.abs(f / fig("frequency_nominal") - 1), msg).toBeLessThan(0.05);
       // Continuous conduction: L/R = 1 ms (shared/loads.ts, from memory) against a 71 µs period, so the
       // winding's current never falls to zero, and while the switch is off the freewheel diode carries it:
