@@ -33,19 +33,22 @@ interface Engine {
   sizeVariant: (spec: unknown) => unknown;
   clearCoreMemo: () => void;
   clearSearches: () => void;
+  /** The ramp stage's kept sizings (absent in a checkout from before they were kept). */
+  clearRampSizings?: () => void;
 }
 
 /** The engine of the checkout at `root` (its own modules, so its own kept evaluations and searches). */
 async function engineAt(root: string): Promise<Engine> {
   const at = (p: string): string => path.join(root, p);
-  const [records, expand, engine, core, search] = await Promise.all([
+  const [records, expand, engine, core, search, ramp] = await Promise.all([
     import(at("src/records/index.ts")),
     import(at("src/expand/index.ts")),
     import(at("src/engine/index.ts")),
     import(at("src/engine/stages/core-model.ts")),
     import(at("src/engine/stages/timing-search.ts")),
+    import(at("src/engine/stages/ramp-offer.ts")),
   ]);
-  return { ...records, ...expand, ...engine, ...core, ...search } as Engine;
+  return { ...records, ...expand, ...engine, ...core, ...search, ...ramp } as Engine;
 }
 
 /** One checkout measured in this process: prints one line. */
@@ -63,6 +66,7 @@ async function measure(root: string, passes: number): Promise<void> {
   for (let p = 0; p < passes; p++) {
     e.clearCoreMemo();
     e.clearSearches();
+    e.clearRampSizings?.();
     let total = 0;
     specs.forEach((s, i) => {
       const c0 = process.cpuUsage();

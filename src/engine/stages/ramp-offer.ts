@@ -25,7 +25,8 @@ import { nearest } from "../shared/e-series.ts";
 import { figure } from "../shared/figures.ts";
 import { NOMINAL_TEMP_C } from "../shared/temperature.ts";
 import { collectorThevenin, evaluateCore, parallelLoads } from "./astable.ts";
-import { NOMINAL_K, startNetAt } from "./core-model.ts";
+import { type CoreValues, NOMINAL_K, coreMemoActive, startNetAt } from "./core-model.ts";
+import { classId, contentText } from "./core-memo.ts";
 import type { Ctx } from "./context.ts";
 import type { ChainPlan, TapInfo } from "./chains/types.ts";
 import type { TapDesign } from "./tap.ts";
@@ -39,6 +40,7 @@ import {
   type RampChain,
   type RampCorner,
   type RampDevices,
+  type RampRequest,
   type RampSizing,
   type RampValues,
 } from "./ramp-duty.ts";
@@ -236,97 +238,32 @@ export function rampOffer(
   why: string,
   protectPair = RAMP_OFFER_PROTECTED_PAIR,
 ): RampOffer | null {
-  const v = timing.values;
-  if (tap.follower !== undefined || v.crossBleed_ohm !== undefined || ctx.coreRail !== undefined) return null;
-  if (spec.targets.pwm_Hz < RAMP_OFFER_BARE_CORE_MIN_HZ && v.startNet !== true) return null;
-  const q = spec.devices.timing_npn as BjtClass;
-  const pnp = spec.devices.driver_pnp as BjtClass | undefined;
-  if (pnp === undefined || pnp.family !== "pnp") return null;
-  const db = v.diodes ? (spec.devices.signal_diode as DiodeClass) : undefined;
-  const sig = spec.devices.signal_diode as DiodeClass | undefined;
-  const dev = { pair: q, out: pnp, ...(protectPair && sig?.family === "diode" ? { pairDiode: sig } : {}) };
-  const rB = nearest((v.rEndA_ohm + v.rEndB_ohm + v.pot_ohm) / 2, "E24");
-  const rC = v.rC_ohm;
-  const rOut = rC;
-  const tol = ctx.rTol;
-  // The chain's input on the PNP's collector: the rail less its saturation voltage.
-  const vSatOut = vceSat(pnp, (ctx.vMax_V / rOut) * 2);
-  const input = rampTapInput(plan, tap, ctx, vSatOut, rOut);
-  if (input === null) return null;
-  const { tapLoad_A, inverting } = input;
-  // The load's edges lag the tap's by the chain's own delays, read with the tap's drive (RampChain.delays).
+  const asked = rampSizingInputs(spec, ctx, plan, tap, timing, protectPair);
+  if (asked === null) return null;
+  const { core: coreIn, req, input } = asked;
+  // The load's edges lag the tap's by the chain's own delays, read with the tap's drive (RampChain.delays;
+  // the same reading rampSizingInputs put into the request).
   const chainDelays = plan.delays(input.info);
   const delays = { on_s: chainDelays.on_s, off_s: chainDelays.off_s };
-  const vOn = (vcc: number, t_C: number): number =>
-    vbeOn(q, t_C) + (db === undefined ? 0 : diodeClassVf_V(db, (vcc - 1.3) / rB, t_C));
-  const rRampLoad = Math.max(10 * rC, 4700);
-  const cTol = ctx.cTol;
-  // Collector A of the core with its base resistors and timing capacitors at multipliers `m`. With the
-  // start network (start-network.ts) its divider loads whichever collector is high (core-model.ts
-  // startNetAt, the one relation startNetLoad): the core's half-periods and the ramp's source both see it.
-  const coreWith = (vcc: number, t_C: number, m: CoreTols): RampCore => {
-    const vSat = vceSat(q, vcc / rC);
-    const startLoad = startNetAt(v, q, ctx.spec.devices.signal_diode as DiodeClass, { vcc_V: vcc, t_C, ...NOMINAL_K });
-    const rampLoad = { v_V: vcc / 2, r_ohm: rRampLoad };
-    const load = startLoad === undefined ? rampLoad : parallelLoads(rampLoad, startLoad);
-    const src = collectorThevenin(vcc, rC, startLoad);
-    const c = evaluateCore({
-      vcc_V: vcc,
-      vOn_V: vOn(vcc, t_C),
-      vSat_V: vSat,
-      rCA_ohm: rC,
-      rCB_ohm: rC,
-      cA_F: v.c_F * m.cA,
-      cB_F: v.c_F * m.cB,
-      rBA_ohm: rB * m.rA,
-      rBB_ohm: rB * m.rB,
-      loadA: load,
-      loadB: load,
-    });
-    return {
-      tHigh_s: c.tAoff_s,
-      tLow_s: c.tBoff_s,
-      vSrcHigh_V: src.v_V,
-      rSrcHigh_ohm: src.r_ohm,
-      vSat_V: vSat,
-      cT_F: v.c_F,
-      rail_V: vcc,
-    };
-  };
+  const { dev, inverting, tapLoad_A, rTol: tol, potTol, cTol } = req;
+  const rB = coreIn.rB_ohm;
+  const t = spec.targets;
+  const vOn = (vcc: number, t_C: number): number => rampCoreVOn_V(coreIn, vcc, t_C);
+  const coreWith = (vcc: number, t_C: number, m: CoreTols): RampCore => rampCoreWith(coreIn, vcc, t_C, m);
   // Its two extremes of collector duty (ramp-duty.ts CoreAt): the base resistors (1 % parts) and the
   // timing capacitors crosswise; `signs` [0] gives the nominal core.
   const coreAt = (vcc: number, t_C: number, signs: readonly number[] = [1, -1]): RampCore[] =>
     signs.map((s) => coreWith(vcc, t_C, crosswise(s, RAMP_RB_TOL, cTol)));
-  const t = spec.targets;
-  const potTol = ctx.potTol;
-  const sizing = sizeRamp({
-    f_Hz: t.pwm_Hz,
-    supplies: [ctx.vMin_V, ctx.vMax_V],
-    vNom_V: spec.supply_V,
-    tMin_C: t.ambient_C[0],
-    tMax_C: t.ambient_C[1],
-    dutyMin: t.duty_min,
-    dutyMax: t.duty_max,
-    beyondEnds: t.off_on_ends === true,
-    inverting,
-    rTol: tol,
-    potTol,
-    cTol,
-    rC_ohm: rC,
-    rOut_ohm: rOut,
-    tapLoad_A,
-    delays,
-    dev,
-    coreAt: (vcc, t_C) => coreAt(vcc, t_C),
-    vebFactor: spec.policy.bjt.voltage.factor,
-    diodeFactor: spec.policy.diode.voltage.factor,
-  });
-  if (!sizing.found) return null;
   // The core as the stage runs it (its chain's input moved off collector A) keeps the period it was sized for.
+  // Asked before the stage is sized: it reads the core alone, and a core that fails it is left whatever the
+  // sizing finds (sizing it first spent seconds on cores it then left: the demo's grow strip's Darlington
+  // cores, 4–7 × slow without the chain's input).
   const fNom = timing.figures.find((f) => f.key === "frequency_nominal")?.value;
   const c0 = coreAt(spec.supply_V, NOMINAL_TEMP_C, [0])[0]!;
   const fMoved = fNom === undefined || !(Math.abs(1 / (c0.tHigh_s + c0.tLow_s) / fNom - 1) <= RAMP_CORE_F_AGREE);
   if (fMoved && !RAMP_CORE_F_UNCHECKED.has(spec.chain)) return null;
+  const sizing = sizeRampKept(coreIn, req);
+  if (!sizing.found) return null;
   const basePins = timing.parts.filter((p) => p.role === "RB_A" || p.role === "RB_B");
   const baseNet = (role: string): string => basePins.find((p) => p.role === role)?.pins["b"] ?? "";
   const built = rampParts({
@@ -475,6 +412,171 @@ export function rampOffer(
           : ""),
     },
   };
+}
+
+/** What the stage's sizing is asked (sizeRampKept), and the chain's input on its tap. */
+export interface RampSizingInputs {
+  core: RampCoreInputs;
+  req: Omit<RampRequest, "coreAt">;
+  input: RampTapInput;
+}
+
+/**
+ * The stage's sizing request for a plain core that passed on the narrow band (rampOffer's arguments), or
+ * null where the stage is not offered on it (follower, cross-returned bleed or railed core; a bare core
+ * below RAMP_OFFER_BARE_CORE_MIN_HZ; no PNP class; a chain input the tap cannot feed).
+ */
+export function rampSizingInputs(
+  spec: VariantSpec,
+  ctx: Ctx,
+  plan: ChainPlan,
+  tap: TapDesign,
+  timing: TimingResult,
+  protectPair = RAMP_OFFER_PROTECTED_PAIR,
+): RampSizingInputs | null {
+  const v = timing.values;
+  if (tap.follower !== undefined || v.crossBleed_ohm !== undefined || ctx.coreRail !== undefined) return null;
+  if (spec.targets.pwm_Hz < RAMP_OFFER_BARE_CORE_MIN_HZ && v.startNet !== true) return null;
+  const q = spec.devices.timing_npn as BjtClass;
+  const pnp = spec.devices.driver_pnp as BjtClass | undefined;
+  if (pnp === undefined || pnp.family !== "pnp") return null;
+  const db = v.diodes ? (spec.devices.signal_diode as DiodeClass) : undefined;
+  const sig = spec.devices.signal_diode as DiodeClass | undefined;
+  const dev = { pair: q, out: pnp, ...(protectPair && sig?.family === "diode" ? { pairDiode: sig } : {}) };
+  const rB = nearest((v.rEndA_ohm + v.rEndB_ohm + v.pot_ohm) / 2, "E24");
+  const rC = v.rC_ohm;
+  const rOut = rC;
+  const tol = ctx.rTol;
+  // The chain's input on the PNP's collector: the rail less its saturation voltage.
+  const vSatOut = vceSat(pnp, (ctx.vMax_V / rOut) * 2);
+  const input = rampTapInput(plan, tap, ctx, vSatOut, rOut);
+  if (input === null) return null;
+  const { tapLoad_A, inverting } = input;
+  const coreIn: RampCoreInputs = {
+    v,
+    q,
+    sig: ctx.spec.devices.signal_diode as DiodeClass,
+    ...(db === undefined ? {} : { db }),
+    rB_ohm: rB,
+    rC_ohm: rC,
+  };
+  const t = spec.targets;
+  const req: Omit<RampRequest, "coreAt"> = {
+    f_Hz: t.pwm_Hz,
+    supplies: [ctx.vMin_V, ctx.vMax_V],
+    vNom_V: spec.supply_V,
+    tMin_C: t.ambient_C[0],
+    tMax_C: t.ambient_C[1],
+    dutyMin: t.duty_min,
+    dutyMax: t.duty_max,
+    beyondEnds: t.off_on_ends === true,
+    inverting,
+    rTol: tol,
+    potTol: ctx.potTol,
+    cTol: ctx.cTol,
+    rC_ohm: rC,
+    rOut_ohm: rOut,
+    tapLoad_A,
+    delays: (({ on_s, off_s }) => ({ on_s, off_s }))(plan.delays(input.info)),
+    dev,
+    vebFactor: spec.policy.bjt.voltage.factor,
+    diodeFactor: spec.policy.diode.voltage.factor,
+  };
+  return { core: coreIn, req, input };
+}
+
+/**
+ * What the stage's fixed core reads, and nothing more (rampCoreWith): its values, the timing transistor's
+ * and the signal diode's classes (the start network's diodes), the base diodes' class when it has them, the
+ * equal base resistors the pot network is split into and the collector resistor.
+ */
+export interface RampCoreInputs {
+  v: CoreValues;
+  q: BjtClass;
+  sig: DiodeClass;
+  db?: DiodeClass;
+  rB_ohm: number;
+  rC_ohm: number;
+}
+
+/** The fixed core's base turn-on level at a supply and temperature: V_BE, plus the base diode's V_F when fitted. */
+function rampCoreVOn_V(c: RampCoreInputs, vcc: number, t_C: number): number {
+  return vbeOn(c.q, t_C) + (c.db === undefined ? 0 : diodeClassVf_V(c.db, (vcc - 1.3) / c.rB_ohm, t_C));
+}
+
+/**
+ * Collector A of the fixed core with its base resistors and timing capacitors at multipliers `m`. With the
+ * start network (start-network.ts) its divider loads whichever collector is high (core-model.ts startNetAt,
+ * the one relation startNetLoad): the core's half-periods and the ramp's source both see it.
+ */
+export function rampCoreWith(c: RampCoreInputs, vcc: number, t_C: number, m: CoreTols): RampCore {
+  const { v, q, rB_ohm: rB, rC_ohm: rC } = c;
+  const vSat = vceSat(q, vcc / rC);
+  const startLoad = startNetAt(v, q, c.sig, { vcc_V: vcc, t_C, ...NOMINAL_K });
+  const rampLoad = { v_V: vcc / 2, r_ohm: Math.max(10 * rC, 4700) };
+  const load = startLoad === undefined ? rampLoad : parallelLoads(rampLoad, startLoad);
+  const src = collectorThevenin(vcc, rC, startLoad);
+  const e = evaluateCore({
+    vcc_V: vcc,
+    vOn_V: rampCoreVOn_V(c, vcc, t_C),
+    vSat_V: vSat,
+    rCA_ohm: rC,
+    rCB_ohm: rC,
+    cA_F: v.c_F * m.cA,
+    cB_F: v.c_F * m.cB,
+    rBA_ohm: rB * m.rA,
+    rBB_ohm: rB * m.rB,
+    loadA: load,
+    loadB: load,
+  });
+  return {
+    tHigh_s: e.tAoff_s,
+    tLow_s: e.tBoff_s,
+    vSrcHigh_V: src.v_V,
+    rSrcHigh_ohm: src.r_ohm,
+    vSat_V: vSat,
+    cT_F: v.c_F,
+    rail_V: vcc,
+  };
+}
+
+/**
+ * The stage's sizing kept by the content of its inputs: the request (every field but the core, devices by
+ * identity as core-memo.ts keys classes) and the fixed core's inputs (RampCoreInputs). sizeRamp is a pure
+ * function of its request, and the request's core (coreAt) a pure function of RampCoreInputs (rampCoreWith),
+ * so a record's variants that ask the same (the same supply window, frequency, duty range, ambient range,
+ * tolerances, core and chain input: e.g. load currents that leave the chain's input as it is) share one
+ * sizing, the one made afresh. Kept only while variants are sized (withCoreMemo), bounded (emptied when
+ * full) like the kept searches (timing-search.ts).
+ */
+const KEPT_RAMP_SIZINGS = new Map<string, RampSizing>();
+const KEPT_RAMP_SIZINGS_MAX = 1024;
+
+/** Forgets the kept sizings (a bench that wants the first-time cost; the results are the same either way). */
+export function clearRampSizings(): void {
+  KEPT_RAMP_SIZINGS.clear();
+}
+
+/** The text a request and its core's inputs are kept under (sizeRampKept): every field read, classes by identity. */
+export function rampSizingKey(core: RampCoreInputs, req: Omit<RampRequest, "coreAt">): string {
+  const { dev, ...rest } = req;
+  const { q, sig, db, ...values } = core;
+  const ids = [dev.pair, dev.out, dev.pairDiode, q, sig, db].map((c) => (c === undefined ? "u" : classId(c)));
+  return `${ids.join(",")},${contentText({ req: rest, core: values })}`;
+}
+
+/** sizeRamp on the fixed core of `core` (rampCoreWith, its two crosswise extremes), kept across variants. */
+export function sizeRampKept(core: RampCoreInputs, req: Omit<RampRequest, "coreAt">): RampSizing {
+  const coreAt = (vcc: number, t_C: number): RampCore[] =>
+    [1, -1].map((s) => rampCoreWith(core, vcc, t_C, crosswise(s, RAMP_RB_TOL, req.cTol)));
+  if (!coreMemoActive()) return sizeRamp({ ...req, coreAt });
+  const key = rampSizingKey(core, req);
+  const kept = KEPT_RAMP_SIZINGS.get(key);
+  if (kept !== undefined) return kept;
+  const made = sizeRamp({ ...req, coreAt });
+  if (KEPT_RAMP_SIZINGS.size >= KEPT_RAMP_SIZINGS_MAX) KEPT_RAMP_SIZINGS.clear();
+  KEPT_RAMP_SIZINGS.set(key, made);
+  return made;
 }
 
 /** The chain's input on the stage's tap: its polarity, its current there, what the chain is told of the tap. */
