@@ -22,16 +22,13 @@
  * shortcut's fast top had thrown collector A past it. Native ngspice, the demo's 227 feasible variants
  * without a solenoid at control 0 and 1 (2026-12-05): the shortcut started every one; the whole ramp
  * left 12 stuck, each carrying the network (docs/verification.md, "Cold start"). So the run is the rise
- * it states, with no shortcut. The run keeps the netlist's solver tolerances: looser ones halve its cost
- * but moved the start of marginal cores, not monotonically (measured on the demo and the coverage grid's
- * sample, 2026-12-05: docs/verification.md, "Cold start"), so only the points read are kept fewer.
+ * it states, with no shortcut.
  */
 import type { Comparison, Measurement } from "../model/verification.ts";
 import type { SizedVariant, Verdict } from "../model/sized.ts";
 import { SpiceRunError } from "../model/errors.ts";
 import { setEmf, supplyVoltage } from "./deck.ts";
 import type { SimResult, SpiceEngine } from "./engines/types.ts";
-import { NO_TIME_AXIS } from "./engines/vectors.ts";
 import { coldStartDeck } from "./pull-in.ts";
 import {
   netlistOptions,
@@ -67,14 +64,6 @@ export function coldStartApplies(target: VerifyTarget): boolean {
   return target.pullIn === undefined;
 }
 
-/**
- * Where the run's kept points begin, s: half a period before the read window (the last COLD_READ_PERIODS).
- * The rise before it is simulated with the same steps but not kept: only the window is read.
- */
-export function coldKeepFrom_s(period_s: number): number {
-  return COLD_RISE_S + (COLD_AFTER_PERIODS - COLD_READ_PERIODS - 0.5) * period_s;
-}
-
 /** The run's end, s: the whole rise, then COLD_AFTER_PERIODS predicted periods. */
 export function coldStop_s(period_s: number): number {
   return COLD_RISE_S + COLD_AFTER_PERIODS * period_s;
@@ -89,7 +78,6 @@ export function coldRunDeck(netlist: string, period_s: number, ctrl: number, opt
     rise: "1u",
     tStop_s,
     tMax_s: (stepShare * period_s) / COLD_STEPS_PER_PERIOD,
-    tSave_s: coldKeepFrom_s(period_s),
     ...(options ? { options } : {}),
   });
   const pwl = `PWL(0 0 ${COLD_RISE_S} ${v})`;
@@ -176,19 +164,8 @@ async function coldRun(netlist: string, period_s: number, ctrl: number, engine: 
   const vectors = ["v(ca)", "v(cb)"];
   const tStop_s = coldStop_s(period_s);
   const end = (r: SimResult): number => r.t_s[r.t_s.length - 1] ?? 0;
-  // A run that stops before the kept points begin (coldKeepFrom_s) returns none: it stopped, so the next level runs.
-  const attempt = async (deck: string): Promise<SimResult> => {
-    try {
-      return await engine.run(deck, vectors);
-    } catch (err) {
-      if (err instanceof SpiceRunError && err.message.includes(NO_TIME_AXIS))
-        return { t_s: new Float64Array(0), vectors: {} };
-      throw err;
-    }
-  };
-  const at = (r: SimResult): string => (r.t_s.length > 0 ? `${end(r)} s` : "a time before the kept window");
-  let res = await attempt(coldRunDeck(netlist, period_s, ctrl));
-  const stops = [at(res)];
+  let res = await engine.run(coldRunDeck(netlist, period_s, ctrl), vectors);
+  const stops = [`${end(res)} s`];
   const own = new Set(netlistOptions(netlist));
   const levels: [string, number][] = [
     [RETRY_OPTIONS, 1],
@@ -200,8 +177,8 @@ async function coldRun(netlist: string, period_s: number, ctrl: number, engine: 
   for (const [opts, share] of levels) {
     if (end(res) >= 0.99 * tStop_s) break;
     if (share === 1 && opts.split(" ").every((o) => own.has(o))) continue;
-    res = await attempt(coldRunDeck(netlist, period_s, ctrl, opts, share));
-    stops.push(`${at(res)} with ${opts}`);
+    res = await engine.run(coldRunDeck(netlist, period_s, ctrl, opts, share), vectors);
+    stops.push(`${end(res)} s with ${opts}`);
   }
   if (end(res) < 0.99 * tStop_s)
     throw new SpiceRunError(

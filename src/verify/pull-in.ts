@@ -49,20 +49,18 @@ export const PULL_IN_LONG_SPAN = 3;
 /**
  * The cold-start deck: analysis lines, self-check block and initial conditions removed (so no
  * capacitor starts charged and nothing kicks the core), the control at `ctrl`, and the supply a
- * ramp from 0 V to its value over `rise` (SPICE time text, e.g. "1u" or "5m"); the points before `tSave_s`
- * (default 0) are not kept.
+ * ramp from 0 V to its value over `rise` (SPICE time text, e.g. "1u" or "5m").
  */
 export function coldStartDeck(
   netlist: string,
-  o: { ctrl: number; rise: string; tStop_s: number; tMax_s: number; options?: string; tSave_s?: number },
+  o: { ctrl: number; rise: string; tStop_s: number; tMax_s: number; options?: string },
 ): string {
   const v = supplyVoltage(netlist);
   const body = setCtrl(simBody(netlist), o.ctrl)
     .replace(/^\s*\.ic\b.*$/gim, "")
     .replace(/ IC=[-+0-9.eE]+$/gm, "")
     .replace(/^(vsupply\s+\S+\s+\S+)\s+(?:dc\s+)?[-+0-9.eE]+\s*$/im, `$1 PULSE(0 ${v} 0 ${o.rise} 1u 10 20)`);
-  // Points before `tSave_s` are simulated but not kept (the analysis's start time): the steps are the same.
-  const t = `.tran ${o.tMax_s} ${o.tStop_s} ${o.tSave_s ?? 0} ${o.tMax_s}`;
+  const t = `.tran ${o.tMax_s} ${o.tStop_s} 0 ${o.tMax_s}`;
   return `${body}\n.options method=gear${o.options ? ` ${o.options}` : ""}\n${t}\n.end\n`;
 }
 

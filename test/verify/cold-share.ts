@@ -6,13 +6,7 @@
  * COLD_SWING_SHARE. Also the network as it was before its latch, for the tests that show what the latch
  * changed.
  */
-import {
-  COLD_AFTER_PERIODS,
-  COLD_RISE_S,
-  coldKeepFrom_s,
-  coldRunDeck,
-  coldSwingShare,
-} from "../../src/verify/cold-start.ts";
+import { COLD_AFTER_PERIODS, COLD_RISE_S, coldRunDeck, coldSwingShare } from "../../src/verify/cold-start.ts";
 import { startNgspice } from "../../src/verify/engines/ngspice.ts";
 import { supplyVoltage } from "../../src/verify/deck.ts";
 
@@ -32,14 +26,12 @@ export function twoRateDeck(netlist: string, period_s: number, ctrl: number): st
   const v = supplyVoltage(netlist);
   const knee_s = TWO_RATE_KNEE * COLD_RISE_S;
   const t = knee_s + TWO_RATE_TOP_S + COLD_AFTER_PERIODS * period_s;
-  // The points kept begin as far before the end as in the proof's deck (cold-start.ts coldKeepFrom_s).
-  const keep_s = knee_s + TWO_RATE_TOP_S + (coldKeepFrom_s(period_s) - COLD_RISE_S);
   return coldRunDeck(netlist, period_s, ctrl)
     .replace(
       /^Vsupply vcc 0 PWL\(.*\)$/m,
       `Vsupply vcc 0 PWL(0 0 ${knee_s} ${TWO_RATE_KNEE * v} ${knee_s + TWO_RATE_TOP_S} ${v})`,
     )
-    .replace(/^\.tran (\S+) \S+ \S+ (\S+)$/m, `.tran $1 ${t} ${keep_s} $2`);
+    .replace(/^\.tran (\S+) \S+ 0 (\S+)$/m, `.tran $1 ${t} 0 $2`);
 }
 
 /** The deck for one rise at one control position. */

@@ -17,9 +17,6 @@ export function withSaves(netlist: string, vectors: readonly string[]): string {
   return `${body}\n${saves}\n.end\n`;
 }
 
-/** What a run that kept no points (stopped before its analysis's start time) is reported with. */
-export const NO_TIME_AXIS = "the engine returned no time axis";
-
 /**
  * Picks the requested vectors out of an engine's named result columns. ngspice reports device
  * currents as `i(@q4[ic])` even when `.save @q4[ic]` was asked, so both spellings are accepted.
@@ -29,7 +26,7 @@ export function pickVectors(
   vectors: readonly string[],
 ): { t_s: Float64Array; vectors: Record<string, Float64Array> } {
   const t = columns.get("time");
-  if (t === undefined || t.length < 2) throw new SpiceRunError(NO_TIME_AXIS);
+  if (t === undefined || t.length < 2) throw new SpiceRunError("the engine returned no time axis");
   const out: Record<string, Float64Array> = {};
   for (const name of vectors) {
     const key = name.toLowerCase();
