@@ -12,6 +12,7 @@ import { checkStress } from "../shared/derating.ts";
 import { problem } from "../shared/figures.ts";
 import { hfeMin, vbeOn, vbeSat, vbeTypical_V, vceSat } from "../shared/gain.ts";
 import { seriesBetween } from "../shared/e-series.ts";
+import { NOMINAL_TEMP_C } from "../shared/temperature.ts";
 import {
   START_NET,
   holdPath_A,
@@ -23,7 +24,6 @@ import {
   memoryPeak_V,
   senseFireLevel_V,
   startMemoryCap_F,
-  startThreshold_V,
 } from "../shared/start-network.ts";
 import type { Ctx } from "./context.ts";
 import { type CoreEval, type CoreValues, NOMINAL_K, cutIn_V, diodeVf_V, evalCore } from "./core-model.ts";
@@ -78,7 +78,10 @@ export interface StartNetValues {
   rSet_ohm: number;
   /** CKM, F (startMemoryCap_F). */
   cMem_F: number;
-  /** The nominal threshold on kh (V_BE,set = 0.6 V: the page's figure), V. */
+  /**
+   * The level on kh at which the latch fires with typical parts at 25 °C (senseFireLevel_V: V_BE at the firing
+   * current, nominal RK2 and RK5, minimum gain), V: the parts list's figure.
+   */
   vTh_V: number;
   vHighA_V: number;
   /** The lowest supply the latch can fire at (hot end of the window, every tolerance low), V; NaN: none. */
@@ -212,7 +215,13 @@ export function startNetValues(
   return {
     rSet_ohm,
     cMem_F: startMemoryCap_F(1 / nominalMid.f_Hz),
-    vTh_V: startThreshold_V(rSet_ohm),
+    vTh_V: senseFireLevel_V({
+      vbe_V: vbeTypical_V(q, triggerAt_A(qp, NOMINAL_TEMP_C), NOMINAL_TEMP_C),
+      rDiv_ohm: START_NET.rDiv_ohm,
+      rSet_ohm,
+      i_A: triggerAt_A(qp, NOMINAL_TEMP_C),
+      beta: hfeMin(q, triggerAt_A(qp, NOMINAL_TEMP_C), NOMINAL_TEMP_C),
+    }),
     vHighA_V: nominalMid.timing.collectorHighA_V,
     vFireLo_V: Number.isFinite(vFireLo_V) ? vFireLo_V : Number.NaN,
     runK: Number.isFinite(runK) ? runK : Number.NaN,
@@ -465,7 +474,8 @@ export function startNetParts(
     "RK_SET",
     sn.rSet_ohm,
     { a: "kb2", b: "0" },
-    `start network: threshold divider, lower (detector on above ${sn.vTh_V.toFixed(2)} V)`,
+    `start network: threshold divider, lower (the latch fires at ≈ ${sn.vTh_V.toFixed(2)} V on the ` +
+      `detector's input, typical)`,
     vMax,
     { series: "E96", tolerance: div },
   );
