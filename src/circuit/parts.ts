@@ -39,6 +39,7 @@ export function resistor<S extends StageKind>(
   p_W: number,
   policy: DeratingPolicy,
   why: string,
+  grade: { series: string; tolerance: number } = { series: "E24", tolerance: 0.05 },
 ): Built {
   const rule = policy.resistor.power;
   const rating: number = RESISTOR_RATINGS_W.find((w) => p_W <= w * rule.factor) ?? 5;
@@ -49,8 +50,8 @@ export function resistor<S extends StageKind>(
     role,
     value: r_ohm,
     unit: "Ω",
-    series: "E24",
-    tolerance: 0.05,
+    series: grade.series,
+    tolerance: grade.tolerance,
     description: `${rating >= 1 ? "Wirewound or metal-oxide" : "Metal-film"} resistor, ${rating} W — ${why}`,
     rating: { power_W: rating },
     stress: { power_W: p_W },

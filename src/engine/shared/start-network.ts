@@ -45,13 +45,17 @@ export const START_NET = {
   /** The detector's turn-on level the threshold divider is set for, V (silicon V_BE ≈ 0.6 V, common practice). */
   vbeSet_V: 0.6,
   /**
-   * V_th as a share of collector A's loaded high level (measured, docs/method.md "Start network"): ½ starts
-   * every stuck demo and grid core; with the latch, which fires once at that share of a slow rise, it starts
-   * all 66 demo cores with the network from a linear 20 ms rise too. 0.7 would fire later in the rise (a
-   * 5 V follower lamp needs that), but then the latch no longer fires at the lowest supply, cold, on 64 of
-   * the 66 (start-network-sense).
+   * The spread of V_BE between units of one class at one current and temperature, ± V (from memory: a few
+   * tens of mV for small-signal transistors of one type): the lock-out's threshold is bounded with it on
+   * top of the temperature's −2 mV/K (senseFireLevel_V).
    */
-  thresholdShare: 0.5,
+  vbeSpread_V: 0.025,
+  /**
+   * Tolerance of the threshold divider RK2–RK5 (1 % metal film, common practice for a lock-out's divider; the
+   * rest of the network is ±5 % E24): it narrows the window between the latest the latch fires (which must
+   * still be within reach at the lowest supply) and the earliest (which sets the supply the core must run at).
+   */
+  divTol: 0.01,
 } as const;
 
 /**
@@ -83,13 +87,22 @@ export function startThresholdExact_ohm(
 }
 
 /**
- * RK5 in E24, rounded DOWN: the threshold then sits at or above its share of the high level (never below it),
- * so QK1 lets go of base A only once collector A has made at least the share of its swing the network was
- * measured with (a later release still gives A a whole edge; an earlier one a smaller kick). The step
- * of E24 keeps V_th within ≈ +10 % of its aim.
+ * The level on kh at which the detector QK2 carries a collector current i_A (the latch's firing current,
+ * latchTrigger_A): its base at V_BE, RK5 taking V_BE/RK5 and the base i_A/β, all of it through RK2
+ * (Kirchhoff's current law at kb2, derived): kh = V_BE + RK2·(V_BE/RK5 + i_A/β). β = ∞ drops the base
+ * current (the earliest the detector can start to conduct). One definition for both ends of the
+ * lock-out's window: the highest level (V_BE at its cold top, RK2 high, RK5 low, β at its minimum) must
+ * be within the high collector's reach at the lowest supply; the lowest (V_BE at its hot bottom, RK2
+ * low, RK5 high) sets the lowest supply the latch can fire at.
  */
-export function startThresholdE24_ohm(vTh_V: number): number {
-  return roundDown(startThresholdExact_ohm(vTh_V), "E24");
+export function senseFireLevel_V(o: {
+  vbe_V: number;
+  rDiv_ohm: number;
+  rSet_ohm: number;
+  i_A: number;
+  beta: number;
+}): number {
+  return o.vbe_V + o.rDiv_ohm * (o.vbe_V / o.rSet_ohm + o.i_A / o.beta);
 }
 
 /** The threshold on kh that an RK5 sets: V_th = V_BE,set·(1 + RK2/RK5), V (the divider, inverted). */

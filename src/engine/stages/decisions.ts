@@ -314,9 +314,10 @@ function startNetDecision(circuit: CircuitModel): DesignDecision | undefined {
       `collector A rise first, so A starts with a whole edge and turns B off as in a running core. The latch ` +
       `lets go at once and for good, so a slow rise cannot settle the network in a balance with collector A ` +
       `parked at the threshold, and a running core's edges no longer reach it; its divider loads the high ` +
-      `collector a little (in the worst case). The threshold is ${Math.round(START_NET.thresholdShare * 100)} % of ` +
-      `collector A's high level, where the core runs on after the latch fires, its lower resistor rounded ` +
-      `down in E24 so the threshold stays at or above that share; a start-up ` +
+      `collector a little (in the worst case). The threshold is an undervoltage lock-out: the smallest E24 ` +
+      `value of the lower divider resistor that still fires the latch at the lowest supply with every tolerance and ` +
+      `V_BE's spread against it, so the latch fires as late in a slow rise as it surely can, and the timing ` +
+      `transistors are checked to run at the lowest supply it could fire from; a start-up ` +
       `transistor and a two-transistor latch as a one-shot trigger are common practice, this arrangement our ` +
       `own, measured in native ngspice`,
   };

@@ -10,7 +10,9 @@ import type { StressCheck } from "../../model/derating.ts";
 import { capacitor, diode, resistor, transistor } from "../../circuit/parts.ts";
 import { checkStress } from "../shared/derating.ts";
 import { problem } from "../shared/figures.ts";
-import { hfeMin, vbeOn, vbeSat, vceSat } from "../shared/gain.ts";
+import { hfeMin, vbeOn, vbeSat, vbeTypical_V, vceSat } from "../shared/gain.ts";
+import { seriesBetween } from "../shared/e-series.ts";
+import { NOMINAL_TEMP_C } from "../shared/temperature.ts";
 import {
   START_NET,
   holdPath_A,
@@ -20,14 +22,14 @@ import {
   latchedHoldBase_V,
   latchedLevel_V,
   memoryPeak_V,
+  senseFireLevel_V,
   startMemoryCap_F,
-  startThresholdE24_ohm,
-  startThreshold_V,
 } from "../shared/start-network.ts";
 import type { Ctx } from "./context.ts";
 import { type CoreEval, type CoreValues, NOMINAL_K, cutIn_V, diodeVf_V, evalCore } from "./core-model.ts";
 import { capRating_V } from "./timing-parts.ts";
 import type { TapDesign } from "./tap.ts";
+import { overdrive } from "./timing-search.ts";
 import type { Corner, SimCorner } from "../../model/corners.ts";
 
 /**
@@ -47,30 +49,185 @@ export function startNetWanted(ctx: Ctx, tap: TapDesign, opts: { cross?: boolean
 }
 
 /**
- * Overdrive of the latch where it must act (k = what a transistor can carry at its minimum gain over what
- * it has to), ours: the detector's collector current against the current that fires the latch at the
- * lowest high collector, cold; and the latch's hold at the lowest supply. Half as much again, as the
- * detector was asked before the latch (where ≥ 2 refused a 6 V ±15 % PNP-driver motor core at 1.91).
+ * Overdrive of the latch's hold (k = what a transistor can carry at its minimum gain over what it has to),
+ * ours: at the lowest supply, cold, with both collectors low. Half as much again, as the detector was asked
+ * before the latch (where ≥ 2 refused a 6 V ±15 % PNP-driver motor core at 1.91).
  */
 export const START_LATCH_OVERDRIVE = 1.5;
 
-/** The network's values as fitted: RK5 from collector A's nominal high level, and the threshold it sets. */
+/**
+ * Overdrive of the detector at the lowest supply, over the current that fires the latch, with its worst
+ * corner stacked in (V_BE at its cold top plus the unit spread, RK2 high, RK5 low, minimum gain): 1. The
+ * pair is regenerative: once QK2 draws V_EB/RK6 the PNP conducts into kb2 and every µA of it adds β of
+ * QK2's current (the hold check proves the loop's gain), so the detector needs to reach the firing current,
+ * not to exceed it; its margin is the stacked tolerances (common practice for a latch trigger). The
+ * former ≥ 1.5 over V_BE(on) at the class's reference current (≈ 0.2 V above V_BE at the firing current)
+ * kept the threshold at ½ of collector A's high level (docs/method.md, "Start network").
+ */
+export const START_SENSE_OVERDRIVE = 1;
+
+/**
+ * Overdrive of the timing transistors (timing-search.ts `overdrive`, k at minimum gain with the tolerances)
+ * at the lowest supply the latch can fire at, at that ambient: 2, the value the core is sized for at V_cc,min
+ * (ours). Measured (native ngspice, the 12 V LED bar's cross-returned 1 kHz cores with the threshold at ½,
+ * a static kicked supply): they run from 8.1 V (control 0) and 9.1 V (control 1), where the model gives
+ * k 2.0 and 2.2 (cold, minimum gain), and stall after the latch fires at 5.4 V (k 1.5).
+ */
+export const START_RUN_OVERDRIVE = 2;
+
+/** The network's values as fitted: RK5 chosen by the lock-out (startNetValues), and the window it sets. */
 export interface StartNetValues {
   rSet_ohm: number;
   /** CKM, F (startMemoryCap_F). */
   cMem_F: number;
+  /**
+   * The level on kh at which the latch fires with typical parts at 25 °C (senseFireLevel_V: V_BE at the firing
+   * current, nominal RK2 and RK5, minimum gain), V: the parts list's figure.
+   */
   vTh_V: number;
   vHighA_V: number;
+  /** The lowest supply the latch can fire at (hot end of the window, every tolerance low), V; NaN: none. */
+  vFireLo_V: number;
+  /** The timing transistors' overdrive there (START_RUN_OVERDRIVE), at the ambient it is least. */
+  runK: number;
+}
+
+/** One check corner's detector input: the lower high collector less DK's drop, and the conditions. */
+interface SenseAt {
+  kh_V: number;
+  t_C: number;
+}
+
+/** The corners the latch is checked at: the supply's and ambient's ends × control 0/1, and the sim corners. */
+function checkCorners(ctx: Ctx, simCorners: readonly SimCorner[]): { k: Corner; ctrl: number }[] {
+  const at: { k: Corner; ctrl: number }[] = [...simCorners.map((k) => ({ k, ctrl: k.ctrl }))];
+  for (const vcc_V of [ctx.vMin_V, ctx.vMax_V])
+    for (const t_C of [ctx.taMin_C, ctx.taMax_C])
+      for (const ctrl of [0, 1]) at.push({ k: { vcc_V, t_C, ...NOMINAL_K }, ctrl });
+  return at;
 }
 
 /**
- * RK5 for the core evaluated at nominal (the level the netlist's start puts collector A at); CKM by
- * startMemoryCap_F.
+ * kh while A is held and its collector high: the lower of collector A's loaded high level and B's
+ * follower-shifted one, less DK's drop (read at V_cc/(RK1 ∥ RK2)).
  */
-export function startNetValues(nominalMid: CoreEval): StartNetValues {
-  const vHighA_V = nominalMid.timing.collectorHighA_V;
-  const rSet_ohm = startThresholdE24_ohm(START_NET.thresholdShare * vHighA_V);
-  return { rSet_ohm, cMem_F: startMemoryCap_F(1 / nominalMid.f_Hz), vTh_V: startThreshold_V(rSet_ohm), vHighA_V };
+function detectorInput_V(e: CoreEval, db: DiodeClass, vcc_V: number, t_C: number): number {
+  const vF = diodeVf_V(db, vcc_V / (START_NET.rOr_ohm / 2), t_C);
+  const vbeF = e.timing.collectorHighA_V - e.timing.vHighA_V;
+  return Math.min(e.timing.collectorHighA_V, e.timing.vHighB_V + vbeF) - vF;
+}
+
+/** The latch's firing current at an ambient: V_EB/RK6 at the PNP's V_BE(on) there (latchTrigger_A). */
+function triggerAt_A(qp: BjtClass, t_C: number): number {
+  return latchTrigger_A(vbeOn(qp, t_C));
+}
+
+/**
+ * The detector's overdrive at one corner for a given RK5: QK2's base current with kh at its level, V_BE at its
+ * cold top (the firing current's V_BE plus the unit spread), RK2 at +tolerance and RK5 at −tolerance, at its
+ * minimum gain, over the firing current. 1 is where kh equals senseFireLevel_V of that worst set.
+ */
+function senseOverdrive(ctx: Ctx, q: BjtClass, qp: BjtClass, rSet_ohm: number, s: SenseAt): number {
+  const iTrig = triggerAt_A(qp, s.t_C);
+  const vbe = vbeTypical_V(q, iTrig, s.t_C) + START_NET.vbeSpread_V;
+  const rDiv = START_NET.rDiv_ohm * (1 + START_NET.divTol);
+  const rSet = rSet_ohm * (1 - START_NET.divTol);
+  const iB = (s.kh_V - vbe) / rDiv - vbe / rSet;
+  return (hfeMin(q, iTrig, s.t_C) * iB) / iTrig;
+}
+
+/**
+ * The lowest level on kh the latch can fire at, at an ambient (senseFireLevel_V with V_BE at the firing
+ * current's bottom less the unit spread, RK2 at −tolerance, RK5 at +tolerance, the base current left out).
+ */
+export function senseFireLow_V(ctx: Ctx, q: BjtClass, qp: BjtClass, rSet_ohm: number, t_C: number): number {
+  const iTrig = latchTrigger_A(vbeOn(qp, t_C) - START_NET.vbeSpread_V) / (1 + ctx.rTol);
+  return senseFireLevel_V({
+    vbe_V: vbeTypical_V(q, iTrig, t_C) - START_NET.vbeSpread_V,
+    rDiv_ohm: START_NET.rDiv_ohm * (1 - START_NET.divTol),
+    rSet_ohm: rSet_ohm * (1 + START_NET.divTol),
+    i_A: 0,
+    beta: Number.POSITIVE_INFINITY,
+  });
+}
+
+/**
+ * The lowest supply at which kh can reach a level, V (the core evaluated at that supply, nominal tolerances,
+ * the control that puts the collector highest): kh rises with the supply, so bisection between the level
+ * itself and V_cc,min; NaN when kh does not reach it even at V_cc,min.
+ */
+function supplyForLevel_V(ctx: Ctx, q: BjtClass, db: DiodeClass, v: CoreValues, level_V: number, t_C: number): number {
+  const kh = (vcc_V: number): number =>
+    Math.max(
+      ...[0, 1].map((ctrl) => detectorInput_V(evalCore(v, q, db, { vcc_V, t_C, ...NOMINAL_K }, ctrl), db, vcc_V, t_C)),
+    );
+  let hi = ctx.vMin_V;
+  if (kh(hi) < level_V) return Number.NaN;
+  let lo = Math.min(hi, level_V);
+  if (kh(lo) >= level_V) return lo;
+  while (hi - lo > 0.01) {
+    const mid = (lo + hi) / 2;
+    if (kh(mid) >= level_V) hi = mid;
+    else lo = mid;
+  }
+  return hi;
+}
+
+/** The 1 kΩ–10 MΩ E96 values RK5 is chosen among (ascending: the highest threshold first; 1 %, divTol). */
+const RSET_CANDIDATES_OHM = seriesBetween(1e3, 1e7, "E96");
+
+/**
+ * The start network's values: the undervoltage lock-out (docs/method.md, "Start network"). RK5 is the
+ * smallest E24 value (the highest threshold) for which the detector still fires the latch at the lowest
+ * supply at every check corner with the tolerances and V_BE's spread stacked against it (senseOverdrive ≥
+ * START_SENSE_OVERDRIVE) and the latch then holds (latchAt ≥ START_LATCH_OVERDRIVE). With it, the lowest
+ * supply the latch can fire at (senseFireLow_V, at each ambient end) and the timing transistors' overdrive
+ * there (START_RUN_OVERDRIVE, checked in startNetProblems). When no value fires at every corner the largest
+ * candidate is kept and `start-network-sense` refuses it. CKM by startMemoryCap_F.
+ */
+export function startNetValues(
+  ctx: Ctx,
+  dev: { q: BjtClass; db: DiodeClass },
+  v: CoreValues,
+  nominalMid: CoreEval,
+  simCorners: readonly SimCorner[] = [],
+): StartNetValues {
+  const { q, db } = dev;
+  const qp = ctx.spec.devices.timing_pnp as BjtClass;
+  const vLow = checkCorners(ctx, simCorners).filter(({ k }) => k.vcc_V <= ctx.vMin_V * (1 + 1e-9));
+  const senses = vLow.map(({ k, ctrl }) => ({
+    kh_V: detectorInput_V(evalCore(v, q, db, k, ctrl), db, k.vcc_V, k.t_C),
+    t_C: k.t_C,
+  }));
+  const holds = (r: number): boolean =>
+    [ctx.taMin_C, ctx.taMax_C].every((t_C) => latchAt(q, qp, db, r, ctx.vMin_V, t_C).hold >= START_LATCH_OVERDRIVE);
+  const rSet_ohm =
+    RSET_CANDIDATES_OHM.find(
+      (r) => senses.every((s) => senseOverdrive(ctx, q, qp, r, s) >= START_SENSE_OVERDRIVE) && holds(r),
+    ) ?? RSET_CANDIDATES_OHM[RSET_CANDIDATES_OHM.length - 1]!;
+  let vFireLo_V = Number.POSITIVE_INFINITY;
+  let runK = Number.POSITIVE_INFINITY;
+  for (const t_C of [ctx.taMin_C, ctx.taMax_C]) {
+    const vAt = supplyForLevel_V(ctx, q, db, v, senseFireLow_V(ctx, q, qp, rSet_ohm, t_C), t_C);
+    if (!Number.isFinite(vAt)) continue;
+    vFireLo_V = Math.min(vFireLo_V, vAt);
+    const at = { ...ctx, vMin_V: vAt, taMin_C: t_C };
+    runK = Math.min(runK, overdrive(at, q, db, v, v.pot_ohm, v.rEndA_ohm, v.rEndB_ohm));
+  }
+  return {
+    rSet_ohm,
+    cMem_F: startMemoryCap_F(1 / nominalMid.f_Hz),
+    vTh_V: senseFireLevel_V({
+      vbe_V: vbeTypical_V(q, triggerAt_A(qp, NOMINAL_TEMP_C), NOMINAL_TEMP_C),
+      rDiv_ohm: START_NET.rDiv_ohm,
+      rSet_ohm,
+      i_A: triggerAt_A(qp, NOMINAL_TEMP_C),
+      beta: hfeMin(q, triggerAt_A(qp, NOMINAL_TEMP_C), NOMINAL_TEMP_C),
+    }),
+    vHighA_V: nominalMid.timing.collectorHighA_V,
+    vFireLo_V: Number.isFinite(vFireLo_V) ? vFireLo_V : Number.NaN,
+    runK: Number.isFinite(runK) ? runK : Number.NaN,
+  };
 }
 
 /**
@@ -127,15 +284,18 @@ export function latchAt(
 }
 
 /**
- * The latch's three checks, at the supply's and the ambient's ends and the control's ends, and at the
+ * The latch's checks, at the supply's and the ambient's ends and the control's ends, and at the
  * simulated corners:
- *  - `start-network-sense`: the latch fires at the first full swing: with the lower high collector
- *    (kh = V_C,high − V_F), cold, QK2's base current (kh − V_BE)/RK2 − V_BE/RK5 at its minimum gain draws
- *    the firing current V_EB/RK6 (latchTrigger_A) with an overdrive ≥ 1.5;
+ *  - `start-network-sense`: the latch fires at the lowest supply: with the lower high collector
+ *    (kh = V_C,high − V_F), QK2 at its worst (senseOverdrive) draws the firing current V_EB/RK6
+ *    (latchTrigger_A) with an overdrive ≥ START_SENSE_OVERDRIVE;
  *  - `start-network-latch`: the latch then holds at every supply and ambient with an overdrive ≥ 1.5
  *    (latchAt: the lowest supply, cold, is where it is least);
  *  - `start-network-release`: the latched km less DK3's drop keeps QK1's base below its cut-in, so QK1 lets
- *    base A alone while the core runs (hot is where the cut-in is lowest).
+ *    base A alone while the core runs (hot is where the cut-in is lowest);
+ *  - `start-network-run`: the core runs at the lowest supply the latch can fire at (sn.vFireLo_V): the timing
+ *    transistors' overdrive there ≥ START_RUN_OVERDRIVE (sn.runK). No threshold that still fires at the
+ *    lowest supply lies above where the core runs: the core is refused with this reason.
  * Once latched the network does nothing more: a running core's edges no longer reach it.
  */
 export function startNetProblems(
@@ -151,22 +311,11 @@ export function startNetProblems(
   let worstRelease = { kb1_V: 0, limit_V: Infinity };
   let worstSense = Infinity;
   let worstHold = Infinity;
-  // The supply's and the ambient's ends at nominal tolerances, and the simulated corners (their tolerances
-  // and control).
-  const at: { k: Corner; ctrl: number }[] = [...simCorners.map((k) => ({ k, ctrl: k.ctrl }))];
-  for (const vcc_V of [ctx.vMin_V, ctx.vMax_V])
-    for (const t_C of [ctx.taMin_C, ctx.taMax_C])
-      for (const ctrl of [0, 1]) at.push({ k: { vcc_V, t_C, ...NOMINAL_K }, ctrl });
-  for (const { k: corner, ctrl } of at) {
+  for (const { k: corner, ctrl } of checkCorners(ctx, simCorners)) {
     const { vcc_V, t_C } = corner;
     const e = evalCore(v, q, db, corner, ctrl);
-    const vF = diodeVf_V(db, vcc_V / (START_NET.rOr_ohm / 2), t_C);
-    const vbe = vbeOn(q, t_C);
-    const vbeF = e.timing.collectorHighA_V - e.timing.vHighA_V;
-    const kh = Math.min(e.timing.collectorHighA_V, e.timing.vHighB_V + vbeF) - vF;
-    const iB = (kh - vbe) / START_NET.rDiv_ohm - vbe / sn.rSet_ohm;
-    const iTrig = latchTrigger_A(vbeOn(qp, t_C));
-    worstSense = Math.min(worstSense, (hfeMin(q, iTrig, t_C) * iB) / iTrig);
+    const kh_V = detectorInput_V(e, db, vcc_V, t_C);
+    worstSense = Math.min(worstSense, senseOverdrive(ctx, q, qp, sn.rSet_ohm, { kh_V, t_C }));
     const l = latchAt(q, qp, db, sn.rSet_ohm, vcc_V, t_C);
     worstHold = Math.min(worstHold, l.hold);
     const limit = cutIn_V(false, db, t_C);
@@ -185,7 +334,7 @@ export function startNetProblems(
         { limit: worstRelease.limit_V, actual: worstRelease.kb1_V, unit: "V" },
       ),
     );
-  if (worstSense < START_LATCH_OVERDRIVE)
+  if (worstSense < START_SENSE_OVERDRIVE)
     out.push(
       problem(
         "timing",
@@ -193,9 +342,10 @@ export function startNetProblems(
         "start-network-sense",
         "error",
         `At the lowest supply the high collector drives the start network's detector with an overdrive of ` +
-          `only ${worstSense.toFixed(2)} (need ${START_LATCH_OVERDRIVE}) over the current that fires its ` +
-          `latch: the network might hold base A past the first swing. Use a higher supply for this core.`,
-        { limit: START_LATCH_OVERDRIVE, actual: worstSense, unit: "" },
+          `only ${worstSense.toFixed(2)} (need ${START_SENSE_OVERDRIVE}) over the current that fires its ` +
+          `latch, with the tolerances against it: the network might hold base A past the first swing. ` +
+          `Use a higher supply for this core.`,
+        { limit: START_SENSE_OVERDRIVE, actual: worstSense, unit: "" },
       ),
     );
   if (worstHold < START_LATCH_OVERDRIVE)
@@ -211,7 +361,24 @@ export function startNetProblems(
         { limit: START_LATCH_OVERDRIVE, actual: worstHold, unit: "" },
       ),
     );
+  if (out.length === 0 && !(sn.runK >= START_RUN_OVERDRIVE)) out.push(startRunProblem(ctx, sn));
   return out;
+}
+
+/** `start-network-run`: the lock-out's window has no room above where the core runs (startNetProblems). */
+function startRunProblem(ctx: Ctx, sn: StartNetValues): DesignProblem {
+  return problem(
+    "timing",
+    "/parts/RK_SET",
+    "start-network-run",
+    "error",
+    `The start network's latch can fire from a supply of ${sn.vFireLo_V.toFixed(2)} V (its highest threshold ` +
+      `that still fires at the lowest supply, ${ctx.vMin_V.toFixed(2)} V, with every tolerance), where the ` +
+      `timing transistors are driven with an overdrive of only ${sn.runK.toFixed(2)} (need ` +
+      `${START_RUN_OVERDRIVE}): from a slowly rising supply the core could stall once the latch has fired. ` +
+      `Narrow the supply's tolerance, use a timing transistor class with more gain, or a smaller duty pot.`,
+    { limit: START_RUN_OVERDRIVE, actual: sn.runK, unit: "" },
+  );
 }
 
 /**
@@ -227,8 +394,12 @@ export function fitStartNet(
   out: { parts: Part[]; problems: DesignProblem[]; checks: StressCheck[] },
 ): boolean {
   if (v.startNet !== true) return true;
-  const sn = startNetValues(at.nominalMid);
-  if (startNetProblems(ctx, dev.q, dev.db, v, sn, at.corners).length > 0) return false;
+  const sn = startNetValues(ctx, dev, v, at.nominalMid, at.corners);
+  const found = startNetProblems(ctx, dev.q, dev.db, v, sn, at.corners);
+  // The lock-out without room (start-network-run) refuses the core with the network fitted; any other
+  // check sizes it again without the network.
+  if (found.some((p) => p.rule !== "start-network-run")) return false;
+  out.problems.push(...found);
   const iBasePk_A = (2 * ctx.vMax_V - at.nominalMid.vOn_V) / (Math.min(v.rEndA_ohm, v.rEndB_ohm) * (1 - ctx.rTol));
   startNetParts(ctx, dev, sn, iBasePk_A, out);
   return true;
@@ -287,19 +458,28 @@ export function startNetParts(
     pins: Record<string, string>,
     why: string,
     v_V = vMax,
+    grade?: { series: string; tolerance: number },
   ): void => {
-    const b = resistor("timing", role, r_ohm, pins, (v_V * v_V) / (r_ohm * (1 - tol)), pol, why);
+    const b = resistor("timing", role, r_ohm, pins, (v_V * v_V) / (r_ohm * (1 - tol)), pol, why, grade);
     out.parts.push(b.part);
     out.checks.push(...b.checks);
     out.problems.push(...b.problems);
   };
   res("RK_OR", START_NET.rOr_ohm, { a: "kh", b: "0" }, "start network: detector load");
-  res("RK_DIV", START_NET.rDiv_ohm, { a: "kh", b: "kb2" }, "start network: threshold divider, upper");
+  // The threshold divider at 1 % (START_NET.divTol): RK2 keeps its E24 value, RK5 is an E96 one.
+  const div = START_NET.divTol;
+  res("RK_DIV", START_NET.rDiv_ohm, { a: "kh", b: "kb2" }, "start network: threshold divider, upper", vMax, {
+    series: "E24",
+    tolerance: div,
+  });
   res(
     "RK_SET",
     sn.rSet_ohm,
     { a: "kb2", b: "0" },
-    `start network: threshold divider, lower (detector on above ${sn.vTh_V.toFixed(2)} V)`,
+    `start network: threshold divider, lower (the latch fires at ≈ ${sn.vTh_V.toFixed(2)} V on the ` +
+      `detector's input, typical)`,
+    vMax,
+    { series: "E96", tolerance: div },
   );
   // A start-network transistor rated at the whole rail and its own current.
   const switchQ = (

@@ -68,7 +68,16 @@ describe("the network on the cross-bled cable core (the engine's choice)", () =>
     const v = tapAndTiming(ctx, CHAIN_PLANNERS[ctx.spec.chain](ctx)).timing.values;
     expect(v.startNet).toBe(true);
     const nominalMid = evalCore(v, q, db, { vcc_V: ctx.vNom_V, t_C: NOMINAL_TEMP_C, ...NOMINAL_K }, 0.5);
-    expect(startNetProblems(ctx, q, db, v, startNetValues(nominalMid), cable.corners ?? [])).toEqual([]);
+    expect(
+      startNetProblems(
+        ctx,
+        q,
+        db,
+        v,
+        startNetValues(ctx, { q, db }, v, nominalMid, cable.corners ?? []),
+        cable.corners ?? [],
+      ),
+    ).toEqual([]);
   });
 });
 

@@ -26,7 +26,7 @@ import {
   latchedLevel_V,
   startMemoryCap_F,
   startNetLoad,
-  startThresholdE24_ohm,
+  senseFireLevel_V,
   startThresholdExact_ohm,
   startThreshold_V,
 } from "../../../src/engine/shared/start-network.ts";
@@ -58,17 +58,18 @@ describe("start network relations (hand calculations)", () => {
     expect(12 - vHigh).toBeCloseTo(0.04693, 4);
   });
 
-  it("sets RK5 = RK2/(V_th/0.6 V − 1), rounded down in E24 so V_th stays at or above its aim", () => {
-    // V_th 6 V: 470 k/(10 − 1) = 52.2 kΩ; E24 below it is 51 kΩ (IEC 60063:2015, table 1), which puts the
-    // threshold at 0.6·(1 + 470/51) = 6.13 V (by hand).
+  it("sets RK5 = RK2/(V_th/0.6 V − 1), and the detector fires where its base current meets RK5's and β's share", () => {
+    // V_th 6 V: 470 k/(10 − 1) = 52.2 kΩ; 51 kΩ (E24, IEC 60063:2015, table 1) puts the threshold at
+    // 0.6·(1 + 470/51) = 6.13 V (by hand).
     expect(startThresholdExact_ohm(6)).toBeCloseTo(52_222.2, 1);
-    expect(startThresholdE24_ohm(6)).toBe(51_000);
     expect(startThreshold_V(51_000)).toBeCloseTo(6.1294, 4);
-    for (const vTh of [1.5, 2.4, 5.5, 7.1, 11.75, 13.3]) {
-      const r = startThresholdE24_ohm(vTh);
-      expect(startThreshold_V(r)).toBeGreaterThanOrEqual(vTh);
-      expect(startThreshold_V(r)).toBeLessThan(vTh * 1.11);
-    }
+    // Kirchhoff at kb2 (derived, by hand): V_BE 0.5 V, RK2 470 kΩ, RK5 33 kΩ, 6 µA at β 300:
+    // 0.5 + 470 k·(0.5/33 k + 20 nA) = 0.5 + 7.1212 + 0.0094 = 7.6306 V; without the base current 7.6212 V.
+    const o = { vbe_V: 0.5, rDiv_ohm: 470e3, rSet_ohm: 33e3, i_A: 6e-6, beta: 300 };
+    expect(senseFireLevel_V(o)).toBeCloseTo(7.6306, 4);
+    expect(senseFireLevel_V({ ...o, beta: Number.POSITIVE_INFINITY })).toBeCloseTo(7.6212, 4);
+    // At V_BE,set and no current it is the divider's threshold.
+    expect(senseFireLevel_V({ ...o, vbe_V: 0.6, rSet_ohm: 51e3, i_A: 0 })).toBeCloseTo(startThreshold_V(51_000), 12);
   });
 
   it("delays by at most the longer of 1 ms and the period (CKM E12 down)", () => {
