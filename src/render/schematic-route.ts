@@ -28,6 +28,30 @@ const eq = (a: number, b: number) => Math.abs(a - b) < 0.01;
 const WIDE_REACH = 120;
 const WIDE_STEP = 10;
 
+/** A Z route from a to b whose middle leg is vertical at x = mx. */
+function zVertical(a: Pt, b: Pt, mx: number): Seg[] {
+  return [
+    [a, [mx, a[1]]],
+    [
+      [mx, a[1]],
+      [mx, b[1]],
+    ],
+    [[mx, b[1]], b],
+  ];
+}
+
+/** A Z route from a to b whose middle leg is horizontal at y = my. */
+function zHorizontal(a: Pt, b: Pt, my: number): Seg[] {
+  return [
+    [a, [a[0], my]],
+    [
+      [a[0], my],
+      [b[0], my],
+    ],
+    [[b[0], my], b],
+  ];
+}
+
 function segHitsBox(s: Seg, b: Box, m: number): boolean {
   const [[x1, y1], [x2, y2]] = s;
   return (
@@ -130,24 +154,7 @@ export class Router {
       ],
     ];
     for (const d of [0, -10, 10, -20, 20, -30, 30]) {
-      const mx = (ax + bx) / 2 + d;
-      const my = (ay + by) / 2 + d;
-      out.push([
-        [a, [mx, ay]],
-        [
-          [mx, ay],
-          [mx, by],
-        ],
-        [[mx, by], b],
-      ]);
-      out.push([
-        [a, [ax, my]],
-        [
-          [ax, my],
-          [bx, my],
-        ],
-        [[bx, my], b],
-      ]);
+      out.push(zVertical(a, b, (ax + bx) / 2 + d), zHorizontal(a, b, (ay + by) / 2 + d));
     }
     return out;
   }
@@ -170,24 +177,8 @@ export class Router {
       for (let m = Math.ceil(lo / WIDE_STEP) * WIDE_STEP; m <= hi; m += WIDE_STEP) xs.push(m);
       return xs.sort((p, q) => Math.abs(p - mid) - Math.abs(q - mid));
     };
-    for (const mx of span(ax, bx))
-      out.push([
-        [a, [mx, ay]],
-        [
-          [mx, ay],
-          [mx, by],
-        ],
-        [[mx, by], b],
-      ]);
-    for (const my of span(ay, by))
-      out.push([
-        [a, [ax, my]],
-        [
-          [ax, my],
-          [bx, my],
-        ],
-        [[bx, my], b],
-      ]);
+    for (const mx of span(ax, bx)) out.push(zVertical(a, b, mx));
+    for (const my of span(ay, by)) out.push(zHorizontal(a, b, my));
     return out;
   }
 

@@ -7,27 +7,16 @@
  * runs at both ends of the control (native ngspice, measured 2026-12-05: a swing of ≈ 0.88 of the rail).
  * The idea of a start-up latch is common practice; the arrangement and the measurement are ours.
  */
-import { readFileSync } from "node:fs";
-import { join } from "node:path";
 import { describe, expect, it } from "vitest";
-import { sizeVariant } from "../../src/engine/size.ts";
 import { renderVariantViews } from "../../src/render/variant.ts";
 import { targetFromSized } from "../../src/verify/target.ts";
 import { judgeColdStart, measureColdStart } from "../../src/verify/cold-start.ts";
 import { startNgspice } from "../../src/verify/engines/ngspice.ts";
 import { hasNgspice } from "../render/ngspice.ts";
-import { expandDesign, libraryDeps } from "../../src/expand/index.ts";
-import { loadProject } from "../../src/records/load.ts";
-import { REPO } from "../records/project.ts";
+import { devices, gridVariant } from "./grid-variant.ts";
 
-const project = await loadProject(REPO);
-if (!project.ok) throw new Error("demo records must load");
 // The coverage grid's 100 Hz, 5–95 % record narrowed to the one variant.
-const record = {
-  ...(JSON.parse(readFileSync(join(REPO, "test/fixtures/coverage/designs/grid-100hz-5-95.json"), "utf8")) as object),
-  axes: { supply_V: [36], load_A: [0.5], chain: ["mosfet-driver"], load_kind: ["motor"] },
-};
-const motor = sizeVariant(expandDesign(record as never, libraryDeps(project.devices, project.policy))[0]!);
+const motor = gridVariant("grid-100hz-5-95", { supply_V: 36, load_A: 0.5, chain: "mosfet-driver", load_kind: "motor" });
 const part = (role: string) => motor.circuit!.parts.find((p) => p.role === role);
 
 describe("the start network on a regulated core rail", () => {
@@ -42,7 +31,7 @@ describe("the start network on a regulated core rail", () => {
 
 describe.skipIf(!hasNgspice)("a railed core with the start network from the cold rise (native ngspice)", () => {
   it("runs at both ends of the control", async () => {
-    const netlist = renderVariantViews(motor, project.devices, { schematic: false }).netlist;
+    const netlist = renderVariantViews(motor, devices, { schematic: false }).netlist;
     const engine = startNgspice();
     try {
       const m = await measureColdStart(targetFromSized(motor)!, netlist, engine);

@@ -6,29 +6,22 @@
  * rail; in native ngspice from the proof's 20 ms cold rise it runs with a swing of 0.90 of the rail (0.23 of
  * the supply, which read it as stuck before). Measured 2026-12-05.
  */
-import { readFileSync } from "node:fs";
-import { join } from "node:path";
 import { describe, expect, it } from "vitest";
-import { sizeVariant } from "../../src/engine/size.ts";
 import { renderVariantViews } from "../../src/render/variant.ts";
 import { targetFromSized } from "../../src/verify/target.ts";
 import { COLD_SWING_SHARE, judgeColdStart, measureColdStart } from "../../src/verify/cold-start.ts";
 import { startNgspice } from "../../src/verify/engines/ngspice.ts";
 import { supplyVoltage } from "../../src/verify/deck.ts";
 import { hasNgspice } from "../render/ngspice.ts";
-import { expandDesign, libraryDeps } from "../../src/expand/index.ts";
-import { loadProject } from "../../src/records/load.ts";
-import { REPO } from "../records/project.ts";
+import { devices, gridVariant } from "./grid-variant.ts";
 
-const project = await loadProject(REPO);
-if (!project.ok) throw new Error("demo records must load");
-const library = (): typeof project.devices => project.devices;
 // The coverage grid's 20 Hz, 10–90 % record narrowed to the one variant.
-const record = {
-  ...(JSON.parse(readFileSync(join(REPO, "test/fixtures/coverage/designs/grid-20hz-10-90.json"), "utf8")) as object),
-  axes: { supply_V: [48], load_A: [0.25], chain: ["mosfet-driver"], load_kind: ["resistive"] },
-};
-const heater = sizeVariant(expandDesign(record as never, libraryDeps(project.devices, project.policy))[0]!);
+const heater = gridVariant("grid-20hz-10-90", {
+  supply_V: 48,
+  load_A: 0.25,
+  chain: "mosfet-driver",
+  load_kind: "resistive",
+});
 
 describe("the cold start's swing reference", () => {
   it("is the core rail where the core has one, the supply elsewhere", () => {
@@ -43,7 +36,7 @@ describe("the cold start's swing reference", () => {
 
 describe.skipIf(!hasNgspice)("a railed core from the cold rise (native ngspice)", () => {
   it("runs, and is read as running against its rail (it swings less than ¼ of the supply)", async () => {
-    const netlist = renderVariantViews(heater, library(), { schematic: false }).netlist;
+    const netlist = renderVariantViews(heater, devices, { schematic: false }).netlist;
     const target = targetFromSized(heater)!;
     const engine = startNgspice();
     try {

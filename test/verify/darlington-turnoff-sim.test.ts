@@ -8,29 +8,18 @@
  * mid-control dissipation agree within 5 % (measured: 1.434 / 1.474 W and 0.953 / 0.938 W), while the
  * worst-case figure stays above every simulated corner.
  */
-import { readFileSync } from "node:fs";
-import { join } from "node:path";
 import { describe, expect, it } from "vitest";
-import { sizeVariant } from "../../src/engine/size.ts";
 import { renderVariantViews } from "../../src/render/variant.ts";
 import { startEngine } from "../../src/verify/engines/index.ts";
 import { verifyVariant } from "../../src/verify/verify.ts";
-import { expandDesign, libraryDeps } from "../../src/expand/index.ts";
-import { loadProject } from "../../src/records/load.ts";
-import { REPO } from "../records/project.ts";
+import { devices, gridVariant } from "./grid-variant.ts";
 
-const project = await loadProject(REPO);
-if (!project.ok) throw new Error("demo records must load");
-const record = {
-  ...(JSON.parse(readFileSync(join(REPO, "test/fixtures/coverage/designs/grid-5000hz-20-80.json"), "utf8")) as object),
-  axes: { supply_V: [36], load_A: [1], chain: ["darlington-2"], load_kind: ["motor"] },
-};
-const motor = sizeVariant(expandDesign(record as never, libraryDeps(project.devices, project.policy))[0]!);
+const motor = gridVariant("grid-5000hz-20-80", { supply_V: 36, load_A: 1, chain: "darlington-2", load_kind: "motor" });
 
 describe("a Darlington motor's dissipation with the output's recombination counted (embedded engine)", () => {
   it("agrees at nominal and mid control within 10 %, and the worst case bounds the simulated", async () => {
     expect(motor.feasible, motor.reason).toBe(true);
-    const netlist = renderVariantViews(motor, project.devices, { schematic: false }).netlist;
+    const netlist = renderVariantViews(motor, devices, { schematic: false }).netlist;
     const engine = await startEngine("eecircuit-engine");
     try {
       const v = await verifyVariant(motor, netlist, engine, { cacheDir: false });
