@@ -105,11 +105,6 @@ export function senseFireLevel_V(o: {
   return o.vbe_V + o.rDiv_ohm * (o.vbe_V / o.rSet_ohm + o.i_A / o.beta);
 }
 
-/** The threshold on kh that an RK5 sets: V_th = V_BE,set·(1 + RK2/RK5), V (the divider, inverted). */
-export function startThreshold_V(rK5_ohm: number, rDiv_ohm = START_NET.rDiv_ohm, vbe_V = START_NET.vbeSet_V): number {
-  return vbe_V * (1 + rDiv_ohm / rK5_ohm);
-}
-
 /**
  * The network as a load on the high timing collector, while the core runs: through DK (drop V_F) into
  * RK1 to ground and RK2 to QK2's conducting base (held at V_BE), i.e. a resistance RK1 ∥ RK2 towards

@@ -19,7 +19,7 @@ import { GENERAL_POT, TIGHT_POT } from "./duty-pot.ts";
 import { GATE_EDGE_SHARE } from "./tap.ts";
 import { returnFet } from "./return-fet.ts";
 import { seriesReverse } from "./reverse.ts";
-import { START_NET, startThreshold_V } from "../shared/start-network.ts";
+import { START_NET } from "../shared/start-network.ts";
 
 /** The device role a part of this role takes its class from, where the part role says it. */
 const DEVICE_ROLE_OF: Partial<Record<PartRole, DeviceRole>> = {
@@ -304,9 +304,10 @@ function startNetDecision(circuit: CircuitModel): DesignDecision | undefined {
     choice:
       `a start network: two diodes pass the higher timing collector to a detector transistor, which after a ` +
       `${formatValue(START_NET.rMem_ohm * cMem_F, "s")} delay lets a second transistor hold timing ` +
-      `transistor A's base at ground while both collectors stay below ` +
-      `${formatValue(startThreshold_V(set.value), "V")} (${set.ref} ${formatValue(set.value, "Ω")}); the detector ` +
-      `and a PNP form a latch that collector A's first pass over that level fires, and that keeps the holding ` +
+      `transistor A's base at ground while both collectors stay below the lock-out level that ` +
+      `${set.ref} (${formatValue(set.value, "Ω")}) sets (its typical firing level is on its line in the parts ` +
+      `list); the detector and a PNP form a latch that collector A's first pass over that level fires, and ` +
+      `that keeps the holding ` +
       `transistor off for as long as the supply is up`,
     reason:
       `from a supply that rises slowly (0 V to full in 20 ms) the ${core}` +
@@ -314,7 +315,7 @@ function startNetDecision(circuit: CircuitModel): DesignDecision | undefined {
       `collector A rise first, so A starts with a whole edge and turns B off as in a running core. The latch ` +
       `lets go at once and for good, so a slow rise cannot settle the network in a balance with collector A ` +
       `parked at the threshold, and a running core's edges no longer reach it; its divider loads the high ` +
-      `collector a little (in the worst case). The threshold is an undervoltage lock-out: the smallest E24 ` +
+      `collector a little (in the worst case). The threshold is an undervoltage lock-out: the smallest E96 ` +
       `value of the lower divider resistor that still fires the latch at the lowest supply with every tolerance and ` +
       `V_BE's spread against it, so the latch fires as late in a slow rise as it surely can, and the timing ` +
       `transistors are checked to run at the lowest supply it could fire from; a start-up ` +

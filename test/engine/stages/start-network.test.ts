@@ -28,7 +28,6 @@ import {
   startNetLoad,
   senseFireLevel_V,
   startThresholdExact_ohm,
-  startThreshold_V,
 } from "../../../src/engine/shared/start-network.ts";
 import { coldRunDeck, coldSwingShare, COLD_SWING_SHARE } from "../../../src/verify/cold-start.ts";
 import { START_NET_LINE, earlierNetwork, twoRateDeck } from "../../verify/cold-share.ts";
@@ -62,14 +61,16 @@ describe("start network relations (hand calculations)", () => {
     // V_th 6 V: 470 k/(10 − 1) = 52.2 kΩ; 51 kΩ (E24, IEC 60063:2015, table 1) puts the threshold at
     // 0.6·(1 + 470/51) = 6.13 V (by hand).
     expect(startThresholdExact_ohm(6)).toBeCloseTo(52_222.2, 1);
-    expect(startThreshold_V(51_000)).toBeCloseTo(6.1294, 4);
+    expect(
+      senseFireLevel_V({ vbe_V: 0.6, rDiv_ohm: 470e3, rSet_ohm: 51e3, i_A: 0, beta: Number.POSITIVE_INFINITY }),
+    ).toBeCloseTo(6.1294, 4);
     // Kirchhoff at kb2 (derived, by hand): V_BE 0.5 V, RK2 470 kΩ, RK5 33 kΩ, 6 µA at β 300:
     // 0.5 + 470 k·(0.5/33 k + 20 nA) = 0.5 + 7.1212 + 0.0094 = 7.6306 V; without the base current 7.6212 V.
     const o = { vbe_V: 0.5, rDiv_ohm: 470e3, rSet_ohm: 33e3, i_A: 6e-6, beta: 300 };
     expect(senseFireLevel_V(o)).toBeCloseTo(7.6306, 4);
     expect(senseFireLevel_V({ ...o, beta: Number.POSITIVE_INFINITY })).toBeCloseTo(7.6212, 4);
-    // At V_BE,set and no current it is the divider's threshold.
-    expect(senseFireLevel_V({ ...o, vbe_V: 0.6, rSet_ohm: 51e3, i_A: 0 })).toBeCloseTo(startThreshold_V(51_000), 12);
+    // At V_BE,set and no current it is the divider's threshold, 0.6·(1 + 470/51) = 6.1294 V.
+    expect(senseFireLevel_V({ ...o, vbe_V: 0.6, rSet_ohm: 51e3, i_A: 0 })).toBeCloseTo(0.6 * (1 + 470 / 51), 12);
   });
 
   it("delays by at most the longer of 1 ms and the period (CKM E12 down)", () => {
