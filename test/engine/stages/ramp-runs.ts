@@ -16,11 +16,18 @@ export interface RampRun {
   fall_s: number;
 }
 
+/**
+ * The published deck's transient run to `stop_s`, same step and largest step, without `uic` (as the
+ * verifier's decks: src/verify/deck.ts simDeck): the operating point holds the `.ic`.
+ */
+export function tranTo(netlist: string, stop_s: number): string {
+  const tran = /^\.tran (\S+) (\S+) 0 (\S+)(.*)$/m.exec(netlist)!;
+  return netlist.replace(tran[0], `.tran ${tran[1]} ${stop_s} 0 ${tran[3]}`);
+}
+
 export function rampRunAt(netlist: string, supply_V: number, f_Hz: number, ctrl: number, gate = false): RampRun {
   const half = supply_V / 2;
-  const tran = /^\.tran (\S+) (\S+) 0 (\S+)(.*)$/m.exec(netlist)!;
-  // Without `uic` (as the verifier's decks: src/verify/deck.ts simDeck): the operating point holds the `.ic`.
-  const run = netlist.replace(tran[0], `.tran ${tran[1]} ${60 / f_Hz} 0 ${tran[3]}`);
+  const run = tranTo(netlist, 60 / f_Hz);
   const edges = gate && ctrl > 0 && ctrl < 1;
   const deck = withStatements(setCtrl(run.replace(/^\.meas .*$/gm, ""), ctrl), [
     `Bdload dload 0 V=u(${half}-v(sw))`,

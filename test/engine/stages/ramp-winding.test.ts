@@ -19,6 +19,7 @@ import { setEmf } from "../../../src/verify/deck.ts";
 import type { DesignRecord } from "../../../src/model/design.ts";
 import { REPO } from "../../records/project.ts";
 import { hasNgspice, meas, runNgspice, withStatements } from "../../render/ngspice.ts";
+import { tranTo } from "./ramp-runs.ts";
 
 const project = await loadProject(REPO);
 if (!project.ok) throw new Error(`demo records must load: ${project.issues[0]?.message}`);
@@ -68,9 +69,7 @@ describe(`the ramp stage on a motor at 15 kHz (${ID}, the growers' first ask)`, 
         frequency_Hz: spec.targets.pwm_Hz,
         devices: project.devices,
       });
-      const tran = /^\.tran (\S+) (\S+) 0 (\S+) uic$/m.exec(netlist)!;
-      // Without `uic` (as the verifier's decks): the operating point holds the `.ic`.
-      const long = netlist.replace(tran[0], `.tran ${tran[1]} ${PERIODS / spec.targets.pwm_Hz} 0 ${tran[3]}`);
+      const long = tranTo(netlist, PERIODS / spec.targets.pwm_Hz);
       const half = spec.supply_V / 2;
       const run = (ctrl: number, emf_V: number) =>
         runNgspice(
