@@ -15,7 +15,13 @@
  * making it (docs/verification.md, "Fourth pass"). The cold-start runs are made as the build makes
  * them, one pair per distinct timing core and chain (src/verify/cold-share.ts); `--cold-own` runs
  * every variant's own pair instead (the plan before the sharing), `--cold-only` the cold runs alone.
+ * Last, three lines that weigh ways to run less (docs/performance.md, issue #13): the engine calls whose deck
+ * and vectors repeat an earlier call's (work a per-run cache would save), the build's two workers replayed
+ * from these costs in the pool's order against longest-first and an even split (their idle time), and the
+ * nominal runs at control 0 and 1 of the circuits the cold runs simulate (the most a cold run's tail could
+ * stand in for).
  */
+import { createHash } from "node:crypto";
 import { writeFileSync } from "node:fs";
 import { loadavg } from "node:os";
 import { startEngine } from "../src/verify/engines/index.ts";
@@ -50,6 +56,8 @@ interface RunRecord {
   stopped: boolean;
   /** The variant's predicted frequency, Hz. */
   f_Hz: number;
+  /** What the engine was asked: the deck without its comment lines, and the vectors saved (sha256). */
+  deck: string;
 }
 
 function arg(name: string): string | undefined {
@@ -111,10 +119,24 @@ function profiled(engine: SpiceEngine, records: RunRecord[], who: () => { id: st
         tStop_s: tStop,
         tEnd_s: end,
         stopped: end < 0.99 * tStop,
+        deck: deckHash(deck, vectors),
       });
       return res;
     },
   };
+}
+
+/**
+ * The content of an engine call: the deck's lines but its comments (the title and the variant's name
+ * among them, which the engine does not read), and the vectors saved. Two calls with the same hash
+ * give the same result (the engines are deterministic: docs/verification.md, "Determinism").
+ */
+function deckHash(deck: string, vectors: readonly string[]): string {
+  const body = deck
+    .split("\n")
+    .filter((l) => !l.trimStart().startsWith("*"))
+    .join("\n");
+  return createHash("sha256").update(body).update("\0").update(vectors.join(" ")).digest("hex");
 }
 
 const dumpDir = arg("--dump");
@@ -219,6 +241,59 @@ for (const r of [...records].sort((a, b) => b.cpu_ms - a.cpu_ms).slice(0, 15))
     `  ${r.cpu_ms.toFixed(0)} ms ${r.id} ${r.kind} level ${r.level}${r.stopped ? ` stopped at ${r.tEnd_s}` : ""} ` +
       `(${r.points} points)`,
   );
+// Runs the same deck twice: every call after the first with the same content (deckHash) is work a
+// per-run cache would not repeat (candidate (b) of issue #13, docs/performance.md).
+const firstOf = new Map<string, RunRecord>();
+const repeats: RunRecord[] = [];
+for (const r of records)
+  if (firstOf.has(r.deck)) repeats.push(r);
+  else firstOf.set(r.deck, r);
+const cpuOf = (rs: readonly RunRecord[]): number => rs.reduce((s, r) => s + r.cpu_ms, 0) / 1000;
+const repeatKinds = [...new Set(repeats.map((r) => r.kind))].map(
+  (k) => `${k} ${repeats.filter((r) => r.kind === k).length}`,
+);
+console.log(
+  `identical engine calls: ${repeats.length} of ${records.length} repeat an earlier call's deck and vectors, ` +
+    `${cpuOf(repeats).toFixed(1)} s of engine CPU${repeatKinds.length > 0 ? ` (${repeatKinds.join(", ")})` : ""}`,
+);
+if (!coldOnly) {
+  // The build's two workers replayed from these costs: the pool's queue is the catalogue order, each cold task
+  // placed before the first variant that shares it (src/verify/pool.ts); each job goes to the worker free first.
+  const taskOf = coldOwn
+    ? new Map(tasks.map((t) => [t.id, t]))
+    : shareColdStarts(candidates.filter((c) => coldStartApplies(c.target)));
+  const queue: number[] = [];
+  const placed = new Set<string>();
+  for (const c of candidates) {
+    const t = taskOf.get(c.id);
+    if (t !== undefined && !placed.has(t.id)) {
+      placed.add(t.id);
+      queue.push(cpuOf(records.filter((r) => r.id === t.id && r.kind.startsWith("cold start"))));
+    }
+    queue.push(cpuOf(records.filter((r) => r.id === c.id && !r.kind.startsWith("cold start"))));
+  }
+  const makespan = (costs: readonly number[]): number => {
+    const free = [0, 0];
+    for (const c of costs) free[free[0]! <= free[1]! ? 0 : 1]! += c;
+    return Math.max(...free);
+  };
+  const sum = queue.reduce((s, c) => s + c, 0);
+  console.log(
+    `two workers, replayed: ${queue.length} jobs, ${sum.toFixed(1)} s of engine CPU; the pool's order ends after ` +
+      `${makespan(queue).toFixed(1)} s, longest first ${makespan([...queue].sort((a, b) => b - a)).toFixed(1)} s, ` +
+      `an even split ${(sum / 2).toFixed(1)} s`,
+  );
+  // Candidate (a): the nominal runs at the cold runs' controls (0 and 1) of the members whose circuit the cold
+  // runs simulate, at most what a cold run's tail could stand in for.
+  const reps = new Set(records.filter((r) => r.kind.startsWith("cold start")).map((r) => r.id));
+  const atEnds = records.filter((r) => reps.has(r.id) && /^nominal ctrl (0|1)( |$)/.test(r.kind));
+  const plainEnds = atEnds.filter((r) => /^nominal ctrl (0|1)$/.test(r.kind));
+  console.log(
+    `nominal runs at control 0 and 1 of the ${reps.size} circuits the cold runs simulate: ${atEnds.length} calls, ` +
+      `${cpuOf(atEnds).toFixed(1)} s (of them without a preparatory or handed-over start: ${plainEnds.length}, ` +
+      `${cpuOf(plainEnds).toFixed(1)} s)`,
+  );
+}
 const out = arg("--out");
 if (out) writeFileSync(out, JSON.stringify(measured));
 const runsOut = arg("--runs");
