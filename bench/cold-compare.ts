@@ -4,7 +4,12 @@
  * engine, each run's swing share, time points and processor time written to a JSON file, so that a change to
  * the cold run (cold-start.ts) can be checked to read every start and stuck as before, with the swing shares'
  * smallest margin to COLD_SWING_SHARE, and its cost compared. Run:
- *   node --import tsx bench/cold-compare.ts [--own] [--only A,B] --out after.json [--against before.json]
+ *   node --import tsx bench/cold-compare.ts [--own] [--only A,B] [--root DIR] [--options "reltol=1e-2"]
+ *     --out after.json [--against before.json]
+ * `--root` reads another project's records (a directory holding designs/) instead of the demo's. `--options`
+ * adds SPICE options to every cold deck (cold-start.ts coldRunDeck) and runs each deck once, without the
+ * build's retry ladder: with a looser relative tolerance, a core whose reading flips starts or stalls on the
+ * solver's rounding, not on its circuit (a knife edge).
  * With `--against`, prints every run whose reading (starts / stuck) differs, the largest change of a swing
  * share, the smallest margin before and after, and the processor time before → after by the core's frequency.
  */
@@ -14,7 +19,16 @@ import { startEngine } from "../src/verify/engines/index.ts";
 import type { SpiceEngine } from "../src/verify/engines/types.ts";
 import { planOf } from "../src/verify/verify.ts";
 import { ownColdTask, shareColdStarts, type ColdTask } from "../src/verify/cold-share.ts";
-import { COLD_SWING_SHARE, coldKey, coldStartApplies, measureCold } from "../src/verify/cold-start.ts";
+import {
+  COLD_CONTROLS,
+  COLD_SWING_SHARE,
+  coldKey,
+  coldRunDeck,
+  coldStartApplies,
+  coldSwingShare,
+  measureCold,
+} from "../src/verify/cold-start.ts";
+import { supplyVoltage } from "../src/verify/deck.ts";
 
 /** One cold task's readings. */
 interface ColdRecord {
@@ -53,7 +67,8 @@ const only = arg("--only");
 const out = arg("--out");
 const against = arg("--against");
 const { feasibleDemoRenders } = await import("./demo-renders.ts");
-const { renders } = await feasibleDemoRenders();
+const options = arg("--options");
+const { renders } = await feasibleDemoRenders(arg("--root"));
 const candidates: { id: string; netlist: string; target: NonNullable<ReturnType<typeof targetOf>> }[] = [];
 function targetOf(r: (typeof renders)[number]) {
   const plan = planOf(r.sized);
@@ -80,7 +95,13 @@ for (const t of tasks) {
   const c0 = process.cpuUsage();
   const rec: ColdRecord = { id: t.id, f_Hz: 1 / t.period_s, shares: {}, cpu_ms: 0, points: 0, calls: 0 };
   try {
-    for (const m of await measureCold(t.netlist, t.period_s, t.coreRail_V, engine)) rec.shares[m.key] = m.value;
+    if (options === undefined)
+      for (const m of await measureCold(t.netlist, t.period_s, t.coreRail_V, engine)) rec.shares[m.key] = m.value;
+    else
+      for (const ctrl of COLD_CONTROLS) {
+        const res = await engine.run(coldRunDeck(t.netlist, t.period_s, ctrl, options), ["v(ca)", "v(cb)"]);
+        rec.shares[coldKey(ctrl)] = coldSwingShare(res, t.period_s, t.coreRail_V ?? supplyVoltage(t.netlist));
+      }
   } catch (err) {
     rec.failed = err instanceof Error ? err.message : String(err);
   }

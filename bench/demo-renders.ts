@@ -4,10 +4,10 @@
  */
 import { fileURLToPath } from "node:url";
 
-export async function feasibleDemoRenders() {
+export async function feasibleDemoRenders(root?: string) {
   const { loadProject } = await import("../src/records/index.ts");
   const { sizeProject, renderVariant } = await import("../src/cli/pipeline.ts");
-  const project = await loadProject(fileURLToPath(new URL("..", import.meta.url)));
+  const project = await loadProject(root ?? fileURLToPath(new URL("..", import.meta.url)));
   if (!project.ok) throw new Error("the records do not load: run `pulsewright check`");
   const renders = sizeProject(project)
     .flatMap((d) => d.sized.map((v) => renderVariant(v, project.devices)))

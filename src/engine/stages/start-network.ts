@@ -30,6 +30,7 @@ import { type CoreEval, type CoreValues, NOMINAL_K, cutIn_V, diodeVf_V, evalCore
 import { capRating_V } from "./timing-parts.ts";
 import type { TapDesign } from "./tap.ts";
 import { overdrive } from "./timing-search.ts";
+import { crossFigures } from "./cross-checks.ts";
 import type { Corner, SimCorner } from "../../model/corners.ts";
 
 /**
@@ -75,6 +76,23 @@ export const START_SENSE_OVERDRIVE = 1;
  */
 export const START_RUN_OVERDRIVE = 2;
 
+/**
+ * The cross-returned core's regeneration rate (cross-bleed.ts `regenerationRate`, read by cross-checks.ts
+ * `crossFigures`: cold, minimum gain, the tolerances against it) at the lowest supply the latch can fire at:
+ * at least 1 (ours, measured). When the latch lets go of base A, A's base node sits at rest near its cut-in
+ * (QK_HOLD held it there), so A comes on with its divider current alone, its collector falls as slowly as
+ * that current lets it, and only the fall's rate through the coupling capacitor can pull the on side's base
+ * node off: the returning side's regeneration, as at every turnover of this core, but with no swing behind
+ * it. Measured (native ngspice, the proof's linear 20 ms rise, a new user's 12 V, 1 kHz, 5–95 % LED bar on
+ * the logic-level MOSFET, R_C 2.2 kΩ, 36 kΩ + 1 MΩ + 36 kΩ, R_D 300 kΩ, 1.5 nF; RK5 changed by hand): the
+ * latch fired at 8.82 V (rate 0.83 there) and at control 1 the core parked for good, collector A at
+ * 4.4–5.2 V (its return level V − R_C·β·I_div) with B saturated, up to the full 12 V; fired at 10.0 V (1.03)
+ * and at 11.1 V (1.20) it started at both controls. Statically kicked it runs from 6.7 V (control 0) and
+ * 7.6 V (control 1) with the network's holding transistor out (100 periods): the core runs at the firing
+ * supply, it cannot start there from the latch's release.
+ */
+export const START_REGEN_MIN = 1;
+
 /** The network's values as fitted: RK5 chosen by the lock-out (startNetValues), and the window it sets. */
 export interface StartNetValues {
   rSet_ohm: number;
@@ -90,6 +108,11 @@ export interface StartNetValues {
   vFireLo_V: number;
   /** The timing transistors' overdrive there (START_RUN_OVERDRIVE), at the ambient it is least. */
   runK: number;
+  /**
+   * A cross-returned core's regeneration rate at vFireLo_V (START_REGEN_MIN, crossFigures at that supply);
+   * NaN on every other core, and where the latch cannot fire.
+   */
+  regenFire: number;
 }
 
 /** One check corner's detector input: the lower high collector less DK's drop, and the conditions. */
@@ -214,6 +237,10 @@ export function startNetValues(
     const at = { ...ctx, vMin_V: vAt, taMin_C: t_C };
     runK = Math.min(runK, overdrive(at, q, db, v, v.pot_ohm, v.rEndA_ohm, v.rEndB_ohm));
   }
+  const regenFire =
+    v.crossBleed_ohm !== undefined && Number.isFinite(vFireLo_V)
+      ? crossFigures({ ...ctx, vMin_V: vFireLo_V }, q, db, v, v.crossBleed_ohm).regen
+      : Number.NaN;
   return {
     rSet_ohm,
     cMem_F: startMemoryCap_F(1 / nominalMid.f_Hz),
@@ -227,6 +254,7 @@ export function startNetValues(
     vHighA_V: nominalMid.timing.collectorHighA_V,
     vFireLo_V: Number.isFinite(vFireLo_V) ? vFireLo_V : Number.NaN,
     runK: Number.isFinite(runK) ? runK : Number.NaN,
+    regenFire,
   };
 }
 
@@ -295,7 +323,9 @@ export function latchAt(
  *    base A alone while the core runs (hot is where the cut-in is lowest);
  *  - `start-network-run`: the core runs at the lowest supply the latch can fire at (sn.vFireLo_V): the timing
  *    transistors' overdrive there ≥ START_RUN_OVERDRIVE (sn.runK). No threshold that still fires at the
- *    lowest supply lies above where the core runs: the core is refused with this reason.
+ *    lowest supply lies above where the core runs: the core is refused with this reason;
+ *  - `start-network-regen`: a cross-returned core regenerates from the latch's release at that supply
+ *    (sn.regenFire ≥ START_REGEN_MIN); refused with this reason as well.
  * Once latched the network does nothing more: a running core's edges no longer reach it.
  */
 export function startNetProblems(
@@ -362,7 +392,24 @@ export function startNetProblems(
       ),
     );
   if (out.length === 0 && !(sn.runK >= START_RUN_OVERDRIVE)) out.push(startRunProblem(ctx, sn));
+  if (out.length === 0 && sn.regenFire < START_REGEN_MIN) out.push(startRegenProblem(sn));
   return out;
+}
+
+/** `start-network-regen`: released at the lowest firing supply, the cross-returned core parks (startNetProblems). */
+function startRegenProblem(sn: StartNetValues): DesignProblem {
+  return problem(
+    "timing",
+    "/parts/RK_SET",
+    "start-network-regen",
+    "error",
+    `The start network's latch can fire from a supply of ${sn.vFireLo_V.toFixed(2)} V, where this ` +
+      `cross-returned core's returning side regenerates at a rate of only ${sn.regenFire.toFixed(2)} (need ` +
+      `${START_REGEN_MIN}): released there, timing transistor A comes on slowly and can park half on with B ` +
+      `saturated, and the core stays stopped when the supply has risen. Narrow the duty range (a smaller ` +
+      `pot against the end stops feeds the returning side more) or choose another chain.`,
+    { limit: START_REGEN_MIN, actual: sn.regenFire, unit: "" },
+  );
 }
 
 /** `start-network-run`: the lock-out's window has no room above where the core runs (startNetProblems). */
@@ -396,9 +443,9 @@ export function fitStartNet(
   if (v.startNet !== true) return true;
   const sn = startNetValues(ctx, dev, v, at.nominalMid, at.corners);
   const found = startNetProblems(ctx, dev.q, dev.db, v, sn, at.corners);
-  // The lock-out without room (start-network-run) refuses the core with the network fitted; any other
-  // check sizes it again without the network.
-  if (found.some((p) => p.rule !== "start-network-run")) return false;
+  // The lock-out without room (start-network-run, start-network-regen) refuses the core with the network
+  // fitted; any other check sizes it again without the network.
+  if (found.some((p) => p.rule !== "start-network-run" && p.rule !== "start-network-regen")) return false;
   out.problems.push(...found);
   const iBasePk_A = (2 * ctx.vMax_V - at.nominalMid.vOn_V) / (Math.min(v.rEndA_ohm, v.rEndB_ohm) * (1 - ctx.rTol));
   startNetParts(ctx, dev, sn, iBasePk_A, out);

@@ -4,7 +4,10 @@
  * a new user would, numbers the test's own). With the threshold at ½ of collector A's high level the latch fired
  * at ≈ 5.4 V of the proof's linear 20 ms rise, where this core does not run on (a static, kicked supply runs it
  * from ≈ 8.1 V at control 0 and ≈ 9.1 V at control 1), and it stalled at both controls; the lock-out fires it at
- * the highest threshold that still fires at the lowest supply with every tolerance against it.
+ * the highest threshold that still fires at the lowest supply with every tolerance against it. That threshold
+ * fires at ≈ 8.8 V, where this cross-returned core runs (statically, from ≈ 7.6 V) but does not start from the
+ * latch's release at control 1: the returning side's regeneration rate there is below START_REGEN_MIN, and the
+ * engine refuses the core (`start-network-regen`); by hand, a later trigger starts it.
  */
 import { describe, expect, it } from "vitest";
 import { tapAndTiming } from "../../../src/engine/size.ts";
@@ -13,7 +16,13 @@ import { makeContext } from "../../../src/engine/stages/context.ts";
 import { NOMINAL_K, evalCore } from "../../../src/engine/stages/core-model.ts";
 import { NOMINAL_TEMP_C } from "../../../src/engine/shared/temperature.ts";
 import { seriesBetween } from "../../../src/engine/shared/e-series.ts";
-import { START_RUN_OVERDRIVE, startNetProblems, startNetValues } from "../../../src/engine/stages/start-network.ts";
+import {
+  START_REGEN_MIN,
+  START_RUN_OVERDRIVE,
+  startNetProblems,
+  startNetValues,
+} from "../../../src/engine/stages/start-network.ts";
+import { crossFigures } from "../../../src/engine/stages/cross-checks.ts";
 import { startThresholdExact_ohm } from "../../../src/engine/shared/start-network.ts";
 import { roundDown } from "../../../src/engine/shared/e-series.ts";
 import { COLD_SWING_SHARE, coldRunDeck, coldSwingShare } from "../../../src/verify/cold-start.ts";
@@ -43,11 +52,10 @@ const sn = startNetValues(ctx, { q, db }, v, nominalMid, corners);
 
 describe("the lock-out's choice (the engine's relations)", () => {
   it("is the highest threshold that still fires at the lowest supply: the next E96 step down fails the sense", () => {
-    expect(bar.sized.feasible, bar.sized.reason).toBe(true);
     expect(v.startNet).toBe(true);
     expect(bar.role("RK_SET")!.value).toBe(sn.rSet_ohm);
     expect(bar.role("RK_SET")!.tolerance).toBe(0.01);
-    expect(startNetProblems(ctx, q, db, v, sn, corners)).toEqual([]);
+    expect(startNetProblems(ctx, q, db, v, sn, corners).map((p) => p.rule)).toEqual(["start-network-regen"]);
     const below = seriesBetween(1e3, 1e7, "E96")
       .filter((r) => r < sn.rSet_ohm)
       .pop()!;
@@ -62,6 +70,21 @@ describe("the lock-out's choice (the engine's relations)", () => {
     const rules = startNetProblems(ctx, q, db, v, { ...sn, runK: START_RUN_OVERDRIVE - 0.01 }, corners);
     expect(rules.map((p) => p.rule)).toEqual(["start-network-run"]);
     expect(rules[0]!.message).toMatch(/Narrow the supply's tolerance/);
+  });
+
+  it("refuses the core: released at its lowest firing supply it does not regenerate (start-network-regen)", () => {
+    expect(bar.sized.feasible).toBe(false);
+    expect(bar.sized.verdict.blocking.map((b) => b.rule)).toEqual(["start-network-regen"]);
+    expect(sn.regenFire).toBeLessThan(START_REGEN_MIN);
+    // The rate is the arrangement's own (crossFigures) read at that supply, and it rises with the supply.
+    const at = (vcc_V: number) => crossFigures({ ...ctx, vMin_V: vcc_V }, q, db, v, v.crossBleed_ohm!).regen;
+    expect(sn.regenFire).toBeCloseTo(at(sn.vFireLo_V), 12);
+    expect(at(ctx.vMin_V)).toBeGreaterThan(at(sn.vFireLo_V));
+    const problem = startNetProblems(ctx, q, db, v, sn, corners)[0]!;
+    expect(problem.message).toMatch(/fire from a supply of 8\.\d\d V/);
+    expect(problem.message).toMatch(/Narrow the duty range/);
+    // Not a cross-returned core: no rate, no such check.
+    expect(startNetProblems(ctx, q, db, v, { ...sn, regenFire: Number.NaN }, corners)).toEqual([]);
   });
 });
 
@@ -84,18 +107,31 @@ async function coldRun(netlist: string, ctrl: number): Promise<{ fire_V: number;
 }
 
 describe.skipIf(!hasNgspice)("the lock-out in native ngspice, the proof's linear 20 ms rise", () => {
-  it("fires inside its window at both controls, starts the core at control 0; the ½ threshold stalls", async () => {
+  const rate = (vcc_V: number) => crossFigures({ ...ctx, vMin_V: vcc_V }, q, db, v, v.crossBleed_ohm!).regen;
+  it("fires inside its window; below the rate limit control 1 parks, above it both controls start", async () => {
     for (const ctrl of [0, 1]) {
       const r = await coldRun(bar.netlist, ctrl);
       // An undervoltage lock-out trips inside its designed window (common practice): measured 8.8 V here
       // (window 8.1 V … 10.8 V).
       expect(r.fire_V, `ctrl ${ctrl}`).toBeGreaterThanOrEqual(sn.vFireLo_V);
       expect(r.fire_V, `ctrl ${ctrl}`).toBeLessThanOrEqual(ctx.vMin_V);
-      // Ours, measured: 0.94 of the supply at control 0. At control 1 this core needs ≈ 9.1 V (static, kicked)
-      // and the latch fires at 8.8 V: it starts or stalls with the run's step (this deck: stalls; the build's
-      // shared cold run on the 2 A circuit, embedded and native: starts), a margin the lock-out's window
-      // cannot give with these tolerances (docs/method.md, "Start network"), so it is not asserted.
+      // Ours, measured: the rate at the firing supply is below the limit; control 0 starts (0.94 of the
+      // supply), control 1 parks, collector A half on with B saturated (0.00), though statically kicked the
+      // core runs from ≈ 7.6 V: the engine refuses it.
+      expect(rate(r.fire_V), `ctrl ${ctrl}`).toBeLessThan(START_REGEN_MIN);
       if (ctrl === 0) expect(r.share, `ctrl ${ctrl}`).toBeGreaterThan(COLD_SWING_SHARE);
+      else expect(r.share, `ctrl ${ctrl}`).toBeLessThan(COLD_SWING_SHARE);
+    }
+    // The same circuit with a later trigger (RK5 24.9 kΩ by hand, outside the window the tolerances allow):
+    // the latch fires at ≈ 10.0 V, where the rate passes the limit, and the core starts at both controls
+    // (ours, measured: 0.94 / 0.95).
+    const later = bar.netlist.replace(/^(R\d+ kb2 0) \S+$/m, "$1 24900");
+    expect(later).not.toBe(bar.netlist);
+    for (const ctrl of [0, 1]) {
+      const r = await coldRun(later, ctrl);
+      expect(r.fire_V, `later, ctrl ${ctrl}`).toBeGreaterThan(9.5);
+      expect(rate(r.fire_V), `later, ctrl ${ctrl}`).toBeGreaterThanOrEqual(START_REGEN_MIN);
+      expect(r.share, `later, ctrl ${ctrl}`).toBeGreaterThan(COLD_SWING_SHARE);
     }
     // The same circuit with RK5 at ½ of collector A's high level (E24 down, the rule before the lock-out):
     // the latch fires at ≈ 5.4 V and the core stalls at both controls (ours, measured: 0.00).
