@@ -61,6 +61,7 @@ import {
   type RampOffer,
   rampCoreSpec,
   rampLossesModelled,
+  rampAnswers,
   rampOffer,
   rampOffered,
 } from "./stages/ramp-offer.ts";
@@ -86,14 +87,14 @@ import {
 export function sizeVariant(spec: VariantSpec): SizedVariant {
   const out = sizePotCore(spec);
   // The ramp-and-comparator duty stage (stages/ramp-offer.ts; docs/method.md, "A duty stage that sets a
-  // voltage"): tried only where every potentiometer core refuses the variant on its duty range
-  // (`rampOffered`), kept only when the variant it makes passes every check, so every variant that
-  // passes on a pot core keeps its design and a refusal keeps its page; and only where the switching loss
+  // voltage"): tried only where every potentiometer core refuses the variant on its duty range or its start
+  // network (`rampOffered`, `rampAnswers`), kept only when the variant it makes passes every check, so every
+  // variant that passes on a pot core keeps its design and a refusal keeps its page; and only where the switching loss
   // is a small share of the dissipation (`rampLossesModelled`: the chain's edges from the PNP's tap are not
   // yet modelled).
   if (out.feasible || !rampOffered(spec, out)) return out;
-  // Refused on the duty range with every potentiometer core: the ramp stage, kept only when feasible.
-  const why = out.verdict.blocking.find((b) => b.rule.startsWith("duty-range"))?.rule ?? "duty-range-unreachable";
+  // Refused on the duty range or the start with every potentiometer core: the ramp stage, kept only when feasible.
+  const why = rampAnswers(out) ?? "duty-range-unreachable";
   try {
     const alt = withCoreMemo(() => sizeWithRamp(spec, why));
     return alt?.feasible === true && rampLossesModelled(alt) ? alt : out;

@@ -164,9 +164,25 @@ export const RAMP_CORE_DUTY = { min: 0.45, max: 0.55 } as const;
 const RAMP_LOADS: ReadonlySet<string> = new Set(["led", "lamp", "resistive", "motor"]);
 
 /**
+ * The refusals of every potentiometer core the stage answers: a duty-range rule (the pot cannot set the
+ * range: the stage's pot carries only a divider's current), and a start network without room
+ * (`start-network-run`, `start-network-regen`: the pot core that reaches the range cannot be started from a
+ * slowly rising supply, while the stage's core at a fixed ≈ 50 % has no end of travel to start at; the 12 V,
+ * 1 kHz, 5–95 % LED bar on the logic-level MOSFET: its cross-returned pot core parks on the latch's release,
+ * the stage's core starts at both controls with a swing of 0.90 of the supply; ours, measured in both engines).
+ */
+const RAMP_ANSWERS = (rule: string): boolean =>
+  rule.startsWith("duty-range") || rule === "start-network-run" || rule === "start-network-regen";
+
+/** The refusal the stage answers, named in its decision (the first among `refused`'s blocking items). */
+export function rampAnswers(refused: SizedVariant): string | undefined {
+  return refused.verdict.blocking.find((b) => RAMP_ANSWERS(b.rule))?.rule;
+}
+
+/**
  * Whether the stage is offered after `refused`: the chain, frequencies (`rampMaxHz`) and supply above, a
- * load the chain was simulated with on the stage, and a refusal with a duty-range rule among its reasons
- * (the one thing the stage changes).
+ * load the chain was simulated with on the stage, and a refusal the stage answers among its reasons
+ * (`rampAnswers`: what the stage changes).
  */
 export function rampOffered(spec: VariantSpec, refused: SizedVariant): boolean {
   return (
@@ -175,7 +191,7 @@ export function rampOffered(spec: VariantSpec, refused: SizedVariant): boolean {
     spec.targets.pwm_Hz <= rampMaxHz(spec.chain) &&
     spec.supply_V >= RAMP_OFFER_MIN_V &&
     (RAMP_MEASURED_LOW.has(spec.chain) ? RAMP_LOW_LOADS : RAMP_LOADS).has(spec.load_kind) &&
-    refused.verdict.blocking.some((b) => b.rule.startsWith("duty-range"))
+    rampAnswers(refused) !== undefined
   );
 }
 
@@ -401,10 +417,14 @@ export function rampOffer(
         `${formatValue(v2.rRamp_ohm, "Ω")} / ${formatValue(v2.cRamp_F, "F")} ramp on collector A compared with ` +
         `the control's wiper`,
       reason:
-        `with the potentiometer in the timing network no core reaches ${Math.round(t.duty_min * 100)}–` +
-        `${Math.round(t.duty_max * 100)} %${ends ? " with a true off and on" : ""} (${why}); here the pot carries ` +
-        `only a divider's current and the core's resistors do not depend on the duty range, and every corner ` +
-        `reaches ${ends ? "0 % and 100 % at the control's ends" : "the asked range"}` +
+        (why.startsWith("start-network")
+          ? `the potentiometer core that reaches ${Math.round(t.duty_min * 100)}–${Math.round(t.duty_max * 100)} %` +
+            `${ends ? " with a true off and on" : ""} cannot be started reliably from a slowly rising supply ` +
+            `(${why}); this core runs at a fixed ≈ 50 % and starts at every setting of the control, `
+          : `with the potentiometer in the timing network no core reaches ${Math.round(t.duty_min * 100)}–` +
+            `${Math.round(t.duty_max * 100)} %${ends ? " with a true off and on" : ""} (${why}); `) +
+        `here the pot carries only a divider's current and the core's resistors do not depend on the duty ` +
+        `range, and every corner reaches ${ends ? "0 % and 100 % at the control's ends" : "the asked range"}` +
         (v2.pairDiodes === true
           ? `; the pair's inputs swing ${w.diodeRev_V.toFixed(1)} V apart, past its transistors' base–emitter ` +
             `reverse rating, so a signal diode in series with each emitter blocks it and one across each ` +

@@ -26,13 +26,16 @@ export function expandOwn(record: DesignRecord) {
   });
 }
 
-/** A sizer for `record`'s variants by id; `title` names the netlist. */
-export function recordSizer(record: DesignRecord, title: string) {
+/**
+ * A sizer for `record`'s variants by id; `title` names the netlist; `size` sizes (sizeVariant, or sizePotCore
+ * for the potentiometer cores alone).
+ */
+export function recordSizer(record: DesignRecord, title: string, size: typeof sizeVariant = sizeVariant) {
   const variants = expandOwn(record);
   return (id: string) => {
     const s = variants.find((v) => v.id === id);
     if (s === undefined) throw new Error(`no variant ${id} in the test record ${record.id}`);
-    const sized = sizeVariant(s);
+    const sized = size(s);
     const circuit = sized.circuit!;
     const role = (r: string) => circuit.parts.find((p) => p.role === r);
     const fig = (k: string) => sized.figures.find((f) => f.key === k)!;

@@ -7,10 +7,11 @@
  * the highest threshold that still fires at the lowest supply with every tolerance against it. That threshold
  * fires at ≈ 8.8 V, where this cross-returned core runs (statically, from ≈ 7.6 V) but does not start from the
  * latch's release at control 1: the returning side's regeneration rate there is below START_REGEN_MIN, and the
- * engine refuses the core (`start-network-regen`); by hand, a later trigger starts it.
+ * engine refuses the core (`start-network-regen`); by hand, a later trigger starts it. The engine then answers
+ * with the ramp duty stage (stages/ramp-offer.ts `rampAnswers`), whose core runs at a fixed ≈ 50 % and starts.
  */
 import { describe, expect, it } from "vitest";
-import { tapAndTiming } from "../../../src/engine/size.ts";
+import { sizePotCore, tapAndTiming } from "../../../src/engine/size.ts";
 import { CHAIN_PLANNERS } from "../../../src/engine/stages/chains/index.ts";
 import { makeContext } from "../../../src/engine/stages/context.ts";
 import { NOMINAL_K, evalCore } from "../../../src/engine/stages/core-model.ts";
@@ -41,7 +42,10 @@ const record = {
   axes: { supply_V: [12], load_A: [1], chain: ["mosfet-logic"], load_kind: ["led"] },
   targets: { pwm_Hz: 1000, duty_min: 0.05, duty_max: 0.95, ambient_C: [5, 35] },
 } as unknown as DesignRecord;
-const bar = recordSizer(record, "shed LED bar (test)")("shed-led-bar-12v-1a-mosfet-logic-led");
+const ID = "shed-led-bar-12v-1a-mosfet-logic-led";
+/** The potentiometer core alone (what the lock-out refuses), and the variant as the build sizes it. */
+const bar = recordSizer(record, "shed LED bar (test)", sizePotCore)(ID);
+const staged = recordSizer(record, "shed LED bar (test)")(ID);
 const ctx = makeContext(bar.sized.spec);
 const q = ctx.spec.devices.timing_npn as BjtClass;
 const db = ctx.spec.devices.signal_diode as DiodeClass;
@@ -49,6 +53,17 @@ const v = tapAndTiming(ctx, CHAIN_PLANNERS[ctx.spec.chain](ctx)).timing.values;
 const nominalMid = evalCore(v, q, db, { vcc_V: ctx.vNom_V, t_C: NOMINAL_TEMP_C, ...NOMINAL_K }, 0.5);
 const corners = bar.sized.corners ?? [];
 const sn = startNetValues(ctx, { q, db }, v, nominalMid, corners);
+
+describe("the answer: the ramp duty stage (stages/ramp-offer.ts rampAnswers)", () => {
+  it("sizes the variant on the stage, with the refusal it answers named in its decision", () => {
+    expect(staged.sized.feasible, staged.sized.reason).toBe(true);
+    expect(staged.role("Q_LVL")).toBeDefined();
+    const d = staged.sized.decisions?.find((x) => x.topic === "duty stage");
+    expect(d?.reason).toMatch(/cannot be started reliably from a slowly rising supply \(start-network-regen\)/);
+    // The pot core reaches the range: it is refused for its start alone.
+    expect(bar.sized.verdict.blocking.some((b) => b.rule.startsWith("duty-range"))).toBe(false);
+  });
+});
 
 describe("the lock-out's choice (the engine's relations)", () => {
   it("is the highest threshold that still fires at the lowest supply: the next E96 step down fails the sense", () => {
@@ -108,6 +123,20 @@ async function coldRun(netlist: string, ctrl: number): Promise<{ fire_V: number;
 
 describe.skipIf(!hasNgspice)("the lock-out in native ngspice, the proof's linear 20 ms rise", () => {
   const rate = (vcc_V: number) => crossFigures({ ...ctx, vMin_V: vcc_V }, q, db, v, v.crossBleed_ohm!).regen;
+  it("on the ramp stage the core starts at both controls (its own netlist, the proof's rise)", async () => {
+    // Ours, measured (native ngspice and the embedded engine, 0.5, 1 and 2 A): swing 0.90 of the supply.
+    for (const ctrl of [0, 1]) {
+      const period = 1 / staged.fig("frequency_nominal").value;
+      const engine = startNgspice();
+      try {
+        const r = await engine.run(coldRunDeck(staged.netlist, period, ctrl), ["v(ca)", "v(cb)", "v(vbus)"]);
+        expect(coldSwingShare(r, period, supplyVoltage(staged.netlist)), `ctrl ${ctrl}`).toBeGreaterThan(0.8);
+      } finally {
+        await engine.close();
+      }
+    }
+  });
+
   it("fires inside its window; below the rate limit control 1 parks, above it both controls start", async () => {
     for (const ctrl of [0, 1]) {
       const r = await coldRun(bar.netlist, ctrl);
