@@ -16,6 +16,7 @@ import { DEVICE_ROLES, type DeviceRole } from "../model/design.ts";
 import type { BjtClass, DiodeClass } from "../model/device.ts";
 import { vceSat, vceSatSlope_ohm } from "./shared/gain.ts";
 import { vceSatNominal_V, vceSatNominalSlope_ohm } from "./stages/chains/sat-nominal.ts";
+import { switchOffVoltage_V } from "./stages/chains/common.ts";
 import { diodeCj_F, diodeClassVf_V } from "./shared/diode.ts";
 import type { ChainPlan, DeviceLoss, OperatingPoint, TapInfo } from "./stages/chains/types.ts";
 import { conductionLossMosfet_W, switchingLoss_W } from "./shared/losses.ts";
@@ -35,7 +36,7 @@ import {
 import { type TimingResult, designTiming } from "./stages/timing.ts";
 import { withCoreMemo } from "./stages/core-model.ts";
 import { loadStage } from "./stages/load.ts";
-import { coilRecovery_W, windingSwitchTerms, withWindingForm } from "./stages/winding-losses.ts";
+import { coilRecovery_W, windingSwitchTerms, withWindingForm, withWindingRecovery } from "./stages/winding-losses.ts";
 import { type MotorRuns, motorRuns } from "./stages/motor-runs.ts";
 import type { WindingWaveform } from "./shared/winding.ts";
 import { thermalStage } from "./stages/thermal.ts";
@@ -807,7 +808,7 @@ function sizeChosen(chosen: CoreChoice, ramp?: RampOffer): SizedVariant {
     timingLoss("Q_B"),
     ...(tap.follower ? [followerLoss("QF_A"), followerLoss("QF_B")] : []),
   ];
-  const finLosses = windingFormLosses(ctx, fin.losses, load.winding);
+  const finLosses = windingFormLosses(ctx, fin.losses, load.winding, positiveOr(view.f.hi, ctx.f_Hz));
   const losses = [...finLosses, ...coreLosses];
   const thermal = thermalStage(ctx, losses);
   const power = finLosses.find((l) => l.isPower);
@@ -1100,14 +1101,29 @@ function nominalDissipation(
   return pCond + pBase + pSw + coilRecoveryNominal_W(ctx, power, vSwNom_V, vOverlap_V, dMax, fNom);
 }
 
-/** The chain's worst-case losses with the winding's form factor (winding-losses.ts `withWindingForm`). */
-function windingFormLosses(ctx: Ctx, losses: DeviceLoss[], winding: WindingWaveform | undefined): DeviceLoss[] {
+/**
+ * The chain's worst-case losses with the winding's form factor (winding-losses.ts `withWindingForm`)
+ * and the freewheel diode's recovery at the switch (`withWindingRecovery`: V_cc,max plus the
+ * freewheel's drop, f_max, the valley current scaled to I_max).
+ */
+function windingFormLosses(
+  ctx: Ctx,
+  losses: DeviceLoss[],
+  winding: WindingWaveform | undefined,
+  fMax_Hz: number,
+): DeviceLoss[] {
   const sat = saturatedSwitch(ctx, losses);
   const at =
     sat === undefined
       ? undefined
       : { i_A: ctx.iMax_A, v_V: vceSat(sat, ctx.iMax_A), r_ohm: vceSatSlope_ohm(sat, ctx.iMax_A) };
-  return withWindingForm(losses, winding, at);
+  const formed = withWindingForm(losses, winding, at);
+  return withWindingRecovery(formed, winding, {
+    v_V: switchOffVoltage_V(ctx),
+    f_Hz: fMax_Hz,
+    iScale: ctx.iNom_A > 0 ? ctx.iMax_A / ctx.iNom_A : 1,
+    freewheel: ctx.spec.devices.freewheel_diode as DiodeClass | undefined,
+  });
 }
 
 /**

@@ -222,6 +222,13 @@ describe("an inductive load starts at its settled current (R, L, back-EMF in ser
     expectClose(loadHold(target(), NETLIST, 0.18)["ls"]!, 12 - 9 - 1.8, 1e-9);
     expectClose(loadHold(target({ highSide: true }), NETLIST, 0.18)["ls"]!, 9 + 1.8, 1e-9);
   });
+  it("low side: the switched end held below the bus the operating point holds, not the deck's supply", () => {
+    // A handed-over state holds the bus at 11.4 V (fuse and reverse-protection drops at the load
+    // current): I = (V_bus − E − V_ls)/R, so V_ls = 11.4 − 9 − 1.8 (Ohm's law on the held operating point).
+    expectClose(loadHold(target(), NETLIST, 0.18, 11.4)["ls"]!, 11.4 - 9 - 1.8, 1e-9);
+    // High side: the load returns to ground, the bus does not enter.
+    expectClose(loadHold(target({ highSide: true }), NETLIST, 0.18, 11.4)["ls"]!, 9 + 1.8, 1e-9);
+  });
   it("E is the deck's own `.param emf` (a corner deck's or a run's value: 9.9 V here)", () => {
     const deck = setEmf(NETLIST.replace("DC 12", "DC 13.2"), 9.9);
     expect(deckEmf(deck)).toBe(9.9);

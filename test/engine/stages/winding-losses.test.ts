@@ -5,7 +5,12 @@
 import { describe, expect, it } from "vitest";
 import type { DiodeClass, MosfetClass } from "../../../src/model/device.ts";
 import type { DeviceLoss } from "../../../src/engine/stages/chains/types.ts";
-import { coilRecovery_W, freewheelRecovery_W, windingSwitchTerms } from "../../../src/engine/stages/winding-losses.ts";
+import {
+  coilRecovery_W,
+  freewheelRecovery_W,
+  windingSwitchTerms,
+  withWindingRecovery,
+} from "../../../src/engine/stages/winding-losses.ts";
 import { windingWaveform } from "../../../src/engine/shared/winding.ts";
 import { diodeTransitTime_s } from "../../../src/engine/shared/diode.ts";
 import { expectClose } from "../../helpers/close.ts";
@@ -66,5 +71,30 @@ describe("a solenoid coil's freewheel recovery, V·Q_rr·f (Q_rr by charge contr
     const short = { ...coil, l_H: 0.0048, duty: 0.1 };
     expect(windingWaveform({ ...short, emf_V: 0 }).mode).toBe("discontinuous");
     expect(coilRecovery_W(short, power, { v_V: 24, freewheel: rectifier })).toBe(0);
+  });
+});
+
+describe("the worst case pays the freewheel's recovery too (winding-losses.ts withWindingRecovery)", () => {
+  const w = windingWaveform({ ...coil, emf_V: 0 });
+  const drive: DeviceLoss = { ...power, role: "Q_DRV", isPower: false, pCond_W: 0.01, p_W: 0.01 };
+  const chain: DeviceLoss[] = [{ ...power, pCond_W: 0.1, pSw_W: 0.05, p_W: 0.15 }, drive];
+  it("adds V·Q_rr·f at the worst-case voltage, f_max and the valley scaled to I_max, to the power device only", () => {
+    // The same term as the nominal figure (one definition), at 24·1.1 + 0.6 V, 1.2 kHz and 1.1 × the valley.
+    const [p, d] = withWindingRecovery(chain, w, { v_V: 27, f_Hz: 1200, iScale: 1.1, freewheel: rectifier });
+    const rr = freewheelRecovery_W(w.iValley_A * 1.1, power, { v_V: 27, f_Hz: 1200, freewheel: rectifier });
+    // Hand arithmetic: ≈ 1.1·0.1830 A·2.885 µs·0.983·27 V·1.2 kHz ≈ 18.5 mW (the solenoid case above, scaled).
+    expectClose(rr, 0.0185, 0.02, "hand arithmetic");
+    expectClose(p!.p_W, 0.15 + rr, 1e-12);
+    expectClose(p!.pSw_W, 0.05 + rr, 1e-12);
+    expect(p!.pCond_W).toBe(0.1);
+    expect(d).toBe(drive);
+  });
+  it("no stored charge or no waveform, no term: the losses as they were", () => {
+    expect(withWindingRecovery(chain, w, { v_V: 27, f_Hz: 1200, iScale: 1.1, freewheel: undefined })).toBe(chain);
+    expect(withWindingRecovery(chain, undefined, { v_V: 27, f_Hz: 1200, iScale: 1.1, freewheel: rectifier })).toBe(
+      chain,
+    );
+    const [p] = withWindingRecovery(chain, w, { v_V: 27, f_Hz: 1200, iScale: 1.1, freewheel: schottky });
+    expect(p!.p_W).toBeCloseTo(0.15, 9);
   });
 });
