@@ -146,7 +146,7 @@ export function renderNetlist(circuit: CircuitModel, meta: NetlistMeta): string 
   // would couple two thirds of the supply too much into the other base, and the first half-period
   // would run several periods long.
   const rail = coreRailStart(circuit, meta.supply_V);
-  const high = (rail === null || !rail.core ? meta.supply_V : rail.v_V) * startShare(circuit);
+  const high = (rail === null ? meta.supply_V : rail.v_V) * startShare(circuit);
   const railIc = rail === null ? "" : ` v(${checkNet(rail.net, "ic")})=${spiceNum(rail.v_V, "ic")}`;
   if (hasCore)
     out.push(
@@ -175,17 +175,12 @@ function startShare(circuit: CircuitModel): number {
   return Math.min(1, r);
 }
 
-/**
- * The regulated rail's net and starting level (its zener's voltage, at most the supply), or null without
- * one; `core`: the timing core hangs from it (else it is the driven MOSFET's gate rail alone).
- */
-function coreRailStart(circuit: CircuitModel, supply_V: number): { net: string; v_V: number; core: boolean } | null {
+/** The core rail's net and starting level (its zener's voltage, at most the supply), or null without one. */
+function coreRailStart(circuit: CircuitModel, supply_V: number): { net: string; v_V: number } | null {
   const cap = circuit.parts.find((p) => p.role === "C_RAIL");
   const net = cap?.pins["plus"];
   const dz = circuit.parts.find((p) => p.kind === "zener" && p.pins["cathode"] === net);
-  if (net === undefined || dz === undefined) return null;
-  const core = circuit.parts.some((p) => p.stage === "timing" && Object.values(p.pins).includes(net));
-  return { net, v_V: Math.min(supply_V, dz.value), core };
+  return net === undefined || dz === undefined ? null : { net, v_V: Math.min(supply_V, dz.value) };
 }
 
 /** Rewrites the `.param ctrl` line (0 … 1) of a netlist made by renderNetlist. */

@@ -13,9 +13,7 @@ export function classify(line: string): LineKind | null {
   if (line === ".param end_off=0 end_on=0") return "param";
   if (/^\.model [A-Z0-9_]+ (NPN|PNP|VDMOS|D)\(([A-Z][A-Z0-9]*=-?[0-9.e+-]+ ?)+\)$/.test(line)) return "model";
   // A power-on timer (solenoid loads) adds its settled rail and node: v(vbus)=supply v(pit)=0.
-  // The gate or core rail's reservoir starts charged to its zener's level (C_RAIL: netlist.ts coreRailStart).
-  if (/^\.ic v\(ca\)=[0-9.e+-]+ v\(cb\)=0( v\(vg\)=[0-9.e+-]+)?( v\(vbus\)=[0-9.e+-]+ v\(pit\)=0)?$/.test(line))
-    return "ic";
+  if (/^\.ic v\(ca\)=[0-9.e+-]+ v\(cb\)=0( v\(vbus\)=[0-9.e+-]+ v\(pit\)=0)?$/.test(line)) return "ic";
   if (line === ".temp 25") return "temp";
   if (line === ".options method=gear" || line === ".options method=gear abstol=1e-9 vntol=1e-5") return "options";
   if (/^\.tran [0-9.e+-]+ [0-9.e+-]+ 0 [0-9.e+-]+( uic)?$/.test(line)) return "tran";

@@ -222,20 +222,10 @@ export const RAIL_CAP_MIN_F = 10e-6;
 /**
  * The rail capacitor: it supplies each edge's recharge of a coupling capacitor, C_T·V_swing with
  * V_swing ≤ V_rail, with the rail sagging by at most RAIL_SAG_SHARE of itself: C ≥ C_T/RAIL_SAG_SHARE
- * (railReservoir_F with Q = C_T·V_rail), at least RAIL_CAP_MIN_F, E6 up.
+ * (charge balance, derived), at least RAIL_CAP_MIN_F, E6 up.
  */
 export function railCap_F(cT_F: number, followers: boolean): number {
-  return railReservoir_F(followers ? cT_F : 0, 1);
-}
-
-/**
- * A rail capacitor that gives up the charge `q_C` in one edge while its rail (at least `railMin_V`) sags by
- * at most RAIL_SAG_SHARE of itself: C ≥ Q/(RAIL_SAG_SHARE·V_rail) (charge balance, ΔV = Q/C; derived), at
- * least RAIL_CAP_MIN_F, E6 up. The one definition for the core's rail (a coupling capacitor's recharge) and
- * the driven MOSFET's gate rail (the gate charge Q_G each turn-on: chains/mosfet-driver.ts).
- */
-export function railReservoir_F(q_C: number, railMin_V: number): number {
-  return roundUp(Math.max(RAIL_CAP_MIN_F, q_C / (RAIL_SAG_SHARE * railMin_V)), "E6");
+  return roundUp(Math.max(RAIL_CAP_MIN_F, followers ? cT_F / RAIL_SAG_SHARE : 0), "E6");
 }
 
 /** The core's parts moved from vbus onto the rail. */
@@ -378,12 +368,7 @@ export function railDecision(
 }
 
 /** The rail capacitor's part (aluminium electrolytic across the zener), rated for the rail's highest level. */
-export function railCapPart(
-  ctx: Ctx,
-  rail: Pick<CoreRail, "max_V">,
-  c_F: number,
-  why = "holds the timing core's rail up while a coupling capacitor recharges",
-): { part: Part; checks: StressCheck[] } {
+export function railCapPart(ctx: Ctx, rail: CoreRail, c_F: number): { part: Part; checks: StressCheck[] } {
   const rated = capRating_V(ctx, rail.max_V);
   return {
     part: capacitor("chain", "C_RAIL", {
@@ -394,7 +379,7 @@ export function railCapPart(
       stressV: rail.max_V,
       pins: { plus: CORE_RAIL_NET, minus: "0" },
       polarised: true,
-      why,
+      why: "holds the timing core's rail up while a coupling capacitor recharges",
     }),
     checks: [
       checkStress(
