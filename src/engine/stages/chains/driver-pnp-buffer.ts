@@ -6,15 +6,15 @@
  * The collector then carries only i_E/(β + 1) of the driver's base current, so R_C is sized for the
  * timing core instead of for the driver (Sedra & Smith [src:sedra-smith], the emitter follower).
  * Everything after the tap resistor is the chain as planned (driver-pnp.ts, with its resistor-fed or
- * current-sink base drive). Chosen by size.ts only where no unbuffered core passes, so no variant
- * designed before changes.
+ * current-sink base drive). Chosen by size.ts only where no unbuffered core passes or the collector
+ * cannot feed the driver, so no variant that passed before changes.
  */
 import type { BjtClass } from "../../../model/device.ts";
 import { EngineMisuseError } from "../../../model/errors.ts";
 import { formatValue } from "../../../model/format.ts";
 import { checkStress } from "../../shared/derating.ts";
 import { figure } from "../../shared/figures.ts";
-import { vbeOn } from "../../shared/gain.ts";
+import { hfeMin, vbeOn } from "../../shared/gain.ts";
 import { transistor } from "../../../circuit/parts.ts";
 import type { Ctx } from "../context.ts";
 import { planDriverPnp } from "./driver-pnp.ts";
@@ -87,13 +87,16 @@ export function planDriverPnpBuffered(ctx: Ctx, why: string): ChainPlan {
         fMax_Hz: op.fMax_Hz,
       });
       const pBuf = p.on_W + p.edge_W;
+      // The part states its gain at its largest current (within its rating), cold, as the parts list reads it.
+      const iGain = Math.min(q.ic_max_A, buf.iMax_A);
       const qBuf = transistor(
         "chain",
         "Q_BUF",
         q,
-        buf.betaMin,
+        hfeMin(q, iGain, ctx.taMin_C),
         { c: "vbus", b: tapNet, e: "bfe" },
         { voltage_V: ctx.vMax_V, current_A: buf.iMax_A },
+        iGain,
       );
       return {
         ...f,
@@ -135,7 +138,8 @@ export function planDriverPnpBuffered(ctx: Ctx, why: string): ChainPlan {
             roles: ["Q_BUF", "RE_BUF"],
             topic: "Tap buffer",
             choice:
-              `emitter follower between the timing collector and R_T (R_C ${tap.rC_ohm} Ω feeds only its base ` +
+              "emitter follower between the timing collector and R_T " +
+              `(R_C ${formatValue(tap.rC_ohm, "Ω")} feeds only its base ` +
               `current, at most ${formatValue(buf.iBase_A, "A")})`,
             reason:
               `without it no timing core passes (${why}): fed from the collector, the driver's ` +

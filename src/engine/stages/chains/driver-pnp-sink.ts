@@ -213,6 +213,7 @@ export function planDriverPnpSink(ctx: Ctx, plain: PlainDrive): ChainPlan {
         "PNP turn-off pull-up",
       );
       const clampI = Math.max(tap.iMax_A, CLAMP_BIAS_A);
+      // Its gain read (and stated) within its rating; the current check below refuses a clamp current above it.
       const qCl = transistor(
         "chain",
         "Q_CL",
@@ -220,6 +221,7 @@ export function planDriverPnpSink(ctx: Ctx, plain: PlainDrive): ChainPlan {
         hfeMin(qc, Math.min(clampI, qc.ic_max_A), ctx.taMin_C),
         { c: "drb", b: "dre", e: "0" },
         { voltage_V: vClamp, current_A: clampI },
+        Math.min(clampI, qc.ic_max_A),
       );
       const qDrv = transistor(
         "chain",
