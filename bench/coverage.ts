@@ -4,7 +4,8 @@
  * prints the feasible share and the remaining reasons counted by kind (the verdict's first
  * blocking rule, and every blocking rule). Figures are printed, never asserted.
  * Usage: node --import tsx bench/coverage.ts [--by chain|supply|pwm|kind|load] [--rule <rule>] [--gate-buffer]
- *        [--demo] [--first-asks]
+ *        [--demo] [--first-asks] [--chain <kind>]
+ * `--chain` sizes only the variants of one chain kind (a share of the grid in a share of its time).
  * `--first-asks` sizes the demo once more with the targets its growers first asked for
  * (test/fixtures/coverage/first-asks.json: frequency and duty range) in place of the records' own, and
  * prints that share beside the demo's; `--demo` skips the grid.
@@ -24,11 +25,13 @@ import type { SizedVariant } from "../src/model/sized.ts";
 
 const ROOT = fileURLToPath(new URL("..", import.meta.url));
 
-/** Sizes every variant of the records under `<root>/designs`. */
-export async function sizeAll(root: string, gateBuffer = false): Promise<SizedVariant[]> {
+/** Sizes every variant of the records under `<root>/designs` (of chain kind `chain` only, when given). */
+export async function sizeAll(root: string, gateBuffer = false, chain?: string): Promise<SizedVariant[]> {
   const project = await loadProject(root);
   if (!project.ok) throw new Error(`records do not load:\n${project.issues.slice(0, 10).map(formatIssue).join("\n")}`);
-  const specs = project.designs.flatMap((d) => expandDesign(d.record, libraryDeps(project.devices, project.policy)));
+  const specs = project.designs
+    .flatMap((d) => expandDesign(d.record, libraryDeps(project.devices, project.policy)))
+    .filter((s) => chain === undefined || s.chain === chain);
   return specs.map((s) => (gateBuffer ? sizeVariantWithGateBuffer(s) : sizeVariant(s)));
 }
 
@@ -129,6 +132,7 @@ if (isMain) {
     demoOnly: process.argv.includes("--demo"),
     gateBuffer: process.argv.includes("--gate-buffer"),
     firstAsks: process.argv.includes("--first-asks"),
+    chain: arg("--chain"),
   });
   console.log(`coverage: ${((performance.now() - t0) / 1000).toFixed(1)} s`);
 }
@@ -141,16 +145,22 @@ export interface CoverageOptions {
   gateBuffer?: boolean;
   /** Also size the demo at its growers' first asks (test/fixtures/coverage/first-asks.json). */
   firstAsks?: boolean;
+  /** Size only the variants of this chain kind. */
+  chain?: string | undefined;
 }
 
 /** Prints the demo's and the grid's feasible shares and reasons. */
 export async function runCoverage(o: CoverageOptions = {}): Promise<void> {
-  const demo = await sizeAll(ROOT, o.gateBuffer);
+  const demo = await sizeAll(ROOT, o.gateBuffer, o.chain);
   report("demo (sized, no simulation)", demo, o.by);
   if (o.firstAsks) {
     const root = firstAsksRoot();
     try {
-      report("demo at the growers' first asks (sized, no simulation)", await sizeAll(root, o.gateBuffer), o.by);
+      report(
+        "demo at the growers' first asks (sized, no simulation)",
+        await sizeAll(root, o.gateBuffer, o.chain),
+        o.by,
+      );
     } finally {
       rmSync(root, { recursive: true, force: true });
     }
@@ -162,7 +172,7 @@ export async function runCoverage(o: CoverageOptions = {}): Promise<void> {
   const roots = gridRoots();
   try {
     const grid: SizedVariant[] = [];
-    for (const root of roots) grid.push(...(await sizeAll(root, o.gateBuffer)));
+    for (const root of roots) grid.push(...(await sizeAll(root, o.gateBuffer, o.chain)));
     report("coverage grid (sized, no simulation)", grid, o.by);
     listRule(grid, o.rule);
   } finally {

@@ -57,6 +57,18 @@ export type ChainInputNeed =
     }
   | {
       /**
+       * A base-current input behind an emitter follower (Q_BUF, its base on the tapped collector, its
+       * collector on the supply, R_E from its emitter to ground; tap-buffered.ts): the chain's tap
+       * resistor hangs on the follower's emitter, so the collector feeds only the follower's base
+       * current and R_C is sized for the timing core. `base` is what the chain's first base needs
+       * behind the tap resistor, as the unbuffered tap would meet it.
+       */
+      kind: "buffered-base";
+      base: BaseCurrentNeed;
+      inverting: boolean;
+    }
+  | {
+      /**
        * A MOSFET gate behind a complementary emitter-follower pair whose bases sit on the tapped
        * collector (chains/gate-buffer.ts): the collector feeds only the pair's base current, and the
        * gate network (R_G, R_GS) hangs on the pair's emitters. The chain sizes R_G and R_GS itself.
@@ -79,6 +91,9 @@ export type ChainInputNeed =
       vPlateau_V: number;
       inverting: boolean;
     };
+
+/** The base-current input need (the plain tap's). */
+export type BaseCurrentNeed = Extract<ChainInputNeed, { kind: "base-current" }>;
 
 /** A stage's result: its parts (refs left empty: the assembler numbers them), figures, problems, checks. */
 export interface StageResult {

@@ -26,6 +26,7 @@ import { NOMINAL_TEMP_C } from "./shared/temperature.ts";
 import { type Ctx, makeContext, switchedVoltageNominal_V } from "./stages/context.ts";
 import { CHAIN_PLANNERS } from "./stages/chains/index.ts";
 import { planGateBuffer } from "./stages/chains/gate-buffer.ts";
+import { planDriverPnpBuffered } from "./stages/chains/driver-pnp-buffer.ts";
 import {
   GATE_EDGE_SHARE_FOLLOWER,
   type TapDesign,
@@ -496,10 +497,38 @@ function railedCore(offer: RailOffer, why: RailWhy): CoreChoice | null {
   return { spec, ctx, plan, core: { ...core, timing }, rail: { load_A, why, cap_F } };
 }
 
-/** The variant's timing core: with its own classes, else with the signal diodes stepped up (above). */
+/**
+ * The variant's timing core: with its own classes, else with the signal diodes stepped up (above), else
+ * with the PNP driver's tap buffered (bufferedPnpCore).
+ */
 function chooseCore(specIn: VariantSpec): CoreChoice {
   const first = coreOf(specIn);
-  return first.core.timing.search.passed ? first : (steppedDiodes(first) ?? first);
+  if (first.core.timing.search.passed) return tapStarved(first) ? (bufferedPnpCore(first) ?? first) : first;
+  return steppedDiodes(first) ?? bufferedPnpCore(first) ?? first;
+}
+
+/** The core passes, but the collector cannot feed the chain's input through a tap resistor (tap.ts). */
+function tapStarved(chosen: CoreChoice): boolean {
+  return chosen.core.tap.problems.some((p) => p.rule === "tap-drive-insufficient");
+}
+
+/**
+ * The core with an emitter follower between the tapped collector and the PNP driver's tap resistor
+ * (chains/driver-pnp-buffer.ts, docs/method.md "The buffered tap"): every core attempt again with the
+ * buffered chain, but not the cross-returned bleed (its limits were measured with the tap on the
+ * collector). Only where no unbuffered core passes or the collector cannot feed the driver through a tap
+ * resistor, so every variant that passed before keeps its design. Null when the chain is not the PNP
+ * driver or no core passes.
+ */
+export function bufferedPnpCore(chosen: CoreChoice): CoreChoice | null {
+  if (chosen.spec.chain !== "bjt-driver-pnp") return null;
+  const why =
+    [...chosen.core.timing.problems, ...chosen.core.tap.problems].find((p) => p.severity === "error")?.rule ??
+    "duty-range-worst-case";
+  const plan = planDriverPnpBuffered(chosen.ctx, why);
+  if (plan.problems.some((p) => p.severity === "error")) return null;
+  const core = tapAndTiming(chosen.ctx, plan, false);
+  return core.timing.search.passed ? { ...chosen, plan, core } : null;
 }
 
 /**
@@ -1003,16 +1032,12 @@ function sizeChosen(chosen: CoreChoice, ramp?: RampOffer): SizedVariant {
         follower ?? cross,
         caps,
       ),
-      ...(fin.decision === undefined
-        ? []
-        : [
-            {
-              refs: fin.decision.roles.map(toRef),
-              topic: fin.decision.topic,
-              choice: fin.decision.choice,
-              reason: fin.decision.reason,
-            },
-          ]),
+      ...[...(fin.decision === undefined ? [] : [fin.decision]), ...(fin.extraDecisions ?? [])].map((d) => ({
+        refs: d.roles.map(toRef),
+        topic: d.topic,
+        choice: d.choice,
+        reason: d.reason,
+      })),
       ...(timer === undefined
         ? []
         : [

@@ -89,6 +89,8 @@ export const STAGE_ROLES = {
     "Q_D1",
     "Q_D2",
     "Q_D3",
+    "Q_BUF",
+    "RE_BUF",
     "Q_DRV",
     "Q_CL",
     "RE_DRV",

@@ -187,3 +187,34 @@ export const RAILED_LOGIC: ChainLayout = {
     ["DZ.cathode", [45, "DZ.cathode"], [45, "RC_R.a"], "RC_R.a"],
   ],
 };
+
+/** A route moved right by dx: its numeric x coordinates shift, its pin references follow their parts. */
+function shiftRoute(route: Route, dx: number): Route {
+  return route.map((pt) =>
+    typeof pt === "string" ? pt : ([typeof pt[0] === "number" ? pt[0] + dx : pt[0], pt[1]] as const),
+  );
+}
+
+/**
+ * The PNP driver with its tap buffered (chains/driver-pnp-buffer.ts): the emitter follower Q_BUF first,
+ * its base on the tap wire, its collector up to the rail, R_E down from its emitter to ground, and R_T
+ * leaving the emitter column into the driver; the rest is the plain table moved right.
+ */
+const BUFFER_DX = 120;
+const PNP = CHAIN["bjt-driver-pnp"];
+export const BUFFERED_PNP: ChainLayout = {
+  width: PNP.width + BUFFER_DX,
+  outX: PNP.outX + BUFFER_DX,
+  outPin: PNP.outPin,
+  slots: {
+    ...Object.fromEntries(Object.entries(PNP.slots).map(([role, slot]) => [role, { ...slot, x: slot.x + BUFFER_DX }])),
+    Q_BUF: { x: 60, y: 230 },
+    RE_BUF: { x: 70, y: 350, label: "right" },
+  },
+  routes: [
+    ["Q_BUF.b", [15, "Q_BUF.b"], [15, TAP_COORD], ["RC_R.b", TAP_COORD]],
+    ["Q_BUF.e", "RE_BUF.a"],
+    ["RT.a", [70, "RT.a"]],
+    ...PNP.routes.slice(1).map((r) => shiftRoute(r, BUFFER_DX)),
+  ],
+};

@@ -7,7 +7,7 @@
 import type { CircuitModel, Part } from "../model/circuit.ts";
 import { formatValue } from "../model/format.ts";
 import type { StageKind } from "../model/kinds.ts";
-import { CHAIN, GATE_BUFFER, RAILED_LOGIC } from "./schematic-chains.ts";
+import { BUFFERED_PNP, CHAIN, GATE_BUFFER, RAILED_LOGIC } from "./schematic-chains.ts";
 import * as L from "./schematic-layout.ts";
 import { SYMBOLS, type Box, type SymbolDef } from "./symbols/index.ts";
 import { probe } from "./symbols/probe.ts";
@@ -152,9 +152,11 @@ function stages(circuit: CircuitModel, highSide: boolean): Record<StageKind, Sta
   const chain =
     chainRoles.has("Q_HI") && !chainRoles.has("Q_DRV")
       ? GATE_BUFFER
-      : kind === "mosfet-logic" && chainRoles.has("RZ")
-        ? RAILED_LOGIC
-        : CHAIN[kind];
+      : chainRoles.has("Q_BUF")
+        ? BUFFERED_PNP
+        : kind === "mosfet-logic" && chainRoles.has("RZ")
+          ? RAILED_LOGIC
+          : CHAIN[kind];
   const plain = L.coreLayout(
     tapSide,
     circuit.parts.some((p) => p.role === "QF_A"),

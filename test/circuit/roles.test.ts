@@ -16,7 +16,7 @@ import {
   type PartRole,
 } from "../../src/model/part-roles.ts";
 import { assembleCircuit } from "../../src/circuit/assemble.ts";
-import { CHAIN } from "../../src/render/schematic-chains.ts";
+import { BUFFERED_PNP, CHAIN } from "../../src/render/schematic-chains.ts";
 import { SUPPLY, coreLayout, loadLayout, protectionLayout, rampLayout } from "../../src/render/schematic-layout.ts";
 import { EngineMisuseError } from "../../src/model/errors.ts";
 import type { Part } from "../../src/model/circuit.ts";
@@ -89,6 +89,7 @@ describe("part roles: one closed vocabulary", () => {
       loadLayout(true, "Q_POWER.c"),
       protectionLayout(false),
       ...CHAIN_KINDS.map((k) => CHAIN[k]),
+      BUFFERED_PNP,
     ]) {
       for (const r of Object.keys(l.slots)) placed.add(r);
     }

@@ -531,6 +531,11 @@ export const SOURCES = {
         value: "R_out ≈ r_e + R_source/(β + 1)",
         sureness: "from-memory",
       },
+      {
+        item: "emitter-follower input resistance and base current",
+        value: "R_in ≈ (β + 1)·(r_e + R_E); I_B = I_E/(β + 1)",
+        sureness: "from-memory",
+      },
     ],
   },
   "gummel-poon-1970": {

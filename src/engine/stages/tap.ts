@@ -27,7 +27,7 @@ import type { FollowerValues } from "./core-model.ts";
 import { formatValue } from "../../model/format.ts";
 import type { ChainPlan, TapInfo } from "./chains/types.ts";
 import { plateau_V } from "./chains/mosfet-common.ts";
-import { designBufferedTap } from "./tap-buffered.ts";
+import { designBufferedBaseTap, designBufferedTap } from "./tap-buffered.ts";
 
 export const TAP_SHARE_ALPHA = 0.5;
 export const RC_MAX_OHM = 10_000;
@@ -182,6 +182,9 @@ export function designTap(
   // The buffered gate (tap-buffered.ts): the follower pair's bases on the collector.
   if (need.kind === "buffered-gate")
     return designBufferedTap(ctx, need, rcMin(ctx), rcMax, (r) => capRc(ctx, r, capInjection), gateEdgeShare);
+  // The buffered base (tap-buffered.ts): an emitter follower between the collector and the tap resistor.
+  if (need.kind === "buffered-base")
+    return designBufferedBaseTap(ctx, need, inputNet, rcMin(ctx), rcMax, (r) => capRc(ctx, r, capInjection));
   if (need.kind === "base-current") {
     const span = ctx.vMin_V - need.vClamp_V;
     const rCi = (TAP_SHARE_ALPHA * span) / need.i_A;

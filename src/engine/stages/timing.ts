@@ -705,15 +705,7 @@ export function designTiming(
       tap.vThTap_V,
       "V",
       "chain",
-      plan.need.kind === "gate-voltage"
-        ? "V_th,tap = V_GS(th)·(R_G + R_GS)/R_GS"
-        : plan.need.kind === "buffered-gate"
-          ? "V_th,tap = V_BE(Q_HI) + V_GS(th)·(R_G + R_GS)/R_GS"
-          : tap.preLinear_ohm !== undefined
-            ? "V_th,tap = V_BE·(R_T + R_BE)/R_BE"
-            : plan.need.iEdge_A !== undefined
-              ? "V_th,tap = n·V_BE(on) + R_T·I_B1 at the load's edge current"
-              : "V_th,tap = n·V_BE(on)",
+      thresholdFormula(plan, tap),
       "common-practice",
     ),
     figure(
@@ -773,4 +765,16 @@ export function designTiming(
     ...rechargeNom(e1, v.inverting),
     corners,
   };
+}
+
+/** The chain threshold figure's formula, by the chain's input. */
+function thresholdFormula(plan: ChainPlan, tap: TapDesign): string {
+  const need = plan.need;
+  if (need.kind === "gate-voltage") return "V_th,tap = V_GS(th)·(R_G + R_GS)/R_GS";
+  if (need.kind === "buffered-gate") return "V_th,tap = V_BE(Q_HI) + V_GS(th)·(R_G + R_GS)/R_GS";
+  if (need.kind === "buffered-base") return "V_th,tap = V_BE(Q_BUF) + V_BE(on) + R_T·I_B1 at the load's edge current";
+  if (tap.preLinear_ohm !== undefined) return "V_th,tap = V_BE·(R_T + R_BE)/R_BE";
+  return need.iEdge_A !== undefined
+    ? "V_th,tap = n·V_BE(on) + R_T·I_B1 at the load's edge current"
+    : "V_th,tap = n·V_BE(on)";
 }

@@ -8,7 +8,7 @@
 import { expect, it } from "vitest";
 import type { SizedVariant } from "../../../src/model/sized.ts";
 import { renderVariantViews } from "../../../src/render/variant.ts";
-import { startEngine } from "../../../src/verify/engines/index.ts";
+import { type EngineName, startEngine } from "../../../src/verify/engines/index.ts";
 import { verifyVariant } from "../../../src/verify/verify.ts";
 import { coldStartFailed } from "../../../src/verify/cold-start.ts";
 import { cornerDecks } from "../../../src/verify/corner-deck.ts";
@@ -17,12 +17,15 @@ import { judgeCorners } from "../../../src/verify/corner-compare.ts";
 import { targetFromSized } from "../../../src/verify/target.ts";
 import { library } from "../fixtures.ts";
 
-/** Declares the two agreement tests for `sized` inside the caller's describe block. */
-export function itAgreesWithSpice(sized: SizedVariant): void {
+/**
+ * Declares the two agreement tests for `sized` inside the caller's describe block, in `engineName`
+ * (the embedded engine the build uses by default, or native ngspice).
+ */
+export function itAgreesWithSpice(sized: SizedVariant, engineName: EngineName = "eecircuit-engine"): void {
   const views = renderVariantViews(sized, library(), { schematic: false });
 
   it("nominal frequency and duty at the control's ends and middle agree within the verifier's allowances", async () => {
-    const engine = await startEngine("eecircuit-engine");
+    const engine = await startEngine(engineName);
     try {
       const v = await verifyVariant(sized, views.netlist, engine, { cacheDir: false });
       // The predictions only: whether the core starts from a cold supply is not one, it decides the verdict
@@ -40,7 +43,7 @@ export function itAgreesWithSpice(sized: SizedVariant): void {
   }, 300_000);
 
   it("every published corner holds, and the engine's corner predictions are within 0.05 duty and 10 %", async () => {
-    const engine = await startEngine("eecircuit-engine");
+    const engine = await startEngine(engineName);
     try {
       const target = targetFromSized(sized)!;
       const decks = cornerDecks(sized, library());

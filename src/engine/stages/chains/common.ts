@@ -10,6 +10,7 @@ import { figure } from "../../shared/figures.ts";
 import { cite } from "../../shared/sources.ts";
 import { vbeOn } from "../../shared/gain.ts";
 import type { Ctx } from "../context.ts";
+import type { TapInfo } from "./types.ts";
 
 /** V_BE at the coldest ambient (highest: −2 mV/K, common practice). */
 export function vbeCold(dev: BjtClass, ctx: Ctx): number {
@@ -153,4 +154,24 @@ export function lossFigures(ctx: Ctx, o: LossFigureInput): Figure[] {
       resistive ? "rashid-4e-ex4-2" : "mohan-3e-eq2-6",
     ),
   ];
+}
+
+/**
+ * The tap's current into the chain's first base at supply v_cc with the base clamped at v_clamp: from
+ * the collector, (V_cc − V_clamp)/(R_C + R_T); through the tap buffer (tap-buffered.ts), its emitter
+ * a source V_cc − V_BE behind R_C/(β + 1) (the emitter follower [src:sedra-smith]), (V_cc − V_BE −
+ * V_clamp)/(R_C/(β + 1) + R_T), R_E's share neglected (derived). Never negative.
+ */
+export function tapCurrent_A(tap: TapInfo, vcc_V: number, vClamp_V: number): number {
+  const b = tap.buffer;
+  if (b === undefined) return Math.max(0, (vcc_V - vClamp_V) / (tap.rC_ohm + tap.rTap_ohm));
+  return Math.max(0, (vcc_V - b.vBe_V - vClamp_V) / (tap.rC_ohm / (b.betaMin + 1) + tap.rTap_ohm));
+}
+
+/**
+ * The resistance the first base's stored charge leaves through once the tapped collector falls: R_T
+ * into the saturated collector, or R_T + R_E behind the tap buffer (its follower is then off).
+ */
+export function tapPullOut_ohm(tap: TapInfo): number {
+  return tap.rTap_ohm + (tap.buffer?.rE_ohm ?? 0);
 }

@@ -22,6 +22,7 @@ import {
   switchChecks,
   switchOffVoltage_V,
   switchSteadyChecks,
+  tapCurrent_A,
 } from "./common.ts";
 import { bjtDriveLimit_A } from "../../shared/drive-limit.ts";
 import { WEAK_TURNOFF_FACTOR } from "./bjt-single.ts";
@@ -135,7 +136,7 @@ export function planDriverPnpSink(ctx: Ctx, plain: PlainDrive): ChainPlan {
     const rCap = largestResistor_W(pol) / (iSet.max_A * iSet.max_A * (1 + ctx.rTol));
     const rBP = Math.min(rMax, rCap) > 1 ? roundDown(Math.min(rMax, rCap), "E24") : 1;
     // Nominal: the tap's current at V_nom less the base current is the clamp's.
-    const iTapNom = Math.max(0, (ctx.vNom_V - vClamp) / (tap.rC_ohm + tap.rTap_ohm));
+    const iTapNom = tapCurrent_A(tap, ctx.vNom_V, vClamp);
     const i0 = sinkCurrent_A(sp, rE, CLAMP_BIAS_A, NOMINAL_TEMP_C);
     const iClampNom = Math.max(CLAMP_BIAS_A, iTapNom - i0 / hfeMin(qd, i0, NOMINAL_TEMP_C));
     const iSetNom_A = sinkCurrent_A(sp, rE, iClampNom, NOMINAL_TEMP_C);
@@ -212,6 +213,7 @@ export function planDriverPnpSink(ctx: Ctx, plain: PlainDrive): ChainPlan {
         "PNP turn-off pull-up",
       );
       const clampI = Math.max(tap.iMax_A, CLAMP_BIAS_A);
+      // Its gain read (and stated) within its rating; the current check below refuses a clamp current above it.
       const qCl = transistor(
         "chain",
         "Q_CL",
@@ -219,6 +221,7 @@ export function planDriverPnpSink(ctx: Ctx, plain: PlainDrive): ChainPlan {
         hfeMin(qc, Math.min(clampI, qc.ic_max_A), ctx.taMin_C),
         { c: "drb", b: "dre", e: "0" },
         { voltage_V: vClamp, current_A: clampI },
+        Math.min(clampI, qc.ic_max_A),
       );
       const qDrv = transistor(
         "chain",

@@ -14,7 +14,16 @@ import { planDriverPnpSink } from "./driver-pnp-sink.ts";
 import { pnpGainFigures, pnpLossFigures, pnpLosses, pnpPowerPart, pnpSwitchingLoss_W } from "./pnp-power.ts";
 import { SINK_ESTIMATE_SHARE, plainPnpDriveEstimate } from "./pnp-sink.ts";
 import { type Ctx, FORCED_BETA, OVERDRIVE_K } from "../context.ts";
-import { needAtMinSupply, driveMargin, loadPeak_A, switchChecks, switchOffVoltage_V, vbeCold } from "./common.ts";
+import {
+  needAtMinSupply,
+  driveMargin,
+  loadPeak_A,
+  switchChecks,
+  switchOffVoltage_V,
+  tapCurrent_A,
+  tapPullOut_ohm,
+  vbeCold,
+} from "./common.ts";
 import { bjtDriveLimit_A } from "../../shared/drive-limit.ts";
 import { BLEED_SHARE, WEAK_TURNOFF_FACTOR } from "./bjt-single.ts";
 import type { ChainPlan } from "./types.ts";
@@ -133,10 +142,11 @@ export function planDriverPnp(ctx: Ctx): ChainPlan {
       // Clamped winding: on, the current rises fully (t_r) before the voltage edge; off, the voltage
       // rises as soon as the stored charge is gone, the current falls after it at full voltage.
       // Storage by charge control (shared/storage.ts) at the nominal drive: the driver pulled out
-      // through R_T by the low collector (≈ V_BE/R_T, the collector's V_CE(sat) neglected), the PNP
+      // through R_T by the low collector (≈ V_BE/R_T, the collector's V_CE(sat) neglected; through R_T + R_E
+      // behind the tap buffer), the PNP
       // through its pull-up (V_EB/R_PU).
-      const iBd1 = Math.max(0, (ctx.vNom_V - vClamp) / (tap.rC_ohm + tap.rTap_ohm));
-      const tsD = storageTime_s(qd.t_storage_s, iBd1, vbeOn(qd, NOMINAL_TEMP_C) / tap.rTap_ohm, iRbpN, betaDnom);
+      const iBd1 = tapCurrent_A(tap, ctx.vNom_V, vClamp);
+      const tsD = storageTime_s(qd.t_storage_s, iBd1, vbeOn(qd, NOMINAL_TEMP_C) / tapPullOut_ohm(tap), iRbpN, betaDnom);
       const tsP = storageTime_s(qp.t_storage_s, Math.max(0, iRbpN - iPUn), iPUn, ctx.iNom_A, betaPnom);
       return {
         on_s: qp.t_rise_s,

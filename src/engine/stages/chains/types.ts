@@ -58,6 +58,13 @@ export interface TapInfo {
    * V_CE(sat) of the tapped collector, or the follower's clamped emitter. Absent: not known (0 taken).
    */
   vLow_V?: number;
+  /**
+   * The emitter follower Q_BUF between the tapped collector and the tap resistor (the buffered-base
+   * tap, tap-buffered.ts): its emitter resistor R_E, Ω; its minimum gain (cold, at its largest
+   * current) and nominal V_BE; its largest emitter current (V_cc,max) and the base current it then
+   * draws from the collector, A. Absent: the tap resistor hangs on the collector.
+   */
+  buffer?: { rE_ohm: number; betaMin: number; vBe_V: number; iMax_A: number; iBase_A: number };
   /** Gate voltage range reached (mosfet-logic), V. */
   vGate_V?: [number, number];
   /**
@@ -120,7 +127,14 @@ export interface ChainPlan extends StageResult {
   finish(
     tap: TapInfo,
     op: OperatingPoint,
-  ): StageResult & { losses: DeviceLoss[]; vSwNom_V?: number; drive?: DriveLimit; decision?: ChainDecision };
+  ): StageResult & {
+    losses: DeviceLoss[];
+    vSwNom_V?: number;
+    drive?: DriveLimit;
+    decision?: ChainDecision;
+    /** Decisions of an arrangement around the chain (the tap buffer, driver-pnp-buffer.ts), after `decision`. */
+    extraDecisions?: ChainDecision[];
+  };
 }
 
 /** A choice of arrangement the chain made for this variant, for the page's design decisions. */
