@@ -26,7 +26,7 @@ import { startEngine } from "../../../src/verify/engines/index.ts";
 import { verifyVariant } from "../../../src/verify/verify.ts";
 import { geometryProblems } from "../../render/schematic-geometry.ts";
 import { itAgreesWithSpice } from "./sim-agreement.ts";
-import { library, makeSpec } from "../fixtures.ts";
+import { POWER_BANK_LAMP, library, makeSpec } from "../fixtures.ts";
 
 describe("the emitter follower's relations (Sedra & Smith, the emitter follower; from memory)", () => {
   it("the base sees the emitter's load times β + 1, lifted by V_BE; its current is i_E/(β + 1)", () => {
@@ -57,17 +57,7 @@ describe("the emitter follower's relations (Sedra & Smith, the emitter follower;
 });
 
 // A need of our own (demo values): a 5 V ± 5 % lamp, 0.5 A, 1 kHz, 10–90 %, 5–35 °C.
-const lamp = makeSpec({
-  supply_V: 5,
-  load_A: 0.5,
-  chain: "bjt-driver-pnp",
-  load_kind: "lamp",
-  pwm_Hz: 1000,
-  duty: [0.1, 0.9],
-  ambient_C: [5, 35],
-  supply_tolerance: 0.05,
-  stress: true,
-});
+const lamp = makeSpec({ ...POWER_BANK_LAMP, load_A: 0.5, stress: true });
 const ctx = makeContext(lamp);
 const q = lamp.devices.timing_npn as BjtClass;
 
