@@ -5,7 +5,7 @@
  * demo values), against native ngspice: nominal runs, every published corner and the cold start.
  */
 import { describe, expect, it } from "vitest";
-import { sizeVariant } from "../../../src/engine/size.ts";
+import { BUFFERED_PNP_MAX_HZ, sizeVariant } from "../../../src/engine/size.ts";
 import { makeContext } from "../../../src/engine/stages/context.ts";
 import { planDriverPnp } from "../../../src/engine/stages/chains/driver-pnp.ts";
 import { planDriverPnpBuffered } from "../../../src/engine/stages/chains/driver-pnp-buffer.ts";
@@ -140,6 +140,29 @@ describe("a variant the buffer makes feasible: the 5 V, 0.5 A lamp", () => {
     expect(geometryProblems(views.schematicSvg)).toEqual([]);
     // The chain's own nets are wired, not flagged (the follower core's start network flags ca, cb and vbus).
     expect(views.schematicSvg).not.toMatch(/data-flag="[^"]*" data-net="(bfe|drb)"/);
+  });
+});
+
+describe("where the buffer is offered (BUFFERED_PNP_MAX_HZ)", () => {
+  it("not above 1 kHz: the lamp at 1.2 kHz and a 12 V, 0.75 A fan at 20 kHz keep their unbuffered taps", () => {
+    // Ours, measured: at 20 kHz this fan, buffered, left its duty range with the second model-card set.
+    expect(BUFFERED_PNP_MAX_HZ).toBe(1000);
+    const hasBuffer = (v: ReturnType<typeof sizeVariant>) => v.circuit!.parts.some((p) => p.role === "Q_BUF");
+    expect(hasBuffer(sized)).toBe(true);
+    expect(hasBuffer(sizeVariant(makeSpec({ ...POWER_BANK_LAMP, load_A: 0.5, stress: true, pwm_Hz: 1200 })))).toBe(
+      false,
+    );
+    const fan = makeSpec({
+      supply_V: 12,
+      load_A: 0.75,
+      chain: "bjt-driver-pnp",
+      load_kind: "motor",
+      pwm_Hz: 20000,
+      duty: [0.3, 0.85],
+      ambient_C: [-5, 45],
+      stress: true,
+    });
+    expect(hasBuffer(sizeVariant(fan))).toBe(false);
   });
 });
 
