@@ -29,6 +29,7 @@ import {
   measureCold,
 } from "../src/verify/cold-start.ts";
 import { supplyVoltage } from "../src/verify/deck.ts";
+import { argValue } from "./args.ts";
 
 /** One cold task's readings. */
 interface ColdRecord {
@@ -40,11 +41,6 @@ interface ColdRecord {
   cpu_ms: number;
   points: number;
   calls: number;
-}
-
-function arg(name: string): string | undefined {
-  const k = process.argv.indexOf(name);
-  return k >= 0 ? process.argv[k + 1] : undefined;
 }
 
 /** Counts the engine's calls and time points for the task being run. */
@@ -63,12 +59,12 @@ function counted(engine: SpiceEngine, tally: { points: number; calls: number }):
 }
 
 const own = process.argv.includes("--own");
-const only = arg("--only");
-const out = arg("--out");
-const against = arg("--against");
+const only = argValue("--only");
+const out = argValue("--out");
+const against = argValue("--against");
 const { feasibleDemoRenders } = await import("./demo-renders.ts");
-const options = arg("--options");
-const { renders } = await feasibleDemoRenders(arg("--root"));
+const options = argValue("--options");
+const { renders } = await feasibleDemoRenders(argValue("--root"));
 const candidates: { id: string; netlist: string; target: NonNullable<ReturnType<typeof targetOf>> }[] = [];
 function targetOf(r: (typeof renders)[number]) {
   const plan = planOf(r.sized);

@@ -39,6 +39,7 @@ import {
   RETRY3_OPTIONS,
   type RunPlan,
 } from "../src/verify/runs.ts";
+import { argValue } from "./args.ts";
 
 /** The long reference plan (`--reference`), defined once in the verifier. */
 const REFERENCE_PLAN: RunPlan = REFERENCE_RUN_PLAN;
@@ -58,11 +59,6 @@ interface RunRecord {
   f_Hz: number;
   /** What the engine was asked: the deck without its comment lines, and the vectors saved (sha256). */
   deck: string;
-}
-
-function arg(name: string): string | undefined {
-  const k = process.argv.indexOf(name);
-  return k >= 0 ? process.argv[k + 1] : undefined;
 }
 
 /** The class of an engine call, from the deck and the caller (the async stack names it). */
@@ -139,13 +135,13 @@ function deckHash(deck: string, vectors: readonly string[]): string {
   return createHash("sha256").update(body).update("\0").update(vectors.join(" ")).digest("hex");
 }
 
-const dumpDir = arg("--dump");
+const dumpDir = argValue("--dump");
 const reference = process.argv.includes("--reference");
 /** `--plan JSON`: fields laid over the default run plan (or the reference plan), to try a change. */
-const planOverride = JSON.parse(arg("--plan") ?? "{}") as Partial<RunPlan>;
+const planOverride = JSON.parse(argValue("--plan") ?? "{}") as Partial<RunPlan>;
 const runPlan: RunPlan = { ...(reference ? REFERENCE_PLAN : DEFAULT_RUN_PLAN), ...planOverride };
-const only = arg("--only");
-const shard = (arg("--shard") ?? "1/1").split("/").map(Number) as [number, number];
+const only = argValue("--only");
+const shard = (argValue("--shard") ?? "1/1").split("/").map(Number) as [number, number];
 const { feasibleDemoRenders } = await import("./demo-renders.ts");
 const { devices, renders } = await feasibleDemoRenders();
 const jobs = renders
@@ -294,7 +290,7 @@ if (!coldOnly) {
       `${cpuOf(plainEnds).toFixed(1)} s)`,
   );
 }
-const out = arg("--out");
+const out = argValue("--out");
 if (out) writeFileSync(out, JSON.stringify(measured));
-const runsOut = arg("--runs");
+const runsOut = argValue("--runs");
 if (runsOut) writeFileSync(runsOut, records.map((r) => JSON.stringify(r)).join("\n") + "\n");

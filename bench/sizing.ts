@@ -12,6 +12,7 @@ import { spawnSync } from "node:child_process";
 import { loadavg } from "node:os";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
+import { argValue } from "./args.ts";
 
 const ROOT = fileURLToPath(new URL("..", import.meta.url));
 
@@ -88,8 +89,7 @@ async function measure(root: string, passes: number): Promise<void> {
 }
 
 function option(name: string, fallback: string): string {
-  const i = process.argv.indexOf(name);
-  return i < 0 ? fallback : (process.argv[i + 1] ?? fallback);
+  return argValue(name) ?? fallback;
 }
 
 const only = option("--measure", "");
