@@ -14,7 +14,8 @@
  * over the run plan (e.g. `--plan '{"preparatoryPeriods":4}'`), to measure a change to it before
  * making it (docs/verification.md, "Fourth pass"). The cold-start runs are made as the build makes
  * them, one pair per distinct timing core and chain (src/verify/cold-share.ts); `--cold-own` runs
- * every variant's own pair instead (the plan before the sharing), `--cold-only` the cold runs alone.
+ * every variant's own pair instead (the plan before the sharing), `--cold-only` the cold runs alone, `--no-cold`
+ * none of them (to weigh a change to the run plan, which the cold runs do not take).
  * Last, three lines that weigh ways to run less (docs/performance.md, issue #13): the engine calls whose deck
  * and vectors repeat an earlier call's (work a per-run cache would save), the build's two workers replayed
  * from these costs in the pool's order against longest-first and an even split (their idle time), and the
@@ -154,6 +155,7 @@ const engine = profiled(await startEngine("eecircuit-engine"), records, () => ({
 const measured: Record<string, Measured> = {};
 const coldOnly = process.argv.includes("--cold-only");
 const coldOwn = process.argv.includes("--cold-own");
+const noCold = process.argv.includes("--no-cold");
 const la0 = loadavg()[0]!;
 const c0 = process.cpuUsage();
 const w0 = performance.now();
@@ -176,9 +178,11 @@ for (const r of jobs) {
   if (!m.ok) console.log(`FAILED ${current}: ${m.message}`);
 }
 // The cold starts: one task per distinct timing core and chain, as the build runs them (or each variant's own).
-const tasks: ColdTask[] = coldOwn
-  ? candidates.filter((c) => coldStartApplies(c.target)).map((c) => ownColdTask(c.id, c.netlist, c.target))
-  : [...new Map([...shareColdStarts(candidates).values()].map((t) => [t.id, t])).values()];
+const tasks: ColdTask[] = noCold
+  ? []
+  : coldOwn
+    ? candidates.filter((c) => coldStartApplies(c.target)).map((c) => ownColdTask(c.id, c.netlist, c.target))
+    : [...new Map([...shareColdStarts(candidates).values()].map((t) => [t.id, t])).values()];
 for (const t of tasks) {
   current = t.id;
   currentF_Hz = 1 / t.period_s;
