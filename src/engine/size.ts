@@ -18,6 +18,7 @@ import { vceSat, vceSatSlope_ohm } from "./shared/gain.ts";
 import { vceSatNominal_V, vceSatNominalSlope_ohm } from "./stages/chains/sat-nominal.ts";
 import { switchOffVoltage_V } from "./stages/chains/common.ts";
 import { diodeCj_F, diodeClassVf_V } from "./shared/diode.ts";
+import { roundDown } from "./shared/e-series.ts";
 import type { ChainPlan, DeviceLoss, OperatingPoint, TapInfo } from "./stages/chains/types.ts";
 import { conductionLossMosfet_W, switchingLoss_W } from "./shared/losses.ts";
 import { assembleCircuit, refsByRole } from "../circuit/assemble.ts";
@@ -87,6 +88,32 @@ import {
 } from "./stages/core-rail.ts";
 
 export function sizeVariant(spec: VariantSpec): SizedVariant {
+  const out = sizeWithoutFineSteps(spec);
+  // The fine R_C steps (plainTapAndTiming) last of all, only where a timing-core rule is among the refusal's
+  // reasons, kept only when feasible: every variant that passed before keeps its design byte for byte (the
+  // steps would otherwise replace a follower core, a stepped diode class or a rail the variant passed on),
+  // and a refusal keeps its page.
+  if (out.feasible || !out.verdict.blocking.some((b) => CORE_RULES.has(b.rule))) return out;
+  const alt = withFineSteps(() => sizePotCore(spec));
+  return alt.feasible ? alt : out;
+}
+
+/** Whether plainTapAndTiming tries the fine R_C steps (withFineSteps; off by default). */
+let fineSteps = false;
+
+/** Runs `fn` with the fine R_C steps offered (sizeVariant's last attempt). */
+function withFineSteps<T>(fn: () => T): T {
+  const prev = fineSteps;
+  fineSteps = true;
+  try {
+    return fn();
+  } finally {
+    fineSteps = prev;
+  }
+}
+
+/** sizeVariant as it was before the fine R_C steps: the potentiometer cores, then the ramp stage. */
+function sizeWithoutFineSteps(spec: VariantSpec): SizedVariant {
   const out = sizePotCore(spec);
   // The ramp-and-comparator duty stage (stages/ramp-offer.ts; docs/method.md, "A duty stage that sets a
   // voltage"): tried only where every potentiometer core refuses the variant on its duty range or its start
@@ -373,14 +400,57 @@ function plainTapAndTiming(
     const free = designTiming(ctx, plan, tapFree, opts);
     if (free.search.passed) return { tap: tapFree, timing: free };
   }
-  for (const step of cross ? CROSS_RC_STEPS : RC_STEPS) {
-    const t2 = designTap(ctx, plan, tap.rC_ohm / step);
-    if (t2.rC_ohm >= tap.rC_ohm) break; // the current floor holds R_C where it is
+  const tried = new Set<number>([tap.rC_ohm]);
+  const attempt = (
+    cap_ohm: number,
+  ): { tap: TapDesign; timing: TimingResult; rcLowered: RcLowered } | "floor" | null => {
+    const t2 = designTap(ctx, plan, cap_ohm);
+    if (t2.rC_ohm >= tap.rC_ohm) return "floor"; // the current floor holds R_C where it is
+    if (tried.has(t2.rC_ohm)) return null;
+    tried.add(t2.rC_ohm);
     const timing2 = designTiming(ctx, plan, t2, opts);
-    if (timing2.search.passed)
-      return { tap: t2, timing: timing2, rcLowered: { from_ohm: tap.rC_ohm, to_ohm: t2.rC_ohm } };
+    return timing2.search.passed
+      ? { tap: t2, timing: timing2, rcLowered: { from_ohm: tap.rC_ohm, to_ohm: t2.rC_ohm } }
+      : null;
+  };
+  for (const step of cross ? CROSS_RC_STEPS : RC_STEPS) {
+    const got = attempt(tap.rC_ohm / step);
+    if (got === "floor") return { tap, timing };
+    if (got !== null) return got;
+  }
+  // The coarse steps jump over a window: recovery and injection fall with R_C, the overdrive with it
+  // too, and where the window is narrower than a step (a 24 V, 2 kHz driven-MOSFET valve: 7.5 kΩ over
+  // the recovery limit, 4.7 kΩ under the overdrive) no step lands in it. Every E24 value between the
+  // tap's choice and the last step is tried, largest first (the most overdrive that passes).
+  if (cross || !fineSteps || !fineStepsOffered(ctx)) return { tap, timing };
+  for (const r of e24Below(tap.rC_ohm, tap.rC_ohm / RC_STEPS[RC_STEPS.length - 1]!)) {
+    const got = attempt(r);
+    if (got === "floor") break;
+    if (got !== null) return got;
   }
   return { tap, timing };
+}
+
+/**
+ * Where the fine R_C steps are offered: not to the driven MOSFET on a winding whose gate-drive pair is of the
+ * small-signal class (TO-92). Measured 2026-12-05 (native ngspice): the 24 V, 0.25 A valve the steps made
+ * feasible agreed with the published cards, but with the second set its fast corner's switch turned on in
+ * 1.8–2.0 µs against 0.9–1.0 µs (the gate's rise 12.5 µs against 3.2 µs, its driver fed through R_T = 100 kΩ),
+ * and the coil's turn-on, against the freewheel diode, dissipated 48 mW against the page's 42 mW bound. The
+ * chain's turn-on edge there is not proven, not the core; the same valves with the TO-18 pair (0.5–3 A) agree
+ * with both sets.
+ */
+function fineStepsOffered(ctx: Ctx): boolean {
+  const kind = ctx.spec.load_kind;
+  if (ctx.spec.chain !== "mosfet-driver" || (kind !== "solenoid" && kind !== "motor")) return true;
+  return (ctx.spec.devices.driver_npn as BjtClass).package !== "TO-92";
+}
+
+/** The E24 values strictly below `top_ohm` and at or above `bottom_ohm`, descending. */
+function e24Below(top_ohm: number, bottom_ohm: number): number[] {
+  const out: number[] = [];
+  for (let r = roundDown(top_ohm * 0.999, "E24"); r >= bottom_ohm * 0.999; r = roundDown(r * 0.999, "E24")) out.push(r);
+  return out;
 }
 
 /** The timing core as the chain's nominal edges see it (OperatingPoint.core). */

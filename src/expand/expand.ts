@@ -10,7 +10,7 @@ import type { ChainKind, LoadKind } from "../model/kinds.ts";
 import type { DeviceChoice, ReturnGuardClasses, VariantSpec } from "../model/variant.ts";
 import { variantId } from "./variant-id.ts";
 import { supplyWindow } from "../engine/shared/supply.ts";
-import { stressStepApplies } from "../engine/devices/choose.ts";
+import { stressFor as stressStepsFor } from "../engine/devices/choose.ts";
 import { railByStress, railOffered } from "../engine/stages/core-rail.ts";
 import { seriesReverse } from "../engine/stages/reverse.ts";
 
@@ -44,8 +44,8 @@ export interface ExpandDeps {
     chain: ChainKind,
     loadKind?: LoadKind,
   ) => Record<DeviceRole, string>;
-  /** Optional: classes the engine may step a role up to while sizing (VariantSpec.stressClasses). */
-  stressClasses?: (rec: DesignRecord) => Partial<Record<DeviceRole, DeviceClass>>;
+  /** Optional: per role, the ladder of classes the engine may step it up to (VariantSpec.stressClasses). */
+  stressClasses?: (rec: DesignRecord) => Partial<Record<DeviceRole, readonly DeviceClass[]>>;
   /** Optional: zener classes for the timing core's regulated rail (VariantSpec.railZeners). */
   railZeners?: (rec: DesignRecord) => ZenerClass[];
   /** Optional: classes for the return-line reverse guard (VariantSpec.returnGuardClasses). */
@@ -80,11 +80,7 @@ export function expandDesign(rec: DesignRecord, deps: ExpandDeps): VariantSpec[]
   // A variant carries the stress classes that are a step from the classes chosen for it
   // (choose.ts stressStepApplies), so a variant that needs none keeps its spec as before.
   const stressFor = (devices: Record<DeviceRole, DeviceClass>): Pick<VariantSpec, "stressClasses"> => {
-    const own = Object.fromEntries(
-      Object.entries(stress).filter(([role, c]) =>
-        stressStepApplies(role as DeviceRole, devices[role as DeviceRole], c),
-      ),
-    );
+    const own = stressStepsFor(stress, devices);
     return Object.keys(own).length > 0 ? { stressClasses: own } : {};
   };
   const railZeners = deps.railZeners?.(rec) ?? [];

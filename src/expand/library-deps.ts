@@ -11,7 +11,7 @@ import {
   chooseDevicesWithReasons,
   railZenerClasses,
   returnGuardClasses,
-  stressClasses,
+  stressLadders,
 } from "../engine/devices/choose.ts";
 import type { ExpandDeps } from "./expand.ts";
 
@@ -22,7 +22,7 @@ export function libraryDeps(lib: DeviceLibrary, policy: DeratingPolicy): ExpandD
       chooseDevicesWithReasons(rec, lib, supply_V, load_A, chain, kind).reasons,
     // Offered again since the bleed turn-off guard (stages/base-bleed.ts bleedTurnOffIndex) holds the cores it
     // makes feasible with both card sets (docs/method.md, "Low-capacitance base diodes").
-    stressClasses: (rec) => stressClasses(rec, lib),
+    stressClasses: (rec) => stressLadders(rec, lib),
     railZeners: (rec) => railZenerClasses(rec, lib),
     returnGuardClasses: (rec) => returnGuardClasses(rec, lib),
     policy,

@@ -61,10 +61,22 @@ export function isComparatorPair(p: Part): boolean {
   return (p.role === "Q_CR" || p.role === "Q_CW") && (p.kind === "npn" || p.kind === "pnp");
 }
 
+/**
+ * Transistors that get their class's card with the gain read at their own current (the `_P` card): the
+ * comparator pair (above) and the pull-in timer's Q_PULL, which sinks microamperes from timing base A and
+ * lets go where its gain times its fading base current no longer carries them (stages/pull-in-timer.ts).
+ * Read with its class's other parts, a 24 V, 0.25 A valve's gate-drive transistors at tens of
+ * milliamperes, its gain came out 103 where the class gives ≈ 300 at its own current, and the timer let
+ * go at 122 ms against the 148 ms predicted (measured in native ngspice, 2026-12-05).
+ */
+export function readsOwnCurrent(p: Part): boolean {
+  return isComparatorPair(p) || (p.role === "Q_PULL" && (p.kind === "npn" || p.kind === "pnp"));
+}
+
 function modelOf(p: Part): string {
   const id = p.spice?.model ?? p.device;
   if (!id) throw new EngineMisuseError(`netlist: part ${p.ref} (${p.kind}) names no device class for its .model`);
-  return isTimingTransistor(p) ? timingModelName(id) : isComparatorPair(p) ? pairModelName(id) : spiceModelName(id);
+  return isTimingTransistor(p) ? timingModelName(id) : readsOwnCurrent(p) ? pairModelName(id) : spiceModelName(id);
 }
 
 function loadR(p: Part): number {

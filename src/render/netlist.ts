@@ -8,7 +8,7 @@ import type { CircuitModel, Part } from "../model/circuit.ts";
 import type { DeviceLibrary } from "../model/device.ts";
 import type { CardSet } from "../model/corners.ts";
 import { STAGE_KINDS } from "../model/kinds.ts";
-import { END_PARAMS, elementLines, isComparatorPair, isTimingTransistor } from "./netlist-parts.ts";
+import { END_PARAMS, elementLines, isTimingTransistor, readsOwnCurrent } from "./netlist-parts.ts";
 import { checkNet, commentLines } from "./netlist-text.ts";
 import { spiceModel } from "./spice-models.ts";
 import { spiceNum } from "./spice-num.ts";
@@ -38,13 +38,14 @@ export const STEPS_PER_PERIOD = 400;
 function modelCards(circuit: CircuitModel, meta: NetlistMeta): string[] {
   // Gain is read at the largest operating current any part of the class carries (the lowest gain);
   // timing-core transistors get their own card (typical junction), keyed apart, and so does a
-  // comparator pair (its gain read at its own tail current: netlist-parts.ts isComparatorPair).
+  // comparator pair and the pull-in timer's transistor (the gain read at their own current:
+  // netlist-parts.ts readsOwnCurrent).
   const ic = new Map<string, { id: string; timing: boolean; pair: boolean; i: number }>();
   for (const p of circuit.parts) {
     const id = p.spice?.model ?? p.device;
     if (!id || p.kind === "led-strip") continue;
     const timing = isTimingTransistor(p);
-    const pair = !timing && isComparatorPair(p);
+    const pair = !timing && readsOwnCurrent(p);
     const key = `${id}${timing ? "#timing" : pair ? "#pair" : ""}`;
     const e = ic.get(key) ?? { id, timing, pair, i: 0 };
     e.i = Math.max(e.i, p.stress.current_A ?? 0);

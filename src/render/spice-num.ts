@@ -18,8 +18,9 @@ export function spiceModelName(deviceId: string): string {
 }
 
 /**
- * Card name of a comparator-pair transistor's class (the ramp duty stage's Q_CR/Q_CW): its own card,
- * with the gain read at the pair's own current (netlist.ts modelCards).
+ * Card name of a class read at one part's own current (the ramp duty stage's comparator pair Q_CR/Q_CW,
+ * the pull-in timer's Q_PULL: netlist-parts.ts readsOwnCurrent): its own card, with the gain read at
+ * that part's current (netlist.ts modelCards).
  */
 export function pairModelName(id: string): string {
   return `${spiceModelName(id)}_P`;

@@ -102,12 +102,16 @@ export const STRESS_DEVICE_IDS: Readonly<Partial<Record<DeviceRole, readonly str
   // start-up peak or the drop that starves the load (an LED strip at 0.1 A behind a TO-92 PNP's
   // V_CE(sat)): the TO-220 class of the same polarity (stages/switch-step.ts; kept only when the
   // variant then passes); carried only where the chooser took a smaller class (`stressStepApplies`).
-  power_npn: ["npn-power-to220"],
+  // Each list is a ladder, smallest first: a variant carries the first class above the one chosen for it
+  // (`stressFor`), so a TO-220 switch refused for its current or heat is offered the TO-3 class.
+  power_npn: ["npn-power-to220", "npn-power-to3"],
   power_pnp: ["pnp-power-to220"],
   // The driver of the PNP chain and the two-stage Darlington's first stage where the chooser's estimate
   // took a small-signal class and the sized drive then loads it past the derating policy (its current
   // or its heat): the medium class (stages/switch-step.ts `driverSteps`; kept only when the variant passes).
-  driver_npn: ["npn-medium"],
+  // The same for the three-stage Darlington's middle stage (its driver_npn role): a TO-18 class refused for
+  // its junction temperature (it takes no heatsink) is offered the TO-220 class above it.
+  driver_npn: ["npn-medium", "npn-power-to220"],
 };
 
 /**
@@ -176,13 +180,37 @@ export function returnGuardClasses(record: DesignRecord, lib: DeviceLibrary): Re
   return { fets, clamps };
 }
 
-/** The classes of STRESS_DEVICE_IDS present in the library, for the roles the record does not bind. */
+/** The first class of each role's STRESS_DEVICE_IDS present in the library, for the roles the record does not bind. */
 export function stressClasses(record: DesignRecord, lib: DeviceLibrary): Partial<Record<DeviceRole, DeviceClass>> {
   const out: Partial<Record<DeviceRole, DeviceClass>> = {};
+  for (const [role, ladder] of Object.entries(stressLadders(record, lib)) as [DeviceRole, DeviceClass[]][])
+    if (ladder[0] !== undefined) out[role] = ladder[0];
+  return out;
+}
+
+/** Every class of STRESS_DEVICE_IDS present in the library, in order, for the roles the record does not bind. */
+export function stressLadders(record: DesignRecord, lib: DeviceLibrary): Partial<Record<DeviceRole, DeviceClass[]>> {
+  const out: Partial<Record<DeviceRole, DeviceClass[]>> = {};
   for (const [role, ids] of Object.entries(STRESS_DEVICE_IDS) as [DeviceRole, readonly string[]][]) {
     if (record.devices?.[role] !== undefined) continue;
-    const id = ids.find((x) => lib.has(x));
-    if (id !== undefined) out[role] = checkFamily(role, getDevice(lib, id), "stress step");
+    const ladder = ids.filter((x) => lib.has(x)).map((x) => checkFamily(role, getDevice(lib, x), "stress step"));
+    if (ladder.length > 0) out[role] = ladder;
+  }
+  return out;
+}
+
+/**
+ * The stress classes a variant carries beside the classes chosen for it: per role, the first class of its
+ * ladder that is a step from the chosen one (`stressStepApplies`); none where no class of the ladder is.
+ */
+export function stressFor(
+  ladders: Partial<Record<DeviceRole, readonly DeviceClass[]>>,
+  devices: Record<DeviceRole, DeviceClass>,
+): Partial<Record<DeviceRole, DeviceClass>> {
+  const out: Partial<Record<DeviceRole, DeviceClass>> = {};
+  for (const [role, ladder] of Object.entries(ladders) as [DeviceRole, readonly DeviceClass[]][]) {
+    const step = ladder.find((c) => stressStepApplies(role, devices[role], c));
+    if (step !== undefined) out[role] = step;
   }
   return out;
 }

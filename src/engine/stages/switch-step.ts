@@ -1,10 +1,10 @@
 /**
  * The load switch stepped up under stress (docs/method.md, "Power classes by stress"): a variant
  * refused by what its switch carries (conduction heat, the start-up peak against the pulse rating,
- * the drop that starves the load) is sized again with a stronger class — for the MOSFET chains the
- * library's low-R_DS(on) classes, for the BJT chains the TO-220 class of the switch's polarity where
- * the chooser took a smaller one (devices/choose.ts STRESS_DEVICE_IDS) — and the stepped design is
- * kept only when it is feasible: a variant that passed before keeps its design byte for byte, and a
+ * the drop that starves the load, the switch's own current) is sized again with a stronger class — for
+ * the MOSFET chains the library's low-R_DS(on) classes, for the BJT chains the next class of the switch's
+ * polarity above the one the chooser took (TO-220, then TO-3: devices/choose.ts STRESS_DEVICE_IDS) — and the
+ * stepped design is kept only when it is feasible: a variant that passed before keeps its design byte for byte, and a
  * refusal that the larger class does not cure keeps its page. A record that binds the role keeps
  * its class (no stress class is offered for a bound role). The step is the role's device-class
  * decision, with the refusal it cures as its reason.
@@ -29,6 +29,9 @@ const SWITCH_RULES: ReadonlySet<string> = new Set([
   "solenoid-pull-in",
   "gate-below-threshold",
 ]);
+
+/** The switch's own current against the derating policy: cured by a class that carries more (its part only). */
+const SWITCH_CURRENT_RULES: ReadonlySet<string> = new Set(["derating-current", "check-current"]);
 
 type SwitchRole = Extract<DeviceRole, "mosfet_logic" | "mosfet_standard" | "power_npn" | "power_pnp">;
 
@@ -90,10 +93,17 @@ export function switchSteps(spec: VariantSpec, out: SizedVariant): VariantSpec[]
   const role = switchRole(spec.chain);
   const classes = stepClasses(spec);
   if (role === null || classes.length === 0) return [];
-  const rules = [...new Set(out.verdict.blocking.map((b) => b.rule))];
-  const cured = rules.filter((r) => SWITCH_RULES.has(r));
-  if (cured.length === 0) return [];
   const ordinary = spec.devices[role];
+  // A current refusal counts only on a part of the switch's own class (another part's current is not cured).
+  const own = new Set((out.circuit?.parts ?? []).filter((p) => p.device === ordinary.id).map((p) => `/parts/${p.ref}`));
+  const cured = [
+    ...new Set(
+      out.verdict.blocking
+        .filter((b) => SWITCH_RULES.has(b.rule) || (SWITCH_CURRENT_RULES.has(b.rule) && own.has(b.path)))
+        .map((b) => b.rule),
+    ),
+  ];
+  if (cured.length === 0) return [];
   return classes.map((d) => {
     const reason =
       `stepped up under stress: with ${ordinary.title} the variant is refused (${cured.join(", ")}); ` +
@@ -111,6 +121,7 @@ export function switchSteps(spec: VariantSpec, out: SizedVariant): VariantSpec[]
  * junction temperature against the derating policy.
  */
 const DRIVER_RULES: ReadonlySet<string> = new Set([
+  "tj-over-limit",
   "derating-current",
   "check-current",
   "derating-power",
@@ -119,8 +130,15 @@ const DRIVER_RULES: ReadonlySet<string> = new Set([
   "check-tj",
 ]);
 
-/** The parts that take the driver class, by chain: the PNP chain's driver, the 2-stage Darlington's first stage. */
-const DRIVER_PART_ROLE: Readonly<Record<string, string>> = { "bjt-driver-pnp": "Q_DRV", "darlington-2": "Q_D1" };
+/**
+ * The parts that take the driver class, by chain: the PNP chain's driver, the 2-stage Darlington's first
+ * stage, the 3-stage Darlington's middle stage.
+ */
+const DRIVER_PART_ROLE: Readonly<Record<string, string>> = {
+  "bjt-driver-pnp": "Q_DRV",
+  "darlington-2": "Q_D1",
+  "darlington-3": "Q_D2",
+};
 
 /**
  * The chain's driver stepped up under stress (devices/choose.ts STRESS_DEVICE_IDS.driver_npn): where the

@@ -180,13 +180,24 @@ export function envelopeOf(ctx: Ctx): Envelope {
  * RMS current √2.26·V_cc/R_end in any part of a ≤ 2 W track (√(P/R), common practice; timing-parts.ts).
  */
 export function endFloor(ctx: Ctx, q: BjtClass, rC_ohm: number, pot: number): number | null {
+  const by = endFloorBy(ctx, q, rC_ohm, pot);
+  return by === null ? null : Math.max(R_END_MIN_OHM, by.current_ohm, by.pot_ohm);
+}
+
+/** The two bounds of endFloor apart (null: no current left for the end resistor at all). */
+export function endFloorBy(
+  ctx: Ctx,
+  q: BjtClass,
+  rC_ohm: number,
+  pot: number,
+): { current_ohm: number; pot_ohm: number } | null {
   const tol = ctx.rTol;
   const iLeft = q.ic_max_A * ctx.spec.policy.bjt.current.factor - ctx.vMax_V / (rC_ohm * (1 - tol));
   if (!(iLeft > 0)) return null;
   const byCurrent = (2 * ctx.vMax_V) / (iLeft * (1 - tol));
   const pMax = POT_RATINGS_W[POT_RATINGS_W.length - 1]! * ctx.spec.policy.resistor.power.factor;
   const byPot = (Math.sqrt(RB_MS_FACTOR) * ctx.vMax_V) / ((1 - tol) * Math.sqrt(pMax / (pot * (1 + ctx.potTol))));
-  return Math.max(R_END_MIN_OHM, byCurrent, byPot);
+  return { current_ohm: byCurrent, pot_ohm: byPot };
 }
 
 /**

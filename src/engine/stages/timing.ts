@@ -9,13 +9,22 @@ import type { Figure } from "../../model/figure.ts";
 import type { Part } from "../../model/circuit.ts";
 import type { DesignProblem } from "../../model/problem.ts";
 import type { StressCheck } from "../../model/derating.ts";
-import { nearest } from "../shared/e-series.ts";
+import { nearest, roundUp } from "../shared/e-series.ts";
+import { formatValue } from "../../model/format.ts";
 import { figure, problem } from "../shared/figures.ts";
 import { hfeNominal, vbeOn, vceSat } from "../shared/gain.ts";
 import { evaluateCore, followerThevenin, lnFactor, type CollectorLoad, type FollowerParams } from "./astable.ts";
 import type { Ctx } from "./context.ts";
 import { type CoreEval, type CoreValues, NOMINAL_K, diodeVf_V, evalCore, followerAt } from "./core-model.ts";
-import { MAX_RECOVERY, type Search, envelopeOf, injection, searchCore } from "./timing-search.ts";
+import {
+  MAX_RECOVERY,
+  R_END_MIN_OHM,
+  type Search,
+  endFloorBy,
+  envelopeOf,
+  injection,
+  searchCore,
+} from "./timing-search.ts";
 import { INJECTION_MAX } from "./astable.ts";
 import {
   BLEED_TURN_OFF_MAX,
@@ -231,49 +240,69 @@ function fastTurnOff(
 }
 
 /**
- * The value search, once more with a stronger base bleed when the bleed cannot hold the off transistor
+ * Rounds of re-bleeding (millerChecked): the bleed is sized for the values the search kept, and a redone
+ * search may keep others (a stronger bleed costs overdrive, which moves the end stops or the pot), whose
+ * index can again pass the limit; each round re-sizes the bleed for the values then kept (ours).
+ */
+export const REBLEED_ROUNDS = 3;
+
+/**
+ * The value search, again with a stronger base bleed while the bleed cannot hold the off transistor
  * at the fast corner: its collector–base injection passes what the bleed was measured to hold
  * (base-bleed.ts millerIndex), or its turn-off on the bleed alone takes too large a share of the short
  * half-period (base-bleed.ts bleedTurnOffIndex). The bleed is then re-sized to the index at which the
  * measurement found the frequency on its prediction (the stronger of the two), and the search redone
- * (the stronger bleed costs overdrive, which the search counts).
+ * (the stronger bleed costs overdrive, which the search counts), at most REBLEED_ROUNDS times: the
+ * designer chooses the base–emitter resistor for the storage time, within what the drive affords.
+ * `rounds` tells how many re-bleeds were made.
  */
 function millerChecked(
   ctx: Ctx,
   q: BjtClass,
   db: DiodeClass,
   base: Parameters<typeof searchCore>[3],
-): { search: Search; corners?: SimCorner[] } {
-  const search = searchCore(ctx, q, db, base);
-  const v = search.values;
-  // Only a design that passed is worth re-bleeding; a failed search's refusal stands as it is, and its
-  // corners are worked out by designTiming if its result is ever read (the same function of the same values).
-  if (v.bleed_ohm === undefined || q.cob_F === undefined || !search.passed) return { search };
-  const env = { vMax: ctx.vMax_V, tMax: ctx.taMax_C };
-  // The corners of the values kept are returned with them, so designTiming need not work them out again.
-  const corners = simulationCorners(v, q, db, envelopeCorners(envelopeOf(ctx)), env);
-  const fast = corners.find((k) => k.name === "fast");
-  if (fast === undefined) return { search, corners };
-  const tShort_s = (1 - fast.predicted.duty) / fast.predicted.f_Hz;
-  // No short half-period at all (duty 1 at the fast corner): nothing to re-bleed against.
-  if (!(tShort_s > 0)) return { search, corners };
-  const z = millerIndex(q.cob_F, fast.vcc_V, v.bleed_ohm, vbeOn(q, NOMINAL_TEMP_C), tShort_s);
-  const millerScale = Number.isFinite(z) && z > MILLER_INDEX_MAX ? MILLER_INDEX_TARGET / z : undefined;
-  const worst = fastTurnOff(v, q, db, fast);
-  const turnOffScale =
-    worst !== undefined && worst.w.index > BLEED_TURN_OFF_MAX
-      ? bleedScaleForTurnOff(v, q, db, worst.k, BLEED_TURN_OFF_TARGET)
-      : undefined;
-  if (millerScale === undefined && turnOffScale === undefined) return { search, corners };
-  const bleedScale = Math.min(millerScale ?? Infinity, turnOffScale ?? Infinity);
-  return { search: searchCore(ctx, q, db, { ...base, bleedScale }) };
+): { search: Search; corners?: SimCorner[]; rounds?: number } {
+  let search = searchCore(ctx, q, db, base);
+  let scale = 1;
+  for (let rounds = 0; ; rounds++) {
+    const v = search.values;
+    // Only a design that passed is worth re-bleeding; a failed search's refusal stands as it is, and its
+    // corners are worked out by designTiming if its result is ever read (the same function of the same values).
+    if (v.bleed_ohm === undefined || q.cob_F === undefined || !search.passed) return { search, rounds };
+    const env = { vMax: ctx.vMax_V, tMax: ctx.taMax_C };
+    // The corners of the values kept are returned with them, so designTiming need not work them out again.
+    const corners = simulationCorners(v, q, db, envelopeCorners(envelopeOf(ctx)), env);
+    const fast = corners.find((k) => k.name === "fast");
+    if (fast === undefined) return { search, corners, rounds };
+    const tShort_s = (1 - fast.predicted.duty) / fast.predicted.f_Hz;
+    // No short half-period at all (duty 1 at the fast corner): nothing to re-bleed against.
+    if (!(tShort_s > 0)) return { search, corners, rounds };
+    const z = millerIndex(q.cob_F, fast.vcc_V, v.bleed_ohm, vbeOn(q, NOMINAL_TEMP_C), tShort_s);
+    const millerScale = Number.isFinite(z) && z > MILLER_INDEX_MAX ? MILLER_INDEX_TARGET / z : undefined;
+    const worst = fastTurnOff(v, q, db, fast);
+    const turnOffScale =
+      worst !== undefined && worst.w.index > BLEED_TURN_OFF_MAX
+        ? bleedScaleForTurnOff(v, q, db, worst.k, BLEED_TURN_OFF_TARGET)
+        : undefined;
+    if ((millerScale === undefined && turnOffScale === undefined) || rounds >= REBLEED_ROUNDS)
+      return { search, corners, rounds };
+    // The scales are relative to the bleed just used; the search's is relative to the values' own bleed.
+    scale *= Math.min(millerScale ?? Infinity, turnOffScale ?? Infinity);
+    search = searchCore(ctx, q, db, { ...base, bleedScale: scale });
+  }
 }
 
 /**
  * The bleed's hold on the off transistor at the fast corner, checked on the values kept (millerChecked
  * re-sizes the bleed once; a redone search can still land past the limit, and is then refused).
  */
-function turnOffProblems(q: BjtClass, db: DiodeClass, v: CoreValues, corners: SimCorner[]): DesignProblem[] {
+function turnOffProblems(
+  q: BjtClass,
+  db: DiodeClass,
+  v: CoreValues,
+  corners: SimCorner[],
+  why: { passed: boolean; rounds: number },
+): DesignProblem[] {
   const fast = corners.find((k) => k.name === "fast");
   const w = fast === undefined ? undefined : fastTurnOff(v, q, db, fast)?.w;
   if (w === undefined || w.index <= BLEED_TURN_OFF_MAX) return [];
@@ -288,10 +317,52 @@ function turnOffProblems(q: BjtClass, db: DiodeClass, v: CoreValues, corners: Si
         `(storage, then its collector's rise against its own collector–base capacitance), ` +
         `${w.index.toFixed(2)} × the shortest half-period of ${(w.tShort_s * 1e6).toFixed(2)} µs (limit ` +
         `${BLEED_TURN_OFF_MAX}): the collector does not reach its high level, the coupled swing shrinks and ` +
-        `the core runs fast. Use a lower frequency, a narrower duty range or a lower-gain timing transistor.`,
+        `the core runs fast. ${strongerBleedWhyNot(why)}Use a lower frequency, a narrower duty range or a ` +
+        `lower-gain timing transistor.`,
       { limit: BLEED_TURN_OFF_MAX, actual: w.index, unit: "" },
     ),
   ];
+}
+
+/**
+ * Why the designer did not make the bleed stronger (millerChecked): a core that fails its other limits
+ * with this bleed is not re-bled (a stronger bleed takes V_BE/R_BE more of the base current, the
+ * overdrive k = β_min·(I_B − V_BE/R_BE)/I_C falls, and the duty range needs it); else the rounds ran out.
+ */
+function strongerBleedWhyNot(why: { passed: boolean; rounds: number }): string {
+  if (!why.passed)
+    return (
+      `A smaller bleed was not tried: the core already misses its other limits with this one, and a ` +
+      `stronger bleed takes V_BE/R_BE more of the base current (k = β_min·(I_B − V_BE/R_BE)/I_C falls). `
+    );
+  return why.rounds > 0
+    ? `The bleed was made stronger ${why.rounds} time(s), each time the search moved the core's values and ` +
+        `the index stayed over the limit. `
+    : "";
+}
+
+/**
+ * The relation that holds the end stop of a short end at its floor (timing-search.ts endFloor), in the
+ * refusal's words; empty when the end stop is above its floor (then the search's other limits decide).
+ */
+function endStopHeld(ctx: Ctx, q: BjtClass, v: CoreValues, short: { min: boolean; max: boolean }): string {
+  const by = endFloorBy(ctx, q, v.rC_ohm, v.pot_ohm);
+  if (by === null) return "";
+  const floor = roundUp(Math.max(R_END_MIN_OHM, by.current_ohm, by.pot_ohm), "E24");
+  const ends = [
+    ...(short.min && v.rEndA_ohm <= floor ? [`RB_A (${formatValue(v.rEndA_ohm, "Ω")})`] : []),
+    ...(short.max && v.rEndB_ohm <= floor ? [`RB_B (${formatValue(v.rEndB_ohm, "Ω")})`] : []),
+  ];
+  if (ends.length === 0) return "";
+  const why =
+    by.pot_ohm >= by.current_ohm
+      ? `the duty pot's track: its ${formatValue(v.pot_ohm, "Ω")} track carries the end resistor's RMS current ` +
+        `√2.26·V_cc,max/R_end, within the policy's share of a 2 W track, so R_end ≥ ` +
+        `${formatValue(by.pot_ohm, "Ω")} (a larger pot raises the base resistances against the overdrive ` +
+        `k = β_min·I_B/I_C ≥ 2 at the R_C the chain needs)`
+      : `the timing transistor's peak current V_cc/R_C + (2·V_cc − V_on)/R_end within its derated rating, so ` +
+        `R_end ≥ ${formatValue(by.current_ohm, "Ω")}`;
+  return ` ${ends.join(" and ")} sit${ends.length === 1 ? "s" : ""} at the smallest value allowed by ${why}.`;
 }
 
 /** The collector-recovery refusal, naming the gate on the tapped collector if any (worst-corners.ts recoveryIndex). */
@@ -491,7 +562,8 @@ export function designTiming(
         "duty-range-worst-case",
         "error",
         `Worst case the control reaches only ${fmtPct(w.dMin.hi)}–${fmtPct(w.dMax.lo)} duty at the load, short ` +
-          `of the required ${fmtPct(t.duty_min)}–${fmtPct(t.duty_max)}.`,
+          `of the required ${fmtPct(t.duty_min)}–${fmtPct(t.duty_max)}.` +
+          endStopHeld(ctx, q, v, { min: w.dMin.hi > t.duty_min, max: w.dMax.lo < t.duty_max }),
         { limit: t.duty_min, actual: w.dMin.hi, unit: "" },
       ),
     );
@@ -500,7 +572,7 @@ export function designTiming(
   const corners =
     checked.corners ??
     simulationCorners(v, q, db, envelopeCorners(envelopeOf(ctx)), { vMax: ctx.vMax_V, tMax: ctx.taMax_C });
-  problems.push(...turnOffProblems(q, db, v, corners));
+  problems.push(...turnOffProblems(q, db, v, corners, { passed: search.passed, rounds: checked.rounds ?? 0 }));
   const inj = injection(ctx, q, db, v);
   if (inj > INJECTION_MAX)
     problems.push(
