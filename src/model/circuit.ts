@@ -71,6 +71,12 @@ export interface PartSpice {
    */
   v0_supply?: boolean;
   /**
+   * Capacitors: start the transient charged to this voltage (at most the deck's supply; IC=), e.g. a gate
+   * rail's reservoir at its zener's voltage. Honoured only by a `uic` start (the published deck); decks run
+   * from an operating point find the node's own level there, and the cold start drops it.
+   */
+  v0_V?: number;
+  /**
    * Motors: the back-EMF of each nominal run by its control setting (0, 0.5, 1), the engine's
    * (src/engine/stages/motor-runs.ts); `vf_V` is the one at control 1, the published deck's.
    */

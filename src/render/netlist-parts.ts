@@ -91,6 +91,20 @@ function loadR(p: Part): number {
  */
 export const END_PARAMS = { S_OFF: "end_off", S_ON: "end_on" } as const;
 
+/**
+ * A capacitor with its start charge, if any: charged to the supply (a power-on timer run out), or to its own
+ * start level at most the supply (a gate rail's reservoir at its zener's voltage). Only the `.tran … uic`
+ * start honours an IC=; a deck without `uic` starts from its operating point, where the capacitor is open
+ * and its node sits at the level its circuit holds it at.
+ */
+function capacitorLine(p: Part, ref: string, n: string[], supply_V: number): string {
+  const v0 = p.spice?.v0_supply === true ? supply_V : p.spice?.v0_V;
+  if (v0 !== undefined && !(Number.isFinite(v0) && v0 >= 0))
+    throw new EngineMisuseError(`netlist: capacitor ${ref} needs spice.v0_V finite and ≥ 0, got ${v0}`);
+  const ic = v0 === undefined ? "" : ` IC=${spiceNum(Math.min(v0, supply_V), `${ref} start charge`)}`;
+  return `${ref} ${n.join(" ")} ${spiceNum(p.value, `${ref} value`)}${ic}`;
+}
+
 export function elementLines(p: Part, supply_V: number): ElementOut {
   const ref = checkRef(p.ref);
   const n = pins(p);
@@ -100,11 +114,8 @@ export function elementLines(p: Part, supply_V: number): ElementOut {
     case "resistor":
       return { lines: [`${ref} ${n.join(" ")} ${v(p.value, "value")}`], models: [] };
     case "capacitor":
-    case "capacitor-polarised": {
-      // IC: charged to the supply (a power-on timer run out; honoured by the `.tran … uic` start).
-      const ic = p.spice?.v0_supply === true ? ` IC=${v(supply_V, "supply")}` : "";
-      return { lines: [`${ref} ${n.join(" ")} ${v(p.value, "value")}${ic}`], models: [] };
-    }
+    case "capacitor-polarised":
+      return { lines: [capacitorLine(p, ref, n, supply_V)], models: [] };
     case "potentiometer": {
       const r = v(p.value, "value");
       // a–w = R·ctrl, w–b = R·(1 − ctrl), each floored at 1 mΩ so neither end is a short.

@@ -145,7 +145,8 @@ export function renderNetlist(circuit: CircuitModel, meta: NetlistMeta): string 
   // high collector starts at its loaded high level, the engine's share of the core's supply (the rail,
   // or the supply): held at the supply instead, a collector whose chain loads it to a third of that
   // would couple two thirds of the supply too much into the other base, and the first half-period
-  // would run several periods long.
+  // would run several periods long. A rail that feeds the gate drive alone is not held here: its
+  // reservoir starts charged by its own IC= (netlist-parts.ts), which only a `uic` start honours.
   const rail = coreRailStart(circuit, meta.supply_V);
   const high = (rail === null ? meta.supply_V : rail.v_V) * startShare(circuit);
   const railIc = rail === null ? "" : ` v(${checkNet(rail.net, "ic")})=${spiceNum(rail.v_V, "ic")}`;
@@ -176,12 +177,18 @@ function startShare(circuit: CircuitModel): number {
   return Math.min(1, r);
 }
 
-/** The core rail's net and starting level (its zener's voltage, at most the supply), or null without one. */
+/**
+ * The core rail's net and starting level (its zener's voltage, at most the supply), or null without one:
+ * a C_RAIL across a zener with a timing-core part on its net. The driven MOSFET's own gate rail (no core
+ * part on it) is not the core's: null.
+ */
 function coreRailStart(circuit: CircuitModel, supply_V: number): { net: string; v_V: number } | null {
   const cap = circuit.parts.find((p) => p.role === "C_RAIL");
   const net = cap?.pins["plus"];
   const dz = circuit.parts.find((p) => p.kind === "zener" && p.pins["cathode"] === net);
-  return net === undefined || dz === undefined ? null : { net, v_V: Math.min(supply_V, dz.value) };
+  if (net === undefined || dz === undefined) return null;
+  const core = circuit.parts.some((p) => p.stage === "timing" && Object.values(p.pins).includes(net));
+  return core ? { net, v_V: Math.min(supply_V, dz.value) } : null;
 }
 
 /** Rewrites the `.param ctrl` line (0 … 1) of a netlist made by renderNetlist. */

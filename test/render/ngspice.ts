@@ -29,6 +29,22 @@ export function runNgspice(text: string, timeout_ms = 60_000): string {
   }
 }
 
+/**
+ * A deck run on a ladder of solver options, as the verifier's retries (src/verify/runs.ts): `run` with each
+ * of `levels` in turn until one runs through; the last level's error when none does.
+ */
+export function ladder<T>(levels: string[], run: (options: string) => T): T {
+  let last: unknown = new Error("ladder: no levels");
+  for (const options of levels) {
+    try {
+      return run(options);
+    } catch (e) {
+      last = e;
+    }
+  }
+  throw last;
+}
+
 /** Value of a `.meas` result line "name = value". */
 export function meas(out: string, name: string): number {
   const m = new RegExp(`^${name}\\s*=\\s*([-0-9.e+]+)`, "m").exec(out);

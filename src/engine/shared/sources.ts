@@ -984,6 +984,7 @@ export const SOURCES = {
       },
       { item: "gain against temperature", value: "rises ≈ 0.5 %/K", sureness: "common-practice" },
       { item: "bulk capacitor", value: "≈ 100 µF per ampere, ≥ 100 µF", sureness: "common-practice" },
+      { item: "small regulated rail's decoupling", value: "≥ 10 µF electrolytic", sureness: "common-practice" },
       { item: "solenoid hold current", value: "≈ 30–50 % of pull-in", sureness: "common-practice" },
     ],
   },

@@ -20,8 +20,8 @@ import type { SizedVariant } from "../../model/sized.ts";
 import { EngineMisuseError } from "../../model/errors.ts";
 import { formatValue } from "../../model/format.ts";
 import { capacitor, resistor, zener } from "../../circuit/parts.ts";
-import { roundUp } from "../shared/e-series.ts";
 import { checkStress } from "../shared/derating.ts";
+import { railReservoir_F } from "../shared/rail-reservoir.ts";
 import { figure, problem } from "../shared/figures.ts";
 import type { Figure } from "../../model/figure.ts";
 import { CORE_RAIL_NET, type CoreRail, type Ctx } from "./context.ts";
@@ -214,18 +214,13 @@ export function coreRailLoad_A(
   return i;
 }
 
-/** The rail sag allowed while a follower recharges its coupling capacitor from C_RAIL (share of the rail, ours). */
-export const RAIL_SAG_SHARE = 0.01;
-/** The least rail capacitor, F: the usual decoupling of a small regulated rail (common practice). */
-export const RAIL_CAP_MIN_F = 10e-6;
-
 /**
  * The rail capacitor: it supplies each edge's recharge of a coupling capacitor, C_T·V_swing with
  * V_swing ≤ V_rail, with the rail sagging by at most RAIL_SAG_SHARE of itself: C ≥ C_T/RAIL_SAG_SHARE
- * (charge balance, derived), at least RAIL_CAP_MIN_F, E6 up.
+ * (shared/rail-reservoir.ts railReservoir_F with Q = C_T·V_rail), at least RAIL_CAP_MIN_F, E6 up.
  */
 export function railCap_F(cT_F: number, followers: boolean): number {
-  return roundUp(Math.max(RAIL_CAP_MIN_F, followers ? cT_F / RAIL_SAG_SHARE : 0), "E6");
+  return railReservoir_F(followers ? cT_F : 0, 1);
 }
 
 /** The core's parts moved from vbus onto the rail. */
@@ -368,7 +363,12 @@ export function railDecision(
 }
 
 /** The rail capacitor's part (aluminium electrolytic across the zener), rated for the rail's highest level. */
-export function railCapPart(ctx: Ctx, rail: CoreRail, c_F: number): { part: Part; checks: StressCheck[] } {
+export function railCapPart(
+  ctx: Ctx,
+  rail: Pick<CoreRail, "max_V">,
+  c_F: number,
+  why = "holds the timing core's rail up while a coupling capacitor recharges",
+): { part: Part; checks: StressCheck[] } {
   const rated = capRating_V(ctx, rail.max_V);
   return {
     part: capacitor("chain", "C_RAIL", {
@@ -379,7 +379,7 @@ export function railCapPart(ctx: Ctx, rail: CoreRail, c_F: number): { part: Part
       stressV: rail.max_V,
       pins: { plus: CORE_RAIL_NET, minus: "0" },
       polarised: true,
-      why: "holds the timing core's rail up while a coupling capacitor recharges",
+      why,
     }),
     checks: [
       checkStress(
