@@ -18,13 +18,13 @@ import { type CoreEval, type CoreValues, NOMINAL_K, diodeVf_V, evalCore, followe
 import { MAX_RECOVERY, type Search, envelopeOf, injection, searchCore } from "./timing-search.ts";
 import { INJECTION_MAX } from "./astable.ts";
 import {
-  BLEED_TURN_OFF_MAX,
-  BLEED_TURN_OFF_TARGET,
   MILLER_INDEX_MAX,
   MILLER_INDEX_TARGET,
   bleedFigures,
   bleedScaleForTurnOff,
   bleedTurnOffIndex,
+  turnOffLimits,
+  RAMP_CORE_TURN_OFF_MAX,
   millerIndex,
 } from "./base-bleed.ts";
 import { FOLLOWER_OFF_MARGIN_V, type TapDesign, followerChainThresholdHot_V, followerOffLevel_V } from "./tap.ts";
@@ -260,9 +260,10 @@ function millerChecked(
   const z = millerIndex(q.cob_F, fast.vcc_V, v.bleed_ohm, vbeOn(q, NOMINAL_TEMP_C), tShort_s);
   const millerScale = Number.isFinite(z) && z > MILLER_INDEX_MAX ? MILLER_INDEX_TARGET / z : undefined;
   const worst = fastTurnOff(v, q, db, fast);
+  const limits = turnOffLimits(ctx.spec.rampCore === true, ctx.f_Hz);
   const turnOffScale =
-    worst !== undefined && worst.w.index > BLEED_TURN_OFF_MAX
-      ? bleedScaleForTurnOff(v, q, db, worst.k, BLEED_TURN_OFF_TARGET)
+    worst !== undefined && worst.w.index > limits.max
+      ? bleedScaleForTurnOff(v, q, db, worst.k, limits.target)
       : undefined;
   if (millerScale === undefined && turnOffScale === undefined) return { search, corners };
   const bleedScale = Math.min(millerScale ?? Infinity, turnOffScale ?? Infinity);
@@ -273,10 +274,16 @@ function millerChecked(
  * The bleed's hold on the off transistor at the fast corner, checked on the values kept (millerChecked
  * re-sizes the bleed once; a redone search can still land past the limit, and is then refused).
  */
-function turnOffProblems(q: BjtClass, db: DiodeClass, v: CoreValues, corners: SimCorner[]): DesignProblem[] {
+function turnOffProblems(
+  q: BjtClass,
+  db: DiodeClass,
+  v: CoreValues,
+  corners: SimCorner[],
+  limit: number,
+): DesignProblem[] {
   const fast = corners.find((k) => k.name === "fast");
   const w = fast === undefined ? undefined : fastTurnOff(v, q, db, fast)?.w;
-  if (w === undefined || w.index <= BLEED_TURN_OFF_MAX) return [];
+  if (w === undefined || w.index <= limit) return [];
   return [
     problem(
       "timing",
@@ -287,9 +294,9 @@ function turnOffProblems(q: BjtClass, db: DiodeClass, v: CoreValues, corners: Si
         `transistor's base: at the fast corner it takes ${(w.total_s * 1e6).toFixed(2)} µs to leave conduction ` +
         `(storage, then its collector's rise against its own collector–base capacitance), ` +
         `${w.index.toFixed(2)} × the shortest half-period of ${(w.tShort_s * 1e6).toFixed(2)} µs (limit ` +
-        `${BLEED_TURN_OFF_MAX}): the collector does not reach its high level, the coupled swing shrinks and ` +
+        `${limit}): the collector does not reach its high level, the coupled swing shrinks and ` +
         `the core runs fast. Use a lower frequency, a narrower duty range or a lower-gain timing transistor.`,
-      { limit: BLEED_TURN_OFF_MAX, actual: w.index, unit: "" },
+      { limit, actual: w.index, unit: "" },
     ),
   ];
 }
@@ -500,7 +507,7 @@ export function designTiming(
   const corners =
     checked.corners ??
     simulationCorners(v, q, db, envelopeCorners(envelopeOf(ctx)), { vMax: ctx.vMax_V, tMax: ctx.taMax_C });
-  problems.push(...turnOffProblems(q, db, v, corners));
+  problems.push(...turnOffProblems(q, db, v, corners, turnOffLimits(ctx.spec.rampCore === true, ctx.f_Hz).max));
   const inj = injection(ctx, q, db, v);
   if (inj > INJECTION_MAX)
     problems.push(
@@ -746,7 +753,9 @@ export function designTiming(
       "derived",
     ),
   ];
-  figures.push(...bleedFigures(v.bleed_ohm));
+  figures.push(
+    ...bleedFigures(v.bleed_ohm, turnOffLimits(ctx.spec.rampCore === true, ctx.f_Hz).max === RAMP_CORE_TURN_OFF_MAX),
+  );
   figures.push(...crossBleedFigures(ctx, q, db, v));
   return {
     search,
