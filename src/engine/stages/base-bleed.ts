@@ -89,7 +89,7 @@ export function bleedFor_ohm(
 }
 
 /** The bleed's figure on the page (none without one). */
-export function bleedFigures(bleed_ohm: number | undefined): Figure[] {
+export function bleedFigures(bleed_ohm: number | undefined, crisp = false): Figure[] {
   if (bleed_ohm === undefined) return [];
   return [
     figure(
@@ -98,7 +98,12 @@ export function bleedFigures(bleed_ohm: number | undefined): Figure[] {
       bleed_ohm,
       "Ω",
       "timing",
-      `R_BE = V_BE(cold)/(${BLEED_SHARE}·I_B,min), E24 up; holds the off base below cut-in`,
+      `R_BE = V_BE(cold)/(${BLEED_SHARE}·I_B,min), E24 up; holds the off base below cut-in` +
+        (crisp
+          ? `; on the ramp stage's core above ${RAMP_CORE_CRISP_ABOVE_HZ / 1000} kHz at most the value whose ` +
+            `turn-off (bleedTurnOff_s) takes ${RAMP_CORE_TURN_OFF_MAX} of the short half-period at the fast ` +
+            `corner, E24 down`
+          : ""),
       "millman-taub-1965",
     ),
   ];
@@ -115,6 +120,37 @@ export function bleedFigures(bleed_ohm: number | undefined): Figure[] {
 export const BLEED_TURN_OFF_MAX = 0.6;
 /** The index a bleed is re-sized to when the limit is passed (below the lowest point that ran fast). */
 export const BLEED_TURN_OFF_TARGET = 0.5;
+/**
+ * The same index's limit, and the index it is re-sized to, on the ramp duty stage's fixed core (ramp-offer.ts
+ * rampCoreSpec), where the core's collector A is the ramp's source: while the off-going transistor's base is
+ * left to the bleed it keeps sinking a falling current, so collector A rises later than its R_C·C_T recovery
+ * and the ramp sits low (20 kHz fans with a 22–100 kΩ bleed: index 0.26 at the fast corner, 3.9 µs, the
+ * duty at control ½ 4.5–5.1 points off in native ngspice). A base return resistor low enough that the base
+ * charge leaves at once is the textbook answer (Millman & Taub, Pulse, Digital and Switching Waveforms, 1965,
+ * ch. 11, from memory) [src:millman-taub-1965]; the stronger bleed's cost is in the core's overdrive, which
+ * the value search counts. Ours, measured (docs/method.md, "The fixed core's bleed at 15–25 kHz"): at 0.1
+ * the tap's duty at ½ held within 4 points of the prediction at 15, 20 and 25 kHz; at 0.05 the fans' 24 V
+ * core found no sizing.
+ */
+export const RAMP_CORE_TURN_OFF_MAX = 0.1;
+/**
+ * The PWM frequency, Hz, above which the ramp stage's core takes RAMP_CORE_TURN_OFF_MAX. The duty's error from
+ * the late rise grows as (R_RAMP·C_RAMP/T)·(δ/T) for a lag δ (docs/method.md, "20 kHz, measured again"): up to
+ * 15 kHz the stage's cores held within 3 points with the plain bleed in native ngspice and in strict builds
+ * (1–15 kHz: grow strips, work lamps, the nutrient pump), so they keep their proven designs; at 4 kHz the limit
+ * would have re-sized the grow strips' bleeds (100–200 kΩ to 36–68 kΩ) with nothing to gain. Ours.
+ */
+export const RAMP_CORE_CRISP_ABOVE_HZ = 15_000;
+
+/**
+ * The turn-off index's limit and re-sizing target for a core: `rampCore` the ramp stage's fixed core, `f_Hz`
+ * its PWM frequency.
+ */
+export function turnOffLimits(rampCore: boolean, f_Hz: number): { max: number; target: number } {
+  return rampCore && f_Hz > RAMP_CORE_CRISP_ABOVE_HZ
+    ? { max: RAMP_CORE_TURN_OFF_MAX, target: RAMP_CORE_TURN_OFF_MAX }
+    : { max: BLEED_TURN_OFF_MAX, target: BLEED_TURN_OFF_TARGET };
+}
 
 /**
  * How long the off transistor of a core with series base diodes takes to leave conduction when its

@@ -24,6 +24,7 @@ import { diodeClassVf_V } from "../shared/diode.ts";
 import { nearest } from "../shared/e-series.ts";
 import { figure } from "../shared/figures.ts";
 import { NOMINAL_TEMP_C } from "../shared/temperature.ts";
+import { RAMP_CORE_CRISP_ABOVE_HZ, RAMP_CORE_TURN_OFF_MAX } from "./base-bleed.ts";
 import { collectorThevenin, evaluateCore, parallelLoads } from "./astable.ts";
 import { type CoreValues, NOMINAL_K, coreMemoActive, startNetAt } from "./core-model.ts";
 import { classId, contentText } from "./core-memo.ts";
@@ -73,7 +74,11 @@ export const RAMP_OFFER_CHAINS: ReadonlySet<string> = new Set([
  * (RAMP_OFFER_MAX_HZ) the duty at control ½ held within 3 points in native ngspice (10 kHz: 1.8, 15 kHz:
  * 1.8–3.0, fans and the nutrient pump at 12 and 24 V) and the pump's four 15 kHz variants agreed at nominal,
  * every corner and the cold start in a strict build; at 20 kHz it came out 4.5–5.1 points below the
- * prediction (collector A's rise slower than its R_C·C_T recovery: docs/method.md, "10–15 kHz and windings").
+ * prediction (collector A's rise slower than its R_C·C_T recovery: docs/method.md, "10–15 kHz and windings")
+ * until the fixed core's bleed was sized for the off-going base to leave at once (base-bleed.ts
+ * RAMP_CORE_TURN_OFF_MAX): then the tap's duty at ½ held within 4 points at 15, 20 and 25 kHz (fans at 12 and
+ * 24 V, the pump, the new user's 24 V vent fans; docs/method.md, "The fixed core's bleed at 15–25 kHz"), so
+ * the driven MOSFET is offered the stage up to 25 kHz.
  */
 export const RAMP_OFFER_MIN_HZ = 1000;
 /**
@@ -84,7 +89,7 @@ export const RAMP_OFFER_MIN_HZ = 1000;
  * the check refuses it started without it.
  */
 export const RAMP_OFFER_BARE_CORE_MIN_HZ = 2000;
-export const RAMP_OFFER_MAX_HZ = 15_000;
+export const RAMP_OFFER_MAX_HZ = 25_000;
 /**
  * The chains measured on the stage only up to 5 kHz and without a winding (ramp-logic.test.ts,
  * ramp-darlington.test.ts: 1–4 kHz lamps, LED strips and heaters): their limits until they are simulated
@@ -302,6 +307,7 @@ export function rampOffer(
   });
   const w = sizing.worst;
   const ends = t.off_on_ends === true;
+  const bleed_ohm = timing.values.bleed_ohm;
   // The nominal prediction on the nominal core (no tolerance), the corners on its extremes.
   const nomCore = coreAt(spec.supply_V, NOMINAL_TEMP_C, [0])[0]!;
   const chain = { inverting, tapLoad_A, delays };
@@ -410,6 +416,9 @@ export function rampOffer(
         "RR_A",
         "CR_A",
         ...(v2.pairDiodes === true ? (["D_ER", "D_EW", "D_KR", "D_KW"] as const) : []),
+        ...(bleed_ohm === undefined || !(spec.targets.pwm_Hz > RAMP_CORE_CRISP_ABOVE_HZ)
+          ? []
+          : (["RBL_A", "RBL_B"] as const)),
       ],
       topic: "duty stage",
       choice:
@@ -429,7 +438,13 @@ export function rampOffer(
           ? `; the pair's inputs swing ${w.diodeRev_V.toFixed(1)} V apart, past its transistors' base–emitter ` +
             `reverse rating, so a signal diode in series with each emitter blocks it and one across each ` +
             `base–emitter junction holds that junction under ${w.vebRev_V.toFixed(2)} V`
-          : ""),
+          : "") +
+        (bleed_ohm === undefined || !(spec.targets.pwm_Hz > RAMP_CORE_CRISP_ABOVE_HZ)
+          ? ""
+          : `; the core's base–emitter bleeds are ${formatValue(bleed_ohm, "Ω")}, low enough that the off-going ` +
+            `timing transistor's base charge leaves within ${RAMP_CORE_TURN_OFF_MAX} of the short half-period ` +
+            `(charge control and its collector's rise on the bleed alone): collector A, the ramp's source, then ` +
+            `rises on its R_C·C_T recovery rather than late, which would set the ramp low and the duty off`),
     },
   };
 }

@@ -27,13 +27,13 @@ import {
 } from "./timing-search.ts";
 import { INJECTION_MAX } from "./astable.ts";
 import {
-  BLEED_TURN_OFF_MAX,
-  BLEED_TURN_OFF_TARGET,
   MILLER_INDEX_MAX,
   MILLER_INDEX_TARGET,
   bleedFigures,
   bleedScaleForTurnOff,
   bleedTurnOffIndex,
+  turnOffLimits,
+  RAMP_CORE_TURN_OFF_MAX,
   millerIndex,
 } from "./base-bleed.ts";
 import { FOLLOWER_OFF_MARGIN_V, type TapDesign, followerChainThresholdHot_V, followerOffLevel_V } from "./tap.ts";
@@ -280,9 +280,10 @@ function millerChecked(
     const z = millerIndex(q.cob_F, fast.vcc_V, v.bleed_ohm, vbeOn(q, NOMINAL_TEMP_C), tShort_s);
     const millerScale = Number.isFinite(z) && z > MILLER_INDEX_MAX ? MILLER_INDEX_TARGET / z : undefined;
     const worst = fastTurnOff(v, q, db, fast);
+    const limits = turnOffLimits(ctx.spec.rampCore === true, ctx.f_Hz);
     const turnOffScale =
-      worst !== undefined && worst.w.index > BLEED_TURN_OFF_MAX
-        ? bleedScaleForTurnOff(v, q, db, worst.k, BLEED_TURN_OFF_TARGET)
+      worst !== undefined && worst.w.index > limits.max
+        ? bleedScaleForTurnOff(v, q, db, worst.k, limits.target)
         : undefined;
     if ((millerScale === undefined && turnOffScale === undefined) || rounds >= REBLEED_ROUNDS)
       return { search, corners, rounds };
@@ -302,10 +303,11 @@ function turnOffProblems(
   v: CoreValues,
   corners: SimCorner[],
   why: { passed: boolean; rounds: number },
+  limit: number,
 ): DesignProblem[] {
   const fast = corners.find((k) => k.name === "fast");
   const w = fast === undefined ? undefined : fastTurnOff(v, q, db, fast)?.w;
-  if (w === undefined || w.index <= BLEED_TURN_OFF_MAX) return [];
+  if (w === undefined || w.index <= limit) return [];
   return [
     problem(
       "timing",
@@ -316,10 +318,10 @@ function turnOffProblems(
         `transistor's base: at the fast corner it takes ${(w.total_s * 1e6).toFixed(2)} µs to leave conduction ` +
         `(storage, then its collector's rise against its own collector–base capacitance), ` +
         `${w.index.toFixed(2)} × the shortest half-period of ${(w.tShort_s * 1e6).toFixed(2)} µs (limit ` +
-        `${BLEED_TURN_OFF_MAX}): the collector does not reach its high level, the coupled swing shrinks and ` +
+        `${limit}): the collector does not reach its high level, the coupled swing shrinks and ` +
         `the core runs fast. ${strongerBleedWhyNot(why)}Use a lower frequency, a narrower duty range or a ` +
         `lower-gain timing transistor.`,
-      { limit: BLEED_TURN_OFF_MAX, actual: w.index, unit: "" },
+      { limit, actual: w.index, unit: "" },
     ),
   ];
 }
@@ -572,7 +574,16 @@ export function designTiming(
   const corners =
     checked.corners ??
     simulationCorners(v, q, db, envelopeCorners(envelopeOf(ctx)), { vMax: ctx.vMax_V, tMax: ctx.taMax_C });
-  problems.push(...turnOffProblems(q, db, v, corners, { passed: search.passed, rounds: checked.rounds ?? 0 }));
+  problems.push(
+    ...turnOffProblems(
+      q,
+      db,
+      v,
+      corners,
+      { passed: search.passed, rounds: checked.rounds ?? 0 },
+      turnOffLimits(ctx.spec.rampCore === true, ctx.f_Hz).max,
+    ),
+  );
   const inj = injection(ctx, q, db, v);
   if (inj > INJECTION_MAX)
     problems.push(
@@ -818,7 +829,9 @@ export function designTiming(
       "derived",
     ),
   ];
-  figures.push(...bleedFigures(v.bleed_ohm));
+  figures.push(
+    ...bleedFigures(v.bleed_ohm, turnOffLimits(ctx.spec.rampCore === true, ctx.f_Hz).max === RAMP_CORE_TURN_OFF_MAX),
+  );
   figures.push(...crossBleedFigures(ctx, q, db, v));
   return {
     search,
