@@ -64,14 +64,19 @@ describe("the R_C ladder between the coarse steps: 24 V, 1 A valve on the driven
     expect(step.timing.search.overdrive).toBeLessThan(OVERDRIVE_K);
   });
 
-  it("6.8 kΩ, the E24 value below 7.5 kΩ (IEC 60063:2015 Table 1), passes every limit and is kept", () => {
-    expect(sized.feasible).toBe(true);
-    expect(part(sized, "RC_A").value).toBe(6800);
-    expect(fig(sized, "collector_recovery")).toBeLessThanOrEqual(MAX_RECOVERY);
-    expect(fig(sized, "timing_overdrive")).toBeGreaterThanOrEqual(OVERDRIVE_K);
-    expect(sized.verdict.blocking.map((b) => b.rule)).not.toContain("base-diode-injection");
-    const d = sized.decisions?.find((x) => x.topic === "timing collector resistors");
-    expect(d?.choice).toBe("6.8 kΩ instead of 7.5 kΩ");
+  it("6.8 kΩ, the E24 value below 7.5 kΩ (IEC 60063:2015 Table 1), passes every core limit", () => {
+    const fine = coreAt(6800);
+    expect(fine.rC_ohm).toBe(6800);
+    expect(fine.timing.search.passed).toBe(true);
+    expect(fine.timing.search.worst.recovery).toBeLessThanOrEqual(MAX_RECOVERY);
+    expect(fine.timing.search.overdrive).toBeGreaterThanOrEqual(OVERDRIVE_K);
+  });
+
+  it("but the steps are not offered on this solenoid yet: the gate rail's reservoir delays the pull-in", () => {
+    // size.ts fineStepsOffered: the pull-in prediction does not carry the rail's charging time (measured).
+    expect(sized.feasible).toBe(false);
+    expect(part(sized, "RC_A").value).toBe(7500);
+    expect(sized.verdict.blocking.map((b) => b.rule)).toContain("collector-recovery");
   });
 
   it("the base diodes' injection 2·β·C_j·R_C/(R_B·C) falls under 0.35 with R_C alone (R_B, C unchanged)", () => {
