@@ -514,23 +514,33 @@ function tapStarved(chosen: CoreChoice): boolean {
 
 /**
  * The highest PWM frequency the buffered PNP tap is offered at: where it was simulated in agreement with both
- * model-card sets (the coverage grid's 6 V, 1 A, 1 kHz motor; a new user's lamp and motors at 200 Hz–1 kHz). At
- * 20 kHz the demo's 12 V, 0.75 and 1 A circulation fans agreed with the published cards but left their duty
- * range with the second set (duty at control 0 0.35–0.38 against at most 0.29): the chain's edges at that
- * frequency depend on the cards more than the model allows (ours, measured in native ngspice, 2026-12-05).
+ * model-card sets, the chain's delays with their slow end (docs/method.md, "The buffered tap"): 12 V, 0.75 and
+ * 1 A fans at 2 and 5 kHz (ours, measured in native ngspice, 2026-12-05). At 10 kHz the 1 A fan's fast corner
+ * ran at 16.6 kHz with the second set against the page's 14.35 kHz top (the timing core's frequency, not the
+ * chain's edges; not yet understood); at 20 kHz the 12 V fans are refused for their duty range by the edges'
+ * slow end, with or without this limit.
  */
-export const BUFFERED_PNP_MAX_HZ = 1000;
+export const BUFFERED_PNP_MAX_HZ = 5000;
 
 /**
  * The core with an emitter follower between the tapped collector and the PNP driver's tap resistor
  * (chains/driver-pnp-buffer.ts, docs/method.md "The buffered tap"): every core attempt again with the
  * buffered chain, but not the cross-returned bleed (its limits were measured with the tap on the
  * collector). Only where no unbuffered core passes or the collector cannot feed the driver through a tap
- * resistor, so every variant that passed before keeps its design. Null when the chain is not the PNP
- * driver or no core passes.
+ * resistor, so every variant that passed before keeps its design. Up to BUFFERED_PNP_MAX_HZ: the chain's
+ * delays carry their slow end (the sink's and the driver's turn-off at the typical gain, hot), so the
+ * duty range bounds both model-card sets (docs/method.md, "The buffered tap"). Not on a solenoid: with
+ * the pull-in timer the demo's 24 V, 0.75 and 1 A valves (2 kHz) simulated a hold of 6 µs against the
+ * predicted 128 ms (ours, measured 2026-12-05; not yet understood). Null when the chain is not the PNP
+ * driver, the load is a solenoid, the frequency is above the limit, or no core passes.
  */
 export function bufferedPnpCore(chosen: CoreChoice): CoreChoice | null {
-  if (chosen.spec.chain !== "bjt-driver-pnp" || chosen.spec.targets.pwm_Hz > BUFFERED_PNP_MAX_HZ) return null;
+  if (
+    chosen.spec.chain !== "bjt-driver-pnp" ||
+    chosen.spec.load_kind === "solenoid" ||
+    chosen.spec.targets.pwm_Hz > BUFFERED_PNP_MAX_HZ
+  )
+    return null;
   const why =
     [...chosen.core.timing.problems, ...chosen.core.tap.problems].find((p) => p.severity === "error")?.rule ??
     "duty-range-worst-case";
