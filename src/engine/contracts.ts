@@ -3,6 +3,7 @@
  * timing core; the timing stage sizes the core (and the tap network into the chain) to meet it.
  * All values are worst-case unless named `_nom`. Plain data, no files.
  */
+import type { BjtClass } from "../model/device.ts";
 import type { Figure } from "../model/figure.ts";
 import type { DesignProblem } from "../model/problem.ts";
 import type { StressCheck } from "../model/derating.ts";
@@ -66,6 +67,8 @@ export type ChainInputNeed =
       kind: "buffered-base";
       base: BaseCurrentNeed;
       inverting: boolean;
+      /** The follower's class: the timing class, or a stronger one (VariantSpec.followerClasses). */
+      follower: BjtClass;
     }
   | {
       /**

@@ -27,7 +27,9 @@ import { NOMINAL_TEMP_C } from "./shared/temperature.ts";
 import { type Ctx, makeContext, switchedVoltageNominal_V } from "./stages/context.ts";
 import { CHAIN_PLANNERS } from "./stages/chains/index.ts";
 import { planGateBuffer } from "./stages/chains/gate-buffer.ts";
-import { planDriverPnpBuffered } from "./stages/chains/driver-pnp-buffer.ts";
+import { BUFFERED_PNP_MAX_HZ, bufferedPnpOffered, planDriverPnpBuffered } from "./stages/chains/driver-pnp-buffer.ts";
+
+export { BUFFERED_PNP_MAX_HZ };
 import {
   GATE_EDGE_SHARE_FOLLOWER,
   type TapDesign,
@@ -476,6 +478,8 @@ export interface CoreChoice {
   core: ReturnType<typeof tapAndTiming>;
   /** The core on a regulated rail (stages/core-rail.ts): its largest current there, and why it was chosen. */
   rail?: { load_A: number; why: RailWhy; cap_F: number };
+  /** The tap follower's class, as an index into bufferedPnpCore's list, and why the buffer was taken. */
+  follower?: { at: number; why: string };
 }
 
 function coreOf(spec: VariantSpec, crossOffered = true): CoreChoice {
@@ -589,31 +593,56 @@ function tapStarved(chosen: CoreChoice): boolean {
 }
 
 /**
- * The highest PWM frequency the buffered PNP tap is offered at: where it was simulated in agreement with both
- * model-card sets (the coverage grid's 6 V, 1 A, 1 kHz motor; a new user's lamp and motors at 200 Hz–1 kHz). At
- * 20 kHz the demo's 12 V, 0.75 and 1 A circulation fans agreed with the published cards but left their duty
- * range with the second set (duty at control 0 0.35–0.38 against at most 0.29): the chain's edges at that
- * frequency depend on the cards more than the model allows (ours, measured in native ngspice, 2026-12-05).
- */
-export const BUFFERED_PNP_MAX_HZ = 1000;
-
-/**
  * The core with an emitter follower between the tapped collector and the PNP driver's tap resistor
  * (chains/driver-pnp-buffer.ts, docs/method.md "The buffered tap"): every core attempt again with the
  * buffered chain, but not the cross-returned bleed (its limits were measured with the tap on the
  * collector). Only where no unbuffered core passes or the collector cannot feed the driver through a tap
- * resistor, so every variant that passed before keeps its design. Null when the chain is not the PNP
- * driver or no core passes.
+ * resistor, so every variant that passed before keeps its design. Up to BUFFERED_PNP_MAX_HZ: the chain's
+ * delays carry their slow end (the sink's and the driver's turn-off at the typical gain, hot), so the
+ * duty range bounds both model-card sets (docs/method.md, "The buffered tap"). Not on a solenoid: with
+ * the pull-in timer the demo's 24 V, 0.75 and 1 A valves (2 kHz) simulated a hold of 6 µs against the
+ * predicted 128 ms (ours, measured 2026-12-05; not yet understood). Null when the chain is not the PNP
+ * driver, the load is a solenoid, the frequency is above the limit, or no core passes.
  */
-export function bufferedPnpCore(chosen: CoreChoice): CoreChoice | null {
-  if (chosen.spec.chain !== "bjt-driver-pnp" || chosen.spec.targets.pwm_Hz > BUFFERED_PNP_MAX_HZ) return null;
+export function bufferedPnpCore(chosen: CoreChoice, from = 0): CoreChoice | null {
+  if (!bufferedPnpOffered(chosen.spec)) return null;
   const why =
+    chosen.follower?.why ??
     [...chosen.core.timing.problems, ...chosen.core.tap.problems].find((p) => p.severity === "error")?.rule ??
     "duty-range-worst-case";
-  const plan = planDriverPnpBuffered(chosen.ctx, why);
-  if (plan.problems.some((p) => p.severity === "error")) return null;
-  const core = tapAndTiming(chosen.ctx, plan, false);
-  return core.timing.search.passed ? { ...chosen, plan, core } : null;
+  const classes = followerClassesOf(chosen.spec);
+  for (let at = from; at < classes.length; at++) {
+    const plan = planDriverPnpBuffered(chosen.ctx, why, classes[at]);
+    if (plan.problems.some((p) => p.severity === "error")) continue;
+    const core = tapAndTiming(chosen.ctx, plan, false);
+    if (core.timing.search.passed) return { ...chosen, plan, core, follower: { at, why } };
+  }
+  return null;
+}
+
+/**
+ * The tap follower's classes, smallest first: the timing class, then the stronger ones the variant carries
+ * (VariantSpec.followerClasses) that carry more current than it.
+ */
+function followerClassesOf(spec: VariantSpec): BjtClass[] {
+  const timing = spec.devices.timing_npn as BjtClass;
+  const more = (spec.followerClasses ?? []).filter((c) => c.ic_max_A > timing.ic_max_A);
+  return [timing, ...more.sort((a, b) => a.ic_max_A - b.ic_max_A)];
+}
+
+/**
+ * A buffered variant that is refused, sized again with the follower stepped up to each stronger class in
+ * turn (its core again, the follower's gain loads the collector less); the first that passes is kept,
+ * else the variant as it was (docs/method.md, "The buffered tap": the follower class by stress).
+ */
+function followerStepped(chosen: CoreChoice, out: SizedVariant): { chosen: CoreChoice; out: SizedVariant } {
+  if (out.feasible || chosen.follower === undefined) return { chosen, out };
+  for (let next = bufferedPnpCore(chosen, chosen.follower.at + 1); next !== null;) {
+    const alt = sizeChosen(next);
+    if (alt.feasible) return { chosen: next, out: alt };
+    next = bufferedPnpCore(next, next.follower!.at + 1);
+  }
+  return { chosen, out };
 }
 
 /**
@@ -638,8 +667,8 @@ export function bufferedGateCore(chosen: CoreChoice): CoreChoice | null {
  * feasible, so a refusal keeps its page as before.
  */
 function sizeInner(specIn: VariantSpec): SizedVariant {
-  const chosen = chooseCore(specIn);
-  const out = sizeChosen(chosen);
+  const first = chooseCore(specIn);
+  const { chosen, out } = followerStepped(first, sizeChosen(first));
   const corePassed = chosen.core.timing.search.passed;
   if (!railWanted(out, corePassed)) return out;
   const why: RailWhy = { rule: railRule(chosen, out), corePassed, above: [] };

@@ -5,7 +5,7 @@
  */
 import type { DeratingPolicy } from "../model/derating.ts";
 import { DEVICE_ROLES, type DesignRecord, type DeviceRole } from "../model/design.ts";
-import type { DeviceClass, ZenerClass } from "../model/device.ts";
+import type { BjtClass, DeviceClass, ZenerClass } from "../model/device.ts";
 import type { ChainKind, LoadKind } from "../model/kinds.ts";
 import type { DeviceChoice, ReturnGuardClasses, VariantSpec } from "../model/variant.ts";
 import { variantId } from "./variant-id.ts";
@@ -13,6 +13,7 @@ import { supplyWindow } from "../engine/shared/supply.ts";
 import { stressFor as stressStepsFor } from "../engine/devices/choose.ts";
 import { railByStress, railOffered } from "../engine/stages/core-rail.ts";
 import { seriesReverse } from "../engine/stages/reverse.ts";
+import { bufferedPnpOffered } from "../engine/stages/chains/driver-pnp-buffer.ts";
 
 /** Defaults of optional targets (values documented in docs/writing-a-design.md). */
 export const TARGET_DEFAULTS = {
@@ -50,6 +51,8 @@ export interface ExpandDeps {
   railZeners?: (rec: DesignRecord) => ZenerClass[];
   /** Optional: classes for the return-line reverse guard (VariantSpec.returnGuardClasses). */
   returnGuardClasses?: (rec: DesignRecord) => ReturnGuardClasses;
+  /** Optional: the tap follower's stronger classes (VariantSpec.followerClasses). */
+  followerClasses?: () => BjtClass[];
   policy: DeratingPolicy;
 }
 
@@ -73,10 +76,16 @@ export function expandDesign(rec: DesignRecord, deps: ExpandDeps): VariantSpec[]
   const stress = deps.stressClasses?.(rec) ?? {};
   const guard = deps.returnGuardClasses?.(rec);
   // Carried only where the variant gets a series diode (stages/reverse.ts), the guard's place.
-  const withFets = (spec: VariantSpec): VariantSpec =>
-    guard !== undefined && guard.fets.length > 0 && seriesReverse(spec) !== undefined
+  const followers = deps.followerClasses?.() ?? [];
+  // Carried only where the buffered tap is offered (size.ts bufferedPnpOffered), so every other spec stays.
+  const withFollowers = (spec: VariantSpec): VariantSpec =>
+    followers.length > 0 && bufferedPnpOffered(spec) ? { ...spec, followerClasses: [...followers] } : spec;
+  const withFets = (spec0: VariantSpec): VariantSpec => {
+    const spec = withFollowers(spec0);
+    return guard !== undefined && guard.fets.length > 0 && seriesReverse(spec) !== undefined
       ? { ...spec, returnGuardClasses: guard }
       : spec;
+  };
   // A variant carries the stress classes that are a step from the classes chosen for it
   // (choose.ts stressStepApplies), so a variant that needs none keeps its spec as before.
   const stressFor = (devices: Record<DeviceRole, DeviceClass>): Pick<VariantSpec, "stressClasses"> => {

@@ -7,6 +7,7 @@
 import type { DeratingPolicy } from "../model/derating.ts";
 import type { DeviceLibrary } from "../model/device.ts";
 import {
+  followerClasses,
   chooseDevices,
   chooseDevicesWithReasons,
   railZenerClasses,
@@ -25,6 +26,7 @@ export function libraryDeps(lib: DeviceLibrary, policy: DeratingPolicy): ExpandD
     stressClasses: (rec) => stressLadders(rec, lib),
     railZeners: (rec) => railZenerClasses(rec, lib),
     returnGuardClasses: (rec) => returnGuardClasses(rec, lib),
+    followerClasses: () => followerClasses(lib),
     policy,
   };
 }

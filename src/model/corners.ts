@@ -32,6 +32,12 @@ export interface Corner {
    * Absent: the maximum.
    */
   typicalLoad?: true;
+  /**
+   * The chain's delays at their slow end (CoreValues.delaySlow: the storage at the highest gain the model
+   * cards carry): set on the corners that put a duty at its top (src/engine/stages/worst-corners.ts SETS).
+   * Absent: the nominal delays.
+   */
+  slowEdges?: true;
 }
 
 export interface SimCorner extends Corner {

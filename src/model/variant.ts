@@ -1,5 +1,5 @@
 import type { DesignRecord, DeviceRole, SolenoidRecord } from "./design.ts";
-import type { DeviceClass, MosfetClass, ZenerClass } from "./device.ts";
+import type { BjtClass, DeviceClass, MosfetClass, ZenerClass } from "./device.ts";
 import type { ChainKind, LoadKind } from "./kinds.ts";
 import type { DeratingPolicy } from "./derating.ts";
 
@@ -43,6 +43,12 @@ export interface VariantSpec {
    * `returnGuardClasses`): present where the variant gets a series diode.
    */
   returnGuardClasses?: ReturnGuardClasses;
+  /**
+   * Stronger classes for the PNP driver's tap follower Q_BUF, smallest first (src/engine/devices/choose.ts
+   * `FOLLOWER_NPN_IDS`), tried by the engine after the timing class where that one's core or variant is
+   * refused: present only on PNP-driver variants the buffered tap is offered to (src/engine/size.ts).
+   */
+  followerClasses?: BjtClass[];
   /**
    * Set by the stress step only (src/engine/stages/return-fet.ts `returnFetSteps`): reverse polarity by
    * the N-MOSFET in the return line instead of the series diode, with the rules that refused the variant

@@ -11,7 +11,14 @@ import type { DesignRecord, DeviceRole } from "../../src/model/design.ts";
 import type { ChainKind, LoadKind } from "../../src/model/kinds.ts";
 import type { VariantSpec } from "../../src/model/variant.ts";
 import { indexLibrary } from "../../src/engine/devices/library.ts";
-import { chooseDevices, railZenerClasses, returnGuardClasses, stressClasses } from "../../src/engine/devices/choose.ts";
+import {
+  chooseDevices,
+  followerClasses,
+  railZenerClasses,
+  returnGuardClasses,
+  stressClasses,
+} from "../../src/engine/devices/choose.ts";
+import { bufferedPnpOffered } from "../../src/engine/stages/chains/driver-pnp-buffer.ts";
 import { seriesReverse } from "../../src/engine/stages/reverse.ts";
 import { supplyWindow } from "../../src/engine/shared/supply.ts";
 
@@ -175,9 +182,12 @@ export function makeSpec(o: SpecOpts): VariantSpec {
     policy: policy(),
     ...(rec.solenoid ? { solenoid: rec.solenoid } : {}),
   };
-  return o.guard === true && seriesReverse(spec) !== undefined
-    ? { ...spec, returnGuardClasses: returnGuardClasses(rec, library()) }
-    : spec;
+  // The tap follower's stronger classes where the buffered tap is offered, as builds carry them (expand.ts).
+  const withFollowers =
+    o.stress === true && bufferedPnpOffered(spec) ? { ...spec, followerClasses: followerClasses(library()) } : spec;
+  return o.guard === true && seriesReverse(withFollowers) !== undefined
+    ? { ...withFollowers, returnGuardClasses: returnGuardClasses(rec, library()) }
+    : withFollowers;
 }
 
 /**

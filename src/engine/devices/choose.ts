@@ -180,6 +180,20 @@ export function returnGuardClasses(record: DesignRecord, lib: DeviceLibrary): Re
   return { fets, clamps };
 }
 
+/**
+ * Classes the PNP driver's tap follower Q_BUF may be stepped up to, smallest first, where the timing class
+ * (its default) cannot carry the follower's current or heat (size.ts `bufferedPnpCore`, docs/method.md "The
+ * buffered tap"): the medium-current class, then the TO-220 class. Kept only where the variant then passes.
+ */
+export const FOLLOWER_NPN_IDS: readonly string[] = ["npn-medium", "npn-power-to220"];
+
+/** The classes of FOLLOWER_NPN_IDS present in the library, smallest first. */
+export function followerClasses(lib: DeviceLibrary): BjtClass[] {
+  return FOLLOWER_NPN_IDS.filter((id) => lib.has(id)).map(
+    (id) => checkFamily("driver_npn", getDevice(lib, id), "tap follower") as BjtClass,
+  );
+}
+
 /** The first class of each role's STRESS_DEVICE_IDS present in the library, for the roles the record does not bind. */
 export function stressClasses(record: DesignRecord, lib: DeviceLibrary): Partial<Record<DeviceRole, DeviceClass>> {
   const out: Partial<Record<DeviceRole, DeviceClass>> = {};

@@ -211,6 +211,16 @@ export function gainTempExponent(dev: BjtClass): number {
   return dev.hfe_tempco_perK * (NOMINAL_TEMP_C + ZERO_CELSIUS_K);
 }
 
+/**
+ * The typical gain curve at ic_A and temperature t_C as the second card set carries it: hfeTypicalCurve
+ * scaled by the cards' temperature law (T/T_nom)^XTB (gainTempExponent). The highest gain either card set
+ * gives a part of the class at that current (the published set holds the minimum curve).
+ */
+export function hfeTypicalAt(dev: BjtClass, ic_A: number, t_C: number): number {
+  const tK = t_C + ZERO_CELSIUS_K;
+  return hfeTypicalCurve(dev, ic_A) * (tK / (NOMINAL_TEMP_C + ZERO_CELSIUS_K)) ** gainTempExponent(dev);
+}
+
 /** Linear interpolation in x over ascending points; clamped below, extrapolated upward above. */
 function linearUp(points: [number, number][], x: number, singleProportional: boolean): number {
   const first = points[0]!;

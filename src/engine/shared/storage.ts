@@ -65,3 +65,27 @@ export function activeTurnOff(
   const rest = iOut_A * tauB * (x - Math.log1p(x));
   return { t_s: t, tLoss_s: (2 * beta * rest) / iC_A };
 }
+
+/**
+ * [src:millman-halkias-1972]
+ * The same active turn-off (activeTurnOff: dQ/dt = −I_out − Q/τ_B, i_C = Q/τ_F) read until the collector
+ * current has fallen from I_C to `iEnd_A` rather than to 0 (derived from the same solution):
+ *   t = τ_B·ln((I_C + β·I_out)/(I_end + β·I_out)),  τ_B = β·τ_F.
+ * A current sink's transistor (never saturated) hands its load's base drive back at I_end = the load's
+ * pull-up current; its time grows with β (slower recombination), so the highest gain the cards carry is
+ * the slow end. 0 when I_C ≤ I_end.
+ */
+export function activeFallTo_s(iC_A: number, tauF_s: number, iOut_A: number, beta: number, iEnd_A: number): number {
+  for (const [k, v] of [
+    ["iC_A", iC_A],
+    ["tauF_s", tauF_s],
+    ["iOut_A", iOut_A],
+    ["iEnd_A", iEnd_A],
+  ] as const) {
+    if (!Number.isFinite(v) || v < 0) throw new EngineMisuseError(`storage: ${k} must be finite and ≥ 0, got ${v}`);
+  }
+  if (!(beta > 0) || !Number.isFinite(beta)) throw new EngineMisuseError("storage: beta must be finite and > 0");
+  if (iC_A <= iEnd_A) return 0;
+  if (!(iOut_A > 0) && !(iEnd_A > 0)) return Number.POSITIVE_INFINITY;
+  return beta * tauF_s * Math.log((iC_A + beta * iOut_A) / (iEnd_A + beta * iOut_A));
+}

@@ -28,8 +28,7 @@ import type { BjtClass, DiodeClass } from "../../model/device.ts";
 import type { Figure } from "../../model/figure.ts";
 import { figure } from "../shared/figures.ts";
 import { roundDown, roundUp } from "../shared/e-series.ts";
-import { gainTempExponent, hfeTypicalCurve, vbeOn, vceSat } from "../shared/gain.ts";
-import { NOMINAL_TEMP_C, ZERO_CELSIUS_K } from "../shared/temperature.ts";
+import { hfeTypicalAt, vbeOn, vceSat } from "../shared/gain.ts";
 import type { SimCorner } from "../../model/corners.ts";
 import type { Ctx } from "./context.ts";
 import { type CoreValues, diodeVf_V } from "./core-model.ts";
@@ -226,8 +225,7 @@ export function bleedTurnOffIndex(
   if (!(tShort_s > 0) || !Number.isFinite(tShort_s)) return undefined;
   const rTh_ohm = v.rC_ohm * Math.max(k.kRCA, k.kRCB);
   const iC_A = k.vcc_V / rTh_ohm;
-  const beta =
-    hfeTypicalCurve(q, iC_A) * ((k.t_C + ZERO_CELSIUS_K) / (NOMINAL_TEMP_C + ZERO_CELSIUS_K)) ** gainTempExponent(q);
+  const beta = hfeTypicalAt(q, iC_A, k.t_C);
   const vbe_V = vbeOn(q, k.t_C);
   const rBA = v.rEndA_ohm * k.kEndA + v.pot_ohm * k.kPot * k.ctrl;
   const rBB = v.rEndB_ohm * k.kEndB + v.pot_ohm * k.kPot * (1 - k.ctrl);

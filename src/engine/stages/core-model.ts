@@ -56,6 +56,11 @@ export interface CoreValues {
   delayOn_s: number;
   delayOff_s: number;
   /**
+   * The delays at the slow end of the model cards' range (ChainPlan.delays `slow`), read at the corners
+   * marked Corner.slowEdges; absent: delayOn_s/delayOff_s everywhere.
+   */
+  delaySlow?: { on_s: number; off_s: number };
+  /**
    * The time the tapped collector takes to reach its high level against the chain input's charge (a
    * gate on the collector, ChainPlan.collectorRise), s; absent: no such input. Read by the recovery
    * check only (worst-corners.ts recoveryIndex): the evaluation assumes the collector recovered.
@@ -501,9 +506,10 @@ function evalFrom(v: CoreValues, k: Corner, made: Prefix): CoreEval {
   const cX = v.c_F * (tapA ? k.kCA : k.kCB);
   const dtTh_s = thresholdDelay_s(made.riseR_ohm * cX, made.riseHigh_V, made.riseFrom_V, v.vThTap_V);
   const dt = dtTh_s ?? timing.period_s;
-  const tOn = v.inverting
-    ? timing.tAoff_s + dt + v.delayOff_s - v.delayOn_s
-    : timing.tAoff_s - dt - v.delayOn_s + v.delayOff_s;
+  const slow = k.slowEdges === true ? v.delaySlow : undefined;
+  const dOn = slow === undefined ? v.delayOn_s : slow.on_s;
+  const dOff = slow === undefined ? v.delayOff_s : slow.off_s;
+  const tOn = v.inverting ? timing.tAoff_s + dt + dOff - dOn : timing.tAoff_s - dt - dOn + dOff;
   const duty = Math.min(1, Math.max(0, tOn / timing.period_s));
   const f_Hz = 1 / timing.period_s;
   const vCutInOut_V = timing.returnA_V;

@@ -91,7 +91,7 @@ export function designBufferedBaseTap(
   capRc: (r_ohm: number) => number,
 ): TapDesign {
   const b = need.base;
-  const q = ctx.spec.devices.timing_npn as BjtClass;
+  const q = need.follower;
   const tol = ctx.rTol;
   const pol = ctx.spec.policy;
   const alpha = BUFFER_SHARE_ALPHA;

@@ -391,7 +391,7 @@ function recoveryFormula(gateRise_s: number | undefined): string {
 function coreBase(
   tap: TapDesign,
   plan: ChainPlan,
-  delays: { on_s: number; off_s: number },
+  delays: { on_s: number; off_s: number; slow?: { on_s: number; off_s: number } },
   diodes: boolean,
   cross: boolean,
   startNet: boolean,
@@ -405,6 +405,7 @@ function coreBase(
     vThTap_V: tap.vThTap_V,
     delayOn_s: delays.on_s,
     delayOff_s: delays.off_s,
+    ...(delays.slow !== undefined ? { delaySlow: { on_s: delays.slow.on_s, off_s: delays.slow.off_s } } : {}),
     ...(plan.collectorRise !== undefined ? { gateRise_s: plan.collectorRise(tap.info) } : {}),
     ...(tap.preLinear_ohm !== undefined ? { preLinear_ohm: tap.preLinear_ohm } : {}),
     ...(tap.follower !== undefined ? { follower: tap.follower } : {}),

@@ -47,6 +47,8 @@ interface Fixed {
   kCB: Dir;
   /** The chain input's clamp at its typical end (Corner.typicalLoad): the fastest corners. */
   typicalLoad?: true;
+  /** The chain's delays at their slow end (Corner.slowEdges): the sets that put a duty at its top. */
+  slowEdges?: true;
 }
 
 const ends = (d: Dir): number[] => (d === 0 ? [-1, 1] : [d]);
@@ -83,19 +85,20 @@ export function cornerSet(e: Envelope, fx: Fixed): Corner[] {
     kRCA: m(e.rTol, ra!),
     kRCB: m(e.rTol, rb!),
     ...(fx.typicalLoad === true ? { typicalLoad: true as const } : {}),
+    ...(fx.slowEdges === true ? { slowEdges: true as const } : {}),
   }));
 }
 
 /** Which corners make each quantity extreme (the signs follow from the argument above). */
 export const SETS = {
   /** Duty at control 0, highest: R_BA high, R_BB (end B + whole pot) low. */
-  dMinHi: { kEndA: 1, kEndB: -1, kPot: -1, kCA: 0, kCB: 0 },
+  dMinHi: { kEndA: 1, kEndB: -1, kPot: -1, kCA: 0, kCB: 0, slowEdges: true },
   dMinLo: { kEndA: -1, kEndB: 1, kPot: 1, kCA: 0, kCB: 0 },
   /** Duty at control 1, lowest: R_BA (end A + whole pot) low, R_BB high. */
   dMaxLo: { kEndA: -1, kEndB: 1, kPot: -1, kCA: 0, kCB: 0 },
-  dMaxHi: { kEndA: 1, kEndB: -1, kPot: 1, kCA: 0, kCB: 0 },
+  dMaxHi: { kEndA: 1, kEndB: -1, kPot: 1, kCA: 0, kCB: 0, slowEdges: true },
   /** Control ½: the pot is on both sides, its sign depends on the end stops: swept. */
-  dMidHi: { kEndA: 1, kEndB: -1, kPot: 0, kCA: 0, kCB: 0 },
+  dMidHi: { kEndA: 1, kEndB: -1, kPot: 0, kCA: 0, kCB: 0, slowEdges: true },
   dMidLo: { kEndA: -1, kEndB: 1, kPot: 0, kCA: 0, kCB: 0 },
   /** Period longest / shortest: every R_B and C at the same end. */
   fLo: { kEndA: 1, kEndB: 1, kPot: 1, kCA: 1, kCB: 1 },
@@ -226,6 +229,8 @@ export function worstCaseBrute(v: CoreValues, q: BjtClass, db: DiodeClass, all: 
       const e = evalCore(v, q, db, k, ctrl);
       put(w.f, e.f_Hz);
       put(d, e.duty);
+      // The duty also with the chain's delays at their slow end (Corner.slowEdges).
+      if (v.delaySlow !== undefined) put(d, evalCore(v, q, db, { ...k, slowEdges: true }, ctrl).duty);
       if (e.dtTh_s === null) reached = false;
       recovery = Math.max(recovery, recoveryIndex(v, e.timing, e.timing));
       // The frequency also with the chain input's clamp at its typical end (Corner.typicalLoad).

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { activeTurnOff, storageTime_s } from "../../../src/engine/shared/storage.ts";
+import { activeFallTo_s, activeTurnOff, storageTime_s } from "../../../src/engine/shared/storage.ts";
 import { expectClose } from "../../helpers/close.ts";
 
 // Charge-control storage time t_s = τ_s·ln((I_B1 + I_B2)/(I_C/β + I_B2)) (Millman & Halkias,
@@ -60,5 +60,32 @@ describe("active-region turn-off (a Darlington's output stage)", () => {
     expect(activeTurnOff(1, tauF, 0.01, 10).t_s).toBeLessThan(activeTurnOff(1, tauF, 0.01, 100).t_s);
     expectClose(activeTurnOff(1, tauF, 0.01, 1e9).t_s, tauF / 0.01, 1e-6);
     expect(activeTurnOff(1, tauF, 0, 20).tLoss_s).toBeCloseTo(2 * 20 * 50e-9, 15);
+  });
+});
+
+// The active fall read to a current I_end > 0 (a current sink's transistor handing the PNP's base back
+// at its pull-up's current): the same charge equation as activeTurnOff (Millman & Halkias, charge
+// control, from memory), checked against its step-by-step integration and its own limit at I_end = 0.
+describe("active fall to a current (activeFallTo_s)", () => {
+  it("matches the charge equation integrated step by step down to I_end", () => {
+    // The demo's 12 V, 1 A fan's sink at its slow end, about: I_C 0.29 A, f_T 3 MHz, 1.1 mA pull-out,
+    // β 80 (typical, hot), handing back at the 44 mA pull-up current (ours, measured in ngspice 2026-12-05).
+    const [iC, tauF, iOut, beta, iEnd] = [0.29, 1 / (2 * Math.PI * 3e6), 0.0011, 80, 0.044];
+    const tauB = beta * tauF;
+    let q = iC * tauF;
+    let t = 0;
+    const dt = 1e-10;
+    while (q / tauF > iEnd) {
+      q += (-iOut - q / tauB) * dt;
+      t += dt;
+    }
+    expectClose(activeFallTo_s(iC, tauF, iOut, beta, iEnd), t, 1e-3);
+  });
+  it("is activeTurnOff's time at I_end = 0, 0 when the current is already below I_end, and grows with β", () => {
+    const tauF = 53e-9;
+    expectClose(activeFallTo_s(0.3, tauF, 0.001, 30, 0), activeTurnOff(0.3, tauF, 0.001, 30).t_s, 1e-12);
+    expect(activeFallTo_s(0.03, tauF, 0.001, 30, 0.044)).toBe(0);
+    expect(activeFallTo_s(0.3, tauF, 0.001, 29, 0.044)).toBeLessThan(activeFallTo_s(0.3, tauF, 0.001, 80, 0.044));
+    expect(() => activeFallTo_s(0.3, tauF, -1, 30, 0)).toThrow(/iOut_A/);
   });
 });

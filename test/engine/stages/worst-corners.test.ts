@@ -24,6 +24,8 @@ for (const supply_V of [12, 24])
     ["darlington-3", "led", 4000, 1],
     ["darlington-2", "lamp", 1000, 0.5],
     ["bjt-driver-pnp", "resistive", 200, 0.5],
+    // A winding on the PNP driver: its delays have a slow end (Corner.slowEdges), read at the duty tops.
+    ["bjt-driver-pnp", "motor", 5000, 1],
     ["mosfet-driver", "led", 3000, 3],
   ] as const)
     sample.push({
@@ -87,5 +89,35 @@ describe("asymmetric end stops", () => {
     // the search's walk); here: the reached range is within a few points of the required one.
     expect(0.3 - t.search.worst.dMin.hi).toBeLessThan(0.06);
     expect(t.search.worst.dMax.lo - 0.9).toBeLessThan(0.06);
+  });
+});
+
+describe("the chain's delays at their slow end (CoreValues.delaySlow)", () => {
+  it("raise only the duty ranges' tops, by the extra delay over the period at most (derived)", () => {
+    const spec = makeSpec({
+      supply_V: 12,
+      load_A: 1,
+      chain: "bjt-driver-pnp",
+      load_kind: "motor",
+      pwm_Hz: 5000,
+      duty: [0.3, 0.85],
+      override: { timing_npn: NPN_HIGH_GAIN },
+    });
+    const ctx = makeContext(spec);
+    const plan = CHAIN_PLANNERS[spec.chain](ctx);
+    const { delaySlow: _s, ...v } = designTapAndTiming(ctx, plan).timing.values;
+    const q = spec.devices.timing_npn as BjtClass;
+    const db = spec.devices.signal_diode as DiodeClass;
+    const sets = envelopeCorners(envelopeOf(ctx));
+    const extra_s = 4e-6;
+    const plain = worstCaseFast(v, q, db, sets);
+    const slow = worstCaseFast({ ...v, delaySlow: { on_s: v.delayOn_s, off_s: v.delayOff_s + extra_s } }, q, db, sets);
+    for (const k of ["dMin", "dMid", "dMax"] as const) {
+      expect(slow[k].lo).toBe(plain[k].lo);
+      expect(slow[k].hi).toBeGreaterThan(plain[k].hi);
+      // The top moves by extra/T at the corner that sets it: no more than extra·f_max.
+      expect(slow[k].hi - plain[k].hi).toBeLessThanOrEqual(extra_s * plain.f.hi + 1e-12);
+    }
+    expect(slow.f).toEqual(plain.f);
   });
 });

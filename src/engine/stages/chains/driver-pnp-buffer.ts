@@ -10,6 +10,7 @@
  * cannot feed the driver, so no variant that passed before changes.
  */
 import type { BjtClass } from "../../../model/device.ts";
+import type { VariantSpec } from "../../../model/variant.ts";
 import { EngineMisuseError } from "../../../model/errors.ts";
 import { formatValue } from "../../../model/format.ts";
 import { checkStress } from "../../shared/derating.ts";
@@ -19,6 +20,25 @@ import { transistor } from "../../../circuit/parts.ts";
 import type { Ctx } from "../context.ts";
 import { planDriverPnp } from "./driver-pnp.ts";
 import type { ChainPlan, TapInfo } from "./types.ts";
+
+/**
+ * The highest PWM frequency the buffered PNP tap is offered at: where it was simulated in agreement with both
+ * model-card sets, the chain's delays with their slow end (docs/method.md, "The buffered tap"): 12 V, 0.75 and
+ * 1 A fans at 2 and 5 kHz (ours, measured in native ngspice, 2026-12-05). At 10 kHz the 1 A fan's fast corner
+ * ran at 16.6 kHz with the second set against the page's 14.35 kHz top (the timing core's frequency, not the
+ * chain's edges; not yet understood); at 20 kHz the 12 V fans are refused for their duty range by the edges'
+ * slow end, with or without this limit.
+ */
+export const BUFFERED_PNP_MAX_HZ = 5000;
+
+/**
+ * Whether the buffered tap is offered to a variant (size.ts bufferedPnpCore): the PNP driver, up to
+ * BUFFERED_PNP_MAX_HZ, not on a solenoid (with the pull-in timer the demo's 24 V valves at 2 kHz simulated a
+ * hold of 6 µs against the predicted 128 ms; ours, measured 2026-12-05, not yet understood).
+ */
+export function bufferedPnpOffered(spec: Pick<VariantSpec, "chain" | "load_kind" | "targets">): boolean {
+  return spec.chain === "bjt-driver-pnp" && spec.load_kind !== "solenoid" && spec.targets.pwm_Hz <= BUFFERED_PNP_MAX_HZ;
+}
 
 /**
  * The buffer's dissipation, W (derived): on, the emitter one V_BE below a collector that sags
@@ -50,12 +70,16 @@ export function bufferDissipation_W(o: {
 }
 
 /** Plan of the buffered PNP-driver chain; `why` is the failure every unbuffered core attempt gave. */
-export function planDriverPnpBuffered(ctx: Ctx, why: string): ChainPlan {
+export function planDriverPnpBuffered(
+  ctx: Ctx,
+  why: string,
+  q: BjtClass = ctx.spec.devices.timing_npn as BjtClass,
+): ChainPlan {
   const inner = planDriverPnp(ctx);
   const base = inner.need;
   if (base.kind !== "base-current")
     throw new EngineMisuseError(`driver-pnp-buffer: the PNP driver's input is "${base.kind}", not a base current`);
-  const q = ctx.spec.devices.timing_npn as BjtClass;
+  const timingClass = ctx.spec.devices.timing_npn as BjtClass;
   const pol = ctx.spec.policy;
   const tapNet = base.inverting ? "cb" : "ca";
   const bufferOf = (tap: TapInfo): NonNullable<TapInfo["buffer"]> => {
@@ -64,7 +88,7 @@ export function planDriverPnpBuffered(ctx: Ctx, why: string): ChainPlan {
   };
   return {
     ...inner,
-    need: { kind: "buffered-base", base, inverting: base.inverting },
+    need: { kind: "buffered-base", base, inverting: base.inverting, follower: q },
     delays: (tap) => inner.delays(tap),
     finish(tap, op) {
       const f = inner.finish(tap, op);
@@ -139,6 +163,7 @@ export function planDriverPnpBuffered(ctx: Ctx, why: string): ChainPlan {
             topic: "Tap buffer",
             choice:
               "emitter follower between the timing collector and R_T " +
+              (q.id === timingClass.id ? "" : `(${q.title}, stepped up from the timing class under stress) `) +
               `(R_C ${formatValue(tap.rC_ohm, "Ω")} feeds only its base ` +
               `current, at most ${formatValue(buf.iBase_A, "A")})`,
             reason:

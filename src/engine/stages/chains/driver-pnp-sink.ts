@@ -9,7 +9,7 @@
 import type { BjtClass } from "../../../model/device.ts";
 import { checkStress } from "../../shared/derating.ts";
 import { figure, problem } from "../../shared/figures.ts";
-import { hfeMin, vbeOn, vbeSat, vceSat } from "../../shared/gain.ts";
+import { hfeMin, hfeTypicalAt, vbeOn, vbeSat, vceSat } from "../../shared/gain.ts";
 import { nearest, roundDown } from "../../shared/e-series.ts";
 import { conductionLossBjt_W } from "../../shared/losses.ts";
 import { largestResistor_W, resistor, transistor } from "../../../circuit/parts.ts";
@@ -23,13 +23,14 @@ import {
   switchOffVoltage_V,
   switchSteadyChecks,
   tapCurrent_A,
+  tapPullOut_ohm,
 } from "./common.ts";
 import { bjtDriveLimit_A } from "../../shared/drive-limit.ts";
 import { WEAK_TURNOFF_FACTOR } from "./bjt-single.ts";
 import type { ChainPlan, TapInfo } from "./types.ts";
 import { pnpGainFigures, pnpLossFigures, pnpLosses, pnpPowerPart, pnpSwitchingLoss_W } from "./pnp-power.ts";
 import { vceSatNominal_V } from "./sat-nominal.ts";
-import { storageTime_s } from "../../shared/storage.ts";
+import { activeFallTo_s, storageTime_s } from "../../shared/storage.ts";
 import { NOMINAL_TEMP_C } from "../../shared/temperature.ts";
 import {
   CLAMP_BIAS_A,
@@ -162,17 +163,50 @@ export function planDriverPnpSink(ctx: Ctx, plain: PlainDrive): ChainPlan {
     checks: [],
     delays(tap) {
       const at = atTap(tap);
+      // The sink's transistor is never saturated: it lets go of the PNP's base once its forward charge has
+      // left through the tap's pull-out V_BE/R_pull-out and by recombination, down to the pull-up's current
+      // (shared/storage.ts activeFallTo_s; τ_F = 1/(2π·f_T)). Nominal: the minimum gain, as the published
+      // cards carry it; slow end: the sink's largest current at the typical gain, hot, the hot V_BE.
+      const tauF = qd.ft_Hz === undefined ? 0 : 1 / (2 * Math.PI * qd.ft_Hz);
+      const pullOut = tapPullOut_ohm(tap);
+      const tDrv = activeFallTo_s(
+        at.iSetNom_A,
+        tauF,
+        vbeOn(qd, NOMINAL_TEMP_C) / pullOut,
+        hfeMin(qd, Math.max(at.iSetNom_A, 1e-6), NOMINAL_TEMP_C),
+        iPUn,
+      );
+      const tDrvS = activeFallTo_s(
+        at.iSet.max_A,
+        tauF,
+        vbeOn(qd, ctx.taMax_C) / pullOut,
+        hfeTypicalAt(qd, Math.max(at.iSet.max_A, 1e-6), ctx.taMax_C),
+        iPUn,
+      );
       if (!inductive)
         return {
           on_s: qp.t_rise_s / 2,
-          off_s: WEAK_TURNOFF_FACTOR * qp.t_storage_s + qp.t_fall_s / 2,
-          note: "t_r/2 on; 2·t_s,pnp + t_f/2 off (the current-sink driver does not saturate)",
+          off_s: tDrv + WEAK_TURNOFF_FACTOR * qp.t_storage_s + qp.t_fall_s / 2,
+          note: "t_r/2 on; t_off,sink + 2·t_s,pnp + t_f/2 off (the sink's transistor leaves its active region)",
+          slow: { on_s: qp.t_rise_s / 2, off_s: tDrvS + WEAK_TURNOFF_FACTOR * qp.t_storage_s + qp.t_fall_s / 2 },
         };
       const tsP = storageTime_s(qp.t_storage_s, Math.max(0, at.iSetNom_A - iPUn), iPUn, ctx.iNom_A, betaPnom);
+      // The slow end: the sink's largest current into a PNP at the highest gain the cards carry (the
+      // typical curve, hot) (derived; docs/method.md).
+      const tsPs = storageTime_s(
+        qp.t_storage_s,
+        Math.max(0, at.iSet.max_A - iPUn),
+        iPUn,
+        ctx.iNom_A,
+        hfeTypicalAt(qp, ctx.iNom_A, ctx.taMax_C),
+      );
       return {
         on_s: qp.t_rise_s,
-        off_s: tsP,
-        note: "t_r on; t_s,pnp off (charge control; the current-sink driver does not saturate)",
+        off_s: tDrv + tsP,
+        note:
+          "t_r on; t_off,sink + t_s,pnp off (charge control: the sink's transistor leaves its active region, " +
+          "then the PNP its saturation; up to the typical gain, hot, at the duty's top)",
+        slow: { on_s: qp.t_rise_s, off_s: Math.max(tDrv + tsP, tDrvS + tsPs) },
       };
     },
     finish(tap, op) {

@@ -7,7 +7,7 @@
 import type { BjtClass } from "../../../model/device.ts";
 import { nearest, roundDown } from "../../shared/e-series.ts";
 import { problem } from "../../shared/figures.ts";
-import { hfeMin, vbeOn, vbeSat, vceSat } from "../../shared/gain.ts";
+import { hfeMin, hfeTypicalAt, vbeOn, vbeSat, vceSat } from "../../shared/gain.ts";
 import { conductionLossBjt_W } from "../../shared/losses.ts";
 import { largestResistor_W, resistor, transistor } from "../../../circuit/parts.ts";
 import { planDriverPnpSink } from "./driver-pnp-sink.ts";
@@ -148,10 +148,31 @@ export function planDriverPnp(ctx: Ctx): ChainPlan {
       const iBd1 = tapCurrent_A(tap, ctx.vNom_V, vClamp);
       const tsD = storageTime_s(qd.t_storage_s, iBd1, vbeOn(qd, NOMINAL_TEMP_C) / tapPullOut_ohm(tap), iRbpN, betaDnom);
       const tsP = storageTime_s(qp.t_storage_s, Math.max(0, iRbpN - iPUn), iPUn, ctx.iNom_A, betaPnom);
+      // The slow end: both stores at the highest gain the cards carry (the typical curve, hot) and the
+      // strongest drive (V_cc,max, R_B at −tol), pulled out by the hot V_BE (derived; docs/method.md).
+      const iBd1s = tapCurrent_A(tap, ctx.vMax_V, vClamp);
+      const iRbpS = Math.max(0, (ctx.vMax_V - vEBn - vceSat(qd, iCD)) / (rBP * (1 - ctx.rTol)));
+      const tsDs = storageTime_s(
+        qd.t_storage_s,
+        iBd1s,
+        vbeOn(qd, ctx.taMax_C) / tapPullOut_ohm(tap),
+        iRbpS,
+        hfeTypicalAt(qd, Math.max(iRbpS, 1e-6), ctx.taMax_C),
+      );
+      const tsPs = storageTime_s(
+        qp.t_storage_s,
+        Math.max(0, iRbpS - iPUn),
+        iPUn,
+        ctx.iNom_A,
+        hfeTypicalAt(qp, ctx.iNom_A, ctx.taMax_C),
+      );
       return {
         on_s: qp.t_rise_s,
         off_s: tsD + tsP,
-        note: "t_r on; t_s,drv + t_s,pnp off (charge control, winding clamps the edges)",
+        note:
+          "t_r on; t_s,drv + t_s,pnp off (charge control, winding clamps the edges; " +
+          "up to the typical gain, hot, at the duty's top)",
+        slow: { on_s: qp.t_rise_s, off_s: Math.max(tsD + tsP, tsDs + tsPs) },
       };
     },
     finish(tap, op) {

@@ -115,7 +115,13 @@ export interface ChainPlan extends StageResult {
   vSwNom_V: number;
   vSwMax_V: number;
   /** Stage-by-stage drive margins are in `figures`; this is the net the load's switch drives. */
-  delays(tap: TapInfo): { on_s: number; off_s: number; note: string };
+  /**
+   * The delays from the tap's edges to the load's at the chain's nominal drive. `slow`, when given: the
+   * same at the end of the model cards' range that stretches the load's on-time most (storage at the
+   * highest gain either card set carries: docs/method.md, "The buffered tap"); the worst-case corners
+   * that push the duty up read it (worst-corners.ts SETS, Corner.slowEdges). Absent: one pair for all.
+   */
+  delays(tap: TapInfo): { on_s: number; off_s: number; note: string; slow?: { on_s: number; off_s: number } };
   /**
    * The time the collector the chain's input hangs on takes to reach its high level against the input's
    * own charge (a gate on the collector: mosfet-logic), s, the worst over the supply; absent: the input
