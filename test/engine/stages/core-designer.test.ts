@@ -38,7 +38,6 @@ const specOf = (id: string): VariantSpec => {
   }
   throw new Error(`demo variant ${id} missing`);
 };
-const fig = (s: SizedVariant, key: string): number => s.figures.find((f) => f.key === key)!.value;
 const part = (s: SizedVariant, role: string) => s.circuit!.parts.find((p) => p.role === role)!;
 
 describe("the R_C ladder between the coarse steps: 24 V, 1 A valve on the driven MOSFET (2 kHz, 30–85 %)", () => {
