@@ -41,26 +41,10 @@ import {
   type RunPlan,
 } from "../src/verify/runs.ts";
 import { argValue } from "./args.ts";
+import type { RunRecord } from "./run-record.ts";
 
 /** The long reference plan (`--reference`), defined once in the verifier. */
 const REFERENCE_PLAN: RunPlan = REFERENCE_RUN_PLAN;
-
-interface RunRecord {
-  id: string;
-  kind: string;
-  ctrl: number;
-  level: number;
-  cpu_ms: number;
-  wall_ms: number;
-  points: number;
-  tStop_s: number;
-  tEnd_s: number;
-  stopped: boolean;
-  /** The variant's predicted frequency, Hz. */
-  f_Hz: number;
-  /** What the engine was asked: the deck without its comment lines, and the vectors saved (sha256). */
-  deck: string;
-}
 
 /** The class of an engine call, from the deck and the caller (the async stack names it). */
 function kindOf(deck: string, stack: string): string {

@@ -11,19 +11,7 @@
  *   node --import tsx bench/sim-runs.ts runs-1.jsonl,runs-2.jsonl
  */
 import { readFileSync } from "node:fs";
-
-interface RunRecord {
-  id: string;
-  kind: string;
-  ctrl: number;
-  level: number;
-  cpu_ms: number;
-  points: number;
-  tStop_s: number;
-  tEnd_s: number;
-  stopped: boolean;
-  f_Hz: number;
-}
+import type { RunRecord } from "./run-record.ts";
 
 const files = (process.argv[2] ?? "").split(",").filter(Boolean);
 if (files.length === 0) {

@@ -64,3 +64,25 @@ export function lastRow(out: string): number[] {
 export function withStatements(netlist: string, lines: string[]): string {
   return netlist.replace(/^\.end\n?$/m, `${lines.join("\n")}\n.end\n`);
 }
+
+/**
+ * The statements that read a ramp-stage deck's duty over periods 60–70 of collector A (the load on while the
+ * switch node is below half the supply, the tap high above it): `don`, `dtap`, `t1`, `t2`, with `extra`
+ * probes and measures added before and after the run (ramp-fast and ramp-winding tests).
+ */
+export function rampDutyStatements(half_V: number, extra: { probes?: string[]; measures?: string[] } = {}): string[] {
+  return [
+    `Bdon don 0 V=u(${half_V}-v(sw))`,
+    `Bdtap dtap 0 V=u(v(tap)-${half_V})`,
+    ...(extra.probes ?? []),
+    ".control",
+    "run",
+    `meas tran t1 when v(ca)=${half_V} rise=60`,
+    `meas tran t2 when v(ca)=${half_V} rise=70`,
+    "meas tran don avg v(don) from=t1 to=t2",
+    "meas tran dtap avg v(dtap) from=t1 to=t2",
+    ...(extra.measures ?? []),
+    "quit",
+    ".endc",
+  ];
+}

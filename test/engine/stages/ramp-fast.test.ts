@@ -20,7 +20,7 @@ import { renderNetlist, setCtrl } from "../../../src/render/netlist.ts";
 import { setEmf } from "../../../src/verify/deck.ts";
 import type { DesignRecord } from "../../../src/model/design.ts";
 import { REPO } from "../../records/project.ts";
-import { hasNgspice, meas, runNgspice, withStatements } from "../../render/ngspice.ts";
+import { hasNgspice, meas, rampDutyStatements, runNgspice, withStatements } from "../../render/ngspice.ts";
 import { tranTo } from "./ramp-runs.ts";
 
 const project = await loadProject(REPO);
@@ -74,21 +74,7 @@ describe("the ramp stage at 20–25 kHz: the fixed core's bleed sized for a cris
         const long = setEmf(setCtrl(tranTo(netlist, PERIODS / c.pwm_Hz), 0.5), fig("motor_emf_ctrl_mid"));
         const half = spec.supply_V / 2;
         const run = (deck: string) => {
-          const text = runNgspice(
-            withStatements(deck, [
-              `Bdon don 0 V=u(${half}-v(sw))`,
-              `Bdtap dtap 0 V=u(v(tap)-${half})`,
-              ".control",
-              "run",
-              `meas tran t1 when v(ca)=${half} rise=60`,
-              `meas tran t2 when v(ca)=${half} rise=70`,
-              "meas tran don avg v(don) from=t1 to=t2",
-              "meas tran dtap avg v(dtap) from=t1 to=t2",
-              "quit",
-              ".endc",
-            ]),
-            300_000,
-          );
+          const text = runNgspice(withStatements(deck, rampDutyStatements(half)), 300_000);
           return {
             load: meas(text, "don"),
             tap: meas(text, "dtap"),

@@ -18,7 +18,7 @@ import { renderNetlist, setCtrl } from "../../../src/render/netlist.ts";
 import { setEmf } from "../../../src/verify/deck.ts";
 import type { DesignRecord } from "../../../src/model/design.ts";
 import { REPO } from "../../records/project.ts";
-import { hasNgspice, meas, runNgspice, withStatements } from "../../render/ngspice.ts";
+import { hasNgspice, meas, rampDutyStatements, runNgspice, withStatements } from "../../render/ngspice.ts";
 import { tranTo } from "./ramp-runs.ts";
 
 const project = await loadProject(REPO);
@@ -75,22 +75,17 @@ describe(`the ramp stage on a motor at 15 kHz (${ID}, the growers' first ask)`, 
       const half = spec.supply_V / 2;
       const run = (ctrl: number, emf_V: number) =>
         runNgspice(
-          withStatements(setEmf(setCtrl(long, ctrl), emf_V), [
-            `Bdon don 0 V=u(${half}-v(sw))`,
-            `Bdtap dtap 0 V=u(v(tap)-${half})`,
-            "Bdfw dfw 0 V=v(sw)-v(vbus)",
-            ".control",
-            "run",
-            `meas tran t1 when v(ca)=${half} rise=60`,
-            `meas tran t2 when v(ca)=${half} rise=70`,
-            "meas tran don avg v(don) from=t1 to=t2",
-            "meas tran dtap avg v(dtap) from=t1 to=t2",
-            "meas tran imin min i(Vsense) from=t1 to=t2",
-            "meas tran imean avg i(Vsense) from=t1 to=t2",
-            "meas tran vfw max v(dfw) from=t1 to=t2",
-            "quit",
-            ".endc",
-          ]),
+          withStatements(
+            setEmf(setCtrl(long, ctrl), emf_V),
+            rampDutyStatements(half, {
+              probes: ["Bdfw dfw 0 V=v(sw)-v(vbus)"],
+              measures: [
+                "meas tran imin min i(Vsense) from=t1 to=t2",
+                "meas tran imean avg i(Vsense) from=t1 to=t2",
+                "meas tran vfw max v(dfw) from=t1 to=t2",
+              ],
+            }),
+          ),
           300_000,
         );
       // Control ½ at the motor's back-EMF the engine predicts there (as the verifier's runs: motor-runs.ts).
