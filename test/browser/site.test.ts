@@ -21,8 +21,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { BuiltCatalogue, BuiltVariant } from "../../src/model/catalogue.ts";
 import { writeSite } from "../../src/site/write.ts";
 import { startServer } from "../../src/cli/serve.ts";
-import { expandDesign } from "../../src/expand/index.ts";
-import { chooseDevices } from "../../src/engine/devices/choose.ts";
+import { expandDesign, libraryDeps } from "../../src/expand/index.ts";
 import { sizeVariant } from "../../src/engine/index.ts";
 import { renderVariantViews } from "../../src/render/variant.ts";
 import { listFiles } from "../site/build-dir.ts";
@@ -161,10 +160,9 @@ describe.skipIf(!CHROMIUM)("the published site in a browser", () => {
             targets: { ...d.record.targets, pwm_Hz: inp.pwm_Hz },
             axes: { supply_V: [inp.supply_V], load_A: [inp.load_A], chain: [inp.chain], load_kind: [inp.load_kind] },
           };
-          const [spec] = expandDesign(rec, {
-            choose: (r, s, a, c, k) => chooseDevices(r, lib, s, a, c, k),
-            policy: cat.engine!.policy,
-          });
+          // The same library dependencies as the build and the page's own sizing (src/site/size-own.ts):
+          // stress classes and the tap follower's classes included.
+          const [spec] = expandDesign(rec, libraryDeps(lib, cat.engine!.policy));
           const sized = sizeVariant(spec!);
           lastNetlist = renderVariantViews(sized, lib, { titleNote: "sized on request" }).netlist;
           expect(shown.length, "figures shown").toBe(sized.figures.length);
